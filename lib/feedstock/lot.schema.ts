@@ -1,0 +1,52 @@
+import { z } from "zod";
+import { MATERIAL_KINDS } from "@/lib/ledger/kinds";
+import { code, oneOf, tempC, text, volumeL, when } from "@/lib/ledger/fields";
+
+export const MIN_DENSITY_KG_M3 = 500;
+export const MAX_DENSITY_KG_M3 = 1500;
+
+const density = z
+  .number({ error: "Density (kg/m³) must be a number" })
+  .min(MIN_DENSITY_KG_M3, "Density must be between 0.5 and 1.5 kg/L")
+  .max(MAX_DENSITY_KG_M3, "Density must be between 0.5 and 1.5 kg/L");
+
+const common = {
+  code: code("Lot number"),
+  material: oneOf("Material", MATERIAL_KINDS),
+  receivedAt: when("Received time"),
+  observedVolumeL: volumeL("Observed volume"),
+  observedTempC: tempC("Observed temperature"),
+  /** Measured density at 15 °C; when absent the material's table value is used. */
+  densityKgM3: density.optional(),
+  certified: z.boolean().default(false),
+  notes: text("Notes", 500).default(""),
+};
+
+/** A lot made of one or more of the day's pickups (pooled). */
+export const LotFromPickupsSchema = z.object({
+  ...common,
+  pickupCodes: z.array(code("Pickup number")).min(1, "Pickups: choose at least one pickup"),
+});
+export type LotFromPickupsInput = z.input<typeof LotFromPickupsSchema>;
+
+/** A lot delivered by a supplier (tanker or drums), not collected by our trucks. */
+export const DeliveryLotSchema = z.object({
+  ...common,
+  supplierCode: code("Supplier code"),
+  deliveryDocument: text("Delivery document", 60).min(1, "Delivery document is required"),
+});
+export type DeliveryLotInput = z.input<typeof DeliveryLotSchema>;
+
+export const LabTestSchema = z.object({
+  lotCode: code("Lot number"),
+  testedAt: when("Test time"),
+  kind: z.enum(["WATER", "INSOLUBLES", "UNSAPONIFIABLES"], { error: "Test: choose water, insolubles or unsaponifiables" }),
+  method: text("Method", 80).min(1, "Method is required"),
+  valuePct: z.number({ error: "Result (%) must be a number" }).min(0, "Result must be at least 0 %").max(100, "Result must be at most 100 %"),
+});
+export type LabTestInput = z.input<typeof LabTestSchema>;
+
+export const LotDecisionSchema = z.object({
+  lotCode: code("Lot number"),
+  status: z.enum(["ACCEPTED", "REJECTED"], { error: "Decision: accept or reject" }),
+});

@@ -1,0 +1,119 @@
+import "server-only";
+import type { Db, Tx } from "@/lib/database/connect";
+import type { Result } from "@/lib/errors";
+import { failMany } from "@/lib/errors";
+import { parseInput } from "@/lib/ledger/parse";
+import { createHolder, postMovement, reject, runInTransaction } from "@/lib/ledger/ledger.store";
+import { measureObserved } from "@/lib/feedstock/measure";
+import type { Measured } from "@/lib/feedstock/measure";
+import { DeliveryLotSchema, LabTestSchema, LotDecisionSchema, LotFromPickupsSchema } from "@/lib/feedstock/lot.schema";
+import { insertLot, requireLot, siteLossHolder } from "@/lib/feedstock/lot.store";
+import { requireSourceId } from "@/lib/source/source.store";
+import type { DensityTable } from "@/lib/quantity/density";
+import { DEFAULT_DENSITY_TABLE } from "@/lib/quantity/density";
+import type { Actor } from "@/lib/site/actor";
+
+export interface LotSaved {
+  id: number;
+  code: string;
+  massG: number;
+  /** Plant measurement minus the pickups' kerbside estimates, booked as a receiving difference. */
+  receivingDifferenceG: number;
+}
+
+function measureLot(l: { material: Parameters<typeof measureObserved>[0]["material"]; observedVolumeL: number; observedTempC: number; densityKgM3?: number | undefined }, table: DensityTable): Result<Measured> {
+  const m = measureObserved({
+    material: l.material,
+    observedVolumeL: l.observedVolumeL,
+    observedTempC: l.observedTempC,
+    measuredDensityKgM3: l.densityKgM3,
+    referenceTempC: 15,
+    table,
+  });
+  return m.ok ? m : failMany(m.issues.map((i) => ({ ...i, field: "observedVolumeL" })));
+}
+
+/**
+ * Pools one or more pickups into a lot. Each pickup's book mass moves into the lot; the plant's own
+ * measurement of the lot is the truth, so any difference is booked openly: a shortfall as a recorded
+ * loss, a surplus as a receipt noted as a receiving difference.
+ */
+export async function receiveLotFromPickups(db: Db, actor: Actor, input: unknown, table: DensityTable = DEFAULT_DENSITY_TABLE): Promise<Result<LotSaved>> {
+  const parsed = parseInput(LotFromPickupsSchema, input);
+  if (!parsed.ok) return parsed;
+  const l = parsed.value;
+  const measured = measureLot(l, table);
+  if (!measured.ok) return measured;
+  return runInTransaction(db, async (tx) => {
+    const pickups = await tx.pickup.findMany({
+      where: { siteId: actor.siteId, code: { in: l.pickupCodes } },
+      select: { id: true, code: true, holderId: true, lotId: true, observedAt: true, material: true, holder: { select: { stockG: true } } },
+    });
+    l.pickupCodes.forEach((code, i) => {
+      const p = pickups.find((x) => x.code === code);
+      if (!p) reject("RECORD.NOT_FOUND", `Pickup ${code} does not exist`, `pickupCodes.${i}`);
+      if (p.lotId !== null) reject("PICKUP.ALREADY_RECEIVED", `Pickup ${code} is already in a lot`, `pickupCodes.${i}`);
+      if (p.observedAt > l.receivedAt) reject("LOT.BEFORE_PICKUP", `Pickup ${code} was collected after the lot's received time`, "receivedAt");
+    });
+    const holderId = await createHolder(tx, actor.siteId, "LOT", l.code);
+    const lot = await insertLot(tx, { siteId: actor.siteId, holderId, origin: "PICKUPS", input: l, measured: measured.value });
+    let booked = 0;
+    for (const p of pickups) {
+      await tx.pickup.update({ where: { id: p.id }, data: { lotId: lot.id } });
+      if (p.holder.stockG === 0) continue;
+      booked += p.holder.stockG;
+      await postMovement(tx, { siteId: actor.siteId, at: l.receivedAt, role: "TRANSFER", fromHolderId: p.holderId, toHolderId: holderId, massG: p.holder.stockG, recordedById: actor.userId, note: `pickup ${p.code} received` });
+    }
+    const difference = measured.value.massG - booked;
+    if (difference < 0) {
+      const loss = await siteLossHolder(tx, actor.siteId);
+      await postMovement(tx, { siteId: actor.siteId, at: l.receivedAt, role: "LOSS", fromHolderId: holderId, toHolderId: loss, massG: -difference, recordedById: actor.userId, note: "receiving difference: plant measurement below pickup estimates" });
+    } else if (difference > 0) {
+      await postMovement(tx, { siteId: actor.siteId, at: l.receivedAt, role: "RECEIPT", fromHolderId: null, toHolderId: holderId, massG: difference, recordedById: actor.userId, note: "receiving difference: plant measurement above pickup estimates" });
+    }
+    return { id: lot.id, code: lot.code, massG: measured.value.massG, receivingDifferenceG: difference };
+  });
+}
+
+/** A supplier's delivery: the oil enters the books directly in the lot. */
+export async function receiveDelivery(db: Db, actor: Actor, input: unknown, table: DensityTable = DEFAULT_DENSITY_TABLE): Promise<Result<LotSaved>> {
+  const parsed = parseInput(DeliveryLotSchema, input);
+  if (!parsed.ok) return parsed;
+  const l = parsed.value;
+  const measured = measureLot(l, table);
+  if (!measured.ok) return measured;
+  return runInTransaction(db, async (tx) => {
+    const supplierId = await requireSourceId(tx, actor.siteId, l.supplierCode, "supplierCode");
+    const holderId = await createHolder(tx, actor.siteId, "LOT", l.code);
+    const lot = await insertLot(tx, { siteId: actor.siteId, holderId, origin: "DELIVERY", supplierId, deliveryDocument: l.deliveryDocument, input: l, measured: measured.value });
+    await postMovement(tx, { siteId: actor.siteId, at: l.receivedAt, role: "RECEIPT", fromHolderId: null, toHolderId: holderId, massG: measured.value.massG, volumeMl: Math.round(l.observedVolumeL * 1000), tempC: l.observedTempC, recordedById: actor.userId, note: `delivery ${l.deliveryDocument}`, field: "observedVolumeL" });
+    return { id: lot.id, code: lot.code, massG: measured.value.massG, receivingDifferenceG: 0 };
+  });
+}
+
+export async function recordLabTest(db: Db, actor: Actor, input: unknown): Promise<Result<{ id: number }>> {
+  const parsed = parseInput(LabTestSchema, input);
+  if (!parsed.ok) return parsed;
+  const t = parsed.value;
+  return runInTransaction(db, async (tx) => {
+    const lot = await requireLot(tx, actor.siteId, t.lotCode, "lotCode");
+    return tx.labTest.create({ data: { lotId: lot.id, analystId: actor.userId, testedAt: t.testedAt, kind: t.kind, method: t.method, valuePct: t.valuePct }, select: { id: true } });
+  });
+}
+
+/** Accept a lot for production or reject it; a lot can only be accepted once it has an FFA result. */
+export async function decideLot(db: Db, actor: Actor, input: unknown): Promise<Result<{ code: string; status: string }>> {
+  const parsed = parseInput(LotDecisionSchema, input);
+  if (!parsed.ok) return parsed;
+  const d = parsed.value;
+  return runInTransaction(db, async (tx: Tx) => {
+    const lot = await requireLot(tx, actor.siteId, d.lotCode, "lotCode");
+    if (lot.status !== "QUARANTINED") reject("LOT.ALREADY_DECIDED", `Lot ${d.lotCode} is already ${lot.status.toLowerCase()}`, "status");
+    if (d.status === "ACCEPTED") {
+      const titrations = await tx.titration.count({ where: { lotId: lot.id, voided: false } });
+      if (titrations === 0) reject("LOT.NO_FFA", `Lot ${d.lotCode} has no FFA titration yet; titrate before accepting`, "status");
+    }
+    await tx.feedstockLot.update({ where: { id: lot.id }, data: { status: d.status } });
+    return { code: d.lotCode, status: d.status };
+  });
+}

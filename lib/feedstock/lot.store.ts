@@ -1,0 +1,115 @@
+import "server-only";
+import type { Db, Tx } from "@/lib/database/connect";
+import type { Measured } from "@/lib/feedstock/measure";
+import { reject } from "@/lib/ledger/ledger.store";
+import type { MaterialKind } from "@/lib/ledger/kinds";
+import { toMillilitres } from "@/lib/quantity/units";
+
+interface LotCore {
+  code: string;
+  material: MaterialKind;
+  receivedAt: Date;
+  observedVolumeL: number;
+  observedTempC: number;
+  certified: boolean;
+  notes: string;
+}
+
+export async function insertLot(
+  tx: Tx,
+  r: { siteId: number; holderId: number; origin: "PICKUPS" | "DELIVERY"; supplierId?: number; deliveryDocument?: string; input: LotCore; measured: Measured },
+): Promise<{ id: number; code: string }> {
+  const l = r.input;
+  return tx.feedstockLot.create({
+    data: {
+      siteId: r.siteId,
+      holderId: r.holderId,
+      code: l.code,
+      material: l.material,
+      origin: r.origin,
+      supplierId: r.supplierId ?? null,
+      deliveryDocument: r.deliveryDocument ?? null,
+      receivedAt: l.receivedAt,
+      observedVolumeMl: toMillilitres(l.observedVolumeL),
+      observedTempC: l.observedTempC,
+      densityKgM3: r.measured.densityKgM3,
+      referenceTempC: r.measured.referenceTempC,
+      densitySource: r.measured.densitySource,
+      standardVolumeMl: r.measured.standardVolumeMl,
+      massG: r.measured.massG,
+      status: "QUARANTINED",
+      certified: l.certified,
+      notes: l.notes,
+    },
+    select: { id: true, code: true },
+  });
+}
+
+export async function requireLot(tx: Tx, siteId: number, code: string, field: string) {
+  const lot = await tx.feedstockLot.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, holderId: true, status: true, material: true } });
+  if (!lot) reject("RECORD.NOT_FOUND", `Lot ${code} does not exist`, field);
+  return lot;
+}
+
+/** The site's sink for recorded losses (one per site, created on first use). */
+export async function siteLossHolder(tx: Tx, siteId: number): Promise<number> {
+  const found = await tx.holder.findUnique({ where: { siteId_kind_code: { siteId, kind: "LOSS", code: "LOSSES" } }, select: { id: true } });
+  if (found) return found.id;
+  return (await tx.holder.create({ data: { siteId, kind: "LOSS", code: "LOSSES" }, select: { id: true } })).id;
+}
+
+export interface LotRow {
+  id: number;
+  code: string;
+  material: string;
+  origin: string;
+  receivedAt: Date;
+  status: string;
+  certified: boolean;
+  massG: number;
+  stockG: number;
+  standardVolumeMl: number;
+  ffaPct: number | null;
+  waterPct: number | null;
+  pickups: number;
+  supplier: string | null;
+}
+
+export async function listLots(db: Db, siteId: number, opts: { status?: string; skip?: number; take?: number } = {}): Promise<{ rows: LotRow[]; total: number }> {
+  const where = { siteId, ...(opts.status ? { status: opts.status } : {}) };
+  const [rows, total] = await Promise.all([
+    db.feedstockLot.findMany({
+      where,
+      orderBy: [{ receivedAt: "desc" }, { id: "desc" }],
+      skip: opts.skip ?? 0,
+      take: opts.take ?? 100,
+      include: {
+        holder: { select: { stockG: true } },
+        titrations: { where: { voided: false }, orderBy: { testedAt: "desc" }, select: { ffaPct: true } },
+        labTests: { where: { voided: false, kind: "WATER" }, orderBy: { testedAt: "desc" }, take: 1, select: { valuePct: true } },
+        supplier: { select: { name: true } },
+        _count: { select: { pickups: true } },
+      },
+    }),
+    db.feedstockLot.count({ where }),
+  ]);
+  return {
+    total,
+    rows: rows.map((r) => ({
+      id: r.id,
+      code: r.code,
+      material: r.material,
+      origin: r.origin,
+      receivedAt: r.receivedAt,
+      status: r.status,
+      certified: r.certified,
+      massG: r.massG,
+      stockG: r.holder.stockG,
+      standardVolumeMl: r.standardVolumeMl,
+      ffaPct: r.titrations.length ? r.titrations.reduce((s, t) => s + t.ffaPct, 0) / r.titrations.length : null,
+      waterPct: r.labTests[0]?.valuePct ?? null,
+      pickups: r._count.pickups,
+      supplier: r.supplier?.name ?? null,
+    })),
+  };
+}

@@ -1,0 +1,88 @@
+import "server-only";
+import type { Db, Tx } from "@/lib/database/connect";
+import type { Pickup } from "@/lib/feedstock/pickup.schema";
+import type { PickupSaved } from "@/lib/feedstock/pickup.service";
+import { toMillilitres } from "@/lib/quantity/units";
+
+export async function findPickupByKey(db: Db, key: string): Promise<PickupSaved | null> {
+  return db.pickup.findUnique({ where: { idempotencyKey: key }, select: { id: true, code: true, massG: true, receivedAt: true } });
+}
+
+export async function insertPickup(
+  tx: Tx,
+  r: { siteId: number; holderId: number; sourceId: number; collectorId: number; receivedAt: Date; massG: number; pickup: Pickup },
+): Promise<PickupSaved> {
+  const p = r.pickup;
+  return tx.pickup.create({
+    data: {
+      siteId: r.siteId,
+      holderId: r.holderId,
+      code: p.code,
+      sourceId: r.sourceId,
+      collectorId: r.collectorId,
+      material: p.material,
+      observedAt: p.observedAt,
+      receivedAt: r.receivedAt,
+      containers: p.containers,
+      containerTags: p.containerTags.join(","),
+      volumeMl: toMillilitres(p.volumeL),
+      tempC: p.tempC,
+      massG: r.massG,
+      waterLook: p.waterLook,
+      solidsLook: p.solidsLook,
+      notes: p.notes,
+      idempotencyKey: p.idempotencyKey ?? null,
+    },
+    select: { id: true, code: true, massG: true, receivedAt: true },
+  });
+}
+
+export interface PickupRow {
+  id: number;
+  code: string;
+  sourceCode: string;
+  sourceName: string;
+  collector: string;
+  material: string;
+  observedAt: Date;
+  receivedAt: Date;
+  containers: number;
+  volumeMl: number;
+  tempC: number;
+  massG: number;
+  lotCode: string | null;
+  notes: string;
+}
+
+export async function listPickups(db: Db, siteId: number, opts: { skip?: number; take?: number; sourceId?: number } = {}): Promise<{ rows: PickupRow[]; total: number }> {
+  const where = { siteId, ...(opts.sourceId ? { sourceId: opts.sourceId } : {}) };
+  const [rows, total] = await Promise.all([
+    db.pickup.findMany({
+      where,
+      orderBy: [{ observedAt: "desc" }, { id: "desc" }],
+      skip: opts.skip ?? 0,
+      take: opts.take ?? 100,
+      include: { source: { select: { code: true, name: true } }, collector: { select: { fullName: true } }, lot: { select: { code: true } } },
+    }),
+    db.pickup.count({ where }),
+  ]);
+  return {
+    total,
+    rows: rows.map((r) => ({
+      id: r.id,
+      code: r.code,
+      sourceCode: r.source.code,
+      sourceName: r.source.name,
+      collector: r.collector.fullName,
+      material: r.material,
+      observedAt: r.observedAt,
+      receivedAt: r.receivedAt,
+      containers: r.containers,
+      volumeMl: r.volumeMl,
+      tempC: r.tempC,
+      massG: r.massG,
+      lotCode: r.lot?.code ?? null,
+      notes: r.notes,
+    })),
+  };
+}

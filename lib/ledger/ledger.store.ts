@@ -1,0 +1,130 @@
+// The movement ledger: the only place that moves material between holders. Every post is a
+// guarded single-statement decrement of the source holder (never read-then-write), an increment
+// of the destination and one append-only ledger row, inside the caller's transaction.
+import type { Db, Tx } from "@/lib/database/connect";
+import type { DomainIssue, Result } from "@/lib/errors";
+import { failMany, ok } from "@/lib/errors";
+import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/ledger/kinds";
+
+/** Aborts the surrounding transaction with expected outcomes; turned back into a value by runInTransaction. */
+export class Rejection extends Error {
+  constructor(readonly issues: DomainIssue[]) {
+    super(issues.map((i) => i.message).join("; "));
+    this.name = "Rejection";
+  }
+}
+
+export function reject(code: DomainIssue["code"], message: string, field?: string): never {
+  throw new Rejection([field === undefined ? { code, message } : { code, message, field }]);
+}
+
+/** All-or-nothing: either fn commits entirely, or nothing is written and the reasons come back as a value. */
+export async function runInTransaction<T>(db: Db, fn: (tx: Tx) => Promise<T>, timeoutMs = 30_000): Promise<Result<T>> {
+  try {
+    return ok(await db.$transaction(fn, { timeout: timeoutMs, maxWait: timeoutMs }));
+  } catch (e) {
+    if (e instanceof Rejection) return failMany(e.issues);
+    throw e;
+  }
+}
+
+export async function createHolder(tx: Tx, siteId: number, kind: HolderKind, code: string): Promise<number> {
+  const existing = await tx.holder.findUnique({ where: { siteId_kind_code: { siteId, kind, code } }, select: { id: true } });
+  if (existing) reject("RECORD.DUPLICATE", `${labelOf(kind)} ${code} already exists`, "code");
+  const holder = await tx.holder.create({ data: { siteId, kind, code }, select: { id: true } });
+  return holder.id;
+}
+
+export async function requireHolder(tx: Tx, siteId: number, kind: HolderKind, code: string, field: string): Promise<{ id: number; stockG: number }> {
+  const holder = await tx.holder.findUnique({ where: { siteId_kind_code: { siteId, kind, code } }, select: { id: true, stockG: true } });
+  if (!holder) reject("RECORD.NOT_FOUND", `${labelOf(kind)} ${code} does not exist`, field);
+  return holder;
+}
+
+/** Refuses a booking dated inside a closed accounting period. */
+export async function assertPeriodOpen(tx: Tx, siteId: number, at: Date, field = "at"): Promise<void> {
+  const closed = await tx.accountingPeriod.findFirst({
+    where: { siteId, status: "CLOSED", startsAt: { lte: at }, endsAt: { gt: at } },
+    select: { startsAt: true, endsAt: true },
+  });
+  if (closed) {
+    reject(
+      "PERIOD.CLOSED",
+      `The period ${closed.startsAt.toISOString().slice(0, 10)} – ${closed.endsAt.toISOString().slice(0, 10)} is closed; a compliance user must reopen it first`,
+      field,
+    );
+  }
+}
+
+export interface MovementDraft {
+  siteId: number;
+  at: Date;
+  role: MoveRole;
+  fromHolderId: number | null;
+  toHolderId: number;
+  massG: number;
+  volumeMl?: number | null;
+  tempC?: number | null;
+  note?: string;
+  recordedById: number;
+  /** Field name to blame in messages (the form's mass field). */
+  field?: string;
+}
+
+export async function postMovement(tx: Tx, m: MovementDraft): Promise<number> {
+  const field = m.field ?? "massKg";
+  if (!Number.isSafeInteger(m.massG) || m.massG <= 0) reject("LEDGER.BAD_MASS", "Mass must be more than 0 g", field);
+  if (m.fromHolderId === m.toHolderId) reject("LEDGER.SAME_HOLDER", "A movement needs two different places", field);
+  await assertPeriodOpen(tx, m.siteId, m.at);
+  if (m.fromHolderId !== null) {
+    const drawn = await tx.holder.updateMany({
+      where: { id: m.fromHolderId, stockG: { gte: m.massG } },
+      data: { stockG: { decrement: m.massG } },
+    });
+    if (drawn.count !== 1) {
+      const from = await tx.holder.findUnique({ where: { id: m.fromHolderId }, select: { kind: true, code: true, stockG: true } });
+      const held = from ? (from.stockG / 1000).toLocaleString("en", { maximumFractionDigits: 3 }) : "0";
+      reject(
+        "LEDGER.OVERDRAW",
+        `${from ? `${labelOf(from.kind)} ${from.code}` : "The source"} holds ${held} kg; cannot draw ${(m.massG / 1000).toLocaleString("en", { maximumFractionDigits: 3 })} kg`,
+        field,
+      );
+    }
+  }
+  await tx.holder.update({ where: { id: m.toHolderId }, data: { stockG: { increment: m.massG } } });
+  const row = await tx.movement.create({
+    data: {
+      siteId: m.siteId,
+      at: m.at,
+      role: m.role,
+      fromHolderId: m.fromHolderId,
+      toHolderId: m.toHolderId,
+      massG: m.massG,
+      volumeMl: m.volumeMl ?? null,
+      tempC: m.tempC ?? null,
+      note: m.note ?? "",
+      recordedById: m.recordedById,
+    },
+    select: { id: true },
+  });
+  return row.id;
+}
+
+export interface LedgerRow {
+  id: number;
+  at: Date;
+  role: MoveRole;
+  fromHolderId: number | null;
+  toHolderId: number;
+  massG: number;
+}
+
+export async function listMovements(db: Db | Tx, siteId: number, until?: Date): Promise<LedgerRow[]> {
+  const rows = await db.movement.findMany({
+    where: { siteId, ...(until ? { at: { lte: until } } : {}) },
+    orderBy: [{ at: "asc" }, { id: "asc" }],
+    select: { id: true, at: true, role: true, fromHolderId: true, toHolderId: true, massG: true },
+  });
+  return rows.map((r) => ({ ...r, role: r.role as MoveRole }));
+}

@@ -1,0 +1,28 @@
+import "server-only";
+import type { Db, Tx } from "@/lib/database/connect";
+import type { SiteRole } from "@/lib/ledger/kinds";
+
+export interface SiteRow {
+  id: number;
+  code: string;
+  name: string;
+  town: string;
+  timeZone: string;
+}
+
+export async function insertSite(tx: Tx | Db, s: { code: string; name: string; town: string; timeZone: string }): Promise<SiteRow> {
+  return tx.site.create({ data: s });
+}
+
+export async function insertUser(tx: Tx | Db, u: { siteId: number; login: string; fullName: string; role: SiteRole; unitSystem?: "metric" | "us" }): Promise<{ id: number }> {
+  return tx.user.create({ data: { ...u, unitSystem: u.unitSystem ?? "metric" }, select: { id: true } });
+}
+
+/** The site shown when no one has chosen one: the first created. */
+export async function getDefaultSite(db: Db): Promise<SiteRow | null> {
+  return db.site.findFirst({ orderBy: { id: "asc" } });
+}
+
+export async function countSites(db: Db): Promise<number> {
+  return db.site.count();
+}

@@ -1,0 +1,69 @@
+import "server-only";
+import type { Db, Tx } from "@/lib/database/connect";
+import type { Source } from "@/lib/source/source.schema";
+import { reject } from "@/lib/ledger/ledger.store";
+
+export async function insertSource(tx: Tx, siteId: number, s: Source): Promise<{ id: number; code: string }> {
+  const clash = await tx.source.findUnique({ where: { siteId_code: { siteId, code: s.code } }, select: { id: true } });
+  if (clash) reject("RECORD.DUPLICATE", `Source ${s.code} already exists`, "code");
+  return tx.source.create({
+    data: {
+      siteId,
+      code: s.code,
+      name: s.name,
+      kind: s.kind,
+      materials: s.materials.join(","),
+      address: s.address,
+      certificateNo: s.certificateNo ?? null,
+      certificateScheme: s.certificateScheme ?? null,
+      certificateExpires: s.certificateExpires ?? null,
+      pickupEveryDays: s.pickupEveryDays ?? null,
+      collectorNote: s.collectorNote,
+    },
+    select: { id: true, code: true },
+  });
+}
+
+export async function requireSourceId(tx: Tx, siteId: number, code: string, field: string): Promise<number> {
+  const s = await tx.source.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, active: true } });
+  if (!s) reject("RECORD.NOT_FOUND", `Source ${code} does not exist`, field);
+  if (!s.active) reject("SOURCE.INACTIVE", `Source ${code} is no longer active`, field);
+  return s.id;
+}
+
+export interface SourceRow {
+  id: number;
+  code: string;
+  name: string;
+  kind: string;
+  materials: string[];
+  address: string;
+  certificateNo: string | null;
+  certificateScheme: string | null;
+  certificateExpires: Date | null;
+  pickupEveryDays: number | null;
+  pickups: number;
+  lastPickupAt: Date | null;
+}
+
+export async function listSources(db: Db, siteId: number): Promise<SourceRow[]> {
+  const rows = await db.source.findMany({
+    where: { siteId },
+    orderBy: { code: "asc" },
+    include: { _count: { select: { pickups: true } }, pickups: { orderBy: { observedAt: "desc" }, take: 1, select: { observedAt: true } } },
+  });
+  return rows.map((r) => ({
+    id: r.id,
+    code: r.code,
+    name: r.name,
+    kind: r.kind,
+    materials: r.materials.split(",").filter(Boolean),
+    address: r.address,
+    certificateNo: r.certificateNo,
+    certificateScheme: r.certificateScheme,
+    certificateExpires: r.certificateExpires,
+    pickupEveryDays: r.pickupEveryDays,
+    pickups: r._count.pickups,
+    lastPickupAt: r.pickups[0]?.observedAt ?? null,
+  }));
+}

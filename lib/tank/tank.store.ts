@@ -1,0 +1,52 @@
+import "server-only";
+import type { Db, Tx } from "@/lib/database/connect";
+import { reject } from "@/lib/ledger/ledger.store";
+import { densityAt, DEFAULT_DENSITY_TABLE, requireDensityEntry } from "@/lib/quantity/density";
+import type { MaterialKind as DensityMaterial } from "@/lib/quantity/density";
+
+export interface TankRow {
+  id: number;
+  code: string;
+  name: string;
+  service: string;
+  mixing: string;
+  capacityMl: number;
+  stockG: number;
+  lastGauge: { at: Date; massG: number; volumeMl: number } | null;
+}
+
+export async function listTanks(db: Db, siteId: number): Promise<TankRow[]> {
+  const rows = await db.tank.findMany({
+    where: { siteId },
+    orderBy: { code: "asc" },
+    include: { holder: { select: { stockG: true } }, gauges: { orderBy: { at: "desc" }, take: 1, select: { at: true, massG: true, volumeMl: true } } },
+  });
+  return rows.map((r) => ({
+    id: r.id,
+    code: r.code,
+    name: r.name,
+    service: r.service,
+    mixing: r.mixing,
+    capacityMl: r.capacityMl,
+    stockG: r.holder.stockG,
+    lastGauge: r.gauges[0] ?? null,
+  }));
+}
+
+
+/** The material whose density turns a tank's volume capacity into a mass capacity. */
+export function serviceMaterial(service: string): DensityMaterial {
+  return service === "PRODUCT" ? "FAME" : service === "METHANOL" ? "METHANOL" : service === "GLYCEROL_PHASE" ? "GLYCEROL" : service === "WASH_WATER" ? "WATER" : "USED_COOKING_OIL";
+}
+
+/** Refuses a fill that would take a tank past its capacity (mass capacity at 15 °C). */
+export async function assertTankRoom(tx: Tx, holderId: number, addG: number, field: string): Promise<void> {
+  const tank = await tx.tank.findUnique({ where: { holderId }, select: { code: true, service: true, capacityMl: true, holder: { select: { stockG: true } } } });
+  if (!tank) return;
+  const rho = densityAt(requireDensityEntry(DEFAULT_DENSITY_TABLE, serviceMaterial(tank.service)), 15);
+  const capacityG = Math.floor((tank.capacityMl / 1000) * rho);
+  if (tank.holder.stockG + addG > capacityG) {
+    const room = Math.max(0, capacityG - tank.holder.stockG);
+    reject("TANK.OVERFILL", `Tank ${tank.code} has room for about ${(room / 1000).toLocaleString("en", { maximumFractionDigits: 0 })} kg (capacity ${(tank.capacityMl / 1000).toLocaleString("en")} L)`, field);
+  }
+}

@@ -1,0 +1,39 @@
+// Fictional names for the demo plant. Built from invented word parts so that no real business,
+// person, brand or place is named. The town is Quillmoor; the plant is Quillmoor Fuel Works.
+
+export const SITE = { code: "QFW", name: "Quillmoor Fuel Works", town: "Quillmoor", timeZone: "UTC" } as const;
+
+export const PEOPLE = [
+  { login: "collector.ivo", fullName: "Ivo Brannick", role: "COLLECTOR" },
+  { login: "collector.mira", fullName: "Mira Tolvane", role: "COLLECTOR" },
+  { login: "collector.odo", fullName: "Odo Fernwhistle", role: "COLLECTOR" },
+  { login: "production.tess", fullName: "Tess Hollowmere", role: "PRODUCTION" },
+  { login: "production.rafe", fullName: "Rafe Ambleside-Quorn", role: "PRODUCTION" },
+  { login: "compliance.nell", fullName: "Nell Varrowby", role: "COMPLIANCE" },
+  { login: "admin.jory", fullName: "Jory Pellinore", role: "ADMIN" },
+] as const;
+
+const FIRST = ["Bramble", "Quill", "Otter", "Fennick", "Lark", "Tumble", "Marrow", "Wick", "Copperleaf", "Thistle", "Moss", "Juniper", "Pebble", "Saffron", "Ember", "Hollow", "Nettle", "Cobble"];
+const SECOND = ["wick", "moor", "stead", "gate", "holm", "brook", "fold", "mere", "by", "ridge"];
+const KIND_WORD = ["Kitchen", "Grill", "Noodle Bar", "Fry House", "Canteen", "Bistro", "Dumpling Room", "Chip Shop", "Diner", "Bakehouse", "Taqueria", "Curry House"];
+const STREETS = ["Wharf Row", "Tanner Lane", "Millrace Street", "Old Ferry Road", "Kiln Yard", "Cooper Street", "Lantern Walk", "Saltmarsh Road"];
+
+/** Deterministic invented restaurant names: "<First><second> <Kind>". */
+export function restaurantName(i: number): string {
+  const a = FIRST[i % FIRST.length] ?? "Bramble";
+  const b = SECOND[(i * 7 + 3) % SECOND.length] ?? "wick";
+  const k = KIND_WORD[(i * 5 + 1) % KIND_WORD.length] ?? "Kitchen";
+  return `${a}${b} ${k}`;
+}
+
+export function streetAddress(i: number): string {
+  return `${(i * 13) % 180 + 2} ${STREETS[i % STREETS.length] ?? "Wharf Row"}, Quillmoor`;
+}
+
+export const PROCESSORS = ["Quillmoor Crisp Works", "Fennick Snack Foods", "Larkfold Frozen Meals"];
+export const RENDERERS = ["Marrowgate Rendering", "Otterholm By-Products", "Cobblestead Fats"];
+export const CRUSHERS = ["Thistlemere Oilseed Mill", "Juniperbrook Crushing"];
+export const OTHER_SUPPLIERS = ["Quillmoor Civic Depot"];
+export const CUSTOMERS = ["Harrowmere Haulage Co-op", "Quillmoor Bus Depot", "Tolvane Farm Fuels", "Saltmarsh Ferry Company"];
+export const HAULERS = ["Brannick Liquid Waste", "Fernwhistle Environmental"];
+export const REAGENT_SUPPLIERS = { METHANOL: "Kilnyard Chemicals", KOH: "Kilnyard Chemicals", H2SO4: "Copperleaf Process Supplies", WATER: "Quillmoor Water (meter)" } as const;
