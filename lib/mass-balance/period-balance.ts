@@ -1,0 +1,548 @@
+// Period mass balance over the movement ledger, in integer grams so every identity is exact:
+//   stock view:   opening + receipts + transfers in + returns = outputs + transfers out + closing
+//   process view: batch inputs (oil + reagents) = batch outputs (ester, glycerol phase, wash water,
+//                 recovered methanol, recorded losses) + unaccounted
+// and book stock against measured tank gauges.
+import { failMany, invariant, ok } from "@/lib/errors";
+import type { DomainIssue, Result } from "@/lib/errors";
+import { BATCH_INPUT_ROLES, BATCH_OUTPUT_ROLES, MOVE_ROLES } from "@/lib/ledger/kinds";
+import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
+
+export interface BalanceHolder {
+  id: number;
+  kind: HolderKind;
+  siteId: number;
+  /** Material kind of what the holder carries (e.g. "USED_COOKING_OIL"); used only by a material-scoped balance. */
+  materialKind?: string | null;
+  /** For batches: when the batch was finished. A batch without it is in progress. */
+  completedAt?: number | null;
+  /** Overrides how a receipt into this holder is counted (default: by holder kind, see RECEIPT_CLASS_BY_KIND). */
+  receiptClass?: ReceiptClass;
+}
+
+export interface BalanceMove {
+  id: number;
+  at: number;
+  /** null = the material enters the books here. */
+  fromHolderId: number | null;
+  toHolderId: number;
+  massG: number;
+  role: MoveRole;
+}
+
+/** STOCK holders hold material on site; OUT holders are where material leaves the books (cumulative). */
+export type HolderClass = "STOCK" | "OUT";
+
+export const DEFAULT_HOLDER_CLASSES: Readonly<Record<HolderKind, HolderClass>> = {
+  PICKUP: "STOCK", // collected, not yet received into a lot
+  DELIVERY: "STOCK",
+  LOT: "STOCK",
+  TANK: "STOCK",
+  BATCH: "STOCK", // a batch in progress holds what was charged and not yet drawn off
+  PRODUCT_LOT: "STOCK",
+  WASTE_CONTAINER: "STOCK",
+  REAGENT_LOT: "STOCK",
+  SHIPMENT: "OUT",
+  DISPOSAL: "OUT",
+  LOSS: "OUT",
+};
+
+export type ReceiptClass = "FEEDSTOCK" | "REAGENT" | "OTHER";
+
+export const RECEIPT_CLASS_BY_KIND: Readonly<Record<HolderKind, ReceiptClass>> = {
+  PICKUP: "FEEDSTOCK",
+  DELIVERY: "FEEDSTOCK",
+  LOT: "FEEDSTOCK",
+  TANK: "FEEDSTOCK",
+  REAGENT_LOT: "REAGENT",
+  BATCH: "OTHER",
+  PRODUCT_LOT: "OTHER",
+  WASTE_CONTAINER: "OTHER",
+  SHIPMENT: "OTHER",
+  DISPOSAL: "OTHER",
+  LOSS: "OTHER",
+};
+
+export interface ClosureTolerance {
+  /** Flag WARN when |imbalance| exceeds this share of inputs, in %. */
+  warnPct: number;
+  /** Flag FAIL when |imbalance| exceeds this share of inputs, in %. */
+  failPct: number;
+  source: string;
+  note: string;
+}
+
+export const DEFAULT_CLOSURE_TOLERANCE: ClosureTolerance = {
+  warnPct: 0.5,
+  failPct: 2,
+  source: "common practice, no source (Tracevat domain facts §j)",
+  note: "Period mass-balance closure: warn above 0.5 %, fail above 2 % of inputs. A site setting; change it to what your scheme or auditor accepts.",
+};
+
+export type ClosureFlag = "OK" | "WARN" | "FAIL";
+
+export interface Closure {
+  imbalanceG: number;
+  baseG: number;
+  /** imbalance ÷ base × 100; null when the base is 0. */
+  pct: number | null;
+  flag: ClosureFlag;
+}
+
+export interface BalanceScope {
+  siteId: number;
+  /** Only stock holders carrying this material kind are in scope. */
+  materialKind?: string;
+  holderClasses?: Readonly<Record<HolderKind, HolderClass>>;
+}
+
+export interface PeriodBalanceInput {
+  holders: readonly BalanceHolder[];
+  moves: readonly BalanceMove[];
+  period: { startMs: number; endMs: number };
+  scope: BalanceScope;
+  tolerance?: ClosureTolerance;
+}
+
+export interface RoleFlow {
+  /** Entered the scope's stock (receipts, transfers in, returns). */
+  inG: number;
+  /** Left the scope's stock (outputs, transfers out). */
+  outG: number;
+  /** Moved between holders inside the scope. */
+  internalG: number;
+}
+
+export interface HolderStock {
+  holderId: number;
+  kind: HolderKind;
+  openingG: number;
+  closingG: number;
+}
+
+export interface NegativeStock {
+  holderId: number;
+  at: number;
+  moveId: number;
+  balanceG: number;
+}
+
+export interface StockView {
+  openingG: number;
+  receipts: { totalG: number; feedstockG: number; reagentG: number; otherG: number };
+  /** From stock holders outside the scope (another site or material kind). */
+  transfersInG: number;
+  /** From OUT holders back into stock (e.g. a returned shipment). */
+  returnsG: number;
+  outputs: { totalG: number; shipmentG: number; disposalG: number; lossG: number; otherG: number };
+  transfersOutG: number;
+  closingG: number;
+  deltaStockG: number;
+  /** opening + receipts + transfers in + returns − outputs − transfers out − closing; 0 when every movement is recorded. */
+  imbalanceG: number;
+  closure: Closure;
+  byRole: Record<MoveRole, RoleFlow>;
+  byHolder: HolderStock[];
+  /** Holders whose book stock dropped below zero at some movement up to the period end: a movement in is missing. */
+  negativeStock: NegativeStock[];
+}
+
+export interface BatchBalance {
+  holderId: number;
+  completedAt: number | null;
+  inputsG: number;
+  outputsG: number;
+  /** inputs − outputs: unaccounted for a finished batch, still held for one in progress. */
+  imbalanceG: number;
+  inputsByRole: Partial<Record<MoveRole, number>>;
+  outputsByRole: Partial<Record<MoveRole, number>>;
+  /** Roles other than the usual batch input/output roles that touched the batch. */
+  unusualRoles: MoveRole[];
+  closure: Closure;
+}
+
+export interface ProcessView {
+  /** Batches finished inside the period, with all their movements up to the period end. */
+  completed: BatchBalance[];
+  /** Batches with movements before the period end and not finished by then (not flagged). */
+  inProgress: BatchBalance[];
+  inputsG: number;
+  outputsG: number;
+  imbalanceG: number;
+  inputsByRole: Partial<Record<MoveRole, number>>;
+  outputsByRole: Partial<Record<MoveRole, number>>;
+  closure: Closure;
+}
+
+export interface PeriodBalance {
+  period: { startMs: number; endMs: number };
+  scope: { siteId: number; materialKind: string | null };
+  tolerance: ClosureTolerance;
+  stock: StockView;
+  process: ProcessView;
+}
+
+const CLOSURE_EPS = 1e-9;
+
+function exceedsPct(absG: number, baseG: number, pct: number): boolean {
+  const limitG = (pct * baseG) / 100;
+  return absG - limitG > CLOSURE_EPS * Math.max(1, limitG);
+}
+
+/** Flags |imbalance| against a tolerance expressed as a percentage of `baseG`. */
+export function classifyClosure(imbalanceG: number, baseG: number, tolerance: ClosureTolerance): Closure {
+  const abs = Math.abs(imbalanceG);
+  if (baseG <= 0) return { imbalanceG, baseG, pct: null, flag: abs === 0 ? "OK" : "FAIL" };
+  const pct = (imbalanceG * 100) / baseG;
+  const flag: ClosureFlag = exceedsPct(abs, baseG, tolerance.failPct) ? "FAIL" : exceedsPct(abs, baseG, tolerance.warnPct) ? "WARN" : "OK";
+  return { imbalanceG, baseG, pct, flag };
+}
+
+export function validateTolerance(tolerance: ClosureTolerance, field = "tolerance"): DomainIssue[] {
+  const issues: DomainIssue[] = [];
+  for (const key of ["warnPct", "failPct"] as const) {
+    const v = tolerance[key];
+    if (!Number.isFinite(v) || v < 0 || v > 100) {
+      issues.push({ code: "MASS_BALANCE.INVALID_TOLERANCE", message: `${key} must be between 0 and 100 %, got ${v}`, field: `${field}.${key}` });
+    }
+  }
+  if (issues.length === 0 && tolerance.warnPct > tolerance.failPct) {
+    issues.push({ code: "MASS_BALANCE.INVALID_TOLERANCE", message: "Warn level must not be above the fail level", field: `${field}.warnPct` });
+  }
+  return issues;
+}
+
+/** Checks the ledger itself: known holders, positive whole grams, valid instants, no move to itself. */
+export function validateLedger(holders: readonly BalanceHolder[], moves: readonly BalanceMove[]): DomainIssue[] {
+  const issues: DomainIssue[] = [];
+  const ids = new Set<number>();
+  holders.forEach((h, i) => {
+    if (ids.has(h.id)) issues.push({ code: "MASS_BALANCE.DUPLICATE_HOLDER", message: `Holder ${h.id} is listed twice`, field: `holders.${i}.id` });
+    ids.add(h.id);
+  });
+  const roles = new Set<string>(MOVE_ROLES);
+  moves.forEach((m, i) => {
+    if (!Number.isSafeInteger(m.massG) || m.massG <= 0) {
+      issues.push({ code: "MASS_BALANCE.INVALID_MASS", message: `Movement ${m.id}: mass must be a whole number of grams above 0, got ${m.massG}`, field: `moves.${i}.massG` });
+    }
+    if (!Number.isSafeInteger(m.at)) {
+      issues.push({ code: "MASS_BALANCE.INVALID_TIME", message: `Movement ${m.id}: time must be an instant in milliseconds`, field: `moves.${i}.at` });
+    }
+    if (!roles.has(m.role)) {
+      issues.push({ code: "MASS_BALANCE.UNKNOWN_ROLE", message: `Movement ${m.id}: unknown role ${m.role}`, field: `moves.${i}.role` });
+    }
+    if (m.fromHolderId !== null && !ids.has(m.fromHolderId)) {
+      issues.push({ code: "MASS_BALANCE.UNKNOWN_HOLDER", message: `Movement ${m.id}: from-holder ${m.fromHolderId} is not in the list`, field: `moves.${i}.fromHolderId` });
+    }
+    if (!ids.has(m.toHolderId)) {
+      issues.push({ code: "MASS_BALANCE.UNKNOWN_HOLDER", message: `Movement ${m.id}: to-holder ${m.toHolderId} is not in the list`, field: `moves.${i}.toHolderId` });
+    }
+    if (m.fromHolderId === m.toHolderId) {
+      issues.push({ code: "MASS_BALANCE.SELF_MOVE", message: `Movement ${m.id}: from and to are the same holder`, field: `moves.${i}.toHolderId` });
+    }
+  });
+  return issues;
+}
+
+function emptyRoleFlows(): Record<MoveRole, RoleFlow> {
+  return Object.fromEntries(MOVE_ROLES.map((r) => [r, { inG: 0, outG: 0, internalG: 0 }])) as Record<MoveRole, RoleFlow>;
+}
+
+function addTo<K extends string>(rec: Partial<Record<K, number>>, key: K, g: number): void {
+  rec[key] = (rec[key] ?? 0) + g;
+}
+
+/** Book stock of every holder at instant `t` (movements with at < t). */
+function stockBefore(moves: readonly BalanceMove[], t: number, inclusive = false): Map<number, number> {
+  const s = new Map<number, number>();
+  for (const m of moves) {
+    if (inclusive ? m.at > t : m.at >= t) continue;
+    s.set(m.toHolderId, (s.get(m.toHolderId) ?? 0) + m.massG);
+    if (m.fromHolderId !== null) s.set(m.fromHolderId, (s.get(m.fromHolderId) ?? 0) - m.massG);
+  }
+  return s;
+}
+
+/** Mass balance of one site (optionally one material kind) over [startMs, endMs). */
+export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBalance> {
+  const { holders, moves, period, scope } = input;
+  const tolerance = input.tolerance ?? DEFAULT_CLOSURE_TOLERANCE;
+  const issues = [...validateLedger(holders, moves), ...validateTolerance(tolerance)];
+  if (!Number.isSafeInteger(period.startMs) || !Number.isSafeInteger(period.endMs) || period.endMs <= period.startMs) {
+    issues.push({ code: "MASS_BALANCE.INVALID_PERIOD", message: "Period end must be after its start", field: "period.endMs" });
+  }
+  if (issues.length > 0) return failMany(issues);
+
+  const classes = scope.holderClasses ?? DEFAULT_HOLDER_CLASSES;
+  const byId = new Map(holders.map((h) => [h.id, h]));
+  const holderOf = (id: number): BalanceHolder => {
+    const h = byId.get(id);
+    invariant(h !== undefined, `holder ${id} was validated above`);
+    return h;
+  };
+  const inScope = (h: BalanceHolder): boolean =>
+    classes[h.kind] === "STOCK" && h.siteId === scope.siteId && (scope.materialKind === undefined || h.materialKind === scope.materialKind);
+
+  // Stock view.
+  const opening = stockBefore(moves, period.startMs);
+  const closing = stockBefore(moves, period.endMs);
+  const scoped = holders.filter(inScope);
+  const byHolder: HolderStock[] = scoped.map((h) => ({ holderId: h.id, kind: h.kind, openingG: opening.get(h.id) ?? 0, closingG: closing.get(h.id) ?? 0 }));
+  const openingG = byHolder.reduce((s, h) => s + h.openingG, 0);
+  const closingG = byHolder.reduce((s, h) => s + h.closingG, 0);
+
+  const receipts = { totalG: 0, feedstockG: 0, reagentG: 0, otherG: 0 };
+  const outputs = { totalG: 0, shipmentG: 0, disposalG: 0, lossG: 0, otherG: 0 };
+  let transfersInG = 0;
+  let transfersOutG = 0;
+  let returnsG = 0;
+  const byRole = emptyRoleFlows();
+
+  for (const m of moves) {
+    if (m.at < period.startMs || m.at >= period.endMs) continue;
+    const to = holderOf(m.toHolderId);
+    const from = m.fromHolderId === null ? null : holderOf(m.fromHolderId);
+    const toIn = inScope(to);
+    const fromIn = from !== null && inScope(from);
+    const flow = byRole[m.role];
+    if (fromIn && toIn) {
+      flow.internalG += m.massG;
+    } else if (toIn) {
+      flow.inG += m.massG;
+      if (from === null) {
+        receipts.totalG += m.massG;
+        const rc = to.receiptClass ?? RECEIPT_CLASS_BY_KIND[to.kind];
+        if (rc === "FEEDSTOCK") receipts.feedstockG += m.massG;
+        else if (rc === "REAGENT") receipts.reagentG += m.massG;
+        else receipts.otherG += m.massG;
+      } else if (classes[from.kind] === "OUT") {
+        returnsG += m.massG;
+      } else {
+        transfersInG += m.massG;
+      }
+    } else if (fromIn) {
+      flow.outG += m.massG;
+      if (classes[to.kind] === "OUT") {
+        outputs.totalG += m.massG;
+        if (to.kind === "SHIPMENT") outputs.shipmentG += m.massG;
+        else if (to.kind === "DISPOSAL") outputs.disposalG += m.massG;
+        else if (to.kind === "LOSS") outputs.lossG += m.massG;
+        else outputs.otherG += m.massG;
+      } else {
+        transfersOutG += m.massG;
+      }
+    }
+  }
+
+  const stockInG = receipts.totalG + transfersInG + returnsG;
+  const imbalanceG = openingG + stockInG - outputs.totalG - transfersOutG - closingG;
+
+  const negativeStock = findNegativeStock(moves, period.endMs, (id) => inScope(holderOf(id)));
+
+  const stock: StockView = {
+    openingG,
+    receipts,
+    transfersInG,
+    returnsG,
+    outputs,
+    transfersOutG,
+    closingG,
+    deltaStockG: closingG - openingG,
+    imbalanceG,
+    closure: classifyClosure(imbalanceG, stockInG, tolerance),
+    byRole,
+    byHolder,
+    negativeStock,
+  };
+
+  return ok({
+    period: { startMs: period.startMs, endMs: period.endMs },
+    scope: { siteId: scope.siteId, materialKind: scope.materialKind ?? null },
+    tolerance,
+    stock,
+    process: computeProcessView(scoped.filter((h) => h.kind === "BATCH"), moves, period, tolerance),
+  });
+}
+
+/**
+ * First movement at which each holder's book stock is below zero. All movements stamped at the same
+ * instant are applied before checking, so their order within the instant does not matter.
+ */
+function findNegativeStock(moves: readonly BalanceMove[], beforeMs: number, watch: (holderId: number) => boolean): NegativeStock[] {
+  const byInstant = new Map<number, BalanceMove[]>();
+  for (const m of moves) {
+    if (m.at >= beforeMs) continue;
+    const group = byInstant.get(m.at);
+    if (group === undefined) byInstant.set(m.at, [m]);
+    else group.push(m);
+  }
+  const running = new Map<number, number>();
+  const found = new Map<number, NegativeStock>();
+  for (const at of [...byInstant.keys()].sort((a, b) => a - b)) {
+    const group = (byInstant.get(at) ?? []).sort((a, b) => a.id - b.id);
+    for (const m of group) {
+      running.set(m.toHolderId, (running.get(m.toHolderId) ?? 0) + m.massG);
+      if (m.fromHolderId !== null) running.set(m.fromHolderId, (running.get(m.fromHolderId) ?? 0) - m.massG);
+    }
+    for (const m of group) {
+      const id = m.fromHolderId;
+      if (id === null || found.has(id) || !watch(id)) continue;
+      const balanceG = running.get(id) ?? 0;
+      if (balanceG < 0) found.set(id, { holderId: id, at, moveId: m.id, balanceG });
+    }
+  }
+  return [...found.values()];
+}
+
+const USUAL_INPUTS = new Set<MoveRole>(BATCH_INPUT_ROLES);
+const USUAL_OUTPUTS = new Set<MoveRole>(BATCH_OUTPUT_ROLES);
+
+function computeProcessView(
+  batches: readonly BalanceHolder[],
+  moves: readonly BalanceMove[],
+  period: { startMs: number; endMs: number },
+  tolerance: ClosureTolerance,
+): ProcessView {
+  const completed: BatchBalance[] = [];
+  const inProgress: BatchBalance[] = [];
+  const totalIn: Partial<Record<MoveRole, number>> = {};
+  const totalOut: Partial<Record<MoveRole, number>> = {};
+  let inputsG = 0;
+  let outputsG = 0;
+
+  for (const b of batches) {
+    const completedAt = b.completedAt ?? null;
+    if (completedAt !== null && completedAt < period.startMs) continue;
+    const finishedInPeriod = completedAt !== null && completedAt < period.endMs;
+    const inputsByRole: Partial<Record<MoveRole, number>> = {};
+    const outputsByRole: Partial<Record<MoveRole, number>> = {};
+    const unusual = new Set<MoveRole>();
+    let bin = 0;
+    let bout = 0;
+    let touched = false;
+    for (const m of moves) {
+      if (m.at >= period.endMs) continue;
+      if (m.toHolderId === b.id) {
+        touched = true;
+        bin += m.massG;
+        addTo(inputsByRole, m.role, m.massG);
+        if (!USUAL_INPUTS.has(m.role)) unusual.add(m.role);
+      } else if (m.fromHolderId === b.id) {
+        touched = true;
+        bout += m.massG;
+        addTo(outputsByRole, m.role, m.massG);
+        if (!USUAL_OUTPUTS.has(m.role)) unusual.add(m.role);
+      }
+    }
+    if (!touched && !finishedInPeriod) continue;
+    const row: BatchBalance = {
+      holderId: b.id,
+      completedAt,
+      inputsG: bin,
+      outputsG: bout,
+      imbalanceG: bin - bout,
+      inputsByRole,
+      outputsByRole,
+      unusualRoles: [...unusual].sort(),
+      closure: classifyClosure(bin - bout, bin, tolerance),
+    };
+    if (finishedInPeriod) {
+      completed.push(row);
+      inputsG += bin;
+      outputsG += bout;
+      for (const r of MOVE_ROLES) {
+        const gIn = inputsByRole[r];
+        const gOut = outputsByRole[r];
+        if (gIn !== undefined) addTo(totalIn, r, gIn);
+        if (gOut !== undefined) addTo(totalOut, r, gOut);
+      }
+    } else {
+      inProgress.push(row);
+    }
+  }
+
+  return {
+    completed,
+    inProgress,
+    inputsG,
+    outputsG,
+    imbalanceG: inputsG - outputsG,
+    inputsByRole: totalIn,
+    outputsByRole: totalOut,
+    closure: classifyClosure(inputsG - outputsG, inputsG, tolerance),
+  };
+}
+
+export interface GaugeReading {
+  holderId: number;
+  at: number;
+  /** Measured mass in the tank, whole grams (from level, temperature and density). */
+  massG: number;
+}
+
+export interface GaugeComparison {
+  holderId: number;
+  at: number;
+  bookG: number;
+  measuredG: number;
+  /** measured − book: negative means less in the tank than the books say. */
+  differenceG: number;
+  closure: Closure;
+}
+
+export interface GaugeReport {
+  rows: GaugeComparison[];
+  /** Over the latest reading of each holder. */
+  total: { bookG: number; measuredG: number; differenceG: number; closure: Closure };
+  tolerance: ClosureTolerance;
+}
+
+/**
+ * Book stock against measured gauge readings, flagged as a share of book stock. A movement stamped at
+ * the same millisecond as a reading counts as done before the reading.
+ */
+export function compareBookToGauges(input: {
+  holders: readonly BalanceHolder[];
+  moves: readonly BalanceMove[];
+  readings: readonly GaugeReading[];
+  tolerance?: ClosureTolerance;
+  holderClasses?: Readonly<Record<HolderKind, HolderClass>>;
+}): Result<GaugeReport> {
+  const tolerance = input.tolerance ?? DEFAULT_CLOSURE_TOLERANCE;
+  const classes = input.holderClasses ?? DEFAULT_HOLDER_CLASSES;
+  const issues = [...validateLedger(input.holders, input.moves), ...validateTolerance(tolerance)];
+  const byId = new Map(input.holders.map((h) => [h.id, h]));
+  input.readings.forEach((r, i) => {
+    const h = byId.get(r.holderId);
+    if (h === undefined) {
+      issues.push({ code: "MASS_BALANCE.UNKNOWN_HOLDER", message: `Gauge reading ${i + 1}: holder ${r.holderId} is not in the list`, field: `readings.${i}.holderId` });
+    } else if (classes[h.kind] !== "STOCK") {
+      issues.push({ code: "MASS_BALANCE.GAUGE_NOT_STOCK", message: `Gauge reading ${i + 1}: a ${h.kind} holds no stock to gauge`, field: `readings.${i}.holderId` });
+    }
+    if (!Number.isSafeInteger(r.massG) || r.massG < 0) {
+      issues.push({ code: "MASS_BALANCE.INVALID_MASS", message: `Gauge reading ${i + 1}: measured mass must be whole grams, 0 or more`, field: `readings.${i}.massG` });
+    }
+    if (!Number.isSafeInteger(r.at)) {
+      issues.push({ code: "MASS_BALANCE.INVALID_TIME", message: `Gauge reading ${i + 1}: time must be an instant in milliseconds`, field: `readings.${i}.at` });
+    }
+  });
+  if (issues.length > 0) return failMany(issues);
+
+  const rows: GaugeComparison[] = input.readings.map((r) => {
+    const bookG = stockBefore(input.moves, r.at, true).get(r.holderId) ?? 0;
+    const differenceG = r.massG - bookG;
+    return { holderId: r.holderId, at: r.at, bookG, measuredG: r.massG, differenceG, closure: classifyClosure(differenceG, bookG, tolerance) };
+  });
+  const latest = new Map<number, GaugeComparison>();
+  for (const row of rows) {
+    const prev = latest.get(row.holderId);
+    if (prev === undefined || row.at >= prev.at) latest.set(row.holderId, row);
+  }
+  let bookG = 0;
+  let measuredG = 0;
+  for (const row of latest.values()) {
+    bookG += row.bookG;
+    measuredG += row.measuredG;
+  }
+  return ok({ rows, total: { bookG, measuredG, differenceG: measuredG - bookG, closure: classifyClosure(measuredG - bookG, bookG, tolerance) }, tolerance });
+}
