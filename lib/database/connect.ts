@@ -20,24 +20,40 @@ export function sqliteFilePath(url: string): string {
   return url.replace(/^file:/, "");
 }
 
+/** SQLite durability: WAL for concurrent readers, synchronous=FULL on every connection (WAL reopens at NORMAL). */
+export const SQLITE_PRAGMAS = ["PRAGMA journal_mode = WAL", "PRAGMA synchronous = FULL", "PRAGMA foreign_keys = ON", "PRAGMA busy_timeout = 10000"];
+
+/**
+ * Applies and then reads back the durability pragmas on every connection the adapter opens, so a
+ * reconnect can never silently run at synchronous=NORMAL. Refuses the connection otherwise.
+ */
+class DurableSqliteFactory extends PrismaBetterSqlite3 {
+  override async connect(): ReturnType<PrismaBetterSqlite3["connect"]> {
+    const adapter = await super.connect();
+    await adapter.executeScript(SQLITE_PRAGMAS.join(";\n"));
+    const read = await adapter.queryRaw({ sql: "PRAGMA synchronous", args: [], argTypes: [] });
+    const level = Number(read.rows[0]?.[0]);
+    if (level !== 2) {
+      await adapter.dispose();
+      throw new Error(`SQLite synchronous is ${level}, expected 2 (FULL); refusing to open the database`);
+    }
+    return adapter;
+  }
+}
+
 /** Adapter factory for the URL, shared by the client and the migration engine. */
 export function adapterFor(url: string): PrismaBetterSqlite3 | PrismaPg {
   if (isPostgresUrl(url)) return new PrismaPg({ connectionString: url });
   const file = sqliteFilePath(url);
   mkdirSync(path.dirname(path.resolve(file)), { recursive: true });
-  return new PrismaBetterSqlite3({ url: `file:${file}` });
+  return new DurableSqliteFactory({ url: `file:${file}` });
 }
-
-/** SQLite durability: WAL for concurrent readers, synchronous=FULL on every connection (WAL reopens at NORMAL). */
-export const SQLITE_PRAGMAS = ["PRAGMA journal_mode = WAL", "PRAGMA synchronous = FULL", "PRAGMA foreign_keys = ON", "PRAGMA busy_timeout = 10000"];
 
 export async function openDb(url: string): Promise<Db> {
   if (isPostgresUrl(url)) {
     return new PgClient({ adapter: new PrismaPg({ connectionString: url }) }) as unknown as Db;
   }
   const db = new SqliteClient({ adapter: adapterFor(url) as PrismaBetterSqlite3 });
-  for (const pragma of SQLITE_PRAGMAS) await db.$queryRawUnsafe(pragma);
-  const [sync] = await db.$queryRawUnsafe<Array<{ synchronous: number | bigint }>>("PRAGMA synchronous");
-  if (Number(sync?.synchronous) !== 2) throw new Error(`SQLite synchronous is ${String(sync?.synchronous)}, expected 2 (FULL)`);
+  await db.$connect();
   return db;
 }

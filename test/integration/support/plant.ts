@@ -1,0 +1,40 @@
+// A minimal plant for integration tests: one site, one person per role, a source and the tanks.
+import type { Db } from "@/lib/database/connect";
+import type { Actor } from "@/lib/site/actor";
+import { insertSite, insertUser } from "@/lib/site/site.store";
+import { insertSource } from "@/lib/source/source.store";
+import { SourceSchema } from "@/lib/source/source.schema";
+import { runInTransaction } from "@/lib/ledger/ledger.store";
+import { createTank } from "@/lib/tank/tank.service";
+
+export interface TestPlant {
+  siteId: number;
+  collector: Actor;
+  production: Actor;
+  compliance: Actor;
+}
+
+export function at(iso: string): Date {
+  return new Date(iso);
+}
+
+export async function createTestPlant(db: Db): Promise<TestPlant> {
+  const site = await insertSite(db, { code: "TST", name: "Test Works", town: "Testford", timeZone: "UTC" });
+  const actor = async (login: string, role: "COLLECTOR" | "PRODUCTION" | "COMPLIANCE"): Promise<Actor> => ({
+    siteId: site.id,
+    userId: (await insertUser(db, { siteId: site.id, login, fullName: login, role })).id,
+    now: at("2026-03-01T12:00:00Z"),
+  });
+  const plant = { siteId: site.id, collector: await actor("c", "COLLECTOR"), production: await actor("p", "PRODUCTION"), compliance: await actor("q", "COMPLIANCE") };
+  const src = await runInTransaction(db, (tx) => insertSource(tx, site.id, SourceSchema.parse({ code: "R1", name: "Test Kitchen", kind: "RESTAURANT", materials: ["USED_COOKING_OIL"] })));
+  if (!src.ok) throw new Error("source");
+  for (const t of [
+    { code: "T1", name: "Feed", service: "FEEDSTOCK", capacityL: 50_000 },
+    { code: "P1", name: "Product", service: "PRODUCT", capacityL: 50_000 },
+    { code: "M1", name: "Methanol", service: "METHANOL", capacityL: 10_000 },
+  ]) {
+    const r = await createTank(db, plant.production, t);
+    if (!r.ok) throw new Error(JSON.stringify(r.issues));
+  }
+  return plant;
+}
