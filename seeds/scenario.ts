@@ -13,7 +13,8 @@ import type { AccountingPeriodInput } from "@/lib/period/period.schema";
 import type { MaterialKind } from "@/lib/ledger/kinds";
 import { measureObserved } from "@/lib/feedstock/measure";
 import { DEFAULT_DENSITY_TABLE, densityAt, requireDensityEntry } from "@/lib/quantity/density";
-import { CRUSHERS, CUSTOMERS, HAULERS, OTHER_SUPPLIERS, PEOPLE, PROCESSORS, REAGENT_SUPPLIERS, RENDERERS, restaurantName, streetAddress } from "@/seeds/names";
+import type { PEOPLE} from "@/seeds/names";
+import { CRUSHERS, CUSTOMERS, HAULERS, OTHER_SUPPLIERS, PROCESSORS, REAGENT_SUPPLIERS, RENDERERS, restaurantName, streetAddress } from "@/seeds/names";
 
 export type Login = (typeof PEOPLE)[number]["login"];
 
