@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db, Tx } from "@/lib/database/connect";
+import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { failMany } from "@/lib/errors";
 import { parseInput } from "@/lib/ledger/parse";
@@ -7,7 +7,7 @@ import { createHolder, postMovement, reject, runInTransaction } from "@/lib/ledg
 import { measureObserved } from "@/lib/feedstock/measure";
 import type { Measured } from "@/lib/feedstock/measure";
 import { DeliveryLotSchema, LabTestSchema, LotDecisionSchema, LotFromPickupsSchema } from "@/lib/feedstock/lot.schema";
-import { insertLot, requireLot, siteLossHolder } from "@/lib/feedstock/lot.store";
+import { countValidTitrations, findPickupsByCode, insertLabTest, insertLot, linkPickupToLot, requireLot, setLotStatus, siteLossHolder } from "@/lib/feedstock/lot.store";
 import { requireSourceId } from "@/lib/source/source.store";
 import type { DensityTable } from "@/lib/quantity/density";
 import { DEFAULT_DENSITY_TABLE } from "@/lib/quantity/density";
@@ -45,10 +45,7 @@ export async function receiveLotFromPickups(db: Db, actor: Actor, input: unknown
   const measured = measureLot(l, table);
   if (!measured.ok) return measured;
   return runInTransaction(db, async (tx) => {
-    const pickups = await tx.pickup.findMany({
-      where: { siteId: actor.siteId, code: { in: l.pickupCodes } },
-      select: { id: true, code: true, holderId: true, lotId: true, observedAt: true, material: true, holder: { select: { stockG: true } } },
-    });
+    const pickups = await findPickupsByCode(tx, actor.siteId, l.pickupCodes);
     l.pickupCodes.forEach((code, i) => {
       const p = pickups.find((x) => x.code === code);
       if (!p) reject("RECORD.NOT_FOUND", `Pickup ${code} does not exist`, `pickupCodes.${i}`);
@@ -59,10 +56,10 @@ export async function receiveLotFromPickups(db: Db, actor: Actor, input: unknown
     const lot = await insertLot(tx, { siteId: actor.siteId, holderId, origin: "PICKUPS", input: l, measured: measured.value });
     let booked = 0;
     for (const p of pickups) {
-      await tx.pickup.update({ where: { id: p.id }, data: { lotId: lot.id } });
-      if (p.holder.stockG === 0) continue;
-      booked += p.holder.stockG;
-      await postMovement(tx, { siteId: actor.siteId, at: l.receivedAt, role: "TRANSFER", fromHolderId: p.holderId, toHolderId: holderId, massG: p.holder.stockG, recordedById: actor.userId, note: `pickup ${p.code} received` });
+      await linkPickupToLot(tx, p.id, lot.id);
+      if (p.stockG === 0) continue;
+      booked += p.stockG;
+      await postMovement(tx, { siteId: actor.siteId, at: l.receivedAt, role: "TRANSFER", fromHolderId: p.holderId, toHolderId: holderId, massG: p.stockG, recordedById: actor.userId, note: `pickup ${p.code} received` });
     }
     const difference = measured.value.massG - booked;
     if (difference < 0) {
@@ -97,7 +94,7 @@ export async function recordLabTest(db: Db, actor: Actor, input: unknown): Promi
   const t = parsed.value;
   return runInTransaction(db, async (tx) => {
     const lot = await requireLot(tx, actor.siteId, t.lotCode, "lotCode");
-    return tx.labTest.create({ data: { lotId: lot.id, analystId: actor.userId, testedAt: t.testedAt, kind: t.kind, method: t.method, valuePct: t.valuePct }, select: { id: true } });
+    return insertLabTest(tx, { lotId: lot.id, analystId: actor.userId, testedAt: t.testedAt, kind: t.kind, method: t.method, valuePct: t.valuePct });
   });
 }
 
@@ -106,14 +103,14 @@ export async function decideLot(db: Db, actor: Actor, input: unknown): Promise<R
   const parsed = parseInput(LotDecisionSchema, input);
   if (!parsed.ok) return parsed;
   const d = parsed.value;
-  return runInTransaction(db, async (tx: Tx) => {
+  return runInTransaction(db, async (tx) => {
     const lot = await requireLot(tx, actor.siteId, d.lotCode, "lotCode");
     if (lot.status !== "QUARANTINED") reject("LOT.ALREADY_DECIDED", `Lot ${d.lotCode} is already ${lot.status.toLowerCase()}`, "status");
     if (d.status === "ACCEPTED") {
-      const titrations = await tx.titration.count({ where: { lotId: lot.id, voided: false } });
+      const titrations = await countValidTitrations(tx, lot.id);
       if (titrations === 0) reject("LOT.NO_FFA", `Lot ${d.lotCode} has no FFA titration yet; titrate before accepting`, "status");
     }
-    await tx.feedstockLot.update({ where: { id: lot.id }, data: { status: d.status } });
+    await setLotStatus(tx, lot.id, d.status);
     return { code: d.lotCode, status: d.status };
   });
 }

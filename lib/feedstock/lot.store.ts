@@ -113,3 +113,43 @@ export async function listLots(db: Db, siteId: number, opts: { status?: string; 
     })),
   };
 }
+
+export interface PickupForLot {
+  id: number;
+  code: string;
+  holderId: number;
+  lotId: number | null;
+  observedAt: Date;
+  stockG: number;
+}
+
+export async function findPickupsByCode(tx: Tx, siteId: number, codes: string[]): Promise<PickupForLot[]> {
+  const rows = await tx.pickup.findMany({
+    where: { siteId, code: { in: codes } },
+    select: { id: true, code: true, holderId: true, lotId: true, observedAt: true, holder: { select: { stockG: true } } },
+  });
+  return rows.map(({ holder, ...p }) => ({ ...p, stockG: holder.stockG }));
+}
+
+export async function linkPickupToLot(tx: Tx, pickupId: number, lotId: number): Promise<void> {
+  await tx.pickup.update({ where: { id: pickupId }, data: { lotId } });
+}
+
+export async function insertLabTest(tx: Tx, t: { lotId: number; analystId: number; testedAt: Date; kind: string; method: string; valuePct: number }): Promise<{ id: number }> {
+  return tx.labTest.create({ data: t, select: { id: true } });
+}
+
+export async function countValidTitrations(tx: Tx, lotId: number): Promise<number> {
+  return tx.titration.count({ where: { lotId, voided: false } });
+}
+
+export async function setLotStatus(tx: Tx, lotId: number, status: string): Promise<void> {
+  await tx.feedstockLot.update({ where: { id: lotId }, data: { status } });
+}
+
+export async function insertTitration(
+  tx: Tx,
+  t: { lotId: number; analystId: number; testedAt: Date; sampleMassG: number; titrant: string; concentrationMolL: number; titreMl: number; blankMl: number; basis: string; ffaPct: number; acidValue: number },
+): Promise<{ id: number; ffaPct: number; acidValue: number }> {
+  return tx.titration.create({ data: t, select: { id: true, ffaPct: true, acidValue: true } });
+}

@@ -6,7 +6,7 @@ import { failMany } from "@/lib/errors";
 import { code, when } from "@/lib/ledger/fields";
 import { parseInput } from "@/lib/ledger/parse";
 import { runInTransaction } from "@/lib/ledger/ledger.store";
-import { requireLot } from "@/lib/feedstock/lot.store";
+import { insertTitration, requireLot } from "@/lib/feedstock/lot.store";
 import { TitrationEntrySchema } from "@/lib/titration/titration.schema";
 import { calculateAcidValue, calculateFfaPercent } from "@/lib/titration/titration";
 import type { Actor } from "@/lib/site/actor";
@@ -24,8 +24,7 @@ export async function recordTitration(db: Db, actor: Actor, input: unknown): Pro
   if (!ffa.ok || !av.ok) return failMany([...(ffa.ok ? [] : ffa.issues), ...(av.ok ? [] : av.issues)]);
   return runInTransaction(db, async (tx) => {
     const lot = await requireLot(tx, actor.siteId, t.lotCode, "lotCode");
-    return tx.titration.create({
-      data: {
+    return insertTitration(tx, {
         lotId: lot.id,
         analystId: actor.userId,
         testedAt: t.testedAt,
@@ -37,8 +36,6 @@ export async function recordTitration(db: Db, actor: Actor, input: unknown): Pro
         basis: t.basis,
         ffaPct: ffa.value.ffaPct,
         acidValue: av.value.acidValueMgKohG,
-      },
-      select: { id: true, ffaPct: true, acidValue: true },
     });
   });
 }

@@ -9,7 +9,7 @@ import { toGrams, toMillilitres } from "@/lib/quantity/units";
 import { densityAt, DEFAULT_DENSITY_TABLE, requireDensityEntry } from "@/lib/quantity/density";
 import type { Actor } from "@/lib/site/actor";
 import { labelOf } from "@/lib/ledger/kinds";
-import { assertTankRoom, serviceMaterial } from "@/lib/tank/tank.store";
+import { assertTankRoom, getTankByCode, getTankServiceByHolder, insertGauge, insertTank, serviceMaterial } from "@/lib/tank/tank.store";
 
 export async function createTank(db: Db, actor: Actor, input: unknown): Promise<Result<{ id: number; code: string }>> {
   const parsed = parseInput(TankSchema, input);
@@ -17,10 +17,7 @@ export async function createTank(db: Db, actor: Actor, input: unknown): Promise<
   const t = parsed.value;
   return runInTransaction(db, async (tx) => {
     const holderId = await createHolder(tx, actor.siteId, "TANK", t.code);
-    return tx.tank.create({
-      data: { siteId: actor.siteId, holderId, code: t.code, name: t.name, service: t.service, capacityMl: toMillilitres(t.capacityL), mixing: t.mixing },
-      select: { id: true, code: true },
-    });
+    return insertTank(tx, { siteId: actor.siteId, holderId, code: t.code, name: t.name, service: t.service, capacityMl: toMillilitres(t.capacityL), mixing: t.mixing });
   });
 }
 
@@ -31,10 +28,10 @@ export async function transferToTank(db: Db, actor: Actor, input: unknown): Prom
   return runInTransaction(db, async (tx) => {
     const from = await requireDrawableHolder(tx, actor.siteId, t.fromKind, t.fromCode, "fromCode");
     const to = await requireHolder(tx, actor.siteId, "TANK", t.toTankCode, "toTankCode");
-    const toTank = await tx.tank.findUniqueOrThrow({ where: { holderId: to.id }, select: { service: true } });
-    const fromService = t.fromKind === "LOT" ? "FEEDSTOCK" : t.fromKind === "PRODUCT_LOT" ? "PRODUCT" : (await tx.tank.findUniqueOrThrow({ where: { holderId: from }, select: { service: true } })).service;
-    if (fromService !== toTank.service) {
-      reject("TANK.WRONG_SERVICE", `Tank ${t.toTankCode} is for ${labelOf(toTank.service).toLowerCase()}, not ${labelOf(fromService).toLowerCase()}`, "toTankCode");
+    const toService = await getTankServiceByHolder(tx, to.id);
+    const fromService = t.fromKind === "LOT" ? "FEEDSTOCK" : t.fromKind === "PRODUCT_LOT" ? "PRODUCT" : await getTankServiceByHolder(tx, from);
+    if (fromService !== toService) {
+      reject("TANK.WRONG_SERVICE", `Tank ${t.toTankCode} is for ${labelOf(toService ?? "").toLowerCase()}, not ${labelOf(fromService ?? "").toLowerCase()}`, "toTankCode");
     }
     await assertTankRoom(tx, to.id, toGrams(t.massKg), "massKg");
     const movementId = await postMovement(tx, { siteId: actor.siteId, at: t.at, role: "TRANSFER", fromHolderId: from, toHolderId: to.id, massG: toGrams(t.massKg), note: t.note, recordedById: actor.userId });
@@ -49,10 +46,10 @@ export async function recordGauge(db: Db, actor: Actor, input: unknown): Promise
   if (!parsed.ok) return parsed;
   const g = parsed.value;
   return runInTransaction(db, async (tx) => {
-    const tank = await tx.tank.findUnique({ where: { siteId_code: { siteId: actor.siteId, code: g.tankCode } }, select: { id: true, service: true } });
+    const tank = await getTankByCode(tx, actor.siteId, g.tankCode);
     if (!tank) reject("RECORD.NOT_FOUND", `Tank ${g.tankCode} does not exist`, "tankCode");
     const rho = densityAt(requireDensityEntry(DEFAULT_DENSITY_TABLE, serviceMaterial(tank.service)), g.tempC);
     const massG = toGrams((g.volumeL * rho) / 1000);
-    return tx.tankGauge.create({ data: { tankId: tank.id, at: g.at, volumeMl: toMillilitres(g.volumeL), tempC: g.tempC, massG }, select: { id: true, massG: true } });
+    return insertGauge(tx, { tankId: tank.id, at: g.at, volumeMl: toMillilitres(g.volumeL), tempC: g.tempC, massG });
   });
 }

@@ -50,3 +50,20 @@ export async function assertTankRoom(tx: Tx, holderId: number, addG: number, fie
     reject("TANK.OVERFILL", `Tank ${tank.code} has room for about ${(room / 1000).toLocaleString("en", { maximumFractionDigits: 0 })} kg (capacity ${(tank.capacityMl / 1000).toLocaleString("en")} L)`, field);
   }
 }
+
+export async function insertTank(tx: Tx, t: { siteId: number; holderId: number; code: string; name: string; service: string; capacityMl: number; mixing: string }): Promise<{ id: number; code: string }> {
+  return tx.tank.create({ data: t, select: { id: true, code: true } });
+}
+
+/** A tank's service by its holder, or null when the holder is not a tank. */
+export async function getTankServiceByHolder(tx: Tx, holderId: number): Promise<string | null> {
+  return (await tx.tank.findUnique({ where: { holderId }, select: { service: true } }))?.service ?? null;
+}
+
+export async function getTankByCode(tx: Tx, siteId: number, code: string): Promise<{ id: number; service: string } | null> {
+  return tx.tank.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, service: true } });
+}
+
+export async function insertGauge(tx: Tx, g: { tankId: number; at: Date; volumeMl: number; tempC: number; massG: number }): Promise<{ id: number; massG: number }> {
+  return tx.tankGauge.create({ data: g, select: { id: true, massG: true } });
+}

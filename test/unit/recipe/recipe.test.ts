@@ -217,7 +217,7 @@ const lotArb = fc
     waterPct: fc.double({ min: 0, max: 3, noNaN: true }),
     famePct: fc.double({ min: 0, max: 20, noNaN: true }),
   })
-  .map((l, i) => ({ lotRef: `L${i}`, ...l }));
+  .map((l) => ({ lotRef: "L", ...l }));
 
 const settingsArb = fc.record({
   catalyst: fc.constantFrom(...CATALYST_TYPES),
