@@ -1,0 +1,22 @@
+// The one table from a domain issue code to an HTTP status.
+import type { DomainIssue } from "@/lib/errors";
+
+const BY_PREFIX: Array<[RegExp, number]> = [
+  [/^INPUT\./, 422],
+  [/^RECORD\.NOT_FOUND$/, 404],
+  [/^RECORD\.DUPLICATE$/, 409],
+  [/^AUTH\.UNAUTHENTICATED$/, 401],
+  [/^AUTH\./, 403],
+  [/^IDEMPOTENCY\.KEY_REUSED$/, 422],
+  [/^IDEMPOTENCY\.IN_PROGRESS$/, 409],
+  [/^PERIOD\.CLOSED$/, 409],
+  [/^LEDGER\.OVERDRAW$/, 409],
+];
+
+/** 422 for bad input, 404/409 for state conflicts; any other expected refusal is a 422 with its code. */
+export function statusFor(issues: DomainIssue[]): number {
+  const first = issues[0];
+  if (!first) return 422;
+  for (const [pattern, status] of BY_PREFIX) if (pattern.test(first.code)) return status;
+  return 422;
+}

@@ -1,0 +1,214 @@
+import { invariant } from "@/lib/errors";
+import { allocateByWeight } from "@/lib/quantity/allocate";
+
+/**
+ * Grams per origin, as two parallel arrays sorted by ascending origin id with every entry > 0.
+ * The order is part of the rounding rule: when a split ties, allocateByWeight gives the spare gram to
+ * the earlier key, i.e. to the lower origin id (the origin that entered the books first).
+ */
+export interface CompositionParts {
+  readonly originIds: readonly number[];
+  readonly grams: readonly number[];
+}
+
+export const EMPTY_PARTS: CompositionParts = { originIds: [], grams: [] };
+
+export function sumParts(parts: CompositionParts): number {
+  let total = 0;
+  for (const g of parts.grams) total += g;
+  return total;
+}
+
+/** Sorted merge into new arrays: O(a + b). */
+export function mergeParts(a: CompositionParts, b: CompositionParts): { originIds: number[]; grams: number[] } {
+  const aIds = a.originIds;
+  const bIds = b.originIds;
+  const originIds: number[] = [];
+  const grams: number[] = [];
+  let i = 0;
+  let j = 0;
+  while (i < aIds.length && j < bIds.length) {
+    const ia = aIds[i] ?? 0;
+    const ib = bIds[j] ?? 0;
+    if (ia < ib) {
+      originIds.push(ia);
+      grams.push(a.grams[i++] ?? 0);
+    } else if (ib < ia) {
+      originIds.push(ib);
+      grams.push(b.grams[j++] ?? 0);
+    } else {
+      originIds.push(ia);
+      grams.push((a.grams[i++] ?? 0) + (b.grams[j++] ?? 0));
+    }
+  }
+  for (; i < aIds.length; i++) {
+    originIds.push(aIds[i] ?? 0);
+    grams.push(a.grams[i] ?? 0);
+  }
+  for (; j < bIds.length; j++) {
+    originIds.push(bIds[j] ?? 0);
+    grams.push(b.grams[j] ?? 0);
+  }
+  return { originIds, grams };
+}
+
+/** Merges many part lists (e.g. FIFO layers) pairwise so the cost stays O(n log k). */
+export function mergeAllParts(list: readonly CompositionParts[]): CompositionParts {
+  let level = list.filter((p) => p.originIds.length > 0);
+  if (level.length <= 1) return level[0] ?? EMPTY_PARTS;
+  while (level.length > 1) {
+    const next: CompositionParts[] = [];
+    for (let i = 0; i < level.length; i += 2) {
+      const a = level[i];
+      const b = level[i + 1];
+      if (a !== undefined) next.push(b === undefined ? a : mergeParts(a, b));
+    }
+    level = next;
+  }
+  return level[0] ?? EMPTY_PARTS;
+}
+
+/** A holder-owned, mutable composition (a MIXED pool or one FIFO layer). Same ordering rules as CompositionParts. */
+export interface MutableLayer {
+  originIds: number[];
+  grams: number[];
+  /** Grams including pending deposits. */
+  totalG: number;
+  /**
+   * Deposits not merged in yet (owned copies). A sink such as a site's loss holder receives thousands
+   * of deposits and is never drawn from; merging each one at once would cost O(size) per deposit.
+   */
+  pending: CompositionParts[];
+  pendingLength: number;
+}
+
+const SETTLE_AT_LEAST = 1024;
+
+export function copyToLayer(parts: CompositionParts): MutableLayer {
+  return { originIds: [...parts.originIds], grams: [...parts.grams], totalG: sumParts(parts), pending: [], pendingLength: 0 };
+}
+
+/** Merges pending deposits into the layer; call before reading or drawing from it. */
+export function settleLayer(layer: MutableLayer): MutableLayer {
+  if (layer.pending.length === 0) return layer;
+  const merged = mergeParts(layer, mergeAllParts(layer.pending));
+  layer.originIds = merged.originIds;
+  layer.grams = merged.grams;
+  layer.pending = [];
+  layer.pendingLength = 0;
+  return layer;
+}
+
+/**
+ * Splits massG off a layer in proportion to its grams (allocateByWeight: largest remainder, exact
+ * integers) and returns what leaves; the layer keeps the rest, origins that reach 0 g drop out.
+ * A part never exceeds the holding: floor(m·g/M) ≤ g − 1 for m < M and the spare gram adds at most 1
+ * (exact in doubles while the stock is below 2^52 g).
+ */
+export function takeFromLayer(layer: MutableLayer, massG: number): CompositionParts {
+  settleLayer(layer);
+  invariant(Number.isSafeInteger(massG) && massG > 0 && massG <= layer.totalG, `cannot take ${massG} g off ${layer.totalG} g`);
+  if (massG === layer.totalG) {
+    const all = { originIds: layer.originIds, grams: layer.grams };
+    layer.originIds = [];
+    layer.grams = [];
+    layer.totalG = 0;
+    return all;
+  }
+  const n = layer.originIds.length;
+  const weights = new Array<readonly [number, number]>(n);
+  for (let i = 0; i < n; i++) weights[i] = [i, layer.grams[i] ?? 0];
+  const allocation = allocateByWeight(massG, weights);
+  const takenIds: number[] = [];
+  const takenGrams: number[] = [];
+  let kept = 0;
+  for (const [i, part] of allocation) {
+    const id = layer.originIds[i] ?? 0;
+    const held = layer.grams[i] ?? 0;
+    if (part > held) invariant(false, `split gave origin ${id} ${part} g of its ${held} g`);
+    if (part > 0) {
+      takenIds.push(id);
+      takenGrams.push(part);
+    }
+    if (held > part) {
+      layer.originIds[kept] = id;
+      layer.grams[kept] = held - part;
+      kept++;
+    }
+  }
+  layer.originIds.length = kept;
+  layer.grams.length = kept;
+  layer.totalG -= massG;
+  return { originIds: takenIds, grams: takenGrams };
+}
+
+/**
+ * Adds parts into a layer: appends at once when every id is newer (the usual case), else buffers the
+ * deposit and merges once the buffer outgrows the layer, so a deposit costs amortised O(its size · log).
+ */
+export function addToLayer(layer: MutableLayer, parts: CompositionParts): void {
+  const last = layer.originIds[layer.originIds.length - 1];
+  const first = parts.originIds[0];
+  if (first === undefined) return;
+  layer.totalG += sumParts(parts);
+  if (layer.pending.length === 0 && (last === undefined || first > last)) {
+    for (let i = 0; i < parts.originIds.length; i++) {
+      layer.originIds.push(parts.originIds[i] ?? 0);
+      layer.grams.push(parts.grams[i] ?? 0);
+    }
+    return;
+  }
+  layer.pending.push({ originIds: [...parts.originIds], grams: [...parts.grams] });
+  layer.pendingLength += parts.originIds.length;
+  if (layer.pendingLength > Math.max(SETTLE_AT_LEAST, layer.originIds.length)) settleLayer(layer);
+}
+
+/** First index whose id is ≥ id. */
+function findInsertion(ids: readonly number[], id: number): number {
+  let lo = 0;
+  let hi = ids.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if ((ids[mid] ?? id) < id) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/** Grams of the given origins in parts; walks whichever side is shorter. */
+export function sumPartsOf(parts: CompositionParts, originIds: ReadonlySet<number>): number {
+  let total = 0;
+  if (originIds.size < parts.originIds.length) {
+    for (const id of originIds) {
+      const i = findOrigin(parts, id);
+      if (i >= 0) total += parts.grams[i] ?? 0;
+    }
+  } else {
+    parts.originIds.forEach((id, i) => {
+      if (originIds.has(id)) total += parts.grams[i] ?? 0;
+    });
+  }
+  return total;
+}
+
+export function getOriginGrams(parts: CompositionParts, originId: number): number {
+  const i = findOrigin(parts, originId);
+  return i >= 0 ? (parts.grams[i] ?? 0) : 0;
+}
+
+function findOrigin(parts: CompositionParts, originId: number): number {
+  const i = findInsertion(parts.originIds, originId);
+  return parts.originIds[i] === originId ? i : -1;
+}
+
+/** Adds parts into a Map accumulator (used for "received" totals over many moves). */
+export function addPartsToTally(tally: Map<number, number>, parts: CompositionParts): void {
+  parts.originIds.forEach((id, i) => {
+    tally.set(id, (tally.get(id) ?? 0) + (parts.grams[i] ?? 0));
+  });
+}
+
+export function tallyToParts(tally: ReadonlyMap<number, number>): CompositionParts {
+  const entries = [...tally].filter(([, g]) => g > 0).sort((a, b) => a[0] - b[0]);
+  return { originIds: entries.map(([id]) => id), grams: entries.map(([, g]) => g) };
+}

@@ -1,0 +1,350 @@
+// Lot genealogy over the movement ledger: backward ("what is in it"), forward ("where did it go").
+// Cost model: a full replay is O(moves × composition size of the holders each move touches). The size
+// of a vessel that is drawn from does not grow with history: rounding to whole grams drops an origin
+// once its share no longer earns a gram, so a tank that is never emptied settles at a steady size.
+// Sinks never drawn from (a site's loss holder) keep every origin; their deposits are buffered
+// (composition.ts), so they cost memory and snapshot size, not time per move.
+// Backward traces replay only the target's ancestor subgraph; periodic snapshots bound any replay to
+// the moves since the last snapshot.
+import { fail, failMany, invariant, ok } from "@/lib/errors";
+import type { Result } from "@/lib/errors";
+import { addPartsToTally, sumParts, sumPartsOf, tallyToParts } from "@/lib/trace/composition";
+import type { CompositionParts } from "@/lib/trace/composition";
+import { findLastPositionAtOrBefore } from "@/lib/trace/ledger";
+import type { HolderKind, LedgerIndex, TraceIssue, TraceMove } from "@/lib/trace/ledger";
+import { createReplay, restoreReplay } from "@/lib/trace/replay";
+import type { Replay, ReplayPosition, ReplaySnapshot } from "@/lib/trace/replay";
+
+export interface OriginShare {
+  /** The entry move's id. */
+  originId: number;
+  grams: number;
+  /** Percent of the traced quantity (grams × 100 / totalG); the grams, not the percents, add up exactly. */
+  pct: number;
+}
+
+export interface TraceComposition {
+  totalG: number;
+  /** Largest first, then by origin id. Σ grams = totalG exactly. */
+  origins: OriginShare[];
+}
+
+export interface HolderTrace {
+  holderId: number;
+  kind: HolderKind;
+  /** Last move the answer includes (the last at or before the requested time), or null if none. */
+  asOf: ReplayPosition | null;
+  /** What the holder held at asOf. */
+  stock: TraceComposition;
+  /** Everything that went into the holder up to asOf (what a batch was charged with, even once emptied). */
+  received: TraceComposition;
+  /** null = received counts the whole ledger; otherwise only moves after this snapshot position. */
+  receivedSince: ReplayPosition | null;
+  /** Moves replayed to answer: the ancestor subgraph, not the whole ledger. */
+  movesReplayed: number;
+}
+
+export interface ForwardHolderReach {
+  holderId: number;
+  kind: HolderKind;
+  /** Grams of the origin set that moved into the holder (since receivedSince). */
+  receivedG: number;
+  /** Grams of the origin set the holder still held at asOf. */
+  heldG: number;
+}
+
+export interface ForwardTrace {
+  originIds: number[];
+  /** Σ entry mass of the origins that had entered by asOf. */
+  enteredG: number;
+  asOf: ReplayPosition | null;
+  receivedSince: ReplayPosition | null;
+  /** Every holder that received or holds part of the set, by holder id. */
+  holders: ForwardHolderReach[];
+  /** Every move that carried part of the set, in ledger order. */
+  moves: Array<{ moveId: number; grams: number }>;
+}
+
+export interface TraceOptions {
+  /** Epoch ms; include moves with at ≤ this. Default: the whole ledger. */
+  at?: number;
+  /** Resume from a stored snapshot instead of the ledger start (ignored when it lies after `at`). */
+  from?: ReplaySnapshot;
+}
+
+export function describeComposition(parts: CompositionParts): TraceComposition {
+  const totalG = sumParts(parts);
+  const origins = parts.originIds
+    .map((originId, i) => {
+      const grams = parts.grams[i] ?? 0;
+      return { originId, grams, pct: totalG === 0 ? 0 : (grams * 100) / totalG };
+    })
+    .filter((o) => o.grams > 0)
+    .sort((a, b) => b.grams - a.grams || a.originId - b.originId);
+  return { totalG, origins };
+}
+
+/**
+ * Full forward replay of the ledger up to `until` (inclusive), optionally from a snapshot.
+ * O(moves × composition size of the holders each move touches).
+ */
+export function replayLedger(
+  index: LedgerIndex,
+  options: { until?: number; from?: ReplaySnapshot; onMove?: (move: TraceMove, parts: CompositionParts) => void } = {},
+): Result<Replay> {
+  const horizon = findLastPositionAtOrBefore(index, options.until ?? Number.POSITIVE_INFINITY);
+  const started = startReplay(index, pickSnapshot(options.from, horizon));
+  if (!started.ok) return started;
+  const replay = started.value;
+  for (let pos = replay.appliedCount; pos <= horizon; pos++) {
+    const move = index.moves[pos];
+    if (move === undefined) break;
+    const applied = replay.apply(move);
+    if (!applied.ok) return applied;
+    options.onMove?.(move, applied.value);
+  }
+  return ok(replay);
+}
+
+/**
+ * Backward trace of a holder at a time (a tank at t, a lot, a batch, a product lot), replaying only
+ * its ancestors: the moves into the holder, the moves out of it (they change its mixture), and the same
+ * recursively for every holder that fed it, each only up to the last moment it fed the chain.
+ */
+export function traceHolder(index: LedgerIndex, holderId: number, options: TraceOptions = {}): Result<HolderTrace> {
+  const holder = index.holders.get(holderId);
+  if (holder === undefined) {
+    return fail("TRACE.UNKNOWN_HOLDER", `Holder ${holderId} is not in the holder list.`, "holderId");
+  }
+  const target = findLastPositionAtOrBefore(index, options.at ?? Number.POSITIVE_INFINITY);
+  const from = pickSnapshot(options.from, target);
+  const started = startReplay(index, from);
+  if (!started.ok) return started;
+  const replay = started.value;
+  const start = replay.appliedCount;
+  const horizons = findAncestorHorizons(index, holderId, target, start);
+  const received = new Map<number, number>();
+  const positions = collectAncestorMoves(index, horizons, start);
+  const replayed = replaySubgraph(index, replay, positions, horizons, (move, parts) => {
+    if (move.toHolderId === holderId) addPartsToTally(received, parts);
+  });
+  if (!replayed.ok) return replayed;
+  const last = index.moves[target];
+  return ok({
+    holderId,
+    kind: holder.kind,
+    asOf: last === undefined ? null : { moveId: last.id, at: last.at },
+    stock: describeComposition(replay.getComposition(holderId)),
+    received: describeComposition(tallyToParts(received)),
+    receivedSince: from === undefined ? null : from.applied.last,
+    movesReplayed: positions.length,
+  });
+}
+
+/** Backward trace of one move (a shipment = the move into it): the composition it carried. */
+export function traceMove(index: LedgerIndex, moveId: number, options: { from?: ReplaySnapshot } = {}): Result<TraceComposition> {
+  const pos = index.positionOf.get(moveId);
+  const move = pos === undefined ? undefined : index.moves[pos];
+  if (pos === undefined || move === undefined) {
+    return fail("TRACE.UNKNOWN_MOVE", `Move ${moveId} is not in the ledger.`, "moveId");
+  }
+  if (move.fromHolderId === null) return ok(describeComposition({ originIds: [move.id], grams: [move.massG] }));
+  const started = startReplay(index, pickSnapshot(options.from, pos - 1));
+  if (!started.ok) return started;
+  const replay = started.value;
+  const start = replay.appliedCount;
+  const horizons = findAncestorHorizons(index, move.fromHolderId, pos, start);
+  const positions = collectAncestorMoves(index, horizons, start);
+  let carried: CompositionParts | undefined;
+  const replayed = replaySubgraph(index, replay, positions, horizons, (m, parts) => {
+    if (m.id === moveId) carried = parts;
+  });
+  if (!replayed.ok) return replayed;
+  invariant(carried !== undefined, `move ${moveId} is an ancestor move of itself but was not replayed`);
+  return ok(describeComposition(carried));
+}
+
+/**
+ * Forward trace: where the material of an origin set went. Origins of a pickup or delivery come from
+ * findEntryOrigins; origins of a lot are the origin ids of traceHolder(lot).received.
+ * One forward replay: O(moves × composition size), resumable from a snapshot.
+ */
+export function traceForward(
+  index: LedgerIndex,
+  originIds: readonly number[],
+  options: TraceOptions = {},
+): Result<ForwardTrace> {
+  const issues: TraceIssue[] = [];
+  for (const id of originIds) {
+    const pos = index.positionOf.get(id);
+    const m = pos === undefined ? undefined : index.moves[pos];
+    if (m === undefined || m.fromHolderId !== null) {
+      issues.push({
+        code: "TRACE.UNKNOWN_ORIGIN",
+        message: `Origin ${id} is not an entry move (a move with no source holder) of this ledger.`,
+        field: "originIds",
+        moveId: id,
+      });
+    }
+  }
+  if (issues.length > 0) return failMany(issues);
+  const set = new Set(originIds);
+  const target = findLastPositionAtOrBefore(index, options.at ?? Number.POSITIVE_INFINITY);
+  const from = pickSnapshot(options.from, target);
+  const receivedBy = new Map<number, number>();
+  const moves: Array<{ moveId: number; grams: number }> = [];
+  const replayed = replayLedger(index, {
+    ...(options.at === undefined ? {} : { until: options.at }),
+    ...(from === undefined ? {} : { from }),
+    onMove: (move, parts) => {
+      const grams = sumPartsOf(parts, set);
+      if (grams === 0) return;
+      moves.push({ moveId: move.id, grams });
+      receivedBy.set(move.toHolderId, (receivedBy.get(move.toHolderId) ?? 0) + grams);
+    },
+  });
+  if (!replayed.ok) return replayed;
+  const replay = replayed.value;
+  const heldBy = new Map<number, number>();
+  for (const h of replay.listStockedHolderIds()) {
+    const held = sumPartsOf(replay.getComposition(h), set);
+    if (held > 0) heldBy.set(h, held);
+  }
+  const holderIds = [...new Set([...receivedBy.keys(), ...heldBy.keys()])].sort((a, b) => a - b);
+  let enteredG = 0;
+  for (const id of set) {
+    const pos = index.positionOf.get(id) ?? Number.POSITIVE_INFINITY;
+    if (pos <= target) enteredG += index.moves[pos]?.massG ?? 0;
+  }
+  const last = index.moves[target];
+  return ok({
+    originIds: [...set].sort((a, b) => a - b),
+    enteredG,
+    asOf: last === undefined ? null : { moveId: last.id, at: last.at },
+    receivedSince: from === undefined ? null : from.applied.last,
+    holders: holderIds.map((holderId) => ({
+      holderId,
+      kind: requireHolderKind(index, holderId),
+      receivedG: receivedBy.get(holderId) ?? 0,
+      heldG: heldBy.get(holderId) ?? 0,
+    })),
+    moves,
+  });
+}
+
+/** Origins that entered the books at the given holders (pickups, deliveries, reagent lots), ledger order. */
+export function findEntryOrigins(index: LedgerIndex, holderIds: readonly number[]): number[] {
+  const positions: number[] = [];
+  for (const h of new Set(holderIds)) {
+    for (const pos of index.into.get(h) ?? []) {
+      if (index.moves[pos]?.fromHolderId === null) positions.push(pos);
+    }
+  }
+  return positions.sort((a, b) => a - b).flatMap((pos) => {
+    const m = index.moves[pos];
+    return m === undefined ? [] : [m.id];
+  });
+}
+
+/**
+ * Checks a stored snapshot against the ledger it claims to come from (same move count, same last move,
+ * same mass total up to it) and restores it. A move back-dated before the snapshot makes it stale.
+ */
+export function resumeReplay(index: LedgerIndex, snapshot: ReplaySnapshot): Result<Replay> {
+  const { count, massSumG, last } = snapshot.applied;
+  const pos = last === null ? -1 : (index.positionOf.get(last.moveId) ?? -2);
+  const sameLast = last === null || index.moves[pos]?.at === last.at;
+  if (pos !== count - 1 || !sameLast || index.massPrefixG[count] !== massSumG) {
+    return fail(
+      "TRACE.SNAPSHOT_STALE",
+      "The snapshot does not match this ledger up to its position (a move was added, removed or changed before it); rebuild it.",
+      "snapshot.applied",
+    );
+  }
+  return restoreReplay(index.holders, snapshot);
+}
+
+function requireHolderKind(index: LedgerIndex, holderId: number): HolderKind {
+  const holder = index.holders.get(holderId);
+  invariant(holder !== undefined, `holder ${holderId} was replayed but is not indexed`);
+  return holder.kind;
+}
+
+/** The snapshot, if it covers no move after `lastPosition`; one taken later cannot answer an earlier question. */
+function pickSnapshot(from: ReplaySnapshot | undefined, lastPosition: number): ReplaySnapshot | undefined {
+  return from !== undefined && from.applied.count <= lastPosition + 1 ? from : undefined;
+}
+
+function startReplay(index: LedgerIndex, from: ReplaySnapshot | undefined): Result<Replay> {
+  return from === undefined ? ok(createReplay(index.holders)) : resumeReplay(index, from);
+}
+
+/**
+ * For each ancestor holder, the last ledger position up to which its state matters. Horizons only grow,
+ * and each holder's incoming list is walked once overall, so this is O(ancestor moves).
+ */
+function findAncestorHorizons(index: LedgerIndex, holderId: number, horizon: number, start: number): Map<number, number> {
+  const horizons = new Map<number, number>();
+  const walked = new Map<number, number>();
+  const work: number[] = [];
+  const raise = (h: number, pos: number) => {
+    if ((horizons.get(h) ?? -1) < pos) {
+      horizons.set(h, pos);
+      work.push(h);
+    }
+  };
+  if (horizon >= start) raise(holderId, horizon);
+  for (let h = work.pop(); h !== undefined; h = work.pop()) {
+    const list = index.into.get(h) ?? [];
+    const limit = horizons.get(h) ?? -1;
+    let i = walked.get(h) ?? lowerBound(list, start);
+    for (let pos = list[i]; pos !== undefined && pos <= limit; pos = list[++i]) {
+      const from = index.moves[pos]?.fromHolderId ?? null;
+      if (from !== null) raise(from, pos);
+    }
+    walked.set(h, i);
+  }
+  return horizons;
+}
+
+function collectAncestorMoves(index: LedgerIndex, horizons: ReadonlyMap<number, number>, start: number): number[] {
+  const positions: number[] = [];
+  for (const [h, limit] of horizons) {
+    for (const list of [index.into.get(h) ?? [], index.outOf.get(h) ?? []]) {
+      for (let i = lowerBound(list, start), pos = list[i]; pos !== undefined && pos <= limit; pos = list[++i]) {
+        positions.push(pos);
+      }
+    }
+  }
+  positions.sort((a, b) => a - b);
+  return positions.filter((pos, i) => i === 0 || pos !== positions[i - 1]);
+}
+
+function replaySubgraph(
+  index: LedgerIndex,
+  replay: Replay,
+  positions: readonly number[],
+  horizons: ReadonlyMap<number, number>,
+  onMove: (move: TraceMove, parts: CompositionParts) => void,
+): Result<void> {
+  for (const pos of positions) {
+    const move = index.moves[pos];
+    if (move === undefined) continue;
+    const destinationNeeded = pos <= (horizons.get(move.toHolderId) ?? -1);
+    const applied = destinationNeeded ? replay.apply(move) : replay.withdraw(move);
+    if (!applied.ok) return applied;
+    onMove(move, applied.value);
+  }
+  return ok(undefined);
+}
+
+function lowerBound(list: readonly number[], value: number): number {
+  let lo = 0;
+  let hi = list.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if ((list[mid] ?? value) < value) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}

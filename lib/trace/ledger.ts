@@ -1,0 +1,184 @@
+import { failMany, ok } from "@/lib/errors";
+import type { DomainIssue, Result } from "@/lib/errors";
+import type { HolderKind, MixingModel } from "@/lib/ledger/kinds";
+
+export type { HolderKind };
+export type Mixing = MixingModel;
+
+export interface TraceHolder {
+  id: number;
+  kind: HolderKind;
+  mixing: Mixing;
+}
+
+export interface TraceMove {
+  /** Ledger order tiebreak between moves at the same instant. */
+  id: number;
+  /** Epoch milliseconds. */
+  at: number;
+  /** null = material enters the books here; the move's id then names a new origin. */
+  fromHolderId: number | null;
+  toHolderId: number;
+  /** Positive integer grams. */
+  massG: number;
+}
+
+/** A DomainIssue with the ids a caller needs to point at the offending row. */
+export interface TraceIssue extends DomainIssue {
+  moveId?: number;
+  holderId?: number;
+  shortfallG?: number;
+}
+
+/**
+ * Moves in ledger order plus per-holder position lists. Build it once per ledger version and reuse it
+ * across queries: every query then costs only what it replays.
+ */
+export interface LedgerIndex {
+  /** Sorted by (at, id). A move's position is its index here. */
+  readonly moves: readonly TraceMove[];
+  readonly holders: ReadonlyMap<number, TraceHolder>;
+  readonly positionOf: ReadonlyMap<number, number>;
+  /** Holder id → positions of the moves into it, ascending. */
+  readonly into: ReadonlyMap<number, readonly number[]>;
+  /** Holder id → positions of the moves out of it, ascending. */
+  readonly outOf: ReadonlyMap<number, readonly number[]>;
+  /** massPrefixG[p] = Σ massG of moves at positions < p; lets a snapshot be checked against the ledger. */
+  readonly massPrefixG: readonly number[];
+}
+
+export function compareMoves(a: Pick<TraceMove, "at" | "id">, b: Pick<TraceMove, "at" | "id">): number {
+  return a.at - b.at || a.id - b.id;
+}
+
+export function formatMoveField(moveId: number, key?: keyof TraceMove): string {
+  return key === undefined ? `moves.${moveId}` : `moves.${moveId}.${key}`;
+}
+
+/** Checks one move's own fields against the holder list; returns the issues found (empty = valid). */
+export function checkMove(move: TraceMove, holders: ReadonlyMap<number, TraceHolder>): TraceIssue[] {
+  const issues: TraceIssue[] = [];
+  const moveId = move.id;
+  if (!Number.isSafeInteger(move.id)) {
+    issues.push({ code: "TRACE.INVALID_MOVE", message: `Move id ${move.id} is not an integer.`, field: "moves.id", moveId });
+  }
+  if (!Number.isSafeInteger(move.massG) || move.massG <= 0) {
+    issues.push({
+      code: "TRACE.INVALID_MOVE",
+      message: `Move ${moveId}: mass must be a positive whole number of grams, got ${move.massG}.`,
+      field: formatMoveField(moveId, "massG"),
+      moveId,
+    });
+  }
+  if (!Number.isFinite(move.at)) {
+    issues.push({
+      code: "TRACE.INVALID_MOVE",
+      message: `Move ${moveId}: time must be a finite epoch-millisecond value, got ${move.at}.`,
+      field: formatMoveField(moveId, "at"),
+      moveId,
+    });
+  }
+  if (!holders.has(move.toHolderId)) {
+    issues.push({
+      code: "TRACE.UNKNOWN_HOLDER",
+      message: `Move ${moveId} goes to holder ${move.toHolderId}, which is not in the holder list.`,
+      field: formatMoveField(moveId, "toHolderId"),
+      moveId,
+      holderId: move.toHolderId,
+    });
+  }
+  if (move.fromHolderId !== null && !holders.has(move.fromHolderId)) {
+    issues.push({
+      code: "TRACE.UNKNOWN_HOLDER",
+      message: `Move ${moveId} comes from holder ${move.fromHolderId}, which is not in the holder list.`,
+      field: formatMoveField(moveId, "fromHolderId"),
+      moveId,
+      holderId: move.fromHolderId,
+    });
+  }
+  if (move.fromHolderId === move.toHolderId) {
+    issues.push({
+      code: "TRACE.SELF_MOVE",
+      message: `Move ${moveId} goes from holder ${move.toHolderId} to itself; a move must change holder.`,
+      field: formatMoveField(moveId, "toHolderId"),
+      moveId,
+      holderId: move.toHolderId,
+    });
+  }
+  return issues;
+}
+
+export function mapHolders(holders: readonly TraceHolder[]): Result<Map<number, TraceHolder>> {
+  const byId = new Map<number, TraceHolder>();
+  const issues: TraceIssue[] = [];
+  for (const h of holders) {
+    if (byId.has(h.id)) {
+      issues.push({
+        code: "TRACE.DUPLICATE_HOLDER",
+        message: `Holder ${h.id} is listed twice.`,
+        field: `holders.${h.id}`,
+        holderId: h.id,
+      });
+    }
+    byId.set(h.id, h);
+  }
+  return issues.length > 0 ? failMany(issues) : ok(byId);
+}
+
+/**
+ * Validates a ledger and indexes it. Pass the ledger with reversed pairs left out (a move and the move
+ * that reverses it): a reversal is a booking correction, not a physical flow, and replaying it as a
+ * flow would carry the holder's current mixture instead of cancelling the original move.
+ */
+export function indexLedger(holders: readonly TraceHolder[], moves: readonly TraceMove[]): Result<LedgerIndex> {
+  const mapped = mapHolders(holders);
+  if (!mapped.ok) return mapped;
+  const holderMap = mapped.value;
+  const issues: TraceIssue[] = [];
+  const seen = new Set<number>();
+  for (const m of moves) {
+    issues.push(...checkMove(m, holderMap));
+    if (seen.has(m.id)) {
+      issues.push({
+        code: "TRACE.DUPLICATE_MOVE",
+        message: `Move id ${m.id} appears more than once.`,
+        field: formatMoveField(m.id),
+        moveId: m.id,
+      });
+    }
+    seen.add(m.id);
+  }
+  if (issues.length > 0) return failMany(issues);
+
+  const sorted = [...moves].sort(compareMoves);
+  const positionOf = new Map<number, number>();
+  const into = new Map<number, number[]>();
+  const outOf = new Map<number, number[]>();
+  const massPrefixG: number[] = [0];
+  sorted.forEach((m, pos) => {
+    positionOf.set(m.id, pos);
+    pushTo(into, m.toHolderId, pos);
+    if (m.fromHolderId !== null) pushTo(outOf, m.fromHolderId, pos);
+    massPrefixG.push((massPrefixG[pos] ?? 0) + m.massG);
+  });
+  return ok({ moves: sorted, holders: holderMap, positionOf, into, outOf, massPrefixG });
+}
+
+/** Position of the last move with at ≤ t, or -1 when every move is later. */
+export function findLastPositionAtOrBefore(index: LedgerIndex, t: number): number {
+  let lo = 0;
+  let hi = index.moves.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    const m = index.moves[mid];
+    if (m !== undefined && m.at <= t) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo - 1;
+}
+
+function pushTo(map: Map<number, number[]>, key: number, value: number): void {
+  const list = map.get(key);
+  if (list === undefined) map.set(key, [value]);
+  else list.push(value);
+}

@@ -1,0 +1,264 @@
+import { fail, failMany, ok } from "@/lib/errors";
+import type { Result } from "@/lib/errors";
+import { addToLayer, copyToLayer, EMPTY_PARTS, mergeAllParts, settleLayer, takeFromLayer } from "@/lib/trace/composition";
+import type { CompositionParts, MutableLayer } from "@/lib/trace/composition";
+import { checkMove, compareMoves, formatMoveField } from "@/lib/trace/ledger";
+import type { Mixing, TraceHolder, TraceIssue, TraceMove } from "@/lib/trace/ledger";
+
+/**
+ * Replays the movement ledger keeping, per holder, grams per origin.
+ * MIXED: one pooled composition; a withdrawal takes every origin in proportion (allocateByWeight).
+ * FIFO: a queue of layers, one per incoming move; a withdrawal empties the oldest layers first and
+ * splits the last one it touches in proportion.
+ * Cost per move: O(composition size of the holders it touches); holders it doesn't touch cost nothing.
+ */
+export interface Replay {
+  /** Last move applied (ledger order), or null before the first. */
+  readonly position: ReplayPosition | null;
+  /** Moves applied so far, including those a restored snapshot had applied. */
+  readonly appliedCount: number;
+  /** Applies one move in ledger order; returns the composition the move carried. */
+  apply(move: TraceMove): Result<CompositionParts>;
+  /**
+   * Applies only the source side of a move: the material leaves its holder and is returned, but the
+   * destination is not booked. For ancestor-only replays whose destination's later state is not needed.
+   */
+  withdraw(move: TraceMove): Result<CompositionParts>;
+  getStockG(holderId: number): number;
+  /** Current composition of a holder, merged over its FIFO layers. */
+  getComposition(holderId: number): CompositionParts;
+  /** FIFO layers oldest first (a MIXED holder has at most one). */
+  getLayers(holderId: number): ReadonlyArray<{ enteredByMoveId: number; parts: CompositionParts }>;
+  /** Ids of holders with stock > 0. */
+  listStockedHolderIds(): number[];
+  /** Plain-JSON copy of the state, to store and resume from (resumeReplay checks it against the ledger). */
+  snapshot(): ReplaySnapshot;
+}
+
+export interface ReplayPosition {
+  moveId: number;
+  at: number;
+}
+
+export const REPLAY_SNAPSHOT_FORMAT = "tracevat.replay/1";
+
+export interface ReplaySnapshot {
+  format: typeof REPLAY_SNAPSHOT_FORMAT;
+  /** What had been applied: lets a reader check the snapshot still matches its ledger. */
+  applied: { count: number; massSumG: number; last: ReplayPosition | null };
+  holders: Array<{
+    holderId: number;
+    mixing: Mixing;
+    layers: Array<{ enteredByMoveId: number; originIds: number[]; grams: number[] }>;
+  }>;
+}
+
+interface Layer extends MutableLayer {
+  enteredByMoveId: number;
+}
+
+interface HolderState {
+  mixing: Mixing;
+  totalG: number;
+  layers: Layer[];
+  /** FIFO queue head; layers before it are spent. */
+  head: number;
+}
+
+const COMPACT_AFTER = 64;
+
+export function createReplay(holders: ReadonlyMap<number, TraceHolder>): Replay {
+  return buildReplay(holders, new Map(), { count: 0, massSumG: 0, last: null });
+}
+
+export function restoreReplay(holders: ReadonlyMap<number, TraceHolder>, snapshot: ReplaySnapshot): Result<Replay> {
+  const issues: TraceIssue[] = [];
+  const bad = (holderId: number, why: string) =>
+    issues.push({
+      code: "TRACE.SNAPSHOT_INVALID",
+      message: `Snapshot holder ${holderId}: ${why}`,
+      field: `snapshot.holders.${holderId}`,
+      holderId,
+    });
+  if (snapshot.format !== REPLAY_SNAPSHOT_FORMAT) {
+    return fail("TRACE.SNAPSHOT_INVALID", `Snapshot format "${String(snapshot.format)}" is not ${REPLAY_SNAPSHOT_FORMAT}.`, "snapshot.format");
+  }
+  const states = new Map<number, HolderState>();
+  for (const h of snapshot.holders) {
+    const holder = holders.get(h.holderId);
+    if (holder === undefined) {
+      bad(h.holderId, "not in the holder list.");
+      continue;
+    }
+    if (holder.mixing !== h.mixing) bad(h.holderId, `was replayed as ${h.mixing} but the holder is ${holder.mixing}.`);
+    if (h.mixing === "MIXED" && h.layers.length > 1) bad(h.holderId, "a MIXED holder has at most one layer.");
+    if (states.has(h.holderId)) bad(h.holderId, "listed twice.");
+    const layers: Layer[] = [];
+    for (const l of h.layers) {
+      const sorted = l.originIds.every((id, i) => Number.isSafeInteger(id) && (i === 0 || id > (l.originIds[i - 1] ?? id)));
+      const positive = l.grams.every((g) => Number.isSafeInteger(g) && g > 0);
+      if (!sorted || !positive || l.originIds.length !== l.grams.length || l.originIds.length === 0) {
+        bad(h.holderId, "each layer needs ascending origin ids with positive whole grams.");
+        continue;
+      }
+      layers.push({ enteredByMoveId: l.enteredByMoveId, ...copyToLayer(l) });
+    }
+    states.set(h.holderId, { mixing: h.mixing, totalG: layers.reduce((s, l) => s + l.totalG, 0), layers, head: 0 });
+  }
+  if (issues.length > 0) return failMany(issues);
+  return ok(buildReplay(holders, states, { ...snapshot.applied }));
+}
+
+function buildReplay(
+  holders: ReadonlyMap<number, TraceHolder>,
+  states: Map<number, HolderState>,
+  applied: { count: number; massSumG: number; last: ReplayPosition | null },
+): Replay {
+  const stateOf = (holderId: number): HolderState | undefined => states.get(holderId);
+
+  const requireState = (holderId: number): HolderState => {
+    let s = states.get(holderId);
+    if (s === undefined) {
+      s = { mixing: holders.get(holderId)?.mixing ?? "MIXED", totalG: 0, layers: [], head: 0 };
+      states.set(holderId, s);
+    }
+    return s;
+  };
+
+  const check = (move: TraceMove): Result<void> => {
+    const issues = checkMove(move, holders);
+    if (issues.length > 0) return failMany(issues);
+    if (applied.last !== null && compareMoves(move, { at: applied.last.at, id: applied.last.moveId }) <= 0) {
+      const issue: TraceIssue = {
+        code: "TRACE.OUT_OF_ORDER",
+        message: `Move ${move.id} (at ${move.at}) is not after the last applied move ${applied.last.moveId} (at ${applied.last.at}); replay moves in ledger order.`,
+        field: formatMoveField(move.id, "at"),
+        moveId: move.id,
+      };
+      return failMany([issue]);
+    }
+    if (move.fromHolderId !== null) {
+      const held = stateOf(move.fromHolderId)?.totalG ?? 0;
+      if (held < move.massG) {
+        const issue: TraceIssue = {
+          code: "TRACE.OVERDRAW",
+          message: `Move ${move.id} draws ${move.massG} g from holder ${move.fromHolderId}, which holds ${held} g at that time (short by ${move.massG - held} g).`,
+          field: formatMoveField(move.id, "massG"),
+          moveId: move.id,
+          holderId: move.fromHolderId,
+          shortfallG: move.massG - held,
+        };
+        return failMany([issue]);
+      }
+    }
+    return ok(undefined);
+  };
+
+  const take = (holderId: number, massG: number): CompositionParts => {
+    const s = requireState(holderId);
+    s.totalG -= massG;
+    if (s.mixing === "MIXED") {
+      const layer = s.layers[0];
+      if (layer === undefined) return EMPTY_PARTS;
+      const taken = takeFromLayer(layer, massG);
+      if (layer.totalG === 0) s.layers = [];
+      return taken;
+    }
+    const pieces: CompositionParts[] = [];
+    let left = massG;
+    for (let layer = s.layers[s.head]; layer !== undefined && left > 0; layer = s.layers[s.head]) {
+      const piece = Math.min(left, layer.totalG);
+      pieces.push(takeFromLayer(layer, piece));
+      left -= piece;
+      if (layer.totalG === 0) s.head++;
+    }
+    if (s.head >= COMPACT_AFTER && s.head * 2 >= s.layers.length) {
+      s.layers = s.layers.slice(s.head);
+      s.head = 0;
+    }
+    return mergeAllParts(pieces);
+  };
+
+  const put = (holderId: number, parts: CompositionParts, massG: number, moveId: number): void => {
+    const s = requireState(holderId);
+    s.totalG += massG;
+    const pool = s.mixing === "MIXED" ? s.layers[0] : undefined;
+    if (pool === undefined) s.layers.push({ enteredByMoveId: moveId, ...copyToLayer(parts) });
+    else addToLayer(pool, parts);
+  };
+
+  const advance = (move: TraceMove): void => {
+    applied.count += 1;
+    applied.massSumG += move.massG;
+    applied.last = { moveId: move.id, at: move.at };
+  };
+
+  const leave = (move: TraceMove): CompositionParts =>
+    move.fromHolderId === null ? { originIds: [move.id], grams: [move.massG] } : take(move.fromHolderId, move.massG);
+
+  const liveLayers = (s: HolderState): Layer[] => {
+    const live = s.layers.slice(s.head);
+    for (const l of live) settleLayer(l);
+    return live;
+  };
+
+  return {
+    get position() {
+      return applied.last === null ? null : { ...applied.last };
+    },
+    get appliedCount() {
+      return applied.count;
+    },
+    apply(move) {
+      const checked = check(move);
+      if (!checked.ok) return checked;
+      const parts = leave(move);
+      put(move.toHolderId, parts, move.massG, move.id);
+      advance(move);
+      return ok(parts);
+    },
+    withdraw(move) {
+      const checked = check(move);
+      if (!checked.ok) return checked;
+      const parts = leave(move);
+      advance(move);
+      return ok(parts);
+    },
+    getStockG(holderId) {
+      return stateOf(holderId)?.totalG ?? 0;
+    },
+    getComposition(holderId) {
+      const s = stateOf(holderId);
+      if (s === undefined) return EMPTY_PARTS;
+      const merged = mergeAllParts(liveLayers(s));
+      return { originIds: [...merged.originIds], grams: [...merged.grams] };
+    },
+    getLayers(holderId) {
+      const s = stateOf(holderId);
+      return s === undefined
+        ? []
+        : liveLayers(s).map((l) => ({ enteredByMoveId: l.enteredByMoveId, parts: { originIds: [...l.originIds], grams: [...l.grams] } }));
+    },
+    listStockedHolderIds() {
+      return [...states].filter(([, s]) => s.totalG > 0).map(([id]) => id).sort((a, b) => a - b);
+    },
+    snapshot() {
+      return {
+        format: REPLAY_SNAPSHOT_FORMAT,
+        applied: { count: applied.count, massSumG: applied.massSumG, last: applied.last === null ? null : { ...applied.last } },
+        holders: [...states]
+          .filter(([, s]) => s.totalG > 0)
+          .sort((a, b) => a[0] - b[0])
+          .map(([holderId, s]) => ({
+            holderId,
+            mixing: s.mixing,
+            layers: liveLayers(s).map((l) => ({
+              enteredByMoveId: l.enteredByMoveId,
+              originIds: [...l.originIds],
+              grams: [...l.grams],
+            })),
+          })),
+      };
+    },
+  };
+}
