@@ -95,7 +95,7 @@ export async function writeScenario(db: Db, ops: Op[], onProgress?: (done: numbe
     const actor: Actor = { siteId: site.id, userId: ids.get(op.actor) ?? 0, now: op.at };
     let result: Result<unknown>;
     if (op.kind === "closePeriod") {
-      result = await closePeriod(db, actor, periods.get(op.input.startsAt.getTime()) ?? 0);
+      result = await closePeriod(db, actor, { periodId: periods.get(op.input.startsAt.getTime()) ?? 0, reason: "month end close" });
     } else {
       result = await HANDLERS[op.kind].apply(db, actor, op.input);
       if (op.kind === "period" && result.ok) periods.set(new Date(op.input.startsAt as string | number | Date).getTime(), (result.value as { id: number }).id);

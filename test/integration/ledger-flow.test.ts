@@ -11,7 +11,7 @@ import { transferToTank } from "@/lib/tank/tank.service";
 import { completeBatch, planBatch, receiveReagent, startBatch } from "@/lib/batch/batch.service";
 import { decideProductLot, recordQcResult, shipProduct } from "@/lib/product/product.service";
 import { openWasteContainer, recordDisposal } from "@/lib/waste/container.service";
-import { closePeriod, openPeriod } from "@/lib/period/period.service";
+import { closePeriod, openPeriod, reopenPeriod } from "@/lib/period/period.service";
 import { DEFAULT_DENSITY_TABLE } from "@/lib/quantity/density";
 import type { Result } from "@/lib/errors";
 
@@ -163,10 +163,18 @@ describe.each(PROVIDERS)("movement ledger on %s", (provider) => {
 
   it("refuses bookings into a closed period", async () => {
     const p = value(await openPeriod(t.db, plant.compliance, { startsAt: "2026-01-01T00:00:00Z", endsAt: "2026-02-01T00:00:00Z" }));
-    value(await closePeriod(t.db, { ...plant.compliance, now: at("2026-02-05T00:00:00Z") }, p.id));
-    const r = await recordPickup(t.db, plant.collector, { code: "PU-OLD", sourceCode: "R1", material: "USED_COOKING_OIL", observedAt: "2026-01-20T09:00:00Z", containers: 1, volumeL: 20, tempC: 15 });
-    expect(codes(r)).toEqual([{ code: "PERIOD.CLOSED", field: "at" }]);
+    value(await closePeriod(t.db, { ...plant.compliance, now: at("2026-02-05T00:00:00Z") }, { periodId: p.id }));
+    const old = { code: "PU-OLD", sourceCode: "R1", material: "USED_COOKING_OIL", observedAt: "2026-01-20T09:00:00Z", containers: 1, volumeL: 20, tempC: 15 };
+    expect(codes(await recordPickup(t.db, plant.collector, old))).toEqual([{ code: "PERIOD.CLOSED", field: "at" }]);
     expect(await t.db.pickup.count({ where: { code: "PU-OLD" } })).toBe(0);
+    expect(codes(await reopenPeriod(t.db, plant.compliance, { periodId: p.id, reason: "" }))).toEqual([{ code: "INPUT.INVALID", field: "reason" }]);
+    value(await reopenPeriod(t.db, plant.compliance, { periodId: p.id, reason: "late pickup sheet found in truck 2" }));
+    value(await recordPickup(t.db, plant.collector, old));
+    const events = await t.db.periodEvent.findMany({ where: { periodId: p.id }, orderBy: { id: "asc" } });
+    expect(events.map((e) => [e.action, e.reason, e.byId])).toEqual([
+      ["CLOSE", "period end", plant.compliance.userId],
+      ["REOPEN", "late pickup sheet found in truck 2", plant.compliance.userId],
+    ]);
   });
 
   it("refuses UPDATE and DELETE on the ledger at the database level", async () => {
