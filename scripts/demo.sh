@@ -15,7 +15,11 @@ cat <<TXT
 
 Tracevat is running for the demo plant "Quillmoor Fuel Works":  http://127.0.0.1:${port}/
 Database: ${DATABASE_URL}   (npm run db:reset-demo rebuilds the demo)
-Demo people (sign-in arrives with accounts and roles): collector.ivo, production.tess, compliance.nell, admin.jory
+Demo accounts (password for all: quillmoor-demo):
+  collector.ivo, collector.mira, collector.odo   collectors
+  production.tess, production.rafe               production
+  compliance.nell                                compliance
+  admin.jory                                     administrator
 Stop with Ctrl+C.
 TXT
 exec node_modules/.bin/next start -H 127.0.0.1 -p "$port"

@@ -12,7 +12,8 @@ import type { DomainIssue, Result } from "@/lib/errors";
 import { deploy } from "@/prisma/migrate";
 import { buildScenario } from "@/seeds/scenario";
 import type { Op } from "@/seeds/scenario";
-import { PEOPLE, SITE } from "@/seeds/names";
+import { DEMO_PASSWORD, PEOPLE, SITE } from "@/seeds/names";
+import { hashPassword } from "@/lib/auth/password";
 import { insertSite, insertUser, countSites } from "@/lib/site/site.store";
 import type { Actor } from "@/lib/site/actor";
 import { SourceSchema } from "@/lib/source/source.schema";
@@ -89,7 +90,8 @@ export function validateScenario(ops: Op[]): void {
 export async function writeScenario(db: Db, ops: Op[], onProgress?: (done: number, total: number) => void): Promise<{ siteId: number }> {
   const site = await insertSite(db, SITE);
   const ids = new Map<string, number>();
-  for (const p of PEOPLE) ids.set(p.login, (await insertUser(db, { siteId: site.id, login: p.login, fullName: p.fullName, role: p.role })).id);
+  const passwordHash = await hashPassword(DEMO_PASSWORD);
+  for (const p of PEOPLE) ids.set(p.login, (await insertUser(db, { siteId: site.id, login: p.login, fullName: p.fullName, role: p.role, passwordHash })).id);
   const periods = new Map<number, number>();
   for (const [i, op] of ops.entries()) {
     const actor: Actor = { siteId: site.id, userId: ids.get(op.actor) ?? 0, now: op.at };

@@ -3,6 +3,8 @@
 
 export const SITE = { code: "QFW", name: "Quillmoor Fuel Works", town: "Quillmoor", timeZone: "UTC" } as const;
 
+/** Demo accounts only: their passwords are printed at start and listed in the README. */
+export const DEMO_PASSWORD = "quillmoor-demo";
 export const PEOPLE = [
   { login: "collector.ivo", fullName: "Ivo Brannick", role: "COLLECTOR" },
   { login: "collector.mira", fullName: "Mira Tolvane", role: "COLLECTOR" },

@@ -1,0 +1,45 @@
+import "server-only";
+import { cookies, headers } from "next/headers";
+import { getDb } from "@/lib/db";
+import type { Result } from "@/lib/errors";
+import { fail, ok } from "@/lib/errors";
+import type { SiteRole } from "@/lib/ledger/kinds";
+import type { Actor } from "@/lib/site/actor";
+import type { SessionUser } from "@/lib/auth/session.service";
+import { resolveSession } from "@/lib/auth/session.service";
+
+export type SignedIn = SessionUser & Actor;
+
+/** Secure cookies everywhere except plain-HTTP loopback (the demo on 127.0.0.1 / localhost). */
+export async function cookieIsSecure(): Promise<boolean> {
+  const h = await headers();
+  const host = (h.get("x-forwarded-host") ?? h.get("host") ?? "").replace(/:\d+$/, "");
+  const proto = h.get("x-forwarded-proto") ?? (["127.0.0.1", "localhost", "[::1]"].includes(host) ? "http" : "https");
+  return proto === "https";
+}
+
+export async function sessionCookieName(): Promise<string> {
+  return (await cookieIsSecure()) ? "__Host-tv_session" : "tv_session";
+}
+
+export async function getSessionToken(): Promise<string | null> {
+  const jar = await cookies();
+  return jar.get("__Host-tv_session")?.value ?? jar.get("tv_session")?.value ?? null;
+}
+
+/** The signed-in user for this request, checked against the session table (never trusted from the client). */
+export async function getSignedIn(): Promise<SignedIn | null> {
+  const token = await getSessionToken();
+  if (!token) return null;
+  const now = new Date();
+  const user = await resolveSession(await getDb(), token, now);
+  return user ? { ...user, now } : null;
+}
+
+/** Server-side authorisation for every action and route handler: signed in, and in one of the roles. */
+export async function requireRole(roles: readonly SiteRole[]): Promise<Result<SignedIn>> {
+  const user = await getSignedIn();
+  if (!user) return fail("AUTH.UNAUTHENTICATED", "Sign in first");
+  if (!roles.includes(user.role)) return fail("AUTH.FORBIDDEN", `This needs one of these roles: ${roles.map((r) => r.toLowerCase()).join(", ")}`);
+  return ok(user);
+}

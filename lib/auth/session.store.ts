@@ -1,0 +1,59 @@
+import "server-only";
+import type { Db } from "@/lib/database/connect";
+import type { SiteRole } from "@/lib/ledger/kinds";
+
+export interface UserForSignIn {
+  id: number;
+  siteId: number;
+  login: string;
+  fullName: string;
+  role: SiteRole;
+  passwordHash: string | null;
+  active: boolean;
+}
+
+export async function findUserByLogin(db: Db, login: string): Promise<UserForSignIn | null> {
+  const u = await db.user.findUnique({ where: { login }, select: { id: true, siteId: true, login: true, fullName: true, role: true, passwordHash: true, active: true } });
+  return u ? { ...u, role: u.role as SiteRole } : null;
+}
+
+export async function countRecentFailures(db: Db, by: { login?: string; ip?: string }, since: Date): Promise<number> {
+  return db.loginAttempt.count({ where: { ok: false, at: { gte: since }, ...(by.login ? { login: by.login } : {}), ...(by.ip ? { ip: by.ip } : {}) } });
+}
+
+export async function recordLoginAttempt(db: Db, a: { login: string; ip: string; ok: boolean; at: Date }): Promise<void> {
+  await db.loginAttempt.create({ data: a });
+}
+
+export async function insertSession(db: Db, s: { tokenHash: string; userId: number; createdAt: Date; expiresAt: Date }): Promise<void> {
+  await db.session.create({ data: { ...s, lastSeenAt: s.createdAt } });
+}
+
+export interface SessionWithUser {
+  id: number;
+  createdAt: Date;
+  lastSeenAt: Date;
+  expiresAt: Date;
+  revokedAt: Date | null;
+  user: { id: number; siteId: number; login: string; fullName: string; role: SiteRole; active: boolean; unitSystem: string };
+}
+
+export async function findSessionByTokenHash(db: Db, tokenHash: string): Promise<SessionWithUser | null> {
+  const s = await db.session.findUnique({
+    where: { tokenHash },
+    select: { id: true, createdAt: true, lastSeenAt: true, expiresAt: true, revokedAt: true, user: { select: { id: true, siteId: true, login: true, fullName: true, role: true, active: true, unitSystem: true } } },
+  });
+  return s ? { ...s, user: { ...s.user, role: s.user.role as SiteRole } } : null;
+}
+
+export async function touchSession(db: Db, id: number, now: Date): Promise<void> {
+  await db.session.update({ where: { id }, data: { lastSeenAt: now } });
+}
+
+export async function revokeSession(db: Db, tokenHash: string, now: Date): Promise<void> {
+  await db.session.updateMany({ where: { tokenHash, revokedAt: null }, data: { revokedAt: now } });
+}
+
+export async function revokeUserSessions(db: Db, userId: number, now: Date): Promise<number> {
+  return (await db.session.updateMany({ where: { userId, revokedAt: null }, data: { revokedAt: now } })).count;
+}
