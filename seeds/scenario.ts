@@ -180,7 +180,8 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
   let disposalSeq = 0;
   const haul = (box: SimWaste, day: number) => {
     disposalSeq++;
-    ops.push({ kind: "disposal", at: t(day, 10), actor: "compliance.nell", input: { documentNo: `MAN-${String(disposalSeq).padStart(4, "0")}`, hauler: pick(HAULERS), disposedAt: t(day, 10), containerCode: box.code, massKg: box.stockG / 1000 } });
+    // The hauler comes at the end of the day, after that day's batch outputs.
+    ops.push({ kind: "disposal", at: t(day, 18), actor: "compliance.nell", input: { documentNo: `MAN-${String(disposalSeq).padStart(4, "0")}`, hauler: pick(HAULERS), disposedAt: t(day, 18), containerCode: box.code, massKg: box.stockG / 1000 } });
     box.stockG = 0;
   };
   const glycerolHaulDays = [days - 180 + 40, days - 180 + 82, days - 84].filter((d) => d > 0 && d < days);
@@ -302,7 +303,7 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
       batchSeq++;
       const code = `B-${String(batchSeq).padStart(4, "0")}`;
       const pretreat = ffa > 5;
-      const h = 7 + b * 5;
+      const h = 11 + b * 5; // after the morning's lab decisions and tank transfers
       const oilKg = oilG / 1000;
       // Stoichiometry (facts.md §b.3, §d): 6:1 methanol at M(TG) ≈ 875 g/mol; KOH base dose 1 % of oil
       // (common practice) plus 1.986 g per kg per % FFA neutralised, at 90 % purity.

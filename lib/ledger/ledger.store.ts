@@ -78,6 +78,7 @@ export async function postMovement(tx: Tx, m: MovementDraft): Promise<number> {
   if (m.fromHolderId === m.toHolderId) reject("LEDGER.SAME_HOLDER", "A movement needs two different places", field);
   await assertPeriodOpen(tx, m.siteId, m.at);
   if (m.fromHolderId !== null) {
+    await assertDrawableThroughout(tx, m.fromHolderId, m.at, m.massG, field);
     const drawn = await tx.holder.updateMany({
       where: { id: m.fromHolderId, stockG: { gte: m.massG } },
       data: { stockG: { decrement: m.massG } },
@@ -109,6 +110,39 @@ export async function postMovement(tx: Tx, m: MovementDraft): Promise<number> {
     select: { id: true },
   });
   return row.id;
+}
+
+/**
+ * A back-dated draw must have been possible at its own time and must not leave the holder short at
+ * any later booking: the ledger stays consistent in date order, not only in entry order. Only the
+ * holder's movements after `at` are read, which for a booking made now is none.
+ */
+async function assertDrawableThroughout(tx: Tx, holderId: number, at: Date, massG: number, field: string): Promise<void> {
+  const later = await tx.movement.findMany({
+    where: { OR: [{ fromHolderId: holderId }, { toHolderId: holderId }], at: { gt: at } },
+    orderBy: [{ at: "asc" }, { id: "asc" }],
+    select: { fromHolderId: true, massG: true, at: true },
+  });
+  if (later.length === 0) return;
+  const holder = await tx.holder.findUniqueOrThrow({ where: { id: holderId }, select: { stockG: true, kind: true, code: true } });
+  let stock = later.reduce((s, mv) => s + (mv.fromHolderId === holderId ? mv.massG : -mv.massG), holder.stockG);
+  let lowest = stock;
+  let lowestAt = at;
+  for (const mv of later) {
+    stock += mv.fromHolderId === holderId ? -mv.massG : mv.massG;
+    if (stock < lowest) {
+      lowest = stock;
+      lowestAt = mv.at;
+    }
+  }
+  if (lowest < massG) {
+    const kg = (g: number) => (g / 1000).toLocaleString("en", { maximumFractionDigits: 3 });
+    reject(
+      "LEDGER.OVERDRAW_IN_TIME",
+      `${labelOf(holder.kind)} ${holder.code} held only ${kg(Math.max(0, lowest))} kg at ${lowestAt.toISOString().slice(0, 16).replace("T", " ")} UTC; a draw of ${kg(massG)} kg dated ${at.toISOString().slice(0, 16).replace("T", " ")} UTC would leave it short`,
+      field,
+    );
+  }
 }
 
 export interface LedgerRow {

@@ -4,6 +4,9 @@ import { createTestDb, PROVIDERS } from "./support/test-db";
 import { buildScenario } from "@/seeds/scenario";
 import type { Op } from "@/seeds/scenario";
 import { SeedError, validateScenario, writeScenario } from "@/seeds/load";
+import { indexLedger } from "@/lib/trace/ledger";
+import { replayLedger } from "@/lib/trace/genealogy";
+import type { HolderKind } from "@/lib/ledger/kinds";
 
 const ANCHOR = new Date("2026-12-02T00:00:00Z");
 
@@ -56,6 +59,18 @@ describe.each(PROVIDERS)("demo plant written through the services on %s", (provi
       expect(h.stockG).toBeGreaterThanOrEqual(0);
     }
     expect(holders.reduce((s, h) => s + h.stockG, 0)).toBe(entered);
+  });
+
+  it("is consistent in date order, so the genealogy replay accepts every movement", async () => {
+    const holders = await t.db.holder.findMany({ select: { id: true, kind: true, tank: { select: { mixing: true } } } });
+    const moves = await t.db.movement.findMany({ select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true } });
+    const index = indexLedger(
+      holders.map((h) => ({ id: h.id, kind: h.kind as HolderKind, mixing: h.tank?.mixing === "FIFO" ? "FIFO" : "MIXED" })),
+      moves.map((m) => ({ ...m, at: m.at.getTime() })),
+    );
+    if (!index.ok) throw new Error(JSON.stringify(index.issues));
+    const replay = replayLedger(index.value);
+    expect(replay.ok ? "replayed" : JSON.stringify(replay.issues.slice(0, 2))).toBe("replayed");
   });
 
   it("leaves feedstock tanks never emptied, lots awaiting the lab and a batch in progress", async () => {

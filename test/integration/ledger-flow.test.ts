@@ -99,6 +99,12 @@ describe.each(PROVIDERS)("movement ledger on %s", (provider) => {
     expect(await stock("TANK", "T1")).toBe(0);
   });
 
+  it("refuses a back-dated draw the holder could not have made at that time", async () => {
+    // The lot was received at 16:00 on 10 Feb; drawing from it at 12:00 that day is impossible.
+    const r = await transferToTank(t.db, plant.production, { fromKind: "LOT", fromCode: "L-1", toTankCode: "T1", at: "2026-02-10T12:00:00Z", massKg: 1 });
+    expect(codes(r)).toEqual([{ code: "LEDGER.OVERDRAW_IN_TIME", field: "massKg" }]);
+  });
+
   it("moves the lot into its tank and marks it used up", async () => {
     const held = await stock("LOT", "L-1");
     value(await transferToTank(t.db, plant.production, { fromKind: "LOT", fromCode: "L-1", toTankCode: "T1", at: "2026-02-11T08:00:00Z", massKg: held / 1000 }));

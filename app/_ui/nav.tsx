@@ -1,0 +1,35 @@
+"use client";
+import Link from "next/link";
+import { usePathname } from "next/navigation";
+
+const ITEMS: ReadonlyArray<readonly [string, string]> = [
+  ["/", "Today"],
+  ["/sources", "Sources"],
+  ["/pickups", "Pickups"],
+  ["/lots", "Lots"],
+  ["/tanks", "Tanks"],
+  ["/batches", "Batches"],
+  ["/products", "Product lots"],
+  ["/shipments", "Shipments"],
+  ["/waste", "Waste"],
+  ["/periods", "Periods"],
+  ["/ledger", "Ledger"],
+];
+
+export function MainNav() {
+  const path = usePathname();
+  const isCurrent = (href: string) => (href === "/" ? path === "/" : path === href || path.startsWith(`${href}/`));
+  return (
+    <nav className="main-nav" aria-label="Main">
+      <ul>
+        {ITEMS.map(([href, label]) => (
+          <li key={href}>
+            <Link href={href} aria-current={isCurrent(href) ? "page" : undefined}>
+              {label}
+            </Link>
+          </li>
+        ))}
+      </ul>
+    </nav>
+  );
+}

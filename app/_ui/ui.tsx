@@ -1,0 +1,144 @@
+import Link from "next/link";
+import type { ReactNode } from "react";
+import { labelOf } from "@/lib/ledger/kinds";
+import type { HolderRef, MovementView } from "@/lib/ledger/movement.store";
+import { kgExact, litres, when } from "@/app/_ui/format";
+import { hrefOf } from "@/app/_ui/links";
+
+export function HolderLink({ holder, showKind = true }: { holder: Pick<HolderRef, "kind" | "code"> | null; showKind?: boolean }) {
+  if (holder === null) return <span className="muted">outside the books</span>;
+  const href = hrefOf(holder.kind, holder.code);
+  return (
+    <span className="holder">
+      {showKind ? <span className="holder-kind">{labelOf(holder.kind)}</span> : null}
+      {href ? <Link href={href}>{holder.code}</Link> : <span className="code">{holder.code}</span>}
+    </span>
+  );
+}
+
+export function CodeLink({ href, code }: { href: string; code: string }) {
+  return (
+    <Link href={href} className="code">
+      {code}
+    </Link>
+  );
+}
+
+export function Status({ code }: { code: string }) {
+  return <span className={`status status-${code.toLowerCase()}`}>{labelOf(code)}</span>;
+}
+
+export function PassFail({ pass }: { pass: boolean }) {
+  return <span className={`status ${pass ? "status-pass" : "status-fail"}`}>{pass ? "Pass" : "Fail"}</span>;
+}
+
+export function Empty({ children }: { children: ReactNode }) {
+  return <p className="empty">{children}</p>;
+}
+
+export function Note({ children }: { children: ReactNode }) {
+  return <p className="note">{children}</p>;
+}
+
+export function NoSite() {
+  return (
+    <>
+      <h1>Nothing recorded yet</h1>
+      <Empty>No plant has been set up in this database. Load the demo plant or create a site to begin.</Empty>
+    </>
+  );
+}
+
+export function Facts({ items }: { items: Array<[string, ReactNode]> }) {
+  return (
+    <dl className="facts">
+      {items.map(([term, value]) => (
+        <div key={term}>
+          <dt>{term}</dt>
+          <dd>{value}</dd>
+        </div>
+      ))}
+    </dl>
+  );
+}
+
+export function Pager({ basePath, page, total, pageSize, query = {} }: { basePath: string; page: number; total: number; pageSize: number; query?: Record<string, string> }) {
+  const pages = Math.max(1, Math.ceil(total / pageSize));
+  if (pages <= 1) return null;
+  const href = (p: number) => `${basePath}?${new URLSearchParams({ ...query, page: String(p) }).toString()}`;
+  const near = [...new Set([1, page - 2, page - 1, page, page + 1, page + 2, pages])].filter((p) => p >= 1 && p <= pages).sort((a, b) => a - b);
+  return (
+    <nav className="pager" aria-label="Pages">
+      <span className="pager-summary">
+        Page {Math.min(page, pages)} of {pages} ({total} rows)
+      </span>
+      {page > 1 ? <Link href={href(page - 1)}>Previous</Link> : null}
+      {near.map((p, i) => (
+        <span key={p}>
+          {i > 0 && p - (near[i - 1] ?? p) > 1 ? <span className="muted"> … </span> : null}
+          {p === page ? (
+            <span aria-current="page" className="pager-current">
+              {p}
+            </span>
+          ) : (
+            <Link href={href(p)} aria-label={`Page ${p}`}>
+              {p}
+            </Link>
+          )}
+        </span>
+      ))}
+      {page < pages ? <Link href={href(page + 1)}>Next</Link> : null}
+    </nav>
+  );
+}
+
+/** Movements as a table; `side` hides the column that is always the page's own holder. */
+export function MovementTable({ rows, timeZone, side, caption }: { rows: MovementView[]; timeZone: string; side?: "from" | "to"; caption?: string }) {
+  return (
+    <div className="table-wrap">
+      <table>
+        {caption ? <caption>{caption}</caption> : null}
+        <thead>
+          <tr>
+            <th scope="col">When</th>
+            <th scope="col">Role</th>
+            {side !== "from" ? <th scope="col">From</th> : null}
+            {side !== "to" ? <th scope="col">To</th> : null}
+            <th scope="col" className="num">
+              Mass
+            </th>
+            <th scope="col" className="num">
+              Volume
+            </th>
+            <th scope="col">Note</th>
+          </tr>
+        </thead>
+        <tbody>
+          {rows.map((m) => (
+            <tr key={m.id}>
+              <td className="nowrap">{when(m.at, timeZone)}</td>
+              <td>{labelOf(m.role)}</td>
+              {side !== "from" ? (
+                <td>
+                  <HolderLink holder={m.from} />
+                </td>
+              ) : null}
+              {side !== "to" ? (
+                <td>
+                  <HolderLink holder={m.to} />
+                </td>
+              ) : null}
+              <td className="num">{kgExact(m.massG)}</td>
+              <td className="num">{m.volumeMl === null ? "—" : litres(m.volumeMl)}</td>
+              <td>
+                {m.note}
+                {m.reversesId !== null ? <span className="tag">reverses #{m.reversesId}</span> : null}
+                {m.reversedById !== null ? <span className="tag">reversed by #{m.reversedById}</span> : null}
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}

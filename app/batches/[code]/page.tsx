@@ -1,0 +1,118 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { labelOf } from "@/lib/ledger/kinds";
+import { getBatchDetail } from "@/lib/batch/batch.store";
+import { getMadeOf } from "@/lib/feedstock/lot-detail.store";
+import { kg, num, when } from "@/app/_ui/format";
+import { codeParam } from "@/app/_ui/links";
+import { MadeOf } from "@/app/_ui/made-of";
+import { loadSite } from "@/app/_ui/site";
+import { CodeLink, Empty, Facts, MovementTable, NoSite, Note, Status } from "@/app/_ui/ui";
+
+export const dynamic = "force-dynamic";
+
+type Props = { params: Promise<{ code: string }> };
+
+export async function generateMetadata({ params }: Props): Promise<Metadata> {
+  return { title: `Batch ${codeParam((await params).code)}` };
+}
+
+function prettyRecipe(json: string): string | null {
+  try {
+    const value: unknown = JSON.parse(json);
+    if (value === null || (typeof value === "object" && Object.keys(value).length === 0)) return null;
+    return JSON.stringify(value, null, 2);
+  } catch {
+    return json;
+  }
+}
+
+export default async function BatchPage({ params }: Props) {
+  const { db, site } = await loadSite();
+  if (!site) return <NoSite />;
+  const b = await getBatchDetail(db, site.id, codeParam((await params).code));
+  if (!b) notFound();
+  const madeOf = b.charges.length > 0 ? await getMadeOf(db, site.id, b.holderId) : { totalG: 0, shares: [], order: "dated" as const };
+  const tz = site.timeZone;
+  const chargedG = b.charges.reduce((s, m) => s + m.massG, 0);
+  const outG = b.outputs.reduce((s, m) => s + m.massG, 0);
+  const recipe = prettyRecipe(b.recipeJson);
+  return (
+    <>
+      <p className="crumbs">
+        <Link href="/batches">Batches</Link> /
+      </p>
+      <h1>Batch {b.code}</h1>
+      <Facts
+        items={[
+          ["Status", <Status key="s" code={b.status} />],
+          ["Planned", when(b.plannedAt, tz)],
+          ["Started", when(b.startedAt, tz)],
+          ["Finished", when(b.completedAt, tz)],
+          ["Target oil", kg(b.targetOilG)],
+          ["Methanol : oil molar ratio", `${num(b.molarRatio, 1)} : 1`],
+          ["Catalyst", labelOf(b.catalyst)],
+          ["Reaction temperature", `${num(b.reactionTempC, 1)} °C`],
+          ["Acid pretreatment", b.pretreated ? "Yes" : "No"],
+          ["Charged", kg(chargedG, 3)],
+          ["Out", kg(outG, 3)],
+          ["Still in the reactor", kg(b.stockG, 3)],
+        ]}
+      />
+      {b.notes ? <p>Notes: {b.notes}</p> : null}
+
+      <h2>Charges in</h2>
+      {b.charges.length === 0 ? <Empty>Nothing has been charged yet.</Empty> : <MovementTable rows={b.charges} timeZone={tz} side="to" />}
+
+      <h2>Feedstock and reagent lots in this batch</h2>
+      <MadeOf madeOf={madeOf} what="batch" />
+
+      <h2>Outputs</h2>
+      {b.outputs.length === 0 ? <Empty>No outputs recorded yet.</Empty> : <MovementTable rows={b.outputs} timeZone={tz} side="from" />}
+
+      <h2>Product lots</h2>
+      {b.products.length === 0 ? (
+        <Empty>This batch has made no product lot yet.</Empty>
+      ) : (
+        <div className="table-wrap">
+          <table>
+            <thead>
+              <tr>
+                <th scope="col">Product lot</th>
+                <th scope="col">Status</th>
+                <th scope="col" className="num">
+                  Mass made
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {b.products.map((p) => (
+                <tr key={p.code}>
+                  <td>
+                    <CodeLink href={`/products/${encodeURIComponent(p.code)}`} code={p.code} />
+                  </td>
+                  <td>
+                    <Status code={p.status} />
+                  </td>
+                  <td className="num">{kg(p.massG)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+
+      {recipe ? (
+        <>
+          <h2>Recipe as planned</h2>
+          <details>
+            <summary>Show the stored recipe</summary>
+            <pre className="recipe">{recipe}</pre>
+          </details>
+          <Note>The recipe is the plan; the charges above are what was actually put in.</Note>
+        </>
+      ) : null}
+    </>
+  );
+}

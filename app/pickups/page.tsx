@@ -1,0 +1,82 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { labelOf } from "@/lib/ledger/kinds";
+import { listPickups } from "@/lib/feedstock/pickup.store";
+import { kg, litres, num, when } from "@/app/_ui/format";
+import { PAGE_SIZE, pageParam } from "@/app/_ui/links";
+import { loadSite } from "@/app/_ui/site";
+import { CodeLink, Empty, NoSite, Pager } from "@/app/_ui/ui";
+
+export const dynamic = "force-dynamic";
+export const metadata: Metadata = { title: "Pickups" };
+
+export default async function PickupsPage({ searchParams }: { searchParams: Promise<{ page?: string | string[] }> }) {
+  const { db, site } = await loadSite();
+  if (!site) return <NoSite />;
+  const page = pageParam((await searchParams).page);
+  const { rows, total } = await listPickups(db, site.id, { skip: (page - 1) * PAGE_SIZE, take: PAGE_SIZE });
+  const tz = site.timeZone;
+  return (
+    <>
+      <h1>Pickups</h1>
+      <p className="lede">Each collection of oil at a source as the collector observed it, newest first. Masses are estimated from volume and temperature until the lot is measured at the plant.</p>
+      {total === 0 ? (
+        <Empty>No pickups recorded yet.</Empty>
+      ) : (
+        <>
+          <Pager basePath="/pickups" page={page} total={total} pageSize={PAGE_SIZE} />
+          <div className="table-wrap">
+            <table>
+              <thead>
+                <tr>
+                  <th scope="col">Pickup</th>
+                  <th scope="col">Observed</th>
+                  <th scope="col">Source</th>
+                  <th scope="col">Collector</th>
+                  <th scope="col">Material</th>
+                  <th scope="col" className="num">
+                    Containers
+                  </th>
+                  <th scope="col" className="num">
+                    Volume
+                  </th>
+                  <th scope="col" className="num">
+                    Temp.
+                  </th>
+                  <th scope="col" className="num">
+                    Mass
+                  </th>
+                  <th scope="col">Lot</th>
+                </tr>
+              </thead>
+              <tbody>
+                {rows.map((p) => (
+                  <tr key={p.code}>
+                    <td>
+                      <CodeLink href={`/pickups/${encodeURIComponent(p.code)}`} code={p.code} />
+                    </td>
+                    <td className="nowrap">{when(p.observedAt, tz)}</td>
+                    <td>
+                      <Link href={`/sources/${encodeURIComponent(p.sourceCode)}`} aria-label={`Source ${p.sourceCode} ${p.sourceName}`}>
+                        {p.sourceCode}
+                      </Link>{" "}
+                      <span className="muted">{p.sourceName}</span>
+                    </td>
+                    <td>{p.collector}</td>
+                    <td>{labelOf(p.material)}</td>
+                    <td className="num">{p.containers}</td>
+                    <td className="num">{litres(p.volumeMl)}</td>
+                    <td className="num">{num(p.tempC, 1)} °C</td>
+                    <td className="num">{kg(p.massG)}</td>
+                    <td>{p.lotCode ? <CodeLink href={`/lots/${encodeURIComponent(p.lotCode)}`} code={p.lotCode} /> : <span className="muted">not yet</span>}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+          <Pager basePath="/pickups" page={page} total={total} pageSize={PAGE_SIZE} />
+        </>
+      )}
+    </>
+  );
+}

@@ -1,0 +1,82 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { labelOf } from "@/lib/ledger/kinds";
+import { getHolderRef, listHolderMovements } from "@/lib/ledger/movement.store";
+import { listTankLevels } from "@/lib/site/dashboard.store";
+import { kg, litres, num, when } from "@/app/_ui/format";
+import { codeParam } from "@/app/_ui/links";
+import { loadSite } from "@/app/_ui/site";
+import { DensityNote, FillBar } from "@/app/_ui/tank-ui";
+import { Empty, Facts, MovementTable, NoSite, Note } from "@/app/_ui/ui";
+
+export const dynamic = "force-dynamic";
+
+type Props = { params: Promise<{ code: string }> };
+
+export async function generateMetadata({ params }: Props): Promise<Metadata> {
+  return { title: `Tank ${codeParam((await params).code)}` };
+}
+
+export default async function TankPage({ params }: Props) {
+  const { db, site } = await loadSite();
+  if (!site) return <NoSite />;
+  const code = codeParam((await params).code);
+  const tank = (await listTankLevels(db, site.id)).find((t) => t.code === code);
+  const holder = await getHolderRef(db, site.id, "TANK", code);
+  if (!tank || !holder) notFound();
+  const tz = site.timeZone;
+  const moves = await listHolderMovements(db, holder.id);
+  const sumIn = moves.incoming.reduce((s, m) => s + m.massG, 0);
+  const sumOut = moves.outgoing.reduce((s, m) => s + m.massG, 0);
+  return (
+    <>
+      <p className="crumbs">
+        <Link href="/tanks">Tanks</Link> /
+      </p>
+      <h1>
+        Tank {tank.code}: {tank.name}
+      </h1>
+      <Facts
+        items={[
+          ["Service", labelOf(tank.service)],
+          ["Mixing model", labelOf(tank.mixing)],
+          ["Capacity", litres(tank.capacityMl, 0)],
+          ["Book stock", kg(tank.stockG, 3)],
+          ["Fill (estimate)", <FillBar key="f" tank={tank} />],
+          ["Nominal density", `${num(tank.nominalDensityKgM3, 1)} kg/m³ (${tank.nominalDensityStatus})`],
+          [
+            "Last gauge",
+            tank.lastGauge ? `${litres(tank.lastGauge.volumeMl)} = ${kg(tank.lastGauge.massG)} on ${when(tank.lastGauge.at, tz)}` : "never gauged",
+          ],
+        ]}
+      />
+      <DensityNote tanks={[tank]} />
+
+      <h2>Movements in</h2>
+      {moves.incomingTotal === 0 ? (
+        <Empty>Nothing has been moved into this tank yet.</Empty>
+      ) : (
+        <>
+          <MovementTable rows={moves.incoming} timeZone={tz} side="to" />
+          <Note>
+            {moves.incomingTotal > moves.incoming.length ? `First ${moves.incoming.length} of ${moves.incomingTotal} shown; ` : ""}
+            {moves.incoming.length} movements, {kg(sumIn)} in total.
+          </Note>
+        </>
+      )}
+      <h2>Movements out</h2>
+      {moves.outgoingTotal === 0 ? (
+        <Empty>Nothing has been drawn from this tank yet.</Empty>
+      ) : (
+        <>
+          <MovementTable rows={moves.outgoing} timeZone={tz} side="from" />
+          <Note>
+            {moves.outgoingTotal > moves.outgoing.length ? `First ${moves.outgoing.length} of ${moves.outgoingTotal} shown; ` : ""}
+            {moves.outgoing.length} movements, {kg(sumOut)} in total.
+          </Note>
+        </>
+      )}
+    </>
+  );
+}

@@ -1,0 +1,171 @@
+import type { Metadata } from "next";
+import { labelOf } from "@/lib/ledger/kinds";
+import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import { getWasteDueBoard, listDisposals, listWasteContainers } from "@/lib/waste/container.store";
+import { day, daysBetween, kg, litres, num, pct, when } from "@/app/_ui/format";
+import { loadSite } from "@/app/_ui/site";
+import { Empty, NoSite, Note, Status } from "@/app/_ui/ui";
+
+export const dynamic = "force-dynamic";
+export const metadata: Metadata = { title: "Waste" };
+
+const HAZARD: Readonly<Record<string, string>> = {
+  HAZARDOUS: "Hazardous",
+  NEEDS_CHARACTERISATION: "Needs characterisation",
+  NON_HAZARDOUS: "Not hazardous",
+};
+
+function characterisation(c: { methanolPct: number | null; pH: number | null; flashPointC: number | null; waterPct: number | null }): string {
+  const parts = [
+    c.methanolPct === null ? null : `methanol ${pct(c.methanolPct, 1)}`,
+    c.pH === null ? null : `pH ${num(c.pH, 1)}`,
+    c.flashPointC === null ? null : `flash point ${num(c.flashPointC, 0)} °C`,
+    c.waterPct === null ? null : `water ${pct(c.waterPct, 1)}`,
+  ].filter((p): p is string => p !== null);
+  return parts.length === 0 ? "not measured" : parts.join(", ");
+}
+
+export default async function WastePage() {
+  const { db, site } = await loadSite();
+  if (!site) return <NoSite />;
+  const now = new Date();
+  const [containers, disposals, due] = await Promise.all([
+    listWasteContainers(db, site.id),
+    listDisposals(db, site.id),
+    getWasteDueBoard(db, site.id, now, getUtcOffsetMin(site.timeZone, now)),
+  ]);
+  const tz = site.timeZone;
+  return (
+    <>
+      <h1>Waste</h1>
+      <p className="lede">Containers that collect glycerol phase, wash water, spent filter media and other waste streams, and the hauls that took them away.</p>
+
+      <h2>Containers</h2>
+      {containers.length === 0 ? (
+        <Empty>No waste containers recorded yet.</Empty>
+      ) : (
+        <>
+          <div className="table-wrap">
+            <table>
+              <thead>
+                <tr>
+                  <th scope="col">Container</th>
+                  <th scope="col">Stream</th>
+                  <th scope="col">Status</th>
+                  <th scope="col">Started</th>
+                  <th scope="col" className="num">
+                    Days on site
+                  </th>
+                  <th scope="col">Due off site</th>
+                  <th scope="col">Hazard</th>
+                  <th scope="col" className="num">
+                    Book stock
+                  </th>
+                  <th scope="col" className="num">
+                    Capacity
+                  </th>
+                  <th scope="col">Characterisation</th>
+                </tr>
+              </thead>
+              <tbody>
+                {containers.map((c) => {
+                  const d = due?.byCode.get(c.code);
+                  const onSite = c.status !== "SHIPPED";
+                  return (
+                    <tr key={c.code} id={c.code}>
+                      <td className="nowrap">
+                        {c.code}
+                        {c.satellite ? <span className="tag">satellite</span> : null}
+                      </td>
+                      <td>{labelOf(c.stream)}</td>
+                      <td>
+                        <Status code={c.status} />
+                      </td>
+                      <td className="nowrap">{day(c.accumulationStart, tz)}</td>
+                      <td className="num">{onSite ? daysBetween(c.accumulationStart, now) : "—"}</td>
+                      <td className="nowrap">
+                        {!onSite ? (
+                          <span className="muted">hauled away</span>
+                        ) : d === undefined ? (
+                          <span className="muted">not assessed</span>
+                        ) : d.dueDate === null ? (
+                          <span className="muted" title={d.status}>
+                            no time limit
+                          </span>
+                        ) : (
+                          <span title={`${d.source}: ${d.status}`}>
+                            {d.dueDate} {d.overdue ? <span className="status status-overdue">overdue</span> : <span className="muted">({d.daysLeft} d)</span>}
+                          </span>
+                        )}
+                      </td>
+                      <td>{d ? (HAZARD[d.hazard] ?? d.hazard) : <span className="muted">—</span>}</td>
+                      <td className="num">{kg(c.stockG)}</td>
+                      <td className="num">{litres(c.capacityMl, 0)}</td>
+                      <td>{characterisation(c)}</td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+          </div>
+          {due ? (
+            <>
+              <Note>
+                Due dates from {due.ruleSet}. {due.assumption.note} Containers marked satellite are treated as one satellite area, with
+                their volume estimated from book mass at a nominal density. {due.note}
+              </Note>
+              {due.issues.length > 0 ? (
+                <ul className="warning" aria-label="Waste warnings">
+                  {due.issues.map((i) => (
+                    <li key={i}>{i}</li>
+                  ))}
+                </ul>
+              ) : null}
+            </>
+          ) : (
+            <Note>Due dates could not be worked out from the recorded data; days on site count from the accumulation start.</Note>
+          )}
+        </>
+      )}
+
+      <h2>Disposals</h2>
+      {disposals.length === 0 ? (
+        <Empty>No waste has been hauled away yet.</Empty>
+      ) : (
+        <div className="table-wrap">
+          <table>
+            <thead>
+              <tr>
+                <th scope="col">Manifest or document</th>
+                <th scope="col">Collected</th>
+                <th scope="col">Hauler</th>
+                <th scope="col">From containers</th>
+                <th scope="col" className="num">
+                  Mass
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {disposals.map((d) => (
+                <tr key={d.documentNo} id={d.documentNo}>
+                  <td className="nowrap">{d.documentNo}</td>
+                  <td className="nowrap">{when(d.disposedAt, tz)}</td>
+                  <td>{d.hauler}</td>
+                  <td>
+                    {d.containerCodes.map((c, i) => (
+                      <span key={c}>
+                        {i > 0 ? ", " : ""}
+                        <a href={`#${encodeURIComponent(c)}`}>{c}</a>
+                      </span>
+                    ))}
+                  </td>
+                  <td className="num">{kg(d.massG)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </>
+  );
+}

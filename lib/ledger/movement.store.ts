@@ -1,0 +1,177 @@
+import "server-only";
+import type { Db } from "@/lib/database/connect";
+import { invariant } from "@/lib/errors";
+import { HOLDER_KINDS, MOVE_ROLES } from "@/lib/ledger/kinds";
+import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
+import type { TraceHolder, TraceMove } from "@/lib/trace/ledger";
+
+/** A place that held material, as the pages name and link it. */
+export interface HolderRef {
+  id: number;
+  kind: HolderKind;
+  code: string;
+}
+
+export interface MovementView {
+  id: number;
+  at: Date;
+  role: MoveRole;
+  from: HolderRef | null;
+  to: HolderRef;
+  massG: number;
+  volumeMl: number | null;
+  tempC: number | null;
+  note: string;
+  recordedBy: string;
+  /** The movement this one cancels, if it is a reversal. */
+  reversesId: number | null;
+  /** Id of the movement that cancels this one, if any. */
+  reversedById: number | null;
+}
+
+const KIND_SET: ReadonlySet<string> = new Set(HOLDER_KINDS);
+const ROLE_SET: ReadonlySet<string> = new Set(MOVE_ROLES);
+
+export function toHolderKind(kind: string): HolderKind {
+  invariant(KIND_SET.has(kind), `unknown holder kind ${kind} in the database`);
+  return kind as HolderKind;
+}
+
+function toMoveRole(role: string): MoveRole {
+  invariant(ROLE_SET.has(role), `unknown movement role ${role} in the database`);
+  return role as MoveRole;
+}
+
+const HOLDER_SELECT = { id: true, kind: true, code: true } as const;
+const MOVEMENT_INCLUDE = {
+  fromHolder: { select: HOLDER_SELECT },
+  toHolder: { select: HOLDER_SELECT },
+  recordedBy: { select: { fullName: true } },
+  reversedBy: { select: { id: true } },
+} as const;
+
+interface HolderRow {
+  id: number;
+  kind: string;
+  code: string;
+}
+
+function toRef(h: HolderRow): HolderRef {
+  return { id: h.id, kind: toHolderKind(h.kind), code: h.code };
+}
+
+function toView(r: {
+  id: number;
+  at: Date;
+  role: string;
+  fromHolder: HolderRow | null;
+  toHolder: HolderRow;
+  massG: number;
+  volumeMl: number | null;
+  tempC: number | null;
+  note: string;
+  recordedBy: { fullName: string };
+  reversesId: number | null;
+  reversedBy: { id: number } | null;
+}): MovementView {
+  return {
+    id: r.id,
+    at: r.at,
+    role: toMoveRole(r.role),
+    from: r.fromHolder ? toRef(r.fromHolder) : null,
+    to: toRef(r.toHolder),
+    massG: r.massG,
+    volumeMl: r.volumeMl,
+    tempC: r.tempC,
+    note: r.note,
+    recordedBy: r.recordedBy.fullName,
+    reversesId: r.reversesId,
+    reversedById: r.reversedBy?.id ?? null,
+  };
+}
+
+/** The ledger newest first, one page at a time. */
+export async function listMovementPage(db: Db, siteId: number, opts: { skip?: number; take?: number } = {}): Promise<{ rows: MovementView[]; total: number }> {
+  const where = { siteId };
+  const [rows, total] = await Promise.all([
+    db.movement.findMany({
+      where,
+      orderBy: [{ at: "desc" }, { id: "desc" }],
+      skip: opts.skip ?? 0,
+      take: opts.take ?? 100,
+      include: MOVEMENT_INCLUDE,
+    }),
+    db.movement.count({ where }),
+  ]);
+  return { rows: rows.map(toView), total };
+}
+
+export interface HolderMovements {
+  incoming: MovementView[];
+  outgoing: MovementView[];
+  incomingTotal: number;
+  outgoingTotal: number;
+}
+
+/** Movements into and out of one holder, oldest first; at most `take` of each direction. */
+export async function listHolderMovements(db: Db, holderId: number, opts: { take?: number } = {}): Promise<HolderMovements> {
+  const take = opts.take ?? 500;
+  const [incoming, outgoing, incomingTotal, outgoingTotal] = await Promise.all([
+    db.movement.findMany({ where: { toHolderId: holderId }, orderBy: [{ at: "asc" }, { id: "asc" }], take, include: MOVEMENT_INCLUDE }),
+    db.movement.findMany({ where: { fromHolderId: holderId }, orderBy: [{ at: "asc" }, { id: "asc" }], take, include: MOVEMENT_INCLUDE }),
+    db.movement.count({ where: { toHolderId: holderId } }),
+    db.movement.count({ where: { fromHolderId: holderId } }),
+  ]);
+  return { incoming: incoming.map(toView), outgoing: outgoing.map(toView), incomingTotal, outgoingTotal };
+}
+
+export async function getHolderRef(db: Db, siteId: number, kind: HolderKind, code: string): Promise<(HolderRef & { stockG: number }) | null> {
+  const h = await db.holder.findUnique({ where: { siteId_kind_code: { siteId, kind, code } }, select: { ...HOLDER_SELECT, stockG: true } });
+  return h ? { ...toRef(h), stockG: h.stockG } : null;
+}
+
+export interface TraceLedger {
+  holders: TraceHolder[];
+  moves: TraceMove[];
+  /** Every holder of the site by id, to name the trace's answers. */
+  refs: ReadonlyMap<number, HolderRef>;
+  /** Movements left out of the trace because they are reversed pairs (a booking error and its correction). */
+  reversedPairsLeftOut: number;
+}
+
+/**
+ * The whole site ledger in the trace core's shape. Reversed pairs are left out: a reversal corrects a
+ * booking, it is not a physical flow (see indexLedger).
+ */
+export async function loadTraceLedger(db: Db, siteId: number): Promise<TraceLedger> {
+  const [holderRows, tanks, moveRows] = await Promise.all([
+    db.holder.findMany({ where: { siteId }, select: HOLDER_SELECT }),
+    db.tank.findMany({ where: { siteId }, select: { holderId: true, mixing: true } }),
+    db.movement.findMany({ where: { siteId }, select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, reversesId: true } }),
+  ]);
+  const fifo = new Set(tanks.filter((t) => t.mixing === "FIFO").map((t) => t.holderId));
+  const refs = new Map<number, HolderRef>(holderRows.map((h) => [h.id, toRef(h)]));
+  const holders: TraceHolder[] = [...refs.values()].map((h) => ({ id: h.id, kind: h.kind, mixing: fifo.has(h.id) ? "FIFO" : "MIXED" }));
+  const paired = new Set<number>();
+  for (const m of moveRows) {
+    if (m.reversesId !== null) {
+      paired.add(m.id);
+      paired.add(m.reversesId);
+    }
+  }
+  const moves: TraceMove[] = moveRows
+    .filter((m) => !paired.has(m.id))
+    .map((m) => ({ id: m.id, at: m.at.getTime(), fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG }));
+  return { holders, moves, refs, reversedPairsLeftOut: paired.size };
+}
+
+/** Movements by id with their holders, for naming the moves a trace reports. */
+export async function listMovementsById(db: Db, siteId: number, ids: readonly number[]): Promise<Map<number, MovementView>> {
+  const found = new Map<number, MovementView>();
+  // Chunked so a long trace stays under SQLite's bound-parameter limit.
+  for (let i = 0; i < ids.length; i += 500) {
+    const rows = await db.movement.findMany({ where: { siteId, id: { in: ids.slice(i, i + 500) } }, include: MOVEMENT_INCLUDE });
+    for (const r of rows) found.set(r.id, toView(r));
+  }
+  return found;
+}

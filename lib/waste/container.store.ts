@@ -1,0 +1,188 @@
+import "server-only";
+import type { Db } from "@/lib/database/connect";
+import { WASTE_STREAMS } from "@/lib/ledger/kinds";
+import type { WasteStream } from "@/lib/ledger/kinds";
+import { DEFAULT_DENSITY_TABLE, DEFAULT_REFERENCE_TEMP_C, densityAt, requireDensityEntry } from "@/lib/quantity/density";
+import type { MaterialKind } from "@/lib/quantity/density";
+import { listWasteDue } from "@/lib/waste/waste-due";
+import type { GeneratorCategory, WasteContainerInput } from "@/lib/waste/waste-due";
+import { MAX_DUE_HORIZON_DAYS } from "@/lib/waste/waste.schema";
+
+export interface WasteContainerRow {
+  code: string;
+  stream: string;
+  accumulationStart: Date;
+  capacityMl: number;
+  satellite: boolean;
+  methanolPct: number | null;
+  pH: number | null;
+  flashPointC: number | null;
+  waterPct: number | null;
+  status: string;
+  stockG: number;
+}
+
+/** Containers by accumulation start, oldest first; `statuses` narrows to e.g. those still on site. */
+export async function listWasteContainers(db: Db, siteId: number, opts: { statuses?: readonly string[] } = {}): Promise<WasteContainerRow[]> {
+  const rows = await db.wasteContainer.findMany({
+    where: { siteId, ...(opts.statuses ? { status: { in: [...opts.statuses] } } : {}) },
+    orderBy: [{ accumulationStart: "asc" }, { id: "asc" }],
+    include: { holder: { select: { stockG: true } } },
+  });
+  return rows.map((r) => ({
+    code: r.code,
+    stream: r.stream,
+    accumulationStart: r.accumulationStart,
+    capacityMl: r.capacityMl,
+    satellite: r.satellite,
+    methanolPct: r.methanolPct,
+    pH: r.pH,
+    flashPointC: r.flashPointC,
+    waterPct: r.waterPct,
+    status: r.status,
+    stockG: r.holder.stockG,
+  }));
+}
+
+export interface DisposalRow {
+  documentNo: string;
+  hauler: string;
+  disposedAt: Date;
+  massG: number;
+  /** Containers it was collected from (the sources of its incoming movements). */
+  containerCodes: string[];
+}
+
+export async function listDisposals(db: Db, siteId: number): Promise<DisposalRow[]> {
+  const rows = await db.disposal.findMany({
+    where: { siteId },
+    orderBy: [{ disposedAt: "desc" }, { id: "desc" }],
+    include: { holder: { select: { incoming: { orderBy: { id: "asc" }, select: { fromHolder: { select: { code: true } } } } } } },
+  });
+  return rows.map((r) => ({
+    documentNo: r.documentNo,
+    hauler: r.hauler,
+    disposedAt: r.disposedAt,
+    massG: r.massG,
+    containerCodes: [...new Set(r.holder.incoming.flatMap((m) => (m.fromHolder ? [m.fromHolder.code] : [])))],
+  }));
+}
+
+export interface WasteDueAssumption {
+  generatorCategory: GeneratorCategory;
+  tsdfDistanceMiles: number | null;
+  note: string;
+}
+
+/**
+ * The site's generator category is not recorded yet, so due dates assume the strictest federal
+ * category (the shortest accumulation time); a caller that knows the category passes its own.
+ */
+export const DEFAULT_WASTE_DUE_ASSUMPTION: WasteDueAssumption = {
+  generatorCategory: "LQG",
+  tsdfDistanceMiles: null,
+  note: "Generator category not recorded for this site: due dates assume a large quantity generator, the shortest federal accumulation time.",
+};
+
+const STREAM_MATERIAL: Readonly<Record<string, MaterialKind>> = {
+  GLYCEROL_PHASE: "GLYCEROL",
+  WASH_WATER: "WATER",
+  METHANOL_RICH: "METHANOL",
+  FILTER_MEDIA: "WATER",
+  OTHER: "WATER",
+};
+
+export interface WasteDueRow {
+  code: string;
+  basis: string;
+  dueAt: Date | null;
+  dueDate: string | null;
+  limitDays: number | null;
+  source: string;
+  status: string;
+  hazard: string;
+  overdue: boolean;
+  daysLeft: number | null;
+}
+
+export interface WasteDueBoard {
+  byCode: Map<string, WasteDueRow>;
+  issues: string[];
+  ruleSet: string;
+  note: string;
+  assumption: WasteDueAssumption;
+}
+
+/** Due dates of the containers still on site, from lib/waste/waste-due under the given assumption. */
+export async function getWasteDueBoard(
+  db: Db,
+  siteId: number,
+  now: Date,
+  utcOffsetMin: number,
+  assumption: WasteDueAssumption = DEFAULT_WASTE_DUE_ASSUMPTION,
+): Promise<WasteDueBoard | null> {
+  const onSite = await listWasteContainers(db, siteId, { statuses: ["OPEN", "FULL"] });
+  const streams: ReadonlySet<string> = new Set(WASTE_STREAMS);
+  const containers: WasteContainerInput[] = onSite.flatMap((c, i) => {
+    if (!streams.has(c.stream)) return [];
+    // The ledger keeps grams; the satellite volume limit needs litres, estimated with the stream's nominal density.
+    const rho = densityAt(requireDensityEntry(DEFAULT_DENSITY_TABLE, STREAM_MATERIAL[c.stream] ?? "WATER"), DEFAULT_REFERENCE_TEMP_C);
+    return [
+      {
+        id: i + 1,
+        code: c.code,
+        stream: c.stream as WasteStream,
+        massG: c.stockG,
+        volumeMl: Math.round((c.stockG * 1000) / rho),
+        accumulationStartAt: c.accumulationStart.getTime(),
+        satelliteAreaId: c.satellite ? "SITE_SATELLITE_AREA" : null,
+        characterisation: { methanolPct: c.methanolPct, pH: c.pH, flashPointC: c.flashPointC, waterPct: c.waterPct },
+      },
+    ];
+  });
+  const report = listWasteDue({
+    containers,
+    site: { generatorCategory: assumption.generatorCategory, tsdfDistanceMiles: assumption.tsdfDistanceMiles, utcOffsetMin },
+    now: now.getTime(),
+    withinDays: MAX_DUE_HORIZON_DAYS,
+  });
+  if (!report.ok) return null;
+  const byCode = new Map<string, WasteDueRow>();
+  for (const g of report.value.groups) {
+    for (const d of g.items) {
+      byCode.set(d.code, {
+        code: d.code,
+        basis: d.basis,
+        dueAt: d.dueAt === null ? null : new Date(d.dueAt),
+        dueDate: d.dueDate,
+        limitDays: d.limitDays,
+        source: d.source,
+        status: d.status,
+        hazard: d.hazard.overall,
+        overdue: d.overdue,
+        daysLeft: d.daysLeft,
+      });
+    }
+  }
+  for (const d of report.value.noTimeLimit) {
+    byCode.set(d.code, {
+      code: d.code,
+      basis: d.basis,
+      dueAt: null,
+      dueDate: null,
+      limitDays: null,
+      source: d.source,
+      status: d.status,
+      hazard: d.hazard.overall,
+      overdue: false,
+      daysLeft: null,
+    });
+  }
+  return {
+    byCode,
+    issues: report.value.issues.map((i) => i.message),
+    ruleSet: report.value.ruleSet.name,
+    note: report.value.note,
+    assumption,
+  };
+}
