@@ -1,7 +1,9 @@
 import type { Metadata } from "next";
 import type { ReactNode } from "react";
 import { MainNav } from "@/app/_ui/nav";
-import { loadSite } from "@/app/_ui/site";
+import { loadHeader } from "@/app/_ui/site";
+import { signOutAction } from "@/app/login/actions";
+import { labelOf } from "@/lib/ledger/kinds";
 import "./globals.css";
 
 // Every page reads the books; nothing is prerendered at build time (the not-found page included).
@@ -13,7 +15,7 @@ export const metadata: Metadata = {
 };
 
 export default async function RootLayout({ children }: { children: ReactNode }) {
-  const { site } = await loadSite();
+  const { site, user } = await loadHeader();
   return (
     <html lang="en">
       <body>
@@ -23,9 +25,19 @@ export default async function RootLayout({ children }: { children: ReactNode }) 
         <header className="site-header">
           <div className="brand">
             <span className="brand-name">Tracevat</span>
-            <span className="brand-site">{site ? `${site.name} · ${site.town}` : "No site set up"}</span>
+            <span className="brand-site">{site ? `${site.name} · ${site.town}` : user ? "No site set up" : ""}</span>
           </div>
-          <MainNav />
+          {user ? (
+            <form action={signOutAction} className="who">
+              <span>
+                {user.fullName} <span className="muted">({labelOf(user.role)})</span>
+              </span>
+              <button type="submit" className="link-button">
+                Sign out
+              </button>
+            </form>
+          ) : null}
+          {user ? <MainNav /> : null}
         </header>
         <main id="main" tabIndex={-1}>
           {children}

@@ -26,3 +26,7 @@ export async function getDefaultSite(db: Db): Promise<SiteRow | null> {
 export async function countSites(db: Db): Promise<number> {
   return db.site.count();
 }
+
+export async function getSiteById(db: Db, id: number): Promise<SiteRow | null> {
+  return db.site.findUnique({ where: { id } });
+}
