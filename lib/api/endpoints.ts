@@ -1,4 +1,7 @@
-// Every JSON endpoint registers its document here; app/api/openapi.json serves the whole list.
+// Every JSON endpoint documents itself in one of the files under endpoints/; the OpenAPI document
+// at /api/openapi.json is built from this list and the endpoints' own zod schemas.
 import type { EndpointDoc } from "@/lib/api/openapi";
+import { LAB_ENDPOINTS } from "@/lib/api/endpoints/lab";
+import { TRACE_ENDPOINTS } from "@/lib/api/endpoints/trace";
 
-export const ENDPOINTS: EndpointDoc[] = [];
+export const ENDPOINTS: EndpointDoc[] = [...LAB_ENDPOINTS, ...TRACE_ENDPOINTS];

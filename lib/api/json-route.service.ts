@@ -10,6 +10,26 @@ export function respond<T>(result: Result<T>): NextResponse {
   return result.ok ? NextResponse.json({ ok: true, value: result.value }) : NextResponse.json({ ok: false, issues: result.issues }, { status: statusFor(result.issues) });
 }
 
+/**
+ * CSRF defence for route handlers that change data: the browser's Origin (or, without it,
+ * Sec-Fetch-Site) must say the request comes from this app. Server actions get Next's own check.
+ */
+export function requireSameOrigin(request: Request): Result<true> {
+  const origin = request.headers.get("origin");
+  const host = request.headers.get("x-forwarded-host") ?? request.headers.get("host");
+  if (origin !== null) {
+    try {
+      if (new URL(origin).host === host) return { ok: true, value: true };
+    } catch {
+      /* falls through to the refusal */
+    }
+    return { ok: false, issues: [{ code: "AUTH.CROSS_SITE", message: "Refused: the request did not come from this application" }] };
+  }
+  const site = request.headers.get("sec-fetch-site");
+  if (site === "cross-site" || site === "same-site") return { ok: false, issues: [{ code: "AUTH.CROSS_SITE", message: "Refused: the request did not come from this application" }] };
+  return { ok: true, value: true };
+}
+
 /** Reads a JSON body; a body that is not JSON is a 422 that says so, never a 500. */
 export async function readJson(request: Request): Promise<Result<unknown>> {
   try {
