@@ -33,6 +33,13 @@ export default tseslint.config(
   },
   {
     files: ["app/**/*.ts", "app/**/*.tsx", "lib/**/*.service.ts"],
-    rules: { "no-restricted-imports": ["error", prismaImports] },
+    rules: {
+      "no-restricted-imports": ["error", prismaImports],
+      // Services run transactions but leave the queries to stores: no tx.<model>.<call>() or db.<model>.<call>() here.
+      "no-restricted-syntax": [
+        "error",
+        { selector: "CallExpression[callee.object.object.name=/^(tx|db)$/][callee.object.property.name!=/^\\$/]", message: "Only stores (*.store.ts) query the database; call a store function." },
+      ],
+    },
   },
 );

@@ -1,14 +1,19 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { parseInput } from "@/lib/ledger/parse";
-import { createHolder, postMovement, reject, requireHolder, runInTransaction } from "@/lib/ledger/ledger.store";
+import { createHolder, getStockG, postMovement, reject, requireHolder, runInTransaction } from "@/lib/ledger/ledger.store";
+import { getBatchState, insertBatch, insertReagentLot, markBatchComplete, markBatchRunning } from "@/lib/batch/batch.store";
+import type { BatchState } from "@/lib/batch/batch.store";
+import { insertProductLot } from "@/lib/product/product.store";
+import { getContainerState } from "@/lib/waste/container.store";
+import { labelOf } from "@/lib/ledger/kinds";
 import { markLotConsumedIfEmpty, requireDrawableHolder } from "@/lib/ledger/draw.store";
 import { siteLossHolder } from "@/lib/feedstock/lot.store";
 import { BatchCompleteSchema, BatchPlanSchema, BatchStartSchema, ReagentLotSchema } from "@/lib/batch/batch.schema";
 import { toGrams } from "@/lib/quantity/units";
 import type { Actor } from "@/lib/site/actor";
-import { assertTankRoom } from "@/lib/tank/tank.store";
+import { assertTankRoom, getTankServiceByHolder } from "@/lib/tank/tank.store";
 
 /** Methanol, catalyst, acid or process water enters the books as a reagent lot. */
 export async function receiveReagent(db: Db, actor: Actor, input: unknown): Promise<Result<{ id: number; code: string }>> {
@@ -18,10 +23,7 @@ export async function receiveReagent(db: Db, actor: Actor, input: unknown): Prom
   return runInTransaction(db, async (tx) => {
     const holderId = await createHolder(tx, actor.siteId, "REAGENT_LOT", r.code);
     const massG = toGrams(r.massKg);
-    const lot = await tx.reagentLot.create({
-      data: { siteId: actor.siteId, holderId, code: r.code, reagent: r.reagent, supplier: r.supplier, strengthPct: r.strengthPct, receivedAt: r.receivedAt, massG },
-      select: { id: true, code: true },
-    });
+    const lot = await insertReagentLot(tx, { siteId: actor.siteId, holderId, code: r.code, reagent: r.reagent, supplier: r.supplier, strengthPct: r.strengthPct, receivedAt: r.receivedAt, massG });
     await postMovement(tx, { siteId: actor.siteId, at: r.receivedAt, role: "RECEIPT", fromHolderId: null, toHolderId: holderId, massG, recordedById: actor.userId, note: `reagent ${r.reagent} from ${r.supplier}` });
     return lot;
   });
@@ -33,12 +35,10 @@ export async function planBatch(db: Db, actor: Actor, input: unknown): Promise<R
   const b = parsed.value;
   return runInTransaction(db, async (tx) => {
     const holderId = await createHolder(tx, actor.siteId, "BATCH", b.code);
-    return tx.batch.create({
-      data: {
+    return insertBatch(tx, {
         siteId: actor.siteId,
         holderId,
         code: b.code,
-        status: "PLANNED",
         pretreated: b.pretreated,
         plannedAt: b.plannedAt,
         targetOilG: toGrams(b.targetOilKg),
@@ -47,14 +47,12 @@ export async function planBatch(db: Db, actor: Actor, input: unknown): Promise<R
         reactionTempC: b.reactionTempC,
         recipeJson: JSON.stringify(b.recipe),
         notes: b.notes,
-      },
-      select: { id: true, code: true },
     });
   });
 }
 
-async function requireBatch(tx: Parameters<Parameters<Db["$transaction"]>[0]>[0], siteId: number, code: string) {
-  const batch = await tx.batch.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, holderId: true, status: true, plannedAt: true, startedAt: true } });
+async function requireBatch(tx: Tx, siteId: number, code: string): Promise<BatchState> {
+  const batch = await getBatchState(tx, siteId, code);
   if (!batch) reject("RECORD.NOT_FOUND", `Batch ${code} does not exist`, "batchCode");
   return batch;
 }
@@ -75,16 +73,16 @@ export async function startBatch(db: Db, actor: Actor, input: unknown): Promise<
       if (c.role !== "OIL" && c.fromKind === "LOT") reject("BATCH.REAGENT_FROM_FEEDSTOCK", "Methanol, catalyst, acid and water come from reagent lots (or recovered methanol from its tank)", field);
       const from = await requireDrawableHolder(tx, actor.siteId, c.fromKind, c.fromCode, field);
       if (c.fromKind === "TANK") {
-        const tank = await tx.tank.findUniqueOrThrow({ where: { holderId: from }, select: { service: true } });
-        const fits = c.role === "OIL" ? tank.service === "FEEDSTOCK" : c.role === "METHANOL" && tank.service === "METHANOL";
-        if (!fits) reject("BATCH.WRONG_TANK", `Tank ${c.fromCode} holds ${tank.service.toLowerCase().replace("_", " ")}, not ${c.role.toLowerCase()}`, field);
+        const service = (await getTankServiceByHolder(tx, from)) ?? "";
+        const fits = c.role === "OIL" ? service === "FEEDSTOCK" : c.role === "METHANOL" && service === "METHANOL";
+        if (!fits) reject("BATCH.WRONG_TANK", `Tank ${c.fromCode} holds ${labelOf(service).toLowerCase()}, not ${labelOf(c.role).toLowerCase()}`, field);
       }
       const massG = toGrams(c.massKg);
       await postMovement(tx, { siteId: actor.siteId, at: s.startedAt, role: c.role, fromHolderId: from, toHolderId: batch.holderId, massG, recordedById: actor.userId, field: `charges.${i}.massKg` });
       await markLotConsumedIfEmpty(tx, from);
       chargedG += massG;
     }
-    await tx.batch.update({ where: { id: batch.id }, data: { status: "RUNNING", startedAt: s.startedAt } });
+    await markBatchRunning(tx, batch.id, s.startedAt);
     return { code: s.batchCode, chargedG };
   });
 }
@@ -109,14 +107,12 @@ export async function completeBatch(db: Db, actor: Actor, input: unknown): Promi
         to = await siteLossHolder(tx, actor.siteId);
       } else if (o.toKind === "PRODUCT_LOT" && o.toCode) {
         if (o.role !== "ESTER") reject("BATCH.WRONG_OUTPUT", "Only ester goes to a product lot", field);
-        const existing = await tx.holder.findUnique({ where: { siteId_kind_code: { siteId: actor.siteId, kind: "PRODUCT_LOT", code: o.toCode } }, select: { id: true } });
-        if (existing) reject("RECORD.DUPLICATE", `Product lot ${o.toCode} already exists`, field);
-        to = await createHolder(tx, actor.siteId, "PRODUCT_LOT", o.toCode);
-        await tx.productLot.create({ data: { siteId: actor.siteId, holderId: to, code: o.toCode, batchId: batch.id, producedAt: c.completedAt, massG: toGrams(o.massKg), status: "HELD" } });
+        to = await createHolder(tx, actor.siteId, "PRODUCT_LOT", o.toCode, field);
+        await insertProductLot(tx, { siteId: actor.siteId, holderId: to, code: o.toCode, batchId: batch.id, producedAt: c.completedAt, massG: toGrams(o.massKg) });
         productLots.push(o.toCode);
       } else if (o.toKind === "WASTE_CONTAINER" && o.toCode) {
         to = (await requireHolder(tx, actor.siteId, "WASTE_CONTAINER", o.toCode, field)).id;
-        const w = await tx.wasteContainer.findUniqueOrThrow({ where: { holderId: to }, select: { status: true } });
+        const w = await getContainerState(tx, to);
         if (w.status !== "OPEN") reject("WASTE.CONTAINER_CLOSED", `Waste container ${o.toCode} is not accepting more material`, field);
       } else if (o.toKind === "TANK" && o.toCode) {
         to = (await requireHolder(tx, actor.siteId, "TANK", o.toCode, field)).id;
@@ -126,11 +122,11 @@ export async function completeBatch(db: Db, actor: Actor, input: unknown): Promi
       }
       await postMovement(tx, { siteId: actor.siteId, at: c.completedAt, role: o.role, fromHolderId: batch.holderId, toHolderId: to, massG: toGrams(o.massKg), recordedById: actor.userId, field: `outputs.${i}.massKg` });
     }
-    const left = await tx.holder.findUniqueOrThrow({ where: { id: batch.holderId }, select: { stockG: true } });
-    if (left.stockG !== 0) {
-      reject("BATCH.UNBALANCED", `${(left.stockG / 1000).toLocaleString("en", { maximumFractionDigits: 3 })} kg charged is not accounted for; record it as an output or a loss`, "outputs");
+    const left = await getStockG(tx, batch.holderId);
+    if (left !== 0) {
+      reject("BATCH.UNBALANCED", `${(left / 1000).toLocaleString("en", { maximumFractionDigits: 3 })} kg charged is not accounted for; record it as an output or a loss`, "outputs");
     }
-    await tx.batch.update({ where: { id: batch.id }, data: { status: "COMPLETE", completedAt: c.completedAt } });
+    await markBatchComplete(tx, batch.id, c.completedAt);
     return { code: c.batchCode, productLots };
   });
 }

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/database/connect";
 import { listHolderMovements } from "@/lib/ledger/movement.store";
 import type { MovementView } from "@/lib/ledger/movement.store";
 
@@ -102,4 +102,37 @@ export async function getBatchDetail(db: Db, siteId: number, code: string): Prom
     outputs: moves.outgoing,
     products: r.products,
   };
+}
+
+// ---- writes used by lib/batch/batch.service.ts (inside its transaction)
+
+export async function insertReagentLot(tx: Tx, r: { siteId: number; holderId: number; code: string; reagent: string; supplier: string; strengthPct: number; receivedAt: Date; massG: number }): Promise<{ id: number; code: string }> {
+  return tx.reagentLot.create({ data: r, select: { id: true, code: true } });
+}
+
+export async function insertBatch(
+  tx: Tx,
+  b: { siteId: number; holderId: number; code: string; pretreated: boolean; plannedAt: Date; targetOilG: number; molarRatio: number; catalyst: string; reactionTempC: number; recipeJson: string; notes: string },
+): Promise<{ id: number; code: string }> {
+  return tx.batch.create({ data: { ...b, status: "PLANNED" }, select: { id: true, code: true } });
+}
+
+export interface BatchState {
+  id: number;
+  holderId: number;
+  status: string;
+  plannedAt: Date;
+  startedAt: Date | null;
+}
+
+export async function getBatchState(tx: Tx, siteId: number, code: string): Promise<BatchState | null> {
+  return tx.batch.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, holderId: true, status: true, plannedAt: true, startedAt: true } });
+}
+
+export async function markBatchRunning(tx: Tx, id: number, startedAt: Date): Promise<void> {
+  await tx.batch.update({ where: { id }, data: { status: "RUNNING", startedAt } });
+}
+
+export async function markBatchComplete(tx: Tx, id: number, completedAt: Date): Promise<void> {
+  await tx.batch.update({ where: { id }, data: { status: "COMPLETE", completedAt } });
 }

@@ -29,9 +29,9 @@ export async function runInTransaction<T>(db: Db, fn: (tx: Tx) => Promise<T>, ti
   }
 }
 
-export async function createHolder(tx: Tx, siteId: number, kind: HolderKind, code: string): Promise<number> {
+export async function createHolder(tx: Tx, siteId: number, kind: HolderKind, code: string, field = "code"): Promise<number> {
   const existing = await tx.holder.findUnique({ where: { siteId_kind_code: { siteId, kind, code } }, select: { id: true } });
-  if (existing) reject("RECORD.DUPLICATE", `${labelOf(kind)} ${code} already exists`, "code");
+  if (existing) reject("RECORD.DUPLICATE", `${labelOf(kind)} ${code} already exists`, field);
   const holder = await tx.holder.create({ data: { siteId, kind, code }, select: { id: true } });
   return holder.id;
 }
@@ -40,6 +40,10 @@ export async function requireHolder(tx: Tx, siteId: number, kind: HolderKind, co
   const holder = await tx.holder.findUnique({ where: { siteId_kind_code: { siteId, kind, code } }, select: { id: true, stockG: true } });
   if (!holder) reject("RECORD.NOT_FOUND", `${labelOf(kind)} ${code} does not exist`, field);
   return holder;
+}
+
+export async function getStockG(tx: Tx, holderId: number): Promise<number> {
+  return (await tx.holder.findUniqueOrThrow({ where: { id: holderId }, select: { stockG: true } })).stockG;
 }
 
 /** Refuses a booking dated inside a closed accounting period. */

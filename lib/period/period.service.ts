@@ -7,6 +7,7 @@ import { parseInput } from "@/lib/ledger/parse";
 import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
 import { AccountingPeriodSchema } from "@/lib/period/period.schema";
 import type { Actor } from "@/lib/site/actor";
+import { findOverlappingPeriod, getPeriodState, insertPeriod, setPeriodStatus } from "@/lib/period/period.store";
 
 export const PeriodCloseSchema = z.object({
   periodId: id("Period"),
@@ -22,9 +23,8 @@ export async function openPeriod(db: Db, actor: Actor, input: unknown): Promise<
   if (!parsed.ok) return parsed;
   const p = parsed.value;
   return runInTransaction(db, async (tx) => {
-    const overlap = await tx.accountingPeriod.findFirst({ where: { siteId: actor.siteId, startsAt: { lt: p.endsAt }, endsAt: { gt: p.startsAt } }, select: { id: true } });
-    if (overlap) reject("PERIOD.OVERLAP", "This period overlaps an existing one", "startsAt");
-    return tx.accountingPeriod.create({ data: { siteId: actor.siteId, startsAt: p.startsAt, endsAt: p.endsAt, status: "OPEN" }, select: { id: true } });
+    if (await findOverlappingPeriod(tx, actor.siteId, p.startsAt, p.endsAt)) reject("PERIOD.OVERLAP", "This period overlaps an existing one", "startsAt");
+    return insertPeriod(tx, { siteId: actor.siteId, startsAt: p.startsAt, endsAt: p.endsAt });
   });
 }
 
@@ -34,12 +34,11 @@ export async function closePeriod(db: Db, actor: Actor, input: unknown): Promise
   if (!parsed.ok) return parsed;
   const c = parsed.value;
   return runInTransaction(db, async (tx) => {
-    const p = await tx.accountingPeriod.findFirst({ where: { id: c.periodId, siteId: actor.siteId }, select: { id: true, status: true, endsAt: true } });
+    const p = await getPeriodState(tx, actor.siteId, c.periodId);
     if (!p) reject("RECORD.NOT_FOUND", "No such period", "periodId");
     if (p.status === "CLOSED") reject("PERIOD.ALREADY_CLOSED", "The period is already closed", "periodId");
     if (p.endsAt > actor.now) reject("PERIOD.NOT_ENDED", "A period can only be closed after it ends", "periodId");
-    await tx.periodEvent.create({ data: { periodId: p.id, action: "CLOSE", reason: c.reason, byId: actor.userId, at: actor.now } });
-    return tx.accountingPeriod.update({ where: { id: p.id }, data: { status: "CLOSED", closedAt: actor.now, closedById: actor.userId }, select: { id: true } });
+    return setPeriodStatus(tx, { periodId: p.id, status: "CLOSED", action: "CLOSE", reason: c.reason, byId: actor.userId, at: actor.now });
   });
 }
 
@@ -49,10 +48,9 @@ export async function reopenPeriod(db: Db, actor: Actor, input: unknown): Promis
   if (!parsed.ok) return parsed;
   const r = parsed.value;
   return runInTransaction(db, async (tx) => {
-    const p = await tx.accountingPeriod.findFirst({ where: { id: r.periodId, siteId: actor.siteId }, select: { id: true, status: true } });
+    const p = await getPeriodState(tx, actor.siteId, r.periodId);
     if (!p) reject("RECORD.NOT_FOUND", "No such period", "periodId");
     if (p.status !== "CLOSED") reject("PERIOD.NOT_CLOSED", "Only a closed period can be reopened", "periodId");
-    await tx.periodEvent.create({ data: { periodId: p.id, action: "REOPEN", reason: r.reason, byId: actor.userId, at: actor.now } });
-    return tx.accountingPeriod.update({ where: { id: p.id }, data: { status: "OPEN" }, select: { id: true } });
+    return setPeriodStatus(tx, { periodId: p.id, status: "OPEN", action: "REOPEN", reason: r.reason, byId: actor.userId, at: actor.now });
   });
 }

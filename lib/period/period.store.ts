@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/database/connect";
 
 export interface PeriodRow {
   id: number;
@@ -38,4 +38,29 @@ export async function getPeriodAt(db: Db, siteId: number, at: Date): Promise<Omi
   });
   if (!r) return null;
   return { id: r.id, startsAt: r.startsAt, endsAt: r.endsAt, status: r.status, closedAt: r.closedAt, closedBy: r.closedBy?.fullName ?? null };
+}
+
+// ---- writes used by lib/period/period.service.ts
+
+export async function findOverlappingPeriod(tx: Tx, siteId: number, startsAt: Date, endsAt: Date): Promise<{ id: number } | null> {
+  return tx.accountingPeriod.findFirst({ where: { siteId, startsAt: { lt: endsAt }, endsAt: { gt: startsAt } }, select: { id: true } });
+}
+
+export async function insertPeriod(tx: Tx, p: { siteId: number; startsAt: Date; endsAt: Date }): Promise<{ id: number }> {
+  return tx.accountingPeriod.create({ data: { ...p, status: "OPEN" }, select: { id: true } });
+}
+
+export async function getPeriodState(tx: Tx, siteId: number, id: number): Promise<{ id: number; status: string; endsAt: Date } | null> {
+  return tx.accountingPeriod.findFirst({ where: { id, siteId }, select: { id: true, status: true, endsAt: true } });
+}
+
+/** Changes a period's status and records the event (who, when, why) in the same transaction. */
+export async function setPeriodStatus(tx: Tx, e: { periodId: number; status: "OPEN" | "CLOSED"; action: "CLOSE" | "REOPEN"; reason: string; byId: number; at: Date }): Promise<{ id: number }> {
+  await tx.periodEvent.create({ data: { periodId: e.periodId, action: e.action, reason: e.reason, byId: e.byId, at: e.at } });
+  const closing = e.status === "CLOSED";
+  return tx.accountingPeriod.update({
+    where: { id: e.periodId },
+    data: { status: e.status, ...(closing ? { closedAt: e.at, closedById: e.byId } : {}) },
+    select: { id: true },
+  });
 }

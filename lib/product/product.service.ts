@@ -9,6 +9,7 @@ import { requireDrawableHolder } from "@/lib/ledger/draw.store";
 import { QcResultSchema, ShipmentSchema } from "@/lib/product/product.schema";
 import { toGrams, toMillilitres } from "@/lib/quantity/units";
 import type { Actor } from "@/lib/site/actor";
+import { getProductState, insertQcResult, insertShipment, setProductStatus } from "@/lib/product/product.store";
 
 export function qcPasses(value: number, limitMin: number | undefined, limitMax: number | undefined): boolean {
   return (limitMin === undefined || value >= limitMin) && (limitMax === undefined || value <= limitMax);
@@ -20,13 +21,10 @@ export async function recordQcResult(db: Db, actor: Actor, input: unknown): Prom
   const q = parsed.value;
   return runInTransaction(db, async (tx) => {
     const holder = await requireHolder(tx, actor.siteId, "PRODUCT_LOT", q.productLotCode, "productLotCode");
-    const lot = await tx.productLot.findUniqueOrThrow({ where: { holderId: holder.id }, select: { id: true, status: true } });
+    const lot = await getProductState(tx, holder.id);
     if (lot.status !== "HELD") reject("PRODUCT.DECIDED", `Product lot ${q.productLotCode} is already ${lot.status.toLowerCase()}`, "productLotCode");
     const pass = qcPasses(q.value, q.limitMin, q.limitMax);
-    return tx.qcResult.create({
-      data: { productLotId: lot.id, property: q.property, method: q.method, value: q.value, unit: q.unit, limitMin: q.limitMin ?? null, limitMax: q.limitMax ?? null, specRef: q.specRef, pass, testedAt: q.testedAt },
-      select: { id: true, pass: true },
-    });
+    return insertQcResult(tx, { productLotId: lot.id, property: q.property, method: q.method, value: q.value, unit: q.unit, limitMin: q.limitMin ?? null, limitMax: q.limitMax ?? null, specRef: q.specRef, pass, testedAt: q.testedAt });
   });
 }
 
@@ -39,14 +37,14 @@ export async function decideProductLot(db: Db, actor: Actor, input: unknown): Pr
   const d = parsed.value;
   return runInTransaction(db, async (tx) => {
     const holder = await requireHolder(tx, actor.siteId, "PRODUCT_LOT", d.productLotCode, "productLotCode");
-    const lot = await tx.productLot.findUniqueOrThrow({ where: { holderId: holder.id }, select: { id: true, status: true, qc: { select: { property: true, pass: true } } } });
+    const lot = await getProductState(tx, holder.id);
     if (lot.status !== "HELD") reject("PRODUCT.DECIDED", `Product lot ${d.productLotCode} is already ${lot.status.toLowerCase()}`, "decision");
     if (d.decision === "RELEASED") {
       if (lot.qc.length === 0) reject("PRODUCT.NO_QC", "Release needs QC results first", "decision");
       const failed = lot.qc.filter((q) => !q.pass).map((q) => q.property);
       if (failed.length) reject("PRODUCT.QC_FAILED", `Cannot release: out of limits for ${failed.join(", ")}`, "decision");
     }
-    await tx.productLot.update({ where: { id: lot.id }, data: { status: d.decision, releasedAt: d.decision === "RELEASED" ? actor.now : null } });
+    await setProductStatus(tx, lot.id, d.decision, d.decision === "RELEASED" ? actor.now : null);
     return { code: d.productLotCode, status: d.decision };
   });
 }
@@ -59,15 +57,12 @@ export async function shipProduct(db: Db, actor: Actor, input: unknown): Promise
   return runInTransaction(db, async (tx) => {
     const from = await requireDrawableHolder(tx, actor.siteId, s.fromKind, s.fromCode, "fromCode");
     if (s.fromKind === "PRODUCT_LOT") {
-      const p = await tx.productLot.findUniqueOrThrow({ where: { holderId: from }, select: { status: true } });
+      const p = await getProductState(tx, from);
       if (p.status !== "RELEASED") reject("PRODUCT.NOT_RELEASED", `Product lot ${s.fromCode} is not released`, "fromCode");
     }
     const holderId = await createHolder(tx, actor.siteId, "SHIPMENT", s.documentNo);
     const massG = toGrams(s.massKg);
-    const shipment = await tx.shipment.create({
-      data: { siteId: actor.siteId, holderId, documentNo: s.documentNo, customer: s.customer, shippedAt: s.shippedAt, massG, volumeMl: toMillilitres(s.volumeL), certifiedClaim: s.certifiedClaim },
-      select: { id: true, documentNo: true },
-    });
+    const shipment = await insertShipment(tx, { siteId: actor.siteId, holderId, documentNo: s.documentNo, customer: s.customer, shippedAt: s.shippedAt, massG, volumeMl: toMillilitres(s.volumeL), certifiedClaim: s.certifiedClaim });
     await postMovement(tx, { siteId: actor.siteId, at: s.shippedAt, role: "SHIPMENT", fromHolderId: from, toHolderId: holderId, massG, volumeMl: toMillilitres(s.volumeL), note: s.note, recordedById: actor.userId });
     return shipment;
   });

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/database/connect";
 import { listHolderMovements, toHolderKind } from "@/lib/ledger/movement.store";
 import type { HolderRef, MovementView } from "@/lib/ledger/movement.store";
 
@@ -168,4 +168,32 @@ export async function getShipmentDetail(db: Db, siteId: number, documentNo: stri
     holderId: r.holderId,
     incoming: moves.incoming,
   };
+}
+
+// ---- writes used by lib/product/product.service.ts and lib/batch/batch.service.ts
+
+export async function insertProductLot(tx: Tx, p: { siteId: number; holderId: number; code: string; batchId: number; producedAt: Date; massG: number }): Promise<void> {
+  await tx.productLot.create({ data: { ...p, status: "HELD" } });
+}
+
+export async function getProductState(tx: Tx, holderId: number): Promise<{ id: number; status: string; qc: Array<{ property: string; pass: boolean }> }> {
+  return tx.productLot.findUniqueOrThrow({ where: { holderId }, select: { id: true, status: true, qc: { select: { property: true, pass: true } } } });
+}
+
+export async function insertQcResult(
+  tx: Tx,
+  q: { productLotId: number; property: string; method: string; value: number; unit: string; limitMin: number | null; limitMax: number | null; specRef: string; pass: boolean; testedAt: Date },
+): Promise<{ id: number; pass: boolean }> {
+  return tx.qcResult.create({ data: q, select: { id: true, pass: true } });
+}
+
+export async function setProductStatus(tx: Tx, id: number, status: string, releasedAt: Date | null): Promise<void> {
+  await tx.productLot.update({ where: { id }, data: { status, releasedAt } });
+}
+
+export async function insertShipment(
+  tx: Tx,
+  s: { siteId: number; holderId: number; documentNo: string; customer: string; shippedAt: Date; massG: number; volumeMl: number; certifiedClaim: boolean },
+): Promise<{ id: number; documentNo: string }> {
+  return tx.shipment.create({ data: s, select: { id: true, documentNo: true } });
 }

@@ -2,7 +2,8 @@ import "server-only";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { parseInput } from "@/lib/ledger/parse";
-import { createHolder, postMovement, reject, requireHolder, runInTransaction } from "@/lib/ledger/ledger.store";
+import { createHolder, getStockG, postMovement, reject, requireHolder, runInTransaction } from "@/lib/ledger/ledger.store";
+import { getContainerState, insertDisposal, insertWasteContainer, setContainerStatus } from "@/lib/waste/container.store";
 import { DisposalSchema, WasteContainerSchema } from "@/lib/waste/container.schema";
 import { toGrams, toMillilitres } from "@/lib/quantity/units";
 import type { Actor } from "@/lib/site/actor";
@@ -13,8 +14,7 @@ export async function openWasteContainer(db: Db, actor: Actor, input: unknown): 
   const w = parsed.value;
   return runInTransaction(db, async (tx) => {
     const holderId = await createHolder(tx, actor.siteId, "WASTE_CONTAINER", w.code);
-    return tx.wasteContainer.create({
-      data: {
+    return insertWasteContainer(tx, {
         siteId: actor.siteId,
         holderId,
         code: w.code,
@@ -26,9 +26,6 @@ export async function openWasteContainer(db: Db, actor: Actor, input: unknown): 
         pH: w.pH ?? null,
         flashPointC: w.flashPointC ?? null,
         waterPct: w.waterPct ?? null,
-        status: "OPEN",
-      },
-      select: { id: true, code: true },
     });
   });
 }
@@ -40,17 +37,13 @@ export async function recordDisposal(db: Db, actor: Actor, input: unknown): Prom
   const d = parsed.value;
   return runInTransaction(db, async (tx) => {
     const from = await requireHolder(tx, actor.siteId, "WASTE_CONTAINER", d.containerCode, "containerCode");
-    const container = await tx.wasteContainer.findUniqueOrThrow({ where: { holderId: from.id }, select: { id: true, accumulationStart: true } });
+    const container = await getContainerState(tx, from.id);
     if (d.disposedAt < container.accumulationStart) reject("WASTE.BEFORE_START", "Collected time is before the container started filling", "disposedAt");
     const holderId = await createHolder(tx, actor.siteId, "DISPOSAL", d.documentNo);
     const massG = toGrams(d.massKg);
-    const disposal = await tx.disposal.create({
-      data: { siteId: actor.siteId, holderId, hauler: d.hauler, documentNo: d.documentNo, disposedAt: d.disposedAt, massG },
-      select: { id: true, documentNo: true },
-    });
+    const disposal = await insertDisposal(tx, { siteId: actor.siteId, holderId, hauler: d.hauler, documentNo: d.documentNo, disposedAt: d.disposedAt, massG });
     await postMovement(tx, { siteId: actor.siteId, at: d.disposedAt, role: "DISPOSAL", fromHolderId: from.id, toHolderId: holderId, massG, recordedById: actor.userId, note: `hauled by ${d.hauler}` });
-    const left = await tx.holder.findUniqueOrThrow({ where: { id: from.id }, select: { stockG: true } });
-    if (left.stockG === 0) await tx.wasteContainer.update({ where: { id: container.id }, data: { status: "SHIPPED" } });
+    if ((await getStockG(tx, from.id)) === 0) await setContainerStatus(tx, container.id, "SHIPPED");
     return disposal;
   });
 }

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/database/connect";
 import { WASTE_STREAMS } from "@/lib/ledger/kinds";
 import type { WasteStream } from "@/lib/ledger/kinds";
 import { DEFAULT_DENSITY_TABLE, DEFAULT_REFERENCE_TEMP_C, densityAt, requireDensityEntry } from "@/lib/quantity/density";
@@ -185,4 +185,25 @@ export async function getWasteDueBoard(
     note: report.value.note,
     assumption,
   };
+}
+
+// ---- writes used by lib/waste/container.service.ts and lib/batch/batch.service.ts
+
+export async function insertWasteContainer(
+  tx: Tx,
+  w: { siteId: number; holderId: number; code: string; stream: string; accumulationStart: Date; capacityMl: number; satellite: boolean; methanolPct: number | null; pH: number | null; flashPointC: number | null; waterPct: number | null },
+): Promise<{ id: number; code: string }> {
+  return tx.wasteContainer.create({ data: { ...w, status: "OPEN" }, select: { id: true, code: true } });
+}
+
+export async function getContainerState(tx: Tx, holderId: number): Promise<{ id: number; status: string; accumulationStart: Date }> {
+  return tx.wasteContainer.findUniqueOrThrow({ where: { holderId }, select: { id: true, status: true, accumulationStart: true } });
+}
+
+export async function insertDisposal(tx: Tx, d: { siteId: number; holderId: number; hauler: string; documentNo: string; disposedAt: Date; massG: number }): Promise<{ id: number; documentNo: string }> {
+  return tx.disposal.create({ data: d, select: { id: true, documentNo: true } });
+}
+
+export async function setContainerStatus(tx: Tx, id: number, status: string): Promise<void> {
+  await tx.wasteContainer.update({ where: { id }, data: { status } });
 }
