@@ -14,18 +14,17 @@ export function constraintSql(provider: string, sql: string): string {
   return out;
 }
 
-/** SQLite triggers that refuse UPDATE and DELETE on the movement ledger (part of the migration). */
-export function appendOnlySql(provider: string): string {
-  if (provider === "sqlite") {
-    return `
--- Append-only ledger: corrections are new reversing rows, never edits.
-CREATE TRIGGER "Movement_no_update" BEFORE UPDATE ON "Movement"
-BEGIN SELECT RAISE(ABORT, 'LEDGER.APPEND_ONLY: movements cannot be changed; post a reversal'); END;
-CREATE TRIGGER "Movement_no_delete" BEFORE DELETE ON "Movement"
-BEGIN SELECT RAISE(ABORT, 'LEDGER.APPEND_ONLY: movements cannot be deleted; post a reversal'); END;
+/** SQLite triggers that refuse UPDATE and DELETE on an append-only table (part of the migration). */
+export function appendOnlySql(provider: string, table = "Movement"): string {
+  if (provider !== "sqlite") return "";
+  const code = table === "Movement" ? "LEDGER.APPEND_ONLY: movements" : "AUDIT.APPEND_ONLY: audit events";
+  return `
+-- Append-only ${table}: corrections are new rows, never edits.
+CREATE TRIGGER "${table}_no_update" BEFORE UPDATE ON "${table}"
+BEGIN SELECT RAISE(ABORT, '${code} cannot be changed; post a correction'); END;
+CREATE TRIGGER "${table}_no_delete" BEFORE DELETE ON "${table}"
+BEGIN SELECT RAISE(ABORT, '${code} cannot be deleted; post a correction'); END;
 `;
-  }
-  return "";
 }
 
 /**
@@ -33,6 +32,13 @@ BEGIN SELECT RAISE(ABORT, 'LEDGER.APPEND_ONLY: movements cannot be deleted; post
  * runner splits on, so it is applied after every deploy instead, idempotently, in one statement each.
  */
 export const PG_APPEND_ONLY_STATEMENTS = [
+  `CREATE OR REPLACE FUNCTION "audit_append_only"() RETURNS trigger LANGUAGE plpgsql AS $$
+BEGIN
+  RAISE EXCEPTION 'AUDIT.APPEND_ONLY: audit events cannot be changed or deleted';
+END;
+$$`,
+  `CREATE OR REPLACE TRIGGER "AuditEvent_no_update_delete" BEFORE UPDATE OR DELETE ON "AuditEvent"
+FOR EACH ROW EXECUTE FUNCTION "audit_append_only"()`,
   `CREATE OR REPLACE FUNCTION "movement_append_only"() RETURNS trigger LANGUAGE plpgsql AS $$
 BEGIN
   RAISE EXCEPTION 'LEDGER.APPEND_ONLY: movements cannot be changed or deleted; post a reversal';

@@ -46,8 +46,10 @@ async function createMigration(name: string): Promise<void> {
       sql = constraintSql(provider, await diffFromEmpty(p.schema, factory)) + appendOnlySql(provider);
     } else {
       sql = await diffSchemas(readFileSync(path.join(p.migrations, previous, "schema.prisma"), "utf8"), p.schema, factory);
-      if (provider === "sqlite" && /DROP TABLE "Movement"|ALTER TABLE "new_Movement"/.test(sql)) {
-        sql += appendOnlySql(provider); // a SQLite table redefinition drops its triggers: restore them
+      for (const table of ["Movement", "AuditEvent"]) {
+        if (provider === "sqlite" && new RegExp(`DROP TABLE "${table}"|ALTER TABLE "new_${table}"`).test(sql)) {
+          sql += appendOnlySql(provider, table); // a SQLite table redefinition drops its triggers: restore them
+        }
       }
     }
     if (sql.trim() === "" || /^-- This is an empty migration/.test(sql.trim())) {

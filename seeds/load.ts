@@ -17,8 +17,7 @@ import { hashPassword } from "@/lib/auth/password";
 import { insertSite, insertUser, countSites } from "@/lib/site/site.store";
 import type { Actor } from "@/lib/site/actor";
 import { SourceSchema } from "@/lib/source/source.schema";
-import { insertSource } from "@/lib/source/source.store";
-import { runInTransaction } from "@/lib/ledger/ledger.store";
+import { createSource } from "@/lib/source/source.service";
 import { parseInput } from "@/lib/ledger/parse";
 import { PickupSchema } from "@/lib/feedstock/pickup.schema";
 import { recordPickup } from "@/lib/feedstock/pickup.service";
@@ -39,13 +38,7 @@ import { closePeriod, openPeriod } from "@/lib/period/period.service";
 type Handler = { schema: z.ZodType; apply: (db: Db, actor: Actor, input: unknown) => Promise<Result<unknown>> };
 
 const HANDLERS: Record<Exclude<Op["kind"], "closePeriod">, Handler> = {
-  source: {
-    schema: SourceSchema,
-    apply: async (db, actor, input) => {
-      const parsed = parseInput(SourceSchema, input);
-      return parsed.ok ? runInTransaction(db, (tx) => insertSource(tx, actor.siteId, parsed.value)) : parsed;
-    },
-  },
+  source: { schema: SourceSchema, apply: createSource },
   tank: { schema: TankSchema, apply: createTank },
   reagent: { schema: ReagentLotSchema, apply: receiveReagent },
   pickup: { schema: PickupSchema, apply: (db, actor, input) => recordPickup(db, actor, input) },

@@ -1,4 +1,5 @@
 import "server-only";
+import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db, Tx } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { parseInput } from "@/lib/ledger/parse";
@@ -25,6 +26,7 @@ export async function receiveReagent(db: Db, actor: Actor, input: unknown): Prom
     const massG = toGrams(r.massKg);
     const lot = await insertReagentLot(tx, { siteId: actor.siteId, holderId, code: r.code, reagent: r.reagent, supplier: r.supplier, strengthPct: r.strengthPct, receivedAt: r.receivedAt, massG });
     await postMovement(tx, { siteId: actor.siteId, at: r.receivedAt, role: "RECEIPT", fromHolderId: null, toHolderId: holderId, massG, recordedById: actor.userId, note: `reagent ${r.reagent} from ${r.supplier}` });
+    await appendAudit(tx, actor, { action: "CREATE", entity: "ReagentLot", entityKey: r.code, after: { ...r, massG } });
     return lot;
   });
 }
@@ -35,7 +37,7 @@ export async function planBatch(db: Db, actor: Actor, input: unknown): Promise<R
   const b = parsed.value;
   return runInTransaction(db, async (tx) => {
     const holderId = await createHolder(tx, actor.siteId, "BATCH", b.code);
-    return insertBatch(tx, {
+    const saved = await insertBatch(tx, {
         siteId: actor.siteId,
         holderId,
         code: b.code,
@@ -48,6 +50,8 @@ export async function planBatch(db: Db, actor: Actor, input: unknown): Promise<R
         recipeJson: JSON.stringify(b.recipe),
         notes: b.notes,
     });
+    await appendAudit(tx, actor, { action: "CREATE", entity: "Batch", entityKey: b.code, after: b });
+    return saved;
   });
 }
 
@@ -83,6 +87,7 @@ export async function startBatch(db: Db, actor: Actor, input: unknown): Promise<
       chargedG += massG;
     }
     await markBatchRunning(tx, batch.id, s.startedAt);
+    await appendAudit(tx, actor, { action: "CHANGE", entity: "Batch", entityKey: s.batchCode, before: { status: batch.status }, after: { status: "RUNNING", startedAt: s.startedAt, charges: s.charges } });
     return { code: s.batchCode, chargedG };
   });
 }
@@ -127,6 +132,7 @@ export async function completeBatch(db: Db, actor: Actor, input: unknown): Promi
       reject("BATCH.UNBALANCED", `${(left / 1000).toLocaleString("en", { maximumFractionDigits: 3 })} kg charged is not accounted for; record it as an output or a loss`, "outputs");
     }
     await markBatchComplete(tx, batch.id, c.completedAt);
+    await appendAudit(tx, actor, { action: "CHANGE", entity: "Batch", entityKey: c.batchCode, before: { status: batch.status }, after: { status: "COMPLETE", completedAt: c.completedAt, outputs: c.outputs } });
     return { code: c.batchCode, productLots };
   });
 }

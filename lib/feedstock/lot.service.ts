@@ -1,4 +1,5 @@
 import "server-only";
+import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { failMany } from "@/lib/errors";
@@ -68,6 +69,7 @@ export async function receiveLotFromPickups(db: Db, actor: Actor, input: unknown
     } else if (difference > 0) {
       await postMovement(tx, { siteId: actor.siteId, at: l.receivedAt, role: "RECEIPT", fromHolderId: null, toHolderId: holderId, massG: difference, recordedById: actor.userId, note: "receiving difference: plant measurement above pickup estimates" });
     }
+    await appendAudit(tx, actor, { action: "CREATE", entity: "FeedstockLot", entityKey: l.code, after: { ...l, massG: measured.value.massG, densityKgM3: measured.value.densityKgM3, receivingDifferenceG: difference } });
     return { id: lot.id, code: lot.code, massG: measured.value.massG, receivingDifferenceG: difference };
   });
 }
@@ -84,6 +86,7 @@ export async function receiveDelivery(db: Db, actor: Actor, input: unknown, tabl
     const holderId = await createHolder(tx, actor.siteId, "LOT", l.code);
     const lot = await insertLot(tx, { siteId: actor.siteId, holderId, origin: "DELIVERY", supplierId, deliveryDocument: l.deliveryDocument, input: l, measured: measured.value });
     await postMovement(tx, { siteId: actor.siteId, at: l.receivedAt, role: "RECEIPT", fromHolderId: null, toHolderId: holderId, massG: measured.value.massG, volumeMl: Math.round(l.observedVolumeL * 1000), tempC: l.observedTempC, recordedById: actor.userId, note: `delivery ${l.deliveryDocument}`, field: "observedVolumeL" });
+    await appendAudit(tx, actor, { action: "CREATE", entity: "FeedstockLot", entityKey: l.code, after: { ...l, massG: measured.value.massG, densityKgM3: measured.value.densityKgM3 } });
     return { id: lot.id, code: lot.code, massG: measured.value.massG, receivingDifferenceG: 0 };
   });
 }
@@ -94,7 +97,9 @@ export async function recordLabTest(db: Db, actor: Actor, input: unknown): Promi
   const t = parsed.value;
   return runInTransaction(db, async (tx) => {
     const lot = await requireLot(tx, actor.siteId, t.lotCode, "lotCode");
-    return insertLabTest(tx, { lotId: lot.id, analystId: actor.userId, testedAt: t.testedAt, kind: t.kind, method: t.method, valuePct: t.valuePct });
+    const saved = await insertLabTest(tx, { lotId: lot.id, analystId: actor.userId, testedAt: t.testedAt, kind: t.kind, method: t.method, valuePct: t.valuePct });
+    await appendAudit(tx, actor, { action: "CREATE", entity: "LabTest", entityKey: t.lotCode, after: { ...t, id: saved.id } });
+    return saved;
   });
 }
 
@@ -111,6 +116,7 @@ export async function decideLot(db: Db, actor: Actor, input: unknown): Promise<R
       if (titrations === 0) reject("LOT.NO_FFA", `Lot ${d.lotCode} has no FFA titration yet; titrate before accepting`, "status");
     }
     await setLotStatus(tx, lot.id, d.status);
+    await appendAudit(tx, actor, { action: "CHANGE", entity: "FeedstockLot", entityKey: d.lotCode, before: { status: lot.status }, after: { status: d.status } });
     return { code: d.lotCode, status: d.status };
   });
 }

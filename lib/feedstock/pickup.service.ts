@@ -1,4 +1,5 @@
 import "server-only";
+import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { fail, ok } from "@/lib/errors";
@@ -57,6 +58,7 @@ export async function recordPickup(db: Db, actor: Actor, input: unknown, table: 
       recordedById: actor.userId,
       field: "volumeL",
     });
+    await appendAudit(tx, actor, { action: "CREATE", entity: "Pickup", entityKey: p.code, after: { ...p, massG: measured.value.massG } });
     return saved;
   });
 }

@@ -1,4 +1,5 @@
 import "server-only";
+import { appendAudit } from "@/lib/audit/audit.store";
 import { z } from "zod";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
@@ -24,7 +25,7 @@ export async function recordTitration(db: Db, actor: Actor, input: unknown): Pro
   if (!ffa.ok || !av.ok) return failMany([...(ffa.ok ? [] : ffa.issues), ...(av.ok ? [] : av.issues)]);
   return runInTransaction(db, async (tx) => {
     const lot = await requireLot(tx, actor.siteId, t.lotCode, "lotCode");
-    return insertTitration(tx, {
+    const saved = await insertTitration(tx, {
         lotId: lot.id,
         analystId: actor.userId,
         testedAt: t.testedAt,
@@ -37,5 +38,7 @@ export async function recordTitration(db: Db, actor: Actor, input: unknown): Pro
         ffaPct: ffa.value.ffaPct,
         acidValue: av.value.acidValueMgKohG,
     });
+    await appendAudit(tx, actor, { action: "CREATE", entity: "Titration", entityKey: t.lotCode, after: { ...t, id: saved.id, ffaPct: saved.ffaPct, acidValue: saved.acidValue } });
+    return saved;
   });
 }

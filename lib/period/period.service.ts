@@ -1,4 +1,5 @@
 import "server-only";
+import { appendAudit } from "@/lib/audit/audit.store";
 import { z } from "zod";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
@@ -24,7 +25,9 @@ export async function openPeriod(db: Db, actor: Actor, input: unknown): Promise<
   const p = parsed.value;
   return runInTransaction(db, async (tx) => {
     if (await findOverlappingPeriod(tx, actor.siteId, p.startsAt, p.endsAt)) reject("PERIOD.OVERLAP", "This period overlaps an existing one", "startsAt");
-    return insertPeriod(tx, { siteId: actor.siteId, startsAt: p.startsAt, endsAt: p.endsAt });
+    const saved = await insertPeriod(tx, { siteId: actor.siteId, startsAt: p.startsAt, endsAt: p.endsAt });
+    await appendAudit(tx, actor, { action: "CREATE", entity: "AccountingPeriod", entityKey: String(saved.id), after: p });
+    return saved;
   });
 }
 
@@ -38,6 +41,7 @@ export async function closePeriod(db: Db, actor: Actor, input: unknown): Promise
     if (!p) reject("RECORD.NOT_FOUND", "No such period", "periodId");
     if (p.status === "CLOSED") reject("PERIOD.ALREADY_CLOSED", "The period is already closed", "periodId");
     if (p.endsAt > actor.now) reject("PERIOD.NOT_ENDED", "A period can only be closed after it ends", "periodId");
+    await appendAudit(tx, actor, { action: "CLOSE", entity: "AccountingPeriod", entityKey: String(p.id), before: { status: p.status }, after: { status: "CLOSED" }, reason: c.reason });
     return setPeriodStatus(tx, { periodId: p.id, status: "CLOSED", action: "CLOSE", reason: c.reason, byId: actor.userId, at: actor.now });
   });
 }
@@ -51,6 +55,7 @@ export async function reopenPeriod(db: Db, actor: Actor, input: unknown): Promis
     const p = await getPeriodState(tx, actor.siteId, r.periodId);
     if (!p) reject("RECORD.NOT_FOUND", "No such period", "periodId");
     if (p.status !== "CLOSED") reject("PERIOD.NOT_CLOSED", "Only a closed period can be reopened", "periodId");
+    await appendAudit(tx, actor, { action: "REOPEN", entity: "AccountingPeriod", entityKey: String(p.id), before: { status: p.status }, after: { status: "OPEN" }, reason: r.reason });
     return setPeriodStatus(tx, { periodId: p.id, status: "OPEN", action: "REOPEN", reason: r.reason, byId: actor.userId, at: actor.now });
   });
 }

@@ -1,4 +1,5 @@
 import "server-only";
+import { appendAudit } from "@/lib/audit/audit.store";
 import { z } from "zod";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
@@ -24,7 +25,9 @@ export async function recordQcResult(db: Db, actor: Actor, input: unknown): Prom
     const lot = await getProductState(tx, holder.id);
     if (lot.status !== "HELD") reject("PRODUCT.DECIDED", `Product lot ${q.productLotCode} is already ${lot.status.toLowerCase()}`, "productLotCode");
     const pass = qcPasses(q.value, q.limitMin, q.limitMax);
-    return insertQcResult(tx, { productLotId: lot.id, property: q.property, method: q.method, value: q.value, unit: q.unit, limitMin: q.limitMin ?? null, limitMax: q.limitMax ?? null, specRef: q.specRef, pass, testedAt: q.testedAt });
+    const saved = await insertQcResult(tx, { productLotId: lot.id, property: q.property, method: q.method, value: q.value, unit: q.unit, limitMin: q.limitMin ?? null, limitMax: q.limitMax ?? null, specRef: q.specRef, pass, testedAt: q.testedAt });
+    await appendAudit(tx, actor, { action: "CREATE", entity: "QcResult", entityKey: q.productLotCode, after: { ...q, pass } });
+    return saved;
   });
 }
 
@@ -45,6 +48,7 @@ export async function decideProductLot(db: Db, actor: Actor, input: unknown): Pr
       if (failed.length) reject("PRODUCT.QC_FAILED", `Cannot release: out of limits for ${failed.join(", ")}`, "decision");
     }
     await setProductStatus(tx, lot.id, d.decision, d.decision === "RELEASED" ? actor.now : null);
+    await appendAudit(tx, actor, { action: d.decision === "RELEASED" ? "RELEASE" : "REJECT", entity: "ProductLot", entityKey: d.productLotCode, before: { status: lot.status }, after: { status: d.decision } });
     return { code: d.productLotCode, status: d.decision };
   });
 }
@@ -64,6 +68,7 @@ export async function shipProduct(db: Db, actor: Actor, input: unknown): Promise
     const massG = toGrams(s.massKg);
     const shipment = await insertShipment(tx, { siteId: actor.siteId, holderId, documentNo: s.documentNo, customer: s.customer, shippedAt: s.shippedAt, massG, volumeMl: toMillilitres(s.volumeL), certifiedClaim: s.certifiedClaim });
     await postMovement(tx, { siteId: actor.siteId, at: s.shippedAt, role: "SHIPMENT", fromHolderId: from, toHolderId: holderId, massG, volumeMl: toMillilitres(s.volumeL), note: s.note, recordedById: actor.userId });
+    await appendAudit(tx, actor, { action: "CREATE", entity: "Shipment", entityKey: s.documentNo, after: { ...s, massG } });
     return shipment;
   });
 }

@@ -1,4 +1,5 @@
 import "server-only";
+import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { parseInput } from "@/lib/ledger/parse";
@@ -17,7 +18,9 @@ export async function createTank(db: Db, actor: Actor, input: unknown): Promise<
   const t = parsed.value;
   return runInTransaction(db, async (tx) => {
     const holderId = await createHolder(tx, actor.siteId, "TANK", t.code);
-    return insertTank(tx, { siteId: actor.siteId, holderId, code: t.code, name: t.name, service: t.service, capacityMl: toMillilitres(t.capacityL), mixing: t.mixing });
+    const saved = await insertTank(tx, { siteId: actor.siteId, holderId, code: t.code, name: t.name, service: t.service, capacityMl: toMillilitres(t.capacityL), mixing: t.mixing });
+    await appendAudit(tx, actor, { action: "CREATE", entity: "Tank", entityKey: t.code, after: t });
+    return saved;
   });
 }
 
@@ -36,6 +39,7 @@ export async function transferToTank(db: Db, actor: Actor, input: unknown): Prom
     await assertTankRoom(tx, to.id, toGrams(t.massKg), "massKg");
     const movementId = await postMovement(tx, { siteId: actor.siteId, at: t.at, role: "TRANSFER", fromHolderId: from, toHolderId: to.id, massG: toGrams(t.massKg), note: t.note, recordedById: actor.userId });
     await markLotConsumedIfEmpty(tx, from);
+    await appendAudit(tx, actor, { action: "CREATE", entity: "Movement", entityKey: String(movementId), after: { ...t, role: "TRANSFER", massG: toGrams(t.massKg) } });
     return { movementId };
   });
 }
@@ -50,6 +54,8 @@ export async function recordGauge(db: Db, actor: Actor, input: unknown): Promise
     if (!tank) reject("RECORD.NOT_FOUND", `Tank ${g.tankCode} does not exist`, "tankCode");
     const rho = densityAt(requireDensityEntry(DEFAULT_DENSITY_TABLE, serviceMaterial(tank.service)), g.tempC);
     const massG = toGrams((g.volumeL * rho) / 1000);
-    return insertGauge(tx, { tankId: tank.id, at: g.at, volumeMl: toMillilitres(g.volumeL), tempC: g.tempC, massG });
+    const saved = await insertGauge(tx, { tankId: tank.id, at: g.at, volumeMl: toMillilitres(g.volumeL), tempC: g.tempC, massG });
+    await appendAudit(tx, actor, { action: "CREATE", entity: "TankGauge", entityKey: g.tankCode, after: { ...g, massG } });
+    return saved;
   });
 }

@@ -1,4 +1,5 @@
 import "server-only";
+import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { parseInput } from "@/lib/ledger/parse";
@@ -14,7 +15,7 @@ export async function openWasteContainer(db: Db, actor: Actor, input: unknown): 
   const w = parsed.value;
   return runInTransaction(db, async (tx) => {
     const holderId = await createHolder(tx, actor.siteId, "WASTE_CONTAINER", w.code);
-    return insertWasteContainer(tx, {
+    const saved = await insertWasteContainer(tx, {
         siteId: actor.siteId,
         holderId,
         code: w.code,
@@ -27,6 +28,8 @@ export async function openWasteContainer(db: Db, actor: Actor, input: unknown): 
         flashPointC: w.flashPointC ?? null,
         waterPct: w.waterPct ?? null,
     });
+    await appendAudit(tx, actor, { action: "CREATE", entity: "WasteContainer", entityKey: w.code, after: w });
+    return saved;
   });
 }
 
@@ -44,6 +47,7 @@ export async function recordDisposal(db: Db, actor: Actor, input: unknown): Prom
     const disposal = await insertDisposal(tx, { siteId: actor.siteId, holderId, hauler: d.hauler, documentNo: d.documentNo, disposedAt: d.disposedAt, massG });
     await postMovement(tx, { siteId: actor.siteId, at: d.disposedAt, role: "DISPOSAL", fromHolderId: from.id, toHolderId: holderId, massG, recordedById: actor.userId, note: `hauled by ${d.hauler}` });
     if ((await getStockG(tx, from.id)) === 0) await setContainerStatus(tx, container.id, "SHIPPED");
+    await appendAudit(tx, actor, { action: "CREATE", entity: "Disposal", entityKey: d.documentNo, after: { ...d, massG } });
     return disposal;
   });
 }
