@@ -4,6 +4,8 @@ import type { z } from "zod";
 import type { Result } from "@/lib/errors";
 import { parseInput } from "@/lib/ledger/parse";
 import { statusFor } from "@/lib/http";
+import { createHash } from "node:crypto";
+import { withIdempotencyKey } from "@/lib/ledger/ledger.store";
 
 /** JSON body for a Result: 200 `{ok:true,value}` or the mapped status with `{ok:false,issues}`. */
 export function respond<T>(result: Result<T>): NextResponse {
@@ -46,4 +48,18 @@ export async function parseBody<S extends z.ZodType>(request: Request, schema: S
 
 export function parseQuery<S extends z.ZodType>(request: Request, schema: S): Result<z.output<S>> {
   return parseInput(schema, Object.fromEntries(new URL(request.url).searchParams));
+}
+
+const KEY_PATTERN = /^[A-Za-z0-9_-]{8,100}$/;
+
+/**
+ * Runs a client's write under its Idempotency-Key header (required on data-changing API calls):
+ * the key and the first answer are stored with the change; a retry gets the same answer.
+ */
+export async function idempotent<T>(request: Request, userId: number, body: unknown, fn: () => Promise<Result<T>>): Promise<Result<T>> {
+  const key = request.headers.get("idempotency-key");
+  if (!key) return { ok: false, issues: [{ code: "IDEMPOTENCY.KEY_REQUIRED", message: "Send an Idempotency-Key header (for example a UUID) with every write", field: "Idempotency-Key" }] };
+  if (!KEY_PATTERN.test(key)) return { ok: false, issues: [{ code: "IDEMPOTENCY.KEY_INVALID", message: "Idempotency-Key: 8–100 letters, digits, - or _", field: "Idempotency-Key" }] };
+  const requestHash = createHash("sha256").update(JSON.stringify(body ?? null)).digest("hex");
+  return withIdempotencyKey({ userId, key, requestHash }, fn);
 }

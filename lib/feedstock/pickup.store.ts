@@ -4,7 +4,7 @@ import type { Pickup } from "@/lib/feedstock/pickup.schema";
 import type { PickupSaved } from "@/lib/feedstock/pickup.service";
 import { toMillilitres } from "@/lib/quantity/units";
 
-export async function findPickupByKey(db: Db, key: string): Promise<PickupSaved | null> {
+export async function findPickupByKey(db: Db | Tx, key: string): Promise<PickupSaved | null> {
   return db.pickup.findUnique({ where: { idempotencyKey: key }, select: { id: true, code: true, massG: true, receivedAt: true } });
 }
 

@@ -1,6 +1,7 @@
 // The movement ledger: the only place that moves material between holders. Every post is a
 // guarded single-statement decrement of the source holder (never read-then-write), an increment
 // of the destination and one append-only ledger row, inside the caller's transaction.
+import { AsyncLocalStorage } from "node:async_hooks";
 import type { Db, Tx } from "@/lib/database/connect";
 import type { DomainIssue, Result } from "@/lib/errors";
 import { failMany, ok } from "@/lib/errors";
@@ -19,14 +20,63 @@ export function reject(code: DomainIssue["code"], message: string, field?: strin
   throw new Rejection([field === undefined ? { code, message } : { code, message, field }]);
 }
 
+export interface IdempotencyContext {
+  userId: number;
+  key: string;
+  /** SHA-256 of the request body: the same key with a different body is refused. */
+  requestHash: string;
+}
+
+const idempotency = new AsyncLocalStorage<IdempotencyContext>();
+
+/**
+ * Runs a client's write under its idempotency key: the first transaction inside fn stores the key and
+ * its answer atomically with the change; a retry with the same key gets that answer back unchanged.
+ */
+export function withIdempotencyKey<T>(ctx: IdempotencyContext, fn: () => Promise<T>): Promise<T> {
+  return idempotency.run(ctx, fn);
+}
+
+class Replay extends Error {
+  constructor(readonly answer: unknown) {
+    super("replay");
+  }
+}
+
 /** All-or-nothing: either fn commits entirely, or nothing is written and the reasons come back as a value. */
 export async function runInTransaction<T>(db: Db, fn: (tx: Tx) => Promise<T>, timeoutMs = 30_000): Promise<Result<T>> {
+  const key = idempotency.getStore();
   try {
-    return ok(await db.$transaction(fn, { timeout: timeoutMs, maxWait: timeoutMs }));
+    return ok(
+      await db.$transaction(
+        async (tx) => {
+          if (!key) return fn(tx);
+          const earlier = await tx.idempotencyRecord.findUnique({ where: { userId_key: { userId: key.userId, key: key.key } } });
+          if (earlier) {
+            if (earlier.requestHash !== key.requestHash) reject("IDEMPOTENCY.KEY_REUSED", "This idempotency key was already used for a different request", "Idempotency-Key");
+            throw new Replay(JSON.parse(earlier.response));
+          }
+          const value = await fn(tx);
+          await tx.idempotencyRecord.create({ data: { userId: key.userId, key: key.key, requestHash: key.requestHash, response: JSON.stringify(value ?? null), createdAt: new Date() } });
+          return value;
+        },
+        { timeout: timeoutMs, maxWait: timeoutMs },
+      ),
+    );
   } catch (e) {
+    if (e instanceof Replay) return ok(e.answer as T);
     if (e instanceof Rejection) return failMany(e.issues);
+    if (key && isUniqueViolation(e)) {
+      // A concurrent twin committed first: answer with what it stored.
+      const earlier = await db.idempotencyRecord.findUnique({ where: { userId_key: { userId: key.userId, key: key.key } } });
+      if (earlier && earlier.requestHash === key.requestHash) return ok(JSON.parse(earlier.response) as T);
+    }
     throw e;
   }
+}
+
+function isUniqueViolation(e: unknown): boolean {
+  return typeof e === "object" && e !== null && "code" in e && (e as { code?: unknown }).code === "P2002";
 }
 
 export async function createHolder(tx: Tx, siteId: number, kind: HolderKind, code: string, field = "code"): Promise<number> {

@@ -1,0 +1,13 @@
+import { z } from "zod";
+import type { EndpointDoc } from "@/lib/api/openapi";
+import { SignInSchema } from "@/lib/auth/session.schema";
+import { PickupSchema } from "@/lib/feedstock/pickup.schema";
+import { TransferSchema } from "@/lib/tank/tank.schema";
+
+/** Sign-in and record-keeping writes. Writes need an Idempotency-Key header. */
+export const RECORD_ENDPOINTS: EndpointDoc[] = [
+  { method: "post", path: "/api/session", tag: "session", summary: "Sign in; sets the HttpOnly session cookie", input: SignInSchema },
+  { method: "post", path: "/api/pickups", tag: "records", summary: "Record one pickup (Idempotency-Key header required)", input: PickupSchema },
+  { method: "post", path: "/api/pickups/import", tag: "records", summary: "Import pickups all-or-nothing; rows with a known idempotency key are skipped", input: z.object({ rows: z.array(PickupSchema) }) },
+  { method: "post", path: "/api/transfers", tag: "records", summary: "Move material into a tank, guarded against over-drawing (Idempotency-Key header required)", input: TransferSchema },
+];
