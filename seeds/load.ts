@@ -116,7 +116,8 @@ async function truncateAll(db: Db): Promise<void> {
 /** Loads the demo into url if it holds no site yet (or always, with reset). Returns false when skipped. */
 export async function loadDemo(url: string, opts: { reset?: boolean; log?: (s: string) => void } = {}): Promise<boolean> {
   const log = opts.log ?? (() => {});
-  const ops = buildScenario({ anchor: demoAnchor() });
+  const days = process.env.DEMO_DAYS ? Number(process.env.DEMO_DAYS) : undefined;
+  const ops = buildScenario({ anchor: demoAnchor(), ...(days && days > 0 ? { days } : {}) });
   validateScenario(ops);
   if (isPostgresUrl(url)) {
     await deploy(url);

@@ -175,3 +175,13 @@ export async function listMovementsById(db: Db, siteId: number, ids: readonly nu
   }
   return found;
 }
+
+export interface HolderStock {
+  kind: string;
+  code: string;
+  stockG: number;
+}
+
+export async function getHolderStock(db: Db, siteId: number, kind: string, code: string): Promise<HolderStock | null> {
+  return db.holder.findUnique({ where: { siteId_kind_code: { siteId, kind, code } }, select: { kind: true, code: true, stockG: true } });
+}

@@ -2,7 +2,7 @@ import { z } from "zod";
 import type { EndpointDoc } from "@/lib/api/openapi";
 import { SignInSchema } from "@/lib/auth/session.schema";
 import { PickupSchema } from "@/lib/feedstock/pickup.schema";
-import { TransferSchema } from "@/lib/tank/tank.schema";
+import { TankSchema, TransferSchema } from "@/lib/tank/tank.schema";
 
 /** Sign-in and record-keeping writes. Writes need an Idempotency-Key header. */
 export const RECORD_ENDPOINTS: EndpointDoc[] = [
@@ -10,4 +10,6 @@ export const RECORD_ENDPOINTS: EndpointDoc[] = [
   { method: "post", path: "/api/pickups", tag: "records", summary: "Record one pickup (Idempotency-Key header required)", input: PickupSchema },
   { method: "post", path: "/api/pickups/import", tag: "records", summary: "Import pickups all-or-nothing; rows with a known idempotency key are skipped", input: z.object({ rows: z.array(PickupSchema) }) },
   { method: "post", path: "/api/transfers", tag: "records", summary: "Move material into a tank, guarded against over-drawing (Idempotency-Key header required)", input: TransferSchema },
+  { method: "post", path: "/api/tanks", tag: "records", summary: "Register a tank (Idempotency-Key header required)", input: TankSchema },
+  { method: "get", path: "/api/holders/{kind}/{code}", tag: "records", summary: "Book stock of a lot, tank, product lot or other holder, in grams" },
 ];

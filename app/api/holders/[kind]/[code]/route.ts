@@ -1,0 +1,17 @@
+import type { NextResponse } from "next/server";
+import { getDb } from "@/lib/db";
+import { respond } from "@/lib/api/json-route.service";
+import { requireRole } from "@/lib/auth/request.service";
+import { HOLDER_KINDS } from "@/lib/ledger/kinds";
+import { getHolderStock } from "@/lib/ledger/movement.store";
+
+/** Book stock of one holder (lot, tank, product lot, …) in grams. */
+export async function GET(_request: Request, context: { params: Promise<{ kind: string; code: string }> }): Promise<NextResponse> {
+  const who = await requireRole(["COLLECTOR", "PRODUCTION", "COMPLIANCE", "ADMIN"]);
+  if (!who.ok) return respond(who);
+  const { kind, code } = await context.params;
+  const k = kind.toUpperCase();
+  if (!(HOLDER_KINDS as readonly string[]).includes(k)) return respond({ ok: false, issues: [{ code: "INPUT.INVALID", message: `kind must be one of: ${HOLDER_KINDS.join(", ")}`, field: "kind" }] });
+  const stock = await getHolderStock(await getDb(), who.value.siteId, k, decodeURIComponent(code).toUpperCase());
+  return respond(stock ? { ok: true, value: stock } : { ok: false, issues: [{ code: "RECORD.NOT_FOUND", message: `No ${k.toLowerCase()} ${code}`, field: "code" }] });
+}
