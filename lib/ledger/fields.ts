@@ -47,4 +47,11 @@ export const when = (what: string) =>
 export const oneOf = <T extends readonly [string, ...string[]]>(what: string, values: T) =>
   z.enum(values, { error: `${what} must be one of: ${values.join(", ")}` });
 
-export const id = (what: string) => z.number({ error: `${what} must be a record number` }).int(`${what} must be a whole number`).positive(`${what} must be a record number`);
+/** Record numbers are 32-bit integer columns on both databases. */
+export const MAX_RECORD_ID = 2_147_483_647;
+export const id = (what: string) =>
+  z
+    .number({ error: `${what} must be a record number` })
+    .int(`${what} must be a whole number`)
+    .positive(`${what} must be a record number`)
+    .max(MAX_RECORD_ID, `${what} is not a record number (too large)`);
