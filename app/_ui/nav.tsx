@@ -7,16 +7,12 @@ const ITEMS: ReadonlyArray<readonly [string, string]> = [
   ["/sources", "Sources"],
   ["/pickups", "Pickups"],
   ["/lots", "Lots"],
-  ["/lab", "Lab"],
   ["/tanks", "Tanks"],
   ["/batches", "Batches"],
-  ["/plan", "Plan a batch"],
   ["/products", "Product lots"],
   ["/shipments", "Shipments"],
   ["/waste", "Waste"],
   ["/periods", "Periods"],
-  ["/trace", "Trace"],
-  ["/balance", "Balance"],
   ["/ledger", "Ledger"],
 ];
 
