@@ -4,7 +4,7 @@ const nextConfig = {
   // A second working copy of the build output for parallel dev servers (NEXT_DIST_DIR=.next-<name>).
   distDir: process.env.NEXT_DIST_DIR ?? ".next",
   poweredByHeader: false,
-  serverExternalPackages: ["@prisma/adapter-better-sqlite3", "@prisma/adapter-pg", "better-sqlite3", "pg"],
+  serverExternalPackages: ["@prisma/adapter-better-sqlite3", "@prisma/adapter-pg", "better-sqlite3", "pg", "highs"],
   turbopack: { root: import.meta.dirname },
 };
 

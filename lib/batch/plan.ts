@@ -310,11 +310,11 @@ export interface CatalystAssay {
   source: string;
 }
 
-/** The catalyst's purity (or methoxide strength): as entered, else the newest reagent lot in stock. */
-export function pickCatalystAssay(catalyst: Catalyst, entered: number | undefined, reagents: readonly ReagentStock[]): CatalystAssay | null {
+/** A reagent's purity (or methoxide strength): as entered, else the newest reagent lot of it in stock. */
+export function pickAssay(reagent: string, entered: number | undefined, reagents: readonly ReagentStock[]): CatalystAssay | null {
   if (entered !== undefined) return { pct: entered, source: "entered by the planner" };
   const newest = reagents
-    .filter((r) => r.reagent === catalyst && r.stockG > 0)
+    .filter((r) => r.reagent === reagent && r.stockG > 0)
     .sort((a, b) => b.receivedAt.getTime() - a.receivedAt.getTime() || a.code.localeCompare(b.code))[0];
   return newest ? { pct: newest.strengthPct, source: `reagent lot ${newest.code} as received` } : null;
 }
@@ -325,6 +325,7 @@ export function toPretreatmentInput(
   draws: ReadonlyArray<{ ref: string; massG: number }>,
   candidates: readonly PlanCandidate[],
   assay: CatalystAssay | null,
+  acidAssay: CatalystAssay | null = null,
 ): PretreatmentInput {
   const byRef = new Map(candidates.map((c) => [c.ref, c]));
   const solid = CATALYST_PROFILES[request.catalyst].form === "SOLID";
@@ -338,7 +339,7 @@ export function toPretreatmentInput(
   const acidStep = {
     ...(request.acidMethanolToFfaRatio === undefined ? {} : { methanolToFfaMolarRatio: request.acidMethanolToFfaRatio }),
     ...(request.acidPctOfFfa === undefined ? {} : { acidPctOfFfa: request.acidPctOfFfa }),
-    ...(request.acidPurityPct === undefined ? {} : { acidPurityPct: request.acidPurityPct }),
+    ...(acidAssay === null ? {} : { acidPurityPct: acidAssay.pct }),
     ...(request.residualFfaPct === undefined ? {} : { residualFfaPct: request.residualFfaPct }),
   };
   return {
@@ -494,14 +495,35 @@ export interface RecipeCard {
 
 export const CARD_FORMAT = "tracevat.recipe-card/1";
 
+function fixed(n: number, digits: number): string {
+  return Number(n.toFixed(digits)).toString();
+}
+
+/** The route in words, with the thresholds' sources. */
+export function describeRoute(plan: Pick<PretreatmentPlan, "decision">): string {
+  const d = plan.decision;
+  const ffa = `Blend FFA ${fixed(d.ffaPct, 2)} %`;
+  const limits = DEFAULT_PRETREATMENT_LIMITS;
+  switch (d.route) {
+    case "DIRECT_BASE":
+      return `${ffa} is below ${d.directBaseMaxFfaPct} %: direct base catalysis (${limits.directBaseMaxFfaPct.source}).`;
+    case "BASE_WITH_EXTRA_CATALYST":
+      return `${ffa} is from ${d.directBaseMaxFfaPct} % to below ${d.baseCatalysisMaxFfaPct} %: base catalysis with extra catalyst to neutralise the FFA (${limits.baseCatalysisMaxFfaPct.source}).`;
+    case "ACID_PRETREATMENT":
+      return `${ffa} is ${d.baseCatalysisMaxFfaPct} % or more: acid esterification of the FFA first, then the base step (${limits.baseCatalysisMaxFfaPct.source}; two-step process after Canakci & Van Gerpen 2001).`;
+  }
+}
+
 export function composeCard(args: {
   request: BatchPlanRequest;
   blend: BlendPlan;
   candidates: readonly PlanCandidate[];
   plan: PretreatmentPlan;
   assay: CatalystAssay | null;
+  acidAssay?: CatalystAssay | null;
 }): RecipeCard {
   const { request, blend, candidates, plan, assay } = args;
+  const acidAssay = args.acidAssay ?? null;
   const byRef = new Map(candidates.map((c) => [c.ref, c]));
   const base = plan.baseStep;
   const acid = plan.acidStep;
@@ -515,7 +537,14 @@ export function composeCard(args: {
   if (assay === null) notes.push("Catalyst purity/strength: no value entered and no reagent lot in stock; the recipe default is used (see warnings).");
   else notes.push(`Catalyst ${base.catalyst.assayKind === "PURITY" ? "purity" : "solution strength"} ${assay.pct} %: ${assay.source}.`);
   notes.push("Tank FFA and water are the mass-weighted means of the lab results of the lots it holds now (traced through the ledger).");
-  const acidPurityPct = request.acidPurityPct ?? DEFAULT_ACID_STEP_SETTINGS.acidPurityPct.value;
+  const acidPurityPct = acidAssay?.pct ?? DEFAULT_ACID_STEP_SETTINGS.acidPurityPct.value;
+  if (acid !== null) {
+    notes.push(
+      acidAssay === null
+        ? `Sulfuric acid assay: ${acidPurityPct} % (${DEFAULT_ACID_STEP_SETTINGS.acidPurityPct.source}); enter the certificate value.`
+        : `Sulfuric acid assay ${acidAssay.pct} %: ${acidAssay.source}.`,
+    );
+  }
   const methanolTotalKg = base.methanol.toAddKg + (acid?.methanolKg ?? 0);
   return {
     format: CARD_FORMAT,
@@ -535,7 +564,7 @@ export function composeCard(args: {
       costTotal: blend.costTotal,
       meanAgeDays: blend.meanAgeDays,
     },
-    route: { route: plan.decision.route, reason: plan.decision.reason },
+    route: { route: plan.decision.route, reason: describeRoute(plan) },
     acidStep:
       acid === null
         ? null
@@ -607,14 +636,16 @@ export interface PlanProposal {
   request: BatchPlanRequest;
   candidates: PlanCandidate[];
   assay: CatalystAssay | null;
+  acidAssay: CatalystAssay | null;
   outcome: PlanOutcome;
 }
 
 /** Candidates → blend (HiGHS) → route and recipe → card. A blend that cannot be made says which limit fails and by how much. */
 export async function draftBatchPlan(request: BatchPlanRequest, stock: PlanStock, reagents: readonly ReagentStock[], now: Date): Promise<PlanProposal> {
   const candidates = buildCandidates(stock, request, now);
-  const assay = pickCatalystAssay(request.catalyst, request.assayPct, reagents);
-  const done = (outcome: PlanOutcome): PlanProposal => ({ request, candidates, assay, outcome });
+  const assay = pickAssay(request.catalyst, request.assayPct, reagents);
+  const acidAssay = pickAssay("H2SO4", request.acidPurityPct, reagents);
+  const done = (outcome: PlanOutcome): PlanProposal => ({ request, candidates, assay, acidAssay, outcome });
   const blendRequest = toBlendRequest(request, candidates);
   if (blendRequest.candidates.length === 0) {
     return done({
@@ -629,12 +660,12 @@ export async function draftBatchPlan(request: BatchPlanRequest, stock: PlanStock
     const diagnosis = await diagnoseBlend(blendRequest);
     return done({ ok: false, stage: "BLEND", issues: renameFields(blend.issues), diagnosis });
   }
-  const inputs = toPretreatmentInput(request, blend.value.draws, candidates, assay);
+  const inputs = toPretreatmentInput(request, blend.value.draws, candidates, assay, acidAssay);
   const parsed = parseInput(PretreatmentInputSchema, inputs);
   if (!parsed.ok) return done({ ok: false, stage: "RECIPE", issues: renameFields(parsed.issues), diagnosis: null });
   const plan = planPretreatment(parsed.value);
   if (!plan.ok) return done({ ok: false, stage: "RECIPE", issues: renameFields(plan.issues), diagnosis: null });
-  const card = composeCard({ request, blend: blend.value, candidates, plan: plan.value, assay });
+  const card = composeCard({ request, blend: blend.value, candidates, plan: plan.value, assay, acidAssay });
   return done({ ok: true, blend: blend.value, plan: plan.value, card, stored: { format: CARD_FORMAT, inputs: parsed.value, card } });
 }
 
@@ -659,8 +690,13 @@ export interface BatchFacts {
   pretreated: boolean;
   targetOilG: number;
   molarRatio: number;
-  catalyst: Catalyst;
+  /** As stored; a value outside the catalyst list means no plan can be rebuilt. */
+  catalyst: string;
   reactionTempC: number;
+}
+
+function toCatalyst(value: string): Catalyst | null {
+  return (CATALYSTS as readonly string[]).includes(value) ? (value as Catalyst) : null;
 }
 
 /** The figures an actual batch is compared with: what to charge and what should come out. */
@@ -705,6 +741,8 @@ function asFeedPlan(plan: PretreatmentPlan, overrides: { methanolKg?: number; ca
 
 /** Rebuilds the plan a batch was recorded with; null when its stored recipe is in neither known form. */
 export function readPlannedFigures(batch: BatchFacts): PlannedFigures | null {
+  const catalyst = toCatalyst(batch.catalyst);
+  if (catalyst === null) return null;
   const raw = parseJson(batch.recipeJson);
   const card = StoredInputsSchema.safeParse(raw);
   if (card.success) {
@@ -716,7 +754,7 @@ export function readPlannedFigures(batch: BatchFacts): PlannedFigures | null {
       basis: "card",
       oilKg: yieldPlan.oil.massKg,
       methanolKg: yieldPlan.methanol.toAddKg,
-      catalyst: batch.catalyst,
+      catalyst,
       catalystProductKg: p.baseStep.catalyst.productKg,
       acidProductKg: p.acidStep?.acidProductKg ?? 0,
       washWaterKg: p.baseStep.washWater.totalKg,
@@ -734,7 +772,7 @@ export function readPlannedFigures(batch: BatchFacts): PlannedFigures | null {
   if (!legacy.success) return null;
   const l = legacy.data;
   const lots = [{ lotRef: "batch", massKg: batch.targetOilG / 1000, ffaPct: l.blendFfaPct, waterPct: 0 }];
-  const settings = { catalyst: batch.catalyst, molarRatio: batch.molarRatio, reactionTempC: batch.reactionTempC };
+  const settings = { catalyst, molarRatio: batch.molarRatio, reactionTempC: batch.reactionTempC };
   let plan: Result<PretreatmentPlan>;
   if (batch.pretreated) {
     // The stored batch says it was pretreated: force the acid route whatever its FFA.
@@ -752,7 +790,7 @@ export function readPlannedFigures(batch: BatchFacts): PlannedFigures | null {
     basis: "legacy",
     oilKg: yieldPlan.oil.massKg,
     methanolKg,
-    catalyst: batch.catalyst,
+    catalyst,
     catalystProductKg: l.catalystKg,
     acidProductKg: l.acidKg,
     washWaterKg: l.washWaterKg,
@@ -843,20 +881,25 @@ function drawReagent(reagents: readonly ReagentStock[], reagent: string, grams: 
 }
 
 /** Start-form rows from the plan: the oil draws, then methanol, catalyst, acid and wash water from reagent lots in stock. */
-export function suggestCharges(planned: PlannedFigures, reagents: readonly ReagentStock[]): { rows: ChargeSuggestion[]; shortages: string[] } {
+export function suggestCharges(planned: PlannedFigures, reagents: readonly ReagentStock[]): { rows: ChargeSuggestion[]; notices: string[] } {
   const rows: ChargeSuggestion[] = planned.draws.map((d) => ({ fromKind: d.kind, fromCode: d.code, role: "OIL", massKg: d.massG / 1000 }));
-  const shortages: string[] = [];
+  const notices: string[] = [];
+  // A plan without stored draws still needs its oil: one row for the planner to say where from.
+  if (rows.length === 0) {
+    rows.push({ fromKind: "TANK", fromCode: "", role: "OIL", massKg: planned.oilKg });
+    notices.push("Oil: the plan stores no draws; say which tank or lot the oil comes from");
+  }
   const add = (reagent: string, kg: number, role: ChargeSuggestion["role"], label: string) => {
     const grams = Math.round(kg * 1000);
     if (grams <= 0) return;
     const { parts, shortG } = drawReagent(reagents, reagent, grams);
     for (const p of parts) rows.push({ fromKind: "REAGENT_LOT", fromCode: p.code, role, massKg: p.grams / 1000 });
-    if (shortG > 0) shortages.push(`${label}: ${(shortG / 1000).toFixed(3)} kg more than the reagent lots in stock hold`);
+    if (shortG > 0) notices.push(`${label}: ${(shortG / 1000).toFixed(3)} kg more than the reagent lots in stock hold`);
   };
   add("METHANOL", planned.methanolKg, "METHANOL", "Methanol");
   add(planned.catalyst, planned.catalystProductKg, "CATALYST", "Catalyst");
   add("H2SO4", planned.acidProductKg, "ACID", "Sulfuric acid");
   add("WATER", planned.washWaterKg, "WATER", "Wash water");
-  return { rows, shortages };
+  return { rows, notices };
 }
 

@@ -9,6 +9,7 @@ import { codeParam } from "@/app/_ui/links";
 import { MadeOf } from "@/app/_ui/made-of";
 import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, Facts, MovementTable, NoSite, Note, Status } from "@/app/_ui/ui";
+import { BatchPlanSection } from "@/app/batches/[code]/batch-plan-section";
 
 export const dynamic = "force-dynamic";
 
@@ -61,6 +62,7 @@ export default async function BatchPage({ params }: Props) {
         ]}
       />
       {b.notes ? <p>Notes: {b.notes}</p> : null}
+      <BatchPlanSection batch={b} />
 
       <h2>Charges in</h2>
       {b.charges.length === 0 ? <Empty>Nothing has been charged yet.</Empty> : <MovementTable rows={b.charges} timeZone={tz} side="to" />}

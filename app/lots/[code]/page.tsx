@@ -54,6 +54,9 @@ export default async function LotPage({ params }: Props) {
         ]}
       />
       {lot.notes ? <p>Notes: {lot.notes}</p> : null}
+      <p>
+        <Link href={`/lab/${encodeURIComponent(lot.code)}`}>{lot.status === "QUARANTINED" ? "Record lab results and decide" : "Lab results"}</Link>
+      </p>
 
       <h2>Measurement and density basis</h2>
       <Facts

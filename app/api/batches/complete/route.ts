@@ -1,0 +1,20 @@
+import type { NextResponse } from "next/server";
+import { getDb } from "@/lib/db";
+import { requireRole } from "@/lib/auth/request.service";
+import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
+import { BatchCompleteSchema } from "@/lib/batch/batch.schema";
+import { completeBatch } from "@/lib/batch/batch.service";
+
+export const dynamic = "force-dynamic";
+
+/** Records the outputs of a reacting batch. */
+export async function POST(request: Request): Promise<NextResponse> {
+  const origin = requireSameOrigin(request);
+  if (!origin.ok) return respond(origin);
+  const who = await requireRole(["PRODUCTION"]);
+  if (!who.ok) return respond(who);
+  const input = await parseBody(request, BatchCompleteSchema);
+  if (!input.ok) return respond(input);
+  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  return respond(await completeBatch(await getDb(), actor, input.value));
+}

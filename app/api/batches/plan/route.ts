@@ -1,0 +1,20 @@
+import type { NextResponse } from "next/server";
+import { getDb } from "@/lib/db";
+import { requireRole } from "@/lib/auth/request.service";
+import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
+import { BatchPlanRequestSchema } from "@/lib/batch/plan";
+import { recordPlannedBatch } from "@/lib/batch/plan.service";
+
+export const dynamic = "force-dynamic";
+
+/** Proposes draws and a recipe from the stock now and records the batch as planned. */
+export async function POST(request: Request): Promise<NextResponse> {
+  const origin = requireSameOrigin(request);
+  if (!origin.ok) return respond(origin);
+  const who = await requireRole(["PRODUCTION"]);
+  if (!who.ok) return respond(who);
+  const input = await parseBody(request, BatchPlanRequestSchema);
+  if (!input.ok) return respond(input);
+  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  return respond(await recordPlannedBatch(await getDb(), actor, input.value));
+}

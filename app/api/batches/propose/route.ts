@@ -1,0 +1,24 @@
+import type { NextResponse } from "next/server";
+import { getDb } from "@/lib/db";
+import { failMany, ok } from "@/lib/errors";
+import { SITE_ROLES } from "@/lib/ledger/kinds";
+import { requireRole } from "@/lib/auth/request.service";
+import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
+import { BatchPlanRequestSchema } from "@/lib/batch/plan";
+import { proposeBatchPlan } from "@/lib/batch/plan.service";
+
+export const dynamic = "force-dynamic";
+
+/** Draws and recipe card from the stock now; a blend that cannot be made is refused with the limit that fails. */
+export async function POST(request: Request): Promise<NextResponse> {
+  const origin = requireSameOrigin(request);
+  if (!origin.ok) return respond(origin);
+  const who = await requireRole(SITE_ROLES);
+  if (!who.ok) return respond(who);
+  const input = await parseBody(request, BatchPlanRequestSchema);
+  if (!input.ok) return respond(input);
+  const proposal = await proposeBatchPlan(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, input.value);
+  if (!proposal.ok) return respond(proposal);
+  const { candidates, outcome } = proposal.value;
+  return respond(outcome.ok ? ok({ candidates, card: outcome.card }) : failMany(outcome.issues));
+}

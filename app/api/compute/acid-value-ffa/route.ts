@@ -1,0 +1,18 @@
+import type { NextResponse } from "next/server";
+import { SITE_ROLES } from "@/lib/ledger/kinds";
+import { requireRole } from "@/lib/auth/request.service";
+import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
+import { AcidValueFfaRequestSchema, answerAcidValueFfa } from "@/lib/api/endpoints/lab";
+
+export const dynamic = "force-dynamic";
+
+/** Acid value ↔ FFA % conversion. */
+export async function POST(request: Request): Promise<NextResponse> {
+  const origin = requireSameOrigin(request);
+  if (!origin.ok) return respond(origin);
+  const who = await requireRole(SITE_ROLES);
+  if (!who.ok) return respond(who);
+  const input = await parseBody(request, AcidValueFfaRequestSchema);
+  if (!input.ok) return respond(input);
+  return respond(answerAcidValueFfa(input.value));
+}

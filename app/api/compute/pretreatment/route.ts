@@ -1,0 +1,19 @@
+import type { NextResponse } from "next/server";
+import { SITE_ROLES } from "@/lib/ledger/kinds";
+import { requireRole } from "@/lib/auth/request.service";
+import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
+import { PretreatmentInputSchema } from "@/lib/recipe/recipe.schema";
+import { answerPretreatment } from "@/lib/api/endpoints/lab";
+
+export const dynamic = "force-dynamic";
+
+/** Route by FFA, and the acid step plus base step when needed. */
+export async function POST(request: Request): Promise<NextResponse> {
+  const origin = requireSameOrigin(request);
+  if (!origin.ok) return respond(origin);
+  const who = await requireRole(SITE_ROLES);
+  if (!who.ok) return respond(who);
+  const input = await parseBody(request, PretreatmentInputSchema);
+  if (!input.ok) return respond(input);
+  return respond(answerPretreatment(input.value));
+}

@@ -1,0 +1,20 @@
+import type { NextResponse } from "next/server";
+import { getDb } from "@/lib/db";
+import { requireRole } from "@/lib/auth/request.service";
+import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
+import { LotDecisionSchema } from "@/lib/feedstock/lot.schema";
+import { decideLot } from "@/lib/feedstock/lot.service";
+
+export const dynamic = "force-dynamic";
+
+/** Accepts (needs a titration) or rejects a lot. */
+export async function POST(request: Request): Promise<NextResponse> {
+  const origin = requireSameOrigin(request);
+  if (!origin.ok) return respond(origin);
+  const who = await requireRole(["PRODUCTION"]);
+  if (!who.ok) return respond(who);
+  const input = await parseBody(request, LotDecisionSchema);
+  if (!input.ok) return respond(input);
+  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  return respond(await decideLot(await getDb(), actor, input.value));
+}

@@ -1,0 +1,19 @@
+import type { NextResponse } from "next/server";
+import { getDb } from "@/lib/db";
+import { requireRole } from "@/lib/auth/request.service";
+import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
+import { LotTitrationSchema, recordTitration } from "@/lib/feedstock/titration.service";
+
+export const dynamic = "force-dynamic";
+
+/** Records a titration; FFA % and acid value are computed on the server. */
+export async function POST(request: Request): Promise<NextResponse> {
+  const origin = requireSameOrigin(request);
+  if (!origin.ok) return respond(origin);
+  const who = await requireRole(["PRODUCTION"]);
+  if (!who.ok) return respond(who);
+  const input = await parseBody(request, LotTitrationSchema);
+  if (!input.ok) return respond(input);
+  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  return respond(await recordTitration(await getDb(), actor, input.value));
+}

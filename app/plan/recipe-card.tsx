@@ -1,0 +1,229 @@
+import type { Caution, CautionStep, RecipeCard } from "@/lib/batch/plan";
+import { PLAN_OBJECTIVE_LABELS } from "@/lib/batch/plan";
+import { labelOf } from "@/lib/ledger/kinds";
+import { formatFixed } from "@/lib/quantity/units";
+
+function kgText(kg: number, d = 2): string {
+  return `${formatFixed(kg, d)} kg`;
+}
+
+function pctText(p: number, d = 2): string {
+  return `${formatFixed(p, d)} %`;
+}
+
+function StepCautions({ cautions, steps }: { cautions: readonly Caution[]; steps: readonly CautionStep[] }) {
+  const shown = cautions.filter((c) => steps.includes(c.step));
+  if (shown.length === 0) return null;
+  return (
+    <ul className="card-cautions">
+      {shown.map((c) => (
+        <li key={c.step}>
+          <strong>Caution:</strong> {c.text}
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+const ROUTE_LABEL: Record<string, string> = {
+  DIRECT_BASE: "Base catalysis",
+  BASE_WITH_EXTRA_CATALYST: "Base catalysis with extra catalyst for the FFA",
+  ACID_PRETREATMENT: "Acid pretreatment, then base catalysis",
+};
+
+/** The recipe card: what to draw, what to add at each step, what to expect, and the cautions at each step. */
+export function RecipeCardView({ card, heading = "Recipe card", printedAt }: { card: RecipeCard; heading?: string; printedAt?: string }) {
+  const base = card.baseStep;
+  const acid = card.acidStep;
+  const methoxide = base.catalyst.assayKind === "SOLUTION_STRENGTH";
+  return (
+    <article className="recipe-card" aria-labelledby="card-h">
+      <header className="card-head">
+        <h2 id="card-h">
+          {heading}
+          {card.code ? ` — batch ${card.code}` : ""}
+        </h2>
+        <p>
+          {kgText(card.blend.massG / 1000, 1)} oil · {ROUTE_LABEL[card.route.route] ?? card.route.route} · {labelOf(base.catalyst.type)} · {formatFixed(base.molarRatio, 1)} : 1 methanol ·{" "}
+          {formatFixed(base.reactionTempC, 1)} °C{printedAt ? ` · printed ${printedAt}` : ""}
+        </p>
+      </header>
+
+      <section aria-labelledby="card-safety-h" className="card-safety">
+        <h3 id="card-safety-h">Before you start</h3>
+        <StepCautions cautions={card.cautions} steps={["GENERAL", "HOT_OIL"]} />
+      </section>
+
+      <section aria-labelledby="card-draws-h">
+        <h3 id="card-draws-h">1. Oil to draw ({PLAN_OBJECTIVE_LABELS[card.objective]})</h3>
+        <table>
+          <thead>
+            <tr>
+              <th scope="col">From</th>
+              <th scope="col" className="num">Mass</th>
+              <th scope="col" className="num">FFA</th>
+              <th scope="col" className="num">Water</th>
+              <th scope="col" className="tick">Drawn</th>
+            </tr>
+          </thead>
+          <tbody>
+            {card.draws.map((d) => (
+              <tr key={d.ref}>
+                <td>
+                  {d.kind === "LOT" ? "Lot" : "Tank"} <span className="code">{d.code}</span>
+                </td>
+                <td className="num">{kgText(d.massG / 1000, 3)}</td>
+                <td className="num">{pctText(d.ffaPct)}</td>
+                <td className="num">{pctText(d.waterPct, 3)}</td>
+                <td className="tick">☐</td>
+              </tr>
+            ))}
+          </tbody>
+          <tfoot>
+            <tr>
+              <td>Blend</td>
+              <td className="num">{kgText(card.blend.massG / 1000, 3)}</td>
+              <td className="num">
+                {pctText(card.blend.ffaPct)} <span className="muted">(limit {pctText(card.blend.maxFfaPct)})</span>
+              </td>
+              <td className="num">
+                {pctText(card.blend.waterPct, 3)} <span className="muted">(limit {pctText(card.blend.maxWaterPct, 3)})</span>
+              </td>
+              <td />
+            </tr>
+          </tfoot>
+        </table>
+        <p className="note">{card.route.reason}</p>
+      </section>
+
+      {acid ? (
+        <section aria-labelledby="card-acid-h">
+          <h3 id="card-acid-h">2. Acid step: esterify the free fatty acids</h3>
+          <dl className="card-figures">
+            <div>
+              <dt>Methanol</dt>
+              <dd>
+                {kgText(acid.methanolKg)} ({formatFixed(acid.methanolL20C, 1)} L at 20 °C) — {formatFixed(acid.methanolToFfaMolarRatio, 0)} : 1 on the FFA
+              </dd>
+            </div>
+            <div>
+              <dt>Sulfuric acid</dt>
+              <dd>
+                {kgText(acid.acidProductKg, 3)} of {formatFixed(acid.acidPurityPct, 1)} % acid ({kgText(acid.acidPureKg, 3)} as H₂SO₄, {formatFixed(acid.acidPctOfFfa, 1)} % of the FFA)
+              </dd>
+            </div>
+            <div>
+              <dt>Water formed</dt>
+              <dd>{kgText(acid.waterFormedKg)}</dd>
+            </div>
+            <div>
+              <dt>Then</dt>
+              <dd>
+                settle and draw off the alcohol/water phase (≈ {kgText(acid.alcoholPhaseKg, 1)}); the oil phase (≈ {kgText(acid.oilPhaseKg, 1)}) should test below{" "}
+                {pctText(acid.residualFfaPct, 1)} FFA before the base step — titrate it.
+              </dd>
+            </div>
+          </dl>
+          <StepCautions cautions={card.cautions} steps={["ACID", "METHANOL"]} />
+        </section>
+      ) : null}
+
+      <section aria-labelledby="card-base-h">
+        <h3 id="card-base-h">{acid ? "3" : "2"}. Base step: transesterification</h3>
+        <dl className="card-figures">
+          <div>
+            <dt>Methanol to add</dt>
+            <dd>
+              <strong>{kgText(base.methanol.toAddKg)}</strong> ({formatFixed(base.methanol.toAddL20C, 1)} L at 20 °C)
+            </dd>
+          </div>
+          {methoxide ? (
+            <div>
+              <dt>Methanol in the methoxide solution</dt>
+              <dd>{kgText(base.methanol.fromCatalystSolutionKg)} — counted toward the charge</dd>
+            </div>
+          ) : null}
+          <div>
+            <dt>Methanol in the reactor</dt>
+            <dd>
+              {kgText(base.methanol.totalKg)} ({formatFixed(base.molarRatio, 1)} : 1 asks for {kgText(base.methanol.chargeKg)})
+            </dd>
+          </div>
+          <div>
+            <dt>{labelOf(base.catalyst.type)}</dt>
+            <dd>
+              <strong>{kgText(base.catalyst.productKg, 3)}</strong> of {formatFixed(base.catalyst.assayPct, 1)} % {methoxide ? "solution" : "product"} ({kgText(base.catalyst.pureKg, 3)} pure:{" "}
+              {kgText(base.catalyst.baseKg, 3)} base dose + {kgText(base.catalyst.neutralisationKg, 3)} to neutralise the FFA). Strength from {base.catalyst.assaySource}.
+            </dd>
+          </div>
+          <div>
+            <dt>Oil into this step</dt>
+            <dd>
+              {kgText(base.oilKg, 1)} at {pctText(base.ffaPct)} FFA, {pctText(base.waterPct, 3)} water
+            </dd>
+          </div>
+          <div>
+            <dt>Reaction temperature</dt>
+            <dd>{formatFixed(base.reactionTempC, 1)} °C</dd>
+          </div>
+        </dl>
+        <StepCautions cautions={card.cautions} steps={acid ? ["CATALYST"] : ["METHANOL", "CATALYST"]} />
+      </section>
+
+      <section aria-labelledby="card-out-h">
+        <h3 id="card-out-h">{acid ? "4" : "3"}. Expected at full conversion</h3>
+        <dl className="card-figures">
+          <div>
+            <dt>Ester</dt>
+            <dd>{kgText(card.expected.esterKg, 1)}</dd>
+          </div>
+          <div>
+            <dt>Glycerol (pure)</dt>
+            <dd>{kgText(card.expected.glycerolKg, 1)} — the glycerol phase is heavier: it carries methanol, soap and catalyst</dd>
+          </div>
+          <div>
+            <dt>Soap</dt>
+            <dd>{kgText(card.expected.soapKg, 1)}</dd>
+          </div>
+          <div>
+            <dt>Methanol left over</dt>
+            <dd>{kgText(card.expected.excessMethanolKg, 1)} to recover</dd>
+          </div>
+          <div>
+            <dt>Wash water</dt>
+            <dd>
+              {kgText(card.expected.washWaterKg, 1)} over {card.expected.washes} wash{card.expected.washes === 1 ? "" : "es"}
+            </dd>
+          </div>
+          <div>
+            <dt>Methanol, all steps</dt>
+            <dd>
+              {kgText(card.methanolTotal.kg)} ({formatFixed(card.methanolTotal.l20C, 1)} L at 20 °C)
+            </dd>
+          </div>
+        </dl>
+        <StepCautions cautions={card.cautions} steps={["GLYCEROL"]} />
+      </section>
+
+      {card.warnings.length > 0 ? (
+        <section aria-labelledby="card-warn-h">
+          <h3 id="card-warn-h">Warnings</h3>
+          <ul className="card-warnings">
+            {card.warnings.map((w, i) => (
+              <li key={`${w.code}-${i}`}>{w.message}</li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
+      <section aria-labelledby="card-notes-h">
+        <h3 id="card-notes-h">Basis of the figures</h3>
+        <ul className="note">
+          {card.notes.map((n) => (
+            <li key={n}>{n}</li>
+          ))}
+          <li>Planned figures at full conversion; record what was actually charged and what came out on the batch page.</li>
+        </ul>
+      </section>
+    </article>
+  );
+}

@@ -1,0 +1,61 @@
+import { expect, test } from "@playwright/test";
+import { signIn } from "./support/sign-in";
+
+// The lab bench in the browser: a lot waiting for the lab, a titration whose FFA is shown as it is
+// typed, a refusal that keeps what was typed, then a good titration, a water result and the decision.
+test("titrate a waiting lot, see FFA as you type, and accept it", async ({ page }) => {
+  const consoleErrors: string[] = [];
+  page.on("console", (m) => {
+    if (m.type() === "error") consoleErrors.push(m.text());
+  });
+  await signIn(page, "production.tess", "/lab");
+  await expect(page.getByRole("heading", { level: 1, name: "Lab" })).toBeVisible();
+
+  // Whichever lot is still waiting: the demo database has a few, and this test decides one.
+  const lotLink = page.getByRole("table").getByRole("link", { name: /^L-\d{4}$/ }).first();
+  const lotCode = (await lotLink.textContent())?.trim() ?? "";
+  await lotLink.click();
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText(`Lab results for lot ${lotCode}`);
+  await expect(page.getByText(/titration alcohol .* is flammable/)).toBeVisible();
+
+  const form = page.getByRole("form", { name: "Record a titration" });
+  await form.getByLabel("Sample mass (g)").fill("7.05");
+  await form.getByLabel("Titrant concentration (mol/L)").fill("0.25");
+  await form.getByLabel("Titre (mL)").fill("5");
+  // AOCS Ca 5a-40: 5.00 mL × 0.25 N × 28.2 / 7.05 g = 5.000 % FFA (facts.md §a.3)
+  await expect(form.getByTestId("live-ffa")).toHaveText("5.00 %");
+  // EN 14104: 56.1 × 5.00 × 0.25 / 7.05 = 9.947 mg KOH/g (hand arithmetic)
+  await expect(form.getByTestId("live-av")).toHaveText("9.95 mg KOH/g");
+  await form.getByLabel("Titre (mL)").fill("5.2");
+  // 5.20 × 0.25 × 28.2 / 7.05 = 5.200 % (hand arithmetic, Ca 5a-40)
+  await expect(form.getByTestId("live-ffa")).toHaveText("5.20 %");
+
+  // A blank larger than the titre is refused by the server next to the blank, and nothing typed is lost.
+  await form.getByLabel("Blank (mL)").fill("6");
+  await form.getByRole("button", { name: "Save titration" }).click();
+  await expect(form.getByText("blank (mL) must not exceed the titre (mL)")).toBeVisible();
+  await expect(form.getByLabel("Blank (mL)")).toHaveAttribute("aria-invalid", "true");
+  await expect(form.getByLabel("Sample mass (g)")).toHaveValue("7.05");
+  await expect(form.getByLabel("Titrant concentration (mol/L)")).toHaveValue("0.25");
+  await expect(form.getByLabel("Titre (mL)")).toHaveValue("5.2");
+  await expect(form.getByLabel("Blank (mL)")).toHaveValue("6");
+
+  await form.getByLabel("Blank (mL)").fill("0");
+  await form.getByRole("button", { name: "Save titration" }).click();
+  await expect(form.getByRole("status")).toContainText("Titration saved: FFA 5.20 %");
+  await expect(page.getByRole("table").first().getByRole("cell", { name: "5.20 %" })).toBeVisible();
+
+  const tests = page.getByRole("form", { name: "Record a test result" });
+  await tests.getByLabel("Result (% by mass)").fill("0.15");
+  await tests.getByRole("button", { name: "Save result" }).click();
+  await expect(tests.getByRole("status")).toContainText("Result saved");
+
+  await page.getByRole("button", { name: "Accept lot" }).click();
+  // The decision replaces the buttons with the lot's new status.
+  await expect(page.getByText(/^This lot is/)).toContainText("Accepted");
+  await expect(page.getByRole("button", { name: "Accept lot" })).toHaveCount(0);
+  await page.goto(`/lots/${lotCode}`);
+  await expect(page.getByText("Accepted", { exact: true }).first()).toBeVisible();
+  await page.screenshot({ path: "test-results/lab.png", fullPage: true });
+  expect(consoleErrors).toEqual([]);
+});
