@@ -19,6 +19,10 @@ const MATRIX: Record<string, Role[] | "public"> = {
   "/api/lab/titrations": ["PRODUCTION"],
   "/api/lab/tests": ["PRODUCTION"],
   "/api/batches/plan": ["PRODUCTION"],
+  "/api/batches/propose": ANY, // a proposal over current stock; writes nothing
+  "/api/batches/start": ["PRODUCTION"],
+  "/api/batches/complete": ["PRODUCTION"],
+  "/api/lab/decisions": ["PRODUCTION"],
   "/api/periods/close": ["COMPLIANCE"],
   "/api/periods/reopen": ["COMPLIANCE"],
 };
@@ -61,5 +65,81 @@ test("every data-changing route refuses anonymous callers and the roles it does 
       if (status >= 500) failures.push(`${route} as ${role} → ${status}`);
     }
   }
+  expect(failures).toEqual([]);
+});
+
+/** Who may call each server action (by exported name). An action missing here fails the test until someone decides. */
+const ACTIONS: Record<string, Role[] | "public"> = {
+  signInAction: "public",
+  signOutAction: "public",
+  closePeriodAction: ["COMPLIANCE"],
+  reopenPeriodAction: ["COMPLIANCE"],
+  recordTitrationAction: ["PRODUCTION"],
+  recordLabTestAction: ["PRODUCTION"],
+  decideLotAction: ["PRODUCTION"],
+  recordPlanAction: ["PRODUCTION"],
+  startBatchAction: ["PRODUCTION"],
+  completeBatchAction: ["PRODUCTION"],
+};
+
+interface ActionEntry { id: string; name: string; page: string }
+
+/** Server actions of the production build, read from Next's server-reference manifest: id, export name, one page that serves it. */
+function builtActions(): ActionEntry[] {
+  const dist = path.resolve(import.meta.dirname, "..", process.env.NEXT_DIST_DIR ?? ".next");
+  const manifest = JSON.parse(readFileSync(path.join(dist, "server", "server-reference-manifest.json"), "utf8")) as {
+    node: Record<string, { exportedName: string; workers: Record<string, unknown> }>;
+  };
+  return Object.entries(manifest.node).map(([id, entry]) => {
+    const worker = Object.keys(entry.workers).find((w) => !w.includes("_not-found")) ?? "app/page";
+    const page = `/${worker.replace(/^app\//, "").replace(/\/?page$/, "")}`.replace(/\[[^\]]+\]/g, "NO-SUCH-RECORD");
+    return { id, name: entry.exportedName, page };
+  });
+}
+
+// The same rule for server actions: each is posted directly (the wire format a browser form uses — a
+// Next-Action header and a React reply-encoded multipart body), as each role and anonymously. A refused
+// call answers with the server's refusal text; an allowed one gets past the role check to the input checks.
+test("every server action refuses anonymous callers and the roles it does not allow", async ({ baseURL }) => {
+  const actions = builtActions();
+  expect(actions.length).toBeGreaterThan(5);
+  const missing = actions.filter((a) => !(a.name in ACTIONS)).map((a) => a.name);
+  expect(missing, "add these server actions to the authorisation matrix").toEqual([]);
+  // Without any cookie the proxy only redirects to sign-in; a forged session cookie gets past that
+  // optimistic check, so the action's own server-side check is what must refuse it.
+  const anonymous = await playwrightRequest.newContext({ baseURL, extraHTTPHeaders: { cookie: "tv_session=forged-or-expired-token" } });
+  const asRole = new Map<Role, APIRequestContext>();
+  for (const role of ANY) {
+    const ctx = await playwrightRequest.newContext({ baseURL });
+    expect((await ctx.post("/api/session", { data: { login: LOGINS[role], password: "quillmoor-demo" } })).status()).toBe(200);
+    asRole.set(role, ctx);
+  }
+  const prev = { status: "idle", ok: false, message: null, field: null, reason: "", values: {}, errors: {}, seq: 0 };
+  const call = async (ctx: APIRequestContext, a: ActionEntry) => {
+    const res = await ctx.post(a.page, {
+      headers: { "next-action": a.id, origin: baseURL!, accept: "text/x-component" },
+      multipart: { "0": JSON.stringify([prev, "$K1"]), "1_periodId": "999999", "1_lotCode": "NO-SUCH-RECORD" },
+    });
+    return { status: res.status(), text: await res.text() };
+  };
+  const SIGNED_OUT = "Sign in first";
+  const FORBIDDEN = "This needs one of these roles";
+  const failures: string[] = [];
+  let checked = 0;
+  for (const a of actions) {
+    const allowed = ACTIONS[a.name];
+    if (allowed === "public" || allowed === undefined) continue;
+    checked += 1;
+    const anon = await call(anonymous, a);
+    if (!anon.text.includes(SIGNED_OUT)) failures.push(`${a.name} anonymous → ${anon.status}, no sign-in refusal`);
+    for (const role of ANY) {
+      const r = await call(asRole.get(role)!, a);
+      const ok = allowed.includes(role);
+      if (r.status >= 500) failures.push(`${a.name} as ${role} → ${r.status}`);
+      if (ok && (r.text.includes(FORBIDDEN) || r.text.includes(SIGNED_OUT))) failures.push(`${a.name} as ${role} → refused, expected to be let through`);
+      if (!ok && !r.text.includes(FORBIDDEN)) failures.push(`${a.name} as ${role} → ${r.status}, no role refusal`);
+    }
+  }
+  expect(checked).toBeGreaterThan(5);
   expect(failures).toEqual([]);
 });
