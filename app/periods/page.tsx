@@ -1,5 +1,7 @@
 import type { Metadata } from "next";
 import { listPeriods } from "@/lib/period/period.store";
+import { listPeriodEvents } from "@/lib/mass-balance/balance.store";
+import { PeriodActionForm } from "@/app/balance/period-form";
 import { day, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { Empty, NoSite, Note } from "@/app/_ui/ui";
@@ -8,9 +10,10 @@ export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Accounting periods" };
 
 export default async function PeriodsPage() {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
-  const periods = await listPeriods(db, site.id);
+  const [periods, events] = await Promise.all([listPeriods(db, site.id), listPeriodEvents(db, site.id, { take: 20 })]);
+  const canClose = user.role === "COMPLIANCE";
   const now = new Date();
   const tz = site.timeZone;
   return (
@@ -33,6 +36,8 @@ export default async function PeriodsPage() {
                   <th scope="col" className="num">
                     Movements
                   </th>
+                  <th scope="col">Balance</th>
+                  {canClose ? <th scope="col">Close or reopen</th> : null}
                 </tr>
               </thead>
               <tbody>
@@ -51,6 +56,20 @@ export default async function PeriodsPage() {
                       <td className="nowrap">{when(p.closedAt, tz)}</td>
                       <td>{p.closedBy ?? "—"}</td>
                       <td className="num">{p.movements}</td>
+                      <td>
+                        <a href={`/balance?${new URLSearchParams({ period: "CUSTOM", start: day(p.startsAt, tz), end: day(p.endsAt, tz) }).toString()}`}>balance</a>
+                      </td>
+                      {canClose ? (
+                        <td>
+                          {p.status === "CLOSED" ? (
+                            <PeriodActionForm periodId={p.id} action="reopen" periodLabel={day(p.startsAt, tz).slice(0, 7)} />
+                          ) : p.endsAt <= now ? (
+                            <PeriodActionForm periodId={p.id} action="close" periodLabel={day(p.startsAt, tz).slice(0, 7)} />
+                          ) : (
+                            <span className="muted">not ended yet</span>
+                          )}
+                        </td>
+                      ) : null}
                     </tr>
                   );
                 })}
@@ -58,6 +77,35 @@ export default async function PeriodsPage() {
             </table>
           </div>
           <Note>A period runs from the start of its first day up to, not including, the start of the day after its last day.</Note>
+          <h2>Closes and reopens</h2>
+          {events.length === 0 ? (
+            <Empty>No period has been closed or reopened yet.</Empty>
+          ) : (
+            <div className="table-wrap">
+              <table>
+                <thead>
+                  <tr>
+                    <th scope="col">When</th>
+                    <th scope="col">Period</th>
+                    <th scope="col">Action</th>
+                    <th scope="col">By</th>
+                    <th scope="col">Reason</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {events.map((e) => (
+                    <tr key={e.id}>
+                      <td className="nowrap">{when(e.at, tz)}</td>
+                      <td className="nowrap">{day(e.periodStartsAt, tz)}</td>
+                      <td>{e.action === "CLOSE" ? "Closed" : "Reopened"}</td>
+                      <td>{e.by}</td>
+                      <td>{e.reason}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </div>
+          )}
         </>
       )}
     </>

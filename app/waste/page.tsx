@@ -39,6 +39,9 @@ export default async function WastePage() {
     <>
       <h1>Waste</h1>
       <p className="lede">Containers that collect glycerol phase, wash water, spent filter media and other waste streams, and the hauls that took them away.</p>
+      <p>
+        <a href="/waste/due">What falls due for haul-away, by stream, with totals for the hauler</a>
+      </p>
 
       <h2>Containers</h2>
       {containers.length === 0 ? (

@@ -1,0 +1,19 @@
+import type { NextResponse } from "next/server";
+import { requireRole } from "@/lib/auth/request.service";
+import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
+import { getDb } from "@/lib/db";
+import { closePeriod, PeriodCloseSchema } from "@/lib/period/period.service";
+
+export const dynamic = "force-dynamic";
+
+/** POST /api/periods/close {periodId, reason} — compliance only; recorded as a period event with who and when. */
+export async function POST(request: Request): Promise<NextResponse> {
+  const origin = requireSameOrigin(request);
+  if (!origin.ok) return respond(origin);
+  const who = await requireRole(["COMPLIANCE"]);
+  if (!who.ok) return respond(who);
+  const body = await parseBody(request, PeriodCloseSchema);
+  if (!body.ok) return respond(body);
+  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  return respond(await closePeriod(await getDb(), actor, body.value));
+}

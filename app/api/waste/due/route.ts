@@ -1,0 +1,20 @@
+import type { NextResponse } from "next/server";
+import { requireRole } from "@/lib/auth/request.service";
+import { respond } from "@/lib/api/json-route.service";
+import { getDb } from "@/lib/db";
+import { fail } from "@/lib/errors";
+import { SITE_ROLES } from "@/lib/ledger/kinds";
+import { getSiteById } from "@/lib/site/site.store";
+import { getWasteDueReport } from "@/app/waste/due/due-report";
+
+export const dynamic = "force-dynamic";
+
+/** GET /api/waste/due?days=30&category=LQG|SQG|VSQG&tsdfMiles= — the waste-due page's answer. */
+export async function GET(request: Request): Promise<NextResponse> {
+  const who = await requireRole(SITE_ROLES);
+  if (!who.ok) return respond(who);
+  const db = await getDb();
+  const site = await getSiteById(db, who.value.siteId);
+  if (!site) return respond(fail("RECORD.NOT_FOUND", "Your site is not set up"));
+  return respond(await getWasteDueReport(db, site, Object.fromEntries(new URL(request.url).searchParams), who.value.now));
+}

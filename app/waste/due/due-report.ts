@@ -1,0 +1,141 @@
+import "server-only";
+// What falls due for haul-away, for the waste-due page and GET /api/waste/due: every container on site
+// with its hazard flags and due date under the active rule set, and the containers due within N days
+// by stream with totals for the hauler. Built on lib/waste/waste-due (listWasteDue) and the container store.
+import type { Db } from "@/lib/database/connect";
+import { ok } from "@/lib/errors";
+import type { DomainIssue, Result } from "@/lib/errors";
+import type { WasteStream } from "@/lib/ledger/kinds";
+import { WASTE_STREAMS } from "@/lib/ledger/kinds";
+import { parseInput } from "@/lib/ledger/parse";
+import { DEFAULT_DENSITY_TABLE, DEFAULT_REFERENCE_TEMP_C, densityAt, requireDensityEntry } from "@/lib/quantity/density";
+import type { MaterialKind } from "@/lib/quantity/density";
+import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import { DEFAULT_WASTE_DUE_ASSUMPTION, listWasteContainers } from "@/lib/waste/container.store";
+import { assessWasteHazards, listWasteDue, RULESET_US_FEDERAL_RCRA } from "@/lib/waste/waste-due";
+import type { GeneratorCategory, HazardAssessment, StreamGroup, WasteContainerInput, WasteDue, WasteRuleSet } from "@/lib/waste/waste-due";
+import { MAX_DUE_HORIZON_DAYS, WasteDueQuerySchema, WasteSiteSettingsSchema } from "@/lib/waste/waste.schema";
+import { WasteDuePageQuerySchema } from "@/lib/api/endpoints/trace";
+
+export { DEFAULT_DUE_DAYS } from "@/lib/api/endpoints/trace";
+
+// The ledger keeps grams; the satellite limit and the hauler need litres, estimated at the stream's
+// nominal density (the same estimate the waste page's due dates use).
+const STREAM_MATERIAL: Readonly<Record<string, MaterialKind>> = {
+  GLYCEROL_PHASE: "GLYCEROL",
+  WASH_WATER: "WATER",
+  METHANOL_RICH: "METHANOL",
+  FILTER_MEDIA: "WATER",
+  OTHER: "WATER",
+};
+
+export interface ContainerDueRow {
+  code: string;
+  stream: WasteStream;
+  status: string;
+  massG: number;
+  volumeMl: number;
+  accumulationStart: Date;
+  satellite: boolean;
+  characterisation: { methanolPct: number | null; pH: number | null; flashPointC: number | null; waterPct: number | null };
+  hazard: HazardAssessment;
+  due: WasteDue | null;
+  daysLeft: number | null;
+  overdue: boolean;
+}
+
+export interface WasteDueReport {
+  query: { days: number; category: GeneratorCategory; tsdfMiles: number | null };
+  /** True when the category is the default assumption rather than a choice in the form. */
+  categoryAssumed: boolean;
+  assumptionNote: string;
+  ruleSet: WasteRuleSet;
+  localRulesNote: string;
+  now: Date;
+  horizonAt: Date;
+  containers: ContainerDueRow[];
+  groups: StreamGroup[];
+  totals: { count: number; kg: number; litres: number; usGallons: number };
+  noTimeLimit: WasteDue[];
+  issues: DomainIssue[];
+  densityNote: string;
+}
+
+const MS_PER_DAY = 86_400_000;
+
+export async function getWasteDueReport(db: Db, site: { id: number; timeZone: string }, input: unknown, now: Date): Promise<Result<WasteDueReport>> {
+  const raw = parseInput(WasteDuePageQuerySchema, input);
+  if (!raw.ok) return raw;
+  const horizon = parseInput(WasteDueQuerySchema, { withinDays: raw.value.days });
+  if (!horizon.ok) return { ok: false, issues: horizon.issues.map((i) => ({ ...i, field: "days" })) };
+  const settings = parseInput(WasteSiteSettingsSchema, { generatorCategory: raw.value.category ?? DEFAULT_WASTE_DUE_ASSUMPTION.generatorCategory, tsdfDistanceMiles: raw.value.tsdfMiles ?? null });
+  if (!settings.ok) return { ok: false, issues: settings.issues.map((i) => ({ ...i, field: i.field === "tsdfDistanceMiles" ? "tsdfMiles" : "category" })) };
+  const rules = RULESET_US_FEDERAL_RCRA;
+  const onSite = await listWasteContainers(db, site.id, { statuses: ["OPEN", "FULL"] });
+  const streams: ReadonlySet<string> = new Set(WASTE_STREAMS);
+  const inputs: WasteContainerInput[] = [];
+  const rows: ContainerDueRow[] = [];
+  onSite.forEach((c, i) => {
+    if (!streams.has(c.stream)) return;
+    const stream = c.stream as WasteStream;
+    const rho = densityAt(requireDensityEntry(DEFAULT_DENSITY_TABLE, STREAM_MATERIAL[c.stream] ?? "WATER"), DEFAULT_REFERENCE_TEMP_C);
+    const characterisation = { methanolPct: c.methanolPct, pH: c.pH, flashPointC: c.flashPointC, waterPct: c.waterPct };
+    const input: WasteContainerInput = {
+      id: i + 1,
+      code: c.code,
+      stream,
+      massG: c.stockG,
+      volumeMl: Math.round((c.stockG * 1000) / rho),
+      accumulationStartAt: c.accumulationStart.getTime(),
+      satelliteAreaId: c.satellite ? "SITE_SATELLITE_AREA" : null,
+      characterisation,
+    };
+    inputs.push(input);
+    rows.push({
+      code: c.code,
+      stream,
+      status: c.status,
+      massG: input.massG,
+      volumeMl: input.volumeMl,
+      accumulationStart: c.accumulationStart,
+      satellite: c.satellite,
+      characterisation,
+      hazard: assessWasteHazards(stream, characterisation, rules),
+      due: null,
+      daysLeft: null,
+      overdue: false,
+    });
+  });
+  const siteRules = { generatorCategory: settings.value.generatorCategory, tsdfDistanceMiles: settings.value.tsdfDistanceMiles, utcOffsetMin: getUtcOffsetMin(site.timeZone, now) };
+  const report = listWasteDue({ containers: inputs, site: siteRules, now: now.getTime(), withinDays: MAX_DUE_HORIZON_DAYS, rules });
+  if (!report.ok) return report;
+  // Every container's due date, from the widest horizon; the stream groups are those due within N days.
+  const byCode = new Map<string, { due: WasteDue; daysLeft: number | null; overdue: boolean }>();
+  for (const g of report.value.groups) for (const d of g.items) byCode.set(d.code, { due: d, daysLeft: d.daysLeft, overdue: d.overdue });
+  for (const d of report.value.noTimeLimit) byCode.set(d.code, { due: d, daysLeft: null, overdue: false });
+  for (const r of rows) {
+    const d = byCode.get(r.code);
+    if (d) Object.assign(r, d);
+  }
+  const days = horizon.value.withinDays;
+  const horizonAt = now.getTime() + days * MS_PER_DAY;
+  const within = listWasteDue({ containers: inputs, site: siteRules, now: now.getTime(), withinDays: days, rules });
+  if (!within.ok) return within;
+  const dueGroups = within.value.groups;
+  const totals = dueGroups.reduce((t, g) => ({ count: t.count + g.totals.count, kg: t.kg + g.totals.kg, litres: t.litres + g.totals.litres, usGallons: t.usGallons + g.totals.usGallons }), { count: 0, kg: 0, litres: 0, usGallons: 0 });
+  return ok({
+    query: { days, category: settings.value.generatorCategory, tsdfMiles: settings.value.tsdfDistanceMiles },
+    categoryAssumed: raw.value.category === undefined,
+    assumptionNote: DEFAULT_WASTE_DUE_ASSUMPTION.note,
+    ruleSet: rules,
+    localRulesNote: report.value.note,
+    now,
+    horizonAt: new Date(horizonAt),
+    containers: rows.sort((a, b) => (a.due?.dueAt ?? Number.POSITIVE_INFINITY) - (b.due?.dueAt ?? Number.POSITIVE_INFINITY) || a.code.localeCompare(b.code)),
+    groups: dueGroups,
+    totals,
+    noTimeLimit: report.value.noTimeLimit,
+    issues: report.value.issues,
+    densityNote: "Volumes are estimated from book mass at a nominal density at 15 °C for the stream (glycerol for the glycerol phase, water for wash water and other aqueous streams, methanol for methanol-rich liquid); the hauler's measurement is the one that counts.",
+  });
+}

@@ -1,0 +1,121 @@
+import "server-only";
+import type { Db } from "@/lib/database/connect";
+import { invariant } from "@/lib/errors";
+import { MOVE_ROLES } from "@/lib/ledger/kinds";
+import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
+import { toHolderKind } from "@/lib/ledger/movement.store";
+import type { BalanceHolder, BalanceMove, GaugeReading } from "@/lib/mass-balance/period-balance";
+
+/**
+ * The material a holder carries, for a balance per material kind: feedstock lots and pickups by their
+ * material, reagent lots by reagent, waste containers by stream, tanks by service (a feedstock tank
+ * pools several kinds), product lots and product tanks as methyl ester, batches as material in reaction.
+ */
+export const TANK_MATERIAL: Readonly<Record<string, string>> = {
+  FEEDSTOCK: "MIXED_FEEDSTOCK",
+  PRODUCT: "FAME",
+  METHANOL: "METHANOL",
+  GLYCEROL_PHASE: "GLYCEROL_PHASE",
+  WASH_WATER: "WASH_WATER",
+};
+
+export interface BalanceHolderRef {
+  id: number;
+  kind: HolderKind;
+  code: string;
+  materialKind: string | null;
+}
+
+export interface BalanceLedger {
+  holders: BalanceHolder[];
+  /** Every movement, reversals included: a booking and its reversal both count, and cancel. */
+  moves: BalanceMove[];
+  refs: Map<number, BalanceHolderRef>;
+}
+
+const ROLE_SET: ReadonlySet<string> = new Set(MOVE_ROLES);
+
+export async function loadBalanceLedger(db: Db, siteId: number): Promise<BalanceLedger> {
+  const [holders, pickups, lots, tanks, reagents, batches, waste, moves] = await Promise.all([
+    db.holder.findMany({ where: { siteId }, select: { id: true, kind: true, code: true } }),
+    db.pickup.findMany({ where: { siteId }, select: { holderId: true, material: true } }),
+    db.feedstockLot.findMany({ where: { siteId }, select: { holderId: true, material: true } }),
+    db.tank.findMany({ where: { siteId }, select: { holderId: true, service: true } }),
+    db.reagentLot.findMany({ where: { siteId }, select: { holderId: true, reagent: true } }),
+    db.batch.findMany({ where: { siteId }, select: { holderId: true, completedAt: true } }),
+    db.wasteContainer.findMany({ where: { siteId }, select: { holderId: true, stream: true } }),
+    db.movement.findMany({ where: { siteId }, select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, role: true } }),
+  ]);
+  const material = new Map<number, string>();
+  for (const p of pickups) material.set(p.holderId, p.material);
+  for (const l of lots) material.set(l.holderId, l.material);
+  for (const t of tanks) material.set(t.holderId, TANK_MATERIAL[t.service] ?? t.service);
+  for (const r of reagents) material.set(r.holderId, r.reagent);
+  for (const w of waste) material.set(w.holderId, w.stream);
+  const completed = new Map(batches.map((b) => [b.holderId, b.completedAt]));
+  const refs = new Map<number, BalanceHolderRef>();
+  const list: BalanceHolder[] = holders.map((h) => {
+    const kind = toHolderKind(h.kind);
+    const materialKind = kind === "BATCH" ? "IN_REACTION" : kind === "PRODUCT_LOT" ? "FAME" : (material.get(h.id) ?? null);
+    refs.set(h.id, { id: h.id, kind, code: h.code, materialKind });
+    const done = completed.get(h.id);
+    return { id: h.id, kind, siteId, materialKind, ...(kind === "BATCH" ? { completedAt: done ? done.getTime() : null } : {}) };
+  });
+  return {
+    holders: list,
+    moves: moves.map((m) => {
+      invariant(ROLE_SET.has(m.role), `unknown movement role ${m.role} in the database`);
+      return { id: m.id, at: m.at.getTime(), fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG, role: m.role as MoveRole };
+    }),
+    refs,
+  };
+}
+
+/** The latest gauge reading of each tank at or before `atOrBefore`. */
+export async function listLatestGauges(db: Db, siteId: number, atOrBefore: Date): Promise<GaugeReading[]> {
+  const tanks = await db.tank.findMany({
+    where: { siteId },
+    select: { holderId: true, gauges: { where: { at: { lte: atOrBefore } }, orderBy: [{ at: "desc" }, { id: "desc" }], take: 1, select: { at: true, massG: true } } },
+  });
+  return tanks.flatMap((t) => {
+    const g = t.gauges[0];
+    return g ? [{ holderId: t.holderId, at: g.at.getTime(), massG: g.massG }] : [];
+  });
+}
+
+export interface AccountingPeriodView {
+  id: number;
+  startsAt: Date;
+  endsAt: Date;
+  status: string;
+  closedAt: Date | null;
+  closedBy: string | null;
+}
+
+/** The accounting period with exactly these bounds, if the site keeps one. */
+export async function getAccountingPeriodExact(db: Db, siteId: number, startsAt: Date, endsAt: Date): Promise<AccountingPeriodView | null> {
+  const p = await db.accountingPeriod.findFirst({ where: { siteId, startsAt, endsAt }, include: { closedBy: { select: { fullName: true } } } });
+  return p ? { id: p.id, startsAt: p.startsAt, endsAt: p.endsAt, status: p.status, closedAt: p.closedAt, closedBy: p.closedBy?.fullName ?? null } : null;
+}
+
+export interface PeriodEventView {
+  id: number;
+  periodId: number;
+  periodStartsAt: Date;
+  periodEndsAt: Date;
+  action: string;
+  reason: string;
+  by: string;
+  at: Date;
+}
+
+/** Closes and reopens, newest first; one period's or the whole site's. */
+export async function listPeriodEvents(db: Db, siteId: number, opts: { periodId?: number; take?: number } = {}): Promise<PeriodEventView[]> {
+  const rows = await db.periodEvent.findMany({
+    where: { period: { siteId }, ...(opts.periodId === undefined ? {} : { periodId: opts.periodId }) },
+    orderBy: [{ at: "desc" }, { id: "desc" }],
+    take: opts.take ?? 200,
+    include: { by: { select: { fullName: true } }, period: { select: { startsAt: true, endsAt: true } } },
+  });
+  return rows.map((r) => ({ id: r.id, periodId: r.periodId, periodStartsAt: r.period.startsAt, periodEndsAt: r.period.endsAt, action: r.action, reason: r.reason, by: r.by.fullName, at: r.at }));
+}
