@@ -142,3 +142,12 @@ export function MovementTable({ rows, timeZone, side, caption }: { rows: Movemen
     </div>
   );
 }
+
+/** One click from a row to everything recorded about it (app/history). */
+export function HistoryLink({ kind, recordKey, label }: { kind: string; recordKey: string; label: string }) {
+  return (
+    <Link href={`/history?${new URLSearchParams({ kind, key: recordKey }).toString()}`} className="history-link" aria-label={`History of ${label} ${recordKey}`}>
+      History
+    </Link>
+  );
+}

@@ -5,7 +5,7 @@ import { listBatches } from "@/lib/batch/batch.store";
 import { kg, num, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
-import { CodeLink, Empty, NoSite, Pager, Status } from "@/app/_ui/ui";
+import { CodeLink, Empty, HistoryLink, NoSite, Pager, Status } from "@/app/_ui/ui";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Batches" };
@@ -41,6 +41,7 @@ export default async function BatchesPage({ searchParams }: { searchParams: Prom
                   </th>
                   <th scope="col">Catalyst</th>
                   <th scope="col">Product lots</th>
+                  <th scope="col">History</th>
                 </tr>
               </thead>
               <tbody>
@@ -70,6 +71,9 @@ export default async function BatchesPage({ searchParams }: { searchParams: Prom
                           </span>
                         ))
                       )}
+                    </td>
+                    <td>
+                      <HistoryLink kind="batch" recordKey={b.code} label="batch" />
                     </td>
                   </tr>
                 ))}

@@ -5,7 +5,7 @@ import { listLots } from "@/lib/feedstock/lot.store";
 import { kg, pct, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
-import { CodeLink, Empty, NoSite, Note, Pager, Status } from "@/app/_ui/ui";
+import { CodeLink, Empty, HistoryLink, NoSite, Note, Pager, Status } from "@/app/_ui/ui";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Feedstock lots" };
@@ -65,6 +65,7 @@ export default async function LotsPage({ searchParams }: Props) {
                   <th scope="col" className="num">
                     Book stock
                   </th>
+                  <th scope="col">History</th>
                 </tr>
               </thead>
               <tbody>
@@ -84,6 +85,9 @@ export default async function LotsPage({ searchParams }: Props) {
                     <td className="num">{pct(l.waterPct)}</td>
                     <td className="num">{kg(l.massG)}</td>
                     <td className="num">{kg(l.stockG)}</td>
+                    <td>
+                      <HistoryLink kind="lot" recordKey={l.code} label="lot" />
+                    </td>
                   </tr>
                 ))}
               </tbody>

@@ -4,7 +4,7 @@ import { listPeriodEvents } from "@/lib/mass-balance/balance.store";
 import { PeriodActionForm } from "@/app/balance/period-form";
 import { day, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
-import { Empty, NoSite, Note } from "@/app/_ui/ui";
+import { Empty, HistoryLink, NoSite, Note } from "@/app/_ui/ui";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Accounting periods" };
@@ -37,6 +37,7 @@ export default async function PeriodsPage() {
                     Movements
                   </th>
                   <th scope="col">Balance</th>
+                  <th scope="col">History</th>
                   {canClose ? <th scope="col">Close or reopen</th> : null}
                 </tr>
               </thead>
@@ -58,6 +59,9 @@ export default async function PeriodsPage() {
                       <td className="num">{p.movements}</td>
                       <td>
                         <a href={`/balance?${new URLSearchParams({ period: "CUSTOM", start: day(p.startsAt, tz), end: day(p.endsAt, tz) }).toString()}`}>balance</a>
+                      </td>
+                      <td>
+                        <HistoryLink kind="period" recordKey={String(p.id)} label={`accounting period ${day(p.startsAt, tz).slice(0, 7)}, record`} />
                       </td>
                       {canClose ? (
                         <td>

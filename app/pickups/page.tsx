@@ -5,7 +5,7 @@ import { listPickups } from "@/lib/feedstock/pickup.store";
 import { kg, litres, num, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
-import { CodeLink, Empty, NoSite, Pager } from "@/app/_ui/ui";
+import { CodeLink, Empty, HistoryLink, NoSite, Pager } from "@/app/_ui/ui";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Pickups" };
@@ -47,6 +47,7 @@ export default async function PickupsPage({ searchParams }: { searchParams: Prom
                     Mass
                   </th>
                   <th scope="col">Lot</th>
+                  <th scope="col">History</th>
                 </tr>
               </thead>
               <tbody>
@@ -69,6 +70,9 @@ export default async function PickupsPage({ searchParams }: { searchParams: Prom
                     <td className="num">{num(p.tempC, 1)} °C</td>
                     <td className="num">{kg(p.massG)}</td>
                     <td>{p.lotCode ? <CodeLink href={`/lots/${encodeURIComponent(p.lotCode)}`} code={p.lotCode} /> : <span className="muted">not yet</span>}</td>
+                    <td>
+                      <HistoryLink kind="pickup" recordKey={p.code} label="pickup" />
+                    </td>
                   </tr>
                 ))}
               </tbody>

@@ -4,7 +4,7 @@ import { listProductLots } from "@/lib/product/product.store";
 import { kg, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
-import { CodeLink, Empty, NoSite, Pager, Status } from "@/app/_ui/ui";
+import { CodeLink, Empty, HistoryLink, NoSite, Pager, Status } from "@/app/_ui/ui";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Product lots" };
@@ -39,6 +39,7 @@ export default async function ProductsPage({ searchParams }: { searchParams: Pro
                   <th scope="col">QC</th>
                   <th scope="col">Release</th>
                   <th scope="col">Released</th>
+                  <th scope="col">History</th>
                 </tr>
               </thead>
               <tbody>
@@ -66,6 +67,9 @@ export default async function ProductsPage({ searchParams }: { searchParams: Pro
                       <Status code={p.status} />
                     </td>
                     <td className="nowrap">{when(p.releasedAt, tz)}</td>
+                    <td>
+                      <HistoryLink kind="product" recordKey={p.code} label="product lot" />
+                    </td>
                   </tr>
                 ))}
               </tbody>

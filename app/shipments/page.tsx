@@ -3,7 +3,7 @@ import { listShipments } from "@/lib/product/product.store";
 import { kg, litres, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
-import { CodeLink, Empty, HolderLink, NoSite, Pager } from "@/app/_ui/ui";
+import { CodeLink, Empty, HistoryLink, HolderLink, NoSite, Pager } from "@/app/_ui/ui";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Shipments" };
@@ -37,6 +37,7 @@ export default async function ShipmentsPage({ searchParams }: { searchParams: Pr
                     Volume
                   </th>
                   <th scope="col">Certified claim</th>
+                  <th scope="col">History</th>
                 </tr>
               </thead>
               <tbody>
@@ -53,6 +54,9 @@ export default async function ShipmentsPage({ searchParams }: { searchParams: Pr
                     <td className="num">{kg(s.massG)}</td>
                     <td className="num">{litres(s.volumeMl)}</td>
                     <td>{s.certifiedClaim ? "Yes" : "No"}</td>
+                    <td>
+                      <HistoryLink kind="shipment" recordKey={s.documentNo} label="shipment" />
+                    </td>
                   </tr>
                 ))}
               </tbody>

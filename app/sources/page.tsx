@@ -3,7 +3,7 @@ import { labelOf } from "@/lib/ledger/kinds";
 import { listSources } from "@/lib/source/source.store";
 import { day } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
-import { CodeLink, Empty, NoSite } from "@/app/_ui/ui";
+import { CodeLink, Empty, HistoryLink, NoSite } from "@/app/_ui/ui";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Sources" };
@@ -36,6 +36,7 @@ export default async function SourcesPage() {
                   Pickups
                 </th>
                 <th scope="col">Last pickup</th>
+                <th scope="col">History</th>
               </tr>
             </thead>
             <tbody>
@@ -64,6 +65,9 @@ export default async function SourcesPage() {
                   <td className="num">{s.pickupEveryDays === null ? "—" : `${s.pickupEveryDays} d`}</td>
                   <td className="num">{s.pickups}</td>
                   <td className="nowrap">{day(s.lastPickupAt, site.timeZone)}</td>
+                  <td>
+                    <HistoryLink kind="source" recordKey={s.code} label="source" />
+                  </td>
                 </tr>
               ))}
             </tbody>

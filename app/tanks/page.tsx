@@ -4,7 +4,7 @@ import { listTankLevels } from "@/lib/site/dashboard.store";
 import { kg, litres, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { DensityNote, FillBar } from "@/app/_ui/tank-ui";
-import { CodeLink, Empty, NoSite } from "@/app/_ui/ui";
+import { CodeLink, Empty, HistoryLink, NoSite } from "@/app/_ui/ui";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Tanks" };
@@ -41,6 +41,7 @@ export default async function TanksPage() {
                     Last gauge
                   </th>
                   <th scope="col">Gauged</th>
+                  <th scope="col">History</th>
                 </tr>
               </thead>
               <tbody>
@@ -59,6 +60,9 @@ export default async function TanksPage() {
                     </td>
                     <td className="num">{t.lastGauge ? `${kg(t.lastGauge.massG)} · ${litres(t.lastGauge.volumeMl, 0)}` : "—"}</td>
                     <td className="nowrap">{t.lastGauge ? when(t.lastGauge.at, tz) : <span className="muted">never</span>}</td>
+                    <td>
+                      <HistoryLink kind="tank" recordKey={t.code} label="tank" />
+                    </td>
                   </tr>
                 ))}
               </tbody>

@@ -4,7 +4,7 @@ import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
 import { getWasteDueBoard, listDisposals, listWasteContainers } from "@/lib/waste/container.store";
 import { day, daysBetween, kg, litres, num, pct, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
-import { Empty, NoSite, Note, Status } from "@/app/_ui/ui";
+import { Empty, HistoryLink, NoSite, Note, Status } from "@/app/_ui/ui";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Waste" };
@@ -68,6 +68,7 @@ export default async function WastePage() {
                     Capacity
                   </th>
                   <th scope="col">Characterisation</th>
+                  <th scope="col">History</th>
                 </tr>
               </thead>
               <tbody>
@@ -105,6 +106,9 @@ export default async function WastePage() {
                       <td className="num">{kg(c.stockG)}</td>
                       <td className="num">{litres(c.capacityMl, 0)}</td>
                       <td>{characterisation(c)}</td>
+                      <td>
+                        <HistoryLink kind="waste" recordKey={c.code} label="waste container" />
+                      </td>
                     </tr>
                   );
                 })}
@@ -146,6 +150,7 @@ export default async function WastePage() {
                 <th scope="col" className="num">
                   Mass
                 </th>
+                <th scope="col">History</th>
               </tr>
             </thead>
             <tbody>
@@ -163,6 +168,9 @@ export default async function WastePage() {
                     ))}
                   </td>
                   <td className="num">{kg(d.massG)}</td>
+                  <td>
+                    <HistoryLink kind="disposal" recordKey={d.documentNo} label="disposal" />
+                  </td>
                 </tr>
               ))}
             </tbody>

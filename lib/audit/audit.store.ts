@@ -51,16 +51,36 @@ export interface AuditView {
   seq: number;
   at: Date;
   actor: string;
+  actorLogin: string;
   action: string;
   entity: string;
   entityKey: string;
   before: string;
   after: string;
   reason: string;
+  hash: string;
+  /** This event's stored hash matches its fields and the hash it links to. */
+  intact: boolean;
 }
 
-export async function listRecordHistory(db: Db, siteId: number, entity: string, entityKey: string): Promise<AuditView[]> {
-  const rows = await db.auditEvent.findMany({ where: { siteId, entity, entityKey }, orderBy: { seq: "asc" } });
-  const actors = new Map((await db.user.findMany({ where: { id: { in: [...new Set(rows.map((r) => r.actorId))] } }, select: { id: true, fullName: true } })).map((u) => [u.id, u.fullName]));
-  return rows.map((r) => ({ seq: r.seq, at: r.at, actor: actors.get(r.actorId) ?? `user ${r.actorId}`, action: r.action, entity: r.entity, entityKey: r.entityKey, before: r.before, after: r.after, reason: r.reason }));
+/** Every audit event stored under one record key for the given entities, oldest first. */
+export async function listRecordHistory(db: Db, siteId: number, entity: string | readonly string[], entityKey: string): Promise<AuditView[]> {
+  const entities = typeof entity === "string" ? [entity] : [...entity];
+  const rows = await db.auditEvent.findMany({ where: { siteId, entity: { in: entities }, entityKey }, orderBy: { seq: "asc" } });
+  const users = await db.user.findMany({ where: { id: { in: [...new Set(rows.map((r) => r.actorId))] } }, select: { id: true, fullName: true, login: true } });
+  const actors = new Map(users.map((u) => [u.id, u]));
+  return rows.map((r) => ({
+    seq: r.seq,
+    at: r.at,
+    actor: actors.get(r.actorId)?.fullName ?? `user ${r.actorId}`,
+    actorLogin: actors.get(r.actorId)?.login ?? "",
+    action: r.action,
+    entity: r.entity,
+    entityKey: r.entityKey,
+    before: r.before,
+    after: r.after,
+    reason: r.reason,
+    hash: r.hash,
+    intact: chainHash(r.prevHash, r) === r.hash,
+  }));
 }

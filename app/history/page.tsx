@@ -1,0 +1,180 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { listRecordHistory, loadChain } from "@/lib/audit/audit.store";
+import { verifyChain } from "@/lib/audit/chain";
+import { describeChange, isRecordHistoryKind, RECORD_HISTORIES } from "@/lib/audit/history";
+import type { RecordHistoryKind } from "@/lib/audit/history";
+import { when } from "@/app/_ui/format";
+import { loadSite } from "@/app/_ui/site";
+import { Empty, NoSite, Note } from "@/app/_ui/ui";
+
+export const dynamic = "force-dynamic";
+export const metadata: Metadata = { title: "Record history" };
+
+type Search = Record<string, string | string[] | undefined>;
+const one = (v: string | string[] | undefined): string => ((Array.isArray(v) ? v[0] : v) ?? "").trim();
+
+const ACTION_WORDS: Readonly<Record<string, string>> = {
+  CREATE: "Recorded",
+  CHANGE: "Changed",
+  VOID: "Voided",
+  CLOSE: "Closed",
+  REOPEN: "Reopened",
+  RELEASE: "Released",
+  REJECT: "Rejected",
+};
+
+const ENTITY_WORDS: Readonly<Record<string, string>> = {
+  FeedstockLot: "lot",
+  Titration: "titration",
+  LabTest: "lab test",
+  TankGauge: "gauge reading",
+  QcResult: "QC result",
+  Movement: "movement",
+};
+
+function recordHref(kind: RecordHistoryKind, key: string): string | null {
+  const k = encodeURIComponent(key);
+  switch (kind) {
+    case "source":
+      return `/sources/${k}`;
+    case "pickup":
+      return `/pickups/${k}`;
+    case "lot":
+      return `/lots/${k}`;
+    case "tank":
+      return `/tanks/${k}`;
+    case "batch":
+      return `/batches/${k}`;
+    case "product":
+      return `/products/${k}`;
+    case "shipment":
+      return `/shipments/${k}`;
+    case "period":
+      return "/periods";
+    case "waste":
+    case "disposal":
+      return "/waste";
+    default:
+      return null;
+  }
+}
+
+/** Every recorded create, change, void, close and reopen of one record: who, when (UTC and site time), old and new values, reason. */
+export default async function HistoryPage({ searchParams }: { searchParams: Promise<Search> }) {
+  const { db, site } = await loadSite();
+  if (!site) return <NoSite />;
+  const sp = await searchParams;
+  const kind = one(sp.kind);
+  const key = one(sp.key);
+  if (!isRecordHistoryKind(kind) || key === "") {
+    return (
+      <>
+        <h1>Record history</h1>
+        <p role="alert" className="form-error">
+          Record kind: choose one of {Object.keys(RECORD_HISTORIES).join(", ")}, and give the record&apos;s code (key). Every list row has a History link.
+        </p>
+      </>
+    );
+  }
+  const spec = RECORD_HISTORIES[kind];
+  const [events, chain] = await Promise.all([listRecordHistory(db, site.id, spec.entities, key), loadChain(db, site.id)]);
+  const verified = verifyChain(chain);
+  const href = recordHref(kind, key);
+  const tz = site.timeZone;
+  return (
+    <>
+      <h1>
+        History of {spec.label.toLowerCase()} {key}
+      </h1>
+      <p className="lede">
+        Every change recorded for this record, oldest first, as written in the same transaction as the change. Records are never deleted; a mistake
+        is voided or corrected with a reason. {href ? <Link href={href}>Open the record</Link> : null}
+      </p>
+      {verified.ok ? (
+        <p className="status-line" role="status">
+          <span className="status status-pass">chain intact</span> The site&apos;s audit trail checks out: {verified.value.events} events, each linked to the one
+          before by its hash.
+        </p>
+      ) : (
+        <p className="form-error" role="alert">
+          The audit trail does not check out: {verified.issues[0]?.message}. Report this to the administrator; the stored history may have been altered
+          outside the app.
+        </p>
+      )}
+      {events.length === 0 ? (
+        <Empty>
+          Nothing recorded for {spec.label.toLowerCase()} {key} on this site.
+        </Empty>
+      ) : (
+        <div className="table-wrap">
+          <table className="history-table">
+            <caption>
+              {events.length} recorded event{events.length === 1 ? "" : "s"}
+            </caption>
+            <thead>
+              <tr>
+                <th scope="col" className="num">
+                  No.
+                </th>
+                <th scope="col">When (site time)</th>
+                <th scope="col">When (UTC)</th>
+                <th scope="col">Who</th>
+                <th scope="col">What</th>
+                <th scope="col">Reason</th>
+                <th scope="col">Values (before → after)</th>
+              </tr>
+            </thead>
+            <tbody>
+              {events.map((e) => {
+                const changes = describeChange(e.before, e.after);
+                return (
+                  <tr key={e.seq}>
+                    <td className="num">{e.seq}</td>
+                    <td className="nowrap">{when(e.at, tz)}</td>
+                    <td className="nowrap">{e.at.toISOString().replace(".000Z", "Z")}</td>
+                    <td>
+                      {e.actor} <span className="muted">({e.actorLogin})</span>
+                    </td>
+                    <td>
+                      {ACTION_WORDS[e.action] ?? e.action} {ENTITY_WORDS[e.entity] ?? ""}
+                      {e.intact ? null : (
+                        <>
+                          {" "}
+                          <span className="status status-fail">hash does not match</span>
+                        </>
+                      )}
+                    </td>
+                    <td>{e.reason === "" ? <span className="muted">—</span> : e.reason}</td>
+                    <td>
+                      {changes.length === 0 ? (
+                        <span className="muted">no values</span>
+                      ) : (
+                        <details>
+                          <summary>{changes.length} field{changes.length === 1 ? "" : "s"}</summary>
+                          <table className="change-table">
+                            <tbody>
+                              {changes.map((c) => (
+                                <tr key={c.field}>
+                                  <th scope="row">{c.field}</th>
+                                  <td>{c.before ?? <span className="muted">—</span>}</td>
+                                  <td aria-hidden="true">→</td>
+                                  <td>{c.after ?? <span className="muted">—</span>}</td>
+                                </tr>
+                              ))}
+                            </tbody>
+                          </table>
+                        </details>
+                      )}
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        </div>
+      )}
+      <Note>Times are the server&apos;s clock when the change was written. The hash of each event covers the one before it.</Note>
+    </>
+  );
+}
