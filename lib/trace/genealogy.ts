@@ -118,11 +118,11 @@ export function traceHolder(index: LedgerIndex, holderId: number, options: Trace
   }
   const target = findLastPositionAtOrBefore(index, options.at ?? Number.POSITIVE_INFINITY);
   const from = pickSnapshot(options.from, target);
-  const started = startReplay(index, from);
+  const start = from?.applied.count ?? 0;
+  const horizons = findAncestorHorizons(index, holderId, target, start);
+  const started = startReplay(index, from, new Set([holderId, ...horizons.keys()]));
   if (!started.ok) return started;
   const replay = started.value;
-  const start = replay.appliedCount;
-  const horizons = findAncestorHorizons(index, holderId, target, start);
   const received = new Map<number, number>();
   const positions = collectAncestorMoves(index, horizons, start);
   const replayed = replaySubgraph(index, replay, positions, horizons, (move, parts) => {
@@ -149,11 +149,12 @@ export function traceMove(index: LedgerIndex, moveId: number, options: { from?: 
     return fail("TRACE.UNKNOWN_MOVE", `Move ${moveId} is not in the ledger.`, "moveId");
   }
   if (move.fromHolderId === null) return ok(describeComposition({ originIds: [move.id], grams: [move.massG] }));
-  const started = startReplay(index, pickSnapshot(options.from, pos - 1));
+  const from = pickSnapshot(options.from, pos - 1);
+  const start = from?.applied.count ?? 0;
+  const horizons = findAncestorHorizons(index, move.fromHolderId, pos, start);
+  const started = startReplay(index, from, new Set([move.fromHolderId, ...horizons.keys()]));
   if (!started.ok) return started;
   const replay = started.value;
-  const start = replay.appliedCount;
-  const horizons = findAncestorHorizons(index, move.fromHolderId, pos, start);
   const positions = collectAncestorMoves(index, horizons, start);
   let carried: CompositionParts | undefined;
   const replayed = replaySubgraph(index, replay, positions, horizons, (m, parts) => {
@@ -250,7 +251,7 @@ export function findEntryOrigins(index: LedgerIndex, holderIds: readonly number[
  * Checks a stored snapshot against the ledger it claims to come from (same move count, same last move,
  * same mass total up to it) and restores it. A move back-dated before the snapshot makes it stale.
  */
-export function resumeReplay(index: LedgerIndex, snapshot: ReplaySnapshot): Result<Replay> {
+export function resumeReplay(index: LedgerIndex, snapshot: ReplaySnapshot, only?: ReadonlySet<number>): Result<Replay> {
   const { count, massSumG, last } = snapshot.applied;
   const pos = last === null ? -1 : (index.positionOf.get(last.moveId) ?? -2);
   const sameLast = last === null || index.moves[pos]?.at === last.at;
@@ -261,7 +262,7 @@ export function resumeReplay(index: LedgerIndex, snapshot: ReplaySnapshot): Resu
       "snapshot.applied",
     );
   }
-  return restoreReplay(index.holders, snapshot);
+  return restoreReplay(index.holders, snapshot, only);
 }
 
 function requireHolderKind(index: LedgerIndex, holderId: number): HolderKind {
@@ -275,8 +276,8 @@ function pickSnapshot(from: ReplaySnapshot | undefined, lastPosition: number): R
   return from !== undefined && from.applied.count <= lastPosition + 1 ? from : undefined;
 }
 
-function startReplay(index: LedgerIndex, from: ReplaySnapshot | undefined): Result<Replay> {
-  return from === undefined ? ok(createReplay(index.holders)) : resumeReplay(index, from);
+function startReplay(index: LedgerIndex, from: ReplaySnapshot | undefined, only?: ReadonlySet<number>): Result<Replay> {
+  return from === undefined ? ok(createReplay(index.holders)) : resumeReplay(index, from, only);
 }
 
 /**

@@ -71,7 +71,12 @@ export function createReplay(holders: ReadonlyMap<number, TraceHolder>): Replay 
   return buildReplay(holders, new Map(), { count: 0, massSumG: 0, last: null });
 }
 
-export function restoreReplay(holders: ReadonlyMap<number, TraceHolder>, snapshot: ReplaySnapshot): Result<Replay> {
+/**
+ * Restores a snapshot. With `only`, restores just those holders (a backward trace needs only its
+ * ancestors; the rest — shipments and disposals above all, which keep every origin they ever received —
+ * would be copied for nothing). A replay restored in part answers only for the holders it restored.
+ */
+export function restoreReplay(holders: ReadonlyMap<number, TraceHolder>, snapshot: ReplaySnapshot, only?: ReadonlySet<number>): Result<Replay> {
   const issues: TraceIssue[] = [];
   const bad = (holderId: number, why: string) =>
     issues.push({
@@ -85,6 +90,7 @@ export function restoreReplay(holders: ReadonlyMap<number, TraceHolder>, snapsho
   }
   const states = new Map<number, HolderState>();
   for (const h of snapshot.holders) {
+    if (only !== undefined && !only.has(h.holderId)) continue;
     const holder = holders.get(h.holderId);
     if (holder === undefined) {
       bad(h.holderId, "not in the holder list.");

@@ -209,6 +209,30 @@ describe("trace invariants over random ledgers (our own consistency checks)", ()
       RUNS,
     );
   });
+
+  it("invariant: a backward trace resumed from a snapshot (restoring only its ancestors) equals the cold trace", () => {
+    fc.assert(
+      fc.property(historyArb, fc.nat(), (history, cut) => {
+        const index = requireIndex(history.holders, shuffled(history));
+        const k = cut % (index.moves.length + 1);
+        const head = replayLedger(index, { until: index.moves[k - 1]?.at ?? Number.NEGATIVE_INFINITY });
+        if (!head.ok) throw new Error(JSON.stringify(head.issues));
+        const stored = ReplaySnapshotSchema.parse(JSON.parse(JSON.stringify(head.value.snapshot())));
+        for (const h of history.holders) {
+          const cold = traceHolder(index, h.id);
+          const warm = traceHolder(index, h.id, { from: stored });
+          if (!cold.ok || !warm.ok) throw new Error(JSON.stringify([cold, warm]));
+          expect(warm.value.stock).toEqual(cold.value.stock);
+        }
+        for (const m of index.moves.slice(k)) {
+          const cold = traceMove(index, m.id);
+          const warm = traceMove(index, m.id, { from: stored });
+          expect(warm).toEqual(cold);
+        }
+      }),
+      RUNS,
+    );
+  });
 });
 
 // ---- cycle search against a brute-force enumeration of time-ordered chains ----
