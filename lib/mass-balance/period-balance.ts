@@ -263,6 +263,22 @@ function stockBefore(moves: readonly BalanceMove[], t: number, inclusive = false
   return s;
 }
 
+/** Book stock of every holder before `startMs` and before `endMs`, in one pass. */
+function stockAtBothEnds(moves: readonly BalanceMove[], startMs: number, endMs: number): { opening: Map<number, number>; closing: Map<number, number> } {
+  const opening = new Map<number, number>();
+  const closing = new Map<number, number>();
+  const add = (s: Map<number, number>, id: number, g: number) => s.set(id, (s.get(id) ?? 0) + g);
+  for (const m of moves) {
+    if (m.at >= endMs) continue;
+    add(closing, m.toHolderId, m.massG);
+    if (m.fromHolderId !== null) add(closing, m.fromHolderId, -m.massG);
+    if (m.at >= startMs) continue;
+    add(opening, m.toHolderId, m.massG);
+    if (m.fromHolderId !== null) add(opening, m.fromHolderId, -m.massG);
+  }
+  return { opening, closing };
+}
+
 /** Mass balance of one site (optionally one material kind) over [startMs, endMs). */
 export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBalance> {
   const { holders, moves, period, scope } = input;
@@ -284,8 +300,7 @@ export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBa
     classes[h.kind] === "STOCK" && h.siteId === scope.siteId && (scope.materialKind === undefined || h.materialKind === scope.materialKind);
 
   // Stock view.
-  const opening = stockBefore(moves, period.startMs);
-  const closing = stockBefore(moves, period.endMs);
+  const { opening, closing } = stockAtBothEnds(moves, period.startMs, period.endMs);
   const scoped = holders.filter(inScope);
   const byHolder: HolderStock[] = scoped.map((h) => ({ holderId: h.id, kind: h.kind, openingG: opening.get(h.id) ?? 0, closingG: closing.get(h.id) ?? 0 }));
   const openingG = byHolder.reduce((s, h) => s + h.openingG, 0);
@@ -369,27 +384,36 @@ export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBa
  * instant are applied before checking, so their order within the instant does not matter.
  */
 function findNegativeStock(moves: readonly BalanceMove[], beforeMs: number, watch: (holderId: number) => boolean): NegativeStock[] {
-  const byInstant = new Map<number, BalanceMove[]>();
-  for (const m of moves) {
+  // Positions in (time, id) order; a ledger read in that order (the usual case) is not sorted again.
+  const order: number[] = [];
+  let sorted = true;
+  for (let i = 0; i < moves.length; i++) {
+    const m = moves[i] as BalanceMove;
     if (m.at >= beforeMs) continue;
-    const group = byInstant.get(m.at);
-    if (group === undefined) byInstant.set(m.at, [m]);
-    else group.push(m);
+    const prev = order.length === 0 ? undefined : moves[order[order.length - 1] as number];
+    if (prev !== undefined && (prev.at > m.at || (prev.at === m.at && prev.id > m.id))) sorted = false;
+    order.push(i);
   }
+  if (!sorted) order.sort((a, b) => (moves[a] as BalanceMove).at - (moves[b] as BalanceMove).at || (moves[a] as BalanceMove).id - (moves[b] as BalanceMove).id);
   const running = new Map<number, number>();
   const found = new Map<number, NegativeStock>();
-  for (const at of [...byInstant.keys()].sort((a, b) => a - b)) {
-    const group = (byInstant.get(at) ?? []).sort((a, b) => a.id - b.id);
-    for (const m of group) {
+  // All movements stamped at one instant are applied before any holder is checked.
+  for (let g = 0; g < order.length; ) {
+    const at = (moves[order[g] as number] as BalanceMove).at;
+    let end = g;
+    for (; end < order.length && (moves[order[end] as number] as BalanceMove).at === at; end++) {
+      const m = moves[order[end] as number] as BalanceMove;
       running.set(m.toHolderId, (running.get(m.toHolderId) ?? 0) + m.massG);
       if (m.fromHolderId !== null) running.set(m.fromHolderId, (running.get(m.fromHolderId) ?? 0) - m.massG);
     }
-    for (const m of group) {
+    for (let k = g; k < end; k++) {
+      const m = moves[order[k] as number] as BalanceMove;
       const id = m.fromHolderId;
       if (id === null || found.has(id) || !watch(id)) continue;
       const balanceG = running.get(id) ?? 0;
       if (balanceG < 0) found.set(id, { holderId: id, at, moveId: m.id, balanceG });
     }
+    g = end;
   }
   return [...found.values()];
 }
@@ -410,9 +434,18 @@ function computeProcessView(
   let inputsG = 0;
   let outputsG = 0;
 
-  for (const b of batches) {
+  // One pass over the ledger, bucketing the movements into and out of each batch still relevant to
+  // the period (not finished before it), instead of one pass per batch.
+  const relevant = batches.filter((b) => b.completedAt === null || b.completedAt === undefined || b.completedAt >= period.startMs);
+  const movesOf = new Map<number, BalanceMove[]>(relevant.map((b) => [b.id, []]));
+  for (const m of moves) {
+    if (m.at >= period.endMs) continue;
+    movesOf.get(m.toHolderId)?.push(m);
+    if (m.fromHolderId !== null) movesOf.get(m.fromHolderId)?.push(m);
+  }
+
+  for (const b of relevant) {
     const completedAt = b.completedAt ?? null;
-    if (completedAt !== null && completedAt < period.startMs) continue;
     const finishedInPeriod = completedAt !== null && completedAt < period.endMs;
     const inputsByRole: Partial<Record<MoveRole, number>> = {};
     const outputsByRole: Partial<Record<MoveRole, number>> = {};
@@ -420,8 +453,7 @@ function computeProcessView(
     let bin = 0;
     let bout = 0;
     let touched = false;
-    for (const m of moves) {
-      if (m.at >= period.endMs) continue;
+    for (const m of movesOf.get(b.id) ?? []) {
       if (m.toHolderId === b.id) {
         touched = true;
         bin += m.massG;

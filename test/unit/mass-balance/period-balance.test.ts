@@ -155,6 +155,18 @@ describe("computePeriodBalance — signals of missing records", () => {
     expect(b.stock.negativeStock).toEqual([{ holderId: H.lot, at: utc("2026-01-03T08:00:00Z"), moveId: missingReceipt[0]?.id, balanceG: -50_000 }]);
   });
 
+  it("finds the same first negative stock whatever order the movements are listed in", () => {
+    const history = [
+      mv("2026-01-02T08:00:00Z", null, H.lot, 30_000, "RECEIPT"),
+      mv("2026-01-03T08:00:00Z", H.lot, H.tank, 50_000, "TRANSFER"),
+      mv("2026-01-04T08:00:00Z", null, H.lot, 40_000, "RECEIPT"),
+      mv("2026-01-05T08:00:00Z", H.lot, H.tank, 30_000, "TRANSFER"),
+    ];
+    const expected = [{ holderId: H.lot, at: utc("2026-01-03T08:00:00Z"), moveId: history[1]?.id, balanceG: -20_000 }];
+    expect(requireBalance({ holders, moves: history, period: JANUARY, scope: { siteId: 1 } }).stock.negativeStock).toEqual(expected);
+    expect(requireBalance({ holders, moves: [...history].reverse(), period: JANUARY, scope: { siteId: 1 } }).stock.negativeStock).toEqual(expected);
+  });
+
   it("does not flag a draw booked at the same instant as the receipt that covers it", () => {
     const sameInstant = [mv("2026-01-03T08:00:00Z", H.lot, H.tank, 50_000, "TRANSFER"), mv("2026-01-03T08:00:00Z", null, H.lot, 50_000, "RECEIPT")];
     expect(requireBalance({ holders, moves: sameInstant, period: JANUARY, scope: { siteId: 1 } }).stock.negativeStock).toEqual([]);
