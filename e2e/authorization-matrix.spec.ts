@@ -25,6 +25,8 @@ const MATRIX: Record<string, Role[] | "public"> = {
   "/api/lab/decisions": ["PRODUCTION"],
   "/api/periods/close": ["COMPLIANCE"],
   "/api/periods/reopen": ["COMPLIANCE"],
+  "/api/grid/save": ["COLLECTOR", "PRODUCTION"],
+  "/api/grid/import": ["PRODUCTION"],
 };
 const COMPUTE_PREFIX = "/api/compute/"; // pure computations: any signed-in user
 
@@ -80,6 +82,11 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   recordPlanAction: ["PRODUCTION"],
   startBatchAction: ["PRODUCTION"],
   completeBatchAction: ["PRODUCTION"],
+  receivePickupsAction: ["PRODUCTION"],
+  createUserAction: ["ADMIN"],
+  changeUserAction: ["ADMIN"],
+  resetPasswordAction: ["ADMIN"],
+  endSessionsAction: ["ADMIN"],
 };
 
 interface ActionEntry { id: string; name: string; page: string }

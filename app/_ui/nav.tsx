@@ -18,6 +18,7 @@ const ITEMS: ReadonlyArray<readonly [string, string]> = [
   ["/balance", "Balance"],
   ["/periods", "Periods"],
   ["/ledger", "Ledger"],
+  ["/admin/users", "Accounts"],
 ];
 
 export function MainNav() {

@@ -11,15 +11,20 @@ export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Pickups" };
 
 export default async function PickupsPage({ searchParams }: { searchParams: Promise<{ page?: string | string[] }> }) {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const page = pageParam((await searchParams).page);
-  const { rows, total } = await listPickups(db, site.id, { skip: (page - 1) * PAGE_SIZE, take: PAGE_SIZE });
+  // A collector sees their own entries; everyone else the whole site.
+  const own = user.role === "COLLECTOR";
+  const { rows, total } = await listPickups(db, site.id, { skip: (page - 1) * PAGE_SIZE, take: PAGE_SIZE, ...(own ? { collectorId: user.userId } : {}) });
   const tz = site.timeZone;
   return (
     <>
       <h1>Pickups</h1>
-      <p className="lede">Each collection of oil at a source as the collector observed it, newest first. Masses are estimated from volume and temperature until the lot is measured at the plant.</p>
+      <p className="lede">
+        {own ? "Your pickups" : "Each collection of oil at a source"} as the collector observed it, newest first. Masses are estimated from volume and temperature until the
+        lot is measured at the plant.
+      </p>
       {total === 0 ? (
         <Empty>No pickups recorded yet.</Empty>
       ) : (

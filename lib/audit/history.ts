@@ -15,6 +15,7 @@ export const RECORD_HISTORIES = {
   disposal: { label: "Disposal", entities: ["Disposal"] },
   period: { label: "Accounting period", entities: ["AccountingPeriod"] },
   movement: { label: "Movement", entities: ["Movement"] },
+  user: { label: "Account", entities: ["User"] },
 } as const satisfies Record<string, { label: string; entities: readonly string[] }>;
 
 export type RecordHistoryKind = keyof typeof RECORD_HISTORIES;

@@ -43,7 +43,7 @@ export async function signIn(db: Db, input: unknown, ctx: { ip: string; now: Dat
   const token = randomBytes(32).toString("base64url");
   const expiresAt = new Date(ctx.now.getTime() + ABSOLUTE_TIMEOUT_MS);
   await insertSession(db, { tokenHash: hashToken(token), userId: user.id, createdAt: ctx.now, expiresAt });
-  return ok({ token, expiresAt, user: { siteId: user.siteId, userId: user.id, login: user.login, fullName: user.fullName, role: user.role, unitSystem: "metric" } });
+  return ok({ token, expiresAt, user: { siteId: user.siteId, userId: user.id, login: user.login, fullName: user.fullName, role: user.role, unitSystem: user.unitSystem === "us" ? "us" : "metric" } });
 }
 
 /** The signed-in user for a session token, or null when the session is unknown, revoked, expired or idle. */

@@ -10,10 +10,11 @@ export interface UserForSignIn {
   role: SiteRole;
   passwordHash: string | null;
   active: boolean;
+  unitSystem: string;
 }
 
 export async function findUserByLogin(db: Db, login: string): Promise<UserForSignIn | null> {
-  const u = await db.user.findUnique({ where: { login }, select: { id: true, siteId: true, login: true, fullName: true, role: true, passwordHash: true, active: true } });
+  const u = await db.user.findUnique({ where: { login }, select: { id: true, siteId: true, login: true, fullName: true, role: true, passwordHash: true, active: true, unitSystem: true } });
   return u ? { ...u, role: u.role as SiteRole } : null;
 }
 

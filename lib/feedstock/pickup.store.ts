@@ -54,8 +54,8 @@ export interface PickupRow {
   notes: string;
 }
 
-export async function listPickups(db: Db, siteId: number, opts: { skip?: number; take?: number; sourceId?: number } = {}): Promise<{ rows: PickupRow[]; total: number }> {
-  const where = { siteId, ...(opts.sourceId ? { sourceId: opts.sourceId } : {}) };
+export async function listPickups(db: Db, siteId: number, opts: { skip?: number; take?: number; sourceId?: number; collectorId?: number } = {}): Promise<{ rows: PickupRow[]; total: number }> {
+  const where = { siteId, ...(opts.sourceId ? { sourceId: opts.sourceId } : {}), ...(opts.collectorId ? { collectorId: opts.collectorId } : {}) };
   const [rows, total] = await Promise.all([
     db.pickup.findMany({
       where,

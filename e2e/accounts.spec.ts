@@ -1,0 +1,66 @@
+import { expect, request as playwrightRequest, test } from "@playwright/test";
+import { signIn } from "./support/sign-in";
+
+// The administrator adds a colleague, the colleague signs in, and disabling the account ends their
+// session at once (their next API call is refused) — OWASP ASVS 5.0 V7.4 session termination.
+test("an administrator adds an account, and disabling it ends its session at once", async ({ page, baseURL }) => {
+  await signIn(page, "admin.jory", "/admin/users");
+  await expect(page.getByRole("heading", { name: "Accounts" })).toBeVisible();
+  const create = page.getByRole("form", { name: "New account" });
+
+  // Bad input keeps what was typed (except the password) and names the fields.
+  await create.getByLabel("User name").fill("x");
+  await create.getByLabel("Full name").fill("Wen Ashby");
+  await create.getByLabel("First password").fill("short");
+  await create.getByRole("button", { name: "Create account" }).click();
+  await expect(create.getByText(/User name: 3 to 80 characters/)).toBeVisible();
+  await expect(create.getByText(/Password: at least 8 characters/)).toBeVisible();
+  await expect(create.getByLabel("Full name")).toHaveValue("Wen Ashby");
+
+  await create.getByLabel("User name").fill("collector.wen");
+  await create.getByLabel("Role").selectOption("COLLECTOR");
+  await create.getByLabel("First password").fill("kerbside pickups daily");
+  await create.getByRole("button", { name: "Create account" }).click();
+  await expect(page.getByRole("status").filter({ hasText: "Account collector.wen created" })).toBeVisible();
+
+  const wen = await playwrightRequest.newContext({ baseURL });
+  expect((await wen.post("/api/session", { data: { login: "collector.wen", password: "kerbside pickups daily" } })).status()).toBe(200);
+  expect((await wen.get("/api/holders/TANK/T1")).status()).toBe(200);
+
+  await page.reload();
+  const row = page.getByRole("row").filter({ hasText: "collector.wen" });
+  await expect(row.getByRole("cell", { name: "1", exact: true })).toBeVisible(); // one live session
+  await row.getByText("Manage collector.wen").click();
+  const change = row.getByRole("form", { name: "Change collector.wen" });
+  await change.getByLabel("Account").selectOption("no");
+  await change.getByRole("button", { name: "Save change" }).click();
+  await expect(change.locator(".field-error")).toContainText("Reason");
+  await expect(change.getByLabel("Account")).toHaveValue("no"); // the choice survives the refusal
+  await change.getByLabel("Reason").fill("Seasonal contract ended");
+  await change.getByRole("button", { name: "Save change" }).click();
+  await expect(change.getByRole("status")).toContainText("session");
+
+  expect((await wen.get("/api/holders/TANK/T1")).status()).toBe(401);
+  expect((await wen.post("/api/session", { data: { login: "collector.wen", password: "kerbside pickups daily" } })).status()).not.toBe(200);
+
+  // The account's history shows both events with the reason.
+  await page.reload();
+  await page.getByRole("link", { name: "History of account collector.wen" }).click();
+  await expect(page.getByRole("cell", { name: "Seasonal contract ended" })).toBeVisible();
+});
+
+test("only an administrator sees account management", async ({ page }) => {
+  await signIn(page, "compliance.nell", "/admin/users");
+  await expect(page.locator("p.form-error[role=alert]")).toContainText("Only an administrator manages accounts");
+  await expect(page.getByRole("form", { name: "New account" })).toHaveCount(0);
+});
+
+test("a collector's pickup list holds only their own entries", async ({ page }) => {
+  await signIn(page, "collector.ivo", "/pickups");
+  await expect(page.getByText("Your pickups")).toBeVisible();
+  const me = (await page.locator("header").innerText()).match(/Ivo \w+/)?.[0];
+  expect(me, "the header names the signed-in collector").toBeTruthy();
+  const collectors = await page.locator("tbody tr td:nth-child(4)").allInnerTexts();
+  expect(collectors.length).toBeGreaterThan(0);
+  expect(new Set(collectors)).toEqual(new Set([me]));
+});

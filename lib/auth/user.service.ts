@@ -1,0 +1,76 @@
+import "server-only";
+import { appendAudit } from "@/lib/audit/audit.store";
+import { hashPassword } from "@/lib/auth/password";
+import { PasswordResetSchema, RevokeSessionsSchema, UserChangeSchema, UserCreateSchema } from "@/lib/auth/user.schema";
+import { countActiveAdmins, insertAccount, requireUser, revokeAllSessions, updateUser } from "@/lib/auth/user.store";
+import type { Db } from "@/lib/database/connect";
+import type { Result } from "@/lib/errors";
+import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
+import { parseInput } from "@/lib/ledger/parse";
+import type { Actor } from "@/lib/site/actor";
+
+// Accounts are never deleted: a leaver is deactivated (their sessions end at once) and their name stays
+// on every record they made. Every change is in the audit trail; password hashes never are.
+
+export async function createUser(db: Db, actor: Actor, input: unknown): Promise<Result<{ id: number; login: string }>> {
+  const parsed = parseInput(UserCreateSchema, input);
+  if (!parsed.ok) return parsed;
+  const { password, ...rest } = parsed.value;
+  const passwordHash = await hashPassword(password);
+  return runInTransaction(db, async (tx) => {
+    const saved = await insertAccount(tx, actor.siteId, { ...rest, passwordHash });
+    await appendAudit(tx, actor, { action: "CREATE", entity: "User", entityKey: rest.login, after: rest });
+    return saved;
+  });
+}
+
+export async function changeUser(db: Db, actor: Actor, input: unknown): Promise<Result<{ login: string; sessionsEnded: number }>> {
+  const parsed = parseInput(UserChangeSchema, input);
+  if (!parsed.ok) return parsed;
+  const c = parsed.value;
+  return runInTransaction(db, async (tx) => {
+    const u = await requireUser(tx, actor.siteId, c.login);
+    const before: Record<string, unknown> = {};
+    const after: Record<string, unknown> = {};
+    for (const key of ["role", "active", "unitSystem"] as const) {
+      if (c[key] !== undefined && c[key] !== u[key]) {
+        before[key] = u[key];
+        after[key] = c[key];
+      }
+    }
+    if (Object.keys(after).length === 0) reject("USER.NO_CHANGE", `Nothing to change: ${c.login} already has these settings`, "role");
+    const losesAdmin = u.role === "ADMIN" && u.active && (after.role !== undefined || after.active === false);
+    if (losesAdmin && (await countActiveAdmins(tx, actor.siteId)) <= 1) {
+      reject("USER.LAST_ADMIN", "The site needs at least one active administrator; make another account administrator first", after.role !== undefined ? "role" : "active");
+    }
+    await updateUser(tx, u.id, { ...(c.role !== undefined ? { role: c.role } : {}), ...(c.active !== undefined ? { active: c.active } : {}), ...(c.unitSystem !== undefined ? { unitSystem: c.unitSystem } : {}) });
+    // A role change or a deactivation ends the account's sessions: the next request signs in again under the new rights.
+    const sessionsEnded = after.role !== undefined || after.active === false ? await revokeAllSessions(tx, u.id, actor.now) : 0;
+    await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: u.login, before, after: { ...after, sessionsEnded }, reason: c.reason });
+    return { login: u.login, sessionsEnded };
+  });
+}
+
+export async function resetPassword(db: Db, actor: Actor, input: unknown): Promise<Result<{ login: string; sessionsEnded: number }>> {
+  const parsed = parseInput(PasswordResetSchema, input);
+  if (!parsed.ok) return parsed;
+  const passwordHash = await hashPassword(parsed.value.password);
+  return runInTransaction(db, async (tx) => {
+    const u = await requireUser(tx, actor.siteId, parsed.value.login);
+    await updateUser(tx, u.id, { passwordHash });
+    const sessionsEnded = await revokeAllSessions(tx, u.id, actor.now);
+    await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: u.login, after: { password: "reset", sessionsEnded }, reason: parsed.value.reason });
+    return { login: u.login, sessionsEnded };
+  });
+}
+
+export async function endSessions(db: Db, actor: Actor, input: unknown): Promise<Result<{ login: string; sessionsEnded: number }>> {
+  const parsed = parseInput(RevokeSessionsSchema, input);
+  if (!parsed.ok) return parsed;
+  return runInTransaction(db, async (tx) => {
+    const u = await requireUser(tx, actor.siteId, parsed.value.login);
+    const sessionsEnded = await revokeAllSessions(tx, u.id, actor.now);
+    await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: u.login, after: { sessionsEnded }, reason: parsed.value.reason });
+    return { login: u.login, sessionsEnded };
+  });
+}
