@@ -12,6 +12,10 @@ test("plan a batch, record it, start and finish it, see the yield", async ({ pag
   const code = `E2E-${Date.now().toString(36).toUpperCase()}`;
   await signIn(page, "production.tess", "/plan");
   await expect(page.getByRole("heading", { level: 1, name: "Plan a batch" })).toBeVisible();
+  // The cautions are on the page before any plan is made, not only on the card.
+  const cautions = page.getByRole("complementary", { name: "Cautions for the batch" });
+  await expect(cautions).toContainText("Methanol is toxic and highly flammable");
+  await expect(cautions).toContainText("safety data sheets");
 
   await page.getByLabel("Oil to charge (kg)").fill("5000");
   await page.getByLabel("Blend FFA limit (%)").fill("0.01");

@@ -179,6 +179,16 @@ export default async function PlanPage({ searchParams }: { searchParams: Promise
         that blend — with acid pretreatment when its FFA needs it — as a printable card.
       </p>
       {!canWrite ? <Note>Anyone can work out a plan here; only production staff can record it.</Note> : null}
+      <aside className="cautions" aria-label="Cautions for the batch">
+        <p className="cautions-title">Before anyone charges the reactor</p>
+        <ul>
+          <li>Methanol is toxic and highly flammable; its vapour ignites easily. No ignition sources; ventilate; keep containers closed.</li>
+          <li>Sodium and potassium hydroxide and methoxide are corrosive and react with water, giving off heat: eye and face protection, gloves.</li>
+          <li>Sulfuric acid for pretreatment is corrosive: add acid to methanol slowly, never the reverse.</li>
+          <li>Hot oil burns and spatters if water is present; keep the reaction below methanol&apos;s boiling point unless the vessel is rated for it.</li>
+          <li>Work to the safety data sheets, the plant&apos;s procedures and local fire and building codes. The recipe card repeats these at each step.</li>
+        </ul>
+      </aside>
 
       <form method="get" action="/plan" className="plan-form" noValidate aria-label="Plan settings">
         <fieldset>
