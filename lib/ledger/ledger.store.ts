@@ -7,6 +7,8 @@ import type { DomainIssue, Result } from "@/lib/errors";
 import { failMany, ok } from "@/lib/errors";
 import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
 import { labelOf } from "@/lib/ledger/kinds";
+import { loadTraceLedger } from "@/lib/ledger/movement.store";
+import { refuseCycle } from "@/lib/trace/cycle";
 
 /** Aborts the surrounding transaction with expected outcomes; turned back into a value by runInTransaction. */
 export class Rejection extends Error {
@@ -35,6 +37,14 @@ const idempotency = new AsyncLocalStorage<IdempotencyContext>();
  */
 export function withIdempotencyKey<T>(ctx: IdempotencyContext, fn: () => Promise<T>): Promise<T> {
   return idempotency.run(ctx, fn);
+}
+
+/**
+ * Runs fn with no idempotency key in force: for the rows of a grid batch, whose one key is stored once
+ * by the batch's own transaction while each row's service joins that transaction.
+ */
+export function withoutIdempotencyKey<T>(fn: () => Promise<T>): Promise<T> {
+  return idempotency.exit(fn);
 }
 
 class Replay extends Error {
@@ -163,7 +173,28 @@ export async function postMovement(tx: Tx, m: MovementDraft): Promise<number> {
     },
     select: { id: true },
   });
+  await assertNoCycle(tx, m, row.id, field);
   return row.id;
+}
+
+/**
+ * A booking must not make a lot, batch or product lot its own ancestor (genealogy could not say what
+ * it is made of). A cycle through the new move needs a move out of its destination after it, so a
+ * booking dated now never pays more than one indexed count; a back-dated one into a holder that has
+ * sent material on since is checked against the site's whole ledger (lib/trace/cycle.ts).
+ */
+async function assertNoCycle(tx: Tx, m: MovementDraft, moveId: number, field: string): Promise<void> {
+  if (m.fromHolderId === null) return;
+  const later = await tx.movement.count({ where: { fromHolderId: m.toHolderId, at: { gt: m.at } } });
+  if (later === 0) return;
+  const ledger = await loadTraceLedger(tx, m.siteId);
+  const newMove = { id: moveId, at: m.at.getTime(), fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG };
+  const holders = new Map(ledger.holders.map((h) => [h.id, h]));
+  const verdict = refuseCycle(ledger.moves.filter((x) => x.id !== moveId), newMove, holders);
+  if (!verdict.ok) {
+    const cycle = verdict.issues[0]?.message ?? "";
+    reject("LEDGER.CYCLE", `This movement would make a record its own ancestor — material it sent on would come back into it. Book rework as a new batch or lot. (${cycle})`, field);
+  }
 }
 
 /**

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/database/connect";
 import { invariant } from "@/lib/errors";
 import { HOLDER_KINDS, MOVE_ROLES } from "@/lib/ledger/kinds";
 import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
@@ -143,7 +143,7 @@ export interface TraceLedger {
  * The whole site ledger in the trace core's shape. Reversed pairs are left out: a reversal corrects a
  * booking, it is not a physical flow (see indexLedger).
  */
-export async function loadTraceLedger(db: Db, siteId: number): Promise<TraceLedger> {
+export async function loadTraceLedger(db: Db | Tx, siteId: number): Promise<TraceLedger> {
   const [holderRows, tanks, moveRows] = await Promise.all([
     db.holder.findMany({ where: { siteId }, select: HOLDER_SELECT }),
     db.tank.findMany({ where: { siteId }, select: { holderId: true, mixing: true } }),
