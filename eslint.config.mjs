@@ -17,7 +17,7 @@ const frameworkImports = {
 };
 
 export default tseslint.config(
-  { ignores: ["node_modules/**", ".next/**", "lib/generated/**", "prisma/pg/**", "test-results/**", "playwright-report/**", "next-env.d.ts"] },
+  { ignores: ["node_modules/**", ".next/**", ".next-*/**", ".tmp/**", "lib/generated/**", "prisma/pg/**", "test-results/**", "playwright-report/**", "next-env.d.ts"] },
   ...tseslint.configs.recommended,
   {
     rules: {

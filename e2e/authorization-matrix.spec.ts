@@ -87,6 +87,8 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   changeUserAction: ["ADMIN"],
   resetPasswordAction: ["ADMIN"],
   endSessionsAction: ["ADMIN"],
+  reverseMovementAction: ["PRODUCTION"],
+  voidLabResultAction: ["PRODUCTION"],
 };
 
 interface ActionEntry { id: string; name: string; page: string }

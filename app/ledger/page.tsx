@@ -5,16 +5,18 @@ import { kgExact, litres, num, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { Empty, HolderLink, NoSite, Note, Pager } from "@/app/_ui/ui";
+import { ReverseMovementForm } from "@/app/corrections/correction-forms";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Ledger" };
 
 export default async function LedgerPage({ searchParams }: { searchParams: Promise<{ page?: string | string[] }> }) {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const page = pageParam((await searchParams).page);
   const { rows, total } = await listMovementPage(db, site.id, { skip: (page - 1) * PAGE_SIZE, take: PAGE_SIZE });
   const tz = site.timeZone;
+  const canCorrect = user.role === "PRODUCTION";
   return (
     <>
       <h1>Ledger</h1>
@@ -46,6 +48,7 @@ export default async function LedgerPage({ searchParams }: { searchParams: Promi
                   </th>
                   <th scope="col">Recorded by</th>
                   <th scope="col">Note</th>
+                  {canCorrect ? <th scope="col">Correct</th> : null}
                 </tr>
               </thead>
               <tbody>
@@ -69,6 +72,9 @@ export default async function LedgerPage({ searchParams }: { searchParams: Promi
                       {m.reversesId !== null ? <span className="tag">reverses No. {m.reversesId}</span> : null}
                       {m.reversedById !== null ? <span className="tag">reversed by No. {m.reversedById}</span> : null}
                     </td>
+                    {canCorrect ? (
+                      <td>{m.role === "TRANSFER" && m.from !== null && m.reversesId === null && m.reversedById === null ? <ReverseMovementForm movementId={m.id} /> : null}</td>
+                    ) : null}
                   </tr>
                 ))}
               </tbody>

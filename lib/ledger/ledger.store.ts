@@ -132,6 +132,8 @@ export interface MovementDraft {
   tempC?: number | null;
   note?: string;
   recordedById: number;
+  /** The movement this one cancels (a correction); set only by the correction service. */
+  reversesId?: number | null;
   /** Field name to blame in messages (the form's mass field). */
   field?: string;
 }
@@ -170,6 +172,7 @@ export async function postMovement(tx: Tx, m: MovementDraft): Promise<number> {
       tempC: m.tempC ?? null,
       note: m.note ?? "",
       recordedById: m.recordedById,
+      reversesId: m.reversesId ?? null,
     },
     select: { id: true },
   });
@@ -184,7 +187,8 @@ export async function postMovement(tx: Tx, m: MovementDraft): Promise<number> {
  * sent material on since is checked against the site's whole ledger (lib/trace/cycle.ts).
  */
 async function assertNoCycle(tx: Tx, m: MovementDraft, moveId: number, field: string): Promise<void> {
-  if (m.fromHolderId === null) return;
+  // A reversal and the movement it cancels are left out of genealogy as a pair, so they close no cycle.
+  if (m.fromHolderId === null || (m.reversesId ?? null) !== null) return;
   const later = await tx.movement.count({ where: { fromHolderId: m.toHolderId, at: { gt: m.at } } });
   if (later === 0) return;
   const ledger = await loadTraceLedger(tx, m.siteId);

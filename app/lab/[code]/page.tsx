@@ -7,6 +7,7 @@ import { summariseReplicates } from "@/lib/titration/titration";
 import { kg, num, pct, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
+import { VoidResultForm } from "@/app/corrections/correction-forms";
 import { Empty, Facts, NoSite, Note, Status } from "@/app/_ui/ui";
 import { LabCautions } from "@/app/lab/lab-cautions";
 import { DecisionForm } from "@/app/lab/[code]/decision-form";
@@ -74,6 +75,7 @@ export default async function LabLotPage({ params }: Props) {
                   <th scope="col">FFA as</th>
                   <th scope="col" className="num">FFA</th>
                   <th scope="col" className="num">Acid value</th>
+                  {canWrite ? <th scope="col">Correct</th> : null}
                 </tr>
               </thead>
               <tbody>
@@ -89,6 +91,11 @@ export default async function LabLotPage({ params }: Props) {
                     <td>{t.basis.charAt(0) + t.basis.slice(1).toLowerCase()}</td>
                     <td className="num">{pct(t.ffaPct)}</td>
                     <td className="num">{num(t.acidValue, 2)} mg KOH/g</td>
+                    {canWrite ? (
+                      <td>
+                        <VoidResultForm kind="TITRATION" resultId={t.id} />
+                      </td>
+                    ) : null}
                   </tr>
                 ))}
               </tbody>
@@ -106,6 +113,12 @@ export default async function LabLotPage({ params }: Props) {
         </>
       )}
 
+      {lot.titrations.length + lot.labTests.length > valid.length + lot.labTests.filter((t) => !t.voided).length ? (
+        <p className="note">
+          {lot.titrations.length - valid.length + lot.labTests.filter((t) => t.voided).length} voided result(s) are kept on record and no longer count;{" "}
+          <Link href={`/history?${new URLSearchParams({ kind: "lot", key: lot.code }).toString()}`}>see the lot&apos;s history</Link>.
+        </p>
+      ) : null}
       {canWrite && open ? (
         <>
           <h3 id="titration-form-h">Record a titration</h3>
@@ -127,6 +140,7 @@ export default async function LabLotPage({ params }: Props) {
                 <th scope="col">Method</th>
                 <th scope="col">Analyst</th>
                 <th scope="col" className="num">Result</th>
+                {canWrite ? <th scope="col">Correct</th> : null}
               </tr>
             </thead>
             <tbody>
@@ -139,6 +153,11 @@ export default async function LabLotPage({ params }: Props) {
                     <td>{t.method}</td>
                     <td>{t.analyst}</td>
                     <td className="num">{pct(t.valuePct)}</td>
+                    {canWrite ? (
+                      <td>
+                        <VoidResultForm kind="LAB_TEST" resultId={t.id} />
+                      </td>
+                    ) : null}
                   </tr>
                 ))}
             </tbody>

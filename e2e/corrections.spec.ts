@@ -1,0 +1,51 @@
+import { expect, test } from "@playwright/test";
+import { signIn } from "./support/sign-in";
+
+// A mistake is corrected, never deleted: a transfer booked into the wrong tank is reversed with a
+// reason (the original stays in the ledger, linked), and a titration entered wrongly is voided.
+test("reverse a mistaken transfer and void a mistaken titration, each with a reason", async ({ page, baseURL }) => {
+  await signIn(page, "production.tess", "/ledger");
+  // Book the mistake through the API, as a client would: 1 kg from T1 into T2, now.
+  const booked = await page.request.post("/api/transfers", {
+    headers: { "idempotency-key": `mistake-${Date.now()}`, origin: baseURL! },
+    data: { fromKind: "TANK", fromCode: "T1", toTankCode: "T2", at: new Date().toISOString(), massKg: 1 },
+  });
+  expect(booked.status()).toBe(200);
+  const t1Before = ((await (await page.request.get("/api/holders/TANK/T1")).json()) as { value: { stockG: number } }).value.stockG;
+
+  await page.reload();
+  const no = (await page.locator("tbody tr").first().locator("td").first().innerText()).trim();
+  const row = page.locator("tbody tr").filter({ has: page.locator("td:first-child", { hasText: new RegExp(`^${no}$`) }) });
+  await row.getByText(`Reverse No. ${no}`).click();
+  await row.getByRole("button", { name: "Book the reversal" }).click();
+  await expect(row.locator(".field-error")).toContainText("Reason");
+  await row.getByLabel("What was wrong").fill("Meant for T3, not T2");
+  await row.getByRole("button", { name: "Book the reversal" }).click();
+  // The page refreshes: the original row now says which movement reversed it, and offers no second reversal.
+  await expect(row.getByText(/reversed by No\. \d+/)).toBeVisible();
+  await expect(row.getByText(`Reverse No. ${no}`)).toHaveCount(0);
+  const t1After = ((await (await page.request.get("/api/holders/TANK/T1")).json()) as { value: { stockG: number } }).value.stockG;
+  expect(t1After - t1Before).toBe(1000);
+  await expect(page.getByText(`reverses No. ${no}`)).toBeVisible();
+
+  // Void a titration on a lot's lab page: it no longer counts and the history keeps why.
+  await page.goto("/lab");
+  const lotLink = page.getByRole("table").getByRole("link", { name: /^L-\d{4}$/ }).first();
+  const lotCode = (await lotLink.innerText()).trim();
+  const saved = await page.request.post("/api/lab/titrations", {
+    headers: { "idempotency-key": `titration-${Date.now()}`, origin: baseURL! },
+    data: { lotCode, testedAt: new Date().toISOString(), sampleMassG: 7.05, titrant: "NAOH", concentrationMolL: 0.25, titreMl: 9.99, basis: "OLEIC" },
+  });
+  expect(saved.status()).toBe(200);
+  await page.goto(`/lab/${lotCode}`);
+  // 9.99 × 0.25 × 28.2 / 7.05 = 9.99 % FFA (AOCS Ca 5a-40, hand arithmetic)
+  const titrationRow = page.locator("tbody tr").filter({ hasText: "9.99 %" }).first();
+  await titrationRow.getByText("Void", { exact: true }).click();
+  await titrationRow.getByLabel("What was wrong").fill("Sample mass mistyped");
+  await titrationRow.getByRole("button", { name: "Void this result" }).click();
+  // The voided result leaves the table at once and the page says it is kept on record.
+  await expect(page.locator("tbody tr").filter({ hasText: "9.99 %" })).toHaveCount(0);
+  await expect(page.getByText(/voided result\(s\) are kept on record/)).toBeVisible();
+  await page.getByRole("link", { name: "see the lot's history" }).click();
+  await expect(page.getByRole("cell", { name: "Sample mass mistyped" })).toBeVisible();
+});
