@@ -501,6 +501,7 @@ console.log("  Each figure includes writing the LP text, the HiGHS solve and any
 endSection("blend");
 
 // ---- summary -----------------------------------------------------------------------------------
+goalLines.push(...(await (await import("@/bench/grid")).runGridBench()));
 console.log("\n== Goals ==");
 printTable([["goal", "case", "measured", "result"], ...goalLines]);
 const misses = goalLines.filter((g) => g[3].startsWith("MISS")).length;

@@ -19,6 +19,7 @@ const ITEMS: ReadonlyArray<readonly [string, string]> = [
   ["/periods", "Periods"],
   ["/ledger", "Ledger"],
   ["/admin/users", "Accounts"],
+  ["/grid", "Grid"],
 ];
 
 export function MainNav() {

@@ -4,5 +4,6 @@ import type { EndpointDoc } from "@/lib/api/openapi";
 import { LAB_ENDPOINTS } from "@/lib/api/endpoints/lab";
 import { TRACE_ENDPOINTS } from "@/lib/api/endpoints/trace";
 import { RECORD_ENDPOINTS } from "@/lib/api/endpoints/records";
+import { GRID_ENDPOINTS } from "@/lib/api/endpoints/grid";
 
-export const ENDPOINTS: EndpointDoc[] = [...RECORD_ENDPOINTS, ...LAB_ENDPOINTS, ...TRACE_ENDPOINTS];
+export const ENDPOINTS: EndpointDoc[] = [...RECORD_ENDPOINTS, ...LAB_ENDPOINTS, ...TRACE_ENDPOINTS, ...GRID_ENDPOINTS];

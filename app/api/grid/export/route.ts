@@ -1,0 +1,24 @@
+import { NextResponse } from "next/server";
+import { getDb } from "@/lib/db";
+import { parseQuery, respond } from "@/lib/api/json-route.service";
+import { requireRole } from "@/lib/auth/request.service";
+import { GridExportSchema } from "@/lib/grid/query.schema";
+import { exportGrid } from "@/lib/grid/export.service";
+
+/** The whole filtered, sorted view as CSV or XLSX, in the user's units, formula-like text neutralised. */
+export async function GET(request: Request): Promise<NextResponse> {
+  const who = await requireRole(["COLLECTOR", "PRODUCTION", "COMPLIANCE", "ADMIN"]);
+  if (!who.ok) return respond(who);
+  const q = parseQuery(request, GridExportSchema);
+  if (!q.ok) return respond(q);
+  const file = await exportGrid(await getDb(), who.value, q.value);
+  if (!file.ok) return respond(file);
+  return new NextResponse(file.value.body as unknown as BodyInit, {
+    headers: {
+      "content-type": file.value.contentType,
+      "content-disposition": `attachment; filename="${file.value.filename}"`,
+      "x-row-count": String(file.value.rows),
+      "cache-control": "no-store",
+    },
+  });
+}

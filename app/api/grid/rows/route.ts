@@ -1,0 +1,20 @@
+import type { NextResponse } from "next/server";
+import { getDb } from "@/lib/db";
+import { parseQuery, respond } from "@/lib/api/json-route.service";
+import { requireRole } from "@/lib/auth/request.service";
+import { GridQuerySchema } from "@/lib/grid/query.schema";
+import { listGridRows } from "@/lib/grid/grid.service";
+import { ok } from "@/lib/errors";
+
+/** One block of a grid table for the infinite row model: rows, the filtered count and totals within the filter. */
+export async function GET(request: Request): Promise<NextResponse> {
+  const who = await requireRole(["COLLECTOR", "PRODUCTION", "COMPLIANCE", "ADMIN"]);
+  if (!who.ok) return respond(who);
+  const q = parseQuery(request, GridQuerySchema);
+  if (!q.ok) return respond(q);
+  const t0 = performance.now();
+  const page = await listGridRows(await getDb(), who.value, q.value);
+  const res = respond(ok(page));
+  res.headers.set("Server-Timing", `db;dur=${(performance.now() - t0).toFixed(1)}`);
+  return res;
+}
