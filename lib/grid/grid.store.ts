@@ -131,12 +131,13 @@ interface TableQuery {
   take: number;
 }
 
-async function sumOf(db: Db | Tx, model: "pickup" | "feedstockLot" | "batch" | "movement" | "productLot" | "shipment" | "disposal", where: Where, fields: string[]): Promise<Record<string, number>> {
+/** The filtered row count and the sums within the filter, in one aggregate query (one scan, not two). */
+async function sumOf(db: Db | Tx, model: "pickup" | "feedstockLot" | "batch" | "movement" | "productLot" | "shipment" | "disposal", where: Where, fields: string[]): Promise<{ count: number; sums: Record<string, number> }> {
   const _sum = Object.fromEntries(fields.map((f) => [f, true]));
   // The aggregate arguments have the same shape for every model; the delegate types differ only by name.
-  const delegate = db[model] as unknown as { aggregate(args: { where: Where; _sum: Record<string, boolean> }): Promise<{ _sum: Record<string, number | null> }> };
-  const r = await delegate.aggregate({ where, _sum });
-  return Object.fromEntries(fields.map((f) => [f, r._sum[f] ?? 0]));
+  const delegate = db[model] as unknown as { aggregate(args: { where: Where; _sum: Record<string, boolean>; _count: true }): Promise<{ _sum: Record<string, number | null>; _count: number }> };
+  const r = await delegate.aggregate({ where, _sum, _count: true });
+  return { count: r._count, sums: Object.fromEntries(fields.map((f) => [f, r._sum[f] ?? 0])) };
 }
 
 /** One block of rows for the infinite row model, the filtered row count and the totals within the filter. */
@@ -160,9 +161,8 @@ export async function queryGridRows(db: Db | Tx, r: RowsRequest): Promise<RowsPa
     }
     case "pickups": {
       const t = q({ siteId });
-      const [rows, count, sums] = await Promise.all([
+      const [rows, { count, sums }] = await Promise.all([
         db.pickup.findMany({ ...(t as Prisma.PickupFindManyArgs), include: { source: { select: { code: true } }, lot: { select: { code: true } } } }),
-        db.pickup.count({ where: t.where as Prisma.PickupWhereInput }),
         sumOf(db, "pickup", t.where, ["massG", "volumeMl"]),
       ]);
       return {
@@ -176,12 +176,11 @@ export async function queryGridRows(db: Db | Tx, r: RowsRequest): Promise<RowsPa
     }
     case "lots": {
       const t = q({ siteId });
-      const [rows, count, sums] = await Promise.all([
+      const [rows, { count, sums }] = await Promise.all([
         db.feedstockLot.findMany({
           ...(t as Prisma.FeedstockLotFindManyArgs),
           include: { supplier: { select: { code: true } }, holder: { select: { stockG: true } }, pickups: { select: { code: true } }, titrations: { where: { voided: false }, orderBy: [{ testedAt: "desc" }, { id: "desc" }], take: 1, select: { ffaPct: true } } },
         }),
-        db.feedstockLot.count({ where: t.where as Prisma.FeedstockLotWhereInput }),
         sumOf(db, "feedstockLot", t.where, ["massG", "standardVolumeMl"]),
       ]);
       return {
@@ -223,9 +222,8 @@ export async function queryGridRows(db: Db | Tx, r: RowsRequest): Promise<RowsPa
     }
     case "batches": {
       const t = q({ siteId });
-      const [rows, count, sums] = await Promise.all([
+      const [rows, { count, sums }] = await Promise.all([
         db.batch.findMany({ ...(t as Prisma.BatchFindManyArgs), include: { holder: { select: { stockG: true } } } }),
-        db.batch.count({ where: t.where as Prisma.BatchWhereInput }),
         sumOf(db, "batch", t.where, ["targetOilG"]),
       ]);
       return {
@@ -239,9 +237,8 @@ export async function queryGridRows(db: Db | Tx, r: RowsRequest): Promise<RowsPa
     }
     case "batchFlows": {
       const t = q({ siteId, OR: [{ fromHolder: { kind: "BATCH" } }, { toHolder: { kind: "BATCH" } }] });
-      const [rows, count, sums] = await Promise.all([
+      const [rows, { count, sums }] = await Promise.all([
         db.movement.findMany({ ...(t as Prisma.MovementFindManyArgs), include: { fromHolder: { select: { kind: true, code: true } }, toHolder: { select: { kind: true, code: true } } } }),
-        db.movement.count({ where: t.where as Prisma.MovementWhereInput }),
         sumOf(db, "movement", t.where, ["massG", "volumeMl"]),
       ]);
       return {
@@ -259,9 +256,8 @@ export async function queryGridRows(db: Db | Tx, r: RowsRequest): Promise<RowsPa
     }
     case "products": {
       const t = q({ siteId });
-      const [rows, count, sums] = await Promise.all([
+      const [rows, { count, sums }] = await Promise.all([
         db.productLot.findMany({ ...(t as Prisma.ProductLotFindManyArgs), include: { batch: { select: { code: true } }, holder: { select: { stockG: true } } } }),
-        db.productLot.count({ where: t.where as Prisma.ProductLotWhereInput }),
         sumOf(db, "productLot", t.where, ["massG"]),
       ]);
       return {
@@ -286,9 +282,8 @@ export async function queryGridRows(db: Db | Tx, r: RowsRequest): Promise<RowsPa
     }
     case "shipments": {
       const t = q({ siteId });
-      const [rows, count, sums] = await Promise.all([
+      const [rows, { count, sums }] = await Promise.all([
         db.shipment.findMany({ ...(t as Prisma.ShipmentFindManyArgs) }),
-        db.shipment.count({ where: t.where as Prisma.ShipmentWhereInput }),
         sumOf(db, "shipment", t.where, ["massG", "volumeMl"]),
       ]);
       return {
@@ -316,9 +311,8 @@ export async function queryGridRows(db: Db | Tx, r: RowsRequest): Promise<RowsPa
     }
     case "disposals": {
       const t = q({ siteId });
-      const [rows, count, sums] = await Promise.all([
+      const [rows, { count, sums }] = await Promise.all([
         db.disposal.findMany({ ...(t as Prisma.DisposalFindManyArgs) }),
-        db.disposal.count({ where: t.where as Prisma.DisposalWhereInput }),
         sumOf(db, "disposal", t.where, ["massG"]),
       ]);
       return { lastRow: count, totals: { massKg: kg(sums.massG), volumeL: null }, rows: rows.map((d) => ({ id: d.id, documentNo: d.documentNo, hauler: d.hauler, disposedAt: iso(d.disposedAt), massKg: kg(d.massG) })) };
