@@ -1,3 +1,4 @@
+import Link from "next/link";
 import type { Metadata } from "next";
 import type { ReactNode } from "react";
 import { MainNav } from "@/app/_ui/nav";
@@ -30,7 +31,10 @@ export default async function RootLayout({ children }: { children: ReactNode }) 
           {user ? (
             <form action={signOutAction} className="who">
               <span>
-                {user.fullName} <span className="muted">({labelOf(user.role)})</span>
+                <Link href="/me" className="who-link" title="Your settings">
+                  {user.fullName}
+                </Link>{" "}
+                <span className="muted">({labelOf(user.role)})</span>
               </span>
               <button type="submit" className="link-button">
                 Sign out

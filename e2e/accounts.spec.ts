@@ -64,3 +64,18 @@ test("a collector's pickup list holds only their own entries", async ({ page }) 
   expect(collectors.length).toBeGreaterThan(0);
   expect(new Set(collectors)).toEqual(new Set([me]));
 });
+
+test("anyone sets their own units; another person's account history stays private", async ({ page }) => {
+  await signIn(page, "collector.mira", "/");
+  await page.getByRole("link", { name: "Mira Tolvane" }).click();
+  await expect(page.getByRole("heading", { name: "Your settings" })).toBeVisible();
+  await page.getByLabel(/US — lb, US gallons/).check();
+  await page.getByRole("button", { name: "Save" }).click();
+  await expect(page.getByRole("status")).toContainText("US units");
+  await page.reload();
+  await expect(page.getByLabel(/US — lb, US gallons/)).toBeChecked();
+  await page.goto("/history?kind=user&key=admin.jory");
+  await expect(page.locator("p.form-error[role=alert]")).toContainText("owner and to administrators");
+  await page.goto("/history?kind=user&key=collector.mira");
+  await expect(page.getByRole("cell", { name: "own preference" })).toBeVisible();
+});

@@ -89,6 +89,7 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   endSessionsAction: ["ADMIN"],
   reverseMovementAction: ["PRODUCTION"],
   voidLabResultAction: ["PRODUCTION"],
+  setOwnUnitsAction: ANY,
 };
 
 interface ActionEntry { id: string; name: string; page: string }

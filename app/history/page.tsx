@@ -62,7 +62,7 @@ function recordHref(kind: RecordHistoryKind, key: string): string | null {
 
 /** Every recorded create, change, void, close and reopen of one record: who, when (UTC and site time), old and new values, reason. */
 export default async function HistoryPage({ searchParams }: { searchParams: Promise<Search> }) {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const sp = await searchParams;
   const kind = one(sp.kind);
@@ -73,6 +73,16 @@ export default async function HistoryPage({ searchParams }: { searchParams: Prom
         <h1>Record history</h1>
         <p role="alert" className="form-error">
           Record kind: choose one of {Object.keys(RECORD_HISTORIES).join(", ")}, and give the record&apos;s code (key). Every list row has a History link.
+        </p>
+      </>
+    );
+  }
+  if (kind === "user" && user.role !== "ADMIN" && key !== user.login) {
+    return (
+      <>
+        <h1>Record history</h1>
+        <p role="alert" className="form-error">
+          Record kind: an account&apos;s history is shown to its owner and to administrators only.
         </p>
       </>
     );

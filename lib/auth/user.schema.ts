@@ -45,3 +45,5 @@ export const PasswordResetSchema = z.object({ login, password, reason });
 export type PasswordResetInput = z.input<typeof PasswordResetSchema>;
 
 export const RevokeSessionsSchema = z.object({ login, reason });
+
+export const OwnUnitsSchema = z.object({ unitSystem: oneOf("Units", ["metric", "us"] as const) });

@@ -1,8 +1,8 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
 import { hashPassword } from "@/lib/auth/password";
-import { PasswordResetSchema, RevokeSessionsSchema, UserChangeSchema, UserCreateSchema } from "@/lib/auth/user.schema";
-import { countActiveAdmins, insertAccount, requireUser, revokeAllSessions, updateUser } from "@/lib/auth/user.store";
+import { OwnUnitsSchema, PasswordResetSchema, RevokeSessionsSchema, UserChangeSchema, UserCreateSchema } from "@/lib/auth/user.schema";
+import { countActiveAdmins, insertAccount, requireUser, requireUserById, revokeAllSessions, updateUser } from "@/lib/auth/user.store";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
@@ -72,5 +72,19 @@ export async function endSessions(db: Db, actor: Actor, input: unknown): Promise
     const sessionsEnded = await revokeAllSessions(tx, u.id, actor.now);
     await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: u.login, after: { sessionsEnded }, reason: parsed.value.reason });
     return { login: u.login, sessionsEnded };
+  });
+}
+
+/** Anyone may choose their own units (display and entry); it is recorded like any account change. */
+export async function setOwnUnits(db: Db, actor: Actor, input: unknown): Promise<Result<{ unitSystem: string }>> {
+  const parsed = parseInput(OwnUnitsSchema, input);
+  if (!parsed.ok) return parsed;
+  return runInTransaction(db, async (tx) => {
+    const me = await requireUserById(tx, actor.siteId, actor.userId);
+    if (me.unitSystem !== parsed.value.unitSystem) {
+      await updateUser(tx, me.id, { unitSystem: parsed.value.unitSystem });
+      await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: me.login, before: { unitSystem: me.unitSystem }, after: { unitSystem: parsed.value.unitSystem }, reason: "own preference" });
+    }
+    return { unitSystem: parsed.value.unitSystem };
   });
 }

@@ -52,6 +52,12 @@ export async function requireUser(tx: Tx, siteId: number, login: string): Promis
   return u;
 }
 
+export async function requireUserById(tx: Tx, siteId: number, id: number): Promise<UserState> {
+  const u = await tx.user.findFirst({ where: { siteId, id }, select: { id: true, login: true, fullName: true, role: true, unitSystem: true, active: true } });
+  if (!u) reject("RECORD.NOT_FOUND", "Your account was not found on this site", "login");
+  return u;
+}
+
 export async function insertAccount(tx: Tx, siteId: number, u: { login: string; fullName: string; role: string; unitSystem: string; passwordHash: string }): Promise<{ id: number; login: string }> {
   const clash = await tx.user.findUnique({ where: { login: u.login }, select: { id: true } });
   if (clash) reject("RECORD.DUPLICATE", `User name ${u.login} is already taken`, "login");
