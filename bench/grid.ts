@@ -82,7 +82,7 @@ export async function runGridBench(): Promise<Array<[string, string, string, str
     ],
     [false, true, true, true, false, false, false],
   );
-  console.log("  fetch = queryGridRows: findMany + count + mass/volume totals within the filter (three queries), server time without HTTP.");
+  console.log("  fetch = queryGridRows: findMany + one aggregate for the count and the mass/volume totals within the filter (two queries), server time without HTTP.");
   console.log("  import writes each row through the pickup service: holder, pickup, RECEIPT movement, audit event (hash chain).");
   return [
     [`grid fetch p95 ≤ ${GOALS.fetchMs} ms`, "100 of 100k rows, sorted + filtered", `${formatMs(fetch.p95Ms)} ms`, fetch.p95Ms <= GOALS.fetchMs ? "PASS" : "MISS"],
