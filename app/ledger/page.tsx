@@ -73,7 +73,7 @@ export default async function LedgerPage({ searchParams }: { searchParams: Promi
                       {m.reversedById !== null ? <span className="tag">reversed by No. {m.reversedById}</span> : null}
                     </td>
                     {canCorrect ? (
-                      <td>{m.role === "TRANSFER" && m.from !== null && m.reversesId === null && m.reversedById === null ? <ReverseMovementForm movementId={m.id} /> : null}</td>
+                      <td>{m.role === "TRANSFER" && m.from !== null && m.to.kind === "TANK" && m.reversesId === null && m.reversedById === null ? <ReverseMovementForm movementId={m.id} /> : null}</td>
                     ) : null}
                   </tr>
                 ))}

@@ -12,5 +12,9 @@ export type ReverseMovementInput = z.input<typeof ReverseMovementSchema>;
 export const VoidLabResultSchema = z.object({ kind: oneOf("Result kind", ["TITRATION", "LAB_TEST"] as const), resultId: id("Result number"), reason });
 export type VoidLabResultInput = z.input<typeof VoidLabResultSchema>;
 
-/** Movement roles staff may reverse by hand; batch charges and outputs are corrected on the batch. */
+/**
+ * What staff may reverse by hand: transfers into a tank. Receiving pickups into a lot, batch charges
+ * and outputs belong to their lot or batch record and are corrected there.
+ */
 export const REVERSIBLE_ROLES = ["TRANSFER"] as const;
+export const REVERSIBLE_INTO = ["TANK"] as const;

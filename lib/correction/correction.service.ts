@@ -1,6 +1,6 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
-import { REVERSIBLE_ROLES, ReverseMovementSchema, VoidLabResultSchema } from "@/lib/correction/correction.schema";
+import { REVERSIBLE_INTO, REVERSIBLE_ROLES, ReverseMovementSchema, VoidLabResultSchema } from "@/lib/correction/correction.schema";
 import { markLabResultVoided, requireLabResult, requireMovement } from "@/lib/correction/correction.store";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
@@ -21,8 +21,8 @@ export async function reverseMovement(db: Db, actor: Actor, input: unknown): Pro
     const m = await requireMovement(tx, actor.siteId, movementId);
     if (m.reversesId !== null) reject("CORRECTION.IS_REVERSAL", `Movement ${movementId} is itself a reversal; book the transfer again instead`, "movementId");
     if (m.reversedById !== null) reject("CORRECTION.ALREADY_REVERSED", `Movement ${movementId} was already reversed by movement ${m.reversedById}`, "movementId");
-    if (!(REVERSIBLE_ROLES as readonly string[]).includes(m.role) || m.fromHolderId === null) {
-      reject("CORRECTION.NOT_REVERSIBLE", `Movement ${movementId} is a ${m.role.toLowerCase()} movement; only transfers are reversed here (batches and receipts are corrected on their own records)`, "movementId");
+    if (!(REVERSIBLE_ROLES as readonly string[]).includes(m.role) || m.fromHolderId === null || !(REVERSIBLE_INTO as readonly string[]).includes(m.toKind)) {
+      reject("CORRECTION.NOT_REVERSIBLE", `Movement ${movementId} is not a transfer into a tank; only those are reversed here (receiving, batches and receipts are corrected on their own records)`, "movementId");
     }
     const reversalId = await postMovement(tx, {
       siteId: actor.siteId,

@@ -12,15 +12,17 @@ export interface MovementToReverse {
   massG: number;
   reversesId: number | null;
   reversedById: number | null;
+  toKind: string;
 }
 
 export async function requireMovement(tx: Tx, siteId: number, movementId: number): Promise<MovementToReverse> {
   const m = await tx.movement.findFirst({
     where: { id: movementId, siteId },
-    select: { id: true, siteId: true, at: true, role: true, fromHolderId: true, toHolderId: true, massG: true, reversesId: true, reversedBy: { select: { id: true } } },
+    select: { id: true, siteId: true, at: true, role: true, fromHolderId: true, toHolderId: true, massG: true, reversesId: true, reversedBy: { select: { id: true } }, toHolder: { select: { kind: true } } },
   });
   if (!m) reject("RECORD.NOT_FOUND", `Movement ${movementId} does not exist on this site`, "movementId");
-  return { ...m, reversedById: m.reversedBy?.id ?? null };
+  const { reversedBy, toHolder, ...rest } = m;
+  return { ...rest, reversedById: reversedBy?.id ?? null, toKind: toHolder.kind };
 }
 
 export interface LabResultState {

@@ -64,6 +64,8 @@ describe.each(PROVIDERS)("corrections on %s", (provider) => {
     expect(issue(await reverseMovement(t.db, plant.production, { movementId: transferId, reason: "again" }))).toEqual({ code: "CORRECTION.ALREADY_REVERSED", field: "movementId" });
     const reversal = await t.db.movement.findFirstOrThrow({ where: { reversesId: transferId } });
     expect(issue(await reverseMovement(t.db, plant.production, { movementId: reversal.id, reason: "undo the undo" }))).toEqual({ code: "CORRECTION.IS_REVERSAL", field: "movementId" });
+    const receiving = await t.db.movement.findFirstOrThrow({ where: { role: "TRANSFER", toHolder: { kind: "LOT" } } });
+    expect(issue(await reverseMovement(t.db, plant.production, { movementId: receiving.id, reason: "wrong lot" }))).toEqual({ code: "CORRECTION.NOT_REVERSIBLE", field: "movementId" });
     const receipt = await t.db.movement.findFirstOrThrow({ where: { fromHolderId: null } });
     expect(issue(await reverseMovement(t.db, plant.production, { movementId: receipt.id, reason: "wrong" }))).toEqual({ code: "CORRECTION.NOT_REVERSIBLE", field: "movementId" });
     expect(issue(await reverseMovement(t.db, plant.production, { movementId: 987_654, reason: "wrong" }))).toEqual({ code: "RECORD.NOT_FOUND", field: "movementId" });
