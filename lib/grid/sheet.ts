@@ -1,6 +1,7 @@
 // Reading a block of rows: a tab-separated paste from a spreadsheet or a CSV file (RFC 4180, parsed
 // with papaparse), with or without a header row, under the sheet's locale and the units in its headers.
 import Papa from "papaparse";
+import { CONTROL_CHARACTERS } from "@/lib/ledger/fields";
 import type { UnitSystem } from "@/lib/quantity/units";
 import type { CellValue, GridColumn, GridRow, GridTable } from "@/lib/grid/tables";
 import { entryColumns } from "@/lib/grid/tables";
@@ -76,7 +77,15 @@ export function readSheet(table: GridTable, text: string, o: SheetOptions): Shee
     if (e.row !== undefined && e.row !== null) quoteRows.add(e.row);
     problems.push(`Row ${(e.row ?? 0) + 1}: ${what}`);
   }
-  const grid = parsed.data;
+  // Control characters (NUL above all, which PostgreSQL refuses) are named by row and column, removed
+  // so nothing downstream sees them, and block the import like any other problem in the file.
+  const grid = parsed.data.map((cells, r) =>
+    cells.map((cell, c) => {
+      if (!CONTROL_CHARACTERS.test(cell)) return cell;
+      problems.push(`Row ${r + 1}, column ${c + 1}: contains a control character (check the file's encoding)`);
+      return cell.replace(new RegExp(CONTROL_CHARACTERS.source, "g"), "");
+    }),
+  );
   const first = grid[0] ?? [];
   const hasHeader = looksLikeHeader(table, first);
   let columns: HeaderMatch[];

@@ -14,7 +14,15 @@ export const code = (what: string) =>
     .toUpperCase()
     .regex(CODE_PATTERN, `${what}: use 1–40 letters, digits, ".", "_", "/" or "-"`);
 
-export const text = (what: string, max = 200) => z.string({ error: `${what} must be text` }).trim().max(max, `${what}: at most ${max} characters`);
+/** C0 control characters other than tab and line breaks, and DEL: never meant in a record, and PostgreSQL refuses NUL. */
+export const CONTROL_CHARACTERS = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F]/;
+
+export const text = (what: string, max = 200) =>
+  z
+    .string({ error: `${what} must be text` })
+    .trim()
+    .max(max, `${what}: at most ${max} characters`)
+    .refine((v) => !CONTROL_CHARACTERS.test(v), `${what}: contains a control character (check the text's encoding)`);
 
 export const requiredText = (what: string, max = 200) => text(what, max).min(1, `${what} is required`);
 

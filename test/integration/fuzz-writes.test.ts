@@ -32,7 +32,7 @@ const WRITES: Array<[string, Write]> = [
 const FIELDS = ["code", "sourceCode", "material", "observedAt", "containers", "containerTags", "volumeL", "tempC", "lotCode", "testedAt", "sampleMassG", "titrant", "concentrationMolL", "titreMl", "blankMl", "basis", "status", "fromKind", "fromCode", "toTankCode", "at", "massKg", "reagent", "supplier", "strengthPct", "receivedAt", "batchCode", "startedAt", "charges", "completedAt", "outputs", "productLotCode", "property", "method", "value", "unit", "specRef", "decision", "documentNo", "customer", "shippedAt", "stream", "accumulationStart", "capacityL", "containerCode", "disposedAt", "hauler", "startsAt", "endsAt", "periodId", "reason", "pickupCodes", "observedVolumeL", "observedTempC", "rows", "name", "kind", "materials", "service", "targetOilKg", "catalyst", "plannedAt"];
 const nasty = fc.oneof(
   fc.constant(null), fc.constant(undefined), fc.constant(Number.NaN), fc.constant(Number.POSITIVE_INFINITY), fc.constant(-1), fc.constant(0), fc.constant(1e12),
-  fc.constant(""), fc.constant(" "), fc.constant("=HYPERLINK(\"x\")"), fc.constant("2026-02-30"), fc.constant("USED_COOKING_OIL"), fc.constant("T1"), fc.constant("R1"),
+  fc.constant(""), fc.constant(" "), fc.constant("a\u0000b"), fc.constant("R1\u0000"), fc.constant("=HYPERLINK(\"x\")"), fc.constant("2026-02-30"), fc.constant("USED_COOKING_OIL"), fc.constant("T1"), fc.constant("R1"),
   fc.string(), fc.integer(), fc.double(), fc.boolean(), fc.date({ noInvalidDate: false }), fc.array(fc.anything(), { maxLength: 3 }), fc.object({ maxDepth: 1 }),
 );
 const input = fc.oneof(
