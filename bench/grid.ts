@@ -78,12 +78,12 @@ export async function runGridBench(): Promise<Array<[string, string, string, str
     [
       ["case", "runs", "median ms", "p95 ms", "figure", "goal", "result"],
       [`100 rows at offset 20,000 of ${last.lastRow.toLocaleString("en")} filtered (100,000 in table), sorted by volume`, formatRuns(fetch), formatMs(fetch.medianMs), formatMs(fetch.p95Ms), `${formatMs(fetch.p95Ms)} ms p95`, `≤ ${GOALS.fetchMs} ms`, fetch.p95Ms <= GOALS.fetchMs ? "PASS" : "MISS"],
-      ["import 50,000 CSV rows (parse, check, recordPickup ×50,000, one transaction)", "1", formatMs(importMs), "", `${Math.round(rate).toLocaleString("en")} rows/s, peak RSS ${(peak / 1e6).toFixed(0)} MB`, `≥ ${GOALS.importRowsPerS.toLocaleString("en")} rows/s`, rate >= GOALS.importRowsPerS ? "PASS" : "MISS"],
+      ["import 50,000 CSV rows (parse, check, bulk pickup writer, one transaction)", "1", formatMs(importMs), "", `${Math.round(rate).toLocaleString("en")} rows/s, peak RSS ${(peak / 1e6).toFixed(0)} MB`, `≥ ${GOALS.importRowsPerS.toLocaleString("en")} rows/s`, rate >= GOALS.importRowsPerS ? "PASS" : "MISS"],
     ],
     [false, true, true, true, false, false, false],
   );
   console.log("  fetch = queryGridRows: findMany + one aggregate for the count and the mass/volume totals within the filter (two queries), server time without HTTP.");
-  console.log("  import writes each row through the pickup service: holder, pickup, RECEIPT movement, audit event (hash chain).");
+  console.log("  import writes through importPickupRows: the same holder, pickup, RECEIPT movement and audit event (hash chain) per row, in statements of 500 rows.");
   return [
     [`grid fetch p95 ≤ ${GOALS.fetchMs} ms`, "100 of 100k rows, sorted + filtered", `${formatMs(fetch.p95Ms)} ms`, fetch.p95Ms <= GOALS.fetchMs ? "PASS" : "MISS"],
     [`grid import ≥ ${GOALS.importRowsPerS} rows/s`, `50k pickups, peak RSS ${(peak / 1e6).toFixed(0)} MB`, `${Math.round(rate)} rows/s`, rate >= GOALS.importRowsPerS ? "PASS" : "MISS"],

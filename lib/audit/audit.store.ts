@@ -43,6 +43,28 @@ export async function appendAudit(tx: Tx, actor: { siteId: number; userId: numbe
   await tx.auditHead.update({ where: { siteId: actor.siteId }, data: { lastHash: hash } });
 }
 
+/** Appends many events in order with one head update (bulk imports); the same chain as one appendAudit per event. */
+export async function appendAuditMany(tx: Tx, actor: { siteId: number; userId: number; now: Date }, entries: readonly AuditEntry[]): Promise<void> {
+  if (entries.length === 0) return;
+  const head = await tx.auditHead.upsert({
+    where: { siteId: actor.siteId },
+    create: { siteId: actor.siteId, seq: entries.length, lastHash: "" },
+    update: { seq: { increment: entries.length } },
+  });
+  let prev = head.lastHash;
+  let seq = head.seq - entries.length;
+  const rows = entries.map((e) => {
+    seq += 1;
+    const fields = { siteId: actor.siteId, seq, at: actor.now, actorId: actor.userId, action: e.action, entity: e.entity, entityKey: e.entityKey, before: json(e.before), after: json(e.after), reason: e.reason ?? "" };
+    const hash = chainHash(prev, fields);
+    const row = { ...fields, prevHash: prev, hash };
+    prev = hash;
+    return row;
+  });
+  for (let i = 0; i < rows.length; i += 500) await tx.auditEvent.createMany({ data: rows.slice(i, i + 500) });
+  await tx.auditHead.update({ where: { siteId: actor.siteId }, data: { lastHash: prev } });
+}
+
 export async function loadChain(db: Db, siteId: number): Promise<ChainedEvent[]> {
   return db.auditEvent.findMany({ where: { siteId }, orderBy: { seq: "asc" } });
 }

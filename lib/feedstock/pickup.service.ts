@@ -1,17 +1,17 @@
 import "server-only";
-import { appendAudit } from "@/lib/audit/audit.store";
+import { appendAudit, appendAuditMany } from "@/lib/audit/audit.store";
 import { z } from "zod";
 import type { Db, Tx } from "@/lib/database/connect";
 import type { DomainIssue, Result } from "@/lib/errors";
 import { fail, failMany, ok } from "@/lib/errors";
 import { parseInput } from "@/lib/ledger/parse";
-import { createHolder, postMovement, runInTransaction } from "@/lib/ledger/ledger.store";
+import { createHolder, createHoldersWithStock, postMovement, postReceipts, runInTransaction } from "@/lib/ledger/ledger.store";
 import { measureObserved } from "@/lib/feedstock/measure";
 import { PickupSchema } from "@/lib/feedstock/pickup.schema";
 import type { Pickup } from "@/lib/feedstock/pickup.schema";
 import { toMillilitres } from "@/lib/quantity/units";
-import { findPickupByKey, insertPickup } from "@/lib/feedstock/pickup.store";
-import { requireSourceId } from "@/lib/source/source.store";
+import { findPickupByKey, findPickupKeys, insertPickup, insertPickups } from "@/lib/feedstock/pickup.store";
+import { requireSourceId, requireSourceIds } from "@/lib/source/source.store";
 import type { DensityTable } from "@/lib/quantity/density";
 import { DEFAULT_DENSITY_TABLE } from "@/lib/quantity/density";
 import type { Actor } from "@/lib/site/actor";
@@ -71,38 +71,74 @@ export const PickupImportSchema = z.object({
 });
 
 /**
- * Imports many pickups all-or-nothing: every row is parsed first and all problems are reported by
- * row and field; then one transaction writes them all. Rows whose idempotency key is already stored
- * are skipped, so a re-sent or resumed import never duplicates.
+ * Many pickups in one transaction with a handful of statements per 500 rows: the same records, ledger
+ * receipts and audit events (in row order) as writePickup once per row, for imports of tens of thousands.
  */
-export async function importPickups(db: Db, actor: Actor, input: unknown, table: DensityTable = DEFAULT_DENSITY_TABLE): Promise<Result<{ written: number; skipped: number }>> {
-  const parsed = parseInput(PickupImportSchema, input);
-  if (!parsed.ok) return parsed;
-  const rows: Array<{ p: Pickup; massG: number; i: number }> = [];
+async function writePickups(tx: Tx, actor: Actor, rows: ReadonlyArray<{ p: Pickup; massG: number; field: (f: string) => string }>): Promise<void> {
+  if (rows.length === 0) return;
+  const sources = await requireSourceIds(tx, actor.siteId, rows.map((r) => ({ code: r.p.sourceCode, field: r.field("sourceCode") })));
+  const holders = await createHoldersWithStock(tx, actor.siteId, "PICKUP", rows.map((r) => ({ code: r.p.code, stockG: r.massG, field: r.field("code") })));
+  const holderOf = (code: string) => holders.get(code) ?? 0;
+  await insertPickups(
+    tx,
+    rows.map((r) => ({ siteId: actor.siteId, holderId: holderOf(r.p.code), sourceId: sources.get(r.p.sourceCode) ?? 0, collectorId: actor.userId, receivedAt: actor.now, massG: r.massG, pickup: r.p })),
+  );
+  await postReceipts(
+    tx,
+    rows.map((r) => ({
+      siteId: actor.siteId,
+      at: r.p.observedAt,
+      role: "RECEIPT" as const,
+      fromHolderId: null,
+      toHolderId: holderOf(r.p.code),
+      massG: r.massG,
+      volumeMl: toMillilitres(r.p.volumeL),
+      tempC: r.p.tempC,
+      recordedById: actor.userId,
+      field: r.field("observedAt"),
+    })),
+  );
+  await appendAuditMany(tx, actor, rows.map((r) => ({ action: "CREATE" as const, entity: "Pickup", entityKey: r.p.code, after: { ...r.p, massG: r.massG } })));
+}
+
+/**
+ * Pickup rows all-or-nothing, without a row limit (the caller sets one): every row is parsed first and
+ * all problems are reported by row and field ("rows.<i>.<field>"); then one transaction writes them
+ * all. Rows whose idempotency key is already stored, or repeated in the file, are skipped, so a re-sent
+ * or resumed import never duplicates.
+ */
+export async function importPickupRows(db: Db, actor: Actor, raw: readonly unknown[], table: DensityTable = DEFAULT_DENSITY_TABLE): Promise<Result<{ written: number; skipped: number }>> {
+  const rows: Array<{ p: Pickup; massG: number; field: (f: string) => string }> = [];
   const issues: DomainIssue[] = [];
-  parsed.value.rows.forEach((raw, i) => {
-    const r = parseInput(PickupSchema, raw);
+  raw.forEach((input, i) => {
+    const r = parseInput(PickupSchema, input);
     if (!r.ok) return issues.push(...r.issues.map((x) => ({ ...x, field: `rows.${i}.${x.field ?? ""}`, message: `Row ${i + 1}: ${x.message}` })));
     const m = measurePickup(r.value, table);
     if (!m.ok) return issues.push(...m.issues.map((x) => ({ ...x, field: `rows.${i}.volumeL`, message: `Row ${i + 1}: ${x.message}` })));
-    rows.push({ p: r.value, massG: m.value, i });
+    rows.push({ p: r.value, massG: m.value, field: (f) => `rows.${i}.${f}` });
   });
   if (issues.length) return failMany(issues);
   return runInTransaction(
     db,
     async (tx) => {
-      let written = 0;
-      let skipped = 0;
-      for (const { p, massG, i } of rows) {
-        if (p.idempotencyKey && (await findPickupByKey(tx, p.idempotencyKey))) {
-          skipped++;
-          continue;
-        }
-        await writePickup(tx, actor, p, massG, (f) => `rows.${i}.${f}`);
-        written++;
-      }
-      return { written, skipped };
+      const stored = await findPickupKeys(tx, rows.flatMap((r) => (r.p.idempotencyKey ? [r.p.idempotencyKey] : [])));
+      const fresh = rows.filter((r) => {
+        const key = r.p.idempotencyKey;
+        if (!key) return true;
+        if (stored.has(key)) return false;
+        stored.add(key);
+        return true;
+      });
+      await writePickups(tx, actor, fresh);
+      return { written: fresh.length, skipped: rows.length - fresh.length };
     },
-    120_000,
+    600_000,
   );
+}
+
+/** The JSON import (POST /api/pickups/import): at most MAX_IMPORT_ROWS rows per call. */
+export async function importPickups(db: Db, actor: Actor, input: unknown, table: DensityTable = DEFAULT_DENSITY_TABLE): Promise<Result<{ written: number; skipped: number }>> {
+  const parsed = parseInput(PickupImportSchema, input);
+  if (!parsed.ok) return parsed;
+  return importPickupRows(db, actor, parsed.value.rows, table);
 }

@@ -4,37 +4,58 @@ import type { Pickup } from "@/lib/feedstock/pickup.schema";
 import type { PickupSaved } from "@/lib/feedstock/pickup.service";
 import { toMillilitres } from "@/lib/quantity/units";
 
+type PickupInsert = { siteId: number; holderId: number; sourceId: number; collectorId: number; receivedAt: Date; massG: number; pickup: Pickup };
+
+function pickupData(r: PickupInsert) {
+  const p = r.pickup;
+  return {
+    siteId: r.siteId,
+    holderId: r.holderId,
+    code: p.code,
+    sourceId: r.sourceId,
+    collectorId: r.collectorId,
+    material: p.material,
+    observedAt: p.observedAt,
+    receivedAt: r.receivedAt,
+    containers: p.containers,
+    containerTags: p.containerTags.join(","),
+    volumeMl: toMillilitres(p.volumeL),
+    tempC: p.tempC,
+    massG: r.massG,
+    waterLook: p.waterLook,
+    solidsLook: p.solidsLook,
+    notes: p.notes,
+    idempotencyKey: p.idempotencyKey ?? null,
+  };
+}
+
 export async function findPickupByKey(db: Db | Tx, key: string): Promise<PickupSaved | null> {
   return db.pickup.findUnique({ where: { idempotencyKey: key }, select: { id: true, code: true, massG: true, receivedAt: true } });
 }
 
-export async function insertPickup(
-  tx: Tx,
-  r: { siteId: number; holderId: number; sourceId: number; collectorId: number; receivedAt: Date; massG: number; pickup: Pickup },
-): Promise<PickupSaved> {
-  const p = r.pickup;
+/** Which of these idempotency keys are already stored (one query per 500 keys). */
+export async function findPickupKeys(db: Db | Tx, keys: readonly string[]): Promise<Set<string>> {
+  const found = new Set<string>();
+  for (let i = 0; i < keys.length; i += 500) {
+    for (const p of await db.pickup.findMany({ where: { idempotencyKey: { in: keys.slice(i, i + 500) } }, select: { idempotencyKey: true } })) if (p.idempotencyKey) found.add(p.idempotencyKey);
+  }
+  return found;
+}
+
+export async function insertPickup(tx: Tx, r: PickupInsert): Promise<PickupSaved> {
   return tx.pickup.create({
-    data: {
-      siteId: r.siteId,
-      holderId: r.holderId,
-      code: p.code,
-      sourceId: r.sourceId,
-      collectorId: r.collectorId,
-      material: p.material,
-      observedAt: p.observedAt,
-      receivedAt: r.receivedAt,
-      containers: p.containers,
-      containerTags: p.containerTags.join(","),
-      volumeMl: toMillilitres(p.volumeL),
-      tempC: p.tempC,
-      massG: r.massG,
-      waterLook: p.waterLook,
-      solidsLook: p.solidsLook,
-      notes: p.notes,
-      idempotencyKey: p.idempotencyKey ?? null,
-    },
+    data: pickupData(r),
     select: { id: true, code: true, massG: true, receivedAt: true },
   });
+}
+
+/** Many pickups at once (bulk import); the holders already exist with their stock. */
+export async function insertPickups(tx: Tx, rows: readonly PickupInsert[]): Promise<void> {
+  for (let i = 0; i < rows.length; i += 500) {
+    await tx.pickup.createMany({
+      data: rows.slice(i, i + 500).map(pickupData),
+    });
+  }
 }
 
 export interface PickupRow {

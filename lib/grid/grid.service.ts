@@ -10,7 +10,7 @@ import type { SiteRole } from "@/lib/ledger/kinds";
 import type { UnitSystem } from "@/lib/quantity/units";
 import type { Actor } from "@/lib/site/actor";
 import { createSource } from "@/lib/source/source.service";
-import { recordPickup } from "@/lib/feedstock/pickup.service";
+import { importPickupRows, recordPickup } from "@/lib/feedstock/pickup.service";
 import { decideLot, receiveDelivery, receiveLotFromPickups, recordLabTest } from "@/lib/feedstock/lot.service";
 import { recordTitration } from "@/lib/feedstock/titration.service";
 import type { GridRow, GridTable, TableKey } from "@/lib/grid/tables";
@@ -238,13 +238,27 @@ export async function importGridFile(db: Db, actor: GridActor, input: unknown): 
     async (tx) => {
       const inner = joinTransaction(tx);
       const issues: DomainIssue[] = [];
-      for (const r of fresh) {
+      const rowIssue = (line: number, i: DomainIssue): DomainIssue => {
+        const header = table.columns.find((c) => c.field === (i.field ?? "").split(".")[0])?.header;
+        return { ...i, field: `rows.${line}.${i.field ?? ""}`, message: `Row ${line}${header ? `, column "${header}"` : ""}: ${i.message}` };
+      };
+      if (key === "pickups") {
+        // Pickups go through the bulk writer: the same records, receipts and audit events, a few statements per 500 rows.
+        const res = await withoutIdempotencyKey(() => importPickupRows(inner, actor, fresh.map((r) => toInput(table, r.values))));
+        if (!res.ok) {
+          for (const i of res.issues.slice(0, MAX_MESSAGES)) {
+            const [, index, ...rest] = (i.field ?? "").split(".");
+            const line = fresh[Number(index)]?.line ?? 0;
+            issues.push(rowIssue(line, { ...i, field: rest.join("."), message: i.message.replace(/^Row \d+: /, "") }));
+          }
+          throw new Rejection(issues);
+        }
+        wouldWrite = res.value.written;
+      }
+      for (const r of key === "pickups" ? [] : fresh) {
         const res = await withoutIdempotencyKey(() => addRow(inner, actor, key as AddableTable, toInput(table, r.values)));
         if (!res.ok) {
-          for (const i of res.issues) {
-            const header = table.columns.find((c) => c.field === (i.field ?? "").split(".")[0])?.header;
-            issues.push({ ...i, field: `rows.${r.line}.${i.field ?? ""}`, message: `Row ${r.line}${header ? `, column "${header}"` : ""}: ${i.message}` });
-          }
+          for (const i of res.issues) issues.push(rowIssue(r.line, i));
           if (issues.length >= MAX_MESSAGES) break;
         } else wouldWrite++;
       }

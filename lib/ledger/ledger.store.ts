@@ -121,6 +121,62 @@ export async function assertPeriodOpen(tx: Tx, siteId: number, at: Date, field =
   }
 }
 
+const CHUNK = 500; // rows per statement: under SQLite's bound-parameter limit
+
+/**
+ * Many new holders of one kind at once, each holding the mass its receipt brings (for bulk imports,
+ * where every holder is new and its only movement is the receipt written by postReceipts).
+ */
+export async function createHoldersWithStock(tx: Tx, siteId: number, kind: HolderKind, items: ReadonlyArray<{ code: string; stockG: number; field: string }>): Promise<Map<string, number>> {
+  const seen = new Map<string, string>();
+  for (const it of items) {
+    const earlier = seen.get(it.code);
+    if (earlier !== undefined) reject("RECORD.DUPLICATE", `${labelOf(kind)} ${it.code} appears twice in this import`, it.field);
+    seen.set(it.code, it.field);
+  }
+  const ids = new Map<string, number>();
+  for (let i = 0; i < items.length; i += CHUNK) {
+    const part = items.slice(i, i + CHUNK);
+    const clash = await tx.holder.findFirst({ where: { siteId, kind, code: { in: part.map((x) => x.code) } }, select: { code: true } });
+    if (clash) reject("RECORD.DUPLICATE", `${labelOf(kind)} ${clash.code} already exists`, seen.get(clash.code) ?? "code");
+    const made = await tx.holder.createManyAndReturn({ data: part.map((x) => ({ siteId, kind, code: x.code, stockG: x.stockG })), select: { id: true, code: true } });
+    for (const h of made) ids.set(h.code, h.id);
+  }
+  return ids;
+}
+
+/** Refuses any of these times that falls in a closed period, reading the closed periods once. */
+export async function assertPeriodsOpen(tx: Tx, siteId: number, times: ReadonlyArray<{ at: Date; field: string }>): Promise<void> {
+  if (times.length === 0) return;
+  const ms = times.map((t) => t.at.getTime());
+  const closed = await tx.accountingPeriod.findMany({
+    where: { siteId, status: "CLOSED", startsAt: { lte: new Date(Math.max(...ms)) }, endsAt: { gt: new Date(Math.min(...ms)) } },
+    select: { startsAt: true, endsAt: true },
+  });
+  for (const t of times) {
+    const p = closed.find((c) => c.startsAt <= t.at && t.at < c.endsAt);
+    if (p) reject("PERIOD.CLOSED", `The period ${p.startsAt.toISOString().slice(0, 10)} – ${p.endsAt.toISOString().slice(0, 10)} is closed; a compliance user must reopen it first`, t.field);
+  }
+}
+
+/**
+ * Receipts into holders made by createHoldersWithStock (material entering the books; nothing is drawn,
+ * so no guard is needed and no cycle can close). Append-only rows, written in chunks.
+ */
+export async function postReceipts(tx: Tx, drafts: ReadonlyArray<MovementDraft>): Promise<void> {
+  await assertPeriodsOpen(tx, drafts[0]?.siteId ?? 0, drafts.map((d) => ({ at: d.at, field: d.field ?? "at" })));
+  for (let i = 0; i < drafts.length; i += CHUNK) {
+    const part = drafts.slice(i, i + CHUNK);
+    for (const d of part) {
+      if (d.fromHolderId !== null) reject("LEDGER.NOT_A_RECEIPT", "Only receipts are written in bulk", d.field ?? "massKg");
+      if (!Number.isSafeInteger(d.massG) || d.massG <= 0) reject("LEDGER.BAD_MASS", "Mass must be more than 0 g", d.field ?? "massKg");
+    }
+    await tx.movement.createMany({
+      data: part.map((m) => ({ siteId: m.siteId, at: m.at, role: m.role, fromHolderId: null, toHolderId: m.toHolderId, massG: m.massG, volumeMl: m.volumeMl ?? null, tempC: m.tempC ?? null, note: m.note ?? "", recordedById: m.recordedById })),
+    });
+  }
+}
+
 export interface MovementDraft {
   siteId: number;
   at: Date;

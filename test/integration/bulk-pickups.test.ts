@@ -1,0 +1,70 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { TestDb } from "./support/test-db";
+import { createTestDb, PROVIDERS } from "./support/test-db";
+import type { TestPlant } from "./support/plant";
+import { createTestPlant } from "./support/plant";
+import { importPickupRows, recordPickup } from "@/lib/feedstock/pickup.service";
+import { loadChain } from "@/lib/audit/audit.store";
+import { verifyChain } from "@/lib/audit/chain";
+import { closePeriod, openPeriod } from "@/lib/period/period.service";
+
+// The bulk pickup writer must leave exactly what one recordPickup per row leaves: the same pickup,
+// holder stock, RECEIPT movement and audit event per row, the chain intact (integrity.md), and refuse
+// a bad row by its own row and field with nothing written.
+const row = (code: string, extra: Record<string, unknown> = {}) => ({ code, sourceCode: "R1", material: "USED_COOKING_OIL", observedAt: "2026-02-10T09:00:00Z", containers: 2, volumeL: 123.4, tempC: 21.5, ...extra });
+
+describe.each(PROVIDERS)("bulk pickup import on %s", (provider) => {
+  let t: TestDb;
+  let plant: TestPlant;
+  beforeAll(async () => {
+    t = await createTestDb(provider);
+    plant = await createTestPlant(t.db);
+  });
+  afterAll(async () => {
+    await t.drop();
+  });
+
+  const snapshot = async (code: string) => {
+    const p = await t.db.pickup.findFirstOrThrow({ where: { code }, include: { holder: true } });
+    const m = await t.db.movement.findFirstOrThrow({ where: { toHolderId: p.holderId } });
+    const a = await t.db.auditEvent.findFirstOrThrow({ where: { entity: "Pickup", entityKey: code } });
+    return { massG: p.massG, volumeMl: p.volumeMl, stockG: p.holder.stockG, move: [m.role, m.fromHolderId, m.massG, m.volumeMl, m.tempC, m.at.toISOString()], audit: JSON.parse(a.after) as Record<string, unknown> };
+  };
+
+  it("writes the same records as one recordPickup per row, in row order", async () => {
+    const one = await recordPickup(t.db, plant.collector, row("B-ONE"));
+    expect(one.ok).toBe(true);
+    const bulk = await importPickupRows(t.db, plant.collector, [row("B-1"), row("B-2", { volumeL: 50, tempC: 40 }), row("B-3", { idempotencyKey: "7c0e8a52-3f1b-4c6e-9d2a-5b8e1f0a9c31" }), row("B-4", { idempotencyKey: "7c0e8a52-3f1b-4c6e-9d2a-5b8e1f0a9c31" })]);
+    expect(bulk.ok && bulk.value).toEqual({ written: 3, skipped: 1 }); // the repeated key is skipped, not duplicated
+    const a = await snapshot("B-ONE");
+    const b = await snapshot("B-1");
+    expect({ ...b, audit: { ...b.audit, code: "B-ONE" } }).toEqual(a);
+    expect((await snapshot("B-2")).stockG).toBeLessThan(a.stockG);
+    const seqs = (await t.db.auditEvent.findMany({ where: { entityKey: { in: ["B-1", "B-2", "B-3"] } }, orderBy: { seq: "asc" } })).map((e) => e.entityKey);
+    expect(seqs).toEqual(["B-1", "B-2", "B-3"]);
+    expect(verifyChain(await loadChain(t.db, plant.siteId)).ok).toBe(true);
+    // A re-sent file with the same keys writes nothing new.
+    const again = await importPickupRows(t.db, plant.collector, [row("B-3", { idempotencyKey: "7c0e8a52-3f1b-4c6e-9d2a-5b8e1f0a9c31" })]);
+    expect(again.ok && again.value).toEqual({ written: 0, skipped: 1 });
+  });
+
+  it("refuses a bad row by its row and field, and writes nothing", async () => {
+    const before = { pickups: await t.db.pickup.count(), moves: await t.db.movement.count(), audit: await t.db.auditEvent.count() };
+    const unknown = await importPickupRows(t.db, plant.collector, [row("C-1"), row("C-2", { sourceCode: "NOPE" })]);
+    expect(!unknown.ok && unknown.issues[0]).toMatchObject({ code: "RECORD.NOT_FOUND", field: "rows.1.sourceCode" });
+    const twice = await importPickupRows(t.db, plant.collector, [row("C-3"), row("C-3")]);
+    expect(!twice.ok && twice.issues[0]).toMatchObject({ code: "RECORD.DUPLICATE", field: "rows.1.code" });
+    const taken = await importPickupRows(t.db, plant.collector, [row("C-4"), row("B-1")]);
+    expect(!taken.ok && taken.issues[0]).toMatchObject({ code: "RECORD.DUPLICATE", field: "rows.1.code" });
+    expect({ pickups: await t.db.pickup.count(), moves: await t.db.movement.count(), audit: await t.db.auditEvent.count() }).toEqual(before);
+  });
+
+  it("refuses a row dated in a closed period", async () => {
+    const p = await openPeriod(t.db, plant.compliance, { startsAt: "2026-01-01T00:00:00Z", endsAt: "2026-02-01T00:00:00Z" });
+    if (!p.ok) throw new Error(JSON.stringify(p.issues));
+    expect((await closePeriod(t.db, plant.compliance, { periodId: p.value.id })).ok).toBe(true);
+    const r = await importPickupRows(t.db, plant.collector, [row("D-1"), row("D-2", { observedAt: "2026-01-15T09:00:00Z" })]);
+    expect(!r.ok && r.issues[0]).toMatchObject({ code: "PERIOD.CLOSED", field: "rows.1.observedAt" });
+    expect(await t.db.pickup.count({ where: { code: { in: ["D-1", "D-2"] } } })).toBe(0);
+  });
+});
