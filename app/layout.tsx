@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { SignOutGuard } from "@/app/_ui/sign-out-guard";
 import type { Metadata } from "next";
 import type { ReactNode } from "react";
 import { MainNav } from "@/app/_ui/nav";
@@ -42,6 +43,7 @@ export default async function RootLayout({ children }: { children: ReactNode }) 
             </form>
           ) : null}
           {user ? <MainNav /> : null}
+          {user ? <SignOutGuard /> : null}
         </header>
         <main id="main" tabIndex={-1}>
           {children}

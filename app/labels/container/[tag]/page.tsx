@@ -1,0 +1,83 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { CODE_PATTERN } from "@/lib/ledger/fields";
+import { listPickupsWithContainer } from "@/lib/collect/collect.store";
+import { litres, when } from "@/app/_ui/format";
+import { codeParam } from "@/app/_ui/links";
+import { loadSite } from "@/app/_ui/site";
+import { CodeLink, Empty, NoSite } from "@/app/_ui/ui";
+import { ContainerLabel } from "@/app/labels/label-card";
+import { requestOrigin } from "@/app/labels/origin";
+import { PrintLabels } from "@/app/labels/print-button";
+
+export const dynamic = "force-dynamic";
+type Props = { params: Promise<{ tag: string }> };
+
+export async function generateMetadata({ params }: Props): Promise<Metadata> {
+  return { title: `Container ${codeParam((await params).tag)}` };
+}
+
+/** What a container label's QR code opens: the label itself and every pickup that listed the container. */
+export default async function ContainerPage({ params }: Props) {
+  const { db, site } = await loadSite();
+  if (!site) return <NoSite />;
+  const tag = codeParam((await params).tag).trim().toUpperCase();
+  if (!CODE_PATTERN.test(tag)) {
+    return (
+      <>
+        <h1>Container label</h1>
+        <p className="form-error">{tag} is not a container number (letters, digits, &quot;.&quot;, &quot;_&quot;, &quot;/&quot;, &quot;-&quot;).</p>
+      </>
+    );
+  }
+  const pickups = await listPickupsWithContainer(db, site.id, tag);
+  return (
+    <>
+      <p className="crumbs labels-controls">
+        <Link href="/labels">Labels</Link> /
+      </p>
+      <h1 className="labels-controls">Container {tag}</h1>
+      <div className="labels-controls">
+        <PrintLabels what="this label" />
+      </div>
+      <div className="label-sheet">
+        <ContainerLabel tag={tag} origin={await requestOrigin()} siteName={site.name} single />
+      </div>
+      <h2 className="labels-controls">Pickups with this container</h2>
+      <div className="labels-controls">
+        {pickups.length === 0 ? (
+          <Empty>No pickup has listed this container yet.</Empty>
+        ) : (
+          <div className="table-wrap">
+            <table>
+              <thead>
+                <tr>
+                  <th scope="col">Pickup</th>
+                  <th scope="col">Observed</th>
+                  <th scope="col">Source</th>
+                  <th scope="col" className="num">
+                    Volume
+                  </th>
+                  <th scope="col">Lot</th>
+                </tr>
+              </thead>
+              <tbody>
+                {pickups.map((p) => (
+                  <tr key={p.code}>
+                    <td>
+                      <CodeLink href={`/pickups/${encodeURIComponent(p.code)}`} code={p.code} />
+                    </td>
+                    <td className="nowrap">{when(p.observedAt, site.timeZone)}</td>
+                    <td>{p.sourceCode}</td>
+                    <td className="num">{litres(p.volumeMl)}</td>
+                    <td>{p.lotCode ? <CodeLink href={`/lots/${encodeURIComponent(p.lotCode)}`} code={p.lotCode} /> : "—"}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        )}
+      </div>
+    </>
+  );
+}

@@ -1,0 +1,96 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { containerRange, MAX_LABELS_PER_SHEET } from "@/lib/labels/label-range";
+import { listLotsForLabels, listRecentLotCodes } from "@/lib/labels/labels.store";
+import { labelOf } from "@/lib/ledger/kinds";
+import { day } from "@/app/_ui/format";
+import { loadSite } from "@/app/_ui/site";
+import { NoSite } from "@/app/_ui/ui";
+import { ContainerLabel, LotLabel } from "@/app/labels/label-card";
+import { requestOrigin } from "@/app/labels/origin";
+import { PrintLabels } from "@/app/labels/print-button";
+
+export const dynamic = "force-dynamic";
+export const metadata: Metadata = { title: "Labels" };
+
+type Search = Record<string, string | string[] | undefined>;
+const one = (v: string | string[] | undefined) => (Array.isArray(v) ? v[0] : v) ?? "";
+const many = (v: string | string[] | undefined) => (Array.isArray(v) ? v : v ? [v] : []);
+
+export default async function LabelsPage({ searchParams }: { searchParams: Promise<Search> }) {
+  const { db, site } = await loadSite();
+  if (!site) return <NoSite />;
+  const q = await searchParams;
+  const kind = one(q.kind);
+  const origin = await requestOrigin();
+  const recent = await listRecentLotCodes(db, site.id, 40);
+  const lotCodes = many(q.lot).map((c) => c.trim().toUpperCase()).filter(Boolean).slice(0, MAX_LABELS_PER_SHEET);
+  const lots = kind === "lot" && lotCodes.length ? await listLotsForLabels(db, site.id, lotCodes) : [];
+  const missing = lotCodes.filter((c) => !lots.some((l) => l.code === c));
+  const range = kind === "container" ? containerRange(one(q.prefix) || "C-", Number(one(q.from) || "1"), Number(one(q.to) || "1")) : null;
+
+  return (
+    <>
+      <h1>Labels</h1>
+      <p className="lede">
+        Printable labels for lots and used-oil containers. The QR code opens the record; lot labels also carry the lot number as a GS1 element string with application identifier (10). To read a label,{" "}
+        <Link href="/labels/scan">scan it or type its number</Link>.
+      </p>
+      <div className="labels-controls">
+        <form method="get" action="/labels">
+          <input type="hidden" name="kind" value="lot" />
+          <fieldset>
+            <legend>Lot labels: choose lots</legend>
+            {recent.map((l) => (
+              <label key={l.code} className="nowrap" style={{ display: "inline-block", marginRight: "1rem" }}>
+                <input type="checkbox" name="lot" value={l.code} defaultChecked={lotCodes.includes(l.code)} /> {l.code} <span className="muted">({labelOf(l.material)}, {day(l.receivedAt, site.timeZone)})</span>
+              </label>
+            ))}
+          </fieldset>
+          <button type="submit">Make the lot sheet</button>
+        </form>
+        <form method="get" action="/labels">
+          <input type="hidden" name="kind" value="container" />
+          <fieldset>
+            <legend>Container labels: a run of numbers</legend>
+            <label>
+              Prefix <input name="prefix" defaultValue={one(q.prefix) || "C-"} size={6} />
+            </label>{" "}
+            <label>
+              From <input name="from" inputMode="numeric" defaultValue={one(q.from) || "1"} size={5} />
+            </label>{" "}
+            <label>
+              To <input name="to" inputMode="numeric" defaultValue={one(q.to) || "24"} size={5} />
+            </label>
+          </fieldset>
+          <button type="submit">Make the container sheet</button>
+        </form>
+        {range && !range.ok ? (
+          <p className="form-error" role="alert">
+            {range.issues.map((i) => i.message).join("; ")}
+          </p>
+        ) : null}
+        {missing.length ? (
+          <p className="form-error" role="alert">
+            No lot with number {missing.join(", ")} at this site.
+          </p>
+        ) : null}
+        {lots.length || (range?.ok && range.value.length) ? <PrintLabels what="this sheet" /> : null}
+      </div>
+      {kind === "lot" && lots.length ? (
+        <section className="label-sheet" aria-label="Lot labels">
+          {lots.map((l) => (
+            <LotLabel key={l.code} lot={l} origin={origin} siteName={site.name} timeZone={site.timeZone} />
+          ))}
+        </section>
+      ) : null}
+      {range?.ok ? (
+        <section className="label-sheet" aria-label="Container labels">
+          {range.value.map((tag) => (
+            <ContainerLabel key={tag} tag={tag} origin={origin} siteName={site.name} />
+          ))}
+        </section>
+      ) : null}
+    </>
+  );
+}
