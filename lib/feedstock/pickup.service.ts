@@ -58,6 +58,8 @@ export async function recordPickup(db: Db, actor: Actor, input: unknown, table: 
   const p = parsed.value;
   if (p.idempotencyKey) {
     const earlier = await findPickupByKey(db, p.idempotencyKey);
+    // The same key for a different pickup is a client error, not a retry: say so instead of answering with another record.
+    if (earlier && earlier.code !== p.code) return fail("IDEMPOTENCY.KEY_REUSED", `This key was already used for pickup ${earlier.code}; a new pickup needs a new key`, "idempotencyKey");
     if (earlier) return ok(earlier);
   }
   const massG = measurePickup(p, table);

@@ -48,6 +48,16 @@ describe.each(PROVIDERS)("bulk pickup import on %s", (provider) => {
     expect(again.ok && again.value).toEqual({ written: 0, skipped: 1 });
   });
 
+  it("answers a retry with the first record, and refuses the same key for a different pickup", async () => {
+    const key = "2b7f4c1e-9a3d-4e8b-b6f0-1c2d3e4f5a6b";
+    const first = await recordPickup(t.db, plant.collector, row("K-1", { idempotencyKey: key }));
+    const retry = await recordPickup(t.db, plant.collector, row("K-1", { idempotencyKey: key }));
+    expect(first.ok && retry.ok && retry.value.id === first.value.id).toBe(true);
+    const other = await recordPickup(t.db, plant.collector, row("K-2", { idempotencyKey: key }));
+    expect(!other.ok && other.issues[0]).toMatchObject({ code: "IDEMPOTENCY.KEY_REUSED", field: "idempotencyKey" });
+    expect(await t.db.pickup.count({ where: { code: "K-2" } })).toBe(0);
+  });
+
   it("refuses a bad row by its row and field, and writes nothing", async () => {
     const before = { pickups: await t.db.pickup.count(), moves: await t.db.movement.count(), audit: await t.db.auditEvent.count() };
     const unknown = await importPickupRows(t.db, plant.collector, [row("C-1"), row("C-2", { sourceCode: "NOPE" })]);
