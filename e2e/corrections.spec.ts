@@ -11,10 +11,11 @@ test("reverse a mistaken transfer and void a mistaken titration, each with a rea
     data: { fromKind: "TANK", fromCode: "T1", toTankCode: "T2", at: new Date().toISOString(), massKg: 1 },
   });
   expect(booked.status()).toBe(200);
+  const no = String(((await booked.json()) as { value: { movementId: number } }).value.movementId);
   const t1Before = ((await (await page.request.get("/api/holders/TANK/T1")).json()) as { value: { stockG: number } }).value.stockG;
 
+  // Other journeys may have booked later-dated movements (a phone clock ahead), so find the row by its number.
   await page.reload();
-  const no = (await page.locator("tbody tr").first().locator("td").first().innerText()).trim();
   const row = page.locator("tbody tr").filter({ has: page.locator("td:first-child", { hasText: new RegExp(`^${no}$`) }) });
   await row.getByText(`Reverse No. ${no}`).click();
   await row.getByRole("button", { name: "Book the reversal" }).click();
