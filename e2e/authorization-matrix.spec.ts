@@ -30,6 +30,17 @@ const MATRIX: Record<string, Role[] | "public"> = {
 };
 const COMPUTE_PREFIX = "/api/compute/"; // pure computations: any signed-in user
 
+/** One request context per role, each signed in through the API. */
+async function signedInAsEachRole(baseURL: string | undefined): Promise<Map<Role, APIRequestContext>> {
+  const asRole = new Map<Role, APIRequestContext>();
+  for (const role of ANY) {
+    const ctx = await playwrightRequest.newContext({ baseURL });
+    expect((await ctx.post("/api/session", { data: { login: LOGINS[role], password: "quillmoor-demo" } })).status()).toBe(200);
+    asRole.set(role, ctx);
+  }
+  return asRole;
+}
+
 function postRoutes(dir: string, base = ""): string[] {
   const out: string[] = [];
   for (const e of readdirSync(dir, { withFileTypes: true })) {
@@ -46,12 +57,7 @@ test("every data-changing route refuses anonymous callers and the roles it does 
   const missing = routes.filter((r) => !(r in MATRIX) && !r.startsWith(COMPUTE_PREFIX));
   expect(missing, "add these routes to the authorisation matrix").toEqual([]);
   const anonymous = await playwrightRequest.newContext({ baseURL });
-  const asRole = new Map<Role, APIRequestContext>();
-  for (const role of ANY) {
-    const ctx = await playwrightRequest.newContext({ baseURL });
-    expect((await ctx.post("/api/session", { data: { login: LOGINS[role], password: "quillmoor-demo" } })).status()).toBe(200);
-    asRole.set(role, ctx);
-  }
+  const asRole = await signedInAsEachRole(baseURL);
   const failures: string[] = [];
   for (const route of routes) {
     const allowed = route.startsWith(COMPUTE_PREFIX) ? ANY : MATRIX[route];
@@ -118,12 +124,7 @@ test("every server action refuses anonymous callers and the roles it does not al
   // Without any cookie the proxy only redirects to sign-in; a forged session cookie gets past that
   // optimistic check, so the action's own server-side check is what must refuse it.
   const anonymous = await playwrightRequest.newContext({ baseURL, extraHTTPHeaders: { cookie: "tv_session=forged-or-expired-token" } });
-  const asRole = new Map<Role, APIRequestContext>();
-  for (const role of ANY) {
-    const ctx = await playwrightRequest.newContext({ baseURL });
-    expect((await ctx.post("/api/session", { data: { login: LOGINS[role], password: "quillmoor-demo" } })).status()).toBe(200);
-    asRole.set(role, ctx);
-  }
+  const asRole = await signedInAsEachRole(baseURL);
   const prev = { status: "idle", ok: false, message: null, field: null, reason: "", values: {}, errors: {}, seq: 0 };
   const call = async (ctx: APIRequestContext, a: ActionEntry) => {
     const res = await ctx.post(a.page, {

@@ -1,10 +1,9 @@
 "use client";
 import { useEffect } from "react";
 import { usePathname } from "next/navigation";
-import { signOutWarning } from "@/lib/collect/outbox";
 import type { OutboxEntry } from "@/lib/collect/outbox";
 import { openOutbox } from "@/lib/collect/outbox-idb";
-import { SHELL_CACHE } from "@/app/collect/shell";
+import { onSignOutSubmit } from "@/app/collect/shell";
 
 /**
  * On every page but the collect page (which has its own live count): signing out while pickups still
@@ -30,17 +29,7 @@ export function SignOutGuard() {
     void read();
     const timer = window.setInterval(() => void read(), 15_000);
     const onFocus = () => void read();
-    const onSubmit = (ev: SubmitEvent) => {
-      const form = ev.target;
-      if (!(form instanceof HTMLFormElement) || !form.classList.contains("who")) return;
-      const warning = signOutWarning(waiting);
-      if (warning && !window.confirm(warning)) {
-        ev.preventDefault();
-        ev.stopImmediatePropagation();
-        return;
-      }
-      if (typeof caches !== "undefined") void caches.delete(SHELL_CACHE).catch(() => undefined);
-    };
+    const onSubmit = onSignOutSubmit(() => waiting);
     window.addEventListener("focus", onFocus);
     window.addEventListener("submit", onSubmit, true);
     return () => {

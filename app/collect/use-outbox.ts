@@ -3,10 +3,10 @@
 // start, when the network returns, when the page becomes visible and on a timer. Tabs share the outbox.
 import { useCallback, useEffect, useRef, useState } from "react";
 import type { OutboxEntry } from "@/lib/collect/outbox";
-import { SEND_EVERY_MS, signOutWarning } from "@/lib/collect/outbox";
+import { SEND_EVERY_MS } from "@/lib/collect/outbox";
 import { flushOutbox, openOutbox } from "@/lib/collect/outbox-idb";
 import type { Outbox } from "@/lib/collect/outbox-idb";
-import { SHELL_CACHE, SHELL_PATH } from "@/app/collect/shell";
+import { onSignOutSubmit, SHELL_PATH } from "@/app/collect/shell";
 
 export interface SentNow {
   code: string;
@@ -162,18 +162,8 @@ export function useOutbox(userId: number, builtAt: string) {
 
   // Signing out (the header's button) with entries still waiting asks first.
   useEffect(() => {
-    const onSubmit = (ev: SubmitEvent) => {
-      const form = ev.target;
-      if (!(form instanceof HTMLFormElement) || !form.classList.contains("who")) return;
-      const warning = signOutWarning(entriesRef.current);
-      if (warning && !window.confirm(warning)) {
-        ev.preventDefault();
-        ev.stopImmediatePropagation();
-        return;
-      }
-      // The offline copy of the page shows this site's sources and history: not kept after signing out.
-      if (typeof caches !== "undefined") void caches.delete(SHELL_CACHE).catch(() => undefined);
-    };
+    // The offline copy of the page shows this site's sources and history: not kept after signing out.
+    const onSubmit = onSignOutSubmit(() => entriesRef.current);
     window.addEventListener("submit", onSubmit, true);
     return () => window.removeEventListener("submit", onSubmit, true);
   }, []);

@@ -4,7 +4,9 @@ import { listRecordHistory, loadChain } from "@/lib/audit/audit.store";
 import { verifyChain } from "@/lib/audit/chain";
 import { describeChange, isRecordHistoryKind, RECORD_HISTORIES } from "@/lib/audit/history";
 import type { RecordHistoryKind } from "@/lib/audit/history";
+import type { HolderKind } from "@/lib/ledger/kinds";
 import { when } from "@/app/_ui/format";
+import { hrefOf } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { Empty, NoSite, Note } from "@/app/_ui/ui";
 
@@ -33,31 +35,24 @@ const ENTITY_WORDS: Readonly<Record<string, string>> = {
   Movement: "movement",
 };
 
+/** The record's own page: the holder pages for holder-backed records, the list page for the rest. */
+const HOLDER_OF: Partial<Record<RecordHistoryKind, HolderKind>> = {
+  pickup: "PICKUP",
+  lot: "LOT",
+  tank: "TANK",
+  batch: "BATCH",
+  product: "PRODUCT_LOT",
+  shipment: "SHIPMENT",
+  waste: "WASTE_CONTAINER",
+  disposal: "DISPOSAL",
+};
+
 function recordHref(kind: RecordHistoryKind, key: string): string | null {
-  const k = encodeURIComponent(key);
-  switch (kind) {
-    case "source":
-      return `/sources/${k}`;
-    case "pickup":
-      return `/pickups/${k}`;
-    case "lot":
-      return `/lots/${k}`;
-    case "tank":
-      return `/tanks/${k}`;
-    case "batch":
-      return `/batches/${k}`;
-    case "product":
-      return `/products/${k}`;
-    case "shipment":
-      return `/shipments/${k}`;
-    case "period":
-      return "/periods";
-    case "waste":
-    case "disposal":
-      return "/waste";
-    default:
-      return null;
-  }
+  const holder = HOLDER_OF[kind];
+  if (holder) return hrefOf(holder, key);
+  if (kind === "source") return `/sources/${encodeURIComponent(key)}`;
+  if (kind === "period") return "/periods";
+  return null;
 }
 
 /** Every recorded create, change, void, close and reopen of one record: who, when (UTC and site time), old and new values, reason. */

@@ -2,7 +2,7 @@ import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
 import { hashPassword } from "@/lib/auth/password";
 import { OwnUnitsSchema, PasswordResetSchema, RevokeSessionsSchema, UserChangeSchema, UserCreateSchema } from "@/lib/auth/user.schema";
-import { countActiveAdmins, insertAccount, requireUser, requireUserById, revokeAllSessions, updateUser } from "@/lib/auth/user.store";
+import { countActiveAdmins, insertAccount, requireUser, revokeAllSessions, updateUser } from "@/lib/auth/user.store";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
@@ -80,7 +80,7 @@ export async function setOwnUnits(db: Db, actor: Actor, input: unknown): Promise
   const parsed = parseInput(OwnUnitsSchema, input);
   if (!parsed.ok) return parsed;
   return runInTransaction(db, async (tx) => {
-    const me = await requireUserById(tx, actor.siteId, actor.userId);
+    const me = await requireUser(tx, actor.siteId, { id: actor.userId });
     if (me.unitSystem !== parsed.value.unitSystem) {
       await updateUser(tx, me.id, { unitSystem: parsed.value.unitSystem });
       await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: me.login, before: { unitSystem: me.unitSystem }, after: { unitSystem: parsed.value.unitSystem }, reason: "own preference" });

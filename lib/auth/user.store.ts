@@ -46,15 +46,12 @@ export interface UserState {
   active: boolean;
 }
 
-export async function requireUser(tx: Tx, siteId: number, login: string): Promise<UserState> {
-  const u = await tx.user.findFirst({ where: { siteId, login }, select: { id: true, login: true, fullName: true, role: true, unitSystem: true, active: true } });
-  if (!u) reject("RECORD.NOT_FOUND", `User ${login} does not exist on this site`, "login");
-  return u;
-}
+const USER_STATE = { id: true, login: true, fullName: true, role: true, unitSystem: true, active: true } as const;
 
-export async function requireUserById(tx: Tx, siteId: number, id: number): Promise<UserState> {
-  const u = await tx.user.findFirst({ where: { siteId, id }, select: { id: true, login: true, fullName: true, role: true, unitSystem: true, active: true } });
-  if (!u) reject("RECORD.NOT_FOUND", "Your account was not found on this site", "login");
+/** An account of this site by login or by id; refused naming the login field when absent. */
+export async function requireUser(tx: Tx, siteId: number, who: string | { id: number }): Promise<UserState> {
+  const u = await tx.user.findFirst({ where: { siteId, ...(typeof who === "string" ? { login: who } : { id: who.id }) }, select: USER_STATE });
+  if (!u) reject("RECORD.NOT_FOUND", typeof who === "string" ? `User ${who} does not exist on this site` : "Your account was not found on this site", "login");
   return u;
 }
 

@@ -108,17 +108,7 @@ export async function getStockG(tx: Tx, holderId: number): Promise<number> {
 
 /** Refuses a booking dated inside a closed accounting period. */
 export async function assertPeriodOpen(tx: Tx, siteId: number, at: Date, field = "at"): Promise<void> {
-  const closed = await tx.accountingPeriod.findFirst({
-    where: { siteId, status: "CLOSED", startsAt: { lte: at }, endsAt: { gt: at } },
-    select: { startsAt: true, endsAt: true },
-  });
-  if (closed) {
-    reject(
-      "PERIOD.CLOSED",
-      `The period ${closed.startsAt.toISOString().slice(0, 10)} – ${closed.endsAt.toISOString().slice(0, 10)} is closed; a compliance user must reopen it first`,
-      field,
-    );
-  }
+  await assertPeriodsOpen(tx, siteId, [{ at, field }]);
 }
 
 const CHUNK = 500; // rows per statement: under SQLite's bound-parameter limit
@@ -148,9 +138,15 @@ export async function createHoldersWithStock(tx: Tx, siteId: number, kind: Holde
 /** Refuses any of these times that falls in a closed period, reading the closed periods once. */
 export async function assertPeriodsOpen(tx: Tx, siteId: number, times: ReadonlyArray<{ at: Date; field: string }>): Promise<void> {
   if (times.length === 0) return;
-  const ms = times.map((t) => t.at.getTime());
+  // A loop, not Math.min(...times): a large import would overflow the argument list.
+  let first = Number.POSITIVE_INFINITY;
+  let last = Number.NEGATIVE_INFINITY;
+  for (const t of times) {
+    first = Math.min(first, t.at.getTime());
+    last = Math.max(last, t.at.getTime());
+  }
   const closed = await tx.accountingPeriod.findMany({
-    where: { siteId, status: "CLOSED", startsAt: { lte: new Date(Math.max(...ms)) }, endsAt: { gt: new Date(Math.min(...ms)) } },
+    where: { siteId, status: "CLOSED", startsAt: { lte: new Date(last) }, endsAt: { gt: new Date(first) } },
     select: { startsAt: true, endsAt: true },
   });
   for (const t of times) {

@@ -21,7 +21,7 @@ export function Scanner() {
   const [canScan, setCanScan] = useState(false);
   const [scanning, setScanning] = useState(false);
   const [message, setMessage] = useState<string | null>(null);
-  const video = useRef<HTMLVideoElement>(null);
+  const camera = useRef<HTMLVideoElement>(null);
   const stream = useRef<MediaStream | null>(null);
 
   useEffect(() => {
@@ -42,7 +42,7 @@ export function Scanner() {
     try {
       const detector = new Ctor({ formats: ["qr_code", "code_128", "data_matrix"] });
       stream.current = await navigator.mediaDevices.getUserMedia({ video: { facingMode: "environment" } });
-      const v = video.current;
+      const v = camera.current;
       if (!v) return;
       v.srcObject = stream.current;
       // Not awaited: a camera that is slow to deliver its first frame must not hold the loop up.
@@ -86,7 +86,7 @@ export function Scanner() {
       ) : (
         <p className="muted">This browser cannot read barcodes with the camera; type the number below.</p>
       )}
-      <video ref={video} className="scan-video" hidden={!scanning} muted playsInline />
+      <video ref={camera} className="scan-camera" hidden={!scanning} muted playsInline />
       {message ? (
         <p className="form-error" role="alert">
           {message}
