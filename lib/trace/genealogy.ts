@@ -90,7 +90,12 @@ export function describeComposition(parts: CompositionParts): TraceComposition {
  */
 export function replayLedger(
   index: LedgerIndex,
-  options: { until?: number; from?: ReplaySnapshot; onMove?: (move: TraceMove, parts: CompositionParts) => void } = {},
+  options: {
+    until?: number;
+    from?: ReplaySnapshot;
+    /** Called after each move; returning exactly true stops the replay there (the replay is then at that move). */
+    onMove?: (move: TraceMove, parts: CompositionParts, position: number) => unknown;
+  } = {},
 ): Result<Replay> {
   const horizon = findLastPositionAtOrBefore(index, options.until ?? Number.POSITIVE_INFINITY);
   const started = startReplay(index, pickSnapshot(options.from, horizon));
@@ -101,7 +106,7 @@ export function replayLedger(
     if (move === undefined) break;
     const applied = replay.apply(move);
     if (!applied.ok) return applied;
-    options.onMove?.(move, applied.value);
+    if (options.onMove?.(move, applied.value, pos) === true) break;
   }
   return ok(replay);
 }
@@ -168,7 +173,8 @@ export function traceMove(index: LedgerIndex, moveId: number, options: { from?: 
 /**
  * Forward trace: where the material of an origin set went. Origins of a pickup or delivery come from
  * findEntryOrigins; origins of a lot are the origin ids of traceHolder(lot).received.
- * One forward replay: O(moves × composition size), resumable from a snapshot.
+ * One forward replay from a snapshot taken before the first origin entered, stopped once none of the
+ * set can move again: O(moves over the set's lifetime × composition size), not O(history after it).
  */
 export function traceForward(
   index: LedgerIndex,
@@ -192,24 +198,62 @@ export function traceForward(
   const set = new Set(originIds);
   const target = findLastPositionAtOrBefore(index, options.at ?? Number.POSITIVE_INFINITY);
   const from = pickSnapshot(options.from, target);
+  let firstOrigin = Number.POSITIVE_INFINITY;
+  let lastOrigin = -1;
+  for (const id of set) {
+    const pos = index.positionOf.get(id) ?? Number.POSITIVE_INFINITY;
+    firstOrigin = Math.min(firstOrigin, pos);
+    if (pos <= target) lastOrigin = Math.max(lastOrigin, pos);
+  }
+  // Starting before any origin entered, the set's grams per holder follow from the moves that carry
+  // them (Σ in − Σ out), and the replay may stop once every gram sits in holders nothing is drawn from
+  // again up to the target: no later move can carry any of it. An early lot's material reaches
+  // shipments and disposals within months, so this bounds a forward trace by the lot's lifetime, not
+  // by the history after it.
+  const tracksHeld = (from?.applied.count ?? 0) <= firstOrigin;
+  const held = new Map<number, number>();
+  /** Holders with grams of the set that are drawn from again before the target. */
+  const open = new Set<number>();
+  const drawnAfter = (holderId: number, pos: number): boolean => {
+    const outs = index.outOf.get(holderId);
+    if (outs === undefined) return false;
+    const i = lowerBound(outs, pos + 1);
+    return i < outs.length && (outs[i] ?? Number.POSITIVE_INFINITY) <= target;
+  };
   const receivedBy = new Map<number, number>();
   const moves: Array<{ moveId: number; grams: number }> = [];
   const replayed = replayLedger(index, {
     ...(options.at === undefined ? {} : { until: options.at }),
     ...(from === undefined ? {} : { from }),
-    onMove: (move, parts) => {
+    onMove: (move, parts, pos) => {
       const grams = sumPartsOf(parts, set);
-      if (grams === 0) return;
-      moves.push({ moveId: move.id, grams });
-      receivedBy.set(move.toHolderId, (receivedBy.get(move.toHolderId) ?? 0) + grams);
+      if (grams > 0) {
+        moves.push({ moveId: move.id, grams });
+        receivedBy.set(move.toHolderId, (receivedBy.get(move.toHolderId) ?? 0) + grams);
+        if (tracksHeld) {
+          held.set(move.toHolderId, (held.get(move.toHolderId) ?? 0) + grams);
+          if (move.fromHolderId !== null) held.set(move.fromHolderId, (held.get(move.fromHolderId) ?? 0) - grams);
+          open.add(move.toHolderId);
+        }
+      }
+      if (!tracksHeld || pos < lastOrigin) return false;
+      for (const h of open) if ((held.get(h) ?? 0) === 0 || !drawnAfter(h, pos)) open.delete(h);
+      return open.size === 0;
     },
   });
   if (!replayed.ok) return replayed;
   const replay = replayed.value;
   const heldBy = new Map<number, number>();
-  for (const h of replay.listStockedHolderIds()) {
-    const held = sumPartsOf(replay.getComposition(h), set);
-    if (held > 0) heldBy.set(h, held);
+  if (tracksHeld) {
+    for (const [h, g] of held) {
+      invariant(g >= 0, `holder ${h} gave more of the traced origins than it received`);
+      if (g > 0) heldBy.set(h, g);
+    }
+  } else {
+    for (const h of replay.listStockedHolderIds()) {
+      const g = sumPartsOf(replay.getComposition(h), set);
+      if (g > 0) heldBy.set(h, g);
+    }
   }
   const holderIds = [...new Set([...receivedBy.keys(), ...heldBy.keys()])].sort((a, b) => a - b);
   let enteredG = 0;

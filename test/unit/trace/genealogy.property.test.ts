@@ -148,6 +148,38 @@ describe("trace invariants over random ledgers (our own consistency checks)", ()
     );
   });
 
+  it("invariant: a forward trace that stops early lists every carrying move and holding of an exhaustive replay", () => {
+    fc.assert(
+      fc.property(historyArb, fc.nat(), fc.array(fc.boolean(), { minLength: 8, maxLength: 8 }), (history, pick, chosen) => {
+        const index = requireIndex(history.holders, shuffled(history));
+        const t = pickTime(history, pick);
+        const entered = history.moves.filter((m) => m.fromHolderId === null);
+        const set = entered.filter((_m, i) => chosen[i % chosen.length] === true).map((m) => m.id);
+        if (set.length === 0) return;
+        const wanted = new Set(set);
+        // Independent: replay every move up to t and read the set's grams off each carried composition.
+        const carried: Array<{ moveId: number; grams: number }> = [];
+        const full = replayLedger(index, {
+          until: t,
+          onMove: (m, parts) => {
+            const grams = parts.originIds.reduce((s, id, i) => s + (wanted.has(id) ? (parts.grams[i] ?? 0) : 0), 0);
+            if (grams > 0) carried.push({ moveId: m.id, grams });
+          },
+        });
+        if (!full.ok) throw new Error(JSON.stringify(full.issues));
+        const forward = traceForward(index, set, { at: t });
+        if (!forward.ok) throw new Error(JSON.stringify(forward.issues));
+        expect(forward.value.moves).toEqual(carried);
+        for (const h of history.holders) {
+          const parts = full.value.getComposition(h.id);
+          const heldG = set.reduce((s, id) => s + getOriginGrams(parts, id), 0);
+          expect(forward.value.holders.find((r) => r.holderId === h.id)?.heldG ?? 0).toBe(heldG);
+        }
+      }),
+      RUNS,
+    );
+  });
+
   it("invariant: FIFO and MIXED agree when every holder is emptied before it is refilled", () => {
     fc.assert(
       fc.property(emptiedBeforeRefillArb, (history) => {
