@@ -24,3 +24,97 @@ export function allocateByWeight<K>(total: number, weights: ReadonlyArray<readon
   }
   return raw.map((r) => [r.k, r.floor]);
 }
+
+/**
+ * allocateByWeight's rule (largest remainder, ties to the lower index) for positive integer weights
+ * whose exact sum is known, without building a pair per weight: the parts come back in the weights'
+ * order. For the replay's hot path, where a tank's mixture can hold thousands of origins.
+ */
+export function allocateWholeGrams(total: number, weights: readonly number[], sum: number): number[] {
+  invariant(Number.isSafeInteger(total) && total >= 0, `total must be a non-negative integer, got ${total}`);
+  const n = weights.length;
+  const parts = new Array<number>(n);
+  if (total === 0 || n === 0) return parts.fill(0);
+  invariant(sum > 0, "weights must add up to more than zero");
+  const rems = scratch(0, n);
+  let given = 0;
+  for (let i = 0; i < n; i++) {
+    const w = weights[i] ?? 0;
+    invariant(w > 0, `weight ${i} must be positive, got ${w}`);
+    const exact = (total * w) / sum;
+    const floor = Math.floor(exact);
+    parts[i] = floor;
+    rems[i] = exact - floor;
+    given += floor;
+  }
+  let left = Math.min(total - given, n);
+  if (left <= 0) return parts;
+  // The spare grams go to the `left` largest remainders, the lower index first among equals: every
+  // remainder above the threshold (the left-th largest) gets one, then equal ones in index order.
+  const copy = scratch(1, n);
+  copy.set(rems);
+  const threshold = selectAscending(copy, n, n - left);
+  for (let i = 0; i < n && left > 0; i++) {
+    if ((rems[i] ?? 0) > threshold) {
+      parts[i] = (parts[i] ?? 0) + 1;
+      left--;
+    }
+  }
+  for (let i = 0; i < n && left > 0; i++) {
+    if (rems[i] === threshold) {
+      parts[i] = (parts[i] ?? 0) + 1;
+      left--;
+    }
+  }
+  return parts;
+}
+
+const scratchBuffers: [Float64Array, Float64Array] = [new Float64Array(1024), new Float64Array(1024)];
+
+/** A reusable buffer of at least n doubles (the replay splits thousands of mixtures per trace). */
+function scratch(which: 0 | 1, n: number): Float64Array {
+  let buf = scratchBuffers[which];
+  if (buf.length < n) {
+    buf = new Float64Array(Math.max(n, buf.length * 2));
+    scratchBuffers[which] = buf;
+  }
+  return buf;
+}
+
+/**
+ * The value that would sit at position k (0-based) if a[0..n) were sorted ascending; reorders a.
+ * Quickselect with three-way partitioning, so long runs of equal values (many 1 g origins share a
+ * remainder) stay linear.
+ */
+function selectAscending(a: Float64Array, n: number, k: number): number {
+  let lo = 0;
+  let hi = n - 1;
+  while (lo < hi) {
+    const x = a[lo] ?? 0;
+    const y = a[(lo + hi) >>> 1] ?? 0;
+    const z = a[hi] ?? 0;
+    const pivot = x < y ? (y < z ? y : x < z ? z : x) : x < z ? x : y < z ? z : y;
+    let lt = lo;
+    let gt = hi;
+    let i = lo;
+    while (i <= gt) {
+      const v = a[i] ?? 0;
+      if (v < pivot) {
+        a[i] = a[lt] ?? 0;
+        a[lt] = v;
+        lt++;
+        i++;
+      } else if (v > pivot) {
+        a[i] = a[gt] ?? 0;
+        a[gt] = v;
+        gt--;
+      } else {
+        i++;
+      }
+    }
+    if (k < lt) hi = lt - 1;
+    else if (k > gt) lo = gt + 1;
+    else return pivot;
+  }
+  return a[k] ?? 0;
+}

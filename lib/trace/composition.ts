@@ -1,5 +1,5 @@
 import { invariant } from "@/lib/errors";
-import { allocateByWeight } from "@/lib/quantity/allocate";
+import { allocateWholeGrams } from "@/lib/quantity/allocate";
 
 /**
  * Grams per origin, as two parallel arrays sorted by ascending origin id with every entry > 0.
@@ -116,13 +116,12 @@ export function takeFromLayer(layer: MutableLayer, massG: number): CompositionPa
     return all;
   }
   const n = layer.originIds.length;
-  const weights = new Array<readonly [number, number]>(n);
-  for (let i = 0; i < n; i++) weights[i] = [i, layer.grams[i] ?? 0];
-  const allocation = allocateByWeight(massG, weights);
+  const allocation = allocateWholeGrams(massG, layer.grams, layer.totalG);
   const takenIds: number[] = [];
   const takenGrams: number[] = [];
   let kept = 0;
-  for (const [i, part] of allocation) {
+  for (let i = 0; i < n; i++) {
+    const part = allocation[i] ?? 0;
     const id = layer.originIds[i] ?? 0;
     const held = layer.grams[i] ?? 0;
     if (part > held) invariant(false, `split gave origin ${id} ${part} g of its ${held} g`);
