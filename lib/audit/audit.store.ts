@@ -1,5 +1,6 @@
 import "server-only";
 import type { Db, Tx } from "@/lib/database/connect";
+import { insertRows } from "@/lib/database/bulk-insert";
 import { chainHash } from "@/lib/audit/chain";
 import type { ChainedEvent } from "@/lib/audit/chain";
 
@@ -61,7 +62,8 @@ export async function appendAuditMany(tx: Tx, actor: { siteId: number; userId: n
     prev = hash;
     return row;
   });
-  for (let i = 0; i < rows.length; i += 500) await tx.auditEvent.createMany({ data: rows.slice(i, i + 500) });
+  const columns = ["siteId", "seq", "at", "actorId", "action", "entity", "entityKey", "before", "after", "reason", "prevHash", "hash"] as const;
+  await insertRows(tx, "AuditEvent", columns, rows.map((r) => columns.map((c) => r[c])));
   await tx.auditHead.update({ where: { siteId: actor.siteId }, data: { lastHash: prev } });
 }
 

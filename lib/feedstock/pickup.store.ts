@@ -1,5 +1,6 @@
 import "server-only";
 import type { Db, Tx } from "@/lib/database/connect";
+import { insertRows } from "@/lib/database/bulk-insert";
 import type { Pickup } from "@/lib/feedstock/pickup.schema";
 import type { PickupSaved } from "@/lib/feedstock/pickup.service";
 import { toMillilitres } from "@/lib/quantity/units";
@@ -50,12 +51,19 @@ export async function insertPickup(tx: Tx, r: PickupInsert): Promise<PickupSaved
 }
 
 /** Many pickups at once (bulk import); the holders already exist with their stock. */
+const PICKUP_COLUMNS = ["siteId", "holderId", "code", "sourceId", "collectorId", "material", "observedAt", "receivedAt", "containers", "containerTags", "volumeMl", "tempC", "massG", "waterLook", "solidsLook", "notes", "idempotencyKey"] as const;
+
+/** Many pickups at once (imports): the same columns as pickupData, in multi-row statements. */
 export async function insertPickups(tx: Tx, rows: readonly PickupInsert[]): Promise<void> {
-  for (let i = 0; i < rows.length; i += 500) {
-    await tx.pickup.createMany({
-      data: rows.slice(i, i + 500).map(pickupData),
-    });
-  }
+  await insertRows(
+    tx,
+    "Pickup",
+    PICKUP_COLUMNS,
+    rows.map((r) => {
+      const d = pickupData(r);
+      return PICKUP_COLUMNS.map((c) => d[c]);
+    }),
+  );
 }
 
 export interface PickupRow {

@@ -3,6 +3,7 @@
 // of the destination and one append-only ledger row, inside the caller's transaction.
 import { AsyncLocalStorage } from "node:async_hooks";
 import type { Db, Tx } from "@/lib/database/connect";
+import { insertRows } from "@/lib/database/bulk-insert";
 import type { DomainIssue, Result } from "@/lib/errors";
 import { failMany, ok } from "@/lib/errors";
 import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
@@ -129,7 +130,8 @@ export async function createHoldersWithStock(tx: Tx, siteId: number, kind: Holde
     const part = items.slice(i, i + CHUNK);
     const clash = await tx.holder.findFirst({ where: { siteId, kind, code: { in: part.map((x) => x.code) } }, select: { code: true } });
     if (clash) reject("RECORD.DUPLICATE", `${labelOf(kind)} ${clash.code} already exists`, seen.get(clash.code) ?? "code");
-    const made = await tx.holder.createManyAndReturn({ data: part.map((x) => ({ siteId, kind, code: x.code, stockG: x.stockG })), select: { id: true, code: true } });
+    await insertRows(tx, "Holder", ["siteId", "kind", "code", "stockG"], part.map((x) => [siteId, kind, x.code, x.stockG]));
+    const made = await tx.holder.findMany({ where: { siteId, kind, code: { in: part.map((x) => x.code) } }, select: { id: true, code: true } });
     for (const h of made) ids.set(h.code, h.id);
   }
   return ids;
@@ -161,16 +163,17 @@ export async function assertPeriodsOpen(tx: Tx, siteId: number, times: ReadonlyA
  */
 export async function postReceipts(tx: Tx, drafts: ReadonlyArray<MovementDraft>): Promise<void> {
   await assertPeriodsOpen(tx, drafts[0]?.siteId ?? 0, drafts.map((d) => ({ at: d.at, field: d.field ?? "at" })));
-  for (let i = 0; i < drafts.length; i += CHUNK) {
-    const part = drafts.slice(i, i + CHUNK);
-    for (const d of part) {
-      if (d.fromHolderId !== null) reject("LEDGER.NOT_A_RECEIPT", "Only receipts are written in bulk", d.field ?? "massKg");
-      if (!Number.isSafeInteger(d.massG) || d.massG <= 0) reject("LEDGER.BAD_MASS", "Mass must be more than 0 g", d.field ?? "massKg");
-    }
-    await tx.movement.createMany({
-      data: part.map((m) => ({ siteId: m.siteId, at: m.at, role: m.role, fromHolderId: null, toHolderId: m.toHolderId, massG: m.massG, volumeMl: m.volumeMl ?? null, tempC: m.tempC ?? null, note: m.note ?? "", recordedById: m.recordedById })),
-    });
+  for (const d of drafts) {
+    if (d.fromHolderId !== null) reject("LEDGER.NOT_A_RECEIPT", "Only receipts are written in bulk", d.field ?? "massKg");
+    if (!Number.isSafeInteger(d.massG) || d.massG <= 0) reject("LEDGER.BAD_MASS", "Mass must be more than 0 g", d.field ?? "massKg");
   }
+  const recordedAt = new Date();
+  await insertRows(
+    tx,
+    "Movement",
+    ["siteId", "at", "role", "fromHolderId", "toHolderId", "massG", "volumeMl", "tempC", "note", "recordedById", "recordedAt"],
+    drafts.map((m) => [m.siteId, m.at, m.role, null, m.toHolderId, m.massG, m.volumeMl ?? null, m.tempC ?? null, m.note ?? "", m.recordedById, recordedAt]),
+  );
 }
 
 export interface MovementDraft {

@@ -28,17 +28,29 @@ describe.each(PROVIDERS)("bulk pickup import on %s", (provider) => {
     const p = await t.db.pickup.findFirstOrThrow({ where: { code }, include: { holder: true } });
     const m = await t.db.movement.findFirstOrThrow({ where: { toHolderId: p.holderId } });
     const a = await t.db.auditEvent.findFirstOrThrow({ where: { entity: "Pickup", entityKey: code } });
-    return { massG: p.massG, volumeMl: p.volumeMl, stockG: p.holder.stockG, move: [m.role, m.fromHolderId, m.massG, m.volumeMl, m.tempC, m.at.toISOString()], audit: JSON.parse(a.after) as Record<string, unknown> };
+    const { id: _id, holderId: _h, code: _c, holder: _holder, ...pickup } = p;
+    const recordedSecondsAgo = (Date.now() - m.recordedAt.getTime()) / 1000;
+    return {
+      pickup,
+      stockG: p.holder.stockG,
+      move: [m.role, m.fromHolderId, m.massG, m.volumeMl, m.tempC, m.note, m.reversesId, m.at.toISOString(), recordedSecondsAgo >= 0 && recordedSecondsAgo < 120],
+      audit: JSON.parse(a.after) as Record<string, unknown>,
+      auditAt: a.at.toISOString(),
+    };
   };
 
   it("writes the same records as one recordPickup per row, in row order", async () => {
     const one = await recordPickup(t.db, plant.collector, row("B-ONE"));
     expect(one.ok).toBe(true);
-    const bulk = await importPickupRows(t.db, plant.collector, [row("B-1"), row("B-2", { volumeL: 50, tempC: 40 }), row("B-3", { idempotencyKey: "7c0e8a52-3f1b-4c6e-9d2a-5b8e1f0a9c31" }), row("B-4", { idempotencyKey: "7c0e8a52-3f1b-4c6e-9d2a-5b8e1f0a9c31" })]);
+    const bulk = await importPickupRows(t.db, plant.collector, [row("B-1", { containerTags: [], notes: "" }), row("B-2", { volumeL: 50, tempC: 40 }), row("B-3", { idempotencyKey: "7c0e8a52-3f1b-4c6e-9d2a-5b8e1f0a9c31" }), row("B-4", { idempotencyKey: "7c0e8a52-3f1b-4c6e-9d2a-5b8e1f0a9c31" })]);
     expect(bulk.ok && bulk.value).toEqual({ written: 3, skipped: 1 }); // the repeated key is skipped, not duplicated
     const a = await snapshot("B-ONE");
     const b = await snapshot("B-1");
     expect({ ...b, audit: { ...b.audit, code: "B-ONE" } }).toEqual(a);
+    // Stored as the same text Prisma writes (SQLite compares dates as text, so the format must match).
+    const text = await t.db.$queryRawUnsafe<Array<{ code: string; o: string; r: string }>>(`SELECT "code", CAST("observedAt" AS TEXT) AS "o", CAST("receivedAt" AS TEXT) AS "r" FROM "Pickup" WHERE "code" IN ('B-ONE', 'B-1') ORDER BY "code"`);
+    expect(text.length).toBe(2);
+    expect([text[0]?.o, text[0]?.r]).toEqual([text[1]?.o, text[1]?.r]);
     expect((await snapshot("B-2")).stockG).toBeLessThan(a.stockG);
     const seqs = (await t.db.auditEvent.findMany({ where: { entityKey: { in: ["B-1", "B-2", "B-3"] } }, orderBy: { seq: "asc" } })).map((e) => e.entityKey);
     expect(seqs).toEqual(["B-1", "B-2", "B-3"]);
@@ -46,6 +58,28 @@ describe.each(PROVIDERS)("bulk pickup import on %s", (provider) => {
     // A re-sent file with the same keys writes nothing new.
     const again = await importPickupRows(t.db, plant.collector, [row("B-3", { idempotencyKey: "7c0e8a52-3f1b-4c6e-9d2a-5b8e1f0a9c31" })]);
     expect(again.ok && again.value).toEqual({ written: 0, skipped: 1 });
+  });
+
+  it("writes thousands of rows across statement boundaries, each in full, the chain intact", async () => {
+    const n = 4_000; // more rows than one multi-row statement binds (bulk-insert.ts)
+    const rows = Array.from({ length: n }, (_, i) => row(`M-${i}`, { volumeL: 10 + (i % 97), tempC: 5 + (i % 40), notes: i % 2 ? `note ${i}` : "", containerTags: i % 3 ? [] : [`T${i}`, `U${i}`], observedAt: new Date(Date.UTC(2026, 1, 10, 9) + i * 60_000).toISOString() }));
+    const r = await importPickupRows(t.db, plant.collector, rows);
+    if (!r.ok) throw new Error(JSON.stringify(r.issues.slice(0, 3)));
+    expect(r.value).toEqual({ written: n, skipped: 0 });
+    const stored = await t.db.pickup.findMany({ where: { code: { startsWith: "M-" } }, include: { holder: true }, orderBy: { id: "asc" } });
+    expect(stored.length).toBe(n);
+    const moves = new Map((await t.db.movement.findMany({ where: { toHolderId: { in: stored.map((p) => p.holderId) } } })).map((m) => [m.toHolderId, m]));
+    for (const [i, p] of stored.entries()) {
+      expect(p.code).toBe(`M-${i}`);
+      expect(p.observedAt.toISOString()).toBe(rows[i]?.observedAt);
+      expect(p.notes).toBe(i % 2 ? `note ${i}` : "");
+      expect(p.containerTags).toBe(i % 3 ? "" : `T${i},U${i}`);
+      expect(p.holder.stockG).toBe(p.massG);
+      expect(moves.get(p.holderId)?.massG).toBe(p.massG);
+      expect(moves.get(p.holderId)?.at.getTime()).toBe(p.observedAt.getTime());
+    }
+    expect(await t.db.auditEvent.count({ where: { entity: "Pickup", entityKey: { startsWith: "M-" } } })).toBe(n);
+    expect(verifyChain(await loadChain(t.db, plant.siteId)).ok).toBe(true);
   });
 
   it("answers a retry with the first record, and refuses the same key for a different pickup", async () => {
