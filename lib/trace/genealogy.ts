@@ -63,6 +63,8 @@ export interface ForwardTrace {
   holders: ForwardHolderReach[];
   /** Every move that carried part of the set, in ledger order. */
   moves: Array<{ moveId: number; grams: number }>;
+  /** Moves replayed to answer: from the starting snapshot to where none of the set could move again. */
+  movesReplayed: number;
 }
 
 export interface TraceOptions {
@@ -243,6 +245,7 @@ export function traceForward(
   });
   if (!replayed.ok) return replayed;
   const replay = replayed.value;
+  const movesReplayed = replay.appliedCount - (from?.applied.count ?? 0);
   const heldBy = new Map<number, number>();
   if (tracksHeld) {
     for (const [h, g] of held) {
@@ -274,6 +277,7 @@ export function traceForward(
       heldG: heldBy.get(holderId) ?? 0,
     })),
     moves,
+    movesReplayed,
   });
 }
 
