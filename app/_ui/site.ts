@@ -6,6 +6,7 @@ import type { Db } from "@/lib/database/connect";
 import { getSiteById } from "@/lib/site/site.store";
 import type { SiteRow } from "@/lib/site/site.store";
 import { getSignedIn } from "@/lib/auth/request.service";
+import { warmTraceCache } from "@/lib/trace/trace.service";
 import type { SignedIn } from "@/lib/auth/request.service";
 
 /** The database, the signed-in user and their site, once per request; pages need a signed-in user. */
@@ -20,5 +21,10 @@ export const loadSite = cache(async (): Promise<{ db: Db; site: SiteRow | null; 
 export const loadHeader = cache(async (): Promise<{ site: SiteRow | null; user: SignedIn | null }> => {
   const user = await getSignedIn();
   if (!user) return { site: null, user: null };
-  return { site: await getSiteById(await getDb(), user.siteId), user };
+  const db = await getDb();
+  const site = await getSiteById(db, user.siteId);
+  // The first page a signed-in user sees starts the site's trace index (a whole-ledger replay, once per
+  // server start) so that traces, lot pages and "made of" answer from snapshots when asked.
+  if (site) warmTraceCache(db, site.id, new Date());
+  return { site, user };
 });

@@ -1,14 +1,9 @@
 import "server-only";
 import type { Db } from "@/lib/database/connect";
-import { labelOf } from "@/lib/ledger/kinds";
 import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
-import { listMovementsById, loadTraceLedger } from "@/lib/ledger/movement.store";
+import { listMovementsById } from "@/lib/ledger/movement.store";
 import type { HolderRef, TraceLedger } from "@/lib/ledger/movement.store";
-import { ok } from "@/lib/errors";
-import type { Result } from "@/lib/errors";
-import { traceForward, traceHolder } from "@/lib/trace/genealogy";
 import type { ForwardTrace, HolderTrace } from "@/lib/trace/genealogy";
-import { indexLedger } from "@/lib/trace/ledger";
 import type { LedgerIndex, TraceMove } from "@/lib/trace/ledger";
 
 export interface TitrationView {
@@ -233,48 +228,12 @@ const UPSTREAM_KINDS: ReadonlySet<HolderKind> = new Set(["PICKUP", "DELIVERY"]);
 
 export type ReplayOrder = "dated" | "booked";
 
-/** The ledger indexed by date, or by booking order (the movement id stands in for the time). */
-function indexInOrder(ledger: TraceLedger, order: ReplayOrder): Result<LedgerIndex> {
-  const moves = order === "dated" ? ledger.moves : ledger.moves.map((m) => ({ ...m, at: m.id }));
-  return indexLedger(ledger.holders, moves);
-}
 
-// The trace core names holders by id; say which tank or lot that is.
-function describeIssues(ledger: TraceLedger, issues: ReadonlyArray<{ message: string }>): string {
-  return issues
-    .map((i) => i.message.replace(/\.$/, ""))
-    .join("; ")
-    .replace(/holder (\d+)/g, (whole, id: string) => {
-      const ref = ledger.refs.get(Number(id));
-      return ref ? `${labelOf(ref.kind).toLowerCase()} ${ref.code}` : whole;
-    });
-}
-
-function traceLotForward(index: LedgerIndex, lotHolderId: number): Result<{ back: HolderTrace; fwd: ForwardTrace }> {
-  const back = traceHolder(index, lotHolderId);
-  if (!back.ok) return back;
-  const fwd = traceForward(
-    index,
-    back.value.received.origins.map((o) => o.originId),
-  );
-  if (!fwd.ok) return fwd;
-  return ok({ back: back.value, fwd: fwd.value });
-}
-
-/** Where a lot's material went: lot → tank → batch → product lot → shipment, and waste or losses. */
-export async function getLotFlow(db: Db, siteId: number, lotHolderId: number): Promise<LotFlow> {
-  const ledger = await loadTraceLedger(db, siteId);
-  const dated = indexInOrder(ledger, "dated");
-  const datedTrace = dated.ok ? traceLotForward(dated.value, lotHolderId) : dated;
-  if (dated.ok && datedTrace.ok) return describeFlow(db, siteId, ledger, lotHolderId, dated.value, datedTrace.value, "trace", null);
-  const problem = describeIssues(ledger, datedTrace.ok ? [] : datedTrace.issues);
-  const booked = indexInOrder(ledger, "booked");
-  const bookedTrace = booked.ok ? traceLotForward(booked.value, lotHolderId) : booked;
-  if (booked.ok && bookedTrace.ok) return describeFlow(db, siteId, ledger, lotHolderId, booked.value, bookedTrace.value, "booking-order", problem);
-  return timeOrderedFlow(db, siteId, ledger, lotHolderId, problem);
-}
-
-async function describeFlow(
+/**
+ * Where a lot's material went (lot → tank → batch → product lot → shipment, and waste or losses), from
+ * its backward trace and the forward trace of its origins (lot-flow.service.ts runs them on the cache).
+ */
+export async function describeLotFlow(
   db: Db,
   siteId: number,
   ledger: TraceLedger,
@@ -337,7 +296,7 @@ function moveAt(index: LedgerIndex, moveId: number) {
  * Fallback when the ledger cannot be replayed: a move out of holder H counts when it is later than the
  * first arrival of the lot's material in H. It over-states (a tank may have been emptied in between).
  */
-async function timeOrderedFlow(db: Db, siteId: number, ledger: TraceLedger, lotHolderId: number, traceProblem: string): Promise<LotFlow> {
+export async function timeOrderedFlow(db: Db, siteId: number, ledger: TraceLedger, lotHolderId: number, traceProblem: string): Promise<LotFlow> {
   const sorted = [...ledger.moves].sort((a, b) => a.at - b.at || a.id - b.id);
   const reachedAt = new Map<number, number>();
   let enteredG = 0;
@@ -399,20 +358,12 @@ export interface MadeOf {
   order: ReplayOrder;
 }
 
-export async function getMadeOf(db: Db, siteId: number, holderId: number): Promise<MadeOf | null> {
-  const ledger = await loadTraceLedger(db, siteId);
-  let order: ReplayOrder = "dated";
-  let indexed: Result<LedgerIndex> = indexInOrder(ledger, order);
-  let back: Result<HolderTrace> = indexed.ok ? traceHolder(indexed.value, holderId) : indexed;
-  if (!back.ok) {
-    order = "booked";
-    indexed = indexInOrder(ledger, order);
-    back = indexed.ok ? traceHolder(indexed.value, holderId) : indexed;
-  }
-  if (!indexed.ok || !back.ok) return null;
+/** Groups a backward trace's origins by the feedstock lot (or reagent lot) each entered through. */
+export async function describeMadeOf(db: Db, siteId: number, view: { ledger: TraceLedger; index: LedgerIndex }, back: HolderTrace, order: ReplayOrder): Promise<MadeOf> {
+  const { ledger } = view;
   const entryHolder = new Map<number, number>();
-  for (const o of back.value.received.origins) {
-    const m = moveAt(indexed.value, o.originId);
+  for (const o of back.received.origins) {
+    const m = moveAt(view.index, o.originId);
     if (m) entryHolder.set(o.originId, m.toHolderId);
   }
   // The whole site's pickups and lots: a batch from a pooled tank can go back to thousands of pickups,
@@ -425,7 +376,7 @@ export async function getMadeOf(db: Db, siteId: number, holderId: number): Promi
   for (const p of pickups) if (p.lot) lotOfHolder.set(p.holderId, p.lot.code);
   for (const l of lots) lotOfHolder.set(l.holderId, l.code);
   const groups = new Map<string, FeedstockShare>();
-  for (const o of back.value.received.origins) {
+  for (const o of back.received.origins) {
     const h = entryHolder.get(o.originId);
     const ref = h === undefined ? undefined : ledger.refs.get(h);
     const lotCode = h === undefined ? undefined : lotOfHolder.get(h);
@@ -440,7 +391,7 @@ export async function getMadeOf(db: Db, siteId: number, holderId: number): Promi
     g.grams += o.grams;
     groups.set(key, g);
   }
-  const totalG = back.value.received.totalG;
+  const totalG = back.received.totalG;
   const shares = [...groups.values()]
     .map((g) => ({ ...g, pct: totalG === 0 ? 0 : (g.grams * 100) / totalG }))
     .sort((a, b) => b.grams - a.grams || a.code.localeCompare(b.code));

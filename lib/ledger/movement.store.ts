@@ -137,6 +137,9 @@ export interface TraceLedger {
   refs: ReadonlyMap<number, HolderRef>;
   /** Movements left out of the trace because they are reversed pairs (a booking error and its correction). */
   reversedPairsLeftOut: number;
+  /** Movement rows read, reversed pairs included, and the highest id among them: where extendTraceLedger resumes. */
+  rowsRead: number;
+  lastMoveId: number;
 }
 
 /**
@@ -162,7 +165,39 @@ export async function loadTraceLedger(db: Db | Tx, siteId: number): Promise<Trac
   const moves: TraceMove[] = moveRows
     .filter((m) => !paired.has(m.id))
     .map((m) => ({ id: m.id, at: m.at.getTime(), fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG }));
-  return { holders, moves, refs, reversedPairsLeftOut: paired.size };
+  return { holders, moves, refs, reversedPairsLeftOut: paired.size, rowsRead: moveRows.length, lastMoveId: moveRows.reduce((m, r) => Math.max(m, r.id), 0) };
+}
+
+/**
+ * The ledger after more bookings, reading only what is new: holders and movements with higher ids
+ * (both are append-only) and the tanks' mixing models. Returns null when the earlier ledger cannot be
+ * extended and must be read whole: a tank changed its mixing model, a new movement reverses an earlier
+ * one (the pair leaves the trace), or the movement count does not add up (e.g. a restored backup).
+ */
+export async function extendTraceLedger(db: Db | Tx, siteId: number, ledger: TraceLedger, movementCount: number): Promise<TraceLedger | null> {
+  let lastHolderId = 0;
+  for (const id of ledger.refs.keys()) lastHolderId = Math.max(lastHolderId, id);
+  const [holderRows, tanks, moveRows] = await Promise.all([
+    db.holder.findMany({ where: { siteId, id: { gt: lastHolderId } }, select: HOLDER_SELECT }),
+    db.tank.findMany({ where: { siteId }, select: { holderId: true, mixing: true } }),
+    db.movement.findMany({ where: { siteId, id: { gt: ledger.lastMoveId } }, select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, reversesId: true } }),
+  ]);
+  if (ledger.rowsRead + moveRows.length !== movementCount) return null;
+  if (moveRows.some((m) => m.reversesId !== null)) return null;
+  const fifo = new Set(tanks.filter((t) => t.mixing === "FIFO").map((t) => t.holderId));
+  if (ledger.holders.some((h) => (h.mixing === "FIFO") !== fifo.has(h.id))) return null;
+  const refs = new Map(ledger.refs);
+  const holders = [...ledger.holders];
+  for (const row of holderRows) {
+    const ref = toRef(row);
+    refs.set(ref.id, ref);
+    holders.push({ id: ref.id, kind: ref.kind, mixing: fifo.has(ref.id) ? "FIFO" : "MIXED" });
+  }
+  // A holder committed late under a lower id than one already read: start over rather than miss it.
+  if (moveRows.some((m) => !refs.has(m.toHolderId) || (m.fromHolderId !== null && !refs.has(m.fromHolderId)))) return null;
+  const moves = [...ledger.moves];
+  for (const m of moveRows) moves.push({ id: m.id, at: m.at.getTime(), fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG });
+  return { holders, moves, refs, reversedPairsLeftOut: ledger.reversedPairsLeftOut, rowsRead: movementCount, lastMoveId: moveRows.reduce((m, r) => Math.max(m, r.id), ledger.lastMoveId) };
 }
 
 /** Movements by id with their holders, for naming the moves a trace reports. */

@@ -16,14 +16,14 @@ import { fail, failMany, invariant, ok } from "@/lib/errors";
 import type { DomainIssue, Result } from "@/lib/errors";
 import { labelOf } from "@/lib/ledger/kinds";
 import type { HolderKind } from "@/lib/ledger/kinds";
-import { loadTraceLedger } from "@/lib/ledger/movement.store";
+import { extendTraceLedger, loadTraceLedger } from "@/lib/ledger/movement.store";
 import type { HolderRef, TraceLedger } from "@/lib/ledger/movement.store";
 import { parseInput } from "@/lib/ledger/parse";
 import { allocateByWeight } from "@/lib/quantity/allocate";
 import { sumParts } from "@/lib/trace/composition";
 import type { CompositionParts } from "@/lib/trace/composition";
 import { findEntryOrigins, resumeReplay, traceForward, traceHolder } from "@/lib/trace/genealogy";
-import type { TraceComposition } from "@/lib/trace/genealogy";
+import type { ForwardTrace, HolderTrace, TraceComposition } from "@/lib/trace/genealogy";
 import { findLastPositionAtOrBefore, indexLedger } from "@/lib/trace/ledger";
 import type { LedgerIndex, TraceHolder, TraceMove } from "@/lib/trace/ledger";
 import { groupOrigins, restrictToFeedstock } from "@/lib/trace/origin-groups";
@@ -258,8 +258,10 @@ interface LedgerState {
   facts: Promise<Map<number, EntryHolderFacts>> | null;
 }
 
-const cacheHome = globalThis as unknown as { tracevatTraceCache?: Map<number, Promise<Result<LedgerState>>> };
+const cacheHome = globalThis as unknown as { tracevatTraceCache?: Map<number, Promise<Result<LedgerState>>>; tracevatTraceWarming?: Set<number> };
 const cache: Map<number, Promise<Result<LedgerState>>> = (cacheHome.tracevatTraceCache ??= new Map());
+/** Sites whose index is being built by warmTraceCache (set before the version query, so two pages start one build). */
+const warming: Set<number> = (cacheHome.tracevatTraceWarming ??= new Set());
 
 function sameVersion(a: LedgerVersion, b: LedgerVersion): boolean {
   return a.count === b.count && a.lastId === b.lastId;
@@ -333,7 +335,9 @@ function renameIssues(ledger: TraceLedger, issues: readonly DomainIssue[]): Doma
 
 async function buildState(db: Db, siteId: number, version: LedgerVersion, previous: LedgerState | null, now: Date): Promise<Result<LedgerState>> {
   const started = performance.now();
-  const [ledger, tankService] = await Promise.all([loadTraceLedger(db, siteId), listTankServices(db, siteId)]);
+  // After a booking, read only what is new (holders and movements are append-only); whole otherwise.
+  const extended = previous === null ? null : await extendTraceLedger(db, siteId, previous.ledger, version.count);
+  const [ledger, tankService] = await Promise.all([extended ?? loadTraceLedger(db, siteId), listTankServices(db, siteId)]);
   const realAt = new Map(ledger.moves.map((m) => [m.id, m.at]));
   let problem: string | null = null;
   for (const order of ["dated", "booked"] as const) {
@@ -639,6 +643,61 @@ function lastIdAtOrBefore(state: LedgerState, atMs: number): number {
   let best = 0;
   for (const [id, real] of state.realAt) if (real <= atMs && id > best) best = id;
   return best;
+}
+
+// ---- the same traces for record pages --------------------------------------------------------------
+
+/** The cached ledger and index a record page's trace ran on, to name its holders and moves. */
+export interface CachedTraceView {
+  ledger: TraceLedger;
+  index: LedgerIndex;
+  order: "dated" | "booked";
+  /** Why the date order could not be replayed, when order is "booked". */
+  orderProblem: string | null;
+}
+
+function receivedFromCache(state: LedgerState, holderId: number): Result<HolderTrace> {
+  // "received" must see every move into the holder: resume from a snapshot taken before the first.
+  const from = snapshotCovering(state, state.index.into.get(holderId)?.[0] ?? Number.POSITIVE_INFINITY);
+  const back = traceHolder(state.index, holderId, from === undefined ? {} : { from });
+  return back.ok ? back : failMany(renameIssues(state.ledger, back.issues));
+}
+
+/** What one holder (a batch, a product lot, a shipment) received, through the site's cached index and snapshots. */
+export async function traceReceived(db: Db, siteId: number, holderId: number, now: Date): Promise<Result<CachedTraceView & { back: HolderTrace }>> {
+  const state = await requireLedgerState(db, siteId, now);
+  if (!state.ok) return state;
+  const s = state.value;
+  const back = receivedFromCache(s, holderId);
+  if (!back.ok) return back;
+  return ok({ ledger: s.ledger, index: s.index, order: s.order, orderProblem: s.orderProblem, back: back.value });
+}
+
+/** A lot's own material (its backward trace) and where it went (forward from its origins), through the cache. */
+export async function traceLotMaterial(db: Db, siteId: number, lotHolderId: number, now: Date): Promise<Result<CachedTraceView & { back: HolderTrace; fwd: ForwardTrace }>> {
+  const state = await requireLedgerState(db, siteId, now);
+  if (!state.ok) return state;
+  const s = state.value;
+  const back = receivedFromCache(s, lotHolderId);
+  if (!back.ok) return back;
+  const originIds = back.value.received.origins.map((o) => o.originId);
+  const firstPos = originIds.reduce((m, id) => Math.min(m, s.index.positionOf.get(id) ?? Number.POSITIVE_INFINITY), Number.POSITIVE_INFINITY);
+  const from = snapshotCovering(s, firstPos);
+  const fwd = traceForward(s.index, originIds, from === undefined ? {} : { from });
+  if (!fwd.ok) return failMany(renameIssues(s.ledger, fwd.issues));
+  return ok({ ledger: s.ledger, index: s.index, order: s.order, orderProblem: s.orderProblem, back: back.value, fwd: fwd.value });
+}
+
+/**
+ * Starts building the site's trace index in the background if nothing is cached for it yet, so the
+ * first trace after a server start does not wait for the whole-ledger replay. Never throws.
+ */
+export function warmTraceCache(db: Db, siteId: number, now: Date): void {
+  if (cache.has(siteId) || warming.has(siteId)) return;
+  warming.add(siteId);
+  requireLedgerState(db, siteId, now)
+    .catch(() => cache.delete(siteId))
+    .finally(() => warming.delete(siteId));
 }
 
 // ---- forward ---------------------------------------------------------------------------------------

@@ -10,7 +10,7 @@ import type { Result } from "@/lib/errors";
 import { getBalanceReport } from "@/lib/mass-balance/balance.service";
 import { clearTraceCache, traceBackwardReport, traceForwardReport } from "@/lib/trace/trace.service";
 import type { BackwardTraceReport, ContributionTables } from "@/lib/trace/trace.service";
-import { getLotFlow, getMadeOf } from "@/lib/feedstock/lot-detail.store";
+import { getLotFlow, getMadeOf } from "@/lib/feedstock/lot-flow.service";
 import { getCustodyReport } from "@/lib/custody/custody.service";
 import { reopenPeriod } from "@/lib/period/period.service";
 
@@ -147,7 +147,7 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
     expect(sum(r.feedstock.byLot.map((x) => x.pct))).toBeCloseTo(100, 9);
     expect(sum(r.origins.map((o) => o.grams))).toBe(product.massG);
     expect(r.reagentsG).toBeGreaterThan(0);
-    const madeOf = await getMadeOf(t.db, site.id, product.holderId);
+    const madeOf = await getMadeOf(t.db, site.id, product.holderId, NOW);
     if (madeOf === null) throw new Error("product page trace failed");
     for (const share of madeOf.shares.filter((s) => s.kind === "LOT")) {
       expect(r.all.byLot.find((row) => row.lotCode === share.code)?.grams, share.code).toBe(share.grams);
@@ -163,7 +163,7 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
   it("follows an early lot forward to where the backward traces of the places it reached find it", async () => {
     const lot = await t.db.feedstockLot.findFirstOrThrow({ where: { status: { in: ["ACCEPTED", "CONSUMED"] }, certified: true }, orderBy: [{ receivedAt: "asc" }, { id: "asc" }], skip: 2 });
     const f = value(await traceForwardReport(t.db, site.id, { kind: "LOT", code: lot.code }, NOW));
-    const flow = await getLotFlow(t.db, site.id, lot.holderId);
+    const flow = await getLotFlow(t.db, site.id, lot.holderId, NOW);
     expect(flow.method).toBe("trace");
     expect(f.enteredG).toBe(flow.enteredG);
     expect(sum(f.heldByStage.map((s) => s.grams))).toBe(f.enteredG);

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/ledger/kinds";
 import { getBatchDetail } from "@/lib/batch/batch.store";
-import { getMadeOf } from "@/lib/feedstock/lot-detail.store";
+import { getMadeOf } from "@/lib/feedstock/lot-flow.service";
 import { kg, num, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
 import { MadeOf } from "@/app/_ui/made-of";
@@ -34,7 +34,7 @@ export default async function BatchPage({ params }: Props) {
   if (!site) return <NoSite />;
   const b = await getBatchDetail(db, site.id, codeParam((await params).code));
   if (!b) notFound();
-  const madeOf = b.charges.length > 0 ? await getMadeOf(db, site.id, b.holderId) : { totalG: 0, shares: [], order: "dated" as const };
+  const madeOf = b.charges.length > 0 ? await getMadeOf(db, site.id, b.holderId, new Date()) : { totalG: 0, shares: [], order: "dated" as const };
   const tz = site.timeZone;
   const chargedG = b.charges.reduce((s, m) => s + m.massG, 0);
   const outG = b.outputs.reduce((s, m) => s + m.massG, 0);

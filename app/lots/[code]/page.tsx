@@ -2,7 +2,8 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/ledger/kinds";
-import { getLotDetail, getLotFlow } from "@/lib/feedstock/lot-detail.store";
+import { getLotDetail } from "@/lib/feedstock/lot-detail.store";
+import { getLotFlow } from "@/lib/feedstock/lot-flow.service";
 import type { LotFlow } from "@/lib/feedstock/lot-detail.store";
 import { kg, kgExact, litres, num, pct, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
@@ -22,7 +23,7 @@ export default async function LotPage({ params }: Props) {
   if (!site) return <NoSite />;
   const lot = await getLotDetail(db, site.id, codeParam((await params).code));
   if (!lot) notFound();
-  const flow = await getLotFlow(db, site.id, lot.holderId);
+  const flow = await getLotFlow(db, site.id, lot.holderId, new Date());
   const tz = site.timeZone;
   const ffa = lot.titrations.filter((t) => !t.voided);
   return (

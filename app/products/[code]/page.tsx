@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/ledger/kinds";
-import { getMadeOf } from "@/lib/feedstock/lot-detail.store";
+import { getMadeOf } from "@/lib/feedstock/lot-flow.service";
 import { getProductLotDetail } from "@/lib/product/product.store";
 import { kg, kgExact, litres, num, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
@@ -30,7 +30,7 @@ export default async function ProductLotPage({ params }: Props) {
   if (!site) return <NoSite />;
   const p = await getProductLotDetail(db, site.id, codeParam((await params).code));
   if (!p) notFound();
-  const madeOf = p.incoming.length > 0 ? await getMadeOf(db, site.id, p.holderId) : { totalG: 0, shares: [], order: "dated" as const };
+  const madeOf = p.incoming.length > 0 ? await getMadeOf(db, site.id, p.holderId, new Date()) : { totalG: 0, shares: [], order: "dated" as const };
   const tz = site.timeZone;
   const shipments = p.outgoing.filter((m) => m.to.kind === "SHIPMENT");
   const transfers = p.outgoing.filter((m) => m.to.kind !== "SHIPMENT");

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { getMadeOf } from "@/lib/feedstock/lot-detail.store";
+import { getMadeOf } from "@/lib/feedstock/lot-flow.service";
 import { getShipmentDetail } from "@/lib/product/product.store";
 import { kg, litres, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
@@ -22,7 +22,7 @@ export default async function ShipmentPage({ params }: Props) {
   if (!site) return <NoSite />;
   const s = await getShipmentDetail(db, site.id, codeParam((await params).documentNo));
   if (!s) notFound();
-  const madeOf = await getMadeOf(db, site.id, s.holderId);
+  const madeOf = await getMadeOf(db, site.id, s.holderId, new Date());
   const tz = site.timeZone;
   return (
     <>
