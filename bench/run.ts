@@ -226,7 +226,8 @@ for (const years of SIZES) {
     const layer = latest?.holders.find((x) => x.holderId === holder?.id)?.layers[0];
     return `${code} ${layer?.originIds.length ?? 0}`;
   });
-  tankLines.push(`  ${years}y origins per tank at the snapshot: ${tankSizes.join(", ")}; resume without sinks (what-if): ${formatMs(restoreWithoutSinks.medianMs)} ms median, ${latestWithoutSinks.holders.length} holders.`);
+  const leanEntries = latestWithoutSinks.holders.reduce((n, x) => n + x.layers.reduce((m, l) => m + l.originIds.length, 0), 0);
+  tankLines.push(`  ${years}y origins per tank at the snapshot: ${tankSizes.join(", ")}; without sinks (what the app keeps): ${latestWithoutSinks.holders.length} holders, ${leanEntries} origin entries, ${mb(JSON.stringify(latestWithoutSinks).length)} MB JSON, resumed in ${formatMs(restoreWithoutSinks.medianMs)} ms median.`);
   let entries = 0;
   const byKind = new Map<string, number>();
   for (const s of latest.holders) {

@@ -42,6 +42,9 @@ export const HOLDER_KINDS = [
 ] as const;
 export type HolderKind = (typeof HOLDER_KINDS)[number];
 
+/** Where material leaves the books: no service draws from these (shipments, disposals, recorded losses). */
+export const TERMINAL_KINDS: ReadonlySet<HolderKind> = new Set<HolderKind>(["SHIPMENT", "DISPOSAL", "LOSS"]);
+
 /** What a movement is, seen from the process. */
 export const MOVE_ROLES = [
   "RECEIPT", "TRANSFER", "OIL", "METHANOL", "CATALYST", "ACID", "WATER",

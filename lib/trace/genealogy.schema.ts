@@ -55,4 +55,5 @@ export const ReplaySnapshotSchema = z.object({
       ),
     }),
   ),
+  leftOut: z.array(z.number().int()).optional(),
 });

@@ -1,4 +1,4 @@
-import { fail, failMany, ok } from "@/lib/errors";
+import { fail, failMany, invariant, ok } from "@/lib/errors";
 import type { Result } from "@/lib/errors";
 import { addToLayer, copyToLayer, EMPTY_PARTS, mergeAllParts, settleLayer, takeFromLayer } from "@/lib/trace/composition";
 import type { CompositionParts, MutableLayer } from "@/lib/trace/composition";
@@ -31,8 +31,12 @@ export interface Replay {
   getLayers(holderId: number): ReadonlyArray<{ enteredByMoveId: number; parts: CompositionParts }>;
   /** Ids of holders with stock > 0. */
   listStockedHolderIds(): number[];
-  /** Plain-JSON copy of the state, to store and resume from (resumeReplay checks it against the ledger). */
-  snapshot(): ReplaySnapshot;
+  /**
+   * Plain-JSON copy of the state, to store and resume from (resumeReplay checks it against the ledger).
+   * With `leaveOut`, those holders are not copied: holders nothing is ever drawn from (shipments,
+   * disposals, losses) keep every origin they received, and no later move depends on their mixture.
+   */
+  snapshot(leaveOut?: (holderId: number) => boolean): ReplaySnapshot;
 }
 
 export interface ReplayPosition {
@@ -51,6 +55,8 @@ export interface ReplaySnapshot {
     mixing: Mixing;
     layers: Array<{ enteredByMoveId: number; originIds: number[]; grams: number[] }>;
   }>;
+  /** Holders that held material but were not copied (snapshot's leaveOut): a replay restored from it cannot describe them. */
+  leftOut?: number[];
 }
 
 interface Layer extends MutableLayer {
@@ -111,15 +117,22 @@ export function restoreReplay(holders: ReadonlyMap<number, TraceHolder>, snapsho
     }
     states.set(h.holderId, { mixing: h.mixing, totalG: layers.reduce((s, l) => s + l.totalG, 0), layers, head: 0 });
   }
+  const leftOut = new Set(snapshot.leftOut ?? []);
+  for (const id of leftOut) {
+    if (only?.has(id) === true) bad(id, "was left out of this snapshot, so a trace that needs its mixture must start before it received anything.");
+  }
   if (issues.length > 0) return failMany(issues);
-  return ok(buildReplay(holders, states, { ...snapshot.applied }));
+  return ok(buildReplay(holders, states, { ...snapshot.applied }, only === undefined ? leftOut : new Set()));
 }
 
 function buildReplay(
   holders: ReadonlyMap<number, TraceHolder>,
   states: Map<number, HolderState>,
   applied: { count: number; massSumG: number; last: ReplayPosition | null },
+  unknown: ReadonlySet<number> = new Set(),
 ): Replay {
+  /** Holders whose mixture the restored snapshot did not carry: reading one is a programming error, not a zero. */
+  const known = (holderId: number): void => invariant(!unknown.has(holderId), `holder ${holderId} was left out of the snapshot this replay resumed`);
   const stateOf = (holderId: number): HolderState | undefined => states.get(holderId);
 
   const requireState = (holderId: number): HolderState => {
@@ -231,15 +244,18 @@ function buildReplay(
       return ok(parts);
     },
     getStockG(holderId) {
+      known(holderId);
       return stateOf(holderId)?.totalG ?? 0;
     },
     getComposition(holderId) {
+      known(holderId);
       const s = stateOf(holderId);
       if (s === undefined) return EMPTY_PARTS;
       const merged = mergeAllParts(liveLayers(s));
       return { originIds: [...merged.originIds], grams: [...merged.grams] };
     },
     getLayers(holderId) {
+      known(holderId);
       const s = stateOf(holderId);
       return s === undefined
         ? []
@@ -248,12 +264,15 @@ function buildReplay(
     listStockedHolderIds() {
       return [...states].filter(([, s]) => s.totalG > 0).map(([id]) => id).sort((a, b) => a - b);
     },
-    snapshot() {
+    snapshot(leaveOut) {
+      const leftOut = [...states].filter(([holderId, s]) => s.totalG > 0 && leaveOut?.(holderId) === true).map(([holderId]) => holderId);
+      for (const id of unknown) if (!leftOut.includes(id)) leftOut.push(id);
       return {
         format: REPLAY_SNAPSHOT_FORMAT,
+        ...(leftOut.length > 0 ? { leftOut: leftOut.sort((a, b) => a - b) } : {}),
         applied: { count: applied.count, massSumG: applied.massSumG, last: applied.last === null ? null : { ...applied.last } },
         holders: [...states]
-          .filter(([, s]) => s.totalG > 0)
+          .filter(([holderId, s]) => s.totalG > 0 && leaveOut?.(holderId) !== true && !unknown.has(holderId))
           .sort((a, b) => a[0] - b[0])
           .map(([holderId, s]) => ({
             holderId,

@@ -14,7 +14,7 @@ import type { BackwardKind, ForwardKind } from "@/lib/api/endpoints/trace";
 import type { Db } from "@/lib/database/connect";
 import { fail, failMany, invariant, ok } from "@/lib/errors";
 import type { DomainIssue, Result } from "@/lib/errors";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf, TERMINAL_KINDS } from "@/lib/ledger/kinds";
 import type { HolderKind } from "@/lib/ledger/kinds";
 import { extendTraceLedger, loadTraceLedger } from "@/lib/ledger/movement.store";
 import type { HolderRef, TraceLedger } from "@/lib/ledger/movement.store";
@@ -233,8 +233,12 @@ function stageLabelOf(ref: HolderRef, stage: number): string {
 
 // ---- the per-site ledger cache --------------------------------------------------------------------
 
-/** Monthly snapshots kept per site; older months are dropped (a trace then resumes from an earlier start). */
-export const MAX_SNAPSHOTS = 36;
+/**
+ * Monthly snapshots kept per site (twenty years); older months are dropped (a trace then resumes from
+ * an earlier start). Without the terminal holders a month's snapshot is the tanks', lots' and open
+ * batches' mixtures: about 20 holders and 5,000 origin entries on the ten-year bench plant.
+ */
+export const MAX_SNAPSHOTS = 240;
 /** Answers kept per site and ledger version. */
 const MAX_CACHED_ANSWERS = 64;
 
@@ -289,8 +293,26 @@ function monthStartAfter(at: number): number {
  * month start crossed (UTC months; booking-order indexes use the real dates). Fails when the ledger
  * cannot be replayed in this order.
  */
+/**
+ * Which holders a snapshot may leave out: shipments, disposals and losses, which keep every origin they
+ * ever received (nearly all of a full snapshot's size) and which nothing is drawn from, so no later move
+ * depends on their mixture. A backward trace of one of them resumes from before its first receipt.
+ * Undefined (leave nothing out) if the ledger does draw from one.
+ */
+function terminalHolders(index: LedgerIndex): ((holderId: number) => boolean) | undefined {
+  const terminal = new Set<number>();
+  for (const h of index.holders.values()) {
+    if (!TERMINAL_KINDS.has(h.kind)) continue;
+    if (index.outOf.has(h.id)) return undefined;
+    terminal.add(h.id);
+  }
+  return (holderId) => terminal.has(holderId);
+}
+
 function extendSnapshots(index: LedgerIndex, kept: readonly ReplaySnapshot[], realAt: ReadonlyMap<number, number>): Result<ReplaySnapshot[]> {
-  const snapshots = [...kept];
+  const leaveOut = terminalHolders(index);
+  // Snapshots that left terminal holders out cannot serve a ledger that draws from one.
+  const snapshots = leaveOut === undefined ? [] : [...kept];
   const base = snapshots[snapshots.length - 1];
   let replay: Replay;
   if (base === undefined) replay = createReplay(index.holders);
@@ -308,7 +330,7 @@ function extendSnapshots(index: LedgerIndex, kept: readonly ReplaySnapshot[], re
     const move = index.moves[pos];
     if (move === undefined) break;
     if (timeOf(move) >= boundary) {
-      if (pos > 0) snapshots.push(replay.snapshot());
+      if (pos > 0) snapshots.push(replay.snapshot(leaveOut));
       boundary = monthStartAfter(timeOf(move));
     }
     const applied = replay.apply(move);

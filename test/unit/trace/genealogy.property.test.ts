@@ -265,6 +265,47 @@ describe("trace invariants over random ledgers (our own consistency checks)", ()
       RUNS,
     );
   });
+
+  it("invariant: a snapshot that leaves out never-drawn holders answers every other trace as a full one does", () => {
+    fc.assert(
+      fc.property(historyArb, fc.nat(), (history, cut) => {
+        const index = requireIndex(history.holders, shuffled(history));
+        const k = cut % (index.moves.length + 1);
+        const head = replayLedger(index, { until: index.moves[k - 1]?.at ?? Number.NEGATIVE_INFINITY });
+        if (!head.ok) throw new Error(JSON.stringify(head.issues));
+        const neverDrawn = new Set(history.holders.filter((h) => !index.outOf.has(h.id)).map((h) => h.id));
+        const full = head.value.snapshot();
+        const lean = ReplaySnapshotSchema.parse(JSON.parse(JSON.stringify(head.value.snapshot((id) => neverDrawn.has(id)))));
+        expect(lean.holders.every((x) => !neverDrawn.has(x.holderId))).toBe(true);
+        expect(lean.leftOut ?? []).toEqual(full.holders.filter((x) => neverDrawn.has(x.holderId)).map((x) => x.holderId));
+        for (const h of history.holders) {
+          const warm = traceHolder(index, h.id, { from: lean });
+          if ((lean.leftOut ?? []).includes(h.id)) {
+            // Its mixture is not in the snapshot: refused, never answered as if it were empty.
+            expect(!warm.ok && warm.issues[0]?.code).toBe("TRACE.SNAPSHOT_INVALID");
+            continue;
+          }
+          const cold = traceHolder(index, h.id, { from: full });
+          if (!cold.ok || !warm.ok) throw new Error(JSON.stringify([cold, warm]));
+          expect(warm.value.stock).toEqual(cold.value.stock);
+          expect(warm.value.received).toEqual(cold.value.received);
+        }
+        for (const m of index.moves.slice(k)) expect(traceMove(index, m.id, { from: lean })).toEqual(traceMove(index, m.id, { from: full }));
+        // Resumed whole, the replay carries on for every other holder, and refuses to describe a left-out one.
+        const resumed = resumeReplay(index, lean);
+        if (!resumed.ok) throw new Error(JSON.stringify(resumed.issues));
+        for (const m of index.moves.slice(lean.applied.count)) expect(resumed.value.apply(m).ok).toBe(true);
+        const end = replayLedger(index);
+        if (!end.ok) throw new Error(JSON.stringify(end.issues));
+        for (const h of history.holders) {
+          if ((lean.leftOut ?? []).includes(h.id)) expect(() => resumed.value.getComposition(h.id)).toThrow(/left out/);
+          else expect(resumed.value.getComposition(h.id)).toEqual(end.value.getComposition(h.id));
+        }
+        expect(resumed.value.snapshot((id) => neverDrawn.has(id)).leftOut ?? []).toEqual(expect.arrayContaining(lean.leftOut ?? []));
+      }),
+      RUNS,
+    );
+  });
 });
 
 // ---- cycle search against a brute-force enumeration of time-ordered chains ----
