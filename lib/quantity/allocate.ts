@@ -31,42 +31,51 @@ export function allocateByWeight<K>(total: number, weights: ReadonlyArray<readon
  * order. For the replay's hot path, where a tank's mixture can hold thousands of origins.
  */
 export function allocateWholeGrams(total: number, weights: readonly number[], sum: number): number[] {
+  const out = new Float64Array(weights.length);
+  allocateWholeGramsInto(total, weights, sum, out);
+  return Array.from(out);
+}
+
+/** allocateWholeGrams writing the parts into out[0..weights.length) (a buffer the caller reuses). */
+export function allocateWholeGramsInto(total: number, weights: readonly number[], sum: number, out: Float64Array): void {
   invariant(Number.isSafeInteger(total) && total >= 0, `total must be a non-negative integer, got ${total}`);
   const n = weights.length;
-  const parts = new Array<number>(n);
-  if (total === 0 || n === 0) return parts.fill(0);
+  invariant(out.length >= n, "the output buffer is shorter than the weights");
+  if (total === 0 || n === 0) {
+    out.fill(0, 0, n);
+    return;
+  }
   invariant(sum > 0, "weights must add up to more than zero");
   const rems = scratch(0, n);
   let given = 0;
   for (let i = 0; i < n; i++) {
     const w = weights[i] ?? 0;
-    invariant(w > 0, `weight ${i} must be positive, got ${w}`);
+    if (!(w > 0)) invariant(false, `weight ${i} must be positive, got ${w}`);
     const exact = (total * w) / sum;
     const floor = Math.floor(exact);
-    parts[i] = floor;
+    out[i] = floor;
     rems[i] = exact - floor;
     given += floor;
   }
   let left = Math.min(total - given, n);
-  if (left <= 0) return parts;
+  if (left <= 0) return;
   // The spare grams go to the `left` largest remainders, the lower index first among equals: every
   // remainder above the threshold (the left-th largest) gets one, then equal ones in index order.
   const copy = scratch(1, n);
-  copy.set(rems);
+  copy.set(rems.subarray(0, n));
   const threshold = selectAscending(copy, n, n - left);
   for (let i = 0; i < n && left > 0; i++) {
     if ((rems[i] ?? 0) > threshold) {
-      parts[i] = (parts[i] ?? 0) + 1;
+      out[i] = (out[i] ?? 0) + 1;
       left--;
     }
   }
   for (let i = 0; i < n && left > 0; i++) {
     if (rems[i] === threshold) {
-      parts[i] = (parts[i] ?? 0) + 1;
+      out[i] = (out[i] ?? 0) + 1;
       left--;
     }
   }
-  return parts;
 }
 
 const scratchBuffers: [Float64Array, Float64Array] = [new Float64Array(1024), new Float64Array(1024)];

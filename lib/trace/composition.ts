@@ -1,5 +1,5 @@
 import { invariant } from "@/lib/errors";
-import { allocateWholeGrams } from "@/lib/quantity/allocate";
+import { allocateWholeGramsInto } from "@/lib/quantity/allocate";
 
 /**
  * Grams per origin, as two parallel arrays sorted by ascending origin id with every entry > 0.
@@ -83,6 +83,10 @@ export interface MutableLayer {
 }
 
 const SETTLE_AT_LEAST = 1024;
+/** Pending entries settled by in-place insertion; more are merged in one pass. */
+const INSERT_UP_TO = 32;
+/** takeFromLayer's split, reused from draw to draw (the replay is single-threaded and does not re-enter). */
+let splitBuffer = new Float64Array(1024);
 
 export function copyToLayer(parts: CompositionParts): MutableLayer {
   return { originIds: [...parts.originIds], grams: [...parts.grams], totalG: sumParts(parts), pending: [], pendingLength: 0 };
@@ -91,6 +95,24 @@ export function copyToLayer(parts: CompositionParts): MutableLayer {
 /** Merges pending deposits into the layer; call before reading or drawing from it. */
 export function settleLayer(layer: MutableLayer): MutableLayer {
   if (layer.pending.length === 0) return layer;
+  if (layer.pendingLength <= INSERT_UP_TO) {
+    // A few entries into a large pool: insert in place rather than rebuild both arrays.
+    for (const part of layer.pending) {
+      for (let k = 0; k < part.originIds.length; k++) {
+        const id = part.originIds[k] ?? 0;
+        const g = part.grams[k] ?? 0;
+        const at = findInsertion(layer.originIds, id);
+        if (layer.originIds[at] === id) layer.grams[at] = (layer.grams[at] ?? 0) + g;
+        else {
+          layer.originIds.splice(at, 0, id);
+          layer.grams.splice(at, 0, g);
+        }
+      }
+    }
+    layer.pending = [];
+    layer.pendingLength = 0;
+    return layer;
+  }
   const merged = mergeParts(layer, mergeAllParts(layer.pending));
   layer.originIds = merged.originIds;
   layer.grams = merged.grams;
@@ -116,9 +138,14 @@ export function takeFromLayer(layer: MutableLayer, massG: number): CompositionPa
     return all;
   }
   const n = layer.originIds.length;
-  const allocation = allocateWholeGrams(massG, layer.grams, layer.totalG);
-  const takenIds: number[] = [];
-  const takenGrams: number[] = [];
+  if (splitBuffer.length < n) splitBuffer = new Float64Array(Math.max(n, splitBuffer.length * 2));
+  const allocation = splitBuffer;
+  allocateWholeGramsInto(massG, layer.grams, layer.totalG, allocation);
+  let taken = 0;
+  for (let i = 0; i < n; i++) if ((allocation[i] ?? 0) > 0) taken++;
+  const takenIds = new Array<number>(taken);
+  const takenGrams = new Array<number>(taken);
+  let t = 0;
   let kept = 0;
   for (let i = 0; i < n; i++) {
     const part = allocation[i] ?? 0;
@@ -126,8 +153,9 @@ export function takeFromLayer(layer: MutableLayer, massG: number): CompositionPa
     const held = layer.grams[i] ?? 0;
     if (part > held) invariant(false, `split gave origin ${id} ${part} g of its ${held} g`);
     if (part > 0) {
-      takenIds.push(id);
-      takenGrams.push(part);
+      takenIds[t] = id;
+      takenGrams[t] = part;
+      t++;
     }
     if (held > part) {
       layer.originIds[kept] = id;

@@ -4,11 +4,12 @@ import "server-only";
 // source, material kind and certification, with a stage graph.
 //
 // Cost: a cold backward trace replays the target's ancestor subgraph (≈ the whole ledger once tanks
-// pool); a forward trace replays every move after the origins entered. The server keeps, per site,
-// one index of the ledger plus monthly replay snapshots, keyed by the ledger version (movement count
-// and last id: movements are append-only, so any booking changes it). A trace resumes from the last
-// snapshot before the moves it needs; answers are kept per version, so the page, its CSV and the API
-// share one computation.
+// pool); a forward trace replays from before the origins entered until none of them can move again.
+// The server keeps, per site, one index of the ledger plus monthly replay snapshots (without the
+// terminal holders), keyed by the ledger version (movement count and last id: movements are
+// append-only, so any booking changes it, and the next index reads only the new rows). A trace resumes
+// from the last snapshot before the moves it needs; answers are kept per version, so the page, its CSV,
+// the API and the record pages share one computation.
 import { BackwardTraceQuerySchema, ForwardTraceQuerySchema } from "@/lib/api/endpoints/trace";
 import type { BackwardKind, ForwardKind } from "@/lib/api/endpoints/trace";
 import type { Db } from "@/lib/database/connect";
