@@ -3,7 +3,7 @@
 //   process view: batch inputs (oil + reagents) = batch outputs (ester, glycerol phase, wash water,
 //                 recovered methanol, recorded losses) + unaccounted
 // and book stock against measured tank gauges.
-import { failMany, invariant, ok } from "@/lib/errors";
+import { failMany, ok } from "@/lib/errors";
 import type { DomainIssue, Result } from "@/lib/errors";
 import { BATCH_INPUT_ROLES, BATCH_OUTPUT_ROLES, MOVE_ROLES } from "@/lib/ledger/kinds";
 import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
@@ -142,6 +142,7 @@ export interface StockView {
   imbalanceG: number;
   closure: Closure;
   byRole: Record<MoveRole, RoleFlow>;
+  /** In-scope holders with stock at the start or the end of the period (every other one is empty at both ends). */
   byHolder: HolderStock[];
   /** Holders whose book stock dropped below zero at some movement up to the period end: a movement in is missing. */
   negativeStock: NegativeStock[];
@@ -214,14 +215,32 @@ export function validateTolerance(tolerance: ClosureTolerance, field = "toleranc
 
 /** Checks the ledger itself: known holders, positive whole grams, valid instants, no move to itself. */
 export function validateLedger(holders: readonly BalanceHolder[], moves: readonly BalanceMove[]): DomainIssue[] {
+  return slotLedger(holders, moves).issues;
+}
+
+/**
+ * Checks the ledger and numbers each movement's holders by their position in `holders` (-1 for "enters
+ * the books here"), so the passes below index typed arrays instead of maps.
+ */
+function slotLedger(holders: readonly BalanceHolder[], moves: readonly BalanceMove[]): { issues: DomainIssue[]; from: Int32Array; to: Int32Array } {
   const issues: DomainIssue[] = [];
-  const ids = new Set<number>();
-  holders.forEach((h, i) => {
-    if (ids.has(h.id)) issues.push({ code: "MASS_BALANCE.DUPLICATE_HOLDER", message: `Holder ${h.id} is listed twice`, field: `holders.${i}.id` });
-    ids.add(h.id);
-  });
+  const slotOf = new Map<number, number>();
+  for (let i = 0; i < holders.length; i++) {
+    const h = holders[i] as BalanceHolder;
+    if (slotOf.has(h.id)) issues.push({ code: "MASS_BALANCE.DUPLICATE_HOLDER", message: `Holder ${h.id} is listed twice`, field: `holders.${i}.id` });
+    else slotOf.set(h.id, i);
+  }
+  // Holder ids are database ids, dense from 1: look them up in an array when they are.
+  let maxId = -1;
+  for (const h of holders) maxId = Number.isSafeInteger(h.id) && h.id >= 0 ? Math.max(maxId, h.id) : Number.POSITIVE_INFINITY;
+  const dense = maxId <= 4 * holders.length + 1024 ? new Int32Array(maxId + 1).fill(-2) : null;
+  if (dense !== null) for (const [id, slot] of slotOf) dense[id] = slot;
+  const slotFor = (id: number): number => (dense !== null ? (Number.isInteger(id) && id >= 0 && id <= maxId ? (dense[id] as number) : -2) : (slotOf.get(id) ?? -2));
   const roles = new Set<string>(MOVE_ROLES);
-  moves.forEach((m, i) => {
+  const from = new Int32Array(moves.length);
+  const to = new Int32Array(moves.length);
+  for (let i = 0; i < moves.length; i++) {
+    const m = moves[i] as BalanceMove;
     if (!Number.isSafeInteger(m.massG) || m.massG <= 0) {
       issues.push({ code: "MASS_BALANCE.INVALID_MASS", message: `Movement ${m.id}: mass must be a whole number of grams above 0, got ${m.massG}`, field: `moves.${i}.massG` });
     }
@@ -231,17 +250,21 @@ export function validateLedger(holders: readonly BalanceHolder[], moves: readonl
     if (!roles.has(m.role)) {
       issues.push({ code: "MASS_BALANCE.UNKNOWN_ROLE", message: `Movement ${m.id}: unknown role ${m.role}`, field: `moves.${i}.role` });
     }
-    if (m.fromHolderId !== null && !ids.has(m.fromHolderId)) {
+    const fromSlot = m.fromHolderId === null ? -1 : slotFor(m.fromHolderId);
+    if (fromSlot === -2) {
       issues.push({ code: "MASS_BALANCE.UNKNOWN_HOLDER", message: `Movement ${m.id}: from-holder ${m.fromHolderId} is not in the list`, field: `moves.${i}.fromHolderId` });
     }
-    if (!ids.has(m.toHolderId)) {
+    const toSlot = slotFor(m.toHolderId);
+    if (toSlot === -2) {
       issues.push({ code: "MASS_BALANCE.UNKNOWN_HOLDER", message: `Movement ${m.id}: to-holder ${m.toHolderId} is not in the list`, field: `moves.${i}.toHolderId` });
     }
     if (m.fromHolderId === m.toHolderId) {
       issues.push({ code: "MASS_BALANCE.SELF_MOVE", message: `Movement ${m.id}: from and to are the same holder`, field: `moves.${i}.toHolderId` });
     }
-  });
-  return issues;
+    from[i] = fromSlot;
+    to[i] = toSlot;
+  }
+  return { issues, from, to };
 }
 
 function emptyRoleFlows(): Record<MoveRole, RoleFlow> {
@@ -263,46 +286,89 @@ function stockBefore(moves: readonly BalanceMove[], t: number, inclusive = false
   return s;
 }
 
-/** Book stock of every holder before `startMs` and before `endMs`, in one pass. */
-function stockAtBothEnds(moves: readonly BalanceMove[], startMs: number, endMs: number): { opening: Map<number, number>; closing: Map<number, number> } {
-  const opening = new Map<number, number>();
-  const closing = new Map<number, number>();
-  const add = (s: Map<number, number>, id: number, g: number) => s.set(id, (s.get(id) ?? 0) + g);
-  for (const m of moves) {
+/**
+ * One walk of the ledger in (time, id) order up to `endMs`: every holder's book stock before `startMs`
+ * (opening) and before `endMs` (closing), and the first movement at which each watched holder's stock
+ * is below zero. All movements stamped at the same instant are applied before checking, so their order
+ * within the instant does not matter.
+ */
+function walkStock(
+  moves: readonly BalanceMove[],
+  slots: { from: Int32Array; to: Int32Array },
+  holders: readonly BalanceHolder[],
+  startMs: number,
+  endMs: number,
+  watched: Uint8Array,
+): { opening: Float64Array; closing: Float64Array; negativeStock: NegativeStock[] } {
+  // Positions in (time, id) order; a ledger read in that order (the usual case) is not sorted again.
+  const all = new Int32Array(moves.length);
+  let count = 0;
+  let sorted = true;
+  for (let i = 0; i < moves.length; i++) {
+    const m = moves[i] as BalanceMove;
     if (m.at >= endMs) continue;
-    add(closing, m.toHolderId, m.massG);
-    if (m.fromHolderId !== null) add(closing, m.fromHolderId, -m.massG);
-    if (m.at >= startMs) continue;
-    add(opening, m.toHolderId, m.massG);
-    if (m.fromHolderId !== null) add(opening, m.fromHolderId, -m.massG);
+    const prev = count === 0 ? undefined : moves[all[count - 1] as number];
+    if (prev !== undefined && (prev.at > m.at || (prev.at === m.at && prev.id > m.id))) sorted = false;
+    all[count++] = i;
   }
-  return { opening, closing };
+  const order = all.subarray(0, count);
+  if (!sorted) order.sort((a, b) => (moves[a] as BalanceMove).at - (moves[b] as BalanceMove).at || (moves[a] as BalanceMove).id - (moves[b] as BalanceMove).id);
+  const running = new Float64Array(holders.length);
+  let opening: Float64Array | null = null;
+  const found = new Uint8Array(holders.length);
+  const negativeStock: NegativeStock[] = [];
+  for (let g = 0; g < order.length; ) {
+    const at = (moves[order[g] as number] as BalanceMove).at;
+    if (opening === null && at >= startMs) opening = running.slice();
+    let end = g;
+    for (; end < order.length && (moves[order[end] as number] as BalanceMove).at === at; end++) {
+      const i = order[end] as number;
+      const massG = (moves[i] as BalanceMove).massG;
+      running[slots.to[i] as number] = (running[slots.to[i] as number] as number) + massG;
+      const f = slots.from[i] as number;
+      if (f >= 0) running[f] = (running[f] as number) - massG;
+    }
+    for (let k = g; k < end; k++) {
+      const i = order[k] as number;
+      const f = slots.from[i] as number;
+      if (f < 0 || found[f] === 1 || watched[f] !== 1) continue;
+      const balanceG = running[f] as number;
+      if (balanceG < 0) {
+        found[f] = 1;
+        negativeStock.push({ holderId: (holders[f] as BalanceHolder).id, at, moveId: (moves[i] as BalanceMove).id, balanceG });
+      }
+    }
+    g = end;
+  }
+  return { opening: opening ?? running.slice(), closing: running, negativeStock };
 }
 
 /** Mass balance of one site (optionally one material kind) over [startMs, endMs). */
 export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBalance> {
   const { holders, moves, period, scope } = input;
   const tolerance = input.tolerance ?? DEFAULT_CLOSURE_TOLERANCE;
-  const issues = [...validateLedger(holders, moves), ...validateTolerance(tolerance)];
+  const slots = slotLedger(holders, moves);
+  const issues = [...slots.issues, ...validateTolerance(tolerance)];
   if (!Number.isSafeInteger(period.startMs) || !Number.isSafeInteger(period.endMs) || period.endMs <= period.startMs) {
     issues.push({ code: "MASS_BALANCE.INVALID_PERIOD", message: "Period end must be after its start", field: "period.endMs" });
   }
   if (issues.length > 0) return failMany(issues);
 
   const classes = scope.holderClasses ?? DEFAULT_HOLDER_CLASSES;
-  const byId = new Map(holders.map((h) => [h.id, h]));
-  const holderOf = (id: number): BalanceHolder => {
-    const h = byId.get(id);
-    invariant(h !== undefined, `holder ${id} was validated above`);
-    return h;
-  };
   const inScope = (h: BalanceHolder): boolean =>
     classes[h.kind] === "STOCK" && h.siteId === scope.siteId && (scope.materialKind === undefined || h.materialKind === scope.materialKind);
+  const scopedSlot = new Uint8Array(holders.length);
+  holders.forEach((h, i) => (scopedSlot[i] = inScope(h) ? 1 : 0));
 
-  // Stock view.
-  const { opening, closing } = stockAtBothEnds(moves, period.startMs, period.endMs);
-  const scoped = holders.filter(inScope);
-  const byHolder: HolderStock[] = scoped.map((h) => ({ holderId: h.id, kind: h.kind, openingG: opening.get(h.id) ?? 0, closingG: closing.get(h.id) ?? 0 }));
+  // Stock view: opening and closing stock and negative stock in one walk.
+  const { opening, closing, negativeStock } = walkStock(moves, slots, holders, period.startMs, period.endMs, scopedSlot);
+  const byHolder: HolderStock[] = [];
+  holders.forEach((h, i) => {
+    const openingG = opening[i] ?? 0;
+    const closingG = closing[i] ?? 0;
+    if (scopedSlot[i] === 1 && (openingG !== 0 || closingG !== 0)) byHolder.push({ holderId: h.id, kind: h.kind, openingG, closingG });
+  });
+  const scoped = holders.filter((_h, i) => scopedSlot[i] === 1);
   const openingG = byHolder.reduce((s, h) => s + h.openingG, 0);
   const closingG = byHolder.reduce((s, h) => s + h.closingG, 0);
 
@@ -313,12 +379,15 @@ export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBa
   let returnsG = 0;
   const byRole = emptyRoleFlows();
 
-  for (const m of moves) {
+  for (let i = 0; i < moves.length; i++) {
+    const m = moves[i] as BalanceMove;
     if (m.at < period.startMs || m.at >= period.endMs) continue;
-    const to = holderOf(m.toHolderId);
-    const from = m.fromHolderId === null ? null : holderOf(m.fromHolderId);
-    const toIn = inScope(to);
-    const fromIn = from !== null && inScope(from);
+    const toSlot = slots.to[i] as number;
+    const fromSlot = slots.from[i] as number;
+    const to = holders[toSlot] as BalanceHolder;
+    const from = fromSlot < 0 ? null : (holders[fromSlot] as BalanceHolder);
+    const toIn = scopedSlot[toSlot] === 1;
+    const fromIn = fromSlot >= 0 && scopedSlot[fromSlot] === 1;
     const flow = byRole[m.role];
     if (fromIn && toIn) {
       flow.internalG += m.massG;
@@ -352,8 +421,6 @@ export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBa
   const stockInG = receipts.totalG + transfersInG + returnsG;
   const imbalanceG = openingG + stockInG - outputs.totalG - transfersOutG - closingG;
 
-  const negativeStock = findNegativeStock(moves, period.endMs, (id) => inScope(holderOf(id)));
-
   const stock: StockView = {
     openingG,
     receipts,
@@ -377,45 +444,6 @@ export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBa
     stock,
     process: computeProcessView(scoped.filter((h) => h.kind === "BATCH"), moves, period, tolerance),
   });
-}
-
-/**
- * First movement at which each holder's book stock is below zero. All movements stamped at the same
- * instant are applied before checking, so their order within the instant does not matter.
- */
-function findNegativeStock(moves: readonly BalanceMove[], beforeMs: number, watch: (holderId: number) => boolean): NegativeStock[] {
-  // Positions in (time, id) order; a ledger read in that order (the usual case) is not sorted again.
-  const order: number[] = [];
-  let sorted = true;
-  for (let i = 0; i < moves.length; i++) {
-    const m = moves[i] as BalanceMove;
-    if (m.at >= beforeMs) continue;
-    const prev = order.length === 0 ? undefined : moves[order[order.length - 1] as number];
-    if (prev !== undefined && (prev.at > m.at || (prev.at === m.at && prev.id > m.id))) sorted = false;
-    order.push(i);
-  }
-  if (!sorted) order.sort((a, b) => (moves[a] as BalanceMove).at - (moves[b] as BalanceMove).at || (moves[a] as BalanceMove).id - (moves[b] as BalanceMove).id);
-  const running = new Map<number, number>();
-  const found = new Map<number, NegativeStock>();
-  // All movements stamped at one instant are applied before any holder is checked.
-  for (let g = 0; g < order.length; ) {
-    const at = (moves[order[g] as number] as BalanceMove).at;
-    let end = g;
-    for (; end < order.length && (moves[order[end] as number] as BalanceMove).at === at; end++) {
-      const m = moves[order[end] as number] as BalanceMove;
-      running.set(m.toHolderId, (running.get(m.toHolderId) ?? 0) + m.massG);
-      if (m.fromHolderId !== null) running.set(m.fromHolderId, (running.get(m.fromHolderId) ?? 0) - m.massG);
-    }
-    for (let k = g; k < end; k++) {
-      const m = moves[order[k] as number] as BalanceMove;
-      const id = m.fromHolderId;
-      if (id === null || found.has(id) || !watch(id)) continue;
-      const balanceG = running.get(id) ?? 0;
-      if (balanceG < 0) found.set(id, { holderId: id, at, moveId: m.id, balanceG });
-    }
-    g = end;
-  }
-  return [...found.values()];
 }
 
 const USUAL_INPUTS = new Set<MoveRole>(BATCH_INPUT_ROLES);
