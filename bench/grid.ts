@@ -20,7 +20,7 @@ export async function runGridBench(): Promise<Array<[string, string, string, str
   const file = path.join(dir, "grid.db");
   const url = `file:${file}`;
   await deploy(url);
-  const db = await openDb(url);
+  let db = await openDb(url);
   const now = new Date("2026-12-02T12:00:00Z");
   const site = await insertSite(db, { code: "BENCH", name: "Bench Works", town: "Benchford", timeZone: "UTC" });
   const user = await insertUser(db, { siteId: site.id, login: "bench", fullName: "Bench", role: "PRODUCTION" });
@@ -46,6 +46,10 @@ export async function runGridBench(): Promise<Array<[string, string, string, str
   })();
   sql.close();
   console.log(`  seeded 100,000 pickups in ${formatMs(performance.now() - t0)} ms`);
+  // The table was written behind the app's back: reconnect, as a server started on this file would
+  // (each connection refreshes the planner statistics, lib/database/connect.ts).
+  await db.$disconnect();
+  db = await openDb(url);
   const memory = new MemoryWatch();
   const request = {
     siteId: site.id, table: "pickups" as const, start: 20_000, end: 20_100, system: "metric" as const, now,

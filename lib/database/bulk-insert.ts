@@ -3,7 +3,7 @@
 // Values are bound, never spliced into the SQL; table and column names come from the caller's code,
 // and are checked against a plain identifier pattern all the same.
 import { invariant } from "@/lib/errors";
-import type { Tx } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/database/connect";
 
 export type SqlValue = string | number | boolean | Date | null;
 
@@ -14,7 +14,7 @@ const MAX_PARAMS = 30_000;
 const MAX_ROWS = 2_000;
 const IDENTIFIER = /^[A-Za-z][A-Za-z0-9_]*$/;
 
-export function dialectOf(tx: Tx): Dialect {
+export function dialectOf(tx: Db | Tx): Dialect {
   const provider = (tx as unknown as { _activeProvider?: string })._activeProvider;
   invariant(provider === "sqlite" || provider === "postgresql", `unknown database provider ${String(provider)}`);
   return provider;

@@ -2,6 +2,7 @@ import "server-only";
 import { appendAudit, appendAuditMany } from "@/lib/audit/audit.store";
 import { z } from "zod";
 import type { Db, Tx } from "@/lib/database/connect";
+import { refreshPlannerStats, REFRESH_STATS_AFTER_ROWS } from "@/lib/database/maintenance";
 import type { DomainIssue, Result } from "@/lib/errors";
 import { fail, failMany, ok } from "@/lib/errors";
 import { parseInput } from "@/lib/ledger/parse";
@@ -142,5 +143,7 @@ export async function importPickupRows(db: Db, actor: Actor, raw: readonly unkno
 export async function importPickups(db: Db, actor: Actor, input: unknown, table: DensityTable = DEFAULT_DENSITY_TABLE): Promise<Result<{ written: number; skipped: number }>> {
   const parsed = parseInput(PickupImportSchema, input);
   if (!parsed.ok) return parsed;
-  return importPickupRows(db, actor, parsed.value.rows, table);
+  const written = await importPickupRows(db, actor, parsed.value.rows, table);
+  if (written.ok && written.value.written >= REFRESH_STATS_AFTER_ROWS) await refreshPlannerStats(db);
+  return written;
 }

@@ -2,6 +2,7 @@ import "server-only";
 // The grid's writes: a batch of typed or pasted rows, or a CSV import, saved through the record
 // services (audit trail, period lock, guarded draws, idempotency) inside ONE transaction — all rows or none.
 import type { Db, Tx } from "@/lib/database/connect";
+import { refreshPlannerStats, REFRESH_STATS_AFTER_ROWS } from "@/lib/database/maintenance";
 import type { DomainIssue, Result } from "@/lib/errors";
 import { fail, failMany, ok } from "@/lib/errors";
 import { parseInput } from "@/lib/ledger/parse";
@@ -268,7 +269,10 @@ export async function importGridFile(db: Db, actor: GridActor, input: unknown): 
     },
     600_000,
   );
-  if (result.ok) return ok({ ...base, written: result.value });
+  if (result.ok) {
+    if (result.value >= REFRESH_STATS_AFTER_ROWS) await refreshPlannerStats(db);
+    return ok({ ...base, written: result.value });
+  }
   if (result.issues.length === 1 && result.issues[0]?.code === PREVIEW) return ok({ ...base, written: wouldWrite });
   if (dryRun) {
     const failedLines = new Set(result.issues.map((i) => (i.field ?? "").split(".")[1]));

@@ -3,7 +3,7 @@ import type { TestDb } from "./support/test-db";
 import { createTestDb, PROVIDERS } from "./support/test-db";
 import type { TestPlant } from "./support/plant";
 import { createTestPlant } from "./support/plant";
-import { importPickupRows, recordPickup } from "@/lib/feedstock/pickup.service";
+import { importPickupRows, importPickups, recordPickup } from "@/lib/feedstock/pickup.service";
 import { loadChain } from "@/lib/audit/audit.store";
 import { verifyChain } from "@/lib/audit/chain";
 import { closePeriod, openPeriod } from "@/lib/period/period.service";
@@ -63,7 +63,7 @@ describe.each(PROVIDERS)("bulk pickup import on %s", (provider) => {
   it("writes thousands of rows across statement boundaries, each in full, the chain intact", async () => {
     const n = 4_000; // more rows than one multi-row statement binds (bulk-insert.ts)
     const rows = Array.from({ length: n }, (_, i) => row(`M-${i}`, { volumeL: 10 + (i % 97), tempC: 5 + (i % 40), notes: i % 2 ? `note ${i}` : "", containerTags: i % 3 ? [] : [`T${i}`, `U${i}`], observedAt: new Date(Date.UTC(2026, 1, 10, 9) + i * 60_000).toISOString() }));
-    const r = await importPickupRows(t.db, plant.collector, rows);
+    const r = await importPickups(t.db, plant.collector, { rows });
     if (!r.ok) throw new Error(JSON.stringify(r.issues.slice(0, 3)));
     expect(r.value).toEqual({ written: n, skipped: 0 });
     const stored = await t.db.pickup.findMany({ where: { code: { startsWith: "M-" } }, include: { holder: true }, orderBy: { id: "asc" } });
@@ -80,6 +80,12 @@ describe.each(PROVIDERS)("bulk pickup import on %s", (provider) => {
     }
     expect(await t.db.auditEvent.count({ where: { entity: "Pickup", entityKey: { startsWith: "M-" } } })).toBe(n);
     expect(verifyChain(await loadChain(t.db, plant.siteId)).ok).toBe(true);
+    // A large import refreshes the planner statistics (lib/database/maintenance.ts).
+    const analysed =
+      provider === "sqlite"
+        ? await t.db.$queryRawUnsafe<Array<{ n: number | bigint }>>(`SELECT count(*) AS "n" FROM sqlite_stat1 WHERE tbl = 'Pickup'`)
+        : await t.db.$queryRawUnsafe<Array<{ n: number | bigint }>>(`SELECT count(*) AS "n" FROM pg_stat_user_tables WHERE relname = 'Pickup' AND last_analyze IS NOT NULL`);
+    expect(Number(analysed[0]?.n)).toBeGreaterThan(0);
   });
 
   it("answers a retry with the first record, and refuses the same key for a different pickup", async () => {
