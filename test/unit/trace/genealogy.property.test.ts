@@ -51,6 +51,15 @@ function pickTime(history: History, pick: number): number {
 
 const shuffled = (h: History): TraceMove[] => [...h.moves].reverse();
 
+/** The ledger indexed, and replayed up to the time of its k-th move (k picked from `cut`). */
+function replayUpToCut(history: History, cut: number) {
+  const index = requireIndex(history.holders, shuffled(history));
+  const k = cut % (index.moves.length + 1);
+  const head = replayLedger(index, { until: index.moves[k - 1]?.at ?? Number.NEGATIVE_INFINITY });
+  if (!head.ok) throw new Error(JSON.stringify(head.issues));
+  return { index, k, head: head.value };
+}
+
 describe("trace invariants over random ledgers (our own consistency checks)", () => {
   it("invariant: mass is conserved — every origin's entered grams are all somewhere at the end", () => {
     fc.assert(
@@ -245,11 +254,8 @@ describe("trace invariants over random ledgers (our own consistency checks)", ()
   it("invariant: a backward trace resumed from a snapshot (restoring only its ancestors) equals the cold trace", () => {
     fc.assert(
       fc.property(historyArb, fc.nat(), (history, cut) => {
-        const index = requireIndex(history.holders, shuffled(history));
-        const k = cut % (index.moves.length + 1);
-        const head = replayLedger(index, { until: index.moves[k - 1]?.at ?? Number.NEGATIVE_INFINITY });
-        if (!head.ok) throw new Error(JSON.stringify(head.issues));
-        const stored = ReplaySnapshotSchema.parse(JSON.parse(JSON.stringify(head.value.snapshot())));
+        const { index, k, head } = replayUpToCut(history, cut);
+        const stored = ReplaySnapshotSchema.parse(JSON.parse(JSON.stringify(head.snapshot())));
         for (const h of history.holders) {
           const cold = traceHolder(index, h.id);
           const warm = traceHolder(index, h.id, { from: stored });
@@ -269,13 +275,10 @@ describe("trace invariants over random ledgers (our own consistency checks)", ()
   it("invariant: a snapshot that leaves out never-drawn holders answers every other trace as a full one does", () => {
     fc.assert(
       fc.property(historyArb, fc.nat(), (history, cut) => {
-        const index = requireIndex(history.holders, shuffled(history));
-        const k = cut % (index.moves.length + 1);
-        const head = replayLedger(index, { until: index.moves[k - 1]?.at ?? Number.NEGATIVE_INFINITY });
-        if (!head.ok) throw new Error(JSON.stringify(head.issues));
+        const { index, k, head } = replayUpToCut(history, cut);
         const neverDrawn = new Set(history.holders.filter((h) => !index.outOf.has(h.id)).map((h) => h.id));
-        const full = head.value.snapshot();
-        const lean = ReplaySnapshotSchema.parse(JSON.parse(JSON.stringify(head.value.snapshot((id) => neverDrawn.has(id)))));
+        const full = head.snapshot();
+        const lean = ReplaySnapshotSchema.parse(JSON.parse(JSON.stringify(head.snapshot((id) => neverDrawn.has(id)))));
         expect(lean.holders.every((x) => !neverDrawn.has(x.holderId))).toBe(true);
         expect(lean.leftOut ?? []).toEqual(full.holders.filter((x) => neverDrawn.has(x.holderId)).map((x) => x.holderId));
         for (const h of history.holders) {
