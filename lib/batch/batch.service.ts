@@ -14,7 +14,7 @@ import { siteLossHolder } from "@/lib/feedstock/lot.store";
 import { BatchCompleteSchema, BatchPlanSchema, BatchStartSchema, ReagentLotSchema } from "@/lib/batch/batch.schema";
 import { toGrams } from "@/lib/quantity/units";
 import type { Actor } from "@/lib/site/actor";
-import { assertTankRoom, getTankServiceByHolder } from "@/lib/tank/tank.store";
+import { getTankServiceByHolder, requireTankRoom } from "@/lib/tank/tank.store";
 
 /** Methanol, catalyst, acid or process water enters the books as a reagent lot. */
 export async function receiveReagent(db: Db, actor: Actor, input: unknown): Promise<Result<{ id: number; code: string }>> {
@@ -108,6 +108,7 @@ export async function completeBatch(db: Db, actor: Actor, input: unknown): Promi
     for (const [i, o] of c.outputs.entries()) {
       const field = `outputs.${i}.toCode`;
       let to: number;
+      let room: Awaited<ReturnType<typeof requireTankRoom>> = null;
       if (o.role === "LOSS") {
         to = await siteLossHolder(tx, actor.siteId);
       } else if (o.toKind === "PRODUCT_LOT" && o.toCode) {
@@ -121,11 +122,11 @@ export async function completeBatch(db: Db, actor: Actor, input: unknown): Promi
         if (w.status !== "OPEN") reject("WASTE.CONTAINER_CLOSED", `Waste container ${o.toCode} is not accepting more material`, field);
       } else if (o.toKind === "TANK" && o.toCode) {
         to = (await requireHolder(tx, actor.siteId, "TANK", o.toCode, field)).id;
-        await assertTankRoom(tx, to, toGrams(o.massKg), `outputs.${i}.massKg`);
+        room = await requireTankRoom(tx, to, toGrams(o.massKg), `outputs.${i}.massKg`);
       } else {
         reject("BATCH.NO_DESTINATION", "Output to: say where this output went", field);
       }
-      await postMovement(tx, { siteId: actor.siteId, at: c.completedAt, role: o.role, fromHolderId: batch.holderId, toHolderId: to, massG: toGrams(o.massKg), recordedById: actor.userId, field: `outputs.${i}.massKg` });
+      await postMovement(tx, { siteId: actor.siteId, at: c.completedAt, role: o.role, fromHolderId: batch.holderId, toHolderId: to, massG: toGrams(o.massKg), recordedById: actor.userId, field: `outputs.${i}.massKg`, ...(room ? { room } : {}) });
     }
     const left = await getStockG(tx, batch.holderId);
     if (left !== 0) {

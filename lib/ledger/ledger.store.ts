@@ -189,6 +189,8 @@ export interface MovementDraft {
   recordedById: number;
   /** The movement this one cancels (a correction); set only by the correction service. */
   reversesId?: number | null;
+  /** The destination's capacity (tanks): the fill is refused with `refusal(stockG)` if it would not fit. */
+  room?: { capacityG: number; refusal: (stockG: number) => string };
   /** Field name to blame in messages (the form's mass field). */
   field?: string;
 }
@@ -214,7 +216,17 @@ export async function postMovement(tx: Tx, m: MovementDraft): Promise<number> {
       );
     }
   }
-  await tx.holder.update({ where: { id: m.toHolderId }, data: { stockG: { increment: m.massG } } });
+  if (m.room === undefined) {
+    await tx.holder.update({ where: { id: m.toHolderId }, data: { stockG: { increment: m.massG } } });
+  } else {
+    // A vessel's capacity is guarded like a draw: one conditional increment, so concurrent fills
+    // cannot each pass a check made on a stock the other is about to change.
+    const filled = await tx.holder.updateMany({ where: { id: m.toHolderId, stockG: { lte: m.room.capacityG - m.massG } }, data: { stockG: { increment: m.massG } } });
+    if (filled.count !== 1) {
+      const to = await tx.holder.findUnique({ where: { id: m.toHolderId }, select: { stockG: true } });
+      reject("TANK.OVERFILL", m.room.refusal(to?.stockG ?? 0), field);
+    }
+  }
   const row = await tx.movement.create({
     data: {
       siteId: m.siteId,

@@ -10,7 +10,7 @@ import { toGrams, toMillilitres } from "@/lib/quantity/units";
 import { densityAt, DEFAULT_DENSITY_TABLE, requireDensityEntry } from "@/lib/quantity/density";
 import type { Actor } from "@/lib/site/actor";
 import { labelOf } from "@/lib/ledger/kinds";
-import { assertTankRoom, getTankByCode, getTankServiceByHolder, insertGauge, insertTank, serviceMaterial } from "@/lib/tank/tank.store";
+import { getTankByCode, requireTankRoom, getTankServiceByHolder, insertGauge, insertTank, serviceMaterial } from "@/lib/tank/tank.store";
 
 export async function createTank(db: Db, actor: Actor, input: unknown): Promise<Result<{ id: number; code: string }>> {
   const parsed = parseInput(TankSchema, input);
@@ -36,8 +36,8 @@ export async function transferToTank(db: Db, actor: Actor, input: unknown): Prom
     if (fromService !== toService) {
       reject("TANK.WRONG_SERVICE", `Tank ${t.toTankCode} is for ${labelOf(toService ?? "").toLowerCase()}, not ${labelOf(fromService ?? "").toLowerCase()}`, "toTankCode");
     }
-    await assertTankRoom(tx, to.id, toGrams(t.massKg), "massKg");
-    const movementId = await postMovement(tx, { siteId: actor.siteId, at: t.at, role: "TRANSFER", fromHolderId: from, toHolderId: to.id, massG: toGrams(t.massKg), note: t.note, recordedById: actor.userId });
+    const room = await requireTankRoom(tx, to.id, toGrams(t.massKg), "massKg");
+    const movementId = await postMovement(tx, { siteId: actor.siteId, at: t.at, role: "TRANSFER", fromHolderId: from, toHolderId: to.id, massG: toGrams(t.massKg), note: t.note, recordedById: actor.userId, ...(room ? { room } : {}) });
     await markLotConsumedIfEmpty(tx, from);
     await appendAudit(tx, actor, { action: "CREATE", entity: "Movement", entityKey: String(movementId), after: { ...t, role: "TRANSFER", massG: toGrams(t.massKg) } });
     return { movementId };

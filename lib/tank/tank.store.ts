@@ -39,16 +39,21 @@ export function serviceMaterial(service: string): DensityMaterial {
   return service === "PRODUCT" ? "FAME" : service === "METHANOL" ? "METHANOL" : service === "GLYCEROL_PHASE" ? "GLYCEROL" : service === "WASH_WATER" ? "WATER" : "USED_COOKING_OIL";
 }
 
-/** Refuses a fill that would take a tank past its capacity (mass capacity at 15 °C). */
-export async function assertTankRoom(tx: Tx, holderId: number, addG: number, field: string): Promise<void> {
+/**
+ * A tank's room for a fill (mass capacity at 15 °C), for postMovement's guarded increment; null when
+ * the holder is not a tank. Refuses at once a fill that would not fit now, with the room left.
+ */
+export async function requireTankRoom(tx: Tx, holderId: number, addG: number, field: string): Promise<{ capacityG: number; refusal: (stockG: number) => string } | null> {
   const tank = await tx.tank.findUnique({ where: { holderId }, select: { code: true, service: true, capacityMl: true, holder: { select: { stockG: true } } } });
-  if (!tank) return;
+  if (!tank) return null;
   const rho = densityAt(requireDensityEntry(DEFAULT_DENSITY_TABLE, serviceMaterial(tank.service)), 15);
   const capacityG = Math.floor((tank.capacityMl / 1000) * rho);
-  if (tank.holder.stockG + addG > capacityG) {
-    const room = Math.max(0, capacityG - tank.holder.stockG);
-    reject("TANK.OVERFILL", `Tank ${tank.code} has room for about ${(room / 1000).toLocaleString("en", { maximumFractionDigits: 0 })} kg (capacity ${(tank.capacityMl / 1000).toLocaleString("en")} L)`, field);
-  }
+  const refusal = (stockG: number) => {
+    const room = Math.max(0, capacityG - stockG);
+    return `Tank ${tank.code} has room for about ${(room / 1000).toLocaleString("en", { maximumFractionDigits: 0 })} kg (capacity ${(tank.capacityMl / 1000).toLocaleString("en")} L)`;
+  };
+  if (tank.holder.stockG + addG > capacityG) reject("TANK.OVERFILL", refusal(tank.holder.stockG), field);
+  return { capacityG, refusal };
 }
 
 export async function insertTank(tx: Tx, t: { siteId: number; holderId: number; code: string; name: string; service: string; capacityMl: number; mixing: string }): Promise<{ id: number; code: string }> {

@@ -2,10 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { TestDb } from "./support/test-db";
 import { createTestDb, PROVIDERS } from "./support/test-db";
 import type { TestPlant } from "./support/plant";
-import { createTestPlant } from "./support/plant";
-import { recordPickup } from "@/lib/feedstock/pickup.service";
-import { decideLot, receiveLotFromPickups } from "@/lib/feedstock/lot.service";
-import { recordTitration } from "@/lib/feedstock/titration.service";
+import { acceptedLot, createTestPlant } from "./support/plant";
 import { transferToTank } from "@/lib/tank/tank.service";
 import { reverseMovement } from "@/lib/correction/correction.service";
 import { extendTraceLedger, loadTraceLedger } from "@/lib/ledger/movement.store";
@@ -39,12 +36,7 @@ describe.each(PROVIDERS)("trace cache on %s", (provider) => {
   let plant: TestPlant;
   const NOW = new Date("2026-03-01T12:00:00Z");
 
-  async function lot(code: string, pickup: string, day: number) {
-    value(await recordPickup(t.db, plant.collector, { code: pickup, sourceCode: "R1", material: "USED_COOKING_OIL", observedAt: `2026-02-${String(day).padStart(2, "0")}T09:00:00Z`, containers: 5, volumeL: 300, tempC: 15 }));
-    value(await receiveLotFromPickups(t.db, plant.production, { code, material: "USED_COOKING_OIL", receivedAt: `2026-02-${String(day).padStart(2, "0")}T16:00:00Z`, observedVolumeL: 300, observedTempC: 15, pickupCodes: [pickup] }));
-    value(await recordTitration(t.db, plant.production, { lotCode: code, testedAt: `2026-02-${String(day).padStart(2, "0")}T17:00:00Z`, sampleMassG: 7.05, titrant: "NAOH", concentrationMolL: 0.25, titreMl: 2, basis: "OLEIC" }));
-    value(await decideLot(t.db, plant.production, { lotCode: code, status: "ACCEPTED" }));
-  }
+  const lot = (code: string, pickup: string, day: number) => acceptedLot(t.db, plant, { lot: code, pickup, day });
 
   beforeAll(async () => {
     t = await createTestDb(provider);

@@ -38,3 +38,20 @@ export async function createTestPlant(db: Db): Promise<TestPlant> {
   }
   return plant;
 }
+
+/** A pickup received whole into a lot, titrated and accepted, so it can be drawn into tanks and batches. */
+export async function acceptedLot(db: Db, plant: TestPlant, o: { lot: string; pickup: string; day: number; volumeL?: number }): Promise<void> {
+  const { recordPickup } = await import("@/lib/feedstock/pickup.service");
+  const { decideLot, receiveLotFromPickups } = await import("@/lib/feedstock/lot.service");
+  const { recordTitration } = await import("@/lib/feedstock/titration.service");
+  const dd = String(o.day).padStart(2, "0");
+  const volumeL = o.volumeL ?? 300;
+  const must = <T>(r: { ok: true; value: T } | { ok: false; issues: unknown }): T => {
+    if (!r.ok) throw new Error(JSON.stringify(r.issues));
+    return r.value;
+  };
+  must(await recordPickup(db, plant.collector, { code: o.pickup, sourceCode: "R1", material: "USED_COOKING_OIL", observedAt: `2026-02-${dd}T09:00:00Z`, containers: 5, volumeL, tempC: 15 }));
+  must(await receiveLotFromPickups(db, plant.production, { code: o.lot, material: "USED_COOKING_OIL", receivedAt: `2026-02-${dd}T16:00:00Z`, observedVolumeL: volumeL, observedTempC: 15, pickupCodes: [o.pickup] }));
+  must(await recordTitration(db, plant.production, { lotCode: o.lot, testedAt: `2026-02-${dd}T17:00:00Z`, sampleMassG: 7.05, titrant: "NAOH", concentrationMolL: 0.25, titreMl: 2, basis: "OLEIC" }));
+  must(await decideLot(db, plant.production, { lotCode: o.lot, status: "ACCEPTED" }));
+}
