@@ -50,3 +50,38 @@ test("reverse a mistaken transfer and void a mistaken titration, each with a rea
   await page.getByRole("link", { name: "see the lot's history" }).click();
   await expect(page.getByRole("cell", { name: "Sample mass mistyped" })).toBeVisible();
 });
+
+// A charge typed wrong at the start of a batch is taken back on the batch page while it reacts.
+test("take back a mistaken charge on a reacting batch, with a reason and the reactor cautions shown", async ({ page, baseURL }) => {
+  await signIn(page, "production.tess", "/batches");
+  const code = `TB-${Date.now() % 1_000_000}`;
+  const post = (path: string, data: unknown) => page.request.post(path, { headers: { "idempotency-key": `${code}-${path}`, origin: baseURL! }, data });
+  const now = Date.now();
+  expect((await post("/api/batches/plan", { code, plannedAt: new Date(now - 60_000).toISOString(), targetOilKg: 2, catalyst: "KOH" })).status()).toBe(200);
+  const started = await post("/api/batches/start", {
+    batchCode: code,
+    startedAt: new Date(now).toISOString(),
+    charges: [
+      { fromKind: "TANK", fromCode: "T1", role: "OIL", massKg: 2 },
+      { fromKind: "TANK", fromCode: "M1", role: "METHANOL", massKg: 4 },
+    ],
+  });
+  expect(started.status()).toBe(200);
+  const m1Before = ((await (await page.request.get("/api/holders/TANK/M1")).json()) as { value: { stockG: number } }).value.stockG;
+
+  await page.goto(`/batches/${code}`);
+  await expect(page.getByText(/methanol and methoxide are toxic and flammable/)).toBeVisible();
+  const charges = page.locator("section, main").getByRole("table").first();
+  const methanol = charges.locator("tbody tr").filter({ hasText: "Methanol" });
+  await methanol.getByText(/^Take back No\. \d+$/).click();
+  await methanol.getByRole("button", { name: "Take this charge back" }).click();
+  await expect(methanol.locator(".field-error")).toContainText("Reason");
+  await methanol.getByLabel("What was wrong").fill("4 kg typed; 0.4 kg went in");
+  await methanol.getByRole("button", { name: "Take this charge back" }).click();
+  await expect(page.getByRole("heading", { name: "Charges taken back" })).toBeVisible();
+  await page.reload();
+  await expect(page.getByRole("heading", { name: "Charges taken back" })).toBeVisible();
+  await expect(page.locator("table").filter({ has: page.getByText("Booked by mistake and reversed") }).getByText(/reversed by #\d+/)).toBeVisible();
+  const m1After = ((await (await page.request.get("/api/holders/TANK/M1")).json()) as { value: { stockG: number } }).value.stockG;
+  expect(m1After - m1Before).toBe(4000);
+});

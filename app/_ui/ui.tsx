@@ -93,7 +93,7 @@ export function Pager({ basePath, page, total, pageSize, query = {} }: { basePat
 }
 
 /** Movements as a table; `side` hides the column that is always the page's own holder. */
-export function MovementTable({ rows, timeZone, side, caption }: { rows: MovementView[]; timeZone: string; side?: "from" | "to"; caption?: string }) {
+export function MovementTable({ rows, timeZone, side, caption, action }: { rows: MovementView[]; timeZone: string; side?: "from" | "to"; caption?: string; action?: { header: string; render: (m: MovementView) => ReactNode } }) {
   return (
     <div className="table-wrap">
       <table>
@@ -111,6 +111,7 @@ export function MovementTable({ rows, timeZone, side, caption }: { rows: Movemen
               Volume
             </th>
             <th scope="col">Note</th>
+            {action ? <th scope="col">{action.header}</th> : null}
           </tr>
         </thead>
         <tbody>
@@ -135,6 +136,7 @@ export function MovementTable({ rows, timeZone, side, caption }: { rows: Movemen
                 {m.reversesId !== null ? <span className="tag">reverses #{m.reversesId}</span> : null}
                 {m.reversedById !== null ? <span className="tag">reversed by #{m.reversedById}</span> : null}
               </td>
+              {action ? <td>{action.render(m)}</td> : null}
             </tr>
           ))}
         </tbody>

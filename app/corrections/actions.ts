@@ -15,6 +15,7 @@ export async function reverseMovementAction(prev: FormState, form: FormData): Pr
   const r = await reverseMovement(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { movementId: readNumber(form, "movementId"), reason: readText(form, "reason") });
   if (!r.ok) return refused(prev, values, r.issues, ["reason"]);
   revalidatePath("/ledger");
+  revalidatePath("/batches/[code]", "page");
   return { status: "saved", message: `Movement ${r.value.movementId} reversed by movement ${r.value.reversalId}.`, values: {}, errors: {}, seq: prev.seq + 1 };
 }
 

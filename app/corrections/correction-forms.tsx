@@ -52,3 +52,8 @@ export function ReverseMovementForm({ movementId }: { movementId: number }) {
 export function VoidResultForm({ kind, resultId }: { kind: "TITRATION" | "LAB_TEST"; resultId: number }) {
   return <ReasonForm action={voidLabResultAction} hidden={{ kind, resultId: String(resultId) }} title="Void" label="What was wrong" button="Void this result" />;
 }
+
+/** Takes back a charge booked by mistake into a batch that is still reacting (a linked opposite movement). */
+export function TakeBackChargeForm({ movementId }: { movementId: number }) {
+  return <ReasonForm action={reverseMovementAction} hidden={{ movementId: String(movementId) }} title={`Take back No. ${movementId}`} label="What was wrong" button="Take this charge back" />;
+}

@@ -79,9 +79,11 @@ export interface BatchDetail extends BatchRow {
   holderId: number;
   notes: string;
   recipeJson: string;
-  /** Movements into the batch: oil, methanol, catalyst, acid, water. */
+  /** Movements into the batch: oil, methanol, catalyst, acid, water (charges taken back left out). */
   charges: MovementView[];
-  /** Movements out of the batch: ester, glycerol phase, wash water, recovered methanol, losses. */
+  /** Charges booked by mistake and taken back (each reversed by a movement out of the batch). */
+  takenBack: MovementView[];
+  /** Movements out of the batch: ester, glycerol phase, wash water, recovered methanol, losses (take-backs left out). */
   outputs: MovementView[];
   products: BatchProductView[];
 }
@@ -98,8 +100,9 @@ export async function getBatchDetail(db: Db, siteId: number, code: string): Prom
     holderId: r.holderId,
     notes: r.notes,
     recipeJson: r.recipeJson,
-    charges: moves.incoming,
-    outputs: moves.outgoing,
+    charges: moves.incoming.filter((m) => m.reversedById === null),
+    takenBack: moves.incoming.filter((m) => m.reversedById !== null),
+    outputs: moves.outgoing.filter((m) => m.reversesId === null),
     products: r.products,
   };
 }

@@ -1,17 +1,20 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
-import { REVERSIBLE_INTO, REVERSIBLE_ROLES, ReverseMovementSchema, VoidLabResultSchema } from "@/lib/correction/correction.schema";
-import { markLabResultVoided, requireLabResult, requireMovement } from "@/lib/correction/correction.store";
+import { isReversible, ReverseMovementSchema, VoidLabResultSchema } from "@/lib/correction/correction.schema";
+import { getBatchStateByHolder, markLabResultVoided, requireLabResult, requireMovement } from "@/lib/correction/correction.store";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { assertPeriodOpen, postMovement, reject, runInTransaction } from "@/lib/ledger/ledger.store";
 import { parseInput } from "@/lib/ledger/parse";
+import type { MoveRole } from "@/lib/ledger/kinds";
+import { requireTankRoom } from "@/lib/tank/tank.store";
 import type { Actor } from "@/lib/site/actor";
 
 /**
- * Cancels a transfer booked by mistake with an opposite movement at the same time, linked to it. The
- * reversal is an ordinary guarded draw: it is refused when the material has since moved on (the
- * place it went to no longer holds it) or when the period is closed. Traces leave the pair out.
+ * Cancels a transfer into a tank, or a charge into a batch that is still reacting, booked by mistake:
+ * an opposite movement at the same time, linked to it. The reversal is an ordinary guarded draw: it is
+ * refused when the material has since moved on (the place it went to no longer holds it) or when the
+ * period is closed. Traces, balances and the chain of custody leave the pair out.
  */
 export async function reverseMovement(db: Db, actor: Actor, input: unknown): Promise<Result<{ reversalId: number; movementId: number }>> {
   const parsed = parseInput(ReverseMovementSchema, input);
@@ -21,13 +24,22 @@ export async function reverseMovement(db: Db, actor: Actor, input: unknown): Pro
     const m = await requireMovement(tx, actor.siteId, movementId);
     if (m.reversesId !== null) reject("CORRECTION.IS_REVERSAL", `Movement ${movementId} is itself a reversal; book the transfer again instead`, "movementId");
     if (m.reversedById !== null) reject("CORRECTION.ALREADY_REVERSED", `Movement ${movementId} was already reversed by movement ${m.reversedById}`, "movementId");
-    if (!(REVERSIBLE_ROLES as readonly string[]).includes(m.role) || m.fromHolderId === null || !(REVERSIBLE_INTO as readonly string[]).includes(m.toKind)) {
-      reject("CORRECTION.NOT_REVERSIBLE", `Movement ${movementId} is not a transfer into a tank; only those are reversed here (receiving, batches and receipts are corrected on their own records)`, "movementId");
+    const kind = m.fromHolderId === null ? null : isReversible(m.role, m.toKind);
+    if (kind === null || m.fromHolderId === null) {
+      reject("CORRECTION.NOT_REVERSIBLE", `Movement ${movementId} is neither a transfer into a tank nor a charge into a batch; only those are reversed here (receiving, outputs and receipts are corrected on their own records)`, "movementId");
     }
+    if (kind === "CHARGE") {
+      const batch = await getBatchStateByHolder(tx, m.toHolderId);
+      if (batch === null || batch.status !== "RUNNING") {
+        reject("CORRECTION.BATCH_NOT_RUNNING", `Batch ${batch?.code ?? ""} is ${(batch?.status ?? "unknown").toLowerCase()}; a charge can be taken back only while the batch is reacting, before its outputs are recorded`, "movementId");
+      }
+    }
+    // Material going back into a tank must still fit (the tank may have been filled since).
+    const room = await requireTankRoom(tx, m.fromHolderId, m.massG, "movementId");
     const reversalId = await postMovement(tx, {
       siteId: actor.siteId,
       at: m.at,
-      role: "TRANSFER",
+      role: kind === "CHARGE" ? (m.role as MoveRole) : "TRANSFER",
       fromHolderId: m.toHolderId,
       toHolderId: m.fromHolderId,
       massG: m.massG,
@@ -35,6 +47,7 @@ export async function reverseMovement(db: Db, actor: Actor, input: unknown): Pro
       recordedById: actor.userId,
       reversesId: movementId,
       field: "movementId",
+      ...(room ? { room } : {}),
     });
     await appendAudit(tx, actor, { action: "VOID", entity: "Movement", entityKey: String(movementId), after: { reversedBy: reversalId, massG: m.massG }, reason });
     return { reversalId, movementId };

@@ -25,6 +25,11 @@ export async function requireMovement(tx: Tx, siteId: number, movementId: number
   return { ...rest, reversedById: reversedBy?.id ?? null, toKind: toHolder.kind };
 }
 
+/** The status of the batch a holder belongs to, or null when it is not a batch. */
+export async function getBatchStateByHolder(tx: Tx, holderId: number): Promise<{ code: string; status: string } | null> {
+  return tx.batch.findUnique({ where: { holderId }, select: { code: true, status: true } });
+}
+
 export interface LabResultState {
   id: number;
   lotCode: string;

@@ -28,7 +28,11 @@ export interface BalanceHolderRef {
 
 export interface BalanceLedger {
   holders: BalanceHolder[];
-  /** Every movement, reversals included: a booking and its reversal both count, and cancel. */
+  /**
+   * Every movement except reversed pairs: a booking made by mistake and its reversal (same instant, so
+   * stock at any time is the same either way) are left out, as in traces and the chain of custody, so
+   * a charge taken back is neither an input nor an output of its batch.
+   */
   moves: BalanceMove[];
   refs: Map<number, BalanceHolderRef>;
 }
@@ -44,8 +48,15 @@ export async function loadBalanceLedger(db: Db, siteId: number): Promise<Balance
     db.reagentLot.findMany({ where: { siteId }, select: { holderId: true, reagent: true } }),
     db.batch.findMany({ where: { siteId }, select: { holderId: true, completedAt: true } }),
     db.wasteContainer.findMany({ where: { siteId }, select: { holderId: true, stream: true } }),
-    db.movement.findMany({ where: { siteId }, select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, role: true } }),
+    db.movement.findMany({ where: { siteId }, select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, role: true, reversesId: true } }),
   ]);
+  const paired = new Set<number>();
+  for (const m of moves) {
+    if (m.reversesId !== null) {
+      paired.add(m.id);
+      paired.add(m.reversesId);
+    }
+  }
   const material = new Map<number, string>();
   for (const p of pickups) material.set(p.holderId, p.material);
   for (const l of lots) material.set(l.holderId, l.material);
@@ -63,7 +74,7 @@ export async function loadBalanceLedger(db: Db, siteId: number): Promise<Balance
   });
   return {
     holders: list,
-    moves: moves.map((m) => {
+    moves: moves.filter((m) => !paired.has(m.id)).map((m) => {
       invariant(ROLE_SET.has(m.role), `unknown movement role ${m.role} in the database`);
       return { id: m.id, at: m.at.getTime(), fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG, role: m.role as MoveRole };
     }),

@@ -10,6 +10,9 @@ import { createTank, transferToTank } from "@/lib/tank/tank.service";
 import { reverseMovement, voidLabResult } from "@/lib/correction/correction.service";
 import { listRecordHistory } from "@/lib/audit/audit.store";
 import { loadTraceLedger } from "@/lib/ledger/movement.store";
+import { completeBatch, planBatch, receiveReagent, startBatch } from "@/lib/batch/batch.service";
+import { getBatchDetail } from "@/lib/batch/batch.store";
+import { loadBalanceLedger } from "@/lib/mass-balance/balance.store";
 import type { Result } from "@/lib/errors";
 
 function value<T>(r: Result<T>): T {
@@ -82,6 +85,35 @@ describe.each(PROVIDERS)("corrections on %s", (provider) => {
     // The reversal is dated at the original transfer, so the check is "short at a later booking".
     expect(issue(await reverseMovement(t.db, plant.production, { movementId: second, reason: "wrong tank" })).code).toBe("LEDGER.OVERDRAW_IN_TIME");
     expect(await t.db.movement.count()).toBe(before);
+  });
+
+  it("takes back a charge of a reacting batch; refuses once the batch is finished, and never reverses an output", async () => {
+    value(await receiveReagent(t.db, plant.production, { code: "MEOH-1", reagent: "METHANOL", supplier: "S", strengthPct: 99.9, receivedAt: "2026-02-01T08:00:00Z", massKg: 500 }));
+    value(await planBatch(t.db, plant.production, { code: "B-1", plannedAt: "2026-02-14T07:00:00Z", targetOilKg: 30, catalyst: "KOH" }));
+    const oilBefore = await stock("TANK", "T2");
+    value(await startBatch(t.db, plant.production, { batchCode: "B-1", startedAt: "2026-02-14T08:00:00Z", charges: [{ fromKind: "TANK", fromCode: "T2", role: "OIL", massKg: 30 }, { fromKind: "REAGENT_LOT", fromCode: "MEOH-1", role: "METHANOL", massKg: 40 }] }));
+    // 40 kg of methanol was typed where 22 kg went in: take the charge back and book it again.
+    const wrong = await t.db.movement.findFirstOrThrow({ where: { role: "METHANOL", toHolder: { kind: "BATCH", code: "B-1" } } });
+    const back = value(await reverseMovement(t.db, plant.production, { movementId: wrong.id, reason: "Typed 40 kg; the meter read 22 kg" }));
+    expect(await stock("BATCH", "B-1")).toBe(30_000);
+    expect(await stock("REAGENT_LOT", "MEOH-1")).toBe(500_000);
+    expect(await t.db.movement.findUniqueOrThrow({ where: { id: back.reversalId } })).toMatchObject({ role: "METHANOL", reversesId: wrong.id, massG: 40_000 });
+    const detail = await getBatchDetail(t.db, plant.siteId, "B-1");
+    expect(detail?.charges.map((m) => m.role)).toEqual(["OIL"]);
+    expect(detail?.takenBack.map((m) => m.id)).toEqual([wrong.id]);
+    expect(detail?.outputs).toEqual([]);
+    // Genealogy and balances leave the pair out: the batch is made of the oil only.
+    expect((await loadTraceLedger(t.db, plant.siteId)).moves.some((m) => m.id === wrong.id || m.id === back.reversalId)).toBe(false);
+    expect((await loadBalanceLedger(t.db, plant.siteId)).moves.some((m) => m.id === wrong.id || m.id === back.reversalId)).toBe(false);
+    const history = await listRecordHistory(t.db, plant.siteId, "Movement", String(wrong.id));
+    expect(history.at(-1)).toMatchObject({ action: "VOID", reason: "Typed 40 kg; the meter read 22 kg" });
+    // Finish the batch (30 kg oil in): its charges and outputs are then not reversed here.
+    value(await completeBatch(t.db, plant.production, { batchCode: "B-1", completedAt: "2026-02-14T12:00:00Z", outputs: [{ role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-1", massKg: 29 }, { role: "LOSS", massKg: 1 }] }));
+    const oil = await t.db.movement.findFirstOrThrow({ where: { role: "OIL", toHolder: { kind: "BATCH", code: "B-1" } } });
+    expect(issue(await reverseMovement(t.db, plant.production, { movementId: oil.id, reason: "wrong tank" }))).toEqual({ code: "CORRECTION.BATCH_NOT_RUNNING", field: "movementId" });
+    const ester = await t.db.movement.findFirstOrThrow({ where: { role: "ESTER" } });
+    expect(issue(await reverseMovement(t.db, plant.production, { movementId: ester.id, reason: "wrong lot" }))).toEqual({ code: "CORRECTION.NOT_REVERSIBLE", field: "movementId" });
+    expect(await stock("TANK", "T2")).toBe(oilBefore - 30_000);
   });
 
   it("voids a titration: kept on record, no longer counted, reason in the history; not twice", async () => {

@@ -10,6 +10,8 @@ import { MadeOf } from "@/app/_ui/made-of";
 import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, Facts, MovementTable, NoSite, Note, Status } from "@/app/_ui/ui";
 import { BatchPlanSection } from "@/app/batches/[code]/batch-plan-section";
+import { TakeBackChargeForm } from "@/app/corrections/correction-forms";
+import type { MovementView } from "@/lib/ledger/movement.store";
 
 export const dynamic = "force-dynamic";
 
@@ -65,7 +67,29 @@ export default async function BatchPage({ params }: Props) {
       <BatchPlanSection batch={b} />
 
       <h2>Charges in</h2>
-      {b.charges.length === 0 ? <Empty>Nothing has been charged yet.</Empty> : <MovementTable rows={b.charges} timeZone={tz} side="to" />}
+      {b.charges.length === 0 ? (
+        <Empty>Nothing has been charged yet.</Empty>
+      ) : (
+        <MovementTable
+          rows={b.charges}
+          timeZone={tz}
+          side="to"
+          {...(b.status === "RUNNING" ? { action: { header: "Correction", render: (m: MovementView) => (m.reversesId === null ? <TakeBackChargeForm movementId={m.id} /> : null) } } : {})}
+        />
+      )}
+      {b.status === "RUNNING" && b.charges.length > 0 ? (
+        <Note>
+          A charge booked by mistake (wrong tank or lot, wrong mass) can be taken back while the batch is reacting: the record gets an opposite movement with your reason, and
+          traces and balances leave the pair out. This only corrects the books. If material really has to leave the reactor, follow the plant&apos;s written procedure and the
+          safety data sheets: methanol and methoxide are toxic and flammable, hydroxides and acid are corrosive, and the charge may be hot.
+        </Note>
+      ) : null}
+      {b.takenBack.length > 0 ? (
+        <>
+          <h3>Charges taken back</h3>
+          <MovementTable rows={b.takenBack} timeZone={tz} side="to" caption="Booked by mistake and reversed; not counted in the batch." />
+        </>
+      ) : null}
 
       <h2>Feedstock and reagent lots in this batch</h2>
       <MadeOf madeOf={madeOf} what="batch" />
