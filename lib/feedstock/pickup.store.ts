@@ -50,10 +50,9 @@ export async function insertPickup(tx: Tx, r: PickupInsert): Promise<PickupSaved
   });
 }
 
-/** Many pickups at once (bulk import); the holders already exist with their stock. */
 const PICKUP_COLUMNS = ["siteId", "holderId", "code", "sourceId", "collectorId", "material", "observedAt", "receivedAt", "containers", "containerTags", "volumeMl", "tempC", "massG", "waterLook", "solidsLook", "notes", "idempotencyKey"] as const;
 
-/** Many pickups at once (imports): the same columns as pickupData, in multi-row statements. */
+/** Many pickups at once (imports; the holders already exist with their stock): pickupData's columns in multi-row statements. */
 export async function insertPickups(tx: Tx, rows: readonly PickupInsert[]): Promise<void> {
   await insertRows(
     tx,

@@ -142,6 +142,18 @@ export interface TraceLedger {
   lastMoveId: number;
 }
 
+/** Ids of every movement that reverses another or is reversed: a booking error and its correction, left out as a pair. */
+export function findReversedPairs(rows: ReadonlyArray<{ id: number; reversesId: number | null }>): Set<number> {
+  const paired = new Set<number>();
+  for (const m of rows) {
+    if (m.reversesId !== null) {
+      paired.add(m.id);
+      paired.add(m.reversesId);
+    }
+  }
+  return paired;
+}
+
 /**
  * The whole site ledger in the trace core's shape. Reversed pairs are left out: a reversal corrects a
  * booking, it is not a physical flow (see indexLedger).
@@ -155,13 +167,7 @@ export async function loadTraceLedger(db: Db | Tx, siteId: number): Promise<Trac
   const fifo = new Set(tanks.filter((t) => t.mixing === "FIFO").map((t) => t.holderId));
   const refs = new Map<number, HolderRef>(holderRows.map((h) => [h.id, toRef(h)]));
   const holders: TraceHolder[] = [...refs.values()].map((h) => ({ id: h.id, kind: h.kind, mixing: fifo.has(h.id) ? "FIFO" : "MIXED" }));
-  const paired = new Set<number>();
-  for (const m of moveRows) {
-    if (m.reversesId !== null) {
-      paired.add(m.id);
-      paired.add(m.reversesId);
-    }
-  }
+  const paired = findReversedPairs(moveRows);
   const moves: TraceMove[] = moveRows
     .filter((m) => !paired.has(m.id))
     .map((m) => ({ id: m.id, at: m.at.getTime(), fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG }));

@@ -3,7 +3,7 @@ import type { Db } from "@/lib/database/connect";
 import { invariant } from "@/lib/errors";
 import { MOVE_ROLES } from "@/lib/ledger/kinds";
 import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
-import { toHolderKind } from "@/lib/ledger/movement.store";
+import { findReversedPairs, toHolderKind } from "@/lib/ledger/movement.store";
 import type { BalanceHolder, BalanceMove, GaugeReading } from "@/lib/mass-balance/period-balance";
 
 /**
@@ -50,13 +50,7 @@ export async function loadBalanceLedger(db: Db, siteId: number): Promise<Balance
     db.wasteContainer.findMany({ where: { siteId }, select: { holderId: true, stream: true } }),
     db.movement.findMany({ where: { siteId }, select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, role: true, reversesId: true } }),
   ]);
-  const paired = new Set<number>();
-  for (const m of moves) {
-    if (m.reversesId !== null) {
-      paired.add(m.id);
-      paired.add(m.reversesId);
-    }
-  }
+  const paired = findReversedPairs(moves);
   const material = new Map<number, string>();
   for (const p of pickups) material.set(p.holderId, p.material);
   for (const l of lots) material.set(l.holderId, l.material);

@@ -237,7 +237,7 @@ function stageLabelOf(ref: HolderRef, stage: number): string {
 /**
  * Monthly snapshots kept per site (twenty years); older months are dropped (a trace then resumes from
  * an earlier start). Without the terminal holders a month's snapshot is the tanks', lots' and open
- * batches' mixtures: about 20 holders and 5,000 origin entries on the ten-year bench plant.
+ * batches' mixtures: about 20 holders and 9,500 origin entries on the ten-year bench plant.
  */
 export const MAX_SNAPSHOTS = 240;
 /** Answers kept per site and ledger version. */
@@ -290,11 +290,6 @@ function monthStartAfter(at: number): number {
 }
 
 /**
- * Replays from the latest snapshot still valid for this index to the end, taking a snapshot at every
- * month start crossed (UTC months; booking-order indexes use the real dates). Fails when the ledger
- * cannot be replayed in this order.
- */
-/**
  * Which holders a snapshot may leave out: shipments, disposals and losses, which keep every origin they
  * ever received (nearly all of a full snapshot's size) and which nothing is drawn from, so no later move
  * depends on their mixture. A backward trace of one of them resumes from before its first receipt.
@@ -310,6 +305,11 @@ function terminalHolders(index: LedgerIndex): ((holderId: number) => boolean) | 
   return (holderId) => terminal.has(holderId);
 }
 
+/**
+ * Replays from the latest snapshot still valid for this index to the end, taking a snapshot at every
+ * month start crossed (UTC months; booking-order indexes use the real dates). Fails when the ledger
+ * cannot be replayed in this order.
+ */
 function extendSnapshots(index: LedgerIndex, kept: readonly ReplaySnapshot[], realAt: ReadonlyMap<number, number>): Result<ReplaySnapshot[]> {
   const leaveOut = terminalHolders(index);
   // Snapshots that left terminal holders out cannot serve a ledger that draws from one.
@@ -359,8 +359,8 @@ function renameIssues(ledger: TraceLedger, issues: readonly DomainIssue[]): Doma
 async function buildState(db: Db, siteId: number, version: LedgerVersion, previous: LedgerState | null, now: Date): Promise<Result<LedgerState>> {
   const started = performance.now();
   // After a booking, read only what is new (holders and movements are append-only); whole otherwise.
-  const extended = previous === null ? null : await extendTraceLedger(db, siteId, previous.ledger, version.count);
-  const [ledger, tankService] = await Promise.all([extended ?? loadTraceLedger(db, siteId), listTankServices(db, siteId)]);
+  const read = previous === null ? loadTraceLedger(db, siteId) : extendTraceLedger(db, siteId, previous.ledger, version.count).then((l) => l ?? loadTraceLedger(db, siteId));
+  const [ledger, tankService] = await Promise.all([read, listTankServices(db, siteId)]);
   const realAt = new Map(ledger.moves.map((m) => [m.id, m.at]));
   let problem: string | null = null;
   for (const order of ["dated", "booked"] as const) {
@@ -686,6 +686,14 @@ function receivedFromCache(state: LedgerState, holderId: number): Result<HolderT
   return back.ok ? back : failMany(renameIssues(state.ledger, back.issues));
 }
 
+/** Forward from a snapshot taken before the first origin entered, so the trace can stop once none of it can move. */
+function forwardFromCache(state: LedgerState, originIds: readonly number[]): Result<ForwardTrace> {
+  const firstPos = originIds.reduce((m, id) => Math.min(m, state.index.positionOf.get(id) ?? Number.POSITIVE_INFINITY), Number.POSITIVE_INFINITY);
+  const from = snapshotCovering(state, firstPos);
+  const fwd = traceForward(state.index, originIds, from === undefined ? {} : { from });
+  return fwd.ok ? fwd : failMany(renameIssues(state.ledger, fwd.issues));
+}
+
 /** What one holder (a batch, a product lot, a shipment) received, through the site's cached index and snapshots. */
 export async function traceReceived(db: Db, siteId: number, holderId: number, now: Date): Promise<Result<CachedTraceView & { back: HolderTrace }>> {
   const state = await requireLedgerState(db, siteId, now);
@@ -703,11 +711,8 @@ export async function traceLotMaterial(db: Db, siteId: number, lotHolderId: numb
   const s = state.value;
   const back = receivedFromCache(s, lotHolderId);
   if (!back.ok) return back;
-  const originIds = back.value.received.origins.map((o) => o.originId);
-  const firstPos = originIds.reduce((m, id) => Math.min(m, s.index.positionOf.get(id) ?? Number.POSITIVE_INFINITY), Number.POSITIVE_INFINITY);
-  const from = snapshotCovering(s, firstPos);
-  const fwd = traceForward(s.index, originIds, from === undefined ? {} : { from });
-  if (!fwd.ok) return failMany(renameIssues(s.ledger, fwd.issues));
+  const fwd = forwardFromCache(s, back.value.received.origins.map((o) => o.originId));
+  if (!fwd.ok) return fwd;
   return ok({ ledger: s.ledger, index: s.index, order: s.order, orderProblem: s.orderProblem, back: back.value, fwd: fwd.value });
 }
 
@@ -741,17 +746,14 @@ function computeForward(state: LedgerState, subject: TraceSubject, kind: Forward
   if (kind === "LOT") {
     const lotId = subject.holderIds[0];
     invariant(lotId !== undefined, "a lot subject has its holder id");
-    const from = snapshotCovering(state, index.into.get(lotId)?.[0] ?? Number.POSITIVE_INFINITY);
-    const back = traceHolder(index, lotId, from === undefined ? {} : { from });
-    if (!back.ok) return failMany(renameIssues(state.ledger, back.issues));
+    const back = receivedFromCache(state, lotId);
+    if (!back.ok) return back;
     originIds = back.value.received.origins.map((o) => o.originId);
   } else {
     originIds = findEntryOrigins(index, subject.holderIds);
   }
-  const firstPos = originIds.reduce((m, id) => Math.min(m, index.positionOf.get(id) ?? Number.POSITIVE_INFINITY), Number.POSITIVE_INFINITY);
-  const from = snapshotCovering(state, firstPos);
-  const fwd = originIds.length === 0 ? null : traceForward(index, originIds, from === undefined ? {} : { from });
-  if (fwd !== null && !fwd.ok) return failMany(renameIssues(state.ledger, fwd.issues));
+  const fwd = originIds.length === 0 ? null : forwardFromCache(state, originIds);
+  if (fwd !== null && !fwd.ok) return fwd;
   const f = fwd?.value ?? null;
   const firstAt = new Map<number, number>();
   for (const m of f?.moves ?? []) {
