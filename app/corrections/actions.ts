@@ -3,8 +3,8 @@ import { revalidatePath } from "next/cache";
 import { getDb } from "@/lib/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { reverseMovement, voidLabResult } from "@/lib/correction/correction.service";
-import { readNumber, readText, readValues, refused } from "@/app/lab/form-values";
-import type { FormState } from "@/app/lab/form-values";
+import { readNumber, readText, readValues, refused } from "@/app/_ui/kit/form-state";
+import type { FormState } from "@/app/_ui/kit/form-state";
 
 // Corrections by production staff, checked on the server for each call; the reason is required.
 

@@ -1,8 +1,8 @@
 "use client";
 import { useActionState, useId } from "react";
 import { reverseMovementAction, voidLabResultAction } from "@/app/corrections/actions";
-import { IDLE } from "@/app/lab/form-values";
-import type { FormState } from "@/app/lab/form-values";
+import { IDLE } from "@/app/_ui/kit/form-state";
+import type { FormState } from "@/app/_ui/kit/form-state";
 
 function ReasonForm({ action, hidden, label, button, title }: { action: (p: FormState, f: FormData) => Promise<FormState>; hidden: Record<string, string>; label: string; button: string; title: string }) {
   const [state, act, pending] = useActionState<FormState, FormData>(action, IDLE);

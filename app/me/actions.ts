@@ -4,8 +4,8 @@ import { getDb } from "@/lib/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { setOwnUnits } from "@/lib/auth/user.service";
 import { SITE_ROLES } from "@/lib/ledger/kinds";
-import { readValues, refused } from "@/app/lab/form-values";
-import type { FormState } from "@/app/lab/form-values";
+import { readValues, refused } from "@/app/_ui/kit/form-state";
+import type { FormState } from "@/app/_ui/kit/form-state";
 
 export async function setOwnUnitsAction(prev: FormState, form: FormData): Promise<FormState> {
   const values = readValues(form, ["unitSystem"]);

@@ -1,8 +1,8 @@
 "use client";
 import { useActionState } from "react";
 import { setOwnUnitsAction } from "@/app/me/actions";
-import { IDLE } from "@/app/lab/form-values";
-import type { FormState } from "@/app/lab/form-values";
+import { IDLE } from "@/app/_ui/kit/form-state";
+import type { FormState } from "@/app/_ui/kit/form-state";
 
 export function UnitsForm({ current }: { current: string }) {
   const [state, act, pending] = useActionState<FormState, FormData>(setOwnUnitsAction, IDLE);

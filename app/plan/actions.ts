@@ -4,8 +4,8 @@ import { revalidatePath } from "next/cache";
 import { getDb } from "@/lib/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { recordPlannedBatch } from "@/lib/batch/plan.service";
-import { readText, refused } from "@/app/lab/form-values";
-import type { FormState } from "@/app/lab/form-values";
+import { readText, refused } from "@/app/_ui/kit/form-state";
+import type { FormState } from "@/app/_ui/kit/form-state";
 import { paramsFromQueryString, planRequestFromParams } from "@/app/plan/plan-query";
 
 export async function recordPlanAction(prev: FormState, form: FormData): Promise<FormState> {

@@ -14,7 +14,7 @@ import { DEFAULT_ACID_STEP_SETTINGS, DEFAULT_PRETREATMENT_LIMITS } from "@/lib/r
 import { kg, num, pct, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { Empty, NoSite, Note } from "@/app/_ui/ui";
-import { toFormErrors } from "@/app/lab/form-values";
+import { toFormErrors } from "@/app/_ui/kit/form-state";
 import { RecipeCardView } from "@/app/plan/recipe-card";
 import { RecordPlanForm } from "@/app/plan/record-form";
 import { PLAN_NUMBER_FIELDS, PLAN_TEXT_FIELDS, firstParam, planQueryString, planRequestFromParams } from "@/app/plan/plan-query";

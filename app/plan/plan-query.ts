@@ -1,4 +1,4 @@
-import { toNumber } from "@/app/lab/form-values";
+import { toNumber } from "@/app/_ui/kit/form-state";
 
 export type SearchParams = Record<string, string | string[] | undefined>;
 

@@ -1,8 +1,8 @@
 "use client";
 import { startTransition, useActionState } from "react";
 import { recordPlanAction } from "@/app/plan/actions";
-import { IDLE } from "@/app/lab/form-values";
-import type { FormState } from "@/app/lab/form-values";
+import { IDLE } from "@/app/_ui/kit/form-state";
+import type { FormState } from "@/app/_ui/kit/form-state";
 
 export function RecordPlanForm({ query, suggestedCode }: { query: string; suggestedCode: string }) {
   const [state, action, pending] = useActionState<FormState, FormData>(recordPlanAction, IDLE);

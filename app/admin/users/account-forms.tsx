@@ -2,8 +2,8 @@
 import { useActionState, useId } from "react";
 import type { ReactNode } from "react";
 import { changeUserAction, createUserAction, endSessionsAction, resetPasswordAction } from "@/app/admin/users/actions";
-import { IDLE } from "@/app/lab/form-values";
-import type { FormState } from "@/app/lab/form-values";
+import { IDLE } from "@/app/_ui/kit/form-state";
+import type { FormState } from "@/app/_ui/kit/form-state";
 
 const ROLE_WORDS: ReadonlyArray<readonly [string, string]> = [
   ["COLLECTOR", "Collector"],

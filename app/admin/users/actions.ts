@@ -3,8 +3,8 @@ import { revalidatePath } from "next/cache";
 import { getDb } from "@/lib/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { changeUser, createUser, endSessions, resetPassword } from "@/lib/auth/user.service";
-import { readText, readValues, refused } from "@/app/lab/form-values";
-import type { FormState } from "@/app/lab/form-values";
+import { readText, readValues, refused } from "@/app/_ui/kit/form-state";
+import type { FormState } from "@/app/_ui/kit/form-state";
 
 // Every account change is an administrator's, checked here on the server for each call.
 

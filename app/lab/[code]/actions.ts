@@ -4,8 +4,8 @@ import { getDb } from "@/lib/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { recordTitration } from "@/lib/feedstock/titration.service";
 import { decideLot, recordLabTest } from "@/lib/feedstock/lot.service";
-import { readNumber, readText, readValues, refused } from "@/app/lab/form-values";
-import type { FormState } from "@/app/lab/form-values";
+import { readNumber, readText, readValues, refused } from "@/app/_ui/kit/form-state";
+import type { FormState } from "@/app/_ui/kit/form-state";
 import { LAB_TEST_FIELDS, TITRATION_FIELDS } from "@/app/lab/[code]/fields";
 
 function paths(lotCode: string): void {

@@ -1,8 +1,8 @@
 "use client";
 import { startTransition, useActionState } from "react";
 import { decideLotAction } from "@/app/lab/[code]/actions";
-import { IDLE } from "@/app/lab/form-values";
-import type { FormState } from "@/app/lab/form-values";
+import { IDLE } from "@/app/_ui/kit/form-state";
+import type { FormState } from "@/app/_ui/kit/form-state";
 
 export function DecisionForm({ lotCode, titrations }: { lotCode: string; titrations: number }) {
   const [state, action, pending] = useActionState<FormState, FormData>(decideLotAction, IDLE);

@@ -1,8 +1,8 @@
 "use client";
 import { startTransition, useActionState } from "react";
 import { recordLabTestAction } from "@/app/lab/[code]/actions";
-import { IDLE } from "@/app/lab/form-values";
-import type { FormState } from "@/app/lab/form-values";
+import { IDLE } from "@/app/_ui/kit/form-state";
+import type { FormState } from "@/app/_ui/kit/form-state";
 
 const METHOD_HINTS = ["Karl Fischer (lab SOP W-2)", "Karl Fischer, coulometric", "Oven loss at 105 °C", "Insolubles by filtration (lab SOP)", "Unsaponifiable matter (lab SOP)"];
 

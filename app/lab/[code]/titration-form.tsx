@@ -13,8 +13,8 @@ import {
 import type { FfaBasis } from "@/lib/titration/titration";
 import { formatFixed } from "@/lib/quantity/units";
 import { recordTitrationAction } from "@/app/lab/[code]/actions";
-import { IDLE, toNumber } from "@/app/lab/form-values";
-import type { FormState } from "@/app/lab/form-values";
+import { IDLE, toNumber } from "@/app/_ui/kit/form-state";
+import type { FormState } from "@/app/_ui/kit/form-state";
 
 type Values = Record<"sampleMassG" | "titrant" | "concentrationMolL" | "titreMl" | "blankMl" | "basis", string>;
 

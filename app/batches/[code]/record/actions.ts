@@ -4,8 +4,8 @@ import { redirect } from "next/navigation";
 import { getDb } from "@/lib/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { completeBatch, startBatch } from "@/lib/batch/batch.service";
-import { readText, refused, toNumber } from "@/app/lab/form-values";
-import type { FormState } from "@/app/lab/form-values";
+import { readText, refused, toNumber } from "@/app/_ui/kit/form-state";
+import type { FormState } from "@/app/_ui/kit/form-state";
 
 /** Rows named "<list>.<i>.<field>" → objects in row order; rows left wholly empty are dropped. */
 function readRows(form: FormData, list: string, fields: readonly string[]): { rows: Array<Record<string, string>>; values: Record<string, string> } {

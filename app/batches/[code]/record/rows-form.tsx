@@ -2,8 +2,8 @@
 import { startTransition, useActionState, useState } from "react";
 import { formatFixed } from "@/lib/quantity/units";
 import { completeBatchAction, startBatchAction } from "@/app/batches/[code]/record/actions";
-import { IDLE, toNumber } from "@/app/lab/form-values";
-import type { FormState } from "@/app/lab/form-values";
+import { IDLE, toNumber } from "@/app/_ui/kit/form-state";
+import type { FormState } from "@/app/_ui/kit/form-state";
 
 export interface ChargeRow {
   fromKind: string;

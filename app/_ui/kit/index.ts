@@ -1,0 +1,7 @@
+// The small UI kit every screen is written on: tables, record headers, forms, state marks, cautions.
+export { DataTable } from "@/app/_ui/kit/data-table";
+export type { Column } from "@/app/_ui/kit/data-table";
+export { RecordHeader } from "@/app/_ui/kit/record-header";
+export { StatusMark, statusFamily } from "@/app/_ui/kit/status-mark";
+export { Cautions } from "@/app/_ui/kit/cautions";
+export { ConfidenceMark } from "@/app/_ui/kit/confidence-mark";

@@ -1,0 +1,44 @@
+import Link from "next/link";
+import type { ReactNode } from "react";
+import { StatusMark } from "@/app/_ui/kit/status-mark";
+
+/** The top of every record page: what it is, its number, its state, the key facts and what can be done. */
+export function RecordHeader({
+  kind,
+  number,
+  status,
+  facts = [],
+  actions,
+  back,
+}: {
+  kind: string;
+  number: string;
+  status?: { code: string; label?: string };
+  facts?: ReadonlyArray<readonly [string, ReactNode]>;
+  actions?: ReactNode;
+  back?: { href: string; label: string };
+}) {
+  return (
+    <header className="record-header">
+      {back ? (
+        <p className="crumbs">
+          <Link href={back.href}>{back.label}</Link>
+        </p>
+      ) : null}
+      <h1>
+        <span className="record-kind">{kind}</span> <span className="code">{number}</span> {status ? <StatusMark code={status.code} label={status.label} /> : null}
+      </h1>
+      {facts.length > 0 ? (
+        <dl className="facts">
+          {facts.map(([term, value]) => (
+            <div key={term}>
+              <dt>{term}</dt>
+              <dd>{value}</dd>
+            </div>
+          ))}
+        </dl>
+      ) : null}
+      {actions ? <div className="record-actions">{actions}</div> : null}
+    </header>
+  );
+}
