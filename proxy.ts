@@ -37,6 +37,8 @@ export function proxy(request: NextRequest): NextResponse {
   } else {
     const headers = new Headers(request.headers);
     headers.set("x-nonce", nonce);
+    // Pages check the read matrix against the path asked for (app/_ui/site.ts).
+    headers.set("x-pathname", path);
     headers.set("Content-Security-Policy", csp);
     response = NextResponse.next({ request: { headers } });
   }

@@ -6,6 +6,7 @@ import { MainNav } from "@/app/_ui/nav";
 import { loadHeader } from "@/app/_ui/site";
 import { signOutAction } from "@/app/login/actions";
 import { labelOf } from "@/lib/ledger/kinds";
+import { menuFor } from "@/lib/auth/read-matrix";
 import "./globals.css";
 
 // Every page reads the books; nothing is prerendered at build time (the not-found page included).
@@ -42,7 +43,7 @@ export default async function RootLayout({ children }: { children: ReactNode }) 
               </button>
             </form>
           ) : null}
-          {user ? <MainNav /> : null}
+          {user ? <MainNav items={menuFor(user.role)} /> : null}
           {user ? <SignOutGuard /> : null}
         </header>
         <main id="main" tabIndex={-1}>

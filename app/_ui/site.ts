@@ -1,5 +1,6 @@
 import "server-only";
-import { redirect } from "next/navigation";
+import { headers } from "next/headers";
+import { forbidden, redirect } from "next/navigation";
 import { cache } from "react";
 import { getDb } from "@/lib/db";
 import type { Db } from "@/lib/database/connect";
@@ -8,11 +9,21 @@ import type { SiteRow } from "@/lib/site/site.store";
 import { getSignedIn } from "@/lib/auth/request.service";
 import { warmTraceCache } from "@/lib/trace/trace.service";
 import type { SignedIn } from "@/lib/auth/request.service";
+import { canRead, homeFor } from "@/lib/auth/read-matrix";
 
-/** The database, the signed-in user and their site, once per request; pages need a signed-in user. */
+/**
+ * The database, the signed-in user and their site, once per request; pages need a signed-in user who
+ * may read the page asked for (lib/auth/read-matrix.ts). A collector sent to the overview goes to
+ * their route instead; any other page a role may not read answers 403 with no data.
+ */
 export const loadSite = cache(async (): Promise<{ db: Db; site: SiteRow | null; user: SignedIn }> => {
   const user = await getSignedIn();
   if (!user) redirect("/login");
+  const path = (await headers()).get("x-pathname") ?? "";
+  if (!canRead(user.role, path)) {
+    if (path === "/" && homeFor(user.role) !== "/") redirect(homeFor(user.role));
+    forbidden();
+  }
   const db = await getDb();
   return { db, site: await getSiteById(db, user.siteId), user };
 });

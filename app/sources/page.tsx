@@ -1,79 +1,64 @@
 import type { Metadata } from "next";
 import { labelOf } from "@/lib/ledger/kinds";
 import { listSources } from "@/lib/source/source.store";
+import type { SourceRow } from "@/lib/source/source.store";
+import { servedByCollectors } from "@/lib/source/served";
 import { day } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
-import { CodeLink, Empty, HistoryLink, NoSite } from "@/app/_ui/ui";
+import { CodeLink, HistoryLink, NoSite } from "@/app/_ui/ui";
+import { DataTable } from "@/app/_ui/kit";
+import type { Column } from "@/app/_ui/kit";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Sources" };
 
 export default async function SourcesPage() {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
-  const rows = await listSources(db, site.id);
-  const now = new Date();
+  const collector = user.role === "COLLECTOR";
+  const all = await listSources(db, site.id);
+  // Collectors see the route's sources; certificates stay with the office.
+  const rows = collector ? all.filter(servedByCollectors) : all;
+  const now = user.now;
+  const tz = site.timeZone;
+  const columns: Array<Column<SourceRow>> = [
+    { key: "code", header: "Code", cell: (s) => <CodeLink href={`/sources/${encodeURIComponent(s.code)}`} code={s.code} /> },
+    { key: "name", header: "Name", cell: (s) => s.name },
+    { key: "kind", header: "Kind", cell: (s) => labelOf(s.kind) },
+    { key: "materials", header: "Materials", cell: (s) => s.materials.map(labelOf).join(", ") },
+    ...(collector
+      ? []
+      : [
+          {
+            key: "certificate",
+            header: "Certificate",
+            cell: (s: SourceRow) =>
+              s.certificateNo ? (
+                <>
+                  {s.certificateNo}{" "}
+                  {s.certificateExpires && s.certificateExpires < now ? (
+                    <span className="status status-fail">expired {day(s.certificateExpires, tz)}</span>
+                  ) : (
+                    <span className="muted">to {day(s.certificateExpires, tz)}</span>
+                  )}
+                </>
+              ) : (
+                <span className="muted">none</span>
+              ),
+          },
+        ]),
+    { key: "every", header: "Pickup every", numeric: true, cell: (s) => (s.pickupEveryDays === null ? "—" : `${s.pickupEveryDays} d`) },
+    { key: "pickups", header: "Pickups", numeric: true, cell: (s) => s.pickups },
+    { key: "last", header: "Last pickup", cell: (s) => <span className="nowrap">{day(s.lastPickupAt, tz)}</span> },
+    { key: "history", header: "History", cell: (s) => <HistoryLink kind="source" recordKey={s.code} label="source" /> },
+  ];
   return (
     <>
       <h1>Sources</h1>
-      <p className="lede">Restaurants, food processors, renderers, crushers and other suppliers the plant collects from or buys from.</p>
-      {rows.length === 0 ? (
-        <Empty>No sources recorded yet.</Empty>
-      ) : (
-        <div className="table-wrap">
-          <table>
-            <thead>
-              <tr>
-                <th scope="col">Code</th>
-                <th scope="col">Name</th>
-                <th scope="col">Kind</th>
-                <th scope="col">Materials</th>
-                <th scope="col">Certificate</th>
-                <th scope="col" className="num">
-                  Pickup every
-                </th>
-                <th scope="col" className="num">
-                  Pickups
-                </th>
-                <th scope="col">Last pickup</th>
-                <th scope="col">History</th>
-              </tr>
-            </thead>
-            <tbody>
-              {rows.map((s) => (
-                <tr key={s.code}>
-                  <td>
-                    <CodeLink href={`/sources/${encodeURIComponent(s.code)}`} code={s.code} />
-                  </td>
-                  <td>{s.name}</td>
-                  <td>{labelOf(s.kind)}</td>
-                  <td>{s.materials.map(labelOf).join(", ")}</td>
-                  <td>
-                    {s.certificateNo ? (
-                      <>
-                        {s.certificateNo}{" "}
-                        {s.certificateExpires && s.certificateExpires < now ? (
-                          <span className="status status-fail">expired {day(s.certificateExpires, site.timeZone)}</span>
-                        ) : (
-                          <span className="muted">to {day(s.certificateExpires, site.timeZone)}</span>
-                        )}
-                      </>
-                    ) : (
-                      <span className="muted">none</span>
-                    )}
-                  </td>
-                  <td className="num">{s.pickupEveryDays === null ? "—" : `${s.pickupEveryDays} d`}</td>
-                  <td className="num">{s.pickups}</td>
-                  <td className="nowrap">{day(s.lastPickupAt, site.timeZone)}</td>
-                  <td>
-                    <HistoryLink kind="source" recordKey={s.code} label="source" />
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
-      )}
+      <p className="lede">
+        {collector ? "The places on the collection route." : "Restaurants, food processors, renderers, crushers and other suppliers the plant collects from or buys from."}
+      </p>
+      <DataTable caption="Sources" hideCaption columns={columns} rows={rows} rowKey={(s) => s.code} empty="No sources recorded yet." />
     </>
   );
 }

@@ -4,6 +4,8 @@ import { getDb } from "@/lib/db";
 import type { Result } from "@/lib/errors";
 import { fail, ok } from "@/lib/errors";
 import type { SiteRole } from "@/lib/ledger/kinds";
+import { SITE_ROLES } from "@/lib/ledger/kinds";
+import { readersOf } from "@/lib/auth/read-matrix";
 import type { Actor } from "@/lib/site/actor";
 import type { SessionUser } from "@/lib/auth/session.service";
 import { resolveSession } from "@/lib/auth/session.service";
@@ -42,4 +44,15 @@ export async function requireRole(roles: readonly SiteRole[]): Promise<Result<Si
   if (!user) return fail("AUTH.UNAUTHENTICATED", "Sign in first");
   if (!roles.includes(user.role)) return fail("AUTH.FORBIDDEN", `This needs one of these roles: ${roles.map((r) => r.toLowerCase()).join(", ")}`);
   return ok(user);
+}
+
+/** Server-side read check for GET routes, exports and reports: the read matrix decides by path. */
+export async function requireReader(request: Request): Promise<Result<SignedIn>> {
+  const roles = readersOf(new URL(request.url).pathname);
+  if (roles === "public") return requireRole(SITE_ROLES);
+  if (roles.length === 0) {
+    const user = await getSignedIn();
+    return user ? fail("AUTH.FORBIDDEN", "No role may read this address") : fail("AUTH.UNAUTHENTICATED", "Sign in first");
+  }
+  return requireRole(roles);
 }

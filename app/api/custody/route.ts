@@ -1,17 +1,16 @@
 import type { NextResponse } from "next/server";
-import { requireRole } from "@/lib/auth/request.service";
+import { requireReader } from "@/lib/auth/request.service";
 import { respond } from "@/lib/api/json-route.service";
 import { getCustodyReport } from "@/lib/custody/custody.service";
 import { getDb } from "@/lib/db";
 import { fail } from "@/lib/errors";
-import { SITE_ROLES } from "@/lib/ledger/kinds";
 import { getSiteById } from "@/lib/site/site.store";
 
 export const dynamic = "force-dynamic";
 
 /** GET /api/custody?period=2026-Q4&operatorType=&claimKg=&claimSet= — the chain-of-custody page's answer. */
 export async function GET(request: Request): Promise<NextResponse> {
-  const who = await requireRole(SITE_ROLES);
+  const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const db = await getDb();
   const site = await getSiteById(db, who.value.siteId);

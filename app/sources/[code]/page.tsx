@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound } from "next/navigation";
+import { forbidden, notFound } from "next/navigation";
+import { servedByCollectors } from "@/lib/source/served";
 import { labelOf } from "@/lib/ledger/kinds";
 import { listPickups } from "@/lib/feedstock/pickup.store";
 import { listSources } from "@/lib/source/source.store";
@@ -18,12 +19,14 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
 }
 
 export default async function SourcePage({ params, searchParams }: Props) {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const code = codeParam((await params).code);
   const page = pageParam((await searchParams).page);
   const source = (await listSources(db, site.id)).find((s) => s.code === code);
   if (!source) notFound();
+  const collector = user.role === "COLLECTOR";
+  if (collector && !servedByCollectors(source)) forbidden();
   const pickups = await listPickups(db, site.id, { sourceId: source.id, skip: (page - 1) * PAGE_SIZE, take: PAGE_SIZE });
   const tz = site.timeZone;
   return (
@@ -39,8 +42,8 @@ export default async function SourcePage({ params, searchParams }: Props) {
           ["Kind", labelOf(source.kind)],
           ["Materials", source.materials.map(labelOf).join(", ")],
           ["Address", source.address || "—"],
-          ["Certificate", source.certificateNo ? `${source.certificateNo}${source.certificateScheme ? ` (${source.certificateScheme})` : ""}` : "none"],
-          ["Certificate expires", day(source.certificateExpires, tz)],
+          ...(collector ? [] : ([["Certificate", source.certificateNo ? `${source.certificateNo}${source.certificateScheme ? ` (${source.certificateScheme})` : ""}` : "none"],
+          ["Certificate expires", day(source.certificateExpires, tz)]] as Array<[string, string]>)),
           ["Pickup every", source.pickupEveryDays === null ? "—" : `${source.pickupEveryDays} days`],
           ["Pickups recorded", String(source.pickups)],
           ["Last pickup", when(source.lastPickupAt, tz)],

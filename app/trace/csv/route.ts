@@ -1,9 +1,8 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
-import { requireRole } from "@/lib/auth/request.service";
+import { requireReader } from "@/lib/auth/request.service";
 import { respond } from "@/lib/api/json-route.service";
 import { oneOf } from "@/lib/ledger/fields";
-import { SITE_ROLES } from "@/lib/ledger/kinds";
 import { parseInput } from "@/lib/ledger/parse";
 import { getSiteById } from "@/lib/site/site.store";
 import { getDb } from "@/lib/db";
@@ -35,7 +34,7 @@ function csvResponse(body: string, name: string): NextResponse {
 
 /** The trace tables of the /trace page as CSV, from the same service answer the page shows. */
 export async function GET(request: Request): Promise<NextResponse> {
-  const who = await requireRole(SITE_ROLES);
+  const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const q = parseInput(CsvQuerySchema, Object.fromEntries(new URL(request.url).searchParams));
   if (!q.ok) return respond(q);

@@ -1,8 +1,7 @@
 import type { NextResponse } from "next/server";
 import { getDb } from "@/lib/db";
 import { fail, ok } from "@/lib/errors";
-import { SITE_ROLES } from "@/lib/ledger/kinds";
-import { requireRole } from "@/lib/auth/request.service";
+import { requireReader } from "@/lib/auth/request.service";
 import { parseQuery, respond } from "@/lib/api/json-route.service";
 import { BatchYieldQuerySchema } from "@/lib/api/endpoints/lab";
 import { getBatchDetail } from "@/lib/batch/batch.store";
@@ -12,7 +11,7 @@ export const dynamic = "force-dynamic";
 
 /** Yield of a recorded batch against its plan. */
 export async function GET(request: Request): Promise<NextResponse> {
-  const who = await requireRole(SITE_ROLES);
+  const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const input = parseQuery(request, BatchYieldQuerySchema);
   if (!input.ok) return respond(input);

@@ -1,6 +1,5 @@
 import type { NextResponse } from "next/server";
-import { SITE_ROLES } from "@/lib/ledger/kinds";
-import { requireRole } from "@/lib/auth/request.service";
+import { requireReader } from "@/lib/auth/request.service";
 import { parseQuery, respond } from "@/lib/api/json-route.service";
 import { SampleSizeQuerySchema, answerSampleSize } from "@/lib/api/endpoints/lab";
 
@@ -8,7 +7,7 @@ export const dynamic = "force-dynamic";
 
 /** AOCS Ca 5a-40 Table 1: sample mass and titrant for an expected FFA. */
 export async function GET(request: Request): Promise<NextResponse> {
-  const who = await requireRole(SITE_ROLES);
+  const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const input = parseQuery(request, SampleSizeQuerySchema);
   if (!input.ok) return respond(input);

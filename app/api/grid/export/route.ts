@@ -1,13 +1,13 @@
 import { NextResponse } from "next/server";
 import { getDb } from "@/lib/db";
 import { parseQuery, respond } from "@/lib/api/json-route.service";
-import { requireRole } from "@/lib/auth/request.service";
+import { requireReader } from "@/lib/auth/request.service";
 import { GridExportSchema } from "@/lib/grid/query.schema";
 import { exportGrid } from "@/lib/grid/export.service";
 
 /** The whole filtered, sorted view as CSV or XLSX, in the user's units, formula-like text neutralised. */
 export async function GET(request: Request): Promise<NextResponse> {
-  const who = await requireRole(["COLLECTOR", "PRODUCTION", "COMPLIANCE", "ADMIN"]);
+  const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const q = parseQuery(request, GridExportSchema);
   if (!q.ok) return respond(q);

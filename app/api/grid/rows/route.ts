@@ -1,14 +1,14 @@
 import type { NextResponse } from "next/server";
 import { getDb } from "@/lib/db";
 import { parseQuery, respond } from "@/lib/api/json-route.service";
-import { requireRole } from "@/lib/auth/request.service";
+import { requireReader } from "@/lib/auth/request.service";
 import { GridQuerySchema } from "@/lib/grid/query.schema";
 import { listGridRows } from "@/lib/grid/grid.service";
 import { ok } from "@/lib/errors";
 
 /** One block of a grid table for the infinite row model: rows, the filtered count and totals within the filter. */
 export async function GET(request: Request): Promise<NextResponse> {
-  const who = await requireRole(["COLLECTOR", "PRODUCTION", "COMPLIANCE", "ADMIN"]);
+  const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const q = parseQuery(request, GridQuerySchema);
   if (!q.ok) return respond(q);

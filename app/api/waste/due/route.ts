@@ -1,9 +1,8 @@
 import type { NextResponse } from "next/server";
-import { requireRole } from "@/lib/auth/request.service";
+import { requireReader } from "@/lib/auth/request.service";
 import { respond } from "@/lib/api/json-route.service";
 import { getDb } from "@/lib/db";
 import { fail } from "@/lib/errors";
-import { SITE_ROLES } from "@/lib/ledger/kinds";
 import { getSiteById } from "@/lib/site/site.store";
 import { getWasteDueReport } from "@/app/waste/due/due-report";
 
@@ -11,7 +10,7 @@ export const dynamic = "force-dynamic";
 
 /** GET /api/waste/due?days=30&category=LQG|SQG|VSQG&tsdfMiles= — the waste-due page's answer. */
 export async function GET(request: Request): Promise<NextResponse> {
-  const who = await requireRole(SITE_ROLES);
+  const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const db = await getDb();
   const site = await getSiteById(db, who.value.siteId);

@@ -1,13 +1,13 @@
 import type { NextResponse } from "next/server";
 import { getDb } from "@/lib/db";
 import { respond } from "@/lib/api/json-route.service";
-import { requireRole } from "@/lib/auth/request.service";
+import { requireReader } from "@/lib/auth/request.service";
 import { HOLDER_KINDS } from "@/lib/ledger/kinds";
 import { getHolderStock } from "@/lib/ledger/movement.store";
 
 /** Book stock of one holder (lot, tank, product lot, …) in grams. */
-export async function GET(_request: Request, context: { params: Promise<{ kind: string; code: string }> }): Promise<NextResponse> {
-  const who = await requireRole(["COLLECTOR", "PRODUCTION", "COMPLIANCE", "ADMIN"]);
+export async function GET(request: Request, context: { params: Promise<{ kind: string; code: string }> }): Promise<NextResponse> {
+  const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const { kind, code } = await context.params;
   const k = kind.toUpperCase();
