@@ -1,9 +1,18 @@
+import { execFileSync } from "node:child_process";
 import { defineConfig } from "@playwright/test";
 
 // Debian's Chromium (no browser downloads here). Each server is the production build on a fresh
 // demo database of its own: SQLite for every journey, PostgreSQL (a shorter demo) for the load test.
-const port = Number(process.env.E2E_PORT ?? 3100);
-const pgPort = port + 1;
+// Their own ports: a free one chosen once by the runner (workers inherit it through the environment),
+// so the journeys never collide with the app the README starts on 3100.
+function freePort(): string {
+  const script = "const s=require('net').createServer();s.listen(0,'127.0.0.1',()=>{process.stdout.write(String(s.address().port));s.close()})";
+  return execFileSync(process.execPath, ["-e", script], { encoding: "utf8" }).trim();
+}
+process.env.E2E_PORT ??= freePort();
+process.env.E2E_PG_PORT ??= freePort();
+const port = Number(process.env.E2E_PORT);
+const pgPort = Number(process.env.E2E_PG_PORT);
 const withPg = process.env.E2E_PG !== "0";
 
 export default defineConfig({
