@@ -7,7 +7,9 @@ const nextConfig = {
   serverExternalPackages: ["@prisma/adapter-better-sqlite3", "@prisma/adapter-pg", "better-sqlite3", "pg", "highs"],
   turbopack: { root: import.meta.dirname },
   // forbidden(): a page a role may not read answers 403 with app/forbidden.tsx (lib/auth/read-matrix.ts).
-  experimental: { authInterrupts: true },
+  // proxyClientMaxBodySize: the proxy buffers request bodies; the largest route (a grid file import,
+  // lib/grid/sheet.ts MAX_IMPORT_BYTES as JSON text) must arrive whole so the route can judge it.
+  experimental: { authInterrupts: true, proxyClientMaxBodySize: "22mb" },
 };
 
 export default nextConfig;

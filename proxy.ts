@@ -23,13 +23,26 @@ function contentSecurityPolicy(nonce: string, dev: boolean): string {
 
 const PUBLIC_PAGES = ["/login"];
 
+/** Next reads at most 1 MB of a server action's body; a larger one is refused here with its limit named. */
+const ACTION_BODY_LIMIT = 1_000_000;
+
+function tooLargeAction(request: NextRequest): NextResponse | null {
+  if (request.method !== "POST" || !request.headers.has("next-action")) return null;
+  const length = Number(request.headers.get("content-length") ?? "");
+  if (!(length > ACTION_BODY_LIMIT)) return null;
+  return new NextResponse("The request is larger than 1 MB", { status: 413, headers: { "content-type": "text/plain; charset=utf-8" } });
+}
+
 export function proxy(request: NextRequest): NextResponse {
   const nonce = Buffer.from(crypto.randomUUID()).toString("base64");
   const csp = contentSecurityPolicy(nonce, process.env.NODE_ENV !== "production");
   const path = request.nextUrl.pathname;
   const hasSession = request.cookies.has("tv_session") || request.cookies.has("__Host-tv_session");
   let response: NextResponse;
-  if (!hasSession && !path.startsWith("/api/") && !PUBLIC_PAGES.includes(path)) {
+  const refused = tooLargeAction(request);
+  if (refused) {
+    response = refused;
+  } else if (!hasSession && !path.startsWith("/api/") && !PUBLIC_PAGES.includes(path)) {
     const url = request.nextUrl.clone();
     url.search = `?next=${encodeURIComponent(path + request.nextUrl.search)}`;
     url.pathname = "/login";

@@ -5,8 +5,13 @@ export default function ErrorPage({ error, reset }: { error: Error & { digest?: 
     <>
       <h1>This page could not be shown</h1>
       <p className="empty">
-        The server could not read the books for this page{error.digest ? ` (reference ${error.digest})` : ""}. Check that the database is
-        migrated, then try again.
+        Something went wrong on the server and nothing was saved.
+        {error.digest ? (
+          <>
+            {" "}
+            Tell your administrator this reference: <strong className="code">{error.digest}</strong>
+          </>
+        ) : null}
       </p>
       <p>
         <button type="button" onClick={reset}>

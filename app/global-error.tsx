@@ -1,7 +1,7 @@
 "use client";
 import "./globals.css";
 
-// Shown when even the layout cannot read the books (for example, the database is not migrated yet).
+// Shown when even the layout cannot be drawn; the reference is also in the server's log.
 export default function GlobalError({ error, reset }: { error: Error & { digest?: string }; reset: () => void }) {
   return (
     <html lang="en">
@@ -14,8 +14,8 @@ export default function GlobalError({ error, reset }: { error: Error & { digest?
         <main id="main">
           <h1>Tracevat could not start this page</h1>
           <p className="empty">
-            The server could not read the books{error.digest ? ` (reference ${error.digest})` : ""}. Check that the database exists and is
-            migrated, then try again.
+            Something went wrong on the server and nothing was saved.
+            {error.digest ? ` Tell your administrator this reference: ${error.digest}` : ""}
           </p>
           <p>
             <button type="button" onClick={reset}>

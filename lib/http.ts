@@ -2,6 +2,7 @@
 import type { DomainIssue } from "@/lib/errors";
 
 const BY_PREFIX: Array<[RegExp, number]> = [
+  [/^INPUT\.TOO_LARGE$/, 413],
   [/^INPUT\./, 422],
   [/^RECORD\.NOT_FOUND$/, 404],
   [/^RECORD\.DUPLICATE$/, 409],
@@ -12,7 +13,13 @@ const BY_PREFIX: Array<[RegExp, number]> = [
   [/^IDEMPOTENCY\.KEY_(REQUIRED|INVALID)$/, 400],
   [/^IDEMPOTENCY\.IN_PROGRESS$/, 409],
   [/^PERIOD\.CLOSED$/, 409],
-  [/^LEDGER\.OVERDRAW$/, 409],
+  // Conflicts with the state of the books: over-draw, over-fill, a cycle, something already done.
+  [/^LEDGER\.(OVERDRAW|OVERDRAW_IN_TIME|CYCLE)$/, 409],
+  [/^TANK\.OVERFILL$/, 409],
+  [/^CORRECTION\.ALREADY_(REVERSED|VOIDED)$/, 409],
+  [/^(PRODUCT|LOT)\.(ALREADY_)?DECIDED$/, 409],
+  [/^PICKUP\.ALREADY_RECEIVED$/, 409],
+  [/^PERIOD\.ALREADY_CLOSED$/, 409],
 ];
 
 /** 422 for bad input, 404/409 for state conflicts; any other expected refusal is a 422 with its code. */

@@ -32,17 +32,59 @@ export function requireSameOrigin(request: Request): Result<true> {
   return { ok: true, value: true };
 }
 
-/** Reads a JSON body; a body that is not JSON is a 422 that says so, never a 500. */
-export async function readJson(request: Request): Promise<Result<unknown>> {
+/** The largest JSON body a route reads unless it names its own limit (imports do). */
+export const MAX_JSON_BYTES = 1_000_000;
+
+/** Bulk writes (a pickup import of up to 5,000 rows, a pasted grid block) read up to this much. */
+export const MAX_BULK_JSON_BYTES = 5_000_000;
+
+export function describeBytes(bytes: number): string {
+  return bytes >= 1_000_000 ? `${bytes / 1_000_000} MB` : `${bytes / 1_000} kB`;
+}
+
+function tooLarge(limit: number): Result<never> {
+  return { ok: false, issues: [{ code: "INPUT.TOO_LARGE", message: `The request is larger than ${describeBytes(limit)}` }] };
+}
+
+/** The body as text, or null once it passes `limit` bytes (the rest is not read). */
+async function readLimited(request: Request, limit: number): Promise<string | null> {
+  if (request.body === null) return "";
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > limit) {
+      await reader.cancel();
+      return null;
+    }
+    chunks.push(value);
+  }
+  return Buffer.concat(chunks).toString("utf8");
+}
+
+/** Reads a JSON body: over the limit is a 413 that names it, a body that is not JSON a 422 — never a 500. */
+export async function readJson(request: Request, limit = MAX_JSON_BYTES): Promise<Result<unknown>> {
+  const declared = Number(request.headers.get("content-length") ?? "");
+  if (Number.isFinite(declared) && declared > limit) return tooLarge(limit);
+  let text: string | null;
   try {
-    return { ok: true, value: await request.json() };
+    text = await readLimited(request, limit);
+  } catch {
+    return { ok: false, issues: [{ code: "INPUT.NOT_JSON", message: "The request body could not be read" }] };
+  }
+  if (text === null) return tooLarge(limit);
+  try {
+    return { ok: true, value: JSON.parse(text) as unknown };
   } catch {
     return { ok: false, issues: [{ code: "INPUT.NOT_JSON", message: "The request body must be JSON" }] };
   }
 }
 
-export async function parseBody<S extends z.ZodType>(request: Request, schema: S): Promise<Result<z.output<S>>> {
-  const body = await readJson(request);
+export async function parseBody<S extends z.ZodType>(request: Request, schema: S, limit = MAX_JSON_BYTES): Promise<Result<z.output<S>>> {
+  const body = await readJson(request, limit);
   return body.ok ? parseInput(schema, body.value) : body;
 }
 

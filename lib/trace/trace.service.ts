@@ -1,4 +1,5 @@
 import "server-only";
+import { log } from "@/lib/log/log.service";
 // Traceability answers for the pages and the JSON API: backward ("what is in this product lot, tank,
 // shipment or batch?") and forward ("where did this source, pickup or lot go?"), by lot, pickup,
 // source, material kind and certification, with a stage graph.
@@ -724,7 +725,13 @@ export function warmTraceCache(db: Db, siteId: number, now: Date): void {
   if (cache.has(siteId) || warming.has(siteId)) return;
   warming.add(siteId);
   requireLedgerState(db, siteId, now)
-    .catch(() => cache.delete(siteId))
+    .then((state) => {
+      if (!state.ok) log.warn({ siteId, issues: state.issues }, "the trace index could not be built");
+    })
+    .catch((err: unknown) => {
+      log.error({ err, siteId }, "building the trace index failed");
+      cache.delete(siteId);
+    })
     .finally(() => warming.delete(siteId));
 }
 

@@ -63,6 +63,8 @@ type FieldProps = {
   hint?: ReactNode;
   defaultValue?: string;
   required?: boolean;
+  /** The schema's own text limit, so a browser cannot send more than the field takes. */
+  maxLength?: number;
 } & (
   | { type?: "text" | "number" | "datetime-local" | "date"; options?: undefined; placeholder?: string }
   | { type: "select"; options: ReadonlyArray<readonly [value: string, label: string]> }
@@ -80,6 +82,7 @@ export function Field(props: FieldProps) {
   const error = state.status === "refused" ? state.errors[name] : undefined;
   const describedBy = [hint ? `${id}-hint` : null, error ? `${id}-err` : null].filter(Boolean).join(" ") || undefined;
   const common = { id, name, "aria-invalid": error ? true : undefined, "aria-describedby": describedBy, required } as const;
+  const maxLength = props.maxLength;
   let control: ReactNode;
   if (props.type === "select") {
     control = (
@@ -92,13 +95,13 @@ export function Field(props: FieldProps) {
       </select>
     );
   } else if (props.type === "textarea") {
-    control = <textarea {...common} defaultValue={value} rows={3} placeholder={props.placeholder} />;
+    control = <textarea {...common} defaultValue={value} rows={3} placeholder={props.placeholder} maxLength={maxLength} />;
   } else if (props.type === "checkbox") {
     control = <input {...common} type="checkbox" value="yes" defaultChecked={value === "yes" || value === "on"} />;
   } else {
     // Numbers are typed as text so that what was typed (a comma, a unit left in) comes back as it was.
     const numeric = props.type === "number";
-    control = <input {...common} type={numeric ? "text" : (props.type ?? "text")} inputMode={numeric ? "decimal" : undefined} defaultValue={value} placeholder={props.placeholder} autoComplete="off" />;
+    control = <input {...common} type={numeric ? "text" : (props.type ?? "text")} inputMode={numeric ? "decimal" : undefined} defaultValue={value} placeholder={props.placeholder} autoComplete="off" maxLength={maxLength} />;
   }
   return (
     <div className={`field${props.type === "checkbox" ? " field-check" : ""}`}>

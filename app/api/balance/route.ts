@@ -5,15 +5,16 @@ import { getDb } from "@/lib/db";
 import { fail } from "@/lib/errors";
 import { getBalanceReport } from "@/lib/mass-balance/balance.service";
 import { getSiteById } from "@/lib/site/site.store";
+import { handled } from "@/lib/api/handle.service";
 
 export const dynamic = "force-dynamic";
 
 /** GET /api/balance?period=MONTH|QUARTER|CUSTOM&year=&month=&quarter=&start=&end=&warnPct=&failPct= — the /balance page's answer. */
-export async function GET(request: Request): Promise<NextResponse> {
+export const GET = handled("GET /api/balance", async (request: Request): Promise<NextResponse> => {
   const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const db = await getDb();
   const site = await getSiteById(db, who.value.siteId);
   if (!site) return respond(fail("RECORD.NOT_FOUND", "Your site is not set up"));
   return respond(await getBalanceReport(db, site, Object.fromEntries(new URL(request.url).searchParams), who.value.now));
-}
+});

@@ -5,9 +5,10 @@ import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.serv
 import { SignInSchema } from "@/lib/auth/session.schema";
 import { signIn, signOut } from "@/lib/auth/session.service";
 import { cookieIsSecure, getSessionToken, sessionCookieName } from "@/lib/auth/request.service";
+import { handled } from "@/lib/api/handle.service";
 
 /** JSON sign-in for API clients and scripts: sets the same HttpOnly session cookie as the sign-in page. */
-export async function POST(request: Request): Promise<NextResponse> {
+export const POST = handled("POST /api/session", async (request: Request): Promise<NextResponse> => {
   const origin = requireSameOrigin(request);
   if (!origin.ok) return respond(origin);
   const body = await parseBody(request, SignInSchema);
@@ -17,9 +18,9 @@ export async function POST(request: Request): Promise<NextResponse> {
   if (!result.ok) return respond(result);
   (await cookies()).set(await sessionCookieName(), result.value.token, { httpOnly: true, secure: await cookieIsSecure(), sameSite: "lax", path: "/", expires: result.value.expiresAt });
   return respond({ ok: true, value: { user: result.value.user, expiresAt: result.value.expiresAt } });
-}
+});
 
-export async function DELETE(request: Request): Promise<NextResponse> {
+export const DELETE = handled("DELETE /api/session", async (request: Request): Promise<NextResponse> => {
   const origin = requireSameOrigin(request);
   if (!origin.ok) return respond(origin);
   const token = await getSessionToken();
@@ -28,4 +29,4 @@ export async function DELETE(request: Request): Promise<NextResponse> {
   jar.delete("tv_session");
   jar.delete("__Host-tv_session");
   return respond({ ok: true, value: { signedOut: true } });
-}
+});

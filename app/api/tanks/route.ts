@@ -3,8 +3,9 @@ import { getDb } from "@/lib/db";
 import { idempotent, readJson, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { requireRole } from "@/lib/auth/request.service";
 import { createTank } from "@/lib/tank/tank.service";
+import { handled } from "@/lib/api/handle.service";
 
-export async function POST(request: Request): Promise<NextResponse> {
+export const POST = handled("POST /api/tanks", async (request: Request): Promise<NextResponse> => {
   const origin = requireSameOrigin(request);
   if (!origin.ok) return respond(origin);
   const who = await requireRole(["PRODUCTION"]);
@@ -13,4 +14,4 @@ export async function POST(request: Request): Promise<NextResponse> {
   if (!body.ok) return respond(body);
   const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
   return respond(await idempotent(request, who.value.userId, body.value, async () => createTank(await getDb(), actor, body.value)));
-}
+});

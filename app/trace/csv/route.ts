@@ -9,6 +9,7 @@ import { getDb } from "@/lib/db";
 import { traceBackwardReport, traceForwardReport } from "@/lib/trace/trace.service";
 import { BACKWARD_TABLES, backwardCsv, csvFileName, forwardCsv } from "@/app/trace/csv";
 import { toSiteInstant } from "@/app/trace/site-time";
+import { handled } from "@/lib/api/handle.service";
 
 export const dynamic = "force-dynamic";
 
@@ -33,7 +34,7 @@ function csvResponse(body: string, name: string): NextResponse {
 }
 
 /** The trace tables of the /trace page as CSV, from the same service answer the page shows. */
-export async function GET(request: Request): Promise<NextResponse> {
+export const GET = handled("GET /trace/csv", async (request: Request): Promise<NextResponse> => {
   const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const q = parseInput(CsvQuerySchema, Object.fromEntries(new URL(request.url).searchParams));
@@ -51,4 +52,4 @@ export async function GET(request: Request): Promise<NextResponse> {
   if (!r.ok) return respond(r);
   const feedstock = q.value.view === "feedstock";
   return csvResponse(backwardCsv(r.value, q.value.table, feedstock), csvFileName(["made-of", r.value.target.code, q.value.table, ...(feedstock ? ["feedstock"] : [])]));
-}
+});

@@ -4,11 +4,12 @@ import { requireRole } from "@/lib/auth/request.service";
 import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { BatchCompleteSchema } from "@/lib/batch/batch.schema";
 import { completeBatch } from "@/lib/batch/batch.service";
+import { handled } from "@/lib/api/handle.service";
 
 export const dynamic = "force-dynamic";
 
 /** Records the outputs of a reacting batch. */
-export async function POST(request: Request): Promise<NextResponse> {
+export const POST = handled("POST /api/batches/complete", async (request: Request): Promise<NextResponse> => {
   const origin = requireSameOrigin(request);
   if (!origin.ok) return respond(origin);
   const who = await requireRole(["PRODUCTION"]);
@@ -17,4 +18,4 @@ export async function POST(request: Request): Promise<NextResponse> {
   if (!input.ok) return respond(input);
   const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
   return respond(await completeBatch(await getDb(), actor, input.value));
-}
+});

@@ -4,11 +4,12 @@ import { requireRole } from "@/lib/auth/request.service";
 import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { BatchPlanRequestSchema } from "@/lib/batch/plan";
 import { recordPlannedBatch } from "@/lib/batch/plan.service";
+import { handled } from "@/lib/api/handle.service";
 
 export const dynamic = "force-dynamic";
 
 /** Proposes draws and a recipe from the stock now and records the batch as planned. */
-export async function POST(request: Request): Promise<NextResponse> {
+export const POST = handled("POST /api/batches/plan", async (request: Request): Promise<NextResponse> => {
   const origin = requireSameOrigin(request);
   if (!origin.ok) return respond(origin);
   const who = await requireRole(["PRODUCTION"]);
@@ -17,4 +18,4 @@ export async function POST(request: Request): Promise<NextResponse> {
   if (!input.ok) return respond(input);
   const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
   return respond(await recordPlannedBatch(await getDb(), actor, input.value));
-}
+});

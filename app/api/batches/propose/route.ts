@@ -6,11 +6,12 @@ import { requireRole } from "@/lib/auth/request.service";
 import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { BatchPlanRequestSchema } from "@/lib/batch/plan";
 import { proposeBatchPlan } from "@/lib/batch/plan.service";
+import { handled } from "@/lib/api/handle.service";
 
 export const dynamic = "force-dynamic";
 
 /** Draws and recipe card from the stock now; a blend that cannot be made is refused with the limit that fails. */
-export async function POST(request: Request): Promise<NextResponse> {
+export const POST = handled("POST /api/batches/propose", async (request: Request): Promise<NextResponse> => {
   const origin = requireSameOrigin(request);
   if (!origin.ok) return respond(origin);
   const who = await requireRole(SITE_ROLES);
@@ -21,4 +22,4 @@ export async function POST(request: Request): Promise<NextResponse> {
   if (!proposal.ok) return respond(proposal);
   const { candidates, outcome } = proposal.value;
   return respond(outcome.ok ? ok({ candidates, card: outcome.card }) : failMany(outcome.issues));
-}
+});

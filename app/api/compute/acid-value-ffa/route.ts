@@ -3,11 +3,12 @@ import { SITE_ROLES } from "@/lib/ledger/kinds";
 import { requireRole } from "@/lib/auth/request.service";
 import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { AcidValueFfaRequestSchema, answerAcidValueFfa } from "@/lib/api/endpoints/lab";
+import { handled } from "@/lib/api/handle.service";
 
 export const dynamic = "force-dynamic";
 
 /** Acid value ↔ FFA % conversion. */
-export async function POST(request: Request): Promise<NextResponse> {
+export const POST = handled("POST /api/compute/acid-value-ffa", async (request: Request): Promise<NextResponse> => {
   const origin = requireSameOrigin(request);
   if (!origin.ok) return respond(origin);
   const who = await requireRole(SITE_ROLES);
@@ -15,4 +16,4 @@ export async function POST(request: Request): Promise<NextResponse> {
   const input = await parseBody(request, AcidValueFfaRequestSchema);
   if (!input.ok) return respond(input);
   return respond(answerAcidValueFfa(input.value));
-}
+});

@@ -4,11 +4,12 @@ import { requireRole } from "@/lib/auth/request.service";
 import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { PretreatmentInputSchema } from "@/lib/recipe/recipe.schema";
 import { answerPretreatment } from "@/lib/api/endpoints/lab";
+import { handled } from "@/lib/api/handle.service";
 
 export const dynamic = "force-dynamic";
 
 /** Route by FFA, and the acid step plus base step when needed. */
-export async function POST(request: Request): Promise<NextResponse> {
+export const POST = handled("POST /api/compute/pretreatment", async (request: Request): Promise<NextResponse> => {
   const origin = requireSameOrigin(request);
   if (!origin.ok) return respond(origin);
   const who = await requireRole(SITE_ROLES);
@@ -16,4 +17,4 @@ export async function POST(request: Request): Promise<NextResponse> {
   const input = await parseBody(request, PretreatmentInputSchema);
   if (!input.ok) return respond(input);
   return respond(answerPretreatment(input.value));
-}
+});

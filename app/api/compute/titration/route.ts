@@ -4,11 +4,12 @@ import { requireRole } from "@/lib/auth/request.service";
 import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { TitrationEntrySchema } from "@/lib/titration/titration.schema";
 import { answerTitration } from "@/lib/api/endpoints/lab";
+import { handled } from "@/lib/api/handle.service";
 
 export const dynamic = "force-dynamic";
 
 /** FFA % (AOCS Ca 5a-40) and acid value (EN 14104 form) from one titration. */
-export async function POST(request: Request): Promise<NextResponse> {
+export const POST = handled("POST /api/compute/titration", async (request: Request): Promise<NextResponse> => {
   const origin = requireSameOrigin(request);
   if (!origin.ok) return respond(origin);
   const who = await requireRole(SITE_ROLES);
@@ -16,4 +17,4 @@ export async function POST(request: Request): Promise<NextResponse> {
   const input = await parseBody(request, TitrationEntrySchema);
   if (!input.ok) return respond(input);
   return respond(answerTitration(input.value));
-}
+});

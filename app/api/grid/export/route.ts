@@ -4,9 +4,10 @@ import { parseQuery, respond } from "@/lib/api/json-route.service";
 import { requireReader } from "@/lib/auth/request.service";
 import { GridExportSchema } from "@/lib/grid/query.schema";
 import { exportGrid } from "@/lib/grid/export.service";
+import { handled } from "@/lib/api/handle.service";
 
 /** The whole filtered, sorted view as CSV or XLSX, in the user's units, formula-like text neutralised. */
-export async function GET(request: Request): Promise<NextResponse> {
+export const GET = handled("GET /api/grid/export", async (request: Request): Promise<NextResponse> => {
   const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const q = parseQuery(request, GridExportSchema);
@@ -21,4 +22,4 @@ export async function GET(request: Request): Promise<NextResponse> {
       "cache-control": "no-store",
     },
   });
-}
+});

@@ -5,9 +5,10 @@ import { requireReader } from "@/lib/auth/request.service";
 import { GridQuerySchema } from "@/lib/grid/query.schema";
 import { listGridRows } from "@/lib/grid/grid.service";
 import { ok } from "@/lib/errors";
+import { handled } from "@/lib/api/handle.service";
 
 /** One block of a grid table for the infinite row model: rows, the filtered count and totals within the filter. */
-export async function GET(request: Request): Promise<NextResponse> {
+export const GET = handled("GET /api/grid/rows", async (request: Request): Promise<NextResponse> => {
   const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const q = parseQuery(request, GridQuerySchema);
@@ -17,4 +18,4 @@ export async function GET(request: Request): Promise<NextResponse> {
   const res = respond(ok(page));
   res.headers.set("Server-Timing", `db;dur=${(performance.now() - t0).toFixed(1)}`);
   return res;
-}
+});

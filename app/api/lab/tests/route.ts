@@ -4,11 +4,12 @@ import { requireRole } from "@/lib/auth/request.service";
 import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { LabTestSchema } from "@/lib/feedstock/lot.schema";
 import { recordLabTest } from "@/lib/feedstock/lot.service";
+import { handled } from "@/lib/api/handle.service";
 
 export const dynamic = "force-dynamic";
 
 /** Records a water, insolubles or unsaponifiables result. */
-export async function POST(request: Request): Promise<NextResponse> {
+export const POST = handled("POST /api/lab/tests", async (request: Request): Promise<NextResponse> => {
   const origin = requireSameOrigin(request);
   if (!origin.ok) return respond(origin);
   const who = await requireRole(["PRODUCTION"]);
@@ -17,4 +18,4 @@ export async function POST(request: Request): Promise<NextResponse> {
   if (!input.ok) return respond(input);
   const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
   return respond(await recordLabTest(await getDb(), actor, input.value));
-}
+});

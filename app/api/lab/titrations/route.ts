@@ -3,11 +3,12 @@ import { getDb } from "@/lib/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { LotTitrationSchema, recordTitration } from "@/lib/feedstock/titration.service";
+import { handled } from "@/lib/api/handle.service";
 
 export const dynamic = "force-dynamic";
 
 /** Records a titration; FFA % and acid value are computed on the server. */
-export async function POST(request: Request): Promise<NextResponse> {
+export const POST = handled("POST /api/lab/titrations", async (request: Request): Promise<NextResponse> => {
   const origin = requireSameOrigin(request);
   if (!origin.ok) return respond(origin);
   const who = await requireRole(["PRODUCTION"]);
@@ -16,4 +17,4 @@ export async function POST(request: Request): Promise<NextResponse> {
   if (!input.ok) return respond(input);
   const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
   return respond(await recordTitration(await getDb(), actor, input.value));
-}
+});

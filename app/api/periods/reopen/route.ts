@@ -3,11 +3,12 @@ import { requireRole } from "@/lib/auth/request.service";
 import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { getDb } from "@/lib/db";
 import { reopenPeriod, PeriodReopenSchema } from "@/lib/period/period.service";
+import { handled } from "@/lib/api/handle.service";
 
 export const dynamic = "force-dynamic";
 
 /** POST /api/periods/reopen {periodId, reason} — compliance only; recorded as a period event with who and when. */
-export async function POST(request: Request): Promise<NextResponse> {
+export const POST = handled("POST /api/periods/reopen", async (request: Request): Promise<NextResponse> => {
   const origin = requireSameOrigin(request);
   if (!origin.ok) return respond(origin);
   const who = await requireRole(["COMPLIANCE"]);
@@ -16,4 +17,4 @@ export async function POST(request: Request): Promise<NextResponse> {
   if (!body.ok) return respond(body);
   const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
   return respond(await reopenPeriod(await getDb(), actor, body.value));
-}
+});

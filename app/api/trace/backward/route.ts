@@ -3,13 +3,14 @@ import { requireReader } from "@/lib/auth/request.service";
 import { respond } from "@/lib/api/json-route.service";
 import { getDb } from "@/lib/db";
 import { traceBackwardReport } from "@/lib/trace/trace.service";
+import { handled } from "@/lib/api/handle.service";
 
 export const dynamic = "force-dynamic";
 
 /** GET /api/trace/backward?kind=PRODUCT_LOT|TANK|SHIPMENT|BATCH&code=…&at=… — the /trace page's backward answer. */
-export async function GET(request: Request): Promise<NextResponse> {
+export const GET = handled("GET /api/trace/backward", async (request: Request): Promise<NextResponse> => {
   const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const query = Object.fromEntries(new URL(request.url).searchParams);
   return respond(await traceBackwardReport(await getDb(), who.value.siteId, query, who.value.now));
-}
+});

@@ -5,15 +5,16 @@ import { getDb } from "@/lib/db";
 import { fail } from "@/lib/errors";
 import { getSiteById } from "@/lib/site/site.store";
 import { getWasteDueReport } from "@/app/waste/due/due-report";
+import { handled } from "@/lib/api/handle.service";
 
 export const dynamic = "force-dynamic";
 
 /** GET /api/waste/due?days=30&category=LQG|SQG|VSQG&tsdfMiles= — the waste-due page's answer. */
-export async function GET(request: Request): Promise<NextResponse> {
+export const GET = handled("GET /api/waste/due", async (request: Request): Promise<NextResponse> => {
   const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const db = await getDb();
   const site = await getSiteById(db, who.value.siteId);
   if (!site) return respond(fail("RECORD.NOT_FOUND", "Your site is not set up"));
   return respond(await getWasteDueReport(db, site, Object.fromEntries(new URL(request.url).searchParams), who.value.now));
-}
+});

@@ -1,0 +1,32 @@
+import { describe, expect, it } from "vitest";
+import { statusFor } from "@/lib/http";
+
+// RFC 9110 §15: 409 Conflict for a request that conflicts with the current state of the resource,
+// 413 Content Too Large, 422 for content that cannot be processed as sent (RFC 9110 §15.5.21).
+describe("one table from issue code to HTTP status", () => {
+  const cases: Array<[string, number]> = [
+    ["INPUT.INVALID", 422],
+    ["INPUT.TOO_LARGE", 413],
+    ["RECORD.NOT_FOUND", 404],
+    ["RECORD.DUPLICATE", 409],
+    ["AUTH.UNAUTHENTICATED", 401],
+    ["AUTH.FORBIDDEN", 403],
+    ["AUTH.RATE_LIMITED", 429],
+    ["IDEMPOTENCY.KEY_REQUIRED", 400],
+    ["PERIOD.CLOSED", 409],
+    ["LEDGER.OVERDRAW", 409],
+    ["LEDGER.OVERDRAW_IN_TIME", 409],
+    ["LEDGER.CYCLE", 409],
+    ["TANK.OVERFILL", 409],
+    ["CORRECTION.ALREADY_REVERSED", 409],
+    ["PRODUCT.DECIDED", 409],
+    ["BATCH.UNBALANCED", 422],
+  ];
+  it.each(cases)("%s → %i", (code, status) => {
+    expect(statusFor([{ code, message: "m" }])).toBe(status);
+  });
+  it("an empty list is a 422, and the first issue decides", () => {
+    expect(statusFor([])).toBe(422);
+    expect(statusFor([{ code: "LEDGER.OVERDRAW", message: "a" }, { code: "INPUT.INVALID", message: "b" }])).toBe(409);
+  });
+});
