@@ -27,3 +27,15 @@ export function timeSkew(observedAt: Date, receivedAt: Date, thresholdMs = TIME_
     ? { flag: true, gapMs, kind: "RECEIVED_LATE", message: `Received ${span(gapMs)} after it was observed` }
     : { flag: true, gapMs, kind: "PHONE_AHEAD", message: `Phone time is ${span(gapMs)} ahead of the server's` };
 }
+
+/**
+ * Typed or imported pickups (the grid) have no phone outbox to explain a gap: a pickup observed more
+ * than the flag threshold after the server's clock cannot have happened yet, so it is refused there.
+ * Returns the message, or null when the time is acceptable or not a time at all (the schema says so).
+ */
+export function futureObservation(observedAt: unknown, now: Date, thresholdMs = TIME_SKEW_FLAG_MS): string | null {
+  const t = observedAt instanceof Date ? observedAt : typeof observedAt === "string" || typeof observedAt === "number" ? new Date(observedAt) : null;
+  if (t === null || Number.isNaN(t.getTime())) return null;
+  const ahead = t.getTime() - now.getTime();
+  return ahead > thresholdMs ? `Observed time is ${span(ahead)} later than now; a pickup cannot be recorded before it happens` : null;
+}

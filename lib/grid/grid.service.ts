@@ -1,4 +1,5 @@
 import "server-only";
+import { futureObservation } from "@/lib/collect/time-skew";
 // The grid's writes: a batch of typed or pasted rows, or a CSV import, saved through the record
 // services (audit trail, period lock, guarded draws, idempotency) inside ONE transaction — all rows or none.
 import type { Db, Tx } from "@/lib/database/connect";
@@ -54,8 +55,10 @@ async function addRow(db: Db, actor: Actor, table: AddableTable, input: Record<s
   switch (table) {
     case "sources":
       return createSource(db, actor, input);
-    case "pickups":
-      return recordPickup(db, actor, input);
+    case "pickups": {
+      const future = futureObservation(input.observedAt, actor.now);
+      return future ? fail("PICKUP.IN_FUTURE", future, "observedAt") : recordPickup(db, actor, input);
+    }
     case "lots":
       return input.supplierCode !== undefined || input.deliveryDocument !== undefined ? receiveDelivery(db, actor, input) : receiveLotFromPickups(db, actor, input);
     case "titrations":
@@ -244,6 +247,12 @@ export async function importGridFile(db: Db, actor: GridActor, input: unknown): 
         return { ...i, field: `rows.${line}.${i.field ?? ""}`, message: `Row ${line}${header ? `, column "${header}"` : ""}: ${i.message}` };
       };
       if (key === "pickups") {
+        for (const r of fresh) {
+          const future = futureObservation(toInput(table, r.values).observedAt, actor.now);
+          if (future) issues.push(rowIssue(r.line, { code: "PICKUP.IN_FUTURE", message: future, field: "observedAt" }));
+          if (issues.length >= MAX_MESSAGES) break;
+        }
+        if (issues.length) throw new Rejection(issues);
         // Pickups go through the bulk writer: the same records, receipts and audit events, a few statements per 500 rows.
         const res = await withoutIdempotencyKey(() => importPickupRows(inner, actor, fresh.map((r) => toInput(table, r.values))));
         if (!res.ok) {

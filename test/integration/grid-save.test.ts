@@ -21,7 +21,8 @@ describe.each(PROVIDERS)("grid batch saves and imports on %s", (provider) => {
   beforeAll(async () => {
     t = await createTestDb(provider);
     plant = await createTestPlant(t.db);
-    actor = { ...plant.production, role: "PRODUCTION", unitSystem: "metric" };
+    // The grid refuses pickups observed after now: these rows are dated 2026-03-05, after the test plant was set up.
+    actor = { ...plant.production, now: new Date("2026-04-01T00:00:00Z"), role: "PRODUCTION", unitSystem: "metric" };
   });
   afterAll(async () => {
     await t.drop();
@@ -46,6 +47,18 @@ describe.each(PROVIDERS)("grid batch saves and imports on %s", (provider) => {
     if (r.ok) return;
     expect(r.issues[0]?.field).toBe("b.sourceCode");
     expect(r.issues[0]?.message).toMatch(/New row 2/);
+    expect(await counts()).toEqual(before);
+  });
+
+  it("refuses a pickup observed hours after the server's clock, naming the row, and writes nothing", async () => {
+    const before = await counts();
+    const later = new Date(actor.now.getTime() + 3 * 3_600_000).toISOString();
+    const r = await saveGridRows(t.db, actor, { table: "pickups", rows: [{ ref: "f1", input: pickup("G-F1") }, { ref: "f2", input: pickup("G-F2", { observedAt: later }) }] });
+    expect(r.ok).toBe(false);
+    if (r.ok) return;
+    expect(r.issues[0]?.code).toBe("PICKUP.IN_FUTURE");
+    expect(r.issues[0]?.field).toBe("f2.observedAt");
+    expect(r.issues[0]?.message).toMatch(/New row 2.*3 h later than now/);
     expect(await counts()).toEqual(before);
   });
 

@@ -1,10 +1,11 @@
 import { describe, expect, it } from "vitest";
 import { statusFor } from "@/lib/http";
+import type { DomainIssue } from "@/lib/errors";
 
 // RFC 9110 §15: 409 Conflict for a request that conflicts with the current state of the resource,
 // 413 Content Too Large, 422 for content that cannot be processed as sent (RFC 9110 §15.5.21).
 describe("one table from issue code to HTTP status", () => {
-  const cases: Array<[string, number]> = [
+  const cases: Array<[DomainIssue["code"], number]> = [
     ["INPUT.INVALID", 422],
     ["INPUT.TOO_LARGE", 413],
     ["RECORD.NOT_FOUND", 404],
