@@ -31,8 +31,8 @@ export default async function PeriodsPage() {
                   <th scope="col">From</th>
                   <th scope="col">To (last day)</th>
                   <th scope="col">Status</th>
-                  <th scope="col">Closed</th>
-                  <th scope="col">Closed by</th>
+                  <th scope="col">Last change</th>
+                  <th scope="col">By</th>
                   <th scope="col" className="num">
                     Movements
                   </th>
@@ -54,8 +54,8 @@ export default async function PeriodsPage() {
                       <td>
                         <span className={`status status-${p.status === "OPEN" ? "open-period" : "closed"}`}>{p.status === "OPEN" ? "Open" : "Closed"}</span>
                       </td>
-                      <td className="nowrap">{when(p.closedAt, tz)}</td>
-                      <td>{p.closedBy ?? "—"}</td>
+                      <td className="nowrap">{p.lastEvent ? `${p.lastEvent.action === "REOPEN" ? "Reopened" : "Closed"} ${when(p.lastEvent.at, tz)}` : "—"}</td>
+                      <td>{p.lastEvent?.by ?? "—"}</td>
                       <td className="num">{p.movements}</td>
                       <td>
                         <a href={`/balance?${new URLSearchParams({ period: "CUSTOM", start: day(p.startsAt, tz), end: day(p.endsAt, tz) }).toString()}`}>balance</a>

@@ -9,6 +9,8 @@ export interface PeriodRow {
   status: string;
   closedAt: Date | null;
   closedBy: string | null;
+  /** The latest close or reopen: what the period's state says now, with who and when. */
+  lastEvent: { action: string; at: Date; by: string; reason: string } | null;
   movements: number;
 }
 
@@ -16,7 +18,7 @@ export async function listPeriods(db: Db, siteId: number): Promise<PeriodRow[]> 
   const rows = await db.accountingPeriod.findMany({
     where: { siteId },
     orderBy: { startsAt: "desc" },
-    include: { closedBy: { select: { fullName: true } } },
+    include: { closedBy: { select: { fullName: true } }, events: { orderBy: [{ at: "desc" }, { id: "desc" }], take: 1, include: { by: { select: { fullName: true } } } } },
   });
   const counts = await Promise.all(rows.map((r) => db.movement.count({ where: { siteId, at: { gte: r.startsAt, lt: r.endsAt } } })));
   return rows.map((r, i) => ({
@@ -26,12 +28,13 @@ export async function listPeriods(db: Db, siteId: number): Promise<PeriodRow[]> 
     status: r.status,
     closedAt: r.closedAt,
     closedBy: r.closedBy?.fullName ?? null,
+    lastEvent: r.events[0] ? { action: r.events[0].action, at: r.events[0].at, by: r.events[0].by.fullName, reason: r.events[0].reason } : null,
     movements: counts[i] ?? 0,
   }));
 }
 
 /** The period whose half-open range [startsAt, endsAt) contains `at`, or null. */
-export async function getPeriodAt(db: Db, siteId: number, at: Date): Promise<Omit<PeriodRow, "movements"> | null> {
+export async function getPeriodAt(db: Db, siteId: number, at: Date): Promise<Omit<PeriodRow, "movements" | "lastEvent"> | null> {
   const r = await db.accountingPeriod.findFirst({
     where: { siteId, startsAt: { lte: at }, endsAt: { gt: at } },
     include: { closedBy: { select: { fullName: true } } },

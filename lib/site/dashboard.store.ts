@@ -77,7 +77,7 @@ export interface Dashboard {
   batchesInProgressTotal: number;
   /** Containers still on site (filling or full), oldest accumulation start first. */
   wasteOnSite: WasteContainerRow[];
-  currentPeriod: Omit<PeriodRow, "movements"> | null;
+  currentPeriod: Omit<PeriodRow, "movements" | "lastEvent"> | null;
   month: { label: string; startsAt: Date; endsAt: Date };
   counts: { sources: number; pickupsThisMonth: number; lots: number; batches: number; productLots: number; shipments: number };
 }
