@@ -3,14 +3,14 @@ import "server-only";
 // whole grams (site-wide and per material kind), the process view of the batches finished in the
 // period, book stock against the latest tank gauges, and the accounting period's close/reopen record.
 import type { Db } from "@/lib/database/connect";
-import { ok } from "@/lib/errors";
+import { fail, ok } from "@/lib/errors";
 import type { Result } from "@/lib/errors";
 import { labelOf } from "@/lib/ledger/kinds";
 import type { MoveRole } from "@/lib/ledger/kinds";
 import { parseInput } from "@/lib/ledger/parse";
 import { getAccountingPeriodExact, listLatestGauges, listPeriodEvents, loadBalanceLedger } from "@/lib/mass-balance/balance.store";
 import type { AccountingPeriodView, BalanceHolderRef, PeriodEventView } from "@/lib/mass-balance/balance.store";
-import { getLocalDate, resolvePeriodRange } from "@/lib/mass-balance/period";
+import { getLocalDate, refuseUnreasonablePeriod, resolvePeriodRange } from "@/lib/mass-balance/period";
 import { compareBookToGauges, computePeriodBalance, DEFAULT_CLOSURE_TOLERANCE, DEFAULT_HOLDER_CLASSES } from "@/lib/mass-balance/period-balance";
 import type { BatchBalance, Closure, ClosureTolerance, ProcessView, StockView } from "@/lib/mass-balance/period-balance";
 import { ClosureToleranceSchema, PeriodRangeSchema } from "@/lib/mass-balance/period.schema";
@@ -152,6 +152,8 @@ export async function getBalanceReport(db: Db, site: { id: number; timeZone: str
   if (!range.ok) return range;
   const period = resolvePeriodRange(range.value);
   if (!period.ok) return period;
+  const unreasonable = refuseUnreasonablePeriod(period.value, q.period, now.getTime());
+  if (unreasonable) return fail("BALANCE.PERIOD_OUT_OF_RANGE", unreasonable.message, unreasonable.field);
 
   const warnPct = q.warnPct ?? DEFAULT_CLOSURE_TOLERANCE.warnPct;
   const failPct = q.failPct ?? DEFAULT_CLOSURE_TOLERANCE.failPct;

@@ -151,3 +151,19 @@ export function resolvePeriodRange(range: PeriodRange): Result<Period> {
       return getCustomPeriod(range.startDate, range.endDate, offset);
   }
 }
+
+/** Longest period a balance is computed for: three years (our own choice; statements are monthly to yearly). */
+export const MAX_BALANCE_SPAN_DAYS = 1_096;
+const DAY_MS = 86_400_000;
+
+/**
+ * A balance is a statement of what happened: the period may not start after today, a chosen end may
+ * not lie beyond today (the exclusive end at most tomorrow), and it spans at most MAX_BALANCE_SPAN_DAYS.
+ * Returns the message and the field it concerns, or null.
+ */
+export function refuseUnreasonablePeriod(period: Period, kind: "MONTH" | "QUARTER" | "CUSTOM", nowMs: number): { message: string; field: string } | null {
+  if (period.startMs > nowMs) return { message: "The period starts after today; a balance covers what has happened", field: kind === "CUSTOM" ? "start" : kind === "MONTH" ? "month" : "quarter" };
+  if (kind === "CUSTOM" && period.endMs > nowMs + DAY_MS) return { message: "End date is after today; choose today or an earlier day", field: "end" };
+  if (period.endMs - period.startMs > MAX_BALANCE_SPAN_DAYS * DAY_MS) return { message: `A balance period spans at most ${MAX_BALANCE_SPAN_DAYS.toLocaleString("en")} days (three years)`, field: "end" };
+  return null;
+}

@@ -18,14 +18,7 @@ import { reopenPeriod } from "@/lib/period/period.service";
 // replaced so the handlers' own steps (same-origin check, role, parse, service, status) run as served.
 const session = vi.hoisted(() => ({ db: null as unknown, user: null as null | { siteId: number; userId: number; now: Date; role: string } }));
 vi.mock("@/lib/db", () => ({ getDb: () => Promise.resolve(session.db) }));
-vi.mock("@/lib/auth/request.service", () => ({
-  requireRole: (roles: readonly string[]) => {
-    const u = session.user;
-    if (u === null) return Promise.resolve({ ok: false, issues: [{ code: "AUTH.UNAUTHENTICATED", message: "Sign in first" }] });
-    if (!roles.includes(u.role)) return Promise.resolve({ ok: false, issues: [{ code: "AUTH.FORBIDDEN", message: "wrong role" }] });
-    return Promise.resolve({ ok: true, value: { ...u, login: "t", fullName: "T" } });
-  },
-}));
+vi.mock("@/lib/auth/request.service", async () => (await import("./support/request-mock")).requestServiceMock(session));
 
 const ANCHOR = new Date("2026-12-02T00:00:00Z");
 const NOW = new Date("2026-12-02T06:00:00Z");

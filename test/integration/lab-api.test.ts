@@ -15,14 +15,7 @@ import { recordTitration } from "@/lib/feedstock/titration.service";
 // here so the handlers' own steps (same-origin check, role, parse, service, status) run as in the server.
 const session = vi.hoisted(() => ({ db: null as unknown, user: null as null | { siteId: number; userId: number; now: Date; role: string } }));
 vi.mock("@/lib/db", () => ({ getDb: () => Promise.resolve(session.db) }));
-vi.mock("@/lib/auth/request.service", () => ({
-  requireRole: (roles: readonly string[]) => {
-    const u = session.user;
-    if (u === null) return Promise.resolve({ ok: false, issues: [{ code: "AUTH.UNAUTHENTICATED", message: "Sign in first" }] });
-    if (!roles.includes(u.role)) return Promise.resolve({ ok: false, issues: [{ code: "AUTH.FORBIDDEN", message: "wrong role" }] });
-    return Promise.resolve({ ok: true, value: { ...u, login: "t", fullName: "T" } });
-  },
-}));
+vi.mock("@/lib/auth/request.service", async () => (await import("./support/request-mock")).requestServiceMock(session));
 
 function value<T>(r: Result<T>): T {
   if (!r.ok) throw new Error(`expected success, got ${JSON.stringify(r.issues)}`);

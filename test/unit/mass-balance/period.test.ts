@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { getCustomPeriod, getMonthPeriod, getPeriodContaining, getQuarterPeriod, resolvePeriodRange } from "@/lib/mass-balance/period";
+import { getCustomPeriod, getMonthPeriod, getPeriodContaining, getQuarterPeriod, MAX_BALANCE_SPAN_DAYS, refuseUnreasonablePeriod, resolvePeriodRange } from "@/lib/mass-balance/period";
 import { ClosureToleranceSchema, MAX_TOLERANCE_PCT, MIN_TOLERANCE_PCT, PeriodRangeSchema } from "@/lib/mass-balance/period.schema";
 
 const utc = (iso: string): number => Date.parse(iso);
@@ -108,5 +108,21 @@ describe("ClosureToleranceSchema", () => {
     expect(r.success).toBe(false);
     expect(r.error?.issues[0]?.path.join(".")).toBe(path);
     expect(r.error?.issues[0]?.message).toContain(text);
+  });
+});
+
+describe("a balance period is a statement of what has happened", () => {
+  const now = Date.UTC(2026, 11, 5, 10); // 2026-12-05 10:00 UTC
+  const span = (start: string, end: string) => ({ startMs: Date.parse(`${start}T00:00:00Z`), endMs: Date.parse(`${end}T00:00:00Z`), label: "x" });
+  it("refuses 1990–2040: its end lies beyond today, and it spans more than three years", () => {
+    expect(refuseUnreasonablePeriod(span("1990-01-01", "2040-01-01"), "CUSTOM", now)?.field).toBe("end");
+    expect(refuseUnreasonablePeriod(span("1990-01-01", "2020-01-01"), "CUSTOM", now)?.message).toBe(`A balance period spans at most ${MAX_BALANCE_SPAN_DAYS.toLocaleString("en")} days (three years)`);
+  });
+  it("refuses a period that starts after today; accepts the running month and a custom range up to today", () => {
+    expect(refuseUnreasonablePeriod(span("2027-01-01", "2027-02-01"), "MONTH", now)?.field).toBe("month");
+    expect(refuseUnreasonablePeriod(span("2026-12-01", "2027-01-01"), "MONTH", now)).toBeNull();
+    expect(refuseUnreasonablePeriod(span("2026-01-01", "2026-12-06"), "CUSTOM", now)).toBeNull();
+    expect(refuseUnreasonablePeriod(span("2026-01-01", "2026-12-07"), "CUSTOM", now)?.field).toBe("end");
+    expect(refuseUnreasonablePeriod(span("2023-12-05", "2026-12-05"), "CUSTOM", now)).toBeNull(); // 1,096 days
   });
 });
