@@ -93,6 +93,7 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   changeUserAction: ["ADMIN"],
   resetPasswordAction: ["ADMIN"],
   endSessionsAction: ["ADMIN"],
+  unlockSignInAction: ["ADMIN"],
   reverseMovementAction: ["PRODUCTION"],
   voidLabResultAction: ["PRODUCTION"],
   setOwnUnitsAction: ANY,

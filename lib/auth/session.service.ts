@@ -7,8 +7,8 @@ import { parseInput } from "@/lib/ledger/parse";
 import type { SiteRole } from "@/lib/ledger/kinds";
 import { verifyPassword } from "@/lib/auth/password";
 import { SignInSchema } from "@/lib/auth/session.schema";
-import { ABSOLUTE_TIMEOUT_MS, FAILURE_WINDOW_MS, isSessionLive, MAX_FAILURES_PER_IP, MAX_FAILURES_PER_LOGIN } from "@/lib/auth/session-rules";
-import { countRecentFailures, findSessionByTokenHash, findUserByLogin, insertSession, recordLoginAttempt, revokeSession, touchSession } from "@/lib/auth/session.store";
+import { ABSOLUTE_TIMEOUT_MS, FAILURE_WINDOW_MS, isSessionLive, MAX_FAILURES_PER_IP, MAX_FAILURES_PER_LOGIN, MAX_FAILURES_PER_LOGIN_AND_IP } from "@/lib/auth/session-rules";
+import { countRecentFailures, lastClearedAt, findSessionByTokenHash, findUserByLogin, insertSession, recordLoginAttempt, revokeSession, touchSession } from "@/lib/auth/session.store";
 
 export interface SessionUser {
   siteId: number;
@@ -31,10 +31,13 @@ export async function signIn(db: Db, input: unknown, ctx: { ip: string; now: Dat
   const parsed = parseInput(SignInSchema, input);
   if (!parsed.ok) return parsed;
   const { login, password } = parsed.value;
-  const since = new Date(ctx.now.getTime() - FAILURE_WINDOW_MS);
-  if ((await countRecentFailures(db, { login }, since)) >= MAX_FAILURES_PER_LOGIN || (await countRecentFailures(db, { ip: ctx.ip }, since)) >= MAX_FAILURES_PER_IP) {
-    return fail("AUTH.RATE_LIMITED", "Too many failed sign-ins; wait 15 minutes or ask the administrator", "password");
-  }
+  const windowStart = new Date(ctx.now.getTime() - FAILURE_WINDOW_MS);
+  const since = (await lastClearedAt(db, login, windowStart)) ?? windowStart;
+  const limited =
+    (await countRecentFailures(db, { login, ip: ctx.ip }, since)) >= MAX_FAILURES_PER_LOGIN_AND_IP ||
+    (await countRecentFailures(db, { ip: ctx.ip }, windowStart)) >= MAX_FAILURES_PER_IP ||
+    (await countRecentFailures(db, { login }, since)) >= MAX_FAILURES_PER_LOGIN;
+  if (limited) return fail("AUTH.RATE_LIMITED", "Too many failed sign-ins; wait 15 minutes or ask the administrator", "password");
   const user = await findUserByLogin(db, login);
   const good = await verifyPassword(user?.passwordHash ?? DUMMY_HASH, password);
   await recordLoginAttempt(db, { login, ip: ctx.ip, ok: good && !!user?.active, at: ctx.now });

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/database/connect";
 import type { SiteRole } from "@/lib/ledger/kinds";
 
 export interface UserForSignIn {
@@ -22,7 +22,13 @@ export async function countRecentFailures(db: Db, by: { login?: string; ip?: str
   return db.loginAttempt.count({ where: { ok: false, at: { gte: since }, ...(by.login ? { login: by.login } : {}), ...(by.ip ? { ip: by.ip } : {}) } });
 }
 
-export async function recordLoginAttempt(db: Db, a: { login: string; ip: string; ok: boolean; at: Date }): Promise<void> {
+/** The last successful sign-in or administrator unlock of a name since `since`: failures before it no longer count. */
+export async function lastClearedAt(db: Db, login: string, since: Date): Promise<Date | null> {
+  const r = await db.loginAttempt.findFirst({ where: { login, ok: true, at: { gte: since } }, orderBy: { at: "desc" }, select: { at: true } });
+  return r?.at ?? null;
+}
+
+export async function recordLoginAttempt(db: Db | Tx, a: { login: string; ip: string; ok: boolean; at: Date }): Promise<void> {
   await db.loginAttempt.create({ data: a });
 }
 

@@ -3,6 +3,8 @@ import { appendAudit } from "@/lib/audit/audit.store";
 import { hashPassword } from "@/lib/auth/password";
 import { OwnUnitsSchema, PasswordResetSchema, RevokeSessionsSchema, UserChangeSchema, UserCreateSchema } from "@/lib/auth/user.schema";
 import { countActiveAdmins, insertAccount, requireUser, revokeAllSessions, updateUser } from "@/lib/auth/user.store";
+import { recordLoginAttempt } from "@/lib/auth/session.store";
+import { UNLOCK_ADDRESS } from "@/lib/auth/session-rules";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
@@ -72,6 +74,18 @@ export async function endSessions(db: Db, actor: Actor, input: unknown): Promise
     const sessionsEnded = await revokeAllSessions(tx, u.id, actor.now);
     await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: u.login, after: { sessionsEnded }, reason: parsed.value.reason });
     return { login: u.login, sessionsEnded };
+  });
+}
+
+/** Lets a name locked by failed sign-ins try again at once; recorded in the sign-in log and the audit trail. */
+export async function unlockSignIn(db: Db, actor: Actor, input: unknown): Promise<Result<{ login: string }>> {
+  const parsed = parseInput(RevokeSessionsSchema, input);
+  if (!parsed.ok) return parsed;
+  return runInTransaction(db, async (tx) => {
+    const u = await requireUser(tx, actor.siteId, parsed.value.login);
+    await recordLoginAttempt(tx, { login: u.login, ip: UNLOCK_ADDRESS, ok: true, at: actor.now });
+    await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: u.login, after: { signIn: "unlocked" }, reason: parsed.value.reason });
+    return { login: u.login };
   });
 }
 

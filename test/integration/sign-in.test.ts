@@ -4,7 +4,8 @@ import { createTestDb, PROVIDERS } from "./support/test-db";
 import { insertSite, insertUser } from "@/lib/site/site.store";
 import { hashPassword } from "@/lib/auth/password";
 import { resolveSession, signIn, signOut } from "@/lib/auth/session.service";
-import { IDLE_TIMEOUT_MS, MAX_FAILURES_PER_LOGIN } from "@/lib/auth/session-rules";
+import { IDLE_TIMEOUT_MS, MAX_FAILURES_PER_LOGIN, MAX_FAILURES_PER_LOGIN_AND_IP } from "@/lib/auth/session-rules";
+import { unlockSignIn } from "@/lib/auth/user.service";
 import { revokeUserSessions } from "@/lib/auth/session.store";
 
 const now = new Date("2026-03-01T09:00:00Z");
@@ -47,12 +48,34 @@ describe.each(PROVIDERS)("sign-in and sessions on %s", (provider) => {
     if (!a.ok && !b.ok) expect(a.issues[0]?.message).toBe(b.issues[0]?.message);
   });
 
-  it("throttles repeated failures for one user name, even with the right password afterwards", async () => {
-    for (let i = 0; i < MAX_FAILURES_PER_LOGIN; i++) await signIn(t.db, { login: "eve", password: `wrong ${i}` }, { ip: `10.0.1.${i}`, now: later(i) });
+  // OWASP ASVS 5.0 V6.3.1 and the OWASP Authentication Cheat Sheet ("account lockout"): throttle guessing
+  // without letting a stranger lock a colleague out — per name and address, per address, and per name overall.
+  it("a stranger's failures lock only the stranger's address for that name; the owner signs in from theirs", async () => {
+    for (let i = 0; i < MAX_FAILURES_PER_LOGIN_AND_IP; i++) await signIn(t.db, { login: "tess", password: `guess ${i}` }, { ip: "10.9.9.9", now: later(100 + i) });
+    const stranger = await signIn(t.db, { login: "tess", password: "correct horse" }, { ip: "10.9.9.9", now: later(200) });
+    expect(stranger.ok ? "ok" : stranger.issues[0]?.code).toBe("AUTH.RATE_LIMITED");
+    const owner = await signIn(t.db, { login: "tess", password: "correct horse" }, { ip: "10.0.0.5", now: later(300) });
+    expect(owner.ok).toBe(true);
+  });
+
+  it("throttles guessing spread over many addresses, even with the right password afterwards", async () => {
+    for (let i = 0; i < MAX_FAILURES_PER_LOGIN; i++) await signIn(t.db, { login: "eve", password: `wrong ${i}` }, { ip: `10.0.${1 + Math.floor(i / 200)}.${i % 200}`, now: later(1_000 + i) });
     const r = await signIn(t.db, { login: "eve", password: "another one" }, { ip: "10.0.2.1", now: later(10_000) });
     expect(r.ok ? "ok" : r.issues[0]?.code).toBe("AUTH.RATE_LIMITED");
     const afterWindow = await signIn(t.db, { login: "eve", password: "another one" }, { ip: "10.0.2.1", now: later(16 * 60_000) });
     expect(afterWindow.ok).toBe(true);
+  });
+
+  it("an administrator's unlock lets a locked name sign in at once, and is audited", async () => {
+    const site = await t.db.site.findFirstOrThrow();
+    const admin = await insertUser(t.db, { siteId: site.id, login: "ada", fullName: "Ada", role: "ADMIN", passwordHash: await hashPassword("admin words here") });
+    const at = later(40 * 60_000);
+    for (let i = 0; i < MAX_FAILURES_PER_LOGIN_AND_IP; i++) await signIn(t.db, { login: "eve", password: `typo ${i}` }, { ip: "10.1.1.1", now: new Date(at.getTime() + i) });
+    expect((await signIn(t.db, { login: "eve", password: "another one" }, { ip: "10.1.1.1", now: new Date(at.getTime() + 10) })).ok).toBe(false);
+    const unlocked = await unlockSignIn(t.db, { siteId: site.id, userId: admin.id, now: new Date(at.getTime() + 20) }, { login: "eve", reason: "Remembered the password" });
+    expect(unlocked.ok).toBe(true);
+    expect((await signIn(t.db, { login: "eve", password: "another one" }, { ip: "10.1.1.1", now: new Date(at.getTime() + 30) })).ok).toBe(true);
+    expect(await t.db.auditEvent.count({ where: { entity: "User", entityKey: "eve", reason: "Remembered the password" } })).toBe(1);
   });
 
   it("revokes every session of a user", async () => {

@@ -1,7 +1,7 @@
 "use client";
 import { useActionState, useId } from "react";
 import type { ReactNode } from "react";
-import { changeUserAction, createUserAction, endSessionsAction, resetPasswordAction } from "@/app/admin/users/actions";
+import { changeUserAction, createUserAction, endSessionsAction, resetPasswordAction, unlockSignInAction } from "@/app/admin/users/actions";
 import { IDLE } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 
@@ -159,6 +159,23 @@ export function EndSessionsForm({ login }: { login: string }) {
       </Field>
       <button type="submit" disabled={pending}>
         End all sessions
+      </button>
+      <Answer state={state} />
+    </form>
+  );
+}
+
+/** Lifts a sign-in lock after failed attempts (for example a colleague who forgot the password and then remembered). */
+export function UnlockSignInForm({ login }: { login: string }) {
+  const [state, act, pending] = useForm(unlockSignInAction);
+  return (
+    <form action={act} className="account-form" noValidate key={state.seq} aria-label={`Unlock sign-in of ${login}`}>
+      <input type="hidden" name="login" value={login} />
+      <Field state={state} name="reason" label="Reason">
+        {(p) => <input id={p.id} name="reason" defaultValue={state.values.reason ?? ""} aria-invalid={p.invalid || undefined} aria-describedby={p.describedBy} />}
+      </Field>
+      <button type="submit" disabled={pending}>
+        Unlock sign-in
       </button>
       <Answer state={state} />
     </form>

@@ -2,7 +2,7 @@
 import { revalidatePath } from "next/cache";
 import { getDb } from "@/lib/db";
 import { requireRole } from "@/lib/auth/request.service";
-import { changeUser, createUser, endSessions, resetPassword } from "@/lib/auth/user.service";
+import { changeUser, createUser, endSessions, resetPassword, unlockSignIn } from "@/lib/auth/user.service";
 import { readText, readValues, refused } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 
@@ -60,4 +60,13 @@ export async function endSessionsAction(prev: FormState, form: FormData): Promis
   const r = await endSessions(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { login: readText(form, "login"), reason: values.reason });
   if (!r.ok) return refused(prev, values, r.issues, ["login", "reason"]);
   return saved(prev, `${r.value.sessionsEnded} session${r.value.sessionsEnded === 1 ? "" : "s"} of ${r.value.login} ended; they must sign in again.`);
+}
+
+export async function unlockSignInAction(prev: FormState, form: FormData): Promise<FormState> {
+  const values = readValues(form, ["login", "reason"]);
+  const who = await requireRole(["ADMIN"]);
+  if (!who.ok) return refused(prev, values, who.issues, ["login", "reason"]);
+  const r = await unlockSignIn(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { login: readText(form, "login"), reason: values.reason });
+  if (!r.ok) return refused(prev, values, r.issues, ["login", "reason"]);
+  return saved(prev, `${r.value.login} may sign in again at once; earlier failed attempts no longer count.`);
 }

@@ -3,7 +3,7 @@ import { listUsers } from "@/lib/auth/user.store";
 import { when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { HistoryLink, NoSite, Note } from "@/app/_ui/ui";
-import { ChangeAccountForm, CreateAccountForm, EndSessionsForm, ResetPasswordForm } from "@/app/admin/users/account-forms";
+import { ChangeAccountForm, CreateAccountForm, EndSessionsForm, ResetPasswordForm, UnlockSignInForm } from "@/app/admin/users/account-forms";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Accounts" };
@@ -65,6 +65,7 @@ export default async function AccountsPage() {
                     <ChangeAccountForm login={u.login} role={u.role} active={u.active} unitSystem={u.unitSystem} />
                     <ResetPasswordForm login={u.login} />
                     <EndSessionsForm login={u.login} />
+                    <UnlockSignInForm login={u.login} />
                   </details>
                 </td>
                 <td>
