@@ -81,3 +81,40 @@ test("anyone sets their own units; another person's account history stays privat
   await page.goto("/history?kind=user&key=collector.mira");
   await expect(page.getByRole("cell", { name: "own preference" })).toBeVisible();
 });
+
+// OWASP ASVS 5.0 V6.4.2 style: a password set by someone else is used once, then replaced by its owner.
+test("a colleague signs in with the password the administrator gave and must choose their own first", async ({ page, browser }) => {
+  await signIn(page, "admin.jory", "/admin/users");
+  const create = page.getByRole("form", { name: "New account" });
+  const login = `collector.new${Date.now() % 100000}`;
+  await create.getByLabel("User name").fill(login);
+  await create.getByLabel("Full name").fill("Orrin Vale");
+  await create.getByLabel("Role").selectOption("COLLECTOR");
+  await create.getByLabel("First password").fill("given at the counter");
+  await create.getByRole("button", { name: "Create account" }).click();
+  await expect(page.getByRole("status").filter({ hasText: `Account ${login} created` })).toBeVisible();
+
+  const context = await browser.newContext();
+  const colleague = await context.newPage();
+  await colleague.goto("/login?next=%2Fpickups");
+  await colleague.getByLabel("User name").fill(login);
+  await colleague.getByLabel("Password").fill("given at the counter");
+  await colleague.getByRole("button", { name: "Sign in" }).click();
+  await expect(colleague.getByRole("heading", { name: "Choose your own password" })).toBeVisible({ timeout: 15_000 });
+  await colleague.goto("/pickups");
+  await expect(colleague).toHaveURL(/\/me\/password$/);
+  const form = colleague.getByRole("form", { name: "Your password" });
+  await form.getByLabel("Password you were given").fill("given at the counter");
+  await form.getByLabel("New password", { exact: true }).fill("kettle lantern orchard");
+  await form.getByLabel("New password again").fill("kettle lantern orchrad");
+  await form.getByRole("button", { name: "Save my password" }).click();
+  await expect(form.getByText("The two new passwords differ")).toBeVisible();
+  await form.getByLabel("Password you were given").fill("given at the counter");
+  await form.getByLabel("New password", { exact: true }).fill("kettle lantern orchard");
+  await form.getByLabel("New password again").fill("kettle lantern orchard");
+  await form.getByRole("button", { name: "Save my password" }).click();
+  await expect(colleague).toHaveURL(/\/collect/);
+  await colleague.goto("/pickups");
+  await expect(colleague.getByRole("heading", { level: 1 })).not.toHaveText("Choose your own password");
+  await context.close();
+});

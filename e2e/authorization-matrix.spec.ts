@@ -97,6 +97,7 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   reverseMovementAction: ["PRODUCTION"],
   voidLabResultAction: ["PRODUCTION"],
   setOwnUnitsAction: ANY,
+  changeOwnPasswordAction: ANY,
 };
 
 interface ActionEntry { id: string; name: string; page: string }

@@ -11,6 +11,8 @@ import { warmTraceCache } from "@/lib/trace/trace.service";
 import type { SignedIn } from "@/lib/auth/request.service";
 import { canRead, homeFor } from "@/lib/auth/read-matrix";
 
+const FIRST_PASSWORD_PATH = "/me/password";
+
 /**
  * The database, the signed-in user and their site, once per request; pages need a signed-in user who
  * may read the page asked for (lib/auth/read-matrix.ts). A collector sent to the overview goes to
@@ -20,6 +22,8 @@ export const loadSite = cache(async (): Promise<{ db: Db; site: SiteRow | null; 
   const user = await getSignedIn();
   if (!user) redirect("/login");
   const path = (await headers()).get("x-pathname") ?? "";
+  // A password an administrator chose opens one page only: the one where the user chooses their own.
+  if (user.mustChangePassword && path !== FIRST_PASSWORD_PATH) redirect(FIRST_PASSWORD_PATH);
   if (!canRead(user.role, path)) {
     if (path === "/" && homeFor(user.role) !== "/") redirect(homeFor(user.role));
     forbidden();

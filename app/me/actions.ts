@@ -1,10 +1,12 @@
 "use server";
 import { revalidatePath } from "next/cache";
 import { getDb } from "@/lib/db";
-import { requireRole } from "@/lib/auth/request.service";
-import { setOwnUnits } from "@/lib/auth/user.service";
+import { getSignedIn, requireRole } from "@/lib/auth/request.service";
+import { changeOwnPassword, setOwnUnits } from "@/lib/auth/user.service";
 import { SITE_ROLES } from "@/lib/ledger/kinds";
-import { readValues, refused } from "@/app/_ui/kit/form-state";
+import { readText, readValues, refused } from "@/app/_ui/kit/form-state";
+import { redirect } from "next/navigation";
+import { homeFor } from "@/lib/auth/read-matrix";
 import type { FormState } from "@/app/_ui/kit/form-state";
 
 export async function setOwnUnitsAction(prev: FormState, form: FormData): Promise<FormState> {
@@ -15,4 +17,18 @@ export async function setOwnUnitsAction(prev: FormState, form: FormData): Promis
   if (!r.ok) return refused(prev, values, r.issues, ["unitSystem"]);
   revalidatePath("/", "layout");
   return { status: "saved", message: r.value.unitSystem === "us" ? "Saved: US units (lb, gal, °F)." : "Saved: metric units (kg, L, °C).", values: {}, errors: {}, seq: prev.seq + 1 };
+}
+
+/**
+ * Anyone signed in sets their own password, including a user held at the first sign-in (so this action
+ * checks the session itself rather than through requireRole, which refuses held users). Passwords are
+ * never echoed back into the form.
+ */
+export async function changeOwnPasswordAction(prev: FormState, form: FormData): Promise<FormState> {
+  const user = await getSignedIn();
+  if (!user) return refused(prev, {}, [{ code: "AUTH.UNAUTHENTICATED", message: "Sign in first" }], []);
+  const r = await changeOwnPassword(await getDb(), { siteId: user.siteId, userId: user.userId, now: user.now }, { current: readText(form, "current"), password: readText(form, "password"), confirm: readText(form, "confirm") });
+  if (!r.ok) return refused(prev, {}, r.issues, ["current", "password", "confirm"]);
+  if (user.mustChangePassword) redirect(homeFor(user.role));
+  return { status: "saved", message: "Your new password is saved.", values: {}, errors: {}, seq: prev.seq + 1 };
 }

@@ -1,3 +1,4 @@
+import Link from "next/link";
 import type { Metadata } from "next";
 import { labelOf } from "@/lib/ledger/kinds";
 import { loadSite } from "@/app/_ui/site";
@@ -18,7 +19,10 @@ export default async function MePage() {
         changes only how they are shown and typed. <HistoryLink kind="user" recordKey={user.login} label="account" />
       </p>
       <UnitsForm current={user.unitSystem} />
-      <p className="note">A new password or a different role: ask your administrator.</p>
+      <p>
+        <Link href="/me/password">Change your password</Link>
+      </p>
+      <p className="note">A different role, or a password you have forgotten: ask your administrator.</p>
     </>
   );
 }

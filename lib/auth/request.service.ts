@@ -43,6 +43,7 @@ export async function requireRole(roles: readonly SiteRole[]): Promise<Result<Si
   const user = await getSignedIn();
   if (!user) return fail("AUTH.UNAUTHENTICATED", "Sign in first");
   if (!roles.includes(user.role)) return fail("AUTH.FORBIDDEN", `This needs one of these roles: ${roles.map((r) => r.toLowerCase()).join(", ")}`);
+  if (user.mustChangePassword) return fail("AUTH.PASSWORD_CHANGE_REQUIRED", "Choose your own password first (Your settings): the one you were given is for the first sign-in only");
   return ok(user);
 }
 

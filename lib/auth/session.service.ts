@@ -17,6 +17,8 @@ export interface SessionUser {
   fullName: string;
   role: SiteRole;
   unitSystem: "metric" | "us";
+  /** An administrator chose the password; nothing else opens until the user has chosen their own. */
+  mustChangePassword: boolean;
 }
 
 export function hashToken(token: string): string {
@@ -46,7 +48,7 @@ export async function signIn(db: Db, input: unknown, ctx: { ip: string; now: Dat
   const token = randomBytes(32).toString("base64url");
   const expiresAt = new Date(ctx.now.getTime() + ABSOLUTE_TIMEOUT_MS);
   await insertSession(db, { tokenHash: hashToken(token), userId: user.id, createdAt: ctx.now, expiresAt });
-  return ok({ token, expiresAt, user: { siteId: user.siteId, userId: user.id, login: user.login, fullName: user.fullName, role: user.role, unitSystem: user.unitSystem === "us" ? "us" : "metric" } });
+  return ok({ token, expiresAt, user: { siteId: user.siteId, userId: user.id, login: user.login, fullName: user.fullName, role: user.role, unitSystem: user.unitSystem === "us" ? "us" : "metric", mustChangePassword: user.mustChangePassword } });
 }
 
 /** The signed-in user for a session token, or null when the session is unknown, revoked, expired or idle. */
@@ -54,7 +56,7 @@ export async function resolveSession(db: Db, token: string, now: Date): Promise<
   const s = await findSessionByTokenHash(db, hashToken(token));
   if (!s || !s.user.active || !isSessionLive(s, now)) return null;
   if (now.getTime() - s.lastSeenAt.getTime() > 60_000) await touchSession(db, s.id, now);
-  return { siteId: s.user.siteId, userId: s.user.id, login: s.user.login, fullName: s.user.fullName, role: s.user.role, unitSystem: s.user.unitSystem === "us" ? "us" : "metric" };
+  return { siteId: s.user.siteId, userId: s.user.id, login: s.user.login, fullName: s.user.fullName, role: s.user.role, unitSystem: s.user.unitSystem === "us" ? "us" : "metric", mustChangePassword: s.user.mustChangePassword };
 }
 
 export async function signOut(db: Db, token: string, now: Date): Promise<void> {

@@ -11,10 +11,11 @@ export interface UserForSignIn {
   passwordHash: string | null;
   active: boolean;
   unitSystem: string;
+  mustChangePassword: boolean;
 }
 
 export async function findUserByLogin(db: Db, login: string): Promise<UserForSignIn | null> {
-  const u = await db.user.findUnique({ where: { login }, select: { id: true, siteId: true, login: true, fullName: true, role: true, passwordHash: true, active: true, unitSystem: true } });
+  const u = await db.user.findUnique({ where: { login }, select: { id: true, siteId: true, login: true, fullName: true, role: true, passwordHash: true, active: true, unitSystem: true, mustChangePassword: true } });
   return u ? { ...u, role: u.role as SiteRole } : null;
 }
 
@@ -42,13 +43,13 @@ export interface SessionWithUser {
   lastSeenAt: Date;
   expiresAt: Date;
   revokedAt: Date | null;
-  user: { id: number; siteId: number; login: string; fullName: string; role: SiteRole; active: boolean; unitSystem: string };
+  user: { id: number; siteId: number; login: string; fullName: string; role: SiteRole; active: boolean; unitSystem: string; mustChangePassword: boolean };
 }
 
 export async function findSessionByTokenHash(db: Db, tokenHash: string): Promise<SessionWithUser | null> {
   const s = await db.session.findUnique({
     where: { tokenHash },
-    select: { id: true, createdAt: true, lastSeenAt: true, expiresAt: true, revokedAt: true, user: { select: { id: true, siteId: true, login: true, fullName: true, role: true, active: true, unitSystem: true } } },
+    select: { id: true, createdAt: true, lastSeenAt: true, expiresAt: true, revokedAt: true, user: { select: { id: true, siteId: true, login: true, fullName: true, role: true, active: true, unitSystem: true, mustChangePassword: true } } },
   });
   return s ? { ...s, user: { ...s.user, role: s.user.role as SiteRole } } : null;
 }

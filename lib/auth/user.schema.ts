@@ -47,3 +47,13 @@ export type PasswordResetInput = z.input<typeof PasswordResetSchema>;
 export const RevokeSessionsSchema = z.object({ login, reason });
 
 export const OwnUnitsSchema = z.object({ unitSystem: oneOf("Units", ["metric", "us"] as const) });
+
+/** A user replacing the password an administrator gave them (or any time, from their settings). */
+export const OwnPasswordSchema = z
+  .object({
+    current: z.string({ error: "Current password is required" }).min(1, "Current password is required").max(MAX_PASSWORD_LENGTH, "Current password is wrong"),
+    password,
+    confirm: z.string({ error: "Type the new password again" }),
+  })
+  .refine((p) => p.password === p.confirm, { message: "The two new passwords differ", path: ["confirm"] })
+  .refine((p) => p.password !== p.current, { message: "Choose a password different from the one you were given", path: ["password"] });

@@ -1,12 +1,13 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
-import { hashPassword } from "@/lib/auth/password";
-import { OwnUnitsSchema, PasswordResetSchema, RevokeSessionsSchema, UserChangeSchema, UserCreateSchema } from "@/lib/auth/user.schema";
-import { countActiveAdmins, insertAccount, requireUser, revokeAllSessions, updateUser } from "@/lib/auth/user.store";
+import { hashPassword, verifyPassword } from "@/lib/auth/password";
+import { OwnPasswordSchema, OwnUnitsSchema, PasswordResetSchema, RevokeSessionsSchema, UserChangeSchema, UserCreateSchema } from "@/lib/auth/user.schema";
+import { countActiveAdmins, getPasswordHash, insertAccount, requireUser, revokeAllSessions, updateUser } from "@/lib/auth/user.store";
 import { recordLoginAttempt } from "@/lib/auth/session.store";
 import { UNLOCK_ADDRESS } from "@/lib/auth/session-rules";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
+import { fail } from "@/lib/errors";
 import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
 import { parseInput } from "@/lib/ledger/parse";
 import type { Actor } from "@/lib/site/actor";
@@ -20,7 +21,8 @@ export async function createUser(db: Db, actor: Actor, input: unknown): Promise<
   const { password, ...rest } = parsed.value;
   const passwordHash = await hashPassword(password);
   return runInTransaction(db, async (tx) => {
-    const saved = await insertAccount(tx, actor.siteId, { ...rest, passwordHash });
+    // The administrator chose this password: the colleague replaces it at their first sign-in.
+    const saved = await insertAccount(tx, actor.siteId, { ...rest, passwordHash, mustChangePassword: true });
     await appendAudit(tx, actor, { action: "CREATE", entity: "User", entityKey: rest.login, after: rest });
     return saved;
   });
@@ -59,7 +61,7 @@ export async function resetPassword(db: Db, actor: Actor, input: unknown): Promi
   const passwordHash = await hashPassword(parsed.value.password);
   return runInTransaction(db, async (tx) => {
     const u = await requireUser(tx, actor.siteId, parsed.value.login);
-    await updateUser(tx, u.id, { passwordHash });
+    await updateUser(tx, u.id, { passwordHash, mustChangePassword: true });
     const sessionsEnded = await revokeAllSessions(tx, u.id, actor.now);
     await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: u.login, after: { password: "reset", sessionsEnded }, reason: parsed.value.reason });
     return { login: u.login, sessionsEnded };
@@ -100,5 +102,20 @@ export async function setOwnUnits(db: Db, actor: Actor, input: unknown): Promise
       await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: me.login, before: { unitSystem: me.unitSystem }, after: { unitSystem: parsed.value.unitSystem }, reason: "own preference" });
     }
     return { unitSystem: parsed.value.unitSystem };
+  });
+}
+
+/** The signed-in user sets their own password; the current one must be typed. Ends the first-sign-in hold. */
+export async function changeOwnPassword(db: Db, actor: Actor, input: unknown): Promise<Result<{ login: string }>> {
+  const parsed = parseInput(OwnPasswordSchema, input);
+  if (!parsed.ok) return parsed;
+  const passwordHash = await hashPassword(parsed.value.password);
+  const stored = await getPasswordHash(db, actor.userId);
+  if (stored === null || !(await verifyPassword(stored, parsed.value.current))) return fail("USER.WRONG_PASSWORD", "Current password is wrong", "current");
+  return runInTransaction(db, async (tx) => {
+    const me = await requireUser(tx, actor.siteId, { id: actor.userId });
+    await updateUser(tx, me.id, { passwordHash, mustChangePassword: false });
+    await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: me.login, after: { password: "changed by its owner" }, reason: "own password" });
+    return { login: me.login };
   });
 }

@@ -55,13 +55,13 @@ export async function requireUser(tx: Tx, siteId: number, who: string | { id: nu
   return u;
 }
 
-export async function insertAccount(tx: Tx, siteId: number, u: { login: string; fullName: string; role: string; unitSystem: string; passwordHash: string }): Promise<{ id: number; login: string }> {
+export async function insertAccount(tx: Tx, siteId: number, u: { login: string; fullName: string; role: string; unitSystem: string; passwordHash: string; mustChangePassword: boolean }): Promise<{ id: number; login: string }> {
   const clash = await tx.user.findUnique({ where: { login: u.login }, select: { id: true } });
   if (clash) reject("RECORD.DUPLICATE", `User name ${u.login} is already taken`, "login");
   return tx.user.create({ data: { siteId, ...u }, select: { id: true, login: true } });
 }
 
-export async function updateUser(tx: Tx, id: number, data: { role?: string; active?: boolean; unitSystem?: string; passwordHash?: string }): Promise<void> {
+export async function updateUser(tx: Tx, id: number, data: { role?: string; active?: boolean; unitSystem?: string; passwordHash?: string; mustChangePassword?: boolean }): Promise<void> {
   await tx.user.update({ where: { id }, data });
 }
 
@@ -71,4 +71,8 @@ export async function revokeAllSessions(tx: Tx, userId: number, now: Date): Prom
 
 export async function countActiveAdmins(tx: Tx, siteId: number): Promise<number> {
   return tx.user.count({ where: { siteId, role: "ADMIN", active: true } });
+}
+
+export async function getPasswordHash(tx: Db | Tx, userId: number): Promise<string | null> {
+  return (await tx.user.findUnique({ where: { id: userId }, select: { passwordHash: true } }))?.passwordHash ?? null;
 }

@@ -4,7 +4,7 @@ import { createTestDb, PROVIDERS } from "./support/test-db";
 import { insertSite, insertUser } from "@/lib/site/site.store";
 import { hashPassword } from "@/lib/auth/password";
 import { resolveSession, signIn } from "@/lib/auth/session.service";
-import { changeUser, createUser, endSessions, resetPassword } from "@/lib/auth/user.service";
+import { changeOwnPassword, changeUser, createUser, endSessions, resetPassword } from "@/lib/auth/user.service";
 import { listRecordHistory, loadChain } from "@/lib/audit/audit.store";
 import { verifyChain } from "@/lib/audit/chain";
 
@@ -44,6 +44,27 @@ describe.each(PROVIDERS)("account administration on %s", (provider) => {
     const taken = await createUser(t.db, admin, { login: "wen.collector", fullName: "Other", role: "COLLECTOR", password: "another long one" });
     expect(!taken.ok && taken.issues[0]).toMatchObject({ code: "RECORD.DUPLICATE", field: "login" });
     expect(await t.db.user.count()).toBe(2);
+  });
+
+  it("holds an administrator-set password until its owner chooses their own", async () => {
+    const r = await createUser(t.db, admin, { login: "orrin", fullName: "Orrin", role: "PRODUCTION", password: "given at the counter" });
+    expect(r.ok).toBe(true);
+    const s = await signIn(t.db, { login: "orrin", password: "given at the counter" }, { ip: "10.1.1.2", now });
+    if (!s.ok) throw new Error("sign-in");
+    expect(s.value.user.mustChangePassword).toBe(true);
+    const me = { siteId: admin.siteId, userId: s.value.user.userId, now };
+    const wrong = await changeOwnPassword(t.db, me, { current: "not it", password: "kettle lantern orchard", confirm: "kettle lantern orchard" });
+    expect(wrong.ok ? "ok" : wrong.issues[0]?.field).toBe("current");
+    const differ = await changeOwnPassword(t.db, me, { current: "given at the counter", password: "kettle lantern orchard", confirm: "kettle lantern" });
+    expect(differ.ok ? "ok" : differ.issues[0]?.field).toBe("confirm");
+    const same = await changeOwnPassword(t.db, me, { current: "given at the counter", password: "given at the counter", confirm: "given at the counter" });
+    expect(same.ok ? "ok" : same.issues[0]?.field).toBe("password");
+    expect((await changeOwnPassword(t.db, me, { current: "given at the counter", password: "kettle lantern orchard", confirm: "kettle lantern orchard" })).ok).toBe(true);
+    expect((await resolveSession(t.db, s.value.token, now))?.mustChangePassword).toBe(false);
+    const reset = await resetPassword(t.db, admin, { login: "orrin", password: "second given one", reason: "Forgot it" });
+    expect(reset.ok).toBe(true);
+    const again = await signIn(t.db, { login: "orrin", password: "second given one" }, { ip: "10.1.1.2", now });
+    expect(again.ok && again.value.user.mustChangePassword).toBe(true);
   });
 
   it("deactivating ends the account's sessions at once and blocks sign-in; reactivating needs a new sign-in", async () => {

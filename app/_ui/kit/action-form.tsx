@@ -67,6 +67,7 @@ type FieldProps = {
   maxLength?: number;
 } & (
   | { type?: "text" | "number" | "datetime-local" | "date"; options?: undefined; placeholder?: string }
+  | { type: "password"; options?: undefined; autoComplete: "current-password" | "new-password" }
   | { type: "select"; options: ReadonlyArray<readonly [value: string, label: string]> }
   | { type: "textarea"; options?: undefined; placeholder?: string }
   | { type: "checkbox"; options?: undefined }
@@ -96,6 +97,9 @@ export function Field(props: FieldProps) {
     );
   } else if (props.type === "textarea") {
     control = <textarea {...common} defaultValue={value} rows={3} placeholder={props.placeholder} maxLength={maxLength} />;
+  } else if (props.type === "password") {
+    // A password is never sent back to the page: after a refusal it is typed again.
+    control = <input {...common} type="password" defaultValue="" autoComplete={props.autoComplete} maxLength={maxLength} />;
   } else if (props.type === "checkbox") {
     control = <input {...common} type="checkbox" value="yes" defaultChecked={value === "yes" || value === "on"} />;
   } else {
