@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { WASTE_STREAMS } from "@/lib/ledger/kinds";
-import { code, massKg, oneOf, percent, requiredText, text, volumeL, when } from "@/lib/ledger/fields";
+import { code, massKg, percent, requiredText, text, volumeL, when } from "@/lib/ledger/fields";
 import { MAX_FLASH_POINT_C, MAX_PH, MIN_FLASH_POINT_C, MIN_PH } from "@/lib/waste/waste.schema";
 
 const pH = z
@@ -12,9 +12,11 @@ const flashPointC = z
   .min(MIN_FLASH_POINT_C, `Flash point must be at least ${MIN_FLASH_POINT_C} °C`)
   .max(MAX_FLASH_POINT_C, `Flash point must be at most ${MAX_FLASH_POINT_C} °C`);
 
+const stream = z.enum(WASTE_STREAMS, { error: "Stream: choose glycerol phase, wash water, spent filter media, methanol-rich liquid or other" });
+
 export const WasteContainerSchema = z.object({
   code: code("Container code"),
-  stream: oneOf("Stream", WASTE_STREAMS),
+  stream,
   /** Where the container stands (a bay, a pad, a satellite area near the reactor). */
   location: text("Location", 120).default(""),
   accumulationStart: when("Accumulation start"),

@@ -8,6 +8,7 @@ import type { DomainIssue } from "@/lib/errors";
 import { day, kg, litres, num, pct } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { Empty, Facts, NoSite, Note } from "@/app/_ui/ui";
+import { Cautions } from "@/app/_ui/kit";
 import { DEFAULT_DUE_DAYS, getWasteDueReport } from "@/app/waste/due/due-report";
 import type { ContainerDueRow, WasteDueReport } from "@/app/waste/due/due-report";
 
@@ -45,32 +46,18 @@ export default async function WasteDuePage({ searchParams }: { searchParams: Pro
         Every container on site with its hazard flags and the date it must go under the active rule set, and what falls due in the next
         days, by stream, with totals for the hauler.
       </p>
-      <Cautions />
+      <Cautions
+        title="Before moving or loading these streams"
+        items={[
+          "The glycerol phase and methanol-rich liquid carry methanol and are flammable: keep ignition sources, hot work and sparks away; bond and ground drums, totes and the tanker while transferring; ventilate; no smoking.",
+          "Wash water may carry methanol, soap and catalyst residue and is often alkaline: wear eye protection and chemical-resistant gloves; keep it out of drains unless your discharge permit allows it.",
+          "Oily or methanol-wet spent filter media can heat itself: keep it in closed metal bins away from buildings.",
+          "Hand waste only to a licensed hauler with the manifest or shipping document filled in.",
+        ]}
+      />
       <DueForm typed={typed} report={result.ok ? result.value : null} issues={result.ok ? [] : result.issues} />
       {result.ok ? <DueResult r={result.value} timeZone={tz} /> : null}
     </>
-  );
-}
-
-function Cautions() {
-  return (
-    <div className="caution" role="note" aria-label="Safety cautions">
-      <strong>Before moving or loading these streams</strong>
-      <ul>
-        <li>
-          The glycerol phase carries methanol and is flammable: keep ignition sources, hot work and sparks away; ground and bond drums,
-          totes and the tanker while transferring; ventilate; no smoking.
-        </li>
-        <li>
-          Wash water carries methanol, soap and catalyst residue and is alkaline: wear eye protection and chemical-resistant gloves; keep
-          it away from drains unless your discharge permit allows it.
-        </li>
-        <li>
-          Follow each material&apos;s safety data sheet, your site&apos;s procedures and local codes; hand waste only to a licensed hauler
-          with the manifest or shipping document filled in.
-        </li>
-      </ul>
-    </div>
   );
 }
 
@@ -106,6 +93,14 @@ function DueForm({ typed, report, issues }: { typed: Record<string, string>; rep
         ))}
       </fieldset>
     </form>
+  );
+}
+
+function HaulLink({ code }: { code: string }) {
+  return (
+    <Link href={`/waste/${encodeURIComponent(code)}#haul-away`} aria-label={`Record haul-away of ${code}`}>
+      Record haul-away
+    </Link>
   );
 }
 
@@ -181,13 +176,14 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                   <th scope="col" className="num">
                     US gal (est.)
                   </th>
+                  <th scope="col">Haul-away</th>
                 </tr>
               </thead>
               <tbody>
                 {g.items.map((d) => (
                   <tr key={d.code}>
                     <td>
-                      <a href={`/waste#${encodeURIComponent(d.code)}`}>{d.code}</a>
+                      <Link href={`/waste/${encodeURIComponent(d.code)}`}>{d.code}</Link>
                     </td>
                     <td className="nowrap">
                       {d.dueDate} {d.overdue ? <span className="status status-overdue">overdue</span> : null}
@@ -200,6 +196,9 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                     <td className="num">{kg(d.massG, 1)}</td>
                     <td className="num">{litres(d.volumeMl, 1)}</td>
                     <td className="num">{num(convertVolume(d.volumeMl, "mL", "gal"), 1)}</td>
+                    <td>
+                      <HaulLink code={d.code} />
+                    </td>
                   </tr>
                 ))}
               </tbody>
@@ -209,6 +208,7 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                   <td className="num">{num(g.totals.kg, 1)} kg</td>
                   <td className="num">{num(g.totals.litres, 1)} L</td>
                   <td className="num">{num(g.totals.usGallons, 1)}</td>
+                  <td />
                 </tr>
               </tfoot>
             </table>
@@ -236,13 +236,14 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                 <th scope="col">Corrosive</th>
                 <th scope="col">Assessment</th>
                 <th scope="col">Must go by</th>
+                <th scope="col">Haul-away</th>
               </tr>
             </thead>
             <tbody>
               {r.containers.map((c) => (
                 <tr key={c.code}>
                   <td className="nowrap">
-                    {c.code}
+                    <Link href={`/waste/${encodeURIComponent(c.code)}`}>{c.code}</Link>
                     {c.satellite ? <span className="tag">satellite</span> : null}
                   </td>
                   <td>{labelOf(c.stream)}</td>
@@ -272,6 +273,9 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                         {c.due.dueDate} {c.overdue ? <span className="status status-overdue">overdue</span> : <span className="muted">({c.daysLeft} d)</span>}
                       </span>
                     )}
+                  </td>
+                  <td>
+                    <HaulLink code={c.code} />
                   </td>
                 </tr>
               ))}
