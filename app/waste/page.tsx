@@ -92,11 +92,11 @@ export default async function WastePage() {
                         ) : d === undefined ? (
                           <span className="muted">not assessed</span>
                         ) : d.dueDate === null ? (
-                          <span className="muted" title={d.status}>
+                          <span className="muted">
                             no time limit
                           </span>
                         ) : (
-                          <span title={`${d.source}: ${d.status}`}>
+                          <span>
                             {d.dueDate} {d.overdue ? <span className="status status-overdue">overdue</span> : <span className="muted">({d.daysLeft} d)</span>}
                           </span>
                         )}

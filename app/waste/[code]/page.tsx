@@ -14,6 +14,7 @@ import { loadSite } from "@/app/_ui/site";
 import { HistoryLink, HolderLink, NoSite, Note } from "@/app/_ui/ui";
 import { getWasteDueReport } from "@/app/waste/due/due-report";
 import { CharacterisationForm, HaulForm, MarkFullForm } from "@/app/waste/container-forms";
+import { confidenceOf, plainSource } from "@/app/waste/rule-text";
 
 export const dynamic = "force-dynamic";
 
@@ -49,7 +50,7 @@ function FlagRow({ f, what }: { f: HazardFlag; what: string }) {
         {f.reason}
         {missing.length > 0 ? <span className="muted"> — still needed: {missing.join(", ")}</span> : null}
       </td>
-      <td>{f.source}</td>
+      <td>{plainSource(f.source)}</td>
     </tr>
   );
 }
@@ -63,6 +64,9 @@ export default async function WasteContainerPage({ params }: Props) {
   const tz = site.timeZone;
   const now = user.now;
   const nowLocal = when(now, tz).replace(" ", "T");
+  // A haul is usually typed right after the last output went in: its default is the next whole minute, so
+  // a time rounded down to the minute cannot fall before a booking made earlier in the same minute.
+  const haulLocal = when(new Date(Math.ceil((now.getTime() + 1) / 60_000) * 60_000), tz).replace(" ", "T");
   const stream = c.stream as WasteStream;
   const onSite = c.status !== "SHIPPED";
   // The same report the waste-due list reads, so both pages always agree on the date.
@@ -78,14 +82,14 @@ export default async function WasteContainerPage({ params }: Props) {
   ) : due?.due === null || due === undefined ? (
     <span className="muted">not worked out</span>
   ) : due.due.dueDate === null ? (
-    <span className="muted">no time limit ({due.due.status})</span>
+    <span className="muted">no time limit below the satellite or very-small-generator limits</span>
   ) : (
     <span>
       {due.due.dueDate} {due.overdue ? <span className="status status-overdue">overdue</span> : <span className="muted">({due.daysLeft} days left)</span>}{" "}
       <span className="muted">
-        {due.due.limitDays} days, {due.due.source}
+        {due.due.limitDays} days, {plainSource(due.due.source)}
       </span>{" "}
-      <ConfidenceMark level="check" anchor="waste-accumulation-time" />
+      <ConfidenceMark level={confidenceOf(due.due.status)} anchor="waste-accumulation-time" />
     </span>
   );
 
@@ -182,7 +186,7 @@ export default async function WasteContainerPage({ params }: Props) {
           <p>
             The container holds <strong>{kg(c.stockG, 1)}</strong> on the books. When a haul takes all of it the container is marked hauled away.
           </p>
-          {canHaul ? <HaulForm containerCode={c.code} nowLocal={nowLocal} /> : <Note>Compliance staff record haul-aways.</Note>}
+          {canHaul ? <HaulForm containerCode={c.code} nowLocal={haulLocal} /> : <Note>Compliance staff record haul-aways.</Note>}
         </section>
       ) : null}
 

@@ -8,7 +8,8 @@ import type { DomainIssue } from "@/lib/errors";
 import { day, kg, litres, num, pct } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { Empty, Facts, NoSite, Note } from "@/app/_ui/ui";
-import { Cautions } from "@/app/_ui/kit";
+import { Cautions, ConfidenceMark } from "@/app/_ui/kit";
+import { confidenceOf, plainSource, plainStatus } from "@/app/waste/rule-text";
 import { DEFAULT_DUE_DAYS, getWasteDueReport } from "@/app/waste/due/due-report";
 import type { ContainerDueRow, WasteDueReport } from "@/app/waste/due/due-report";
 
@@ -108,7 +109,7 @@ function Flag({ f }: { f: HazardFlag }) {
   const cls = f.status === "YES" ? "status-fail" : f.status === "UNKNOWN" ? "status-warn" : "status-pass";
   const word = f.status === "YES" ? `${f.code} yes` : f.status === "UNKNOWN" ? `${f.code} unknown` : `${f.code} no`;
   return (
-    <span className={`status ${cls}`} title={`${f.reason} (${f.source})${f.missing.length ? `; missing: ${f.missing.join(", ")}` : ""}`}>
+    <span className={`status ${cls}`} title={`${f.reason} (${plainSource(f.source)})`}>
       {word}
     </span>
   );
@@ -189,9 +190,9 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                       {d.dueDate} {d.overdue ? <span className="status status-overdue">overdue</span> : null}
                     </td>
                     <td className="num">{d.daysLeft}</td>
-                    <td title={d.status}>
+                    <td>
                       {d.limitDays === null ? "" : `${d.limitDays} days, `}
-                      {d.source}
+                      {plainSource(d.source)}
                     </td>
                     <td className="num">{kg(d.massG, 1)}</td>
                     <td className="num">{litres(d.volumeMl, 1)}</td>
@@ -265,11 +266,11 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                     {c.due === null ? (
                       <span className="muted">not assessed</span>
                     ) : c.due.dueDate === null ? (
-                      <span className="muted" title={c.due.status}>
+                      <span className="muted">
                         no time limit
                       </span>
                     ) : (
-                      <span title={`${c.due.source}: ${c.due.status}`}>
+                      <span title={plainSource(c.due.source)}>
                         {c.due.dueDate} {c.overdue ? <span className="status status-overdue">overdue</span> : <span className="muted">({c.daysLeft} d)</span>}
                       </span>
                     )}
@@ -286,7 +287,7 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
       <Note>
         Ignitable (D001): a liquid with a closed-cup flash point below {rs.ignitableFlashPointBelowC.value} °C, unless aqueous with less than{" "}
         {rs.ignitableAqueousAlcoholBelowPctVol.value} % alcohol ({rs.ignitableFlashPointBelowC.source}). Corrosive (D002): aqueous with pH ≤{" "}
-        {rs.corrosivePhAtMost.value} or ≥ {rs.corrosivePhAtLeast.value} ({rs.corrosivePhAtLeast.source}; {rs.corrosivePhAtLeast.status}). A
+        {rs.corrosivePhAtMost.value} or ≥ {rs.corrosivePhAtLeast.value} ({rs.corrosivePhAtLeast.source}). A
         container without the measurements is handled as hazardous until characterised.
       </Note>
 
@@ -322,8 +323,10 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                 <td className="num nowrap">
                   {v.value} {v.unit}
                 </td>
-                <td>{v.source}</td>
-                <td>{v.status}</td>
+                <td>{plainSource(v.source)}</td>
+                <td>
+                  <ConfidenceMark level={confidenceOf(v.status)} anchor={`waste-${label}`} /> {plainStatus(v.status)}
+                </td>
               </tr>
             ))}
           </tbody>
