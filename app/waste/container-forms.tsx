@@ -11,7 +11,7 @@ export function OpenContainerForm({ streams, nowLocal }: { streams: ReadonlyArra
       <Field name="location" label="Location" hint="Bay, pad or area where it stands" />
       <Field name="accumulationStart" label="Accumulation start" type="datetime-local" defaultValue={nowLocal} hint="When the first waste went in; the time on site counts from here" required />
       <Field name="capacityL" label="Capacity" unit="L" type="number" required />
-      <Field name="satellite" label="Stands in a satellite accumulation area (at or near where the waste is made)" type="checkbox" />
+      <Field name="satellite" label="In a satellite accumulation area" type="checkbox" />
     </ActionForm>
   );
 }
