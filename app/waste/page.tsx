@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { labelOf, WASTE_STREAMS } from "@/lib/ledger/kinds";
 import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
 import { getWasteDueBoard, listDisposals, listWasteContainers } from "@/lib/waste/container.store";
-import { day, daysBetween, kg, litres, num, pct, when } from "@/app/_ui/format";
+import { day, daysBetween, kg, litres, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, HistoryLink, NoSite, Note, Status } from "@/app/_ui/ui";
 import { Cautions } from "@/app/_ui/kit";
@@ -10,16 +10,6 @@ import { OpenContainerForm } from "@/app/waste/container-forms";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Waste" };
-
-function characterisation(c: { methanolPct: number | null; pH: number | null; flashPointC: number | null; waterPct: number | null }): string {
-  const parts = [
-    c.methanolPct === null ? null : `methanol ${pct(c.methanolPct, 1)}`,
-    c.pH === null ? null : `pH ${num(c.pH, 1)}`,
-    c.flashPointC === null ? null : `flash point ${num(c.flashPointC, 0)} °C`,
-    c.waterPct === null ? null : `water ${pct(c.waterPct, 1)}`,
-  ].filter((p): p is string => p !== null);
-  return parts.length === 0 ? "not measured" : parts.join(", ");
-}
 
 export default async function WastePage() {
   const { db, site, user } = await loadSite();
@@ -65,7 +55,6 @@ export default async function WastePage() {
                   <th scope="col" className="num">
                     Capacity
                   </th>
-                  <th scope="col">Characterisation</th>
                   <th scope="col">History</th>
                 </tr>
               </thead>
@@ -104,7 +93,6 @@ export default async function WastePage() {
                       <td>{d ? labelOf(d.hazard) : <span className="muted">—</span>}</td>
                       <td className="num">{kg(c.stockG)}</td>
                       <td className="num">{litres(c.capacityMl, 0)}</td>
-                      <td>{characterisation(c)}</td>
                       <td>
                         <HistoryLink kind="waste" recordKey={c.code} label="waste container" />
                       </td>
