@@ -140,7 +140,7 @@ async function openAs(page: Page, login: string, code: string): Promise<void> {
   await expect(page).toHaveURL(new RegExp(`/waste/${code}$`));
 }
 
-test("production opens a filter-media bin and sees its self-heating caution; only compliance records hauls", async ({ page }) => {
+test("production opens a filter-media bin and sees its self-heating caution; only compliance records hauls", async ({ page, baseURL }) => {
   const code = `FM-${Date.now().toString(36).toUpperCase()}`;
   await openAs(page, "production.tess", code);
   await expect(page.getByRole("complementary", { name: "Handling spent filter media" })).toContainText("heat itself");
@@ -150,4 +150,11 @@ test("production opens a filter-media bin and sees its self-heating caution; onl
   await page.getByRole("form", { name: "Mark the container full" }).getByRole("button", { name: "Mark full" }).click();
   await expect(page.getByRole("heading", { level: 1 })).toContainText("Full, awaiting haul");
   await page.screenshot({ path: "/tmp/waste-filter-media.png", fullPage: true });
+  // The JSON endpoint answers a second "full" with a conflict, and a haul by production with a role refusal.
+  const headers = { "idempotency-key": `${code}-full-again`, origin: baseURL! };
+  const again = await page.request.post("/api/waste/full", { headers, data: { containerCode: code, fullAt: new Date().toISOString() } });
+  expect(again.status()).toBe(409);
+  expect(JSON.stringify(await again.json())).toContain("already marked full");
+  const haul = await page.request.post("/api/waste/disposals", { headers: { ...headers, "idempotency-key": `${code}-haul` }, data: { containerCode: code, documentNo: `M-${code}`, hauler: "H", disposedAt: new Date().toISOString(), massKg: 1, destination: "D" } });
+  expect(haul.status()).toBe(403);
 });
