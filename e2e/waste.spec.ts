@@ -1,6 +1,13 @@
+import AxeBuilder from "@axe-core/playwright";
 import { expect, request, test } from "@playwright/test";
 import type { Page } from "@playwright/test";
 import { signIn } from "./support/sign-in";
+
+/** WCAG 2.1 AA as axe-core checks it: no serious or critical violations on the page as it stands. */
+async function expectAccessible(page: Page): Promise<void> {
+  const results = await new AxeBuilder({ page }).analyze();
+  expect(results.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
+}
 
 // A fresh server's first signed-in page starts the trace index in the background; let that happen
 // before the journeys so their sign-ins are not timed against a cold start.
@@ -111,6 +118,7 @@ test("open a waste container, fill it from a batch, characterise it, mark it ful
   await expect(haul.getByLabel("Quantity collected (kg)")).toHaveValue("40");
   await expect(haul.getByLabel("Destination facility")).toHaveValue("Orrinford Glycerin Recovery");
   await nell.screenshot({ path: "/tmp/waste-over-haul.png", fullPage: true });
+  await expectAccessible(nell);
 
   // 6. The real quantity empties the container: hauled away, and gone from the due list.
   await haul.getByLabel("Quantity collected (kg)").fill("0.5");
@@ -146,6 +154,8 @@ test("production opens a filter-media bin and sees its self-heating caution; onl
   await expect(page.getByRole("complementary", { name: "Handling spent filter media" })).toContainText("heat itself");
   await expect(page.getByRole("form", { name: "Record a haul-away" })).toHaveCount(0);
   await expect(page.getByText("Compliance staff record haul-aways.")).toBeVisible();
+  await page.getByText("Record a new characterisation").click();
+  await expectAccessible(page);
   // Marking full twice is not offered; the form leaves once it is full.
   await page.getByRole("form", { name: "Mark the container full" }).getByRole("button", { name: "Mark full" }).click();
   await expect(page.getByRole("heading", { level: 1 })).toContainText("Full, awaiting haul");
