@@ -3,16 +3,17 @@ import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/ledger/kinds";
 import type { HolderKind, WasteStream } from "@/lib/ledger/kinds";
 import { getWasteContainerDetail } from "@/lib/waste/container.store";
-import type { ContainerMovement, DisposalOfContainer } from "@/lib/waste/container.store";
+import type { ContainerMovement, DisposalOfContainer, WasteContainerDetail } from "@/lib/waste/container.store";
 import { characterisationOf, STREAM_CAUTIONS } from "@/lib/waste/container-rules";
 import { assessWasteHazards } from "@/lib/waste/waste-due";
-import type { HazardFlag } from "@/lib/waste/waste-due";
+import type { HazardAssessment, HazardFlag } from "@/lib/waste/waste-due";
 import { Cautions, ConfidenceMark, DataTable, RecordHeader } from "@/app/_ui/kit";
 import { day, daysBetween, kg, litres, num, pct, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { HistoryLink, HolderLink, NoSite, Note } from "@/app/_ui/ui";
 import { getWasteDueReport } from "@/app/waste/due/due-report";
+import type { ContainerDueRow } from "@/app/waste/due/due-report";
 import { CharacterisationForm, HaulForm, MarkFullForm } from "@/app/waste/container-forms";
 import { confidenceOf, plainSource } from "@/app/waste/rule-text";
 
@@ -77,22 +78,6 @@ export default async function WasteContainerPage({ params }: Props) {
   const canHaul = user.role === "COMPLIANCE";
   const lastOut = c.disposals.at(-1)?.disposedAt ?? null;
 
-  const dueText = !onSite ? (
-    <span className="muted">hauled away {day(lastOut, tz)}</span>
-  ) : due?.due === null || due === undefined ? (
-    <span className="muted">not worked out</span>
-  ) : due.due.dueDate === null ? (
-    <span className="muted">no time limit below the satellite or very-small-generator limits</span>
-  ) : (
-    <span>
-      {due.due.dueDate} {due.overdue ? <span className="status status-overdue">overdue</span> : <span className="muted">({due.daysLeft} days left)</span>}{" "}
-      <span className="muted">
-        {due.due.limitDays} days, {plainSource(due.due.source)}
-      </span>{" "}
-      <ConfidenceMark level={confidenceOf(due.due.status)} anchor="waste-accumulation-time" />
-    </span>
-  );
-
   return (
     <>
       <RecordHeader
@@ -105,7 +90,7 @@ export default async function WasteContainerPage({ params }: Props) {
           ["Location", c.location || <span className="muted">not recorded</span>],
           ["Accumulation start", when(c.accumulationStart, tz)],
           ["Days on site", onSite ? String(daysBetween(c.accumulationStart, now)) : "—"],
-          ["Must go by", dueText],
+          ["Must go by", <DueText due={due} onSite={onSite} hauledAt={lastOut} timeZone={tz} />],
           ["Contents (book stock)", kg(c.stockG, 1)],
           ["Capacity", litres(c.capacityMl, 0)],
           ["Satellite area", c.satellite ? "Yes" : "No"],
@@ -117,60 +102,9 @@ export default async function WasteContainerPage({ params }: Props) {
 
       <Cautions title={`Handling ${labelOf(c.stream).toLowerCase()}`} items={STREAM_CAUTIONS[stream] ?? STREAM_CAUTIONS.OTHER} />
 
-      <section aria-labelledby="hazard">
-        <h2 id="hazard">Hazard assessment: {labelOf(hazard.overall)}</h2>
-        <div className="table-wrap">
-          <table>
-            <caption className="visually-hidden">Hazard characteristics</caption>
-            <thead>
-              <tr>
-                <th scope="col">Characteristic</th>
-                <th scope="col">Applies</th>
-                <th scope="col">Why</th>
-                <th scope="col">Rule</th>
-              </tr>
-            </thead>
-            <tbody>
-              <FlagRow f={hazard.ignitable} what="Ignitable" />
-              <FlagRow f={hazard.corrosive} what="Corrosive" />
-            </tbody>
-          </table>
-        </div>
-        <Note>A container without the measurements is handled as hazardous until it is characterised. Local and state rules may be stricter and govern.</Note>
-      </section>
+      <HazardSection hazard={hazard} />
 
-      <section aria-labelledby="characterisation">
-        <h2 id="characterisation">Characterisation</h2>
-        <dl className="facts">
-          <div>
-            <dt>Tested</dt>
-            <dd>{c.characterisedAt ? when(c.characterisedAt, tz) : <span className="muted">not yet</span>}</dd>
-          </div>
-          <div>
-            <dt>Methanol</dt>
-            <dd>{c.methanolPct === null ? "—" : `${pct(c.methanolPct, 1)} v/v`}</dd>
-          </div>
-          <div>
-            <dt>pH</dt>
-            <dd>{num(c.pH, 1)}</dd>
-          </div>
-          <div>
-            <dt>Flash point, closed cup</dt>
-            <dd>{c.flashPointC === null ? "—" : `${num(c.flashPointC, 0)} °C`}</dd>
-          </div>
-          <div>
-            <dt>Water</dt>
-            <dd>{c.waterPct === null ? "—" : `${pct(c.waterPct, 1)} by weight`}</dd>
-          </div>
-        </dl>
-        {onSite && canRecord ? (
-          <details className="record-form">
-            <summary>Record a new characterisation</summary>
-            <p className="muted">The new results replace the ones above; a value left empty was not measured.</p>
-            <CharacterisationForm containerCode={c.code} nowLocal={nowLocal} />
-          </details>
-        ) : null}
-      </section>
+      <CharacterisationSection c={c} timeZone={tz} nowLocal={nowLocal} canRecord={onSite && canRecord} />
 
       {c.status === "OPEN" && canRecord ? (
         <section aria-labelledby="full">
@@ -190,42 +124,135 @@ export default async function WasteContainerPage({ params }: Props) {
         </section>
       ) : null}
 
-      <section aria-labelledby="hauls">
-        <h2 id="hauls">Hauls</h2>
-        <DataTable<DisposalOfContainer>
-          caption="Hauled from this container"
-          hideCaption
-          rows={c.disposals}
-          rowKey={(d) => d.documentNo}
-          empty="Nothing hauled from this container yet."
-          columns={[
-            { key: "doc", header: "Manifest or document", cell: (d) => d.documentNo },
-            { key: "at", header: "Collected", cell: (d) => when(d.disposedAt, tz) },
-            { key: "hauler", header: "Hauler", cell: (d) => d.hauler },
-            { key: "dest", header: "Destination facility", cell: (d) => d.destination || <span className="muted">not recorded</span> },
-            { key: "mass", header: "Quantity", unit: "kg", numeric: true, cell: (d) => num(d.massG / 1000, 3) },
-          ]}
-        />
-      </section>
+      <HaulsTable rows={c.disposals} timeZone={tz} />
 
-      <section aria-labelledby="movements">
-        <h2 id="movements">Movements in and out</h2>
-        <DataTable<ContainerMovement>
-          caption="Movements in and out"
-          hideCaption
-          rows={c.movements}
-          rowKey={(m) => m.id}
-          empty="Nothing has gone into this container yet."
-          columns={[
-            { key: "no", header: "No.", cell: (m) => m.id },
-            { key: "at", header: "When", cell: (m) => when(m.at, tz) },
-            { key: "dir", header: "In or out", cell: (m) => (m.direction === "IN" ? "In" : "Out") },
-            { key: "role", header: "What", cell: (m) => labelOf(m.role) },
-            { key: "other", header: "From or to", cell: (m) => <HolderLink holder={m.otherKind === null || m.otherCode === null ? null : { kind: m.otherKind as HolderKind, code: m.otherCode }} /> },
-            { key: "mass", header: "Mass", unit: "kg", numeric: true, cell: (m) => `${m.direction === "OUT" ? "−" : "+"}${num(m.massG / 1000, 3)}` },
-          ]}
-        />
-      </section>
+      <MovementsTable rows={c.movements} timeZone={tz} />
     </>
+  );
+}
+
+function HazardSection({ hazard }: { hazard: HazardAssessment }) {
+  return (
+    <section aria-labelledby="hazard">
+      <h2 id="hazard">Hazard assessment: {labelOf(hazard.overall)}</h2>
+      <div className="table-wrap">
+        <table>
+          <caption className="visually-hidden">Hazard characteristics</caption>
+          <thead>
+            <tr>
+              <th scope="col">Characteristic</th>
+              <th scope="col">Applies</th>
+              <th scope="col">Why</th>
+              <th scope="col">Rule</th>
+            </tr>
+          </thead>
+          <tbody>
+            <FlagRow f={hazard.ignitable} what="Ignitable" />
+            <FlagRow f={hazard.corrosive} what="Corrosive" />
+          </tbody>
+        </table>
+      </div>
+      <Note>A container without the measurements is handled as hazardous until it is characterised. Local and state rules may be stricter and govern.</Note>
+    </section>
+  );
+}
+
+function CharacterisationSection({ c, timeZone, nowLocal, canRecord }: { c: WasteContainerDetail; timeZone: string; nowLocal: string; canRecord: boolean }) {
+  return (
+    <section aria-labelledby="characterisation">
+      <h2 id="characterisation">Characterisation</h2>
+      <dl className="facts">
+        <div>
+          <dt>Tested</dt>
+          <dd>{c.characterisedAt ? when(c.characterisedAt, timeZone) : <span className="muted">not yet</span>}</dd>
+        </div>
+        <div>
+          <dt>Methanol</dt>
+          <dd>{c.methanolPct === null ? "—" : `${pct(c.methanolPct, 1)} v/v`}</dd>
+        </div>
+        <div>
+          <dt>pH</dt>
+          <dd>{num(c.pH, 1)}</dd>
+        </div>
+        <div>
+          <dt>Flash point, closed cup</dt>
+          <dd>{c.flashPointC === null ? "—" : `${num(c.flashPointC, 0)} °C`}</dd>
+        </div>
+        <div>
+          <dt>Water</dt>
+          <dd>{c.waterPct === null ? "—" : `${pct(c.waterPct, 1)} by weight`}</dd>
+        </div>
+      </dl>
+      {canRecord ? (
+        <details className="record-form">
+          <summary>Record a new characterisation</summary>
+          <p className="muted">The new results replace the ones above; a value left empty was not measured.</p>
+          <CharacterisationForm containerCode={c.code} nowLocal={nowLocal} />
+        </details>
+      ) : null}
+    </section>
+  );
+}
+
+function HaulsTable({ rows, timeZone }: { rows: DisposalOfContainer[]; timeZone: string }) {
+  return (
+    <section aria-labelledby="hauls">
+      <h2 id="hauls">Hauls</h2>
+      <DataTable<DisposalOfContainer>
+        caption="Hauled from this container"
+        hideCaption
+        rows={rows}
+        rowKey={(d) => d.documentNo}
+        empty="Nothing hauled from this container yet."
+        columns={[
+          { key: "doc", header: "Manifest or document", cell: (d) => d.documentNo },
+          { key: "at", header: "Collected", cell: (d) => when(d.disposedAt, timeZone) },
+          { key: "hauler", header: "Hauler", cell: (d) => d.hauler },
+          { key: "dest", header: "Destination facility", cell: (d) => d.destination || <span className="muted">not recorded</span> },
+          { key: "mass", header: "Quantity", unit: "kg", numeric: true, cell: (d) => num(d.massG / 1000, 3) },
+        ]}
+      />
+    </section>
+  );
+}
+
+function MovementsTable({ rows, timeZone }: { rows: ContainerMovement[]; timeZone: string }) {
+  return (
+    <section aria-labelledby="movements">
+      <h2 id="movements">Movements in and out</h2>
+      <DataTable<ContainerMovement>
+        caption="Movements in and out"
+        hideCaption
+        rows={rows}
+        rowKey={(m) => m.id}
+        empty="Nothing has gone into this container yet."
+        columns={[
+          { key: "no", header: "No.", cell: (m) => m.id },
+          { key: "at", header: "When", cell: (m) => when(m.at, timeZone) },
+          { key: "dir", header: "In or out", cell: (m) => (m.direction === "IN" ? "In" : "Out") },
+          { key: "role", header: "What", cell: (m) => labelOf(m.role) },
+          { key: "other", header: "From or to", cell: (m) => <HolderLink holder={m.otherKind === null || m.otherCode === null ? null : { kind: m.otherKind as HolderKind, code: m.otherCode }} /> },
+          { key: "mass", header: "Mass", unit: "kg", numeric: true, cell: (m) => `${m.direction === "OUT" ? "−" : "+"}${num(m.massG / 1000, 3)}` },
+        ]}
+      />
+    </section>
+  );
+}
+
+function DueText({ due, onSite, hauledAt, timeZone }: { due: ContainerDueRow | undefined; onSite: boolean; hauledAt: Date | null; timeZone: string }) {
+  return !onSite ? (
+    <span className="muted">hauled away {day(hauledAt, timeZone)}</span>
+  ) : due?.due === null || due === undefined ? (
+    <span className="muted">not worked out</span>
+  ) : due.due.dueDate === null ? (
+    <span className="muted">no time limit below the satellite or very-small-generator limits</span>
+  ) : (
+    <span>
+      {due.due.dueDate} {due.overdue ? <span className="status status-overdue">overdue</span> : <span className="muted">({due.daysLeft} days left)</span>}{" "}
+      <span className="muted">
+        {due.due.limitDays} days, {plainSource(due.due.source)}
+      </span>{" "}
+      <ConfidenceMark level={confidenceOf(due.due.status)} anchor="waste-accumulation-time" />
+    </span>
   );
 }
