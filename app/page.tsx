@@ -228,7 +228,7 @@ export default async function TodayPage() {
                       return (
                         <tr key={w.code}>
                           <td>
-                            <Link href={`/waste#${encodeURIComponent(w.code)}`}>{w.code}</Link>
+                            <Link href={`/waste/${encodeURIComponent(w.code)}`}>{w.code}</Link>
                           </td>
                           <td>{labelOf(w.stream)}</td>
                           <td className="nowrap">{day(w.accumulationStart, tz)}</td>

@@ -27,6 +27,10 @@ const MATRIX: Record<string, Role[] | "public"> = {
   "/api/periods/reopen": ["COMPLIANCE"],
   "/api/grid/save": ["COLLECTOR", "PRODUCTION"],
   "/api/grid/import": ["PRODUCTION"],
+  "/api/waste/containers": ["PRODUCTION", "COMPLIANCE"],
+  "/api/waste/characterisation": ["PRODUCTION", "COMPLIANCE"],
+  "/api/waste/full": ["PRODUCTION", "COMPLIANCE"],
+  "/api/waste/disposals": ["COMPLIANCE"],
 };
 const COMPUTE_PREFIX = "/api/compute/"; // pure computations: any signed-in user
 
@@ -98,6 +102,10 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   voidLabResultAction: ["PRODUCTION"],
   setOwnUnitsAction: ANY,
   changeOwnPasswordAction: ANY,
+  openContainerAction: ["PRODUCTION", "COMPLIANCE"],
+  recordCharacterisationAction: ["PRODUCTION", "COMPLIANCE"],
+  markFullAction: ["PRODUCTION", "COMPLIANCE"],
+  recordHaulAction: ["COMPLIANCE"],
 };
 
 interface ActionEntry { id: string; name: string; page: string }

@@ -38,4 +38,6 @@ export const CRUSHERS = ["Thistlemere Oilseed Mill", "Juniperbrook Crushing"];
 export const OTHER_SUPPLIERS = ["Quillmoor Civic Depot"];
 export const CUSTOMERS = ["Harrowmere Haulage Co-op", "Quillmoor Bus Depot", "Tolvane Farm Fuels", "Saltmarsh Ferry Company"];
 export const HAULERS = ["Brannick Liquid Waste", "Fernwhistle Environmental"];
+/** Receiving facilities of the demo's hauls, by stream (fictional). */
+export const DISPOSAL_FACILITIES = { GLYCEROL_PHASE: "Orrinford Glycerin Recovery", WASH_WATER: "Teasel Marsh Water Treatment" } as const;
 export const REAGENT_SUPPLIERS = { METHANOL: "Kilnyard Chemicals", KOH: "Kilnyard Chemicals", H2SO4: "Copperleaf Process Supplies", WATER: "Quillmoor Water (meter)" } as const;

@@ -14,7 +14,7 @@ import type { MaterialKind } from "@/lib/ledger/kinds";
 import { measureObserved } from "@/lib/feedstock/measure";
 import { DEFAULT_DENSITY_TABLE, densityAt, requireDensityEntry } from "@/lib/quantity/density";
 import type { PEOPLE} from "@/seeds/names";
-import { CRUSHERS, CUSTOMERS, HAULERS, OTHER_SUPPLIERS, PROCESSORS, REAGENT_SUPPLIERS, RENDERERS, restaurantName, streetAddress } from "@/seeds/names";
+import { CRUSHERS, CUSTOMERS, DISPOSAL_FACILITIES, HAULERS, OTHER_SUPPLIERS, PROCESSORS, REAGENT_SUPPLIERS, RENDERERS, restaurantName, streetAddress } from "@/seeds/names";
 
 export type Login = (typeof PEOPLE)[number]["login"];
 
@@ -168,7 +168,7 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
     ops.push({
       kind: "wasteContainer", at: t(day, 6, 30), actor: "compliance.nell",
       input: {
-        code, stream, accumulationStart: t(day, 6, 30), capacityL, satellite: false,
+        code, stream, location: glycerol ? "Glycerol pad" : "Wash-water bay", accumulationStart: t(day, 6, 30), capacityL, satellite: false,
         // Typical characterisation ranges of crude glycerol and wash water (common practice, demo values).
         ...(glycerol ? { methanolPct: r1(between(8, 16)), pH: r1(between(9, 11.5)), flashPointC: r1(between(28, 48)), waterPct: r1(between(3, 9)) } : { methanolPct: r1(between(0.8, 3)), pH: r1(between(8, 10.5)), waterPct: r1(between(90, 96)) }),
       },
@@ -181,7 +181,7 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
   const haul = (box: SimWaste, day: number) => {
     disposalSeq++;
     // The hauler comes at the end of the day, after that day's batch outputs.
-    ops.push({ kind: "disposal", at: t(day, 18), actor: "compliance.nell", input: { documentNo: `MAN-${String(disposalSeq).padStart(4, "0")}`, hauler: pick(HAULERS), disposedAt: t(day, 18), containerCode: box.code, massKg: box.stockG / 1000 } });
+    ops.push({ kind: "disposal", at: t(day, 18), actor: "compliance.nell", input: { documentNo: `MAN-${String(disposalSeq).padStart(4, "0")}`, hauler: pick(HAULERS), disposedAt: t(day, 18), containerCode: box.code, massKg: box.stockG / 1000, destination: DISPOSAL_FACILITIES[box.stream] } });
     box.stockG = 0;
   };
   const glycerolHaulDays = [days - 180 + 40, days - 180 + 82, days - 84].filter((d) => d > 0 && d < days);

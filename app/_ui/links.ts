@@ -17,6 +17,7 @@ export function hrefOf(kind: HolderKind, code: string): string | null {
     case "SHIPMENT":
       return `/shipments/${c}`;
     case "WASTE_CONTAINER":
+      return `/waste/${c}`;
     case "DISPOSAL":
       return `/waste#${c}`;
     default:

@@ -1,34 +1,21 @@
 import type { Metadata } from "next";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf, WASTE_STREAMS } from "@/lib/ledger/kinds";
 import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
 import { getWasteDueBoard, listDisposals, listWasteContainers } from "@/lib/waste/container.store";
-import { day, daysBetween, kg, litres, num, pct, when } from "@/app/_ui/format";
+import { day, daysBetween, kg, litres, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
-import { Empty, HistoryLink, NoSite, Note, Status } from "@/app/_ui/ui";
+import { CodeLink, Empty, HistoryLink, NoSite, Note, Status } from "@/app/_ui/ui";
+import { Cautions } from "@/app/_ui/kit";
+import { OpenContainerForm } from "@/app/waste/container-forms";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Waste" };
 
-const HAZARD: Readonly<Record<string, string>> = {
-  HAZARDOUS: "Hazardous",
-  NEEDS_CHARACTERISATION: "Needs characterisation",
-  NON_HAZARDOUS: "Not hazardous",
-};
-
-function characterisation(c: { methanolPct: number | null; pH: number | null; flashPointC: number | null; waterPct: number | null }): string {
-  const parts = [
-    c.methanolPct === null ? null : `methanol ${pct(c.methanolPct, 1)}`,
-    c.pH === null ? null : `pH ${num(c.pH, 1)}`,
-    c.flashPointC === null ? null : `flash point ${num(c.flashPointC, 0)} °C`,
-    c.waterPct === null ? null : `water ${pct(c.waterPct, 1)}`,
-  ].filter((p): p is string => p !== null);
-  return parts.length === 0 ? "not measured" : parts.join(", ");
-}
-
 export default async function WastePage() {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
-  const now = new Date();
+  const now = user.now;
+  const canOpen = user.role === "PRODUCTION" || user.role === "COMPLIANCE";
   const [containers, disposals, due] = await Promise.all([
     listWasteContainers(db, site.id),
     listDisposals(db, site.id),
@@ -54,6 +41,7 @@ export default async function WastePage() {
                 <tr>
                   <th scope="col">Container</th>
                   <th scope="col">Stream</th>
+                  <th scope="col">Location</th>
                   <th scope="col">Status</th>
                   <th scope="col">Started</th>
                   <th scope="col" className="num">
@@ -67,7 +55,6 @@ export default async function WastePage() {
                   <th scope="col" className="num">
                     Capacity
                   </th>
-                  <th scope="col">Characterisation</th>
                   <th scope="col">History</th>
                 </tr>
               </thead>
@@ -78,10 +65,11 @@ export default async function WastePage() {
                   return (
                     <tr key={c.code} id={c.code}>
                       <td className="nowrap">
-                        {c.code}
+                        <CodeLink href={`/waste/${encodeURIComponent(c.code)}`} code={c.code} />
                         {c.satellite ? <span className="tag">satellite</span> : null}
                       </td>
                       <td>{labelOf(c.stream)}</td>
+                      <td>{c.location || <span className="muted">—</span>}</td>
                       <td>
                         <Status code={c.status} />
                       </td>
@@ -93,19 +81,18 @@ export default async function WastePage() {
                         ) : d === undefined ? (
                           <span className="muted">not assessed</span>
                         ) : d.dueDate === null ? (
-                          <span className="muted" title={d.status}>
+                          <span className="muted">
                             no time limit
                           </span>
                         ) : (
-                          <span title={`${d.source}: ${d.status}`}>
+                          <span>
                             {d.dueDate} {d.overdue ? <span className="status status-overdue">overdue</span> : <span className="muted">({d.daysLeft} d)</span>}
                           </span>
                         )}
                       </td>
-                      <td>{d ? (HAZARD[d.hazard] ?? d.hazard) : <span className="muted">—</span>}</td>
+                      <td>{d ? labelOf(d.hazard) : <span className="muted">—</span>}</td>
                       <td className="num">{kg(c.stockG)}</td>
                       <td className="num">{litres(c.capacityMl, 0)}</td>
-                      <td>{characterisation(c)}</td>
                       <td>
                         <HistoryLink kind="waste" recordKey={c.code} label="waste container" />
                       </td>
@@ -135,6 +122,21 @@ export default async function WastePage() {
         </>
       )}
 
+      {canOpen ? (
+        <section aria-labelledby="open-container">
+          <h2 id="open-container">Open a container</h2>
+          <Cautions
+            title="Before placing a waste container"
+            items={[
+              "Glycerol phase and methanol-rich liquid are flammable: place their containers away from ignition sources and fill them with bonded and grounded transfer.",
+              "Oily or methanol-wet spent filter media can heat itself: use a closed metal bin, away from buildings.",
+              "Label the container with its contents and the accumulation start as your site's procedure requires.",
+            ]}
+          />
+          <OpenContainerForm streams={WASTE_STREAMS.map((s) => [s, labelOf(s)] as const)} nowLocal={when(now, tz).replace(" ", "T")} />
+        </section>
+      ) : null}
+
       <h2>Disposals</h2>
       {disposals.length === 0 ? (
         <Empty>No waste has been hauled away yet.</Empty>
@@ -146,6 +148,7 @@ export default async function WastePage() {
                 <th scope="col">Manifest or document</th>
                 <th scope="col">Collected</th>
                 <th scope="col">Hauler</th>
+                <th scope="col">Destination facility</th>
                 <th scope="col">From containers</th>
                 <th scope="col" className="num">
                   Mass
@@ -159,11 +162,12 @@ export default async function WastePage() {
                   <td className="nowrap">{d.documentNo}</td>
                   <td className="nowrap">{when(d.disposedAt, tz)}</td>
                   <td>{d.hauler}</td>
+                  <td>{d.destination || <span className="muted">not recorded</span>}</td>
                   <td>
                     {d.containerCodes.map((c, i) => (
                       <span key={c}>
                         {i > 0 ? ", " : ""}
-                        <a href={`#${encodeURIComponent(c)}`}>{c}</a>
+                        <a href={`/waste/${encodeURIComponent(c)}`}>{c}</a>
                       </span>
                     ))}
                   </td>

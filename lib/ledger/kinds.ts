@@ -76,6 +76,7 @@ export const LABELS: Record<string, string> = {
   SHIPMENT: "Shipment", WASTE_CONTAINER: "Waste container", DISPOSAL: "Disposal", REAGENT_LOT: "Reagent lot", LOSS: "Recorded loss",
   RECEIPT: "Received", TRANSFER: "Transfer", OIL: "Oil charged", CATALYST: "Catalyst", ACID: "Acid",
   ESTER: "Ester out", RECOVERED_METHANOL: "Methanol recovered",
+  HAZARDOUS: "Hazardous", NEEDS_CHARACTERISATION: "Needs characterisation", NON_HAZARDOUS: "Not hazardous",
 };
 
 export function labelOf(code: string): string {

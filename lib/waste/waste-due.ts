@@ -106,13 +106,13 @@ export const RULESET_US_FEDERAL_RCRA: WasteRuleSet = {
     value: 2,
     unit: "pH",
     source: "40 CFR 261.22(a)(1) (aqueous; EPA Method 9040C)",
-    status: "from memory, unverified (Tracevat domain facts §g.1); the facts' verification addendum reports the text seen — confirm in the eCFR",
+    status: "from memory, unverified — confirm the current text in the eCFR",
   },
   corrosivePhAtLeast: {
     value: 12.5,
     unit: "pH",
     source: "40 CFR 261.22(a)(1) (aqueous; EPA Method 9040C)",
-    status: "from memory, unverified (Tracevat domain facts §g.1); the facts' verification addendum reports the text seen — confirm in the eCFR",
+    status: "from memory, unverified — confirm the current text in the eCFR",
   },
   nonHazardousMaxStorageDays: {
     value: 90,

@@ -152,7 +152,7 @@ describe.each(PROVIDERS)("movement ledger on %s", (provider) => {
     value(await transferToTank(t.db, plant.production, { fromKind: "PRODUCT_LOT", fromCode: "P-1", toTankCode: "P1", at: "2026-02-13T11:00:00Z", massKg: 780 }));
     value(await shipProduct(t.db, plant.production, { documentNo: "BOL-1", customer: "C", shippedAt: "2026-02-14T10:00:00Z", fromKind: "TANK", fromCode: "P1", massKg: 500, volumeL: 568 }));
     expect(await stock("TANK", "P1")).toBe(280_000);
-    value(await recordDisposal(t.db, plant.compliance, { documentNo: "MAN-1", hauler: "H", disposedAt: "2026-02-20T10:00:00Z", containerCode: "GLY-1", massKg: 285 }));
+    value(await recordDisposal(t.db, plant.compliance, { documentNo: "MAN-1", hauler: "H", disposedAt: "2026-02-20T10:00:00Z", containerCode: "GLY-1", massKg: 285, destination: "Test Recovery" }));
     expect((await t.db.wasteContainer.findFirstOrThrow({ where: { code: "GLY-1" } })).status).toBe("SHIPPED");
   });
 

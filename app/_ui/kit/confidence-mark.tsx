@@ -7,7 +7,7 @@ import Link from "next/link";
 export function ConfidenceMark({ level, anchor }: { level: "published" | "check"; anchor: string }) {
   const text = level === "published" ? "published value" : "check before relying on it";
   return (
-    <Link href={`/sources#${encodeURIComponent(anchor)}`} className={`confidence confidence-${level}`}>
+    <Link href={`/references#${encodeURIComponent(anchor)}`} className={`confidence confidence-${level}`}>
       {text}
     </Link>
   );

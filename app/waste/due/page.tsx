@@ -8,6 +8,8 @@ import type { DomainIssue } from "@/lib/errors";
 import { day, kg, litres, num, pct } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { Empty, Facts, NoSite, Note } from "@/app/_ui/ui";
+import { Cautions, ConfidenceMark } from "@/app/_ui/kit";
+import { confidenceOf, plainSource, plainStatus } from "@/app/waste/rule-text";
 import { DEFAULT_DUE_DAYS, getWasteDueReport } from "@/app/waste/due/due-report";
 import type { ContainerDueRow, WasteDueReport } from "@/app/waste/due/due-report";
 
@@ -45,32 +47,18 @@ export default async function WasteDuePage({ searchParams }: { searchParams: Pro
         Every container on site with its hazard flags and the date it must go under the active rule set, and what falls due in the next
         days, by stream, with totals for the hauler.
       </p>
-      <Cautions />
+      <Cautions
+        title="Before moving or loading these streams"
+        items={[
+          "The glycerol phase and methanol-rich liquid carry methanol and are flammable: keep ignition sources, hot work and sparks away; bond and ground drums, totes and the tanker while transferring; ventilate; no smoking.",
+          "Wash water may carry methanol, soap and catalyst residue and is often alkaline: wear eye protection and chemical-resistant gloves; keep it out of drains unless your discharge permit allows it.",
+          "Oily or methanol-wet spent filter media can heat itself: keep it in closed metal bins away from buildings.",
+          "Hand waste only to a licensed hauler with the manifest or shipping document filled in.",
+        ]}
+      />
       <DueForm typed={typed} report={result.ok ? result.value : null} issues={result.ok ? [] : result.issues} />
       {result.ok ? <DueResult r={result.value} timeZone={tz} /> : null}
     </>
-  );
-}
-
-function Cautions() {
-  return (
-    <div className="caution" role="note" aria-label="Safety cautions">
-      <strong>Before moving or loading these streams</strong>
-      <ul>
-        <li>
-          The glycerol phase carries methanol and is flammable: keep ignition sources, hot work and sparks away; ground and bond drums,
-          totes and the tanker while transferring; ventilate; no smoking.
-        </li>
-        <li>
-          Wash water carries methanol, soap and catalyst residue and is alkaline: wear eye protection and chemical-resistant gloves; keep
-          it away from drains unless your discharge permit allows it.
-        </li>
-        <li>
-          Follow each material&apos;s safety data sheet, your site&apos;s procedures and local codes; hand waste only to a licensed hauler
-          with the manifest or shipping document filled in.
-        </li>
-      </ul>
-    </div>
   );
 }
 
@@ -109,11 +97,19 @@ function DueForm({ typed, report, issues }: { typed: Record<string, string>; rep
   );
 }
 
+function HaulLink({ code }: { code: string }) {
+  return (
+    <Link href={`/waste/${encodeURIComponent(code)}#haul-away`} aria-label={`Record haul-away of ${code}`}>
+      Record haul-away
+    </Link>
+  );
+}
+
 function Flag({ f }: { f: HazardFlag }) {
   const cls = f.status === "YES" ? "status-fail" : f.status === "UNKNOWN" ? "status-warn" : "status-pass";
   const word = f.status === "YES" ? `${f.code} yes` : f.status === "UNKNOWN" ? `${f.code} unknown` : `${f.code} no`;
   return (
-    <span className={`status ${cls}`} title={`${f.reason} (${f.source})${f.missing.length ? `; missing: ${f.missing.join(", ")}` : ""}`}>
+    <span className={`status ${cls}`} title={`${f.reason} (${plainSource(f.source)})`}>
       {word}
     </span>
   );
@@ -181,25 +177,29 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                   <th scope="col" className="num">
                     US gal (est.)
                   </th>
+                  <th scope="col">Haul-away</th>
                 </tr>
               </thead>
               <tbody>
                 {g.items.map((d) => (
                   <tr key={d.code}>
                     <td>
-                      <a href={`/waste#${encodeURIComponent(d.code)}`}>{d.code}</a>
+                      <Link href={`/waste/${encodeURIComponent(d.code)}`}>{d.code}</Link>
                     </td>
                     <td className="nowrap">
                       {d.dueDate} {d.overdue ? <span className="status status-overdue">overdue</span> : null}
                     </td>
                     <td className="num">{d.daysLeft}</td>
-                    <td title={d.status}>
+                    <td>
                       {d.limitDays === null ? "" : `${d.limitDays} days, `}
-                      {d.source}
+                      {plainSource(d.source)}
                     </td>
                     <td className="num">{kg(d.massG, 1)}</td>
                     <td className="num">{litres(d.volumeMl, 1)}</td>
                     <td className="num">{num(convertVolume(d.volumeMl, "mL", "gal"), 1)}</td>
+                    <td>
+                      <HaulLink code={d.code} />
+                    </td>
                   </tr>
                 ))}
               </tbody>
@@ -209,6 +209,7 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                   <td className="num">{num(g.totals.kg, 1)} kg</td>
                   <td className="num">{num(g.totals.litres, 1)} L</td>
                   <td className="num">{num(g.totals.usGallons, 1)}</td>
+                  <td />
                 </tr>
               </tfoot>
             </table>
@@ -236,13 +237,14 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                 <th scope="col">Corrosive</th>
                 <th scope="col">Assessment</th>
                 <th scope="col">Must go by</th>
+                <th scope="col">Haul-away</th>
               </tr>
             </thead>
             <tbody>
               {r.containers.map((c) => (
                 <tr key={c.code}>
                   <td className="nowrap">
-                    {c.code}
+                    <Link href={`/waste/${encodeURIComponent(c.code)}`}>{c.code}</Link>
                     {c.satellite ? <span className="tag">satellite</span> : null}
                   </td>
                   <td>{labelOf(c.stream)}</td>
@@ -264,14 +266,17 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                     {c.due === null ? (
                       <span className="muted">not assessed</span>
                     ) : c.due.dueDate === null ? (
-                      <span className="muted" title={c.due.status}>
+                      <span className="muted">
                         no time limit
                       </span>
                     ) : (
-                      <span title={`${c.due.source}: ${c.due.status}`}>
+                      <span title={plainSource(c.due.source)}>
                         {c.due.dueDate} {c.overdue ? <span className="status status-overdue">overdue</span> : <span className="muted">({c.daysLeft} d)</span>}
                       </span>
                     )}
+                  </td>
+                  <td>
+                    <HaulLink code={c.code} />
                   </td>
                 </tr>
               ))}
@@ -282,7 +287,7 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
       <Note>
         Ignitable (D001): a liquid with a closed-cup flash point below {rs.ignitableFlashPointBelowC.value} °C, unless aqueous with less than{" "}
         {rs.ignitableAqueousAlcoholBelowPctVol.value} % alcohol ({rs.ignitableFlashPointBelowC.source}). Corrosive (D002): aqueous with pH ≤{" "}
-        {rs.corrosivePhAtMost.value} or ≥ {rs.corrosivePhAtLeast.value} ({rs.corrosivePhAtLeast.source}; {rs.corrosivePhAtLeast.status}). A
+        {rs.corrosivePhAtMost.value} or ≥ {rs.corrosivePhAtLeast.value} ({rs.corrosivePhAtLeast.source}). A
         container without the measurements is handled as hazardous until characterised.
       </Note>
 
@@ -318,8 +323,10 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                 <td className="num nowrap">
                   {v.value} {v.unit}
                 </td>
-                <td>{v.source}</td>
-                <td>{v.status}</td>
+                <td>{plainSource(v.source)}</td>
+                <td>
+                  <ConfidenceMark level={confidenceOf(v.status)} anchor={`waste-${label}`} /> {plainStatus(v.status)}
+                </td>
               </tr>
             ))}
           </tbody>
