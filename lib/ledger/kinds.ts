@@ -76,6 +76,8 @@ export const LABELS: Record<string, string> = {
   SHIPMENT: "Shipment", WASTE_CONTAINER: "Waste container", DISPOSAL: "Disposal", REAGENT_LOT: "Reagent lot", LOSS: "Recorded loss",
   RECEIPT: "Received", TRANSFER: "Transfer", OIL: "Oil charged", CATALYST: "Catalyst", ACID: "Acid",
   ESTER: "Ester out", RECOVERED_METHANOL: "Methanol recovered",
+  // Tank gauges: how the volume was found.
+  VOLUME: "Volume read directly", LEVEL: "Level through the calibration table",
 };
 
 export function labelOf(code: string): string {

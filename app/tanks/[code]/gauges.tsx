@@ -18,7 +18,7 @@ export function gaugeColumns(timeZone: string): Column<GaugeView>[] {
   const diff = (g: GaugeView) => (g.bookStockG === null ? null : gaugeVsBook(g.massG, g.bookStockG));
   return [
     { key: "at", header: "Gauged", cell: (g) => <span className="nowrap">{when(g.at, timeZone)}</span> },
-    { key: "read", header: "Read as", cell: (g) => (g.method === "LEVEL" && g.levelMm !== null ? `Level ${g.levelMm.toLocaleString("en")} mm` : "Volume") },
+    { key: "read", header: "Read as", cell: (g) => (g.method === "LEVEL" && g.levelMm !== null ? `Level ${g.levelMm.toLocaleString("en")} mm` : labelOf(g.method)) },
     { key: "vol", header: "Volume", numeric: true, cell: (g) => litres(g.volumeMl) },
     { key: "temp", header: "Temperature", numeric: true, cell: (g) => `${num(g.tempC, 1)} °C` },
     { key: "rho", header: "Density at 15 °C", numeric: true, cell: (g) => (g.densityKgM3 === null ? <span className="muted">table</span> : `${num(g.densityKgM3, 1)} kg/m³`) },
