@@ -19,8 +19,17 @@ const GAUGE_SHOWN = ["method", "volumeL", "levelMm", "tempC", "densityKgM3", "at
 
 const kgText = (g: number) => `${gramsToKg(g).toLocaleString("en", { maximumFractionDigits: 1 })} kg`;
 
-async function siteZone(siteId: number): Promise<string> {
-  return (await getSiteById(await getDb(), siteId))?.timeZone ?? "UTC";
+/**
+ * The form's site-time minute as an instant. Empty, left as the page showed it, or the current minute
+ * means now: the field shows whole minutes, and "now" must not fall before a receipt seconds earlier.
+ */
+async function timeOf(form: FormData, siteId: number, now: Date): Promise<string | Date> {
+  const local = readText(form, "at");
+  if (local === "" || local === readText(form, "shownAt")) return now;
+  const instant = toSiteInstant(local, (await getSiteById(await getDb(), siteId))?.timeZone ?? "UTC");
+  if (instant === undefined) return now;
+  const t = Date.parse(instant);
+  return Number.isFinite(t) && Math.floor(t / 60_000) === Math.floor(now.getTime() / 60_000) ? now : instant;
 }
 
 /** Material from a lot or a tank into a tank: a mass, a volume read at a temperature, or all of it. */
@@ -32,7 +41,7 @@ export async function moveToTankAction(prev: FormState, form: FormData): Promise
     fromKind: values.fromKind,
     fromCode: values.fromCode,
     toTankCode: values.toTankCode ?? "",
-    at: toSiteInstant(values.at ?? "", await siteZone(who.value.siteId)) ?? who.value.now,
+    at: await timeOf(form, who.value.siteId, who.value.now),
     note: readText(form, "note"),
     all: values.all === "yes",
     massKg: readNumber(form, "massKg"),
@@ -59,7 +68,7 @@ export async function recordGaugeAction(prev: FormState, form: FormData): Promis
   const input = {
     tankCode: values.tankCode,
     method,
-    at: toSiteInstant(values.at ?? "", await siteZone(who.value.siteId)) ?? who.value.now,
+    at: await timeOf(form, who.value.siteId, who.value.now),
     tempC: readNumber(form, "tempC"),
     note: readText(form, "note"),
     ...(method === "LEVEL" ? { levelMm: readNumber(form, "levelMm") } : { volumeL: readNumber(form, "volumeL") }),

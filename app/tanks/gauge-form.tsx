@@ -35,7 +35,7 @@ function LevelPreview({ table }: { table: StrappingTable }) {
 /** A gauge reading: the volume read directly, or the level through the tank's calibration table. */
 export function GaugeForm({ tankCode, nowLocal, table, densityHint }: { tankCode: string; nowLocal: string; table: StrappingTable | null; densityHint: ReactNode }) {
   return (
-    <ActionForm action={recordGaugeAction} submitLabel="Record reading" label="Record a gauge reading" hidden={table ? { tankCode } : { tankCode, method: "VOLUME" }}>
+    <ActionForm action={recordGaugeAction} submitLabel="Record reading" label="Record a gauge reading" hidden={table ? { tankCode, shownAt: nowLocal } : { tankCode, shownAt: nowLocal, method: "VOLUME" }}>
       <Field name="at" label="Time of the reading" type="datetime-local" defaultValue={nowLocal} hint="Site time" />
       {table ? (
         <Field

@@ -28,7 +28,7 @@ export function MoveForm({
   label: string;
 }) {
   return (
-    <ActionForm action={moveToTankAction} submitLabel="Move" label={label} hidden={{ fromKind, fromCode }}>
+    <ActionForm action={moveToTankAction} submitLabel="Move" label={label} hidden={{ fromKind, fromCode, shownAt: nowLocal }}>
       <Field name="toTankCode" label="Into tank" type="select" options={tanks.map((t) => [t.code, t.label] as const)} />
       <Field name="at" label="Time of the move" type="datetime-local" defaultValue={nowLocal} hint="Site time; now unless the move was earlier" />
       <Field name="all" label={`All of it (${heldText})`} type="checkbox" />
