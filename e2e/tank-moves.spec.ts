@@ -106,9 +106,9 @@ test("a lot goes into a tank by volume at temperature; over-fill, over-draw and 
   await form.getByLabel("Temperature of that volume (°C)").fill("40");
   await expect(form.getByText(/100 L at 40 °C × [\d.]+ kg\/m³ = [\d.,]+ kg/)).toBeVisible();
   const before = await tankStockG(page, tank.code);
-  await page.screenshot({ path: "/tmp/tank-moves-lot.png", fullPage: true });
   await form.getByRole("button", { name: "Move" }).click();
   await expect(form.getByRole("status")).toContainText(`into tank ${tank.code}`);
+  await page.screenshot({ path: "/tmp/tank-moves-lot.png", fullPage: true });
   const after = await tankStockG(page, tank.code);
   // ρ(40 °C) = lot density at 15 °C − 0.64 × 25 (slope, JAOCS 76:1415–1419 (1999), in the density table).
   const lot = readDb<{ densityKgM3: number; referenceTempC: number }>("SELECT densityKgM3, referenceTempC FROM FeedstockLot WHERE code = ?", lotCode)[0]!;
@@ -169,9 +169,9 @@ test("receiving two pickups straight into a tank accepts the lot with a reason a
   await expect(page.getByLabel("Pool into")).toHaveValue(tank.code);
   const before = await tankStockG(page, tank.code);
   await page.getByLabel("Reason for accepting now (only when pooling into a tank)").fill("tank sample titrated");
-  await page.screenshot({ path: "/tmp/tank-moves-receiving.png", fullPage: true });
   await page.getByRole("button", { name: "Receive as one lot" }).click();
   await expect(page.locator(".collect-saved")).toContainText(`accepted and moved whole into tank ${tank.code}`);
+  await page.screenshot({ path: "/tmp/tank-moves-receiving.png", fullPage: true });
   const lot = readDb<{ massG: number; status: string }>("SELECT massG, status FROM FeedstockLot WHERE code = ?", lotCode)[0]!;
   expect(await tankStockG(page, tank.code)).toBe(before + lot.massG);
   expect(lot.status).toBe("CONSUMED");

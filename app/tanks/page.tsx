@@ -50,7 +50,7 @@ export default async function TanksPage() {
                   </th>
                   <th scope="col">Gauged</th>
                   <th scope="col" className="num">
-                    Gauge − book then
+                    Gauge vs book then
                   </th>
                   <th scope="col">History</th>
                 </tr>
