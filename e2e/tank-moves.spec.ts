@@ -1,5 +1,6 @@
 import path from "node:path";
 import { randomUUID } from "node:crypto";
+import AxeBuilder from "@axe-core/playwright";
 import Database from "better-sqlite3";
 import { expect, request as playwrightRequest, test } from "@playwright/test";
 import type { APIRequestContext, Page } from "@playwright/test";
@@ -109,6 +110,7 @@ test("a lot goes into a tank by volume at temperature; over-fill, over-draw and 
   await form.getByRole("button", { name: "Move" }).click();
   await expect(form.getByRole("status")).toContainText(`into tank ${tank.code}`);
   await page.screenshot({ path: "/tmp/tank-moves-lot.png", fullPage: true });
+  expect((await new AxeBuilder({ page }).include("main").analyze()).violations.map((v) => v.id)).toEqual([]);
   const after = await tankStockG(page, tank.code);
   // ρ(40 °C) = lot density at 15 °C − 0.64 × 25 (slope, JAOCS 76:1415–1419 (1999), in the density table).
   const lot = readDb<{ densityKgM3: number; referenceTempC: number }>("SELECT densityKgM3, referenceTempC FROM FeedstockLot WHERE code = ?", lotCode)[0]!;
@@ -146,6 +148,7 @@ test("a gauge reading shows the book stock at its time beside it, and the differ
   const diffKg = Math.abs(row.massG - book) / 1000;
   await expect(first).toContainText(`${diffKg.toFixed(1)} kg`);
   await page.screenshot({ path: "/tmp/tank-moves-gauge.png", fullPage: true });
+  expect((await new AxeBuilder({ page }).include("main").analyze()).violations.map((v) => v.id)).toEqual([]);
   await page.goto("/tanks");
   await page.screenshot({ path: "/tmp/tank-moves-list.png", fullPage: true });
 });
@@ -172,6 +175,7 @@ test("receiving two pickups straight into a tank accepts the lot with a reason a
   await page.getByRole("button", { name: "Receive as one lot" }).click();
   await expect(page.locator(".collect-saved")).toContainText(`accepted and moved whole into tank ${tank.code}`);
   await page.screenshot({ path: "/tmp/tank-moves-receiving.png", fullPage: true });
+  expect((await new AxeBuilder({ page }).include("main").analyze()).violations.map((v) => v.id)).toEqual([]);
   const lot = readDb<{ massG: number; status: string }>("SELECT massG, status FROM FeedstockLot WHERE code = ?", lotCode)[0]!;
   expect(await tankStockG(page, tank.code)).toBe(before + lot.massG);
   expect(lot.status).toBe("CONSUMED");
