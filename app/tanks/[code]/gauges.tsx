@@ -18,14 +18,20 @@ export function gaugeColumns(timeZone: string): Column<GaugeView>[] {
   const diff = (g: GaugeView) => (g.bookStockG === null ? null : gaugeVsBook(g.massG, g.bookStockG));
   return [
     { key: "at", header: "Gauged", cell: (g) => <span className="nowrap">{when(g.at, timeZone)}</span> },
-    { key: "read", header: "Read as", cell: (g) => (g.method === "LEVEL" && g.levelMm !== null ? `Level ${g.levelMm.toLocaleString("en")} mm` : labelOf(g.method)) },
-    { key: "vol", header: "Volume", numeric: true, cell: (g) => litres(g.volumeMl) },
-    { key: "temp", header: "Temperature", numeric: true, cell: (g) => `${num(g.tempC, 1)} °C` },
-    { key: "rho", header: "Density at 15 °C", numeric: true, cell: (g) => (g.densityKgM3 === null ? <span className="muted">table</span> : `${num(g.densityKgM3, 1)} kg/m³`) },
+    { key: "read", header: "Reading", cell: (g) => (g.method === "LEVEL" && g.levelMm !== null ? `Level ${g.levelMm.toLocaleString("en")} mm → ${litres(g.volumeMl)}` : `${litres(g.volumeMl)} read`) },
+    { key: "temp", header: "Temperature, density at 15 °C", cell: (g) => `${num(g.tempC, 1)} °C, ${g.densityKgM3 === null ? "table density" : `${num(g.densityKgM3, 1)} kg/m³ measured`}` },
     { key: "mass", header: "Gauged mass", numeric: true, cell: (g) => kg(g.massG) },
     { key: "book", header: "Book stock then", numeric: true, cell: (g) => (g.bookStockG === null ? "—" : kg(g.bookStockG)) },
-    { key: "diff", header: "Gauge − book", numeric: true, cell: (g) => { const d = diff(g); return d ? signedKg(d.differenceG) : "—"; } },
-    { key: "pct", header: "Difference", unit: "%", numeric: true, cell: (g) => { const d = diff(g); return d?.differencePct == null ? "—" : `${d.differencePct > 0 ? "+" : ""}${num(d.differencePct, 2)}`; } },
+    {
+      key: "diff",
+      header: "Gauge − book",
+      numeric: true,
+      cell: (g) => {
+        const d = diff(g);
+        if (!d) return "—";
+        return `${signedKg(d.differenceG)}${d.differencePct === null ? "" : ` (${d.differencePct > 0 ? "+" : ""}${num(d.differencePct, 2)} %)`}`;
+      },
+    },
     { key: "who", header: "Recorded by", cell: (g) => g.recordedBy ?? <span className="muted">—</span> },
     { key: "note", header: "Note", cell: (g) => g.note },
   ];
