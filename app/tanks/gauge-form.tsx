@@ -43,8 +43,8 @@ export function GaugeForm({ tankCode, nowLocal, table, densityHint }: { tankCode
           label="Read as"
           type="select"
           options={[
-            ["LEVEL", "Level (mm) through the calibration table"],
-            ["VOLUME", "Volume (L) read directly"],
+            ["LEVEL", "Level (mm), by the table"],
+            ["VOLUME", "Volume (L), read directly"],
           ]}
         />
       ) : null}

@@ -29,7 +29,7 @@ export function gaugeColumns(timeZone: string): Column<GaugeView>[] {
       cell: (g) => {
         const d = diff(g);
         if (!d) return "—";
-        return `${signedKg(d.differenceG)}${d.differencePct === null ? "" : ` (${d.differencePct > 0 ? "+" : ""}${num(d.differencePct, 2)} %)`}`;
+        return `${signedKg(d.differenceG)}${d.differencePct === null ? "" : ` (${d.differencePct > 0 ? "+" : d.differencePct < 0 ? "−" : ""}${num(Math.abs(d.differencePct), 2)} %)`}`;
       },
     },
     { key: "who", header: "Recorded by", cell: (g) => g.recordedBy ?? <span className="muted">—</span> },
