@@ -14,8 +14,9 @@ const BY_PREFIX: Array<[RegExp, number]> = [
   [/^IDEMPOTENCY\.IN_PROGRESS$/, 409],
   [/^PERIOD\.CLOSED$/, 409],
   // Conflicts with the state of the books: over-draw, over-fill, a cycle, something already done.
-  [/^LEDGER\.(OVERDRAW|OVERDRAW_IN_TIME|CYCLE)$/, 409],
+  [/^LEDGER\.(OVERDRAW|OVERDRAW_IN_TIME|NOTHING_TO_MOVE|CYCLE)$/, 409],
   [/^TANK\.OVERFILL$/, 409],
+  [/^LOT\.NOT_ACCEPTED$/, 409],
   [/^CORRECTION\.ALREADY_(REVERSED|VOIDED)$/, 409],
   [/^(PRODUCT|LOT)\.(ALREADY_)?DECIDED$/, 409],
   [/^PICKUP\.ALREADY_RECEIVED$/, 409],

@@ -124,7 +124,10 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
     { code: "P2", name: "Finished fuel tank 2", service: "PRODUCT", capacityL: 120_000 },
     { code: "M1", name: "Recovered methanol tank", service: "METHANOL", capacityL: 20_000 },
   ] as const;
-  for (const d of tankDefs) ops.push({ kind: "tank", at: at0, actor: "admin.jory", input: { ...d, mixing: "MIXED" } });
+  // Fictional calibration tables for the two 60 m³ feedstock tanks: a coned bottom holding 900 L in its
+  // lowest 200 mm, then 9.85 L per mm up to 6,200 mm. T1 has none on file (gauged by volume).
+  const strapping60k = (): number[][] => [[0, 0], [200, 900], ...Array.from({ length: 12 }, (_, i) => [700 + i * 500, Math.round(900 + (500 + i * 500) * 9.85)])];
+  for (const d of tankDefs) ops.push({ kind: "tank", at: at0, actor: "admin.jory", input: { ...d, mixing: "MIXED", ...(d.code === "T2" || d.code === "T3" ? { strapping: strapping60k() } : {}) } });
   const tanks = new Map<string, SimTank>();
   for (const d of tankDefs) {
     const material = d.service === "PRODUCT" ? "FAME" : d.service === "METHANOL" ? "METHANOL" : "USED_COOKING_OIL";

@@ -16,7 +16,7 @@ export interface ReceivingRow {
   mass: string;
 }
 
-const START: ReceiveState = { status: "idle", message: null, values: { code: "", volume: "", temp: "", notes: "", certified: false, pickups: [] }, errors: {}, seq: 0 };
+const START: ReceiveState = { status: "idle", message: null, values: { code: "", volume: "", temp: "", notes: "", certified: false, pickups: [], tankCode: "", acceptReason: "" }, errors: {}, seq: 0 };
 
 function Err({ state, field }: { state: ReceiveState; field: string }) {
   const m = state.errors[field];
@@ -27,7 +27,12 @@ function Err({ state, field }: { state: ReceiveState; field: string }) {
   ) : null;
 }
 
-export function ReceiveForm({ rows, suggestedCode, mayReceive }: { rows: ReceivingRow[]; suggestedCode: string; mayReceive: boolean }) {
+export interface TankOption {
+  code: string;
+  label: string;
+}
+
+export function ReceiveForm({ rows, suggestedCode, mayReceive, tanks }: { rows: ReceivingRow[]; suggestedCode: string; mayReceive: boolean; tanks: readonly TankOption[] }) {
   const [state, action, pending] = useActionState(receivePickupsAction, START);
   const v = state.values;
   const days = [...new Set(rows.map((r) => r.day))];
@@ -98,7 +103,6 @@ export function ReceiveForm({ rows, suggestedCode, mayReceive }: { rows: Receivi
           </fieldset>
           <fieldset>
             <legend>The plant&apos;s measurement of the lot</legend>
-            <p className="collect-caution">Caution: received oil may be hot and hoses under pressure; follow the safety data sheet and your site&apos;s procedures when pumping and sampling.</p>
             <label className="collect-field">
               Lot number
               <input name="code" defaultValue={v.code || suggestedCode} autoCapitalize="characters" {...bad("code")} />
@@ -121,6 +125,29 @@ export function ReceiveForm({ rows, suggestedCode, mayReceive }: { rows: Receivi
               Notes
               <input name="notes" defaultValue={v.notes} maxLength={500} {...bad("notes")} />
               <Err state={state} field="notes" />
+            </label>
+          </fieldset>
+          <fieldset>
+            <legend>Where the lot goes</legend>
+            <label className="collect-field">
+              Pool into
+              <select name="tankCode" defaultValue={v.tankCode} {...bad("tankCode")}>
+                <option value="">Keep as a lot awaiting the lab (the usual way)</option>
+                {tanks.map((t) => (
+                  <option key={t.code} value={t.code}>
+                    Straight into tank {t.label}
+                  </option>
+                ))}
+              </select>
+              <Err state={state} field="tankCode" />
+            </label>
+            <p className="muted">
+              Straight into a tank, the lot is accepted now, by you, and all of it is moved into the tank in the same step. Say why it may be accepted before its own lab result (for example &quot;tank sample titrated&quot;); the reason is kept in the record&apos;s history. If the tank cannot take it, nothing is received.
+            </p>
+            <label className="collect-field">
+              Reason for accepting now (only when pooling into a tank)
+              <input name="acceptReason" defaultValue={v.acceptReason} maxLength={200} {...bad("acceptReason")} />
+              <Err state={state} field="acceptReason" />
             </label>
           </fieldset>
           <button type="submit" className="primary" disabled={pending || !mayReceive}>

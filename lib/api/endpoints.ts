@@ -6,5 +6,6 @@ import { TRACE_ENDPOINTS } from "@/lib/api/endpoints/trace";
 import { RECORD_ENDPOINTS } from "@/lib/api/endpoints/records";
 import { GRID_ENDPOINTS } from "@/lib/api/endpoints/grid";
 import { WASTE_ENDPOINTS } from "@/lib/api/endpoints/waste";
+import { TANK_ENDPOINTS } from "@/lib/api/endpoints/tanks";
 
-export const ENDPOINTS: EndpointDoc[] = [...RECORD_ENDPOINTS, ...LAB_ENDPOINTS, ...TRACE_ENDPOINTS, ...GRID_ENDPOINTS, ...WASTE_ENDPOINTS];
+export const ENDPOINTS: EndpointDoc[] = [...RECORD_ENDPOINTS, ...LAB_ENDPOINTS, ...TRACE_ENDPOINTS, ...GRID_ENDPOINTS, ...WASTE_ENDPOINTS, ...TANK_ENDPOINTS];

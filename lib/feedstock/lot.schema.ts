@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { MATERIAL_KINDS } from "@/lib/ledger/kinds";
-import { code, oneOf, tempC, text, volumeL, when } from "@/lib/ledger/fields";
+import { code, oneOf, requiredText, tempC, text, volumeL, when } from "@/lib/ledger/fields";
 
 export const MIN_DENSITY_KG_M3 = 500;
 export const MAX_DENSITY_KG_M3 = 1500;
@@ -28,6 +28,16 @@ export const LotFromPickupsSchema = z.object({
   pickupCodes: z.array(code("Pickup number")).min(1, "Pickups: choose at least one pickup"),
 });
 export type LotFromPickupsInput = z.input<typeof LotFromPickupsSchema>;
+
+/**
+ * Pickups pooled straight into a tank. Material is drawn only from an accepted lot, so the lot is
+ * accepted here explicitly, by the person receiving, with a short reason (e.g. "tank sample titrated").
+ */
+export const LotIntoTankSchema = LotFromPickupsSchema.extend({
+  tankCode: code("Tank"),
+  acceptReason: requiredText("Reason for accepting", 200),
+});
+export type LotIntoTankInput = z.input<typeof LotIntoTankSchema>;
 
 /** A lot delivered by a supplier (tanker or drums), not collected by our trucks. */
 export const DeliveryLotSchema = z.object({

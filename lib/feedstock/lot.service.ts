@@ -1,6 +1,7 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
-import type { Db } from "@/lib/database/connect";
+import type { z } from "zod";
+import type { Db, Tx } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { failMany } from "@/lib/errors";
 import { parseInput } from "@/lib/ledger/parse";
@@ -22,7 +23,7 @@ export interface LotSaved {
   receivingDifferenceG: number;
 }
 
-function measureLot(l: { material: Parameters<typeof measureObserved>[0]["material"]; observedVolumeL: number; observedTempC: number; densityKgM3?: number | undefined }, table: DensityTable): Result<Measured> {
+export function measureLot(l: { material: Parameters<typeof measureObserved>[0]["material"]; observedVolumeL: number; observedTempC: number; densityKgM3?: number | undefined }, table: DensityTable): Result<Measured> {
   const m = measureObserved({
     material: l.material,
     observedVolumeL: l.observedVolumeL,
@@ -45,33 +46,38 @@ export async function receiveLotFromPickups(db: Db, actor: Actor, input: unknown
   const l = parsed.value;
   const measured = measureLot(l, table);
   if (!measured.ok) return measured;
-  return runInTransaction(db, async (tx) => {
-    const pickups = await findPickupsByCode(tx, actor.siteId, l.pickupCodes);
-    l.pickupCodes.forEach((code, i) => {
-      const p = pickups.find((x) => x.code === code);
-      if (!p) reject("RECORD.NOT_FOUND", `Pickup ${code} does not exist`, `pickupCodes.${i}`);
-      if (p.lotId !== null) reject("PICKUP.ALREADY_RECEIVED", `Pickup ${code} is already in a lot`, `pickupCodes.${i}`);
-      if (p.observedAt > l.receivedAt) reject("LOT.BEFORE_PICKUP", `Pickup ${code} was collected after the lot's received time`, "receivedAt");
-    });
-    const holderId = await createHolder(tx, actor.siteId, "LOT", l.code);
-    const lot = await insertLot(tx, { siteId: actor.siteId, holderId, origin: "PICKUPS", input: l, measured: measured.value });
-    let booked = 0;
-    for (const p of pickups) {
-      await linkPickupToLot(tx, p.id, lot.id);
-      if (p.stockG === 0) continue;
-      booked += p.stockG;
-      await postMovement(tx, { siteId: actor.siteId, at: l.receivedAt, role: "TRANSFER", fromHolderId: p.holderId, toHolderId: holderId, massG: p.stockG, recordedById: actor.userId, note: `pickup ${p.code} received` });
-    }
-    const difference = measured.value.massG - booked;
-    if (difference < 0) {
-      const loss = await siteLossHolder(tx, actor.siteId);
-      await postMovement(tx, { siteId: actor.siteId, at: l.receivedAt, role: "LOSS", fromHolderId: holderId, toHolderId: loss, massG: -difference, recordedById: actor.userId, note: "receiving difference: plant measurement below pickup estimates" });
-    } else if (difference > 0) {
-      await postMovement(tx, { siteId: actor.siteId, at: l.receivedAt, role: "RECEIPT", fromHolderId: null, toHolderId: holderId, massG: difference, recordedById: actor.userId, note: "receiving difference: plant measurement above pickup estimates" });
-    }
-    await appendAudit(tx, actor, { action: "CREATE", entity: "FeedstockLot", entityKey: l.code, after: { ...l, massG: measured.value.massG, densityKgM3: measured.value.densityKgM3, receivingDifferenceG: difference } });
-    return { id: lot.id, code: lot.code, massG: measured.value.massG, receivingDifferenceG: difference };
+  return runInTransaction(db, (tx) => bookLotFromPickups(tx, actor, l, measured.value));
+}
+
+export type LotFromPickups = z.output<typeof LotFromPickupsSchema>;
+
+/** The pooling itself, inside the caller's transaction (receiving into a tank adds more to the same one). */
+export async function bookLotFromPickups(tx: Tx, actor: Actor, l: LotFromPickups, measured: Measured): Promise<LotSaved & { holderId: number }> {
+  const pickups = await findPickupsByCode(tx, actor.siteId, l.pickupCodes);
+  l.pickupCodes.forEach((code, i) => {
+    const p = pickups.find((x) => x.code === code);
+    if (!p) reject("RECORD.NOT_FOUND", `Pickup ${code} does not exist`, `pickupCodes.${i}`);
+    if (p.lotId !== null) reject("PICKUP.ALREADY_RECEIVED", `Pickup ${code} is already in a lot`, `pickupCodes.${i}`);
+    if (p.observedAt > l.receivedAt) reject("LOT.BEFORE_PICKUP", `Pickup ${code} was collected after the lot's received time`, "receivedAt");
   });
+  const holderId = await createHolder(tx, actor.siteId, "LOT", l.code);
+  const lot = await insertLot(tx, { siteId: actor.siteId, holderId, origin: "PICKUPS", input: l, measured });
+  let booked = 0;
+  for (const p of pickups) {
+    await linkPickupToLot(tx, p.id, lot.id);
+    if (p.stockG === 0) continue;
+    booked += p.stockG;
+    await postMovement(tx, { siteId: actor.siteId, at: l.receivedAt, role: "TRANSFER", fromHolderId: p.holderId, toHolderId: holderId, massG: p.stockG, recordedById: actor.userId, note: `pickup ${p.code} received` });
+  }
+  const difference = measured.massG - booked;
+  if (difference < 0) {
+    const loss = await siteLossHolder(tx, actor.siteId);
+    await postMovement(tx, { siteId: actor.siteId, at: l.receivedAt, role: "LOSS", fromHolderId: holderId, toHolderId: loss, massG: -difference, recordedById: actor.userId, note: "receiving difference: plant measurement below pickup estimates" });
+  } else if (difference > 0) {
+    await postMovement(tx, { siteId: actor.siteId, at: l.receivedAt, role: "RECEIPT", fromHolderId: null, toHolderId: holderId, massG: difference, recordedById: actor.userId, note: "receiving difference: plant measurement above pickup estimates" });
+  }
+  await appendAudit(tx, actor, { action: "CREATE", entity: "FeedstockLot", entityKey: l.code, after: { ...l, massG: measured.massG, densityKgM3: measured.densityKgM3, receivingDifferenceG: difference } });
+  return { id: lot.id, holderId, code: lot.code, massG: measured.massG, receivingDifferenceG: difference };
 }
 
 /** A supplier's delivery: the oil enters the books directly in the lot. */

@@ -77,6 +77,8 @@ export const LABELS: Record<string, string> = {
   RECEIPT: "Received", TRANSFER: "Transfer", OIL: "Oil charged", CATALYST: "Catalyst", ACID: "Acid",
   ESTER: "Ester out", RECOVERED_METHANOL: "Methanol recovered",
   HAZARDOUS: "Hazardous", NEEDS_CHARACTERISATION: "Needs characterisation", NON_HAZARDOUS: "Not hazardous",
+  // Tank gauges: how the volume was found.
+  VOLUME: "Volume read directly", LEVEL: "Level through the calibration table",
 };
 
 export function labelOf(code: string): string {

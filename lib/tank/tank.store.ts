@@ -1,7 +1,7 @@
 import "server-only";
 import type { Db, Tx } from "@/lib/database/connect";
 import { reject } from "@/lib/ledger/ledger.store";
-import { densityAt, DEFAULT_DENSITY_TABLE, requireDensityEntry } from "@/lib/quantity/density";
+import { densityAt, DEFAULT_DENSITY_TABLE, MATERIAL_KINDS, requireDensityEntry } from "@/lib/quantity/density";
 import type { MaterialKind as DensityMaterial } from "@/lib/quantity/density";
 
 export interface TankRow {
@@ -12,14 +12,14 @@ export interface TankRow {
   mixing: string;
   capacityMl: number;
   stockG: number;
-  lastGauge: { at: Date; massG: number; volumeMl: number } | null;
+  lastGauge: { at: Date; massG: number; volumeMl: number; bookStockG: number | null } | null;
 }
 
 export async function listTanks(db: Db, siteId: number): Promise<TankRow[]> {
   const rows = await db.tank.findMany({
     where: { siteId },
     orderBy: { code: "asc" },
-    include: { holder: { select: { stockG: true } }, gauges: { orderBy: { at: "desc" }, take: 1, select: { at: true, massG: true, volumeMl: true } } },
+    include: { holder: { select: { stockG: true } }, gauges: { orderBy: [{ at: "desc" }, { id: "desc" }], take: 1, select: { at: true, massG: true, volumeMl: true, bookStockG: true } } },
   });
   return rows.map((r) => ({
     id: r.id,
@@ -56,7 +56,7 @@ export async function requireTankRoom(tx: Tx, holderId: number, addG: number, fi
   return { capacityG, refusal };
 }
 
-export async function insertTank(tx: Tx, t: { siteId: number; holderId: number; code: string; name: string; service: string; capacityMl: number; mixing: string }): Promise<{ id: number; code: string }> {
+export async function insertTank(tx: Tx, t: { siteId: number; holderId: number; code: string; name: string; service: string; capacityMl: number; mixing: string; strappingJson: string }): Promise<{ id: number; code: string }> {
   return tx.tank.create({ data: t, select: { id: true, code: true } });
 }
 
@@ -69,6 +69,89 @@ export async function getTankByCode(tx: Tx, siteId: number, code: string): Promi
   return tx.tank.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, service: true } });
 }
 
-export async function insertGauge(tx: Tx, g: { tankId: number; at: Date; volumeMl: number; tempC: number; massG: number }): Promise<{ id: number; massG: number }> {
+export interface GaugeRow {
+  tankId: number;
+  at: Date;
+  volumeMl: number;
+  tempC: number;
+  massG: number;
+  method: string;
+  levelMm: number | null;
+  densityKgM3: number | null;
+  bookStockG: number;
+  note: string;
+  recordedById: number;
+}
+
+export async function insertGauge(tx: Tx, g: GaugeRow): Promise<{ id: number; massG: number }> {
   return tx.tankGauge.create({ data: g, select: { id: true, massG: true } });
+}
+
+/** What a gauge needs of its tank: the holder (for the book stock), the service and the calibration table. */
+export async function getTankForGauge(tx: Tx, siteId: number, code: string): Promise<{ id: number; holderId: number; service: string; strappingJson: string } | null> {
+  return tx.tank.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, holderId: true, service: true, strappingJson: true } });
+}
+
+/** Book stock of a holder at an instant from the ledger: everything moved in minus everything moved out up to and including `at`. */
+export async function bookStockAt(tx: Db | Tx, holderId: number, at: Date): Promise<number> {
+  const [into, out] = await Promise.all([
+    tx.movement.aggregate({ where: { toHolderId: holderId, at: { lte: at } }, _sum: { massG: true } }),
+    tx.movement.aggregate({ where: { fromHolderId: holderId, at: { lte: at } }, _sum: { massG: true } }),
+  ]);
+  return (into._sum.massG ?? 0) - (out._sum.massG ?? 0);
+}
+
+function asDensityMaterial(m: string): DensityMaterial {
+  return (MATERIAL_KINDS as readonly string[]).includes(m) ? (m as DensityMaterial) : "OTHER_OIL";
+}
+
+/** The density a volume drawn from a holder is converted with: a lot's own density at its reference temperature, else the tank's or product's table material. */
+export async function getDensityBasis(tx: Tx, holderId: number): Promise<{ material: DensityMaterial; densityKgM3?: number; referenceTempC?: number }> {
+  const h = await tx.holder.findUniqueOrThrow({
+    where: { id: holderId },
+    select: { kind: true, lot: { select: { material: true, densityKgM3: true, referenceTempC: true } }, tank: { select: { service: true } } },
+  });
+  if (h.lot) return { material: asDensityMaterial(h.lot.material), densityKgM3: h.lot.densityKgM3, referenceTempC: h.lot.referenceTempC };
+  if (h.tank) return { material: serviceMaterial(h.tank.service) };
+  return { material: h.kind === "PRODUCT_LOT" ? "FAME" : "USED_COOKING_OIL" };
+}
+
+export interface GaugeView {
+  id: number;
+  at: Date;
+  method: string;
+  levelMm: number | null;
+  volumeMl: number;
+  tempC: number;
+  densityKgM3: number | null;
+  massG: number;
+  bookStockG: number | null;
+  note: string;
+  recordedBy: string | null;
+}
+
+/** A tank's gauge readings, newest first. */
+export async function listGauges(db: Db, tankId: number, take = 50): Promise<GaugeView[]> {
+  const rows = await db.tankGauge.findMany({ where: { tankId }, orderBy: [{ at: "desc" }, { id: "desc" }], take });
+  const ids = [...new Set(rows.map((r) => r.recordedById).filter((x): x is number => x !== null))];
+  const users = ids.length ? await db.user.findMany({ where: { id: { in: ids } }, select: { id: true, fullName: true } }) : [];
+  const name = new Map(users.map((u) => [u.id, u.fullName]));
+  return rows.map((r) => ({
+    id: r.id,
+    at: r.at,
+    method: r.method,
+    levelMm: r.levelMm,
+    volumeMl: r.volumeMl,
+    tempC: r.tempC,
+    densityKgM3: r.densityKgM3,
+    massG: r.massG,
+    bookStockG: r.bookStockG,
+    note: r.note,
+    recordedBy: r.recordedById === null ? null : (name.get(r.recordedById) ?? null),
+  }));
+}
+
+/** A tank's page header needs its calibration table too. */
+export async function getTankStrapping(db: Db, siteId: number, code: string): Promise<{ id: number; strappingJson: string } | null> {
+  return db.tank.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, strappingJson: true } });
 }

@@ -8,6 +8,7 @@ import type { LotFlow } from "@/lib/feedstock/lot-detail.store";
 import { kg, kgExact, litres, num, pct, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
+import { MoveLotSection } from "@/app/lots/[code]/move-lot";
 import { CodeLink, Empty, Facts, HolderLink, NoSite, Note, Status } from "@/app/_ui/ui";
 
 export const dynamic = "force-dynamic";
@@ -19,7 +20,7 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
 }
 
 export default async function LotPage({ params }: Props) {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const lot = await getLotDetail(db, site.id, codeParam((await params).code));
   if (!lot) notFound();
@@ -58,6 +59,8 @@ export default async function LotPage({ params }: Props) {
       <p>
         <Link href={`/lab/${encodeURIComponent(lot.code)}`}>{lot.status === "QUARANTINED" ? "Record lab results and decide" : "Lab results"}</Link>
       </p>
+
+      <MoveLotSection db={db} site={site} user={user} lot={lot} />
 
       <h2>Measurement and density basis</h2>
       <Facts

@@ -8,6 +8,10 @@ import { kg, litres, num, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { DensityNote, FillBar } from "@/app/_ui/tank-ui";
+import { getTankStrapping, listGauges } from "@/lib/tank/tank.store";
+import { DEFAULT_DENSITY_TABLE, requireDensityEntry } from "@/lib/quantity/density";
+import { MoveSection } from "@/app/tanks/move-section";
+import { GaugeSection } from "@/app/tanks/[code]/gauges";
 import { Empty, Facts, MovementTable, NoSite, Note } from "@/app/_ui/ui";
 
 export const dynamic = "force-dynamic";
@@ -19,14 +23,16 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
 }
 
 export default async function TankPage({ params }: Props) {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const code = codeParam((await params).code);
   const tank = (await listTankLevels(db, site.id)).find((t) => t.code === code);
   const holder = await getHolderRef(db, site.id, "TANK", code);
   if (!tank || !holder) notFound();
   const tz = site.timeZone;
-  const moves = await listHolderMovements(db, holder.id);
+  const [moves, strapping] = await Promise.all([listHolderMovements(db, holder.id), getTankStrapping(db, site.id, code)]);
+  const gauges = strapping ? await listGauges(db, strapping.id) : [];
+  const entry = requireDensityEntry(DEFAULT_DENSITY_TABLE, tank.nominalMaterial);
   const sumIn = moves.incoming.reduce((s, m) => s + m.massG, 0);
   const sumOut = moves.outgoing.reduce((s, m) => s + m.massG, 0);
   return (
@@ -47,11 +53,31 @@ export default async function TankPage({ params }: Props) {
           ["Nominal density", `${num(tank.nominalDensityKgM3, 1)} kg/m³ (${tank.nominalDensityStatus})`],
           [
             "Last gauge",
-            tank.lastGauge ? `${litres(tank.lastGauge.volumeMl)} = ${kg(tank.lastGauge.massG)} on ${when(tank.lastGauge.at, tz)}` : "never gauged",
+            tank.lastGauge ? `${litres(tank.lastGauge.volumeMl)} = ${kg(tank.lastGauge.massG)} on ${when(tank.lastGauge.at, tz)}${tank.lastGauge.bookStockG === null ? "" : ` (book then ${kg(tank.lastGauge.bookStockG)})`}` : "never gauged",
           ],
         ]}
       />
       <DensityNote tanks={[tank]} />
+
+      <MoveSection
+        db={db}
+        siteId={site.id}
+        timeZone={tz}
+        now={user.now}
+        role={user.role}
+        from={{ kind: "TANK", code: tank.code, service: tank.service, stockG: tank.stockG }}
+        density={{ entry, basis: `Uses the table density for ${labelOf(tank.service).toLowerCase()}, ${num(tank.nominalDensityKgM3, 1)} kg/m³ at 15 °C.` }}
+        title="Move to another tank"
+      />
+
+      <GaugeSection
+        tank={{ code: tank.code, service: tank.service, stockG: tank.stockG, strappingJson: strapping?.strappingJson ?? "" }}
+        material={tank.nominalMaterial}
+        gauges={gauges}
+        timeZone={tz}
+        now={user.now}
+        role={user.role}
+      />
 
       <h2>Movements in</h2>
       {moves.incomingTotal === 0 ? (
