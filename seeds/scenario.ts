@@ -7,7 +7,9 @@ import type { DeliveryLotInput, LabTestInput, LotFromPickupsInput } from "@/lib/
 import type { LotTitrationInput } from "@/lib/feedstock/titration.service";
 import type { GaugeInput, TankInput, TransferInput } from "@/lib/tank/tank.schema";
 import type { BatchCompleteInput, BatchPlanInput, BatchStartInput, ReagentLotInput } from "@/lib/batch/batch.schema";
-import type { QcResultInput, ShipmentInput } from "@/lib/product/product.schema";
+import type { QcResultInput } from "@/lib/product/product.schema";
+import type { ShipmentRecordInput } from "@/lib/shipment/shipment.schema";
+import type { CustomerInput } from "@/lib/customer/customer.schema";
 import type { DisposalInput, WasteContainerInput } from "@/lib/waste/container.schema";
 import type { AccountingPeriodInput } from "@/lib/period/period.schema";
 import type { MaterialKind } from "@/lib/ledger/kinds";
@@ -35,7 +37,8 @@ export type Op =
   | { kind: "completeBatch"; at: Date; actor: Login; input: BatchCompleteInput }
   | { kind: "qc"; at: Date; actor: Login; input: QcResultInput }
   | { kind: "decideProduct"; at: Date; actor: Login; input: { productLotCode: string; decision: "RELEASED" | "REJECTED" } }
-  | { kind: "ship"; at: Date; actor: Login; input: ShipmentInput }
+  | { kind: "customer"; at: Date; actor: Login; input: CustomerInput }
+  | { kind: "ship"; at: Date; actor: Login; input: ShipmentRecordInput }
   | { kind: "wasteContainer"; at: Date; actor: Login; input: WasteContainerInput }
   | { kind: "disposal"; at: Date; actor: Login; input: DisposalInput }
   | { kind: "period"; at: Date; actor: Login; input: AccountingPeriodInput }
@@ -125,6 +128,7 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
     { code: "M1", name: "Recovered methanol tank", service: "METHANOL", capacityL: 20_000 },
   ] as const;
   for (const d of tankDefs) ops.push({ kind: "tank", at: at0, actor: "admin.jory", input: { ...d, mixing: "MIXED" } });
+  for (const c of CUSTOMERS) ops.push({ kind: "customer", at: at0, actor: "compliance.nell", input: { ...c } });
   const tanks = new Map<string, SimTank>();
   for (const d of tankDefs) {
     const material = d.service === "PRODUCT" ? "FAME" : d.service === "METHANOL" ? "METHANOL" : "USED_COOKING_OIL";
@@ -401,7 +405,10 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
         shipmentSeq++;
         const kg = Math.round(between(18_000, 23_000));
         const at = t(day, 14);
-        ops.push({ kind: "ship", at, actor: "production.tess", input: { documentNo: `BOL-${String(shipmentSeq).padStart(4, "0")}`, customer: pick(CUSTOMERS), shippedAt: at, fromKind: "TANK", fromCode: code, massKg: kg, volumeL: r1(kg / 0.8805), certifiedClaim: rand() < 0.5, note: "" } });
+        // One tanker load from one product tank; the customer pick comes before the claim draw, as it always has.
+        const customerCode = pick(CUSTOMERS).code;
+        const vehicle = `Road tanker RT-${1 + (shipmentSeq % 3)}`;
+        ops.push({ kind: "ship", at, actor: "compliance.nell", input: { documentNo: `BOL-${String(shipmentSeq).padStart(4, "0")}`, customerCode, shippedAt: at, vehicle, compartment: "1–4", lines: [{ fromKind: "TANK", fromCode: code, massKg: kg, volumeL: r1(kg / 0.8805) }], certifiedClaim: rand() < 0.5, note: "" } });
         tk.stockG -= kg * 1000;
       }
     }

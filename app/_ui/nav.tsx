@@ -16,6 +16,7 @@ const ITEMS: ReadonlyArray<readonly [string, string]> = [
   ["/batches", "Batches"],
   ["/products", "Product lots"],
   ["/shipments", "Shipments"],
+  ["/customers", "Customers"],
   ["/waste", "Waste"],
   ["/trace", "Trace"],
   ["/balance", "Balance"],

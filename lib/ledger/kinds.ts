@@ -76,6 +76,7 @@ export const LABELS: Record<string, string> = {
   SHIPMENT: "Shipment", WASTE_CONTAINER: "Waste container", DISPOSAL: "Disposal", REAGENT_LOT: "Reagent lot", LOSS: "Recorded loss",
   RECEIPT: "Received", TRANSFER: "Transfer", OIL: "Oil charged", CATALYST: "Catalyst", ACID: "Acid",
   ESTER: "Ester out", RECOVERED_METHANOL: "Methanol recovered",
+  ACTIVE_CUSTOMER: "Active", INACTIVE_CUSTOMER: "No longer supplied",
 };
 
 export function labelOf(code: string): string {
