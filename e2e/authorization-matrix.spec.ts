@@ -27,6 +27,8 @@ const MATRIX: Record<string, Role[] | "public"> = {
   "/api/periods/reopen": ["COMPLIANCE"],
   "/api/grid/save": ["COLLECTOR", "PRODUCTION"],
   "/api/grid/import": ["PRODUCTION"],
+  "/api/customers": ["COMPLIANCE"],
+  "/api/shipments": ["COMPLIANCE"],
 };
 const COMPUTE_PREFIX = "/api/compute/"; // pure computations: any signed-in user
 
@@ -96,6 +98,9 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   reverseMovementAction: ["PRODUCTION"],
   voidLabResultAction: ["PRODUCTION"],
   setOwnUnitsAction: ANY,
+  createCustomerAction: ["COMPLIANCE"],
+  changeCustomerAction: ["COMPLIANCE"],
+  recordShipmentAction: ["COMPLIANCE"],
 };
 
 interface ActionEntry { id: string; name: string; page: string }
