@@ -57,6 +57,8 @@ function rng(seed: number): () => number {
 }
 
 const DAY = 86_400_000;
+/** Grams of a lot released in the demo's last days that stay in the lot for drum orders. */
+const KEPT_BACK_G = 400_000;
 const r1 = (x: number) => Math.round(x * 10) / 10;
 const r2 = (x: number) => Math.round(x * 100) / 100;
 const r3 = (x: number) => Math.round(x * 1000) / 1000;
@@ -393,8 +395,11 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
       ops.push({ kind: "decideProduct", at: t(day, 11), actor: "compliance.nell", input: { productLotCode: p.code, decision: "RELEASED" } });
       const dest = productTanks.map((c) => tanks.get(c)!).filter((tk) => tk.stockG + p.grams <= tk.capacityG).sort((a, z) => a.stockG - z.stockG)[0];
       if (!dest) continue;
-      ops.push({ kind: "transfer", at: t(day, 11, 30), actor: "production.tess", input: { fromKind: "PRODUCT_LOT", fromCode: p.code, toTankCode: dest.code, at: t(day, 11, 30), massKg: p.grams / 1000, note: "released to tank" } });
-      dest.stockG += p.grams;
+      // In the last days a little of each released lot is kept back in the lot for drum orders, so the
+      // demo has released lots that can be shipped directly.
+      const keptG = day >= days - 6 ? Math.min(KEPT_BACK_G, p.grams - 1000) : 0;
+      ops.push({ kind: "transfer", at: t(day, 11, 30), actor: "production.tess", input: { fromKind: "PRODUCT_LOT", fromCode: p.code, toTankCode: dest.code, at: t(day, 11, 30), massKg: (p.grams - keptG) / 1000, note: keptG > 0 ? "released to tank; the rest kept back for drum orders" : "released to tank" } });
+      dest.stockG += p.grams - keptG;
     }
 
     // Shipments by tanker when a product tank has enough above its heel.
