@@ -43,7 +43,12 @@ export async function recordShipmentAction(prev: FormState, form: FormData): Pro
     note: readText(form, "note"),
     lines: Array.from({ length: count }, (_, i) => readLine(form, i + 1)),
   });
-  if (!r.ok) return refused(prev, values, r.issues, known, formFieldOf);
+  if (!r.ok) {
+    // The first reason is repeated beside the button, so it is seen without scrolling back to the line.
+    const state = refused(prev, values, r.issues, known, formFieldOf);
+    const first = r.issues[0];
+    return first?.field !== undefined && state.errors[formFieldOf(first.field)] !== undefined ? { ...state, message: `Not saved. ${first.message}` } : state;
+  }
   revalidatePath("/shipments");
   revalidatePath("/customers");
   return { status: "saved", message: `Shipment ${r.value.documentNo} recorded: ${(r.value.massG / 1000).toLocaleString("en", { maximumFractionDigits: 3 })} kg left the books.`, values: {}, errors: {}, seq: prev.seq + 1 };
