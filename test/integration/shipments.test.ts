@@ -13,6 +13,7 @@ import { recordShipment } from "@/lib/shipment/shipment.service";
 import { getShipmentRecord, listShipmentRows } from "@/lib/shipment/shipment.store";
 import { listRecordHistory } from "@/lib/audit/audit.store";
 import { traceForwardReport } from "@/lib/trace/trace.service";
+import { forwardCsv } from "@/app/trace/csv";
 import { DEFAULT_DENSITY_TABLE, densityAt, requireDensityEntry } from "@/lib/quantity/density";
 
 function value<T>(r: Result<T>): T {
@@ -124,5 +125,9 @@ describe.each(PROVIDERS)("shipments on %s", (provider) => {
     expect(f.byCustomer).toHaveLength(1);
     expect(f.byCustomer[0]).toMatchObject({ customer: { code: "ACME-T" }, shipments: 1, grams: row?.heldG });
     expect(row?.heldG).toBeGreaterThan(0);
+    // The CSV of the same trace carries the customer in its last column.
+    const csv = forwardCsv(f).split("\r\n");
+    expect(csv[0]?.endsWith(",customer")).toBe(true);
+    expect(csv.find((l) => l.includes(",DOC-3,"))?.endsWith(",Test Haulage")).toBe(true);
   });
 });
