@@ -69,7 +69,27 @@ test("compliance records a customer and ships part of a released product lot to 
   await page.getByRole("link", { name: customerName }).click();
   await expect(page).toHaveURL(new RegExp(`/customers/${customerCode}$`));
   await expect(page.getByRole("link", { name: documentNo, exact: true })).toBeVisible();
+
+  // A change keeps the old value in the customer's history, with the reason.
+  await page.getByText("Change this customer").click();
+  const change = page.getByRole("form", { name: `Change customer ${customerCode}` });
+  await change.getByLabel("Contact").fill("Yard office, Pim Adderley (weekdays only)");
+  await change.getByRole("button", { name: "Save the change" }).click();
+  await expect(change.locator(".field-error")).toContainText("Reason for the change is required");
+  await change.getByLabel("Reason for the change").fill("Deliveries on weekdays only");
+  await change.getByRole("button", { name: "Save the change" }).click();
+  await expect(change.getByRole("status")).toContainText("changed (contact)");
   await page.screenshot({ path: "/tmp/shipments-customer.png", fullPage: true });
+  await page.getByRole("link", { name: `History of customer ${customerCode}` }).click();
+  await expect(page.getByRole("cell", { name: "Deliveries on weekdays only" })).toBeVisible();
+
+  // The forward trace of a feedstock lot in this shipment names the customer.
+  await page.goto(`/shipments/${documentNo}`);
+  const feedLot = (await page.getByRole("link", { name: /^L-\d+$/ }).first().innerText()).trim();
+  await page.goto(`/trace?dir=fwd&kind=LOT&code=${feedLot}`);
+  await expect(page.getByRole("heading", { name: "Shipped to customers" })).toBeVisible({ timeout: 60_000 });
+  await expect(page.getByRole("link", { name: customerName }).first()).toBeVisible();
+  await page.screenshot({ path: "/tmp/shipments-trace.png", fullPage: true });
 });
 
 test("shipping from a held product lot is refused with the lot named and the typed values kept", async ({ page }) => {

@@ -43,7 +43,7 @@ export default async function CustomersPage() {
     <>
       <h1>Customers</h1>
       <p className="lede">Who the site ships finished fuel to. A customer is never deleted: one that is no longer supplied is marked so, and keeps its shipments.</p>
-      <DataTable caption={`${rows.length} customers`} columns={columns} rows={rows} rowKey={(c) => c.code} empty="No customers recorded yet." />
+      <DataTable caption={`${rows.length} customer${rows.length === 1 ? "" : "s"}`} columns={columns} rows={rows} rowKey={(c) => c.code} empty="No customers recorded yet." />
       {user.role === "COMPLIANCE" ? (
         <section aria-labelledby="new-customer">
           <h2 id="new-customer">Record a customer</h2>

@@ -36,7 +36,7 @@ export default async function ShipmentsPage({ searchParams }: { searchParams: Pr
           </div>
         </details>
       ) : null}
-      <ShipmentTable rows={rows} timeZone={tz} caption={`${total} shipments`} />
+      <ShipmentTable rows={rows} timeZone={tz} caption={`${total} shipment${total === 1 ? "" : "s"}`} />
       <Pager basePath="/shipments" page={page} total={total} pageSize={PAGE_SIZE} />
     </>
   );

@@ -56,7 +56,7 @@ export default async function CustomerPage({ params, searchParams }: Props) {
         }
       />
       <h2>Shipments to {c.name}</h2>
-      <ShipmentTable rows={rows} timeZone={site.timeZone} showCustomer={false} caption={`${total} shipments, newest first`} />
+      <ShipmentTable rows={rows} timeZone={site.timeZone} showCustomer={false} caption={`${total} shipment${total === 1 ? "" : "s"}, newest first`} />
       <Pager basePath={`/customers/${encodeURIComponent(c.code)}`} page={page} total={total} pageSize={PAGE_SIZE} />
       {canChange ? (
         <details className="correction">
