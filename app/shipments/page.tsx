@@ -7,6 +7,7 @@ import { loadSite } from "@/app/_ui/site";
 import { NoSite, Pager } from "@/app/_ui/ui";
 import { RecordShipmentForm } from "@/app/shipments/shipment-form";
 import { ReadyToShip } from "@/app/shipments/ready-to-ship";
+import { LoadingCautions } from "@/app/shipments/loading-cautions";
 import { ShipmentTable } from "@/app/shipments/shipment-table";
 
 export const dynamic = "force-dynamic";
@@ -32,7 +33,10 @@ export default async function ShipmentsPage({ searchParams }: { searchParams: Pr
           <summary>Record a shipment</summary>
           <div className="form-with-aside">
             <RecordShipmentForm customers={customers} defaults={{ shippedAt: when(user.now, tz).replace(" ", "T") }} />
+            <div>
             <ReadyToShip rows={ready} />
+            <LoadingCautions />
+          </div>
           </div>
         </details>
       ) : null}

@@ -9,6 +9,7 @@ import { loadSite } from "@/app/_ui/site";
 import { NoSite, Note } from "@/app/_ui/ui";
 import { RecordShipmentForm } from "@/app/shipments/shipment-form";
 import { ReadyToShip } from "@/app/shipments/ready-to-ship";
+import { LoadingCautions } from "@/app/shipments/loading-cautions";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Record a shipment" };
@@ -54,7 +55,10 @@ export default async function NewShipmentPage({ searchParams }: { searchParams: 
           customers={customers}
           defaults={{ shippedAt: when(user.now, site.timeZone).replace(" ", "T"), ...(customerCode ? { customerCode } : {}), ...(lot ? { from: { kind: "PRODUCT_LOT" as const, code: lot.code } } : {}) }}
         />
-        <ReadyToShip rows={ready} />
+        <div>
+            <ReadyToShip rows={ready} />
+            <LoadingCautions />
+          </div>
       </div>
     </>
   );
