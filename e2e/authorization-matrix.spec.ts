@@ -33,6 +33,8 @@ const MATRIX: Record<string, Role[] | "public"> = {
   "/api/waste/characterisation": ["PRODUCTION", "COMPLIANCE"],
   "/api/waste/full": ["PRODUCTION", "COMPLIANCE"],
   "/api/waste/disposals": ["COMPLIANCE"],
+  "/api/customers": ["COMPLIANCE"],
+  "/api/shipments": ["COMPLIANCE"],
 };
 const COMPUTE_PREFIX = "/api/compute/"; // pure computations: any signed-in user
 
@@ -110,6 +112,9 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   recordCharacterisationAction: ["PRODUCTION", "COMPLIANCE"],
   markFullAction: ["PRODUCTION", "COMPLIANCE"],
   recordHaulAction: ["COMPLIANCE"],
+  createCustomerAction: ["COMPLIANCE"],
+  changeCustomerAction: ["COMPLIANCE"],
+  recordShipmentAction: ["COMPLIANCE"],
 };
 
 interface ActionEntry { id: string; name: string; page: string }

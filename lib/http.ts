@@ -22,6 +22,7 @@ const BY_PREFIX: Array<[RegExp, number]> = [
   [/^PICKUP\.ALREADY_RECEIVED$/, 409],
   [/^PERIOD\.ALREADY_CLOSED$/, 409],
   [/^WASTE\.(ALREADY_FULL|ALREADY_HAULED|CONTAINER_CLOSED)$/, 409],
+  [/^(PRODUCT\.(ON_HOLD|NOT_RELEASED)|CUSTOMER\.INACTIVE)$/, 409],
 ];
 
 /** 422 for bad input, 404/409 for state conflicts; any other expected refusal is a 422 with its code. */

@@ -28,8 +28,12 @@ import { GaugeSchema, TankSchema, TransferSchema } from "@/lib/tank/tank.schema"
 import { createTank, recordGauge, transferToTank } from "@/lib/tank/tank.service";
 import { BatchCompleteSchema, BatchPlanSchema, BatchStartSchema, ReagentLotSchema } from "@/lib/batch/batch.schema";
 import { completeBatch, planBatch, receiveReagent, startBatch } from "@/lib/batch/batch.service";
-import { QcResultSchema, ShipmentSchema } from "@/lib/product/product.schema";
-import { decideProductLot, recordQcResult, ReleaseSchema, shipProduct } from "@/lib/product/product.service";
+import { QcResultSchema } from "@/lib/product/product.schema";
+import { decideProductLot, recordQcResult, ReleaseSchema } from "@/lib/product/product.service";
+import { ShipmentRecordSchema } from "@/lib/shipment/shipment.schema";
+import { recordShipment } from "@/lib/shipment/shipment.service";
+import { CustomerSchema } from "@/lib/customer/customer.schema";
+import { createCustomer } from "@/lib/customer/customer.service";
 import { DisposalSchema, WasteContainerSchema } from "@/lib/waste/container.schema";
 import { openWasteContainer, recordDisposal } from "@/lib/waste/container.service";
 import { AccountingPeriodSchema } from "@/lib/period/period.schema";
@@ -54,7 +58,8 @@ const HANDLERS: Record<Exclude<Op["kind"], "closePeriod">, Handler> = {
   completeBatch: { schema: BatchCompleteSchema, apply: completeBatch },
   qc: { schema: QcResultSchema, apply: recordQcResult },
   decideProduct: { schema: ReleaseSchema, apply: decideProductLot },
-  ship: { schema: ShipmentSchema, apply: shipProduct },
+  customer: { schema: CustomerSchema, apply: createCustomer },
+  ship: { schema: ShipmentRecordSchema, apply: recordShipment },
   wasteContainer: { schema: WasteContainerSchema, apply: openWasteContainer },
   disposal: { schema: DisposalSchema, apply: recordDisposal },
   period: { schema: AccountingPeriodSchema, apply: openPeriod },

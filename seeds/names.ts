@@ -36,7 +36,13 @@ export const PROCESSORS = ["Quillmoor Crisp Works", "Fennick Snack Foods", "Lark
 export const RENDERERS = ["Marrowgate Rendering", "Otterholm By-Products", "Cobblestead Fats"];
 export const CRUSHERS = ["Thistlemere Oilseed Mill", "Juniperbrook Crushing"];
 export const OTHER_SUPPLIERS = ["Quillmoor Civic Depot"];
-export const CUSTOMERS = ["Harrowmere Haulage Co-op", "Quillmoor Bus Depot", "Tolvane Farm Fuels", "Saltmarsh Ferry Company"];
+/** Invented customers in invented towns (codes, addresses and contacts are fiction too). */
+export const CUSTOMERS = [
+  { code: "HHC", name: "Harrowmere Haulage Co-op", address: "3 Drover's Yard, Harrowmere", contact: "Fuel desk, Orla Fenwright" },
+  { code: "QBD", name: "Quillmoor Bus Depot", address: "Coachworks Lane, Quillmoor", contact: "Depot engineer, Bram Tallis" },
+  { code: "TFF", name: "Tolvane Farm Fuels", address: "Upper Tolvane Barns, Bramblebrook", contact: "Yard office, Wenna Cobb" },
+  { code: "SFC", name: "Saltmarsh Ferry Company", address: "Slipway Road, Saltmarsh End", contact: "Bunkering clerk, Idris Marle" },
+] as const;
 export const HAULERS = ["Brannick Liquid Waste", "Fernwhistle Environmental"];
 /** Receiving facilities of the demo's hauls, by stream (fictional). */
 export const DISPOSAL_FACILITIES = { GLYCEROL_PHASE: "Orrinford Glycerin Recovery", WASH_WATER: "Teasel Marsh Water Treatment" } as const;

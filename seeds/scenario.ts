@@ -7,7 +7,9 @@ import type { DeliveryLotInput, LabTestInput, LotFromPickupsInput } from "@/lib/
 import type { LotTitrationInput } from "@/lib/feedstock/titration.service";
 import type { GaugeInput, TankInput, TransferInput } from "@/lib/tank/tank.schema";
 import type { BatchCompleteInput, BatchPlanInput, BatchStartInput, ReagentLotInput } from "@/lib/batch/batch.schema";
-import type { QcResultInput, ShipmentInput } from "@/lib/product/product.schema";
+import type { QcResultInput } from "@/lib/product/product.schema";
+import type { ShipmentRecordInput } from "@/lib/shipment/shipment.schema";
+import type { CustomerInput } from "@/lib/customer/customer.schema";
 import type { DisposalInput, WasteContainerInput } from "@/lib/waste/container.schema";
 import type { AccountingPeriodInput } from "@/lib/period/period.schema";
 import type { MaterialKind } from "@/lib/ledger/kinds";
@@ -35,7 +37,8 @@ export type Op =
   | { kind: "completeBatch"; at: Date; actor: Login; input: BatchCompleteInput }
   | { kind: "qc"; at: Date; actor: Login; input: QcResultInput }
   | { kind: "decideProduct"; at: Date; actor: Login; input: { productLotCode: string; decision: "RELEASED" | "REJECTED" } }
-  | { kind: "ship"; at: Date; actor: Login; input: ShipmentInput }
+  | { kind: "customer"; at: Date; actor: Login; input: CustomerInput }
+  | { kind: "ship"; at: Date; actor: Login; input: ShipmentRecordInput }
   | { kind: "wasteContainer"; at: Date; actor: Login; input: WasteContainerInput }
   | { kind: "disposal"; at: Date; actor: Login; input: DisposalInput }
   | { kind: "period"; at: Date; actor: Login; input: AccountingPeriodInput }
@@ -54,6 +57,8 @@ function rng(seed: number): () => number {
 }
 
 const DAY = 86_400_000;
+/** Grams of a lot released in the demo's last days that stay in the lot for drum orders. */
+const KEPT_BACK_G = 400_000;
 const r1 = (x: number) => Math.round(x * 10) / 10;
 const r2 = (x: number) => Math.round(x * 100) / 100;
 const r3 = (x: number) => Math.round(x * 1000) / 1000;
@@ -128,6 +133,7 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
   // lowest 200 mm, then 9.85 L per mm up to 6,200 mm. T1 has none on file (gauged by volume).
   const strapping60k = (): number[][] => [[0, 0], [200, 900], ...Array.from({ length: 12 }, (_, i) => [700 + i * 500, Math.round(900 + (500 + i * 500) * 9.85)])];
   for (const d of tankDefs) ops.push({ kind: "tank", at: at0, actor: "admin.jory", input: { ...d, mixing: "MIXED", ...(d.code === "T2" || d.code === "T3" ? { strapping: strapping60k() } : {}) } });
+  for (const c of CUSTOMERS) ops.push({ kind: "customer", at: at0, actor: "compliance.nell", input: { ...c } });
   const tanks = new Map<string, SimTank>();
   for (const d of tankDefs) {
     const material = d.service === "PRODUCT" ? "FAME" : d.service === "METHANOL" ? "METHANOL" : "USED_COOKING_OIL";
@@ -392,8 +398,11 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
       ops.push({ kind: "decideProduct", at: t(day, 11), actor: "compliance.nell", input: { productLotCode: p.code, decision: "RELEASED" } });
       const dest = productTanks.map((c) => tanks.get(c)!).filter((tk) => tk.stockG + p.grams <= tk.capacityG).sort((a, z) => a.stockG - z.stockG)[0];
       if (!dest) continue;
-      ops.push({ kind: "transfer", at: t(day, 11, 30), actor: "production.tess", input: { fromKind: "PRODUCT_LOT", fromCode: p.code, toTankCode: dest.code, at: t(day, 11, 30), massKg: p.grams / 1000, note: "released to tank" } });
-      dest.stockG += p.grams;
+      // In the last days a little of each released lot is kept back in the lot for drum orders, so the
+      // demo has released lots that can be shipped directly.
+      const keptG = day >= days - 6 ? Math.min(KEPT_BACK_G, p.grams - 1000) : 0;
+      ops.push({ kind: "transfer", at: t(day, 11, 30), actor: "production.tess", input: { fromKind: "PRODUCT_LOT", fromCode: p.code, toTankCode: dest.code, at: t(day, 11, 30), massKg: (p.grams - keptG) / 1000, note: keptG > 0 ? "released to tank; the rest kept back for drum orders" : "released to tank" } });
+      dest.stockG += p.grams - keptG;
     }
 
     // Shipments by tanker when a product tank has enough above its heel.
@@ -404,7 +413,10 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
         shipmentSeq++;
         const kg = Math.round(between(18_000, 23_000));
         const at = t(day, 14);
-        ops.push({ kind: "ship", at, actor: "production.tess", input: { documentNo: `BOL-${String(shipmentSeq).padStart(4, "0")}`, customer: pick(CUSTOMERS), shippedAt: at, fromKind: "TANK", fromCode: code, massKg: kg, volumeL: r1(kg / 0.8805), certifiedClaim: rand() < 0.5, note: "" } });
+        // One tanker load from one product tank; the customer pick comes before the claim draw, as it always has.
+        const customerCode = pick(CUSTOMERS).code;
+        const vehicle = `Road tanker RT-${1 + (shipmentSeq % 3)}`;
+        ops.push({ kind: "ship", at, actor: "compliance.nell", input: { documentNo: `BOL-${String(shipmentSeq).padStart(4, "0")}`, customerCode, shippedAt: at, vehicle, compartment: "1–4", lines: [{ fromKind: "TANK", fromCode: code, massKg: kg, volumeL: r1(kg / 0.8805) }], certifiedClaim: rand() < 0.5, note: "" } });
         tk.stockG -= kg * 1000;
       }
     }

@@ -51,6 +51,7 @@ function recordHref(kind: RecordHistoryKind, key: string): string | null {
   const holder = HOLDER_OF[kind];
   if (holder) return hrefOf(holder, key);
   if (kind === "source") return `/sources/${encodeURIComponent(key)}`;
+  if (kind === "customer") return `/customers/${encodeURIComponent(key)}`;
   if (kind === "period") return "/periods";
   return null;
 }

@@ -100,9 +100,9 @@ export function backwardCsv(r: BackwardTraceReport, table: BackwardTable, feedst
 
 export function forwardCsv(r: ForwardTraceReport): string {
   return toCsv([
-    ["stage", "holder_kind", "holder", "first_reached", "received_grams", "received_kg", "held_grams", "held_kg"],
-    ...r.holders.map((h): CsvCell[] => [h.stageLabel, labelOf(h.holder.kind), h.holder.code, h.firstAt?.toISOString() ?? null, h.receivedG, kg3(h.receivedG), h.heldG, kg3(h.heldG)]),
-    ["TOTAL entered", null, r.subject.code, null, null, null, r.enteredG, kg3(r.enteredG)],
+    ["stage", "holder_kind", "holder", "first_reached", "received_grams", "received_kg", "held_grams", "held_kg", "customer"],
+    ...r.holders.map((h): CsvCell[] => [h.stageLabel, labelOf(h.holder.kind), h.holder.code, h.firstAt?.toISOString() ?? null, h.receivedG, kg3(h.receivedG), h.heldG, kg3(h.heldG), h.customer?.name ?? null]),
+    ["TOTAL entered", null, r.subject.code, null, null, null, r.enteredG, kg3(r.enteredG), null],
   ]);
 }
 

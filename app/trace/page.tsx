@@ -6,6 +6,7 @@ import type { TraceChoices } from "@/lib/trace/trace.store";
 import { traceBackwardReport, traceForwardReport } from "@/lib/trace/trace.service";
 import { BACKWARD_KINDS, FORWARD_KINDS } from "@/lib/api/endpoints/trace";
 import type { BackwardTraceReport, ForwardTraceReport } from "@/lib/trace/trace.service";
+import { CustomerName, CustomerShares } from "@/app/trace/customer-shares";
 import type { DomainIssue } from "@/lib/errors";
 import { kg, kgExact, pct, when } from "@/app/_ui/format";
 import { hrefOf } from "@/app/_ui/links";
@@ -345,6 +346,7 @@ function ForwardResult({ r, timeZone }: { r: ForwardTraceReport; timeZone: strin
               </tfoot>
             </table>
           </div>
+          <CustomerShares rows={r.byCustomer} enteredG={r.enteredG} />
           <h3>Graph</h3>
           {r.graph ? (
             <>
@@ -380,6 +382,7 @@ function ForwardResult({ r, timeZone }: { r: ForwardTraceReport; timeZone: strin
                     <td>{h.stageLabel}</td>
                     <td>
                       <HolderLink holder={h.holder} />
+                      {h.customer ? <> to <CustomerName customer={h.customer} /></> : null}
                     </td>
                     <td className="nowrap">{when(h.firstAt, timeZone)}</td>
                     <td className="num">{kg(h.receivedG, 3)}</td>

@@ -7,5 +7,6 @@ import { RECORD_ENDPOINTS } from "@/lib/api/endpoints/records";
 import { GRID_ENDPOINTS } from "@/lib/api/endpoints/grid";
 import { WASTE_ENDPOINTS } from "@/lib/api/endpoints/waste";
 import { TANK_ENDPOINTS } from "@/lib/api/endpoints/tanks";
+import { SHIPMENT_ENDPOINTS } from "@/lib/api/endpoints/shipments";
 
-export const ENDPOINTS: EndpointDoc[] = [...RECORD_ENDPOINTS, ...LAB_ENDPOINTS, ...TRACE_ENDPOINTS, ...GRID_ENDPOINTS, ...WASTE_ENDPOINTS, ...TANK_ENDPOINTS];
+export const ENDPOINTS: EndpointDoc[] = [...LAB_ENDPOINTS, ...TRACE_ENDPOINTS, ...RECORD_ENDPOINTS, ...GRID_ENDPOINTS, ...WASTE_ENDPOINTS, ...TANK_ENDPOINTS, ...SHIPMENT_ENDPOINTS];

@@ -11,6 +11,7 @@ export const RECORD_HISTORIES = {
   reagent: { label: "Reagent lot", entities: ["ReagentLot"] },
   product: { label: "Product lot", entities: ["ProductLot", "QcResult"] },
   shipment: { label: "Shipment", entities: ["Shipment"] },
+  customer: { label: "Customer", entities: ["Customer"] },
   waste: { label: "Waste container", entities: ["WasteContainer"] },
   disposal: { label: "Disposal", entities: ["Disposal"] },
   period: { label: "Accounting period", entities: ["AccountingPeriod"] },

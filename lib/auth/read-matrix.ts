@@ -34,6 +34,7 @@ export const READ_MATRIX: readonly ReadRule[] = [
   { path: "/batches", roles: PLANT, menu: "Batches" },
   { path: "/products", roles: PLANT, menu: "Product lots" },
   { path: "/shipments", roles: OFFICE, menu: "Shipments" },
+  { path: "/customers", roles: OFFICE, menu: "Customers" },
   { path: "/waste", roles: PLANT, menu: "Waste" },
   { path: "/trace", roles: PLANT, menu: "Trace" },
   { path: "/balance", roles: OFFICE, menu: "Balance" },

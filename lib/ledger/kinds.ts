@@ -79,6 +79,7 @@ export const LABELS: Record<string, string> = {
   HAZARDOUS: "Hazardous", NEEDS_CHARACTERISATION: "Needs characterisation", NON_HAZARDOUS: "Not hazardous",
   // Tank gauges: how the volume was found.
   VOLUME: "Volume read directly", LEVEL: "Level through the calibration table",
+  ACTIVE_CUSTOMER: "Active", INACTIVE_CUSTOMER: "No longer supplied",
 };
 
 export function labelOf(code: string): string {

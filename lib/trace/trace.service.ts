@@ -33,6 +33,9 @@ import { createReplay } from "@/lib/trace/replay";
 import type { Replay, ReplaySnapshot } from "@/lib/trace/replay";
 import { getHolderSubject, getLedgerVersion, getSourceSubject, listEntryHolderFacts, listTankServices } from "@/lib/trace/trace.store";
 import type { EntryHolderFacts, LedgerVersion, TraceSubject } from "@/lib/trace/trace.store";
+import { attachCustomers } from "@/lib/trace/customers";
+import type { CustomerShare, ShipmentCustomer } from "@/lib/trace/customers";
+import { listShipmentCustomers } from "@/lib/shipment/shipment.store";
 
 // ---- query shapes: lib/api/endpoints/trace.ts (shared by the page, the CSV route and the API) ----
 
@@ -174,6 +177,8 @@ export interface ForwardHolderRow {
   /** Grams of it the holder still holds (for shipments, disposals and losses: what left the books there). */
   heldG: number;
   firstAt: Date | null;
+  /** For a shipment: the customer it went to. */
+  customer?: ShipmentCustomer;
 }
 
 export interface ForwardTraceReport {
@@ -185,6 +190,8 @@ export interface ForwardTraceReport {
   holders: ForwardHolderRow[];
   /** Where the material is now, by stage; adds up to enteredG. */
   heldByStage: Array<{ stage: number; label: string; grams: number; holders: number }>;
+  /** Traced grams shipped, per customer (largest first). */
+  byCustomer: CustomerShare[];
   movesCarried: number;
   graph: TraceGraph | null;
   freshness: LedgerFreshness;
@@ -744,10 +751,15 @@ export async function traceForwardReport(db: Db, siteId: number, input: unknown,
   const q = parsed.value;
   const subject = q.kind === "SOURCE" ? await getSourceSubject(db, siteId, q.code) : await getHolderSubject(db, siteId, q.kind, q.code);
   if (subject === null) return fail("RECORD.NOT_FOUND", `${q.kind === "SOURCE" ? "Source" : labelOf(q.kind)} ${q.code} does not exist`, "code");
-  return answer<ForwardTraceReport>(db, siteId, now, `F|${q.kind}|${subject.code}`, async (state) => computeForward(state, subject, q.kind));
+  const r = await answer<Omit<ForwardTraceReport, "byCustomer">>(db, siteId, now, `F|${q.kind}|${subject.code}`, async (state) => computeForward(state, subject, q.kind));
+  if (!r.ok) return r;
+  // Customers are read after the cached answer (a shipment's customer name is fixed when it is recorded).
+  const shipments = r.value.holders.filter((h) => h.holder.kind === "SHIPMENT").map((h) => h.holder.id);
+  const { rows, byCustomer } = attachCustomers(r.value.holders, await listShipmentCustomers(db, siteId, shipments));
+  return ok({ ...r.value, holders: rows, byCustomer });
 }
 
-function computeForward(state: LedgerState, subject: TraceSubject, kind: ForwardKind): Result<Omit<ForwardTraceReport, "freshness">> {
+function computeForward(state: LedgerState, subject: TraceSubject, kind: ForwardKind): Result<Omit<ForwardTraceReport, "freshness" | "byCustomer">> {
   const { index } = state;
   let originIds: number[];
   if (kind === "LOT") {

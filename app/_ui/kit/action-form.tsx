@@ -56,6 +56,11 @@ export function ActionForm({
   );
 }
 
+/** What the surrounding ActionForm shows: after a refusal, the typed values and the messages (for fields drawn by hand). */
+export function useActionFormState(): FormState {
+  return useContext(FormStateContext);
+}
+
 type FieldProps = {
   name: string;
   label: string;

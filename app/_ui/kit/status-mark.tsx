@@ -9,6 +9,7 @@ export const STATUS_FAMILY: Readonly<Record<string, "good" | "waiting" | "bad" |
   QUARANTINED: "waiting", HELD: "waiting", PLANNED: "waiting", FULL: "waiting", WARN: "waiting", MISSING: "waiting", DUE_SOON: "waiting",
   REJECTED: "bad", FAIL: "bad", VOID: "bad", OVERDUE: "bad", OUT_OF_SPEC: "bad",
   RUNNING: "active", OPEN: "active", REPORTED: "active",
+  ACTIVE_CUSTOMER: "good",
   CLOSED: "done", CONSUMED: "done", SHIPPED: "done", NOT_JUDGED: "done", SUPERSEDED: "done",
 };
 

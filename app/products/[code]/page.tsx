@@ -40,6 +40,7 @@ export default async function ProductLotPage({ params }: Props) {
         <Link href="/products">Product lots</Link> /
       </p>
       <h1>Product lot {p.code}</h1>
+      {p.status === "RELEASED" && p.stockG > 0 ? <p><Link href={`/shipments/new?from=${encodeURIComponent(p.code)}`}>Ship from this lot</Link></p> : null}
       <Facts
         items={[
           [

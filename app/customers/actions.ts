@@ -1,0 +1,36 @@
+"use server";
+import { revalidatePath } from "next/cache";
+import { getDb } from "@/lib/db";
+import { requireRole } from "@/lib/auth/request.service";
+import { changeCustomer, createCustomer } from "@/lib/customer/customer.service";
+import { readText, readValues, refused } from "@/app/_ui/kit/form-state";
+import type { FormState } from "@/app/_ui/kit/form-state";
+
+// Customers are recorded and changed by compliance staff; checked on the server for each call.
+
+const NEW_FIELDS = ["code", "name", "address", "contact"] as const;
+const CHANGE_FIELDS = ["code", "name", "address", "contact", "active", "reason"] as const;
+
+export async function createCustomerAction(prev: FormState, form: FormData): Promise<FormState> {
+  const values = readValues(form, NEW_FIELDS);
+  const who = await requireRole(["COMPLIANCE"]);
+  if (!who.ok) return refused(prev, values, who.issues, NEW_FIELDS);
+  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const r = await createCustomer(await getDb(), actor, { code: values.code, name: values.name, address: values.address, contact: values.contact });
+  if (!r.ok) return refused(prev, values, r.issues, NEW_FIELDS);
+  revalidatePath("/customers");
+  return { status: "saved", message: `Customer ${r.value.code} recorded.`, values: {}, errors: {}, seq: prev.seq + 1 };
+}
+
+export async function changeCustomerAction(prev: FormState, form: FormData): Promise<FormState> {
+  const values = readValues(form, CHANGE_FIELDS);
+  const who = await requireRole(["COMPLIANCE"]);
+  if (!who.ok) return refused(prev, values, who.issues, CHANGE_FIELDS);
+  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const active = readText(form, "active");
+  const r = await changeCustomer(await getDb(), actor, { code: values.code, name: values.name, address: values.address, contact: values.contact, active: active === "yes" || active === "on", reason: values.reason });
+  if (!r.ok) return refused(prev, values, r.issues, CHANGE_FIELDS);
+  revalidatePath("/customers");
+  revalidatePath(`/customers/${encodeURIComponent(r.value.code)}`);
+  return { status: "saved", message: `Customer ${r.value.code} changed (${r.value.changed.join(", ")}); the history keeps the old values.`, values: {}, errors: {}, seq: prev.seq + 1 };
+}
