@@ -13,6 +13,7 @@ const BY_PREFIX: Array<[RegExp, number]> = [
   [/^IDEMPOTENCY\.IN_PROGRESS$/, 409],
   [/^PERIOD\.CLOSED$/, 409],
   [/^LEDGER\.OVERDRAW$/, 409],
+  [/^SITESPEC\.(NAME_TAKEN|STALE)$/, 409],
 ];
 
 /** 422 for bad input, 404/409 for state conflicts; any other expected refusal is a 422 with its code. */
