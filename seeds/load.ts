@@ -28,8 +28,8 @@ import { GaugeSchema, TankSchema, TransferSchema } from "@/lib/tank/tank.schema"
 import { createTank, recordGauge, transferToTank } from "@/lib/tank/tank.service";
 import { BatchCompleteSchema, BatchPlanSchema, BatchStartSchema, ReagentLotSchema } from "@/lib/batch/batch.schema";
 import { completeBatch, planBatch, receiveReagent, startBatch } from "@/lib/batch/batch.service";
-import { QcResultSchema, ShipmentSchema } from "@/lib/product/product.schema";
-import { decideProductLot, recordQcResult, ReleaseSchema, shipProduct } from "@/lib/product/product.service";
+import { ProductDecisionSchema, QcResultSchema, ShipmentSchema } from "@/lib/product/product.schema";
+import { decideProductLot, recordQcResult, shipProduct } from "@/lib/product/product.service";
 import { DisposalSchema, WasteContainerSchema } from "@/lib/waste/container.schema";
 import { openWasteContainer, recordDisposal } from "@/lib/waste/container.service";
 import { AccountingPeriodSchema } from "@/lib/period/period.schema";
@@ -53,7 +53,7 @@ const HANDLERS: Record<Exclude<Op["kind"], "closePeriod">, Handler> = {
   startBatch: { schema: BatchStartSchema, apply: startBatch },
   completeBatch: { schema: BatchCompleteSchema, apply: completeBatch },
   qc: { schema: QcResultSchema, apply: recordQcResult },
-  decideProduct: { schema: ReleaseSchema, apply: decideProductLot },
+  decideProduct: { schema: ProductDecisionSchema, apply: decideProductLot },
   ship: { schema: ShipmentSchema, apply: shipProduct },
   wasteContainer: { schema: WasteContainerSchema, apply: openWasteContainer },
   disposal: { schema: DisposalSchema, apply: recordDisposal },
