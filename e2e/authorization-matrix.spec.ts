@@ -27,6 +27,9 @@ const MATRIX: Record<string, Role[] | "public"> = {
   "/api/periods/reopen": ["COMPLIANCE"],
   "/api/grid/save": ["COLLECTOR", "PRODUCTION"],
   "/api/grid/import": ["PRODUCTION"],
+  "/api/products/qc": ["PRODUCTION", "COMPLIANCE"],
+  "/api/products/spec": ["COMPLIANCE"],
+  "/api/products/decisions": ["COMPLIANCE"],
 };
 const COMPUTE_PREFIX = "/api/compute/"; // pure computations: any signed-in user
 
@@ -96,6 +99,9 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   reverseMovementAction: ["PRODUCTION"],
   voidLabResultAction: ["PRODUCTION"],
   setOwnUnitsAction: ANY,
+  recordQcResultAction: ["PRODUCTION", "COMPLIANCE"],
+  chooseProductSpecAction: ["COMPLIANCE"],
+  decideProductLotAction: ["COMPLIANCE"],
 };
 
 interface ActionEntry { id: string; name: string; page: string }
