@@ -15,6 +15,7 @@ const ITEMS: ReadonlyArray<readonly [string, string]> = [
   ["/plan", "Plan a batch"],
   ["/batches", "Batches"],
   ["/products", "Product lots"],
+  ["/specs", "Specifications"],
   ["/shipments", "Shipments"],
   ["/waste", "Waste"],
   ["/trace", "Trace"],
@@ -23,6 +24,7 @@ const ITEMS: ReadonlyArray<readonly [string, string]> = [
   ["/ledger", "Ledger"],
   ["/admin/users", "Accounts"],
   ["/grid", "Grid"],
+  ["/references", "References"],
 ];
 
 export function MainNav() {

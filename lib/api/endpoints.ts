@@ -5,6 +5,7 @@ import { LAB_ENDPOINTS } from "@/lib/api/endpoints/lab";
 import { TRACE_ENDPOINTS } from "@/lib/api/endpoints/trace";
 import { RECORD_ENDPOINTS } from "@/lib/api/endpoints/records";
 import { GRID_ENDPOINTS } from "@/lib/api/endpoints/grid";
+import { SPEC_ENDPOINTS } from "@/lib/api/endpoints/specs";
 import { PRODUCT_ENDPOINTS } from "@/lib/api/endpoints/products";
 
-export const ENDPOINTS: EndpointDoc[] = [...RECORD_ENDPOINTS, ...LAB_ENDPOINTS, ...TRACE_ENDPOINTS, ...GRID_ENDPOINTS, ...PRODUCT_ENDPOINTS];
+export const ENDPOINTS: EndpointDoc[] = [...RECORD_ENDPOINTS, ...LAB_ENDPOINTS, ...TRACE_ENDPOINTS, ...GRID_ENDPOINTS, ...PRODUCT_ENDPOINTS, ...SPEC_ENDPOINTS];

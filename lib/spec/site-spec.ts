@@ -84,3 +84,9 @@ export function applySiteLimits(base: Spec, limits: SiteLimits, meta: SiteSpecMe
     }),
   };
 }
+
+/** "Water and sediment ≤ 0.03 % volume; …" — the limits a site specification changed. */
+export function siteLimitsText(spec: Spec): string {
+  const changed = spec.properties.filter((p) => p.siteLimit);
+  return changed.length === 0 ? "same limits as the edition" : changed.map((p) => `${p.label} ${limitText(p)}`).join("; ");
+}
