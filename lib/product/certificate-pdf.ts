@@ -24,8 +24,9 @@ const COLUMNS: ReadonlyArray<readonly [keyof Pick<CertificateRow, "property" | "
 ];
 
 const REPLACEMENTS: ReadonlyArray<readonly [RegExp, string]> = [
-  [/≤\s*(\S+)/g, "$1 max"],
-  [/≥\s*(\S+)/g, "$1 min"],
+  // "≤ 0.2 % mass or …" → "0.2 % mass max or …": the word goes after the figure and its unit.
+  [/≤\s*([^,;()]+?)(?=\s+or\s|[,;)]|$)/g, "$1 max"],
+  [/≥\s*([^,;()]+?)(?=\s+or\s|[,;)]|$)/g, "$1 min"],
   [/[−–—‑]/g, "-"],
   [/[‘’]/g, "'"],
   [/[“”]/g, '"'],

@@ -99,7 +99,7 @@ export function ResultHistory({ qc, labels, timeZone }: { qc: readonly QcView[];
 export function QcEntryForm({ code, spec, nextProperty, nowLocal }: { code: string; spec: Spec; nextProperty: string; nowLocal: string }) {
   const options = spec.properties.map((p) => [p.key, `${p.label}${p.unit ? ` (${p.unit})` : ""}`] as const);
   return (
-    <ActionForm action={recordQcResultAction} submitLabel="Save result" label="Enter a QC result" hidden={{ productLotCode: code }}>
+    <ActionForm action={recordQcResultAction} submitLabel="Save result" label="Enter a QC result" hidden={{ productLotCode: code }} keepValues>
       <Field name="property" label="Property" type="select" options={options} defaultValue={nextProperty} />
       <Field name="value" label="Result" type="number" hint="In the unit shown beside the property; a class as its number (copper strip No. 1 → 1)." />
       <Field name="method" label="Test method" hint="Leave empty for the method the specification names." />
