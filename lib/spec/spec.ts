@@ -86,7 +86,8 @@ export interface LotJudgement {
 }
 
 function fmt(n: number, decimals: number | undefined): string {
-  return decimals === undefined ? String(n) : n.toFixed(decimals);
+  const text = decimals === undefined ? String(n) : n.toFixed(decimals);
+  return text.replace(/^-/, "−"); // a printed minus sign, as the standards write it
 }
 
 function withUnit(text: string, unit: string): string {

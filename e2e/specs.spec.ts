@@ -1,0 +1,63 @@
+import { expect, test } from "@playwright/test";
+import { signIn } from "./support/sign-in";
+
+// A buyer wants drier fuel than the edition asks for: compliance copies ASTM D6751-23a No. 2-B S15 into
+// the site's own specification with a tighter water-and-sediment limit (published: 0.050 % volume max,
+// ASTM D6751-23a Table 1), then tightens it again as version 2. Version 1 stays on record.
+test("compliance copies a built-in grade with a tighter water limit, then makes version 2", async ({ page }) => {
+  const name = `Buyer tighter water ${Date.now() % 1_000_000}`;
+  await signIn(page, "compliance.nell", "/specs");
+  await page.getByLabel("Copy from").selectOption({ label: "ASTM D6751-23a No. 2-B S15" });
+  await page.getByRole("button", { name: "Show its limits" }).click();
+  const form = page.getByRole("form", { name: "New site specification" });
+  await expect(form.getByLabel("Water and sediment, upper limit")).toHaveValue("0.05");
+  await form.getByLabel("Name", { exact: true }).fill(name);
+  // Looser than the edition is refused beside the field, and what was typed stays.
+  await form.getByLabel("Water and sediment, upper limit").fill("0.060");
+  await form.getByLabel("Reason").fill("Buyer contract, clause 4: water and sediment");
+  await form.getByRole("button", { name: "Save as version 1" }).click();
+  await expect(form.locator(".field-error")).toContainText("may tighten it, not loosen");
+  await expect(form.getByLabel("Name", { exact: true })).toHaveValue(name);
+  await form.getByLabel("Water and sediment, upper limit").fill("0.030");
+  await form.getByRole("button", { name: "Save as version 1" }).click();
+  await expect(page.getByRole("status")).toHaveText(`${name} version 1 saved.`);
+  await page.screenshot({ path: "/tmp/specs.png", fullPage: false });
+
+  const row1 = page.getByRole("row").filter({ has: page.getByRole("link", { name }) });
+  await expect(row1).toContainText("Water and sediment ≤ 0.030 % volume");
+  await row1.getByRole("link", { name }).click();
+  await expect(page.getByRole("heading", { level: 1 })).toContainText(name);
+  await expect(page.getByText("1 (current)")).toBeVisible();
+  const next = page.getByRole("form", { name: `New version of ${name}` });
+  await expect(next.getByLabel("Water and sediment, upper limit")).toHaveValue("0.03");
+  await next.getByLabel("Water and sediment, upper limit").fill("0.025");
+  await next.getByLabel("Reason").fill("Buyer tightened the clause for winter deliveries");
+  await next.getByRole("button", { name: "Save as version 2" }).click();
+  await expect(page.getByRole("status")).toHaveText(`${name} version 2 saved.`);
+  await page.screenshot({ path: "/tmp/spec-version.png", fullPage: true });
+
+  await page.goto("/specs");
+  const rows = page.getByRole("row").filter({ has: page.getByRole("link", { name }) });
+  await expect(rows).toHaveCount(2);
+  await expect(rows.nth(0)).toContainText("≤ 0.030 % volume");
+  await expect(rows.nth(1)).toContainText("2 (current)");
+  await expect(rows.nth(1)).toContainText("≤ 0.025 % volume");
+
+  // The confidence mark beside a limit leads to its published source.
+  await page.getByRole("row", { name: /Acid number/ }).first().getByRole("link", { name: "published value" }).click();
+  await expect(page).toHaveURL(/\/references#astm-d6751-23a-acid-number$/);
+  await expect(page.locator("#astm-d6751-23a-acid-number")).toBeVisible();
+  await page.screenshot({ path: "/tmp/references.png", fullPage: false });
+});
+
+test("a production user sees the specifications but cannot write a site specification", async ({ page, baseURL }) => {
+  await signIn(page, "production.tess", "/specs");
+  await expect(page.getByRole("heading", { name: "Specifications", level: 1 })).toBeVisible();
+  await expect(page.getByText("Site specifications are written by compliance staff.")).toBeVisible();
+  await expect(page.getByRole("form", { name: "New site specification" })).toHaveCount(0);
+  const r = await page.request.post("/api/specs", {
+    headers: { "idempotency-key": `spec-${Date.now()}`, origin: baseURL! },
+    data: { baseKey: "astm-d6751-23a/no-2-b-s15", name: "Not allowed", limits: { "water-sediment": { min: null, max: 0.03 } }, reason: "Trying" },
+  });
+  expect(r.status()).toBe(403);
+});
