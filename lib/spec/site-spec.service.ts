@@ -1,12 +1,12 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
-import type { Db } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/database/connect";
 import { failMany } from "@/lib/errors";
 import type { Result } from "@/lib/errors";
 import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
 import { parseInput } from "@/lib/ledger/parse";
 import type { Actor } from "@/lib/site/actor";
-import { getBuiltInSpec } from "@/lib/spec/spec";
+import { getBuiltInSpec, listBuiltInSpecs } from "@/lib/spec/spec";
 import type { Spec } from "@/lib/spec/spec";
 import { applySiteLimits, changedLimits, siteLimitIssues } from "@/lib/spec/site-spec";
 import { parseSiteSpecKey, SiteSpecInputSchema, siteSpecKey } from "@/lib/spec/site-spec.schema";
@@ -76,7 +76,7 @@ export function resolveSiteSpec(row: SiteSpecRow): Spec | null {
  * Resolves a specification key: a built-in edition and grade ("astm-d6751-23a/no-2-b-s15") or one
  * version of a site specification ("site:<id>", only the site's own).
  */
-export async function getSpecByKey(db: Db, siteId: number, key: string): Promise<Spec | null> {
+export async function getSpecByKey(db: Db | Tx, siteId: number, key: string): Promise<Spec | null> {
   const builtIn = getBuiltInSpec(key);
   if (builtIn !== null) return builtIn;
   const id = parseSiteSpecKey(key);
@@ -93,4 +93,17 @@ export interface SiteSpecView {
 /** Every version of the site's specifications with what each resolves to. */
 export async function listSiteSpecViews(db: Db, siteId: number): Promise<SiteSpecView[]> {
   return (await listSiteSpecs(db, siteId)).map((row) => ({ row, spec: resolveSiteSpec(row) }));
+}
+
+/**
+ * Every specification a product lot can be judged against, for a choice list: the built-in editions and
+ * grades, then the current version of each site specification.
+ */
+export async function listSpecChoices(db: Db, siteId: number): Promise<Array<{ key: string; label: string }>> {
+  const builtIn = listBuiltInSpecs().map((s) => ({ key: s.key, label: `${s.edition} ${s.grade}` }));
+  const rows = await listSiteSpecs(db, siteId);
+  const current = new Map<string, SiteSpecRow>();
+  for (const r of rows) if ((current.get(r.name)?.version ?? 0) < r.version) current.set(r.name, r);
+  const site = [...current.values()].filter((r) => getBuiltInSpec(r.baseKey) !== null).map((r) => ({ key: siteSpecKey(r.id), label: `${r.name} (site, version ${r.version})` }));
+  return [...builtIn, ...site];
 }

@@ -3,7 +3,7 @@ import type { TestDb } from "./support/test-db";
 import { createTestDb, PROVIDERS } from "./support/test-db";
 import type { TestPlant } from "./support/plant";
 import { createTestPlant } from "./support/plant";
-import { getSpecByKey, listSiteSpecViews, saveSiteSpec } from "@/lib/spec/site-spec.service";
+import { getSpecByKey, listSiteSpecViews, listSpecChoices, saveSiteSpec } from "@/lib/spec/site-spec.service";
 import { judgeLot } from "@/lib/spec/spec";
 import { listRecordHistory } from "@/lib/audit/audit.store";
 import type { Result } from "@/lib/errors";
@@ -82,5 +82,9 @@ describe.each(PROVIDERS)("site specifications on %s", (provider) => {
     expect(await getSpecByKey(t.db, plant.siteId + 1000, s.key)).toBeNull();
     expect(await getSpecByKey(t.db, plant.siteId, "site:999999")).toBeNull();
     expect(await getSpecByKey(t.db, plant.siteId, "site:abc")).toBeNull();
+    // The choice list offers the built-in grades and the current version of each site specification.
+    const choices = await listSpecChoices(t.db, plant.siteId);
+    expect(choices.filter((c) => c.key.startsWith("site:")).map((c) => c.label)).toEqual(["Buyer tighter water (site, version 2)", "Winter grade (site, version 1)"]);
+    expect(choices).toHaveLength(7 + 2);
   });
 });
