@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { listProductLots, resolveSpec } from "@/lib/product/product.store";
+import { getSpecByKey } from "@/lib/spec/site-spec.service";
+import { listProductLots } from "@/lib/product/product.store";
 import type { ProductLotRow } from "@/lib/product/product.store";
 import { judgeRecords } from "@/lib/product/certificate";
 import type { Spec } from "@/lib/spec/spec";
@@ -47,7 +48,7 @@ export default async function ProductsPage({ searchParams }: { searchParams: Pro
   const page = pageParam((await searchParams).page);
   const { rows, total } = await listProductLots(db, site.id, { skip: (page - 1) * PAGE_SIZE, take: PAGE_SIZE });
   const specs = new Map<string, Spec | null>();
-  for (const key of new Set(rows.map((r) => r.specKey))) specs.set(key, await resolveSpec(db, site.id, key));
+  for (const key of new Set(rows.map((r) => r.specKey))) specs.set(key, await getSpecByKey(db, site.id, key));
   const judged: Row[] = rows.map((r) => {
     const spec = specs.get(r.specKey) ?? null;
     if (spec === null) return { ...r, specName: "", missing: 0, failing: 0, tested: r.qc.length > 0 };

@@ -3,7 +3,8 @@ import type { Db } from "@/lib/database/connect";
 import { buildCertificate } from "@/lib/product/certificate";
 import type { CertificateData } from "@/lib/product/certificate";
 import { renderCertificatePdf } from "@/lib/product/certificate-pdf";
-import { getProductLotDetail, resolveSpec } from "@/lib/product/product.store";
+import { getSpecByKey } from "@/lib/spec/site-spec.service";
+import { getProductLotDetail } from "@/lib/product/product.store";
 import type { ProductLotDetail } from "@/lib/product/product.store";
 import { getSiteById } from "@/lib/site/site.store";
 import type { Spec } from "@/lib/spec/spec";
@@ -20,7 +21,7 @@ export interface ProductLotQc {
 export async function loadProductLotQc(db: Db, siteId: number, code: string, now: Date): Promise<ProductLotQc | null> {
   const [detail, site] = await Promise.all([getProductLotDetail(db, siteId, code), getSiteById(db, siteId)]);
   if (!detail || !site) return null;
-  const spec = await resolveSpec(db, siteId, detail.specKey);
+  const spec = await getSpecByKey(db, siteId, detail.specKey);
   const certificate =
     spec === null
       ? null

@@ -14,7 +14,8 @@ import { currentResults, judgeValue } from "@/lib/spec/spec";
 import type { Spec, Verdict } from "@/lib/spec/spec";
 import { toGrams, toMillilitres } from "@/lib/quantity/units";
 import type { Actor } from "@/lib/site/actor";
-import { getProductState, insertQcResult, insertShipment, resolveSpec, setProductDecision, setProductSpec } from "@/lib/product/product.store";
+import { getSpecByKey } from "@/lib/spec/site-spec.service";
+import { getProductState, insertQcResult, insertShipment, setProductDecision, setProductSpec } from "@/lib/product/product.store";
 import type { ProductState } from "@/lib/product/product.store";
 
 function shortSpecRef(spec: Spec): string {
@@ -27,7 +28,7 @@ async function requireLot(tx: Tx, actor: Actor, code: string, field: string): Pr
 }
 
 async function requireLotSpec(tx: Tx, actor: Actor, lot: ProductState, code: string, field: string): Promise<Spec> {
-  const spec = await resolveSpec(tx, actor.siteId, lot.specKey);
+  const spec = await getSpecByKey(tx, actor.siteId, lot.specKey);
   if (spec === null) reject("PRODUCT.NO_SPEC", `Product lot ${code} has no specification; choose one first`, field);
   return spec;
 }
@@ -81,7 +82,7 @@ export async function chooseProductSpec(db: Db, actor: Actor, input: unknown): P
   return runInTransaction(db, async (tx) => {
     const lot = await requireLot(tx, actor, c.productLotCode, "productLotCode");
     if (lot.status !== "HELD") reject("PRODUCT.DECIDED", `Product lot ${c.productLotCode} is ${labelOf(lot.status).toLowerCase()}; put it on hold before changing its specification`, "specKey");
-    const spec = await resolveSpec(tx, actor.siteId, c.specKey);
+    const spec = await getSpecByKey(tx, actor.siteId, c.specKey);
     if (spec === null) reject("PRODUCT.UNKNOWN_SPEC", `Specification: ${c.specKey} is not a known edition and grade or site specification`, "specKey");
     await setProductSpec(tx, lot.id, spec.key);
     await appendAudit(tx, actor, { action: "CHANGE", entity: "ProductLot", entityKey: c.productLotCode, before: { specKey: lot.specKey }, after: { specKey: spec.key } });

@@ -3,9 +3,7 @@ import type { Db, Tx } from "@/lib/database/connect";
 import { listHolderMovements, toHolderKind } from "@/lib/ledger/movement.store";
 import type { HolderRef, MovementView } from "@/lib/ledger/movement.store";
 import type { QcRecord } from "@/lib/product/certificate";
-import { getBuiltInSpec, listBuiltInSpecs } from "@/lib/spec/spec";
 import { DEFAULT_PRODUCT_SPEC_KEY } from "@/lib/product/spec-default";
-import type { Spec } from "@/lib/spec/spec";
 
 export interface ProductLotRow {
   code: string;
@@ -264,13 +262,3 @@ export async function insertShipment(
   return tx.shipment.create({ data: s, select: { id: true, documentNo: true } });
 }
 
-/** The specification a key names: a built-in edition and grade, or one of the site's own specifications. */
-export async function resolveSpec(_db: Db | Tx, _siteId: number, key: string): Promise<Spec | null> {
-  if (key === "") return null;
-  return getBuiltInSpec(key);
-}
-
-/** The specifications a lot can be judged against, as [key, name] for a choice list. */
-export async function listSpecChoices(_db: Db, _siteId: number): Promise<Array<readonly [string, string]>> {
-  return listBuiltInSpecs().map((s) => [s.key, `${s.edition} ${s.grade}`] as const);
-}

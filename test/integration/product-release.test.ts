@@ -8,6 +8,7 @@ import { chooseProductSpec, decideProductLot, recordQcResult } from "@/lib/produ
 import { loadProductLotQc, productCertificatePdf } from "@/lib/product/certificate.service";
 import { DEFAULT_PRODUCT_SPEC_KEY } from "@/lib/product/spec-default";
 import { listRecordHistory } from "@/lib/audit/audit.store";
+import { saveSiteSpec } from "@/lib/spec/site-spec.service";
 import { statusFor } from "@/lib/http";
 import type { Result } from "@/lib/errors";
 import { demoQcResults } from "@/seeds/qc";
@@ -136,6 +137,20 @@ describe.each(PROVIDERS)("QC and release of product lots on %s", (provider) => {
     expect(refusal(await chooseProductSpec(t.db, plant.compliance, { productLotCode: "P-D", specKey: "no-such/spec" }))).toMatchObject({ code: "PRODUCT.UNKNOWN_SPEC", field: "specKey" });
     expect(value(await chooseProductSpec(t.db, plant.compliance, { productLotCode: "P-D", specKey: DEFAULT_PRODUCT_SPEC_KEY })).releasable).toBe(true);
     value(await decideProductLot(t.db, plant.compliance, { productLotCode: "P-D", decision: "RELEASE" }));
+  });
+
+  it("judges against a site specification's tighter limits and names it on the certificate", async () => {
+    await productLot("P-F");
+    for (const r of passing("P-F")) value(await recordQcResult(t.db, plant.production, r.property === "acid-number" ? { ...r, value: 0.45 } : r));
+    const site = value(await saveSiteSpec(t.db, plant.compliance, { baseKey: DEFAULT_PRODUCT_SPEC_KEY, name: "Harbour buyer", limits: { "acid-number": { min: null, max: 0.4 } }, reason: "Buyer contract clause 4" }));
+    // ASTM D6751-23a Table 1 allows 0.50 mg KOH/g; the site's own copy allows 0.40, so 0.45 now fails.
+    expect(value(await chooseProductSpec(t.db, plant.compliance, { productLotCode: "P-F", specKey: site.key })).releasable).toBe(false);
+    expect(refusal(await decideProductLot(t.db, plant.compliance, { productLotCode: "P-F", decision: "RELEASE" })).message).toMatch(/out of limits: acid number/);
+    const view = await loadProductLotQc(t.db, plant.siteId, "P-F", TESTED);
+    expect(view?.certificate?.specText).toBe("Harbour buyer, version 1 (site specification based on ASTM D6751-23a No. 2-B S15)");
+    expect(value(await qc("P-F", "acid-number", 0.38)).verdict).toBe("PASS");
+    expect((await t.db.qcResult.findFirstOrThrow({ where: { property: "acid-number", value: 0.38 } })).specRef).toBe("Harbour buyer v1");
+    value(await decideProductLot(t.db, plant.compliance, { productLotCode: "P-F", decision: "RELEASE" }));
   });
 
   it("holds and rejects with a reason; a released lot can be put back on hold", async () => {

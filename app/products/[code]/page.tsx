@@ -4,7 +4,7 @@ import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/ledger/kinds";
 import { getMadeOf } from "@/lib/feedstock/lot-flow.service";
 import { loadProductLotQc } from "@/lib/product/certificate.service";
-import { listSpecChoices } from "@/lib/product/product.store";
+import { listSpecChoices } from "@/lib/spec/site-spec.service";
 import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
 import { kg, kgExact, litres, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
@@ -61,7 +61,7 @@ export default async function ProductLotPage({ params }: Props) {
   const { detail: p, spec, certificate: c } = qc;
   const [madeOf, specChoices] = await Promise.all([
     p.incoming.length > 0 ? getMadeOf(db, site.id, p.holderId, user.now) : Promise.resolve({ totalG: 0, shares: [], order: "dated" as const }),
-    listSpecChoices(db, site.id),
+    listSpecChoices(db, site.id).then((list) => list.map((c) => [c.key, c.label] as const)),
   ]);
   const tz = site.timeZone;
   const shipments = p.outgoing.filter((m) => m.to.kind === "SHIPMENT");
