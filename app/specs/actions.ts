@@ -1,5 +1,6 @@
 "use server";
 import { revalidatePath } from "next/cache";
+import { redirect } from "next/navigation";
 import { getDb } from "@/lib/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { saveSiteSpec } from "@/lib/spec/site-spec.service";
@@ -53,5 +54,6 @@ export async function saveSiteSpecAction(prev: FormState, form: FormData): Promi
   if (!r.ok) return refused(prev, values, r.issues, known, renameField);
   revalidatePath("/specs");
   revalidatePath("/specs/site/[id]", "page");
-  return { status: "saved", message: `${r.value.name} version ${r.value.version} saved.`, values: {}, errors: {}, seq: prev.seq + 1 };
+  // The saved version's own page: the version this form started from is no longer current, so its form is gone.
+  redirect(`/specs/site/${r.value.id}?saved=1`);
 }

@@ -24,7 +24,7 @@ function columns(spec: Spec, base: Spec): Array<Column<SpecProperty>> {
   ];
 }
 
-export default async function SiteSpecPage({ params }: { params: Promise<{ id: string }> }) {
+export default async function SiteSpecPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ saved?: string | string[] }> }) {
   const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const id = Number((await params).id);
@@ -35,8 +35,14 @@ export default async function SiteSpecPage({ params }: { params: Promise<{ id: s
   const base = getBuiltInSpec(row.baseKey);
   const [latest, customers] = await Promise.all([getLatestSiteSpec(db, site.id, row.name), listCustomerChoices(db, site.id)]);
   const isLatest = latest?.version === row.version;
+  const justSaved = (await searchParams).saved === "1";
   return (
     <>
+      {justSaved ? (
+        <p className="form-ok" role="status">
+          {row.name} version {row.version} saved.
+        </p>
+      ) : null}
       <RecordHeader
         kind="Site specification"
         number={row.name}
