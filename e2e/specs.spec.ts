@@ -1,4 +1,6 @@
+import AxeBuilder from "@axe-core/playwright";
 import { expect, test } from "@playwright/test";
+import type { Page } from "@playwright/test";
 import { signIn } from "./support/sign-in";
 
 // The first signed-in page of a fresh server starts the site's trace index (a whole-ledger replay);
@@ -13,6 +15,12 @@ test.beforeAll(async ({ playwright, baseURL }) => {
 // A buyer wants drier fuel than the edition asks for: compliance copies ASTM D6751-23a No. 2-B S15 into
 // the site's own specification with a tighter water-and-sediment limit (published: 0.050 % volume max,
 // ASTM D6751-23a Table 1), then tightens it again as version 2. Version 1 stays on record.
+/** WCAG 2.1 AA as checked by axe-core: no serious or critical violations on the page as it stands. */
+async function expectNoSeriousViolations(page: Page): Promise<void> {
+  const results = await new AxeBuilder({ page }).analyze();
+  expect(results.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
+}
+
 test("compliance copies a built-in grade with a tighter water limit, then makes version 2", async ({ page }) => {
   const name = `Buyer tighter water ${Date.now() % 1_000_000}`;
   await signIn(page, "compliance.nell", "/specs");
@@ -20,6 +28,7 @@ test("compliance copies a built-in grade with a tighter water limit, then makes 
   await page.getByRole("button", { name: "Show its limits" }).click();
   const form = page.getByRole("form", { name: "New site specification" });
   await expect(form.getByLabel("Water and sediment, upper limit")).toHaveValue("0.05");
+  await expectNoSeriousViolations(page);
   await form.getByLabel("Name", { exact: true }).fill(name);
   // Looser than the edition is refused beside the field, and what was typed stays.
   await form.getByLabel("Water and sediment, upper limit").fill("0.060");
@@ -42,6 +51,7 @@ test("compliance copies a built-in grade with a tighter water limit, then makes 
   await next.getByRole("button", { name: "Save as version 2" }).click();
   await expect(page.getByRole("status")).toHaveText(`${name} version 2 saved.`);
   await page.screenshot({ path: "/tmp/spec-version.png", fullPage: true });
+  await expectNoSeriousViolations(page);
 
   await expect(page.getByText("2 (current)")).toBeVisible();
   await page.goto("/specs");
@@ -57,6 +67,7 @@ test("compliance copies a built-in grade with a tighter water limit, then makes 
   await expect(page).toHaveURL(/\/references#astm-d6751-23a-acid-number$/);
   await expect(page.locator("#astm-d6751-23a-acid-number")).toBeVisible();
   await page.screenshot({ path: "/tmp/references.png", fullPage: false });
+  await expectNoSeriousViolations(page);
 });
 
 test("a production user sees the specifications but cannot write a site specification", async ({ page, baseURL }) => {
