@@ -56,7 +56,7 @@ function rng(seed: number): () => number {
 
 const DAY = 86_400_000;
 /** Product lots of the last days still await their QC results (for the release screens to show). */
-const QC_PENDING_DAYS = 6;
+const QC_PENDING_DAYS = 10;
 /** The one demo lot whose results fail its specification (the fifth lot tested). */
 const FAILING_QC_LOT = 5;
 const r1 = (x: number) => Math.round(x * 10) / 10;
@@ -375,7 +375,7 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
       heldProducts.push({ code: `P-${code.slice(2)}`, grams: esterG, readyDay: day + 1 });
     }
 
-    // QC and release of yesterday's product (the last week's lots still await the lab), then into a
+    // QC and release of yesterday's product (the last ten days' lots still await the lab), then into a
     // product tank. Results are judged against the lot's specification; one lot fails and stays on hold.
     for (const p of heldProducts.filter((x) => x.readyDay <= day && day < days - QC_PENDING_DAYS)) {
       const at = t(day, 10);

@@ -11,6 +11,7 @@ import type { Spec } from "@/lib/spec/spec";
 
 /** Whether the lot could be released now, judged against its current specification. */
 export function ReleaseCheck({ c }: { c: CertificateData }) {
+  const lead = c.decision.status === "HELD" ? "Not ready to release." : c.decision.deviation ? "Released with a deviation; against the specification:" : "Against the current specification:";
   if (c.releasable) {
     return (
       <p className="release-check">
@@ -21,7 +22,7 @@ export function ReleaseCheck({ c }: { c: CertificateData }) {
   return (
     <div className="release-check">
       <p>
-        <StatusMark code={c.failing.length > 0 ? "FAIL" : "MISSING"} label={c.failing.length > 0 ? "Out of specification" : "Results missing"} /> Not ready to release.
+        <StatusMark code={c.failing.length > 0 ? "FAIL" : "MISSING"} label={c.failing.length > 0 ? "Out of specification" : "Results missing"} /> {lead}
       </p>
       <ul>
         {c.failing.length > 0 ? <li>Out of limits: {c.failing.join(", ")}</li> : null}
