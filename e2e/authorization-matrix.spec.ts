@@ -35,6 +35,10 @@ const MATRIX: Record<string, Role[] | "public"> = {
   "/api/waste/disposals": ["COMPLIANCE"],
   "/api/customers": ["COMPLIANCE"],
   "/api/shipments": ["COMPLIANCE"],
+  "/api/specs": ["COMPLIANCE"],
+  "/api/products/qc": ["PRODUCTION", "COMPLIANCE"],
+  "/api/products/spec": ["COMPLIANCE"],
+  "/api/products/decisions": ["COMPLIANCE"],
 };
 const COMPUTE_PREFIX = "/api/compute/"; // pure computations: any signed-in user
 
@@ -115,6 +119,10 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   createCustomerAction: ["COMPLIANCE"],
   changeCustomerAction: ["COMPLIANCE"],
   recordShipmentAction: ["COMPLIANCE"],
+  saveSiteSpecAction: ["COMPLIANCE"],
+  recordQcResultAction: ["PRODUCTION", "COMPLIANCE"],
+  chooseProductSpecAction: ["COMPLIANCE"],
+  decideProductLotAction: ["COMPLIANCE"],
 };
 
 interface ActionEntry { id: string; name: string; page: string }

@@ -23,6 +23,8 @@ const BY_PREFIX: Array<[RegExp, number]> = [
   [/^PERIOD\.ALREADY_CLOSED$/, 409],
   [/^WASTE\.(ALREADY_FULL|ALREADY_HAULED|CONTAINER_CLOSED)$/, 409],
   [/^(PRODUCT\.(ON_HOLD|NOT_RELEASED)|CUSTOMER\.INACTIVE)$/, 409],
+  [/^PRODUCT\.(NOT_RELEASABLE|DECIDED|NO_SPEC|NO_DEVIATION)$/, 409],
+  [/^SITESPEC\.(NAME_TAKEN|STALE)$/, 409],
 ];
 
 /** 422 for bad input, 404/409 for state conflicts; any other expected refusal is a 422 with its code. */

@@ -28,8 +28,8 @@ import { GaugeSchema, TankSchema, TransferSchema } from "@/lib/tank/tank.schema"
 import { createTank, recordGauge, transferToTank } from "@/lib/tank/tank.service";
 import { BatchCompleteSchema, BatchPlanSchema, BatchStartSchema, ReagentLotSchema } from "@/lib/batch/batch.schema";
 import { completeBatch, planBatch, receiveReagent, startBatch } from "@/lib/batch/batch.service";
-import { QcResultSchema } from "@/lib/product/product.schema";
-import { decideProductLot, recordQcResult, ReleaseSchema } from "@/lib/product/product.service";
+import { ProductDecisionSchema, QcResultSchema } from "@/lib/product/product.schema";
+import { decideProductLot, recordQcResult } from "@/lib/product/product.service";
 import { ShipmentRecordSchema } from "@/lib/shipment/shipment.schema";
 import { recordShipment } from "@/lib/shipment/shipment.service";
 import { CustomerSchema } from "@/lib/customer/customer.schema";
@@ -57,7 +57,7 @@ const HANDLERS: Record<Exclude<Op["kind"], "closePeriod">, Handler> = {
   startBatch: { schema: BatchStartSchema, apply: startBatch },
   completeBatch: { schema: BatchCompleteSchema, apply: completeBatch },
   qc: { schema: QcResultSchema, apply: recordQcResult },
-  decideProduct: { schema: ReleaseSchema, apply: decideProductLot },
+  decideProduct: { schema: ProductDecisionSchema, apply: decideProductLot },
   customer: { schema: CustomerSchema, apply: createCustomer },
   ship: { schema: ShipmentRecordSchema, apply: recordShipment },
   wasteContainer: { schema: WasteContainerSchema, apply: openWasteContainer },

@@ -7,9 +7,10 @@ import type { DeliveryLotInput, LabTestInput, LotFromPickupsInput } from "@/lib/
 import type { LotTitrationInput } from "@/lib/feedstock/titration.service";
 import type { GaugeInput, TankInput, TransferInput } from "@/lib/tank/tank.schema";
 import type { BatchCompleteInput, BatchPlanInput, BatchStartInput, ReagentLotInput } from "@/lib/batch/batch.schema";
-import type { QcResultInput } from "@/lib/product/product.schema";
+import type { ProductDecisionInput, QcResultInput } from "@/lib/product/product.schema";
 import type { ShipmentRecordInput } from "@/lib/shipment/shipment.schema";
 import type { CustomerInput } from "@/lib/customer/customer.schema";
+import { demoDecision, demoQcResults } from "@/seeds/qc";
 import type { DisposalInput, WasteContainerInput } from "@/lib/waste/container.schema";
 import type { AccountingPeriodInput } from "@/lib/period/period.schema";
 import type { MaterialKind } from "@/lib/ledger/kinds";
@@ -36,7 +37,7 @@ export type Op =
   | { kind: "startBatch"; at: Date; actor: Login; input: BatchStartInput }
   | { kind: "completeBatch"; at: Date; actor: Login; input: BatchCompleteInput }
   | { kind: "qc"; at: Date; actor: Login; input: QcResultInput }
-  | { kind: "decideProduct"; at: Date; actor: Login; input: { productLotCode: string; decision: "RELEASED" | "REJECTED" } }
+  | { kind: "decideProduct"; at: Date; actor: Login; input: ProductDecisionInput }
   | { kind: "customer"; at: Date; actor: Login; input: CustomerInput }
   | { kind: "ship"; at: Date; actor: Login; input: ShipmentRecordInput }
   | { kind: "wasteContainer"; at: Date; actor: Login; input: WasteContainerInput }
@@ -59,6 +60,10 @@ function rng(seed: number): () => number {
 const DAY = 86_400_000;
 /** Grams of a lot released in the demo's last days that stay in the lot for drum orders. */
 const KEPT_BACK_G = 400_000;
+/** Product lots of the last days still await their QC results (for the release screens to show). */
+const QC_PENDING_DAYS = 10;
+/** The one demo lot whose results fail its specification (the fifth lot tested). */
+const FAILING_QC_LOT = 5;
 const r1 = (x: number) => Math.round(x * 10) / 10;
 const r2 = (x: number) => Math.round(x * 100) / 100;
 const r3 = (x: number) => Math.round(x * 1000) / 1000;
@@ -199,6 +204,7 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
   const productTanks = ["P1", "P2"];
   let shipmentSeq = 0;
   const heldProducts: Array<{ code: string; grams: number; readyDay: number }> = [];
+  let qcSeq = 0;
 
   // ---- the days ------------------------------------------------------------------------------
   let lotSeq = 0;
@@ -378,24 +384,18 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
       heldProducts.push({ code: `P-${code.slice(2)}`, grams: esterG, readyDay: day + 1 });
     }
 
-    // QC and release of yesterday's product, then into a product tank.
-    for (const p of heldProducts.filter((x) => x.readyDay <= day && day < days - 1)) {
+    // QC and release of yesterday's product (the last ten days' lots still await the lab), then into a
+    // product tank. Results are judged against the lot's specification; one lot fails and stays on hold.
+    for (const p of heldProducts.filter((x) => x.readyDay <= day && day < days - QC_PENDING_DAYS)) {
       const at = t(day, 10);
-      const bad = rand() < 0.04;
-      // ASTM D6751-23a limits (facts.md §f.1).
-      const tests: Array<[string, string, number, string, number | undefined, number | undefined]> = [
-        ["ACID_NUMBER", "ASTM D664", r2(bad ? between(0.55, 0.8) : between(0.12, 0.42)), "mg KOH/g", undefined, 0.5],
-        ["FREE_GLYCERIN", "ASTM D6584", r3(between(0.004, 0.016)), "% mass", undefined, 0.02],
-        ["TOTAL_GLYCERIN", "ASTM D6584", r3(between(0.08, 0.21)), "% mass", undefined, 0.24],
-        ["WATER_SEDIMENT", "ASTM D2709", r3(between(0.005, 0.03)), "% volume", undefined, 0.05],
-        ["FLASH_POINT", "ASTM D93", r1(between(135, 170)), "°C", 93, undefined],
-      ];
-      for (const [property, method, value, unit, limitMin, limitMax] of tests) {
-        ops.push({ kind: "qc", at, actor: "compliance.nell", input: { productLotCode: p.code, property, method, value, unit, ...(limitMin === undefined ? {} : { limitMin }), ...(limitMax === undefined ? {} : { limitMax }), specRef: "ASTM D6751-23a", testedAt: at } });
-      }
+      rand(); // the draws the earlier five-result demo made, so the rest of the plant stays as it was
+      for (let i = 0; i < 5; i++) rand();
+      qcSeq++;
+      const fail = qcSeq === FAILING_QC_LOT;
+      for (const input of demoQcResults(p.code, at, fail)) ops.push({ kind: "qc", at, actor: "compliance.nell", input });
+      ops.push({ kind: "decideProduct", at: t(day, 11), actor: "compliance.nell", input: demoDecision(p.code, fail) });
       heldProducts.splice(heldProducts.indexOf(p), 1);
-      if (bad) continue; // stays on hold for rework
-      ops.push({ kind: "decideProduct", at: t(day, 11), actor: "compliance.nell", input: { productLotCode: p.code, decision: "RELEASED" } });
+      if (fail) continue; // stays on hold for re-processing
       const dest = productTanks.map((c) => tanks.get(c)!).filter((tk) => tk.stockG + p.grams <= tk.capacityG).sort((a, z) => a.stockG - z.stockG)[0];
       if (!dest) continue;
       // In the last days a little of each released lot is kept back in the lot for drum orders, so the

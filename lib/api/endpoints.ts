@@ -8,5 +8,7 @@ import { GRID_ENDPOINTS } from "@/lib/api/endpoints/grid";
 import { WASTE_ENDPOINTS } from "@/lib/api/endpoints/waste";
 import { TANK_ENDPOINTS } from "@/lib/api/endpoints/tanks";
 import { SHIPMENT_ENDPOINTS } from "@/lib/api/endpoints/shipments";
+import { SPEC_ENDPOINTS } from "@/lib/api/endpoints/specs";
+import { PRODUCT_ENDPOINTS } from "@/lib/api/endpoints/products";
 
-export const ENDPOINTS: EndpointDoc[] = [...LAB_ENDPOINTS, ...TRACE_ENDPOINTS, ...RECORD_ENDPOINTS, ...GRID_ENDPOINTS, ...WASTE_ENDPOINTS, ...TANK_ENDPOINTS, ...SHIPMENT_ENDPOINTS];
+export const ENDPOINTS: EndpointDoc[] = [...LAB_ENDPOINTS, ...TRACE_ENDPOINTS, ...RECORD_ENDPOINTS, ...GRID_ENDPOINTS, ...WASTE_ENDPOINTS, ...TANK_ENDPOINTS, ...SHIPMENT_ENDPOINTS, ...SPEC_ENDPOINTS, ...PRODUCT_ENDPOINTS];

@@ -33,6 +33,7 @@ export const READ_MATRIX: readonly ReadRule[] = [
   { path: "/plan", roles: PLANT, menu: "Plan a batch" },
   { path: "/batches", roles: PLANT, menu: "Batches" },
   { path: "/products", roles: PLANT, menu: "Product lots" },
+  { path: "/specs", roles: PLANT, menu: "Specifications" },
   { path: "/shipments", roles: OFFICE, menu: "Shipments" },
   { path: "/customers", roles: OFFICE, menu: "Customers" },
   { path: "/waste", roles: PLANT, menu: "Waste" },
@@ -44,6 +45,7 @@ export const READ_MATRIX: readonly ReadRule[] = [
   { path: "/history", roles: EVERYONE },
   { path: "/grid", roles: PLANT, menu: "Grid" },
   { path: "/admin", roles: [A], menu: "Accounts" },
+  { path: "/references", roles: PLANT, menu: "References" },
   { path: "/me", roles: EVERYONE },
   { path: "/login", roles: "public" },
   { path: "/collect/sw.js", roles: "public" },
@@ -57,6 +59,7 @@ export const READ_MATRIX: readonly ReadRule[] = [
   { path: "/api/waste", roles: PLANT },
   { path: "/api/grid", roles: PLANT },
   { path: "/api/batches", roles: PLANT },
+  { path: "/api/products", roles: PLANT },
 ];
 
 function covers(prefix: string, pathname: string): boolean {

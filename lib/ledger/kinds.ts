@@ -70,6 +70,7 @@ export const LABELS: Record<string, string> = {
   KOME_SOLUTION: "Potassium methoxide solution", H2SO4: "Sulfuric acid", WATER: "Water",
   PLANNED: "Planned", RUNNING: "Reacting", COMPLETE: "Finished", VOID: "Voided",
   HELD: "On hold", RELEASED: "Released",
+  PASS: "Pass", FAIL: "Fail", REPORTED: "Reported", NOT_JUDGED: "Not judged", MISSING: "Missing", SUPERSEDED: "Superseded",
   FILTER_MEDIA: "Spent filter media", METHANOL_RICH: "Methanol-rich liquid",
   OPEN: "Filling", FULL: "Full, awaiting haul", SHIPPED: "Hauled away",
   PICKUP: "Pickup", DELIVERY: "Delivery", LOT: "Feedstock lot", TANK: "Tank", BATCH: "Batch", PRODUCT_LOT: "Product lot",

@@ -2,6 +2,8 @@ import "server-only";
 import type { Db, Tx } from "@/lib/database/connect";
 import { listHolderMovements, toHolderKind } from "@/lib/ledger/movement.store";
 import type { HolderRef, MovementView } from "@/lib/ledger/movement.store";
+import type { QcRecord } from "@/lib/product/certificate";
+import { DEFAULT_PRODUCT_SPEC_KEY } from "@/lib/product/spec-default";
 
 export interface ProductLotRow {
   code: string;
@@ -11,8 +13,16 @@ export interface ProductLotRow {
   stockG: number;
   status: string;
   releasedAt: Date | null;
-  qcCount: number;
-  qcFailed: number;
+  specKey: string;
+  deviation: boolean;
+  /** Every QC result of the lot, superseded ones included (judged by the caller against the spec). */
+  qc: QcRecord[];
+}
+
+const QC_SELECT = { id: true, property: true, value: true, method: true, lab: true, reportNo: true, testedAt: true, supersedesId: true } as const;
+
+function toQcRecord(q: { id: number; property: string; value: number; method: string; lab: string; reportNo: string; testedAt: Date; supersedesId: number | null }): QcRecord {
+  return { id: q.id, property: q.property, value: q.value, method: q.method, lab: q.lab, reportNo: q.reportNo, testedAt: q.testedAt, supersedesId: q.supersedesId };
 }
 
 export async function listProductLots(db: Db, siteId: number, opts: { skip?: number; take?: number } = {}): Promise<{ rows: ProductLotRow[]; total: number }> {
@@ -23,7 +33,7 @@ export async function listProductLots(db: Db, siteId: number, opts: { skip?: num
       orderBy: [{ producedAt: "desc" }, { id: "desc" }],
       skip: opts.skip ?? 0,
       take: opts.take ?? 100,
-      include: { holder: { select: { stockG: true } }, batch: { select: { code: true } }, qc: { select: { pass: true } } },
+      include: { holder: { select: { stockG: true } }, batch: { select: { code: true } }, qc: { select: QC_SELECT } },
     }),
     db.productLot.count({ where }),
   ]);
@@ -37,32 +47,44 @@ export async function listProductLots(db: Db, siteId: number, opts: { skip?: num
       stockG: r.holder.stockG,
       status: r.status,
       releasedAt: r.releasedAt,
-      qcCount: r.qc.length,
-      qcFailed: r.qc.filter((q) => !q.pass).length,
+      specKey: r.specKey,
+      deviation: r.deviation,
+      qc: r.qc.map(toQcRecord),
     })),
   };
 }
 
-export interface QcView {
-  id: number;
-  property: string;
-  method: string;
-  value: number;
+/** A stored QC result with what was snapshotted at entry (limits, specification, verdict). */
+export interface QcView extends QcRecord {
   unit: string;
   limitMin: number | null;
   limitMax: number | null;
   specRef: string;
-  pass: boolean;
-  testedAt: Date;
+  /** The verdict at entry, against the specification chosen then. */
+  verdict: string;
+  recordedBy: string | null;
+  recordedAt: Date;
+  /** The later re-test that replaced this result, if any. */
+  supersededById: number | null;
 }
 
-export interface ProductLotDetail extends ProductLotRow {
+export interface ProductLotDetail extends Omit<ProductLotRow, "qc"> {
   holderId: number;
   batchStatus: string | null;
+  decisionReason: string;
+  decidedAt: Date | null;
+  decidedBy: string | null;
   qc: QcView[];
   incoming: MovementView[];
   /** Shipments and transfers out of the lot. */
   outgoing: MovementView[];
+}
+
+async function userNames(db: Db, ids: ReadonlyArray<number | null>): Promise<Map<number, string>> {
+  const wanted = [...new Set(ids.filter((i): i is number => i !== null))];
+  if (wanted.length === 0) return new Map();
+  const users = await db.user.findMany({ where: { id: { in: wanted } }, select: { id: true, fullName: true } });
+  return new Map(users.map((u) => [u.id, u.fullName]));
 }
 
 export async function getProductLotDetail(db: Db, siteId: number, code: string): Promise<ProductLotDetail | null> {
@@ -75,7 +97,8 @@ export async function getProductLotDetail(db: Db, siteId: number, code: string):
     },
   });
   if (!r) return null;
-  const moves = await listHolderMovements(db, r.holderId);
+  const [moves, names] = await Promise.all([listHolderMovements(db, r.holderId), userNames(db, [r.decidedById, ...r.qc.map((q) => q.recordedById)])]);
+  const supersededBy = new Map(r.qc.filter((q) => q.supersedesId !== null).map((q) => [q.supersedesId as number, q.id]));
   return {
     code: r.code,
     holderId: r.holderId,
@@ -86,19 +109,21 @@ export async function getProductLotDetail(db: Db, siteId: number, code: string):
     stockG: r.holder.stockG,
     status: r.status,
     releasedAt: r.releasedAt,
-    qcCount: r.qc.length,
-    qcFailed: r.qc.filter((q) => !q.pass).length,
+    specKey: r.specKey,
+    deviation: r.deviation,
+    decisionReason: r.decisionReason,
+    decidedAt: r.decidedAt,
+    decidedBy: r.decidedById === null ? null : (names.get(r.decidedById) ?? null),
     qc: r.qc.map((q) => ({
-      id: q.id,
-      property: q.property,
-      method: q.method,
-      value: q.value,
+      ...toQcRecord(q),
       unit: q.unit,
       limitMin: q.limitMin,
       limitMax: q.limitMax,
       specRef: q.specRef,
-      pass: q.pass,
-      testedAt: q.testedAt,
+      verdict: q.verdict || (q.pass ? "PASS" : "FAIL"),
+      recordedBy: q.recordedById === null ? null : (names.get(q.recordedById) ?? null),
+      recordedAt: q.recordedAt,
+      supersededById: supersededBy.get(q.id) ?? null,
     })),
     incoming: moves.incoming,
     outgoing: moves.outgoing,
@@ -172,23 +197,62 @@ export async function getShipmentDetail(db: Db, siteId: number, documentNo: stri
 
 // ---- writes used by lib/product/product.service.ts and lib/batch/batch.service.ts
 
-export async function insertProductLot(tx: Tx, p: { siteId: number; holderId: number; code: string; batchId: number; producedAt: Date; massG: number }): Promise<void> {
-  await tx.productLot.create({ data: { ...p, status: "HELD" } });
+
+export async function insertProductLot(tx: Tx, p: { siteId: number; holderId: number; code: string; batchId: number; producedAt: Date; massG: number; specKey?: string }): Promise<void> {
+  await tx.productLot.create({ data: { ...p, specKey: p.specKey ?? DEFAULT_PRODUCT_SPEC_KEY, status: "HELD" } });
 }
 
-export async function getProductState(tx: Tx, holderId: number): Promise<{ id: number; status: string; qc: Array<{ property: string; pass: boolean }> }> {
-  return tx.productLot.findUniqueOrThrow({ where: { holderId }, select: { id: true, status: true, qc: { select: { property: true, pass: true } } } });
+export interface ProductState {
+  id: number;
+  status: string;
+  specKey: string;
+  deviation: boolean;
+  decisionReason: string;
+  producedAt: Date;
+  qc: QcRecord[];
 }
 
-export async function insertQcResult(
+export async function getProductState(tx: Tx, holderId: number): Promise<ProductState> {
+  const r = await tx.productLot.findUniqueOrThrow({
+    where: { holderId },
+    select: { id: true, status: true, specKey: true, deviation: true, decisionReason: true, producedAt: true, qc: { select: QC_SELECT } },
+  });
+  return { ...r, qc: r.qc.map(toQcRecord) };
+}
+
+export interface QcDraft {
+  productLotId: number;
+  property: string;
+  method: string;
+  value: number;
+  unit: string;
+  limitMin: number | null;
+  limitMax: number | null;
+  specRef: string;
+  verdict: string;
+  pass: boolean;
+  lab: string;
+  reportNo: string;
+  testedAt: Date;
+  supersedesId: number | null;
+  recordedById: number;
+  recordedAt: Date;
+}
+
+export async function insertQcResult(tx: Tx, q: QcDraft): Promise<{ id: number }> {
+  return tx.qcResult.create({ data: q, select: { id: true } });
+}
+
+export async function setProductSpec(tx: Tx, id: number, specKey: string): Promise<void> {
+  await tx.productLot.update({ where: { id }, data: { specKey } });
+}
+
+export async function setProductDecision(
   tx: Tx,
-  q: { productLotId: number; property: string; method: string; value: number; unit: string; limitMin: number | null; limitMax: number | null; specRef: string; pass: boolean; testedAt: Date },
-): Promise<{ id: number; pass: boolean }> {
-  return tx.qcResult.create({ data: q, select: { id: true, pass: true } });
-}
-
-export async function setProductStatus(tx: Tx, id: number, status: string, releasedAt: Date | null): Promise<void> {
-  await tx.productLot.update({ where: { id }, data: { status, releasedAt } });
+  id: number,
+  d: { status: "HELD" | "RELEASED" | "REJECTED"; releasedAt: Date | null; decisionReason: string; deviation: boolean; decidedAt: Date; decidedById: number },
+): Promise<void> {
+  await tx.productLot.update({ where: { id }, data: d });
 }
 
 export async function insertShipment(
@@ -197,3 +261,4 @@ export async function insertShipment(
 ): Promise<{ id: number; documentNo: string }> {
   return tx.shipment.create({ data: s, select: { id: true, documentNo: true } });
 }
+

@@ -7,6 +7,9 @@ import { SeedError, validateScenario, writeScenario } from "@/seeds/load";
 import { indexLedger } from "@/lib/trace/ledger";
 import { replayLedger } from "@/lib/trace/genealogy";
 import type { HolderKind } from "@/lib/ledger/kinds";
+import { getBuiltInSpec } from "@/lib/spec/spec";
+import { judgeRecords } from "@/lib/product/certificate";
+import { DEFAULT_PRODUCT_SPEC_KEY } from "@/lib/product/spec-default";
 
 const ANCHOR = new Date("2026-12-02T00:00:00Z");
 
@@ -79,6 +82,21 @@ describe.each(PROVIDERS)("demo plant written through the services on %s", (provi
     expect(await t.db.feedstockLot.count({ where: { status: "QUARANTINED" } })).toBeGreaterThan(0);
     expect(await t.db.batch.count({ where: { status: "RUNNING" } })).toBe(1);
     expect(await t.db.batch.count({ where: { status: "PLANNED" } })).toBe(1);
+  });
+
+  it("judges the demo's QC by the built-in edition: released lots conform, exactly one lot fails and stays on hold", async () => {
+    const spec = getBuiltInSpec(DEFAULT_PRODUCT_SPEC_KEY);
+    if (!spec) throw new Error("default specification missing");
+    const lots = await t.db.productLot.findMany({ include: { qc: true } });
+    const judged = lots.map((l) => ({ ...l, j: judgeRecords(spec, l.qc) }));
+    const failing = judged.filter((l) => l.j.failing.length > 0);
+    // ASTM D6751-23a Table 1: acid number 0.50 mg KOH/g max; the demo's one failing lot is above it.
+    expect(failing.map((l) => ({ status: l.status, failing: l.j.failing }))).toEqual([{ status: "HELD", failing: ["acid-number"] }]);
+    expect(failing[0]?.decisionReason).toMatch(/Acid number .* above the 0\.50 maximum/);
+    const released = judged.filter((l) => l.status === "RELEASED");
+    expect(released.length).toBeGreaterThan(provider === "sqlite" ? 60 : 10);
+    for (const l of released) expect({ code: l.code, releasable: l.j.releasable, deviation: l.deviation, specKey: l.specKey }).toEqual({ code: l.code, releasable: true, deviation: false, specKey: DEFAULT_PRODUCT_SPEC_KEY });
+    expect(judged.filter((l) => l.status === "HELD" && l.qc.length === 0).length).toBeGreaterThanOrEqual(provider === "sqlite" ? 3 : 1);
   });
 
   it("keeps FFA titrations across the realistic range", async () => {

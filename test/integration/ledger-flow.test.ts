@@ -10,6 +10,7 @@ import { recordTitration } from "@/lib/feedstock/titration.service";
 import { transferToTank } from "@/lib/tank/tank.service";
 import { completeBatch, planBatch, receiveReagent, startBatch } from "@/lib/batch/batch.service";
 import { decideProductLot, recordQcResult, shipProduct } from "@/lib/product/product.service";
+import { demoQcResults } from "@/seeds/qc";
 import { openWasteContainer, recordDisposal } from "@/lib/waste/container.service";
 import { closePeriod, openPeriod, reopenPeriod } from "@/lib/period/period.service";
 import { DEFAULT_DENSITY_TABLE } from "@/lib/quantity/density";
@@ -144,11 +145,11 @@ describe.each(PROVIDERS)("movement ledger on %s", (provider) => {
   });
 
   it("releases product only after passing QC, then ships it", async () => {
-    expect(codes(await decideProductLot(t.db, plant.compliance, { productLotCode: "P-1", decision: "RELEASED" }))).toEqual([{ code: "PRODUCT.NO_QC", field: "decision" }]);
-    // ASTM D6751-23a acid number limit 0.50 mg KOH/g max.
-    value(await recordQcResult(t.db, plant.compliance, { productLotCode: "P-1", property: "ACID_NUMBER", method: "ASTM D664", value: 0.31, unit: "mg KOH/g", limitMax: 0.5, specRef: "ASTM D6751-23a", testedAt: "2026-02-13T09:00:00Z" }));
+    expect(codes(await decideProductLot(t.db, plant.compliance, { productLotCode: "P-1", decision: "RELEASE" }))).toEqual([{ code: "PRODUCT.NOT_RELEASABLE", field: "decision" }]);
+    // Every required property of ASTM D6751-23a No. 2-B S15 (the default specification), inside its Table 1 limits.
+    for (const r of demoQcResults("P-1", new Date("2026-02-13T09:00:00Z"), false)) value(await recordQcResult(t.db, plant.compliance, r));
     expect(codes(await shipProduct(t.db, plant.production, { documentNo: "BOL-1", customer: "C", shippedAt: "2026-02-13T10:00:00Z", fromKind: "PRODUCT_LOT", fromCode: "P-1", massKg: 100, volumeL: 113 }))).toEqual([{ code: "PRODUCT.NOT_RELEASED", field: "fromCode" }]);
-    value(await decideProductLot(t.db, plant.compliance, { productLotCode: "P-1", decision: "RELEASED" }));
+    value(await decideProductLot(t.db, plant.compliance, { productLotCode: "P-1", decision: "RELEASE" }));
     value(await transferToTank(t.db, plant.production, { fromKind: "PRODUCT_LOT", fromCode: "P-1", toTankCode: "P1", at: "2026-02-13T11:00:00Z", massKg: 780 }));
     value(await shipProduct(t.db, plant.production, { documentNo: "BOL-1", customer: "C", shippedAt: "2026-02-14T10:00:00Z", fromKind: "TANK", fromCode: "P1", massKg: 500, volumeL: 568 }));
     expect(await stock("TANK", "P1")).toBe(280_000);

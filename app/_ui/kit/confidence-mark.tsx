@@ -1,7 +1,7 @@
 import Link from "next/link";
 
 /**
- * How far a default can be relied on, in two plain words, linking to the sources page where the
+ * How far a default can be relied on, in two plain words, linking to the references page (/references) where the
  * published source and edition (or "common practice") of every default is listed.
  */
 export function ConfidenceMark({ level, anchor }: { level: "published" | "check"; anchor: string }) {

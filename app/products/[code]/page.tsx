@@ -3,12 +3,18 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/ledger/kinds";
 import { getMadeOf } from "@/lib/feedstock/lot-flow.service";
-import { getProductLotDetail } from "@/lib/product/product.store";
-import { kg, kgExact, litres, num, when } from "@/app/_ui/format";
+import { loadProductLotQc } from "@/lib/product/certificate.service";
+import { listSpecChoices } from "@/lib/spec/site-spec.service";
+import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import { kg, kgExact, litres, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
 import { MadeOf } from "@/app/_ui/made-of";
 import { loadSite } from "@/app/_ui/site";
-import { Empty, Facts, HolderLink, NoSite, PassFail, Status } from "@/app/_ui/ui";
+import { Empty, HistoryLink, HolderLink, NoSite } from "@/app/_ui/ui";
+import { DataTable, RecordHeader } from "@/app/_ui/kit";
+import type { Column } from "@/app/_ui/kit";
+import type { MovementView } from "@/lib/ledger/movement.store";
+import { DecisionForm, QcEntryForm, ReleaseCheck, ResultHistory, SpecChoiceForm, SpecResults } from "@/app/products/[code]/qc-sections";
 
 export const dynamic = "force-dynamic";
 
@@ -18,153 +24,125 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
   return { title: `Product lot ${codeParam((await params).code)}` };
 }
 
-function limits(min: number | null, max: number | null): string {
-  if (min !== null && max !== null) return `${num(min, 3)} – ${num(max, 3)}`;
-  if (min !== null) return `≥ ${num(min, 3)}`;
-  if (max !== null) return `≤ ${num(max, 3)}`;
-  return "report only";
+/** "2026-12-04T10:15" in the site's zone, for a datetime-local default. */
+function localNow(now: Date, timeZone: string): string {
+  return new Date(now.getTime() + getUtcOffsetMin(timeZone, now) * 60_000).toISOString().slice(0, 16);
+}
+
+function shipmentColumns(tz: string): Array<Column<MovementView>> {
+  return [
+    { key: "to", header: "Shipment", cell: (m) => <HolderLink holder={m.to} showKind={false} /> },
+    { key: "at", header: "Shipped", cell: (m) => when(m.at, tz) },
+    { key: "mass", header: "Mass", numeric: true, cell: (m) => kgExact(m.massG) },
+    { key: "volume", header: "Volume", numeric: true, cell: (m) => (m.volumeMl === null ? "—" : litres(m.volumeMl)) },
+  ];
+}
+
+function transferColumns(tz: string): Array<Column<MovementView>> {
+  return [
+    { key: "to", header: "To", cell: (m) => <HolderLink holder={m.to} /> },
+    { key: "at", header: "When", cell: (m) => when(m.at, tz) },
+    { key: "mass", header: "Mass", numeric: true, cell: (m) => kgExact(m.massG) },
+  ];
+}
+
+function decisionFacts(p: { status: string; deviation: boolean; decisionReason: string; decidedBy: string | null; decidedAt: Date | null }, tz: string): Array<readonly [string, React.ReactNode]> {
+  const out: Array<readonly [string, React.ReactNode]> = [];
+  if (p.decidedAt) out.push(["Decided", `${when(p.decidedAt, tz)}${p.decidedBy ? `, ${p.decidedBy}` : ""}`]);
+  if (p.decisionReason) out.push([p.deviation && p.status === "RELEASED" ? "Deviation accepted" : "Reason", p.decisionReason]);
+  return out;
 }
 
 export default async function ProductLotPage({ params }: Props) {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
-  const p = await getProductLotDetail(db, site.id, codeParam((await params).code));
-  if (!p) notFound();
-  const madeOf = p.incoming.length > 0 ? await getMadeOf(db, site.id, p.holderId, new Date()) : { totalG: 0, shares: [], order: "dated" as const };
+  const qc = await loadProductLotQc(db, site.id, codeParam((await params).code), user.now);
+  if (!qc) notFound();
+  const { detail: p, spec, certificate: c } = qc;
+  const [madeOf, specChoices] = await Promise.all([
+    p.incoming.length > 0 ? getMadeOf(db, site.id, p.holderId, user.now) : Promise.resolve({ totalG: 0, shares: [], order: "dated" as const }),
+    listSpecChoices(db, site.id).then((list) => list.map((c) => [c.key, c.label] as const)),
+  ]);
   const tz = site.timeZone;
   const shipments = p.outgoing.filter((m) => m.to.kind === "SHIPMENT");
   const transfers = p.outgoing.filter((m) => m.to.kind !== "SHIPMENT");
+  const held = p.status === "HELD";
+  const canEnter = held && spec !== null && (user.role === "PRODUCTION" || user.role === "COMPLIANCE");
+  const isCompliance = user.role === "COMPLIANCE";
+  const nextProperty = c?.rows.find((r) => r.verdict === "MISSING")?.key ?? spec?.properties[0]?.key ?? "";
+  const labels = new Map((spec?.properties ?? []).map((x) => [x.key, x.label]));
+  const statusLabel = p.status === "RELEASED" && p.deviation ? "Released with a deviation" : undefined;
+  const certHref = `/api/products/${encodeURIComponent(p.code)}/certificate`;
   return (
     <>
-      <p className="crumbs">
-        <Link href="/products">Product lots</Link> /
-      </p>
-      <h1>Product lot {p.code}</h1>
-      {p.status === "RELEASED" && p.stockG > 0 ? <p><Link href={`/shipments/new?from=${encodeURIComponent(p.code)}`}>Ship from this lot</Link></p> : null}
-      <Facts
-        items={[
-          [
-            "Batch",
-            p.batchCode ? (
-              <>
-                <Link href={`/batches/${encodeURIComponent(p.batchCode)}`}>{p.batchCode}</Link>{" "}
-                {p.batchStatus ? <span className="muted">({labelOf(p.batchStatus).toLowerCase()})</span> : null}
-              </>
-            ) : (
-              "—"
-            ),
-          ],
+      <RecordHeader
+        kind="Product lot"
+        number={p.code}
+        status={{ code: p.status, ...(statusLabel ? { label: statusLabel } : {}) }}
+        back={{ href: "/products", label: "Product lots" }}
+        facts={[
+          ["Batch", p.batchCode ? <Link href={`/batches/${encodeURIComponent(p.batchCode)}`}>{p.batchCode}</Link> : "—"],
+          ["Batch state", p.batchStatus ? labelOf(p.batchStatus) : "—"],
           ["Produced", when(p.producedAt, tz)],
           ["Mass made", kg(p.massG, 3)],
           ["Book stock", kg(p.stockG, 3)],
-          ["Release status", <Status key="s" code={p.status} />],
-          ["Released", when(p.releasedAt, tz)],
-          ["QC results", p.qcCount === 0 ? "none yet" : p.qcFailed > 0 ? `${p.qcFailed} of ${p.qcCount} out of limits` : `all ${p.qcCount} within limits`],
+          ["Specification", c ? c.specText : "none chosen"],
+          ...decisionFacts(p, tz),
         ]}
+        actions={
+          <>
+            {c ? (
+              <a href={certHref} download>
+                {c.released ? "Certificate of analysis (PDF)" : "Draft certificate, not released (PDF)"}
+              </a>
+            ) : null}{" "}
+            {p.status === "RELEASED" && p.stockG > 0 && isCompliance ? <Link href={`/shipments/new?from=${encodeURIComponent(p.code)}`}>Ship from this lot</Link> : null}{" "}
+            <HistoryLink kind="product" recordKey={p.code} label="product lot" />
+          </>
+        }
       />
 
       <h2>Quality control</h2>
-      {p.qc.length === 0 ? (
-        <Empty>No QC results recorded yet; the lot stays on hold until they are.</Empty>
+      {spec && c ? (
+        <>
+          <ReleaseCheck c={c} />
+          <SpecResults c={c} spec={spec} timeZone={tz} />
+        </>
       ) : (
-        <div className="table-wrap">
-          <table>
-            <thead>
-              <tr>
-                <th scope="col">Property</th>
-                <th scope="col">Method</th>
-                <th scope="col" className="num">
-                  Result
-                </th>
-                <th scope="col">Unit</th>
-                <th scope="col" className="num">
-                  Limits
-                </th>
-                <th scope="col">Specification</th>
-                <th scope="col">Tested</th>
-                <th scope="col">Verdict</th>
-              </tr>
-            </thead>
-            <tbody>
-              {p.qc.map((q) => (
-                <tr key={q.id}>
-                  <td>{q.property.replace(/_/g, " ").toLowerCase()}</td>
-                  <td>{q.method}</td>
-                  <td className="num">{num(q.value, 4).replace(/\.?0+$/, "") || "0"}</td>
-                  <td>{q.unit}</td>
-                  <td className="num">{limits(q.limitMin, q.limitMax)}</td>
-                  <td>{q.specRef}</td>
-                  <td className="nowrap">{when(q.testedAt, tz)}</td>
-                  <td>
-                    <PassFail pass={q.pass} />
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <Empty>No specification is chosen for this lot; choose one to judge its results.</Empty>
       )}
 
+      {canEnter && spec ? (
+        <section aria-labelledby="enter-h">
+          <h2 id="enter-h">Enter a result</h2>
+          <p className="lede">Judged at once against the specification. A second result for the same property is a re-test: it replaces the first, which stays on record.</p>
+          <QcEntryForm code={p.code} spec={spec} nextProperty={nextProperty} nowLocal={localNow(user.now, tz)} />
+        </section>
+      ) : null}
+
+      {isCompliance && p.status !== "REJECTED" ? (
+        <section aria-labelledby="decide-h">
+          <h2 id="decide-h">Release decision</h2>
+          <p className="lede">Release needs every required result in and within limits. A deviation, a hold or a rejection needs a reason.</p>
+          <DecisionForm code={p.code} status={p.status} />
+          {held ? (
+            <>
+              <h3>Specification</h3>
+              <SpecChoiceForm code={p.code} current={p.specKey} choices={specChoices} />
+            </>
+          ) : null}
+        </section>
+      ) : null}
+
+      <h2>Every result entered</h2>
+      <ResultHistory qc={p.qc} labels={labels} timeZone={tz} />
+
       <h2>Shipments</h2>
-      {shipments.length === 0 ? (
-        <Empty>Nothing has been shipped from this lot directly.</Empty>
-      ) : (
-        <div className="table-wrap">
-          <table>
-            <thead>
-              <tr>
-                <th scope="col">Shipment</th>
-                <th scope="col">Shipped</th>
-                <th scope="col" className="num">
-                  Mass
-                </th>
-                <th scope="col" className="num">
-                  Volume
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {shipments.map((m) => (
-                <tr key={m.id}>
-                  <td>
-                    <HolderLink holder={m.to} showKind={false} />
-                  </td>
-                  <td className="nowrap">{when(m.at, tz)}</td>
-                  <td className="num">{kgExact(m.massG)}</td>
-                  <td className="num">{m.volumeMl === null ? "—" : litres(m.volumeMl)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
-      )}
+      <DataTable caption="Shipped from this lot" hideCaption columns={shipmentColumns(tz)} rows={shipments} rowKey={(m) => m.id} empty="Nothing has been shipped from this lot directly." />
       {transfers.length > 0 ? (
         <>
           <h2>Moved to storage</h2>
-          <div className="table-wrap">
-            <table>
-              <thead>
-                <tr>
-                  <th scope="col">To</th>
-                  <th scope="col">When</th>
-                  <th scope="col" className="num">
-                    Mass
-                  </th>
-                </tr>
-              </thead>
-              <tbody>
-                {transfers.map((m) => (
-                  <tr key={m.id}>
-                    <td>
-                      <HolderLink holder={m.to} />
-                    </td>
-                    <td className="nowrap">{when(m.at, tz)}</td>
-                    <td className="num">{kgExact(m.massG)}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <DataTable caption="Moved to storage" hideCaption columns={transferColumns(tz)} rows={transfers} rowKey={(m) => m.id} empty="" />
         </>
       ) : null}
 

@@ -1,0 +1,108 @@
+// Every built-in default the sources page lists, read from the modules that use them: specification
+// limits (lib/spec), waste rule defaults (lib/waste/waste-due.ts) and recipe defaults
+// (lib/recipe/recipe-defaults.ts, lib/chemistry/physical-constants.ts). Nothing is copied here; only the
+// plain names of the settings are ours.
+import type { SourcedValue } from "@/lib/chemistry/sourced-value";
+import { KOH_EQUIVALENT_MASS_IN_STANDARDS, METHANOL_DENSITY_20C } from "@/lib/chemistry/physical-constants";
+import { DEFAULT_RECIPE_LIMITS, DEFAULT_RECIPE_SETTINGS } from "@/lib/recipe/recipe-defaults";
+import type { RecipeDefaults, RecipeLimits } from "@/lib/recipe/recipe-defaults";
+import { RULESET_US_FEDERAL_RCRA } from "@/lib/waste/waste-due";
+import type { RuleValue, WasteRuleSet } from "@/lib/waste/waste-due";
+
+/** How far a default can be relied on, in the words a screen uses. */
+export type SourceLevel = "published" | "common practice" | "check";
+
+export interface DefaultSource {
+  anchor: string;
+  label: string;
+  value: string;
+  source: string;
+  level: SourceLevel;
+}
+
+export interface DefaultGroup {
+  key: string;
+  title: string;
+  edition?: string;
+  entries: DefaultSource[];
+}
+
+/** Status words in the lib → the screen's three levels; anything not plainly verified is to be checked. */
+export function levelOf(status: string): SourceLevel {
+  const s = status.toLowerCase();
+  if (s.includes("common practice")) return "common practice";
+  if (s.startsWith("verified") || s === "computed") return "published";
+  return "check";
+}
+
+/** Source texts written for engineers carry notes about how they were checked; a screen shows "to be confirmed". */
+export function screenText(text: string): string {
+  return text
+    .replace(/,?\s*from memory(, unverified)?/gi, ", to be confirmed")
+    .replace(/^, /, "")
+    .replace(/\(\s*, /g, "(")
+    .replace(/placeholder;?\s*/gi, "");
+}
+
+function valueText(value: number, unit: string): string {
+  return `${value} ${unit}`.trim();
+}
+
+const WASTE_LABELS: Readonly<Record<Exclude<keyof WasteRuleSet, "id" | "name" | "edition" | "localRulesNote">, string>> = {
+  lqgMaxDays: "Large quantity generator: longest accumulation",
+  sqgMaxDays: "Small quantity generator: longest accumulation",
+  sqgLongHaulMaxDays: "Small quantity generator, distant facility: longest accumulation",
+  sqgLongHaulMinMiles: "Distance that counts as a distant facility",
+  sqgMaxOnSiteKg: "Small quantity generator: most waste on site",
+  vsqgMaxOnSiteKg: "Very small quantity generator: most waste on site",
+  satelliteMaxUsGal: "Satellite accumulation: most waste at the point of generation",
+  satelliteExcessDays: "Satellite accumulation: days to move an excess",
+  ignitableFlashPointBelowC: "Ignitable liquid: flash point below",
+  ignitableAqueousAlcoholBelowPctVol: "Aqueous alcohol exclusion: alcohol below",
+  aqueousMinWaterPctMass: "Counts as aqueous: water at least",
+  corrosivePhAtMost: "Corrosive: pH at most",
+  corrosivePhAtLeast: "Corrosive: pH at least",
+  nonHazardousMaxStorageDays: "Non-hazardous streams: longest storage",
+};
+
+const RECIPE_LABELS: Readonly<Record<keyof RecipeDefaults | keyof RecipeLimits, string>> = {
+  molarRatio: "Methanol to oil molar ratio",
+  reactionTempC: "Reaction temperature",
+  meanTgMolarMass: "Mean molar mass of the oil (model oil)",
+  washes: "Number of washes",
+  waterPerWashPctOfEster: "Wash water per wash",
+  methanolBoilingPointC: "Methanol boiling point",
+  boilingMarginK: "Margin below the methanol boiling point",
+  minReactionTempC: "Lowest reaction temperature",
+  directBaseMaxFfaPct: "Highest FFA for direct base catalysis",
+  baseCatalysisMaxFfaPct: "FFA above which acid pretreatment comes first",
+  maxWaterPct: "Highest water in the oil",
+  massBalanceRelTolerance: "Recipe mass-balance tolerance",
+};
+
+export function wasteDefaults(rules: WasteRuleSet = RULESET_US_FEDERAL_RCRA): DefaultGroup {
+  const entries = (Object.keys(WASTE_LABELS) as Array<keyof typeof WASTE_LABELS>).map((k) => {
+    const v: RuleValue = rules[k];
+    return { anchor: `waste-${k}`, label: WASTE_LABELS[k], value: valueText(v.value, v.unit), source: screenText(v.source), level: levelOf(v.status) };
+  });
+  return { key: "waste", title: rules.name, edition: rules.edition, entries };
+}
+
+function sourced(prefix: string, key: string, label: string, v: SourcedValue): DefaultSource {
+  return { anchor: `${prefix}-${key}`, label, value: valueText(v.value, v.unit), source: screenText(v.source), level: levelOf(v.status) };
+}
+
+export function recipeDefaults(): DefaultGroup {
+  const settings = Object.entries(DEFAULT_RECIPE_SETTINGS) as Array<[keyof RecipeDefaults, SourcedValue]>;
+  const limits = Object.entries(DEFAULT_RECIPE_LIMITS) as Array<[keyof RecipeLimits, SourcedValue]>;
+  return {
+    key: "recipe",
+    title: "Batch recipe defaults and warning thresholds",
+    entries: [
+      ...settings.map(([k, v]) => sourced("recipe", k, RECIPE_LABELS[k], v)),
+      ...limits.map(([k, v]) => sourced("recipe", k, RECIPE_LABELS[k], v)),
+      sourced("chemistry", "methanolDensity20C", "Methanol density at 20 °C", METHANOL_DENSITY_20C),
+      sourced("chemistry", "kohEquivalentMass", "KOH equivalent mass used in acid value formulas", KOH_EQUIVALENT_MASS_IN_STANDARDS),
+    ],
+  };
+}
