@@ -58,7 +58,7 @@ function postRoutes(dir: string, base = ""): string[] {
   for (const e of readdirSync(dir, { withFileTypes: true })) {
     const p = path.join(dir, e.name);
     if (e.isDirectory()) out.push(...postRoutes(p, `${base}/${e.name}`));
-    else if (e.name === "route.ts" && /export (async )?function POST\b/.test(readFileSync(p, "utf8"))) out.push(`/api${base}`);
+    else if (e.name === "route.ts" && /export (async )?function POST\b|export const POST\b/.test(readFileSync(p, "utf8"))) out.push(`/api${base}`);
   }
   return out;
 }

@@ -24,7 +24,7 @@ function builtRoutes(): BuiltRoute[] {
     else if (entry.endsWith("/route")) {
       const file = path.join(root, "app", `${entry}.ts`);
       if (!existsSync(file)) continue; // a file served as is (the icon)
-      if (/export (async )?function GET\b/.test(readFileSync(file, "utf8"))) out.push({ path: url, kind: "get" });
+      if (/export (async )?function GET\b|export const GET\b/.test(readFileSync(file, "utf8"))) out.push({ path: url, kind: "get" });
     }
   }
   return out.map((r) => ({ ...r, path: r.path.replace(/\[[^\]]+\]/g, "NO-SUCH-RECORD") }));

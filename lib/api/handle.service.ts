@@ -1,7 +1,13 @@
 import "server-only";
 import { NextResponse } from "next/server";
 import { unstable_rethrow } from "next/navigation";
-import { getSignedIn } from "@/lib/auth/request.service";
+import { getSignedIn, requireRole } from "@/lib/auth/request.service";
+import { idempotent, MAX_JSON_BYTES, readJson, requireSameOrigin, respond } from "@/lib/api/json-route.service";
+import { getDb } from "@/lib/db";
+import type { Db } from "@/lib/database/connect";
+import type { Result } from "@/lib/errors";
+import type { SiteRole } from "@/lib/ledger/kinds";
+import type { Actor } from "@/lib/site/actor";
 import { log, newReference } from "@/lib/log/log.service";
 
 /** What a person is told when the server fails: a reference to pass on, no developer advice. */
@@ -31,4 +37,21 @@ export function handled<A extends [Request, ...unknown[]]>(route: string, fn: (.
       return NextResponse.json({ ok: false, issues: [{ code: "SERVER.UNEXPECTED", message: unexpectedMessage(reference), reference }] }, { status: 500 });
     }
   };
+}
+
+/**
+ * The write route every record type shares: same-origin check, the roles allowed, a JSON body within
+ * its limit, and the service run under the caller's Idempotency-Key — wrapped like every route.
+ */
+export function recordingRoute<T>(route: string, roles: readonly SiteRole[], service: (db: Db, actor: Actor, input: unknown) => Promise<Result<T>>, limit = MAX_JSON_BYTES): (request: Request) => Promise<Response> {
+  return handled(route, async (request: Request) => {
+    const origin = requireSameOrigin(request);
+    if (!origin.ok) return respond(origin);
+    const who = await requireRole(roles);
+    if (!who.ok) return respond(who);
+    const body = await readJson(request, limit);
+    if (!body.ok) return respond(body);
+    const actor: Actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+    return respond(await idempotent(request, who.value.userId, body.value, async () => service(await getDb(), actor, body.value)));
+  });
 }

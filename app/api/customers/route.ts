@@ -1,18 +1,5 @@
-import type { NextResponse } from "next/server";
-import { getDb } from "@/lib/db";
-import { idempotent, readJson, requireSameOrigin, respond } from "@/lib/api/json-route.service";
-import { requireRole } from "@/lib/auth/request.service";
 import { createCustomer } from "@/lib/customer/customer.service";
-import { handled } from "@/lib/api/handle.service";
+import { recordingRoute } from "@/lib/api/handle.service";
 
 /** Records a customer the site ships to. */
-export const POST = handled("POST /api/customers", async (request: Request): Promise<NextResponse> => {
-  const origin = requireSameOrigin(request);
-  if (!origin.ok) return respond(origin);
-  const who = await requireRole(["COMPLIANCE"]);
-  if (!who.ok) return respond(who);
-  const body = await readJson(request);
-  if (!body.ok) return respond(body);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
-  return respond(await idempotent(request, who.value.userId, body.value, async () => createCustomer(await getDb(), actor, body.value)));
-});
+export const POST = recordingRoute("POST /api/customers", ["COMPLIANCE"], createCustomer);

@@ -1,17 +1,4 @@
-import type { NextResponse } from "next/server";
-import { getDb } from "@/lib/db";
-import { idempotent, readJson, requireSameOrigin, respond } from "@/lib/api/json-route.service";
-import { requireRole } from "@/lib/auth/request.service";
 import { createTank } from "@/lib/tank/tank.service";
-import { handled } from "@/lib/api/handle.service";
+import { recordingRoute } from "@/lib/api/handle.service";
 
-export const POST = handled("POST /api/tanks", async (request: Request): Promise<NextResponse> => {
-  const origin = requireSameOrigin(request);
-  if (!origin.ok) return respond(origin);
-  const who = await requireRole(["PRODUCTION"]);
-  if (!who.ok) return respond(who);
-  const body = await readJson(request);
-  if (!body.ok) return respond(body);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
-  return respond(await idempotent(request, who.value.userId, body.value, async () => createTank(await getDb(), actor, body.value)));
-});
+export const POST = recordingRoute("POST /api/tanks", ["PRODUCTION"], createTank);

@@ -1,20 +1,7 @@
-import type { NextResponse } from "next/server";
-import { getDb } from "@/lib/db";
-import { idempotent, readJson, requireSameOrigin, respond } from "@/lib/api/json-route.service";
-import { requireRole } from "@/lib/auth/request.service";
 import { decideProductLot } from "@/lib/product/product.service";
-import { handled } from "@/lib/api/handle.service";
+import { recordingRoute } from "@/lib/api/handle.service";
 
 export const dynamic = "force-dynamic";
 
 /** Release (judged afresh against the current specification), release with a deviation, hold or reject a product lot; all but a plain release need a reason. */
-export const POST = handled("POST /api/products/decisions", async (request: Request): Promise<NextResponse> => {
-  const origin = requireSameOrigin(request);
-  if (!origin.ok) return respond(origin);
-  const who = await requireRole(["COMPLIANCE"]);
-  if (!who.ok) return respond(who);
-  const body = await readJson(request);
-  if (!body.ok) return respond(body);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
-  return respond(await idempotent(request, who.value.userId, body.value, async () => decideProductLot(await getDb(), actor, body.value)));
-});
+export const POST = recordingRoute("POST /api/products/decisions", ["COMPLIANCE"], decideProductLot);

@@ -1,18 +1,5 @@
-import type { NextResponse } from "next/server";
-import { getDb } from "@/lib/db";
-import { idempotent, readJson, requireSameOrigin, respond } from "@/lib/api/json-route.service";
-import { requireRole } from "@/lib/auth/request.service";
 import { openWasteContainer } from "@/lib/waste/container.service";
-import { handled } from "@/lib/api/handle.service";
+import { recordingRoute } from "@/lib/api/handle.service";
 
 /** Opens a waste container: stream, location, accumulation start, capacity, satellite area. */
-export const POST = handled("POST /api/waste/containers", async (request: Request): Promise<NextResponse> => {
-  const origin = requireSameOrigin(request);
-  if (!origin.ok) return respond(origin);
-  const who = await requireRole(["PRODUCTION", "COMPLIANCE"]);
-  if (!who.ok) return respond(who);
-  const body = await readJson(request);
-  if (!body.ok) return respond(body);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
-  return respond(await idempotent(request, who.value.userId, body.value, async () => openWasteContainer(await getDb(), actor, body.value)));
-});
+export const POST = recordingRoute("POST /api/waste/containers", ["PRODUCTION", "COMPLIANCE"], openWasteContainer);
