@@ -57,7 +57,12 @@ test("the chain-of-custody page shows the active rule set and flags claims over 
   await signIn(page, "compliance.nell", "/balance/custody");
   await expect(page.getByRole("heading", { name: "Chain of custody" })).toBeVisible();
   await expect(page.getByRole("heading", { name: "Active rule set" })).toBeVisible();
-  await expect(page.getByText("exceeds by").first()).toBeVisible();
+  // Every certified claim of the demo is checked against the credit at its booking (the demo's claims fit).
+  await expect(page.getByText("within balance").first()).toBeVisible();
+  // A claim larger than every set's credit is refused before anything is saved, with the shortfall named.
+  await page.getByLabel("Try a claim now (kg of ester)").fill("900000");
+  await page.getByRole("button", { name: "Show" }).click();
+  await expect(page.getByRole("alert").filter({ hasText: "now would be refused" })).toBeVisible();
 });
 
 test("waste due lists containers by stream with hauler totals and the rule set's sources", async ({ page }) => {

@@ -22,7 +22,7 @@ test("titrate a waiting lot, see FFA as you type, and accept it", async ({ page 
   await form.getByLabel("Sample mass (g)").fill("7.05");
   await form.getByLabel("Titrant concentration (mol/L)").fill("0.25");
   await form.getByLabel("Titre (mL)").fill("5");
-  // AOCS Ca 5a-40: 5.00 mL × 0.25 N × 28.2 / 7.05 g = 5.000 % FFA (facts.md §a.3)
+  // AOCS Ca 5a-40: 5.00 mL × 0.25 N × 28.2 / 7.05 g = 5.000 % FFA (AOCS Ca 5a-40, computed)
   await expect(form.getByTestId("live-ffa")).toHaveText("5.00 %");
   // EN 14104: 56.1 × 5.00 × 0.25 / 7.05 = 9.947 mg KOH/g (hand arithmetic)
   await expect(form.getByTestId("live-av")).toHaveText("9.95 mg KOH/g");

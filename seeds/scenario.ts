@@ -320,7 +320,7 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
       const pretreat = ffa > 5;
       const h = 11 + b * 5; // after the morning's lab decisions and tank transfers
       const oilKg = oilG / 1000;
-      // Stoichiometry (facts.md §b.3, §d): 6:1 methanol at M(TG) ≈ 875 g/mol; KOH base dose 1 % of oil
+      // Stoichiometry (stoichiometry, computed): 6:1 methanol at M(TG) ≈ 875 g/mol; KOH base dose 1 % of oil
       // (common practice) plus 1.986 g per kg per % FFA neutralised, at 90 % purity.
       const methanolKg = (oilKg / 875) * 6 * 32.042;
       const residualFfa = pretreat ? 0.8 : ffa;

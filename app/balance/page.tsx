@@ -118,7 +118,6 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
           ["Batches finished", <span key="p">{r.process.completed.length} <ClosureChip closure={r.process.closure} /></span>],
           ["Gauges vs book", r.gauges ? <ClosureChip key="g" closure={r.gauges.total.closure} what="of book stock" /> : "no readings"],
           ["Accounting period", ap ? <span key="a" className={`status status-${ap.status === "OPEN" ? "open-period" : "closed"}`}>{ap.status === "OPEN" ? "Open" : "Closed"}</span> : "none with these dates"],
-          ["Worked out in", `${num(r.computeMs, 0)} ms`],
         ]}
       />
       <Note>

@@ -211,7 +211,7 @@ function BackwardResult({ r, view, atLocal, timeZone }: { r: BackwardTraceReport
           </>
         ) : null}
       </Note>
-      <FreshnessNote f={r.freshness} timeZone={timeZone} />
+      <FreshnessNote f={r.freshness} />
       <nav className="view-switch" aria-label="Trace view">
         {view === "all" ? <span aria-current="page">All material</span> : <Link href={switchTo("all")}>All material</Link>}
         {view === "feedstock" ? <span aria-current="page">Feedstock only</span> : <Link href={switchTo("feedstock")}>Feedstock only</Link>}
@@ -304,7 +304,7 @@ function ForwardResult({ r, timeZone }: { r: ForwardTraceReport; timeZone: strin
         Every place that received part of this material and how much of it is still there, by replaying the ledger forward. Recovered
         methanol carries its share of a batch into the methanol tank and on into later batches, so later batches can hold a little of it.
       </Note>
-      <FreshnessNote f={r.freshness} timeZone={timeZone} />
+      <FreshnessNote f={r.freshness} />
       {r.enteredG === 0 ? (
         <Empty>No material of this {subjectWord} has entered the books.</Empty>
       ) : (

@@ -2,7 +2,7 @@ import type { ReactNode } from "react";
 import { labelOf } from "@/lib/ledger/kinds";
 import type { ContributionRow, LedgerFreshness } from "@/lib/trace/trace.service";
 import { CERTIFICATION_LABELS } from "@/lib/trace/trace.service";
-import { kg, kgExact, num, pct, when } from "@/app/_ui/format";
+import { kg, kgExact, pct } from "@/app/_ui/format";
 import { Note } from "@/app/_ui/ui";
 
 /** A pooled tank can go back to thousands of pickups; the page lists this many and the CSV all of them. */
@@ -125,14 +125,11 @@ export function ContributionTable({
   );
 }
 
-export function FreshnessNote({ f, timeZone, extra }: { f: LedgerFreshness; timeZone: string; extra?: ReactNode }) {
+export function FreshnessNote({ f, extra }: { f: LedgerFreshness; extra?: ReactNode }) {
   return (
     <Note>
-      Ledger as of this answer: {f.movements} movements (last no. {f.lastMoveId ?? "—"})
-      {f.reversedPairsLeftOut > 0 ? `, ${f.reversedPairsLeftOut} reversed movements left out as booking corrections` : ""}. This server indexed
-      that version at {when(f.indexedAt, timeZone)} in {num(f.indexMs, 0)} ms with {f.snapshots} monthly replay snapshot{f.snapshots === 1 ? "" : "s"}
-      {f.latestSnapshotAt ? ` (latest ${when(f.latestSnapshotAt, timeZone)})` : ""}; any new booking makes it index again. This answer:{" "}
-      {f.fromCache ? `already worked out for this version, served in ${num(f.computeMs, 0)} ms` : `worked out in ${num(f.computeMs, 0)} ms`}.
+      Computed from the ledger as of movement no. {f.lastMoveId ?? "—"} ({f.movements} movements
+      {f.reversedPairsLeftOut > 0 ? `; ${f.reversedPairsLeftOut} reversed movements left out as booking corrections` : ""}); a later booking may change it.
       {f.order === "booked" ? ` Replayed in booking order because the dates do not replay: ${f.orderProblem ?? ""}.` : ""} {extra}
     </Note>
   );

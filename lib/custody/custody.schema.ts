@@ -8,7 +8,7 @@ export const MAX_SET_ATTRIBUTES = 20;
 export const MAX_MATERIAL_LENGTH = 40;
 /**
  * Upper bound on a measured conversion factor (output mass ÷ input mass). The theoretical FAME yield of
- * triolein is 1.00455 kg per kg oil (computed from IUPAC 2021 atomic weights, Tracevat domain facts §d.3);
+ * triolein is 1.00455 kg per kg oil (computed from IUPAC 2021 atomic weights);
  * 1.5 leaves room for other steps and is only a typing-error guard (common practice, no source).
  */
 export const MAX_CONVERSION_FACTOR = 1.5;

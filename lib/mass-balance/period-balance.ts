@@ -75,7 +75,7 @@ export interface ClosureTolerance {
 export const DEFAULT_CLOSURE_TOLERANCE: ClosureTolerance = {
   warnPct: 0.5,
   failPct: 2,
-  source: "common practice, no source (Tracevat domain facts §j)",
+  source: "common practice, no source",
   note: "Period mass-balance closure: warn above 0.5 %, fail above 2 % of inputs. A site setting; change it to what your scheme or auditor accepts.",
 };
 

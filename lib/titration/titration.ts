@@ -62,7 +62,7 @@ export const KOH_MOLAR_MASS_G_MOL = 56.1053;
 export const CA5A40_AV_PER_FFA_OLEIC = {
   value: 1.99,
   status: "sourced" as SourceStatus,
-  source: "AOCS Ca 5a-40 Calculations note (seen in the 1997/2009 text per facts.md verification addendum)",
+  source: "AOCS Ca 5a-40 Calculations note (seen in the 1997/2009 text)",
 };
 
 export interface TitrationLimits {
@@ -287,7 +287,7 @@ export interface SampleSizeRow {
 }
 
 const TABLE1_SOURCE =
-  "AOCS Ca 5a-40 Table 1 (rows as in the matching Table 1 of ASTM D5555-95, per facts.md verification addendum; first listed from memory)";
+  "AOCS Ca 5a-40 Table 1 (rows as in the matching Table 1 of ASTM D5555-95; first listed from memory)";
 
 export const CA5A40_SAMPLE_SIZE_TABLE: readonly SampleSizeRow[] = [
   { minPct: 0, maxPct: 0.2, sampleMassG: 56.4, sampleToleranceG: 0.2, alcoholMl: 50, concentrationsMolL: [0.1], source: TABLE1_SOURCE, status: "sourced" },

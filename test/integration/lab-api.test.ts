@@ -27,27 +27,27 @@ function post(path: string, body: unknown, headers: Record<string, string> = {})
 }
 
 describe("pure answers behind the compute endpoints", () => {
-  it("titration: 5.00 mL × 0.25 N × 28.2 / 7.05 g = 5.000 % FFA (facts.md §a.3, AOCS Ca 5a-40)", () => {
+  it("titration: 5.00 mL × 0.25 N × 28.2 / 7.05 g = 5.000 % FFA (AOCS Ca 5a-40, computed)", () => {
     const a = value(answerTitration(TitrationEntrySchema.parse({ sampleMassG: 7.05, titrant: "NAOH", concentrationMolL: 0.25, titreMl: 5 })));
     expect(a.ffaPct).toBeCloseTo(5, 9);
     // EN 14104: 56.1 × 5 × 0.25 / 7.05 = 9.9468 mg KOH/g (hand arithmetic)
     expect(a.acidValueMgKohG).toBeCloseTo(9.9468, 4);
   });
-  it("titration with a blank: (4.45 − 0.05) × 0.1 × 56.1 / 5 = 4.9368 mg KOH/g (facts.md §a.3)", () => {
+  it("titration with a blank: (4.45 − 0.05) × 0.1 × 56.1 / 5 = 4.9368 mg KOH/g (AOCS Ca 5a-40, computed)", () => {
     const a = value(answerTitration(TitrationEntrySchema.parse({ sampleMassG: 5, titrant: "KOH", concentrationMolL: 0.1, titreMl: 4.45, blankMl: 0.05 })));
     expect(a.acidValueMgKohG).toBeCloseTo(4.9368, 4);
   });
-  it("AV ↔ FFA: FFA 1 % oleic = 1.986 mg KOH/g; AV 1 = 0.503 % oleic (facts.md §a.1, computed from molar masses)", () => {
+  it("AV ↔ FFA: FFA 1 % oleic = 1.986 mg KOH/g; AV 1 = 0.503 % oleic (acid value definition, computed from molar masses)", () => {
     expect(value(answerAcidValueFfa(AcidValueFfaRequestSchema.parse({ from: "FFA", value: 1 }))).acidValueMgKohG).toBeCloseTo(1.98625, 4);
     expect(value(answerAcidValueFfa(AcidValueFfaRequestSchema.parse({ from: "ACID_VALUE", value: 1 }))).ffaPct).toBeCloseTo(0.50346, 4);
     // AOCS Ca 5a-40 note: × 1.99 (oleic only)
     expect(value(answerAcidValueFfa(AcidValueFfaRequestSchema.parse({ from: "FFA", value: 2, conversion: "ca5a40-note" }))).acidValueMgKohG).toBeCloseTo(3.98, 9);
     expect(answerAcidValueFfa(AcidValueFfaRequestSchema.parse({ from: "FFA", value: 2, basis: "LAURIC", conversion: "ca5a40-note" })).ok).toBe(false);
   });
-  it("sample size: expected 5 % FFA → 7.05 g, 75 mL alcohol, 0.25 N (AOCS Ca 5a-40 Table 1 via ASTM D5555-95, facts.md addendum)", () => {
+  it("sample size: expected 5 % FFA → 7.05 g, 75 mL alcohol, 0.25 N (AOCS Ca 5a-40 Table 1 via ASTM D5555-95)", () => {
     const s = value(answerSampleSize({ expectedFfaPct: 5 }));
     expect([s.sampleMassG, s.alcoholMl, s.concentrationsMolL]).toEqual([7.05, 75, [0.25]]);
-    // 0.25 × 28.2 / 7.05 = 1.00 % FFA per mL (facts.md §a.2)
+    // 0.25 × 28.2 / 7.05 = 1.00 % FFA per mL (AOCS Ca 5a-40 Table 1)
     expect(s.ffaPctPerMl[0]).toBeCloseTo(1, 9);
   });
   it("volume → mass at 15 °C: 1000 L of water at 15 °C = 999.1026 kg (Tanaka et al. 2001 table value)", () => {
@@ -65,7 +65,7 @@ describe("pure answers behind the compute endpoints", () => {
     // Tanaka et al. 2001: 999.1026 kg/m³ at 15 °C → 1000 L
     expect(v.observedVolumeL).toBeCloseTo(1000, 3);
   });
-  it("yield: triolein 1000 kg, ester 954.3225 kg → 0.95 of the 1004.55 kg theory (facts.md §d.3)", () => {
+  it("yield: triolein 1000 kg, ester 954.3225 kg → 0.95 of the 1004.55 kg theory (triolein model, IUPAC 2021 atomic weights, computed)", () => {
     const y = value(
       answerYield({
         recipe: { lots: [{ lotRef: "T", massKg: 1000, ffaPct: 0, waterPct: 0 }], settings: { catalyst: "NAOH", purityPct: 100, baseDosePctOfOil: 0.5, meanTgMolarMass: 885.453, molarRatio: 6 } },
@@ -143,7 +143,7 @@ describe.each(PROVIDERS)("lab services and route handlers on %s", (provider) => 
   it("a lot cannot be accepted before it has a titration; then it can", async () => {
     const refused = await decideLot(t.db, plant.production, { lotCode: "LAB-1", status: "ACCEPTED" });
     expect(refused.ok ? [] : refused.issues.map((i) => [i.code, i.field])).toEqual([["LOT.NO_FFA", "status"]]);
-    // AOCS Ca 5a-40: 10.00 mL × 0.1 N × 28.2 / 28.2 g = 1.000 % (facts.md §a.3)
+    // AOCS Ca 5a-40: 10.00 mL × 0.1 N × 28.2 / 28.2 g = 1.000 % (AOCS Ca 5a-40, computed)
     const saved = value(await recordTitration(t.db, plant.production, { lotCode: "LAB-1", testedAt: "2026-02-21T09:00:00Z", sampleMassG: 28.2, titrant: "NAOH", concentrationMolL: 0.1, titreMl: 10 }));
     expect(saved.ffaPct).toBeCloseTo(1, 12);
     value(await recordLabTest(t.db, plant.production, { lotCode: "LAB-1", testedAt: "2026-02-21T09:10:00Z", kind: "WATER", method: "Karl Fischer", valuePct: 0.1 }));
@@ -156,7 +156,7 @@ describe.each(PROVIDERS)("lab services and route handlers on %s", (provider) => 
     const res = await POST(post("/api/lab/titrations", { lotCode: "lab-1", testedAt: "2026-02-22T09:00:00Z", sampleMassG: 7.05, titrant: "NAOH", concentrationMolL: 0.25, titreMl: 5 }));
     expect(res.status).toBe(200);
     const body = (await res.json()) as { ok: boolean; value: { ffaPct: number } };
-    // 5.000 % (facts.md §a.3)
+    // 5.000 % (AOCS Ca 5a-40, computed)
     expect(body.value.ffaPct).toBeCloseTo(5, 9);
     session.user = { ...session.user, role: "COMPLIANCE" };
     const forbidden = await POST(post("/api/lab/titrations", { lotCode: "LAB-1" }));
@@ -185,7 +185,7 @@ describe.each(PROVIDERS)("lab services and route handlers on %s", (provider) => 
     const before = await t.db.titration.count();
     const res = await POST(post("/api/compute/titration", { sampleMassG: 56.4, titrant: "NAOH", concentrationMolL: 0.1, titreMl: 2 }));
     const body = (await res.json()) as { ok: boolean; value: { ffaPct: number } };
-    // 2.00 mL × 0.1 × 28.2 / 56.4 g = 0.100 % (facts.md §a.3)
+    // 2.00 mL × 0.1 × 28.2 / 56.4 g = 0.100 % (AOCS Ca 5a-40, computed)
     expect(body.value.ffaPct).toBeCloseTo(0.1, 12);
     expect(await t.db.titration.count()).toBe(before);
   });
@@ -194,7 +194,7 @@ describe.each(PROVIDERS)("lab services and route handlers on %s", (provider) => 
     const { GET } = await import("@/app/api/compute/sample-size/route");
     session.user = { siteId: plant.siteId, userId: plant.collector.userId, now: plant.collector.now, role: "COLLECTOR" };
     const ok = (await (await GET(new Request("http://127.0.0.1/api/compute/sample-size?expectedFfaPct=0.5"))).json()) as { value: { sampleMassG: number } };
-    // 0.2–1.0 % FFA: 28.2 g (Ca 5a-40 Table 1, facts.md addendum)
+    // 0.2–1.0 % FFA: 28.2 g (Ca 5a-40 Table 1)
     expect(ok.value.sampleMassG).toBe(28.2);
     const bad = await GET(new Request("http://127.0.0.1/api/compute/sample-size?expectedFfaPct=abc"));
     expect(bad.status).toBe(422);

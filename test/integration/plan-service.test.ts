@@ -32,7 +32,7 @@ describe.each(PROVIDERS)("batch planning from stock on %s", (provider) => {
     t = await createTestDb(provider);
     plant = await createTestPlant(t.db);
     const p = plant.production;
-    // AOCS Ca 5a-40 titres (facts.md §a.3): 10 mL × 0.1 N / 28.2 g → 1 %; 5 mL × 0.25 N / 7.05 g → 5 %; 2 mL → 2 %.
+    // AOCS Ca 5a-40 titres (AOCS Ca 5a-40, computed): 10 mL × 0.1 N / 28.2 g → 1 %; 5 mL × 0.25 N / 7.05 g → 5 %; 2 mL → 2 %.
     const lots = [
       { code: "D-1", titre: { sampleMassG: 28.2, concentrationMolL: 0.1, titreMl: 10 }, water: 0.1, day: "2026-02-01" },
       { code: "D-2", titre: { sampleMassG: 7.05, concentrationMolL: 0.25, titreMl: 5 }, water: 0.3, day: "2026-02-05" },
@@ -133,7 +133,7 @@ describe.each(PROVIDERS)("batch planning from stock on %s", (provider) => {
     const done = await getBatchDetail(t.db, plant.siteId, "B-P1");
     if (!done) throw new Error("batch missing");
     const y = value(computeRecordedYield(done, done.charges, done.outputs));
-    // Theory on the triolein model: triglyceride = oil × (1 − FFA − water), 1.00455 kg ester per kg (facts.md §d.3)
+    // Theory on the triolein model: triglyceride = oil × (1 − FFA − water), 1.00455 kg ester per kg (triolein model, IUPAC 2021 atomic weights, computed)
     const { ffaPct, waterPct } = (JSON.parse(done.recipeJson) as { card: { blend: { ffaPct: number; waterPct: number } } }).card.blend;
     const theory = 1000 * (1 - ffaPct / 100 - waterPct / 100) * 1.00455;
     expect(y.yield.theoreticalEsterKg).toBeCloseTo(theory, 0);

@@ -123,7 +123,7 @@ function CustodyResult({ r, timeZone }: { r: CustodyReport; timeZone: string }) 
         />
         <Note>Edition: {rs.edition}</Note>
         <details className="more-rows" open>
-          <summary>Notes on the rule set: what is verified and what is from memory</summary>
+          <summary>Notes on the rule set and how far each point is confirmed</summary>
           <ul>
             {rs.notes.map((n) => (
               <li key={n}>{n}</li>
@@ -153,7 +153,6 @@ function CustodyResult({ r, timeZone }: { r: CustodyReport; timeZone: string }) 
             ["Claims checked (all periods)", `${r.claims.length} shipments, ${kg(claimed, 0)}`],
             ["Claims over the balance (all periods)", refused.length === 0 ? "none" : <strong key="x">{refused.length}</strong>],
             ["Bookings", String(r.bookings)],
-            ["Worked out in", `${num(r.computeMs, 0)} ms`],
           ]}
         />
         {r.claimCheck ? <ClaimCheckResult c={r.claimCheck} /> : null}

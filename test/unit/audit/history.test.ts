@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { describeChange, isRecordHistoryKind, RECORD_HISTORIES } from "@/lib/audit/history";
 
-// 21 CFR 11.10(e) (as summarised in ../shared/domain/integrity.md): an audit trail records the old and
+// 21 CFR 11.10(e): an audit trail records the old and
 // new values of a change. These checks pin how the history page shows them.
 describe("describeChange", () => {
   it("shows every field of a creation with no old value", () => {

@@ -18,7 +18,7 @@ import {
 } from "@/lib/batch/plan";
 import type { BatchFacts, BatchPlanRequest, BatchPlanRequestInput, LotStock, PlanProposal, PlanStock, ReagentStock, TankShare } from "@/lib/batch/plan";
 
-// Check values are worked by hand in the comments or taken from /work/shared/domain/facts.md, never from
+// Check values are worked by hand in the comments or taken from published sources named beside them, never from
 // the code under test.
 
 const NOW = new Date("2026-03-01T12:00:00Z");
@@ -52,7 +52,7 @@ async function requireCard(input: BatchPlanRequestInput, stock: PlanStock, reage
   return p.outcome;
 }
 
-// Triolein model: M 885.453 g/mol, 6:1 methanol = 217.12 g per kg, FAME 1.00455 kg per kg (facts.md §d.3, computed).
+// Triolein model: M 885.453 g/mol, 6:1 methanol = 217.12 g per kg, FAME 1.00455 kg per kg (triolein model, IUPAC 2021 atomic weights, computed).
 const TRIOLEIN = { meanTgMolarMass: 885.453, molarRatio: 6 };
 
 describe("summariseContents — mass-weighted tank quality", () => {
@@ -185,18 +185,18 @@ describe("draftBatchPlan — blend, route and recipe", () => {
     expect(o.card.route.reason).toContain("Kombe");
   });
 
-  it("catalyst: 0.5 % of 1000 kg + 1.416 kg NaOH per % FFA per tonne (facts.md §b.3) = 6.416 kg", async () => {
+  it("catalyst: 0.5 % of 1000 kg + 1.416 kg NaOH per % FFA per tonne (stoichiometry, computed) = 6.416 kg", async () => {
     const o = await requireCard(base, twoLots);
     expect(o.card.baseStep.catalyst.baseKg).toBeCloseTo(5, 6);
     expect(o.card.baseStep.catalyst.neutralisationKg).toBeCloseTo(1.416, 2);
     expect(o.card.baseStep.catalyst.productKg).toBeCloseTo(6.416, 2);
   });
 
-  it("methanol: 990 kg triglyceride × 217.12 g/kg at 6:1 = 214.95 kg; 214.95 / 0.7915 = 271.6 L at 20 °C (facts.md §d.3, §e)", async () => {
+  it("methanol: 990 kg triglyceride × 217.12 g/kg at 6:1 = 214.95 kg; 214.95 / 0.7915 = 271.6 L at 20 °C (triolein model, IUPAC 2021 atomic weights, computed; common practice)", async () => {
     const o = await requireCard(base, twoLots);
     expect(o.card.baseStep.methanol.toAddKg).toBeCloseTo(214.95, 1);
     expect(o.card.baseStep.methanol.toAddL20C).toBeCloseTo(271.6, 0);
-    // Ester from the triglyceride only: 990 × 1.00455 = 994.50 kg (facts.md §d.3)
+    // Ester from the triglyceride only: 990 × 1.00455 = 994.50 kg (triolein model, IUPAC 2021 atomic weights, computed)
     expect(o.card.expected.esterKg).toBeCloseTo(994.5, 0);
   });
 
@@ -212,7 +212,7 @@ describe("draftBatchPlan — blend, route and recipe", () => {
     expect(o.card.baseStep.catalyst.assaySource).toBe("reagent lot NAOH-7 as received");
   });
 
-  it("methoxide solution: 70 % of the 30 % solution is methanol, counted toward the charge (facts.md §b.3)", async () => {
+  it("methoxide solution: 70 % of the 30 % solution is methanol, counted toward the charge (stoichiometry, computed)", async () => {
     const o = await requireCard({ ...base, catalyst: "NAOME_SOLUTION", assayPct: 30, baseDosePctOfOil: 0.5 }, twoLots);
     const m = o.card.baseStep.methanol;
     expect(m.fromCatalystSolutionKg).toBeCloseTo(o.card.baseStep.catalyst.productKg * 0.7, 6);
@@ -240,7 +240,7 @@ describe("draftBatchPlan — blend, route and recipe", () => {
     expect(p.outcome.ok ? "" : p.outcome.stage).toBe("CANDIDATES");
   });
 
-  it("12 % FFA → acid step: methanol 20:1 on 0.4248 kmol FFA = 272.2 kg, H2SO4 5 % of 120 kg = 6.0 kg pure (facts.md §b.2)", async () => {
+  it("12 % FFA → acid step: methanol 20:1 on 0.4248 kmol FFA = 272.2 kg, H2SO4 5 % of 120 kg = 6.0 kg pure (Canakci & Van Gerpen 2001, computed)", async () => {
     const stock: PlanStock = { lots: [lot("Y", { ffaPct: 12, waterPct: 0 })], tanks: [] };
     const o = await requireCard({ targetOilKg: 1000, maxFfaPct: 20, catalyst: "KOH", assayPct: 90, ...TRIOLEIN }, stock, [reagent("H2SO4-1", "H2SO4", 100, 96, 5)]);
     expect(o.card.route.route).toBe("ACID_PRETREATMENT");
@@ -302,7 +302,7 @@ describe("after the batch: actuals, plan and yield", () => {
     reactionTempC: 60,
   };
 
-  it("a recipe stored before cards: theory rebuilt on the triolein model, 1004.55 kg ester per tonne (facts.md §d.3)", () => {
+  it("a recipe stored before cards: theory rebuilt on the triolein model, 1004.55 kg ester per tonne (triolein model, IUPAC 2021 atomic weights, computed)", () => {
     const y = computeRecordedYield(legacy, [{ role: "OIL", massG: 1_000_000 }, { role: "METHANOL", massG: 217_120 }, { role: "CATALYST", massG: 5_000 }], [{ role: "ESTER", massG: 954_322 }]);
     expect(y.ok).toBe(true);
     if (!y.ok) return;
@@ -315,7 +315,7 @@ describe("after the batch: actuals, plan and yield", () => {
     expect(y.value.planned.notes[0]).toContain("water taken as 0 %");
   });
 
-  it("a card plan: ester vs the 994.5 kg theory of 990 kg triglyceride (facts.md §d.3)", async () => {
+  it("a card plan: ester vs the 994.5 kg theory of 990 kg triglyceride (triolein model, IUPAC 2021 atomic weights, computed)", async () => {
     const o = await requireCard({ targetOilKg: 1000, maxFfaPct: 1, catalyst: "NAOH", assayPct: 100, baseDosePctOfOil: 0.5, ...TRIOLEIN }, { lots: [lot("C", { ffaPct: 1 })], tanks: [] });
     const facts: BatchFacts = { recipeJson: JSON.stringify(o.stored), pretreated: false, targetOilG: 1_000_000, molarRatio: 6, catalyst: "NAOH", reactionTempC: 60 };
     const planned = readPlannedFigures(facts);

@@ -17,7 +17,7 @@ function value(r: { ok: true; value: number } | { ok: false }): number {
 }
 
 describe("mean TG molar mass from saponification value", () => {
-  // facts.md §c.1 check values, computed with 168 316 / SV (exact M(KOH) 56.1053), printed to 0.1 g/mol
+  // saponification value definition, computed check values, computed with 168 316 / SV (exact M(KOH) 56.1053), printed to 0.1 g/mol
   it.each([
     [180, 935.1],
     [185, 909.8],
@@ -37,12 +37,12 @@ describe("mean TG molar mass from saponification value", () => {
   });
 
   it("subtracts the acid value", () => {
-    // facts.md §c.1 (Q&A page [V]): Mwt = 56.1·1000·3/(SV − AV)
+    // saponification value definition, computed (Q&A page [V]): Mwt = 56.1·1000·3/(SV − AV)
     expect(value(computeMeanTgMolarMassFromSv(195, { acidValueMgKohPerG: 4 }))).toBeCloseTo(168300 / 191, 9);
   });
 
   it("inverts the SV of triolein", () => {
-    // facts.md §c.1: SV of triolein = 168 316 / 885.453 = 190.09 mg KOH/g
+    // saponification value definition, computed: SV of triolein = 168 316 / 885.453 = 190.09 mg KOH/g
     expect(Math.abs(value(computeMeanTgMolarMassFromSv(190.09, { kohMolarMass: 56.1053 })) - 885.453)).toBeLessThan(0.05);
   });
 
@@ -61,7 +61,7 @@ describe("mean TG molar mass from saponification value", () => {
 
 describe("from fatty-acid profile", () => {
   it("glycerol − 3 water = 38.049 g/mol and methanol − water = 14.027 g/mol", () => {
-    // facts.md §c.1: M_TG = 3·M̄_FA + 38.049; M̄_FAME = M̄_FA + 14.027; M_TG = 3·M̄_FAME − 4.032 (computed)
+    // saponification value definition, computed: M_TG = 3·M̄_FA + 38.049; M̄_FAME = M̄_FA + 14.027; M_TG = 3·M̄_FAME − 4.032 (computed)
     expect(computeTgMolarMassFromFa(0)).toBeCloseTo(38.049, 3);
     expect(computeFameMolarMassFromFa(0)).toBeCloseTo(14.027, 3);
     expect(3 * computeFameMolarMassFromTg(0)).toBeCloseTo(3 * 32.042 - 92.094, 3);
@@ -72,13 +72,13 @@ describe("from fatty-acid profile", () => {
     ["C16:0", 807.339, 270.457],
     ["C18:2", 879.405, 294.479],
   ])("pure %s gives the single-acid TG and FAME", (acid, tg, fame) => {
-    // facts.md §d.2 (triolein/methyl oleate, tripalmitin/methyl palmitate, trilinolein/methyl linoleate)
+    // IUPAC 2021 atomic weights, computed (triolein/methyl oleate, tripalmitin/methyl palmitate, trilinolein/methyl linoleate)
     expect(Math.abs(value(computeMeanTgMolarMassFromProfile([{ acid, massPct: 100 }])) - tg)).toBeLessThan(0.001);
     expect(Math.abs(value(computeMeanFameMolarMassFromProfile([{ acid, massPct: 100 }])) - fame)).toBeLessThan(0.001);
   });
 
   it("averages mass fractions harmonically and normalises the shares", () => {
-    // standard: M̄ = 1/Σ(w_i/M_i); palmitic 256.430, oleic 282.468 (facts.md §d.2)
+    // standard: M̄ = 1/Σ(w_i/M_i); palmitic 256.430, oleic 282.468 (IUPAC 2021 atomic weights, computed)
     const expected = 1 / (0.5 / 256.43 + 0.5 / 282.468);
     expect(value(computeMeanFaMolarMass([{ acid: "C16:0", massPct: 50 }, { acid: "C18:1", massPct: 50 }]))).toBeCloseTo(expected, 2);
     expect(value(computeMeanFaMolarMass([{ acid: "C16:0", massPct: 49 }, { acid: "C18:1", massPct: 49 }]))).toBeCloseTo(expected, 2);
@@ -96,12 +96,12 @@ describe("from fatty-acid profile", () => {
 
 describe("FAME from TG", () => {
   it("triolein → methyl oleate", () => {
-    // facts.md §d.2: triolein 885.453 → methyl oleate 296.495
+    // IUPAC 2021 atomic weights, computed: triolein 885.453 → methyl oleate 296.495
     expect(computeFameMolarMassFromTg(885.453)).toBeCloseTo(296.495, 3);
   });
 });
 
-describe("stoichiometric yield, 1 kg triolein (facts.md §d.3, computed)", () => {
+describe("stoichiometric yield, 1 kg triolein (triolein model, IUPAC 2021 atomic weights, computed)", () => {
   const molTg = 1000 / MOLAR_MASS.triolein;
   it("mol TG, methanol consumed, FAME and glycerol", () => {
     expect(molTg).toBeCloseTo(1.12937, 5);
@@ -129,12 +129,12 @@ describe("feedstock defaults", () => {
   });
 
   it("soybean default sits on the §c.1 SV 192 check value", () => {
-    // facts.md §c.1: SV 192 → 876.6 g/mol
+    // saponification value definition, computed: SV 192 → 876.6 g/mol
     expect(Math.abs(FEEDSTOCK_MOLAR_MASS_DEFAULTS.SOYBEAN.meanTgMolarMass - 876.6)).toBeLessThan(0.1);
   });
 
   it("marks the used-cooking-oil default as from memory", () => {
-    // facts.md §c.2: UCO SV ≈ 185–200 is (from memory, unverified)
+    // Codex Stan 210: UCO SV ≈ 185–200 is (from memory, unverified)
     expect(FEEDSTOCK_MOLAR_MASS_DEFAULTS.USED_COOKING_OIL.status).toBe("from memory");
   });
 });

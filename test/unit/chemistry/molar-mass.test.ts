@@ -11,10 +11,10 @@ import {
 } from "@/lib/chemistry/molar-mass";
 import type { CompoundName } from "@/lib/chemistry/molar-mass";
 
-// facts.md §d.1 — IUPAC/CIAAW Standard Atomic Weights 2021 (conventional values for H, C, O, S).
+// IUPAC 2021 atomic weights — IUPAC/CIAAW Standard Atomic Weights 2021 (conventional values for H, C, O, S).
 const IUPAC_2021 = { H: 1.008, C: 12.011, O: 15.999, Na: 22.98976928, K: 39.0983, S: 32.06 };
 
-// facts.md §d.2, column "M g/mol (IUPAC conventional)", printed to 3 decimals → ±0.0005 plus float noise.
+// IUPAC 2021 atomic weights, computed, column "M g/mol (IUPAC conventional)", printed to 3 decimals → ±0.0005 plus float noise.
 const PRINTED_TOLERANCE = 0.0006;
 const D2_TABLE: Array<[CompoundName, string, number]> = [
   ["triolein", "C57H104O6", 885.453],
@@ -44,14 +44,14 @@ const D2_TABLE: Array<[CompoundName, string, number]> = [
 
 describe("atomic weights", () => {
   it("are the IUPAC 2021 conventional/standard values", () => {
-    // IUPAC 2021 atomic weights (facts.md §d.1)
+    // IUPAC 2021 atomic weights (IUPAC 2021 atomic weights)
     expect(ATOMIC_WEIGHTS).toEqual(IUPAC_2021);
   });
 });
 
-describe("molarMass against facts.md §d.2", () => {
+describe("molarMass against IUPAC 2021 atomic weights, computed", () => {
   it.each(D2_TABLE)("%s (%s) = %f g/mol", (name, formula, expected) => {
-    // facts.md §d.2, IUPAC 2021 column
+    // IUPAC 2021 atomic weights, computed, IUPAC 2021 column
     expect(COMPOUND_FORMULAS[name]).toBe(formula);
     const m = molarMass(formula);
     expect(m.ok).toBe(true);
@@ -61,7 +61,7 @@ describe("molarMass against facts.md §d.2", () => {
   });
 
   it("gives the 5-decimal hydroxide values", () => {
-    // facts.md §d.2: NaOH 39.99677, KOH 56.1053 (IUPAC 2021)
+    // IUPAC 2021 atomic weights, computed: NaOH 39.99677, KOH 56.1053 (IUPAC 2021)
     expect(Math.abs(MOLAR_MASS.sodiumHydroxide - 39.99677)).toBeLessThan(5e-6);
     expect(Math.abs(MOLAR_MASS.potassiumHydroxide - 56.1053)).toBeLessThan(5e-5);
   });
@@ -73,7 +73,7 @@ describe("molarMass against facts.md §d.2", () => {
 });
 
 describe("cross-check with mf-parser (cheminfo element masses)", () => {
-  // facts.md §k: mf-parser uses abundance-weighted masses, not IUPAC conventional values
+  // mf-parser's own documentation: mf-parser uses abundance-weighted masses, not IUPAC conventional values
   // (triolein 885.434 vs 885.453); relative tolerance must be ≥ 5e-5. H2SO4 differs by 6.4e-5 (S 32.0648 vs 32.06).
   const REL_TOL = 1e-4;
   it.each(D2_TABLE)("%s", (_name, formula) => {

@@ -205,7 +205,7 @@ describe("computePeriodBalance — signals of missing records", () => {
 });
 
 describe("classifyClosure — tolerance boundaries", () => {
-  // Defaults warn > 0.5 %, fail > 2 % of inputs: common practice, no source (facts §j).
+  // Defaults warn > 0.5 %, fail > 2 % of inputs: common practice, no source.
   const base = 1_000_000;
   it.each([
     { imbalance: 0, flag: "OK" },

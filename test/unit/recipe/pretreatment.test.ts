@@ -5,11 +5,11 @@ import { planRecipe } from "@/lib/recipe/recipe";
 import { defineSourced } from "@/lib/chemistry/sourced-value";
 import type { PretreatmentInput } from "@/lib/recipe/recipe.schema";
 
-// facts.md §d.2 (IUPAC 2021 column)
+// IUPAC 2021 atomic weights, computed (IUPAC 2021 column)
 const M = { oleic: 282.468, methanol: 32.042, water: 18.015, methylOleate: 296.495, triolein: 885.453 };
 
 describe("decideRoute", () => {
-  // FFA < 0.5 % direct (Ma, Clements & Hanna 1998); < 3 % with extra catalyst (Kombe et al. 2013); facts.md §b.1
+  // FFA < 0.5 % direct (Ma, Clements & Hanna 1998); < 3 % with extra catalyst (Kombe et al. 2013); literature as named
   it.each([
     [0, "DIRECT_BASE"],
     [0.49, "DIRECT_BASE"],
@@ -29,7 +29,7 @@ describe("decideRoute", () => {
   });
 });
 
-describe("acid step, worked example 1 kg at 12 % FFA (facts.md §b.2, computed)", () => {
+describe("acid step, worked example 1 kg at 12 % FFA (Canakci & Van Gerpen 2001, computed)", () => {
   const step = computeAcidStep({ massKg: 1, ffaPct: 12, waterPct: 0 }, { residualFfaPct: 0 });
   const molFfa = 120 / M.oleic;
 
@@ -99,7 +99,7 @@ describe("planPretreatment", () => {
     // The triglyceride is untouched by the acid step: still 880 kg, so methanol is dosed on 880 kg, not on the oil phase.
     expect(base.oil.triglycerideKg).toBeCloseTo(880, 6);
     expect(base.methanol.chargeKg).toBeCloseTo((6 * (880_000 / M.triolein) * M.methanol) / 1000, 6);
-    // Neutralisation only for the residual 1 % FFA: 1.416 g NaOH per kg per % (facts.md §b.3)
+    // Neutralisation only for the residual 1 % FFA: 1.416 g NaOH per kg per % (stoichiometry, computed)
     expect(base.catalyst.neutralisationKg / base.oil.massKg).toBeCloseTo(0.001416, 5);
     // Carried-in ester is part of the expected ester output.
     expect(base.products.fameKg).toBeGreaterThan(base.oil.fameInKg);

@@ -7,7 +7,7 @@ import { defineSourced } from "@/lib/chemistry/sourced-value";
 import { CATALYST_TYPES } from "@/lib/recipe/catalyst";
 import type { RecipeInput, RecipeSettings } from "@/lib/recipe/recipe.schema";
 
-// Molar masses below are facts.md §d.2 (IUPAC 2021 column), typed in by hand.
+// Molar masses below are IUPAC 2021 atomic weights, computed (IUPAC 2021 column), typed in by hand.
 const M = { triolein: 885.453, oleic: 282.468, methanol: 32.042, naome: 54.024, glycerol: 92.094, methylOleate: 296.495 };
 
 function requirePlan(input: RecipeInput, limits = {}): RecipePlan {
@@ -18,11 +18,11 @@ function requirePlan(input: RecipeInput, limits = {}): RecipePlan {
 
 const codes = (plan: RecipePlan) => plan.warnings.map((w) => w.code);
 
-// AV 4.0 mg KOH/g → FFA % as oleic = AV × M(oleic) / (10 × M(KOH)) (AV definition, facts.md §a.1)
+// AV 4.0 mg KOH/g → FFA % as oleic = AV × M(oleic) / (10 × M(KOH)) (AV definition, acid value definition, computed)
 const UCO_AV4_FFA_PCT = (4.0 * 282.468) / (10 * 56.1053);
 const ucoLot = { lotRef: "UCO-1", massKg: 1000, ffaPct: UCO_AV4_FFA_PCT, waterPct: 0 };
 
-describe("worked batch, 1000 kg UCO at AV 4.0 (facts.md §b.3, computed)", () => {
+describe("worked batch, 1000 kg UCO at AV 4.0 (stoichiometry, computed)", () => {
   it.each([
     [90, 15.56],
     [85, 16.47],
@@ -31,7 +31,7 @@ describe("worked batch, 1000 kg UCO at AV 4.0 (facts.md §b.3, computed)", () =>
       lots: [ucoLot],
       settings: { catalyst: "KOH", purityPct, baseDosePctOfOil: 1.0, meanTgMolarMass: M.triolein },
     });
-    // facts.md §b.3: neutralisation 4.0 kg + base 10.0 kg = 14.0 kg pure
+    // stoichiometry, computed: neutralisation 4.0 kg + base 10.0 kg = 14.0 kg pure
     expect(plan.catalyst.neutralisationKg).toBeCloseTo(4.0, 3);
     expect(plan.catalyst.baseKg).toBeCloseTo(10.0, 9);
     expect(plan.catalyst.pureKg).toBeCloseTo(14.0, 3);
@@ -43,7 +43,7 @@ describe("worked batch, 1000 kg UCO at AV 4.0 (facts.md §b.3, computed)", () =>
       lots: [ucoLot],
       settings: { catalyst: "NAOH", purityPct: 100, baseDosePctOfOil: 0, meanTgMolarMass: M.triolein },
     });
-    // facts.md §b.3: NaOH route neutralisation 2.85 kg
+    // stoichiometry, computed: NaOH route neutralisation 2.85 kg
     expect(Math.abs(plan.catalyst.neutralisationKg - 2.85)).toBeLessThan(0.005);
   });
 
@@ -52,26 +52,26 @@ describe("worked batch, 1000 kg UCO at AV 4.0 (facts.md §b.3, computed)", () =>
       lots: [ucoLot],
       settings: { catalyst: "NAOME_SOLUTION", solutionStrengthPct: 30, baseDosePctOfOil: 0, meanTgMolarMass: M.triolein },
     });
-    // facts.md §b.3
+    // stoichiometry, computed
     expect(Math.abs(plan.catalyst.pureKg - 3.85)).toBeLessThan(0.005);
     expect(Math.abs(plan.catalyst.productKg - 12.84)).toBeLessThan(0.005);
   });
 });
 
-describe("triolein model, 1 kg at 6:1 (facts.md §d.3, computed)", () => {
+describe("triolein model, 1 kg at 6:1 (triolein model, IUPAC 2021 atomic weights, computed)", () => {
   const plan = requirePlan({
     lots: [{ lotRef: "T", massKg: 1, ffaPct: 0, waterPct: 0 }],
     settings: { catalyst: "NAOH", purityPct: 100, baseDosePctOfOil: 0, meanTgMolarMass: M.triolein, molarRatio: 6 },
   });
   it("methanol 217.12 g ≈ 274 mL at 20 °C", () => {
-    // facts.md §d.3: methanol charged at 6:1 217.12 g (≈ 274 mL at 0.7915 g/mL, Merck d20/4)
+    // triolein model, IUPAC 2021 atomic weights, computed: methanol charged at 6:1 217.12 g (≈ 274 mL at 0.7915 g/mL, Merck d20/4)
     expect(plan.methanol.chargeKg * 1000).toBeCloseTo(217.12, 2);
     expect(Math.round(plan.methanol.chargeL20C * 1000)).toBe(274);
     expect(plan.methanol.toAddMl20C).toBe(274);
     expect(plan.methanol.toAddG).toBe(217);
   });
   it("FAME 1004.55 g, glycerol 104.01 g, excess methanol 108.56 g", () => {
-    // facts.md §d.3
+    // triolein model, IUPAC 2021 atomic weights, computed
     expect(plan.products.fameKg * 1000).toBeCloseTo(1004.55, 2);
     expect(plan.products.glycerolKg * 1000).toBeCloseTo(104.01, 2);
     expect(plan.products.excessMethanolKg * 1000).toBeCloseTo(108.56, 2);
@@ -101,11 +101,11 @@ describe("methoxide solution brings methanol toward the charge", () => {
     expect(plan.methanol.toAddKg).toBeCloseTo(chargeKg - fromSolutionKg, 2);
   });
 
-  it("methoxide forms methanol, not water, when it neutralises FFA (facts.md §b.3 reactions)", () => {
+  it("methoxide forms methanol, not water, when it neutralises FFA (stoichiometry, computed reactions)", () => {
     expect(plan.products.waterFormedKg).toBe(0);
     const formedKg = (10 / M.oleic) * M.methanol;
     expect(plan.products.excessMethanolKg).toBeCloseTo(chargeKg - (3 * molTg * M.methanol) / 1000 + formedKg, 2);
-    // Na oleate 304.450 g/mol (facts.md §b.3)
+    // Na oleate 304.450 g/mol (stoichiometry, computed)
     expect(plan.products.soapKg).toBeCloseTo((10 / M.oleic) * 304.45, 3);
   });
 
@@ -147,7 +147,7 @@ describe("warnings", () => {
     [65, ["RECIPE.NEAR_METHANOL_BOILING"], "above the boiling point"],
     [45, ["RECIPE.LOW_REACTION_TEMPERATURE"], "below 50 °C"],
   ])("reaction at %f °C → %j (%s)", (reactionTempC, expected) => {
-    // methanol b.p. 64.7 °C (Merck Index, facts.md §j); margin 2 K and 50 °C floor (common practice)
+    // methanol b.p. 64.7 °C (Merck Index, common practice); margin 2 K and 50 °C floor (common practice)
     const plan = requirePlan({ lots: oneLot(0.1, 0.01), settings: { ...baseSettings, reactionTempC } });
     expect(codes(plan).filter((c) => c.includes("TEMPERATURE") || c.includes("BOILING"))).toEqual(expected);
   });
@@ -168,7 +168,7 @@ describe("warnings", () => {
     [0.4, 0.061, ["RECIPE.HIGH_WATER"]],
     [12, 0.3, ["RECIPE.FFA_REQUIRES_PRETREATMENT", "RECIPE.HIGH_WATER"]],
   ])("FFA %f pct, water %f pct → %j", (ffa, water, expected) => {
-    // FFA 0.5 % (Ma, Clements & Hanna 1998), 3 % (Kombe et al. 2013), water 0.06 % (Ma 1998) — facts.md §b.1
+    // FFA 0.5 % (Ma, Clements & Hanna 1998), 3 % (Kombe et al. 2013), water 0.06 % (Ma 1998) — literature as named
     const plan = requirePlan({ lots: oneLot(ffa, water), settings: baseSettings });
     expect(codes(plan).filter((c) => c.includes("FFA") || c.includes("WATER"))).toEqual(expected);
   });

@@ -5,7 +5,7 @@ import { computeBatchYield } from "@/lib/recipe/yield";
 import type { BatchYield } from "@/lib/recipe/yield";
 import type { BatchActuals } from "@/lib/recipe/recipe.schema";
 
-// Triolein model, 1000 kg, no FFA: theoretical FAME 1004.55 kg, glycerol 104.01 kg (facts.md §d.3, computed).
+// Triolein model, 1000 kg, no FFA: theoretical FAME 1004.55 kg, glycerol 104.01 kg (triolein model, IUPAC 2021 atomic weights, computed).
 function trioleinPlan(): RecipePlan {
   const r = planRecipe({
     lots: [{ lotRef: "T", massKg: 1000, ffaPct: 0, waterPct: 0 }],
@@ -21,13 +21,13 @@ function requireYield(actuals: BatchActuals): BatchYield {
   return r.value;
 }
 
-// Planned: NaOH 0.5 % of 1000 kg = 5 kg; methanol 6:1 = 217.12 kg (facts.md §d.3 scaled ×1000).
+// Planned: NaOH 0.5 % of 1000 kg = 5 kg; methanol 6:1 = 217.12 kg (triolein model, IUPAC 2021 atomic weights, computed scaled ×1000).
 const onPlan: BatchActuals = { esterKg: 954.3225, glycerolPhaseKg: 180, catalystProductUsedKg: 5, methanolAddedKg: 217.12 };
 
 describe("computeBatchYield", () => {
   it("ester yield vs theory and per kg oil", () => {
     const y = requireYield(onPlan);
-    // 954.3225 / 1004.55 = 0.95 (theory from facts.md §d.3)
+    // 954.3225 / 1004.55 = 0.95 (theory from triolein model, IUPAC 2021 atomic weights, computed)
     expect(y.esterYieldVsTheory).toBeCloseTo(954.3225 / 1004.55, 4);
     expect(y.esterPerKgOil).toBeCloseTo(0.9543225, 9);
     expect(y.glycerolPhasePerKgOil).toBeCloseTo(0.18, 9);

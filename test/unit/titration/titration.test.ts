@@ -44,20 +44,20 @@ describe("FFA factor table", () => {
     { basis: "OLEIC" as const, formula: "C18H34O2" },
     { basis: "PALMITIC" as const, formula: "C16H32O2" },
     { basis: "LAURIC" as const, formula: "C12H24O2" },
-  ])("molar mass of $basis acid agrees with mf-parser within 5e-5 (facts.md §k)", ({ basis, formula }) => {
-    // mf-parser uses abundance-weighted element masses, slightly off IUPAC conventional values (facts.md §k)
+  ])("molar mass of $basis acid agrees with mf-parser within 5e-5 (mf-parser's own documentation)", ({ basis, formula }) => {
+    // mf-parser uses abundance-weighted element masses, slightly off IUPAC conventional values (mf-parser's own documentation)
     const reference = new MF(formula).getInfo().mass;
     expect(Math.abs(FFA_FACTORS[basis].molarMassGMol - reference) / reference).toBeLessThan(5e-5);
   });
 
   it("the method factor is M/10 rounded to one decimal", () => {
-    // facts.md §a.1: 28.2 = 282.468/10 rounded; 25.64 → 25.6; 20.03 → 20.0
+    // acid value definition, computed: 28.2 = 282.468/10 rounded; 25.64 → 25.6; 20.03 → 20.0
     for (const basis of FFA_BASES) {
       expect(Math.round(getFfaFactor(basis, "molar-mass") * 10) / 10).toBeCloseTo(FFA_FACTORS[basis].methodFactor, 9);
     }
   });
 
-  it("KOH molar mass agrees with mf-parser (facts.md §d.2: 56.1053 IUPAC, 56.106 cheminfo)", () => {
+  it("KOH molar mass agrees with mf-parser (IUPAC 2021 atomic weights, computed: 56.1053 IUPAC, 56.106 cheminfo)", () => {
     const reference = new MF("KOH").getInfo().mass;
     expect(Math.abs(KOH_MOLAR_MASS_G_MOL - reference) / reference).toBeLessThan(5e-5);
   });
@@ -65,7 +65,7 @@ describe("FFA factor table", () => {
 
 describe("calculateFfaPercent (AOCS Ca 5a-40)", () => {
   const vectors: Array<{ name: string; input: TitrationInput; basis?: "OLEIC" | "PALMITIC" | "LAURIC"; mode?: "method" | "molar-mass"; expected: number; digits: number }> = [
-    // facts.md §a.3 worked check values
+    // AOCS Ca 5a-40, computed worked check values
     { name: "V 10.00, N 0.1, m 28.2 → 1.000 % oleic", input: { titreMl: 10, concentrationMolL: 0.1, sampleMassG: 28.2 }, expected: 1.0, digits: 9 },
     { name: "same with exact M → 1.0017 %", input: { titreMl: 10, concentrationMolL: 0.1, sampleMassG: 28.2 }, mode: "molar-mass", expected: 1.0017, digits: 4 },
     { name: "V 5.00, N 0.25, m 7.05 → 5.000 %", input: { titreMl: 5, concentrationMolL: 0.25, sampleMassG: 7.05 }, expected: 5.0, digits: 9 },
@@ -104,7 +104,7 @@ describe("calculateFfaPercent (AOCS Ca 5a-40)", () => {
 
 describe("calculateAcidValue (EN 14104 / ISO 660 form)", () => {
   it("A 4.45, B 0.05, c 0.1000, m 5.000 → 4.9368 mg KOH/g", () => {
-    // facts.md §a.3: (4.40 × 0.1 × 56.1)/5 = 4.9368
+    // AOCS Ca 5a-40, computed: (4.40 × 0.1 × 56.1)/5 = 4.9368
     const r = requireOk(calculateAcidValue({ titreMl: 4.45, blankMl: 0.05, concentrationMolL: 0.1, sampleMassG: 5 }));
     expect(r.acidValueMgKohG).toBeCloseTo(4.9368, 9);
     expect(r.netTitreMl).toBeCloseTo(4.4, 12);
@@ -119,11 +119,11 @@ describe("calculateAcidValue (EN 14104 / ISO 660 form)", () => {
 
 describe("AV ↔ FFA", () => {
   const cases: Array<{ name: string; run: () => Result<number>; expected: number; tolerance: number }> = [
-    // facts.md §a.3 (computed with exact molar masses): FFA 1.00 % oleic → AV 1.986; AV 1.00 → FFA 0.503
+    // AOCS Ca 5a-40, computed (computed with exact molar masses): FFA 1.00 % oleic → AV 1.986; AV 1.00 → FFA 0.503
     { name: "FFA 1 % oleic → AV 1.986 (molar mass)", run: () => acidValueFromFfa(1), expected: 1.986, tolerance: 5e-4 },
     { name: "AV 1 → FFA 0.503 % oleic (molar mass)", run: () => ffaFromAcidValue(1), expected: 0.503, tolerance: 5e-4 },
     { name: "AV 4.9368 → FFA 2.485 % oleic (molar mass)", run: () => ffaFromAcidValue(4.9368), expected: 2.485, tolerance: 5e-4 },
-    // facts.md §a.1 (computed): palmitic 2.188, lauric 2.801 AV per % FFA
+    // acid value definition, computed (computed): palmitic 2.188, lauric 2.801 AV per % FFA
     { name: "FFA 1 % palmitic → AV 2.188", run: () => acidValueFromFfa(1, { basis: "PALMITIC" }), expected: 2.188, tolerance: 5e-4 },
     { name: "FFA 1 % lauric → AV 2.801", run: () => acidValueFromFfa(1, { basis: "LAURIC" }), expected: 2.801, tolerance: 5e-4 },
     // AOCS Ca 5a-40 Calculations note: AV = 1.99 × % FFA (oleic); inverse by hand 1/1.99 = 0.502513, 4.9368/1.99 = 2.480804
@@ -137,7 +137,7 @@ describe("AV ↔ FFA", () => {
   });
 
   it("the two oleic conversions differ by the 0.19 % rounding of the note", () => {
-    // 1.99 / 1.98625 = 1.00189 (facts.md §a.1)
+    // 1.99 / 1.98625 = 1.00189 (acid value definition, computed)
     const exact = requireOk(acidValueFromFfa(1));
     expect(CA5A40_AV_PER_FFA_OLEIC.value / exact).toBeCloseTo(1.00189, 4);
   });
@@ -276,7 +276,7 @@ describe("summariseReplicates", () => {
 });
 
 describe("suggestSampleSize (AOCS Ca 5a-40 Table 1)", () => {
-  // facts.md §a.2 rows and their "FFA % per mL" check column (computed N × 28.2 / m)
+  // AOCS Ca 5a-40 Table 1 rows and their "FFA % per mL" check column (computed N × 28.2 / m)
   const rows: Array<{ ffa: number; mass: number; alcohol: number; n: number[]; perMl: number[] }> = [
     { ffa: 0.1, mass: 56.4, alcohol: 50, n: [0.1], perMl: [0.05] },
     { ffa: 0.5, mass: 28.2, alcohol: 50, n: [0.1], perMl: [0.1] },

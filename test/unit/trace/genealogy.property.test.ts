@@ -15,7 +15,7 @@ import type { History } from "./arbitraries";
 // Our own consistency checks (invariants of the trace model); no external source is needed for
 // conservation of mass. The regulatory frame they serve: mass-balance chain of custody, where the
 // sum withdrawn carries the same characteristics, in the same quantities, as the sum added
-// (RED 2009/28 Art. 18(1)(a)–(c), per /work/shared/domain/facts.md h.1).
+// (RED 2009/28 Art. 18(1)(a)–(c)).
 
 const RUNS = { numRuns: 200 };
 

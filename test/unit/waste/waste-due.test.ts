@@ -19,8 +19,8 @@ describe("ignitability D001", () => {
   it.each([
     { name: "flash point 59.9 °C → ignitable", c: { ...liquidNonAqueous, flashPointC: 59.9 }, status: "YES" }, // 40 CFR 261.21(a)(1)
     { name: "flash point 60 °C → not ignitable", c: { ...liquidNonAqueous, flashPointC: 60 }, status: "NO" }, // 40 CFR 261.21(a)(1)
-    { name: "methanol-rich liquid at methanol's flash point 11 °C → ignitable", c: { ...liquidNonAqueous, flashPointC: 11 }, status: "YES" }, // methanol flash point 11 °C closed cup (Engineering Toolbox, facts §g.1)
-    { name: "ester-like liquid at 130 °C → not ignitable", c: { ...liquidNonAqueous, flashPointC: 130 }, status: "NO" }, // D6751 alcohol control flash point 130 °C (facts §f.1)
+    { name: "methanol-rich liquid at methanol's flash point 11 °C → ignitable", c: { ...liquidNonAqueous, flashPointC: 11 }, status: "YES" }, // methanol flash point 11 °C closed cup (Engineering Toolbox, 40 CFR 261)
+    { name: "ester-like liquid at 130 °C → not ignitable", c: { ...liquidNonAqueous, flashPointC: 130 }, status: "NO" }, // D6751 alcohol control flash point 130 °C (ASTM D6751-23a)
     { name: "aqueous with 23.9 % alcohol by volume, flash 30 °C → excluded", c: { aqueous: true, methanolPct: 23.9, flashPointC: 30, pH: 7 }, status: "NO" }, // 40 CFR 261.21(a)(1) aqueous < 24 % alcohol exclusion
     { name: "aqueous with 24 % alcohol by volume, flash 30 °C → ignitable", c: { aqueous: true, methanolPct: 24, flashPointC: 30, pH: 7 }, status: "YES" }, // 40 CFR 261.21(a)(1)
     { name: "50 % water by weight counts as aqueous → excluded", c: { waterPct: 50, methanolPct: 10, flashPointC: 30, pH: 7 }, status: "NO" }, // 85 FR 40594 ≥ 50 % water by weight (from memory, unverified)
@@ -44,9 +44,9 @@ describe("ignitability D001", () => {
 
 describe("corrosivity D002", () => {
   it.each([
-    { pH: 12.5, status: "YES" }, // 40 CFR 261.22(a)(1): pH ≥ 12.5 (from memory, unverified per facts §g.1)
+    { pH: 12.5, status: "YES" }, // 40 CFR 261.22(a)(1): pH ≥ 12.5 (from memory, unverified per 40 CFR 261)
     { pH: 12.49, status: "NO" }, // 40 CFR 261.22(a)(1) (from memory, unverified)
-    { pH: 12.36, status: "NO" }, // highest crude-glycerin pH in the OSU 2009 survey (facts §g.2): close to, not over, the limit
+    { pH: 12.36, status: "NO" }, // highest crude-glycerin pH in the OSU 2009 survey (crude glycerin survey as named): close to, not over, the limit
     { pH: 2, status: "YES" }, // 40 CFR 261.22(a)(1): pH ≤ 2 (from memory, unverified)
     { pH: 2.01, status: "NO" }, // 40 CFR 261.22(a)(1) (from memory, unverified)
   ])("aqueous wash water at pH $pH → $status", ({ pH, status }) => {
