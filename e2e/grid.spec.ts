@@ -9,6 +9,8 @@ import { signIn } from "./support/sign-in";
 // Spreadsheet-style editing journeys on the grid page (issue 5). Each test makes the records it checks,
 // with codes unique to the run, so tests do not depend on one another.
 const run = Date.now().toString(36).toUpperCase().slice(-5);
+/** A day before today (YYYY-MM-DD): the grid refuses pickups observed in the future. */
+const daysAgo = (n: number) => new Date(Date.now() - n * 86_400_000).toISOString().slice(0, 10);
 const drafts = (page: Page) => page.getByTestId("draft-grid");
 const stored = (page: Page) => page.getByTestId("stored-grid");
 const status = (page: Page) => page.getByTestId("grid-status");
@@ -67,7 +69,7 @@ test("type a row with an error, fix it, save, reload and see it", async ({ page 
   await typeInto(page, 0, "code", code);
   await typeInto(page, 0, "sourceCode", source);
   await typeInto(page, 0, "material", "used cooking oil");
-  await typeInto(page, 0, "observedAt", "2026-12-10 08:00");
+  await typeInto(page, 0, "observedAt", `${daysAgo(1)} 08:00`);
   await typeInto(page, 0, "containers", "2");
   await typeInto(page, 0, "volumeL", "12;5");
   await typeInto(page, 0, "tempC", "18");
@@ -86,12 +88,22 @@ test("type a row with an error, fix it, save, reload and see it", async ({ page 
   await expect(stored(page).locator(`[col-id="code"]`, { hasText: code })).toBeVisible();
 });
 
+test("rows typed but not saved survive a reload of the page", async ({ page }) => {
+  const code = `GK-${run}-1`;
+  await typeInto(page, 0, "code", code);
+  await typeInto(page, 0, "containers", "3");
+  await page.reload();
+  await expect(cell(drafts(page), 0, "code")).toHaveText(code);
+  await expect(cell(drafts(page), 0, "containers")).toHaveText("3");
+  await expect(status(page)).toContainText("Restored 1 unsaved row");
+});
+
 test("paste a 20-row block with 2 bad rows: 18 save, the 2 stay as drafts with their cells marked", async ({ page }) => {
   const source = await aSourceCode(page);
   const lines = ["Pickup no.\tSource\tMaterial\tObserved\tContainers\tVolume (gal)\tOil temp. (°F)"];
   for (let i = 1; i <= 20; i++) {
     const volume = i === 7 ? "lots" : `${10 + i}.5`;
-    const observed = i === 13 ? "2026-13-45" : `2026-12-11 ${String(i % 24).padStart(2, "0")}:00`;
+    const observed = i === 13 ? "2026-13-45" : `${daysAgo(1)} ${String(i % 24).padStart(2, "0")}:00`;
     lines.push(`GP-${run}-${i}\t${source}\tused cooking oil\t${observed}\t1\t${volume}\t68`);
   }
   await pasteAt(page, 0, "code", lines.join("\r\n"));
@@ -133,10 +145,10 @@ test("import a CSV with errors: a preview names row and column, nothing is writt
   const source = await aSourceCode(page);
   const csv = [
     "Pickup no.,Source,Material,Observed,Containers,Volume (L),Oil temp. (°C)",
-    `GI-${run}-1,${source},used cooking oil,2026-12-12 08:00,1,"1,200.5",20`,
-    `GI-${run}-2,${source},used cooking oil,2026-12-12 09:00,0,100,20`,
-    `GI-${run}-3,NO-SUCH-SOURCE,used cooking oil,2026-12-12 10:00,1,100,20`,
-    `GI-${run}-4,${source},used cooking oil,2026-12-12 11:00,1,100,"20`,
+    `GI-${run}-1,${source},used cooking oil,${daysAgo(2)} 08:00,1,"1,200.5",20`,
+    `GI-${run}-2,${source},used cooking oil,${daysAgo(2)} 09:00,0,100,20`,
+    `GI-${run}-3,NO-SUCH-SOURCE,used cooking oil,${daysAgo(2)} 10:00,1,100,20`,
+    `GI-${run}-4,${source},used cooking oil,${daysAgo(2)} 11:00,1,100,"20`,
   ].join("\r\n");
   await page.locator('input[type="file"]').setInputFiles({ name: "pickups.csv", mimeType: "text/csv", buffer: Buffer.from(`\uFEFF${csv}`, "utf8") });
   const preview = page.getByRole("region", { name: /Import preview/ });
