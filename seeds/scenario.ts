@@ -400,7 +400,8 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
       if (!dest) continue;
       // In the last days a little of each released lot is kept back in the lot for drum orders, so the
       // demo has released lots that can be shipped directly.
-      const keptG = day >= days - 6 ? Math.min(KEPT_BACK_G, p.grams - 1000) : 0;
+      // (the six release days before the lots that still await the lab).
+      const keptG = day >= days - QC_PENDING_DAYS - 6 ? Math.min(KEPT_BACK_G, p.grams - 1000) : 0;
       ops.push({ kind: "transfer", at: t(day, 11, 30), actor: "production.tess", input: { fromKind: "PRODUCT_LOT", fromCode: p.code, toTankCode: dest.code, at: t(day, 11, 30), massKg: (p.grams - keptG) / 1000, note: keptG > 0 ? "released to tank; the rest kept back for drum orders" : "released to tank" } });
       dest.stockG += p.grams - keptG;
     }
