@@ -5,7 +5,9 @@ import { AsyncLocalStorage } from "node:async_hooks";
 import type { Db, Tx } from "@/lib/database/connect";
 import { insertRows } from "@/lib/database/bulk-insert";
 import type { DomainIssue, Result } from "@/lib/errors";
-import { failMany, ok } from "@/lib/errors";
+import { fail, failMany, ok } from "@/lib/errors";
+import { classifyDatabaseFault, FAULT_MESSAGES } from "@/lib/database/faults";
+import { log } from "@/lib/log/log.service";
 import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
 import { labelOf } from "@/lib/ledger/kinds";
 import { loadTraceLedger } from "@/lib/ledger/movement.store";
@@ -46,6 +48,11 @@ export function withIdempotencyKey<T>(ctx: IdempotencyContext, fn: () => Promise
  */
 export function withoutIdempotencyKey<T>(fn: () => Promise<T>): Promise<T> {
   return idempotency.exit(fn);
+}
+
+/** The idempotency key the current write runs under, for log lines; undefined without one. */
+export function idempotencyKeyInForce(): string | undefined {
+  return idempotency.getStore()?.key;
 }
 
 class Replay extends Error {
