@@ -89,6 +89,12 @@ export async function runInTransaction<T>(db: Db, fn: (tx: Tx) => Promise<T>, ti
       const earlier = await db.idempotencyRecord.findUnique({ where: { userId_key: { userId: key.userId, key: key.key } } });
       if (earlier && earlier.requestHash === key.requestHash) return ok(JSON.parse(earlier.response) as T);
     }
+    // A lock held past the busy timeout, or a lost connection: the transaction never committed.
+    const fault = classifyDatabaseFault(e);
+    if (fault) {
+      log.warn({ event: "database.fault", code: fault, err: e }, "a write was refused by a database fault; nothing was saved");
+      return fail(fault, FAULT_MESSAGES[fault]);
+    }
     throw e;
   }
 }
