@@ -31,6 +31,19 @@ describe("route handlers fail with a reference", () => {
     expect(lines.join("")).not.toContain("never-logged");
   });
 
+  it("answers a lost database connection outside a transaction with a retryable 503", async () => {
+    vi.spyOn(process.stdout, "write").mockImplementation(() => true);
+    // PostgreSQL SQLSTATE 57P01 admin_shutdown (PostgreSQL manual, Appendix A).
+    const route = handled("GET /api/example", async () => {
+      throw Object.assign(new Error("terminating connection due to administrator command"), { code: "57P01" });
+    });
+    const res = await route(new Request("http://127.0.0.1/api/example"));
+    expect(res.status).toBe(503);
+    expect(res.headers.get("retry-after")).toBe("2");
+    const body = (await res.json()) as { issues: Array<{ code: string; message: string }> };
+    expect(body.issues[0]).toMatchObject({ code: "DATABASE.UNAVAILABLE", message: "The database connection was lost; nothing was saved. Try again." });
+  });
+
   it("passes a handler's own answers through untouched", async () => {
     const route = handled("GET /api/example", async () => Response.json({ ok: true, value: 1 }));
     const res = await route(new Request("http://127.0.0.1/api/example"));
