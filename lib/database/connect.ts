@@ -4,6 +4,7 @@ import { mkdirSync } from "node:fs";
 import path from "node:path";
 import { PrismaBetterSqlite3 } from "@prisma/adapter-better-sqlite3";
 import { PrismaPg } from "@prisma/adapter-pg";
+import { classifyDatabaseFault } from "@/lib/database/faults";
 import { PrismaClient as SqliteClient } from "@/lib/generated/sqlite/client";
 import { PrismaClient as PgClient } from "@/lib/generated/pg/client";
 
@@ -69,6 +70,8 @@ function takeWriteLockFirst<A extends Awaited<ReturnType<PrismaBetterSqlite3["co
     try {
       await tx.executeRaw({ sql: 'UPDATE "Site" SET "id" = "id" WHERE 0', ...NO_ARGS });
     } catch (error) {
+      // Before the first migration there is no Site table: go on, the first real write takes the lock.
+      if (classifyDatabaseFault(error) === null) return tx;
       await tx.executeRaw({ sql: "ROLLBACK", ...NO_ARGS }).catch(() => undefined);
       await tx.rollback();
       throw error;
