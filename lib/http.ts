@@ -13,6 +13,8 @@ const BY_PREFIX: Array<[RegExp, number]> = [
   [/^IDEMPOTENCY\.KEY_(REQUIRED|INVALID)$/, 400],
   [/^IDEMPOTENCY\.IN_PROGRESS$/, 409],
   [/^PERIOD\.CLOSED$/, 409],
+  // The database could not take the write just now (lock held too long, connection lost): retry.
+  [/^DATABASE\.(BUSY|UNAVAILABLE)$/, 503],
   // Conflicts with the state of the books: over-draw, over-fill, a cycle, something already done.
   [/^LEDGER\.(OVERDRAW|OVERDRAW_IN_TIME|NOTHING_TO_MOVE|CYCLE)$/, 409],
   [/^TANK\.OVERFILL$/, 409],

@@ -9,6 +9,7 @@ import type { Result } from "@/lib/errors";
 import type { SiteRole } from "@/lib/ledger/kinds";
 import type { Actor } from "@/lib/site/actor";
 import { log, newReference } from "@/lib/log/log.service";
+import { classifyDatabaseFault, FAULT_MESSAGES } from "@/lib/database/faults";
 
 /** What a person is told when the server fails: a reference to pass on, no developer advice. */
 export function unexpectedMessage(reference: string): string {
@@ -27,6 +28,12 @@ export function handled<A extends [Request, ...unknown[]]>(route: string, fn: (.
     } catch (error) {
       unstable_rethrow(error);
       const reference = newReference();
+      // A read (or a write outside runInTransaction) caught by a lost connection or a held lock: retryable.
+      const fault = classifyDatabaseFault(error);
+      if (fault) {
+        log.warn({ reference, route, method: args[0].method, event: "database.fault", code: fault, err: error }, "a request was refused by a database fault");
+        return NextResponse.json({ ok: false, issues: [{ code: fault, message: FAULT_MESSAGES[fault], reference }] }, { status: 503, headers: { "retry-after": "2" } });
+      }
       let userId: number | null = null;
       try {
         userId = (await getSignedIn())?.userId ?? null;

@@ -9,7 +9,11 @@ import { withIdempotencyKey } from "@/lib/ledger/ledger.store";
 
 /** JSON body for a Result: 200 `{ok:true,value}` or the mapped status with `{ok:false,issues}`. */
 export function respond<T>(result: Result<T>): NextResponse {
-  return result.ok ? NextResponse.json({ ok: true, value: result.value }) : NextResponse.json({ ok: false, issues: result.issues }, { status: statusFor(result.issues) });
+  if (result.ok) return NextResponse.json({ ok: true, value: result.value });
+  const status = statusFor(result.issues);
+  // 503 is a database fault that cleared nothing: tell the client when to send the same request again.
+  const headers: Record<string, string> = status === 503 ? { "retry-after": "2" } : {};
+  return NextResponse.json({ ok: false, issues: result.issues }, { status, headers });
 }
 
 /**

@@ -4,6 +4,7 @@ import { mkdirSync } from "node:fs";
 import path from "node:path";
 import { PrismaBetterSqlite3 } from "@prisma/adapter-better-sqlite3";
 import { PrismaPg } from "@prisma/adapter-pg";
+import { classifyDatabaseFault } from "@/lib/database/faults";
 import { PrismaClient as SqliteClient } from "@/lib/generated/sqlite/client";
 import { PrismaClient as PgClient } from "@/lib/generated/pg/client";
 
@@ -41,7 +42,7 @@ export const SQLITE_PRAGMAS = [
  */
 class DurableSqliteFactory extends PrismaBetterSqlite3 {
   override async connect(): ReturnType<PrismaBetterSqlite3["connect"]> {
-    const adapter = await super.connect();
+    const adapter = takeWriteLockFirst(await super.connect());
     await adapter.executeScript(SQLITE_PRAGMAS.join(";\n"));
     const read = await adapter.queryRaw({ sql: "PRAGMA synchronous", args: [], argTypes: [] });
     const level = Number(read.rows[0]?.[0]);
@@ -51,6 +52,33 @@ class DurableSqliteFactory extends PrismaBetterSqlite3 {
     }
     return adapter;
   }
+}
+
+const NO_ARGS = { args: [], argTypes: [] };
+
+/**
+ * The adapter opens transactions with a plain (deferred) BEGIN, and a transaction that has read before
+ * its first write is refused SQLITE_BUSY at once when another connection holds the write lock: SQLite
+ * skips the busy handler there rather than risk a deadlock, so busy_timeout never applied. A write that
+ * matches no row, first thing after BEGIN, takes the write lock through the busy handler instead: the
+ * transaction waits up to busy_timeout for another process (a backup, a script) and only then gives up.
+ */
+function takeWriteLockFirst<A extends Awaited<ReturnType<PrismaBetterSqlite3["connect"]>>>(adapter: A): A {
+  const start = adapter.startTransaction.bind(adapter);
+  adapter.startTransaction = async (isolationLevel) => {
+    const tx = await start(isolationLevel);
+    try {
+      await tx.executeRaw({ sql: 'UPDATE "Site" SET "id" = "id" WHERE 0', ...NO_ARGS });
+    } catch (error) {
+      // Before the first migration there is no Site table: go on, the first real write takes the lock.
+      if (classifyDatabaseFault(error) === null) return tx;
+      await tx.executeRaw({ sql: "ROLLBACK", ...NO_ARGS }).catch(() => undefined);
+      await tx.rollback();
+      throw error;
+    }
+    return tx;
+  };
+  return adapter;
 }
 
 /** Adapter factory for the URL, shared by the client and the migration engine. */

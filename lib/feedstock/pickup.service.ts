@@ -6,7 +6,8 @@ import { refreshPlannerStats, REFRESH_STATS_AFTER_ROWS } from "@/lib/database/ma
 import type { DomainIssue, Result } from "@/lib/errors";
 import { fail, failMany, ok } from "@/lib/errors";
 import { parseInput } from "@/lib/ledger/parse";
-import { createHolder, createHoldersWithStock, postMovement, postReceipts, runInTransaction } from "@/lib/ledger/ledger.store";
+import { createHolder, createHoldersWithStock, idempotencyKeyInForce, postMovement, postReceipts, runInTransaction } from "@/lib/ledger/ledger.store";
+import { log } from "@/lib/log/log.service";
 import { measureObserved } from "@/lib/feedstock/measure";
 import { PickupSchema } from "@/lib/feedstock/pickup.schema";
 import type { Pickup } from "@/lib/feedstock/pickup.schema";
@@ -124,6 +125,8 @@ export async function importPickupRows(db: Db, actor: Actor, raw: readonly unkno
   return runInTransaction(
     db,
     async (tx) => {
+      // Operators (and the kill -9 test) can see an import's transaction is open and not yet committed.
+      log.info({ event: "import.transaction.open", key: idempotencyKeyInForce() ?? null, rows: rows.length });
       const stored = await findPickupKeys(tx, rows.flatMap((r) => (r.p.idempotencyKey ? [r.p.idempotencyKey] : [])));
       const fresh = rows.filter((r) => {
         const key = r.p.idempotencyKey;

@@ -5,7 +5,9 @@ import { AsyncLocalStorage } from "node:async_hooks";
 import type { Db, Tx } from "@/lib/database/connect";
 import { insertRows } from "@/lib/database/bulk-insert";
 import type { DomainIssue, Result } from "@/lib/errors";
-import { failMany, ok } from "@/lib/errors";
+import { fail, failMany, ok } from "@/lib/errors";
+import { classifyDatabaseFault, FAULT_MESSAGES } from "@/lib/database/faults";
+import { log } from "@/lib/log/log.service";
 import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
 import { labelOf } from "@/lib/ledger/kinds";
 import { loadTraceLedger } from "@/lib/ledger/movement.store";
@@ -48,6 +50,11 @@ export function withoutIdempotencyKey<T>(fn: () => Promise<T>): Promise<T> {
   return idempotency.exit(fn);
 }
 
+/** The idempotency key the current write runs under, for log lines; undefined without one. */
+export function idempotencyKeyInForce(): string | undefined {
+  return idempotency.getStore()?.key;
+}
+
 class Replay extends Error {
   constructor(readonly answer: unknown) {
     super("replay");
@@ -81,6 +88,12 @@ export async function runInTransaction<T>(db: Db, fn: (tx: Tx) => Promise<T>, ti
       // A concurrent twin committed first: answer with what it stored.
       const earlier = await db.idempotencyRecord.findUnique({ where: { userId_key: { userId: key.userId, key: key.key } } });
       if (earlier && earlier.requestHash === key.requestHash) return ok(JSON.parse(earlier.response) as T);
+    }
+    // A lock held past the busy timeout, or a lost connection: the transaction never committed.
+    const fault = classifyDatabaseFault(e);
+    if (fault) {
+      log.warn({ event: "database.fault", code: fault, err: e }, "a write was refused by a database fault; nothing was saved");
+      return fail(fault, FAULT_MESSAGES[fault]);
     }
     throw e;
   }

@@ -1,5 +1,7 @@
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { handled } from "@/lib/api/handle.service";
+import { respond } from "@/lib/api/json-route.service";
+import { fail } from "@/lib/errors";
 
 // An unexpected failure answers the JSON issue shape with 500 and a short reference, and the same
 // reference reaches the structured log with the route and the stack — never the request body.
@@ -29,6 +31,26 @@ describe("route handlers fail with a reference", () => {
     expect(entry!.route).toBe("POST /api/example");
     expect(String((entry!.err as { stack: string }).stack)).toContain("database went away");
     expect(lines.join("")).not.toContain("never-logged");
+  });
+
+  it("answers a lost database connection outside a transaction with a retryable 503", async () => {
+    vi.spyOn(process.stdout, "write").mockImplementation(() => true);
+    // PostgreSQL SQLSTATE 57P01 admin_shutdown (PostgreSQL manual, Appendix A).
+    const route = handled("GET /api/example", async () => {
+      throw Object.assign(new Error("terminating connection due to administrator command"), { code: "57P01" });
+    });
+    const res = await route(new Request("http://127.0.0.1/api/example"));
+    expect(res.status).toBe(503);
+    expect(res.headers.get("retry-after")).toBe("2");
+    const body = (await res.json()) as { issues: Array<{ code: string; message: string }> };
+    expect(body.issues[0]).toMatchObject({ code: "DATABASE.UNAVAILABLE", message: "The database connection was lost; nothing was saved. Try again." });
+  });
+
+  it("answers a refusal for a busy database with 503 and when to resend", async () => {
+    const res = respond(fail("DATABASE.BUSY", "The records are busy; nothing was saved. Try again in a moment."));
+    expect(res.status).toBe(503);
+    expect(res.headers.get("retry-after")).toBe("2");
+    expect(respond(fail("LEDGER.OVERDRAW", "m")).headers.get("retry-after")).toBeNull();
   });
 
   it("passes a handler's own answers through untouched", async () => {
