@@ -15,6 +15,7 @@ import { Empty, Facts, HolderLink, NoSite, Note } from "@/app/_ui/ui";
 import { ContributionTable, FreshnessNote } from "@/app/trace/trace-tables";
 import { TraceGraphView } from "@/app/trace/trace-graph";
 import { toSiteInstant } from "@/app/trace/site-time";
+import { canRead } from "@/lib/auth/read-matrix";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Trace" };
@@ -48,7 +49,7 @@ export default async function TracePage({ searchParams }: { searchParams: Promis
   const tz = site.timeZone;
   const choices = await listTraceChoices(db, site.id);
   const back = dir === "back" && code !== "" ? await traceBackwardReport(db, site.id, { kind, code, at: toSiteInstant(atLocal, tz) }, user.now) : null;
-  const fwd = dir === "fwd" && code !== "" ? await traceForwardReport(db, site.id, { kind, code }, user.now) : null;
+  const fwd = dir === "fwd" && code !== "" ? await traceForwardReport(db, site.id, { kind, code }, user.now, { withCustomers: canRead(user.role, "/customers") }) : null;
   return (
     <>
       <h1>Trace</h1>

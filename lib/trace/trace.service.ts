@@ -745,7 +745,7 @@ export function warmTraceCache(db: Db, siteId: number, now: Date): void {
 // ---- forward ---------------------------------------------------------------------------------------
 
 /** Where the material of a source, a pickup or a lot went: every holder that received or holds part of it. */
-export async function traceForwardReport(db: Db, siteId: number, input: unknown, now: Date): Promise<Result<ForwardTraceReport>> {
+export async function traceForwardReport(db: Db, siteId: number, input: unknown, now: Date, opts: { withCustomers: boolean } = { withCustomers: true }): Promise<Result<ForwardTraceReport>> {
   const parsed = parseInput(ForwardTraceQuerySchema, input);
   if (!parsed.ok) return parsed;
   const q = parsed.value;
@@ -753,7 +753,9 @@ export async function traceForwardReport(db: Db, siteId: number, input: unknown,
   if (subject === null) return fail("RECORD.NOT_FOUND", `${q.kind === "SOURCE" ? "Source" : labelOf(q.kind)} ${q.code} does not exist`, "code");
   const r = await answer<Omit<ForwardTraceReport, "byCustomer">>(db, siteId, now, `F|${q.kind}|${subject.code}`, async (state) => computeForward(state, subject, q.kind));
   if (!r.ok) return r;
-  // Customers are read after the cached answer (a shipment's customer name is fixed when it is recorded).
+  // Customers are read after the cached answer (a shipment's customer name is fixed when it is recorded),
+  // and only for readers who may see customers (the read matrix keeps them from production).
+  if (!opts.withCustomers) return ok({ ...r.value, byCustomer: [] });
   const shipments = r.value.holders.filter((h) => h.holder.kind === "SHIPMENT").map((h) => h.holder.id);
   const { rows, byCustomer } = attachCustomers(r.value.holders, await listShipmentCustomers(db, siteId, shipments));
   return ok({ ...r.value, holders: rows, byCustomer });

@@ -129,5 +129,10 @@ describe.each(PROVIDERS)("shipments on %s", (provider) => {
     const csv = forwardCsv(f).split("\r\n");
     expect(csv[0]?.endsWith(",customer")).toBe(true);
     expect(csv.find((l) => l.includes(",DOC-3,"))?.endsWith(",Test Haulage")).toBe(true);
+    // A reader the read matrix keeps from customers (production) gets the same trace without them.
+    const plain = value(await traceForwardReport(t.db, plant.siteId, { kind: "LOT", code: "L-1" }, new Date("2026-03-01T00:00:00Z"), { withCustomers: false }));
+    expect(plain.holders.some((h) => h.customer !== undefined)).toBe(false);
+    expect(plain.byCustomer).toEqual([]);
+    expect(forwardCsv(plain)).not.toContain("Test Haulage");
   });
 });

@@ -10,6 +10,7 @@ import { traceBackwardReport, traceForwardReport } from "@/lib/trace/trace.servi
 import { BACKWARD_TABLES, backwardCsv, csvFileName, forwardCsv } from "@/app/trace/csv";
 import { toSiteInstant } from "@/app/trace/site-time";
 import { handled } from "@/lib/api/handle.service";
+import { canRead } from "@/lib/auth/read-matrix";
 
 export const dynamic = "force-dynamic";
 
@@ -42,7 +43,7 @@ export const GET = handled("GET /trace/csv", async (request: Request): Promise<N
   const db = await getDb();
   const { siteId, now } = who.value;
   if (q.value.dir === "fwd") {
-    const r = await traceForwardReport(db, siteId, { kind: q.value.kind, code: q.value.code }, now);
+    const r = await traceForwardReport(db, siteId, { kind: q.value.kind, code: q.value.code }, now, { withCustomers: canRead(who.value.role, "/customers") });
     if (!r.ok) return respond(r);
     return csvResponse(forwardCsv(r.value), csvFileName(["where-it-went", r.value.subject.code]));
   }

@@ -4,6 +4,7 @@ import { respond } from "@/lib/api/json-route.service";
 import { getDb } from "@/lib/db";
 import { traceForwardReport } from "@/lib/trace/trace.service";
 import { handled } from "@/lib/api/handle.service";
+import { canRead } from "@/lib/auth/read-matrix";
 
 export const dynamic = "force-dynamic";
 
@@ -12,5 +13,5 @@ export const GET = handled("GET /api/trace/forward", async (request: Request): P
   const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const query = Object.fromEntries(new URL(request.url).searchParams);
-  return respond(await traceForwardReport(await getDb(), who.value.siteId, query, who.value.now));
+  return respond(await traceForwardReport(await getDb(), who.value.siteId, query, who.value.now, { withCustomers: canRead(who.value.role, "/customers") }));
 });
