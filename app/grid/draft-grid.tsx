@@ -1,7 +1,8 @@
 "use client";
 // New rows, spreadsheet-style: typing, Shift+arrow / mouse rectangles, Ctrl+D fill-down, Delete,
 // paste of a tab-separated block, and our own undo history (one step per edit, paste or fill).
-import { forwardRef, useCallback, useEffect, useImperativeHandle, useMemo, useRef, useState } from "react";
+import { forwardRef, useCallback, useImperativeHandle, useMemo, useRef, useState } from "react";
+import { useKeptDrafts } from "@/app/grid/kept-drafts";
 import type { ClipboardEvent as ReactClipboardEvent, KeyboardEvent as ReactKeyboardEvent, MouseEvent as ReactMouseEvent } from "react";
 import { AgGridReact } from "ag-grid-react";
 import type { CellEditRequestEvent, CellFocusedEvent, CellMouseOverEvent, ColDef, GridApi, GridReadyEvent } from "ag-grid-community";
@@ -63,37 +64,7 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
   const setByMouse = useRef(false);
   const dragging = useRef(false);
 
-  // Unsaved rows are kept in this browser, so a reload or a closed tab loses nothing typed; saved rows
-  // leave the store. The row key travels along, so a restored row is still recorded only once.
-  const storageKey = `tracevat.grid.drafts.${table.key}`;
-  const restored = useRef(false);
-  const statusRef = useRef(onStatus);
-  statusRef.current = onStatus;
-  useEffect(() => {
-    restored.current = false;
-    let kept: DraftRow[] = [];
-    try {
-      const raw: unknown = JSON.parse(window.localStorage.getItem(storageKey) ?? "[]");
-      if (Array.isArray(raw)) kept = raw.filter((r): r is DraftRow => typeof r === "object" && r !== null && Object.values(r as object).every((v) => typeof v === "string"));
-    } catch {
-      kept = [];
-    }
-    if (kept.length > 0) {
-      setRows([...kept.map((r) => ({ ...r, [STATE]: "draft" })), blank()]);
-      statusRef.current(`Restored ${kept.length} unsaved row${kept.length === 1 ? "" : "s"} typed earlier in this browser`);
-    }
-    restored.current = true;
-  }, [storageKey, blank]);
-  useEffect(() => {
-    if (!restored.current) return;
-    const keep = rows.filter((r) => r[STATE] === "draft" && entryColumns(table).some((c) => (r[c.field] ?? "").trim() !== ""));
-    try {
-      if (keep.length > 0) window.localStorage.setItem(storageKey, JSON.stringify(keep));
-      else window.localStorage.removeItem(storageKey);
-    } catch {
-      /* storage full or refused: the rows stay on the page */
-    }
-  }, [rows, storageKey, table]);
+  useKeptDrafts({ table, rows, stateField: STATE, restore: (kept) => setRows([...kept, blank()]), onStatus });
 
   const ctx = useMemo(() => ({ style: numberStyleFor(locale), order: dateOrderFor(locale), siteOffsetMin: 0, system }), [locale, system]);
   const entry = useMemo(() => new Set(entryColumns(table).map((c) => c.field)), [table]);
