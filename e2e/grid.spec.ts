@@ -11,6 +11,8 @@ import { signIn } from "./support/sign-in";
 const run = Date.now().toString(36).toUpperCase().slice(-5);
 /** A day before today (YYYY-MM-DD): the grid refuses pickups observed in the future. */
 const daysAgo = (n: number) => new Date(Date.now() - n * 86_400_000).toISOString().slice(0, 10);
+/** A minute ago (YYYY-MM-DD HH:MM, UTC as the demo site), so the row sorts first among stored pickups. */
+const minuteAgo = () => new Date(Date.now() - 60_000).toISOString().slice(0, 16).replace("T", " ");
 const drafts = (page: Page) => page.getByTestId("draft-grid");
 const stored = (page: Page) => page.getByTestId("stored-grid");
 const status = (page: Page) => page.getByTestId("grid-status");
@@ -69,7 +71,7 @@ test("type a row with an error, fix it, save, reload and see it", async ({ page 
   await typeInto(page, 0, "code", code);
   await typeInto(page, 0, "sourceCode", source);
   await typeInto(page, 0, "material", "used cooking oil");
-  await typeInto(page, 0, "observedAt", `${daysAgo(1)} 08:00`);
+  await typeInto(page, 0, "observedAt", minuteAgo());
   await typeInto(page, 0, "containers", "2");
   await typeInto(page, 0, "volumeL", "12;5");
   await typeInto(page, 0, "tempC", "18");
