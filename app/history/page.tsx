@@ -4,6 +4,7 @@ import { listRecordHistory, loadChain } from "@/lib/audit/audit.store";
 import { verifyChain } from "@/lib/audit/chain";
 import { describeChange, isRecordHistoryKind, RECORD_HISTORIES } from "@/lib/audit/history";
 import type { RecordHistoryKind } from "@/lib/audit/history";
+import { fieldWords, valueWords } from "@/lib/audit/field-words";
 import type { HolderKind } from "@/lib/ledger/kinds";
 import { when } from "@/app/_ui/format";
 import { hrefOf } from "@/app/_ui/links";
@@ -162,10 +163,10 @@ export default async function HistoryPage({ searchParams }: { searchParams: Prom
                             <tbody>
                               {changes.map((c) => (
                                 <tr key={c.field}>
-                                  <th scope="row">{c.field}</th>
-                                  <td>{c.before ?? <span className="muted">—</span>}</td>
+                                  <th scope="row">{fieldWords(c.field)}</th>
+                                  <td>{valueWords(c.field, c.before) ?? <span className="muted">—</span>}</td>
                                   <td aria-hidden="true">→</td>
-                                  <td>{c.after ?? <span className="muted">—</span>}</td>
+                                  <td>{valueWords(c.field, c.after) ?? <span className="muted">—</span>}</td>
                                 </tr>
                               ))}
                             </tbody>

@@ -1,5 +1,5 @@
 import "server-only";
-import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import { getUtcOffsetMin } from "@/lib/period/site-time";
 
 /**
  * A datetime-local value ("2026-10-15T12:00") is the site's wall-clock time; it becomes an ISO instant

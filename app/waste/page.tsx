@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { labelOf, WASTE_STREAMS } from "@/lib/ledger/kinds";
-import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import { getUtcOffsetMin } from "@/lib/period/site-time";
 import { getWasteDueBoard, listDisposals, listWasteContainers } from "@/lib/waste/container.store";
 import { day, daysBetween, kg, litres, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";

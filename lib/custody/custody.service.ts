@@ -30,7 +30,7 @@ import type {
   PeriodSummary,
 } from "@/lib/custody/custody-balance";
 import { loadCustodyRows } from "@/lib/custody/custody.store";
-import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import { getUtcOffsetMin } from "@/lib/period/site-time";
 import { getMoveCompositions } from "@/lib/trace/trace.service";
 import type { LedgerFreshness } from "@/lib/trace/trace.service";
 import { listEntryHolderFacts } from "@/lib/trace/trace.store";

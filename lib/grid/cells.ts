@@ -11,6 +11,28 @@ import type { CellValue, GridColumn, GridTable } from "@/lib/grid/tables";
 import type { GridUnit } from "@/lib/grid/units";
 import { decimalsFor, displayUnit, fromUnit, quantityOf, toDisplay, unitSymbol } from "@/lib/grid/units";
 import { unneutralise } from "@/lib/grid/formula";
+import { labelOf } from "@/lib/ledger/kinds";
+
+/** A typed or pasted choice as its stored code: the label shown in the grid ("Oilseed crusher"), or the code itself. */
+export function codeOfChoice(options: readonly string[] | undefined, text: string): string {
+  const key = text.toUpperCase().replace(/[\s-]+/g, "_");
+  if (!options) return key;
+  const folded = text.trim().toLowerCase();
+  return options.find((o) => labelOf(o).toLowerCase() === folded) ?? key;
+}
+
+/** The label shown for a stored choice or list of choices: "Used cooking oil, Tallow". */
+export function showChoice(col: GridColumn, value: string): string {
+  if (col.kind === "enum") return labelOf(value);
+  if (col.kind === "list" && col.options)
+    return value
+      .split(",")
+      .map((s) => s.trim())
+      .filter((s) => s !== "")
+      .map(labelOf)
+      .join(", ");
+  return value;
+}
 
 export interface ReadContext {
   style: NumberStyle;
@@ -39,13 +61,11 @@ export function readCell(col: GridColumn, raw: string, ctx: ReadContext): Result
           .split(/[,;]/)
           .map((s) => s.trim())
           .filter((s) => s !== "")
-          .map((s) => (col.options ? s.toUpperCase().replace(/[\s-]+/g, "_") : s.toUpperCase()))
+          .map((s) => (col.options ? codeOfChoice(col.options, s) : s.toUpperCase()))
           .join(", "),
       );
-    case "enum": {
-      const key = text.toUpperCase().replace(/[\s-]+/g, "_");
-      return ok(key);
-    }
+    case "enum":
+      return ok(codeOfChoice(col.options, text));
     case "boolean": {
       const k = text.toLowerCase();
       if (TRUE.has(k)) return ok(true);
@@ -71,7 +91,7 @@ export function showCell(col: GridColumn, value: CellValue | undefined, system: 
   if (typeof value === "boolean") return value ? "yes" : "no";
   if (typeof value === "string") {
     if (col.kind === "date") return showDate(value, siteOffsetMin);
-    return value;
+    return showChoice(col, value);
   }
   if (col.quantity) {
     const u = displayUnit(col.quantity, system);
@@ -134,7 +154,25 @@ export function matchHeaders(table: GridTable, headers: readonly string[]): { ma
     }
     matches.push({ index, column });
   });
-  return { matches, unknown, unitIssues };
+  return { matches: preferCompanions(matches, headers), unknown, unitIssues };
+}
+
+/** Our exports write a choice as label + "(code)" column and a time as site time + "(UTC)" column; rank of each variant. */
+function variantRank(header: string): number {
+  if (/\(code\)\s*$/i.test(header) || /\(utc\)\s*$/i.test(header)) return 2;
+  if (/\(site time\b/i.test(header)) return 1;
+  return 0;
+}
+
+/**
+ * Re-reading one of our exports: where a column comes as a pair (label and code, site time and UTC),
+ * the exact one is read (the code; the UTC instant) and its companion is left aside. Two headers of the
+ * same kind for one column still count as a repeated column.
+ */
+function preferCompanions(matches: HeaderMatch[], headers: readonly string[]): HeaderMatch[] {
+  const best = new Map<string, number>();
+  for (const m of matches) best.set(m.column.field, Math.max(best.get(m.column.field) ?? 0, variantRank(headers[m.index] ?? "")));
+  return matches.filter((m) => variantRank(headers[m.index] ?? "") === best.get(m.column.field));
 }
 
 /** Does a first row look like a header (most of its cells name a column of this table)? */

@@ -4,8 +4,8 @@ import ExcelJS from "exceljs";
 import type { Db } from "@/lib/database/connect";
 import { GRID_TABLES } from "@/lib/grid/tables";
 import type { GridExport } from "@/lib/grid/query.schema";
-import { queryGridRows } from "@/lib/grid/grid.store";
-import { exportCell, exportHeaders, toCsv } from "@/lib/grid/export";
+import { getSiteTimeZone, queryGridRows } from "@/lib/grid/grid.store";
+import { exportColumns, toCsv } from "@/lib/grid/export";
 import type { GridActor } from "@/lib/grid/grid.service";
 import type { Result } from "@/lib/errors";
 import { fail, ok } from "@/lib/errors";
@@ -31,18 +31,28 @@ export async function exportGrid(db: Db, actor: GridActor, q: GridExport): Promi
   }
   const stamp = actor.now.toISOString().slice(0, 10);
   const base = `tracevat-${q.table}-${stamp}`;
+  const timeZone = await getSiteTimeZone(db, actor.siteId);
   if (q.format === "csv") {
-    return ok({ body: new TextEncoder().encode(`\uFEFF${toCsv(table, rows, actor.unitSystem)}\r\n`), contentType: "text/csv; charset=utf-8", filename: `${base}.csv`, rows: rows.length });
+    const csv = toCsv(table, rows, actor.unitSystem, timeZone);
+    return ok({ body: new TextEncoder().encode(`\uFEFF${csv}\r\n`), contentType: "text/csv; charset=utf-8", filename: `${base}.csv`, rows: rows.length });
   }
+  const cols = exportColumns(table, actor.unitSystem, timeZone);
   const wb = new ExcelJS.Workbook();
   wb.creator = "Tracevat";
   const ws = wb.addWorksheet(table.label.slice(0, 31));
-  ws.addRow(exportHeaders(table, actor.unitSystem));
+  ws.addRow(cols.map((c) => c.header));
   ws.getRow(1).font = { bold: true };
   ws.views = [{ state: "frozen", ySplit: 1 }];
-  for (const r of rows) ws.addRow(table.columns.map((c) => exportCell(c, r[c.field], actor.unitSystem)));
-  table.columns.forEach((c, i) => {
-    ws.getColumn(i + 1).width = Math.max(10, Math.round((c.width ?? 120) / 7));
+  // A site time is written as a real date cell: the wall-clock time as the spreadsheet's serial date
+  // (spreadsheets hold no zone), so it sorts and filters as a date; the UTC column beside it keeps the instant.
+  for (const r of rows) ws.addRow(cols.map((c) => {
+    const v = c.cell(r);
+    return v !== null && typeof v === "object" ? new Date(v.wallMs) : v;
+  }));
+  cols.forEach((c, i) => {
+    const column = ws.getColumn(i + 1);
+    column.width = Math.max(12, Math.min(40, c.header.length + 2));
+    if (c.kind === "site-time") column.numFmt = "yyyy-mm-dd hh:mm";
   });
   const buffer = await wb.xlsx.writeBuffer();
   return ok({ body: new Uint8Array(buffer as ArrayBuffer), contentType: "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet", filename: `${base}.xlsx`, rows: rows.length });

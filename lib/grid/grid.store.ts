@@ -5,6 +5,7 @@ import type { Prisma } from "@/lib/generated/sqlite/client";
 import type { UnitSystem } from "@/lib/quantity/units";
 import type { CellValue, GridColumn, GridRow, GridTable, TableKey } from "@/lib/grid/tables";
 import { GRID_TABLES } from "@/lib/grid/tables";
+import { labelOf } from "@/lib/ledger/kinds";
 import type { ColumnFilter, FilterCondition } from "@/lib/grid/query.schema";
 import { fromUnit, displayUnit } from "@/lib/grid/units";
 import { getWasteDueBoard } from "@/lib/waste/container.store";
@@ -48,11 +49,32 @@ function dayStart(s: string): Date {
   return new Date(`${s.slice(0, 10)}T00:00:00.000Z`);
 }
 
+/** A text filter on a choice column matches what the grid shows (the label) as well as the stored code. */
+function choiceFilter(options: readonly string[], type: string, raw: string): Record<string, unknown> | null {
+  const text = raw.trim().toLowerCase();
+  const key = raw.toUpperCase().replace(/[\s-]+/g, "_");
+  const label = (o: string) => labelOf(o).toLowerCase();
+  const test: Record<string, (o: string) => boolean> = {
+    contains: (o) => label(o).includes(text) || o.includes(key),
+    notContains: (o) => !(label(o).includes(text) || o.includes(key)),
+    equals: (o) => label(o) === text || o === key,
+    notEqual: (o) => !(label(o) === text || o === key),
+    startsWith: (o) => label(o).startsWith(text) || o.startsWith(key),
+    endsWith: (o) => label(o).endsWith(text) || o.endsWith(key),
+  };
+  const match = test[type];
+  return match ? { in: options.filter(match) } : null;
+}
+
 function conditionWhere(col: GridColumn, c: FilterCondition, system: UnitSystem): Where | null {
   const path = col.db?.path;
   if (!path) return null;
   if (c.type === "blank") return nest(path, null);
   if (c.type === "notBlank") return { NOT: nest(path, null) };
+  if (c.filterType === "text" && col.kind === "enum" && col.options) {
+    const leaf = choiceFilter(col.options, c.type, String(c.filter ?? ""));
+    return leaf === null ? null : nest(path, leaf);
+  }
   if (c.filterType === "text") {
     const raw = String(c.filter ?? "");
     const text = col.kind === "code" || col.kind === "enum" || col.kind === "list" ? raw.toUpperCase().replace(col.kind === "enum" ? /[\s-]+/g : /$^/, "_") : raw;
@@ -336,3 +358,9 @@ export async function findRowsByKey(db: Db | Tx, siteId: number, table: TableKey
 }
 
 export type { CellValue };
+
+/** The site's time zone, for times written as the site's wall clock in exports. */
+export async function getSiteTimeZone(db: Db, siteId: number): Promise<string> {
+  const site = await db.site.findUnique({ where: { id: siteId }, select: { timeZone: true } });
+  return site?.timeZone ?? "UTC";
+}

@@ -16,7 +16,7 @@ import type { BatchBalance, Closure, ClosureTolerance, ProcessView, StockView } 
 import { ClosureToleranceSchema, PeriodRangeSchema } from "@/lib/mass-balance/period.schema";
 import { BalanceQuerySchema } from "@/lib/api/endpoints/trace";
 import type { BALANCE_PERIOD_KINDS } from "@/lib/api/endpoints/trace";
-import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import { getUtcOffsetMin } from "@/lib/period/site-time";
 
 export interface BalanceLine {
   key: string;

@@ -54,20 +54,8 @@ export async function listTankLevels(db: Db, siteId: number): Promise<TankLevel[
   return (await listTanks(db, siteId)).map(toTankLevel);
 }
 
-/** Minutes east of UTC of a time zone at an instant (0 for an unknown zone). */
-export function getUtcOffsetMin(timeZone: string, at: Date): number {
-  try {
-    const name = new Intl.DateTimeFormat("en-US", { timeZone, timeZoneName: "longOffset" })
-      .formatToParts(at)
-      .find((p) => p.type === "timeZoneName")?.value;
-    const m = name ? /GMT([+-])(\d{2}):?(\d{2})?/.exec(name) : null;
-    if (!m) return 0;
-    const minutes = Number(m[2]) * 60 + Number(m[3] ?? "0");
-    return m[1] === "-" ? -minutes : minutes;
-  } catch {
-    return 0;
-  }
-}
+import { getUtcOffsetMin } from "@/lib/period/site-time";
+export { getUtcOffsetMin };
 
 export interface Dashboard {
   tanks: TankLevel[];

@@ -9,6 +9,8 @@ import type { GridActor } from "@/lib/grid/grid.service";
 import { importGridFile, listGridRows, saveGridRows } from "@/lib/grid/grid.service";
 import { exportGrid } from "@/lib/grid/export.service";
 import { GridExportSchema, GridQuerySchema } from "@/lib/grid/query.schema";
+import readXlsxFile from "read-excel-file/node";
+import Papa from "papaparse";
 
 const pickup = (code: string, extra: Record<string, unknown> = {}) => ({
   code, sourceCode: "R1", material: "USED_COOKING_OIL", observedAt: "2026-03-05T09:00:00Z", containers: 2, volumeL: 180.5, tempC: 20, idempotencyKey: randomUUID(), ...extra,
@@ -125,5 +127,43 @@ describe.each(PROVIDERS)("grid batch saves and imports on %s", (provider) => {
       expect(round.ok ? { written: round.value.written, unchanged: round.value.unchanged } : round.issues.slice(0, 3)).toEqual({ written: 0, unchanged: 4 });
     }
     expect((await counts()).pickups).toBe(before.pickups + 2);
+  });
+
+  it("exports choices as labels with a code column, and times in site time with UTC beside; XLSX times are real date cells", async () => {
+    await t.db.site.update({ where: { id: actor.siteId }, data: { timeZone: "Europe/Berlin" } });
+    try {
+      const filter = JSON.stringify({ code: { filterType: "text", type: "equals", filter: "G-1" } });
+      const csv = await exportGrid(t.db, actor, GridExportSchema.parse({ table: "pickups", format: "csv", filter }));
+      const xlsx = await exportGrid(t.db, actor, GridExportSchema.parse({ table: "pickups", format: "xlsx", filter }));
+      expect(csv.ok && xlsx.ok).toBe(true);
+      if (!csv.ok || !xlsx.ok) return;
+      const parsed = Papa.parse<Record<string, string>>(new TextDecoder().decode(csv.value.body).replace(/^\uFEFF/, ""), { header: true, skipEmptyLines: true });
+      const row = parsed.data[0];
+      expect(row?.["Material"]).toBe("Used cooking oil");
+      expect(row?.["Material (code)"]).toBe("USED_COOKING_OIL");
+      // 09:00 UTC on 5 March is 10:00 in Central European Time (UTC+1 in winter; IANA tz database, Europe/Berlin)
+      expect(row?.["Observed (site time: Europe/Berlin)"]).toBe("2026-03-05 10:00");
+      expect(row?.["Observed (UTC)"]).toBe("2026-03-05T09:00:00Z");
+      // Read back with a general-purpose XLSX reader, not the library that wrote it.
+      const sheets = await readXlsxFile(Buffer.from(xlsx.value.body));
+      const rows = (sheets[0]?.data ?? []) as unknown[][];
+      const header = rows[0] as string[];
+      const local = rows[1]?.[header.indexOf("Observed (site time: Europe/Berlin)")];
+      expect(local).toBeInstanceOf(Date);
+      // A spreadsheet date holds no zone: the cell is the site's wall-clock time.
+      expect((local as Date).toISOString()).toBe("2026-03-05T10:00:00.000Z");
+      expect(rows[1]?.[header.indexOf("Material")]).toBe("Used cooking oil");
+    } finally {
+      await t.db.site.update({ where: { id: actor.siteId }, data: { timeZone: "UTC" } });
+    }
+  });
+
+  it("filters a choice column by the label the grid shows", async () => {
+    const byLabel = await listGridRows(t.db, actor, GridQuerySchema.parse({ table: "pickups", filter: JSON.stringify({ material: { filterType: "text", type: "contains", filter: "cooking" } }) }));
+    const byCode = await listGridRows(t.db, actor, GridQuerySchema.parse({ table: "pickups", filter: JSON.stringify({ material: { filterType: "text", type: "equals", filter: "USED_COOKING_OIL" } }) }));
+    expect(byLabel.lastRow).toBeGreaterThan(0);
+    expect(byLabel.lastRow).toBe(byCode.lastRow);
+    const none = await listGridRows(t.db, actor, GridQuerySchema.parse({ table: "pickups", filter: JSON.stringify({ material: { filterType: "text", type: "contains", filter: "tallow" } }) }));
+    expect(none.lastRow).toBe(0);
   });
 });

@@ -10,7 +10,7 @@ import { WASTE_STREAMS } from "@/lib/ledger/kinds";
 import { parseInput } from "@/lib/ledger/parse";
 import { DEFAULT_DENSITY_TABLE, DEFAULT_REFERENCE_TEMP_C, densityAt, requireDensityEntry } from "@/lib/quantity/density";
 import type { MaterialKind } from "@/lib/quantity/density";
-import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import { getUtcOffsetMin } from "@/lib/period/site-time";
 import { DEFAULT_WASTE_DUE_ASSUMPTION, listWasteContainers } from "@/lib/waste/container.store";
 import { assessWasteHazards, listWasteDue, RULESET_US_FEDERAL_RCRA } from "@/lib/waste/waste-due";
 import type { GeneratorCategory, HazardAssessment, StreamGroup, WasteContainerInput, WasteDue, WasteRuleSet } from "@/lib/waste/waste-due";

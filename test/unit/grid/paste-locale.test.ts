@@ -148,7 +148,7 @@ describe("formula injection (OWASP CSV Injection)", () => {
     expect(unneutralise("'quoted")).toBe("'quoted");
   });
   it("exported CSV neutralises text cells but keeps numbers as numbers", () => {
-    const csv = toCsv(GRID_TABLES.sources, [{ code: "K1", name: "=HYPERLINK(\"x\")", kind: "RESTAURANT", materials: "TALLOW", pickupEveryDays: -1 }], "metric");
+    const csv = toCsv(GRID_TABLES.sources, [{ code: "K1", name: "=HYPERLINK(\"x\")", kind: "RESTAURANT", materials: "TALLOW", pickupEveryDays: -1 }], "metric", "UTC");
     expect(csv.split("\r\n")[1]).toContain(`"'=HYPERLINK(""x"")"`);
     expect(csv.split("\r\n")[1]).toContain(",-1,");
   });
