@@ -10,7 +10,7 @@ export const PEOPLE = [
   { login: "collector.mira", fullName: "Mira Tolvane", role: "COLLECTOR" },
   { login: "collector.odo", fullName: "Odo Fernwhistle", role: "COLLECTOR" },
   { login: "production.tess", fullName: "Tess Hollowmere", role: "PRODUCTION" },
-  { login: "production.rafe", fullName: "Rafe Ambleside-Quorn", role: "PRODUCTION" },
+  { login: "production.rafe", fullName: "Rafe Amberlith-Quennow", role: "PRODUCTION" },
   { login: "compliance.nell", fullName: "Nell Varrowby", role: "COMPLIANCE" },
   { login: "admin.jory", fullName: "Jory Pellinore", role: "ADMIN" },
 ] as const;

@@ -103,7 +103,7 @@ export function withCustodySettings(base: CustodyRuleSet, settings: CustodySetti
 }
 
 export interface CharacteristicSet {
-  /** Stable key of the set, e.g. "ISCC-EU|EU-ISCC-Cert-XX-123|UCO|DE". */
+  /** Stable key of the set, e.g. "SCHEME-A|CERT-0042|UCO|XX" (an invented scheme and certificate). */
   key: string;
   /** Shown with the balance: scheme, certificate, material kind, country of origin, … */
   attributes: Readonly<Record<string, string>>;
