@@ -1,11 +1,10 @@
 import Link from "next/link";
-import { labelOf } from "@/lib/ledger/kinds";
 import { getDashboard, getUtcOffsetMin } from "@/lib/site/dashboard.store";
 import { getWasteDueBoard } from "@/lib/waste/container.store";
-import { day, daysBetween, kg, litres, pct, when } from "@/app/_ui/format";
+import { day } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
-import { DensityNote, FillBar } from "@/app/_ui/tank-ui";
-import { CodeLink, Empty, NoSite, Note, Status } from "@/app/_ui/ui";
+import { Empty, NoSite, Note } from "@/app/_ui/ui";
+import { BatchPanel, LabPanel, TankPanel, WastePanel } from "@/app/_today/panels";
 
 export const dynamic = "force-dynamic";
 
@@ -67,199 +66,10 @@ export default async function TodayPage() {
       </dl>
 
       <div className="panels">
-        <section className="panel wide" aria-labelledby="tanks-h">
-          <h2 id="tanks-h">Tank levels</h2>
-          {d.tanks.length === 0 ? (
-            <Empty>No tanks recorded yet.</Empty>
-          ) : (
-            <>
-              <div className="table-wrap">
-                <table>
-                  <thead>
-                    <tr>
-                      <th scope="col">Tank</th>
-                      <th scope="col">Service</th>
-                      <th scope="col" className="num">
-                        Book stock
-                      </th>
-                      <th scope="col" className="num">
-                        Capacity
-                      </th>
-                      <th scope="col">Fill (estimate)</th>
-                      <th scope="col">Last gauge</th>
-                    </tr>
-                  </thead>
-                  <tbody>
-                    {d.tanks.map((t) => (
-                      <tr key={t.code}>
-                        <td>
-                          <CodeLink href={`/tanks/${encodeURIComponent(t.code)}`} code={t.code} /> <span className="muted">{t.name}</span>
-                        </td>
-                        <td>{labelOf(t.service)}</td>
-                        <td className="num">{kg(t.stockG)}</td>
-                        <td className="num">{litres(t.capacityMl, 0)}</td>
-                        <td>
-                          <FillBar tank={t} />
-                        </td>
-                        <td className="nowrap">
-                          {t.lastGauge ? (
-                            <>
-                              {litres(t.lastGauge.volumeMl, 0)} <span className="muted">on {day(t.lastGauge.at, tz)}</span>
-                            </>
-                          ) : (
-                            <span className="muted">none</span>
-                          )}
-                        </td>
-                      </tr>
-                    ))}
-                  </tbody>
-                </table>
-              </div>
-              <DensityNote tanks={d.tanks} />
-            </>
-          )}
-        </section>
-
-        <section className="panel" aria-labelledby="lab-h">
-          <h2 id="lab-h">Lots waiting for lab results</h2>
-          {d.quarantinedLots.length === 0 ? (
-            <Empty>No lots are waiting for the lab.</Empty>
-          ) : (
-            <>
-              <div className="table-wrap">
-                <table>
-                  <thead>
-                    <tr>
-                      <th scope="col">Lot</th>
-                      <th scope="col">Material</th>
-                      <th scope="col">Received</th>
-                      <th scope="col" className="num">
-                        Mass
-                      </th>
-                      <th scope="col" className="num">
-                        FFA
-                      </th>
-                    </tr>
-                  </thead>
-                  <tbody>
-                    {d.quarantinedLots.map((l) => (
-                      <tr key={l.code}>
-                        <td>
-                          <CodeLink href={`/lots/${encodeURIComponent(l.code)}`} code={l.code} />
-                        </td>
-                        <td>{labelOf(l.material)}</td>
-                        <td className="nowrap">{when(l.receivedAt, tz)}</td>
-                        <td className="num">{kg(l.massG)}</td>
-                        <td className="num">{l.ffaPct === null ? <span className="muted">not yet</span> : pct(l.ffaPct)}</td>
-                      </tr>
-                    ))}
-                  </tbody>
-                </table>
-              </div>
-              {d.quarantinedTotal > d.quarantinedLots.length ? (
-                <Note>
-                  Showing {d.quarantinedLots.length} of {d.quarantinedTotal}. <Link href="/lots">All lots</Link>
-                </Note>
-              ) : null}
-            </>
-          )}
-        </section>
-
-        <section className="panel" aria-labelledby="batches-h">
-          <h2 id="batches-h">Batches in progress</h2>
-          {d.batchesInProgress.length === 0 ? (
-            <Empty>No batches are planned or reacting.</Empty>
-          ) : (
-            <div className="table-wrap">
-              <table>
-                <thead>
-                  <tr>
-                    <th scope="col">Batch</th>
-                    <th scope="col">Status</th>
-                    <th scope="col">Planned</th>
-                    <th scope="col">Started</th>
-                    <th scope="col" className="num">
-                      Target oil
-                    </th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {d.batchesInProgress.map((b) => (
-                    <tr key={b.code}>
-                      <td>
-                        <CodeLink href={`/batches/${encodeURIComponent(b.code)}`} code={b.code} />
-                      </td>
-                      <td>
-                        <Status code={b.status} />
-                      </td>
-                      <td className="nowrap">{when(b.plannedAt, tz)}</td>
-                      <td className="nowrap">{when(b.startedAt, tz)}</td>
-                      <td className="num">{kg(b.targetOilG)}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
-            </div>
-          )}
-        </section>
-
-        <section className="panel" aria-labelledby="waste-h">
-          <h2 id="waste-h">Waste containers on site</h2>
-          {d.wasteOnSite.length === 0 ? (
-            <Empty>No waste containers are on site.</Empty>
-          ) : (
-            <>
-              <div className="table-wrap">
-                <table>
-                  <thead>
-                    <tr>
-                      <th scope="col">Container</th>
-                      <th scope="col">Stream</th>
-                      <th scope="col">Started</th>
-                      <th scope="col" className="num">
-                        Days on site
-                      </th>
-                      <th scope="col">Due off site</th>
-                    </tr>
-                  </thead>
-                  <tbody>
-                    {d.wasteOnSite.map((w) => {
-                      const due = waste?.byCode.get(w.code);
-                      return (
-                        <tr key={w.code}>
-                          <td>
-                            <Link href={`/waste/${encodeURIComponent(w.code)}`}>{w.code}</Link>
-                          </td>
-                          <td>{labelOf(w.stream)}</td>
-                          <td className="nowrap">{day(w.accumulationStart, tz)}</td>
-                          <td className="num">{daysBetween(w.accumulationStart, now)}</td>
-                          <td className="nowrap">
-                            {due === undefined ? (
-                              <span className="muted">not assessed</span>
-                            ) : due.dueDate === null ? (
-                              <span className="muted">no time limit</span>
-                            ) : (
-                              <>
-                                {due.dueDate}{" "}
-                                {due.overdue ? <span className="status status-overdue">overdue</span> : <span className="muted">({due.daysLeft} days left)</span>}
-                              </>
-                            )}
-                          </td>
-                        </tr>
-                      );
-                    })}
-                  </tbody>
-                </table>
-              </div>
-              <Note>
-                {waste
-                  ? `${waste.assumption.note} Rules: ${waste.ruleSet}. ${waste.note}`
-                  : "Due dates could not be worked out from the recorded data; days on site are counted from the accumulation start."}{" "}
-                <Link href="/waste">Waste details</Link>
-              </Note>
-            </>
-          )}
-        </section>
+        <TankPanel d={d} tz={tz} />
+        <LabPanel d={d} tz={tz} />
+        <BatchPanel d={d} tz={tz} />
+        <WastePanel d={d} waste={waste} tz={tz} now={now} />
 
         <section className="panel" aria-labelledby="period-h">
           <h2 id="period-h">Accounting period</h2>

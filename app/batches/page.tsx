@@ -6,9 +6,49 @@ import { kg, num, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, HistoryLink, NoSite, Pager, Status } from "@/app/_ui/ui";
+import type { Column } from "@/app/_ui/kit/data-table";
+import { DataTable } from "@/app/_ui/kit/data-table";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Batches" };
+
+type BatchListRow = Awaited<ReturnType<typeof listBatches>>["rows"][number];
+
+const BATCH_COLUMNS = (tz: string): Column<BatchListRow>[] => [
+  {
+    key: "batch",
+    header: "Batch",
+    cell: (b) => (
+      <>
+        <CodeLink href={`/batches/${encodeURIComponent(b.code)}`} code={b.code} />
+        {b.pretreated ? <span className="tag">pretreated</span> : null}
+      </>
+    ),
+  },
+  { key: "status", header: "Status", cell: (b) => <Status code={b.status} /> },
+  { key: "planned", header: "Planned", cell: (b) => <span className="nowrap">{when(b.plannedAt, tz)}</span> },
+  { key: "started", header: "Started", cell: (b) => <span className="nowrap">{when(b.startedAt, tz)}</span> },
+  { key: "finished", header: "Finished", cell: (b) => <span className="nowrap">{when(b.completedAt, tz)}</span> },
+  { key: "oil", header: "Target oil", numeric: true, cell: (b) => kg(b.targetOilG) },
+  { key: "ratio", header: "Methanol ratio", numeric: true, cell: (b) => `${num(b.molarRatio, 1)} : 1` },
+  { key: "catalyst", header: "Catalyst", cell: (b) => labelOf(b.catalyst) },
+  {
+    key: "products",
+    header: "Product lots",
+    cell: (b) =>
+      b.productLots.length === 0 ? (
+        <span className="muted">none</span>
+      ) : (
+        b.productLots.map((p, i) => (
+          <span key={p}>
+            {i > 0 ? ", " : ""}
+            <Link href={`/products/${encodeURIComponent(p)}`}>{p}</Link>
+          </span>
+        ))
+      ),
+  },
+  { key: "history", header: "History", cell: (b) => <HistoryLink kind="batch" recordKey={b.code} label="batch" /> },
+];
 
 export default async function BatchesPage({ searchParams }: { searchParams: Promise<{ page?: string | string[] }> }) {
   const { db, site } = await loadSite();
@@ -24,62 +64,7 @@ export default async function BatchesPage({ searchParams }: { searchParams: Prom
         <Empty>No batches recorded yet.</Empty>
       ) : (
         <>
-          <div className="table-wrap">
-            <table>
-              <thead>
-                <tr>
-                  <th scope="col">Batch</th>
-                  <th scope="col">Status</th>
-                  <th scope="col">Planned</th>
-                  <th scope="col">Started</th>
-                  <th scope="col">Finished</th>
-                  <th scope="col" className="num">
-                    Target oil
-                  </th>
-                  <th scope="col" className="num">
-                    Methanol ratio
-                  </th>
-                  <th scope="col">Catalyst</th>
-                  <th scope="col">Product lots</th>
-                  <th scope="col">History</th>
-                </tr>
-              </thead>
-              <tbody>
-                {rows.map((b) => (
-                  <tr key={b.code}>
-                    <td>
-                      <CodeLink href={`/batches/${encodeURIComponent(b.code)}`} code={b.code} />
-                      {b.pretreated ? <span className="tag">pretreated</span> : null}
-                    </td>
-                    <td>
-                      <Status code={b.status} />
-                    </td>
-                    <td className="nowrap">{when(b.plannedAt, tz)}</td>
-                    <td className="nowrap">{when(b.startedAt, tz)}</td>
-                    <td className="nowrap">{when(b.completedAt, tz)}</td>
-                    <td className="num">{kg(b.targetOilG)}</td>
-                    <td className="num">{num(b.molarRatio, 1)} : 1</td>
-                    <td>{labelOf(b.catalyst)}</td>
-                    <td>
-                      {b.productLots.length === 0 ? (
-                        <span className="muted">none</span>
-                      ) : (
-                        b.productLots.map((p, i) => (
-                          <span key={p}>
-                            {i > 0 ? ", " : ""}
-                            <Link href={`/products/${encodeURIComponent(p)}`}>{p}</Link>
-                          </span>
-                        ))
-                      )}
-                    </td>
-                    <td>
-                      <HistoryLink kind="batch" recordKey={b.code} label="batch" />
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <DataTable caption="Batches" hideCaption columns={BATCH_COLUMNS(tz)} rows={rows} rowKey={(b) => b.code} empty="No batches recorded yet." />
           <Pager basePath="/batches" page={page} total={total} pageSize={PAGE_SIZE} />
         </>
       )}

@@ -6,9 +6,35 @@ import { kg, pct, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, HistoryLink, NoSite, Note, Pager, Status } from "@/app/_ui/ui";
+import type { Column } from "@/app/_ui/kit/data-table";
+import { DataTable } from "@/app/_ui/kit/data-table";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Feedstock lots" };
+
+type LotListRow = Awaited<ReturnType<typeof listLots>>["rows"][number];
+
+const LOT_COLUMNS = (tz: string): Column<LotListRow>[] => [
+  {
+    key: "lot",
+    header: "Lot",
+    cell: (l) => (
+      <>
+        <CodeLink href={`/lots/${encodeURIComponent(l.code)}`} code={l.code} />
+        {l.certified ? <span className="tag">certified</span> : null}
+      </>
+    ),
+  },
+  { key: "received", header: "Received", cell: (l) => <span className="nowrap">{when(l.receivedAt, tz)}</span> },
+  { key: "material", header: "Material", cell: (l) => labelOf(l.material) },
+  { key: "from", header: "From", cell: (l) => (l.origin === "DELIVERY" ? (l.supplier ?? "Delivery") : `${l.pickups} pickup${l.pickups === 1 ? "" : "s"}`) },
+  { key: "status", header: "Status", cell: (l) => <Status code={l.status} /> },
+  { key: "ffa", header: "FFA", numeric: true, cell: (l) => pct(l.ffaPct) },
+  { key: "water", header: "Water", numeric: true, cell: (l) => pct(l.waterPct) },
+  { key: "mass", header: "Received mass", numeric: true, cell: (l) => kg(l.massG) },
+  { key: "stock", header: "Book stock", numeric: true, cell: (l) => kg(l.stockG) },
+  { key: "history", header: "History", cell: (l) => <HistoryLink kind="lot" recordKey={l.code} label="lot" /> },
+];
 
 type Props = { searchParams: Promise<{ page?: string | string[]; status?: string | string[] }> };
 
@@ -44,55 +70,7 @@ export default async function LotsPage({ searchParams }: Props) {
         <Empty>{status ? `No lots are “${labelOf(status).toLowerCase()}”.` : "No lots recorded yet."}</Empty>
       ) : (
         <>
-          <div className="table-wrap">
-            <table>
-              <thead>
-                <tr>
-                  <th scope="col">Lot</th>
-                  <th scope="col">Received</th>
-                  <th scope="col">Material</th>
-                  <th scope="col">From</th>
-                  <th scope="col">Status</th>
-                  <th scope="col" className="num">
-                    FFA
-                  </th>
-                  <th scope="col" className="num">
-                    Water
-                  </th>
-                  <th scope="col" className="num">
-                    Received mass
-                  </th>
-                  <th scope="col" className="num">
-                    Book stock
-                  </th>
-                  <th scope="col">History</th>
-                </tr>
-              </thead>
-              <tbody>
-                {rows.map((l) => (
-                  <tr key={l.code}>
-                    <td>
-                      <CodeLink href={`/lots/${encodeURIComponent(l.code)}`} code={l.code} />
-                      {l.certified ? <span className="tag">certified</span> : null}
-                    </td>
-                    <td className="nowrap">{when(l.receivedAt, tz)}</td>
-                    <td>{labelOf(l.material)}</td>
-                    <td>{l.origin === "DELIVERY" ? (l.supplier ?? "Delivery") : `${l.pickups} pickup${l.pickups === 1 ? "" : "s"}`}</td>
-                    <td>
-                      <Status code={l.status} />
-                    </td>
-                    <td className="num">{pct(l.ffaPct)}</td>
-                    <td className="num">{pct(l.waterPct)}</td>
-                    <td className="num">{kg(l.massG)}</td>
-                    <td className="num">{kg(l.stockG)}</td>
-                    <td>
-                      <HistoryLink kind="lot" recordKey={l.code} label="lot" />
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <DataTable caption="Feedstock lots" hideCaption columns={LOT_COLUMNS(tz)} rows={rows} rowKey={(l) => l.code} empty="No lots recorded yet." />
           <Pager basePath="/lots" page={page} total={total} pageSize={PAGE_SIZE} query={query} />
           <Note>FFA is the mean of the lot&apos;s titrations that are not voided; water is the latest water test.</Note>
         </>

@@ -5,9 +5,61 @@ import { PeriodActionForm } from "@/app/balance/period-form";
 import { day, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { Empty, HistoryLink, NoSite, Note } from "@/app/_ui/ui";
+import type { Column } from "@/app/_ui/kit";
+import { DataTable, StatusMark } from "@/app/_ui/kit";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Accounting periods" };
+
+type PeriodRow = Awaited<ReturnType<typeof listPeriods>>[number];
+type PeriodEvent = Awaited<ReturnType<typeof listPeriodEvents>>[number];
+
+function periodColumns(tz: string, now: Date, canClose: boolean): Column<PeriodRow>[] {
+  const month = (p: PeriodRow) => day(p.startsAt, tz).slice(0, 7);
+  const columns: Column<PeriodRow>[] = [
+    {
+      key: "from",
+      header: "From",
+      cell: (p) => (
+        <span className="nowrap">
+          {day(p.startsAt, tz)}
+          {p.startsAt <= now && now < p.endsAt ? <span className="tag">today</span> : null}
+        </span>
+      ),
+    },
+    { key: "to", header: "To (last day)", cell: (p) => <span className="nowrap">{day(new Date(p.endsAt.getTime() - 1), tz)}</span> },
+    { key: "status", header: "Status", cell: (p) => (p.status === "OPEN" ? <StatusMark code="OPEN_PERIOD" label="Open" /> : <StatusMark code="CLOSED" label="Closed" />) },
+    { key: "last", header: "Last change", cell: (p) => <span className="nowrap">{p.lastEvent ? `${p.lastEvent.action === "REOPEN" ? "Reopened" : "Closed"} ${when(p.lastEvent.at, tz)}` : "—"}</span> },
+    { key: "by", header: "By", cell: (p) => p.lastEvent?.by ?? "—" },
+    { key: "movements", header: "Movements", numeric: true, cell: (p) => p.movements },
+    { key: "balance", header: "Balance", cell: (p) => <a href={`/balance?${new URLSearchParams({ period: "CUSTOM", start: day(p.startsAt, tz), end: day(p.endsAt, tz) }).toString()}`}>balance</a> },
+    { key: "history", header: "History", cell: (p) => <HistoryLink kind="period" recordKey={String(p.id)} label={`accounting period ${month(p)}, record`} /> },
+  ];
+  if (!canClose) return columns;
+  return [
+    ...columns,
+    {
+      key: "act",
+      header: "Close or reopen",
+      cell: (p) =>
+        p.status === "CLOSED" ? (
+          <PeriodActionForm periodId={p.id} action="reopen" periodLabel={month(p)} />
+        ) : p.endsAt <= now ? (
+          <PeriodActionForm periodId={p.id} action="close" periodLabel={month(p)} />
+        ) : (
+          <span className="muted">not ended yet</span>
+        ),
+    },
+  ];
+}
+
+const eventColumns = (tz: string): Column<PeriodEvent>[] => [
+  { key: "when", header: "When", cell: (e) => <span className="nowrap">{when(e.at, tz)}</span> },
+  { key: "period", header: "Period", cell: (e) => <span className="nowrap">{day(e.periodStartsAt, tz)}</span> },
+  { key: "action", header: "Action", cell: (e) => (e.action === "CLOSE" ? "Closed" : "Reopened") },
+  { key: "by", header: "By", cell: (e) => e.by },
+  { key: "reason", header: "Reason", cell: (e) => e.reason },
+];
 
 export default async function PeriodsPage() {
   const { db, site, user } = await loadSite();
@@ -24,92 +76,10 @@ export default async function PeriodsPage() {
         <Empty>No accounting periods recorded yet.</Empty>
       ) : (
         <>
-          <div className="table-wrap">
-            <table>
-              <thead>
-                <tr>
-                  <th scope="col">From</th>
-                  <th scope="col">To (last day)</th>
-                  <th scope="col">Status</th>
-                  <th scope="col">Last change</th>
-                  <th scope="col">By</th>
-                  <th scope="col" className="num">
-                    Movements
-                  </th>
-                  <th scope="col">Balance</th>
-                  <th scope="col">History</th>
-                  {canClose ? <th scope="col">Close or reopen</th> : null}
-                </tr>
-              </thead>
-              <tbody>
-                {periods.map((p) => {
-                  const current = p.startsAt <= now && now < p.endsAt;
-                  return (
-                    <tr key={p.id}>
-                      <td className="nowrap">
-                        {day(p.startsAt, tz)}
-                        {current ? <span className="tag">today</span> : null}
-                      </td>
-                      <td className="nowrap">{day(new Date(p.endsAt.getTime() - 1), tz)}</td>
-                      <td>
-                        <span className={`status status-${p.status === "OPEN" ? "open-period" : "closed"}`}>{p.status === "OPEN" ? "Open" : "Closed"}</span>
-                      </td>
-                      <td className="nowrap">{p.lastEvent ? `${p.lastEvent.action === "REOPEN" ? "Reopened" : "Closed"} ${when(p.lastEvent.at, tz)}` : "—"}</td>
-                      <td>{p.lastEvent?.by ?? "—"}</td>
-                      <td className="num">{p.movements}</td>
-                      <td>
-                        <a href={`/balance?${new URLSearchParams({ period: "CUSTOM", start: day(p.startsAt, tz), end: day(p.endsAt, tz) }).toString()}`}>balance</a>
-                      </td>
-                      <td>
-                        <HistoryLink kind="period" recordKey={String(p.id)} label={`accounting period ${day(p.startsAt, tz).slice(0, 7)}, record`} />
-                      </td>
-                      {canClose ? (
-                        <td>
-                          {p.status === "CLOSED" ? (
-                            <PeriodActionForm periodId={p.id} action="reopen" periodLabel={day(p.startsAt, tz).slice(0, 7)} />
-                          ) : p.endsAt <= now ? (
-                            <PeriodActionForm periodId={p.id} action="close" periodLabel={day(p.startsAt, tz).slice(0, 7)} />
-                          ) : (
-                            <span className="muted">not ended yet</span>
-                          )}
-                        </td>
-                      ) : null}
-                    </tr>
-                  );
-                })}
-              </tbody>
-            </table>
-          </div>
+          <DataTable caption="Accounting periods" hideCaption columns={periodColumns(tz, now, canClose)} rows={periods} rowKey={(p) => p.id} empty="No accounting periods recorded yet." />
           <Note>A period runs from the start of its first day up to, not including, the start of the day after its last day.</Note>
           <h2>Closes and reopens</h2>
-          {events.length === 0 ? (
-            <Empty>No period has been closed or reopened yet.</Empty>
-          ) : (
-            <div className="table-wrap">
-              <table>
-                <thead>
-                  <tr>
-                    <th scope="col">When</th>
-                    <th scope="col">Period</th>
-                    <th scope="col">Action</th>
-                    <th scope="col">By</th>
-                    <th scope="col">Reason</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {events.map((e) => (
-                    <tr key={e.id}>
-                      <td className="nowrap">{when(e.at, tz)}</td>
-                      <td className="nowrap">{day(e.periodStartsAt, tz)}</td>
-                      <td>{e.action === "CLOSE" ? "Closed" : "Reopened"}</td>
-                      <td>{e.by}</td>
-                      <td>{e.reason}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
-            </div>
-          )}
+          <DataTable caption="Closes and reopens" hideCaption columns={eventColumns(tz)} rows={events} rowKey={(e) => e.id} empty="No period has been closed or reopened yet." />
         </>
       )}
     </>
