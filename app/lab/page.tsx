@@ -4,9 +4,24 @@ import { listLots } from "@/lib/feedstock/lot.store";
 import { daysBetween, kg, pct, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, NoSite, Note } from "@/app/_ui/ui";
+import type { Column } from "@/app/_ui/kit";
+import { DataTable } from "@/app/_ui/kit";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Lab" };
+
+type LabRow = Awaited<ReturnType<typeof listLots>>["rows"][number];
+
+const labColumns = (tz: string, now: Date): Column<LabRow>[] => [
+  { key: "lot", header: "Lot", cell: (l) => <CodeLink href={`/lab/${encodeURIComponent(l.code)}`} code={l.code} /> },
+  { key: "material", header: "Material", cell: (l) => labelOf(l.material) },
+  { key: "received", header: "Received", cell: (l) => <span className="nowrap">{when(l.receivedAt, tz)}</span> },
+  { key: "waiting", header: "Waiting", numeric: true, cell: (l) => `${Math.max(0, daysBetween(l.receivedAt, now))} d` },
+  { key: "mass", header: "Mass", numeric: true, cell: (l) => kg(l.massG) },
+  { key: "ffa", header: "FFA so far", numeric: true, cell: (l) => (l.ffaPct === null ? "—" : pct(l.ffaPct)) },
+  { key: "water", header: "Water so far", numeric: true, cell: (l) => (l.waterPct === null ? "—" : pct(l.waterPct)) },
+  { key: "source", header: "Source", cell: (l) => l.supplier ?? `${l.pickups} pickup${l.pickups === 1 ? "" : "s"}` },
+];
 
 export default async function LabPage() {
   const { db, site, user } = await loadSite();
@@ -25,39 +40,7 @@ export default async function LabPage() {
       {total === 0 ? (
         <Empty>No lot is waiting for the lab.</Empty>
       ) : (
-        <div className="table-wrap">
-          <table>
-            <caption>{total === 1 ? "1 lot awaiting the lab" : `${total} lots awaiting the lab`}</caption>
-            <thead>
-              <tr>
-                <th scope="col">Lot</th>
-                <th scope="col">Material</th>
-                <th scope="col">Received</th>
-                <th scope="col" className="num">Waiting</th>
-                <th scope="col" className="num">Mass</th>
-                <th scope="col" className="num">FFA so far</th>
-                <th scope="col" className="num">Water so far</th>
-                <th scope="col">Source</th>
-              </tr>
-            </thead>
-            <tbody>
-              {rows.map((l) => (
-                <tr key={l.code}>
-                  <td>
-                    <CodeLink href={`/lab/${encodeURIComponent(l.code)}`} code={l.code} />
-                  </td>
-                  <td>{labelOf(l.material)}</td>
-                  <td className="nowrap">{when(l.receivedAt, tz)}</td>
-                  <td className="num">{Math.max(0, daysBetween(l.receivedAt, now))} d</td>
-                  <td className="num">{kg(l.massG)}</td>
-                  <td className="num">{l.ffaPct === null ? "—" : pct(l.ffaPct)}</td>
-                  <td className="num">{l.waterPct === null ? "—" : pct(l.waterPct)}</td>
-                  <td>{l.supplier ?? `${l.pickups} pickup${l.pickups === 1 ? "" : "s"}`}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <DataTable caption={total === 1 ? "1 lot awaiting the lab" : `${total} lots awaiting the lab`} columns={labColumns(tz, now)} rows={rows} rowKey={(l) => l.code} empty="No lot is waiting for the lab." />
       )}
     </>
   );

@@ -6,9 +6,41 @@ import { PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { Empty, HolderLink, NoSite, Note, Pager } from "@/app/_ui/ui";
 import { ReverseMovementForm } from "@/app/corrections/correction-forms";
+import type { Column } from "@/app/_ui/kit";
+import { DataTable } from "@/app/_ui/kit";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Ledger" };
+
+type MovementRow = Awaited<ReturnType<typeof listMovementPage>>["rows"][number];
+
+function movementColumns(tz: string, canCorrect: boolean): Column<MovementRow>[] {
+  const columns: Column<MovementRow>[] = [
+    { key: "no", header: "No.", numeric: true, cell: (m) => m.id },
+    { key: "when", header: "When", cell: (m) => <span className="nowrap">{when(m.at, tz)}</span> },
+    { key: "role", header: "Role", cell: (m) => labelOf(m.role) },
+    { key: "from", header: "From", cell: (m) => <HolderLink holder={m.from} /> },
+    { key: "to", header: "To", cell: (m) => <HolderLink holder={m.to} /> },
+    { key: "mass", header: "Mass", numeric: true, cell: (m) => kgExact(m.massG) },
+    { key: "volume", header: "Volume", numeric: true, cell: (m) => (m.volumeMl === null ? "—" : litres(m.volumeMl)) },
+    { key: "temp", header: "Temp.", numeric: true, cell: (m) => (m.tempC === null ? "—" : `${num(m.tempC, 1)} °C`) },
+    { key: "by", header: "Recorded by", cell: (m) => m.recordedBy },
+    {
+      key: "note",
+      header: "Note",
+      cell: (m) => (
+        <>
+          {m.note}
+          {m.reversesId !== null ? <span className="tag">reverses No. {m.reversesId}</span> : null}
+          {m.reversedById !== null ? <span className="tag">reversed by No. {m.reversedById}</span> : null}
+        </>
+      ),
+    },
+  ];
+  if (!canCorrect) return columns;
+  const reversible = (m: MovementRow) => m.role === "TRANSFER" && m.from !== null && m.to.kind === "TANK" && m.reversesId === null && m.reversedById === null;
+  return [...columns, { key: "correct", header: "Correct", cell: (m) => (reversible(m) ? <ReverseMovementForm movementId={m.id} /> : null) }];
+}
 
 export default async function LedgerPage({ searchParams }: { searchParams: Promise<{ page?: string | string[] }> }) {
   const { db, site, user } = await loadSite();
@@ -26,60 +58,7 @@ export default async function LedgerPage({ searchParams }: { searchParams: Promi
       ) : (
         <>
           <Pager basePath="/ledger" page={page} total={total} pageSize={PAGE_SIZE} />
-          <div className="table-wrap">
-            <table>
-              <thead>
-                <tr>
-                  <th scope="col" className="num">
-                    No.
-                  </th>
-                  <th scope="col">When</th>
-                  <th scope="col">Role</th>
-                  <th scope="col">From</th>
-                  <th scope="col">To</th>
-                  <th scope="col" className="num">
-                    Mass
-                  </th>
-                  <th scope="col" className="num">
-                    Volume
-                  </th>
-                  <th scope="col" className="num">
-                    Temp.
-                  </th>
-                  <th scope="col">Recorded by</th>
-                  <th scope="col">Note</th>
-                  {canCorrect ? <th scope="col">Correct</th> : null}
-                </tr>
-              </thead>
-              <tbody>
-                {rows.map((m) => (
-                  <tr key={m.id}>
-                    <td className="num">{m.id}</td>
-                    <td className="nowrap">{when(m.at, tz)}</td>
-                    <td>{labelOf(m.role)}</td>
-                    <td>
-                      <HolderLink holder={m.from} />
-                    </td>
-                    <td>
-                      <HolderLink holder={m.to} />
-                    </td>
-                    <td className="num">{kgExact(m.massG)}</td>
-                    <td className="num">{m.volumeMl === null ? "—" : litres(m.volumeMl)}</td>
-                    <td className="num">{m.tempC === null ? "—" : `${num(m.tempC, 1)} °C`}</td>
-                    <td>{m.recordedBy}</td>
-                    <td>
-                      {m.note}
-                      {m.reversesId !== null ? <span className="tag">reverses No. {m.reversesId}</span> : null}
-                      {m.reversedById !== null ? <span className="tag">reversed by No. {m.reversedById}</span> : null}
-                    </td>
-                    {canCorrect ? (
-                      <td>{m.role === "TRANSFER" && m.from !== null && m.to.kind === "TANK" && m.reversesId === null && m.reversedById === null ? <ReverseMovementForm movementId={m.id} /> : null}</td>
-                    ) : null}
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <DataTable caption="Movements" hideCaption columns={movementColumns(tz, canCorrect)} rows={rows} rowKey={(m) => m.id} empty="No movements recorded yet." />
           <Pager basePath="/ledger" page={page} total={total} pageSize={PAGE_SIZE} />
           <Note>&ldquo;Outside the books&rdquo; marks material entering the books: a pickup, a delivery, a reagent received, or a receiving difference.</Note>
         </>

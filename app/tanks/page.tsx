@@ -6,6 +6,8 @@ import { kg, litres, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { DensityNote, FillBar } from "@/app/_ui/tank-ui";
 import { CodeLink, Empty, HistoryLink, NoSite } from "@/app/_ui/ui";
+import type { Column } from "@/app/_ui/kit";
+import { DataTable } from "@/app/_ui/kit";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Tanks" };
@@ -16,6 +18,22 @@ function vsBook(gaugeG: number, bookG: number): string {
   const sign = d.differenceG > 0 ? "+" : d.differenceG < 0 ? "−" : "";
   return `${sign}${kg(Math.abs(d.differenceG))}${d.differencePct === null ? "" : ` (${sign}${Math.abs(d.differencePct).toFixed(2)} %)`}`;
 }
+
+type TankRow = Awaited<ReturnType<typeof listTankLevels>>[number];
+
+const tankColumns = (tz: string): Column<TankRow>[] => [
+  { key: "tank", header: "Tank", cell: (t) => <CodeLink href={`/tanks/${encodeURIComponent(t.code)}`} code={t.code} /> },
+  { key: "name", header: "Name", cell: (t) => t.name },
+  { key: "service", header: "Service", cell: (t) => labelOf(t.service) },
+  { key: "mixing", header: "Mixing", cell: (t) => labelOf(t.mixing) },
+  { key: "capacity", header: "Capacity", numeric: true, cell: (t) => litres(t.capacityMl, 0) },
+  { key: "stock", header: "Book stock", numeric: true, cell: (t) => kg(t.stockG) },
+  { key: "fill", header: "Fill (estimate)", cell: (t) => <FillBar tank={t} /> },
+  { key: "gauge", header: "Last gauge", numeric: true, cell: (t) => (t.lastGauge ? `${kg(t.lastGauge.massG)} · ${litres(t.lastGauge.volumeMl, 0)}` : "—") },
+  { key: "gauged", header: "Gauged", cell: (t) => (t.lastGauge ? <span className="nowrap">{when(t.lastGauge.at, tz)}</span> : <span className="muted">never</span>) },
+  { key: "vs", header: "Gauge vs book then", numeric: true, cell: (t) => (t.lastGauge && t.lastGauge.bookStockG !== null ? vsBook(t.lastGauge.massG, t.lastGauge.bookStockG) : "—") },
+  { key: "history", header: "History", cell: (t) => <HistoryLink kind="tank" recordKey={t.code} label="tank" /> },
+];
 
 export default async function TanksPage() {
   const { db, site } = await loadSite();
@@ -30,56 +48,7 @@ export default async function TanksPage() {
         <Empty>No tanks recorded yet.</Empty>
       ) : (
         <>
-          <div className="table-wrap">
-            <table>
-              <thead>
-                <tr>
-                  <th scope="col">Tank</th>
-                  <th scope="col">Name</th>
-                  <th scope="col">Service</th>
-                  <th scope="col">Mixing</th>
-                  <th scope="col" className="num">
-                    Capacity
-                  </th>
-                  <th scope="col" className="num">
-                    Book stock
-                  </th>
-                  <th scope="col">Fill (estimate)</th>
-                  <th scope="col" className="num">
-                    Last gauge
-                  </th>
-                  <th scope="col">Gauged</th>
-                  <th scope="col" className="num">
-                    Gauge vs book then
-                  </th>
-                  <th scope="col">History</th>
-                </tr>
-              </thead>
-              <tbody>
-                {tanks.map((t) => (
-                  <tr key={t.code}>
-                    <td>
-                      <CodeLink href={`/tanks/${encodeURIComponent(t.code)}`} code={t.code} />
-                    </td>
-                    <td>{t.name}</td>
-                    <td>{labelOf(t.service)}</td>
-                    <td>{labelOf(t.mixing)}</td>
-                    <td className="num">{litres(t.capacityMl, 0)}</td>
-                    <td className="num">{kg(t.stockG)}</td>
-                    <td>
-                      <FillBar tank={t} />
-                    </td>
-                    <td className="num">{t.lastGauge ? `${kg(t.lastGauge.massG)} · ${litres(t.lastGauge.volumeMl, 0)}` : "—"}</td>
-                    <td className="nowrap">{t.lastGauge ? when(t.lastGauge.at, tz) : <span className="muted">never</span>}</td>
-                    <td className="num">{t.lastGauge && t.lastGauge.bookStockG !== null ? vsBook(t.lastGauge.massG, t.lastGauge.bookStockG) : "—"}</td>
-                    <td>
-                      <HistoryLink kind="tank" recordKey={t.code} label="tank" />
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <DataTable caption="Tanks" hideCaption columns={tankColumns(tz)} rows={tanks} rowKey={(t) => t.code} empty="No tanks recorded yet." />
           <DensityNote tanks={tanks} />
         </>
       )}
