@@ -33,7 +33,7 @@ export default defineConfig({
     ...(withPg ? [{ name: "postgresql", testMatch: /concurrent-draws\.spec\.ts/, use: { baseURL: `http://127.0.0.1:${pgPort}` } }] : []),
   ],
   webServer: [
-    { command: `bash scripts/e2e-server.sh ${port} sqlite`, url: `http://127.0.0.1:${port}/login`, timeout: 180_000, reuseExistingServer: false, stdout: "pipe" },
-    ...(withPg ? [{ command: `bash scripts/e2e-server.sh ${pgPort} postgresql`, url: `http://127.0.0.1:${pgPort}/login`, timeout: 240_000, reuseExistingServer: false, stdout: "pipe" as const }] : []),
+    { command: `bash scripts/e2e-server.sh ${port} sqlite`, url: `http://127.0.0.1:${port}/login`, timeout: 600_000, reuseExistingServer: false, stdout: "pipe" },
+    ...(withPg ? [{ command: `bash scripts/e2e-server.sh ${pgPort} postgresql`, url: `http://127.0.0.1:${pgPort}/login`, timeout: 600_000, reuseExistingServer: false, stdout: "pipe" as const }] : []),
   ],
 });
