@@ -1,8 +1,9 @@
 "use client";
 import Link from "next/link";
-import { useActionState } from "react";
 import { receivePickupsAction } from "@/app/receiving/actions";
-import type { ReceiveState } from "@/app/receiving/actions";
+import { ActionForm, Field, useActionFormState } from "@/app/_ui/kit/action-form";
+import type { Column } from "@/app/_ui/kit/data-table";
+import { DataTable } from "@/app/_ui/kit/data-table";
 
 export interface ReceivingRow {
   code: string;
@@ -16,146 +17,68 @@ export interface ReceivingRow {
   mass: string;
 }
 
-const START: ReceiveState = { status: "idle", message: null, values: { code: "", volume: "", temp: "", notes: "", certified: false, pickups: [], tankCode: "", acceptReason: "" }, errors: {}, seq: 0 };
-
-function Err({ state, field }: { state: ReceiveState; field: string }) {
-  const m = state.errors[field];
-  return m ? (
-    <span className="collect-field-error" id={`err-${field}`} role="alert">
-      {m}
-    </span>
-  ) : null;
-}
-
 export interface TankOption {
   code: string;
   label: string;
 }
 
-export function ReceiveForm({ rows, suggestedCode, mayReceive, tanks }: { rows: ReceivingRow[]; suggestedCode: string; mayReceive: boolean; tanks: readonly TankOption[] }) {
-  const [state, action, pending] = useActionState(receivePickupsAction, START);
-  const v = state.values;
+/** The waiting pickups, one table per day observed, each with its "take" box (ticked again after a refusal). */
+function PickupChoice({ rows }: { rows: ReceivingRow[] }) {
+  const state = useActionFormState();
+  const taken = new Set((state.values.pickups ?? "").split(",").filter((c) => c !== ""));
+  const error = state.status === "refused" ? state.errors.pickups : undefined;
   const days = [...new Set(rows.map((r) => r.day))];
-  const bad = (f: string) => (state.errors[f] ? { "aria-invalid": true as const, "aria-describedby": `err-${f}` } : {});
+  const columns: Column<ReceivingRow>[] = [
+    { key: "take", header: "Take", cell: (r) => <input type="checkbox" name="pickup" value={r.code} defaultChecked={taken.has(r.code)} aria-label={`Take pickup ${r.code}`} /> },
+    { key: "pickup", header: "Pickup", cell: (r) => <Link href={`/pickups/${encodeURIComponent(r.code)}`}>{r.code}</Link> },
+    { key: "observed", header: "Observed", cell: (r) => <span className="nowrap">{r.observed}</span> },
+    { key: "source", header: "Source", cell: (r) => r.source },
+    { key: "material", header: "Material", cell: (r) => r.material },
+    { key: "collector", header: "Collector", cell: (r) => r.collector },
+    { key: "containers", header: "Containers", numeric: true, cell: (r) => r.containers },
+    { key: "volume", header: "Volume", numeric: true, cell: (r) => r.volume },
+    { key: "mass", header: "Est. mass", numeric: true, cell: (r) => r.mass },
+  ];
   return (
-    <form action={action} key={state.seq} noValidate>
-      {state.message ? (
-        <p className={state.status === "saved" ? "collect-saved" : "form-error"} role={state.status === "saved" ? "status" : "alert"}>
-          {state.message}
-        </p>
+    <fieldset className="field-wide">
+      <legend>Pickups not yet in a lot — choose one for its own lot, or several to pool them</legend>
+      {error ? (
+        <span className="field-error" id="err-pickups" role="alert">
+          {error}
+        </span>
       ) : null}
-      {rows.length === 0 ? (
-        <p className="empty">Every pickup is already in a lot.</p>
-      ) : (
-        <>
-          <fieldset>
-            <legend>Pickups not yet in a lot — choose one for its own lot, or several to pool them</legend>
-            <Err state={state} field="pickups" />
-            {days.map((d) => (
-              <div key={d} className="receiving-group">
-                <h2>Observed {d}</h2>
-                <div className="table-wrap">
-                  <table>
-                    <thead>
-                      <tr>
-                        <th scope="col">Take</th>
-                        <th scope="col">Pickup</th>
-                        <th scope="col">Observed</th>
-                        <th scope="col">Source</th>
-                        <th scope="col">Material</th>
-                        <th scope="col">Collector</th>
-                        <th scope="col" className="num">
-                          Containers
-                        </th>
-                        <th scope="col" className="num">
-                          Volume
-                        </th>
-                        <th scope="col" className="num">
-                          Est. mass
-                        </th>
-                      </tr>
-                    </thead>
-                    <tbody>
-                      {rows
-                        .filter((r) => r.day === d)
-                        .map((r) => (
-                          <tr key={r.code}>
-                            <td>
-                              <input type="checkbox" name="pickup" value={r.code} defaultChecked={v.pickups.includes(r.code)} aria-label={`Take pickup ${r.code}`} />
-                            </td>
-                            <td>
-                              <Link href={`/pickups/${encodeURIComponent(r.code)}`}>{r.code}</Link>
-                            </td>
-                            <td className="nowrap">{r.observed}</td>
-                            <td>{r.source}</td>
-                            <td>{r.material}</td>
-                            <td>{r.collector}</td>
-                            <td className="num">{r.containers}</td>
-                            <td className="num">{r.volume}</td>
-                            <td className="num">{r.mass}</td>
-                          </tr>
-                        ))}
-                    </tbody>
-                  </table>
-                </div>
-              </div>
-            ))}
-          </fieldset>
-          <fieldset>
-            <legend>The plant&apos;s measurement of the lot</legend>
-            <label className="collect-field">
-              Lot number
-              <input name="code" defaultValue={v.code || suggestedCode} autoCapitalize="characters" {...bad("code")} />
-              <Err state={state} field="code" />
-            </label>
-            <label className="collect-field">
-              Measured volume (L)
-              <input name="volume" inputMode="decimal" defaultValue={v.volume} {...bad("volume")} />
-              <Err state={state} field="volume" />
-            </label>
-            <label className="collect-field">
-              Temperature at measurement (°C)
-              <input name="temp" inputMode="decimal" defaultValue={v.temp} {...bad("temp")} />
-              <Err state={state} field="temp" />
-            </label>
-            <label className="collect-field">
-              <input type="checkbox" name="certified" defaultChecked={v.certified} /> Certified sustainable (every pickup&apos;s source holds a valid certificate)
-            </label>
-            <label className="collect-field">
-              Notes
-              <input name="notes" defaultValue={v.notes} maxLength={500} {...bad("notes")} />
-              <Err state={state} field="notes" />
-            </label>
-          </fieldset>
-          <fieldset>
-            <legend>Where the lot goes</legend>
-            <label className="collect-field">
-              Pool into
-              <select name="tankCode" defaultValue={v.tankCode} {...bad("tankCode")}>
-                <option value="">Keep as a lot awaiting the lab (the usual way)</option>
-                {tanks.map((t) => (
-                  <option key={t.code} value={t.code}>
-                    Straight into tank {t.label}
-                  </option>
-                ))}
-              </select>
-              <Err state={state} field="tankCode" />
-            </label>
-            <p className="muted">
-              Straight into a tank, the lot is accepted now, by you, and all of it is moved into the tank in the same step. Say why it may be accepted before its own lab result (for example &quot;tank sample titrated&quot;); the reason is kept in the record&apos;s history. If the tank cannot take it, nothing is received.
-            </p>
-            <label className="collect-field">
-              Reason for accepting now (only when pooling into a tank)
-              <input name="acceptReason" defaultValue={v.acceptReason} maxLength={200} {...bad("acceptReason")} />
-              <Err state={state} field="acceptReason" />
-            </label>
-          </fieldset>
-          <button type="submit" className="primary" disabled={pending || !mayReceive}>
-            {pending ? "Receiving…" : "Receive as one lot"}
-          </button>
-          {!mayReceive ? <p className="muted">Only production staff receive pickups into lots.</p> : null}
-        </>
-      )}
-    </form>
+      {days.map((d) => (
+        <div key={d} className="receiving-group">
+          <h2>Observed {d}</h2>
+          <DataTable caption={`Pickups observed ${d}`} hideCaption columns={columns} rows={rows.filter((r) => r.day === d)} rowKey={(r) => r.code} empty="None." />
+        </div>
+      ))}
+    </fieldset>
+  );
+}
+
+export function ReceiveForm({ rows, suggestedCode, mayReceive, tanks }: { rows: ReceivingRow[]; suggestedCode: string; mayReceive: boolean; tanks: readonly TankOption[] }) {
+  if (rows.length === 0) return <p className="empty">Every pickup is already in a lot.</p>;
+  const tankOptions: ReadonlyArray<readonly [string, string]> = [["", "Keep as a lot awaiting the lab (the usual way)"], ...tanks.map((t) => [t.code, `Straight into tank ${t.label}`] as const)];
+  return (
+    <>
+      <ActionForm action={receivePickupsAction} label="Receive pickups as a lot" submitLabel="Receive as one lot" disabled={!mayReceive}>
+        <PickupChoice rows={rows} />
+        <Field name="code" label="Lot number" defaultValue={suggestedCode} maxLength={20} />
+        <Field name="volume" label="Measured volume" unit="L" type="number" />
+        <Field name="temp" label="Temperature at measurement" unit="°C" type="number" />
+        <Field name="certified" label="Certified sustainable (every pickup's source holds a valid certificate)" type="checkbox" />
+        <Field name="notes" label="Notes" maxLength={500} />
+        <Field
+          name="tankCode"
+          label="Pool into"
+          type="select"
+          options={tankOptions}
+          hint="Straight into a tank, the lot is accepted now, by you, and all of it is moved into the tank in the same step; say why it may be accepted before its own lab result (for example “tank sample titrated”) — the reason is kept in the record's history. If the tank cannot take it, nothing is received."
+        />
+        <Field name="acceptReason" label="Reason for accepting now (only when pooling into a tank)" maxLength={200} />
+      </ActionForm>
+      {!mayReceive ? <p className="muted">Only production staff receive pickups into lots.</p> : null}
+    </>
   );
 }

@@ -19,6 +19,7 @@ export function ActionForm({
   label,
   className = "kit-form",
   keepValues = false,
+  disabled = false,
 }: {
   action: (prev: FormState, form: FormData) => Promise<FormState>;
   submitLabel: string;
@@ -28,6 +29,8 @@ export function ActionForm({
   label: string;
   className?: string;
   keepValues?: boolean;
+  /** The submit button is shown but cannot be used (a role that may read but not record). */
+  disabled?: boolean;
 }) {
   const [state, act, pending] = useActionState<FormState, FormData>(action, IDLE);
   const shown: FormState = state.status === "saved" && !keepValues ? { ...state, values: {} } : state;
@@ -38,7 +41,7 @@ export function ActionForm({
       ))}
       <FormStateContext value={shown}>{children}</FormStateContext>
       <div className="form-actions">
-        <button type="submit" className="primary" disabled={pending}>
+        <button type="submit" className="primary" disabled={pending || disabled}>
           {pending ? "Saving…" : submitLabel}
         </button>
       </div>
