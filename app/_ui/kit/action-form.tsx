@@ -74,7 +74,7 @@ type FieldProps = {
   /** The schema's own text limit, so a browser cannot send more than the field takes. */
   maxLength?: number;
 } & (
-  | { type?: "text" | "number" | "datetime-local" | "date"; options?: undefined; placeholder?: string }
+  | { type?: "text" | "number" | "datetime-local" | "date"; options?: undefined; placeholder?: string; suggestions?: readonly string[] }
   | { type: "password"; options?: undefined; autoComplete: "current-password" | "new-password" }
   | { type: "select"; options: ReadonlyArray<readonly [value: string, label: string]> }
   | { type: "textarea"; options?: undefined; placeholder?: string }
@@ -113,7 +113,19 @@ export function Field(props: FieldProps) {
   } else {
     // Numbers are typed as text so that what was typed (a comma, a unit left in) comes back as it was.
     const numeric = props.type === "number";
-    control = <input {...common} type={numeric ? "text" : (props.type ?? "text")} inputMode={numeric ? "decimal" : undefined} defaultValue={value} placeholder={props.placeholder} autoComplete="off" maxLength={maxLength} />;
+    const listId = props.suggestions ? `${id}-list` : undefined;
+    control = (
+      <>
+        <input {...common} type={numeric ? "text" : (props.type ?? "text")} inputMode={numeric ? "decimal" : undefined} defaultValue={value} placeholder={props.placeholder} autoComplete="off" maxLength={maxLength} list={listId} />
+        {props.suggestions ? (
+          <datalist id={listId}>
+            {props.suggestions.map((s) => (
+              <option key={s} value={s} />
+            ))}
+          </datalist>
+        ) : null}
+      </>
+    );
   }
   return (
     <div className={`field${props.type === "checkbox" ? " field-check" : ""}`}>
