@@ -34,31 +34,57 @@ export function pct(sorted: readonly number[], p: number): number {
   return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] ?? Number.NaN;
 }
 
+/** fetch, sent once more if the connection drops before an answer (a kept-alive socket the server closed meanwhile). */
+export async function fetchOnce(url: string, init?: RequestInit): Promise<Response> {
+  try {
+    return await fetch(url, init);
+  } catch {
+    await new Promise((r) => setTimeout(r, 500));
+    return fetch(url, init);
+  }
+}
+
 export async function signIn(base: string, login: string): Promise<string> {
-  const r = await fetch(`${base}/api/session`, { method: "POST", headers: { "content-type": "application/json", origin: base }, body: JSON.stringify({ login, password: DEMO_PASSWORD }) });
+  const r = await fetchOnce(`${base}/api/session`, { method: "POST", headers: { "content-type": "application/json", origin: base }, body: JSON.stringify({ login, password: DEMO_PASSWORD }) });
   const cookie = r.headers.getSetCookie().map((c) => c.split(";")[0]).find((c) => c?.includes("tv_session="));
   if (!r.ok || cookie === undefined) throw new Error(`sign-in as ${login} refused: ${r.status} ${await r.text()}`);
   return cookie;
 }
 
+/**
+ * The mix as autocannon request slots. Every connection walks the mix in order, so each round starts at
+ * the next offset (a shared counter): over a short run each route gets its share instead of the first
+ * entries getting most. The route being answered is kept in the connection's context for the timings.
+ */
 export function toAutocannon(mix: readonly MixRequest[], base: string, cookies: Record<MixRequest["as"], string>, routes: Map<string, RouteStats>): autocannon.Request[] {
-  return mix.map((m) => {
-    const headers: Record<string, string> = { cookie: cookies[m.as], accept: m.kind === "page" ? "text/html" : "application/json" };
-    if (m.method === "POST") Object.assign(headers, { "content-type": "application/json", origin: base });
-    const req: autocannon.Request & { route: string } = { route: m.route, method: m.method, path: m.path, headers };
-    if (m.body !== undefined) {
-      const body = m.body;
-      req.setupRequest = (r) => ({ ...r, body: body(), headers: { ...headers, "idempotency-key": randomUUID() } });
-      req.onResponse = (status: number, text: string) => {
-        const s = routes.get(m.route);
-        if (s === undefined || status < 400 || status >= 500) return;
-        // A refused booking (a domain code such as an over-draw) is counted apart; a refused sign-in or key is an error.
-        if (/"code":"(AUTH|IDEMPOTENCY)\./.test(text)) s.errors += 1;
-        else s.refused += 1;
-      };
-    }
-    return req;
-  });
+  let rounds = 0;
+  const pick = (slot: number, context: Record<string, unknown>): MixRequest | undefined => {
+    const offset = typeof context.offset === "number" ? context.offset : rounds++ % mix.length;
+    context.offset = offset;
+    return mix[(offset + slot) % mix.length];
+  };
+  return mix.map((_, slot): autocannon.Request => ({
+    method: "GET",
+    path: "/",
+    setupRequest: (r: autocannon.Request, ctx: object): autocannon.Request => {
+      const context = ctx as Record<string, unknown>;
+      const m = pick(slot, context);
+      if (m === undefined) return r;
+      context.route = m.route;
+      const headers: Record<string, string> = { cookie: cookies[m.as], accept: m.kind === "page" ? "text/html" : "application/json" };
+      if (m.method === "POST") Object.assign(headers, { "content-type": "application/json", origin: base, "idempotency-key": randomUUID() });
+      return { ...r, method: m.method, path: m.path, headers, ...(m.body ? { body: m.body() } : {}) };
+    },
+    onResponse: (status: number, text: string, ctx: object) => {
+      const context = ctx as Record<string, unknown>;
+      const route = typeof context.route === "string" ? context.route : "";
+      const s = routes.get(route);
+      if (!route.startsWith("write") || s === undefined || status < 400 || status >= 500) return;
+      // A refused booking (a domain code such as an over-draw) is counted apart; a refused sign-in or key is an error.
+      if (/"code":"(AUTH|IDEMPOTENCY)\./.test(text)) s.errors += 1;
+      else s.refused += 1;
+    },
+  }));
 }
 
 export async function measure(section: string, server: AppServer, mix: readonly MixRequest[], cookies: Record<MixRequest["as"], string>, connections: number, durationS: number): Promise<RunResult> {
@@ -71,7 +97,8 @@ export async function measure(section: string, server: AppServer, mix: readonly 
   });
   if (instance === undefined) throw new Error("autocannon did not start");
   instance.on("response", (client: unknown, status: number, _bytes: number, ms: number) => {
-    const route = (client as { requestIterator?: { currentRequest?: { route?: string } } }).requestIterator?.currentRequest?.route ?? "?";
+    const context = (client as { requestIterator?: { context?: Record<string, unknown> } }).requestIterator?.context;
+    const route = typeof context?.route === "string" ? context.route : "?";
     const s = routes.get(route);
     all.push(ms);
     if (s === undefined) return;

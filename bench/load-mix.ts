@@ -20,7 +20,7 @@ export interface DemoCodes {
   lot: string;
   source: string;
   material: string;
-  transfers: Array<{ fromCode: string; toTankCode: string }>;
+  transfers: Array<{ fromKind: "TANK" | "LOT"; fromCode: string; toTankCode: string }>;
 }
 
 export const READER_LOGIN = "compliance.nell";
@@ -68,7 +68,7 @@ function transferBody(c: DemoCodes): string {
   serial += 1;
   const t = c.transfers[serial % c.transfers.length];
   if (t === undefined) throw new Error("no lot-to-tank transfer found in the demo");
-  return JSON.stringify({ fromCode: t.fromCode, fromKind: "LOT", toTankCode: t.toTankCode, at: new Date(Date.now() - 60_000).toISOString(), massKg: 1, note: "load run" });
+  return JSON.stringify({ fromCode: t.fromCode, fromKind: t.fromKind, toTankCode: t.toTankCode, at: new Date(Date.now() - 60_000).toISOString(), massKg: 1, note: "load run" });
 }
 
 /** The read mix with every tenth request a booking: 20 requests per round, 18 reads, 1 pickup, 1 transfer. */
@@ -84,15 +84,16 @@ export function writeMix(c: DemoCodes): MixRequest[] {
   return out;
 }
 
-/** Codes to ask about: the last shipment, the latest lot, a source with pickups, and lots with stock. */
-export async function readDemoCodes(db: Db): Promise<Omit<DemoCodes, "transfers"> & { lotCandidates: string[]; tanks: string[] }> {
+/** Codes to ask about: the last shipment, the latest lot, a source with pickups, and feedstock tanks and lots with stock to draw 1 kg from. */
+export async function readDemoCodes(db: Db): Promise<Omit<DemoCodes, "transfers"> & { stocked: Array<{ kind: "TANK" | "LOT"; code: string }> }> {
   const shipment = await db.holder.findFirst({ where: { kind: "SHIPMENT" }, orderBy: { id: "desc" }, select: { code: true } });
   const lot = await db.feedstockLot.findFirst({ orderBy: { holderId: "desc" }, select: { code: true } });
   const pickup = await db.pickup.findFirst({ orderBy: { id: "desc" }, select: { material: true, source: { select: { code: true } } } });
-  const lots = await db.holder.findMany({ where: { kind: "LOT", stockG: { gte: 500_000 } }, orderBy: { stockG: "desc" }, take: 12, select: { code: true } });
-  const tanks = await db.tank.findMany({ select: { holder: { select: { code: true } } } });
+  const tanks = await db.tank.findMany({ where: { service: "FEEDSTOCK", holder: { stockG: { gte: 1_000_000 } } }, select: { holder: { select: { code: true } } } });
+  const lots = await db.holder.findMany({ where: { kind: "LOT", stockG: { gte: 500_000 } }, orderBy: { stockG: "desc" }, take: 6, select: { code: true } });
   if (!shipment || !lot || !pickup) throw new Error("the demo database has no shipment, lot or pickup");
-  return { shipment: shipment.code, lot: lot.code, source: pickup.source.code, material: pickup.material, lotCandidates: lots.map((l) => l.code), tanks: tanks.map((t) => t.holder.code) };
+  const stocked = [...tanks.map((t) => ({ kind: "TANK" as const, code: t.holder.code })), ...lots.map((l) => ({ kind: "LOT" as const, code: l.code }))];
+  return { shipment: shipment.code, lot: lot.code, source: pickup.source.code, material: pickup.material, stocked };
 }
 
 /**

@@ -3,7 +3,7 @@
 // everything removed again at the end. Builds nothing: a missing `next build` is reported and the run stops.
 import { spawn } from "node:child_process";
 import type { ChildProcess } from "node:child_process";
-import { existsSync, readFileSync, rmSync } from "node:fs";
+import { copyFileSync, existsSync, readdirSync, readFileSync, rmSync } from "node:fs";
 import net from "node:net";
 import path from "node:path";
 import pg from "pg";
@@ -61,6 +61,57 @@ export async function createDatabase(kind: "sqlite" | "postgresql", tag: string)
   await admin(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`);
   await admin(`CREATE DATABASE "${name}"`);
   return { kind, url: `${PG_BASE.replace(/\/[^/]*$/, "")}/${name}`, drop: () => admin(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`) };
+}
+
+async function pgAdmin(sql: string, params: unknown[] = []): Promise<pg.QueryResult> {
+  const c = new pg.Client({ connectionString: PG_BASE });
+  await c.connect();
+  try {
+    return await c.query(sql, params);
+  } finally {
+    await c.end();
+  }
+}
+
+/** Names a demo by its length, today's date (the demo's anchor) and the latest migration, so a template never outlives its schema. */
+function templateKey(days: number): string {
+  const migrations = readdirSync(path.join(ROOT, "prisma", "migrations")).filter((d) => /^\d{14}_/.test(d)).sort();
+  const last = migrations[migrations.length - 1]?.slice(0, 14) ?? "none";
+  return `${days}d_${new Date().toISOString().slice(0, 10).replace(/-/g, "")}_${last}`;
+}
+
+/**
+ * A fresh demo database for this run. The demo is loaded once into a template (data/load-template-….db,
+ * or the PostgreSQL database tracevat_load_tpl_…) and each run gets a copy, because loading takes
+ * minutes on a busy 2-core machine. Returns how long loading took (0 when the template existed).
+ */
+export async function createDemoDatabase(kind: "sqlite" | "postgresql", tag: string, days: number): Promise<{ database: LoadDatabase; seedMs: number; dropTemplate(): Promise<void> }> {
+  const key = templateKey(days);
+  if (kind === "sqlite") {
+    const template = path.join(ROOT, "data", `load-template-${key}.db`);
+    let seedMs = 0;
+    if (!existsSync(template)) seedMs = await seedDemo({ kind, url: `file:${template}`, drop: () => Promise.resolve() }, days);
+    const database = await createDatabase(kind, tag);
+    copyFileSync(template, database.url.slice("file:".length));
+    return { database, seedMs, dropTemplate: () => Promise.resolve(rmSync(template, { force: true })) };
+  }
+  const template = `tracevat_load_tpl_${key}`;
+  let seedMs = 0;
+  const exists = (await pgAdmin("SELECT 1 FROM pg_database WHERE datname = $1", [template])).rowCount === 1;
+  if (!exists) {
+    await pgAdmin(`CREATE DATABASE "${template}"`);
+    try {
+      seedMs = await seedDemo({ kind, url: `${PG_BASE.replace(/\/[^/]*$/, "")}/${template}`, drop: () => Promise.resolve() }, days);
+    } catch (e) {
+      await pgAdmin(`DROP DATABASE IF EXISTS "${template}" WITH (FORCE)`);
+      throw e;
+    }
+  }
+  const name = `tracevat_load_${tag}`;
+  await pgAdmin(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`);
+  await pgAdmin(`CREATE DATABASE "${name}" TEMPLATE "${template}"`);
+  const database: LoadDatabase = { kind, url: `${PG_BASE.replace(/\/[^/]*$/, "")}/${name}`, drop: async () => void (await pgAdmin(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`)) };
+  return { database, seedMs, dropTemplate: async () => void (await pgAdmin(`DROP DATABASE IF EXISTS "${template}" WITH (FORCE)`)) };
 }
 
 function run(cmd: string, args: string[], env: NodeJS.ProcessEnv): Promise<void> {

@@ -4,16 +4,17 @@
 //   npm run load -- --both           both, then the PostgreSQL/SQLite ratio
 //   options: --duration=10 (s per run)  --connections=1,10,50  --days=182 (demo length)  --two (PostgreSQL:
 //   a second server process on the same database; bookings to one, reads to the other, answers compared)
+//   --keep-template (keep the PostgreSQL demo template for the next run; the SQLite one stays in data/)
 // Builds nothing; needs an existing `next build`. Goals print PASS/MISS and never change the exit code;
 // the run fails only when it cannot measure (no build, no server, a sign-in refused).
 import os from "node:os";
 import { randomUUID } from "node:crypto";
 import { openDb } from "@/lib/database/connect";
-import { AppServer, createDatabase, findFreePort, requireBuild, seedDemo } from "@/bench/load-server";
+import { AppServer, createDemoDatabase, findFreePort, requireBuild } from "@/bench/load-server";
 import { countOverdraws, floorMix, readDemoCodes, readMix, READER_LOGIN, WRITER_LOGIN, writeMix } from "@/bench/load-mix";
 import type { DemoCodes, MixRequest } from "@/bench/load-mix";
 import { compareServers } from "@/bench/load-two";
-import { measure, pct, signIn } from "@/bench/load-measure";
+import { fetchOnce, measure, pct, signIn } from "@/bench/load-measure";
 import type { RunResult } from "@/bench/load-measure";
 import { printTable } from "@/bench/measure";
 
@@ -24,28 +25,29 @@ const DAYS = Number(arg("days", "182"));
 const WANT_PG = process.argv.includes("--pg") || process.argv.includes("--both");
 const WANT_SQLITE = !process.argv.includes("--pg") || process.argv.includes("--both");
 const WANT_TWO = process.argv.includes("--two");
+const KEEP_TEMPLATE = process.argv.includes("--keep-template");
 const PORTS = { from: Number(process.env.LOAD_PORT_FROM ?? 4170), to: Number(process.env.LOAD_PORT_TO ?? 4199) };
 
 const GOALS = { mixToFloor: 0.5, readP95Ms: 300, writeP95Ms: 500 } as const;
 
-/** Lots and tanks a 1 kg move is accepted between, found by trying (each try is a real booking). */
-async function findTransfers(base: string, cookie: string, lots: readonly string[], tanks: readonly string[]): Promise<DemoCodes["transfers"]> {
+/**
+ * Where the bookings draw from: a tank of the run's own (so the demo's tanks never fill) receives 1 kg
+ * at a time from the demo's feedstock tanks and lots that accept a trial move (each trial is a booking).
+ */
+async function findTransfers(base: string, cookie: string, stocked: ReadonlyArray<{ kind: "TANK" | "LOT"; code: string }>, port: number): Promise<DemoCodes["transfers"]> {
+  const post = (path: string, body: unknown) =>
+    fetchOnce(`${base}${path}`, { method: "POST", headers: { "content-type": "application/json", origin: base, cookie, "idempotency-key": randomUUID() }, body: JSON.stringify(body) });
+  const sink = `LOAD-${port}`;
+  const made = await post("/api/tanks", { code: sink, name: "Load run receiving tank", service: "FEEDSTOCK", capacityL: 1_000_000 });
+  if (!made.ok) throw new Error(`the load run's tank was refused: ${made.status} ${await made.text()}`);
   const found: DemoCodes["transfers"] = [];
-  for (const fromCode of lots) {
-    for (const toTankCode of tanks) {
-      const r = await fetch(`${base}/api/transfers`, {
-        method: "POST",
-        headers: { "content-type": "application/json", origin: base, cookie, "idempotency-key": randomUUID() },
-        body: JSON.stringify({ fromCode, fromKind: "LOT", toTankCode, at: new Date(Date.now() - 120_000).toISOString(), massKg: 1, note: "load run: trial" }),
-      });
-      if (r.ok) {
-        found.push({ fromCode, toTankCode });
-        break;
-      }
-    }
-    if (found.length >= 6) break;
+  const refusals: string[] = [];
+  for (const from of stocked) {
+    const r = await post("/api/transfers", { fromCode: from.code, fromKind: from.kind, toTankCode: sink, at: new Date(Date.now() - 120_000).toISOString(), massKg: 1, note: "load run: trial" });
+    if (r.ok) found.push({ fromKind: from.kind, fromCode: from.code, toTankCode: sink });
+    else refusals.push(`${from.kind} ${from.code}: ${r.status} ${(await r.text()).slice(0, 160)}`);
   }
-  if (found.length === 0) throw new Error("no lot could be moved into any tank: the write mix cannot run");
+  if (found.length === 0) throw new Error(`nothing could be moved into the load run's tank, so the write mix cannot run:\n${refusals.join("\n")}`);
   return found;
 }
 
@@ -72,19 +74,18 @@ async function measureDatabase(kind: "sqlite" | "postgresql", taken: Set<number>
   const port = await findFreePort(PORTS.from, PORTS.to, taken);
   taken.add(port);
   console.log(`\n==== ${kind === "sqlite" ? "SQLite" : "PostgreSQL"}: fresh demo database (${DAYS} days), next start on port ${port} ====`);
-  const database = await createDatabase(kind, String(port));
+  const { database, seedMs, dropTemplate } = await createDemoDatabase(kind, String(port), DAYS);
+  console.log(seedMs > 0 ? `  demo loaded into a template in ${(seedMs / 1000).toFixed(1)} s; this run uses a copy` : "  a copy of the demo template loaded earlier today");
   const servers: AppServer[] = [];
   try {
-    const seedMs = await seedDemo(database, DAYS);
-    console.log(`  demo loaded in ${(seedMs / 1000).toFixed(1)} s`);
     const server = await AppServer.start(database.url, port);
     servers.push(server);
     const cookies = { reader: await signIn(server.base, READER_LOGIN), writer: await signIn(server.base, WRITER_LOGIN) };
     const db = await openDb(database.url);
     const found = await readDemoCodes(db);
-    const codes: DemoCodes = { ...found, transfers: await findTransfers(server.base, cookies.writer, found.lotCandidates, found.tanks) };
+    const codes: DemoCodes = { ...found, transfers: await findTransfers(server.base, cookies.writer, found.stocked, port) };
     const before = await countOverdraws(db);
-    console.log(`  asking about shipment ${codes.shipment}, lot ${codes.lot}; pickups from ${codes.source}; ${codes.transfers.length} lot-to-tank moves of 1 kg`);
+    console.log(`  asking about shipment ${codes.shipment}, lot ${codes.lot}; pickups from ${codes.source}; 1 kg moves from ${codes.transfers.map((x) => x.fromCode).join(", ")}`);
     const reads = readMix(codes);
     const sections: Array<[string, MixRequest[]]> = [
       ["floor", floorMix(reads)],
@@ -116,6 +117,8 @@ async function measureDatabase(kind: "sqlite" | "postgresql", taken: Set<number>
   } finally {
     for (const s of servers) await s.stop();
     await database.drop();
+    // PostgreSQL templates go with the run unless asked to keep them; the SQLite template stays in data/.
+    if (kind === "postgresql" && !KEEP_TEMPLATE) await dropTemplate();
   }
 }
 
