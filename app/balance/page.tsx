@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { getBalanceReport } from "@/lib/mass-balance/balance.service";
+import { getBalanceReportCached } from "@/lib/mass-balance/balance-cache.service";
 import type { BalanceReport, BatchRow } from "@/lib/mass-balance/balance.service";
 import { labelOf } from "@/lib/ledger/kinds";
 import type { DomainIssue } from "@/lib/errors";
@@ -26,7 +26,7 @@ export default async function BalancePage({ searchParams }: { searchParams: Prom
   if (!site) return <NoSite />;
   const sp = await searchParams;
   const typed = Object.fromEntries(FIELDS.map((f) => [f, one(sp[f])])) as Record<(typeof FIELDS)[number], string>;
-  const result = await getBalanceReport(db, site, typed, user.now);
+  const result = await getBalanceReportCached(db, site, typed, user.now);
   const tz = site.timeZone;
   return (
     <>

@@ -51,6 +51,7 @@ export const READ_MATRIX: readonly ReadRule[] = [
   { path: "/collect/sw.js", roles: "public" },
   // JSON and exports
   { path: "/api/openapi.json", roles: "public" },
+  { path: "/api/me", roles: EVERYONE },
   { path: "/api/compute", roles: EVERYONE },
   { path: "/api/holders", roles: PLANT },
   { path: "/api/trace", roles: PLANT },

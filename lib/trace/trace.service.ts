@@ -30,6 +30,7 @@ import { findLastPositionAtOrBefore, indexLedger } from "@/lib/trace/ledger";
 import type { LedgerIndex, TraceHolder, TraceMove } from "@/lib/trace/ledger";
 import { groupOrigins, restrictToFeedstock } from "@/lib/trace/origin-groups";
 import { createReplay } from "@/lib/trace/replay";
+import { loadTraceSnapshots, saveTraceSnapshots } from "@/lib/trace/snapshot.store";
 import type { Replay, ReplaySnapshot } from "@/lib/trace/replay";
 import { getHolderSubject, getLedgerVersion, getSourceSubject, listEntryHolderFacts, listTankServices } from "@/lib/trace/trace.store";
 import type { EntryHolderFacts, LedgerVersion, TraceSubject } from "@/lib/trace/trace.store";
@@ -275,6 +276,8 @@ const cacheHome = globalThis as unknown as { tracevatTraceCache?: Map<number, Pr
 const cache: Map<number, Promise<Result<LedgerState>>> = (cacheHome.tracevatTraceCache ??= new Map());
 /** Sites whose index is being built by warmTraceCache (set before the version query, so two pages start one build). */
 const warming: Set<number> = (cacheHome.tracevatTraceWarming ??= new Set());
+/** Per site with a save running: the latest snapshots still to store (null: none newer than the running save). */
+const unsaved = new Map<number, { order: "dated" | "booked"; snapshots: readonly ReplaySnapshot[] } | null>();
 
 function sameVersion(a: LedgerVersion, b: LedgerVersion): boolean {
   return a.count === b.count && a.lastId === b.lastId;
@@ -375,12 +378,15 @@ async function buildState(db: Db, siteId: number, version: LedgerVersion, previo
     const indexed = indexInOrder(ledger, order);
     if (!indexed.ok) return failMany(renameIssues(ledger, indexed.issues));
     const index = indexed.value;
-    const reusable = previous !== null && previous.order === order ? previous.snapshots.filter((s) => snapshotFits(index, s)) : [];
+    // A fresh process resumes from the snapshots stored in the database, if they still fit this ledger.
+    const kept = previous === null ? await loadTraceSnapshots(db, siteId, order) : previous.order === order ? previous.snapshots : [];
+    const reusable = kept.filter((s) => snapshotFits(index, s));
     const snapshots = extendSnapshots(index, reusable, realAt);
     if (!snapshots.ok) {
       problem ??= describeIssues(ledger, snapshots.issues);
       continue;
     }
+    storeSnapshots(db, siteId, order, snapshots.value);
     return ok({
       siteId,
       version,
@@ -399,6 +405,35 @@ async function buildState(db: Db, siteId: number, version: LedgerVersion, previo
     });
   }
   return fail("TRACE.LEDGER_NOT_REPLAYABLE", `The movement ledger cannot be replayed in date order or in booking order: ${problem ?? "unknown reason"}`);
+}
+
+/**
+ * Stores a site's snapshots in the background, one save per site at a time; a build that finishes while
+ * a save runs leaves its list to be saved next. A failed save only costs the next start a replay.
+ */
+function storeSnapshots(db: Db, siteId: number, order: "dated" | "booked", snapshots: readonly ReplaySnapshot[]): void {
+  const running = unsaved.has(siteId);
+  unsaved.set(siteId, { order, snapshots });
+  if (running) return;
+  const next = async (): Promise<void> => {
+    for (let job = unsaved.get(siteId); job !== undefined && job !== null; job = unsaved.get(siteId)) {
+      unsaved.set(siteId, null);
+      await saveTraceSnapshots(db, siteId, job.order, job.snapshots).catch((err: unknown) => log.warn({ err, siteId }, "trace snapshots were not stored"));
+    }
+    unsaved.delete(siteId);
+  };
+  savesRunning.add(next());
+}
+
+const savesRunning = new Set<Promise<void>>();
+
+/** Resolves once every snapshot save started so far has finished (tests; an orderly shutdown). */
+export async function flushTraceSnapshots(): Promise<void> {
+  while (savesRunning.size > 0) {
+    const running = [...savesRunning];
+    await Promise.all(running);
+    for (const p of running) savesRunning.delete(p);
+  }
 }
 
 /** The site's indexed ledger for its current version: reused while no movement is booked. */

@@ -3,7 +3,8 @@ import { requireReader } from "@/lib/auth/request.service";
 import { respond } from "@/lib/api/json-route.service";
 import { getDb } from "@/lib/db";
 import { fail } from "@/lib/errors";
-import { getBalanceReport } from "@/lib/mass-balance/balance.service";
+import { getBalanceReportCached } from "@/lib/mass-balance/balance-cache.service";
+import { respondAtPosition } from "@/lib/api/etag.service";
 import { getSiteById } from "@/lib/site/site.store";
 import { handled } from "@/lib/api/handle.service";
 
@@ -16,5 +17,5 @@ export const GET = handled("GET /api/balance", async (request: Request): Promise
   const db = await getDb();
   const site = await getSiteById(db, who.value.siteId);
   if (!site) return respond(fail("RECORD.NOT_FOUND", "Your site is not set up"));
-  return respond(await getBalanceReport(db, site, Object.fromEntries(new URL(request.url).searchParams), who.value.now));
+  return respondAtPosition(request, db, who.value, () => getBalanceReportCached(db, site, Object.fromEntries(new URL(request.url).searchParams), who.value.now));
 });

@@ -4,6 +4,7 @@ import { respond } from "@/lib/api/json-route.service";
 import { getDb } from "@/lib/db";
 import { traceBackwardReport } from "@/lib/trace/trace.service";
 import { handled } from "@/lib/api/handle.service";
+import { respondAtPosition } from "@/lib/api/etag.service";
 
 export const dynamic = "force-dynamic";
 
@@ -12,5 +13,6 @@ export const GET = handled("GET /api/trace/backward", async (request: Request): 
   const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const query = Object.fromEntries(new URL(request.url).searchParams);
-  return respond(await traceBackwardReport(await getDb(), who.value.siteId, query, who.value.now));
+  const db = await getDb();
+  return respondAtPosition(request, db, who.value, () => traceBackwardReport(db, who.value.siteId, query, who.value.now));
 });

@@ -4,6 +4,7 @@ import { respond } from "@/lib/api/json-route.service";
 import { getDb } from "@/lib/db";
 import { traceForwardReport } from "@/lib/trace/trace.service";
 import { handled } from "@/lib/api/handle.service";
+import { respondAtPosition } from "@/lib/api/etag.service";
 import { canRead } from "@/lib/auth/read-matrix";
 
 export const dynamic = "force-dynamic";
@@ -13,5 +14,6 @@ export const GET = handled("GET /api/trace/forward", async (request: Request): P
   const who = await requireReader(request);
   if (!who.ok) return respond(who);
   const query = Object.fromEntries(new URL(request.url).searchParams);
-  return respond(await traceForwardReport(await getDb(), who.value.siteId, query, who.value.now, { withCustomers: canRead(who.value.role, "/customers") }));
+  const db = await getDb();
+  return respondAtPosition(request, db, who.value, () => traceForwardReport(db, who.value.siteId, query, who.value.now, { withCustomers: canRead(who.value.role, "/customers") }));
 });

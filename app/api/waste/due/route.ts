@@ -6,6 +6,7 @@ import { fail } from "@/lib/errors";
 import { getSiteById } from "@/lib/site/site.store";
 import { getWasteDueReport } from "@/app/waste/due/due-report";
 import { handled } from "@/lib/api/handle.service";
+import { respondAtPosition } from "@/lib/api/etag.service";
 
 export const dynamic = "force-dynamic";
 
@@ -16,5 +17,5 @@ export const GET = handled("GET /api/waste/due", async (request: Request): Promi
   const db = await getDb();
   const site = await getSiteById(db, who.value.siteId);
   if (!site) return respond(fail("RECORD.NOT_FOUND", "Your site is not set up"));
-  return respond(await getWasteDueReport(db, site, Object.fromEntries(new URL(request.url).searchParams), who.value.now));
+  return respondAtPosition(request, db, who.value, () => getWasteDueReport(db, site, Object.fromEntries(new URL(request.url).searchParams), who.value.now));
 });

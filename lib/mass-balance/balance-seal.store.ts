@@ -1,0 +1,34 @@
+import "server-only";
+// Reads that tell whether a closed period's balance can still be what it was: the period is still
+// closed since the same moment, and nothing dated before its end was booked since the answer was made.
+// Bookings dated inside the closed period are refused, but an earlier period left open can still take
+// a back-dated movement or gauge, which would change this period's opening stock or gauge comparison.
+import type { Db } from "@/lib/database/connect";
+
+export interface BalanceSeal {
+  periodId: number;
+  closedAtMs: number;
+  endsAt: Date;
+  /** The last movement and gauge ids of the site when the answer was computed. */
+  moveId: number;
+  gaugeId: number;
+}
+
+export function sealText(s: BalanceSeal): string {
+  return JSON.stringify([s.periodId, s.closedAtMs, s.endsAt.getTime(), s.moveId, s.gaugeId]);
+}
+
+export async function getLastGaugeId(db: Db, siteId: number): Promise<number> {
+  const g = await db.tankGauge.findFirst({ where: { tank: { siteId } }, orderBy: { id: "desc" }, select: { id: true } });
+  return g?.id ?? 0;
+}
+
+/** Whether the sealed answer still holds: three primary-key range reads, none of them over the whole ledger. */
+export async function sealHolds(db: Db, siteId: number, s: BalanceSeal): Promise<boolean> {
+  const [period, move, gauge] = await Promise.all([
+    db.accountingPeriod.findUnique({ where: { id: s.periodId }, select: { status: true, closedAt: true } }),
+    db.movement.findFirst({ where: { siteId, id: { gt: s.moveId }, at: { lt: s.endsAt } }, select: { id: true } }),
+    db.tankGauge.findFirst({ where: { tank: { siteId }, id: { gt: s.gaugeId }, at: { lt: s.endsAt } }, select: { id: true } }),
+  ]);
+  return period?.status === "CLOSED" && period.closedAt?.getTime() === s.closedAtMs && move === null && gauge === null;
+}
