@@ -782,6 +782,40 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/epcis/period": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** GS1 EPCIS 2.0 events of a balance period (same query as GET /api/balance): pickups and receipts and moves between holders as ObjectEvents (tank moves with source and destination locations, shipments with their customer where the reader may see customers), finished batches as TransformationEvents from inputs to outputs. Every event time falls in the period. Lots are named by material class and lot number (LGTIN class URIs, urn:epc:class:lgtin, when the site has a GS1 Company Prefix; otherwise the site's own URIs), the plant and its tanks by SGLN or the site's own URIs; quantities in kg (UN/CEFACT KGM). Compliance and administrators. */
+        get: operations["getEpcisPeriod"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/epcis/trace": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** GS1 EPCIS 2.0 events behind one trace answer: dir=back with kind PRODUCT_LOT, TANK, SHIPMENT or BATCH (the movements on paths from its origins to it), or dir=fwd with kind SOURCE, PICKUP or LOT (the movements into every holder its material reached). Lots are named by material class and lot number (LGTIN class URIs, urn:epc:class:lgtin, when the site has a GS1 Company Prefix; otherwise the site's own URIs), the plant and its tanks by SGLN or the site's own URIs; quantities in kg (UN/CEFACT KGM). Production, compliance and administrators. */
+        get: operations["getEpcisTrace"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
 }
 export type webhooks = Record<string, never>;
 export interface components {
@@ -3829,6 +3863,300 @@ export interface operations {
                 };
                 content: {
                     "application/pdf": string;
+                };
+            };
+            /** @description Refused: every issue names its code and, where there is one, its field */
+            "4XX": {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @constant */
+                        ok: false;
+                        issues: {
+                            /** @description stable code, e.g. LEDGER.OVERDRAW */
+                            code: string;
+                            message: string;
+                            /** @description field path, e.g. charges.1.massKg */
+                            field?: string;
+                        }[];
+                    };
+                };
+            };
+        };
+    };
+    getEpcisPeriod: {
+        parameters: {
+            query?: {
+                period?: "MONTH" | "QUARTER" | "CUSTOM";
+                year?: number;
+                month?: number;
+                quarter?: number;
+                start?: string;
+                end?: string;
+                warnPct?: number;
+                failPct?: number;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Success */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/ld+json": {
+                        "@context": string | (string | {
+                            [key: string]: unknown;
+                        })[];
+                        /** @constant */
+                        type: "EPCISDocument";
+                        schemaVersion: string;
+                        /** Format: date-time */
+                        creationDate: string;
+                        epcisBody: {
+                            eventList: (({
+                                /** @constant */
+                                type: "ObjectEvent";
+                                /** @enum {string} */
+                                action: "OBSERVE" | "ADD" | "DELETE";
+                                epcList?: string[];
+                                quantityList?: {
+                                    epcClass: string;
+                                    quantity: number;
+                                    uom?: string;
+                                }[];
+                                /** Format: date-time */
+                                eventTime: string;
+                                /** Format: date-time */
+                                recordTime?: string;
+                                eventTimeZoneOffset: string;
+                                eventID?: string;
+                                bizStep?: ("accepting" | "arriving" | "assembling" | "collecting" | "commissioning" | "consigning" | "creating_class_instance" | "cycle_counting" | "decommissioning" | "departing" | "destroying" | "disassembling" | "dispensing" | "encoding" | "entering_exiting" | "holding" | "inspecting" | "installing" | "killing" | "loading" | "other" | "packing" | "picking" | "receiving" | "removing" | "repackaging" | "repairing" | "replacing" | "reserving" | "retail_selling" | "shipping" | "staging_outbound" | "stock_taking" | "stocking" | "storing" | "transporting" | "unloading" | "unpacking" | "void_shipping" | "sensor_reporting" | "sampling") | string;
+                                disposition?: string;
+                                readPoint?: {
+                                    id: string;
+                                };
+                                bizLocation?: {
+                                    id: string;
+                                };
+                                bizTransactionList?: {
+                                    type?: string;
+                                    bizTransaction: string;
+                                }[];
+                                sourceList?: {
+                                    type: ("owning_party" | "possessing_party" | "location") | string;
+                                    source: string;
+                                }[];
+                                destinationList?: {
+                                    type: ("owning_party" | "possessing_party" | "location") | string;
+                                    destination: string;
+                                }[];
+                                ilmd?: {
+                                    [key: string]: unknown;
+                                };
+                            } & {
+                                [key: string]: unknown;
+                            }) | ({
+                                /** @constant */
+                                type: "TransformationEvent";
+                                inputEPCList?: string[];
+                                inputQuantityList?: {
+                                    epcClass: string;
+                                    quantity: number;
+                                    uom?: string;
+                                }[];
+                                outputEPCList?: string[];
+                                outputQuantityList?: {
+                                    epcClass: string;
+                                    quantity: number;
+                                    uom?: string;
+                                }[];
+                                transformationID?: string;
+                                /** Format: date-time */
+                                eventTime: string;
+                                /** Format: date-time */
+                                recordTime?: string;
+                                eventTimeZoneOffset: string;
+                                eventID?: string;
+                                bizStep?: ("accepting" | "arriving" | "assembling" | "collecting" | "commissioning" | "consigning" | "creating_class_instance" | "cycle_counting" | "decommissioning" | "departing" | "destroying" | "disassembling" | "dispensing" | "encoding" | "entering_exiting" | "holding" | "inspecting" | "installing" | "killing" | "loading" | "other" | "packing" | "picking" | "receiving" | "removing" | "repackaging" | "repairing" | "replacing" | "reserving" | "retail_selling" | "shipping" | "staging_outbound" | "stock_taking" | "stocking" | "storing" | "transporting" | "unloading" | "unpacking" | "void_shipping" | "sensor_reporting" | "sampling") | string;
+                                disposition?: string;
+                                readPoint?: {
+                                    id: string;
+                                };
+                                bizLocation?: {
+                                    id: string;
+                                };
+                                bizTransactionList?: {
+                                    type?: string;
+                                    bizTransaction: string;
+                                }[];
+                                sourceList?: {
+                                    type: ("owning_party" | "possessing_party" | "location") | string;
+                                    source: string;
+                                }[];
+                                destinationList?: {
+                                    type: ("owning_party" | "possessing_party" | "location") | string;
+                                    destination: string;
+                                }[];
+                                ilmd?: {
+                                    [key: string]: unknown;
+                                };
+                            } & {
+                                [key: string]: unknown;
+                            }))[];
+                        };
+                    };
+                };
+            };
+            /** @description Refused: every issue names its code and, where there is one, its field */
+            "4XX": {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @constant */
+                        ok: false;
+                        issues: {
+                            /** @description stable code, e.g. LEDGER.OVERDRAW */
+                            code: string;
+                            message: string;
+                            /** @description field path, e.g. charges.1.massKg */
+                            field?: string;
+                        }[];
+                    };
+                };
+            };
+        };
+    };
+    getEpcisTrace: {
+        parameters: {
+            query: {
+                dir: "back" | "fwd";
+                kind: "PRODUCT_LOT" | "TANK" | "SHIPMENT" | "BATCH" | "SOURCE" | "PICKUP" | "LOT";
+                code: string;
+                at?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Success */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/ld+json": {
+                        "@context": string | (string | {
+                            [key: string]: unknown;
+                        })[];
+                        /** @constant */
+                        type: "EPCISDocument";
+                        schemaVersion: string;
+                        /** Format: date-time */
+                        creationDate: string;
+                        epcisBody: {
+                            eventList: (({
+                                /** @constant */
+                                type: "ObjectEvent";
+                                /** @enum {string} */
+                                action: "OBSERVE" | "ADD" | "DELETE";
+                                epcList?: string[];
+                                quantityList?: {
+                                    epcClass: string;
+                                    quantity: number;
+                                    uom?: string;
+                                }[];
+                                /** Format: date-time */
+                                eventTime: string;
+                                /** Format: date-time */
+                                recordTime?: string;
+                                eventTimeZoneOffset: string;
+                                eventID?: string;
+                                bizStep?: ("accepting" | "arriving" | "assembling" | "collecting" | "commissioning" | "consigning" | "creating_class_instance" | "cycle_counting" | "decommissioning" | "departing" | "destroying" | "disassembling" | "dispensing" | "encoding" | "entering_exiting" | "holding" | "inspecting" | "installing" | "killing" | "loading" | "other" | "packing" | "picking" | "receiving" | "removing" | "repackaging" | "repairing" | "replacing" | "reserving" | "retail_selling" | "shipping" | "staging_outbound" | "stock_taking" | "stocking" | "storing" | "transporting" | "unloading" | "unpacking" | "void_shipping" | "sensor_reporting" | "sampling") | string;
+                                disposition?: string;
+                                readPoint?: {
+                                    id: string;
+                                };
+                                bizLocation?: {
+                                    id: string;
+                                };
+                                bizTransactionList?: {
+                                    type?: string;
+                                    bizTransaction: string;
+                                }[];
+                                sourceList?: {
+                                    type: ("owning_party" | "possessing_party" | "location") | string;
+                                    source: string;
+                                }[];
+                                destinationList?: {
+                                    type: ("owning_party" | "possessing_party" | "location") | string;
+                                    destination: string;
+                                }[];
+                                ilmd?: {
+                                    [key: string]: unknown;
+                                };
+                            } & {
+                                [key: string]: unknown;
+                            }) | ({
+                                /** @constant */
+                                type: "TransformationEvent";
+                                inputEPCList?: string[];
+                                inputQuantityList?: {
+                                    epcClass: string;
+                                    quantity: number;
+                                    uom?: string;
+                                }[];
+                                outputEPCList?: string[];
+                                outputQuantityList?: {
+                                    epcClass: string;
+                                    quantity: number;
+                                    uom?: string;
+                                }[];
+                                transformationID?: string;
+                                /** Format: date-time */
+                                eventTime: string;
+                                /** Format: date-time */
+                                recordTime?: string;
+                                eventTimeZoneOffset: string;
+                                eventID?: string;
+                                bizStep?: ("accepting" | "arriving" | "assembling" | "collecting" | "commissioning" | "consigning" | "creating_class_instance" | "cycle_counting" | "decommissioning" | "departing" | "destroying" | "disassembling" | "dispensing" | "encoding" | "entering_exiting" | "holding" | "inspecting" | "installing" | "killing" | "loading" | "other" | "packing" | "picking" | "receiving" | "removing" | "repackaging" | "repairing" | "replacing" | "reserving" | "retail_selling" | "shipping" | "staging_outbound" | "stock_taking" | "stocking" | "storing" | "transporting" | "unloading" | "unpacking" | "void_shipping" | "sensor_reporting" | "sampling") | string;
+                                disposition?: string;
+                                readPoint?: {
+                                    id: string;
+                                };
+                                bizLocation?: {
+                                    id: string;
+                                };
+                                bizTransactionList?: {
+                                    type?: string;
+                                    bizTransaction: string;
+                                }[];
+                                sourceList?: {
+                                    type: ("owning_party" | "possessing_party" | "location") | string;
+                                    source: string;
+                                }[];
+                                destinationList?: {
+                                    type: ("owning_party" | "possessing_party" | "location") | string;
+                                    destination: string;
+                                }[];
+                                ilmd?: {
+                                    [key: string]: unknown;
+                                };
+                            } & {
+                                [key: string]: unknown;
+                            }))[];
+                        };
+                    };
                 };
             };
             /** @description Refused: every issue names its code and, where there is one, its field */
