@@ -152,7 +152,7 @@ describe("a trace answer's events", () => {
     const ids = doc.epcisBody.eventList.map((e) => e.eventID.replace(/.*\/event\//, ""));
     expect(ids).toContain("batch/B-1");
     expect(ids).not.toContain("move/15");
-    expect(doc.epcisBody.eventList.some((e) => e.destinationList?.some((d) => d.destination.includes("T-GLY")))).toBe(false);
+    expect(doc.epcisBody.eventList.some((e) => e.destinationList?.some((d) => (d.destination ?? "").includes("T-GLY")))).toBe(false);
   });
 
   it("forward keeps only holders downstream of the entries", () => {
