@@ -14,7 +14,7 @@ async function QrSvg({ url, label }: { url: string; label: string }) {
 
 /** GS1 DataMatrix drawn on the server by bwip-js; the element string is printed under it as text. */
 function Gs1Symbol({ elementString, withGtin, lot }: { elementString: string; withGtin: boolean; lot: string }) {
-  return <div className="label-qr label-datamatrix" role="img" aria-label={`GS1 DataMatrix carrying lot ${lot}`} data-element-string={elementString} dangerouslySetInnerHTML={{ __html: gs1DataMatrixSvg(elementString, withGtin) }} />;
+  return <div className="label-datamatrix" role="img" aria-label={`GS1 DataMatrix carrying lot ${lot}`} data-element-string={elementString} dangerouslySetInnerHTML={{ __html: gs1DataMatrixSvg(elementString, withGtin) }} />;
 }
 
 export async function LotLabel({ lot, origin, siteName, timeZone, gs1CompanyPrefix, single = false }: { lot: LotForLabel; origin: string; siteName: string; timeZone: string; gs1CompanyPrefix: string | null; single?: boolean }) {
