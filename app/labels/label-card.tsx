@@ -29,7 +29,12 @@ export async function LotLabel({ lot, origin, siteName, timeZone, gs1CompanyPref
       </div>
       <div className="label-text">
         <div className="label-code">Lot {lot.code}</div>
-        {gs1.ok ? <div className="label-gs1">{gs1.value.elementString}</div> : <div className="label-gs1">no GS1 barcode: {gs1.issues[0]?.message}</div>}
+        {gs1.ok ? <div className="label-gs1">{gs1.value.elementString.split(/(?=\()/).map((part, i) => (
+          <span key={i}>
+            {i > 0 ? <wbr /> : null}
+            {part}
+          </span>
+        ))}</div> : <div className="label-gs1">no GS1 barcode: {gs1.issues[0]?.message}</div>}
         <div>
           {labelOf(lot.material)} · {kg(lot.massG, 0)}
         </div>
