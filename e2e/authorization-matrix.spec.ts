@@ -108,6 +108,7 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   resetPasswordAction: ["ADMIN"],
   endSessionsAction: ["ADMIN"],
   unlockSignInAction: ["ADMIN"],
+  setGs1PrefixAction: ["ADMIN"],
   reverseMovementAction: ["PRODUCTION"],
   voidLabResultAction: ["PRODUCTION"],
   setOwnUnitsAction: ANY,

@@ -102,6 +102,13 @@ function Amount({ grams }: { grams: number }) {
   return <>{kgExact(grams)}</>;
 }
 
+/** The same period as GS1 EPCIS 2.0 events (GET /api/epcis/period takes the balance's own query). */
+function epcisPeriodHref(q: BalanceReport["query"]): string {
+  const params: Record<string, string> =
+    q.period === "MONTH" ? { period: "MONTH", year: String(q.year), month: String(q.month) } : q.period === "QUARTER" ? { period: "QUARTER", year: String(q.year), quarter: String(q.quarter) } : { period: "CUSTOM", start: q.start, end: q.end };
+  return `/api/epcis/period?${new URLSearchParams(params).toString()}`;
+}
+
 function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: string; canClose: boolean }) {
   const s = r.stock;
   const ap = r.accountingPeriod;
@@ -124,6 +131,12 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
         <ToleranceNote tolerance={r.tolerance} /> The closure is the unaccounted mass as a share of what entered the stock in the period
         (receipts, transfers in and returns).
       </Note>
+      <p>
+        <a href={epcisPeriodHref(r.query)} download className="csv-link">
+          EPCIS 2.0 events
+        </a>{" "}
+        <span className="muted">— this period&apos;s receipts, moves, batches and shipments in the GS1 standard format a trading partner&apos;s system reads</span>
+      </p>
       {r.negativeStock.length > 0 ? (
         <ul className="warning" aria-label="Negative book stock">
           {r.negativeStock.map((n) => (

@@ -80,7 +80,7 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
       {kind === "lot" && lots.length ? (
         <section className="label-sheet" aria-label="Lot labels">
           {lots.map((l) => (
-            <LotLabel key={l.code} lot={l} origin={origin} siteName={site.name} timeZone={site.timeZone} />
+            <LotLabel key={l.code} lot={l} origin={origin} siteName={site.name} timeZone={site.timeZone} gs1CompanyPrefix={site.gs1CompanyPrefix} />
           ))}
         </section>
       ) : null}

@@ -179,6 +179,19 @@ function csvHref(params: Record<string, string>): string {
   return `/trace/csv?${new URLSearchParams(Object.entries(params).filter(([, v]) => v !== "")).toString()}`;
 }
 
+/** The trace answer as GS1 EPCIS 2.0 events, for a trading partner's systems. */
+function EpcisLink({ params }: { params: Record<string, string | undefined> }) {
+  const query = new URLSearchParams(Object.entries(params).filter((e): e is [string, string] => e[1] !== undefined && e[1] !== "")).toString();
+  return (
+    <p>
+      <a href={`/api/epcis/trace?${query}`} download className="csv-link">
+        EPCIS 2.0 events
+      </a>{" "}
+      <span className="muted">— the movements behind this answer in the GS1 standard format a trading partner&apos;s system reads</span>
+    </p>
+  );
+}
+
 function BackwardResult({ r, view, atLocal, timeZone }: { r: BackwardTraceReport; view: "all" | "feedstock"; atLocal: string; timeZone: string }) {
   const base = { dir: "back", kind: r.query.kind, code: r.query.code, at: atLocal };
   const t = view === "feedstock" ? r.feedstock : r.all;
@@ -213,6 +226,7 @@ function BackwardResult({ r, view, atLocal, timeZone }: { r: BackwardTraceReport
         ) : null}
       </Note>
       <FreshnessNote f={r.freshness} />
+      <EpcisLink params={{ dir: "back", kind: r.query.kind, code: r.query.code, at: toSiteInstant(atLocal, timeZone) }} />
       <nav className="view-switch" aria-label="Trace view">
         {view === "all" ? <span aria-current="page">All material</span> : <Link href={switchTo("all")}>All material</Link>}
         {view === "feedstock" ? <span aria-current="page">Feedstock only</span> : <Link href={switchTo("feedstock")}>Feedstock only</Link>}
@@ -306,6 +320,7 @@ function ForwardResult({ r, timeZone }: { r: ForwardTraceReport; timeZone: strin
         methanol carries its share of a batch into the methanol tank and on into later batches, so later batches can hold a little of it.
       </Note>
       <FreshnessNote f={r.freshness} />
+      <EpcisLink params={{ dir: "fwd", kind: r.query.kind, code: r.query.code }} />
       {r.enteredG === 0 ? (
         <Empty>No material of this {subjectWord} has entered the books.</Empty>
       ) : (

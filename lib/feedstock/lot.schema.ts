@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { MATERIAL_KINDS } from "@/lib/ledger/kinds";
 import { code, oneOf, requiredText, tempC, text, volumeL, when } from "@/lib/ledger/fields";
+import { gs1LotElement } from "@/lib/labels/gs1";
 
 export const MIN_DENSITY_KG_M3 = 500;
 export const MAX_DENSITY_KG_M3 = 1500;
@@ -10,8 +11,17 @@ const density = z
   .min(MIN_DENSITY_KG_M3, "Density must be between 0.5 and 1.5 kg/L")
   .max(MAX_DENSITY_KG_M3, "Density must be between 0.5 and 1.5 kg/L");
 
+/**
+ * A lot number must fit the GS1 symbol on its label: AI (10), at most 20 characters of GS1 character
+ * set 82 (GS1 General Specifications, AI (10) and Figure 7.11-1), so a trade scanner can read it.
+ */
+const lotNumber = code("Lot number").superRefine((lot, ctx) => {
+  const element = gs1LotElement(lot);
+  if (!element.ok) ctx.addIssue({ code: "custom", message: `${element.issues[0]?.message ?? "Lot number cannot be carried in a GS1 barcode"}, so it could not go in the label's barcode` });
+});
+
 const common = {
-  code: code("Lot number"),
+  code: lotNumber,
   material: oneOf("Material", MATERIAL_KINDS),
   receivedAt: when("Received time"),
   observedVolumeL: volumeL("Observed volume"),

@@ -31,3 +31,18 @@ export function gs1LotElement(lot: string, field = "lot"): Result<Gs1Lot> {
   }
   return ok({ elementString: `(${AI_BATCH_LOT})${lot}`, lot });
 }
+
+/** GS1 General Specifications, AI (01): a GTIN-14, 14 digits. */
+const GTIN14 = /^\d{14}$/;
+
+/**
+ * The element string a lot label's GS1 symbol carries: "(01)<GTIN>(10)<lot>" when the plant has a
+ * GTIN for the material (AI (10) is to be used with a GTIN — GS1 General Specifications §4.14,
+ * mandatory associations, from memory for the clause), else "(10)<lot>" alone.
+ */
+export function gs1LabelElementString(lot: string, gtin: string | null): Result<{ elementString: string; withGtin: boolean }> {
+  const element = gs1LotElement(lot);
+  if (!element.ok) return element;
+  if (gtin !== null && !GTIN14.test(gtin)) return fail("GS1.GTIN", `GTIN ${gtin} must be 14 digits`, "gtin");
+  return ok({ elementString: gtin === null ? element.value.elementString : `(01)${gtin}${element.value.elementString}`, withGtin: gtin !== null });
+}

@@ -8,6 +8,7 @@ export interface SiteRow {
   name: string;
   town: string;
   timeZone: string;
+  gs1CompanyPrefix: string | null;
 }
 
 export async function insertSite(tx: Tx | Db, s: { code: string; name: string; town: string; timeZone: string }): Promise<SiteRow> {
@@ -29,4 +30,14 @@ export async function countSites(db: Db): Promise<number> {
 
 export async function getSiteById(db: Db, id: number): Promise<SiteRow | null> {
   return db.site.findUnique({ where: { id } });
+}
+
+/** undefined when the site does not exist. */
+export async function getSiteGs1Prefix(tx: Tx | Db, siteId: number): Promise<string | null | undefined> {
+  const row = await tx.site.findUnique({ where: { id: siteId }, select: { gs1CompanyPrefix: true } });
+  return row === null ? undefined : row.gs1CompanyPrefix;
+}
+
+export async function updateSiteGs1Prefix(tx: Tx, siteId: number, gs1CompanyPrefix: string | null): Promise<void> {
+  await tx.site.update({ where: { id: siteId }, data: { gs1CompanyPrefix } });
 }

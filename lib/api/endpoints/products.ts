@@ -7,7 +7,7 @@ export const PRODUCT_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/products/qc",
-    tag: "products",
+    tag: "Products",
     summary: "Record a QC result of a held product lot (production or compliance; Idempotency-Key header required). Judged at once against the lot's specification; a second result for a property supersedes the first.",
     input: QcResultSchema,
     output: z.object({ id: z.number().int(), verdict: z.enum(["PASS", "FAIL", "REPORTED", "NOT_JUDGED"]), supersedesId: z.number().int().nullable(), property: z.string() }),
@@ -15,7 +15,7 @@ export const PRODUCT_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/products/spec",
-    tag: "products",
+    tag: "Products",
     summary: "Choose the specification a held product lot is judged against (compliance; Idempotency-Key header required)",
     input: ChooseSpecSchema,
     output: z.object({ code: z.string(), specKey: z.string(), releasable: z.boolean() }),
@@ -23,7 +23,7 @@ export const PRODUCT_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/products/decisions",
-    tag: "products",
+    tag: "Products",
     summary: "Release, release with a deviation, hold or reject a product lot (compliance; Idempotency-Key header required). Release is judged afresh against the current specification; 409 PRODUCT.NOT_RELEASABLE when a required result is missing or out of limits.",
     input: ProductDecisionSchema,
     output: z.object({ code: z.string(), status: z.enum(["HELD", "RELEASED", "REJECTED"]), deviation: z.boolean() }),
@@ -31,7 +31,8 @@ export const PRODUCT_ENDPOINTS: EndpointDoc[] = [
   {
     method: "get",
     path: "/api/products/{code}/certificate",
-    tag: "products",
+    tag: "Products",
+    contentType: "application/pdf",
     summary: "Certificate of analysis as application/pdf; a lot not released prints NOT RELEASED across each page",
   },
 ];

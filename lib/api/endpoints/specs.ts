@@ -14,7 +14,7 @@ export const SPEC_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/specs",
-    tag: "specifications",
+    tag: "Specifications",
     summary:
       "Write a site specification (compliance staff): version 1 of a new name copied from a built-in edition and grade (baseKey such as astm-d6751-23a/no-2-b-s15), or the next version when previousVersion names the current one. Limits by property may be tightened, never loosened. Idempotency-Key header required.",
     input: SiteSpecInputSchema,

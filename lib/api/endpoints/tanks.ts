@@ -7,7 +7,7 @@ export const TANK_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/tanks/gauges",
-    tag: "records",
+    tag: "Records",
     summary:
       "Record a tank gauge: method VOLUME (volumeL) or LEVEL (levelMm through the tank's calibration table), tempC, optional densityKgM3 at 15 °C; answers the gauged mass and the book stock at that time (Idempotency-Key header required)",
     input: GaugeSchema,
@@ -15,7 +15,7 @@ export const TANK_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/receiving/into-tank",
-    tag: "records",
+    tag: "Records",
     summary:
       "Pool pickups into a lot, accept it with acceptReason and move all of it into tankCode, all-or-nothing (Idempotency-Key header required)",
     input: LotIntoTankSchema,
