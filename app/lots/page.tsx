@@ -6,6 +6,7 @@ import { kg, pct, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, HistoryLink, NoSite, Note, Pager, Status } from "@/app/_ui/ui";
+import { ReceiptsPicture } from "@/app/lots/receipts-picture";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Feedstock lots" };
@@ -13,7 +14,7 @@ export const metadata: Metadata = { title: "Feedstock lots" };
 type Props = { searchParams: Promise<{ page?: string | string[]; status?: string | string[] }> };
 
 export default async function LotsPage({ searchParams }: Props) {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const sp = await searchParams;
   const page = pageParam(sp.page);
@@ -97,6 +98,7 @@ export default async function LotsPage({ searchParams }: Props) {
           <Note>FFA is the mean of the lot&apos;s titrations that are not voided; water is the latest water test.</Note>
         </>
       )}
+      <ReceiptsPicture db={db} siteId={site.id} timeZone={tz} now={user.now} />
     </>
   );
 }

@@ -1,6 +1,6 @@
 // The FFA of the lots each source supplied, over time, for the picture on the source page. A lot made
 // of pooled pickups counts under every source that had a pickup in it; a delivered lot under its
-// supplier. A lot's FFA is its latest titration that was not voided; a lot not yet titrated is left
+// supplier. A lot's FFA is the mean of its titrations not voided, as the lots list shows it; a lot not yet titrated is left
 // out of the points and counted apart. Pure.
 
 export interface FfaTitration {
@@ -38,11 +38,10 @@ export interface SourceFfaSeries {
   massWeightedPct: number | null;
 }
 
-/** The latest titration not voided; on a tie of time the later one in the list wins. */
-export function latestFfa(titrations: readonly FfaTitration[]): number | null {
-  let best: FfaTitration | null = null;
-  for (const t of titrations) if (!t.voided && (best === null || t.testedAt >= best.testedAt)) best = t;
-  return best === null ? null : best.ffaPct;
+/** The mean FFA of the titrations not voided (replicates are averaged), or null when there is none. */
+export function lotFfa(titrations: readonly FfaTitration[]): number | null {
+  const valid = titrations.filter((t) => !t.voided);
+  return valid.length === 0 ? null : valid.reduce((s, t) => s + t.ffaPct, 0) / valid.length;
 }
 
 function summarise(sourceCode: string, points: FfaPoint[], untested: number): SourceFfaSeries {
@@ -63,7 +62,7 @@ export function computeFfaBySource(lots: readonly FfaLot[]): SourceFfaSeries[] {
   const points = new Map<string, FfaPoint[]>();
   const untested = new Map<string, number>();
   for (const lot of lots) {
-    const ffa = latestFfa(lot.titrations);
+    const ffa = lotFfa(lot.titrations);
     for (const code of new Set(lot.sourceCodes)) {
       if (!points.has(code)) points.set(code, []);
       if (ffa === null) untested.set(code, (untested.get(code) ?? 0) + 1);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { computeFfaBySource, latestFfa } from "@/lib/feedstock/ffa-series";
+import { computeFfaBySource, lotFfa } from "@/lib/feedstock/ffa-series";
 import type { FfaLot } from "@/lib/feedstock/ffa-series";
 
 const utc = (iso: string): number => Date.parse(iso);
@@ -25,9 +25,10 @@ describe("FFA of the lots per source", () => {
   const series = computeFfaBySource(lots);
   const a = series.find((s) => s.sourceCode === "S-A");
 
-  it("takes each lot's latest titration that was not voided", () => {
-    expect(latestFfa(lots[1]?.titrations ?? [])).toBe(6.0);
-    expect(latestFfa([])).toBeNull();
+  it("takes the mean of each lot's titrations that were not voided", () => {
+    // Replicates are reported as their mean (common practice), as the lots list does: (9.9 + 6.0) ÷ 2.
+    expect(lotFfa(lots[1]?.titrations ?? [])).toBeCloseTo(7.95, 10);
+    expect(lotFfa([])).toBeNull();
   });
 
   it("puts a pooled lot under every source in it, once, oldest first", () => {
@@ -45,9 +46,9 @@ describe("FFA of the lots per source", () => {
 
   it("weights the mean by mass, as pooling the lots would", () => {
     // FFA is a mass fraction (AOCS Ca 5a-40: % free fatty acids, as oleic, by mass), so a pool's FFA is Σ(FFA·m)/Σm:
-    // (2.0 × 300 kg + 6.0 × 100 kg) ÷ 400 kg = 3.0 %.
-    expect(a?.massWeightedPct).toBeCloseTo(3.0, 10);
+    // (2.0 × 300 kg + 7.95 × 100 kg) ÷ 400 kg = 3.4875 %.
+    expect(a?.massWeightedPct).toBeCloseTo(3.4875, 10);
     expect(a?.minPct).toBe(2.0);
-    expect(a?.maxPct).toBe(6.0);
+    expect(a?.maxPct).toBeCloseTo(7.95, 10);
   });
 });
