@@ -41,25 +41,24 @@ export async function FlowsPicture({ db, siteId, period }: { db: Db; siteId: num
   }
   const label = new Map(f.nodes.map((n) => [n.key, n.label]));
   const stages = [...new Set(f.nodes.map((n) => n.stage))].sort((a, b) => a - b);
-  const lastDepth = stages.length - 1;
   const svg = renderPictureSvg(
     {
       series: [
         {
           type: "sankey",
           left: 8,
-          right: 8,
+          right: 150,
           top: 12,
           bottom: 12,
           nodeWidth: 14,
           nodeGap: 10,
           layoutIterations: 0,
           emphasis: { disabled: true },
-          label: { fontSize: 11, color: "#1c211f", formatter: (p: { name: string }) => label.get(p.name) ?? p.name },
+          label: { position: "right", fontSize: 11, color: "#1c211f", formatter: (p: { name: string }) => label.get(p.name) ?? p.name },
           lineStyle: { color: "source", opacity: 0.35, curveness: 0.5 },
           data: f.nodes.map((n) => {
             const depth = stages.indexOf(n.stage);
-            return { name: n.key, depth, itemStyle: { color: STAGE_COLOUR[n.stage], borderWidth: 0 }, label: { position: depth === lastDepth ? "left" : "right" } };
+            return { name: n.key, depth, itemStyle: { color: STAGE_COLOUR[n.stage], borderWidth: 0 } };
           }),
           links: f.links.map((l) => ({ source: l.from, target: l.to, value: l.grams / 1000 })),
         },

@@ -9,6 +9,8 @@ import { DataTable } from "@/app/_ui/kit";
 import { NoPicture, Picture } from "@/app/_ui/charts/picture";
 import { renderPictureSvg } from "@/app/_ui/charts/render";
 
+const PAD_MS = 4 * 86_400_000;
+
 function siteX(at: number, timeZone: string): number {
   return at + getUtcOffsetMin(timeZone, new Date(at)) * 60_000;
 }
@@ -27,12 +29,15 @@ export async function SourceFfaPicture({ db, siteId, source, timeZone }: { db: D
     );
   }
   const materials = [...new Set(s.points.map((p) => p.material))].sort();
+  const first = s.points[0]?.at ?? 0;
+  const last = s.points.at(-1)?.at ?? 0;
   const svg = renderPictureSvg(
     {
       useUTC: true,
-      legend: { top: 0 },
+      legend: { top: 0, itemGap: 26 },
       grid: { left: 56, right: 24, top: 40, bottom: 36 },
-      xAxis: { type: "time" },
+      // A few days either side, so the first and last lots are not cut by the axes.
+      xAxis: { type: "time", min: siteX(first, timeZone) - PAD_MS, max: siteX(last, timeZone) + PAD_MS },
       yAxis: { type: "value", name: "FFA %", min: 0 },
       series: materials.map((m, i) => ({
         name: labelOf(m),
