@@ -7,6 +7,9 @@ import { DataTable } from "@/app/_ui/kit";
 import { NoPicture, Picture } from "@/app/_ui/charts/picture";
 import { PALETTE, renderPictureSvg } from "@/app/_ui/charts/render";
 
+/** Six steps side by side need more room than the other pictures. */
+const FLOWS_WIDTH = 960;
+
 const STAGE_COLOUR = [PALETTE[1], PALETTE[0], PALETTE[4], PALETTE[5], PALETTE[2], PALETTE[3]] as const;
 
 function sumInto(nodes: readonly FlowNode[], key: string): number {
@@ -47,7 +50,7 @@ export async function FlowsPicture({ db, siteId, period }: { db: Db; siteId: num
         {
           type: "sankey",
           left: 8,
-          right: 150,
+          right: 120,
           top: 12,
           bottom: 12,
           nodeWidth: 14,
@@ -64,7 +67,7 @@ export async function FlowsPicture({ db, siteId, period }: { db: Db; siteId: num
         },
       ],
     },
-    { height: 440 },
+    { width: FLOWS_WIDTH, height: 440 },
   );
   const apart = [
     f.sameStageG > 0 ? `${kg(f.sameStageG, 0)} moved between places of one step (such as tank to tank)` : "",
@@ -74,6 +77,7 @@ export async function FlowsPicture({ db, siteId, period }: { db: Db; siteId: num
   return (
     <Picture
       id={id}
+      wide
       title={title}
       summary={describe(f.nodes, period.label)}
       svg={svg}

@@ -92,7 +92,7 @@ export function placeOf(h: FlowHolder): Place | null {
     case "DELIVERY":
       return sourcePlace(h);
     case "LOT":
-      return { key: `lot:${h.material ?? "?"}`, label: `Lots: ${labelOf(h.material ?? "OTHER_OIL").toLowerCase()}`, stage: 1 };
+      return { key: `lot:${h.material ?? "?"}`, label: `${labelOf(h.material ?? "OTHER_OIL")} lots`, stage: 1 };
     case "TANK": {
       const out = TANK_OUTPUT[h.service ?? ""];
       if (out) return output(out);
