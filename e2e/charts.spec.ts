@@ -17,6 +17,12 @@ function watchPolicy(page: Page): string[] {
   return complaints;
 }
 
+/** Signs in, then opens the page: a page drawing a picture may take longer than the sign-in waits for on a cold server. */
+async function open(page: Page, login: string, path: string): Promise<void> {
+  await signIn(page, login, "/me");
+  await page.goto(path);
+}
+
 const picture = (page: Page, id: string): Locator => page.locator(`figure[data-picture="${id}"]`);
 // The library marks each drawn element with its series; a reference line (fill none) is not a data point.
 const drawn = (fig: Locator, series: number): Locator => fig.locator(`svg path[ecmeta_ssr_type="chart"][ecmeta_series_index="${series}"]:not([fill="none"])`);
@@ -28,7 +34,7 @@ async function numbersTable(fig: Locator, caption: string): Promise<Locator> {
 
 test("a tank's stock over time: book line, gauge points and capacity, with its numbers", async ({ page }) => {
   const complaints = watchPolicy(page);
-  await signIn(page, "production.tess", "/tanks/T1");
+  await open(page, "production.tess", "/tanks/T1");
   const fig = picture(page, "tank-stock");
   await expect(fig.getByRole("heading", { name: "Stock over time" })).toBeVisible();
   const img = fig.getByRole("img", { name: /Tank T1: book stock .* kg now, highest .* kg against a capacity of about .* kg/ });
@@ -52,13 +58,13 @@ test("a new tank with no movements says so instead of drawing", async ({ page, b
   const code = `TC-${Date.now() % 100_000}`;
   const made = await production.post("/api/tanks", { headers: { "idempotency-key": `chart-tank-${code}`, origin: baseURL! }, data: { code, name: "Spare settling tank", service: "FEEDSTOCK", capacityL: 5000 } });
   expect(made.status(), await made.text()).toBe(200);
-  await signIn(page, "production.tess", `/tanks/${code}`);
+  await open(page, "production.tess", `/tanks/${code}`);
   await expect(picture(page, "tank-stock").getByText(/Nothing has been moved into or out of this tank/)).toBeVisible();
 });
 
 test("feedstock received per week, stacked by material, on the lots page", async ({ page }) => {
   const complaints = watchPolicy(page);
-  await signIn(page, "production.tess", "/lots");
+  await open(page, "production.tess", "/lots");
   const fig = picture(page, "receipts-per-week");
   const img = fig.getByRole("img", { name: /kg of feedstock received in the 12 weeks from \d{4}-\d{2}-\d{2}, \d+ % of it .*; the most in the week of/ });
   await expect(img).toBeVisible();
@@ -83,7 +89,7 @@ test("feedstock received per week, stacked by material, on the lots page", async
 
 test("FFA of a supplier's lots over time on its source page", async ({ page }) => {
   const complaints = watchPolicy(page);
-  await signIn(page, "compliance.nell", "/sources/D001");
+  await open(page, "compliance.nell", "/sources/D001");
   const fig = picture(page, "source-ffa");
   const img = fig.getByRole("img", { name: /\d+ lots with material from source D001 titrated: FFA from [\d.]+ % to [\d.]+ %, [\d.]+ % weighted by mass/ });
   await expect(img).toBeVisible();
@@ -100,14 +106,14 @@ test("FFA of a supplier's lots over time on its source page", async ({ page }) =
 });
 
 test("a collector's view of a source has no lab picture", async ({ page }) => {
-  await signIn(page, "collector.ivo", "/sources/R001");
+  await open(page, "collector.ivo", "/sources/R001");
   await expect(page.getByRole("heading", { name: /Source R001/ })).toBeVisible();
   await expect(picture(page, "source-ffa")).toHaveCount(0);
 });
 
 test("the period's flows as a Sankey picture on the balance page, and an empty period says so", async ({ page }) => {
   const complaints = watchPolicy(page);
-  await signIn(page, "compliance.nell", "/balance?period=MONTH&year=2026&month=10");
+  await open(page, "compliance.nell", "/balance?period=MONTH&year=2026&month=10");
   const fig = picture(page, "period-flows");
   const img = fig.getByRole("img", { name: /In 2026-10, .* kg came in from \d+ origins .*charged to batches.* was shipped and .* hauled away as waste\./ });
   await expect(img).toBeVisible();
