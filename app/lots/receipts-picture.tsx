@@ -40,7 +40,7 @@ export async function ReceiptsPicture({ db, siteId, timeZone, now }: { db: Db; s
   const svg = renderPictureSvg(
     {
       legend: { top: 0, itemGap: 26 },
-      grid: { left: 78, right: 16, top: 44, bottom: 36 },
+      grid: { left: 78, right: 16, top: 56, bottom: 36 },
       xAxis: { type: "category", data: s.weeks.map((w) => shortDay(w.weekOf)) },
       yAxis: { type: "value", name: "kg", axisLabel: { formatter: (v: number) => v.toLocaleString("en-GB") } },
       series: s.materials.map((m) => ({ name: materialLabel(m), type: "bar", stack: "received", barMaxWidth: 40, data: s.weeks.map((w) => (w.byMaterial[m] ?? 0) / 1000) })),

@@ -34,7 +34,7 @@ export async function TankStockPicture({ db, siteId, code, capacityG, timeZone, 
     {
       useUTC: true,
       legend: { top: 0, itemGap: 26, data: ["Book stock", "Gauge readings", "Capacity"] },
-      grid: { left: 78, right: 24, top: 40, bottom: 36 },
+      grid: { left: 78, right: 24, top: 56, bottom: 36 },
       xAxis: { type: "time", min: siteX(first, timeZone), max: siteX(last, timeZone) },
       yAxis: { type: "value", name: "kg", min: 0, axisLabel: { formatter: (v: number) => v.toLocaleString("en-GB") } },
       series: [
