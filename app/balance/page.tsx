@@ -9,6 +9,7 @@ import { loadSite } from "@/app/_ui/site";
 import { Empty, Facts, HolderLink, NoSite, Note } from "@/app/_ui/ui";
 import { ClosureChip, ToleranceNote } from "@/app/balance/closure";
 import { PeriodActionForm } from "@/app/balance/period-form";
+import { FlowsPicture } from "@/app/balance/flows-picture";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Period balance" };
@@ -38,6 +39,7 @@ export default async function BalancePage({ searchParams }: { searchParams: Prom
       </p>
       <BalanceForm typed={typed} report={result.ok ? result.value : null} issues={result.ok ? [] : result.issues} />
       {result.ok ? <BalanceResult r={result.value} timeZone={tz} canClose={user.role === "COMPLIANCE"} /> : null}
+      {result.ok ? <FlowsPicture db={db} siteId={site.id} period={result.value.period} /> : null}
     </>
   );
 }

@@ -8,6 +8,7 @@ import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, HistoryLink, NoSite, Note, Pager, Status } from "@/app/_ui/ui";
 import type { Column } from "@/app/_ui/kit/data-table";
 import { DataTable } from "@/app/_ui/kit/data-table";
+import { ReceiptsPicture } from "@/app/lots/receipts-picture";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Feedstock lots" };
@@ -39,7 +40,7 @@ const LOT_COLUMNS = (tz: string): Column<LotListRow>[] => [
 type Props = { searchParams: Promise<{ page?: string | string[]; status?: string | string[] }> };
 
 export default async function LotsPage({ searchParams }: Props) {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const sp = await searchParams;
   const page = pageParam(sp.page);
@@ -75,6 +76,7 @@ export default async function LotsPage({ searchParams }: Props) {
           <Note>FFA is the mean of the lot&apos;s titrations that are not voided; water is the latest water test.</Note>
         </>
       )}
+      <ReceiptsPicture db={db} siteId={site.id} timeZone={tz} now={user.now} />
     </>
   );
 }

@@ -9,6 +9,7 @@ import { day, kg, litres, when } from "@/app/_ui/format";
 import { codeParam, PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, Facts, NoSite, Pager } from "@/app/_ui/ui";
+import { SourceFfaPicture } from "@/app/sources/[code]/ffa-picture";
 
 export const dynamic = "force-dynamic";
 
@@ -49,6 +50,7 @@ export default async function SourcePage({ params, searchParams }: Props) {
           ["Last pickup", when(source.lastPickupAt, tz)],
         ]}
       />
+      {collector ? null : <SourceFfaPicture db={db} siteId={site.id} source={source} timeZone={tz} />}
       <h2>Pickups from this source</h2>
       {pickups.total === 0 ? (
         <Empty>No pickups recorded from this source yet.</Empty>

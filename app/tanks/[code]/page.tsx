@@ -12,6 +12,7 @@ import { getTankStrapping, listGauges } from "@/lib/tank/tank.store";
 import { DEFAULT_DENSITY_TABLE, requireDensityEntry } from "@/lib/quantity/density";
 import { MoveSection } from "@/app/tanks/move-section";
 import { GaugeSection } from "@/app/tanks/[code]/gauges";
+import { TankStockPicture } from "@/app/tanks/[code]/stock-picture";
 import { Empty, Facts, MovementTable, NoSite, Note } from "@/app/_ui/ui";
 
 export const dynamic = "force-dynamic";
@@ -58,6 +59,7 @@ export default async function TankPage({ params }: Props) {
         ]}
       />
       <DensityNote tanks={[tank]} />
+      <TankStockPicture db={db} siteId={site.id} code={tank.code} capacityG={tank.capacityG} timeZone={tz} now={user.now} />
 
       <MoveSection
         db={db}
