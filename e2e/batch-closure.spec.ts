@@ -71,7 +71,7 @@ test("a batch finished with the ester 1 % short shows its unmeasured difference,
   await which.selectOption({ label: esterOption });
   await form.getByLabel("Right mass (kg)").fill("100.455");
   await form.getByRole("button", { name: "Record the correction" }).click();
-  await expect(form.getByRole("alert")).toContainText("Reason");
+  await expect(form.locator(".field-error").first()).toContainText("Reason");
   await form.getByLabel("Reason").fill("ticket read 100.455 kg; digits dropped when typing");
   await form.getByRole("button", { name: "Record the correction" }).click();
   await expect(tess.getByRole("status").filter({ hasText: "unmeasured difference is now 0.000 kg" })).toBeVisible();
