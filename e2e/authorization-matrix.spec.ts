@@ -100,6 +100,7 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   recordPlanAction: ["PRODUCTION"],
   startBatchAction: ["PRODUCTION"],
   completeBatchAction: ["PRODUCTION"],
+  correctBatchOutputAction: ["PRODUCTION"],
   receivePickupsAction: ["PRODUCTION"],
   moveToTankAction: ["PRODUCTION"],
   recordGaugeAction: ["PRODUCTION"],

@@ -1,16 +1,18 @@
 import Link from "next/link";
 import type { MadeOf as MadeOfTrace } from "@/lib/feedstock/lot-detail.store";
 import { kg, pct } from "@/app/_ui/format";
+import { labelOf } from "@/lib/ledger/kinds";
 import { Empty, Note } from "@/app/_ui/ui";
 
-/** Backward trace of a batch or product lot, grouped by feedstock lot and reagent lot. */
+/** Backward trace of a batch or product lot: the feedstock lots with their shares, the reagents apart. */
 export function MadeOf({ madeOf, what }: { madeOf: MadeOfTrace | null; what: string }) {
   if (madeOf === null) return <p className="warning">The ledger could not be replayed, so the lots in this {what} cannot be worked out.</p>;
-  if (madeOf.shares.length === 0) return <Empty>Nothing has gone into this {what} yet.</Empty>;
+  if (madeOf.shares.length === 0 && madeOf.reagents.length === 0) return <Empty>Nothing has gone into this {what} yet.</Empty>;
   return (
     <>
       <div className="table-wrap">
         <table>
+          <caption>Feedstock</caption>
           <thead>
             <tr>
               <th scope="col">Came from</th>
@@ -18,7 +20,7 @@ export function MadeOf({ madeOf, what }: { madeOf: MadeOfTrace | null; what: str
                 Mass
               </th>
               <th scope="col" className="num">
-                Share
+                Share of the feedstock
               </th>
             </tr>
           </thead>
@@ -32,7 +34,7 @@ export function MadeOf({ madeOf, what }: { madeOf: MadeOfTrace | null; what: str
                     </>
                   ) : (
                     <>
-                      <span className="holder-kind">{s.kind === "REAGENT_LOT" ? "Reagent lot" : "Other"}</span> {s.code}
+                      <span className="holder-kind">Other</span> {s.code}
                     </>
                   )}
                 </td>
@@ -43,15 +45,41 @@ export function MadeOf({ madeOf, what }: { madeOf: MadeOfTrace | null; what: str
           </tbody>
           <tfoot>
             <tr>
-              <td>Total</td>
-              <td className="num">{kg(madeOf.totalG)}</td>
-              <td className="num">100 %</td>
+              <td>Feedstock</td>
+              <td className="num">{kg(madeOf.feedstockG)}</td>
+              <td className="num">{madeOf.shares.length > 0 ? "100 %" : "—"}</td>
             </tr>
           </tfoot>
         </table>
       </div>
+      {madeOf.reagents.length > 0 ? (
+        <div className="table-wrap">
+          <table>
+            <caption>Reagents (not ingredients: no share of the {what})</caption>
+            <thead>
+              <tr>
+                <th scope="col">Reagent lot</th>
+                <th scope="col">Reagent</th>
+                <th scope="col" className="num">
+                  Mass by the mixing rules
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {madeOf.reagents.map((s) => (
+                <tr key={`${s.kind}:${s.code}`}>
+                  <td>{s.code}</td>
+                  <td>{s.reagent ? labelOf(s.reagent) : "—"}</td>
+                  <td className="num">{kg(s.grams)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      ) : null}
       <Note>
-        Shares come from replaying the ledger under each tank&apos;s mixing model; the grams add up exactly to the total.
+        Feedstock shares come from replaying the ledger under each tank&apos;s mixing model and add up to 100 % of the feedstock. Methanol and catalyst take part in the reaction
+        and are listed apart; water used for washing goes to the wash-water stream and is never part of a product.
         {madeOf.order === "booked"
           ? " Some movements are dated before the stock they draw was booked, so the ledger is replayed in the order movements were booked rather than by date."
           : ""}

@@ -122,16 +122,19 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
       </h2>
       <Facts
         items={[
-          ["Closure (site stock)", <ClosureChip key="c" closure={s.closure} />],
-          ["Unaccounted", <Amount key="u" grams={s.imbalanceG} />],
+          ["Closure (measured against the books)", <span key="d" data-testid="measured-closure"><ClosureChip closure={r.differences.closure} /></span>],
+          ["Unmeasured batch differences", <Amount key="ub" grams={r.differences.unmeasuredG} />],
+          ["Receiving differences", <Amount key="rd" grams={r.differences.receivingG} />],
+          ["Gauges vs book (book − measured)", r.gauges ? <Amount key="gd" grams={r.differences.gaugeG} /> : "no readings"],
           ["Batches finished", <span key="p">{r.process.completed.length} <ClosureChip closure={r.process.closure} /></span>],
-          ["Gauges vs book", r.gauges ? <ClosureChip key="g" closure={r.gauges.total.closure} what="of book stock" /> : "no readings"],
+          ["Books complete (stock identity)", <span key="c"><ClosureChip closure={s.closure} /> unaccounted <Amount grams={s.imbalanceG} /></span>],
           ["Accounting period", ap ? <span key="a" className={`status status-${ap.status === "OPEN" ? "open-period" : "closed"}`}>{ap.status === "OPEN" ? "Open" : "Closed"}</span> : "none with these dates"],
         ]}
       />
       <Note>
-        <ToleranceNote tolerance={r.tolerance} /> The closure is the unaccounted mass as a share of what entered the stock in the period
-        (receipts, transfers in and returns).
+        <ToleranceNote tolerance={r.tolerance} /> The closure is the sum of the batches&apos; unmeasured differences (charged less everything weighed or gauged
+        out), the receiving differences (pickup estimates less the plant&apos;s measurement) and book stock less the latest gauge readings, as a share of what entered the
+        stock in the period. Recorded losses (a spill with its reason) are outputs, not differences. The stock identity only checks that no movement is missing.
       </Note>
       <p>
         <a href={epcisPeriodHref(r.query)} download className="csv-link">
@@ -284,6 +287,10 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
               <th scope="col" className="num">
                 Unaccounted
               </th>
+              <th scope="col">Books</th>
+              <th scope="col" className="num">
+                Differences
+              </th>
               <th scope="col">Closure</th>
             </tr>
           </thead>
@@ -300,6 +307,10 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
                 <td className="num">{kgExact(m.imbalanceG)}</td>
                 <td>
                   <ClosureChip closure={m.closure} />
+                </td>
+                <td className="num">{kgExact(m.differences.totalG)}</td>
+                <td>
+                  <ClosureChip closure={m.differences.closure} />
                 </td>
               </tr>
             ))}
@@ -408,15 +419,16 @@ function roleSum(rec: Partial<Record<string, number>>, role: string): number {
 function ProcessTable({ r }: { r: BalanceReport }) {
   const p = r.process;
   if (p.completed.length === 0 && p.inProgress.length === 0) return <Empty>No batch ran in this period.</Empty>;
+  const flagged = p.completed.filter((b) => b.closure.flag !== "OK");
   const rows: Array<[string, string, number]> = [
     ["in", "Oil", roleSum(p.inputsByRole, "OIL")],
     ["in", "Methanol", roleSum(p.inputsByRole, "METHANOL")],
     ["in", "Catalyst", roleSum(p.inputsByRole, "CATALYST")],
     ["in", "Acid", roleSum(p.inputsByRole, "ACID")],
-    ["in", "Process water", roleSum(p.inputsByRole, "WATER")],
+    ["in", "Water (batches booked before washing was recorded apart)", roleSum(p.inputsByRole, "WATER")],
     ["out", "Product (methyl ester)", roleSum(p.outputsByRole, "ESTER")],
     ["out", "Glycerol phase", roleSum(p.outputsByRole, "GLYCEROL_PHASE")],
-    ["out", "Wash water", roleSum(p.outputsByRole, "WASH_WATER")],
+    ["out", "Washed out with the wash water (the water itself left out)", roleSum(p.outputsByRole, "WASH_WATER")],
     ["out", "Recovered methanol", roleSum(p.outputsByRole, "RECOVERED_METHANOL")],
     ["out", "Recorded losses", roleSum(p.outputsByRole, "LOSS")],
   ];
@@ -425,7 +437,7 @@ function ProcessTable({ r }: { r: BalanceReport }) {
       <div className="table-wrap">
         <table className="identity">
           <caption>
-            {p.completed.length} batches finished: inputs = outputs + unaccounted <ClosureChip closure={p.closure} />
+            {p.completed.length} batches finished: charged = measured out + recorded losses + unmeasured difference <ClosureChip closure={p.closure} />
           </caption>
           <tbody>
             <tr className="group">
@@ -455,18 +467,29 @@ function ProcessTable({ r }: { r: BalanceReport }) {
                 </tr>
               ))}
             <tr>
-              <td>Unaccounted</td>
+              <td>Unmeasured difference</td>
               <td className="num">{kgExact(p.imbalanceG)}</td>
             </tr>
           </tbody>
           <tfoot>
             <tr>
-              <td>Total drawn off + unaccounted</td>
+              <td>Total drawn off + unmeasured difference</td>
               <td className="num">{kgExact(p.outputsG + p.imbalanceG)}</td>
             </tr>
           </tfoot>
         </table>
       </div>
+      {flagged.length > 0 ? (
+        <p className="warning" data-testid="batches-above-tolerance">
+          Above tolerance:{" "}
+          {flagged.map((b, i) => (
+            <span key={b.holderId}>
+              {i > 0 ? ", " : ""}
+              <HolderLink holder={{ kind: "BATCH", code: b.code }} showKind={false} /> {kgExact(b.imbalanceG)} <ClosureChip closure={b.closure} what="of the charge" />
+            </span>
+          ))}
+        </p>
+      ) : null}
       <details className="more-rows">
         <summary>
           Each batch ({p.completed.length} finished{p.inProgress.length > 0 ? `, ${p.inProgress.length} still in progress at the period end` : ""})
@@ -491,7 +514,7 @@ function BatchTable({ rows }: { rows: BatchRow[] }) {
               Drawn off
             </th>
             <th scope="col" className="num">
-              Unaccounted or still in it
+              Unmeasured difference, or still in it
             </th>
             <th scope="col" className="num">
               Ester ÷ oil

@@ -4,14 +4,19 @@ import type { Db, Tx } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { parseInput } from "@/lib/ledger/parse";
 import { createHolder, getStockG, postMovement, reject, requireHolder, runInTransaction } from "@/lib/ledger/ledger.store";
-import { getBatchState, insertBatch, insertReagentLot, markBatchComplete, markBatchRunning } from "@/lib/batch/batch.store";
+import { getBatchState, getReagentOfHolder, insertBatch, insertReagentLot, listBatchOutflows, markBatchComplete, markBatchRunning, setProductLotMadeMass, siteDifferenceHolder, sumUnmeasuredGains } from "@/lib/batch/batch.store";
 import type { BatchState } from "@/lib/batch/batch.store";
 import { insertProductLot } from "@/lib/product/product.store";
 import { getContainerState } from "@/lib/waste/container.store";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf, UNMEASURED_ROLE } from "@/lib/ledger/kinds";
+import type { MoveRole } from "@/lib/ledger/kinds";
+import { planUnmeasuredBooking } from "@/lib/batch/closure";
 import { markLotConsumedIfEmpty, requireDrawableHolder } from "@/lib/ledger/draw.store";
 import { siteLossHolder } from "@/lib/feedstock/lot.store";
-import { BatchCompleteSchema, BatchPlanSchema, BatchStartSchema, ReagentLotSchema } from "@/lib/batch/batch.schema";
+import { BatchCompleteSchema, BatchOutputCorrectionSchema, BatchPlanSchema, BatchStartSchema, ReagentLotSchema } from "@/lib/batch/batch.schema";
+import type { z } from "zod";
+
+type BatchComplete = z.output<typeof BatchCompleteSchema>;
 import { toGrams } from "@/lib/quantity/units";
 import type { Actor } from "@/lib/site/actor";
 import { getTankServiceByHolder, requireTankRoom } from "@/lib/tank/tank.store";
@@ -92,11 +97,63 @@ export async function startBatch(db: Db, actor: Actor, input: unknown): Promise<
   });
 }
 
+type CompleteOutput = BatchComplete["outputs"][number];
+
+/** Where an output goes: a new product lot for ester, an open waste container, or a tank with room. */
+async function resolveOutputPlace(tx: Tx, actor: Actor, batch: BatchState, completedAt: Date, o: CompleteOutput, i: number, totalG: number): Promise<{ to: number; room: Room }> {
+  const field = `outputs.${i}.toCode`;
+  if (o.role === "LOSS") return { to: await siteLossHolder(tx, actor.siteId), room: null };
+  if (o.toKind === "PRODUCT_LOT" && o.toCode) {
+    if (o.role !== "ESTER") reject("BATCH.WRONG_OUTPUT", "Only ester goes to a product lot", field);
+    const to = await createHolder(tx, actor.siteId, "PRODUCT_LOT", o.toCode, field);
+    await insertProductLot(tx, { siteId: actor.siteId, holderId: to, code: o.toCode, batchId: batch.id, producedAt: completedAt, massG: toGrams(o.massKg) });
+    return { to, room: null };
+  }
+  if (o.toKind === "WASTE_CONTAINER" && o.toCode) {
+    const to = (await requireHolder(tx, actor.siteId, "WASTE_CONTAINER", o.toCode, field)).id;
+    const w = await getContainerState(tx, to);
+    if (w.status !== "OPEN") reject("WASTE.CONTAINER_CLOSED", `Waste container ${o.toCode} is not accepting more material`, field);
+    return { to, room: null };
+  }
+  if (o.toKind === "TANK" && o.toCode) {
+    const to = (await requireHolder(tx, actor.siteId, "TANK", o.toCode, field)).id;
+    return { to, room: await requireTankRoom(tx, to, totalG, `outputs.${i}.massKg`) };
+  }
+  return reject("BATCH.NO_DESTINATION", "Output to: say where this output went", field);
+}
+
+type Room = Awaited<ReturnType<typeof requireTankRoom>>;
+
+/** The batch's share of an output: for wash water, what was drawn off less the water used for washing. */
+function batchShareG(o: CompleteOutput, i: number): number {
+  const totalG = toGrams(o.massKg);
+  if (o.role !== "WASH_WATER" || o.waterKg === undefined) return totalG;
+  const waterG = toGrams(o.waterKg);
+  if (totalG < waterG) {
+    reject("BATCH.WASH_BELOW_WATER", `Wash water drawn off (${o.massKg} kg) is less than the water used (${o.waterKg} kg): weigh or gauge it again, or correct the water used`, `outputs.${i}.massKg`);
+  }
+  return totalG - waterG;
+}
+
 /**
- * Records what came out. The reactor must be empty afterwards: everything charged is accounted for
- * as ester, glycerol phase, wash water, recovered methanol or a recorded loss.
+ * Books the batch's unmeasured difference so the reactor ends empty: whatever is still held after the
+ * measured outputs goes to the site's difference account. Returns the grams booked.
  */
-export async function completeBatch(db: Db, actor: Actor, input: unknown): Promise<Result<{ code: string; productLots: string[] }>> {
+async function bookUnmeasuredDifference(tx: Tx, actor: Actor, batch: BatchState, at: Date, note: string): Promise<number> {
+  const left = await getStockG(tx, batch.holderId);
+  if (left <= 0) return 0;
+  const sink = await siteDifferenceHolder(tx, actor.siteId);
+  await postMovement(tx, { siteId: actor.siteId, at, role: UNMEASURED_ROLE, fromHolderId: batch.holderId, toHolderId: sink, massG: left, recordedById: actor.userId, note, field: "outputs" });
+  return left;
+}
+
+/**
+ * Records what was weighed or gauged out. The outputs need not add up to the charge: the remainder is
+ * booked as the batch's unmeasured difference (or, when more was measured than charged, an unmeasured
+ * gain booked in first). Water used for washing goes from its water lot straight to the wash-water
+ * stream, never through the reactor, so it is never part of a product lot.
+ */
+export async function completeBatch(db: Db, actor: Actor, input: unknown): Promise<Result<{ code: string; productLots: string[]; unmeasuredG: number }>> {
   const parsed = parseInput(BatchCompleteSchema, input);
   if (!parsed.ok) return parsed;
   const c = parsed.value;
@@ -104,36 +161,67 @@ export async function completeBatch(db: Db, actor: Actor, input: unknown): Promi
     const batch = await requireBatch(tx, actor.siteId, c.batchCode);
     if (batch.status !== "RUNNING") reject("BATCH.NOT_RUNNING", `Batch ${c.batchCode} is ${batch.status.toLowerCase()}; only a reacting batch can finish`, "batchCode");
     if (batch.startedAt && c.completedAt < batch.startedAt) reject("BATCH.ENDS_BEFORE_START", "Finish time is before the start time", "completedAt");
+    const shares = c.outputs.map((o, i) => batchShareG(o, i));
+    const { gainG } = planUnmeasuredBooking(await getStockG(tx, batch.holderId), shares.reduce((a, b) => a + b, 0));
+    if (gainG > 0) {
+      await postMovement(tx, { siteId: actor.siteId, at: c.completedAt, role: UNMEASURED_ROLE, fromHolderId: null, toHolderId: batch.holderId, massG: gainG, recordedById: actor.userId, note: "unmeasured difference: more measured out than charged", field: "outputs" });
+    }
     const productLots: string[] = [];
     for (const [i, o] of c.outputs.entries()) {
-      const field = `outputs.${i}.toCode`;
-      let to: number;
-      let room: Awaited<ReturnType<typeof requireTankRoom>> = null;
-      if (o.role === "LOSS") {
-        to = await siteLossHolder(tx, actor.siteId);
-      } else if (o.toKind === "PRODUCT_LOT" && o.toCode) {
-        if (o.role !== "ESTER") reject("BATCH.WRONG_OUTPUT", "Only ester goes to a product lot", field);
-        to = await createHolder(tx, actor.siteId, "PRODUCT_LOT", o.toCode, field);
-        await insertProductLot(tx, { siteId: actor.siteId, holderId: to, code: o.toCode, batchId: batch.id, producedAt: c.completedAt, massG: toGrams(o.massKg) });
-        productLots.push(o.toCode);
-      } else if (o.toKind === "WASTE_CONTAINER" && o.toCode) {
-        to = (await requireHolder(tx, actor.siteId, "WASTE_CONTAINER", o.toCode, field)).id;
-        const w = await getContainerState(tx, to);
-        if (w.status !== "OPEN") reject("WASTE.CONTAINER_CLOSED", `Waste container ${o.toCode} is not accepting more material`, field);
-      } else if (o.toKind === "TANK" && o.toCode) {
-        to = (await requireHolder(tx, actor.siteId, "TANK", o.toCode, field)).id;
-        room = await requireTankRoom(tx, to, toGrams(o.massKg), `outputs.${i}.massKg`);
-      } else {
-        reject("BATCH.NO_DESTINATION", "Output to: say where this output went", field);
+      const { to, room } = await resolveOutputPlace(tx, actor, batch, c.completedAt, o, i, toGrams(o.massKg));
+      if (o.toKind === "PRODUCT_LOT" && o.toCode) productLots.push(o.toCode);
+      if (o.role === "WASH_WATER" && o.waterFromCode !== undefined && o.waterKg !== undefined) {
+        const field = `outputs.${i}.waterFromCode`;
+        const water = await requireDrawableHolder(tx, actor.siteId, "REAGENT_LOT", o.waterFromCode, field);
+        if ((await getReagentOfHolder(tx, water)) !== "WATER") reject("BATCH.NOT_WATER", `Reagent lot ${o.waterFromCode} is not water`, field);
+        await postMovement(tx, { siteId: actor.siteId, at: c.completedAt, role: "WATER", fromHolderId: water, toHolderId: to, massG: toGrams(o.waterKg), recordedById: actor.userId, note: `washing batch ${c.batchCode}`, field: `outputs.${i}.waterKg`, ...(room ? { room } : {}) });
+        await markLotConsumedIfEmpty(tx, water);
       }
-      await postMovement(tx, { siteId: actor.siteId, at: c.completedAt, role: o.role, fromHolderId: batch.holderId, toHolderId: to, massG: toGrams(o.massKg), recordedById: actor.userId, field: `outputs.${i}.massKg`, ...(room ? { room } : {}) });
+      const massG = shares[i] ?? 0;
+      if (massG === 0) continue;
+      const note = o.role === "LOSS" ? `recorded loss: ${o.reason ?? ""}` : "";
+      await postMovement(tx, { siteId: actor.siteId, at: c.completedAt, role: o.role, fromHolderId: batch.holderId, toHolderId: to, massG, recordedById: actor.userId, note, field: `outputs.${i}.massKg`, ...(room ? { room } : {}) });
     }
-    const left = await getStockG(tx, batch.holderId);
-    if (left !== 0) {
-      reject("BATCH.UNBALANCED", `${(left / 1000).toLocaleString("en", { maximumFractionDigits: 3 })} kg charged is not accounted for; record it as an output or a loss`, "outputs");
-    }
+    const unmeasuredG = (await bookUnmeasuredDifference(tx, actor, batch, c.completedAt, "unmeasured difference: charged less everything measured out")) - gainG;
     await markBatchComplete(tx, batch.id, c.completedAt);
-    await appendAudit(tx, actor, { action: "CHANGE", entity: "Batch", entityKey: c.batchCode, before: { status: batch.status }, after: { status: "COMPLETE", completedAt: c.completedAt, outputs: c.outputs } });
-    return { code: c.batchCode, productLots };
+    await appendAudit(tx, actor, { action: "CHANGE", entity: "Batch", entityKey: c.batchCode, before: { status: batch.status }, after: { status: "COMPLETE", completedAt: c.completedAt, outputs: c.outputs, unmeasuredG } });
+    return { code: c.batchCode, productLots, unmeasuredG };
+  });
+}
+
+/**
+ * Corrects a finished batch's output typed wrong, never editing it: the wrong output and the batch's
+ * booked unmeasured difference are reversed (each an opposite movement linked to it, as in
+ * lib/correction), the output is booked again with the right mass at the original time, and the
+ * unmeasured difference is booked afresh. Refused when the output's material has moved on since.
+ */
+export async function correctBatchOutput(db: Db, actor: Actor, input: unknown): Promise<Result<{ code: string; unmeasuredG: number }>> {
+  const parsed = parseInput(BatchOutputCorrectionSchema, input);
+  if (!parsed.ok) return parsed;
+  const c = parsed.value;
+  return runInTransaction(db, async (tx) => {
+    const batch = await requireBatch(tx, actor.siteId, c.batchCode);
+    if (batch.status !== "COMPLETE" || batch.completedAt === null) reject("BATCH.NOT_FINISHED", `Batch ${c.batchCode} is ${batch.status.toLowerCase()}; only a finished batch's outputs are corrected here`, "batchCode");
+    const moves = await listBatchOutflows(tx, batch.holderId);
+    const m = moves.find((x) => x.id === c.movementId);
+    if (!m || m.role === UNMEASURED_ROLE || m.reversesId !== null) reject("BATCH.NOT_AN_OUTPUT", `Movement ${c.movementId} is not an output of batch ${c.batchCode}`, "movementId");
+    if (m.reversedById !== null) reject("BATCH.OUTPUT_CORRECTED", `This output was already corrected (movement ${m.reversedById}); correct the new one instead`, "movementId");
+    const newG = toGrams(c.massKg);
+    if (newG === m.massG) reject("BATCH.SAME_MASS", "Corrected mass: this is the mass already recorded", "massKg");
+    const reverse = async (x: { id: number; at: Date; role: string; fromHolderId: number; toHolderId: number; massG: number }) =>
+      postMovement(tx, { siteId: actor.siteId, at: x.at, role: x.role as MoveRole, fromHolderId: x.toHolderId, toHolderId: x.fromHolderId, massG: x.massG, recordedById: actor.userId, reversesId: x.id, note: `Reversal of movement ${x.id}: ${c.reason}`, field: "massKg" });
+    for (const u of moves.filter((x) => x.role === UNMEASURED_ROLE && x.reversedById === null && x.reversesId === null)) await reverse(u);
+    await reverse(m);
+    const { gainG } = planUnmeasuredBooking(await getStockG(tx, batch.holderId), newG);
+    if (gainG > 0) {
+      await postMovement(tx, { siteId: actor.siteId, at: m.at, role: UNMEASURED_ROLE, fromHolderId: null, toHolderId: batch.holderId, massG: gainG, recordedById: actor.userId, note: `unmeasured difference after correcting movement ${m.id}`, field: "massKg" });
+    }
+    const room = await requireTankRoom(tx, m.toHolderId, newG, "massKg");
+    await postMovement(tx, { siteId: actor.siteId, at: m.at, role: m.role as MoveRole, fromHolderId: batch.holderId, toHolderId: m.toHolderId, massG: newG, recordedById: actor.userId, note: `Corrects movement ${m.id}: ${c.reason}`, field: "massKg", ...(room ? { room } : {}) });
+    if (m.role === "ESTER") await setProductLotMadeMass(tx, m.toHolderId, newG);
+    const booked = await bookUnmeasuredDifference(tx, actor, batch, m.at, `unmeasured difference after correcting movement ${m.id}`);
+    const unmeasuredG = booked - (await sumUnmeasuredGains(tx, batch.holderId));
+    await appendAudit(tx, actor, { action: "CHANGE", entity: "Batch", entityKey: c.batchCode, before: { movementId: m.id, role: m.role, massG: m.massG }, after: { massG: newG, unmeasuredG }, reason: c.reason });
+    return { code: c.batchCode, unmeasuredG };
   });
 }

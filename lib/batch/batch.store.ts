@@ -83,8 +83,12 @@ export interface BatchDetail extends BatchRow {
   charges: MovementView[];
   /** Charges booked by mistake and taken back (each reversed by a movement out of the batch). */
   takenBack: MovementView[];
-  /** Movements out of the batch: ester, glycerol phase, wash water, recovered methanol, losses (take-backs left out). */
+  /** Movements out of the batch as they stand: ester, glycerol phase, wash water, recovered methanol, recorded losses. */
   outputs: MovementView[];
+  /** Outputs typed wrong and corrected (each reversed, then booked again with the right mass). */
+  corrected: MovementView[];
+  /** The booked unmeasured difference: out to the site's difference account, or an unmeasured gain in. */
+  unmeasured: MovementView[];
   products: BatchProductView[];
 }
 
@@ -100,9 +104,11 @@ export async function getBatchDetail(db: Db, siteId: number, code: string): Prom
     holderId: r.holderId,
     notes: r.notes,
     recipeJson: r.recipeJson,
-    charges: moves.incoming.filter((m) => m.reversedById === null),
+    charges: moves.incoming.filter((m) => m.reversedById === null && m.reversesId === null && m.role !== "UNMEASURED"),
     takenBack: moves.incoming.filter((m) => m.reversedById !== null),
-    outputs: moves.outgoing.filter((m) => m.reversesId === null),
+    outputs: moves.outgoing.filter((m) => m.reversesId === null && m.reversedById === null && m.role !== "UNMEASURED"),
+    corrected: moves.outgoing.filter((m) => m.reversedById !== null && m.role !== "UNMEASURED"),
+    unmeasured: [...moves.incoming, ...moves.outgoing].filter((m) => m.role === "UNMEASURED" && m.reversesId === null && m.reversedById === null),
     products: r.products,
   };
 }
@@ -126,10 +132,54 @@ export interface BatchState {
   status: string;
   plannedAt: Date;
   startedAt: Date | null;
+  completedAt: Date | null;
 }
 
 export async function getBatchState(tx: Tx, siteId: number, code: string): Promise<BatchState | null> {
-  return tx.batch.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, holderId: true, status: true, plannedAt: true, startedAt: true } });
+  return tx.batch.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, holderId: true, status: true, plannedAt: true, startedAt: true, completedAt: true } });
+}
+
+/** The site's account of unmeasured batch differences (one per site, created on first use). */
+export async function siteDifferenceHolder(tx: Tx, siteId: number): Promise<number> {
+  const found = await tx.holder.findUnique({ where: { siteId_kind_code: { siteId, kind: "DIFFERENCE", code: "UNMEASURED" } }, select: { id: true } });
+  if (found) return found.id;
+  return (await tx.holder.create({ data: { siteId, kind: "DIFFERENCE", code: "UNMEASURED" }, select: { id: true } })).id;
+}
+
+export async function getReagentOfHolder(tx: Tx, holderId: number): Promise<string | null> {
+  return (await tx.reagentLot.findUnique({ where: { holderId }, select: { reagent: true } }))?.reagent ?? null;
+}
+
+export interface BatchOutflow {
+  id: number;
+  at: Date;
+  role: string;
+  fromHolderId: number;
+  toHolderId: number;
+  massG: number;
+  reversesId: number | null;
+  reversedById: number | null;
+}
+
+/** Every movement out of a batch holder (outputs, booked differences, reversals of charges). */
+export async function listBatchOutflows(tx: Tx, holderId: number): Promise<BatchOutflow[]> {
+  const rows = await tx.movement.findMany({
+    where: { fromHolderId: holderId },
+    orderBy: [{ at: "asc" }, { id: "asc" }],
+    select: { id: true, at: true, role: true, toHolderId: true, massG: true, reversesId: true, reversedBy: { select: { id: true } } },
+  });
+  return rows.map(({ reversedBy, ...r }) => ({ ...r, fromHolderId: holderId, reversedById: reversedBy?.id ?? null }));
+}
+
+/** Unmeasured gains booked into a batch (entering the books there), in grams. */
+export async function sumUnmeasuredGains(tx: Tx, holderId: number): Promise<number> {
+  const r = await tx.movement.aggregate({ where: { toHolderId: holderId, fromHolderId: null, role: "UNMEASURED" }, _sum: { massG: true } });
+  return r._sum.massG ?? 0;
+}
+
+/** A product lot's "mass made" follows its batch's corrected ester output (the ledger keeps both entries). */
+export async function setProductLotMadeMass(tx: Tx, holderId: number, massG: number): Promise<void> {
+  await tx.productLot.update({ where: { holderId }, data: { massG } });
 }
 
 export async function markBatchRunning(tx: Tx, id: number, startedAt: Date): Promise<void> {

@@ -880,7 +880,7 @@ function drawReagent(reagents: readonly ReagentStock[], reagent: string, grams: 
   return { parts, shortG: Math.max(0, left) };
 }
 
-/** Start-form rows from the plan: the oil draws, then methanol, catalyst, acid and wash water from reagent lots in stock. */
+/** Start-form rows from the plan: the oil draws, then methanol, catalyst and acid from reagent lots in stock (wash water is used when the batch finishes). */
 export function suggestCharges(planned: PlannedFigures, reagents: readonly ReagentStock[]): { rows: ChargeSuggestion[]; notices: string[] } {
   const rows: ChargeSuggestion[] = planned.draws.map((d) => ({ fromKind: d.kind, fromCode: d.code, role: "OIL", massKg: d.massG / 1000 }));
   const notices: string[] = [];
@@ -899,7 +899,6 @@ export function suggestCharges(planned: PlannedFigures, reagents: readonly Reage
   add("METHANOL", planned.methanolKg, "METHANOL", "Methanol");
   add(planned.catalyst, planned.catalystProductKg, "CATALYST", "Catalyst");
   add("H2SO4", planned.acidProductKg, "ACID", "Sulfuric acid");
-  add("WATER", planned.washWaterKg, "WATER", "Wash water");
   return { rows, notices };
 }
 

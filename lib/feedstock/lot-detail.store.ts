@@ -1,4 +1,6 @@
 import "server-only";
+import { splitIngredients } from "@/lib/trace/ingredients";
+import type { IngredientShare, OriginGroup } from "@/lib/trace/ingredients";
 import type { Db } from "@/lib/database/connect";
 import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
 import { listMovementsById } from "@/lib/ledger/movement.store";
@@ -340,20 +342,15 @@ export async function timeOrderedFlow(db: Db, siteId: number, ledger: TraceLedge
   };
 }
 
-export interface FeedstockShare {
-  kind: "LOT" | "REAGENT_LOT" | "OTHER";
-  code: string;
-  grams: number;
-  pct: number;
-}
+export type FeedstockShare = IngredientShare;
 
-/**
- * What a holder (a batch, a product lot) was made of, by feedstock lot and reagent lot, from the
- * backward trace. Null when the ledger cannot be replayed.
- */
 export interface MadeOf {
   totalG: number;
+  /** Feedstock lots with their share of the feedstock (the base of the shares is feedstockG). */
   shares: FeedstockShare[];
+  feedstockG: number;
+  /** Reagent lots (methanol, catalyst, acid; water only from batches booked before washing was recorded apart): listed, never a share. */
+  reagents: FeedstockShare[];
   /** "booked" when the movements' dates are inconsistent and the ledger was replayed in booking order. */
   order: ReplayOrder;
 }
@@ -368,32 +365,32 @@ export async function describeMadeOf(db: Db, siteId: number, view: { ledger: Tra
   }
   // The whole site's pickups and lots: a batch from a pooled tank can go back to thousands of pickups,
   // more than SQLite binds in one IN list.
-  const [pickups, lots] = await Promise.all([
+  const [pickups, lots, reagentLots] = await Promise.all([
     db.pickup.findMany({ where: { siteId, lotId: { not: null } }, select: { holderId: true, lot: { select: { code: true } } } }),
     db.feedstockLot.findMany({ where: { siteId }, select: { holderId: true, code: true } }),
+    db.reagentLot.findMany({ where: { siteId }, select: { holderId: true, reagent: true } }),
   ]);
+  const reagentOf = new Map(reagentLots.map((r) => [r.holderId, r.reagent]));
   const lotOfHolder = new Map<number, string>();
   for (const p of pickups) if (p.lot) lotOfHolder.set(p.holderId, p.lot.code);
   for (const l of lots) lotOfHolder.set(l.holderId, l.code);
-  const groups = new Map<string, FeedstockShare>();
+  const groups = new Map<string, OriginGroup>();
   for (const o of back.received.origins) {
     const h = entryHolder.get(o.originId);
     const ref = h === undefined ? undefined : ledger.refs.get(h);
     const lotCode = h === undefined ? undefined : lotOfHolder.get(h);
-    const share: Pick<FeedstockShare, "kind" | "code"> =
+    const reagent = h === undefined ? undefined : reagentOf.get(h);
+    const share: OriginGroup =
       lotCode !== undefined
-        ? { kind: "LOT", code: lotCode }
+        ? { kind: "LOT", code: lotCode, grams: 0 }
         : ref?.kind === "REAGENT_LOT"
-          ? { kind: "REAGENT_LOT", code: ref.code }
-          : { kind: "OTHER", code: ref ? ref.code : `origin ${o.originId}` };
+          ? { kind: "REAGENT_LOT", code: ref.code, grams: 0, ...(reagent ? { reagent } : {}) }
+          : { kind: "OTHER", code: ref ? ref.code : `origin ${o.originId}`, grams: 0 };
     const key = `${share.kind}:${share.code}`;
-    const g = groups.get(key) ?? { ...share, grams: 0, pct: 0 };
+    const g = groups.get(key) ?? share;
     g.grams += o.grams;
     groups.set(key, g);
   }
-  const totalG = back.received.totalG;
-  const shares = [...groups.values()]
-    .map((g) => ({ ...g, pct: totalG === 0 ? 0 : (g.grams * 100) / totalG }))
-    .sort((a, b) => b.grams - a.grams || a.code.localeCompare(b.code));
-  return { totalG, shares, order };
+  const split = splitIngredients([...groups.values()]);
+  return { totalG: back.received.totalG, shares: split.feedstock, feedstockG: split.feedstockG, reagents: split.reagents, order };
 }

@@ -146,11 +146,11 @@ export const GRID_TABLES: Readonly<Record<TableKey, GridTable>> = {
   },
   batchFlows: {
     key: "batchFlows", label: "Batch inputs and outputs", rowId: "id", importKey: ["id"], addRoles: [],
-    note: "Every draw into a batch (oil, methanol, catalyst, acid, water) and every output (ester, glycerol phase, wash water, recovered methanol) from the ledger. Ledger rows are never edited; a mistake is reversed by a new row.",
+    note: "Every draw into a batch (oil, methanol, catalyst, acid) and every output (ester, glycerol phase, wash water, recovered methanol, recorded losses, and the unmeasured difference booked when the batch finished) from the ledger. Ledger rows are never edited; a mistake is reversed by a new row.",
     defaultSort: { field: "at", dir: "desc" }, totals: { mass: "massKg", volume: "volumeL" },
     columns: [
       ro(num("id", "Entry no.", undefined, { entry: false, integer: true, decimals: 0 })), derived(code("batchCode", "Batch no.")),
-      derived(oneOf("direction", "Direction", ["IN", "OUT"])), ro(oneOf("role", "What", ["OIL", "METHANOL", "CATALYST", "ACID", "WATER", "ESTER", "GLYCEROL_PHASE", "WASH_WATER", "RECOVERED_METHANOL", "LOSS", "TRANSFER"])),
+      derived(oneOf("direction", "Direction", ["IN", "OUT"])), ro(oneOf("role", "What", ["OIL", "METHANOL", "CATALYST", "ACID", "WATER", "ESTER", "GLYCEROL_PHASE", "WASH_WATER", "RECOVERED_METHANOL", "LOSS", "UNMEASURED", "TRANSFER"])),
       derived(code("otherCode", "From / to")), ro(date("at", "When")), { ...kg("massKg", "Mass", "massG", false), entry: false },
       litres("volumeL", "Volume", "volumeMl"), ro(celsius("tempC", "Temp.")), ro(text("note", "Note")),
     ],

@@ -38,22 +38,33 @@ export const WASTE_STATUSES = ["OPEN", "FULL", "SHIPPED"] as const;
 export type WasteStatus = (typeof WASTE_STATUSES)[number];
 
 export const HOLDER_KINDS = [
-  "PICKUP", "DELIVERY", "LOT", "TANK", "BATCH", "PRODUCT_LOT", "SHIPMENT", "WASTE_CONTAINER", "DISPOSAL", "REAGENT_LOT", "LOSS",
+  "PICKUP", "DELIVERY", "LOT", "TANK", "BATCH", "PRODUCT_LOT", "SHIPMENT", "WASTE_CONTAINER", "DISPOSAL", "REAGENT_LOT", "LOSS", "DIFFERENCE",
 ] as const;
 export type HolderKind = (typeof HOLDER_KINDS)[number];
 
-/** Where material leaves the books: no service draws from these (shipments, disposals, recorded losses). */
-export const TERMINAL_KINDS: ReadonlySet<HolderKind> = new Set<HolderKind>(["SHIPMENT", "DISPOSAL", "LOSS"]);
+/**
+ * Where material leaves the books: no service draws from these (shipments, disposals, recorded losses,
+ * and the site's account of unmeasured batch differences).
+ */
+export const TERMINAL_KINDS: ReadonlySet<HolderKind> = new Set<HolderKind>(["SHIPMENT", "DISPOSAL", "LOSS", "DIFFERENCE"]);
 
 /** What a movement is, seen from the process. */
 export const MOVE_ROLES = [
   "RECEIPT", "TRANSFER", "OIL", "METHANOL", "CATALYST", "ACID", "WATER",
   "ESTER", "GLYCEROL_PHASE", "WASH_WATER", "RECOVERED_METHANOL", "LOSS", "SHIPMENT", "DISPOSAL",
+  "UNMEASURED",
 ] as const;
 export type MoveRole = (typeof MOVE_ROLES)[number];
 
 export const BATCH_INPUT_ROLES = ["OIL", "METHANOL", "CATALYST", "ACID", "WATER"] as const satisfies readonly MoveRole[];
+/** What a worker weighs or gauges out of a batch, plus recorded losses (a spill with its reason). */
 export const BATCH_OUTPUT_ROLES = ["ESTER", "GLYCEROL_PHASE", "WASH_WATER", "RECOVERED_METHANOL", "LOSS"] as const satisfies readonly MoveRole[];
+/**
+ * The batch's unmeasured difference: charged minus everything measured out, booked by the service when
+ * the batch finishes (out to the site's DIFFERENCE holder, or in from outside the books when more was
+ * measured out than charged). Never typed.
+ */
+export const UNMEASURED_ROLE = "UNMEASURED" as const satisfies MoveRole;
 
 export const PERIOD_STATUSES = ["OPEN", "CLOSED"] as const;
 
@@ -75,6 +86,7 @@ export const LABELS: Record<string, string> = {
   OPEN: "Filling", FULL: "Full, awaiting haul", SHIPPED: "Hauled away",
   PICKUP: "Pickup", DELIVERY: "Delivery", LOT: "Feedstock lot", TANK: "Tank", BATCH: "Batch", PRODUCT_LOT: "Product lot",
   SHIPMENT: "Shipment", WASTE_CONTAINER: "Waste container", DISPOSAL: "Disposal", REAGENT_LOT: "Reagent lot", LOSS: "Recorded loss",
+  DIFFERENCE: "Unmeasured differences", UNMEASURED: "Unmeasured difference",
   RECEIPT: "Received", TRANSFER: "Transfer", OIL: "Oil charged", CATALYST: "Catalyst", ACID: "Acid",
   ESTER: "Ester out", RECOVERED_METHANOL: "Methanol recovered",
   HAZARDOUS: "Hazardous", NEEDS_CHARACTERISATION: "Needs characterisation", NON_HAZARDOUS: "Not hazardous",

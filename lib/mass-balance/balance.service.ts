@@ -13,6 +13,7 @@ import type { AccountingPeriodView, BalanceHolderRef, PeriodEventView } from "@/
 import { getLocalDate, refuseUnreasonablePeriod, resolvePeriodRange } from "@/lib/mass-balance/period";
 import { compareBookToGauges, computePeriodBalance, DEFAULT_CLOSURE_TOLERANCE, DEFAULT_HOLDER_CLASSES } from "@/lib/mass-balance/period-balance";
 import type { BatchBalance, Closure, ClosureTolerance, ProcessView, StockView } from "@/lib/mass-balance/period-balance";
+import type { Differences, GaugeDifference } from "@/lib/mass-balance/differences";
 import { ClosureToleranceSchema, PeriodRangeSchema } from "@/lib/mass-balance/period.schema";
 import { BalanceQuerySchema } from "@/lib/api/endpoints/trace";
 import type { BALANCE_PERIOD_KINDS } from "@/lib/api/endpoints/trace";
@@ -39,6 +40,7 @@ export interface MaterialBalanceRow {
   closingG: number;
   imbalanceG: number;
   closure: Closure;
+  differences: Differences;
 }
 
 export interface BatchRow extends BatchBalance {
@@ -61,6 +63,8 @@ export interface BalanceReport {
   tolerance: ClosureTolerance;
   /** Site stock: opening + everything in = everything out + closing (+ imbalance, 0 when the books are complete). */
   stock: StockView;
+  /** Unmeasured batch differences + receiving differences + gauge-vs-book differences, as a share of inputs. */
+  differences: Differences;
   inputs: BalanceLine[];
   inputsG: number;
   outputs: BalanceLine[];
@@ -95,7 +99,7 @@ const INTERNAL_LABELS: Partial<Record<MoveRole, string>> = {
   METHANOL: "Methanol charged",
   CATALYST: "Catalyst charged",
   ACID: "Acid charged",
-  WATER: "Process water charged",
+  WATER: "Water used in washing (from water lots to the wash-water stream)",
   ESTER: "Product (methyl ester) out of batches",
   GLYCEROL_PHASE: "Glycerol phase out of batches",
   WASH_WATER: "Wash water out of batches",
@@ -176,14 +180,17 @@ export async function getBalanceReport(db: Db, site: { id: number; timeZone: str
   ]);
   const events = accountingPeriod === null ? [] : await listPeriodEvents(db, site.id, { periodId: accountingPeriod.id });
   const span = { startMs: period.value.startMs, endMs: period.value.endMs };
-  const whole = computePeriodBalance({ holders: ledger.holders, moves: ledger.moves, period: span, scope: { siteId: site.id }, tolerance });
+  const gauge = readings.length === 0 ? null : compareBookToGauges({ holders: ledger.holders, moves: ledger.moves, readings, tolerance });
+  if (gauge !== null && !gauge.ok) return gauge;
+  const gauges: GaugeDifference[] = gauge === null ? [] : gauge.value.rows.map((r) => ({ holderId: r.holderId, bookG: r.bookG, measuredG: r.measuredG }));
+  const whole = computePeriodBalance({ holders: ledger.holders, moves: ledger.moves, period: span, scope: { siteId: site.id }, tolerance, gauges });
   if (!whole.ok) return whole;
   const stock = whole.value.stock;
 
   const materials = [...new Set(ledger.holders.filter((h) => DEFAULT_HOLDER_CLASSES[h.kind] === "STOCK" && h.materialKind).map((h) => h.materialKind as string))].sort();
   const byMaterial: MaterialBalanceRow[] = [];
   for (const materialKind of materials) {
-    const b = computePeriodBalance({ holders: ledger.holders, moves: ledger.moves, period: span, scope: { siteId: site.id, materialKind }, tolerance });
+    const b = computePeriodBalance({ holders: ledger.holders, moves: ledger.moves, period: span, scope: { siteId: site.id, materialKind }, tolerance, gauges });
     if (!b.ok) return b;
     const s = b.value.stock;
     if (s.openingG === 0 && s.closingG === 0 && s.receipts.totalG + s.transfersInG + s.returnsG + s.outputs.totalG + s.transfersOutG === 0) continue;
@@ -200,6 +207,7 @@ export async function getBalanceReport(db: Db, site: { id: number; timeZone: str
       closingG: s.closingG,
       imbalanceG: s.imbalanceG,
       closure: s.closure,
+      differences: b.value.differences,
     });
   }
 
@@ -207,6 +215,7 @@ export async function getBalanceReport(db: Db, site: { id: number; timeZone: str
     { key: "opening", label: "Opening stock", grams: stock.openingG },
     { key: "feedstock", label: "Feedstock received (pickups, deliveries, receiving differences)", grams: stock.receipts.feedstockG },
     { key: "reagents", label: "Reagents received (methanol, catalyst, acid, process water)", grams: stock.receipts.reagentG },
+    { key: "unmeasuredGains", label: "Unmeasured batch gains (more measured out than charged)", grams: stock.receipts.unmeasuredG },
     { key: "otherReceipts", label: "Other receipts", grams: stock.receipts.otherG },
     { key: "returns", label: "Returns into stock", grams: stock.returnsG },
     { key: "transfersIn", label: "Transfers in from outside the scope", grams: stock.transfersInG },
@@ -214,7 +223,8 @@ export async function getBalanceReport(db: Db, site: { id: number; timeZone: str
   const outputs: BalanceLine[] = [
     { key: "shipments", label: "Shipped (product)", grams: stock.outputs.shipmentG },
     { key: "disposals", label: "Hauled away as waste (glycerol phase, wash water)", grams: stock.outputs.disposalG },
-    { key: "losses", label: "Recorded losses (batch losses, receiving shortfalls)", grams: stock.outputs.lossG },
+    { key: "losses", label: "Recorded losses (spills with a reason, receiving shortfalls)", grams: stock.outputs.lossG },
+    { key: "unmeasured", label: "Unmeasured batch differences (charged less everything measured out)", grams: stock.outputs.unmeasuredG },
     { key: "otherOutputs", label: "Other outputs", grams: stock.outputs.otherG },
     { key: "transfersOut", label: "Transfers out of the scope", grams: stock.transfersOutG },
     { key: "closing", label: "Closing stock", grams: stock.closingG },
@@ -222,13 +232,12 @@ export async function getBalanceReport(db: Db, site: { id: number; timeZone: str
   const internal: BalanceLine[] = (Object.keys(INTERNAL_LABELS) as MoveRole[]).map((role) => ({ key: role, label: INTERNAL_LABELS[role] ?? labelOf(role), grams: stock.byRole[role].internalG }));
   const codeOf = (id: number) => ledger.refs.get(id)?.code ?? String(id);
   const proc = whole.value.process;
-  const gauge = readings.length === 0 ? null : compareBookToGauges({ holders: ledger.holders, moves: ledger.moves, readings, tolerance });
-  if (gauge !== null && !gauge.ok) return gauge;
   return ok({
     query: { period: q.period, year, month, quarter, start, end, warnPct: tolerance.warnPct, failPct: tolerance.failPct },
     period: { label: period.value.label, startsAt, endsAt },
     tolerance,
     stock,
+    differences: whole.value.differences,
     inputs,
     inputsG: inputs.reduce((s, l) => s + l.grams, 0),
     outputs,

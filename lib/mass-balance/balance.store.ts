@@ -43,7 +43,7 @@ export async function loadBalanceLedger(db: Db, siteId: number): Promise<Balance
   const [holders, pickups, lots, tanks, reagents, batches, waste, moves] = await Promise.all([
     db.holder.findMany({ where: { siteId }, select: { id: true, kind: true, code: true } }),
     db.pickup.findMany({ where: { siteId }, select: { holderId: true, material: true } }),
-    db.feedstockLot.findMany({ where: { siteId }, select: { holderId: true, material: true } }),
+    db.feedstockLot.findMany({ where: { siteId }, select: { holderId: true, material: true, origin: true } }),
     db.tank.findMany({ where: { siteId }, select: { holderId: true, service: true } }),
     db.reagentLot.findMany({ where: { siteId }, select: { holderId: true, reagent: true } }),
     db.batch.findMany({ where: { siteId }, select: { holderId: true, completedAt: true } }),
@@ -58,6 +58,12 @@ export async function loadBalanceLedger(db: Db, siteId: number): Promise<Balance
   for (const r of reagents) material.set(r.holderId, r.reagent);
   for (const w of waste) material.set(w.holderId, w.stream);
   const completed = new Map(batches.map((b) => [b.holderId, b.completedAt]));
+  // Receiving differences (lib/feedstock/lot.service.ts): a shortfall is a loss out of a lot, a surplus a
+  // receipt into a lot pooled from pickups (a delivery's receipt is the delivery itself).
+  const lotHolders = new Set(lots.map((l) => l.holderId));
+  const pooledLots = new Set(lots.filter((l) => l.origin !== "DELIVERY").map((l) => l.holderId));
+  const isReceivingDifference = (m: { role: string; fromHolderId: number | null; toHolderId: number }): boolean =>
+    (m.role === "LOSS" && m.fromHolderId !== null && lotHolders.has(m.fromHolderId)) || (m.role === "RECEIPT" && m.fromHolderId === null && pooledLots.has(m.toHolderId));
   const refs = new Map<number, BalanceHolderRef>();
   const list: BalanceHolder[] = holders.map((h) => {
     const kind = toHolderKind(h.kind);
@@ -70,7 +76,7 @@ export async function loadBalanceLedger(db: Db, siteId: number): Promise<Balance
     holders: list,
     moves: moves.filter((m) => !paired.has(m.id)).map((m) => {
       invariant(ROLE_SET.has(m.role), `unknown movement role ${m.role} in the database`);
-      return { id: m.id, at: m.at.getTime(), fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG, role: m.role as MoveRole };
+      return { id: m.id, at: m.at.getTime(), fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG, role: m.role as MoveRole, ...(isReceivingDifference(m) ? { receiving: true } : {}) };
     }),
     refs,
   };

@@ -7,6 +7,8 @@ import { failMany, ok } from "@/lib/errors";
 import type { DomainIssue, Result } from "@/lib/errors";
 import { BATCH_INPUT_ROLES, BATCH_OUTPUT_ROLES, MOVE_ROLES } from "@/lib/ledger/kinds";
 import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
+import { computeDifferences } from "@/lib/mass-balance/differences";
+import type { Differences, GaugeDifference } from "@/lib/mass-balance/differences";
 
 export interface BalanceHolder {
   id: number;
@@ -28,6 +30,8 @@ export interface BalanceMove {
   toHolderId: number;
   massG: number;
   role: MoveRole;
+  /** A receiving difference: the plant's measurement of a lot below (shortfall) or above (surplus) the pickup estimates. */
+  receiving?: boolean;
 }
 
 /** STOCK holders hold material on site; OUT holders are where material leaves the books (cumulative). */
@@ -45,6 +49,7 @@ export const DEFAULT_HOLDER_CLASSES: Readonly<Record<HolderKind, HolderClass>> =
   SHIPMENT: "OUT",
   DISPOSAL: "OUT",
   LOSS: "OUT",
+  DIFFERENCE: "OUT",
 };
 
 export type ReceiptClass = "FEEDSTOCK" | "REAGENT" | "OTHER";
@@ -61,6 +66,7 @@ export const RECEIPT_CLASS_BY_KIND: Readonly<Record<HolderKind, ReceiptClass>> =
   SHIPMENT: "OTHER",
   DISPOSAL: "OTHER",
   LOSS: "OTHER",
+  DIFFERENCE: "OTHER",
 };
 
 export interface ClosureTolerance {
@@ -102,6 +108,8 @@ export interface PeriodBalanceInput {
   period: { startMs: number; endMs: number };
   scope: BalanceScope;
   tolerance?: ClosureTolerance;
+  /** Book against measured stock of gauged tanks at the period end (latest reading), for the differences. */
+  gauges?: readonly GaugeDifference[];
 }
 
 export interface RoleFlow {
@@ -129,12 +137,12 @@ export interface NegativeStock {
 
 export interface StockView {
   openingG: number;
-  receipts: { totalG: number; feedstockG: number; reagentG: number; otherG: number };
+  receipts: { totalG: number; feedstockG: number; reagentG: number; otherG: number; unmeasuredG: number };
   /** From stock holders outside the scope (another site or material kind). */
   transfersInG: number;
   /** From OUT holders back into stock (e.g. a returned shipment). */
   returnsG: number;
-  outputs: { totalG: number; shipmentG: number; disposalG: number; lossG: number; otherG: number };
+  outputs: { totalG: number; shipmentG: number; disposalG: number; lossG: number; unmeasuredG: number; otherG: number };
   transfersOutG: number;
   closingG: number;
   deltaStockG: number;
@@ -151,10 +159,14 @@ export interface StockView {
 export interface BatchBalance {
   holderId: number;
   completedAt: number | null;
+  /** Charges (oil and reagents); an unmeasured gain is not an input. */
   inputsG: number;
+  /** Measured outputs and recorded losses; the booked unmeasured difference is not an output. */
   outputsG: number;
-  /** inputs − outputs: unaccounted for a finished batch, still held for one in progress. */
+  /** inputs − measured outputs: the unmeasured difference of a finished batch, still held for one in progress. */
   imbalanceG: number;
+  /** The unmeasured difference as booked (out to the site's difference account, less any unmeasured gain). */
+  unmeasuredG: number;
   inputsByRole: Partial<Record<MoveRole, number>>;
   outputsByRole: Partial<Record<MoveRole, number>>;
   /** Roles other than the usual batch input/output roles that touched the batch. */
@@ -181,6 +193,8 @@ export interface PeriodBalance {
   tolerance: ClosureTolerance;
   stock: StockView;
   process: ProcessView;
+  /** Unmeasured batch differences, receiving differences and gauge-vs-book differences, flagged: the closure that can fail. */
+  differences: Differences;
 }
 
 const CLOSURE_EPS = 1e-9;
@@ -372,8 +386,8 @@ export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBa
   const openingG = byHolder.reduce((s, h) => s + h.openingG, 0);
   const closingG = byHolder.reduce((s, h) => s + h.closingG, 0);
 
-  const receipts = { totalG: 0, feedstockG: 0, reagentG: 0, otherG: 0 };
-  const outputs = { totalG: 0, shipmentG: 0, disposalG: 0, lossG: 0, otherG: 0 };
+  const receipts = { totalG: 0, feedstockG: 0, reagentG: 0, otherG: 0, unmeasuredG: 0 };
+  const outputs = { totalG: 0, shipmentG: 0, disposalG: 0, lossG: 0, unmeasuredG: 0, otherG: 0 };
   let transfersInG = 0;
   let transfersOutG = 0;
   let returnsG = 0;
@@ -396,7 +410,8 @@ export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBa
       if (from === null) {
         receipts.totalG += m.massG;
         const rc = to.receiptClass ?? RECEIPT_CLASS_BY_KIND[to.kind];
-        if (rc === "FEEDSTOCK") receipts.feedstockG += m.massG;
+        if (m.role === "UNMEASURED") receipts.unmeasuredG += m.massG;
+        else if (rc === "FEEDSTOCK") receipts.feedstockG += m.massG;
         else if (rc === "REAGENT") receipts.reagentG += m.massG;
         else receipts.otherG += m.massG;
       } else if (classes[from.kind] === "OUT") {
@@ -411,6 +426,7 @@ export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBa
         if (to.kind === "SHIPMENT") outputs.shipmentG += m.massG;
         else if (to.kind === "DISPOSAL") outputs.disposalG += m.massG;
         else if (to.kind === "LOSS") outputs.lossG += m.massG;
+        else if (to.kind === "DIFFERENCE") outputs.unmeasuredG += m.massG;
         else outputs.otherG += m.massG;
       } else {
         transfersOutG += m.massG;
@@ -443,6 +459,7 @@ export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBa
     tolerance,
     stock,
     process: computeProcessView(scoped.filter((h) => h.kind === "BATCH"), moves, period, tolerance),
+    differences: computeDifferences({ holders, moves, period, inScope, ...(input.gauges ? { gauges: input.gauges } : {}), baseG: stockInG, tolerance, classify: classifyClosure }),
   });
 }
 
@@ -480,9 +497,12 @@ function computeProcessView(
     const unusual = new Set<MoveRole>();
     let bin = 0;
     let bout = 0;
+    let unmeasuredG = 0;
     let touched = false;
     for (const m of movesOf.get(b.id) ?? []) {
-      if (m.toHolderId === b.id) {
+      if (m.role === "UNMEASURED") {
+        unmeasuredG += m.fromHolderId === b.id ? m.massG : -m.massG;
+      } else if (m.toHolderId === b.id) {
         touched = true;
         bin += m.massG;
         addTo(inputsByRole, m.role, m.massG);
@@ -501,6 +521,7 @@ function computeProcessView(
       inputsG: bin,
       outputsG: bout,
       imbalanceG: bin - bout,
+      unmeasuredG,
       inputsByRole,
       outputsByRole,
       unusualRoles: [...unusual].sort(),

@@ -229,13 +229,14 @@ function stageOf(ref: HolderRef, tankService: ReadonlyMap<number, string>): numb
     case "SHIPMENT":
     case "DISPOSAL":
     case "LOSS":
+    case "DIFFERENCE":
       return 7;
     case "WASTE_CONTAINER":
       return 8;
   }
 }
 
-const LEFT_BOOKS_LABEL: Partial<Record<HolderKind, string>> = { SHIPMENT: "Shipped", DISPOSAL: "Hauled away as waste", LOSS: "Recorded losses" };
+const LEFT_BOOKS_LABEL: Partial<Record<HolderKind, string>> = { SHIPMENT: "Shipped", DISPOSAL: "Hauled away as waste", LOSS: "Recorded losses", DIFFERENCE: "Unmeasured batch differences" };
 
 function stageLabelOf(ref: HolderRef, stage: number): string {
   return (stage === 7 ? LEFT_BOOKS_LABEL[ref.kind] : undefined) ?? STAGES[stage] ?? labelOf(ref.kind);

@@ -22,7 +22,7 @@ vi.mock("@/lib/auth/request.service", async () => (await import("./support/reque
 
 const ANCHOR = new Date("2026-12-02T00:00:00Z");
 const NOW = new Date("2026-12-02T06:00:00Z");
-const OUT_KINDS = new Set(["SHIPMENT", "DISPOSAL", "LOSS"]);
+const OUT_KINDS = new Set(["SHIPMENT", "DISPOSAL", "LOSS", "DIFFERENCE"]);
 
 function value<T>(r: Result<T>): T {
   if (!r.ok) throw new Error(`expected success, got ${JSON.stringify(r.issues)}`);
@@ -44,7 +44,7 @@ function tableSums(t: ContributionTables): number[] {
 describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (provider) => {
   let t: TestDb;
   let site: { id: number; timeZone: string };
-  let moves: Array<{ id: number; at: Date; fromHolderId: number | null; toHolderId: number; massG: number }>;
+  let moves: Array<{ id: number; at: Date; fromHolderId: number | null; toHolderId: number; massG: number; role: string }>;
   let kindOf: Map<number, string>;
   const days = provider === "sqlite" ? 182 : 60;
 
@@ -54,7 +54,7 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
     await writeScenario(t.db, buildScenario({ anchor: ANCHOR, days }));
     const s = await t.db.site.findFirstOrThrow();
     site = { id: s.id, timeZone: s.timeZone };
-    moves = await t.db.movement.findMany({ select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true } });
+    moves = await t.db.movement.findMany({ select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, role: true } });
     kindOf = new Map((await t.db.holder.findMany({ select: { id: true, kind: true } })).map((h) => [h.id, h.kind]));
     session.db = t.db;
   }, 300_000);
@@ -99,8 +99,10 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
       // Shipments and disposals from their own tables, not from the ledger.
       expect(r.stock.outputs.shipmentG).toBe(sum(shipments.filter((s) => inRange(s.shippedAt)).map((s) => s.massG)));
       expect(r.stock.outputs.disposalG).toBe(sum(disposals.filter((d) => inRange(d.disposedAt)).map((d) => d.massG)));
-      // Batches finished in the month: everything charged was drawn off (the demo books the glycerol phase as the rest).
-      expect(r.process.imbalanceG).toBe(0);
+      // Batches finished in the month: charged − measured out = the unmeasured differences the service booked (hand sum over the ledger).
+      const unmeasured = sum(moves.filter((x) => x.role === "UNMEASURED" && inRange(x.at)).map((x) => (x.fromHolderId === null ? -x.massG : x.massG)));
+      expect(r.process.imbalanceG, `${m.year}-${m.month} unmeasured`).toBe(unmeasured);
+      expect(r.differences.unmeasuredG).toBe(unmeasured);
       for (const k of r.byMaterial) expect(k.imbalanceG, `${m.year}-${m.month} ${k.materialKind}`).toBe(0);
     }
     // After the last month, closing stock is the book stock the guarded ledger keeps on every holder.
@@ -109,6 +111,20 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
     const r = value(await getBalanceReport(t.db, site, { period: "MONTH", year: String(last.year), month: String(last.month) }, NOW));
     const holders = await t.db.holder.findMany({ select: { kind: true, stockG: true } });
     expect(r.stock.closingG).toBe(sum(holders.filter((h) => !OUT_KINDS.has(h.kind)).map((h) => h.stockG)));
+  });
+
+  it("shows realistic unmeasured differences: a few tenths of a percent, one batch above the warn level", async () => {
+    const batches = [];
+    for (const m of demoMonths()) {
+      const r = value(await getBalanceReport(t.db, site, { period: "MONTH", year: String(m.year), month: String(m.month) }, NOW));
+      batches.push(...r.process.completed);
+    }
+    expect(batches.length).toBeGreaterThan(10);
+    const pcts = batches.map((b) => (b.imbalanceG * 100) / b.inputsG);
+    // Common practice: warn above 0.5 % of the charge (the site's default tolerance).
+    expect(batches.filter((b) => b.closure.flag !== "OK").map((b) => b.code)).toEqual(["B-0006"]);
+    for (const p of pcts) expect(p).toBeGreaterThan(0);
+    expect(pcts.filter((p) => p <= 0.5).length).toBe(batches.length - 1);
   });
 
   it("closes November per material kind, and used cooking oil agrees with its pickups and lots", async () => {
@@ -145,7 +161,11 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
     for (const share of madeOf.shares.filter((s) => s.kind === "LOT")) {
       expect(r.all.byLot.find((row) => row.lotCode === share.code)?.grams, share.code).toBe(share.grams);
     }
-    for (const share of madeOf.shares.filter((s) => s.kind === "REAGENT_LOT")) {
+    // Water is never an ingredient of the product; methanol and catalyst are reagents, listed apart.
+    expect(madeOf.shares.every((s) => s.kind !== "REAGENT_LOT")).toBe(true);
+    expect(madeOf.reagents.some((s) => s.reagent === "WATER")).toBe(false);
+    expect(sum(madeOf.shares.map((s) => s.pct))).toBeCloseTo(100, 9);
+    for (const share of madeOf.reagents) {
       expect(r.reagents.find((row) => row.key === share.code)?.grams, share.code).toBe(share.grams);
     }
     // The graph apportions the same mass: everything arriving at the target is the target's mass.

@@ -108,7 +108,7 @@ describe.each(PROVIDERS)("corrections on %s", (provider) => {
     const history = await listRecordHistory(t.db, plant.siteId, "Movement", String(wrong.id));
     expect(history.at(-1)).toMatchObject({ action: "VOID", reason: "Typed 40 kg; the meter read 22 kg" });
     // Finish the batch (30 kg oil in): its charges and outputs are then not reversed here.
-    value(await completeBatch(t.db, plant.production, { batchCode: "B-1", completedAt: "2026-02-14T12:00:00Z", outputs: [{ role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-1", massKg: 29 }, { role: "LOSS", massKg: 1 }] }));
+    value(await completeBatch(t.db, plant.production, { batchCode: "B-1", completedAt: "2026-02-14T12:00:00Z", outputs: [{ role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-1", massKg: 29 }, { role: "LOSS", massKg: 1, reason: "spilled at the decanter" }] }));
     const oil = await t.db.movement.findFirstOrThrow({ where: { role: "OIL", toHolder: { kind: "BATCH", code: "B-1" } } });
     expect(issue(await reverseMovement(t.db, plant.production, { movementId: oil.id, reason: "wrong tank" }))).toEqual({ code: "CORRECTION.BATCH_NOT_RUNNING", field: "movementId" });
     const ester = await t.db.movement.findFirstOrThrow({ where: { role: "ESTER" } });

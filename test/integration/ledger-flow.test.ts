@@ -8,7 +8,7 @@ import { recordPickup } from "@/lib/feedstock/pickup.service";
 import { decideLot, receiveLotFromPickups } from "@/lib/feedstock/lot.service";
 import { recordTitration } from "@/lib/feedstock/titration.service";
 import { transferToTank } from "@/lib/tank/tank.service";
-import { completeBatch, planBatch, receiveReagent, startBatch } from "@/lib/batch/batch.service";
+import { completeBatch, correctBatchOutput, planBatch, receiveReagent, startBatch } from "@/lib/batch/batch.service";
 import { decideProductLot, recordQcResult, shipProduct } from "@/lib/product/product.service";
 import { demoQcResults } from "@/seeds/qc";
 import { openWasteContainer, recordDisposal } from "@/lib/waste/container.service";
@@ -114,7 +114,7 @@ describe.each(PROVIDERS)("movement ledger on %s", (provider) => {
     expect(codes(await transferToTank(t.db, plant.production, { fromKind: "TANK", fromCode: "T1", toTankCode: "P1", at: "2026-02-11T08:00:00Z", massKg: 1 }))).toEqual([{ code: "TANK.WRONG_SERVICE", field: "toTankCode" }]);
   });
 
-  it("runs a batch: charges are guarded, outputs must account for every kilogram", async () => {
+  it("runs a batch: charges are guarded; the measured outputs are the record and the rest is the unmeasured difference", async () => {
     value(await receiveReagent(t.db, plant.production, { code: "MEOH-1", reagent: "METHANOL", supplier: "S", strengthPct: 99.9, receivedAt: "2026-02-01T08:00:00Z", massKg: 500 }));
     value(await receiveReagent(t.db, plant.production, { code: "KOH-1", reagent: "KOH", supplier: "S", strengthPct: 90, receivedAt: "2026-02-01T08:00:00Z", massKg: 50 }));
     value(await receiveReagent(t.db, plant.production, { code: "W-1", reagent: "WATER", supplier: "mains", strengthPct: 100, receivedAt: "2026-02-01T08:00:00Z", massKg: 1000 }));
@@ -124,24 +124,52 @@ describe.each(PROVIDERS)("movement ledger on %s", (provider) => {
       { fromKind: "TANK", fromCode: "T1", role: "OIL", massKg: 800 },
       { fromKind: "REAGENT_LOT", fromCode: "MEOH-1", role: "METHANOL", massKg: 176 },
       { fromKind: "REAGENT_LOT", fromCode: "KOH-1", role: "CATALYST", massKg: 10 },
-      { fromKind: "REAGENT_LOT", fromCode: "W-1", role: "WATER", massKg: 160 },
     ];
-    expect(codes(await startBatch(t.db, plant.production, { batchCode: "B-1", startedAt: "2026-02-12T08:00:00Z", charges: [...charges, { fromKind: "REAGENT_LOT", fromCode: "KOH-1", role: "CATALYST", massKg: 41 }] }))).toEqual([{ code: "LEDGER.OVERDRAW", field: "charges.4.massKg" }]);
+    // Water is not an ingredient: charging it at the start is refused (it is used at the washing step).
+    const water = { fromKind: "REAGENT_LOT", fromCode: "W-1", role: "WATER", massKg: 160 };
+    expect(codes(await startBatch(t.db, plant.production, { batchCode: "B-1", startedAt: "2026-02-12T08:00:00Z", charges: [...charges, water] })).map((i) => i.field)).toEqual(["charges.3.role"]);
+    expect(codes(await startBatch(t.db, plant.production, { batchCode: "B-1", startedAt: "2026-02-12T08:00:00Z", charges: [...charges, { fromKind: "REAGENT_LOT", fromCode: "KOH-1", role: "CATALYST", massKg: 41 }] }))).toEqual([{ code: "LEDGER.OVERDRAW", field: "charges.3.massKg" }]);
     expect(await stock("REAGENT_LOT", "KOH-1")).toBe(50_000);
     value(await startBatch(t.db, plant.production, { batchCode: "B-1", startedAt: "2026-02-12T08:00:00Z", charges }));
-    expect(await stock("BATCH", "B-1")).toBe(1_146_000);
+    expect(await stock("BATCH", "B-1")).toBe(986_000);
     const outputs = [
       { role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-1", massKg: 780 },
       { role: "GLYCEROL_PHASE", toKind: "WASTE_CONTAINER", toCode: "GLY-1", massKg: 120 },
-      { role: "WASH_WATER", toKind: "WASTE_CONTAINER", toCode: "GLY-1", massKg: 165 },
+      // 165 kg drawn off after washing with 160 kg of water: 5 kg came out of the batch.
+      { role: "WASH_WATER", toKind: "WASTE_CONTAINER", toCode: "GLY-1", massKg: 165, waterFromCode: "W-1", waterKg: 160 },
       { role: "RECOVERED_METHANOL", toKind: "TANK", toCode: "M1", massKg: 78 },
     ];
-    expect(codes(await completeBatch(t.db, plant.production, { batchCode: "B-1", completedAt: "2026-02-12T12:00:00Z", outputs }))).toEqual([{ code: "BATCH.UNBALANCED", field: "outputs" }]);
+    // A recorded loss says what happened; the remainder is never typed.
+    expect(codes(await completeBatch(t.db, plant.production, { batchCode: "B-1", completedAt: "2026-02-12T12:00:00Z", outputs: [...outputs, { role: "LOSS", massKg: 1 }] }))).toEqual([{ code: "INPUT.INVALID", field: "outputs.4.reason" }]);
     expect(await t.db.productLot.count()).toBe(0);
-    // 1146 kg in = 780 + 120 + 165 + 78 + 3 kg recorded loss.
-    value(await completeBatch(t.db, plant.production, { batchCode: "B-1", completedAt: "2026-02-12T12:00:00Z", outputs: [...outputs, { role: "LOSS", massKg: 3 }] }));
+    // 986 kg charged − (780 + 120 + 5 + 78) kg measured = 3 kg unmeasured difference, booked by the service.
+    expect(value(await completeBatch(t.db, plant.production, { batchCode: "B-1", completedAt: "2026-02-12T12:00:00Z", outputs })).unmeasuredG).toBe(3_000);
     expect(await stock("BATCH", "B-1")).toBe(0);
+    expect(await stock("DIFFERENCE", "UNMEASURED")).toBe(3_000);
     expect(await stock("PRODUCT_LOT", "P-1")).toBe(780_000);
+    expect(await stock("REAGENT_LOT", "W-1")).toBe(840_000);
+    expect(await stock("WASTE_CONTAINER", "GLY-1")).toBe(285_000);
+    // The water went straight to the wash-water stream: no water movement into the batch.
+    const b1 = await t.db.holder.findFirstOrThrow({ where: { kind: "BATCH", code: "B-1" } });
+    expect(await t.db.movement.count({ where: { toHolderId: b1.id, role: "WATER" } })).toBe(0);
+  });
+
+  it("corrects a finished batch's output typed wrong with a correcting entry, re-booking its unmeasured difference", async () => {
+    const b1 = await t.db.holder.findFirstOrThrow({ where: { kind: "BATCH", code: "B-1" } });
+    const ester = await t.db.movement.findFirstOrThrow({ where: { fromHolderId: b1.id, role: "ESTER" } });
+    // Typed 780 for a ticket that read 779: the difference grows to 4 kg.
+    expect(value(await correctBatchOutput(t.db, plant.production, { batchCode: "B-1", movementId: ester.id, massKg: 779, reason: "ticket read 779 kg" })).unmeasuredG).toBe(4_000);
+    expect(await stock("PRODUCT_LOT", "P-1")).toBe(779_000);
+    expect((await t.db.productLot.findFirstOrThrow({ where: { code: "P-1" } })).massG).toBe(779_000);
+    expect(codes(await correctBatchOutput(t.db, plant.production, { batchCode: "B-1", movementId: ester.id, massKg: 780, reason: "again" }))).toEqual([{ code: "BATCH.OUTPUT_CORRECTED", field: "movementId" }]);
+    expect(codes(await correctBatchOutput(t.db, plant.production, { batchCode: "B-1", movementId: ester.id, massKg: 780, reason: "" }))[0]?.field).toBe("reason");
+    // The ticket was right after all: correct the correcting entry back; nothing is edited or deleted.
+    const again = await t.db.movement.findFirstOrThrow({ where: { fromHolderId: b1.id, role: "ESTER", reversesId: null, reversedBy: null } });
+    expect(value(await correctBatchOutput(t.db, plant.production, { batchCode: "B-1", movementId: again.id, massKg: 780, reason: "second look: the ticket read 780 kg" })).unmeasuredG).toBe(3_000);
+    expect(await stock("PRODUCT_LOT", "P-1")).toBe(780_000);
+    expect(await stock("BATCH", "B-1")).toBe(0);
+    expect(await t.db.movement.count({ where: { fromHolderId: b1.id, role: "ESTER" } })).toBe(3);
+    expect(await t.db.auditEvent.count({ where: { entity: "Batch", entityKey: "B-1", reason: { not: "" } } })).toBe(2);
   });
 
   it("releases product only after passing QC, then ships it", async () => {

@@ -125,13 +125,14 @@ describe.each(PROVIDERS)("batch planning from stock on %s", (provider) => {
         batchCode: "B-P1",
         completedAt: "2026-03-01T12:00:00Z",
         outputs: [
+          // Only the ester is measured here: the rest is booked as the batch's unmeasured difference.
           { role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-P1", massKg: esterG / 1000 },
-          { role: "LOSS", massKg: (charged - esterG) / 1000 },
         ],
       }),
     );
     const done = await getBatchDetail(t.db, plant.siteId, "B-P1");
     if (!done) throw new Error("batch missing");
+    expect(done.unmeasured.reduce((g, m) => g + m.massG, 0)).toBe(charged - esterG);
     const y = value(computeRecordedYield(done, done.charges, done.outputs));
     // Theory on the triolein model: triglyceride = oil × (1 − FFA − water), 1.00455 kg ester per kg (triolein model, IUPAC 2021 atomic weights, computed)
     const { ffaPct, waterPct } = (JSON.parse(done.recipeJson) as { card: { blend: { ffaPct: number; waterPct: number } } }).card.blend;

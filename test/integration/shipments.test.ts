@@ -44,7 +44,7 @@ describe.each(PROVIDERS)("shipments on %s", (provider) => {
     value(await receiveReagent(t.db, plant.production, { code: "MEOH-1", reagent: "METHANOL", supplier: "S", strengthPct: 99.9, receivedAt: "2026-02-01T08:00:00Z", massKg: 100 }));
     value(await planBatch(t.db, plant.production, { code: "B-1", plannedAt: "2026-02-14T07:00:00Z", targetOilKg: 250, catalyst: "KOH" }));
     value(await startBatch(t.db, plant.production, { batchCode: "B-1", startedAt: "2026-02-14T08:00:00Z", charges: [{ fromKind: "TANK", fromCode: "T1", role: "OIL", massKg: 250 }, { fromKind: "REAGENT_LOT", fromCode: "MEOH-1", role: "METHANOL", massKg: 50 }] }));
-    value(await completeBatch(t.db, plant.production, { batchCode: "B-1", completedAt: "2026-02-14T12:00:00Z", outputs: [{ role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-1", massKg: 100 }, { role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-2", massKg: 100 }, { role: "LOSS", massKg: 100 }] }));
+    value(await completeBatch(t.db, plant.production, { batchCode: "B-1", completedAt: "2026-02-14T12:00:00Z", outputs: [{ role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-1", massKg: 100 }, { role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-2", massKg: 100 }, { role: "LOSS", massKg: 100, reason: "spilled at the decanter" }] }));
     // P-1 is released (the release screen is tested elsewhere); P-2 stays on hold.
     await t.db.productLot.update({ where: { siteId_code: { siteId: plant.siteId, code: "P-1" } }, data: { status: "RELEASED", releasedAt: new Date("2026-02-15T09:00:00Z") } });
     value(await transferToTank(t.db, plant.production, { fromKind: "PRODUCT_LOT", fromCode: "P-1", toTankCode: "P1", at: "2026-02-15T10:00:00Z", massKg: 40 }));

@@ -51,7 +51,7 @@ describe.each(PROVIDERS)("waste containers on %s", (provider) => {
     value(await openWasteContainer(t.db, plant.compliance, { code: "gly-1", stream: "GLYCEROL_PHASE", location: "Glycerol pad", accumulationStart: "2026-02-10T06:00:00Z", capacityL: 1000 }));
     value(await planBatch(t.db, plant.production, { code: "B-1", plannedAt: "2026-02-14T07:00:00Z", targetOilKg: 30, catalyst: "KOH" }));
     value(await startBatch(t.db, plant.production, { batchCode: "B-1", startedAt: "2026-02-14T08:00:00Z", charges: [{ fromKind: "TANK", fromCode: "T1", role: "OIL", massKg: 30 }, { fromKind: "REAGENT_LOT", fromCode: "MEOH-1", role: "METHANOL", massKg: 8 }] }));
-    value(await completeBatch(t.db, plant.production, { batchCode: "B-1", completedAt: "2026-02-14T12:00:00Z", outputs: [{ role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-1", massKg: 29 }, { role: "GLYCEROL_PHASE", toKind: "WASTE_CONTAINER", toCode: "GLY-1", massKg: 8 }, { role: "LOSS", massKg: 1 }] }));
+    value(await completeBatch(t.db, plant.production, { batchCode: "B-1", completedAt: "2026-02-14T12:00:00Z", outputs: [{ role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-1", massKg: 29 }, { role: "GLYCEROL_PHASE", toKind: "WASTE_CONTAINER", toCode: "GLY-1", massKg: 8 }, { role: "LOSS", massKg: 1, reason: "spilled at the decanter" }] }));
   });
   afterAll(async () => {
     await t.drop();

@@ -21,7 +21,9 @@ describe("one table from issue code to HTTP status", () => {
     ["TANK.OVERFILL", 409],
     ["CORRECTION.ALREADY_REVERSED", 409],
     ["PRODUCT.DECIDED", 409],
-    ["BATCH.UNBALANCED", 422],
+    ["BATCH.WASH_BELOW_WATER", 422],
+    ["BATCH.NOT_FINISHED", 409],
+    ["BATCH.OUTPUT_CORRECTED", 409],
   ];
   it.each(cases)("%s → %i", (code, status) => {
     expect(statusFor([{ code, message: "m" }])).toBe(status);

@@ -5,3 +5,5 @@ export { RecordHeader } from "@/app/_ui/kit/record-header";
 export { StatusMark, statusFamily } from "@/app/_ui/kit/status-mark";
 export { Cautions } from "@/app/_ui/kit/cautions";
 export { ConfidenceMark } from "@/app/_ui/kit/confidence-mark";
+export { RowsForm } from "@/app/_ui/kit/rows-form";
+export type { RowColumn, RowField, RowValues } from "@/app/_ui/kit/rows-form";

@@ -12,6 +12,10 @@ import { CodeLink, Empty, Facts, MovementTable, NoSite, Note, Status } from "@/a
 import { BatchPlanSection } from "@/app/batches/[code]/batch-plan-section";
 import { TakeBackChargeForm } from "@/app/corrections/correction-forms";
 import type { MovementView } from "@/lib/ledger/movement.store";
+import { summarizeBatchClosure } from "@/lib/batch/closure";
+import { DEFAULT_CLOSURE_TOLERANCE } from "@/lib/mass-balance/period-balance";
+import { ClosureChip, ToleranceNote } from "@/app/balance/closure";
+import { CorrectOutputForm } from "@/app/batches/[code]/correct-output-form";
 
 export const dynamic = "force-dynamic";
 
@@ -32,14 +36,24 @@ function prettyRecipe(json: string): string | null {
 }
 
 export default async function BatchPage({ params }: Props) {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const b = await getBatchDetail(db, site.id, codeParam((await params).code));
   if (!b) notFound();
-  const madeOf = b.charges.length > 0 ? await getMadeOf(db, site.id, b.holderId, new Date()) : { totalG: 0, shares: [], order: "dated" as const };
+  const madeOf = b.charges.length > 0 ? await getMadeOf(db, site.id, b.holderId, new Date()) : { totalG: 0, shares: [], feedstockG: 0, reagents: [], order: "dated" as const };
   const tz = site.timeZone;
   const chargedG = b.charges.reduce((s, m) => s + m.massG, 0);
   const outG = b.outputs.reduce((s, m) => s + m.massG, 0);
+  const tolerance = DEFAULT_CLOSURE_TOLERANCE;
+  const closure = summarizeBatchClosure(
+    [
+      ...b.charges.map((m) => ({ role: m.role, massG: m.massG, direction: "IN" as const })),
+      ...b.outputs.map((m) => ({ role: m.role, massG: m.massG, direction: "OUT" as const })),
+      ...b.unmeasured.map((m) => ({ role: m.role, massG: m.massG, direction: m.to.id === b.holderId ? ("IN" as const) : ("OUT" as const) })),
+    ],
+    tolerance,
+  );
+  const finished = b.status === "COMPLETE";
   const recipe = prettyRecipe(b.recipeJson);
   return (
     <>
@@ -60,7 +74,7 @@ export default async function BatchPage({ params }: Props) {
           ["Acid pretreatment", b.pretreated ? "Yes" : "No"],
           ["Charged", kg(chargedG, 3)],
           ["Out", kg(outG, 3)],
-          ["Still in the reactor", kg(b.stockG, 3)],
+          ...(finished ? [] : ([["Still in the reactor", kg(b.stockG, 3)]] as Array<[string, string]>)),
         ]}
       />
       {b.notes ? <p>Notes: {b.notes}</p> : null}
@@ -96,6 +110,47 @@ export default async function BatchPage({ params }: Props) {
 
       <h2>Outputs</h2>
       {b.outputs.length === 0 ? <Empty>No outputs recorded yet.</Empty> : <MovementTable rows={b.outputs} timeZone={tz} side="from" />}
+      {b.corrected.length > 0 ? (
+        <>
+          <h3>Outputs corrected</h3>
+          <MovementTable rows={b.corrected} timeZone={tz} side="from" caption="Typed wrong and reversed; the corrected entries are in the outputs above." />
+        </>
+      ) : null}
+
+      {finished ? (
+        <section aria-labelledby="closure-h">
+          <h2 id="closure-h">Closure</h2>
+          <Facts
+            items={[
+              ["Charged", kg(closure.chargedG, 3)],
+              ["Weighed or gauged out", kg(closure.measuredG, 3)],
+              ["Recorded losses", kg(closure.recordedLossG, 3)],
+              ["Unmeasured difference", <span key="u" data-testid="batch-unmeasured">{kg(closure.differenceG, 3)}</span>],
+              ["Share of the charge", <ClosureChip key="c" closure={closure.closure} what="of the charge" />],
+            ]}
+          />
+          {closure.closure.flag !== "OK" ? (
+            <p className="warning" role="status">
+              The unmeasured difference is above the site&apos;s tolerance: check the weighbridge tickets and gauges, lines and filters for hold-up, and drains and valves for leaks.
+              If an output was typed wrong, correct it below.
+            </p>
+          ) : null}
+          <Note>
+            The unmeasured difference is what was charged less everything weighed or gauged out and the recorded losses; it is booked when the batch finishes, never typed.{" "}
+            <ToleranceNote tolerance={tolerance} />
+          </Note>
+          {user.role === "PRODUCTION" && b.outputs.length > 0 ? (
+            <>
+              <h3>Correct an output typed wrong</h3>
+              <p>
+                The wrong entry stays on record, reversed, and the output is booked again with the right mass at its original time; the unmeasured difference is worked out
+                again. Refused when the material has moved on since or the period is closed.
+              </p>
+              <CorrectOutputForm batchCode={b.code} outputs={b.outputs.map((m) => [String(m.id), `No. ${m.id} · ${labelOf(m.role)} → ${m.to.code} · ${kg(m.massG, 3)}`] as const)} />
+            </>
+          ) : null}
+        </section>
+      ) : null}
 
       <h2>Product lots</h2>
       {b.products.length === 0 ? (

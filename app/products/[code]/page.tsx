@@ -60,7 +60,7 @@ export default async function ProductLotPage({ params }: Props) {
   if (!qc) notFound();
   const { detail: p, spec, certificate: c } = qc;
   const [madeOf, specChoices] = await Promise.all([
-    p.incoming.length > 0 ? getMadeOf(db, site.id, p.holderId, user.now) : Promise.resolve({ totalG: 0, shares: [], order: "dated" as const }),
+    p.incoming.length > 0 ? getMadeOf(db, site.id, p.holderId, user.now) : Promise.resolve({ totalG: 0, shares: [], feedstockG: 0, reagents: [], order: "dated" as const }),
     listSpecChoices(db, site.id).then((list) => list.map((c) => [c.key, c.label] as const)),
   ]);
   const tz = site.timeZone;

@@ -410,10 +410,10 @@ export const LAB_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/batches/complete",
-    summary: "Records what came out; everything charged must be accounted for. Production.",
+    summary: "Records what was weighed or gauged out; the remainder is booked as the batch's unmeasured difference (never typed). Water used for washing goes from its water lot to the wash-water stream. Production.",
     tag: TAG_BATCH,
     input: BatchCompleteSchema,
-    output: z.object({ code: z.string(), productLots: z.array(z.string()) }),
+    output: z.object({ code: z.string(), productLots: z.array(z.string()), unmeasuredG: z.number().int() }),
   },
   {
     method: "get",

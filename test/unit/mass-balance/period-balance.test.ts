@@ -68,8 +68,8 @@ describe("computePeriodBalance — hand-worked January", () => {
 
   it("stock view: opening + receipts = outputs + transfers out + closing, by hand", () => {
     expect(b.stock.openingG).toBe(2_000_000);
-    expect(b.stock.receipts).toEqual({ totalG: 1_200_000 + 300_000 + 20_000, feedstockG: 1_200_000, reagentG: 320_000, otherG: 0 });
-    expect(b.stock.outputs).toEqual({ totalG: 900_000 + 150_000 + 10_000, shipmentG: 900_000, disposalG: 150_000, lossG: 10_000, otherG: 0 });
+    expect(b.stock.receipts).toEqual({ totalG: 1_200_000 + 300_000 + 20_000, feedstockG: 1_200_000, reagentG: 320_000, otherG: 0, unmeasuredG: 0 });
+    expect(b.stock.outputs).toEqual({ totalG: 900_000 + 150_000 + 10_000, shipmentG: 900_000, disposalG: 150_000, lossG: 10_000, unmeasuredG: 0, otherG: 0 });
     expect(b.stock.transfersOutG).toBe(100_000);
     expect(b.stock.transfersInG).toBe(0);
     // 2 000 000 + 1 520 000 − 1 060 000 − 100 000

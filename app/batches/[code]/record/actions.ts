@@ -3,7 +3,7 @@ import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { getDb } from "@/lib/db";
 import { requireRole } from "@/lib/auth/request.service";
-import { completeBatch, startBatch } from "@/lib/batch/batch.service";
+import { completeBatch, correctBatchOutput, startBatch } from "@/lib/batch/batch.service";
 import { readText, refused, toNumber } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 
@@ -52,7 +52,7 @@ function keptIndices(form: FormData, list: string, fields: readonly string[]): {
 }
 
 const CHARGE_FIELDS = ["fromKind", "fromCode", "role", "massKg"] as const;
-const OUTPUT_FIELDS = ["role", "toKind", "toCode", "massKg"] as const;
+const OUTPUT_FIELDS = ["role", "toKind", "toCode", "massKg", "reason", "waterFromCode", "waterKg"] as const;
 
 export async function startBatchAction(prev: FormState, form: FormData): Promise<FormState> {
   const batchCode = readText(form, "batchCode");
@@ -85,6 +85,8 @@ export async function completeBatchAction(prev: FormState, form: FormData): Prom
       role: r.role || undefined,
       ...(r.role === "LOSS" || !r.toCode ? {} : { toCode: r.toCode, toKind: r.toKind || undefined }),
       massKg: toNumber(r.massKg ?? ""),
+      ...(r.role === "LOSS" ? { reason: r.reason ?? "" } : {}),
+      ...(r.role === "WASH_WATER" && (r.waterFromCode || r.waterKg) ? { ...(r.waterFromCode ? { waterFromCode: r.waterFromCode } : {}), ...(r.waterKg ? { waterKg: toNumber(r.waterKg) } : {}) } : {}),
     })),
   });
   if (!result.ok) return refused(prev, values, result.issues, known, rowFieldMapper("outputs", kept));
@@ -93,4 +95,24 @@ export async function completeBatchAction(prev: FormState, form: FormData): Prom
   revalidatePath("/batches");
   // The batch page shows the outputs and the computed yield.
   redirect(`/batches/${encodeURIComponent(result.value.code)}`);
+}
+
+const CORRECTION_FIELDS = ["movementId", "massKg", "reason"] as const;
+
+/** A finished batch's output typed wrong: booked again with the right mass and a reason; its unmeasured difference follows. */
+export async function correctBatchOutputAction(prev: FormState, form: FormData): Promise<FormState> {
+  const values = { batchCode: readText(form, "batchCode"), movementId: readText(form, "movementId"), massKg: readText(form, "massKg"), reason: readText(form, "reason") };
+  const who = await requireRole(["PRODUCTION"]);
+  if (!who.ok) return refused(prev, values, who.issues, CORRECTION_FIELDS);
+  const result = await correctBatchOutput(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, {
+    batchCode: values.batchCode,
+    movementId: toNumber(values.movementId),
+    massKg: toNumber(values.massKg),
+    reason: values.reason,
+  });
+  if (!result.ok) return refused(prev, values, result.issues, CORRECTION_FIELDS);
+  revalidatePath(`/batches/${encodeURIComponent(values.batchCode)}`);
+  revalidatePath("/balance");
+  const kgText = (result.value.unmeasuredG / 1000).toLocaleString("en", { minimumFractionDigits: 3, maximumFractionDigits: 3 });
+  return { status: "saved", message: `Output corrected; the batch's unmeasured difference is now ${kgText} kg.`, values: {}, errors: {}, seq: prev.seq + 1 };
 }

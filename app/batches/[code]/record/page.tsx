@@ -5,6 +5,7 @@ import { getBatchDetail } from "@/lib/batch/batch.store";
 import { listCautions, readPlannedFigures, suggestCharges } from "@/lib/batch/plan";
 import { listOutputPlaces, listReagentStock } from "@/lib/batch/plan.store";
 import { CATALYSTS } from "@/lib/ledger/kinds";
+import { DEFAULT_CLOSURE_TOLERANCE } from "@/lib/mass-balance/period-balance";
 import type { Catalyst } from "@/lib/ledger/kinds";
 import { kg, num } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
@@ -82,23 +83,30 @@ export default async function RecordBatchPage({ params }: Props) {
   }
 
   if (b.status === "RUNNING") {
-    const places = await listOutputPlaces(db, site.id);
+    const [places, reagents] = await Promise.all([listOutputPlaces(db, site.id), listReagentStock(db, site.id)]);
     const chargedG = b.charges.reduce((s, m) => s + m.massG, 0);
     const firstOf = (kind: string, use: string) => places.find((p) => p.kind === kind && p.use === use)?.code ?? "";
     const suffix = b.code.replace(/^B-/, "");
+    const waterKg = planned && planned.washWaterKg > 0 ? planned.washWaterKg : 0;
+    const waterLot = reagents
+      .filter((r) => r.reagent === "WATER" && r.stockG >= waterKg * 1000 && r.stockG > 0)
+      .sort((a, c) => a.receivedAt.getTime() - c.receivedAt.getTime() || a.code.localeCompare(c.code))[0];
+    const tolerance = DEFAULT_CLOSURE_TOLERANCE;
     const initial: OutputRow[] = [
       { role: "ESTER", toKind: "PRODUCT_LOT", toCode: `P-${suffix}`, massKg: "" },
       { role: "GLYCEROL_PHASE", toKind: "WASTE_CONTAINER", toCode: firstOf("WASTE_CONTAINER", "GLYCEROL_PHASE"), massKg: "" },
-      { role: "WASH_WATER", toKind: "WASTE_CONTAINER", toCode: firstOf("WASTE_CONTAINER", "WASH_WATER"), massKg: "" },
+      { role: "WASH_WATER", toKind: "WASTE_CONTAINER", toCode: firstOf("WASTE_CONTAINER", "WASH_WATER"), massKg: "", waterFromCode: waterKg > 0 ? (waterLot?.code ?? "") : "", waterKg: waterKg > 0 ? fixed(waterKg) : "" },
       { role: "RECOVERED_METHANOL", toKind: "TANK", toCode: firstOf("TANK", "METHANOL"), massKg: "" },
-      { role: "LOSS", toKind: "", toCode: "", massKg: "" },
+      { role: "LOSS", toKind: "", toCode: "", massKg: "", reason: "" },
     ];
     return (
       <>
         {back}
         <h1>Finish batch {b.code}</h1>
         <p className="lede">
-          Record what came out. Everything charged ({kg(chargedG, 3)}) must be accounted for as ester, glycerol phase, wash water, recovered methanol or a recorded loss.
+          Record what you weighed or gauged out of the {kg(chargedG, 3)} charged. Whatever no measurement finds is booked for you as the batch&apos;s unmeasured difference
+          and flagged when it is above the site&apos;s tolerance — do not type it as a loss. Record a loss only for something that really happened (a spill, a leak) and say
+          what. Water used for washing comes from a water lot and goes with the wash water; it is never part of the product.
         </p>
         {planned ? (
           <Note>
@@ -116,7 +124,10 @@ export default async function RecordBatchPage({ params }: Props) {
               ))}
           </ul>
         </aside>
-        <FinishForm batchCode={b.code} chargedKg={chargedG / 1000} initial={initial} />
+        <FinishForm batchCode={b.code} chargedKg={chargedG / 1000} warnPct={tolerance.warnPct} initial={initial} />
+        <Note>
+          Closure tolerance: warn above {num(tolerance.warnPct, 2)} %, fail above {num(tolerance.failPct, 2)} % of the charge ({tolerance.source}).
+        </Note>
       </>
     );
   }

@@ -1,249 +1,146 @@
 "use client";
-import { startTransition, useActionState, useState } from "react";
 import { formatFixed } from "@/lib/quantity/units";
 import { completeBatchAction, startBatchAction } from "@/app/batches/[code]/record/actions";
-import { IDLE, toNumber } from "@/app/_ui/kit/form-state";
-import type { FormState } from "@/app/_ui/kit/form-state";
+import { toNumber } from "@/app/_ui/kit/form-state";
+import { RowsForm } from "@/app/_ui/kit/rows-form";
+import type { RowColumn, RowValues } from "@/app/_ui/kit/rows-form";
 
-export interface ChargeRow {
+export interface ChargeRow extends RowValues {
   fromKind: string;
   fromCode: string;
   role: string;
   massKg: string;
 }
 
-export interface OutputRow {
+export interface OutputRow extends RowValues {
   role: string;
   toKind: string;
   toCode: string;
   massKg: string;
 }
 
-const CHARGE_ROLES: Array<[string, string]> = [
+const CHARGE_ROLES = [
   ["OIL", "Oil"],
   ["METHANOL", "Methanol"],
   ["CATALYST", "Catalyst"],
   ["ACID", "Acid"],
-  ["WATER", "Water"],
-];
-const FROM_KINDS: Array<[string, string]> = [
+] as const;
+const FROM_KINDS = [
   ["LOT", "Feedstock lot"],
   ["TANK", "Tank"],
   ["REAGENT_LOT", "Reagent lot"],
-];
-const OUTPUT_ROLES: Array<[string, string]> = [
+] as const;
+const OUTPUT_ROLES = [
   ["ESTER", "Ester"],
   ["GLYCEROL_PHASE", "Glycerol phase"],
   ["WASH_WATER", "Wash water"],
   ["RECOVERED_METHANOL", "Recovered methanol"],
-  ["LOSS", "Loss"],
-];
-const TO_KINDS: Array<[string, string]> = [
+  ["LOSS", "Recorded loss (spill, leak)"],
+] as const;
+const TO_KINDS = [
   ["PRODUCT_LOT", "New product lot"],
   ["WASTE_CONTAINER", "Waste container"],
   ["TANK", "Tank"],
-  ["", "— (loss)"],
-];
+  ["", "— (recorded loss)"],
+] as const;
 
-function sumKg(rows: ReadonlyArray<{ massKg: string }>): number {
+function sumKg(rows: readonly RowValues[], key = "massKg"): number {
   return rows.reduce((s, r) => {
-    const n = toNumber(r.massKg);
+    const n = toNumber(r[key] ?? "");
     return s + (n !== undefined && Number.isFinite(n) ? n : 0);
   }, 0);
 }
 
-function Message({ state }: { state: FormState }) {
-  if (!state.message) return null;
-  return (
-    <p className={state.status === "saved" ? "form-ok" : "form-error"} role={state.status === "saved" ? "status" : "alert"}>
-      {state.message}
-    </p>
-  );
-}
-
-function Err({ state, name }: { state: FormState; name: string }) {
-  const m = state.status === "refused" ? state.errors[name] : undefined;
-  return m ? <span className="field-error">{m}</span> : null;
-}
+const CHARGE_COLUMNS: readonly RowColumn[] = [
+  { header: "Charge", fields: [{ key: "role", kind: "select", options: CHARGE_ROLES, label: (i) => `Charge ${i + 1}` }] },
+  { header: "Drawn from", fields: [{ key: "fromKind", kind: "select", options: FROM_KINDS, label: (i) => `Drawn from, row ${i + 1}` }] },
+  { header: "Code", fields: [{ key: "fromCode", kind: "text", label: (i) => `Code, row ${i + 1}` }] },
+  { header: "Mass (kg)", fields: [{ key: "massKg", kind: "number", label: (i) => `Mass in kg, row ${i + 1}` }] },
+];
 
 export function StartForm({ batchCode, initial }: { batchCode: string; initial: ChargeRow[] }) {
-  const [state, action, pending] = useActionState<FormState, FormData>(startBatchAction, IDLE);
-  const [rows, setRows] = useState<ChargeRow[]>(initial.length > 0 ? initial : [{ fromKind: "TANK", fromCode: "", role: "OIL", massKg: "" }]);
-  const set = (i: number, key: keyof ChargeRow) => (e: { target: { value: string } }) => setRows((rs) => rs.map((r, j) => (j === i ? { ...r, [key]: e.target.value } : r)));
-  const total = sumKg(rows);
   return (
-    <form
-      className="lab-form"
-      noValidate
-      aria-label="Record the start"
-      onSubmit={(e) => {
-        e.preventDefault();
-        const data = new FormData(e.currentTarget);
-        startTransition(() => action(data));
-      }}
-    >
-      <input type="hidden" name="batchCode" value={batchCode} />
-      <table className="rows-table">
-        <thead>
-          <tr>
-            <th scope="col">Charge</th>
-            <th scope="col">Drawn from</th>
-            <th scope="col">Code</th>
-            <th scope="col">Mass (kg)</th>
-            <th scope="col" />
-          </tr>
-        </thead>
-        <tbody>
-          {rows.map((r, i) => (
-            <tr key={i}>
-              <td>
-                <select name={`charges.${i}.role`} value={r.role} onChange={set(i, "role")} aria-label={`Charge ${i + 1}`}>
-                  {CHARGE_ROLES.map(([v, l]) => (
-                    <option key={v} value={v}>
-                      {l}
-                    </option>
-                  ))}
-                </select>
-              </td>
-              <td>
-                <select name={`charges.${i}.fromKind`} value={r.fromKind} onChange={set(i, "fromKind")} aria-label={`Drawn from, row ${i + 1}`}>
-                  {FROM_KINDS.map(([v, l]) => (
-                    <option key={v} value={v}>
-                      {l}
-                    </option>
-                  ))}
-                </select>
-              </td>
-              <td>
-                <input name={`charges.${i}.fromCode`} value={r.fromCode} onChange={set(i, "fromCode")} aria-label={`Code, row ${i + 1}`} aria-invalid={state.errors[`charges.${i}.fromCode`] ? true : undefined} />
-                <Err state={state} name={`charges.${i}.fromCode`} />
-              </td>
-              <td>
-                <input name={`charges.${i}.massKg`} value={r.massKg} inputMode="decimal" onChange={set(i, "massKg")} aria-label={`Mass in kg, row ${i + 1}`} aria-invalid={state.errors[`charges.${i}.massKg`] ? true : undefined} />
-                <Err state={state} name={`charges.${i}.massKg`} />
-              </td>
-              <td>
-                <button type="button" className="secondary" onClick={() => setRows((rs) => rs.filter((_, j) => j !== i))} aria-label={`Remove row ${i + 1}`}>
-                  Remove
-                </button>
-              </td>
-            </tr>
-          ))}
-        </tbody>
-        <tfoot>
-          <tr>
-            <td colSpan={3}>Total charged</td>
-            <td className="num">{formatFixed(total, 3)} kg</td>
-            <td />
-          </tr>
-        </tfoot>
-      </table>
-      <Err state={state} name="charges" />
-      <div className="button-row">
-        <button type="button" className="secondary" onClick={() => setRows((rs) => [...rs, { fromKind: "REAGENT_LOT", fromCode: "", role: "METHANOL", massKg: "" }])}>
-          Add a row
-        </button>
-        <button type="submit" className="primary" disabled={pending}>
-          {pending ? "Recording…" : "Record the start"}
-        </button>
-      </div>
-      <Message state={state} />
-    </form>
+    <RowsForm
+      action={startBatchAction}
+      list="charges"
+      label="Record the start"
+      submitLabel="Record the start"
+      hidden={{ batchCode }}
+      columns={CHARGE_COLUMNS}
+      initial={initial}
+      newRow={{ fromKind: "REAGENT_LOT", fromCode: "", role: "METHANOL", massKg: "" }}
+      removeLabel={(i) => `Remove row ${i + 1}`}
+      footer={(rows) => (
+        <tr>
+          <td colSpan={3}>Total charged</td>
+          <td className="num">{formatFixed(sumKg(rows), 3)} kg</td>
+          <td />
+        </tr>
+      )}
+    />
   );
 }
 
-export function FinishForm({ batchCode, chargedKg, initial }: { batchCode: string; chargedKg: number; initial: OutputRow[] }) {
-  const [state, action, pending] = useActionState<FormState, FormData>(completeBatchAction, IDLE);
-  const [rows, setRows] = useState<OutputRow[]>(initial);
-  const set = (i: number, key: keyof OutputRow) => (e: { target: { value: string } }) => setRows((rs) => rs.map((r, j) => (j === i ? { ...r, [key]: e.target.value } : r)));
-  const total = sumKg(rows);
-  const left = chargedKg - total;
+const isWash = (r: RowValues) => r.role === "WASH_WATER";
+const isLoss = (r: RowValues) => r.role === "LOSS";
+
+const OUTPUT_COLUMNS: readonly RowColumn[] = [
+  { header: "Output", fields: [{ key: "role", kind: "select", options: OUTPUT_ROLES, label: (i) => `Output ${i + 1}` }] },
+  { header: "Goes to", fields: [{ key: "toKind", kind: "select", options: TO_KINDS, label: (i) => `Goes to, row ${i + 1}`, showFor: (r) => !isLoss(r) }] },
+  { header: "Code", fields: [{ key: "toCode", kind: "text", label: (i) => `Destination code, row ${i + 1}`, showFor: (r) => !isLoss(r) }] },
+  { header: "Weighed or gauged (kg)", fields: [{ key: "massKg", kind: "number", label: (i) => `Output mass in kg, row ${i + 1}` }] },
+  {
+    header: "Washing water, or what was lost",
+    fields: [
+      { key: "waterFromCode", kind: "text", caption: "water lot", label: (i) => `Water lot, row ${i + 1}`, showFor: isWash },
+      { key: "waterKg", kind: "number", caption: "water used (kg)", label: (i) => `Water used in kg, row ${i + 1}`, showFor: isWash },
+      { key: "reason", kind: "text", caption: "what happened", label: (i) => `Reason for the loss, row ${i + 1}`, showFor: isLoss },
+    ],
+  },
+];
+
+/**
+ * The finish: what was weighed or gauged out. The remainder is shown as it will be booked — the batch's
+ * unmeasured difference — and flagged against the site's tolerance; nobody types it.
+ */
+export function FinishForm({ batchCode, chargedKg, warnPct, initial }: { batchCode: string; chargedKg: number; warnPct: number; initial: OutputRow[] }) {
   return (
-    <form
-      className="lab-form"
-      noValidate
-      aria-label="Record the finish"
-      onSubmit={(e) => {
-        e.preventDefault();
-        const data = new FormData(e.currentTarget);
-        startTransition(() => action(data));
-      }}
-    >
-      <input type="hidden" name="batchCode" value={batchCode} />
-      <table className="rows-table">
-        <thead>
-          <tr>
-            <th scope="col">Output</th>
-            <th scope="col">Goes to</th>
-            <th scope="col">Code</th>
-            <th scope="col">Mass (kg)</th>
-            <th scope="col" />
-          </tr>
-        </thead>
-        <tbody>
-          {rows.map((r, i) => (
-            <tr key={i}>
-              <td>
-                <select name={`outputs.${i}.role`} value={r.role} onChange={set(i, "role")} aria-label={`Output ${i + 1}`}>
-                  {OUTPUT_ROLES.map(([v, l]) => (
-                    <option key={v} value={v}>
-                      {l}
-                    </option>
-                  ))}
-                </select>
+    <RowsForm
+      action={completeBatchAction}
+      list="outputs"
+      label="Record the finish"
+      submitLabel="Record the finish"
+      hidden={{ batchCode }}
+      columns={OUTPUT_COLUMNS}
+      initial={initial}
+      newRow={{ role: "LOSS", toKind: "", toCode: "", massKg: "", reason: "" }}
+      removeLabel={(i) => `Remove output row ${i + 1}`}
+      footer={(rows) => {
+        const waterKg = sumKg(rows.filter(isWash), "waterKg");
+        const left = chargedKg + waterKg - sumKg(rows);
+        const sharePct = chargedKg > 0 ? (left * 100) / chargedKg : 0;
+        const over = Math.abs(sharePct) > warnPct;
+        return (
+          <>
+            <tr>
+              <td colSpan={3}>Measured out / charged{waterKg > 0 ? " + washing water" : ""}</td>
+              <td className="num">
+                {formatFixed(sumKg(rows), 3)} / {formatFixed(chargedKg + waterKg, 3)} kg
               </td>
-              <td>
-                <select name={`outputs.${i}.toKind`} value={r.toKind} onChange={set(i, "toKind")} aria-label={`Goes to, row ${i + 1}`}>
-                  {TO_KINDS.map(([v, l]) => (
-                    <option key={v} value={v}>
-                      {l}
-                    </option>
-                  ))}
-                </select>
+              <td colSpan={2} />
+            </tr>
+            <tr>
+              <td colSpan={3}>Unmeasured difference (booked when you record the finish)</td>
+              <td className={`num ${over ? "over-under" : ""}`} data-testid="left-to-account">
+                {formatFixed(left, 3)} kg
               </td>
-              <td>
-                <input name={`outputs.${i}.toCode`} value={r.toCode} onChange={set(i, "toCode")} aria-label={`Destination code, row ${i + 1}`} aria-invalid={state.errors[`outputs.${i}.toCode`] ? true : undefined} />
-                <Err state={state} name={`outputs.${i}.toCode`} />
-              </td>
-              <td>
-                <input name={`outputs.${i}.massKg`} value={r.massKg} inputMode="decimal" onChange={set(i, "massKg")} aria-label={`Output mass in kg, row ${i + 1}`} aria-invalid={state.errors[`outputs.${i}.massKg`] ? true : undefined} />
-                <Err state={state} name={`outputs.${i}.massKg`} />
-              </td>
-              <td>
-                <button type="button" className="secondary" onClick={() => setRows((rs) => rs.filter((_, j) => j !== i))} aria-label={`Remove output row ${i + 1}`}>
-                  Remove
-                </button>
+              <td colSpan={2} className={over ? "over-under" : ""}>
+                {formatFixed(sharePct, 2)} % of the charge{over ? ` — above the site's ${formatFixed(warnPct, 2)} %: weigh again if you can` : ""}
               </td>
             </tr>
-          ))}
-        </tbody>
-        <tfoot>
-          <tr>
-            <td colSpan={3}>Outputs recorded / charged</td>
-            <td className="num">
-              {formatFixed(total, 3)} / {formatFixed(chargedKg, 3)} kg
-            </td>
-            <td />
-          </tr>
-          <tr>
-            <td colSpan={3}>Still to account for</td>
-            <td className={`num ${Math.abs(left) < 0.0005 ? "" : "over-under"}`} data-testid="left-to-account">
-              {formatFixed(left, 3)} kg
-            </td>
-            <td />
-          </tr>
-        </tfoot>
-      </table>
-      <Err state={state} name="outputs" />
-      <div className="button-row">
-        <button type="button" className="secondary" onClick={() => setRows((rs) => [...rs, { role: "LOSS", toKind: "", toCode: "", massKg: "" }])}>
-          Add a row
-        </button>
-        <button type="submit" className="primary" disabled={pending}>
-          {pending ? "Recording…" : "Record the finish"}
-        </button>
-      </div>
-      <Message state={state} />
-    </form>
+          </>
+        );
+      }}
+    />
   );
 }
