@@ -73,6 +73,7 @@ const OUTPUT_LABEL: Readonly<Record<string, string>> = {
   WASH_WATER: "Wash water",
   RECOVERED_METHANOL: "Recovered methanol",
   LOSS: "Recorded losses",
+  UNMEASURED: "Unmeasured differences",
 };
 
 function output(what: string): Place {
@@ -109,6 +110,8 @@ export function placeOf(h: FlowHolder): Place | null {
       return output(h.material ?? "OTHER");
     case "LOSS":
       return output("LOSS");
+    case "DIFFERENCE":
+      return output("UNMEASURED");
     case "SHIPMENT":
       return { key: "end:SHIPPED", label: "Shipped", stage: 5 };
     case "DISPOSAL":
