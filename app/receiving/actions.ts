@@ -1,4 +1,5 @@
 "use server";
+import { screenAfterRecord } from "@/lib/screening/screening.service";
 import { revalidatePath } from "next/cache";
 import { getDb } from "@/lib/db";
 import { requireRole } from "@/lib/auth/request.service";
@@ -60,6 +61,7 @@ export async function receivePickupsAction(prev: ReceiveState, form: FormData): 
   };
   const result = values.tankCode ? await receiveLotIntoTank(db, actor, { ...input, tankCode: values.tankCode, acceptReason: values.acceptReason }) : await receiveLotFromPickups(db, actor, input);
   if (!result.ok) return refused(prev, values, result.issues);
+  await screenAfterRecord(db, actor, { lotCodes: [result.value.code] });
   revalidatePath("/tanks");
   revalidatePath("/receiving");
   revalidatePath("/lots");

@@ -81,6 +81,10 @@ export const LABELS: Record<string, string> = {
   // Tank gauges: how the volume was found.
   VOLUME: "Volume read directly", LEVEL: "Level through the calibration table",
   ACTIVE_CUSTOMER: "Active", INACTIVE_CUSTOMER: "No longer supplied",
+  // Source checks: a flag's state, and a source's standing after a confirmed flag.
+  FLAG_OPEN: "To review", FLAG_CONFIRMED: "Confirmed", FLAG_DISMISSED: "Dismissed", FLAG_CLEARED: "Cleared",
+  ON_WATCH: "On watch", CREDIT_WITHHELD: "Certified credit withheld",
+  FRYERS: "Fryers × litres × changes a week", MONTHLY: "Declared litres a month",
 };
 
 export function labelOf(code: string): string {

@@ -37,6 +37,24 @@ export const DEFAULT_SCREENING_SETTINGS: ScreeningSettings = {
   certificateMonths: defineSourced(12, "months a certificate covers", "certificates commonly run one year (from memory)", "from memory"),
 };
 
+/** Our own names for the settings, as the references page and the queue page show them. */
+export const SCREENING_SETTING_LABELS: Record<keyof ScreeningSettings, string> = {
+  capacityRatio: "Month or certificate period above declared capacity",
+  robustZ: "Far from the usual: robust standard deviations",
+  madFloorShare: "Smallest spread counted, share of the usual",
+  minHistory: "History needed before comparing",
+  minPeers: "Sources of the same kind needed",
+  freshAcidValue: "Acid value at or below which used oil looks fresh",
+  waterExcessPct: "Water above the source's usual",
+  insolublesExcessPct: "Insolubles above the source's usual",
+  densityMinKgM3: "Lowest density of vegetable oil",
+  densityMaxKgM3: "Highest density of vegetable oil",
+  shiftRatio: "Sudden change of level or interval",
+  shiftWindow: "Pickups compared for a sudden change",
+  hoursMargin: "Margin around opening hours",
+  certificateMonths: "Period a certificate covers",
+};
+
 /** How to show a setting's confidence: a published value, or one to check before relying on it. */
 export function confidenceOf(s: SourcedValue): "published" | "check" {
   return s.status === "verified" || s.status === "computed" ? "published" : "check";

@@ -9,6 +9,7 @@ import { day, kg, litres, when } from "@/app/_ui/format";
 import { codeParam, PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, Facts, NoSite, Pager } from "@/app/_ui/ui";
+import { SourceChecks } from "@/app/sources/[code]/source-checks";
 
 export const dynamic = "force-dynamic";
 
@@ -49,6 +50,9 @@ export default async function SourcePage({ params, searchParams }: Props) {
           ["Last pickup", when(source.lastPickupAt, tz)],
         ]}
       />
+      {collector || user.role === "PRODUCTION" ? null : (
+        <SourceChecks db={db} siteId={site.id} sourceId={source.id} code={source.code} timeZone={tz} compliance={user.role === "COMPLIANCE"} />
+      )}
       <h2>Pickups from this source</h2>
       {pickups.total === 0 ? (
         <Empty>No pickups recorded from this source yet.</Empty>
