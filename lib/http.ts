@@ -18,7 +18,7 @@ const BY_PREFIX: Array<[RegExp, number]> = [
   // Conflicts with the state of the books: over-draw, over-fill, a cycle, something already done.
   [/^LEDGER\.(OVERDRAW|OVERDRAW_IN_TIME|NOTHING_TO_MOVE|CYCLE)$/, 409],
   [/^TANK\.OVERFILL$/, 409],
-  [/^LOT\.NOT_ACCEPTED$/, 409],
+  [/^LOT\.(NOT_ACCEPTED|SCREENING_HOLD)$/, 409],
   [/^CORRECTION\.ALREADY_(REVERSED|VOIDED)$/, 409],
   [/^(PRODUCT|LOT)\.(ALREADY_)?DECIDED$/, 409],
   [/^PICKUP\.ALREADY_RECEIVED$/, 409],

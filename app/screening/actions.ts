@@ -83,5 +83,5 @@ export async function clearSourceAction(prev: FormState, form: FormData): Promis
   if (!r.ok) return refused(prev, values, r.issues, CLEAR_FIELDS);
   revalidatePath("/sources/[code]", "page");
   revalidatePath("/screening");
-  return { status: "saved", message: `Source cleared.${r.value.released.length > 0 ? ` Lots returned to accepted: ${r.value.released.join(", ")}.` : ""}`, values: {}, errors: {}, seq: prev.seq + 1 };
+  return { status: "saved", message: `Source cleared.${r.value.released.length > 0 ? ` Holds lifted (back to the lab's decision): ${r.value.released.join(", ")}.` : ""}`, values: {}, errors: {}, seq: prev.seq + 1 };
 }

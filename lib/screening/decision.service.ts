@@ -4,7 +4,7 @@ import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
-import { setLotStatus } from "@/lib/feedstock/lot.store";
+import { setLotScreeningHold } from "@/lib/feedstock/lot.store";
 import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
 import { parseInput } from "@/lib/ledger/parse";
 import { ClearSourceSchema, FlagDecisionSchema, SourceProfileSchema } from "@/lib/screening/screening.schema";
@@ -51,10 +51,10 @@ export async function decideFlag(db: Db, actor: Actor, input: unknown): Promise<
     const held: string[] = [];
     if (d.holdLots) {
       for (const lot of await listOnSiteLotsOf(tx, actor.siteId, source.id)) {
-        if (lot.status !== "ACCEPTED") continue;
-        await setLotStatus(tx, lot.id, "QUARANTINED");
+        if (lot.screeningHold) continue;
+        await setLotScreeningHold(tx, lot.id, true);
         held.push(lot.code);
-        await appendAudit(tx, actor, { action: "CHANGE", entity: "FeedstockLot", entityKey: lot.code, before: { status: "ACCEPTED" }, after: { status: "QUARANTINED" }, reason: `held by screening flag ${flag.id}` });
+        await appendAudit(tx, actor, { action: "CHANGE", entity: "FeedstockLot", entityKey: lot.code, before: { status: lot.status, screeningHold: false }, after: { status: "QUARANTINED", screeningHold: true }, reason: `held by source check flag ${flag.id}` });
       }
     }
     const watch = source.onWatch || d.watch;
@@ -69,7 +69,7 @@ export async function decideFlag(db: Db, actor: Actor, input: unknown): Promise<
   });
 }
 
-/** Clears a source: watch lifted, certified credit released, lots held by its flags returned to accepted. */
+/** Clears a source: watch lifted, certified credit released, its lots' holds lifted (they go back to the lab's decision). */
 export async function clearSource(db: Db, actor: Actor, input: unknown): Promise<Result<{ code: string; released: string[] }>> {
   const parsed = parseInput(ClearSourceSchema, input);
   if (!parsed.ok) return parsed;
@@ -82,10 +82,10 @@ export async function clearSource(db: Db, actor: Actor, input: unknown): Promise
     const heldCodes = new Set(confirmed.flatMap((f) => f.heldLots.split(",").filter(Boolean)));
     const released: string[] = [];
     for (const lot of await listOnSiteLotsOf(tx, actor.siteId, source.id)) {
-      if (!heldCodes.has(lot.code) || lot.status !== "QUARANTINED") continue;
-      await setLotStatus(tx, lot.id, "ACCEPTED");
+      if (!heldCodes.has(lot.code) || !lot.screeningHold) continue;
+      await setLotScreeningHold(tx, lot.id, false);
       released.push(lot.code);
-      await appendAudit(tx, actor, { action: "CHANGE", entity: "FeedstockLot", entityKey: lot.code, before: { status: "QUARANTINED" }, after: { status: "ACCEPTED" }, reason: `source ${c.sourceCode} cleared: ${c.reason}` });
+      await appendAudit(tx, actor, { action: "CHANGE", entity: "FeedstockLot", entityKey: lot.code, before: { screeningHold: true }, after: { screeningHold: false }, reason: `source ${c.sourceCode} cleared: ${c.reason}` });
     }
     for (const f of confirmed) await setFlagDecision(tx, f.id, { status: "CLEARED", decidedAt: actor.now, decidedById: actor.userId, reason: c.reason });
     await setSourceStanding(tx, source.id, { onWatch: false, creditWithheld: false });

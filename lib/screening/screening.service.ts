@@ -76,7 +76,7 @@ export async function runScreen(db: Db, actor: Actor, sourceIds: readonly number
   const loadIds = sourceIds === null ? null : sources.filter((s) => kinds.has(s.kind)).map((s) => s.id);
   const [pickups, lots] = await Promise.all([listScreenPickups(db, actor.siteId, loadIds, from, to), listScreenLots(db, actor.siteId, from, to)]);
   const pickupsBy = groupBy(pickups, (p) => [p.sourceId]);
-  const lotsBy = groupBy(lots, (l) => [...new Set([...(l.supplierId === null ? [] : [l.supplierId]), ...l.pickupSourceIds])]);
+  const lotsBy = groupBy(lots, (l) => [...new Set([...(l.supplierId === null ? [] : [l.supplierId]), ...l.mainSourceIds])]);
   const facts = new Map(sources.filter((s) => loadIds === null || loadIds.includes(s.id)).map((s) => [s.id, toFacts(s, pickupsBy.get(s.id) ?? [], lotsBy.get(s.id) ?? [], clock)]));
   const monthly = new Map([...facts].map(([id, f]) => [id, monthlyVolumes(f.pickups)]));
   const raised: Array<{ sourceId: number; flag: Flag }> = [];

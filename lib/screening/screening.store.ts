@@ -34,7 +34,8 @@ export interface LotScreenRow {
   densityKgM3: number;
   densitySource: string;
   supplierId: number | null;
-  pickupSourceIds: number[];
+  /** Sources that gave at least half of the lot's pickup litres: a pooled lot's lab results speak for its main source only. */
+  mainSourceIds: number[];
   acidValue: number | null;
   waterPct: number | null;
   insolublesPct: number | null;
@@ -63,7 +64,7 @@ export async function listScreenLots(db: Db, siteId: number, from: Date, to: Dat
     where: { siteId, receivedAt: { gte: from, lt: to } },
     select: {
       code: true, receivedAt: true, material: true, densityKgM3: true, densitySource: true, supplierId: true,
-      pickups: { select: { sourceId: true } },
+      pickups: { select: { sourceId: true, volumeMl: true } },
       titrations: { where: { voided: false }, select: { acidValue: true, testedAt: true }, orderBy: { testedAt: "desc" }, take: 1 },
       labTests: { where: { voided: false, kind: { in: ["WATER", "INSOLUBLES"] } }, select: { kind: true, valuePct: true, testedAt: true }, orderBy: { testedAt: "desc" } },
     },
@@ -76,11 +77,18 @@ export async function listScreenLots(db: Db, siteId: number, from: Date, to: Dat
     densityKgM3: r.densityKgM3,
     densitySource: r.densitySource,
     supplierId: r.supplierId,
-    pickupSourceIds: [...new Set(r.pickups.map((p) => p.sourceId))],
+    mainSourceIds: mainSources(r.pickups),
     acidValue: r.titrations[0]?.acidValue ?? null,
     waterPct: r.labTests.find((t) => t.kind === "WATER")?.valuePct ?? null,
     insolublesPct: r.labTests.find((t) => t.kind === "INSOLUBLES")?.valuePct ?? null,
   }));
+}
+
+function mainSources(pickups: ReadonlyArray<{ sourceId: number; volumeMl: number }>): number[] {
+  const total = pickups.reduce((a, p) => a + p.volumeMl, 0);
+  const by = new Map<number, number>();
+  for (const p of pickups) by.set(p.sourceId, (by.get(p.sourceId) ?? 0) + p.volumeMl);
+  return [...by].filter(([, ml]) => total > 0 && ml * 2 >= total).map(([id]) => id);
 }
 
 /** Source ids behind pickups and lots, for screening only those sources. */
@@ -170,10 +178,10 @@ export async function setSourceStanding(tx: Tx, sourceId: number, s: { onWatch?:
 }
 
 /** Accepted or awaiting-lab lots from the source with stock still on site. */
-export async function listOnSiteLotsOf(tx: Tx, siteId: number, sourceId: number): Promise<Array<{ id: number; code: string; status: string }>> {
+export async function listOnSiteLotsOf(tx: Tx, siteId: number, sourceId: number): Promise<Array<{ id: number; code: string; status: string; screeningHold: boolean }>> {
   return tx.feedstockLot.findMany({
     where: { siteId, status: { in: ["ACCEPTED", "QUARANTINED"] }, holder: { stockG: { gt: 0 } }, OR: [{ supplierId: sourceId }, { pickups: { some: { sourceId } } }] },
-    select: { id: true, code: true, status: true },
+    select: { id: true, code: true, status: true, screeningHold: true },
     orderBy: { code: "asc" },
   });
 }

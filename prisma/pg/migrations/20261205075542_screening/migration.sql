@@ -16,6 +16,9 @@ ADD COLUMN     "opensHour" INTEGER;
 -- AlterTable
 ALTER TABLE "Pickup" ADD COLUMN     "phoneDistanceBand" TEXT;
 
+-- AlterTable
+ALTER TABLE "FeedstockLot" ADD COLUMN     "screeningHold" BOOLEAN NOT NULL DEFAULT false;
+
 -- CreateTable
 CREATE TABLE "ScreeningFlag" (
     "id" SERIAL NOT NULL,

@@ -59,6 +59,39 @@ INSERT INTO "new_Source" ("active", "address", "certificateExpires", "certificat
 DROP TABLE "Source";
 ALTER TABLE "new_Source" RENAME TO "Source";
 CREATE UNIQUE INDEX "Source_siteId_code_key" ON "Source"("siteId", "code");
+CREATE TABLE "new_FeedstockLot" (
+    "id" INTEGER NOT NULL PRIMARY KEY AUTOINCREMENT,
+    "siteId" INTEGER NOT NULL,
+    "holderId" INTEGER NOT NULL,
+    "code" TEXT NOT NULL,
+    "material" TEXT NOT NULL,
+    "origin" TEXT NOT NULL,
+    "supplierId" INTEGER,
+    "deliveryDocument" TEXT,
+    "receivedAt" DATETIME NOT NULL,
+    "observedVolumeMl" INTEGER NOT NULL,
+    "observedTempC" REAL NOT NULL,
+    "densityKgM3" REAL NOT NULL,
+    "referenceTempC" REAL NOT NULL DEFAULT 15,
+    "densitySource" TEXT NOT NULL,
+    "standardVolumeMl" INTEGER NOT NULL,
+    "massG" INTEGER NOT NULL,
+    "status" TEXT NOT NULL,
+    "certified" BOOLEAN NOT NULL DEFAULT false,
+    "screeningHold" BOOLEAN NOT NULL DEFAULT false,
+    "notes" TEXT NOT NULL DEFAULT '',
+    "createdAt" DATETIME NOT NULL DEFAULT CURRENT_TIMESTAMP,
+    CONSTRAINT "FeedstockLot_siteId_fkey" FOREIGN KEY ("siteId") REFERENCES "Site" ("id") ON DELETE RESTRICT ON UPDATE CASCADE,
+    CONSTRAINT "FeedstockLot_holderId_fkey" FOREIGN KEY ("holderId") REFERENCES "Holder" ("id") ON DELETE RESTRICT ON UPDATE CASCADE,
+    CONSTRAINT "FeedstockLot_supplierId_fkey" FOREIGN KEY ("supplierId") REFERENCES "Source" ("id") ON DELETE SET NULL ON UPDATE CASCADE
+);
+INSERT INTO "new_FeedstockLot" ("certified", "code", "createdAt", "deliveryDocument", "densityKgM3", "densitySource", "holderId", "id", "massG", "material", "notes", "observedTempC", "observedVolumeMl", "origin", "receivedAt", "referenceTempC", "siteId", "standardVolumeMl", "status", "supplierId") SELECT "certified", "code", "createdAt", "deliveryDocument", "densityKgM3", "densitySource", "holderId", "id", "massG", "material", "notes", "observedTempC", "observedVolumeMl", "origin", "receivedAt", "referenceTempC", "siteId", "standardVolumeMl", "status", "supplierId" FROM "FeedstockLot";
+DROP TABLE "FeedstockLot";
+ALTER TABLE "new_FeedstockLot" RENAME TO "FeedstockLot";
+CREATE UNIQUE INDEX "FeedstockLot_holderId_key" ON "FeedstockLot"("holderId");
+CREATE INDEX "FeedstockLot_status_idx" ON "FeedstockLot"("status");
+CREATE INDEX "FeedstockLot_receivedAt_idx" ON "FeedstockLot"("receivedAt");
+CREATE UNIQUE INDEX "FeedstockLot_siteId_code_key" ON "FeedstockLot"("siteId", "code");
 PRAGMA foreign_keys=ON;
 PRAGMA defer_foreign_keys=OFF;
 
