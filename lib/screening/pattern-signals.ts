@@ -9,13 +9,13 @@ const DAY_MS = 86_400_000;
  * The first point where the median of the next `window` values differs from the median of the
  * 3 × window values before it by more than `ratio` (either way). Returns its index and both medians.
  */
-export function findShift(values: readonly number[], window: number, ratio: number): { index: number; before: number; after: number } | null {
+export function findShift(values: readonly number[], window: number, ratio: number, minChange = 0): { index: number; before: number; after: number } | null {
   for (let i = 3 * window; i + window <= values.length; i++) {
     const before = median(values.slice(i - 3 * window, i));
     const after = median(values.slice(i, i + window));
     if (before <= 0 || after <= 0) continue;
     const r = after / before;
-    if (r > ratio || r < 1 / ratio) return { index: i, before, after };
+    if ((r > ratio || r < 1 / ratio) && Math.abs(after - before) >= minChange) return { index: i, before, after };
   }
   return null;
 }
@@ -38,9 +38,10 @@ export function flagLevelShift(pickups: readonly PickupFact[], window: number, r
   ];
 }
 
-export function flagIntervalShift(pickups: readonly PickupFact[], window: number, ratio: number): Flag[] {
+/** A sudden change of interval, by ratio and by at least minDays: a daily route slipping a day over a weekend is normal. */
+export function flagIntervalShift(pickups: readonly PickupFact[], window: number, ratio: number, minDays: number): Flag[] {
   const gaps = pickups.slice(1).map((p, i) => (p.at - (pickups[i] as PickupFact).at) / DAY_MS);
-  const shift = findShift(gaps, window, ratio);
+  const shift = findShift(gaps, window, ratio, minDays);
   if (shift === null) return [];
   const first = pickups[shift.index + 1] as PickupFact;
   const involved = pickups.slice(shift.index + 1, shift.index + 1 + window);
@@ -48,7 +49,7 @@ export function flagIntervalShift(pickups: readonly PickupFact[], window: number
     {
       signal: "INTERVAL_SHIFT",
       subjectKey: first.code,
-      message: `From pickup ${first.code} pickups come every ${oneDecimal(shift.after)} days (median) against every ${oneDecimal(shift.before)} days over the ${3 * window} intervals before: ${oneDecimal(shift.after / shift.before)}× (flagged beyond ${oneDecimal(ratio)}× either way).`,
+      message: `From pickup ${first.code} pickups come every ${oneDecimal(shift.after)} days (median) against every ${oneDecimal(shift.before)} days over the ${3 * window} intervals before: ${oneDecimal(shift.after / shift.before)}× (flagged beyond ${oneDecimal(ratio)}× either way and ${oneDecimal(minDays)} days apart).`,
       measured: shift.after / shift.before,
       threshold: ratio,
       pickupCodes: involved.map((p) => p.code),

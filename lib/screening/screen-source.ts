@@ -31,7 +31,7 @@ export function screenSource(f: SourceFacts, ctx: ScreenContext): Flag[] {
     ...flagLabExcess(lots, "insolublesPct", { z, floorShare: floor, minHistory, minExcess: s.insolublesExcessPct.value }),
     ...flagDensityRange(lots, s.densityMinKgM3.value, s.densityMaxKgM3.value),
     ...flagLevelShift(f.pickups, s.shiftWindow.value, s.shiftRatio.value),
-    ...flagIntervalShift(f.pickups, s.shiftWindow.value, s.shiftRatio.value),
+    ...flagIntervalShift(f.pickups, s.shiftWindow.value, s.shiftRatio.value, s.intervalMinDays.value),
     ...flagOffHours(f.pickups, f.opensHour, f.closesHour, s.hoursMargin.value),
     ...flagPhoneFar(f.pickups),
     ...flagCertifiedOverCapacity(f.pickups, f.capacity, certificate, ctx.now, s.capacityRatio.value),

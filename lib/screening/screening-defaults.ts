@@ -16,6 +16,7 @@ export interface ScreeningSettings {
   densityMaxKgM3: SourcedValue;
   shiftRatio: SourcedValue;
   shiftWindow: SourcedValue;
+  intervalMinDays: SourcedValue;
   hoursMargin: SourcedValue;
   certificateMonths: SourcedValue;
 }
@@ -33,6 +34,7 @@ export const DEFAULT_SCREENING_SETTINGS: ScreeningSettings = {
   densityMaxKgM3: defineSourced(935, "kg/m³ at 15 °C", "vegetable oils 0.91–0.93 g/mL at 20 °C (Codex CXS 210-1999, from memory); margin is our own choice", "from memory"),
   shiftRatio: defineSourced(2, "× the earlier median", "no published threshold", "common practice", "our own choice"),
   shiftWindow: defineSourced(4, "latest pickups against the ones before", "no published value", "common practice", "our own choice"),
+  intervalMinDays: defineSourced(3, "days of change in the usual interval", "no published value; a daily route slipping a day over a weekend is normal", "common practice", "our own choice"),
   hoursMargin: defineSourced(1, "hours outside the declared opening hours", "no published value", "common practice", "our own choice"),
   certificateMonths: defineSourced(12, "months a certificate covers", "certificates commonly run one year (from memory)", "from memory"),
 };
@@ -51,6 +53,7 @@ export const SCREENING_SETTING_LABELS: Record<keyof ScreeningSettings, string> =
   densityMaxKgM3: "Highest density of vegetable oil",
   shiftRatio: "Sudden change of level or interval",
   shiftWindow: "Pickups compared for a sudden change",
+  intervalMinDays: "Smallest change of interval counted",
   hoursMargin: "Margin around opening hours",
   certificateMonths: "Period a certificate covers",
 };

@@ -11,7 +11,7 @@ export const SIGNAL_RULES: ReadonlyArray<{ signal: Signal; reads: string; settin
   { signal: "INSOLUBLES_HIGH", reads: "Latest insolubles result of a lot against the source's other lots", settings: ["robustZ", "insolublesExcessPct", "minHistory"] },
   { signal: "DENSITY_RANGE", reads: "Measured density at 15 °C of a vegetable oil lot", settings: ["densityMinKgM3", "densityMaxKgM3"] },
   { signal: "LEVEL_SHIFT", reads: "Median litres of the latest pickups against the pickups before", settings: ["shiftRatio", "shiftWindow"] },
-  { signal: "INTERVAL_SHIFT", reads: "Median days between the latest pickups against the intervals before", settings: ["shiftRatio", "shiftWindow"] },
+  { signal: "INTERVAL_SHIFT", reads: "Median days between the latest pickups against the intervals before", settings: ["shiftRatio", "shiftWindow", "intervalMinDays"] },
   { signal: "OFF_HOURS", reads: "Local time a pickup was logged against the declared opening hours", settings: ["hoursMargin"] },
   { signal: "PHONE_FAR", reads: "Distance band the collector's phone shared (never the track): flagged beyond 1 km", settings: [] },
   { signal: "CERTIFIED_OVER_CAPACITY", reads: "Certified litres over the certificate's period against capacity × months elapsed", settings: ["capacityRatio", "certificateMonths"] },

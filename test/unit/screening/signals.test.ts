@@ -131,9 +131,13 @@ describe("pattern breaks", () => {
   it("a sudden change of interval", () => {
     // weekly for 7 pickups (6 gaps of 7 d), then every 2 days: 2 / 7 = 0.29 < 1/2
     const at = [0, 7, 14, 21, 28, 35, 42, 44, 46].map((d) => Date.UTC(2026, 0, 1) + d * DAY);
-    const flags = flagIntervalShift(at.map((t, i) => pickup(i, 100, { at: t })), 2, 2);
+    const flags = flagIntervalShift(at.map((t, i) => pickup(i, 100, { at: t })), 2, 2, 3);
     expect(flags[0]?.subjectKey).toBe("P-7");
     expect(flags[0]?.measured).toBeCloseTo(2 / 7, 4);
+    // a daily route whose gaps go from 1 to 2.5 days: 2.5× but only 1.5 days apart — normal weekend slips (our own choice)
+    const daily = [0, 1, 2, 3, 4, 5, 6, 8.5, 11, 13.5].map((d) => Date.UTC(2026, 0, 1) + d * DAY);
+    expect(flagIntervalShift(daily.map((t, i) => pickup(i, 100, { at: t })), 2, 2, 3)).toEqual([]);
+    expect(flagIntervalShift(daily.map((t, i) => pickup(i, 100, { at: t })), 2, 2, 1)).toHaveLength(1);
   });
   it("opening hours with a margin, including hours past midnight", () => {
     expect(withinHours(9.5, 10, 23, 1)).toBe(true);
