@@ -27,8 +27,9 @@ export function flagFreshOil(lots: readonly LotFact[], freshAcidValue: number): 
 }
 
 /**
- * A lot whose water (or insolubles) is far above the source's other lots: robust z above z and at least
- * minExcess percentage points above their median, so a steady dry source does not flag a small change.
+ * A lot whose water (or insolubles) is far above the source's lots: the modified z-score against the median
+ * and 1.4826 × MAD of all its lots (Iglewicz & Hoaglin 1993: one pass, O(n log n)) above z, and at least
+ * minExcess percentage points above the median, so a steady dry source does not flag a small change.
  */
 export function flagLabExcess(
   lots: readonly LotFact[],
@@ -39,16 +40,17 @@ export function flagLabExcess(
   if (measured.length < opts.minHistory + 1) return [];
   const word = which === "waterPct" ? "water" : "insolubles";
   const flags: Flag[] = [];
+  const all = measured.map((o) => o[which] ?? 0);
+  const base = robustScore(0, all, opts.floorShare);
   for (const l of measured) {
     const v = l[which] ?? 0;
-    const others = measured.filter((o) => o !== l).map((o) => o[which] ?? 0);
-    const s = robustScore(v, others, opts.floorShare);
-    const excess = v - s.median;
+    const excess = v - base.median;
+    const s = { median: base.median, z: base.scale > 0 ? excess / base.scale : excess > 0 ? Infinity : 0 };
     if (s.z <= opts.z || excess < opts.minExcess) continue;
     flags.push({
       signal: which === "waterPct" ? "WATER_HIGH" : "INSOLUBLES_HIGH",
       subjectKey: l.code,
-      message: `Lot ${l.code} has ${twoDecimals(v)} % ${word} against this source's usual ${twoDecimals(s.median)} % over ${others.length} lots: ${twoDecimals(excess)} points and ${oneDecimal(s.z)} spreads above (flagged above ${oneDecimal(opts.z)} spreads and ${twoDecimals(opts.minExcess)} points).`,
+      message: `Lot ${l.code} has ${twoDecimals(v)} % ${word} against this source's usual ${twoDecimals(s.median)} % (median of its ${all.length} lots): ${twoDecimals(excess)} points and ${oneDecimal(s.z)} spreads above (flagged above ${oneDecimal(opts.z)} spreads and ${twoDecimals(opts.minExcess)} points).`,
       measured: excess,
       threshold: opts.minExcess,
       pickupCodes: [],

@@ -14,6 +14,29 @@ export interface ScreenContext {
   kindLabel: string;
 }
 
+/** Litres per local month of every source, by kind: built once per run; a source's peers are the others. */
+export type KindMonths = Map<string, Map<string, Array<{ code: string; litres: number }>>>;
+
+export function indexKindMonths(sources: ReadonlyArray<{ code: string; kind: string; months: ReadonlyArray<{ month: string; litres: number }> }>): KindMonths {
+  const out: KindMonths = new Map();
+  for (const s of sources) {
+    const byMonth = out.get(s.kind) ?? new Map<string, Array<{ code: string; litres: number }>>();
+    for (const m of s.months) {
+      const list = byMonth.get(m.month) ?? [];
+      list.push({ code: s.code, litres: m.litres });
+      byMonth.set(m.month, list);
+    }
+    out.set(s.kind, byMonth);
+  }
+  return out;
+}
+
+export function peersOf(index: KindMonths, kind: string, code: string): Map<string, number[]> {
+  const out = new Map<string, number[]>();
+  for (const [month, list] of index.get(kind) ?? []) out.set(month, list.filter((x) => x.code !== code).map((x) => x.litres));
+  return out;
+}
+
 export function screenSource(f: SourceFacts, ctx: ScreenContext): Flag[] {
   const s = ctx.settings;
   const months = monthlyVolumes(f.pickups);

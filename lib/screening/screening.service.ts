@@ -17,7 +17,7 @@ import type { ScreeningSettings } from "@/lib/screening/screening-defaults";
 import { ScreenPeriodSchema } from "@/lib/screening/screening.schema";
 import { findSourceIdsOf, listScreenLots, listScreenPickups, listScreenSources, saveFlags } from "@/lib/screening/screening.store";
 import type { LotScreenRow, PickupScreenRow, SourceScreenRow } from "@/lib/screening/screening.store";
-import { screenSource } from "@/lib/screening/screen-source";
+import { indexKindMonths, peersOf, screenSource } from "@/lib/screening/screen-source";
 import { getSiteById } from "@/lib/site/site.store";
 import type { Actor } from "@/lib/site/actor";
 
@@ -78,17 +78,12 @@ export async function runScreen(db: Db, actor: Actor, sourceIds: readonly number
   const pickupsBy = groupBy(pickups, (p) => [p.sourceId]);
   const lotsBy = groupBy(lots, (l) => [...new Set([...(l.supplierId === null ? [] : [l.supplierId]), ...l.mainSourceIds])]);
   const facts = new Map(sources.filter((s) => loadIds === null || loadIds.includes(s.id)).map((s) => [s.id, toFacts(s, pickupsBy.get(s.id) ?? [], lotsBy.get(s.id) ?? [], clock)]));
-  const monthly = new Map([...facts].map(([id, f]) => [id, monthlyVolumes(f.pickups)]));
+  const index = indexKindMonths([...facts.values()].map((f) => ({ code: f.code, kind: f.kind, months: monthlyVolumes(f.pickups) })));
   const raised: Array<{ sourceId: number; flag: Flag }> = [];
   for (const s of wanted) {
     const f = facts.get(s.id);
     if (f === undefined) continue;
-    const peerLitres = new Map<string, number[]>();
-    for (const other of sources) {
-      if (other.id === s.id || other.kind !== s.kind) continue;
-      for (const m of monthly.get(other.id) ?? []) peerLitres.set(m.month, [...(peerLitres.get(m.month) ?? []), m.litres]);
-    }
-    for (const flag of screenSource(f, { settings, now: actor.now.getTime(), peerLitres, kindLabel: labelOf(s.kind) })) raised.push({ sourceId: s.id, flag });
+    for (const flag of screenSource(f, { settings, now: actor.now.getTime(), peerLitres: peersOf(index, s.kind, s.code), kindLabel: labelOf(s.kind) })) raised.push({ sourceId: s.id, flag });
   }
   const created = await runInTransaction(db, (tx) => saveFlags(tx, actor.siteId, raised, actor.now));
   if (!created.ok) throw new Error(created.issues.map((i) => i.message).join("; "));

@@ -103,13 +103,14 @@ describe("quality", () => {
     expect(flags[0]?.message).toContain("acid value is 0.45 mg KOH/g, at or below the 0.60 mg KOH/g");
   });
   it("water far above the source's other lots", () => {
-    // others [0.30, 0.40, 0.35, 0.30, 0.45, 0.40]: median 0.375, |d| sorted [.025, .025, .025, .075, .075, .075] → MAD 0.05
-    // σ̂ = 0.07413 (floor 0.0375 lower); z = (4.0 − 0.375) / 0.07413 = 48.9; excess 3.625 points ≥ 1
+    // all 7 lots sorted [0.30, 0.30, 0.35, 0.40, 0.40, 0.45, 4.0]: median 0.40; |d| sorted [0, 0, .05, .05, .1, .1, 3.6] → MAD 0.05
+    // σ̂ = 1.4826 × 0.05 = 0.07413 (floor 0.1 × 0.40 = 0.04 lower); z = (4.0 − 0.40) / 0.07413 = 48.56; excess 3.60 points ≥ 1
     const water = [0.3, 0.4, 0.35, 0.3, 0.45, 0.4, 4.0].map((w, i) => lot(`L-${i}`, { waterPct: w }));
     const flags = flagLabExcess(water, "waterPct", { z: 3.5, floorShare: 0.1, minHistory: 6, minExcess: 1 });
     expect(flags.map((f) => f.subjectKey)).toEqual(["L-6"]);
-    expect(flags[0]?.measured).toBeCloseTo(3.625, 3);
-    // 0.9 % is many spreads above but only 0.525 points: not flagged
+    expect(flags[0]?.measured).toBeCloseTo(3.6, 3);
+    expect(flags[0]?.message).toContain("4.00 % water against this source's usual 0.40 % (median of its 7 lots): 3.60 points and 48.6 spreads above");
+    // 0.9 % is many spreads above but only 0.50 points above the median 0.40: not flagged
     const small = [0.3, 0.4, 0.35, 0.3, 0.45, 0.4, 0.9].map((w, i) => lot(`L-${i}`, { waterPct: w }));
     expect(flagLabExcess(small, "waterPct", { z: 3.5, floorShare: 0.1, minHistory: 6, minExcess: 1 })).toEqual([]);
   });
