@@ -56,7 +56,7 @@ export default async function ScreeningPage() {
     { key: "check", header: "Check", cell: (f) => label(f.signal) },
     { key: "state", header: "Decision", cell: (f) => <StatusMark code={`FLAG_${f.status}`} /> },
     { key: "by", header: "By", cell: (f) => f.decidedBy ?? "—" },
-    { key: "reason", header: "Reason", cell: (f) => f.reason || "—" },
+    { key: "reason", header: "Reason", cell: (f) => [f.reason, f.heldLots.length > 0 ? `lots held: ${f.heldLots.join(", ")}` : ""].filter(Boolean).join("; ") || "—" },
     { key: "found", header: "What was found", cell: (f) => f.message },
   ];
   const ruleRows = SIGNAL_RULES.map((r) => ({ ...r, key: r.signal }));
