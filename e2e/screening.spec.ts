@@ -58,7 +58,7 @@ test("compliance confirms one source flag and dismisses another, and sees both o
   await expect(dismiss.getByText("Reason: say why the flag is dismissed")).toBeVisible();
   await dismiss.getByLabel("Why it is dismissed").fill("holiday market month, agreed at the visit");
   await dismiss.getByRole("button", { name: "Dismiss flag" }).click();
-  await expect(page.getByRole("status").filter({ hasText: "Flag dismissed." })).toBeVisible();
+  await expect(page.locator("tbody tr").filter({ hasText: "Dismissed" }).filter({ hasText: "holiday market month, agreed at the visit" })).toBeVisible();
 
   // The source's page: standing and both decisions.
   await page.goto(`/sources/${SOURCE}`);
