@@ -20,7 +20,7 @@ describe.each(PROVIDERS)("source checks on the demo plant (%s)", (provider) => {
     t = await createTestDb(provider);
     siteId = (await writeScenario(t.db, buildScenario({ anchor: ANCHOR, days: 182 }))).siteId;
     compliance = (await t.db.user.findFirstOrThrow({ where: { role: "COMPLIANCE" } })).id;
-  }, 600_000);
+  }, 900_000);
   afterAll(async () => {
     await t.drop();
   });
