@@ -508,6 +508,7 @@ endSection("blend");
 
 // ---- summary -----------------------------------------------------------------------------------
 goalLines.push(...(await (await import("@/bench/grid")).runGridBench()));
+goalLines.push(...(await import("@/bench/screening")).runScreeningBench());
 console.log("\n== Goals ==");
 printTable([["goal", "case", "measured", "result"], ...goalLines]);
 const misses = goalLines.filter((g) => g[3].startsWith("MISS")).length;

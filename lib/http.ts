@@ -18,7 +18,7 @@ const BY_PREFIX: Array<[RegExp, number]> = [
   // Conflicts with the state of the books: over-draw, over-fill, a cycle, something already done.
   [/^LEDGER\.(OVERDRAW|OVERDRAW_IN_TIME|NOTHING_TO_MOVE|CYCLE)$/, 409],
   [/^TANK\.OVERFILL$/, 409],
-  [/^LOT\.NOT_ACCEPTED$/, 409],
+  [/^LOT\.(NOT_ACCEPTED|SCREENING_HOLD)$/, 409],
   [/^CORRECTION\.ALREADY_(REVERSED|VOIDED)$/, 409],
   [/^(PRODUCT|LOT)\.(ALREADY_)?DECIDED$/, 409],
   [/^PICKUP\.ALREADY_RECEIVED$/, 409],
@@ -28,6 +28,7 @@ const BY_PREFIX: Array<[RegExp, number]> = [
   [/^PRODUCT\.(NOT_RELEASABLE|DECIDED|NO_SPEC|NO_DEVIATION)$/, 409],
   [/^SITESPEC\.(NAME_TAKEN|STALE)$/, 409],
   [/^BATCH\.(NOT_FINISHED|OUTPUT_CORRECTED)$/, 409],
+  [/^SCREENING\.(ALREADY_DECIDED|NOT_CONFIRMED)$/, 409],
 ];
 
 /** 422 for bad input, 404/409 for state conflicts; any other expected refusal is a 422 with its code. */

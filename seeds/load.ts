@@ -18,6 +18,9 @@ import { insertSite, insertUser, countSites } from "@/lib/site/site.store";
 import type { Actor } from "@/lib/site/actor";
 import { SourceSchema } from "@/lib/source/source.schema";
 import { createSource } from "@/lib/source/source.service";
+import { SourceProfileSchema } from "@/lib/screening/screening.schema";
+import { saveSourceProfile } from "@/lib/screening/decision.service";
+import { runScreen } from "@/lib/screening/screening.service";
 import { parseInput } from "@/lib/ledger/parse";
 import { PickupSchema } from "@/lib/feedstock/pickup.schema";
 import { recordPickup } from "@/lib/feedstock/pickup.service";
@@ -43,6 +46,7 @@ type Handler = { schema: z.ZodType; apply: (db: Db, actor: Actor, input: unknown
 
 const HANDLERS: Record<Exclude<Op["kind"], "closePeriod">, Handler> = {
   source: { schema: SourceSchema, apply: createSource },
+  sourceProfile: { schema: SourceProfileSchema, apply: saveSourceProfile },
   tank: { schema: TankSchema, apply: createTank },
   reagent: { schema: ReagentLotSchema, apply: receiveReagent },
   pickup: { schema: PickupSchema, apply: (db, actor, input) => recordPickup(db, actor, input) },
@@ -103,6 +107,11 @@ export async function writeScenario(db: Db, ops: Op[], onProgress?: (done: numbe
     if (!result.ok) throw new SeedError(describe(i + 1, op, result.issues));
     if (onProgress && (i + 1) % 1000 === 0) onProgress(i + 1, ops.length);
   }
+  // One source check over the whole demo, as compliance would run it from the queue page.
+  const first = ops[0]?.at ?? new Date();
+  const last = ops[ops.length - 1]?.at ?? new Date();
+  const compliance = PEOPLE.find((p) => p.role === "COMPLIANCE")?.login ?? "";
+  await runScreen(db, { siteId: site.id, userId: ids.get(compliance) ?? 0, now: last }, null, first, new Date(last.getTime() + 86_400_000));
   return { siteId: site.id };
 }
 

@@ -2,6 +2,8 @@
 // services, parsed by the same schemas). Deterministic: the same anchor day gives the same plant.
 // The simulation keeps its own book of stocks so that every draw it writes is one the ledger accepts.
 import type { SourceInput } from "@/lib/source/source.schema";
+import type { SourceProfileInput } from "@/lib/screening/screening.schema";
+import { declaredProfile, FRESH_OIL_FFA, FRESH_OIL_SOURCE, HEAVY_WATER_PCT, TRIPLED_SOURCE, tripledMonth, WATER_SOURCE } from "@/seeds/screening-plant";
 import type { PickupInput } from "@/lib/feedstock/pickup.schema";
 import type { DeliveryLotInput, LabTestInput, LotFromPickupsInput } from "@/lib/feedstock/lot.schema";
 import type { LotTitrationInput } from "@/lib/feedstock/titration.service";
@@ -23,6 +25,7 @@ export type Login = (typeof PEOPLE)[number]["login"];
 
 export type Op =
   | { kind: "source"; at: Date; actor: Login; input: SourceInput }
+  | { kind: "sourceProfile"; at: Date; actor: Login; input: SourceProfileInput }
   | { kind: "tank"; at: Date; actor: Login; input: TankInput }
   | { kind: "reagent"; at: Date; actor: Login; input: ReagentLotInput }
   | { kind: "pickup"; at: Date; actor: Login; input: PickupInput }
@@ -124,8 +127,18 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
   const crushers = CRUSHERS.map((name, i) => ({ code: `C${String(i + 1).padStart(3, "0")}`, name, material: (i === 0 ? "SOYBEAN" : "CANOLA") as MaterialKind }));
   for (const s of renderers) ops.push({ kind: "source", at: at0, actor: "admin.jory", input: { code: s.code, name: s.name, kind: "RENDERER", materials: [s.material], address: "Rendering Lane, Otterholm Industrial Estate" } });
   for (const s of crushers) ops.push({ kind: "source", at: at0, actor: "admin.jory", input: { code: s.code, name: s.name, kind: "CRUSHER", materials: [s.material], address: "Mill Wharf, Quillmoor", certificateNo: `SC-CR-${s.code}`, certificateScheme: "Regional crop-oil scheme", certificateExpires: new Date(anchor + 300 * DAY) } });
-  ops.push({ kind: "source", at: at0, actor: "admin.jory", input: { code: "O001", name: OTHER_SUPPLIERS[0] ?? "Civic depot", kind: "OTHER", materials: ["USED_COOKING_OIL"], address: "Depot Road, Quillmoor", collectorNote: "Household oil drop-off bank; empty the 1 m³ bank." } });
+  ops.push({ kind: "source", at: at0, actor: "admin.jory", input: { code: "O001", name: OTHER_SUPPLIERS[0] ?? "Civic depot", kind: "DROP_OFF", materials: ["USED_COOKING_OIL"], address: "Depot Road, Quillmoor", collectorNote: "Household oil drop-off bank; empty the 1 m³ bank." } });
   collected.push({ code: "O001", material: "USED_COOKING_OIL", every: 14, litres: 600, nextDay: 5, certified: false });
+  // Compliance's declared capacities and hours (source checks), and the month the planted restaurant triples.
+  collected.forEach((s, i) => ops.push({ kind: "sourceProfile", at: at0, actor: "compliance.nell", input: declaredProfile({ ...s, kind: s.code.startsWith("R") ? "RESTAURANT" : s.code.startsWith("F") ? "FOOD_PROCESSOR" : "DROP_OFF" }, i, at0) }));
+  const tripled = tripledMonth(anchor);
+  const inTripledMonth = (day: number) => {
+    const d = new Date(start + day * DAY);
+    return d.getUTCFullYear() === tripled.year && d.getUTCMonth() === tripled.month;
+  };
+  const freshOilDay = days - 8;
+  let waterLots = 0;
+  let freshPlanted = false;
 
   // ---- tanks -------------------------------------------------------------------------------
   const tankDefs = [
@@ -254,23 +267,29 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
 
     // Pickups along the routes (not on Sundays), pooled into one lot per material in the afternoon.
     if (weekday !== 0) {
-      const todays: Array<{ code: string; material: MaterialKind; litres: number }> = [];
+      const todays: Array<{ code: string; material: MaterialKind; litres: number; source: string }> = [];
       for (const s of collected) {
         if (day < s.nextDay) continue;
         s.nextDay = day + s.every + (rand() < 0.15 ? 1 : 0);
         pickupSeq++;
         const code = `PU-${String(pickupSeq).padStart(5, "0")}`;
-        const litres = r1(s.litres * between(0.6, 1.25));
+        const litres = r1(s.litres * between(0.6, 1.25) * (s.code === TRIPLED_SOURCE && inTripledMonth(day) ? 3 : 1));
         const containers = Math.max(1, Math.round(litres / (s.material === "TRAP_GREASE" ? 200 : 60)));
         const observed = t(day, 7 + Math.floor(rand() * 8), Math.floor(rand() * 60));
         ops.push({
           kind: "pickup", at: new Date(observed.getTime() + (rand() < 0.05 ? 5 * 3_600_000 : 20 * 60_000)), actor: pick(collectors),
           input: { code, sourceCode: s.code, material: s.material, observedAt: observed, containers, volumeL: litres, tempC: r1(seasonTemp + between(-3, 4)), waterLook: rand() < 0.1 ? "TRACE" : "NONE", solidsLook: rand() < 0.15 ? "TRACE" : "NONE", notes: rand() < 0.04 ? "Lid left open; rainwater likely." : "" },
         });
-        todays.push({ code, material: s.material, litres });
+        todays.push({ code, material: s.material, litres, source: s.code });
       }
-      for (const material of ["USED_COOKING_OIL", "TRAP_GREASE"] as const) {
-        const group = todays.filter((p) => p.material === material);
+      // The drop-off bank's oil, and the planted fresh-oil collection, are kept in lots of their own.
+      const ownLot = (p: { source: string }) => p.source === WATER_SOURCE || (p.source === FRESH_OIL_SOURCE && day >= freshOilDay && !freshPlanted);
+      const groups = [
+        ...(["USED_COOKING_OIL", "TRAP_GREASE"] as const).map((material) => ({ material, group: todays.filter((p) => p.material === material && !ownLot(p)), planted: null as string | null })),
+        ...todays.filter(ownLot).map((p) => ({ material: p.material, group: [p], planted: p.source })),
+      ];
+      if (todays.some((p) => p.source === FRESH_OIL_SOURCE && ownLot(p))) freshPlanted = true;
+      for (const { material, group, planted } of groups) {
         if (group.length === 0) continue;
         lotSeq++;
         const code = `L-${String(lotSeq).padStart(4, "0")}`;
@@ -280,8 +299,12 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
         if (!m.ok) throw new Error("scenario: lot not measurable");
         const recvAt = t(day, 16, 30);
         ops.push({ kind: "lotFromPickups", at: recvAt, actor: "production.tess", input: { code, material, receivedAt: recvAt, observedVolumeL, observedTempC, certified: group.length > 0 && material === "USED_COOKING_OIL", notes: "", pickupCodes: group.map((p) => p.code) } });
-        const water = materialWater(material);
-        pendingLots.push({ code, grams: m.value.massG, material, ffa: materialFfa(material), water, reject: water > 2.5, day });
+        if (planted === WATER_SOURCE) waterLots++;
+        const usualWater = materialWater(material);
+        const usualFfa = materialFfa(material);
+        const water = planted === WATER_SOURCE && waterLots === 9 ? HEAVY_WATER_PCT : usualWater;
+        const ffa = planted === FRESH_OIL_SOURCE ? FRESH_OIL_FFA : usualFfa;
+        pendingLots.push({ code, grams: m.value.massG, material, ffa, water, reject: water > 2.5, day });
       }
     }
 

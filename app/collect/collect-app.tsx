@@ -11,6 +11,7 @@ import type { UnitSystem } from "@/lib/quantity/units";
 import { celsiusToFahrenheit, convertVolume, formatFixed, formatVolume } from "@/lib/quantity/units";
 import type { PhoneData, PhoneHistory, PhoneSource } from "@/app/collect/types";
 import { useOutbox } from "@/app/collect/use-outbox";
+import { DistanceQuestion, useDistanceBand } from "@/app/collect/distance-band";
 
 const DRAFT_KEY = "tracevat-collect-draft";
 
@@ -108,6 +109,7 @@ export function CollectApp({ data }: { data: PhoneData }) {
   const sourcesByCode = useMemo(() => new Map(data.sources.map((s) => [s.code, s])), [data.sources]);
   const known = useMemo(() => new Set(data.sources.map((s) => s.code)), [data.sources]);
 
+  const distance = useDistanceBand();
   const [draft, setDraft] = useState<Draft>(EMPTY);
   const [editingKey, setEditingKey] = useState<string | null>(null);
   const [errors, setErrors] = useState<FieldErrors>({});
@@ -177,7 +179,12 @@ export function CollectApp({ data }: { data: PhoneData }) {
       solidsLook: draft.solidsLook,
       notes,
       idempotencyKey: key,
+      ...(editing?.pickup.phoneDistanceBand ? { phoneDistanceBand: editing.pickup.phoneDistanceBand } : {}),
     };
+    if (!editing) {
+      const band = await distance.bandFor(source?.position ?? null);
+      if (band) input.phoneDistanceBand = band;
+    }
     const checked = checkOnPhone(input, known);
     if (!checked.ok) {
       const byField: FieldErrors = {};
@@ -276,6 +283,7 @@ export function CollectApp({ data }: { data: PhoneData }) {
           {sending ? "Sending…" : "Send now"}
         </button>
       </div>
+      <DistanceQuestion consent={distance.consent} answer={distance.answer} />
       <p className="collect-small muted">
         {offlineReady ? "This page also opens without a connection." : "Preparing the offline copy of this page…"}
         {storagePersisted === false ? " The browser may clear stored data when space runs low; send entries when you can." : ""}

@@ -47,6 +47,7 @@ export default async function CollectPage() {
       pickupEveryDays: s.pickupEveryDays,
       collectorNote: s.collectorNote,
       lastPickupAt: s.lastPickupAt?.toISOString() ?? null,
+      position: s.latitude === null || s.longitude === null ? null : { lat: s.latitude, lon: s.longitude },
       history: (history.get(s.code) ?? []).map(toPhone),
     })),
     route: route.map((r) => ({ code: r.code, dueDay: r.dueDay, daysOverdue: r.daysOverdue })),

@@ -21,6 +21,8 @@ export interface PhoneSource {
   pickupEveryDays: number | null;
   collectorNote: string;
   lastPickupAt: string | null;
+  /** Coordinates of the address, when known; only a distance band ever leaves the phone. */
+  position: { lat: number; lon: number } | null;
   history: PhoneHistory[];
 }
 

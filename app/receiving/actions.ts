@@ -1,4 +1,5 @@
 "use server";
+import { screenAfterRecord } from "@/lib/screening/screening.service";
 import { revalidatePath } from "next/cache";
 import { getDb } from "@/lib/db";
 import { requireRole } from "@/lib/auth/request.service";
@@ -42,6 +43,7 @@ export async function receivePickupsAction(prev: FormState, form: FormData): Pro
   };
   const result = values.tankCode ? await receiveLotIntoTank(db, actor, { ...input, tankCode: values.tankCode, acceptReason: values.acceptReason }) : await receiveLotFromPickups(db, actor, input);
   if (!result.ok) return refuse(result.issues);
+  await screenAfterRecord(db, actor, { lotCodes: [result.value.code] });
   revalidatePath("/tanks");
   revalidatePath("/receiving");
   revalidatePath("/lots");

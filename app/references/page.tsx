@@ -5,7 +5,7 @@ import type { Column } from "@/app/_ui/kit";
 import { loadSite } from "@/app/_ui/site";
 import { describeEditions, gradesText } from "@/lib/spec/catalogue";
 import type { CatalogueEdition, CatalogueProperty } from "@/lib/spec/catalogue";
-import { recipeDefaults, wasteDefaults } from "@/lib/spec/default-sources";
+import { recipeDefaults, screeningDefaults, wasteDefaults } from "@/lib/spec/default-sources";
 import type { DefaultGroup, DefaultSource, SourceLevel } from "@/lib/spec/default-sources";
 import { LOCAL_RULES_NOTE } from "@/lib/waste/waste-due";
 
@@ -107,6 +107,9 @@ export default async function ReferencesPage() {
 
       <h2>Recipe defaults</h2>
       <Defaults group={recipeDefaults()} />
+
+      <h2>Source check defaults</h2>
+      <Defaults group={screeningDefaults()} note="No standard defines implausible used cooking oil: where the trade publishes no threshold the value is our own choice and says so." />
     </>
   );
 }

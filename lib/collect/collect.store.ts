@@ -9,6 +9,9 @@ export interface CollectSource {
   pickupEveryDays: number | null;
   collectorNote: string;
   lastPickupAt: Date | null;
+  /** The address's coordinates, when compliance recorded them: the phone works out a distance band against them. */
+  latitude: number | null;
+  longitude: number | null;
 }
 
 /** Active sources the collector can choose, with what the route needs. */
@@ -16,7 +19,7 @@ export async function listCollectSources(db: Db, siteId: number): Promise<Collec
   const rows = await db.source.findMany({
     where: { siteId, active: true },
     orderBy: { code: "asc" },
-    select: { code: true, name: true, address: true, materials: true, pickupEveryDays: true, collectorNote: true, pickups: { orderBy: { observedAt: "desc" }, take: 1, select: { observedAt: true } } },
+    select: { code: true, name: true, address: true, materials: true, pickupEveryDays: true, collectorNote: true, latitude: true, longitude: true, pickups: { orderBy: { observedAt: "desc" }, take: 1, select: { observedAt: true } } },
   });
   return rows.map((r) => ({
     code: r.code,
@@ -26,6 +29,8 @@ export async function listCollectSources(db: Db, siteId: number): Promise<Collec
     pickupEveryDays: r.pickupEveryDays,
     collectorNote: r.collectorNote,
     lastPickupAt: r.pickups[0]?.observedAt ?? null,
+    latitude: r.latitude,
+    longitude: r.longitude,
   }));
 }
 

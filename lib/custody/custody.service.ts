@@ -100,7 +100,7 @@ export interface CustodyReport {
   claims: ClaimRow[];
   conversions: ConversionRow[];
   /** Feedstock that is not credited, and why. */
-  notCredited: { lotOnlyG: number; sourceOnlyG: number; surplusG: number };
+  notCredited: { lotOnlyG: number; sourceOnlyG: number; surplusG: number; withheldG: number; withheldSources: string[] };
   claimCheck: { ok: true; setKey: string; massG: number; check: ClaimCheck } | { ok: false; setKey: string; massG: number; issues: DomainIssue[] } | null;
   bookings: number;
   computeMs: number;
@@ -133,10 +133,17 @@ export async function getCustodyReport(db: Db, site: { id: number; timeZone: str
   const setOfOrigin = new Map<number, string>();
   const sets = new Map<string, { attributes: Record<string, string>; inputG: number; certificates: Map<string, { sources: Set<string>; grams: number }> }>();
   const inputs = new Map<string, { at: number; lotCode: string; setKey: string; material: string; grams: number }>();
-  const notCredited = { lotOnlyG: 0, sourceOnlyG: 0, surplusG: 0 };
+  const notCredited = { lotOnlyG: 0, sourceOnlyG: 0, surplusG: 0, withheldG: 0, withheldSources: [] as string[] };
+  const withheld = new Set<string>();
   for (const e of rows.entries) {
     const entry = facts.get(e.toHolderId);
     const enteredAt = e.at.getTime();
+    // A source whose credit compliance withholds after a confirmed screening flag earns none until cleared.
+    if (entry?.source?.creditWithheld && entry.lot?.certified) {
+      notCredited.withheldG += e.massG;
+      withheld.add(entry.source.code);
+      continue;
+    }
     const set = setOf(entry, enteredAt);
     if (set === null || entry?.lot == null) {
       if (entry?.lot?.certified && entry.kind === "LOT" && entry.lot.origin !== "DELIVERY") notCredited.surplusG += e.massG;
@@ -161,6 +168,7 @@ export async function getCustodyReport(db: Db, site: { id: number; timeZone: str
     inputs.set(key, row);
   }
   for (const s of sets.values()) s.attributes.certificates = [...s.certificates.keys()].sort().join(", ");
+  notCredited.withheldSources = [...withheld].sort();
 
   // ---- the certified share of receiving shortfalls and of the oil charged to batches, from the genealogy ----
   const batchByHolder = new Map(rows.batches.map((b) => [b.holderId, b]));

@@ -117,6 +117,7 @@ export async function decideLot(db: Db, actor: Actor, input: unknown): Promise<R
   return runInTransaction(db, async (tx) => {
     const lot = await requireLot(tx, actor.siteId, d.lotCode, "lotCode");
     if (lot.status !== "QUARANTINED") reject("LOT.ALREADY_DECIDED", `Lot ${d.lotCode} is already ${lot.status.toLowerCase()}`, "status");
+    if (d.status === "ACCEPTED" && lot.screeningHold) reject("LOT.SCREENING_HOLD", `Lot ${d.lotCode} is held after a confirmed source check; compliance clears the source before it can be accepted`, "status");
     if (d.status === "ACCEPTED") {
       const titrations = await countValidTitrations(tx, lot.id);
       if (titrations === 0) reject("LOT.NO_FFA", `Lot ${d.lotCode} has no FFA titration yet; titrate before accepting`, "status");

@@ -46,7 +46,7 @@ export async function insertLot(
 }
 
 export async function requireLot(tx: Tx, siteId: number, code: string, field: string) {
-  const lot = await tx.feedstockLot.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, holderId: true, status: true, material: true } });
+  const lot = await tx.feedstockLot.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, holderId: true, status: true, material: true, screeningHold: true } });
   if (!lot) reject("RECORD.NOT_FOUND", `Lot ${code} does not exist`, field);
   return lot;
 }
@@ -145,6 +145,11 @@ export async function countValidTitrations(tx: Tx, lotId: number): Promise<numbe
 
 export async function setLotStatus(tx: Tx, lotId: number, status: string): Promise<void> {
   await tx.feedstockLot.update({ where: { id: lotId }, data: { status } });
+}
+
+/** A source check's hold: the lot waits (awaiting lab) and cannot be accepted until the hold is lifted. */
+export async function setLotScreeningHold(tx: Tx, lotId: number, hold: boolean): Promise<void> {
+  await tx.feedstockLot.update({ where: { id: lotId }, data: hold ? { screeningHold: true, status: "QUARANTINED" } : { screeningHold: false } });
 }
 
 export async function insertTitration(

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { MATERIAL_KINDS } from "@/lib/ledger/kinds";
 import { code, oneOf, tempC, text, volumeL, when } from "@/lib/ledger/fields";
+import { DISTANCE_BANDS } from "@/lib/screening/pattern-signals";
 
 export const MAX_CONTAINERS = 200;
 /** One pickup fills at most a collection truck; larger figures are typing errors. */
@@ -25,6 +26,8 @@ export const PickupSchema = z
     solidsLook: z.enum(LOOKS, { error: "Solids: choose none, trace or layer" }).default("NONE"),
     notes: text("Notes", 500).default(""),
     idempotencyKey: z.string().uuid("Idempotency key must be a UUID").optional(),
+    /** How far the phone was from the source's address, as a band only, when the collector agreed to share it. */
+    phoneDistanceBand: z.enum(DISTANCE_BANDS, { error: "Phone distance: not a known distance band" }).optional(),
   })
   .superRefine((p, ctx) => {
     const seen = new Set<string>();

@@ -27,6 +27,7 @@ function pickupData(r: PickupInsert) {
     solidsLook: p.solidsLook,
     notes: p.notes,
     idempotencyKey: p.idempotencyKey ?? null,
+    phoneDistanceBand: p.phoneDistanceBand ?? null,
   };
 }
 

@@ -4,7 +4,7 @@
 export const SITE_ROLES = ["COLLECTOR", "PRODUCTION", "COMPLIANCE", "ADMIN"] as const;
 export type SiteRole = (typeof SITE_ROLES)[number];
 
-export const SOURCE_KINDS = ["RESTAURANT", "FOOD_PROCESSOR", "RENDERER", "CRUSHER", "OTHER"] as const;
+export const SOURCE_KINDS = ["RESTAURANT", "FOOD_PROCESSOR", "RENDERER", "CRUSHER", "DROP_OFF", "OTHER"] as const;
 export type SourceKind = (typeof SOURCE_KINDS)[number];
 
 export const MATERIAL_KINDS = ["USED_COOKING_OIL", "YELLOW_GREASE", "TRAP_GREASE", "TALLOW", "SOYBEAN", "CANOLA", "OTHER_OIL"] as const;
@@ -71,7 +71,7 @@ export const PERIOD_STATUSES = ["OPEN", "CLOSED"] as const;
 /** Our own plain-language labels, shown in tables and forms. */
 export const LABELS: Record<string, string> = {
   COLLECTOR: "Collector", PRODUCTION: "Production", COMPLIANCE: "Compliance", ADMIN: "Administrator",
-  RESTAURANT: "Restaurant", FOOD_PROCESSOR: "Food processor", RENDERER: "Renderer", CRUSHER: "Oilseed crusher", OTHER: "Other",
+  RESTAURANT: "Restaurant", FOOD_PROCESSOR: "Food processor", RENDERER: "Renderer", CRUSHER: "Oilseed crusher", DROP_OFF: "Drop-off bank", OTHER: "Other",
   USED_COOKING_OIL: "Used cooking oil", YELLOW_GREASE: "Yellow grease", TRAP_GREASE: "Trap grease", TALLOW: "Tallow",
   SOYBEAN: "Soybean oil", CANOLA: "Canola oil", OTHER_OIL: "Other oil",
   QUARANTINED: "Awaiting lab", ACCEPTED: "Accepted", REJECTED: "Rejected", CONSUMED: "Used up",
@@ -93,6 +93,10 @@ export const LABELS: Record<string, string> = {
   // Tank gauges: how the volume was found.
   VOLUME: "Volume read directly", LEVEL: "Level through the calibration table",
   ACTIVE_CUSTOMER: "Active", INACTIVE_CUSTOMER: "No longer supplied",
+  // Source checks: a flag's state, and a source's standing after a confirmed flag.
+  FLAG_OPEN: "To review", FLAG_CONFIRMED: "Confirmed", FLAG_DISMISSED: "Dismissed", FLAG_CLEARED: "Cleared",
+  ON_WATCH: "On watch", CREDIT_WITHHELD: "Certified credit withheld",
+  FRYERS: "Fryers × litres × changes a week", MONTHLY: "Declared litres a month",
 };
 
 export function labelOf(code: string): string {

@@ -2,6 +2,8 @@
 // limits (lib/spec), waste rule defaults (lib/waste/waste-due.ts) and recipe defaults
 // (lib/recipe/recipe-defaults.ts, lib/chemistry/physical-constants.ts). Nothing is copied here; only the
 // plain names of the settings are ours.
+import { DEFAULT_SCREENING_SETTINGS, SCREENING_SETTING_LABELS } from "@/lib/screening/screening-defaults";
+import type { ScreeningSettings } from "@/lib/screening/screening-defaults";
 import type { SourcedValue } from "@/lib/chemistry/sourced-value";
 import { KOH_EQUIVALENT_MASS_IN_STANDARDS, METHANOL_DENSITY_20C } from "@/lib/chemistry/physical-constants";
 import { DEFAULT_RECIPE_LIMITS, DEFAULT_RECIPE_SETTINGS } from "@/lib/recipe/recipe-defaults";
@@ -90,6 +92,18 @@ export function wasteDefaults(rules: WasteRuleSet = RULESET_US_FEDERAL_RCRA): De
 
 function sourced(prefix: string, key: string, label: string, v: SourcedValue): DefaultSource {
   return { anchor: `${prefix}-${key}`, label, value: valueText(v.value, v.unit), source: screenText(v.source), level: levelOf(v.status) };
+}
+
+export function screeningDefaults(): DefaultGroup {
+  const entries = Object.entries(DEFAULT_SCREENING_SETTINGS) as Array<[keyof ScreeningSettings, SourcedValue]>;
+  return {
+    key: "screening",
+    title: "Source check thresholds",
+    entries: entries.map(([k, v]) => {
+      const e = sourced("screening", k, SCREENING_SETTING_LABELS[k], v);
+      return v.note === undefined ? e : { ...e, source: `${e.source}; ${screenText(v.note)}` };
+    }),
+  };
 }
 
 export function recipeDefaults(): DefaultGroup {

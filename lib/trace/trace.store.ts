@@ -24,6 +24,8 @@ export interface SourceFacts {
   certificateScheme: string | null;
   certificateNo: string | null;
   certificateExpires: Date | null;
+  /** Compliance withholds this source's certified credit after a confirmed screening flag. */
+  creditWithheld: boolean;
 }
 
 export interface LotFacts {
@@ -48,7 +50,7 @@ export interface EntryHolderFacts {
   reagent: { reagent: string; supplier: string } | null;
 }
 
-const SOURCE_SELECT = { code: true, name: true, kind: true, certificateScheme: true, certificateNo: true, certificateExpires: true } as const;
+const SOURCE_SELECT = { code: true, name: true, kind: true, certificateScheme: true, certificateNo: true, certificateExpires: true, creditWithheld: true } as const;
 const LOT_SELECT = { holderId: true, code: true, material: true, origin: true, certified: true, receivedAt: true } as const;
 
 /** Facts about every holder of the site that material can enter the books at, by holder id. */

@@ -10,6 +10,7 @@ export const STATUS_FAMILY: Readonly<Record<string, "good" | "waiting" | "bad" |
   REJECTED: "bad", FAIL: "bad", VOID: "bad", OVERDUE: "bad", OUT_OF_SPEC: "bad",
   RUNNING: "active", OPEN: "active", REPORTED: "active",
   ACTIVE_CUSTOMER: "good",
+  FLAG_OPEN: "waiting", FLAG_CONFIRMED: "bad", FLAG_DISMISSED: "done", FLAG_CLEARED: "good", ON_WATCH: "waiting", CREDIT_WITHHELD: "bad",
   CLOSED: "done", CONSUMED: "done", SHIPPED: "done", NOT_JUDGED: "done", SUPERSEDED: "done",
 };
 

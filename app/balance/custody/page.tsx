@@ -259,6 +259,9 @@ function CustodyResult({ r, timeZone }: { r: CustodyReport; timeZone: string }) 
           Not credited: {kg(r.notCredited.lotOnlyG, 0)} in lots marked certified from sources without a valid certificate,{" "}
           {kg(r.notCredited.sourceOnlyG, 0)} from certified sources in lots not marked certified, {kg(r.notCredited.surplusG, 0)} measured
           above the pickups&apos; estimate at receiving (no source).
+          {r.notCredited.withheldG > 0
+            ? ` Withheld after confirmed screening flags: ${kg(r.notCredited.withheldG, 0)} from ${r.notCredited.withheldSources.join(", ")}, until compliance clears the source.`
+            : ""}
         </Note>
       </section>
 

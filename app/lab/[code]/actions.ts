@@ -1,4 +1,5 @@
 "use server";
+import { screenAfterRecord } from "@/lib/screening/screening.service";
 import { revalidatePath } from "next/cache";
 import { getDb } from "@/lib/db";
 import { requireRole } from "@/lib/auth/request.service";
@@ -30,6 +31,7 @@ export async function recordTitrationAction(prev: FormState, form: FormData): Pr
     basis: values.basis || undefined,
   });
   if (!result.ok) return refused(prev, values, result.issues, TITRATION_FIELDS, (f) => (f === "ffaPct" ? "titreMl" : f));
+  await screenAfterRecord(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { lotCodes: [lotCode] });
   paths(lotCode);
   return {
     status: "saved",
@@ -54,6 +56,7 @@ export async function recordLabTestAction(prev: FormState, form: FormData): Prom
     valuePct: readNumber(form, "valuePct"),
   });
   if (!result.ok) return refused(prev, values, result.issues, LAB_TEST_FIELDS);
+  await screenAfterRecord(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { lotCodes: [lotCode] });
   paths(lotCode);
   return { status: "saved", message: `Result saved: ${(values.kind ?? "").toLowerCase()} ${values.valuePct ?? ""} %.`, values: { ...values, valuePct: "" }, errors: {}, seq: prev.seq + 1 };
 }

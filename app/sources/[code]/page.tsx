@@ -10,6 +10,7 @@ import { codeParam, PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, Facts, NoSite, Pager } from "@/app/_ui/ui";
 import { SourceFfaPicture } from "@/app/sources/[code]/ffa-picture";
+import { SourceChecks } from "@/app/sources/[code]/source-checks";
 
 export const dynamic = "force-dynamic";
 
@@ -51,6 +52,9 @@ export default async function SourcePage({ params, searchParams }: Props) {
         ]}
       />
       {collector ? null : <SourceFfaPicture db={db} siteId={site.id} source={source} timeZone={tz} />}
+      {collector || user.role === "PRODUCTION" ? null : (
+        <SourceChecks db={db} siteId={site.id} sourceId={source.id} code={source.code} timeZone={tz} compliance={user.role === "COMPLIANCE"} />
+      )}
       <h2>Pickups from this source</h2>
       {pickups.total === 0 ? (
         <Empty>No pickups recorded from this source yet.</Empty>

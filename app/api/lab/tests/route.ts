@@ -5,6 +5,7 @@ import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.serv
 import { LabTestSchema } from "@/lib/feedstock/lot.schema";
 import { recordLabTest } from "@/lib/feedstock/lot.service";
 import { handled } from "@/lib/api/handle.service";
+import { screenAfterRecord } from "@/lib/screening/screening.service";
 
 export const dynamic = "force-dynamic";
 
@@ -17,5 +18,8 @@ export const POST = handled("POST /api/lab/tests", async (request: Request): Pro
   const input = await parseBody(request, LabTestSchema);
   if (!input.ok) return respond(input);
   const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
-  return respond(await recordLabTest(await getDb(), actor, input.value));
+  const db = await getDb();
+  const saved = await recordLabTest(db, actor, input.value);
+  if (saved.ok) await screenAfterRecord(db, actor, { lotCodes: [input.value.lotCode] });
+  return respond(saved);
 });

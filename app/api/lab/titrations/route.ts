@@ -4,6 +4,7 @@ import { requireRole } from "@/lib/auth/request.service";
 import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { LotTitrationSchema, recordTitration } from "@/lib/feedstock/titration.service";
 import { handled } from "@/lib/api/handle.service";
+import { screenAfterRecord } from "@/lib/screening/screening.service";
 
 export const dynamic = "force-dynamic";
 
@@ -16,5 +17,8 @@ export const POST = handled("POST /api/lab/titrations", async (request: Request)
   const input = await parseBody(request, LotTitrationSchema);
   if (!input.ok) return respond(input);
   const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
-  return respond(await recordTitration(await getDb(), actor, input.value));
+  const db = await getDb();
+  const saved = await recordTitration(db, actor, input.value);
+  if (saved.ok) await screenAfterRecord(db, actor, { lotCodes: [input.value.lotCode] });
+  return respond(saved);
 });

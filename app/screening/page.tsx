@@ -1,0 +1,120 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { listFlags } from "@/lib/screening/screening.store";
+import type { FlagRow } from "@/lib/screening/screening.store";
+import { SIGNAL_LABELS } from "@/lib/screening/screening";
+import type { Signal } from "@/lib/screening/screening";
+import { confidenceOf, DEFAULT_SCREENING_SETTINGS, SCREENING_SETTING_LABELS } from "@/lib/screening/screening-defaults";
+import { SIGNAL_RULES } from "@/lib/screening/signal-rules";
+import { day, when } from "@/app/_ui/format";
+import { loadSite } from "@/app/_ui/site";
+import { NoSite } from "@/app/_ui/ui";
+import { ActionForm, Field } from "@/app/_ui/kit/action-form";
+import { ConfidenceMark, DataTable, StatusMark } from "@/app/_ui/kit";
+import type { Column } from "@/app/_ui/kit";
+import { decideFlagAction, screenPeriodAction } from "@/app/screening/actions";
+import { FlagLinks } from "@/app/screening/flag-links";
+
+export const dynamic = "force-dynamic";
+export const metadata: Metadata = { title: "Source checks" };
+
+function DecideForms({ flag }: { flag: FlagRow }) {
+  return (
+    <details className="decide">
+      <summary>Decide on flag {flag.id}</summary>
+      <ActionForm action={decideFlagAction} submitLabel="Confirm flag" label={`Confirm flag ${flag.id}`} hidden={{ flagId: String(flag.id), decision: "CONFIRM" }}>
+        <Field name="watch" label="Put the source on watch" type="checkbox" defaultValue="yes" />
+        <Field name="holdLots" label="Hold its lots still on site" type="checkbox" />
+        <Field name="withholdCredit" label="Withhold its certified credit until cleared" type="checkbox" />
+        <Field name="reason" label="Note" type="textarea" maxLength={500} />
+      </ActionForm>
+      <ActionForm action={decideFlagAction} submitLabel="Dismiss flag" label={`Dismiss flag ${flag.id}`} hidden={{ flagId: String(flag.id), decision: "DISMISS" }}>
+        <Field name="reason" label="Why it is dismissed" type="textarea" maxLength={500} required />
+      </ActionForm>
+    </details>
+  );
+}
+
+export default async function ScreeningPage() {
+  const { db, site, user } = await loadSite();
+  if (!site) return <NoSite />;
+  const tz = site.timeZone;
+  const [open, decided] = await Promise.all([listFlags(db, site.id, { status: ["OPEN"] }), listFlags(db, site.id, { status: ["CONFIRMED", "DISMISSED", "CLEARED"], take: 50 })]);
+  const compliance = user.role === "COMPLIANCE";
+  const label = (s: string) => SIGNAL_LABELS[s as Signal] ?? s;
+  const openColumns: Array<Column<FlagRow>> = [
+    { key: "raised", header: "Raised", cell: (f) => <span className="nowrap">{day(f.raisedAt, tz)}</span> },
+    { key: "source", header: "Source", cell: (f) => <Link href={`/sources/${encodeURIComponent(f.sourceCode)}`}>{f.sourceCode}</Link> },
+    { key: "check", header: "Check", cell: (f) => label(f.signal) },
+    { key: "found", header: "What was found", cell: (f) => f.message },
+    { key: "records", header: "Pickups and lots", cell: (f) => <FlagLinks flag={f} /> },
+    ...(compliance ? [{ key: "decide", header: "Decision", cell: (f: FlagRow) => <DecideForms flag={f} /> }] : []),
+  ];
+  const decidedColumns: Array<Column<FlagRow>> = [
+    { key: "decided", header: "Decided", cell: (f) => <span className="nowrap">{when(f.decidedAt, tz)}</span> },
+    { key: "source", header: "Source", cell: (f) => <Link href={`/sources/${encodeURIComponent(f.sourceCode)}`}>{f.sourceCode}</Link> },
+    { key: "check", header: "Check", cell: (f) => label(f.signal) },
+    { key: "state", header: "Decision", cell: (f) => <StatusMark code={`FLAG_${f.status}`} /> },
+    { key: "by", header: "By", cell: (f) => f.decidedBy ?? "—" },
+    { key: "reason", header: "Reason", cell: (f) => [f.reason, f.heldLots.length > 0 ? `lots held: ${f.heldLots.join(", ")}` : ""].filter(Boolean).join("; ") || "—" },
+    { key: "found", header: "What was found", cell: (f) => f.message },
+  ];
+  const ruleRows = SIGNAL_RULES.map((r) => ({ ...r, key: r.signal }));
+  const s = DEFAULT_SCREENING_SETTINGS;
+  return (
+    <>
+      <h1>Source checks</h1>
+      <p className="lede">
+        Used oil that does not look like it came from where the records say: more than a source can give, far from its own history or its kind, lab results of fresh oil or of added water, and
+        pickups out of pattern. Each source is checked when a pickup, lot or lab result is recorded; check any period here.
+      </p>
+      {compliance ? (
+        <section aria-labelledby="run-h">
+          <h2 id="run-h">Check a period</h2>
+          <ActionForm action={screenPeriodAction} submitLabel="Check all sources" label="Check a period" keepValues>
+            <Field name="from" label="From" type="date" />
+            <Field name="to" label="To" type="date" />
+          </ActionForm>
+        </section>
+      ) : null}
+      <section aria-labelledby="open-h">
+        <h2 id="open-h">To review ({open.length})</h2>
+        <DataTable caption="Flags to review" hideCaption columns={openColumns} rows={open} rowKey={(f) => f.id} empty="Nothing to review." />
+      </section>
+      <section aria-labelledby="decided-h">
+        <h2 id="decided-h">Decided</h2>
+        <DataTable caption="Decided flags" hideCaption columns={decidedColumns} rows={decided} rowKey={(f) => f.id} empty="No decisions yet." />
+      </section>
+      <section aria-labelledby="rules-h">
+        <h2 id="rules-h">What each check reads</h2>
+        <DataTable
+          caption="Checks and thresholds"
+          hideCaption
+          rows={ruleRows}
+          rowKey={(r) => r.key}
+          empty="No checks."
+          columns={[
+            { key: "check", header: "Check", cell: (r) => SIGNAL_LABELS[r.signal] },
+            { key: "reads", header: "Reads", cell: (r) => r.reads },
+            {
+              key: "threshold",
+              header: "Thresholds",
+              cell: (r) =>
+                r.settings.length === 0 ? (
+                  "—"
+                ) : (
+                  <ul className="plain">
+                    {r.settings.map((k) => (
+                      <li key={k}>
+                        {SCREENING_SETTING_LABELS[k]}: {s[k].value} {s[k].unit} <ConfidenceMark level={confidenceOf(s[k])} anchor={`screening-${k}`} />
+                      </li>
+                    ))}
+                  </ul>
+                ),
+            },
+          ]}
+        />
+      </section>
+    </>
+  );
+}
