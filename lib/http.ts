@@ -27,6 +27,7 @@ const BY_PREFIX: Array<[RegExp, number]> = [
   [/^(PRODUCT\.(ON_HOLD|NOT_RELEASED)|CUSTOMER\.INACTIVE)$/, 409],
   [/^PRODUCT\.(NOT_RELEASABLE|DECIDED|NO_SPEC|NO_DEVIATION)$/, 409],
   [/^SITESPEC\.(NAME_TAKEN|STALE)$/, 409],
+  [/^RECALL\.NOTHING_TO_HOLD$/, 409],
 ];
 
 /** 422 for bad input, 404/409 for state conflicts; any other expected refusal is a 422 with its code. */

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { TraceThis } from "@/app/_ui/trace-this";
 import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/ledger/kinds";
 import { getBatchDetail } from "@/lib/batch/batch.store";
@@ -32,7 +33,7 @@ function prettyRecipe(json: string): string | null {
 }
 
 export default async function BatchPage({ params }: Props) {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const b = await getBatchDetail(db, site.id, codeParam((await params).code));
   if (!b) notFound();
@@ -63,6 +64,7 @@ export default async function BatchPage({ params }: Props) {
           ["Still in the reactor", kg(b.stockG, 3)],
         ]}
       />
+      <TraceThis kind="BATCH" code={b.code} role={user.role} back />
       {b.notes ? <p>Notes: {b.notes}</p> : null}
       <BatchPlanSection batch={b} />
 

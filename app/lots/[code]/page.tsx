@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { TraceThis } from "@/app/_ui/trace-this";
 import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/ledger/kinds";
 import { getLotDetail } from "@/lib/feedstock/lot-detail.store";
@@ -56,6 +57,7 @@ export default async function LotPage({ params }: Props) {
         ]}
       />
       {lot.notes ? <p>Notes: {lot.notes}</p> : null}
+      <TraceThis kind="LOT" code={lot.code} role={user.role} />
       <p>
         <Link href={`/lab/${encodeURIComponent(lot.code)}`}>{lot.status === "QUARANTINED" ? "Record lab results and decide" : "Lab results"}</Link>
       </p>

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { TraceThis } from "@/app/_ui/trace-this";
 import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/ledger/kinds";
 import { getHolderRef, listHolderMovements } from "@/lib/ledger/movement.store";
@@ -58,6 +59,7 @@ export default async function TankPage({ params }: Props) {
         ]}
       />
       <DensityNote tanks={[tank]} />
+      <TraceThis kind="TANK" code={tank.code} role={user.role} back />
 
       <MoveSection
         db={db}
