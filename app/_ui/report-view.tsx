@@ -53,3 +53,23 @@ export function ReportTableView({ doc, table, csvHref, headingLevel = 3 }: { doc
     </>
   );
 }
+
+/** Links to a page's printable report: the PDF and its tables as CSV (same figures as the page). */
+export function ReportLinks({ base, pdfLabel, tables }: { base: string; pdfLabel: string; tables: ReadonlyArray<readonly [key: string, label: string]> }) {
+  const sep = base.includes("?") ? "&" : "?";
+  return (
+    <p className="report-downloads">
+      <a href={`${base}${sep}format=pdf`} download>
+        {pdfLabel} (PDF)
+      </a>
+      {tables.map(([key, label]) => (
+        <span key={key}>
+          {" · "}
+          <a href={`${base}${sep}format=csv&table=${key}`} download>
+            {label} (CSV)
+          </a>
+        </span>
+      ))}
+    </p>
+  );
+}

@@ -10,5 +10,6 @@ import { TANK_ENDPOINTS } from "@/lib/api/endpoints/tanks";
 import { SHIPMENT_ENDPOINTS } from "@/lib/api/endpoints/shipments";
 import { SPEC_ENDPOINTS } from "@/lib/api/endpoints/specs";
 import { PRODUCT_ENDPOINTS } from "@/lib/api/endpoints/products";
+import { REPORT_ENDPOINTS } from "@/lib/api/endpoints/reports";
 
-export const ENDPOINTS: EndpointDoc[] = [...LAB_ENDPOINTS, ...TRACE_ENDPOINTS, ...RECORD_ENDPOINTS, ...GRID_ENDPOINTS, ...WASTE_ENDPOINTS, ...TANK_ENDPOINTS, ...SHIPMENT_ENDPOINTS, ...SPEC_ENDPOINTS, ...PRODUCT_ENDPOINTS];
+export const ENDPOINTS: EndpointDoc[] = [...LAB_ENDPOINTS, ...TRACE_ENDPOINTS, ...RECORD_ENDPOINTS, ...GRID_ENDPOINTS, ...WASTE_ENDPOINTS, ...TANK_ENDPOINTS, ...SHIPMENT_ENDPOINTS, ...SPEC_ENDPOINTS, ...PRODUCT_ENDPOINTS, ...REPORT_ENDPOINTS];

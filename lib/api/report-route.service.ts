@@ -29,12 +29,14 @@ export interface ReportRequest {
   site: SiteRow;
   user: SignedIn;
   query: Record<string, string>;
+  /** The route's dynamic segments (e.g. a lot's code). */
+  params: Record<string, string>;
   context: ReportContext;
 }
 
 /** A GET route that answers a report built by `build` from the request's query string. */
 export function reportRoute(name: string, build: (r: ReportRequest) => Promise<Result<ReportDoc>>) {
-  return handled(name, async (request: Request): Promise<NextResponse> => {
+  return handled(name, async (request: Request, segment?: { params: Promise<Record<string, string>> }): Promise<NextResponse> => {
     const who = await requireReader(request);
     if (!who.ok) return respond(who);
     const query = Object.fromEntries(new URL(request.url).searchParams);
@@ -44,7 +46,8 @@ export function reportRoute(name: string, build: (r: ReportRequest) => Promise<R
     const site = await getSiteById(db, who.value.siteId);
     if (site === null) return respond(fail("RECORD.NOT_FOUND", "Your site does not exist"));
     const context: ReportContext = { plant: `${site.name}, ${site.town}`, producedAt: who.value.now, producedBy: who.value.fullName, timeZone: site.timeZone };
-    const doc = await build({ db, site, user: who.value, query, context });
+    const params = segment === undefined ? {} : await segment.params;
+    const doc = await build({ db, site, user: who.value, query, params, context });
     if (!doc.ok) return respond(doc);
     const headers = (type: string, file: string) => ({ "content-type": type, "content-disposition": `attachment; filename="${file}"`, "cache-control": "no-store" });
     if (format.value.format === "csv") {
