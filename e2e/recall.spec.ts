@@ -35,7 +35,7 @@ test.beforeAll(async ({ request }) => {
 test("from a source, follow its oil of two weeks to customers and hold what is still on site", async ({ page, baseURL }) => {
   await signIn(page, "compliance.nell", `/sources/${SOURCE}`);
   await page.getByRole("link", { name: "Trace this: where it went" }).click();
-  await expect(page).toHaveURL(/\/trace\/recall\?kind=SOURCE&code=R001/);
+  await expect(page).toHaveURL(/\/trace\/recall\?kind=SOURCE&code=R001/, { timeout: 60_000 });
   const form = page.getByRole("group", { name: "Follow it forward" });
   await form.getByLabel("From").fill(FROM);
   await form.getByLabel("To").fill(TO);
@@ -73,7 +73,7 @@ test("from a source, follow its oil of two weeks to customers and hold what is s
   const reason = `Contaminated oil notice from source ${SOURCE}, pickups ${FROM} to ${TO} (journey ${Date.now() % 100_000})`;
   await hold.getByLabel("Reason").fill(reason);
   await hold.getByRole("button", { name: /Put \d+ product lots? on hold/ }).click();
-  await expect(hold.getByRole("status")).toContainText(`${lots.length} product lot${lots.length === 1 ? "" : "s"} put on hold`);
+  await expect(hold.getByRole("status")).toContainText(`${lots.length} product lot${lots.length === 1 ? "" : "s"} put on hold`, { timeout: 60_000 });
 
   for (const code of lots) {
     await page.goto(`/products/${code}`);
