@@ -24,6 +24,11 @@ import { renderReportPdf } from "@/lib/report/report-pdf";
 import { buildBalanceDoc } from "@/app/balance/balance-report";
 import { buildLotHistoryDoc } from "@/app/lots/[code]/lot-report";
 import { buildBackwardTraceDoc } from "@/app/trace/trace-report";
+import { openWasteContainer } from "@/lib/waste/container.service";
+import { getCustodyReport } from "@/lib/custody/custody.service";
+import { getWasteDueReport } from "@/app/waste/due/due-report";
+import { buildWasteListDoc } from "@/app/waste/due/waste-list-report";
+import { buildCustodyDoc } from "@/app/balance/custody/custody-report";
 import { pdfText } from "../support/pdf-text";
 
 function value<T>(r: Result<T>): T {
@@ -77,9 +82,10 @@ describe.each(PROVIDERS)("recall and reports on %s", (provider) => {
       value(await transferToTank(t.db, plant.production, { fromKind: "LOT", fromCode: lot, toTankCode: "T1", at: `2026-02-${day}T08:00:00Z`, massKg: 300 }));
     }
     value(await receiveReagent(t.db, plant.production, { code: "MEOH-1", reagent: "METHANOL", supplier: "S", strengthPct: 99.9, receivedAt: "2026-02-01T08:00:00Z", massKg: 100 }));
+    value(await openWasteContainer(t.db, plant.compliance, { code: "GLY-1", stream: "GLYCEROL_PHASE", location: "Glycerol pad", accumulationStart: "2026-02-10T06:00:00Z", capacityL: 1000 }));
     value(await planBatch(t.db, plant.production, { code: "B-1", plannedAt: "2026-02-14T07:00:00Z", targetOilKg: 400, catalyst: "KOH" }));
     value(await startBatch(t.db, plant.production, { batchCode: "B-1", startedAt: "2026-02-14T08:00:00Z", charges: [{ fromKind: "TANK", fromCode: "T1", role: "OIL", massKg: 400 }, { fromKind: "REAGENT_LOT", fromCode: "MEOH-1", role: "METHANOL", massKg: 50 }] }));
-    value(await completeBatch(t.db, plant.production, { batchCode: "B-1", completedAt: "2026-02-14T12:00:00Z", outputs: [{ role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-1", massKg: 200 }, { role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-2", massKg: 200 }, { role: "LOSS", massKg: 50 }] }));
+    value(await completeBatch(t.db, plant.production, { batchCode: "B-1", completedAt: "2026-02-14T12:00:00Z", outputs: [{ role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-1", massKg: 200 }, { role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-2", massKg: 200 }, { role: "GLYCEROL_PHASE", toKind: "WASTE_CONTAINER", toCode: "GLY-1", massKg: 30 }, { role: "LOSS", massKg: 20 }] }));
     await t.db.productLot.update({ where: { siteId_code: { siteId: plant.siteId, code: "P-1" } }, data: { status: "RELEASED", releasedAt: new Date("2026-02-15T09:00:00Z") } });
     value(await createCustomer(t.db, plant.compliance, { code: "ACME-T", name: "Test Haulage", address: "1 Yard Row, Testford", contact: "Fuel desk" }));
     value(await recordShipment(t.db, plant.compliance, { documentNo: "DOC-1", customerCode: "ACME-T", shippedAt: "2026-02-20T10:00:00Z", vehicle: "Tanker 7", compartment: "2", lines: [{ fromKind: "PRODUCT_LOT", fromCode: "P-1", massKg: 120 }] }));
@@ -156,5 +162,22 @@ describe.each(PROVIDERS)("recall and reports on %s", (provider) => {
     const lotDoc = buildLotHistoryDoc(lot, flow, CTX, ledger);
     await expectTotalsAgree(lotDoc, [["pickups", "mass"]]);
     expect(await pdfText(await renderReportPdf(lotDoc))).toContain("Lot L-1");
+  });
+
+  it("prints the hauler's waste list with its cautions and the custody statement, totals as in their data", async () => {
+    const version = await getLedgerVersion(t.db, plant.siteId);
+    const site = { id: plant.siteId, timeZone: "UTC" };
+    const waste = value(await getWasteDueReport(t.db, site, { days: "90", category: "", tsdfMiles: "" }, NOW));
+    const wasteDoc = buildWasteListDoc(waste, CTX, { movements: version.count, lastMoveId: version.lastId });
+    expect(wasteDoc.tables[0]!.rows.map((r) => r[0])).toEqual(["GLY-1"]);
+    expect(wasteDoc.tables[0]!.total![3]).toBe(30_000);
+    await expectTotalsAgree(wasteDoc, [["containers", "mass"], ["due-by-stream", "mass"]]);
+    const text = await pdfText(await renderReportPdf(wasteDoc));
+    expect(text).toContain("bonded and grounded"); // the glycerol phase's caution is printed with the list
+    expect(text).toContain("safety data sheets");
+
+    const custody = value(await getCustodyReport(t.db, site, { period: "2026-Q1", operatorType: "", claimKg: "", claimSet: "" }, NOW));
+    const custodyDoc = buildCustodyDoc(custody, CTX);
+    await expectTotalsAgree(custodyDoc, [["conversions", "oil"], ["conversions", "ester"]]);
   });
 });
