@@ -37,8 +37,8 @@ test("from a source, follow its oil of two weeks to customers and hold what is s
   await page.getByRole("link", { name: "Trace this: where it went" }).click();
   await expect(page).toHaveURL(/\/trace\/recall\?kind=SOURCE&code=R001/, { timeout: 60_000 });
   const form = page.getByRole("group", { name: "Follow it forward" });
-  await form.getByLabel("From").fill(FROM);
-  await form.getByLabel("To").fill(TO);
+  await form.getByLabel(/^From \(first day/).fill(FROM);
+  await form.getByLabel(/^To \(last day/).fill(TO);
   await form.getByRole("button", { name: "Find where it went" }).click();
   await expect(page.getByRole("heading", { level: 2, name: /Where it went: Source R001 .*2026-10-01 to 2026-10-14/ })).toBeVisible({ timeout: 60_000 });
 

@@ -11,11 +11,11 @@ export function TraceThis({ kind, code, role, back = false }: { kind: "SOURCE" |
   const c = encodeURIComponent(code);
   return (
     <p className="trace-this">
-      {kind === "SHIPMENT" ? null : <Link href={`/trace/recall?kind=${kind}&code=${c}`}>Trace this: where it went</Link>}
+      {kind === "SHIPMENT" ? null : <Link prefetch={false} href={`/trace/recall?kind=${kind}&code=${c}`}>Trace this: where it went</Link>}
       {back ? (
         <>
           {kind === "SHIPMENT" ? null : " · "}
-          <Link href={`/trace?dir=back&kind=${kind}&code=${c}`}>{kind === "SHIPMENT" ? "Trace this: what it is made of" : "What it is made of"}</Link>
+          <Link prefetch={false} href={`/trace?dir=back&kind=${kind}&code=${c}`}>{kind === "SHIPMENT" ? "Trace this: what it is made of" : "What it is made of"}</Link>
         </>
       ) : null}
     </p>
