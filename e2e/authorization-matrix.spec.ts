@@ -129,6 +129,7 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   recordQcResultAction: ["PRODUCTION", "COMPLIANCE"],
   chooseProductSpecAction: ["COMPLIANCE"],
   decideProductLotAction: ["COMPLIANCE"],
+  holdRecalledAction: ["COMPLIANCE"],
 };
 
 interface ActionEntry { id: string; name: string; page: string }

@@ -29,6 +29,7 @@ const BY_PREFIX: Array<[RegExp, number]> = [
   [/^SITESPEC\.(NAME_TAKEN|STALE)$/, 409],
   [/^BATCH\.(NOT_FINISHED|OUTPUT_CORRECTED)$/, 409],
   [/^SCREENING\.(ALREADY_DECIDED|NOT_CONFIRMED)$/, 409],
+  [/^RECALL\.NOTHING_TO_HOLD$/, 409],
 ];
 
 /** 422 for bad input, 404/409 for state conflicts; any other expected refusal is a 422 with its code. */

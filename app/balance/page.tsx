@@ -10,6 +10,7 @@ import { Empty, Facts, HolderLink, NoSite, Note } from "@/app/_ui/ui";
 import { ClosureChip, ToleranceNote } from "@/app/balance/closure";
 import { PeriodActionForm } from "@/app/balance/period-form";
 import { FlowsPicture } from "@/app/balance/flows-picture";
+import { ReportLinks } from "@/app/_ui/report-view";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Period balance" };
@@ -120,6 +121,11 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
       <h2 id="bal-h">
         Balance {r.period.label} <span className="muted">({day(r.period.startsAt, timeZone)} to {lastDay})</span>
       </h2>
+      <ReportLinks
+        base={`/balance/report?${new URLSearchParams(Object.entries(r.query).map(([k, v]) => [k, String(v)])).toString()}`}
+        pdfLabel="Period balance statement"
+        tables={[["statement", "Statement"], ["materials", "By material kind"], ["batches", "Batches"], ["gauges", "Gauges"]]}
+      />
       <Facts
         items={[
           ["Closure (measured against the books)", <span key="d" data-testid="measured-closure"><ClosureChip closure={r.differences.closure} /></span>],

@@ -287,6 +287,9 @@ function BackwardResult({ r, view, atLocal, timeZone }: { r: BackwardTraceReport
             <a href={csv("origins")} download className="csv-link">
               Download every origin as CSV
             </a>{" "}
+            <a href={`/trace/report?${new URLSearchParams(Object.entries(base).filter(([, v]) => v !== "")).toString()}&format=pdf`} download className="report-downloads">
+              Trace report (PDF)
+            </a>{" "}
             <span className="muted">({r.origins.length} origins: movement, pickup, lot, source, material, certification, grams)</span>
           </p>
         </>

@@ -38,6 +38,8 @@ export const READ_MATRIX: readonly ReadRule[] = [
   { path: "/customers", roles: OFFICE, menu: "Customers" },
   { path: "/waste", roles: PLANT, menu: "Waste" },
   { path: "/trace", roles: PLANT, menu: "Trace" },
+  // Recall and its report: production sees where material went but not to which customers (left out in the answer).
+  { path: "/trace/recall", roles: PLANT, menu: "Recall" },
   { path: "/balance", roles: OFFICE, menu: "Balance" },
   { path: "/periods", roles: OFFICE, menu: "Periods" },
   { path: "/screening", roles: OFFICE, menu: "Source checks" },

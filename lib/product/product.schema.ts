@@ -51,6 +51,7 @@ export const ProductDecisionSchema = z
     path: ["reason"],
   });
 export type ProductDecisionInput = z.input<typeof ProductDecisionSchema>;
+export type ProductDecisionValue = z.output<typeof ProductDecisionSchema>;
 
 export const ShipmentSchema = z.object({
   documentNo: code("Document number"),

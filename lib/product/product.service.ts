@@ -8,7 +8,7 @@ import { labelOf } from "@/lib/ledger/kinds";
 import { assertPeriodsOpen, createHolder, postMovement, reject, requireHolder, runInTransaction } from "@/lib/ledger/ledger.store";
 import { requireDrawableHolder } from "@/lib/ledger/draw.store";
 import { ChooseSpecSchema, ProductDecisionSchema, QcResultSchema, ShipmentSchema } from "@/lib/product/product.schema";
-import type { ProductDecision } from "@/lib/product/product.schema";
+import type { ProductDecision, ProductDecisionValue } from "@/lib/product/product.schema";
 import { judgeRecords, toResultsIn } from "@/lib/product/certificate";
 import { currentResults, judgeValue } from "@/lib/spec/spec";
 import type { Spec, Verdict } from "@/lib/spec/spec";
@@ -108,32 +108,34 @@ function notReleasableText(spec: Spec, missing: readonly string[], failing: read
 export async function decideProductLot(db: Db, actor: Actor, input: unknown): Promise<Result<{ code: string; status: string; deviation: boolean }>> {
   const parsed = parseInput(ProductDecisionSchema, input);
   if (!parsed.ok) return parsed;
-  const d = parsed.value;
-  return runInTransaction(db, async (tx) => {
-    const lot = await requireLot(tx, actor, d.productLotCode, "productLotCode");
-    const allowedFrom = d.decision === "HOLD" ? ["HELD", "RELEASED"] : ["HELD"];
-    if (!allowedFrom.includes(lot.status)) reject("PRODUCT.DECIDED", `Product lot ${d.productLotCode} is already ${labelOf(lot.status).toLowerCase()}`, "decision");
-    let deviation = false;
-    let judged: { missing: string[]; failing: string[] } | null = null;
-    if (d.decision === "RELEASE" || d.decision === "RELEASE_WITH_DEVIATION") {
-      const spec = await requireLotSpec(tx, actor, lot, d.productLotCode, "decision");
-      const j = judgeRecords(spec, lot.qc);
-      judged = { missing: j.missing, failing: j.failing };
-      if (d.decision === "RELEASE" && !j.releasable) reject("PRODUCT.NOT_RELEASABLE", notReleasableText(spec, j.missing, j.failing), "decision");
-      if (d.decision === "RELEASE_WITH_DEVIATION" && j.releasable) reject("PRODUCT.NO_DEVIATION", "Every result conforms; release it without a deviation", "decision");
-      deviation = d.decision === "RELEASE_WITH_DEVIATION";
-    }
-    const status = d.decision === "HOLD" ? "HELD" : d.decision === "REJECT" ? "REJECTED" : "RELEASED";
-    await setProductDecision(tx, lot.id, { status, releasedAt: status === "RELEASED" ? actor.now : null, decisionReason: d.reason, deviation, decidedAt: actor.now, decidedById: actor.userId });
-    await appendAudit(tx, actor, {
-      action: AUDIT_ACTION[d.decision],
-      entity: "ProductLot",
-      entityKey: d.productLotCode,
-      before: { status: lot.status, deviation: lot.deviation, reason: lot.decisionReason },
-      after: { status, deviation, reason: d.reason, specKey: lot.specKey, ...(judged ?? {}) },
-    });
-    return { code: d.productLotCode, status, deviation };
+  return runInTransaction(db, (tx) => applyProductDecision(tx, actor, parsed.value));
+}
+
+/** One decision inside the caller's transaction (a recall holds many lots at once, all or none). */
+export async function applyProductDecision(tx: Tx, actor: Actor, d: ProductDecisionValue): Promise<{ code: string; status: string; deviation: boolean }> {
+  const lot = await requireLot(tx, actor, d.productLotCode, "productLotCode");
+  const allowedFrom = d.decision === "HOLD" ? ["HELD", "RELEASED"] : ["HELD"];
+  if (!allowedFrom.includes(lot.status)) reject("PRODUCT.DECIDED", `Product lot ${d.productLotCode} is already ${labelOf(lot.status).toLowerCase()}`, "decision");
+  let deviation = false;
+  let judged: { missing: string[]; failing: string[] } | null = null;
+  if (d.decision === "RELEASE" || d.decision === "RELEASE_WITH_DEVIATION") {
+    const spec = await requireLotSpec(tx, actor, lot, d.productLotCode, "decision");
+    const j = judgeRecords(spec, lot.qc);
+    judged = { missing: j.missing, failing: j.failing };
+    if (d.decision === "RELEASE" && !j.releasable) reject("PRODUCT.NOT_RELEASABLE", notReleasableText(spec, j.missing, j.failing), "decision");
+    if (d.decision === "RELEASE_WITH_DEVIATION" && j.releasable) reject("PRODUCT.NO_DEVIATION", "Every result conforms; release it without a deviation", "decision");
+    deviation = d.decision === "RELEASE_WITH_DEVIATION";
+  }
+  const status = d.decision === "HOLD" ? "HELD" : d.decision === "REJECT" ? "REJECTED" : "RELEASED";
+  await setProductDecision(tx, lot.id, { status, releasedAt: status === "RELEASED" ? actor.now : null, decisionReason: d.reason, deviation, decidedAt: actor.now, decidedById: actor.userId });
+  await appendAudit(tx, actor, {
+    action: AUDIT_ACTION[d.decision],
+    entity: "ProductLot",
+    entityKey: d.productLotCode,
+    before: { status: lot.status, deviation: lot.deviation, reason: lot.decisionReason },
+    after: { status, deviation, reason: d.reason, specKey: lot.specKey, ...(judged ?? {}) },
   });
+  return { code: d.productLotCode, status, deviation };
 }
 
 /** Only released product leaves the site; a product tank is assumed to hold released product only. */

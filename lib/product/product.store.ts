@@ -262,3 +262,17 @@ export async function insertShipment(
   return tx.shipment.create({ data: s, select: { id: true, documentNo: true } });
 }
 
+
+export interface ProductLotStanding {
+  holderId: number;
+  code: string;
+  status: string;
+  decisionReason: string;
+}
+
+/** Release state of the product lots among the given holders (a recall's reach). */
+export async function listProductLotStandings(db: Db, siteId: number, holderIds: readonly number[]): Promise<Map<number, ProductLotStanding>> {
+  if (holderIds.length === 0) return new Map();
+  const rows = await db.productLot.findMany({ where: { siteId, holderId: { in: [...holderIds] } }, select: { holderId: true, code: true, status: true, decisionReason: true } });
+  return new Map(rows.map((r) => [r.holderId, r]));
+}

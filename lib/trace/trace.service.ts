@@ -212,7 +212,7 @@ export const STAGES = [
   "Waste container",
 ] as const;
 
-function stageOf(ref: HolderRef, tankService: ReadonlyMap<number, string>): number {
+export function stageOf(ref: HolderRef, tankService: ReadonlyMap<number, string>): number {
   switch (ref.kind) {
     case "PICKUP":
       return 1;
@@ -238,7 +238,7 @@ function stageOf(ref: HolderRef, tankService: ReadonlyMap<number, string>): numb
 
 const LEFT_BOOKS_LABEL: Partial<Record<HolderKind, string>> = { SHIPMENT: "Shipped", DISPOSAL: "Hauled away as waste", LOSS: "Recorded losses", DIFFERENCE: "Unmeasured batch differences" };
 
-function stageLabelOf(ref: HolderRef, stage: number): string {
+export function stageLabelOf(ref: HolderRef, stage: number): string {
   return (stage === 7 ? LEFT_BOOKS_LABEL[ref.kind] : undefined) ?? STAGES[stage] ?? labelOf(ref.kind);
 }
 
@@ -253,7 +253,7 @@ export const MAX_SNAPSHOTS = 240;
 /** Answers kept per site and ledger version. */
 const MAX_CACHED_ANSWERS = 64;
 
-interface LedgerState {
+export interface LedgerState {
   siteId: number;
   version: LedgerVersion;
   ledger: TraceLedger;
@@ -364,7 +364,7 @@ function describeIssues(ledger: TraceLedger, issues: readonly DomainIssue[]): st
     });
 }
 
-function renameIssues(ledger: TraceLedger, issues: readonly DomainIssue[]): DomainIssue[] {
+export function renameIssues(ledger: TraceLedger, issues: readonly DomainIssue[]): DomainIssue[] {
   return issues.map((i) => ({ ...i, message: describeIssues(ledger, [i]) }));
 }
 
@@ -438,7 +438,7 @@ export async function flushTraceSnapshots(): Promise<void> {
 }
 
 /** The site's indexed ledger for its current version: reused while no movement is booked. */
-async function requireLedgerState(db: Db, siteId: number, now: Date): Promise<Result<LedgerState>> {
+export async function requireLedgerState(db: Db, siteId: number, now: Date): Promise<Result<LedgerState>> {
   const version = await getLedgerVersion(db, siteId);
   const pending = cache.get(siteId);
   const current = pending === undefined ? null : await pending;
@@ -482,7 +482,7 @@ function freshnessOf(state: LedgerState, computeMs: number, fromCache: boolean):
 }
 
 /** The latest snapshot that has applied at most `count` moves. */
-function snapshotCovering(state: LedgerState, count: number): ReplaySnapshot | undefined {
+export function snapshotCovering(state: LedgerState, count: number): ReplaySnapshot | undefined {
   let best: ReplaySnapshot | undefined;
   for (const s of state.snapshots) if (s.applied.count <= count) best = s;
   return best;

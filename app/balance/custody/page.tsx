@@ -7,6 +7,7 @@ import type { DomainIssue } from "@/lib/errors";
 import { day, kg, kgExact, num, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { Empty, Facts, HolderLink, NoSite, Note } from "@/app/_ui/ui";
+import { ReportLinks } from "@/app/_ui/report-view";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Chain of custody" };
@@ -40,6 +41,13 @@ export default async function CustodyPage({ searchParams }: { searchParams: Prom
         batch&apos;s measured yield, certified claims on shipments out. A claim larger than the credit at its booking is flagged.
       </p>
       <CustodyForm typed={typed} report={result.ok ? result.value : null} issues={result.ok ? [] : result.issues} />
+      {result.ok ? (
+        <ReportLinks
+          base={`/balance/custody/report?${new URLSearchParams({ period: result.value.selected.label, operatorType: result.value.query.operatorType }).toString()}`}
+          pdfLabel="Chain-of-custody statement"
+          tables={[["inputs", "Certified inputs"], ["conversions", "Conversions"], ["claims", "Claims"], ["accounts", "Accounts"]]}
+        />
+      ) : null}
       {result.ok ? <CustodyResult r={result.value} timeZone={tz} /> : null}
     </>
   );

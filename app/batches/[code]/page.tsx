@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { TraceThis } from "@/app/_ui/trace-this";
 import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/ledger/kinds";
 import { getBatchDetail } from "@/lib/batch/batch.store";
@@ -77,6 +78,7 @@ export default async function BatchPage({ params }: Props) {
           ...(finished ? [] : ([["Still in the reactor", kg(b.stockG, 3)]] as Array<[string, string]>)),
         ]}
       />
+      <TraceThis kind="BATCH" code={b.code} role={user.role} back />
       {b.notes ? <p>Notes: {b.notes}</p> : null}
       <BatchPlanSection batch={b} />
 

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { TraceThis } from "@/app/_ui/trace-this";
 import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/ledger/kinds";
 import { getLotDetail } from "@/lib/feedstock/lot-detail.store";
@@ -10,6 +11,7 @@ import { codeParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { MoveLotSection } from "@/app/lots/[code]/move-lot";
 import { CodeLink, Empty, Facts, HolderLink, NoSite, Note, Status } from "@/app/_ui/ui";
+import { ReportLinks } from "@/app/_ui/report-view";
 
 export const dynamic = "force-dynamic";
 
@@ -56,6 +58,8 @@ export default async function LotPage({ params }: Props) {
         ]}
       />
       {lot.notes ? <p>Notes: {lot.notes}</p> : null}
+      <TraceThis kind="LOT" code={lot.code} role={user.role} />
+      <ReportLinks base={`/lots/${encodeURIComponent(lot.code)}/report`} pdfLabel="Lot history" tables={[["pickups", "Pickups"], ["lab", "Lab results"], ["where-it-went", "Where it went"]]} />
       <p>
         <Link href={`/lab/${encodeURIComponent(lot.code)}`}>{lot.status === "QUARANTINED" ? "Record lab results and decide" : "Lab results"}</Link>
       </p>

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { TraceThis } from "@/app/_ui/trace-this";
 import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/ledger/kinds";
 import { getPickupDetail } from "@/lib/feedstock/lot-detail.store";
@@ -26,7 +27,7 @@ function lag(observed: Date, received: Date): string {
 }
 
 export default async function PickupPage({ params }: Props) {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const p = await getPickupDetail(db, site.id, codeParam((await params).code));
   if (!p) notFound();
@@ -59,6 +60,7 @@ export default async function PickupPage({ params }: Props) {
           ["Solids seen", LOOK[p.solidsLook] ?? p.solidsLook],
         ]}
       />
+      <TraceThis kind="PICKUP" code={p.code} role={user.role} />
       {p.notes ? <p>Notes: {p.notes}</p> : null}
       <h2>Lot</h2>
       {p.lot ? (

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { TraceThis } from "@/app/_ui/trace-this";
 import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/ledger/kinds";
 import { getMadeOf } from "@/lib/feedstock/lot-flow.service";
@@ -98,6 +99,7 @@ export default async function ProductLotPage({ params }: Props) {
             ) : null}{" "}
             {p.status === "RELEASED" && p.stockG > 0 && isCompliance ? <Link href={`/shipments/new?from=${encodeURIComponent(p.code)}`}>Ship from this lot</Link> : null}{" "}
             <HistoryLink kind="product" recordKey={p.code} label="product lot" />
+            <TraceThis kind="PRODUCT_LOT" code={p.code} role={user.role} back />
           </>
         }
       />

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { TraceThis } from "@/app/_ui/trace-this";
 import { notFound } from "next/navigation";
 import { getMadeOf } from "@/lib/feedstock/lot-flow.service";
 import type { MovementView } from "@/lib/ledger/movement.store";
@@ -21,7 +22,7 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
 }
 
 export default async function ShipmentPage({ params }: Props) {
-  const { db, site } = await loadSite();
+  const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const s = await getShipmentRecord(db, site.id, codeParam((await params).documentNo));
   if (!s) notFound();
@@ -47,7 +48,7 @@ export default async function ShipmentPage({ params }: Props) {
         ]}
         actions={
           <span className="no-print">
-            <PrintShipment /> <HistoryLink kind="shipment" recordKey={s.documentNo} label="shipment" />
+            <PrintShipment /> <HistoryLink kind="shipment" recordKey={s.documentNo} label="shipment" /> <TraceThis kind="SHIPMENT" code={s.documentNo} role={user.role} back />
           </span>
         }
       />

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { TraceThis } from "@/app/_ui/trace-this";
 import { forbidden, notFound } from "next/navigation";
 import { servedByCollectors } from "@/lib/source/served";
 import { labelOf } from "@/lib/ledger/kinds";
@@ -55,6 +56,7 @@ export default async function SourcePage({ params, searchParams }: Props) {
       {collector || user.role === "PRODUCTION" ? null : (
         <SourceChecks db={db} siteId={site.id} sourceId={source.id} code={source.code} timeZone={tz} compliance={user.role === "COMPLIANCE"} />
       )}
+      <TraceThis kind="SOURCE" code={source.code} role={user.role} />
       <h2>Pickups from this source</h2>
       {pickups.total === 0 ? (
         <Empty>No pickups recorded from this source yet.</Empty>

@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { TraceThis } from "@/app/_ui/trace-this";
 import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/ledger/kinds";
 import { getHolderRef, listHolderMovements } from "@/lib/ledger/movement.store";
@@ -60,6 +61,7 @@ export default async function TankPage({ params }: Props) {
       />
       <DensityNote tanks={[tank]} />
       <TankStockPicture db={db} siteId={site.id} code={tank.code} capacityG={tank.capacityG} timeZone={tz} now={user.now} />
+      <TraceThis kind="TANK" code={tank.code} role={user.role} back />
 
       <MoveSection
         db={db}

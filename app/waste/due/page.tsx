@@ -12,6 +12,7 @@ import { Cautions, ConfidenceMark } from "@/app/_ui/kit";
 import { confidenceOf, plainSource, plainStatus } from "@/app/waste/rule-text";
 import { DEFAULT_DUE_DAYS, getWasteDueReport } from "@/app/waste/due/due-report";
 import type { ContainerDueRow, WasteDueReport } from "@/app/waste/due/due-report";
+import { ReportLinks } from "@/app/_ui/report-view";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Waste due for haul-away" };
@@ -57,6 +58,13 @@ export default async function WasteDuePage({ searchParams }: { searchParams: Pro
         ]}
       />
       <DueForm typed={typed} report={result.ok ? result.value : null} issues={result.ok ? [] : result.issues} />
+      {result.ok ? (
+        <ReportLinks
+          base={`/waste/due/report?${new URLSearchParams({ days: String(result.value.query.days), category: result.value.query.category, ...(result.value.query.tsdfMiles === null ? {} : { tsdfMiles: String(result.value.query.tsdfMiles) }) }).toString()}`}
+          pdfLabel="Waste list for the hauler"
+          tables={[["containers", "Containers"], ["due-by-stream", "Due by stream"]]}
+        />
+      ) : null}
       {result.ok ? <DueResult r={result.value} timeZone={tz} /> : null}
     </>
   );

@@ -247,7 +247,7 @@ export interface paths {
         };
         get?: never;
         put?: never;
-        /** Records what came out; everything charged must be accounted for. Production. */
+        /** Records what was weighed or gauged out; the remainder is booked as the batch's unmeasured difference (never typed). Water used for washing goes from its water lot to the wash-water stream. Production. */
         post: operations["postBatchesComplete"];
         delete?: never;
         options?: never;
@@ -825,6 +825,108 @@ export interface paths {
         };
         /** GS1 EPCIS 2.0 events behind one trace answer: dir=back with kind PRODUCT_LOT, TANK, SHIPMENT or BATCH (the movements on paths from its origins to it), or dir=fwd with kind SOURCE, PICKUP or LOT (the movements into every holder its material reached). Lots are named by material class and lot number (LGTIN class URIs, urn:epc:class:lgtin, when the site has a GS1 Company Prefix; otherwise the site's own URIs), the plant and its tanks by SGLN or the site's own URIs; quantities in kg (UN/CEFACT KGM). Production, compliance and administrators. */
         get: operations["getEpcisTrace"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/trace/recall/report": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Recall report: every product lot, shipment and customer the material of a source (pickups and deliveries within the days given), pickup, lot, tank (what moved in within the days), batch or product lot reached, with kg and share, first and last shipment date, and what is still on site. Tables: customers, shipments, product-lots, on-site, reached. Production, compliance and administrators; customers are left out for production. */
+        get: operations["getTraceRecallReport"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/trace/report": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Trace report: what a product lot, tank at a time, shipment or batch is made of, by source, lot, pickup, material and certification, with reagents. Tables: sources, lots, pickups, materials, certification, reagents. Production, compliance and administrators. */
+        get: operations["getTraceReport"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/balance/report": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Period balance statement: opening stock and receipts against outputs, closing stock and what is unaccounted, by material kind, batches finished, and book stock against the tank gauges. Tables: statement, materials, batches, gauges. Compliance and administrators. */
+        get: operations["getBalanceReport"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/balance/custody/report": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Chain-of-custody statement for a balance period: certified inputs by characteristic set, conversions, certified claims and the accounts' period figures. Tables: inputs, conversions, claims, accounts. Compliance and administrators. */
+        get: operations["getBalanceCustodyReport"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/waste/due/report": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Waste list for the hauler: containers on site with stream, quantity, due date, characterisation, hazard flags and the usual cautions, and what falls due by stream. Tables: containers, due-by-stream. Production, compliance and administrators. */
+        get: operations["getWasteDueReport"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/lots/{code}/report": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /** Lot history: pickups or delivery, lab results, and where the lot's material went. Tables: pickups, lab, where-it-went. Production, compliance and administrators. */
+        get: operations["getLotsByCodeReport"];
         put?: never;
         post?: never;
         delete?: never;
@@ -2035,7 +2137,7 @@ export interface operations {
                         fromKind: "LOT" | "TANK" | "REAGENT_LOT";
                         fromCode: string;
                         /** @enum {string} */
-                        role: "OIL" | "METHANOL" | "CATALYST" | "ACID" | "WATER";
+                        role: "OIL" | "METHANOL" | "CATALYST" | "ACID";
                         massKg: number;
                     }[];
                 };
@@ -2099,6 +2201,9 @@ export interface operations {
                         /** @enum {string} */
                         toKind?: "PRODUCT_LOT" | "WASTE_CONTAINER" | "TANK";
                         massKg: number;
+                        reason?: string;
+                        waterFromCode?: string;
+                        waterKg?: number;
                     }[];
                 };
             };
@@ -2116,6 +2221,7 @@ export interface operations {
                         value: {
                             code: string;
                             productLots: string[];
+                            unmeasuredG: number;
                         };
                     };
                 };
@@ -2699,6 +2805,8 @@ export interface operations {
                     notes?: string;
                     /** Format: uuid */
                     idempotencyKey?: string;
+                    /** @enum {string} */
+                    phoneDistanceBand?: "NEAR" | "KM_1" | "KM_10" | "FAR";
                 };
             };
         };
@@ -2773,6 +2881,8 @@ export interface operations {
                         notes?: string;
                         /** Format: uuid */
                         idempotencyKey?: string;
+                        /** @enum {string} */
+                        phoneDistanceBand?: "NEAR" | "KM_1" | "KM_10" | "FAR";
                     }[];
                 };
             };
@@ -4221,6 +4331,304 @@ export interface operations {
                                 [key: string]: unknown;
                             }))[];
                         };
+                    };
+                };
+            };
+            /** @description Refused: every issue names its code and, where there is one, its field */
+            "4XX": {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @constant */
+                        ok: false;
+                        issues: {
+                            /** @description stable code, e.g. LEDGER.OVERDRAW */
+                            code: string;
+                            message: string;
+                            /** @description field path, e.g. charges.1.massKg */
+                            field?: string;
+                        }[];
+                    };
+                };
+            };
+        };
+    };
+    getTraceRecallReport: {
+        parameters: {
+            query: {
+                format?: "pdf" | "csv";
+                table?: string;
+                kind: "SOURCE" | "PICKUP" | "LOT" | "TANK" | "BATCH" | "PRODUCT_LOT";
+                code: string;
+                from?: string;
+                to?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Success */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @constant */
+                        ok: true;
+                        value: unknown;
+                    };
+                };
+            };
+            /** @description Refused: every issue names its code and, where there is one, its field */
+            "4XX": {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @constant */
+                        ok: false;
+                        issues: {
+                            /** @description stable code, e.g. LEDGER.OVERDRAW */
+                            code: string;
+                            message: string;
+                            /** @description field path, e.g. charges.1.massKg */
+                            field?: string;
+                        }[];
+                    };
+                };
+            };
+        };
+    };
+    getTraceReport: {
+        parameters: {
+            query: {
+                format?: "pdf" | "csv";
+                table?: string;
+                kind: "PRODUCT_LOT" | "TANK" | "SHIPMENT" | "BATCH";
+                code: string;
+                at?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Success */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @constant */
+                        ok: true;
+                        value: unknown;
+                    };
+                };
+            };
+            /** @description Refused: every issue names its code and, where there is one, its field */
+            "4XX": {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @constant */
+                        ok: false;
+                        issues: {
+                            /** @description stable code, e.g. LEDGER.OVERDRAW */
+                            code: string;
+                            message: string;
+                            /** @description field path, e.g. charges.1.massKg */
+                            field?: string;
+                        }[];
+                    };
+                };
+            };
+        };
+    };
+    getBalanceReport: {
+        parameters: {
+            query?: {
+                format?: "pdf" | "csv";
+                table?: string;
+                period?: "MONTH" | "QUARTER" | "CUSTOM";
+                year?: number;
+                month?: number;
+                quarter?: number;
+                start?: string;
+                end?: string;
+                warnPct?: number;
+                failPct?: number;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Success */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @constant */
+                        ok: true;
+                        value: unknown;
+                    };
+                };
+            };
+            /** @description Refused: every issue names its code and, where there is one, its field */
+            "4XX": {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @constant */
+                        ok: false;
+                        issues: {
+                            /** @description stable code, e.g. LEDGER.OVERDRAW */
+                            code: string;
+                            message: string;
+                            /** @description field path, e.g. charges.1.massKg */
+                            field?: string;
+                        }[];
+                    };
+                };
+            };
+        };
+    };
+    getBalanceCustodyReport: {
+        parameters: {
+            query?: {
+                format?: "pdf" | "csv";
+                table?: string;
+                period?: string;
+                operatorType?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Success */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @constant */
+                        ok: true;
+                        value: unknown;
+                    };
+                };
+            };
+            /** @description Refused: every issue names its code and, where there is one, its field */
+            "4XX": {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @constant */
+                        ok: false;
+                        issues: {
+                            /** @description stable code, e.g. LEDGER.OVERDRAW */
+                            code: string;
+                            message: string;
+                            /** @description field path, e.g. charges.1.massKg */
+                            field?: string;
+                        }[];
+                    };
+                };
+            };
+        };
+    };
+    getWasteDueReport: {
+        parameters: {
+            query?: {
+                format?: "pdf" | "csv";
+                table?: string;
+                days?: number;
+                category?: "LQG" | "SQG" | "VSQG";
+                tsdfMiles?: number;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Success */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @constant */
+                        ok: true;
+                        value: unknown;
+                    };
+                };
+            };
+            /** @description Refused: every issue names its code and, where there is one, its field */
+            "4XX": {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @constant */
+                        ok: false;
+                        issues: {
+                            /** @description stable code, e.g. LEDGER.OVERDRAW */
+                            code: string;
+                            message: string;
+                            /** @description field path, e.g. charges.1.massKg */
+                            field?: string;
+                        }[];
+                    };
+                };
+            };
+        };
+    };
+    getLotsByCodeReport: {
+        parameters: {
+            query?: {
+                format?: "pdf" | "csv";
+                table?: string;
+            };
+            header?: never;
+            path: {
+                code: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Success */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": {
+                        /** @constant */
+                        ok: true;
+                        value: unknown;
                     };
                 };
             };
