@@ -126,7 +126,7 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
       for (const v of values) {
         const row = byRef.get(v.rowId);
         if (!row || row[STATE] === "saved" || !entry.has(v.field)) continue;
-        row[v.field] = v.value === null || v.value === undefined ? "" : String(v.value);
+        row[v.field] = v.value === null || v.value === undefined ? "" : typeof v.value === "object" ? JSON.stringify(v.value) : String(v.value as string | number | boolean);
         touched.add(v.rowId);
       }
       if (touched.size) setServerErrorsState((prev) => Object.fromEntries(Object.entries(prev).filter(([k]) => !touched.has(k))));

@@ -36,7 +36,10 @@ function refused(prev: ReceiveState, values: ReceiveState["values"], issues: rea
 
 /** One lot from the chosen pickups: one pickup = its own lot; several = pooled; optionally accepted and moved straight into a tank. Production staff only. */
 export async function receivePickupsAction(prev: ReceiveState, form: FormData): Promise<ReceiveState> {
-  const text = (n: string) => (typeof form.get(n) === "string" ? String(form.get(n)).trim() : "");
+  const text = (n: string) => {
+    const v = form.get(n);
+    return typeof v === "string" ? v.trim() : "";
+  };
   const values = { code: text("code"), volume: text("volume"), temp: text("temp"), notes: text("notes"), certified: form.get("certified") === "on", pickups: form.getAll("pickup").filter((p): p is string => typeof p === "string"), tankCode: text("tankCode"), acceptReason: text("acceptReason") };
   const who = await requireRole(["PRODUCTION"]);
   if (!who.ok) return refused(prev, values, who.issues);

@@ -145,7 +145,7 @@ export async function getCustodyReport(db: Db, site: { id: number; timeZone: str
       continue;
     }
     setOfOrigin.set(e.id, set.key);
-    const s = sets.get(set.key) ?? { attributes: { scheme: set.scheme, material: set.material }, inputG: 0, certificates: new Map() };
+    const s = sets.get(set.key) ?? { attributes: { scheme: set.scheme, material: set.material }, inputG: 0, certificates: new Map<string, { sources: Set<string>; grams: number }>() };
     s.inputG += e.massG;
     const c = s.certificates.get(set.certificate) ?? { sources: new Set<string>(), grams: 0 };
     c.sources.add(set.source);

@@ -45,5 +45,5 @@ export async function exportGrid(db: Db, actor: GridActor, q: GridExport): Promi
     ws.getColumn(i + 1).width = Math.max(10, Math.round((c.width ?? 120) / 7));
   });
   const buffer = await wb.xlsx.writeBuffer();
-  return ok({ body: new Uint8Array(buffer as ArrayBuffer), contentType: "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet", filename: `${base}.xlsx`, rows: rows.length });
+  return ok({ body: new Uint8Array(buffer), contentType: "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet", filename: `${base}.xlsx`, rows: rows.length });
 }

@@ -272,7 +272,7 @@ interface LedgerState {
 }
 
 const cacheHome = globalThis as unknown as { tracevatTraceCache?: Map<number, Promise<Result<LedgerState>>>; tracevatTraceWarming?: Set<number> };
-const cache: Map<number, Promise<Result<LedgerState>>> = (cacheHome.tracevatTraceCache ??= new Map());
+const cache: Map<number, Promise<Result<LedgerState>>> = (cacheHome.tracevatTraceCache ??= new Map<number, Promise<Result<LedgerState>>>());
 /** Sites whose index is being built by warmTraceCache (set before the version query, so two pages start one build). */
 const warming: Set<number> = (cacheHome.tracevatTraceWarming ??= new Set());
 
