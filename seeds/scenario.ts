@@ -118,8 +118,8 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
     collected.push({ code, material: "USED_COOKING_OIL", every: 7, litres: 1400 + i * 300, nextDay: 2 + i, certified: true });
     ops.push({ kind: "source", at: at0, actor: "admin.jory", input: { code, name, kind: "FOOD_PROCESSOR", materials: ["USED_COOKING_OIL"], address: streetAddress(40 + i), certificateNo: `SC-QM-${2000 + i}`, certificateScheme: "Regional sustainable-waste scheme", certificateExpires: new Date(anchor + 200 * DAY), pickupEveryDays: 7, collectorNote: "Tanker bay 2; weigh out at the gatehouse." } });
   });
-  const renderers = RENDERERS.map((name, i) => ({ code: `D${String(i + 1).padStart(3, "0")}`, name, material: (i === 2 ? "TALLOW" : "YELLOW_GREASE") }));
-  const crushers = CRUSHERS.map((name, i) => ({ code: `C${String(i + 1).padStart(3, "0")}`, name, material: (i === 0 ? "SOYBEAN" : "CANOLA") }));
+  const renderers = RENDERERS.map((name, i) => ({ code: `D${String(i + 1).padStart(3, "0")}`, name, material: (i === 2 ? "TALLOW" : "YELLOW_GREASE") as MaterialKind }));
+  const crushers = CRUSHERS.map((name, i) => ({ code: `C${String(i + 1).padStart(3, "0")}`, name, material: (i === 0 ? "SOYBEAN" : "CANOLA") as MaterialKind }));
   for (const s of renderers) ops.push({ kind: "source", at: at0, actor: "admin.jory", input: { code: s.code, name: s.name, kind: "RENDERER", materials: [s.material], address: "Rendering Lane, Otterholm Industrial Estate" } });
   for (const s of crushers) ops.push({ kind: "source", at: at0, actor: "admin.jory", input: { code: s.code, name: s.name, kind: "CRUSHER", materials: [s.material], address: "Mill Wharf, Quillmoor", certificateNo: `SC-CR-${s.code}`, certificateScheme: "Regional crop-oil scheme", certificateExpires: new Date(anchor + 300 * DAY) } });
   ops.push({ kind: "source", at: at0, actor: "admin.jory", input: { code: "O001", name: OTHER_SUPPLIERS[0] ?? "Civic depot", kind: "OTHER", materials: ["USED_COOKING_OIL"], address: "Depot Road, Quillmoor", collectorNote: "Household oil drop-off bank; empty the 1 m³ bank." } });

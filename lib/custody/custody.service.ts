@@ -14,7 +14,7 @@ import { labelOf } from "@/lib/ledger/kinds";
 import { parseInput } from "@/lib/ledger/parse";
 import { toGrams } from "@/lib/quantity/units";
 import { buildCustodyLedger, checkClaim, convertCredit, getBalancePeriodOf, RULESET_EU_2022_996 } from "@/lib/custody/custody-balance";
-import { CustodyQuerySchema } from "@/lib/api/endpoints/trace";
+import { CustodyQuerySchema } from "@/lib/custody/custody.schema";
 import type {
   BalanceAccount,
   CharacteristicSet,

@@ -11,8 +11,8 @@ import { log } from "@/lib/log/log.service";
 // append-only, so any booking changes it, and the next index reads only the new rows). A trace resumes
 // from the last snapshot before the moves it needs; answers are kept per version, so the page, its CSV,
 // the API and the record pages share one computation.
-import { BackwardTraceQuerySchema, ForwardTraceQuerySchema } from "@/lib/api/endpoints/trace";
-import type { BackwardKind, ForwardKind } from "@/lib/api/endpoints/trace";
+import { BackwardTraceQuerySchema, ForwardTraceQuerySchema } from "@/lib/trace/trace-query.schema";
+import type { BackwardKind, ForwardKind } from "@/lib/trace/trace-query.schema";
 import type { Db } from "@/lib/database/connect";
 import { fail, failMany, invariant, ok } from "@/lib/errors";
 import type { DomainIssue, Result } from "@/lib/errors";

@@ -16,7 +16,7 @@ import { reopenPeriod } from "@/lib/period/period.service";
 
 // Route handlers read the session through next/headers and the database through getDb; both are
 // replaced so the handlers' own steps (same-origin check, role, parse, service, status) run as served.
-const session = vi.hoisted(() => ({ db: null, user: null as null | { siteId: number; userId: number; now: Date; role: string } }));
+const session = vi.hoisted(() => ({ db: null as unknown, user: null as null | { siteId: number; userId: number; now: Date; role: string } }));
 vi.mock("@/lib/db", () => ({ getDb: () => Promise.resolve(session.db) }));
 vi.mock("@/lib/auth/request.service", async () => (await import("./support/request-mock")).requestServiceMock(session));
 

@@ -7,7 +7,7 @@ import { createHolder, postMovement, requireHolder, runInTransaction } from "@/l
 
 // The JSON endpoints' own steps (same-origin check, role, parse, service, status) with the session and
 // database replaced, as in test/integration/lab-api.test.ts.
-const session = vi.hoisted(() => ({ db: null, user: null as null | { siteId: number; userId: number; now: Date; role: string } }));
+const session = vi.hoisted(() => ({ db: null as unknown, user: null as null | { siteId: number; userId: number; now: Date; role: string } }));
 vi.mock("@/lib/db", () => ({ getDb: () => Promise.resolve(session.db) }));
 vi.mock("@/lib/auth/request.service", () => ({
   requireRole: (roles: readonly string[]) => {
