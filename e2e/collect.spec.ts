@@ -1,7 +1,7 @@
 import path from "node:path";
 import AxeBuilder from "@axe-core/playwright";
 import Database from "better-sqlite3";
-import { expect, test } from "@playwright/test";
+import { expect, test } from "./support/test";
 import type { Page } from "@playwright/test";
 import { signIn } from "./support/sign-in";
 
