@@ -1,5 +1,5 @@
 import AxeBuilder from "@axe-core/playwright";
-import { expect, test } from "@playwright/test";
+import { expect, test } from "./support/test";
 import { signIn } from "./support/sign-in";
 
 // WCAG 2.1 AA as checked by axe-core: no serious or critical violations on the pages each role uses

@@ -1,4 +1,5 @@
-import { expect, request as playwrightRequest, test } from "@playwright/test";
+import { request as playwrightRequest } from "@playwright/test";
+import { expect, test } from "./support/test";
 import { signIn } from "./support/sign-in";
 
 // The administrator adds a colleague, the colleague signs in, and disabling the account ends their

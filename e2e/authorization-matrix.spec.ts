@@ -1,6 +1,7 @@
 import { readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
-import { expect, request as playwrightRequest, test } from "@playwright/test";
+import { request as playwrightRequest } from "@playwright/test";
+import { expect, test } from "./support/test";
 import type { APIRequestContext } from "@playwright/test";
 
 // OWASP ASVS 5.0 V8.2.1: function-level authorisation on the server. Every data-changing route handler

@@ -1,4 +1,5 @@
-import { expect, request as playwrightRequest, test } from "@playwright/test";
+import { request as playwrightRequest } from "@playwright/test";
+import { expect, test } from "./support/test";
 import { signIn } from "./support/sign-in";
 
 // Compliance staff review a month: the statement closes (inputs = outputs + closing stock within the

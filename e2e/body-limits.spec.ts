@@ -1,6 +1,7 @@
 import { readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
-import { expect, request as playwrightRequest, test } from "@playwright/test";
+import { request as playwrightRequest } from "@playwright/test";
+import { expect, test } from "./support/test";
 import type { APIRequestContext } from "@playwright/test";
 
 // OWASP ASVS 5.0 V4.1 / V13: a server bounds what it reads. Every JSON write route and every server

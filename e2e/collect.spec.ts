@@ -1,7 +1,7 @@
 import path from "node:path";
 import AxeBuilder from "@axe-core/playwright";
 import Database from "better-sqlite3";
-import { expect, test } from "@playwright/test";
+import { expect, test } from "./support/test";
 import type { Page } from "@playwright/test";
 import { signIn } from "./support/sign-in";
 
@@ -31,14 +31,14 @@ async function outbox(page: Page): Promise<Waiting[]> {
     () =>
       new Promise<Waiting[]>((resolve, reject) => {
         const open = indexedDB.open("tracevat-collect");
-        open.onerror = () => reject(open.error);
+        open.onerror = () => reject(open.error ?? new Error("the outbox database did not open"));
         open.onsuccess = () => {
           const req = open.result.transaction("entries").objectStore("entries").getAll();
           req.onsuccess = () => {
             resolve(req.result as Waiting[]);
             open.result.close();
           };
-          req.onerror = () => reject(req.error);
+          req.onerror = () => reject(req.error ?? new Error("the outbox could not be read"));
         };
       }),
   );

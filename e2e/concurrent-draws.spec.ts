@@ -1,5 +1,5 @@
 import { randomUUID } from "node:crypto";
-import { expect, test } from "@playwright/test";
+import { expect, test } from "./support/test";
 
 // OWASP ASVS 5.0 V2.3.4 (limited resources cannot be double-booked): 1,000 draw attempts against one
 // tank through the running server, 50 in flight at a time; the total drawn never exceeds its stock.

@@ -1,4 +1,4 @@
-import { expect, test } from "@playwright/test";
+import { expect, test } from "./support/test";
 import { signIn } from "./support/sign-in";
 
 // A mistake is corrected, never deleted: a transfer booked into the wrong tank is reversed with a

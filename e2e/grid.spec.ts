@@ -2,7 +2,7 @@ import { readFileSync } from "node:fs";
 import path from "node:path";
 import Database from "better-sqlite3";
 import type { Locator, Page } from "@playwright/test";
-import { expect, test } from "@playwright/test";
+import { expect, test } from "./support/test";
 import AxeBuilder from "@axe-core/playwright";
 import { signIn } from "./support/sign-in";
 

@@ -1,4 +1,4 @@
-import { expect, test } from "@playwright/test";
+import { expect, test } from "./support/test";
 import { signIn } from "./support/sign-in";
 
 // The lab bench in the browser: a lot waiting for the lab, a titration whose FFA is shown as it is

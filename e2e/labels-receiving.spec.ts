@@ -3,7 +3,8 @@ import AxeBuilder from "@axe-core/playwright";
 import Database from "better-sqlite3";
 import QRCode from "qrcode";
 import { randomUUID } from "node:crypto";
-import { expect, request as playwrightRequest, test } from "@playwright/test";
+import { request as playwrightRequest } from "@playwright/test";
+import { expect, test } from "./support/test";
 import { signIn } from "./support/sign-in";
 
 const DB = path.resolve(import.meta.dirname, "..", "data", `e2e-${process.env.E2E_PORT ?? 3100}.db`);

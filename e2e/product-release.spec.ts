@@ -1,5 +1,5 @@
 import { readFileSync } from "node:fs";
-import { expect, test } from "@playwright/test";
+import { expect, test } from "./support/test";
 import type { Page } from "@playwright/test";
 import { signIn } from "./support/sign-in";
 import { pdfText } from "../test/support/pdf-text";

@@ -1,6 +1,7 @@
 import { existsSync, readFileSync } from "node:fs";
 import path from "node:path";
-import { expect, request as playwrightRequest, test } from "@playwright/test";
+import { request as playwrightRequest } from "@playwright/test";
+import { expect, test } from "./support/test";
 import type { APIRequestContext } from "@playwright/test";
 import { homeFor, readRuleFor, readersOf } from "../lib/auth/read-matrix";
 import type { SiteRole } from "../lib/ledger/kinds";

@@ -1,4 +1,4 @@
-import { expect, test } from "@playwright/test";
+import { expect, test } from "./support/test";
 import { signIn } from "./support/sign-in";
 
 // OWASP ASVS 5.0 V3.4: CSP with nonces, frame-ancestors, nosniff, referrer policy on every response.

@@ -1,4 +1,4 @@
-import { expect, test } from "@playwright/test";
+import { expect, test } from "./support/test";
 
 test("a wrong password is refused with a message and the user name kept", async ({ page }) => {
   await page.goto("/lots");

@@ -44,7 +44,7 @@ export async function withEngine<T>(
       const value: unknown = Reflect.get(target, prop, receiver);
       if (prop === "connect" && typeof value === "function") {
         return async (...args: unknown[]) => {
-          const adapter = (await (value as (...a: unknown[]) => Promise<Disposable>).apply(target, args)) as Disposable;
+          const adapter = await (value as (...a: unknown[]) => Promise<Disposable>).apply(target, args);
           opened.push(adapter);
           return adapter;
         };

@@ -13,6 +13,9 @@ npx tsc --noEmit -p tsconfig.json
 step "lint (including the layer rule)"
 npx eslint .
 
+step "import rules (dependency-cruiser: no cycles in lib/, no reaching into another domain's store)"
+npx depcruise --config .dependency-cruiser.cjs lib app
+
 step "unit tests"
 npx vitest run --project unit
 

@@ -14,7 +14,8 @@ export interface PeriodActionState {
 }
 
 async function run(action: "close" | "reopen", form: FormData): Promise<PeriodActionState> {
-  const reason = String(form.get("reason") ?? "");
+  const typed = form.get("reason");
+  const reason = typeof typed === "string" ? typed : "";
   const who = await requireRole(["COMPLIANCE"]);
   if (!who.ok) return { ok: false, message: who.issues[0]?.message ?? "Refused", field: null, reason };
   const input = { periodId: Number(form.get("periodId")), ...(reason.trim() === "" && action === "close" ? {} : { reason }) };

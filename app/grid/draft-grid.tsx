@@ -126,7 +126,8 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
       for (const v of values) {
         const row = byRef.get(v.rowId);
         if (!row || row[STATE] === "saved" || !entry.has(v.field)) continue;
-        row[v.field] = v.value === null || v.value === undefined ? "" : String(v.value);
+        const raw = v.value;
+        row[v.field] = raw === null || raw === undefined ? "" : typeof raw === "string" ? raw : typeof raw === "number" || typeof raw === "boolean" ? String(raw) : JSON.stringify(raw);
         touched.add(v.rowId);
       }
       if (touched.size) setServerErrorsState((prev) => Object.fromEntries(Object.entries(prev).filter(([k]) => !touched.has(k))));

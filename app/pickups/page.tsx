@@ -31,7 +31,7 @@ export default async function PickupsPage({ searchParams }: { searchParams: Prom
         <>
           <Pager basePath="/pickups" page={page} total={total} pageSize={PAGE_SIZE} />
           <div className="table-wrap">
-            <table>
+            <table className="phone-cards">
               <thead>
                 <tr>
                   <th scope="col">Pickup</th>
@@ -58,24 +58,24 @@ export default async function PickupsPage({ searchParams }: { searchParams: Prom
               <tbody>
                 {rows.map((p) => (
                   <tr key={p.code}>
-                    <td>
+                    <td data-label="Pickup" className="card-title">
                       <CodeLink href={`/pickups/${encodeURIComponent(p.code)}`} code={p.code} />
                     </td>
-                    <td className="nowrap">{when(p.observedAt, tz)}</td>
-                    <td>
+                    <td data-label="Observed" className="nowrap">{when(p.observedAt, tz)}</td>
+                    <td data-label="Source">
                       <Link href={`/sources/${encodeURIComponent(p.sourceCode)}`} aria-label={`Source ${p.sourceCode} ${p.sourceName}`}>
                         {p.sourceCode}
                       </Link>{" "}
                       <span className="muted">{p.sourceName}</span>
                     </td>
-                    <td>{p.collector}</td>
-                    <td>{labelOf(p.material)}</td>
-                    <td className="num">{p.containers}</td>
-                    <td className="num">{litres(p.volumeMl)}</td>
-                    <td className="num">{num(p.tempC, 1)} °C</td>
-                    <td className="num">{kg(p.massG)}</td>
-                    <td>{p.lotCode ? <CodeLink href={`/lots/${encodeURIComponent(p.lotCode)}`} code={p.lotCode} /> : <span className="muted">not yet</span>}</td>
-                    <td>
+                    <td data-label="Collector">{p.collector}</td>
+                    <td data-label="Material">{labelOf(p.material)}</td>
+                    <td data-label="Containers" className="num">{p.containers}</td>
+                    <td data-label="Volume" className="num">{litres(p.volumeMl)}</td>
+                    <td data-label="Temp." className="num">{num(p.tempC, 1)} °C</td>
+                    <td data-label="Mass" className="num">{kg(p.massG)}</td>
+                    <td data-label="Lot">{p.lotCode ? <CodeLink href={`/lots/${encodeURIComponent(p.lotCode)}`} code={p.lotCode} /> : <span className="muted">not yet</span>}</td>
+                    <td data-label="History">
                       <HistoryLink kind="pickup" recordKey={p.code} label="pickup" />
                     </td>
                   </tr>

@@ -49,7 +49,7 @@ export function pickupNumber(localDay: string, key: string): string {
 export function checkOnPhone(input: unknown, knownSourceCodes: ReadonlySet<string>): Result<Pickup> {
   const parsed = parseInput(PickupSchema, input);
   const issues: DomainIssue[] = parsed.ok ? [] : [...parsed.issues];
-  const sourceCode = typeof input === "object" && input !== null && "sourceCode" in input ? String((input as { sourceCode: unknown }).sourceCode).trim().toUpperCase() : "";
+  const sourceCode = typeof input === "object" && input !== null && "sourceCode" in input ? String((input).sourceCode).trim().toUpperCase() : "";
   const sourceNamed = parsed.ok || !issues.some((i) => i.field === "sourceCode");
   if (sourceNamed && sourceCode !== "" && !knownSourceCodes.has(sourceCode)) issues.push({ code: "RECORD.NOT_FOUND", message: `Source ${sourceCode} does not exist`, field: "sourceCode" });
   if (issues.length) return failMany(issues);

@@ -66,7 +66,7 @@ export function classifyReply(entry: OutboxEntry, reply: Reply): Outcome {
   if ("lost" in reply) return { kind: "RETRY", problem: `No answer from the server (${reply.lost})` };
   const { status, body } = reply;
   if (status >= 200 && status < 300) {
-    const value = typeof body === "object" && body !== null && "value" in body ? (body as { value: unknown }).value : null;
+    const value = typeof body === "object" && body !== null && "value" in body ? (body).value : null;
     const v = value as { id?: unknown; code?: unknown; receivedAt?: unknown } | null;
     if (v && typeof v.id === "number" && Number.isInteger(v.id) && v.id > 0 && v.code === entry.pickup.code.trim().toUpperCase()) {
       return { kind: "STORED", recordId: v.id, code: v.code, receivedAt: typeof v.receivedAt === "string" ? v.receivedAt : null };

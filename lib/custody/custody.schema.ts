@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { MAX_MASS_KG, massKg, oneOf, requiredText, text, when } from "@/lib/ledger/fields";
+import { emptyAsMissing as blank, MAX_MASS_KG, massKg, oneOf, requiredText, text, when } from "@/lib/ledger/fields";
 import { CARRY_FORWARD_MODES, NEGATIVE_BALANCE_POLICIES, OPERATOR_TYPES } from "@/lib/custody/custody-balance";
 import { toGrams } from "@/lib/quantity/units";
 
@@ -103,3 +103,17 @@ export const CustodySettingsSchema = z.object({
   negativeBalance: oneOf("Negative-balance policy", NEGATIVE_BALANCE_POLICIES).optional(),
 });
 export type CustodySettingsInput = z.input<typeof CustodySettingsSchema>;
+
+/** The chain-of-custody page's query and GET /api/custody (documented in lib/api/endpoints/trace.ts). */
+export const CustodyQuerySchema = z.object({
+  /** A balance period label, e.g. "2026-Q4"; default: the period containing today. */
+  period: z.preprocess(blank, z.string().trim().regex(/^\d{4}(-Q[1-4]|-\d{2})?$|^\d{4}-\d{2}-\d{2}\.\.\d{4}-\d{2}-\d{2}$/, "Period: a balance period label such as 2026-Q4").optional()),
+  operatorType: z.preprocess(blank, z.enum(OPERATOR_TYPES, { error: `Operator type must be one of: ${OPERATOR_TYPES.join(", ")}` }).default("OTHER_OPERATOR")),
+  /** Try a certified claim of this many kg of methyl ester now, without saving it. */
+  claimKg: z.preprocess(
+    blank,
+    z.coerce.number({ error: "Claim (kg) must be a number" }).positive("Claim (kg) must be more than 0").max(MAX_MASS_KG, `Claim must be at most ${MAX_MASS_KG.toLocaleString("en")} kg`).optional(),
+  ),
+  claimSet: z.preprocess(blank, z.string().trim().max(MAX_SET_KEY_LENGTH, `Characteristic set: at most ${MAX_SET_KEY_LENGTH} characters`).optional()),
+});
+export type CustodyQuery = z.output<typeof CustodyQuerySchema>;

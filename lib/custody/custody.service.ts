@@ -14,7 +14,7 @@ import { labelOf } from "@/lib/ledger/kinds";
 import { parseInput } from "@/lib/ledger/parse";
 import { toGrams } from "@/lib/quantity/units";
 import { buildCustodyLedger, checkClaim, convertCredit, getBalancePeriodOf, RULESET_EU_2022_996 } from "@/lib/custody/custody-balance";
-import { CustodyQuerySchema } from "@/lib/api/endpoints/trace";
+import { CustodyQuerySchema } from "@/lib/custody/custody.schema";
 import type {
   BalanceAccount,
   CharacteristicSet,
@@ -152,7 +152,7 @@ export async function getCustodyReport(db: Db, site: { id: number; timeZone: str
       continue;
     }
     setOfOrigin.set(e.id, set.key);
-    const s = sets.get(set.key) ?? { attributes: { scheme: set.scheme, material: set.material }, inputG: 0, certificates: new Map() };
+    const s = sets.get(set.key) ?? { attributes: { scheme: set.scheme, material: set.material }, inputG: 0, certificates: new Map<string, { sources: Set<string>; grams: number }>() };
     s.inputG += e.massG;
     const c = s.certificates.get(set.certificate) ?? { sources: new Set<string>(), grams: 0 };
     c.sources.add(set.source);

@@ -1,7 +1,7 @@
 // Observed volume and temperature → mass and standard volume, with the density basis kept for the record.
 import type { Result } from "@/lib/errors";
 import { failMany, ok } from "@/lib/errors";
-import type { DensityTable, MaterialKind as DensityMaterial } from "@/lib/quantity/density";
+import type { DensityTable } from "@/lib/quantity/density";
 import { applyMeasuredDensity, densityAt, massFromObserved, requireDensityEntry, standardVolume } from "@/lib/quantity/density";
 import type { MaterialKind } from "@/lib/ledger/kinds";
 
@@ -21,7 +21,7 @@ export function measureObserved(input: {
   referenceTempC: number;
   table: DensityTable;
 }): Result<Measured> {
-  const base = requireDensityEntry(input.table, input.material as DensityMaterial);
+  const base = requireDensityEntry(input.table, input.material);
   const entry =
     input.measuredDensityKgM3 === undefined
       ? base

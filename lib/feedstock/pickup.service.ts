@@ -13,17 +13,14 @@ import { PickupSchema } from "@/lib/feedstock/pickup.schema";
 import type { Pickup } from "@/lib/feedstock/pickup.schema";
 import { toMillilitres } from "@/lib/quantity/units";
 import { findPickupByKey, findPickupKeys, insertPickup, insertPickups } from "@/lib/feedstock/pickup.store";
+import type { PickupSaved } from "@/lib/feedstock/pickup.store";
 import { requireSourceId, requireSourceIds } from "@/lib/source/source.store";
 import type { DensityTable } from "@/lib/quantity/density";
 import { DEFAULT_DENSITY_TABLE } from "@/lib/quantity/density";
 import type { Actor } from "@/lib/site/actor";
 
-export interface PickupSaved {
-  id: number;
-  code: string;
-  massG: number;
-  receivedAt: Date;
-}
+export type { PickupSaved } from "@/lib/feedstock/pickup.store";
+
 
 function measurePickup(p: Pickup, table: DensityTable): Result<number> {
   const measured = measureObserved({ material: p.material, observedVolumeL: p.volumeL, observedTempC: p.tempC, referenceTempC: 15, table });

@@ -2,8 +2,14 @@ import "server-only";
 import type { Db, Tx } from "@/lib/database/connect";
 import { insertRows } from "@/lib/database/bulk-insert";
 import type { Pickup } from "@/lib/feedstock/pickup.schema";
-import type { PickupSaved } from "@/lib/feedstock/pickup.service";
 import { toMillilitres } from "@/lib/quantity/units";
+
+export interface PickupSaved {
+  id: number;
+  code: string;
+  massG: number;
+  receivedAt: Date;
+}
 
 type PickupInsert = { siteId: number; holderId: number; sourceId: number; collectorId: number; receivedAt: Date; massG: number; pickup: Pickup };
 

@@ -148,7 +148,7 @@ export function matchHeaders(table: GridTable, headers: readonly string[]): { ma
       const u = parseUnitFromHeader(h);
       if (u.ok) {
         if (quantityOf(u.value) !== column.quantity) unitIssues.push(`Column "${h}": ${u.value} is not a unit of ${column.quantity}`);
-        else matches.push({ index, column, unit: u.value as GridUnit });
+        else matches.push({ index, column, unit: u.value });
         return;
       }
     }

@@ -55,5 +55,5 @@ export async function exportGrid(db: Db, actor: GridActor, q: GridExport): Promi
     if (c.kind === "site-time") column.numFmt = "yyyy-mm-dd hh:mm";
   });
   const buffer = await wb.xlsx.writeBuffer();
-  return ok({ body: new Uint8Array(buffer as ArrayBuffer), contentType: "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet", filename: `${base}.xlsx`, rows: rows.length });
+  return ok({ body: new Uint8Array(buffer), contentType: "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet", filename: `${base}.xlsx`, rows: rows.length });
 }

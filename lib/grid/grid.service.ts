@@ -41,7 +41,7 @@ export async function listGridRows(db: Db, actor: GridActor, q: GridQuery): Prom
  * `runInTransaction` then runs inside this one, so a batch of rows commits or rolls back as one.
  */
 function joinTransaction(tx: Tx): Db {
-  return new Proxy(tx as object, {
+  return new Proxy(tx, {
     get(target, prop) {
       if (prop === "$transaction") return async (fn: (t: Tx) => Promise<unknown>) => fn(tx);
       return Reflect.get(target, prop) as unknown;

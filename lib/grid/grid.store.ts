@@ -171,7 +171,7 @@ export async function queryGridRows(db: Db | Tx, r: RowsRequest): Promise<RowsPa
   switch (r.table) {
     case "sources": {
       const t = q({ siteId });
-      const [rows, count] = await Promise.all([db.source.findMany({ ...(t as Prisma.SourceFindManyArgs) }), db.source.count({ where: t.where as Prisma.SourceWhereInput })]);
+      const [rows, count] = await Promise.all([db.source.findMany({ ...(t as Prisma.SourceFindManyArgs) }), db.source.count({ where: t.where })]);
       return {
         lastRow: count,
         totals: { massKg: null, volumeL: null },
@@ -219,7 +219,7 @@ export async function queryGridRows(db: Db | Tx, r: RowsRequest): Promise<RowsPa
       const t = q({ lot: { siteId } });
       const [rows, count] = await Promise.all([
         db.titration.findMany({ ...(t as Prisma.TitrationFindManyArgs), include: { lot: { select: { code: true } }, analyst: { select: { fullName: true } } } }),
-        db.titration.count({ where: t.where as Prisma.TitrationWhereInput }),
+        db.titration.count({ where: t.where }),
       ]);
       return {
         lastRow: count,
@@ -234,7 +234,7 @@ export async function queryGridRows(db: Db | Tx, r: RowsRequest): Promise<RowsPa
       const t = q({ lot: { siteId } });
       const [rows, count] = await Promise.all([
         db.labTest.findMany({ ...(t as Prisma.LabTestFindManyArgs), include: { lot: { select: { code: true } }, analyst: { select: { fullName: true } } } }),
-        db.labTest.count({ where: t.where as Prisma.LabTestWhereInput }),
+        db.labTest.count({ where: t.where }),
       ]);
       return {
         lastRow: count,
@@ -292,7 +292,7 @@ export async function queryGridRows(db: Db | Tx, r: RowsRequest): Promise<RowsPa
       const t = q({ productLot: { siteId } });
       const [rows, count] = await Promise.all([
         db.qcResult.findMany({ ...(t as Prisma.QcResultFindManyArgs), include: { productLot: { select: { code: true } } } }),
-        db.qcResult.count({ where: t.where as Prisma.QcResultWhereInput }),
+        db.qcResult.count({ where: t.where }),
       ]);
       return {
         lastRow: count,
@@ -318,8 +318,8 @@ export async function queryGridRows(db: Db | Tx, r: RowsRequest): Promise<RowsPa
       const t = q({ siteId });
       const [rows, count, held] = await Promise.all([
         db.wasteContainer.findMany({ ...(t as Prisma.WasteContainerFindManyArgs), include: { holder: { select: { stockG: true } } } }),
-        db.wasteContainer.count({ where: t.where as Prisma.WasteContainerWhereInput }),
-        db.holder.aggregate({ where: { waste: { is: t.where as Prisma.WasteContainerWhereInput } }, _sum: { stockG: true } }),
+        db.wasteContainer.count({ where: t.where }),
+        db.holder.aggregate({ where: { waste: { is: t.where } }, _sum: { stockG: true } }),
       ]);
       const due = "$transaction" in db ? await getWasteDueBoard(db as Db, siteId, r.now, 0) : null;
       return {

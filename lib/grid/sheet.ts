@@ -3,7 +3,7 @@
 import Papa from "papaparse";
 import { CONTROL_CHARACTERS } from "@/lib/ledger/fields";
 import type { UnitSystem } from "@/lib/quantity/units";
-import type { CellValue, GridColumn, GridRow, GridTable } from "@/lib/grid/tables";
+import type { GridColumn, GridRow, GridTable } from "@/lib/grid/tables";
 import { entryColumns } from "@/lib/grid/tables";
 import type { HeaderMatch } from "@/lib/grid/cells";
 import { looksLikeHeader, matchHeaders, readCell } from "@/lib/grid/cells";
@@ -124,7 +124,7 @@ export function readSheet(table: GridTable, text: string, o: SheetOptions): Shee
       const r = readCell(column, cell, { style, order, siteOffsetMin: o.siteOffsetMin, system: o.system, ...(unit ? { unit } : {}) });
       if (r.ok) values[column.field] = r.value;
       else {
-        values[column.field] = cell as CellValue;
+        values[column.field] = cell;
         errors[column.field] = r.issues[0]?.message ?? "cannot be read";
       }
     }

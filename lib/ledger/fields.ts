@@ -63,3 +63,6 @@ export const id = (what: string) =>
     .int(`${what} must be a whole number`)
     .positive(`${what} must be a record number`)
     .max(MAX_RECORD_ID, `${what} is not a record number (too large)`);
+
+/** Query strings send "" for an empty field: read it as missing (z.preprocess(emptyAsMissing, …)). */
+export const emptyAsMissing = (v: unknown): unknown => (v === "" || v === null ? undefined : v);

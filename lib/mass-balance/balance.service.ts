@@ -10,13 +10,14 @@ import type { MoveRole } from "@/lib/ledger/kinds";
 import { parseInput } from "@/lib/ledger/parse";
 import { getAccountingPeriodExact, listLatestGauges, listPeriodEvents, loadBalanceLedger } from "@/lib/mass-balance/balance.store";
 import type { AccountingPeriodView, BalanceHolderRef, PeriodEventView } from "@/lib/mass-balance/balance.store";
-import { getLocalDate, refuseUnreasonablePeriod, resolvePeriodRange } from "@/lib/mass-balance/period";
+import { getLocalDate, refuseUnreasonablePeriod } from "@/lib/mass-balance/period";
+import { resolvePeriodRange } from "@/lib/mass-balance/period-range";
 import { compareBookToGauges, computePeriodBalance, DEFAULT_CLOSURE_TOLERANCE, DEFAULT_HOLDER_CLASSES } from "@/lib/mass-balance/period-balance";
 import type { BatchBalance, Closure, ClosureTolerance, ProcessView, StockView } from "@/lib/mass-balance/period-balance";
 import type { Differences, GaugeDifference } from "@/lib/mass-balance/differences";
 import { ClosureToleranceSchema, PeriodRangeSchema } from "@/lib/mass-balance/period.schema";
-import { BalanceQuerySchema } from "@/lib/api/endpoints/trace";
-import type { BALANCE_PERIOD_KINDS } from "@/lib/api/endpoints/trace";
+import { BalanceQuerySchema } from "@/lib/mass-balance/balance-query.schema";
+import type { BALANCE_PERIOD_KINDS } from "@/lib/mass-balance/balance-query.schema";
 import { getUtcOffsetMin } from "@/lib/period/site-time";
 
 export interface BalanceLine {

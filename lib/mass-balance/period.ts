@@ -3,7 +3,6 @@
 // -300 for EST); nothing here reads a clock or a time-zone database.
 import { fail, invariant, ok } from "@/lib/errors";
 import type { Result } from "@/lib/errors";
-import type { PeriodRange } from "@/lib/mass-balance/period.schema";
 
 export interface Period {
   startMs: number;
@@ -136,20 +135,6 @@ export function getPeriodContaining(atMs: number, lengthMonths: number, anchorMo
           ? `${startYear}-${pad2(startMonth)}`
           : `${formatDate(startYear, startMonth, 1)}..${formatDate(startYear, startMonth + lengthMonths, 1)}`;
   return { startMs, endMs, label };
-}
-
-/** Turns a parsed period choice (see PeriodRangeSchema) into instants. */
-export function resolvePeriodRange(range: PeriodRange): Result<Period> {
-  const offset: UtcOffset =
-    range.utcOffsetAtEndMin === undefined ? range.utcOffsetMin : { atStartMin: range.utcOffsetMin, atEndMin: range.utcOffsetAtEndMin };
-  switch (range.kind) {
-    case "MONTH":
-      return ok(getMonthPeriod(range.year, range.month, offset));
-    case "QUARTER":
-      return ok(getQuarterPeriod(range.year, range.quarter, offset));
-    case "CUSTOM":
-      return getCustomPeriod(range.startDate, range.endDate, offset);
-  }
 }
 
 /** Longest period a balance is computed for: three years (our own choice; statements are monthly to yearly). */

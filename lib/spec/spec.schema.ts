@@ -1,7 +1,48 @@
 // The shape of a built-in specification table (lib/spec/editions/*.ts), checked when the module loads:
 // a malformed table throws at import with the edition and the property named.
 import { z } from "zod";
-import type { Spec, SpecProperty } from "@/lib/spec/spec";
+
+export interface SpecProperty {
+  key: string;
+  label: string;
+  method: string;
+  unit: string;
+  kind: "limit" | "report" | "class";
+  min?: number;
+  max?: number;
+  /** For class scales such as copper strip corrosion: the worst class still accepted. */
+  classMax?: number;
+  /** How a class is written, e.g. "No." (ASTM D130) or "Class" (EN ISO 2160). */
+  classScale?: string;
+  required: boolean;
+  confidence: "published" | "check";
+  note?: string;
+  /** Decimal places the limit is written with ("0.50" → 2), for showing it as published. */
+  decimals?: number;
+  /** The published source of this row, with its edition, e.g. "ASTM D6751-23a Table 1". */
+  source?: string;
+  /** Set on a site specification's property whose limits the site changed. */
+  siteLimit?: boolean;
+}
+
+/** e.g. alcohol control: methanol ≤ 0.2 % mass OR flash point ≥ 130 °C. */
+export interface EitherOrRule {
+  key: string;
+  label: string;
+  anyOf: Array<{ property: string; min?: number; max?: number }>;
+}
+
+export interface Spec {
+  key: string;
+  title: string;
+  edition: string;
+  grade: string;
+  properties: SpecProperty[];
+  rules: EitherOrRule[];
+  siteSpec?: { name: string; version: number; reason: string };
+  /** For a site specification: the built-in key it was copied from (used for source links). */
+  baseKey?: string;
+}
 
 const slug = z.string().regex(/^[a-z0-9]+(-[a-z0-9]+)*$/, "a lower-case slug such as acid-number");
 

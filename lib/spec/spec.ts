@@ -8,47 +8,11 @@ import { BUILT_IN_SPECS } from "@/lib/spec/editions";
 
 export type Verdict = "PASS" | "FAIL" | "REPORTED" | "NOT_JUDGED";
 
-export interface SpecProperty {
-  key: string;
-  label: string;
-  method: string;
-  unit: string;
-  kind: "limit" | "report" | "class";
-  min?: number;
-  max?: number;
-  /** For class scales such as copper strip corrosion: the worst class still accepted. */
-  classMax?: number;
-  /** How a class is written, e.g. "No." (ASTM D130) or "Class" (EN ISO 2160). */
-  classScale?: string;
-  required: boolean;
-  confidence: "published" | "check";
-  note?: string;
-  /** Decimal places the limit is written with ("0.50" → 2), for showing it as published. */
-  decimals?: number;
-  /** The published source of this row, with its edition, e.g. "ASTM D6751-23a Table 1". */
-  source?: string;
-  /** Set on a site specification's property whose limits the site changed. */
-  siteLimit?: boolean;
-}
+// The shapes of a specification live beside the schema that loads the edition tables (editions and
+// the schema would otherwise import this file back); they are re-exported here for every reader.
+export type { EitherOrRule, Spec, SpecProperty } from "@/lib/spec/spec.schema";
+import type { EitherOrRule, Spec, SpecProperty } from "@/lib/spec/spec.schema";
 
-/** e.g. alcohol control: methanol ≤ 0.2 % mass OR flash point ≥ 130 °C. */
-export interface EitherOrRule {
-  key: string;
-  label: string;
-  anyOf: Array<{ property: string; min?: number; max?: number }>;
-}
-
-export interface Spec {
-  key: string;
-  title: string;
-  edition: string;
-  grade: string;
-  properties: SpecProperty[];
-  rules: EitherOrRule[];
-  siteSpec?: { name: string; version: number; reason: string };
-  /** For a site specification: the built-in key it was copied from (used for source links). */
-  baseKey?: string;
-}
 
 export interface ResultIn {
   id: number;

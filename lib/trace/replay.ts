@@ -92,7 +92,7 @@ export function restoreReplay(holders: ReadonlyMap<number, TraceHolder>, snapsho
       holderId,
     });
   if (snapshot.format !== REPLAY_SNAPSHOT_FORMAT) {
-    return fail("TRACE.SNAPSHOT_INVALID", `Snapshot format "${String(snapshot.format)}" is not ${REPLAY_SNAPSHOT_FORMAT}.`, "snapshot.format");
+    return fail("TRACE.SNAPSHOT_INVALID", `Snapshot format "${String(snapshot.format as unknown)}" is not ${String(REPLAY_SNAPSHOT_FORMAT)}.`, "snapshot.format");
   }
   const states = new Map<number, HolderState>();
   for (const h of snapshot.holders) {

@@ -11,8 +11,8 @@ import { log } from "@/lib/log/log.service";
 // append-only, so any booking changes it, and the next index reads only the new rows). A trace resumes
 // from the last snapshot before the moves it needs; answers are kept per version, so the page, its CSV,
 // the API and the record pages share one computation.
-import { BackwardTraceQuerySchema, ForwardTraceQuerySchema } from "@/lib/api/endpoints/trace";
-import type { BackwardKind, ForwardKind } from "@/lib/api/endpoints/trace";
+import { BackwardTraceQuerySchema, ForwardTraceQuerySchema } from "@/lib/trace/trace-query.schema";
+import type { BackwardKind, ForwardKind } from "@/lib/trace/trace-query.schema";
 import type { Db } from "@/lib/database/connect";
 import { fail, failMany, invariant, ok } from "@/lib/errors";
 import type { DomainIssue, Result } from "@/lib/errors";
@@ -274,7 +274,7 @@ export interface LedgerState {
 }
 
 const cacheHome = globalThis as unknown as { tracevatTraceCache?: Map<number, Promise<Result<LedgerState>>>; tracevatTraceWarming?: Set<number> };
-const cache: Map<number, Promise<Result<LedgerState>>> = (cacheHome.tracevatTraceCache ??= new Map());
+const cache: Map<number, Promise<Result<LedgerState>>> = (cacheHome.tracevatTraceCache ??= new Map<number, Promise<Result<LedgerState>>>());
 /** Sites whose index is being built by warmTraceCache (set before the version query, so two pages start one build). */
 const warming: Set<number> = (cacheHome.tracevatTraceWarming ??= new Set());
 /** Per site with a save running: the latest snapshots still to store (null: none newer than the running save). */

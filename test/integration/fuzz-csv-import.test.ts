@@ -29,7 +29,7 @@ const file = fc
     extraHeaders: fc.array(fc.string({ maxLength: 8 }), { maxLength: 2 }),
     quoteHeaders: fc.boolean(),
     drop: fc.nat({ max: 5 }),
-    units: fc.constantFrom("metric", "us") as fc.Arbitrary<"metric" | "us">,
+    units: fc.constantFrom<"metric" | "us">("metric", "us"),
     rows: fc.array(fc.array(CELL, { maxLength: 14 }), { maxLength: 5 }),
     bom: fc.boolean(),
     crlf: fc.boolean(),

@@ -24,6 +24,26 @@ describe("one table from issue code to HTTP status", () => {
     ["BATCH.WASH_BELOW_WATER", 422],
     ["BATCH.NOT_FINISHED", 409],
     ["BATCH.OUTPUT_CORRECTED", 409],
+    ["BATCH.UNBALANCED", 422],
+    // RFC 9110 §15.5.2 401 for a missing or wrong sign-in, §15.6.4 503 for a temporary overload (safe to resend),
+    // RFC 6585 §4 429 Too Many Requests.
+    ["AUTH.BAD_CREDENTIALS", 401],
+    ["DATABASE.BUSY", 503],
+    ["DATABASE.UNAVAILABLE", 503],
+    ["IDEMPOTENCY.KEY_INVALID", 400],
+    ["IDEMPOTENCY.KEY_REUSED", 422],
+    ["IDEMPOTENCY.IN_PROGRESS", 409],
+    ["LEDGER.NOTHING_TO_MOVE", 409],
+    ["LOT.NOT_ACCEPTED", 409],
+    ["LOT.DECIDED", 409],
+    ["CORRECTION.ALREADY_VOIDED", 409],
+    ["PICKUP.ALREADY_RECEIVED", 409],
+    ["PERIOD.ALREADY_CLOSED", 409],
+    ["WASTE.ALREADY_HAULED", 409],
+    ["PRODUCT.ON_HOLD", 409],
+    ["CUSTOMER.INACTIVE", 409],
+    ["PRODUCT.NOT_RELEASABLE", 409],
+    ["SITESPEC.STALE", 409],
   ];
   it.each(cases)("%s → %i", (code, status) => {
     expect(statusFor([{ code, message: "m" }])).toBe(status);

@@ -22,7 +22,7 @@ export async function createUserAction(prev: FormState, form: FormData): Promise
   const values: Record<string, string> = { ...readValues(form, CREATE_FIELDS), password: "" };
   const who = await requireRole(["ADMIN"]);
   if (!who.ok) return refused(prev, values, who.issues, CREATE_FIELDS);
-  const input = { login: readText(form, "login"), fullName: readText(form, "fullName"), role: readText(form, "role"), unitSystem: readText(form, "unitSystem") || undefined, password: String(form.get("password") ?? "") };
+  const input = { login: readText(form, "login"), fullName: readText(form, "fullName"), role: readText(form, "role"), unitSystem: readText(form, "unitSystem") || undefined, password: rawText(form, "password") };
   const r = await createUser(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, input);
   if (!r.ok) return refused(prev, values, r.issues, CREATE_FIELDS);
   return saved(prev, `Account ${r.value.login} created; give them the password in person.`);
@@ -48,7 +48,7 @@ export async function resetPasswordAction(prev: FormState, form: FormData): Prom
   const values: Record<string, string> = { ...readValues(form, RESET_FIELDS), password: "" };
   const who = await requireRole(["ADMIN"]);
   if (!who.ok) return refused(prev, values, who.issues, RESET_FIELDS);
-  const r = await resetPassword(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { login: readText(form, "login"), reason: readText(form, "reason"), password: String(form.get("password") ?? "") });
+  const r = await resetPassword(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { login: readText(form, "login"), reason: readText(form, "reason"), password: rawText(form, "password") });
   if (!r.ok) return refused(prev, values, r.issues, RESET_FIELDS);
   return saved(prev, `New password set for ${r.value.login}; ${r.value.sessionsEnded} session${r.value.sessionsEnded === 1 ? "" : "s"} ended.`);
 }
@@ -69,4 +69,10 @@ export async function unlockSignInAction(prev: FormState, form: FormData): Promi
   const r = await unlockSignIn(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { login: readText(form, "login"), reason: values.reason });
   if (!r.ok) return refused(prev, values, r.issues, ["login", "reason"]);
   return saved(prev, `${r.value.login} may sign in again at once; earlier failed attempts no longer count.`);
+}
+
+/** A password exactly as typed (not trimmed: spaces may be part of it). */
+function rawText(form: FormData, name: string): string {
+  const v = form.get(name);
+  return typeof v === "string" ? v : "";
 }

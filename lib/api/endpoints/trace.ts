@@ -4,85 +4,22 @@
 // lib/custody/custody.service, app/waste/due/due-report), so page and API reconcile exactly.
 import { z } from "zod";
 import type { EndpointDoc } from "@/lib/api/openapi";
-import { OPERATOR_TYPES } from "@/lib/custody/custody-balance";
-import { MAX_SET_KEY_LENGTH } from "@/lib/custody/custody.schema";
-import { code, MAX_MASS_KG, oneOf, when } from "@/lib/ledger/fields";
-import { MAX_PERIOD_YEAR, MAX_TOLERANCE_PCT, MIN_PERIOD_YEAR, MIN_TOLERANCE_PCT } from "@/lib/mass-balance/period.schema";
+import { emptyAsMissing as blank, oneOf } from "@/lib/ledger/fields";
 import { GENERATOR_CATEGORIES } from "@/lib/waste/waste.schema";
 
-/** Query strings send "" for an empty field. */
-const blank = (v: unknown) => (v === "" || v === null ? undefined : v);
+// ---- trace, balance and custody ------------------------------------------------------------------
 
-// ---- trace ---------------------------------------------------------------------------------------
-
-export const BACKWARD_KINDS = ["PRODUCT_LOT", "TANK", "SHIPMENT", "BATCH"] as const;
-export type BackwardKind = (typeof BACKWARD_KINDS)[number];
-export const FORWARD_KINDS = ["SOURCE", "PICKUP", "LOT"] as const;
-export type ForwardKind = (typeof FORWARD_KINDS)[number];
-
-export const BackwardTraceQuerySchema = z.object({
-  kind: oneOf("What to trace", BACKWARD_KINDS),
-  /** A product lot, tank or batch code, or a shipment's document number. */
-  code: code("Code"),
-  /** Tanks only: the moment to look into the tank (ISO date-time with zone); default: after the last movement. */
-  at: z.preprocess(blank, when("Tank time").optional()),
-});
-export type BackwardTraceQuery = z.output<typeof BackwardTraceQuerySchema>;
-
-export const ForwardTraceQuerySchema = z.object({
-  kind: oneOf("What to follow", FORWARD_KINDS),
-  code: code("Code"),
-});
-export type ForwardTraceQuery = z.output<typeof ForwardTraceQuerySchema>;
-
-// ---- balance -------------------------------------------------------------------------------------
-
-export const BALANCE_PERIOD_KINDS = ["MONTH", "QUARTER", "CUSTOM"] as const;
-
-const wholeNumber = (what: string, min: number, max: number) =>
-  z.preprocess(blank, z.coerce.number({ error: `${what} must be a number` }).int(`${what} must be a whole number`).min(min, `${what} must be ${min}–${max}`).max(max, `${what} must be ${min}–${max}`).optional());
-const tolerancePct = (what: string) =>
-  z.preprocess(
-    blank,
-    z.coerce
-      .number({ error: `${what} (% of inputs) must be a number` })
-      .min(MIN_TOLERANCE_PCT, `${what} must be at least ${MIN_TOLERANCE_PCT} %`)
-      .max(MAX_TOLERANCE_PCT, `${what} must be at most ${MAX_TOLERANCE_PCT} %`)
-      .optional(),
-  );
-const isoDay = (what: string) => z.preprocess(blank, z.string().regex(/^\d{4}-\d{2}-\d{2}$/, `${what} must be a date written YYYY-MM-DD`).optional());
-
-/**
- * The balance page's form and GET /api/balance. Without a period, the last full calendar month.
- * CUSTOM runs from `start` (inclusive) to `end` (exclusive), both local dates of the site.
- * Without warnPct/failPct the common-practice defaults apply (DEFAULT_CLOSURE_TOLERANCE).
- */
-export const BalanceQuerySchema = z.object({
-  period: z.preprocess(blank, oneOf("Period", BALANCE_PERIOD_KINDS).default("MONTH")),
-  year: wholeNumber("Year", MIN_PERIOD_YEAR, MAX_PERIOD_YEAR),
-  month: wholeNumber("Month", 1, 12),
-  quarter: wholeNumber("Quarter", 1, 4),
-  start: isoDay("Start date"),
-  end: isoDay("End date (first day after the period)"),
-  warnPct: tolerancePct("Warn level"),
-  failPct: tolerancePct("Fail level"),
-});
-export type BalanceQuery = z.output<typeof BalanceQuerySchema>;
-
-// ---- chain of custody ----------------------------------------------------------------------------
-
-export const CustodyQuerySchema = z.object({
-  /** A balance period label, e.g. "2026-Q4"; default: the period containing today. */
-  period: z.preprocess(blank, z.string().trim().regex(/^\d{4}(-Q[1-4]|-\d{2})?$|^\d{4}-\d{2}-\d{2}\.\.\d{4}-\d{2}-\d{2}$/, "Period: a balance period label such as 2026-Q4").optional()),
-  operatorType: z.preprocess(blank, z.enum(OPERATOR_TYPES, { error: `Operator type must be one of: ${OPERATOR_TYPES.join(", ")}` }).default("OTHER_OPERATOR")),
-  /** Try a certified claim of this many kg of methyl ester now, without saving it. */
-  claimKg: z.preprocess(
-    blank,
-    z.coerce.number({ error: "Claim (kg) must be a number" }).positive("Claim (kg) must be more than 0").max(MAX_MASS_KG, `Claim must be at most ${MAX_MASS_KG.toLocaleString("en")} kg`).optional(),
-  ),
-  claimSet: z.preprocess(blank, z.string().trim().max(MAX_SET_KEY_LENGTH, `Characteristic set: at most ${MAX_SET_KEY_LENGTH} characters`).optional()),
-});
-export type CustodyQuery = z.output<typeof CustodyQuerySchema>;
+// The query shapes live with their domains (the services parse with them); re-exported here for the
+// pages and the OpenAPI document below.
+export { BACKWARD_KINDS, BackwardTraceQuerySchema, FORWARD_KINDS, ForwardTraceQuerySchema } from "@/lib/trace/trace-query.schema";
+export type { BackwardKind, BackwardTraceQuery, ForwardKind, ForwardTraceQuery } from "@/lib/trace/trace-query.schema";
+import { BackwardTraceQuerySchema, ForwardTraceQuerySchema } from "@/lib/trace/trace-query.schema";
+export { BALANCE_PERIOD_KINDS, BalanceQuerySchema } from "@/lib/mass-balance/balance-query.schema";
+export type { BalanceQuery } from "@/lib/mass-balance/balance-query.schema";
+import { BalanceQuerySchema } from "@/lib/mass-balance/balance-query.schema";
+export { CustodyQuerySchema } from "@/lib/custody/custody.schema";
+export type { CustodyQuery } from "@/lib/custody/custody.schema";
+import { CustodyQuerySchema } from "@/lib/custody/custody.schema";
 
 // ---- waste due -----------------------------------------------------------------------------------
 

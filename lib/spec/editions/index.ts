@@ -1,6 +1,6 @@
 // The built-in specification editions, checked against the table schema when this module loads.
 import { loadEdition } from "@/lib/spec/spec.schema";
-import type { Spec } from "@/lib/spec/spec";
+import type { Spec } from "@/lib/spec/spec.schema";
 import type { EditionTable } from "@/lib/spec/spec.schema";
 import { ASTM_D6751_23A } from "@/lib/spec/editions/astm-d6751-23a";
 import { EN_14214_2019 } from "@/lib/spec/editions/en-14214-2019";

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { getCustomPeriod, getMonthPeriod, getPeriodContaining, getQuarterPeriod, MAX_BALANCE_SPAN_DAYS, refuseUnreasonablePeriod, resolvePeriodRange } from "@/lib/mass-balance/period";
+import { getCustomPeriod, getMonthPeriod, getPeriodContaining, getQuarterPeriod, MAX_BALANCE_SPAN_DAYS, refuseUnreasonablePeriod } from "@/lib/mass-balance/period";
+import { resolvePeriodRange } from "@/lib/mass-balance/period-range";
 import { ClosureToleranceSchema, MAX_TOLERANCE_PCT, MIN_TOLERANCE_PCT, PeriodRangeSchema } from "@/lib/mass-balance/period.schema";
 
 const utc = (iso: string): number => Date.parse(iso);

@@ -1,0 +1,72 @@
+// Import rules for lib/, checked by `npm run deps:check` (a step of scripts/test-all.sh, after lint).
+// See docs/decisions/0100-h-import-rules.md.
+
+// The shared kernel every domain writes through: the ledger (postMovement, runInTransaction, holders)
+// and the audit chain (appendAudit). Their stores are meant to be imported from any domain.
+const KERNEL_STORES = "^lib/(ledger/[^/]+|audit/audit)\\.store\\.ts$";
+
+// Baseline taken on the day the rule came in: files that reach another domain's store today. Each is
+// allowed only the targets listed; any new reach (from these files or any other) fails. Shrink this
+// list as stores gain service functions; never grow it.
+const KNOWN_STORE_REACHES = {
+  "lib/batch/batch.service.ts": ["lib/feedstock/lot.store.ts", "lib/product/product.store.ts", "lib/tank/tank.store.ts", "lib/waste/container.store.ts"],
+  "lib/batch/plan.store.ts": ["lib/feedstock/lab.store.ts"],
+  "lib/correction/correction.service.ts": ["lib/tank/tank.store.ts"],
+  "lib/custody/custody.service.ts": ["lib/site/dashboard.store.ts", "lib/trace/trace.store.ts"],
+  "lib/feedstock/lot.service.ts": ["lib/source/source.store.ts"],
+  "lib/feedstock/pickup.service.ts": ["lib/source/source.store.ts"],
+  "lib/grid/grid.store.ts": ["lib/waste/container.store.ts"],
+  "lib/mass-balance/balance.service.ts": ["lib/site/dashboard.store.ts"],
+  "lib/product/certificate.service.ts": ["lib/site/site.store.ts"],
+  "lib/shipment/shipment.service.ts": ["lib/customer/customer.store.ts"],
+  // The dashboard gathers every domain's counts in one read.
+  "lib/site/dashboard.store.ts": ["lib/batch/batch.store.ts", "lib/feedstock/lot.store.ts", "lib/period/period.store.ts", "lib/tank/tank.store.ts", "lib/waste/container.store.ts"],
+  "lib/trace/trace.service.ts": ["lib/shipment/shipment.store.ts"],
+};
+const escape = (p) => p.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
+const exact = (p) => `^${escape(p)}$`;
+const otherStore = { path: "^lib/[^/]+/[^/]+\\.store\\.ts$", pathNot: ["^lib/$1/", KERNEL_STORES] };
+
+/** @type {import('dependency-cruiser').IConfiguration} */
+module.exports = {
+  forbidden: [
+    {
+      name: "no-cycles-in-lib",
+      severity: "error",
+      comment: "Files in lib/ import one way (type-only imports count too): a cycle means two modules cannot be understood or tested apart.",
+      from: { path: "^lib/" },
+      to: { circular: true },
+    },
+    {
+      name: "no-other-domains-store",
+      severity: "error",
+      comment: "A domain reaches another domain's data through that domain's service, not its store (the ledger and audit stores are the shared kernel).",
+      from: { path: "^lib/([^/]+)/", pathNot: Object.keys(KNOWN_STORE_REACHES).map(exact) },
+      to: otherStore,
+    },
+    ...Object.entries(KNOWN_STORE_REACHES).map(([from, known]) => ({
+      name: "no-other-domains-store",
+      severity: "error",
+      comment: `Baseline: ${from} may keep only the store imports it had when the rule came in.`,
+      from: { path: `^lib/(${escape(from.split("/")[1])})/${escape(from.split("/").slice(2).join("/"))}$` },
+      to: { ...otherStore, pathNot: [...otherStore.pathNot, ...known.map(exact)] },
+    })),
+    {
+      name: "no-folder-cycles-in-lib",
+      // Reported, not failed: 44 folder-to-folder edges sit in cycles today (mostly lib/site's dashboard and
+      // ledger ↔ trace). Run `npm run deps:check` to see them; turn this to "error" when they are gone.
+      severity: "warn",
+      scope: "folder",
+      comment: "lib/ folders (domains) should form a one-way graph.",
+      from: { path: "^lib/" },
+      to: { circular: true },
+    },
+  ],
+  options: {
+    doNotFollow: { path: "node_modules" },
+    exclude: { path: "^lib/generated/" },
+    tsPreCompilationDeps: true,
+    tsConfig: { fileName: "tsconfig.json" },
+    enhancedResolveOptions: { exportsFields: ["exports"], conditionNames: ["import", "require", "node", "default", "types"] },
+  },
+};
