@@ -93,7 +93,7 @@ export async function measure(section: string, server: AppServer, mix: readonly 
   server.takePeakMb();
   let instance: autocannon.Instance | undefined;
   const finished = new Promise<autocannon.Result>((resolve, reject) => {
-    instance = autocannon({ url: server.base, connections, duration: durationS, requests: toAutocannon(mix, server.base, cookies, routes), timeout: 30 }, (err: unknown, res: autocannon.Result) => (err ? reject(err instanceof Error ? err : new Error(String(err))) : resolve(res)));
+    instance = autocannon({ url: server.base, connections, duration: durationS, requests: toAutocannon(mix, server.base, cookies, routes), timeout: 30 }, (err: unknown, res: autocannon.Result) => (err ? reject(err instanceof Error ? err : new Error(JSON.stringify(err))) : resolve(res)));
   });
   if (instance === undefined) throw new Error("autocannon did not start");
   instance.on("response", (client: unknown, status: number, _bytes: number, ms: number) => {

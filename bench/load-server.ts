@@ -85,7 +85,7 @@ function templateKey(days: number): string {
  * or the PostgreSQL database tracevat_load_tpl_…) and each run gets a copy, because loading takes
  * minutes on a busy 2-core machine. Returns how long loading took (0 when the template existed).
  */
-export async function createDemoDatabase(kind: "sqlite" | "postgresql", tag: string, days: number): Promise<{ database: LoadDatabase; seedMs: number; dropTemplate(): Promise<void> }> {
+export async function createDemoDatabase(kind: "sqlite" | "postgresql", tag: string, days: number): Promise<{ database: LoadDatabase; seedMs: number; dropTemplate: () => Promise<void> }> {
   const key = templateKey(days);
   if (kind === "sqlite") {
     const template = path.join(ROOT, "data", `load-template-${key}.db`);

@@ -92,7 +92,7 @@ test("the administrator enters the GS1 Company Prefix; the lot label's DataMatri
     await page.screenshot({ path: "test-results/label-with-datamatrix.png" });
     // Read the printed symbol back as a scanner would: a general-purpose decoder on the screen image.
     const wasm = readFileSync(createRequire(import.meta.url).resolve("zxing-wasm/reader/zxing_reader.wasm"));
-    prepareZXingModule({ overrides: { wasmBinary: wasm.buffer.slice(wasm.byteOffset, wasm.byteOffset + wasm.byteLength) as ArrayBuffer }, fireImmediately: true });
+    void prepareZXingModule({ overrides: { wasmBinary: wasm.buffer.slice(wasm.byteOffset, wasm.byteOffset + wasm.byteLength) as ArrayBuffer }, fireImmediately: true });
     await symbol.evaluate((el) => {
       (el as HTMLElement).style.width = "60mm";
       (el as HTMLElement).style.height = "60mm";

@@ -72,15 +72,15 @@ function isGs1Alphanumeric(value: string): boolean {
 
 export interface IdentifierScheme {
   /** A material class at lot level: what moved. */
-  lotClass(material: string, lot: string): string;
+  lotClass: (material: string, lot: string) => string;
   /** The plant, or a tank in it. */
-  location(tankCode?: string): string;
+  location: (tankCode?: string) => string;
   /** A supplier, collection source or customer. */
-  party(kind: "source" | "customer", code: string): string;
+  party: (kind: "source" | "customer", code: string) => string;
   /** The site itself as the owning party. */
-  site(): string;
+  site: () => string;
   /** A shipment document or a batch run. */
-  document(kind: "shipment" | "batch", code: string): string;
+  document: (kind: "shipment" | "batch", code: string) => string;
 }
 
 function ownScheme(base: string, siteCode: string): IdentifierScheme {

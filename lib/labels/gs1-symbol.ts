@@ -12,5 +12,5 @@ export function gs1DataMatrixOptions(elementString: string, withGtin: boolean) {
 
 /** An SVG GS1 DataMatrix for the element string, e.g. "(01)00614141000012(10)L-0042". */
 export function gs1DataMatrixSvg(elementString: string, withGtin: boolean): string {
-  return bwipjs.toSVG(gs1DataMatrixOptions(elementString, withGtin) as Parameters<typeof bwipjs.toSVG>[0]);
+  return bwipjs.toSVG(gs1DataMatrixOptions(elementString, withGtin));
 }

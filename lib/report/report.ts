@@ -112,5 +112,5 @@ export function headerLines(doc: ReportDoc): Array<[string, string]> {
 /** Σ of a mass column over the rows (whole grams). */
 export function sumColumn(table: ReportTable, key: string): number {
   const i = table.columns.findIndex((c) => c.key === key);
-  return table.rows.reduce((s, r) => s + (typeof r[i] === "number" ? (r[i] as number) : 0), 0);
+  return table.rows.reduce((s, r) => s + (typeof r[i] === "number" ? (r[i]) : 0), 0);
 }

@@ -76,7 +76,7 @@ export async function saveTraceSnapshots(db: Db, siteId: number, order: Snapshot
       ),
     ]);
     missing.forEach((s, i) => {
-      const row = created[i] as { id: number } | undefined;
+      const row = created[i];
       if (row !== undefined) rowOf.set(s, row.id);
     });
   } catch (err) {

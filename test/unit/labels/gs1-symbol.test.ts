@@ -12,7 +12,7 @@ import { DeliveryLotSchema, LotFromPickupsSchema } from "@/lib/feedstock/lot.sch
 // compiled to WebAssembly), from the local wasm file so the test needs no network.
 beforeAll(() => {
   const wasm = readFileSync(createRequire(import.meta.url).resolve("zxing-wasm/reader/zxing_reader.wasm"));
-  prepareZXingModule({ overrides: { wasmBinary: wasm.buffer.slice(wasm.byteOffset, wasm.byteOffset + wasm.byteLength) as ArrayBuffer }, fireImmediately: true });
+  void prepareZXingModule({ overrides: { wasmBinary: wasm.buffer.slice(wasm.byteOffset, wasm.byteOffset + wasm.byteLength) as ArrayBuffer }, fireImmediately: true });
 });
 
 async function decode(elementString: string, withGtin: boolean) {
