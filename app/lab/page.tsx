@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { labelOf } from "@/lib/ledger/kinds";
 import { listLots } from "@/lib/feedstock/lot.store";
-import { daysBetween, kg, pct, when } from "@/app/_ui/format";
+import { daysBetween, ffa, kg, pct, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, NoSite, Note } from "@/app/_ui/ui";
 
@@ -50,7 +50,7 @@ export default async function LabPage() {
                   <td className="nowrap">{when(l.receivedAt, tz)}</td>
                   <td className="num">{Math.max(0, daysBetween(l.receivedAt, now))} d</td>
                   <td className="num">{kg(l.massG)}</td>
-                  <td className="num">{l.ffaPct === null ? "—" : pct(l.ffaPct)}</td>
+                  <td className="num">{ffa(l.ffaPct, l.ffaBasis)}</td>
                   <td className="num">{l.waterPct === null ? "—" : pct(l.waterPct)}</td>
                   <td>{l.supplier ?? `${l.pickups} pickup${l.pickups === 1 ? "" : "s"}`}</td>
                 </tr>

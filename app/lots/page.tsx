@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { LOT_STATUSES, labelOf } from "@/lib/ledger/kinds";
 import { listLots } from "@/lib/feedstock/lot.store";
-import { kg, pct, when } from "@/app/_ui/format";
+import { ffa, kg, pct, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, HistoryLink, NoSite, Note, Pager, Status } from "@/app/_ui/ui";
@@ -81,7 +81,7 @@ export default async function LotsPage({ searchParams }: Props) {
                     <td>
                       <Status code={l.status} />
                     </td>
-                    <td className="num">{pct(l.ffaPct)}</td>
+                    <td className="num">{ffa(l.ffaPct, l.ffaBasis)}</td>
                     <td className="num">{pct(l.waterPct)}</td>
                     <td className="num">{kg(l.massG)}</td>
                     <td className="num">{kg(l.stockG)}</td>
@@ -94,7 +94,7 @@ export default async function LotsPage({ searchParams }: Props) {
             </table>
           </div>
           <Pager basePath="/lots" page={page} total={total} pageSize={PAGE_SIZE} query={query} />
-          <Note>FFA is the mean of the lot&apos;s titrations that are not voided; water is the latest water test.</Note>
+          <Note>FFA is the mean of the lot&apos;s titrations that are not voided, each converted through its acid value when they name different fatty acids; water is the latest water test.</Note>
         </>
       )}
     </>

@@ -61,7 +61,7 @@ function CandidatesTable({ candidates, params, errors, drawn }: { candidates: Pl
             <th scope="col">From</th>
             <th scope="col">Material or tank</th>
             <th scope="col" className="num">Holds</th>
-            <th scope="col" className="num">FFA</th>
+            <th scope="col" className="num">FFA as oleic</th>
             <th scope="col" className="num">Water</th>
             <th scope="col" className="num">Age</th>
             <th scope="col">Cost per kg</th>
@@ -248,7 +248,15 @@ export default async function PlanPage({ searchParams }: { searchParams: Promise
             <Field name="molarRatio" label="Methanol : oil molar ratio" params={params} errors={errors} placeholder={String(DEFAULT_RECIPE_SETTINGS.molarRatio.value)} hint={DEFAULT_RECIPE_SETTINGS.molarRatio.source} />
             <Field name="reactionTempC" label="Reaction temperature (°C)" params={params} errors={errors} placeholder={String(DEFAULT_RECIPE_SETTINGS.reactionTempC.value)} hint="Keep below the methanol boiling point (64.7 °C at sea level) unless the vessel is built for it." />
             <Field name="baseDosePctOfOil" label="Base catalyst dose (% of oil, optional)" params={params} errors={errors} placeholder="catalyst default" />
-            <Field name="meanTgMolarMass" label="Mean oil molar mass (g/mol, optional)" params={params} errors={errors} placeholder={num(DEFAULT_RECIPE_SETTINGS.meanTgMolarMass.value, 1)} hint="From a saponification value when known." />
+            <Field
+              name="saponificationValueMgKohG"
+              label="Saponification value (mg KOH/g, optional)"
+              params={params}
+              errors={errors}
+              placeholder="from the lab"
+              hint="As the lab reports it (AOCS Cd 3-25 or ISO 3657). The card shows the oil molar mass worked out from it: 3 × 56.1 × 1000 ÷ (saponification value − acid value)."
+            />
+            <Field name="meanTgMolarMass" label="Or mean oil molar mass (g/mol, optional)" params={params} errors={errors} placeholder={num(DEFAULT_RECIPE_SETTINGS.meanTgMolarMass.value, 1)} hint="Only when no saponification value is given." />
             <Field name="washes" label="Washes" params={params} errors={errors} placeholder={String(DEFAULT_RECIPE_SETTINGS.washes.value)} />
             <Field name="waterPerWashPctOfEster" label="Water per wash (% of ester)" params={params} errors={errors} placeholder={String(DEFAULT_RECIPE_SETTINGS.waterPerWashPctOfEster.value)} hint={DEFAULT_RECIPE_SETTINGS.waterPerWashPctOfEster.note} />
           </div>
@@ -264,7 +272,7 @@ export default async function PlanPage({ searchParams }: { searchParams: Promise
         </details>
         <CandidatesTable candidates={candidates} params={params} errors={errors} drawn={drawn} />
         <Note>
-          A tank&apos;s FFA and water are the mass-weighted means of the lab results of the lots it holds now, traced through the movement ledger. Costs are optional: the
+          FFA is shown as oleic for every candidate so that lots titrated as palmitic or lauric compare and blend by their moles of acid. A tank&apos;s FFA and water are the mass-weighted means of the lab results of the lots it holds now, traced through the movement ledger. Costs are optional: the
           books hold no prices, so every candidate costs {DEFAULT_COST_PER_KG.value} per kg unless you enter one.
         </Note>
         {proposal !== null && !proposal.ok ? (
@@ -288,7 +296,7 @@ export default async function PlanPage({ searchParams }: { searchParams: Promise
                 <tr>
                   <th scope="col">Draw from</th>
                   <th scope="col" className="num">Mass</th>
-                  <th scope="col" className="num">FFA</th>
+                  <th scope="col" className="num">FFA as oleic</th>
                   <th scope="col" className="num">Water</th>
                 </tr>
               </thead>

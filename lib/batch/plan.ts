@@ -26,6 +26,8 @@ import {
   MAX_WATER_PER_WASH_PCT_OF_ESTER,
   MIN_REACTION_TEMP_C,
   MIN_TG_MOLAR_MASS,
+  MAX_SAPONIFICATION_VALUE,
+  MIN_SAPONIFICATION_VALUE,
   PretreatmentInputSchema,
 } from "@/lib/recipe/recipe.schema";
 import type { BatchActuals, PretreatmentInput } from "@/lib/recipe/recipe.schema";
@@ -106,6 +108,11 @@ export const BatchPlanRequestSchema = z.object({
     .min(MIN_TG_MOLAR_MASS, `Mean oil molar mass must be at least ${MIN_TG_MOLAR_MASS} g/mol`)
     .max(MAX_TG_MOLAR_MASS, `Mean oil molar mass must be at most ${MAX_TG_MOLAR_MASS} g/mol`)
     .optional(),
+  /** The lab's saponification value (AOCS Cd 3-25 / ISO 3657); the recipe turns it into the mean oil molar mass. */
+  saponificationValueMgKohG: num("Saponification value", "mg KOH/g")
+    .min(MIN_SAPONIFICATION_VALUE, `Saponification value must be at least ${MIN_SAPONIFICATION_VALUE} mg KOH/g`)
+    .max(MAX_SAPONIFICATION_VALUE, `Saponification value must be at most ${MAX_SAPONIFICATION_VALUE} mg KOH/g`)
+    .optional(),
   washes: num("Number of washes", "washes").int("Number of washes must be a whole number").min(0, "Number of washes must be 0 or more").max(MAX_WASHES, `Number of washes must be at most ${MAX_WASHES}`).optional(),
   waterPerWashPctOfEster: num("Water per wash", "% of ester")
     .min(0, "Water per wash must be at least 0 %")
@@ -127,6 +134,9 @@ export const BatchPlanRequestSchema = z.object({
   /** Candidate references the planner leaves out. */
   exclude: z.array(z.string()).max(MAX_BLEND_CANDIDATES * 5, "Too many left-out candidates").default([]),
   notes: text("Notes", 1000).default(""),
+}).refine((r) => r.meanTgMolarMass === undefined || r.saponificationValueMgKohG === undefined, {
+  message: "Give either the mean oil molar mass or the saponification value, not both",
+  path: ["saponificationValueMgKohG"],
 });
 export type BatchPlanRequestInput = z.input<typeof BatchPlanRequestSchema>;
 export type BatchPlanRequest = z.output<typeof BatchPlanRequestSchema>;
@@ -354,6 +364,7 @@ export function toPretreatmentInput(
       ...(assay === null ? {} : solid ? { purityPct: assay.pct } : { solutionStrengthPct: assay.pct }),
       ...(request.baseDosePctOfOil === undefined ? {} : { baseDosePctOfOil: request.baseDosePctOfOil }),
       ...(request.meanTgMolarMass === undefined ? {} : { meanTgMolarMass: request.meanTgMolarMass }),
+      ...(request.saponificationValueMgKohG === undefined ? {} : { saponificationValueMgKohG: request.saponificationValueMgKohG }),
       ...(washPractice === undefined ? {} : { washPractice }),
     },
     ...(Object.keys(acidStep).length === 0 ? {} : { acidStep }),
@@ -367,6 +378,7 @@ const RECIPE_FIELD_TO_REQUEST: ReadonlyArray<readonly [RegExp, string]> = [
   [/^settings\.reactionTempC$/, "reactionTempC"],
   [/^settings\.baseDosePctOfOil$/, "baseDosePctOfOil"],
   [/^settings\.meanTgMolarMass$/, "meanTgMolarMass"],
+  [/^settings\.saponificationValueMgKohG$/, "saponificationValueMgKohG"],
   [/^settings\.washPractice\.washes$/, "washes"],
   [/^settings\.washPractice\.waterPerWashPctOfEster$/, "waterPerWashPctOfEster"],
   [/^acidStep\.methanolToFfaMolarRatio$/, "acidMethanolToFfaRatio"],
@@ -470,6 +482,12 @@ export interface RecipeCard {
   baseStep: {
     oilKg: number;
     ffaPct: number;
+    /** The fatty acid the FFA is expressed as; older cards have none (oleic). */
+    ffaBasis?: string;
+    acidValueMgKohG?: number;
+    meanTgMolarMass?: number;
+    /** Present when the molar mass came from the lab's saponification value. */
+    molarMassFromSv?: { saponificationValueMgKohG: number; acidValueMgKohG: number } | null;
     waterPct: number;
     molarRatio: number;
     reactionTempC: number;
@@ -585,6 +603,10 @@ export function composeCard(args: {
     baseStep: {
       oilKg: base.oil.massKg,
       ffaPct: base.oil.ffaPct,
+      ffaBasis: base.oil.ffaBasis,
+      acidValueMgKohG: base.oil.acidValueMgKohG,
+      meanTgMolarMass: base.oil.meanTgMolarMass,
+      molarMassFromSv: base.oil.molarMassFromSv,
       waterPct: base.oil.waterPct,
       molarRatio: base.methanol.molarRatio,
       reactionTempC: base.reactionTempC,

@@ -1,3 +1,4 @@
+import { convertFfaBasis } from "@/lib/titration/titration";
 import { ok, fail } from "@/lib/errors";
 import type { DomainIssue, Result } from "@/lib/errors";
 import { MOLAR_MASS } from "@/lib/chemistry/molar-mass";
@@ -230,7 +231,8 @@ export function planPretreatment(
   let fameKg = 0;
   for (const lot of input.lots) {
     massKg += lot.massKg;
-    ffaKg += (lot.massKg * lot.ffaPct) / 100;
+    // As oleic, the basis of the route thresholds and of the acid-step model (moles kept, AOCS Ca 5a-40 bases).
+    ffaKg += (lot.massKg * convertFfaBasis(lot.ffaPct, lot.ffaBasis ?? "OLEIC", "OLEIC")) / 100;
     waterKg += (lot.massKg * lot.waterPct) / 100;
     fameKg += (lot.massKg * (lot.famePct ?? 0)) / 100;
   }

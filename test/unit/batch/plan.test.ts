@@ -156,6 +156,22 @@ describe("BatchPlanRequestSchema", () => {
   });
 });
 
+describe("the planner takes the lab's saponification value", () => {
+  const stock: PlanStock = { lots: [lot("A", { ffaPct: 0.2 })], tanks: [] };
+  it("SV 190 with the blend's acid value gives M = 3 × 56.1 × 1000 / (SV − AV), shown on the card (definition of SV, AOCS Cd 3-25 / ISO 3657)", async () => {
+    // AV of 0.2 % FFA as oleic = 0.2 × 10 × 56.1053 / 282.468 = 0.397251 mg KOH/g; M = 168 300 / (190 − 0.397251) = 887.645 g/mol
+    const o = await requireCard({ targetOilKg: 100, catalyst: "NAOH", assayPct: 100, saponificationValueMgKohG: 190 }, stock);
+    expect(o.card.baseStep.molarMassFromSv?.saponificationValueMgKohG).toBe(190);
+    expect(o.card.baseStep.molarMassFromSv?.acidValueMgKohG).toBeCloseTo(0.397251, 5);
+    expect(o.card.baseStep.meanTgMolarMass).toBeCloseTo(887.645, 2);
+    expect(o.card.baseStep.ffaBasis).toBe("OLEIC");
+  });
+  it("refuses both a molar mass and a saponification value, next to the saponification value", () => {
+    const r = BatchPlanRequestSchema.safeParse({ targetOilKg: 100, meanTgMolarMass: 880, saponificationValueMgKohG: 190 });
+    expect(r.success ? [] : r.error.issues.map((i) => i.path.join("."))).toEqual(["saponificationValueMgKohG"]);
+  });
+});
+
 describe("pickAssay", () => {
   const reagents = [reagent("KOH-1", "KOH", 100, 85, 30), reagent("KOH-2", "KOH", 100, 90, 2), reagent("KOH-3", "KOH", 0, 70, 1)];
   it("newest lot with stock, else what the planner entered", () => {
