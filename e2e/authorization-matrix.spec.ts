@@ -116,6 +116,7 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   recordCharacterisationAction: ["PRODUCTION", "COMPLIANCE"],
   markFullAction: ["PRODUCTION", "COMPLIANCE"],
   recordHaulAction: ["COMPLIANCE"],
+  chooseWasteRulesAction: ["COMPLIANCE", "ADMIN"],
   createCustomerAction: ["COMPLIANCE"],
   changeCustomerAction: ["COMPLIANCE"],
   recordShipmentAction: ["COMPLIANCE"],

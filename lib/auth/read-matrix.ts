@@ -37,6 +37,7 @@ export const READ_MATRIX: readonly ReadRule[] = [
   { path: "/shipments", roles: OFFICE, menu: "Shipments" },
   { path: "/customers", roles: OFFICE, menu: "Customers" },
   { path: "/waste", roles: PLANT, menu: "Waste" },
+  { path: "/waste/rules", roles: PLANT },
   { path: "/trace", roles: PLANT, menu: "Trace" },
   { path: "/balance", roles: OFFICE, menu: "Balance" },
   { path: "/periods", roles: OFFICE, menu: "Periods" },

@@ -8,9 +8,11 @@ import { DEFAULT_RECIPE_LIMITS, DEFAULT_RECIPE_SETTINGS } from "@/lib/recipe/rec
 import type { RecipeDefaults, RecipeLimits } from "@/lib/recipe/recipe-defaults";
 import { RULESET_US_FEDERAL_RCRA } from "@/lib/waste/waste-due";
 import type { RuleValue, WasteRuleSet } from "@/lib/waste/waste-due";
+import { levelOf, screenText } from "@/lib/spec/source-text";
+import type { SourceLevel } from "@/lib/spec/source-text";
 
-/** How far a default can be relied on, in the words a screen uses. */
-export type SourceLevel = "published" | "common practice" | "check";
+export type { SourceLevel } from "@/lib/spec/source-text";
+export { levelOf, screenText } from "@/lib/spec/source-text";
 
 export interface DefaultSource {
   anchor: string;
@@ -25,23 +27,6 @@ export interface DefaultGroup {
   title: string;
   edition?: string;
   entries: DefaultSource[];
-}
-
-/** Status words in the lib → the screen's three levels; anything not plainly verified is to be checked. */
-export function levelOf(status: string): SourceLevel {
-  const s = status.toLowerCase();
-  if (s.includes("common practice")) return "common practice";
-  if (s.startsWith("verified") || s === "computed") return "published";
-  return "check";
-}
-
-/** Source texts written for engineers carry notes about how they were checked; a screen shows "to be confirmed". */
-export function screenText(text: string): string {
-  return text
-    .replace(/,?\s*from memory(, unverified)?/gi, ", to be confirmed")
-    .replace(/^, /, "")
-    .replace(/\(\s*, /g, "(")
-    .replace(/placeholder;?\s*/gi, "");
 }
 
 function valueText(value: number, unit: string): string {
