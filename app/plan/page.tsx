@@ -4,12 +4,14 @@ import type { ReactNode } from "react";
 import type { DomainIssue } from "@/lib/errors";
 import { CATALYSTS, labelOf } from "@/lib/ledger/kinds";
 import { BLEND_OBJECTIVES } from "@/lib/blend/blend.schema";
-import { DEFAULT_BLEND_LIMITS, DEFAULT_COST_PER_KG, PLAN_OBJECTIVE_LABELS, buildCandidates } from "@/lib/batch/plan";
+import { DEFAULT_BLEND_LIMITS, DEFAULT_COST_PER_KG, PLAN_OBJECTIVE_LABELS, blendWaterLimit, buildCandidates } from "@/lib/batch/plan";
 import type { PlanCandidate, PlanProposal } from "@/lib/batch/plan";
 import { loadPlanStock } from "@/lib/batch/plan.store";
 import { proposeBatchPlan } from "@/lib/batch/plan.service";
 import { listBatches } from "@/lib/batch/batch.store";
-import { DEFAULT_RECIPE_SETTINGS } from "@/lib/recipe/recipe-defaults";
+import { DEFAULT_RECIPE_LIMITS, DEFAULT_RECIPE_SETTINGS, WATER_LIMIT_BY_STEP } from "@/lib/recipe/recipe-defaults";
+import { levelOf, screenText } from "@/lib/spec/source-text";
+import { ConfidenceMark } from "@/app/_ui/kit";
 import { DEFAULT_ACID_STEP_SETTINGS, DEFAULT_PRETREATMENT_LIMITS } from "@/lib/recipe/pretreatment";
 import { kg, num, pct, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
@@ -139,7 +141,7 @@ function Refusal({ proposal }: { proposal: PlanProposal }) {
           </div>
           <div>
             <dt>Lowest water this stock can give</dt>
-            <dd>{d.minWaterPct === null ? "—" : `${pct(d.minWaterPct, 3)} (limit ${pct(proposal.request.maxWaterPct, 3)})`}</dd>
+            <dd>{d.minWaterPct === null ? "—" : `${pct(d.minWaterPct, 3)} (limit ${pct(blendWaterLimit(proposal.request).value, 3)})`}</dd>
           </div>
           <div>
             <dt>Lowest FFA within the water limit</dt>
@@ -208,8 +210,16 @@ export default async function PlanPage({ searchParams }: { searchParams: Promise
               label="Blend water limit (%)"
               params={params}
               errors={errors}
-              placeholder={String(DEFAULT_BLEND_LIMITS.maxWaterPct.value)}
-              hint={`Default ${DEFAULT_BLEND_LIMITS.maxWaterPct.value} %: ${DEFAULT_BLEND_LIMITS.maxWaterPct.source} (${DEFAULT_BLEND_LIMITS.maxWaterPct.status}); dry the oil before the base step`}
+              placeholder="the step's limit"
+              hint={
+                <>
+                  Empty: the limit of the step the blend goes into first — base step {WATER_LIMIT_BY_STEP.BASE_STEP.value} % ({screenText(WATER_LIMIT_BY_STEP.BASE_STEP.source)}){" "}
+                  <ConfidenceMark level={levelOf(WATER_LIMIT_BY_STEP.BASE_STEP.status)} anchor="recipe-maxWaterPct" /> when the FFA limit is below{" "}
+                  {DEFAULT_RECIPE_LIMITS.baseCatalysisMaxFfaPct.value} %, otherwise acid step {WATER_LIMIT_BY_STEP.ACID_STEP.value} % ({screenText(WATER_LIMIT_BY_STEP.ACID_STEP.source)}){" "}
+                  <ConfidenceMark level={levelOf(WATER_LIMIT_BY_STEP.ACID_STEP.status)} anchor="recipe-acidStepMaxWaterPct" />. The recipe warns against the same limits; dry the oil
+                  before the base step.
+                </>
+              }
             />
             <div className="field">
               <label>

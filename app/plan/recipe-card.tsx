@@ -1,4 +1,7 @@
 import type { Caution, CautionStep, RecipeCard } from "@/lib/batch/plan";
+import { WATER_LIMIT_BY_STEP } from "@/lib/recipe/recipe-defaults";
+import { levelOf, screenText } from "@/lib/spec/source-text";
+import { ConfidenceMark } from "@/app/_ui/kit";
 import { PLAN_OBJECTIVE_LABELS } from "@/lib/batch/plan";
 import { labelOf } from "@/lib/ledger/kinds";
 import { formatFixed } from "@/lib/quantity/units";
@@ -175,6 +178,13 @@ export function RecipeCardView({ card, heading = "Recipe card", printedAt }: { c
               </dd>
             </div>
           )}
+          <div>
+            <dt>Water limit for this step</dt>
+            <dd>
+              {pctText(WATER_LIMIT_BY_STEP.BASE_STEP.value, 2)} ({screenText(WATER_LIMIT_BY_STEP.BASE_STEP.source)}){" "}
+              <ConfidenceMark level={levelOf(WATER_LIMIT_BY_STEP.BASE_STEP.status)} anchor="recipe-maxWaterPct" />
+            </dd>
+          </div>
           <div>
             <dt>Reaction temperature</dt>
             <dd>{formatFixed(base.reactionTempC, 1)} °C</dd>

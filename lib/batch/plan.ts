@@ -15,7 +15,7 @@ import type { BlendDiagnosis, BlendPlan } from "@/lib/blend/optimise";
 import { defineSourced } from "@/lib/chemistry/sourced-value";
 import type { SourcedValue } from "@/lib/chemistry/sourced-value";
 import { CATALYSTS as CATALYST_PROFILES } from "@/lib/recipe/catalyst";
-import { DEFAULT_RECIPE_LIMITS, DEFAULT_RECIPE_SETTINGS } from "@/lib/recipe/recipe-defaults";
+import { DEFAULT_RECIPE_LIMITS, DEFAULT_RECIPE_SETTINGS, WATER_LIMIT_BY_STEP } from "@/lib/recipe/recipe-defaults";
 import {
   MAX_ACID_PCT_OF_FFA,
   MAX_BASE_DOSE_PCT_OF_OIL,
@@ -44,7 +44,7 @@ import { MAX_MOLAR_RATIO, MIN_MOLAR_RATIO } from "@/lib/batch/batch.schema";
 /** Blend limits the planner starts from; a planner may tighten or relax them per batch. */
 export const DEFAULT_BLEND_LIMITS: { maxFfaPct: SourcedValue; maxWaterPct: SourcedValue } = {
   maxFfaPct: DEFAULT_RECIPE_LIMITS.baseCatalysisMaxFfaPct,
-  maxWaterPct: DEFAULT_PRETREATMENT_LIMITS.acidStepMaxWaterPct,
+  maxWaterPct: WATER_LIMIT_BY_STEP.ACID_STEP,
 };
 
 /** The books hold no feedstock prices; every candidate costs this unless a cost is entered. */
@@ -80,10 +80,11 @@ export const BatchPlanRequestSchema = z.object({
     .min(0, "Blend FFA limit must be at least 0 %")
     .max(100, "Blend FFA limit must be at most 100 %")
     .default(DEFAULT_BLEND_LIMITS.maxFfaPct.value),
+  /** Empty: the water limit of the step the blend goes into first (see blendWaterLimit). */
   maxWaterPct: num("Blend water limit", "%")
     .min(0, "Blend water limit must be at least 0 %")
     .max(100, "Blend water limit must be at most 100 %")
-    .default(DEFAULT_BLEND_LIMITS.maxWaterPct.value),
+    .optional(),
   objective: z.enum(BLEND_OBJECTIVES, { error: `Objective must be one of ${BLEND_OBJECTIVES.join(", ")}` }).default("OLDEST_FIRST"),
   minDrawKg: num("Smallest draw", "kg").positive("Smallest draw must be more than 0 kg").max(2_000_000, "Smallest draw must be at most 2,000,000 kg").optional(),
   catalyst: oneOf("Catalyst", CATALYSTS).default("KOH"),
@@ -300,6 +301,17 @@ export function buildCandidates(stock: PlanStock, request: Pick<BatchPlanRequest
   return out;
 }
 
+/**
+ * The blend's water limit: the planner's own figure, else the site setting of the step the blend goes into
+ * first — the base step when the FFA limit keeps every blend below the acid-pretreatment threshold, the
+ * acid step otherwise. The recipe and pretreatment warnings use the same two settings.
+ */
+export function blendWaterLimit(request: Pick<BatchPlanRequest, "maxWaterPct" | "maxFfaPct">): { value: number; step: "BASE_STEP" | "ACID_STEP" | null } {
+  if (request.maxWaterPct !== undefined) return { value: request.maxWaterPct, step: null };
+  const step = request.maxFfaPct < DEFAULT_RECIPE_LIMITS.baseCatalysisMaxFfaPct.value ? "BASE_STEP" : "ACID_STEP";
+  return { value: WATER_LIMIT_BY_STEP[step].value, step };
+}
+
 export function toBlendRequest(request: BatchPlanRequest, candidates: readonly PlanCandidate[]): BlendRequest {
   const usable = candidates.filter((c) => c.leftOutBecause === null && c.ffaPct !== null && c.waterPct !== null);
   return {
@@ -307,7 +319,7 @@ export function toBlendRequest(request: BatchPlanRequest, candidates: readonly P
       (c): BlendCandidate => ({ ref: c.ref, availableKg: c.availableG / 1000, ffaPct: c.ffaPct ?? 0, waterPct: c.waterPct ?? 0, costPerKg: c.costPerKg, ageDays: c.ageDays }),
     ),
     targetKg: request.targetOilKg,
-    limits: { maxFfaPct: request.maxFfaPct, maxWaterPct: request.maxWaterPct },
+    limits: { maxFfaPct: request.maxFfaPct, maxWaterPct: blendWaterLimit(request).value },
     objective: request.objective,
     ...(request.minDrawKg === undefined ? {} : { minDrawKg: request.minDrawKg }),
   };
@@ -578,7 +590,7 @@ export function composeCard(args: {
       ffaPct: blend.blendFfaPct,
       waterPct: blend.blendWaterPct,
       maxFfaPct: request.maxFfaPct,
-      maxWaterPct: request.maxWaterPct,
+      maxWaterPct: blendWaterLimit(request).value,
       costTotal: blend.costTotal,
       meanAgeDays: blend.meanAgeDays,
     },

@@ -5,7 +5,7 @@ import { MOLAR_MASS } from "@/lib/chemistry/molar-mass";
 import { METHANOL_DENSITY_20C } from "@/lib/chemistry/physical-constants";
 import { defineSourced } from "@/lib/chemistry/sourced-value";
 import type { SourcedValue } from "@/lib/chemistry/sourced-value";
-import { DEFAULT_RECIPE_LIMITS } from "@/lib/recipe/recipe-defaults";
+import { DEFAULT_RECIPE_LIMITS, WATER_LIMIT_BY_STEP } from "@/lib/recipe/recipe-defaults";
 import type { RecipeLimits } from "@/lib/recipe/recipe-defaults";
 import { planRecipe } from "@/lib/recipe/recipe";
 import type { RecipePlan } from "@/lib/recipe/recipe";
@@ -37,12 +37,7 @@ export const DEFAULT_PRETREATMENT_LIMITS: PretreatmentLimits = {
     "Canakci & Van Gerpen 2001, Trans. ASAE 44(6):1429 (acid level reduced to < 1 % FFA); review: AV < 2 mg KOH/g",
     "verified",
   ),
-  acidStepMaxWaterPct: defineSourced(
-    0.5,
-    "% w/w",
-    "Canakci & Van Gerpen 1999, Trans. ASAE 42(5):1203 (conversion < 90 % when water ≥ 0.5 %)",
-    "from memory",
-  ),
+  acidStepMaxWaterPct: WATER_LIMIT_BY_STEP.ACID_STEP,
 };
 
 export interface AcidStepDefaults {

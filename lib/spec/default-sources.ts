@@ -4,7 +4,7 @@
 // plain names of the settings are ours.
 import type { SourcedValue } from "@/lib/chemistry/sourced-value";
 import { KOH_EQUIVALENT_MASS_IN_STANDARDS, METHANOL_DENSITY_20C } from "@/lib/chemistry/physical-constants";
-import { DEFAULT_RECIPE_LIMITS, DEFAULT_RECIPE_SETTINGS } from "@/lib/recipe/recipe-defaults";
+import { DEFAULT_RECIPE_LIMITS, DEFAULT_RECIPE_SETTINGS, WATER_LIMIT_BY_STEP } from "@/lib/recipe/recipe-defaults";
 import type { RecipeDefaults, RecipeLimits } from "@/lib/recipe/recipe-defaults";
 import { RULESET_US_FEDERAL_RCRA } from "@/lib/waste/waste-due";
 import type { RuleValue, WasteRuleSet } from "@/lib/waste/waste-due";
@@ -61,7 +61,7 @@ const RECIPE_LABELS: Readonly<Record<keyof RecipeDefaults | keyof RecipeLimits, 
   minReactionTempC: "Lowest reaction temperature",
   directBaseMaxFfaPct: "Highest FFA for direct base catalysis",
   baseCatalysisMaxFfaPct: "FFA above which acid pretreatment comes first",
-  maxWaterPct: "Highest water in the oil",
+  maxWaterPct: "Highest water in the oil for the base step",
   massBalanceRelTolerance: "Recipe mass-balance tolerance",
 };
 
@@ -86,6 +86,7 @@ export function recipeDefaults(): DefaultGroup {
     entries: [
       ...settings.map(([k, v]) => sourced("recipe", k, RECIPE_LABELS[k], v)),
       ...limits.map(([k, v]) => sourced("recipe", k, RECIPE_LABELS[k], v)),
+      sourced("recipe", "acidStepMaxWaterPct", "Highest water in the oil for the acid step", WATER_LIMIT_BY_STEP.ACID_STEP),
       sourced("chemistry", "methanolDensity20C", "Methanol density at 20 °C", METHANOL_DENSITY_20C),
       sourced("chemistry", "kohEquivalentMass", "KOH equivalent mass used in acid value formulas", KOH_EQUIVALENT_MASS_IN_STANDARDS),
     ],
