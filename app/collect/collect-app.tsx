@@ -11,6 +11,7 @@ import type { UnitSystem } from "@/lib/quantity/units";
 import { celsiusToFahrenheit, convertVolume, formatFixed, formatVolume } from "@/lib/quantity/units";
 import type { PhoneData, PhoneHistory, PhoneSource } from "@/app/collect/types";
 import { useOutbox } from "@/app/collect/use-outbox";
+import { Cautions } from "@/app/_ui/kit/cautions";
 
 const DRAFT_KEY = "tracevat-collect-draft";
 
@@ -405,9 +406,17 @@ export function CollectApp({ data }: { data: PhoneData }) {
           </label>
         ) : null}
 
-        <p className="collect-caution">
-          Caution: used oil can be hot and containers heavy and slippery. Do not pour or lift hot oil; wear gloves and eye protection and follow the safety data sheet and your site&apos;s rules.
-        </p>
+        <Cautions
+          title="Cautions at the pickup"
+          items={[
+            "Used oil can be hot and containers heavy and slippery. Do not pour or lift hot oil; wear gloves and eye protection.",
+            ...(material === "TRAP_GREASE"
+              ? [
+                  "Trap grease gives off hydrogen sulfide, which can kill and which you soon stop smelling. Never enter or lean into a grease trap or pit; stand upwind, keep the lid open only as long as needed, and pump from outside.",
+                ]
+              : []),
+          ]}
+        />
 
         <div className="collect-field">
           <label htmlFor="field-containers">Containers</label>

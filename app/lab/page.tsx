@@ -4,6 +4,7 @@ import { listLots } from "@/lib/feedstock/lot.store";
 import { daysBetween, ffa, kg, pct, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, NoSite, Note } from "@/app/_ui/ui";
+import { LabCautions } from "@/app/lab/lab-cautions";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Lab" };
@@ -22,6 +23,7 @@ export default async function LabPage() {
         has an FFA titration.
       </p>
       {user.role !== "PRODUCTION" ? <Note>Production staff record lab results; you can read them.</Note> : null}
+      <LabCautions kind="titration" />
       {total === 0 ? (
         <Empty>No lot is waiting for the lab.</Empty>
       ) : (
