@@ -25,7 +25,7 @@ export async function getLabResults(db: Db, lotIds: readonly number[]): Promise<
   for (let i = 0; i < lotIds.length; i += CHUNK) {
     const ids = lotIds.slice(i, i + CHUNK);
     const [titrations, water] = await Promise.all([
-      db.titration.findMany({ where: { lotId: { in: [...ids] }, voided: false }, select: { lotId: true, ffaPct: true, basis: true } }),
+      db.titration.findMany({ where: { lotId: { in: [...ids] }, voided: false }, select: { lotId: true, ffaPct: true, basis: true, acidValue: true } }),
       db.labTest.findMany({
         where: { lotId: { in: [...ids] }, voided: false, kind: "WATER" },
         orderBy: [{ testedAt: "desc" }, { id: "desc" }],
@@ -35,7 +35,7 @@ export async function getLabResults(db: Db, lotIds: readonly number[]): Promise<
     const readings = new Map<number, FfaReading[]>();
     for (const t of titrations) {
       const list = readings.get(t.lotId) ?? [];
-      list.push({ ffaPct: t.ffaPct, basis: toFfaBasis(t.basis) });
+      list.push({ ffaPct: t.ffaPct, basis: toFfaBasis(t.basis), acidValueMgKohG: t.acidValue });
       readings.set(t.lotId, list);
     }
     for (const [lotId, list] of readings) {

@@ -89,7 +89,7 @@ export async function listLots(db: Db, siteId: number, opts: { status?: string; 
       take: opts.take ?? 100,
       include: {
         holder: { select: { stockG: true } },
-        titrations: { where: { voided: false }, orderBy: { testedAt: "desc" }, select: { ffaPct: true, basis: true } },
+        titrations: { where: { voided: false }, orderBy: { testedAt: "desc" }, select: { ffaPct: true, basis: true, acidValue: true } },
         labTests: { where: { voided: false, kind: "WATER" }, orderBy: { testedAt: "desc" }, take: 1, select: { valuePct: true } },
         supplier: { select: { name: true } },
         _count: { select: { pickups: true } },
@@ -158,7 +158,7 @@ export async function insertTitration(
   return tx.titration.create({ data: t, select: { id: true, ffaPct: true, acidValue: true } });
 }
 
-function meanFfa(titrations: ReadonlyArray<{ ffaPct: number; basis: string }>): { ffaPct: number | null; ffaBasis: FfaBasis } {
-  const mean = combineFfaReadings(titrations.map((t) => ({ ffaPct: t.ffaPct, basis: toFfaBasis(t.basis) })));
+function meanFfa(titrations: ReadonlyArray<{ ffaPct: number; basis: string; acidValue: number }>): { ffaPct: number | null; ffaBasis: FfaBasis } {
+  const mean = combineFfaReadings(titrations.map((t) => ({ ffaPct: t.ffaPct, basis: toFfaBasis(t.basis), acidValueMgKohG: t.acidValue })));
   return mean.ok ? { ffaPct: mean.value.ffaPct, ffaBasis: mean.value.basis } : { ffaPct: null, ffaBasis: "OLEIC" };
 }

@@ -328,6 +328,8 @@ export function suggestSampleSize(
 export interface FfaReading {
   ffaPct: number;
   basis: FfaBasis;
+  /** The acid value computed from the same titre (EN 14104 / ISO 660 form), when stored; else from the FFA. */
+  acidValueMgKohG?: number;
 }
 
 export interface CombinedFfa {
@@ -353,7 +355,7 @@ export function combineFfaReadings(readings: readonly FfaReading[], fallbackBasi
   if (readings.length === 0) return fail("TITRATION.NO_REPLICATES", "replicates must contain at least one value", "replicates");
   const avs: number[] = [];
   for (const [i, r] of readings.entries()) {
-    const av = acidValueFromFfa(r.ffaPct, { basis: r.basis });
+    const av = r.acidValueMgKohG !== undefined && Number.isFinite(r.acidValueMgKohG) && r.acidValueMgKohG >= 0 ? ok(r.acidValueMgKohG) : acidValueFromFfa(r.ffaPct, { basis: r.basis });
     if (!av.ok) return fail(av.issues[0]?.code ?? "TITRATION.FFA_OUT_OF_RANGE", `titration ${i + 1}: ${av.issues[0]?.message ?? "bad FFA"}`, `replicates.${i}`);
     avs.push(av.value);
   }

@@ -33,7 +33,7 @@ export default async function LabLotPage({ params }: Props) {
   const valid = lot.titrations.filter((t) => !t.voided);
   const bases = [...new Set(valid.map((t) => t.basis))];
   const summaries = bases.map((basis) => ({ basis, summary: summariseReplicates(valid.filter((t) => t.basis === basis).map((t) => t.ffaPct)) }));
-  const mean = combineFfaReadings(valid.map((t) => ({ ffaPct: t.ffaPct, basis: toFfaBasis(t.basis) })));
+  const mean = combineFfaReadings(valid.map((t) => ({ ffaPct: t.ffaPct, basis: toFfaBasis(t.basis), acidValueMgKohG: t.acidValue })));
   const canWrite = user.role === "PRODUCTION";
   const open = lot.status === "QUARANTINED" || lot.status === "ACCEPTED";
   const latestWater = [...lot.labTests].reverse().find((t) => !t.voided && t.kind === "WATER");
