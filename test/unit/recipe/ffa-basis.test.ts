@@ -74,6 +74,13 @@ describe("averaging titrations of different bases (acid value definition, AOCS C
     expect(r.ok && r.value.acidValueMgKohG).toBeCloseTo(5.60151, 4);
   });
 
+  it("uses the acid value stored with a titration when there is one (EN 14104 form: 56.1 × V × c / m)", () => {
+    // 56.1 × 5.20 mL × 0.25 mol/L / 7.05 g = 10.3447 mg KOH/g; FFA 5.20 % as oleic by the Ca 5a-40 factor 28.2
+    const r = combineFfaReadings([{ ffaPct: 5.2, basis: "OLEIC", acidValueMgKohG: (56.1 * 5.2 * 0.25) / 7.05 }]);
+    expect(r.ok && r.value.acidValueMgKohG).toBeCloseTo(10.3447, 4);
+    expect(r.ok && r.value.ffaPct).toBe(5.2);
+  });
+
   it("refuses no readings and names a bad reading", () => {
     expect(combineFfaReadings([]).ok).toBe(false);
     const bad = combineFfaReadings([{ ffaPct: 1, basis: "OLEIC" }, { ffaPct: -1, basis: "OLEIC" }]);
