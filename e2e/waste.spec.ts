@@ -196,7 +196,7 @@ test("compliance chooses the site's own waste rule set and a container's due dat
   };
   // Federal rules for a large quantity generator: 90 days (40 CFR 262.17(a)).
   await choose(async (form) => {
-    await form.getByLabel("Rule set").selectOption("US_FEDERAL");
+    await form.getByLabel("Rule set", { exact: true }).selectOption("US_FEDERAL");
     await form.getByLabel("Generator category").selectOption("LQG");
     await form.getByLabel("Reason").fill("E2E: federal large quantity generator");
   });
@@ -206,7 +206,7 @@ test("compliance chooses the site's own waste rule set and a container's due dat
   // An own set without a name is refused next to the name, nothing saved.
   await page.goto("/waste/rules");
   const form = page.getByRole("form", { name: "Choose the waste rule set" });
-  await form.getByLabel("Rule set").selectOption("SITE_OWN");
+  await form.getByLabel("Rule set", { exact: true }).selectOption("SITE_OWN");
   await form.getByLabel("Longest accumulation of hazardous waste (days)").fill("30");
   await form.getByLabel("Reason").fill("E2E: state permit condition");
   await form.getByRole("button", { name: "Save the rule set" }).click();
@@ -222,7 +222,7 @@ test("compliance chooses the site's own waste rule set and a container's due dat
   await expect(page.getByRole("link", { name: "E2E state rule" })).toBeVisible();
 
   await choose(async (f) => {
-    await f.getByLabel("Rule set").selectOption("US_FEDERAL");
+    await f.getByLabel("Rule set", { exact: true }).selectOption("US_FEDERAL");
     await f.getByLabel("Generator category").selectOption("LQG");
     await f.getByLabel("Reason").fill("E2E: back to federal large quantity generator");
   });
