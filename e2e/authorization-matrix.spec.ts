@@ -119,6 +119,7 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   recordCharacterisationAction: ["PRODUCTION", "COMPLIANCE"],
   markFullAction: ["PRODUCTION", "COMPLIANCE"],
   recordHaulAction: ["COMPLIANCE"],
+  chooseWasteRulesAction: ["COMPLIANCE", "ADMIN"],
   createCustomerAction: ["COMPLIANCE"],
   changeCustomerAction: ["COMPLIANCE"],
   recordShipmentAction: ["COMPLIANCE"],

@@ -16,7 +16,9 @@ test("titrate a waiting lot, see FFA as you type, and accept it", async ({ page 
   const lotCode = (await lotLink.textContent())?.trim() ?? "";
   await lotLink.click();
   await expect(page.getByRole("heading", { level: 1 })).toHaveText(`Lab results for lot ${lotCode}`);
-  await expect(page.getByText(/titration alcohol .* is flammable/)).toBeVisible();
+  // The titration's solvent is an alcohol with a hydroxide titrant (AOCS Ca 5a-40), not "lye solutions".
+  await expect(page.getByRole("complementary", { name: "Cautions" }).first()).toContainText("isopropanol");
+  await expect(page.getByRole("complementary", { name: "Cautions" }).first()).toContainText("safety data sheets");
 
   const form = page.getByRole("form", { name: "Record a titration" });
   await form.getByLabel("Sample mass (g)").fill("7.05");
@@ -44,6 +46,8 @@ test("titrate a waiting lot, see FFA as you type, and accept it", async ({ page 
   await form.getByRole("button", { name: "Save titration" }).click();
   await expect(form.getByRole("status")).toContainText("Titration saved: FFA 5.20 %");
   await expect(page.getByRole("table").first().getByRole("cell", { name: "5.20 %" })).toBeVisible();
+  // The lot's FFA names its basis and acid value: EN 14104, 56.1 × 5.20 × 0.25 / 7.05 = 10.34 mg KOH/g (hand arithmetic)
+  await expect(page.getByText(/% as oleic \(acid value \d+\.\d\d mg KOH\/g\)/)).toBeVisible();
 
   const tests = page.getByRole("form", { name: "Record a test result" });
   await tests.getByLabel("Result (% by mass)").fill("0.15");

@@ -169,3 +169,63 @@ test("production opens a filter-media bin and sees its self-heating caution; onl
   const haul = await page.request.post("/api/waste/disposals", { headers: { ...headers, "idempotency-key": `${code}-haul` }, data: { containerCode: code, documentNo: `M-${code}`, hauler: "H", disposedAt: new Date().toISOString(), massKg: 1, destination: "D" } });
   expect(haul.status()).toBe(403);
 });
+
+// The site's waste rule set: compliance names its own set with a shorter accumulation time, and a new
+// container's due date follows it on the container page; the federal set is restored at the end.
+test("compliance chooses the site's own waste rule set and a container's due date follows it", async ({ page }) => {
+  test.setTimeout(120_000);
+  const stamp = Date.now().toString(36).toUpperCase();
+  const code = `WR-${stamp}`;
+  const consoleErrors: string[] = [];
+  page.on("console", (m) => (m.type() === "error" ? consoleErrors.push(m.text()) : undefined));
+  await signIn(page, "compliance.nell", "/waste");
+  const open = page.getByRole("form", { name: "Open a container" });
+  await open.getByLabel("Container code").fill(code);
+  await open.getByLabel("Stream").selectOption({ label: "Methanol-rich liquid" });
+  await open.getByLabel("Capacity (L)").fill("200");
+  await open.getByRole("button", { name: "Open the container" }).click();
+  await expect(page).toHaveURL(new RegExp(`/waste/${code}$`));
+  await expect(page.getByRole("complementary", { name: /Handling methanol-rich/i })).toContainText("highly flammable");
+
+  const choose = async (fill: (form: ReturnType<typeof page.getByRole>) => Promise<void>) => {
+    await page.goto("/waste/rules");
+    await expect(page.getByRole("heading", { level: 1, name: "Waste rule set" })).toBeVisible();
+    const form = page.getByRole("form", { name: "Choose the waste rule set" });
+    await fill(form);
+    await form.getByRole("button", { name: "Save the rule set" }).click();
+    await expect(form.getByRole("status")).toContainText("Rule set saved");
+  };
+  // Federal rules for a large quantity generator: 90 days (40 CFR 262.17(a)).
+  await choose(async (form) => {
+    await form.getByLabel("Rule set", { exact: true }).selectOption("US_FEDERAL");
+    await form.getByLabel("Generator category").selectOption("LQG");
+    await form.getByLabel("Reason").fill("E2E: federal large quantity generator");
+  });
+  await page.goto(`/waste/${code}`);
+  await expect(page.getByText(/90 days, 40 CFR 262\.17/)).toBeVisible();
+
+  // An own set without a name is refused next to the name, nothing saved.
+  await page.goto("/waste/rules");
+  const form = page.getByRole("form", { name: "Choose the waste rule set" });
+  await form.getByLabel("Rule set", { exact: true }).selectOption("SITE_OWN");
+  await form.getByLabel("Longest accumulation of hazardous waste (days)").fill("30");
+  await form.getByLabel("Reason").fill("E2E: state permit condition");
+  await form.getByRole("button", { name: "Save the rule set" }).click();
+  await expect(form.getByText("Name the site's own rule set (e.g. the rule it follows)")).toBeVisible();
+  await form.getByLabel("Name of the site's own rule set").fill("E2E state rule");
+  await form.getByRole("button", { name: "Save the rule set" }).click();
+  await expect(form.getByRole("status")).toContainText("Rule set saved");
+  await expect(page.getByRole("table", { name: "Limits in force" })).toContainText("the site's own choice");
+
+  await page.goto(`/waste/${code}`);
+  await expect(page.getByText(/30 days, E2E state rule: E2E: state permit condition/)).toBeVisible();
+  await page.goto("/waste/due");
+  await expect(page.getByRole("link", { name: "E2E state rule" })).toBeVisible();
+
+  await choose(async (f) => {
+    await f.getByLabel("Rule set", { exact: true }).selectOption("US_FEDERAL");
+    await f.getByLabel("Generator category").selectOption("LQG");
+    await f.getByLabel("Reason").fill("E2E: back to federal large quantity generator");
+  });
+  expect(consoleErrors).toEqual([]);
+});

@@ -18,6 +18,11 @@ export function pct(value: number | null, decimals = 2): string {
   return value === null ? "—" : `${formatFixed(value, decimals)} %`;
 }
 
+/** FFA with the fatty acid it is expressed as: "2.00 % as palmitic". */
+export function ffa(value: number | null, basis: string, decimals = 2): string {
+  return value === null ? "—" : `${formatFixed(value, decimals)} % as ${basis.toLowerCase()}`;
+}
+
 export function num(value: number | null, decimals: number): string {
   return value === null ? "—" : formatFixed(value, decimals);
 }

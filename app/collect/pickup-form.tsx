@@ -1,6 +1,7 @@
 "use client";
 // The pickup form on the collector's phone: source, material, containers, volume or gauge reading,
 // temperature, quick looks, labels and notes.
+import { Cautions } from "@/app/_ui/kit/cautions";
 import type { FormEvent } from "react";
 import { labelOf } from "@/lib/ledger/kinds";
 import { temperatureUnit, volumeUnit } from "@/lib/collect/entry";
@@ -67,6 +68,21 @@ function SourceCard({ source, system, timeZone, today }: { source: PhoneSource; 
         <History rows={source.history} system={system} tz={timeZone} today={today} />
       </details>
     </div>
+  );
+}
+
+/** The cautions at the kerb: hot, heavy oil always; hydrogen sulfide when the material is trap grease. */
+function PickupCautions({ material }: { material: string }) {
+  return (
+    <Cautions
+      title="Cautions at the pickup"
+      items={[
+        "Used oil can be hot and containers heavy and slippery. Do not pour or lift hot oil; wear gloves and eye protection.",
+        ...(material === "TRAP_GREASE"
+          ? ["Trap grease gives off hydrogen sulfide, which can kill and which you soon stop smelling. Never enter or lean into a grease trap or pit; stand upwind, keep the lid open only as long as needed, and pump from outside."]
+          : []),
+      ]}
+    />
   );
 }
 
@@ -208,9 +224,7 @@ export function PickupForm(p: PickupFormProps) {
       <SourceField draft={p.draft} errors={p.errors} sources={p.sources} routeCodes={p.routeCodes} onChoose={p.onChooseSource} />
       {p.source ? <SourceCard source={p.source} system={p.system} timeZone={p.timeZone} today={p.today} /> : null}
       {p.materials.length > 1 ? <MaterialField materials={p.materials} material={p.material} set={p.set} errors={p.errors} /> : null}
-      <p className="collect-caution">
-        Caution: used oil can be hot and containers heavy and slippery. Do not pour or lift hot oil; wear gloves and eye protection and follow the safety data sheet and your site&apos;s rules.
-      </p>
+      <PickupCautions material={p.material} />
       <ContainersField {...fields} />
       <MeasureFields {...fields} />
       <TextFields {...fields} />

@@ -1,11 +1,12 @@
 import type { Metadata } from "next";
 import { labelOf } from "@/lib/ledger/kinds";
 import { listLots } from "@/lib/feedstock/lot.store";
-import { daysBetween, kg, pct, when } from "@/app/_ui/format";
+import { daysBetween, ffa, kg, pct, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, NoSite, Note } from "@/app/_ui/ui";
 import type { Column } from "@/app/_ui/kit";
 import { DataTable } from "@/app/_ui/kit";
+import { LabCautions } from "@/app/lab/lab-cautions";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Lab" };
@@ -18,7 +19,7 @@ const labColumns = (tz: string, now: Date): Column<LabRow>[] => [
   { key: "received", header: "Received", cell: (l) => <span className="nowrap">{when(l.receivedAt, tz)}</span> },
   { key: "waiting", header: "Waiting", numeric: true, cell: (l) => `${Math.max(0, daysBetween(l.receivedAt, now))} d` },
   { key: "mass", header: "Mass", numeric: true, cell: (l) => kg(l.massG) },
-  { key: "ffa", header: "FFA so far", numeric: true, cell: (l) => (l.ffaPct === null ? "—" : pct(l.ffaPct)) },
+  { key: "ffa", header: "FFA so far", numeric: true, cell: (l) => ffa(l.ffaPct, l.ffaBasis) },
   { key: "water", header: "Water so far", numeric: true, cell: (l) => (l.waterPct === null ? "—" : pct(l.waterPct)) },
   { key: "source", header: "Source", cell: (l) => l.supplier ?? `${l.pickups} pickup${l.pickups === 1 ? "" : "s"}` },
 ];
@@ -37,6 +38,7 @@ export default async function LabPage() {
         has an FFA titration.
       </p>
       {user.role !== "PRODUCTION" ? <Note>Production staff record lab results; you can read them.</Note> : null}
+      <LabCautions kind="titration" />
       {total === 0 ? (
         <Empty>No lot is waiting for the lab.</Empty>
       ) : (

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { LOT_STATUSES, labelOf } from "@/lib/ledger/kinds";
 import { listLots } from "@/lib/feedstock/lot.store";
-import { kg, pct, when } from "@/app/_ui/format";
+import { ffa, kg, pct, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { CodeLink, Empty, HistoryLink, NoSite, Note, Pager, Status } from "@/app/_ui/ui";
@@ -30,7 +30,7 @@ const LOT_COLUMNS = (tz: string): Column<LotListRow>[] => [
   { key: "material", header: "Material", cell: (l) => labelOf(l.material) },
   { key: "from", header: "From", cell: (l) => (l.origin === "DELIVERY" ? (l.supplier ?? "Delivery") : `${l.pickups} pickup${l.pickups === 1 ? "" : "s"}`) },
   { key: "status", header: "Status", cell: (l) => <Status code={l.status} /> },
-  { key: "ffa", header: "FFA", numeric: true, cell: (l) => pct(l.ffaPct) },
+  { key: "ffa", header: "FFA", numeric: true, cell: (l) => ffa(l.ffaPct, l.ffaBasis) },
   { key: "water", header: "Water", numeric: true, cell: (l) => pct(l.waterPct) },
   { key: "mass", header: "Received mass", numeric: true, cell: (l) => kg(l.massG) },
   { key: "stock", header: "Book stock", numeric: true, cell: (l) => kg(l.stockG) },
@@ -73,7 +73,7 @@ export default async function LotsPage({ searchParams }: Props) {
         <>
           <DataTable caption="Feedstock lots" hideCaption columns={LOT_COLUMNS(tz)} rows={rows} rowKey={(l) => l.code} empty="No lots recorded yet." />
           <Pager basePath="/lots" page={page} total={total} pageSize={PAGE_SIZE} query={query} />
-          <Note>FFA is the mean of the lot&apos;s titrations that are not voided; water is the latest water test.</Note>
+          <Note>FFA is the mean of the lot&apos;s titrations that are not voided, each converted through its acid value when they name different fatty acids; water is the latest water test.</Note>
         </>
       )}
       <ReceiptsPicture db={db} siteId={site.id} timeZone={tz} now={user.now} />

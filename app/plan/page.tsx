@@ -4,12 +4,14 @@ import type { ReactNode } from "react";
 import type { DomainIssue } from "@/lib/errors";
 import { CATALYSTS, labelOf } from "@/lib/ledger/kinds";
 import { BLEND_OBJECTIVES } from "@/lib/blend/blend.schema";
-import { DEFAULT_BLEND_LIMITS, DEFAULT_COST_PER_KG, PLAN_OBJECTIVE_LABELS, buildCandidates } from "@/lib/batch/plan";
+import { DEFAULT_BLEND_LIMITS, DEFAULT_COST_PER_KG, PLAN_OBJECTIVE_LABELS, blendWaterLimit, buildCandidates } from "@/lib/batch/plan";
 import type { PlanCandidate, PlanProposal } from "@/lib/batch/plan";
 import { loadPlanStock } from "@/lib/batch/plan.store";
 import { proposeBatchPlan } from "@/lib/batch/plan.service";
 import { listBatches } from "@/lib/batch/batch.store";
-import { DEFAULT_RECIPE_SETTINGS } from "@/lib/recipe/recipe-defaults";
+import { DEFAULT_RECIPE_LIMITS, DEFAULT_RECIPE_SETTINGS, WATER_LIMIT_BY_STEP } from "@/lib/recipe/recipe-defaults";
+import { levelOf, screenText } from "@/lib/spec/source-text";
+import { ConfidenceMark } from "@/app/_ui/kit";
 import { DEFAULT_ACID_STEP_SETTINGS, DEFAULT_PRETREATMENT_LIMITS } from "@/lib/recipe/pretreatment";
 import { kg, num, pct, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
@@ -61,7 +63,7 @@ function CandidatesTable({ candidates, params, errors, drawn }: { candidates: Pl
             <th scope="col">From</th>
             <th scope="col">Material or tank</th>
             <th scope="col" className="num">Holds</th>
-            <th scope="col" className="num">FFA</th>
+            <th scope="col" className="num">FFA as oleic</th>
             <th scope="col" className="num">Water</th>
             <th scope="col" className="num">Age</th>
             <th scope="col">Cost per kg</th>
@@ -139,7 +141,7 @@ function Refusal({ proposal }: { proposal: PlanProposal }) {
           </div>
           <div>
             <dt>Lowest water this stock can give</dt>
-            <dd>{d.minWaterPct === null ? "—" : `${pct(d.minWaterPct, 3)} (limit ${pct(proposal.request.maxWaterPct, 3)})`}</dd>
+            <dd>{d.minWaterPct === null ? "—" : `${pct(d.minWaterPct, 3)} (limit ${pct(blendWaterLimit(proposal.request).value, 3)})`}</dd>
           </div>
           <div>
             <dt>Lowest FFA within the water limit</dt>
@@ -208,8 +210,16 @@ export default async function PlanPage({ searchParams }: { searchParams: Promise
               label="Blend water limit (%)"
               params={params}
               errors={errors}
-              placeholder={String(DEFAULT_BLEND_LIMITS.maxWaterPct.value)}
-              hint={`Default ${DEFAULT_BLEND_LIMITS.maxWaterPct.value} %: ${DEFAULT_BLEND_LIMITS.maxWaterPct.source} (${DEFAULT_BLEND_LIMITS.maxWaterPct.status}); dry the oil before the base step`}
+              placeholder="the step's limit"
+              hint={
+                <>
+                  Empty: the limit of the step the blend goes into first — base step {WATER_LIMIT_BY_STEP.BASE_STEP.value} % ({screenText(WATER_LIMIT_BY_STEP.BASE_STEP.source)}){" "}
+                  <ConfidenceMark level={levelOf(WATER_LIMIT_BY_STEP.BASE_STEP.status)} anchor="recipe-maxWaterPct" /> when the FFA limit is below{" "}
+                  {DEFAULT_RECIPE_LIMITS.baseCatalysisMaxFfaPct.value} %, otherwise acid step {WATER_LIMIT_BY_STEP.ACID_STEP.value} % ({screenText(WATER_LIMIT_BY_STEP.ACID_STEP.source)}){" "}
+                  <ConfidenceMark level={levelOf(WATER_LIMIT_BY_STEP.ACID_STEP.status)} anchor="recipe-acidStepMaxWaterPct" />. The recipe warns against the same limits; dry the oil
+                  before the base step.
+                </>
+              }
             />
             <div className="field">
               <label>
@@ -248,7 +258,15 @@ export default async function PlanPage({ searchParams }: { searchParams: Promise
             <Field name="molarRatio" label="Methanol : oil molar ratio" params={params} errors={errors} placeholder={String(DEFAULT_RECIPE_SETTINGS.molarRatio.value)} hint={DEFAULT_RECIPE_SETTINGS.molarRatio.source} />
             <Field name="reactionTempC" label="Reaction temperature (°C)" params={params} errors={errors} placeholder={String(DEFAULT_RECIPE_SETTINGS.reactionTempC.value)} hint="Keep below the methanol boiling point (64.7 °C at sea level) unless the vessel is built for it." />
             <Field name="baseDosePctOfOil" label="Base catalyst dose (% of oil, optional)" params={params} errors={errors} placeholder="catalyst default" />
-            <Field name="meanTgMolarMass" label="Mean oil molar mass (g/mol, optional)" params={params} errors={errors} placeholder={num(DEFAULT_RECIPE_SETTINGS.meanTgMolarMass.value, 1)} hint="From a saponification value when known." />
+            <Field
+              name="saponificationValueMgKohG"
+              label="Saponification value (mg KOH/g, optional)"
+              params={params}
+              errors={errors}
+              placeholder="from the lab"
+              hint="As the lab reports it (AOCS Cd 3-25 or ISO 3657). The card shows the oil molar mass worked out from it: 3 × 56.1 × 1000 ÷ (saponification value − acid value)."
+            />
+            <Field name="meanTgMolarMass" label="Or mean oil molar mass (g/mol, optional)" params={params} errors={errors} placeholder={num(DEFAULT_RECIPE_SETTINGS.meanTgMolarMass.value, 1)} hint="Only when no saponification value is given." />
             <Field name="washes" label="Washes" params={params} errors={errors} placeholder={String(DEFAULT_RECIPE_SETTINGS.washes.value)} />
             <Field name="waterPerWashPctOfEster" label="Water per wash (% of ester)" params={params} errors={errors} placeholder={String(DEFAULT_RECIPE_SETTINGS.waterPerWashPctOfEster.value)} hint={DEFAULT_RECIPE_SETTINGS.waterPerWashPctOfEster.note} />
           </div>
@@ -264,7 +282,7 @@ export default async function PlanPage({ searchParams }: { searchParams: Promise
         </details>
         <CandidatesTable candidates={candidates} params={params} errors={errors} drawn={drawn} />
         <Note>
-          A tank&apos;s FFA and water are the mass-weighted means of the lab results of the lots it holds now, traced through the movement ledger. Costs are optional: the
+          FFA is shown as oleic for every candidate so that lots titrated as palmitic or lauric compare and blend by their moles of acid. A tank&apos;s FFA and water are the mass-weighted means of the lab results of the lots it holds now, traced through the movement ledger. Costs are optional: the
           books hold no prices, so every candidate costs {DEFAULT_COST_PER_KG.value} per kg unless you enter one.
         </Note>
         {proposal !== null && !proposal.ok ? (
@@ -288,7 +306,7 @@ export default async function PlanPage({ searchParams }: { searchParams: Promise
                 <tr>
                   <th scope="col">Draw from</th>
                   <th scope="col" className="num">Mass</th>
-                  <th scope="col" className="num">FFA</th>
+                  <th scope="col" className="num">FFA as oleic</th>
                   <th scope="col" className="num">Water</th>
                 </tr>
               </thead>

@@ -13,6 +13,7 @@ export const PLAN_NUMBER_FIELDS = [
   "reactionTempC",
   "baseDosePctOfOil",
   "meanTgMolarMass",
+  "saponificationValueMgKohG",
   "washes",
   "waterPerWashPctOfEster",
   "acidMethanolToFfaRatio",

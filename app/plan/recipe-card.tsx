@@ -1,4 +1,7 @@
 import type { Caution, CautionStep, RecipeCard } from "@/lib/batch/plan";
+import { WATER_LIMIT_BY_STEP } from "@/lib/recipe/recipe-defaults";
+import { levelOf, screenText } from "@/lib/spec/source-text";
+import { ConfidenceMark } from "@/app/_ui/kit";
 import { PLAN_OBJECTIVE_LABELS } from "@/lib/batch/plan";
 import { labelOf } from "@/lib/ledger/kinds";
 import { formatFixed } from "@/lib/quantity/units";
@@ -61,7 +64,7 @@ export function RecipeCardView({ card, heading = "Recipe card", printedAt }: { c
             <tr>
               <th scope="col">From</th>
               <th scope="col" className="num">Mass</th>
-              <th scope="col" className="num">FFA</th>
+              <th scope="col" className="num">FFA as oleic</th>
               <th scope="col" className="num">Water</th>
               <th scope="col" className="tick">Drawn</th>
             </tr>
@@ -159,7 +162,27 @@ export function RecipeCardView({ card, heading = "Recipe card", printedAt }: { c
           <div>
             <dt>Oil into this step</dt>
             <dd>
-              {kgText(base.oilKg, 1)} at {pctText(base.ffaPct)} FFA, {pctText(base.waterPct, 3)} water
+              {kgText(base.oilKg, 1)} at {pctText(base.ffaPct)} FFA as {(base.ffaBasis ?? "OLEIC").toLowerCase()}
+              {base.acidValueMgKohG === undefined ? "" : ` (acid value ${formatFixed(base.acidValueMgKohG, 2)} mg KOH/g)`}, {pctText(base.waterPct, 3)} water; the FFA is
+              neutralised by its moles as {(base.ffaBasis ?? "OLEIC").toLowerCase()} acid
+            </dd>
+          </div>
+          {base.meanTgMolarMass === undefined ? null : (
+            <div>
+              <dt>Mean oil molar mass</dt>
+              <dd>
+                {formatFixed(base.meanTgMolarMass, 1)} g/mol
+                {base.molarMassFromSv
+                  ? ` from saponification value ${formatFixed(base.molarMassFromSv.saponificationValueMgKohG, 1)} mg KOH/g: 3 × 56.1 × 1000 ÷ (${formatFixed(base.molarMassFromSv.saponificationValueMgKohG, 1)} − ${formatFixed(base.molarMassFromSv.acidValueMgKohG, 2)} acid value)`
+                  : ""}
+              </dd>
+            </div>
+          )}
+          <div>
+            <dt>Water limit for this step</dt>
+            <dd>
+              {pctText(WATER_LIMIT_BY_STEP.BASE_STEP.value, 2)} ({screenText(WATER_LIMIT_BY_STEP.BASE_STEP.source)}){" "}
+              <ConfidenceMark level={levelOf(WATER_LIMIT_BY_STEP.BASE_STEP.status)} anchor="recipe-maxWaterPct" />
             </dd>
           </div>
           <div>

@@ -15,6 +15,7 @@ export const metadata: Metadata = { title: "References" };
 const LEVEL_TEXT: Readonly<Record<SourceLevel, string>> = {
   published: "published value",
   "common practice": "common practice",
+  "site choice": "the site's own choice",
   check: "check before relying on it",
 };
 

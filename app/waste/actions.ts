@@ -5,6 +5,7 @@ import { getDb } from "@/lib/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { getSiteById } from "@/lib/site/site.store";
 import { markContainerFull, openWasteContainer, recordCharacterisation, recordDisposal } from "@/lib/waste/container.service";
+import { chooseWasteRules } from "@/lib/waste/site-rules.service";
 import { toSiteInstant } from "@/app/trace/site-time";
 import { readNumber, readText, readValues, refused } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
@@ -96,4 +97,29 @@ export async function recordHaulAction(prev: FormState, form: FormData): Promise
   if (!r.ok) return refused(prev, values, r.issues, HAUL_FIELDS);
   revalidateWaste(r.value.containerCode);
   return saved(prev, r.value.emptied ? `Haul ${r.value.documentNo} recorded; the container is empty and marked hauled away.` : `Haul ${r.value.documentNo} recorded.`);
+}
+
+const RULE_FIELDS = ["choice", "generatorCategory", "tsdfDistanceMiles", "name", "hazardousMaxDays", "nonHazardousMaxDays", "satelliteExcessDays", "satelliteMaxUsGal", "reason"] as const;
+
+/** An administrator or compliance officer chooses the waste rule set the site works to. */
+export async function chooseWasteRulesAction(prev: FormState, form: FormData): Promise<FormState> {
+  const values = readValues(form, RULE_FIELDS);
+  const who = await requireRole(["COMPLIANCE", "ADMIN"]);
+  if (!who.ok) return refused(prev, values, who.issues, RULE_FIELDS);
+  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const r = await chooseWasteRules(await getDb(), actor, {
+    choice: values.choice,
+    generatorCategory: values.generatorCategory,
+    tsdfDistanceMiles: readNumber(form, "tsdfDistanceMiles") ?? null,
+    name: values.name,
+    hazardousMaxDays: readNumber(form, "hazardousMaxDays"),
+    nonHazardousMaxDays: readNumber(form, "nonHazardousMaxDays"),
+    satelliteExcessDays: readNumber(form, "satelliteExcessDays"),
+    satelliteMaxUsGal: readNumber(form, "satelliteMaxUsGal"),
+    reason: values.reason,
+  });
+  if (!r.ok) return refused(prev, values, r.issues, RULE_FIELDS);
+  revalidatePath("/waste", "layout");
+  revalidatePath("/");
+  return saved(prev, "Rule set saved: the waste pages now work to it.");
 }

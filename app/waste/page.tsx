@@ -1,3 +1,4 @@
+import Link from "next/link";
 import type { Metadata } from "next";
 import { labelOf, WASTE_STREAMS } from "@/lib/ledger/kinds";
 import { getUtcOffsetMin } from "@/lib/period/site-time";
@@ -106,7 +107,7 @@ export default async function WastePage() {
             <>
               <Note>
                 Due dates from {due.ruleSet}. {due.assumption.note} Containers marked satellite are treated as one satellite area, with
-                their volume estimated from book mass at a nominal density. {due.note}
+                their volume estimated from book mass at a nominal density. {due.note} <Link href="/waste/rules">Waste rule set</Link>
               </Note>
               {due.issues.length > 0 ? (
                 <ul className="warning" aria-label="Waste warnings">

@@ -37,6 +37,7 @@ export const READ_MATRIX: readonly ReadRule[] = [
   { path: "/shipments", roles: OFFICE, menu: "Shipments" },
   { path: "/customers", roles: OFFICE, menu: "Customers" },
   { path: "/waste", roles: PLANT, menu: "Waste" },
+  { path: "/waste/rules", roles: PLANT },
   { path: "/trace", roles: PLANT, menu: "Trace" },
   // Recall and its report: production sees where material went but not to which customers (left out in the answer).
   { path: "/trace/recall", roles: PLANT, menu: "Recall" },

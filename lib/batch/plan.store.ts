@@ -1,6 +1,13 @@
 import "server-only";
 import type { Db } from "@/lib/database/connect";
 import { getLabResults } from "@/lib/feedstock/lab.store";
+import type { LotLabResult } from "@/lib/feedstock/lab.store";
+import { convertFfaBasis } from "@/lib/titration/titration";
+
+/** The planner blends and compares FFA as oleic (its limits are as oleic); moles are kept (AOCS Ca 5a-40 bases). */
+function ffaAsOleic(r: LotLabResult | undefined): number | null {
+  return r === undefined || r.ffaPct === null ? null : convertFfaBasis(r.ffaPct, r.ffaBasis, "OLEIC");
+}
 import { loadTraceLedger } from "@/lib/ledger/movement.store";
 import type { TraceLedger } from "@/lib/ledger/movement.store";
 import { traceHolder } from "@/lib/trace/genealogy";
@@ -96,7 +103,7 @@ export async function loadPlanStock(db: Db, siteId: number): Promise<PlanStock> 
     material: l.material,
     receivedAt: l.receivedAt,
     stockG: l.holder.stockG,
-    ffaPct: results.get(l.id)?.ffaPct ?? null,
+    ffaPct: ffaAsOleic(results.get(l.id)),
     waterPct: results.get(l.id)?.waterPct ?? null,
   }));
   const tanks: TankStock[] = tankRows.map((t) => {
@@ -106,7 +113,7 @@ export async function loadPlanStock(db: Db, siteId: number): Promise<PlanStock> 
       const l = s.lotHolderId === null ? undefined : lotOfHolder.get(s.lotHolderId);
       const key = l ? l.code : "";
       const r = l ? results.get(l.id) : undefined;
-      const share = byLot.get(key) ?? { lotCode: l?.code ?? null, grams: 0, ffaPct: r?.ffaPct ?? null, waterPct: r?.waterPct ?? null, receivedAt: l?.receivedAt ?? null };
+      const share = byLot.get(key) ?? { lotCode: l?.code ?? null, grams: 0, ffaPct: ffaAsOleic(r), waterPct: r?.waterPct ?? null, receivedAt: l?.receivedAt ?? null };
       share.grams += s.grams;
       byLot.set(key, share);
     }

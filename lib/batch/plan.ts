@@ -15,7 +15,7 @@ import type { BlendDiagnosis, BlendPlan } from "@/lib/blend/optimise";
 import { defineSourced } from "@/lib/chemistry/sourced-value";
 import type { SourcedValue } from "@/lib/chemistry/sourced-value";
 import { CATALYSTS as CATALYST_PROFILES } from "@/lib/recipe/catalyst";
-import { DEFAULT_RECIPE_LIMITS, DEFAULT_RECIPE_SETTINGS } from "@/lib/recipe/recipe-defaults";
+import { DEFAULT_RECIPE_LIMITS, DEFAULT_RECIPE_SETTINGS, WATER_LIMIT_BY_STEP } from "@/lib/recipe/recipe-defaults";
 import {
   MAX_ACID_PCT_OF_FFA,
   MAX_BASE_DOSE_PCT_OF_OIL,
@@ -26,6 +26,8 @@ import {
   MAX_WATER_PER_WASH_PCT_OF_ESTER,
   MIN_REACTION_TEMP_C,
   MIN_TG_MOLAR_MASS,
+  MAX_SAPONIFICATION_VALUE,
+  MIN_SAPONIFICATION_VALUE,
   PretreatmentInputSchema,
 } from "@/lib/recipe/recipe.schema";
 import type { BatchActuals, PretreatmentInput } from "@/lib/recipe/recipe.schema";
@@ -42,7 +44,7 @@ import { MAX_MOLAR_RATIO, MIN_MOLAR_RATIO } from "@/lib/batch/batch.schema";
 /** Blend limits the planner starts from; a planner may tighten or relax them per batch. */
 export const DEFAULT_BLEND_LIMITS: { maxFfaPct: SourcedValue; maxWaterPct: SourcedValue } = {
   maxFfaPct: DEFAULT_RECIPE_LIMITS.baseCatalysisMaxFfaPct,
-  maxWaterPct: DEFAULT_PRETREATMENT_LIMITS.acidStepMaxWaterPct,
+  maxWaterPct: WATER_LIMIT_BY_STEP.ACID_STEP,
 };
 
 /** The books hold no feedstock prices; every candidate costs this unless a cost is entered. */
@@ -78,10 +80,11 @@ export const BatchPlanRequestSchema = z.object({
     .min(0, "Blend FFA limit must be at least 0 %")
     .max(100, "Blend FFA limit must be at most 100 %")
     .default(DEFAULT_BLEND_LIMITS.maxFfaPct.value),
+  /** Empty: the water limit of the step the blend goes into first (see blendWaterLimit). */
   maxWaterPct: num("Blend water limit", "%")
     .min(0, "Blend water limit must be at least 0 %")
     .max(100, "Blend water limit must be at most 100 %")
-    .default(DEFAULT_BLEND_LIMITS.maxWaterPct.value),
+    .optional(),
   objective: z.enum(BLEND_OBJECTIVES, { error: `Objective must be one of ${BLEND_OBJECTIVES.join(", ")}` }).default("OLDEST_FIRST"),
   minDrawKg: num("Smallest draw", "kg").positive("Smallest draw must be more than 0 kg").max(2_000_000, "Smallest draw must be at most 2,000,000 kg").optional(),
   catalyst: oneOf("Catalyst", CATALYSTS).default("KOH"),
@@ -106,6 +109,11 @@ export const BatchPlanRequestSchema = z.object({
     .min(MIN_TG_MOLAR_MASS, `Mean oil molar mass must be at least ${MIN_TG_MOLAR_MASS} g/mol`)
     .max(MAX_TG_MOLAR_MASS, `Mean oil molar mass must be at most ${MAX_TG_MOLAR_MASS} g/mol`)
     .optional(),
+  /** The lab's saponification value (AOCS Cd 3-25 / ISO 3657); the recipe turns it into the mean oil molar mass. */
+  saponificationValueMgKohG: num("Saponification value", "mg KOH/g")
+    .min(MIN_SAPONIFICATION_VALUE, `Saponification value must be at least ${MIN_SAPONIFICATION_VALUE} mg KOH/g`)
+    .max(MAX_SAPONIFICATION_VALUE, `Saponification value must be at most ${MAX_SAPONIFICATION_VALUE} mg KOH/g`)
+    .optional(),
   washes: num("Number of washes", "washes").int("Number of washes must be a whole number").min(0, "Number of washes must be 0 or more").max(MAX_WASHES, `Number of washes must be at most ${MAX_WASHES}`).optional(),
   waterPerWashPctOfEster: num("Water per wash", "% of ester")
     .min(0, "Water per wash must be at least 0 %")
@@ -127,6 +135,9 @@ export const BatchPlanRequestSchema = z.object({
   /** Candidate references the planner leaves out. */
   exclude: z.array(z.string()).max(MAX_BLEND_CANDIDATES * 5, "Too many left-out candidates").default([]),
   notes: text("Notes", 1000).default(""),
+}).refine((r) => r.meanTgMolarMass === undefined || r.saponificationValueMgKohG === undefined, {
+  message: "Give either the mean oil molar mass or the saponification value, not both",
+  path: ["saponificationValueMgKohG"],
 });
 export type BatchPlanRequestInput = z.input<typeof BatchPlanRequestSchema>;
 export type BatchPlanRequest = z.output<typeof BatchPlanRequestSchema>;
@@ -290,6 +301,17 @@ export function buildCandidates(stock: PlanStock, request: Pick<BatchPlanRequest
   return out;
 }
 
+/**
+ * The blend's water limit: the planner's own figure, else the site setting of the step the blend goes into
+ * first — the base step when the FFA limit keeps every blend below the acid-pretreatment threshold, the
+ * acid step otherwise. The recipe and pretreatment warnings use the same two settings.
+ */
+export function blendWaterLimit(request: Pick<BatchPlanRequest, "maxWaterPct" | "maxFfaPct">): { value: number; step: "BASE_STEP" | "ACID_STEP" | null } {
+  if (request.maxWaterPct !== undefined) return { value: request.maxWaterPct, step: null };
+  const step = request.maxFfaPct < DEFAULT_RECIPE_LIMITS.baseCatalysisMaxFfaPct.value ? "BASE_STEP" : "ACID_STEP";
+  return { value: WATER_LIMIT_BY_STEP[step].value, step };
+}
+
 export function toBlendRequest(request: BatchPlanRequest, candidates: readonly PlanCandidate[]): BlendRequest {
   const usable = candidates.filter((c) => c.leftOutBecause === null && c.ffaPct !== null && c.waterPct !== null);
   return {
@@ -297,7 +319,7 @@ export function toBlendRequest(request: BatchPlanRequest, candidates: readonly P
       (c): BlendCandidate => ({ ref: c.ref, availableKg: c.availableG / 1000, ffaPct: c.ffaPct ?? 0, waterPct: c.waterPct ?? 0, costPerKg: c.costPerKg, ageDays: c.ageDays }),
     ),
     targetKg: request.targetOilKg,
-    limits: { maxFfaPct: request.maxFfaPct, maxWaterPct: request.maxWaterPct },
+    limits: { maxFfaPct: request.maxFfaPct, maxWaterPct: blendWaterLimit(request).value },
     objective: request.objective,
     ...(request.minDrawKg === undefined ? {} : { minDrawKg: request.minDrawKg }),
   };
@@ -354,6 +376,7 @@ export function toPretreatmentInput(
       ...(assay === null ? {} : solid ? { purityPct: assay.pct } : { solutionStrengthPct: assay.pct }),
       ...(request.baseDosePctOfOil === undefined ? {} : { baseDosePctOfOil: request.baseDosePctOfOil }),
       ...(request.meanTgMolarMass === undefined ? {} : { meanTgMolarMass: request.meanTgMolarMass }),
+      ...(request.saponificationValueMgKohG === undefined ? {} : { saponificationValueMgKohG: request.saponificationValueMgKohG }),
       ...(washPractice === undefined ? {} : { washPractice }),
     },
     ...(Object.keys(acidStep).length === 0 ? {} : { acidStep }),
@@ -367,6 +390,7 @@ const RECIPE_FIELD_TO_REQUEST: ReadonlyArray<readonly [RegExp, string]> = [
   [/^settings\.reactionTempC$/, "reactionTempC"],
   [/^settings\.baseDosePctOfOil$/, "baseDosePctOfOil"],
   [/^settings\.meanTgMolarMass$/, "meanTgMolarMass"],
+  [/^settings\.saponificationValueMgKohG$/, "saponificationValueMgKohG"],
   [/^settings\.washPractice\.washes$/, "washes"],
   [/^settings\.washPractice\.waterPerWashPctOfEster$/, "waterPerWashPctOfEster"],
   [/^acidStep\.methanolToFfaMolarRatio$/, "acidMethanolToFfaRatio"],
@@ -470,6 +494,12 @@ export interface RecipeCard {
   baseStep: {
     oilKg: number;
     ffaPct: number;
+    /** The fatty acid the FFA is expressed as; older cards have none (oleic). */
+    ffaBasis?: string;
+    acidValueMgKohG?: number;
+    meanTgMolarMass?: number;
+    /** Present when the molar mass came from the lab's saponification value. */
+    molarMassFromSv?: { saponificationValueMgKohG: number; acidValueMgKohG: number } | null;
     waterPct: number;
     molarRatio: number;
     reactionTempC: number;
@@ -560,7 +590,7 @@ export function composeCard(args: {
       ffaPct: blend.blendFfaPct,
       waterPct: blend.blendWaterPct,
       maxFfaPct: request.maxFfaPct,
-      maxWaterPct: request.maxWaterPct,
+      maxWaterPct: blendWaterLimit(request).value,
       costTotal: blend.costTotal,
       meanAgeDays: blend.meanAgeDays,
     },
@@ -585,6 +615,10 @@ export function composeCard(args: {
     baseStep: {
       oilKg: base.oil.massKg,
       ffaPct: base.oil.ffaPct,
+      ffaBasis: base.oil.ffaBasis,
+      acidValueMgKohG: base.oil.acidValueMgKohG,
+      meanTgMolarMass: base.oil.meanTgMolarMass,
+      molarMassFromSv: base.oil.molarMassFromSv,
       waterPct: base.oil.waterPct,
       molarRatio: base.methanol.molarRatio,
       reactionTempC: base.reactionTempC,

@@ -1,4 +1,6 @@
 import "server-only";
+import { combineFfaReadings, toFfaBasis } from "@/lib/titration/titration";
+import type { FfaBasis } from "@/lib/titration/titration";
 import type { Db, Tx } from "@/lib/database/connect";
 import type { Measured } from "@/lib/feedstock/measure";
 import { reject } from "@/lib/ledger/ledger.store";
@@ -69,7 +71,9 @@ export interface LotRow {
   massG: number;
   stockG: number;
   standardVolumeMl: number;
+  /** Mean of the valid titrations as ffaBasis, each converted through its acid value. */
   ffaPct: number | null;
+  ffaBasis: FfaBasis;
   waterPct: number | null;
   pickups: number;
   supplier: string | null;
@@ -85,7 +89,7 @@ export async function listLots(db: Db, siteId: number, opts: { status?: string; 
       take: opts.take ?? 100,
       include: {
         holder: { select: { stockG: true } },
-        titrations: { where: { voided: false }, orderBy: { testedAt: "desc" }, select: { ffaPct: true } },
+        titrations: { where: { voided: false }, orderBy: { testedAt: "desc" }, select: { ffaPct: true, basis: true, acidValue: true } },
         labTests: { where: { voided: false, kind: "WATER" }, orderBy: { testedAt: "desc" }, take: 1, select: { valuePct: true } },
         supplier: { select: { name: true } },
         _count: { select: { pickups: true } },
@@ -106,7 +110,7 @@ export async function listLots(db: Db, siteId: number, opts: { status?: string; 
       massG: r.massG,
       stockG: r.holder.stockG,
       standardVolumeMl: r.standardVolumeMl,
-      ffaPct: r.titrations.length ? r.titrations.reduce((s, t) => s + t.ffaPct, 0) / r.titrations.length : null,
+      ...meanFfa(r.titrations),
       waterPct: r.labTests[0]?.valuePct ?? null,
       pickups: r._count.pickups,
       supplier: r.supplier?.name ?? null,
@@ -157,4 +161,9 @@ export async function insertTitration(
   t: { lotId: number; analystId: number; testedAt: Date; sampleMassG: number; titrant: string; concentrationMolL: number; titreMl: number; blankMl: number; basis: string; ffaPct: number; acidValue: number },
 ): Promise<{ id: number; ffaPct: number; acidValue: number }> {
   return tx.titration.create({ data: t, select: { id: true, ffaPct: true, acidValue: true } });
+}
+
+function meanFfa(titrations: ReadonlyArray<{ ffaPct: number; basis: string; acidValue: number }>): { ffaPct: number | null; ffaBasis: FfaBasis } {
+  const mean = combineFfaReadings(titrations.map((t) => ({ ffaPct: t.ffaPct, basis: toFfaBasis(t.basis), acidValueMgKohG: t.acidValue })));
+  return mean.ok ? { ffaPct: mean.value.ffaPct, ffaBasis: mean.value.basis } : { ffaPct: null, ffaBasis: "OLEIC" };
 }

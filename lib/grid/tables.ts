@@ -113,7 +113,7 @@ export const GRID_TABLES: Readonly<Record<TableKey, GridTable>> = {
   },
   titrations: {
     key: "titrations", label: "Titrations", rowId: "id", importKey: ["lotCode", "testedAt", "sampleMassG", "titreMl"], addRoles: ["PRODUCTION"],
-    note: "FFA titrations per lot. FFA % and acid value are computed on the server (AOCS Ca 5a-40). Methanol and lye solutions are hazardous: follow the safety data sheets.",
+    note: "FFA titrations per lot. FFA % and acid value are computed on the server (AOCS Ca 5a-40). The titration alcohol (isopropanol) is flammable and the hydroxide titrant corrosive: follow the safety data sheets and the lab's procedures.",
     defaultSort: { field: "testedAt", dir: "desc" }, totals: {},
     columns: [
       ro(num("id", "No.", undefined, { entry: false, integer: true, decimals: 0 })),

@@ -42,6 +42,8 @@ interface DensityEntryBase {
   status: SourceStatus;
   /** Temperatures the model is backed for; an observation outside it gets a warning, not an error. */
   validRangeC?: TemperatureRangeC;
+  /** Readings from here up to validRangeC.minC get a note, not a warning (an oil still liquid there). */
+  ambientNoteFromC?: number;
   note?: string;
 }
 
@@ -61,7 +63,11 @@ export interface WaterDensityEntry extends DensityEntryBase {
 export type DensityEntry = LinearDensityEntry | WaterDensityEntry;
 export type DensityTable = Readonly<Record<MaterialKind, DensityEntry>>;
 
-/** Reference temperatures for standard volumes: 15 °C (EN 14214, ASTM D1250) or 60 °F (US RFS, 40 CFR 80.1426(f)(8)). */
+/**
+ * Reference temperatures for standard volumes: 15 °C (EN 14214, ASTM D1250) or 60 °F. Both go through the
+ * table's linear density rule (common practice); 60 °F here is NOT the volume-correction equation of the US
+ * renewable fuel regulations, which is not implemented.
+ */
 export const REFERENCE_TEMPERATURE_C = {
   C15: 15,
   F60: fahrenheitToCelsius(60),
@@ -84,6 +90,7 @@ export const DEFAULT_DENSITY_TABLE: DensityTable = {
     status: "from memory",
     source: `ρ: ≈0.91–0.92 g/cm³ at 20 °C (from memory, unverified), midpoint 915 + 5 K × 0.64; ${VEG_OIL_SLOPE_SOURCE}`,
     validRangeC: { minC: 24, maxC: 110 },
+    ambientNoteFromC: 15,
     note: UCO_NOTE,
   },
   YELLOW_GREASE: {
@@ -93,6 +100,7 @@ export const DEFAULT_DENSITY_TABLE: DensityTable = {
     status: "from memory",
     source: `placeholder: same as used cooking oil (rendered UCO); ${VEG_OIL_SLOPE_SOURCE}`,
     validRangeC: { minC: 24, maxC: 110 },
+    ambientNoteFromC: 15,
     note: UCO_NOTE,
   },
   TRAP_GREASE: {
@@ -102,6 +110,7 @@ export const DEFAULT_DENSITY_TABLE: DensityTable = {
     status: "from memory",
     source: `placeholder: same as used cooking oil; no sourced value for trap/brown grease; ${VEG_OIL_SLOPE_SOURCE}`,
     validRangeC: { minC: 24, maxC: 110 },
+    ambientNoteFromC: 15,
     note: "contains water and solids; density varies widely — measure each lot and override",
   },
   TALLOW: {
@@ -121,6 +130,7 @@ export const DEFAULT_DENSITY_TABLE: DensityTable = {
     status: "sourced",
     source: `ρ: relative density 0.919–0.925 at 20 °C / water 20 °C, Codex CXS 210-1999; midpoint 0.922 × 998.2067 + 5 K × 0.64; ${VEG_OIL_SLOPE_SOURCE}`,
     validRangeC: { minC: 24, maxC: 110 },
+    ambientNoteFromC: 15,
   },
   CANOLA: {
     model: "linear",
@@ -129,6 +139,7 @@ export const DEFAULT_DENSITY_TABLE: DensityTable = {
     status: "sourced",
     source: `ρ: relative density 0.914–0.920 at 20 °C, Codex CXS 210-1999 (rapeseed, low erucic); midpoint 0.917 × 998.2067 + 5 K × 0.64; ${VEG_OIL_SLOPE_SOURCE}`,
     validRangeC: { minC: 24, maxC: 110 },
+    ambientNoteFromC: 15,
   },
   OTHER_OIL: {
     model: "linear",
@@ -137,6 +148,7 @@ export const DEFAULT_DENSITY_TABLE: DensityTable = {
     status: "common practice",
     source: `placeholder for an unlisted vegetable oil (≈0.92 g/cm³, common practice); ${VEG_OIL_SLOPE_SOURCE}`,
     validRangeC: { minC: 24, maxC: 110 },
+    ambientNoteFromC: 15,
     note: "override with the supplier's or the lab's density",
   },
   FAME: {
@@ -251,9 +263,14 @@ function densityOrIssue(entry: DensityEntry, tC: number, field: string): number 
   return rho;
 }
 
+/**
+ * A reading outside the range the model is backed for warns, except between the table's 15 °C anchor density
+ * and the bottom of the slope's range (15–24 °C for the oils): there the line runs between two backed
+ * points, an ordinary ambient reading, and only a note is given (see rangeNotes).
+ */
 function rangeWarnings(entry: DensityEntry, tC: number, field: string): DomainIssue[] {
   const range = entry.validRangeC;
-  if (range === undefined || (tC >= range.minC && tC <= range.maxC)) return [];
+  if (range === undefined || (tC >= range.minC && tC <= range.maxC) || isBetweenAnchorAndRange(entry, tC)) return [];
   return [
     {
       code: "DENSITY.OUTSIDE_MODEL_RANGE",
@@ -261,6 +278,18 @@ function rangeWarnings(entry: DensityEntry, tC: number, field: string): DomainIs
       field,
     },
   ];
+}
+
+function isBetweenAnchorAndRange(entry: DensityEntry, tC: number): boolean {
+  const range = entry.validRangeC;
+  return range !== undefined && entry.ambientNoteFromC !== undefined && tC >= entry.ambientNoteFromC && tC < range.minC;
+}
+
+/** The note for an ambient reading between the 15 °C anchor and the slope's backed range. */
+export function rangeNotes(entry: DensityEntry, tC: number): string[] {
+  const range = entry.validRangeC;
+  if (range === undefined || !isBetweenAnchorAndRange(entry, tC)) return [];
+  return [`At ${tC} °C the density is read on the straight line between the 15 °C table density and the ${range.minC}–${range.maxC} °C range its slope was measured over (common practice).`];
 }
 
 export interface StandardVolumeInput {

@@ -2,6 +2,7 @@ import { MOLAR_MASS } from "@/lib/chemistry/molar-mass";
 import type { CompoundName } from "@/lib/chemistry/molar-mass";
 import { defineSourced } from "@/lib/chemistry/sourced-value";
 import type { SourcedValue } from "@/lib/chemistry/sourced-value";
+import type { FfaBasis } from "@/lib/titration/titration";
 
 export const CATALYST_TYPES = ["NAOH", "KOH", "NAOME_SOLUTION", "KOME_SOLUTION"] as const;
 export type CatalystType = (typeof CATALYST_TYPES)[number];
@@ -83,7 +84,19 @@ export const CATALYSTS: Readonly<Record<CatalystType, CatalystProfile>> = {
   },
 };
 
-/** kg of pure catalyst compound that neutralises ffaKg of free fatty acids expressed as oleic acid (1 mol per mol). */
-export function computeNeutralisationKg(ffaKg: number, type: CatalystType): number {
-  return (ffaKg / MOLAR_MASS.oleicAcid) * MOLAR_MASS[CATALYSTS[type].compound];
+/** The fatty acid each FFA basis names (AOCS Ca 5a-40: oleic, palmitic, lauric). */
+export const FFA_BASIS_ACID: Readonly<Record<FfaBasis, CompoundName>> = {
+  OLEIC: "oleicAcid",
+  PALMITIC: "palmiticAcid",
+  LAURIC: "lauricAcid",
+};
+
+/** mol of free fatty acid in ffaKg of FFA expressed as the basis acid. */
+export function computeFfaMol(ffaKg: number, basis: FfaBasis = "OLEIC"): number {
+  return (ffaKg * 1000) / MOLAR_MASS[FFA_BASIS_ACID[basis]];
+}
+
+/** kg of pure catalyst compound that neutralises ffaKg of free fatty acids expressed as the basis acid (1 mol per mol). */
+export function computeNeutralisationKg(ffaKg: number, type: CatalystType, basis: FfaBasis = "OLEIC"): number {
+  return (computeFfaMol(ffaKg, basis) * MOLAR_MASS[CATALYSTS[type].compound]) / 1000;
 }

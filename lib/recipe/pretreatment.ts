@@ -1,10 +1,11 @@
+import { convertFfaBasis } from "@/lib/titration/titration";
 import { ok, fail } from "@/lib/errors";
 import type { DomainIssue, Result } from "@/lib/errors";
 import { MOLAR_MASS } from "@/lib/chemistry/molar-mass";
 import { METHANOL_DENSITY_20C } from "@/lib/chemistry/physical-constants";
 import { defineSourced } from "@/lib/chemistry/sourced-value";
 import type { SourcedValue } from "@/lib/chemistry/sourced-value";
-import { DEFAULT_RECIPE_LIMITS } from "@/lib/recipe/recipe-defaults";
+import { DEFAULT_RECIPE_LIMITS, WATER_LIMIT_BY_STEP } from "@/lib/recipe/recipe-defaults";
 import type { RecipeLimits } from "@/lib/recipe/recipe-defaults";
 import { planRecipe } from "@/lib/recipe/recipe";
 import type { RecipePlan } from "@/lib/recipe/recipe";
@@ -36,12 +37,7 @@ export const DEFAULT_PRETREATMENT_LIMITS: PretreatmentLimits = {
     "Canakci & Van Gerpen 2001, Trans. ASAE 44(6):1429 (acid level reduced to < 1 % FFA); review: AV < 2 mg KOH/g",
     "verified",
   ),
-  acidStepMaxWaterPct: defineSourced(
-    0.5,
-    "% w/w",
-    "Canakci & Van Gerpen 1999, Trans. ASAE 42(5):1203 (conversion < 90 % when water ≥ 0.5 %)",
-    "from memory",
-  ),
+  acidStepMaxWaterPct: WATER_LIMIT_BY_STEP.ACID_STEP,
 };
 
 export interface AcidStepDefaults {
@@ -230,7 +226,8 @@ export function planPretreatment(
   let fameKg = 0;
   for (const lot of input.lots) {
     massKg += lot.massKg;
-    ffaKg += (lot.massKg * lot.ffaPct) / 100;
+    // As oleic, the basis of the route thresholds and of the acid-step model (moles kept, AOCS Ca 5a-40 bases).
+    ffaKg += (lot.massKg * convertFfaBasis(lot.ffaPct, lot.ffaBasis ?? "OLEIC", "OLEIC")) / 100;
     waterKg += (lot.massKg * lot.waterPct) / 100;
     fameKg += (lot.massKg * (lot.famePct ?? 0)) / 100;
   }

@@ -90,3 +90,17 @@ export const DEFAULT_RECIPE_LIMITS: RecipeLimits = {
 export function mergeRecipeLimits(overrides: Partial<RecipeLimits> = {}): RecipeLimits {
   return { ...DEFAULT_RECIPE_LIMITS, ...overrides };
 }
+
+/**
+ * The water limit of each reaction step, one setting each, used by the blend planner, the recipe warning
+ * and the pretreatment warning alike (a blend is checked against the step it goes into first).
+ */
+export const WATER_LIMIT_BY_STEP: Readonly<{ BASE_STEP: SourcedValue; ACID_STEP: SourcedValue }> = {
+  BASE_STEP: DEFAULT_RECIPE_LIMITS.maxWaterPct,
+  ACID_STEP: defineSourced(
+    0.5,
+    "% w/w",
+    "Canakci & Van Gerpen 1999, Trans. ASAE 42(5):1203 (conversion < 90 % when water ≥ 0.5 %)",
+    "from memory",
+  ),
+};

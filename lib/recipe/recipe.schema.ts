@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { CATALYST_TYPES, CATALYSTS } from "@/lib/recipe/catalyst";
+import { FFA_BASES, ffaFromAcidValue } from "@/lib/titration/titration";
 
 export const MAX_LOT_MASS_KG = 1_000_000;
 export const MAX_LOTS_PER_BATCH = 200;
@@ -19,6 +20,11 @@ export const MAX_REACTION_TEMP_C = 150;
 export const MIN_TG_MOLAR_MASS = 400;
 export const MAX_TG_MOLAR_MASS = 1200;
 export const MAX_WASHES = 10;
+/** Acid value of 100 % FFA as lauric acid (the lightest basis) is ≈ 280 mg KOH/g; 300 is a typo guard. */
+export const MAX_ACID_VALUE = 300;
+/** SV of the lightest oils (coconut ≈ 250–264 mg KOH/g, Codex CXS 210-1999); 400 is a typo guard. */
+export const MIN_SAPONIFICATION_VALUE = 100;
+export const MAX_SAPONIFICATION_VALUE = 400;
 export const MAX_WATER_PER_WASH_PCT_OF_ESTER = 200;
 export const MAX_METHANOL_TO_FFA_RATIO = 100;
 export const MAX_ACID_PCT_OF_FFA = 50;
@@ -29,6 +35,10 @@ const pct = (field: string, min: number, max: number) =>
     .min(min, `${field} must be at least ${min} %`)
     .max(max, `${field} must be at most ${max} %`);
 
+/**
+ * A lot to charge, with FFA as the lab reports it: FFA % on a named basis (AOCS Ca 5a-40), or the acid
+ * value (AOCS Cd 3d-63 / ISO 660), which is converted to FFA % on the basis given (oleic when none).
+ */
 export const RecipeLotSchema = z
   .object({
     lotRef: z.string({ error: "Lot reference is required" }).trim().min(1, "Lot reference is required"),
@@ -36,10 +46,28 @@ export const RecipeLotSchema = z
       .number({ error: "Mass must be a number (kg)" })
       .positive("Mass must be above 0 kg")
       .max(MAX_LOT_MASS_KG, `Mass must be at most ${MAX_LOT_MASS_KG} kg`),
-    ffaPct: pct("FFA", MIN_FFA_PCT, MAX_FFA_PCT),
+    ffaPct: pct("FFA", MIN_FFA_PCT, MAX_FFA_PCT).optional(),
+    /** The fatty acid the FFA % is expressed as; oleic when not given. */
+    ffaBasis: z.enum(FFA_BASES, { error: "FFA basis must be OLEIC, PALMITIC or LAURIC" }).optional(),
+    acidValueMgKohG: z
+      .number({ error: "Acid value must be a number (mg KOH/g)" })
+      .min(0, "Acid value must be at least 0 mg KOH/g")
+      .max(MAX_ACID_VALUE, `Acid value must be at most ${MAX_ACID_VALUE} mg KOH/g`)
+      .optional(),
     waterPct: pct("Water", MIN_WATER_PCT, MAX_WATER_PCT),
     /** Ester already in the oil (pretreated oil); 0 for raw feedstock. */
     famePct: pct("Ester content", 0, MAX_FAME_PCT).optional(),
+  })
+  .superRefine((lot, ctx) => {
+    if ((lot.ffaPct === undefined) === (lot.acidValueMgKohG === undefined)) {
+      ctx.addIssue({ code: "custom", message: "Give either FFA (%) or the acid value (mg KOH/g) for the lot, not both", path: ["ffaPct"] });
+    }
+  })
+  .transform((lot) => {
+    const { acidValueMgKohG, ...rest } = lot;
+    if (acidValueMgKohG === undefined) return { ...rest, ffaPct: lot.ffaPct ?? 0 };
+    const ffa = ffaFromAcidValue(acidValueMgKohG, { basis: lot.ffaBasis ?? "OLEIC" });
+    return { ...rest, ffaPct: ffa.ok ? ffa.value : 0, acidValueMgKohG };
   })
   .refine((lot) => lot.ffaPct + lot.waterPct + (lot.famePct ?? 0) < 100, {
     message: "FFA + water + ester must be below 100 % of the lot (the rest is the oil that reacts)",
@@ -84,9 +112,22 @@ export const RecipeSettingsSchema = z
       .min(MIN_TG_MOLAR_MASS, `Mean oil molar mass must be at least ${MIN_TG_MOLAR_MASS} g/mol`)
       .max(MAX_TG_MOLAR_MASS, `Mean oil molar mass must be at most ${MAX_TG_MOLAR_MASS} g/mol`)
       .optional(),
+    /** Saponification value of the oil (AOCS Cd 3-25 / ISO 3657); gives the mean oil molar mass. */
+    saponificationValueMgKohG: z
+      .number({ error: "Saponification value must be a number (mg KOH/g)" })
+      .min(MIN_SAPONIFICATION_VALUE, `Saponification value must be at least ${MIN_SAPONIFICATION_VALUE} mg KOH/g`)
+      .max(MAX_SAPONIFICATION_VALUE, `Saponification value must be at most ${MAX_SAPONIFICATION_VALUE} mg KOH/g`)
+      .optional(),
     washPractice: WashPracticeSchema.optional(),
   })
   .superRefine((s, ctx) => {
+    if (s.meanTgMolarMass !== undefined && s.saponificationValueMgKohG !== undefined) {
+      ctx.addIssue({
+        code: "custom",
+        message: "Give either the mean oil molar mass or the saponification value, not both",
+        path: ["saponificationValueMgKohG"],
+      });
+    }
     const form = CATALYSTS[s.catalyst].form;
     if (form === "SOLID" && s.solutionStrengthPct !== undefined) {
       ctx.addIssue({

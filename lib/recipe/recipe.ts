@@ -5,13 +5,16 @@ import { MOLAR_MASS } from "@/lib/chemistry/molar-mass";
 import type { CompoundName } from "@/lib/chemistry/molar-mass";
 import { computeFameMolarMassFromTg } from "@/lib/chemistry/mean-molar-mass";
 import { METHANOL_DENSITY_20C } from "@/lib/chemistry/physical-constants";
-import { CATALYSTS, computeNeutralisationKg } from "@/lib/recipe/catalyst";
+import { CATALYSTS, computeFfaMol } from "@/lib/recipe/catalyst";
+import { computeMeanTgMolarMassFromSv } from "@/lib/chemistry/mean-molar-mass";
+import { FFA_FACTORS, KOH_MOLAR_MASS_G_MOL } from "@/lib/titration/titration";
+import type { FfaBasis } from "@/lib/titration/titration";
 import type { CatalystType } from "@/lib/recipe/catalyst";
 import { DEFAULT_RECIPE_SETTINGS, mergeRecipeLimits } from "@/lib/recipe/recipe-defaults";
 import type { RecipeLimits } from "@/lib/recipe/recipe-defaults";
 import type { RecipeInput } from "@/lib/recipe/recipe.schema";
 
-// Model: every lot is triglyceride + FFA (as oleic) + water + ester already present; 100 % conversion of
+// Model: every lot is triglyceride + FFA (as its lab basis: oleic, palmitic or lauric) + water + ester already present; 100 % conversion of
 // the triglyceride; FFA neutralised 1 mol catalyst per mol; unsaponifiables are counted as triglyceride.
 
 export interface RecipeProducts {
@@ -36,7 +39,15 @@ export interface RecipePlan {
   oil: {
     lots: Array<{ lotRef: string; massKg: number; massG: number }>;
     massKg: number;
+    /** Blend FFA expressed as ffaBasis: the lots' shared basis, or oleic when they differ. */
     ffaPct: number;
+    ffaBasis: FfaBasis;
+    /** The same FFA as oleic, which the warning thresholds use. */
+    ffaPctAsOleic: number;
+    /** Blend acid value from the FFA moles (mg KOH/g of oil). */
+    acidValueMgKohG: number;
+    /** Present when the mean oil molar mass came from a saponification value: M = 3 × 56.1 × 1000 / (SV − AV). */
+    molarMassFromSv: { saponificationValueMgKohG: number; acidValueMgKohG: number } | null;
     waterPct: number;
     famePct: number;
     ffaKg: number;
@@ -121,20 +132,34 @@ export function planRecipe(input: RecipeInput, limitOverrides: Partial<RecipeLim
   const lots = input.lots.map((lot) => ({ lotRef: lot.lotRef, massKg: lot.massKg, massG: toGrams(lot.massKg) }));
   let oilKg = 0;
   let ffaKg = 0;
+  let ffaMol = 0;
   let waterKg = 0;
   let fameInKg = 0;
   for (const lot of input.lots) {
+    const lotFfaKg = (lot.massKg * lot.ffaPct) / 100;
     oilKg += lot.massKg;
-    ffaKg += (lot.massKg * lot.ffaPct) / 100;
+    ffaKg += lotFfaKg;
+    // Moles by the basis the lab reported: 2 % as lauric is 41 % more acid than 2 % as oleic (AOCS Ca 5a-40).
+    ffaMol += computeFfaMol(lotFfaKg, lot.ffaBasis ?? "OLEIC");
     waterKg += (lot.massKg * lot.waterPct) / 100;
     fameInKg += (lot.massKg * (lot.famePct ?? 0)) / 100;
   }
   if (!(oilKg > 0)) return fail("RECIPE.NO_OIL", "The lots to charge add up to 0 kg.", "lots");
   const triglycerideKg = Math.max(0, oilKg - ffaKg - waterKg - fameInKg);
+  const firstBasis = input.lots[0]?.ffaBasis ?? "OLEIC";
+  const sharedBasis = input.lots.every((l) => (l.ffaBasis ?? "OLEIC") === firstBasis);
+  const ffaBasis: FfaBasis = sharedBasis ? firstBasis : "OLEIC";
+  // mg KOH per g of oil: mol × M(KOH) g/mol × 1000 mg/g ÷ (kg × 1000 g/kg).
+  const acidValueMgKohG = (ffaMol * KOH_MOLAR_MASS_G_MOL) / oilKg;
 
   const molarRatio = settings.molarRatio ?? DEFAULT_RECIPE_SETTINGS.molarRatio.value;
-  const meanTgMolarMass = settings.meanTgMolarMass ?? DEFAULT_RECIPE_SETTINGS.meanTgMolarMass.value;
-  if (settings.meanTgMolarMass === undefined) {
+  const sv = settings.saponificationValueMgKohG;
+  let meanTgMolarMass = settings.meanTgMolarMass ?? DEFAULT_RECIPE_SETTINGS.meanTgMolarMass.value;
+  if (sv !== undefined) {
+    const fromSv = computeMeanTgMolarMassFromSv(sv, { acidValueMgKohPerG: acidValueMgKohG });
+    if (!fromSv.ok) return fail(fromSv.issues[0]?.code ?? "CHEMISTRY.BAD_SAPONIFICATION_VALUE", fromSv.issues[0]?.message ?? "Bad saponification value", "settings.saponificationValueMgKohG");
+    meanTgMolarMass = fromSv.value;
+  } else if (settings.meanTgMolarMass === undefined) {
     warnings.push({
       code: "RECIPE.DEFAULT_MOLAR_MASS_USED",
       message: `No mean oil molar mass given; using ${fmt(meanTgMolarMass, 1)} g/mol (${DEFAULT_RECIPE_SETTINGS.meanTgMolarMass.source}). A measured saponification value gives a better methanol charge.`,
@@ -146,13 +171,12 @@ export function planRecipe(input: RecipeInput, limitOverrides: Partial<RecipeLim
 
   // Moles in mol, masses in kg: kg × 1000 / (g/mol) = mol.
   const triglycerideMol = (triglycerideKg * 1000) / meanTgMolarMass;
-  const ffaMol = (ffaKg * 1000) / MOLAR_MASS.oleicAcid;
   const chargeKg = (molarRatio * triglycerideMol * MOLAR_MASS.methanol) / 1000;
   const consumedKg = (3 * triglycerideMol * MOLAR_MASS.methanol) / 1000;
 
   const baseDosePctOfOil = settings.baseDosePctOfOil ?? profile.defaultBaseDosePctOfOil.value;
   const baseKg = (oilKg * baseDosePctOfOil) / 100;
-  const neutralisationKg = computeNeutralisationKg(ffaKg, settings.catalyst);
+  const neutralisationKg = (ffaMol * MOLAR_MASS[profile.compound]) / 1000;
   const pureKg = baseKg + neutralisationKg;
   const givenAssay = profile.form === "SOLID" ? settings.purityPct : settings.solutionStrengthPct;
   const assayPct = givenAssay ?? profile.defaultAssayPct.value;
@@ -180,7 +204,9 @@ export function planRecipe(input: RecipeInput, limitOverrides: Partial<RecipeLim
   const products: RecipeProducts = {
     fameKg: fameInKg + (3 * triglycerideMol * meanFameMolarMass) / 1000,
     glycerolKg: (triglycerideMol * MOLAR_MASS.glycerol) / 1000,
-    soapKg: (ffaMol * MOLAR_MASS[profile.soap]) / 1000,
+    // RCOOH + MOH → RCOOM + H2O (or + MOCH3 → RCOOM + CH3OH): soap = acid + catalyst − by-product, per mole,
+    // so the soap of a palmitic or lauric FFA weighs what its own acid brings.
+    soapKg: ffaKg + (ffaMol * (MOLAR_MASS[profile.compound] - MOLAR_MASS[byWater ? "water" : "methanol"])) / 1000,
     waterFormedKg: byWater ? (ffaMol * MOLAR_MASS.water) / 1000 : 0,
     waterFromOilKg: waterKg,
     excessMethanolKg: totalMethanolKg - consumedKg + (byWater ? 0 : (ffaMol * MOLAR_MASS.methanol) / 1000),
@@ -211,9 +237,11 @@ export function planRecipe(input: RecipeInput, limitOverrides: Partial<RecipeLim
   const outputsG = Object.fromEntries(PRODUCT_KEYS.map((k) => [k, 0])) as Record<RecipeProductKey, number>;
   for (const [k, g] of split) outputsG[k] = g;
 
-  const ffaPct = (ffaKg / oilKg) * 100;
+  // kg FFA as the basis acid over kg oil, in %: mol × M g/mol ÷ 1000 ÷ kg × 100.
+  const ffaPct = sharedBasis ? (ffaKg / oilKg) * 100 : (ffaMol * FFA_FACTORS.OLEIC.molarMassGMol) / 10 / oilKg;
+  const ffaPctAsOleic = (ffaMol * FFA_FACTORS.OLEIC.molarMassGMol) / 10 / oilKg;
   const waterPct = (waterKg / oilKg) * 100;
-  pushProcessWarnings(warnings, limits, { reactionTempC, ffaPct, waterPct });
+  pushProcessWarnings(warnings, limits, { reactionTempC, ffaPct: ffaPctAsOleic, waterPct });
 
   const densityGPerMl = METHANOL_DENSITY_20C.value;
   return ok({
@@ -221,6 +249,10 @@ export function planRecipe(input: RecipeInput, limitOverrides: Partial<RecipeLim
       lots,
       massKg: oilKg,
       ffaPct,
+      ffaBasis,
+      ffaPctAsOleic,
+      acidValueMgKohG,
+      molarMassFromSv: sv === undefined ? null : { saponificationValueMgKohG: sv, acidValueMgKohG },
       waterPct,
       famePct: (fameInKg / oilKg) * 100,
       ffaKg,

@@ -6,13 +6,15 @@ import { DEFAULT_SCREENING_SETTINGS, SCREENING_SETTING_LABELS } from "@/lib/scre
 import type { ScreeningSettings } from "@/lib/screening/screening-defaults";
 import type { SourcedValue } from "@/lib/chemistry/sourced-value";
 import { KOH_EQUIVALENT_MASS_IN_STANDARDS, METHANOL_DENSITY_20C } from "@/lib/chemistry/physical-constants";
-import { DEFAULT_RECIPE_LIMITS, DEFAULT_RECIPE_SETTINGS } from "@/lib/recipe/recipe-defaults";
+import { DEFAULT_RECIPE_LIMITS, DEFAULT_RECIPE_SETTINGS, WATER_LIMIT_BY_STEP } from "@/lib/recipe/recipe-defaults";
 import type { RecipeDefaults, RecipeLimits } from "@/lib/recipe/recipe-defaults";
 import { RULESET_US_FEDERAL_RCRA } from "@/lib/waste/waste-due";
 import type { RuleValue, WasteRuleSet } from "@/lib/waste/waste-due";
+import { levelOf, screenText } from "@/lib/spec/source-text";
+import type { SourceLevel } from "@/lib/spec/source-text";
 
-/** How far a default can be relied on, in the words a screen uses. */
-export type SourceLevel = "published" | "common practice" | "check";
+export type { SourceLevel } from "@/lib/spec/source-text";
+export { levelOf, screenText } from "@/lib/spec/source-text";
 
 export interface DefaultSource {
   anchor: string;
@@ -27,23 +29,6 @@ export interface DefaultGroup {
   title: string;
   edition?: string;
   entries: DefaultSource[];
-}
-
-/** Status words in the lib → the screen's three levels; anything not plainly verified is to be checked. */
-export function levelOf(status: string): SourceLevel {
-  const s = status.toLowerCase();
-  if (s.includes("common practice")) return "common practice";
-  if (s.startsWith("verified") || s === "computed") return "published";
-  return "check";
-}
-
-/** Source texts written for engineers carry notes about how they were checked; a screen shows "to be confirmed". */
-export function screenText(text: string): string {
-  return text
-    .replace(/,?\s*from memory(, unverified)?/gi, ", to be confirmed")
-    .replace(/^, /, "")
-    .replace(/\(\s*, /g, "(")
-    .replace(/placeholder;?\s*/gi, "");
 }
 
 function valueText(value: number, unit: string): string {
@@ -78,7 +63,7 @@ const RECIPE_LABELS: Readonly<Record<keyof RecipeDefaults | keyof RecipeLimits, 
   minReactionTempC: "Lowest reaction temperature",
   directBaseMaxFfaPct: "Highest FFA for direct base catalysis",
   baseCatalysisMaxFfaPct: "FFA above which acid pretreatment comes first",
-  maxWaterPct: "Highest water in the oil",
+  maxWaterPct: "Highest water in the oil for the base step",
   massBalanceRelTolerance: "Recipe mass-balance tolerance",
 };
 
@@ -115,6 +100,7 @@ export function recipeDefaults(): DefaultGroup {
     entries: [
       ...settings.map(([k, v]) => sourced("recipe", k, RECIPE_LABELS[k], v)),
       ...limits.map(([k, v]) => sourced("recipe", k, RECIPE_LABELS[k], v)),
+      sourced("recipe", "acidStepMaxWaterPct", "Highest water in the oil for the acid step", WATER_LIMIT_BY_STEP.ACID_STEP),
       sourced("chemistry", "methanolDensity20C", "Methanol density at 20 °C", METHANOL_DENSITY_20C),
       sourced("chemistry", "kohEquivalentMass", "KOH equivalent mass used in acid value formulas", KOH_EQUIVALENT_MASS_IN_STANDARDS),
     ],

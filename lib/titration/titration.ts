@@ -11,6 +11,11 @@ import type { SourceStatus } from "@/lib/quantity/density";
 
 export const FFA_BASES = ["OLEIC", "PALMITIC", "LAURIC"] as const;
 export type FfaBasis = (typeof FFA_BASES)[number];
+/** Stored basis text → the basis; rows written before bases were recorded are oleic (the Ca 5a-40 default). */
+export function toFfaBasis(stored: string): FfaBasis {
+  return (FFA_BASES as readonly string[]).includes(stored) ? (stored as FfaBasis) : "OLEIC";
+}
+
 export const TITRANTS = ["NAOH", "KOH"] as const;
 export type Titrant = (typeof TITRANTS)[number];
 
@@ -318,4 +323,49 @@ export function suggestSampleSize(
   }
   const factor = FFA_FACTORS.OLEIC.methodFactor;
   return ok({ row, ffaPctPerMl: row.concentrationsMolL.map((c) => (c * factor) / row.sampleMassG) });
+}
+
+export interface FfaReading {
+  ffaPct: number;
+  basis: FfaBasis;
+  /** The acid value computed from the same titre (EN 14104 / ISO 660 form), when stored; else from the FFA. */
+  acidValueMgKohG?: number;
+}
+
+export interface CombinedFfa {
+  /** Mean FFA expressed as `basis`. */
+  ffaPct: number;
+  basis: FfaBasis;
+  /** The same mean as acid value, mg KOH/g (molar-mass conversion). */
+  acidValueMgKohG: number;
+  n: number;
+}
+
+/** FFA % as one basis → FFA % as another, by molar mass: the moles of acid stay the same. */
+export function convertFfaBasis(ffaPct: number, from: FfaBasis, to: FfaBasis, factors = FFA_FACTORS): number {
+  return from === to ? ffaPct : (ffaPct * factors[to].molarMassGMol) / factors[from].molarMassGMol;
+}
+
+/**
+ * Mean of titrations that may name different bases: each is converted to acid value (mg KOH/g) before
+ * averaging, since a % FFA as lauric and a % FFA as oleic count different moles of acid. The mean is
+ * expressed as the readings' basis when they all share one, otherwise as `fallbackBasis` (oleic).
+ */
+export function combineFfaReadings(readings: readonly FfaReading[], fallbackBasis: FfaBasis = "OLEIC"): Result<CombinedFfa> {
+  if (readings.length === 0) return fail("TITRATION.NO_REPLICATES", "replicates must contain at least one value", "replicates");
+  const avs: number[] = [];
+  for (const [i, r] of readings.entries()) {
+    const av = r.acidValueMgKohG !== undefined && Number.isFinite(r.acidValueMgKohG) && r.acidValueMgKohG >= 0 ? ok(r.acidValueMgKohG) : acidValueFromFfa(r.ffaPct, { basis: r.basis });
+    if (!av.ok) return fail(av.issues[0]?.code ?? "TITRATION.FFA_OUT_OF_RANGE", `titration ${i + 1}: ${av.issues[0]?.message ?? "bad FFA"}`, `replicates.${i}`);
+    avs.push(av.value);
+  }
+  const first = readings[0]?.basis ?? fallbackBasis;
+  const shared = readings.every((r) => r.basis === first);
+  const basis = shared ? first : fallbackBasis;
+  const acidValueMgKohG = avs.reduce((s, v) => s + v, 0) / avs.length;
+  // One basis: the plain mean keeps the stored figures exact; mixed: back from the mean acid value.
+  const ffaPct = shared
+    ? readings.reduce((s, r) => s + r.ffaPct, 0) / readings.length
+    : (acidValueMgKohG * FFA_FACTORS[basis].molarMassGMol) / (10 * KOH_MOLAR_MASS_G_MOL);
+  return ok({ ffaPct, basis, acidValueMgKohG, n: readings.length });
 }

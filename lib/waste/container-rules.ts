@@ -57,7 +57,7 @@ export const STREAM_CAUTIONS: Readonly<Record<WasteStream, readonly string[]>> =
     "Transfer only with the containers bonded and grounded; keep it closed, wear chemical-resistant gloves and eye protection.",
   ],
   FILTER_MEDIA: [
-    "Spent filter media that is oily or wet with methanol can heat itself and catch fire.",
+    "Spent filter media that is oily or wet with methanol is flammable and can heat itself and catch fire.",
     "Keep it in closed metal bins, away from buildings and other combustibles, until it is hauled away.",
   ],
   WASH_WATER: [

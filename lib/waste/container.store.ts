@@ -4,9 +4,10 @@ import { WASTE_STREAMS } from "@/lib/ledger/kinds";
 import type { WasteStream } from "@/lib/ledger/kinds";
 import { DEFAULT_DENSITY_TABLE, DEFAULT_REFERENCE_TEMP_C, densityAt, requireDensityEntry } from "@/lib/quantity/density";
 import type { MaterialKind } from "@/lib/quantity/density";
-import { listWasteDue } from "@/lib/waste/waste-due";
-import type { GeneratorCategory, WasteContainerInput } from "@/lib/waste/waste-due";
+import { findSatelliteExcessSince, getSatelliteLimitMl, listWasteDue } from "@/lib/waste/waste-due";
+import type { GeneratorCategory, WasteContainerInput, WasteRuleSet } from "@/lib/waste/waste-due";
 import { MAX_DUE_HORIZON_DAYS } from "@/lib/waste/waste.schema";
+import { getActiveWasteRules } from "@/lib/waste/site-rules.store";
 
 export interface WasteContainerRow {
   code: string;
@@ -138,21 +139,14 @@ export async function listDisposals(db: Db, siteId: number): Promise<DisposalRow
   }));
 }
 
+export const ASSUMPTION_NOTE =
+  "No waste rule set chosen for this site yet: due dates assume US federal rules for a large quantity generator, the shortest federal accumulation time.";
+
 export interface WasteDueAssumption {
   generatorCategory: GeneratorCategory;
   tsdfDistanceMiles: number | null;
   note: string;
 }
-
-/**
- * The site's generator category is not recorded yet, so due dates assume the strictest federal
- * category (the shortest accumulation time); a caller that knows the category passes its own.
- */
-export const DEFAULT_WASTE_DUE_ASSUMPTION: WasteDueAssumption = {
-  generatorCategory: "LQG",
-  tsdfDistanceMiles: null,
-  note: "Generator category not recorded for this site: due dates assume a large quantity generator, the shortest federal accumulation time.",
-};
 
 const STREAM_MATERIAL: Readonly<Record<string, MaterialKind>> = {
   GLYCEROL_PHASE: "GLYCEROL",
@@ -161,6 +155,65 @@ const STREAM_MATERIAL: Readonly<Record<string, MaterialKind>> = {
   FILTER_MEDIA: "WATER",
   OTHER: "WATER",
 };
+
+export const SATELLITE_AREA = "SITE_SATELLITE_AREA";
+
+/** The ledger keeps grams; the satellite limit and the hauler need litres, at the stream's nominal density. */
+export function estimateVolumeMl(stream: string, grams: number): number {
+  const rho = densityAt(requireDensityEntry(DEFAULT_DENSITY_TABLE, STREAM_MATERIAL[stream] ?? "WATER"), DEFAULT_REFERENCE_TEMP_C);
+  return Math.round((grams * 1000) / rho);
+}
+
+/**
+ * When the site's satellite area went over its limit, from the movements into and out of its containers
+ * still on site (each at its stream's nominal density); null when it is within the limit now.
+ */
+async function findSatelliteExcessAt(db: Db, rows: readonly WasteContainerRow[], ids: ReadonlyMap<string, number>, rules: WasteRuleSet): Promise<number | null> {
+  const holders = new Map<number, string>();
+  for (const r of rows) {
+    const id = ids.get(r.code);
+    if (r.satellite && id !== undefined) holders.set(id, r.stream);
+  }
+  if (holders.size === 0) return null;
+  const list = [...holders.keys()];
+  const moves = await db.movement.findMany({
+    where: { OR: [{ toHolderId: { in: list } }, { fromHolderId: { in: list } }] },
+    select: { at: true, massG: true, toHolderId: true, fromHolderId: true },
+  });
+  const events = moves.flatMap((m) => {
+    const into = holders.get(m.toHolderId);
+    const from = m.fromHolderId === null ? undefined : holders.get(m.fromHolderId);
+    const out: Array<{ at: number; deltaMl: number }> = [];
+    if (into !== undefined) out.push({ at: m.at.getTime(), deltaMl: estimateVolumeMl(into, m.massG) });
+    if (from !== undefined) out.push({ at: m.at.getTime(), deltaMl: -estimateVolumeMl(from, m.massG) });
+    return out;
+  });
+  return findSatelliteExcessSince(events, getSatelliteLimitMl(rules));
+}
+
+/** The containers on site as the due-date rules read them, with the satellite area's excess date when over. */
+export async function loadWasteDueInputs(db: Db, siteId: number, rules: WasteRuleSet): Promise<{ rows: WasteContainerRow[]; inputs: WasteContainerInput[] }> {
+  const records = await db.wasteContainer.findMany({
+    where: { siteId, status: { in: ["OPEN", "FULL"] } },
+    orderBy: [{ accumulationStart: "asc" }, { id: "asc" }],
+    include: { holder: { select: { stockG: true } } },
+  });
+  const streams: ReadonlySet<string> = new Set(WASTE_STREAMS);
+  const rows = records.filter((r) => streams.has(r.stream)).map(toContainerRow);
+  const excessAt = await findSatelliteExcessAt(db, rows, new Map(records.map((r) => [r.code, r.holderId])), rules);
+  const inputs = rows.map((c, i): WasteContainerInput => ({
+    id: i + 1,
+    code: c.code,
+    stream: c.stream as WasteStream,
+    massG: c.stockG,
+    volumeMl: estimateVolumeMl(c.stream, c.stockG),
+    accumulationStartAt: c.accumulationStart.getTime(),
+    satelliteAreaId: c.satellite ? SATELLITE_AREA : null,
+    satelliteExcessSinceAt: c.satellite ? excessAt : null,
+    characterisation: { methanolPct: c.methanolPct, pH: c.pH, flashPointC: c.flashPointC, waterPct: c.waterPct },
+  }));
+  return { rows, inputs };
+}
 
 export interface WasteDueRow {
   code: string;
@@ -183,38 +236,21 @@ export interface WasteDueBoard {
   assumption: WasteDueAssumption;
 }
 
-/** Due dates of the containers still on site, from lib/waste/waste-due under the given assumption. */
-export async function getWasteDueBoard(
-  db: Db,
-  siteId: number,
-  now: Date,
-  utcOffsetMin: number,
-  assumption: WasteDueAssumption = DEFAULT_WASTE_DUE_ASSUMPTION,
-): Promise<WasteDueBoard | null> {
-  const onSite = await listWasteContainers(db, siteId, { statuses: ["OPEN", "FULL"] });
-  const streams: ReadonlySet<string> = new Set(WASTE_STREAMS);
-  const containers: WasteContainerInput[] = onSite.flatMap((c, i) => {
-    if (!streams.has(c.stream)) return [];
-    // The ledger keeps grams; the satellite volume limit needs litres, estimated with the stream's nominal density.
-    const rho = densityAt(requireDensityEntry(DEFAULT_DENSITY_TABLE, STREAM_MATERIAL[c.stream] ?? "WATER"), DEFAULT_REFERENCE_TEMP_C);
-    return [
-      {
-        id: i + 1,
-        code: c.code,
-        stream: c.stream as WasteStream,
-        massG: c.stockG,
-        volumeMl: Math.round((c.stockG * 1000) / rho),
-        accumulationStartAt: c.accumulationStart.getTime(),
-        satelliteAreaId: c.satellite ? "SITE_SATELLITE_AREA" : null,
-        characterisation: { methanolPct: c.methanolPct, pH: c.pH, flashPointC: c.flashPointC, waterPct: c.waterPct },
-      },
-    ];
-  });
+/** Due dates of the containers still on site, under the site's chosen waste rules (or the federal LQG assumption). */
+export async function getWasteDueBoard(db: Db, siteId: number, now: Date, utcOffsetMin: number): Promise<WasteDueBoard | null> {
+  const active = await getActiveWasteRules(db, siteId);
+  const assumption: WasteDueAssumption = {
+    generatorCategory: active.generatorCategory,
+    tsdfDistanceMiles: active.tsdfDistanceMiles,
+    note: active.chosen === null ? ASSUMPTION_NOTE : `Chosen for this site: ${active.rules.name}, ${active.generatorCategory}.`,
+  };
+  const { inputs: containers } = await loadWasteDueInputs(db, siteId, active.rules);
   const report = listWasteDue({
     containers,
-    site: { generatorCategory: assumption.generatorCategory, tsdfDistanceMiles: assumption.tsdfDistanceMiles, utcOffsetMin },
+    site: { generatorCategory: active.generatorCategory, tsdfDistanceMiles: active.tsdfDistanceMiles, utcOffsetMin },
     now: now.getTime(),
     withinDays: MAX_DUE_HORIZON_DAYS,
+    rules: active.rules,
   });
   if (!report.ok) return null;
   const byCode = new Map<string, WasteDueRow>();

@@ -86,7 +86,7 @@ export const RULESET_US_FEDERAL_RCRA: WasteRuleSet = {
   satelliteExcessDays: {
     value: 3,
     unit: "consecutive calendar days",
-    source: "40 CFR 262.15(a); wording as in EPA guidance RCRA Online 14703",
+    source: "40 CFR 262.15(a)(6): remove the excess within three consecutive calendar days of exceeding the limit; wording as in EPA guidance RCRA Online 14703",
     status: "the three-consecutive-calendar-days wording seen in EPA guidance only",
   },
   ignitableFlashPointBelowC: { value: 60, unit: "°C", source: "40 CFR 261.21(a)(1) (140 °F; ASTM D93 or D3278 closed cup)", status: "verified" },
@@ -117,8 +117,8 @@ export const RULESET_US_FEDERAL_RCRA: WasteRuleSet = {
   nonHazardousMaxStorageDays: {
     value: 90,
     unit: "days",
-    source: "site rule for non-hazardous streams",
-    status: "common practice, no source — set it to your permit, contract or local rule",
+    source: "no federal time limit applies to non-hazardous waste (40 CFR Part 262 covers hazardous waste); 90 days is the site's own choice",
+    status: "site's own choice — set it to your permit, contract or local rule",
   },
   localRulesNote: LOCAL_RULES_NOTE,
 };
@@ -293,6 +293,23 @@ function dueAfter(startAt: number, days: RuleValue): { dueAt: number; limitDays:
 /** Total volume limit of one satellite area in millilitres (55 US gal = 208 197.648 12 mL, NIST HB 44 App. C). */
 export function getSatelliteLimitMl(rules: WasteRuleSet = RULESET_US_FEDERAL_RCRA): number {
   return convertVolume(rules.satelliteMaxUsGal.value, "gal", "mL");
+}
+
+/**
+ * When a satellite area went over its volume limit and stayed over: the instant of the last upward
+ * crossing, or null when it is within the limit now. `events` are volume changes of the area's containers
+ * (fills positive, hauls and reversals negative). 40 CFR 262.15(a)(6) counts the three days from then.
+ */
+export function findSatelliteExcessSince(events: ReadonlyArray<{ at: number; deltaMl: number }>, limitMl: number): number | null {
+  let volume = 0;
+  let since: number | null = null;
+  for (const e of [...events].sort((a, b) => a.at - b.at)) {
+    const before = volume;
+    volume += e.deltaMl;
+    if (before <= limitMl && volume > limitMl) since = e.at;
+    if (volume <= limitMl) since = null;
+  }
+  return since;
 }
 
 /**

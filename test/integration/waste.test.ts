@@ -13,6 +13,7 @@ import { statusFor } from "@/lib/http";
 import { buildOpenApi } from "@/lib/api/openapi";
 import { ENDPOINTS } from "@/lib/api/endpoints";
 import { getWasteDueReport } from "@/app/waste/due/due-report";
+import { chooseWasteRules } from "@/lib/waste/site-rules.service";
 import type { Result } from "@/lib/errors";
 
 function value<T>(r: Result<T>): T {
@@ -55,6 +56,17 @@ describe.each(PROVIDERS)("waste containers on %s", (provider) => {
   });
   afterAll(async () => {
     await t.drop();
+  });
+
+  it("the site's chosen rule set moves a due date, and the federal set moves it back (40 CFR 262.17(a): 90 days)", async () => {
+    value(await openWasteContainer(t.db, plant.compliance, { code: "OWN-1", stream: "METHANOL_RICH", accumulationStart: "2026-02-20T06:00:00Z", capacityL: 200 }));
+    expect((await dueRow("OWN-1"))?.due?.limitDays).toBe(90);
+    value(await chooseWasteRules(t.db, plant.compliance, { choice: "SITE_OWN", generatorCategory: "LQG", name: "Own set", hazardousMaxDays: 30, reason: "permit condition" }));
+    const own = await dueRow("OWN-1");
+    expect(own?.due).toMatchObject({ limitDays: 30, dueDate: "2026-03-22" });
+    expect(refusal(await chooseWasteRules(t.db, plant.compliance, { choice: "SITE_OWN", generatorCategory: "LQG", name: "", hazardousMaxDays: 30, reason: "r" })).field).toBe("name");
+    value(await chooseWasteRules(t.db, plant.compliance, { choice: "US_FEDERAL", generatorCategory: "LQG", reason: "back to federal" }));
+    expect((await dueRow("OWN-1"))?.due?.limitDays).toBe(90);
   });
 
   it("opens a container with its location and shows the batch output it received", async () => {

@@ -3,8 +3,8 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/ledger/kinds";
 import { getLotDetail } from "@/lib/feedstock/lot-detail.store";
-import { summariseReplicates } from "@/lib/titration/titration";
-import { kg, num, pct, when } from "@/app/_ui/format";
+import { combineFfaReadings, summariseReplicates, toFfaBasis } from "@/lib/titration/titration";
+import { ffa, kg, num, pct, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { VoidResultForm } from "@/app/corrections/correction-forms";
@@ -33,6 +33,7 @@ export default async function LabLotPage({ params }: Props) {
   const valid = lot.titrations.filter((t) => !t.voided);
   const bases = [...new Set(valid.map((t) => t.basis))];
   const summaries = bases.map((basis) => ({ basis, summary: summariseReplicates(valid.filter((t) => t.basis === basis).map((t) => t.ffaPct)) }));
+  const mean = combineFfaReadings(valid.map((t) => ({ ffaPct: t.ffaPct, basis: toFfaBasis(t.basis), acidValueMgKohG: t.acidValue })));
   const canWrite = user.role === "PRODUCTION";
   const open = lot.status === "QUARANTINED" || lot.status === "ACCEPTED";
   const latestWater = [...lot.labTests].reverse().find((t) => !t.voided && t.kind === "WATER");
@@ -48,7 +49,7 @@ export default async function LabLotPage({ params }: Props) {
           ["Status", <Status key="s" code={lot.status} />],
           ["Received", when(lot.receivedAt, tz)],
           ["Mass received", kg(lot.massG, 1)],
-          ["FFA (mean of valid titrations)", valid.length ? pct(valid.reduce((s, t) => s + t.ffaPct, 0) / valid.length) : "not titrated yet"],
+          ["FFA (mean of valid titrations)", mean.ok ? `${ffa(mean.value.ffaPct, mean.value.basis)} (acid value ${num(mean.value.acidValueMgKohG, 2)} mg KOH/g)` : "not titrated yet"],
           ["Water (latest)", latestWater ? pct(latestWater.valuePct) : "not tested yet"],
         ]}
       />
@@ -110,6 +111,12 @@ export default async function LabLotPage({ params }: Props) {
               </p>
             ) : null,
           )}
+          {bases.length > 1 ? (
+            <Note>
+              The titrations name different fatty acids, so each is converted to its acid value before the mean is taken; the mean is shown as oleic, and the recipe
+              neutralises the same moles of acid.
+            </Note>
+          ) : null}
         </>
       )}
 

@@ -15,6 +15,7 @@ import { MoveSection } from "@/app/tanks/move-section";
 import { GaugeSection } from "@/app/tanks/[code]/gauges";
 import { TankStockPicture } from "@/app/tanks/[code]/stock-picture";
 import { Empty, Facts, MovementTable, NoSite, Note } from "@/app/_ui/ui";
+import { Cautions } from "@/app/_ui/kit";
 
 export const dynamic = "force-dynamic";
 
@@ -62,6 +63,16 @@ export default async function TankPage({ params }: Props) {
       <DensityNote tanks={[tank]} />
       <TankStockPicture db={db} siteId={site.id} code={tank.code} capacityG={tank.capacityG} timeZone={tz} now={user.now} />
       <TraceThis kind="TANK" code={tank.code} role={user.role} back />
+      {tank.service === "METHANOL" ? (
+        <Cautions
+          title="Methanol tank"
+          items={[
+            "Methanol is toxic by swallowing, breathing and through the skin, and highly flammable; its flame can be almost invisible in daylight.",
+            "No ignition sources, hot work or smoking near the tank or its vent; bond and ground every transfer; keep the tank closed and the area ventilated.",
+            "Wear chemical-resistant gloves and eye protection when connecting or sampling; keep water spray or alcohol-resistant foam at hand as the site's fire plan says.",
+          ]}
+        />
+      ) : null}
 
       <MoveSection
         db={db}

@@ -15,7 +15,7 @@ import { HistoryLink, HolderLink, NoSite, Note } from "@/app/_ui/ui";
 import { getWasteDueReport } from "@/app/waste/due/due-report";
 import type { ContainerDueRow } from "@/app/waste/due/due-report";
 import { CharacterisationForm, HaulForm, MarkFullForm } from "@/app/waste/container-forms";
-import { confidenceOf, plainSource } from "@/app/waste/rule-text";
+import { levelOf, screenText } from "@/lib/spec/source-text";
 
 export const dynamic = "force-dynamic";
 
@@ -51,7 +51,7 @@ function FlagRow({ f, what }: { f: HazardFlag; what: string }) {
         {f.reason}
         {missing.length > 0 ? <span className="muted"> — still needed: {missing.join(", ")}</span> : null}
       </td>
-      <td>{plainSource(f.source)}</td>
+      <td>{screenText(f.source)}</td>
     </tr>
   );
 }
@@ -250,9 +250,9 @@ function DueText({ due, onSite, hauledAt, timeZone }: { due: ContainerDueRow | u
     <span>
       {due.due.dueDate} {due.overdue ? <span className="status status-overdue">overdue</span> : <span className="muted">({due.daysLeft} days left)</span>}{" "}
       <span className="muted">
-        {due.due.limitDays} days, {plainSource(due.due.source)}
+        {due.due.limitDays} days, {screenText(due.due.source)}
       </span>{" "}
-      <ConfidenceMark level={confidenceOf(due.due.status)} anchor="waste-accumulation-time" />
+      <ConfidenceMark level={levelOf(due.due.status)} anchor="waste-accumulation-time" />
     </span>
   );
 }

@@ -6,28 +6,17 @@ import type { Db } from "@/lib/database/connect";
 import { ok } from "@/lib/errors";
 import type { DomainIssue, Result } from "@/lib/errors";
 import type { WasteStream } from "@/lib/ledger/kinds";
-import { WASTE_STREAMS } from "@/lib/ledger/kinds";
 import { parseInput } from "@/lib/ledger/parse";
-import { DEFAULT_DENSITY_TABLE, DEFAULT_REFERENCE_TEMP_C, densityAt, requireDensityEntry } from "@/lib/quantity/density";
-import type { MaterialKind } from "@/lib/quantity/density";
 import { getUtcOffsetMin } from "@/lib/period/site-time";
-import { DEFAULT_WASTE_DUE_ASSUMPTION, listWasteContainers } from "@/lib/waste/container.store";
-import { assessWasteHazards, listWasteDue, RULESET_US_FEDERAL_RCRA } from "@/lib/waste/waste-due";
-import type { GeneratorCategory, HazardAssessment, StreamGroup, WasteContainerInput, WasteDue, WasteRuleSet } from "@/lib/waste/waste-due";
+import { ASSUMPTION_NOTE, loadWasteDueInputs } from "@/lib/waste/container.store";
+import { getActiveWasteRules } from "@/lib/waste/site-rules.store";
+import type { ActiveWasteRules } from "@/lib/waste/site-rules";
+import { assessWasteHazards, listWasteDue } from "@/lib/waste/waste-due";
+import type { GeneratorCategory, HazardAssessment, StreamGroup, WasteDue, WasteRuleSet } from "@/lib/waste/waste-due";
 import { MAX_DUE_HORIZON_DAYS, WasteDueQuerySchema, WasteSiteSettingsSchema } from "@/lib/waste/waste.schema";
 import { WasteDuePageQuerySchema } from "@/lib/api/endpoints/trace";
 
 export { DEFAULT_DUE_DAYS } from "@/lib/api/endpoints/trace";
-
-// The ledger keeps grams; the satellite limit and the hauler need litres, estimated at the stream's
-// nominal density (the same estimate the waste page's due dates use).
-const STREAM_MATERIAL: Readonly<Record<string, MaterialKind>> = {
-  GLYCEROL_PHASE: "GLYCEROL",
-  WASH_WATER: "WATER",
-  METHANOL_RICH: "METHANOL",
-  FILTER_MEDIA: "WATER",
-  OTHER: "WATER",
-};
 
 export interface ContainerDueRow {
   code: string;
@@ -46,8 +35,10 @@ export interface ContainerDueRow {
 
 export interface WasteDueReport {
   query: { days: number; category: GeneratorCategory; tsdfMiles: number | null };
-  /** True when the category is the default assumption rather than a choice in the form. */
+  /** True when the category is neither the site's choice nor typed in the form. */
   categoryAssumed: boolean;
+  /** The site's chosen rule set, with who chose it and why (null: not chosen yet). */
+  chosen: ActiveWasteRules["chosen"];
   assumptionNote: string;
   ruleSet: WasteRuleSet;
   localRulesNote: string;
@@ -68,44 +59,25 @@ export async function getWasteDueReport(db: Db, site: { id: number; timeZone: st
   if (!raw.ok) return raw;
   const horizon = parseInput(WasteDueQuerySchema, { withinDays: raw.value.days });
   if (!horizon.ok) return { ok: false, issues: horizon.issues.map((i) => ({ ...i, field: "days" })) };
-  const settings = parseInput(WasteSiteSettingsSchema, { generatorCategory: raw.value.category ?? DEFAULT_WASTE_DUE_ASSUMPTION.generatorCategory, tsdfDistanceMiles: raw.value.tsdfMiles ?? null });
+  const active = await getActiveWasteRules(db, site.id);
+  const settings = parseInput(WasteSiteSettingsSchema, { generatorCategory: raw.value.category ?? active.generatorCategory, tsdfDistanceMiles: raw.value.tsdfMiles ?? active.tsdfDistanceMiles });
   if (!settings.ok) return { ok: false, issues: settings.issues.map((i) => ({ ...i, field: i.field === "tsdfDistanceMiles" ? "tsdfMiles" : "category" })) };
-  const rules = RULESET_US_FEDERAL_RCRA;
-  const onSite = await listWasteContainers(db, site.id, { statuses: ["OPEN", "FULL"] });
-  const streams: ReadonlySet<string> = new Set(WASTE_STREAMS);
-  const inputs: WasteContainerInput[] = [];
-  const rows: ContainerDueRow[] = [];
-  onSite.forEach((c, i) => {
-    if (!streams.has(c.stream)) return;
-    const stream = c.stream as WasteStream;
-    const rho = densityAt(requireDensityEntry(DEFAULT_DENSITY_TABLE, STREAM_MATERIAL[c.stream] ?? "WATER"), DEFAULT_REFERENCE_TEMP_C);
-    const characterisation = { methanolPct: c.methanolPct, pH: c.pH, flashPointC: c.flashPointC, waterPct: c.waterPct };
-    const input: WasteContainerInput = {
-      id: i + 1,
-      code: c.code,
-      stream,
-      massG: c.stockG,
-      volumeMl: Math.round((c.stockG * 1000) / rho),
-      accumulationStartAt: c.accumulationStart.getTime(),
-      satelliteAreaId: c.satellite ? "SITE_SATELLITE_AREA" : null,
-      characterisation,
-    };
-    inputs.push(input);
-    rows.push({
-      code: c.code,
-      stream,
-      status: c.status,
-      massG: input.massG,
-      volumeMl: input.volumeMl,
-      accumulationStart: c.accumulationStart,
-      satellite: c.satellite,
-      characterisation,
-      hazard: assessWasteHazards(stream, characterisation, rules),
-      due: null,
-      daysLeft: null,
-      overdue: false,
-    });
-  });
+  const rules = active.rules;
+  const { rows: onSite, inputs } = await loadWasteDueInputs(db, site.id, rules);
+  const rows: ContainerDueRow[] = onSite.map((c, i) => ({
+    code: c.code,
+    stream: c.stream as WasteStream,
+    status: c.status,
+    massG: inputs[i]?.massG ?? c.stockG,
+    volumeMl: inputs[i]?.volumeMl ?? 0,
+    accumulationStart: c.accumulationStart,
+    satellite: c.satellite,
+    characterisation: { methanolPct: c.methanolPct, pH: c.pH, flashPointC: c.flashPointC, waterPct: c.waterPct },
+    hazard: assessWasteHazards(c.stream as WasteStream, { methanolPct: c.methanolPct, pH: c.pH, flashPointC: c.flashPointC, waterPct: c.waterPct }, rules),
+    due: null,
+    daysLeft: null,
+    overdue: false,
+  }));
   const siteRules = { generatorCategory: settings.value.generatorCategory, tsdfDistanceMiles: settings.value.tsdfDistanceMiles, utcOffsetMin: getUtcOffsetMin(site.timeZone, now) };
   const report = listWasteDue({ containers: inputs, site: siteRules, now: now.getTime(), withinDays: MAX_DUE_HORIZON_DAYS, rules });
   if (!report.ok) return report;
@@ -125,8 +97,9 @@ export async function getWasteDueReport(db: Db, site: { id: number; timeZone: st
   const totals = dueGroups.reduce((t, g) => ({ count: t.count + g.totals.count, kg: t.kg + g.totals.kg, litres: t.litres + g.totals.litres, usGallons: t.usGallons + g.totals.usGallons }), { count: 0, kg: 0, litres: 0, usGallons: 0 });
   return ok({
     query: { days, category: settings.value.generatorCategory, tsdfMiles: settings.value.tsdfDistanceMiles },
-    categoryAssumed: raw.value.category === undefined,
-    assumptionNote: DEFAULT_WASTE_DUE_ASSUMPTION.note,
+    categoryAssumed: raw.value.category === undefined && active.chosen === null,
+    chosen: active.chosen,
+    assumptionNote: ASSUMPTION_NOTE,
     ruleSet: rules,
     localRulesNote: report.value.note,
     now,

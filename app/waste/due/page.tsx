@@ -9,7 +9,7 @@ import { day, kg, litres, num, pct } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { Empty, Facts, NoSite, Note } from "@/app/_ui/ui";
 import { Cautions, ConfidenceMark } from "@/app/_ui/kit";
-import { confidenceOf, plainSource, plainStatus } from "@/app/waste/rule-text";
+import { levelOf, screenText, statusNote } from "@/lib/spec/source-text";
 import { DEFAULT_DUE_DAYS, getWasteDueReport } from "@/app/waste/due/due-report";
 import type { ContainerDueRow, WasteDueReport } from "@/app/waste/due/due-report";
 import { ReportLinks } from "@/app/_ui/report-view";
@@ -117,7 +117,7 @@ function Flag({ f }: { f: HazardFlag }) {
   const cls = f.status === "YES" ? "status-fail" : f.status === "UNKNOWN" ? "status-warn" : "status-pass";
   const word = f.status === "YES" ? `${f.code} yes` : f.status === "UNKNOWN" ? `${f.code} unknown` : `${f.code} no`;
   return (
-    <span className={`status ${cls}`} title={`${f.reason} (${plainSource(f.source)})`}>
+    <span className={`status ${cls}`} title={`${f.reason} (${screenText(f.source)})`}>
       {word}
     </span>
   );
@@ -139,7 +139,7 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
     <>
       <Facts
         items={[
-          ["Rule set", rs.name],
+          ["Rule set", <Link key="rs" href="/waste/rules">{rs.name}</Link>],
           ["Generator category used", `${CATEGORY_WORDS[r.query.category] ?? r.query.category}${r.categoryAssumed ? " (assumed)" : ""}`],
           ["Due within", `${r.query.days} days (to ${day(r.horizonAt, timeZone)})`],
           ["Containers on site", String(r.containers.length)],
@@ -147,7 +147,8 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
         ]}
       />
       <p className="warning">
-        {r.localRulesNote} {r.categoryAssumed ? r.assumptionNote : `Category ${r.query.category} as chosen in the form.`}
+        {r.localRulesNote}{" "}
+        {r.categoryAssumed ? r.assumptionNote : r.chosen ? `The site's rule set, chosen by ${r.chosen.by}: ${r.chosen.reason}` : `Category ${r.query.category} as chosen in the form.`}
       </p>
       {r.issues.length > 0 ? (
         <ul className="warning" aria-label="Waste warnings">
@@ -200,7 +201,7 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                     <td className="num">{d.daysLeft}</td>
                     <td>
                       {d.limitDays === null ? "" : `${d.limitDays} days, `}
-                      {plainSource(d.source)}
+                      {screenText(d.source)}
                     </td>
                     <td className="num">{kg(d.massG, 1)}</td>
                     <td className="num">{litres(d.volumeMl, 1)}</td>
@@ -278,7 +279,7 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                         no time limit
                       </span>
                     ) : (
-                      <span title={plainSource(c.due.source)}>
+                      <span title={screenText(c.due.source)}>
                         {c.due.dueDate} {c.overdue ? <span className="status status-overdue">overdue</span> : <span className="muted">({c.daysLeft} d)</span>}
                       </span>
                     )}
@@ -331,9 +332,9 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                 <td className="num nowrap">
                   {v.value} {v.unit}
                 </td>
-                <td>{plainSource(v.source)}</td>
+                <td>{screenText(v.source)}</td>
                 <td>
-                  <ConfidenceMark level={confidenceOf(v.status)} anchor={`waste-${label}`} /> {plainStatus(v.status)}
+                  <ConfidenceMark level={levelOf(v.status)} anchor={`waste-${label}`} /> {statusNote(v.status)}
                 </td>
               </tr>
             ))}

@@ -24,6 +24,7 @@ import {
   observedVolumeFromMass,
   requireDensityEntry,
   standardVolume,
+  rangeNotes,
 } from "@/lib/quantity/density";
 import { DensityObservationSchema, MAX_OBSERVED_TEMP_C, MIN_OBSERVED_TEMP_C } from "@/lib/quantity/density.schema";
 import { MATERIAL_KINDS } from "@/lib/quantity/density";
@@ -60,7 +61,7 @@ export const SampleSizeQuerySchema = z.object({
 });
 
 export const REFERENCE_TEMPERATURES = ["15C", "60F"] as const;
-const referenceField = z.enum(REFERENCE_TEMPERATURES, { error: "reference must be 15C (EN 14214, ASTM D1250) or 60F (US RFS)" }).default("15C");
+const referenceField = z.enum(REFERENCE_TEMPERATURES, { error: "reference must be 15C (EN 14214, ASTM D1250) or 60F (60 °F by the same linear density rule, common practice)" }).default("15C");
 
 export const VolumeMassRequestSchema = z.discriminatedUnion("direction", [
   z.object({
@@ -124,6 +125,8 @@ export const VolumeMassAnswerSchema = z.object({
   vcf: z.number(),
   densitySource: z.string(),
   warnings: z.array(issueSchema),
+  /** Plain notes, e.g. an ordinary ambient reading read on the straight line below the slope's range. */
+  notes: z.array(z.string()),
 });
 
 const RecipePlanOutputSchema = z.looseObject({
@@ -263,6 +266,7 @@ export function answerVolumeMass(input: z.output<typeof VolumeMassRequestSchema>
     vcf: std.value.vcf,
     densitySource: entry.source,
     warnings,
+    notes: rangeNotes(entry, observedTempC),
   });
 }
 

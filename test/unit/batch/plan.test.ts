@@ -2,6 +2,7 @@ import { describe, it, expect } from "vitest";
 import fc from "fast-check";
 import {
   BatchPlanRequestSchema,
+  blendWaterLimit,
   CARD_FORMAT,
   DEFAULT_BLEND_LIMITS,
   buildCandidates,
@@ -17,6 +18,9 @@ import {
   toRequestField,
 } from "@/lib/batch/plan";
 import type { BatchFacts, BatchPlanRequest, BatchPlanRequestInput, LotStock, PlanProposal, PlanStock, ReagentStock, TankShare } from "@/lib/batch/plan";
+
+import { DEFAULT_RECIPE_LIMITS, WATER_LIMIT_BY_STEP } from "@/lib/recipe/recipe-defaults";
+import { DEFAULT_PRETREATMENT_LIMITS } from "@/lib/recipe/pretreatment";
 
 // Check values are worked by hand in the comments or taken from published sources named beside them, never from
 // the code under test.
@@ -132,9 +136,17 @@ describe("buildCandidates", () => {
 });
 
 describe("BatchPlanRequestSchema", () => {
-  it("defaults: blend FFA 3 % (Kombe et al. 2013), water 0.5 % (Canakci & Van Gerpen 1999, from memory), 6:1, 60 °C", () => {
+  it("defaults: blend FFA 3 % (Kombe et al. 2013), water from the step's setting, 6:1, 60 °C", () => {
     const r = request({ targetOilKg: 100 });
-    expect([r.maxFfaPct, r.maxWaterPct, r.molarRatio, r.reactionTempC, r.objective, r.catalyst]).toEqual([3, 0.5, 6, 60, "OLDEST_FIRST", "KOH"]);
+    expect([r.maxFfaPct, r.maxWaterPct, r.molarRatio, r.reactionTempC, r.objective, r.catalyst]).toEqual([3, undefined, 6, 60, "OLDEST_FIRST", "KOH"]);
+  });
+  it("one water limit per step: a blend kept below the acid threshold gets the base step's 0.06 %, the recipe's own (before: 0.5 %)", () => {
+    // base step: Ma, Clements & Hanna 1998 (water ≤ 0.06 %); acid step: Canakci & Van Gerpen 1999 (0.5 %, from memory)
+    expect(blendWaterLimit(request({ targetOilKg: 100, maxFfaPct: 1 }))).toEqual({ value: 0.06, step: "BASE_STEP" });
+    expect(blendWaterLimit(request({ targetOilKg: 100 }))).toEqual({ value: 0.5, step: "ACID_STEP" });
+    expect(blendWaterLimit(request({ targetOilKg: 100, maxFfaPct: 1, maxWaterPct: 0.2 }))).toEqual({ value: 0.2, step: null });
+    expect(WATER_LIMIT_BY_STEP.BASE_STEP).toBe(DEFAULT_RECIPE_LIMITS.maxWaterPct);
+    expect(DEFAULT_PRETREATMENT_LIMITS.acidStepMaxWaterPct).toBe(WATER_LIMIT_BY_STEP.ACID_STEP);
   });
   it.each([
     [{}, "targetOilKg", "Oil to charge must be a number (kg)"],
@@ -153,6 +165,22 @@ describe("BatchPlanRequestSchema", () => {
     expect(toRequestField("limits.maxWaterPct")).toBe("maxWaterPct");
     expect(toRequestField("acidStep.residualFfaPct")).toBe("residualFfaPct");
     expect(toRequestField("targetOilKg")).toBe("targetOilKg");
+  });
+});
+
+describe("the planner takes the lab's saponification value", () => {
+  const stock: PlanStock = { lots: [lot("A", { ffaPct: 0.2 })], tanks: [] };
+  it("SV 190 with the blend's acid value gives M = 3 × 56.1 × 1000 / (SV − AV), shown on the card (definition of SV, AOCS Cd 3-25 / ISO 3657)", async () => {
+    // AV of 0.2 % FFA as oleic = 0.2 × 10 × 56.1053 / 282.468 = 0.397251 mg KOH/g; M = 168 300 / (190 − 0.397251) = 887.645 g/mol
+    const o = await requireCard({ targetOilKg: 100, catalyst: "NAOH", assayPct: 100, saponificationValueMgKohG: 190 }, stock);
+    expect(o.card.baseStep.molarMassFromSv?.saponificationValueMgKohG).toBe(190);
+    expect(o.card.baseStep.molarMassFromSv?.acidValueMgKohG).toBeCloseTo(0.397251, 5);
+    expect(o.card.baseStep.meanTgMolarMass).toBeCloseTo(887.645, 2);
+    expect(o.card.baseStep.ffaBasis).toBe("OLEIC");
+  });
+  it("refuses both a molar mass and a saponification value, next to the saponification value", () => {
+    const r = BatchPlanRequestSchema.safeParse({ targetOilKg: 100, meanTgMolarMass: 880, saponificationValueMgKohG: 190 });
+    expect(r.success ? [] : r.error.issues.map((i) => i.path.join("."))).toEqual(["saponificationValueMgKohG"]);
   });
 });
 

@@ -1,6 +1,7 @@
 import { describe, it, expect } from "vitest";
 import fc from "fast-check";
 import {
+  rangeNotes,
   applyMeasuredDensity,
   DEFAULT_DENSITY_TABLE,
   densityAt,
@@ -256,5 +257,20 @@ describe("bad inputs return issues naming the field", () => {
   it("reports several bad fields at once", () => {
     const r = standardVolume({ observedVolumeL: -1, observedTempC: Number.NaN, entry });
     expect(issueFields(r).sort()).toEqual(["observedTempC", "observedVolumeL"]);
+  });
+});
+
+describe("ordinary ambient readings of the oils", () => {
+  // The oils' slope is backed over 24–110 °C (JAOCS 76:1415–1419, 1999) and their table density is at 15 °C
+  // (Codex CXS 210-1999 relative density at 20 °C, moved to 15 °C): a 15–23 °C reading lies between the two.
+  it("a soybean reading at 18 °C gives a note, not a warning (before: a warning on every such reading)", () => {
+    const v = standardVolume({ observedVolumeL: 100, observedTempC: 18, entry: DEFAULT_DENSITY_TABLE.SOYBEAN });
+    expect(v.ok && v.value.warnings).toEqual([]);
+    expect(rangeNotes(DEFAULT_DENSITY_TABLE.SOYBEAN, 18)[0]).toContain("common practice");
+  });
+  it("below 15 °C still warns, and tallow (solid at ambient) still warns at 20 °C", () => {
+    const cold = standardVolume({ observedVolumeL: 100, observedTempC: 5, entry: DEFAULT_DENSITY_TABLE.SOYBEAN });
+    expect(cold.ok && cold.value.warnings.map((w) => w.code)).toEqual(["DENSITY.OUTSIDE_MODEL_RANGE"]);
+    expect(rangeNotes(DEFAULT_DENSITY_TABLE.TALLOW, 20)).toEqual([]);
   });
 });

@@ -127,7 +127,7 @@ describe("due dates", () => {
     expect(d.dueAt).toBe(utc("2028-03-14T08:00:00Z"));
   });
 
-  it("non-hazardous streams fall due under the site rule (common practice, 90 days by default)", () => {
+  it("non-hazardous streams fall due under the site's own rule (no federal limit; 90 days by default)", () => {
     // Jan 1 → Jan 31 (30), Feb 28 (58), Mar 31 (89), Apr 1 (90)
     const d = computeWasteDue(
       container({ id: 1, accumulationStartAt: utc("2026-01-01T10:00:00Z"), characterisation: { pH: 9, flashPointC: 95, aqueous: true, methanolPct: 3 } }),
@@ -136,7 +136,9 @@ describe("due dates", () => {
       false,
     );
     expect(d).toMatchObject({ basis: "NON_HAZARDOUS_SITE_RULE", dueAt: utc("2026-04-01T10:00:00Z"), limitDays: 90 });
-    expect(d.status).toContain("common practice");
+    // 40 CFR Part 262 sets no accumulation time for non-hazardous waste: the default is marked as the site's own choice
+    expect(d.status).toContain("site's own choice");
+    expect(d.source).toContain("no federal time limit");
   });
 
   it("each default carries its CFR section", () => {
