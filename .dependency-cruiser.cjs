@@ -9,7 +9,12 @@ const KERNEL_STORES = "^lib/(ledger/[^/]+|audit/audit)\\.store\\.ts$";
 // allowed only the targets listed; any new reach (from these files or any other) fails. Shrink this
 // list as stores gain service functions; never grow it.
 const KNOWN_STORE_REACHES = {
-  "lib/batch/batch.service.ts": ["lib/feedstock/lot.store.ts", "lib/product/product.store.ts", "lib/tank/tank.store.ts", "lib/waste/container.store.ts"],
+  "lib/batch/batch.service.ts": [
+    "lib/feedstock/lot.store.ts",
+    "lib/product/product.store.ts",
+    "lib/tank/tank.store.ts",
+    "lib/waste/container.store.ts",
+  ],
   "lib/batch/plan.store.ts": ["lib/feedstock/lab.store.ts"],
   "lib/correction/correction.service.ts": ["lib/tank/tank.store.ts"],
   "lib/custody/custody.service.ts": ["lib/site/dashboard.store.ts", "lib/trace/trace.store.ts"],
@@ -20,7 +25,13 @@ const KNOWN_STORE_REACHES = {
   "lib/product/certificate.service.ts": ["lib/site/site.store.ts"],
   "lib/shipment/shipment.service.ts": ["lib/customer/customer.store.ts"],
   // The dashboard gathers every domain's counts in one read.
-  "lib/site/dashboard.store.ts": ["lib/batch/batch.store.ts", "lib/feedstock/lot.store.ts", "lib/period/period.store.ts", "lib/tank/tank.store.ts", "lib/waste/container.store.ts"],
+  "lib/site/dashboard.store.ts": [
+    "lib/batch/batch.store.ts",
+    "lib/feedstock/lot.store.ts",
+    "lib/period/period.store.ts",
+    "lib/tank/tank.store.ts",
+    "lib/waste/container.store.ts",
+  ],
   "lib/trace/trace.service.ts": ["lib/shipment/shipment.store.ts"],
 };
 const escape = (p) => p.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
@@ -33,14 +44,16 @@ module.exports = {
     {
       name: "no-cycles-in-lib",
       severity: "error",
-      comment: "Files in lib/ import one way (type-only imports count too): a cycle means two modules cannot be understood or tested apart.",
+      comment:
+        "Files in lib/ import one way (type-only imports count too): a cycle means two modules cannot be understood or tested apart.",
       from: { path: "^lib/" },
       to: { circular: true },
     },
     {
       name: "no-other-domains-store",
       severity: "error",
-      comment: "A domain reaches another domain's data through that domain's service, not its store (the ledger and audit stores are the shared kernel).",
+      comment:
+        "A domain reaches another domain's data through that domain's service, not its store (the ledger and audit stores are the shared kernel).",
       from: { path: "^lib/([^/]+)/", pathNot: Object.keys(KNOWN_STORE_REACHES).map(exact) },
       to: otherStore,
     },
@@ -67,6 +80,9 @@ module.exports = {
     exclude: { path: "^lib/generated/" },
     tsPreCompilationDeps: true,
     tsConfig: { fileName: "tsconfig.json" },
-    enhancedResolveOptions: { exportsFields: ["exports"], conditionNames: ["import", "require", "node", "default", "types"] },
+    enhancedResolveOptions: {
+      exportsFields: ["exports"],
+      conditionNames: ["import", "require", "node", "default", "types"],
+    },
   },
 };

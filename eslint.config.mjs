@@ -5,19 +5,29 @@ import tseslint from "typescript-eslint";
 
 const prismaImports = {
   patterns: [
-    { group: ["@/lib/generated/*", "**/generated/*", "@prisma/*"], message: "Only stores (*.store.ts) and lib/database may use Prisma." },
+    {
+      group: ["@/lib/generated/*", "**/generated/*", "@prisma/*"],
+      message: "Only stores (*.store.ts) and lib/database may use Prisma.",
+    },
   ],
 };
 const frameworkImports = {
   patterns: [
     ...prismaImports.patterns,
-    { group: ["next", "next/*", "react", "react-dom"], message: "Pure lib modules take data in and give data out; no framework imports." },
-    { group: ["server-only", "@/lib/db", "**/*.store", "**/*.service"], message: "Pure lib modules may not reach stores, services or the database." },
+    {
+      group: ["next", "next/*", "react", "react-dom"],
+      message: "Pure lib modules take data in and give data out; no framework imports.",
+    },
+    {
+      group: ["server-only", "@/lib/db", "**/*.store", "**/*.service"],
+      message: "Pure lib modules may not reach stores, services or the database.",
+    },
   ],
 };
 
 // Pure modules take `now` (and any random choice) as arguments so they are testable and replayable.
-const clockMessage = "Pure lib modules do not read the clock or random numbers: pass now in (or the value) as an argument.";
+const clockMessage =
+  "Pure lib modules do not read the clock or random numbers: pass now in (or the value) as an argument.";
 const clockSyntax = [
   { selector: "NewExpression[callee.name='Date'][arguments.length=0]", message: clockMessage },
   { selector: "CallExpression[callee.object.name='Date'][callee.property.name='now']", message: clockMessage },
@@ -25,14 +35,30 @@ const clockSyntax = [
   { selector: "MemberExpression[object.name='Math'][property.name='random']", message: clockMessage },
   { selector: "MemberExpression[object.name='performance'][property.name='now']", message: clockMessage },
 ];
-const rawQuerySyntax = { selector: "CallExpression[callee.property.name='$queryRawUnsafe'][arguments.length>1]", message: "Pass user values only through tagged $queryRaw, never $queryRawUnsafe parameters." };
+const rawQuerySyntax = {
+  selector: "CallExpression[callee.property.name='$queryRawUnsafe'][arguments.length>1]",
+  message: "Pass user values only through tagged $queryRaw, never $queryRawUnsafe parameters.",
+};
 
 // Files under lib/ without a role suffix that do I/O by design (connections, backups), so the clock rule
 // does not apply to them. Today no other file needs an exception; add one here with its reason.
 const ioFiles = ["lib/database/**", "lib/db.ts"];
 
 export default tseslint.config(
-  { ignores: ["node_modules/**", ".next/**", ".next-*/**", ".tmp/**", "lib/generated/**", "lib/api/client/openapi-types.ts", "prisma/pg/**", "test-results/**", "playwright-report/**", "next-env.d.ts"] },
+  {
+    ignores: [
+      "node_modules/**",
+      ".next/**",
+      ".next-*/**",
+      ".tmp/**",
+      "lib/generated/**",
+      "lib/api/client/openapi-types.ts",
+      "prisma/pg/**",
+      "test-results/**",
+      "playwright-report/**",
+      "next-env.d.ts",
+    ],
+  },
   ...tseslint.configs.recommendedTypeChecked,
   {
     languageOptions: { parserOptions: { projectService: true, tsconfigRootDir: import.meta.dirname } },
@@ -79,7 +105,10 @@ export default tseslint.config(
       // Services run transactions but leave the queries to stores: no tx.<model>.<call>() or db.<model>.<call>() here.
       "no-restricted-syntax": [
         "error",
-        { selector: "CallExpression[callee.object.object.name=/^(tx|db)$/][callee.object.property.name!=/^\\$/]", message: "Only stores (*.store.ts) query the database; call a store function." },
+        {
+          selector: "CallExpression[callee.object.object.name=/^(tx|db)$/][callee.object.property.name!=/^\\$/]",
+          message: "Only stores (*.store.ts) query the database; call a store function.",
+        },
       ],
     },
   },

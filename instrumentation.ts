@@ -5,6 +5,16 @@ import type { Instrumentation } from "next";
 export const onRequestError: Instrumentation.onRequestError = async (error, request, context) => {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
   const { log } = await import("@/lib/log/log.service");
-  const digest = typeof error === "object" && error !== null && "digest" in error ? String((error).digest) : null;
-  log.error({ reference: digest, route: context.routePath, path: request.path, method: request.method, kind: context.routerKind, err: error }, "unexpected error");
+  const digest = typeof error === "object" && error !== null && "digest" in error ? String(error.digest) : null;
+  log.error(
+    {
+      reference: digest,
+      route: context.routePath,
+      path: request.path,
+      method: request.method,
+      kind: context.routerKind,
+      err: error,
+    },
+    "unexpected error",
+  );
 };

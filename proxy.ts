@@ -30,7 +30,10 @@ function tooLargeAction(request: NextRequest): NextResponse | null {
   if (request.method !== "POST" || !request.headers.has("next-action")) return null;
   const length = Number(request.headers.get("content-length") ?? "");
   if (!(length > ACTION_BODY_LIMIT)) return null;
-  return new NextResponse("The request is larger than 1 MB", { status: 413, headers: { "content-type": "text/plain; charset=utf-8" } });
+  return new NextResponse("The request is larger than 1 MB", {
+    status: 413,
+    headers: { "content-type": "text/plain; charset=utf-8" },
+  });
 }
 
 export function proxy(request: NextRequest): NextResponse {
@@ -60,7 +63,8 @@ export function proxy(request: NextRequest): NextResponse {
   response.headers.set("Referrer-Policy", "same-origin");
   response.headers.set("X-Frame-Options", "DENY");
   response.headers.set("Permissions-Policy", "camera=(self), microphone=(), geolocation=()");
-  if (request.nextUrl.protocol === "https:") response.headers.set("Strict-Transport-Security", "max-age=31536000; includeSubDomains");
+  if (request.nextUrl.protocol === "https:")
+    response.headers.set("Strict-Transport-Security", "max-age=31536000; includeSubDomains");
   return response;
 }
 

@@ -2,7 +2,10 @@ import path from "node:path";
 import { defineConfig } from "vitest/config";
 
 // "server-only" throws outside React's server build; tests run stores directly, so it becomes a no-op here.
-const alias = { "@": path.resolve(import.meta.dirname, "."), "server-only": path.resolve(import.meta.dirname, "test/support/server-only.ts") };
+const alias = {
+  "@": path.resolve(import.meta.dirname, "."),
+  "server-only": path.resolve(import.meta.dirname, "test/support/server-only.ts"),
+};
 
 export default defineConfig({
   resolve: { alias },

@@ -5,7 +5,9 @@ export default function Forbidden() {
   return (
     <>
       <h1>Not available to your role</h1>
-      <p className="empty">This page is kept for other roles at the plant. If your work needs it, ask your administrator.</p>
+      <p className="empty">
+        This page is kept for other roles at the plant. If your work needs it, ask your administrator.
+      </p>
       <p>
         <Link href="/">Back to your start page</Link>
       </p>

@@ -49,7 +49,10 @@ export default async function RootLayout({ children }: { children: ReactNode }) 
         <main id="main" tabIndex={-1}>
           {children}
         </main>
-        <footer className="site-footer">Masses are book stock from the movement ledger, kept in whole grams. Records are never deleted: corrections are new entries with a reason.</footer>
+        <footer className="site-footer">
+          Masses are book stock from the movement ledger, kept in whole grams. Records are never deleted: corrections
+          are new entries with a reason.
+        </footer>
       </body>
     </html>
   );

@@ -12,17 +12,21 @@ export default async function TodayPage() {
   const { db, site } = await loadSite();
   if (!site) return <NoSite />;
   const now = new Date();
-  const [d, waste] = await Promise.all([getDashboard(db, site, now), getWasteDueBoard(db, site.id, now, getUtcOffsetMin(site.timeZone, now))]);
+  const [d, waste] = await Promise.all([
+    getDashboard(db, site, now),
+    getWasteDueBoard(db, site.id, now, getUtcOffsetMin(site.timeZone, now)),
+  ]);
   const tz = site.timeZone;
   return (
     <>
       <h1>Today at {site.name}</h1>
       <p className="lede">
-        Tracevat keeps the feedstock inventory and traceability of a biodiesel plant. Oil collected at restaurants and delivered by
-        suppliers is recorded as pickups, pooled into lots that wait for the lab, moved into tanks and charged into reaction batches;
-        each batch yields product lots that are tested, released and shipped. Glycerol phase, wash water and other waste streams are
-        tracked in their containers until a hauler takes them, and every transfer is booked in grams in one ledger, so the mass balance
-        of any period and the history of any lot can be shown.
+        Tracevat keeps the feedstock inventory and traceability of a biodiesel plant. Oil collected at restaurants and
+        delivered by suppliers is recorded as pickups, pooled into lots that wait for the lab, moved into tanks and
+        charged into reaction batches; each batch yields product lots that are tested, released and shipped. Glycerol
+        phase, wash water and other waste streams are tracked in their containers until a hauler takes them, and every
+        transfer is booked in grams in one ledger, so the mass balance of any period and the history of any lot can be
+        shown.
       </p>
 
       <h2 id="counts">At a glance</h2>

@@ -16,7 +16,8 @@ export interface LedgerDatabase {
 }
 
 /** The rows lib/trace needs (loadTraceLedger also reads reversesId; the synthetic ledger has no reversals). */
-export const FLOOR_SQL = 'SELECT id, at, fromHolderId, toHolderId, massG FROM "Movement" WHERE siteId = ? ORDER BY at, id';
+export const FLOOR_SQL =
+  'SELECT id, at, fromHolderId, toHolderId, massG FROM "Movement" WHERE siteId = ? ORDER BY at, id';
 
 function removeDatabaseFiles(file: string): void {
   for (const f of [file, `${file}-wal`, `${file}-shm`, `${file}-journal`]) if (existsSync(f)) rmSync(f);
@@ -49,8 +50,10 @@ export async function writeLedgerDatabase(history: PlantHistory, file: string): 
     db.transaction(() => {
       insertSite.run(siteId, `BENCH-${history.years}Y`, "Benchmark plant (synthetic)", "Nowhere", "UTC");
       insertUser.run(1, siteId, `bench.${history.years}y`, "Benchmark loader", "ADMIN");
-      for (const h of history.holders) insertHolder.run(h.id, siteId, h.kind, h.code, history.finalStockG.get(h.id) ?? 0);
-      for (const m of history.moves) insertMove.run(m.id, siteId, toStoredInstant(m.at), m.role, m.fromHolderId, m.toHolderId, m.massG, 1);
+      for (const h of history.holders)
+        insertHolder.run(h.id, siteId, h.kind, h.code, history.finalStockG.get(h.id) ?? 0);
+      for (const m of history.moves)
+        insertMove.run(m.id, siteId, toStoredInstant(m.at), m.role, m.fromHolderId, m.toHolderId, m.massG, 1);
     })();
     const insertMs = performance.now() - t1;
     db.pragma("wal_checkpoint(TRUNCATE)");

@@ -45,8 +45,15 @@ export async function fetchOnce(url: string, init?: RequestInit): Promise<Respon
 }
 
 export async function signIn(base: string, login: string): Promise<string> {
-  const r = await fetchOnce(`${base}/api/session`, { method: "POST", headers: { "content-type": "application/json", origin: base }, body: JSON.stringify({ login, password: DEMO_PASSWORD }) });
-  const cookie = r.headers.getSetCookie().map((c) => c.split(";")[0]).find((c) => c?.includes("tv_session="));
+  const r = await fetchOnce(`${base}/api/session`, {
+    method: "POST",
+    headers: { "content-type": "application/json", origin: base },
+    body: JSON.stringify({ login, password: DEMO_PASSWORD }),
+  });
+  const cookie = r.headers
+    .getSetCookie()
+    .map((c) => c.split(";")[0])
+    .find((c) => c?.includes("tv_session="));
   if (!r.ok || cookie === undefined) throw new Error(`sign-in as ${login} refused: ${r.status} ${await r.text()}`);
   return cookie;
 }
@@ -56,7 +63,12 @@ export async function signIn(base: string, login: string): Promise<string> {
  * the next offset (a shared counter): over a short run each route gets its share instead of the first
  * entries getting most. The route being answered is kept in the connection's context for the timings.
  */
-export function toAutocannon(mix: readonly MixRequest[], base: string, cookies: Record<MixRequest["as"], string>, routes: Map<string, RouteStats>): autocannon.Request[] {
+export function toAutocannon(
+  mix: readonly MixRequest[],
+  base: string,
+  cookies: Record<MixRequest["as"], string>,
+  routes: Map<string, RouteStats>,
+): autocannon.Request[] {
   let rounds = 0;
   const pick = (slot: number, context: Record<string, unknown>): MixRequest | undefined => {
     const offset = typeof context.offset === "number" ? context.offset : rounds++ % mix.length;
@@ -71,8 +83,12 @@ export function toAutocannon(mix: readonly MixRequest[], base: string, cookies: 
       const m = pick(slot, context);
       if (m === undefined) return r;
       context.route = m.route;
-      const headers: Record<string, string> = { cookie: cookies[m.as], accept: m.kind === "page" ? "text/html" : "application/json" };
-      if (m.method === "POST") Object.assign(headers, { "content-type": "application/json", origin: base, "idempotency-key": randomUUID() });
+      const headers: Record<string, string> = {
+        cookie: cookies[m.as],
+        accept: m.kind === "page" ? "text/html" : "application/json",
+      };
+      if (m.method === "POST")
+        Object.assign(headers, { "content-type": "application/json", origin: base, "idempotency-key": randomUUID() });
       return { ...r, method: m.method, path: m.path, headers, ...(m.body ? { body: m.body() } : {}) };
     },
     onResponse: (status: number, text: string, ctx: object) => {
@@ -87,13 +103,32 @@ export function toAutocannon(mix: readonly MixRequest[], base: string, cookies: 
   }));
 }
 
-export async function measure(section: string, server: AppServer, mix: readonly MixRequest[], cookies: Record<MixRequest["as"], string>, connections: number, durationS: number): Promise<RunResult> {
-  const routes = new Map<string, RouteStats>(mix.map((m) => [m.route, { count: 0, errors: 0, refused: 0, latencies: [] }]));
+export async function measure(
+  section: string,
+  server: AppServer,
+  mix: readonly MixRequest[],
+  cookies: Record<MixRequest["as"], string>,
+  connections: number,
+  durationS: number,
+): Promise<RunResult> {
+  const routes = new Map<string, RouteStats>(
+    mix.map((m) => [m.route, { count: 0, errors: 0, refused: 0, latencies: [] }]),
+  );
   const all: number[] = [];
   server.takePeakMb();
   let instance: autocannon.Instance | undefined;
   const finished = new Promise<autocannon.Result>((resolve, reject) => {
-    instance = autocannon({ url: server.base, connections, duration: durationS, requests: toAutocannon(mix, server.base, cookies, routes), timeout: 30 }, (err: unknown, res: autocannon.Result) => (err ? reject(err instanceof Error ? err : new Error(JSON.stringify(err))) : resolve(res)));
+    instance = autocannon(
+      {
+        url: server.base,
+        connections,
+        duration: durationS,
+        requests: toAutocannon(mix, server.base, cookies, routes),
+        timeout: 30,
+      },
+      (err: unknown, res: autocannon.Result) =>
+        err ? reject(err instanceof Error ? err : new Error(JSON.stringify(err))) : resolve(res),
+    );
   });
   if (instance === undefined) throw new Error("autocannon did not start");
   instance.on("response", (client: unknown, status: number, _bytes: number, ms: number) => {
@@ -126,4 +161,3 @@ export async function measure(section: string, server: AppServer, mix: readonly 
     durationS,
   };
 }
-

@@ -31,19 +31,45 @@ export const DEMO_PASSWORD = "quillmoor-demo";
 export function readMix(c: DemoCodes): MixRequest[] {
   return [
     { route: "page /", method: "GET", path: "/", kind: "page", as: "reader" },
-    { route: "json trace backward (shipment)", method: "GET", path: `/api/trace/backward?kind=SHIPMENT&code=${encodeURIComponent(c.shipment)}`, kind: "json", as: "reader" },
+    {
+      route: "json trace backward (shipment)",
+      method: "GET",
+      path: `/api/trace/backward?kind=SHIPMENT&code=${encodeURIComponent(c.shipment)}`,
+      kind: "json",
+      as: "reader",
+    },
     { route: "page /lots", method: "GET", path: "/lots", kind: "page", as: "reader" },
-    { route: "json trace forward (lot)", method: "GET", path: `/api/trace/forward?kind=LOT&code=${encodeURIComponent(c.lot)}`, kind: "json", as: "reader" },
-    { route: "json balance (last month)", method: "GET", path: "/api/balance?period=MONTH", kind: "json", as: "reader" },
+    {
+      route: "json trace forward (lot)",
+      method: "GET",
+      path: `/api/trace/forward?kind=LOT&code=${encodeURIComponent(c.lot)}`,
+      kind: "json",
+      as: "reader",
+    },
+    {
+      route: "json balance (last month)",
+      method: "GET",
+      path: "/api/balance?period=MONTH",
+      kind: "json",
+      as: "reader",
+    },
     { route: "page /waste/due", method: "GET", path: "/waste/due", kind: "page", as: "reader" },
-    { route: "json grid rows (pickups)", method: "GET", path: "/api/grid/rows?table=pickups&start=0&end=100", kind: "json", as: "reader" },
+    {
+      route: "json grid rows (pickups)",
+      method: "GET",
+      path: "/api/grid/rows?table=pickups&start=0&end=100",
+      kind: "json",
+      as: "reader",
+    },
   ];
 }
 
 /** The floor in the mix's own proportions of JSON answers and pages. */
 export function floorMix(mix: readonly MixRequest[]): MixRequest[] {
   return mix.map((m) =>
-    m.kind === "page" ? { route: "page /me/signed-in", method: "GET", path: "/me/signed-in", kind: "page", as: "reader" } : { route: "json /api/me", method: "GET", path: "/api/me", kind: "json", as: "reader" },
+    m.kind === "page"
+      ? { route: "page /me/signed-in", method: "GET", path: "/me/signed-in", kind: "page", as: "reader" }
+      : { route: "json /api/me", method: "GET", path: "/api/me", kind: "json", as: "reader" },
   );
 }
 
@@ -68,7 +94,14 @@ function transferBody(c: DemoCodes): string {
   serial += 1;
   const t = c.transfers[serial % c.transfers.length];
   if (t === undefined) throw new Error("no lot-to-tank transfer found in the demo");
-  return JSON.stringify({ fromCode: t.fromCode, fromKind: t.fromKind, toTankCode: t.toTankCode, at: new Date(Date.now() - 60_000).toISOString(), massKg: 1, note: "load run" });
+  return JSON.stringify({
+    fromCode: t.fromCode,
+    fromKind: t.fromKind,
+    toTankCode: t.toTankCode,
+    at: new Date(Date.now() - 60_000).toISOString(),
+    massKg: 1,
+    note: "load run",
+  });
 }
 
 /** The read mix with every tenth request a booking: 20 requests per round, 18 reads, 1 pickup, 1 transfer. */
@@ -78,21 +111,57 @@ export function writeMix(c: DemoCodes): MixRequest[] {
   for (let i = 0; i < 18; i++) {
     const r = reads[i % reads.length];
     if (r !== undefined) out.push(r);
-    if (i === 8) out.push({ route: "write pickup", method: "POST", path: "/api/pickups", kind: "write", as: "writer", body: () => pickupBody(c) });
-    if (i === 17) out.push({ route: "write transfer", method: "POST", path: "/api/transfers", kind: "write", as: "writer", body: () => transferBody(c) });
+    if (i === 8)
+      out.push({
+        route: "write pickup",
+        method: "POST",
+        path: "/api/pickups",
+        kind: "write",
+        as: "writer",
+        body: () => pickupBody(c),
+      });
+    if (i === 17)
+      out.push({
+        route: "write transfer",
+        method: "POST",
+        path: "/api/transfers",
+        kind: "write",
+        as: "writer",
+        body: () => transferBody(c),
+      });
   }
   return out;
 }
 
 /** Codes to ask about: the last shipment, the latest lot, a source with pickups, and feedstock tanks and lots with stock to draw 1 kg from. */
-export async function readDemoCodes(db: Db): Promise<Omit<DemoCodes, "transfers"> & { stocked: Array<{ kind: "TANK" | "LOT"; code: string }> }> {
-  const shipment = await db.holder.findFirst({ where: { kind: "SHIPMENT" }, orderBy: { id: "desc" }, select: { code: true } });
+export async function readDemoCodes(
+  db: Db,
+): Promise<Omit<DemoCodes, "transfers"> & { stocked: Array<{ kind: "TANK" | "LOT"; code: string }> }> {
+  const shipment = await db.holder.findFirst({
+    where: { kind: "SHIPMENT" },
+    orderBy: { id: "desc" },
+    select: { code: true },
+  });
   const lot = await db.feedstockLot.findFirst({ orderBy: { holderId: "desc" }, select: { code: true } });
-  const pickup = await db.pickup.findFirst({ orderBy: { id: "desc" }, select: { material: true, source: { select: { code: true } } } });
-  const tanks = await db.tank.findMany({ where: { service: "FEEDSTOCK", holder: { stockG: { gte: 1_000_000 } } }, select: { holder: { select: { code: true } } } });
-  const lots = await db.holder.findMany({ where: { kind: "LOT", stockG: { gte: 500_000 } }, orderBy: { stockG: "desc" }, take: 6, select: { code: true } });
+  const pickup = await db.pickup.findFirst({
+    orderBy: { id: "desc" },
+    select: { material: true, source: { select: { code: true } } },
+  });
+  const tanks = await db.tank.findMany({
+    where: { service: "FEEDSTOCK", holder: { stockG: { gte: 1_000_000 } } },
+    select: { holder: { select: { code: true } } },
+  });
+  const lots = await db.holder.findMany({
+    where: { kind: "LOT", stockG: { gte: 500_000 } },
+    orderBy: { stockG: "desc" },
+    take: 6,
+    select: { code: true },
+  });
   if (!shipment || !lot || !pickup) throw new Error("the demo database has no shipment, lot or pickup");
-  const stocked = [...tanks.map((t) => ({ kind: "TANK" as const, code: t.holder.code })), ...lots.map((l) => ({ kind: "LOT" as const, code: l.code }))];
+  const stocked = [
+    ...tanks.map((t) => ({ kind: "TANK" as const, code: t.holder.code })),
+    ...lots.map((l) => ({ kind: "LOT" as const, code: l.code })),
+  ];
   return { shipment: shipment.code, lot: lot.code, source: pickup.source.code, material: pickup.material, stocked };
 }
 
@@ -107,7 +176,9 @@ export async function countOverdraws(db: Db): Promise<{ negative: number; mismat
     db.movement.groupBy({ by: ["fromHolderId"], _sum: { massG: true } }),
   ]);
   const inG = new Map(ins.map((r) => [r.toHolderId, r._sum.massG ?? 0]));
-  const outG = new Map(outs.flatMap((r) => (r.fromHolderId === null ? [] : [[r.fromHolderId, r._sum.massG ?? 0] as const])));
+  const outG = new Map(
+    outs.flatMap((r) => (r.fromHolderId === null ? [] : [[r.fromHolderId, r._sum.massG ?? 0] as const])),
+  );
   let negative = 0;
   let mismatched = 0;
   for (const h of holders) {

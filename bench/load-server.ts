@@ -13,7 +13,9 @@ export const PG_BASE = process.env.LOAD_PG_URL ?? "postgresql://postgres@127.0.0
 
 export function requireBuild(): void {
   if (!existsSync(path.join(ROOT, ".next", "BUILD_ID"))) {
-    console.error("npm run load measures the production build and builds nothing: run `npx next build` first, then `npm run load` again.");
+    console.error(
+      "npm run load measures the production build and builds nothing: run `npx next build` first, then `npm run load` again.",
+    );
     process.exit(2);
   }
 }
@@ -43,7 +45,8 @@ export async function createDatabase(kind: "sqlite" | "postgresql", tag: string)
   if (kind === "sqlite") {
     const file = path.join(ROOT, "data", `load-${tag}.db`);
     const remove = () => {
-      for (const suffix of ["", "-wal", "-shm", ".loading", ".loading-wal", ".loading-shm"]) rmSync(`${file}${suffix}`, { force: true });
+      for (const suffix of ["", "-wal", "-shm", ".loading", ".loading-wal", ".loading-shm"])
+        rmSync(`${file}${suffix}`, { force: true });
     };
     remove();
     return { kind, url: `file:${file}`, drop: () => Promise.resolve(remove()) };
@@ -60,7 +63,11 @@ export async function createDatabase(kind: "sqlite" | "postgresql", tag: string)
   };
   await admin(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`);
   await admin(`CREATE DATABASE "${name}"`);
-  return { kind, url: `${PG_BASE.replace(/\/[^/]*$/, "")}/${name}`, drop: () => admin(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`) };
+  return {
+    kind,
+    url: `${PG_BASE.replace(/\/[^/]*$/, "")}/${name}`,
+    drop: () => admin(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`),
+  };
 }
 
 async function pgAdmin(sql: string, params: unknown[] = []): Promise<pg.QueryResult> {
@@ -75,7 +82,9 @@ async function pgAdmin(sql: string, params: unknown[] = []): Promise<pg.QueryRes
 
 /** Names a demo by its length, today's date (the demo's anchor) and the latest migration, so a template never outlives its schema. */
 function templateKey(days: number): string {
-  const migrations = readdirSync(path.join(ROOT, "prisma", "migrations")).filter((d) => /^\d{14}_/.test(d)).sort();
+  const migrations = readdirSync(path.join(ROOT, "prisma", "migrations"))
+    .filter((d) => /^\d{14}_/.test(d))
+    .sort();
   const last = migrations[migrations.length - 1]?.slice(0, 14) ?? "none";
   return `${days}d_${new Date().toISOString().slice(0, 10).replace(/-/g, "")}_${last}`;
 }
@@ -85,12 +94,17 @@ function templateKey(days: number): string {
  * or the PostgreSQL database tracevat_load_tpl_…) and each run gets a copy, because loading takes
  * minutes on a busy 2-core machine. Returns how long loading took (0 when the template existed).
  */
-export async function createDemoDatabase(kind: "sqlite" | "postgresql", tag: string, days: number): Promise<{ database: LoadDatabase; seedMs: number; dropTemplate: () => Promise<void> }> {
+export async function createDemoDatabase(
+  kind: "sqlite" | "postgresql",
+  tag: string,
+  days: number,
+): Promise<{ database: LoadDatabase; seedMs: number; dropTemplate: () => Promise<void> }> {
   const key = templateKey(days);
   if (kind === "sqlite") {
     const template = path.join(ROOT, "data", `load-template-${key}.db`);
     let seedMs = 0;
-    if (!existsSync(template)) seedMs = await seedDemo({ kind, url: `file:${template}`, drop: () => Promise.resolve() }, days);
+    if (!existsSync(template))
+      seedMs = await seedDemo({ kind, url: `file:${template}`, drop: () => Promise.resolve() }, days);
     const database = await createDatabase(kind, tag);
     copyFileSync(template, database.url.slice("file:".length));
     return { database, seedMs, dropTemplate: () => Promise.resolve(rmSync(template, { force: true })) };
@@ -101,7 +115,10 @@ export async function createDemoDatabase(kind: "sqlite" | "postgresql", tag: str
   if (!exists) {
     await pgAdmin(`CREATE DATABASE "${template}"`);
     try {
-      seedMs = await seedDemo({ kind, url: `${PG_BASE.replace(/\/[^/]*$/, "")}/${template}`, drop: () => Promise.resolve() }, days);
+      seedMs = await seedDemo(
+        { kind, url: `${PG_BASE.replace(/\/[^/]*$/, "")}/${template}`, drop: () => Promise.resolve() },
+        days,
+      );
     } catch (e) {
       await pgAdmin(`DROP DATABASE IF EXISTS "${template}" WITH (FORCE)`);
       throw e;
@@ -110,22 +127,36 @@ export async function createDemoDatabase(kind: "sqlite" | "postgresql", tag: str
   const name = `tracevat_load_${tag}`;
   await pgAdmin(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`);
   await pgAdmin(`CREATE DATABASE "${name}" TEMPLATE "${template}"`);
-  const database: LoadDatabase = { kind, url: `${PG_BASE.replace(/\/[^/]*$/, "")}/${name}`, drop: async () => void (await pgAdmin(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`)) };
-  return { database, seedMs, dropTemplate: async () => void (await pgAdmin(`DROP DATABASE IF EXISTS "${template}" WITH (FORCE)`)) };
+  const database: LoadDatabase = {
+    kind,
+    url: `${PG_BASE.replace(/\/[^/]*$/, "")}/${name}`,
+    drop: async () => void (await pgAdmin(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`)),
+  };
+  return {
+    database,
+    seedMs,
+    dropTemplate: async () => void (await pgAdmin(`DROP DATABASE IF EXISTS "${template}" WITH (FORCE)`)),
+  };
 }
 
 function run(cmd: string, args: string[], env: NodeJS.ProcessEnv): Promise<void> {
   return new Promise((resolve, reject) => {
     const child = spawn(cmd, args, { cwd: ROOT, env, stdio: ["ignore", "ignore", "inherit"] });
     child.once("error", reject);
-    child.once("exit", (code) => (code === 0 ? resolve() : reject(new Error(`${cmd} ${args.join(" ")} exited with ${code}`))));
+    child.once("exit", (code) =>
+      code === 0 ? resolve() : reject(new Error(`${cmd} ${args.join(" ")} exited with ${code}`)),
+    );
   });
 }
 
 /** Loads the demo plant (seeds/load.ts) into the database; DEMO_DAYS sets its length. */
 export async function seedDemo(db: LoadDatabase, days: number): Promise<number> {
   const t0 = performance.now();
-  await run(process.execPath, ["--conditions=react-server", "--import", "tsx", "seeds/load.ts"], { ...process.env, DATABASE_URL: db.url, DEMO_DAYS: String(days) });
+  await run(process.execPath, ["--conditions=react-server", "--import", "tsx", "seeds/load.ts"], {
+    ...process.env,
+    DATABASE_URL: db.url,
+    DEMO_DAYS: String(days),
+  });
   return performance.now() - t0;
 }
 
@@ -161,12 +192,21 @@ export class AppServer {
 
   /** `next start` on the port against the database; resolves once the sign-in page answers. */
   static async start(databaseUrl: string, port: number): Promise<AppServer> {
-    const child = spawn(path.join(ROOT, "node_modules", ".bin", "next"), ["start", "-H", "127.0.0.1", "-p", String(port)], {
-      cwd: ROOT,
-      env: { ...process.env, DATABASE_URL: databaseUrl, NODE_ENV: "production", LOG_LEVEL: process.env.LOG_LEVEL ?? "warn" },
-      stdio: ["ignore", "ignore", "inherit"],
-      detached: false,
-    });
+    const child = spawn(
+      path.join(ROOT, "node_modules", ".bin", "next"),
+      ["start", "-H", "127.0.0.1", "-p", String(port)],
+      {
+        cwd: ROOT,
+        env: {
+          ...process.env,
+          DATABASE_URL: databaseUrl,
+          NODE_ENV: "production",
+          LOG_LEVEL: process.env.LOG_LEVEL ?? "warn",
+        },
+        stdio: ["ignore", "ignore", "inherit"],
+        detached: false,
+      },
+    );
     const server = new AppServer(`http://127.0.0.1:${port}`, port, child);
     const deadline = Date.now() + 180_000;
     for (;;) {

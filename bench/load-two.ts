@@ -10,36 +10,65 @@ import { measure, signIn } from "@/bench/load-measure";
 
 /** An answer without what legitimately differs between processes: timings and when this process indexed the ledger. */
 function comparable(text: string): string {
-  return JSON.stringify(JSON.parse(text, (key: string, value: unknown) => (key === "computeMs" || key === "freshness" ? undefined : value)));
+  return JSON.stringify(
+    JSON.parse(text, (key: string, value: unknown) => (key === "computeMs" || key === "freshness" ? undefined : value)),
+  );
 }
 
 async function sameAnswer(a: AppServer, b: AppServer, path: string, cookie: string): Promise<string | null> {
-  const [ra, rb] = await Promise.all([fetch(`${a.base}${path}`, { headers: { cookie } }), fetch(`${b.base}${path}`, { headers: { cookie } })]);
+  const [ra, rb] = await Promise.all([
+    fetch(`${a.base}${path}`, { headers: { cookie } }),
+    fetch(`${b.base}${path}`, { headers: { cookie } }),
+  ]);
   const [ta, tb] = [await ra.text(), await rb.text()];
   if (ra.status !== 200 || rb.status !== 200) return `${path}: status ${ra.status} / ${rb.status}`;
-  if (ra.headers.get("etag") !== rb.headers.get("etag")) return `${path}: ETag ${ra.headers.get("etag")} / ${rb.headers.get("etag")}`;
+  if (ra.headers.get("etag") !== rb.headers.get("etag"))
+    return `${path}: ETag ${ra.headers.get("etag")} / ${rb.headers.get("etag")}`;
   return comparable(ta) === comparable(tb) ? null : `${path}: answers differ`;
 }
 
 async function resendAcross(a: AppServer, b: AppServer, cookie: string, codes: DemoCodes): Promise<string | null> {
   const key = randomUUID();
-  const body = JSON.stringify({ code: `LD2-${Date.now().toString(36)}`.toUpperCase(), sourceCode: codes.source, material: codes.material, observedAt: new Date(Date.now() - 3_600_000).toISOString(), containers: 1, volumeL: 50, tempC: 20 });
-  const send = (s: AppServer) => fetch(`${s.base}/api/pickups`, { method: "POST", headers: { "content-type": "application/json", origin: s.base, cookie, "idempotency-key": key }, body });
+  const body = JSON.stringify({
+    code: `LD2-${Date.now().toString(36)}`.toUpperCase(),
+    sourceCode: codes.source,
+    material: codes.material,
+    observedAt: new Date(Date.now() - 3_600_000).toISOString(),
+    containers: 1,
+    volumeL: 50,
+    tempC: 20,
+  });
+  const send = (s: AppServer) =>
+    fetch(`${s.base}/api/pickups`, {
+      method: "POST",
+      headers: { "content-type": "application/json", origin: s.base, cookie, "idempotency-key": key },
+      body,
+    });
   const first = await send(a);
   const again = await send(b);
   const [t1, t2] = [await first.text(), await again.text()];
   if (!first.ok) return `first booking refused: ${first.status} ${t1}`;
-  return again.status === first.status && t1 === t2 ? null : `resent booking answered ${again.status} ${t2.slice(0, 120)} (first: ${t1.slice(0, 120)})`;
+  return again.status === first.status && t1 === t2
+    ? null
+    : `resent booking answered ${again.status} ${t2.slice(0, 120)} (first: ${t1.slice(0, 120)})`;
 }
 
 /** Runs the two-process load and the checks; returns printable lines. */
-export async function compareServers(a: AppServer, b: AppServer, codes: DemoCodes, durationS: number): Promise<string[]> {
+export async function compareServers(
+  a: AppServer,
+  b: AppServer,
+  codes: DemoCodes,
+  durationS: number,
+): Promise<string[]> {
   const writer = await signIn(a.base, WRITER_LOGIN);
   const reader = await signIn(a.base, READER_LOGIN);
   const cookies = { reader, writer };
   const writes = writeMix(codes).filter((m) => m.kind === "write");
   const reads = readMix(codes);
-  const [w, r] = await Promise.all([measure("two processes: bookings", a, writes, cookies, 5, durationS), measure("two processes: reads", b, reads, cookies, 45, durationS)]);
+  const [w, r] = await Promise.all([
+    measure("two processes: bookings", a, writes, cookies, 5, durationS),
+    measure("two processes: reads", b, reads, cookies, 45, durationS),
+  ]);
   const lines = [
     `bookings to one process: ${w.rps.toFixed(1)} req/s, p95 ${w.p95.toFixed(0)} ms, errors ${w.errors}, refused ${w.refused}; reads from the other: ${r.rps.toFixed(1)} req/s, p95 ${r.p95.toFixed(0)} ms, errors ${r.errors}; together ${(w.rps + r.rps).toFixed(1)} req/s (${durationS} s)`,
   ];
@@ -52,6 +81,10 @@ export async function compareServers(a: AppServer, b: AppServer, codes: DemoCode
   }
   const resend = await resendAcross(a, b, writer, codes);
   if (resend !== null) problems.push(resend);
-  lines.push(problems.length === 0 ? "after the run: every JSON answer and its ETag the same from both processes; a session and an idempotency key honoured across them" : `MISMATCH: ${problems.join("; ")}`);
+  lines.push(
+    problems.length === 0
+      ? "after the run: every JSON answer and its ETag the same from both processes; a session and an idempotency key honoured across them"
+      : `MISMATCH: ${problems.join("; ")}`,
+  );
   return lines;
 }

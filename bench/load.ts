@@ -11,14 +11,23 @@ import os from "node:os";
 import { randomUUID } from "node:crypto";
 import { openDb } from "@/lib/database/connect";
 import { AppServer, createDemoDatabase, findFreePort, requireBuild } from "@/bench/load-server";
-import { countOverdraws, floorMix, readDemoCodes, readMix, READER_LOGIN, WRITER_LOGIN, writeMix } from "@/bench/load-mix";
+import {
+  countOverdraws,
+  floorMix,
+  readDemoCodes,
+  readMix,
+  READER_LOGIN,
+  WRITER_LOGIN,
+  writeMix,
+} from "@/bench/load-mix";
 import type { DemoCodes, MixRequest } from "@/bench/load-mix";
 import { compareServers } from "@/bench/load-two";
 import { fetchOnce, measure, pct, signIn } from "@/bench/load-measure";
 import type { RunResult } from "@/bench/load-measure";
 import { printTable } from "@/bench/measure";
 
-const arg = (name: string, fallback: string) => process.argv.find((a) => a.startsWith(`--${name}=`))?.slice(name.length + 3) ?? fallback;
+const arg = (name: string, fallback: string) =>
+  process.argv.find((a) => a.startsWith(`--${name}=`))?.slice(name.length + 3) ?? fallback;
 const DURATION_S = Number(arg("duration", "10"));
 const CONNECTIONS = arg("connections", "1,10,50").split(",").map(Number);
 const DAYS = Number(arg("days", "182"));
@@ -34,20 +43,44 @@ const GOALS = { mixToFloor: 0.5, readP95Ms: 300, writeP95Ms: 500 } as const;
  * Where the bookings draw from: a tank of the run's own (so the demo's tanks never fill) receives 1 kg
  * at a time from the demo's feedstock tanks and lots that accept a trial move (each trial is a booking).
  */
-async function findTransfers(base: string, cookie: string, stocked: ReadonlyArray<{ kind: "TANK" | "LOT"; code: string }>, port: number): Promise<DemoCodes["transfers"]> {
+async function findTransfers(
+  base: string,
+  cookie: string,
+  stocked: ReadonlyArray<{ kind: "TANK" | "LOT"; code: string }>,
+  port: number,
+): Promise<DemoCodes["transfers"]> {
   const post = (path: string, body: unknown) =>
-    fetchOnce(`${base}${path}`, { method: "POST", headers: { "content-type": "application/json", origin: base, cookie, "idempotency-key": randomUUID() }, body: JSON.stringify(body) });
+    fetchOnce(`${base}${path}`, {
+      method: "POST",
+      headers: { "content-type": "application/json", origin: base, cookie, "idempotency-key": randomUUID() },
+      body: JSON.stringify(body),
+    });
   const sink = `LOAD-${port}`;
-  const made = await post("/api/tanks", { code: sink, name: "Load run receiving tank", service: "FEEDSTOCK", capacityL: 1_000_000 });
+  const made = await post("/api/tanks", {
+    code: sink,
+    name: "Load run receiving tank",
+    service: "FEEDSTOCK",
+    capacityL: 1_000_000,
+  });
   if (!made.ok) throw new Error(`the load run's tank was refused: ${made.status} ${await made.text()}`);
   const found: DemoCodes["transfers"] = [];
   const refusals: string[] = [];
   for (const from of stocked) {
-    const r = await post("/api/transfers", { fromCode: from.code, fromKind: from.kind, toTankCode: sink, at: new Date(Date.now() - 120_000).toISOString(), massKg: 1, note: "load run: trial" });
+    const r = await post("/api/transfers", {
+      fromCode: from.code,
+      fromKind: from.kind,
+      toTankCode: sink,
+      at: new Date(Date.now() - 120_000).toISOString(),
+      massKg: 1,
+      note: "load run: trial",
+    });
     if (r.ok) found.push({ fromKind: from.kind, fromCode: from.code, toTankCode: sink });
     else refusals.push(`${from.kind} ${from.code}: ${r.status} ${(await r.text()).slice(0, 160)}`);
   }
-  if (found.length === 0) throw new Error(`nothing could be moved into the load run's tank, so the write mix cannot run:\n${refusals.join("\n")}`);
+  if (found.length === 0)
+    throw new Error(
+      `nothing could be moved into the load run's tank, so the write mix cannot run:\n${refusals.join("\n")}`,
+    );
   return found;
 }
 
@@ -55,9 +88,22 @@ const f0 = (n: number) => (Number.isFinite(n) ? n.toFixed(0) : "–");
 const f1 = (n: number) => (Number.isFinite(n) ? n.toFixed(1) : "–");
 
 function printRun(r: RunResult): void {
-  console.log(`\n-- ${r.section}, ${r.connections} connection${r.connections === 1 ? "" : "s"}: ${f1(r.rps)} req/s, p50 ${f0(r.p50)} ms, p95 ${f0(r.p95)} ms, p99 ${f0(r.p99)} ms, errors ${r.errors}${r.refused ? `, refused bookings ${r.refused}` : ""}, server peak RSS ${f0(r.peakMb)} MB`);
+  console.log(
+    `\n-- ${r.section}, ${r.connections} connection${r.connections === 1 ? "" : "s"}: ${f1(r.rps)} req/s, p50 ${f0(r.p50)} ms, p95 ${f0(r.p95)} ms, p99 ${f0(r.p99)} ms, errors ${r.errors}${r.refused ? `, refused bookings ${r.refused}` : ""}, server peak RSS ${f0(r.peakMb)} MB`,
+  );
   printTable(
-    [["route", "requests", "req/s", "p50 ms", "p95 ms", "p99 ms", "errors"], ...[...r.routes].map(([route, s]) => [route, String(s.count), f1(s.count / r.durationS), f0(pct(s.latencies, 50)), f0(pct(s.latencies, 95)), f0(pct(s.latencies, 99)), String(s.errors)])],
+    [
+      ["route", "requests", "req/s", "p50 ms", "p95 ms", "p99 ms", "errors"],
+      ...[...r.routes].map(([route, s]) => [
+        route,
+        String(s.count),
+        f1(s.count / r.durationS),
+        f0(pct(s.latencies, 50)),
+        f0(pct(s.latencies, 95)),
+        f0(pct(s.latencies, 99)),
+        String(s.errors),
+      ]),
+    ],
     [false, true, true, true, true, true, true],
   );
 }
@@ -73,19 +119,33 @@ interface DatabaseSummary {
 async function measureDatabase(kind: "sqlite" | "postgresql", taken: Set<number>): Promise<DatabaseSummary> {
   const port = await findFreePort(PORTS.from, PORTS.to, taken);
   taken.add(port);
-  console.log(`\n==== ${kind === "sqlite" ? "SQLite" : "PostgreSQL"}: fresh demo database (${DAYS} days), next start on port ${port} ====`);
+  console.log(
+    `\n==== ${kind === "sqlite" ? "SQLite" : "PostgreSQL"}: fresh demo database (${DAYS} days), next start on port ${port} ====`,
+  );
   const { database, seedMs, dropTemplate } = await createDemoDatabase(kind, String(port), DAYS);
-  console.log(seedMs > 0 ? `  demo loaded into a template in ${(seedMs / 1000).toFixed(1)} s; this run uses a copy` : "  a copy of the demo template loaded earlier today");
+  console.log(
+    seedMs > 0
+      ? `  demo loaded into a template in ${(seedMs / 1000).toFixed(1)} s; this run uses a copy`
+      : "  a copy of the demo template loaded earlier today",
+  );
   const servers: AppServer[] = [];
   try {
     const server = await AppServer.start(database.url, port);
     servers.push(server);
-    const cookies = { reader: await signIn(server.base, READER_LOGIN), writer: await signIn(server.base, WRITER_LOGIN) };
+    const cookies = {
+      reader: await signIn(server.base, READER_LOGIN),
+      writer: await signIn(server.base, WRITER_LOGIN),
+    };
     const db = await openDb(database.url);
     const found = await readDemoCodes(db);
-    const codes: DemoCodes = { ...found, transfers: await findTransfers(server.base, cookies.writer, found.stocked, port) };
+    const codes: DemoCodes = {
+      ...found,
+      transfers: await findTransfers(server.base, cookies.writer, found.stocked, port),
+    };
     const before = await countOverdraws(db);
-    console.log(`  asking about shipment ${codes.shipment}, lot ${codes.lot}; pickups from ${codes.source}; 1 kg moves from ${codes.transfers.map((x) => x.fromCode).join(", ")}`);
+    console.log(
+      `  asking about shipment ${codes.shipment}, lot ${codes.lot}; pickups from ${codes.source}; 1 kg moves from ${codes.transfers.map((x) => x.fromCode).join(", ")}`,
+    );
     const reads = readMix(codes);
     const sections: Array<[string, MixRequest[]]> = [
       ["floor", floorMix(reads)],
@@ -112,8 +172,19 @@ async function measureDatabase(kind: "sqlite" | "postgresql", taken: Set<number>
       two.push(...(await compareServers(server, second, codes, DURATION_S)));
     }
     await db.$disconnect();
-    const fmt = (o: { negative: number; mismatched: number }) => `${o.negative} below zero, ${o.mismatched} not equal to their movements`;
-    return { kind, runs, seedMs, overdraws: { before: fmt(before), after: fmt(after), new: after.negative - before.negative + (after.mismatched - before.mismatched) }, two };
+    const fmt = (o: { negative: number; mismatched: number }) =>
+      `${o.negative} below zero, ${o.mismatched} not equal to their movements`;
+    return {
+      kind,
+      runs,
+      seedMs,
+      overdraws: {
+        before: fmt(before),
+        after: fmt(after),
+        new: after.negative - before.negative + (after.mismatched - before.mismatched),
+      },
+      two,
+    };
   } finally {
     for (const s of servers) await s.stop();
     await database.drop();
@@ -124,7 +195,22 @@ async function measureDatabase(kind: "sqlite" | "postgresql", taken: Set<number>
 
 function summarise(all: DatabaseSummary[]): void {
   console.log("\n==== Summary ====");
-  const rows: string[][] = [["database", "connections", "floor req/s", "mix req/s", "mix ÷ floor", "mix p95 ms", "mix errors", "10 % writes req/s", "writes p95 ms", "writes errors", "refused bookings", "peak RSS MB"]];
+  const rows: string[][] = [
+    [
+      "database",
+      "connections",
+      "floor req/s",
+      "mix req/s",
+      "mix ÷ floor",
+      "mix p95 ms",
+      "mix errors",
+      "10 % writes req/s",
+      "writes p95 ms",
+      "writes errors",
+      "refused bookings",
+      "peak RSS MB",
+    ],
+  ];
   const goals: string[][] = [["goal", "database", "measured", "verdict"]];
   for (const d of all) {
     for (const c of CONNECTIONS) {
@@ -133,13 +219,41 @@ function summarise(all: DatabaseSummary[]): void {
       const mix = get("read mix");
       const writes = get("10 % writes");
       if (!floor || !mix || !writes) continue;
-      rows.push([d.kind, String(c), f1(floor.rps), f1(mix.rps), (mix.rps / floor.rps).toFixed(2), f0(mix.p95), String(mix.errors), f1(writes.rps), f0(writes.p95), String(writes.errors), String(writes.refused), f0(Math.max(floor.peakMb, mix.peakMb, writes.peakMb))]);
+      rows.push([
+        d.kind,
+        String(c),
+        f1(floor.rps),
+        f1(mix.rps),
+        (mix.rps / floor.rps).toFixed(2),
+        f0(mix.p95),
+        String(mix.errors),
+        f1(writes.rps),
+        f0(writes.p95),
+        String(writes.errors),
+        String(writes.refused),
+        f0(Math.max(floor.peakMb, mix.peakMb, writes.peakMb)),
+      ]);
       if (c === Math.max(...CONNECTIONS)) {
         const v = (ok: boolean) => (ok ? "PASS" : "MISS");
-        goals.push([`read mix ≥ ${GOALS.mixToFloor} of the floor at ${c}`, d.kind, (mix.rps / floor.rps).toFixed(2), v(mix.rps / floor.rps >= GOALS.mixToFloor)]);
-        goals.push([`read mix p95 ≤ ${GOALS.readP95Ms} ms at ${c}`, d.kind, `${f0(mix.p95)} ms`, v(mix.p95 <= GOALS.readP95Ms)]);
+        goals.push([
+          `read mix ≥ ${GOALS.mixToFloor} of the floor at ${c}`,
+          d.kind,
+          (mix.rps / floor.rps).toFixed(2),
+          v(mix.rps / floor.rps >= GOALS.mixToFloor),
+        ]);
+        goals.push([
+          `read mix p95 ≤ ${GOALS.readP95Ms} ms at ${c}`,
+          d.kind,
+          `${f0(mix.p95)} ms`,
+          v(mix.p95 <= GOALS.readP95Ms),
+        ]);
         goals.push(["read mix 0 errors", d.kind, String(mix.errors), v(mix.errors === 0)]);
-        goals.push([`10 % writes p95 ≤ ${GOALS.writeP95Ms} ms at ${c}`, d.kind, `${f0(writes.p95)} ms`, v(writes.p95 <= GOALS.writeP95Ms)]);
+        goals.push([
+          `10 % writes p95 ≤ ${GOALS.writeP95Ms} ms at ${c}`,
+          d.kind,
+          `${f0(writes.p95)} ms`,
+          v(writes.p95 <= GOALS.writeP95Ms),
+        ]);
         goals.push(["0 over-draws after the write runs", d.kind, String(d.overdraws.new), v(d.overdraws.new === 0)]);
       }
     }
@@ -154,8 +268,17 @@ function summarise(all: DatabaseSummary[]): void {
       for (const c of CONNECTIONS) {
         const a = sqlite.runs.find((r) => r.section === section && r.connections === c);
         const b = pgs.runs.find((r) => r.section === section && r.connections === c);
-        if (a && b) console.log(`  PostgreSQL/SQLite, ${section} at ${c}: p95 ${(b.p95 / a.p95).toFixed(2)}×, throughput ${(b.rps / a.rps).toFixed(2)}×`);
-        if (a && b && section === "read mix" && c === Math.max(...CONNECTIONS)) goals.push(["PostgreSQL p95 ≤ 2× SQLite (read mix)", "both", `${(b.p95 / a.p95).toFixed(2)}×`, b.p95 <= 2 * a.p95 ? "PASS" : "MISS"]);
+        if (a && b)
+          console.log(
+            `  PostgreSQL/SQLite, ${section} at ${c}: p95 ${(b.p95 / a.p95).toFixed(2)}×, throughput ${(b.rps / a.rps).toFixed(2)}×`,
+          );
+        if (a && b && section === "read mix" && c === Math.max(...CONNECTIONS))
+          goals.push([
+            "PostgreSQL p95 ≤ 2× SQLite (read mix)",
+            "both",
+            `${(b.p95 / a.p95).toFixed(2)}×`,
+            b.p95 <= 2 * a.p95 ? "PASS" : "MISS",
+          ]);
       }
     }
   }
@@ -164,12 +287,24 @@ function summarise(all: DatabaseSummary[]): void {
 
 requireBuild();
 console.log("Tracevat load run");
-console.log(`  node ${process.version}, ${os.cpus().length} cores (${os.cpus()[0]?.model ?? "unknown CPU"}), load average ${os.loadavg().map((l) => l.toFixed(1)).join(" ")}`);
-console.log(`  ${DURATION_S} s per run at ${CONNECTIONS.join(", ")} connections; the load generator shares the machine with the server, so figures are a lower bound.`);
+console.log(
+  `  node ${process.version}, ${os.cpus().length} cores (${os.cpus()[0]?.model ?? "unknown CPU"}), load average ${os
+    .loadavg()
+    .map((l) => l.toFixed(1))
+    .join(" ")}`,
+);
+console.log(
+  `  ${DURATION_S} s per run at ${CONNECTIONS.join(", ")} connections; the load generator shares the machine with the server, so figures are a lower bound.`,
+);
 const taken = new Set<number>();
 const summaries: DatabaseSummary[] = [];
 if (WANT_SQLITE) summaries.push(await measureDatabase("sqlite", taken));
 if (WANT_PG) summaries.push(await measureDatabase("postgresql", taken));
 summarise(summaries);
-console.log(`  load average at the end ${os.loadavg().map((l) => l.toFixed(1)).join(" ")}`);
+console.log(
+  `  load average at the end ${os
+    .loadavg()
+    .map((l) => l.toFixed(1))
+    .join(" ")}`,
+);
 process.exit(0);

@@ -29,7 +29,10 @@ function summarise(samples: number[], reducedFrom: number | null): Timing {
   const sorted = [...samples].sort((a, b) => a - b);
   return {
     runs: sorted.length,
-    medianMs: sorted.length % 2 === 1 ? (sorted[(sorted.length - 1) / 2] ?? Number.NaN) : ((sorted[sorted.length / 2 - 1] ?? 0) + (sorted[sorted.length / 2] ?? 0)) / 2,
+    medianMs:
+      sorted.length % 2 === 1
+        ? (sorted[(sorted.length - 1) / 2] ?? Number.NaN)
+        : ((sorted[sorted.length / 2 - 1] ?? 0) + (sorted[sorted.length / 2] ?? 0)) / 2,
     p95Ms: getPercentile(sorted, 95),
     minMs: sorted[0] ?? Number.NaN,
     maxMs: sorted[sorted.length - 1] ?? Number.NaN,
@@ -115,7 +118,11 @@ export function printTable(rows: readonly (readonly string[])[], numeric: readon
   const widths: number[] = [];
   for (const row of rows) row.forEach((cell, i) => (widths[i] = Math.max(widths[i] ?? 0, cell.length)));
   const line = (row: readonly string[]) =>
-    "  " + row.map((cell, i) => (numeric[i] === true ? cell.padStart(widths[i] ?? 0) : cell.padEnd(widths[i] ?? 0))).join("  ").trimEnd();
+    "  " +
+    row
+      .map((cell, i) => (numeric[i] === true ? cell.padStart(widths[i] ?? 0) : cell.padEnd(widths[i] ?? 0)))
+      .join("  ")
+      .trimEnd();
   const [header, ...body] = rows;
   if (header === undefined) return;
   console.log(line(header));

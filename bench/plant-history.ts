@@ -7,7 +7,13 @@
 // tank's mixture then depends on its whole history.
 import type { HolderKind, MixingModel, MoveRole } from "@/lib/ledger/kinds";
 import { convertCredit, RULESET_EU_2022_996 } from "@/lib/custody/custody-balance";
-import type { CharacteristicSet, ClaimBooking, ConversionStep, CustodyBooking, CustodyState } from "@/lib/custody/custody-balance";
+import type {
+  CharacteristicSet,
+  ClaimBooking,
+  ConversionStep,
+  CustodyBooking,
+  CustodyState,
+} from "@/lib/custody/custody-balance";
 import { createRandom } from "@/bench/seeded-random";
 
 export const DAY_MS = 86_400_000;
@@ -120,15 +126,36 @@ const SET_UCO = "SCHEME-A|CERT-A-0117|USED_COOKING_OIL";
 const SET_CROP = "SCHEME-B|CERT-B-0042|CROP";
 
 const CUSTODY_SETS: CharacteristicSet[] = [
-  { key: SET_UCO, attributes: { scheme: "Scheme A (synthetic)", certificate: "CERT-A-0117", material: "USED_COOKING_OIL" } },
-  { key: SET_CROP, attributes: { scheme: "Scheme B (synthetic)", certificate: "CERT-B-0042", material: "SOYBEAN, CANOLA" } },
+  {
+    key: SET_UCO,
+    attributes: { scheme: "Scheme A (synthetic)", certificate: "CERT-A-0117", material: "USED_COOKING_OIL" },
+  },
+  {
+    key: SET_CROP,
+    attributes: { scheme: "Scheme B (synthetic)", certificate: "CERT-B-0042", material: "SOYBEAN, CANOLA" },
+  },
 ];
 
 // Measured-yield style factors for the synthetic custody ledger only (benchmark data, no source needed).
 const CUSTODY_STEPS: ConversionStep[] = [
-  { id: "UCO_TO_FAME", inputMaterial: "USED_COOKING_OIL", outputs: [{ material: "FAME", outputMassG: 965, inputMassG: 1000 }], basis: "synthetic" },
-  { id: "SOYBEAN_TO_FAME", inputMaterial: "SOYBEAN", outputs: [{ material: "FAME", outputMassG: 970, inputMassG: 1000 }], basis: "synthetic" },
-  { id: "CANOLA_TO_FAME", inputMaterial: "CANOLA", outputs: [{ material: "FAME", outputMassG: 970, inputMassG: 1000 }], basis: "synthetic" },
+  {
+    id: "UCO_TO_FAME",
+    inputMaterial: "USED_COOKING_OIL",
+    outputs: [{ material: "FAME", outputMassG: 965, inputMassG: 1000 }],
+    basis: "synthetic",
+  },
+  {
+    id: "SOYBEAN_TO_FAME",
+    inputMaterial: "SOYBEAN",
+    outputs: [{ material: "FAME", outputMassG: 970, inputMassG: 1000 }],
+    basis: "synthetic",
+  },
+  {
+    id: "CANOLA_TO_FAME",
+    inputMaterial: "CANOLA",
+    outputs: [{ material: "FAME", outputMassG: 970, inputMassG: 1000 }],
+    basis: "synthetic",
+  },
 ];
 
 export function generatePlantHistory(options: PlantOptions): PlantHistory {
@@ -145,12 +172,35 @@ export function generatePlantHistory(options: PlantOptions): PlantHistory {
   const stock: number[] = [0];
   const bookings: CustodyBooking[] = [];
   const credit = new Map<string, number>();
-  const counts = { pickups: 0, lots: 0, deliveryLots: 0, certifiedLots: 0, batches: 0, productLots: 0, shipments: 0, reagentLots: 0, wasteContainers: 0, disposals: 0 };
+  const counts = {
+    pickups: 0,
+    lots: 0,
+    deliveryLots: 0,
+    certifiedLots: 0,
+    batches: 0,
+    productLots: 0,
+    shipments: 0,
+    reagentLots: 0,
+    wasteContainers: 0,
+    disposals: 0,
+  };
   let lastAt = Number.NEGATIVE_INFINITY;
 
-  const addHolder = (kind: HolderKind, code: string, extra: { mixing?: MixingModel; materialKind?: string | null } = {}): number => {
+  const addHolder = (
+    kind: HolderKind,
+    code: string,
+    extra: { mixing?: MixingModel; materialKind?: string | null } = {},
+  ): number => {
     const id = holders.length + 1;
-    holders.push({ id, siteId, kind, code, mixing: extra.mixing ?? "MIXED", materialKind: extra.materialKind ?? null, completedAt: null });
+    holders.push({
+      id,
+      siteId,
+      kind,
+      code,
+      mixing: extra.mixing ?? "MIXED",
+      materialKind: extra.materialKind ?? null,
+      completedAt: null,
+    });
     stock[id] = 0;
     return id;
   };
@@ -172,18 +222,28 @@ export function generatePlantHistory(options: PlantOptions): PlantHistory {
   const grams = (kg: number): number => Math.round(kg * KG);
   const creditKey = (set: string, material: string) => `${set}|${material}`;
   const creditOf = (set: string, material: string): number => credit.get(creditKey(set, material)) ?? 0;
-  const addCredit = (set: string, material: string, g: number) => credit.set(creditKey(set, material), creditOf(set, material) + g);
+  const addCredit = (set: string, material: string, g: number) =>
+    credit.set(creditKey(set, material), creditOf(set, material) + g);
 
   // ---- fixed equipment ----------------------------------------------------------------------
   const lossHolder = addHolder("LOSS", "LOSS");
-  interface TankDef { code: string; holderId: number; capacityG: number; heelG: number }
+  interface TankDef {
+    code: string;
+    holderId: number;
+    capacityG: number;
+    heelG: number;
+  }
   const tank = (code: string, capacityT: number, heelFraction: number, materialKind: string): TankDef => ({
     code,
     holderId: addHolder("TANK", code, { materialKind }),
     capacityG: capacityT * TONNE,
     heelG: Math.round(capacityT * TONNE * heelFraction),
   });
-  const feedTanks = [tank("T1", 80, 0.08, "USED_COOKING_OIL"), tank("T2", 60, 0.08, "YELLOW_GREASE"), tank("T3", 60, 0.08, "TALLOW")];
+  const feedTanks = [
+    tank("T1", 80, 0.08, "USED_COOKING_OIL"),
+    tank("T2", 60, 0.08, "YELLOW_GREASE"),
+    tank("T3", 60, 0.08, "TALLOW"),
+  ];
   const productTanks = [tank("P1", 120, 0.04, "FAME"), tank("P2", 120, 0.04, "FAME")];
   const methanolTank = tank("M1", 20, 0.015, "METHANOL");
   const tankByCode = new Map([...feedTanks, ...productTanks, methanolTank].map((t) => [t.code, t]));
@@ -194,9 +254,21 @@ export function generatePlantHistory(options: PlantOptions): PlantHistory {
   };
 
   // ---- sources --------------------------------------------------------------------------------
-  interface PickupSource { code: string; material: "USED_COOKING_OIL" | "TRAP_GREASE"; certified: boolean }
-  const restaurants: PickupSource[] = Array.from({ length: 110 }, (_, i) => ({ code: `R${i + 1}`, material: "USED_COOKING_OIL", certified: i % 3 !== 2 }));
-  const trapSources: PickupSource[] = Array.from({ length: 14 }, (_, i) => ({ code: `G${i + 1}`, material: "TRAP_GREASE", certified: false }));
+  interface PickupSource {
+    code: string;
+    material: "USED_COOKING_OIL" | "TRAP_GREASE";
+    certified: boolean;
+  }
+  const restaurants: PickupSource[] = Array.from({ length: 110 }, (_, i) => ({
+    code: `R${i + 1}`,
+    material: "USED_COOKING_OIL",
+    certified: i % 3 !== 2,
+  }));
+  const trapSources: PickupSource[] = Array.from({ length: 14 }, (_, i) => ({
+    code: `G${i + 1}`,
+    material: "TRAP_GREASE",
+    certified: false,
+  }));
   const deliverySuppliers = [
     { code: "D1", material: "YELLOW_GREASE", tank: "T2", certified: false },
     { code: "D2", material: "YELLOW_GREASE", tank: "T2", certified: false },
@@ -213,7 +285,8 @@ export function generatePlantHistory(options: PlantOptions): PlantHistory {
     H2SO4: { lotKg: 1_000, reorderBelowKg: 150 },
     WATER: { lotKg: 60_000, reorderBelowKg: 5_000 },
   };
-  const reagentStock = (reagent: ReagentKind) => reagentLots.filter((l) => l.reagent === reagent).reduce((s, l) => s + stockOf(l.holderId), 0);
+  const reagentStock = (reagent: ReagentKind) =>
+    reagentLots.filter((l) => l.reagent === reagent).reduce((s, l) => s + stockOf(l.holderId), 0);
   const receiveReagent = (reagent: ReagentKind, at: number) => {
     counts.reagentLots++;
     const holderId = addHolder("REAGENT_LOT", `${reagent}-${counts.reagentLots}`, { materialKind: reagent });
@@ -241,7 +314,11 @@ export function generatePlantHistory(options: PlantOptions): PlantHistory {
   // ---- waste ----------------------------------------------------------------------------------
   const openContainer = (stream: "GLYCEROL_PHASE" | "WASH_WATER"): Container => {
     counts.wasteContainers++;
-    const holderId = addHolder("WASTE_CONTAINER", `${stream === "GLYCEROL_PHASE" ? "GLY" : "WW"}-${counts.wasteContainers}`, { materialKind: stream });
+    const holderId = addHolder(
+      "WASTE_CONTAINER",
+      `${stream === "GLYCEROL_PHASE" ? "GLY" : "WW"}-${counts.wasteContainers}`,
+      { materialKind: stream },
+    );
     return { holderId, capacityG: stream === "GLYCEROL_PHASE" ? 100 * TONNE : 40 * TONNE };
   };
   const haul = (box: Container, at: number) => {
@@ -290,7 +367,7 @@ export function generatePlantHistory(options: PlantOptions): PlantHistory {
     }
 
     // 10:30 accepted lots into their tanks (a lot waits in its totes while the tank is too full)
-    for (let i = 0; i < waitingLots.length; ) {
+    for (let i = 0; i < waitingLots.length;) {
       const lot = waitingLots[i];
       if (lot === undefined) break;
       const t = requireTank(lot.tank);
@@ -320,11 +397,13 @@ export function generatePlantHistory(options: PlantOptions): PlantHistory {
     }
 
     // 11:30 released product lots into the product tanks
-    for (let i = 0; i < waitingProducts.length; ) {
+    for (let i = 0; i < waitingProducts.length;) {
       const p = waitingProducts[i];
       if (p === undefined) break;
       const g = stockOf(p.holderId);
-      const dest = productTanks.filter((t) => stockOf(t.holderId) + g <= t.capacityG).sort((a, b) => stockOf(a.holderId) - stockOf(b.holderId))[0];
+      const dest = productTanks
+        .filter((t) => stockOf(t.holderId) + g <= t.capacityG)
+        .sort((a, b) => stockOf(a.holderId) - stockOf(b.holderId))[0];
       if (p.readyDay <= day && dest !== undefined) {
         move(at(11, 30), p.holderId, dest.holderId, g, "TRANSFER");
         waitingProducts.splice(i, 1);
@@ -359,7 +438,8 @@ export function generatePlantHistory(options: PlantOptions): PlantHistory {
       } else if (source.code === "T3") {
         const material = creditOf(SET_CROP, "SOYBEAN") >= creditOf(SET_CROP, "CANOLA") ? "SOYBEAN" : "CANOLA";
         const inputG = Math.min(Math.floor(oilG * 0.5), creditOf(SET_CROP, material));
-        if (inputG >= KG) convert(SET_CROP, material, material === "SOYBEAN" ? "SOYBEAN_TO_FAME" : "CANOLA_TO_FAME", inputG, startAt);
+        if (inputG >= KG)
+          convert(SET_CROP, material, material === "SOYBEAN" ? "SOYBEAN_TO_FAME" : "CANOLA_TO_FAME", inputG, startAt);
       }
 
       const doneAt = at(startHour + 2);
@@ -422,7 +502,7 @@ export function generatePlantHistory(options: PlantOptions): PlantHistory {
       else group.push(p);
     }
     for (const group of groups.values()) {
-      for (let i = 0; i < group.length; ) {
+      for (let i = 0; i < group.length;) {
         const size = rand.integer(3, 5);
         const members = group.slice(i, i + size);
         i += size;
@@ -464,7 +544,9 @@ export function generatePlantHistory(options: PlantOptions): PlantHistory {
   }
 
   if (lateProduct === null || earlyLot === null || lastShipment === null) {
-    throw new Error(`generator: ${options.years} years are too short for the probes (product lot, early lot, shipment)`);
+    throw new Error(
+      `generator: ${options.years} years are too short for the probes (product lot, early lot, shipment)`,
+    );
   }
   const claimSet = creditOf(SET_UCO, "FAME") >= creditOf(SET_CROP, "FAME") ? SET_UCO : SET_CROP;
   const extraClaim: ClaimBooking = {

@@ -25,7 +25,9 @@ test("an administrator adds an account, and disabling it ends its session at onc
   await expect(page.getByRole("status").filter({ hasText: "Account collector.wen created" })).toBeVisible();
 
   const wen = await playwrightRequest.newContext({ baseURL });
-  expect((await wen.post("/api/session", { data: { login: "collector.wen", password: "kerbside pickups daily" } })).status()).toBe(200);
+  expect(
+    (await wen.post("/api/session", { data: { login: "collector.wen", password: "kerbside pickups daily" } })).status(),
+  ).toBe(200);
   // Signed in: the server knows the session (a collector is refused tank stock by the read matrix, not asked to sign in).
   expect((await wen.get("/api/holders/TANK/T1")).status()).toBe(403);
 
@@ -43,7 +45,9 @@ test("an administrator adds an account, and disabling it ends its session at onc
   await expect(change.getByRole("status")).toContainText("session");
 
   expect((await wen.get("/api/holders/TANK/T1")).status()).toBe(401);
-  expect((await wen.post("/api/session", { data: { login: "collector.wen", password: "kerbside pickups daily" } })).status()).not.toBe(200);
+  expect(
+    (await wen.post("/api/session", { data: { login: "collector.wen", password: "kerbside pickups daily" } })).status(),
+  ).not.toBe(200);
 
   // The account's history shows both events with the reason.
   await page.reload();
@@ -84,7 +88,10 @@ test("anyone sets their own units; another person's account history stays privat
 });
 
 // OWASP ASVS 5.0 V6.4.2 style: a password set by someone else is used once, then replaced by its owner.
-test("a colleague signs in with the password the administrator gave and must choose their own first", async ({ page, browser }) => {
+test("a colleague signs in with the password the administrator gave and must choose their own first", async ({
+  page,
+  browser,
+}) => {
   await signIn(page, "admin.jory", "/admin/users");
   const create = page.getByRole("form", { name: "New account" });
   const login = `collector.new${Date.now() % 100000}`;

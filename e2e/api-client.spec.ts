@@ -17,7 +17,9 @@ test("a client generated from the OpenAPI document signs in and reads a trace an
     },
   });
 
-  const served = (await (await fetch(`${baseURL}/api/openapi.json`)).json()) as { paths: Record<string, Record<string, { operationId?: string }>> };
+  const served = (await (await fetch(`${baseURL}/api/openapi.json`)).json()) as {
+    paths: Record<string, Record<string, { operationId?: string }>>;
+  };
   expect(served.paths["/api/epcis/trace"]?.get?.operationId).toBe("getEpcisTrace");
 
   const refused = await client.GET("/api/balance", {});
@@ -25,7 +27,10 @@ test("a client generated from the OpenAPI document signs in and reads a trace an
 
   const session = await client.POST("/api/session", { body: { login: "compliance.nell", password: "quillmoor-demo" } });
   expect(session.response.status).toBe(200);
-  cookie = session.response.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+  cookie = session.response.headers
+    .getSetCookie()
+    .map((c) => c.split(";")[0])
+    .join("; ");
   expect(cookie).toMatch(/tv_session=/);
 
   let product: { code: string; stockG: number } | null = null;
@@ -37,9 +42,15 @@ test("a client generated from the OpenAPI document signs in and reads a trace an
   }
   if (product === null) throw new Error("no product lot with stock in the demo plant");
 
-  const trace = await client.GET("/api/trace/backward", { params: { query: { kind: "PRODUCT_LOT", code: product.code } } });
+  const trace = await client.GET("/api/trace/backward", {
+    params: { query: { kind: "PRODUCT_LOT", code: product.code } },
+  });
   expect(trace.error).toBeUndefined();
-  const traced = trace.data?.value as { target: { code: string }; totalG: number; all: { byLot: Array<{ grams: number }> } };
+  const traced = trace.data?.value as {
+    target: { code: string };
+    totalG: number;
+    all: { byLot: Array<{ grams: number }> };
+  };
   expect(traced.target.code).toBe(product.code);
   expect(traced.all.byLot.reduce((s, r) => s + r.grams, 0)).toBe(traced.totalG);
 
@@ -48,12 +59,16 @@ test("a client generated from the OpenAPI document signs in and reads a trace an
   const report = balance.data?.value as { period: { label: string }; stock: { closingG: number } };
   expect(report.period.label).toMatch(/^\d{4}-\d{2}$/);
 
-  const events = await client.GET("/api/epcis/trace", { params: { query: { dir: "back", kind: "PRODUCT_LOT", code: product.code } } });
+  const events = await client.GET("/api/epcis/trace", {
+    params: { query: { dir: "back", kind: "PRODUCT_LOT", code: product.code } },
+  });
   expect(events.response.headers.get("content-type")).toContain("application/ld+json");
   const doc = EpcisDocumentSchema.parse(events.data);
   expect(doc.epcisBody.eventList.some((e) => e.type === "TransformationEvent")).toBe(true);
 
-  const unknown = await client.GET("/api/trace/backward", { params: { query: { kind: "PRODUCT_LOT", code: "NO-SUCH-LOT" } } });
+  const unknown = await client.GET("/api/trace/backward", {
+    params: { query: { kind: "PRODUCT_LOT", code: "NO-SUCH-LOT" } },
+  });
   expect(unknown.response.status).toBe(404);
   expect(unknown.error?.issues[0]?.field).toBe("code");
 });

@@ -8,7 +8,12 @@ import type { APIRequestContext } from "@playwright/test";
 // is called directly — as each role and anonymously — and must refuse exactly the roles not allowed.
 type Role = "COLLECTOR" | "PRODUCTION" | "COMPLIANCE" | "ADMIN";
 const ANY: Role[] = ["COLLECTOR", "PRODUCTION", "COMPLIANCE", "ADMIN"];
-const LOGINS: Record<Role, string> = { COLLECTOR: "collector.ivo", PRODUCTION: "production.tess", COMPLIANCE: "compliance.nell", ADMIN: "admin.jory" };
+const LOGINS: Record<Role, string> = {
+  COLLECTOR: "collector.ivo",
+  PRODUCTION: "production.tess",
+  COMPLIANCE: "compliance.nell",
+  ADMIN: "admin.jory",
+};
 
 /** Who may call each POST route. A route missing here fails the test until someone decides. "public" = no sign-in. */
 const MATRIX: Record<string, Role[] | "public"> = {
@@ -48,7 +53,9 @@ async function signedInAsEachRole(baseURL: string | undefined): Promise<Map<Role
   const asRole = new Map<Role, APIRequestContext>();
   for (const role of ANY) {
     const ctx = await playwrightRequest.newContext({ baseURL });
-    expect((await ctx.post("/api/session", { data: { login: LOGINS[role], password: "quillmoor-demo" } })).status()).toBe(200);
+    expect(
+      (await ctx.post("/api/session", { data: { login: LOGINS[role], password: "quillmoor-demo" } })).status(),
+    ).toBe(200);
     asRole.set(role, ctx);
   }
   return asRole;
@@ -59,7 +66,11 @@ function postRoutes(dir: string, base = ""): string[] {
   for (const e of readdirSync(dir, { withFileTypes: true })) {
     const p = path.join(dir, e.name);
     if (e.isDirectory()) out.push(...postRoutes(p, `${base}/${e.name}`));
-    else if (e.name === "route.ts" && /export (async )?function POST\b|export const POST\b/.test(readFileSync(p, "utf8"))) out.push(`/api${base}`);
+    else if (
+      e.name === "route.ts" &&
+      /export (async )?function POST\b|export const POST\b/.test(readFileSync(p, "utf8"))
+    )
+      out.push(`/api${base}`);
   }
   return out;
 }
@@ -75,13 +86,15 @@ test("every data-changing route refuses anonymous callers and the roles it does 
   for (const route of routes) {
     const allowed = route.startsWith(COMPUTE_PREFIX) ? ANY : MATRIX[route];
     if (allowed === "public" || allowed === undefined) continue;
-    const call = (ctx: APIRequestContext) => ctx.post(route, { headers: { "idempotency-key": `authz-${Math.random().toString(36).slice(2, 12)}` }, data: {} });
+    const call = (ctx: APIRequestContext) =>
+      ctx.post(route, { headers: { "idempotency-key": `authz-${Math.random().toString(36).slice(2, 12)}` }, data: {} });
     const anon = (await call(anonymous)).status();
     if (anon !== 401) failures.push(`${route} anonymous → ${anon}, expected 401`);
     for (const role of ANY) {
       const status = (await call(asRole.get(role)!)).status();
       const ok = allowed.includes(role);
-      if (ok && (status === 401 || status === 403)) failures.push(`${route} as ${role} → ${status}, expected to be let through`);
+      if (ok && (status === 401 || status === 403))
+        failures.push(`${route} as ${role} → ${status}, expected to be let through`);
       if (!ok && status !== 403) failures.push(`${route} as ${role} → ${status}, expected 403`);
       if (status >= 500) failures.push(`${route} as ${role} → ${status}`);
     }
@@ -134,7 +147,11 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   holdRecalledAction: ["COMPLIANCE"],
 };
 
-interface ActionEntry { id: string; name: string; page: string }
+interface ActionEntry {
+  id: string;
+  name: string;
+  page: string;
+}
 
 /** Server actions of the production build, read from Next's server-reference manifest: id, export name, one page that serves it. */
 function builtActions(): ActionEntry[] {
@@ -159,7 +176,10 @@ test("every server action refuses anonymous callers and the roles it does not al
   expect(missing, "add these server actions to the authorisation matrix").toEqual([]);
   // Without any cookie the proxy only redirects to sign-in; a forged session cookie gets past that
   // optimistic check, so the action's own server-side check is what must refuse it.
-  const anonymous = await playwrightRequest.newContext({ baseURL, extraHTTPHeaders: { cookie: "tv_session=forged-or-expired-token" } });
+  const anonymous = await playwrightRequest.newContext({
+    baseURL,
+    extraHTTPHeaders: { cookie: "tv_session=forged-or-expired-token" },
+  });
   const asRole = await signedInAsEachRole(baseURL);
   const prev = { status: "idle", ok: false, message: null, field: null, reason: "", values: {}, errors: {}, seq: 0 };
   const call = async (ctx: APIRequestContext, a: ActionEntry) => {
@@ -183,7 +203,8 @@ test("every server action refuses anonymous callers and the roles it does not al
       const r = await call(asRole.get(role)!, a);
       const ok = allowed.includes(role);
       if (r.status >= 500) failures.push(`${a.name} as ${role} → ${r.status}`);
-      if (ok && (r.text.includes(FORBIDDEN) || r.text.includes(SIGNED_OUT))) failures.push(`${a.name} as ${role} → refused, expected to be let through`);
+      if (ok && (r.text.includes(FORBIDDEN) || r.text.includes(SIGNED_OUT)))
+        failures.push(`${a.name} as ${role} → refused, expected to be let through`);
       if (!ok && !r.text.includes(FORBIDDEN)) failures.push(`${a.name} as ${role} → ${r.status}, no role refusal`);
     }
   }

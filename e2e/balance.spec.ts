@@ -6,14 +6,18 @@ import { signIn } from "./support/sign-in";
 // tolerance); a closed month refuses new bookings — tried directly through the API as a production
 // user; reopening needs a reason, which is recorded and shown; closing again locks it again.
 
-test("a month's balance closes, a closed month refuses bookings, and reopening needs a reason", async ({ page, baseURL }) => {
+test("a month's balance closes, a closed month refuses bookings, and reopening needs a reason", async ({
+  page,
+  baseURL,
+}) => {
   await signIn(page, "compliance.nell", "/balance?period=MONTH&year=2026&month=10");
   await expect(page.getByRole("heading", { name: /Balance 2026-10/ })).toBeVisible();
   // The statement's own totals: total in equals total out + closing + unaccounted (the identity), and
   // the demo plant's books close (flag says "closes").
   const totalIn = page.getByRole("row", { name: /^Total in/ });
   const totalOut = page.getByRole("row", { name: /^Total out \+ closing \+ unaccounted/ });
-  const kgOf = async (row: typeof totalIn) => Number((await row.locator("td").last().innerText()).replace(/[^\d.]/g, ""));
+  const kgOf = async (row: typeof totalIn) =>
+    Number((await row.locator("td").last().innerText()).replace(/[^\d.]/g, ""));
   expect(await kgOf(totalIn)).toBeGreaterThan(0);
   expect(await kgOf(totalOut)).toBe(await kgOf(totalIn));
   await expect(page.getByText(/closes · 0\.000 %/).first()).toBeVisible();
@@ -21,7 +25,11 @@ test("a month's balance closes, a closed month refuses bookings, and reopening n
   // The demo plant's October is closed: a booking dated in it is refused on the server, whoever sends it.
   await expect(page.getByText(/Accounting period 2026-10-01 – 2026-10-31: closed/)).toBeVisible();
   const production = await playwrightRequest.newContext({ baseURL });
-  expect((await production.post("/api/session", { data: { login: "production.tess", password: "quillmoor-demo" } })).status()).toBe(200);
+  expect(
+    (
+      await production.post("/api/session", { data: { login: "production.tess", password: "quillmoor-demo" } })
+    ).status(),
+  ).toBe(200);
   const refused = await production.post("/api/transfers", {
     headers: { "idempotency-key": `closed-month-${Date.now()}`, origin: baseURL! },
     data: { fromKind: "TANK", fromCode: "T1", toTankCode: "T2", at: "2026-10-15T10:00:00Z", massKg: 1 },

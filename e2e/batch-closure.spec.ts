@@ -9,19 +9,36 @@ import { signIn } from "./support/sign-in";
 // 100 kg oil + 20 kg methanol → 100.455 kg ester + 10.401 kg glycerol + 9.144 kg methanol left over.
 // Ester weighed 1 % short: 99.450 kg → 1.005 kg unmeasured = 0.838 % of the 120 kg charged, above the
 // 0.5 % warn level (common practice).
-test("a batch finished with the ester 1 % short shows its unmeasured difference, flagged, on the batch and in the month", async ({ browser, baseURL }) => {
+test("a batch finished with the ester 1 % short shows its unmeasured difference, flagged, on the batch and in the month", async ({
+  browser,
+  baseURL,
+}) => {
   test.setTimeout(150_000);
   const batch = `B-CL${Date.now().toString(36).toUpperCase()}`;
   const tess = await (await browser.newContext({ baseURL })).newPage();
   const nell = await (await browser.newContext({ baseURL })).newPage();
   const consoleErrors: string[] = [];
-  for (const p of [tess, nell]) p.on("console", (m) => (m.type() === "error" ? consoleErrors.push(m.text()) : undefined));
+  for (const p of [tess, nell])
+    p.on("console", (m) => (m.type() === "error" ? consoleErrors.push(m.text()) : undefined));
 
   // Production plans and starts the batch (as the plan journey does through the screens).
   await signIn(tess, "production.tess", "/batches");
-  const post = (path: string, data: unknown) => tess.request.post(path, { headers: { "idempotency-key": `${batch}-${path.replaceAll("/", "-")}`, origin: baseURL! }, data });
+  const post = (path: string, data: unknown) =>
+    tess.request.post(path, {
+      headers: { "idempotency-key": `${batch}-${path.replaceAll("/", "-")}`, origin: baseURL! },
+      data,
+    });
   const t0 = Date.now();
-  expect((await post("/api/batches/plan", { code: batch, plannedAt: new Date(t0 - 60_000).toISOString(), targetOilKg: 100, catalyst: "KOH" })).status()).toBe(200);
+  expect(
+    (
+      await post("/api/batches/plan", {
+        code: batch,
+        plannedAt: new Date(t0 - 60_000).toISOString(),
+        targetOilKg: 100,
+        catalyst: "KOH",
+      })
+    ).status(),
+  ).toBe(200);
   const started = await post("/api/batches/start", {
     batchCode: batch,
     startedAt: new Date(t0).toISOString(),
@@ -76,7 +93,9 @@ test("a batch finished with the ester 1 % short shows its unmeasured difference,
   await form.getByRole("button", { name: "Record the correction" }).click();
   await expect(tess.getByRole("status").filter({ hasText: "unmeasured difference is now 0.000 kg" })).toBeVisible();
   await tess.reload();
-  await expect(tess.getByRole("region", { name: "Closure" }).getByTestId("batch-unmeasured")).toHaveText(/^0(\.000)? kg$/);
+  await expect(tess.getByRole("region", { name: "Closure" }).getByTestId("batch-unmeasured")).toHaveText(
+    /^0(\.000)? kg$/,
+  );
   await expect(tess.getByRole("heading", { name: "Outputs corrected" })).toBeVisible();
   expect(consoleErrors).toEqual([]);
 });

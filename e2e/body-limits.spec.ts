@@ -9,14 +9,22 @@ import type { APIRequestContext } from "@playwright/test";
 const LOGINS = ["production.tess", "compliance.nell", "admin.jory", "collector.ivo"];
 const MB = 1_000_000;
 /** Routes that read more than the 1 MB default, with their own limit (imports and pasted blocks). */
-const BULK: Record<string, number> = { "/api/pickups/import": 5 * MB, "/api/grid/save": 5 * MB, "/api/grid/import": 2 * 10 * 1024 * 1024 + MB };
+const BULK: Record<string, number> = {
+  "/api/pickups/import": 5 * MB,
+  "/api/grid/save": 5 * MB,
+  "/api/grid/import": 2 * 10 * 1024 * 1024 + MB,
+};
 
 function postRoutes(dir: string, base = ""): string[] {
   const out: string[] = [];
   for (const e of readdirSync(dir, { withFileTypes: true })) {
     const p = path.join(dir, e.name);
     if (e.isDirectory()) out.push(...postRoutes(p, `${base}/${e.name}`));
-    else if (e.name === "route.ts" && /export (async )?function POST\b|export const POST\b/.test(readFileSync(p, "utf8"))) out.push(`/api${base}`);
+    else if (
+      e.name === "route.ts" &&
+      /export (async )?function POST\b|export const POST\b/.test(readFileSync(p, "utf8"))
+    )
+      out.push(`/api${base}`);
   }
   return out;
 }
@@ -33,7 +41,9 @@ async function contexts(baseURL: string | undefined): Promise<APIRequestContext[
   return out;
 }
 
-test("every JSON write route refuses 2 MB and 10 MB bodies over its limit with 413 and the limit named", async ({ baseURL }) => {
+test("every JSON write route refuses 2 MB and 10 MB bodies over its limit with 413 and the limit named", async ({
+  baseURL,
+}) => {
   test.setTimeout(300_000);
   const routes = postRoutes(path.resolve(import.meta.dirname, "..", "app", "api")).filter((r) => !r.includes("["));
   expect(routes.length).toBeGreaterThan(15);
@@ -46,14 +56,22 @@ test("every JSON write route refuses 2 MB and 10 MB bodies over its limit with 4
       // The first role the route lets through (the body is read only after the role check).
       let answered = false;
       for (const ctx of roles) {
-        const res = await ctx.post(route, { headers: { "content-type": "application/json", origin: baseURL!, "idempotency-key": `size-${size}-${route.replace(/\W/g, "")}` }, data: jsonOf(size) });
+        const res = await ctx.post(route, {
+          headers: {
+            "content-type": "application/json",
+            origin: baseURL!,
+            "idempotency-key": `size-${size}-${route.replace(/\W/g, "")}`,
+          },
+          data: jsonOf(size),
+        });
         if (res.status() === 403) continue;
         answered = true;
         const text = await res.text();
         if (res.status() >= 500) failures.push(`${route} ${size} B → ${res.status()}`);
         else if (size > limit) {
           refused += 1;
-          if (res.status() !== 413 || !/The request is larger than \d/.test(text)) failures.push(`${route} ${size} B → ${res.status()} ${text.slice(0, 120)}`);
+          if (res.status() !== 413 || !/The request is larger than \d/.test(text))
+            failures.push(`${route} ${size} B → ${res.status()} ${text.slice(0, 120)}`);
         } else if (res.status() === 413) failures.push(`${route} ${size} B refused under its ${limit} B limit`);
         break;
       }
@@ -66,7 +84,9 @@ test("every JSON write route refuses 2 MB and 10 MB bodies over its limit with 4
 
 test("a server action posted with 2 MB or 10 MB is refused with 413 and the limit named", async ({ baseURL }) => {
   const dist = path.resolve(import.meta.dirname, "..", process.env.NEXT_DIST_DIR ?? ".next");
-  const manifest = JSON.parse(readFileSync(path.join(dist, "server", "server-reference-manifest.json"), "utf8")) as { node: Record<string, { exportedName: string; workers: Record<string, unknown> }> };
+  const manifest = JSON.parse(readFileSync(path.join(dist, "server", "server-reference-manifest.json"), "utf8")) as {
+    node: Record<string, { exportedName: string; workers: Record<string, unknown> }>;
+  };
   const actions = Object.entries(manifest.node);
   expect(actions.length).toBeGreaterThan(5);
   const [ctx] = await contexts(baseURL);
@@ -75,9 +95,13 @@ test("a server action posted with 2 MB or 10 MB is refused with 413 and the limi
     const worker = Object.keys(entry.workers).find((w) => !w.includes("_not-found")) ?? "app/page";
     const page = `/${worker.replace(/^app\//, "").replace(/\/?page$/, "")}`.replace(/\[[^\]]+\]/g, "NO-SUCH-RECORD");
     for (const size of [2 * MB, 10 * MB]) {
-      const res = await ctx!.post(page, { headers: { "next-action": id, origin: baseURL!, accept: "text/x-component" }, multipart: { "0": JSON.stringify(["$K1"]), "1_reason": "x".repeat(size) } });
+      const res = await ctx!.post(page, {
+        headers: { "next-action": id, origin: baseURL!, accept: "text/x-component" },
+        multipart: { "0": JSON.stringify(["$K1"]), "1_reason": "x".repeat(size) },
+      });
       const text = await res.text();
-      if (res.status() !== 413 || text !== "The request is larger than 1 MB") failures.push(`${entry.exportedName} ${size} B → ${res.status()} ${text.slice(0, 80)}`);
+      if (res.status() !== 413 || text !== "The request is larger than 1 MB")
+        failures.push(`${entry.exportedName} ${size} B → ${res.status()} ${text.slice(0, 80)}`);
     }
   }
   expect(failures).toEqual([]);

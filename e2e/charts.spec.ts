@@ -25,7 +25,8 @@ async function open(page: Page, login: string, path: string): Promise<void> {
 
 const picture = (page: Page, id: string): Locator => page.locator(`figure[data-picture="${id}"]`);
 // The library marks each drawn element with its series; a reference line (fill none) is not a data point.
-const drawn = (fig: Locator, series: number): Locator => fig.locator(`svg path[ecmeta_ssr_type="chart"][ecmeta_series_index="${series}"]:not([fill="none"])`);
+const drawn = (fig: Locator, series: number): Locator =>
+  fig.locator(`svg path[ecmeta_ssr_type="chart"][ecmeta_series_index="${series}"]:not([fill="none"])`);
 
 async function numbersTable(fig: Locator, caption: string): Promise<Locator> {
   await fig.getByText("The numbers behind this picture").click();
@@ -37,9 +38,12 @@ test("a tank's stock over time: book line, gauge points and capacity, with its n
   await open(page, "production.tess", "/tanks/T1");
   const fig = picture(page, "tank-stock");
   await expect(fig.getByRole("heading", { name: "Stock over time" })).toBeVisible();
-  const img = fig.getByRole("img", { name: /Tank T1: book stock .* kg now, highest .* kg against a capacity of about .* kg/ });
+  const img = fig.getByRole("img", {
+    name: /Tank T1: book stock .* kg now, highest .* kg against a capacity of about .* kg/,
+  });
   await expect(img).toBeVisible();
-  for (const name of ["Book stock", "Gauge readings", "Capacity"]) await expect(fig.locator("svg text", { hasText: name })).toHaveCount(1);
+  for (const name of ["Book stock", "Gauge readings", "Capacity"])
+    await expect(fig.locator("svg text", { hasText: name })).toHaveCount(1);
   const gauges = await numbersTable(fig, "Gauge readings");
   // One point per gauge reading in the table.
   await expect(drawn(fig, 1)).toHaveCount(await gauges.locator("tbody tr").count());
@@ -54,9 +58,16 @@ test("a tank's stock over time: book line, gauge points and capacity, with its n
 
 test("a new tank with no movements says so instead of drawing", async ({ page, baseURL }) => {
   const production = await playwrightRequest.newContext({ baseURL });
-  expect((await production.post("/api/session", { data: { login: "production.tess", password: "quillmoor-demo" } })).status()).toBe(200);
+  expect(
+    (
+      await production.post("/api/session", { data: { login: "production.tess", password: "quillmoor-demo" } })
+    ).status(),
+  ).toBe(200);
   const code = `TC-${Date.now() % 100_000}`;
-  const made = await production.post("/api/tanks", { headers: { "idempotency-key": `chart-tank-${code}`, origin: baseURL! }, data: { code, name: "Spare settling tank", service: "FEEDSTOCK", capacityL: 5000 } });
+  const made = await production.post("/api/tanks", {
+    headers: { "idempotency-key": `chart-tank-${code}`, origin: baseURL! },
+    data: { code, name: "Spare settling tank", service: "FEEDSTOCK", capacityL: 5000 },
+  });
   expect(made.status(), await made.text()).toBe(200);
   await open(page, "production.tess", `/tanks/${code}`);
   await expect(picture(page, "tank-stock").getByText(/Nothing has been moved into or out of this tank/)).toBeVisible();
@@ -66,7 +77,9 @@ test("feedstock received per week, stacked by material, on the lots page", async
   const complaints = watchPolicy(page);
   await open(page, "production.tess", "/lots");
   const fig = picture(page, "receipts-per-week");
-  const img = fig.getByRole("img", { name: /kg of feedstock received in the 12 weeks from \d{4}-\d{2}-\d{2}, \d+ % of it .*; the most in the week of/ });
+  const img = fig.getByRole("img", {
+    name: /kg of feedstock received in the 12 weeks from \d{4}-\d{2}-\d{2}, \d+ % of it .*; the most in the week of/,
+  });
   await expect(img).toBeVisible();
   const table = await numbersTable(fig, "Feedstock received per week, by material");
   await expect(table.locator("tbody tr")).toHaveCount(12);
@@ -74,7 +87,12 @@ test("feedstock received per week, stacked by material, on the lots page", async
   const materials = (await table.locator("thead th").count()) - 2;
   expect(materials).toBeGreaterThan(1);
   for (let i = 0; i < materials; i++) {
-    const name = (await table.locator("thead th").nth(i + 1).innerText()).replace(/\s*\(kg\)$/, "");
+    const name = (
+      await table
+        .locator("thead th")
+        .nth(i + 1)
+        .innerText()
+    ).replace(/\s*\(kg\)$/, "");
     await expect(fig.locator("svg text", { hasText: name })).toHaveCount(1);
     await expect(drawn(fig, i)).toHaveCount(12);
   }
@@ -91,12 +109,16 @@ test("FFA of a supplier's lots over time on its source page", async ({ page }) =
   const complaints = watchPolicy(page);
   await open(page, "compliance.nell", "/sources/D001");
   const fig = picture(page, "source-ffa");
-  const img = fig.getByRole("img", { name: /\d+ lots with material from source D001 titrated: FFA from [\d.]+ % to [\d.]+ %, [\d.]+ % weighted by mass/ });
+  const img = fig.getByRole("img", {
+    name: /\d+ lots with material from source D001 titrated: FFA from [\d.]+ % to [\d.]+ %, [\d.]+ % weighted by mass/,
+  });
   await expect(img).toBeVisible();
   const table = await numbersTable(fig, "Lots with material from this source");
   const rows = await table.locator("tbody tr").count();
   expect(rows).toBeGreaterThan(2);
-  const series = (await table.locator("tbody td:nth-child(3)").allInnerTexts()).filter((m, i, all) => all.indexOf(m) === i).length;
+  const series = (await table.locator("tbody td:nth-child(3)").allInnerTexts()).filter(
+    (m, i, all) => all.indexOf(m) === i,
+  ).length;
   let points = 0;
   for (let i = 0; i < series; i++) points += await drawn(fig, i).count();
   expect(points).toBe(rows);
@@ -115,7 +137,9 @@ test("the period's flows as a Sankey picture on the balance page, and an empty p
   const complaints = watchPolicy(page);
   await open(page, "compliance.nell", "/balance?period=MONTH&year=2026&month=10");
   const fig = picture(page, "period-flows");
-  const img = fig.getByRole("img", { name: /In 2026-10, .* kg came in from \d+ origins .*charged to batches.* was shipped and .* hauled away as waste\./ });
+  const img = fig.getByRole("img", {
+    name: /In 2026-10, .* kg came in from \d+ origins .*charged to batches.* was shipped and .* hauled away as waste\./,
+  });
   await expect(img).toBeVisible();
   const table = await numbersTable(fig, "Flows drawn, from each step to the next");
   const ends = new Set<string>();
@@ -133,6 +157,8 @@ test("the period's flows as a Sankey picture on the balance page, and an empty p
   await img.screenshot({ path: `${SHOTS}/period-flows.png` });
 
   await page.goto("/balance?period=MONTH&year=2026&month=4");
-  await expect(picture(page, "period-flows").getByText("Nothing was moved in this period, so there are no flows to draw.")).toBeVisible();
+  await expect(
+    picture(page, "period-flows").getByText("Nothing was moved in this period, so there are no flows to draw."),
+  ).toBeVisible();
   expect(complaints).toEqual([]);
 });

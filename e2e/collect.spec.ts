@@ -14,12 +14,16 @@ interface Waiting {
   pickup: { code: string; observedAt: string } & Record<string, unknown>;
 }
 
-function stored(keys: string[]): Array<{ idempotencyKey: string; observedAt: string; receivedAt: string; collector: string }> {
+function stored(
+  keys: string[],
+): Array<{ idempotencyKey: string; observedAt: string; receivedAt: string; collector: string }> {
   const db = new Database(DB, { readonly: true });
   try {
     const marks = keys.map(() => "?").join(",");
     return db
-      .prepare(`SELECT p.idempotencyKey, p.observedAt, p.receivedAt, u.login AS collector FROM Pickup p JOIN User u ON u.id = p.collectorId WHERE p.idempotencyKey IN (${marks})`)
+      .prepare(
+        `SELECT p.idempotencyKey, p.observedAt, p.receivedAt, u.login AS collector FROM Pickup p JOIN User u ON u.id = p.collectorId WHERE p.idempotencyKey IN (${marks})`,
+      )
       .all(...keys) as Array<{ idempotencyKey: string; observedAt: string; receivedAt: string; collector: string }>;
   } finally {
     db.close();
@@ -56,7 +60,9 @@ async function pickSource(page: Page, i: number, avoid = ""): Promise<void> {
   const stops = page.locator(".collect-stop:not(.picked)");
   const n = await stops.count();
   if (n > 0) return stops.nth(i % Math.min(5, n)).click();
-  const codes = (await page.locator("#collect-sources option").evaluateAll((os) => os.map((o) => (o as HTMLOptionElement).value))).filter((c) => c !== avoid);
+  const codes = (
+    await page.locator("#collect-sources option").evaluateAll((os) => os.map((o) => (o as HTMLOptionElement).value))
+  ).filter((c) => c !== avoid);
   await page.locator("#field-sourceCode").fill(codes[i % codes.length]!);
 }
 
@@ -72,7 +78,13 @@ async function enterPickup(page: Page, i: number): Promise<void> {
 const waitingCount = (page: Page) => page.locator(".collect-count");
 
 test("phone-size screenshot: 360 × 740, nothing wider than the screen", async ({ browser, baseURL }) => {
-  const context = await browser.newContext({ baseURL, viewport: { width: 360, height: 740 }, isMobile: true, hasTouch: true, deviceScaleFactor: 2 });
+  const context = await browser.newContext({
+    baseURL,
+    viewport: { width: 360, height: 740 },
+    isMobile: true,
+    hasTouch: true,
+    deviceScaleFactor: 2,
+  });
   const page = await context.newPage();
   await openCollect(page);
   await pickSource(page, 0);
@@ -88,7 +100,10 @@ test("phone-size screenshot: 360 × 740, nothing wider than the screen", async (
   await context.close();
 });
 
-test("offline: 20 pickups survive a reload and arrive exactly once with their observed times", async ({ page, context }) => {
+test("offline: 20 pickups survive a reload and arrive exactly once with their observed times", async ({
+  page,
+  context,
+}) => {
   await openCollect(page);
   await context.setOffline(true);
   await expect(page.locator(".collect-net")).toHaveText("No connection");
@@ -96,7 +111,10 @@ test("offline: 20 pickups survive a reload and arrive exactly once with their ob
   await expect(waitingCount(page)).toHaveText("20 waiting");
 
   const reload = await page.reload();
-  expect(reload?.headers()["x-tracevat-offline-copy"], "the reload was answered by the service worker's offline copy").toBe("1");
+  expect(
+    reload?.headers()["x-tracevat-offline-copy"],
+    "the reload was answered by the service worker's offline copy",
+  ).toBe("1");
   await expect(page.locator('.collect-app[data-outbox-ready="1"]')).toBeVisible();
   await expect(waitingCount(page)).toHaveText("20 waiting");
   await expect(page.locator(".collect-waiting .collect-list li")).toHaveCount(20);
@@ -141,7 +159,10 @@ test("lost answer: the server stored it, the reply never came, the retry records
   await expect(page.locator(".collect-sent li[data-record-id]")).toHaveCount(1);
 });
 
-test("session ended while offline: the phone asks to sign in again, then sends; sign-out warns first", async ({ page, context }) => {
+test("session ended while offline: the phone asks to sign in again, then sends; sign-out warns first", async ({
+  page,
+  context,
+}) => {
   await openCollect(page);
   await context.setOffline(true);
   await enterPickup(page, 0);
@@ -160,7 +181,9 @@ test("session ended while offline: the phone asks to sign in again, then sends; 
 
   // The server ends the session (idle/absolute timeout) while the phone is out of signal.
   const db = new Database(DB);
-  db.prepare("UPDATE Session SET expiresAt = '2020-01-01T00:00:00.000+00:00' WHERE revokedAt IS NULL AND userId = (SELECT id FROM User WHERE login = 'collector.ivo')").run();
+  db.prepare(
+    "UPDATE Session SET expiresAt = '2020-01-01T00:00:00.000+00:00' WHERE revokedAt IS NULL AND userId = (SELECT id FROM User WHERE login = 'collector.ivo')",
+  ).run();
   db.close();
   const waiting = await outbox(page);
 
@@ -173,7 +196,8 @@ test("session ended while offline: the phone asks to sign in again, then sends; 
   await expect(waitingCount(page)).toHaveText("All sent");
   const rows = stored(waiting.map((e) => e.key));
   expect(rows).toHaveLength(2);
-  for (const e of waiting) expect(new Date(rows.find((r) => r.idempotencyKey === e.key)!.observedAt).toISOString()).toBe(e.pickup.observedAt);
+  for (const e of waiting)
+    expect(new Date(rows.find((r) => r.idempotencyKey === e.key)!.observedAt).toISOString()).toBe(e.pickup.observedAt);
 
   // Nothing waiting now: signing out asks nothing and drops the offline copy of the signed-in page.
   let askedAgain = false;
@@ -217,7 +241,10 @@ test("two open tabs and a tab closed mid-send: every entry arrives once", async 
   expect(new Set(rows.map((r) => r.idempotencyKey)).size).toBe(8);
 });
 
-test("eight days without signal: the entry is still waiting, flagged as overdue, then sent with its own time", async ({ page, context }) => {
+test("eight days without signal: the entry is still waiting, flagged as overdue, then sent with its own time", async ({
+  page,
+  context,
+}) => {
   await openCollect(page);
   await context.setOffline(true);
   await enterPickup(page, 0);
@@ -232,10 +259,24 @@ test("eight days without signal: the entry is still waiting, flagged as overdue,
   expect(new Date(stored([entry!.key])[0]!.observedAt).toISOString()).toBe(entry!.pickup.observedAt);
 });
 
-test("a pickup the server refuses stays on the phone, marked with the field, until fixed and sent", async ({ page }) => {
+test("a pickup the server refuses stays on the phone, marked with the field, until fixed and sent", async ({
+  page,
+}) => {
   await openCollect(page);
   // The server's answer when, say, the source was closed while the phone was offline.
-  await page.route("**/api/pickups", (route) => route.fulfill({ status: 422, contentType: "application/json", body: JSON.stringify({ ok: false, issues: [{ code: "SOURCE.INACTIVE", message: "Source is no longer active", field: "sourceCode" }] }) }), { times: 1 });
+  await page.route(
+    "**/api/pickups",
+    (route) =>
+      route.fulfill({
+        status: 422,
+        contentType: "application/json",
+        body: JSON.stringify({
+          ok: false,
+          issues: [{ code: "SOURCE.INACTIVE", message: "Source is no longer active", field: "sourceCode" }],
+        }),
+      }),
+    { times: 1 },
+  );
   await enterPickup(page, 0);
   const refusedRow = page.locator('.collect-waiting li[data-state="REFUSED"]');
   await expect(refusedRow).toContainText("Refused by the server: sourceCode: Source is no longer active");
@@ -260,10 +301,15 @@ test("a phone clock two hours ahead is flagged beside the sent pickup", async ({
   await page.clock.setFixedTime(new Date(Date.now() + 2 * 3_600_000));
   await enterPickup(page, 0);
   await expect(waitingCount(page)).toHaveText("All sent");
-  await expect(page.locator(".collect-sent li[data-record-id] .skew-flag")).toContainText(/Phone time is (1 h 5\d min|2 h) ahead/);
+  await expect(page.locator(".collect-sent li[data-record-id] .skew-flag")).toContainText(
+    /Phone time is (1 h 5\d min|2 h) ahead/,
+  );
 });
 
-test("bad input is refused on the phone before saving and again on the server, naming the field", async ({ page, context }) => {
+test("bad input is refused on the phone before saving and again on the server, naming the field", async ({
+  page,
+  context,
+}) => {
   await openCollect(page);
   await page.locator("#field-sourceCode").fill("ZZ-NOPE");
   await page.getByLabel("Containers", { exact: true }).fill("2");
@@ -293,18 +339,36 @@ test("bad input is refused on the phone before saving and again on the server, n
   await page.getByRole("button", { name: "Save pickup" }).click();
   await expect(page.locator(".collect-saved")).toContainText("kept on this phone");
   const [gauged] = await outbox(page);
-  expect(gauged?.pickup).toMatchObject({ volumeL: 300, containers: 2, containerTags: ["C-1", "C-2"], notes: "gauge: 2 × 200 L at 75 %" });
+  expect(gauged?.pickup).toMatchObject({
+    volumeL: 300,
+    containers: 2,
+    containerTags: ["C-1", "C-2"],
+    notes: "gauge: 2 × 200 L at 75 %",
+  });
   await context.setOffline(false);
   await expect(waitingCount(page)).toHaveText("All sent");
 
   const key = "0f0f0f0f-0000-4000-8000-000000000001";
-  const bad = { code: "PU-BAD-1", sourceCode: "ZZ-NOPE", material: "USED_COOKING_OIL", observedAt: new Date().toISOString(), containers: 2, containerTags: ["C-1", "C-1"], volumeL: 0, tempC: 95, idempotencyKey: key };
+  const bad = {
+    code: "PU-BAD-1",
+    sourceCode: "ZZ-NOPE",
+    material: "USED_COOKING_OIL",
+    observedAt: new Date().toISOString(),
+    containers: 2,
+    containerTags: ["C-1", "C-1"],
+    volumeL: 0,
+    tempC: 95,
+    idempotencyKey: key,
+  };
   const origin = new URL(page.url()).origin;
   const r1 = await page.request.post("/api/pickups", { headers: { origin, "idempotency-key": key }, data: bad });
   expect(r1.status()).toBe(422);
   const fields1 = ((await r1.json()) as { issues: Array<{ field?: string }> }).issues.map((i) => i.field);
   expect(fields1).toEqual(expect.arrayContaining(["volumeL", "tempC", "containerTags.1"]));
-  const r2 = await page.request.post("/api/pickups", { headers: { origin, "idempotency-key": key }, data: { ...bad, containerTags: [], volumeL: 100, tempC: 20 } });
+  const r2 = await page.request.post("/api/pickups", {
+    headers: { origin, "idempotency-key": key },
+    data: { ...bad, containerTags: [], volumeL: 100, tempC: 20 },
+  });
   expect(r2.status()).toBe(404);
   expect(((await r2.json()) as { issues: Array<{ field?: string }> }).issues[0]?.field).toBe("sourceCode");
 });

@@ -3,12 +3,17 @@ import { expect, test } from "./support/test";
 
 // OWASP ASVS 5.0 V2.3.4 (limited resources cannot be double-booked): 1,000 draw attempts against one
 // tank through the running server, 50 in flight at a time; the total drawn never exceeds its stock.
-test("1,000 concurrent draws never take more than the tank holds, and each refusal says why", async ({ request }, info) => {
+test("1,000 concurrent draws never take more than the tank holds, and each refusal says why", async ({
+  request,
+}, info) => {
   test.setTimeout(300_000);
   const signIn = await request.post("/api/session", { data: { login: "production.tess", password: "quillmoor-demo" } });
   expect(signIn.status()).toBe(200);
   const sink = `LT-${info.project.name.slice(0, 2).toUpperCase()}-${Date.now() % 100000}`;
-  const made = await request.post("/api/tanks", { headers: { "idempotency-key": randomUUID() }, data: { code: sink, name: "Load test tank", service: "FEEDSTOCK", capacityL: 1_000_000 } });
+  const made = await request.post("/api/tanks", {
+    headers: { "idempotency-key": randomUUID() },
+    data: { code: sink, name: "Load test tank", service: "FEEDSTOCK", capacityL: 1_000_000 },
+  });
   expect(made.status(), await made.text()).toBe(200);
   const before = (await (await request.get("/api/holders/tank/T3")).json()) as { value: { stockG: number } };
   const stockG = before.value.stockG;
@@ -23,17 +28,28 @@ test("1,000 concurrent draws never take more than the tank holds, and each refus
       next++;
       const r = await request.post("/api/transfers", {
         headers: { "idempotency-key": randomUUID() },
-        data: { fromKind: "TANK", fromCode: "T3", toTankCode: sink, at: new Date().toISOString(), massKg: perDrawG / 1000 },
+        data: {
+          fromKind: "TANK",
+          fromCode: "T3",
+          toTankCode: sink,
+          at: new Date().toISOString(),
+          massKg: perDrawG / 1000,
+        },
       });
       statuses.push(r.status());
-      if (r.status() !== 200) refusals.push(...((await r.json()) as { issues: Array<{ code: string; message: string; field?: string }> }).issues);
+      if (r.status() !== 200)
+        refusals.push(
+          ...((await r.json()) as { issues: Array<{ code: string; message: string; field?: string }> }).issues,
+        );
     }
   }
   await Promise.all(Array.from({ length: 50 }, worker));
   const granted = statuses.filter((s) => s === 200).length;
   const after = (await (await request.get("/api/holders/tank/T3")).json()) as { value: { stockG: number } };
   const sinkStock = (await (await request.get(`/api/holders/tank/${sink}`)).json()) as { value: { stockG: number } };
-  console.log(`${info.project.name}: ${granted} granted, ${attempts - granted} refused; drew ${(granted * perDrawG) / 1000} kg of ${stockG / 1000} kg`);
+  console.log(
+    `${info.project.name}: ${granted} granted, ${attempts - granted} refused; drew ${(granted * perDrawG) / 1000} kg of ${stockG / 1000} kg`,
+  );
   expect(statuses.length).toBe(attempts);
   expect(statuses.filter((s) => s >= 500)).toEqual([]);
   expect(granted * perDrawG).toBeLessThanOrEqual(stockG);

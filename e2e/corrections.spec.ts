@@ -12,11 +12,14 @@ test("reverse a mistaken transfer and void a mistaken titration, each with a rea
   });
   expect(booked.status()).toBe(200);
   const no = String(((await booked.json()) as { value: { movementId: number } }).value.movementId);
-  const t1Before = ((await (await page.request.get("/api/holders/TANK/T1")).json()) as { value: { stockG: number } }).value.stockG;
+  const t1Before = ((await (await page.request.get("/api/holders/TANK/T1")).json()) as { value: { stockG: number } })
+    .value.stockG;
 
   // Other journeys may have booked later-dated movements (a phone clock ahead), so find the row by its number.
   await page.reload();
-  const row = page.locator("tbody tr").filter({ has: page.locator("td:first-child", { hasText: new RegExp(`^${no}$`) }) });
+  const row = page
+    .locator("tbody tr")
+    .filter({ has: page.locator("td:first-child", { hasText: new RegExp(`^${no}$`) }) });
   await row.getByText(`Reverse No. ${no}`).click();
   await row.getByRole("button", { name: "Book the reversal" }).click();
   await expect(row.locator(".field-error")).toContainText("Reason");
@@ -25,17 +28,29 @@ test("reverse a mistaken transfer and void a mistaken titration, each with a rea
   // The page refreshes: the original row now says which movement reversed it, and offers no second reversal.
   await expect(row.getByText(/reversed by No\. \d+/)).toBeVisible();
   await expect(row.getByText(`Reverse No. ${no}`)).toHaveCount(0);
-  const t1After = ((await (await page.request.get("/api/holders/TANK/T1")).json()) as { value: { stockG: number } }).value.stockG;
+  const t1After = ((await (await page.request.get("/api/holders/TANK/T1")).json()) as { value: { stockG: number } })
+    .value.stockG;
   expect(t1After - t1Before).toBe(1000);
   await expect(page.getByText(`reverses No. ${no}`)).toBeVisible();
 
   // Void a titration on a lot's lab page: it no longer counts and the history keeps why.
   await page.goto("/lab");
-  const lotLink = page.getByRole("table").getByRole("link", { name: /^L-\d{4}$/ }).first();
+  const lotLink = page
+    .getByRole("table")
+    .getByRole("link", { name: /^L-\d{4}$/ })
+    .first();
   const lotCode = (await lotLink.innerText()).trim();
   const saved = await page.request.post("/api/lab/titrations", {
     headers: { "idempotency-key": `titration-${Date.now()}`, origin: baseURL! },
-    data: { lotCode, testedAt: new Date().toISOString(), sampleMassG: 7.05, titrant: "NAOH", concentrationMolL: 0.25, titreMl: 9.99, basis: "OLEIC" },
+    data: {
+      lotCode,
+      testedAt: new Date().toISOString(),
+      sampleMassG: 7.05,
+      titrant: "NAOH",
+      concentrationMolL: 0.25,
+      titreMl: 9.99,
+      basis: "OLEIC",
+    },
   });
   expect(saved.status()).toBe(200);
   await page.goto(`/lab/${lotCode}`);
@@ -52,12 +67,25 @@ test("reverse a mistaken transfer and void a mistaken titration, each with a rea
 });
 
 // A charge typed wrong at the start of a batch is taken back on the batch page while it reacts.
-test("take back a mistaken charge on a reacting batch, with a reason and the reactor cautions shown", async ({ page, baseURL }) => {
+test("take back a mistaken charge on a reacting batch, with a reason and the reactor cautions shown", async ({
+  page,
+  baseURL,
+}) => {
   await signIn(page, "production.tess", "/batches");
   const code = `TB-${Date.now() % 1_000_000}`;
-  const post = (path: string, data: unknown) => page.request.post(path, { headers: { "idempotency-key": `${code}-${path}`, origin: baseURL! }, data });
+  const post = (path: string, data: unknown) =>
+    page.request.post(path, { headers: { "idempotency-key": `${code}-${path}`, origin: baseURL! }, data });
   const now = Date.now();
-  expect((await post("/api/batches/plan", { code, plannedAt: new Date(now - 60_000).toISOString(), targetOilKg: 2, catalyst: "KOH" })).status()).toBe(200);
+  expect(
+    (
+      await post("/api/batches/plan", {
+        code,
+        plannedAt: new Date(now - 60_000).toISOString(),
+        targetOilKg: 2,
+        catalyst: "KOH",
+      })
+    ).status(),
+  ).toBe(200);
   const started = await post("/api/batches/start", {
     batchCode: code,
     startedAt: new Date(now).toISOString(),
@@ -67,7 +95,8 @@ test("take back a mistaken charge on a reacting batch, with a reason and the rea
     ],
   });
   expect(started.status()).toBe(200);
-  const m1Before = ((await (await page.request.get("/api/holders/TANK/M1")).json()) as { value: { stockG: number } }).value.stockG;
+  const m1Before = ((await (await page.request.get("/api/holders/TANK/M1")).json()) as { value: { stockG: number } })
+    .value.stockG;
 
   await page.goto(`/batches/${code}`);
   await expect(page.getByText(/methanol and methoxide are toxic and flammable/)).toBeVisible();
@@ -81,7 +110,13 @@ test("take back a mistaken charge on a reacting batch, with a reason and the rea
   await expect(page.getByRole("heading", { name: "Charges taken back" })).toBeVisible();
   await page.reload();
   await expect(page.getByRole("heading", { name: "Charges taken back" })).toBeVisible();
-  await expect(page.locator("table").filter({ has: page.getByText("Booked by mistake and reversed") }).getByText(/reversed by #\d+/)).toBeVisible();
-  const m1After = ((await (await page.request.get("/api/holders/TANK/M1")).json()) as { value: { stockG: number } }).value.stockG;
+  await expect(
+    page
+      .locator("table")
+      .filter({ has: page.getByText("Booked by mistake and reversed") })
+      .getByText(/reversed by #\d+/),
+  ).toBeVisible();
+  const m1After = ((await (await page.request.get("/api/holders/TANK/M1")).json()) as { value: { stockG: number } })
+    .value.stockG;
   expect(m1After - m1Before).toBe(4000);
 });

@@ -23,10 +23,18 @@ test("follow one lot from its pickup to its product lot", async ({ page }) => {
   await page.getByRole("navigation").getByRole("link", { name: "Pickups", exact: true }).click();
   await expect(page.getByRole("heading", { level: 1, name: /Pickups/ })).toBeVisible();
   // An older page of pickups: their oil has long been through the plant.
-  await page.getByRole("navigation", { name: "Pages" }).first().getByRole("link", { name: /^Page \d+$/ }).last().click();
+  await page
+    .getByRole("navigation", { name: "Pages" })
+    .first()
+    .getByRole("link", { name: /^Page \d+$/ })
+    .last()
+    .click();
   await expect(page).toHaveURL(/page=\d+/);
   await expect(page.getByText(/Page (\d+) of \1 /).first()).toBeVisible();
-  const pickupLink = page.getByRole("table").getByRole("link", { name: /^PU-\d{5}$/ }).first();
+  const pickupLink = page
+    .getByRole("table")
+    .getByRole("link", { name: /^PU-\d{5}$/ })
+    .first();
   const pickupCode = (await pickupLink.textContent())?.trim() ?? "";
   await pickupLink.click();
   await expect(page.getByRole("heading", { level: 1 })).toHaveText(`Pickup ${pickupCode}`);

@@ -16,7 +16,8 @@ const minuteAgo = () => new Date(Date.now() - 60_000).toISOString().slice(0, 16)
 const drafts = (page: Page) => page.getByTestId("draft-grid");
 const stored = (page: Page) => page.getByTestId("stored-grid");
 const status = (page: Page) => page.getByTestId("grid-status");
-const cell = (grid: Locator, row: number, col: string) => grid.locator(`.ag-row:not(.ag-row-pinned)[row-index="${row}"] [col-id="${col}"]`);
+const cell = (grid: Locator, row: number, col: string) =>
+  grid.locator(`.ag-row:not(.ag-row-pinned)[row-index="${row}"] [col-id="${col}"]`);
 
 async function typeInto(page: Page, row: number, col: string, text: string): Promise<void> {
   const c = cell(drafts(page), row, col);
@@ -34,7 +35,9 @@ async function pasteAt(page: Page, row: number, col: string, text: string): Prom
   await page.evaluate((t) => {
     const dt = new DataTransfer();
     dt.setData("text/plain", t);
-    (document.activeElement ?? document.body).dispatchEvent(new ClipboardEvent("paste", { clipboardData: dt, bubbles: true, cancelable: true }));
+    (document.activeElement ?? document.body).dispatchEvent(
+      new ClipboardEvent("paste", { clipboardData: dt, bubbles: true, cancelable: true }),
+    );
   }, text);
 }
 
@@ -54,7 +57,8 @@ test.beforeEach(async ({ page }) => {
     if (r.status() >= 500) pageErrors.push(`${r.status()} ${r.url()}`);
   });
   page.on("console", (m) => {
-    if (m.type() === "error" && !m.text().includes("favicon") && !m.text().startsWith("Failed to load resource")) pageErrors.push(m.text());
+    if (m.type() === "error" && !m.text().includes("favicon") && !m.text().startsWith("Failed to load resource"))
+      pageErrors.push(m.text());
   });
   await signIn(page, "production.tess", "/grid?table=pickups");
   await page.goto("/grid?table=pickups");
@@ -100,7 +104,9 @@ test("rows typed but not saved survive a reload of the page", async ({ page }) =
   await expect(status(page)).toContainText("Restored 1 unsaved row");
 });
 
-test("paste a 20-row block with 2 bad rows: 18 save, the 2 stay as drafts with their cells marked", async ({ page }) => {
+test("paste a 20-row block with 2 bad rows: 18 save, the 2 stay as drafts with their cells marked", async ({
+  page,
+}) => {
   const source = await aSourceCode(page);
   const lines = ["Pickup no.\tSource\tMaterial\tObserved\tContainers\tVolume (gal)\tOil temp. (°F)"];
   for (let i = 1; i <= 20; i++) {
@@ -114,8 +120,12 @@ test("paste a 20-row block with 2 bad rows: 18 save, the 2 stay as drafts with t
   await page.getByRole("button", { name: "Save ready rows" }).click();
   await expect(status(page)).toContainText("Saved 18 rows");
   await expect(status(page)).toContainText("2 rows are still drafts with problems");
-  const r = await page.request.get(`/api/grid/rows?table=pickups&start=0&end=50&filter=${encodeURIComponent(JSON.stringify({ code: { filterType: "text", type: "startsWith", filter: `GP-${run}-` } }))}`);
-  const body = (await r.json()) as { value: { lastRow: number; rows: Array<{ code: string; volumeL: number; tempC: number }> } };
+  const r = await page.request.get(
+    `/api/grid/rows?table=pickups&start=0&end=50&filter=${encodeURIComponent(JSON.stringify({ code: { filterType: "text", type: "startsWith", filter: `GP-${run}-` } }))}`,
+  );
+  const body = (await r.json()) as {
+    value: { lastRow: number; rows: Array<{ code: string; volumeL: number; tempC: number }> };
+  };
   expect(body.value.lastRow).toBe(18);
   const first = body.value.rows.find((x) => x.code === `GP-${run}-1`);
   expect(first?.volumeL).toBeCloseTo(11.5 * 3.785411784, 2); // NIST HB 44 App. C: 1 US gal = 3.785411784 L
@@ -152,13 +162,17 @@ test("import a CSV with errors: a preview names row and column, nothing is writt
     `GI-${run}-3,NO-SUCH-SOURCE,used cooking oil,${daysAgo(2)} 10:00,1,100,20`,
     `GI-${run}-4,${source},used cooking oil,${daysAgo(2)} 11:00,1,100,"20`,
   ].join("\r\n");
-  await page.locator('input[type="file"]').setInputFiles({ name: "pickups.csv", mimeType: "text/csv", buffer: Buffer.from(`\uFEFF${csv}`, "utf8") });
+  await page
+    .locator('input[type="file"]')
+    .setInputFiles({ name: "pickups.csv", mimeType: "text/csv", buffer: Buffer.from(`\uFEFF${csv}`, "utf8") });
   const preview = page.getByRole("region", { name: /Import preview/ });
   await expect(preview).toBeVisible();
   await expect(preview.getByRole("list", { name: "Import problems" })).toContainText('Row 3, column "Containers"');
   await expect(preview.getByRole("list", { name: "Import problems" })).toContainText("Row 5");
   await expect(preview.getByRole("button", { name: /Import \d+ rows/ })).toBeDisabled();
-  const r = await page.request.get(`/api/grid/rows?table=pickups&start=0&end=10&filter=${encodeURIComponent(JSON.stringify({ code: { filterType: "text", type: "startsWith", filter: `GI-${run}-` } }))}`);
+  const r = await page.request.get(
+    `/api/grid/rows?table=pickups&start=0&end=10&filter=${encodeURIComponent(JSON.stringify({ code: { filterType: "text", type: "startsWith", filter: `GI-${run}-` } }))}`,
+  );
   expect(((await r.json()) as { value: { lastRow: number } }).value.lastRow).toBe(0);
 });
 
@@ -170,10 +184,16 @@ test("export the whole filtered view and re-import it: nothing changes", async (
   const file = await (await download).path();
   const text = readFileSync(file, "utf8");
   const lines = text.trim().split(/\r\n/);
-  const count = ((await (await page.request.get("/api/grid/rows?table=sources&start=0&end=1")).json()) as { value: { lastRow: number } }).value.lastRow;
+  const count = (
+    (await (await page.request.get("/api/grid/rows?table=sources&start=0&end=1")).json()) as {
+      value: { lastRow: number };
+    }
+  ).value.lastRow;
   expect(lines.length - 1).toBe(count); // the whole view, not only the loaded block
   expect(lines[0]).toContain("Code");
-  await page.locator('input[type="file"]').setInputFiles({ name: "sources.csv", mimeType: "text/csv", buffer: readFileSync(file) });
+  await page
+    .locator('input[type="file"]')
+    .setInputFiles({ name: "sources.csv", mimeType: "text/csv", buffer: readFileSync(file) });
   const preview = page.getByRole("region", { name: /Import preview/ });
   await expect(preview).toContainText(`0 new`);
   await expect(preview).toContainText(`${count} already stored and unchanged`);
@@ -206,12 +226,28 @@ test("a 100,000-row table shows its first rows at once and scrolls to its end", 
   const siteCode = `LOAD${run}`;
   const login = `load.${run.toLowerCase()}`;
   sql.transaction(() => {
-    const hash = (sql.prepare("SELECT passwordHash FROM User WHERE login = 'production.tess'").get() as { passwordHash: string }).passwordHash;
-    const site = sql.prepare("INSERT INTO Site (code, name, town, timeZone, createdAt) VALUES (?, 'Load Test Works', 'Nowhere', 'UTC', ?)").run(siteCode, iso(Date.now())).lastInsertRowid;
-    const user = sql.prepare("INSERT INTO User (siteId, login, fullName, role, unitSystem, passwordHash, createdAt) VALUES (?, ?, 'Load Tester', 'PRODUCTION', 'us', ?, ?)").run(site, login, hash, iso(Date.now())).lastInsertRowid;
-    const source = sql.prepare("INSERT INTO Source (siteId, code, name, kind, materials, createdAt) VALUES (?, 'LS1', 'Load Source', 'RESTAURANT', 'USED_COOKING_OIL', ?)").run(site, iso(Date.now())).lastInsertRowid;
+    const hash = (
+      sql.prepare("SELECT passwordHash FROM User WHERE login = 'production.tess'").get() as { passwordHash: string }
+    ).passwordHash;
+    const site = sql
+      .prepare(
+        "INSERT INTO Site (code, name, town, timeZone, createdAt) VALUES (?, 'Load Test Works', 'Nowhere', 'UTC', ?)",
+      )
+      .run(siteCode, iso(Date.now())).lastInsertRowid;
+    const user = sql
+      .prepare(
+        "INSERT INTO User (siteId, login, fullName, role, unitSystem, passwordHash, createdAt) VALUES (?, ?, 'Load Tester', 'PRODUCTION', 'us', ?, ?)",
+      )
+      .run(site, login, hash, iso(Date.now())).lastInsertRowid;
+    const source = sql
+      .prepare(
+        "INSERT INTO Source (siteId, code, name, kind, materials, createdAt) VALUES (?, 'LS1', 'Load Source', 'RESTAURANT', 'USED_COOKING_OIL', ?)",
+      )
+      .run(site, iso(Date.now())).lastInsertRowid;
     const holder = sql.prepare("INSERT INTO Holder (siteId, kind, code, stockG) VALUES (?, 'PICKUP', ?, 0)");
-    const pickup = sql.prepare("INSERT INTO Pickup (siteId, holderId, code, sourceId, collectorId, material, observedAt, receivedAt, containers, volumeMl, tempC, massG) VALUES (?, ?, ?, ?, ?, 'USED_COOKING_OIL', ?, ?, 1, ?, 20, ?)");
+    const pickup = sql.prepare(
+      "INSERT INTO Pickup (siteId, holderId, code, sourceId, collectorId, material, observedAt, receivedAt, containers, volumeMl, tempC, massG) VALUES (?, ?, ?, ?, ?, 'USED_COOKING_OIL', ?, ?, 1, ?, 20, ?)",
+    );
     const t0 = Date.UTC(2020, 0, 1);
     for (let i = 1; i <= 100_000; i++) {
       const code = `L${String(i).padStart(6, "0")}`;

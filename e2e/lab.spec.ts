@@ -12,7 +12,10 @@ test("titrate a waiting lot, see FFA as you type, and accept it", async ({ page 
   await expect(page.getByRole("heading", { level: 1, name: "Lab" })).toBeVisible();
 
   // Whichever lot is still waiting: the demo database has a few, and this test decides one.
-  const lotLink = page.getByRole("table").getByRole("link", { name: /^L-\d{4}$/ }).first();
+  const lotLink = page
+    .getByRole("table")
+    .getByRole("link", { name: /^L-\d{4}$/ })
+    .first();
   const lotCode = (await lotLink.textContent())?.trim() ?? "";
   await lotLink.click();
   await expect(page.getByRole("heading", { level: 1 })).toHaveText(`Lab results for lot ${lotCode}`);

@@ -9,17 +9,38 @@ import { signIn } from "./support/sign-in";
 
 const DB = path.resolve(import.meta.dirname, "..", "data", `e2e-${process.env.E2E_PORT ?? 3100}.db`);
 
-test("receiving: two pickups pooled into one lot keep their link; a refusal names the field", async ({ page, baseURL }) => {
+test("receiving: two pickups pooled into one lot keep their link; a refusal names the field", async ({
+  page,
+  baseURL,
+}) => {
   // The collector's two pickups this test receives (made here, not left over from another test).
   const src = new Database(DB, { readonly: true });
-  const source = (src.prepare("SELECT code FROM Source WHERE active = 1 AND materials LIKE '%USED_COOKING_OIL%' ORDER BY code LIMIT 1").get() as { code: string }).code;
+  const source = (
+    src
+      .prepare("SELECT code FROM Source WHERE active = 1 AND materials LIKE '%USED_COOKING_OIL%' ORDER BY code LIMIT 1")
+      .get() as { code: string }
+  ).code;
   src.close();
   const collector = await playwrightRequest.newContext({ baseURL });
-  expect((await collector.post("/api/session", { data: { login: "collector.ivo", password: "quillmoor-demo" } })).status()).toBe(200);
+  expect(
+    (await collector.post("/api/session", { data: { login: "collector.ivo", password: "quillmoor-demo" } })).status(),
+  ).toBe(200);
   const tag = randomUUID().slice(0, 6).toUpperCase();
   for (const n of [1, 2]) {
     const key = randomUUID();
-    const res = await collector.post("/api/pickups", { headers: { origin: baseURL!, "idempotency-key": key }, data: { code: `PU-RCV-${tag}-${n}`, sourceCode: source, material: "USED_COOKING_OIL", observedAt: new Date(Date.now() - 3_600_000).toISOString(), containers: 1, volumeL: 120, tempC: 18, idempotencyKey: key } });
+    const res = await collector.post("/api/pickups", {
+      headers: { origin: baseURL!, "idempotency-key": key },
+      data: {
+        code: `PU-RCV-${tag}-${n}`,
+        sourceCode: source,
+        material: "USED_COOKING_OIL",
+        observedAt: new Date(Date.now() - 3_600_000).toISOString(),
+        containers: 1,
+        volumeL: 120,
+        tempC: 18,
+        idempotencyKey: key,
+      },
+    });
     expect(res.status()).toBe(200);
   }
   await collector.dispose();
@@ -31,7 +52,9 @@ test("receiving: two pickups pooled into one lot keep their link; a refusal name
   expect(axe.violations.map((v) => v.id)).toEqual([]);
 
   const db = new Database(DB, { readonly: true });
-  const two = db.prepare("SELECT code FROM Pickup WHERE lotId IS NULL AND code LIKE ? ORDER BY code").all(`PU-RCV-${tag}-%`) as Array<{ code: string }>;
+  const two = db
+    .prepare("SELECT code FROM Pickup WHERE lotId IS NULL AND code LIKE ? ORDER BY code")
+    .all(`PU-RCV-${tag}-%`) as Array<{ code: string }>;
   db.close();
   expect(two).toHaveLength(2);
   for (const p of two) await page.getByLabel(`Take pickup ${p.code}`).check();
@@ -46,14 +69,19 @@ test("receiving: two pickups pooled into one lot keep their link; a refusal name
   await expect(page.locator(".collect-saved")).toContainText(`Lot ${lotCode} received from 2 pickups`);
 
   const after = new Database(DB, { readonly: true });
-  const linked = after.prepare(`SELECT p.code, l.code AS lot FROM Pickup p JOIN FeedstockLot l ON l.id = p.lotId WHERE p.code IN (?, ?)`).all(two[0]!.code, two[1]!.code) as Array<{ lot: string }>;
+  const linked = after
+    .prepare(`SELECT p.code, l.code AS lot FROM Pickup p JOIN FeedstockLot l ON l.id = p.lotId WHERE p.code IN (?, ?)`)
+    .all(two[0]!.code, two[1]!.code) as Array<{ lot: string }>;
   after.close();
   expect(linked.map((r) => r.lot)).toEqual([lotCode, lotCode]);
   await page.goto(`/lots/${encodeURIComponent(lotCode)}`);
   await expect(page.getByText(two[0]!.code).first()).toBeVisible();
 });
 
-test("labels: lot sheet with GS1 (10) and a QR code of the record URL; container run; typed number opens the record", async ({ page, baseURL }) => {
+test("labels: lot sheet with GS1 (10) and a QR code of the record URL; container run; typed number opens the record", async ({
+  page,
+  baseURL,
+}) => {
   await signIn(page, "production.tess", "/labels");
   const db = new Database(DB, { readonly: true });
   const lots = db.prepare("SELECT code FROM FeedstockLot ORDER BY id LIMIT 2").all() as Array<{ code: string }>;
@@ -62,7 +90,11 @@ test("labels: lot sheet with GS1 (10) and a QR code of the record URL; container
   const first = page.locator(`.label-card[data-label="${lots[0]!.code}"]`);
   await expect(first).toContainText(`(10)${lots[0]!.code}`); // GS1 General Specifications, AI (10) element string
   await expect(page.locator(".label-card")).toHaveCount(2);
-  const expected = await QRCode.toString(`${baseURL}/lots/${encodeURIComponent(lots[0]!.code)}`, { type: "svg", errorCorrectionLevel: "M", margin: 1 });
+  const expected = await QRCode.toString(`${baseURL}/lots/${encodeURIComponent(lots[0]!.code)}`, {
+    type: "svg",
+    errorCorrectionLevel: "M",
+    margin: 1,
+  });
   const shown = await first.locator(".label-qr").innerHTML();
   const pathOf = (svg: string) => /<path[^>]*stroke[^>]* d="([^"]+)"/.exec(svg)?.[1];
   expect(pathOf(shown)).toBeTruthy();

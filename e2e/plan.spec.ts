@@ -31,7 +31,9 @@ test("plan a batch, record it, start and finish it, see the yield", async ({ pag
   await expect(page.getByRole("heading", { name: "Proposed draws" })).toBeVisible();
   await expect(page.getByRole("columnheader", { name: "FFA as oleic" }).first()).toBeVisible();
   const card = page.getByRole("article", { name: /Recipe card/ });
-  await expect(card.getByText(/from saponification value 190\.0 mg KOH\/g: 3 × 56\.1 × 1000 ÷ \(190\.0 − \d+\.\d\d acid value\)/)).toBeVisible();
+  await expect(
+    card.getByText(/from saponification value 190\.0 mg KOH\/g: 3 × 56\.1 × 1000 ÷ \(190\.0 − \d+\.\d\d acid value\)/),
+  ).toBeVisible();
   await expect(card.getByText(/FFA as oleic \(acid value/)).toBeVisible();
   await expect(card.getByText("Methanol to add")).toBeVisible();
   await expect(card.getByText(/Methanol is toxic/)).toBeVisible();

@@ -21,18 +21,26 @@ async function productStatuses(page: Page, codes: readonly string[]): Promise<Ma
   const out = new Map<string, string>();
   for (const code of codes) {
     await page.goto(`/products/${code}`);
-    out.set(code, (await page.getByRole("heading", { level: 1 }).innerText()).includes("Released") ? "Released" : "On hold");
+    out.set(
+      code,
+      (await page.getByRole("heading", { level: 1 }).innerText()).includes("Released") ? "Released" : "On hold",
+    );
   }
   return out;
 }
 
 test.beforeAll(async ({ request }) => {
   // The first signed-in page starts the trace index build; wait for it once, as the trace journeys do.
-  expect((await request.post("/api/session", { data: { login: "compliance.nell", password: "quillmoor-demo" } })).status()).toBe(200);
+  expect(
+    (await request.post("/api/session", { data: { login: "compliance.nell", password: "quillmoor-demo" } })).status(),
+  ).toBe(200);
   expect((await request.get(`/trace/recall?kind=SOURCE&code=${SOURCE}`)).status()).toBe(200);
 });
 
-test("from a source, follow its oil of two weeks to customers and hold what is still on site", async ({ page, baseURL }) => {
+test("from a source, follow its oil of two weeks to customers and hold what is still on site", async ({
+  page,
+  baseURL,
+}) => {
   await signIn(page, "compliance.nell", `/sources/${SOURCE}`);
   await page.getByRole("link", { name: "Trace this: where it went" }).click();
   await expect(page).toHaveURL(/\/trace\/recall\?kind=SOURCE&code=R001/, { timeout: 60_000 });
@@ -40,7 +48,9 @@ test("from a source, follow its oil of two weeks to customers and hold what is s
   await form.getByLabel(/^From \(first day/).fill(FROM);
   await form.getByLabel(/^To \(last day/).fill(TO);
   await form.getByRole("button", { name: "Find where it went" }).click();
-  await expect(page.getByRole("heading", { level: 2, name: /Where it went: Source R001 .*2026-10-01 to 2026-10-14/ })).toBeVisible({ timeout: 60_000 });
+  await expect(
+    page.getByRole("heading", { level: 2, name: /Where it went: Source R001 .*2026-10-01 to 2026-10-14/ }),
+  ).toBeVisible({ timeout: 60_000 });
 
   // Customers: each listed with kg and share; the CSV holds the same rows and totals.
   await expect(page.getByRole("heading", { name: "Customers reached" })).toBeVisible();
@@ -49,7 +59,11 @@ test("from a source, follow its oil of two weeks to customers and hold what is s
   const csvHref = await page.getByRole("link", { name: "Customers reached (CSV)" }).getAttribute("href");
   const csv = await page.request.get(csvHref!);
   expect(csv.status()).toBe(200);
-  const parsed = Papa.parse<Record<string, string>>(await csv.text(), { header: true, comments: "#", skipEmptyLines: true });
+  const parsed = Papa.parse<Record<string, string>>(await csv.text(), {
+    header: true,
+    comments: "#",
+    skipEmptyLines: true,
+  });
   expect(parsed.errors).toEqual([]);
   const parts = parsed.data.filter((r) => r.customer !== "TOTAL");
   const total = parsed.data.find((r) => r.customer === "TOTAL");
@@ -57,7 +71,9 @@ test("from a source, follow its oil of two weeks to customers and hold what is s
   expect(parts.reduce((s, r) => s + kgOf(r.mass_kg ?? ""), 0)).toBe(kgOf(total?.mass_kg ?? ""));
   const footTotal = await page.getByRole("table", { name: "Customers reached" }).locator("tfoot td").nth(3).innerText();
   expect(kgOf(footTotal)).toBe(kgOf(total?.mass_kg ?? ""));
-  const pdf = await page.request.get(`/trace/recall/report?kind=SOURCE&code=${SOURCE}&from=${FROM}&to=${TO}&format=pdf`);
+  const pdf = await page.request.get(
+    `/trace/recall/report?kind=SOURCE&code=${SOURCE}&from=${FROM}&to=${TO}&format=pdf`,
+  );
   expect(pdf.status()).toBe(200);
   expect(pdf.headers()["content-type"]).toBe("application/pdf");
   await page.screenshot({ path: "/tmp/recall-result.png", fullPage: false });
@@ -73,7 +89,10 @@ test("from a source, follow its oil of two weeks to customers and hold what is s
   const reason = `Contaminated oil notice from source ${SOURCE}, pickups ${FROM} to ${TO} (journey ${Date.now() % 100_000})`;
   await hold.getByLabel("Reason").fill(reason);
   await hold.getByRole("button", { name: /Put \d+ product lots? on hold/ }).click();
-  await expect(hold.getByRole("status")).toContainText(`${lots.length} product lot${lots.length === 1 ? "" : "s"} put on hold`, { timeout: 60_000 });
+  await expect(hold.getByRole("status")).toContainText(
+    `${lots.length} product lot${lots.length === 1 ? "" : "s"} put on hold`,
+    { timeout: 60_000 },
+  );
 
   for (const code of lots) {
     await page.goto(`/products/${code}`);
@@ -89,7 +108,9 @@ test("from a source, follow its oil of two weeks to customers and hold what is s
   await expect(tp.getByRole("heading", { name: "Product lots reached" })).toBeVisible({ timeout: 60_000 });
   await expect(tp.getByRole("heading", { name: "Customers reached" })).toHaveCount(0);
   await expect(tp.getByRole("form", { name: "Hold the product lots reached" })).toHaveCount(0);
-  const tessCsv = await tp.request.get(`/trace/recall/report?kind=SOURCE&code=${SOURCE}&from=${FROM}&to=${TO}&format=csv&table=customers`);
+  const tessCsv = await tp.request.get(
+    `/trace/recall/report?kind=SOURCE&code=${SOURCE}&from=${FROM}&to=${TO}&format=csv&table=customers`,
+  );
   expect(tessCsv.status()).toBe(422);
   await tess.close();
 

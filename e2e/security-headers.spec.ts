@@ -25,6 +25,13 @@ test("pages carry the security headers and run under a nonce CSP without violati
 });
 
 test("a data-changing API call from another site is refused", async ({ request }) => {
-  const r = await request.post("/api/transfers", { headers: { origin: "http://evil.example", "content-type": "application/json", "idempotency-key": "cross-site-0001" }, data: { fromKind: "TANK", fromCode: "T1", toTankCode: "T2", at: "2026-12-01T00:00:00Z", massKg: 1 } });
+  const r = await request.post("/api/transfers", {
+    headers: {
+      origin: "http://evil.example",
+      "content-type": "application/json",
+      "idempotency-key": "cross-site-0001",
+    },
+    data: { fromKind: "TANK", fromCode: "T1", toTankCode: "T2", at: "2026-12-01T00:00:00Z", massKg: 1 },
+  });
   expect([401, 403]).toContain(r.status());
 });

@@ -12,7 +12,11 @@ async function stockG(page: Page, kind: string, code: string): Promise<number> {
 }
 
 /** A product lot in the given state with at least minG in stock, picked from the product lots page. */
-async function pickProductLot(page: Page, state: "Released" | "On hold", minG: number): Promise<{ code: string; stockG: number }> {
+async function pickProductLot(
+  page: Page,
+  state: "Released" | "On hold",
+  minG: number,
+): Promise<{ code: string; stockG: number }> {
   await page.goto("/products");
   const codes = await page.locator("tbody tr").filter({ hasText: state }).locator("td:first-child").allInnerTexts();
   for (const raw of codes) {
@@ -26,7 +30,9 @@ async function pickProductLot(page: Page, state: "Released" | "On hold", minG: n
 // The first sign-in after the server starts also starts the trace index build; on a busy machine that
 // can outlast the sign-in helper's wait, so the journeys start after one signed-in page has been served.
 test.beforeAll(async ({ request }) => {
-  expect((await request.post("/api/session", { data: { login: "compliance.nell", password: "quillmoor-demo" } })).status()).toBe(200);
+  expect(
+    (await request.post("/api/session", { data: { login: "compliance.nell", password: "quillmoor-demo" } })).status(),
+  ).toBe(200);
   expect((await request.get("/shipments")).status()).toBe(200);
   expect((await request.get("/trace?dir=fwd&kind=LOT&code=L-0001")).status()).toBe(200);
 });
@@ -93,7 +99,12 @@ test("compliance records a customer and ships part of a released product lot to 
 
   // The forward trace of a feedstock lot in this shipment names the customer.
   await page.goto(`/shipments/${documentNo}`);
-  const feedLot = (await page.getByRole("link", { name: /^L-\d+$/ }).first().innerText()).trim();
+  const feedLot = (
+    await page
+      .getByRole("link", { name: /^L-\d+$/ })
+      .first()
+      .innerText()
+  ).trim();
   await page.goto(`/trace?dir=fwd&kind=LOT&code=${feedLot}`);
   await expect(page.getByRole("heading", { name: "Shipped to customers" })).toBeVisible({ timeout: 60_000 });
   await expect(page.getByRole("link", { name: customerName }).first()).toBeVisible();
@@ -123,7 +134,9 @@ test("shipping from a held product lot is refused with the lot named and the typ
   await line2.getByLabel("Quantity").fill("10");
   await form.getByRole("button", { name: "Record the shipment" }).click();
 
-  await expect(line1.locator(".field-error")).toHaveText(`Line 1: Product lot ${held.code} is on hold: it cannot leave the site until it is released`);
+  await expect(line1.locator(".field-error")).toHaveText(
+    `Line 1: Product lot ${held.code} is on hold: it cannot leave the site until it is released`,
+  );
   await expect(form.getByLabel("Document number")).toHaveValue(documentNo);
   await expect(form.getByLabel("Vehicle")).toHaveValue("Tanker HX-4");
   await expect(line1.getByLabel("Quantity")).toHaveValue("5");
@@ -137,7 +150,10 @@ test("shipping from a held product lot is refused with the lot named and the typ
   expect((await page.request.get(`/shipments/${documentNo}`)).status()).toBe(404);
 });
 
-test("a production user can neither open shipments (customers stay with the office) nor record one", async ({ page, baseURL }) => {
+test("a production user can neither open shipments (customers stay with the office) nor record one", async ({
+  page,
+  baseURL,
+}) => {
   await signIn(page, "production.tess", "/shipments");
   await expect(page.getByRole("heading", { name: "Not available to your role", level: 1 })).toBeVisible();
   await expect(page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Shipments" })).toHaveCount(0);
@@ -146,7 +162,12 @@ test("a production user can neither open shipments (customers stay with the offi
   await expect(page.getByRole("form", { name: "Record a shipment" })).toHaveCount(0);
   const res = await page.request.post("/api/shipments", {
     headers: { "idempotency-key": `prod-ship-${Date.now()}`, origin: baseURL! },
-    data: { documentNo: "E2E-PROD-1", customerCode: "HHC", shippedAt: new Date().toISOString(), lines: [{ fromKind: "TANK", fromCode: "P1", massKg: 1 }] },
+    data: {
+      documentNo: "E2E-PROD-1",
+      customerCode: "HHC",
+      shippedAt: new Date().toISOString(),
+      lines: [{ fromKind: "TANK", fromCode: "P1", massKg: 1 }],
+    },
   });
   expect(res.status()).toBe(403);
 });

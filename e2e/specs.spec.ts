@@ -7,7 +7,9 @@ import { signIn } from "./support/sign-in";
 // on a busy machine that can outlast the sign-in check, so one page is loaded first and awaited.
 test.beforeAll(async ({ playwright, baseURL }) => {
   const ctx = await playwright.request.newContext({ baseURL });
-  expect((await ctx.post("/api/session", { data: { login: "compliance.nell", password: "quillmoor-demo" } })).status()).toBe(200);
+  expect(
+    (await ctx.post("/api/session", { data: { login: "compliance.nell", password: "quillmoor-demo" } })).status(),
+  ).toBe(200);
   expect((await ctx.get("/specs", { timeout: 60_000 })).status()).toBe(200);
   await ctx.dispose();
 });
@@ -18,7 +20,11 @@ test.beforeAll(async ({ playwright, baseURL }) => {
 /** WCAG 2.1 AA as checked by axe-core: no serious or critical violations on the page as it stands. */
 async function expectNoSeriousViolations(page: Page): Promise<void> {
   const results = await new AxeBuilder({ page }).analyze();
-  expect(results.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
+  expect(
+    results.violations
+      .filter((v) => v.impact === "serious" || v.impact === "critical")
+      .map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`),
+  ).toEqual([]);
 }
 
 test("compliance copies a built-in grade with a tighter water limit, then makes version 2", async ({ page }) => {
@@ -63,7 +69,11 @@ test("compliance copies a built-in grade with a tighter water limit, then makes 
   await expect(rows.nth(1)).toContainText("≤ 0.025 % volume");
 
   // The confidence mark beside a limit leads to its published source.
-  await page.getByRole("row", { name: /Acid number/ }).first().getByRole("link", { name: "published value" }).click();
+  await page
+    .getByRole("row", { name: /Acid number/ })
+    .first()
+    .getByRole("link", { name: "published value" })
+    .click();
   await expect(page).toHaveURL(/\/references#astm-d6751-23a-acid-number$/);
   await expect(page.locator("#astm-d6751-23a-acid-number")).toBeVisible();
   await page.screenshot({ path: "/tmp/references.png", fullPage: false });
@@ -77,7 +87,12 @@ test("a production user sees the specifications but cannot write a site specific
   await expect(page.getByRole("form", { name: "New site specification" })).toHaveCount(0);
   const r = await page.request.post("/api/specs", {
     headers: { "idempotency-key": `spec-${Date.now()}`, origin: baseURL! },
-    data: { baseKey: "astm-d6751-23a/no-2-b-s15", name: "Not allowed", limits: { "water-sediment": { min: null, max: 0.03 } }, reason: "Trying" },
+    data: {
+      baseKey: "astm-d6751-23a/no-2-b-s15",
+      name: "Not allowed",
+      limits: { "water-sediment": { min: null, max: 0.03 } },
+      reason: "Trying",
+    },
   });
   expect(r.status()).toBe(403);
 });

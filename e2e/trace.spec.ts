@@ -54,7 +54,9 @@ test("trace a product lot back to its sources, download the table, and follow on
   expect(Math.abs(pctSum - 100)).toBeLessThan(0.01 * parts.length); // each percentage rounded to 4 decimals
 
   // The by-lot table names feedstock lots; follow the largest one forward.
-  const lotRows = csvRows(await (await page.request.get(`/trace/csv?dir=back&kind=PRODUCT_LOT&code=${product.code}&table=lots`)).text());
+  const lotRows = csvRows(
+    await (await page.request.get(`/trace/csv?dir=back&kind=PRODUCT_LOT&code=${product.code}&table=lots`)).text(),
+  );
   const feedLots = lotRows.filter((r) => /^L-\d+$/.test(r.lot ?? "")).sort((a, b) => Number(b.grams) - Number(a.grams));
   const lot = feedLots[0];
   expect(lot, "the product lot contains at least one feedstock lot").toBeDefined();

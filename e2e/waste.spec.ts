@@ -7,14 +7,20 @@ import { signIn } from "./support/sign-in";
 /** WCAG 2.1 AA as axe-core checks it: no serious or critical violations on the page as it stands. */
 async function expectAccessible(page: Page): Promise<void> {
   const results = await new AxeBuilder({ page }).analyze();
-  expect(results.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
+  expect(
+    results.violations
+      .filter((v) => v.impact === "serious" || v.impact === "critical")
+      .map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`),
+  ).toEqual([]);
 }
 
 // A fresh server's first signed-in page starts the trace index in the background; let that happen
 // before the journeys so their sign-ins are not timed against a cold start.
 test.beforeAll(async ({ baseURL }) => {
   const warm = await request.newContext({ baseURL });
-  expect((await warm.post("/api/session", { data: { login: "compliance.nell", password: "quillmoor-demo" } })).status()).toBe(200);
+  expect(
+    (await warm.post("/api/session", { data: { login: "compliance.nell", password: "quillmoor-demo" } })).status(),
+  ).toBe(200);
   expect((await warm.get("/waste")).status()).toBe(200);
   expect((await warm.get("/waste/due")).status()).toBe(200);
   await warm.dispose();
@@ -23,7 +29,10 @@ test.beforeAll(async ({ baseURL }) => {
 // Waste from opening to haul-away: compliance opens a container, production finishes a batch into it from
 // the finish screen, compliance records its characterisation, marks it full and records the haul under a
 // manifest; an over-haul is refused naming what the container holds, with everything typed kept.
-test("open a waste container, fill it from a batch, characterise it, mark it full and haul it away", async ({ browser, baseURL }) => {
+test("open a waste container, fill it from a batch, characterise it, mark it full and haul it away", async ({
+  browser,
+  baseURL,
+}) => {
   test.setTimeout(180_000);
   const stamp = Date.now().toString(36).toUpperCase();
   const code = `WC-${stamp}`;
@@ -32,12 +41,15 @@ test("open a waste container, fill it from a batch, characterise it, mark it ful
   const nell = await (await browser.newContext({ baseURL })).newPage();
   const tess = await (await browser.newContext({ baseURL })).newPage();
   const consoleErrors: string[] = [];
-  for (const p of [nell, tess]) p.on("console", (m) => (m.type() === "error" ? consoleErrors.push(m.text()) : undefined));
+  for (const p of [nell, tess])
+    p.on("console", (m) => (m.type() === "error" ? consoleErrors.push(m.text()) : undefined));
 
   // 1. Compliance opens the container from the waste page.
   await signIn(nell, "compliance.nell", "/waste");
   const open = nell.getByRole("form", { name: "Open a container" });
-  await expect(nell.getByRole("complementary", { name: "Before placing a waste container" })).toContainText("closed metal bin");
+  await expect(nell.getByRole("complementary", { name: "Before placing a waste container" })).toContainText(
+    "closed metal bin",
+  );
   await open.getByRole("button", { name: "Open the container" }).click();
   await expect(open.locator(".field-error").first()).toContainText("Container code");
   await open.getByLabel("Container code").fill(code);
@@ -55,9 +67,22 @@ test("open a waste container, fill it from a batch, characterise it, mark it ful
 
   // 2. Production finishes a small batch on the finish screen, sending its glycerol phase into the new container.
   await signIn(tess, "production.tess", "/batches");
-  const post = (path: string, data: unknown) => tess.request.post(path, { headers: { "idempotency-key": `${batch}-${path.replaceAll("/", "-")}`, origin: baseURL! }, data });
+  const post = (path: string, data: unknown) =>
+    tess.request.post(path, {
+      headers: { "idempotency-key": `${batch}-${path.replaceAll("/", "-")}`, origin: baseURL! },
+      data,
+    });
   const t0 = Date.now();
-  expect((await post("/api/batches/plan", { code: batch, plannedAt: new Date(t0 - 60_000).toISOString(), targetOilKg: 2, catalyst: "KOH" })).status()).toBe(200);
+  expect(
+    (
+      await post("/api/batches/plan", {
+        code: batch,
+        plannedAt: new Date(t0 - 60_000).toISOString(),
+        targetOilKg: 2,
+        catalyst: "KOH",
+      })
+    ).status(),
+  ).toBe(200);
   const started = await post("/api/batches/start", {
     batchCode: batch,
     startedAt: new Date(t0).toISOString(),
@@ -94,7 +119,10 @@ test("open a waste container, fill it from a batch, characterise it, mark it ful
 
   // The waste-due list reads the same live records: the container is there, with its hazard class.
   await nell.goto("/waste/due");
-  const onSite = nell.getByRole("row").filter({ has: nell.getByRole("link", { name: code, exact: true }) }).last();
+  const onSite = nell
+    .getByRole("row")
+    .filter({ has: nell.getByRole("link", { name: code, exact: true }) })
+    .last();
   await expect(onSite).toContainText("Hazardous");
   await expect(onSite).toContainText("D001 yes");
 
@@ -149,7 +177,10 @@ async function openAs(page: Page, login: string, code: string): Promise<void> {
   await expect(page).toHaveURL(new RegExp(`/waste/${code}$`));
 }
 
-test("production opens a filter-media bin and sees its self-heating caution; only compliance records hauls", async ({ page, baseURL }) => {
+test("production opens a filter-media bin and sees its self-heating caution; only compliance records hauls", async ({
+  page,
+  baseURL,
+}) => {
   const code = `FM-${Date.now().toString(36).toUpperCase()}`;
   await openAs(page, "production.tess", code);
   await expect(page.getByRole("complementary", { name: "Handling spent filter media" })).toContainText("heat itself");
@@ -163,10 +194,23 @@ test("production opens a filter-media bin and sees its self-heating caution; onl
   await page.screenshot({ path: "/tmp/waste-filter-media.png", fullPage: true });
   // The JSON endpoint answers a second "full" with a conflict, and a haul by production with a role refusal.
   const headers = { "idempotency-key": `${code}-full-again`, origin: baseURL! };
-  const again = await page.request.post("/api/waste/full", { headers, data: { containerCode: code, fullAt: new Date().toISOString() } });
+  const again = await page.request.post("/api/waste/full", {
+    headers,
+    data: { containerCode: code, fullAt: new Date().toISOString() },
+  });
   expect(again.status()).toBe(409);
   expect(JSON.stringify(await again.json())).toContain("already marked full");
-  const haul = await page.request.post("/api/waste/disposals", { headers: { ...headers, "idempotency-key": `${code}-haul` }, data: { containerCode: code, documentNo: `M-${code}`, hauler: "H", disposedAt: new Date().toISOString(), massKg: 1, destination: "D" } });
+  const haul = await page.request.post("/api/waste/disposals", {
+    headers: { ...headers, "idempotency-key": `${code}-haul` },
+    data: {
+      containerCode: code,
+      documentNo: `M-${code}`,
+      hauler: "H",
+      disposedAt: new Date().toISOString(),
+      massKg: 1,
+      destination: "D",
+    },
+  });
   expect(haul.status()).toBe(403);
 });
 

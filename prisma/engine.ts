@@ -15,7 +15,9 @@ function startWasm(): void {
   const require = createRequire(import.meta.url);
   const dir = path.dirname(require.resolve("@prisma/schema-engine-wasm/schema_engine_bg"));
   const module = new WebAssembly.Module(readFileSync(path.join(dir, "schema_engine_bg.wasm")));
-  const instance = new WebAssembly.Instance(module, { "./schema_engine_bg.js": bg as unknown as WebAssembly.ModuleImports });
+  const instance = new WebAssembly.Instance(module, {
+    "./schema_engine_bg.js": bg as unknown as WebAssembly.ModuleImports,
+  });
   (bg as unknown as { __wbg_set_wasm(e: WebAssembly.Exports): void }).__wbg_set_wasm(instance.exports);
   (instance.exports as { __wbindgen_start(): void }).__wbindgen_start();
   (globalThis as { PRISMA_WASM_PANIC_REGISTRY?: unknown }).PRISMA_WASM_PANIC_REGISTRY ??= { set_message() {} };
@@ -69,7 +71,10 @@ export async function withEngine<T>(
 const noFilter = { externalTables: [], externalEnums: [] };
 
 /** SQL that creates the whole schema from an empty database. */
-export async function diffFromEmpty(schemaPath: string, factory: SqlMigrationAwareDriverAdapterFactory): Promise<string> {
+export async function diffFromEmpty(
+  schemaPath: string,
+  factory: SqlMigrationAwareDriverAdapterFactory,
+): Promise<string> {
   return withEngine(schemaPath, factory, async (engine) => {
     const result = await engine.diff({
       from: { tag: "empty" },
@@ -117,7 +122,10 @@ export async function migrateDeploy(
     const out = await engine.applyMigrations({
       migrationsList: {
         baseDir: migrationsDir,
-        lockfile: { path: "migration_lock.toml", content: existsSync(lockPath) ? readFileSync(lockPath, "utf8") : null },
+        lockfile: {
+          path: "migration_lock.toml",
+          content: existsSync(lockPath) ? readFileSync(lockPath, "utf8") : null,
+        },
         shadowDbInitScript: "",
         migrationDirectories: dirs.map((name) => ({
           path: name,

@@ -12,4 +12,7 @@ for (const [from, to] of swaps) {
   pg = pg.replace(from, to);
 }
 mkdirSync("prisma/pg", { recursive: true });
-writeFileSync("prisma/pg/schema.prisma", `// GENERATED from prisma/schema.prisma by prisma/gen-schemas.mjs. Do not edit.\n${pg}`);
+writeFileSync(
+  "prisma/pg/schema.prisma",
+  `// GENERATED from prisma/schema.prisma by prisma/gen-schemas.mjs. Do not edit.\n${pg}`,
+);

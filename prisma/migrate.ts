@@ -40,12 +40,19 @@ async function createMigration(name: string): Promise<void> {
         ? new PrismaBetterSqlite3({ url: "file::memory:" })
         : new PrismaPg({ connectionString: process.env.TEST_PG_URL ?? "postgresql://postgres@127.0.0.1:5432/test" });
     mkdirSync(p.migrations, { recursive: true });
-    const previous = readdirSync(p.migrations).filter((d) => existsSync(path.join(p.migrations, d, "schema.prisma"))).sort().at(-1);
+    const previous = readdirSync(p.migrations)
+      .filter((d) => existsSync(path.join(p.migrations, d, "schema.prisma")))
+      .sort()
+      .at(-1);
     let sql: string;
     if (previous === undefined) {
       sql = constraintSql(provider, await diffFromEmpty(p.schema, factory)) + appendOnlySql(provider);
     } else {
-      sql = await diffSchemas(readFileSync(path.join(p.migrations, previous, "schema.prisma"), "utf8"), p.schema, factory);
+      sql = await diffSchemas(
+        readFileSync(path.join(p.migrations, previous, "schema.prisma"), "utf8"),
+        p.schema,
+        factory,
+      );
       for (const table of ["Movement", "AuditEvent"]) {
         if (provider === "sqlite" && new RegExp(`DROP TABLE "${table}"|ALTER TABLE "new_${table}"`).test(sql)) {
           sql += appendOnlySql(provider, table); // a SQLite table redefinition drops its triggers: restore them

@@ -15,7 +15,9 @@ async function main(): Promise<number> {
     const target = arg ?? path.join("backups", `tracevat-${stamp}.${isPostgresUrl(url) ? "pgdump" : "db"}`);
     mkdirSync(path.dirname(path.resolve(target)), { recursive: true });
     const m = await backupDatabase(url, target, new Date());
-    console.log(`Backup written: ${target} (${m.facts.rowCounts.Movement} movements, ledger ${m.facts.ledgerChecksum.slice(0, 12)}…)`);
+    console.log(
+      `Backup written: ${target} (${m.facts.rowCounts.Movement} movements, ledger ${m.facts.ledgerChecksum.slice(0, 12)}…)`,
+    );
     console.log(`Manifest: ${target}.manifest.json`);
     return 0;
   }
@@ -31,7 +33,11 @@ async function main(): Promise<number> {
   if (command === "check") {
     const db = await openDb(url);
     const f = await collectFacts(db, url).finally(() => db.$disconnect());
-    const bad = [...f.stockMismatches, ...Object.values(f.auditHeads).filter((h) => h.startsWith("BROKEN")), ...(f.integrity === "ok" ? [] : [f.integrity])];
+    const bad = [
+      ...f.stockMismatches,
+      ...Object.values(f.auditHeads).filter((h) => h.startsWith("BROKEN")),
+      ...(f.integrity === "ok" ? [] : [f.integrity]),
+    ];
     console.log(JSON.stringify({ ...f, stockMismatches: f.stockMismatches.length }, null, 2));
     if (bad.length) console.error(`Problems:\n- ${bad.join("\n- ")}`);
     return bad.length ? 1 : 0;
@@ -40,7 +46,10 @@ async function main(): Promise<number> {
   return 2;
 }
 
-main().then((code) => process.exit(code), (e: unknown) => {
-  console.error(e instanceof Error ? e.message : e);
-  process.exit(1);
-});
+main().then(
+  (code) => process.exit(code),
+  (e: unknown) => {
+    console.error(e instanceof Error ? e.message : e);
+    process.exit(1);
+  },
+);

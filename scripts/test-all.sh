@@ -10,6 +10,9 @@ start=$(date +%s)
 step "type check"
 npx tsc --noEmit -p tsconfig.json
 
+step "format (prettier --check)"
+npx prettier --check . --log-level warn
+
 step "lint (including the layer rule)"
 npx eslint .
 

@@ -50,7 +50,10 @@ const HANDLERS: Record<Exclude<Op["kind"], "closePeriod">, Handler> = {
   tank: { schema: TankSchema, apply: createTank },
   reagent: { schema: ReagentLotSchema, apply: receiveReagent },
   pickup: { schema: PickupSchema, apply: (db, actor, input) => recordPickup(db, actor, input) },
-  lotFromPickups: { schema: LotFromPickupsSchema, apply: (db, actor, input) => receiveLotFromPickups(db, actor, input) },
+  lotFromPickups: {
+    schema: LotFromPickupsSchema,
+    apply: (db, actor, input) => receiveLotFromPickups(db, actor, input),
+  },
   delivery: { schema: DeliveryLotSchema, apply: (db, actor, input) => receiveDelivery(db, actor, input) },
   titration: { schema: LotTitrationSchema, apply: recordTitration },
   labTest: { schema: LabTestSchema, apply: recordLabTest },
@@ -85,24 +88,40 @@ export function validateScenario(ops: Op[]): void {
     const parsed = parseInput(HANDLERS[op.kind].schema, op.input);
     if (!parsed.ok) problems.push(describe(i + 1, op, parsed.issues));
   });
-  if (problems.length) throw new SeedError(`The demo data has ${problems.length} bad row(s):\n${problems.slice(0, 50).join("\n")}`);
+  if (problems.length)
+    throw new SeedError(`The demo data has ${problems.length} bad row(s):\n${problems.slice(0, 50).join("\n")}`);
 }
 
 /** Writes the scenario through the services, in order. */
-export async function writeScenario(db: Db, ops: Op[], onProgress?: (done: number, total: number) => void): Promise<{ siteId: number }> {
+export async function writeScenario(
+  db: Db,
+  ops: Op[],
+  onProgress?: (done: number, total: number) => void,
+): Promise<{ siteId: number }> {
   const site = await insertSite(db, SITE);
   const ids = new Map<string, number>();
   const passwordHash = await hashPassword(DEMO_PASSWORD);
-  for (const p of PEOPLE) ids.set(p.login, (await insertUser(db, { siteId: site.id, login: p.login, fullName: p.fullName, role: p.role, passwordHash })).id);
+  for (const p of PEOPLE)
+    ids.set(
+      p.login,
+      (await insertUser(db, { siteId: site.id, login: p.login, fullName: p.fullName, role: p.role, passwordHash })).id,
+    );
   const periods = new Map<number, number>();
   for (const [i, op] of ops.entries()) {
     const actor: Actor = { siteId: site.id, userId: ids.get(op.actor) ?? 0, now: op.at };
     let result: Result<unknown>;
     if (op.kind === "closePeriod") {
-      result = await closePeriod(db, actor, { periodId: periods.get(op.input.startsAt.getTime()) ?? 0, reason: "month end close" });
+      result = await closePeriod(db, actor, {
+        periodId: periods.get(op.input.startsAt.getTime()) ?? 0,
+        reason: "month end close",
+      });
     } else {
       result = await HANDLERS[op.kind].apply(db, actor, op.input);
-      if (op.kind === "period" && result.ok) periods.set(new Date(op.input.startsAt as string | number | Date).getTime(), (result.value as { id: number }).id);
+      if (op.kind === "period" && result.ok)
+        periods.set(
+          new Date(op.input.startsAt as string | number | Date).getTime(),
+          (result.value as { id: number }).id,
+        );
     }
     if (!result.ok) throw new SeedError(describe(i + 1, op, result.issues));
     if (onProgress && (i + 1) % 1000 === 0) onProgress(i + 1, ops.length);
@@ -111,7 +130,13 @@ export async function writeScenario(db: Db, ops: Op[], onProgress?: (done: numbe
   const first = ops[0]?.at ?? new Date();
   const last = ops[ops.length - 1]?.at ?? new Date();
   const compliance = PEOPLE.find((p) => p.role === "COMPLIANCE")?.login ?? "";
-  await runScreen(db, { siteId: site.id, userId: ids.get(compliance) ?? 0, now: last }, null, first, new Date(last.getTime() + 86_400_000));
+  await runScreen(
+    db,
+    { siteId: site.id, userId: ids.get(compliance) ?? 0, now: last },
+    null,
+    first,
+    new Date(last.getTime() + 86_400_000),
+  );
   return { siteId: site.id };
 }
 
@@ -123,12 +148,18 @@ export function demoAnchor(): Date {
 }
 
 async function truncateAll(db: Db): Promise<void> {
-  const tables = await db.$queryRawUnsafe<Array<{ tablename: string }>>("SELECT tablename FROM pg_tables WHERE schemaname = current_schema() AND tablename <> '_prisma_migrations'");
-  if (tables.length) await db.$executeRawUnsafe(`TRUNCATE ${tables.map((t) => `"${t.tablename}"`).join(", ")} RESTART IDENTITY CASCADE`);
+  const tables = await db.$queryRawUnsafe<Array<{ tablename: string }>>(
+    "SELECT tablename FROM pg_tables WHERE schemaname = current_schema() AND tablename <> '_prisma_migrations'",
+  );
+  if (tables.length)
+    await db.$executeRawUnsafe(`TRUNCATE ${tables.map((t) => `"${t.tablename}"`).join(", ")} RESTART IDENTITY CASCADE`);
 }
 
 /** Loads the demo into url if it holds no site yet (or always, with reset). Returns false when skipped. */
-export async function loadDemo(url: string, opts: { reset?: boolean; log?: (s: string) => void } = {}): Promise<boolean> {
+export async function loadDemo(
+  url: string,
+  opts: { reset?: boolean; log?: (s: string) => void } = {},
+): Promise<boolean> {
   const log = opts.log ?? (() => {});
   const days = process.env.DEMO_DAYS ? Number(process.env.DEMO_DAYS) : undefined;
   const ops = buildScenario({ anchor: demoAnchor(), ...(days && days > 0 ? { days } : {}) });
@@ -185,7 +216,11 @@ if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(import.met
   const started = Date.now();
   loadDemo(url, { reset, log: (s) => console.log(s) })
     .then((loaded) => {
-      console.log(loaded ? `Demo plant loaded in ${((Date.now() - started) / 1000).toFixed(1)} s.` : "Database already holds data; demo not loaded (use npm run db:reset-demo to replace it).");
+      console.log(
+        loaded
+          ? `Demo plant loaded in ${((Date.now() - started) / 1000).toFixed(1)} s.`
+          : "Database already holds data; demo not loaded (use npm run db:reset-demo to replace it).",
+      );
       process.exit(0);
     })
     .catch((e: unknown) => {

@@ -15,10 +15,51 @@ export const PEOPLE = [
   { login: "admin.jory", fullName: "Jory Pellinore", role: "ADMIN" },
 ] as const;
 
-const FIRST = ["Bramble", "Quill", "Otter", "Fennick", "Lark", "Tumble", "Marrow", "Wick", "Copperleaf", "Thistle", "Moss", "Juniper", "Pebble", "Saffron", "Ember", "Hollow", "Nettle", "Cobble"];
+const FIRST = [
+  "Bramble",
+  "Quill",
+  "Otter",
+  "Fennick",
+  "Lark",
+  "Tumble",
+  "Marrow",
+  "Wick",
+  "Copperleaf",
+  "Thistle",
+  "Moss",
+  "Juniper",
+  "Pebble",
+  "Saffron",
+  "Ember",
+  "Hollow",
+  "Nettle",
+  "Cobble",
+];
 const SECOND = ["wick", "moor", "stead", "gate", "holm", "brook", "fold", "mere", "by", "ridge"];
-const KIND_WORD = ["Kitchen", "Grill", "Noodle Bar", "Fry House", "Canteen", "Bistro", "Dumpling Room", "Chip Shop", "Diner", "Bakehouse", "Taqueria", "Curry House"];
-const STREETS = ["Wharf Row", "Tanner Lane", "Millrace Street", "Old Ferry Road", "Kiln Yard", "Cooper Street", "Lantern Walk", "Saltmarsh Road"];
+const KIND_WORD = [
+  "Kitchen",
+  "Grill",
+  "Noodle Bar",
+  "Fry House",
+  "Canteen",
+  "Bistro",
+  "Dumpling Room",
+  "Chip Shop",
+  "Diner",
+  "Bakehouse",
+  "Taqueria",
+  "Curry House",
+];
+const STREETS = [
+  "Wharf Row",
+  "Tanner Lane",
+  "Millrace Street",
+  "Old Ferry Road",
+  "Kiln Yard",
+  "Cooper Street",
+  "Lantern Walk",
+  "Saltmarsh Road",
+];
 
 /** Deterministic invented restaurant names: "<First><second> <Kind>". */
 export function restaurantName(i: number): string {
@@ -29,7 +70,7 @@ export function restaurantName(i: number): string {
 }
 
 export function streetAddress(i: number): string {
-  return `${(i * 13) % 180 + 2} ${STREETS[i % STREETS.length] ?? "Wharf Row"}, Quillmoor`;
+  return `${((i * 13) % 180) + 2} ${STREETS[i % STREETS.length] ?? "Wharf Row"}, Quillmoor`;
 }
 
 export const PROCESSORS = ["Quillmoor Crisp Works", "Fennick Snack Foods", "Larkfold Frozen Meals"];
@@ -38,12 +79,40 @@ export const CRUSHERS = ["Thistlemere Oilseed Mill", "Juniperbrook Crushing"];
 export const OTHER_SUPPLIERS = ["Quillmoor Civic Depot"];
 /** Invented customers in invented towns (codes, addresses and contacts are fiction too). */
 export const CUSTOMERS = [
-  { code: "HHC", name: "Harrowmere Haulage Co-op", address: "3 Drover's Yard, Harrowmere", contact: "Fuel desk, Orla Fenwright" },
-  { code: "QBD", name: "Quillmoor Bus Depot", address: "Coachworks Lane, Quillmoor", contact: "Depot engineer, Bram Tallis" },
-  { code: "TFF", name: "Tolvane Farm Fuels", address: "Upper Tolvane Barns, Bramblebrook", contact: "Yard office, Wenna Cobb" },
-  { code: "SFC", name: "Saltmarsh Ferry Company", address: "Slipway Road, Saltmarsh End", contact: "Bunkering clerk, Idris Marle" },
+  {
+    code: "HHC",
+    name: "Harrowmere Haulage Co-op",
+    address: "3 Drover's Yard, Harrowmere",
+    contact: "Fuel desk, Orla Fenwright",
+  },
+  {
+    code: "QBD",
+    name: "Quillmoor Bus Depot",
+    address: "Coachworks Lane, Quillmoor",
+    contact: "Depot engineer, Bram Tallis",
+  },
+  {
+    code: "TFF",
+    name: "Tolvane Farm Fuels",
+    address: "Upper Tolvane Barns, Bramblebrook",
+    contact: "Yard office, Wenna Cobb",
+  },
+  {
+    code: "SFC",
+    name: "Saltmarsh Ferry Company",
+    address: "Slipway Road, Saltmarsh End",
+    contact: "Bunkering clerk, Idris Marle",
+  },
 ] as const;
 export const HAULERS = ["Brannick Liquid Waste", "Fernwhistle Environmental"];
 /** Receiving facilities of the demo's hauls, by stream (fictional). */
-export const DISPOSAL_FACILITIES = { GLYCEROL_PHASE: "Orrinford Glycerin Recovery", WASH_WATER: "Teasel Marsh Water Treatment" } as const;
-export const REAGENT_SUPPLIERS = { METHANOL: "Kilnyard Chemicals", KOH: "Kilnyard Chemicals", H2SO4: "Copperleaf Process Supplies", WATER: "Quillmoor Water (meter)" } as const;
+export const DISPOSAL_FACILITIES = {
+  GLYCEROL_PHASE: "Orrinford Glycerin Recovery",
+  WASH_WATER: "Teasel Marsh Water Treatment",
+} as const;
+export const REAGENT_SUPPLIERS = {
+  METHANOL: "Kilnyard Chemicals",
+  KOH: "Kilnyard Chemicals",
+  H2SO4: "Copperleaf Process Supplies",
+  WATER: "Quillmoor Water (meter)",
+} as const;

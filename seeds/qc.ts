@@ -9,7 +9,15 @@ export const DEMO_LAB = "Quillmoor Fuel Works laboratory";
 export const CONTRACT_LAB = "Fernbrook Fuel Analysis (contract lab)";
 
 /** Properties the site's own lab tests; the rest go to the contract lab. */
-const OWN_LAB = new Set(["acid-number", "water-sediment", "flash-point", "free-glycerin", "total-glycerin", "cloud-point", "viscosity-40c"]);
+const OWN_LAB = new Set([
+  "acid-number",
+  "water-sediment",
+  "flash-point",
+  "free-glycerin",
+  "total-glycerin",
+  "cloud-point",
+  "viscosity-40c",
+]);
 
 /**
  * Typical values (low, high, decimals) for the demo: inside the ASTM D6751-23a Table 1 limits of the
@@ -69,13 +77,25 @@ export function demoQcResults(productLotCode: string, at: Date, fail: boolean): 
       const typical = TYPICAL[p.key];
       if (!typical) throw new Error(`demo: no typical value for ${p.key}`);
       const [lo, hi, decimals] = typical;
-      const value = fail && p.key === "acid-number" ? FAILING_ACID_NUMBER : Number((lo + (hi - lo) * rand()).toFixed(decimals));
-      return { productLotCode, property: p.key, value, lab: OWN_LAB.has(p.key) ? DEMO_LAB : CONTRACT_LAB, reportNo: `QR-${productLotCode}`, testedAt: at };
+      const value =
+        fail && p.key === "acid-number" ? FAILING_ACID_NUMBER : Number((lo + (hi - lo) * rand()).toFixed(decimals));
+      return {
+        productLotCode,
+        property: p.key,
+        value,
+        lab: OWN_LAB.has(p.key) ? DEMO_LAB : CONTRACT_LAB,
+        reportNo: `QR-${productLotCode}`,
+        testedAt: at,
+      };
     });
 }
 
 export function demoDecision(productLotCode: string, fail: boolean): ProductDecisionInput {
   return fail
-    ? { productLotCode, decision: "HOLD", reason: `Acid number ${FAILING_ACID_NUMBER} mg KOH/g is above the 0.50 maximum; held for re-processing.` }
+    ? {
+        productLotCode,
+        decision: "HOLD",
+        reason: `Acid number ${FAILING_ACID_NUMBER} mg KOH/g is above the 0.50 maximum; held for re-processing.`,
+      }
     : { productLotCode, decision: "RELEASE", reason: "" };
 }

@@ -3,7 +3,15 @@
 // The simulation keeps its own book of stocks so that every draw it writes is one the ledger accepts.
 import type { SourceInput } from "@/lib/source/source.schema";
 import type { SourceProfileInput } from "@/lib/screening/screening.schema";
-import { declaredProfile, FRESH_OIL_FFA, FRESH_OIL_SOURCE, HEAVY_WATER_PCT, TRIPLED_SOURCE, tripledMonth, WATER_SOURCE } from "@/seeds/screening-plant";
+import {
+  declaredProfile,
+  FRESH_OIL_FFA,
+  FRESH_OIL_SOURCE,
+  HEAVY_WATER_PCT,
+  TRIPLED_SOURCE,
+  tripledMonth,
+  WATER_SOURCE,
+} from "@/seeds/screening-plant";
 import type { PickupInput } from "@/lib/feedstock/pickup.schema";
 import type { DeliveryLotInput, LabTestInput, LotFromPickupsInput } from "@/lib/feedstock/lot.schema";
 import type { LotTitrationInput } from "@/lib/feedstock/titration.service";
@@ -18,8 +26,19 @@ import type { AccountingPeriodInput } from "@/lib/period/period.schema";
 import type { MaterialKind } from "@/lib/ledger/kinds";
 import { measureObserved } from "@/lib/feedstock/measure";
 import { DEFAULT_DENSITY_TABLE, densityAt, requireDensityEntry } from "@/lib/quantity/density";
-import type { PEOPLE} from "@/seeds/names";
-import { CRUSHERS, CUSTOMERS, DISPOSAL_FACILITIES, HAULERS, OTHER_SUPPLIERS, PROCESSORS, REAGENT_SUPPLIERS, RENDERERS, restaurantName, streetAddress } from "@/seeds/names";
+import type { PEOPLE } from "@/seeds/names";
+import {
+  CRUSHERS,
+  CUSTOMERS,
+  DISPOSAL_FACILITIES,
+  HAULERS,
+  OTHER_SUPPLIERS,
+  PROCESSORS,
+  REAGENT_SUPPLIERS,
+  RENDERERS,
+  restaurantName,
+  streetAddress,
+} from "@/seeds/names";
 
 export type Login = (typeof PEOPLE)[number]["login"];
 
@@ -100,19 +119,45 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
   const at0 = t(0, 6);
 
   // ---- sources ------------------------------------------------------------------------------
-  interface SimSource { code: string; material: MaterialKind; every: number; litres: number; nextDay: number; certified: boolean }
+  interface SimSource {
+    code: string;
+    material: MaterialKind;
+    every: number;
+    litres: number;
+    nextDay: number;
+    certified: boolean;
+  }
   const collected: SimSource[] = [];
   for (let i = 0; i < 32; i++) {
     const trap = i % 8 === 5;
     const code = `R${String(i + 1).padStart(3, "0")}`;
     const certified = i % 3 !== 2;
     const every = 1 + (i % 4);
-    collected.push({ code, material: trap ? "TRAP_GREASE" : "USED_COOKING_OIL", every, litres: trap ? 380 : 90 + (i % 7) * 45, nextDay: i % every, certified });
+    collected.push({
+      code,
+      material: trap ? "TRAP_GREASE" : "USED_COOKING_OIL",
+      every,
+      litres: trap ? 380 : 90 + (i % 7) * 45,
+      nextDay: i % every,
+      certified,
+    });
     ops.push({
-      kind: "source", at: at0, actor: "admin.jory",
+      kind: "source",
+      at: at0,
+      actor: "admin.jory",
       input: {
-        code, name: restaurantName(i), kind: "RESTAURANT", materials: [trap ? "TRAP_GREASE" : "USED_COOKING_OIL"], address: streetAddress(i),
-        ...(certified ? { certificateNo: `SC-QM-${String(1000 + i)}`, certificateScheme: "Regional sustainable-waste scheme", certificateExpires: new Date(anchor + (40 + i * 9) * DAY) } : {}),
+        code,
+        name: restaurantName(i),
+        kind: "RESTAURANT",
+        materials: [trap ? "TRAP_GREASE" : "USED_COOKING_OIL"],
+        address: streetAddress(i),
+        ...(certified
+          ? {
+              certificateNo: `SC-QM-${String(1000 + i)}`,
+              certificateScheme: "Regional sustainable-waste scheme",
+              certificateExpires: new Date(anchor + (40 + i * 9) * DAY),
+            }
+          : {}),
         pickupEveryDays: every,
         collectorNote: i % 6 === 0 ? "Drums behind the blue gate; ring the kitchen bell." : "",
       },
@@ -120,17 +165,98 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
   }
   PROCESSORS.forEach((name, i) => {
     const code = `F${String(i + 1).padStart(3, "0")}`;
-    collected.push({ code, material: "USED_COOKING_OIL", every: 7, litres: 1400 + i * 300, nextDay: 2 + i, certified: true });
-    ops.push({ kind: "source", at: at0, actor: "admin.jory", input: { code, name, kind: "FOOD_PROCESSOR", materials: ["USED_COOKING_OIL"], address: streetAddress(40 + i), certificateNo: `SC-QM-${2000 + i}`, certificateScheme: "Regional sustainable-waste scheme", certificateExpires: new Date(anchor + 200 * DAY), pickupEveryDays: 7, collectorNote: "Tanker bay 2; weigh out at the gatehouse." } });
+    collected.push({
+      code,
+      material: "USED_COOKING_OIL",
+      every: 7,
+      litres: 1400 + i * 300,
+      nextDay: 2 + i,
+      certified: true,
+    });
+    ops.push({
+      kind: "source",
+      at: at0,
+      actor: "admin.jory",
+      input: {
+        code,
+        name,
+        kind: "FOOD_PROCESSOR",
+        materials: ["USED_COOKING_OIL"],
+        address: streetAddress(40 + i),
+        certificateNo: `SC-QM-${2000 + i}`,
+        certificateScheme: "Regional sustainable-waste scheme",
+        certificateExpires: new Date(anchor + 200 * DAY),
+        pickupEveryDays: 7,
+        collectorNote: "Tanker bay 2; weigh out at the gatehouse.",
+      },
+    });
   });
-  const renderers = RENDERERS.map((name, i) => ({ code: `D${String(i + 1).padStart(3, "0")}`, name, material: (i === 2 ? "TALLOW" : "YELLOW_GREASE") as MaterialKind }));
-  const crushers = CRUSHERS.map((name, i) => ({ code: `C${String(i + 1).padStart(3, "0")}`, name, material: (i === 0 ? "SOYBEAN" : "CANOLA") as MaterialKind }));
-  for (const s of renderers) ops.push({ kind: "source", at: at0, actor: "admin.jory", input: { code: s.code, name: s.name, kind: "RENDERER", materials: [s.material], address: "Rendering Lane, Otterholm Industrial Estate" } });
-  for (const s of crushers) ops.push({ kind: "source", at: at0, actor: "admin.jory", input: { code: s.code, name: s.name, kind: "CRUSHER", materials: [s.material], address: "Mill Wharf, Quillmoor", certificateNo: `SC-CR-${s.code}`, certificateScheme: "Regional crop-oil scheme", certificateExpires: new Date(anchor + 300 * DAY) } });
-  ops.push({ kind: "source", at: at0, actor: "admin.jory", input: { code: "O001", name: OTHER_SUPPLIERS[0] ?? "Civic depot", kind: "DROP_OFF", materials: ["USED_COOKING_OIL"], address: "Depot Road, Quillmoor", collectorNote: "Household oil drop-off bank; empty the 1 m³ bank." } });
+  const renderers = RENDERERS.map((name, i) => ({
+    code: `D${String(i + 1).padStart(3, "0")}`,
+    name,
+    material: (i === 2 ? "TALLOW" : "YELLOW_GREASE") as MaterialKind,
+  }));
+  const crushers = CRUSHERS.map((name, i) => ({
+    code: `C${String(i + 1).padStart(3, "0")}`,
+    name,
+    material: (i === 0 ? "SOYBEAN" : "CANOLA") as MaterialKind,
+  }));
+  for (const s of renderers)
+    ops.push({
+      kind: "source",
+      at: at0,
+      actor: "admin.jory",
+      input: {
+        code: s.code,
+        name: s.name,
+        kind: "RENDERER",
+        materials: [s.material],
+        address: "Rendering Lane, Otterholm Industrial Estate",
+      },
+    });
+  for (const s of crushers)
+    ops.push({
+      kind: "source",
+      at: at0,
+      actor: "admin.jory",
+      input: {
+        code: s.code,
+        name: s.name,
+        kind: "CRUSHER",
+        materials: [s.material],
+        address: "Mill Wharf, Quillmoor",
+        certificateNo: `SC-CR-${s.code}`,
+        certificateScheme: "Regional crop-oil scheme",
+        certificateExpires: new Date(anchor + 300 * DAY),
+      },
+    });
+  ops.push({
+    kind: "source",
+    at: at0,
+    actor: "admin.jory",
+    input: {
+      code: "O001",
+      name: OTHER_SUPPLIERS[0] ?? "Civic depot",
+      kind: "DROP_OFF",
+      materials: ["USED_COOKING_OIL"],
+      address: "Depot Road, Quillmoor",
+      collectorNote: "Household oil drop-off bank; empty the 1 m³ bank.",
+    },
+  });
   collected.push({ code: "O001", material: "USED_COOKING_OIL", every: 14, litres: 600, nextDay: 5, certified: false });
   // Compliance's declared capacities and hours (source checks), and the month the planted restaurant triples.
-  collected.forEach((s, i) => ops.push({ kind: "sourceProfile", at: at0, actor: "compliance.nell", input: declaredProfile({ ...s, kind: s.code.startsWith("R") ? "RESTAURANT" : s.code.startsWith("F") ? "FOOD_PROCESSOR" : "DROP_OFF" }, i, at0) }));
+  collected.forEach((s, i) =>
+    ops.push({
+      kind: "sourceProfile",
+      at: at0,
+      actor: "compliance.nell",
+      input: declaredProfile(
+        { ...s, kind: s.code.startsWith("R") ? "RESTAURANT" : s.code.startsWith("F") ? "FOOD_PROCESSOR" : "DROP_OFF" },
+        i,
+        at0,
+      ),
+    }),
+  );
   const tripled = tripledMonth(anchor);
   const inTripledMonth = (day: number) => {
     const d = new Date(start + day * DAY);
@@ -151,8 +277,18 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
   ] as const;
   // Fictional calibration tables for the two 60 m³ feedstock tanks: a coned bottom holding 900 L in its
   // lowest 200 mm, then 9.85 L per mm up to 6,200 mm. T1 has none on file (gauged by volume).
-  const strapping60k = (): number[][] => [[0, 0], [200, 900], ...Array.from({ length: 12 }, (_, i) => [700 + i * 500, Math.round(900 + (500 + i * 500) * 9.85)])];
-  for (const d of tankDefs) ops.push({ kind: "tank", at: at0, actor: "admin.jory", input: { ...d, mixing: "MIXED", ...(d.code === "T2" || d.code === "T3" ? { strapping: strapping60k() } : {}) } });
+  const strapping60k = (): number[][] => [
+    [0, 0],
+    [200, 900],
+    ...Array.from({ length: 12 }, (_, i) => [700 + i * 500, Math.round(900 + (500 + i * 500) * 9.85)]),
+  ];
+  for (const d of tankDefs)
+    ops.push({
+      kind: "tank",
+      at: at0,
+      actor: "admin.jory",
+      input: { ...d, mixing: "MIXED", ...(d.code === "T2" || d.code === "T3" ? { strapping: strapping60k() } : {}) },
+    });
   for (const c of CUSTOMERS) ops.push({ kind: "customer", at: at0, actor: "compliance.nell", input: { ...c } });
   const tanks = new Map<string, SimTank>();
   for (const d of tankDefs) {
@@ -160,18 +296,32 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
     const cap = Math.floor(d.capacityL * densityAt(requireDensityEntry(DEFAULT_DENSITY_TABLE, material), 15) * 0.97);
     tanks.set(d.code, { code: d.code, stockG: 0, capacityG: cap, heelG: Math.floor(cap * 0.08), ffaMassG: 0 });
   }
-  const feedTankFor = (m: MaterialKind) => (m === "USED_COOKING_OIL" ? "T1" : m === "YELLOW_GREASE" || m === "TRAP_GREASE" ? "T2" : "T3");
+  const feedTankFor = (m: MaterialKind) =>
+    m === "USED_COOKING_OIL" ? "T1" : m === "YELLOW_GREASE" || m === "TRAP_GREASE" ? "T2" : "T3";
 
   // ---- reagents ----------------------------------------------------------------------------
   const reagentLots: Array<{ code: string; reagent: "METHANOL" | "KOH" | "H2SO4" | "WATER"; stockG: number }> = [];
   let reagentSeq = 0;
-  const receiveReagent = (reagent: "METHANOL" | "KOH" | "H2SO4" | "WATER", kg: number, at: Date, strengthPct: number) => {
+  const receiveReagent = (
+    reagent: "METHANOL" | "KOH" | "H2SO4" | "WATER",
+    kg: number,
+    at: Date,
+    strengthPct: number,
+  ) => {
     reagentSeq++;
     const code = `${reagent === "METHANOL" ? "MEOH" : reagent}-${String(reagentSeq).padStart(3, "0")}`;
     reagentLots.push({ code, reagent, stockG: Math.round(kg * 1000) });
-    ops.push({ kind: "reagent", at, actor: "production.tess", input: { code, reagent, supplier: REAGENT_SUPPLIERS[reagent], strengthPct, receivedAt: at, massKg: kg } });
+    ops.push({
+      kind: "reagent",
+      at,
+      actor: "production.tess",
+      input: { code, reagent, supplier: REAGENT_SUPPLIERS[reagent], strengthPct, receivedAt: at, massKg: kg },
+    });
   };
-  const drawReagent = (reagent: "METHANOL" | "KOH" | "H2SO4" | "WATER", grams: number): Array<{ code: string; grams: number }> => {
+  const drawReagent = (
+    reagent: "METHANOL" | "KOH" | "H2SO4" | "WATER",
+    grams: number,
+  ): Array<{ code: string; grams: number }> => {
     const out: Array<{ code: string; grams: number }> = [];
     let left = grams;
     for (const l of reagentLots) {
@@ -184,10 +334,17 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
     if (left > 0) throw new Error(`scenario: ran out of ${reagent}`);
     return out;
   };
-  const reagentStock = (reagent: string) => reagentLots.filter((l) => l.reagent === reagent).reduce((s, l) => s + l.stockG, 0);
+  const reagentStock = (reagent: string) =>
+    reagentLots.filter((l) => l.reagent === reagent).reduce((s, l) => s + l.stockG, 0);
 
   // ---- waste containers ----------------------------------------------------------------------
-  interface SimWaste { code: string; stream: "GLYCEROL_PHASE" | "WASH_WATER"; stockG: number; capacityG: number; startedDay: number }
+  interface SimWaste {
+    code: string;
+    stream: "GLYCEROL_PHASE" | "WASH_WATER";
+    stockG: number;
+    capacityG: number;
+    startedDay: number;
+  }
   let wasteSeq = 0;
   const openContainer = (stream: SimWaste["stream"], day: number): SimWaste => {
     wasteSeq++;
@@ -195,14 +352,34 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
     const capacityL = stream === "GLYCEROL_PHASE" ? 110_000 : 40_000;
     const glycerol = stream === "GLYCEROL_PHASE";
     ops.push({
-      kind: "wasteContainer", at: t(day, 6, 30), actor: "compliance.nell",
+      kind: "wasteContainer",
+      at: t(day, 6, 30),
+      actor: "compliance.nell",
       input: {
-        code, stream, location: glycerol ? "Glycerol pad" : "Wash-water bay", accumulationStart: t(day, 6, 30), capacityL, satellite: false,
+        code,
+        stream,
+        location: glycerol ? "Glycerol pad" : "Wash-water bay",
+        accumulationStart: t(day, 6, 30),
+        capacityL,
+        satellite: false,
         // Typical characterisation ranges of crude glycerol and wash water (common practice, demo values).
-        ...(glycerol ? { methanolPct: r1(between(8, 16)), pH: r1(between(9, 11.5)), flashPointC: r1(between(28, 48)), waterPct: r1(between(3, 9)) } : { methanolPct: r1(between(0.8, 3)), pH: r1(between(8, 10.5)), waterPct: r1(between(90, 96)) }),
+        ...(glycerol
+          ? {
+              methanolPct: r1(between(8, 16)),
+              pH: r1(between(9, 11.5)),
+              flashPointC: r1(between(28, 48)),
+              waterPct: r1(between(3, 9)),
+            }
+          : { methanolPct: r1(between(0.8, 3)), pH: r1(between(8, 10.5)), waterPct: r1(between(90, 96)) }),
       },
     });
-    return { code, stream, stockG: 0, capacityG: Math.floor(capacityL * (glycerol ? 1.05 : 1.0) * 1000 * 0.95), startedDay: day };
+    return {
+      code,
+      stream,
+      stockG: 0,
+      capacityG: Math.floor(capacityL * (glycerol ? 1.05 : 1.0) * 1000 * 0.95),
+      startedDay: day,
+    };
   };
   let glycerolBox = openContainer("GLYCEROL_PHASE", 0);
   let washBox = openContainer("WASH_WATER", 0);
@@ -210,7 +387,19 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
   const haul = (box: SimWaste, day: number) => {
     disposalSeq++;
     // The hauler comes at the end of the day, after that day's batch outputs.
-    ops.push({ kind: "disposal", at: t(day, 18), actor: "compliance.nell", input: { documentNo: `MAN-${String(disposalSeq).padStart(4, "0")}`, hauler: pick(HAULERS), disposedAt: t(day, 18), containerCode: box.code, massKg: box.stockG / 1000, destination: DISPOSAL_FACILITIES[box.stream] } });
+    ops.push({
+      kind: "disposal",
+      at: t(day, 18),
+      actor: "compliance.nell",
+      input: {
+        documentNo: `MAN-${String(disposalSeq).padStart(4, "0")}`,
+        hauler: pick(HAULERS),
+        disposedAt: t(day, 18),
+        containerCode: box.code,
+        massKg: box.stockG / 1000,
+        destination: DISPOSAL_FACILITIES[box.stream],
+      },
+    });
     box.stockG = 0;
   };
   const glycerolHaulDays = [days - 180 + 40, days - 180 + 82, days - 84].filter((d) => d > 0 && d < days);
@@ -225,7 +414,15 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
   let lotSeq = 0;
   let pickupSeq = 0;
   let batchSeq = 0;
-  const pendingLots: Array<{ code: string; grams: number; material: MaterialKind; ffa: number; water: number; reject: boolean; day: number }> = [];
+  const pendingLots: Array<{
+    code: string;
+    grams: number;
+    material: MaterialKind;
+    ffa: number;
+    water: number;
+    reject: boolean;
+    day: number;
+  }> = [];
   const stockLots: Array<{ code: string; grams: number; material: MaterialKind; ffa: number }> = [];
   receiveReagent("METHANOL", 18_000, t(0, 7), 99.9);
   receiveReagent("KOH", 1_500, t(0, 7), 90);
@@ -233,8 +430,23 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
   receiveReagent("WATER", 60_000, t(0, 7), 100);
 
   const materialFfa = (m: MaterialKind) =>
-    m === "USED_COOKING_OIL" ? between(0.8, 5.5) : m === "TRAP_GREASE" ? between(9, 15) : m === "YELLOW_GREASE" ? between(6, 14) : m === "TALLOW" ? between(1, 4) : between(0.5, 1.0);
-  const materialWater = (m: MaterialKind) => (m === "TRAP_GREASE" ? between(0.8, 2.8) : m === "YELLOW_GREASE" ? between(0.3, 1.5) : m === "USED_COOKING_OIL" ? between(0.05, 1.2) : between(0.02, 0.1));
+    m === "USED_COOKING_OIL"
+      ? between(0.8, 5.5)
+      : m === "TRAP_GREASE"
+        ? between(9, 15)
+        : m === "YELLOW_GREASE"
+          ? between(6, 14)
+          : m === "TALLOW"
+            ? between(1, 4)
+            : between(0.5, 1.0);
+  const materialWater = (m: MaterialKind) =>
+    m === "TRAP_GREASE"
+      ? between(0.8, 2.8)
+      : m === "YELLOW_GREASE"
+        ? between(0.3, 1.5)
+        : m === "USED_COOKING_OIL"
+          ? between(0.05, 1.2)
+          : between(0.02, 0.1);
   const collectors: Login[] = ["collector.ivo", "collector.mira", "collector.odo"];
 
   for (let day = 0; day < days; day++) {
@@ -249,17 +461,59 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
       // AOCS Ca 5a-40 Table 1 sample sizes: titre in mL ≈ %FFA (7.05 g, 0.25 N) or 10 × %FFA (28.2 g, 0.1 N).
       for (const rep of [0, 1]) {
         const titre = r2((small ? lot.ffa * 10 : lot.ffa) * (1 + (rep ? 1 : -1) * between(0, 0.012)));
-        ops.push({ kind: "titration", at, actor: "production.rafe", input: { lotCode: lot.code, testedAt: new Date(at.getTime() + rep * 600_000), sampleMassG: small ? 28.2 : 7.05, titrant: "NAOH", concentrationMolL: small ? 0.1 : 0.25, titreMl: titre, blankMl: 0, basis: "OLEIC" } });
+        ops.push({
+          kind: "titration",
+          at,
+          actor: "production.rafe",
+          input: {
+            lotCode: lot.code,
+            testedAt: new Date(at.getTime() + rep * 600_000),
+            sampleMassG: small ? 28.2 : 7.05,
+            titrant: "NAOH",
+            concentrationMolL: small ? 0.1 : 0.25,
+            titreMl: titre,
+            blankMl: 0,
+            basis: "OLEIC",
+          },
+        });
       }
-      ops.push({ kind: "labTest", at, actor: "production.rafe", input: { lotCode: lot.code, testedAt: at, kind: "WATER", method: "Karl Fischer (lab SOP W-2)", valuePct: r2(lot.water) } });
-      ops.push({ kind: "decideLot", at: t(day, 9), actor: "production.rafe", input: { lotCode: lot.code, status: lot.reject ? "REJECTED" : "ACCEPTED" } });
+      ops.push({
+        kind: "labTest",
+        at,
+        actor: "production.rafe",
+        input: {
+          lotCode: lot.code,
+          testedAt: at,
+          kind: "WATER",
+          method: "Karl Fischer (lab SOP W-2)",
+          valuePct: r2(lot.water),
+        },
+      });
+      ops.push({
+        kind: "decideLot",
+        at: t(day, 9),
+        actor: "production.rafe",
+        input: { lotCode: lot.code, status: lot.reject ? "REJECTED" : "ACCEPTED" },
+      });
       pendingLots.splice(pendingLots.indexOf(lot), 1);
       if (!lot.reject) stockLots.push({ code: lot.code, grams: lot.grams, material: lot.material, ffa: lot.ffa });
     }
     for (const lot of [...stockLots]) {
       const tank = tanks.get(feedTankFor(lot.material));
       if (!tank || tank.stockG + lot.grams > tank.capacityG) continue; // waits in its drums/tote
-      ops.push({ kind: "transfer", at: t(day, 9, 30), actor: "production.tess", input: { fromKind: "LOT", fromCode: lot.code, toTankCode: tank.code, at: t(day, 9, 30), massKg: lot.grams / 1000, note: "" } });
+      ops.push({
+        kind: "transfer",
+        at: t(day, 9, 30),
+        actor: "production.tess",
+        input: {
+          fromKind: "LOT",
+          fromCode: lot.code,
+          toTankCode: tank.code,
+          at: t(day, 9, 30),
+          massKg: lot.grams / 1000,
+          note: "",
+        },
+      });
       tank.stockG += lot.grams;
       tank.ffaMassG += (lot.grams * lot.ffa) / 100;
       stockLots.splice(stockLots.indexOf(lot), 1);
@@ -277,15 +531,33 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
         const containers = Math.max(1, Math.round(litres / (s.material === "TRAP_GREASE" ? 200 : 60)));
         const observed = t(day, 7 + Math.floor(rand() * 8), Math.floor(rand() * 60));
         ops.push({
-          kind: "pickup", at: new Date(observed.getTime() + (rand() < 0.05 ? 5 * 3_600_000 : 20 * 60_000)), actor: pick(collectors),
-          input: { code, sourceCode: s.code, material: s.material, observedAt: observed, containers, volumeL: litres, tempC: r1(seasonTemp + between(-3, 4)), waterLook: rand() < 0.1 ? "TRACE" : "NONE", solidsLook: rand() < 0.15 ? "TRACE" : "NONE", notes: rand() < 0.04 ? "Lid left open; rainwater likely." : "" },
+          kind: "pickup",
+          at: new Date(observed.getTime() + (rand() < 0.05 ? 5 * 3_600_000 : 20 * 60_000)),
+          actor: pick(collectors),
+          input: {
+            code,
+            sourceCode: s.code,
+            material: s.material,
+            observedAt: observed,
+            containers,
+            volumeL: litres,
+            tempC: r1(seasonTemp + between(-3, 4)),
+            waterLook: rand() < 0.1 ? "TRACE" : "NONE",
+            solidsLook: rand() < 0.15 ? "TRACE" : "NONE",
+            notes: rand() < 0.04 ? "Lid left open; rainwater likely." : "",
+          },
         });
         todays.push({ code, material: s.material, litres, source: s.code });
       }
       // The drop-off bank's oil, and the planted fresh-oil collection, are kept in lots of their own.
-      const ownLot = (p: { source: string }) => p.source === WATER_SOURCE || (p.source === FRESH_OIL_SOURCE && day >= freshOilDay && !freshPlanted);
+      const ownLot = (p: { source: string }) =>
+        p.source === WATER_SOURCE || (p.source === FRESH_OIL_SOURCE && day >= freshOilDay && !freshPlanted);
       const groups = [
-        ...(["USED_COOKING_OIL", "TRAP_GREASE"] as const).map((material) => ({ material, group: todays.filter((p) => p.material === material && !ownLot(p)), planted: null as string | null })),
+        ...(["USED_COOKING_OIL", "TRAP_GREASE"] as const).map((material) => ({
+          material,
+          group: todays.filter((p) => p.material === material && !ownLot(p)),
+          planted: null as string | null,
+        })),
         ...todays.filter(ownLot).map((p) => ({ material: p.material, group: [p], planted: p.source })),
       ];
       if (todays.some((p) => p.source === FRESH_OIL_SOURCE && ownLot(p))) freshPlanted = true;
@@ -295,10 +567,30 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
         const code = `L-${String(lotSeq).padStart(4, "0")}`;
         const observedVolumeL = r1(group.reduce((s, p) => s + p.litres, 0) * between(0.985, 1.005));
         const observedTempC = r1(seasonTemp + between(0, 6));
-        const m = measureObserved({ material, observedVolumeL, observedTempC, referenceTempC: 15, table: DEFAULT_DENSITY_TABLE });
+        const m = measureObserved({
+          material,
+          observedVolumeL,
+          observedTempC,
+          referenceTempC: 15,
+          table: DEFAULT_DENSITY_TABLE,
+        });
         if (!m.ok) throw new Error("scenario: lot not measurable");
         const recvAt = t(day, 16, 30);
-        ops.push({ kind: "lotFromPickups", at: recvAt, actor: "production.tess", input: { code, material, receivedAt: recvAt, observedVolumeL, observedTempC, certified: group.length > 0 && material === "USED_COOKING_OIL", notes: "", pickupCodes: group.map((p) => p.code) } });
+        ops.push({
+          kind: "lotFromPickups",
+          at: recvAt,
+          actor: "production.tess",
+          input: {
+            code,
+            material,
+            receivedAt: recvAt,
+            observedVolumeL,
+            observedTempC,
+            certified: group.length > 0 && material === "USED_COOKING_OIL",
+            notes: "",
+            pickupCodes: group.map((p) => p.code),
+          },
+        });
         if (planted === WATER_SOURCE) waterLots++;
         const usualWater = materialWater(material);
         const usualFfa = materialFfa(material);
@@ -310,19 +602,50 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
 
     // Deliveries from renderers and crushers.
     const deliveries: Array<{ s: { code: string; name: string; material: MaterialKind }; litres: number }> = [];
-    if (weekday === 2 && day % 14 < 7) deliveries.push({ s: renderers[day % 2 === 0 ? 0 : 1] ?? renderers[0]!, litres: between(16_000, 22_000) });
+    if (weekday === 2 && day % 14 < 7)
+      deliveries.push({ s: renderers[day % 2 === 0 ? 0 : 1] ?? renderers[0]!, litres: between(16_000, 22_000) });
     if (weekday === 4 && day % 28 < 7) deliveries.push({ s: renderers[2]!, litres: between(12_000, 18_000) });
-    if (weekday === 3 && day % 42 < 7) deliveries.push({ s: crushers[(day / 42) % 2 < 1 ? 0 : 1]!, litres: between(18_000, 24_000) });
+    if (weekday === 3 && day % 42 < 7)
+      deliveries.push({ s: crushers[(day / 42) % 2 < 1 ? 0 : 1]!, litres: between(18_000, 24_000) });
     for (const d of deliveries) {
       lotSeq++;
       const code = `L-${String(lotSeq).padStart(4, "0")}`;
       const observedVolumeL = r1(d.litres);
       const observedTempC = r1(d.s.material === "TALLOW" ? between(45, 55) : seasonTemp + between(2, 10));
-      const m = measureObserved({ material: d.s.material, observedVolumeL, observedTempC, referenceTempC: 15, table: DEFAULT_DENSITY_TABLE });
+      const m = measureObserved({
+        material: d.s.material,
+        observedVolumeL,
+        observedTempC,
+        referenceTempC: 15,
+        table: DEFAULT_DENSITY_TABLE,
+      });
       if (!m.ok) throw new Error("scenario: delivery not measurable");
       const at = t(day, 11);
-      ops.push({ kind: "delivery", at, actor: "production.tess", input: { code, material: d.s.material, receivedAt: at, observedVolumeL, observedTempC, certified: d.s.material === "SOYBEAN" || d.s.material === "CANOLA", notes: "", supplierCode: d.s.code, deliveryDocument: `DN-${d.s.code}-${day}` } });
-      pendingLots.push({ code, grams: m.value.massG, material: d.s.material, ffa: materialFfa(d.s.material), water: materialWater(d.s.material), reject: false, day });
+      ops.push({
+        kind: "delivery",
+        at,
+        actor: "production.tess",
+        input: {
+          code,
+          material: d.s.material,
+          receivedAt: at,
+          observedVolumeL,
+          observedTempC,
+          certified: d.s.material === "SOYBEAN" || d.s.material === "CANOLA",
+          notes: "",
+          supplierCode: d.s.code,
+          deliveryDocument: `DN-${d.s.code}-${day}`,
+        },
+      });
+      pendingLots.push({
+        code,
+        grams: m.value.massG,
+        material: d.s.material,
+        ffa: materialFfa(d.s.material),
+        water: materialWater(d.s.material),
+        reject: false,
+        day,
+      });
     }
 
     // Reagent top-ups.
@@ -339,7 +662,7 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
       if (candidates.length === 0) break;
       const tank = candidates.sort((a, z) => z.stockG - z.heelG - (a.stockG - a.heelG))[0]!;
       const oilG = Math.min(tank.stockG - tank.heelG, Math.round(between(6_000, 9_000) * 1000));
-      const ffa = tank.ffaMassG / tank.stockG * 100;
+      const ffa = (tank.ffaMassG / tank.stockG) * 100;
       batchSeq++;
       const code = `B-${String(batchSeq).padStart(4, "0")}`;
       const pretreat = ffa > 5;
@@ -354,13 +677,42 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
       const acidKg = pretreat ? ffaKg * 0.05 : 0;
       const pretreatMethanolKg = pretreat ? (ffaKg / 282.47) * 20 * 32.042 : 0;
       const washKg = oilKg * 0.2;
-      ops.push({ kind: "planBatch", at: t(day, h - 1), actor: "production.tess", input: { code, plannedAt: t(day, h - 1), targetOilKg: r3(oilKg), molarRatio: 6, catalyst: "KOH", reactionTempC: 60, pretreated: pretreat, recipe: { blendFfaPct: r2(ffa), methanolKg: r3(methanolKg), catalystKg: r3(kohKg), acidKg: r3(acidKg), pretreatMethanolKg: r3(pretreatMethanolKg), washWaterKg: r3(washKg) }, notes: pretreat ? "High FFA: acid esterification before the base step." : "" } });
+      ops.push({
+        kind: "planBatch",
+        at: t(day, h - 1),
+        actor: "production.tess",
+        input: {
+          code,
+          plannedAt: t(day, h - 1),
+          targetOilKg: r3(oilKg),
+          molarRatio: 6,
+          catalyst: "KOH",
+          reactionTempC: 60,
+          pretreated: pretreat,
+          recipe: {
+            blendFfaPct: r2(ffa),
+            methanolKg: r3(methanolKg),
+            catalystKg: r3(kohKg),
+            acidKg: r3(acidKg),
+            pretreatMethanolKg: r3(pretreatMethanolKg),
+            washWaterKg: r3(washKg),
+          },
+          notes: pretreat ? "High FFA: acid esterification before the base step." : "",
+        },
+      });
       if (lastDay && b === batchesToday - 1) continue; // planned for tomorrow's shift
       tank.ffaMassG -= (tank.ffaMassG * oilG) / tank.stockG;
       tank.stockG -= oilG;
-      const charges: BatchStartInput["charges"] = [{ fromKind: "TANK", fromCode: tank.code, role: "OIL", massKg: oilKg }];
-      const addCharges = (reagent: "METHANOL" | "KOH" | "H2SO4", kg: number, role: "METHANOL" | "CATALYST" | "ACID") => {
-        for (const part of drawReagent(reagent, Math.round(kg * 1000))) charges.push({ fromKind: "REAGENT_LOT", fromCode: part.code, role, massKg: part.grams / 1000 });
+      const charges: BatchStartInput["charges"] = [
+        { fromKind: "TANK", fromCode: tank.code, role: "OIL", massKg: oilKg },
+      ];
+      const addCharges = (
+        reagent: "METHANOL" | "KOH" | "H2SO4",
+        kg: number,
+        role: "METHANOL" | "CATALYST" | "ACID",
+      ) => {
+        for (const part of drawReagent(reagent, Math.round(kg * 1000)))
+          charges.push({ fromKind: "REAGENT_LOT", fromCode: part.code, role, massKg: part.grams / 1000 });
       };
       // Recovered methanol is used first, keeping a heel in its tank; fresh methanol makes up the rest.
       const m1 = tanks.get("M1")!;
@@ -373,7 +725,12 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
       addCharges("METHANOL", (methanolG - recycledG) / 1000, "METHANOL");
       addCharges("KOH", kohKg, "CATALYST");
       if (pretreat) addCharges("H2SO4", acidKg, "ACID");
-      ops.push({ kind: "startBatch", at: t(day, h), actor: "production.tess", input: { batchCode: code, startedAt: t(day, h), charges } });
+      ops.push({
+        kind: "startBatch",
+        at: t(day, h),
+        actor: "production.tess",
+        input: { batchCode: code, startedAt: t(day, h), charges },
+      });
       if (lastDay) continue; // still reacting at the end of the scenario
       const totalG = charges.reduce((s, c) => s + Math.round(c.massKg * 1000), 0);
       const esterG = Math.round(oilG * between(0.955, 0.985));
@@ -390,7 +747,8 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
       const spillG = batchSeq % 9 === 4 ? (6 + (batchSeq % 5) * 3) * 1000 : 0;
       const glycerolG = totalG - esterG - recoveredG - (washOutG - waterG) - unmeasuredG - spillG;
       if (glycerolG <= 0) throw new Error("scenario: batch balance");
-      if (glycerolBox.stockG + glycerolG > glycerolBox.capacityG) throw new Error("scenario: glycerol container overfull");
+      if (glycerolBox.stockG + glycerolG > glycerolBox.capacityG)
+        throw new Error("scenario: glycerol container overfull");
       if (washBox.stockG + washOutG > washBox.capacityG) {
         haul(washBox, day);
         washBox = openContainer("WASH_WATER", day);
@@ -401,16 +759,34 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
       m1.stockG += recoveredG;
       const done = t(day, h + 4);
       ops.push({
-        kind: "completeBatch", at: done, actor: "production.tess",
+        kind: "completeBatch",
+        at: done,
+        actor: "production.tess",
         input: {
-          batchCode: code, completedAt: done,
+          batchCode: code,
+          completedAt: done,
           outputs: [
             { role: "ESTER", toKind: "PRODUCT_LOT", toCode: `P-${code.slice(2)}`, massKg: esterG / 1000 },
             { role: "GLYCEROL_PHASE", toKind: "WASTE_CONTAINER", toCode: glycerolBox.code, massKg: glycerolG / 1000 },
             // One wash-water row per water lot drawn; the first carries what the washing took out of the batch.
-            ...waterParts.map((w, i) => ({ role: "WASH_WATER" as const, toKind: "WASTE_CONTAINER" as const, toCode: washBox.code, massKg: (i === 0 ? w.grams + washOutG - waterG : w.grams) / 1000, waterFromCode: w.code, waterKg: w.grams / 1000 })),
+            ...waterParts.map((w, i) => ({
+              role: "WASH_WATER" as const,
+              toKind: "WASTE_CONTAINER" as const,
+              toCode: washBox.code,
+              massKg: (i === 0 ? w.grams + washOutG - waterG : w.grams) / 1000,
+              waterFromCode: w.code,
+              waterKg: w.grams / 1000,
+            })),
             { role: "RECOVERED_METHANOL", toKind: "TANK", toCode: "M1", massKg: recoveredG / 1000 },
-            ...(spillG > 0 ? [{ role: "LOSS" as const, massKg: spillG / 1000, reason: "spilled at the decanter drain; cleaned up with absorbent" }] : []),
+            ...(spillG > 0
+              ? [
+                  {
+                    role: "LOSS" as const,
+                    massKg: spillG / 1000,
+                    reason: "spilled at the decanter drain; cleaned up with absorbent",
+                  },
+                ]
+              : []),
           ],
         },
       });
@@ -425,17 +801,33 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
       for (let i = 0; i < 5; i++) rand();
       qcSeq++;
       const fail = qcSeq === FAILING_QC_LOT;
-      for (const input of demoQcResults(p.code, at, fail)) ops.push({ kind: "qc", at, actor: "compliance.nell", input });
+      for (const input of demoQcResults(p.code, at, fail))
+        ops.push({ kind: "qc", at, actor: "compliance.nell", input });
       ops.push({ kind: "decideProduct", at: t(day, 11), actor: "compliance.nell", input: demoDecision(p.code, fail) });
       heldProducts.splice(heldProducts.indexOf(p), 1);
       if (fail) continue; // stays on hold for re-processing
-      const dest = productTanks.map((c) => tanks.get(c)!).filter((tk) => tk.stockG + p.grams <= tk.capacityG).sort((a, z) => a.stockG - z.stockG)[0];
+      const dest = productTanks
+        .map((c) => tanks.get(c)!)
+        .filter((tk) => tk.stockG + p.grams <= tk.capacityG)
+        .sort((a, z) => a.stockG - z.stockG)[0];
       if (!dest) continue;
       // In the last days a little of each released lot is kept back in the lot for drum orders, so the
       // demo has released lots that can be shipped directly.
       // (the six release days before the lots that still await the lab).
       const keptG = day >= days - QC_PENDING_DAYS - 6 ? Math.min(KEPT_BACK_G, p.grams - 1000) : 0;
-      ops.push({ kind: "transfer", at: t(day, 11, 30), actor: "production.tess", input: { fromKind: "PRODUCT_LOT", fromCode: p.code, toTankCode: dest.code, at: t(day, 11, 30), massKg: (p.grams - keptG) / 1000, note: keptG > 0 ? "released to tank; the rest kept back for drum orders" : "released to tank" } });
+      ops.push({
+        kind: "transfer",
+        at: t(day, 11, 30),
+        actor: "production.tess",
+        input: {
+          fromKind: "PRODUCT_LOT",
+          fromCode: p.code,
+          toTankCode: dest.code,
+          at: t(day, 11, 30),
+          massKg: (p.grams - keptG) / 1000,
+          note: keptG > 0 ? "released to tank; the rest kept back for drum orders" : "released to tank",
+        },
+      });
       dest.stockG += p.grams - keptG;
     }
 
@@ -450,7 +842,21 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
         // One tanker load from one product tank; the customer pick comes before the claim draw, as it always has.
         const customerCode = pick(CUSTOMERS).code;
         const vehicle = `Road tanker RT-${1 + (shipmentSeq % 3)}`;
-        ops.push({ kind: "ship", at, actor: "compliance.nell", input: { documentNo: `BOL-${String(shipmentSeq).padStart(4, "0")}`, customerCode, shippedAt: at, vehicle, compartment: "1–4", lines: [{ fromKind: "TANK", fromCode: code, massKg: kg, volumeL: r1(kg / 0.8805) }], certifiedClaim: rand() < 0.5, note: "" } });
+        ops.push({
+          kind: "ship",
+          at,
+          actor: "compliance.nell",
+          input: {
+            documentNo: `BOL-${String(shipmentSeq).padStart(4, "0")}`,
+            customerCode,
+            shippedAt: at,
+            vehicle,
+            compartment: "1–4",
+            lines: [{ fromKind: "TANK", fromCode: code, massKg: kg, volumeL: r1(kg / 0.8805) }],
+            certifiedClaim: rand() < 0.5,
+            note: "",
+          },
+        });
         tk.stockG -= kg * 1000;
       }
     }
@@ -466,7 +872,12 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
       for (const code of ["T1", "T2", "T3"]) {
         const tk = tanks.get(code)!;
         const rho = densityAt(requireDensityEntry(DEFAULT_DENSITY_TABLE, "USED_COOKING_OIL"), 20);
-        ops.push({ kind: "gauge", at: t(day, 17), actor: "production.rafe", input: { tankCode: code, at: t(day, 17), volumeL: r1((tk.stockG / rho) * between(0.996, 1.004)), tempC: 20 } });
+        ops.push({
+          kind: "gauge",
+          at: t(day, 17),
+          actor: "production.rafe",
+          input: { tankCode: code, at: t(day, 17), volumeL: r1((tk.stockG / rho) * between(0.996, 1.004)), tempC: 20 },
+        });
       }
     }
   }
@@ -477,8 +888,19 @@ export function buildScenario(opts: ScenarioOptions): Op[] {
   while (m <= anchor) {
     const d = new Date(m);
     const next = Date.UTC(d.getUTCFullYear(), d.getUTCMonth() + 1, 1);
-    ops.push({ kind: "period", at: new Date(anchor), actor: "compliance.nell", input: { startsAt: new Date(m), endsAt: new Date(next) } });
-    if (next <= anchor - 31 * DAY) ops.push({ kind: "closePeriod", at: new Date(anchor), actor: "compliance.nell", input: { startsAt: new Date(m) } });
+    ops.push({
+      kind: "period",
+      at: new Date(anchor),
+      actor: "compliance.nell",
+      input: { startsAt: new Date(m), endsAt: new Date(next) },
+    });
+    if (next <= anchor - 31 * DAY)
+      ops.push({
+        kind: "closePeriod",
+        at: new Date(anchor),
+        actor: "compliance.nell",
+        input: { startsAt: new Date(m) },
+      });
     m = next;
   }
   return ops;

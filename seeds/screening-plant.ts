@@ -27,13 +27,36 @@ export function tripledMonth(anchor: number): { year: number; month: number } {
 }
 
 /** A declared capacity about 1.4 × what a source usually gives a month, as a kitchen would declare it. */
-export function declaredProfile(s: { code: string; kind: string; material: string; every: number; litres: number }, i: number, at: Date): SourceProfileInput {
+export function declaredProfile(
+  s: { code: string; kind: string; material: string; every: number; litres: number },
+  i: number,
+  at: Date,
+): SourceProfileInput {
   // Pickups skip Sundays and slip a day 15 % of the time; the pickup volume is 0.6–1.25 × its usual (mean 0.925).
   const usualPerMonth = (s.litres * 0.925 * ((365.2425 / 12) * (6 / 7))) / (s.every + 0.15);
   const capacity = usualPerMonth * 1.4;
-  const common = { sourceCode: s.code, kind: s.kind as SourceProfileInput["kind"], capacityDeclaredAt: at, capacityDeclaredBy: "site manager, at the source visit", pickupEveryDays: s.every };
-  if (s.kind !== "RESTAURANT") return { ...common, capacityBasis: "MONTHLY", declaredLitresPerMonth: Math.round(capacity / 10) * 10, ...(s.kind === "DROP_OFF" ? {} : { opensHour: 5, closesHour: 22 }) };
-  if (s.material === "TRAP_GREASE") return { ...common, capacityBasis: "MONTHLY", declaredLitresPerMonth: Math.round(capacity / 10) * 10, opensHour: 6, closesHour: 23 };
+  const common = {
+    sourceCode: s.code,
+    kind: s.kind as SourceProfileInput["kind"],
+    capacityDeclaredAt: at,
+    capacityDeclaredBy: "site manager, at the source visit",
+    pickupEveryDays: s.every,
+  };
+  if (s.kind !== "RESTAURANT")
+    return {
+      ...common,
+      capacityBasis: "MONTHLY",
+      declaredLitresPerMonth: Math.round(capacity / 10) * 10,
+      ...(s.kind === "DROP_OFF" ? {} : { opensHour: 5, closesHour: 22 }),
+    };
+  if (s.material === "TRAP_GREASE")
+    return {
+      ...common,
+      capacityBasis: "MONTHLY",
+      declaredLitresPerMonth: Math.round(capacity / 10) * 10,
+      opensHour: 6,
+      closesHour: 23,
+    };
   const fryers = 2 + (i % 5);
   const changesPerWeek = 3 + (i % 4);
   const fryerLitres = Math.round((capacity / (fryers * changesPerWeek * WEEKS_PER_MONTH)) * 2) / 2;

@@ -38,7 +38,13 @@ function parts(d: Date, timeZone: string, withTime: boolean): Record<string, str
       ...(withTime ? { hour: "2-digit", minute: "2-digit", hourCycle: "h23" as const } : {}),
     });
   } catch {
-    fmt = new Intl.DateTimeFormat("en-GB", { timeZone: "UTC", year: "numeric", month: "2-digit", day: "2-digit", ...(withTime ? { hour: "2-digit", minute: "2-digit", hourCycle: "h23" as const } : {}) });
+    fmt = new Intl.DateTimeFormat("en-GB", {
+      timeZone: "UTC",
+      year: "numeric",
+      month: "2-digit",
+      day: "2-digit",
+      ...(withTime ? { hour: "2-digit", minute: "2-digit", hourCycle: "h23" as const } : {}),
+    });
   }
   return Object.fromEntries(fmt.formatToParts(d).map((p) => [p.type, p.value]));
 }

@@ -6,8 +6,12 @@ import { Empty, Note } from "@/app/_ui/ui";
 
 /** Backward trace of a batch or product lot: the feedstock lots with their shares, the reagents apart. */
 export function MadeOf({ madeOf, what }: { madeOf: MadeOfTrace | null; what: string }) {
-  if (madeOf === null) return <p className="warning">The ledger could not be replayed, so the lots in this {what} cannot be worked out.</p>;
-  if (madeOf.shares.length === 0 && madeOf.reagents.length === 0) return <Empty>Nothing has gone into this {what} yet.</Empty>;
+  if (madeOf === null)
+    return (
+      <p className="warning">The ledger could not be replayed, so the lots in this {what} cannot be worked out.</p>
+    );
+  if (madeOf.shares.length === 0 && madeOf.reagents.length === 0)
+    return <Empty>Nothing has gone into this {what} yet.</Empty>;
   return (
     <>
       <div className="table-wrap">
@@ -30,7 +34,8 @@ export function MadeOf({ madeOf, what }: { madeOf: MadeOfTrace | null; what: str
                 <td>
                   {s.kind === "LOT" ? (
                     <>
-                      <span className="holder-kind">Feedstock lot</span> <Link href={`/lots/${encodeURIComponent(s.code)}`}>{s.code}</Link>
+                      <span className="holder-kind">Feedstock lot</span>{" "}
+                      <Link href={`/lots/${encodeURIComponent(s.code)}`}>{s.code}</Link>
                     </>
                   ) : (
                     <>
@@ -78,8 +83,9 @@ export function MadeOf({ madeOf, what }: { madeOf: MadeOfTrace | null; what: str
         </div>
       ) : null}
       <Note>
-        Feedstock shares come from replaying the ledger under each tank&apos;s mixing model and add up to 100 % of the feedstock. Methanol and catalyst take part in the reaction
-        and are listed apart; water used for washing goes to the wash-water stream and is never part of a product.
+        Feedstock shares come from replaying the ledger under each tank&apos;s mixing model and add up to 100 % of the
+        feedstock. Methanol and catalyst take part in the reaction and are listed apart; water used for washing goes to
+        the wash-water stream and is never part of a product.
         {madeOf.order === "booked"
           ? " Some movements are dated before the stock they draw was booked, so the ledger is replayed in the order movements were booked rather than by date."
           : ""}

@@ -14,7 +14,13 @@ export function MainNav({ items }: { items: ReadonlyArray<{ href: string; label:
   const current = items.find((i) => isCurrent(i.href));
   return (
     <nav className={`main-nav${open ? " open" : ""}`} aria-label="Main">
-      <button type="button" className="menu-toggle" aria-expanded={open} aria-controls="main-menu" onClick={() => setOpen((o) => !o)}>
+      <button
+        type="button"
+        className="menu-toggle"
+        aria-expanded={open}
+        aria-controls="main-menu"
+        onClick={() => setOpen((o) => !o)}
+      >
         Menu{current ? <span className="menu-current"> · {current.label}</span> : null}
       </button>
       <ul id="main-menu">

@@ -6,7 +6,13 @@ import { cellText, headerLines } from "@/lib/report/report";
 import type { ReportDoc, ReportTable, ReportValue } from "@/lib/report/report";
 
 /** Download links for a report: the PDF, and each table as CSV (same data as the page). */
-export function ReportDownloads({ doc, href }: { doc: ReportDoc; href: (format: "pdf" | "csv", table?: string) => string }) {
+export function ReportDownloads({
+  doc,
+  href,
+}: {
+  doc: ReportDoc;
+  href: (format: "pdf" | "csv", table?: string) => string;
+}) {
   return (
     <p className="report-downloads">
       <a href={href("pdf")} download>
@@ -30,13 +36,24 @@ export function ReportHeader({ doc }: { doc: ReportDoc }) {
 }
 
 function cell(value: ReportValue, kind: ReportTable["columns"][number]["kind"], timeZone: string): ReactNode {
-  if (value !== null && typeof value === "object" && !(value instanceof Date)) return <HolderLink holder={value} showKind={false} />;
+  if (value !== null && typeof value === "object" && !(value instanceof Date))
+    return <HolderLink holder={value} showKind={false} />;
   const text = cellText(value, kind, timeZone, true);
   return kind === "mass" || kind === "pct" ? text : text === "" ? "—" : text;
 }
 
 /** One table of a report, drawn with the kit's DataTable; the totals row is the report's own. */
-export function ReportTableView({ doc, table, csvHref, headingLevel = 3 }: { doc: ReportDoc; table: ReportTable; csvHref?: string; headingLevel?: 2 | 3 }) {
+export function ReportTableView({
+  doc,
+  table,
+  csvHref,
+  headingLevel = 3,
+}: {
+  doc: ReportDoc;
+  table: ReportTable;
+  csvHref?: string;
+  headingLevel?: 2 | 3;
+}) {
   const Heading = headingLevel === 2 ? "h2" : "h3";
   const columns: Array<Column<{ n: number; row: ReportValue[] }>> = table.columns.map((c, i) => ({
     key: c.key,
@@ -49,13 +66,29 @@ export function ReportTableView({ doc, table, csvHref, headingLevel = 3 }: { doc
   return (
     <>
       <Heading>{table.heading}</Heading>
-      <DataTable caption={table.heading} hideCaption columns={columns} rows={table.rows.map((row, n) => ({ n, row }))} rowKey={(r) => r.n} empty={table.empty} {...(csvHref ? { csvHref } : {})} />
+      <DataTable
+        caption={table.heading}
+        hideCaption
+        columns={columns}
+        rows={table.rows.map((row, n) => ({ n, row }))}
+        rowKey={(r) => r.n}
+        empty={table.empty}
+        {...(csvHref ? { csvHref } : {})}
+      />
     </>
   );
 }
 
 /** Links to a page's printable report: the PDF and its tables as CSV (same figures as the page). */
-export function ReportLinks({ base, pdfLabel, tables }: { base: string; pdfLabel: string; tables: ReadonlyArray<readonly [key: string, label: string]> }) {
+export function ReportLinks({
+  base,
+  pdfLabel,
+  tables,
+}: {
+  base: string;
+  pdfLabel: string;
+  tables: ReadonlyArray<readonly [key: string, label: string]>;
+}) {
   const sep = base.includes("?") ? "&" : "?";
   return (
     <p className="report-downloads">

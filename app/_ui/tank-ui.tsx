@@ -29,8 +29,9 @@ export function DensityNote({ tanks }: { tanks: TankLevel[] }) {
   const list = [...seen].map(([m, rho]) => `${MATERIAL_WORDS[m] ?? m.toLowerCase()} ${num(rho, 0)} kg/m³`).join(", ");
   return (
     <Note>
-      Fill % is an estimate: book stock ÷ (capacity × a nominal density at 15 °C for the tank&apos;s service, from the default density
-      table: {list}). Real density depends on the material and its temperature; a gauge reading is the measurement.
+      Fill % is an estimate: book stock ÷ (capacity × a nominal density at 15 °C for the tank&apos;s service, from the
+      default density table: {list}). Real density depends on the material and its temperature; a gauge reading is the
+      measurement.
     </Note>
   );
 }

@@ -5,7 +5,13 @@ import type { HolderRef, MovementView } from "@/lib/ledger/movement.store";
 import { kgExact, litres, when } from "@/app/_ui/format";
 import { hrefOf } from "@/app/_ui/links";
 
-export function HolderLink({ holder, showKind = true }: { holder: Pick<HolderRef, "kind" | "code"> | null; showKind?: boolean }) {
+export function HolderLink({
+  holder,
+  showKind = true,
+}: {
+  holder: Pick<HolderRef, "kind" | "code"> | null;
+  showKind?: boolean;
+}) {
   if (holder === null) return <span className="muted">outside the books</span>;
   const href = hrefOf(holder.kind, holder.code);
   return (
@@ -62,11 +68,25 @@ export function Facts({ items }: { items: Array<[string, ReactNode]> }) {
   );
 }
 
-export function Pager({ basePath, page, total, pageSize, query = {} }: { basePath: string; page: number; total: number; pageSize: number; query?: Record<string, string> }) {
+export function Pager({
+  basePath,
+  page,
+  total,
+  pageSize,
+  query = {},
+}: {
+  basePath: string;
+  page: number;
+  total: number;
+  pageSize: number;
+  query?: Record<string, string>;
+}) {
   const pages = Math.max(1, Math.ceil(total / pageSize));
   if (pages <= 1) return null;
   const href = (p: number) => `${basePath}?${new URLSearchParams({ ...query, page: String(p) }).toString()}`;
-  const near = [...new Set([1, page - 2, page - 1, page, page + 1, page + 2, pages])].filter((p) => p >= 1 && p <= pages).sort((a, b) => a - b);
+  const near = [...new Set([1, page - 2, page - 1, page, page + 1, page + 2, pages])]
+    .filter((p) => p >= 1 && p <= pages)
+    .sort((a, b) => a - b);
   return (
     <nav className="pager" aria-label="Pages">
       <span className="pager-summary">
@@ -93,7 +113,19 @@ export function Pager({ basePath, page, total, pageSize, query = {} }: { basePat
 }
 
 /** Movements as a table; `side` hides the column that is always the page's own holder. */
-export function MovementTable({ rows, timeZone, side, caption, action }: { rows: MovementView[]; timeZone: string; side?: "from" | "to"; caption?: string; action?: { header: string; render: (m: MovementView) => ReactNode } }) {
+export function MovementTable({
+  rows,
+  timeZone,
+  side,
+  caption,
+  action,
+}: {
+  rows: MovementView[];
+  timeZone: string;
+  side?: "from" | "to";
+  caption?: string;
+  action?: { header: string; render: (m: MovementView) => ReactNode };
+}) {
   return (
     <div className="table-wrap">
       <table>
@@ -148,7 +180,11 @@ export function MovementTable({ rows, timeZone, side, caption, action }: { rows:
 /** One click from a row to everything recorded about it (app/history). */
 export function HistoryLink({ kind, recordKey, label }: { kind: string; recordKey: string; label: string }) {
   return (
-    <Link href={`/history?${new URLSearchParams({ kind, key: recordKey }).toString()}`} className="history-link" aria-label={`History of ${label} ${recordKey}`}>
+    <Link
+      href={`/history?${new URLSearchParams({ kind, key: recordKey }).toString()}`}
+      className="history-link"
+      aria-label={`History of ${label} ${recordKey}`}
+    >
       History
     </Link>
   );

@@ -5,7 +5,11 @@ import type { Closure } from "@/lib/mass-balance/period-balance";
 import { reportDay } from "@/lib/report/report";
 import type { ReportContext, ReportDoc, ReportTable } from "@/lib/report/report";
 
-const FLAG_WORDS: Readonly<Record<Closure["flag"], string>> = { OK: "Within tolerance", WARN: "Above the warn level", FAIL: "Above the fail level" };
+const FLAG_WORDS: Readonly<Record<Closure["flag"], string>> = {
+  OK: "Within tolerance",
+  WARN: "Above the warn level",
+  FAIL: "Above the fail level",
+};
 
 function closureText(c: Closure): string {
   return `${c.pct === null ? "no base" : `${c.pct.toFixed(3)} %`} (${FLAG_WORDS[c.flag]})`;
@@ -42,7 +46,16 @@ export function buildBalanceDoc(r: BalanceReport, ctx: ReportContext, ledger: Re
       { key: "unaccounted", header: "Unaccounted", kind: "mass" },
       { key: "closure", header: "Closure", kind: "text" },
     ],
-    rows: r.byMaterial.map((m) => [m.label, m.openingG, m.inG, m.outputsG, m.transfersOutG, m.closingG, m.imbalanceG, closureText(m.closure)]),
+    rows: r.byMaterial.map((m) => [
+      m.label,
+      m.openingG,
+      m.inG,
+      m.outputsG,
+      m.transfersOutG,
+      m.closingG,
+      m.imbalanceG,
+      closureText(m.closure),
+    ]),
     empty: "No stock holders in the period.",
   };
   const batches: ReportTable = {
@@ -56,7 +69,14 @@ export function buildBalanceDoc(r: BalanceReport, ctx: ReportContext, ledger: Re
       { key: "unaccounted", header: "Unaccounted", kind: "mass" },
       { key: "closure", header: "Closure", kind: "text" },
     ],
-    rows: r.process.completed.map((b) => [b.code, b.completedAt === null ? null : new Date(b.completedAt), b.inputsG, b.outputsG, b.imbalanceG, closureText(b.closure)]),
+    rows: r.process.completed.map((b) => [
+      b.code,
+      b.completedAt === null ? null : new Date(b.completedAt),
+      b.inputsG,
+      b.outputsG,
+      b.imbalanceG,
+      closureText(b.closure),
+    ]),
     total: ["TOTAL", null, r.process.inputsG, r.process.outputsG, r.process.imbalanceG, closureText(r.process.closure)],
     empty: "No batch finished in the period.",
   };
@@ -71,8 +91,26 @@ export function buildBalanceDoc(r: BalanceReport, ctx: ReportContext, ledger: Re
       { key: "difference", header: "Difference", kind: "mass" },
       { key: "closure", header: "Closure", kind: "text" },
     ],
-    rows: (r.gauges?.rows ?? []).map((g) => [g.tankCode, g.at, g.bookG, g.measuredG, g.differenceG, closureText(g.closure)]),
-    ...(r.gauges ? { total: ["TOTAL", null, r.gauges.total.bookG, r.gauges.total.measuredG, r.gauges.total.differenceG, closureText(r.gauges.total.closure)] } : {}),
+    rows: (r.gauges?.rows ?? []).map((g) => [
+      g.tankCode,
+      g.at,
+      g.bookG,
+      g.measuredG,
+      g.differenceG,
+      closureText(g.closure),
+    ]),
+    ...(r.gauges
+      ? {
+          total: [
+            "TOTAL",
+            null,
+            r.gauges.total.bookG,
+            r.gauges.total.measuredG,
+            r.gauges.total.differenceG,
+            closureText(r.gauges.total.closure),
+          ],
+        }
+      : {}),
     empty: "No tank has been gauged by the period end.",
   };
   const ap = r.accountingPeriod;
@@ -88,9 +126,14 @@ export function buildBalanceDoc(r: BalanceReport, ctx: ReportContext, ledger: Re
     facts: [
       ["Closure", closureText(r.stock.closure)],
       ["Tolerance", `warn above ${r.tolerance.warnPct} %, fail above ${r.tolerance.failPct} % of inputs`],
-      ["Accounting period", ap === null ? "not recorded" : ap.closedAt ? `closed ${reportDay(ap.closedAt, ctx.timeZone)}` : "open"],
+      [
+        "Accounting period",
+        ap === null ? "not recorded" : ap.closedAt ? `closed ${reportDay(ap.closedAt, ctx.timeZone)}` : "open",
+      ],
     ],
-    notes: ["Whole grams from the movement ledger: opening stock and everything received equal everything that left, closing stock and what is unaccounted for."],
+    notes: [
+      "Whole grams from the movement ledger: opening stock and everything received equal everything that left, closing stock and what is unaccounted for.",
+    ],
     cautions: [],
     tables: [statement, byMaterial, batches, gauges],
   };

@@ -30,11 +30,23 @@ function describe(nodes: readonly FlowNode[], label: string): string {
 }
 
 /** The period's flows from sources to what left the site, as a Sankey picture. */
-export async function FlowsPicture({ db, siteId, period }: { db: Db; siteId: number; period: { label: string; startsAt: Date; endsAt: Date } }) {
+export async function FlowsPicture({
+  db,
+  siteId,
+  period,
+}: {
+  db: Db;
+  siteId: number;
+  period: { label: string; startsAt: Date; endsAt: Date };
+}) {
   const id = "period-flows";
   const title = `Where the material went in ${period.label}`;
   const ledger = await loadFlowLedger(db, siteId, { from: period.startsAt, to: period.endsAt });
-  const f = computePeriodFlows({ holders: ledger.holders, moves: ledger.moves, period: { startMs: period.startsAt.getTime(), endMs: period.endsAt.getTime() } });
+  const f = computePeriodFlows({
+    holders: ledger.holders,
+    moves: ledger.moves,
+    period: { startMs: period.startsAt.getTime(), endMs: period.endsAt.getTime() },
+  });
   if (f.links.length === 0) {
     return (
       <NoPicture id={id} title={title}>
@@ -57,7 +69,12 @@ export async function FlowsPicture({ db, siteId, period }: { db: Db; siteId: num
           nodeGap: 10,
           layoutIterations: 0,
           emphasis: { disabled: true },
-          label: { position: "right", fontSize: 11, color: "#1c211f", formatter: (p: { name: string }) => label.get(p.name) ?? p.name },
+          label: {
+            position: "right",
+            fontSize: 11,
+            color: "#1c211f",
+            formatter: (p: { name: string }) => label.get(p.name) ?? p.name,
+          },
           lineStyle: { color: "source", opacity: 0.35, curveness: 0.5 },
           data: f.nodes.map((n) => {
             const depth = stages.indexOf(n.stage);
@@ -91,12 +108,20 @@ export async function FlowsPicture({ db, siteId, period }: { db: Db; siteId: num
             columns={[
               { key: "from", header: "From", cell: (l) => label.get(l.from) ?? l.from },
               { key: "to", header: "To", cell: (l) => label.get(l.to) ?? l.to },
-              { key: "mass", header: "Mass", unit: "kg", numeric: true, cell: (l) => num(l.grams / 1000, 3), total: num(f.drawnG / 1000, 3) },
+              {
+                key: "mass",
+                header: "Mass",
+                unit: "kg",
+                numeric: true,
+                cell: (l) => num(l.grams / 1000, 3),
+                total: num(f.drawnG / 1000, 3),
+              },
             ]}
           />
           <p className="muted">
-            Steps left to right: sources, lots by material, feedstock tanks and reagents, batches, what came out of the batches, what left the
-            site. {f.pooledSources > 0 ? `The ${f.pooledSources} smallest sources are drawn together. ` : ""}
+            Steps left to right: sources, lots by material, feedstock tanks and reagents, batches, what came out of the
+            batches, what left the site.{" "}
+            {f.pooledSources > 0 ? `The ${f.pooledSources} smallest sources are drawn together. ` : ""}
             {apart.length > 0 ? `Not drawn, so the picture has no loops: ${apart.join("; ")}. ` : ""}
             Everything moved in the period: {kg(f.movedG, 0)}.
           </p>

@@ -34,9 +34,9 @@ export default async function BalancePage({ searchParams }: { searchParams: Prom
     <>
       <h1>Period balance</h1>
       <p className="lede">
-        Everything that entered and left the site&apos;s books in a period, in whole grams: opening stock and receipts against
-        shipments, waste hauled, recorded losses and closing stock; the batches finished in the period; book stock against the tank
-        gauges. <Link href="/balance/custody">Chain of custody</Link> is on its own page.
+        Everything that entered and left the site&apos;s books in a period, in whole grams: opening stock and receipts
+        against shipments, waste hauled, recorded losses and closing stock; the batches finished in the period; book
+        stock against the tank gauges. <Link href="/balance/custody">Chain of custody</Link> is on its own page.
       </p>
       <BalanceForm typed={typed} report={result.ok ? result.value : null} issues={result.ok ? [] : result.issues} />
       {result.ok ? <BalanceResult r={result.value} timeZone={tz} canClose={user.role === "COMPLIANCE"} /> : null}
@@ -45,9 +45,18 @@ export default async function BalancePage({ searchParams }: { searchParams: Prom
   );
 }
 
-function BalanceForm({ typed, report, issues }: { typed: Record<string, string>; report: BalanceReport | null; issues: DomainIssue[] }) {
+function BalanceForm({
+  typed,
+  report,
+  issues,
+}: {
+  typed: Record<string, string>;
+  report: BalanceReport | null;
+  issues: DomainIssue[];
+}) {
   const q = report?.query;
-  const value = (f: string, fallback: string | number | undefined) => (typed[f] !== "" ? typed[f] : fallback === undefined ? "" : String(fallback));
+  const value = (f: string, fallback: string | number | undefined) =>
+    typed[f] !== "" ? typed[f] : fallback === undefined ? "" : String(fallback);
   const bad = (f: string) => (issues.some((i) => i.field === f) ? true : undefined);
   return (
     <form method="get" action="/balance" className="query-form" noValidate>
@@ -63,31 +72,71 @@ function BalanceForm({ typed, report, issues }: { typed: Record<string, string>;
         </label>
         <label>
           Year
-          <input name="year" inputMode="numeric" size={5} defaultValue={value("year", q?.year)} aria-invalid={bad("year")} />
+          <input
+            name="year"
+            inputMode="numeric"
+            size={5}
+            defaultValue={value("year", q?.year)}
+            aria-invalid={bad("year")}
+          />
         </label>
         <label>
           Month (1–12)
-          <input name="month" inputMode="numeric" size={3} defaultValue={value("month", q?.month)} aria-invalid={bad("month")} />
+          <input
+            name="month"
+            inputMode="numeric"
+            size={3}
+            defaultValue={value("month", q?.month)}
+            aria-invalid={bad("month")}
+          />
         </label>
         <label>
           Quarter (1–4)
-          <input name="quarter" inputMode="numeric" size={3} defaultValue={value("quarter", q?.quarter)} aria-invalid={bad("quarter")} />
+          <input
+            name="quarter"
+            inputMode="numeric"
+            size={3}
+            defaultValue={value("quarter", q?.quarter)}
+            aria-invalid={bad("quarter")}
+          />
         </label>
         <label>
           From (custom)
-          <input name="start" type="date" defaultValue={value("start", q?.start)} aria-invalid={bad("start") ?? bad("startDate")} />
+          <input
+            name="start"
+            type="date"
+            defaultValue={value("start", q?.start)}
+            aria-invalid={bad("start") ?? bad("startDate")}
+          />
         </label>
         <label>
           Up to, not including
-          <input name="end" type="date" defaultValue={value("end", q?.end)} aria-invalid={bad("end") ?? bad("endDate")} />
+          <input
+            name="end"
+            type="date"
+            defaultValue={value("end", q?.end)}
+            aria-invalid={bad("end") ?? bad("endDate")}
+          />
         </label>
         <label>
           Warn above (%)
-          <input name="warnPct" inputMode="decimal" size={5} defaultValue={value("warnPct", q?.warnPct)} aria-invalid={bad("warnPct")} />
+          <input
+            name="warnPct"
+            inputMode="decimal"
+            size={5}
+            defaultValue={value("warnPct", q?.warnPct)}
+            aria-invalid={bad("warnPct")}
+          />
         </label>
         <label>
           Fail above (%)
-          <input name="failPct" inputMode="decimal" size={5} defaultValue={value("failPct", q?.failPct)} aria-invalid={bad("failPct")} />
+          <input
+            name="failPct"
+            inputMode="decimal"
+            size={5}
+            defaultValue={value("failPct", q?.failPct)}
+            aria-invalid={bad("failPct")}
+          />
         </label>
         <button type="submit">Show balance</button>
         {issues.map((i) => (
@@ -108,7 +157,11 @@ function Amount({ grams }: { grams: number }) {
 /** The same period as GS1 EPCIS 2.0 events (GET /api/epcis/period takes the balance's own query). */
 function epcisPeriodHref(q: BalanceReport["query"]): string {
   const params: Record<string, string> =
-    q.period === "MONTH" ? { period: "MONTH", year: String(q.year), month: String(q.month) } : q.period === "QUARTER" ? { period: "QUARTER", year: String(q.year), quarter: String(q.quarter) } : { period: "CUSTOM", start: q.start, end: q.end };
+    q.period === "MONTH"
+      ? { period: "MONTH", year: String(q.year), month: String(q.month) }
+      : q.period === "QUARTER"
+        ? { period: "QUARTER", year: String(q.year), quarter: String(q.quarter) }
+        : { period: "CUSTOM", start: q.start, end: q.end };
   return `/api/epcis/period?${new URLSearchParams(params).toString()}`;
 }
 
@@ -119,40 +172,81 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
   return (
     <section aria-labelledby="bal-h">
       <h2 id="bal-h">
-        Balance {r.period.label} <span className="muted">({day(r.period.startsAt, timeZone)} to {lastDay})</span>
+        Balance {r.period.label}{" "}
+        <span className="muted">
+          ({day(r.period.startsAt, timeZone)} to {lastDay})
+        </span>
       </h2>
       <ReportLinks
         base={`/balance/report?${new URLSearchParams(Object.entries(r.query).map(([k, v]) => [k, String(v)])).toString()}`}
         pdfLabel="Period balance statement"
-        tables={[["statement", "Statement"], ["materials", "By material kind"], ["batches", "Batches"], ["gauges", "Gauges"]]}
+        tables={[
+          ["statement", "Statement"],
+          ["materials", "By material kind"],
+          ["batches", "Batches"],
+          ["gauges", "Gauges"],
+        ]}
       />
       <Facts
         items={[
-          ["Closure (measured against the books)", <span key="d" data-testid="measured-closure"><ClosureChip closure={r.differences.closure} /></span>],
+          [
+            "Closure (measured against the books)",
+            <span key="d" data-testid="measured-closure">
+              <ClosureChip closure={r.differences.closure} />
+            </span>,
+          ],
           ["Unmeasured batch differences", <Amount key="ub" grams={r.differences.unmeasuredG} />],
           ["Receiving differences", <Amount key="rd" grams={r.differences.receivingG} />],
-          ["Gauges vs book (book − measured)", r.gauges ? <Amount key="gd" grams={r.differences.gaugeG} /> : "no readings"],
-          ["Batches finished", <span key="p">{r.process.completed.length} <ClosureChip closure={r.process.closure} /></span>],
-          ["Books complete (stock identity)", <span key="c"><ClosureChip closure={s.closure} /> unaccounted <Amount grams={s.imbalanceG} /></span>],
-          ["Accounting period", ap ? <span key="a" className={`status status-${ap.status === "OPEN" ? "open-period" : "closed"}`}>{ap.status === "OPEN" ? "Open" : "Closed"}</span> : "none with these dates"],
+          [
+            "Gauges vs book (book − measured)",
+            r.gauges ? <Amount key="gd" grams={r.differences.gaugeG} /> : "no readings",
+          ],
+          [
+            "Batches finished",
+            <span key="p">
+              {r.process.completed.length} <ClosureChip closure={r.process.closure} />
+            </span>,
+          ],
+          [
+            "Books complete (stock identity)",
+            <span key="c">
+              <ClosureChip closure={s.closure} /> unaccounted <Amount grams={s.imbalanceG} />
+            </span>,
+          ],
+          [
+            "Accounting period",
+            ap ? (
+              <span key="a" className={`status status-${ap.status === "OPEN" ? "open-period" : "closed"}`}>
+                {ap.status === "OPEN" ? "Open" : "Closed"}
+              </span>
+            ) : (
+              "none with these dates"
+            ),
+          ],
         ]}
       />
       <Note>
-        <ToleranceNote tolerance={r.tolerance} /> The closure is the sum of the batches&apos; unmeasured differences (charged less everything weighed or gauged
-        out), the receiving differences (pickup estimates less the plant&apos;s measurement) and book stock less the latest gauge readings, as a share of what entered the
-        stock in the period. Recorded losses (a spill with its reason) are outputs, not differences. The stock identity only checks that no movement is missing.
+        <ToleranceNote tolerance={r.tolerance} /> The closure is the sum of the batches&apos; unmeasured differences
+        (charged less everything weighed or gauged out), the receiving differences (pickup estimates less the
+        plant&apos;s measurement) and book stock less the latest gauge readings, as a share of what entered the stock in
+        the period. Recorded losses (a spill with its reason) are outputs, not differences. The stock identity only
+        checks that no movement is missing.
       </Note>
       <p>
         <a href={epcisPeriodHref(r.query)} download className="csv-link">
           EPCIS 2.0 events
         </a>{" "}
-        <span className="muted">— this period&apos;s receipts, moves, batches and shipments in the GS1 standard format a trading partner&apos;s system reads</span>
+        <span className="muted">
+          — this period&apos;s receipts, moves, batches and shipments in the GS1 standard format a trading
+          partner&apos;s system reads
+        </span>
       </p>
       {r.negativeStock.length > 0 ? (
         <ul className="warning" aria-label="Negative book stock">
           {r.negativeStock.map((n) => (
             <li key={`${n.moveId}`}>
-              {n.holder ? `${labelOf(n.holder.kind)} ${n.holder.code}` : "A holder"} went to {kgExact(n.balanceG)} at {when(n.at, timeZone)} (movement no. {n.moveId}): a movement in is missing.
+              {n.holder ? `${labelOf(n.holder.kind)} ${n.holder.code}` : "A holder"} went to {kgExact(n.balanceG)} at{" "}
+              {when(n.at, timeZone)} (movement no. {n.moveId}): a movement in is missing.
             </li>
           ))}
         </ul>
@@ -165,7 +259,10 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
         <>
           <p>
             Accounting period {day(ap.startsAt, timeZone)} – {lastDay}:{" "}
-            {ap.status === "CLOSED" ? `closed ${when(ap.closedAt, timeZone)} by ${ap.closedBy ?? "—"}` : "open; movements dated in it can still be booked"}.
+            {ap.status === "CLOSED"
+              ? `closed ${when(ap.closedAt, timeZone)} by ${ap.closedBy ?? "—"}`
+              : "open; movements dated in it can still be booked"}
+            .
           </p>
           {canClose ? (
             ap.status === "CLOSED" ? (
@@ -236,9 +333,9 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
         </div>
       </div>
       <Note>
-        Product, glycerol phase, wash water and recovered methanol stay in the site&apos;s stock (product lots and tanks, waste containers,
-        the methanol tank) until they are shipped or hauled away, so they count in the closing stock; the flows between the site&apos;s own
-        places are listed below and in the batch view.
+        Product, glycerol phase, wash water and recovered methanol stay in the site&apos;s stock (product lots and
+        tanks, waste containers, the methanol tank) until they are shipped or hauled away, so they count in the closing
+        stock; the flows between the site&apos;s own places are listed below and in the batch view.
       </Note>
 
       <h3>Flows inside the site</h3>
@@ -324,9 +421,10 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
         </table>
       </div>
       <Note>
-        A material kind&apos;s stock is the places that carry it: feedstock lots and pickups by their material, feedstock tanks as pooled
-        feedstock, product lots and tanks as methyl ester, batches as material in reaction, reagent lots by reagent, waste containers by
-        stream. A move between two kinds (a lot into a tank, oil into a batch) leaves one and enters the other.
+        A material kind&apos;s stock is the places that carry it: feedstock lots and pickups by their material,
+        feedstock tanks as pooled feedstock, product lots and tanks as methyl ester, batches as material in reaction,
+        reagent lots by reagent, waste containers by stream. A move between two kinds (a lot into a tank, oil into a
+        batch) leaves one and enters the other.
       </Note>
 
       <h3>Book stock against the latest tank gauges</h3>
@@ -382,8 +480,9 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
         </div>
       )}
       <Note>
-        The latest reading of each tank on or before the period&apos;s last day, against the book stock at the moment of the reading; the
-        same tolerance, as a share of book stock. A gauge is a level, temperature and density estimate, not a weighing.
+        The latest reading of each tank on or before the period&apos;s last day, against the book stock at the moment of
+        the reading; the same tolerance, as a share of book stock. A gauge is a level, temperature and density estimate,
+        not a weighing.
       </Note>
     </section>
   );
@@ -443,7 +542,8 @@ function ProcessTable({ r }: { r: BalanceReport }) {
       <div className="table-wrap">
         <table className="identity">
           <caption>
-            {p.completed.length} batches finished: charged = measured out + recorded losses + unmeasured difference <ClosureChip closure={p.closure} />
+            {p.completed.length} batches finished: charged = measured out + recorded losses + unmeasured difference{" "}
+            <ClosureChip closure={p.closure} />
           </caption>
           <tbody>
             <tr className="group">
@@ -491,14 +591,16 @@ function ProcessTable({ r }: { r: BalanceReport }) {
           {flagged.map((b, i) => (
             <span key={b.holderId}>
               {i > 0 ? ", " : ""}
-              <HolderLink holder={{ kind: "BATCH", code: b.code }} showKind={false} /> {kgExact(b.imbalanceG)} <ClosureChip closure={b.closure} what="of the charge" />
+              <HolderLink holder={{ kind: "BATCH", code: b.code }} showKind={false} /> {kgExact(b.imbalanceG)}{" "}
+              <ClosureChip closure={b.closure} what="of the charge" />
             </span>
           ))}
         </p>
       ) : null}
       <details className="more-rows">
         <summary>
-          Each batch ({p.completed.length} finished{p.inProgress.length > 0 ? `, ${p.inProgress.length} still in progress at the period end` : ""})
+          Each batch ({p.completed.length} finished
+          {p.inProgress.length > 0 ? `, ${p.inProgress.length} still in progress at the period end` : ""})
         </summary>
         <BatchTable rows={[...p.completed, ...p.inProgress]} />
       </details>
@@ -542,7 +644,13 @@ function BatchTable({ rows }: { rows: BatchRow[] }) {
                 <td className="num">{kg(b.outputsG, 3)}</td>
                 <td className="num">{kgExact(b.imbalanceG)}</td>
                 <td className="num">{oil > 0 ? num(ester / oil, 4) : "—"}</td>
-                <td>{b.completedAt === null ? <span className="muted">not flagged</span> : <ClosureChip closure={b.closure} />}</td>
+                <td>
+                  {b.completedAt === null ? (
+                    <span className="muted">not flagged</span>
+                  ) : (
+                    <ClosureChip closure={b.closure} />
+                  )}
+                </td>
               </tr>
             );
           })}

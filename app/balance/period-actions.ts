@@ -18,16 +18,37 @@ async function run(action: "close" | "reopen", form: FormData): Promise<PeriodAc
   const reason = typeof typed === "string" ? typed : "";
   const who = await requireRole(["COMPLIANCE"]);
   if (!who.ok) return { ok: false, message: who.issues[0]?.message ?? "Refused", field: null, reason };
-  const input = { periodId: Number(form.get("periodId")), ...(reason.trim() === "" && action === "close" ? {} : { reason }) };
+  const input = {
+    periodId: Number(form.get("periodId")),
+    ...(reason.trim() === "" && action === "close" ? {} : { reason }),
+  };
   const parsed = parseInput(action === "close" ? PeriodCloseSchema : PeriodReopenSchema, input);
-  if (!parsed.ok) return { ok: false, message: parsed.issues[0]?.message ?? "Refused", field: parsed.issues[0]?.field ?? null, reason };
+  if (!parsed.ok)
+    return {
+      ok: false,
+      message: parsed.issues[0]?.message ?? "Refused",
+      field: parsed.issues[0]?.field ?? null,
+      reason,
+    };
   const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
   const db = await getDb();
-  const result = action === "close" ? await closePeriod(db, actor, parsed.value) : await reopenPeriod(db, actor, parsed.value);
-  if (!result.ok) return { ok: false, message: result.issues[0]?.message ?? "Refused", field: result.issues[0]?.field ?? null, reason };
+  const result =
+    action === "close" ? await closePeriod(db, actor, parsed.value) : await reopenPeriod(db, actor, parsed.value);
+  if (!result.ok)
+    return {
+      ok: false,
+      message: result.issues[0]?.message ?? "Refused",
+      field: result.issues[0]?.field ?? null,
+      reason,
+    };
   revalidatePath("/balance");
   revalidatePath("/periods");
-  return { ok: true, message: action === "close" ? "Period closed and recorded." : "Period reopened; the reason is recorded.", field: null, reason: "" };
+  return {
+    ok: true,
+    message: action === "close" ? "Period closed and recorded." : "Period reopened; the reason is recorded.",
+    field: null,
+    reason: "",
+  };
 }
 
 export async function closePeriodAction(_prev: PeriodActionState, form: FormData): Promise<PeriodActionState> {

@@ -59,12 +59,21 @@ export default async function BatchesPage({ searchParams }: { searchParams: Prom
   return (
     <>
       <h1>Batches</h1>
-      <p className="lede">Reaction runs, newest first: planned, reacting, finished or voided, with the product lots each one made.</p>
+      <p className="lede">
+        Reaction runs, newest first: planned, reacting, finished or voided, with the product lots each one made.
+      </p>
       {total === 0 ? (
         <Empty>No batches recorded yet.</Empty>
       ) : (
         <>
-          <DataTable caption="Batches" hideCaption columns={BATCH_COLUMNS(tz)} rows={rows} rowKey={(b) => b.code} empty="No batches recorded yet." />
+          <DataTable
+            caption="Batches"
+            hideCaption
+            columns={BATCH_COLUMNS(tz)}
+            rows={rows}
+            rowKey={(b) => b.code}
+            empty="No batches recorded yet."
+          />
           <Pager basePath="/batches" page={page} total={total} pageSize={PAGE_SIZE} />
         </>
       )}

@@ -18,19 +18,34 @@ import { DistanceQuestion, useDistanceBand } from "@/app/collect/distance-band";
 /** Brings the form into view after a stop is tapped (on a phone the route fills the screen). */
 function showForm() {
   const reduce = window.matchMedia?.("(prefers-reduced-motion: reduce)").matches ?? false;
-  window.requestAnimationFrame(() => document.getElementById("collect-form")?.scrollIntoView({ block: "start", behavior: reduce ? "auto" : "smooth" }));
+  window.requestAnimationFrame(() =>
+    document.getElementById("collect-form")?.scrollIntoView({ block: "start", behavior: reduce ? "auto" : "smooth" }),
+  );
 }
 
-function Notices({ offlineReady, storagePersisted, stale, routeDay }: { offlineReady: boolean; storagePersisted: boolean | null; stale: boolean; routeDay: string }) {
+function Notices({
+  offlineReady,
+  storagePersisted,
+  stale,
+  routeDay,
+}: {
+  offlineReady: boolean;
+  storagePersisted: boolean | null;
+  stale: boolean;
+  routeDay: string;
+}) {
   return (
     <>
       <p className="collect-small muted">
         {offlineReady ? "This page also opens without a connection." : "Preparing the offline copy of this page…"}
-        {storagePersisted === false ? " The browser may clear stored data when space runs low; send entries when you can." : ""}
+        {storagePersisted === false
+          ? " The browser may clear stored data when space runs low; send entries when you can."
+          : ""}
       </p>
       {stale ? (
         <p className="form-error" data-stale-route>
-          The route and history below are from {routeDay}, when this page was last loaded with a connection. Reload with a connection for today&apos;s route.
+          The route and history below are from {routeDay}, when this page was last loaded with a connection. Reload with
+          a connection for today&apos;s route.
         </p>
       ) : null}
     </>
@@ -52,7 +67,21 @@ export function CollectApp({ data }: { data: PhoneData }) {
   const source: PhoneSource | undefined = sourcesByCode.get(pickedCode);
   const materials = source?.materials.length ? source.materials : ["USED_COOKING_OIL"];
   const material = materials.includes(draft.material) ? draft.material : (materials[0] ?? "USED_COOKING_OIL");
-  const entry = usePickupEntry({ box: ob.box, entries: ob.entries, user, timeZone: data.timeZone, known, draft, setDraft, material, refresh: ob.refresh, flush: () => ob.flush(), announce: ob.announce, bandFor: distance.bandFor, stop: source?.position ?? null });
+  const entry = usePickupEntry({
+    box: ob.box,
+    entries: ob.entries,
+    user,
+    timeZone: data.timeZone,
+    known,
+    draft,
+    setDraft,
+    material,
+    refresh: ob.refresh,
+    flush: () => ob.flush(),
+    announce: ob.announce,
+    bandFor: distance.bandFor,
+    stop: source?.position ?? null,
+  });
 
   const choose = (code: string) => {
     entry.chooseSource(code);
@@ -66,16 +95,33 @@ export function CollectApp({ data }: { data: PhoneData }) {
 
   const summary = summarize(ob.entries, user.userId, ob.now);
   const today = localParts(ob.now, data.timeZone).day;
-  const heldLogins = [...new Set(ob.entries.filter((e) => e.enteredBy.userId !== user.userId).map((e) => e.enteredBy.login))];
+  const heldLogins = [
+    ...new Set(ob.entries.filter((e) => e.enteredBy.userId !== user.userId).map((e) => e.enteredBy.login)),
+  ];
   const view = { sourcesByCode, system, timeZone: data.timeZone, today };
 
   return (
-    <div className="collect-app" data-outbox-ready={ob.boxReady ? "1" : "0"} data-offline-ready={ob.offlineReady ? "1" : "0"}>
+    <div
+      className="collect-app"
+      data-outbox-ready={ob.boxReady ? "1" : "0"}
+      data-offline-ready={ob.offlineReady ? "1" : "0"}
+    >
       <StatusBar online={ob.online} waiting={ob.entries.length} sending={ob.sending} onSend={() => void ob.flush()} />
       <DistanceQuestion consent={distance.consent} answer={distance.answer} />
-      <Notices offlineReady={ob.offlineReady} storagePersisted={ob.storagePersisted} stale={today !== data.today} routeDay={data.today} />
-      {ob.needSignIn ? <SignInAgain why={ob.needSignIn} waiting={summary.waiting} login={user.login} onSignedIn={signedIn} /> : null}
-      {!user.mayRecord ? <p className="form-error">Only collectors and production staff record pickups; this account can look but not save.</p> : null}
+      <Notices
+        offlineReady={ob.offlineReady}
+        storagePersisted={ob.storagePersisted}
+        stale={today !== data.today}
+        routeDay={data.today}
+      />
+      {ob.needSignIn ? (
+        <SignInAgain why={ob.needSignIn} waiting={summary.waiting} login={user.login} onSignedIn={signedIn} />
+      ) : null}
+      {!user.mayRecord ? (
+        <p className="form-error">
+          Only collectors and production staff record pickups; this account can look but not save.
+        </p>
+      ) : null}
 
       <h1 className="collect-title">Collect</h1>
       <RouteStops
@@ -90,7 +136,19 @@ export function CollectApp({ data }: { data: PhoneData }) {
         }}
       />
       <PickupForm
-        {...{ draft, set, errors: entry.errors, system, sources: data.sources, routeCodes, source, materials, material, timeZone: data.timeZone, today }}
+        {...{
+          draft,
+          set,
+          errors: entry.errors,
+          system,
+          sources: data.sources,
+          routeCodes,
+          source,
+          materials,
+          material,
+          timeZone: data.timeZone,
+          today,
+        }}
         editing={entry.editingKey !== null}
         mayRecord={user.mayRecord}
         boxReady={ob.boxReady}
@@ -99,7 +157,15 @@ export function CollectApp({ data }: { data: PhoneData }) {
         onSubmit={entry.save}
         onStopEditing={entry.stopEditing}
       />
-      <WaitingList entries={ob.entries} lastProblem={ob.lastProblem} stale={summary.stale} heldLogins={heldLogins} view={view} onFix={entry.edit} onDiscard={(e) => void entry.discard(e)} />
+      <WaitingList
+        entries={ob.entries}
+        lastProblem={ob.lastProblem}
+        stale={summary.stale}
+        heldLogins={heldLogins}
+        view={view}
+        onFix={entry.edit}
+        onDiscard={(e) => void entry.discard(e)}
+      />
       <p className="collect-links">
         <a href="/labels/scan">Scan a label</a> · <a href="/labels">Print labels</a>
       </p>

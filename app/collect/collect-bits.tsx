@@ -16,14 +16,26 @@ export function SkewFlag({ observedAt, receivedAt }: { observedAt: string; recei
   );
 }
 
-export function History({ rows, system, tz, today }: { rows: PhoneHistory[]; system: UnitSystem; tz: string; today: string }) {
+export function History({
+  rows,
+  system,
+  tz,
+  today,
+}: {
+  rows: PhoneHistory[];
+  system: UnitSystem;
+  tz: string;
+  today: string;
+}) {
   if (rows.length === 0) return <p className="muted">No pickups here in the last months.</p>;
   return (
     <ul className="collect-history">
       {rows.map((h) => (
         <li key={h.code}>
-          <strong>{shown(h.observedAt, tz, today)}</strong> · {h.containers} cont. · {volumeText(h.volumeMl, system)} · {tempText(h.tempC, system)} · water {lookText(h.waterLook)}, solids {lookText(h.solidsLook)}{" "}
-          <span className="muted">({h.collector})</span> <SkewFlag observedAt={h.observedAt} receivedAt={h.receivedAt} />
+          <strong>{shown(h.observedAt, tz, today)}</strong> · {h.containers} cont. · {volumeText(h.volumeMl, system)} ·{" "}
+          {tempText(h.tempC, system)} · water {lookText(h.waterLook)}, solids {lookText(h.solidsLook)}{" "}
+          <span className="muted">({h.collector})</span>{" "}
+          <SkewFlag observedAt={h.observedAt} receivedAt={h.receivedAt} />
         </li>
       ))}
     </ul>

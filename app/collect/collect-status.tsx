@@ -5,7 +5,17 @@ import type { FormEvent } from "react";
 import type { UnitSystem } from "@/lib/quantity/units";
 import type { PhoneData } from "@/app/collect/types";
 
-export function StatusBar({ online, waiting, sending, onSend }: { online: boolean; waiting: number; sending: boolean; onSend: () => void }) {
+export function StatusBar({
+  online,
+  waiting,
+  sending,
+  onSend,
+}: {
+  online: boolean;
+  waiting: number;
+  sending: boolean;
+  onSend: () => void;
+}) {
   return (
     <div className="collect-bar" role="status" aria-live="polite">
       <span className={online ? "collect-net on" : "collect-net off"}>{online ? "Online" : "No connection"}</span>
@@ -41,11 +51,21 @@ export function SignInAgain({ why, waiting, login, onSignedIn }: SignInAgainProp
     const form = new FormData(ev.currentTarget);
     setMessage(null);
     try {
-      const res = await fetch("/api/session", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ login: form.get("login"), password: form.get("password") }) });
+      const res = await fetch("/api/session", {
+        method: "POST",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify({ login: form.get("login"), password: form.get("password") }),
+      });
       const body = (await res.json()) as SessionAnswer;
       if (!body.ok || !body.value) return setMessage(body.issues?.[0]?.message ?? "Sign-in failed");
       const u = body.value.user;
-      await onSignedIn({ userId: u.userId, login: u.login, fullName: u.fullName, unitSystem: u.unitSystem, mayRecord: u.role === "COLLECTOR" || u.role === "PRODUCTION" });
+      await onSignedIn({
+        userId: u.userId,
+        login: u.login,
+        fullName: u.fullName,
+        unitSystem: u.unitSystem,
+        mayRecord: u.role === "COLLECTOR" || u.role === "PRODUCTION",
+      });
     } catch {
       setMessage("No connection: signing in needs the network. Your entries stay on this phone.");
     }

@@ -12,7 +12,11 @@ type Consent = "yes" | "no" | null | "unknown";
  * Asks once whether the phone may tell how far it is from each stop. Only a distance band goes with the
  * pickup (worked out on the phone); the position itself is never stored or sent.
  */
-export function useDistanceBand(): { consent: Consent; answer: (yes: boolean) => void; bandFor: (stop: { lat: number; lon: number } | null) => Promise<DistanceBand | undefined> } {
+export function useDistanceBand(): {
+  consent: Consent;
+  answer: (yes: boolean) => void;
+  bandFor: (stop: { lat: number; lon: number } | null) => Promise<DistanceBand | undefined>;
+} {
   const [consent, setConsent] = useState<Consent>("unknown");
   useEffect(() => {
     const v = window.localStorage.getItem(CONSENT_KEY);
@@ -22,7 +26,12 @@ export function useDistanceBand(): { consent: Consent; answer: (yes: boolean) =>
     window.localStorage.setItem(CONSENT_KEY, yes ? "yes" : "no");
     setConsent(yes ? "yes" : "no");
     // The browser asks its own permission now, once, rather than in the middle of a pickup.
-    if (yes) navigator.geolocation?.getCurrentPosition(() => undefined, () => undefined, { timeout: 10_000 });
+    if (yes)
+      navigator.geolocation?.getCurrentPosition(
+        () => undefined,
+        () => undefined,
+        { timeout: 10_000 },
+      );
   };
   const bandFor = (stop: { lat: number; lon: number } | null) =>
     new Promise<DistanceBand | undefined>((resolve) => {
@@ -40,7 +49,10 @@ export function DistanceQuestion({ consent, answer }: { consent: Consent; answer
   if (consent !== null) return null;
   return (
     <div className="collect-small" role="group" aria-label="Distance from the stop">
-      <p>May this phone note how far it is from each stop? Only a rough distance (for example &ldquo;within 250 m&rdquo;) is kept with the pickup, never where you went.</p>
+      <p>
+        May this phone note how far it is from each stop? Only a rough distance (for example &ldquo;within 250 m&rdquo;)
+        is kept with the pickup, never where you went.
+      </p>
       <button type="button" onClick={() => answer(true)}>
         Share distance
       </button>{" "}

@@ -16,7 +16,17 @@ const HISTORY_DAYS = 120;
 const HISTORY_PER_SOURCE = 5;
 
 function toPhone(h: HistoryPickup): PhoneHistory {
-  return { code: h.code, observedAt: h.observedAt.toISOString(), receivedAt: h.receivedAt.toISOString(), containers: h.containers, volumeMl: h.volumeMl, tempC: h.tempC, waterLook: h.waterLook, solidsLook: h.solidsLook, collector: h.collector };
+  return {
+    code: h.code,
+    observedAt: h.observedAt.toISOString(),
+    receivedAt: h.receivedAt.toISOString(),
+    containers: h.containers,
+    volumeMl: h.volumeMl,
+    tempC: h.tempC,
+    waterLook: h.waterLook,
+    solidsLook: h.solidsLook,
+    collector: h.collector,
+  };
 }
 
 export default async function CollectPage() {
@@ -31,11 +41,23 @@ export default async function CollectPage() {
     listReceivedFromCollector(db, site.id, user.userId, new Date(now.getTime() - 2 * 86_400_000)),
   ]);
   const route = routeDue(
-    sources.map((s) => ({ code: s.code, name: s.name, active: true, pickupEveryDays: s.pickupEveryDays, lastPickupDay: s.lastPickupAt ? day(s.lastPickupAt, tz) : null })),
+    sources.map((s) => ({
+      code: s.code,
+      name: s.name,
+      active: true,
+      pickupEveryDays: s.pickupEveryDays,
+      lastPickupDay: s.lastPickupAt ? day(s.lastPickupAt, tz) : null,
+    })),
     today,
   );
   const data: PhoneData = {
-    user: { userId: user.userId, login: user.login, fullName: user.fullName, unitSystem: user.unitSystem, mayRecord: user.role === "COLLECTOR" || user.role === "PRODUCTION" },
+    user: {
+      userId: user.userId,
+      login: user.login,
+      fullName: user.fullName,
+      unitSystem: user.unitSystem,
+      mayRecord: user.role === "COLLECTOR" || user.role === "PRODUCTION",
+    },
     timeZone: tz,
     today,
     builtAt: now.toISOString(),

@@ -23,7 +23,17 @@ interface Fields {
   system: UnitSystem;
 }
 
-function SourceField({ draft, errors, sources, routeCodes, onChoose }: Pick<Fields, "draft" | "errors"> & { sources: PhoneSource[]; routeCodes: ReadonlySet<string>; onChoose: (code: string) => void }) {
+function SourceField({
+  draft,
+  errors,
+  sources,
+  routeCodes,
+  onChoose,
+}: Pick<Fields, "draft" | "errors"> & {
+  sources: PhoneSource[];
+  routeCodes: ReadonlySet<string>;
+  onChoose: (code: string) => void;
+}) {
   return (
     <label className="collect-field">
       Source
@@ -50,7 +60,17 @@ function SourceField({ draft, errors, sources, routeCodes, onChoose }: Pick<Fiel
   );
 }
 
-function SourceCard({ source, system, timeZone, today }: { source: PhoneSource; system: UnitSystem; timeZone: string; today: string }) {
+function SourceCard({
+  source,
+  system,
+  timeZone,
+  today,
+}: {
+  source: PhoneSource;
+  system: UnitSystem;
+  timeZone: string;
+  today: string;
+}) {
   return (
     <div className="collect-source" aria-label={`About ${source.name}`}>
       <p className="collect-source-name">
@@ -79,18 +99,30 @@ function PickupCautions({ material }: { material: string }) {
       items={[
         "Used oil can be hot and containers heavy and slippery. Do not pour or lift hot oil; wear gloves and eye protection.",
         ...(material === "TRAP_GREASE"
-          ? ["Trap grease gives off hydrogen sulfide, which can kill and which you soon stop smelling. Never enter or lean into a grease trap or pit; stand upwind, keep the lid open only as long as needed, and pump from outside."]
+          ? [
+              "Trap grease gives off hydrogen sulfide, which can kill and which you soon stop smelling. Never enter or lean into a grease trap or pit; stand upwind, keep the lid open only as long as needed, and pump from outside.",
+            ]
           : []),
       ]}
     />
   );
 }
 
-function MaterialField({ materials, material, set, errors }: Pick<Fields, "set" | "errors"> & { materials: string[]; material: string }) {
+function MaterialField({
+  materials,
+  material,
+  set,
+  errors,
+}: Pick<Fields, "set" | "errors"> & { materials: string[]; material: string }) {
   return (
     <label className="collect-field">
       Material
-      <select id="field-material" value={material} onChange={(e) => set("material", e.target.value)} {...invalidProps(errors, "material")}>
+      <select
+        id="field-material"
+        value={material}
+        onChange={(e) => set("material", e.target.value)}
+        {...invalidProps(errors, "material")}
+      >
         {materials.map((m) => (
           <option key={m} value={m}>
             {labelOf(m)}
@@ -107,11 +139,26 @@ function ContainersField({ draft, set, errors }: Pick<Fields, "draft" | "set" | 
     <div className="collect-field">
       <label htmlFor="field-containers">Containers</label>
       <div className="collect-stepper">
-        <button type="button" aria-label="One container fewer" onClick={() => set("containers", String(Math.max(1, (num(draft.containers) || 1) - 1)))}>
+        <button
+          type="button"
+          aria-label="One container fewer"
+          onClick={() => set("containers", String(Math.max(1, (num(draft.containers) || 1) - 1)))}
+        >
           −
         </button>
-        <input id="field-containers" inputMode="numeric" value={draft.containers} onChange={(e) => set("containers", e.target.value)} max={MAX_CONTAINERS} {...invalidProps(errors, "containers")} />
-        <button type="button" aria-label="One container more" onClick={() => set("containers", String((num(draft.containers) || 0) + 1))}>
+        <input
+          id="field-containers"
+          inputMode="numeric"
+          value={draft.containers}
+          onChange={(e) => set("containers", e.target.value)}
+          max={MAX_CONTAINERS}
+          {...invalidProps(errors, "containers")}
+        />
+        <button
+          type="button"
+          aria-label="One container more"
+          onClick={() => set("containers", String((num(draft.containers) || 0) + 1))}
+        >
           +
         </button>
       </div>
@@ -128,27 +175,55 @@ function MeasureFields({ draft, set, errors, system }: Fields) {
       <fieldset className="collect-choice">
         <legend>Measure by</legend>
         <label>
-          <input type="radio" name="measure" checked={draft.measure === "volume"} onChange={() => set("measure", "volume")} /> Volume
+          <input
+            type="radio"
+            name="measure"
+            checked={draft.measure === "volume"}
+            onChange={() => set("measure", "volume")}
+          />{" "}
+          Volume
         </label>
         <label>
-          <input type="radio" name="measure" checked={draft.measure === "gauge"} onChange={() => set("measure", "gauge")} /> Gauge reading
+          <input
+            type="radio"
+            name="measure"
+            checked={draft.measure === "gauge"}
+            onChange={() => set("measure", "gauge")}
+          />{" "}
+          Gauge reading
         </label>
       </fieldset>
       {draft.measure === "volume" ? (
         <label className="collect-field">
           Volume ({vu}, all containers)
-          <input id="field-volumeL" inputMode="decimal" value={draft.volume} onChange={(e) => set("volume", e.target.value)} {...invalidProps(errors, "volumeL")} />
+          <input
+            id="field-volumeL"
+            inputMode="decimal"
+            value={draft.volume}
+            onChange={(e) => set("volume", e.target.value)}
+            {...invalidProps(errors, "volumeL")}
+          />
           <Problem field="volumeL" errors={errors} />
         </label>
       ) : (
         <div className="collect-field" id="field-gauge" tabIndex={-1}>
           <label>
             Container size ({vu})
-            <input inputMode="decimal" value={draft.gaugeSize} onChange={(e) => set("gaugeSize", e.target.value)} {...invalidProps(errors, "gauge")} />
+            <input
+              inputMode="decimal"
+              value={draft.gaugeSize}
+              onChange={(e) => set("gaugeSize", e.target.value)}
+              {...invalidProps(errors, "gauge")}
+            />
           </label>
           <label>
             Fill level on the gauge (%)
-            <input inputMode="decimal" value={draft.gaugeFill} onChange={(e) => set("gaugeFill", e.target.value)} {...invalidProps(errors, "gauge")} />
+            <input
+              inputMode="decimal"
+              value={draft.gaugeFill}
+              onChange={(e) => set("gaugeFill", e.target.value)}
+              {...invalidProps(errors, "gauge")}
+            />
           </label>
           <span className="muted">= {Number.isFinite(gaugeVolume) ? `${formatFixed(gaugeVolume, 1)} ${vu}` : "—"}</span>
           <Problem field="gauge" errors={errors} />
@@ -181,18 +256,38 @@ function TextFields({ draft, set, errors, system }: Fields) {
     <>
       <label className="collect-field">
         Oil temperature ({temperatureUnit(system)})
-        <input id="field-tempC" inputMode="decimal" value={draft.temp} onChange={(e) => set("temp", e.target.value)} {...invalidProps(errors, "tempC")} />
+        <input
+          id="field-tempC"
+          inputMode="decimal"
+          value={draft.temp}
+          onChange={(e) => set("temp", e.target.value)}
+          {...invalidProps(errors, "tempC")}
+        />
         <Problem field="tempC" errors={errors} />
       </label>
       <LookFields draft={draft} set={set} errors={errors} />
       <label className="collect-field">
         Container labels (optional, one per container)
-        <input id="field-containerTags" value={draft.tags} onChange={(e) => set("tags", e.target.value)} autoCapitalize="characters" placeholder="e.g. C-0012 C-0013" {...invalidProps(errors, "containerTags")} />
+        <input
+          id="field-containerTags"
+          value={draft.tags}
+          onChange={(e) => set("tags", e.target.value)}
+          autoCapitalize="characters"
+          placeholder="e.g. C-0012 C-0013"
+          {...invalidProps(errors, "containerTags")}
+        />
         <Problem field="containerTags" errors={errors} />
       </label>
       <label className="collect-field">
         Notes
-        <textarea id="field-notes" value={draft.notes} onChange={(e) => set("notes", e.target.value)} rows={2} maxLength={500} {...invalidProps(errors, "notes")} />
+        <textarea
+          id="field-notes"
+          value={draft.notes}
+          onChange={(e) => set("notes", e.target.value)}
+          rows={2}
+          maxLength={500}
+          {...invalidProps(errors, "notes")}
+        />
         <Problem field="notes" errors={errors} />
       </label>
     </>
@@ -219,11 +314,25 @@ export interface PickupFormProps extends Fields {
 export function PickupForm(p: PickupFormProps) {
   const fields: Fields = { draft: p.draft, set: p.set, errors: p.errors, system: p.system };
   return (
-    <form id="collect-form" className="collect-form" onSubmit={(e) => void p.onSubmit(e)} noValidate aria-labelledby="form-h">
+    <form
+      id="collect-form"
+      className="collect-form"
+      onSubmit={(e) => void p.onSubmit(e)}
+      noValidate
+      aria-labelledby="form-h"
+    >
       <h2 id="form-h">{p.editing ? "Fix the refused pickup" : "New pickup"}</h2>
-      <SourceField draft={p.draft} errors={p.errors} sources={p.sources} routeCodes={p.routeCodes} onChoose={p.onChooseSource} />
+      <SourceField
+        draft={p.draft}
+        errors={p.errors}
+        sources={p.sources}
+        routeCodes={p.routeCodes}
+        onChoose={p.onChooseSource}
+      />
       {p.source ? <SourceCard source={p.source} system={p.system} timeZone={p.timeZone} today={p.today} /> : null}
-      {p.materials.length > 1 ? <MaterialField materials={p.materials} material={p.material} set={p.set} errors={p.errors} /> : null}
+      {p.materials.length > 1 ? (
+        <MaterialField materials={p.materials} material={p.material} set={p.set} errors={p.errors} />
+      ) : null}
       <PickupCautions material={p.material} />
       <ContainersField {...fields} />
       <MeasureFields {...fields} />

@@ -33,7 +33,12 @@ export function RouteStops({ route, sourcesByCode, pickedCode, showAll, onShowAl
               const picked = pickedCode === stop.code;
               return (
                 <li key={stop.code}>
-                  <button type="button" className={picked ? "collect-stop picked" : "collect-stop"} aria-pressed={picked} onClick={() => onPick(stop.code)}>
+                  <button
+                    type="button"
+                    className={picked ? "collect-stop picked" : "collect-stop"}
+                    aria-pressed={picked}
+                    onClick={() => onPick(stop.code)}
+                  >
                     <span className="collect-stop-name">{s?.name ?? stop.code}</span>
                     <span className="collect-stop-meta">
                       {stop.code} · {dueText(stop)}

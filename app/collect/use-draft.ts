@@ -28,7 +28,20 @@ export interface Draft {
   notes: string;
 }
 
-export const EMPTY: Draft = { sourceCode: "", material: "", containers: "1", measure: "volume", volume: "", gaugeSize: "", gaugeFill: "", temp: "", waterLook: "NONE", solidsLook: "NONE", tags: "", notes: "" };
+export const EMPTY: Draft = {
+  sourceCode: "",
+  material: "",
+  containers: "1",
+  measure: "volume",
+  volume: "",
+  gaugeSize: "",
+  gaugeFill: "",
+  temp: "",
+  waterLook: "NONE",
+  solidsLook: "NONE",
+  tags: "",
+  notes: "",
+};
 
 export function useDraft() {
   const [draft, setDraft] = useState<Draft>(EMPTY);
@@ -59,13 +72,19 @@ export function gaugeVolumeOf(draft: Draft): number {
 }
 
 /** The body the outbox sends, from the form as typed (checked afterwards by checkOnPhone). */
-export function pickupInputOf(draft: Draft, at: { code: string; observedAt: string; key: string; material: string; system: UnitSystem }): PhonePickupInput {
+export function pickupInputOf(
+  draft: Draft,
+  at: { code: string; observedAt: string; key: string; material: string; system: UnitSystem },
+): PhonePickupInput {
   const gaugeVolume = gaugeVolumeOf(draft);
   const tags = draft.tags
     .split(/[\s,;]+/)
     .map((t) => t.trim())
     .filter(Boolean);
-  const gaugeNote = draft.measure === "gauge" && Number.isFinite(gaugeVolume) ? `gauge: ${draft.containers} × ${draft.gaugeSize} ${volumeUnit(at.system)} at ${draft.gaugeFill} %` : "";
+  const gaugeNote =
+    draft.measure === "gauge" && Number.isFinite(gaugeVolume)
+      ? `gauge: ${draft.containers} × ${draft.gaugeSize} ${volumeUnit(at.system)} at ${draft.gaugeFill} %`
+      : "";
   return {
     code: at.code,
     sourceCode: draft.sourceCode.trim().toUpperCase(),
@@ -100,7 +119,10 @@ export interface PhonePickupInput {
 }
 
 /** Messages by form field; a volume problem shows at the gauge fields when measuring by gauge. */
-export function errorsByField(issues: ReadonlyArray<{ field?: string | null; message: string }>, measure: Draft["measure"] = "volume"): FieldErrors {
+export function errorsByField(
+  issues: ReadonlyArray<{ field?: string | null; message: string }>,
+  measure: Draft["measure"] = "volume",
+): FieldErrors {
   const byField: FieldErrors = {};
   for (const i of issues) {
     const f = (i.field ?? "form").split(".")[0] ?? "form";

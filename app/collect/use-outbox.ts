@@ -78,33 +78,48 @@ export function useOutbox(userId: number, builtAt: string) {
   }, []);
 
   /** Sends what is waiting; `asUser` right after a new sign-in, before the page has re-rendered. */
-  const flush = useCallback(async (asUser?: number): Promise<void> => {
-    const box = boxRef.current;
-    if (!box) return;
-    if (flushing.current) {
-      // A trigger (the network came back, a new entry) during a send: go round once more afterwards.
-      again.current = true;
-      return;
-    }
-    flushing.current = true;
-    again.current = false;
-    setSending(true);
-    try {
-      const uid = asUser ?? userRef.current;
-      const run = () => flushOutbox(box, uid, sendEntry, () => new Date());
-      // One sender at a time across tabs; without Web Locks the idempotency key still makes a twin harmless.
-      const report = navigator.locks ? await navigator.locks.request("tracevat-collect-outbox", run) : await run();
-      if (report.stored.length) setSentNow((prev) => [...report.stored.map((s) => ({ code: s.code, recordId: s.recordId, sourceCode: s.sourceCode, observedAt: s.observedAt, receivedAt: s.receivedAt })).reverse(), ...prev]);
-      setNeedSignIn(report.signIn);
-      setLastProblem(report.offline);
-    } finally {
-      flushing.current = false;
-      setSending(false);
-      await refresh();
-      announce();
-    }
-    if (again.current) await flush(asUser);
-  }, [refresh, announce]);
+  const flush = useCallback(
+    async (asUser?: number): Promise<void> => {
+      const box = boxRef.current;
+      if (!box) return;
+      if (flushing.current) {
+        // A trigger (the network came back, a new entry) during a send: go round once more afterwards.
+        again.current = true;
+        return;
+      }
+      flushing.current = true;
+      again.current = false;
+      setSending(true);
+      try {
+        const uid = asUser ?? userRef.current;
+        const run = () => flushOutbox(box, uid, sendEntry, () => new Date());
+        // One sender at a time across tabs; without Web Locks the idempotency key still makes a twin harmless.
+        const report = navigator.locks ? await navigator.locks.request("tracevat-collect-outbox", run) : await run();
+        if (report.stored.length)
+          setSentNow((prev) => [
+            ...report.stored
+              .map((s) => ({
+                code: s.code,
+                recordId: s.recordId,
+                sourceCode: s.sourceCode,
+                observedAt: s.observedAt,
+                receivedAt: s.receivedAt,
+              }))
+              .reverse(),
+            ...prev,
+          ]);
+        setNeedSignIn(report.signIn);
+        setLastProblem(report.offline);
+      } finally {
+        flushing.current = false;
+        setSending(false);
+        await refresh();
+        announce();
+      }
+      if (again.current) await flush(asUser);
+    },
+    [refresh, announce],
+  );
 
   useEffect(() => {
     let stop = false;
@@ -168,5 +183,21 @@ export function useOutbox(userId: number, builtAt: string) {
     return () => window.removeEventListener("submit", onSubmit, true);
   }, []);
 
-  return { box: boxRef, entries, sentNow, online, offlineReady, storagePersisted, needSignIn, setNeedSignIn, lastProblem, boxReady, sending, now, flush, refresh, announce };
+  return {
+    box: boxRef,
+    entries,
+    sentNow,
+    online,
+    offlineReady,
+    storagePersisted,
+    needSignIn,
+    setNeedSignIn,
+    lastProblem,
+    boxReady,
+    sending,
+    now,
+    flush,
+    refresh,
+    announce,
+  };
 }

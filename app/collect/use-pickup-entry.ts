@@ -49,7 +49,11 @@ export function usePickupEntry(c: EntryContext) {
       else await box.add(entry);
       return true;
     } catch (e) {
-      setErrors({ form: [`Could not keep the entry on this phone: ${e instanceof Error ? e.message : String(e)}. Nothing was cleared.`] });
+      setErrors({
+        form: [
+          `Could not keep the entry on this phone: ${e instanceof Error ? e.message : String(e)}. Nothing was cleared.`,
+        ],
+      });
       return false;
     }
   }
@@ -76,7 +80,9 @@ export function usePickupEntry(c: EntryContext) {
       return;
     }
     const pickup = { ...input, sourceCode: checked.value.sourceCode, material: checked.value.material };
-    const entry = editing ? { ...editing, pickup, state: "WAITING" as const, refusal: null, lastProblem: null } : newEntry(pickup, { userId: c.user.userId, login: c.user.login, fullName: c.user.fullName }, new Date());
+    const entry = editing
+      ? { ...editing, pickup, state: "WAITING" as const, refusal: null, lastProblem: null }
+      : newEntry(pickup, { userId: c.user.userId, login: c.user.login, fullName: c.user.fullName }, new Date());
     if (!(await keep(entry, editing !== undefined))) return;
     setErrors({});
     setEditingKey(null);
@@ -95,7 +101,12 @@ export function usePickupEntry(c: EntryContext) {
   }
 
   async function discard(e: OutboxEntry) {
-    if (!window.confirm(`Discard pickup ${e.pickup.code} from ${e.pickup.sourceCode}? It was never stored on the server and cannot be recovered.`)) return;
+    if (
+      !window.confirm(
+        `Discard pickup ${e.pickup.code} from ${e.pickup.sourceCode}? It was never stored on the server and cannot be recovered.`,
+      )
+    )
+      return;
     await c.box.current?.discard(e.key);
     await c.refresh();
     c.announce();

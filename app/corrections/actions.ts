@@ -12,20 +12,40 @@ export async function reverseMovementAction(prev: FormState, form: FormData): Pr
   const values = readValues(form, ["movementId", "reason"]);
   const who = await requireRole(["PRODUCTION"]);
   if (!who.ok) return refused(prev, values, who.issues, ["movementId", "reason"]);
-  const r = await reverseMovement(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { movementId: readNumber(form, "movementId"), reason: readText(form, "reason") });
+  const r = await reverseMovement(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    { movementId: readNumber(form, "movementId"), reason: readText(form, "reason") },
+  );
   if (!r.ok) return refused(prev, values, r.issues, ["reason"]);
   revalidatePath("/ledger");
   revalidatePath("/batches/[code]", "page");
-  return { status: "saved", message: `Movement ${r.value.movementId} reversed by movement ${r.value.reversalId}.`, values: {}, errors: {}, seq: prev.seq + 1 };
+  return {
+    status: "saved",
+    message: `Movement ${r.value.movementId} reversed by movement ${r.value.reversalId}.`,
+    values: {},
+    errors: {},
+    seq: prev.seq + 1,
+  };
 }
 
 export async function voidLabResultAction(prev: FormState, form: FormData): Promise<FormState> {
   const values = readValues(form, ["kind", "resultId", "reason"]);
   const who = await requireRole(["PRODUCTION"]);
   if (!who.ok) return refused(prev, values, who.issues, ["reason"]);
-  const r = await voidLabResult(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { kind: readText(form, "kind"), resultId: readNumber(form, "resultId"), reason: readText(form, "reason") });
+  const r = await voidLabResult(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    { kind: readText(form, "kind"), resultId: readNumber(form, "resultId"), reason: readText(form, "reason") },
+  );
   if (!r.ok) return refused(prev, values, r.issues, ["reason"]);
   revalidatePath(`/lab/${encodeURIComponent(r.value.lotCode)}`);
   revalidatePath(`/lots/${encodeURIComponent(r.value.lotCode)}`);
-  return { status: "saved", message: "Result voided; it stays on record and no longer counts.", values: {}, errors: {}, seq: prev.seq + 1 };
+  return {
+    status: "saved",
+    message: "Result voided; it stays on record and no longer counts.",
+    values: {},
+    errors: {},
+    seq: prev.seq + 1,
+  };
 }

@@ -4,7 +4,19 @@ import { reverseMovementAction, voidLabResultAction } from "@/app/corrections/ac
 import { IDLE } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 
-function ReasonForm({ action, hidden, label, button, title }: { action: (p: FormState, f: FormData) => Promise<FormState>; hidden: Record<string, string>; label: string; button: string; title: string }) {
+function ReasonForm({
+  action,
+  hidden,
+  label,
+  button,
+  title,
+}: {
+  action: (p: FormState, f: FormData) => Promise<FormState>;
+  hidden: Record<string, string>;
+  label: string;
+  button: string;
+  title: string;
+}) {
   const [state, act, pending] = useActionState<FormState, FormData>(action, IDLE);
   const id = useId();
   const error = state.errors.reason;
@@ -22,7 +34,13 @@ function ReasonForm({ action, hidden, label, button, title }: { action: (p: Form
           ))}
           <label htmlFor={`${id}-reason`}>
             {label}
-            <input id={`${id}-reason`} name="reason" defaultValue={state.values.reason ?? ""} aria-invalid={error ? true : undefined} aria-describedby={error ? `${id}-err` : undefined} />
+            <input
+              id={`${id}-reason`}
+              name="reason"
+              defaultValue={state.values.reason ?? ""}
+              aria-invalid={error ? true : undefined}
+              aria-describedby={error ? `${id}-err` : undefined}
+            />
           </label>
           {error ? (
             <span id={`${id}-err`} className="field-error">
@@ -45,15 +63,39 @@ function ReasonForm({ action, hidden, label, button, title }: { action: (p: Form
 
 /** Cancels a mistaken transfer with a linked opposite movement. */
 export function ReverseMovementForm({ movementId }: { movementId: number }) {
-  return <ReasonForm action={reverseMovementAction} hidden={{ movementId: String(movementId) }} title={`Reverse No. ${movementId}`} label="What was wrong" button="Book the reversal" />;
+  return (
+    <ReasonForm
+      action={reverseMovementAction}
+      hidden={{ movementId: String(movementId) }}
+      title={`Reverse No. ${movementId}`}
+      label="What was wrong"
+      button="Book the reversal"
+    />
+  );
 }
 
 /** Voids a titration or lab test entered by mistake (kept on record, marked, no longer counted). */
 export function VoidResultForm({ kind, resultId }: { kind: "TITRATION" | "LAB_TEST"; resultId: number }) {
-  return <ReasonForm action={voidLabResultAction} hidden={{ kind, resultId: String(resultId) }} title="Void" label="What was wrong" button="Void this result" />;
+  return (
+    <ReasonForm
+      action={voidLabResultAction}
+      hidden={{ kind, resultId: String(resultId) }}
+      title="Void"
+      label="What was wrong"
+      button="Void this result"
+    />
+  );
 }
 
 /** Takes back a charge booked by mistake into a batch that is still reacting (a linked opposite movement). */
 export function TakeBackChargeForm({ movementId }: { movementId: number }) {
-  return <ReasonForm action={reverseMovementAction} hidden={{ movementId: String(movementId) }} title={`Take back No. ${movementId}`} label="What was wrong" button="Take this charge back" />;
+  return (
+    <ReasonForm
+      action={reverseMovementAction}
+      hidden={{ movementId: String(movementId) }}
+      title={`Take back No. ${movementId}`}
+      label="What was wrong"
+      button="Take this charge back"
+    />
+  );
 }

@@ -16,7 +16,12 @@ export async function createCustomerAction(prev: FormState, form: FormData): Pro
   const who = await requireRole(["COMPLIANCE"]);
   if (!who.ok) return refused(prev, values, who.issues, NEW_FIELDS);
   const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
-  const r = await createCustomer(await getDb(), actor, { code: values.code, name: values.name, address: values.address, contact: values.contact });
+  const r = await createCustomer(await getDb(), actor, {
+    code: values.code,
+    name: values.name,
+    address: values.address,
+    contact: values.contact,
+  });
   if (!r.ok) return refused(prev, values, r.issues, NEW_FIELDS);
   revalidatePath("/customers");
   return { status: "saved", message: `Customer ${r.value.code} recorded.`, values: {}, errors: {}, seq: prev.seq + 1 };
@@ -28,9 +33,22 @@ export async function changeCustomerAction(prev: FormState, form: FormData): Pro
   if (!who.ok) return refused(prev, values, who.issues, CHANGE_FIELDS);
   const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
   const active = readText(form, "active");
-  const r = await changeCustomer(await getDb(), actor, { code: values.code, name: values.name, address: values.address, contact: values.contact, active: active === "yes" || active === "on", reason: values.reason });
+  const r = await changeCustomer(await getDb(), actor, {
+    code: values.code,
+    name: values.name,
+    address: values.address,
+    contact: values.contact,
+    active: active === "yes" || active === "on",
+    reason: values.reason,
+  });
   if (!r.ok) return refused(prev, values, r.issues, CHANGE_FIELDS);
   revalidatePath("/customers");
   revalidatePath(`/customers/${encodeURIComponent(r.value.code)}`);
-  return { status: "saved", message: `Customer ${r.value.code} changed (${r.value.changed.join(", ")}); the history keeps the old values.`, values: {}, errors: {}, seq: prev.seq + 1 };
+  return {
+    status: "saved",
+    message: `Customer ${r.value.code} changed (${r.value.changed.join(", ")}); the history keeps the old values.`,
+    values: {},
+    errors: {},
+    seq: prev.seq + 1,
+  };
 }

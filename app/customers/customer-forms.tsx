@@ -15,13 +15,28 @@ export function NewCustomerForm() {
 }
 
 /** Changes a customer; the previous values stay in the record's history with the reason. */
-export function ChangeCustomerForm({ customer }: { customer: { code: string; name: string; address: string; contact: string; active: boolean } }) {
+export function ChangeCustomerForm({
+  customer,
+}: {
+  customer: { code: string; name: string; address: string; contact: string; active: boolean };
+}) {
   return (
-    <ActionForm action={changeCustomerAction} submitLabel="Save the change" label={`Change customer ${customer.code}`} hidden={{ code: customer.code }} keepValues>
+    <ActionForm
+      action={changeCustomerAction}
+      submitLabel="Save the change"
+      label={`Change customer ${customer.code}`}
+      hidden={{ code: customer.code }}
+      keepValues
+    >
       <Field name="name" label="Name" defaultValue={customer.name} />
       <Field name="address" label="Delivery address" type="textarea" defaultValue={customer.address} />
       <Field name="contact" label="Contact" defaultValue={customer.contact} />
-      <Field name="active" label="Still supplied (untick to stop shipments to this customer)" type="checkbox" defaultValue={customer.active ? "yes" : ""} />
+      <Field
+        name="active"
+        label="Still supplied (untick to stop shipments to this customer)"
+        type="checkbox"
+        defaultValue={customer.active ? "yes" : ""}
+      />
       <Field name="reason" label="Reason for the change" />
     </ActionForm>
   );

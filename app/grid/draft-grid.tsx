@@ -3,9 +3,20 @@
 // paste of a tab-separated block, and our own undo history (one step per edit, paste or fill).
 import { forwardRef, useCallback, useImperativeHandle, useMemo, useRef, useState } from "react";
 import { useKeptDrafts } from "@/app/grid/kept-drafts";
-import type { ClipboardEvent as ReactClipboardEvent, KeyboardEvent as ReactKeyboardEvent, MouseEvent as ReactMouseEvent } from "react";
+import type {
+  ClipboardEvent as ReactClipboardEvent,
+  KeyboardEvent as ReactKeyboardEvent,
+  MouseEvent as ReactMouseEvent,
+} from "react";
 import { AgGridReact } from "ag-grid-react";
-import type { CellEditRequestEvent, CellFocusedEvent, CellMouseOverEvent, ColDef, GridApi, GridReadyEvent } from "ag-grid-community";
+import type {
+  CellEditRequestEvent,
+  CellFocusedEvent,
+  CellMouseOverEvent,
+  ColDef,
+  GridApi,
+  GridReadyEvent,
+} from "ag-grid-community";
 import type { UnitSystem } from "@/lib/quantity/units";
 import type { GridColumn, GridRow, GridTable } from "@/lib/grid/tables";
 import { entryColumns } from "@/lib/grid/tables";
@@ -48,9 +59,20 @@ export interface DraftGridHandle {
 
 let counter = 0;
 const newRef = () => `d${Date.now().toString(36)}${(counter++).toString(36)}`;
-const uuid = () => (typeof crypto !== "undefined" && "randomUUID" in crypto ? crypto.randomUUID() : `${Date.now()}-${Math.random()}`);
+const uuid = () =>
+  typeof crypto !== "undefined" && "randomUUID" in crypto ? crypto.randomUUID() : `${Date.now()}-${Math.random()}`;
 
-export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system: UnitSystem; locale: string; onStatus: (s: string) => void; onChange: () => void; onPasted: (refs: string[]) => void }>(function DraftGrid(props, ref) {
+export const DraftGrid = forwardRef<
+  DraftGridHandle,
+  {
+    table: GridTable;
+    system: UnitSystem;
+    locale: string;
+    onStatus: (s: string) => void;
+    onChange: () => void;
+    onPasted: (refs: string[]) => void;
+  }
+>(function DraftGrid(props, ref) {
   const { table, system, locale, onStatus, onChange, onPasted } = props;
   const blank = useCallback((): DraftRow => ({ [REF]: newRef(), [ROW_KEY]: uuid(), [STATE]: "draft" }), []);
   const [rows, setRows] = useState<DraftRow[]>(() => [blank()]);
@@ -66,7 +88,10 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
 
   useKeptDrafts({ table, rows, stateField: STATE, restore: (kept) => setRows([...kept, blank()]), onStatus });
 
-  const ctx = useMemo(() => ({ style: numberStyleFor(locale), order: dateOrderFor(locale), siteOffsetMin: 0, system }), [locale, system]);
+  const ctx = useMemo(
+    () => ({ style: numberStyleFor(locale), order: dateOrderFor(locale), siteOffsetMin: 0, system }),
+    [locale, system],
+  );
   const entry = useMemo(() => new Set(entryColumns(table).map((c) => c.field)), [table]);
 
   const check = useCallback(
@@ -87,7 +112,10 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
     [table, ctx],
   );
 
-  const checks = useMemo(() => new Map(rows.map((r) => [r[REF] ?? "", r[STATE] === "saved" ? null : check(r)])), [rows, check]);
+  const checks = useMemo(
+    () => new Map(rows.map((r) => [r[REF] ?? "", r[STATE] === "saved" ? null : check(r)])),
+    [rows, check],
+  );
   const errorsOf = useCallback(
     (r: DraftRow | undefined): Record<string, string> => {
       if (!r) return {};
@@ -103,7 +131,12 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
   const withTrailingBlank = useCallback(
     (list: DraftRow[]): DraftRow[] => {
       const last = list.at(-1);
-      if (!last || last[STATE] === "saved" || table.columns.some((c) => entry.has(c.field) && (last[c.field] ?? "") !== "")) return [...list, blank()];
+      if (
+        !last ||
+        last[STATE] === "saved" ||
+        table.columns.some((c) => entry.has(c.field) && (last[c.field] ?? "") !== "")
+      )
+        return [...list, blank()];
       return list;
     },
     [blank, table, entry],
@@ -127,10 +160,18 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
         const row = byRef.get(v.rowId);
         if (!row || row[STATE] === "saved" || !entry.has(v.field)) continue;
         const raw = v.value;
-        row[v.field] = raw === null || raw === undefined ? "" : typeof raw === "string" ? raw : typeof raw === "number" || typeof raw === "boolean" ? String(raw) : JSON.stringify(raw);
+        row[v.field] =
+          raw === null || raw === undefined
+            ? ""
+            : typeof raw === "string"
+              ? raw
+              : typeof raw === "number" || typeof raw === "boolean"
+                ? String(raw)
+                : JSON.stringify(raw);
         touched.add(v.rowId);
       }
-      if (touched.size) setServerErrorsState((prev) => Object.fromEntries(Object.entries(prev).filter(([k]) => !touched.has(k))));
+      if (touched.size)
+        setServerErrorsState((prev) => Object.fromEntries(Object.entries(prev).filter(([k]) => !touched.has(k))));
       return base.map((r) => byRef.get(r[REF] ?? "") ?? r);
     },
     [entry],
@@ -148,7 +189,13 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
     (label: string, changes: CellChange[], addedRows: string[] = [], base = rowsRef.current) => {
       const real = changes.filter((c) => (c.before ?? "") !== (c.after ?? ""));
       if (real.length === 0 && addedRows.length === 0) return;
-      commit({ label, changes: real, ...(addedRows.length ? { addedRows } : {}) }, apply(real.map((c) => ({ rowId: c.rowId, field: c.field, value: c.after })), base));
+      commit(
+        { label, changes: real, ...(addedRows.length ? { addedRows } : {}) },
+        apply(
+          real.map((c) => ({ rowId: c.rowId, field: c.field, value: c.after })),
+          base,
+        ),
+      );
     },
     [apply, commit],
   );
@@ -174,14 +221,28 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
     if (r.step.addedRows?.length) {
       const have = new Set(base.map((x) => x[REF]));
       const trailing = base.at(-1);
-      const keep = trailing && !have.has(undefined) ? base.filter((x) => x !== trailing || table.columns.some((c) => entry.has(c.field) && (x[c.field] ?? "") !== "")) : base;
-      base = [...keep, ...r.step.addedRows.filter((id) => !have.has(id)).map((id) => ({ [REF]: id, [ROW_KEY]: uuid(), [STATE]: "draft" }))];
+      const keep =
+        trailing && !have.has(undefined)
+          ? base.filter(
+              (x) => x !== trailing || table.columns.some((c) => entry.has(c.field) && (x[c.field] ?? "") !== ""),
+            )
+          : base;
+      base = [
+        ...keep,
+        ...r.step.addedRows
+          .filter((id) => !have.has(id))
+          .map((id) => ({ [REF]: id, [ROW_KEY]: uuid(), [STATE]: "draft" })),
+      ];
     }
     setAll(withTrailingBlank(apply(replayValues(r.step), base)));
     onStatus(`Redone: ${r.step.label}`);
   }, [apply, setAll, withTrailingBlank, onStatus, table, entry]);
 
-  const columns = useCallback((): string[] => apiRef.current?.getAllDisplayedColumns().map((c) => c.getColId()) ?? table.columns.map((c) => c.field), [table]);
+  const columns = useCallback(
+    (): string[] =>
+      apiRef.current?.getAllDisplayedColumns().map((c) => c.getColId()) ?? table.columns.map((c) => c.field),
+    [table],
+  );
 
   const refreshSelection = () => apiRef.current?.refreshCells({ force: true });
 
@@ -202,18 +263,24 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
       e.preventDefault();
       e.stopPropagation();
     };
-    if (mod && !e.shiftKey && key.toLowerCase() === "z") return stop(), doUndo();
-    if (mod && (key.toLowerCase() === "y" || (e.shiftKey && key.toLowerCase() === "z"))) return stop(), doRedo();
+    if (mod && !e.shiftKey && key.toLowerCase() === "z") return (stop(), doUndo());
+    if (mod && (key.toLowerCase() === "y" || (e.shiftKey && key.toLowerCase() === "z"))) return (stop(), doRedo());
     const here = focused();
     if (!here) return;
     // A one-cell selection follows the focused cell (focus can move without a focus event reaching us first).
-    const stale = !setByMouse.current && cellCount(rangeOf(sel.current?.anchor ?? here, sel.current?.corner ?? here)) === 1 && (sel.current?.anchor.row !== here.row || sel.current?.anchor.col !== here.col);
+    const stale =
+      !setByMouse.current &&
+      cellCount(rangeOf(sel.current?.anchor ?? here, sel.current?.corner ?? here)) === 1 &&
+      (sel.current?.anchor.row !== here.row || sel.current?.anchor.col !== here.col);
     if (!sel.current || stale) sel.current = { anchor: here, corner: here };
     if (!(e.shiftKey && key.startsWith("Arrow"))) setByMouse.current = false;
     if (e.shiftKey && key.startsWith("Arrow")) {
       stop();
       const d = { ArrowUp: [-1, 0], ArrowDown: [1, 0], ArrowLeft: [0, -1], ArrowRight: [0, 1] }[key] ?? [0, 0];
-      sel.current = { anchor: sel.current.anchor, corner: extend(sel.current.corner, d[0] ?? 0, d[1] ?? 0, rowsRef.current.length, columns().length) };
+      sel.current = {
+        anchor: sel.current.anchor,
+        corner: extend(sel.current.corner, d[0] ?? 0, d[1] ?? 0, rowsRef.current.length, columns().length),
+      };
       refreshSelection();
       const r = selectedRange();
       if (r) onStatus(`Selected ${r.bottom - r.top + 1} × ${r.right - r.left + 1} cells`);
@@ -228,12 +295,19 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
         .map(({ pos, value }) => {
           const row = rowsRef.current[pos.row];
           const field = cols[pos.col] ?? "";
-          const c: CellChange | null = row && row[STATE] !== "saved" && entry.has(field) ? { rowId: row[REF] ?? "", field, before: row[field] ?? "", after: String(value ?? "") } : null;
+          const c: CellChange | null =
+            row && row[STATE] !== "saved" && entry.has(field)
+              ? { rowId: row[REF] ?? "", field, before: row[field] ?? "", after: String(value ?? "") }
+              : null;
           return c;
         })
         .filter((c): c is CellChange => c !== null);
       change("fill down", changes);
-      onStatus(changes.length ? `Filled down ${changes.length} cell${changes.length === 1 ? "" : "s"} (Ctrl+Z undoes)` : "Nothing to fill: select the cells below a filled cell");
+      onStatus(
+        changes.length
+          ? `Filled down ${changes.length} cell${changes.length === 1 ? "" : "s"} (Ctrl+Z undoes)`
+          : "Nothing to fill: select the cells below a filled cell",
+      );
       return;
     }
     if ((key === "Delete" || key === "Backspace") && !mod) {
@@ -245,11 +319,16 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
         const row = rowsRef.current[i];
         for (let j = r.left; j <= r.right; j++) {
           const field = cols[j] ?? "";
-          if (row && row[STATE] !== "saved" && entry.has(field) && (row[field] ?? "") !== "") changes.push({ rowId: row[REF] ?? "", field, before: row[field] ?? "", after: "" });
+          if (row && row[STATE] !== "saved" && entry.has(field) && (row[field] ?? "") !== "")
+            changes.push({ rowId: row[REF] ?? "", field, before: row[field] ?? "", after: "" });
         }
       }
       change("clear cells", changes);
-      onStatus(changes.length ? `Cleared ${changes.length} cell${changes.length === 1 ? "" : "s"}` : "Those cells cannot be cleared (computed or saved)");
+      onStatus(
+        changes.length
+          ? `Cleared ${changes.length} cell${changes.length === 1 ? "" : "s"}`
+          : "Those cells cannot be cleared (computed or saved)",
+      );
       return;
     }
     if (mod && key.toLowerCase() === "c") {
@@ -258,7 +337,13 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
       stop();
       const cols = columns();
       const lines: string[] = [];
-      for (let i = r.top; i <= r.bottom; i++) lines.push(cols.slice(r.left, r.right + 1).map((f) => rowsRef.current[i]?.[f] ?? "").join("\t"));
+      for (let i = r.top; i <= r.bottom; i++)
+        lines.push(
+          cols
+            .slice(r.left, r.right + 1)
+            .map((f) => rowsRef.current[i]?.[f] ?? "")
+            .join("\t"),
+        );
       void navigator.clipboard?.writeText(lines.join("\n"));
       onStatus(`Copied ${cellCount(r)} cells`);
     }
@@ -272,15 +357,29 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
     e.preventDefault();
     const here = focused() ?? { row: rowsRef.current.length - 1, col: 0 };
     const cols = columns();
-    const fromHere = cols.slice(Math.max(0, here.col)).map((f) => table.columns.find((c) => c.field === f)).filter((c): c is GridColumn => !!c && entry.has(c.field));
-    const sheet = readSheet(table, text, { locale, system, siteOffsetMin: 0, delimiter: "\t", columnsWithoutHeader: fromHere });
+    const fromHere = cols
+      .slice(Math.max(0, here.col))
+      .map((f) => table.columns.find((c) => c.field === f))
+      .filter((c): c is GridColumn => !!c && entry.has(c.field));
+    const sheet = readSheet(table, text, {
+      locale,
+      system,
+      siteOffsetMin: 0,
+      delimiter: "\t",
+      columnsWithoutHeader: fromHere,
+    });
     if (sheet.rows.length === 0) return onStatus(sheet.problems.join("; ") || "Nothing to paste");
     let base = rowsRef.current;
     const startRow = Math.max(0, here.row);
     const added: string[] = [];
     const targets: string[] = [];
     const trailingBlank = base.at(-1);
-    if (trailingBlank && base.length - 1 < startRow + sheet.rows.length && table.columns.every((c) => !entry.has(c.field) || (trailingBlank[c.field] ?? "") === "")) base = base.slice(0, -1);
+    if (
+      trailingBlank &&
+      base.length - 1 < startRow + sheet.rows.length &&
+      table.columns.every((c) => !entry.has(c.field) || (trailingBlank[c.field] ?? "") === "")
+    )
+      base = base.slice(0, -1);
     for (let i = 0; i < sheet.rows.length; i++) {
       let row = base[startRow + i];
       while (row && row[STATE] === "saved") {
@@ -303,13 +402,24 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
         if (!entry.has(column.field)) continue;
         const v = sr.values[column.field];
         const bad = sr.errors[column.field] !== undefined && (sr.raw[column.field] ?? "") !== "";
-        const shown = bad ? (sr.raw[column.field] ?? "") : v === null || v === undefined ? "" : showCell(column, v, system);
-        changes.push({ rowId: target[REF] ?? "", field: column.field, before: target[column.field] ?? "", after: shown });
+        const shown = bad
+          ? (sr.raw[column.field] ?? "")
+          : v === null || v === undefined
+            ? ""
+            : showCell(column, v, system);
+        changes.push({
+          rowId: target[REF] ?? "",
+          field: column.field,
+          before: target[column.field] ?? "",
+          after: shown,
+        });
       }
     });
     change(`paste of ${sheet.rows.length} row${sheet.rows.length === 1 ? "" : "s"}`, changes, added, base);
     const invalid = sheet.rows.filter((r) => Object.keys(r.errors).length > 0).length;
-    onStatus(`Pasted ${sheet.rows.length} rows${sheet.hasHeader ? " (header row used)" : ""}: ${sheet.rows.length - invalid} ready, ${invalid} with problems. Nothing is saved yet — review the marked cells, then Save. ${sheet.problems.join(" ")}`.trim());
+    onStatus(
+      `Pasted ${sheet.rows.length} rows${sheet.hasHeader ? " (header row used)" : ""}: ${sheet.rows.length - invalid} ready, ${invalid} with problems. Nothing is saved yet — review the marked cells, then Save. ${sheet.problems.join(" ")}`.trim(),
+    );
     onPasted(targets);
   };
 
@@ -322,7 +432,9 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
           return c && c.ok && !c.blank ? [{ ref: r[REF] ?? "", input: c.input }] : [];
         }),
       counts: () => {
-        let drafts = 0, ready = 0, invalid = 0;
+        let drafts = 0,
+          ready = 0,
+          invalid = 0;
         for (const r of rowsRef.current) {
           const c = checks.get(r[REF] ?? "");
           if (!c || c.blank) continue;
@@ -338,7 +450,8 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
           if (!byRef.has(r[REF] ?? "")) return r;
           const server = byRef.get(r[REF] ?? "");
           const out: DraftRow = { [REF]: r[REF] ?? "", [STATE]: "saved" };
-          for (const c of table.columns) out[c.field] = server ? showCell(c, server[c.field] ?? null, system) : (r[c.field] ?? "");
+          for (const c of table.columns)
+            out[c.field] = server ? showCell(c, server[c.field] ?? null, system) : (r[c.field] ?? "");
           return out;
         });
         setAll(withTrailingBlank(next));
@@ -358,7 +471,11 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
         colId: c.field,
         field: c.field,
         headerName: headerWithUnit(c, system),
-        headerTooltip: c.computed ? `${c.header}: computed on the server after saving` : entry.has(c.field) ? undefined : `${c.header}: read-only`,
+        headerTooltip: c.computed
+          ? `${c.header}: computed on the server after saving`
+          : entry.has(c.field)
+            ? undefined
+            : `${c.header}: read-only`,
         width: c.width ?? 130,
         editable: (p) => p.data?.[STATE] !== "saved" && entry.has(c.field),
         type: c.kind === "number" || c.kind === "integer" ? "rightAligned" : undefined,
@@ -368,7 +485,9 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
           "cell-computed": () => !entry.has(c.field),
           "cell-in-range": (p) => {
             const r = sel.current ? rangeOf(sel.current.anchor, sel.current.corner) : null;
-            return !!r && cellCount(r) > 1 && p.node.rowIndex !== null && contains(r, { row: p.node.rowIndex, col: index });
+            return (
+              !!r && cellCount(r) > 1 && p.node.rowIndex !== null && contains(r, { row: p.node.rowIndex, col: index })
+            );
           },
         },
       })),
@@ -386,7 +505,8 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
     if (!cellEl || !Number.isInteger(rowIndex) || rowEl?.classList.contains("ag-row-pinned")) return;
     const pos = { row: rowIndex, col: columns().indexOf(colId) };
     if (pos.col < 0) return;
-    sel.current = e.shiftKey && sel.current ? { anchor: sel.current.anchor, corner: pos } : { anchor: pos, corner: pos };
+    sel.current =
+      e.shiftKey && sel.current ? { anchor: sel.current.anchor, corner: pos } : { anchor: pos, corner: pos };
     setByMouse.current = true;
     dragging.current = true;
     refreshSelection();
@@ -408,7 +528,8 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
     const msg = errorsRef.current(row)[e.column.getColId()];
     const col = table.columns.find((c) => c.field === (typeof e.column === "string" ? "" : e.column?.getColId()));
     if (msg) onStatus(`Row ${e.rowIndex + 1}, ${col?.header ?? ""}: ${msg}`);
-    else if (row?.[STATE] === "saved") onStatus("This row is saved; it shows the server's record. Stored records are changed on their own page.");
+    else if (row?.[STATE] === "saved")
+      onStatus("This row is saved; it shows the server's record. Stored records are changed on their own page.");
   };
 
   return (
@@ -428,7 +549,9 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
         readOnlyEdit
         onCellEditRequest={(e: CellEditRequestEvent<DraftRow>) => {
           const field = e.colDef.field ?? "";
-          change("typed edit", [{ rowId: e.data?.[REF] ?? "", field, before: e.data?.[field] ?? "", after: String(e.newValue ?? "") }]);
+          change("typed edit", [
+            { rowId: e.data?.[REF] ?? "", field, before: e.data?.[field] ?? "", after: String(e.newValue ?? "") },
+          ]);
         }}
         onGridReady={(e: GridReadyEvent<DraftRow>) => (apiRef.current = e.api)}
         onCellFocused={onFocused}
@@ -438,7 +561,10 @@ export const DraftGrid = forwardRef<DraftGridHandle, { table: GridTable; system:
             dragging.current = false;
             return;
           }
-          sel.current = { anchor: sel.current.anchor, corner: { row: e.rowIndex, col: columns().indexOf(e.column.getColId()) } };
+          sel.current = {
+            anchor: sel.current.anchor,
+            corner: { row: e.rowIndex, col: columns().indexOf(e.column.getColId()) },
+          };
           refreshSelection();
         }}
         getRowClass={(p) => (p.data?.[STATE] === "saved" ? "row-saved" : undefined)}

@@ -23,7 +23,12 @@ export interface ImportAnswer {
   unchanged: number;
   failed: number;
   messages: string[];
-  preview: Array<{ line: number; status: "new" | "unchanged" | "error"; values: GridRow; errors: Record<string, string> }>;
+  preview: Array<{
+    line: number;
+    status: "new" | "unchanged" | "error";
+    values: GridRow;
+    errors: Record<string, string>;
+  }>;
 }
 
 async function post<T>(url: string, body: unknown, write: boolean): Promise<Answer<T>> {
@@ -35,20 +40,50 @@ async function post<T>(url: string, body: unknown, write: boolean): Promise<Answ
     });
     return (await res.json()) as Answer<T>;
   } catch {
-    return { ok: false, issues: [{ code: "NETWORK.FAILED", message: "The server could not be reached; nothing was saved and your rows are kept here" }] };
+    return {
+      ok: false,
+      issues: [
+        {
+          code: "NETWORK.FAILED",
+          message: "The server could not be reached; nothing was saved and your rows are kept here",
+        },
+      ],
+    };
   }
 }
 
-export function saveRows(body: { table: TableKey; rows: Array<{ ref: string; input: Record<string, unknown> }>; corrections: Array<{ ref: string; rowId: string; field: string; value: unknown }>; dryRun: boolean }): Promise<Answer<SaveAnswer>> {
+export function saveRows(body: {
+  table: TableKey;
+  rows: Array<{ ref: string; input: Record<string, unknown> }>;
+  corrections: Array<{ ref: string; rowId: string; field: string; value: unknown }>;
+  dryRun: boolean;
+}): Promise<Answer<SaveAnswer>> {
   return post<SaveAnswer>("/api/grid/save", body, !body.dryRun);
 }
 
-export function importFile(body: { table: TableKey; text: string; locale: string; dryRun: boolean }): Promise<Answer<ImportAnswer>> {
+export function importFile(body: {
+  table: TableKey;
+  text: string;
+  locale: string;
+  dryRun: boolean;
+}): Promise<Answer<ImportAnswer>> {
   return post<ImportAnswer>("/api/grid/import", body, !body.dryRun);
 }
 
-export async function fetchRows(table: TableKey, start: number, end: number, sort: unknown, filter: unknown): Promise<Answer<RowsAnswer>> {
-  const q = new URLSearchParams({ table, start: String(start), end: String(end), sort: JSON.stringify(sort), filter: JSON.stringify(filter) });
+export async function fetchRows(
+  table: TableKey,
+  start: number,
+  end: number,
+  sort: unknown,
+  filter: unknown,
+): Promise<Answer<RowsAnswer>> {
+  const q = new URLSearchParams({
+    table,
+    start: String(start),
+    end: String(end),
+    sort: JSON.stringify(sort),
+    filter: JSON.stringify(filter),
+  });
   try {
     const res = await fetch(`/api/grid/rows?${q.toString()}`);
     return (await res.json()) as Answer<RowsAnswer>;

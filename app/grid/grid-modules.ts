@@ -1,14 +1,47 @@
 "use client";
 // Community modules only (see DEVELOPERS.md, Grid): selection, fill-down, paste and undo are our own.
 import {
-  CellApiModule, CellStyleModule, ClientSideRowModelModule, ColumnApiModule, RenderApiModule, RowApiModule, ScrollApiModule, DateFilterModule, InfiniteRowModelModule, ModuleRegistry, NumberFilterModule, PinnedRowModule,
-  RowStyleModule, SelectEditorModule, TextEditorModule, TextFilterModule, TooltipModule, themeQuartz,
+  CellApiModule,
+  CellStyleModule,
+  ClientSideRowModelModule,
+  ColumnApiModule,
+  RenderApiModule,
+  RowApiModule,
+  ScrollApiModule,
+  DateFilterModule,
+  InfiniteRowModelModule,
+  ModuleRegistry,
+  NumberFilterModule,
+  PinnedRowModule,
+  RowStyleModule,
+  SelectEditorModule,
+  TextEditorModule,
+  TextFilterModule,
+  TooltipModule,
+  themeQuartz,
 } from "ag-grid-community";
 
 let registered = false;
 export function registerGridModules(): void {
   if (registered) return;
-  ModuleRegistry.registerModules([CellApiModule, ColumnApiModule, RenderApiModule, RowApiModule, ScrollApiModule, ClientSideRowModelModule, InfiniteRowModelModule, TextEditorModule, SelectEditorModule, TextFilterModule, NumberFilterModule, DateFilterModule, TooltipModule, PinnedRowModule, CellStyleModule, RowStyleModule]);
+  ModuleRegistry.registerModules([
+    CellApiModule,
+    ColumnApiModule,
+    RenderApiModule,
+    RowApiModule,
+    ScrollApiModule,
+    ClientSideRowModelModule,
+    InfiniteRowModelModule,
+    TextEditorModule,
+    SelectEditorModule,
+    TextFilterModule,
+    NumberFilterModule,
+    DateFilterModule,
+    TooltipModule,
+    PinnedRowModule,
+    CellStyleModule,
+    RowStyleModule,
+  ]);
   registered = true;
 }
 

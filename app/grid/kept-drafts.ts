@@ -26,19 +26,27 @@ export function useKeptDrafts(opts: {
     let kept: DraftRow[] = [];
     try {
       const raw: unknown = JSON.parse(window.localStorage.getItem(storageKey) ?? "[]");
-      if (Array.isArray(raw)) kept = raw.filter((r): r is DraftRow => typeof r === "object" && r !== null && Object.values(r as object).every((v) => typeof v === "string"));
+      if (Array.isArray(raw))
+        kept = raw.filter(
+          (r): r is DraftRow =>
+            typeof r === "object" && r !== null && Object.values(r as object).every((v) => typeof v === "string"),
+        );
     } catch {
       kept = [];
     }
     if (kept.length > 0) {
       latest.current.restore(kept.map((r) => ({ ...r, [latest.current.stateField]: "draft" })));
-      latest.current.onStatus(`Restored ${kept.length} unsaved row${kept.length === 1 ? "" : "s"} typed earlier in this browser`);
+      latest.current.onStatus(
+        `Restored ${kept.length} unsaved row${kept.length === 1 ? "" : "s"} typed earlier in this browser`,
+      );
     }
     restored.current = true;
   }, [storageKey]);
   useEffect(() => {
     if (!restored.current) return;
-    const keep = rows.filter((r) => r[stateField] === "draft" && entryColumns(table).some((c) => (r[c.field] ?? "").trim() !== ""));
+    const keep = rows.filter(
+      (r) => r[stateField] === "draft" && entryColumns(table).some((c) => (r[c.field] ?? "").trim() !== ""),
+    );
     try {
       if (keep.length > 0) window.localStorage.setItem(storageKey, JSON.stringify(keep));
       else window.localStorage.removeItem(storageKey);

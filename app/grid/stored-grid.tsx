@@ -3,7 +3,15 @@
 // within the current filter, and the few corrections the record services allow (a lot's lab decision).
 import { useCallback, useMemo, useRef, useState } from "react";
 import { AgGridReact } from "ag-grid-react";
-import type { CellEditRequestEvent, ColDef, GridApi, GridReadyEvent, IDatasource, IGetRowsParams, CellKeyDownEvent } from "ag-grid-community";
+import type {
+  CellEditRequestEvent,
+  ColDef,
+  GridApi,
+  GridReadyEvent,
+  IDatasource,
+  IGetRowsParams,
+  CellKeyDownEvent,
+} from "ag-grid-community";
 import type { UnitSystem } from "@/lib/quantity/units";
 import type { GridColumn, GridRow, GridTable } from "@/lib/grid/tables";
 import { headerWithUnit, showCell } from "@/lib/grid/cells";
@@ -25,7 +33,8 @@ export interface Correction {
   before: string;
 }
 
-const READ_ONLY_HINT = "Stored records are not edited in place: booked quantities are corrected by a reversing entry on the record's page, and records are never deleted.";
+const READ_ONLY_HINT =
+  "Stored records are not edited in place: booked quantities are corrected by a reversing entry on the record's page, and records are never deleted.";
 
 function filterFor(c: GridColumn): string | boolean {
   if (!c.db || c.kind === "boolean") return false;
@@ -47,7 +56,10 @@ export function StoredGrid(props: {
   const { table, system, onStatus, onView, onCorrection, canCorrect } = props;
   const apiRef = useRef<GridApi | null>(null);
   const [total, setTotal] = useState<GridRow | null>(null);
-  const pending = useMemo(() => new Map(props.corrections.map((c) => [`${c.rowId}|${c.field}`, c])), [props.corrections]);
+  const pending = useMemo(
+    () => new Map(props.corrections.map((c) => [`${c.rowId}|${c.field}`, c])),
+    [props.corrections],
+  );
   const pendingRef = useRef(pending);
   pendingRef.current = pending;
 
@@ -64,7 +76,12 @@ export function StoredGrid(props: {
         filterParams: c.kind === "number" || c.kind === "integer" ? { buttons: ["reset"] } : undefined,
         type: c.kind === "number" || c.kind === "integer" ? "rightAligned" : undefined,
         valueFormatter: (p) => {
-          if (p.node?.rowPinned) return p.value === null || p.value === undefined ? "" : typeof p.value === "number" ? showCell(c, p.value, system) : String(p.value);
+          if (p.node?.rowPinned)
+            return p.value === null || p.value === undefined
+              ? ""
+              : typeof p.value === "number"
+                ? showCell(c, p.value, system)
+                : String(p.value);
           const pend = p.data ? pendingRef.current.get(`${String(p.data[table.rowId])}|${c.field}`) : undefined;
           return showCell(c, pend ? pend.value : ((p.value as GridRow[string]) ?? null), system);
         },
@@ -76,7 +93,10 @@ export function StoredGrid(props: {
           "cell-pending": (p) => !!p.data && pendingRef.current.has(`${String(p.data[table.rowId])}|${c.field}`),
           "cell-correctable": (p) => canCorrect && !!c.correctable && p.data?.status === "QUARANTINED",
         },
-        tooltipValueGetter: (p) => (p.data && pendingRef.current.has(`${String(p.data[table.rowId])}|${c.field}`) ? "Changed here, not saved yet" : undefined),
+        tooltipValueGetter: (p) =>
+          p.data && pendingRef.current.has(`${String(p.data[table.rowId])}|${c.field}`)
+            ? "Changed here, not saved yet"
+            : undefined,
       })),
     [table, system, canCorrect],
   );
@@ -137,7 +157,15 @@ export function StoredGrid(props: {
       const editable = typeof e.colDef.editable === "function" ? false : e.colDef.editable;
       const col = table.columns.find((c) => c.field === e.colDef.field);
       const canEdit = canCorrect && !!col?.correctable && e.data?.status === "QUARANTINED";
-      if (!editable && !canEdit && (ev.key === "F2" || ev.key === "Enter" || ev.key === "Delete" || (ev.key.length === 1 && !ev.ctrlKey && !ev.metaKey))) onStatus(READ_ONLY_HINT);
+      if (
+        !editable &&
+        !canEdit &&
+        (ev.key === "F2" ||
+          ev.key === "Enter" ||
+          ev.key === "Delete" ||
+          (ev.key.length === 1 && !ev.ctrlKey && !ev.metaKey))
+      )
+        onStatus(READ_ONLY_HINT);
     },
     [table, canCorrect, onStatus],
   );
@@ -157,7 +185,8 @@ export function StoredGrid(props: {
         onCellEditRequest={onEdit}
         onCellDoubleClicked={(e) => {
           const col = table.columns.find((c) => c.field === e.colDef.field);
-          if (!(canCorrect && col?.correctable && e.data?.status === "QUARANTINED") && !e.node.rowPinned) onStatus(READ_ONLY_HINT);
+          if (!(canCorrect && col?.correctable && e.data?.status === "QUARANTINED") && !e.node.rowPinned)
+            onStatus(READ_ONLY_HINT);
         }}
         onCellKeyDown={onKey}
         pinnedBottomRowData={total ? [total] : []}

@@ -69,7 +69,8 @@ export default async function HistoryPage({ searchParams }: { searchParams: Prom
       <>
         <h1>Record history</h1>
         <p role="alert" className="form-error">
-          Record kind: choose one of {Object.keys(RECORD_HISTORIES).join(", ")}, and give the record&apos;s code (key). Every list row has a History link.
+          Record kind: choose one of {Object.keys(RECORD_HISTORIES).join(", ")}, and give the record&apos;s code (key).
+          Every list row has a History link.
         </p>
       </>
     );
@@ -85,7 +86,10 @@ export default async function HistoryPage({ searchParams }: { searchParams: Prom
     );
   }
   const spec = RECORD_HISTORIES[kind];
-  const [events, chain] = await Promise.all([listRecordHistory(db, site.id, spec.entities, key), loadChain(db, site.id)]);
+  const [events, chain] = await Promise.all([
+    listRecordHistory(db, site.id, spec.entities, key),
+    loadChain(db, site.id),
+  ]);
   const verified = verifyChain(chain);
   const href = recordHref(kind, key);
   const tz = site.timeZone;
@@ -95,18 +99,19 @@ export default async function HistoryPage({ searchParams }: { searchParams: Prom
         History of {spec.label.toLowerCase()} {key}
       </h1>
       <p className="lede">
-        Every change recorded for this record, oldest first, as written in the same transaction as the change. Records are never deleted; a mistake
-        is voided or corrected with a reason. {href ? <Link href={href}>Open the record</Link> : null}
+        Every change recorded for this record, oldest first, as written in the same transaction as the change. Records
+        are never deleted; a mistake is voided or corrected with a reason.{" "}
+        {href ? <Link href={href}>Open the record</Link> : null}
       </p>
       {verified.ok ? (
         <p className="status-line" role="status">
-          <span className="status status-pass">chain intact</span> The site&apos;s audit trail checks out: {verified.value.events} events, each linked to the one
-          before by its hash.
+          <span className="status status-pass">chain intact</span> The site&apos;s audit trail checks out:{" "}
+          {verified.value.events} events, each linked to the one before by its hash.
         </p>
       ) : (
         <p className="form-error" role="alert">
-          The audit trail does not check out: {verified.issues[0]?.message}. Report this to the administrator; the stored history may have been altered
-          outside the app.
+          The audit trail does not check out: {verified.issues[0]?.message}. Report this to the administrator; the
+          stored history may have been altered outside the app.
         </p>
       )}
       {events.length === 0 ? (
@@ -158,7 +163,9 @@ export default async function HistoryPage({ searchParams }: { searchParams: Prom
                         <span className="muted">no values</span>
                       ) : (
                         <details>
-                          <summary>{changes.length} field{changes.length === 1 ? "" : "s"}</summary>
+                          <summary>
+                            {changes.length} field{changes.length === 1 ? "" : "s"}
+                          </summary>
                           <table className="change-table">
                             <tbody>
                               {changes.map((c) => (
@@ -181,7 +188,9 @@ export default async function HistoryPage({ searchParams }: { searchParams: Prom
           </table>
         </div>
       )}
-      <Note>Times are the server&apos;s clock when the change was written. The hash of each event covers the one before it.</Note>
+      <Note>
+        Times are the server&apos;s clock when the change was written. The hash of each event covers the one before it.
+      </Note>
     </>
   );
 }

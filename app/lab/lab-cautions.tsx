@@ -9,6 +9,9 @@ export function LabCautions({ kind }: { kind: "titration" | "tests" }) {
           "The sodium or potassium hydroxide titrant is corrosive, more so in alcohol: eye protection and gloves.",
           "Samples of melted fat or hot oil burn: let them cool to the method's temperature before weighing.",
         ]
-      : ["Karl Fischer reagents are toxic and flammable; use them in a fume hood.", "Samples of melted fat or hot oil burn: let them cool to the method's temperature before weighing."];
+      : [
+          "Karl Fischer reagents are toxic and flammable; use them in a fume hood.",
+          "Samples of melted fat or hot oil burn: let them cool to the method's temperature before weighing.",
+        ];
   return <Cautions title="Cautions" items={items} />;
 }

@@ -34,15 +34,21 @@ export default async function LabPage() {
     <>
       <h1>Lab</h1>
       <p className="lede">
-        Lots waiting for the lab. Titrate for free fatty acids, test the water, then accept the lot for production or reject it. A lot can only be accepted once it
-        has an FFA titration.
+        Lots waiting for the lab. Titrate for free fatty acids, test the water, then accept the lot for production or
+        reject it. A lot can only be accepted once it has an FFA titration.
       </p>
       {user.role !== "PRODUCTION" ? <Note>Production staff record lab results; you can read them.</Note> : null}
       <LabCautions kind="titration" />
       {total === 0 ? (
         <Empty>No lot is waiting for the lab.</Empty>
       ) : (
-        <DataTable caption={total === 1 ? "1 lot awaiting the lab" : `${total} lots awaiting the lab`} columns={labColumns(tz, now)} rows={rows} rowKey={(l) => l.code} empty="No lot is waiting for the lab." />
+        <DataTable
+          caption={total === 1 ? "1 lot awaiting the lab" : `${total} lots awaiting the lab`}
+          columns={labColumns(tz, now)}
+          rows={rows}
+          rowKey={(l) => l.code}
+          empty="No lot is waiting for the lab."
+        />
       )}
     </>
   );

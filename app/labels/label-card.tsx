@@ -14,27 +14,58 @@ async function QrSvg({ url, label }: { url: string; label: string }) {
 
 /** GS1 DataMatrix drawn on the server by bwip-js; the element string is printed under it as text. */
 function Gs1Symbol({ elementString, withGtin, lot }: { elementString: string; withGtin: boolean; lot: string }) {
-  return <div className="label-datamatrix" role="img" aria-label={`GS1 DataMatrix carrying lot ${lot}`} data-element-string={elementString} dangerouslySetInnerHTML={{ __html: gs1DataMatrixSvg(elementString, withGtin) }} />;
+  return (
+    <div
+      className="label-datamatrix"
+      role="img"
+      aria-label={`GS1 DataMatrix carrying lot ${lot}`}
+      data-element-string={elementString}
+      dangerouslySetInnerHTML={{ __html: gs1DataMatrixSvg(elementString, withGtin) }}
+    />
+  );
 }
 
-export async function LotLabel({ lot, origin, siteName, timeZone, gs1CompanyPrefix, single = false }: { lot: LotForLabel; origin: string; siteName: string; timeZone: string; gs1CompanyPrefix: string | null; single?: boolean }) {
+export async function LotLabel({
+  lot,
+  origin,
+  siteName,
+  timeZone,
+  gs1CompanyPrefix,
+  single = false,
+}: {
+  lot: LotForLabel;
+  origin: string;
+  siteName: string;
+  timeZone: string;
+  gs1CompanyPrefix: string | null;
+  single?: boolean;
+}) {
   const url = `${origin}/lots/${encodeURIComponent(lot.code)}`;
-  const gtin = gs1CompanyPrefix !== null && isGs1CompanyPrefix(gs1CompanyPrefix) ? gtinFor(gs1CompanyPrefix, lot.material) : null;
+  const gtin =
+    gs1CompanyPrefix !== null && isGs1CompanyPrefix(gs1CompanyPrefix) ? gtinFor(gs1CompanyPrefix, lot.material) : null;
   const gs1 = gs1LabelElementString(lot.code, gtin);
   return (
     <div className={single ? "label-card single" : "label-card"} data-label={lot.code}>
       <div className="label-symbols">
         <QrSvg url={url} label={`QR code opening lot ${lot.code}`} />
-        {gs1.ok ? <Gs1Symbol elementString={gs1.value.elementString} withGtin={gs1.value.withGtin} lot={lot.code} /> : null}
+        {gs1.ok ? (
+          <Gs1Symbol elementString={gs1.value.elementString} withGtin={gs1.value.withGtin} lot={lot.code} />
+        ) : null}
       </div>
       <div className="label-text">
         <div className="label-code">Lot {lot.code}</div>
-        {gs1.ok ? <div className="label-gs1">{gs1.value.elementString.split(/(?=\()/).map((part, i) => (
-          <span key={i}>
-            {i > 0 ? <wbr /> : null}
-            {part}
-          </span>
-        ))}</div> : <div className="label-gs1">no GS1 barcode: {gs1.issues[0]?.message}</div>}
+        {gs1.ok ? (
+          <div className="label-gs1">
+            {gs1.value.elementString.split(/(?=\()/).map((part, i) => (
+              <span key={i}>
+                {i > 0 ? <wbr /> : null}
+                {part}
+              </span>
+            ))}
+          </div>
+        ) : (
+          <div className="label-gs1">no GS1 barcode: {gs1.issues[0]?.message}</div>
+        )}
         <div>
           {labelOf(lot.material)} · {kg(lot.massG, 0)}
         </div>
@@ -48,7 +79,17 @@ export async function LotLabel({ lot, origin, siteName, timeZone, gs1CompanyPref
   );
 }
 
-export async function ContainerLabel({ tag, origin, siteName, single = false }: { tag: string; origin: string; siteName: string; single?: boolean }) {
+export async function ContainerLabel({
+  tag,
+  origin,
+  siteName,
+  single = false,
+}: {
+  tag: string;
+  origin: string;
+  siteName: string;
+  single?: boolean;
+}) {
   const url = `${origin}/labels/container/${encodeURIComponent(tag)}`;
   return (
     <div className={single ? "label-card single" : "label-card"} data-label={tag}>

@@ -24,16 +24,23 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
   const kind = one(q.kind);
   const origin = await requestOrigin();
   const recent = await listRecentLotCodes(db, site.id, 40);
-  const lotCodes = many(q.lot).map((c) => c.trim().toUpperCase()).filter(Boolean).slice(0, MAX_LABELS_PER_SHEET);
+  const lotCodes = many(q.lot)
+    .map((c) => c.trim().toUpperCase())
+    .filter(Boolean)
+    .slice(0, MAX_LABELS_PER_SHEET);
   const lots = kind === "lot" && lotCodes.length ? await listLotsForLabels(db, site.id, lotCodes) : [];
   const missing = lotCodes.filter((c) => !lots.some((l) => l.code === c));
-  const range = kind === "container" ? containerRange(one(q.prefix) || "C-", Number(one(q.from) || "1"), Number(one(q.to) || "1")) : null;
+  const range =
+    kind === "container"
+      ? containerRange(one(q.prefix) || "C-", Number(one(q.from) || "1"), Number(one(q.to) || "1"))
+      : null;
 
   return (
     <>
       <h1>Labels</h1>
       <p className="lede">
-        Printable labels for lots and used-oil containers. The QR code opens the record; lot labels also carry the lot number as a GS1 element string with application identifier (10). To read a label,{" "}
+        Printable labels for lots and used-oil containers. The QR code opens the record; lot labels also carry the lot
+        number as a GS1 element string with application identifier (10). To read a label,{" "}
         <Link href="/labels/scan">scan it or type its number</Link>.
       </p>
       <div className="labels-controls">
@@ -43,7 +50,10 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
             <legend>Lot labels: choose lots</legend>
             {recent.map((l) => (
               <label key={l.code} className="nowrap" style={{ display: "inline-block", marginRight: "1rem" }}>
-                <input type="checkbox" name="lot" value={l.code} defaultChecked={lotCodes.includes(l.code)} /> {l.code} <span className="muted">({labelOf(l.material)}, {day(l.receivedAt, site.timeZone)})</span>
+                <input type="checkbox" name="lot" value={l.code} defaultChecked={lotCodes.includes(l.code)} /> {l.code}{" "}
+                <span className="muted">
+                  ({labelOf(l.material)}, {day(l.receivedAt, site.timeZone)})
+                </span>
               </label>
             ))}
           </fieldset>
@@ -80,7 +90,14 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
       {kind === "lot" && lots.length ? (
         <section className="label-sheet" aria-label="Lot labels">
           {lots.map((l) => (
-            <LotLabel key={l.code} lot={l} origin={origin} siteName={site.name} timeZone={site.timeZone} gs1CompanyPrefix={site.gs1CompanyPrefix} />
+            <LotLabel
+              key={l.code}
+              lot={l}
+              origin={origin}
+              siteName={site.name}
+              timeZone={site.timeZone}
+              gs1CompanyPrefix={site.gs1CompanyPrefix}
+            />
           ))}
         </section>
       ) : null}

@@ -38,8 +38,20 @@ function movementColumns(tz: string, canCorrect: boolean): Column<MovementRow>[]
     },
   ];
   if (!canCorrect) return columns;
-  const reversible = (m: MovementRow) => m.role === "TRANSFER" && m.from !== null && m.to.kind === "TANK" && m.reversesId === null && m.reversedById === null;
-  return [...columns, { key: "correct", header: "Correct", cell: (m) => (reversible(m) ? <ReverseMovementForm movementId={m.id} /> : null) }];
+  const reversible = (m: MovementRow) =>
+    m.role === "TRANSFER" &&
+    m.from !== null &&
+    m.to.kind === "TANK" &&
+    m.reversesId === null &&
+    m.reversedById === null;
+  return [
+    ...columns,
+    {
+      key: "correct",
+      header: "Correct",
+      cell: (m) => (reversible(m) ? <ReverseMovementForm movementId={m.id} /> : null),
+    },
+  ];
 }
 
 export default async function LedgerPage({ searchParams }: { searchParams: Promise<{ page?: string | string[] }> }) {
@@ -52,15 +64,28 @@ export default async function LedgerPage({ searchParams }: { searchParams: Promi
   return (
     <>
       <h1>Ledger</h1>
-      <p className="lede">Every movement of material between places, newest first, in grams. Rows are never changed or deleted; a mistake is corrected by a reversing movement.</p>
+      <p className="lede">
+        Every movement of material between places, newest first, in grams. Rows are never changed or deleted; a mistake
+        is corrected by a reversing movement.
+      </p>
       {total === 0 ? (
         <Empty>No movements recorded yet.</Empty>
       ) : (
         <>
           <Pager basePath="/ledger" page={page} total={total} pageSize={PAGE_SIZE} />
-          <DataTable caption="Movements" hideCaption columns={movementColumns(tz, canCorrect)} rows={rows} rowKey={(m) => m.id} empty="No movements recorded yet." />
+          <DataTable
+            caption="Movements"
+            hideCaption
+            columns={movementColumns(tz, canCorrect)}
+            rows={rows}
+            rowKey={(m) => m.id}
+            empty="No movements recorded yet."
+          />
           <Pager basePath="/ledger" page={page} total={total} pageSize={PAGE_SIZE} />
-          <Note>&ldquo;Outside the books&rdquo; marks material entering the books: a pickup, a delivery, a reagent received, or a receiving difference.</Note>
+          <Note>
+            &ldquo;Outside the books&rdquo; marks material entering the books: a pickup, a delivery, a reagent received,
+            or a receiving difference.
+          </Note>
         </>
       )}
     </>

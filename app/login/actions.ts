@@ -23,7 +23,11 @@ export async function signInAction(_prev: SignInState, form: FormData): Promise<
   const login = typeof typedLogin === "string" ? typedLogin : "";
   const h = await headers();
   const ip = (h.get("x-forwarded-for") ?? "").split(",")[0]?.trim() || "local";
-  const result = await signIn(await getDb(), { login, password: typeof typedPassword === "string" ? typedPassword : "" }, { ip, now: new Date() });
+  const result = await signIn(
+    await getDb(),
+    { login, password: typeof typedPassword === "string" ? typedPassword : "" },
+    { ip, now: new Date() },
+  );
   if (!result.ok) {
     const issue = result.issues[0];
     return { login, message: issue?.message ?? "Sign-in failed", field: issue?.field ?? null };

@@ -13,7 +13,10 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
   return (
     <>
       <h1>Sign in to Tracevat</h1>
-      <p className="lede">Each person signs in with their own account; every record you enter carries your name and the server&apos;s time.</p>
+      <p className="lede">
+        Each person signs in with their own account; every record you enter carries your name and the server&apos;s
+        time.
+      </p>
       <SignInForm next={next} />
     </>
   );

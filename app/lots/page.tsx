@@ -28,7 +28,12 @@ const LOT_COLUMNS = (tz: string): Column<LotListRow>[] => [
   },
   { key: "received", header: "Received", cell: (l) => <span className="nowrap">{when(l.receivedAt, tz)}</span> },
   { key: "material", header: "Material", cell: (l) => labelOf(l.material) },
-  { key: "from", header: "From", cell: (l) => (l.origin === "DELIVERY" ? (l.supplier ?? "Delivery") : `${l.pickups} pickup${l.pickups === 1 ? "" : "s"}`) },
+  {
+    key: "from",
+    header: "From",
+    cell: (l) =>
+      l.origin === "DELIVERY" ? (l.supplier ?? "Delivery") : `${l.pickups} pickup${l.pickups === 1 ? "" : "s"}`,
+  },
   { key: "status", header: "Status", cell: (l) => <Status code={l.status} /> },
   { key: "ffa", header: "FFA", numeric: true, cell: (l) => ffa(l.ffaPct, l.ffaBasis) },
   { key: "water", header: "Water", numeric: true, cell: (l) => pct(l.waterPct) },
@@ -46,15 +51,28 @@ export default async function LotsPage({ searchParams }: Props) {
   const page = pageParam(sp.page);
   const rawStatus = Array.isArray(sp.status) ? sp.status[0] : sp.status;
   const status = LOT_STATUSES.find((s) => s === rawStatus);
-  const { rows, total } = await listLots(db, site.id, { skip: (page - 1) * PAGE_SIZE, take: PAGE_SIZE, ...(status ? { status } : {}) });
+  const { rows, total } = await listLots(db, site.id, {
+    skip: (page - 1) * PAGE_SIZE,
+    take: PAGE_SIZE,
+    ...(status ? { status } : {}),
+  });
   const tz = site.timeZone;
   const query: Record<string, string> = status ? { status } : {};
   return (
     <>
       <h1>Feedstock lots</h1>
-      <p className="lede">Oil as received at the plant, from pooled pickups or a supplier&apos;s delivery. A lot waits for the lab until its FFA is titrated and it is accepted or rejected.</p>
+      <p className="lede">
+        Oil as received at the plant, from pooled pickups or a supplier&apos;s delivery. A lot waits for the lab until
+        its FFA is titrated and it is accepted or rejected.
+      </p>
       <nav className="pager" aria-label="Filter by status">
-        {status ? <Link href="/lots">All</Link> : <span className="pager-current" aria-current="page">All</span>}
+        {status ? (
+          <Link href="/lots">All</Link>
+        ) : (
+          <span className="pager-current" aria-current="page">
+            All
+          </span>
+        )}
         {LOT_STATUSES.map((s) =>
           s === status ? (
             <span key={s} className="pager-current" aria-current="page">
@@ -71,9 +89,19 @@ export default async function LotsPage({ searchParams }: Props) {
         <Empty>{status ? `No lots are “${labelOf(status).toLowerCase()}”.` : "No lots recorded yet."}</Empty>
       ) : (
         <>
-          <DataTable caption="Feedstock lots" hideCaption columns={LOT_COLUMNS(tz)} rows={rows} rowKey={(l) => l.code} empty="No lots recorded yet." />
+          <DataTable
+            caption="Feedstock lots"
+            hideCaption
+            columns={LOT_COLUMNS(tz)}
+            rows={rows}
+            rowKey={(l) => l.code}
+            empty="No lots recorded yet."
+          />
           <Pager basePath="/lots" page={page} total={total} pageSize={PAGE_SIZE} query={query} />
-          <Note>FFA is the mean of the lot&apos;s titrations that are not voided, each converted through its acid value when they name different fatty acids; water is the latest water test.</Note>
+          <Note>
+            FFA is the mean of the lot&apos;s titrations that are not voided, each converted through its acid value when
+            they name different fatty acids; water is the latest water test.
+          </Note>
         </>
       )}
       <ReceiptsPicture db={db} siteId={site.id} timeZone={tz} now={user.now} />

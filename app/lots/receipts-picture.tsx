@@ -18,17 +18,34 @@ function materialLabel(material: string): string {
 }
 
 function shortDay(weekOf: string): string {
-  return new Date(`${weekOf}T00:00:00Z`).toLocaleDateString("en-GB", { day: "numeric", month: "short", timeZone: "UTC" });
+  return new Date(`${weekOf}T00:00:00Z`).toLocaleDateString("en-GB", {
+    day: "numeric",
+    month: "short",
+    timeZone: "UTC",
+  });
 }
 
 /** Feedstock received per week over the last twelve weeks, stacked by material kind. */
-export async function ReceiptsPicture({ db, siteId, timeZone, now }: { db: Db; siteId: number; timeZone: string; now: Date }) {
+export async function ReceiptsPicture({
+  db,
+  siteId,
+  timeZone,
+  now,
+}: {
+  db: Db;
+  siteId: number;
+  timeZone: string;
+  now: Date;
+}) {
   const id = "receipts-per-week";
   const title = `Feedstock received per week, last ${RECEIPT_WEEKS} weeks`;
   const offset = getUtcOffsetMin(timeZone, now);
   const thisWeek = weekStartMs(now.getTime(), offset);
   const range = { startMs: thisWeek - (RECEIPT_WEEKS - 1) * WEEK_MS, endMs: thisWeek + WEEK_MS };
-  const receipts = await listFeedstockReceipts(db, siteId, { from: new Date(range.startMs), to: new Date(range.endMs) });
+  const receipts = await listFeedstockReceipts(db, siteId, {
+    from: new Date(range.startMs),
+    to: new Date(range.endMs),
+  });
   const s = computeReceiptsSeries(receipts, range, offset);
   if (s.totalG === 0) {
     return (
@@ -43,7 +60,13 @@ export async function ReceiptsPicture({ db, siteId, timeZone, now }: { db: Db; s
       grid: { left: 78, right: 16, top: 56, bottom: 36 },
       xAxis: { type: "category", data: s.weeks.map((w) => shortDay(w.weekOf)) },
       yAxis: { type: "value", name: "kg", axisLabel: { formatter: (v: number) => v.toLocaleString("en-GB") } },
-      series: s.materials.map((m) => ({ name: materialLabel(m), type: "bar", stack: "received", barMaxWidth: 40, data: s.weeks.map((w) => (w.byMaterial[m] ?? 0) / 1000) })),
+      series: s.materials.map((m) => ({
+        name: materialLabel(m),
+        type: "bar",
+        stack: "received",
+        barMaxWidth: 40,
+        data: s.weeks.map((w) => (w.byMaterial[m] ?? 0) / 1000),
+      })),
     },
     { height: 320 },
   );
@@ -55,8 +78,22 @@ export async function ReceiptsPicture({ db, siteId, timeZone, now }: { db: Db; s
     (busiest ? `; the most in the week of ${busiest.weekOf}, ${kg(busiest.totalG, 0)}.` : ".");
   const columns: Array<Column<ReceiptWeek>> = [
     { key: "week", header: "Week of", cell: (w) => w.weekOf, total: "Total" },
-    ...s.materials.map((m): Column<ReceiptWeek> => ({ key: m, header: materialLabel(m), unit: "kg", numeric: true, cell: (w) => num((w.byMaterial[m] ?? 0) / 1000, 3), total: num((s.totalsByMaterial[m] ?? 0) / 1000, 3) })),
-    { key: "total", header: "All kinds", unit: "kg", numeric: true, cell: (w) => num(w.totalG / 1000, 3), total: num(s.totalG / 1000, 3) },
+    ...s.materials.map((m): Column<ReceiptWeek> => ({
+      key: m,
+      header: materialLabel(m),
+      unit: "kg",
+      numeric: true,
+      cell: (w) => num((w.byMaterial[m] ?? 0) / 1000, 3),
+      total: num((s.totalsByMaterial[m] ?? 0) / 1000, 3),
+    })),
+    {
+      key: "total",
+      header: "All kinds",
+      unit: "kg",
+      numeric: true,
+      cell: (w) => num(w.totalG / 1000, 3),
+      total: num(s.totalG / 1000, 3),
+    },
   ];
   return (
     <Picture
@@ -66,8 +103,17 @@ export async function ReceiptsPicture({ db, siteId, timeZone, now }: { db: Db; s
       svg={svg}
       numbers={
         <>
-          <DataTable caption="Feedstock received per week, by material" rows={s.weeks} rowKey={(w) => w.weekOf} empty="Nothing received." columns={columns} />
-          <p className="muted">Pickups count when collected, deliveries when received, and a lot measured above its pickups&apos; estimates adds the difference; weeks start on Monday, site time.</p>
+          <DataTable
+            caption="Feedstock received per week, by material"
+            rows={s.weeks}
+            rowKey={(w) => w.weekOf}
+            empty="Nothing received."
+            columns={columns}
+          />
+          <p className="muted">
+            Pickups count when collected, deliveries when received, and a lot measured above its pickups&apos; estimates
+            adds the difference; weeks start on Monday, site time.
+          </p>
         </>
       }
     />

@@ -13,10 +13,20 @@ export async function setOwnUnitsAction(prev: FormState, form: FormData): Promis
   const values = readValues(form, ["unitSystem"]);
   const who = await requireRole(SITE_ROLES);
   if (!who.ok) return refused(prev, values, who.issues, ["unitSystem"]);
-  const r = await setOwnUnits(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, values);
+  const r = await setOwnUnits(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    values,
+  );
   if (!r.ok) return refused(prev, values, r.issues, ["unitSystem"]);
   revalidatePath("/", "layout");
-  return { status: "saved", message: r.value.unitSystem === "us" ? "Saved: US units (lb, gal, °F)." : "Saved: metric units (kg, L, °C).", values: {}, errors: {}, seq: prev.seq + 1 };
+  return {
+    status: "saved",
+    message: r.value.unitSystem === "us" ? "Saved: US units (lb, gal, °F)." : "Saved: metric units (kg, L, °C).",
+    values: {},
+    errors: {},
+    seq: prev.seq + 1,
+  };
 }
 
 /**
@@ -27,7 +37,11 @@ export async function setOwnUnitsAction(prev: FormState, form: FormData): Promis
 export async function changeOwnPasswordAction(prev: FormState, form: FormData): Promise<FormState> {
   const user = await getSignedIn();
   if (!user) return refused(prev, {}, [{ code: "AUTH.UNAUTHENTICATED", message: "Sign in first" }], []);
-  const r = await changeOwnPassword(await getDb(), { siteId: user.siteId, userId: user.userId, now: user.now }, { current: readText(form, "current"), password: readText(form, "password"), confirm: readText(form, "confirm") });
+  const r = await changeOwnPassword(
+    await getDb(),
+    { siteId: user.siteId, userId: user.userId, now: user.now },
+    { current: readText(form, "current"), password: readText(form, "password"), confirm: readText(form, "confirm") },
+  );
   if (!r.ok) return refused(prev, {}, r.issues, ["current", "password", "confirm"]);
   if (user.mustChangePassword) redirect(homeFor(user.role));
   return { status: "saved", message: "Your new password is saved.", values: {}, errors: {}, seq: prev.seq + 1 };

@@ -15,8 +15,9 @@ export default async function MePage() {
     <>
       <h1>Your settings</h1>
       <p className="lede">
-        Signed in as {user.fullName} ({user.login}), {labelOf(user.role)}. Stored figures are always kept in kilograms, litres and °C; your choice
-        changes only how they are shown and typed. <HistoryLink kind="user" recordKey={user.login} label="account" />
+        Signed in as {user.fullName} ({user.login}), {labelOf(user.role)}. Stored figures are always kept in kilograms,
+        litres and °C; your choice changes only how they are shown and typed.{" "}
+        <HistoryLink kind="user" recordKey={user.login} label="account" />
       </p>
       <UnitsForm current={user.unitSystem} />
       <p>

@@ -11,7 +11,8 @@ export function UnitsForm({ current }: { current: string }) {
       <fieldset>
         <legend>Units for display and entry</legend>
         <label>
-          <input type="radio" name="unitSystem" value="metric" defaultChecked={current !== "us"} /> Metric — kg, litres, °C
+          <input type="radio" name="unitSystem" value="metric" defaultChecked={current !== "us"} /> Metric — kg, litres,
+          °C
         </label>
         <label>
           <input type="radio" name="unitSystem" value="us" defaultChecked={current === "us"} /> US — lb, US gallons, °F
@@ -21,7 +22,10 @@ export function UnitsForm({ current }: { current: string }) {
         Save
       </button>
       {state.message ? (
-        <p className={state.status === "saved" ? "form-ok" : "form-error"} role={state.status === "saved" ? "status" : "alert"}>
+        <p
+          className={state.status === "saved" ? "form-ok" : "form-error"}
+          role={state.status === "saved" ? "status" : "alert"}
+        >
           {state.message}
         </p>
       ) : null}

@@ -27,13 +27,50 @@ function periodColumns(tz: string, now: Date, canClose: boolean): Column<PeriodR
         </span>
       ),
     },
-    { key: "to", header: "To (last day)", cell: (p) => <span className="nowrap">{day(new Date(p.endsAt.getTime() - 1), tz)}</span> },
-    { key: "status", header: "Status", cell: (p) => (p.status === "OPEN" ? <StatusMark code="OPEN_PERIOD" label="Open" /> : <StatusMark code="CLOSED" label="Closed" />) },
-    { key: "last", header: "Last change", cell: (p) => <span className="nowrap">{p.lastEvent ? `${p.lastEvent.action === "REOPEN" ? "Reopened" : "Closed"} ${when(p.lastEvent.at, tz)}` : "—"}</span> },
+    {
+      key: "to",
+      header: "To (last day)",
+      cell: (p) => <span className="nowrap">{day(new Date(p.endsAt.getTime() - 1), tz)}</span>,
+    },
+    {
+      key: "status",
+      header: "Status",
+      cell: (p) =>
+        p.status === "OPEN" ? (
+          <StatusMark code="OPEN_PERIOD" label="Open" />
+        ) : (
+          <StatusMark code="CLOSED" label="Closed" />
+        ),
+    },
+    {
+      key: "last",
+      header: "Last change",
+      cell: (p) => (
+        <span className="nowrap">
+          {p.lastEvent ? `${p.lastEvent.action === "REOPEN" ? "Reopened" : "Closed"} ${when(p.lastEvent.at, tz)}` : "—"}
+        </span>
+      ),
+    },
     { key: "by", header: "By", cell: (p) => p.lastEvent?.by ?? "—" },
     { key: "movements", header: "Movements", numeric: true, cell: (p) => p.movements },
-    { key: "balance", header: "Balance", cell: (p) => <a href={`/balance?${new URLSearchParams({ period: "CUSTOM", start: day(p.startsAt, tz), end: day(p.endsAt, tz) }).toString()}`}>balance</a> },
-    { key: "history", header: "History", cell: (p) => <HistoryLink kind="period" recordKey={String(p.id)} label={`accounting period ${month(p)}, record`} /> },
+    {
+      key: "balance",
+      header: "Balance",
+      cell: (p) => (
+        <a
+          href={`/balance?${new URLSearchParams({ period: "CUSTOM", start: day(p.startsAt, tz), end: day(p.endsAt, tz) }).toString()}`}
+        >
+          balance
+        </a>
+      ),
+    },
+    {
+      key: "history",
+      header: "History",
+      cell: (p) => (
+        <HistoryLink kind="period" recordKey={String(p.id)} label={`accounting period ${month(p)}, record`} />
+      ),
+    },
   ];
   if (!canClose) return columns;
   return [
@@ -71,15 +108,34 @@ export default async function PeriodsPage() {
   return (
     <>
       <h1>Accounting periods</h1>
-      <p className="lede">The periods the books are balanced and closed by. Once a period is closed, no movement dated inside it can be booked until a compliance user reopens it.</p>
+      <p className="lede">
+        The periods the books are balanced and closed by. Once a period is closed, no movement dated inside it can be
+        booked until a compliance user reopens it.
+      </p>
       {periods.length === 0 ? (
         <Empty>No accounting periods recorded yet.</Empty>
       ) : (
         <>
-          <DataTable caption="Accounting periods" hideCaption columns={periodColumns(tz, now, canClose)} rows={periods} rowKey={(p) => p.id} empty="No accounting periods recorded yet." />
-          <Note>A period runs from the start of its first day up to, not including, the start of the day after its last day.</Note>
+          <DataTable
+            caption="Accounting periods"
+            hideCaption
+            columns={periodColumns(tz, now, canClose)}
+            rows={periods}
+            rowKey={(p) => p.id}
+            empty="No accounting periods recorded yet."
+          />
+          <Note>
+            A period runs from the start of its first day up to, not including, the start of the day after its last day.
+          </Note>
           <h2>Closes and reopens</h2>
-          <DataTable caption="Closes and reopens" hideCaption columns={eventColumns(tz)} rows={events} rowKey={(e) => e.id} empty="No period has been closed or reopened yet." />
+          <DataTable
+            caption="Closes and reopens"
+            hideCaption
+            columns={eventColumns(tz)}
+            rows={events}
+            rowKey={(e) => e.id}
+            empty="No period has been closed or reopened yet."
+          />
         </>
       )}
     </>

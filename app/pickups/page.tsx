@@ -16,14 +16,18 @@ export default async function PickupsPage({ searchParams }: { searchParams: Prom
   const page = pageParam((await searchParams).page);
   // A collector sees their own entries; everyone else the whole site.
   const own = user.role === "COLLECTOR";
-  const { rows, total } = await listPickups(db, site.id, { skip: (page - 1) * PAGE_SIZE, take: PAGE_SIZE, ...(own ? { collectorId: user.userId } : {}) });
+  const { rows, total } = await listPickups(db, site.id, {
+    skip: (page - 1) * PAGE_SIZE,
+    take: PAGE_SIZE,
+    ...(own ? { collectorId: user.userId } : {}),
+  });
   const tz = site.timeZone;
   return (
     <>
       <h1>Pickups</h1>
       <p className="lede">
-        {own ? "Your pickups" : "Each collection of oil at a source"} as the collector observed it, newest first. Masses are estimated from volume and temperature until the
-        lot is measured at the plant.
+        {own ? "Your pickups" : "Each collection of oil at a source"} as the collector observed it, newest first. Masses
+        are estimated from volume and temperature until the lot is measured at the plant.
       </p>
       {total === 0 ? (
         <Empty>No pickups recorded yet.</Empty>
@@ -61,20 +65,39 @@ export default async function PickupsPage({ searchParams }: { searchParams: Prom
                     <td data-label="Pickup" className="card-title">
                       <CodeLink href={`/pickups/${encodeURIComponent(p.code)}`} code={p.code} />
                     </td>
-                    <td data-label="Observed" className="nowrap">{when(p.observedAt, tz)}</td>
+                    <td data-label="Observed" className="nowrap">
+                      {when(p.observedAt, tz)}
+                    </td>
                     <td data-label="Source">
-                      <Link href={`/sources/${encodeURIComponent(p.sourceCode)}`} aria-label={`Source ${p.sourceCode} ${p.sourceName}`}>
+                      <Link
+                        href={`/sources/${encodeURIComponent(p.sourceCode)}`}
+                        aria-label={`Source ${p.sourceCode} ${p.sourceName}`}
+                      >
                         {p.sourceCode}
                       </Link>{" "}
                       <span className="muted">{p.sourceName}</span>
                     </td>
                     <td data-label="Collector">{p.collector}</td>
                     <td data-label="Material">{labelOf(p.material)}</td>
-                    <td data-label="Containers" className="num">{p.containers}</td>
-                    <td data-label="Volume" className="num">{litres(p.volumeMl)}</td>
-                    <td data-label="Temp." className="num">{num(p.tempC, 1)} °C</td>
-                    <td data-label="Mass" className="num">{kg(p.massG)}</td>
-                    <td data-label="Lot">{p.lotCode ? <CodeLink href={`/lots/${encodeURIComponent(p.lotCode)}`} code={p.lotCode} /> : <span className="muted">not yet</span>}</td>
+                    <td data-label="Containers" className="num">
+                      {p.containers}
+                    </td>
+                    <td data-label="Volume" className="num">
+                      {litres(p.volumeMl)}
+                    </td>
+                    <td data-label="Temp." className="num">
+                      {num(p.tempC, 1)} °C
+                    </td>
+                    <td data-label="Mass" className="num">
+                      {kg(p.massG)}
+                    </td>
+                    <td data-label="Lot">
+                      {p.lotCode ? (
+                        <CodeLink href={`/lots/${encodeURIComponent(p.lotCode)}`} code={p.lotCode} />
+                      ) : (
+                        <span className="muted">not yet</span>
+                      )}
+                    </td>
                     <td data-label="History">
                       <HistoryLink kind="pickup" recordKey={p.code} label="pickup" />
                     </td>

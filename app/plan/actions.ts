@@ -14,7 +14,11 @@ export async function recordPlanAction(prev: FormState, form: FormData): Promise
   const who = await requireRole(["PRODUCTION"]);
   if (!who.ok) return refused(prev, values, who.issues, ["code", "notes"]);
   const request = { ...planRequestFromParams(paramsFromQueryString(query)), code: values.code, notes: values.notes };
-  const result = await recordPlannedBatch(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, request);
+  const result = await recordPlannedBatch(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    request,
+  );
   if (!result.ok) return refused(prev, values, result.issues, ["code", "notes"]);
   revalidatePath("/batches");
   redirect(`/batches/${encodeURIComponent(result.value.code)}`);

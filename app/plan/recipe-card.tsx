@@ -35,7 +35,15 @@ const ROUTE_LABEL: Record<string, string> = {
 };
 
 /** The recipe card: what to draw, what to add at each step, what to expect, and the cautions at each step. */
-export function RecipeCardView({ card, heading = "Recipe card", printedAt }: { card: RecipeCard; heading?: string; printedAt?: string }) {
+export function RecipeCardView({
+  card,
+  heading = "Recipe card",
+  printedAt,
+}: {
+  card: RecipeCard;
+  heading?: string;
+  printedAt?: string;
+}) {
   const base = card.baseStep;
   const acid = card.acidStep;
   const methoxide = base.catalyst.assayKind === "SOLUTION_STRENGTH";
@@ -47,7 +55,8 @@ export function RecipeCardView({ card, heading = "Recipe card", printedAt }: { c
           {card.code ? ` — batch ${card.code}` : ""}
         </h2>
         <p>
-          {kgText(card.blend.massG / 1000, 1)} oil · {ROUTE_LABEL[card.route.route] ?? card.route.route} · {labelOf(base.catalyst.type)} · {formatFixed(base.molarRatio, 1)} : 1 methanol ·{" "}
+          {kgText(card.blend.massG / 1000, 1)} oil · {ROUTE_LABEL[card.route.route] ?? card.route.route} ·{" "}
+          {labelOf(base.catalyst.type)} · {formatFixed(base.molarRatio, 1)} : 1 methanol ·{" "}
           {formatFixed(base.reactionTempC, 1)} °C{printedAt ? ` · printed ${printedAt}` : ""}
         </p>
       </header>
@@ -63,10 +72,18 @@ export function RecipeCardView({ card, heading = "Recipe card", printedAt }: { c
           <thead>
             <tr>
               <th scope="col">From</th>
-              <th scope="col" className="num">Mass</th>
-              <th scope="col" className="num">FFA as oleic</th>
-              <th scope="col" className="num">Water</th>
-              <th scope="col" className="tick">Drawn</th>
+              <th scope="col" className="num">
+                Mass
+              </th>
+              <th scope="col" className="num">
+                FFA as oleic
+              </th>
+              <th scope="col" className="num">
+                Water
+              </th>
+              <th scope="col" className="tick">
+                Drawn
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -90,7 +107,8 @@ export function RecipeCardView({ card, heading = "Recipe card", printedAt }: { c
                 {pctText(card.blend.ffaPct)} <span className="muted">(limit {pctText(card.blend.maxFfaPct)})</span>
               </td>
               <td className="num">
-                {pctText(card.blend.waterPct, 3)} <span className="muted">(limit {pctText(card.blend.maxWaterPct, 3)})</span>
+                {pctText(card.blend.waterPct, 3)}{" "}
+                <span className="muted">(limit {pctText(card.blend.maxWaterPct, 3)})</span>
               </td>
               <td />
             </tr>
@@ -106,13 +124,15 @@ export function RecipeCardView({ card, heading = "Recipe card", printedAt }: { c
             <div>
               <dt>Methanol</dt>
               <dd>
-                {kgText(acid.methanolKg)} ({formatFixed(acid.methanolL20C, 1)} L at 20 °C) — {formatFixed(acid.methanolToFfaMolarRatio, 0)} : 1 on the FFA
+                {kgText(acid.methanolKg)} ({formatFixed(acid.methanolL20C, 1)} L at 20 °C) —{" "}
+                {formatFixed(acid.methanolToFfaMolarRatio, 0)} : 1 on the FFA
               </dd>
             </div>
             <div>
               <dt>Sulfuric acid</dt>
               <dd>
-                {kgText(acid.acidProductKg, 3)} of {formatFixed(acid.acidPurityPct, 1)} % acid ({kgText(acid.acidPureKg, 3)} as H₂SO₄, {formatFixed(acid.acidPctOfFfa, 1)} % of the FFA)
+                {kgText(acid.acidProductKg, 3)} of {formatFixed(acid.acidPurityPct, 1)} % acid (
+                {kgText(acid.acidPureKg, 3)} as H₂SO₄, {formatFixed(acid.acidPctOfFfa, 1)} % of the FFA)
               </dd>
             </div>
             <div>
@@ -122,8 +142,9 @@ export function RecipeCardView({ card, heading = "Recipe card", printedAt }: { c
             <div>
               <dt>Then</dt>
               <dd>
-                settle and draw off the alcohol/water phase (≈ {kgText(acid.alcoholPhaseKg, 1)}); the oil phase (≈ {kgText(acid.oilPhaseKg, 1)}) should test below{" "}
-                {pctText(acid.residualFfaPct, 1)} FFA before the base step — titrate it.
+                settle and draw off the alcohol/water phase (≈ {kgText(acid.alcoholPhaseKg, 1)}); the oil phase (≈{" "}
+                {kgText(acid.oilPhaseKg, 1)}) should test below {pctText(acid.residualFfaPct, 1)} FFA before the base
+                step — titrate it.
               </dd>
             </div>
           </dl>
@@ -149,22 +170,28 @@ export function RecipeCardView({ card, heading = "Recipe card", printedAt }: { c
           <div>
             <dt>Methanol in the reactor</dt>
             <dd>
-              {kgText(base.methanol.totalKg)} ({formatFixed(base.molarRatio, 1)} : 1 asks for {kgText(base.methanol.chargeKg)})
+              {kgText(base.methanol.totalKg)} ({formatFixed(base.molarRatio, 1)} : 1 asks for{" "}
+              {kgText(base.methanol.chargeKg)})
             </dd>
           </div>
           <div>
             <dt>{labelOf(base.catalyst.type)}</dt>
             <dd>
-              <strong>{kgText(base.catalyst.productKg, 3)}</strong> of {formatFixed(base.catalyst.assayPct, 1)} % {methoxide ? "solution" : "product"} ({kgText(base.catalyst.pureKg, 3)} pure:{" "}
-              {kgText(base.catalyst.baseKg, 3)} base dose + {kgText(base.catalyst.neutralisationKg, 3)} to neutralise the FFA). Strength from {base.catalyst.assaySource}.
+              <strong>{kgText(base.catalyst.productKg, 3)}</strong> of {formatFixed(base.catalyst.assayPct, 1)} %{" "}
+              {methoxide ? "solution" : "product"} ({kgText(base.catalyst.pureKg, 3)} pure:{" "}
+              {kgText(base.catalyst.baseKg, 3)} base dose + {kgText(base.catalyst.neutralisationKg, 3)} to neutralise
+              the FFA). Strength from {base.catalyst.assaySource}.
             </dd>
           </div>
           <div>
             <dt>Oil into this step</dt>
             <dd>
               {kgText(base.oilKg, 1)} at {pctText(base.ffaPct)} FFA as {(base.ffaBasis ?? "OLEIC").toLowerCase()}
-              {base.acidValueMgKohG === undefined ? "" : ` (acid value ${formatFixed(base.acidValueMgKohG, 2)} mg KOH/g)`}, {pctText(base.waterPct, 3)} water; the FFA is
-              neutralised by its moles as {(base.ffaBasis ?? "OLEIC").toLowerCase()} acid
+              {base.acidValueMgKohG === undefined
+                ? ""
+                : ` (acid value ${formatFixed(base.acidValueMgKohG, 2)} mg KOH/g)`}
+              , {pctText(base.waterPct, 3)} water; the FFA is neutralised by its moles as{" "}
+              {(base.ffaBasis ?? "OLEIC").toLowerCase()} acid
             </dd>
           </div>
           {base.meanTgMolarMass === undefined ? null : (
@@ -202,7 +229,10 @@ export function RecipeCardView({ card, heading = "Recipe card", printedAt }: { c
           </div>
           <div>
             <dt>Glycerol (pure)</dt>
-            <dd>{kgText(card.expected.glycerolKg, 1)} — the glycerol phase is heavier: it carries methanol, soap and catalyst</dd>
+            <dd>
+              {kgText(card.expected.glycerolKg, 1)} — the glycerol phase is heavier: it carries methanol, soap and
+              catalyst
+            </dd>
           </div>
           <div>
             <dt>Soap</dt>
@@ -215,7 +245,8 @@ export function RecipeCardView({ card, heading = "Recipe card", printedAt }: { c
           <div>
             <dt>Wash water</dt>
             <dd>
-              {kgText(card.expected.washWaterKg, 1)} over {card.expected.washes} wash{card.expected.washes === 1 ? "" : "es"}
+              {kgText(card.expected.washWaterKg, 1)} over {card.expected.washes} wash
+              {card.expected.washes === 1 ? "" : "es"}
             </dd>
           </div>
           <div>
@@ -244,7 +275,9 @@ export function RecipeCardView({ card, heading = "Recipe card", printedAt }: { c
           {card.notes.map((n) => (
             <li key={n}>{n}</li>
           ))}
-          <li>Planned figures at full conversion; record what was actually charged and what came out on the batch page.</li>
+          <li>
+            Planned figures at full conversion; record what was actually charged and what came out on the batch page.
+          </li>
         </ul>
       </section>
     </article>

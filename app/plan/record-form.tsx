@@ -23,7 +23,13 @@ export function RecordPlanForm({ query, suggestedCode }: { query: string; sugges
         <div className="field">
           <label>
             Batch number
-            <input name="code" defaultValue={state.values.code ?? suggestedCode} autoComplete="off" aria-invalid={err("code") ? true : undefined} aria-describedby={err("code") ? "rp-code-err" : undefined} />
+            <input
+              name="code"
+              defaultValue={state.values.code ?? suggestedCode}
+              autoComplete="off"
+              aria-invalid={err("code") ? true : undefined}
+              aria-describedby={err("code") ? "rp-code-err" : undefined}
+            />
           </label>
           {err("code") ? (
             <span className="field-error" id="rp-code-err">
@@ -34,12 +40,20 @@ export function RecordPlanForm({ query, suggestedCode }: { query: string; sugges
         <div className="field wide">
           <label>
             Notes
-            <input name="notes" defaultValue={state.values.notes ?? ""} autoComplete="off" aria-invalid={err("notes") ? true : undefined} />
+            <input
+              name="notes"
+              defaultValue={state.values.notes ?? ""}
+              autoComplete="off"
+              aria-invalid={err("notes") ? true : undefined}
+            />
           </label>
           {err("notes") ? <span className="field-error">{err("notes")}</span> : null}
         </div>
       </div>
-      <p className="note">The draws are proposed again from the stock at the moment you record, so a change in stock since this page loaded is taken into account.</p>
+      <p className="note">
+        The draws are proposed again from the stock at the moment you record, so a change in stock since this page
+        loaded is taken into account.
+      </p>
       {state.status === "refused" && state.message ? (
         <p className="form-error" role="alert">
           {state.message}

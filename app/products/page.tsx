@@ -25,21 +25,43 @@ interface Row extends ProductLotRow {
 function qcCell(r: Row) {
   if (r.specName === "") return <span className="muted">no specification</span>;
   if (r.failing > 0) return <StatusMark code="FAIL" label={`${r.failing} out of limits`} />;
-  if (r.missing > 0) return <StatusMark code="MISSING" label={r.tested ? `${r.missing} missing` : `no results (${r.missing} needed)`} />;
+  if (r.missing > 0)
+    return <StatusMark code="MISSING" label={r.tested ? `${r.missing} missing` : `no results (${r.missing} needed)`} />;
   return <StatusMark code="PASS" label="complete, in limits" />;
 }
 
 const COLUMNS = (tz: string): Array<Column<Row>> => [
-  { key: "code", header: "Product lot", cell: (p) => <CodeLink href={`/products/${encodeURIComponent(p.code)}`} code={p.code} /> },
-  { key: "batch", header: "Batch", cell: (p) => (p.batchCode ? <Link href={`/batches/${encodeURIComponent(p.batchCode)}`}>{p.batchCode}</Link> : "—") },
+  {
+    key: "code",
+    header: "Product lot",
+    cell: (p) => <CodeLink href={`/products/${encodeURIComponent(p.code)}`} code={p.code} />,
+  },
+  {
+    key: "batch",
+    header: "Batch",
+    cell: (p) => (p.batchCode ? <Link href={`/batches/${encodeURIComponent(p.batchCode)}`}>{p.batchCode}</Link> : "—"),
+  },
   { key: "produced", header: "Produced", cell: (p) => when(p.producedAt, tz) },
   { key: "mass", header: "Mass made", numeric: true, cell: (p) => kg(p.massG) },
   { key: "stock", header: "Book stock", numeric: true, cell: (p) => kg(p.stockG) },
   { key: "spec", header: "Specification", cell: (p) => p.specName || "—" },
   { key: "qc", header: "Results", cell: qcCell },
-  { key: "status", header: "Release", cell: (p) => <StatusMark code={p.status} {...(p.status === "RELEASED" && p.deviation ? { label: "Released with a deviation" } : {})} /> },
+  {
+    key: "status",
+    header: "Release",
+    cell: (p) => (
+      <StatusMark
+        code={p.status}
+        {...(p.status === "RELEASED" && p.deviation ? { label: "Released with a deviation" } : {})}
+      />
+    ),
+  },
   { key: "released", header: "Released", cell: (p) => when(p.releasedAt, tz) },
-  { key: "history", header: "History", cell: (p) => <HistoryLink kind="product" recordKey={p.code} label="product lot" /> },
+  {
+    key: "history",
+    header: "History",
+    cell: (p) => <HistoryLink kind="product" recordKey={p.code} label="product lot" />,
+  },
 ];
 
 export default async function ProductsPage({ searchParams }: { searchParams: Promise<{ page?: string | string[] }> }) {
@@ -53,14 +75,26 @@ export default async function ProductsPage({ searchParams }: { searchParams: Pro
     const spec = specs.get(r.specKey) ?? null;
     if (spec === null) return { ...r, specName: "", missing: 0, failing: 0, tested: r.qc.length > 0 };
     const j = judgeRecords(spec, r.qc);
-    const specName = spec.siteSpec ? `${spec.siteSpec.name} v${spec.siteSpec.version}` : `${spec.edition} ${spec.grade}`;
+    const specName = spec.siteSpec
+      ? `${spec.siteSpec.name} v${spec.siteSpec.version}`
+      : `${spec.edition} ${spec.grade}`;
     return { ...r, specName, missing: j.missing.length, failing: j.failing.length, tested: r.qc.length > 0 };
   });
   return (
     <>
       <h1>Product lots</h1>
-      <p className="lede">Ester from each batch, held until its results against the chosen specification are in, then released or rejected by compliance. Only released lots ship.</p>
-      <DataTable caption="Product lots, newest first" hideCaption columns={COLUMNS(site.timeZone)} rows={judged} rowKey={(r) => r.code} empty="No product lots recorded yet." />
+      <p className="lede">
+        Ester from each batch, held until its results against the chosen specification are in, then released or rejected
+        by compliance. Only released lots ship.
+      </p>
+      <DataTable
+        caption="Product lots, newest first"
+        hideCaption
+        columns={COLUMNS(site.timeZone)}
+        rows={judged}
+        rowKey={(r) => r.code}
+        empty="No product lots recorded yet."
+      />
       {total > 0 ? <Pager basePath="/products" page={page} total={total} pageSize={PAGE_SIZE} /> : null}
     </>
   );

@@ -12,14 +12,27 @@ import type { FormState } from "@/app/_ui/kit/form-state";
 import { readText, refused, toNumber } from "@/app/_ui/kit/form-state";
 
 const FIELDS = ["code", "volume", "temp", "notes", "pickups", "tankCode", "acceptReason"] as const;
-const RENAME: Readonly<Record<string, string>> = { observedVolumeL: "volume", observedTempC: "temp", receivedAt: "pickups" };
+const RENAME: Readonly<Record<string, string>> = {
+  observedVolumeL: "volume",
+  observedTempC: "temp",
+  receivedAt: "pickups",
+};
 const rename = (field: string) => (field.startsWith("pickupCodes") ? "pickups" : (RENAME[field] ?? field));
 
 /** One lot from the chosen pickups: one pickup = its own lot; several = pooled; optionally accepted and moved straight into a tank. Production staff only. */
 export async function receivePickupsAction(prev: FormState, form: FormData): Promise<FormState> {
   const pickups = form.getAll("pickup").filter((p): p is string => typeof p === "string");
   const t = (name: string) => readText(form, name);
-  const values = { code: t("code"), volume: t("volume"), temp: t("temp"), notes: t("notes"), tankCode: t("tankCode"), acceptReason: t("acceptReason"), certified: form.get("certified") === "yes" ? "yes" : "", pickups: pickups.join(",") };
+  const values = {
+    code: t("code"),
+    volume: t("volume"),
+    temp: t("temp"),
+    notes: t("notes"),
+    tankCode: t("tankCode"),
+    acceptReason: t("acceptReason"),
+    certified: form.get("certified") === "yes" ? "yes" : "",
+    pickups: pickups.join(","),
+  };
   const refuse = (issues: readonly DomainIssue[]) => refused(prev, values, issues, FIELDS, rename);
   const who = await requireRole(["PRODUCTION"]);
   if (!who.ok) return refuse(who.issues);
@@ -28,7 +41,13 @@ export async function receivePickupsAction(prev: FormState, form: FormData): Pro
   const chosen = waiting.filter((p) => pickups.includes(p.code));
   const materials = [...new Set(chosen.map((p) => p.material))];
   if (materials.length > 1) {
-    return refuse([{ code: "LOT.MIXED_MATERIAL", message: `Pickups: a lot holds one material; these are ${materials.map(labelOf).join(" and ").toLowerCase()}. Make one lot per material.`, field: "pickupCodes" }]);
+    return refuse([
+      {
+        code: "LOT.MIXED_MATERIAL",
+        message: `Pickups: a lot holds one material; these are ${materials.map(labelOf).join(" and ").toLowerCase()}. Make one lot per material.`,
+        field: "pickupCodes",
+      },
+    ]);
   }
   const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
   const input = {
@@ -41,7 +60,9 @@ export async function receivePickupsAction(prev: FormState, form: FormData): Pro
     notes: values.notes,
     pickupCodes: pickups,
   };
-  const result = values.tankCode ? await receiveLotIntoTank(db, actor, { ...input, tankCode: values.tankCode, acceptReason: values.acceptReason }) : await receiveLotFromPickups(db, actor, input);
+  const result = values.tankCode
+    ? await receiveLotIntoTank(db, actor, { ...input, tankCode: values.tankCode, acceptReason: values.acceptReason })
+    : await receiveLotFromPickups(db, actor, input);
   if (!result.ok) return refuse(result.issues);
   await screenAfterRecord(db, actor, { lotCodes: [result.value.code] });
   revalidatePath("/tanks");

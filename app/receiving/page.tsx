@@ -23,7 +23,12 @@ export default async function ReceivingPage() {
   if (!site) return <NoSite />;
   const tz = site.timeZone;
   const [pickups, tankLevels] = await Promise.all([listPickupsNotInLot(db, site.id), listTankLevels(db, site.id)]);
-  const tanks = tankLevels.filter((t) => t.service === "FEEDSTOCK").map((t) => ({ code: t.code, label: `${t.code} ${t.name} — room for about ${kg(Math.max(0, t.capacityG - t.stockG), 0)}` }));
+  const tanks = tankLevels
+    .filter((t) => t.service === "FEEDSTOCK")
+    .map((t) => ({
+      code: t.code,
+      label: `${t.code} ${t.name} — room for about ${kg(Math.max(0, t.capacityG - t.stockG), 0)}`,
+    }));
   const prefix = `L-${day(user.now, tz).replace(/-/g, "").slice(2)}-`;
   const suggestedCode = `${prefix}${String((await countLotsWithPrefix(db, site.id, prefix)) + 1).padStart(2, "0")}`;
   const rows: ReceivingRow[] = pickups.map((p) => ({
@@ -41,8 +46,11 @@ export default async function ReceivingPage() {
     <>
       <h1>Receiving</h1>
       <p className="lede">
-        Turn the pickups that reached the plant into feedstock lots. Choose one pickup to make its own lot, or several of one material to pool them into one lot (one tank load). Each pickup stays linked to its lot for tracing. The
-        plant&apos;s measurement is the lot&apos;s mass; any difference from the kerbside estimates is booked openly as a receiving difference. A lot goes into a tank after it is accepted: by the lab, or here, when pooling straight into a tank, by you with a reason. <Link href="/labels">Print lot labels</Link>.
+        Turn the pickups that reached the plant into feedstock lots. Choose one pickup to make its own lot, or several
+        of one material to pool them into one lot (one tank load). Each pickup stays linked to its lot for tracing. The
+        plant&apos;s measurement is the lot&apos;s mass; any difference from the kerbside estimates is booked openly as
+        a receiving difference. A lot goes into a tank after it is accepted: by the lab, or here, when pooling straight
+        into a tank, by you with a reason. <Link href="/labels">Print lot labels</Link>.
       </p>
       <Cautions items={RECEIVING_CAUTIONS} title="Before unloading and pumping" />
       <ReceiveForm rows={rows} suggestedCode={suggestedCode} mayReceive={user.role === "PRODUCTION"} tanks={tanks} />

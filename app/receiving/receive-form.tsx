@@ -29,8 +29,24 @@ function PickupChoice({ rows }: { rows: ReceivingRow[] }) {
   const error = state.status === "refused" ? state.errors.pickups : undefined;
   const days = [...new Set(rows.map((r) => r.day))];
   const columns: Column<ReceivingRow>[] = [
-    { key: "take", header: "Take", cell: (r) => <input type="checkbox" name="pickup" value={r.code} defaultChecked={taken.has(r.code)} aria-label={`Take pickup ${r.code}`} /> },
-    { key: "pickup", header: "Pickup", cell: (r) => <Link href={`/pickups/${encodeURIComponent(r.code)}`}>{r.code}</Link> },
+    {
+      key: "take",
+      header: "Take",
+      cell: (r) => (
+        <input
+          type="checkbox"
+          name="pickup"
+          value={r.code}
+          defaultChecked={taken.has(r.code)}
+          aria-label={`Take pickup ${r.code}`}
+        />
+      ),
+    },
+    {
+      key: "pickup",
+      header: "Pickup",
+      cell: (r) => <Link href={`/pickups/${encodeURIComponent(r.code)}`}>{r.code}</Link>,
+    },
     { key: "observed", header: "Observed", cell: (r) => <span className="nowrap">{r.observed}</span> },
     { key: "source", header: "Source", cell: (r) => r.source },
     { key: "material", header: "Material", cell: (r) => r.material },
@@ -50,24 +66,53 @@ function PickupChoice({ rows }: { rows: ReceivingRow[] }) {
       {days.map((d) => (
         <div key={d} className="receiving-group">
           <h2>Observed {d}</h2>
-          <DataTable caption={`Pickups observed ${d}`} hideCaption columns={columns} rows={rows.filter((r) => r.day === d)} rowKey={(r) => r.code} empty="None." />
+          <DataTable
+            caption={`Pickups observed ${d}`}
+            hideCaption
+            columns={columns}
+            rows={rows.filter((r) => r.day === d)}
+            rowKey={(r) => r.code}
+            empty="None."
+          />
         </div>
       ))}
     </fieldset>
   );
 }
 
-export function ReceiveForm({ rows, suggestedCode, mayReceive, tanks }: { rows: ReceivingRow[]; suggestedCode: string; mayReceive: boolean; tanks: readonly TankOption[] }) {
+export function ReceiveForm({
+  rows,
+  suggestedCode,
+  mayReceive,
+  tanks,
+}: {
+  rows: ReceivingRow[];
+  suggestedCode: string;
+  mayReceive: boolean;
+  tanks: readonly TankOption[];
+}) {
   if (rows.length === 0) return <p className="empty">Every pickup is already in a lot.</p>;
-  const tankOptions: ReadonlyArray<readonly [string, string]> = [["", "Keep as a lot awaiting the lab (the usual way)"], ...tanks.map((t) => [t.code, `Straight into tank ${t.label}`] as const)];
+  const tankOptions: ReadonlyArray<readonly [string, string]> = [
+    ["", "Keep as a lot awaiting the lab (the usual way)"],
+    ...tanks.map((t) => [t.code, `Straight into tank ${t.label}`] as const),
+  ];
   return (
     <>
-      <ActionForm action={receivePickupsAction} label="Receive pickups as a lot" submitLabel="Receive as one lot" disabled={!mayReceive}>
+      <ActionForm
+        action={receivePickupsAction}
+        label="Receive pickups as a lot"
+        submitLabel="Receive as one lot"
+        disabled={!mayReceive}
+      >
         <PickupChoice rows={rows} />
         <Field name="code" label="Lot number" defaultValue={suggestedCode} maxLength={20} />
         <Field name="volume" label="Measured volume" unit="L" type="number" />
         <Field name="temp" label="Temperature at measurement" unit="°C" type="number" />
-        <Field name="certified" label="Certified sustainable (every pickup's source holds a valid certificate)" type="checkbox" />
+        <Field
+          name="certified"
+          label="Certified sustainable (every pickup's source holds a valid certificate)"
+          type="checkbox"
+        />
         <Field name="notes" label="Notes" maxLength={500} />
         <Field
           name="tankCode"

@@ -20,12 +20,24 @@ const LEVEL_TEXT: Readonly<Record<SourceLevel, string>> = {
 };
 
 function Level({ level }: { level: SourceLevel }) {
-  return <span className={`confidence confidence-${level === "published" ? "published" : "check"}`}>{LEVEL_TEXT[level]}</span>;
+  return (
+    <span className={`confidence confidence-${level === "published" ? "published" : "check"}`}>
+      {LEVEL_TEXT[level]}
+    </span>
+  );
 }
 
 function specColumns(e: CatalogueEdition): Array<Column<CatalogueProperty>> {
   return [
-    { key: "property", header: "Property", cell: (p) => <span id={p.anchor} className="anchor-target">{p.label}</span> },
+    {
+      key: "property",
+      header: "Property",
+      cell: (p) => (
+        <span id={p.anchor} className="anchor-target">
+          {p.label}
+        </span>
+      ),
+    },
     {
       key: "limit",
       header: "Limit",
@@ -58,7 +70,15 @@ function specColumns(e: CatalogueEdition): Array<Column<CatalogueProperty>> {
 }
 
 const DEFAULT_COLUMNS: Array<Column<DefaultSource>> = [
-  { key: "setting", header: "Setting", cell: (d) => <span id={d.anchor} className="anchor-target">{d.label}</span> },
+  {
+    key: "setting",
+    header: "Setting",
+    cell: (d) => (
+      <span id={d.anchor} className="anchor-target">
+        {d.label}
+      </span>
+    ),
+  },
   { key: "value", header: "Default", cell: (d) => d.value },
   { key: "source", header: "Source", cell: (d) => d.source },
   { key: "level", header: "Reliance", cell: (d) => <Level level={d.level} /> },
@@ -70,7 +90,14 @@ function Defaults({ group, note }: { group: DefaultGroup; note?: string }) {
       <h3 id={`group-${group.key}`}>{group.title}</h3>
       {group.edition ? <p className="muted">Edition: {group.edition}</p> : null}
       {note ? <p>{note}</p> : null}
-      <DataTable caption={group.title} hideCaption columns={DEFAULT_COLUMNS} rows={group.entries} rowKey={(d) => d.anchor} empty="No defaults." />
+      <DataTable
+        caption={group.title}
+        hideCaption
+        columns={DEFAULT_COLUMNS}
+        rows={group.entries}
+        rowKey={(d) => d.anchor}
+        empty="No defaults."
+      />
     </section>
   );
 }
@@ -85,7 +112,10 @@ export default async function ReferencesPage() {
     <>
       <h1>References</h1>
       <p className="lede">
-        Where each built-in limit and default comes from. A value marked &ldquo;check before relying on it&rdquo; could not be confirmed in the current published text; confirm it against your copy of the standard or rule before relying on it. Every default can be changed by the site (specifications: <Link href="/specs">site specifications</Link>).
+        Where each built-in limit and default comes from. A value marked &ldquo;check before relying on it&rdquo; could
+        not be confirmed in the current published text; confirm it against your copy of the standard or rule before
+        relying on it. Every default can be changed by the site (specifications:{" "}
+        <Link href="/specs">site specifications</Link>).
       </p>
 
       <h2>Specification limits</h2>
@@ -99,7 +129,14 @@ export default async function ReferencesPage() {
               <strong>{r.label}:</strong> {r.text} ({r.source}).
             </p>
           ))}
-          <DataTable caption={`${e.edition} limits and their sources`} hideCaption columns={specColumns(e)} rows={e.properties} rowKey={(p) => p.key} empty="No properties." />
+          <DataTable
+            caption={`${e.edition} limits and their sources`}
+            hideCaption
+            columns={specColumns(e)}
+            rows={e.properties}
+            rowKey={(p) => p.key}
+            empty="No properties."
+          />
         </section>
       ))}
 
@@ -110,7 +147,10 @@ export default async function ReferencesPage() {
       <Defaults group={recipeDefaults()} />
 
       <h2>Source check defaults</h2>
-      <Defaults group={screeningDefaults()} note="No standard defines implausible used cooking oil: where the trade publishes no threshold the value is our own choice and says so." />
+      <Defaults
+        group={screeningDefaults()}
+        note="No standard defines implausible used cooking oil: where the trade publishes no threshold the value is our own choice and says so."
+      />
     </>
   );
 }

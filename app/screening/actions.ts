@@ -17,14 +17,18 @@ export async function decideFlagAction(prev: FormState, form: FormData): Promise
   const values = readValues(form, DECISION_FIELDS);
   const who = await requireRole(["COMPLIANCE"]);
   if (!who.ok) return refused(prev, values, who.issues, DECISION_FIELDS);
-  const r = await decideFlag(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, {
-    flagId: readNumber(form, "flagId"),
-    decision: readText(form, "decision"),
-    reason: readText(form, "reason"),
-    watch: checked(form, "watch"),
-    holdLots: checked(form, "holdLots"),
-    withholdCredit: checked(form, "withholdCredit"),
-  });
+  const r = await decideFlag(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    {
+      flagId: readNumber(form, "flagId"),
+      decision: readText(form, "decision"),
+      reason: readText(form, "reason"),
+      watch: checked(form, "watch"),
+      holdLots: checked(form, "holdLots"),
+      withholdCredit: checked(form, "withholdCredit"),
+    },
+  );
   if (!r.ok) return refused(prev, values, r.issues, DECISION_FIELDS);
   revalidatePath("/screening");
   revalidatePath("/sources/[code]", "page");
@@ -42,18 +46,50 @@ export async function screenPeriodAction(prev: FormState, form: FormData): Promi
   const values = readValues(form, PERIOD_FIELDS);
   const who = await requireRole(["COMPLIANCE"]);
   if (!who.ok) return refused(prev, values, who.issues, PERIOD_FIELDS);
-  const r = await screenPeriod(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { from: values.from, to: values.to });
+  const r = await screenPeriod(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    { from: values.from, to: values.to },
+  );
   if (!r.ok) return refused(prev, values, r.issues, PERIOD_FIELDS);
   revalidatePath("/screening");
   const o = r.value;
-  return { status: "saved", message: `Checked ${o.sources} sources, ${o.pickups} pickups and ${o.lots} lots: ${o.created} new flags.`, values, errors: {}, seq: prev.seq + 1 };
+  return {
+    status: "saved",
+    message: `Checked ${o.sources} sources, ${o.pickups} pickups and ${o.lots} lots: ${o.created} new flags.`,
+    values,
+    errors: {},
+    seq: prev.seq + 1,
+  };
 }
 
 const PROFILE_FIELDS = [
-  "sourceCode", "kind", "capacityBasis", "fryers", "fryerLitres", "changesPerWeek", "declaredLitresPerMonth", "capacityDeclaredAt", "capacityDeclaredBy",
-  "pickupEveryDays", "latitude", "longitude", "opensHour", "closesHour",
+  "sourceCode",
+  "kind",
+  "capacityBasis",
+  "fryers",
+  "fryerLitres",
+  "changesPerWeek",
+  "declaredLitresPerMonth",
+  "capacityDeclaredAt",
+  "capacityDeclaredBy",
+  "pickupEveryDays",
+  "latitude",
+  "longitude",
+  "opensHour",
+  "closesHour",
 ] as const;
-const NUMERIC = ["fryers", "fryerLitres", "changesPerWeek", "declaredLitresPerMonth", "pickupEveryDays", "latitude", "longitude", "opensHour", "closesHour"] as const;
+const NUMERIC = [
+  "fryers",
+  "fryerLitres",
+  "changesPerWeek",
+  "declaredLitresPerMonth",
+  "pickupEveryDays",
+  "latitude",
+  "longitude",
+  "opensHour",
+  "closesHour",
+] as const;
 
 export async function saveSourceProfileAction(prev: FormState, form: FormData): Promise<FormState> {
   const values = readValues(form, PROFILE_FIELDS);
@@ -67,7 +103,11 @@ export async function saveSourceProfileAction(prev: FormState, form: FormData): 
     const v = readNumber(form, n);
     if (v !== undefined) input[n] = v;
   }
-  const r = await saveSourceProfile(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, input);
+  const r = await saveSourceProfile(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    input,
+  );
   if (!r.ok) return refused(prev, values, r.issues, PROFILE_FIELDS);
   revalidatePath("/sources/[code]", "page");
   return { status: "saved", message: "Capacity and hours saved.", values, errors: {}, seq: prev.seq + 1 };
@@ -79,9 +119,19 @@ export async function clearSourceAction(prev: FormState, form: FormData): Promis
   const values = readValues(form, CLEAR_FIELDS);
   const who = await requireRole(["COMPLIANCE"]);
   if (!who.ok) return refused(prev, values, who.issues, CLEAR_FIELDS);
-  const r = await clearSource(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, values);
+  const r = await clearSource(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    values,
+  );
   if (!r.ok) return refused(prev, values, r.issues, CLEAR_FIELDS);
   revalidatePath("/sources/[code]", "page");
   revalidatePath("/screening");
-  return { status: "saved", message: `Source cleared.${r.value.released.length > 0 ? ` Holds lifted (back to the lab's decision): ${r.value.released.join(", ")}.` : ""}`, values: {}, errors: {}, seq: prev.seq + 1 };
+  return {
+    status: "saved",
+    message: `Source cleared.${r.value.released.length > 0 ? ` Holds lifted (back to the lab's decision): ${r.value.released.join(", ")}.` : ""}`,
+    values: {},
+    errors: {},
+    seq: prev.seq + 1,
+  };
 }

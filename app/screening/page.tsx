@@ -22,13 +22,23 @@ function DecideForms({ flag }: { flag: FlagRow }) {
   return (
     <details className="decide">
       <summary>Decide on flag {flag.id}</summary>
-      <ActionForm action={decideFlagAction} submitLabel="Confirm flag" label={`Confirm flag ${flag.id}`} hidden={{ flagId: String(flag.id), decision: "CONFIRM" }}>
+      <ActionForm
+        action={decideFlagAction}
+        submitLabel="Confirm flag"
+        label={`Confirm flag ${flag.id}`}
+        hidden={{ flagId: String(flag.id), decision: "CONFIRM" }}
+      >
         <Field name="watch" label="Put the source on watch" type="checkbox" defaultValue="yes" />
         <Field name="holdLots" label="Hold its lots still on site" type="checkbox" />
         <Field name="withholdCredit" label="Withhold its certified credit until cleared" type="checkbox" />
         <Field name="reason" label="Note" type="textarea" maxLength={500} />
       </ActionForm>
-      <ActionForm action={decideFlagAction} submitLabel="Dismiss flag" label={`Dismiss flag ${flag.id}`} hidden={{ flagId: String(flag.id), decision: "DISMISS" }}>
+      <ActionForm
+        action={decideFlagAction}
+        submitLabel="Dismiss flag"
+        label={`Dismiss flag ${flag.id}`}
+        hidden={{ flagId: String(flag.id), decision: "DISMISS" }}
+      >
         <Field name="reason" label="Why it is dismissed" type="textarea" maxLength={500} required />
       </ActionForm>
     </details>
@@ -39,12 +49,19 @@ export default async function ScreeningPage() {
   const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const tz = site.timeZone;
-  const [open, decided] = await Promise.all([listFlags(db, site.id, { status: ["OPEN"] }), listFlags(db, site.id, { status: ["CONFIRMED", "DISMISSED", "CLEARED"], take: 50 })]);
+  const [open, decided] = await Promise.all([
+    listFlags(db, site.id, { status: ["OPEN"] }),
+    listFlags(db, site.id, { status: ["CONFIRMED", "DISMISSED", "CLEARED"], take: 50 }),
+  ]);
   const compliance = user.role === "COMPLIANCE";
   const label = (s: string) => SIGNAL_LABELS[s as Signal] ?? s;
   const openColumns: Array<Column<FlagRow>> = [
     { key: "raised", header: "Raised", cell: (f) => <span className="nowrap">{day(f.raisedAt, tz)}</span> },
-    { key: "source", header: "Source", cell: (f) => <Link href={`/sources/${encodeURIComponent(f.sourceCode)}`}>{f.sourceCode}</Link> },
+    {
+      key: "source",
+      header: "Source",
+      cell: (f) => <Link href={`/sources/${encodeURIComponent(f.sourceCode)}`}>{f.sourceCode}</Link>,
+    },
     { key: "check", header: "Check", cell: (f) => label(f.signal) },
     { key: "found", header: "What was found", cell: (f) => f.message },
     { key: "records", header: "Pickups and lots", cell: (f) => <FlagLinks flag={f} /> },
@@ -52,11 +69,21 @@ export default async function ScreeningPage() {
   ];
   const decidedColumns: Array<Column<FlagRow>> = [
     { key: "decided", header: "Decided", cell: (f) => <span className="nowrap">{when(f.decidedAt, tz)}</span> },
-    { key: "source", header: "Source", cell: (f) => <Link href={`/sources/${encodeURIComponent(f.sourceCode)}`}>{f.sourceCode}</Link> },
+    {
+      key: "source",
+      header: "Source",
+      cell: (f) => <Link href={`/sources/${encodeURIComponent(f.sourceCode)}`}>{f.sourceCode}</Link>,
+    },
     { key: "check", header: "Check", cell: (f) => label(f.signal) },
     { key: "state", header: "Decision", cell: (f) => <StatusMark code={`FLAG_${f.status}`} /> },
     { key: "by", header: "By", cell: (f) => f.decidedBy ?? "—" },
-    { key: "reason", header: "Reason", cell: (f) => [f.reason, f.heldLots.length > 0 ? `lots held: ${f.heldLots.join(", ")}` : ""].filter(Boolean).join("; ") || "—" },
+    {
+      key: "reason",
+      header: "Reason",
+      cell: (f) =>
+        [f.reason, f.heldLots.length > 0 ? `lots held: ${f.heldLots.join(", ")}` : ""].filter(Boolean).join("; ") ||
+        "—",
+    },
     { key: "found", header: "What was found", cell: (f) => f.message },
   ];
   const ruleRows = SIGNAL_RULES.map((r) => ({ ...r, key: r.signal }));
@@ -65,8 +92,9 @@ export default async function ScreeningPage() {
     <>
       <h1>Source checks</h1>
       <p className="lede">
-        Used oil that does not look like it came from where the records say: more than a source can give, far from its own history or its kind, lab results of fresh oil or of added water, and
-        pickups out of pattern. Each source is checked when a pickup, lot or lab result is recorded; check any period here.
+        Used oil that does not look like it came from where the records say: more than a source can give, far from its
+        own history or its kind, lab results of fresh oil or of added water, and pickups out of pattern. Each source is
+        checked when a pickup, lot or lab result is recorded; check any period here.
       </p>
       {compliance ? (
         <section aria-labelledby="run-h">
@@ -79,11 +107,25 @@ export default async function ScreeningPage() {
       ) : null}
       <section aria-labelledby="open-h">
         <h2 id="open-h">To review ({open.length})</h2>
-        <DataTable caption="Flags to review" hideCaption columns={openColumns} rows={open} rowKey={(f) => f.id} empty="Nothing to review." />
+        <DataTable
+          caption="Flags to review"
+          hideCaption
+          columns={openColumns}
+          rows={open}
+          rowKey={(f) => f.id}
+          empty="Nothing to review."
+        />
       </section>
       <section aria-labelledby="decided-h">
         <h2 id="decided-h">Decided</h2>
-        <DataTable caption="Decided flags" hideCaption columns={decidedColumns} rows={decided} rowKey={(f) => f.id} empty="No decisions yet." />
+        <DataTable
+          caption="Decided flags"
+          hideCaption
+          columns={decidedColumns}
+          rows={decided}
+          rowKey={(f) => f.id}
+          empty="No decisions yet."
+        />
       </section>
       <section aria-labelledby="rules-h">
         <h2 id="rules-h">What each check reads</h2>
@@ -106,7 +148,8 @@ export default async function ScreeningPage() {
                   <ul className="plain">
                     {r.settings.map((k) => (
                       <li key={k}>
-                        {SCREENING_SETTING_LABELS[k]}: {s[k].value} {s[k].unit} <ConfidenceMark level={confidenceOf(s[k])} anchor={`screening-${k}`} />
+                        {SCREENING_SETTING_LABELS[k]}: {s[k].value} {s[k].unit}{" "}
+                        <ConfidenceMark level={confidenceOf(s[k])} anchor={`screening-${k}`} />
                       </li>
                     ))}
                   </ul>

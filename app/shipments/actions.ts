@@ -47,9 +47,17 @@ export async function recordShipmentAction(prev: FormState, form: FormData): Pro
     // The first reason is repeated beside the button, so it is seen without scrolling back to the line.
     const state = refused(prev, values, r.issues, known, formFieldOf);
     const first = r.issues[0];
-    return first?.field !== undefined && state.errors[formFieldOf(first.field)] !== undefined ? { ...state, message: `Not saved. ${first.message}` } : state;
+    return first?.field !== undefined && state.errors[formFieldOf(first.field)] !== undefined
+      ? { ...state, message: `Not saved. ${first.message}` }
+      : state;
   }
   revalidatePath("/shipments");
   revalidatePath("/customers");
-  return { status: "saved", message: `Shipment ${r.value.documentNo} recorded: ${(r.value.massG / 1000).toLocaleString("en", { maximumFractionDigits: 3 })} kg left the books.`, values: {}, errors: {}, seq: prev.seq + 1 };
+  return {
+    status: "saved",
+    message: `Shipment ${r.value.documentNo} recorded: ${(r.value.massG / 1000).toLocaleString("en", { maximumFractionDigits: 3 })} kg left the books.`,
+    values: {},
+    errors: {},
+    seq: prev.seq + 1,
+  };
 }

@@ -1,7 +1,15 @@
 // Field names of the shipment form, shared by the form (client) and its server action. Pure.
 import { MAX_SHIPMENT_LINES } from "@/lib/shipment/shipment.schema";
 
-export const SHIPMENT_FIELDS = ["documentNo", "customerCode", "shippedAt", "vehicle", "compartment", "certifiedClaim", "note"] as const;
+export const SHIPMENT_FIELDS = [
+  "documentNo",
+  "customerCode",
+  "shippedAt",
+  "vehicle",
+  "compartment",
+  "certifiedClaim",
+  "note",
+] as const;
 
 /** Line n's fields (1-based): where from (kind, code), quantity, unit, temperature. */
 export function lineFieldNames(n: number): [kind: string, code: string, qty: string, unit: string, temp: string] {

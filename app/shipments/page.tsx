@@ -27,16 +27,18 @@ export default async function ShipmentsPage({ searchParams }: { searchParams: Pr
   return (
     <>
       <h1>Shipments</h1>
-      <p className="lede">Finished fuel leaving the site, newest first, with the customer and the lots or tanks it was loaded from.</p>
+      <p className="lede">
+        Finished fuel leaving the site, newest first, with the customer and the lots or tanks it was loaded from.
+      </p>
       {canRecord ? (
         <details className="record-form">
           <summary>Record a shipment</summary>
           <div className="form-with-aside">
             <RecordShipmentForm customers={customers} defaults={{ shippedAt: when(user.now, tz).replace(" ", "T") }} />
             <div>
-            <ReadyToShip rows={ready} />
-            <LoadingCautions />
-          </div>
+              <ReadyToShip rows={ready} />
+              <LoadingCautions />
+            </div>
           </div>
         </details>
       ) : null}

@@ -34,11 +34,28 @@ function Lines({ from }: { from: ShipmentFormDefaults["from"] }) {
         return (
           <fieldset key={n} className="shipment-line" aria-label={`Line ${n}`}>
             <legend>Line {n}</legend>
-            <Field name={kind} label="Loaded from" type="select" options={SOURCE_KINDS} defaultValue={n === 1 && from ? from.kind : "PRODUCT_LOT"} />
-            <Field name={code} label="Lot or tank number" defaultValue={n === 1 && from ? from.code : ""} hint="A released product lot, or a finished fuel tank" />
+            <Field
+              name={kind}
+              label="Loaded from"
+              type="select"
+              options={SOURCE_KINDS}
+              defaultValue={n === 1 && from ? from.kind : "PRODUCT_LOT"}
+            />
+            <Field
+              name={code}
+              label="Lot or tank number"
+              defaultValue={n === 1 && from ? from.code : ""}
+              hint="A released product lot, or a finished fuel tank"
+            />
             <Field name={qty} label="Quantity" type="number" />
             <Field name={unit} label="Unit" type="select" options={UNITS} defaultValue="kg" />
-            <Field name={temp} label="Temperature" unit="°C" type="number" hint="Needed for litres: the mass is worked out from the fuel's density at this temperature" />
+            <Field
+              name={temp}
+              label="Temperature"
+              unit="°C"
+              type="number"
+              hint="Needed for litres: the mass is worked out from the fuel's density at this temperature"
+            />
           </fieldset>
         );
       })}
@@ -59,13 +76,34 @@ function Lines({ from }: { from: ShipmentFormDefaults["from"] }) {
 }
 
 /** Records a shipment: who it goes to, the document and the vehicle, and one or more loading lines. */
-export function RecordShipmentForm({ customers, defaults }: { customers: ReadonlyArray<{ code: string; name: string }>; defaults: ShipmentFormDefaults }) {
-  const options: Array<readonly [string, string]> = [["", "Choose a customer…"], ...customers.map((c) => [c.code, `${c.name} (${c.code})`] as const)];
+export function RecordShipmentForm({
+  customers,
+  defaults,
+}: {
+  customers: ReadonlyArray<{ code: string; name: string }>;
+  defaults: ShipmentFormDefaults;
+}) {
+  const options: Array<readonly [string, string]> = [
+    ["", "Choose a customer…"],
+    ...customers.map((c) => [c.code, `${c.name} (${c.code})`] as const),
+  ];
   return (
     <ActionForm action={recordShipmentAction} submitLabel="Record the shipment" label="Record a shipment">
-      <Field name="customerCode" label="Customer" type="select" options={options} defaultValue={defaults.customerCode ?? ""} />
+      <Field
+        name="customerCode"
+        label="Customer"
+        type="select"
+        options={options}
+        defaultValue={defaults.customerCode ?? ""}
+      />
       <Field name="documentNo" label="Document number" hint="The number on the shipping document, e.g. BOL-0420" />
-      <Field name="shippedAt" label="Shipped" type="datetime-local" defaultValue={defaults.shippedAt} hint="Site time" />
+      <Field
+        name="shippedAt"
+        label="Shipped"
+        type="datetime-local"
+        defaultValue={defaults.shippedAt}
+        hint="Site time"
+      />
       <Field name="vehicle" label="Vehicle" hint="Tanker or trailer registration" />
       <Field name="compartment" label="Compartment(s)" />
       <Lines from={defaults.from} />

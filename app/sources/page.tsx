@@ -22,7 +22,11 @@ export default async function SourcesPage() {
   const now = user.now;
   const tz = site.timeZone;
   const columns: Array<Column<SourceRow>> = [
-    { key: "code", header: "Code", cell: (s) => <CodeLink href={`/sources/${encodeURIComponent(s.code)}`} code={s.code} /> },
+    {
+      key: "code",
+      header: "Code",
+      cell: (s) => <CodeLink href={`/sources/${encodeURIComponent(s.code)}`} code={s.code} />,
+    },
     { key: "name", header: "Name", cell: (s) => s.name },
     { key: "kind", header: "Kind", cell: (s) => labelOf(s.kind) },
     { key: "materials", header: "Materials", cell: (s) => s.materials.map(labelOf).join(", ") },
@@ -47,7 +51,12 @@ export default async function SourcesPage() {
               ),
           },
         ]),
-    { key: "every", header: "Pickup every", numeric: true, cell: (s) => (s.pickupEveryDays === null ? "—" : `${s.pickupEveryDays} d`) },
+    {
+      key: "every",
+      header: "Pickup every",
+      numeric: true,
+      cell: (s) => (s.pickupEveryDays === null ? "—" : `${s.pickupEveryDays} d`),
+    },
     { key: "pickups", header: "Pickups", numeric: true, cell: (s) => s.pickups },
     { key: "last", header: "Last pickup", cell: (s) => <span className="nowrap">{day(s.lastPickupAt, tz)}</span> },
     { key: "history", header: "History", cell: (s) => <HistoryLink kind="source" recordKey={s.code} label="source" /> },
@@ -56,9 +65,18 @@ export default async function SourcesPage() {
     <>
       <h1>Sources</h1>
       <p className="lede">
-        {collector ? "The places on the collection route." : "Restaurants, food processors, renderers, crushers and other suppliers the plant collects from or buys from."}
+        {collector
+          ? "The places on the collection route."
+          : "Restaurants, food processors, renderers, crushers and other suppliers the plant collects from or buys from."}
       </p>
-      <DataTable caption="Sources" hideCaption columns={columns} rows={rows} rowKey={(s) => s.code} empty="No sources recorded yet." />
+      <DataTable
+        caption="Sources"
+        hideCaption
+        columns={columns}
+        rows={rows}
+        rowKey={(s) => s.code}
+        empty="No sources recorded yet."
+      />
     </>
   );
 }

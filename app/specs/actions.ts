@@ -18,7 +18,10 @@ function renameField(field: string): string {
   return m ? `${m[2]}.${m[1]}` : field;
 }
 
-function readLimits(form: FormData): { values: Record<string, string>; limits: Record<string, { min: number | null; max: number | null }> } {
+function readLimits(form: FormData): {
+  values: Record<string, string>;
+  limits: Record<string, { min: number | null; max: number | null }>;
+} {
   const values: Record<string, string> = {};
   const limits: Record<string, { min: number | null; max: number | null }> = {};
   for (const [name, raw] of form.entries()) {

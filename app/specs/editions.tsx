@@ -23,7 +23,11 @@ function columns(e: CatalogueEdition): Array<Column<CatalogueProperty>> {
           </ul>
         ),
     },
-    { key: "note", header: "Note", cell: (p) => (p.notes.length ? p.notes.join(" ") : <span className="muted">—</span>) },
+    {
+      key: "note",
+      header: "Note",
+      cell: (p) => (p.notes.length ? p.notes.join(" ") : <span className="muted">—</span>),
+    },
     { key: "confidence", header: "Source", cell: (p) => <ConfidenceMark level={p.confidence} anchor={p.anchor} /> },
   ];
 }
@@ -38,14 +42,21 @@ export function BuiltInEditions() {
             {e.edition} — {e.title}
           </h3>
           <p>
-            Grades: {e.grades.map((g) => g.grade + (g.note ? ` (${g.note.toLowerCase().replace(/\.$/, "")})` : "")).join(" · ")}
+            Grades:{" "}
+            {e.grades.map((g) => g.grade + (g.note ? ` (${g.note.toLowerCase().replace(/\.$/, "")})` : "")).join(" · ")}
           </p>
           {e.rules.map((r) => (
             <p key={r.key}>
               <strong>{r.label}:</strong> {r.text}.
             </p>
           ))}
-          <DataTable caption={`${e.edition} properties`} columns={columns(e)} rows={e.properties} rowKey={(p) => p.key} empty="No properties." />
+          <DataTable
+            caption={`${e.edition} properties`}
+            columns={columns(e)}
+            rows={e.properties}
+            rowKey={(p) => p.key}
+            empty="No properties."
+          />
         </section>
       ))}
     </>

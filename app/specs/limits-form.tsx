@@ -38,31 +38,91 @@ export function LimitsForm({
   if (customerId != null) hidden.customerId = String(customerId);
   const published = (p: SpecProperty) => base.properties.find((q) => q.key === p.key) ?? p;
   const columns: Array<Column<SpecProperty>> = [
-    { key: "property", header: "Property", cell: (p) => <>{p.label}<div className="muted method-line">{p.method}</div></> },
+    {
+      key: "property",
+      header: "Property",
+      cell: (p) => (
+        <>
+          {p.label}
+          <div className="muted method-line">{p.method}</div>
+        </>
+      ),
+    },
     { key: "published", header: `${base.edition} ${base.grade}`, cell: (p) => limitText(published(p)) },
     {
       key: "min",
       header: "Site lower limit",
-      cell: (p) => (p.kind === "class" ? <span className="muted">—</span> : <Field name={`min.${p.key}`} label={`${p.label}, lower limit`} unit={p.unit || undefined} type="number" defaultValue={shown(limitsOf(p).min)} />),
+      cell: (p) =>
+        p.kind === "class" ? (
+          <span className="muted">—</span>
+        ) : (
+          <Field
+            name={`min.${p.key}`}
+            label={`${p.label}, lower limit`}
+            unit={p.unit || undefined}
+            type="number"
+            defaultValue={shown(limitsOf(p).min)}
+          />
+        ),
     },
     {
       key: "max",
       header: "Site upper limit",
-      cell: (p) => <Field name={`max.${p.key}`} label={p.kind === "class" ? `${p.label}, worst class accepted` : `${p.label}, upper limit`} unit={p.unit || undefined} type="number" defaultValue={shown(limitsOf(p).max)} />,
+      cell: (p) => (
+        <Field
+          name={`max.${p.key}`}
+          label={p.kind === "class" ? `${p.label}, worst class accepted` : `${p.label}, upper limit`}
+          unit={p.unit || undefined}
+          type="number"
+          defaultValue={shown(limitsOf(p).max)}
+        />
+      ),
     },
   ];
   return (
-    <ActionForm action={saveSiteSpecAction} submitLabel={submitLabel} hidden={hidden} label={name === undefined ? "New site specification" : `New version of ${name}`}>
-      {name === undefined ? <Field name="name" label="Name" required hint="How staff and certificates will call it, e.g. the buyer's name and what differs." /> : null}
+    <ActionForm
+      action={saveSiteSpecAction}
+      submitLabel={submitLabel}
+      hidden={hidden}
+      label={name === undefined ? "New site specification" : `New version of ${name}`}
+    >
+      {name === undefined ? (
+        <Field
+          name="name"
+          label="Name"
+          required
+          hint="How staff and certificates will call it, e.g. the buyer's name and what differs."
+        />
+      ) : null}
       {customers.length > 0 && name === undefined ? (
-        <Field name="customerId" label="For customer" type="select" options={[["", "Any customer"], ...customers.map((c) => [String(c.id), `${c.name} (${c.code})`] as const)]} />
+        <Field
+          name="customerId"
+          label="For customer"
+          type="select"
+          options={[["", "Any customer"], ...customers.map((c) => [String(c.id), `${c.name} (${c.code})`] as const)]}
+        />
       ) : null}
       <div className="field-wide limit-fields">
-        <DataTable caption="Limits" columns={columns} rows={start.properties} rowKey={(p) => p.key} empty="This grade has no properties." />
-        <p className="field-hint">A site limit may be tighter than the published one, never looser. Leave both limits empty for a property that is only reported.</p>
+        <DataTable
+          caption="Limits"
+          columns={columns}
+          rows={start.properties}
+          rowKey={(p) => p.key}
+          empty="This grade has no properties."
+        />
+        <p className="field-hint">
+          A site limit may be tighter than the published one, never looser. Leave both limits empty for a property that
+          is only reported.
+        </p>
       </div>
       <div className="field-wide">
-        <Field name="reason" label="Reason" type="textarea" required hint="Why the site needs these limits, e.g. the buyer's contract clause." />
+        <Field
+          name="reason"
+          label="Reason"
+          type="textarea"
+          required
+          hint="Why the site needs these limits, e.g. the buyer's contract clause."
+        />
       </div>
     </ActionForm>
   );

@@ -31,7 +31,17 @@ export default async function SpecsPage({ searchParams }: { searchParams: Promis
   for (const v of views) latest.set(v.row.name, Math.max(latest.get(v.row.name) ?? 0, v.row.version));
   const columns: Array<Column<SiteSpecView>> = [
     { key: "name", header: "Name", cell: (v) => <Link href={`/specs/site/${v.row.id}`}>{v.row.name}</Link> },
-    { key: "version", header: "Version", numeric: true, cell: (v) => <>{v.row.version}{latest.get(v.row.name) === v.row.version ? <span className="muted"> (current)</span> : null}</> },
+    {
+      key: "version",
+      header: "Version",
+      numeric: true,
+      cell: (v) => (
+        <>
+          {v.row.version}
+          {latest.get(v.row.name) === v.row.version ? <span className="muted"> (current)</span> : null}
+        </>
+      ),
+    },
     { key: "base", header: "Copied from", cell: (v) => baseText(v.row.baseKey) },
     { key: "customer", header: "Customer", cell: (v) => v.row.customerName ?? <span className="muted">any</span> },
     { key: "limits", header: "Site limits", cell: (v) => (v.spec === null ? "" : siteLimitsText(v.spec)) },
@@ -42,10 +52,20 @@ export default async function SpecsPage({ searchParams }: { searchParams: Promis
   return (
     <>
       <h1>Specifications</h1>
-      <p className="lede">The published editions product lots are judged against, and the site&apos;s own copies with a buyer&apos;s tighter limits. A site copy is never changed in place: each change is a new version with its reason.</p>
+      <p className="lede">
+        The published editions product lots are judged against, and the site&apos;s own copies with a buyer&apos;s
+        tighter limits. A site copy is never changed in place: each change is a new version with its reason.
+      </p>
 
       <h2>Site specifications</h2>
-      <DataTable caption="Site specifications, every version" hideCaption columns={columns} rows={views} rowKey={(v) => v.row.id} empty="No site specifications yet. Copy a built-in grade below to make one." />
+      <DataTable
+        caption="Site specifications, every version"
+        hideCaption
+        columns={columns}
+        rows={views}
+        rowKey={(v) => v.row.id}
+        empty="No site specifications yet. Copy a built-in grade below to make one."
+      />
 
       <h2 id="copy">Copy a built-in grade</h2>
       {canWrite ? (

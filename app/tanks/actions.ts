@@ -48,14 +48,26 @@ export async function moveToTankAction(prev: FormState, form: FormData): Promise
     volumeL: readNumber(form, "volumeL"),
     tempC: readNumber(form, "tempC"),
   };
-  const r = await transferToTank(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, input);
+  const r = await transferToTank(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    input,
+  );
   if (!r.ok) return refused(prev, values, r.issues, MOVE_SHOWN);
   revalidatePath("/tanks");
   revalidatePath("/lots/[code]", "page");
   revalidatePath("/tanks/[code]", "page");
   const v = r.value.fromVolume;
-  const conversion = v ? ` (${v.volumeL.toLocaleString("en")} L at ${v.tempC} °C × ${v.densityKgM3.toFixed(1)} kg/m³)` : "";
-  return { status: "saved", message: `Moved ${kgText(r.value.massG)}${conversion} into tank ${input.toTankCode.toUpperCase()}.`, values: {}, errors: {}, seq: prev.seq + 1 };
+  const conversion = v
+    ? ` (${v.volumeL.toLocaleString("en")} L at ${v.tempC} °C × ${v.densityKgM3.toFixed(1)} kg/m³)`
+    : "";
+  return {
+    status: "saved",
+    message: `Moved ${kgText(r.value.massG)}${conversion} into tank ${input.toTankCode.toUpperCase()}.`,
+    values: {},
+    errors: {},
+    seq: prev.seq + 1,
+  };
 }
 
 /** A gauge reading with the book stock at that moment beside it. */
@@ -74,7 +86,11 @@ export async function recordGaugeAction(prev: FormState, form: FormData): Promis
     ...(method === "LEVEL" ? { levelMm: readNumber(form, "levelMm") } : { volumeL: readNumber(form, "volumeL") }),
     ...(density === undefined ? {} : { densityKgM3: density }),
   };
-  const r = await recordGauge(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, input);
+  const r = await recordGauge(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    input,
+  );
   if (!r.ok) return refused(prev, values, r.issues, GAUGE_SHOWN);
   revalidatePath("/tanks");
   revalidatePath("/tanks/[code]", "page");

@@ -16,7 +16,17 @@ function numberIn(form: HTMLFormElement, name: string): number | undefined {
  * Shows, as the worker types, what a volume read at a temperature weighs with the density the server
  * will use (the same pure function): V × ρ(t). The server computes it again when the form is sent.
  */
-export function ConversionPreview({ entry, densityKgM3, referenceTempC, basis }: { entry: DensityEntry; densityKgM3?: number; referenceTempC?: number; basis: string }) {
+export function ConversionPreview({
+  entry,
+  densityKgM3,
+  referenceTempC,
+  basis,
+}: {
+  entry: DensityEntry;
+  densityKgM3?: number;
+  referenceTempC?: number;
+  basis: string;
+}) {
   const ref = useRef<HTMLParagraphElement>(null);
   const [text, setText] = useState<string | null>(null);
   useEffect(() => {
@@ -26,10 +36,17 @@ export function ConversionPreview({ entry, densityKgM3, referenceTempC, basis }:
       const volumeL = numberIn(form, "volumeL");
       const tempC = numberIn(form, "tempC");
       if (volumeL === undefined || tempC === undefined || volumeL <= 0) return setText(null);
-      const m = massOfVolume({ volumeL, tempC, entry, ...(densityKgM3 === undefined ? {} : { densityKgM3, referenceTempC: referenceTempC ?? 15 }) });
+      const m = massOfVolume({
+        volumeL,
+        tempC,
+        entry,
+        ...(densityKgM3 === undefined ? {} : { densityKgM3, referenceTempC: referenceTempC ?? 15 }),
+      });
       if (!m.ok) return setText(null);
       const rho = m.value.densityKgM3;
-      setText(`${volumeL.toLocaleString("en")} L at ${tempC} °C × ${rho.toFixed(1)} kg/m³ = ${m.value.massKg.toLocaleString("en", { maximumFractionDigits: 1 })} kg`);
+      setText(
+        `${volumeL.toLocaleString("en")} L at ${tempC} °C × ${rho.toFixed(1)} kg/m³ = ${m.value.massKg.toLocaleString("en", { maximumFractionDigits: 1 })} kg`,
+      );
     };
     update();
     form.addEventListener("input", update);
@@ -37,7 +54,8 @@ export function ConversionPreview({ entry, densityKgM3, referenceTempC, basis }:
   }, [entry, densityKgM3, referenceTempC]);
   return (
     <p className="field-wide conversion" ref={ref} aria-live="polite">
-      <strong>Volume to mass:</strong> {text ?? "type a volume and its temperature to see the mass"}. <span className="muted">{basis}</span>
+      <strong>Volume to mass:</strong> {text ?? "type a volume and its temperature to see the mass"}.{" "}
+      <span className="muted">{basis}</span>
     </p>
   );
 }

@@ -29,18 +29,32 @@ export async function MoveSection(props: {
   title: string;
 }) {
   const { from } = props;
-  const tanks = (await listTankLevels(props.db, props.siteId)).filter((t) => t.service === from.service && !(from.kind === "TANK" && t.code === from.code));
+  const tanks = (await listTankLevels(props.db, props.siteId)).filter(
+    (t) => t.service === from.service && !(from.kind === "TANK" && t.code === from.code),
+  );
   let body: ReactNode;
   if (props.role !== "PRODUCTION") body = <p className="muted">Production staff move material into tanks.</p>;
   else if (props.blocked) body = <p className="muted">{props.blocked}</p>;
   else if (from.stockG <= 0) body = <p className="muted">Nothing is left to move.</p>;
-  else if (tanks.length === 0) body = <p className="muted">No other {labelOf(from.service).toLowerCase()} tank is set up at this site.</p>;
+  else if (tanks.length === 0)
+    body = <p className="muted">No other {labelOf(from.service).toLowerCase()} tank is set up at this site.</p>;
   else {
-    const choices = tanks.map((t) => ({ code: t.code, label: `${t.code} ${t.name} — room for about ${kg(Math.max(0, t.capacityG - t.stockG), 0)}` }));
+    const choices = tanks.map((t) => ({
+      code: t.code,
+      label: `${t.code} ${t.name} — room for about ${kg(Math.max(0, t.capacityG - t.stockG), 0)}`,
+    }));
     body = (
       <>
         <Cautions items={TANK_MOVE_CAUTIONS} title="Before pumping" />
-        <MoveForm fromKind={from.kind} fromCode={from.code} tanks={choices} nowLocal={siteLocalInput(props.now, props.timeZone)} density={props.density} heldText={kg(from.stockG, 1)} label={props.title} />
+        <MoveForm
+          fromKind={from.kind}
+          fromCode={from.code}
+          tanks={choices}
+          nowLocal={siteLocalInput(props.now, props.timeZone)}
+          density={props.density}
+          heldText={kg(from.stockG, 1)}
+          label={props.title}
+        />
       </>
     );
   }

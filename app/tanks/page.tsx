@@ -22,16 +22,36 @@ function vsBook(gaugeG: number, bookG: number): string {
 type TankRow = Awaited<ReturnType<typeof listTankLevels>>[number];
 
 const tankColumns = (tz: string): Column<TankRow>[] => [
-  { key: "tank", header: "Tank", cell: (t) => <CodeLink href={`/tanks/${encodeURIComponent(t.code)}`} code={t.code} /> },
+  {
+    key: "tank",
+    header: "Tank",
+    cell: (t) => <CodeLink href={`/tanks/${encodeURIComponent(t.code)}`} code={t.code} />,
+  },
   { key: "name", header: "Name", cell: (t) => t.name },
   { key: "service", header: "Service", cell: (t) => labelOf(t.service) },
   { key: "mixing", header: "Mixing", cell: (t) => labelOf(t.mixing) },
   { key: "capacity", header: "Capacity", numeric: true, cell: (t) => litres(t.capacityMl, 0) },
   { key: "stock", header: "Book stock", numeric: true, cell: (t) => kg(t.stockG) },
   { key: "fill", header: "Fill (estimate)", cell: (t) => <FillBar tank={t} /> },
-  { key: "gauge", header: "Last gauge", numeric: true, cell: (t) => (t.lastGauge ? `${kg(t.lastGauge.massG)} · ${litres(t.lastGauge.volumeMl, 0)}` : "—") },
-  { key: "gauged", header: "Gauged", cell: (t) => (t.lastGauge ? <span className="nowrap">{when(t.lastGauge.at, tz)}</span> : <span className="muted">never</span>) },
-  { key: "vs", header: "Gauge vs book then", numeric: true, cell: (t) => (t.lastGauge && t.lastGauge.bookStockG !== null ? vsBook(t.lastGauge.massG, t.lastGauge.bookStockG) : "—") },
+  {
+    key: "gauge",
+    header: "Last gauge",
+    numeric: true,
+    cell: (t) => (t.lastGauge ? `${kg(t.lastGauge.massG)} · ${litres(t.lastGauge.volumeMl, 0)}` : "—"),
+  },
+  {
+    key: "gauged",
+    header: "Gauged",
+    cell: (t) =>
+      t.lastGauge ? <span className="nowrap">{when(t.lastGauge.at, tz)}</span> : <span className="muted">never</span>,
+  },
+  {
+    key: "vs",
+    header: "Gauge vs book then",
+    numeric: true,
+    cell: (t) =>
+      t.lastGauge && t.lastGauge.bookStockG !== null ? vsBook(t.lastGauge.massG, t.lastGauge.bookStockG) : "—",
+  },
   { key: "history", header: "History", cell: (t) => <HistoryLink kind="tank" recordKey={t.code} label="tank" /> },
 ];
 
@@ -43,12 +63,22 @@ export default async function TanksPage() {
   return (
     <>
       <h1>Tanks</h1>
-      <p className="lede">Storage tanks with their book stock from the ledger, and the latest gauge reading where one was taken, against the book stock at that time. Open a tank to move material or record a reading.</p>
+      <p className="lede">
+        Storage tanks with their book stock from the ledger, and the latest gauge reading where one was taken, against
+        the book stock at that time. Open a tank to move material or record a reading.
+      </p>
       {tanks.length === 0 ? (
         <Empty>No tanks recorded yet.</Empty>
       ) : (
         <>
-          <DataTable caption="Tanks" hideCaption columns={tankColumns(tz)} rows={tanks} rowKey={(t) => t.code} empty="No tanks recorded yet." />
+          <DataTable
+            caption="Tanks"
+            hideCaption
+            columns={tankColumns(tz)}
+            rows={tanks}
+            rowKey={(t) => t.code}
+            empty="No tanks recorded yet."
+          />
           <DensityNote tanks={tanks} />
         </>
       )}

@@ -1,7 +1,12 @@
 // CSV downloads of the trace tables: RFC 4180 (CRLF line ends, fields with a comma, quote or line
 // break quoted, quotes doubled) and cells that a spreadsheet would run as a formula neutralised.
 import { labelOf } from "@/lib/ledger/kinds";
-import type { BackwardTraceReport, ContributionRow, ContributionTables, ForwardTraceReport } from "@/lib/trace/trace.service";
+import type {
+  BackwardTraceReport,
+  ContributionRow,
+  ContributionTables,
+  ForwardTraceReport,
+} from "@/lib/trace/trace.service";
 
 export type CsvCell = string | number | boolean | null;
 
@@ -22,10 +27,24 @@ export function toCsv(rows: ReadonlyArray<ReadonlyArray<CsvCell>>): string {
 const kg3 = (grams: number) => (grams / 1000).toFixed(3);
 const pct4 = (pct: number) => pct.toFixed(4);
 
-export const BACKWARD_TABLES = ["sources", "lots", "pickups", "materials", "certification", "reagents", "origins"] as const;
+export const BACKWARD_TABLES = [
+  "sources",
+  "lots",
+  "pickups",
+  "materials",
+  "certification",
+  "reagents",
+  "origins",
+] as const;
 export type BackwardTable = (typeof BACKWARD_TABLES)[number];
 
-function contributionCsv(first: string, rows: readonly ContributionRow[], totalG: number, extra: "lot" | "pickup" | "source" | "plain", totalPct = rows.length === 0 ? 0 : 100): CsvCell[][] {
+function contributionCsv(
+  first: string,
+  rows: readonly ContributionRow[],
+  totalG: number,
+  extra: "lot" | "pickup" | "source" | "plain",
+  totalPct = rows.length === 0 ? 0 : 100,
+): CsvCell[][] {
   const head: CsvCell[] =
     extra === "lot"
       ? [first, "description", "material", "lot_certified", "origins", "grams", "kg", "percent"]
@@ -38,7 +57,18 @@ function contributionCsv(first: string, rows: readonly ContributionRow[], totalG
     extra === "lot"
       ? [r.key, r.label, r.materialKind, r.lotCertified, r.origins, r.grams, kg3(r.grams), pct4(r.pct)]
       : extra === "pickup"
-        ? [r.key, r.label, r.sourceCode, r.lotCode, r.materialKind, r.certification, r.certificate, r.grams, kg3(r.grams), pct4(r.pct)]
+        ? [
+            r.key,
+            r.label,
+            r.sourceCode,
+            r.lotCode,
+            r.materialKind,
+            r.certification,
+            r.certificate,
+            r.grams,
+            kg3(r.grams),
+            pct4(r.pct),
+          ]
         : extra === "source"
           ? [r.key, r.label, r.materialKind, r.certificate, r.origins, r.grams, kg3(r.grams), pct4(r.pct)]
           : [r.key, r.label, r.origins, r.grams, kg3(r.grams), pct4(r.pct)],
@@ -69,13 +99,36 @@ function tablesCsv(t: ContributionTables, table: Exclude<BackwardTable, "reagent
 export function backwardCsv(r: BackwardTraceReport, table: BackwardTable, feedstockOnly: boolean): string {
   if (table === "reagents") {
     // Reagent shares are of the whole traced quantity, so the total row gives the reagents' share of it.
-    return toCsv(contributionCsv("reagent_lot", r.reagents, r.reagentsG, "plain", r.totalG === 0 ? 0 : (r.reagentsG * 100) / r.totalG));
+    return toCsv(
+      contributionCsv(
+        "reagent_lot",
+        r.reagents,
+        r.reagentsG,
+        "plain",
+        r.totalG === 0 ? 0 : (r.reagentsG * 100) / r.totalG,
+      ),
+    );
   }
   if (table === "origins") {
     const rows = r.origins.filter((o) => !feedstockOnly || o.certification !== "NOT_FEEDSTOCK");
     const totalG = rows.reduce((s, o) => s + o.grams, 0);
     return toCsv([
-      ["origin_movement", "entered_at", "entered_at_holder_kind", "entered_at_holder", "pickup", "lot", "source", "source_name", "material", "certification", "certificate", "grams", "kg", "percent"],
+      [
+        "origin_movement",
+        "entered_at",
+        "entered_at_holder_kind",
+        "entered_at_holder",
+        "pickup",
+        "lot",
+        "source",
+        "source_name",
+        "material",
+        "certification",
+        "certificate",
+        "grams",
+        "kg",
+        "percent",
+      ],
       ...rows.map((o): CsvCell[] => [
         o.originId,
         o.enteredAt.toISOString(),
@@ -92,7 +145,22 @@ export function backwardCsv(r: BackwardTraceReport, table: BackwardTable, feedst
         kg3(o.grams),
         pct4(totalG === 0 ? 0 : (o.grams * 100) / totalG),
       ]),
-      ["TOTAL", null, null, null, null, null, null, null, null, null, null, totalG, kg3(totalG), rows.length === 0 ? "0.0000" : "100.0000"],
+      [
+        "TOTAL",
+        null,
+        null,
+        null,
+        null,
+        null,
+        null,
+        null,
+        null,
+        null,
+        null,
+        totalG,
+        kg3(totalG),
+        rows.length === 0 ? "0.0000" : "100.0000",
+      ],
     ]);
   }
   return toCsv(tablesCsv(feedstockOnly ? r.feedstock : r.all, table));
@@ -100,8 +168,28 @@ export function backwardCsv(r: BackwardTraceReport, table: BackwardTable, feedst
 
 export function forwardCsv(r: ForwardTraceReport): string {
   return toCsv([
-    ["stage", "holder_kind", "holder", "first_reached", "received_grams", "received_kg", "held_grams", "held_kg", "customer"],
-    ...r.holders.map((h): CsvCell[] => [h.stageLabel, labelOf(h.holder.kind), h.holder.code, h.firstAt?.toISOString() ?? null, h.receivedG, kg3(h.receivedG), h.heldG, kg3(h.heldG), h.customer?.name ?? null]),
+    [
+      "stage",
+      "holder_kind",
+      "holder",
+      "first_reached",
+      "received_grams",
+      "received_kg",
+      "held_grams",
+      "held_kg",
+      "customer",
+    ],
+    ...r.holders.map((h): CsvCell[] => [
+      h.stageLabel,
+      labelOf(h.holder.kind),
+      h.holder.code,
+      h.firstAt?.toISOString() ?? null,
+      h.receivedG,
+      kg3(h.receivedG),
+      h.heldG,
+      kg3(h.heldG),
+      h.customer?.name ?? null,
+    ]),
     ["TOTAL entered", null, r.subject.code, null, null, null, r.enteredG, kg3(r.enteredG), null],
   ]);
 }

@@ -4,7 +4,11 @@ import { kg, pct } from "@/app/_ui/format";
 
 /** A customer's name, linked to their page when the shipment was recorded against a customer record. */
 export function CustomerName({ customer }: { customer: ShipmentCustomer }) {
-  return customer.code ? <Link href={`/customers/${encodeURIComponent(customer.code)}`}>{customer.name}</Link> : <>{customer.name}</>;
+  return customer.code ? (
+    <Link href={`/customers/${encodeURIComponent(customer.code)}`}>{customer.name}</Link>
+  ) : (
+    <>{customer.name}</>
+  );
 }
 
 /** How much of the traced material each customer received in their shipments. */

@@ -36,7 +36,6 @@ const KIND_WORDS: Readonly<Record<string, string>> = {
   LOT: "Feedstock lot",
 };
 
-
 export default async function TracePage({ searchParams }: { searchParams: Promise<Search> }) {
   const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
@@ -48,14 +47,23 @@ export default async function TracePage({ searchParams }: { searchParams: Promis
   const view = one(sp.view) === "feedstock" ? "feedstock" : "all";
   const tz = site.timeZone;
   const choices = await listTraceChoices(db, site.id);
-  const back = dir === "back" && code !== "" ? await traceBackwardReport(db, site.id, { kind, code, at: toSiteInstant(atLocal, tz) }, user.now) : null;
-  const fwd = dir === "fwd" && code !== "" ? await traceForwardReport(db, site.id, { kind, code }, user.now, { withCustomers: canRead(user.role, "/customers") }) : null;
+  const back =
+    dir === "back" && code !== ""
+      ? await traceBackwardReport(db, site.id, { kind, code, at: toSiteInstant(atLocal, tz) }, user.now)
+      : null;
+  const fwd =
+    dir === "fwd" && code !== ""
+      ? await traceForwardReport(db, site.id, { kind, code }, user.now, {
+          withCustomers: canRead(user.role, "/customers"),
+        })
+      : null;
   return (
     <>
       <h1>Trace</h1>
       <p className="lede">
-        Which feedstock went into a product lot, a tank, a shipment or a batch, and where the oil of a source, a pickup or a lot went. Masses
-        come from replaying the movement ledger under each tank&apos;s mixing model, in whole grams.
+        Which feedstock went into a product lot, a tank, a shipment or a batch, and where the oil of a source, a pickup
+        or a lot went. Masses come from replaying the movement ledger under each tank&apos;s mixing model, in whole
+        grams.
       </p>
       <div className="trace-forms">
         <TraceForm
@@ -111,7 +119,11 @@ function TraceForm({
         <input type="hidden" name="dir" value={dir} />
         <label>
           Kind
-          <select name="kind" defaultValue={kinds.includes(kind) ? kind : kinds[0]} aria-invalid={field("kind") ? true : undefined}>
+          <select
+            name="kind"
+            defaultValue={kinds.includes(kind) ? kind : kinds[0]}
+            aria-invalid={field("kind") ? true : undefined}
+          >
             {kinds.map((k) => (
               <option key={k} value={k}>
                 {KIND_WORDS[k] ?? labelOf(k)}
@@ -134,7 +146,12 @@ function TraceForm({
         {dir === "back" ? (
           <label>
             Tank time <span className="muted">(tanks only; site time)</span>
-            <input name="at" type="datetime-local" defaultValue={atLocal} aria-invalid={field("at") ? true : undefined} />
+            <input
+              name="at"
+              type="datetime-local"
+              defaultValue={atLocal}
+              aria-invalid={field("at") ? true : undefined}
+            />
           </label>
         ) : null}
         <button type="submit">{dir === "back" ? "Trace back" : "Trace forward"}</button>
@@ -181,24 +198,40 @@ function csvHref(params: Record<string, string>): string {
 
 /** The trace answer as GS1 EPCIS 2.0 events, for a trading partner's systems. */
 function EpcisLink({ params }: { params: Record<string, string | undefined> }) {
-  const query = new URLSearchParams(Object.entries(params).filter((e): e is [string, string] => e[1] !== undefined && e[1] !== "")).toString();
+  const query = new URLSearchParams(
+    Object.entries(params).filter((e): e is [string, string] => e[1] !== undefined && e[1] !== ""),
+  ).toString();
   return (
     <p>
       <a href={`/api/epcis/trace?${query}`} download className="csv-link">
         EPCIS 2.0 events
       </a>{" "}
-      <span className="muted">— the movements behind this answer in the GS1 standard format a trading partner&apos;s system reads</span>
+      <span className="muted">
+        — the movements behind this answer in the GS1 standard format a trading partner&apos;s system reads
+      </span>
     </p>
   );
 }
 
-function BackwardResult({ r, view, atLocal, timeZone }: { r: BackwardTraceReport; view: "all" | "feedstock"; atLocal: string; timeZone: string }) {
+function BackwardResult({
+  r,
+  view,
+  atLocal,
+  timeZone,
+}: {
+  r: BackwardTraceReport;
+  view: "all" | "feedstock";
+  atLocal: string;
+  timeZone: string;
+}) {
   const base = { dir: "back", kind: r.query.kind, code: r.query.code, at: atLocal };
   const t = view === "feedstock" ? r.feedstock : r.all;
   const csv = (table: string) => csvHref({ ...base, table, ...(view === "feedstock" ? { view } : {}) });
-  const switchTo = (v: "all" | "feedstock") => `/trace?${new URLSearchParams({ ...base, ...(v === "feedstock" ? { view: v } : {}) }).toString()}`;
+  const switchTo = (v: "all" | "feedstock") =>
+    `/trace?${new URLSearchParams({ ...base, ...(v === "feedstock" ? { view: v } : {}) }).toString()}`;
   const targetHref = hrefOf(r.target.kind, r.target.code);
-  const what = r.basis === "STOCK" ? `held ${r.asOf ? `at ${when(r.asOf.at, timeZone)}` : "before any movement"}` : "received";
+  const what =
+    r.basis === "STOCK" ? `held ${r.asOf ? `at ${when(r.asOf.at, timeZone)}` : "before any movement"}` : "received";
   return (
     <section aria-labelledby="back-h" className="trace-result">
       <h2 id="back-h">
@@ -208,17 +241,20 @@ function BackwardResult({ r, view, atLocal, timeZone }: { r: BackwardTraceReport
         items={[
           ["Traced", <HolderLink key="t" holder={r.target} />],
           [r.basis === "STOCK" ? "Stock traced" : "Everything received", <strong key="g">{kgExact(r.totalG)}</strong>],
-          ["Feedstock", `${kgExact(r.feedstock.totalG)} (${pct(r.totalG === 0 ? 0 : (r.feedstock.totalG * 100) / r.totalG, 2)})`],
+          [
+            "Feedstock",
+            `${kgExact(r.feedstock.totalG)} (${pct(r.totalG === 0 ? 0 : (r.feedstock.totalG * 100) / r.totalG, 2)})`,
+          ],
           ["Reagents", `${kgExact(r.reagentsG)} (${pct(r.totalG === 0 ? 0 : (r.reagentsG * 100) / r.totalG, 2)})`],
           ...(r.otherG > 0 ? ([["Other entries", kgExact(r.otherG)]] as Array<[string, string]>) : []),
           ["Last movement included", r.asOf ? `no. ${r.asOf.moveId}, ${when(r.asOf.at, timeZone)}` : "none"],
         ]}
       />
       <Note>
-        The mass {what} by {r.target.code}, split over every origin (a pickup&apos;s oil, a delivery, a reagent receipt, a receiving
-        surplus). A tank mixes what it holds, so a batch drawn from it carries its share of every lot in it; the grams of each table
-        add up exactly to its total. Certification: the lot&apos;s own marking and whether the source held a certificate valid on the
-        day the oil entered.{" "}
+        The mass {what} by {r.target.code}, split over every origin (a pickup&apos;s oil, a delivery, a reagent receipt,
+        a receiving surplus). A tank mixes what it holds, so a batch drawn from it carries its share of every lot in it;
+        the grams of each table add up exactly to its total. Certification: the lot&apos;s own marking and whether the
+        source held a certificate valid on the day the oil entered.{" "}
         {targetHref && (r.target.kind === "PRODUCT_LOT" || r.target.kind === "BATCH") ? (
           <>
             The same trace by lot is on the <Link href={targetHref}>{labelOf(r.target.kind).toLowerCase()} page</Link>.
@@ -226,15 +262,25 @@ function BackwardResult({ r, view, atLocal, timeZone }: { r: BackwardTraceReport
         ) : null}
       </Note>
       <FreshnessNote f={r.freshness} />
-      <EpcisLink params={{ dir: "back", kind: r.query.kind, code: r.query.code, at: toSiteInstant(atLocal, timeZone) }} />
+      <EpcisLink
+        params={{ dir: "back", kind: r.query.kind, code: r.query.code, at: toSiteInstant(atLocal, timeZone) }}
+      />
       <nav className="view-switch" aria-label="Trace view">
-        {view === "all" ? <span aria-current="page">All material</span> : <Link href={switchTo("all")}>All material</Link>}
-        {view === "feedstock" ? <span aria-current="page">Feedstock only</span> : <Link href={switchTo("feedstock")}>Feedstock only</Link>}
+        {view === "all" ? (
+          <span aria-current="page">All material</span>
+        ) : (
+          <Link href={switchTo("all")}>All material</Link>
+        )}
+        {view === "feedstock" ? (
+          <span aria-current="page">Feedstock only</span>
+        ) : (
+          <Link href={switchTo("feedstock")}>Feedstock only</Link>
+        )}
       </nav>
       {view === "feedstock" ? (
         <Note>
-          Feedstock only: shares renormalised over the {kg(r.feedstock.totalG, 3)} of feedstock; the {kg(r.reagentsG, 3)} of reagents
-          (methanol, catalyst, acid, process water) are listed separately below.
+          Feedstock only: shares renormalised over the {kg(r.feedstock.totalG, 3)} of feedstock; the{" "}
+          {kg(r.reagentsG, 3)} of reagents (methanol, catalyst, acid, process water) are listed separately below.
         </Note>
       ) : null}
       {r.totalG === 0 ? (
@@ -244,29 +290,70 @@ function BackwardResult({ r, view, atLocal, timeZone }: { r: BackwardTraceReport
           <h3>Graph</h3>
           {r.graph ? (
             <>
-              <TraceGraphView graph={r.graph} title={`Where the material of ${labelOf(r.target.kind).toLowerCase()} ${r.target.code} came from, by stage`} />
+              <TraceGraphView
+                graph={r.graph}
+                title={`Where the material of ${labelOf(r.target.kind).toLowerCase()} ${r.target.code} came from, by stage`}
+              />
               <Note>
-                {r.graph.note} Boxes under {r.graph.foldBelowPct} % of the total (or beyond the largest per stage) are folded into
-                &quot;others&quot;. Dashed arrows run against the stage order (recovered methanol returning to its tank).
+                {r.graph.note} Boxes under {r.graph.foldBelowPct} % of the total (or beyond the largest per stage) are
+                folded into &quot;others&quot;. Dashed arrows run against the stage order (recovered methanol returning
+                to its tank).
               </Note>
             </>
           ) : (
             <Empty>No graph for an empty trace.</Empty>
           )}
           <h3>By source</h3>
-          <ContributionTable caption={`Sources (${view === "feedstock" ? "feedstock only" : "all material"})`} first="Source" rows={t.bySource} totalG={t.totalG} columns="source" csvHref={csv("sources")} />
+          <ContributionTable
+            caption={`Sources (${view === "feedstock" ? "feedstock only" : "all material"})`}
+            first="Source"
+            rows={t.bySource}
+            totalG={t.totalG}
+            columns="source"
+            csvHref={csv("sources")}
+          />
           <h3>By feedstock lot</h3>
-          <ContributionTable caption={`Lots (${view === "feedstock" ? "feedstock only" : "all material"})`} first="Lot" rows={t.byLot} totalG={t.totalG} columns="lot" csvHref={csv("lots")} shown={30} />
+          <ContributionTable
+            caption={`Lots (${view === "feedstock" ? "feedstock only" : "all material"})`}
+            first="Lot"
+            rows={t.byLot}
+            totalG={t.totalG}
+            columns="lot"
+            csvHref={csv("lots")}
+            shown={30}
+          />
           <h3>By pickup</h3>
-          <ContributionTable caption={`Pickups (${view === "feedstock" ? "feedstock only" : "all material"})`} first="Pickup" rows={t.byPickup} totalG={t.totalG} columns="pickup" csvHref={csv("pickups")} shown={25} />
+          <ContributionTable
+            caption={`Pickups (${view === "feedstock" ? "feedstock only" : "all material"})`}
+            first="Pickup"
+            rows={t.byPickup}
+            totalG={t.totalG}
+            columns="pickup"
+            csvHref={csv("pickups")}
+            shown={25}
+          />
           <div className="two-tables">
             <div>
               <h3>By material kind</h3>
-              <ContributionTable caption="Material kinds" first="Material" rows={t.byMaterial} totalG={t.totalG} columns="plain" csvHref={csv("materials")} />
+              <ContributionTable
+                caption="Material kinds"
+                first="Material"
+                rows={t.byMaterial}
+                totalG={t.totalG}
+                columns="plain"
+                csvHref={csv("materials")}
+              />
             </div>
             <div>
               <h3>By certification</h3>
-              <ContributionTable caption="Certification" first="Status" rows={t.byCertification} totalG={t.totalG} columns="plain" csvHref={csv("certification")} />
+              <ContributionTable
+                caption="Certification"
+                first="Status"
+                rows={t.byCertification}
+                totalG={t.totalG}
+                columns="plain"
+                csvHref={csv("certification")}
+              />
             </div>
           </div>
           <h3>Reagents</h3>
@@ -287,10 +374,16 @@ function BackwardResult({ r, view, atLocal, timeZone }: { r: BackwardTraceReport
             <a href={csv("origins")} download className="csv-link">
               Download every origin as CSV
             </a>{" "}
-            <a href={`/trace/report?${new URLSearchParams(Object.entries(base).filter(([, v]) => v !== "")).toString()}&format=pdf`} download className="report-downloads">
+            <a
+              href={`/trace/report?${new URLSearchParams(Object.entries(base).filter(([, v]) => v !== "")).toString()}&format=pdf`}
+              download
+              className="report-downloads"
+            >
               Trace report (PDF)
             </a>{" "}
-            <span className="muted">({r.origins.length} origins: movement, pickup, lot, source, material, certification, grams)</span>
+            <span className="muted">
+              ({r.origins.length} origins: movement, pickup, lot, source, material, certification, grams)
+            </span>
           </p>
         </>
       )}
@@ -319,8 +412,9 @@ function ForwardResult({ r, timeZone }: { r: ForwardTraceReport; timeZone: strin
         ]}
       />
       <Note>
-        Every place that received part of this material and how much of it is still there, by replaying the ledger forward. Recovered
-        methanol carries its share of a batch into the methanol tank and on into later batches, so later batches can hold a little of it.
+        Every place that received part of this material and how much of it is still there, by replaying the ledger
+        forward. Recovered methanol carries its share of a batch into the methanol tank and on into later batches, so
+        later batches can hold a little of it.
       </Note>
       <FreshnessNote f={r.freshness} />
       <EpcisLink params={{ dir: "fwd", kind: r.query.kind, code: r.query.code }} />
@@ -369,7 +463,10 @@ function ForwardResult({ r, timeZone }: { r: ForwardTraceReport; timeZone: strin
           <h3>Graph</h3>
           {r.graph ? (
             <>
-              <TraceGraphView graph={r.graph} title={`Where the material of ${subjectWord} ${r.subject.code} went, by stage`} />
+              <TraceGraphView
+                graph={r.graph}
+                title={`Where the material of ${subjectWord} ${r.subject.code} went, by stage`}
+              />
               <Note>{r.graph.note} Small boxes are folded into &quot;others&quot; per stage.</Note>
             </>
           ) : null}
@@ -401,7 +498,12 @@ function ForwardResult({ r, timeZone }: { r: ForwardTraceReport; timeZone: strin
                     <td>{h.stageLabel}</td>
                     <td>
                       <HolderLink holder={h.holder} />
-                      {h.customer ? <> to <CustomerName customer={h.customer} /></> : null}
+                      {h.customer ? (
+                        <>
+                          {" "}
+                          to <CustomerName customer={h.customer} />
+                        </>
+                      ) : null}
                     </td>
                     <td className="nowrap">{when(h.firstAt, timeZone)}</td>
                     <td className="num">{kg(h.receivedG, 3)}</td>

@@ -66,7 +66,9 @@ function layout(graph: TraceGraph): { placed: Map<string, Placed>; columns: numb
       return w > 0 ? sum / w : Number.MAX_SAFE_INTEGER - n.grams;
     };
     const ranked = nodes.map((n) => ({ n, r: rank(n) })).sort((a, b) => a.r - b.r || b.n.grams - a.n.grams);
-    ranked.forEach(({ n }, i) => placed.set(n.id, { node: n, col, x: PAD + col * COL_W, y: TOP + i * (BOX_H + GAP_Y) }));
+    ranked.forEach(({ n }, i) =>
+      placed.set(n.id, { node: n, col, x: PAD + col * COL_W, y: TOP + i * (BOX_H + GAP_Y) }),
+    );
     rows = Math.max(rows, nodes.length);
   });
   return { placed, columns: stages, height: TOP + rows * (BOX_H + GAP_Y) + BACK_LANE };
@@ -95,41 +97,63 @@ export function TraceGraphView({ graph, title }: { graph: TraceGraph; title: str
             {graph.stages[stage] ?? ""}
           </text>
         ))}
-        {[...graph.edges].sort((a, b) => b.grams - a.grams).map((e) => {
-          const a = placed.get(e.from);
-          const b = placed.get(e.to);
-          if (a === undefined || b === undefined) return null;
-          const w = stroke(e.grams);
-          const label = `${titleOf(a.node)} → ${titleOf(b.node)}: ${kg(e.grams)} (${pct((e.grams * 100) / Math.max(1, graph.totalG), 1)})`;
-          if (a.col < b.col) {
-            const x1 = a.x + BOX_W;
-            const y1 = a.y + BOX_H / 2;
-            const x2 = b.x;
-            const y2 = b.y + BOX_H / 2;
-            const mid = (x1 + x2) / 2;
+        {[...graph.edges]
+          .sort((a, b) => b.grams - a.grams)
+          .map((e) => {
+            const a = placed.get(e.from);
+            const b = placed.get(e.to);
+            if (a === undefined || b === undefined) return null;
+            const w = stroke(e.grams);
+            const label = `${titleOf(a.node)} → ${titleOf(b.node)}: ${kg(e.grams)} (${pct((e.grams * 100) / Math.max(1, graph.totalG), 1)})`;
+            if (a.col < b.col) {
+              const x1 = a.x + BOX_W;
+              const y1 = a.y + BOX_H / 2;
+              const x2 = b.x;
+              const y2 = b.y + BOX_H / 2;
+              const mid = (x1 + x2) / 2;
+              return (
+                <path
+                  key={`${e.from}>${e.to}`}
+                  className="graph-edge"
+                  d={`M${x1},${y1} C${mid},${y1} ${mid},${y2} ${x2},${y2}`}
+                  strokeWidth={w}
+                >
+                  <title>{label}</title>
+                </path>
+              );
+            }
+            // Against the stage order (recovered methanol back to its tank): under the boxes, dashed.
+            const x1 = a.x + BOX_W / 2;
+            const x2 = b.x + BOX_W / 2;
             return (
-              <path key={`${e.from}>${e.to}`} className="graph-edge" d={`M${x1},${y1} C${mid},${y1} ${mid},${y2} ${x2},${y2}`} strokeWidth={w}>
+              <path
+                key={`${e.from}>${e.to}`}
+                className="graph-edge graph-edge-back"
+                d={`M${x1},${a.y + BOX_H} C${x1},${laneY} ${x2},${laneY} ${x2},${b.y + BOX_H}`}
+                strokeWidth={w}
+              >
                 <title>{label}</title>
               </path>
             );
-          }
-          // Against the stage order (recovered methanol back to its tank): under the boxes, dashed.
-          const x1 = a.x + BOX_W / 2;
-          const x2 = b.x + BOX_W / 2;
-          return (
-            <path key={`${e.from}>${e.to}`} className="graph-edge graph-edge-back" d={`M${x1},${a.y + BOX_H} C${x1},${laneY} ${x2},${laneY} ${x2},${b.y + BOX_H}`} strokeWidth={w}>
-              <title>{label}</title>
-            </path>
-          );
-        })}
+          })}
         {[...placed.values()].map(({ node, x, y }) => {
-          const cls = node.target ? "graph-box graph-target" : node.kind === "OTHERS" ? "graph-box graph-others" : `graph-box graph-${node.kind.toLowerCase().replace(/_/g, "-")}`;
+          const cls = node.target
+            ? "graph-box graph-target"
+            : node.kind === "OTHERS"
+              ? "graph-box graph-others"
+              : `graph-box graph-${node.kind.toLowerCase().replace(/_/g, "-")}`;
           const share = (node.grams * 100) / Math.max(1, graph.totalG);
           return (
             <g key={node.id} className={cls}>
               <title>{`${titleOf(node)}: ${kg(node.grams)} (${pct(share, 2)})${node.folded > 0 ? `, ${node.folded} holders below ${graph.foldBelowPct} % each or beyond the largest per stage` : ""}`}</title>
               <rect x={x} y={y} width={BOX_W} height={BOX_H} rx={4} />
-              <rect className="graph-share" x={x} y={y + BOX_H - 4} width={Math.max(1, (BOX_W * Math.min(100, share)) / 100)} height={4} />
+              <rect
+                className="graph-share"
+                x={x}
+                y={y + BOX_H - 4}
+                width={Math.max(1, (BOX_W * Math.min(100, share)) / 100)}
+                height={4}
+              />
               <text x={x + 7} y={y + 16}>
                 {clip(titleOf(node), 21)}
               </text>

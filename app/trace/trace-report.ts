@@ -5,7 +5,13 @@ import { reportTime } from "@/lib/report/report";
 import type { ReportContext, ReportDoc, ReportTable } from "@/lib/report/report";
 import type { BackwardTraceReport, ContributionRow } from "@/lib/trace/trace.service";
 
-function contributions(key: string, heading: string, first: string, rows: readonly ContributionRow[], totalG: number): ReportTable {
+function contributions(
+  key: string,
+  heading: string,
+  first: string,
+  rows: readonly ContributionRow[],
+  totalG: number,
+): ReportTable {
   return {
     key,
     heading,
@@ -28,7 +34,10 @@ export function buildBackwardTraceDoc(r: BackwardTraceReport, ctx: ReportContext
     slug: "made-of",
     title: "Trace report: what it is made of",
     plant: ctx.plant,
-    subject: r.basis === "STOCK" ? `${what}, what it held${r.asOf ? ` at ${reportTime(r.asOf.at, ctx.timeZone)}` : ""}` : `${what}, everything it received`,
+    subject:
+      r.basis === "STOCK"
+        ? `${what}, what it held${r.asOf ? ` at ${reportTime(r.asOf.at, ctx.timeZone)}` : ""}`
+        : `${what}, everything it received`,
     producedAt: ctx.producedAt,
     producedBy: ctx.producedBy,
     timeZone: ctx.timeZone,
@@ -39,7 +48,9 @@ export function buildBackwardTraceDoc(r: BackwardTraceReport, ctx: ReportContext
       ["Reagents", `${(r.reagentsG / 1000).toFixed(3)} kg`],
       ["Origins", String(r.origins.length)],
     ],
-    notes: ["Masses come from replaying the movement ledger under each tank's mixing model, in whole grams; each table adds up exactly to its total."],
+    notes: [
+      "Masses come from replaying the movement ledger under each tank's mixing model, in whole grams; each table adds up exactly to its total.",
+    ],
     cautions: [],
     tables: [
       contributions("sources", "By source", "Source", t.bySource, t.totalG),
@@ -47,7 +58,10 @@ export function buildBackwardTraceDoc(r: BackwardTraceReport, ctx: ReportContext
       contributions("pickups", "By pickup", "Pickup", t.byPickup, t.totalG),
       contributions("materials", "By material kind", "Material", t.byMaterial, t.totalG),
       contributions("certification", "By certification", "Status", t.byCertification, t.totalG),
-      { ...contributions("reagents", "Reagents", "Reagent lot", r.reagents, r.reagentsG), total: ["TOTAL", null, r.reagentsG, r.totalG === 0 ? 0 : (r.reagentsG * 100) / r.totalG] },
+      {
+        ...contributions("reagents", "Reagents", "Reagent lot", r.reagents, r.reagentsG),
+        total: ["TOTAL", null, r.reagentsG, r.totalG === 0 ? 0 : (r.reagentsG * 100) / r.totalG],
+      },
     ],
   };
 }

@@ -12,15 +12,25 @@ export type ContributionColumns = "lot" | "pickup" | "source" | "plain";
 
 function CodeCell({ row, columns }: { row: ContributionRow; columns: ContributionColumns }) {
   // Plain links: a trace table can have hundreds of rows, and client-side prefetching buys nothing here.
-  if (columns === "lot" && row.lotCode !== null) return <a href={`/lots/${encodeURIComponent(row.lotCode)}`}>{row.key}</a>;
-  if (columns === "source" && row.sourceCode !== null) return <a href={`/sources/${encodeURIComponent(row.sourceCode)}`}>{row.key}</a>;
-  if (columns === "pickup" && row.key.startsWith("PU-")) return <a href={`/pickups/${encodeURIComponent(row.key)}`}>{row.key}</a>;
+  if (columns === "lot" && row.lotCode !== null)
+    return <a href={`/lots/${encodeURIComponent(row.lotCode)}`}>{row.key}</a>;
+  if (columns === "source" && row.sourceCode !== null)
+    return <a href={`/sources/${encodeURIComponent(row.sourceCode)}`}>{row.key}</a>;
+  if (columns === "pickup" && row.key.startsWith("PU-"))
+    return <a href={`/pickups/${encodeURIComponent(row.key)}`}>{row.key}</a>;
   return <>{row.key}</>;
 }
 
 function CertCell({ row }: { row: ContributionRow }) {
   if (row.certification === null) return <span className="muted">—</span>;
-  const cls = row.certification === "CERTIFIED" ? "status-pass" : row.certification === "NOT_FEEDSTOCK" ? "" : row.certification === "NOT_CERTIFIED" ? "status-closed" : "status-warn";
+  const cls =
+    row.certification === "CERTIFIED"
+      ? "status-pass"
+      : row.certification === "NOT_FEEDSTOCK"
+        ? ""
+        : row.certification === "NOT_CERTIFIED"
+          ? "status-closed"
+          : "status-warn";
   return <span className={`status ${cls}`}>{CERTIFICATION_LABELS[row.certification]}</span>;
 }
 
@@ -64,7 +74,9 @@ export function ContributionTable({
             <CertCell row={r} />
           </td>
         ) : null}
-        {columns === "source" || columns === "pickup" ? <td>{r.certificate ?? <span className="muted">none</span>}</td> : null}
+        {columns === "source" || columns === "pickup" ? (
+          <td>{r.certificate ?? <span className="muted">none</span>}</td>
+        ) : null}
         <td className="num">{r.origins}</td>
         <td className="num">{kg(r.grams, 3)}</td>
         <td className="num">{pct(r.pct, 2)}</td>
@@ -91,12 +103,19 @@ export function ContributionTable({
       </tr>
     </thead>
   );
-  const span = 2 + (columns !== "plain" ? 1 : 0) + (columns === "lot" ? 1 : 0) + (columns === "pickup" ? 2 : 0) + (columns === "source" ? 1 : 0) + 1;
+  const span =
+    2 +
+    (columns !== "plain" ? 1 : 0) +
+    (columns === "lot" ? 1 : 0) +
+    (columns === "pickup" ? 2 : 0) +
+    (columns === "source" ? 1 : 0) +
+    1;
   return (
     <div className="table-wrap">
       <table>
         <caption>
-          {caption} <a href={csvHref} className="csv-link" download>
+          {caption}{" "}
+          <a href={csvHref} className="csv-link" download>
             Download CSV
           </a>
         </caption>
@@ -113,7 +132,8 @@ export function ContributionTable({
       {rest.length > 0 ? (
         <details className="more-rows">
           <summary>
-            {rest.length} more {rest.length === 1 ? "row" : "rows"} (smaller contributions){csvOnly > 0 ? `; the ${csvOnly} smallest are in the CSV only` : ""}
+            {rest.length} more {rest.length === 1 ? "row" : "rows"} (smaller contributions)
+            {csvOnly > 0 ? `; the ${csvOnly} smallest are in the CSV only` : ""}
           </summary>
           <table>
             {header}
@@ -129,8 +149,14 @@ export function FreshnessNote({ f, extra }: { f: LedgerFreshness; extra?: ReactN
   return (
     <Note>
       Computed from the ledger as of movement no. {f.lastMoveId ?? "—"} ({f.movements} movements
-      {f.reversedPairsLeftOut > 0 ? `; ${f.reversedPairsLeftOut} reversed movements left out as booking corrections` : ""}); a later booking may change it.
-      {f.order === "booked" ? ` Replayed in booking order because the dates do not replay: ${f.orderProblem ?? ""}.` : ""} {extra}
+      {f.reversedPairsLeftOut > 0
+        ? `; ${f.reversedPairsLeftOut} reversed movements left out as booking corrections`
+        : ""}
+      ); a later booking may change it.
+      {f.order === "booked"
+        ? ` Replayed in booking order because the dates do not replay: ${f.orderProblem ?? ""}.`
+        : ""}{" "}
+      {extra}
     </Note>
   );
 }

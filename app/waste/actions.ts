@@ -4,7 +4,12 @@ import { redirect } from "next/navigation";
 import { getDb } from "@/lib/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { getSiteById } from "@/lib/site/site.store";
-import { markContainerFull, openWasteContainer, recordCharacterisation, recordDisposal } from "@/lib/waste/container.service";
+import {
+  markContainerFull,
+  openWasteContainer,
+  recordCharacterisation,
+  recordDisposal,
+} from "@/lib/waste/container.service";
 import { chooseWasteRules } from "@/lib/waste/site-rules.service";
 import { toSiteInstant } from "@/app/trace/site-time";
 import { readNumber, readText, readValues, refused } from "@/app/_ui/kit/form-state";
@@ -75,7 +80,10 @@ export async function markFullAction(prev: FormState, form: FormData): Promise<F
   const who = await requireRole(["PRODUCTION", "COMPLIANCE"]);
   if (!who.ok) return refused(prev, values, who.issues, FULL_FIELDS);
   const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
-  const r = await markContainerFull(await getDb(), actor, { containerCode: readText(form, "containerCode"), fullAt: await siteInstant(actor.siteId, values.fullAt) });
+  const r = await markContainerFull(await getDb(), actor, {
+    containerCode: readText(form, "containerCode"),
+    fullAt: await siteInstant(actor.siteId, values.fullAt),
+  });
   if (!r.ok) return refused(prev, values, r.issues, FULL_FIELDS);
   revalidateWaste(r.value.code);
   return saved(prev, `Container ${r.value.code} marked full; it takes no more material and waits for the hauler.`);
@@ -96,10 +104,25 @@ export async function recordHaulAction(prev: FormState, form: FormData): Promise
   });
   if (!r.ok) return refused(prev, values, r.issues, HAUL_FIELDS);
   revalidateWaste(r.value.containerCode);
-  return saved(prev, r.value.emptied ? `Haul ${r.value.documentNo} recorded; the container is empty and marked hauled away.` : `Haul ${r.value.documentNo} recorded.`);
+  return saved(
+    prev,
+    r.value.emptied
+      ? `Haul ${r.value.documentNo} recorded; the container is empty and marked hauled away.`
+      : `Haul ${r.value.documentNo} recorded.`,
+  );
 }
 
-const RULE_FIELDS = ["choice", "generatorCategory", "tsdfDistanceMiles", "name", "hazardousMaxDays", "nonHazardousMaxDays", "satelliteExcessDays", "satelliteMaxUsGal", "reason"] as const;
+const RULE_FIELDS = [
+  "choice",
+  "generatorCategory",
+  "tsdfDistanceMiles",
+  "name",
+  "hazardousMaxDays",
+  "nonHazardousMaxDays",
+  "satelliteExcessDays",
+  "satelliteMaxUsGal",
+  "reason",
+] as const;
 
 /** An administrator or compliance officer chooses the waste rule set the site works to. */
 export async function chooseWasteRulesAction(prev: FormState, form: FormData): Promise<FormState> {

@@ -26,7 +26,10 @@ export default async function WastePage() {
   return (
     <>
       <h1>Waste</h1>
-      <p className="lede">Containers that collect glycerol phase, wash water, spent filter media and other waste streams, and the hauls that took them away.</p>
+      <p className="lede">
+        Containers that collect glycerol phase, wash water, spent filter media and other waste streams, and the hauls
+        that took them away.
+      </p>
       <p>
         <a href="/waste/due">What falls due for haul-away, by stream, with totals for the hauler</a>
       </p>
@@ -82,12 +85,15 @@ export default async function WastePage() {
                         ) : d === undefined ? (
                           <span className="muted">not assessed</span>
                         ) : d.dueDate === null ? (
-                          <span className="muted">
-                            no time limit
-                          </span>
+                          <span className="muted">no time limit</span>
                         ) : (
                           <span>
-                            {d.dueDate} {d.overdue ? <span className="status status-overdue">overdue</span> : <span className="muted">({d.daysLeft} d)</span>}
+                            {d.dueDate}{" "}
+                            {d.overdue ? (
+                              <span className="status status-overdue">overdue</span>
+                            ) : (
+                              <span className="muted">({d.daysLeft} d)</span>
+                            )}
                           </span>
                         )}
                       </td>
@@ -106,8 +112,9 @@ export default async function WastePage() {
           {due ? (
             <>
               <Note>
-                Due dates from {due.ruleSet}. {due.assumption.note} Containers marked satellite are treated as one satellite area, with
-                their volume estimated from book mass at a nominal density. {due.note} <Link href="/waste/rules">Waste rule set</Link>
+                Due dates from {due.ruleSet}. {due.assumption.note} Containers marked satellite are treated as one
+                satellite area, with their volume estimated from book mass at a nominal density. {due.note}{" "}
+                <Link href="/waste/rules">Waste rule set</Link>
               </Note>
               {due.issues.length > 0 ? (
                 <ul className="warning" aria-label="Waste warnings">
@@ -118,7 +125,9 @@ export default async function WastePage() {
               ) : null}
             </>
           ) : (
-            <Note>Due dates could not be worked out from the recorded data; days on site count from the accumulation start.</Note>
+            <Note>
+              Due dates could not be worked out from the recorded data; days on site count from the accumulation start.
+            </Note>
           )}
         </>
       )}
@@ -134,7 +143,10 @@ export default async function WastePage() {
               "Label the container with its contents and the accumulation start as your site's procedure requires.",
             ]}
           />
-          <OpenContainerForm streams={WASTE_STREAMS.map((s) => [s, labelOf(s)] as const)} nowLocal={when(now, tz).replace(" ", "T")} />
+          <OpenContainerForm
+            streams={WASTE_STREAMS.map((s) => [s, labelOf(s)] as const)}
+            nowLocal={when(now, tz).replace(" ", "T")}
+          />
         </section>
       ) : null}
 

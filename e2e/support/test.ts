@@ -11,11 +11,13 @@ interface Benign {
 export const BENIGN_CONSOLE_ERRORS: readonly Benign[] = [
   {
     pattern: /^Failed to load resource: the server responded with a status of 4\d\d\b/,
-    reason: "journeys visit refused pages and send refused or invalid requests on purpose, and assert the status themselves; Chromium logs each one",
+    reason:
+      "journeys visit refused pages and send refused or invalid requests on purpose, and assert the status themselves; Chromium logs each one",
   },
   {
     pattern: /^Failed to load resource: net::ERR_(INTERNET_DISCONNECTED|NETWORK_CHANGED|CONNECTION_REFUSED|FAILED)\b/,
-    reason: "the phone journeys take the browser offline to prove the outbox keeps entries; the failed sends are logged by Chromium",
+    reason:
+      "the phone journeys take the browser offline to prove the outbox keeps entries; the failed sends are logged by Chromium",
   },
 ];
 
@@ -44,7 +46,10 @@ export const test = base.extend<ConsoleGuardOptions>({
       await testInfo.attach("console errors", { body: unexpected.join("\n"), contentType: "text/plain" });
       return;
     }
-    expect(unexpected, "the page logged errors no journey expects (allow one in e2e/support/test.ts with its reason)").toEqual([]);
+    expect(
+      unexpected,
+      "the page logged errors no journey expects (allow one in e2e/support/test.ts with its reason)",
+    ).toEqual([]);
   },
 });
 

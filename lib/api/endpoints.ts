@@ -13,4 +13,16 @@ import { PRODUCT_ENDPOINTS } from "@/lib/api/endpoints/products";
 import { EPCIS_ENDPOINTS } from "@/lib/api/endpoints/epcis";
 import { REPORT_ENDPOINTS } from "@/lib/api/endpoints/reports";
 
-export const ENDPOINTS: EndpointDoc[] = [...LAB_ENDPOINTS, ...TRACE_ENDPOINTS, ...RECORD_ENDPOINTS, ...GRID_ENDPOINTS, ...WASTE_ENDPOINTS, ...TANK_ENDPOINTS, ...SHIPMENT_ENDPOINTS, ...SPEC_ENDPOINTS, ...PRODUCT_ENDPOINTS, ...EPCIS_ENDPOINTS, ...REPORT_ENDPOINTS];
+export const ENDPOINTS: EndpointDoc[] = [
+  ...LAB_ENDPOINTS,
+  ...TRACE_ENDPOINTS,
+  ...RECORD_ENDPOINTS,
+  ...GRID_ENDPOINTS,
+  ...WASTE_ENDPOINTS,
+  ...TANK_ENDPOINTS,
+  ...SHIPMENT_ENDPOINTS,
+  ...SPEC_ENDPOINTS,
+  ...PRODUCT_ENDPOINTS,
+  ...EPCIS_ENDPOINTS,
+  ...REPORT_ENDPOINTS,
+];

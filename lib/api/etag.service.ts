@@ -14,8 +14,22 @@ import { getLedgerPosition } from "@/lib/ledger/position.store";
 /** Private: answers depend on who asks; no-cache: the browser checks back with the tag every time. */
 const CACHE_CONTROL = "private, no-cache";
 
-export function positionEtag(position: Parameters<typeof positionTag>[0], now: Date, role: string, url: URL, variant = ""): string {
-  const address = createHash("sha256").update(`${url.pathname}?${[...url.searchParams].sort(([a], [b]) => a.localeCompare(b)).map(([k, v]) => `${k}=${v}`).join("&")}`).digest("base64url").slice(0, 16);
+export function positionEtag(
+  position: Parameters<typeof positionTag>[0],
+  now: Date,
+  role: string,
+  url: URL,
+  variant = "",
+): string {
+  const address = createHash("sha256")
+    .update(
+      `${url.pathname}?${[...url.searchParams]
+        .sort(([a], [b]) => a.localeCompare(b))
+        .map(([k, v]) => `${k}=${v}`)
+        .join("&")}`,
+    )
+    .digest("base64url")
+    .slice(0, 16);
   return `W/"${positionTag(position)}.${quarterHourOf(now)}.${role}${variant}.${address}"`;
 }
 
@@ -31,10 +45,16 @@ export function etagMatches(ifNoneMatch: string | null, tag: string): boolean {
  * position, else the computed answer with its tag. The position is read before computing, so a booking
  * that lands meanwhile only makes the tag older than the answer, and the next request recomputes.
  */
-export async function respondAtPosition<T>(request: Request, db: Db, who: { siteId: number; role: string; now: Date }, compute: () => Promise<Result<T>>): Promise<NextResponse> {
+export async function respondAtPosition<T>(
+  request: Request,
+  db: Db,
+  who: { siteId: number; role: string; now: Date },
+  compute: () => Promise<Result<T>>,
+): Promise<NextResponse> {
   const position = await getLedgerPosition(db, who.siteId);
   const tag = positionEtag(position, who.now, who.role, new URL(request.url));
-  if (etagMatches(request.headers.get("if-none-match"), tag)) return new NextResponse(null, { status: 304, headers: { etag: tag, "cache-control": CACHE_CONTROL } });
+  if (etagMatches(request.headers.get("if-none-match"), tag))
+    return new NextResponse(null, { status: 304, headers: { etag: tag, "cache-control": CACHE_CONTROL } });
   const result = await compute();
   const res = respond(result);
   if (result.ok) {
@@ -45,9 +65,16 @@ export async function respondAtPosition<T>(request: Request, db: Db, who: { site
 }
 
 /** The same check for a response built elsewhere (CSV and spreadsheet exports). */
-export async function checkEtag(request: Request, db: Db, who: { siteId: number; role: string; now: Date }, variant = ""): Promise<{ tag: string; notModified: NextResponse | null }> {
+export async function checkEtag(
+  request: Request,
+  db: Db,
+  who: { siteId: number; role: string; now: Date },
+  variant = "",
+): Promise<{ tag: string; notModified: NextResponse | null }> {
   const position = await getLedgerPosition(db, who.siteId);
   const tag = positionEtag(position, who.now, who.role, new URL(request.url), variant);
-  const notModified = etagMatches(request.headers.get("if-none-match"), tag) ? new NextResponse(null, { status: 304, headers: { etag: tag, "cache-control": CACHE_CONTROL } }) : null;
+  const notModified = etagMatches(request.headers.get("if-none-match"), tag)
+    ? new NextResponse(null, { status: 304, headers: { etag: tag, "cache-control": CACHE_CONTROL } })
+    : null;
   return { tag, notModified };
 }

@@ -21,7 +21,10 @@ export function unexpectedMessage(reference: string): string {
  * reference, and the same reference goes to the log with the route, the user id and the stack.
  * Next's own control flow (redirect, notFound, forbidden) passes through untouched.
  */
-export function handled<A extends [Request, ...unknown[]]>(route: string, fn: (...args: A) => Promise<Response>): (...args: A) => Promise<Response> {
+export function handled<A extends [Request, ...unknown[]]>(
+  route: string,
+  fn: (...args: A) => Promise<Response>,
+): (...args: A) => Promise<Response> {
   return async (...args: A): Promise<Response> => {
     try {
       return await fn(...args);
@@ -31,8 +34,14 @@ export function handled<A extends [Request, ...unknown[]]>(route: string, fn: (.
       // A read (or a write outside runInTransaction) caught by a lost connection or a held lock: retryable.
       const fault = classifyDatabaseFault(error);
       if (fault) {
-        log.warn({ reference, route, method: args[0].method, event: "database.fault", code: fault, err: error }, "a request was refused by a database fault");
-        return NextResponse.json({ ok: false, issues: [{ code: fault, message: FAULT_MESSAGES[fault], reference }] }, { status: 503, headers: { "retry-after": "2" } });
+        log.warn(
+          { reference, route, method: args[0].method, event: "database.fault", code: fault, err: error },
+          "a request was refused by a database fault",
+        );
+        return NextResponse.json(
+          { ok: false, issues: [{ code: fault, message: FAULT_MESSAGES[fault], reference }] },
+          { status: 503, headers: { "retry-after": "2" } },
+        );
       }
       let userId: number | null = null;
       try {
@@ -40,8 +49,14 @@ export function handled<A extends [Request, ...unknown[]]>(route: string, fn: (.
       } catch {
         userId = null;
       }
-      log.error({ reference, route, method: args[0].method, userId, err: error }, "unexpected error in a route handler");
-      return NextResponse.json({ ok: false, issues: [{ code: "SERVER.UNEXPECTED", message: unexpectedMessage(reference), reference }] }, { status: 500 });
+      log.error(
+        { reference, route, method: args[0].method, userId, err: error },
+        "unexpected error in a route handler",
+      );
+      return NextResponse.json(
+        { ok: false, issues: [{ code: "SERVER.UNEXPECTED", message: unexpectedMessage(reference), reference }] },
+        { status: 500 },
+      );
     }
   };
 }
@@ -50,7 +65,12 @@ export function handled<A extends [Request, ...unknown[]]>(route: string, fn: (.
  * The write route every record type shares: same-origin check, the roles allowed, a JSON body within
  * its limit, and the service run under the caller's Idempotency-Key — wrapped like every route.
  */
-export function recordingRoute<T>(route: string, roles: readonly SiteRole[], service: (db: Db, actor: Actor, input: unknown) => Promise<Result<T>>, limit = MAX_JSON_BYTES): (request: Request) => Promise<Response> {
+export function recordingRoute<T>(
+  route: string,
+  roles: readonly SiteRole[],
+  service: (db: Db, actor: Actor, input: unknown) => Promise<Result<T>>,
+  limit = MAX_JSON_BYTES,
+): (request: Request) => Promise<Response> {
   return handled(route, async (request: Request) => {
     const origin = requireSameOrigin(request);
     if (!origin.ok) return respond(origin);
@@ -59,6 +79,8 @@ export function recordingRoute<T>(route: string, roles: readonly SiteRole[], ser
     const body = await readJson(request, limit);
     if (!body.ok) return respond(body);
     const actor: Actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
-    return respond(await idempotent(request, who.value.userId, body.value, async () => service(await getDb(), actor, body.value)));
+    return respond(
+      await idempotent(request, who.value.userId, body.value, async () => service(await getDb(), actor, body.value)),
+    );
   });
 }

@@ -29,10 +29,17 @@ export function requireSameOrigin(request: Request): Result<true> {
     } catch {
       /* falls through to the refusal */
     }
-    return { ok: false, issues: [{ code: "AUTH.CROSS_SITE", message: "Refused: the request did not come from this application" }] };
+    return {
+      ok: false,
+      issues: [{ code: "AUTH.CROSS_SITE", message: "Refused: the request did not come from this application" }],
+    };
   }
   const site = request.headers.get("sec-fetch-site");
-  if (site === "cross-site" || site === "same-site") return { ok: false, issues: [{ code: "AUTH.CROSS_SITE", message: "Refused: the request did not come from this application" }] };
+  if (site === "cross-site" || site === "same-site")
+    return {
+      ok: false,
+      issues: [{ code: "AUTH.CROSS_SITE", message: "Refused: the request did not come from this application" }],
+    };
   return { ok: true, value: true };
 }
 
@@ -47,7 +54,10 @@ export function describeBytes(bytes: number): string {
 }
 
 function tooLarge(limit: number): Result<never> {
-  return { ok: false, issues: [{ code: "INPUT.TOO_LARGE", message: `The request is larger than ${describeBytes(limit)}` }] };
+  return {
+    ok: false,
+    issues: [{ code: "INPUT.TOO_LARGE", message: `The request is larger than ${describeBytes(limit)}` }],
+  };
 }
 
 /** The body as text, or null once it passes `limit` bytes (the rest is not read). */
@@ -87,7 +97,11 @@ export async function readJson(request: Request, limit = MAX_JSON_BYTES): Promis
   }
 }
 
-export async function parseBody<S extends z.ZodType>(request: Request, schema: S, limit = MAX_JSON_BYTES): Promise<Result<z.output<S>>> {
+export async function parseBody<S extends z.ZodType>(
+  request: Request,
+  schema: S,
+  limit = MAX_JSON_BYTES,
+): Promise<Result<z.output<S>>> {
   const body = await readJson(request, limit);
   return body.ok ? parseInput(schema, body.value) : body;
 }
@@ -102,10 +116,37 @@ const KEY_PATTERN = /^[A-Za-z0-9_-]{8,100}$/;
  * Runs a client's write under its Idempotency-Key header (required on data-changing API calls):
  * the key and the first answer are stored with the change; a retry gets the same answer.
  */
-export async function idempotent<T>(request: Request, userId: number, body: unknown, fn: () => Promise<Result<T>>): Promise<Result<T>> {
+export async function idempotent<T>(
+  request: Request,
+  userId: number,
+  body: unknown,
+  fn: () => Promise<Result<T>>,
+): Promise<Result<T>> {
   const key = request.headers.get("idempotency-key");
-  if (!key) return { ok: false, issues: [{ code: "IDEMPOTENCY.KEY_REQUIRED", message: "Send an Idempotency-Key header (for example a UUID) with every write", field: "Idempotency-Key" }] };
-  if (!KEY_PATTERN.test(key)) return { ok: false, issues: [{ code: "IDEMPOTENCY.KEY_INVALID", message: "Idempotency-Key: 8–100 letters, digits, - or _", field: "Idempotency-Key" }] };
-  const requestHash = createHash("sha256").update(JSON.stringify(body ?? null)).digest("hex");
+  if (!key)
+    return {
+      ok: false,
+      issues: [
+        {
+          code: "IDEMPOTENCY.KEY_REQUIRED",
+          message: "Send an Idempotency-Key header (for example a UUID) with every write",
+          field: "Idempotency-Key",
+        },
+      ],
+    };
+  if (!KEY_PATTERN.test(key))
+    return {
+      ok: false,
+      issues: [
+        {
+          code: "IDEMPOTENCY.KEY_INVALID",
+          message: "Idempotency-Key: 8–100 letters, digits, - or _",
+          field: "Idempotency-Key",
+        },
+      ],
+    };
+  const requestHash = createHash("sha256")
+    .update(JSON.stringify(body ?? null))
+    .digest("hex");
   return withIdempotencyKey({ userId, key, requestHash }, fn);
 }

@@ -74,7 +74,11 @@ const ISSUES = {
       items: {
         type: "object",
         required: ["code", "message"],
-        properties: { code: { type: "string", description: "stable code, e.g. LEDGER.OVERDRAW" }, message: { type: "string" }, field: { type: "string", description: "field path, e.g. charges.1.massKg" } },
+        properties: {
+          code: { type: "string", description: "stable code, e.g. LEDGER.OVERDRAW" },
+          message: { type: "string" },
+          field: { type: "string", description: "field path, e.g. charges.1.massKg" },
+        },
       },
     },
   },
@@ -82,9 +86,21 @@ const ISSUES = {
 
 function successContent(e: EndpointDoc): Record<string, unknown> {
   if (e.contentType === undefined) {
-    return { "application/json": { schema: { type: "object", required: ["ok", "value"], properties: { ok: { const: true }, value: e.output ? jsonSchema(e.output, "output") : {} } } } };
+    return {
+      "application/json": {
+        schema: {
+          type: "object",
+          required: ["ok", "value"],
+          properties: { ok: { const: true }, value: e.output ? jsonSchema(e.output, "output") : {} },
+        },
+      },
+    };
   }
-  const schema = e.output ? jsonSchema(e.output, "output") : e.contentType.startsWith("application/json") || e.contentType.endsWith("+json") ? {} : { type: "string", contentMediaType: e.contentType };
+  const schema = e.output
+    ? jsonSchema(e.output, "output")
+    : e.contentType.startsWith("application/json") || e.contentType.endsWith("+json")
+      ? {}
+      : { type: "string", contentMediaType: e.contentType };
   return { [e.contentType]: { schema } };
 }
 
@@ -95,16 +111,25 @@ function buildOperation(e: EndpointDoc): Record<string, unknown> {
     tags: [tagName(e.tag)],
     responses: {
       "200": { description: "Success", content: successContent(e) },
-      "4XX": { description: "Refused: every issue names its code and, where there is one, its field", content: { "application/json": { schema: ISSUES } } },
+      "4XX": {
+        description: "Refused: every issue names its code and, where there is one, its field",
+        content: { "application/json": { schema: ISSUES } },
+      },
     },
   };
-  const parameters: Array<Record<string, unknown>> = pathParameterNames(e.path).map((name) => ({ name, in: "path", required: true, schema: { type: "string" } }));
+  const parameters: Array<Record<string, unknown>> = pathParameterNames(e.path).map((name) => ({
+    name,
+    in: "path",
+    required: true,
+    schema: { type: "string" },
+  }));
   if (e.input && e.method === "post") {
     op.requestBody = { required: true, content: { "application/json": { schema: jsonSchema(e.input, "input") } } };
   }
   if (e.input && e.method === "get") {
     const schema = jsonSchema(e.input, "input") as { properties?: Record<string, unknown>; required?: string[] };
-    for (const [name, s] of Object.entries(schema.properties ?? {})) parameters.push({ name, in: "query", required: (schema.required ?? []).includes(name), schema: s });
+    for (const [name, s] of Object.entries(schema.properties ?? {}))
+      parameters.push({ name, in: "query", required: (schema.required ?? []).includes(name), schema: s });
   }
   if (parameters.length > 0) op.parameters = parameters;
   return op;
@@ -114,7 +139,10 @@ function buildOperation(e: EndpointDoc): Record<string, unknown> {
  * The OpenAPI 3.1 document. Path parameters come from the path template, operationIds from the
  * method and path unless given; a repeated operationId or method+path is a programming error.
  */
-export function buildOpenApi(endpoints: EndpointDoc[], info: { title: string; version: string; description: string }): Record<string, unknown> {
+export function buildOpenApi(
+  endpoints: EndpointDoc[],
+  info: { title: string; version: string; description: string },
+): Record<string, unknown> {
   const paths: Record<string, Record<string, unknown>> = {};
   const ids = new Set<string>();
   const tags = new Set<string>();

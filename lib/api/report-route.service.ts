@@ -36,27 +36,46 @@ export interface ReportRequest {
 
 /** A GET route that answers a report built by `build` from the request's query string. */
 export function reportRoute(name: string, build: (r: ReportRequest) => Promise<Result<ReportDoc>>) {
-  return handled(name, async (request: Request, segment?: { params: Promise<Record<string, string>> }): Promise<NextResponse> => {
-    const who = await requireReader(request);
-    if (!who.ok) return respond(who);
-    const query = Object.fromEntries(new URL(request.url).searchParams);
-    const format = parseInput(ReportFormatSchema, { format: query.format ?? "", table: query.table });
-    if (!format.ok) return respond(format);
-    const db = await getDb();
-    const site = await getSiteById(db, who.value.siteId);
-    if (site === null) return respond(fail("RECORD.NOT_FOUND", "Your site does not exist"));
-    const context: ReportContext = { plant: `${site.name}, ${site.town}`, producedAt: who.value.now, producedBy: who.value.fullName, timeZone: site.timeZone };
-    const params = segment === undefined ? {} : await segment.params;
-    const doc = await build({ db, site, user: who.value, query, params, context });
-    if (!doc.ok) return respond(doc);
-    const headers = (type: string, file: string) => ({ "content-type": type, "content-disposition": `attachment; filename="${file}"`, "cache-control": "no-store" });
-    if (format.value.format === "csv") {
-      const key = format.value.table ?? doc.value.tables[0]?.key;
-      const table = doc.value.tables.find((t) => t.key === key);
-      if (table === undefined) return respond(fail("INPUT.INVALID", `Table: one of ${doc.value.tables.map((t) => t.key).join(", ")}`, "table"));
-      return new NextResponse(reportCsv(doc.value, table), { headers: headers("text/csv; charset=utf-8; header=present", reportFileName(doc.value, "csv", table.key)) });
-    }
-    const bytes = await renderReportPdf(doc.value);
-    return new NextResponse(Buffer.from(bytes), { headers: headers("application/pdf", reportFileName(doc.value, "pdf")) });
-  });
+  return handled(
+    name,
+    async (request: Request, segment?: { params: Promise<Record<string, string>> }): Promise<NextResponse> => {
+      const who = await requireReader(request);
+      if (!who.ok) return respond(who);
+      const query = Object.fromEntries(new URL(request.url).searchParams);
+      const format = parseInput(ReportFormatSchema, { format: query.format ?? "", table: query.table });
+      if (!format.ok) return respond(format);
+      const db = await getDb();
+      const site = await getSiteById(db, who.value.siteId);
+      if (site === null) return respond(fail("RECORD.NOT_FOUND", "Your site does not exist"));
+      const context: ReportContext = {
+        plant: `${site.name}, ${site.town}`,
+        producedAt: who.value.now,
+        producedBy: who.value.fullName,
+        timeZone: site.timeZone,
+      };
+      const params = segment === undefined ? {} : await segment.params;
+      const doc = await build({ db, site, user: who.value, query, params, context });
+      if (!doc.ok) return respond(doc);
+      const headers = (type: string, file: string) => ({
+        "content-type": type,
+        "content-disposition": `attachment; filename="${file}"`,
+        "cache-control": "no-store",
+      });
+      if (format.value.format === "csv") {
+        const key = format.value.table ?? doc.value.tables[0]?.key;
+        const table = doc.value.tables.find((t) => t.key === key);
+        if (table === undefined)
+          return respond(
+            fail("INPUT.INVALID", `Table: one of ${doc.value.tables.map((t) => t.key).join(", ")}`, "table"),
+          );
+        return new NextResponse(reportCsv(doc.value, table), {
+          headers: headers("text/csv; charset=utf-8; header=present", reportFileName(doc.value, "csv", table.key)),
+        });
+      }
+      const bytes = await renderReportPdf(doc.value);
+      return new NextResponse(Buffer.from(bytes), {
+        headers: headers("application/pdf", reportFileName(doc.value, "pdf")),
+      });
+    },
+  );
 }

@@ -21,7 +21,11 @@ function json(v: unknown): string {
  * Appends one event to the site's chain inside the caller's transaction. Bumping the head row first
  * takes its row lock (PostgreSQL) / the write lock (SQLite), so concurrent writers queue instead of forking the chain.
  */
-export async function appendAudit(tx: Tx, actor: { siteId: number; userId: number; now: Date }, e: AuditEntry): Promise<void> {
+export async function appendAudit(
+  tx: Tx,
+  actor: { siteId: number; userId: number; now: Date },
+  e: AuditEntry,
+): Promise<void> {
   const head = await tx.auditHead.upsert({
     where: { siteId: actor.siteId },
     create: { siteId: actor.siteId, seq: 1, lastHash: "" },
@@ -45,7 +49,11 @@ export async function appendAudit(tx: Tx, actor: { siteId: number; userId: numbe
 }
 
 /** Appends many events in order with one head update (bulk imports); the same chain as one appendAudit per event. */
-export async function appendAuditMany(tx: Tx, actor: { siteId: number; userId: number; now: Date }, entries: readonly AuditEntry[]): Promise<void> {
+export async function appendAuditMany(
+  tx: Tx,
+  actor: { siteId: number; userId: number; now: Date },
+  entries: readonly AuditEntry[],
+): Promise<void> {
   if (entries.length === 0) return;
   const head = await tx.auditHead.upsert({
     where: { siteId: actor.siteId },
@@ -56,14 +64,43 @@ export async function appendAuditMany(tx: Tx, actor: { siteId: number; userId: n
   let seq = head.seq - entries.length;
   const rows = entries.map((e) => {
     seq += 1;
-    const fields = { siteId: actor.siteId, seq, at: actor.now, actorId: actor.userId, action: e.action, entity: e.entity, entityKey: e.entityKey, before: json(e.before), after: json(e.after), reason: e.reason ?? "" };
+    const fields = {
+      siteId: actor.siteId,
+      seq,
+      at: actor.now,
+      actorId: actor.userId,
+      action: e.action,
+      entity: e.entity,
+      entityKey: e.entityKey,
+      before: json(e.before),
+      after: json(e.after),
+      reason: e.reason ?? "",
+    };
     const hash = chainHash(prev, fields);
     const row = { ...fields, prevHash: prev, hash };
     prev = hash;
     return row;
   });
-  const columns = ["siteId", "seq", "at", "actorId", "action", "entity", "entityKey", "before", "after", "reason", "prevHash", "hash"] as const;
-  await insertRows(tx, "AuditEvent", columns, rows.map((r) => columns.map((c) => r[c])));
+  const columns = [
+    "siteId",
+    "seq",
+    "at",
+    "actorId",
+    "action",
+    "entity",
+    "entityKey",
+    "before",
+    "after",
+    "reason",
+    "prevHash",
+    "hash",
+  ] as const;
+  await insertRows(
+    tx,
+    "AuditEvent",
+    columns,
+    rows.map((r) => columns.map((c) => r[c])),
+  );
   await tx.auditHead.update({ where: { siteId: actor.siteId }, data: { lastHash: prev } });
 }
 
@@ -88,10 +125,21 @@ export interface AuditView {
 }
 
 /** Every audit event stored under one record key for the given entities, oldest first. */
-export async function listRecordHistory(db: Db, siteId: number, entity: string | readonly string[], entityKey: string): Promise<AuditView[]> {
+export async function listRecordHistory(
+  db: Db,
+  siteId: number,
+  entity: string | readonly string[],
+  entityKey: string,
+): Promise<AuditView[]> {
   const entities = typeof entity === "string" ? [entity] : [...entity];
-  const rows = await db.auditEvent.findMany({ where: { siteId, entity: { in: entities }, entityKey }, orderBy: { seq: "asc" } });
-  const users = await db.user.findMany({ where: { id: { in: [...new Set(rows.map((r) => r.actorId))] } }, select: { id: true, fullName: true, login: true } });
+  const rows = await db.auditEvent.findMany({
+    where: { siteId, entity: { in: entities }, entityKey },
+    orderBy: { seq: "asc" },
+  });
+  const users = await db.user.findMany({
+    where: { id: { in: [...new Set(rows.map((r) => r.actorId))] } },
+    select: { id: true, fullName: true, login: true },
+  });
   const actors = new Map(users.map((u) => [u.id, u]));
   return rows.map((r) => ({
     seq: r.seq,

@@ -24,7 +24,18 @@ export interface ChainedEvent extends AuditFields {
 
 /** Fixed field order, ISO time, JSON string escaping: the same bytes on every machine and database. */
 export function canonicalAudit(e: AuditFields): string {
-  return JSON.stringify([e.siteId, e.seq, e.at.toISOString(), e.actorId, e.action, e.entity, e.entityKey, e.before, e.after, e.reason]);
+  return JSON.stringify([
+    e.siteId,
+    e.seq,
+    e.at.toISOString(),
+    e.actorId,
+    e.action,
+    e.entity,
+    e.entityKey,
+    e.before,
+    e.after,
+    e.reason,
+  ]);
 }
 
 export function chainHash(prevHash: string, e: AuditFields): string {
@@ -36,9 +47,16 @@ export function verifyChain(events: readonly ChainedEvent[]): Result<{ events: n
   let prev = "";
   let expectedSeq = 1;
   for (const e of events) {
-    if (e.seq !== expectedSeq) return fail("AUDIT.CHAIN_GAP", `Audit event ${expectedSeq} is missing (found ${e.seq} next)`, "seq");
-    if (e.prevHash !== prev) return fail("AUDIT.CHAIN_BROKEN", `Audit event ${e.seq} does not link to event ${e.seq - 1}`, "prevHash");
-    if (chainHash(prev, e) !== e.hash) return fail("AUDIT.EVENT_ALTERED", `Audit event ${e.seq} (${e.entity} ${e.entityKey}) was altered after it was written`, "hash");
+    if (e.seq !== expectedSeq)
+      return fail("AUDIT.CHAIN_GAP", `Audit event ${expectedSeq} is missing (found ${e.seq} next)`, "seq");
+    if (e.prevHash !== prev)
+      return fail("AUDIT.CHAIN_BROKEN", `Audit event ${e.seq} does not link to event ${e.seq - 1}`, "prevHash");
+    if (chainHash(prev, e) !== e.hash)
+      return fail(
+        "AUDIT.EVENT_ALTERED",
+        `Audit event ${e.seq} (${e.entity} ${e.entityKey}) was altered after it was written`,
+        "hash",
+      );
     prev = e.hash;
     expectedSeq++;
   }

@@ -42,7 +42,9 @@ const UNITS: readonly Unit[] = [
 ];
 
 function unitOf(name: string): Unit | undefined {
-  return UNITS.find((u) => u.suffix.test(name) && name.replace(u.suffix, "") !== "" && /[a-z]$/.test(name.replace(u.suffix, "")));
+  return UNITS.find(
+    (u) => u.suffix.test(name) && name.replace(u.suffix, "") !== "" && /[a-z]$/.test(name.replace(u.suffix, "")),
+  );
 }
 
 function splitWords(name: string): string {

@@ -51,7 +51,8 @@ function show(v: unknown): string | null {
 /** Flattens nested objects to dotted paths so a change deep inside shows as its own line. */
 function flatten(v: unknown, prefix = "", out = new Map<string, unknown>()): Map<string, unknown> {
   if (v !== null && typeof v === "object" && !Array.isArray(v)) {
-    for (const [k, x] of Object.entries(v as Record<string, unknown>)) flatten(x, prefix === "" ? k : `${prefix}.${k}`, out);
+    for (const [k, x] of Object.entries(v as Record<string, unknown>))
+      flatten(x, prefix === "" ? k : `${prefix}.${k}`, out);
   } else if (prefix !== "") {
     out.set(prefix, v);
   } else if (v !== undefined) {

@@ -78,7 +78,8 @@ function covers(prefix: string, pathname: string): boolean {
 /** The rule for a path: the longest prefix that covers it, or null when the matrix has none. */
 export function readRuleFor(pathname: string, matrix: readonly ReadRule[] = READ_MATRIX): ReadRule | null {
   let best: ReadRule | null = null;
-  for (const rule of matrix) if (covers(rule.path, pathname) && (best === null || rule.path.length > best.path.length)) best = rule;
+  for (const rule of matrix)
+    if (covers(rule.path, pathname) && (best === null || rule.path.length > best.path.length)) best = rule;
   return best;
 }
 
@@ -94,8 +95,13 @@ export function canRead(role: SiteRole | null, pathname: string, matrix: readonl
 }
 
 /** The menu for one role: only what it may read. */
-export function menuFor(role: SiteRole, matrix: readonly ReadRule[] = READ_MATRIX): Array<{ href: string; label: string }> {
-  return matrix.filter((r) => r.menu !== undefined && r.roles !== "public" && r.roles.includes(role)).map((r) => ({ href: r.path, label: r.menu ?? r.path }));
+export function menuFor(
+  role: SiteRole,
+  matrix: readonly ReadRule[] = READ_MATRIX,
+): Array<{ href: string; label: string }> {
+  return matrix
+    .filter((r) => r.menu !== undefined && r.roles !== "public" && r.roles.includes(role))
+    .map((r) => ({ href: r.path, label: r.menu ?? r.path }));
 }
 
 /** Where a role starts: collectors at their route, everyone else on the day's overview. */

@@ -42,8 +42,13 @@ export async function getSignedIn(): Promise<SignedIn | null> {
 export async function requireRole(roles: readonly SiteRole[]): Promise<Result<SignedIn>> {
   const user = await getSignedIn();
   if (!user) return fail("AUTH.UNAUTHENTICATED", "Sign in first");
-  if (!roles.includes(user.role)) return fail("AUTH.FORBIDDEN", `This needs one of these roles: ${roles.map((r) => r.toLowerCase()).join(", ")}`);
-  if (user.mustChangePassword) return fail("AUTH.PASSWORD_CHANGE_REQUIRED", "Choose your own password first (Your settings): the one you were given is for the first sign-in only");
+  if (!roles.includes(user.role))
+    return fail("AUTH.FORBIDDEN", `This needs one of these roles: ${roles.map((r) => r.toLowerCase()).join(", ")}`);
+  if (user.mustChangePassword)
+    return fail(
+      "AUTH.PASSWORD_CHANGE_REQUIRED",
+      "Choose your own password first (Your settings): the one you were given is for the first sign-in only",
+    );
   return ok(user);
 }
 
@@ -53,7 +58,9 @@ export async function requireReader(request: Request): Promise<Result<SignedIn>>
   if (roles === "public") return requireRole(SITE_ROLES);
   if (roles.length === 0) {
     const user = await getSignedIn();
-    return user ? fail("AUTH.FORBIDDEN", "No role may read this address") : fail("AUTH.UNAUTHENTICATED", "Sign in first");
+    return user
+      ? fail("AUTH.FORBIDDEN", "No role may read this address")
+      : fail("AUTH.UNAUTHENTICATED", "Sign in first");
   }
   return requireRole(roles);
 }

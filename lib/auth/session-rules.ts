@@ -17,7 +17,10 @@ export const MAX_FAILURES_PER_LOGIN = 50;
 export const UNLOCK_ADDRESS = "administrator unlock";
 export const FAILURE_WINDOW_MS = 15 * 60_000;
 
-export function isSessionLive(s: { createdAt: Date; lastSeenAt: Date; expiresAt: Date; revokedAt: Date | null }, now: Date): boolean {
+export function isSessionLive(
+  s: { createdAt: Date; lastSeenAt: Date; expiresAt: Date; revokedAt: Date | null },
+  now: Date,
+): boolean {
   if (s.revokedAt !== null) return false;
   if (now.getTime() >= s.expiresAt.getTime()) return false;
   return now.getTime() - s.lastSeenAt.getTime() < IDLE_TIMEOUT_MS;

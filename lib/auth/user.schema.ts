@@ -10,7 +10,10 @@ const login = z
   .string({ error: "User name is required" })
   .trim()
   .toLowerCase()
-  .regex(LOGIN_PATTERN, "User name: 3 to 80 characters, lower-case letters, digits, dot, dash or underscore, starting with a letter or digit");
+  .regex(
+    LOGIN_PATTERN,
+    "User name: 3 to 80 characters, lower-case letters, digits, dot, dash or underscore, starting with a letter or digit",
+  );
 
 // OWASP ASVS 5.0 V6.2: length is the rule (no composition rules); spaces and any characters allowed.
 const password = z
@@ -18,7 +21,10 @@ const password = z
   .min(MIN_PASSWORD_LENGTH, `Password: at least ${MIN_PASSWORD_LENGTH} characters`)
   .max(MAX_PASSWORD_LENGTH, `Password: at most ${MAX_PASSWORD_LENGTH} characters`);
 
-const reason = requiredText("Reason", 300).refine((r) => r.length >= 3, "Reason: say in a few words why (at least 3 characters)");
+const reason = requiredText("Reason", 300).refine(
+  (r) => r.length >= 3,
+  "Reason: say in a few words why (at least 3 characters)",
+);
 
 export const UserCreateSchema = z.object({
   login,
@@ -38,7 +44,10 @@ export const UserChangeSchema = z
     unitSystem: oneOf("Units", ["metric", "us"] as const).optional(),
     reason,
   })
-  .refine((c) => c.role !== undefined || c.active !== undefined || c.unitSystem !== undefined, { message: "Change: choose a role, units or active state to change", path: ["role"] });
+  .refine((c) => c.role !== undefined || c.active !== undefined || c.unitSystem !== undefined, {
+    message: "Change: choose a role, units or active state to change",
+    path: ["role"],
+  });
 export type UserChangeInput = z.input<typeof UserChangeSchema>;
 
 export const PasswordResetSchema = z.object({ login, password, reason });
@@ -51,9 +60,15 @@ export const OwnUnitsSchema = z.object({ unitSystem: oneOf("Units", ["metric", "
 /** A user replacing the password an administrator gave them (or any time, from their settings). */
 export const OwnPasswordSchema = z
   .object({
-    current: z.string({ error: "Current password is required" }).min(1, "Current password is required").max(MAX_PASSWORD_LENGTH, "Current password is wrong"),
+    current: z
+      .string({ error: "Current password is required" })
+      .min(1, "Current password is required")
+      .max(MAX_PASSWORD_LENGTH, "Current password is wrong"),
     password,
     confirm: z.string({ error: "Type the new password again" }),
   })
   .refine((p) => p.password === p.confirm, { message: "The two new passwords differ", path: ["confirm"] })
-  .refine((p) => p.password !== p.current, { message: "Choose a password different from the one you were given", path: ["password"] });
+  .refine((p) => p.password !== p.current, {
+    message: "Choose a password different from the one you were given",
+    path: ["password"],
+  });

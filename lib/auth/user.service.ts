@@ -1,8 +1,22 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
 import { hashPassword, verifyPassword } from "@/lib/auth/password";
-import { OwnPasswordSchema, OwnUnitsSchema, PasswordResetSchema, RevokeSessionsSchema, UserChangeSchema, UserCreateSchema } from "@/lib/auth/user.schema";
-import { countActiveAdmins, getPasswordHash, insertAccount, requireUser, revokeAllSessions, updateUser } from "@/lib/auth/user.store";
+import {
+  OwnPasswordSchema,
+  OwnUnitsSchema,
+  PasswordResetSchema,
+  RevokeSessionsSchema,
+  UserChangeSchema,
+  UserCreateSchema,
+} from "@/lib/auth/user.schema";
+import {
+  countActiveAdmins,
+  getPasswordHash,
+  insertAccount,
+  requireUser,
+  revokeAllSessions,
+  updateUser,
+} from "@/lib/auth/user.store";
 import { recordLoginAttempt } from "@/lib/auth/session.store";
 import { UNLOCK_ADDRESS } from "@/lib/auth/session-rules";
 import type { Db } from "@/lib/database/connect";
@@ -28,7 +42,11 @@ export async function createUser(db: Db, actor: Actor, input: unknown): Promise<
   });
 }
 
-export async function changeUser(db: Db, actor: Actor, input: unknown): Promise<Result<{ login: string; sessionsEnded: number }>> {
+export async function changeUser(
+  db: Db,
+  actor: Actor,
+  input: unknown,
+): Promise<Result<{ login: string; sessionsEnded: number }>> {
   const parsed = parseInput(UserChangeSchema, input);
   if (!parsed.ok) return parsed;
   const c = parsed.value;
@@ -42,20 +60,41 @@ export async function changeUser(db: Db, actor: Actor, input: unknown): Promise<
         after[key] = c[key];
       }
     }
-    if (Object.keys(after).length === 0) reject("USER.NO_CHANGE", `Nothing to change: ${c.login} already has these settings`, "role");
+    if (Object.keys(after).length === 0)
+      reject("USER.NO_CHANGE", `Nothing to change: ${c.login} already has these settings`, "role");
     const losesAdmin = u.role === "ADMIN" && u.active && (after.role !== undefined || after.active === false);
     if (losesAdmin && (await countActiveAdmins(tx, actor.siteId)) <= 1) {
-      reject("USER.LAST_ADMIN", "The site needs at least one active administrator; make another account administrator first", after.role !== undefined ? "role" : "active");
+      reject(
+        "USER.LAST_ADMIN",
+        "The site needs at least one active administrator; make another account administrator first",
+        after.role !== undefined ? "role" : "active",
+      );
     }
-    await updateUser(tx, u.id, { ...(c.role !== undefined ? { role: c.role } : {}), ...(c.active !== undefined ? { active: c.active } : {}), ...(c.unitSystem !== undefined ? { unitSystem: c.unitSystem } : {}) });
+    await updateUser(tx, u.id, {
+      ...(c.role !== undefined ? { role: c.role } : {}),
+      ...(c.active !== undefined ? { active: c.active } : {}),
+      ...(c.unitSystem !== undefined ? { unitSystem: c.unitSystem } : {}),
+    });
     // A role change or a deactivation ends the account's sessions: the next request signs in again under the new rights.
-    const sessionsEnded = after.role !== undefined || after.active === false ? await revokeAllSessions(tx, u.id, actor.now) : 0;
-    await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: u.login, before, after: { ...after, sessionsEnded }, reason: c.reason });
+    const sessionsEnded =
+      after.role !== undefined || after.active === false ? await revokeAllSessions(tx, u.id, actor.now) : 0;
+    await appendAudit(tx, actor, {
+      action: "CHANGE",
+      entity: "User",
+      entityKey: u.login,
+      before,
+      after: { ...after, sessionsEnded },
+      reason: c.reason,
+    });
     return { login: u.login, sessionsEnded };
   });
 }
 
-export async function resetPassword(db: Db, actor: Actor, input: unknown): Promise<Result<{ login: string; sessionsEnded: number }>> {
+export async function resetPassword(
+  db: Db,
+  actor: Actor,
+  input: unknown,
+): Promise<Result<{ login: string; sessionsEnded: number }>> {
   const parsed = parseInput(PasswordResetSchema, input);
   if (!parsed.ok) return parsed;
   const passwordHash = await hashPassword(parsed.value.password);
@@ -63,18 +102,34 @@ export async function resetPassword(db: Db, actor: Actor, input: unknown): Promi
     const u = await requireUser(tx, actor.siteId, parsed.value.login);
     await updateUser(tx, u.id, { passwordHash, mustChangePassword: true });
     const sessionsEnded = await revokeAllSessions(tx, u.id, actor.now);
-    await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: u.login, after: { password: "reset", sessionsEnded }, reason: parsed.value.reason });
+    await appendAudit(tx, actor, {
+      action: "CHANGE",
+      entity: "User",
+      entityKey: u.login,
+      after: { password: "reset", sessionsEnded },
+      reason: parsed.value.reason,
+    });
     return { login: u.login, sessionsEnded };
   });
 }
 
-export async function endSessions(db: Db, actor: Actor, input: unknown): Promise<Result<{ login: string; sessionsEnded: number }>> {
+export async function endSessions(
+  db: Db,
+  actor: Actor,
+  input: unknown,
+): Promise<Result<{ login: string; sessionsEnded: number }>> {
   const parsed = parseInput(RevokeSessionsSchema, input);
   if (!parsed.ok) return parsed;
   return runInTransaction(db, async (tx) => {
     const u = await requireUser(tx, actor.siteId, parsed.value.login);
     const sessionsEnded = await revokeAllSessions(tx, u.id, actor.now);
-    await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: u.login, after: { sessionsEnded }, reason: parsed.value.reason });
+    await appendAudit(tx, actor, {
+      action: "CHANGE",
+      entity: "User",
+      entityKey: u.login,
+      after: { sessionsEnded },
+      reason: parsed.value.reason,
+    });
     return { login: u.login, sessionsEnded };
   });
 }
@@ -86,7 +141,13 @@ export async function unlockSignIn(db: Db, actor: Actor, input: unknown): Promis
   return runInTransaction(db, async (tx) => {
     const u = await requireUser(tx, actor.siteId, parsed.value.login);
     await recordLoginAttempt(tx, { login: u.login, ip: UNLOCK_ADDRESS, ok: true, at: actor.now });
-    await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: u.login, after: { signIn: "unlocked" }, reason: parsed.value.reason });
+    await appendAudit(tx, actor, {
+      action: "CHANGE",
+      entity: "User",
+      entityKey: u.login,
+      after: { signIn: "unlocked" },
+      reason: parsed.value.reason,
+    });
     return { login: u.login };
   });
 }
@@ -99,7 +160,14 @@ export async function setOwnUnits(db: Db, actor: Actor, input: unknown): Promise
     const me = await requireUser(tx, actor.siteId, { id: actor.userId });
     if (me.unitSystem !== parsed.value.unitSystem) {
       await updateUser(tx, me.id, { unitSystem: parsed.value.unitSystem });
-      await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: me.login, before: { unitSystem: me.unitSystem }, after: { unitSystem: parsed.value.unitSystem }, reason: "own preference" });
+      await appendAudit(tx, actor, {
+        action: "CHANGE",
+        entity: "User",
+        entityKey: me.login,
+        before: { unitSystem: me.unitSystem },
+        after: { unitSystem: parsed.value.unitSystem },
+        reason: "own preference",
+      });
     }
     return { unitSystem: parsed.value.unitSystem };
   });
@@ -111,11 +179,18 @@ export async function changeOwnPassword(db: Db, actor: Actor, input: unknown): P
   if (!parsed.ok) return parsed;
   const passwordHash = await hashPassword(parsed.value.password);
   const stored = await getPasswordHash(db, actor.userId);
-  if (stored === null || !(await verifyPassword(stored, parsed.value.current))) return fail("USER.WRONG_PASSWORD", "Current password is wrong", "current");
+  if (stored === null || !(await verifyPassword(stored, parsed.value.current)))
+    return fail("USER.WRONG_PASSWORD", "Current password is wrong", "current");
   return runInTransaction(db, async (tx) => {
     const me = await requireUser(tx, actor.siteId, { id: actor.userId });
     await updateUser(tx, me.id, { passwordHash, mustChangePassword: false });
-    await appendAudit(tx, actor, { action: "CHANGE", entity: "User", entityKey: me.login, after: { password: "changed by its owner" }, reason: "own password" });
+    await appendAudit(tx, actor, {
+      action: "CHANGE",
+      entity: "User",
+      entityKey: me.login,
+      after: { password: "changed by its owner" },
+      reason: "own password",
+    });
     return { login: me.login };
   });
 }

@@ -50,18 +50,41 @@ const USER_STATE = { id: true, login: true, fullName: true, role: true, unitSyst
 
 /** An account of this site by login or by id; refused naming the login field when absent. */
 export async function requireUser(tx: Tx, siteId: number, who: string | { id: number }): Promise<UserState> {
-  const u = await tx.user.findFirst({ where: { siteId, ...(typeof who === "string" ? { login: who } : { id: who.id }) }, select: USER_STATE });
-  if (!u) reject("RECORD.NOT_FOUND", typeof who === "string" ? `User ${who} does not exist on this site` : "Your account was not found on this site", "login");
+  const u = await tx.user.findFirst({
+    where: { siteId, ...(typeof who === "string" ? { login: who } : { id: who.id }) },
+    select: USER_STATE,
+  });
+  if (!u)
+    reject(
+      "RECORD.NOT_FOUND",
+      typeof who === "string" ? `User ${who} does not exist on this site` : "Your account was not found on this site",
+      "login",
+    );
   return u;
 }
 
-export async function insertAccount(tx: Tx, siteId: number, u: { login: string; fullName: string; role: string; unitSystem: string; passwordHash: string; mustChangePassword: boolean }): Promise<{ id: number; login: string }> {
+export async function insertAccount(
+  tx: Tx,
+  siteId: number,
+  u: {
+    login: string;
+    fullName: string;
+    role: string;
+    unitSystem: string;
+    passwordHash: string;
+    mustChangePassword: boolean;
+  },
+): Promise<{ id: number; login: string }> {
   const clash = await tx.user.findUnique({ where: { login: u.login }, select: { id: true } });
   if (clash) reject("RECORD.DUPLICATE", `User name ${u.login} is already taken`, "login");
   return tx.user.create({ data: { siteId, ...u }, select: { id: true, login: true } });
 }
 
-export async function updateUser(tx: Tx, id: number, data: { role?: string; active?: boolean; unitSystem?: string; passwordHash?: string; mustChangePassword?: boolean }): Promise<void> {
+export async function updateUser(
+  tx: Tx,
+  id: number,
+  data: { role?: string; active?: boolean; unitSystem?: string; passwordHash?: string; mustChangePassword?: boolean },
+): Promise<void> {
   await tx.user.update({ where: { id }, data });
 }
 

@@ -21,7 +21,10 @@ export const BatchPlanSchema = z.object({
   targetOilKg: massKg("Oil to charge"),
   molarRatio: z
     .number({ error: "Methanol : oil molar ratio must be a number" })
-    .min(MIN_MOLAR_RATIO, `Methanol : oil molar ratio must be at least ${MIN_MOLAR_RATIO}:1 (the stoichiometric minimum)`)
+    .min(
+      MIN_MOLAR_RATIO,
+      `Methanol : oil molar ratio must be at least ${MIN_MOLAR_RATIO}:1 (the stoichiometric minimum)`,
+    )
     .max(MAX_MOLAR_RATIO, `Methanol : oil molar ratio must be at most ${MAX_MOLAR_RATIO}:1`)
     .default(6),
   catalyst: oneOf("Catalyst", CATALYSTS),
@@ -37,7 +40,9 @@ const charge = z.object({
   fromCode: code("Drawn from"),
   // Water is not an ingredient: it is used at the washing step and goes to the wash-water stream, so it
   // is recorded when the batch finishes (BatchCompleteSchema), never charged to the reactor.
-  role: z.enum(["OIL", "METHANOL", "CATALYST", "ACID"], { error: "Charge: oil, methanol, catalyst or acid (water used for washing is recorded when the batch finishes)" }),
+  role: z.enum(["OIL", "METHANOL", "CATALYST", "ACID"], {
+    error: "Charge: oil, methanol, catalyst or acid (water used for washing is recorded when the batch finishes)",
+  }),
   massKg: massKg("Mass charged"),
 });
 
@@ -52,7 +57,9 @@ export type BatchStartInput = z.input<typeof BatchStartSchema>;
 const reason = text("Reason", 300);
 
 const output = z.object({
-  role: z.enum(["ESTER", "GLYCEROL_PHASE", "WASH_WATER", "RECOVERED_METHANOL", "LOSS"], { error: "Output: ester, glycerol phase, wash water, recovered methanol or recorded loss" }),
+  role: z.enum(["ESTER", "GLYCEROL_PHASE", "WASH_WATER", "RECOVERED_METHANOL", "LOSS"], {
+    error: "Output: ester, glycerol phase, wash water, recovered methanol or recorded loss",
+  }),
   /** Product lot code (ESTER), waste container code (GLYCEROL_PHASE, WASH_WATER), or tank code; none for LOSS. */
   toCode: code("Output to").optional(),
   toKind: z.enum(["PRODUCT_LOT", "WASTE_CONTAINER", "TANK"]).optional(),
@@ -78,15 +85,38 @@ export const BatchCompleteSchema = z
   .superRefine((b, ctx) => {
     b.outputs.forEach((o, i) => {
       if (o.role !== "LOSS" && (o.toCode === undefined || o.toKind === undefined)) {
-        ctx.addIssue({ code: "custom", path: ["outputs", i, "toCode"], message: "Output to: say where this output went" });
+        ctx.addIssue({
+          code: "custom",
+          path: ["outputs", i, "toCode"],
+          message: "Output to: say where this output went",
+        });
       }
       if (o.role === "LOSS" && (o.reason ?? "").length < 3) {
-        ctx.addIssue({ code: "custom", path: ["outputs", i, "reason"], message: "Reason: say what was lost and how (a spill, a leak) — at least 3 characters" });
+        ctx.addIssue({
+          code: "custom",
+          path: ["outputs", i, "reason"],
+          message: "Reason: say what was lost and how (a spill, a leak) — at least 3 characters",
+        });
       }
       const water = o.waterFromCode !== undefined || o.waterKg !== undefined;
-      if (water && o.role !== "WASH_WATER") ctx.addIssue({ code: "custom", path: ["outputs", i, "waterKg"], message: "Water used: only a wash-water output records the water used for washing" });
-      if (o.role === "WASH_WATER" && o.waterKg !== undefined && o.waterFromCode === undefined) ctx.addIssue({ code: "custom", path: ["outputs", i, "waterFromCode"], message: "Water lot: say which water lot the washing water came from" });
-      if (o.role === "WASH_WATER" && o.waterFromCode !== undefined && o.waterKg === undefined) ctx.addIssue({ code: "custom", path: ["outputs", i, "waterKg"], message: "Water used: enter the kg of water used for washing" });
+      if (water && o.role !== "WASH_WATER")
+        ctx.addIssue({
+          code: "custom",
+          path: ["outputs", i, "waterKg"],
+          message: "Water used: only a wash-water output records the water used for washing",
+        });
+      if (o.role === "WASH_WATER" && o.waterKg !== undefined && o.waterFromCode === undefined)
+        ctx.addIssue({
+          code: "custom",
+          path: ["outputs", i, "waterFromCode"],
+          message: "Water lot: say which water lot the washing water came from",
+        });
+      if (o.role === "WASH_WATER" && o.waterFromCode !== undefined && o.waterKg === undefined)
+        ctx.addIssue({
+          code: "custom",
+          path: ["outputs", i, "waterKg"],
+          message: "Water used: enter the kg of water used for washing",
+        });
     });
   });
 export type BatchCompleteInput = z.input<typeof BatchCompleteSchema>;
@@ -96,6 +126,9 @@ export const BatchOutputCorrectionSchema = z.object({
   batchCode: code("Batch number"),
   movementId: id("Output"),
   massKg: massKg("Corrected mass"),
-  reason: requiredText("Reason", 300).refine((r) => r.length >= 3, "Reason: say in a few words what was wrong (at least 3 characters)"),
+  reason: requiredText("Reason", 300).refine(
+    (r) => r.length >= 3,
+    "Reason: say in a few words what was wrong (at least 3 characters)",
+  ),
 });
 export type BatchOutputCorrectionInput = z.input<typeof BatchOutputCorrectionSchema>;

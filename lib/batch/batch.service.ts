@@ -3,8 +3,26 @@ import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db, Tx } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { parseInput } from "@/lib/ledger/parse";
-import { createHolder, getStockG, postMovement, reject, requireHolder, runInTransaction } from "@/lib/ledger/ledger.store";
-import { getBatchState, getReagentOfHolder, insertBatch, insertReagentLot, listBatchOutflows, markBatchComplete, markBatchRunning, setProductLotMadeMass, siteDifferenceHolder, sumUnmeasuredGains } from "@/lib/batch/batch.store";
+import {
+  createHolder,
+  getStockG,
+  postMovement,
+  reject,
+  requireHolder,
+  runInTransaction,
+} from "@/lib/ledger/ledger.store";
+import {
+  getBatchState,
+  getReagentOfHolder,
+  insertBatch,
+  insertReagentLot,
+  listBatchOutflows,
+  markBatchComplete,
+  markBatchRunning,
+  setProductLotMadeMass,
+  siteDifferenceHolder,
+  sumUnmeasuredGains,
+} from "@/lib/batch/batch.store";
 import type { BatchState } from "@/lib/batch/batch.store";
 import { insertProductLot } from "@/lib/product/product.store";
 import { getContainerState } from "@/lib/waste/container.store";
@@ -13,7 +31,13 @@ import type { MoveRole } from "@/lib/ledger/kinds";
 import { planUnmeasuredBooking } from "@/lib/batch/closure";
 import { markLotConsumedIfEmpty, requireDrawableHolder } from "@/lib/ledger/draw.store";
 import { siteLossHolder } from "@/lib/feedstock/lot.store";
-import { BatchCompleteSchema, BatchOutputCorrectionSchema, BatchPlanSchema, BatchStartSchema, ReagentLotSchema } from "@/lib/batch/batch.schema";
+import {
+  BatchCompleteSchema,
+  BatchOutputCorrectionSchema,
+  BatchPlanSchema,
+  BatchStartSchema,
+  ReagentLotSchema,
+} from "@/lib/batch/batch.schema";
 import type { z } from "zod";
 
 type BatchComplete = z.output<typeof BatchCompleteSchema>;
@@ -22,15 +46,37 @@ import type { Actor } from "@/lib/site/actor";
 import { getTankServiceByHolder, requireTankRoom } from "@/lib/tank/tank.store";
 
 /** Methanol, catalyst, acid or process water enters the books as a reagent lot. */
-export async function receiveReagent(db: Db, actor: Actor, input: unknown): Promise<Result<{ id: number; code: string }>> {
+export async function receiveReagent(
+  db: Db,
+  actor: Actor,
+  input: unknown,
+): Promise<Result<{ id: number; code: string }>> {
   const parsed = parseInput(ReagentLotSchema, input);
   if (!parsed.ok) return parsed;
   const r = parsed.value;
   return runInTransaction(db, async (tx) => {
     const holderId = await createHolder(tx, actor.siteId, "REAGENT_LOT", r.code);
     const massG = toGrams(r.massKg);
-    const lot = await insertReagentLot(tx, { siteId: actor.siteId, holderId, code: r.code, reagent: r.reagent, supplier: r.supplier, strengthPct: r.strengthPct, receivedAt: r.receivedAt, massG });
-    await postMovement(tx, { siteId: actor.siteId, at: r.receivedAt, role: "RECEIPT", fromHolderId: null, toHolderId: holderId, massG, recordedById: actor.userId, note: `reagent ${r.reagent} from ${r.supplier}` });
+    const lot = await insertReagentLot(tx, {
+      siteId: actor.siteId,
+      holderId,
+      code: r.code,
+      reagent: r.reagent,
+      supplier: r.supplier,
+      strengthPct: r.strengthPct,
+      receivedAt: r.receivedAt,
+      massG,
+    });
+    await postMovement(tx, {
+      siteId: actor.siteId,
+      at: r.receivedAt,
+      role: "RECEIPT",
+      fromHolderId: null,
+      toHolderId: holderId,
+      massG,
+      recordedById: actor.userId,
+      note: `reagent ${r.reagent} from ${r.supplier}`,
+    });
     await appendAudit(tx, actor, { action: "CREATE", entity: "ReagentLot", entityKey: r.code, after: { ...r, massG } });
     return lot;
   });
@@ -43,17 +89,17 @@ export async function planBatch(db: Db, actor: Actor, input: unknown): Promise<R
   return runInTransaction(db, async (tx) => {
     const holderId = await createHolder(tx, actor.siteId, "BATCH", b.code);
     const saved = await insertBatch(tx, {
-        siteId: actor.siteId,
-        holderId,
-        code: b.code,
-        pretreated: b.pretreated,
-        plannedAt: b.plannedAt,
-        targetOilG: toGrams(b.targetOilKg),
-        molarRatio: b.molarRatio,
-        catalyst: b.catalyst,
-        reactionTempC: b.reactionTempC,
-        recipeJson: JSON.stringify(b.recipe),
-        notes: b.notes,
+      siteId: actor.siteId,
+      holderId,
+      code: b.code,
+      pretreated: b.pretreated,
+      plannedAt: b.plannedAt,
+      targetOilG: toGrams(b.targetOilKg),
+      molarRatio: b.molarRatio,
+      catalyst: b.catalyst,
+      reactionTempC: b.reactionTempC,
+      recipeJson: JSON.stringify(b.recipe),
+      notes: b.notes,
     });
     await appendAudit(tx, actor, { action: "CREATE", entity: "Batch", entityKey: b.code, after: b });
     return saved;
@@ -67,32 +113,67 @@ async function requireBatch(tx: Tx, siteId: number, code: string): Promise<Batch
 }
 
 /** Records what went into the reactor; every draw is guarded against over-drawing its lot, tank or reagent. */
-export async function startBatch(db: Db, actor: Actor, input: unknown): Promise<Result<{ code: string; chargedG: number }>> {
+export async function startBatch(
+  db: Db,
+  actor: Actor,
+  input: unknown,
+): Promise<Result<{ code: string; chargedG: number }>> {
   const parsed = parseInput(BatchStartSchema, input);
   if (!parsed.ok) return parsed;
   const s = parsed.value;
   return runInTransaction(db, async (tx) => {
     const batch = await requireBatch(tx, actor.siteId, s.batchCode);
-    if (batch.status !== "PLANNED") reject("BATCH.NOT_PLANNED", `Batch ${s.batchCode} is ${batch.status.toLowerCase()}; only a planned batch can start`, "batchCode");
+    if (batch.status !== "PLANNED")
+      reject(
+        "BATCH.NOT_PLANNED",
+        `Batch ${s.batchCode} is ${batch.status.toLowerCase()}; only a planned batch can start`,
+        "batchCode",
+      );
     if (!s.charges.some((c) => c.role === "OIL")) reject("BATCH.NO_OIL", "Charges: record the oil charged", "charges");
     let chargedG = 0;
     for (const [i, c] of s.charges.entries()) {
       const field = `charges.${i}.fromCode`;
-      if (c.role === "OIL" && c.fromKind === "REAGENT_LOT") reject("BATCH.OIL_FROM_REAGENT", "Oil must come from a feedstock lot or tank", field);
-      if (c.role !== "OIL" && c.fromKind === "LOT") reject("BATCH.REAGENT_FROM_FEEDSTOCK", "Methanol, catalyst, acid and water come from reagent lots (or recovered methanol from its tank)", field);
+      if (c.role === "OIL" && c.fromKind === "REAGENT_LOT")
+        reject("BATCH.OIL_FROM_REAGENT", "Oil must come from a feedstock lot or tank", field);
+      if (c.role !== "OIL" && c.fromKind === "LOT")
+        reject(
+          "BATCH.REAGENT_FROM_FEEDSTOCK",
+          "Methanol, catalyst, acid and water come from reagent lots (or recovered methanol from its tank)",
+          field,
+        );
       const from = await requireDrawableHolder(tx, actor.siteId, c.fromKind, c.fromCode, field);
       if (c.fromKind === "TANK") {
         const service = (await getTankServiceByHolder(tx, from)) ?? "";
         const fits = c.role === "OIL" ? service === "FEEDSTOCK" : c.role === "METHANOL" && service === "METHANOL";
-        if (!fits) reject("BATCH.WRONG_TANK", `Tank ${c.fromCode} holds ${labelOf(service).toLowerCase()}, not ${labelOf(c.role).toLowerCase()}`, field);
+        if (!fits)
+          reject(
+            "BATCH.WRONG_TANK",
+            `Tank ${c.fromCode} holds ${labelOf(service).toLowerCase()}, not ${labelOf(c.role).toLowerCase()}`,
+            field,
+          );
       }
       const massG = toGrams(c.massKg);
-      await postMovement(tx, { siteId: actor.siteId, at: s.startedAt, role: c.role, fromHolderId: from, toHolderId: batch.holderId, massG, recordedById: actor.userId, field: `charges.${i}.massKg` });
+      await postMovement(tx, {
+        siteId: actor.siteId,
+        at: s.startedAt,
+        role: c.role,
+        fromHolderId: from,
+        toHolderId: batch.holderId,
+        massG,
+        recordedById: actor.userId,
+        field: `charges.${i}.massKg`,
+      });
       await markLotConsumedIfEmpty(tx, from);
       chargedG += massG;
     }
     await markBatchRunning(tx, batch.id, s.startedAt);
-    await appendAudit(tx, actor, { action: "CHANGE", entity: "Batch", entityKey: s.batchCode, before: { status: batch.status }, after: { status: "RUNNING", startedAt: s.startedAt, charges: s.charges } });
+    await appendAudit(tx, actor, {
+      action: "CHANGE",
+      entity: "Batch",
+      entityKey: s.batchCode,
+      before: { status: batch.status },
+      after: { status: "RUNNING", startedAt: s.startedAt, charges: s.charges },
+    });
     return { code: s.batchCode, chargedG };
   });
 }
@@ -100,19 +181,35 @@ export async function startBatch(db: Db, actor: Actor, input: unknown): Promise<
 type CompleteOutput = BatchComplete["outputs"][number];
 
 /** Where an output goes: a new product lot for ester, an open waste container, or a tank with room. */
-async function resolveOutputPlace(tx: Tx, actor: Actor, batch: BatchState, completedAt: Date, o: CompleteOutput, i: number, totalG: number): Promise<{ to: number; room: Room }> {
+async function resolveOutputPlace(
+  tx: Tx,
+  actor: Actor,
+  batch: BatchState,
+  completedAt: Date,
+  o: CompleteOutput,
+  i: number,
+  totalG: number,
+): Promise<{ to: number; room: Room }> {
   const field = `outputs.${i}.toCode`;
   if (o.role === "LOSS") return { to: await siteLossHolder(tx, actor.siteId), room: null };
   if (o.toKind === "PRODUCT_LOT" && o.toCode) {
     if (o.role !== "ESTER") reject("BATCH.WRONG_OUTPUT", "Only ester goes to a product lot", field);
     const to = await createHolder(tx, actor.siteId, "PRODUCT_LOT", o.toCode, field);
-    await insertProductLot(tx, { siteId: actor.siteId, holderId: to, code: o.toCode, batchId: batch.id, producedAt: completedAt, massG: toGrams(o.massKg) });
+    await insertProductLot(tx, {
+      siteId: actor.siteId,
+      holderId: to,
+      code: o.toCode,
+      batchId: batch.id,
+      producedAt: completedAt,
+      massG: toGrams(o.massKg),
+    });
     return { to, room: null };
   }
   if (o.toKind === "WASTE_CONTAINER" && o.toCode) {
     const to = (await requireHolder(tx, actor.siteId, "WASTE_CONTAINER", o.toCode, field)).id;
     const w = await getContainerState(tx, to);
-    if (w.status !== "OPEN") reject("WASTE.CONTAINER_CLOSED", `Waste container ${o.toCode} is not accepting more material`, field);
+    if (w.status !== "OPEN")
+      reject("WASTE.CONTAINER_CLOSED", `Waste container ${o.toCode} is not accepting more material`, field);
     return { to, room: null };
   }
   if (o.toKind === "TANK" && o.toCode) {
@@ -130,7 +227,11 @@ function batchShareG(o: CompleteOutput, i: number): number {
   if (o.role !== "WASH_WATER" || o.waterKg === undefined) return totalG;
   const waterG = toGrams(o.waterKg);
   if (totalG < waterG) {
-    reject("BATCH.WASH_BELOW_WATER", `Wash water drawn off (${o.massKg} kg) is less than the water used (${o.waterKg} kg): weigh or gauge it again, or correct the water used`, `outputs.${i}.massKg`);
+    reject(
+      "BATCH.WASH_BELOW_WATER",
+      `Wash water drawn off (${o.massKg} kg) is less than the water used (${o.waterKg} kg): weigh or gauge it again, or correct the water used`,
+      `outputs.${i}.massKg`,
+    );
   }
   return totalG - waterG;
 }
@@ -139,11 +240,27 @@ function batchShareG(o: CompleteOutput, i: number): number {
  * Books the batch's unmeasured difference so the reactor ends empty: whatever is still held after the
  * measured outputs goes to the site's difference account. Returns the grams booked.
  */
-async function bookUnmeasuredDifference(tx: Tx, actor: Actor, batch: BatchState, at: Date, note: string): Promise<number> {
+async function bookUnmeasuredDifference(
+  tx: Tx,
+  actor: Actor,
+  batch: BatchState,
+  at: Date,
+  note: string,
+): Promise<number> {
   const left = await getStockG(tx, batch.holderId);
   if (left <= 0) return 0;
   const sink = await siteDifferenceHolder(tx, actor.siteId);
-  await postMovement(tx, { siteId: actor.siteId, at, role: UNMEASURED_ROLE, fromHolderId: batch.holderId, toHolderId: sink, massG: left, recordedById: actor.userId, note, field: "outputs" });
+  await postMovement(tx, {
+    siteId: actor.siteId,
+    at,
+    role: UNMEASURED_ROLE,
+    fromHolderId: batch.holderId,
+    toHolderId: sink,
+    massG: left,
+    recordedById: actor.userId,
+    note,
+    field: "outputs",
+  });
   return left;
 }
 
@@ -153,18 +270,41 @@ async function bookUnmeasuredDifference(tx: Tx, actor: Actor, batch: BatchState,
  * gain booked in first). Water used for washing goes from its water lot straight to the wash-water
  * stream, never through the reactor, so it is never part of a product lot.
  */
-export async function completeBatch(db: Db, actor: Actor, input: unknown): Promise<Result<{ code: string; productLots: string[]; unmeasuredG: number }>> {
+export async function completeBatch(
+  db: Db,
+  actor: Actor,
+  input: unknown,
+): Promise<Result<{ code: string; productLots: string[]; unmeasuredG: number }>> {
   const parsed = parseInput(BatchCompleteSchema, input);
   if (!parsed.ok) return parsed;
   const c = parsed.value;
   return runInTransaction(db, async (tx) => {
     const batch = await requireBatch(tx, actor.siteId, c.batchCode);
-    if (batch.status !== "RUNNING") reject("BATCH.NOT_RUNNING", `Batch ${c.batchCode} is ${batch.status.toLowerCase()}; only a reacting batch can finish`, "batchCode");
-    if (batch.startedAt && c.completedAt < batch.startedAt) reject("BATCH.ENDS_BEFORE_START", "Finish time is before the start time", "completedAt");
+    if (batch.status !== "RUNNING")
+      reject(
+        "BATCH.NOT_RUNNING",
+        `Batch ${c.batchCode} is ${batch.status.toLowerCase()}; only a reacting batch can finish`,
+        "batchCode",
+      );
+    if (batch.startedAt && c.completedAt < batch.startedAt)
+      reject("BATCH.ENDS_BEFORE_START", "Finish time is before the start time", "completedAt");
     const shares = c.outputs.map((o, i) => batchShareG(o, i));
-    const { gainG } = planUnmeasuredBooking(await getStockG(tx, batch.holderId), shares.reduce((a, b) => a + b, 0));
+    const { gainG } = planUnmeasuredBooking(
+      await getStockG(tx, batch.holderId),
+      shares.reduce((a, b) => a + b, 0),
+    );
     if (gainG > 0) {
-      await postMovement(tx, { siteId: actor.siteId, at: c.completedAt, role: UNMEASURED_ROLE, fromHolderId: null, toHolderId: batch.holderId, massG: gainG, recordedById: actor.userId, note: "unmeasured difference: more measured out than charged", field: "outputs" });
+      await postMovement(tx, {
+        siteId: actor.siteId,
+        at: c.completedAt,
+        role: UNMEASURED_ROLE,
+        fromHolderId: null,
+        toHolderId: batch.holderId,
+        massG: gainG,
+        recordedById: actor.userId,
+        note: "unmeasured difference: more measured out than charged",
+        field: "outputs",
+      });
     }
     const productLots: string[] = [];
     for (const [i, o] of c.outputs.entries()) {
@@ -173,18 +313,54 @@ export async function completeBatch(db: Db, actor: Actor, input: unknown): Promi
       if (o.role === "WASH_WATER" && o.waterFromCode !== undefined && o.waterKg !== undefined) {
         const field = `outputs.${i}.waterFromCode`;
         const water = await requireDrawableHolder(tx, actor.siteId, "REAGENT_LOT", o.waterFromCode, field);
-        if ((await getReagentOfHolder(tx, water)) !== "WATER") reject("BATCH.NOT_WATER", `Reagent lot ${o.waterFromCode} is not water`, field);
-        await postMovement(tx, { siteId: actor.siteId, at: c.completedAt, role: "WATER", fromHolderId: water, toHolderId: to, massG: toGrams(o.waterKg), recordedById: actor.userId, note: `washing batch ${c.batchCode}`, field: `outputs.${i}.waterKg`, ...(room ? { room } : {}) });
+        if ((await getReagentOfHolder(tx, water)) !== "WATER")
+          reject("BATCH.NOT_WATER", `Reagent lot ${o.waterFromCode} is not water`, field);
+        await postMovement(tx, {
+          siteId: actor.siteId,
+          at: c.completedAt,
+          role: "WATER",
+          fromHolderId: water,
+          toHolderId: to,
+          massG: toGrams(o.waterKg),
+          recordedById: actor.userId,
+          note: `washing batch ${c.batchCode}`,
+          field: `outputs.${i}.waterKg`,
+          ...(room ? { room } : {}),
+        });
         await markLotConsumedIfEmpty(tx, water);
       }
       const massG = shares[i] ?? 0;
       if (massG === 0) continue;
       const note = o.role === "LOSS" ? `recorded loss: ${o.reason ?? ""}` : "";
-      await postMovement(tx, { siteId: actor.siteId, at: c.completedAt, role: o.role, fromHolderId: batch.holderId, toHolderId: to, massG, recordedById: actor.userId, note, field: `outputs.${i}.massKg`, ...(room ? { room } : {}) });
+      await postMovement(tx, {
+        siteId: actor.siteId,
+        at: c.completedAt,
+        role: o.role,
+        fromHolderId: batch.holderId,
+        toHolderId: to,
+        massG,
+        recordedById: actor.userId,
+        note,
+        field: `outputs.${i}.massKg`,
+        ...(room ? { room } : {}),
+      });
     }
-    const unmeasuredG = (await bookUnmeasuredDifference(tx, actor, batch, c.completedAt, "unmeasured difference: charged less everything measured out")) - gainG;
+    const unmeasuredG =
+      (await bookUnmeasuredDifference(
+        tx,
+        actor,
+        batch,
+        c.completedAt,
+        "unmeasured difference: charged less everything measured out",
+      )) - gainG;
     await markBatchComplete(tx, batch.id, c.completedAt);
-    await appendAudit(tx, actor, { action: "CHANGE", entity: "Batch", entityKey: c.batchCode, before: { status: batch.status }, after: { status: "COMPLETE", completedAt: c.completedAt, outputs: c.outputs, unmeasuredG } });
+    await appendAudit(tx, actor, {
+      action: "CHANGE",
+      entity: "Batch",
+      entityKey: c.batchCode,
+      before: { status: batch.status },
+      after: { status: "COMPLETE", completedAt: c.completedAt, outputs: c.outputs, unmeasuredG },
+    });
     return { code: c.batchCode, productLots, unmeasuredG };
   });
 }
@@ -195,33 +371,101 @@ export async function completeBatch(db: Db, actor: Actor, input: unknown): Promi
  * lib/correction), the output is booked again with the right mass at the original time, and the
  * unmeasured difference is booked afresh. Refused when the output's material has moved on since.
  */
-export async function correctBatchOutput(db: Db, actor: Actor, input: unknown): Promise<Result<{ code: string; unmeasuredG: number }>> {
+export async function correctBatchOutput(
+  db: Db,
+  actor: Actor,
+  input: unknown,
+): Promise<Result<{ code: string; unmeasuredG: number }>> {
   const parsed = parseInput(BatchOutputCorrectionSchema, input);
   if (!parsed.ok) return parsed;
   const c = parsed.value;
   return runInTransaction(db, async (tx) => {
     const batch = await requireBatch(tx, actor.siteId, c.batchCode);
-    if (batch.status !== "COMPLETE" || batch.completedAt === null) reject("BATCH.NOT_FINISHED", `Batch ${c.batchCode} is ${batch.status.toLowerCase()}; only a finished batch's outputs are corrected here`, "batchCode");
+    if (batch.status !== "COMPLETE" || batch.completedAt === null)
+      reject(
+        "BATCH.NOT_FINISHED",
+        `Batch ${c.batchCode} is ${batch.status.toLowerCase()}; only a finished batch's outputs are corrected here`,
+        "batchCode",
+      );
     const moves = await listBatchOutflows(tx, batch.holderId);
     const m = moves.find((x) => x.id === c.movementId);
-    if (!m || m.role === UNMEASURED_ROLE || m.reversesId !== null) reject("BATCH.NOT_AN_OUTPUT", `Movement ${c.movementId} is not an output of batch ${c.batchCode}`, "movementId");
-    if (m.reversedById !== null) reject("BATCH.OUTPUT_CORRECTED", `This output was already corrected (movement ${m.reversedById}); correct the new one instead`, "movementId");
+    if (!m || m.role === UNMEASURED_ROLE || m.reversesId !== null)
+      reject("BATCH.NOT_AN_OUTPUT", `Movement ${c.movementId} is not an output of batch ${c.batchCode}`, "movementId");
+    if (m.reversedById !== null)
+      reject(
+        "BATCH.OUTPUT_CORRECTED",
+        `This output was already corrected (movement ${m.reversedById}); correct the new one instead`,
+        "movementId",
+      );
     const newG = toGrams(c.massKg);
     if (newG === m.massG) reject("BATCH.SAME_MASS", "Corrected mass: this is the mass already recorded", "massKg");
-    const reverse = async (x: { id: number; at: Date; role: string; fromHolderId: number; toHolderId: number; massG: number }) =>
-      postMovement(tx, { siteId: actor.siteId, at: x.at, role: x.role as MoveRole, fromHolderId: x.toHolderId, toHolderId: x.fromHolderId, massG: x.massG, recordedById: actor.userId, reversesId: x.id, note: `Reversal of movement ${x.id}: ${c.reason}`, field: "massKg" });
-    for (const u of moves.filter((x) => x.role === UNMEASURED_ROLE && x.reversedById === null && x.reversesId === null)) await reverse(u);
+    const reverse = async (x: {
+      id: number;
+      at: Date;
+      role: string;
+      fromHolderId: number;
+      toHolderId: number;
+      massG: number;
+    }) =>
+      postMovement(tx, {
+        siteId: actor.siteId,
+        at: x.at,
+        role: x.role as MoveRole,
+        fromHolderId: x.toHolderId,
+        toHolderId: x.fromHolderId,
+        massG: x.massG,
+        recordedById: actor.userId,
+        reversesId: x.id,
+        note: `Reversal of movement ${x.id}: ${c.reason}`,
+        field: "massKg",
+      });
+    for (const u of moves.filter((x) => x.role === UNMEASURED_ROLE && x.reversedById === null && x.reversesId === null))
+      await reverse(u);
     await reverse(m);
     const { gainG } = planUnmeasuredBooking(await getStockG(tx, batch.holderId), newG);
     if (gainG > 0) {
-      await postMovement(tx, { siteId: actor.siteId, at: m.at, role: UNMEASURED_ROLE, fromHolderId: null, toHolderId: batch.holderId, massG: gainG, recordedById: actor.userId, note: `unmeasured difference after correcting movement ${m.id}`, field: "massKg" });
+      await postMovement(tx, {
+        siteId: actor.siteId,
+        at: m.at,
+        role: UNMEASURED_ROLE,
+        fromHolderId: null,
+        toHolderId: batch.holderId,
+        massG: gainG,
+        recordedById: actor.userId,
+        note: `unmeasured difference after correcting movement ${m.id}`,
+        field: "massKg",
+      });
     }
     const room = await requireTankRoom(tx, m.toHolderId, newG, "massKg");
-    await postMovement(tx, { siteId: actor.siteId, at: m.at, role: m.role as MoveRole, fromHolderId: batch.holderId, toHolderId: m.toHolderId, massG: newG, recordedById: actor.userId, note: `Corrects movement ${m.id}: ${c.reason}`, field: "massKg", ...(room ? { room } : {}) });
+    await postMovement(tx, {
+      siteId: actor.siteId,
+      at: m.at,
+      role: m.role as MoveRole,
+      fromHolderId: batch.holderId,
+      toHolderId: m.toHolderId,
+      massG: newG,
+      recordedById: actor.userId,
+      note: `Corrects movement ${m.id}: ${c.reason}`,
+      field: "massKg",
+      ...(room ? { room } : {}),
+    });
     if (m.role === "ESTER") await setProductLotMadeMass(tx, m.toHolderId, newG);
-    const booked = await bookUnmeasuredDifference(tx, actor, batch, m.at, `unmeasured difference after correcting movement ${m.id}`);
+    const booked = await bookUnmeasuredDifference(
+      tx,
+      actor,
+      batch,
+      m.at,
+      `unmeasured difference after correcting movement ${m.id}`,
+    );
     const unmeasuredG = booked - (await sumUnmeasuredGains(tx, batch.holderId));
-    await appendAudit(tx, actor, { action: "CHANGE", entity: "Batch", entityKey: c.batchCode, before: { movementId: m.id, role: m.role, massG: m.massG }, after: { massG: newG, unmeasuredG }, reason: c.reason });
+    await appendAudit(tx, actor, {
+      action: "CHANGE",
+      entity: "Batch",
+      entityKey: c.batchCode,
+      before: { movementId: m.id, role: m.role, massG: m.massG },
+      after: { massG: newG, unmeasuredG },
+      reason: c.reason,
+    });
     return { code: c.batchCode, unmeasuredG };
   });
 }

@@ -18,7 +18,10 @@ export interface BatchRow {
   productLots: string[];
 }
 
-const BATCH_INCLUDE = { holder: { select: { stockG: true } }, products: { select: { code: true }, orderBy: { code: "asc" } } } as const;
+const BATCH_INCLUDE = {
+  holder: { select: { stockG: true } },
+  products: { select: { code: true }, orderBy: { code: "asc" } },
+} as const;
 
 function toRow(r: {
   code: string;
@@ -95,7 +98,10 @@ export interface BatchDetail extends BatchRow {
 export async function getBatchDetail(db: Db, siteId: number, code: string): Promise<BatchDetail | null> {
   const r = await db.batch.findUnique({
     where: { siteId_code: { siteId, code } },
-    include: { holder: { select: { stockG: true } }, products: { select: { code: true, massG: true, status: true }, orderBy: { code: "asc" } } },
+    include: {
+      holder: { select: { stockG: true } },
+      products: { select: { code: true, massG: true, status: true }, orderBy: { code: "asc" } },
+    },
   });
   if (!r) return null;
   const moves = await listHolderMovements(db, r.holderId);
@@ -108,20 +114,46 @@ export async function getBatchDetail(db: Db, siteId: number, code: string): Prom
     takenBack: moves.incoming.filter((m) => m.reversedById !== null),
     outputs: moves.outgoing.filter((m) => m.reversesId === null && m.reversedById === null && m.role !== "UNMEASURED"),
     corrected: moves.outgoing.filter((m) => m.reversedById !== null && m.role !== "UNMEASURED"),
-    unmeasured: [...moves.incoming, ...moves.outgoing].filter((m) => m.role === "UNMEASURED" && m.reversesId === null && m.reversedById === null),
+    unmeasured: [...moves.incoming, ...moves.outgoing].filter(
+      (m) => m.role === "UNMEASURED" && m.reversesId === null && m.reversedById === null,
+    ),
     products: r.products,
   };
 }
 
 // ---- writes used by lib/batch/batch.service.ts (inside its transaction)
 
-export async function insertReagentLot(tx: Tx, r: { siteId: number; holderId: number; code: string; reagent: string; supplier: string; strengthPct: number; receivedAt: Date; massG: number }): Promise<{ id: number; code: string }> {
+export async function insertReagentLot(
+  tx: Tx,
+  r: {
+    siteId: number;
+    holderId: number;
+    code: string;
+    reagent: string;
+    supplier: string;
+    strengthPct: number;
+    receivedAt: Date;
+    massG: number;
+  },
+): Promise<{ id: number; code: string }> {
   return tx.reagentLot.create({ data: r, select: { id: true, code: true } });
 }
 
 export async function insertBatch(
   tx: Tx,
-  b: { siteId: number; holderId: number; code: string; pretreated: boolean; plannedAt: Date; targetOilG: number; molarRatio: number; catalyst: string; reactionTempC: number; recipeJson: string; notes: string },
+  b: {
+    siteId: number;
+    holderId: number;
+    code: string;
+    pretreated: boolean;
+    plannedAt: Date;
+    targetOilG: number;
+    molarRatio: number;
+    catalyst: string;
+    reactionTempC: number;
+    recipeJson: string;
+    notes: string;
+  },
 ): Promise<{ id: number; code: string }> {
   return tx.batch.create({ data: { ...b, status: "PLANNED" }, select: { id: true, code: true } });
 }
@@ -136,14 +168,21 @@ export interface BatchState {
 }
 
 export async function getBatchState(tx: Tx, siteId: number, code: string): Promise<BatchState | null> {
-  return tx.batch.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, holderId: true, status: true, plannedAt: true, startedAt: true, completedAt: true } });
+  return tx.batch.findUnique({
+    where: { siteId_code: { siteId, code } },
+    select: { id: true, holderId: true, status: true, plannedAt: true, startedAt: true, completedAt: true },
+  });
 }
 
 /** The site's account of unmeasured batch differences (one per site, created on first use). */
 export async function siteDifferenceHolder(tx: Tx, siteId: number): Promise<number> {
-  const found = await tx.holder.findUnique({ where: { siteId_kind_code: { siteId, kind: "DIFFERENCE", code: "UNMEASURED" } }, select: { id: true } });
+  const found = await tx.holder.findUnique({
+    where: { siteId_kind_code: { siteId, kind: "DIFFERENCE", code: "UNMEASURED" } },
+    select: { id: true },
+  });
   if (found) return found.id;
-  return (await tx.holder.create({ data: { siteId, kind: "DIFFERENCE", code: "UNMEASURED" }, select: { id: true } })).id;
+  return (await tx.holder.create({ data: { siteId, kind: "DIFFERENCE", code: "UNMEASURED" }, select: { id: true } }))
+    .id;
 }
 
 export async function getReagentOfHolder(tx: Tx, holderId: number): Promise<string | null> {
@@ -166,14 +205,25 @@ export async function listBatchOutflows(tx: Tx, holderId: number): Promise<Batch
   const rows = await tx.movement.findMany({
     where: { fromHolderId: holderId },
     orderBy: [{ at: "asc" }, { id: "asc" }],
-    select: { id: true, at: true, role: true, toHolderId: true, massG: true, reversesId: true, reversedBy: { select: { id: true } } },
+    select: {
+      id: true,
+      at: true,
+      role: true,
+      toHolderId: true,
+      massG: true,
+      reversesId: true,
+      reversedBy: { select: { id: true } },
+    },
   });
   return rows.map(({ reversedBy, ...r }) => ({ ...r, fromHolderId: holderId, reversedById: reversedBy?.id ?? null }));
 }
 
 /** Unmeasured gains booked into a batch (entering the books there), in grams. */
 export async function sumUnmeasuredGains(tx: Tx, holderId: number): Promise<number> {
-  const r = await tx.movement.aggregate({ where: { toHolderId: holderId, fromHolderId: null, role: "UNMEASURED" }, _sum: { massG: true } });
+  const r = await tx.movement.aggregate({
+    where: { toHolderId: holderId, fromHolderId: null, role: "UNMEASURED" },
+    _sum: { massG: true },
+  });
   return r._sum.massG ?? 0;
 }
 

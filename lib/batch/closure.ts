@@ -37,7 +37,14 @@ export function summarizeBatchClosure(flows: readonly BatchFlow[], tolerance: Cl
     else measuredG += f.massG;
   }
   const differenceG = chargedG - measuredG - recordedLossG;
-  return { chargedG, measuredG, recordedLossG, differenceG, bookedG, closure: classifyClosure(differenceG, chargedG, tolerance) };
+  return {
+    chargedG,
+    measuredG,
+    recordedLossG,
+    differenceG,
+    bookedG,
+    closure: classifyClosure(differenceG, chargedG, tolerance),
+  };
 }
 
 /**
@@ -46,5 +53,7 @@ export function summarizeBatchClosure(flows: readonly BatchFlow[], tolerance: Cl
  * unmeasured gain, booked into the batch first so the draws never over-draw it.
  */
 export function planUnmeasuredBooking(heldG: number, measuredG: number): { gainG: number; differenceG: number } {
-  return heldG >= measuredG ? { gainG: 0, differenceG: heldG - measuredG } : { gainG: measuredG - heldG, differenceG: 0 };
+  return heldG >= measuredG
+    ? { gainG: 0, differenceG: heldG - measuredG }
+    : { gainG: measuredG - heldG, differenceG: 0 };
 }

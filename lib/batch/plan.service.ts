@@ -30,7 +30,8 @@ export async function recordPlannedBatch(db: Db, actor: Actor, input: unknown): 
   const parsed = parseInput(BatchPlanRequestSchema, input);
   if (!parsed.ok) return parsed;
   const request = parsed.value;
-  if (request.code === undefined) return failMany([{ code: "INPUT.INVALID", message: "Batch number is required", field: "code" }]);
+  if (request.code === undefined)
+    return failMany([{ code: "INPUT.INVALID", message: "Batch number is required", field: "code" }]);
   const proposal = await proposeBatchPlan(db, actor, request);
   if (!proposal.ok) return proposal;
   const outcome = proposal.value.outcome;

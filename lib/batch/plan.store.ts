@@ -25,7 +25,10 @@ function makeIndexer(ledger: TraceLedger): (order: Order) => Result<LedgerIndex>
   return (order) => {
     let index = cache.get(order);
     if (index === undefined) {
-      index = indexLedger(ledger.holders, order === "dated" ? ledger.moves : ledger.moves.map((m) => ({ ...m, at: m.id })));
+      index = indexLedger(
+        ledger.holders,
+        order === "dated" ? ledger.moves : ledger.moves.map((m) => ({ ...m, at: m.id })),
+      );
       cache.set(order, index);
     }
     return index;
@@ -33,7 +36,10 @@ function makeIndexer(ledger: TraceLedger): (order: Order) => Result<LedgerIndex>
 }
 
 /** What a tank holds now, by origin: its stock composition replayed from the ledger (as the lot pages do). */
-function traceStock(indexOf: (order: Order) => Result<LedgerIndex>, holderId: number): { index: LedgerIndex; trace: HolderTrace } | null {
+function traceStock(
+  indexOf: (order: Order) => Result<LedgerIndex>,
+  holderId: number,
+): { index: LedgerIndex; trace: HolderTrace } | null {
   for (const order of ["dated", "booked"] as const) {
     const index = indexOf(order);
     if (!index.ok) continue;
@@ -113,7 +119,13 @@ export async function loadPlanStock(db: Db, siteId: number): Promise<PlanStock> 
       const l = s.lotHolderId === null ? undefined : lotOfHolder.get(s.lotHolderId);
       const key = l ? l.code : "";
       const r = l ? results.get(l.id) : undefined;
-      const share = byLot.get(key) ?? { lotCode: l?.code ?? null, grams: 0, ffaPct: ffaAsOleic(r), waterPct: r?.waterPct ?? null, receivedAt: l?.receivedAt ?? null };
+      const share = byLot.get(key) ?? {
+        lotCode: l?.code ?? null,
+        grams: 0,
+        ffaPct: ffaAsOleic(r),
+        waterPct: r?.waterPct ?? null,
+        receivedAt: l?.receivedAt ?? null,
+      };
       share.grams += s.grams;
       byLot.set(key, share);
     }
@@ -121,7 +133,10 @@ export async function loadPlanStock(db: Db, siteId: number): Promise<PlanStock> 
       code: t.code,
       name: t.name,
       stockG: t.holder.stockG,
-      contents: shares === null ? null : [...byLot.values()].sort((a, b) => b.grams - a.grams || (a.lotCode ?? "").localeCompare(b.lotCode ?? "")),
+      contents:
+        shares === null
+          ? null
+          : [...byLot.values()].sort((a, b) => b.grams - a.grams || (a.lotCode ?? "").localeCompare(b.lotCode ?? "")),
     };
   });
   return { lots: lotStock, tanks };
@@ -133,7 +148,13 @@ export async function listReagentStock(db: Db, siteId: number): Promise<ReagentS
     orderBy: [{ receivedAt: "asc" }, { id: "asc" }],
     select: { code: true, reagent: true, strengthPct: true, receivedAt: true, holder: { select: { stockG: true } } },
   });
-  return rows.map((r) => ({ code: r.code, reagent: r.reagent, strengthPct: r.strengthPct, receivedAt: r.receivedAt, stockG: r.holder.stockG }));
+  return rows.map((r) => ({
+    code: r.code,
+    reagent: r.reagent,
+    strengthPct: r.strengthPct,
+    receivedAt: r.receivedAt,
+    stockG: r.holder.stockG,
+  }));
 }
 
 export interface OutputPlace {
@@ -146,7 +167,11 @@ export interface OutputPlace {
 /** Where a batch's outputs can go: open waste containers and the tanks. */
 export async function listOutputPlaces(db: Db, siteId: number): Promise<OutputPlace[]> {
   const [waste, tanks] = await Promise.all([
-    db.wasteContainer.findMany({ where: { siteId, status: "OPEN" }, orderBy: { code: "asc" }, select: { code: true, stream: true } }),
+    db.wasteContainer.findMany({
+      where: { siteId, status: "OPEN" },
+      orderBy: { code: "asc" },
+      select: { code: true, stream: true },
+    }),
     db.tank.findMany({ where: { siteId }, orderBy: { code: "asc" }, select: { code: true, service: true } }),
   ]);
   return [

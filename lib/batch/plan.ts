@@ -69,76 +69,112 @@ export const MS_PER_DAY = 86_400_000;
 const num = (what: string, unit: string) => z.number({ error: `${what} must be a number (${unit})` });
 
 /** What a planner asks for: the batch, the blend limits, the objective and the recipe settings. */
-export const BatchPlanRequestSchema = z.object({
-  /** Needed only when the plan is recorded. */
-  code: code("Batch number").optional(),
-  plannedAt: when("Planned time").optional(),
-  targetOilKg: num("Oil to charge", "kg")
-    .positive("Oil to charge must be more than 0 kg")
-    .max(2_000_000, "Oil to charge must be at most 2,000,000 kg"),
-  maxFfaPct: num("Blend FFA limit", "%")
-    .min(0, "Blend FFA limit must be at least 0 %")
-    .max(100, "Blend FFA limit must be at most 100 %")
-    .default(DEFAULT_BLEND_LIMITS.maxFfaPct.value),
-  /** Empty: the water limit of the step the blend goes into first (see blendWaterLimit). */
-  maxWaterPct: num("Blend water limit", "%")
-    .min(0, "Blend water limit must be at least 0 %")
-    .max(100, "Blend water limit must be at most 100 %")
-    .optional(),
-  objective: z.enum(BLEND_OBJECTIVES, { error: `Objective must be one of ${BLEND_OBJECTIVES.join(", ")}` }).default("OLDEST_FIRST"),
-  minDrawKg: num("Smallest draw", "kg").positive("Smallest draw must be more than 0 kg").max(2_000_000, "Smallest draw must be at most 2,000,000 kg").optional(),
-  catalyst: oneOf("Catalyst", CATALYSTS).default("KOH"),
-  /** Purity of a solid catalyst, or strength of a methoxide solution; from the supplier's certificate. */
-  assayPct: num("Catalyst purity or strength", "%")
-    .gt(0, "Catalyst purity or strength must be more than 0 %")
-    .max(100, "Catalyst purity or strength must be at most 100 %")
-    .optional(),
-  molarRatio: num("Methanol : oil molar ratio", "mol/mol")
-    .min(MIN_MOLAR_RATIO, `Methanol : oil molar ratio must be at least ${MIN_MOLAR_RATIO}:1 (the stoichiometric minimum)`)
-    .max(MAX_MOLAR_RATIO, `Methanol : oil molar ratio must be at most ${MAX_MOLAR_RATIO}:1`)
-    .default(DEFAULT_RECIPE_SETTINGS.molarRatio.value),
-  reactionTempC: num("Reaction temperature", "°C")
-    .min(MIN_REACTION_TEMP_C, `Reaction temperature must be at least ${MIN_REACTION_TEMP_C} °C`)
-    .max(MAX_REACTION_TEMP_C, `Reaction temperature must be at most ${MAX_REACTION_TEMP_C} °C`)
-    .default(DEFAULT_RECIPE_SETTINGS.reactionTempC.value),
-  baseDosePctOfOil: num("Base catalyst dose", "% of oil")
-    .min(0, "Base catalyst dose must be at least 0 %")
-    .max(MAX_BASE_DOSE_PCT_OF_OIL, `Base catalyst dose must be at most ${MAX_BASE_DOSE_PCT_OF_OIL} % of the oil`)
-    .optional(),
-  meanTgMolarMass: num("Mean oil molar mass", "g/mol")
-    .min(MIN_TG_MOLAR_MASS, `Mean oil molar mass must be at least ${MIN_TG_MOLAR_MASS} g/mol`)
-    .max(MAX_TG_MOLAR_MASS, `Mean oil molar mass must be at most ${MAX_TG_MOLAR_MASS} g/mol`)
-    .optional(),
-  /** The lab's saponification value (AOCS Cd 3-25 / ISO 3657); the recipe turns it into the mean oil molar mass. */
-  saponificationValueMgKohG: num("Saponification value", "mg KOH/g")
-    .min(MIN_SAPONIFICATION_VALUE, `Saponification value must be at least ${MIN_SAPONIFICATION_VALUE} mg KOH/g`)
-    .max(MAX_SAPONIFICATION_VALUE, `Saponification value must be at most ${MAX_SAPONIFICATION_VALUE} mg KOH/g`)
-    .optional(),
-  washes: num("Number of washes", "washes").int("Number of washes must be a whole number").min(0, "Number of washes must be 0 or more").max(MAX_WASHES, `Number of washes must be at most ${MAX_WASHES}`).optional(),
-  waterPerWashPctOfEster: num("Water per wash", "% of ester")
-    .min(0, "Water per wash must be at least 0 %")
-    .max(MAX_WATER_PER_WASH_PCT_OF_ESTER, `Water per wash must be at most ${MAX_WATER_PER_WASH_PCT_OF_ESTER} % of the ester`)
-    .optional(),
-  acidMethanolToFfaRatio: num("Acid step methanol : FFA ratio", "mol/mol")
-    .positive("Acid step methanol : FFA ratio must be more than 0")
-    .max(MAX_METHANOL_TO_FFA_RATIO, `Acid step methanol : FFA ratio must be at most ${MAX_METHANOL_TO_FFA_RATIO}:1`)
-    .optional(),
-  acidPctOfFfa: num("Sulfuric acid dose", "% of FFA mass")
-    .min(0, "Sulfuric acid dose must be at least 0 %")
-    .max(MAX_ACID_PCT_OF_FFA, `Sulfuric acid dose must be at most ${MAX_ACID_PCT_OF_FFA} % of the FFA mass`)
-    .optional(),
-  acidPurityPct: num("Sulfuric acid assay", "%").gt(0, "Sulfuric acid assay must be more than 0 %").max(100, "Sulfuric acid assay must be at most 100 %").optional(),
-  residualFfaPct: num("FFA left after the acid step", "%").min(0, "FFA left after the acid step must be at least 0 %").max(100, "FFA left after the acid step must be at most 100 %").optional(),
-  defaultCostPerKg: num("Default cost", "per kg").min(0, "Default cost must be 0 or more per kg").max(MAX_COST_PER_KG, `Default cost must be at most ${MAX_COST_PER_KG} per kg`).default(DEFAULT_COST_PER_KG.value),
-  /** Cost per kg by candidate reference (e.g. "lot:L-0191"). */
-  costs: z.record(z.string(), num("Cost", "per kg").min(0, "Cost must be 0 or more per kg").max(MAX_COST_PER_KG, `Cost must be at most ${MAX_COST_PER_KG} per kg`)).default({}),
-  /** Candidate references the planner leaves out. */
-  exclude: z.array(z.string()).max(MAX_BLEND_CANDIDATES * 5, "Too many left-out candidates").default([]),
-  notes: text("Notes", 1000).default(""),
-}).refine((r) => r.meanTgMolarMass === undefined || r.saponificationValueMgKohG === undefined, {
-  message: "Give either the mean oil molar mass or the saponification value, not both",
-  path: ["saponificationValueMgKohG"],
-});
+export const BatchPlanRequestSchema = z
+  .object({
+    /** Needed only when the plan is recorded. */
+    code: code("Batch number").optional(),
+    plannedAt: when("Planned time").optional(),
+    targetOilKg: num("Oil to charge", "kg")
+      .positive("Oil to charge must be more than 0 kg")
+      .max(2_000_000, "Oil to charge must be at most 2,000,000 kg"),
+    maxFfaPct: num("Blend FFA limit", "%")
+      .min(0, "Blend FFA limit must be at least 0 %")
+      .max(100, "Blend FFA limit must be at most 100 %")
+      .default(DEFAULT_BLEND_LIMITS.maxFfaPct.value),
+    /** Empty: the water limit of the step the blend goes into first (see blendWaterLimit). */
+    maxWaterPct: num("Blend water limit", "%")
+      .min(0, "Blend water limit must be at least 0 %")
+      .max(100, "Blend water limit must be at most 100 %")
+      .optional(),
+    objective: z
+      .enum(BLEND_OBJECTIVES, { error: `Objective must be one of ${BLEND_OBJECTIVES.join(", ")}` })
+      .default("OLDEST_FIRST"),
+    minDrawKg: num("Smallest draw", "kg")
+      .positive("Smallest draw must be more than 0 kg")
+      .max(2_000_000, "Smallest draw must be at most 2,000,000 kg")
+      .optional(),
+    catalyst: oneOf("Catalyst", CATALYSTS).default("KOH"),
+    /** Purity of a solid catalyst, or strength of a methoxide solution; from the supplier's certificate. */
+    assayPct: num("Catalyst purity or strength", "%")
+      .gt(0, "Catalyst purity or strength must be more than 0 %")
+      .max(100, "Catalyst purity or strength must be at most 100 %")
+      .optional(),
+    molarRatio: num("Methanol : oil molar ratio", "mol/mol")
+      .min(
+        MIN_MOLAR_RATIO,
+        `Methanol : oil molar ratio must be at least ${MIN_MOLAR_RATIO}:1 (the stoichiometric minimum)`,
+      )
+      .max(MAX_MOLAR_RATIO, `Methanol : oil molar ratio must be at most ${MAX_MOLAR_RATIO}:1`)
+      .default(DEFAULT_RECIPE_SETTINGS.molarRatio.value),
+    reactionTempC: num("Reaction temperature", "°C")
+      .min(MIN_REACTION_TEMP_C, `Reaction temperature must be at least ${MIN_REACTION_TEMP_C} °C`)
+      .max(MAX_REACTION_TEMP_C, `Reaction temperature must be at most ${MAX_REACTION_TEMP_C} °C`)
+      .default(DEFAULT_RECIPE_SETTINGS.reactionTempC.value),
+    baseDosePctOfOil: num("Base catalyst dose", "% of oil")
+      .min(0, "Base catalyst dose must be at least 0 %")
+      .max(MAX_BASE_DOSE_PCT_OF_OIL, `Base catalyst dose must be at most ${MAX_BASE_DOSE_PCT_OF_OIL} % of the oil`)
+      .optional(),
+    meanTgMolarMass: num("Mean oil molar mass", "g/mol")
+      .min(MIN_TG_MOLAR_MASS, `Mean oil molar mass must be at least ${MIN_TG_MOLAR_MASS} g/mol`)
+      .max(MAX_TG_MOLAR_MASS, `Mean oil molar mass must be at most ${MAX_TG_MOLAR_MASS} g/mol`)
+      .optional(),
+    /** The lab's saponification value (AOCS Cd 3-25 / ISO 3657); the recipe turns it into the mean oil molar mass. */
+    saponificationValueMgKohG: num("Saponification value", "mg KOH/g")
+      .min(MIN_SAPONIFICATION_VALUE, `Saponification value must be at least ${MIN_SAPONIFICATION_VALUE} mg KOH/g`)
+      .max(MAX_SAPONIFICATION_VALUE, `Saponification value must be at most ${MAX_SAPONIFICATION_VALUE} mg KOH/g`)
+      .optional(),
+    washes: num("Number of washes", "washes")
+      .int("Number of washes must be a whole number")
+      .min(0, "Number of washes must be 0 or more")
+      .max(MAX_WASHES, `Number of washes must be at most ${MAX_WASHES}`)
+      .optional(),
+    waterPerWashPctOfEster: num("Water per wash", "% of ester")
+      .min(0, "Water per wash must be at least 0 %")
+      .max(
+        MAX_WATER_PER_WASH_PCT_OF_ESTER,
+        `Water per wash must be at most ${MAX_WATER_PER_WASH_PCT_OF_ESTER} % of the ester`,
+      )
+      .optional(),
+    acidMethanolToFfaRatio: num("Acid step methanol : FFA ratio", "mol/mol")
+      .positive("Acid step methanol : FFA ratio must be more than 0")
+      .max(MAX_METHANOL_TO_FFA_RATIO, `Acid step methanol : FFA ratio must be at most ${MAX_METHANOL_TO_FFA_RATIO}:1`)
+      .optional(),
+    acidPctOfFfa: num("Sulfuric acid dose", "% of FFA mass")
+      .min(0, "Sulfuric acid dose must be at least 0 %")
+      .max(MAX_ACID_PCT_OF_FFA, `Sulfuric acid dose must be at most ${MAX_ACID_PCT_OF_FFA} % of the FFA mass`)
+      .optional(),
+    acidPurityPct: num("Sulfuric acid assay", "%")
+      .gt(0, "Sulfuric acid assay must be more than 0 %")
+      .max(100, "Sulfuric acid assay must be at most 100 %")
+      .optional(),
+    residualFfaPct: num("FFA left after the acid step", "%")
+      .min(0, "FFA left after the acid step must be at least 0 %")
+      .max(100, "FFA left after the acid step must be at most 100 %")
+      .optional(),
+    defaultCostPerKg: num("Default cost", "per kg")
+      .min(0, "Default cost must be 0 or more per kg")
+      .max(MAX_COST_PER_KG, `Default cost must be at most ${MAX_COST_PER_KG} per kg`)
+      .default(DEFAULT_COST_PER_KG.value),
+    /** Cost per kg by candidate reference (e.g. "lot:L-0191"). */
+    costs: z
+      .record(
+        z.string(),
+        num("Cost", "per kg")
+          .min(0, "Cost must be 0 or more per kg")
+          .max(MAX_COST_PER_KG, `Cost must be at most ${MAX_COST_PER_KG} per kg`),
+      )
+      .default({}),
+    /** Candidate references the planner leaves out. */
+    exclude: z
+      .array(z.string())
+      .max(MAX_BLEND_CANDIDATES * 5, "Too many left-out candidates")
+      .default([]),
+    notes: text("Notes", 1000).default(""),
+  })
+  .refine((r) => r.meanTgMolarMass === undefined || r.saponificationValueMgKohG === undefined, {
+    message: "Give either the mean oil molar mass or the saponification value, not both",
+    path: ["saponificationValueMgKohG"],
+  });
 export type BatchPlanRequestInput = z.input<typeof BatchPlanRequestSchema>;
 export type BatchPlanRequest = z.output<typeof BatchPlanRequestSchema>;
 
@@ -195,7 +231,10 @@ export interface ContentQuality {
   ageDays: number | null;
 }
 
-function weightedMean(parts: ReadonlyArray<{ grams: number; value: number | null }>): { mean: number | null; coveredG: number } {
+function weightedMean(parts: ReadonlyArray<{ grams: number; value: number | null }>): {
+  mean: number | null;
+  coveredG: number;
+} {
   let coveredG = 0;
   let sum = 0;
   for (const p of parts) {
@@ -212,10 +251,19 @@ export function summariseContents(contents: readonly TankShare[], now: Date): Co
   const ffa = weightedMean(contents.map((c) => ({ grams: c.grams, value: c.ffaPct })));
   const water = weightedMean(contents.map((c) => ({ grams: c.grams, value: c.waterPct })));
   const age = weightedMean(
-    contents.map((c) => ({ grams: c.grams, value: c.receivedAt === null ? null : Math.max(0, (now.getTime() - c.receivedAt.getTime()) / MS_PER_DAY) })),
+    contents.map((c) => ({
+      grams: c.grams,
+      value: c.receivedAt === null ? null : Math.max(0, (now.getTime() - c.receivedAt.getTime()) / MS_PER_DAY),
+    })),
   );
   const share = (g: number) => (totalG > 0 ? (g * 100) / totalG : 0);
-  return { ffaPct: ffa.mean, waterPct: water.mean, ffaCoveredPct: share(ffa.coveredG), waterCoveredPct: share(water.coveredG), ageDays: age.mean };
+  return {
+    ffaPct: ffa.mean,
+    waterPct: water.mean,
+    ffaCoveredPct: share(ffa.coveredG),
+    waterCoveredPct: share(water.coveredG),
+    ageDays: age.mean,
+  };
 }
 
 export type CandidateKind = "LOT" | "TANK";
@@ -249,7 +297,11 @@ export function parseCandidateRef(ref: string): { kind: CandidateKind; code: str
 }
 
 /** Accepted lots with stock and feedstock tanks, with the quality the optimiser blends on. */
-export function buildCandidates(stock: PlanStock, request: Pick<BatchPlanRequest, "costs" | "defaultCostPerKg" | "exclude">, now: Date): PlanCandidate[] {
+export function buildCandidates(
+  stock: PlanStock,
+  request: Pick<BatchPlanRequest, "costs" | "defaultCostPerKg" | "exclude">,
+  now: Date,
+): PlanCandidate[] {
   const excluded = new Set(request.exclude);
   const costOf = (ref: string) => request.costs[ref] ?? request.defaultCostPerKg;
   const out: PlanCandidate[] = [];
@@ -268,7 +320,13 @@ export function buildCandidates(stock: PlanStock, request: Pick<BatchPlanRequest
       waterCoveredPct: lot.waterPct === null ? 0 : 100,
       ageDays: Math.max(0, (now.getTime() - lot.receivedAt.getTime()) / MS_PER_DAY),
       costPerKg: costOf(ref),
-      leftOutBecause: excluded.has(ref) ? "left out by the planner" : lot.ffaPct === null ? "no FFA result" : lot.waterPct === null ? "no water result" : null,
+      leftOutBecause: excluded.has(ref)
+        ? "left out by the planner"
+        : lot.ffaPct === null
+          ? "no FFA result"
+          : lot.waterPct === null
+            ? "no water result"
+            : null,
     });
   }
   for (const tank of stock.tanks) {
@@ -306,7 +364,10 @@ export function buildCandidates(stock: PlanStock, request: Pick<BatchPlanRequest
  * first — the base step when the FFA limit keeps every blend below the acid-pretreatment threshold, the
  * acid step otherwise. The recipe and pretreatment warnings use the same two settings.
  */
-export function blendWaterLimit(request: Pick<BatchPlanRequest, "maxWaterPct" | "maxFfaPct">): { value: number; step: "BASE_STEP" | "ACID_STEP" | null } {
+export function blendWaterLimit(request: Pick<BatchPlanRequest, "maxWaterPct" | "maxFfaPct">): {
+  value: number;
+  step: "BASE_STEP" | "ACID_STEP" | null;
+} {
   if (request.maxWaterPct !== undefined) return { value: request.maxWaterPct, step: null };
   const step = request.maxFfaPct < DEFAULT_RECIPE_LIMITS.baseCatalysisMaxFfaPct.value ? "BASE_STEP" : "ACID_STEP";
   return { value: WATER_LIMIT_BY_STEP[step].value, step };
@@ -315,9 +376,14 @@ export function blendWaterLimit(request: Pick<BatchPlanRequest, "maxWaterPct" | 
 export function toBlendRequest(request: BatchPlanRequest, candidates: readonly PlanCandidate[]): BlendRequest {
   const usable = candidates.filter((c) => c.leftOutBecause === null && c.ffaPct !== null && c.waterPct !== null);
   return {
-    candidates: usable.map(
-      (c): BlendCandidate => ({ ref: c.ref, availableKg: c.availableG / 1000, ffaPct: c.ffaPct ?? 0, waterPct: c.waterPct ?? 0, costPerKg: c.costPerKg, ageDays: c.ageDays }),
-    ),
+    candidates: usable.map((c): BlendCandidate => ({
+      ref: c.ref,
+      availableKg: c.availableG / 1000,
+      ffaPct: c.ffaPct ?? 0,
+      waterPct: c.waterPct ?? 0,
+      costPerKg: c.costPerKg,
+      ageDays: c.ageDays,
+    })),
     targetKg: request.targetOilKg,
     limits: { maxFfaPct: request.maxFfaPct, maxWaterPct: blendWaterLimit(request).value },
     objective: request.objective,
@@ -333,7 +399,11 @@ export interface CatalystAssay {
 }
 
 /** A reagent's purity (or methoxide strength): as entered, else the newest reagent lot of it in stock. */
-export function pickAssay(reagent: string, entered: number | undefined, reagents: readonly ReagentStock[]): CatalystAssay | null {
+export function pickAssay(
+  reagent: string,
+  entered: number | undefined,
+  reagents: readonly ReagentStock[],
+): CatalystAssay | null {
   if (entered !== undefined) return { pct: entered, source: "entered by the planner" };
   const newest = reagents
     .filter((r) => r.reagent === reagent && r.stockG > 0)
@@ -356,10 +426,13 @@ export function toPretreatmentInput(
       ? undefined
       : {
           washes: request.washes ?? DEFAULT_RECIPE_SETTINGS.washes.value,
-          waterPerWashPctOfEster: request.waterPerWashPctOfEster ?? DEFAULT_RECIPE_SETTINGS.waterPerWashPctOfEster.value,
+          waterPerWashPctOfEster:
+            request.waterPerWashPctOfEster ?? DEFAULT_RECIPE_SETTINGS.waterPerWashPctOfEster.value,
         };
   const acidStep = {
-    ...(request.acidMethanolToFfaRatio === undefined ? {} : { methanolToFfaMolarRatio: request.acidMethanolToFfaRatio }),
+    ...(request.acidMethanolToFfaRatio === undefined
+      ? {}
+      : { methanolToFfaMolarRatio: request.acidMethanolToFfaRatio }),
     ...(request.acidPctOfFfa === undefined ? {} : { acidPctOfFfa: request.acidPctOfFfa }),
     ...(acidAssay === null ? {} : { acidPurityPct: acidAssay.pct }),
     ...(request.residualFfaPct === undefined ? {} : { residualFfaPct: request.residualFfaPct }),
@@ -376,7 +449,9 @@ export function toPretreatmentInput(
       ...(assay === null ? {} : solid ? { purityPct: assay.pct } : { solutionStrengthPct: assay.pct }),
       ...(request.baseDosePctOfOil === undefined ? {} : { baseDosePctOfOil: request.baseDosePctOfOil }),
       ...(request.meanTgMolarMass === undefined ? {} : { meanTgMolarMass: request.meanTgMolarMass }),
-      ...(request.saponificationValueMgKohG === undefined ? {} : { saponificationValueMgKohG: request.saponificationValueMgKohG }),
+      ...(request.saponificationValueMgKohG === undefined
+        ? {}
+        : { saponificationValueMgKohG: request.saponificationValueMgKohG }),
       ...(washPractice === undefined ? {} : { washPractice }),
     },
     ...(Object.keys(acidStep).length === 0 ? {} : { acidStep }),
@@ -475,7 +550,15 @@ export interface RecipeCard {
   code: string | null;
   objective: BlendObjective;
   draws: CardDraw[];
-  blend: { massG: number; ffaPct: number; waterPct: number; maxFfaPct: number; maxWaterPct: number; costTotal: number | null; meanAgeDays: number };
+  blend: {
+    massG: number;
+    ffaPct: number;
+    waterPct: number;
+    maxFfaPct: number;
+    maxWaterPct: number;
+    costTotal: number | null;
+    meanAgeDays: number;
+  };
   route: { route: PretreatmentRoute; reason: string };
   acidStep: null | {
     feedKg: number;
@@ -515,7 +598,14 @@ export interface RecipeCard {
       assaySource: string;
     };
   };
-  expected: { esterKg: number; glycerolKg: number; soapKg: number; excessMethanolKg: number; washes: number; washWaterKg: number };
+  expected: {
+    esterKg: number;
+    glycerolKg: number;
+    soapKg: number;
+    excessMethanolKg: number;
+    washes: number;
+    washWaterKg: number;
+  };
   /** Methanol to add in both steps (kg, and litres at 20 °C). */
   methanolTotal: { kg: number; l20C: number };
   warnings: DomainIssue[];
@@ -564,9 +654,17 @@ export function composeCard(args: {
       `Cost: ${request.defaultCostPerKg} per kg for every lot or tank without an entered cost (${DEFAULT_COST_PER_KG.source}); the cost total counts only what was entered.`,
     );
   }
-  if (assay === null) notes.push("Catalyst purity/strength: no value entered and no reagent lot in stock; the recipe default is used (see warnings).");
-  else notes.push(`Catalyst ${base.catalyst.assayKind === "PURITY" ? "purity" : "solution strength"} ${assay.pct} %: ${assay.source}.`);
-  notes.push("Tank FFA and water are the mass-weighted means of the lab results of the lots it holds now (traced through the ledger).");
+  if (assay === null)
+    notes.push(
+      "Catalyst purity/strength: no value entered and no reagent lot in stock; the recipe default is used (see warnings).",
+    );
+  else
+    notes.push(
+      `Catalyst ${base.catalyst.assayKind === "PURITY" ? "purity" : "solution strength"} ${assay.pct} %: ${assay.source}.`,
+    );
+  notes.push(
+    "Tank FFA and water are the mass-weighted means of the lab results of the lots it holds now (traced through the ledger).",
+  );
   const acidPurityPct = acidAssay?.pct ?? DEFAULT_ACID_STEP_SETTINGS.acidPurityPct.value;
   if (acid !== null) {
     notes.push(
@@ -583,7 +681,14 @@ export function composeCard(args: {
     draws: blend.draws.map((d) => {
       const c = byRef.get(d.ref);
       const parsed = parseCandidateRef(d.ref);
-      return { ref: d.ref, kind: parsed?.kind ?? "LOT", code: parsed?.code ?? d.ref, massG: d.massG, ffaPct: c?.ffaPct ?? 0, waterPct: c?.waterPct ?? 0 };
+      return {
+        ref: d.ref,
+        kind: parsed?.kind ?? "LOT",
+        code: parsed?.code ?? d.ref,
+        massG: d.massG,
+        ffaPct: c?.ffaPct ?? 0,
+        waterPct: c?.waterPct ?? 0,
+      };
     }),
     blend: {
       massG: blend.totalG,
@@ -675,7 +780,12 @@ export interface PlanProposal {
 }
 
 /** Candidates → blend (HiGHS) → route and recipe → card. A blend that cannot be made says which limit fails and by how much. */
-export async function draftBatchPlan(request: BatchPlanRequest, stock: PlanStock, reagents: readonly ReagentStock[], now: Date): Promise<PlanProposal> {
+export async function draftBatchPlan(
+  request: BatchPlanRequest,
+  stock: PlanStock,
+  reagents: readonly ReagentStock[],
+  now: Date,
+): Promise<PlanProposal> {
   const candidates = buildCandidates(stock, request, now);
   const assay = pickAssay(request.catalyst, request.assayPct, reagents);
   const acidAssay = pickAssay("H2SO4", request.acidPurityPct, reagents);
@@ -686,7 +796,13 @@ export async function draftBatchPlan(request: BatchPlanRequest, stock: PlanStock
       ok: false,
       stage: "CANDIDATES",
       diagnosis: null,
-      issues: [{ code: "PLAN.NO_CANDIDATES", message: "No accepted lot or feedstock tank with stock and lab results is available to blend.", field: "targetOilKg" }],
+      issues: [
+        {
+          code: "PLAN.NO_CANDIDATES",
+          message: "No accepted lot or feedstock tank with stock and lab results is available to blend.",
+          field: "targetOilKg",
+        },
+      ],
     });
   }
   const blend = await optimiseBlend(blendRequest);
@@ -700,7 +816,13 @@ export async function draftBatchPlan(request: BatchPlanRequest, stock: PlanStock
   const plan = planPretreatment(parsed.value);
   if (!plan.ok) return done({ ok: false, stage: "RECIPE", issues: renameFields(plan.issues), diagnosis: null });
   const card = composeCard({ request, blend: blend.value, candidates, plan: plan.value, assay, acidAssay });
-  return done({ ok: true, blend: blend.value, plan: plan.value, card, stored: { format: CARD_FORMAT, inputs: parsed.value, card } });
+  return done({
+    ok: true,
+    blend: blend.value,
+    plan: plan.value,
+    card,
+    stored: { format: CARD_FORMAT, inputs: parsed.value, card },
+  });
 }
 
 // ---- after the batch: charges, outputs and yield ---------------------------------------------------
@@ -761,7 +883,10 @@ function parseJson(json: string): unknown {
   }
 }
 
-function asFeedPlan(plan: PretreatmentPlan, overrides: { methanolKg?: number; catalystProductKg?: number } = {}): RecipePlan {
+function asFeedPlan(
+  plan: PretreatmentPlan,
+  overrides: { methanolKg?: number; catalystProductKg?: number } = {},
+): RecipePlan {
   const base = plan.baseStep;
   const feedKg = plan.acidStep?.feedKg ?? base.oil.massKg;
   const methanolKg = overrides.methanolKg ?? base.methanol.toAddKg + (plan.acidStep?.methanolKg ?? 0);
@@ -810,11 +935,25 @@ export function readPlannedFigures(batch: BatchFacts): PlannedFigures | null {
   let plan: Result<PretreatmentPlan>;
   if (batch.pretreated) {
     // The stored batch says it was pretreated: force the acid route whatever its FFA.
-    plan = planPretreatment({ lots, settings }, { directBaseMaxFfaPct: FORCE_ACID_ROUTE, baseCatalysisMaxFfaPct: FORCE_ACID_ROUTE });
+    plan = planPretreatment(
+      { lots, settings },
+      { directBaseMaxFfaPct: FORCE_ACID_ROUTE, baseCatalysisMaxFfaPct: FORCE_ACID_ROUTE },
+    );
   } else {
     const base = planRecipe({ lots, settings });
     plan = base.ok
-      ? ok({ decision: { route: "DIRECT_BASE", ffaPct: l.blendFfaPct, directBaseMaxFfaPct: 0, baseCatalysisMaxFfaPct: 0, reason: "batch recorded without pretreatment" }, acidStep: null, baseStep: base.value, warnings: [] })
+      ? ok({
+          decision: {
+            route: "DIRECT_BASE",
+            ffaPct: l.blendFfaPct,
+            directBaseMaxFfaPct: 0,
+            baseCatalysisMaxFfaPct: 0,
+            reason: "batch recorded without pretreatment",
+          },
+          acidStep: null,
+          baseStep: base.value,
+          warnings: [],
+        })
       : base;
   }
   if (!plan.ok) return null;
@@ -878,13 +1017,20 @@ export interface RecordedYield {
 }
 
 /** Yield of a finished batch against its plan (computeBatchYield on the recorded charges and outputs). */
-export function computeRecordedYield(batch: BatchFacts, charges: readonly MassMove[], outputs: readonly MassMove[]): Result<RecordedYield> {
+export function computeRecordedYield(
+  batch: BatchFacts,
+  charges: readonly MassMove[],
+  outputs: readonly MassMove[],
+): Result<RecordedYield> {
   const planned = readPlannedFigures(batch);
   if (planned === null) {
-    return failMany([{ code: "YIELD.NO_PLAN", message: "This batch has no recipe in a form the yield can be computed from." }]);
+    return failMany([
+      { code: "YIELD.NO_PLAN", message: "This batch has no recipe in a form the yield can be computed from." },
+    ]);
   }
   const actuals = collectBatchActuals(charges, outputs);
-  if (!((actuals.oilChargedKg ?? 0) > 0)) return failMany([{ code: "YIELD.NO_OIL", message: "No oil has been charged yet.", field: "oilChargedKg" }]);
+  if (!((actuals.oilChargedKg ?? 0) > 0))
+    return failMany([{ code: "YIELD.NO_OIL", message: "No oil has been charged yet.", field: "oilChargedKg" }]);
   const y = computeBatchYield(planned.yieldPlan, actuals);
   return y.ok ? ok({ planned, actuals, yield: y.value }) : y;
 }
@@ -899,7 +1045,11 @@ export interface ChargeSuggestion {
 }
 
 /** Splits a planned reagent mass over the reagent lots in stock, oldest first. */
-function drawReagent(reagents: readonly ReagentStock[], reagent: string, grams: number): { parts: Array<{ code: string; grams: number }>; shortG: number } {
+function drawReagent(
+  reagents: readonly ReagentStock[],
+  reagent: string,
+  grams: number,
+): { parts: Array<{ code: string; grams: number }>; shortG: number } {
   const lots = reagents
     .filter((r) => r.reagent === reagent && r.stockG > 0)
     .sort((a, b) => a.receivedAt.getTime() - b.receivedAt.getTime() || a.code.localeCompare(b.code));
@@ -915,8 +1065,16 @@ function drawReagent(reagents: readonly ReagentStock[], reagent: string, grams: 
 }
 
 /** Start-form rows from the plan: the oil draws, then methanol, catalyst and acid from reagent lots in stock (wash water is used when the batch finishes). */
-export function suggestCharges(planned: PlannedFigures, reagents: readonly ReagentStock[]): { rows: ChargeSuggestion[]; notices: string[] } {
-  const rows: ChargeSuggestion[] = planned.draws.map((d) => ({ fromKind: d.kind, fromCode: d.code, role: "OIL", massKg: d.massG / 1000 }));
+export function suggestCharges(
+  planned: PlannedFigures,
+  reagents: readonly ReagentStock[],
+): { rows: ChargeSuggestion[]; notices: string[] } {
+  const rows: ChargeSuggestion[] = planned.draws.map((d) => ({
+    fromKind: d.kind,
+    fromCode: d.code,
+    role: "OIL",
+    massKg: d.massG / 1000,
+  }));
   const notices: string[] = [];
   // A plan without stored draws still needs its oil: one row for the planner to say where from.
   if (rows.length === 0) {
@@ -935,4 +1093,3 @@ export function suggestCharges(planned: PlannedFigures, reagents: readonly Reage
   add("H2SO4", planned.acidProductKg, "ACID", "Sulfuric acid");
   return { rows, notices };
 }
-

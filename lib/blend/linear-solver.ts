@@ -8,10 +8,12 @@ let solverPromise: Promise<Highs> | undefined;
 
 export function loadLinearSolver(): Promise<Highs> {
   if (solverPromise === undefined) {
-    solverPromise = import("highs").then((mod) => mod.default()).catch((error: unknown) => {
-      solverPromise = undefined;
-      throw error;
-    });
+    solverPromise = import("highs")
+      .then((mod) => mod.default())
+      .catch((error: unknown) => {
+        solverPromise = undefined;
+        throw error;
+      });
   }
   return solverPromise;
 }

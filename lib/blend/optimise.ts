@@ -94,7 +94,9 @@ function buildModel(p: Prepared, spec: ModelSpec): LinearModel {
   const width = p.useBinaries ? 2 * n : n;
   const pad = (coefs: number[]): number[] => [...coefs, ...new Array<number>(width - coefs.length).fill(0)];
   const columns: LinearColumn[] = p.availG.map((a) => ({ lower: 0, upper: a / 1000 }));
-  const rows: LinearRow[] = [{ coefs: pad(new Array<number>(n).fill(1)), lower: p.targetG / 1000, upper: p.targetG / 1000 }];
+  const rows: LinearRow[] = [
+    { coefs: pad(new Array<number>(n).fill(1)), lower: p.targetG / 1000, upper: p.targetG / 1000 },
+  ];
   const lot = (j: number) => p.request.candidates[p.usable[j] ?? -1];
   if (spec.ffaLimit !== undefined) {
     const limit = spec.ffaLimit;
@@ -294,7 +296,11 @@ function describeInfeasibility(request: BlendRequest, d: BlendDiagnosis, toleran
       field: "limits.maxWaterPct",
     });
   }
-  if (issues.length === 0 && d.minFfaPctWithinWaterLimit !== null && d.minFfaPctWithinWaterLimit > maxFfaPct + tolerance) {
+  if (
+    issues.length === 0 &&
+    d.minFfaPctWithinWaterLimit !== null &&
+    d.minFfaPctWithinWaterLimit > maxFfaPct + tolerance
+  ) {
     issues.push({
       code: "BLEND.LIMITS_JOINTLY_UNREACHABLE",
       message: `Each limit can be met alone, but not both: within the water limit ${fmt(maxWaterPct, 4)} % the lowest FFA is ${fmt(d.minFfaPctWithinWaterLimit)} %, ${fmt(d.minFfaPctWithinWaterLimit - maxFfaPct)} points above the FFA limit ${fmt(maxFfaPct)} %.`,
@@ -302,13 +308,24 @@ function describeInfeasibility(request: BlendRequest, d: BlendDiagnosis, toleran
     });
   }
   if (issues.length === 0) {
-    issues.push({ code: "BLEND.INFEASIBLE", message: "No blend of the stock meets the target and limits.", field: "limits" });
+    issues.push({
+      code: "BLEND.INFEASIBLE",
+      message: "No blend of the stock meets the target and limits.",
+      field: "limits",
+    });
   }
   return issues;
 }
 
-async function solveOrdered(p: Prepared, margins: { ffa: number; water: number }, options: BlendOptions): Promise<LinearOutcome> {
-  const limits = { ffaLimit: p.request.limits.maxFfaPct - margins.ffa, waterLimit: p.request.limits.maxWaterPct - margins.water };
+async function solveOrdered(
+  p: Prepared,
+  margins: { ffa: number; water: number },
+  options: BlendOptions,
+): Promise<LinearOutcome> {
+  const limits = {
+    ffaLimit: p.request.limits.maxFfaPct - margins.ffa,
+    waterLimit: p.request.limits.maxWaterPct - margins.water,
+  };
   const primary = primaryObjective(p);
   const first = await solveLinearModel(buildModel(p, { objective: primary, ...limits }), options);
   const hasPriority = p.usable.some((i) => p.request.candidates[i]?.priority !== undefined);
@@ -359,7 +376,11 @@ export async function optimiseBlend(request: BlendRequest, options: BlendOptions
     }
     const grams = splitIntoGrams(p, outcome.values);
     if (grams === null) {
-      return fail("BLEND.ROUNDING_BREAKS_LIMIT", "The draws cannot be split into whole grams within the lot bounds.", "minDrawKg");
+      return fail(
+        "BLEND.ROUNDING_BREAKS_LIMIT",
+        "The draws cannot be split into whole grams within the lot bounds.",
+        "minDrawKg",
+      );
     }
     const checked = evaluate(p, grams);
     const ffaExcess = checked.ffaPct - request.limits.maxFfaPct;

@@ -1,6 +1,11 @@
 import { fail, failMany, ok } from "@/lib/errors";
 import type { DomainIssue, Result } from "@/lib/errors";
-import { MOLAR_MASS, formatFattyAcidFormula, parseFattyAcidShorthand, requireMolarMass } from "@/lib/chemistry/molar-mass";
+import {
+  MOLAR_MASS,
+  formatFattyAcidFormula,
+  parseFattyAcidShorthand,
+  requireMolarMass,
+} from "@/lib/chemistry/molar-mass";
 import { KOH_EQUIVALENT_MASS_IN_STANDARDS } from "@/lib/chemistry/physical-constants";
 import type { SourceStatus } from "@/lib/chemistry/sourced-value";
 
@@ -148,6 +153,12 @@ export const FEEDSTOCK_MOLAR_MASS_DEFAULTS: Readonly<Record<FeedstockMaterial, F
   SOYBEAN: fromSvRange("SOYBEAN", 189, 195, "Codex CXS 210-1999 SV range (computed midpoint)", "computed"),
   RAPESEED_LEAR: fromSvRange("RAPESEED_LEAR", 182, 193, "Codex CXS 210-1999 SV range (computed midpoint)", "computed"),
   PALM: fromSvRange("PALM", 190, 209, "Codex CXS 210-1999 SV range (computed midpoint)", "computed"),
-  TALLOW: fromSvRange("TALLOW", 190, 202, "Bockisch 1998, Fats and Oils Handbook, SV range (computed midpoint)", "computed"),
+  TALLOW: fromSvRange(
+    "TALLOW",
+    190,
+    202,
+    "Bockisch 1998, Fats and Oils Handbook, SV range (computed midpoint)",
+    "computed",
+  ),
   USED_COOKING_OIL: fromSvRange("USED_COOKING_OIL", 185, 200, "typical UCO SV range", "from memory"),
 };

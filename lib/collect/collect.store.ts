@@ -19,7 +19,17 @@ export async function listCollectSources(db: Db, siteId: number): Promise<Collec
   const rows = await db.source.findMany({
     where: { siteId, active: true },
     orderBy: { code: "asc" },
-    select: { code: true, name: true, address: true, materials: true, pickupEveryDays: true, collectorNote: true, latitude: true, longitude: true, pickups: { orderBy: { observedAt: "desc" }, take: 1, select: { observedAt: true } } },
+    select: {
+      code: true,
+      name: true,
+      address: true,
+      materials: true,
+      pickupEveryDays: true,
+      collectorNote: true,
+      latitude: true,
+      longitude: true,
+      pickups: { orderBy: { observedAt: "desc" }, take: 1, select: { observedAt: true } },
+    },
   });
   return rows.map((r) => ({
     code: r.code,
@@ -60,15 +70,47 @@ const historySelect = {
   collector: { select: { fullName: true } },
 } as const;
 
-type HistoryRow = { code: string; observedAt: Date; receivedAt: Date; containers: number; volumeMl: number; tempC: number; waterLook: string; solidsLook: string; source: { code: string }; collector: { fullName: string } };
+type HistoryRow = {
+  code: string;
+  observedAt: Date;
+  receivedAt: Date;
+  containers: number;
+  volumeMl: number;
+  tempC: number;
+  waterLook: string;
+  solidsLook: string;
+  source: { code: string };
+  collector: { fullName: string };
+};
 
 function toHistory(r: HistoryRow): HistoryPickup {
-  return { code: r.code, sourceCode: r.source.code, observedAt: r.observedAt, receivedAt: r.receivedAt, containers: r.containers, volumeMl: r.volumeMl, tempC: r.tempC, waterLook: r.waterLook, solidsLook: r.solidsLook, collector: r.collector.fullName };
+  return {
+    code: r.code,
+    sourceCode: r.source.code,
+    observedAt: r.observedAt,
+    receivedAt: r.receivedAt,
+    containers: r.containers,
+    volumeMl: r.volumeMl,
+    tempC: r.tempC,
+    waterLook: r.waterLook,
+    solidsLook: r.solidsLook,
+    collector: r.collector.fullName,
+  };
 }
 
 /** The last few pickups at each source since `since`, newest first (for the source's recent history). */
-export async function listRecentPickupsBySource(db: Db, siteId: number, since: Date, perSource: number): Promise<Map<string, HistoryPickup[]>> {
-  const rows = await db.pickup.findMany({ where: { siteId, observedAt: { gte: since } }, orderBy: [{ observedAt: "desc" }, { id: "desc" }], take: 5_000, select: historySelect });
+export async function listRecentPickupsBySource(
+  db: Db,
+  siteId: number,
+  since: Date,
+  perSource: number,
+): Promise<Map<string, HistoryPickup[]>> {
+  const rows = await db.pickup.findMany({
+    where: { siteId, observedAt: { gte: since } },
+    orderBy: [{ observedAt: "desc" }, { id: "desc" }],
+    take: 5_000,
+    select: historySelect,
+  });
   const bySource = new Map<string, HistoryPickup[]>();
   for (const r of rows) {
     const list = bySource.get(r.source.code) ?? [];
@@ -79,8 +121,18 @@ export async function listRecentPickupsBySource(db: Db, siteId: number, since: D
 }
 
 /** What this collector's phone has delivered to the server recently, newest first. */
-export async function listReceivedFromCollector(db: Db, siteId: number, collectorId: number, since: Date): Promise<HistoryPickup[]> {
-  const rows = await db.pickup.findMany({ where: { siteId, collectorId, receivedAt: { gte: since } }, orderBy: [{ receivedAt: "desc" }, { id: "desc" }], take: 200, select: historySelect });
+export async function listReceivedFromCollector(
+  db: Db,
+  siteId: number,
+  collectorId: number,
+  since: Date,
+): Promise<HistoryPickup[]> {
+  const rows = await db.pickup.findMany({
+    where: { siteId, collectorId, receivedAt: { gte: since } },
+    orderBy: [{ receivedAt: "desc" }, { id: "desc" }],
+    take: 200,
+    select: historySelect,
+  });
   return rows.map(toHistory);
 }
 
@@ -136,14 +188,20 @@ export async function listPickupsNotInLot(db: Db, siteId: number): Promise<Waiti
 }
 
 /** Pickups carrying a container label, newest first (what a container label's QR code opens). */
-export async function listPickupsWithContainer(db: Db, siteId: number, tag: string): Promise<Array<HistoryPickup & { lotCode: string | null }>> {
+export async function listPickupsWithContainer(
+  db: Db,
+  siteId: number,
+  tag: string,
+): Promise<Array<HistoryPickup & { lotCode: string | null }>> {
   const rows = await db.pickup.findMany({
     where: { siteId, containerTags: { contains: tag } },
     orderBy: [{ observedAt: "desc" }, { id: "desc" }],
     take: 200,
     select: { ...historySelect, containerTags: true, lot: { select: { code: true } } },
   });
-  return rows.filter((r) => r.containerTags.split(",").includes(tag)).map((r) => ({ ...toHistory(r), lotCode: r.lot?.code ?? null }));
+  return rows
+    .filter((r) => r.containerTags.split(",").includes(tag))
+    .map((r) => ({ ...toHistory(r), lotCode: r.lot?.code ?? null }));
 }
 
 /** How many lots already carry this number prefix (for suggesting the next lot number). */

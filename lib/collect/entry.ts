@@ -32,7 +32,8 @@ export function celsiusFrom(value: number, system: UnitSystem): number {
  * dipstick mark. A fill level outside 0–100 % comes back as NaN so the volume check refuses it.
  */
 export function volumeFromGauge(containers: number, containerSizeL: number, fillPct: number): number {
-  if (!(fillPct > 0 && fillPct <= MAX_FILL_PCT) || !(containerSizeL > 0) || !Number.isFinite(containers)) return Number.NaN;
+  if (!(fillPct > 0 && fillPct <= MAX_FILL_PCT) || !(containerSizeL > 0) || !Number.isFinite(containers))
+    return Number.NaN;
   return Math.round(containers * containerSizeL * (fillPct / 100) * 1000) / 1000;
 }
 
@@ -49,9 +50,13 @@ export function pickupNumber(localDay: string, key: string): string {
 export function checkOnPhone(input: unknown, knownSourceCodes: ReadonlySet<string>): Result<Pickup> {
   const parsed = parseInput(PickupSchema, input);
   const issues: DomainIssue[] = parsed.ok ? [] : [...parsed.issues];
-  const sourceCode = typeof input === "object" && input !== null && "sourceCode" in input ? String((input).sourceCode).trim().toUpperCase() : "";
+  const sourceCode =
+    typeof input === "object" && input !== null && "sourceCode" in input
+      ? String(input.sourceCode).trim().toUpperCase()
+      : "";
   const sourceNamed = parsed.ok || !issues.some((i) => i.field === "sourceCode");
-  if (sourceNamed && sourceCode !== "" && !knownSourceCodes.has(sourceCode)) issues.push({ code: "RECORD.NOT_FOUND", message: `Source ${sourceCode} does not exist`, field: "sourceCode" });
+  if (sourceNamed && sourceCode !== "" && !knownSourceCodes.has(sourceCode))
+    issues.push({ code: "RECORD.NOT_FOUND", message: `Source ${sourceCode} does not exist`, field: "sourceCode" });
   if (issues.length) return failMany(issues);
   if (!parsed.ok) return parsed;
   return ok(parsed.value);

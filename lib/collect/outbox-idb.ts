@@ -59,7 +59,14 @@ export async function openOutbox(name = OUTBOX_DB_NAME): Promise<Outbox> {
 
 export interface FlushReport {
   sent: number;
-  stored: Array<{ key: string; recordId: number; code: string; receivedAt: string | null; observedAt: string; sourceCode: string }>;
+  stored: Array<{
+    key: string;
+    recordId: number;
+    code: string;
+    receivedAt: string | null;
+    observedAt: string;
+    sourceCode: string;
+  }>;
   kept: number;
   /** Set when the server asked for a new sign-in; the loop stops and nothing is lost. */
   signIn: string | null;
@@ -71,7 +78,12 @@ export interface FlushReport {
  * Sends the signed-in user's waiting entries one at a time, oldest first. Stops at the first lost
  * answer (the network is gone) or sign-in request; refused entries are marked and the loop goes on.
  */
-export async function flushOutbox(outbox: Outbox, userId: number, send: (e: OutboxEntry) => Promise<Reply>, now: () => Date): Promise<FlushReport> {
+export async function flushOutbox(
+  outbox: Outbox,
+  userId: number,
+  send: (e: OutboxEntry) => Promise<Reply>,
+  now: () => Date,
+): Promise<FlushReport> {
   const report: FlushReport = { sent: 0, stored: [], kept: 0, signIn: null, offline: null };
   for (const entry of sendable(await outbox.all(), userId)) {
     let reply: Reply;
@@ -83,7 +95,15 @@ export async function flushOutbox(outbox: Outbox, userId: number, send: (e: Outb
     report.sent++;
     const outcome = classifyReply(entry, reply);
     const left = await outbox.settle(entry.key, outcome, now());
-    if (left && outcome.kind === "STORED") report.stored.push({ key: entry.key, recordId: outcome.recordId, code: outcome.code, receivedAt: outcome.receivedAt, observedAt: entry.pickup.observedAt, sourceCode: entry.pickup.sourceCode });
+    if (left && outcome.kind === "STORED")
+      report.stored.push({
+        key: entry.key,
+        recordId: outcome.recordId,
+        code: outcome.code,
+        receivedAt: outcome.receivedAt,
+        observedAt: entry.pickup.observedAt,
+        sourceCode: entry.pickup.sourceCode,
+      });
     else report.kept++;
     if (outcome.kind === "SIGN_IN") {
       report.signIn = outcome.problem;

@@ -41,7 +41,17 @@ export interface OutboxEntry {
 }
 
 export function newEntry(pickup: OutboxEntry["pickup"], enteredBy: EnteredBy, now: Date): OutboxEntry {
-  return { key: pickup.idempotencyKey, pickup, enteredBy, savedAt: now.toISOString(), state: "WAITING", attempts: 0, lastAttemptAt: null, lastProblem: null, refusal: null };
+  return {
+    key: pickup.idempotencyKey,
+    pickup,
+    enteredBy,
+    savedAt: now.toISOString(),
+    state: "WAITING",
+    attempts: 0,
+    lastAttemptAt: null,
+    lastProblem: null,
+    refusal: null,
+  };
 }
 
 /** What came back from one attempt: an HTTP answer, or no answer at all. */
@@ -55,7 +65,13 @@ export type Outcome =
 
 function issuesOf(body: unknown): Refusal[] {
   if (typeof body !== "object" || body === null || !("issues" in body) || !Array.isArray(body.issues)) return [];
-  return body.issues.filter((i): i is Refusal => typeof i === "object" && i !== null && typeof (i as Refusal).code === "string" && typeof (i as Refusal).message === "string");
+  return body.issues.filter(
+    (i): i is Refusal =>
+      typeof i === "object" &&
+      i !== null &&
+      typeof (i as Refusal).code === "string" &&
+      typeof (i as Refusal).message === "string",
+  );
 }
 
 /**
@@ -66,18 +82,35 @@ export function classifyReply(entry: OutboxEntry, reply: Reply): Outcome {
   if ("lost" in reply) return { kind: "RETRY", problem: `No answer from the server (${reply.lost})` };
   const { status, body } = reply;
   if (status >= 200 && status < 300) {
-    const value = typeof body === "object" && body !== null && "value" in body ? (body).value : null;
+    const value = typeof body === "object" && body !== null && "value" in body ? body.value : null;
     const v = value as { id?: unknown; code?: unknown; receivedAt?: unknown } | null;
-    if (v && typeof v.id === "number" && Number.isInteger(v.id) && v.id > 0 && v.code === entry.pickup.code.trim().toUpperCase()) {
-      return { kind: "STORED", recordId: v.id, code: v.code, receivedAt: typeof v.receivedAt === "string" ? v.receivedAt : null };
+    if (
+      v &&
+      typeof v.id === "number" &&
+      Number.isInteger(v.id) &&
+      v.id > 0 &&
+      v.code === entry.pickup.code.trim().toUpperCase()
+    ) {
+      return {
+        kind: "STORED",
+        recordId: v.id,
+        code: v.code,
+        receivedAt: typeof v.receivedAt === "string" ? v.receivedAt : null,
+      };
     }
     return { kind: "RETRY", problem: "The server answered without the stored record's number" };
   }
   const issues = issuesOf(body);
   if (status === 401) return { kind: "SIGN_IN", problem: "Your session has ended: sign in again to send" };
-  if (status === 403) return { kind: "SIGN_IN", problem: issues[0]?.message ?? "This account may not record pickups: sign in as the collector" };
-  if (status === 409 && issues[0]?.code === "IDEMPOTENCY.IN_PROGRESS") return { kind: "RETRY", problem: "The server is still storing the first attempt" };
-  if (status === 429 || status >= 500 || issues.length === 0) return { kind: "RETRY", problem: `The server answered ${status}; will try again` };
+  if (status === 403)
+    return {
+      kind: "SIGN_IN",
+      problem: issues[0]?.message ?? "This account may not record pickups: sign in as the collector",
+    };
+  if (status === 409 && issues[0]?.code === "IDEMPOTENCY.IN_PROGRESS")
+    return { kind: "RETRY", problem: "The server is still storing the first attempt" };
+  if (status === 429 || status >= 500 || issues.length === 0)
+    return { kind: "RETRY", problem: `The server answered ${status}; will try again` };
   return { kind: "REFUSED", issues };
 }
 
@@ -91,13 +124,20 @@ export function applyOutcome(entry: OutboxEntry, outcome: Outcome, now: Date): O
     case "SIGN_IN":
       return { ...tried, lastProblem: outcome.problem };
     case "REFUSED":
-      return { ...tried, state: "REFUSED", refusal: outcome.issues, lastProblem: outcome.issues.map((i) => i.message).join("; ") };
+      return {
+        ...tried,
+        state: "REFUSED",
+        refusal: outcome.issues,
+        lastProblem: outcome.issues.map((i) => i.message).join("; "),
+      };
   }
 }
 
 /** Entries to send now for the signed-in user, oldest first; refused ones wait for the collector. */
 export function sendable(entries: readonly OutboxEntry[], userId: number): OutboxEntry[] {
-  return entries.filter((e) => e.state === "WAITING" && e.enteredBy.userId === userId).sort((a, b) => a.savedAt.localeCompare(b.savedAt) || a.key.localeCompare(b.key));
+  return entries
+    .filter((e) => e.state === "WAITING" && e.enteredBy.userId === userId)
+    .sort((a, b) => a.savedAt.localeCompare(b.savedAt) || a.key.localeCompare(b.key));
 }
 
 export interface OutboxSummary {

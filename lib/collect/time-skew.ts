@@ -34,8 +34,15 @@ export function timeSkew(observedAt: Date, receivedAt: Date, thresholdMs = TIME_
  * Returns the message, or null when the time is acceptable or not a time at all (the schema says so).
  */
 export function futureObservation(observedAt: unknown, now: Date, thresholdMs = TIME_SKEW_FLAG_MS): string | null {
-  const t = observedAt instanceof Date ? observedAt : typeof observedAt === "string" || typeof observedAt === "number" ? new Date(observedAt) : null;
+  const t =
+    observedAt instanceof Date
+      ? observedAt
+      : typeof observedAt === "string" || typeof observedAt === "number"
+        ? new Date(observedAt)
+        : null;
   if (t === null || Number.isNaN(t.getTime())) return null;
   const ahead = t.getTime() - now.getTime();
-  return ahead > thresholdMs ? `Observed time is ${span(ahead)} later than now; a pickup cannot be recorded before it happens` : null;
+  return ahead > thresholdMs
+    ? `Observed time is ${span(ahead)} later than now; a pickup cannot be recorded before it happens`
+    : null;
 }

@@ -5,12 +5,19 @@ import { BATCH_INPUT_ROLES } from "@/lib/ledger/kinds";
 // A mistake is never deleted: a transfer is cancelled by a reversing movement, a lab result is voided.
 // Both need a reason, which the audit trail keeps.
 
-const reason = requiredText("Reason", 300).refine((r) => r.length >= 3, "Reason: say in a few words what was wrong (at least 3 characters)");
+const reason = requiredText("Reason", 300).refine(
+  (r) => r.length >= 3,
+  "Reason: say in a few words what was wrong (at least 3 characters)",
+);
 
 export const ReverseMovementSchema = z.object({ movementId: id("Movement number"), reason });
 export type ReverseMovementInput = z.input<typeof ReverseMovementSchema>;
 
-export const VoidLabResultSchema = z.object({ kind: oneOf("Result kind", ["TITRATION", "LAB_TEST"] as const), resultId: id("Result number"), reason });
+export const VoidLabResultSchema = z.object({
+  kind: oneOf("Result kind", ["TITRATION", "LAB_TEST"] as const),
+  resultId: id("Result number"),
+  reason,
+});
 export type VoidLabResultInput = z.input<typeof VoidLabResultSchema>;
 
 /**
@@ -23,7 +30,8 @@ export const REVERSIBLE_INTO = ["TANK"] as const;
 export const REVERSIBLE_CHARGE_ROLES = BATCH_INPUT_ROLES;
 
 export function isReversible(role: string, toKind: string): "TRANSFER" | "CHARGE" | null {
-  if ((REVERSIBLE_ROLES as readonly string[]).includes(role) && (REVERSIBLE_INTO as readonly string[]).includes(toKind)) return "TRANSFER";
+  if ((REVERSIBLE_ROLES as readonly string[]).includes(role) && (REVERSIBLE_INTO as readonly string[]).includes(toKind))
+    return "TRANSFER";
   if ((REVERSIBLE_CHARGE_ROLES as readonly string[]).includes(role) && toKind === "BATCH") return "CHARGE";
   return null;
 }

@@ -1,7 +1,12 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
 import { isReversible, ReverseMovementSchema, VoidLabResultSchema } from "@/lib/correction/correction.schema";
-import { getBatchStateByHolder, markLabResultVoided, requireLabResult, requireMovement } from "@/lib/correction/correction.store";
+import {
+  getBatchStateByHolder,
+  markLabResultVoided,
+  requireLabResult,
+  requireMovement,
+} from "@/lib/correction/correction.store";
 import type { Db } from "@/lib/database/connect";
 import type { Result } from "@/lib/errors";
 import { assertPeriodOpen, postMovement, reject, runInTransaction } from "@/lib/ledger/ledger.store";
@@ -16,22 +21,44 @@ import type { Actor } from "@/lib/site/actor";
  * refused when the material has since moved on (the place it went to no longer holds it) or when the
  * period is closed. Traces, balances and the chain of custody leave the pair out.
  */
-export async function reverseMovement(db: Db, actor: Actor, input: unknown): Promise<Result<{ reversalId: number; movementId: number }>> {
+export async function reverseMovement(
+  db: Db,
+  actor: Actor,
+  input: unknown,
+): Promise<Result<{ reversalId: number; movementId: number }>> {
   const parsed = parseInput(ReverseMovementSchema, input);
   if (!parsed.ok) return parsed;
   const { movementId, reason } = parsed.value;
   return runInTransaction(db, async (tx) => {
     const m = await requireMovement(tx, actor.siteId, movementId);
-    if (m.reversesId !== null) reject("CORRECTION.IS_REVERSAL", `Movement ${movementId} is itself a reversal; book the transfer again instead`, "movementId");
-    if (m.reversedById !== null) reject("CORRECTION.ALREADY_REVERSED", `Movement ${movementId} was already reversed by movement ${m.reversedById}`, "movementId");
+    if (m.reversesId !== null)
+      reject(
+        "CORRECTION.IS_REVERSAL",
+        `Movement ${movementId} is itself a reversal; book the transfer again instead`,
+        "movementId",
+      );
+    if (m.reversedById !== null)
+      reject(
+        "CORRECTION.ALREADY_REVERSED",
+        `Movement ${movementId} was already reversed by movement ${m.reversedById}`,
+        "movementId",
+      );
     const kind = m.fromHolderId === null ? null : isReversible(m.role, m.toKind);
     if (kind === null || m.fromHolderId === null) {
-      reject("CORRECTION.NOT_REVERSIBLE", `Movement ${movementId} is neither a transfer into a tank nor a charge into a batch; only those are reversed here (receiving, outputs and receipts are corrected on their own records)`, "movementId");
+      reject(
+        "CORRECTION.NOT_REVERSIBLE",
+        `Movement ${movementId} is neither a transfer into a tank nor a charge into a batch; only those are reversed here (receiving, outputs and receipts are corrected on their own records)`,
+        "movementId",
+      );
     }
     if (kind === "CHARGE") {
       const batch = await getBatchStateByHolder(tx, m.toHolderId);
       if (batch === null || batch.status !== "RUNNING") {
-        reject("CORRECTION.BATCH_NOT_RUNNING", `Batch ${batch?.code ?? ""} is ${(batch?.status ?? "unknown").toLowerCase()}; a charge can be taken back only while the batch is reacting, before its outputs are recorded`, "movementId");
+        reject(
+          "CORRECTION.BATCH_NOT_RUNNING",
+          `Batch ${batch?.code ?? ""} is ${(batch?.status ?? "unknown").toLowerCase()}; a charge can be taken back only while the batch is reacting, before its outputs are recorded`,
+          "movementId",
+        );
       }
     }
     // Material going back into a tank must still fit (the tank may have been filled since).
@@ -49,7 +76,13 @@ export async function reverseMovement(db: Db, actor: Actor, input: unknown): Pro
       field: "movementId",
       ...(room ? { room } : {}),
     });
-    await appendAudit(tx, actor, { action: "VOID", entity: "Movement", entityKey: String(movementId), after: { reversedBy: reversalId, massG: m.massG }, reason });
+    await appendAudit(tx, actor, {
+      action: "VOID",
+      entity: "Movement",
+      entityKey: String(movementId),
+      after: { reversedBy: reversalId, massG: m.massG },
+      reason,
+    });
     return { reversalId, movementId };
   });
 }
@@ -61,7 +94,12 @@ export async function voidLabResult(db: Db, actor: Actor, input: unknown): Promi
   const { kind, resultId, reason } = parsed.value;
   return runInTransaction(db, async (tx) => {
     const r = await requireLabResult(tx, actor.siteId, kind, resultId);
-    if (r.voided) reject("CORRECTION.ALREADY_VOIDED", `This ${kind === "TITRATION" ? "titration" : "lab test"} is already voided`, "resultId");
+    if (r.voided)
+      reject(
+        "CORRECTION.ALREADY_VOIDED",
+        `This ${kind === "TITRATION" ? "titration" : "lab test"} is already voided`,
+        "resultId",
+      );
     await assertPeriodOpen(tx, actor.siteId, r.testedAt, "resultId");
     await markLabResultVoided(tx, kind, resultId);
     await appendAudit(tx, actor, {

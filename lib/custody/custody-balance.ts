@@ -50,7 +50,11 @@ export const RULESET_EU_2022_996: CustodyRuleSet = {
   edition:
     "Text as published in OJ L 168, 27.6.2022. A consolidated version of 30.12.2023 and a later amending act exist: check Art. 19 there before relying on these values.",
   balancePeriodMonths: {
-    OTHER_OPERATOR: { value: 3, source: `${REG_2022_996}, Art. 19(2)(l)`, status: "verified in the text as published 27.6.2022" },
+    OTHER_OPERATOR: {
+      value: 3,
+      source: `${REG_2022_996}, Art. 19(2)(l)`,
+      status: "verified in the text as published 27.6.2022",
+    },
     AGRI_FOREST_PRODUCER_OR_FIRST_GATHERING_POINT: {
       value: 12,
       source: `${REG_2022_996}, Art. 19(2)(l) (producers of agricultural and forest biomass; first gathering points sourcing only such biomass)`,
@@ -92,7 +96,11 @@ export function withCustodySettings(base: CustodyRuleSet, settings: CustodySetti
   const override = <T>(current: SourcedSetting<T>, value: T | undefined): SourcedSetting<T> =>
     value === undefined || value === current.value
       ? current
-      : { value, source: "site setting", status: `changed from ${String(current.value)} (${current.source}; ${current.status})` };
+      : {
+          value,
+          source: "site setting",
+          status: `changed from ${String(current.value)} (${current.source}; ${current.status})`,
+        };
   return {
     ...base,
     id: `${base.id}+SITE`,
@@ -240,15 +248,35 @@ function validateState(state: CustodyState): DomainIssue[] {
   const issues: DomainIssue[] = [];
   const setKeys = new Set<string>();
   state.sets.forEach((s, i) => {
-    if (s.key.trim() === "") issues.push({ code: "CUSTODY.INVALID_SET", message: "Characteristic set key must not be empty", field: `sets.${i}.key` });
-    if (setKeys.has(s.key)) issues.push({ code: "CUSTODY.DUPLICATE_SET", message: `Characteristic set ${s.key} is listed twice`, field: `sets.${i}.key` });
+    if (s.key.trim() === "")
+      issues.push({
+        code: "CUSTODY.INVALID_SET",
+        message: "Characteristic set key must not be empty",
+        field: `sets.${i}.key`,
+      });
+    if (setKeys.has(s.key))
+      issues.push({
+        code: "CUSTODY.DUPLICATE_SET",
+        message: `Characteristic set ${s.key} is listed twice`,
+        field: `sets.${i}.key`,
+      });
     setKeys.add(s.key);
   });
   const steps = new Map<string, ConversionStep>();
   state.steps.forEach((st, i) => {
-    if (steps.has(st.id)) issues.push({ code: "CUSTODY.DUPLICATE_STEP", message: `Process step ${st.id} is listed twice`, field: `steps.${i}.id` });
+    if (steps.has(st.id))
+      issues.push({
+        code: "CUSTODY.DUPLICATE_STEP",
+        message: `Process step ${st.id} is listed twice`,
+        field: `steps.${i}.id`,
+      });
     steps.set(st.id, st);
-    if (st.outputs.length === 0) issues.push({ code: "CUSTODY.INVALID_STEP", message: `Process step ${st.id} has no outputs`, field: `steps.${i}.outputs` });
+    if (st.outputs.length === 0)
+      issues.push({
+        code: "CUSTODY.INVALID_STEP",
+        message: `Process step ${st.id} has no outputs`,
+        field: `steps.${i}.outputs`,
+      });
     st.outputs.forEach((o, j) => {
       if (!Number.isSafeInteger(o.outputMassG) || o.outputMassG < 0 || !isPositiveGrams(o.inputMassG)) {
         issues.push({
@@ -261,32 +289,67 @@ function validateState(state: CustodyState): DomainIssue[] {
   });
   const periodMonths = state.ruleSet.balancePeriodMonths[state.operatorType].value;
   if (!Number.isInteger(periodMonths) || periodMonths < 1 || periodMonths > 120) {
-    issues.push({ code: "CUSTODY.INVALID_RULESET", message: `Balance period must be 1–120 whole months, got ${periodMonths}`, field: "ruleSet.balancePeriodMonths" });
+    issues.push({
+      code: "CUSTODY.INVALID_RULESET",
+      message: `Balance period must be 1–120 whole months, got ${periodMonths}`,
+      field: "ruleSet.balancePeriodMonths",
+    });
   }
   const anchor = state.ruleSet.periodAnchorMonth.value;
   if (!Number.isInteger(anchor) || anchor < 1 || anchor > 12) {
-    issues.push({ code: "CUSTODY.INVALID_RULESET", message: `Period start month must be 1–12, got ${anchor}`, field: "ruleSet.periodAnchorMonth" });
+    issues.push({
+      code: "CUSTODY.INVALID_RULESET",
+      message: `Period start month must be 1–12, got ${anchor}`,
+      field: "ruleSet.periodAnchorMonth",
+    });
   }
   if (!Number.isInteger(state.utcOffsetMin) || Math.abs(state.utcOffsetMin) > 14 * 60) {
-    issues.push({ code: "CUSTODY.INVALID_OFFSET", message: "UTC offset must be whole minutes between −720 and +840", field: "utcOffsetMin" });
+    issues.push({
+      code: "CUSTODY.INVALID_OFFSET",
+      message: "UTC offset must be whole minutes between −720 and +840",
+      field: "utcOffsetMin",
+    });
   }
   const ids = new Set<string>();
   state.bookings.forEach((b, i) => {
     const f = `bookings.${i}`;
-    if (ids.has(b.id)) issues.push({ code: "CUSTODY.DUPLICATE_BOOKING", message: `Booking ${b.id} is listed twice`, field: `${f}.id` });
+    if (ids.has(b.id))
+      issues.push({ code: "CUSTODY.DUPLICATE_BOOKING", message: `Booking ${b.id} is listed twice`, field: `${f}.id` });
     ids.add(b.id);
-    if (!Number.isSafeInteger(b.at)) issues.push({ code: "CUSTODY.INVALID_TIME", message: `Booking ${b.id}: time must be an instant in milliseconds`, field: `${f}.at` });
-    if (!setKeys.has(b.setKey)) issues.push({ code: "CUSTODY.UNKNOWN_SET", message: `Booking ${b.id}: characteristic set ${b.setKey} is not declared`, field: `${f}.setKey` });
+    if (!Number.isSafeInteger(b.at))
+      issues.push({
+        code: "CUSTODY.INVALID_TIME",
+        message: `Booking ${b.id}: time must be an instant in milliseconds`,
+        field: `${f}.at`,
+      });
+    if (!setKeys.has(b.setKey))
+      issues.push({
+        code: "CUSTODY.UNKNOWN_SET",
+        message: `Booking ${b.id}: characteristic set ${b.setKey} is not declared`,
+        field: `${f}.setKey`,
+      });
     const mass = b.kind === "CONVERSION" ? b.inputMassG : b.massG;
     if (!isPositiveGrams(mass)) {
-      issues.push({ code: "CUSTODY.INVALID_MASS", message: `Booking ${b.id}: mass must be whole grams above 0, got ${mass}`, field: `${f}.${b.kind === "CONVERSION" ? "inputMassG" : "massG"}` });
+      issues.push({
+        code: "CUSTODY.INVALID_MASS",
+        message: `Booking ${b.id}: mass must be whole grams above 0, got ${mass}`,
+        field: `${f}.${b.kind === "CONVERSION" ? "inputMassG" : "massG"}`,
+      });
     }
     if (b.kind === "CONVERSION" && !steps.has(b.stepId)) {
-      issues.push({ code: "CUSTODY.UNKNOWN_STEP", message: `Booking ${b.id}: process step ${b.stepId} is not defined`, field: `${f}.stepId` });
+      issues.push({
+        code: "CUSTODY.UNKNOWN_STEP",
+        message: `Booking ${b.id}: process step ${b.stepId} is not defined`,
+        field: `${f}.stepId`,
+      });
     }
   });
   if (state.closeThroughMs !== undefined && !Number.isSafeInteger(state.closeThroughMs)) {
-    issues.push({ code: "CUSTODY.INVALID_TIME", message: "Close-through time must be an instant in milliseconds", field: "closeThroughMs" });
+    issues.push({
+      code: "CUSTODY.INVALID_TIME",
+      message: "Close-through time must be an instant in milliseconds",
+      field: "closeThroughMs",
+    });
   }
   return issues;
 }
@@ -314,7 +377,8 @@ export function buildCustodyLedger(state: CustodyState): Result<CustodyLedger> {
 
   const order = state.bookings.map((b, i) => ({ b, i })).sort((x, y) => x.b.at - y.b.at || x.i - y.i);
   const firstBooking = order[0];
-  if (firstBooking === undefined) return ok({ siteId: state.siteId, ruleSetId: ruleSet.id, periodMonths, accounts: [], failures });
+  if (firstBooking === undefined)
+    return ok({ siteId: state.siteId, ruleSetId: ruleSet.id, periodMonths, accounts: [], failures });
 
   let period = periodOf(firstBooking.b.at);
 
@@ -322,7 +386,15 @@ export function buildCustodyLedger(state: CustodyState): Result<CustodyLedger> {
     const k = accountKey(setKey, material);
     let a = accounts.get(k);
     if (a === undefined) {
-      a = { setKey, attributes: attributes.get(setKey) ?? {}, material, balanceG: 0, entries: [], periods: [], current: null };
+      a = {
+        setKey,
+        attributes: attributes.get(setKey) ?? {},
+        material,
+        balanceG: 0,
+        entries: [],
+        periods: [],
+        current: null,
+      };
       accounts.set(k, a);
     }
     if (a.current === null) a.current = { openingG: a.balanceG, creditsG: 0, debitsG: 0, lastDebitBookingId: null };
@@ -347,7 +419,16 @@ export function buildCustodyLedger(state: CustodyState): Result<CustodyLedger> {
     if (policy === "NEVER_NEGATIVE_AT_ANY_BOOKING" && g > a.balanceG) {
       const availableG = Math.max(0, a.balanceG);
       const shortfallG = g - availableG;
-      a.entries.push({ bookingId: b.id, at: b.at, kind, deltaG: 0, balanceG: a.balanceG, period: period.label, accepted: false, shortfallG });
+      a.entries.push({
+        bookingId: b.id,
+        at: b.at,
+        kind,
+        deltaG: 0,
+        balanceG: a.balanceG,
+        period: period.label,
+        accepted: false,
+        shortfallG,
+      });
       const what = kind === "CLAIM" ? "Claim" : "Conversion";
       failures.push({
         code,
@@ -368,7 +449,15 @@ export function buildCustodyLedger(state: CustodyState): Result<CustodyLedger> {
       a.current.debitsG += g;
       a.current.lastDebitBookingId = b.id;
     }
-    a.entries.push({ bookingId: b.id, at: b.at, kind, deltaG: -g, balanceG: a.balanceG, period: period.label, accepted: true });
+    a.entries.push({
+      bookingId: b.id,
+      at: b.at,
+      kind,
+      deltaG: -g,
+      balanceG: a.balanceG,
+      period: period.label,
+      accepted: true,
+    });
     return true;
   };
 
@@ -394,9 +483,25 @@ export function buildCustodyLedger(state: CustodyState): Result<CustodyLedger> {
       if (carry === "LAPSE" && closingG > 0) {
         a.balanceG = 0;
         carriedForwardG = 0;
-        a.entries.push({ bookingId: null, at: period.endMs, kind: "LAPSE", deltaG: -closingG, balanceG: 0, period: period.label, accepted: true });
+        a.entries.push({
+          bookingId: null,
+          at: period.endMs,
+          kind: "LAPSE",
+          deltaG: -closingG,
+          balanceG: 0,
+          period: period.label,
+          accepted: true,
+        });
       } else if (closingG !== 0) {
-        a.entries.push({ bookingId: null, at: period.endMs, kind: "CARRY_FORWARD", deltaG: 0, balanceG: closingG, period: period.label, accepted: true });
+        a.entries.push({
+          bookingId: null,
+          at: period.endMs,
+          kind: "CARRY_FORWARD",
+          deltaG: 0,
+          balanceG: closingG,
+          period: period.label,
+          accepted: true,
+        });
       }
       a.periods.push({
         label: period.label,
@@ -423,8 +528,19 @@ export function buildCustodyLedger(state: CustodyState): Result<CustodyLedger> {
     } else {
       const step = steps.get(b.stepId);
       if (step === undefined) continue;
-      if (!debit(accountFor(b.setKey, step.inputMaterial), b, i, "CONVERSION_OUT", b.inputMassG, "CUSTODY.CONVERSION_EXCEEDS_BALANCE")) continue;
-      for (const o of step.outputs) credit(accountFor(b.setKey, o.material), b.id, b.at, "CONVERSION_IN", convertCredit(b.inputMassG, o));
+      if (
+        !debit(
+          accountFor(b.setKey, step.inputMaterial),
+          b,
+          i,
+          "CONVERSION_OUT",
+          b.inputMassG,
+          "CUSTODY.CONVERSION_EXCEEDS_BALANCE",
+        )
+      )
+        continue;
+      for (const o of step.outputs)
+        credit(accountFor(b.setKey, o.material), b.id, b.at, "CONVERSION_IN", convertCredit(b.inputMassG, o));
     }
   }
   if (state.closeThroughMs !== undefined) {
@@ -455,14 +571,22 @@ export function buildCustodyLedger(state: CustodyState): Result<CustodyLedger> {
 }
 
 /** The balance period containing `at` under the state's rule set; null when the rule set or instant is invalid. */
-export function getBalancePeriodOf(state: Pick<CustodyState, "ruleSet" | "operatorType" | "utcOffsetMin">, at: number): Period | null {
+export function getBalancePeriodOf(
+  state: Pick<CustodyState, "ruleSet" | "operatorType" | "utcOffsetMin">,
+  at: number,
+): Period | null {
   const months = state.ruleSet.balancePeriodMonths[state.operatorType].value;
   const anchor = state.ruleSet.periodAnchorMonth.value;
   const valid =
     Number.isSafeInteger(at) &&
-    Number.isInteger(months) && months >= 1 && months <= 120 &&
-    Number.isInteger(anchor) && anchor >= 1 && anchor <= 12 &&
-    Number.isInteger(state.utcOffsetMin) && Math.abs(state.utcOffsetMin) <= 14 * 60;
+    Number.isInteger(months) &&
+    months >= 1 &&
+    months <= 120 &&
+    Number.isInteger(anchor) &&
+    anchor >= 1 &&
+    anchor <= 12 &&
+    Number.isInteger(state.utcOffsetMin) &&
+    Math.abs(state.utcOffsetMin) <= 14 * 60;
   return valid ? getPeriodContaining(at, months, anchor, state.utcOffsetMin) : null;
 }
 
@@ -479,12 +603,18 @@ export interface ClaimCheck {
  */
 export function checkClaim(state: CustodyState, claim: ClaimBooking): Result<ClaimCheck> {
   const claimPeriodEnd = getBalancePeriodOf(state, claim.at)?.endMs;
-  const closeThroughMs = claimPeriodEnd === undefined ? state.closeThroughMs : Math.max(state.closeThroughMs ?? claimPeriodEnd, claimPeriodEnd);
+  const closeThroughMs =
+    claimPeriodEnd === undefined
+      ? state.closeThroughMs
+      : Math.max(state.closeThroughMs ?? claimPeriodEnd, claimPeriodEnd);
   const baseline = buildCustodyLedger({ ...state, closeThroughMs });
   if (!baseline.ok) return baseline;
   const prefix = `bookings.${state.bookings.length}.`;
   const after = buildCustodyLedger({ ...state, closeThroughMs, bookings: [...state.bookings, claim] });
-  if (!after.ok) return failMany(after.issues.map((i) => (i.field?.startsWith(prefix) ? { ...i, field: i.field.slice(prefix.length) } : i)));
+  if (!after.ok)
+    return failMany(
+      after.issues.map((i) => (i.field?.startsWith(prefix) ? { ...i, field: i.field.slice(prefix.length) } : i)),
+    );
 
   const keyOf = (f: CustodyFailure): string =>
     [f.code, f.setKey, f.material, f.at, f.code === "CUSTODY.PERIOD_CLOSES_NEGATIVE" ? "" : f.bookingId].join("\u0000");

@@ -18,7 +18,10 @@ const material = (what: string) =>
     .string({ error: `${what} is required` })
     .trim()
     .toUpperCase()
-    .regex(/^[A-Z][A-Z0-9_]{0,39}$/, `${what}: use 1–${MAX_MATERIAL_LENGTH} capital letters, digits or "_", starting with a letter`);
+    .regex(
+      /^[A-Z][A-Z0-9_]{0,39}$/,
+      `${what}: use 1–${MAX_MATERIAL_LENGTH} capital letters, digits or "_", starting with a letter`,
+    );
 
 const setKey = z
   .string({ error: "Characteristic set is required" })
@@ -36,7 +39,10 @@ export const CharacteristicSetSchema = z.object({
       z.string().trim().min(1, "Attribute name is required").max(40, "Attribute name: at most 40 characters"),
       z.string({ error: "Attribute value must be text" }).trim().max(200, "Attribute value: at most 200 characters"),
     )
-    .refine((r) => Object.keys(r).length <= MAX_SET_ATTRIBUTES, `Characteristic set: at most ${MAX_SET_ATTRIBUTES} attributes`),
+    .refine(
+      (r) => Object.keys(r).length <= MAX_SET_ATTRIBUTES,
+      `Characteristic set: at most ${MAX_SET_ATTRIBUTES} attributes`,
+    ),
 });
 export type CharacteristicSetInput = z.input<typeof CharacteristicSetSchema>;
 
@@ -73,16 +79,31 @@ const bookingBase = {
 };
 
 export const InputBookingSchema = z
-  .object({ kind: z.literal("INPUT"), ...bookingBase, material: material("Material"), massKg: grams("Certified input") })
+  .object({
+    kind: z.literal("INPUT"),
+    ...bookingBase,
+    material: material("Material"),
+    massKg: grams("Certified input"),
+  })
   .transform(({ massKg: massG, ...rest }) => ({ ...rest, massG }));
 
 export const ConversionBookingSchema = z
-  .object({ kind: z.literal("CONVERSION"), ...bookingBase, stepId: material("Process step"), inputMassKg: grams("Processed input") })
+  .object({
+    kind: z.literal("CONVERSION"),
+    ...bookingBase,
+    stepId: material("Process step"),
+    inputMassKg: grams("Processed input"),
+  })
   .transform(({ inputMassKg: inputMassG, ...rest }) => ({ ...rest, inputMassG }));
 
 /** A certified output claim, e.g. a shipment declared with a characteristic set. */
 export const ClaimBookingSchema = z
-  .object({ kind: z.literal("CLAIM"), ...bookingBase, material: material("Claimed material"), massKg: grams("Claimed mass") })
+  .object({
+    kind: z.literal("CLAIM"),
+    ...bookingBase,
+    material: material("Claimed material"),
+    massKg: grams("Claimed mass"),
+  })
   .transform(({ massKg: massG, ...rest }) => ({ ...rest, massG }));
 
 export const CustodyBookingSchema = z.union([InputBookingSchema, ConversionBookingSchema, ClaimBookingSchema], {
@@ -107,13 +128,39 @@ export type CustodySettingsInput = z.input<typeof CustodySettingsSchema>;
 /** The chain-of-custody page's query and GET /api/custody (documented in lib/api/endpoints/trace.ts). */
 export const CustodyQuerySchema = z.object({
   /** A balance period label, e.g. "2026-Q4"; default: the period containing today. */
-  period: z.preprocess(blank, z.string().trim().regex(/^\d{4}(-Q[1-4]|-\d{2})?$|^\d{4}-\d{2}-\d{2}\.\.\d{4}-\d{2}-\d{2}$/, "Period: a balance period label such as 2026-Q4").optional()),
-  operatorType: z.preprocess(blank, z.enum(OPERATOR_TYPES, { error: `Operator type must be one of: ${OPERATOR_TYPES.join(", ")}` }).default("OTHER_OPERATOR")),
+  period: z.preprocess(
+    blank,
+    z
+      .string()
+      .trim()
+      .regex(
+        /^\d{4}(-Q[1-4]|-\d{2})?$|^\d{4}-\d{2}-\d{2}\.\.\d{4}-\d{2}-\d{2}$/,
+        "Period: a balance period label such as 2026-Q4",
+      )
+      .optional(),
+  ),
+  operatorType: z.preprocess(
+    blank,
+    z
+      .enum(OPERATOR_TYPES, { error: `Operator type must be one of: ${OPERATOR_TYPES.join(", ")}` })
+      .default("OTHER_OPERATOR"),
+  ),
   /** Try a certified claim of this many kg of methyl ester now, without saving it. */
   claimKg: z.preprocess(
     blank,
-    z.coerce.number({ error: "Claim (kg) must be a number" }).positive("Claim (kg) must be more than 0").max(MAX_MASS_KG, `Claim must be at most ${MAX_MASS_KG.toLocaleString("en")} kg`).optional(),
+    z.coerce
+      .number({ error: "Claim (kg) must be a number" })
+      .positive("Claim (kg) must be more than 0")
+      .max(MAX_MASS_KG, `Claim must be at most ${MAX_MASS_KG.toLocaleString("en")} kg`)
+      .optional(),
   ),
-  claimSet: z.preprocess(blank, z.string().trim().max(MAX_SET_KEY_LENGTH, `Characteristic set: at most ${MAX_SET_KEY_LENGTH} characters`).optional()),
+  claimSet: z.preprocess(
+    blank,
+    z
+      .string()
+      .trim()
+      .max(MAX_SET_KEY_LENGTH, `Characteristic set: at most ${MAX_SET_KEY_LENGTH} characters`)
+      .optional(),
+  ),
 });
 export type CustodyQuery = z.output<typeof CustodyQuerySchema>;

@@ -13,7 +13,13 @@ import type { DomainIssue, Result } from "@/lib/errors";
 import { labelOf } from "@/lib/ledger/kinds";
 import { parseInput } from "@/lib/ledger/parse";
 import { toGrams } from "@/lib/quantity/units";
-import { buildCustodyLedger, checkClaim, convertCredit, getBalancePeriodOf, RULESET_EU_2022_996 } from "@/lib/custody/custody-balance";
+import {
+  buildCustodyLedger,
+  checkClaim,
+  convertCredit,
+  getBalancePeriodOf,
+  RULESET_EU_2022_996,
+} from "@/lib/custody/custody-balance";
 import { CustodyQuerySchema } from "@/lib/custody/custody.schema";
 import type {
   BalanceAccount,
@@ -100,27 +106,54 @@ export interface CustodyReport {
   claims: ClaimRow[];
   conversions: ConversionRow[];
   /** Feedstock that is not credited, and why. */
-  notCredited: { lotOnlyG: number; sourceOnlyG: number; surplusG: number; withheldG: number; withheldSources: string[] };
-  claimCheck: { ok: true; setKey: string; massG: number; check: ClaimCheck } | { ok: false; setKey: string; massG: number; issues: DomainIssue[] } | null;
+  notCredited: {
+    lotOnlyG: number;
+    sourceOnlyG: number;
+    surplusG: number;
+    withheldG: number;
+    withheldSources: string[];
+  };
+  claimCheck:
+    | { ok: true; setKey: string; massG: number; check: ClaimCheck }
+    | { ok: false; setKey: string; massG: number; issues: DomainIssue[] }
+    | null;
   bookings: number;
   computeMs: number;
   trace: LedgerFreshness;
 }
 
-const MATERIAL_WORDS: Readonly<Record<string, string>> = { FAME: "Methyl ester (credit for claims)", WRITTEN_OFF: "Written off (receiving shortfall)" };
+const MATERIAL_WORDS: Readonly<Record<string, string>> = {
+  FAME: "Methyl ester (credit for claims)",
+  WRITTEN_OFF: "Written off (receiving shortfall)",
+};
 
-function setOf(entry: EntryHolderFacts | undefined, enteredAt: number): { key: string; scheme: string; material: string; certificate: string; source: string } | null {
+function setOf(
+  entry: EntryHolderFacts | undefined,
+  enteredAt: number,
+): { key: string; scheme: string; material: string; certificate: string; source: string } | null {
   if (entry === undefined || (entry.kind !== "PICKUP" && entry.kind !== "LOT")) return null;
   const s = entry.source;
   const lot = entry.lot;
-  if (lot === null || !lot.certified || s === null || s.certificateScheme === null || s.certificateNo === null) return null;
+  if (lot === null || !lot.certified || s === null || s.certificateScheme === null || s.certificateNo === null)
+    return null;
   if (s.certificateExpires !== null && s.certificateExpires.getTime() < enteredAt) return null;
   const material = entry.material ?? lot.material;
-  return { key: `${s.certificateScheme} | ${material}`, scheme: s.certificateScheme, material, certificate: s.certificateNo, source: s.code };
+  return {
+    key: `${s.certificateScheme} | ${material}`,
+    scheme: s.certificateScheme,
+    material,
+    certificate: s.certificateNo,
+    source: s.code,
+  };
 }
 
 /** The chain-of-custody ledger of a site under RULESET_EU_2022_996: inputs, conversions, claims, running balances. */
-export async function getCustodyReport(db: Db, site: { id: number; timeZone: string }, input: unknown, now: Date): Promise<Result<CustodyReport>> {
+export async function getCustodyReport(
+  db: Db,
+  site: { id: number; timeZone: string },
+  input: unknown,
+  now: Date,
+): Promise<Result<CustodyReport>> {
   const started = performance.now();
   const parsed = parseInput(CustodyQuerySchema, input);
   if (!parsed.ok) return parsed;
@@ -131,7 +164,14 @@ export async function getCustodyReport(db: Db, site: { id: number; timeZone: str
 
   // ---- inputs, by lot and set ----
   const setOfOrigin = new Map<number, string>();
-  const sets = new Map<string, { attributes: Record<string, string>; inputG: number; certificates: Map<string, { sources: Set<string>; grams: number }> }>();
+  const sets = new Map<
+    string,
+    {
+      attributes: Record<string, string>;
+      inputG: number;
+      certificates: Map<string, { sources: Set<string>; grams: number }>;
+    }
+  >();
   const inputs = new Map<string, { at: number; lotCode: string; setKey: string; material: string; grams: number }>();
   const notCredited = { lotOnlyG: 0, sourceOnlyG: 0, surplusG: 0, withheldG: 0, withheldSources: [] as string[] };
   const withheld = new Set<string>();
@@ -146,13 +186,19 @@ export async function getCustodyReport(db: Db, site: { id: number; timeZone: str
     }
     const set = setOf(entry, enteredAt);
     if (set === null || entry?.lot == null) {
-      if (entry?.lot?.certified && entry.kind === "LOT" && entry.lot.origin !== "DELIVERY") notCredited.surplusG += e.massG;
+      if (entry?.lot?.certified && entry.kind === "LOT" && entry.lot.origin !== "DELIVERY")
+        notCredited.surplusG += e.massG;
       else if (entry?.lot?.certified) notCredited.lotOnlyG += e.massG;
-      else if (entry?.source?.certificateNo && (entry.kind === "PICKUP" || entry.kind === "LOT")) notCredited.sourceOnlyG += e.massG;
+      else if (entry?.source?.certificateNo && (entry.kind === "PICKUP" || entry.kind === "LOT"))
+        notCredited.sourceOnlyG += e.massG;
       continue;
     }
     setOfOrigin.set(e.id, set.key);
-    const s = sets.get(set.key) ?? { attributes: { scheme: set.scheme, material: set.material }, inputG: 0, certificates: new Map<string, { sources: Set<string>; grams: number }>() };
+    const s = sets.get(set.key) ?? {
+      attributes: { scheme: set.scheme, material: set.material },
+      inputG: 0,
+      certificates: new Map<string, { sources: Set<string>; grams: number }>(),
+    };
     s.inputG += e.massG;
     const c = s.certificates.get(set.certificate) ?? { sources: new Set<string>(), grams: 0 };
     c.sources.add(set.source);
@@ -173,7 +219,12 @@ export async function getCustodyReport(db: Db, site: { id: number; timeZone: str
   // ---- the certified share of receiving shortfalls and of the oil charged to batches, from the genealogy ----
   const batchByHolder = new Map(rows.batches.map((b) => [b.holderId, b]));
   const oilMoves = rows.batchMoves.filter((m) => m.role === "OIL" && batchByHolder.has(m.toHolderId));
-  const composed = await getMoveCompositions(db, site.id, [...oilMoves.map((m) => m.id), ...rows.lotLosses.map((m) => m.id)], now);
+  const composed = await getMoveCompositions(
+    db,
+    site.id,
+    [...oilMoves.map((m) => m.id), ...rows.lotLosses.map((m) => m.id)],
+    now,
+  );
   if (!composed.ok) return composed;
   const certifiedBySet = (moveId: number): Map<string, number> => {
     const bySet = new Map<string, number>();
@@ -191,7 +242,15 @@ export async function getCustodyReport(db: Db, site: { id: number; timeZone: str
   const describe = new Map<string, string>();
   for (const i of [...inputs.values()].sort((a, b) => a.at - b.at || a.lotCode.localeCompare(b.lotCode))) {
     const id = `IN:${i.lotCode}:${i.setKey}`;
-    bookings.push({ kind: "INPUT", id, at: i.at, setKey: i.setKey, material: i.material, massG: i.grams, reference: i.lotCode });
+    bookings.push({
+      kind: "INPUT",
+      id,
+      at: i.at,
+      setKey: i.setKey,
+      material: i.material,
+      massG: i.grams,
+      reference: i.lotCode,
+    });
     describe.set(id, `Certified lot ${i.lotCode} received`);
   }
   for (const m of rows.lotLosses) {
@@ -199,9 +258,23 @@ export async function getCustodyReport(db: Db, site: { id: number; timeZone: str
       if (grams <= 0) continue;
       const material = materialOfSet(setKey);
       const stepId = `RECEIVING_SHORTFALL:${material}`;
-      if (!steps.some((s) => s.id === stepId)) steps.push({ id: stepId, inputMaterial: material, outputs: [{ material: WRITTEN_OFF, outputMassG: 0, inputMassG: 1 }], basis: "receiving shortfall booked as a loss: no credit" });
+      if (!steps.some((s) => s.id === stepId))
+        steps.push({
+          id: stepId,
+          inputMaterial: material,
+          outputs: [{ material: WRITTEN_OFF, outputMassG: 0, inputMassG: 1 }],
+          basis: "receiving shortfall booked as a loss: no credit",
+        });
       const id = `LOSS:${m.id}:${setKey}`;
-      bookings.push({ kind: "CONVERSION", id, at: m.at.getTime(), setKey, stepId, inputMassG: grams, reference: `movement ${m.id}` });
+      bookings.push({
+        kind: "CONVERSION",
+        id,
+        at: m.at.getTime(),
+        setKey,
+        stepId,
+        inputMassG: grams,
+        reference: `movement ${m.id}`,
+      });
       describe.set(id, `Receiving shortfall written off (movement no. ${m.id})`);
     }
   }
@@ -210,28 +283,64 @@ export async function getCustodyReport(db: Db, site: { id: number; timeZone: str
     if (b.completedAt === null) continue;
     const oil = oilMoves.filter((m) => m.toHolderId === b.holderId);
     const oilG = oil.reduce((s, m) => s + m.massG, 0);
-    const esterG = rows.batchMoves.filter((m) => m.role === "ESTER" && m.fromHolderId === b.holderId).reduce((s, m) => s + m.massG, 0);
+    const esterG = rows.batchMoves
+      .filter((m) => m.role === "ESTER" && m.fromHolderId === b.holderId)
+      .reduce((s, m) => s + m.massG, 0);
     if (oilG === 0) continue;
     const bySet = new Map<string, number>();
     for (const m of oil) for (const [k, g] of certifiedBySet(m.id)) bySet.set(k, (bySet.get(k) ?? 0) + g);
-    const row: ConversionRow = { batchCode: b.code, completedAt: b.completedAt, oilG, esterG, factor: esterG / oilG, bySet: [] };
+    const row: ConversionRow = {
+      batchCode: b.code,
+      completedAt: b.completedAt,
+      oilG,
+      esterG,
+      factor: esterG / oilG,
+      bySet: [],
+    };
     for (const [setKey, certifiedOilG] of [...bySet].sort((x, y) => x[0].localeCompare(y[0]))) {
       if (certifiedOilG <= 0) continue;
       const material = materialOfSet(setKey);
       const output = { material: OUTPUT_MATERIAL, outputMassG: esterG, inputMassG: oilG };
       const stepId = `${b.code}:${material}`;
-      steps.push({ id: stepId, inputMaterial: material, outputs: [output], basis: `batch ${b.code}: ${esterG} g ester out of ${oilG} g oil in` });
+      steps.push({
+        id: stepId,
+        inputMaterial: material,
+        outputs: [output],
+        basis: `batch ${b.code}: ${esterG} g ester out of ${oilG} g oil in`,
+      });
       const id = `CONV:${b.code}:${setKey}`;
-      bookings.push({ kind: "CONVERSION", id, at: b.completedAt.getTime(), setKey, stepId, inputMassG: certifiedOilG, reference: b.code });
+      bookings.push({
+        kind: "CONVERSION",
+        id,
+        at: b.completedAt.getTime(),
+        setKey,
+        stepId,
+        inputMassG: certifiedOilG,
+        reference: b.code,
+      });
       describe.set(id, `Batch ${b.code}: certified oil converted at ${(esterG / oilG).toFixed(4)} kg ester per kg oil`);
-      row.bySet.push({ setKey, material, certifiedOilG, fameCreditG: convertCredit(certifiedOilG, output), accepted: true });
+      row.bySet.push({
+        setKey,
+        material,
+        certifiedOilG,
+        fameCreditG: convertCredit(certifiedOilG, output),
+        accepted: true,
+      });
     }
     conversions.push(row);
   }
 
   const characteristicSets: CharacteristicSet[] = [...sets].map(([key, s]) => ({ key, attributes: s.attributes }));
-  if (characteristicSets.length === 0) characteristicSets.push({ key: "NONE", attributes: { scheme: "none", material: "none" } });
-  const base: Omit<CustodyState, "bookings"> = { siteId: site.id, ruleSet, operatorType: q.operatorType, utcOffsetMin, sets: characteristicSets, steps };
+  if (characteristicSets.length === 0)
+    characteristicSets.push({ key: "NONE", attributes: { scheme: "none", material: "none" } });
+  const base: Omit<CustodyState, "bookings"> = {
+    siteId: site.id,
+    ruleSet,
+    operatorType: q.operatorType,
+    utcOffsetMin,
+    sets: characteristicSets,
+    steps,
+  };
 
   // ---- claims: each against the set with the most methyl-ester credit at the shipment time (our rule) ----
   const claimShipments = rows.shipments.filter((s) => s.certifiedClaim);
@@ -242,12 +351,22 @@ export async function getCustodyReport(db: Db, site: { id: number; timeZone: str
     const before = bookings.filter((b) => b.at <= at);
     const ledger = buildCustodyLedger({ ...base, bookings: before });
     const best = ledger.ok
-      ? ledger.value.accounts.filter((a) => a.material === OUTPUT_MATERIAL).sort((a, b) => b.balanceG - a.balanceG || a.setKey.localeCompare(b.setKey))[0]
+      ? ledger.value.accounts
+          .filter((a) => a.material === OUTPUT_MATERIAL)
+          .sort((a, b) => b.balanceG - a.balanceG || a.setKey.localeCompare(b.setKey))[0]
       : undefined;
     const setKey = best?.setKey ?? fallbackSet;
     claimSetOf.set(s.documentNo, setKey);
     const id = `CLAIM:${s.documentNo}`;
-    bookings.push({ kind: "CLAIM", id, at, setKey, material: OUTPUT_MATERIAL, massG: s.massG, reference: s.documentNo });
+    bookings.push({
+      kind: "CLAIM",
+      id,
+      at,
+      setKey,
+      material: OUTPUT_MATERIAL,
+      massG: s.massG,
+      reference: s.documentNo,
+    });
     describe.set(id, `Shipment ${s.documentNo} to ${s.customer} claimed certified`);
   }
 
@@ -264,22 +383,53 @@ export async function getCustodyReport(db: Db, site: { id: number; timeZone: str
     const entry = account?.entries.find((e) => e.bookingId === id);
     const f = failureOf.get(id);
     const availableG = f ? f.availableG : (entry?.balanceG ?? 0) + s.massG;
-    return { documentNo: s.documentNo, customer: s.customer, at: s.shippedAt, massG: s.massG, setKey, accepted: f === undefined, availableG, shortfallG: f?.shortfallG ?? 0 };
+    return {
+      documentNo: s.documentNo,
+      customer: s.customer,
+      at: s.shippedAt,
+      massG: s.massG,
+      setKey,
+      accepted: f === undefined,
+      availableG,
+      shortfallG: f?.shortfallG ?? 0,
+    };
   });
   for (const c of conversions) for (const s of c.bySet) s.accepted = !failureOf.has(`CONV:${c.batchCode}:${s.setKey}`);
 
   // ---- periods and the chosen one ----
   const periodsByLabel = new Map<string, { label: string; startsAt: Date; endsAt: Date; closed: boolean }>();
-  for (const a of ledger.accounts) for (const p of a.periods) periodsByLabel.set(p.label, { label: p.label, startsAt: new Date(p.startMs), endsAt: new Date(p.endMs), closed: p.closed });
+  for (const a of ledger.accounts)
+    for (const p of a.periods)
+      periodsByLabel.set(p.label, {
+        label: p.label,
+        startsAt: new Date(p.startMs),
+        endsAt: new Date(p.endMs),
+        closed: p.closed,
+      });
   const current = getBalancePeriodOf(state, now.getTime());
-  if (current !== null && !periodsByLabel.has(current.label)) periodsByLabel.set(current.label, { label: current.label, startsAt: new Date(current.startMs), endsAt: new Date(current.endMs), closed: false });
+  if (current !== null && !periodsByLabel.has(current.label))
+    periodsByLabel.set(current.label, {
+      label: current.label,
+      startsAt: new Date(current.startMs),
+      endsAt: new Date(current.endMs),
+      closed: false,
+    });
   const periods = [...periodsByLabel.values()].sort((a, b) => a.startsAt.getTime() - b.startsAt.getTime());
   const selectedLabel = q.period ?? current?.label ?? periods[periods.length - 1]?.label ?? "";
   const selected = periodsByLabel.get(selectedLabel);
-  if (selected === undefined) return fail("INPUT.INVALID", `Period: ${selectedLabel} is not a balance period of this ledger (${periods.map((p) => p.label).join(", ")})`, "period");
+  if (selected === undefined)
+    return fail(
+      "INPUT.INVALID",
+      `Period: ${selectedLabel} is not a balance period of this ledger (${periods.map((p) => p.label).join(", ")})`,
+      "period",
+    );
 
   const describeEntry = (e: LedgerEntry): string =>
-    e.bookingId === null ? (e.kind === "LAPSE" ? "Period end: balance lapses" : "Period end: balance carried forward") : (describe.get(e.bookingId) ?? e.bookingId);
+    e.bookingId === null
+      ? e.kind === "LAPSE"
+        ? "Period end: balance lapses"
+        : "Period end: balance carried forward"
+      : (describe.get(e.bookingId) ?? e.bookingId);
   const accounts: AccountView[] = ledger.accounts
     .filter((a) => !(a.material === WRITTEN_OFF && a.balanceG === 0))
     .map((a: BalanceAccount) => ({
@@ -290,7 +440,9 @@ export async function getCustodyReport(db: Db, site: { id: number; timeZone: str
       balanceG: a.balanceG,
       periods: a.periods,
       selected: a.periods.find((p) => p.label === selected.label) ?? null,
-      entries: a.entries.filter((e) => e.period === selected.label).map((e) => ({ ...e, description: describeEntry(e) })),
+      entries: a.entries
+        .filter((e) => e.period === selected.label)
+        .map((e) => ({ ...e, description: describeEntry(e) })),
     }))
     .sort((x, y) => x.setKey.localeCompare(y.setKey) || x.material.localeCompare(y.material));
 
@@ -301,16 +453,41 @@ export async function getCustodyReport(db: Db, site: { id: number; timeZone: str
     const fame = ledger.accounts.filter((a) => a.material === OUTPUT_MATERIAL).sort((a, b) => b.balanceG - a.balanceG);
     const setKey = q.claimSet ?? fame[0]?.setKey ?? fallbackSet;
     if (!characteristicSets.some((s) => s.key === setKey)) {
-      claimCheck = { ok: false, setKey, massG, issues: [{ code: "INPUT.INVALID", message: `Characteristic set "${setKey}" is not one of this site's sets`, field: "claimSet" }] };
+      claimCheck = {
+        ok: false,
+        setKey,
+        massG,
+        issues: [
+          {
+            code: "INPUT.INVALID",
+            message: `Characteristic set "${setKey}" is not one of this site's sets`,
+            field: "claimSet",
+          },
+        ],
+      };
     } else {
-      const claim: ClaimBooking = { kind: "CLAIM", id: "CLAIM:TRIED-NOW", at: now.getTime(), setKey, material: OUTPUT_MATERIAL, massG };
+      const claim: ClaimBooking = {
+        kind: "CLAIM",
+        id: "CLAIM:TRIED-NOW",
+        at: now.getTime(),
+        setKey,
+        material: OUTPUT_MATERIAL,
+        massG,
+      };
       const checked = checkClaim(state, claim);
-      claimCheck = checked.ok ? { ok: true, setKey, massG, check: checked.value } : { ok: false, setKey, massG, issues: checked.issues };
+      claimCheck = checked.ok
+        ? { ok: true, setKey, massG, check: checked.value }
+        : { ok: false, setKey, massG, issues: checked.issues };
     }
   }
 
   return ok({
-    query: { period: selected.label, operatorType: q.operatorType, claimKg: q.claimKg ?? null, claimSet: q.claimSet ?? null },
+    query: {
+      period: selected.label,
+      operatorType: q.operatorType,
+      claimKg: q.claimKg ?? null,
+      claimSet: q.claimSet ?? null,
+    },
     ruleSet,
     periodMonths: ledger.periodMonths,
     periods,
@@ -320,7 +497,9 @@ export async function getCustodyReport(db: Db, site: { id: number; timeZone: str
         key,
         attributes: s.attributes,
         inputG: s.inputG,
-        certificates: [...s.certificates].map(([certificate, c]) => ({ certificate, sources: [...c.sources].sort(), grams: c.grams })).sort((a, b) => b.grams - a.grams || a.certificate.localeCompare(b.certificate)),
+        certificates: [...s.certificates]
+          .map(([certificate, c]) => ({ certificate, sources: [...c.sources].sort(), grams: c.grams }))
+          .sort((a, b) => b.grams - a.grams || a.certificate.localeCompare(b.certificate)),
       }))
       .sort((a, b) => a.key.localeCompare(b.key)),
     accounts,

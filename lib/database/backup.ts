@@ -10,8 +10,27 @@ import { isPostgresUrl, openDb, sqliteFilePath } from "@/lib/database/connect";
 import { verifyChain } from "@/lib/audit/chain";
 
 export const CHECKED_TABLES = [
-  "Site", "User", "Source", "Holder", "Pickup", "FeedstockLot", "Titration", "LabTest", "Tank", "TankGauge", "ReagentLot", "Batch",
-  "ProductLot", "QcResult", "Shipment", "WasteContainer", "Disposal", "AccountingPeriod", "PeriodEvent", "Movement", "AuditEvent",
+  "Site",
+  "User",
+  "Source",
+  "Holder",
+  "Pickup",
+  "FeedstockLot",
+  "Titration",
+  "LabTest",
+  "Tank",
+  "TankGauge",
+  "ReagentLot",
+  "Batch",
+  "ProductLot",
+  "QcResult",
+  "Shipment",
+  "WasteContainer",
+  "Disposal",
+  "AccountingPeriod",
+  "PeriodEvent",
+  "Movement",
+  "AuditEvent",
 ] as const;
 
 export interface DatabaseFacts {
@@ -34,7 +53,10 @@ export async function collectFacts(db: Db, url: string): Promise<DatabaseFacts> 
   }
   const hash = createHash("sha256");
   const net = new Map<number, number>();
-  const moves = await db.movement.findMany({ orderBy: { id: "asc" }, select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true } });
+  const moves = await db.movement.findMany({
+    orderBy: { id: "asc" },
+    select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true },
+  });
   for (const m of moves) {
     hash.update(`${m.id}|${m.at.toISOString()}|${m.fromHolderId ?? ""}|${m.toHolderId}|${m.massG}\n`);
     net.set(m.toHolderId, (net.get(m.toHolderId) ?? 0) + m.massG);
@@ -87,7 +109,13 @@ export async function backupDatabase(url: string, target: string, now: Date): Pr
         source.close();
       }
     }
-    const manifest: BackupManifest = { createdAt: now.toISOString(), provider, file: path.basename(target), fileSha256: sha256File(target), facts };
+    const manifest: BackupManifest = {
+      createdAt: now.toISOString(),
+      provider,
+      file: path.basename(target),
+      fileSha256: sha256File(target),
+      facts,
+    };
     writeFileSync(`${target}.manifest.json`, `${JSON.stringify(manifest, null, 2)}\n`);
     return manifest;
   } finally {
@@ -104,10 +132,16 @@ export interface RestoreReport {
 /** Compares a restored database with the manifest taken at backup time. */
 export function compareFacts(expected: DatabaseFacts, actual: DatabaseFacts): string[] {
   const problems: string[] = [];
-  for (const [t, n] of Object.entries(expected.rowCounts)) if (actual.rowCounts[t] !== n) problems.push(`${t}: ${actual.rowCounts[t] ?? 0} rows, expected ${n}`);
+  for (const [t, n] of Object.entries(expected.rowCounts))
+    if (actual.rowCounts[t] !== n) problems.push(`${t}: ${actual.rowCounts[t] ?? 0} rows, expected ${n}`);
   if (actual.ledgerChecksum !== expected.ledgerChecksum) problems.push("ledger checksum differs from the backup's");
-  for (const [site, h] of Object.entries(expected.auditHeads)) if (actual.auditHeads[site] !== h) problems.push(`audit chain of site ${site}: ${actual.auditHeads[site] ?? "missing"}`);
-  if (actual.stockMismatches.length) problems.push(`${actual.stockMismatches.length} holders' book stock differs from the ledger, e.g. ${actual.stockMismatches[0]}`);
+  for (const [site, h] of Object.entries(expected.auditHeads))
+    if (actual.auditHeads[site] !== h)
+      problems.push(`audit chain of site ${site}: ${actual.auditHeads[site] ?? "missing"}`);
+  if (actual.stockMismatches.length)
+    problems.push(
+      `${actual.stockMismatches.length} holders' book stock differs from the ledger, e.g. ${actual.stockMismatches[0]}`,
+    );
   if (actual.integrity !== "ok") problems.push(`integrity check: ${actual.integrity}`);
   return problems;
 }
@@ -118,10 +152,18 @@ export function compareFacts(expected: DatabaseFacts, actual: DatabaseFacts): st
  */
 export async function restoreDatabase(backup: string, url: string): Promise<RestoreReport> {
   const manifest = JSON.parse(readFileSync(`${backup}.manifest.json`, "utf8")) as BackupManifest;
-  if (sha256File(backup) !== manifest.fileSha256) return { ok: false, problems: ["the backup file does not match its manifest checksum"], facts: manifest.facts };
+  if (sha256File(backup) !== manifest.fileSha256)
+    return { ok: false, problems: ["the backup file does not match its manifest checksum"], facts: manifest.facts };
   if (isPostgresUrl(url)) {
-    if (manifest.provider !== "postgresql") return { ok: false, problems: ["a SQLite backup cannot be restored into PostgreSQL with this command"], facts: manifest.facts };
-    execFileSync("pg_restore", ["--clean", "--if-exists", "--no-owner", `--dbname=${url}`, backup], { stdio: ["ignore", "ignore", "inherit"] });
+    if (manifest.provider !== "postgresql")
+      return {
+        ok: false,
+        problems: ["a SQLite backup cannot be restored into PostgreSQL with this command"],
+        facts: manifest.facts,
+      };
+    execFileSync("pg_restore", ["--clean", "--if-exists", "--no-owner", `--dbname=${url}`, backup], {
+      stdio: ["ignore", "ignore", "inherit"],
+    });
     const db = await openDb(url);
     try {
       const facts = await collectFacts(db, url);

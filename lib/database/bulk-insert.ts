@@ -55,7 +55,11 @@ function* chunks<T>(rows: readonly T[], width: number): Generator<readonly T[]> 
   for (let i = 0; i < rows.length; i += size) yield rows.slice(i, i + size);
 }
 
-function flatten(dialect: Dialect, width: number, part: ReadonlyArray<readonly SqlValue[]>): Array<string | number | null> {
+function flatten(
+  dialect: Dialect,
+  width: number,
+  part: ReadonlyArray<readonly SqlValue[]>,
+): Array<string | number | null> {
   const params: Array<string | number | null> = [];
   for (const row of part) {
     invariant(row.length === width, `a row has ${row.length} values for ${width} columns`);
@@ -65,7 +69,12 @@ function flatten(dialect: Dialect, width: number, part: ReadonlyArray<readonly S
 }
 
 /** Inserts the rows in as few statements as the parameter limits allow. Rows are value arrays in column order. */
-export async function insertRows(tx: Tx, table: string, columns: readonly string[], rows: ReadonlyArray<readonly SqlValue[]>): Promise<void> {
+export async function insertRows(
+  tx: Tx,
+  table: string,
+  columns: readonly string[],
+  rows: ReadonlyArray<readonly SqlValue[]>,
+): Promise<void> {
   const dialect = dialectOf(tx);
   for (const part of chunks(rows, columns.length)) {
     const sql = statement(dialect, table, columns, part.length);

@@ -17,7 +17,8 @@ const BUSY_TEXT = /database (table )?is locked|SQLITE_BUSY/i;
 // PostgreSQL SQLSTATE class 08 (connection exception) and 57P01–57P03 (admin/crash shutdown, cannot
 // connect now), per the PostgreSQL manual's Appendix A; socket errors from Node's net module.
 const PG_LOST_CODES = /^(08[0-9A-Z]{3}|57P0[123]|ECONNRESET|ECONNREFUSED|EPIPE|ETIMEDOUT|ENOTFOUND)$/;
-const PG_LOST_TEXT = /connection terminated|terminating connection|server closed the connection|connection (is )?closed|not queryable|ECONNRESET|ECONNREFUSED|EPIPE|57P01|Can't reach database server/i;
+const PG_LOST_TEXT =
+  /connection terminated|terminating connection|server closed the connection|connection (is )?closed|not queryable|ECONNRESET|ECONNREFUSED|EPIPE|57P01|Can't reach database server/i;
 // Prisma's own codes for the same situations: P1001 cannot reach, P1017 server closed the connection;
 // driver-adapter kinds are carried as `kind` on the error's cause.
 const PRISMA_LOST = new Set(["P1001", "P1017"]);
@@ -47,7 +48,8 @@ function collect(error: unknown, into: Fields = { codes: [], texts: [] }, depth 
 export function classifyDatabaseFault(error: unknown): DatabaseFault | null {
   const { codes, texts } = collect(error);
   if (codes.some((c) => BUSY_CODES.test(c)) || texts.some((t) => BUSY_TEXT.test(t))) return "DATABASE.BUSY";
-  if (codes.some((c) => PG_LOST_CODES.test(c) || PRISMA_LOST.has(c) || ADAPTER_LOST.has(c))) return "DATABASE.UNAVAILABLE";
+  if (codes.some((c) => PG_LOST_CODES.test(c) || PRISMA_LOST.has(c) || ADAPTER_LOST.has(c)))
+    return "DATABASE.UNAVAILABLE";
   if (texts.some((t) => PG_LOST_TEXT.test(t))) return "DATABASE.UNAVAILABLE";
   return null;
 }

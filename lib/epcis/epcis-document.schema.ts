@@ -6,25 +6,86 @@ import { z } from "zod";
 /** An absolute URI (RFC 3986 scheme ":" rest), as JSON Schema "format": "uri" requires. */
 const uri = z.string().regex(/^[A-Za-z][A-Za-z0-9+.-]*:[^\s]+$/, "must be an absolute URI");
 const time = z.iso.datetime({ offset: true });
-const timeZoneOffset = z.string().regex(/^([+]|[-])((0[0-9]|1[0-3]):([0-5][0-9])|14:00)$/, "must be ±hh:mm between -13:59 and +14:00");
+const timeZoneOffset = z
+  .string()
+  .regex(/^([+]|[-])((0[0-9]|1[0-3]):([0-5][0-9])|14:00)$/, "must be ±hh:mm between -13:59 and +14:00");
 
 export const CBV_BIZ_STEPS = [
-  "accepting", "arriving", "assembling", "collecting", "commissioning", "consigning", "creating_class_instance", "cycle_counting", "decommissioning",
-  "departing", "destroying", "disassembling", "dispensing", "encoding", "entering_exiting", "holding", "inspecting", "installing", "killing", "loading",
-  "other", "packing", "picking", "receiving", "removing", "repackaging", "repairing", "replacing", "reserving", "retail_selling", "shipping",
-  "staging_outbound", "stock_taking", "stocking", "storing", "transporting", "unloading", "unpacking", "void_shipping", "sensor_reporting", "sampling",
+  "accepting",
+  "arriving",
+  "assembling",
+  "collecting",
+  "commissioning",
+  "consigning",
+  "creating_class_instance",
+  "cycle_counting",
+  "decommissioning",
+  "departing",
+  "destroying",
+  "disassembling",
+  "dispensing",
+  "encoding",
+  "entering_exiting",
+  "holding",
+  "inspecting",
+  "installing",
+  "killing",
+  "loading",
+  "other",
+  "packing",
+  "picking",
+  "receiving",
+  "removing",
+  "repackaging",
+  "repairing",
+  "replacing",
+  "reserving",
+  "retail_selling",
+  "shipping",
+  "staging_outbound",
+  "stock_taking",
+  "stocking",
+  "storing",
+  "transporting",
+  "unloading",
+  "unpacking",
+  "void_shipping",
+  "sensor_reporting",
+  "sampling",
 ] as const;
 /** A CBV bare word, or a URI that is not the long form of a CBV word. */
-const bizStep = z.union([z.enum(CBV_BIZ_STEPS), uri.refine((v) => !/^(https:\/\/ns\.gs1\.org\/cbv\/BizStep-|urn:epcglobal:cbv:bizstep)/.test(v), "use the bare CBV word")]);
+const bizStep = z.union([
+  z.enum(CBV_BIZ_STEPS),
+  uri.refine(
+    (v) => !/^(https:\/\/ns\.gs1\.org\/cbv\/BizStep-|urn:epcglobal:cbv:bizstep)/.test(v),
+    "use the bare CBV word",
+  ),
+]);
 const SOURCE_DEST_TYPES = ["owning_party", "possessing_party", "location"] as const;
 const sourceDestType = z.union([z.enum(SOURCE_DEST_TYPES), uri]);
 
-const quantityElement = z.strictObject({ epcClass: uri, quantity: z.number(), uom: z.string().regex(/^[A-Z0-9]{2,3}$/).optional() });
+const quantityElement = z.strictObject({
+  epcClass: uri,
+  quantity: z.number(),
+  uom: z
+    .string()
+    .regex(/^[A-Z0-9]{2,3}$/)
+    .optional(),
+});
 const quantityList = z.array(quantityElement);
 const epcList = z.array(uri).refine((l) => new Set(l).size === l.length, "items must be unique");
 const place = z.object({ id: uri });
 
-const COMMON_KEYS = ["@context", "type", "eventTime", "recordTime", "eventTimeZoneOffset", "eventID", "errorDeclaration", "certificationInfo"];
+const COMMON_KEYS = [
+  "@context",
+  "type",
+  "eventTime",
+  "recordTime",
+  "eventTimeZoneOffset",
+  "eventID",
+  "errorDeclaration",
+  "certificationInfo",
+];
 
 const eventBase = {
   eventTime: time,
@@ -35,7 +96,9 @@ const eventBase = {
   disposition: z.union([z.string().regex(/^[a-z_]+$/), uri]).optional(),
   readPoint: place.optional(),
   bizLocation: place.optional(),
-  bizTransactionList: z.array(z.strictObject({ type: z.union([z.string().regex(/^[a-z_]+$/), uri]).optional(), bizTransaction: uri })).optional(),
+  bizTransactionList: z
+    .array(z.strictObject({ type: z.union([z.string().regex(/^[a-z_]+$/), uri]).optional(), bizTransaction: uri }))
+    .optional(),
   sourceList: z.array(z.strictObject({ type: sourceDestType, source: uri })).optional(),
   destinationList: z.array(z.strictObject({ type: sourceDestType, destination: uri })).optional(),
   ilmd: z.record(z.string(), z.unknown()).optional(),
@@ -44,14 +107,38 @@ const eventBase = {
 /** Keys outside the standard's own must be namespaced (compact IRIs or URIs), like "example:myField". */
 function extensionsNamespaced(known: readonly string[]) {
   return (e: Record<string, unknown>, ctx: z.RefinementCtx) => {
-    for (const k of Object.keys(e)) if (!known.includes(k) && !COMMON_KEYS.includes(k) && !k.includes(":")) ctx.addIssue({ code: "custom", message: `${k} is neither an EPCIS field nor a namespaced extension`, path: [k] });
+    for (const k of Object.keys(e))
+      if (!known.includes(k) && !COMMON_KEYS.includes(k) && !k.includes(":"))
+        ctx.addIssue({
+          code: "custom",
+          message: `${k} is neither an EPCIS field nor a namespaced extension`,
+          path: [k],
+        });
   };
 }
 
 const objectEvent = z
-  .looseObject({ type: z.literal("ObjectEvent"), action: z.enum(["OBSERVE", "ADD", "DELETE"]), epcList: epcList.optional(), quantityList: quantityList.optional(), ...eventBase })
-  .superRefine(extensionsNamespaced(["action", "epcList", "quantityList", ...Object.keys(eventBase), "persistentDisposition", "sensorElementList"]))
-  .refine((e) => e.epcList !== undefined || (e.quantityList?.length ?? 0) >= 1, "an ObjectEvent needs epcList or a non-empty quantityList")
+  .looseObject({
+    type: z.literal("ObjectEvent"),
+    action: z.enum(["OBSERVE", "ADD", "DELETE"]),
+    epcList: epcList.optional(),
+    quantityList: quantityList.optional(),
+    ...eventBase,
+  })
+  .superRefine(
+    extensionsNamespaced([
+      "action",
+      "epcList",
+      "quantityList",
+      ...Object.keys(eventBase),
+      "persistentDisposition",
+      "sensorElementList",
+    ]),
+  )
+  .refine(
+    (e) => e.epcList !== undefined || (e.quantityList?.length ?? 0) >= 1,
+    "an ObjectEvent needs epcList or a non-empty quantityList",
+  )
   .refine((e) => e.ilmd === undefined || e.action === "ADD", "ilmd is allowed only with action ADD");
 
 const transformationEvent = z
@@ -64,7 +151,18 @@ const transformationEvent = z
     transformationID: uri.optional(),
     ...eventBase,
   })
-  .superRefine(extensionsNamespaced(["inputEPCList", "inputQuantityList", "outputEPCList", "outputQuantityList", "transformationID", ...Object.keys(eventBase), "persistentDisposition", "sensorElementList"]))
+  .superRefine(
+    extensionsNamespaced([
+      "inputEPCList",
+      "inputQuantityList",
+      "outputEPCList",
+      "outputQuantityList",
+      "transformationID",
+      ...Object.keys(eventBase),
+      "persistentDisposition",
+      "sensorElementList",
+    ]),
+  )
   .refine((e) => {
     const inputs = (e.inputEPCList?.length ?? 0) + (e.inputQuantityList?.length ?? 0) > 0;
     const outputs = (e.outputEPCList?.length ?? 0) + (e.outputQuantityList?.length ?? 0) > 0;

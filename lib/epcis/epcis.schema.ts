@@ -14,7 +14,9 @@ export const TRACE_DIRECTIONS = ["back", "fwd"] as const;
  */
 export const EpcisTraceQuerySchema = z.object({
   dir: oneOf("Direction", TRACE_DIRECTIONS),
-  kind: z.enum([...BACKWARD_KINDS, ...FORWARD_KINDS], { error: `Kind must be one of: ${[...BACKWARD_KINDS, ...FORWARD_KINDS].join(", ")}` }),
+  kind: z.enum([...BACKWARD_KINDS, ...FORWARD_KINDS], {
+    error: `Kind must be one of: ${[...BACKWARD_KINDS, ...FORWARD_KINDS].join(", ")}`,
+  }),
   code: code("Code"),
   /** Backward from a tank only: the moment to look into the tank. */
   at: z.preprocess(blank, when("Tank time").optional()),

@@ -34,21 +34,42 @@ function fileSafe(text: string): string {
 function common(site: SiteRow, opts: EpcisOptions, now: Date) {
   const ids = identifierScheme({ gs1CompanyPrefix: site.gs1CompanyPrefix, baseUri: opts.baseUri, siteCode: site.code });
   const eventBase = `${opts.baseUri.replace(/\/+$/, "")}/id/${encodeURIComponent(site.code)}/event`;
-  return { ids, eventBase, offsetMin: (atMs: number) => getUtcOffsetMin(site.timeZone, new Date(atMs)), createdAt: now };
+  return {
+    ids,
+    eventBase,
+    offsetMin: (atMs: number) => getUtcOffsetMin(site.timeZone, new Date(atMs)),
+    createdAt: now,
+  };
 }
 
 /** The events of a balance period (the same query and period as the balance page). */
-export async function epcisForPeriod(db: Db, site: SiteRow, input: unknown, now: Date, opts: EpcisOptions): Promise<Result<EpcisExport>> {
+export async function epcisForPeriod(
+  db: Db,
+  site: SiteRow,
+  input: unknown,
+  now: Date,
+  opts: EpcisOptions,
+): Promise<Result<EpcisExport>> {
   const balance = await getBalanceReport(db, site, input, now);
   if (!balance.ok) return balance;
   const { period } = balance.value;
   const ledger = await loadEpcisLedger(db, site.id, { withCustomers: opts.withCustomers });
-  const document = buildEpcisDocument({ ...ledger, ...common(site, opts, now), period: { startMs: period.startsAt.getTime(), endMs: period.endsAt.getTime() } });
+  const document = buildEpcisDocument({
+    ...ledger,
+    ...common(site, opts, now),
+    period: { startMs: period.startsAt.getTime(), endMs: period.endsAt.getTime() },
+  });
   return ok({ document, fileName: `epcis-${fileSafe(site.code)}-${fileSafe(period.label)}.json` });
 }
 
 /** The events behind one trace answer: the movements between the holders the answer covers. */
-export async function epcisForTrace(db: Db, site: SiteRow, input: unknown, now: Date, opts: EpcisOptions): Promise<Result<EpcisExport>> {
+export async function epcisForTrace(
+  db: Db,
+  site: SiteRow,
+  input: unknown,
+  now: Date,
+  opts: EpcisOptions,
+): Promise<Result<EpcisExport>> {
   const parsed = parseInput(EpcisTraceQuerySchema, input);
   if (!parsed.ok) return parsed;
   const q = parsed.value;
@@ -60,10 +81,15 @@ export async function epcisForTrace(db: Db, site: SiteRow, input: unknown, now: 
     const entries = back.value.origins.flatMap((o) => (o.entryHolder ? [o.entryHolder.id] : []));
     scope = backwardScope(ledger.moves, back.value.target.id, entries);
   } else {
-    const fwd = await traceForwardReport(db, site.id, { kind: q.kind, code: q.code }, now, { withCustomers: opts.withCustomers });
+    const fwd = await traceForwardReport(db, site.id, { kind: q.kind, code: q.code }, now, {
+      withCustomers: opts.withCustomers,
+    });
     if (!fwd.ok) return fwd;
     scope = new Set(fwd.value.holders.map((h) => h.holder.id));
   }
   const document = buildEpcisDocument({ ...ledger, ...common(site, opts, now), scope });
-  return ok({ document, fileName: `epcis-${fileSafe(site.code)}-${q.dir === "back" ? "in" : "from"}-${fileSafe(q.code)}.json` });
+  return ok({
+    document,
+    fileName: `epcis-${fileSafe(site.code)}-${q.dir === "back" ? "in" : "from"}-${fileSafe(q.code)}.json`,
+  });
 }

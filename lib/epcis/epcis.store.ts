@@ -7,7 +7,13 @@ import { findReversedPairs, toHolderKind } from "@/lib/ledger/movement.store";
 import type { EpcisHolder, EpcisMove } from "@/lib/epcis/epcis";
 
 /** Tanks pool what they hold; their material is named by service (as in the period balance). */
-const TANK_MATERIAL: Readonly<Record<string, string>> = { FEEDSTOCK: "MIXED_FEEDSTOCK", PRODUCT: "FAME", METHANOL: "METHANOL", GLYCEROL_PHASE: "GLYCEROL_PHASE", WASH_WATER: "WASH_WATER" };
+const TANK_MATERIAL: Readonly<Record<string, string>> = {
+  FEEDSTOCK: "MIXED_FEEDSTOCK",
+  PRODUCT: "FAME",
+  METHANOL: "METHANOL",
+  GLYCEROL_PHASE: "GLYCEROL_PHASE",
+  WASH_WATER: "WASH_WATER",
+};
 const ROLE_SET: ReadonlySet<string> = new Set(MOVE_ROLES);
 
 export interface EpcisLedger {
@@ -20,13 +26,23 @@ export interface EpcisLedger {
 export async function loadEpcisLedger(db: Db, siteId: number, opts: { withCustomers: boolean }): Promise<EpcisLedger> {
   const [holders, pickups, lots, tanks, reagents, waste, shipments, moves] = await Promise.all([
     db.holder.findMany({ where: { siteId }, select: { id: true, kind: true, code: true } }),
-    db.pickup.findMany({ where: { siteId }, select: { holderId: true, material: true, source: { select: { code: true } } } }),
-    db.feedstockLot.findMany({ where: { siteId }, select: { holderId: true, material: true, supplier: { select: { code: true } } } }),
+    db.pickup.findMany({
+      where: { siteId },
+      select: { holderId: true, material: true, source: { select: { code: true } } },
+    }),
+    db.feedstockLot.findMany({
+      where: { siteId },
+      select: { holderId: true, material: true, supplier: { select: { code: true } } },
+    }),
     db.tank.findMany({ where: { siteId }, select: { holderId: true, service: true } }),
     db.reagentLot.findMany({ where: { siteId }, select: { holderId: true, reagent: true } }),
     db.wasteContainer.findMany({ where: { siteId }, select: { holderId: true, stream: true } }),
     db.shipment.findMany({ where: { siteId }, select: { holderId: true, customerRef: { select: { code: true } } } }),
-    db.movement.findMany({ where: { siteId }, select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, role: true, reversesId: true }, orderBy: [{ at: "asc" }, { id: "asc" }] }),
+    db.movement.findMany({
+      where: { siteId },
+      select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, role: true, reversesId: true },
+      orderBy: [{ at: "asc" }, { id: "asc" }],
+    }),
   ]);
   const material = new Map<number, string>();
   const source = new Map<number, string>();
@@ -48,13 +64,27 @@ export async function loadEpcisLedger(db: Db, siteId: number, opts: { withCustom
     holders: holders.map((h) => {
       const kind = toHolderKind(h.kind);
       const m = kind === "PRODUCT_LOT" || kind === "SHIPMENT" ? "FAME" : (material.get(h.id) ?? null);
-      return { id: h.id, kind, code: h.code, material: m, sourceCode: source.get(h.id) ?? null, customerCode: customer.get(h.id) ?? null };
+      return {
+        id: h.id,
+        kind,
+        code: h.code,
+        material: m,
+        sourceCode: source.get(h.id) ?? null,
+        customerCode: customer.get(h.id) ?? null,
+      };
     }),
     moves: moves
       .filter((m) => !paired.has(m.id))
       .map((m) => {
         invariant(ROLE_SET.has(m.role), `unknown movement role ${m.role} in the database`);
-        return { id: m.id, at: m.at.getTime(), fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG, role: m.role as MoveRole };
+        return {
+          id: m.id,
+          at: m.at.getTime(),
+          fromHolderId: m.fromHolderId,
+          toHolderId: m.toHolderId,
+          massG: m.massG,
+          role: m.role as MoveRole,
+        };
       }),
   };
 }

@@ -84,7 +84,12 @@ export interface EpcisInput {
 }
 
 const OUTPUT_ROLES: ReadonlySet<MoveRole> = new Set(BATCH_OUTPUT_ROLES);
-const OUTPUT_MATERIAL: Partial<Record<MoveRole, string>> = { ESTER: "FAME", GLYCEROL_PHASE: "GLYCEROL_PHASE", WASH_WATER: "WASH_WATER", RECOVERED_METHANOL: "METHANOL" };
+const OUTPUT_MATERIAL: Partial<Record<MoveRole, string>> = {
+  ESTER: "FAME",
+  GLYCEROL_PHASE: "GLYCEROL_PHASE",
+  WASH_WATER: "WASH_WATER",
+  RECOVERED_METHANOL: "METHANOL",
+};
 
 /** EPCIS eventTimeZoneOffset: "+hh:mm" or "-hh:mm". */
 export function formatOffset(offsetMin: number): string {
@@ -147,7 +152,8 @@ function moveEvent(m: EpcisMove, holders: ReadonlyMap<number, EpcisHolder>, inpu
   } else if (from !== undefined && to.kind === "SHIPMENT") {
     event.bizTransactionList = [{ type: "bol", bizTransaction: ids.document("shipment", to.code) }];
     event.sourceList = [{ type: "owning_party", source: ids.site() }];
-    if (to.customerCode) event.destinationList = [{ type: "owning_party", destination: ids.party("customer", to.customerCode) }];
+    if (to.customerCode)
+      event.destinationList = [{ type: "owning_party", destination: ids.party("customer", to.customerCode) }];
   } else if (from !== undefined) {
     event.sourceList = [{ type: "location", source: locationOf(from, ids) }];
     event.destinationList = [{ type: "location", destination: locationOf(to, ids) }];
@@ -155,7 +161,12 @@ function moveEvent(m: EpcisMove, holders: ReadonlyMap<number, EpcisHolder>, inpu
   return event;
 }
 
-function batchEvent(batch: EpcisHolder, moves: readonly EpcisMove[], holders: ReadonlyMap<number, EpcisHolder>, input: EpcisInput): EpcisEvent | null {
+function batchEvent(
+  batch: EpcisHolder,
+  moves: readonly EpcisMove[],
+  holders: ReadonlyMap<number, EpcisHolder>,
+  input: EpcisInput,
+): EpcisEvent | null {
   const ids = input.ids;
   const inputs = moves.filter((m) => m.toHolderId === batch.id);
   const outputs = moves.filter((m) => m.fromHolderId === batch.id && OUTPUT_ROLES.has(m.role) && m.role !== "LOSS");
@@ -196,7 +207,12 @@ export function buildEpcisDocument(input: EpcisInput): EpcisDocument {
   const byBatch = new Map<number, EpcisMove[]>();
   const events: EpcisEvent[] = [];
   for (const m of input.moves) {
-    const batchId = holders.get(m.toHolderId)?.kind === "BATCH" ? m.toHolderId : m.fromHolderId !== null && holders.get(m.fromHolderId)?.kind === "BATCH" ? m.fromHolderId : null;
+    const batchId =
+      holders.get(m.toHolderId)?.kind === "BATCH"
+        ? m.toHolderId
+        : m.fromHolderId !== null && holders.get(m.fromHolderId)?.kind === "BATCH"
+          ? m.fromHolderId
+          : null;
     if (batchId !== null) {
       const list = byBatch.get(batchId) ?? [];
       list.push(m);

@@ -67,7 +67,9 @@ export function escapeEpcComponent(value: string): string {
 }
 
 function isGs1Alphanumeric(value: string): boolean {
-  return value.length > 0 && [...value].length <= MAX_LOT_LENGTH && [...value].every((c) => CHARACTER_SET_82.includes(c));
+  return (
+    value.length > 0 && [...value].length <= MAX_LOT_LENGTH && [...value].every((c) => CHARACTER_SET_82.includes(c))
+  );
 }
 
 export interface IdentifierScheme {
@@ -108,14 +110,25 @@ function gs1Scheme(prefix: string, own: IdentifierScheme): IdentifierScheme {
       const gtin = gtinFor(prefix, material);
       return `urn:epc:class:lgtin:${prefix}.${gtin.slice(0, 1)}${gtin.slice(1 + prefix.length, 13)}.${escapeEpcComponent(lot)}`;
     },
-    location: (tankCode) => (tankCode === undefined || !isGs1Alphanumeric(tankCode) ? (tankCode === undefined ? `urn:epc:id:sgln:${prefix}.${locationRef}.0` : own.location(tankCode)) : `urn:epc:id:sgln:${prefix}.${locationRef}.${escapeEpcComponent(tankCode)}`),
+    location: (tankCode) =>
+      tankCode === undefined || !isGs1Alphanumeric(tankCode)
+        ? tankCode === undefined
+          ? `urn:epc:id:sgln:${prefix}.${locationRef}.0`
+          : own.location(tankCode)
+        : `urn:epc:id:sgln:${prefix}.${locationRef}.${escapeEpcComponent(tankCode)}`,
     party: own.party,
     site: () => `urn:epc:id:pgln:${prefix}.${locationRef}`,
     document: own.document,
   };
 }
 
-export function identifierScheme(opts: { gs1CompanyPrefix: string | null; baseUri: string; siteCode: string }): IdentifierScheme {
+export function identifierScheme(opts: {
+  gs1CompanyPrefix: string | null;
+  baseUri: string;
+  siteCode: string;
+}): IdentifierScheme {
   const own = ownScheme(opts.baseUri, opts.siteCode);
-  return opts.gs1CompanyPrefix !== null && isGs1CompanyPrefix(opts.gs1CompanyPrefix) ? gs1Scheme(opts.gs1CompanyPrefix, own) : own;
+  return opts.gs1CompanyPrefix !== null && isGs1CompanyPrefix(opts.gs1CompanyPrefix)
+    ? gs1Scheme(opts.gs1CompanyPrefix, own)
+    : own;
 }

@@ -39,7 +39,11 @@ export function backwardScope(moves: readonly EpcisMove[], targetId: number, ent
 }
 
 /** Forward answer: the entry holders and every holder that received part of their material. */
-export function forwardScope(moves: readonly EpcisMove[], entryIds: readonly number[], reachedIds: readonly number[]): Set<number> {
+export function forwardScope(
+  moves: readonly EpcisMove[],
+  entryIds: readonly number[],
+  reachedIds: readonly number[],
+): Set<number> {
   const { down } = edges(moves);
   const downstream = reach(entryIds, down);
   return new Set([...entryIds, ...reachedIds.filter((id) => downstream.has(id))]);

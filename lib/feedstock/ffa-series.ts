@@ -66,7 +66,10 @@ export function computeFfaBySource(lots: readonly FfaLot[]): SourceFfaSeries[] {
     for (const code of new Set(lot.sourceCodes)) {
       if (!points.has(code)) points.set(code, []);
       if (ffa === null) untested.set(code, (untested.get(code) ?? 0) + 1);
-      else points.get(code)?.push({ lotCode: lot.code, at: lot.receivedAt, ffaPct: ffa, massG: lot.massG, material: lot.material });
+      else
+        points
+          .get(code)
+          ?.push({ lotCode: lot.code, at: lot.receivedAt, ffaPct: ffa, massG: lot.massG, material: lot.material });
     }
   }
   return [...points.keys()].sort().map((code) => summarise(code, points.get(code) ?? [], untested.get(code) ?? 0));

@@ -20,12 +20,16 @@ const CHUNK = 500;
 /** FFA (mean of valid titrations) and water (latest valid test) per lot, for the given lot ids. */
 export async function getLabResults(db: Db, lotIds: readonly number[]): Promise<Map<number, LotLabResult>> {
   const out = new Map<number, LotLabResult>();
-  for (const id of lotIds) out.set(id, { lotId: id, ffaPct: null, ffaBasis: "OLEIC", acidValue: null, titrations: 0, waterPct: null });
+  for (const id of lotIds)
+    out.set(id, { lotId: id, ffaPct: null, ffaBasis: "OLEIC", acidValue: null, titrations: 0, waterPct: null });
   // Chunked so a tank that goes back to many lots stays under SQLite's bound-parameter limit.
   for (let i = 0; i < lotIds.length; i += CHUNK) {
     const ids = lotIds.slice(i, i + CHUNK);
     const [titrations, water] = await Promise.all([
-      db.titration.findMany({ where: { lotId: { in: [...ids] }, voided: false }, select: { lotId: true, ffaPct: true, basis: true, acidValue: true } }),
+      db.titration.findMany({
+        where: { lotId: { in: [...ids] }, voided: false },
+        select: { lotId: true, ffaPct: true, basis: true, acidValue: true },
+      }),
       db.labTest.findMany({
         where: { lotId: { in: [...ids] }, voided: false, kind: "WATER" },
         orderBy: [{ testedAt: "desc" }, { id: "desc" }],
@@ -41,7 +45,13 @@ export async function getLabResults(db: Db, lotIds: readonly number[]): Promise<
     for (const [lotId, list] of readings) {
       const r = out.get(lotId);
       const mean = combineFfaReadings(list);
-      if (r && mean.ok) Object.assign(r, { ffaPct: mean.value.ffaPct, ffaBasis: mean.value.basis, acidValue: mean.value.acidValueMgKohG, titrations: mean.value.n });
+      if (r && mean.ok)
+        Object.assign(r, {
+          ffaPct: mean.value.ffaPct,
+          ffaBasis: mean.value.basis,
+          acidValue: mean.value.acidValueMgKohG,
+          titrations: mean.value.n,
+        });
     }
     for (const w of water) {
       const r = out.get(w.lotId);
@@ -50,4 +60,3 @@ export async function getLabResults(db: Db, lotIds: readonly number[]): Promise<
   }
   return out;
 }
-

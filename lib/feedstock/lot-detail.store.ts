@@ -73,9 +73,15 @@ export async function getLotDetail(db: Db, siteId: number, code: string): Promis
     include: {
       holder: { select: { stockG: true } },
       supplier: { select: { code: true, name: true } },
-      titrations: { orderBy: [{ testedAt: "asc" }, { id: "asc" }], include: { analyst: { select: { fullName: true } } } },
+      titrations: {
+        orderBy: [{ testedAt: "asc" }, { id: "asc" }],
+        include: { analyst: { select: { fullName: true } } },
+      },
       labTests: { orderBy: [{ testedAt: "asc" }, { id: "asc" }], include: { analyst: { select: { fullName: true } } } },
-      pickups: { orderBy: [{ observedAt: "asc" }, { id: "asc" }], include: { source: { select: { code: true, name: true } } } },
+      pickups: {
+        orderBy: [{ observedAt: "asc" }, { id: "asc" }],
+        include: { source: { select: { code: true, name: true } } },
+      },
     },
   });
   if (!r) return null;
@@ -230,7 +236,6 @@ const UPSTREAM_KINDS: ReadonlySet<HolderKind> = new Set(["PICKUP", "DELIVERY"]);
 
 export type ReplayOrder = "dated" | "booked";
 
-
 /**
  * Where a lot's material went (lot → tank → batch → product lot → shipment, and waste or losses), from
  * its backward trace and the forward trace of its origins (lot-flow.service.ts runs them on the cache).
@@ -255,7 +260,11 @@ export async function describeLotFlow(
     return move !== undefined && move.fromHolderId !== null && isDownstream(move.toHolderId);
   });
   const shown = carried.slice(0, MAX_FLOW_MOVES);
-  const views = await listMovementsById(db, siteId, shown.map((m) => m.moveId));
+  const views = await listMovementsById(
+    db,
+    siteId,
+    shown.map((m) => m.moveId),
+  );
   const moves: FlowMove[] = [];
   for (const m of shown) {
     const v = views.get(m.moveId);
@@ -266,7 +275,8 @@ export async function describeLotFlow(
   const first = new Map<number, { rank: number; at: Date }>();
   carried.forEach((m, rank) => {
     const move = moveAt(index, m.moveId);
-    if (move && !first.has(move.toHolderId)) first.set(move.toHolderId, { rank, at: new Date(realAt.get(m.moveId) ?? move.at) });
+    if (move && !first.has(move.toHolderId))
+      first.set(move.toHolderId, { rank, at: new Date(realAt.get(m.moveId) ?? move.at) });
   });
   const destinations: Array<FlowDestination & { rank: number }> = [];
   for (const h of fwd.holders) {
@@ -298,7 +308,13 @@ function moveAt(index: LedgerIndex, moveId: number) {
  * Fallback when the ledger cannot be replayed: a move out of holder H counts when it is later than the
  * first arrival of the lot's material in H. It over-states (a tank may have been emptied in between).
  */
-export async function timeOrderedFlow(db: Db, siteId: number, ledger: TraceLedger, lotHolderId: number, traceProblem: string): Promise<LotFlow> {
+export async function timeOrderedFlow(
+  db: Db,
+  siteId: number,
+  ledger: TraceLedger,
+  lotHolderId: number,
+  traceProblem: string,
+): Promise<LotFlow> {
   const sorted = [...ledger.moves].sort((a, b) => a.at - b.at || a.id - b.id);
   const reachedAt = new Map<number, number>();
   let enteredG = 0;
@@ -323,7 +339,11 @@ export async function timeOrderedFlow(db: Db, siteId: number, ledger: TraceLedge
     d.receivedG += m.massG;
     byHolder.set(to.id, d);
   }
-  const views = await listMovementsById(db, siteId, picked.slice(0, MAX_FLOW_MOVES).map((m) => m.id));
+  const views = await listMovementsById(
+    db,
+    siteId,
+    picked.slice(0, MAX_FLOW_MOVES).map((m) => m.id),
+  );
   const moves: FlowMove[] = [];
   for (const m of picked.slice(0, MAX_FLOW_MOVES)) {
     const v = views.get(m.id);
@@ -356,7 +376,13 @@ export interface MadeOf {
 }
 
 /** Groups a backward trace's origins by the feedstock lot (or reagent lot) each entered through. */
-export async function describeMadeOf(db: Db, siteId: number, view: { ledger: TraceLedger; index: LedgerIndex }, back: HolderTrace, order: ReplayOrder): Promise<MadeOf> {
+export async function describeMadeOf(
+  db: Db,
+  siteId: number,
+  view: { ledger: TraceLedger; index: LedgerIndex },
+  back: HolderTrace,
+  order: ReplayOrder,
+): Promise<MadeOf> {
   const { ledger } = view;
   const entryHolder = new Map<number, number>();
   for (const o of back.received.origins) {
@@ -366,7 +392,10 @@ export async function describeMadeOf(db: Db, siteId: number, view: { ledger: Tra
   // The whole site's pickups and lots: a batch from a pooled tank can go back to thousands of pickups,
   // more than SQLite binds in one IN list.
   const [pickups, lots, reagentLots] = await Promise.all([
-    db.pickup.findMany({ where: { siteId, lotId: { not: null } }, select: { holderId: true, lot: { select: { code: true } } } }),
+    db.pickup.findMany({
+      where: { siteId, lotId: { not: null } },
+      select: { holderId: true, lot: { select: { code: true } } },
+    }),
     db.feedstockLot.findMany({ where: { siteId }, select: { holderId: true, code: true } }),
     db.reagentLot.findMany({ where: { siteId }, select: { holderId: true, reagent: true } }),
   ]);
@@ -392,5 +421,11 @@ export async function describeMadeOf(db: Db, siteId: number, view: { ledger: Tra
     groups.set(key, g);
   }
   const split = splitIngredients([...groups.values()]);
-  return { totalG: back.received.totalG, shares: split.feedstock, feedstockG: split.feedstockG, reagents: split.reagents, order };
+  return {
+    totalG: back.received.totalG,
+    shares: split.feedstock,
+    feedstockG: split.feedstockG,
+    reagents: split.reagents,
+    order,
+  };
 }

@@ -13,7 +13,16 @@ export async function getLotFlow(db: Db, siteId: number, lotHolderId: number, no
   const traced = await traceLotMaterial(db, siteId, lotHolderId, now);
   if (traced.ok) {
     const t = traced.value;
-    return describeLotFlow(db, siteId, t.ledger, lotHolderId, t.index, t, t.order === "dated" ? "trace" : "booking-order", t.orderProblem);
+    return describeLotFlow(
+      db,
+      siteId,
+      t.ledger,
+      lotHolderId,
+      t.index,
+      t,
+      t.order === "dated" ? "trace" : "booking-order",
+      t.orderProblem,
+    );
   }
   const problem = traced.issues.map((i) => i.message.replace(/\.$/, "")).join("; ");
   return timeOrderedFlow(db, siteId, await loadTraceLedger(db, siteId), lotHolderId, problem);

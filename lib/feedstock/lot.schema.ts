@@ -17,7 +17,11 @@ const density = z
  */
 const lotNumber = code("Lot number").superRefine((lot, ctx) => {
   const element = gs1LotElement(lot);
-  if (!element.ok) ctx.addIssue({ code: "custom", message: `${element.issues[0]?.message ?? "Lot number cannot be carried in a GS1 barcode"}, so it could not go in the label's barcode` });
+  if (!element.ok)
+    ctx.addIssue({
+      code: "custom",
+      message: `${element.issues[0]?.message ?? "Lot number cannot be carried in a GS1 barcode"}, so it could not go in the label's barcode`,
+    });
 });
 
 const common = {
@@ -60,9 +64,14 @@ export type DeliveryLotInput = z.input<typeof DeliveryLotSchema>;
 export const LabTestSchema = z.object({
   lotCode: code("Lot number"),
   testedAt: when("Test time"),
-  kind: z.enum(["WATER", "INSOLUBLES", "UNSAPONIFIABLES"], { error: "Test: choose water, insolubles or unsaponifiables" }),
+  kind: z.enum(["WATER", "INSOLUBLES", "UNSAPONIFIABLES"], {
+    error: "Test: choose water, insolubles or unsaponifiables",
+  }),
   method: text("Method", 80).min(1, "Method is required"),
-  valuePct: z.number({ error: "Result (%) must be a number" }).min(0, "Result must be at least 0 %").max(100, "Result must be at most 100 %"),
+  valuePct: z
+    .number({ error: "Result (%) must be a number" })
+    .min(0, "Result must be at least 0 %")
+    .max(100, "Result must be at most 100 %"),
 });
 export type LabTestInput = z.input<typeof LabTestSchema>;
 

@@ -19,7 +19,15 @@ interface LotCore {
 
 export async function insertLot(
   tx: Tx,
-  r: { siteId: number; holderId: number; origin: "PICKUPS" | "DELIVERY"; supplierId?: number; deliveryDocument?: string; input: LotCore; measured: Measured },
+  r: {
+    siteId: number;
+    holderId: number;
+    origin: "PICKUPS" | "DELIVERY";
+    supplierId?: number;
+    deliveryDocument?: string;
+    input: LotCore;
+    measured: Measured;
+  },
 ): Promise<{ id: number; code: string }> {
   const l = r.input;
   return tx.feedstockLot.create({
@@ -48,14 +56,20 @@ export async function insertLot(
 }
 
 export async function requireLot(tx: Tx, siteId: number, code: string, field: string) {
-  const lot = await tx.feedstockLot.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, holderId: true, status: true, material: true, screeningHold: true } });
+  const lot = await tx.feedstockLot.findUnique({
+    where: { siteId_code: { siteId, code } },
+    select: { id: true, holderId: true, status: true, material: true, screeningHold: true },
+  });
   if (!lot) reject("RECORD.NOT_FOUND", `Lot ${code} does not exist`, field);
   return lot;
 }
 
 /** The site's sink for recorded losses (one per site, created on first use). */
 export async function siteLossHolder(tx: Tx, siteId: number): Promise<number> {
-  const found = await tx.holder.findUnique({ where: { siteId_kind_code: { siteId, kind: "LOSS", code: "LOSSES" } }, select: { id: true } });
+  const found = await tx.holder.findUnique({
+    where: { siteId_kind_code: { siteId, kind: "LOSS", code: "LOSSES" } },
+    select: { id: true },
+  });
   if (found) return found.id;
   return (await tx.holder.create({ data: { siteId, kind: "LOSS", code: "LOSSES" }, select: { id: true } })).id;
 }
@@ -79,7 +93,11 @@ export interface LotRow {
   supplier: string | null;
 }
 
-export async function listLots(db: Db, siteId: number, opts: { status?: string; skip?: number; take?: number } = {}): Promise<{ rows: LotRow[]; total: number }> {
+export async function listLots(
+  db: Db,
+  siteId: number,
+  opts: { status?: string; skip?: number; take?: number } = {},
+): Promise<{ rows: LotRow[]; total: number }> {
   const where = { siteId, ...(opts.status ? { status: opts.status } : {}) };
   const [rows, total] = await Promise.all([
     db.feedstockLot.findMany({
@@ -89,8 +107,17 @@ export async function listLots(db: Db, siteId: number, opts: { status?: string; 
       take: opts.take ?? 100,
       include: {
         holder: { select: { stockG: true } },
-        titrations: { where: { voided: false }, orderBy: { testedAt: "desc" }, select: { ffaPct: true, basis: true, acidValue: true } },
-        labTests: { where: { voided: false, kind: "WATER" }, orderBy: { testedAt: "desc" }, take: 1, select: { valuePct: true } },
+        titrations: {
+          where: { voided: false },
+          orderBy: { testedAt: "desc" },
+          select: { ffaPct: true, basis: true, acidValue: true },
+        },
+        labTests: {
+          where: { voided: false, kind: "WATER" },
+          orderBy: { testedAt: "desc" },
+          take: 1,
+          select: { valuePct: true },
+        },
         supplier: { select: { name: true } },
         _count: { select: { pickups: true } },
       },
@@ -130,7 +157,14 @@ export interface PickupForLot {
 export async function findPickupsByCode(tx: Tx, siteId: number, codes: string[]): Promise<PickupForLot[]> {
   const rows = await tx.pickup.findMany({
     where: { siteId, code: { in: codes } },
-    select: { id: true, code: true, holderId: true, lotId: true, observedAt: true, holder: { select: { stockG: true } } },
+    select: {
+      id: true,
+      code: true,
+      holderId: true,
+      lotId: true,
+      observedAt: true,
+      holder: { select: { stockG: true } },
+    },
   });
   return rows.map(({ holder, ...p }) => ({ ...p, stockG: holder.stockG }));
 }
@@ -139,7 +173,10 @@ export async function linkPickupToLot(tx: Tx, pickupId: number, lotId: number): 
   await tx.pickup.update({ where: { id: pickupId }, data: { lotId } });
 }
 
-export async function insertLabTest(tx: Tx, t: { lotId: number; analystId: number; testedAt: Date; kind: string; method: string; valuePct: number }): Promise<{ id: number }> {
+export async function insertLabTest(
+  tx: Tx,
+  t: { lotId: number; analystId: number; testedAt: Date; kind: string; method: string; valuePct: number },
+): Promise<{ id: number }> {
   return tx.labTest.create({ data: t, select: { id: true } });
 }
 
@@ -153,17 +190,37 @@ export async function setLotStatus(tx: Tx, lotId: number, status: string): Promi
 
 /** A source check's hold: the lot waits (awaiting lab) and cannot be accepted until the hold is lifted. */
 export async function setLotScreeningHold(tx: Tx, lotId: number, hold: boolean): Promise<void> {
-  await tx.feedstockLot.update({ where: { id: lotId }, data: hold ? { screeningHold: true, status: "QUARANTINED" } : { screeningHold: false } });
+  await tx.feedstockLot.update({
+    where: { id: lotId },
+    data: hold ? { screeningHold: true, status: "QUARANTINED" } : { screeningHold: false },
+  });
 }
 
 export async function insertTitration(
   tx: Tx,
-  t: { lotId: number; analystId: number; testedAt: Date; sampleMassG: number; titrant: string; concentrationMolL: number; titreMl: number; blankMl: number; basis: string; ffaPct: number; acidValue: number },
+  t: {
+    lotId: number;
+    analystId: number;
+    testedAt: Date;
+    sampleMassG: number;
+    titrant: string;
+    concentrationMolL: number;
+    titreMl: number;
+    blankMl: number;
+    basis: string;
+    ffaPct: number;
+    acidValue: number;
+  },
 ): Promise<{ id: number; ffaPct: number; acidValue: number }> {
   return tx.titration.create({ data: t, select: { id: true, ffaPct: true, acidValue: true } });
 }
 
-function meanFfa(titrations: ReadonlyArray<{ ffaPct: number; basis: string; acidValue: number }>): { ffaPct: number | null; ffaBasis: FfaBasis } {
-  const mean = combineFfaReadings(titrations.map((t) => ({ ffaPct: t.ffaPct, basis: toFfaBasis(t.basis), acidValueMgKohG: t.acidValue })));
+function meanFfa(titrations: ReadonlyArray<{ ffaPct: number; basis: string; acidValue: number }>): {
+  ffaPct: number | null;
+  ffaBasis: FfaBasis;
+} {
+  const mean = combineFfaReadings(
+    titrations.map((t) => ({ ffaPct: t.ffaPct, basis: toFfaBasis(t.basis), acidValueMgKohG: t.acidValue })),
+  );
   return mean.ok ? { ffaPct: mean.value.ffaPct, ffaBasis: mean.value.basis } : { ffaPct: null, ffaBasis: "OLEIC" };
 }

@@ -2,7 +2,13 @@
 import type { Result } from "@/lib/errors";
 import { failMany, ok } from "@/lib/errors";
 import type { DensityTable } from "@/lib/quantity/density";
-import { applyMeasuredDensity, densityAt, massFromObserved, requireDensityEntry, standardVolume } from "@/lib/quantity/density";
+import {
+  applyMeasuredDensity,
+  densityAt,
+  massFromObserved,
+  requireDensityEntry,
+  standardVolume,
+} from "@/lib/quantity/density";
 import type { MaterialKind } from "@/lib/ledger/kinds";
 
 export interface Measured {
@@ -25,9 +31,18 @@ export function measureObserved(input: {
   const entry =
     input.measuredDensityKgM3 === undefined
       ? base
-      : applyMeasuredDensity(base, { densityKgM3: input.measuredDensityKgM3, atTempC: 15, source: "lab density at 15 °C" });
+      : applyMeasuredDensity(base, {
+          densityKgM3: input.measuredDensityKgM3,
+          atTempC: 15,
+          source: "lab density at 15 °C",
+        });
   const mass = massFromObserved({ observedVolumeL: input.observedVolumeL, observedTempC: input.observedTempC, entry });
-  const std = standardVolume({ observedVolumeL: input.observedVolumeL, observedTempC: input.observedTempC, entry, referenceTempC: input.referenceTempC });
+  const std = standardVolume({
+    observedVolumeL: input.observedVolumeL,
+    observedTempC: input.observedTempC,
+    entry,
+    referenceTempC: input.referenceTempC,
+  });
   if (!mass.ok || !std.ok) return failMany([...(mass.ok ? [] : mass.issues), ...(std.ok ? [] : std.issues)]);
   return ok({
     massG: mass.value.massG,

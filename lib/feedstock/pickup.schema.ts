@@ -20,7 +20,10 @@ export const PickupSchema = z
       .min(1, "Containers must be at least 1")
       .max(MAX_CONTAINERS, `Containers must be at most ${MAX_CONTAINERS}`),
     containerTags: z.array(code("Container label")).max(MAX_CONTAINERS).default([]),
-    volumeL: volumeL("Volume").max(MAX_PICKUP_VOLUME_L, `Volume (L) must be at most ${MAX_PICKUP_VOLUME_L.toLocaleString("en")} L for one pickup`),
+    volumeL: volumeL("Volume").max(
+      MAX_PICKUP_VOLUME_L,
+      `Volume (L) must be at most ${MAX_PICKUP_VOLUME_L.toLocaleString("en")} L for one pickup`,
+    ),
     tempC: tempC("Oil temperature").max(90, "Oil temperature must be at most 90 °C for collected oil"),
     waterLook: z.enum(LOOKS, { error: "Water: choose none, trace or layer" }).default("NONE"),
     solidsLook: z.enum(LOOKS, { error: "Solids: choose none, trace or layer" }).default("NONE"),
@@ -32,11 +35,20 @@ export const PickupSchema = z
   .superRefine((p, ctx) => {
     const seen = new Set<string>();
     p.containerTags.forEach((tag, i) => {
-      if (seen.has(tag)) ctx.addIssue({ code: "custom", path: ["containerTags", i], message: `Container label ${tag} appears twice in this pickup` });
+      if (seen.has(tag))
+        ctx.addIssue({
+          code: "custom",
+          path: ["containerTags", i],
+          message: `Container label ${tag} appears twice in this pickup`,
+        });
       seen.add(tag);
     });
     if (p.containerTags.length > 0 && p.containerTags.length !== p.containers) {
-      ctx.addIssue({ code: "custom", path: ["containerTags"], message: `Container labels: ${p.containerTags.length} given for ${p.containers} containers` });
+      ctx.addIssue({
+        code: "custom",
+        path: ["containerTags"],
+        message: `Container labels: ${p.containerTags.length} given for ${p.containers} containers`,
+      });
     }
   });
 export type PickupInput = z.input<typeof PickupSchema>;

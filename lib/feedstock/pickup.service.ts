@@ -6,7 +6,14 @@ import { refreshPlannerStats, REFRESH_STATS_AFTER_ROWS } from "@/lib/database/ma
 import type { DomainIssue, Result } from "@/lib/errors";
 import { fail, failMany, ok } from "@/lib/errors";
 import { parseInput } from "@/lib/ledger/parse";
-import { createHolder, createHoldersWithStock, idempotencyKeyInForce, postMovement, postReceipts, runInTransaction } from "@/lib/ledger/ledger.store";
+import {
+  createHolder,
+  createHoldersWithStock,
+  idempotencyKeyInForce,
+  postMovement,
+  postReceipts,
+  runInTransaction,
+} from "@/lib/ledger/ledger.store";
 import { log } from "@/lib/log/log.service";
 import { measureObserved } from "@/lib/feedstock/measure";
 import { PickupSchema } from "@/lib/feedstock/pickup.schema";
@@ -21,16 +28,37 @@ import type { Actor } from "@/lib/site/actor";
 
 export type { PickupSaved } from "@/lib/feedstock/pickup.store";
 
-
 function measurePickup(p: Pickup, table: DensityTable): Result<number> {
-  const measured = measureObserved({ material: p.material, observedVolumeL: p.volumeL, observedTempC: p.tempC, referenceTempC: 15, table });
-  return measured.ok ? ok(measured.value.massG) : fail("PICKUP.UNMEASURABLE", measured.issues.map((i) => i.message).join("; "), "volumeL");
+  const measured = measureObserved({
+    material: p.material,
+    observedVolumeL: p.volumeL,
+    observedTempC: p.tempC,
+    referenceTempC: 15,
+    table,
+  });
+  return measured.ok
+    ? ok(measured.value.massG)
+    : fail("PICKUP.UNMEASURABLE", measured.issues.map((i) => i.message).join("; "), "volumeL");
 }
 
-async function writePickup(tx: Tx, actor: Actor, p: Pickup, massG: number, field = (f: string) => f): Promise<PickupSaved> {
+async function writePickup(
+  tx: Tx,
+  actor: Actor,
+  p: Pickup,
+  massG: number,
+  field = (f: string) => f,
+): Promise<PickupSaved> {
   const sourceId = await requireSourceId(tx, actor.siteId, p.sourceCode, field("sourceCode"));
   const holderId = await createHolder(tx, actor.siteId, "PICKUP", p.code, field("code"));
-  const saved = await insertPickup(tx, { siteId: actor.siteId, holderId, sourceId, collectorId: actor.userId, receivedAt: actor.now, massG, pickup: p });
+  const saved = await insertPickup(tx, {
+    siteId: actor.siteId,
+    holderId,
+    sourceId,
+    collectorId: actor.userId,
+    receivedAt: actor.now,
+    massG,
+    pickup: p,
+  });
   await postMovement(tx, {
     siteId: actor.siteId,
     at: p.observedAt,
@@ -51,14 +79,24 @@ async function writePickup(tx: Tx, actor: Actor, p: Pickup, massG: number, field
  * Records a pickup as observed at the source: its oil enters the books here (a RECEIPT movement
  * into the pickup). A retried submission with the same idempotency key gets the first answer back.
  */
-export async function recordPickup(db: Db, actor: Actor, input: unknown, table: DensityTable = DEFAULT_DENSITY_TABLE): Promise<Result<PickupSaved>> {
+export async function recordPickup(
+  db: Db,
+  actor: Actor,
+  input: unknown,
+  table: DensityTable = DEFAULT_DENSITY_TABLE,
+): Promise<Result<PickupSaved>> {
   const parsed = parseInput(PickupSchema, input);
   if (!parsed.ok) return parsed;
   const p = parsed.value;
   if (p.idempotencyKey) {
     const earlier = await findPickupByKey(db, p.idempotencyKey);
     // The same key for a different pickup is a client error, not a retry: say so instead of answering with another record.
-    if (earlier && earlier.code !== p.code) return fail("IDEMPOTENCY.KEY_REUSED", `This key was already used for pickup ${earlier.code}; a new pickup needs a new key`, "idempotencyKey");
+    if (earlier && earlier.code !== p.code)
+      return fail(
+        "IDEMPOTENCY.KEY_REUSED",
+        `This key was already used for pickup ${earlier.code}; a new pickup needs a new key`,
+        "idempotencyKey",
+      );
     if (earlier) return ok(earlier);
   }
   const massG = measurePickup(p, table);
@@ -68,21 +106,45 @@ export async function recordPickup(db: Db, actor: Actor, input: unknown, table: 
 
 export const MAX_IMPORT_ROWS = 5_000;
 export const PickupImportSchema = z.object({
-  rows: z.array(z.unknown()).min(1, "rows: the import is empty").max(MAX_IMPORT_ROWS, `rows: at most ${MAX_IMPORT_ROWS.toLocaleString("en")} rows per import`),
+  rows: z
+    .array(z.unknown())
+    .min(1, "rows: the import is empty")
+    .max(MAX_IMPORT_ROWS, `rows: at most ${MAX_IMPORT_ROWS.toLocaleString("en")} rows per import`),
 });
 
 /**
  * Many pickups in one transaction with a handful of statements per 500 rows: the same records, ledger
  * receipts and audit events (in row order) as writePickup once per row, for imports of tens of thousands.
  */
-async function writePickups(tx: Tx, actor: Actor, rows: ReadonlyArray<{ p: Pickup; massG: number; field: (f: string) => string }>): Promise<void> {
+async function writePickups(
+  tx: Tx,
+  actor: Actor,
+  rows: ReadonlyArray<{ p: Pickup; massG: number; field: (f: string) => string }>,
+): Promise<void> {
   if (rows.length === 0) return;
-  const sources = await requireSourceIds(tx, actor.siteId, rows.map((r) => ({ code: r.p.sourceCode, field: r.field("sourceCode") })));
-  const holders = await createHoldersWithStock(tx, actor.siteId, "PICKUP", rows.map((r) => ({ code: r.p.code, stockG: r.massG, field: r.field("code") })));
+  const sources = await requireSourceIds(
+    tx,
+    actor.siteId,
+    rows.map((r) => ({ code: r.p.sourceCode, field: r.field("sourceCode") })),
+  );
+  const holders = await createHoldersWithStock(
+    tx,
+    actor.siteId,
+    "PICKUP",
+    rows.map((r) => ({ code: r.p.code, stockG: r.massG, field: r.field("code") })),
+  );
   const holderOf = (code: string) => holders.get(code) ?? 0;
   await insertPickups(
     tx,
-    rows.map((r) => ({ siteId: actor.siteId, holderId: holderOf(r.p.code), sourceId: sources.get(r.p.sourceCode) ?? 0, collectorId: actor.userId, receivedAt: actor.now, massG: r.massG, pickup: r.p })),
+    rows.map((r) => ({
+      siteId: actor.siteId,
+      holderId: holderOf(r.p.code),
+      sourceId: sources.get(r.p.sourceCode) ?? 0,
+      collectorId: actor.userId,
+      receivedAt: actor.now,
+      massG: r.massG,
+      pickup: r.p,
+    })),
   );
   await postReceipts(
     tx,
@@ -99,7 +161,16 @@ async function writePickups(tx: Tx, actor: Actor, rows: ReadonlyArray<{ p: Picku
       field: r.field("observedAt"),
     })),
   );
-  await appendAuditMany(tx, actor, rows.map((r) => ({ action: "CREATE" as const, entity: "Pickup", entityKey: r.p.code, after: { ...r.p, massG: r.massG } })));
+  await appendAuditMany(
+    tx,
+    actor,
+    rows.map((r) => ({
+      action: "CREATE" as const,
+      entity: "Pickup",
+      entityKey: r.p.code,
+      after: { ...r.p, massG: r.massG },
+    })),
+  );
 }
 
 /**
@@ -108,14 +179,25 @@ async function writePickups(tx: Tx, actor: Actor, rows: ReadonlyArray<{ p: Picku
  * all. Rows whose idempotency key is already stored, or repeated in the file, are skipped, so a re-sent
  * or resumed import never duplicates.
  */
-export async function importPickupRows(db: Db, actor: Actor, raw: readonly unknown[], table: DensityTable = DEFAULT_DENSITY_TABLE): Promise<Result<{ written: number; skipped: number }>> {
+export async function importPickupRows(
+  db: Db,
+  actor: Actor,
+  raw: readonly unknown[],
+  table: DensityTable = DEFAULT_DENSITY_TABLE,
+): Promise<Result<{ written: number; skipped: number }>> {
   const rows: Array<{ p: Pickup; massG: number; field: (f: string) => string }> = [];
   const issues: DomainIssue[] = [];
   raw.forEach((input, i) => {
     const r = parseInput(PickupSchema, input);
-    if (!r.ok) return issues.push(...r.issues.map((x) => ({ ...x, field: `rows.${i}.${x.field ?? ""}`, message: `Row ${i + 1}: ${x.message}` })));
+    if (!r.ok)
+      return issues.push(
+        ...r.issues.map((x) => ({ ...x, field: `rows.${i}.${x.field ?? ""}`, message: `Row ${i + 1}: ${x.message}` })),
+      );
     const m = measurePickup(r.value, table);
-    if (!m.ok) return issues.push(...m.issues.map((x) => ({ ...x, field: `rows.${i}.volumeL`, message: `Row ${i + 1}: ${x.message}` })));
+    if (!m.ok)
+      return issues.push(
+        ...m.issues.map((x) => ({ ...x, field: `rows.${i}.volumeL`, message: `Row ${i + 1}: ${x.message}` })),
+      );
     rows.push({ p: r.value, massG: m.value, field: (f) => `rows.${i}.${f}` });
   });
   if (issues.length) return failMany(issues);
@@ -124,7 +206,10 @@ export async function importPickupRows(db: Db, actor: Actor, raw: readonly unkno
     async (tx) => {
       // Operators (and the kill -9 test) can see an import's transaction is open and not yet committed.
       log.info({ event: "import.transaction.open", key: idempotencyKeyInForce() ?? null, rows: rows.length });
-      const stored = await findPickupKeys(tx, rows.flatMap((r) => (r.p.idempotencyKey ? [r.p.idempotencyKey] : [])));
+      const stored = await findPickupKeys(
+        tx,
+        rows.flatMap((r) => (r.p.idempotencyKey ? [r.p.idempotencyKey] : [])),
+      );
       const fresh = rows.filter((r) => {
         const key = r.p.idempotencyKey;
         if (!key) return true;
@@ -140,7 +225,12 @@ export async function importPickupRows(db: Db, actor: Actor, raw: readonly unkno
 }
 
 /** The JSON import (POST /api/pickups/import): at most MAX_IMPORT_ROWS rows per call. */
-export async function importPickups(db: Db, actor: Actor, input: unknown, table: DensityTable = DEFAULT_DENSITY_TABLE): Promise<Result<{ written: number; skipped: number }>> {
+export async function importPickups(
+  db: Db,
+  actor: Actor,
+  input: unknown,
+  table: DensityTable = DEFAULT_DENSITY_TABLE,
+): Promise<Result<{ written: number; skipped: number }>> {
   const parsed = parseInput(PickupImportSchema, input);
   if (!parsed.ok) return parsed;
   const written = await importPickupRows(db, actor, parsed.value.rows, table);

@@ -11,7 +11,15 @@ export interface PickupSaved {
   receivedAt: Date;
 }
 
-type PickupInsert = { siteId: number; holderId: number; sourceId: number; collectorId: number; receivedAt: Date; massG: number; pickup: Pickup };
+type PickupInsert = {
+  siteId: number;
+  holderId: number;
+  sourceId: number;
+  collectorId: number;
+  receivedAt: Date;
+  massG: number;
+  pickup: Pickup;
+};
 
 function pickupData(r: PickupInsert) {
   const p = r.pickup;
@@ -38,14 +46,21 @@ function pickupData(r: PickupInsert) {
 }
 
 export async function findPickupByKey(db: Db | Tx, key: string): Promise<PickupSaved | null> {
-  return db.pickup.findUnique({ where: { idempotencyKey: key }, select: { id: true, code: true, massG: true, receivedAt: true } });
+  return db.pickup.findUnique({
+    where: { idempotencyKey: key },
+    select: { id: true, code: true, massG: true, receivedAt: true },
+  });
 }
 
 /** Which of these idempotency keys are already stored (one query per 500 keys). */
 export async function findPickupKeys(db: Db | Tx, keys: readonly string[]): Promise<Set<string>> {
   const found = new Set<string>();
   for (let i = 0; i < keys.length; i += 500) {
-    for (const p of await db.pickup.findMany({ where: { idempotencyKey: { in: keys.slice(i, i + 500) } }, select: { idempotencyKey: true } })) if (p.idempotencyKey) found.add(p.idempotencyKey);
+    for (const p of await db.pickup.findMany({
+      where: { idempotencyKey: { in: keys.slice(i, i + 500) } },
+      select: { idempotencyKey: true },
+    }))
+      if (p.idempotencyKey) found.add(p.idempotencyKey);
   }
   return found;
 }
@@ -57,7 +72,25 @@ export async function insertPickup(tx: Tx, r: PickupInsert): Promise<PickupSaved
   });
 }
 
-const PICKUP_COLUMNS = ["siteId", "holderId", "code", "sourceId", "collectorId", "material", "observedAt", "receivedAt", "containers", "containerTags", "volumeMl", "tempC", "massG", "waterLook", "solidsLook", "notes", "idempotencyKey"] as const;
+const PICKUP_COLUMNS = [
+  "siteId",
+  "holderId",
+  "code",
+  "sourceId",
+  "collectorId",
+  "material",
+  "observedAt",
+  "receivedAt",
+  "containers",
+  "containerTags",
+  "volumeMl",
+  "tempC",
+  "massG",
+  "waterLook",
+  "solidsLook",
+  "notes",
+  "idempotencyKey",
+] as const;
 
 /** Many pickups at once (imports; the holders already exist with their stock): pickupData's columns in multi-row statements. */
 export async function insertPickups(tx: Tx, rows: readonly PickupInsert[]): Promise<void> {
@@ -89,15 +122,27 @@ export interface PickupRow {
   notes: string;
 }
 
-export async function listPickups(db: Db, siteId: number, opts: { skip?: number; take?: number; sourceId?: number; collectorId?: number } = {}): Promise<{ rows: PickupRow[]; total: number }> {
-  const where = { siteId, ...(opts.sourceId ? { sourceId: opts.sourceId } : {}), ...(opts.collectorId ? { collectorId: opts.collectorId } : {}) };
+export async function listPickups(
+  db: Db,
+  siteId: number,
+  opts: { skip?: number; take?: number; sourceId?: number; collectorId?: number } = {},
+): Promise<{ rows: PickupRow[]; total: number }> {
+  const where = {
+    siteId,
+    ...(opts.sourceId ? { sourceId: opts.sourceId } : {}),
+    ...(opts.collectorId ? { collectorId: opts.collectorId } : {}),
+  };
   const [rows, total] = await Promise.all([
     db.pickup.findMany({
       where,
       orderBy: [{ observedAt: "desc" }, { id: "desc" }],
       skip: opts.skip ?? 0,
       take: opts.take ?? 100,
-      include: { source: { select: { code: true, name: true } }, collector: { select: { fullName: true } }, lot: { select: { code: true } } },
+      include: {
+        source: { select: { code: true, name: true } },
+        collector: { select: { fullName: true } },
+        lot: { select: { code: true } },
+      },
     }),
     db.pickup.count({ where }),
   ]);

@@ -45,7 +45,11 @@ function siteDate(startMs: number, utcOffsetMin: number): string {
  * Every week that overlaps [startMs, endMs), empty weeks included so the axis keeps its rhythm; receipts
  * outside the range are left out.
  */
-export function computeReceiptsSeries(receipts: readonly FeedstockReceipt[], range: { startMs: number; endMs: number }, utcOffsetMin: number): ReceiptsSeries {
+export function computeReceiptsSeries(
+  receipts: readonly FeedstockReceipt[],
+  range: { startMs: number; endMs: number },
+  utcOffsetMin: number,
+): ReceiptsSeries {
   const weeks: ReceiptWeek[] = [];
   const index = new Map<number, ReceiptWeek>();
   if (range.endMs > range.startMs) {
@@ -66,6 +70,8 @@ export function computeReceiptsSeries(receipts: readonly FeedstockReceipt[], ran
     totalsByMaterial[r.material] = (totalsByMaterial[r.material] ?? 0) + r.massG;
     totalG += r.massG;
   }
-  const materials = Object.keys(totalsByMaterial).sort((a, b) => (totalsByMaterial[b] ?? 0) - (totalsByMaterial[a] ?? 0) || a.localeCompare(b));
+  const materials = Object.keys(totalsByMaterial).sort(
+    (a, b) => (totalsByMaterial[b] ?? 0) - (totalsByMaterial[a] ?? 0) || a.localeCompare(b),
+  );
   return { weeks, materials, totalsByMaterial, totalG };
 }

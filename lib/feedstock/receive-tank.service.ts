@@ -24,7 +24,12 @@ export interface LotIntoTankSaved extends LotSaved {
  * moved into the tank through the same guards as any transfer. A full tank or a closed period refuses
  * the whole thing: no lot, no acceptance, no movement is left behind.
  */
-export async function receiveLotIntoTank(db: Db, actor: Actor, input: unknown, table: DensityTable = DEFAULT_DENSITY_TABLE): Promise<Result<LotIntoTankSaved>> {
+export async function receiveLotIntoTank(
+  db: Db,
+  actor: Actor,
+  input: unknown,
+  table: DensityTable = DEFAULT_DENSITY_TABLE,
+): Promise<Result<LotIntoTankSaved>> {
   const parsed = parseInput(LotIntoTankSchema, input);
   if (!parsed.ok) return parsed;
   const l = parsed.value;
@@ -44,7 +49,14 @@ export async function receiveLotIntoTank(db: Db, actor: Actor, input: unknown, t
     const moved = await bookTransfer(
       tx,
       actor,
-      { fromKind: "LOT", fromCode: l.code, toTankCode: l.tankCode, at: l.receivedAt, all: true, note: `received from pickups straight into the tank; accepted: ${l.acceptReason}` },
+      {
+        fromKind: "LOT",
+        fromCode: l.code,
+        toTankCode: l.tankCode,
+        at: l.receivedAt,
+        all: true,
+        note: `received from pickups straight into the tank; accepted: ${l.acceptReason}`,
+      },
       { quantity: "tankCode", tank: "tankCode" },
     );
     return { ...lot, tankCode: l.tankCode, movementId: moved.movementId };

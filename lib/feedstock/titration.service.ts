@@ -12,11 +12,17 @@ import { TitrationEntrySchema } from "@/lib/titration/titration.schema";
 import { calculateAcidValue, calculateFfaPercent } from "@/lib/titration/titration";
 import type { Actor } from "@/lib/site/actor";
 
-export const LotTitrationSchema = z.object({ lotCode: code("Lot number"), testedAt: when("Test time") }).and(TitrationEntrySchema);
+export const LotTitrationSchema = z
+  .object({ lotCode: code("Lot number"), testedAt: when("Test time") })
+  .and(TitrationEntrySchema);
 export type LotTitrationInput = z.input<typeof LotTitrationSchema>;
 
 /** Stores a titration with its FFA % and acid value computed on the server (AOCS Ca 5a-40; EN 14104 form). */
-export async function recordTitration(db: Db, actor: Actor, input: unknown): Promise<Result<{ id: number; ffaPct: number; acidValue: number }>> {
+export async function recordTitration(
+  db: Db,
+  actor: Actor,
+  input: unknown,
+): Promise<Result<{ id: number; ffaPct: number; acidValue: number }>> {
   const parsed = parseInput(LotTitrationSchema, input);
   if (!parsed.ok) return parsed;
   const t = parsed.value;
@@ -26,19 +32,24 @@ export async function recordTitration(db: Db, actor: Actor, input: unknown): Pro
   return runInTransaction(db, async (tx) => {
     const lot = await requireLot(tx, actor.siteId, t.lotCode, "lotCode");
     const saved = await insertTitration(tx, {
-        lotId: lot.id,
-        analystId: actor.userId,
-        testedAt: t.testedAt,
-        sampleMassG: t.sampleMassG,
-        titrant: t.titrant,
-        concentrationMolL: t.concentrationMolL,
-        titreMl: t.titreMl,
-        blankMl: t.blankMl,
-        basis: t.basis,
-        ffaPct: ffa.value.ffaPct,
-        acidValue: av.value.acidValueMgKohG,
+      lotId: lot.id,
+      analystId: actor.userId,
+      testedAt: t.testedAt,
+      sampleMassG: t.sampleMassG,
+      titrant: t.titrant,
+      concentrationMolL: t.concentrationMolL,
+      titreMl: t.titreMl,
+      blankMl: t.blankMl,
+      basis: t.basis,
+      ffaPct: ffa.value.ffaPct,
+      acidValue: av.value.acidValueMgKohG,
     });
-    await appendAudit(tx, actor, { action: "CREATE", entity: "Titration", entityKey: t.lotCode, after: { ...t, id: saved.id, ffaPct: saved.ffaPct, acidValue: saved.acidValue } });
+    await appendAudit(tx, actor, {
+      action: "CREATE",
+      entity: "Titration",
+      entityKey: t.lotCode,
+      after: { ...t, id: saved.id, ffaPct: saved.ffaPct, acidValue: saved.acidValue },
+    });
     return saved;
   });
 }

@@ -77,7 +77,8 @@ export function readCell(col: GridColumn, raw: string, ctx: ReadContext): Result
     case "number":
     case "integer": {
       const n = parseLocaleNumber(text, ctx.style, col.field);
-      if (!n.ok) return fail("INPUT.NOT_A_NUMBER", `${col.header}: ${n.issues[0]?.message ?? "not a number"}`, col.field);
+      if (!n.ok)
+        return fail("INPUT.NOT_A_NUMBER", `${col.header}: ${n.issues[0]?.message ?? "not a number"}`, col.field);
       if (col.quantity === undefined) return n;
       const unit = ctx.unit ?? displayUnit(col.quantity, ctx.system);
       return ok(fromUnit(n.value, col.quantity, unit));
@@ -132,14 +133,19 @@ export interface HeaderMatch {
  * by field name. A unit in a quantity column's header ("Volume (gal)", "Temp °F") says how to read
  * that column. Returns the matches and the headers that matched nothing, each named.
  */
-export function matchHeaders(table: GridTable, headers: readonly string[]): { matches: HeaderMatch[]; unknown: string[]; unitIssues: string[] } {
+export function matchHeaders(
+  table: GridTable,
+  headers: readonly string[],
+): { matches: HeaderMatch[]; unknown: string[]; unitIssues: string[] } {
   const matches: HeaderMatch[] = [];
   const unknown: string[] = [];
   const unitIssues: string[] = [];
   headers.forEach((h, index) => {
     const key = norm(h);
     if (key === "") return;
-    const column = table.columns.find((c) => norm(c.header) === key || norm(c.field) === key) ?? table.columns.find((c) => key.startsWith(norm(c.header)) && norm(c.header).length >= 4);
+    const column =
+      table.columns.find((c) => norm(c.header) === key || norm(c.field) === key) ??
+      table.columns.find((c) => key.startsWith(norm(c.header)) && norm(c.header).length >= 4);
     if (!column) {
       unknown.push(h);
       return;
@@ -147,7 +153,8 @@ export function matchHeaders(table: GridTable, headers: readonly string[]): { ma
     if (column.quantity) {
       const u = parseUnitFromHeader(h);
       if (u.ok) {
-        if (quantityOf(u.value) !== column.quantity) unitIssues.push(`Column "${h}": ${u.value} is not a unit of ${column.quantity}`);
+        if (quantityOf(u.value) !== column.quantity)
+          unitIssues.push(`Column "${h}": ${u.value} is not a unit of ${column.quantity}`);
         else matches.push({ index, column, unit: u.value });
         return;
       }
@@ -171,7 +178,8 @@ function variantRank(header: string): number {
  */
 function preferCompanions(matches: HeaderMatch[], headers: readonly string[]): HeaderMatch[] {
   const best = new Map<string, number>();
-  for (const m of matches) best.set(m.column.field, Math.max(best.get(m.column.field) ?? 0, variantRank(headers[m.index] ?? "")));
+  for (const m of matches)
+    best.set(m.column.field, Math.max(best.get(m.column.field) ?? 0, variantRank(headers[m.index] ?? "")));
   return matches.filter((m) => variantRank(headers[m.index] ?? "") === best.get(m.column.field));
 }
 

@@ -15,20 +15,31 @@ function same(col: GridColumn, a: CellValue, b: CellValue | undefined): boolean 
     return Math.abs(a - b) <= tol;
   }
   if (col.kind === "list") {
-    const norm = (v: CellValue) => String(v).split(",").map((s) => s.trim()).filter(Boolean).sort().join(",");
+    const norm = (v: CellValue) =>
+      String(v)
+        .split(",")
+        .map((s) => s.trim())
+        .filter(Boolean)
+        .sort()
+        .join(",");
     return norm(a) === norm(b);
   }
   return a === b;
 }
 
 /** Columns where the imported row differs from the stored one (cells left empty in the file are not compared). */
-export function sameStored(table: GridTable, row: { values: GridRow }, stored: GridRow): Array<{ field: string; stored: string }> {
+export function sameStored(
+  table: GridTable,
+  row: { values: GridRow },
+  stored: GridRow,
+): Array<{ field: string; stored: string }> {
   const out: Array<{ field: string; stored: string }> = [];
   for (const col of table.columns) {
     if (col.entry !== true || col.computed === true) continue;
     const v = row.values[col.field];
     if (v === undefined || v === null || v === "") continue;
-    if (!same(col, v, stored[col.field])) out.push({ field: col.field, stored: showCell(col, stored[col.field] ?? null, "metric") || "empty" });
+    if (!same(col, v, stored[col.field]))
+      out.push({ field: col.field, stored: showCell(col, stored[col.field] ?? null, "metric") || "empty" });
   }
   return out;
 }

@@ -56,12 +56,24 @@ export function exportColumns(table: GridTable, system: UnitSystem, timeZone: st
     const raw = (r: GridRow) => r[c.field];
     if (c.kind === "date")
       return [
-        { header: `${c.header} (site time: ${timeZone})`, kind: "site-time", cell: (r) => (typeof raw(r) === "string" ? siteTimeOf(raw(r) as string, timeZone) : null) },
-        { header: `${c.header} (UTC)`, kind: "value", cell: (r) => (typeof raw(r) === "string" ? isoCell(raw(r) as string) : null) },
+        {
+          header: `${c.header} (site time: ${timeZone})`,
+          kind: "site-time",
+          cell: (r) => (typeof raw(r) === "string" ? siteTimeOf(raw(r) as string, timeZone) : null),
+        },
+        {
+          header: `${c.header} (UTC)`,
+          kind: "value",
+          cell: (r) => (typeof raw(r) === "string" ? isoCell(raw(r) as string) : null),
+        },
       ];
     if (c.kind === "enum" || (c.kind === "list" && c.options))
       return [
-        { header, kind: "value", cell: (r) => (typeof raw(r) === "string" ? neutraliseFormula(showChoice(c, raw(r) as string)) : null) },
+        {
+          header,
+          kind: "value",
+          cell: (r) => (typeof raw(r) === "string" ? neutraliseFormula(showChoice(c, raw(r) as string)) : null),
+        },
         { header: `${c.header} (code)`, kind: "value", cell: (r) => figure(c, raw(r), system) },
       ];
     return [{ header, kind: "value", cell: (r) => figure(c, raw(r), system) }];
@@ -74,8 +86,17 @@ function csvCell(v: string | number | SiteTime | null): string | number {
 }
 
 /** RFC 4180 CSV: comma-separated, CRLF line ends, quotes doubled (the caller adds a UTF-8 BOM for spreadsheet programs). */
-export function toCsv(table: GridTable, rows: readonly GridRow[], system: UnitSystem, timeZone: string, withHeader = true): string {
+export function toCsv(
+  table: GridTable,
+  rows: readonly GridRow[],
+  system: UnitSystem,
+  timeZone: string,
+  withHeader = true,
+): string {
   const cols = exportColumns(table, system, timeZone);
   const data = rows.map((r) => cols.map((c) => csvCell(c.cell(r))));
-  return Papa.unparse({ fields: cols.map((c) => c.header), data }, { newline: "\r\n", header: withHeader, quotes: false });
+  return Papa.unparse(
+    { fields: cols.map((c) => c.header), data },
+    { newline: "\r\n", header: withHeader, quotes: false },
+  );
 }

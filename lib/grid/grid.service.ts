@@ -33,7 +33,16 @@ export interface GridActor extends Actor {
 }
 
 export async function listGridRows(db: Db, actor: GridActor, q: GridQuery): Promise<RowsPage> {
-  return queryGridRows(db, { siteId: actor.siteId, table: q.table, start: q.start, end: q.end, sort: q.sort, filter: q.filter, system: actor.unitSystem, now: actor.now });
+  return queryGridRows(db, {
+    siteId: actor.siteId,
+    table: q.table,
+    start: q.start,
+    end: q.end,
+    sort: q.sort,
+    filter: q.filter,
+    system: actor.unitSystem,
+    now: actor.now,
+  });
 }
 
 /**
@@ -51,7 +60,12 @@ function joinTransaction(tx: Tx): Db {
 
 type Saved = { code?: string; id?: number };
 
-async function addRow(db: Db, actor: Actor, table: AddableTable, input: Record<string, unknown>): Promise<Result<Saved>> {
+async function addRow(
+  db: Db,
+  actor: Actor,
+  table: AddableTable,
+  input: Record<string, unknown>,
+): Promise<Result<Saved>> {
   switch (table) {
     case "sources":
       return createSource(db, actor, input);
@@ -60,7 +74,9 @@ async function addRow(db: Db, actor: Actor, table: AddableTable, input: Record<s
       return future ? fail("PICKUP.IN_FUTURE", future, "observedAt") : recordPickup(db, actor, input);
     }
     case "lots":
-      return input.supplierCode !== undefined || input.deliveryDocument !== undefined ? receiveDelivery(db, actor, input) : receiveLotFromPickups(db, actor, input);
+      return input.supplierCode !== undefined || input.deliveryDocument !== undefined
+        ? receiveDelivery(db, actor, input)
+        : receiveLotFromPickups(db, actor, input);
     case "titrations":
       return recordTitration(db, actor, input);
     case "labTests":
@@ -69,8 +85,13 @@ async function addRow(db: Db, actor: Actor, table: AddableTable, input: Record<s
 }
 
 function requireAdder(table: GridTable, role: SiteRole): Result<true> {
-  if (!isAddable(table.key) || table.addRoles.length === 0) return fail("GRID.READ_ONLY", `${table.label} are recorded elsewhere; this table is read-only here`, "table");
-  if (!(table.addRoles as readonly string[]).includes(role)) return fail("AUTH.FORBIDDEN", `Adding ${table.label.toLowerCase()} needs one of these roles: ${table.addRoles.map((r) => r.toLowerCase()).join(", ")}`);
+  if (!isAddable(table.key) || table.addRoles.length === 0)
+    return fail("GRID.READ_ONLY", `${table.label} are recorded elsewhere; this table is read-only here`, "table");
+  if (!(table.addRoles as readonly string[]).includes(role))
+    return fail(
+      "AUTH.FORBIDDEN",
+      `Adding ${table.label.toLowerCase()} needs one of these roles: ${table.addRoles.map((r) => r.toLowerCase()).join(", ")}`,
+    );
   return ok(true);
 }
 
@@ -104,8 +125,14 @@ export async function saveGridRows(db: Db, actor: GridActor, input: unknown): Pr
   }
   for (const c of corrections) {
     const col = table.columns.find((x) => x.field === c.field);
-    if (!col?.correctable) return fail("GRID.NOT_CORRECTABLE", `${table.label}: ${col?.header ?? c.field} of a stored record is not changed in place; ledger quantities are corrected by a reversing entry`, `${c.ref}.${c.field}`);
-    if (key === "lots" && c.field === "status" && actor.role !== "PRODUCTION") return fail("AUTH.FORBIDDEN", "Lab decisions need the production role", `${c.ref}.${c.field}`);
+    if (!col?.correctable)
+      return fail(
+        "GRID.NOT_CORRECTABLE",
+        `${table.label}: ${col?.header ?? c.field} of a stored record is not changed in place; ledger quantities are corrected by a reversing entry`,
+        `${c.ref}.${c.field}`,
+      );
+    if (key === "lots" && c.field === "status" && actor.role !== "PRODUCTION")
+      return fail("AUTH.FORBIDDEN", "Lab decisions need the production role", `${c.ref}.${c.field}`);
   }
   if (rows.length === 0 && corrections.length === 0) return ok({ dryRun, saved: [], corrected: [] });
   let outcome: SaveOutcome | null = null;
@@ -124,14 +151,44 @@ export async function saveGridRows(db: Db, actor: GridActor, input: unknown): Pr
       for (const c of corrections) {
         const res = await withoutIdempotencyKey(() => decideLot(inner, actor, { lotCode: c.rowId, status: c.value }));
         if (res.ok) fixed.push({ ref: c.ref, rowId: c.rowId });
-        else issues.push(...prefixIssues(c.ref, res.issues.map((i) => ({ ...i, field: c.field })), `Lot ${c.rowId}`));
+        else
+          issues.push(
+            ...prefixIssues(
+              c.ref,
+              res.issues.map((i) => ({ ...i, field: c.field })),
+              `Lot ${c.rowId}`,
+            ),
+          );
       }
       if (issues.length) throw new Rejection(issues);
-      const rowsNow = await savedRows(tx, actor, key, done.map((d) => d.saved));
+      const rowsNow = await savedRows(
+        tx,
+        actor,
+        key,
+        done.map((d) => d.saved),
+      );
       outcome = {
         dryRun,
-        saved: done.map((d) => ({ ref: d.ref, row: rowsNow.find((x) => (d.saved.code !== undefined && !table.rowId.startsWith("id") ? x[table.rowId] === d.saved.code : x.id === d.saved.id)) ?? null })),
-        corrected: fixed.length ? (await findRowsByKey(tx, actor.siteId, key, fixed.map((f) => f.rowId), actor.now)).map((row) => ({ ref: fixed.find((f) => f.rowId === row[table.rowId])?.ref ?? "", row })) : [],
+        saved: done.map((d) => ({
+          ref: d.ref,
+          row:
+            rowsNow.find((x) =>
+              d.saved.code !== undefined && !table.rowId.startsWith("id")
+                ? x[table.rowId] === d.saved.code
+                : x.id === d.saved.id,
+            ) ?? null,
+        })),
+        corrected: fixed.length
+          ? (
+              await findRowsByKey(
+                tx,
+                actor.siteId,
+                key,
+                fixed.map((f) => f.rowId),
+                actor.now,
+              )
+            ).map((row) => ({ ref: fixed.find((f) => f.rowId === row[table.rowId])?.ref ?? "", row }))
+          : [],
       };
       if (dryRun) throw new Rejection([{ code: PREVIEW, message: "preview only: rolled back" }]);
       return outcome;
@@ -147,9 +204,27 @@ async function savedRows(tx: Tx, actor: Actor, key: TableKey, saved: Saved[]): P
   const table = GRID_TABLES[key];
   if (table.rowId === "id") {
     const ids = saved.map((s) => s.id).filter((x): x is number => x !== undefined);
-    return (await queryGridRows(tx, { siteId: actor.siteId, table: key, start: 0, end: ids.length + 1, sort: [], filter: {}, system: "metric", now: actor.now, extra: { id: { in: ids } } })).rows;
+    return (
+      await queryGridRows(tx, {
+        siteId: actor.siteId,
+        table: key,
+        start: 0,
+        end: ids.length + 1,
+        sort: [],
+        filter: {},
+        system: "metric",
+        now: actor.now,
+        extra: { id: { in: ids } },
+      })
+    ).rows;
   }
-  return findRowsByKey(tx, actor.siteId, key, saved.map((s) => s.code ?? ""), actor.now);
+  return findRowsByKey(
+    tx,
+    actor.siteId,
+    key,
+    saved.map((s) => s.code ?? ""),
+    actor.now,
+  );
 }
 
 export interface ImportRowPreview {
@@ -194,7 +269,13 @@ export async function importGridFile(db: Db, actor: GridActor, input: unknown): 
   if (!allowed.ok) return allowed;
   const sheet = readSheet(table, text, { locale, system: actor.unitSystem, siteOffsetMin: 0, requireHeader: true });
   const messages = [...sheet.problems];
-  const stored = await findRowsByKey(db, actor.siteId, key, sheet.rows.map((r) => String(r.values[table.importKey[0] ?? ""] ?? "")).filter((v) => v !== ""), actor.now);
+  const stored = await findRowsByKey(
+    db,
+    actor.siteId,
+    key,
+    sheet.rows.map((r) => String(r.values[table.importKey[0] ?? ""] ?? "")).filter((v) => v !== ""),
+    actor.now,
+  );
   const byKey = new Map(stored.map((row) => [keyOf(table, row), row]));
   const fresh: SheetRow[] = [];
   const preview: ImportRowPreview[] = [];
@@ -205,7 +286,8 @@ export async function importGridFile(db: Db, actor: GridActor, input: unknown): 
     const k = keyOf(table, r.values);
     const errors = { ...r.errors };
     const twin = seen.get(k);
-    if (twin !== undefined && Object.keys(errors).length === 0) errors[table.importKey[0] ?? ""] = `the same record as row ${twin}`;
+    if (twin !== undefined && Object.keys(errors).length === 0)
+      errors[table.importKey[0] ?? ""] = `the same record as row ${twin}`;
     seen.set(k, r.line);
     const existing = byKey.get(k);
     let status: ImportRowPreview["status"] = "new";
@@ -215,7 +297,9 @@ export async function importGridFile(db: Db, actor: GridActor, input: unknown): 
       if (diff.length === 0) status = "unchanged";
       else {
         status = "error";
-        for (const d of diff) errors[d.field] = `differs from the stored record (stored ${d.stored}); stored records are not overwritten by an import`;
+        for (const d of diff)
+          errors[d.field] =
+            `differs from the stored record (stored ${d.stored}); stored records are not overwritten by an import`;
       }
     }
     if (status === "error") {
@@ -244,7 +328,11 @@ export async function importGridFile(db: Db, actor: GridActor, input: unknown): 
       const issues: DomainIssue[] = [];
       const rowIssue = (line: number, i: DomainIssue): DomainIssue => {
         const header = table.columns.find((c) => c.field === (i.field ?? "").split(".")[0])?.header;
-        return { ...i, field: `rows.${line}.${i.field ?? ""}`, message: `Row ${line}${header ? `, column "${header}"` : ""}: ${i.message}` };
+        return {
+          ...i,
+          field: `rows.${line}.${i.field ?? ""}`,
+          message: `Row ${line}${header ? `, column "${header}"` : ""}: ${i.message}`,
+        };
       };
       if (key === "pickups") {
         for (const r of fresh) {
@@ -254,7 +342,13 @@ export async function importGridFile(db: Db, actor: GridActor, input: unknown): 
         }
         if (issues.length) throw new Rejection(issues);
         // Pickups go through the bulk writer: the same records, receipts and audit events, a few statements per 500 rows.
-        const res = await withoutIdempotencyKey(() => importPickupRows(inner, actor, fresh.map((r) => toInput(table, r.values))));
+        const res = await withoutIdempotencyKey(() =>
+          importPickupRows(
+            inner,
+            actor,
+            fresh.map((r) => toInput(table, r.values)),
+          ),
+        );
         if (!res.ok) {
           for (const i of res.issues.slice(0, MAX_MESSAGES)) {
             const [, index, ...rest] = (i.field ?? "").split(".");
@@ -266,7 +360,9 @@ export async function importGridFile(db: Db, actor: GridActor, input: unknown): 
         wouldWrite = res.value.written;
       }
       for (const r of key === "pickups" ? [] : fresh) {
-        const res = await withoutIdempotencyKey(() => addRow(inner, actor, key as AddableTable, toInput(table, r.values)));
+        const res = await withoutIdempotencyKey(() =>
+          addRow(inner, actor, key as AddableTable, toInput(table, r.values)),
+        );
         if (!res.ok) {
           for (const i of res.issues) issues.push(rowIssue(r.line, i));
           if (issues.length >= MAX_MESSAGES) break;
@@ -289,10 +385,16 @@ export async function importGridFile(db: Db, actor: GridActor, input: unknown): 
       const mine = result.issues.filter((i) => (i.field ?? "").split(".")[1] === String(p.line));
       if (mine.length) {
         p.status = "error";
-        for (const i of mine) p.errors[(i.field ?? "").split(".")[2] ?? ""] = i.message.replace(/^Row \d+(, column "[^"]*")?: /, "");
+        for (const i of mine)
+          p.errors[(i.field ?? "").split(".")[2] ?? ""] = i.message.replace(/^Row \d+(, column "[^"]*")?: /, "");
       }
     }
-    return ok({ ...base, failed: failed + failedLines.size, written: 0, messages: [...messages, ...result.issues.map((i) => i.message)] });
+    return ok({
+      ...base,
+      failed: failed + failedLines.size,
+      written: 0,
+      messages: [...messages, ...result.issues.map((i) => i.message)],
+    });
   }
   return result;
 }

@@ -21,7 +21,9 @@ export function numberStyleFor(locale: string): NumberStyle {
   }
   const decimal = parts.find((p) => p.type === "decimal")?.value === "," ? "," : ".";
   const group = parts.find((p) => p.type === "group")?.value ?? (decimal === "," ? "." : ",");
-  const groups = [...new Set([group, ...SPACES, ...(group === "'" || group === "’" ? ["'", "’"] : [])])].filter((g) => g !== decimal);
+  const groups = [...new Set([group, ...SPACES, ...(group === "'" || group === "’" ? ["'", "’"] : [])])].filter(
+    (g) => g !== decimal,
+  );
   return { decimal, groups };
 }
 
@@ -33,7 +35,10 @@ const escape = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
  * than a question. A lone separator after 1–3 digits that could be either reading is decided by the style.
  */
 export function parseLocaleNumber(raw: string, style: NumberStyle, field?: string): Result<number> {
-  const text = raw.trim().replace(/\u2212/g, "-").replace(/^\+/, "");
+  const text = raw
+    .trim()
+    .replace(/\u2212/g, "-")
+    .replace(/^\+/, "");
   if (text === "") return fail("INPUT.EMPTY", "no number given", field);
   const g = style.groups.map(escape).join("|");
   const d = escape(style.decimal);
@@ -50,5 +55,7 @@ export function parseLocaleNumber(raw: string, style: NumberStyle, field?: strin
     return fail("INPUT.NOT_A_NUMBER", `"${raw.trim()}" is not a number${hint}`, field);
   }
   const value = Number(normal);
-  return Number.isFinite(value) ? ok(value) : fail("INPUT.NOT_A_NUMBER", `"${raw.trim()}" is not a finite number`, field);
+  return Number.isFinite(value)
+    ? ok(value)
+    : fail("INPUT.NOT_A_NUMBER", `"${raw.trim()}" is not a finite number`, field);
 }

@@ -15,7 +15,14 @@ const condition = z.object({
 });
 export type FilterCondition = z.infer<typeof condition>;
 
-const columnFilter = z.union([condition, z.object({ filterType: z.enum(["text", "number", "date"]), operator: z.enum(["AND", "OR"]), conditions: z.array(condition).max(5) })]);
+const columnFilter = z.union([
+  condition,
+  z.object({
+    filterType: z.enum(["text", "number", "date"]),
+    operator: z.enum(["AND", "OR"]),
+    conditions: z.array(condition).max(5),
+  }),
+]);
 export type ColumnFilter = z.infer<typeof columnFilter>;
 
 const json = <T extends z.ZodType>(schema: T, what: string) =>
@@ -43,7 +50,10 @@ export const GridQuerySchema = z
     sort: json(SortSchema, "sort").default([]),
     filter: json(FilterSchema, "filter").default({}),
   })
-  .refine((q) => q.end > q.start && q.end - q.start <= MAX_BLOCK_ROWS, { message: `end must be after start, at most ${MAX_BLOCK_ROWS} rows per request`, path: ["end"] });
+  .refine((q) => q.end > q.start && q.end - q.start <= MAX_BLOCK_ROWS, {
+    message: `end must be after start, at most ${MAX_BLOCK_ROWS} rows per request`,
+    path: ["end"],
+  });
 export type GridQuery = z.output<typeof GridQuerySchema>;
 
 export const GridExportSchema = z.object({
@@ -58,8 +68,15 @@ export type GridExport = z.output<typeof GridExportSchema>;
 export const GridSaveSchema = z.object({
   table: z.enum(TABLE_KEYS, { error: `table must be one of: ${TABLE_KEYS.join(", ")}` }),
   /** Service inputs as the shared schemas take them; each is checked again by its service. */
-  rows: z.array(z.object({ ref: z.string().max(80), input: z.record(z.string(), z.unknown()) })).max(5_000, "rows: at most 5,000 per save"),
-  corrections: z.array(z.object({ ref: z.string().max(80), rowId: z.string().max(80), field: z.string().max(60), value: z.unknown() })).max(1_000).default([]),
+  rows: z
+    .array(z.object({ ref: z.string().max(80), input: z.record(z.string(), z.unknown()) }))
+    .max(5_000, "rows: at most 5,000 per save"),
+  corrections: z
+    .array(
+      z.object({ ref: z.string().max(80), rowId: z.string().max(80), field: z.string().max(60), value: z.unknown() }),
+    )
+    .max(1_000)
+    .default([]),
   /** Check everything inside a transaction that is then rolled back: the preview. */
   dryRun: z.boolean().default(false),
 });

@@ -14,7 +14,9 @@ import { entryColumns } from "@/lib/grid/tables";
  * The same shape as LotTitrationSchema in lib/feedstock/titration.service.ts, built from the same field
  * builders; that file is server-only, so the browser cannot import it. The service parses again with its own.
  */
-const LotTitrationEntrySchema = z.object({ lotCode: code("Lot number"), testedAt: when("Test time") }).and(TitrationEntrySchema);
+const LotTitrationEntrySchema = z
+  .object({ lotCode: code("Lot number"), testedAt: when("Test time") })
+  .and(TitrationEntrySchema);
 
 export type AddableTable = Extract<TableKey, "sources" | "pickups" | "lots" | "titrations" | "labTests">;
 export const ADDABLE: readonly AddableTable[] = ["sources", "pickups", "lots", "titrations", "labTests"];
@@ -30,7 +32,9 @@ export function schemaFor(key: AddableTable, input: Record<string, unknown>): Zo
     case "pickups":
       return PickupSchema;
     case "lots":
-      return input.supplierCode !== undefined || input.deliveryDocument !== undefined ? DeliveryLotSchema : LotFromPickupsSchema;
+      return input.supplierCode !== undefined || input.deliveryDocument !== undefined
+        ? DeliveryLotSchema
+        : LotFromPickupsSchema;
     case "titrations":
       return LotTitrationEntrySchema;
     case "labTests":
@@ -49,7 +53,11 @@ export function toInput(table: GridTable, row: GridRow): Record<string, unknown>
   for (const col of entryColumns(table)) {
     const v: CellValue | undefined = row[col.field];
     if (v === null || v === undefined || v === "") continue;
-    if (LIST_FIELDS.has(col.field) && typeof v === "string") input[col.field] = v.split(",").map((s) => s.trim()).filter((s) => s !== "");
+    if (LIST_FIELDS.has(col.field) && typeof v === "string")
+      input[col.field] = v
+        .split(",")
+        .map((s) => s.trim())
+        .filter((s) => s !== "");
     else input[col.field] = v;
   }
   if (table.key === "pickups" && typeof row[ROW_KEY] === "string") input.idempotencyKey = row[ROW_KEY];

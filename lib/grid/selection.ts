@@ -14,7 +14,12 @@ export interface CellRange {
 }
 
 export function rangeOf(anchor: CellPos, corner: CellPos): CellRange {
-  return { top: Math.min(anchor.row, corner.row), bottom: Math.max(anchor.row, corner.row), left: Math.min(anchor.col, corner.col), right: Math.max(anchor.col, corner.col) };
+  return {
+    top: Math.min(anchor.row, corner.row),
+    bottom: Math.max(anchor.row, corner.row),
+    left: Math.min(anchor.col, corner.col),
+    right: Math.max(anchor.col, corner.col),
+  };
 }
 
 export function contains(r: CellRange, p: CellPos): boolean {
@@ -27,7 +32,10 @@ export function cellCount(r: CellRange): number {
 
 /** Moves the corner by one step, kept inside the grid (Shift+arrow). */
 export function extend(corner: CellPos, dRow: number, dCol: number, rows: number, cols: number): CellPos {
-  return { row: Math.max(0, Math.min(rows - 1, corner.row + dRow)), col: Math.max(0, Math.min(cols - 1, corner.col + dCol)) };
+  return {
+    row: Math.max(0, Math.min(rows - 1, corner.row + dRow)),
+    col: Math.max(0, Math.min(cols - 1, corner.col + dCol)),
+  };
 }
 
 /**

@@ -46,11 +46,16 @@ export interface Sheet {
 
 /** Text of a file: UTF-8 (a BOM is dropped), UTF-16 with a BOM, otherwise Windows-1252 / Latin-1. */
 export function decodeText(bytes: Uint8Array): { text: string; encoding: string } {
-  if (bytes[0] === 0xff && bytes[1] === 0xfe) return { text: new TextDecoder("utf-16le").decode(bytes.subarray(2)), encoding: "UTF-16LE" };
-  if (bytes[0] === 0xfe && bytes[1] === 0xff) return { text: new TextDecoder("utf-16be").decode(bytes.subarray(2)), encoding: "UTF-16BE" };
+  if (bytes[0] === 0xff && bytes[1] === 0xfe)
+    return { text: new TextDecoder("utf-16le").decode(bytes.subarray(2)), encoding: "UTF-16LE" };
+  if (bytes[0] === 0xfe && bytes[1] === 0xff)
+    return { text: new TextDecoder("utf-16be").decode(bytes.subarray(2)), encoding: "UTF-16BE" };
   const body = bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? bytes.subarray(3) : bytes;
   try {
-    return { text: new TextDecoder("utf-8", { fatal: true }).decode(body), encoding: body === bytes ? "UTF-8" : "UTF-8 with BOM" };
+    return {
+      text: new TextDecoder("utf-8", { fatal: true }).decode(body),
+      encoding: body === bytes ? "UTF-8" : "UTF-8 with BOM",
+    };
   } catch {
     return { text: new TextDecoder("windows-1252").decode(body), encoding: "Latin-1 (Windows-1252)" };
   }
@@ -68,8 +73,18 @@ const QUOTE_MESSAGES: Record<string, string> = {
 export function readSheet(table: GridTable, text: string, o: SheetOptions): Sheet {
   const problems: string[] = [];
   const body = text.replace(/^\uFEFF/, "").replace(/(\r?\n)+$/, "");
-  if (body.trim() === "") return { hasHeader: false, columns: [], rows: [], problems: ["The file or block is empty: there are no rows to read"] };
-  const parsed = Papa.parse<string[]>(body, { delimiter: o.delimiter ?? "", delimitersToGuess: [",", ";", "\t"], skipEmptyLines: "greedy" });
+  if (body.trim() === "")
+    return {
+      hasHeader: false,
+      columns: [],
+      rows: [],
+      problems: ["The file or block is empty: there are no rows to read"],
+    };
+  const parsed = Papa.parse<string[]>(body, {
+    delimiter: o.delimiter ?? "",
+    delimitersToGuess: [",", ";", "\t"],
+    skipEmptyLines: "greedy",
+  });
   const quoteRows = new Set<number>();
   for (const e of parsed.errors) {
     const what = QUOTE_MESSAGES[e.code] ?? e.message;
@@ -92,21 +107,37 @@ export function readSheet(table: GridTable, text: string, o: SheetOptions): Shee
   if (hasHeader) {
     const m = matchHeaders(table, first);
     columns = m.matches;
-    if (m.unknown.length) problems.push(`Unknown column${m.unknown.length > 1 ? "s" : ""}: ${m.unknown.map((u) => `"${u}"`).join(", ")} (this table has: ${table.columns.map((c) => c.header).join(", ")})`);
+    if (m.unknown.length)
+      problems.push(
+        `Unknown column${m.unknown.length > 1 ? "s" : ""}: ${m.unknown.map((u) => `"${u}"`).join(", ")} (this table has: ${table.columns.map((c) => c.header).join(", ")})`,
+      );
     problems.push(...m.unitIssues);
     const seen = new Map<string, number>();
     for (const c of columns) seen.set(c.column.field, (seen.get(c.column.field) ?? 0) + 1);
-    for (const [field, n] of seen) if (n > 1) problems.push(`Column "${table.columns.find((c) => c.field === field)?.header ?? field}" appears ${n} times`);
+    for (const [field, n] of seen)
+      if (n > 1)
+        problems.push(`Column "${table.columns.find((c) => c.field === field)?.header ?? field}" appears ${n} times`);
     const given = new Set(columns.map((c) => c.column.field));
     const missing = requiredFields(table).filter((f) => !given.has(f));
-    if (missing.length) problems.push(`Missing column${missing.length > 1 ? "s" : ""}: ${missing.map((f) => table.columns.find((c) => c.field === f)?.header ?? f).join(", ")}`);
+    if (missing.length)
+      problems.push(
+        `Missing column${missing.length > 1 ? "s" : ""}: ${missing.map((f) => table.columns.find((c) => c.field === f)?.header ?? f).join(", ")}`,
+      );
   } else {
-    if (o.requireHeader) problems.push(`Row 1 is not a header row: the first row must name the columns (${entryColumns(table).map((c) => c.header).join(", ")})`);
+    if (o.requireHeader)
+      problems.push(
+        `Row 1 is not a header row: the first row must name the columns (${entryColumns(table)
+          .map((c) => c.header)
+          .join(", ")})`,
+      );
     columns = (o.columnsWithoutHeader ?? entryColumns(table)).map((column, index) => ({ index, column }));
   }
   const dataRows = hasHeader ? grid.slice(1) : grid;
   if (dataRows.length === 0) problems.push("There are no data rows under the header");
-  if (dataRows.length > MAX_IMPORT_ROWS) problems.push(`${dataRows.length.toLocaleString("en")} rows: at most ${MAX_IMPORT_ROWS.toLocaleString("en")} rows per import`);
+  if (dataRows.length > MAX_IMPORT_ROWS)
+    problems.push(
+      `${dataRows.length.toLocaleString("en")} rows: at most ${MAX_IMPORT_ROWS.toLocaleString("en")} rows per import`,
+    );
   const style = numberStyleFor(o.locale);
   const order = dateOrderFor(o.locale);
   const width = Math.max(0, ...columns.map((c) => c.index + 1));
@@ -116,12 +147,19 @@ export function readSheet(table: GridTable, text: string, o: SheetOptions): Shee
     const errors: Record<string, string> = {};
     const raw: Record<string, string> = {};
     if (quoteRows.has(i + (hasHeader ? 1 : 0))) errors[""] = "broken quotes in this row";
-    if (!hasHeader && cells.length > width && cells.slice(width).some((c) => c.trim() !== "")) errors[""] = `${cells.length} cells but only ${width} columns to put them in`;
+    if (!hasHeader && cells.length > width && cells.slice(width).some((c) => c.trim() !== ""))
+      errors[""] = `${cells.length} cells but only ${width} columns to put them in`;
     for (const { index, column, unit } of columns) {
       const cell = cells[index] ?? "";
       raw[column.field] = cell;
       if (column.entry !== true || column.computed === true) continue;
-      const r = readCell(column, cell, { style, order, siteOffsetMin: o.siteOffsetMin, system: o.system, ...(unit ? { unit } : {}) });
+      const r = readCell(column, cell, {
+        style,
+        order,
+        siteOffsetMin: o.siteOffsetMin,
+        system: o.system,
+        ...(unit ? { unit } : {}),
+      });
       if (r.ok) values[column.field] = r.value;
       else {
         values[column.field] = cell;
@@ -138,7 +176,8 @@ export function readSheet(table: GridTable, text: string, o: SheetOptions): Shee
 /** Fields a new row cannot do without: what the shared schema complains about for an empty row. */
 export function requiredFields(table: GridTable): string[] {
   // A lot is either a delivery (supplier + document) or pooled pickups: neither column is required on its own.
-  const either = table.key === "lots" ? new Set(["pickupCodes", "supplierCode", "deliveryDocument"]) : new Set<string>();
+  const either =
+    table.key === "lots" ? new Set(["pickupCodes", "supplierCode", "deliveryDocument"]) : new Set<string>();
   return Object.keys(checkRow(table, {}).errors).filter((f) => f !== "" && !either.has(f));
 }
 

@@ -55,6 +55,10 @@ export function replayValues(step: UndoStep): Array<{ rowId: string; field: stri
 
 /** A server-saved row gets a new id; steps that named its draft id follow it. */
 export function renameRow(h: UndoHistory, from: string, to: string): UndoHistory {
-  const fix = (s: UndoStep): UndoStep => ({ ...s, changes: s.changes.map((c) => (c.rowId === from ? { ...c, rowId: to } : c)), ...(s.addedRows ? { addedRows: s.addedRows.map((r) => (r === from ? to : r)) } : {}) });
+  const fix = (s: UndoStep): UndoStep => ({
+    ...s,
+    changes: s.changes.map((c) => (c.rowId === from ? { ...c, rowId: to } : c)),
+    ...(s.addedRows ? { addedRows: s.addedRows.map((r) => (r === from ? to : r)) } : {}),
+  });
   return { done: h.done.map(fix), undone: h.undone.map(fix) };
 }

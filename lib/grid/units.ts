@@ -29,7 +29,8 @@ export function convertQuantity(value: number, q: Quantity, from: GridUnit, to: 
   return convertTemperature(value, from as TemperatureUnit, to as TemperatureUnit);
 }
 
-export const toDisplay = (canonical: number, q: Quantity, system: UnitSystem) => convertQuantity(canonical, q, CANONICAL[q], displayUnit(q, system));
+export const toDisplay = (canonical: number, q: Quantity, system: UnitSystem) =>
+  convertQuantity(canonical, q, CANONICAL[q], displayUnit(q, system));
 export const fromUnit = (value: number, q: Quantity, unit: GridUnit) => convertQuantity(value, q, unit, CANONICAL[q]);
 
 /**

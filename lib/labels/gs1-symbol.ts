@@ -7,7 +7,14 @@ import bwipjs from "bwip-js/node";
  * mandatory-association rule; the characters and length were already checked by gs1LotElement.
  */
 export function gs1DataMatrixOptions(elementString: string, withGtin: boolean) {
-  return { bcid: "gs1datamatrix", text: elementString, scale: 3, padding: 2, backgroundcolor: "FFFFFF", ...(withGtin ? {} : { dontlint: true }) };
+  return {
+    bcid: "gs1datamatrix",
+    text: elementString,
+    scale: 3,
+    padding: 2,
+    backgroundcolor: "FFFFFF",
+    ...(withGtin ? {} : { dontlint: true }),
+  };
 }
 
 /** An SVG GS1 DataMatrix for the element string, e.g. "(01)00614141000012(10)L-0042". */

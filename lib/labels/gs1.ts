@@ -22,12 +22,21 @@ export interface Gs1Lot {
 export function gs1LotElement(lot: string, field = "lot"): Result<Gs1Lot> {
   if (lot.length === 0) return fail("GS1.EMPTY", "Lot number is empty; AI (10) needs at least one character", field);
   const chars = [...lot];
-  if (chars.length > MAX_LOT_LENGTH) return fail("GS1.TOO_LONG", `Lot number ${lot} has ${chars.length} characters; GS1 AI (10) allows at most ${MAX_LOT_LENGTH}`, field);
+  if (chars.length > MAX_LOT_LENGTH)
+    return fail(
+      "GS1.TOO_LONG",
+      `Lot number ${lot} has ${chars.length} characters; GS1 AI (10) allows at most ${MAX_LOT_LENGTH}`,
+      field,
+    );
   const bad = chars.findIndex((c) => !SET_82.has(c));
   if (bad >= 0) {
     const c = chars[bad] ?? "";
     const shown = c === " " ? "a space" : `"${c}"`;
-    return fail("GS1.CHARACTER", `Lot number ${lot}: ${shown} at position ${bad + 1} is not in GS1 character set 82`, field);
+    return fail(
+      "GS1.CHARACTER",
+      `Lot number ${lot}: ${shown} at position ${bad + 1} is not in GS1 character set 82`,
+      field,
+    );
   }
   return ok({ elementString: `(${AI_BATCH_LOT})${lot}`, lot });
 }
@@ -40,9 +49,15 @@ const GTIN14 = /^\d{14}$/;
  * GTIN for the material (AI (10) is to be used with a GTIN — GS1 General Specifications §4.14,
  * mandatory associations, from memory for the clause), else "(10)<lot>" alone.
  */
-export function gs1LabelElementString(lot: string, gtin: string | null): Result<{ elementString: string; withGtin: boolean }> {
+export function gs1LabelElementString(
+  lot: string,
+  gtin: string | null,
+): Result<{ elementString: string; withGtin: boolean }> {
   const element = gs1LotElement(lot);
   if (!element.ok) return element;
   if (gtin !== null && !GTIN14.test(gtin)) return fail("GS1.GTIN", `GTIN ${gtin} must be 14 digits`, "gtin");
-  return ok({ elementString: gtin === null ? element.value.elementString : `(01)${gtin}${element.value.elementString}`, withGtin: gtin !== null });
+  return ok({
+    elementString: gtin === null ? element.value.elementString : `(01)${gtin}${element.value.elementString}`,
+    withGtin: gtin !== null,
+  });
 }

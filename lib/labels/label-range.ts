@@ -9,11 +9,17 @@ export function containerRange(prefix: string, from: number, to: number, width =
   const p = prefix.trim().toUpperCase();
   if (!Number.isInteger(from) || from < 0) return fail("INPUT.INVALID", "From: a whole number, 0 or more", "from");
   if (!Number.isInteger(to) || to < from) return fail("INPUT.INVALID", "To: a whole number not below From", "to");
-  if (to - from + 1 > MAX_LABELS_PER_SHEET) return fail("INPUT.INVALID", `At most ${MAX_LABELS_PER_SHEET} labels per sheet`, "to");
+  if (to - from + 1 > MAX_LABELS_PER_SHEET)
+    return fail("INPUT.INVALID", `At most ${MAX_LABELS_PER_SHEET} labels per sheet`, "to");
   const tags: string[] = [];
   for (let n = from; n <= to; n++) {
     const tag = `${p}${String(n).padStart(width, "0")}`;
-    if (!CODE_PATTERN.test(tag)) return fail("INPUT.INVALID", `Prefix: ${tag} is not a valid label (letters, digits, ".", "_", "/", "-"; at most 40)`, "prefix");
+    if (!CODE_PATTERN.test(tag))
+      return fail(
+        "INPUT.INVALID",
+        `Prefix: ${tag} is not a valid label (letters, digits, ".", "_", "/", "-"; at most 40)`,
+        "prefix",
+      );
     tags.push(tag);
   }
   return ok(tags);

@@ -47,10 +47,15 @@ export const tempC = (what: string) =>
     .max(MAX_TEMP_C, `${what} must be at most ${MAX_TEMP_C} °C`);
 
 export const percent = (what: string) =>
-  z.number({ error: `${what} (%) must be a number` }).min(0, `${what} must be at least 0 %`).max(100, `${what} must be at most 100 %`);
+  z
+    .number({ error: `${what} (%) must be a number` })
+    .min(0, `${what} must be at least 0 %`)
+    .max(100, `${what} must be at most 100 %`);
 
 export const when = (what: string) =>
-  z.coerce.date({ error: `${what} must be a date and time` }).refine((d) => !Number.isNaN(d.getTime()), `${what} must be a valid date`);
+  z.coerce
+    .date({ error: `${what} must be a date and time` })
+    .refine((d) => !Number.isNaN(d.getTime()), `${what} must be a valid date`);
 
 export const oneOf = <T extends readonly [string, ...string[]]>(what: string, values: T) =>
   z.enum(values, { error: `${what} must be one of: ${values.join(", ")}` });

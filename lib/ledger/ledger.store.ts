@@ -69,13 +69,28 @@ export async function runInTransaction<T>(db: Db, fn: (tx: Tx) => Promise<T>, ti
       await db.$transaction(
         async (tx) => {
           if (!key) return fn(tx);
-          const earlier = await tx.idempotencyRecord.findUnique({ where: { userId_key: { userId: key.userId, key: key.key } } });
+          const earlier = await tx.idempotencyRecord.findUnique({
+            where: { userId_key: { userId: key.userId, key: key.key } },
+          });
           if (earlier) {
-            if (earlier.requestHash !== key.requestHash) reject("IDEMPOTENCY.KEY_REUSED", "This idempotency key was already used for a different request", "Idempotency-Key");
+            if (earlier.requestHash !== key.requestHash)
+              reject(
+                "IDEMPOTENCY.KEY_REUSED",
+                "This idempotency key was already used for a different request",
+                "Idempotency-Key",
+              );
             throw new Replay(JSON.parse(earlier.response));
           }
           const value = await fn(tx);
-          await tx.idempotencyRecord.create({ data: { userId: key.userId, key: key.key, requestHash: key.requestHash, response: JSON.stringify(value ?? null), createdAt: new Date() } });
+          await tx.idempotencyRecord.create({
+            data: {
+              userId: key.userId,
+              key: key.key,
+              requestHash: key.requestHash,
+              response: JSON.stringify(value ?? null),
+              createdAt: new Date(),
+            },
+          });
           return value;
         },
         { timeout: timeoutMs, maxWait: timeoutMs },
@@ -86,13 +101,18 @@ export async function runInTransaction<T>(db: Db, fn: (tx: Tx) => Promise<T>, ti
     if (e instanceof Rejection) return failMany(e.issues);
     if (key && isUniqueViolation(e)) {
       // A concurrent twin committed first: answer with what it stored.
-      const earlier = await db.idempotencyRecord.findUnique({ where: { userId_key: { userId: key.userId, key: key.key } } });
+      const earlier = await db.idempotencyRecord.findUnique({
+        where: { userId_key: { userId: key.userId, key: key.key } },
+      });
       if (earlier && earlier.requestHash === key.requestHash) return ok(JSON.parse(earlier.response) as T);
     }
     // A lock held past the busy timeout, or a lost connection: the transaction never committed.
     const fault = classifyDatabaseFault(e);
     if (fault) {
-      log.warn({ event: "database.fault", code: fault, err: e }, "a write was refused by a database fault; nothing was saved");
+      log.warn(
+        { event: "database.fault", code: fault, err: e },
+        "a write was refused by a database fault; nothing was saved",
+      );
       return fail(fault, FAULT_MESSAGES[fault]);
     }
     throw e;
@@ -103,15 +123,33 @@ function isUniqueViolation(e: unknown): boolean {
   return typeof e === "object" && e !== null && "code" in e && (e as { code?: unknown }).code === "P2002";
 }
 
-export async function createHolder(tx: Tx, siteId: number, kind: HolderKind, code: string, field = "code"): Promise<number> {
-  const existing = await tx.holder.findUnique({ where: { siteId_kind_code: { siteId, kind, code } }, select: { id: true } });
+export async function createHolder(
+  tx: Tx,
+  siteId: number,
+  kind: HolderKind,
+  code: string,
+  field = "code",
+): Promise<number> {
+  const existing = await tx.holder.findUnique({
+    where: { siteId_kind_code: { siteId, kind, code } },
+    select: { id: true },
+  });
   if (existing) reject("RECORD.DUPLICATE", `${labelOf(kind)} ${code} already exists`, field);
   const holder = await tx.holder.create({ data: { siteId, kind, code }, select: { id: true } });
   return holder.id;
 }
 
-export async function requireHolder(tx: Tx, siteId: number, kind: HolderKind, code: string, field: string): Promise<{ id: number; stockG: number }> {
-  const holder = await tx.holder.findUnique({ where: { siteId_kind_code: { siteId, kind, code } }, select: { id: true, stockG: true } });
+export async function requireHolder(
+  tx: Tx,
+  siteId: number,
+  kind: HolderKind,
+  code: string,
+  field: string,
+): Promise<{ id: number; stockG: number }> {
+  const holder = await tx.holder.findUnique({
+    where: { siteId_kind_code: { siteId, kind, code } },
+    select: { id: true, stockG: true },
+  });
   if (!holder) reject("RECORD.NOT_FOUND", `${labelOf(kind)} ${code} does not exist`, field);
   return holder;
 }
@@ -131,27 +169,49 @@ const CHUNK = 500; // rows per statement: under SQLite's bound-parameter limit
  * Many new holders of one kind at once, each holding the mass its receipt brings (for bulk imports,
  * where every holder is new and its only movement is the receipt written by postReceipts).
  */
-export async function createHoldersWithStock(tx: Tx, siteId: number, kind: HolderKind, items: ReadonlyArray<{ code: string; stockG: number; field: string }>): Promise<Map<string, number>> {
+export async function createHoldersWithStock(
+  tx: Tx,
+  siteId: number,
+  kind: HolderKind,
+  items: ReadonlyArray<{ code: string; stockG: number; field: string }>,
+): Promise<Map<string, number>> {
   const seen = new Map<string, string>();
   for (const it of items) {
     const earlier = seen.get(it.code);
-    if (earlier !== undefined) reject("RECORD.DUPLICATE", `${labelOf(kind)} ${it.code} appears twice in this import`, it.field);
+    if (earlier !== undefined)
+      reject("RECORD.DUPLICATE", `${labelOf(kind)} ${it.code} appears twice in this import`, it.field);
     seen.set(it.code, it.field);
   }
   const ids = new Map<string, number>();
   for (let i = 0; i < items.length; i += CHUNK) {
     const part = items.slice(i, i + CHUNK);
-    const clash = await tx.holder.findFirst({ where: { siteId, kind, code: { in: part.map((x) => x.code) } }, select: { code: true } });
-    if (clash) reject("RECORD.DUPLICATE", `${labelOf(kind)} ${clash.code} already exists`, seen.get(clash.code) ?? "code");
-    await insertRows(tx, "Holder", ["siteId", "kind", "code", "stockG"], part.map((x) => [siteId, kind, x.code, x.stockG]));
-    const made = await tx.holder.findMany({ where: { siteId, kind, code: { in: part.map((x) => x.code) } }, select: { id: true, code: true } });
+    const clash = await tx.holder.findFirst({
+      where: { siteId, kind, code: { in: part.map((x) => x.code) } },
+      select: { code: true },
+    });
+    if (clash)
+      reject("RECORD.DUPLICATE", `${labelOf(kind)} ${clash.code} already exists`, seen.get(clash.code) ?? "code");
+    await insertRows(
+      tx,
+      "Holder",
+      ["siteId", "kind", "code", "stockG"],
+      part.map((x) => [siteId, kind, x.code, x.stockG]),
+    );
+    const made = await tx.holder.findMany({
+      where: { siteId, kind, code: { in: part.map((x) => x.code) } },
+      select: { id: true, code: true },
+    });
     for (const h of made) ids.set(h.code, h.id);
   }
   return ids;
 }
 
 /** Refuses any of these times that falls in a closed period, reading the closed periods once. */
-export async function assertPeriodsOpen(tx: Tx, siteId: number, times: ReadonlyArray<{ at: Date; field: string }>): Promise<void> {
+export async function assertPeriodsOpen(
+  tx: Tx,
+  siteId: number,
+  times: ReadonlyArray<{ at: Date; field: string }>,
+): Promise<void> {
   if (times.length === 0) return;
   // A loop, not Math.min(...times): a large import would overflow the argument list.
   let first = Number.POSITIVE_INFINITY;
@@ -166,7 +226,12 @@ export async function assertPeriodsOpen(tx: Tx, siteId: number, times: ReadonlyA
   });
   for (const t of times) {
     const p = closed.find((c) => c.startsAt <= t.at && t.at < c.endsAt);
-    if (p) reject("PERIOD.CLOSED", `The period ${p.startsAt.toISOString().slice(0, 10)} – ${p.endsAt.toISOString().slice(0, 10)} is closed; a compliance user must reopen it first`, t.field);
+    if (p)
+      reject(
+        "PERIOD.CLOSED",
+        `The period ${p.startsAt.toISOString().slice(0, 10)} – ${p.endsAt.toISOString().slice(0, 10)} is closed; a compliance user must reopen it first`,
+        t.field,
+      );
   }
 }
 
@@ -175,17 +240,47 @@ export async function assertPeriodsOpen(tx: Tx, siteId: number, times: ReadonlyA
  * so no guard is needed and no cycle can close). Append-only rows, written in chunks.
  */
 export async function postReceipts(tx: Tx, drafts: ReadonlyArray<MovementDraft>): Promise<void> {
-  await assertPeriodsOpen(tx, drafts[0]?.siteId ?? 0, drafts.map((d) => ({ at: d.at, field: d.field ?? "at" })));
+  await assertPeriodsOpen(
+    tx,
+    drafts[0]?.siteId ?? 0,
+    drafts.map((d) => ({ at: d.at, field: d.field ?? "at" })),
+  );
   for (const d of drafts) {
-    if (d.fromHolderId !== null) reject("LEDGER.NOT_A_RECEIPT", "Only receipts are written in bulk", d.field ?? "massKg");
-    if (!Number.isSafeInteger(d.massG) || d.massG <= 0) reject("LEDGER.BAD_MASS", "Mass must be more than 0 g", d.field ?? "massKg");
+    if (d.fromHolderId !== null)
+      reject("LEDGER.NOT_A_RECEIPT", "Only receipts are written in bulk", d.field ?? "massKg");
+    if (!Number.isSafeInteger(d.massG) || d.massG <= 0)
+      reject("LEDGER.BAD_MASS", "Mass must be more than 0 g", d.field ?? "massKg");
   }
   const recordedAt = new Date();
   await insertRows(
     tx,
     "Movement",
-    ["siteId", "at", "role", "fromHolderId", "toHolderId", "massG", "volumeMl", "tempC", "note", "recordedById", "recordedAt"],
-    drafts.map((m) => [m.siteId, m.at, m.role, null, m.toHolderId, m.massG, m.volumeMl ?? null, m.tempC ?? null, m.note ?? "", m.recordedById, recordedAt]),
+    [
+      "siteId",
+      "at",
+      "role",
+      "fromHolderId",
+      "toHolderId",
+      "massG",
+      "volumeMl",
+      "tempC",
+      "note",
+      "recordedById",
+      "recordedAt",
+    ],
+    drafts.map((m) => [
+      m.siteId,
+      m.at,
+      m.role,
+      null,
+      m.toHolderId,
+      m.massG,
+      m.volumeMl ?? null,
+      m.tempC ?? null,
+      m.note ?? "",
+      m.recordedById,
+      recordedAt,
+    ]),
   );
 }
 
@@ -220,7 +315,10 @@ export async function postMovement(tx: Tx, m: MovementDraft): Promise<number> {
       data: { stockG: { decrement: m.massG } },
     });
     if (drawn.count !== 1) {
-      const from = await tx.holder.findUnique({ where: { id: m.fromHolderId }, select: { kind: true, code: true, stockG: true } });
+      const from = await tx.holder.findUnique({
+        where: { id: m.fromHolderId },
+        select: { kind: true, code: true, stockG: true },
+      });
       const held = from ? (from.stockG / 1000).toLocaleString("en", { maximumFractionDigits: 3 }) : "0";
       reject(
         "LEDGER.OVERDRAW",
@@ -234,7 +332,10 @@ export async function postMovement(tx: Tx, m: MovementDraft): Promise<number> {
   } else {
     // A vessel's capacity is guarded like a draw: one conditional increment, so concurrent fills
     // cannot each pass a check made on a stock the other is about to change.
-    const filled = await tx.holder.updateMany({ where: { id: m.toHolderId, stockG: { lte: m.room.capacityG - m.massG } }, data: { stockG: { increment: m.massG } } });
+    const filled = await tx.holder.updateMany({
+      where: { id: m.toHolderId, stockG: { lte: m.room.capacityG - m.massG } },
+      data: { stockG: { increment: m.massG } },
+    });
     if (filled.count !== 1) {
       const to = await tx.holder.findUnique({ where: { id: m.toHolderId }, select: { stockG: true } });
       reject("TANK.OVERFILL", m.room.refusal(to?.stockG ?? 0), field);
@@ -272,12 +373,26 @@ async function assertNoCycle(tx: Tx, m: MovementDraft, moveId: number, field: st
   const later = await tx.movement.count({ where: { fromHolderId: m.toHolderId, at: { gt: m.at } } });
   if (later === 0) return;
   const ledger = await loadTraceLedger(tx, m.siteId);
-  const newMove = { id: moveId, at: m.at.getTime(), fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG };
+  const newMove = {
+    id: moveId,
+    at: m.at.getTime(),
+    fromHolderId: m.fromHolderId,
+    toHolderId: m.toHolderId,
+    massG: m.massG,
+  };
   const holders = new Map(ledger.holders.map((h) => [h.id, h]));
-  const verdict = refuseCycle(ledger.moves.filter((x) => x.id !== moveId), newMove, holders);
+  const verdict = refuseCycle(
+    ledger.moves.filter((x) => x.id !== moveId),
+    newMove,
+    holders,
+  );
   if (!verdict.ok) {
     const cycle = verdict.issues[0]?.message ?? "";
-    reject("LEDGER.CYCLE", `This movement would make a record its own ancestor — material it sent on would come back into it. Book rework as a new batch or lot. (${cycle})`, field);
+    reject(
+      "LEDGER.CYCLE",
+      `This movement would make a record its own ancestor — material it sent on would come back into it. Book rework as a new batch or lot. (${cycle})`,
+      field,
+    );
   }
 }
 
@@ -286,14 +401,23 @@ async function assertNoCycle(tx: Tx, m: MovementDraft, moveId: number, field: st
  * any later booking: the ledger stays consistent in date order, not only in entry order. Only the
  * holder's movements after `at` are read, which for a booking made now is none.
  */
-async function assertDrawableThroughout(tx: Tx, holderId: number, at: Date, massG: number, field: string): Promise<void> {
+async function assertDrawableThroughout(
+  tx: Tx,
+  holderId: number,
+  at: Date,
+  massG: number,
+  field: string,
+): Promise<void> {
   const later = await tx.movement.findMany({
     where: { OR: [{ fromHolderId: holderId }, { toHolderId: holderId }], at: { gt: at } },
     orderBy: [{ at: "asc" }, { id: "asc" }],
     select: { fromHolderId: true, massG: true, at: true },
   });
   if (later.length === 0) return;
-  const holder = await tx.holder.findUniqueOrThrow({ where: { id: holderId }, select: { stockG: true, kind: true, code: true } });
+  const holder = await tx.holder.findUniqueOrThrow({
+    where: { id: holderId },
+    select: { stockG: true, kind: true, code: true },
+  });
   let stock = later.reduce((s, mv) => s + (mv.fromHolderId === holderId ? mv.massG : -mv.massG), holder.stockG);
   let lowest = stock;
   let lowestAt = at;

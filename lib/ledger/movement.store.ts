@@ -91,7 +91,11 @@ function toView(r: {
 }
 
 /** The ledger newest first, one page at a time. */
-export async function listMovementPage(db: Db, siteId: number, opts: { skip?: number; take?: number } = {}): Promise<{ rows: MovementView[]; total: number }> {
+export async function listMovementPage(
+  db: Db,
+  siteId: number,
+  opts: { skip?: number; take?: number } = {},
+): Promise<{ rows: MovementView[]; total: number }> {
   const where = { siteId };
   const [rows, total] = await Promise.all([
     db.movement.findMany({
@@ -114,19 +118,41 @@ export interface HolderMovements {
 }
 
 /** Movements into and out of one holder, oldest first; at most `take` of each direction. */
-export async function listHolderMovements(db: Db, holderId: number, opts: { take?: number } = {}): Promise<HolderMovements> {
+export async function listHolderMovements(
+  db: Db,
+  holderId: number,
+  opts: { take?: number } = {},
+): Promise<HolderMovements> {
   const take = opts.take ?? 500;
   const [incoming, outgoing, incomingTotal, outgoingTotal] = await Promise.all([
-    db.movement.findMany({ where: { toHolderId: holderId }, orderBy: [{ at: "asc" }, { id: "asc" }], take, include: MOVEMENT_INCLUDE }),
-    db.movement.findMany({ where: { fromHolderId: holderId }, orderBy: [{ at: "asc" }, { id: "asc" }], take, include: MOVEMENT_INCLUDE }),
+    db.movement.findMany({
+      where: { toHolderId: holderId },
+      orderBy: [{ at: "asc" }, { id: "asc" }],
+      take,
+      include: MOVEMENT_INCLUDE,
+    }),
+    db.movement.findMany({
+      where: { fromHolderId: holderId },
+      orderBy: [{ at: "asc" }, { id: "asc" }],
+      take,
+      include: MOVEMENT_INCLUDE,
+    }),
     db.movement.count({ where: { toHolderId: holderId } }),
     db.movement.count({ where: { fromHolderId: holderId } }),
   ]);
   return { incoming: incoming.map(toView), outgoing: outgoing.map(toView), incomingTotal, outgoingTotal };
 }
 
-export async function getHolderRef(db: Db, siteId: number, kind: HolderKind, code: string): Promise<(HolderRef & { stockG: number }) | null> {
-  const h = await db.holder.findUnique({ where: { siteId_kind_code: { siteId, kind, code } }, select: { ...HOLDER_SELECT, stockG: true } });
+export async function getHolderRef(
+  db: Db,
+  siteId: number,
+  kind: HolderKind,
+  code: string,
+): Promise<(HolderRef & { stockG: number }) | null> {
+  const h = await db.holder.findUnique({
+    where: { siteId_kind_code: { siteId, kind, code } },
+    select: { ...HOLDER_SELECT, stockG: true },
+  });
   return h ? { ...toRef(h), stockG: h.stockG } : null;
 }
 
@@ -162,16 +188,36 @@ export async function loadTraceLedger(db: Db | Tx, siteId: number): Promise<Trac
   const [holderRows, tanks, moveRows] = await Promise.all([
     db.holder.findMany({ where: { siteId }, select: HOLDER_SELECT }),
     db.tank.findMany({ where: { siteId }, select: { holderId: true, mixing: true } }),
-    db.movement.findMany({ where: { siteId }, select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, reversesId: true } }),
+    db.movement.findMany({
+      where: { siteId },
+      select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, reversesId: true },
+    }),
   ]);
   const fifo = new Set(tanks.filter((t) => t.mixing === "FIFO").map((t) => t.holderId));
   const refs = new Map<number, HolderRef>(holderRows.map((h) => [h.id, toRef(h)]));
-  const holders: TraceHolder[] = [...refs.values()].map((h) => ({ id: h.id, kind: h.kind, mixing: fifo.has(h.id) ? "FIFO" : "MIXED" }));
+  const holders: TraceHolder[] = [...refs.values()].map((h) => ({
+    id: h.id,
+    kind: h.kind,
+    mixing: fifo.has(h.id) ? "FIFO" : "MIXED",
+  }));
   const paired = findReversedPairs(moveRows);
   const moves: TraceMove[] = moveRows
     .filter((m) => !paired.has(m.id))
-    .map((m) => ({ id: m.id, at: m.at.getTime(), fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG }));
-  return { holders, moves, refs, reversedPairsLeftOut: paired.size, rowsRead: moveRows.length, lastMoveId: moveRows.reduce((m, r) => Math.max(m, r.id), 0) };
+    .map((m) => ({
+      id: m.id,
+      at: m.at.getTime(),
+      fromHolderId: m.fromHolderId,
+      toHolderId: m.toHolderId,
+      massG: m.massG,
+    }));
+  return {
+    holders,
+    moves,
+    refs,
+    reversedPairsLeftOut: paired.size,
+    rowsRead: moveRows.length,
+    lastMoveId: moveRows.reduce((m, r) => Math.max(m, r.id), 0),
+  };
 }
 
 /**
@@ -180,13 +226,21 @@ export async function loadTraceLedger(db: Db | Tx, siteId: number): Promise<Trac
  * extended and must be read whole: a tank changed its mixing model, a new movement reverses an earlier
  * one (the pair leaves the trace), or the movement count does not add up (e.g. a restored backup).
  */
-export async function extendTraceLedger(db: Db | Tx, siteId: number, ledger: TraceLedger, movementCount: number): Promise<TraceLedger | null> {
+export async function extendTraceLedger(
+  db: Db | Tx,
+  siteId: number,
+  ledger: TraceLedger,
+  movementCount: number,
+): Promise<TraceLedger | null> {
   let lastHolderId = 0;
   for (const id of ledger.refs.keys()) lastHolderId = Math.max(lastHolderId, id);
   const [holderRows, tanks, moveRows] = await Promise.all([
     db.holder.findMany({ where: { siteId, id: { gt: lastHolderId } }, select: HOLDER_SELECT }),
     db.tank.findMany({ where: { siteId }, select: { holderId: true, mixing: true } }),
-    db.movement.findMany({ where: { siteId, id: { gt: ledger.lastMoveId } }, select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, reversesId: true } }),
+    db.movement.findMany({
+      where: { siteId, id: { gt: ledger.lastMoveId } },
+      select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, reversesId: true },
+    }),
   ]);
   if (ledger.rowsRead + moveRows.length !== movementCount) return null;
   if (moveRows.some((m) => m.reversesId !== null)) return null;
@@ -200,18 +254,40 @@ export async function extendTraceLedger(db: Db | Tx, siteId: number, ledger: Tra
     holders.push({ id: ref.id, kind: ref.kind, mixing: fifo.has(ref.id) ? "FIFO" : "MIXED" });
   }
   // A holder committed late under a lower id than one already read: start over rather than miss it.
-  if (moveRows.some((m) => !refs.has(m.toHolderId) || (m.fromHolderId !== null && !refs.has(m.fromHolderId)))) return null;
+  if (moveRows.some((m) => !refs.has(m.toHolderId) || (m.fromHolderId !== null && !refs.has(m.fromHolderId))))
+    return null;
   const moves = [...ledger.moves];
-  for (const m of moveRows) moves.push({ id: m.id, at: m.at.getTime(), fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG });
-  return { holders, moves, refs, reversedPairsLeftOut: ledger.reversedPairsLeftOut, rowsRead: movementCount, lastMoveId: moveRows.reduce((m, r) => Math.max(m, r.id), ledger.lastMoveId) };
+  for (const m of moveRows)
+    moves.push({
+      id: m.id,
+      at: m.at.getTime(),
+      fromHolderId: m.fromHolderId,
+      toHolderId: m.toHolderId,
+      massG: m.massG,
+    });
+  return {
+    holders,
+    moves,
+    refs,
+    reversedPairsLeftOut: ledger.reversedPairsLeftOut,
+    rowsRead: movementCount,
+    lastMoveId: moveRows.reduce((m, r) => Math.max(m, r.id), ledger.lastMoveId),
+  };
 }
 
 /** Movements by id with their holders, for naming the moves a trace reports. */
-export async function listMovementsById(db: Db, siteId: number, ids: readonly number[]): Promise<Map<number, MovementView>> {
+export async function listMovementsById(
+  db: Db,
+  siteId: number,
+  ids: readonly number[],
+): Promise<Map<number, MovementView>> {
   const found = new Map<number, MovementView>();
   // Chunked so a long trace stays under SQLite's bound-parameter limit.
   for (let i = 0; i < ids.length; i += 500) {
-    const rows = await db.movement.findMany({ where: { siteId, id: { in: ids.slice(i, i + 500) } }, include: MOVEMENT_INCLUDE });
+    const rows = await db.movement.findMany({
+      where: { siteId, id: { in: ids.slice(i, i + 500) } },
+      include: MOVEMENT_INCLUDE,
+    });
     for (const r of rows) found.set(r.id, toView(r));
   }
   return found;
@@ -224,5 +300,8 @@ export interface HolderStock {
 }
 
 export async function getHolderStock(db: Db, siteId: number, kind: string, code: string): Promise<HolderStock | null> {
-  return db.holder.findUnique({ where: { siteId_kind_code: { siteId, kind, code } }, select: { kind: true, code: true, stockG: true } });
+  return db.holder.findUnique({
+    where: { siteId_kind_code: { siteId, kind, code } },
+    select: { kind: true, code: true, stockG: true },
+  });
 }

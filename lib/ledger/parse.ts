@@ -8,7 +8,9 @@ export function parseInput<S extends z.ZodType>(schema: S, input: unknown): Resu
   if (parsed.success) return ok(parsed.data);
   const issues: DomainIssue[] = parsed.error.issues.map((i) => {
     const field = i.path.map(String).join(".");
-    return field === "" ? { code: "INPUT.INVALID", message: i.message } : { code: "INPUT.INVALID", message: i.message, field };
+    return field === ""
+      ? { code: "INPUT.INVALID", message: i.message }
+      : { code: "INPUT.INVALID", message: i.message, field };
   });
   return failMany(issues);
 }

@@ -28,7 +28,10 @@ export type BalanceCacheOutcome = "computed" | "same-position" | "sealed";
 
 /** The question: site, its time zone, the query as typed and the quarter-hour (defaults follow the date). */
 export function balanceQuestionKey(site: { id: number; timeZone: string }, input: unknown, now: Date): string {
-  const entries = input !== null && typeof input === "object" ? Object.entries(input as Record<string, unknown>).sort(([a], [b]) => a.localeCompare(b)) : [];
+  const entries =
+    input !== null && typeof input === "object"
+      ? Object.entries(input as Record<string, unknown>).sort(([a], [b]) => a.localeCompare(b))
+      : [];
   return JSON.stringify([site.id, site.timeZone, quarterHourOf(now), entries]);
 }
 
@@ -39,12 +42,22 @@ function sealOf(report: BalanceReport, position: LedgerPosition, gaugeId: number
 }
 
 /** getBalanceReport, answered from the position cache when the books have not changed since. */
-export async function getBalanceReportCached(db: Db, site: { id: number; timeZone: string }, input: unknown, now: Date): Promise<Result<BalanceReport>> {
+export async function getBalanceReportCached(
+  db: Db,
+  site: { id: number; timeZone: string },
+  input: unknown,
+  now: Date,
+): Promise<Result<BalanceReport>> {
   return (await getBalanceReportTraced(db, site, input, now)).result;
 }
 
 /** The cached answer with how it was found. */
-export async function getBalanceReportTraced(db: Db, site: { id: number; timeZone: string }, input: unknown, now: Date): Promise<{ result: Result<BalanceReport>; outcome: BalanceCacheOutcome; position: LedgerPosition }> {
+export async function getBalanceReportTraced(
+  db: Db,
+  site: { id: number; timeZone: string },
+  input: unknown,
+  now: Date,
+): Promise<{ result: Result<BalanceReport>; outcome: BalanceCacheOutcome; position: LedgerPosition }> {
   const started = performance.now();
   const key = balanceQuestionKey(site, input, now);
   const sealed = cache.getSealed(key);

@@ -1,12 +1,25 @@
 // The balance page's query and GET /api/balance (documented in lib/api/endpoints/trace.ts, which re-exports these).
 import { z } from "zod";
 import { emptyAsMissing as blank, oneOf } from "@/lib/ledger/fields";
-import { MAX_PERIOD_YEAR, MAX_TOLERANCE_PCT, MIN_PERIOD_YEAR, MIN_TOLERANCE_PCT } from "@/lib/mass-balance/period.schema";
+import {
+  MAX_PERIOD_YEAR,
+  MAX_TOLERANCE_PCT,
+  MIN_PERIOD_YEAR,
+  MIN_TOLERANCE_PCT,
+} from "@/lib/mass-balance/period.schema";
 
 export const BALANCE_PERIOD_KINDS = ["MONTH", "QUARTER", "CUSTOM"] as const;
 
 const wholeNumber = (what: string, min: number, max: number) =>
-  z.preprocess(blank, z.coerce.number({ error: `${what} must be a number` }).int(`${what} must be a whole number`).min(min, `${what} must be ${min}–${max}`).max(max, `${what} must be ${min}–${max}`).optional());
+  z.preprocess(
+    blank,
+    z.coerce
+      .number({ error: `${what} must be a number` })
+      .int(`${what} must be a whole number`)
+      .min(min, `${what} must be ${min}–${max}`)
+      .max(max, `${what} must be ${min}–${max}`)
+      .optional(),
+  );
 const tolerancePct = (what: string) =>
   z.preprocess(
     blank,
@@ -16,7 +29,14 @@ const tolerancePct = (what: string) =>
       .max(MAX_TOLERANCE_PCT, `${what} must be at most ${MAX_TOLERANCE_PCT} %`)
       .optional(),
   );
-const isoDay = (what: string) => z.preprocess(blank, z.string().regex(/^\d{4}-\d{2}-\d{2}$/, `${what} must be a date written YYYY-MM-DD`).optional());
+const isoDay = (what: string) =>
+  z.preprocess(
+    blank,
+    z
+      .string()
+      .regex(/^\d{4}-\d{2}-\d{2}$/, `${what} must be a date written YYYY-MM-DD`)
+      .optional(),
+  );
 
 /**
  * The balance page's form and GET /api/balance. Without a period, the last full calendar month.

@@ -19,7 +19,11 @@ export function sealText(s: BalanceSeal): string {
 }
 
 export async function getLastGaugeId(db: Db, siteId: number): Promise<number> {
-  const g = await db.tankGauge.findFirst({ where: { tank: { siteId } }, orderBy: { id: "desc" }, select: { id: true } });
+  const g = await db.tankGauge.findFirst({
+    where: { tank: { siteId } },
+    orderBy: { id: "desc" },
+    select: { id: true },
+  });
   return g?.id ?? 0;
 }
 
@@ -28,7 +32,10 @@ export async function sealHolds(db: Db, siteId: number, s: BalanceSeal): Promise
   const [period, move, gauge] = await Promise.all([
     db.accountingPeriod.findUnique({ where: { id: s.periodId }, select: { status: true, closedAt: true } }),
     db.movement.findFirst({ where: { siteId, id: { gt: s.moveId }, at: { lt: s.endsAt } }, select: { id: true } }),
-    db.tankGauge.findFirst({ where: { tank: { siteId }, id: { gt: s.gaugeId }, at: { lt: s.endsAt } }, select: { id: true } }),
+    db.tankGauge.findFirst({
+      where: { tank: { siteId }, id: { gt: s.gaugeId }, at: { lt: s.endsAt } },
+      select: { id: true },
+    }),
   ]);
   return period?.status === "CLOSED" && period.closedAt?.getTime() === s.closedAtMs && move === null && gauge === null;
 }

@@ -8,12 +8,28 @@ import type { Result } from "@/lib/errors";
 import { labelOf } from "@/lib/ledger/kinds";
 import type { MoveRole } from "@/lib/ledger/kinds";
 import { parseInput } from "@/lib/ledger/parse";
-import { getAccountingPeriodExact, listLatestGauges, listPeriodEvents, loadBalanceLedger } from "@/lib/mass-balance/balance.store";
+import {
+  getAccountingPeriodExact,
+  listLatestGauges,
+  listPeriodEvents,
+  loadBalanceLedger,
+} from "@/lib/mass-balance/balance.store";
 import type { AccountingPeriodView, BalanceHolderRef, PeriodEventView } from "@/lib/mass-balance/balance.store";
 import { getLocalDate, refuseUnreasonablePeriod } from "@/lib/mass-balance/period";
 import { resolvePeriodRange } from "@/lib/mass-balance/period-range";
-import { compareBookToGauges, computePeriodBalance, DEFAULT_CLOSURE_TOLERANCE, DEFAULT_HOLDER_CLASSES } from "@/lib/mass-balance/period-balance";
-import type { BatchBalance, Closure, ClosureTolerance, ProcessView, StockView } from "@/lib/mass-balance/period-balance";
+import {
+  compareBookToGauges,
+  computePeriodBalance,
+  DEFAULT_CLOSURE_TOLERANCE,
+  DEFAULT_HOLDER_CLASSES,
+} from "@/lib/mass-balance/period-balance";
+import type {
+  BatchBalance,
+  Closure,
+  ClosureTolerance,
+  ProcessView,
+  StockView,
+} from "@/lib/mass-balance/period-balance";
 import type { Differences, GaugeDifference } from "@/lib/mass-balance/differences";
 import { ClosureToleranceSchema, PeriodRangeSchema } from "@/lib/mass-balance/period.schema";
 import { BalanceQuerySchema } from "@/lib/mass-balance/balance-query.schema";
@@ -59,7 +75,16 @@ export interface GaugeRow {
 
 export interface BalanceReport {
   /** The period as resolved (filled in with the defaults), for the form. */
-  query: { period: (typeof BALANCE_PERIOD_KINDS)[number]; year: number; month: number; quarter: number; start: string; end: string; warnPct: number; failPct: number };
+  query: {
+    period: (typeof BALANCE_PERIOD_KINDS)[number];
+    year: number;
+    month: number;
+    quarter: number;
+    start: string;
+    end: string;
+    warnPct: number;
+    failPct: number;
+  };
   period: { label: string; startsAt: Date; endsAt: Date };
   tolerance: ClosureTolerance;
   /** Site stock: opening + everything in = everything out + closing (+ imbalance, 0 when the books are complete). */
@@ -74,7 +99,10 @@ export interface BalanceReport {
   internal: BalanceLine[];
   process: Omit<ProcessView, "completed" | "inProgress"> & { completed: BatchRow[]; inProgress: BatchRow[] };
   byMaterial: MaterialBalanceRow[];
-  gauges: { rows: GaugeRow[]; total: { bookG: number; measuredG: number; differenceG: number; closure: Closure } } | null;
+  gauges: {
+    rows: GaugeRow[];
+    total: { bookG: number; measuredG: number; differenceG: number; closure: Closure };
+  } | null;
   negativeStock: Array<{ holder: BalanceHolderRef | null; at: Date; moveId: number; balanceG: number }>;
   accountingPeriod: AccountingPeriodView | null;
   events: PeriodEventView[];
@@ -125,7 +153,12 @@ function pad2(n: number): string {
 }
 
 /** The period mass balance of a site: stock identity, process view, per material kind, gauges and the close record. */
-export async function getBalanceReport(db: Db, site: { id: number; timeZone: string }, input: unknown, now: Date): Promise<Result<BalanceReport>> {
+export async function getBalanceReport(
+  db: Db,
+  site: { id: number; timeZone: string },
+  input: unknown,
+  now: Date,
+): Promise<Result<BalanceReport>> {
   const started = performance.now();
   const parsed = parseInput(BalanceQuerySchema, input);
   if (!parsed.ok) return parsed;
@@ -138,8 +171,24 @@ export async function getBalanceReport(db: Db, site: { id: number; timeZone: str
   const end = q.end ?? (month === 12 ? `${year + 1}-01-01` : `${year}-${pad2(month + 1)}-01`);
   const tz = site.timeZone;
   let bounds: { sy: number; sm: number; sd: number; ey: number; em: number; ed: number };
-  if (q.period === "MONTH") bounds = { sy: year, sm: month, sd: 1, ey: month === 12 ? year + 1 : year, em: month === 12 ? 1 : month + 1, ed: 1 };
-  else if (q.period === "QUARTER") bounds = { sy: year, sm: (quarter - 1) * 3 + 1, sd: 1, ey: quarter === 4 ? year + 1 : year, em: quarter === 4 ? 1 : quarter * 3 + 1, ed: 1 };
+  if (q.period === "MONTH")
+    bounds = {
+      sy: year,
+      sm: month,
+      sd: 1,
+      ey: month === 12 ? year + 1 : year,
+      em: month === 12 ? 1 : month + 1,
+      ed: 1,
+    };
+  else if (q.period === "QUARTER")
+    bounds = {
+      sy: year,
+      sm: (quarter - 1) * 3 + 1,
+      sd: 1,
+      ey: quarter === 4 ? year + 1 : year,
+      em: quarter === 4 ? 1 : quarter * 3 + 1,
+      ed: 1,
+    };
   else {
     const [sy = 0, sm = 1, sd = 1] = start.split("-").map(Number);
     const [ey = 0, em = 1, ed = 1] = end.split("-").map(Number);
@@ -166,7 +215,12 @@ export async function getBalanceReport(db: Db, site: { id: number; timeZone: str
   const tol = parseInput(
     ClosureToleranceSchema,
     edited
-      ? { warnPct, failPct, source: "site setting entered with this balance", note: `Changed from the default warn ${DEFAULT_CLOSURE_TOLERANCE.warnPct} % / fail ${DEFAULT_CLOSURE_TOLERANCE.failPct} % (${DEFAULT_CLOSURE_TOLERANCE.source}).` }
+      ? {
+          warnPct,
+          failPct,
+          source: "site setting entered with this balance",
+          note: `Changed from the default warn ${DEFAULT_CLOSURE_TOLERANCE.warnPct} % / fail ${DEFAULT_CLOSURE_TOLERANCE.failPct} % (${DEFAULT_CLOSURE_TOLERANCE.source}).`,
+        }
       : DEFAULT_CLOSURE_TOLERANCE,
   );
   if (!tol.ok) return tol;
@@ -179,22 +233,54 @@ export async function getBalanceReport(db: Db, site: { id: number; timeZone: str
     listLatestGauges(db, site.id, new Date(period.value.endMs - 1)),
     getAccountingPeriodExact(db, site.id, startsAt, endsAt),
   ]);
-  const events = accountingPeriod === null ? [] : await listPeriodEvents(db, site.id, { periodId: accountingPeriod.id });
+  const events =
+    accountingPeriod === null ? [] : await listPeriodEvents(db, site.id, { periodId: accountingPeriod.id });
   const span = { startMs: period.value.startMs, endMs: period.value.endMs };
-  const gauge = readings.length === 0 ? null : compareBookToGauges({ holders: ledger.holders, moves: ledger.moves, readings, tolerance });
+  const gauge =
+    readings.length === 0
+      ? null
+      : compareBookToGauges({ holders: ledger.holders, moves: ledger.moves, readings, tolerance });
   if (gauge !== null && !gauge.ok) return gauge;
-  const gauges: GaugeDifference[] = gauge === null ? [] : gauge.value.rows.map((r) => ({ holderId: r.holderId, bookG: r.bookG, measuredG: r.measuredG }));
-  const whole = computePeriodBalance({ holders: ledger.holders, moves: ledger.moves, period: span, scope: { siteId: site.id }, tolerance, gauges });
+  const gauges: GaugeDifference[] =
+    gauge === null
+      ? []
+      : gauge.value.rows.map((r) => ({ holderId: r.holderId, bookG: r.bookG, measuredG: r.measuredG }));
+  const whole = computePeriodBalance({
+    holders: ledger.holders,
+    moves: ledger.moves,
+    period: span,
+    scope: { siteId: site.id },
+    tolerance,
+    gauges,
+  });
   if (!whole.ok) return whole;
   const stock = whole.value.stock;
 
-  const materials = [...new Set(ledger.holders.filter((h) => DEFAULT_HOLDER_CLASSES[h.kind] === "STOCK" && h.materialKind).map((h) => h.materialKind as string))].sort();
+  const materials = [
+    ...new Set(
+      ledger.holders
+        .filter((h) => DEFAULT_HOLDER_CLASSES[h.kind] === "STOCK" && h.materialKind)
+        .map((h) => h.materialKind as string),
+    ),
+  ].sort();
   const byMaterial: MaterialBalanceRow[] = [];
   for (const materialKind of materials) {
-    const b = computePeriodBalance({ holders: ledger.holders, moves: ledger.moves, period: span, scope: { siteId: site.id, materialKind }, tolerance, gauges });
+    const b = computePeriodBalance({
+      holders: ledger.holders,
+      moves: ledger.moves,
+      period: span,
+      scope: { siteId: site.id, materialKind },
+      tolerance,
+      gauges,
+    });
     if (!b.ok) return b;
     const s = b.value.stock;
-    if (s.openingG === 0 && s.closingG === 0 && s.receipts.totalG + s.transfersInG + s.returnsG + s.outputs.totalG + s.transfersOutG === 0) continue;
+    if (
+      s.openingG === 0 &&
+      s.closingG === 0 &&
+      s.receipts.totalG + s.transfersInG + s.returnsG + s.outputs.totalG + s.transfersOutG === 0
+    )
+      continue;
     byMaterial.push({
       materialKind,
       label: labelMaterial(materialKind),
@@ -214,9 +300,21 @@ export async function getBalanceReport(db: Db, site: { id: number; timeZone: str
 
   const inputs: BalanceLine[] = [
     { key: "opening", label: "Opening stock", grams: stock.openingG },
-    { key: "feedstock", label: "Feedstock received (pickups, deliveries, receiving differences)", grams: stock.receipts.feedstockG },
-    { key: "reagents", label: "Reagents received (methanol, catalyst, acid, process water)", grams: stock.receipts.reagentG },
-    { key: "unmeasuredGains", label: "Unmeasured batch gains (more measured out than charged)", grams: stock.receipts.unmeasuredG },
+    {
+      key: "feedstock",
+      label: "Feedstock received (pickups, deliveries, receiving differences)",
+      grams: stock.receipts.feedstockG,
+    },
+    {
+      key: "reagents",
+      label: "Reagents received (methanol, catalyst, acid, process water)",
+      grams: stock.receipts.reagentG,
+    },
+    {
+      key: "unmeasuredGains",
+      label: "Unmeasured batch gains (more measured out than charged)",
+      grams: stock.receipts.unmeasuredG,
+    },
     { key: "otherReceipts", label: "Other receipts", grams: stock.receipts.otherG },
     { key: "returns", label: "Returns into stock", grams: stock.returnsG },
     { key: "transfersIn", label: "Transfers in from outside the scope", grams: stock.transfersInG },
@@ -224,17 +322,38 @@ export async function getBalanceReport(db: Db, site: { id: number; timeZone: str
   const outputs: BalanceLine[] = [
     { key: "shipments", label: "Shipped (product)", grams: stock.outputs.shipmentG },
     { key: "disposals", label: "Hauled away as waste (glycerol phase, wash water)", grams: stock.outputs.disposalG },
-    { key: "losses", label: "Recorded losses (spills with a reason, receiving shortfalls)", grams: stock.outputs.lossG },
-    { key: "unmeasured", label: "Unmeasured batch differences (charged less everything measured out)", grams: stock.outputs.unmeasuredG },
+    {
+      key: "losses",
+      label: "Recorded losses (spills with a reason, receiving shortfalls)",
+      grams: stock.outputs.lossG,
+    },
+    {
+      key: "unmeasured",
+      label: "Unmeasured batch differences (charged less everything measured out)",
+      grams: stock.outputs.unmeasuredG,
+    },
     { key: "otherOutputs", label: "Other outputs", grams: stock.outputs.otherG },
     { key: "transfersOut", label: "Transfers out of the scope", grams: stock.transfersOutG },
     { key: "closing", label: "Closing stock", grams: stock.closingG },
   ];
-  const internal: BalanceLine[] = (Object.keys(INTERNAL_LABELS) as MoveRole[]).map((role) => ({ key: role, label: INTERNAL_LABELS[role] ?? labelOf(role), grams: stock.byRole[role].internalG }));
+  const internal: BalanceLine[] = (Object.keys(INTERNAL_LABELS) as MoveRole[]).map((role) => ({
+    key: role,
+    label: INTERNAL_LABELS[role] ?? labelOf(role),
+    grams: stock.byRole[role].internalG,
+  }));
   const codeOf = (id: number) => ledger.refs.get(id)?.code ?? String(id);
   const proc = whole.value.process;
   return ok({
-    query: { period: q.period, year, month, quarter, start, end, warnPct: tolerance.warnPct, failPct: tolerance.failPct },
+    query: {
+      period: q.period,
+      year,
+      month,
+      quarter,
+      start,
+      end,
+      warnPct: tolerance.warnPct,
+      failPct: tolerance.failPct,
+    },
     period: { label: period.value.label, startsAt, endsAt },
     tolerance,
     stock,
@@ -246,21 +365,38 @@ export async function getBalanceReport(db: Db, site: { id: number; timeZone: str
     internal,
     process: {
       ...proc,
-      completed: proc.completed.map((b) => ({ ...b, code: codeOf(b.holderId) })).sort((a, b) => a.code.localeCompare(b.code)),
-      inProgress: proc.inProgress.map((b) => ({ ...b, code: codeOf(b.holderId) })).sort((a, b) => a.code.localeCompare(b.code)),
+      completed: proc.completed
+        .map((b) => ({ ...b, code: codeOf(b.holderId) }))
+        .sort((a, b) => a.code.localeCompare(b.code)),
+      inProgress: proc.inProgress
+        .map((b) => ({ ...b, code: codeOf(b.holderId) }))
+        .sort((a, b) => a.code.localeCompare(b.code)),
     },
     byMaterial,
     gauges:
       gauge === null
         ? null
         : {
-            rows: gauge.value.rows.map((r) => ({ tankCode: codeOf(r.holderId), at: new Date(r.at), bookG: r.bookG, measuredG: r.measuredG, differenceG: r.differenceG, closure: r.closure })).sort((a, b) => a.tankCode.localeCompare(b.tankCode)),
+            rows: gauge.value.rows
+              .map((r) => ({
+                tankCode: codeOf(r.holderId),
+                at: new Date(r.at),
+                bookG: r.bookG,
+                measuredG: r.measuredG,
+                differenceG: r.differenceG,
+                closure: r.closure,
+              }))
+              .sort((a, b) => a.tankCode.localeCompare(b.tankCode)),
             total: gauge.value.total,
           },
-    negativeStock: stock.negativeStock.map((n) => ({ holder: ledger.refs.get(n.holderId) ?? null, at: new Date(n.at), moveId: n.moveId, balanceG: n.balanceG })),
+    negativeStock: stock.negativeStock.map((n) => ({
+      holder: ledger.refs.get(n.holderId) ?? null,
+      at: new Date(n.at),
+      moveId: n.moveId,
+      balanceG: n.balanceG,
+    })),
     accountingPeriod,
     events,
     computeMs: performance.now() - started,
   });
 }
-

@@ -48,7 +48,10 @@ export async function loadBalanceLedger(db: Db, siteId: number): Promise<Balance
     db.reagentLot.findMany({ where: { siteId }, select: { holderId: true, reagent: true } }),
     db.batch.findMany({ where: { siteId }, select: { holderId: true, completedAt: true } }),
     db.wasteContainer.findMany({ where: { siteId }, select: { holderId: true, stream: true } }),
-    db.movement.findMany({ where: { siteId }, select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, role: true, reversesId: true } }),
+    db.movement.findMany({
+      where: { siteId },
+      select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, role: true, reversesId: true },
+    }),
   ]);
   const paired = findReversedPairs(moves);
   const material = new Map<number, string>();
@@ -63,21 +66,39 @@ export async function loadBalanceLedger(db: Db, siteId: number): Promise<Balance
   const lotHolders = new Set(lots.map((l) => l.holderId));
   const pooledLots = new Set(lots.filter((l) => l.origin !== "DELIVERY").map((l) => l.holderId));
   const isReceivingDifference = (m: { role: string; fromHolderId: number | null; toHolderId: number }): boolean =>
-    (m.role === "LOSS" && m.fromHolderId !== null && lotHolders.has(m.fromHolderId)) || (m.role === "RECEIPT" && m.fromHolderId === null && pooledLots.has(m.toHolderId));
+    (m.role === "LOSS" && m.fromHolderId !== null && lotHolders.has(m.fromHolderId)) ||
+    (m.role === "RECEIPT" && m.fromHolderId === null && pooledLots.has(m.toHolderId));
   const refs = new Map<number, BalanceHolderRef>();
   const list: BalanceHolder[] = holders.map((h) => {
     const kind = toHolderKind(h.kind);
-    const materialKind = kind === "BATCH" ? "IN_REACTION" : kind === "PRODUCT_LOT" ? "FAME" : (material.get(h.id) ?? null);
+    const materialKind =
+      kind === "BATCH" ? "IN_REACTION" : kind === "PRODUCT_LOT" ? "FAME" : (material.get(h.id) ?? null);
     refs.set(h.id, { id: h.id, kind, code: h.code, materialKind });
     const done = completed.get(h.id);
-    return { id: h.id, kind, siteId, materialKind, ...(kind === "BATCH" ? { completedAt: done ? done.getTime() : null } : {}) };
+    return {
+      id: h.id,
+      kind,
+      siteId,
+      materialKind,
+      ...(kind === "BATCH" ? { completedAt: done ? done.getTime() : null } : {}),
+    };
   });
   return {
     holders: list,
-    moves: moves.filter((m) => !paired.has(m.id)).map((m) => {
-      invariant(ROLE_SET.has(m.role), `unknown movement role ${m.role} in the database`);
-      return { id: m.id, at: m.at.getTime(), fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG, role: m.role as MoveRole, ...(isReceivingDifference(m) ? { receiving: true } : {}) };
-    }),
+    moves: moves
+      .filter((m) => !paired.has(m.id))
+      .map((m) => {
+        invariant(ROLE_SET.has(m.role), `unknown movement role ${m.role} in the database`);
+        return {
+          id: m.id,
+          at: m.at.getTime(),
+          fromHolderId: m.fromHolderId,
+          toHolderId: m.toHolderId,
+          massG: m.massG,
+          role: m.role as MoveRole,
+          ...(isReceivingDifference(m) ? { receiving: true } : {}),
+        };
+      }),
     refs,
   };
 }
@@ -86,7 +107,15 @@ export async function loadBalanceLedger(db: Db, siteId: number): Promise<Balance
 export async function listLatestGauges(db: Db, siteId: number, atOrBefore: Date): Promise<GaugeReading[]> {
   const tanks = await db.tank.findMany({
     where: { siteId },
-    select: { holderId: true, gauges: { where: { at: { lte: atOrBefore } }, orderBy: [{ at: "desc" }, { id: "desc" }], take: 1, select: { at: true, massG: true } } },
+    select: {
+      holderId: true,
+      gauges: {
+        where: { at: { lte: atOrBefore } },
+        orderBy: [{ at: "desc" }, { id: "desc" }],
+        take: 1,
+        select: { at: true, massG: true },
+      },
+    },
   });
   return tanks.flatMap((t) => {
     const g = t.gauges[0];
@@ -104,9 +133,26 @@ export interface AccountingPeriodView {
 }
 
 /** The accounting period with exactly these bounds, if the site keeps one. */
-export async function getAccountingPeriodExact(db: Db, siteId: number, startsAt: Date, endsAt: Date): Promise<AccountingPeriodView | null> {
-  const p = await db.accountingPeriod.findFirst({ where: { siteId, startsAt, endsAt }, include: { closedBy: { select: { fullName: true } } } });
-  return p ? { id: p.id, startsAt: p.startsAt, endsAt: p.endsAt, status: p.status, closedAt: p.closedAt, closedBy: p.closedBy?.fullName ?? null } : null;
+export async function getAccountingPeriodExact(
+  db: Db,
+  siteId: number,
+  startsAt: Date,
+  endsAt: Date,
+): Promise<AccountingPeriodView | null> {
+  const p = await db.accountingPeriod.findFirst({
+    where: { siteId, startsAt, endsAt },
+    include: { closedBy: { select: { fullName: true } } },
+  });
+  return p
+    ? {
+        id: p.id,
+        startsAt: p.startsAt,
+        endsAt: p.endsAt,
+        status: p.status,
+        closedAt: p.closedAt,
+        closedBy: p.closedBy?.fullName ?? null,
+      }
+    : null;
 }
 
 export interface PeriodEventView {
@@ -121,12 +167,25 @@ export interface PeriodEventView {
 }
 
 /** Closes and reopens, newest first; one period's or the whole site's. */
-export async function listPeriodEvents(db: Db, siteId: number, opts: { periodId?: number; take?: number } = {}): Promise<PeriodEventView[]> {
+export async function listPeriodEvents(
+  db: Db,
+  siteId: number,
+  opts: { periodId?: number; take?: number } = {},
+): Promise<PeriodEventView[]> {
   const rows = await db.periodEvent.findMany({
     where: { period: { siteId }, ...(opts.periodId === undefined ? {} : { periodId: opts.periodId }) },
     orderBy: [{ at: "desc" }, { id: "desc" }],
     take: opts.take ?? 200,
     include: { by: { select: { fullName: true } }, period: { select: { startsAt: true, endsAt: true } } },
   });
-  return rows.map((r) => ({ id: r.id, periodId: r.periodId, periodStartsAt: r.period.startsAt, periodEndsAt: r.period.endsAt, action: r.action, reason: r.reason, by: r.by.fullName, at: r.at }));
+  return rows.map((r) => ({
+    id: r.id,
+    periodId: r.periodId,
+    periodStartsAt: r.period.startsAt,
+    periodEndsAt: r.period.endsAt,
+    action: r.action,
+    reason: r.reason,
+    by: r.by.fullName,
+    at: r.at,
+  }));
 }

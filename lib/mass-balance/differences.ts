@@ -54,5 +54,12 @@ export function computeDifferences(input: DifferencesInput): Differences {
   let gaugeG = 0;
   for (const g of input.gauges ?? []) if (scoped.has(g.holderId)) gaugeG += g.bookG - g.measuredG;
   const totalG = unmeasuredG + receivingG + gaugeG;
-  return { unmeasuredG, receivingG, gaugeG, totalG, baseG: input.baseG, closure: input.classify(totalG, input.baseG, input.tolerance) };
+  return {
+    unmeasuredG,
+    receivingG,
+    gaugeG,
+    totalG,
+    baseG: input.baseG,
+    closure: input.classify(totalG, input.baseG, input.tolerance),
+  };
 }

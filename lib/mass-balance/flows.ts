@@ -81,10 +81,16 @@ function output(what: string): Place {
 }
 
 function sourcePlace(h: FlowHolder): Place {
-  return h.source ? { key: `source:${h.source.code}`, label: h.source.name, stage: 0 } : { key: "source:?", label: "Source not recorded", stage: 0 };
+  return h.source
+    ? { key: `source:${h.source.code}`, label: h.source.name, stage: 0 }
+    : { key: "source:?", label: "Source not recorded", stage: 0 };
 }
 
-const TANK_OUTPUT: Readonly<Record<string, string>> = { PRODUCT: "ESTER", GLYCEROL_PHASE: "GLYCEROL_PHASE", WASH_WATER: "WASH_WATER" };
+const TANK_OUTPUT: Readonly<Record<string, string>> = {
+  PRODUCT: "ESTER",
+  GLYCEROL_PHASE: "GLYCEROL_PHASE",
+  WASH_WATER: "WASH_WATER",
+};
 
 /** Where a holder stands in the picture, or null when it has no place (a reagent receipt's origin). */
 export function placeOf(h: FlowHolder): Place | null {
@@ -151,7 +157,12 @@ function poolSources(links: Map<string, FlowLink>, labels: Map<string, Place>, k
   return pooled.size;
 }
 
-export function computePeriodFlows(input: { holders: readonly FlowHolder[]; moves: readonly FlowMove[]; period: { startMs: number; endMs: number }; maxSources?: number }): PeriodFlows {
+export function computePeriodFlows(input: {
+  holders: readonly FlowHolder[];
+  moves: readonly FlowMove[];
+  period: { startMs: number; endMs: number };
+  maxSources?: number;
+}): PeriodFlows {
   const holders = new Map(input.holders.map((h) => [h.id, h]));
   const links = new Map<string, FlowLink>();
   const places = new Map<string, Place>();
@@ -178,8 +189,14 @@ export function computePeriodFlows(input: { holders: readonly FlowHolder[]; move
   const pooledSources = poolSources(links, places, input.maxSources ?? 6);
   const list = [...links.values()].sort((x, y) => x.from.localeCompare(y.from) || x.to.localeCompare(y.to));
   const nodes: FlowNode[] = [...places.values()]
-    .map((p) => ({ ...p, inG: list.filter((l) => l.to === p.key).reduce((s, l) => s + l.grams, 0), outG: list.filter((l) => l.from === p.key).reduce((s, l) => s + l.grams, 0) }))
-    .sort((x, y) => x.stage - y.stage || Math.max(y.inG, y.outG) - Math.max(x.inG, x.outG) || x.key.localeCompare(y.key));
+    .map((p) => ({
+      ...p,
+      inG: list.filter((l) => l.to === p.key).reduce((s, l) => s + l.grams, 0),
+      outG: list.filter((l) => l.from === p.key).reduce((s, l) => s + l.grams, 0),
+    }))
+    .sort(
+      (x, y) => x.stage - y.stage || Math.max(y.inG, y.outG) - Math.max(x.inG, x.outG) || x.key.localeCompare(y.key),
+    );
   const drawnG = list.reduce((s, l) => s + l.grams, 0);
   return { nodes, links: list, drawnG, pooledSources, ...totals };
 }

@@ -209,7 +209,11 @@ export function classifyClosure(imbalanceG: number, baseG: number, tolerance: Cl
   const abs = Math.abs(imbalanceG);
   if (baseG <= 0) return { imbalanceG, baseG, pct: null, flag: abs === 0 ? "OK" : "FAIL" };
   const pct = (imbalanceG * 100) / baseG;
-  const flag: ClosureFlag = exceedsPct(abs, baseG, tolerance.failPct) ? "FAIL" : exceedsPct(abs, baseG, tolerance.warnPct) ? "WARN" : "OK";
+  const flag: ClosureFlag = exceedsPct(abs, baseG, tolerance.failPct)
+    ? "FAIL"
+    : exceedsPct(abs, baseG, tolerance.warnPct)
+      ? "WARN"
+      : "OK";
   return { imbalanceG, baseG, pct, flag };
 }
 
@@ -218,11 +222,19 @@ export function validateTolerance(tolerance: ClosureTolerance, field = "toleranc
   for (const key of ["warnPct", "failPct"] as const) {
     const v = tolerance[key];
     if (!Number.isFinite(v) || v < 0 || v > 100) {
-      issues.push({ code: "MASS_BALANCE.INVALID_TOLERANCE", message: `${key} must be between 0 and 100 %, got ${v}`, field: `${field}.${key}` });
+      issues.push({
+        code: "MASS_BALANCE.INVALID_TOLERANCE",
+        message: `${key} must be between 0 and 100 %, got ${v}`,
+        field: `${field}.${key}`,
+      });
     }
   }
   if (issues.length === 0 && tolerance.warnPct > tolerance.failPct) {
-    issues.push({ code: "MASS_BALANCE.INVALID_TOLERANCE", message: "Warn level must not be above the fail level", field: `${field}.warnPct` });
+    issues.push({
+      code: "MASS_BALANCE.INVALID_TOLERANCE",
+      message: "Warn level must not be above the fail level",
+      field: `${field}.warnPct`,
+    });
   }
   return issues;
 }
@@ -236,44 +248,82 @@ export function validateLedger(holders: readonly BalanceHolder[], moves: readonl
  * Checks the ledger and numbers each movement's holders by their position in `holders` (-1 for "enters
  * the books here"), so the passes below index typed arrays instead of maps.
  */
-function slotLedger(holders: readonly BalanceHolder[], moves: readonly BalanceMove[]): { issues: DomainIssue[]; from: Int32Array; to: Int32Array } {
+function slotLedger(
+  holders: readonly BalanceHolder[],
+  moves: readonly BalanceMove[],
+): { issues: DomainIssue[]; from: Int32Array; to: Int32Array } {
   const issues: DomainIssue[] = [];
   const slotOf = new Map<number, number>();
   for (let i = 0; i < holders.length; i++) {
     const h = holders[i] as BalanceHolder;
-    if (slotOf.has(h.id)) issues.push({ code: "MASS_BALANCE.DUPLICATE_HOLDER", message: `Holder ${h.id} is listed twice`, field: `holders.${i}.id` });
+    if (slotOf.has(h.id))
+      issues.push({
+        code: "MASS_BALANCE.DUPLICATE_HOLDER",
+        message: `Holder ${h.id} is listed twice`,
+        field: `holders.${i}.id`,
+      });
     else slotOf.set(h.id, i);
   }
   // Holder ids are database ids, dense from 1: look them up in an array when they are.
   let maxId = -1;
-  for (const h of holders) maxId = Number.isSafeInteger(h.id) && h.id >= 0 ? Math.max(maxId, h.id) : Number.POSITIVE_INFINITY;
+  for (const h of holders)
+    maxId = Number.isSafeInteger(h.id) && h.id >= 0 ? Math.max(maxId, h.id) : Number.POSITIVE_INFINITY;
   const dense = maxId <= 4 * holders.length + 1024 ? new Int32Array(maxId + 1).fill(-2) : null;
   if (dense !== null) for (const [id, slot] of slotOf) dense[id] = slot;
-  const slotFor = (id: number): number => (dense !== null ? (Number.isInteger(id) && id >= 0 && id <= maxId ? (dense[id] as number) : -2) : (slotOf.get(id) ?? -2));
+  const slotFor = (id: number): number =>
+    dense !== null
+      ? Number.isInteger(id) && id >= 0 && id <= maxId
+        ? (dense[id] as number)
+        : -2
+      : (slotOf.get(id) ?? -2);
   const roles = new Set<string>(MOVE_ROLES);
   const from = new Int32Array(moves.length);
   const to = new Int32Array(moves.length);
   for (let i = 0; i < moves.length; i++) {
     const m = moves[i] as BalanceMove;
     if (!Number.isSafeInteger(m.massG) || m.massG <= 0) {
-      issues.push({ code: "MASS_BALANCE.INVALID_MASS", message: `Movement ${m.id}: mass must be a whole number of grams above 0, got ${m.massG}`, field: `moves.${i}.massG` });
+      issues.push({
+        code: "MASS_BALANCE.INVALID_MASS",
+        message: `Movement ${m.id}: mass must be a whole number of grams above 0, got ${m.massG}`,
+        field: `moves.${i}.massG`,
+      });
     }
     if (!Number.isSafeInteger(m.at)) {
-      issues.push({ code: "MASS_BALANCE.INVALID_TIME", message: `Movement ${m.id}: time must be an instant in milliseconds`, field: `moves.${i}.at` });
+      issues.push({
+        code: "MASS_BALANCE.INVALID_TIME",
+        message: `Movement ${m.id}: time must be an instant in milliseconds`,
+        field: `moves.${i}.at`,
+      });
     }
     if (!roles.has(m.role)) {
-      issues.push({ code: "MASS_BALANCE.UNKNOWN_ROLE", message: `Movement ${m.id}: unknown role ${m.role}`, field: `moves.${i}.role` });
+      issues.push({
+        code: "MASS_BALANCE.UNKNOWN_ROLE",
+        message: `Movement ${m.id}: unknown role ${m.role}`,
+        field: `moves.${i}.role`,
+      });
     }
     const fromSlot = m.fromHolderId === null ? -1 : slotFor(m.fromHolderId);
     if (fromSlot === -2) {
-      issues.push({ code: "MASS_BALANCE.UNKNOWN_HOLDER", message: `Movement ${m.id}: from-holder ${m.fromHolderId} is not in the list`, field: `moves.${i}.fromHolderId` });
+      issues.push({
+        code: "MASS_BALANCE.UNKNOWN_HOLDER",
+        message: `Movement ${m.id}: from-holder ${m.fromHolderId} is not in the list`,
+        field: `moves.${i}.fromHolderId`,
+      });
     }
     const toSlot = slotFor(m.toHolderId);
     if (toSlot === -2) {
-      issues.push({ code: "MASS_BALANCE.UNKNOWN_HOLDER", message: `Movement ${m.id}: to-holder ${m.toHolderId} is not in the list`, field: `moves.${i}.toHolderId` });
+      issues.push({
+        code: "MASS_BALANCE.UNKNOWN_HOLDER",
+        message: `Movement ${m.id}: to-holder ${m.toHolderId} is not in the list`,
+        field: `moves.${i}.toHolderId`,
+      });
     }
     if (m.fromHolderId === m.toHolderId) {
-      issues.push({ code: "MASS_BALANCE.SELF_MOVE", message: `Movement ${m.id}: from and to are the same holder`, field: `moves.${i}.toHolderId` });
+      issues.push({
+        code: "MASS_BALANCE.SELF_MOVE",
+        message: `Movement ${m.id}: from and to are the same holder`,
+        field: `moves.${i}.toHolderId`,
+      });
     }
     from[i] = fromSlot;
     to[i] = toSlot;
@@ -282,7 +332,10 @@ function slotLedger(holders: readonly BalanceHolder[], moves: readonly BalanceMo
 }
 
 function emptyRoleFlows(): Record<MoveRole, RoleFlow> {
-  return Object.fromEntries(MOVE_ROLES.map((r) => [r, { inG: 0, outG: 0, internalG: 0 }])) as Record<MoveRole, RoleFlow>;
+  return Object.fromEntries(MOVE_ROLES.map((r) => [r, { inG: 0, outG: 0, internalG: 0 }])) as Record<
+    MoveRole,
+    RoleFlow
+  >;
 }
 
 function addTo<K extends string>(rec: Partial<Record<K, number>>, key: K, g: number): void {
@@ -326,12 +379,17 @@ function walkStock(
     all[count++] = i;
   }
   const order = all.subarray(0, count);
-  if (!sorted) order.sort((a, b) => (moves[a] as BalanceMove).at - (moves[b] as BalanceMove).at || (moves[a] as BalanceMove).id - (moves[b] as BalanceMove).id);
+  if (!sorted)
+    order.sort(
+      (a, b) =>
+        (moves[a] as BalanceMove).at - (moves[b] as BalanceMove).at ||
+        (moves[a] as BalanceMove).id - (moves[b] as BalanceMove).id,
+    );
   const running = new Float64Array(holders.length);
   let opening: Float64Array | null = null;
   const found = new Uint8Array(holders.length);
   const negativeStock: NegativeStock[] = [];
-  for (let g = 0; g < order.length; ) {
+  for (let g = 0; g < order.length;) {
     const at = (moves[order[g] as number] as BalanceMove).at;
     if (opening === null && at >= startMs) opening = running.slice();
     let end = g;
@@ -349,7 +407,12 @@ function walkStock(
       const balanceG = running[f] as number;
       if (balanceG < 0) {
         found[f] = 1;
-        negativeStock.push({ holderId: (holders[f] as BalanceHolder).id, at, moveId: (moves[i] as BalanceMove).id, balanceG });
+        negativeStock.push({
+          holderId: (holders[f] as BalanceHolder).id,
+          at,
+          moveId: (moves[i] as BalanceMove).id,
+          balanceG,
+        });
       }
     }
     g = end;
@@ -364,23 +427,37 @@ export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBa
   const slots = slotLedger(holders, moves);
   const issues = [...slots.issues, ...validateTolerance(tolerance)];
   if (!Number.isSafeInteger(period.startMs) || !Number.isSafeInteger(period.endMs) || period.endMs <= period.startMs) {
-    issues.push({ code: "MASS_BALANCE.INVALID_PERIOD", message: "Period end must be after its start", field: "period.endMs" });
+    issues.push({
+      code: "MASS_BALANCE.INVALID_PERIOD",
+      message: "Period end must be after its start",
+      field: "period.endMs",
+    });
   }
   if (issues.length > 0) return failMany(issues);
 
   const classes = scope.holderClasses ?? DEFAULT_HOLDER_CLASSES;
   const inScope = (h: BalanceHolder): boolean =>
-    classes[h.kind] === "STOCK" && h.siteId === scope.siteId && (scope.materialKind === undefined || h.materialKind === scope.materialKind);
+    classes[h.kind] === "STOCK" &&
+    h.siteId === scope.siteId &&
+    (scope.materialKind === undefined || h.materialKind === scope.materialKind);
   const scopedSlot = new Uint8Array(holders.length);
   holders.forEach((h, i) => (scopedSlot[i] = inScope(h) ? 1 : 0));
 
   // Stock view: opening and closing stock and negative stock in one walk.
-  const { opening, closing, negativeStock } = walkStock(moves, slots, holders, period.startMs, period.endMs, scopedSlot);
+  const { opening, closing, negativeStock } = walkStock(
+    moves,
+    slots,
+    holders,
+    period.startMs,
+    period.endMs,
+    scopedSlot,
+  );
   const byHolder: HolderStock[] = [];
   holders.forEach((h, i) => {
     const openingG = opening[i] ?? 0;
     const closingG = closing[i] ?? 0;
-    if (scopedSlot[i] === 1 && (openingG !== 0 || closingG !== 0)) byHolder.push({ holderId: h.id, kind: h.kind, openingG, closingG });
+    if (scopedSlot[i] === 1 && (openingG !== 0 || closingG !== 0))
+      byHolder.push({ holderId: h.id, kind: h.kind, openingG, closingG });
   });
   const scoped = holders.filter((_h, i) => scopedSlot[i] === 1);
   const openingG = byHolder.reduce((s, h) => s + h.openingG, 0);
@@ -458,8 +535,22 @@ export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBa
     scope: { siteId: scope.siteId, materialKind: scope.materialKind ?? null },
     tolerance,
     stock,
-    process: computeProcessView(scoped.filter((h) => h.kind === "BATCH"), moves, period, tolerance),
-    differences: computeDifferences({ holders, moves, period, inScope, ...(input.gauges ? { gauges: input.gauges } : {}), baseG: stockInG, tolerance, classify: classifyClosure }),
+    process: computeProcessView(
+      scoped.filter((h) => h.kind === "BATCH"),
+      moves,
+      period,
+      tolerance,
+    ),
+    differences: computeDifferences({
+      holders,
+      moves,
+      period,
+      inScope,
+      ...(input.gauges ? { gauges: input.gauges } : {}),
+      baseG: stockInG,
+      tolerance,
+      classify: classifyClosure,
+    }),
   });
 }
 
@@ -481,7 +572,9 @@ function computeProcessView(
 
   // One pass over the ledger, bucketing the movements into and out of each batch still relevant to
   // the period (not finished before it), instead of one pass per batch.
-  const relevant = batches.filter((b) => b.completedAt === null || b.completedAt === undefined || b.completedAt >= period.startMs);
+  const relevant = batches.filter(
+    (b) => b.completedAt === null || b.completedAt === undefined || b.completedAt >= period.startMs,
+  );
   const movesOf = new Map<number, BalanceMove[]>(relevant.map((b) => [b.id, []]));
   for (const m of moves) {
     if (m.at >= period.endMs) continue;
@@ -596,15 +689,31 @@ export function compareBookToGauges(input: {
   input.readings.forEach((r, i) => {
     const h = byId.get(r.holderId);
     if (h === undefined) {
-      issues.push({ code: "MASS_BALANCE.UNKNOWN_HOLDER", message: `Gauge reading ${i + 1}: holder ${r.holderId} is not in the list`, field: `readings.${i}.holderId` });
+      issues.push({
+        code: "MASS_BALANCE.UNKNOWN_HOLDER",
+        message: `Gauge reading ${i + 1}: holder ${r.holderId} is not in the list`,
+        field: `readings.${i}.holderId`,
+      });
     } else if (classes[h.kind] !== "STOCK") {
-      issues.push({ code: "MASS_BALANCE.GAUGE_NOT_STOCK", message: `Gauge reading ${i + 1}: a ${h.kind} holds no stock to gauge`, field: `readings.${i}.holderId` });
+      issues.push({
+        code: "MASS_BALANCE.GAUGE_NOT_STOCK",
+        message: `Gauge reading ${i + 1}: a ${h.kind} holds no stock to gauge`,
+        field: `readings.${i}.holderId`,
+      });
     }
     if (!Number.isSafeInteger(r.massG) || r.massG < 0) {
-      issues.push({ code: "MASS_BALANCE.INVALID_MASS", message: `Gauge reading ${i + 1}: measured mass must be whole grams, 0 or more`, field: `readings.${i}.massG` });
+      issues.push({
+        code: "MASS_BALANCE.INVALID_MASS",
+        message: `Gauge reading ${i + 1}: measured mass must be whole grams, 0 or more`,
+        field: `readings.${i}.massG`,
+      });
     }
     if (!Number.isSafeInteger(r.at)) {
-      issues.push({ code: "MASS_BALANCE.INVALID_TIME", message: `Gauge reading ${i + 1}: time must be an instant in milliseconds`, field: `readings.${i}.at` });
+      issues.push({
+        code: "MASS_BALANCE.INVALID_TIME",
+        message: `Gauge reading ${i + 1}: time must be an instant in milliseconds`,
+        field: `readings.${i}.at`,
+      });
     }
   });
   if (issues.length > 0) return failMany(issues);
@@ -612,7 +721,14 @@ export function compareBookToGauges(input: {
   const rows: GaugeComparison[] = input.readings.map((r) => {
     const bookG = stockBefore(input.moves, r.at, true).get(r.holderId) ?? 0;
     const differenceG = r.massG - bookG;
-    return { holderId: r.holderId, at: r.at, bookG, measuredG: r.massG, differenceG, closure: classifyClosure(differenceG, bookG, tolerance) };
+    return {
+      holderId: r.holderId,
+      at: r.at,
+      bookG,
+      measuredG: r.massG,
+      differenceG,
+      closure: classifyClosure(differenceG, bookG, tolerance),
+    };
   });
   const latest = new Map<number, GaugeComparison>();
   for (const row of rows) {
@@ -625,5 +741,14 @@ export function compareBookToGauges(input: {
     bookG += row.bookG;
     measuredG += row.measuredG;
   }
-  return ok({ rows, total: { bookG, measuredG, differenceG: measuredG - bookG, closure: classifyClosure(measuredG - bookG, bookG, tolerance) }, tolerance });
+  return ok({
+    rows,
+    total: {
+      bookG,
+      measuredG,
+      differenceG: measuredG - bookG,
+      closure: classifyClosure(measuredG - bookG, bookG, tolerance),
+    },
+    tolerance,
+  });
 }

@@ -10,7 +10,9 @@ import type { PeriodRange } from "@/lib/mass-balance/period.schema";
 /** Turns a parsed period choice (see PeriodRangeSchema) into instants. */
 export function resolvePeriodRange(range: PeriodRange): Result<Period> {
   const offset: UtcOffset =
-    range.utcOffsetAtEndMin === undefined ? range.utcOffsetMin : { atStartMin: range.utcOffsetMin, atEndMin: range.utcOffsetAtEndMin };
+    range.utcOffsetAtEndMin === undefined
+      ? range.utcOffsetMin
+      : { atStartMin: range.utcOffsetMin, atEndMin: range.utcOffsetAtEndMin };
   switch (range.kind) {
     case "MONTH":
       return ok(getMonthPeriod(range.year, range.month, offset));

@@ -36,13 +36,21 @@ export const PeriodRangeSchema = z.discriminatedUnion(
     z.object({
       kind: z.literal("MONTH"),
       year,
-      month: z.number({ error: "Month must be a number" }).int("Month must be a whole number").min(1, "Month must be 1–12").max(12, "Month must be 1–12"),
+      month: z
+        .number({ error: "Month must be a number" })
+        .int("Month must be a whole number")
+        .min(1, "Month must be 1–12")
+        .max(12, "Month must be 1–12"),
       ...offsets,
     }),
     z.object({
       kind: z.literal("QUARTER"),
       year,
-      quarter: z.number({ error: "Quarter must be a number" }).int("Quarter must be a whole number").min(1, "Quarter must be 1–4").max(4, "Quarter must be 1–4"),
+      quarter: z
+        .number({ error: "Quarter must be a number" })
+        .int("Quarter must be a whole number")
+        .min(1, "Quarter must be 1–4")
+        .max(4, "Quarter must be 1–4"),
       ...offsets,
     }),
     z

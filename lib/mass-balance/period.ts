@@ -23,9 +23,13 @@ const MS_PER_MIN = 60_000;
 const ISO_DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
 
 function offsets(offset: UtcOffset): { start: number; end: number } {
-  const o = typeof offset === "number" ? { start: offset, end: offset } : { start: offset.atStartMin, end: offset.atEndMin };
+  const o =
+    typeof offset === "number" ? { start: offset, end: offset } : { start: offset.atStartMin, end: offset.atEndMin };
   for (const v of [o.start, o.end]) {
-    invariant(Number.isInteger(v) && v >= MIN_UTC_OFFSET_MIN && v <= MAX_UTC_OFFSET_MIN, `UTC offset out of range: ${v} min`);
+    invariant(
+      Number.isInteger(v) && v >= MIN_UTC_OFFSET_MIN && v <= MAX_UTC_OFFSET_MIN,
+      `UTC offset out of range: ${v} min`,
+    );
   }
   return o;
 }
@@ -46,7 +50,10 @@ function formatDate(year: number, month1: number, day: number): string {
 
 /** Calendar month `month` (1–12) of `year`. */
 export function getMonthPeriod(year: number, month: number, offset: UtcOffset): Period {
-  invariant(Number.isInteger(year) && Number.isInteger(month) && month >= 1 && month <= 12, `bad month ${year}-${month}`);
+  invariant(
+    Number.isInteger(year) && Number.isInteger(month) && month >= 1 && month <= 12,
+    `bad month ${year}-${month}`,
+  );
   const o = offsets(offset);
   return {
     startMs: localMidnightMs(year, month, 1, o.start),
@@ -57,7 +64,10 @@ export function getMonthPeriod(year: number, month: number, offset: UtcOffset): 
 
 /** Calendar quarter `quarter` (1–4) of `year`: Q1 = January–March. */
 export function getQuarterPeriod(year: number, quarter: number, offset: UtcOffset): Period {
-  invariant(Number.isInteger(year) && Number.isInteger(quarter) && quarter >= 1 && quarter <= 4, `bad quarter ${year}-Q${quarter}`);
+  invariant(
+    Number.isInteger(year) && Number.isInteger(quarter) && quarter >= 1 && quarter <= 4,
+    `bad quarter ${year}-Q${quarter}`,
+  );
   const o = offsets(offset);
   const firstMonth = (quarter - 1) * 3 + 1;
   return {
@@ -88,13 +98,16 @@ export function parseIsoDate(text: string): CalendarDate | null {
 /** Custom range from local date `startDate` (inclusive) to local date `endDate` (exclusive), both "YYYY-MM-DD". */
 export function getCustomPeriod(startDate: string, endDate: string, offset: UtcOffset): Result<Period> {
   const s = parseIsoDate(startDate);
-  if (s === null) return fail("PERIOD.INVALID_DATE", `Start date "${startDate}" is not a calendar date (YYYY-MM-DD)`, "startDate");
+  if (s === null)
+    return fail("PERIOD.INVALID_DATE", `Start date "${startDate}" is not a calendar date (YYYY-MM-DD)`, "startDate");
   const e = parseIsoDate(endDate);
-  if (e === null) return fail("PERIOD.INVALID_DATE", `End date "${endDate}" is not a calendar date (YYYY-MM-DD)`, "endDate");
+  if (e === null)
+    return fail("PERIOD.INVALID_DATE", `End date "${endDate}" is not a calendar date (YYYY-MM-DD)`, "endDate");
   const o = offsets(offset);
   const startMs = localMidnightMs(s.year, s.month, s.day, o.start);
   const endMs = localMidnightMs(e.year, e.month, e.day, o.end);
-  if (endMs <= startMs) return fail("PERIOD.END_NOT_AFTER_START", `End date ${endDate} must be after start date ${startDate}`, "endDate");
+  if (endMs <= startMs)
+    return fail("PERIOD.END_NOT_AFTER_START", `End date ${endDate} must be after start date ${startDate}`, "endDate");
   return ok({ startMs, endMs, label: `${startDate}..${endDate}` });
 }
 
@@ -113,8 +126,16 @@ export function formatLocalDate(atMs: number, offsetMin: number): string {
  * The balance period of `lengthMonths` months that contains `atMs`, where periods start on the first
  * day of `anchorMonth` (1 = January: calendar quarters for 3, calendar years for 12) and repeat.
  */
-export function getPeriodContaining(atMs: number, lengthMonths: number, anchorMonth: number, offsetMin: number): Period {
-  invariant(Number.isInteger(lengthMonths) && lengthMonths >= 1 && lengthMonths <= 120, `bad period length ${lengthMonths}`);
+export function getPeriodContaining(
+  atMs: number,
+  lengthMonths: number,
+  anchorMonth: number,
+  offsetMin: number,
+): Period {
+  invariant(
+    Number.isInteger(lengthMonths) && lengthMonths >= 1 && lengthMonths <= 120,
+    `bad period length ${lengthMonths}`,
+  );
   invariant(Number.isInteger(anchorMonth) && anchorMonth >= 1 && anchorMonth <= 12, `bad anchor month ${anchorMonth}`);
   invariant(Number.isSafeInteger(atMs), `bad instant ${atMs}`);
   const local = getLocalDate(atMs, offsetMin);
@@ -146,9 +167,22 @@ const DAY_MS = 86_400_000;
  * not lie beyond today (the exclusive end at most tomorrow), and it spans at most MAX_BALANCE_SPAN_DAYS.
  * Returns the message and the field it concerns, or null.
  */
-export function refuseUnreasonablePeriod(period: Period, kind: "MONTH" | "QUARTER" | "CUSTOM", nowMs: number): { message: string; field: string } | null {
-  if (period.startMs > nowMs) return { message: "The period starts after today; a balance covers what has happened", field: kind === "CUSTOM" ? "start" : kind === "MONTH" ? "month" : "quarter" };
-  if (kind === "CUSTOM" && period.endMs > nowMs + DAY_MS) return { message: "End date is after today; choose today or an earlier day", field: "end" };
-  if (period.endMs - period.startMs > MAX_BALANCE_SPAN_DAYS * DAY_MS) return { message: `A balance period spans at most ${MAX_BALANCE_SPAN_DAYS.toLocaleString("en")} days (three years)`, field: "end" };
+export function refuseUnreasonablePeriod(
+  period: Period,
+  kind: "MONTH" | "QUARTER" | "CUSTOM",
+  nowMs: number,
+): { message: string; field: string } | null {
+  if (period.startMs > nowMs)
+    return {
+      message: "The period starts after today; a balance covers what has happened",
+      field: kind === "CUSTOM" ? "start" : kind === "MONTH" ? "month" : "quarter",
+    };
+  if (kind === "CUSTOM" && period.endMs > nowMs + DAY_MS)
+    return { message: "End date is after today; choose today or an earlier day", field: "end" };
+  if (period.endMs - period.startMs > MAX_BALANCE_SPAN_DAYS * DAY_MS)
+    return {
+      message: `A balance period spans at most ${MAX_BALANCE_SPAN_DAYS.toLocaleString("en")} days (three years)`,
+      field: "end",
+    };
   return null;
 }

@@ -16,7 +16,11 @@ export const PeriodCloseSchema = z.object({
 });
 export const PeriodReopenSchema = z.object({
   periodId: id("Period"),
-  reason: z.string({ error: "Reason is required to reopen a period" }).trim().min(5, "Reason: say why the period is reopened (at least 5 characters)").max(500, "Reason: at most 500 characters"),
+  reason: z
+    .string({ error: "Reason is required to reopen a period" })
+    .trim()
+    .min(5, "Reason: say why the period is reopened (at least 5 characters)")
+    .max(500, "Reason: at most 500 characters"),
 });
 
 export async function openPeriod(db: Db, actor: Actor, input: unknown): Promise<Result<{ id: number }>> {
@@ -24,9 +28,15 @@ export async function openPeriod(db: Db, actor: Actor, input: unknown): Promise<
   if (!parsed.ok) return parsed;
   const p = parsed.value;
   return runInTransaction(db, async (tx) => {
-    if (await findOverlappingPeriod(tx, actor.siteId, p.startsAt, p.endsAt)) reject("PERIOD.OVERLAP", "This period overlaps an existing one", "startsAt");
+    if (await findOverlappingPeriod(tx, actor.siteId, p.startsAt, p.endsAt))
+      reject("PERIOD.OVERLAP", "This period overlaps an existing one", "startsAt");
     const saved = await insertPeriod(tx, { siteId: actor.siteId, startsAt: p.startsAt, endsAt: p.endsAt });
-    await appendAudit(tx, actor, { action: "CREATE", entity: "AccountingPeriod", entityKey: String(saved.id), after: p });
+    await appendAudit(tx, actor, {
+      action: "CREATE",
+      entity: "AccountingPeriod",
+      entityKey: String(saved.id),
+      after: p,
+    });
     return saved;
   });
 }
@@ -41,8 +51,22 @@ export async function closePeriod(db: Db, actor: Actor, input: unknown): Promise
     if (!p) reject("RECORD.NOT_FOUND", "No such period", "periodId");
     if (p.status === "CLOSED") reject("PERIOD.ALREADY_CLOSED", "The period is already closed", "periodId");
     if (p.endsAt > actor.now) reject("PERIOD.NOT_ENDED", "A period can only be closed after it ends", "periodId");
-    await appendAudit(tx, actor, { action: "CLOSE", entity: "AccountingPeriod", entityKey: String(p.id), before: { status: p.status }, after: { status: "CLOSED" }, reason: c.reason });
-    return setPeriodStatus(tx, { periodId: p.id, status: "CLOSED", action: "CLOSE", reason: c.reason, byId: actor.userId, at: actor.now });
+    await appendAudit(tx, actor, {
+      action: "CLOSE",
+      entity: "AccountingPeriod",
+      entityKey: String(p.id),
+      before: { status: p.status },
+      after: { status: "CLOSED" },
+      reason: c.reason,
+    });
+    return setPeriodStatus(tx, {
+      periodId: p.id,
+      status: "CLOSED",
+      action: "CLOSE",
+      reason: c.reason,
+      byId: actor.userId,
+      at: actor.now,
+    });
   });
 }
 
@@ -55,7 +79,21 @@ export async function reopenPeriod(db: Db, actor: Actor, input: unknown): Promis
     const p = await getPeriodState(tx, actor.siteId, r.periodId);
     if (!p) reject("RECORD.NOT_FOUND", "No such period", "periodId");
     if (p.status !== "CLOSED") reject("PERIOD.NOT_CLOSED", "Only a closed period can be reopened", "periodId");
-    await appendAudit(tx, actor, { action: "REOPEN", entity: "AccountingPeriod", entityKey: String(p.id), before: { status: p.status }, after: { status: "OPEN" }, reason: r.reason });
-    return setPeriodStatus(tx, { periodId: p.id, status: "OPEN", action: "REOPEN", reason: r.reason, byId: actor.userId, at: actor.now });
+    await appendAudit(tx, actor, {
+      action: "REOPEN",
+      entity: "AccountingPeriod",
+      entityKey: String(p.id),
+      before: { status: p.status },
+      after: { status: "OPEN" },
+      reason: r.reason,
+    });
+    return setPeriodStatus(tx, {
+      periodId: p.id,
+      status: "OPEN",
+      action: "REOPEN",
+      reason: r.reason,
+      byId: actor.userId,
+      at: actor.now,
+    });
   });
 }

@@ -14,7 +14,13 @@ const MUTED = rgb(0.38, 0.38, 0.42);
 const BAD = rgb(0.65, 0.1, 0.1);
 
 /** Table columns: header, width (points). They add up to the printable width. */
-const COLUMNS: ReadonlyArray<readonly [keyof Pick<CertificateRow, "property" | "method" | "limit" | "result" | "unit" | "verdictText">, string, number]> = [
+const COLUMNS: ReadonlyArray<
+  readonly [
+    keyof Pick<CertificateRow, "property" | "method" | "limit" | "result" | "unit" | "verdictText">,
+    string,
+    number,
+  ]
+> = [
   ["property", "Property", 150],
   ["method", "Method", 82],
   ["limit", "Limit", 86],
@@ -49,7 +55,15 @@ export function toWinAnsi(text: string, font: Pick<PDFFont, "getCharacterSet">):
 
 /** The date and time in the site's zone, e.g. "4 Dec 2026, 10:00". */
 export function certificateTime(d: Date, timeZone: string): string {
-  return new Intl.DateTimeFormat("en-GB", { timeZone, day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", hour12: false }).format(d);
+  return new Intl.DateTimeFormat("en-GB", {
+    timeZone,
+    day: "numeric",
+    month: "short",
+    year: "numeric",
+    hour: "2-digit",
+    minute: "2-digit",
+    hour12: false,
+  }).format(d);
 }
 
 export function certificateDate(d: Date, timeZone: string): string {
@@ -100,7 +114,15 @@ class Writer {
     this.pages.push(this.page);
     this.y = PAGE_H - MARGIN;
     if (!this.data.released) {
-      this.page.drawText("NOT RELEASED", { x: 120, y: 260, size: 72, font: this.bold, color: BAD, opacity: 0.16, rotate: degrees(40) });
+      this.page.drawText("NOT RELEASED", {
+        x: 120,
+        y: 260,
+        size: 72,
+        font: this.bold,
+        color: BAD,
+        opacity: 0.16,
+        rotate: degrees(40),
+      });
     }
   }
 
@@ -108,7 +130,10 @@ class Writer {
     if (this.y - height < MARGIN + 30) this.newPage();
   }
 
-  text(s: string, o: { x?: number; size?: number; bold?: boolean; color?: ReturnType<typeof rgb>; width?: number } = {}): void {
+  text(
+    s: string,
+    o: { x?: number; size?: number; bold?: boolean; color?: ReturnType<typeof rgb>; width?: number } = {},
+  ): void {
     const font = o.bold ? this.bold : this.font;
     const size = o.size ?? BODY;
     for (const line of wrap(toWinAnsi(s, font), font, size, o.width ?? PAGE_W - 2 * MARGIN)) {
@@ -123,7 +148,12 @@ class Writer {
   }
 
   rule(): void {
-    this.page.drawLine({ start: { x: MARGIN, y: this.y }, end: { x: PAGE_W - MARGIN, y: this.y }, thickness: 0.6, color: MUTED });
+    this.page.drawLine({
+      start: { x: MARGIN, y: this.y },
+      end: { x: PAGE_W - MARGIN, y: this.y },
+      thickness: 0.6,
+      color: MUTED,
+    });
     this.gap(4);
   }
 
@@ -131,7 +161,13 @@ class Writer {
     for (const [term, value] of items) {
       const lines = wrap(toWinAnsi(value, this.font), this.font, BODY, PAGE_W - 2 * MARGIN - 120);
       this.room(lines.length * LINE);
-      this.page.drawText(toWinAnsi(term, this.bold), { x: MARGIN, y: this.y - BODY, size: BODY, font: this.bold, color: MUTED });
+      this.page.drawText(toWinAnsi(term, this.bold), {
+        x: MARGIN,
+        y: this.y - BODY,
+        size: BODY,
+        font: this.bold,
+        color: MUTED,
+      });
       for (const line of lines) {
         this.page.drawText(line, { x: MARGIN + 120, y: this.y - BODY, size: BODY, font: this.font, color: INK });
         this.y -= LINE;
@@ -151,7 +187,9 @@ class Writer {
   }
 
   tableRow(row: CertificateRow): void {
-    const cells = COLUMNS.map(([key, , width]) => wrap(toWinAnsi(row[key] || (key === "result" ? "-" : ""), this.font), this.font, BODY, width - 6));
+    const cells = COLUMNS.map(([key, , width]) =>
+      wrap(toWinAnsi(row[key] || (key === "result" ? "-" : ""), this.font), this.font, BODY, width - 6),
+    );
     const height = Math.max(...cells.map((c) => c.length)) * LINE;
     if (this.y - height < MARGIN + 30) {
       this.newPage();
@@ -161,7 +199,9 @@ class Writer {
     COLUMNS.forEach(([key, , width], i) => {
       const font = key === "verdictText" ? this.bold : this.font;
       const color = key === "verdictText" && (row.verdict === "FAIL" || row.verdict === "MISSING") ? BAD : INK;
-      cells[i]!.forEach((line, j) => this.page.drawText(line, { x, y: this.y - BODY - j * LINE, size: BODY, font, color }));
+      cells[i]!.forEach((line, j) =>
+        this.page.drawText(line, { x, y: this.y - BODY - j * LINE, size: BODY, font, color }),
+      );
       x += width;
     });
     this.y -= height + 2;
@@ -187,13 +227,19 @@ export async function renderCertificatePdf(d: CertificateData): Promise<Uint8Arr
   doc.setProducer("Tracevat");
   doc.setCreationDate(d.generatedAt);
   doc.setModificationDate(d.generatedAt);
-  const w = new Writer(doc, await doc.embedFont(StandardFonts.Helvetica), await doc.embedFont(StandardFonts.HelveticaBold), d);
+  const w = new Writer(
+    doc,
+    await doc.embedFont(StandardFonts.Helvetica),
+    await doc.embedFont(StandardFonts.HelveticaBold),
+    d,
+  );
   const tz = d.timeZone;
 
   w.text(`${d.plant.name}, ${d.plant.town}`, { size: 10, color: MUTED });
   w.gap(4);
   w.text("Certificate of analysis", { size: 18, bold: true });
-  if (!d.released) w.text("Not released: this sheet is for review and is not a certificate.", { bold: true, color: BAD });
+  if (!d.released)
+    w.text("Not released: this sheet is for review and is not a certificate.", { bold: true, color: BAD });
   w.gap(8);
   w.facts([
     ["Product lot", d.lot.code],
@@ -210,7 +256,8 @@ export async function renderCertificatePdf(d: CertificateData): Promise<Uint8Arr
   if (d.rules.length > 0) {
     w.gap(8);
     w.text("Either-or requirements", { size: 11, bold: true });
-    for (const r of d.rules) w.text(`${r.label}: ${r.met ? "met" : "NOT met"} (${r.text})`, { color: r.met ? INK : BAD });
+    for (const r of d.rules)
+      w.text(`${r.label}: ${r.met ? "met" : "NOT met"} (${r.text})`, { color: r.met ? INK : BAD });
   }
   if (d.missing.length > 0) {
     w.gap(6);

@@ -37,9 +37,18 @@ export async function loadProductLotQc(db: Db, siteId: number, code: string, now
 }
 
 /** The certificate of analysis as a PDF, with a file name; lots not released print "NOT RELEASED" across each page. */
-export async function productCertificatePdf(db: Db, siteId: number, code: string, now: Date): Promise<{ filename: string; body: Uint8Array; released: boolean } | null> {
+export async function productCertificatePdf(
+  db: Db,
+  siteId: number,
+  code: string,
+  now: Date,
+): Promise<{ filename: string; body: Uint8Array; released: boolean } | null> {
   const qc = await loadProductLotQc(db, siteId, code, now);
   if (!qc?.certificate) return null;
   const safe = code.replace(/[^A-Z0-9._-]/gi, "_");
-  return { filename: `certificate-of-analysis-${safe}${qc.certificate.released ? "" : "-NOT-RELEASED"}.pdf`, body: await renderCertificatePdf(qc.certificate), released: qc.certificate.released };
+  return {
+    filename: `certificate-of-analysis-${safe}${qc.certificate.released ? "" : "-NOT-RELEASED"}.pdf`,
+    body: await renderCertificatePdf(qc.certificate),
+    released: qc.certificate.released,
+  };
 }

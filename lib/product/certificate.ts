@@ -57,12 +57,19 @@ export function formatResult(value: number): string {
 /** The specification in one line: edition and grade with its title, or the site specification and what it is based on. */
 export function specText(spec: Spec): string {
   const base = `${spec.edition} ${spec.grade}`;
-  if (spec.siteSpec) return `${spec.siteSpec.name}, version ${spec.siteSpec.version} (site specification based on ${base})`;
+  if (spec.siteSpec)
+    return `${spec.siteSpec.name}, version ${spec.siteSpec.version} (site specification based on ${base})`;
   return `${base}: ${spec.title}`;
 }
 
 export function toResultsIn(results: readonly QcRecord[]): ResultIn[] {
-  return results.map((r) => ({ id: r.id, property: r.property, value: r.value, testedAt: r.testedAt, supersedes: r.supersedesId }));
+  return results.map((r) => ({
+    id: r.id,
+    property: r.property,
+    value: r.value,
+    testedAt: r.testedAt,
+    supersedes: r.supersedesId,
+  }));
 }
 
 /** The unit has its own column: "≤ 0.50 mg KOH/g" → "≤ 0.50". */
@@ -78,7 +85,12 @@ function verdictText(j: PropertyJudgement): string {
 function row(j: PropertyJudgement, byId: ReadonlyMap<number, QcRecord>): CertificateRow {
   const p = j.property;
   const rec = j.result ? byId.get(j.result.id) : undefined;
-  const result = j.result === null ? "" : p.kind === "class" ? `${p.classScale ?? "Class"} ${formatResult(j.result.value)}` : formatResult(j.result.value);
+  const result =
+    j.result === null
+      ? ""
+      : p.kind === "class"
+        ? `${p.classScale ?? "Class"} ${formatResult(j.result.value)}`
+        : formatResult(j.result.value);
   return {
     key: p.key,
     property: p.label,
@@ -96,7 +108,9 @@ function row(j: PropertyJudgement, byId: ReadonlyMap<number, QcRecord>): Certifi
 }
 
 function labelsOf(spec: Spec, keys: readonly string[]): string[] {
-  return keys.map((k) => spec.properties.find((p) => p.key === k)?.label ?? spec.rules.find((r) => r.key === k)?.label ?? k);
+  return keys.map(
+    (k) => spec.properties.find((p) => p.key === k)?.label ?? spec.rules.find((r) => r.key === k)?.label ?? k,
+  );
 }
 
 function decisionStatus(status: string): CertificateData["decision"]["status"] {
@@ -123,7 +137,11 @@ export function buildCertificate(input: CertificateInput): CertificateData {
     lot: { code: lot.code, batchCode: lot.batchCode, producedAt: lot.producedAt, massKg: lot.massG / 1000 },
     specText: specText(spec),
     rows: judgement.properties.map((j) => row(j, byId)),
-    rules: judgement.rules.map((r) => ({ label: r.rule.label, met: r.met === true, text: r.met === null ? `${r.text}; not yet tested` : r.text })),
+    rules: judgement.rules.map((r) => ({
+      label: r.rule.label,
+      met: r.met === true,
+      text: r.met === null ? `${r.text}; not yet tested` : r.text,
+    })),
     missing: labelsOf(spec, judgement.missing),
     failing: labelsOf(spec, judgement.failing),
     releasable: judgement.releasable,

@@ -19,13 +19,44 @@ export interface ProductLotRow {
   qc: QcRecord[];
 }
 
-const QC_SELECT = { id: true, property: true, value: true, method: true, lab: true, reportNo: true, testedAt: true, supersedesId: true } as const;
+const QC_SELECT = {
+  id: true,
+  property: true,
+  value: true,
+  method: true,
+  lab: true,
+  reportNo: true,
+  testedAt: true,
+  supersedesId: true,
+} as const;
 
-function toQcRecord(q: { id: number; property: string; value: number; method: string; lab: string; reportNo: string; testedAt: Date; supersedesId: number | null }): QcRecord {
-  return { id: q.id, property: q.property, value: q.value, method: q.method, lab: q.lab, reportNo: q.reportNo, testedAt: q.testedAt, supersedesId: q.supersedesId };
+function toQcRecord(q: {
+  id: number;
+  property: string;
+  value: number;
+  method: string;
+  lab: string;
+  reportNo: string;
+  testedAt: Date;
+  supersedesId: number | null;
+}): QcRecord {
+  return {
+    id: q.id,
+    property: q.property,
+    value: q.value,
+    method: q.method,
+    lab: q.lab,
+    reportNo: q.reportNo,
+    testedAt: q.testedAt,
+    supersedesId: q.supersedesId,
+  };
 }
 
-export async function listProductLots(db: Db, siteId: number, opts: { skip?: number; take?: number } = {}): Promise<{ rows: ProductLotRow[]; total: number }> {
+export async function listProductLots(
+  db: Db,
+  siteId: number,
+  opts: { skip?: number; take?: number } = {},
+): Promise<{ rows: ProductLotRow[]; total: number }> {
   const where = { siteId };
   const [rows, total] = await Promise.all([
     db.productLot.findMany({
@@ -97,8 +128,13 @@ export async function getProductLotDetail(db: Db, siteId: number, code: string):
     },
   });
   if (!r) return null;
-  const [moves, names] = await Promise.all([listHolderMovements(db, r.holderId), userNames(db, [r.decidedById, ...r.qc.map((q) => q.recordedById)])]);
-  const supersededBy = new Map(r.qc.filter((q) => q.supersedesId !== null).map((q) => [q.supersedesId as number, q.id]));
+  const [moves, names] = await Promise.all([
+    listHolderMovements(db, r.holderId),
+    userNames(db, [r.decidedById, ...r.qc.map((q) => q.recordedById)]),
+  ]);
+  const supersededBy = new Map(
+    r.qc.filter((q) => q.supersedesId !== null).map((q) => [q.supersedesId as number, q.id]),
+  );
   return {
     code: r.code,
     holderId: r.holderId,
@@ -141,7 +177,11 @@ export interface ShipmentRow {
   from: HolderRef | null;
 }
 
-export async function listShipments(db: Db, siteId: number, opts: { skip?: number; take?: number } = {}): Promise<{ rows: ShipmentRow[]; total: number }> {
+export async function listShipments(
+  db: Db,
+  siteId: number,
+  opts: { skip?: number; take?: number } = {},
+): Promise<{ rows: ShipmentRow[]; total: number }> {
   const where = { siteId };
   const [rows, total] = await Promise.all([
     db.shipment.findMany({
@@ -150,7 +190,15 @@ export async function listShipments(db: Db, siteId: number, opts: { skip?: numbe
       skip: opts.skip ?? 0,
       take: opts.take ?? 100,
       include: {
-        holder: { select: { incoming: { orderBy: { id: "asc" }, take: 1, select: { fromHolder: { select: { id: true, kind: true, code: true } } } } } },
+        holder: {
+          select: {
+            incoming: {
+              orderBy: { id: "asc" },
+              take: 1,
+              select: { fromHolder: { select: { id: true, kind: true, code: true } } },
+            },
+          },
+        },
       },
     }),
     db.shipment.count({ where }),
@@ -197,8 +245,18 @@ export async function getShipmentDetail(db: Db, siteId: number, documentNo: stri
 
 // ---- writes used by lib/product/product.service.ts and lib/batch/batch.service.ts
 
-
-export async function insertProductLot(tx: Tx, p: { siteId: number; holderId: number; code: string; batchId: number; producedAt: Date; massG: number; specKey?: string }): Promise<void> {
+export async function insertProductLot(
+  tx: Tx,
+  p: {
+    siteId: number;
+    holderId: number;
+    code: string;
+    batchId: number;
+    producedAt: Date;
+    massG: number;
+    specKey?: string;
+  },
+): Promise<void> {
   await tx.productLot.create({ data: { ...p, specKey: p.specKey ?? DEFAULT_PRODUCT_SPEC_KEY, status: "HELD" } });
 }
 
@@ -215,7 +273,15 @@ export interface ProductState {
 export async function getProductState(tx: Tx, holderId: number): Promise<ProductState> {
   const r = await tx.productLot.findUniqueOrThrow({
     where: { holderId },
-    select: { id: true, status: true, specKey: true, deviation: true, decisionReason: true, producedAt: true, qc: { select: QC_SELECT } },
+    select: {
+      id: true,
+      status: true,
+      specKey: true,
+      deviation: true,
+      decisionReason: true,
+      producedAt: true,
+      qc: { select: QC_SELECT },
+    },
   });
   return { ...r, qc: r.qc.map(toQcRecord) };
 }
@@ -250,18 +316,33 @@ export async function setProductSpec(tx: Tx, id: number, specKey: string): Promi
 export async function setProductDecision(
   tx: Tx,
   id: number,
-  d: { status: "HELD" | "RELEASED" | "REJECTED"; releasedAt: Date | null; decisionReason: string; deviation: boolean; decidedAt: Date; decidedById: number },
+  d: {
+    status: "HELD" | "RELEASED" | "REJECTED";
+    releasedAt: Date | null;
+    decisionReason: string;
+    deviation: boolean;
+    decidedAt: Date;
+    decidedById: number;
+  },
 ): Promise<void> {
   await tx.productLot.update({ where: { id }, data: d });
 }
 
 export async function insertShipment(
   tx: Tx,
-  s: { siteId: number; holderId: number; documentNo: string; customer: string; shippedAt: Date; massG: number; volumeMl: number; certifiedClaim: boolean },
+  s: {
+    siteId: number;
+    holderId: number;
+    documentNo: string;
+    customer: string;
+    shippedAt: Date;
+    massG: number;
+    volumeMl: number;
+    certifiedClaim: boolean;
+  },
 ): Promise<{ id: number; documentNo: string }> {
   return tx.shipment.create({ data: s, select: { id: true, documentNo: true } });
 }
-
 
 export interface ProductLotStanding {
   holderId: number;
@@ -271,8 +352,15 @@ export interface ProductLotStanding {
 }
 
 /** Release state of the product lots among the given holders (a recall's reach). */
-export async function listProductLotStandings(db: Db, siteId: number, holderIds: readonly number[]): Promise<Map<number, ProductLotStanding>> {
+export async function listProductLotStandings(
+  db: Db,
+  siteId: number,
+  holderIds: readonly number[],
+): Promise<Map<number, ProductLotStanding>> {
   if (holderIds.length === 0) return new Map();
-  const rows = await db.productLot.findMany({ where: { siteId, holderId: { in: [...holderIds] } }, select: { holderId: true, code: true, status: true, decisionReason: true } });
+  const rows = await db.productLot.findMany({
+    where: { siteId, holderId: { in: [...holderIds] } },
+    select: { holderId: true, code: true, status: true, decisionReason: true },
+  });
   return new Map(rows.map((r) => [r.holderId, r]));
 }

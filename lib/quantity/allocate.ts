@@ -37,7 +37,12 @@ export function allocateWholeGrams(total: number, weights: readonly number[], su
 }
 
 /** allocateWholeGrams writing the parts into out[0..weights.length) (a buffer the caller reuses). */
-export function allocateWholeGramsInto(total: number, weights: readonly number[], sum: number, out: Float64Array): void {
+export function allocateWholeGramsInto(
+  total: number,
+  weights: readonly number[],
+  sum: number,
+  out: Float64Array,
+): void {
   invariant(Number.isSafeInteger(total) && total >= 0, `total must be a non-negative integer, got ${total}`);
   const n = weights.length;
   invariant(out.length >= n, "the output buffer is shorter than the weights");

@@ -10,7 +10,8 @@ import {
 import type { TemperatureUnit, VolumeUnit } from "@/lib/quantity/units";
 
 /** Plausibility bounds for a tank or drum reading at a small plant (common practice, no source); editable. */
-export const OBSERVATION_LIMITS_SOURCE = "plausibility bounds for small-plant tank readings (common practice, no source)";
+export const OBSERVATION_LIMITS_SOURCE =
+  "plausibility bounds for small-plant tank readings (common practice, no source)";
 /** Exclusive lower bound: a reading must be greater than 0 L. */
 export const MIN_OBSERVED_VOLUME_L = 0;
 export const MAX_OBSERVED_VOLUME_L = 100_000;
@@ -42,7 +43,10 @@ const volumeUnitField = z
   .transform((token, ctx): VolumeUnit => {
     const parsed = parseVolumeUnit(token, "volumeUnit");
     if (parsed.ok) return parsed.value;
-    ctx.addIssue({ code: "custom", message: `volumeUnit: ${parsed.issues[0]?.message ?? "unknown unit"} (use L, mL, US gal or bbl)` });
+    ctx.addIssue({
+      code: "custom",
+      message: `volumeUnit: ${parsed.issues[0]?.message ?? "unknown unit"} (use L, mL, US gal or bbl)`,
+    });
     return z.NEVER;
   });
 
@@ -51,7 +55,10 @@ const temperatureUnitField = z
   .transform((token, ctx): TemperatureUnit => {
     const parsed = parseTemperatureUnit(token, "temperatureUnit");
     if (parsed.ok) return parsed.value;
-    ctx.addIssue({ code: "custom", message: `temperatureUnit: ${parsed.issues[0]?.message ?? "unknown unit"} (use °C, °F or K)` });
+    ctx.addIssue({
+      code: "custom",
+      message: `temperatureUnit: ${parsed.issues[0]?.message ?? "unknown unit"} (use °C, °F or K)`,
+    });
     return z.NEVER;
   });
 
@@ -101,7 +108,11 @@ export const DensityObservationSchema = z
         : `${tC} °C (${Number(convertTemperature(tC, "°C", input.temperatureUnit).toFixed(2))} ${UNIT_SYMBOL[input.temperatureUnit]})`;
 
     if (!(observedVolumeL > MIN_OBSERVED_VOLUME_L)) {
-      ctx.addIssue({ code: "custom", path: ["volume"], message: `volume must be greater than ${MIN_OBSERVED_VOLUME_L} L` });
+      ctx.addIssue({
+        code: "custom",
+        path: ["volume"],
+        message: `volume must be greater than ${MIN_OBSERVED_VOLUME_L} L`,
+      });
     } else if (!withinLimits(observedVolumeL, MIN_OBSERVED_VOLUME_L, MAX_OBSERVED_VOLUME_L)) {
       const inGal = Number(convertVolume(MAX_OBSERVED_VOLUME_L, "L", "gal").toFixed(1));
       ctx.addIssue({
@@ -124,7 +135,9 @@ export const DensityObservationSchema = z
         ctx.addIssue({ code: "custom", path: ["density"], message: DENSITY_RANGE_MESSAGE });
       }
       const atTempC =
-        input.densityTemperature === undefined ? 15 : convertTemperature(input.densityTemperature, input.temperatureUnit, "°C");
+        input.densityTemperature === undefined
+          ? 15
+          : convertTemperature(input.densityTemperature, input.temperatureUnit, "°C");
       if (!withinLimits(atTempC, MIN_OBSERVED_TEMP_C, MAX_OBSERVED_TEMP_C)) {
         ctx.addIssue({
           code: "custom",
@@ -134,7 +147,11 @@ export const DensityObservationSchema = z
       }
       density = { densityKgM3, atTempC };
     } else if (input.densityTemperature !== undefined) {
-      ctx.addIssue({ code: "custom", path: ["densityTemperature"], message: "densityTemperature is given but density is missing" });
+      ctx.addIssue({
+        code: "custom",
+        path: ["densityTemperature"],
+        message: "densityTemperature is given but density is missing",
+      });
     }
     if (issueCount > 0) return z.NEVER;
     return {

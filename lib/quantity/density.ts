@@ -173,7 +173,8 @@ export const DEFAULT_DENSITY_TABLE: DensityTable = {
     densityAt15KgM3: 1263.82,
     slopeKgM3PerK: -0.612,
     status: "from memory",
-    source: "ρ = 1273 − 0.612·t(°C) kg/m³, fit attributed to Volk & Kähler 2018 (Exp. Fluids 59:75) (from memory, unverified); ≈1260 kg/m³ at room temperature [sourced, same paper]",
+    source:
+      "ρ = 1273 − 0.612·t(°C) kg/m³, fit attributed to Volk & Kähler 2018 (Exp. Fluids 59:75) (from memory, unverified); ≈1260 kg/m³ at room temperature [sourced, same paper]",
     note: "pure glycerol; crude glycerol from a plant contains methanol, water and soap and is lighter",
   },
   WATER: {
@@ -185,11 +186,17 @@ export const DEFAULT_DENSITY_TABLE: DensityTable = {
   },
 };
 
-export function getDensityEntry(table: Partial<Record<MaterialKind, DensityEntry>>, kind: MaterialKind): DensityEntry | null {
+export function getDensityEntry(
+  table: Partial<Record<MaterialKind, DensityEntry>>,
+  kind: MaterialKind,
+): DensityEntry | null {
   return table[kind] ?? null;
 }
 
-export function requireDensityEntry(table: Partial<Record<MaterialKind, DensityEntry>>, kind: MaterialKind): DensityEntry {
+export function requireDensityEntry(
+  table: Partial<Record<MaterialKind, DensityEntry>>,
+  kind: MaterialKind,
+): DensityEntry {
   const entry = table[kind];
   invariant(entry !== undefined, `density table has no entry for ${kind}`);
   return entry;
@@ -241,7 +248,8 @@ interface TemperatureCheck {
 
 function checkTemperatures(temps: readonly TemperatureCheck[]): DomainIssue[] {
   return temps.flatMap(({ value, field }): DomainIssue[] => {
-    if (!Number.isFinite(value)) return [{ code: "QUANTITY.NOT_A_NUMBER", message: `${field} must be a number (°C)`, field }];
+    if (!Number.isFinite(value))
+      return [{ code: "QUANTITY.NOT_A_NUMBER", message: `${field} must be a number (°C)`, field }];
     if (value < ABSOLUTE_ZERO_C) {
       return [{ code: "QUANTITY.BELOW_ABSOLUTE_ZERO", message: `${field} must be above −273.15 °C`, field }];
     }
@@ -250,7 +258,8 @@ function checkTemperatures(temps: readonly TemperatureCheck[]): DomainIssue[] {
 }
 
 function checkNonNegative(value: number, field: string, unit: string): DomainIssue[] {
-  if (!Number.isFinite(value)) return [{ code: "QUANTITY.NOT_A_NUMBER", message: `${field} must be a number (${unit})`, field }];
+  if (!Number.isFinite(value))
+    return [{ code: "QUANTITY.NOT_A_NUMBER", message: `${field} must be a number (${unit})`, field }];
   if (value < 0) return [{ code: "QUANTITY.NEGATIVE", message: `${field} must not be negative (${unit})`, field }];
   return [];
 }
@@ -289,7 +298,9 @@ function isBetweenAnchorAndRange(entry: DensityEntry, tC: number): boolean {
 export function rangeNotes(entry: DensityEntry, tC: number): string[] {
   const range = entry.validRangeC;
   if (range === undefined || !isBetweenAnchorAndRange(entry, tC)) return [];
-  return [`At ${tC} °C the density is read on the straight line between the 15 °C table density and the ${range.minC}–${range.maxC} °C range its slope was measured over (common practice).`];
+  return [
+    `At ${tC} °C the density is read on the straight line between the 15 °C table density and the ${range.minC}–${range.maxC} °C range its slope was measured over (common practice).`,
+  ];
 }
 
 export interface StandardVolumeInput {

@@ -202,7 +202,20 @@ const UNIT_ALIASES: ReadonlyArray<readonly [CanonicalUnit, readonly string[]]> =
   ["mL", ["ml", "millilitre", "millilitres", "milliliter", "milliliters", "cm3", "cm³", "cc"]],
   [
     "gal",
-    ["gal", "gals", "gallon", "gallons", "us gal", "usgal", "us gals", "us gallon", "us gallons", "gal us", "gal (us)", "usg"],
+    [
+      "gal",
+      "gals",
+      "gallon",
+      "gallons",
+      "us gal",
+      "usgal",
+      "us gals",
+      "us gallon",
+      "us gallons",
+      "gal us",
+      "gal (us)",
+      "usg",
+    ],
   ],
   ["bbl", ["bbl", "bbls", "barrel", "barrels", "oil barrel", "oil barrels", "us bbl", "petroleum barrel"]],
   ["kg", ["kg", "kgs", "kilogram", "kilograms", "kilo", "kilos"]],
@@ -226,13 +239,7 @@ const UNSUPPORTED_HINTS: ReadonlyArray<readonly [RegExp, string]> = [
 
 function normaliseToken(token: string): string {
   // The ordinal "º" must become "°" before NFKC, which would turn it into a letter "o".
-  return token
-    .replace(/[º˚]/g, "°")
-    .normalize("NFKC")
-    .trim()
-    .toLowerCase()
-    .replace(/\s+/g, " ")
-    .replace(/\.$/, "");
+  return token.replace(/[º˚]/g, "°").normalize("NFKC").trim().toLowerCase().replace(/\s+/g, " ").replace(/\.$/, "");
 }
 
 /** Parses a unit token ("litre", "US gal", "degF", "°C" …) to its canonical unit, or returns UNIT.UNKNOWN. */
@@ -249,7 +256,11 @@ function parseUnitOfKind<U extends CanonicalUnit>(token: string, kind: UnitKind,
   const parsed = parseUnit(token, field);
   if (!parsed.ok) return parsed;
   if (UNIT_KIND[parsed.value] !== kind) {
-    return fail("UNIT.WRONG_KIND", `"${token.trim()}" is a ${UNIT_KIND[parsed.value]} unit, expected a ${kind} unit`, field);
+    return fail(
+      "UNIT.WRONG_KIND",
+      `"${token.trim()}" is a ${UNIT_KIND[parsed.value]} unit, expected a ${kind} unit`,
+      field,
+    );
   }
   return ok(parsed.value as U);
 }
@@ -273,7 +284,10 @@ export function parseTemperatureUnit(token: string, field?: string): Result<Temp
 export function parseUnitFromHeader(header: string, field?: string): Result<CanonicalUnit> {
   const bracketed = [...header.matchAll(/[([]([^()[\]]+)[)\]]/g)].at(-1)?.[1];
   if (bracketed !== undefined) return parseUnit(bracketed, field);
-  const words = header.trim().split(/[\s_/,;:-]+/).filter((w) => w.length > 0);
+  const words = header
+    .trim()
+    .split(/[\s_/,;:-]+/)
+    .filter((w) => w.length > 0);
   const candidates = [words.slice(-2).join(" "), words.at(-1) ?? ""].filter((c) => c.length > 0);
   for (const candidate of candidates) {
     const parsed = parseUnit(candidate, field);

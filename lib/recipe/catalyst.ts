@@ -51,7 +51,13 @@ export const CATALYSTS: Readonly<Record<CatalystType, CatalystProfile>> = {
       "verified",
       "range 1.0–1.5 % is common practice",
     ),
-    defaultAssayPct: defineSourced(90, "% KOH", "KOH flake ≈ 85–90 % KOH (rest water, K2CO3)", "common practice", "use the CoA assay"),
+    defaultAssayPct: defineSourced(
+      90,
+      "% KOH",
+      "KOH flake ≈ 85–90 % KOH (rest water, K2CO3)",
+      "common practice",
+      "use the CoA assay",
+    ),
   },
   NAOME_SOLUTION: {
     type: "NAOME_SOLUTION",
@@ -65,7 +71,13 @@ export const CATALYSTS: Readonly<Record<CatalystType, CatalystProfile>> = {
       "Ma, Clements & Hanna 1998, Trans. ASAE 41(5):1261 (NaOMe maximum activity at 0.5 % w/w of tallow)",
       "verified",
     ),
-    defaultAssayPct: defineSourced(30, "% NaOMe in methanol", "sold as 25–30 wt % NaOMe in methanol", "common practice", "use the CoA strength"),
+    defaultAssayPct: defineSourced(
+      30,
+      "% NaOMe in methanol",
+      "sold as 25–30 wt % NaOMe in methanol",
+      "common practice",
+      "use the CoA strength",
+    ),
   },
   KOME_SOLUTION: {
     type: "KOME_SOLUTION",
@@ -80,7 +92,13 @@ export const CATALYSTS: Readonly<Record<CatalystType, CatalystProfile>> = {
       "computed",
       "no sourced KOMe dose; ≈ 0.65 %",
     ),
-    defaultAssayPct: defineSourced(32, "% KOMe in methanol", "KOMe solutions commonly sold at about 32 %", "from memory", "use the CoA strength"),
+    defaultAssayPct: defineSourced(
+      32,
+      "% KOMe in methanol",
+      "KOMe solutions commonly sold at about 32 %",
+      "from memory",
+      "use the CoA strength",
+    ),
   },
 };
 

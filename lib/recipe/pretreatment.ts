@@ -61,7 +61,13 @@ export const DEFAULT_ACID_STEP_SETTINGS: AcidStepDefaults = {
     "from memory",
     "the basis of the 5 % (FFA or oil mass) is not verified",
   ),
-  acidPurityPct: defineSourced(100, "% H2SO4", "amounts as pure H2SO4", "common practice", "enter the CoA assay of the acid"),
+  acidPurityPct: defineSourced(
+    100,
+    "% H2SO4",
+    "amounts as pure H2SO4",
+    "common practice",
+    "enter the CoA assay of the acid",
+  ),
   pretreatedWaterPct: defineSourced(
     0,
     "% w/w",
@@ -85,7 +91,11 @@ export function decideRoute(ffaPct: number, overrides: Partial<PretreatmentLimit
   const base = limits.baseCatalysisMaxFfaPct.value;
   const common = { ffaPct, directBaseMaxFfaPct: direct, baseCatalysisMaxFfaPct: base };
   if (ffaPct < direct) {
-    return { ...common, route: "DIRECT_BASE", reason: `FFA ${ffaPct} % < ${direct} % (${limits.directBaseMaxFfaPct.source})` };
+    return {
+      ...common,
+      route: "DIRECT_BASE",
+      reason: `FFA ${ffaPct} % < ${direct} % (${limits.directBaseMaxFfaPct.source})`,
+    };
   }
   if (ffaPct < base) {
     return {
@@ -94,7 +104,11 @@ export function decideRoute(ffaPct: number, overrides: Partial<PretreatmentLimit
       reason: `${direct} % ≤ FFA ${ffaPct} % < ${base} % (${limits.baseCatalysisMaxFfaPct.source})`,
     };
   }
-  return { ...common, route: "ACID_PRETREATMENT", reason: `FFA ${ffaPct} % ≥ ${base} % (${limits.baseCatalysisMaxFfaPct.source})` };
+  return {
+    ...common,
+    route: "ACID_PRETREATMENT",
+    reason: `FFA ${ffaPct} % ≥ ${base} % (${limits.baseCatalysisMaxFfaPct.source})`,
+  };
 }
 
 export interface AcidStepFeed {
@@ -232,7 +246,12 @@ export function planPretreatment(
     fameKg += (lot.massKg * (lot.famePct ?? 0)) / 100;
   }
   if (!(massKg > 0)) return fail("PRETREATMENT.NO_OIL", "The lots to charge add up to 0 kg.", "lots");
-  const feed = { massKg, ffaPct: (ffaKg / massKg) * 100, waterPct: (waterKg / massKg) * 100, famePct: (fameKg / massKg) * 100 };
+  const feed = {
+    massKg,
+    ffaPct: (ffaKg / massKg) * 100,
+    waterPct: (waterKg / massKg) * 100,
+    famePct: (fameKg / massKg) * 100,
+  };
   const decision = decideRoute(feed.ffaPct, limits);
   const warnings: DomainIssue[] = [];
 

@@ -20,7 +20,13 @@ export const DEFAULT_RECIPE_SETTINGS: RecipeDefaults = {
     "verified",
     "stoichiometric ratio is 3:1; 6:1 is 100 % excess",
   ),
-  reactionTempC: defineSourced(60, "°C", "review excerpt: 60 °C example; 50–65 °C range", "verified", "range is common practice"),
+  reactionTempC: defineSourced(
+    60,
+    "°C",
+    "review excerpt: 60 °C example; 50–65 °C range",
+    "verified",
+    "range is common practice",
+  ),
   meanTgMolarMass: defineSourced(
     FEEDSTOCK_MOLAR_MASS_DEFAULTS.TRIOLEIN_MODEL.meanTgMolarMass,
     "g/mol",
@@ -28,7 +34,13 @@ export const DEFAULT_RECIPE_SETTINGS: RecipeDefaults = {
     "computed",
     "model oil; give the lot's SV-based value when known",
   ),
-  washes: defineSourced(3, "washes", "wet washing until neutral", "common practice", "set from the site's washing procedure"),
+  washes: defineSourced(
+    3,
+    "washes",
+    "wet washing until neutral",
+    "common practice",
+    "set from the site's washing procedure",
+  ),
   waterPerWashPctOfEster: defineSourced(
     30,
     "% of ester mass per wash",

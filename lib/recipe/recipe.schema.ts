@@ -60,7 +60,11 @@ export const RecipeLotSchema = z
   })
   .superRefine((lot, ctx) => {
     if ((lot.ffaPct === undefined) === (lot.acidValueMgKohG === undefined)) {
-      ctx.addIssue({ code: "custom", message: "Give either FFA (%) or the acid value (mg KOH/g) for the lot, not both", path: ["ffaPct"] });
+      ctx.addIssue({
+        code: "custom",
+        message: "Give either FFA (%) or the acid value (mg KOH/g) for the lot, not both",
+        path: ["ffaPct"],
+      });
     }
   })
   .transform((lot) => {
@@ -149,7 +153,11 @@ function refineUniqueLots(lots: ReadonlyArray<{ lotRef: string }>, ctx: z.Refine
   const seen = new Set<string>();
   lots.forEach((lot, i) => {
     if (seen.has(lot.lotRef)) {
-      ctx.addIssue({ code: "custom", message: `Lot ${lot.lotRef} is listed twice; combine its masses`, path: [path, i, "lotRef"] });
+      ctx.addIssue({
+        code: "custom",
+        message: `Lot ${lot.lotRef} is listed twice; combine its masses`,
+        path: [path, i, "lotRef"],
+      });
     }
     seen.add(lot.lotRef);
   });

@@ -157,7 +157,12 @@ export function planRecipe(input: RecipeInput, limitOverrides: Partial<RecipeLim
   let meanTgMolarMass = settings.meanTgMolarMass ?? DEFAULT_RECIPE_SETTINGS.meanTgMolarMass.value;
   if (sv !== undefined) {
     const fromSv = computeMeanTgMolarMassFromSv(sv, { acidValueMgKohPerG: acidValueMgKohG });
-    if (!fromSv.ok) return fail(fromSv.issues[0]?.code ?? "CHEMISTRY.BAD_SAPONIFICATION_VALUE", fromSv.issues[0]?.message ?? "Bad saponification value", "settings.saponificationValueMgKohG");
+    if (!fromSv.ok)
+      return fail(
+        fromSv.issues[0]?.code ?? "CHEMISTRY.BAD_SAPONIFICATION_VALUE",
+        fromSv.issues[0]?.message ?? "Bad saponification value",
+        "settings.saponificationValueMgKohG",
+      );
     meanTgMolarMass = fromSv.value;
   } else if (settings.meanTgMolarMass === undefined) {
     warnings.push({
@@ -229,7 +234,11 @@ export function planRecipe(input: RecipeInput, limitOverrides: Partial<RecipeLim
       `Recipe mass balance does not close: inputs ${fmt(inputKg, 6)} kg, outputs ${fmt(outputKg, 6)} kg.`,
     );
   }
-  const inputsG = { oil: lots.reduce((s, l) => s + l.massG, 0), methanol: toGrams(toAddKg), catalyst: toGrams(productKg) };
+  const inputsG = {
+    oil: lots.reduce((s, l) => s + l.massG, 0),
+    methanol: toGrams(toAddKg),
+    catalyst: toGrams(productKg),
+  };
   const split = allocateByWeight(
     inputsG.oil + inputsG.methanol + inputsG.catalyst,
     PRODUCT_KEYS.map((k) => [k, products[k]] as const),
@@ -274,7 +283,8 @@ export function planRecipe(input: RecipeInput, limitOverrides: Partial<RecipeLim
       toAddG: inputsG.methanol,
       toAddMl20C: Math.round((toAddKg * 1000) / densityGPerMl),
       totalKg: totalMethanolKg,
-      effectiveMolarRatio: triglycerideMol > 0 ? (totalMethanolKg * 1000) / MOLAR_MASS.methanol / triglycerideMol : null,
+      effectiveMolarRatio:
+        triglycerideMol > 0 ? (totalMethanolKg * 1000) / MOLAR_MASS.methanol / triglycerideMol : null,
       consumedKg,
     },
     catalyst: {

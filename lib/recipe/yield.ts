@@ -14,7 +14,12 @@ export interface YieldLimits {
 
 export const DEFAULT_YIELD_LIMITS: YieldLimits = {
   aboveTheoryTolerancePct: defineSourced(0.5, "% of theory", "weighing uncertainty allowance", "common practice"),
-  usageDeviationPct: defineSourced(5, "% of plan", "dosing deviation worth a note in the batch record", "common practice"),
+  usageDeviationPct: defineSourced(
+    5,
+    "% of plan",
+    "dosing deviation worth a note in the batch record",
+    "common practice",
+  ),
 };
 
 export interface UsageComparison {

@@ -19,17 +19,26 @@ function headerOf(c: ReportTable["columns"][number]): string {
 
 export function reportCsv(doc: ReportDoc, table: ReportTable): string {
   const lines: string[] = [];
-  for (const [k, v] of [["Report", doc.title] as [string, string], ...headerLines(doc), ["Table", table.heading] as [string, string]]) {
+  for (const [k, v] of [
+    ["Report", doc.title] as [string, string],
+    ...headerLines(doc),
+    ["Table", table.heading] as [string, string],
+  ]) {
     lines.push(`# ${k}: ${v.replace(/[\r\n]+/g, " ")}`);
   }
   lines.push(table.columns.map((c) => csvCell(headerOf(c), false)).join(","));
-  const row = (r: readonly ReportTable["rows"][number][number][]) => table.columns.map((c, i) => csvCell(cellText(r[i] ?? null, c.kind, doc.timeZone), NUMERIC.has(c.kind))).join(",");
+  const row = (r: readonly ReportTable["rows"][number][number][]) =>
+    table.columns.map((c, i) => csvCell(cellText(r[i] ?? null, c.kind, doc.timeZone), NUMERIC.has(c.kind))).join(",");
   for (const r of table.rows) lines.push(row(r));
   if (table.total) lines.push(row(table.total));
   return lines.join("\r\n") + "\r\n";
 }
 
 export function reportFileName(doc: ReportDoc, ext: "csv" | "pdf", table?: string): string {
-  const safe = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "");
+  const safe = (s: string) =>
+    s
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, "-")
+      .replace(/^-|-$/g, "");
   return [doc.slug, ...(table ? [table] : []), safe(doc.subject).slice(0, 60)].filter(Boolean).join("-") + `.${ext}`;
 }

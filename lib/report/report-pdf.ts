@@ -50,7 +50,10 @@ class Writer {
   }
 
   /** Text wrapped to the width. */
-  text(s: string, o: { size?: number; bold?: boolean; color?: ReturnType<typeof rgb>; x?: number; width?: number } = {}): void {
+  text(
+    s: string,
+    o: { size?: number; bold?: boolean; color?: ReturnType<typeof rgb>; x?: number; width?: number } = {},
+  ): void {
     const font = o.bold ? this.bold : this.font;
     const size = o.size ?? BODY + 1;
     const width = o.width ?? WIDTH;
@@ -76,7 +79,13 @@ class Writer {
   facts(items: ReadonlyArray<readonly [string, string]>): void {
     for (const [term, value] of items) {
       this.room(LINE);
-      this.page.drawText(this.fit(term, this.bold, BODY + 1, 128), { x: MARGIN, y: this.y - BODY - 1, size: BODY + 1, font: this.bold, color: MUTED });
+      this.page.drawText(this.fit(term, this.bold, BODY + 1, 128), {
+        x: MARGIN,
+        y: this.y - BODY - 1,
+        size: BODY + 1,
+        font: this.bold,
+        color: MUTED,
+      });
       this.text(value, { x: MARGIN + 132, width: WIDTH - 132 });
     }
   }
@@ -86,7 +95,11 @@ function columnWidths(w: Writer, t: ReportTable, timeZone: string): number[] {
   const sample = [...t.rows.slice(0, 200), ...(t.total ? [t.total] : [])];
   const natural = t.columns.map((c, i) => {
     let max = w.bold.widthOfTextAtSize(toWinAnsi(headerText(c), w.bold), BODY);
-    for (const r of sample) max = Math.max(max, w.font.widthOfTextAtSize(toWinAnsi(cellText(r[i] ?? null, c.kind, timeZone, true), w.font), BODY));
+    for (const r of sample)
+      max = Math.max(
+        max,
+        w.font.widthOfTextAtSize(toWinAnsi(cellText(r[i] ?? null, c.kind, timeZone, true), w.font), BODY),
+      );
     return Math.min(max + 8, 260);
   });
   const sum = natural.reduce((s, x) => s + x, 0);
@@ -97,7 +110,14 @@ function headerText(c: ReportColumn): string {
   return c.kind === "mass" ? `${c.header} (kg)` : c.kind === "pct" ? `${c.header} (%)` : c.header;
 }
 
-function drawRow(w: Writer, t: ReportTable, widths: readonly number[], row: readonly ReportValue[], timeZone: string, o: { bold?: boolean; header?: boolean }): void {
+function drawRow(
+  w: Writer,
+  t: ReportTable,
+  widths: readonly number[],
+  row: readonly ReportValue[],
+  timeZone: string,
+  o: { bold?: boolean; header?: boolean },
+): void {
   let x = MARGIN;
   t.columns.forEach((c, i) => {
     const width = widths[i] ?? 40;
@@ -106,7 +126,13 @@ function drawRow(w: Writer, t: ReportTable, widths: readonly number[], row: read
     const text = w.fit(raw, font, BODY, width - 6);
     const tw = font.widthOfTextAtSize(text, BODY);
     const right = NUMERIC.has(c.kind);
-    w.page.drawText(text, { x: right ? x + width - 6 - tw : x, y: w.y - BODY, size: BODY, font, color: o.header ? MUTED : INK });
+    w.page.drawText(text, {
+      x: right ? x + width - 6 - tw : x,
+      y: w.y - BODY,
+      size: BODY,
+      font,
+      color: o.header ? MUTED : INK,
+    });
     x += width;
   });
   w.y -= LINE;
@@ -123,7 +149,12 @@ function drawTable(w: Writer, t: ReportTable, timeZone: string): void {
   const widths = columnWidths(w, t, timeZone);
   const header = () => {
     drawRow(w, t, widths, [], timeZone, { header: true });
-    w.page.drawLine({ start: { x: MARGIN, y: w.y + 2 }, end: { x: MARGIN + widths.reduce((s, x) => s + x, 0), y: w.y + 2 }, thickness: 0.5, color: MUTED });
+    w.page.drawLine({
+      start: { x: MARGIN, y: w.y + 2 },
+      end: { x: MARGIN + widths.reduce((s, x) => s + x, 0), y: w.y + 2 },
+      thickness: 0.5,
+      color: MUTED,
+    });
   };
   header();
   for (const r of t.rows) {
@@ -132,7 +163,12 @@ function drawTable(w: Writer, t: ReportTable, timeZone: string): void {
   }
   if (t.total) {
     if (w.room(LINE)) header();
-    w.page.drawLine({ start: { x: MARGIN, y: w.y + 1 }, end: { x: MARGIN + widths.reduce((s, x) => s + x, 0), y: w.y + 1 }, thickness: 0.5, color: MUTED });
+    w.page.drawLine({
+      start: { x: MARGIN, y: w.y + 1 },
+      end: { x: MARGIN + widths.reduce((s, x) => s + x, 0), y: w.y + 1 },
+      thickness: 0.5,
+      color: MUTED,
+    });
     drawRow(w, t, widths, t.total, timeZone, { bold: true });
   }
 }
@@ -146,7 +182,11 @@ export async function renderReportPdf(doc: ReportDoc): Promise<Uint8Array> {
   pdf.setProducer("Tracevat");
   pdf.setCreationDate(doc.producedAt);
   pdf.setModificationDate(doc.producedAt);
-  const w = new Writer(pdf, await pdf.embedFont(StandardFonts.Helvetica), await pdf.embedFont(StandardFonts.HelveticaBold));
+  const w = new Writer(
+    pdf,
+    await pdf.embedFont(StandardFonts.Helvetica),
+    await pdf.embedFont(StandardFonts.HelveticaBold),
+  );
   w.text(doc.plant, { size: 10, color: MUTED });
   w.text(doc.title, { size: 17, bold: true });
   w.y -= 4;

@@ -53,7 +53,12 @@ export interface ReportContext {
 
 function parts(d: Date, timeZone: string, withTime: boolean): Record<string, string> {
   let fmt: Intl.DateTimeFormat;
-  const opts: Intl.DateTimeFormatOptions = { year: "numeric", month: "2-digit", day: "2-digit", ...(withTime ? { hour: "2-digit", minute: "2-digit", hourCycle: "h23" as const } : {}) };
+  const opts: Intl.DateTimeFormatOptions = {
+    year: "numeric",
+    month: "2-digit",
+    day: "2-digit",
+    ...(withTime ? { hour: "2-digit", minute: "2-digit", hourCycle: "h23" as const } : {}),
+  };
   try {
     fmt = new Intl.DateTimeFormat("en-GB", { timeZone, ...opts });
   } catch {
@@ -112,5 +117,5 @@ export function headerLines(doc: ReportDoc): Array<[string, string]> {
 /** Σ of a mass column over the rows (whole grams). */
 export function sumColumn(table: ReportTable, key: string): number {
   const i = table.columns.findIndex((c) => c.key === key);
-  return table.rows.reduce((s, r) => s + (typeof r[i] === "number" ? (r[i]) : 0), 0);
+  return table.rows.reduce((s, r) => s + (typeof r[i] === "number" ? r[i] : 0), 0);
 }

@@ -6,7 +6,12 @@ import type { Flag, LotFact } from "@/lib/screening/screening";
 /** Materials booked as oil that has been used for frying. */
 export const USED_OIL_MATERIALS: ReadonlySet<string> = new Set(["USED_COOKING_OIL", "YELLOW_GREASE", "TRAP_GREASE"]);
 /** Liquid vegetable oils, whose density range the density signal checks. */
-export const VEGETABLE_OIL_MATERIALS: ReadonlySet<string> = new Set(["USED_COOKING_OIL", "SOYBEAN", "CANOLA", "OTHER_OIL"]);
+export const VEGETABLE_OIL_MATERIALS: ReadonlySet<string> = new Set([
+  "USED_COOKING_OIL",
+  "SOYBEAN",
+  "CANOLA",
+  "OTHER_OIL",
+]);
 
 /**
  * A lot booked as used oil whose acid value is at or below the fresh refined oil limit
@@ -63,7 +68,12 @@ export function flagLabExcess(
 /** A measured density outside the range of liquid vegetable oil; water, other fats or mineral oil move it. */
 export function flagDensityRange(lots: readonly LotFact[], minKgM3: number, maxKgM3: number): Flag[] {
   return lots
-    .filter((l) => l.densityMeasured && VEGETABLE_OIL_MATERIALS.has(l.material) && (l.densityKgM3 < minKgM3 || l.densityKgM3 > maxKgM3))
+    .filter(
+      (l) =>
+        l.densityMeasured &&
+        VEGETABLE_OIL_MATERIALS.has(l.material) &&
+        (l.densityKgM3 < minKgM3 || l.densityKgM3 > maxKgM3),
+    )
     .map((l) => ({
       signal: "DENSITY_RANGE",
       subjectKey: l.code,

@@ -9,7 +9,12 @@ const DAY_MS = 86_400_000;
  * The first point where the median of the next `window` values differs from the median of the
  * 3 × window values before it by more than `ratio` (either way). Returns its index and both medians.
  */
-export function findShift(values: readonly number[], window: number, ratio: number, minChange = 0): { index: number; before: number; after: number } | null {
+export function findShift(
+  values: readonly number[],
+  window: number,
+  ratio: number,
+  minChange = 0,
+): { index: number; before: number; after: number } | null {
   for (let i = 3 * window; i + window <= values.length; i++) {
     const before = median(values.slice(i - 3 * window, i));
     const after = median(values.slice(i, i + window));
@@ -21,7 +26,11 @@ export function findShift(values: readonly number[], window: number, ratio: numb
 }
 
 export function flagLevelShift(pickups: readonly PickupFact[], window: number, ratio: number): Flag[] {
-  const shift = findShift(pickups.map((p) => p.litres), window, ratio);
+  const shift = findShift(
+    pickups.map((p) => p.litres),
+    window,
+    ratio,
+  );
   if (shift === null) return [];
   const first = pickups[shift.index] as PickupFact;
   const involved = pickups.slice(shift.index, shift.index + window);
@@ -39,7 +48,12 @@ export function flagLevelShift(pickups: readonly PickupFact[], window: number, r
 }
 
 /** A sudden change of interval, by ratio and by at least minDays: a daily route slipping a day over a weekend is normal. */
-export function flagIntervalShift(pickups: readonly PickupFact[], window: number, ratio: number, minDays: number): Flag[] {
+export function flagIntervalShift(
+  pickups: readonly PickupFact[],
+  window: number,
+  ratio: number,
+  minDays: number,
+): Flag[] {
   const gaps = pickups.slice(1).map((p, i) => (p.at - (pickups[i] as PickupFact).at) / DAY_MS);
   const shift = findShift(gaps, window, ratio, minDays);
   if (shift === null) return [];
@@ -75,7 +89,12 @@ function clock(hour: number): string {
   return `${String(h).padStart(2, "0")}:${String(m).padStart(2, "0")}`;
 }
 
-export function flagOffHours(pickups: readonly PickupFact[], opens: number | null, closes: number | null, margin: number): Flag[] {
+export function flagOffHours(
+  pickups: readonly PickupFact[],
+  opens: number | null,
+  closes: number | null,
+  margin: number,
+): Flag[] {
   if (opens === null || closes === null) return [];
   return pickups
     .filter((p) => !withinHours(p.localHour, opens, closes, margin))

@@ -4,7 +4,12 @@ import { flagIntervalShift, flagLevelShift, flagOffHours, flagPhoneFar } from "@
 import { monthlyVolumes } from "@/lib/screening/screening";
 import type { Flag, SourceFacts } from "@/lib/screening/screening";
 import type { ScreeningSettings } from "@/lib/screening/screening-defaults";
-import { flagCertifiedOverCapacity, flagOverCapacity, flagOwnHistory, flagPeerGroup } from "@/lib/screening/volume-signals";
+import {
+  flagCertifiedOverCapacity,
+  flagOverCapacity,
+  flagOwnHistory,
+  flagPeerGroup,
+} from "@/lib/screening/volume-signals";
 
 export interface ScreenContext {
   settings: ScreeningSettings;
@@ -17,7 +22,9 @@ export interface ScreenContext {
 /** Litres per local month of every source, by kind: built once per run; a source's peers are the others. */
 export type KindMonths = Map<string, Map<string, Array<{ code: string; litres: number }>>>;
 
-export function indexKindMonths(sources: ReadonlyArray<{ code: string; kind: string; months: ReadonlyArray<{ month: string; litres: number }> }>): KindMonths {
+export function indexKindMonths(
+  sources: ReadonlyArray<{ code: string; kind: string; months: ReadonlyArray<{ month: string; litres: number }> }>,
+): KindMonths {
   const out: KindMonths = new Map();
   for (const s of sources) {
     const byMonth = out.get(s.kind) ?? new Map<string, Array<{ code: string; litres: number }>>();
@@ -33,7 +40,11 @@ export function indexKindMonths(sources: ReadonlyArray<{ code: string; kind: str
 
 export function peersOf(index: KindMonths, kind: string, code: string): Map<string, number[]> {
   const out = new Map<string, number[]>();
-  for (const [month, list] of index.get(kind) ?? []) out.set(month, list.filter((x) => x.code !== code).map((x) => x.litres));
+  for (const [month, list] of index.get(kind) ?? [])
+    out.set(
+      month,
+      list.filter((x) => x.code !== code).map((x) => x.litres),
+    );
   return out;
 }
 
@@ -44,14 +55,22 @@ export function screenSource(f: SourceFacts, ctx: ScreenContext): Flag[] {
   const floor = s.madFloorShare.value;
   const minHistory = s.minHistory.value;
   const lots = [...f.lots].sort((a, b) => a.at - b.at);
-  const certificate = f.certificateNo !== null && f.certificateExpires !== null ? { no: f.certificateNo, expires: f.certificateExpires, months: s.certificateMonths.value } : null;
+  const certificate =
+    f.certificateNo !== null && f.certificateExpires !== null
+      ? { no: f.certificateNo, expires: f.certificateExpires, months: s.certificateMonths.value }
+      : null;
   return [
     ...flagOverCapacity(months, f.capacity, s.capacityRatio.value),
     ...flagOwnHistory(months, z, floor, minHistory),
     ...flagPeerGroup(months, ctx.peerLitres, ctx.kindLabel, z, s.minPeers.value),
     ...flagFreshOil(lots, s.freshAcidValue.value),
     ...flagLabExcess(lots, "waterPct", { z, floorShare: floor, minHistory, minExcess: s.waterExcessPct.value }),
-    ...flagLabExcess(lots, "insolublesPct", { z, floorShare: floor, minHistory, minExcess: s.insolublesExcessPct.value }),
+    ...flagLabExcess(lots, "insolublesPct", {
+      z,
+      floorShare: floor,
+      minHistory,
+      minExcess: s.insolublesExcessPct.value,
+    }),
     ...flagDensityRange(lots, s.densityMinKgM3.value, s.densityMaxKgM3.value),
     ...flagLevelShift(f.pickups, s.shiftWindow.value, s.shiftRatio.value),
     ...flagIntervalShift(f.pickups, s.shiftWindow.value, s.shiftRatio.value, s.intervalMinDays.value),

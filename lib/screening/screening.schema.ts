@@ -15,7 +15,12 @@ const num = (what: string, min: number, max: number, unit: string) =>
     .number({ error: `${what} must be a number` })
     .min(min, `${what} must be at least ${min} ${unit}`)
     .max(max, `${what} must be at most ${max} ${unit}`);
-const hour = (what: string) => z.number({ error: `${what} must be an hour` }).int(`${what} must be a whole hour`).min(0, `${what} must be 0–24`).max(24, `${what} must be 0–24`);
+const hour = (what: string) =>
+  z
+    .number({ error: `${what} must be an hour` })
+    .int(`${what} must be a whole hour`)
+    .min(0, `${what} must be 0–24`)
+    .max(24, `${what} must be 0–24`);
 
 /** What a source can plausibly give, as declared to compliance. */
 export const SourceProfileSchema = z
@@ -35,17 +40,34 @@ export const SourceProfileSchema = z
     opensHour: hour("Opens at").optional(),
     closesHour: hour("Closes at").optional(),
   })
-  .refine((s) => s.capacityBasis !== "FRYERS" || (s.fryers !== undefined && s.fryerLitres !== undefined && s.changesPerWeek !== undefined), {
-    message: "Fryers: give the number of fryers, litres per fryer and oil changes a week",
-    path: ["fryers"],
+  .refine(
+    (s) =>
+      s.capacityBasis !== "FRYERS" ||
+      (s.fryers !== undefined && s.fryerLitres !== undefined && s.changesPerWeek !== undefined),
+    {
+      message: "Fryers: give the number of fryers, litres per fryer and oil changes a week",
+      path: ["fryers"],
+    },
+  )
+  .refine((s) => s.capacityBasis !== "MONTHLY" || s.declaredLitresPerMonth !== undefined, {
+    message: "Declared volume: give the litres a month",
+    path: ["declaredLitresPerMonth"],
   })
-  .refine((s) => s.capacityBasis !== "MONTHLY" || s.declaredLitresPerMonth !== undefined, { message: "Declared volume: give the litres a month", path: ["declaredLitresPerMonth"] })
-  .refine((s) => s.capacityBasis === undefined || (s.capacityDeclaredAt !== undefined && (s.capacityDeclaredBy ?? "") !== ""), {
-    message: "Declared by: say who declared the capacity and when",
-    path: ["capacityDeclaredBy"],
+  .refine(
+    (s) => s.capacityBasis === undefined || (s.capacityDeclaredAt !== undefined && (s.capacityDeclaredBy ?? "") !== ""),
+    {
+      message: "Declared by: say who declared the capacity and when",
+      path: ["capacityDeclaredBy"],
+    },
+  )
+  .refine((s) => (s.latitude === undefined) === (s.longitude === undefined), {
+    message: "Longitude: give both latitude and longitude, or neither",
+    path: ["longitude"],
   })
-  .refine((s) => (s.latitude === undefined) === (s.longitude === undefined), { message: "Longitude: give both latitude and longitude, or neither", path: ["longitude"] })
-  .refine((s) => (s.opensHour === undefined) === (s.closesHour === undefined), { message: "Closes at: give both opening and closing hours, or neither", path: ["closesHour"] });
+  .refine((s) => (s.opensHour === undefined) === (s.closesHour === undefined), {
+    message: "Closes at: give both opening and closing hours, or neither",
+    path: ["closesHour"],
+  });
 export type SourceProfileInput = z.input<typeof SourceProfileSchema>;
 export type SourceProfile = z.output<typeof SourceProfileSchema>;
 
@@ -53,7 +75,10 @@ export type SourceProfile = z.output<typeof SourceProfileSchema>;
 export const ScreenPeriodSchema = z
   .object({ from: when("From"), to: when("To") })
   .refine((p) => p.to > p.from, { message: "To: must be after From", path: ["to"] })
-  .refine((p) => p.to.getTime() - p.from.getTime() <= MAX_SCREEN_DAYS * 86_400_000, { message: `To: a screen covers at most ${MAX_SCREEN_DAYS} days`, path: ["to"] });
+  .refine((p) => p.to.getTime() - p.from.getTime() <= MAX_SCREEN_DAYS * 86_400_000, {
+    message: `To: a screen covers at most ${MAX_SCREEN_DAYS} days`,
+    path: ["to"],
+  });
 export type ScreenPeriodInput = z.input<typeof ScreenPeriodSchema>;
 
 /** Compliance's decision on a flag. Confirming may put the source on watch, hold its lots and withhold its certified credit. */
@@ -66,7 +91,10 @@ export const FlagDecisionSchema = z
     holdLots: z.boolean().default(false),
     withholdCredit: z.boolean().default(false),
   })
-  .refine((d) => d.decision !== "DISMISS" || d.reason.trim() !== "", { message: "Reason: say why the flag is dismissed", path: ["reason"] });
+  .refine((d) => d.decision !== "DISMISS" || d.reason.trim() !== "", {
+    message: "Reason: say why the flag is dismissed",
+    path: ["reason"],
+  });
 export type FlagDecisionInput = z.input<typeof FlagDecisionSchema>;
 
 /** Clearing a source: watch lifted, credit released, held lots returned to their status. */

@@ -15,7 +15,13 @@ import type { Flag, LotFact, PickupFact, SourceFacts } from "@/lib/screening/scr
 import { DEFAULT_SCREENING_SETTINGS } from "@/lib/screening/screening-defaults";
 import type { ScreeningSettings } from "@/lib/screening/screening-defaults";
 import { ScreenPeriodSchema } from "@/lib/screening/screening.schema";
-import { findSourceIdsOf, listScreenLots, listScreenPickups, listScreenSources, saveFlags } from "@/lib/screening/screening.store";
+import {
+  findSourceIdsOf,
+  listScreenLots,
+  listScreenPickups,
+  listScreenSources,
+  saveFlags,
+} from "@/lib/screening/screening.store";
 import type { LotScreenRow, PickupScreenRow, SourceScreenRow } from "@/lib/screening/screening.store";
 import { indexKindMonths, peersOf, screenSource } from "@/lib/screening/screen-source";
 import { getSiteById } from "@/lib/site/site.store";
@@ -34,7 +40,14 @@ export interface ScreenOutcome {
 }
 
 function localClock(timeZone: string): (d: Date) => { month: string; monthLabel: string; hour: number } {
-  const parts = new Intl.DateTimeFormat("en-GB", { timeZone, year: "numeric", month: "2-digit", hour: "2-digit", minute: "2-digit", hourCycle: "h23" });
+  const parts = new Intl.DateTimeFormat("en-GB", {
+    timeZone,
+    year: "numeric",
+    month: "2-digit",
+    hour: "2-digit",
+    minute: "2-digit",
+    hourCycle: "h23",
+  });
   const names = new Intl.DateTimeFormat("en-GB", { timeZone: "UTC", year: "numeric", month: "long" });
   const labels = new Map<string, string>();
   return (d) => {
@@ -49,24 +62,72 @@ function localClock(timeZone: string): (d: Date) => { month: string; monthLabel:
   };
 }
 
-function toFacts(s: SourceScreenRow, pickups: readonly PickupScreenRow[], lots: readonly LotScreenRow[], clock: ReturnType<typeof localClock>): SourceFacts {
+function toFacts(
+  s: SourceScreenRow,
+  pickups: readonly PickupScreenRow[],
+  lots: readonly LotScreenRow[],
+  clock: ReturnType<typeof localClock>,
+): SourceFacts {
   const expires = s.certificateExpires?.getTime() ?? null;
   const pickupFacts: PickupFact[] = pickups.map((p) => {
     const c = clock(p.observedAt);
     const at = p.observedAt.getTime();
-    const certified = p.lot !== null && p.lot.certified && s.certificateNo !== null && (expires === null || at < expires);
-    return { code: p.code, at, month: c.month, monthLabel: c.monthLabel, localHour: c.hour, litres: p.volumeMl / 1000, lotCode: p.lot?.code ?? null, distanceBand: p.phoneDistanceBand, certified };
+    const certified =
+      p.lot !== null && p.lot.certified && s.certificateNo !== null && (expires === null || at < expires);
+    return {
+      code: p.code,
+      at,
+      month: c.month,
+      monthLabel: c.monthLabel,
+      localHour: c.hour,
+      litres: p.volumeMl / 1000,
+      lotCode: p.lot?.code ?? null,
+      distanceBand: p.phoneDistanceBand,
+      certified,
+    };
   });
   const lotFacts: LotFact[] = lots.map((l) => ({
-    code: l.code, at: l.receivedAt.getTime(), material: l.material, acidValue: l.acidValue, waterPct: l.waterPct, insolublesPct: l.insolublesPct,
-    densityKgM3: l.densityKgM3, densityMeasured: !l.densitySource.startsWith("table"),
+    code: l.code,
+    at: l.receivedAt.getTime(),
+    material: l.material,
+    acidValue: l.acidValue,
+    waterPct: l.waterPct,
+    insolublesPct: l.insolublesPct,
+    densityKgM3: l.densityKgM3,
+    densityMeasured: !l.densitySource.startsWith("table"),
   }));
-  const capacity = s.capacityBasis === null ? null : { basis: s.capacityBasis as CapacityBasis, fryers: s.fryers, fryerLitres: s.fryerLitres, changesPerWeek: s.changesPerWeek, declaredLitresPerMonth: s.declaredLitresPerMonth };
-  return { code: s.code, kind: s.kind, capacity, opensHour: s.opensHour, closesHour: s.closesHour, certificateNo: s.certificateNo, certificateExpires: expires, pickups: pickupFacts, lots: lotFacts };
+  const capacity =
+    s.capacityBasis === null
+      ? null
+      : {
+          basis: s.capacityBasis as CapacityBasis,
+          fryers: s.fryers,
+          fryerLitres: s.fryerLitres,
+          changesPerWeek: s.changesPerWeek,
+          declaredLitresPerMonth: s.declaredLitresPerMonth,
+        };
+  return {
+    code: s.code,
+    kind: s.kind,
+    capacity,
+    opensHour: s.opensHour,
+    closesHour: s.closesHour,
+    certificateNo: s.certificateNo,
+    certificateExpires: expires,
+    pickups: pickupFacts,
+    lots: lotFacts,
+  };
 }
 
 /** Screens the given sources (null: all) over [from, to); peers are the other sources of each kind. */
-export async function runScreen(db: Db, actor: Actor, sourceIds: readonly number[] | null, from: Date, to: Date, settings: ScreeningSettings = DEFAULT_SCREENING_SETTINGS): Promise<ScreenOutcome> {
+export async function runScreen(
+  db: Db,
+  actor: Actor,
+  sourceIds: readonly number[] | null,
+  from: Date,
+  to: Date,
+  settings: ScreeningSettings = DEFAULT_SCREENING_SETTINGS,
+): Promise<ScreenOutcome> {
   const started = performance.now();
   const site = await getSiteById(db, actor.siteId);
   const clock = localClock(site?.timeZone ?? "UTC");
@@ -74,20 +135,44 @@ export async function runScreen(db: Db, actor: Actor, sourceIds: readonly number
   const wanted = sourceIds === null ? sources : sources.filter((s) => sourceIds.includes(s.id));
   const kinds = new Set(wanted.map((s) => s.kind));
   const loadIds = sourceIds === null ? null : sources.filter((s) => kinds.has(s.kind)).map((s) => s.id);
-  const [pickups, lots] = await Promise.all([listScreenPickups(db, actor.siteId, loadIds, from, to), listScreenLots(db, actor.siteId, from, to)]);
+  const [pickups, lots] = await Promise.all([
+    listScreenPickups(db, actor.siteId, loadIds, from, to),
+    listScreenLots(db, actor.siteId, from, to),
+  ]);
   const pickupsBy = groupBy(pickups, (p) => [p.sourceId]);
-  const lotsBy = groupBy(lots, (l) => [...new Set([...(l.supplierId === null ? [] : [l.supplierId]), ...l.mainSourceIds])]);
-  const facts = new Map(sources.filter((s) => loadIds === null || loadIds.includes(s.id)).map((s) => [s.id, toFacts(s, pickupsBy.get(s.id) ?? [], lotsBy.get(s.id) ?? [], clock)]));
-  const index = indexKindMonths([...facts.values()].map((f) => ({ code: f.code, kind: f.kind, months: monthlyVolumes(f.pickups) })));
+  const lotsBy = groupBy(lots, (l) => [
+    ...new Set([...(l.supplierId === null ? [] : [l.supplierId]), ...l.mainSourceIds]),
+  ]);
+  const facts = new Map(
+    sources
+      .filter((s) => loadIds === null || loadIds.includes(s.id))
+      .map((s) => [s.id, toFacts(s, pickupsBy.get(s.id) ?? [], lotsBy.get(s.id) ?? [], clock)]),
+  );
+  const index = indexKindMonths(
+    [...facts.values()].map((f) => ({ code: f.code, kind: f.kind, months: monthlyVolumes(f.pickups) })),
+  );
   const raised: Array<{ sourceId: number; flag: Flag }> = [];
   for (const s of wanted) {
     const f = facts.get(s.id);
     if (f === undefined) continue;
-    for (const flag of screenSource(f, { settings, now: actor.now.getTime(), peerLitres: peersOf(index, s.kind, s.code), kindLabel: labelOf(s.kind) })) raised.push({ sourceId: s.id, flag });
+    for (const flag of screenSource(f, {
+      settings,
+      now: actor.now.getTime(),
+      peerLitres: peersOf(index, s.kind, s.code),
+      kindLabel: labelOf(s.kind),
+    }))
+      raised.push({ sourceId: s.id, flag });
   }
   const created = await runInTransaction(db, (tx) => saveFlags(tx, actor.siteId, raised, actor.now));
   if (!created.ok) throw new Error(created.issues.map((i) => i.message).join("; "));
-  return { sources: wanted.length, pickups: pickups.length, lots: lots.length, raised: raised.length, created: created.value, computeMs: Math.round(performance.now() - started) };
+  return {
+    sources: wanted.length,
+    pickups: pickups.length,
+    lots: lots.length,
+    raised: raised.length,
+    created: created.value,
+    computeMs: Math.round(performance.now() - started),
+  };
 }
 
 function groupBy<T>(rows: readonly T[], keys: (row: T) => number[]): Map<number, T[]> {
@@ -102,7 +187,12 @@ export async function screenPeriod(db: Db, actor: Actor, input: unknown): Promis
   if (!parsed.ok) return parsed;
   const outcome = await runScreen(db, actor, null, parsed.value.from, parsed.value.to);
   const audited = await runInTransaction(db, (tx) =>
-    appendAudit(tx, actor, { action: "CREATE", entity: "Screening", entityKey: `${parsed.value.from.toISOString()}/${parsed.value.to.toISOString()}`, after: outcome }),
+    appendAudit(tx, actor, {
+      action: "CREATE",
+      entity: "Screening",
+      entityKey: `${parsed.value.from.toISOString()}/${parsed.value.to.toISOString()}`,
+      after: outcome,
+    }),
   );
   if (!audited.ok) return audited;
   return ok(outcome);
@@ -112,7 +202,11 @@ export async function screenPeriod(db: Db, actor: Actor, input: unknown): Promis
  * After a pickup, lot or lab result is recorded: screen only the sources behind it, over the last
  * TRIGGERED_WINDOW_MONTHS. A failure here is logged and never undoes the record already saved.
  */
-export async function screenAfterRecord(db: Db, actor: Actor, subject: { pickupCodes?: readonly string[]; lotCodes?: readonly string[] }): Promise<void> {
+export async function screenAfterRecord(
+  db: Db,
+  actor: Actor,
+  subject: { pickupCodes?: readonly string[]; lotCodes?: readonly string[] },
+): Promise<void> {
   try {
     const ids = await findSourceIdsOf(db, actor.siteId, subject.pickupCodes ?? [], subject.lotCodes ?? []);
     if (ids.length === 0) return;
@@ -120,7 +214,10 @@ export async function screenAfterRecord(db: Db, actor: Actor, subject: { pickupC
     from.setUTCMonth(from.getUTCMonth() - TRIGGERED_WINDOW_MONTHS);
     await runScreen(db, actor, ids, from, new Date(actor.now.getTime() + 86_400_000));
   } catch (error) {
-    log.warn({ event: "screening.after-record", err: error, subject }, "screening after a record failed; the record itself is saved");
+    log.warn(
+      { event: "screening.after-record", err: error, subject },
+      "screening after a record failed; the record itself is saved",
+    );
   }
 }
 

@@ -3,8 +3,18 @@
 import type { DeclaredCapacity } from "@/lib/screening/capacity";
 
 export const SIGNALS = [
-  "OVER_CAPACITY", "OWN_HISTORY", "PEER_GROUP", "FRESH_OIL", "WATER_HIGH", "INSOLUBLES_HIGH", "DENSITY_RANGE",
-  "LEVEL_SHIFT", "INTERVAL_SHIFT", "OFF_HOURS", "PHONE_FAR", "CERTIFIED_OVER_CAPACITY",
+  "OVER_CAPACITY",
+  "OWN_HISTORY",
+  "PEER_GROUP",
+  "FRESH_OIL",
+  "WATER_HIGH",
+  "INSOLUBLES_HIGH",
+  "DENSITY_RANGE",
+  "LEVEL_SHIFT",
+  "INTERVAL_SHIFT",
+  "OFF_HOURS",
+  "PHONE_FAR",
+  "CERTIFIED_OVER_CAPACITY",
 ] as const;
 export type Signal = (typeof SIGNALS)[number];
 

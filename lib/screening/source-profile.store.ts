@@ -22,9 +22,22 @@ export interface SourceProfileRow {
 }
 
 const SELECT = {
-  id: true, kind: true, capacityBasis: true, fryers: true, fryerLitres: true, changesPerWeek: true, declaredLitresPerMonth: true,
-  capacityDeclaredAt: true, capacityDeclaredBy: true, pickupEveryDays: true, latitude: true, longitude: true, opensHour: true, closesHour: true,
-  onWatch: true, creditWithheld: true,
+  id: true,
+  kind: true,
+  capacityBasis: true,
+  fryers: true,
+  fryerLitres: true,
+  changesPerWeek: true,
+  declaredLitresPerMonth: true,
+  capacityDeclaredAt: true,
+  capacityDeclaredBy: true,
+  pickupEveryDays: true,
+  latitude: true,
+  longitude: true,
+  opensHour: true,
+  closesHour: true,
+  onWatch: true,
+  creditWithheld: true,
 } as const;
 
 export async function getSourceProfile(tx: Tx | Db, siteId: number, code: string): Promise<SourceProfileRow | null> {

@@ -6,7 +6,11 @@ import { oneDecimal, wholeNumber } from "@/lib/screening/screening";
 import type { Flag, MonthVolume } from "@/lib/screening/screening";
 
 /** A month above ratio × the declared capacity. */
-export function flagOverCapacity(months: readonly MonthVolume[], capacity: DeclaredCapacity | null, ratio: number): Flag[] {
+export function flagOverCapacity(
+  months: readonly MonthVolume[],
+  capacity: DeclaredCapacity | null,
+  ratio: number,
+): Flag[] {
   const cap = plausibleLitresPerMonth(capacity);
   if (cap === null || cap <= 0) return [];
   return months
@@ -30,7 +34,12 @@ export function flagOverCapacity(months: readonly MonthVolume[], capacity: Decla
  * 1.4826 × MAD (Hampel 1974; Rousseeuw & Croux 1993), flagged above z (Iglewicz & Hoaglin 1993: 3.5).
  * Only the high side: less oil than usual is no sign of oil from elsewhere.
  */
-export function flagOwnHistory(months: readonly MonthVolume[], z: number, floorShare: number, minHistory: number): Flag[] {
+export function flagOwnHistory(
+  months: readonly MonthVolume[],
+  z: number,
+  floorShare: number,
+  minHistory: number,
+): Flag[] {
   if (months.length < minHistory + 1) return [];
   const flags: Flag[] = [];
   months.forEach((m, i) => {

@@ -2,7 +2,12 @@
 import type { DomainIssue, Result } from "@/lib/errors";
 import { failMany, ok } from "@/lib/errors";
 import type { DensityEntry } from "@/lib/quantity/density";
-import { DEFAULT_REFERENCE_TEMP_C, massFromObserved, observedVolumeFromMass, standardVolume } from "@/lib/quantity/density";
+import {
+  DEFAULT_REFERENCE_TEMP_C,
+  massFromObserved,
+  observedVolumeFromMass,
+  standardVolume,
+} from "@/lib/quantity/density";
 import { toGrams, toMillilitres } from "@/lib/quantity/units";
 
 export interface LineQuantityInput {
@@ -33,15 +38,23 @@ function issue(field: string, message: string): DomainIssue {
 export function lineQuantity(line: LineQuantityInput, entry: DensityEntry): Result<LineQuantity> {
   if (line.massKg !== undefined) {
     const massG = toGrams(line.massKg);
-    if (line.volumeL !== undefined) return ok({ massG, volumeMl: toMillilitres(line.volumeL), tempC: line.tempC ?? null, basis: "MASS" });
+    if (line.volumeL !== undefined)
+      return ok({ massG, volumeMl: toMillilitres(line.volumeL), tempC: line.tempC ?? null, basis: "MASS" });
     const v = observedVolumeFromMass({ massKg: line.massKg, observedTempC: DEFAULT_REFERENCE_TEMP_C, entry });
     if (!v.ok) return failMany(v.issues.map((i) => issue("massKg", i.message)));
     return ok({ massG, volumeMl: v.value.volumeMl, tempC: null, basis: "MASS" });
   }
-  if (line.volumeL === undefined) return failMany([issue("massKg", "Quantity is required (kg, or litres with the temperature)")]);
-  if (line.tempC === undefined) return failMany([issue("tempC", "Temperature (°C) is needed to turn litres into kilograms")]);
+  if (line.volumeL === undefined)
+    return failMany([issue("massKg", "Quantity is required (kg, or litres with the temperature)")]);
+  if (line.tempC === undefined)
+    return failMany([issue("tempC", "Temperature (°C) is needed to turn litres into kilograms")]);
   const m = massFromObserved({ observedVolumeL: line.volumeL, observedTempC: line.tempC, entry });
-  const s = standardVolume({ observedVolumeL: line.volumeL, observedTempC: line.tempC, entry, referenceTempC: DEFAULT_REFERENCE_TEMP_C });
+  const s = standardVolume({
+    observedVolumeL: line.volumeL,
+    observedTempC: line.tempC,
+    entry,
+    referenceTempC: DEFAULT_REFERENCE_TEMP_C,
+  });
   if (!m.ok) return failMany(m.issues.map((i) => issue("tempC", i.message)));
   if (!s.ok) return failMany(s.issues.map((i) => issue("tempC", i.message)));
   if (m.value.massG <= 0) return failMany([issue("volumeL", "Quantity is too small to book (under 1 g)")]);
@@ -49,7 +62,10 @@ export function lineQuantity(line: LineQuantityInput, entry: DensityEntry): Resu
 }
 
 /** The shipment's mass and volume: the sums of its lines (integer grams and millilitres, exact). */
-export function shipmentTotals(lines: ReadonlyArray<{ massG: number; volumeMl: number }>): { massG: number; volumeMl: number } {
+export function shipmentTotals(lines: ReadonlyArray<{ massG: number; volumeMl: number }>): {
+  massG: number;
+  volumeMl: number;
+} {
   let massG = 0;
   let volumeMl = 0;
   for (const l of lines) {

@@ -17,8 +17,14 @@ export const ShipmentLineSchema = z
     volumeL: volumeL("Quantity").optional(),
     tempC: tempC("Temperature").optional(),
   })
-  .refine((l) => l.massKg !== undefined || l.volumeL !== undefined, { message: "Quantity is required (kg, or litres with the temperature)", path: ["massKg"] })
-  .refine((l) => l.massKg !== undefined || l.volumeL === undefined || l.tempC !== undefined, { message: "Temperature (°C) is needed to turn litres into kilograms", path: ["tempC"] });
+  .refine((l) => l.massKg !== undefined || l.volumeL !== undefined, {
+    message: "Quantity is required (kg, or litres with the temperature)",
+    path: ["massKg"],
+  })
+  .refine((l) => l.massKg !== undefined || l.volumeL === undefined || l.tempC !== undefined, {
+    message: "Temperature (°C) is needed to turn litres into kilograms",
+    path: ["tempC"],
+  });
 export type ShipmentLineInput = z.input<typeof ShipmentLineSchema>;
 export type ShipmentLine = z.output<typeof ShipmentLineSchema>;
 
@@ -30,7 +36,10 @@ export const ShipmentRecordSchema = z.object({
   compartment: text("Compartment", 60).default(""),
   certifiedClaim: z.boolean({ error: "Certified claim: yes or no" }).default(false),
   note: text("Note", 300).default(""),
-  lines: z.array(ShipmentLineSchema, { error: "Lines: give at least one line" }).min(1, "Lines: give at least one line").max(MAX_SHIPMENT_LINES, `Lines: at most ${MAX_SHIPMENT_LINES} per shipment`),
+  lines: z
+    .array(ShipmentLineSchema, { error: "Lines: give at least one line" })
+    .min(1, "Lines: give at least one line")
+    .max(MAX_SHIPMENT_LINES, `Lines: at most ${MAX_SHIPMENT_LINES} per shipment`),
 });
 export type ShipmentRecordInput = z.input<typeof ShipmentRecordSchema>;
 export type ShipmentRecord = z.output<typeof ShipmentRecordSchema>;

@@ -5,7 +5,14 @@ import type { DomainIssue, Result } from "@/lib/errors";
 import { failMany } from "@/lib/errors";
 import { labelOf } from "@/lib/ledger/kinds";
 import { parseInput } from "@/lib/ledger/parse";
-import { assertPeriodOpen, createHolder, postMovement, reject, Rejection, runInTransaction } from "@/lib/ledger/ledger.store";
+import {
+  assertPeriodOpen,
+  createHolder,
+  postMovement,
+  reject,
+  Rejection,
+  runInTransaction,
+} from "@/lib/ledger/ledger.store";
 import { DEFAULT_DENSITY_TABLE, requireDensityEntry } from "@/lib/quantity/density";
 import type { Actor } from "@/lib/site/actor";
 import { getCustomer } from "@/lib/customer/customer.store";
@@ -15,14 +22,20 @@ import { ShipmentRecordSchema } from "@/lib/shipment/shipment.schema";
 import type { ShipmentLine } from "@/lib/shipment/shipment.schema";
 import { getDrawSource, insertShipmentRecord, shipmentExists } from "@/lib/shipment/shipment.store";
 
-type PricedLine = Pick<ShipmentLine, "fromKind" | "fromCode"> & { quantity: LineQuantity; index: number; qtyField: string };
+type PricedLine = Pick<ShipmentLine, "fromKind" | "fromCode"> & {
+  quantity: LineQuantity;
+  index: number;
+  qtyField: string;
+};
 
 /** "Line 2: " when a shipment has several lines, so a refusal says which one; nothing for a single line. */
 function linePrefix(index: number, count: number): string {
   return count > 1 ? `Line ${index + 1}: ` : "";
 }
 
-function priceLines(lines: readonly ShipmentLine[]): { ok: true; value: PricedLine[] } | { ok: false; issues: DomainIssue[] } {
+function priceLines(
+  lines: readonly ShipmentLine[],
+): { ok: true; value: PricedLine[] } | { ok: false; issues: DomainIssue[] } {
   const fame = requireDensityEntry(DEFAULT_DENSITY_TABLE, "FAME");
   const issues: DomainIssue[] = [];
   const priced: PricedLine[] = [];
@@ -30,7 +43,14 @@ function priceLines(lines: readonly ShipmentLine[]): { ok: true; value: PricedLi
     const q = lineQuantity(l, fame);
     const qtyField = `lines.${index}.${l.massKg === undefined ? "volumeL" : "massKg"}`;
     if (q.ok) priced.push({ fromKind: l.fromKind, fromCode: l.fromCode, quantity: q.value, index, qtyField });
-    else issues.push(...q.issues.map((i) => ({ ...i, message: `${linePrefix(index, lines.length)}${i.message}`, field: `lines.${index}.${i.field ?? "massKg"}` })));
+    else
+      issues.push(
+        ...q.issues.map((i) => ({
+          ...i,
+          message: `${linePrefix(index, lines.length)}${i.message}`,
+          field: `lines.${index}.${i.field ?? "massKg"}`,
+        })),
+      );
   });
   return issues.length > 0 ? { ok: false, issues } : { ok: true, value: priced };
 }
@@ -40,13 +60,29 @@ async function requireShippable(tx: Tx, actor: Actor, l: PricedLine, count: numb
   const field = `lines.${l.index}.fromCode`;
   const p = linePrefix(l.index, count);
   const src = await getDrawSource(tx, actor.siteId, l.fromKind, l.fromCode);
-  if (!src) reject("RECORD.NOT_FOUND", `${p}${l.fromKind === "TANK" ? "Tank" : "Product lot"} ${l.fromCode} does not exist`, field);
+  if (!src)
+    reject(
+      "RECORD.NOT_FOUND",
+      `${p}${l.fromKind === "TANK" ? "Tank" : "Product lot"} ${l.fromCode} does not exist`,
+      field,
+    );
   if (l.fromKind === "PRODUCT_LOT") {
-    if (src.productStatus === "HELD") reject("PRODUCT.ON_HOLD", `${p}Product lot ${l.fromCode} is on hold: it cannot leave the site until it is released`, field);
-    if (src.productStatus === "REJECTED") reject("PRODUCT.REJECTED", `${p}Product lot ${l.fromCode} is rejected: it cannot leave the site`, field);
-    if (src.productStatus !== "RELEASED") reject("PRODUCT.NOT_RELEASED", `${p}Product lot ${l.fromCode} is not released`, field);
+    if (src.productStatus === "HELD")
+      reject(
+        "PRODUCT.ON_HOLD",
+        `${p}Product lot ${l.fromCode} is on hold: it cannot leave the site until it is released`,
+        field,
+      );
+    if (src.productStatus === "REJECTED")
+      reject("PRODUCT.REJECTED", `${p}Product lot ${l.fromCode} is rejected: it cannot leave the site`, field);
+    if (src.productStatus !== "RELEASED")
+      reject("PRODUCT.NOT_RELEASED", `${p}Product lot ${l.fromCode} is not released`, field);
   } else if (src.tankService !== "PRODUCT") {
-    reject("SHIPMENT.NOT_PRODUCT_TANK", `${p}Tank ${l.fromCode} holds ${labelOf(src.tankService ?? "").toLowerCase()}, not finished fuel`, field);
+    reject(
+      "SHIPMENT.NOT_PRODUCT_TANK",
+      `${p}Tank ${l.fromCode} holds ${labelOf(src.tankService ?? "").toLowerCase()}, not finished fuel`,
+      field,
+    );
   }
   return src.holderId;
 }
@@ -56,7 +92,8 @@ async function postLine(tx: Tx, run: () => Promise<number>, prefix: string): Pro
   try {
     return await run();
   } catch (e) {
-    if (e instanceof Rejection && prefix !== "") throw new Rejection(e.issues.map((i) => ({ ...i, message: `${prefix}${i.message}` })));
+    if (e instanceof Rejection && prefix !== "")
+      throw new Rejection(e.issues.map((i) => ({ ...i, message: `${prefix}${i.message}` })));
     throw e;
   }
 }
@@ -65,7 +102,11 @@ async function postLine(tx: Tx, run: () => Promise<number>, prefix: string): Pro
  * Records one shipment to a customer: a shipment holder receives one movement per line, all in one
  * transaction — any refused line (held or rejected lot, over-draw, closed period) leaves nothing written.
  */
-export async function recordShipment(db: Db, actor: Actor, input: unknown): Promise<Result<{ id: number; documentNo: string; massG: number }>> {
+export async function recordShipment(
+  db: Db,
+  actor: Actor,
+  input: unknown,
+): Promise<Result<{ id: number; documentNo: string; massG: number }>> {
   const parsed = parseInput(ShipmentRecordSchema, input);
   if (!parsed.ok) return parsed;
   const s = parsed.value;
@@ -75,24 +116,70 @@ export async function recordShipment(db: Db, actor: Actor, input: unknown): Prom
   const totals = shipmentTotals(priced.map((l) => l.quantity));
   return runInTransaction(db, async (tx) => {
     await assertPeriodOpen(tx, actor.siteId, s.shippedAt, "shippedAt");
-    if (await shipmentExists(tx, actor.siteId, s.documentNo)) reject("RECORD.DUPLICATE", `Document number ${s.documentNo} is already used by another shipment`, "documentNo");
+    if (await shipmentExists(tx, actor.siteId, s.documentNo))
+      reject("RECORD.DUPLICATE", `Document number ${s.documentNo} is already used by another shipment`, "documentNo");
     const customer = await getCustomer(tx, actor.siteId, s.customerCode);
     if (!customer) reject("RECORD.NOT_FOUND", `Customer ${s.customerCode} does not exist`, "customerCode");
-    if (!customer.active) reject("CUSTOMER.INACTIVE", `Customer ${customer.name} is no longer active; reactivate the customer first`, "customerCode");
+    if (!customer.active)
+      reject(
+        "CUSTOMER.INACTIVE",
+        `Customer ${customer.name} is no longer active; reactivate the customer first`,
+        "customerCode",
+      );
     const sources: number[] = [];
     for (const l of priced) sources.push(await requireShippable(tx, actor, l, priced.length));
     const holderId = await createHolder(tx, actor.siteId, "SHIPMENT", s.documentNo, "documentNo");
     const saved = await insertShipmentRecord(tx, {
-      siteId: actor.siteId, holderId, documentNo: s.documentNo, customer: customer.name, customerId: customer.id, shippedAt: s.shippedAt,
-      massG: totals.massG, volumeMl: totals.volumeMl, certifiedClaim: s.certifiedClaim, vehicle: s.vehicle, compartment: s.compartment,
+      siteId: actor.siteId,
+      holderId,
+      documentNo: s.documentNo,
+      customer: customer.name,
+      customerId: customer.id,
+      shippedAt: s.shippedAt,
+      massG: totals.massG,
+      volumeMl: totals.volumeMl,
+      certifiedClaim: s.certifiedClaim,
+      vehicle: s.vehicle,
+      compartment: s.compartment,
     });
     for (const [i, l] of priced.entries()) {
       const fromHolderId = sources[i] ?? 0;
-      await postLine(tx, () => postMovement(tx, { siteId: actor.siteId, at: s.shippedAt, role: "SHIPMENT", fromHolderId, toHolderId: holderId, massG: l.quantity.massG, volumeMl: l.quantity.volumeMl, tempC: l.quantity.tempC, note: s.note, recordedById: actor.userId, field: l.qtyField }), linePrefix(i, priced.length));
+      await postLine(
+        tx,
+        () =>
+          postMovement(tx, {
+            siteId: actor.siteId,
+            at: s.shippedAt,
+            role: "SHIPMENT",
+            fromHolderId,
+            toHolderId: holderId,
+            massG: l.quantity.massG,
+            volumeMl: l.quantity.volumeMl,
+            tempC: l.quantity.tempC,
+            note: s.note,
+            recordedById: actor.userId,
+            field: l.qtyField,
+          }),
+        linePrefix(i, priced.length),
+      );
     }
     await appendAudit(tx, actor, {
-      action: "CREATE", entity: "Shipment", entityKey: s.documentNo,
-      after: { ...s, customer: customer.name, massG: totals.massG, volumeMl: totals.volumeMl, lines: priced.map((l) => ({ fromKind: l.fromKind, fromCode: l.fromCode, massG: l.quantity.massG, volumeMl: l.quantity.volumeMl, tempC: l.quantity.tempC })) },
+      action: "CREATE",
+      entity: "Shipment",
+      entityKey: s.documentNo,
+      after: {
+        ...s,
+        customer: customer.name,
+        massG: totals.massG,
+        volumeMl: totals.volumeMl,
+        lines: priced.map((l) => ({
+          fromKind: l.fromKind,
+          fromCode: l.fromCode,
+          massG: l.quantity.massG,
+          volumeMl: l.quantity.volumeMl,
+          tempC: l.quantity.tempC,
+        })),
+      },
     });
     return { ...saved, massG: totals.massG };
   });

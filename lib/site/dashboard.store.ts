@@ -7,7 +7,12 @@ import type { LotRow } from "@/lib/feedstock/lot.store";
 import { getPeriodAt } from "@/lib/period/period.store";
 import type { PeriodRow } from "@/lib/period/period.store";
 import { getLocalDate, getMonthPeriod } from "@/lib/mass-balance/period";
-import { DEFAULT_DENSITY_TABLE, DEFAULT_REFERENCE_TEMP_C, densityAt, requireDensityEntry } from "@/lib/quantity/density";
+import {
+  DEFAULT_DENSITY_TABLE,
+  DEFAULT_REFERENCE_TEMP_C,
+  densityAt,
+  requireDensityEntry,
+} from "@/lib/quantity/density";
 import type { MaterialKind } from "@/lib/quantity/density";
 import { listTanks } from "@/lib/tank/tank.store";
 import type { TankRow } from "@/lib/tank/tank.store";
@@ -67,7 +72,14 @@ export interface Dashboard {
   wasteOnSite: WasteContainerRow[];
   currentPeriod: Omit<PeriodRow, "movements" | "lastEvent"> | null;
   month: { label: string; startsAt: Date; endsAt: Date };
-  counts: { sources: number; pickupsThisMonth: number; lots: number; batches: number; productLots: number; shipments: number };
+  counts: {
+    sources: number;
+    pickupsThisMonth: number;
+    lots: number;
+    batches: number;
+    productLots: number;
+    shipments: number;
+  };
 }
 
 export async function getDashboard(db: Db, site: { id: number; timeZone: string }, now: Date): Promise<Dashboard> {
@@ -76,7 +88,19 @@ export async function getDashboard(db: Db, site: { id: number; timeZone: string 
   const local = getLocalDate(now.getTime(), offset);
   const month = getMonthPeriod(local.year, local.month, offset);
   const monthRange = { gte: new Date(month.startMs), lt: new Date(month.endMs) };
-  const [tanks, quarantined, inProgress, wasteOnSite, currentPeriod, sources, pickupsThisMonth, lots, batches, productLots, shipments] = await Promise.all([
+  const [
+    tanks,
+    quarantined,
+    inProgress,
+    wasteOnSite,
+    currentPeriod,
+    sources,
+    pickupsThisMonth,
+    lots,
+    batches,
+    productLots,
+    shipments,
+  ] = await Promise.all([
     listTankLevels(db, siteId),
     listLots(db, siteId, { status: "QUARANTINED", take: 15 }),
     listBatches(db, siteId, { statuses: ["PLANNED", "RUNNING"], take: 15 }),

@@ -11,12 +11,28 @@ export interface SiteRow {
   gs1CompanyPrefix: string | null;
 }
 
-export async function insertSite(tx: Tx | Db, s: { code: string; name: string; town: string; timeZone: string }): Promise<SiteRow> {
+export async function insertSite(
+  tx: Tx | Db,
+  s: { code: string; name: string; town: string; timeZone: string },
+): Promise<SiteRow> {
   return tx.site.create({ data: s });
 }
 
-export async function insertUser(tx: Tx | Db, u: { siteId: number; login: string; fullName: string; role: SiteRole; unitSystem?: "metric" | "us"; passwordHash?: string }): Promise<{ id: number }> {
-  return tx.user.create({ data: { ...u, unitSystem: u.unitSystem ?? "metric", passwordHash: u.passwordHash ?? null }, select: { id: true } });
+export async function insertUser(
+  tx: Tx | Db,
+  u: {
+    siteId: number;
+    login: string;
+    fullName: string;
+    role: SiteRole;
+    unitSystem?: "metric" | "us";
+    passwordHash?: string;
+  },
+): Promise<{ id: number }> {
+  return tx.user.create({
+    data: { ...u, unitSystem: u.unitSystem ?? "metric", passwordHash: u.passwordHash ?? null },
+    select: { id: true },
+  });
 }
 
 /** The site shown when no one has chosen one: the first created. */

@@ -9,7 +9,9 @@ export const SourceSchema = z
     code: code("Source code"),
     name: requiredText("Source name", 120),
     kind: oneOf("Source kind", SOURCE_KINDS),
-    materials: z.array(oneOf("Material", MATERIAL_KINDS)).min(1, "Materials: name at least one material this source supplies"),
+    materials: z
+      .array(oneOf("Material", MATERIAL_KINDS))
+      .min(1, "Materials: name at least one material this source supplies"),
     address: text("Address", 200).default(""),
     certificateNo: text("Certificate number", 60).optional(),
     certificateScheme: text("Certificate scheme", 60).optional(),

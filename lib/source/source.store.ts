@@ -25,11 +25,19 @@ export async function insertSource(tx: Tx, siteId: number, s: Source): Promise<{
 }
 
 /** Active source ids for many codes at once; an unknown or inactive code is refused naming its own field. */
-export async function requireSourceIds(tx: Tx, siteId: number, wanted: ReadonlyArray<{ code: string; field: string }>): Promise<Map<string, number>> {
+export async function requireSourceIds(
+  tx: Tx,
+  siteId: number,
+  wanted: ReadonlyArray<{ code: string; field: string }>,
+): Promise<Map<string, number>> {
   const codes = [...new Set(wanted.map((w) => w.code))];
   const found = new Map<string, { id: number; active: boolean }>();
   for (let i = 0; i < codes.length; i += 500) {
-    for (const s of await tx.source.findMany({ where: { siteId, code: { in: codes.slice(i, i + 500) } }, select: { id: true, code: true, active: true } })) found.set(s.code, s);
+    for (const s of await tx.source.findMany({
+      where: { siteId, code: { in: codes.slice(i, i + 500) } },
+      select: { id: true, code: true, active: true },
+    }))
+      found.set(s.code, s);
   }
   for (const w of wanted) {
     const s = found.get(w.code);
@@ -40,7 +48,10 @@ export async function requireSourceIds(tx: Tx, siteId: number, wanted: ReadonlyA
 }
 
 export async function requireSourceId(tx: Tx, siteId: number, code: string, field: string): Promise<number> {
-  const s = await tx.source.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, active: true } });
+  const s = await tx.source.findUnique({
+    where: { siteId_code: { siteId, code } },
+    select: { id: true, active: true },
+  });
   if (!s) reject("RECORD.NOT_FOUND", `Source ${code} does not exist`, field);
   if (!s.active) reject("SOURCE.INACTIVE", `Source ${code} is no longer active`, field);
   return s.id;
@@ -65,7 +76,10 @@ export async function listSources(db: Db, siteId: number): Promise<SourceRow[]> 
   const rows = await db.source.findMany({
     where: { siteId },
     orderBy: { code: "asc" },
-    include: { _count: { select: { pickups: true } }, pickups: { orderBy: { observedAt: "desc" }, take: 1, select: { observedAt: true } } },
+    include: {
+      _count: { select: { pickups: true } },
+      pickups: { orderBy: { observedAt: "desc" }, take: 1, select: { observedAt: true } },
+    },
   });
   return rows.map((r) => ({
     id: r.id,

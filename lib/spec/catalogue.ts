@@ -44,15 +44,37 @@ export function describeEditions(): CatalogueEdition[] {
       for (const p of s.properties) {
         let entry = props.get(p.key);
         if (entry === undefined) {
-          entry = { key: p.key, anchor: sourceAnchor(s.key, p.key), label: p.label, method: p.method, unit: p.unit, limits: [], confidence: p.confidence, sources: [], notes: [] };
+          entry = {
+            key: p.key,
+            anchor: sourceAnchor(s.key, p.key),
+            label: p.label,
+            method: p.method,
+            unit: p.unit,
+            limits: [],
+            confidence: p.confidence,
+            sources: [],
+            notes: [],
+          };
           props.set(p.key, entry);
         }
         merge(entry, p, s.grade);
       }
     }
     const first = specs.find((x) => x.key.startsWith(`${t.key}/`));
-    const rules = t.rules.map((r) => ({ key: r.key, label: r.label, text: first ? ruleText(first, { key: r.key, label: r.label, anyOf: r.anyOf }) : r.label, source: r.source }));
-    return { key: t.key, edition: t.edition, title: t.title, grades: t.grades.map((g) => ({ ...g })), properties: [...props.values()], rules };
+    const rules = t.rules.map((r) => ({
+      key: r.key,
+      label: r.label,
+      text: first ? ruleText(first, { key: r.key, label: r.label, anyOf: r.anyOf }) : r.label,
+      source: r.source,
+    }));
+    return {
+      key: t.key,
+      edition: t.edition,
+      title: t.title,
+      grades: t.grades.map((g) => ({ ...g })),
+      properties: [...props.values()],
+      rules,
+    };
   });
 }
 

@@ -35,7 +35,9 @@ function valueText(value: number, unit: string): string {
   return `${value} ${unit}`.trim();
 }
 
-const WASTE_LABELS: Readonly<Record<Exclude<keyof WasteRuleSet, "id" | "name" | "edition" | "localRulesNote">, string>> = {
+const WASTE_LABELS: Readonly<
+  Record<Exclude<keyof WasteRuleSet, "id" | "name" | "edition" | "localRulesNote">, string>
+> = {
   lqgMaxDays: "Large quantity generator: longest accumulation",
   sqgMaxDays: "Small quantity generator: longest accumulation",
   sqgLongHaulMaxDays: "Small quantity generator, distant facility: longest accumulation",
@@ -70,13 +72,25 @@ const RECIPE_LABELS: Readonly<Record<keyof RecipeDefaults | keyof RecipeLimits, 
 export function wasteDefaults(rules: WasteRuleSet = RULESET_US_FEDERAL_RCRA): DefaultGroup {
   const entries = (Object.keys(WASTE_LABELS) as Array<keyof typeof WASTE_LABELS>).map((k) => {
     const v: RuleValue = rules[k];
-    return { anchor: `waste-${k}`, label: WASTE_LABELS[k], value: valueText(v.value, v.unit), source: screenText(v.source), level: levelOf(v.status) };
+    return {
+      anchor: `waste-${k}`,
+      label: WASTE_LABELS[k],
+      value: valueText(v.value, v.unit),
+      source: screenText(v.source),
+      level: levelOf(v.status),
+    };
   });
   return { key: "waste", title: rules.name, edition: rules.edition, entries };
 }
 
 function sourced(prefix: string, key: string, label: string, v: SourcedValue): DefaultSource {
-  return { anchor: `${prefix}-${key}`, label, value: valueText(v.value, v.unit), source: screenText(v.source), level: levelOf(v.status) };
+  return {
+    anchor: `${prefix}-${key}`,
+    label,
+    value: valueText(v.value, v.unit),
+    source: screenText(v.source),
+    level: levelOf(v.status),
+  };
 }
 
 export function screeningDefaults(): DefaultGroup {
@@ -100,9 +114,19 @@ export function recipeDefaults(): DefaultGroup {
     entries: [
       ...settings.map(([k, v]) => sourced("recipe", k, RECIPE_LABELS[k], v)),
       ...limits.map(([k, v]) => sourced("recipe", k, RECIPE_LABELS[k], v)),
-      sourced("recipe", "acidStepMaxWaterPct", "Highest water in the oil for the acid step", WATER_LIMIT_BY_STEP.ACID_STEP),
+      sourced(
+        "recipe",
+        "acidStepMaxWaterPct",
+        "Highest water in the oil for the acid step",
+        WATER_LIMIT_BY_STEP.ACID_STEP,
+      ),
       sourced("chemistry", "methanolDensity20C", "Methanol density at 20 °C", METHANOL_DENSITY_20C),
-      sourced("chemistry", "kohEquivalentMass", "KOH equivalent mass used in acid value formulas", KOH_EQUIVALENT_MASS_IN_STANDARDS),
+      sourced(
+        "chemistry",
+        "kohEquivalentMass",
+        "KOH equivalent mass used in acid value formulas",
+        KOH_EQUIVALENT_MASS_IN_STANDARDS,
+      ),
     ],
   };
 }

@@ -18,17 +18,26 @@ export const SiteLimitSchema = z.object({ min: limitValue("Lower limit"), max: l
 export type SiteLimit = z.output<typeof SiteLimitSchema>;
 
 /** Changed limits by property key, as stored in SiteSpec.limitsJson. */
-export const SiteLimitsSchema = z.record(z.string().regex(/^[a-z0-9-]{1,60}$/, "Property: unknown property"), SiteLimitSchema);
+export const SiteLimitsSchema = z.record(
+  z.string().regex(/^[a-z0-9-]{1,60}$/, "Property: unknown property"),
+  SiteLimitSchema,
+);
 export type SiteLimits = z.output<typeof SiteLimitsSchema>;
 
 export const SiteSpecInputSchema = z.object({
-  baseKey: z.string({ error: "Copied from: choose a specification edition and grade" }).min(1, "Copied from: choose a specification edition and grade").max(80, "Copied from: choose a specification edition and grade"),
+  baseKey: z
+    .string({ error: "Copied from: choose a specification edition and grade" })
+    .min(1, "Copied from: choose a specification edition and grade")
+    .max(80, "Copied from: choose a specification edition and grade"),
   name: requiredText("Name", MAX_SITE_SPEC_NAME),
   customerId: id("Customer").optional(),
   /** The version this change starts from; absent when the name is new (version 1). */
   previousVersion: z.number({ error: "Version must be a number" }).int().min(1).optional(),
   limits: SiteLimitsSchema.default({}),
-  reason: requiredText("Reason", 300).refine((r) => r.length >= 3, "Reason: say in a few words why the site needs its own limits (at least 3 characters)"),
+  reason: requiredText("Reason", 300).refine(
+    (r) => r.length >= 3,
+    "Reason: say in a few words why the site needs its own limits (at least 3 characters)",
+  ),
 });
 export type SiteSpecInput = z.input<typeof SiteSpecInputSchema>;
 export type SiteSpecParsed = z.output<typeof SiteSpecInputSchema>;

@@ -17,9 +17,29 @@ export interface SiteSpecRow {
   createdAt: Date;
 }
 
-const SELECT = { id: true, name: true, version: true, baseKey: true, customerId: true, limitsJson: true, reason: true, createdById: true, createdAt: true } as const;
+const SELECT = {
+  id: true,
+  name: true,
+  version: true,
+  baseKey: true,
+  customerId: true,
+  limitsJson: true,
+  reason: true,
+  createdById: true,
+  createdAt: true,
+} as const;
 
-type Raw = { id: number; name: string; version: number; baseKey: string; customerId: number | null; limitsJson: string; reason: string; createdById: number; createdAt: Date };
+type Raw = {
+  id: number;
+  name: string;
+  version: number;
+  baseKey: string;
+  customerId: number | null;
+  limitsJson: string;
+  reason: string;
+  createdById: number;
+  createdAt: Date;
+};
 
 /** Stored limits are read back through the same schema they were written with. */
 function readLimits(json: string, id: number): SiteLimits {
@@ -32,8 +52,12 @@ async function decorate(db: Db | Tx, rows: Raw[]): Promise<SiteSpecRow[]> {
   const userIds = [...new Set(rows.map((r) => r.createdById))];
   const customerIds = [...new Set(rows.flatMap((r) => (r.customerId === null ? [] : [r.customerId])))];
   const [users, customers] = await Promise.all([
-    userIds.length ? db.user.findMany({ where: { id: { in: userIds } }, select: { id: true, fullName: true } }) : Promise.resolve([]),
-    customerIds.length ? db.customer.findMany({ where: { id: { in: customerIds } }, select: { id: true, name: true } }) : Promise.resolve([]),
+    userIds.length
+      ? db.user.findMany({ where: { id: { in: userIds } }, select: { id: true, fullName: true } })
+      : Promise.resolve([]),
+    customerIds.length
+      ? db.customer.findMany({ where: { id: { in: customerIds } }, select: { id: true, name: true } })
+      : Promise.resolve([]),
   ]);
   const userName = new Map(users.map((u) => [u.id, u.fullName]));
   const customerName = new Map(customers.map((c) => [c.id, c.name]));
@@ -47,7 +71,11 @@ async function decorate(db: Db | Tx, rows: Raw[]): Promise<SiteSpecRow[]> {
 
 /** Every version of every site specification, by name then version. */
 export async function listSiteSpecs(db: Db, siteId: number): Promise<SiteSpecRow[]> {
-  const rows = await db.siteSpec.findMany({ where: { siteId }, select: SELECT, orderBy: [{ name: "asc" }, { version: "asc" }] });
+  const rows = await db.siteSpec.findMany({
+    where: { siteId },
+    select: SELECT,
+    orderBy: [{ name: "asc" }, { version: "asc" }],
+  });
   return decorate(db, rows);
 }
 
@@ -67,8 +95,15 @@ export async function requireCustomer(tx: Tx, siteId: number, customerId: number
   if (!c) reject("RECORD.NOT_FOUND", `Customer ${customerId} does not exist on this site`, "customerId");
 }
 
-export async function listCustomerChoices(db: Db, siteId: number): Promise<Array<{ id: number; code: string; name: string }>> {
-  return db.customer.findMany({ where: { siteId, active: true }, select: { id: true, code: true, name: true }, orderBy: { name: "asc" } });
+export async function listCustomerChoices(
+  db: Db,
+  siteId: number,
+): Promise<Array<{ id: number; code: string; name: string }>> {
+  return db.customer.findMany({
+    where: { siteId, active: true },
+    select: { id: true, code: true, name: true },
+    orderBy: { name: "asc" },
+  });
 }
 
 function isUniqueViolation(e: unknown): boolean {
@@ -78,14 +113,32 @@ function isUniqueViolation(e: unknown): boolean {
 /** Writes one new version; a concurrent writer of the same version loses with a conflict. */
 export async function insertSiteSpec(
   tx: Tx,
-  data: { siteId: number; name: string; version: number; baseKey: string; customerId: number | null; limits: SiteLimits; reason: string; createdById: number; createdAt: Date },
+  data: {
+    siteId: number;
+    name: string;
+    version: number;
+    baseKey: string;
+    customerId: number | null;
+    limits: SiteLimits;
+    reason: string;
+    createdById: number;
+    createdAt: Date;
+  },
 ): Promise<number> {
   const { limits, ...rest } = data;
   try {
-    const row = await tx.siteSpec.create({ data: { ...rest, limitsJson: JSON.stringify(limits) }, select: { id: true } });
+    const row = await tx.siteSpec.create({
+      data: { ...rest, limitsJson: JSON.stringify(limits) },
+      select: { id: true },
+    });
     return row.id;
   } catch (e) {
-    if (isUniqueViolation(e)) reject("SITESPEC.STALE", `${data.name} version ${data.version} was just saved by someone else; open the latest version and change it again`, "name");
+    if (isUniqueViolation(e))
+      reject(
+        "SITESPEC.STALE",
+        `${data.name} version ${data.version} was just saved by someone else; open the latest version and change it again`,
+        "name",
+      );
     throw e;
   }
 }

@@ -41,16 +41,37 @@ export function siteLimitIssues(base: Spec, limits: SiteLimits): DomainIssue[] {
     const p = base.properties.find((q) => q.key === key);
     const field = `limits.${key}.max`;
     if (p === undefined) {
-      issues.push({ code: "SITESPEC.UNKNOWN_PROPERTY", message: `${key}: not a property of ${base.edition} ${base.grade}`, field });
+      issues.push({
+        code: "SITESPEC.UNKNOWN_PROPERTY",
+        message: `${key}: not a property of ${base.edition} ${base.grade}`,
+        field,
+      });
       continue;
     }
     const published = limitsOf(p);
     const shown = `${p.label}: the published limit is ${limitText(p)}; a site specification may tighten it, not loosen or remove it`;
-    if (published.min !== null && (lim.min === null || lim.min < published.min)) issues.push({ code: "SITESPEC.LOOSER", message: shown, field: `limits.${key}.min` });
-    if (published.max !== null && (lim.max === null || lim.max > published.max)) issues.push({ code: "SITESPEC.LOOSER", message: shown, field });
-    if (p.kind === "class" && lim.min !== null) issues.push({ code: "SITESPEC.CLASS_MIN", message: `${p.label}: give only the worst class accepted`, field: `limits.${key}.min` });
-    if (p.kind === "class" && lim.max !== null && (!Number.isInteger(lim.max) || lim.max < 1)) issues.push({ code: "SITESPEC.CLASS_NUMBER", message: `${p.label}: the worst class accepted is a whole number such as 1`, field });
-    if (lim.min !== null && lim.max !== null && lim.min > lim.max) issues.push({ code: "SITESPEC.MIN_ABOVE_MAX", message: `${p.label}: the lower limit is above the upper limit`, field: `limits.${key}.min` });
+    if (published.min !== null && (lim.min === null || lim.min < published.min))
+      issues.push({ code: "SITESPEC.LOOSER", message: shown, field: `limits.${key}.min` });
+    if (published.max !== null && (lim.max === null || lim.max > published.max))
+      issues.push({ code: "SITESPEC.LOOSER", message: shown, field });
+    if (p.kind === "class" && lim.min !== null)
+      issues.push({
+        code: "SITESPEC.CLASS_MIN",
+        message: `${p.label}: give only the worst class accepted`,
+        field: `limits.${key}.min`,
+      });
+    if (p.kind === "class" && lim.max !== null && (!Number.isInteger(lim.max) || lim.max < 1))
+      issues.push({
+        code: "SITESPEC.CLASS_NUMBER",
+        message: `${p.label}: the worst class accepted is a whole number such as 1`,
+        field,
+      });
+    if (lim.min !== null && lim.max !== null && lim.min > lim.max)
+      issues.push({
+        code: "SITESPEC.MIN_ABOVE_MAX",
+        message: `${p.label}: the lower limit is above the upper limit`,
+        field: `limits.${key}.min`,
+      });
   }
   return issues;
 }
@@ -60,7 +81,14 @@ function applyOne(p: SpecProperty, lim: SiteLimit): SpecProperty {
   const { min: _min, max: _max, ...rest } = p;
   const decimals = Math.max(p.decimals ?? 0, decimalsOf(lim.min), decimalsOf(lim.max));
   const kind = lim.min === null && lim.max === null ? p.kind : "limit";
-  return { ...rest, kind, ...(lim.min === null ? {} : { min: lim.min }), ...(lim.max === null ? {} : { max: lim.max }), ...(decimals > 0 ? { decimals } : {}), siteLimit: true };
+  return {
+    ...rest,
+    kind,
+    ...(lim.min === null ? {} : { min: lim.min }),
+    ...(lim.max === null ? {} : { max: lim.max }),
+    ...(decimals > 0 ? { decimals } : {}),
+    siteLimit: true,
+  };
 }
 
 export interface SiteSpecMeta {
@@ -88,5 +116,7 @@ export function applySiteLimits(base: Spec, limits: SiteLimits, meta: SiteSpecMe
 /** "Water and sediment ≤ 0.03 % volume; …" — the limits a site specification changed. */
 export function siteLimitsText(spec: Spec): string {
   const changed = spec.properties.filter((p) => p.siteLimit);
-  return changed.length === 0 ? "same limits as the edition" : changed.map((p) => `${p.label} ${limitText(p)}`).join("; ");
+  return changed.length === 0
+    ? "same limits as the edition"
+    : changed.map((p) => `${p.label} ${limitText(p)}`).join("; ");
 }

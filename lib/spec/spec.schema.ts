@@ -68,17 +68,25 @@ export const EditionRowSchema = z
   })
   .strict()
   .superRefine((row, ctx) => {
-    if (row.kind === "limit" && row.min === undefined && row.max === undefined) ctx.addIssue({ code: "custom", message: "a limit row needs min or max", path: ["max"] });
-    if (row.kind === "class" && (row.classMax === undefined || row.classScale === undefined)) ctx.addIssue({ code: "custom", message: "a class row needs classMax and classScale", path: ["classMax"] });
-    if (row.kind !== "limit" && (row.min !== undefined || row.max !== undefined)) ctx.addIssue({ code: "custom", message: "only a limit row has min or max", path: ["kind"] });
-    if (row.min !== undefined && row.max !== undefined && row.min > row.max) ctx.addIssue({ code: "custom", message: "min is above max", path: ["min"] });
+    if (row.kind === "limit" && row.min === undefined && row.max === undefined)
+      ctx.addIssue({ code: "custom", message: "a limit row needs min or max", path: ["max"] });
+    if (row.kind === "class" && (row.classMax === undefined || row.classScale === undefined))
+      ctx.addIssue({ code: "custom", message: "a class row needs classMax and classScale", path: ["classMax"] });
+    if (row.kind !== "limit" && (row.min !== undefined || row.max !== undefined))
+      ctx.addIssue({ code: "custom", message: "only a limit row has min or max", path: ["kind"] });
+    if (row.min !== undefined && row.max !== undefined && row.min > row.max)
+      ctx.addIssue({ code: "custom", message: "min is above max", path: ["min"] });
   });
 
 export const EditionRuleSchema = z
   .object({
     key: slug,
     label: z.string().min(1),
-    anyOf: z.array(z.object({ property: slug, min: z.number().finite().optional(), max: z.number().finite().optional() }).strict()).min(2),
+    anyOf: z
+      .array(
+        z.object({ property: slug, min: z.number().finite().optional(), max: z.number().finite().optional() }).strict(),
+      )
+      .min(2),
     source: z.string().min(1),
   })
   .strict();
@@ -111,7 +119,8 @@ function gradeProperties(t: z.output<typeof EditionTableSchema>, gradeKey: strin
   const props: SpecProperty[] = [];
   for (const row of t.rows) {
     if (row.grades !== undefined && !row.grades.includes(gradeKey)) continue;
-    if (props.some((p) => p.key === row.key)) throw new Error(`Specification table ${t.key}: property ${row.key} appears twice for grade ${gradeKey}`);
+    if (props.some((p) => p.key === row.key))
+      throw new Error(`Specification table ${t.key}: property ${row.key} appears twice for grade ${gradeKey}`);
     const { grades: _grades, ...property } = row;
     props.push(property);
   }
@@ -124,16 +133,24 @@ export function loadEdition(table: unknown): Spec[] {
   const name = (table as { key?: unknown }).key;
   if (!parsed.success) {
     const first = parsed.error.issues[0];
-    throw new Error(`Specification table ${typeof name === "string" ? name : "?"}: ${first ? issueText(table, first.path, first.message) : "invalid"}`);
+    throw new Error(
+      `Specification table ${typeof name === "string" ? name : "?"}: ${first ? issueText(table, first.path, first.message) : "invalid"}`,
+    );
   }
   const t = parsed.data;
   const gradeKeys = new Set(t.grades.map((g) => g.key));
-  for (const row of t.rows) for (const g of row.grades ?? []) if (!gradeKeys.has(g)) throw new Error(`Specification table ${t.key}: property ${row.key} names unknown grade ${g}`);
+  for (const row of t.rows)
+    for (const g of row.grades ?? [])
+      if (!gradeKeys.has(g))
+        throw new Error(`Specification table ${t.key}: property ${row.key} names unknown grade ${g}`);
   return t.grades.map((g) => {
     const properties = gradeProperties(t, g.key);
     for (const rule of t.rules)
       for (const alt of rule.anyOf)
-        if (!properties.some((p) => p.key === alt.property)) throw new Error(`Specification table ${t.key}: rule ${rule.key} names property ${alt.property}, absent from grade ${g.key}`);
+        if (!properties.some((p) => p.key === alt.property))
+          throw new Error(
+            `Specification table ${t.key}: rule ${rule.key} names property ${alt.property}, absent from grade ${g.key}`,
+          );
     const rules = t.rules.map(({ source: _source, ...rule }) => rule);
     return { key: `${t.key}/${g.key}`, title: t.title, edition: t.edition, grade: g.grade, properties, rules };
   });

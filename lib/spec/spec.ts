@@ -13,7 +13,6 @@ export type Verdict = "PASS" | "FAIL" | "REPORTED" | "NOT_JUDGED";
 export type { EitherOrRule, Spec, SpecProperty } from "@/lib/spec/spec.schema";
 import type { EitherOrRule, Spec, SpecProperty } from "@/lib/spec/spec.schema";
 
-
 export interface ResultIn {
   id: number;
   property: string;
@@ -63,7 +62,8 @@ export function limitText(p: SpecProperty): string {
   if (p.kind === "report") return "report";
   if (p.kind === "class") return p.classMax === undefined ? "report" : `${p.classScale ?? "Class"} ${p.classMax} max`;
   const { min, max } = p;
-  if (min !== undefined && max !== undefined) return withUnit(`${fmt(min, p.decimals)} – ${fmt(max, p.decimals)}`, p.unit);
+  if (min !== undefined && max !== undefined)
+    return withUnit(`${fmt(min, p.decimals)} – ${fmt(max, p.decimals)}`, p.unit);
   if (max !== undefined) return withUnit(`≤ ${fmt(max, p.decimals)}`, p.unit);
   if (min !== undefined) return withUnit(`≥ ${fmt(min, p.decimals)}`, p.unit);
   return "no limit";
@@ -94,7 +94,10 @@ export function currentResults(results: readonly ResultIn[]): Map<string, Result
   for (const r of results) {
     if (r.supersededBy != null || replaced.has(r.id)) continue;
     const prev = current.get(r.property);
-    const later = prev === undefined || r.testedAt.getTime() > prev.testedAt.getTime() || (r.testedAt.getTime() === prev.testedAt.getTime() && r.id > prev.id);
+    const later =
+      prev === undefined ||
+      r.testedAt.getTime() > prev.testedAt.getTime() ||
+      (r.testedAt.getTime() === prev.testedAt.getTime() && r.id > prev.id);
     if (later) current.set(r.property, r);
   }
   return current;
@@ -103,7 +106,17 @@ export function currentResults(results: readonly ResultIn[]): Map<string, Result
 function alternativeText(spec: Spec, alt: EitherOrRule["anyOf"][number]): string {
   const p = spec.properties.find((q) => q.key === alt.property);
   const label = p?.label ?? alt.property;
-  const bound: SpecProperty = { key: alt.property, label, method: "", unit: p?.unit ?? "", kind: "limit", required: false, confidence: "published", ...(alt.min === undefined ? {} : { min: alt.min }), ...(alt.max === undefined ? {} : { max: alt.max }) };
+  const bound: SpecProperty = {
+    key: alt.property,
+    label,
+    method: "",
+    unit: p?.unit ?? "",
+    kind: "limit",
+    required: false,
+    confidence: "published",
+    ...(alt.min === undefined ? {} : { min: alt.min }),
+    ...(alt.max === undefined ? {} : { max: alt.max }),
+  };
   return `${label} ${limitText(bound)}`;
 }
 
@@ -153,7 +166,9 @@ export function judgeLot(spec: Spec, results: readonly ResultIn[]): LotJudgement
       if (property.required) missing.push(property.key);
       return { property, result, verdict: property.required ? "MISSING" : "NOT_JUDGED", limitText: text };
     }
-    const verdict = ruleOnly.has(property.key) ? ruleOnlyVerdict(spec, property, result, rules) : judgeValue(property, result.value);
+    const verdict = ruleOnly.has(property.key)
+      ? ruleOnlyVerdict(spec, property, result, rules)
+      : judgeValue(property, result.value);
     if (verdict === "FAIL" && !ruleOnly.has(property.key)) failing.push(property.key);
     return { property, result, verdict, limitText: text };
   });

@@ -33,7 +33,11 @@ export interface TankStockSeries {
 }
 
 /** Movements at one instant are summed into one step, so a step line shows no zero-width spikes. */
-export function computeTankStockSeries(moves: readonly TankMove[], readings: readonly TankReading[], capacityG: number): TankStockSeries {
+export function computeTankStockSeries(
+  moves: readonly TankMove[],
+  readings: readonly TankReading[],
+  capacityG: number,
+): TankStockSeries {
   const byInstant = new Map<number, number>();
   let inG = 0;
   let outG = 0;

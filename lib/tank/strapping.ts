@@ -37,7 +37,11 @@ export function parseStrapping(json: string): StrappingTable | null {
   } catch {
     return null;
   }
-  if (!Array.isArray(raw) || !raw.every((r): r is number[] => Array.isArray(r) && r.every((v) => typeof v === "number"))) return null;
+  if (
+    !Array.isArray(raw) ||
+    !raw.every((r): r is number[] => Array.isArray(r) && r.every((v) => typeof v === "number"))
+  )
+    return null;
   if (strappingProblems(raw).length > 0) return null;
   return raw.map((r) => [r[0]!, r[1]!] as const);
 }
@@ -47,9 +51,14 @@ export function volumeAtLevel(table: StrappingTable, levelMm: number, field = "l
   if (!Number.isFinite(levelMm)) return fail("TANK.LEVEL_NOT_A_NUMBER", "Level (mm) must be a number", field);
   const first = table[0];
   const last = table[table.length - 1];
-  if (first === undefined || last === undefined) return fail("TANK.NO_CALIBRATION", "This tank has no calibration table; enter the volume read directly", field);
+  if (first === undefined || last === undefined)
+    return fail("TANK.NO_CALIBRATION", "This tank has no calibration table; enter the volume read directly", field);
   if (levelMm < first[0] || levelMm > last[0]) {
-    return fail("TANK.LEVEL_OUTSIDE_TABLE", `Level must be between ${first[0]} and ${last[0]} mm, the range of the tank's calibration table`, field);
+    return fail(
+      "TANK.LEVEL_OUTSIDE_TABLE",
+      `Level must be between ${first[0]} and ${last[0]} mm, the range of the tank's calibration table`,
+      field,
+    );
   }
   for (let i = 1; i < table.length; i++) {
     const lo = table[i - 1]!;
@@ -73,12 +82,29 @@ export interface VolumeToMass extends MassFromVolume {
  * measured or table density at 15 °C), keeping the material's temperature slope from the density table:
  * m = V_obs · ρ(t_obs), ρ(t) = ρ_ref + s·(t − t_ref) (the linear model of lib/quantity/density.ts).
  */
-export function massOfVolume(o: { volumeL: number; tempC: number; entry: DensityEntry; densityKgM3?: number; referenceTempC?: number; field?: string }): Result<VolumeToMass> {
+export function massOfVolume(o: {
+  volumeL: number;
+  tempC: number;
+  entry: DensityEntry;
+  densityKgM3?: number;
+  referenceTempC?: number;
+  field?: string;
+}): Result<VolumeToMass> {
   const referenceTempC = o.referenceTempC ?? 15;
-  const entry = o.densityKgM3 === undefined ? o.entry : applyMeasuredDensity(o.entry, { densityKgM3: o.densityKgM3, atTempC: referenceTempC, source: "lot or sample density" });
+  const entry =
+    o.densityKgM3 === undefined
+      ? o.entry
+      : applyMeasuredDensity(o.entry, {
+          densityKgM3: o.densityKgM3,
+          atTempC: referenceTempC,
+          source: "lot or sample density",
+        });
   const r = massFromObserved({ observedVolumeL: o.volumeL, observedTempC: o.tempC, entry });
   if (!r.ok) return { ok: false, issues: r.issues.map((i): DomainIssue => ({ ...i, field: o.field ?? "volumeL" })) };
-  const referenceDensityKgM3 = entry.model === "linear" ? entry.densityAt15KgM3 + entry.slopeKgM3PerK * (referenceTempC - 15) : r.value.densityKgM3;
+  const referenceDensityKgM3 =
+    entry.model === "linear"
+      ? entry.densityAt15KgM3 + entry.slopeKgM3PerK * (referenceTempC - 15)
+      : r.value.densityKgM3;
   return ok({ ...r.value, referenceDensityKgM3, referenceTempC });
 }
 

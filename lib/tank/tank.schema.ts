@@ -12,7 +12,9 @@ export const TankSchema = z.object({
   mixing: oneOf("Mixing model", MIXING_MODELS).default("MIXED"),
   /** Calibration table [[levelMm, volumeL], ...], levels ascending; absent when the tank has none. */
   strapping: z
-    .array(z.array(z.number({ error: "Calibration table: each entry must be a number" })), { error: "Calibration table: a list of [level mm, volume L] rows" })
+    .array(z.array(z.number({ error: "Calibration table: each entry must be a number" })), {
+      error: "Calibration table: a list of [level mm, volume L] rows",
+    })
     .optional()
     .superRefine((rows, ctx) => {
       if (rows === undefined) return;
@@ -37,9 +39,24 @@ export const TransferSchema = z
   })
   .superRefine((t, ctx) => {
     const given = [t.all, t.massKg !== undefined, t.volumeL !== undefined].filter(Boolean).length;
-    if (given === 0) ctx.addIssue({ code: "custom", path: ["massKg"], message: "Mass (kg) is required, or give a volume and its temperature, or move all of it" });
-    if (given > 1) ctx.addIssue({ code: "custom", path: [t.volumeL !== undefined ? "volumeL" : "massKg"], message: "Give one quantity: a mass, a volume at a temperature, or all of it" });
-    if (t.volumeL !== undefined && t.tempC === undefined) ctx.addIssue({ code: "custom", path: ["tempC"], message: "Temperature (°C) at which the volume was read is required" });
+    if (given === 0)
+      ctx.addIssue({
+        code: "custom",
+        path: ["massKg"],
+        message: "Mass (kg) is required, or give a volume and its temperature, or move all of it",
+      });
+    if (given > 1)
+      ctx.addIssue({
+        code: "custom",
+        path: [t.volumeL !== undefined ? "volumeL" : "massKg"],
+        message: "Give one quantity: a mass, a volume at a temperature, or all of it",
+      });
+    if (t.volumeL !== undefined && t.tempC === undefined)
+      ctx.addIssue({
+        code: "custom",
+        path: ["tempC"],
+        message: "Temperature (°C) at which the volume was read is required",
+      });
   });
 export type TransferInput = z.input<typeof TransferSchema>;
 
@@ -56,8 +73,17 @@ export const GaugeSchema = z
     tankCode: code("Tank code"),
     at: when("Gauge time"),
     method: oneOf("Reading", GAUGE_METHODS).default("VOLUME"),
-    volumeL: z.number({ error: "Gauged volume (L) must be a number" }).min(0, "Gauged volume must be at least 0 L").max(MAX_VOLUME_L, `Gauged volume must be at most ${MAX_VOLUME_L.toLocaleString("en")} L`).optional(),
-    levelMm: z.number({ error: "Level (mm) must be a number" }).int("Level: whole millimetres").min(0, "Level must be at least 0 mm").max(MAX_LEVEL_MM, `Level must be at most ${MAX_LEVEL_MM.toLocaleString("en")} mm`).optional(),
+    volumeL: z
+      .number({ error: "Gauged volume (L) must be a number" })
+      .min(0, "Gauged volume must be at least 0 L")
+      .max(MAX_VOLUME_L, `Gauged volume must be at most ${MAX_VOLUME_L.toLocaleString("en")} L`)
+      .optional(),
+    levelMm: z
+      .number({ error: "Level (mm) must be a number" })
+      .int("Level: whole millimetres")
+      .min(0, "Level must be at least 0 mm")
+      .max(MAX_LEVEL_MM, `Level must be at most ${MAX_LEVEL_MM.toLocaleString("en")} mm`)
+      .optional(),
     tempC: tempC("Temperature"),
     /** Density at 15 °C measured on a sample; when absent the tank service's table density is used. */
     densityKgM3: z
@@ -68,7 +94,9 @@ export const GaugeSchema = z
     note: text("Note", 300).default(""),
   })
   .superRefine((g, ctx) => {
-    if (g.method === "VOLUME" && g.volumeL === undefined) ctx.addIssue({ code: "custom", path: ["volumeL"], message: "Gauged volume (L) is required" });
-    if (g.method === "LEVEL" && g.levelMm === undefined) ctx.addIssue({ code: "custom", path: ["levelMm"], message: "Level (mm) is required" });
+    if (g.method === "VOLUME" && g.volumeL === undefined)
+      ctx.addIssue({ code: "custom", path: ["volumeL"], message: "Gauged volume (L) is required" });
+    if (g.method === "LEVEL" && g.levelMm === undefined)
+      ctx.addIssue({ code: "custom", path: ["levelMm"], message: "Level (mm) is required" });
   });
 export type GaugeInput = z.input<typeof GaugeSchema>;

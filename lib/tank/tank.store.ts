@@ -19,7 +19,14 @@ export async function listTanks(db: Db, siteId: number): Promise<TankRow[]> {
   const rows = await db.tank.findMany({
     where: { siteId },
     orderBy: { code: "asc" },
-    include: { holder: { select: { stockG: true } }, gauges: { orderBy: [{ at: "desc" }, { id: "desc" }], take: 1, select: { at: true, massG: true, volumeMl: true, bookStockG: true } } },
+    include: {
+      holder: { select: { stockG: true } },
+      gauges: {
+        orderBy: [{ at: "desc" }, { id: "desc" }],
+        take: 1,
+        select: { at: true, massG: true, volumeMl: true, bookStockG: true },
+      },
+    },
   });
   return rows.map((r) => ({
     id: r.id,
@@ -33,18 +40,33 @@ export async function listTanks(db: Db, siteId: number): Promise<TankRow[]> {
   }));
 }
 
-
 /** The material whose density turns a tank's volume capacity into a mass capacity. */
 export function serviceMaterial(service: string): DensityMaterial {
-  return service === "PRODUCT" ? "FAME" : service === "METHANOL" ? "METHANOL" : service === "GLYCEROL_PHASE" ? "GLYCEROL" : service === "WASH_WATER" ? "WATER" : "USED_COOKING_OIL";
+  return service === "PRODUCT"
+    ? "FAME"
+    : service === "METHANOL"
+      ? "METHANOL"
+      : service === "GLYCEROL_PHASE"
+        ? "GLYCEROL"
+        : service === "WASH_WATER"
+          ? "WATER"
+          : "USED_COOKING_OIL";
 }
 
 /**
  * A tank's room for a fill (mass capacity at 15 °C), for postMovement's guarded increment; null when
  * the holder is not a tank. Refuses at once a fill that would not fit now, with the room left.
  */
-export async function requireTankRoom(tx: Tx, holderId: number, addG: number, field: string): Promise<{ capacityG: number; refusal: (stockG: number) => string } | null> {
-  const tank = await tx.tank.findUnique({ where: { holderId }, select: { code: true, service: true, capacityMl: true, holder: { select: { stockG: true } } } });
+export async function requireTankRoom(
+  tx: Tx,
+  holderId: number,
+  addG: number,
+  field: string,
+): Promise<{ capacityG: number; refusal: (stockG: number) => string } | null> {
+  const tank = await tx.tank.findUnique({
+    where: { holderId },
+    select: { code: true, service: true, capacityMl: true, holder: { select: { stockG: true } } },
+  });
   if (!tank) return null;
   const rho = densityAt(requireDensityEntry(DEFAULT_DENSITY_TABLE, serviceMaterial(tank.service)), 15);
   const capacityG = Math.floor((tank.capacityMl / 1000) * rho);
@@ -56,7 +78,19 @@ export async function requireTankRoom(tx: Tx, holderId: number, addG: number, fi
   return { capacityG, refusal };
 }
 
-export async function insertTank(tx: Tx, t: { siteId: number; holderId: number; code: string; name: string; service: string; capacityMl: number; mixing: string; strappingJson: string }): Promise<{ id: number; code: string }> {
+export async function insertTank(
+  tx: Tx,
+  t: {
+    siteId: number;
+    holderId: number;
+    code: string;
+    name: string;
+    service: string;
+    capacityMl: number;
+    mixing: string;
+    strappingJson: string;
+  },
+): Promise<{ id: number; code: string }> {
   return tx.tank.create({ data: t, select: { id: true, code: true } });
 }
 
@@ -65,7 +99,11 @@ export async function getTankServiceByHolder(tx: Tx, holderId: number): Promise<
   return (await tx.tank.findUnique({ where: { holderId }, select: { service: true } }))?.service ?? null;
 }
 
-export async function getTankByCode(tx: Tx, siteId: number, code: string): Promise<{ id: number; service: string } | null> {
+export async function getTankByCode(
+  tx: Tx,
+  siteId: number,
+  code: string,
+): Promise<{ id: number; service: string } | null> {
   return tx.tank.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, service: true } });
 }
 
@@ -88,8 +126,15 @@ export async function insertGauge(tx: Tx, g: GaugeRow): Promise<{ id: number; ma
 }
 
 /** What a gauge needs of its tank: the holder (for the book stock), the service and the calibration table. */
-export async function getTankForGauge(tx: Tx, siteId: number, code: string): Promise<{ id: number; holderId: number; service: string; strappingJson: string } | null> {
-  return tx.tank.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, holderId: true, service: true, strappingJson: true } });
+export async function getTankForGauge(
+  tx: Tx,
+  siteId: number,
+  code: string,
+): Promise<{ id: number; holderId: number; service: string; strappingJson: string } | null> {
+  return tx.tank.findUnique({
+    where: { siteId_code: { siteId, code } },
+    select: { id: true, holderId: true, service: true, strappingJson: true },
+  });
 }
 
 /** Book stock of a holder at an instant from the ledger: everything moved in minus everything moved out up to and including `at`. */
@@ -106,12 +151,24 @@ function asDensityMaterial(m: string): DensityMaterial {
 }
 
 /** The density a volume drawn from a holder is converted with: a lot's own density at its reference temperature, else the tank's or product's table material. */
-export async function getDensityBasis(tx: Tx, holderId: number): Promise<{ material: DensityMaterial; densityKgM3?: number; referenceTempC?: number }> {
+export async function getDensityBasis(
+  tx: Tx,
+  holderId: number,
+): Promise<{ material: DensityMaterial; densityKgM3?: number; referenceTempC?: number }> {
   const h = await tx.holder.findUniqueOrThrow({
     where: { id: holderId },
-    select: { kind: true, lot: { select: { material: true, densityKgM3: true, referenceTempC: true } }, tank: { select: { service: true } } },
+    select: {
+      kind: true,
+      lot: { select: { material: true, densityKgM3: true, referenceTempC: true } },
+      tank: { select: { service: true } },
+    },
   });
-  if (h.lot) return { material: asDensityMaterial(h.lot.material), densityKgM3: h.lot.densityKgM3, referenceTempC: h.lot.referenceTempC };
+  if (h.lot)
+    return {
+      material: asDensityMaterial(h.lot.material),
+      densityKgM3: h.lot.densityKgM3,
+      referenceTempC: h.lot.referenceTempC,
+    };
   if (h.tank) return { material: serviceMaterial(h.tank.service) };
   return { material: h.kind === "PRODUCT_LOT" ? "FAME" : "USED_COOKING_OIL" };
 }
@@ -134,7 +191,9 @@ export interface GaugeView {
 export async function listGauges(db: Db, tankId: number, take = 50): Promise<GaugeView[]> {
   const rows = await db.tankGauge.findMany({ where: { tankId }, orderBy: [{ at: "desc" }, { id: "desc" }], take });
   const ids = [...new Set(rows.map((r) => r.recordedById).filter((x): x is number => x !== null))];
-  const users = ids.length ? await db.user.findMany({ where: { id: { in: ids } }, select: { id: true, fullName: true } }) : [];
+  const users = ids.length
+    ? await db.user.findMany({ where: { id: { in: ids } }, select: { id: true, fullName: true } })
+    : [];
   const name = new Map(users.map((u) => [u.id, u.fullName]));
   return rows.map((r) => ({
     id: r.id,
@@ -152,6 +211,10 @@ export async function listGauges(db: Db, tankId: number, take = 50): Promise<Gau
 }
 
 /** A tank's page header needs its calibration table too. */
-export async function getTankStrapping(db: Db, siteId: number, code: string): Promise<{ id: number; strappingJson: string } | null> {
+export async function getTankStrapping(
+  db: Db,
+  siteId: number,
+  code: string,
+): Promise<{ id: number; strappingJson: string } | null> {
   return db.tank.findUnique({ where: { siteId_code: { siteId, code } }, select: { id: true, strappingJson: true } });
 }

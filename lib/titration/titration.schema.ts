@@ -18,7 +18,9 @@ export const TitrationEntrySchema = z
     concentrationMolL: z
       .number({ error: "titrant concentration must be a number (mol/L)" })
       .gt(0, { error: "titrant concentration must be greater than 0 mol/L" })
-      .lte(MAX_CONCENTRATION_MOL_L, { error: `titrant concentration must be at most ${MAX_CONCENTRATION_MOL_L} mol/L` }),
+      .lte(MAX_CONCENTRATION_MOL_L, {
+        error: `titrant concentration must be at most ${MAX_CONCENTRATION_MOL_L} mol/L`,
+      }),
     titreMl: z
       .number({ error: "titre must be a number (mL)" })
       .gte(MIN_TITRE_ML, { error: "titre must not be negative (mL)" }),

@@ -80,7 +80,8 @@ export interface TitrationLimits {
 export const DEFAULT_TITRATION_LIMITS: TitrationLimits = {
   maxConcentrationMolL: 2,
   maxFfaPct: 100,
-  source: "concentration: plausibility bound above the Ca 5a-40 Table 1 strengths (common practice); FFA: 100 % by definition",
+  source:
+    "concentration: plausibility bound above the Ca 5a-40 Table 1 strengths (common practice); FFA: 100 % by definition",
 };
 
 export interface TitrationInput {
@@ -92,7 +93,9 @@ export interface TitrationInput {
 }
 
 function finiteIssue(value: number, field: string, unit: string): DomainIssue[] {
-  return Number.isFinite(value) ? [] : [{ code: "TITRATION.NOT_A_NUMBER", message: `${field} must be a number (${unit})`, field }];
+  return Number.isFinite(value)
+    ? []
+    : [{ code: "TITRATION.NOT_A_NUMBER", message: `${field} must be a number (${unit})`, field }];
 }
 
 function validateTitration(input: TitrationInput, limits: TitrationLimits): DomainIssue[] {
@@ -109,7 +112,13 @@ function validateTitration(input: TitrationInput, limits: TitrationLimits): Doma
   if (Number.isFinite(blankMl) && blankMl < 0) {
     issues.push({ code: "TITRATION.NEGATIVE_BLANK", message: "blankMl must not be negative (mL)", field: "blankMl" });
   }
-  if (Number.isFinite(blankMl) && Number.isFinite(input.titreMl) && blankMl >= 0 && blankMl > input.titreMl && input.titreMl >= 0) {
+  if (
+    Number.isFinite(blankMl) &&
+    Number.isFinite(input.titreMl) &&
+    blankMl >= 0 &&
+    blankMl > input.titreMl &&
+    input.titreMl >= 0
+  ) {
     issues.push({
       code: "TITRATION.BLANK_EXCEEDS_TITRE",
       message: `blankMl (${blankMl} mL) must not exceed titreMl (${input.titreMl} mL)`,
@@ -117,7 +126,11 @@ function validateTitration(input: TitrationInput, limits: TitrationLimits): Doma
     });
   }
   if (Number.isFinite(input.sampleMassG) && input.sampleMassG <= 0) {
-    issues.push({ code: "TITRATION.SAMPLE_MASS_NOT_POSITIVE", message: "sampleMassG must be greater than 0 g", field: "sampleMassG" });
+    issues.push({
+      code: "TITRATION.SAMPLE_MASS_NOT_POSITIVE",
+      message: "sampleMassG must be greater than 0 g",
+      field: "sampleMassG",
+    });
   }
   const c = input.concentrationMolL;
   if (Number.isFinite(c) && (c <= 0 || c > limits.maxConcentrationMolL)) {
@@ -185,7 +198,8 @@ export function calculateAcidValue(input: TitrationInput, options: AcidValueOpti
   const issues = validateTitration(input, limits);
   if (issues.length > 0) return failMany(issues);
   const netTitreMl = input.titreMl - (input.blankMl ?? 0);
-  const acidValueMgKohG = ((options.kohConstant ?? ACID_VALUE_KOH_CONSTANT.value) * netTitreMl * input.concentrationMolL) / input.sampleMassG;
+  const acidValueMgKohG =
+    ((options.kohConstant ?? ACID_VALUE_KOH_CONSTANT.value) * netTitreMl * input.concentrationMolL) / input.sampleMassG;
   return ok({ acidValueMgKohG, netTitreMl });
 }
 
@@ -205,7 +219,11 @@ function avPerFfa(options: AvFfaOptions): Result<number> {
   const basis = options.basis ?? "OLEIC";
   if ((options.conversion ?? "molar-mass") === "ca5a40-note") {
     if (basis !== "OLEIC") {
-      return fail("TITRATION.CONVERSION_UNAVAILABLE", "the Ca 5a-40 ×1.99 note applies to oleic only; use the molar-mass conversion", "basis");
+      return fail(
+        "TITRATION.CONVERSION_UNAVAILABLE",
+        "the Ca 5a-40 ×1.99 note applies to oleic only; use the molar-mass conversion",
+        "basis",
+      );
     }
     return ok(CA5A40_AV_PER_FFA_OLEIC.value);
   }
@@ -222,7 +240,11 @@ export function acidValueFromFfa(ffaPct: number, options: AvFfaOptions = {}): Re
 
 export function ffaFromAcidValue(acidValueMgKohG: number, options: AvFfaOptions = {}): Result<number> {
   if (!Number.isFinite(acidValueMgKohG) || acidValueMgKohG < 0) {
-    return fail("TITRATION.ACID_VALUE_OUT_OF_RANGE", "acidValueMgKohG must be a number of at least 0 mg KOH/g", "acidValueMgKohG");
+    return fail(
+      "TITRATION.ACID_VALUE_OUT_OF_RANGE",
+      "acidValueMgKohG must be a number of at least 0 mg KOH/g",
+      "acidValueMgKohG",
+    );
   }
   const ratio = avPerFfa(options);
   return ratio.ok ? ok(acidValueMgKohG / ratio.value) : ratio;
@@ -240,7 +262,8 @@ export const DEFAULT_FFA_REPEATABILITY: RepeatabilityLimit = {
   absolute: 0.1,
   relativeOfMean: 0.05,
   status: "common practice",
-  source: "duplicate FFA titrations within 0.1 % FFA or 5 % of the mean, whichever is larger (common practice, no source)",
+  source:
+    "duplicate FFA titrations within 0.1 % FFA or 5 % of the mean, whichever is larger (common practice, no source)",
 };
 
 export interface ReplicateSummary {
@@ -260,9 +283,12 @@ export function summariseReplicates(
   values: readonly number[],
   limit: RepeatabilityLimit = DEFAULT_FFA_REPEATABILITY,
 ): Result<ReplicateSummary> {
-  if (values.length === 0) return fail("TITRATION.NO_REPLICATES", "replicates must contain at least one value", "replicates");
+  if (values.length === 0)
+    return fail("TITRATION.NO_REPLICATES", "replicates must contain at least one value", "replicates");
   const bad = values.flatMap((v, i): DomainIssue[] =>
-    Number.isFinite(v) ? [] : [{ code: "TITRATION.NOT_A_NUMBER", message: `replicate ${i + 1} must be a number`, field: `replicates.${i}` }],
+    Number.isFinite(v)
+      ? []
+      : [{ code: "TITRATION.NOT_A_NUMBER", message: `replicate ${i + 1} must be a number`, field: `replicates.${i}` }],
   );
   if (bad.length > 0) return failMany(bad);
   const min = Math.min(...values);
@@ -295,11 +321,56 @@ const TABLE1_SOURCE =
   "AOCS Ca 5a-40 Table 1 (rows as in the matching Table 1 of ASTM D5555-95; first listed from memory)";
 
 export const CA5A40_SAMPLE_SIZE_TABLE: readonly SampleSizeRow[] = [
-  { minPct: 0, maxPct: 0.2, sampleMassG: 56.4, sampleToleranceG: 0.2, alcoholMl: 50, concentrationsMolL: [0.1], source: TABLE1_SOURCE, status: "sourced" },
-  { minPct: 0.2, maxPct: 1.0, sampleMassG: 28.2, sampleToleranceG: 0.2, alcoholMl: 50, concentrationsMolL: [0.1], source: TABLE1_SOURCE, status: "sourced" },
-  { minPct: 1.0, maxPct: 30.0, sampleMassG: 7.05, sampleToleranceG: 0.05, alcoholMl: 75, concentrationsMolL: [0.25], source: TABLE1_SOURCE, status: "sourced" },
-  { minPct: 30.0, maxPct: 50.0, sampleMassG: 7.05, sampleToleranceG: 0.05, alcoholMl: 100, concentrationsMolL: [0.25, 1.0], source: TABLE1_SOURCE, status: "sourced" },
-  { minPct: 50.0, maxPct: 100, sampleMassG: 3.525, sampleToleranceG: 0.001, alcoholMl: 100, concentrationsMolL: [1.0], source: TABLE1_SOURCE, status: "sourced" },
+  {
+    minPct: 0,
+    maxPct: 0.2,
+    sampleMassG: 56.4,
+    sampleToleranceG: 0.2,
+    alcoholMl: 50,
+    concentrationsMolL: [0.1],
+    source: TABLE1_SOURCE,
+    status: "sourced",
+  },
+  {
+    minPct: 0.2,
+    maxPct: 1.0,
+    sampleMassG: 28.2,
+    sampleToleranceG: 0.2,
+    alcoholMl: 50,
+    concentrationsMolL: [0.1],
+    source: TABLE1_SOURCE,
+    status: "sourced",
+  },
+  {
+    minPct: 1.0,
+    maxPct: 30.0,
+    sampleMassG: 7.05,
+    sampleToleranceG: 0.05,
+    alcoholMl: 75,
+    concentrationsMolL: [0.25],
+    source: TABLE1_SOURCE,
+    status: "sourced",
+  },
+  {
+    minPct: 30.0,
+    maxPct: 50.0,
+    sampleMassG: 7.05,
+    sampleToleranceG: 0.05,
+    alcoholMl: 100,
+    concentrationsMolL: [0.25, 1.0],
+    source: TABLE1_SOURCE,
+    status: "sourced",
+  },
+  {
+    minPct: 50.0,
+    maxPct: 100,
+    sampleMassG: 3.525,
+    sampleToleranceG: 0.001,
+    alcoholMl: 100,
+    concentrationsMolL: [1.0],
+    source: TABLE1_SOURCE,
+    status: "sourced",
+  },
 ];
 
 export interface SampleSizeSuggestion {
@@ -314,12 +385,18 @@ export function suggestSampleSize(
   table: readonly SampleSizeRow[] = CA5A40_SAMPLE_SIZE_TABLE,
 ): Result<SampleSizeSuggestion> {
   const row = Number.isFinite(expectedFfaPct)
-    ? table.find((r, i) => (expectedFfaPct > r.minPct || (i === 0 && expectedFfaPct >= r.minPct)) && expectedFfaPct <= r.maxPct)
+    ? table.find(
+        (r, i) => (expectedFfaPct > r.minPct || (i === 0 && expectedFfaPct >= r.minPct)) && expectedFfaPct <= r.maxPct,
+      )
     : undefined;
   if (row === undefined) {
     const low = table[0]?.minPct ?? 0;
     const high = table.at(-1)?.maxPct ?? 100;
-    return fail("TITRATION.EXPECTED_FFA_OUT_OF_RANGE", `expectedFfaPct must be between ${low} and ${high} %`, "expectedFfaPct");
+    return fail(
+      "TITRATION.EXPECTED_FFA_OUT_OF_RANGE",
+      `expectedFfaPct must be between ${low} and ${high} %`,
+      "expectedFfaPct",
+    );
   }
   const factor = FFA_FACTORS.OLEIC.methodFactor;
   return ok({ row, ffaPctPerMl: row.concentrationsMolL.map((c) => (c * factor) / row.sampleMassG) });
@@ -351,12 +428,24 @@ export function convertFfaBasis(ffaPct: number, from: FfaBasis, to: FfaBasis, fa
  * averaging, since a % FFA as lauric and a % FFA as oleic count different moles of acid. The mean is
  * expressed as the readings' basis when they all share one, otherwise as `fallbackBasis` (oleic).
  */
-export function combineFfaReadings(readings: readonly FfaReading[], fallbackBasis: FfaBasis = "OLEIC"): Result<CombinedFfa> {
-  if (readings.length === 0) return fail("TITRATION.NO_REPLICATES", "replicates must contain at least one value", "replicates");
+export function combineFfaReadings(
+  readings: readonly FfaReading[],
+  fallbackBasis: FfaBasis = "OLEIC",
+): Result<CombinedFfa> {
+  if (readings.length === 0)
+    return fail("TITRATION.NO_REPLICATES", "replicates must contain at least one value", "replicates");
   const avs: number[] = [];
   for (const [i, r] of readings.entries()) {
-    const av = r.acidValueMgKohG !== undefined && Number.isFinite(r.acidValueMgKohG) && r.acidValueMgKohG >= 0 ? ok(r.acidValueMgKohG) : acidValueFromFfa(r.ffaPct, { basis: r.basis });
-    if (!av.ok) return fail(av.issues[0]?.code ?? "TITRATION.FFA_OUT_OF_RANGE", `titration ${i + 1}: ${av.issues[0]?.message ?? "bad FFA"}`, `replicates.${i}`);
+    const av =
+      r.acidValueMgKohG !== undefined && Number.isFinite(r.acidValueMgKohG) && r.acidValueMgKohG >= 0
+        ? ok(r.acidValueMgKohG)
+        : acidValueFromFfa(r.ffaPct, { basis: r.basis });
+    if (!av.ok)
+      return fail(
+        av.issues[0]?.code ?? "TITRATION.FFA_OUT_OF_RANGE",
+        `titration ${i + 1}: ${av.issues[0]?.message ?? "bad FFA"}`,
+        `replicates.${i}`,
+      );
     avs.push(av.value);
   }
   const first = readings[0]?.basis ?? fallbackBasis;

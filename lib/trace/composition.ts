@@ -89,7 +89,13 @@ const INSERT_UP_TO = 32;
 let splitBuffer = new Float64Array(1024);
 
 export function copyToLayer(parts: CompositionParts): MutableLayer {
-  return { originIds: [...parts.originIds], grams: [...parts.grams], totalG: sumParts(parts), pending: [], pendingLength: 0 };
+  return {
+    originIds: [...parts.originIds],
+    grams: [...parts.grams],
+    totalG: sumParts(parts),
+    pending: [],
+    pendingLength: 0,
+  };
 }
 
 /** Merges pending deposits into the layer; call before reading or drawing from it. */
@@ -129,7 +135,10 @@ export function settleLayer(layer: MutableLayer): MutableLayer {
  */
 export function takeFromLayer(layer: MutableLayer, massG: number): CompositionParts {
   settleLayer(layer);
-  invariant(Number.isSafeInteger(massG) && massG > 0 && massG <= layer.totalG, `cannot take ${massG} g off ${layer.totalG} g`);
+  invariant(
+    Number.isSafeInteger(massG) && massG > 0 && massG <= layer.totalG,
+    `cannot take ${massG} g off ${layer.totalG} g`,
+  );
   if (massG === layer.totalG) {
     const all = { originIds: layer.originIds, grams: layer.grams };
     layer.originIds = [];

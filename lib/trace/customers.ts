@@ -32,6 +32,8 @@ export function attachCustomers<R extends { holder: { id: number; kind: string }
     totals.set(key, t);
     return { ...r, customer: c };
   });
-  const byCustomer = [...totals.values()].sort((a, b) => b.grams - a.grams || a.customer.name.localeCompare(b.customer.name));
+  const byCustomer = [...totals.values()].sort(
+    (a, b) => b.grams - a.grams || a.customer.name.localeCompare(b.customer.name),
+  );
   return { rows: out, byCustomer };
 }

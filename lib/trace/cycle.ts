@@ -48,7 +48,10 @@ export function getCycleThrough(
   if (newMove.fromHolderId === newMove.toHolderId && isCycleEnd(newMove.toHolderId)) {
     return { holderId: newMove.toHolderId, moveIds: [newMove.id] };
   }
-  const sorted = moves.filter((m) => m.id !== newMove.id).concat([newMove]).sort(compareMoves);
+  const sorted = moves
+    .filter((m) => m.id !== newMove.id)
+    .concat([newMove])
+    .sort(compareMoves);
   const p = sorted.indexOf(newMove);
 
   // latest[h]: the latest position at which material can leave h and still reach newMove's source
@@ -84,14 +87,14 @@ export function getCycleThrough(
   if (end === undefined) return null;
 
   const out: number[] = [];
-  for (let h: number | null = end; h !== null; ) {
+  for (let h: number | null = end; h !== null;) {
     const m = next.get(h);
     if (m === undefined || m === newMove) break;
     out.push(m.id);
     h = m.toHolderId;
   }
   const back: number[] = [];
-  for (let h: number | null = end; h !== null; ) {
+  for (let h: number | null = end; h !== null;) {
     const m = prev.get(h);
     if (m === undefined || m === newMove) break;
     back.push(m.id);

@@ -32,7 +32,10 @@ export const ForwardTraceQuerySchema = z.object({
 export type ForwardTraceQuery = z.output<typeof ForwardTraceQuerySchema>;
 
 const wholeGrams = (what: string) =>
-  z.number({ error: `${what} (g) must be a number` }).int(`${what} (g) must be whole grams`).positive(`${what} (g) must be more than 0`);
+  z
+    .number({ error: `${what} (g) must be a number` })
+    .int(`${what} (g) must be whole grams`)
+    .positive(`${what} (g) must be more than 0`);
 
 /** A stored replay snapshot read back from storage; restoreReplay/resumeReplay check it against the ledger. */
 export const ReplaySnapshotSchema = z.object({

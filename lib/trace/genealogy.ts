@@ -149,7 +149,11 @@ export function traceHolder(index: LedgerIndex, holderId: number, options: Trace
 }
 
 /** Backward trace of one move (a shipment = the move into it): the composition it carried. */
-export function traceMove(index: LedgerIndex, moveId: number, options: { from?: ReplaySnapshot } = {}): Result<TraceComposition> {
+export function traceMove(
+  index: LedgerIndex,
+  moveId: number,
+  options: { from?: ReplaySnapshot } = {},
+): Result<TraceComposition> {
   const pos = index.positionOf.get(moveId);
   const move = pos === undefined ? undefined : index.moves[pos];
   if (pos === undefined || move === undefined) {
@@ -289,10 +293,12 @@ export function findEntryOrigins(index: LedgerIndex, holderIds: readonly number[
       if (index.moves[pos]?.fromHolderId === null) positions.push(pos);
     }
   }
-  return positions.sort((a, b) => a - b).flatMap((pos) => {
-    const m = index.moves[pos];
-    return m === undefined ? [] : [m.id];
-  });
+  return positions
+    .sort((a, b) => a - b)
+    .flatMap((pos) => {
+      const m = index.moves[pos];
+      return m === undefined ? [] : [m.id];
+    });
 }
 
 /**
@@ -332,7 +338,12 @@ function startReplay(index: LedgerIndex, from: ReplaySnapshot | undefined, only?
  * For each ancestor holder, the last ledger position up to which its state matters. Horizons only grow,
  * and each holder's incoming list is walked once overall, so this is O(ancestor moves).
  */
-function findAncestorHorizons(index: LedgerIndex, holderId: number, horizon: number, start: number): Map<number, number> {
+function findAncestorHorizons(
+  index: LedgerIndex,
+  holderId: number,
+  horizon: number,
+  start: number,
+): Map<number, number> {
   const horizons = new Map<number, number>();
   const walked = new Map<number, number>();
   const work: number[] = [];

@@ -30,7 +30,12 @@ export function splitIngredients(groups: readonly OriginGroup[]): Ingredients {
   const order = (a: OriginGroup, b: OriginGroup) => b.grams - a.grams || a.code.localeCompare(b.code);
   return {
     feedstockG,
-    feedstock: feedstockGroups.map((g) => ({ ...g, pct: feedstockG === 0 ? 0 : (g.grams * 100) / feedstockG })).sort(order),
-    reagents: groups.filter((g) => g.kind === "REAGENT_LOT").map((g) => ({ ...g, pct: 0 })).sort(order),
+    feedstock: feedstockGroups
+      .map((g) => ({ ...g, pct: feedstockG === 0 ? 0 : (g.grams * 100) / feedstockG }))
+      .sort(order),
+    reagents: groups
+      .filter((g) => g.kind === "REAGENT_LOT")
+      .map((g) => ({ ...g, pct: 0 }))
+      .sort(order),
   };
 }

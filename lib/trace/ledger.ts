@@ -60,7 +60,12 @@ export function checkMove(move: TraceMove, holders: ReadonlyMap<number, TraceHol
   const issues: TraceIssue[] = [];
   const moveId = move.id;
   if (!Number.isSafeInteger(move.id)) {
-    issues.push({ code: "TRACE.INVALID_MOVE", message: `Move id ${move.id} is not an integer.`, field: "moves.id", moveId });
+    issues.push({
+      code: "TRACE.INVALID_MOVE",
+      message: `Move id ${move.id} is not an integer.`,
+      field: "moves.id",
+      moveId,
+    });
   }
   if (!Number.isSafeInteger(move.massG) || move.massG <= 0) {
     issues.push({

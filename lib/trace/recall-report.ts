@@ -9,7 +9,8 @@ export type RecallTable = (typeof RECALL_TABLES)[number];
 
 /** "Source R001 Harbour Grill, material that moved in 2026-10-01 to 2026-10-14". */
 export function recallSubjectText(r: Pick<RecallReport, "subject" | "query">, timeZone: string): string {
-  const what = r.subject.kind === "SOURCE" ? `Source ${r.subject.label}` : `${labelOf(r.subject.kind)} ${r.subject.code}`;
+  const what =
+    r.subject.kind === "SOURCE" ? `Source ${r.subject.label}` : `${labelOf(r.subject.kind)} ${r.subject.code}`;
   const { from, to } = r.query;
   if (from === null && to === null) return `${what}, everything that moved in`;
   const last = to === null ? null : new Date(to.getTime() - 1);
@@ -34,7 +35,15 @@ export function buildRecallDoc(r: RecallReport, ctx: ReportContext, opts: { with
       { key: "last_shipped", header: "Last shipped", kind: "day" },
     ],
     rows: r.customers.map((c) => [c.customer.name, c.customer.code, c.shipments, c.grams, c.pct, c.firstAt, c.lastAt]),
-    total: ["TOTAL", null, r.customers.reduce((s, c) => s + c.shipments, 0), r.customers.reduce((s, c) => s + c.grams, 0), r.customers.reduce((s, c) => s + c.pct, 0), null, null],
+    total: [
+      "TOTAL",
+      null,
+      r.customers.reduce((s, c) => s + c.shipments, 0),
+      r.customers.reduce((s, c) => s + c.grams, 0),
+      r.customers.reduce((s, c) => s + c.pct, 0),
+      null,
+      null,
+    ],
     empty: "None of this material has been shipped to a customer.",
   });
   const shipments = table("shipments", "Shipments", {
@@ -45,7 +54,13 @@ export function buildRecallDoc(r: RecallReport, ctx: ReportContext, opts: { with
       { key: "mass", header: "Traced material", kind: "mass" },
       { key: "share", header: "Share", kind: "pct" },
     ],
-    rows: r.shipments.map((s) => [s.holder, ...(opts.withCustomers ? [s.customer?.name ?? null] : []), s.firstAt, s.heldG, s.pct]),
+    rows: r.shipments.map((s) => [
+      s.holder,
+      ...(opts.withCustomers ? [s.customer?.name ?? null] : []),
+      s.firstAt,
+      s.heldG,
+      s.pct,
+    ]),
     total: [...total("TOTAL", opts.withCustomers ? 2 : 1), r.shippedG, r.shipments.reduce((s, h) => s + h.pct, 0)],
     empty: "Nothing of it has been shipped.",
   });
@@ -59,8 +74,24 @@ export function buildRecallDoc(r: RecallReport, ctx: ReportContext, opts: { with
       { key: "still_in_lot", header: "Still in the lot", kind: "mass" },
       { key: "made", header: "First received", kind: "day" },
     ],
-    rows: r.productLots.map((p) => [p.holder, p.standing ? labelOf(p.standing.status) : null, p.standing?.reason ?? null, p.receivedG, p.pct, p.heldG, p.firstAt]),
-    total: ["TOTAL", null, null, r.productLots.reduce((s, p) => s + p.receivedG, 0), r.productLots.reduce((s, p) => s + p.pct, 0), r.productLots.reduce((s, p) => s + p.heldG, 0), null],
+    rows: r.productLots.map((p) => [
+      p.holder,
+      p.standing ? labelOf(p.standing.status) : null,
+      p.standing?.reason ?? null,
+      p.receivedG,
+      p.pct,
+      p.heldG,
+      p.firstAt,
+    ]),
+    total: [
+      "TOTAL",
+      null,
+      null,
+      r.productLots.reduce((s, p) => s + p.receivedG, 0),
+      r.productLots.reduce((s, p) => s + p.pct, 0),
+      r.productLots.reduce((s, p) => s + p.heldG, 0),
+      null,
+    ],
     empty: "No product lot was made from this material.",
   });
   const onSite = table("on-site", "Still on site", {
@@ -71,7 +102,13 @@ export function buildRecallDoc(r: RecallReport, ctx: ReportContext, opts: { with
       { key: "held", header: "Held there", kind: "mass" },
       { key: "share", header: "Share of traced", kind: "pct" },
     ],
-    rows: r.onSite.map((h) => [h.holder, labelOf(h.holder.kind), h.stageLabel, h.heldG, r.tracedG === 0 ? 0 : (h.heldG * 100) / r.tracedG]),
+    rows: r.onSite.map((h) => [
+      h.holder,
+      labelOf(h.holder.kind),
+      h.stageLabel,
+      h.heldG,
+      r.tracedG === 0 ? 0 : (h.heldG * 100) / r.tracedG,
+    ]),
     total: ["TOTAL", null, null, r.onSiteG, r.tracedG === 0 ? 0 : (r.onSiteG * 100) / r.tracedG],
     empty: "None of it is on site any more.",
   });
@@ -85,7 +122,15 @@ export function buildRecallDoc(r: RecallReport, ctx: ReportContext, opts: { with
       { key: "first", header: "First", kind: "day" },
       { key: "last", header: "Last", kind: "day" },
     ],
-    rows: r.holders.map((h) => [h.holder, labelOf(h.holder.kind), h.stageLabel, h.receivedG, h.heldG, h.firstAt, h.lastAt]),
+    rows: r.holders.map((h) => [
+      h.holder,
+      labelOf(h.holder.kind),
+      h.stageLabel,
+      h.receivedG,
+      h.heldG,
+      h.firstAt,
+      h.lastAt,
+    ]),
     total: ["TOTAL", null, null, null, r.holders.reduce((s, h) => s + h.heldG, 0), null, null],
     empty: "The material has not moved anywhere.",
   });
@@ -106,7 +151,9 @@ export function buildRecallDoc(r: RecallReport, ctx: ReportContext, opts: { with
     ],
     notes: [
       "Masses come from replaying the movement ledger forward under each tank's mixing model, in whole grams. A tank mixes what it holds, so material that went into it reaches every later draw in proportion. Shares are of the material followed.",
-      ...(opts.withCustomers ? [] : ["Customers are left out of this copy (the reader's role does not see customers)."]),
+      ...(opts.withCustomers
+        ? []
+        : ["Customers are left out of this copy (the reader's role does not see customers)."]),
     ],
     cautions: [],
     tables: [...(opts.withCustomers ? [customers] : []), shipments, lots, onSite, reached],

@@ -19,12 +19,15 @@ const RecallSubject = z.object({
   to: z.preprocess(blank, when("To").optional()),
 });
 
-const windowInOrder = (q: { from?: Date | undefined; to?: Date | undefined }) => q.from === undefined || q.to === undefined || q.from < q.to;
+const windowInOrder = (q: { from?: Date | undefined; to?: Date | undefined }) =>
+  q.from === undefined || q.to === undefined || q.from < q.to;
 const WINDOW_MESSAGE = { message: "To must be after From", path: ["to"] };
 
 export const RecallQuerySchema = RecallSubject.refine(windowInOrder, WINDOW_MESSAGE);
 export type RecallQuery = z.output<typeof RecallQuerySchema>;
 
 /** Hold every product lot the recall reaches that still holds traced material on site. */
-export const RecallHoldSchema = RecallSubject.extend({ reason: requiredText("Reason", DECISION_REASON_MAX).min(5, "Reason: at least 5 characters") }).refine(windowInOrder, WINDOW_MESSAGE);
+export const RecallHoldSchema = RecallSubject.extend({
+  reason: requiredText("Reason", DECISION_REASON_MAX).min(5, "Reason: at least 5 characters"),
+}).refine(windowInOrder, WINDOW_MESSAGE);
 export type RecallHold = z.output<typeof RecallHoldSchema>;

@@ -30,12 +30,23 @@ async function resolveSubject(db: Db, siteId: number, kind: RecallKind, code: st
 }
 
 /** Where the material went; customers only for readers who may see them (not production). */
-export async function recallReport(db: Db, siteId: number, input: unknown, now: Date, opts: { withCustomers: boolean }): Promise<Result<RecallReport>> {
+export async function recallReport(
+  db: Db,
+  siteId: number,
+  input: unknown,
+  now: Date,
+  opts: { withCustomers: boolean },
+): Promise<Result<RecallReport>> {
   const parsed = parseInput(RecallQuerySchema, input);
   if (!parsed.ok) return parsed;
   const q = parsed.value;
   const subject = await resolveSubject(db, siteId, q.kind, q.code);
-  if (subject === null) return fail("RECORD.NOT_FOUND", `${q.kind === "SOURCE" ? "Source" : labelOf(q.kind)} ${q.code} does not exist`, "code");
+  if (subject === null)
+    return fail(
+      "RECORD.NOT_FOUND",
+      `${q.kind === "SOURCE" ? "Source" : labelOf(q.kind)} ${q.code} does not exist`,
+      "code",
+    );
   const stateR = await requireLedgerState(db, siteId, now);
   if (!stateR.ok) return stateR;
   const state = stateR.value;
@@ -44,18 +55,37 @@ export async function recallReport(db: Db, siteId: number, input: unknown, now: 
   const rows = flow.value.rows;
   const ids = rows.map((r) => r.holder.id);
   const [standings, customers] = await Promise.all([
-    listProductLotStandings(db, siteId, ids.filter((_, i) => rows[i]?.holder.kind === "PRODUCT_LOT")),
-    opts.withCustomers ? listShipmentCustomers(db, siteId, ids.filter((_, i) => rows[i]?.holder.kind === "SHIPMENT")) : Promise.resolve(new Map<number, ShipmentCustomer>()),
+    listProductLotStandings(
+      db,
+      siteId,
+      ids.filter((_, i) => rows[i]?.holder.kind === "PRODUCT_LOT"),
+    ),
+    opts.withCustomers
+      ? listShipmentCustomers(
+          db,
+          siteId,
+          ids.filter((_, i) => rows[i]?.holder.kind === "SHIPMENT"),
+        )
+      : Promise.resolve(new Map<number, ShipmentCustomer>()),
   ]);
   const holders = rows.map((r) => {
     const s = standings.get(r.holder.id);
-    return { ...r, customer: customers.get(r.holder.id) ?? null, standing: s ? { status: s.status, reason: s.decisionReason } : null };
+    return {
+      ...r,
+      customer: customers.get(r.holder.id) ?? null,
+      standing: s ? { status: s.status, reason: s.decisionReason } : null,
+    };
   });
   const tracedG = flow.value.tracedG;
   const shipments = holders.filter((h) => h.holder.kind === "SHIPMENT");
   const onSite = holders.filter((h) => h.heldG > 0 && !LEFT_THE_BOOKS.has(h.holder.kind));
   const byCustomer = groupCustomers(
-    shipments.map((s) => ({ holderId: s.holder.id, grams: s.heldG, firstAt: s.firstAt?.getTime() ?? 0, lastAt: s.lastAt?.getTime() ?? 0 })),
+    shipments.map((s) => ({
+      holderId: s.holder.id,
+      grams: s.heldG,
+      firstAt: s.firstAt?.getTime() ?? 0,
+      lastAt: s.lastAt?.getTime() ?? 0,
+    })),
     customers,
   );
   return ok({
@@ -68,9 +98,18 @@ export async function recallReport(db: Db, siteId: number, input: unknown, now: 
     holders,
     productLots: holders.filter((h) => h.holder.kind === "PRODUCT_LOT"),
     shipments,
-    customers: byCustomer.map((c) => ({ customer: c.customer, grams: c.grams, pct: shareOf(c.grams, tracedG), shipments: c.shipments, firstAt: new Date(c.firstAt), lastAt: new Date(c.lastAt) })),
+    customers: byCustomer.map((c) => ({
+      customer: c.customer,
+      grams: c.grams,
+      pct: shareOf(c.grams, tracedG),
+      shipments: c.shipments,
+      firstAt: new Date(c.firstAt),
+      lastAt: new Date(c.lastAt),
+    })),
     onSite,
-    toHold: onSite.filter((h) => h.holder.kind === "PRODUCT_LOT" && h.standing !== null && h.standing.status !== "REJECTED").map((h) => h.holder.code),
+    toHold: onSite
+      .filter((h) => h.holder.kind === "PRODUCT_LOT" && h.standing !== null && h.standing.status !== "REJECTED")
+      .map((h) => h.holder.code),
     shippedG: shipments.reduce((s, h) => s + h.heldG, 0),
     onSiteG: onSite.reduce((s, h) => s + h.heldG, 0),
   });
@@ -78,7 +117,12 @@ export async function recallReport(db: Db, siteId: number, input: unknown, now: 
 
 type FlowRow = Omit<RecallHolderRow, "customer" | "standing">;
 
-function followSeeds(state: LedgerState, holderIds: readonly number[], from: number | null, to: number | null): Result<{ rows: FlowRow[]; tracedG: number; seedMoves: number; asOf: { moveId: number; at: Date } | null }> {
+function followSeeds(
+  state: LedgerState,
+  holderIds: readonly number[],
+  from: number | null,
+  to: number | null,
+): Result<{ rows: FlowRow[]; tracedG: number; seedMoves: number; asOf: { moveId: number; at: Date } | null }> {
   const realAt = (id: number) => state.realAt.get(id) ?? 0;
   const seeds = findSeedMoves(state.index, holderIds, { from, to, realAt });
   if (seeds.length === 0) return ok({ rows: [], tracedG: 0, seedMoves: 0, asOf: null });
@@ -96,17 +140,42 @@ function followSeeds(state: LedgerState, holderIds: readonly number[], from: num
     if (move === undefined) continue;
     const at = realAt(seedOf.get(move.id) ?? move.id);
     const s = span.get(move.toHolderId);
-    span.set(move.toHolderId, s === undefined ? { first: at, last: at } : { first: Math.min(s.first, at), last: Math.max(s.last, at) });
+    span.set(
+      move.toHolderId,
+      s === undefined ? { first: at, last: at } : { first: Math.min(s.first, at), last: Math.max(s.last, at) },
+    );
   }
   const rows: FlowRow[] = f.holders.flatMap((h) => {
     const ref = state.ledger.refs.get(h.holderId);
     if (ref === undefined) return [];
     const stage = stageOf(ref, state.tankService);
     const s = span.get(h.holderId);
-    return [{ holder: ref, stage, stageLabel: stageLabelOf(ref, stage), receivedG: h.receivedG, heldG: h.heldG, pct: shareOf(h.receivedG, f.enteredG), firstAt: s ? new Date(s.first) : null, lastAt: s ? new Date(s.last) : null }];
+    return [
+      {
+        holder: ref,
+        stage,
+        stageLabel: stageLabelOf(ref, stage),
+        receivedG: h.receivedG,
+        heldG: h.heldG,
+        pct: shareOf(h.receivedG, f.enteredG),
+        firstAt: s ? new Date(s.first) : null,
+        lastAt: s ? new Date(s.last) : null,
+      },
+    ];
   });
-  rows.sort((a, b) => a.stage - b.stage || (a.firstAt?.getTime() ?? 0) - (b.firstAt?.getTime() ?? 0) || a.holder.code.localeCompare(b.holder.code));
-  const last = f.asOf === null ? null : { moveId: seedOf.get(f.asOf.moveId) ?? f.asOf.moveId, at: new Date(realAt(seedOf.get(f.asOf.moveId) ?? f.asOf.moveId)) };
+  rows.sort(
+    (a, b) =>
+      a.stage - b.stage ||
+      (a.firstAt?.getTime() ?? 0) - (b.firstAt?.getTime() ?? 0) ||
+      a.holder.code.localeCompare(b.holder.code),
+  );
+  const last =
+    f.asOf === null
+      ? null
+      : {
+          moveId: seedOf.get(f.asOf.moveId) ?? f.asOf.moveId,
+          at: new Date(realAt(seedOf.get(f.asOf.moveId) ?? f.asOf.moveId)),
+        };
   return ok({ rows, tracedG: f.enteredG, seedMoves: seeds.length, asOf: last });
 }
 
@@ -115,14 +184,23 @@ function followSeeds(state: LedgerState, holderIds: readonly number[], from: num
  * by the caller), through the product lots' own hold decision: each is audited, and all are held in one
  * transaction or none.
  */
-export async function holdRecalledProductLots(db: Db, actor: Actor, input: unknown): Promise<Result<{ held: string[] }>> {
+export async function holdRecalledProductLots(
+  db: Db,
+  actor: Actor,
+  input: unknown,
+): Promise<Result<{ held: string[] }>> {
   const parsed = parseInput(RecallHoldSchema, input);
   if (!parsed.ok) return parsed;
   const { reason, ...query } = parsed.value;
   const r = await recallReport(db, actor.siteId, query, actor.now, { withCustomers: false });
   if (!r.ok) return r;
   const lots = r.value.toHold;
-  if (lots.length === 0) return fail("RECALL.NOTHING_TO_HOLD", "No product lot on site holds any of this material; nothing to put on hold", "reason");
+  if (lots.length === 0)
+    return fail(
+      "RECALL.NOTHING_TO_HOLD",
+      "No product lot on site holds any of this material; nothing to put on hold",
+      "reason",
+    );
   return runInTransaction(db, async (tx) => {
     for (const code of lots) await applyProductDecision(tx, actor, { productLotCode: code, decision: "HOLD", reason });
     return { held: lots };

@@ -36,7 +36,9 @@ export function seedLedger(index: LedgerIndex, seedMoveIds: readonly number[]): 
     firstPosition = Math.min(firstPosition, pos);
     if (index.moves[pos]?.fromHolderId !== null) needsSplit = true;
   }
-  const known = [...seeds].filter((id) => index.positionOf.has(id)).sort((a, b) => (index.positionOf.get(a) ?? 0) - (index.positionOf.get(b) ?? 0));
+  const known = [...seeds]
+    .filter((id) => index.positionOf.has(id))
+    .sort((a, b) => (index.positionOf.get(a) ?? 0) - (index.positionOf.get(b) ?? 0));
   if (!needsSplit) return ok({ index, originIds: known, seedOf: new Map(), sinkHolderId: null, firstPosition });
 
   let maxMoveId = 0;
@@ -84,10 +86,12 @@ export function findSeedMoves(
       positions.push(pos);
     }
   }
-  return positions.sort((a, b) => a - b).flatMap((pos) => {
-    const m = index.moves[pos];
-    return m === undefined ? [] : [m.id];
-  });
+  return positions
+    .sort((a, b) => a - b)
+    .flatMap((pos) => {
+      const m = index.moves[pos];
+      return m === undefined ? [] : [m.id];
+    });
 }
 
 export interface ReachedRow {

@@ -1,6 +1,13 @@
 import { fail, failMany, invariant, ok } from "@/lib/errors";
 import type { Result } from "@/lib/errors";
-import { addToLayer, copyToLayer, EMPTY_PARTS, mergeAllParts, settleLayer, takeFromLayer } from "@/lib/trace/composition";
+import {
+  addToLayer,
+  copyToLayer,
+  EMPTY_PARTS,
+  mergeAllParts,
+  settleLayer,
+  takeFromLayer,
+} from "@/lib/trace/composition";
 import type { CompositionParts, MutableLayer } from "@/lib/trace/composition";
 import { checkMove, compareMoves, formatMoveField } from "@/lib/trace/ledger";
 import type { Mixing, TraceHolder, TraceIssue, TraceMove } from "@/lib/trace/ledger";
@@ -82,7 +89,11 @@ export function createReplay(holders: ReadonlyMap<number, TraceHolder>): Replay 
  * ancestors; the rest — shipments and disposals above all, which keep every origin they ever received —
  * would be copied for nothing). A replay restored in part answers only for the holders it restored.
  */
-export function restoreReplay(holders: ReadonlyMap<number, TraceHolder>, snapshot: ReplaySnapshot, only?: ReadonlySet<number>): Result<Replay> {
+export function restoreReplay(
+  holders: ReadonlyMap<number, TraceHolder>,
+  snapshot: ReplaySnapshot,
+  only?: ReadonlySet<number>,
+): Result<Replay> {
   const issues: TraceIssue[] = [];
   const bad = (holderId: number, why: string) =>
     issues.push({
@@ -92,7 +103,11 @@ export function restoreReplay(holders: ReadonlyMap<number, TraceHolder>, snapsho
       holderId,
     });
   if (snapshot.format !== REPLAY_SNAPSHOT_FORMAT) {
-    return fail("TRACE.SNAPSHOT_INVALID", `Snapshot format "${String(snapshot.format as unknown)}" is not ${String(REPLAY_SNAPSHOT_FORMAT)}.`, "snapshot.format");
+    return fail(
+      "TRACE.SNAPSHOT_INVALID",
+      `Snapshot format "${String(snapshot.format as unknown)}" is not ${String(REPLAY_SNAPSHOT_FORMAT)}.`,
+      "snapshot.format",
+    );
   }
   const states = new Map<number, HolderState>();
   for (const h of snapshot.holders) {
@@ -107,7 +122,9 @@ export function restoreReplay(holders: ReadonlyMap<number, TraceHolder>, snapsho
     if (states.has(h.holderId)) bad(h.holderId, "listed twice.");
     const layers: Layer[] = [];
     for (const l of h.layers) {
-      const sorted = l.originIds.every((id, i) => Number.isSafeInteger(id) && (i === 0 || id > (l.originIds[i - 1] ?? id)));
+      const sorted = l.originIds.every(
+        (id, i) => Number.isSafeInteger(id) && (i === 0 || id > (l.originIds[i - 1] ?? id)),
+      );
       const positive = l.grams.every((g) => Number.isSafeInteger(g) && g > 0);
       if (!sorted || !positive || l.originIds.length !== l.grams.length || l.originIds.length === 0) {
         bad(h.holderId, "each layer needs ascending origin ids with positive whole grams.");
@@ -119,7 +136,11 @@ export function restoreReplay(holders: ReadonlyMap<number, TraceHolder>, snapsho
   }
   const leftOut = new Set(snapshot.leftOut ?? []);
   for (const id of leftOut) {
-    if (only?.has(id) === true) bad(id, "was left out of this snapshot, so a trace that needs its mixture must start before it received anything.");
+    if (only?.has(id) === true)
+      bad(
+        id,
+        "was left out of this snapshot, so a trace that needs its mixture must start before it received anything.",
+      );
   }
   if (issues.length > 0) return failMany(issues);
   return ok(buildReplay(holders, states, { ...snapshot.applied }, only === undefined ? leftOut : new Set()));
@@ -132,7 +153,8 @@ function buildReplay(
   unknown: ReadonlySet<number> = new Set(),
 ): Replay {
   /** Holders whose mixture the restored snapshot did not carry: reading one is a programming error, not a zero. */
-  const known = (holderId: number): void => invariant(!unknown.has(holderId), `holder ${holderId} was left out of the snapshot this replay resumed`);
+  const known = (holderId: number): void =>
+    invariant(!unknown.has(holderId), `holder ${holderId} was left out of the snapshot this replay resumed`);
   const stateOf = (holderId: number): HolderState | undefined => states.get(holderId);
 
   const requireState = (holderId: number): HolderState => {
@@ -259,18 +281,30 @@ function buildReplay(
       const s = stateOf(holderId);
       return s === undefined
         ? []
-        : liveLayers(s).map((l) => ({ enteredByMoveId: l.enteredByMoveId, parts: { originIds: [...l.originIds], grams: [...l.grams] } }));
+        : liveLayers(s).map((l) => ({
+            enteredByMoveId: l.enteredByMoveId,
+            parts: { originIds: [...l.originIds], grams: [...l.grams] },
+          }));
     },
     listStockedHolderIds() {
-      return [...states].filter(([, s]) => s.totalG > 0).map(([id]) => id).sort((a, b) => a - b);
+      return [...states]
+        .filter(([, s]) => s.totalG > 0)
+        .map(([id]) => id)
+        .sort((a, b) => a - b);
     },
     snapshot(leaveOut) {
-      const leftOut = [...states].filter(([holderId, s]) => s.totalG > 0 && leaveOut?.(holderId) === true).map(([holderId]) => holderId);
+      const leftOut = [...states]
+        .filter(([holderId, s]) => s.totalG > 0 && leaveOut?.(holderId) === true)
+        .map(([holderId]) => holderId);
       for (const id of unknown) if (!leftOut.includes(id)) leftOut.push(id);
       return {
         format: REPLAY_SNAPSHOT_FORMAT,
         ...(leftOut.length > 0 ? { leftOut: leftOut.sort((a, b) => a - b) } : {}),
-        applied: { count: applied.count, massSumG: applied.massSumG, last: applied.last === null ? null : { ...applied.last } },
+        applied: {
+          count: applied.count,
+          massSumG: applied.massSumG,
+          last: applied.last === null ? null : { ...applied.last },
+        },
         holders: [...states]
           .filter(([holderId, s]) => s.totalG > 0 && leaveOut?.(holderId) !== true && !unknown.has(holderId))
           .sort((a, b) => a[0] - b[0])

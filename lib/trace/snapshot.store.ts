@@ -13,7 +13,12 @@ export type SnapshotOrder = "dated" | "booked";
 function isSnapshot(v: unknown): v is ReplaySnapshot {
   if (v === null || typeof v !== "object") return false;
   const s = v as Partial<ReplaySnapshot>;
-  return s.format === REPLAY_SNAPSHOT_FORMAT && typeof s.applied?.count === "number" && typeof s.applied.massSumG === "number" && Array.isArray(s.holders);
+  return (
+    s.format === REPLAY_SNAPSHOT_FORMAT &&
+    typeof s.applied?.count === "number" &&
+    typeof s.applied.massSumG === "number" &&
+    Array.isArray(s.holders)
+  );
 }
 
 /**
@@ -24,7 +29,11 @@ const rowOf = new WeakMap<ReplaySnapshot, number>();
 
 /** The site's stored snapshots for this order, oldest first; rows of another format or unreadable are skipped. */
 export async function loadTraceSnapshots(db: Db, siteId: number, order: SnapshotOrder): Promise<ReplaySnapshot[]> {
-  const rows = await db.traceSnapshot.findMany({ where: { siteId, ledgerOrder: order, format: REPLAY_SNAPSHOT_FORMAT }, orderBy: { appliedCount: "asc" }, select: { id: true, body: true } });
+  const rows = await db.traceSnapshot.findMany({
+    where: { siteId, ledgerOrder: order, format: REPLAY_SNAPSHOT_FORMAT },
+    orderBy: { appliedCount: "asc" },
+    select: { id: true, body: true },
+  });
   const out: ReplaySnapshot[] = [];
   for (const r of rows) {
     try {
@@ -45,7 +54,12 @@ export async function loadTraceSnapshots(db: Db, siteId: number, order: Snapshot
  * processes saving at once may collide on the unique key; the loser logs and leaves the winner's rows,
  * which describe the same ledger (and are checked against it when read).
  */
-export async function saveTraceSnapshots(db: Db, siteId: number, order: SnapshotOrder, all: readonly ReplaySnapshot[]): Promise<{ written: number; removed: number }> {
+export async function saveTraceSnapshots(
+  db: Db,
+  siteId: number,
+  order: SnapshotOrder,
+  all: readonly ReplaySnapshot[],
+): Promise<{ written: number; removed: number }> {
   // One per position: a replay resumed from a snapshot at a month start takes another at the same place;
   // the one already stored is kept.
   const byPosition = new Map<string, ReplaySnapshot>();
@@ -57,20 +71,36 @@ export async function saveTraceSnapshots(db: Db, siteId: number, order: Snapshot
   const snapshots = [...byPosition.values()];
   const stored = await db.traceSnapshot.findMany({ where: { siteId, ledgerOrder: order }, select: { id: true } });
   const present = new Set(stored.map((r) => r.id));
-  const keep = new Set(snapshots.flatMap((s) => {
-    const id = rowOf.get(s);
-    return id !== undefined && present.has(id) ? [id] : [];
-  }));
+  const keep = new Set(
+    snapshots.flatMap((s) => {
+      const id = rowOf.get(s);
+      return id !== undefined && present.has(id) ? [id] : [];
+    }),
+  );
   const stale = stored.filter((r) => !keep.has(r.id)).map((r) => r.id);
   const missing = snapshots.filter((s) => !keep.has(rowOf.get(s) ?? -1));
   if (stale.length === 0 && missing.length === 0) return { written: 0, removed: 0 };
   try {
     const [, ...created] = await db.$transaction([
       // Rows in the way of a missing snapshot's key go too: they hold an older build at that position.
-      db.traceSnapshot.deleteMany({ where: { OR: [{ id: { in: stale } }, { siteId, ledgerOrder: order, appliedCount: { in: missing.map((s) => s.applied.count) } }] } }),
+      db.traceSnapshot.deleteMany({
+        where: {
+          OR: [
+            { id: { in: stale } },
+            { siteId, ledgerOrder: order, appliedCount: { in: missing.map((s) => s.applied.count) } },
+          ],
+        },
+      }),
       ...missing.map((s) =>
         db.traceSnapshot.create({
-          data: { siteId, ledgerOrder: order, appliedCount: s.applied.count, lastMoveId: s.applied.last?.moveId ?? null, format: s.format, body: JSON.stringify(s) },
+          data: {
+            siteId,
+            ledgerOrder: order,
+            appliedCount: s.applied.count,
+            lastMoveId: s.applied.last?.moveId ?? null,
+            format: s.format,
+            body: JSON.stringify(s),
+          },
           select: { id: true },
         }),
       ),
@@ -80,7 +110,10 @@ export async function saveTraceSnapshots(db: Db, siteId: number, order: Snapshot
       if (row !== undefined) rowOf.set(s, row.id);
     });
   } catch (err) {
-    log.warn({ err, siteId, event: "trace.snapshots.save" }, "trace snapshots were not stored (another process may have stored them)");
+    log.warn(
+      { err, siteId, event: "trace.snapshots.save" },
+      "trace snapshots were not stored (another process may have stored them)",
+    );
     return { written: 0, removed: 0 };
   }
   return { written: missing.length, removed: stale.length };

@@ -32,7 +32,13 @@ import { groupOrigins, restrictToFeedstock } from "@/lib/trace/origin-groups";
 import { createReplay } from "@/lib/trace/replay";
 import { loadTraceSnapshots, saveTraceSnapshots } from "@/lib/trace/snapshot.store";
 import type { Replay, ReplaySnapshot } from "@/lib/trace/replay";
-import { getHolderSubject, getLedgerVersion, getSourceSubject, listEntryHolderFacts, listTankServices } from "@/lib/trace/trace.store";
+import {
+  getHolderSubject,
+  getLedgerVersion,
+  getSourceSubject,
+  listEntryHolderFacts,
+  listTankServices,
+} from "@/lib/trace/trace.store";
 import type { EntryHolderFacts, LedgerVersion, TraceSubject } from "@/lib/trace/trace.store";
 import { attachCustomers } from "@/lib/trace/customers";
 import type { CustomerShare, ShipmentCustomer } from "@/lib/trace/customers";
@@ -236,7 +242,12 @@ export function stageOf(ref: HolderRef, tankService: ReadonlyMap<number, string>
   }
 }
 
-const LEFT_BOOKS_LABEL: Partial<Record<HolderKind, string>> = { SHIPMENT: "Shipped", DISPOSAL: "Hauled away as waste", LOSS: "Recorded losses", DIFFERENCE: "Unmeasured batch differences" };
+const LEFT_BOOKS_LABEL: Partial<Record<HolderKind, string>> = {
+  SHIPMENT: "Shipped",
+  DISPOSAL: "Hauled away as waste",
+  LOSS: "Recorded losses",
+  DIFFERENCE: "Unmeasured batch differences",
+};
 
 export function stageLabelOf(ref: HolderRef, stage: number): string {
   return (stage === 7 ? LEFT_BOOKS_LABEL[ref.kind] : undefined) ?? STAGES[stage] ?? labelOf(ref.kind);
@@ -273,8 +284,14 @@ export interface LedgerState {
   facts: Promise<Map<number, EntryHolderFacts>> | null;
 }
 
-const cacheHome = globalThis as unknown as { tracevatTraceCache?: Map<number, Promise<Result<LedgerState>>>; tracevatTraceWarming?: Set<number> };
-const cache: Map<number, Promise<Result<LedgerState>>> = (cacheHome.tracevatTraceCache ??= new Map<number, Promise<Result<LedgerState>>>());
+const cacheHome = globalThis as unknown as {
+  tracevatTraceCache?: Map<number, Promise<Result<LedgerState>>>;
+  tracevatTraceWarming?: Set<number>;
+};
+const cache: Map<number, Promise<Result<LedgerState>>> = (cacheHome.tracevatTraceCache ??= new Map<
+  number,
+  Promise<Result<LedgerState>>
+>());
 /** Sites whose index is being built by warmTraceCache (set before the version query, so two pages start one build). */
 const warming: Set<number> = (cacheHome.tracevatTraceWarming ??= new Set());
 /** Per site with a save running: the latest snapshots still to store (null: none newer than the running save). */
@@ -322,7 +339,11 @@ function terminalHolders(index: LedgerIndex): ((holderId: number) => boolean) | 
  * month start crossed (UTC months; booking-order indexes use the real dates). Fails when the ledger
  * cannot be replayed in this order.
  */
-function extendSnapshots(index: LedgerIndex, kept: readonly ReplaySnapshot[], realAt: ReadonlyMap<number, number>): Result<ReplaySnapshot[]> {
+function extendSnapshots(
+  index: LedgerIndex,
+  kept: readonly ReplaySnapshot[],
+  realAt: ReadonlyMap<number, number>,
+): Result<ReplaySnapshot[]> {
   const leaveOut = terminalHolders(index);
   // Snapshots that left terminal holders out cannot serve a ledger that draws from one.
   const snapshots = leaveOut === undefined ? [] : [...kept];
@@ -368,10 +389,19 @@ export function renameIssues(ledger: TraceLedger, issues: readonly DomainIssue[]
   return issues.map((i) => ({ ...i, message: describeIssues(ledger, [i]) }));
 }
 
-async function buildState(db: Db, siteId: number, version: LedgerVersion, previous: LedgerState | null, now: Date): Promise<Result<LedgerState>> {
+async function buildState(
+  db: Db,
+  siteId: number,
+  version: LedgerVersion,
+  previous: LedgerState | null,
+  now: Date,
+): Promise<Result<LedgerState>> {
   const started = performance.now();
   // After a booking, read only what is new (holders and movements are append-only); whole otherwise.
-  const read = previous === null ? loadTraceLedger(db, siteId) : extendTraceLedger(db, siteId, previous.ledger, version.count).then((l) => l ?? loadTraceLedger(db, siteId));
+  const read =
+    previous === null
+      ? loadTraceLedger(db, siteId)
+      : extendTraceLedger(db, siteId, previous.ledger, version.count).then((l) => l ?? loadTraceLedger(db, siteId));
   const [ledger, tankService] = await Promise.all([read, listTankServices(db, siteId)]);
   const realAt = new Map(ledger.moves.map((m) => [m.id, m.at]));
   let problem: string | null = null;
@@ -380,7 +410,12 @@ async function buildState(db: Db, siteId: number, version: LedgerVersion, previo
     if (!indexed.ok) return failMany(renameIssues(ledger, indexed.issues));
     const index = indexed.value;
     // A fresh process resumes from the snapshots stored in the database, if they still fit this ledger.
-    const kept = previous === null ? await loadTraceSnapshots(db, siteId, order) : previous.order === order ? previous.snapshots : [];
+    const kept =
+      previous === null
+        ? await loadTraceSnapshots(db, siteId, order)
+        : previous.order === order
+          ? previous.snapshots
+          : [];
     const reusable = kept.filter((s) => snapshotFits(index, s));
     const snapshots = extendSnapshots(index, reusable, realAt);
     if (!snapshots.ok) {
@@ -405,7 +440,10 @@ async function buildState(db: Db, siteId: number, version: LedgerVersion, previo
       facts: null,
     });
   }
-  return fail("TRACE.LEDGER_NOT_REPLAYABLE", `The movement ledger cannot be replayed in date order or in booking order: ${problem ?? "unknown reason"}`);
+  return fail(
+    "TRACE.LEDGER_NOT_REPLAYABLE",
+    `The movement ledger cannot be replayed in date order or in booking order: ${problem ?? "unknown reason"}`,
+  );
 }
 
 /**
@@ -419,7 +457,9 @@ function storeSnapshots(db: Db, siteId: number, order: "dated" | "booked", snaps
   const next = async (): Promise<void> => {
     for (let job = unsaved.get(siteId); job !== undefined && job !== null; job = unsaved.get(siteId)) {
       unsaved.set(siteId, null);
-      await saveTraceSnapshots(db, siteId, job.order, job.snapshots).catch((err: unknown) => log.warn({ err, siteId }, "trace snapshots were not stored"));
+      await saveTraceSnapshots(db, siteId, job.order, job.snapshots).catch((err: unknown) =>
+        log.warn({ err, siteId }, "trace snapshots were not stored"),
+      );
     }
     unsaved.delete(siteId);
   };
@@ -488,7 +528,13 @@ export function snapshotCovering(state: LedgerState, count: number): ReplaySnaps
   return best;
 }
 
-async function answer<T>(db: Db, siteId: number, now: Date, key: string, compute: (state: LedgerState) => Promise<Result<Omit<T, "freshness">>>): Promise<Result<T>> {
+async function answer<T>(
+  db: Db,
+  siteId: number,
+  now: Date,
+  key: string,
+  compute: (state: LedgerState) => Promise<Result<Omit<T, "freshness">>>,
+): Promise<Result<T>> {
   const started = performance.now();
   const stateR = await requireLedgerState(db, siteId, now);
   if (!stateR.ok) return stateR;
@@ -506,7 +552,10 @@ async function answer<T>(db: Db, siteId: number, now: Date, key: string, compute
   return ok({ ...result.value, freshness: freshnessOf(state, performance.now() - started, cached !== undefined) } as T);
 }
 
-function realPosition(state: LedgerState, pos: { moveId: number; at: number } | null): { moveId: number; at: Date } | null {
+function realPosition(
+  state: LedgerState,
+  pos: { moveId: number; at: number } | null,
+): { moveId: number; at: Date } | null {
   return pos === null ? null : { moveId: pos.moveId, at: new Date(state.realAt.get(pos.moveId) ?? pos.at) };
 }
 
@@ -531,17 +580,36 @@ function certificateOf(entry: EntryHolderFacts, enteredAt: number): { valid: boo
   return { valid, text: `${s.certificateScheme} ${s.certificateNo}${until}` };
 }
 
-function describeOrigin(state: LedgerState, facts: ReadonlyMap<number, EntryHolderFacts>, originId: number): OriginFacts {
+function describeOrigin(
+  state: LedgerState,
+  facts: ReadonlyMap<number, EntryHolderFacts>,
+  originId: number,
+): OriginFacts {
   const pos = state.index.positionOf.get(originId);
   const move = pos === undefined ? undefined : state.index.moves[pos];
   const entryRef = move === undefined ? null : (state.ledger.refs.get(move.toHolderId) ?? null);
   const entry = move === undefined ? null : (facts.get(move.toHolderId) ?? null);
   const enteredAt = state.realAt.get(originId) ?? 0;
   const feedstock = entry !== null && (entry.kind === "PICKUP" || entry.kind === "LOT");
-  if (entry === null || !feedstock) return { originId, enteredAt, entry, entryRef, certification: "NOT_FEEDSTOCK", certificate: null, feedstock: false };
+  if (entry === null || !feedstock)
+    return {
+      originId,
+      enteredAt,
+      entry,
+      entryRef,
+      certification: "NOT_FEEDSTOCK",
+      certificate: null,
+      feedstock: false,
+    };
   const cert = certificateOf(entry, enteredAt);
   const lotCertified = entry.lot?.certified ?? false;
-  const certification: CertificationStatus = lotCertified ? (cert.valid ? "CERTIFIED" : "LOT_ONLY") : cert.valid ? "SOURCE_ONLY" : "NOT_CERTIFIED";
+  const certification: CertificationStatus = lotCertified
+    ? cert.valid
+      ? "CERTIFIED"
+      : "LOT_ONLY"
+    : cert.valid
+      ? "SOURCE_ONLY"
+      : "NOT_CERTIFIED";
   return { originId, enteredAt, entry, entryRef, certification, certificate: cert.text, feedstock: true };
 }
 
@@ -564,18 +632,35 @@ function originRow(o: OriginFacts, grams: number, totalG: number): OriginRow {
 }
 
 type RowFacts = Omit<ContributionRow, "key" | "grams" | "pct" | "origins">;
-const NO_FACTS: RowFacts = { label: "", materialKind: null, certification: null, lotCertified: null, certificate: null, lotCode: null, sourceCode: null };
+const NO_FACTS: RowFacts = {
+  label: "",
+  materialKind: null,
+  certification: null,
+  lotCertified: null,
+  certificate: null,
+  lotCode: null,
+  sourceCode: null,
+};
 
 /** Groups a composition with groupOrigins; grams are sums of integer origin grams, so every table adds up to the total. */
-function groupRows(composition: TraceComposition, info: ReadonlyMap<number, OriginFacts>, keyOf: (o: OriginFacts) => string, describe: (key: string, sample: OriginFacts) => Partial<RowFacts>): ContributionRow[] {
+function groupRows(
+  composition: TraceComposition,
+  info: ReadonlyMap<number, OriginFacts>,
+  keyOf: (o: OriginFacts) => string,
+  describe: (key: string, sample: OriginFacts) => Partial<RowFacts>,
+): ContributionRow[] {
   const sample = new Map<string, OriginFacts>();
-  const groups = groupOrigins(composition, () => undefined, (_info, originId) => {
-    const o = info.get(originId);
-    invariant(o !== undefined, `origin ${originId} is described`);
-    const key = keyOf(o);
-    if (!sample.has(key)) sample.set(key, o);
-    return key;
-  });
+  const groups = groupOrigins(
+    composition,
+    () => undefined,
+    (_info, originId) => {
+      const o = info.get(originId);
+      invariant(o !== undefined, `origin ${originId} is described`);
+      const key = keyOf(o);
+      if (!sample.has(key)) sample.set(key, o);
+      return key;
+    },
+  );
   return groups.map((g) => {
     const key = String(g.key);
     const s = sample.get(key);
@@ -585,7 +670,8 @@ function groupRows(composition: TraceComposition, info: ReadonlyMap<number, Orig
 }
 
 function buildTables(composition: TraceComposition, info: ReadonlyMap<number, OriginFacts>): ContributionTables {
-  const entryLabel = (o: OriginFacts) => (o.entry ? `${labelOf(o.entry.kind)} ${o.entry.code}` : `origin ${o.originId}`);
+  const entryLabel = (o: OriginFacts) =>
+    o.entry ? `${labelOf(o.entry.kind)} ${o.entry.code}` : `origin ${o.originId}`;
   return {
     totalG: composition.totalG,
     byLot: groupRows(
@@ -595,16 +681,36 @@ function buildTables(composition: TraceComposition, info: ReadonlyMap<number, Or
       (key, o) => {
         const lot = o.entry?.lot ?? null;
         return lot === null
-          ? { label: o.entry?.reagent ? `${labelOf(o.entry.reagent.reagent)} (reagent lot)` : "Not received as a feedstock lot", materialKind: o.entry?.material ?? null }
-          : { label: `${labelOf(lot.material)}, ${lot.origin === "DELIVERY" ? "delivered" : "from pickups"}`, materialKind: lot.material, lotCertified: lot.certified, lotCode: key };
+          ? {
+              label: o.entry?.reagent
+                ? `${labelOf(o.entry.reagent.reagent)} (reagent lot)`
+                : "Not received as a feedstock lot",
+              materialKind: o.entry?.material ?? null,
+            }
+          : {
+              label: `${labelOf(lot.material)}, ${lot.origin === "DELIVERY" ? "delivered" : "from pickups"}`,
+              materialKind: lot.material,
+              lotCertified: lot.certified,
+              lotCode: key,
+            };
       },
     ),
     byPickup: groupRows(
       composition,
       info,
-      (o) => o.entry?.pickup?.code ?? (o.entry?.lot ? `${o.entry.lot.code}: ${o.entry.lot.origin === "DELIVERY" ? "delivery" : "receiving difference"}` : entryLabel(o)),
+      (o) =>
+        o.entry?.pickup?.code ??
+        (o.entry?.lot
+          ? `${o.entry.lot.code}: ${o.entry.lot.origin === "DELIVERY" ? "delivery" : "receiving difference"}`
+          : entryLabel(o)),
       (_key, o) => ({
-        label: o.entry?.pickup ? (o.entry.source?.name ?? "") : o.entry?.lot?.origin === "DELIVERY" ? `Delivered by ${o.entry.source?.name ?? "a supplier"}` : o.entry?.lot ? "Measured at the plant above the pickups' estimate" : "Not a pickup",
+        label: o.entry?.pickup
+          ? (o.entry.source?.name ?? "")
+          : o.entry?.lot?.origin === "DELIVERY"
+            ? `Delivered by ${o.entry.source?.name ?? "a supplier"}`
+            : o.entry?.lot
+              ? "Measured at the plant above the pickups' estimate"
+              : "Not a pickup",
         materialKind: o.entry?.material ?? null,
         certification: o.certification,
         certificate: o.certificate,
@@ -617,7 +723,11 @@ function buildTables(composition: TraceComposition, info: ReadonlyMap<number, Or
       info,
       (o) => o.entry?.source?.code ?? (o.entry?.lot ? "(receiving difference)" : entryLabel(o)),
       (_key, o) => ({
-        label: o.entry?.source ? `${o.entry.source.name} (${labelOf(o.entry.source.kind).toLowerCase()})` : o.entry?.lot ? "Measured surplus at receiving, no source" : "Not from a source",
+        label: o.entry?.source
+          ? `${o.entry.source.name} (${labelOf(o.entry.source.kind).toLowerCase()})`
+          : o.entry?.lot
+            ? "Measured surplus at receiving, no source"
+            : "Not from a source",
         materialKind: o.entry?.material ?? null,
         certificate: o.certificate,
         sourceCode: o.entry?.source?.code ?? null,
@@ -641,15 +751,24 @@ function buildTables(composition: TraceComposition, info: ReadonlyMap<number, Or
 // ---- backward --------------------------------------------------------------------------------------
 
 /** What is in a product lot, a tank at a time, a shipment or a batch: by lot, pickup, source, material and certification. */
-export async function traceBackwardReport(db: Db, siteId: number, input: unknown, now: Date): Promise<Result<BackwardTraceReport>> {
+export async function traceBackwardReport(
+  db: Db,
+  siteId: number,
+  input: unknown,
+  now: Date,
+): Promise<Result<BackwardTraceReport>> {
   const parsed = parseInput(BackwardTraceQuerySchema, input);
   if (!parsed.ok) return parsed;
   const q = parsed.value;
   const subject = await getHolderSubject(db, siteId, q.kind, q.code);
   if (subject === null) return fail("RECORD.NOT_FOUND", `${labelOf(q.kind)} ${q.code} does not exist`, "code");
   const at = q.kind === "TANK" ? (q.at ?? null) : null;
-  return answer<BackwardTraceReport>(db, siteId, now, `B|${q.kind}|${subject.code}|${at?.getTime() ?? ""}`, async (state) =>
-    computeBackward(state, subject, q.kind, at, await requireFacts(db, state)),
+  return answer<BackwardTraceReport>(
+    db,
+    siteId,
+    now,
+    `B|${q.kind}|${subject.code}|${at?.getTime() ?? ""}`,
+    async (state) => computeBackward(state, subject, q.kind, at, await requireFacts(db, state)),
   );
 }
 
@@ -663,14 +782,23 @@ function computeBackward(
   const holderId = subject.holderIds[0];
   invariant(holderId !== undefined, "a holder subject has its holder id");
   const target = state.ledger.refs.get(holderId);
-  if (target === undefined) return fail("RECORD.NOT_FOUND", `${labelOf(kind)} ${subject.code} is not in this site's ledger`, "code");
+  if (target === undefined)
+    return fail("RECORD.NOT_FOUND", `${labelOf(kind)} ${subject.code} is not in this site's ledger`, "code");
   const basis = kind === "TANK" ? "STOCK" : "RECEIVED";
-  const atIndex = at === null ? Number.POSITIVE_INFINITY : state.order === "dated" ? at.getTime() : lastIdAtOrBefore(state, at.getTime());
+  const atIndex =
+    at === null
+      ? Number.POSITIVE_INFINITY
+      : state.order === "dated"
+        ? at.getTime()
+        : lastIdAtOrBefore(state, at.getTime());
   const targetPos = findLastPositionAtOrBefore(state.index, atIndex);
   const firstInto = state.index.into.get(holderId)?.[0] ?? Number.POSITIVE_INFINITY;
   // "received" must see every move into the holder: resume only from a snapshot taken before the first.
   const from = snapshotCovering(state, basis === "STOCK" ? targetPos + 1 : Math.min(firstInto, targetPos + 1));
-  const traced = traceHolder(state.index, holderId, { ...(at === null ? {} : { at: atIndex }), ...(from === undefined ? {} : { from }) });
+  const traced = traceHolder(state.index, holderId, {
+    ...(at === null ? {} : { at: atIndex }),
+    ...(from === undefined ? {} : { from }),
+  });
   if (!traced.ok) return failMany(renameIssues(state.ledger, traced.issues));
   const t = traced.value;
   const composition = basis === "STOCK" ? t.stock : t.received;
@@ -680,11 +808,16 @@ function computeBackward(
   const feedstock = restrictToFeedstock(composition, (id) => info.get(id)?.feedstock === true);
   const reagentOrigins = composition.origins.filter((o) => info.get(o.originId)?.entry?.kind === "REAGENT_LOT");
   const reagentsG = reagentOrigins.reduce((s, o) => s + o.grams, 0);
-  const reagents = groupRows({ totalG: composition.totalG, origins: reagentOrigins }, info, (o) => o.entry?.code ?? String(o.originId), (_key, o) => ({
-    label: o.entry?.reagent ? `${labelOf(o.entry.reagent.reagent)} from ${o.entry.reagent.supplier}` : "Reagent",
-    materialKind: o.entry?.material ?? null,
-    certification: "NOT_FEEDSTOCK",
-  }));
+  const reagents = groupRows(
+    { totalG: composition.totalG, origins: reagentOrigins },
+    info,
+    (o) => o.entry?.code ?? String(o.originId),
+    (_key, o) => ({
+      label: o.entry?.reagent ? `${labelOf(o.entry.reagent.reagent)} from ${o.entry.reagent.supplier}` : "Reagent",
+      materialKind: o.entry?.material ?? null,
+      certification: "NOT_FEEDSTOCK",
+    }),
+  );
   return ok({
     query: { kind, code: subject.code, at },
     target,
@@ -732,14 +865,22 @@ function receivedFromCache(state: LedgerState, holderId: number): Result<HolderT
 
 /** Forward from a snapshot taken before the first origin entered, so the trace can stop once none of it can move. */
 function forwardFromCache(state: LedgerState, originIds: readonly number[]): Result<ForwardTrace> {
-  const firstPos = originIds.reduce((m, id) => Math.min(m, state.index.positionOf.get(id) ?? Number.POSITIVE_INFINITY), Number.POSITIVE_INFINITY);
+  const firstPos = originIds.reduce(
+    (m, id) => Math.min(m, state.index.positionOf.get(id) ?? Number.POSITIVE_INFINITY),
+    Number.POSITIVE_INFINITY,
+  );
   const from = snapshotCovering(state, firstPos);
   const fwd = traceForward(state.index, originIds, from === undefined ? {} : { from });
   return fwd.ok ? fwd : failMany(renameIssues(state.ledger, fwd.issues));
 }
 
 /** What one holder (a batch, a product lot, a shipment) received, through the site's cached index and snapshots. */
-export async function traceReceived(db: Db, siteId: number, holderId: number, now: Date): Promise<Result<CachedTraceView & { back: HolderTrace }>> {
+export async function traceReceived(
+  db: Db,
+  siteId: number,
+  holderId: number,
+  now: Date,
+): Promise<Result<CachedTraceView & { back: HolderTrace }>> {
   const state = await requireLedgerState(db, siteId, now);
   if (!state.ok) return state;
   const s = state.value;
@@ -749,15 +890,30 @@ export async function traceReceived(db: Db, siteId: number, holderId: number, no
 }
 
 /** A lot's own material (its backward trace) and where it went (forward from its origins), through the cache. */
-export async function traceLotMaterial(db: Db, siteId: number, lotHolderId: number, now: Date): Promise<Result<CachedTraceView & { back: HolderTrace; fwd: ForwardTrace }>> {
+export async function traceLotMaterial(
+  db: Db,
+  siteId: number,
+  lotHolderId: number,
+  now: Date,
+): Promise<Result<CachedTraceView & { back: HolderTrace; fwd: ForwardTrace }>> {
   const state = await requireLedgerState(db, siteId, now);
   if (!state.ok) return state;
   const s = state.value;
   const back = receivedFromCache(s, lotHolderId);
   if (!back.ok) return back;
-  const fwd = forwardFromCache(s, back.value.received.origins.map((o) => o.originId));
+  const fwd = forwardFromCache(
+    s,
+    back.value.received.origins.map((o) => o.originId),
+  );
   if (!fwd.ok) return fwd;
-  return ok({ ledger: s.ledger, index: s.index, order: s.order, orderProblem: s.orderProblem, back: back.value, fwd: fwd.value });
+  return ok({
+    ledger: s.ledger,
+    index: s.index,
+    order: s.order,
+    orderProblem: s.orderProblem,
+    back: back.value,
+    fwd: fwd.value,
+  });
 }
 
 /**
@@ -781,13 +937,33 @@ export function warmTraceCache(db: Db, siteId: number, now: Date): void {
 // ---- forward ---------------------------------------------------------------------------------------
 
 /** Where the material of a source, a pickup or a lot went: every holder that received or holds part of it. */
-export async function traceForwardReport(db: Db, siteId: number, input: unknown, now: Date, opts: { withCustomers: boolean } = { withCustomers: true }): Promise<Result<ForwardTraceReport>> {
+export async function traceForwardReport(
+  db: Db,
+  siteId: number,
+  input: unknown,
+  now: Date,
+  opts: { withCustomers: boolean } = { withCustomers: true },
+): Promise<Result<ForwardTraceReport>> {
   const parsed = parseInput(ForwardTraceQuerySchema, input);
   if (!parsed.ok) return parsed;
   const q = parsed.value;
-  const subject = q.kind === "SOURCE" ? await getSourceSubject(db, siteId, q.code) : await getHolderSubject(db, siteId, q.kind, q.code);
-  if (subject === null) return fail("RECORD.NOT_FOUND", `${q.kind === "SOURCE" ? "Source" : labelOf(q.kind)} ${q.code} does not exist`, "code");
-  const r = await answer<Omit<ForwardTraceReport, "byCustomer">>(db, siteId, now, `F|${q.kind}|${subject.code}`, async (state) => computeForward(state, subject, q.kind));
+  const subject =
+    q.kind === "SOURCE"
+      ? await getSourceSubject(db, siteId, q.code)
+      : await getHolderSubject(db, siteId, q.kind, q.code);
+  if (subject === null)
+    return fail(
+      "RECORD.NOT_FOUND",
+      `${q.kind === "SOURCE" ? "Source" : labelOf(q.kind)} ${q.code} does not exist`,
+      "code",
+    );
+  const r = await answer<Omit<ForwardTraceReport, "byCustomer">>(
+    db,
+    siteId,
+    now,
+    `F|${q.kind}|${subject.code}`,
+    async (state) => computeForward(state, subject, q.kind),
+  );
   if (!r.ok) return r;
   // Customers are read after the cached answer (a shipment's customer name is fixed when it is recorded),
   // and only for readers who may see customers (the read matrix keeps them from production).
@@ -797,7 +973,11 @@ export async function traceForwardReport(db: Db, siteId: number, input: unknown,
   return ok({ ...r.value, holders: rows, byCustomer });
 }
 
-function computeForward(state: LedgerState, subject: TraceSubject, kind: ForwardKind): Result<Omit<ForwardTraceReport, "freshness" | "byCustomer">> {
+function computeForward(
+  state: LedgerState,
+  subject: TraceSubject,
+  kind: ForwardKind,
+): Result<Omit<ForwardTraceReport, "freshness" | "byCustomer">> {
   const { index } = state;
   let originIds: number[];
   if (kind === "LOT") {
@@ -816,16 +996,31 @@ function computeForward(state: LedgerState, subject: TraceSubject, kind: Forward
   for (const m of f?.moves ?? []) {
     const pos = index.positionOf.get(m.moveId);
     const move = pos === undefined ? undefined : index.moves[pos];
-    if (move !== undefined && !firstAt.has(move.toHolderId)) firstAt.set(move.toHolderId, state.realAt.get(move.id) ?? move.at);
+    if (move !== undefined && !firstAt.has(move.toHolderId))
+      firstAt.set(move.toHolderId, state.realAt.get(move.id) ?? move.at);
   }
   const holders: ForwardHolderRow[] = (f?.holders ?? []).flatMap((h) => {
     const ref = state.ledger.refs.get(h.holderId);
     if (ref === undefined) return [];
     const stage = stageOf(ref, state.tankService);
     const first = firstAt.get(h.holderId);
-    return [{ holder: ref, stage, stageLabel: stageLabelOf(ref, stage), receivedG: h.receivedG, heldG: h.heldG, firstAt: first === undefined ? null : new Date(first) }];
+    return [
+      {
+        holder: ref,
+        stage,
+        stageLabel: stageLabelOf(ref, stage),
+        receivedG: h.receivedG,
+        heldG: h.heldG,
+        firstAt: first === undefined ? null : new Date(first),
+      },
+    ];
   });
-  holders.sort((a, b) => a.stage - b.stage || (a.firstAt?.getTime() ?? 0) - (b.firstAt?.getTime() ?? 0) || a.holder.code.localeCompare(b.holder.code));
+  holders.sort(
+    (a, b) =>
+      a.stage - b.stage ||
+      (a.firstAt?.getTime() ?? 0) - (b.firstAt?.getTime() ?? 0) ||
+      a.holder.code.localeCompare(b.holder.code),
+  );
   const byStage = new Map<string, { stage: number; label: string; grams: number; holders: number }>();
   for (const h of holders) {
     if (h.heldG === 0) continue;
@@ -873,7 +1068,13 @@ function holderNode(g: RawGraph, state: LedgerState, holderId: number, target = 
   const id = `h${holderId}`;
   if (!g.nodes.has(id)) {
     const ref = state.ledger.refs.get(holderId);
-    g.nodes.set(id, { stage: ref === undefined ? 7 : stageOf(ref, state.tankService), kind: ref?.kind ?? "LOSS", code: ref?.code ?? String(holderId), label: ref ? labelOf(ref.kind) : "Holder", target });
+    g.nodes.set(id, {
+      stage: ref === undefined ? 7 : stageOf(ref, state.tankService),
+      kind: ref?.kind ?? "LOSS",
+      code: ref?.code ?? String(holderId),
+      label: ref ? labelOf(ref.kind) : "Holder",
+      target,
+    });
   }
   return id;
 }
@@ -890,13 +1091,25 @@ function entryNode(g: RawGraph, id: string, stage: number, label: string): strin
 }
 
 /** A holder replayed alone under its own mixing model, its incoming moves standing in for origins. */
-function replayAlone(state: LedgerState, holderId: number, lastPos: number, onOut: (moveId: number, parts: CompositionParts) => void): Replay {
+function replayAlone(
+  state: LedgerState,
+  holderId: number,
+  lastPos: number,
+  onOut: (moveId: number, parts: CompositionParts) => void,
+): Replay {
   const { index } = state;
   const holder = index.holders.get(holderId);
   invariant(holder !== undefined, `holder ${holderId} is indexed`);
   const sink = -1;
-  const replay = createReplay(new Map<number, TraceHolder>([[holderId, holder], [sink, { id: sink, kind: "LOSS", mixing: "MIXED" }]]));
-  const positions = [...(index.into.get(holderId) ?? []), ...(index.outOf.get(holderId) ?? [])].filter((p) => p <= lastPos).sort((a, b) => a - b);
+  const replay = createReplay(
+    new Map<number, TraceHolder>([
+      [holderId, holder],
+      [sink, { id: sink, kind: "LOSS", mixing: "MIXED" }],
+    ]),
+  );
+  const positions = [...(index.into.get(holderId) ?? []), ...(index.outOf.get(holderId) ?? [])]
+    .filter((p) => p <= lastPos)
+    .sort((a, b) => a - b);
   for (const pos of positions) {
     const m = index.moves[pos];
     if (m === undefined) continue;
@@ -994,7 +1207,10 @@ function buildBackwardGraph(
     feed(stock.originIds, stock.grams);
   } else {
     const positions = (index.into.get(holderId) ?? []).filter((p) => p <= targetPos);
-    feed(positions.map((p) => index.moves[p]?.id ?? 0), positions.map((p) => index.moves[p]?.massG ?? 0));
+    feed(
+      positions.map((p) => index.moves[p]?.id ?? 0),
+      positions.map((p) => index.moves[p]?.massG ?? 0),
+    );
   }
   for (let pos = heap.pop(); pos !== undefined; pos = heap.pop()) {
     const grams = pending.get(pos) ?? 0;
@@ -1006,7 +1222,8 @@ function buildBackwardGraph(
       // An entry into a lot: a delivery from its supplier, or a receiving surplus. Reagent lots are leaves.
       const entry = facts.get(move.toHolderId);
       if (entry?.kind === "REAGENT_LOT") continue;
-      if (entry?.lot?.origin === "DELIVERY" && entry.source !== null) addEdge(g, sourceNode(g, entry.source.code, entry.source.name), to, grams);
+      if (entry?.lot?.origin === "DELIVERY" && entry.source !== null)
+        addEdge(g, sourceNode(g, entry.source.code, entry.source.name), to, grams);
       else addEdge(g, entryNode(g, "e-surplus", 0, "Receiving difference"), to, grams);
       continue;
     }
@@ -1020,8 +1237,14 @@ function buildBackwardGraph(
     if (grams < pruneBelowG) continue;
     const carried = carriedByFeeder(state, move.fromHolderId).get(move.id);
     if (carried === undefined || sumParts(carried) === 0) continue;
-    const split = allocateByWeight(grams, carried.originIds.map((id, i) => [id, carried.grams[i] ?? 0] as const));
-    feed(split.map(([id]) => id), split.map(([, part]) => part));
+    const split = allocateByWeight(
+      grams,
+      carried.originIds.map((id, i) => [id, carried.grams[i] ?? 0] as const),
+    );
+    feed(
+      split.map(([id]) => id),
+      split.map(([, part]) => part),
+    );
   }
   return foldGraph(
     g,
@@ -1031,7 +1254,13 @@ function buildBackwardGraph(
   );
 }
 
-function buildForwardGraph(state: LedgerState, subject: TraceSubject, kind: ForwardKind, moves: ReadonlyArray<{ moveId: number; grams: number }>, enteredG: number): TraceGraph | null {
+function buildForwardGraph(
+  state: LedgerState,
+  subject: TraceSubject,
+  kind: ForwardKind,
+  moves: ReadonlyArray<{ moveId: number; grams: number }>,
+  enteredG: number,
+): TraceGraph | null {
   if (enteredG === 0) return null;
   const { index } = state;
   const g: RawGraph = { nodes: new Map(), edges: new Map() };
@@ -1039,7 +1268,8 @@ function buildForwardGraph(state: LedgerState, subject: TraceSubject, kind: Forw
   // A source's pickups are drawn as the source itself; a lot's pickups as one intake box.
   const nodeOf = (holderId: number): string => {
     const ref = state.ledger.refs.get(holderId);
-    if (kind === "SOURCE" && subjectIds.has(holderId) && ref?.kind === "PICKUP") return sourceNode(g, subject.code, subject.label.slice(subject.code.length + 1) || "Source", true);
+    if (kind === "SOURCE" && subjectIds.has(holderId) && ref?.kind === "PICKUP")
+      return sourceNode(g, subject.code, subject.label.slice(subject.code.length + 1) || "Source", true);
     if (kind === "LOT" && ref?.kind === "PICKUP") return entryNode(g, "e-pickups", 1, "Pickups");
     return holderNode(g, state, holderId, subjectIds.has(holderId));
   };
@@ -1049,7 +1279,12 @@ function buildForwardGraph(state: LedgerState, subject: TraceSubject, kind: Forw
     if (move === undefined || move.fromHolderId === null) continue;
     addEdge(g, nodeOf(move.fromHolderId), nodeOf(move.toHolderId), m.grams);
   }
-  return foldGraph(g, enteredG, "Each arrow carries the traced material along one step, exactly as the forward trace attributes it (whole grams).", 0);
+  return foldGraph(
+    g,
+    enteredG,
+    "Each arrow carries the traced material along one step, exactly as the forward trace attributes it (whole grams).",
+    0,
+  );
 }
 
 /** Box weights from the arrows; per stage the largest boxes are kept and the rest folded into one "others" box. */
@@ -1079,12 +1314,31 @@ function foldGraph(g: RawGraph, totalG: number, note: string, pruneBelowG: numbe
     if (folded.length === 1) kept.push(...folded.splice(0));
     for (const id of kept) {
       const n = g.nodes.get(id);
-      if (n) nodes.push({ id, stage, kind: n.kind, code: n.code, label: n.label, grams: weight(id), folded: 0, target: n.target });
+      if (n)
+        nodes.push({
+          id,
+          stage,
+          kind: n.kind,
+          code: n.code,
+          label: n.label,
+          grams: weight(id),
+          folded: 0,
+          target: n.target,
+        });
     }
     if (folded.length > 1) {
       const id = `o${stage}`;
       for (const f of folded) rename.set(f, id);
-      nodes.push({ id, stage, kind: "OTHERS", code: "", label: `${folded.length} others`, grams: folded.reduce((s, f) => s + weight(f), 0), folded: folded.length, target: false });
+      nodes.push({
+        id,
+        stage,
+        kind: "OTHERS",
+        code: "",
+        label: `${folded.length} others`,
+        grams: folded.reduce((s, f) => s + weight(f), 0),
+        folded: folded.length,
+        target: false,
+      });
     }
   }
   const edges = new Map<string, GraphEdge>();
@@ -1097,7 +1351,15 @@ function foldGraph(g: RawGraph, totalG: number, note: string, pruneBelowG: numbe
     if (x === undefined) edges.set(key, { from, to, grams: e.grams });
     else x.grams += e.grams;
   }
-  return { stages: [...STAGES], nodes, edges: [...edges.values()].sort((a, b) => b.grams - a.grams), totalG, foldBelowPct: GRAPH_FOLD_BELOW_PCT, pruneBelowG, note };
+  return {
+    stages: [...STAGES],
+    nodes,
+    edges: [...edges.values()].sort((a, b) => b.grams - a.grams),
+    totalG,
+    foldBelowPct: GRAPH_FOLD_BELOW_PCT,
+    pruneBelowG,
+    note,
+  };
 }
 
 // ---- compositions for other features ----------------------------------------------------------------
@@ -1113,7 +1375,12 @@ export interface MoveCompositions {
  * custody uses it for the certified share of the oil charged to each batch). Reversed pairs are not in
  * the trace ledger, so a reversed move is absent from the answer.
  */
-export async function getMoveCompositions(db: Db, siteId: number, moveIds: readonly number[], now: Date): Promise<Result<MoveCompositions>> {
+export async function getMoveCompositions(
+  db: Db,
+  siteId: number,
+  moveIds: readonly number[],
+  now: Date,
+): Promise<Result<MoveCompositions>> {
   const wanted = [...new Set(moveIds)].sort((a, b) => a - b);
   return answer<MoveCompositions>(db, siteId, now, `M|${wanted.length}|${wanted.join(",")}`, async (state) => {
     const { index } = state;
@@ -1134,7 +1401,8 @@ export async function getMoveCompositions(db: Db, siteId: number, moveIds: reado
       if (move === undefined) break;
       const applied = replay.apply(move);
       if (!applied.ok) return failMany(renameIssues(state.ledger, applied.issues));
-      if (want.has(move.id)) carried.set(move.id, { originIds: [...applied.value.originIds], grams: [...applied.value.grams] });
+      if (want.has(move.id))
+        carried.set(move.id, { originIds: [...applied.value.originIds], grams: [...applied.value.grams] });
     }
     return ok({ carried });
   });

@@ -50,18 +50,43 @@ export interface EntryHolderFacts {
   reagent: { reagent: string; supplier: string } | null;
 }
 
-const SOURCE_SELECT = { code: true, name: true, kind: true, certificateScheme: true, certificateNo: true, certificateExpires: true, creditWithheld: true } as const;
-const LOT_SELECT = { holderId: true, code: true, material: true, origin: true, certified: true, receivedAt: true } as const;
+const SOURCE_SELECT = {
+  code: true,
+  name: true,
+  kind: true,
+  certificateScheme: true,
+  certificateNo: true,
+  certificateExpires: true,
+  creditWithheld: true,
+} as const;
+const LOT_SELECT = {
+  holderId: true,
+  code: true,
+  material: true,
+  origin: true,
+  certified: true,
+  receivedAt: true,
+} as const;
 
 /** Facts about every holder of the site that material can enter the books at, by holder id. */
 export async function listEntryHolderFacts(db: Db, siteId: number): Promise<Map<number, EntryHolderFacts>> {
   const [pickups, lots, reagents] = await Promise.all([
     db.pickup.findMany({
       where: { siteId },
-      select: { holderId: true, code: true, material: true, observedAt: true, source: { select: SOURCE_SELECT }, lot: { select: LOT_SELECT } },
+      select: {
+        holderId: true,
+        code: true,
+        material: true,
+        observedAt: true,
+        source: { select: SOURCE_SELECT },
+        lot: { select: LOT_SELECT },
+      },
     }),
     db.feedstockLot.findMany({ where: { siteId }, select: { ...LOT_SELECT, supplier: { select: SOURCE_SELECT } } }),
-    db.reagentLot.findMany({ where: { siteId }, select: { holderId: true, code: true, reagent: true, supplier: true } }),
+    db.reagentLot.findMany({
+      where: { siteId },
+      select: { holderId: true, code: true, reagent: true, supplier: true },
+    }),
   ]);
   const facts = new Map<number, EntryHolderFacts>();
   for (const p of pickups) {
@@ -78,7 +103,16 @@ export async function listEntryHolderFacts(db: Db, siteId: number): Promise<Map<
   }
   for (const l of lots) {
     const { supplier, ...lot } = l;
-    facts.set(l.holderId, { holderId: l.holderId, kind: "LOT", code: l.code, pickup: null, lot, source: supplier, material: l.material, reagent: null });
+    facts.set(l.holderId, {
+      holderId: l.holderId,
+      kind: "LOT",
+      code: l.code,
+      pickup: null,
+      lot,
+      source: supplier,
+      material: l.material,
+      reagent: null,
+    });
   }
   for (const r of reagents) {
     facts.set(r.holderId, {
@@ -104,8 +138,16 @@ export interface TraceSubject {
 }
 
 /** A holder by kind and code (a shipment's code is its document number). */
-export async function getHolderSubject(db: Db, siteId: number, kind: HolderKind, code: string): Promise<TraceSubject | null> {
-  const h = await db.holder.findUnique({ where: { siteId_kind_code: { siteId, kind, code } }, select: { id: true, kind: true, code: true } });
+export async function getHolderSubject(
+  db: Db,
+  siteId: number,
+  kind: HolderKind,
+  code: string,
+): Promise<TraceSubject | null> {
+  const h = await db.holder.findUnique({
+    where: { siteId_kind_code: { siteId, kind, code } },
+    select: { id: true, kind: true, code: true },
+  });
   return h ? { kind: toHolderKind(h.kind), code: h.code, holderIds: [h.id], label: h.code } : null;
 }
 
@@ -113,10 +155,20 @@ export async function getHolderSubject(db: Db, siteId: number, kind: HolderKind,
 export async function getSourceSubject(db: Db, siteId: number, code: string): Promise<TraceSubject | null> {
   const s = await db.source.findUnique({
     where: { siteId_code: { siteId, code } },
-    select: { code: true, name: true, pickups: { select: { holderId: true } }, deliveries: { select: { holderId: true } } },
+    select: {
+      code: true,
+      name: true,
+      pickups: { select: { holderId: true } },
+      deliveries: { select: { holderId: true } },
+    },
   });
   if (!s) return null;
-  return { kind: "SOURCE", code: s.code, holderIds: [...s.pickups.map((p) => p.holderId), ...s.deliveries.map((d) => d.holderId)], label: `${s.code} ${s.name}` };
+  return {
+    kind: "SOURCE",
+    code: s.code,
+    holderIds: [...s.pickups.map((p) => p.holderId), ...s.deliveries.map((d) => d.holderId)],
+    label: `${s.code} ${s.name}`,
+  };
 }
 
 export interface TraceChoices {
@@ -132,13 +184,38 @@ export interface TraceChoices {
 /** Codes offered in the trace form, newest first (the form accepts any code). */
 export async function listTraceChoices(db: Db, siteId: number, take = 60): Promise<TraceChoices> {
   const [productLots, tanks, shipments, batches, sources, lots, pickups] = await Promise.all([
-    db.productLot.findMany({ where: { siteId }, orderBy: [{ producedAt: "desc" }, { id: "desc" }], take, select: { code: true } }),
+    db.productLot.findMany({
+      where: { siteId },
+      orderBy: [{ producedAt: "desc" }, { id: "desc" }],
+      take,
+      select: { code: true },
+    }),
     db.tank.findMany({ where: { siteId }, orderBy: { code: "asc" }, select: { code: true } }),
-    db.shipment.findMany({ where: { siteId }, orderBy: [{ shippedAt: "desc" }, { id: "desc" }], take, select: { documentNo: true } }),
-    db.batch.findMany({ where: { siteId }, orderBy: [{ plannedAt: "desc" }, { id: "desc" }], take, select: { code: true } }),
+    db.shipment.findMany({
+      where: { siteId },
+      orderBy: [{ shippedAt: "desc" }, { id: "desc" }],
+      take,
+      select: { documentNo: true },
+    }),
+    db.batch.findMany({
+      where: { siteId },
+      orderBy: [{ plannedAt: "desc" }, { id: "desc" }],
+      take,
+      select: { code: true },
+    }),
     db.source.findMany({ where: { siteId }, orderBy: { code: "asc" }, select: { code: true } }),
-    db.feedstockLot.findMany({ where: { siteId }, orderBy: [{ receivedAt: "desc" }, { id: "desc" }], take, select: { code: true } }),
-    db.pickup.findMany({ where: { siteId }, orderBy: [{ observedAt: "desc" }, { id: "desc" }], take, select: { code: true } }),
+    db.feedstockLot.findMany({
+      where: { siteId },
+      orderBy: [{ receivedAt: "desc" }, { id: "desc" }],
+      take,
+      select: { code: true },
+    }),
+    db.pickup.findMany({
+      where: { siteId },
+      orderBy: [{ observedAt: "desc" }, { id: "desc" }],
+      take,
+      select: { code: true },
+    }),
   ]);
   return {
     productLots: productLots.map((r) => r.code),

@@ -11,10 +11,24 @@ function kgText(grams: number): string {
 }
 
 /** A container is marked full once, while it is still on site. */
-export function checkMarkFull(c: { code: string; status: string; accumulationStart: Date }, fullAt: Date): DomainIssue | null {
-  if (c.status === "SHIPPED") return { code: "WASTE.ALREADY_HAULED", message: `Container ${c.code} has already been hauled away`, field: "containerCode" };
-  if (c.status === "FULL") return { code: "WASTE.ALREADY_FULL", message: `Container ${c.code} is already marked full`, field: "containerCode" };
-  if (fullAt < c.accumulationStart) return { code: "WASTE.BEFORE_START", message: "Full on is before the container started filling", field: "fullAt" };
+export function checkMarkFull(
+  c: { code: string; status: string; accumulationStart: Date },
+  fullAt: Date,
+): DomainIssue | null {
+  if (c.status === "SHIPPED")
+    return {
+      code: "WASTE.ALREADY_HAULED",
+      message: `Container ${c.code} has already been hauled away`,
+      field: "containerCode",
+    };
+  if (c.status === "FULL")
+    return {
+      code: "WASTE.ALREADY_FULL",
+      message: `Container ${c.code} is already marked full`,
+      field: "containerCode",
+    };
+  if (fullAt < c.accumulationStart)
+    return { code: "WASTE.BEFORE_START", message: "Full on is before the container started filling", field: "fullAt" };
   return null;
 }
 
@@ -22,24 +36,59 @@ export function checkMarkFull(c: { code: string; status: string; accumulationSta
  * A haul-away takes from what the container holds on the books, on or after the day it started filling,
  * and never from a container that has already left. `stockG` is the book stock now.
  */
-export function checkHaul(c: { code: string; status: string; accumulationStart: Date; stockG: number }, haul: { massG: number; disposedAt: Date }): DomainIssue | null {
-  if (c.status === "SHIPPED") return { code: "WASTE.ALREADY_HAULED", message: `Container ${c.code} has already been hauled away`, field: "containerCode" };
-  if (haul.disposedAt < c.accumulationStart) return { code: "WASTE.BEFORE_START", message: "Collected time is before the container started filling", field: "disposedAt" };
+export function checkHaul(
+  c: { code: string; status: string; accumulationStart: Date; stockG: number },
+  haul: { massG: number; disposedAt: Date },
+): DomainIssue | null {
+  if (c.status === "SHIPPED")
+    return {
+      code: "WASTE.ALREADY_HAULED",
+      message: `Container ${c.code} has already been hauled away`,
+      field: "containerCode",
+    };
+  if (haul.disposedAt < c.accumulationStart)
+    return {
+      code: "WASTE.BEFORE_START",
+      message: "Collected time is before the container started filling",
+      field: "disposedAt",
+    };
   if (haul.massG > c.stockG) {
-    return { code: "LEDGER.OVERDRAW", message: `Container ${c.code} holds ${kgText(c.stockG)}; a haul of ${kgText(haul.massG)} is more than it holds`, field: "massKg" };
+    return {
+      code: "LEDGER.OVERDRAW",
+      message: `Container ${c.code} holds ${kgText(c.stockG)}; a haul of ${kgText(haul.massG)} is more than it holds`,
+      field: "massKg",
+    };
   }
   return null;
 }
 
 /** A characterisation may be recorded while the container is on site, dated on or after its start. */
-export function checkCharacterise(c: { code: string; status: string; accumulationStart: Date }, testedAt: Date): DomainIssue | null {
-  if (c.status === "SHIPPED") return { code: "WASTE.ALREADY_HAULED", message: `Container ${c.code} has already been hauled away`, field: "containerCode" };
-  if (testedAt < c.accumulationStart) return { code: "WASTE.BEFORE_START", message: "Test date is before the container started filling", field: "testedAt" };
+export function checkCharacterise(
+  c: { code: string; status: string; accumulationStart: Date },
+  testedAt: Date,
+): DomainIssue | null {
+  if (c.status === "SHIPPED")
+    return {
+      code: "WASTE.ALREADY_HAULED",
+      message: `Container ${c.code} has already been hauled away`,
+      field: "containerCode",
+    };
+  if (testedAt < c.accumulationStart)
+    return {
+      code: "WASTE.BEFORE_START",
+      message: "Test date is before the container started filling",
+      field: "testedAt",
+    };
   return null;
 }
 
 /** The stored measurements as the hazard assessment reads them (a value not measured stays null). */
-export function characterisationOf(c: { methanolPct: number | null; pH: number | null; flashPointC: number | null; waterPct: number | null }): WasteCharacterisation {
+export function characterisationOf(c: {
+  methanolPct: number | null;
+  pH: number | null;
+  flashPointC: number | null;
+  waterPct: number | null;
+}): WasteCharacterisation {
   return { methanolPct: c.methanolPct, pH: c.pH, flashPointC: c.flashPointC, waterPct: c.waterPct };
 }
 

@@ -12,7 +12,9 @@ const flashPointC = z
   .min(MIN_FLASH_POINT_C, `Flash point must be at least ${MIN_FLASH_POINT_C} °C`)
   .max(MAX_FLASH_POINT_C, `Flash point must be at most ${MAX_FLASH_POINT_C} °C`);
 
-const stream = z.enum(WASTE_STREAMS, { error: "Stream: choose glycerol phase, wash water, spent filter media, methanol-rich liquid or other" });
+const stream = z.enum(WASTE_STREAMS, {
+  error: "Stream: choose glycerol phase, wash water, spent filter media, methanol-rich liquid or other",
+});
 
 export const WasteContainerSchema = z.object({
   code: code("Container code"),
@@ -45,10 +47,13 @@ export const WasteCharacterisationEntrySchema = z
     /** Water content, % by weight. */
     waterPct: percent("Water").optional(),
   })
-  .refine((c) => c.methanolPct !== undefined || c.pH !== undefined || c.flashPointC !== undefined || c.waterPct !== undefined, {
-    message: "Enter at least one result: methanol, pH, flash point or water",
-    path: ["methanolPct"],
-  });
+  .refine(
+    (c) => c.methanolPct !== undefined || c.pH !== undefined || c.flashPointC !== undefined || c.waterPct !== undefined,
+    {
+      message: "Enter at least one result: methanol, pH, flash point or water",
+      path: ["methanolPct"],
+    },
+  );
 export type WasteCharacterisationEntryInput = z.input<typeof WasteCharacterisationEntrySchema>;
 
 export const MarkContainerFullSchema = z.object({

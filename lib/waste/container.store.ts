@@ -2,7 +2,12 @@ import "server-only";
 import type { Db, Tx } from "@/lib/database/connect";
 import { WASTE_STREAMS } from "@/lib/ledger/kinds";
 import type { WasteStream } from "@/lib/ledger/kinds";
-import { DEFAULT_DENSITY_TABLE, DEFAULT_REFERENCE_TEMP_C, densityAt, requireDensityEntry } from "@/lib/quantity/density";
+import {
+  DEFAULT_DENSITY_TABLE,
+  DEFAULT_REFERENCE_TEMP_C,
+  densityAt,
+  requireDensityEntry,
+} from "@/lib/quantity/density";
 import type { MaterialKind } from "@/lib/quantity/density";
 import { findSatelliteExcessSince, getSatelliteLimitMl, listWasteDue } from "@/lib/waste/waste-due";
 import type { GeneratorCategory, WasteContainerInput, WasteRuleSet } from "@/lib/waste/waste-due";
@@ -27,7 +32,11 @@ export interface WasteContainerRow {
 }
 
 /** Containers by accumulation start, oldest first; `statuses` narrows to e.g. those still on site. */
-export async function listWasteContainers(db: Db, siteId: number, opts: { statuses?: readonly string[] } = {}): Promise<WasteContainerRow[]> {
+export async function listWasteContainers(
+  db: Db,
+  siteId: number,
+  opts: { statuses?: readonly string[] } = {},
+): Promise<WasteContainerRow[]> {
   const rows = await db.wasteContainer.findMany({
     where: { siteId, ...(opts.statuses ? { status: { in: [...opts.statuses] } } : {}) },
     orderBy: [{ accumulationStart: "asc" }, { id: "asc" }],
@@ -37,8 +46,20 @@ export async function listWasteContainers(db: Db, siteId: number, opts: { status
 }
 
 type ContainerRecord = {
-  code: string; stream: string; location: string; accumulationStart: Date; capacityMl: number; satellite: boolean; methanolPct: number | null; pH: number | null;
-  flashPointC: number | null; waterPct: number | null; status: string; fullAt: Date | null; characterisedAt: Date | null; holder: { stockG: number };
+  code: string;
+  stream: string;
+  location: string;
+  accumulationStart: Date;
+  capacityMl: number;
+  satellite: boolean;
+  methanolPct: number | null;
+  pH: number | null;
+  flashPointC: number | null;
+  waterPct: number | null;
+  status: string;
+  fullAt: Date | null;
+  characterisedAt: Date | null;
+  holder: { stockG: number };
 };
 
 function toContainerRow(r: ContainerRecord): WasteContainerRow {
@@ -86,30 +107,75 @@ export interface WasteContainerDetail extends WasteContainerRow {
 }
 
 /** One container with its movements in and out (oldest first) and the hauls that took from it. */
-export async function getWasteContainerDetail(db: Db, siteId: number, code: string): Promise<WasteContainerDetail | null> {
+export async function getWasteContainerDetail(
+  db: Db,
+  siteId: number,
+  code: string,
+): Promise<WasteContainerDetail | null> {
   const r = await db.wasteContainer.findUnique({
     where: { siteId_code: { siteId, code } },
     include: {
       holder: {
         select: {
           stockG: true,
-          incoming: { orderBy: [{ at: "asc" }, { id: "asc" }], select: { id: true, at: true, role: true, massG: true, note: true, fromHolder: { select: { kind: true, code: true } } } },
-          outgoing: { orderBy: [{ at: "asc" }, { id: "asc" }], select: { id: true, at: true, role: true, massG: true, note: true, toHolder: { select: { kind: true, code: true } } } },
+          incoming: {
+            orderBy: [{ at: "asc" }, { id: "asc" }],
+            select: {
+              id: true,
+              at: true,
+              role: true,
+              massG: true,
+              note: true,
+              fromHolder: { select: { kind: true, code: true } },
+            },
+          },
+          outgoing: {
+            orderBy: [{ at: "asc" }, { id: "asc" }],
+            select: {
+              id: true,
+              at: true,
+              role: true,
+              massG: true,
+              note: true,
+              toHolder: { select: { kind: true, code: true } },
+            },
+          },
         },
       },
     },
   });
   if (!r) return null;
   const movements: ContainerMovement[] = [
-    ...r.holder.incoming.map((m) => ({ id: m.id, at: m.at, role: m.role, direction: "IN" as const, massG: m.massG, otherKind: m.fromHolder?.kind ?? null, otherCode: m.fromHolder?.code ?? null, note: m.note })),
-    ...r.holder.outgoing.map((m) => ({ id: m.id, at: m.at, role: m.role, direction: "OUT" as const, massG: m.massG, otherKind: m.toHolder.kind, otherCode: m.toHolder.code, note: m.note })),
+    ...r.holder.incoming.map((m) => ({
+      id: m.id,
+      at: m.at,
+      role: m.role,
+      direction: "IN" as const,
+      massG: m.massG,
+      otherKind: m.fromHolder?.kind ?? null,
+      otherCode: m.fromHolder?.code ?? null,
+      note: m.note,
+    })),
+    ...r.holder.outgoing.map((m) => ({
+      id: m.id,
+      at: m.at,
+      role: m.role,
+      direction: "OUT" as const,
+      massG: m.massG,
+      otherKind: m.toHolder.kind,
+      otherCode: m.toHolder.code,
+      note: m.note,
+    })),
   ].sort((a, b) => a.at.getTime() - b.at.getTime() || a.id - b.id);
   const hauledTo = r.holder.outgoing.filter((m) => m.toHolder.kind === "DISPOSAL").map((m) => m.toHolder.code);
-  const disposals = hauledTo.length === 0 ? [] : await db.disposal.findMany({
-    where: { siteId, documentNo: { in: hauledTo } },
-    orderBy: [{ disposedAt: "asc" }, { id: "asc" }],
-    select: { documentNo: true, hauler: true, destination: true, disposedAt: true, massG: true },
-  });
+  const disposals =
+    hauledTo.length === 0
+      ? []
+      : await db.disposal.findMany({
+          where: { siteId, documentNo: { in: hauledTo } },
+          orderBy: [{ disposedAt: "asc" }, { id: "asc" }],
+          select: { documentNo: true, hauler: true, destination: true, disposedAt: true, massG: true },
+        });
   return { ...toContainerRow(r), movements, disposals };
 }
 
@@ -127,7 +193,9 @@ export async function listDisposals(db: Db, siteId: number): Promise<DisposalRow
   const rows = await db.disposal.findMany({
     where: { siteId },
     orderBy: [{ disposedAt: "desc" }, { id: "desc" }],
-    include: { holder: { select: { incoming: { orderBy: { id: "asc" }, select: { fromHolder: { select: { code: true } } } } } } },
+    include: {
+      holder: { select: { incoming: { orderBy: { id: "asc" }, select: { fromHolder: { select: { code: true } } } } } },
+    },
   });
   return rows.map((r) => ({
     documentNo: r.documentNo,
@@ -160,7 +228,10 @@ export const SATELLITE_AREA = "SITE_SATELLITE_AREA";
 
 /** The ledger keeps grams; the satellite limit and the hauler need litres, at the stream's nominal density. */
 export function estimateVolumeMl(stream: string, grams: number): number {
-  const rho = densityAt(requireDensityEntry(DEFAULT_DENSITY_TABLE, STREAM_MATERIAL[stream] ?? "WATER"), DEFAULT_REFERENCE_TEMP_C);
+  const rho = densityAt(
+    requireDensityEntry(DEFAULT_DENSITY_TABLE, STREAM_MATERIAL[stream] ?? "WATER"),
+    DEFAULT_REFERENCE_TEMP_C,
+  );
   return Math.round((grams * 1000) / rho);
 }
 
@@ -168,7 +239,12 @@ export function estimateVolumeMl(stream: string, grams: number): number {
  * When the site's satellite area went over its limit, from the movements into and out of its containers
  * still on site (each at its stream's nominal density); null when it is within the limit now.
  */
-async function findSatelliteExcessAt(db: Db, rows: readonly WasteContainerRow[], ids: ReadonlyMap<string, number>, rules: WasteRuleSet): Promise<number | null> {
+async function findSatelliteExcessAt(
+  db: Db,
+  rows: readonly WasteContainerRow[],
+  ids: ReadonlyMap<string, number>,
+  rules: WasteRuleSet,
+): Promise<number | null> {
   const holders = new Map<number, string>();
   for (const r of rows) {
     const id = ids.get(r.code);
@@ -192,7 +268,11 @@ async function findSatelliteExcessAt(db: Db, rows: readonly WasteContainerRow[],
 }
 
 /** The containers on site as the due-date rules read them, with the satellite area's excess date when over. */
-export async function loadWasteDueInputs(db: Db, siteId: number, rules: WasteRuleSet): Promise<{ rows: WasteContainerRow[]; inputs: WasteContainerInput[] }> {
+export async function loadWasteDueInputs(
+  db: Db,
+  siteId: number,
+  rules: WasteRuleSet,
+): Promise<{ rows: WasteContainerRow[]; inputs: WasteContainerInput[] }> {
   const records = await db.wasteContainer.findMany({
     where: { siteId, status: { in: ["OPEN", "FULL"] } },
     orderBy: [{ accumulationStart: "asc" }, { id: "asc" }],
@@ -237,12 +317,20 @@ export interface WasteDueBoard {
 }
 
 /** Due dates of the containers still on site, under the site's chosen waste rules (or the federal LQG assumption). */
-export async function getWasteDueBoard(db: Db, siteId: number, now: Date, utcOffsetMin: number): Promise<WasteDueBoard | null> {
+export async function getWasteDueBoard(
+  db: Db,
+  siteId: number,
+  now: Date,
+  utcOffsetMin: number,
+): Promise<WasteDueBoard | null> {
   const active = await getActiveWasteRules(db, siteId);
   const assumption: WasteDueAssumption = {
     generatorCategory: active.generatorCategory,
     tsdfDistanceMiles: active.tsdfDistanceMiles,
-    note: active.chosen === null ? ASSUMPTION_NOTE : `Chosen for this site: ${active.rules.name}, ${active.generatorCategory}.`,
+    note:
+      active.chosen === null
+        ? ASSUMPTION_NOTE
+        : `Chosen for this site: ${active.rules.name}, ${active.generatorCategory}.`,
   };
   const { inputs: containers } = await loadWasteDueInputs(db, siteId, active.rules);
   const report = listWasteDue({
@@ -298,8 +386,19 @@ export async function getWasteDueBoard(db: Db, siteId: number, now: Date, utcOff
 export async function insertWasteContainer(
   tx: Tx,
   w: {
-    siteId: number; holderId: number; code: string; stream: string; location: string; accumulationStart: Date; capacityMl: number; satellite: boolean;
-    methanolPct: number | null; pH: number | null; flashPointC: number | null; waterPct: number | null; characterisedAt: Date | null;
+    siteId: number;
+    holderId: number;
+    code: string;
+    stream: string;
+    location: string;
+    accumulationStart: Date;
+    capacityMl: number;
+    satellite: boolean;
+    methanolPct: number | null;
+    pH: number | null;
+    flashPointC: number | null;
+    waterPct: number | null;
+    characterisedAt: Date | null;
   },
 ): Promise<{ id: number; code: string }> {
   return tx.wasteContainer.create({ data: { ...w, status: "OPEN" }, select: { id: true, code: true } });
@@ -321,13 +420,33 @@ export interface ContainerState {
 export async function getContainerState(tx: Tx, holderId: number): Promise<ContainerState> {
   return tx.wasteContainer.findUniqueOrThrow({
     where: { holderId },
-    select: { id: true, code: true, status: true, accumulationStart: true, methanolPct: true, pH: true, flashPointC: true, waterPct: true, characterisedAt: true, fullAt: true },
+    select: {
+      id: true,
+      code: true,
+      status: true,
+      accumulationStart: true,
+      methanolPct: true,
+      pH: true,
+      flashPointC: true,
+      waterPct: true,
+      characterisedAt: true,
+      fullAt: true,
+    },
   });
 }
 
 export async function insertDisposal(
   tx: Tx,
-  d: { siteId: number; holderId: number; hauler: string; documentNo: string; disposedAt: Date; massG: number; destination: string; containerCode: string },
+  d: {
+    siteId: number;
+    holderId: number;
+    hauler: string;
+    documentNo: string;
+    disposedAt: Date;
+    massG: number;
+    destination: string;
+    containerCode: string;
+  },
 ): Promise<{ id: number; documentNo: string }> {
   return tx.disposal.create({ data: d, select: { id: true, documentNo: true } });
 }
@@ -344,7 +463,13 @@ export async function setContainerStatus(tx: Tx, id: number, status: string): Pr
 export async function setCharacterisation(
   tx: Tx,
   id: number,
-  c: { methanolPct: number | null; pH: number | null; flashPointC: number | null; waterPct: number | null; characterisedAt: Date },
+  c: {
+    methanolPct: number | null;
+    pH: number | null;
+    flashPointC: number | null;
+    waterPct: number | null;
+    characterisedAt: Date;
+  },
 ): Promise<void> {
   await tx.wasteContainer.update({ where: { id }, data: c });
 }

@@ -23,7 +23,10 @@ export const SiteWasteRulesSchema = z
     tsdfDistanceMiles: z
       .number({ error: "Distance to the treatment facility (miles) must be a number" })
       .min(0, "Distance to the treatment facility must be at least 0 miles")
-      .max(MAX_TSDF_DISTANCE_MILES, `Distance to the treatment facility must be at most ${MAX_TSDF_DISTANCE_MILES} miles`)
+      .max(
+        MAX_TSDF_DISTANCE_MILES,
+        `Distance to the treatment facility must be at most ${MAX_TSDF_DISTANCE_MILES} miles`,
+      )
       .nullable()
       .default(null),
     /** For the site's own set: its name (e.g. the state or country rule it follows). */
@@ -40,9 +43,22 @@ export const SiteWasteRulesSchema = z
   })
   .superRefine((r, ctx) => {
     if (r.choice !== "SITE_OWN") return;
-    if (r.name.trim() === "") ctx.addIssue({ code: "custom", message: "Name the site's own rule set (e.g. the rule it follows)", path: ["name"] });
-    if ([r.hazardousMaxDays, r.nonHazardousMaxDays, r.satelliteExcessDays, r.satelliteMaxUsGal].every((v) => v === undefined)) {
-      ctx.addIssue({ code: "custom", message: "Give at least one limit of the site's own rule set", path: ["hazardousMaxDays"] });
+    if (r.name.trim() === "")
+      ctx.addIssue({
+        code: "custom",
+        message: "Name the site's own rule set (e.g. the rule it follows)",
+        path: ["name"],
+      });
+    if (
+      [r.hazardousMaxDays, r.nonHazardousMaxDays, r.satelliteExcessDays, r.satelliteMaxUsGal].every(
+        (v) => v === undefined,
+      )
+    ) {
+      ctx.addIssue({
+        code: "custom",
+        message: "Give at least one limit of the site's own rule set",
+        path: ["hazardousMaxDays"],
+      });
     }
   });
 export type SiteWasteRulesInput = z.input<typeof SiteWasteRulesSchema>;

@@ -14,8 +14,18 @@ export async function chooseWasteRules(db: Db, actor: Actor, input: unknown): Pr
   if (!parsed.ok) return parsed;
   const value = parsed.value;
   return runInTransaction(db, async (tx) => {
-    const id = await insertWasteRules(tx, { siteId: actor.siteId, value, createdById: actor.userId, createdAt: actor.now });
-    await appendAudit(tx, actor, { action: "CHANGE", entity: "SiteWasteRules", entityKey: value.choice === "SITE_OWN" ? value.name : `US federal ${value.generatorCategory}`, after: { ...value, id } });
+    const id = await insertWasteRules(tx, {
+      siteId: actor.siteId,
+      value,
+      createdById: actor.userId,
+      createdAt: actor.now,
+    });
+    await appendAudit(tx, actor, {
+      action: "CHANGE",
+      entity: "SiteWasteRules",
+      entityKey: value.choice === "SITE_OWN" ? value.name : `US federal ${value.generatorCategory}`,
+      after: { ...value, id },
+    });
     return { id };
   });
 }

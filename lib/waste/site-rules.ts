@@ -21,13 +21,19 @@ export const ASSUMED_WASTE_RULES: ActiveWasteRules = {
 };
 
 function own(value: number | undefined, base: RuleValue, setName: string, reason: string): RuleValue {
-  return value === undefined ? base : { value, unit: base.unit, source: `${setName}: ${reason}`, status: "site's own choice" };
+  return value === undefined
+    ? base
+    : { value, unit: base.unit, source: `${setName}: ${reason}`, status: "site's own choice" };
 }
 
 /** The rule set for a site's stored choice. A site's own set keeps the federal values it does not replace. */
 export function resolveWasteRules(choice: SiteWasteRules, chosen: { at: Date; by: string }): ActiveWasteRules {
   const base = RULESET_US_FEDERAL_RCRA;
-  const meta = { generatorCategory: choice.generatorCategory, tsdfDistanceMiles: choice.tsdfDistanceMiles, chosen: { reason: choice.reason, ...chosen } };
+  const meta = {
+    generatorCategory: choice.generatorCategory,
+    tsdfDistanceMiles: choice.tsdfDistanceMiles,
+    chosen: { reason: choice.reason, ...chosen },
+  };
   if (choice.choice === "US_FEDERAL") return { rules: base, ...meta };
   const name = choice.name.trim();
   const hazardous = (v: RuleValue) => own(choice.hazardousMaxDays, v, name, choice.reason);

@@ -50,17 +50,20 @@ export interface WasteRuleSet {
   localRulesNote: string;
 }
 
-export const LOCAL_RULES_NOTE = "Local and state rules may be stricter and govern; confirm with your regulator and licensed hauler.";
+export const LOCAL_RULES_NOTE =
+  "Local and state rules may be stricter and govern; confirm with your regulator and licensed hauler.";
 
 export const RULESET_US_FEDERAL_RCRA: WasteRuleSet = {
   id: "US_FEDERAL_RCRA",
   name: "US federal hazardous-waste generator rules (40 CFR Parts 261–262)",
-  edition: "Generator Improvements Rule numbering (81 FR 85732, effective 30 May 2017); ignitability as amended by 85 FR 40594 (effective 8 Sep 2020)",
+  edition:
+    "Generator Improvements Rule numbering (81 FR 85732, effective 30 May 2017); ignitability as amended by 85 FR 40594 (effective 8 Sep 2020)",
   lqgMaxDays: {
     value: 90,
     unit: "days",
     source: "40 CFR 262.17(a)",
-    status: "partly verified: the 90-day text seen in the former §262.34(a), the current paragraph in secondary sources only; a 30-day extension for unforeseen circumstances exists case by case (from memory)",
+    status:
+      "partly verified: the 90-day text seen in the former §262.34(a), the current paragraph in secondary sources only; a 30-day extension for unforeseen circumstances exists case by case (from memory)",
   },
   sqgMaxDays: { value: 180, unit: "days", source: "40 CFR 262.16(b)", status: "verified" },
   sqgLongHaulMaxDays: {
@@ -76,7 +79,12 @@ export const RULESET_US_FEDERAL_RCRA: WasteRuleSet = {
     status: "partly verified",
   },
   sqgMaxOnSiteKg: { value: 6000, unit: "kg", source: "40 CFR 262.16(b)(1)", status: "verified" },
-  vsqgMaxOnSiteKg: { value: 1000, unit: "kg", source: "40 CFR 262.14", status: "verified in county and consultant summaries of the rule" },
+  vsqgMaxOnSiteKg: {
+    value: 1000,
+    unit: "kg",
+    source: "40 CFR 262.14",
+    status: "verified in county and consultant summaries of the rule",
+  },
   satelliteMaxUsGal: {
     value: 55,
     unit: "US gal",
@@ -86,10 +94,16 @@ export const RULESET_US_FEDERAL_RCRA: WasteRuleSet = {
   satelliteExcessDays: {
     value: 3,
     unit: "consecutive calendar days",
-    source: "40 CFR 262.15(a)(6): remove the excess within three consecutive calendar days of exceeding the limit; wording as in EPA guidance RCRA Online 14703",
+    source:
+      "40 CFR 262.15(a)(6): remove the excess within three consecutive calendar days of exceeding the limit; wording as in EPA guidance RCRA Online 14703",
     status: "the three-consecutive-calendar-days wording seen in EPA guidance only",
   },
-  ignitableFlashPointBelowC: { value: 60, unit: "°C", source: "40 CFR 261.21(a)(1) (140 °F; ASTM D93 or D3278 closed cup)", status: "verified" },
+  ignitableFlashPointBelowC: {
+    value: 60,
+    unit: "°C",
+    source: "40 CFR 261.21(a)(1) (140 °F; ASTM D93 or D3278 closed cup)",
+    status: "verified",
+  },
   ignitableAqueousAlcoholBelowPctVol: {
     value: 24,
     unit: "% alcohol by volume",
@@ -117,7 +131,8 @@ export const RULESET_US_FEDERAL_RCRA: WasteRuleSet = {
   nonHazardousMaxStorageDays: {
     value: 90,
     unit: "days",
-    source: "no federal time limit applies to non-hazardous waste (40 CFR Part 262 covers hazardous waste); 90 days is the site's own choice",
+    source:
+      "no federal time limit applies to non-hazardous waste (40 CFR Part 262 covers hazardous waste); 90 days is the site's own choice",
     status: "site's own choice — set it to your permit, contract or local rule",
   },
   localRulesNote: LOCAL_RULES_NOTE,
@@ -177,50 +192,124 @@ function present(v: number | null | undefined): v is number {
 function assessIgnitability(c: WasteCharacterisation, state: PhysicalState | null, rules: WasteRuleSet): HazardFlag {
   const source = rules.ignitableFlashPointBelowC.source;
   if (state === null) {
-    return { code: "D001", status: "UNKNOWN", reason: "Physical state not recorded: liquid or solid decides which ignitability test applies", source, missing: ["physicalState"] };
+    return {
+      code: "D001",
+      status: "UNKNOWN",
+      reason: "Physical state not recorded: liquid or solid decides which ignitability test applies",
+      source,
+      missing: ["physicalState"],
+    };
   }
   if (state === "SOLID") {
-    if (c.solidIgnitable === true) return { code: "D001", status: "YES", reason: "Non-liquid determined ignitable under 40 CFR 261.21(a)(2)", source: "40 CFR 261.21(a)(2)", missing: [] };
-    if (c.solidIgnitable === false) return { code: "D001", status: "NO", reason: "Non-liquid determined not ignitable under 40 CFR 261.21(a)(2)", source: "40 CFR 261.21(a)(2)", missing: [] };
-    return { code: "D001", status: "UNKNOWN", reason: "Non-liquid: needs a determination under 40 CFR 261.21(a)(2)", source: "40 CFR 261.21(a)(2)", missing: ["solidIgnitable"] };
+    if (c.solidIgnitable === true)
+      return {
+        code: "D001",
+        status: "YES",
+        reason: "Non-liquid determined ignitable under 40 CFR 261.21(a)(2)",
+        source: "40 CFR 261.21(a)(2)",
+        missing: [],
+      };
+    if (c.solidIgnitable === false)
+      return {
+        code: "D001",
+        status: "NO",
+        reason: "Non-liquid determined not ignitable under 40 CFR 261.21(a)(2)",
+        source: "40 CFR 261.21(a)(2)",
+        missing: [],
+      };
+    return {
+      code: "D001",
+      status: "UNKNOWN",
+      reason: "Non-liquid: needs a determination under 40 CFR 261.21(a)(2)",
+      source: "40 CFR 261.21(a)(2)",
+      missing: ["solidIgnitable"],
+    };
   }
   const aqueous = c.aqueous ?? (present(c.waterPct) ? c.waterPct >= rules.aqueousMinWaterPctMass.value : null);
   const alcohol = present(c.methanolPct) ? c.methanolPct : null;
   const alcoholLimit = rules.ignitableAqueousAlcoholBelowPctVol.value;
   if (aqueous === true && alcohol !== null && alcohol < alcoholLimit) {
-    return { code: "D001", status: "NO", reason: `Aqueous solution with ${alcohol} % alcohol by volume, below ${alcoholLimit} %: excluded`, source, missing: [] };
+    return {
+      code: "D001",
+      status: "NO",
+      reason: `Aqueous solution with ${alcohol} % alcohol by volume, below ${alcoholLimit} %: excluded`,
+      source,
+      missing: [],
+    };
   }
-  const exclusionMissing = aqueous === null ? ["aqueous or waterPct"] : aqueous === true && alcohol === null ? ["methanolPct"] : [];
+  const exclusionMissing =
+    aqueous === null ? ["aqueous or waterPct"] : aqueous === true && alcohol === null ? ["methanolPct"] : [];
   if (!present(c.flashPointC)) {
-    return { code: "D001", status: "UNKNOWN", reason: "Liquid without a closed-cup flash point", source, missing: ["flashPointC", ...exclusionMissing] };
+    return {
+      code: "D001",
+      status: "UNKNOWN",
+      reason: "Liquid without a closed-cup flash point",
+      source,
+      missing: ["flashPointC", ...exclusionMissing],
+    };
   }
   const limit = rules.ignitableFlashPointBelowC.value;
   if (c.flashPointC < limit) {
     const why =
-      exclusionMissing.length > 0 ? `; the aqueous < ${alcoholLimit} % alcohol exclusion was not established` : aqueous === true ? `; alcohol ${alcohol} % is not below ${alcoholLimit} %` : "";
-    return { code: "D001", status: "YES", reason: `Liquid with flash point ${c.flashPointC} °C, below ${limit} °C${why}`, source, missing: exclusionMissing };
+      exclusionMissing.length > 0
+        ? `; the aqueous < ${alcoholLimit} % alcohol exclusion was not established`
+        : aqueous === true
+          ? `; alcohol ${alcohol} % is not below ${alcoholLimit} %`
+          : "";
+    return {
+      code: "D001",
+      status: "YES",
+      reason: `Liquid with flash point ${c.flashPointC} °C, below ${limit} °C${why}`,
+      source,
+      missing: exclusionMissing,
+    };
   }
-  return { code: "D001", status: "NO", reason: `Flash point ${c.flashPointC} °C is not below ${limit} °C`, source, missing: [] };
+  return {
+    code: "D001",
+    status: "NO",
+    reason: `Flash point ${c.flashPointC} °C is not below ${limit} °C`,
+    source,
+    missing: [],
+  };
 }
 
 /** 40 CFR 261.22(a)(1): aqueous waste with pH ≤ 2 or ≥ 12.5. The steel-corrosion test of (a)(2) is not assessed. */
 function assessCorrosivity(c: WasteCharacterisation, state: PhysicalState | null, rules: WasteRuleSet): HazardFlag {
   const source = rules.corrosivePhAtLeast.source;
   if (state === "SOLID") {
-    return { code: "D002", status: "NO", reason: "Non-liquid: the pH test of 40 CFR 261.22(a)(1) applies to aqueous wastes", source, missing: [] };
+    return {
+      code: "D002",
+      status: "NO",
+      reason: "Non-liquid: the pH test of 40 CFR 261.22(a)(1) applies to aqueous wastes",
+      source,
+      missing: [],
+    };
   }
   if (c.aqueous === false) {
-    return { code: "D002", status: "NO", reason: "Determined not aqueous: the pH test does not apply; the steel-corrosion test of 261.22(a)(2) is not assessed here", source, missing: [] };
+    return {
+      code: "D002",
+      status: "NO",
+      reason:
+        "Determined not aqueous: the pH test does not apply; the steel-corrosion test of 261.22(a)(2) is not assessed here",
+      source,
+      missing: [],
+    };
   }
   if (!present(c.pH)) return { code: "D002", status: "UNKNOWN", reason: "No pH measured", source, missing: ["pH"] };
   const low = rules.corrosivePhAtMost.value;
   const high = rules.corrosivePhAtLeast.value;
-  if (c.pH <= low) return { code: "D002", status: "YES", reason: `pH ${c.pH} is at or below ${low}`, source, missing: [] };
-  if (c.pH >= high) return { code: "D002", status: "YES", reason: `pH ${c.pH} is at or above ${high}`, source, missing: [] };
+  if (c.pH <= low)
+    return { code: "D002", status: "YES", reason: `pH ${c.pH} is at or below ${low}`, source, missing: [] };
+  if (c.pH >= high)
+    return { code: "D002", status: "YES", reason: `pH ${c.pH} is at or above ${high}`, source, missing: [] };
   return { code: "D002", status: "NO", reason: `pH ${c.pH} is between ${low} and ${high}`, source, missing: [] };
 }
 
-export function assessWasteHazards(stream: WasteStream, characterisation: WasteCharacterisation | null, rules: WasteRuleSet = RULESET_US_FEDERAL_RCRA): HazardAssessment {
+export function assessWasteHazards(
+  stream: WasteStream,
+  characterisation: WasteCharacterisation | null,
+  rules: WasteRuleSet = RULESET_US_FEDERAL_RCRA,
+): HazardAssessment {
   const c = characterisation ?? {};
   const state = c.physicalState ?? DEFAULT_PHYSICAL_STATE[stream];
   const ignitable = assessIgnitability(c, state, rules);
@@ -300,7 +389,10 @@ export function getSatelliteLimitMl(rules: WasteRuleSet = RULESET_US_FEDERAL_RCR
  * crossing, or null when it is within the limit now. `events` are volume changes of the area's containers
  * (fills positive, hauls and reversals negative). 40 CFR 262.15(a)(6) counts the three days from then.
  */
-export function findSatelliteExcessSince(events: ReadonlyArray<{ at: number; deltaMl: number }>, limitMl: number): number | null {
+export function findSatelliteExcessSince(
+  events: ReadonlyArray<{ at: number; deltaMl: number }>,
+  limitMl: number,
+): number | null {
   let volume = 0;
   let since: number | null = null;
   for (const e of [...events].sort((a, b) => a.at - b.at)) {
@@ -325,8 +417,20 @@ export function computeWasteDue(
   rules: WasteRuleSet = RULESET_US_FEDERAL_RCRA,
 ): WasteDue {
   const hazard = assessWasteHazards(container.stream, container.characterisation, rules);
-  const base = { containerId: container.id, code: container.code, stream: container.stream, massG: container.massG, volumeMl: container.volumeMl, hazard };
-  const dated = (basis: DueBasis, dueAt: number | null, limitDays: number | null, v: { source: string; status: string }): WasteDue => ({
+  const base = {
+    containerId: container.id,
+    code: container.code,
+    stream: container.stream,
+    massG: container.massG,
+    volumeMl: container.volumeMl,
+    hazard,
+  };
+  const dated = (
+    basis: DueBasis,
+    dueAt: number | null,
+    limitDays: number | null,
+    v: { source: string; status: string },
+  ): WasteDue => ({
     ...base,
     basis,
     dueAt,
@@ -341,7 +445,10 @@ export function computeWasteDue(
     return dated("NON_HAZARDOUS_SITE_RULE", d.dueAt, d.limitDays, rules.nonHazardousMaxStorageDays);
   }
   if (site.generatorCategory === "VSQG") {
-    return dated("VSQG_NO_TIME_LIMIT", null, null, { source: rules.vsqgMaxOnSiteKg.source, status: `no federal time limit; on-site quantity capped at ${rules.vsqgMaxOnSiteKg.value} kg` });
+    return dated("VSQG_NO_TIME_LIMIT", null, null, {
+      source: rules.vsqgMaxOnSiteKg.source,
+      status: `no federal time limit; on-site quantity capped at ${rules.vsqgMaxOnSiteKg.value} kg`,
+    });
   }
   // Satellite accumulation (40 CFR 262.15) is a provision for SQGs and LQGs (from memory, unverified); VSQGs are handled above.
   const satellite = container.satelliteAreaId !== undefined && container.satelliteAreaId !== null;
@@ -357,7 +464,10 @@ export function computeWasteDue(
         status: "over the satellite limit without the date it was exceeded: date the container and move the excess now",
       });
     }
-    return dated("SATELLITE_NO_TIME_LIMIT", null, null, { source: rules.satelliteMaxUsGal.source, status: "no time limit below the satellite volume limit" });
+    return dated("SATELLITE_NO_TIME_LIMIT", null, null, {
+      source: rules.satelliteMaxUsGal.source,
+      status: "no time limit below the satellite volume limit",
+    });
   }
   if (site.generatorCategory === "LQG") {
     const d = dueAfter(container.accumulationStartAt, rules.lqgMaxDays);
@@ -414,7 +524,14 @@ export interface WasteDueInput {
 function totalsOf(items: ReadonlyArray<{ massG: number; volumeMl: number }>): HaulTotals {
   const massG = items.reduce((s, i) => s + i.massG, 0);
   const volumeMl = items.reduce((s, i) => s + i.volumeMl, 0);
-  return { count: items.length, massG, volumeMl, kg: gramsToKg(massG), litres: millilitresToLitres(volumeMl), usGallons: convertVolume(volumeMl, "mL", "gal") };
+  return {
+    count: items.length,
+    massG,
+    volumeMl,
+    kg: gramsToKg(massG),
+    litres: millilitresToLitres(volumeMl),
+    usGallons: convertVolume(volumeMl, "mL", "gal"),
+  };
 }
 
 function inRange(v: number | null | undefined, min: number, max: number): boolean {
@@ -423,39 +540,93 @@ function inRange(v: number | null | undefined, min: number, max: number): boolea
 
 function validateDueInput(input: WasteDueInput): DomainIssue[] {
   const issues: DomainIssue[] = [];
-  if (!Number.isSafeInteger(input.now)) issues.push({ code: "WASTE.INVALID_TIME", message: "Now must be an instant in milliseconds", field: "now" });
+  if (!Number.isSafeInteger(input.now))
+    issues.push({ code: "WASTE.INVALID_TIME", message: "Now must be an instant in milliseconds", field: "now" });
   if (!Number.isInteger(input.withinDays) || input.withinDays < 0 || input.withinDays > MAX_DUE_HORIZON_DAYS) {
-    issues.push({ code: "WASTE.INVALID_HORIZON", message: `Days ahead must be a whole number from 0 to ${MAX_DUE_HORIZON_DAYS}`, field: "withinDays" });
+    issues.push({
+      code: "WASTE.INVALID_HORIZON",
+      message: `Days ahead must be a whole number from 0 to ${MAX_DUE_HORIZON_DAYS}`,
+      field: "withinDays",
+    });
   }
   const miles = input.site.tsdfDistanceMiles;
   if (miles !== null && (!Number.isFinite(miles) || miles < 0)) {
-    issues.push({ code: "WASTE.INVALID_DISTANCE", message: "Distance to the treatment facility must be 0 miles or more", field: "site.tsdfDistanceMiles" });
+    issues.push({
+      code: "WASTE.INVALID_DISTANCE",
+      message: "Distance to the treatment facility must be 0 miles or more",
+      field: "site.tsdfDistanceMiles",
+    });
   }
   if (!Number.isInteger(input.site.utcOffsetMin) || Math.abs(input.site.utcOffsetMin) > 14 * 60) {
-    issues.push({ code: "WASTE.INVALID_OFFSET", message: "UTC offset must be whole minutes between −720 and +840", field: "site.utcOffsetMin" });
+    issues.push({
+      code: "WASTE.INVALID_OFFSET",
+      message: "UTC offset must be whole minutes between −720 and +840",
+      field: "site.utcOffsetMin",
+    });
   }
   const streams = new Set<string>(WASTE_STREAMS);
   input.containers.forEach((c, i) => {
     const f = `containers.${i}`;
-    if (!streams.has(c.stream)) issues.push({ code: "WASTE.UNKNOWN_STREAM", message: `Container ${c.code}: unknown stream ${c.stream}`, field: `${f}.stream` });
-    if (!Number.isSafeInteger(c.massG) || c.massG < 0) issues.push({ code: "WASTE.INVALID_MASS", message: `Container ${c.code}: mass must be whole grams, 0 or more`, field: `${f}.massG` });
-    if (!Number.isSafeInteger(c.volumeMl) || c.volumeMl < 0) issues.push({ code: "WASTE.INVALID_VOLUME", message: `Container ${c.code}: volume must be whole millilitres, 0 or more`, field: `${f}.volumeMl` });
-    if (!Number.isSafeInteger(c.accumulationStartAt)) issues.push({ code: "WASTE.INVALID_TIME", message: `Container ${c.code}: accumulation start must be an instant`, field: `${f}.accumulationStartAt` });
+    if (!streams.has(c.stream))
+      issues.push({
+        code: "WASTE.UNKNOWN_STREAM",
+        message: `Container ${c.code}: unknown stream ${c.stream}`,
+        field: `${f}.stream`,
+      });
+    if (!Number.isSafeInteger(c.massG) || c.massG < 0)
+      issues.push({
+        code: "WASTE.INVALID_MASS",
+        message: `Container ${c.code}: mass must be whole grams, 0 or more`,
+        field: `${f}.massG`,
+      });
+    if (!Number.isSafeInteger(c.volumeMl) || c.volumeMl < 0)
+      issues.push({
+        code: "WASTE.INVALID_VOLUME",
+        message: `Container ${c.code}: volume must be whole millilitres, 0 or more`,
+        field: `${f}.volumeMl`,
+      });
+    if (!Number.isSafeInteger(c.accumulationStartAt))
+      issues.push({
+        code: "WASTE.INVALID_TIME",
+        message: `Container ${c.code}: accumulation start must be an instant`,
+        field: `${f}.accumulationStartAt`,
+      });
     const since = c.satelliteExcessSinceAt;
     if (since !== null && since !== undefined && !Number.isSafeInteger(since)) {
-      issues.push({ code: "WASTE.INVALID_TIME", message: `Container ${c.code}: satellite-excess date must be an instant`, field: `${f}.satelliteExcessSinceAt` });
+      issues.push({
+        code: "WASTE.INVALID_TIME",
+        message: `Container ${c.code}: satellite-excess date must be an instant`,
+        field: `${f}.satelliteExcessSinceAt`,
+      });
     }
     const ch = c.characterisation;
     if (ch === null) return;
-    if (!inRange(ch.pH, MIN_PH, MAX_PH)) issues.push({ code: "WASTE.INVALID_PH", message: `Container ${c.code}: pH must be ${MIN_PH}–${MAX_PH}`, field: `${f}.characterisation.pH` });
+    if (!inRange(ch.pH, MIN_PH, MAX_PH))
+      issues.push({
+        code: "WASTE.INVALID_PH",
+        message: `Container ${c.code}: pH must be ${MIN_PH}–${MAX_PH}`,
+        field: `${f}.characterisation.pH`,
+      });
     if (!inRange(ch.methanolPct, MIN_METHANOL_PCT, MAX_METHANOL_PCT)) {
-      issues.push({ code: "WASTE.INVALID_METHANOL", message: `Container ${c.code}: methanol must be ${MIN_METHANOL_PCT}–${MAX_METHANOL_PCT} % v/v`, field: `${f}.characterisation.methanolPct` });
+      issues.push({
+        code: "WASTE.INVALID_METHANOL",
+        message: `Container ${c.code}: methanol must be ${MIN_METHANOL_PCT}–${MAX_METHANOL_PCT} % v/v`,
+        field: `${f}.characterisation.methanolPct`,
+      });
     }
     if (!inRange(ch.flashPointC, MIN_FLASH_POINT_C, MAX_FLASH_POINT_C)) {
-      issues.push({ code: "WASTE.INVALID_FLASH_POINT", message: `Container ${c.code}: flash point must be ${MIN_FLASH_POINT_C}–${MAX_FLASH_POINT_C} °C`, field: `${f}.characterisation.flashPointC` });
+      issues.push({
+        code: "WASTE.INVALID_FLASH_POINT",
+        message: `Container ${c.code}: flash point must be ${MIN_FLASH_POINT_C}–${MAX_FLASH_POINT_C} °C`,
+        field: `${f}.characterisation.flashPointC`,
+      });
     }
     if (!inRange(ch.waterPct, MIN_WATER_PCT, MAX_WATER_PCT)) {
-      issues.push({ code: "WASTE.INVALID_WATER", message: `Container ${c.code}: water must be ${MIN_WATER_PCT}–${MAX_WATER_PCT} % by weight`, field: `${f}.characterisation.waterPct` });
+      issues.push({
+        code: "WASTE.INVALID_WATER",
+        message: `Container ${c.code}: water must be ${MIN_WATER_PCT}–${MAX_WATER_PCT} % by weight`,
+        field: `${f}.characterisation.waterPct`,
+      });
     }
   });
   return issues;
@@ -479,7 +650,13 @@ export function listWasteDue(input: WasteDueInput): Result<WasteDueReport> {
   const satelliteLimitMl = getSatelliteLimitMl(rules);
   const areaVolumeMl = new Map<string, number>();
   for (const c of containers) {
-    if (site.generatorCategory === "VSQG" || c.satelliteAreaId === undefined || c.satelliteAreaId === null || !countsAsHazardous(c)) continue;
+    if (
+      site.generatorCategory === "VSQG" ||
+      c.satelliteAreaId === undefined ||
+      c.satelliteAreaId === null ||
+      !countsAsHazardous(c)
+    )
+      continue;
     areaVolumeMl.set(c.satelliteAreaId, (areaVolumeMl.get(c.satelliteAreaId) ?? 0) + c.volumeMl);
   }
   const overLimit = new Set<string>();
@@ -495,7 +672,12 @@ export function listWasteDue(input: WasteDueInput): Result<WasteDueReport> {
   }
 
   const hazardousG = containers.filter(countsAsHazardous).reduce((s, c) => s + c.massG, 0);
-  const cap = site.generatorCategory === "SQG" ? rules.sqgMaxOnSiteKg : site.generatorCategory === "VSQG" ? rules.vsqgMaxOnSiteKg : null;
+  const cap =
+    site.generatorCategory === "SQG"
+      ? rules.sqgMaxOnSiteKg
+      : site.generatorCategory === "VSQG"
+        ? rules.vsqgMaxOnSiteKg
+        : null;
   if (cap !== null && gramsToKg(hazardousG) > cap.value) {
     issues.push({
       code: site.generatorCategory === "SQG" ? "WASTE.SQG_ON_SITE_CAP_EXCEEDED" : "WASTE.VSQG_ON_SITE_CAP_EXCEEDED",
@@ -504,14 +686,30 @@ export function listWasteDue(input: WasteDueInput): Result<WasteDueReport> {
     });
   }
 
-  const dues = containers.map((c) => computeWasteDue(c, site, now, c.satelliteAreaId !== undefined && c.satelliteAreaId !== null && overLimit.has(c.satelliteAreaId), rules));
+  const dues = containers.map((c) =>
+    computeWasteDue(
+      c,
+      site,
+      now,
+      c.satelliteAreaId !== undefined && c.satelliteAreaId !== null && overLimit.has(c.satelliteAreaId),
+      rules,
+    ),
+  );
   dues.forEach((d, i) => {
     if (d.hazard.overall === "NEEDS_CHARACTERISATION") {
       const missing = [...new Set([...d.hazard.ignitable.missing, ...d.hazard.corrosive.missing])].join(", ");
-      issues.push({ code: "WASTE.NEEDS_CHARACTERISATION", message: `Container ${d.code}: needs characterisation (${missing}); handled as hazardous until then`, field: `containers.${i}.characterisation` });
+      issues.push({
+        code: "WASTE.NEEDS_CHARACTERISATION",
+        message: `Container ${d.code}: needs characterisation (${missing}); handled as hazardous until then`,
+        field: `containers.${i}.characterisation`,
+      });
     }
     if (d.basis === "SATELLITE_EXCESS_NOT_DATED") {
-      issues.push({ code: "WASTE.SATELLITE_EXCESS_NOT_DATED", message: `Container ${d.code}: its satellite area is over the limit and the date it was exceeded is not recorded`, field: `containers.${i}.satelliteExcessSinceAt` });
+      issues.push({
+        code: "WASTE.SATELLITE_EXCESS_NOT_DATED",
+        message: `Container ${d.code}: its satellite area is over the limit and the date it was exceeded is not recorded`,
+        field: `containers.${i}.satelliteExcessSinceAt`,
+      });
     }
   });
 
@@ -519,14 +717,18 @@ export function listWasteDue(input: WasteDueInput): Result<WasteDueReport> {
   const noTimeLimit: WasteDue[] = [];
   for (const d of dues) {
     if (d.dueAt === null) noTimeLimit.push(d);
-    else if (d.dueAt <= horizonAt) due.push({ ...d, overdue: d.dueAt <= now, daysLeft: Math.floor((d.dueAt - now) / MS_PER_DAY) });
+    else if (d.dueAt <= horizonAt)
+      due.push({ ...d, overdue: d.dueAt <= now, daysLeft: Math.floor((d.dueAt - now) / MS_PER_DAY) });
   }
 
   const groups: StreamGroup[] = [];
   for (const stream of WASTE_STREAMS) {
     const items = due
       .filter((d) => d.stream === stream)
-      .sort((a, b) => Number(b.overdue) - Number(a.overdue) || (a.dueAt ?? 0) - (b.dueAt ?? 0) || a.code.localeCompare(b.code));
+      .sort(
+        (a, b) =>
+          Number(b.overdue) - Number(a.overdue) || (a.dueAt ?? 0) - (b.dueAt ?? 0) || a.code.localeCompare(b.code),
+      );
     if (items.length > 0) groups.push({ stream, items, totals: totalsOf(items) });
   }
   groups.sort((a, b) => {

@@ -43,7 +43,13 @@ export const WasteCharacterisationSchema = z.object({
   solidIgnitable: z.boolean({ error: "Solid ignitable must be yes or no" }).nullable().optional(),
   /** Listed waste codes that apply (e.g. from a supplier's or lab's determination). */
   listedCodes: z
-    .array(z.string().trim().toUpperCase().regex(/^[DFKPU]\d{3}$/, "Listed waste code: a letter D, F, K, P or U and three digits, e.g. U154"))
+    .array(
+      z
+        .string()
+        .trim()
+        .toUpperCase()
+        .regex(/^[DFKPU]\d{3}$/, "Listed waste code: a letter D, F, K, P or U and three digits, e.g. U154"),
+    )
     .max(20, "Listed waste codes: at most 20")
     .default([]),
 });

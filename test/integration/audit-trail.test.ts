@@ -26,11 +26,37 @@ describe.each(PROVIDERS)("audit trail on %s", (provider) => {
   it("writes exactly one event per accepted change, with who, server time, old and new values", async () => {
     const start = await events();
     const now = new Date("2026-03-02T10:00:00Z");
-    const p = await recordPickup(t.db, { ...plant.collector, now }, { code: "PU-A", sourceCode: "R1", material: "USED_COOKING_OIL", observedAt: "2026-03-02T09:00:00Z", containers: 1, volumeL: 100, tempC: 15 });
+    const p = await recordPickup(
+      t.db,
+      { ...plant.collector, now },
+      {
+        code: "PU-A",
+        sourceCode: "R1",
+        material: "USED_COOKING_OIL",
+        observedAt: "2026-03-02T09:00:00Z",
+        containers: 1,
+        volumeL: 100,
+        tempC: 15,
+      },
+    );
     expect(p.ok).toBe(true);
     expect(await events()).toBe(start + 1);
-    await receiveLotFromPickups(t.db, plant.production, { code: "L-A", material: "USED_COOKING_OIL", receivedAt: "2026-03-02T16:00:00Z", observedVolumeL: 100, observedTempC: 15, pickupCodes: ["PU-A"] });
-    await recordTitration(t.db, plant.production, { lotCode: "L-A", testedAt: "2026-03-03T08:00:00Z", sampleMassG: 7.05, titrant: "NAOH", concentrationMolL: 0.25, titreMl: 3 });
+    await receiveLotFromPickups(t.db, plant.production, {
+      code: "L-A",
+      material: "USED_COOKING_OIL",
+      receivedAt: "2026-03-02T16:00:00Z",
+      observedVolumeL: 100,
+      observedTempC: 15,
+      pickupCodes: ["PU-A"],
+    });
+    await recordTitration(t.db, plant.production, {
+      lotCode: "L-A",
+      testedAt: "2026-03-03T08:00:00Z",
+      sampleMassG: 7.05,
+      titrant: "NAOH",
+      concentrationMolL: 0.25,
+      titreMl: 3,
+    });
     await decideLot(t.db, plant.production, { lotCode: "L-A", status: "ACCEPTED" });
     expect(await events()).toBe(start + 4);
     const history = await listRecordHistory(t.db, plant.siteId, "FeedstockLot", "L-A");
@@ -44,7 +70,13 @@ describe.each(PROVIDERS)("audit trail on %s", (provider) => {
 
   it("writes no event for a refused change", async () => {
     const start = await events();
-    const r = await transferToTank(t.db, plant.production, { fromKind: "LOT", fromCode: "L-A", toTankCode: "T1", at: "2026-03-03T09:00:00Z", massKg: 10_000 });
+    const r = await transferToTank(t.db, plant.production, {
+      fromKind: "LOT",
+      fromCode: "L-A",
+      toTankCode: "T1",
+      at: "2026-03-03T09:00:00Z",
+      massKg: 10_000,
+    });
     expect(r.ok).toBe(false);
     expect(await events()).toBe(start);
   });

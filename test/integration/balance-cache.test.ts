@@ -16,7 +16,10 @@ import { reopenPeriod } from "@/lib/period/period.service";
 import { getLedgerPosition } from "@/lib/ledger/position.store";
 import { samePosition } from "@/lib/ledger/position";
 
-const session = vi.hoisted(() => ({ db: null as unknown, user: null as null | { siteId: number; userId: number; now: Date; role: string } }));
+const session = vi.hoisted(() => ({
+  db: null as unknown,
+  user: null as null | { siteId: number; userId: number; now: Date; role: string },
+}));
 vi.mock("@/lib/db", () => ({ getDb: () => Promise.resolve(session.db) }));
 vi.mock("@/lib/auth/request.service", async () => (await import("./support/request-mock")).requestServiceMock(session));
 
@@ -50,7 +53,10 @@ describe.each(PROVIDERS)("balance kept by ledger position on %s", (provider) => 
     site = { id: s.id, timeZone: s.timeZone };
     const nell = await t.db.user.findUniqueOrThrow({ where: { login: "compliance.nell" } });
     actor = { siteId: s.id, userId: nell.id, now: NOW };
-    const p = await t.db.pickup.findFirstOrThrow({ orderBy: { id: "desc" }, select: { material: true, source: { select: { code: true } } } });
+    const p = await t.db.pickup.findFirstOrThrow({
+      orderBy: { id: "desc" },
+      select: { material: true, source: { select: { code: true } } },
+    });
     source = { code: p.source.code, material: p.material };
     session.db = t.db;
   }, 300_000);
@@ -64,9 +70,26 @@ describe.each(PROVIDERS)("balance kept by ledger position on %s", (provider) => 
     serial += 1;
     const code = `BC-${provider}-${serial}`.toUpperCase();
     const tess = await t.db.user.findUniqueOrThrow({ where: { login: "production.tess" } });
-    value(await recordPickup(t.db, { siteId: site.id, userId: tess.id, now: NOW }, { code, sourceCode: source.code, material: source.material, observedAt, containers: 1, volumeL: 100, tempC: 20 }));
+    value(
+      await recordPickup(
+        t.db,
+        { siteId: site.id, userId: tess.id, now: NOW },
+        {
+          code,
+          sourceCode: source.code,
+          material: source.material,
+          observedAt,
+          containers: 1,
+          volumeL: 100,
+          tempC: 20,
+        },
+      ),
+    );
     const pickup = await t.db.pickup.findFirstOrThrow({ where: { code }, select: { holderId: true } });
-    const receipt = await t.db.movement.findFirstOrThrow({ where: { toHolderId: pickup.holderId, fromHolderId: null }, select: { massG: true } });
+    const receipt = await t.db.movement.findFirstOrThrow({
+      where: { toHolderId: pickup.holderId, fromHolderId: null },
+      select: { massG: true },
+    });
     return receipt.massG;
   }
 

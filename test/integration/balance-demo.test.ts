@@ -16,7 +16,10 @@ import { reopenPeriod } from "@/lib/period/period.service";
 
 // Route handlers read the session through next/headers and the database through getDb; both are
 // replaced so the handlers' own steps (same-origin check, role, parse, service, status) run as served.
-const session = vi.hoisted(() => ({ db: null as unknown, user: null as null | { siteId: number; userId: number; now: Date; role: string } }));
+const session = vi.hoisted(() => ({
+  db: null as unknown,
+  user: null as null | { siteId: number; userId: number; now: Date; role: string },
+}));
 vi.mock("@/lib/db", () => ({ getDb: () => Promise.resolve(session.db) }));
 vi.mock("@/lib/auth/request.service", async () => (await import("./support/request-mock")).requestServiceMock(session));
 
@@ -30,7 +33,11 @@ function value<T>(r: Result<T>): T {
 }
 
 function post(path: string, body: unknown): Request {
-  return new Request(`http://127.0.0.1${path}`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
+  return new Request(`http://127.0.0.1${path}`, {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify(body),
+  });
 }
 
 function sum(xs: readonly number[]): number {
@@ -38,13 +45,22 @@ function sum(xs: readonly number[]): number {
 }
 
 function tableSums(t: ContributionTables): number[] {
-  return [t.byLot, t.byPickup, t.bySource, t.byMaterial, t.byCertification].map((rows) => sum(rows.map((r) => r.grams)));
+  return [t.byLot, t.byPickup, t.bySource, t.byMaterial, t.byCertification].map((rows) =>
+    sum(rows.map((r) => r.grams)),
+  );
 }
 
 describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (provider) => {
   let t: TestDb;
   let site: { id: number; timeZone: string };
-  let moves: Array<{ id: number; at: Date; fromHolderId: number | null; toHolderId: number; massG: number; role: string }>;
+  let moves: Array<{
+    id: number;
+    at: Date;
+    fromHolderId: number | null;
+    toHolderId: number;
+    massG: number;
+    role: string;
+  }>;
   let kindOf: Map<number, string>;
   const days = provider === "sqlite" ? 182 : 60;
 
@@ -54,7 +70,9 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
     await writeScenario(t.db, buildScenario({ anchor: ANCHOR, days }));
     const s = await t.db.site.findFirstOrThrow();
     site = { id: s.id, timeZone: s.timeZone };
-    moves = await t.db.movement.findMany({ select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, role: true } });
+    moves = await t.db.movement.findMany({
+      select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, role: true },
+    });
     kindOf = new Map((await t.db.holder.findMany({ select: { id: true, kind: true } })).map((h) => [h.id, h.kind]));
     session.db = t.db;
   }, 300_000);
@@ -67,7 +85,11 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
   function demoMonths(): Array<{ year: number; month: number; startMs: number; endMs: number }> {
     const first = new Date(ANCHOR.getTime() - days * 86_400_000);
     const out = [];
-    for (let y = first.getUTCFullYear(), m = first.getUTCMonth(); Date.UTC(y, m, 1) <= ANCHOR.getTime(); m === 11 ? ((y += 1), (m = 0)) : (m += 1)) {
+    for (
+      let y = first.getUTCFullYear(), m = first.getUTCMonth();
+      Date.UTC(y, m, 1) <= ANCHOR.getTime();
+      m === 11 ? ((y += 1), (m = 0)) : (m += 1)
+    ) {
       out.push({ year: y, month: m + 1, startMs: Date.UTC(y, m, 1), endMs: Date.UTC(y, m + 1, 1) });
     }
     return out;
@@ -79,13 +101,21 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
     const shipments = await t.db.shipment.findMany({ select: { shippedAt: true, massG: true } });
     const disposals = await t.db.disposal.findMany({ select: { disposedAt: true, massG: true } });
     for (const m of months) {
-      const r = value(await getBalanceReport(t.db, site, { period: "MONTH", year: String(m.year), month: String(m.month) }, NOW));
+      const r = value(
+        await getBalanceReport(t.db, site, { period: "MONTH", year: String(m.year), month: String(m.month) }, NOW),
+      );
       const inRange = (at: Date) => at.getTime() >= m.startMs && at.getTime() < m.endMs;
       const before = (at: Date) => at.getTime() < m.startMs;
       const isOut = (id: number) => OUT_KINDS.has(kindOf.get(id) ?? "");
       // Conservation over the raw ledger: stock = Σ entries − Σ moves into shipments, disposals and losses (hand arithmetic).
-      const entered = (p: (at: Date) => boolean) => sum(moves.filter((x) => x.fromHolderId === null && p(x.at)).map((x) => x.massG));
-      const left = (p: (at: Date) => boolean) => sum(moves.filter((x) => x.fromHolderId !== null && !isOut(x.fromHolderId) && isOut(x.toHolderId) && p(x.at)).map((x) => x.massG));
+      const entered = (p: (at: Date) => boolean) =>
+        sum(moves.filter((x) => x.fromHolderId === null && p(x.at)).map((x) => x.massG));
+      const left = (p: (at: Date) => boolean) =>
+        sum(
+          moves
+            .filter((x) => x.fromHolderId !== null && !isOut(x.fromHolderId) && isOut(x.toHolderId) && p(x.at))
+            .map((x) => x.massG),
+        );
       const opening = entered(before) - left(before);
       const receipts = entered(inRange);
       const outputs = left(inRange);
@@ -100,7 +130,11 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
       expect(r.stock.outputs.shipmentG).toBe(sum(shipments.filter((s) => inRange(s.shippedAt)).map((s) => s.massG)));
       expect(r.stock.outputs.disposalG).toBe(sum(disposals.filter((d) => inRange(d.disposedAt)).map((d) => d.massG)));
       // Batches finished in the month: charged − measured out = the unmeasured differences the service booked (hand sum over the ledger).
-      const unmeasured = sum(moves.filter((x) => x.role === "UNMEASURED" && inRange(x.at)).map((x) => (x.fromHolderId === null ? -x.massG : x.massG)));
+      const unmeasured = sum(
+        moves
+          .filter((x) => x.role === "UNMEASURED" && inRange(x.at))
+          .map((x) => (x.fromHolderId === null ? -x.massG : x.massG)),
+      );
       expect(r.process.imbalanceG, `${m.year}-${m.month} unmeasured`).toBe(unmeasured);
       expect(r.differences.unmeasuredG).toBe(unmeasured);
       for (const k of r.byMaterial) expect(k.imbalanceG, `${m.year}-${m.month} ${k.materialKind}`).toBe(0);
@@ -108,7 +142,9 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
     // After the last month, closing stock is the book stock the guarded ledger keeps on every holder.
     const last = months[months.length - 1];
     if (last === undefined) throw new Error("no months");
-    const r = value(await getBalanceReport(t.db, site, { period: "MONTH", year: String(last.year), month: String(last.month) }, NOW));
+    const r = value(
+      await getBalanceReport(t.db, site, { period: "MONTH", year: String(last.year), month: String(last.month) }, NOW),
+    );
     const holders = await t.db.holder.findMany({ select: { kind: true, stockG: true } });
     expect(r.stock.closingG).toBe(sum(holders.filter((h) => !OUT_KINDS.has(h.kind)).map((h) => h.stockG)));
   });
@@ -116,7 +152,9 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
   it("shows realistic unmeasured differences: a few tenths of a percent, one batch above the warn level", async () => {
     const batches = [];
     for (const m of demoMonths()) {
-      const r = value(await getBalanceReport(t.db, site, { period: "MONTH", year: String(m.year), month: String(m.month) }, NOW));
+      const r = value(
+        await getBalanceReport(t.db, site, { period: "MONTH", year: String(m.year), month: String(m.month) }, NOW),
+      );
       batches.push(...r.process.completed);
     }
     expect(batches.length).toBeGreaterThan(10);
@@ -134,12 +172,26 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
     const uco = r.byMaterial.find((k) => k.materialKind === "USED_COOKING_OIL");
     if (uco === undefined) throw new Error("no used cooking oil balance");
     const pickups = await t.db.pickup.findMany({ where: { material: "USED_COOKING_OIL" }, select: { holderId: true } });
-    const lots = await t.db.feedstockLot.findMany({ where: { material: "USED_COOKING_OIL" }, select: { holderId: true } });
+    const lots = await t.db.feedstockLot.findMany({
+      where: { material: "USED_COOKING_OIL" },
+      select: { holderId: true },
+    });
     const ucoHolders = new Set([...pickups.map((p) => p.holderId), ...lots.map((l) => l.holderId)]);
     const inMonth = (x: { at: Date }) => x.at.getTime() >= start && x.at.getTime() < end;
     // Receipts: entries into used-cooking-oil pickups and lots; out: everything leaving them for other holders (hand sums).
-    expect(uco.receiptsG).toBe(sum(moves.filter((x) => x.fromHolderId === null && ucoHolders.has(x.toHolderId) && inMonth(x)).map((x) => x.massG)));
-    const leaving = sum(moves.filter((x) => x.fromHolderId !== null && ucoHolders.has(x.fromHolderId) && !ucoHolders.has(x.toHolderId) && inMonth(x)).map((x) => x.massG));
+    expect(uco.receiptsG).toBe(
+      sum(
+        moves.filter((x) => x.fromHolderId === null && ucoHolders.has(x.toHolderId) && inMonth(x)).map((x) => x.massG),
+      ),
+    );
+    const leaving = sum(
+      moves
+        .filter(
+          (x) =>
+            x.fromHolderId !== null && ucoHolders.has(x.fromHolderId) && !ucoHolders.has(x.toHolderId) && inMonth(x),
+        )
+        .map((x) => x.massG),
+    );
     expect(uco.outputsG + uco.transfersOutG).toBe(leaving);
     expect(uco.openingG + uco.inG - uco.outputsG - uco.transfersOutG).toBe(uco.closingG);
     expect(r.byMaterial.length).toBeGreaterThan(5);
@@ -148,7 +200,9 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
 
   it("traces the last product lot back to exactly its recorded mass, agreeing with the product page's trace", async () => {
     const product = await t.db.productLot.findFirstOrThrow({ orderBy: [{ producedAt: "desc" }, { id: "desc" }] });
-    const r: BackwardTraceReport = value(await traceBackwardReport(t.db, site.id, { kind: "PRODUCT_LOT", code: product.code }, NOW));
+    const r: BackwardTraceReport = value(
+      await traceBackwardReport(t.db, site.id, { kind: "PRODUCT_LOT", code: product.code }, NOW),
+    );
     expect(r.totalG).toBe(product.massG);
     for (const s of tableSums(r.all)) expect(s).toBe(product.massG);
     expect(r.feedstock.totalG + r.reagentsG + r.otherG).toBe(product.massG);
@@ -174,7 +228,11 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
   });
 
   it("follows an early lot forward to where the backward traces of the places it reached find it", async () => {
-    const lot = await t.db.feedstockLot.findFirstOrThrow({ where: { status: { in: ["ACCEPTED", "CONSUMED"] }, certified: true }, orderBy: [{ receivedAt: "asc" }, { id: "asc" }], skip: 2 });
+    const lot = await t.db.feedstockLot.findFirstOrThrow({
+      where: { status: { in: ["ACCEPTED", "CONSUMED"] }, certified: true },
+      orderBy: [{ receivedAt: "asc" }, { id: "asc" }],
+      skip: 2,
+    });
     const f = value(await traceForwardReport(t.db, site.id, { kind: "LOT", code: lot.code }, NOW));
     const flow = await getLotFlow(t.db, site.id, lot.holderId, NOW);
     expect(flow.method).toBe("trace");
@@ -184,12 +242,19 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
       const row = f.holders.find((h) => h.holder.id === d.holder.id);
       expect([row?.receivedG, row?.heldG], `${d.holder.kind} ${d.holder.code}`).toEqual([d.receivedG, d.heldG]);
     }
-    const reached = f.holders.filter((h) => (h.holder.kind === "PRODUCT_LOT" || h.holder.kind === "SHIPMENT" || h.holder.kind === "BATCH") && h.receivedG > 0);
+    const reached = f.holders.filter(
+      (h) =>
+        (h.holder.kind === "PRODUCT_LOT" || h.holder.kind === "SHIPMENT" || h.holder.kind === "BATCH") &&
+        h.receivedG > 0,
+    );
     expect(reached.some((h) => h.holder.kind === "PRODUCT_LOT")).toBe(true);
     for (const h of reached.slice(0, 12)) {
-      const kind = h.holder.kind === "PRODUCT_LOT" ? "PRODUCT_LOT" : h.holder.kind === "SHIPMENT" ? "SHIPMENT" : "BATCH";
+      const kind =
+        h.holder.kind === "PRODUCT_LOT" ? "PRODUCT_LOT" : h.holder.kind === "SHIPMENT" ? "SHIPMENT" : "BATCH";
       const back = value(await traceBackwardReport(t.db, site.id, { kind, code: h.holder.code }, NOW));
-      expect(back.all.byLot.find((row) => row.lotCode === lot.code)?.grams, `${kind} ${h.holder.code}`).toBe(h.receivedG);
+      expect(back.all.byLot.find((row) => row.lotCode === lot.code)?.grams, `${kind} ${h.holder.code}`).toBe(
+        h.receivedG,
+      );
     }
   });
 
@@ -200,16 +265,24 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
     const { GET } = await import("@/app/api/trace/backward/route");
     const res = await GET(new Request(`http://127.0.0.1/api/trace/backward?kind=PRODUCT_LOT&code=${product.code}`));
     expect(res.status).toBe(200);
-    const body = (await res.json()) as { ok: true; value: { totalG: number; all: { byLot: Array<{ key: string; grams: number }> } } };
+    const body = (await res.json()) as {
+      ok: true;
+      value: { totalG: number; all: { byLot: Array<{ key: string; grams: number }> } };
+    };
     const direct = value(await traceBackwardReport(t.db, site.id, { kind: "PRODUCT_LOT", code: product.code }, NOW));
     expect(body.value.totalG).toBe(product.massG);
-    expect(body.value.all.byLot).toEqual(direct.all.byLot.map((r) => expect.objectContaining({ key: r.key, grams: r.grams })));
+    expect(body.value.all.byLot).toEqual(
+      direct.all.byLot.map((r) => expect.objectContaining({ key: r.key, grams: r.grams })),
+    );
     const bad = await GET(new Request("http://127.0.0.1/api/trace/backward?kind=TANK&code=NOPE"));
     expect(bad.status).toBe(404);
   });
 
   it("refuses a reopen without a reason, records one with a reason", async () => {
-    const closed = await t.db.accountingPeriod.findFirstOrThrow({ where: { siteId: site.id, status: "CLOSED" }, orderBy: { startsAt: "asc" } });
+    const closed = await t.db.accountingPeriod.findFirstOrThrow({
+      where: { siteId: site.id, status: "CLOSED" },
+      orderBy: { startsAt: "asc" },
+    });
     const nell = await t.db.user.findUniqueOrThrow({ where: { login: "compliance.nell" } });
     const tess = await t.db.user.findUniqueOrThrow({ where: { login: "production.tess" } });
     const eventsBefore = await t.db.periodEvent.count({ where: { periodId: closed.id } });
@@ -221,19 +294,34 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
     expect(noReason.status).toBe(422);
     expect(((await noReason.json()) as { issues: Array<{ field: string }> }).issues[0]?.field).toBe("reason");
     session.user = { siteId: site.id, userId: tess.id, now: NOW, role: "PRODUCTION" };
-    expect((await POST(post("/api/periods/reopen", { periodId: closed.id, reason: "A late delivery note to book" }))).status).toBe(403);
+    expect(
+      (await POST(post("/api/periods/reopen", { periodId: closed.id, reason: "A late delivery note to book" }))).status,
+    ).toBe(403);
     expect((await t.db.accountingPeriod.findUniqueOrThrow({ where: { id: closed.id } })).status).toBe("CLOSED");
     expect(await t.db.periodEvent.count({ where: { periodId: closed.id } })).toBe(eventsBefore);
 
     session.user = { siteId: site.id, userId: nell.id, now: NOW, role: "COMPLIANCE" };
-    const reopened = await POST(post("/api/periods/reopen", { periodId: closed.id, reason: "A late delivery note to book" }));
+    const reopened = await POST(
+      post("/api/periods/reopen", { periodId: closed.id, reason: "A late delivery note to book" }),
+    );
     expect(reopened.status).toBe(200);
     expect((await t.db.accountingPeriod.findUniqueOrThrow({ where: { id: closed.id } })).status).toBe("OPEN");
     const event = await t.db.periodEvent.findFirstOrThrow({ where: { periodId: closed.id }, orderBy: { id: "desc" } });
     expect([event.action, event.reason, event.byId]).toEqual(["REOPEN", "A late delivery note to book", nell.id]);
     const { POST: close } = await import("@/app/api/periods/close/route");
     expect((await close(post("/api/periods/close", { periodId: closed.id }))).status).toBe(200);
-    const page = value(await getBalanceReport(t.db, site, { period: "CUSTOM", start: closed.startsAt.toISOString().slice(0, 10), end: closed.endsAt.toISOString().slice(0, 10) }, NOW));
+    const page = value(
+      await getBalanceReport(
+        t.db,
+        site,
+        {
+          period: "CUSTOM",
+          start: closed.startsAt.toISOString().slice(0, 10),
+          end: closed.endsAt.toISOString().slice(0, 10),
+        },
+        NOW,
+      ),
+    );
     expect(page.accountingPeriod?.status).toBe("CLOSED");
     expect(page.events.map((e) => e.action).slice(0, 2)).toEqual(["CLOSE", "REOPEN"]);
   });
@@ -248,19 +336,35 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
         massG: true,
         toHolder: {
           select: {
-            pickup: { select: { source: { select: { certificateNo: true, certificateExpires: true } }, lot: { select: { certified: true } } } },
-            lot: { select: { certified: true, origin: true, supplier: { select: { certificateNo: true, certificateExpires: true } } } },
+            pickup: {
+              select: {
+                source: { select: { certificateNo: true, certificateExpires: true } },
+                lot: { select: { certified: true } },
+              },
+            },
+            lot: {
+              select: {
+                certified: true,
+                origin: true,
+                supplier: { select: { certificateNo: true, certificateExpires: true } },
+              },
+            },
           },
         },
       },
     });
-    const valid = (s: { certificateNo: string | null; certificateExpires: Date | null } | null | undefined, at: Date) => !!s?.certificateNo && (s.certificateExpires === null || s.certificateExpires >= at);
+    const valid = (s: { certificateNo: string | null; certificateExpires: Date | null } | null | undefined, at: Date) =>
+      !!s?.certificateNo && (s.certificateExpires === null || s.certificateExpires >= at);
     const certifiedIn = sum(
       entries
         .filter((e) => {
           const p = e.toHolder.pickup;
           const l = e.toHolder.lot;
-          return p ? p.lot?.certified === true && valid(p.source, e.at) : l ? l.certified && l.origin === "DELIVERY" && valid(l.supplier, e.at) : false;
+          return p
+            ? p.lot?.certified === true && valid(p.source, e.at)
+            : l
+              ? l.certified && l.origin === "DELIVERY" && valid(l.supplier, e.at)
+              : false;
         })
         .map((e) => e.massG),
     );
@@ -276,7 +380,17 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
     // Walk the claims with a plain running balance per set (carry-forward keeps positive balances, so period ends change nothing).
     const credit = new Map<string, number>();
     const events = [
-      ...r.conversions.flatMap((c) => c.bySet.filter((s) => s.accepted).map((s) => ({ at: c.completedAt.getTime(), order: 0, setKey: s.setKey, grams: s.fameCreditG, claim: null as null | string }))),
+      ...r.conversions.flatMap((c) =>
+        c.bySet
+          .filter((s) => s.accepted)
+          .map((s) => ({
+            at: c.completedAt.getTime(),
+            order: 0,
+            setKey: s.setKey,
+            grams: s.fameCreditG,
+            claim: null as null | string,
+          })),
+      ),
       ...r.claims.map((c) => ({ at: c.at.getTime(), order: 1, setKey: c.setKey, grams: c.massG, claim: c.documentNo })),
     ].sort((a, b) => a.at - b.at || a.order - b.order);
     const over: string[] = [];
@@ -289,11 +403,16 @@ describe.each(PROVIDERS)("demo plant: balances, traces and custody on %s", (prov
     const claimsOnDemo = await t.db.shipment.count({ where: { certifiedClaim: true } });
     expect(r.claims.length).toBe(claimsOnDemo);
     expect(r.claims.filter((c) => !c.accepted).map((c) => c.documentNo)).toEqual(over);
-    expect(r.failures.filter((f) => f.code === "CUSTODY.CLAIM_EXCEEDS_BALANCE").map((f) => f.bookingId.replace(/^CLAIM:/, ""))).toEqual(over);
+    expect(
+      r.failures
+        .filter((f) => f.code === "CUSTODY.CLAIM_EXCEEDS_BALANCE")
+        .map((f) => f.bookingId.replace(/^CLAIM:/, "")),
+    ).toEqual(over);
     expect(r.failures.filter((f) => f.code !== "CUSTODY.CLAIM_EXCEEDS_BALANCE")).toEqual([]);
     for (const c of r.claims.filter((x) => !x.accepted)) expect(c.shortfallG).toBe(c.massG - c.availableG);
     // Every account's balance is its credits less its debits over all periods (nothing lapses under CARRY_POSITIVE).
-    for (const a of r.accounts) expect(a.balanceG, `${a.setKey} ${a.material}`).toBe(sum(a.periods.map((p) => p.creditsG - p.debitsG)));
+    for (const a of r.accounts)
+      expect(a.balanceG, `${a.setKey} ${a.material}`).toBe(sum(a.periods.map((p) => p.creditsG - p.debitsG)));
     expect(r.ruleSet.id).toBe("EU_2022_996");
     expect(r.periodMonths).toBe(3);
   });

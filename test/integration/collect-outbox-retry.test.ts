@@ -22,10 +22,27 @@ describe.each(PROVIDERS)("collector outbox retries on %s", (provider) => {
     await t.drop();
   });
 
-  const body = (key: string, code: string, observedAt = "2026-03-05T06:10:00.000Z") => ({ code, sourceCode: "R1", material: "USED_COOKING_OIL" as const, observedAt, containers: 2, containerTags: [] as string[], volumeL: 120, tempC: 18, idempotencyKey: key });
+  const body = (key: string, code: string, observedAt = "2026-03-05T06:10:00.000Z") => ({
+    code,
+    sourceCode: "R1",
+    material: "USED_COOKING_OIL" as const,
+    observedAt,
+    containers: 2,
+    containerTags: [] as string[],
+    volumeL: 120,
+    tempC: 18,
+    idempotencyKey: key,
+  });
   // The route runs each write under the Idempotency-Key header with the body's SHA-256, as here.
   const send = (key: string, b: unknown, now: Date) =>
-    withIdempotencyKey({ userId: plant.collector.userId, key, requestHash: createHash("sha256").update(JSON.stringify(b)).digest("hex") }, () => recordPickup(t.db, { ...plant.collector, now }, b));
+    withIdempotencyKey(
+      {
+        userId: plant.collector.userId,
+        key,
+        requestHash: createHash("sha256").update(JSON.stringify(b)).digest("hex"),
+      },
+      () => recordPickup(t.db, { ...plant.collector, now }, b),
+    );
 
   it("records a re-sent pickup once and answers with the same record id", async () => {
     const key = randomUUID();
@@ -43,7 +60,12 @@ describe.each(PROVIDERS)("collector outbox retries on %s", (provider) => {
     expect(row.receivedAt.toISOString()).toBe("2026-03-05T09:00:00.000Z"); // the server's, from the first arrival
     // The phone reads the replayed answer (as JSON on the wire) as confirmation of this entry.
     const entry = newEntry(b, { userId: plant.collector.userId, login: "c", fullName: "C" }, new Date());
-    expect(classifyReply(entry, { status: 200, body: JSON.parse(JSON.stringify({ ok: true, value: again.value })) as unknown })).toMatchObject({ kind: "STORED", recordId: first.value.id });
+    expect(
+      classifyReply(entry, {
+        status: 200,
+        body: JSON.parse(JSON.stringify({ ok: true, value: again.value })) as unknown,
+      }),
+    ).toMatchObject({ kind: "STORED", recordId: first.value.id });
   });
 
   it("stores nothing for a refused pickup, so the corrected entry under the same key is evaluated afresh", async () => {
@@ -59,9 +81,23 @@ describe.each(PROVIDERS)("collector outbox retries on %s", (provider) => {
 
   it("pools the phone's pickups into one lot and keeps each pickup's link to it", async () => {
     const codes = ["PU-OUT-1", "PU-OUT-2"];
-    const lot = await receiveLotFromPickups(t.db, { ...plant.production, now: new Date("2026-03-05T16:00:00Z") }, { code: "L-OUT-1", material: "USED_COOKING_OIL", receivedAt: "2026-03-05T16:00:00Z", observedVolumeL: 238, observedTempC: 20, pickupCodes: codes });
+    const lot = await receiveLotFromPickups(
+      t.db,
+      { ...plant.production, now: new Date("2026-03-05T16:00:00Z") },
+      {
+        code: "L-OUT-1",
+        material: "USED_COOKING_OIL",
+        receivedAt: "2026-03-05T16:00:00Z",
+        observedVolumeL: 238,
+        observedTempC: 20,
+        pickupCodes: codes,
+      },
+    );
     expect(lot.ok).toBe(true);
-    const linked = await t.db.pickup.findMany({ where: { code: { in: codes } }, select: { lot: { select: { code: true } } } });
+    const linked = await t.db.pickup.findMany({
+      where: { code: { in: codes } },
+      select: { lot: { select: { code: true } } },
+    });
     expect(linked.map((p) => p.lot?.code)).toEqual(["L-OUT-1", "L-OUT-1"]);
   });
 });

@@ -34,7 +34,9 @@ describe("demo scenario", () => {
     const i = ops.findIndex((o) => o.kind === "pickup");
     const bad = ops.map((o, j) => (j === i && o.kind === "pickup" ? { ...o, input: { ...o.input, volumeL: -5 } } : o));
     expect(() => validateScenario(bad)).toThrow(SeedError);
-    expect(() => validateScenario(bad)).toThrow(new RegExp(`demo row ${i + 1} \\(pickup\\): volumeL: Volume \\(L\\) must be more than 0`));
+    expect(() => validateScenario(bad)).toThrow(
+      new RegExp(`demo row ${i + 1} \\(pickup\\): volumeL: Volume \\(L\\) must be more than 0`),
+    );
   });
 });
 
@@ -65,10 +67,18 @@ describe.each(PROVIDERS)("demo plant written through the services on %s", (provi
   });
 
   it("is consistent in date order, so the genealogy replay accepts every movement", async () => {
-    const holders = await t.db.holder.findMany({ select: { id: true, kind: true, tank: { select: { mixing: true } } } });
-    const moves = await t.db.movement.findMany({ select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true } });
+    const holders = await t.db.holder.findMany({
+      select: { id: true, kind: true, tank: { select: { mixing: true } } },
+    });
+    const moves = await t.db.movement.findMany({
+      select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true },
+    });
     const index = indexLedger(
-      holders.map((h) => ({ id: h.id, kind: h.kind as HolderKind, mixing: h.tank?.mixing === "FIFO" ? "FIFO" : "MIXED" })),
+      holders.map((h) => ({
+        id: h.id,
+        kind: h.kind as HolderKind,
+        mixing: h.tank?.mixing === "FIFO" ? "FIFO" : "MIXED",
+      })),
       moves.map((m) => ({ ...m, at: m.at.getTime() })),
     );
     if (!index.ok) throw new Error(JSON.stringify(index.issues));
@@ -91,12 +101,22 @@ describe.each(PROVIDERS)("demo plant written through the services on %s", (provi
     const judged = lots.map((l) => ({ ...l, j: judgeRecords(spec, l.qc) }));
     const failing = judged.filter((l) => l.j.failing.length > 0);
     // ASTM D6751-23a Table 1: acid number 0.50 mg KOH/g max; the demo's one failing lot is above it.
-    expect(failing.map((l) => ({ status: l.status, failing: l.j.failing }))).toEqual([{ status: "HELD", failing: ["acid-number"] }]);
+    expect(failing.map((l) => ({ status: l.status, failing: l.j.failing }))).toEqual([
+      { status: "HELD", failing: ["acid-number"] },
+    ]);
     expect(failing[0]?.decisionReason).toMatch(/Acid number .* above the 0\.50 maximum/);
     const released = judged.filter((l) => l.status === "RELEASED");
     expect(released.length).toBeGreaterThan(provider === "sqlite" ? 60 : 10);
-    for (const l of released) expect({ code: l.code, releasable: l.j.releasable, deviation: l.deviation, specKey: l.specKey }).toEqual({ code: l.code, releasable: true, deviation: false, specKey: DEFAULT_PRODUCT_SPEC_KEY });
-    expect(judged.filter((l) => l.status === "HELD" && l.qc.length === 0).length).toBeGreaterThanOrEqual(provider === "sqlite" ? 3 : 1);
+    for (const l of released)
+      expect({ code: l.code, releasable: l.j.releasable, deviation: l.deviation, specKey: l.specKey }).toEqual({
+        code: l.code,
+        releasable: true,
+        deviation: false,
+        specKey: DEFAULT_PRODUCT_SPEC_KEY,
+      });
+    expect(judged.filter((l) => l.status === "HELD" && l.qc.length === 0).length).toBeGreaterThanOrEqual(
+      provider === "sqlite" ? 3 : 1,
+    );
   });
 
   it("keeps FFA titrations across the realistic range", async () => {

@@ -18,15 +18,25 @@ describe("route handlers fail with a reference", () => {
       await request.text();
       throw new Error("database went away");
     });
-    const res = await route(new Request("http://127.0.0.1/api/example", { method: "POST", body: JSON.stringify({ password: "never-logged" }) }));
+    const res = await route(
+      new Request("http://127.0.0.1/api/example", {
+        method: "POST",
+        body: JSON.stringify({ password: "never-logged" }),
+      }),
+    );
     expect(res.status).toBe(500);
-    const body = (await res.json()) as { ok: boolean; issues: Array<{ code: string; message: string; reference: string }> };
+    const body = (await res.json()) as {
+      ok: boolean;
+      issues: Array<{ code: string; message: string; reference: string }>;
+    };
     expect(body.ok).toBe(false);
     const issue = body.issues[0]!;
     expect(issue.code).toBe("SERVER.UNEXPECTED");
     expect(issue.reference).toMatch(/^[A-Z2-9]{8}$/);
     expect(issue.message).toContain(`Tell your administrator this reference: ${issue.reference}`);
-    const entry = lines.map((l) => JSON.parse(l) as Record<string, unknown>).find((l) => l.reference === issue.reference);
+    const entry = lines
+      .map((l) => JSON.parse(l) as Record<string, unknown>)
+      .find((l) => l.reference === issue.reference);
     expect(entry).toBeDefined();
     expect(entry!.route).toBe("POST /api/example");
     expect(String((entry!.err as { stack: string }).stack)).toContain("database went away");
@@ -43,7 +53,10 @@ describe("route handlers fail with a reference", () => {
     expect(res.status).toBe(503);
     expect(res.headers.get("retry-after")).toBe("2");
     const body = (await res.json()) as { issues: Array<{ code: string; message: string }> };
-    expect(body.issues[0]).toMatchObject({ code: "DATABASE.UNAVAILABLE", message: "The database connection was lost; nothing was saved. Try again." });
+    expect(body.issues[0]).toMatchObject({
+      code: "DATABASE.UNAVAILABLE",
+      message: "The database connection was lost; nothing was saved. Try again.",
+    });
   });
 
   it("answers a refusal for a busy database with 503 and when to resend", async () => {

@@ -13,12 +13,21 @@ import { withIdempotencyKey } from "@/lib/ledger/ledger.store";
 // large import's transaction is open and has already written: the import is refused with a retryable
 // code, nothing of it stays, the app reconnects by itself, and the same import resent then saves once.
 const row = (i: number) => ({
-  code: `PGK-${i}`, sourceCode: "R1", material: "USED_COOKING_OIL", observedAt: "2026-03-05T09:00:00Z", containers: 1, volumeL: 40 + (i % 9), tempC: 15, idempotencyKey: randomUUID(),
+  code: `PGK-${i}`,
+  sourceCode: "R1",
+  material: "USED_COOKING_OIL",
+  observedAt: "2026-03-05T09:00:00Z",
+  containers: 1,
+  volumeL: 40 + (i % 9),
+  tempC: 15,
+  idempotencyKey: randomUUID(),
 });
 
-const TERMINATE = "SELECT pg_terminate_backend(pid) AS done FROM pg_stat_activity WHERE datname = current_database() AND pid <> pg_backend_pid()";
+const TERMINATE =
+  "SELECT pg_terminate_backend(pid) AS done FROM pg_stat_activity WHERE datname = current_database() AND pid <> pg_backend_pid()";
 // A backend of this database inside a transaction that has written (it holds a transaction id).
-const WRITING = "SELECT count(*)::int AS n FROM pg_stat_activity WHERE datname = current_database() AND pid <> pg_backend_pid() AND backend_xid IS NOT NULL";
+const WRITING =
+  "SELECT count(*)::int AS n FROM pg_stat_activity WHERE datname = current_database() AND pid <> pg_backend_pid() AND backend_xid IS NOT NULL";
 
 describe.skipIf(!PG_URL)("PostgreSQL connections terminated during an import", () => {
   let t: TestDb;
@@ -52,7 +61,9 @@ describe.skipIf(!PG_URL)("PostgreSQL connections terminated during an import", (
     expect(killed).toBeGreaterThan(0);
 
     const r = await sent;
-    expect(r.ok ? "saved" : r.issues).toEqual([{ code: "DATABASE.UNAVAILABLE", message: "The database connection was lost; nothing was saved. Try again." }]);
+    expect(r.ok ? "saved" : r.issues).toEqual([
+      { code: "DATABASE.UNAVAILABLE", message: "The database connection was lost; nothing was saved. Try again." },
+    ]);
 
     // The next read through the same client succeeds without a restart (the pool drops dead connections).
     let recoveredMs = -1;
@@ -67,7 +78,9 @@ describe.skipIf(!PG_URL)("PostgreSQL connections terminated during an import", (
         await new Promise((res) => setTimeout(res, 100));
       }
     }
-    console.log(`PostgreSQL: ${killed} backend(s) terminated mid-import; import refused, first read succeeded ${recoveredMs} ms after pg_terminate_backend, ${failedReads} failed read(s) before it`);
+    console.log(
+      `PostgreSQL: ${killed} backend(s) terminated mid-import; import refused, first read succeeded ${recoveredMs} ms after pg_terminate_backend, ${failedReads} failed read(s) before it`,
+    );
     expect(recoveredMs).toBeGreaterThanOrEqual(0);
     expect(recoveredMs).toBeLessThan(5_000);
     expect(after).toEqual(before);

@@ -28,7 +28,15 @@ describe("a SQLite write lock held past the busy timeout", () => {
     await t.drop();
   });
 
-  const pickup = { code: "PU-BUSY-1", sourceCode: "R1", material: "USED_COOKING_OIL", observedAt: "2026-02-05T09:00:00Z", containers: 2, volumeL: 80, tempC: 15 };
+  const pickup = {
+    code: "PU-BUSY-1",
+    sourceCode: "R1",
+    material: "USED_COOKING_OIL",
+    observedAt: "2026-02-05T09:00:00Z",
+    containers: 2,
+    volumeL: 80,
+    tempC: 15,
+  };
   const transfer = { fromKind: "LOT", fromCode: "L-BUSY", toTankCode: "T1", at: "2026-02-05T10:00:00Z", massKg: 50 };
 
   it("refuses a pickup and a transfer with DATABASE.BUSY while the lock is held, then takes them", async () => {
@@ -38,17 +46,24 @@ describe("a SQLite write lock held past the busy timeout", () => {
     other.exec("BEGIN IMMEDIATE");
     const waits: number[] = [];
     try {
-      for (const write of [() => recordPickup(t.db, plant.collector, pickup), () => transferToTank(t.db, plant.production, transfer)]) {
+      for (const write of [
+        () => recordPickup(t.db, plant.collector, pickup),
+        () => transferToTank(t.db, plant.production, transfer),
+      ]) {
         const started = performance.now();
         const r = await write();
         waits.push(Math.round(performance.now() - started));
-        expect(r.ok ? "saved" : r.issues).toEqual([{ code: "DATABASE.BUSY", message: "The records are busy; nothing was saved. Try again in a moment." }]);
+        expect(r.ok ? "saved" : r.issues).toEqual([
+          { code: "DATABASE.BUSY", message: "The records are busy; nothing was saved. Try again in a moment." },
+        ]);
       }
     } finally {
       other.exec("ROLLBACK");
       other.close();
     }
-    console.log(`SQLite busy: lock held past busy_timeout=${BUSY_TIMEOUT_MS} ms; writes refused after ${waits.join(" ms, ")} ms`);
+    console.log(
+      `SQLite busy: lock held past busy_timeout=${BUSY_TIMEOUT_MS} ms; writes refused after ${waits.join(" ms, ")} ms`,
+    );
     // The app waited out its busy timeout before giving up (a lock released in time would have let it through).
     for (const w of waits) expect(w).toBeGreaterThanOrEqual(BUSY_TIMEOUT_MS * 0.9);
     expect(await fingerprint(t.db, plant.siteId)).toEqual(before);
@@ -66,7 +81,9 @@ describe("a SQLite write lock held past the busy timeout", () => {
   it("waits for a lock another process releases within the busy timeout, then saves", async () => {
     // A separate process holds the write lock for 1.5 s (this process's SQLite calls block while they wait).
     const script = `const D=require("better-sqlite3");const d=new D(process.argv[1]);d.exec("BEGIN IMMEDIATE");console.log("locked");Atomics.wait(new Int32Array(new SharedArrayBuffer(4)),0,0,1500);d.exec("ROLLBACK");d.close();`;
-    const holder = spawn(process.execPath, ["-e", script, sqliteFilePath(t.url)], { stdio: ["ignore", "pipe", "inherit"] });
+    const holder = spawn(process.execPath, ["-e", script, sqliteFilePath(t.url)], {
+      stdio: ["ignore", "pipe", "inherit"],
+    });
     await once(holder.stdout, "data");
     const started = performance.now();
     const r = await recordPickup(t.db, plant.collector, { ...pickup, code: "PU-BUSY-2" });

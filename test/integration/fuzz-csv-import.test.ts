@@ -14,7 +14,34 @@ import { headerWithUnit } from "@/lib/grid/cells";
 // control characters). The import must never throw; a refusal names its code and field; every per-row
 // message names the row; and whatever it does is all-or-nothing: stock still matches the ledger.
 const TEXT = fc.oneof(
-  fc.constantFrom("", " ", '"', '""', 'a"b', '"unclosed', "1,234.5", "1.234,5", "12,5", "-3", "1e9", "NaN", "2026-13-40", "31/02/2026", "2026-12-01T08:00:00Z", "R1", "T1", "USED_COOKING_OIL", "used cooking oil", "=1+1", "+SUM(A1)", "@cmd", "\uFEFF", "\u0000", "x\r\ny", "\t"),
+  fc.constantFrom(
+    "",
+    " ",
+    '"',
+    '""',
+    'a"b',
+    '"unclosed',
+    "1,234.5",
+    "1.234,5",
+    "12,5",
+    "-3",
+    "1e9",
+    "NaN",
+    "2026-13-40",
+    "31/02/2026",
+    "2026-12-01T08:00:00Z",
+    "R1",
+    "T1",
+    "USED_COOKING_OIL",
+    "used cooking oil",
+    "=1+1",
+    "+SUM(A1)",
+    "@cmd",
+    "\uFEFF",
+    "\u0000",
+    "x\r\ny",
+    "\t",
+  ),
   fc.string({ maxLength: 12 }),
   fc.integer({ min: -1_000_000, max: 1_000_000 }).map(String),
   fc.double({ noNaN: false }).map(String),
@@ -39,9 +66,18 @@ const file = fc
   .map((f) => {
     if (f.raw !== null) return { table: f.table, text: f.raw };
     const table = GRID_TABLES[f.table];
-    const headers = [...table.columns.filter((c) => c.entry).map((c) => headerWithUnit(c, f.units)).slice(f.drop), ...f.extraHeaders];
+    const headers = [
+      ...table.columns
+        .filter((c) => c.entry)
+        .map((c) => headerWithUnit(c, f.units))
+        .slice(f.drop),
+      ...f.extraHeaders,
+    ];
     const nl = f.crlf ? "\r\n" : "\n";
-    const lines = [headers.map((h) => (f.quoteHeaders ? quoted(h) : h)).join(f.sep), ...f.rows.map((r) => r.join(f.sep))];
+    const lines = [
+      headers.map((h) => (f.quoteHeaders ? quoted(h) : h)).join(f.sep),
+      ...f.rows.map((r) => r.join(f.sep)),
+    ];
     return { table: f.table, text: `${f.bom ? "\uFEFF" : ""}${lines.join(nl)}` };
   });
 
@@ -74,7 +110,10 @@ describe.each(PROVIDERS)("malformed CSV files imported on %s", (provider) => {
         if (r.value.failed > 0) {
           withMessages++;
           expect(r.value.written, "a file with a bad row writes nothing").toBe(0);
-          expect(r.value.messages.some((m) => /row \d+/i.test(m)), r.value.messages.join(" | ")).toBe(true);
+          expect(
+            r.value.messages.some((m) => /row \d+/i.test(m)),
+            r.value.messages.join(" | "),
+          ).toBe(true);
         }
         if (dryRun) expect(r.value.written).toBe(0);
       }),
@@ -83,6 +122,9 @@ describe.each(PROVIDERS)("malformed CSV files imported on %s", (provider) => {
     expect(refused + withMessages).toBeGreaterThan(100);
     const holders = await t.db.holder.findMany({ select: { id: true, stockG: true } });
     const moves = await t.db.movement.findMany({ select: { fromHolderId: true, toHolderId: true, massG: true } });
-    for (const h of holders) expect(h.stockG).toBe(moves.reduce((s, m) => s + (m.toHolderId === h.id ? m.massG : 0) - (m.fromHolderId === h.id ? m.massG : 0), 0));
+    for (const h of holders)
+      expect(h.stockG).toBe(
+        moves.reduce((s, m) => s + (m.toHolderId === h.id ? m.massG : 0) - (m.fromHolderId === h.id ? m.massG : 0), 0),
+      );
   }, 900_000);
 });

@@ -9,7 +9,15 @@ import { receiveReagent } from "@/lib/batch/batch.service";
 import { withIdempotencyKey } from "@/lib/ledger/ledger.store";
 
 const row = (i: number, extra: Record<string, unknown> = {}) => ({
-  code: `IMP-${i}`, sourceCode: "R1", material: "USED_COOKING_OIL", observedAt: "2026-03-05T09:00:00Z", containers: 1, volumeL: 50 + i, tempC: 15, idempotencyKey: randomUUID(), ...extra,
+  code: `IMP-${i}`,
+  sourceCode: "R1",
+  material: "USED_COOKING_OIL",
+  observedAt: "2026-03-05T09:00:00Z",
+  containers: 1,
+  volumeL: 50 + i,
+  tempC: 15,
+  idempotencyKey: randomUUID(),
+  ...extra,
 });
 
 describe.each(PROVIDERS)("idempotent writes and all-or-nothing imports on %s", (provider) => {
@@ -23,7 +31,14 @@ describe.each(PROVIDERS)("idempotent writes and all-or-nothing imports on %s", (
     await t.drop();
   });
 
-  const reagent = (code: string, massKg: number) => ({ code, reagent: "METHANOL", supplier: "S", strengthPct: 99.9, receivedAt: "2026-03-01T08:00:00Z", massKg });
+  const reagent = (code: string, massKg: number) => ({
+    code,
+    reagent: "METHANOL",
+    supplier: "S",
+    strengthPct: 99.9,
+    receivedAt: "2026-03-01T08:00:00Z",
+    massKg,
+  });
 
   it("records a retried write once and answers it with the original result", async () => {
     const ctx = { userId: plant.production.userId, key: "retry-key-0001", requestHash: "h1" };
@@ -35,14 +50,21 @@ describe.each(PROVIDERS)("idempotent writes and all-or-nothing imports on %s", (
   });
 
   it("refuses the same key with a different request", async () => {
-    const r = await withIdempotencyKey({ userId: plant.production.userId, key: "retry-key-0001", requestHash: "h2" }, () => receiveReagent(t.db, plant.production, reagent("MEOH-R2", 5)));
+    const r = await withIdempotencyKey(
+      { userId: plant.production.userId, key: "retry-key-0001", requestHash: "h2" },
+      () => receiveReagent(t.db, plant.production, reagent("MEOH-R2", 5)),
+    );
     expect(r.ok ? "ok" : r.issues[0]?.code).toBe("IDEMPOTENCY.KEY_REUSED");
     expect(await t.db.reagentLot.count({ where: { code: "MEOH-R2" } })).toBe(0);
   });
 
   it("answers concurrent twins once", async () => {
     const ctx = { userId: plant.production.userId, key: "twin-key-0001", requestHash: "t" };
-    const results = await Promise.all(Array.from({ length: 6 }, () => withIdempotencyKey(ctx, () => receiveReagent(t.db, plant.production, reagent("MEOH-TWIN", 7)))));
+    const results = await Promise.all(
+      Array.from({ length: 6 }, () =>
+        withIdempotencyKey(ctx, () => receiveReagent(t.db, plant.production, reagent("MEOH-TWIN", 7))),
+      ),
+    );
     expect(results.every((r) => r.ok)).toBe(true);
     expect(await t.db.reagentLot.count({ where: { code: "MEOH-TWIN" } })).toBe(1);
     expect(await t.db.idempotencyRecord.count({ where: { key: "twin-key-0001" } })).toBe(1);

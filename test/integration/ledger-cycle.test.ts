@@ -22,10 +22,29 @@ describe.each(PROVIDERS)("cycle guard on %s", (provider) => {
       ids.batch = await createHolder(tx, plant.siteId, "BATCH", "B-CY");
       ids.product = await createHolder(tx, plant.siteId, "PRODUCT_LOT", "P-CY");
       ids.tank = await createHolder(tx, plant.siteId, "TANK", "T-CY");
-      const move = (d: Omit<MovementDraft, "siteId" | "recordedById">) => postMovement(tx, { siteId: plant.siteId, recordedById: plant.production.userId, ...d });
-      await move({ at: at("2026-01-01T08:00:00Z"), role: "RECEIPT", fromHolderId: null, toHolderId: ids.lot, massG: 100_000 });
-      await move({ at: at("2026-01-02T08:00:00Z"), role: "OIL", fromHolderId: ids.lot, toHolderId: ids.batch, massG: 60_000 });
-      await move({ at: at("2026-01-03T08:00:00Z"), role: "ESTER", fromHolderId: ids.batch, toHolderId: ids.product, massG: 50_000 });
+      const move = (d: Omit<MovementDraft, "siteId" | "recordedById">) =>
+        postMovement(tx, { siteId: plant.siteId, recordedById: plant.production.userId, ...d });
+      await move({
+        at: at("2026-01-01T08:00:00Z"),
+        role: "RECEIPT",
+        fromHolderId: null,
+        toHolderId: ids.lot,
+        massG: 100_000,
+      });
+      await move({
+        at: at("2026-01-02T08:00:00Z"),
+        role: "OIL",
+        fromHolderId: ids.lot,
+        toHolderId: ids.batch,
+        massG: 60_000,
+      });
+      await move({
+        at: at("2026-01-03T08:00:00Z"),
+        role: "ESTER",
+        fromHolderId: ids.batch,
+        toHolderId: ids.product,
+        massG: 50_000,
+      });
     });
     if (!r.ok) throw new Error(JSON.stringify(r.issues));
   });
@@ -34,18 +53,38 @@ describe.each(PROVIDERS)("cycle guard on %s", (provider) => {
   });
 
   const attempt = (d: Omit<MovementDraft, "siteId" | "recordedById">) =>
-    runInTransaction(t.db, (tx) => postMovement(tx, { siteId: plant.siteId, recordedById: plant.production.userId, ...d }));
+    runInTransaction(t.db, (tx) =>
+      postMovement(tx, { siteId: plant.siteId, recordedById: plant.production.userId, ...d }),
+    );
 
   it("refuses a back-dated move that would make a lot its own ancestor, and saves nothing", async () => {
     const before = await t.db.movement.count();
     // P → L on day 4 is not a cycle: nothing L receives on day 4 reaches B, which drew from L earlier …
-    const ok = await attempt({ at: at("2026-01-04T08:00:00Z"), role: "TRANSFER", fromHolderId: ids.product, toHolderId: ids.lot, massG: 1_000 });
+    const ok = await attempt({
+      at: at("2026-01-04T08:00:00Z"),
+      role: "TRANSFER",
+      fromHolderId: ids.product,
+      toHolderId: ids.lot,
+      massG: 1_000,
+    });
     expect(ok.ok).toBe(true);
     // … but P → L booked on day 3 at 09:00, before a second charge of L into B on day 3 at 10:00, is.
-    const charge = await attempt({ at: at("2026-01-03T10:00:00Z"), role: "OIL", fromHolderId: ids.lot, toHolderId: ids.batch, massG: 1_000 });
+    const charge = await attempt({
+      at: at("2026-01-03T10:00:00Z"),
+      role: "OIL",
+      fromHolderId: ids.lot,
+      toHolderId: ids.batch,
+      massG: 1_000,
+    });
     expect(charge.ok).toBe(true);
     const moves = await t.db.movement.count();
-    const cyclic = await attempt({ at: at("2026-01-03T09:00:00Z"), role: "TRANSFER", fromHolderId: ids.product, toHolderId: ids.lot, massG: 500 });
+    const cyclic = await attempt({
+      at: at("2026-01-03T09:00:00Z"),
+      role: "TRANSFER",
+      fromHolderId: ids.product,
+      toHolderId: ids.lot,
+      massG: 500,
+    });
     expect(cyclic.ok).toBe(false);
     if (!cyclic.ok) {
       expect(cyclic.issues[0]).toMatchObject({ code: "LEDGER.CYCLE", field: "massKg" });
@@ -58,9 +97,21 @@ describe.each(PROVIDERS)("cycle guard on %s", (provider) => {
   });
 
   it("lets material pass through a tank in both directions (tanks are reusable vessels)", async () => {
-    const intoTank = await attempt({ at: at("2026-01-05T08:00:00Z"), role: "TRANSFER", fromHolderId: ids.lot, toHolderId: ids.tank, massG: 10_000 });
+    const intoTank = await attempt({
+      at: at("2026-01-05T08:00:00Z"),
+      role: "TRANSFER",
+      fromHolderId: ids.lot,
+      toHolderId: ids.tank,
+      massG: 10_000,
+    });
     expect(intoTank.ok).toBe(true);
-    const back = await attempt({ at: at("2026-01-06T08:00:00Z"), role: "TRANSFER", fromHolderId: ids.tank, toHolderId: ids.lot, massG: 5_000 });
+    const back = await attempt({
+      at: at("2026-01-06T08:00:00Z"),
+      role: "TRANSFER",
+      fromHolderId: ids.tank,
+      toHolderId: ids.lot,
+      massG: 5_000,
+    });
     expect(back.ok).toBe(true);
   });
 });

@@ -13,7 +13,9 @@ describe.each(PROVIDERS)("migrations on %s", (provider) => {
   });
 
   it("records applied migrations and re-applies nothing", async () => {
-    const rows = await t.db.$queryRawUnsafe<Array<{ migration_name: string }>>(`SELECT migration_name FROM _prisma_migrations`);
+    const rows = await t.db.$queryRawUnsafe<Array<{ migration_name: string }>>(
+      `SELECT migration_name FROM _prisma_migrations`,
+    );
     expect(rows.length).toBeGreaterThan(0);
     expect(await deploy(t.url)).toEqual([]);
   });

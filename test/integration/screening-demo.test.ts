@@ -30,14 +30,21 @@ describe.each(PROVIDERS)("source checks on the demo plant (%s)", (provider) => {
     const sources = await t.db.source.findMany({ where: { siteId }, select: { code: true, kind: true } });
     const flaggedBy = new Map<string, Set<string>>();
     for (const f of flags) flaggedBy.set(f.sourceCode, (flaggedBy.get(f.sourceCode) ?? new Set()).add(f.signal));
-    const rows = PLANTED.map((p) => ({ source: p.source, planted: p.what, expected: p.signal, found: [...(flaggedBy.get(p.source) ?? [])].join(", ") }));
+    const rows = PLANTED.map((p) => ({
+      source: p.source,
+      planted: p.what,
+      expected: p.signal,
+      found: [...(flaggedBy.get(p.source) ?? [])].join(", "),
+    }));
     const plantedCodes = new Set(PLANTED.map((p) => p.source));
     const clean = sources.filter((s) => !plantedCodes.has(s.code));
     const cleanFlagged = clean.filter((s) => flaggedBy.has(s.code));
     const share = cleanFlagged.length / clean.length;
     console.log(`\nSource checks on the ${provider} demo (182 days, ${sources.length} sources, ${flags.length} flags)`);
     console.table(rows);
-    console.log(`Clean sources flagged: ${cleanFlagged.length} of ${clean.length} = ${(share * 100).toFixed(1)} % (goal < 5 %)${cleanFlagged.length ? `: ${cleanFlagged.map((s) => `${s.code} [${[...(flaggedBy.get(s.code) ?? [])].join(", ")}]`).join("; ")}` : ""}`);
+    console.log(
+      `Clean sources flagged: ${cleanFlagged.length} of ${clean.length} = ${(share * 100).toFixed(1)} % (goal < 5 %)${cleanFlagged.length ? `: ${cleanFlagged.map((s) => `${s.code} [${[...(flaggedBy.get(s.code) ?? [])].join(", ")}]`).join("; ")}` : ""}`,
+    );
     for (const p of PLANTED) expect(flaggedBy.get(p.source)?.has(p.signal), `${p.source} ${p.signal}`).toBe(true);
     expect(share).toBeLessThan(0.05);
     const over = flags.find((f) => f.sourceCode === "R005" && f.signal === "OVER_CAPACITY");
@@ -56,7 +63,14 @@ describe.each(PROVIDERS)("source checks on the demo plant (%s)", (provider) => {
     const custodyBefore = await getCustodyReport(t.db, { id: siteId, timeZone: "UTC" }, {}, actor.now);
     const refusedDismiss = await decideFlag(t.db, actor, { flagId: flag!.id, decision: "DISMISS", reason: " " });
     expect(refusedDismiss.ok ? [] : refusedDismiss.issues.map((i) => i.field)).toEqual(["reason"]);
-    const confirmed = await decideFlag(t.db, actor, { flagId: flag!.id, decision: "CONFIRM", watch: true, holdLots: true, withholdCredit: true, reason: "volume beyond the kitchen" });
+    const confirmed = await decideFlag(t.db, actor, {
+      flagId: flag!.id,
+      decision: "CONFIRM",
+      watch: true,
+      holdLots: true,
+      withholdCredit: true,
+      reason: "volume beyond the kitchen",
+    });
     expect(confirmed.ok).toBe(true);
     if (!confirmed.ok) return;
     expect(confirmed.value.heldLots.length).toBeGreaterThan(0);

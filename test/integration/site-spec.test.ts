@@ -33,7 +33,14 @@ describe.each(PROVIDERS)("site specifications on %s", (provider) => {
 
   it("copies a built-in grade with a tighter water limit (version 1) and resolves its key", async () => {
     // ASTM D6751-23a Table 1: water and sediment 0.050 % volume max; the buyer wants 0.030.
-    const v1 = value(await saveSiteSpec(t.db, plant.compliance, { baseKey: BASE, name: "Buyer tighter water", limits: { "water-sediment": { min: null, max: 0.03 }, "acid-number": { min: null, max: 0.5 } }, reason: "Buyer contract clause 4" }));
+    const v1 = value(
+      await saveSiteSpec(t.db, plant.compliance, {
+        baseKey: BASE,
+        name: "Buyer tighter water",
+        limits: { "water-sediment": { min: null, max: 0.03 }, "acid-number": { min: null, max: 0.5 } },
+        reason: "Buyer contract clause 4",
+      }),
+    );
     expect(v1).toMatchObject({ name: "Buyer tighter water", version: 1, key: `site:${v1.id}` });
     const spec = await getSpecByKey(t.db, plant.siteId, v1.key);
     expect(spec?.baseKey).toBe(BASE);
@@ -52,7 +59,15 @@ describe.each(PROVIDERS)("site specifications on %s", (provider) => {
   });
 
   it("makes version 2 from version 1 and keeps version 1 unchanged", async () => {
-    const v2 = value(await saveSiteSpec(t.db, plant.compliance, { baseKey: BASE, name: "Buyer tighter water", previousVersion: 1, limits: { "water-sediment": { min: null, max: 0.025 } }, reason: "Buyer tightened again" }));
+    const v2 = value(
+      await saveSiteSpec(t.db, plant.compliance, {
+        baseKey: BASE,
+        name: "Buyer tighter water",
+        previousVersion: 1,
+        limits: { "water-sediment": { min: null, max: 0.025 } },
+        reason: "Buyer tightened again",
+      }),
+    );
     expect(v2.version).toBe(2);
     const views = await listSiteSpecViews(t.db, plant.siteId);
     expect(views.map((v) => [v.row.version, v.row.limits["water-sediment"]?.max])).toEqual([
@@ -64,19 +79,59 @@ describe.each(PROVIDERS)("site specifications on %s", (provider) => {
   });
 
   it("refuses a stale version, a taken name, no change, a looser limit and a missing reason", async () => {
-    const again = { baseKey: BASE, name: "Buyer tighter water", limits: { "water-sediment": { min: null, max: 0.02 } }, reason: "Third change" };
-    expect(issue(await saveSiteSpec(t.db, plant.compliance, { ...again, previousVersion: 1 }))).toEqual({ code: "SITESPEC.STALE", field: "name" });
-    expect(issue(await saveSiteSpec(t.db, plant.compliance, again))).toEqual({ code: "SITESPEC.NAME_TAKEN", field: "name" });
-    expect(issue(await saveSiteSpec(t.db, plant.compliance, { ...again, previousVersion: 2, limits: { "water-sediment": { min: null, max: 0.025 } } }))).toEqual({ code: "SITESPEC.NO_CHANGE", field: "reason" });
+    const again = {
+      baseKey: BASE,
+      name: "Buyer tighter water",
+      limits: { "water-sediment": { min: null, max: 0.02 } },
+      reason: "Third change",
+    };
+    expect(issue(await saveSiteSpec(t.db, plant.compliance, { ...again, previousVersion: 1 }))).toEqual({
+      code: "SITESPEC.STALE",
+      field: "name",
+    });
+    expect(issue(await saveSiteSpec(t.db, plant.compliance, again))).toEqual({
+      code: "SITESPEC.NAME_TAKEN",
+      field: "name",
+    });
+    expect(
+      issue(
+        await saveSiteSpec(t.db, plant.compliance, {
+          ...again,
+          previousVersion: 2,
+          limits: { "water-sediment": { min: null, max: 0.025 } },
+        }),
+      ),
+    ).toEqual({ code: "SITESPEC.NO_CHANGE", field: "reason" });
     // ASTM D6751-23a Table 1: 0.050 % volume max — a site copy cannot loosen it.
-    expect(issue(await saveSiteSpec(t.db, plant.compliance, { ...again, name: "Looser", limits: { "water-sediment": { min: null, max: 0.06 } } }))).toEqual({ code: "SITESPEC.LOOSER", field: "limits.water-sediment.max" });
-    expect(issue(await saveSiteSpec(t.db, plant.compliance, { ...again, name: "No reason", reason: "" }))).toEqual({ code: "INPUT.INVALID", field: "reason" });
-    expect(issue(await saveSiteSpec(t.db, plant.compliance, { ...again, name: "Bad base", baseKey: "nope" }))).toEqual({ code: "SITESPEC.UNKNOWN_BASE", field: "baseKey" });
+    expect(
+      issue(
+        await saveSiteSpec(t.db, plant.compliance, {
+          ...again,
+          name: "Looser",
+          limits: { "water-sediment": { min: null, max: 0.06 } },
+        }),
+      ),
+    ).toEqual({ code: "SITESPEC.LOOSER", field: "limits.water-sediment.max" });
+    expect(issue(await saveSiteSpec(t.db, plant.compliance, { ...again, name: "No reason", reason: "" }))).toEqual({
+      code: "INPUT.INVALID",
+      field: "reason",
+    });
+    expect(issue(await saveSiteSpec(t.db, plant.compliance, { ...again, name: "Bad base", baseKey: "nope" }))).toEqual({
+      code: "SITESPEC.UNKNOWN_BASE",
+      field: "baseKey",
+    });
     expect(await t.db.siteSpec.count()).toBe(2);
   });
 
   it("gives a climate class to a reported property (EN 14214 CFPP) and resolves only the site's own keys", async () => {
-    const s = value(await saveSiteSpec(t.db, plant.compliance, { baseKey: "en-14214-2019/fame", name: "Winter grade", limits: { cfpp: { min: null, max: -10 } }, reason: "Winter deliveries, site climate class" }));
+    const s = value(
+      await saveSiteSpec(t.db, plant.compliance, {
+        baseKey: "en-14214-2019/fame",
+        name: "Winter grade",
+        limits: { cfpp: { min: null, max: -10 } },
+        reason: "Winter deliveries, site climate class",
+      }),
+    );
     const spec = await getSpecByKey(t.db, plant.siteId, s.key);
     expect(spec?.properties.find((p) => p.key === "cfpp")).toMatchObject({ kind: "limit", max: -10 });
     expect(await getSpecByKey(t.db, plant.siteId + 1000, s.key)).toBeNull();
@@ -84,7 +139,10 @@ describe.each(PROVIDERS)("site specifications on %s", (provider) => {
     expect(await getSpecByKey(t.db, plant.siteId, "site:abc")).toBeNull();
     // The choice list offers the built-in grades and the current version of each site specification.
     const choices = await listSpecChoices(t.db, plant.siteId);
-    expect(choices.filter((c) => c.key.startsWith("site:")).map((c) => c.label)).toEqual(["Buyer tighter water (site, version 2)", "Winter grade (site, version 1)"]);
+    expect(choices.filter((c) => c.key.startsWith("site:")).map((c) => c.label)).toEqual([
+      "Buyer tighter water (site, version 2)",
+      "Winter grade (site, version 1)",
+    ]);
     expect(choices).toHaveLength(7 + 2);
   });
 });

@@ -17,7 +17,12 @@ describe.each(PROVIDERS)("tank room under concurrent fills on %s", (provider) =>
   beforeAll(async () => {
     t = await createTestDb(provider);
     plant = await createTestPlant(t.db);
-    const made = await createTank(t.db, plant.production, { code: "T9", name: "Day tank", service: "FEEDSTOCK", capacityL: 1_000 });
+    const made = await createTank(t.db, plant.production, {
+      code: "T9",
+      name: "Day tank",
+      service: "FEEDSTOCK",
+      capacityL: 1_000,
+    });
     if (!made.ok) throw new Error(JSON.stringify(made.issues));
     await acceptedLot(t.db, plant, { lot: "L-BIG", pickup: "PU-BIG", day: 2, volumeL: 3_000 });
   });
@@ -27,7 +32,13 @@ describe.each(PROVIDERS)("tank room under concurrent fills on %s", (provider) =>
 
   it("lets in exactly what fits when twenty 100 kg transfers race for a 1,000 L tank", async () => {
     const tries = Array.from({ length: 20 }, (_, i) =>
-      transferToTank(t.db, plant.production, { fromKind: "LOT", fromCode: "L-BIG", toTankCode: "T9", at: `2026-02-03T08:${String(i).padStart(2, "0")}:00Z`, massKg: 100 }),
+      transferToTank(t.db, plant.production, {
+        fromKind: "LOT",
+        fromCode: "L-BIG",
+        toTankCode: "T9",
+        at: `2026-02-03T08:${String(i).padStart(2, "0")}:00Z`,
+        massKg: 100,
+      }),
     );
     const results = await Promise.all(tries);
     const granted = results.filter((r) => r.ok).length;
@@ -39,7 +50,10 @@ describe.each(PROVIDERS)("tank room under concurrent fills on %s", (provider) =>
     expect(refused.length).toBe(20 - granted);
     for (const issue of refused) expect(issue).toMatchObject({ code: "TANK.OVERFILL", field: "massKg" });
     // The ledger agrees with the book stock: no movement was written for a refused fill.
-    const into = await t.db.movement.aggregate({ where: { toHolder: { kind: "TANK", code: "T9" } }, _sum: { massG: true } });
+    const into = await t.db.movement.aggregate({
+      where: { toHolder: { kind: "TANK", code: "T9" } },
+      _sum: { massG: true },
+    });
     expect(into._sum.massG).toBe(stock);
   });
 });

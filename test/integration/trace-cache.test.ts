@@ -43,7 +43,15 @@ describe.each(PROVIDERS)("trace cache on %s", (provider) => {
     plant = await createTestPlant(t.db);
     clearTraceCache();
     await lot("L-1", "PU-1", 2);
-    value(await transferToTank(t.db, plant.production, { fromKind: "LOT", fromCode: "L-1", toTankCode: "T1", at: "2026-02-03T08:00:00Z", massKg: 120 }));
+    value(
+      await transferToTank(t.db, plant.production, {
+        fromKind: "LOT",
+        fromCode: "L-1",
+        toTankCode: "T1",
+        at: "2026-02-03T08:00:00Z",
+        massKg: 120,
+      }),
+    );
   });
   afterAll(async () => {
     clearTraceCache();
@@ -53,7 +61,15 @@ describe.each(PROVIDERS)("trace cache on %s", (provider) => {
   it("extends a ledger with later holders and movements to exactly what a full read gives", async () => {
     const before = await loadTraceLedger(t.db, plant.siteId);
     await lot("L-2", "PU-2", 1);
-    value(await transferToTank(t.db, plant.production, { fromKind: "LOT", fromCode: "L-2", toTankCode: "T1", at: "2026-02-02T08:00:00Z", massKg: 80 })); // dated before the earlier transfer
+    value(
+      await transferToTank(t.db, plant.production, {
+        fromKind: "LOT",
+        fromCode: "L-2",
+        toTankCode: "T1",
+        at: "2026-02-02T08:00:00Z",
+        massKg: 80,
+      }),
+    ); // dated before the earlier transfer
     const version = await getLedgerVersion(t.db, plant.siteId);
     const extended = await extendTraceLedger(t.db, plant.siteId, before, version.count);
     expect(extended).not.toBeNull();
@@ -67,13 +83,31 @@ describe.each(PROVIDERS)("trace cache on %s", (provider) => {
     const first = value(await traceBackwardReport(t.db, plant.siteId, { kind: "TANK", code: "T1" }, NOW));
     expect(first.totalG).toBeGreaterThan(0);
     await lot("L-3", "PU-3", 6);
-    value(await transferToTank(t.db, plant.production, { fromKind: "LOT", fromCode: "L-3", toTankCode: "T1", at: "2026-02-06T18:00:00Z", massKg: 50 }));
+    value(
+      await transferToTank(t.db, plant.production, {
+        fromKind: "LOT",
+        fromCode: "L-3",
+        toTankCode: "T1",
+        at: "2026-02-06T18:00:00Z",
+        massKg: 50,
+      }),
+    );
     const cached = value(await traceBackwardReport(t.db, plant.siteId, { kind: "TANK", code: "T1" }, NOW));
-    const cachedFlow = await getLotFlow(t.db, plant.siteId, (await t.db.feedstockLot.findFirstOrThrow({ where: { code: "L-1" } })).holderId, NOW);
+    const cachedFlow = await getLotFlow(
+      t.db,
+      plant.siteId,
+      (await t.db.feedstockLot.findFirstOrThrow({ where: { code: "L-1" } })).holderId,
+      NOW,
+    );
     const cachedForward = value(await traceForwardReport(t.db, plant.siteId, { kind: "LOT", code: "L-3" }, NOW));
     clearTraceCache();
     const fresh = value(await traceBackwardReport(t.db, plant.siteId, { kind: "TANK", code: "T1" }, NOW));
-    const freshFlow = await getLotFlow(t.db, plant.siteId, (await t.db.feedstockLot.findFirstOrThrow({ where: { code: "L-1" } })).holderId, NOW);
+    const freshFlow = await getLotFlow(
+      t.db,
+      plant.siteId,
+      (await t.db.feedstockLot.findFirstOrThrow({ where: { code: "L-1" } })).holderId,
+      NOW,
+    );
     const freshForward = value(await traceForwardReport(t.db, plant.siteId, { kind: "LOT", code: "L-3" }, NOW));
     expect(cached.totalG).toBe(first.totalG + 50_000);
     expect(cached.all.byLot).toEqual(fresh.all.byLot);
@@ -86,7 +120,9 @@ describe.each(PROVIDERS)("trace cache on %s", (provider) => {
   it("reads the ledger whole again when a new movement reverses an earlier one", async () => {
     const before = await loadTraceLedger(t.db, plant.siteId);
     const transfer = await t.db.movement.findFirstOrThrow({ where: { role: "TRANSFER" }, orderBy: { id: "desc" } });
-    value(await reverseMovement(t.db, plant.production, { movementId: transfer.id, reason: "Booked into the wrong tank" }));
+    value(
+      await reverseMovement(t.db, plant.production, { movementId: transfer.id, reason: "Booked into the wrong tank" }),
+    );
     const version = await getLedgerVersion(t.db, plant.siteId);
     expect(await extendTraceLedger(t.db, plant.siteId, before, version.count)).toBeNull();
     const after = value(await traceBackwardReport(t.db, plant.siteId, { kind: "TANK", code: "T1" }, NOW));

@@ -11,7 +11,7 @@ describe("trace CSV", () => {
     ["quotes are doubled", 'the "blue" gate', '"the ""blue"" gate"'],
     ["a line break is quoted", "two\nlines", '"two\nlines"'],
     // OWASP "CSV Injection": cells starting with = + - @ (and tab, CR) are prefixed with an apostrophe.
-    ["= is neutralised", "=HYPERLINK(\"x\")", "\"'=HYPERLINK(\"\"x\"\")\""],
+    ["= is neutralised", '=HYPERLINK("x")', '"\'=HYPERLINK(""x"")"'],
     ["+ is neutralised", "+1234", "'+1234"],
     ["- is neutralised", "-2+3", "'-2+3"],
     ["@ is neutralised", "@SUM(A1)", "'@SUM(A1)"],
@@ -25,7 +25,12 @@ describe("trace CSV", () => {
   });
 
   it("ends every record with CRLF (RFC 4180 §2 rule 1)", () => {
-    expect(toCsv([["a", "b"], [1, "x,y"]])).toBe('a,b\r\n1,"x,y"\r\n');
+    expect(
+      toCsv([
+        ["a", "b"],
+        [1, "x,y"],
+      ]),
+    ).toBe('a,b\r\n1,"x,y"\r\n');
   });
 
   it("makes a header-safe file name", () => {

@@ -8,7 +8,12 @@ import { createTestDb, PROVIDERS } from "./support/test-db";
 import { buildScenario } from "@/seeds/scenario";
 import { writeScenario } from "@/seeds/load";
 import type { Result } from "@/lib/errors";
-import { clearTraceCache, flushTraceSnapshots, traceBackwardReport, traceForwardReport } from "@/lib/trace/trace.service";
+import {
+  clearTraceCache,
+  flushTraceSnapshots,
+  traceBackwardReport,
+  traceForwardReport,
+} from "@/lib/trace/trace.service";
 import type { BackwardTraceReport, ForwardTraceReport } from "@/lib/trace/trace.service";
 
 const ANCHOR = new Date("2026-12-02T00:00:00Z");
@@ -58,7 +63,10 @@ describe.each(PROVIDERS)("trace snapshots kept in the database on %s", (provider
     await flushTraceSnapshots();
     expect((await rows()).length).toBeGreaterThanOrEqual(2);
     for (const r of await rows()) {
-      const body = JSON.parse(r.body) as { format: string; applied: { count: number; last: { moveId: number } | null } };
+      const body = JSON.parse(r.body) as {
+        format: string;
+        applied: { count: number; last: { moveId: number } | null };
+      };
       expect(body.format).toBe(r.format);
       expect(body.applied.count).toBe(r.appliedCount);
       expect(body.applied.last?.moveId ?? null).toBe(r.lastMoveId);
@@ -91,6 +99,8 @@ describe.each(PROVIDERS)("trace snapshots kept in the database on %s", (provider
       [older.appliedCount, older.lastMoveId],
       [latest.appliedCount, latest.lastMoveId],
     ]);
-    expect((JSON.parse(rebuilt[1]?.body ?? "{}") as { applied: { massSumG: number } }).applied.massSumG).toBe(body.applied.massSumG - 1);
+    expect((JSON.parse(rebuilt[1]?.body ?? "{}") as { applied: { massSumG: number } }).applied.massSumG).toBe(
+      body.applied.massSumG - 1,
+    );
   });
 });

@@ -19,7 +19,15 @@ describe.each(PROVIDERS)("account administration on %s", (provider) => {
   beforeAll(async () => {
     t = await createTestDb(provider);
     const site = await insertSite(t.db, { code: "S", name: "S", town: "T", timeZone: "UTC" });
-    const id = (await insertUser(t.db, { siteId: site.id, login: "jory", fullName: "Jory", role: "ADMIN", passwordHash: await hashPassword("admin password") })).id;
+    const id = (
+      await insertUser(t.db, {
+        siteId: site.id,
+        login: "jory",
+        fullName: "Jory",
+        role: "ADMIN",
+        passwordHash: await hashPassword("admin password"),
+      })
+    ).id;
     admin = { siteId: site.id, userId: id, now };
   });
   afterAll(async () => {
@@ -27,7 +35,12 @@ describe.each(PROVIDERS)("account administration on %s", (provider) => {
   });
 
   it("creates an account that can sign in, keeping the password out of the audit trail", async () => {
-    const r = await createUser(t.db, admin, { login: "Wen.Collector", fullName: "Wen", role: "COLLECTOR", password: "kerbside pickups" });
+    const r = await createUser(t.db, admin, {
+      login: "Wen.Collector",
+      fullName: "Wen",
+      role: "COLLECTOR",
+      password: "kerbside pickups",
+    });
     expect(r.ok && r.value.login).toBe("wen.collector");
     const s = await signIn(t.db, { login: "wen.collector", password: "kerbside pickups" }, { ip: "10.1.1.1", now });
     expect(s.ok && s.value.user.role).toBe("COLLECTOR");
@@ -41,27 +54,61 @@ describe.each(PROVIDERS)("account administration on %s", (provider) => {
     const short = await createUser(t.db, admin, { login: "ab", fullName: "", role: "CHIEF", password: "short" });
     expect(short.ok).toBe(false);
     if (!short.ok) expect(short.issues.map((i) => i.field).sort()).toEqual(["fullName", "login", "password", "role"]);
-    const taken = await createUser(t.db, admin, { login: "wen.collector", fullName: "Other", role: "COLLECTOR", password: "another long one" });
+    const taken = await createUser(t.db, admin, {
+      login: "wen.collector",
+      fullName: "Other",
+      role: "COLLECTOR",
+      password: "another long one",
+    });
     expect(!taken.ok && taken.issues[0]).toMatchObject({ code: "RECORD.DUPLICATE", field: "login" });
     expect(await t.db.user.count()).toBe(2);
   });
 
   it("holds an administrator-set password until its owner chooses their own", async () => {
-    const r = await createUser(t.db, admin, { login: "orrin", fullName: "Orrin", role: "PRODUCTION", password: "given at the counter" });
+    const r = await createUser(t.db, admin, {
+      login: "orrin",
+      fullName: "Orrin",
+      role: "PRODUCTION",
+      password: "given at the counter",
+    });
     expect(r.ok).toBe(true);
     const s = await signIn(t.db, { login: "orrin", password: "given at the counter" }, { ip: "10.1.1.2", now });
     if (!s.ok) throw new Error("sign-in");
     expect(s.value.user.mustChangePassword).toBe(true);
     const me = { siteId: admin.siteId, userId: s.value.user.userId, now };
-    const wrong = await changeOwnPassword(t.db, me, { current: "not it", password: "kettle lantern orchard", confirm: "kettle lantern orchard" });
+    const wrong = await changeOwnPassword(t.db, me, {
+      current: "not it",
+      password: "kettle lantern orchard",
+      confirm: "kettle lantern orchard",
+    });
     expect(wrong.ok ? "ok" : wrong.issues[0]?.field).toBe("current");
-    const differ = await changeOwnPassword(t.db, me, { current: "given at the counter", password: "kettle lantern orchard", confirm: "kettle lantern" });
+    const differ = await changeOwnPassword(t.db, me, {
+      current: "given at the counter",
+      password: "kettle lantern orchard",
+      confirm: "kettle lantern",
+    });
     expect(differ.ok ? "ok" : differ.issues[0]?.field).toBe("confirm");
-    const same = await changeOwnPassword(t.db, me, { current: "given at the counter", password: "given at the counter", confirm: "given at the counter" });
+    const same = await changeOwnPassword(t.db, me, {
+      current: "given at the counter",
+      password: "given at the counter",
+      confirm: "given at the counter",
+    });
     expect(same.ok ? "ok" : same.issues[0]?.field).toBe("password");
-    expect((await changeOwnPassword(t.db, me, { current: "given at the counter", password: "kettle lantern orchard", confirm: "kettle lantern orchard" })).ok).toBe(true);
+    expect(
+      (
+        await changeOwnPassword(t.db, me, {
+          current: "given at the counter",
+          password: "kettle lantern orchard",
+          confirm: "kettle lantern orchard",
+        })
+      ).ok,
+    ).toBe(true);
     expect((await resolveSession(t.db, s.value.token, now))?.mustChangePassword).toBe(false);
-    const reset = await resetPassword(t.db, admin, { login: "orrin", password: "second given one", reason: "Forgot it" });
+    const reset = await resetPassword(t.db, admin, {
+      login: "orrin",
+      password: "second given one",
+      reason: "Forgot it",
+    });
     expect(reset.ok).toBe(true);
     const again = await signIn(t.db, { login: "orrin", password: "second given one" }, { ip: "10.1.1.2", now });
     expect(again.ok && again.value.user.mustChangePassword).toBe(true);
@@ -73,23 +120,47 @@ describe.each(PROVIDERS)("account administration on %s", (provider) => {
     expect(await resolveSession(t.db, s.value.token, at(1))).not.toBeNull();
     const noReason = await changeUser(t.db, admin, { login: "wen.collector", active: false, reason: "" });
     expect(!noReason.ok && noReason.issues[0]?.field).toBe("reason");
-    const off = await changeUser(t.db, { ...admin, now: at(2) }, { login: "wen.collector", active: false, reason: "Left the company" });
+    const off = await changeUser(
+      t.db,
+      { ...admin, now: at(2) },
+      { login: "wen.collector", active: false, reason: "Left the company" },
+    );
     expect(off.ok && off.value.sessionsEnded).toBeGreaterThanOrEqual(2);
     expect(await resolveSession(t.db, s.value.token, at(3))).toBeNull();
-    const again = await signIn(t.db, { login: "wen.collector", password: "kerbside pickups" }, { ip: "10.1.1.3", now: at(4) });
+    const again = await signIn(
+      t.db,
+      { login: "wen.collector", password: "kerbside pickups" },
+      { ip: "10.1.1.3", now: at(4) },
+    );
     expect(!again.ok && again.issues[0]?.code).toBe("AUTH.DISABLED");
-    expect((await changeUser(t.db, admin, { login: "wen.collector", active: true, reason: "Came back" })).ok).toBe(true);
+    expect((await changeUser(t.db, admin, { login: "wen.collector", active: true, reason: "Came back" })).ok).toBe(
+      true,
+    );
     expect(await resolveSession(t.db, s.value.token, at(5))).toBeNull();
   });
 
   it("a password reset ends sessions and only the new password works", async () => {
-    const s = await signIn(t.db, { login: "wen.collector", password: "kerbside pickups" }, { ip: "10.1.1.4", now: at(10) });
+    const s = await signIn(
+      t.db,
+      { login: "wen.collector", password: "kerbside pickups" },
+      { ip: "10.1.1.4", now: at(10) },
+    );
     if (!s.ok) throw new Error("sign-in failed");
-    const r = await resetPassword(t.db, { ...admin, now: at(11) }, { login: "wen.collector", password: "a new long password", reason: "Forgot it" });
+    const r = await resetPassword(
+      t.db,
+      { ...admin, now: at(11) },
+      { login: "wen.collector", password: "a new long password", reason: "Forgot it" },
+    );
     expect(r.ok).toBe(true);
     expect(await resolveSession(t.db, s.value.token, at(12))).toBeNull();
-    expect((await signIn(t.db, { login: "wen.collector", password: "kerbside pickups" }, { ip: "10.1.1.5", now: at(13) })).ok).toBe(false);
-    expect((await signIn(t.db, { login: "wen.collector", password: "a new long password" }, { ip: "10.1.1.5", now: at(14) })).ok).toBe(true);
+    expect(
+      (await signIn(t.db, { login: "wen.collector", password: "kerbside pickups" }, { ip: "10.1.1.5", now: at(13) }))
+        .ok,
+    ).toBe(false);
+    expect(
+      (await signIn(t.db, { login: "wen.collector", password: "a new long password" }, { ip: "10.1.1.5", now: at(14) }))
+        .ok,
+    ).toBe(true);
     const ended = await endSessions(t.db, { ...admin, now: at(15) }, { login: "wen.collector", reason: "Phone lost" });
     expect(ended.ok && ended.value.sessionsEnded).toBe(1);
   });

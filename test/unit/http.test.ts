@@ -50,6 +50,11 @@ describe("one table from issue code to HTTP status", () => {
   });
   it("an empty list is a 422, and the first issue decides", () => {
     expect(statusFor([])).toBe(422);
-    expect(statusFor([{ code: "LEDGER.OVERDRAW", message: "a" }, { code: "INPUT.INVALID", message: "b" }])).toBe(409);
+    expect(
+      statusFor([
+        { code: "LEDGER.OVERDRAW", message: "a" },
+        { code: "INPUT.INVALID", message: "b" },
+      ]),
+    ).toBe(409);
   });
 });

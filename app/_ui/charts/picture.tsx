@@ -5,7 +5,23 @@ import "./picture.css";
  * One picture: a heading, the drawing (read by screen readers as one image with a sentence of key
  * figures), the same sentence under it, and its numbers one click away.
  */
-export function Picture({ id, title, summary, svg, numbers, csvHref, wide = false }: { id: string; title: string; summary: string; svg: string; numbers: ReactNode; csvHref?: string; wide?: boolean }) {
+export function Picture({
+  id,
+  title,
+  summary,
+  svg,
+  numbers,
+  csvHref,
+  wide = false,
+}: {
+  id: string;
+  title: string;
+  summary: string;
+  svg: string;
+  numbers: ReactNode;
+  csvHref?: string;
+  wide?: boolean;
+}) {
   return (
     <figure className={wide ? "picture picture-wide" : "picture"} aria-labelledby={`${id}-title`} data-picture={id}>
       <h3 id={`${id}-title`} className="picture-title">

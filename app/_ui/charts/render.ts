@@ -8,7 +8,16 @@ import { GridComponent, LegendComponent, MarkLineComponent } from "echarts/compo
 import { SVGRenderer } from "echarts/renderers";
 import type { EChartsCoreOption } from "echarts/core";
 
-echarts.use([BarChart, LineChart, SankeyChart, ScatterChart, GridComponent, LegendComponent, MarkLineComponent, SVGRenderer]);
+echarts.use([
+  BarChart,
+  LineChart,
+  SankeyChart,
+  ScatterChart,
+  GridComponent,
+  LegendComponent,
+  MarkLineComponent,
+  SVGRenderer,
+]);
 
 export const PICTURE_WIDTH = 760;
 
@@ -16,15 +25,35 @@ export const PICTURE_WIDTH = 760;
  * Colours safe for the common colour-vision deficiencies, in a fixed order so a material keeps its
  * colour from picture to picture (Okabe & Ito, "Color Universal Design", 2008; black left out).
  */
-export const PALETTE = ["#0072B2", "#E69F00", "#009E73", "#CC79A7", "#56B4E9", "#D55E00", "#F0E442", "#7a7a7a"] as const;
+export const PALETTE = [
+  "#0072B2",
+  "#E69F00",
+  "#009E73",
+  "#CC79A7",
+  "#56B4E9",
+  "#D55E00",
+  "#F0E442",
+  "#7a7a7a",
+] as const;
 
 export const TEXT_STYLE = { fontFamily: "system-ui, sans-serif", fontSize: 12, color: "#1c211f" } as const;
 
 /** The SVG markup of one picture. The library's hover stylesheet is left out: the picture is not interactive. */
 export function renderPictureSvg(option: EChartsCoreOption, size: { width?: number; height: number }): string {
-  const chart = echarts.init(null, null, { renderer: "svg", ssr: true, width: size.width ?? PICTURE_WIDTH, height: size.height });
+  const chart = echarts.init(null, null, {
+    renderer: "svg",
+    ssr: true,
+    width: size.width ?? PICTURE_WIDTH,
+    height: size.height,
+  });
   try {
-    chart.setOption({ animation: false, color: [...PALETTE], textStyle: TEXT_STYLE, aria: { enabled: false }, ...option });
+    chart.setOption({
+      animation: false,
+      color: [...PALETTE],
+      textStyle: TEXT_STYLE,
+      aria: { enabled: false },
+      ...option,
+    });
     return chart.renderToSVGString().replace(/<style\b[^>]*>[\s\S]*?<\/style>/g, "");
   } finally {
     chart.dispose();

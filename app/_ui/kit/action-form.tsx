@@ -74,7 +74,12 @@ type FieldProps = {
   /** The schema's own text limit, so a browser cannot send more than the field takes. */
   maxLength?: number;
 } & (
-  | { type?: "text" | "number" | "datetime-local" | "date"; options?: undefined; placeholder?: string; suggestions?: readonly string[] }
+  | {
+      type?: "text" | "number" | "datetime-local" | "date";
+      options?: undefined;
+      placeholder?: string;
+      suggestions?: readonly string[];
+    }
   | { type: "password"; options?: undefined; autoComplete: "current-password" | "new-password" }
   | { type: "select"; options: ReadonlyArray<readonly [value: string, label: string]> }
   | { type: "textarea"; options?: undefined; placeholder?: string }
@@ -90,7 +95,13 @@ export function Field(props: FieldProps) {
   const value = kept ?? props.defaultValue ?? "";
   const error = state.status === "refused" ? state.errors[name] : undefined;
   const describedBy = [hint ? `${id}-hint` : null, error ? `${id}-err` : null].filter(Boolean).join(" ") || undefined;
-  const common = { id, name, "aria-invalid": error ? true : undefined, "aria-describedby": describedBy, required } as const;
+  const common = {
+    id,
+    name,
+    "aria-invalid": error ? true : undefined,
+    "aria-describedby": describedBy,
+    required,
+  } as const;
   const maxLength = props.maxLength;
   let control: ReactNode;
   if (props.type === "select") {
@@ -104,10 +115,14 @@ export function Field(props: FieldProps) {
       </select>
     );
   } else if (props.type === "textarea") {
-    control = <textarea {...common} defaultValue={value} rows={3} placeholder={props.placeholder} maxLength={maxLength} />;
+    control = (
+      <textarea {...common} defaultValue={value} rows={3} placeholder={props.placeholder} maxLength={maxLength} />
+    );
   } else if (props.type === "password") {
     // A password is never sent back to the page: after a refusal it is typed again.
-    control = <input {...common} type="password" defaultValue="" autoComplete={props.autoComplete} maxLength={maxLength} />;
+    control = (
+      <input {...common} type="password" defaultValue="" autoComplete={props.autoComplete} maxLength={maxLength} />
+    );
   } else if (props.type === "checkbox") {
     control = <input {...common} type="checkbox" value="yes" defaultChecked={value === "yes" || value === "on"} />;
   } else {
@@ -116,7 +131,16 @@ export function Field(props: FieldProps) {
     const listId = props.suggestions ? `${id}-list` : undefined;
     control = (
       <>
-        <input {...common} type={numeric ? "text" : (props.type ?? "text")} inputMode={numeric ? "decimal" : undefined} defaultValue={value} placeholder={props.placeholder} autoComplete="off" maxLength={maxLength} list={listId} />
+        <input
+          {...common}
+          type={numeric ? "text" : (props.type ?? "text")}
+          inputMode={numeric ? "decimal" : undefined}
+          defaultValue={value}
+          placeholder={props.placeholder}
+          autoComplete="off"
+          maxLength={maxLength}
+          list={listId}
+        />
         {props.suggestions ? (
           <datalist id={listId}>
             {props.suggestions.map((s) => (

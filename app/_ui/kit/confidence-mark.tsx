@@ -14,7 +14,10 @@ const LEVEL_TEXT: Readonly<Record<SourceLevel, string>> = {
  */
 export function ConfidenceMark({ level, anchor }: { level: SourceLevel; anchor: string }) {
   return (
-    <Link href={`/references#${encodeURIComponent(anchor)}`} className={`confidence confidence-${level === "published" ? "published" : "check"}`}>
+    <Link
+      href={`/references#${encodeURIComponent(anchor)}`}
+      className={`confidence confidence-${level === "published" ? "published" : "check"}`}
+    >
       {LEVEL_TEXT[level]}
     </Link>
   );

@@ -37,7 +37,11 @@ export function readValues(form: FormData, names: readonly string[]): Record<str
 }
 
 /** Issues → one message per field (the first), plus those that name no known field. */
-export function toFormErrors(issues: readonly DomainIssue[], known: readonly string[], rename: (field: string) => string = (f) => f): { errors: Record<string, string>; general: string[] } {
+export function toFormErrors(
+  issues: readonly DomainIssue[],
+  known: readonly string[],
+  rename: (field: string) => string = (f) => f,
+): { errors: Record<string, string>; general: string[] } {
   const errors: Record<string, string> = {};
   const general: string[] = [];
   for (const i of issues) {
@@ -51,7 +55,19 @@ export function toFormErrors(issues: readonly DomainIssue[], known: readonly str
   return { errors, general };
 }
 
-export function refused(prev: FormState, values: Record<string, string>, issues: readonly DomainIssue[], known: readonly string[], rename?: (field: string) => string): FormState {
+export function refused(
+  prev: FormState,
+  values: Record<string, string>,
+  issues: readonly DomainIssue[],
+  known: readonly string[],
+  rename?: (field: string) => string,
+): FormState {
   const { errors, general } = toFormErrors(issues, known, rename);
-  return { status: "refused", message: general.length > 0 ? general.join(" ") : "Not saved: check the marked fields.", values, errors, seq: prev.seq + 1 };
+  return {
+    status: "refused",
+    message: general.length > 0 ? general.join(" ") : "Not saved: check the marked fields.",
+    values,
+    errors,
+    seq: prev.seq + 1,
+  };
 }

@@ -26,7 +26,8 @@ export function RecordHeader({
         </p>
       ) : null}
       <h1>
-        <span className="record-kind">{kind}</span> <span className="code">{number}</span> {status ? <StatusMark code={status.code} label={status.label} /> : null}
+        <span className="record-kind">{kind}</span> <span className="code">{number}</span>{" "}
+        {status ? <StatusMark code={status.code} label={status.label} /> : null}
       </h1>
       {facts.length > 0 ? (
         <dl className="facts">

@@ -64,10 +64,17 @@ export function RowsForm({
 }) {
   const [state, act, pending] = useActionState<FormState, FormData>(action, IDLE);
   const [rows, setRows] = useState<RowValues[]>(initial.length > 0 ? initial : [newRow]);
-  const set = (i: number, key: string) => (e: { target: { value: string } }) => setRows((rs) => rs.map((r, j) => (j === i ? { ...r, [key]: e.target.value } : r)));
+  const set = (i: number, key: string) => (e: { target: { value: string } }) =>
+    setRows((rs) => rs.map((r, j) => (j === i ? { ...r, [key]: e.target.value } : r)));
   const input = (r: RowValues, i: number, f: RowField) => {
     const name = `${list}.${i}.${f.key}`;
-    const common = { name, value: r[f.key] ?? "", onChange: set(i, f.key), "aria-label": f.label(i), "aria-invalid": state.errors[name] ? true : undefined } as const;
+    const common = {
+      name,
+      value: r[f.key] ?? "",
+      onChange: set(i, f.key),
+      "aria-label": f.label(i),
+      "aria-invalid": state.errors[name] ? true : undefined,
+    } as const;
     return (
       <span key={f.key} className="rows-field">
         {f.caption ? <span className="muted">{f.caption} </span> : null}
@@ -116,10 +123,17 @@ export function RowsForm({
             {rows.map((r, i) => (
               <tr key={i}>
                 {columns.map((c) => (
-                  <td key={c.header}>{c.fields.filter((f) => f.showFor === undefined || f.showFor(r)).map((f) => input(r, i, f))}</td>
+                  <td key={c.header}>
+                    {c.fields.filter((f) => f.showFor === undefined || f.showFor(r)).map((f) => input(r, i, f))}
+                  </td>
                 ))}
                 <td>
-                  <button type="button" className="secondary" onClick={() => setRows((rs) => rs.filter((_, j) => j !== i))} aria-label={removeLabel(i)}>
+                  <button
+                    type="button"
+                    className="secondary"
+                    onClick={() => setRows((rs) => rs.filter((_, j) => j !== i))}
+                    aria-label={removeLabel(i)}
+                  >
                     Remove
                   </button>
                 </td>
@@ -140,7 +154,10 @@ export function RowsForm({
       </div>
       {after ? after(rows) : null}
       {state.message ? (
-        <p className={state.status === "saved" ? "form-ok" : "form-error"} role={state.status === "saved" ? "status" : "alert"}>
+        <p
+          className={state.status === "saved" ? "form-ok" : "form-error"}
+          role={state.status === "saved" ? "status" : "alert"}
+        >
           {state.message}
         </p>
       ) : null}

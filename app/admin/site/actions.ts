@@ -13,9 +13,16 @@ export async function setGs1PrefixAction(prev: FormState, form: FormData): Promi
   const values = readValues(form, FIELDS);
   const who = await requireRole(["ADMIN"]);
   if (!who.ok) return refused(prev, values, who.issues, FIELDS);
-  const r = await setGs1CompanyPrefix(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, values);
+  const r = await setGs1CompanyPrefix(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    values,
+  );
   if (!r.ok) return refused(prev, values, r.issues, FIELDS);
   revalidatePath("/admin/site");
-  const message = r.value.gs1CompanyPrefix === null ? "No GS1 Company Prefix: exports use the site's own identifiers." : `GS1 Company Prefix ${r.value.gs1CompanyPrefix} saved: exports and lot labels now use GS1 identifiers.`;
+  const message =
+    r.value.gs1CompanyPrefix === null
+      ? "No GS1 Company Prefix: exports use the site's own identifiers."
+      : `GS1 Company Prefix ${r.value.gs1CompanyPrefix} saved: exports and lot labels now use GS1 identifiers.`;
   return { status: "saved", message, values: {}, errors: {}, seq: prev.seq + 1 };
 }

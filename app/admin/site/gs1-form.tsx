@@ -6,7 +6,13 @@ import { GS1_PREFIX_MAX_DIGITS } from "@/lib/epcis/identifiers";
 export function Gs1PrefixForm({ current }: { current: string | null }) {
   return (
     <ActionForm action={setGs1PrefixAction} submitLabel="Save prefix" label="GS1 Company Prefix">
-      <Field name="gs1CompanyPrefix" label="GS1 Company Prefix" defaultValue={current ?? ""} maxLength={GS1_PREFIX_MAX_DIGITS} hint="The digits on the plant's GS1 licence. Leave empty if the plant has none." />
+      <Field
+        name="gs1CompanyPrefix"
+        label="GS1 Company Prefix"
+        defaultValue={current ?? ""}
+        maxLength={GS1_PREFIX_MAX_DIGITS}
+        hint="The digits on the plant's GS1 licence. Leave empty if the plant has none."
+      />
       <Field name="reason" label="Reason for the change" maxLength={200} required />
     </ActionForm>
   );

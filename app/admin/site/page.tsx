@@ -15,7 +15,9 @@ export default async function SiteSettingsPage() {
     return (
       <>
         <h1>Site settings</h1>
-        <p className="form-error" role="alert">Only an administrator changes the site settings.</p>
+        <p className="form-error" role="alert">
+          Only an administrator changes the site settings.
+        </p>
       </>
     );
   }

@@ -22,8 +22,18 @@ export async function createUserAction(prev: FormState, form: FormData): Promise
   const values: Record<string, string> = { ...readValues(form, CREATE_FIELDS), password: "" };
   const who = await requireRole(["ADMIN"]);
   if (!who.ok) return refused(prev, values, who.issues, CREATE_FIELDS);
-  const input = { login: readText(form, "login"), fullName: readText(form, "fullName"), role: readText(form, "role"), unitSystem: readText(form, "unitSystem") || undefined, password: rawText(form, "password") };
-  const r = await createUser(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, input);
+  const input = {
+    login: readText(form, "login"),
+    fullName: readText(form, "fullName"),
+    role: readText(form, "role"),
+    unitSystem: readText(form, "unitSystem") || undefined,
+    password: rawText(form, "password"),
+  };
+  const r = await createUser(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    input,
+  );
   if (!r.ok) return refused(prev, values, r.issues, CREATE_FIELDS);
   return saved(prev, `Account ${r.value.login} created; give them the password in person.`);
 }
@@ -39,34 +49,59 @@ export async function changeUserAction(prev: FormState, form: FormData): Promise
     ...(values.unitSystem ? { unitSystem: values.unitSystem } : {}),
     ...(values.active === "yes" ? { active: true } : values.active === "no" ? { active: false } : {}),
   };
-  const r = await changeUser(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, input);
+  const r = await changeUser(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    input,
+  );
   if (!r.ok) return refused(prev, values, r.issues, CHANGE_FIELDS);
-  return saved(prev, `${r.value.login} changed${r.value.sessionsEnded > 0 ? `; ${r.value.sessionsEnded} session${r.value.sessionsEnded === 1 ? "" : "s"} ended` : ""}.`);
+  return saved(
+    prev,
+    `${r.value.login} changed${r.value.sessionsEnded > 0 ? `; ${r.value.sessionsEnded} session${r.value.sessionsEnded === 1 ? "" : "s"} ended` : ""}.`,
+  );
 }
 
 export async function resetPasswordAction(prev: FormState, form: FormData): Promise<FormState> {
   const values: Record<string, string> = { ...readValues(form, RESET_FIELDS), password: "" };
   const who = await requireRole(["ADMIN"]);
   if (!who.ok) return refused(prev, values, who.issues, RESET_FIELDS);
-  const r = await resetPassword(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { login: readText(form, "login"), reason: readText(form, "reason"), password: rawText(form, "password") });
+  const r = await resetPassword(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    { login: readText(form, "login"), reason: readText(form, "reason"), password: rawText(form, "password") },
+  );
   if (!r.ok) return refused(prev, values, r.issues, RESET_FIELDS);
-  return saved(prev, `New password set for ${r.value.login}; ${r.value.sessionsEnded} session${r.value.sessionsEnded === 1 ? "" : "s"} ended.`);
+  return saved(
+    prev,
+    `New password set for ${r.value.login}; ${r.value.sessionsEnded} session${r.value.sessionsEnded === 1 ? "" : "s"} ended.`,
+  );
 }
 
 export async function endSessionsAction(prev: FormState, form: FormData): Promise<FormState> {
   const values = readValues(form, ["login", "reason"]);
   const who = await requireRole(["ADMIN"]);
   if (!who.ok) return refused(prev, values, who.issues, ["login", "reason"]);
-  const r = await endSessions(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { login: readText(form, "login"), reason: values.reason });
+  const r = await endSessions(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    { login: readText(form, "login"), reason: values.reason },
+  );
   if (!r.ok) return refused(prev, values, r.issues, ["login", "reason"]);
-  return saved(prev, `${r.value.sessionsEnded} session${r.value.sessionsEnded === 1 ? "" : "s"} of ${r.value.login} ended; they must sign in again.`);
+  return saved(
+    prev,
+    `${r.value.sessionsEnded} session${r.value.sessionsEnded === 1 ? "" : "s"} of ${r.value.login} ended; they must sign in again.`,
+  );
 }
 
 export async function unlockSignInAction(prev: FormState, form: FormData): Promise<FormState> {
   const values = readValues(form, ["login", "reason"]);
   const who = await requireRole(["ADMIN"]);
   if (!who.ok) return refused(prev, values, who.issues, ["login", "reason"]);
-  const r = await unlockSignIn(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { login: readText(form, "login"), reason: values.reason });
+  const r = await unlockSignIn(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    { login: readText(form, "login"), reason: values.reason },
+  );
   if (!r.ok) return refused(prev, values, r.issues, ["login", "reason"]);
   return saved(prev, `${r.value.login} may sign in again at once; earlier failed attempts no longer count.`);
 }

@@ -5,7 +5,13 @@ import { listUsers } from "@/lib/auth/user.store";
 import { when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { HistoryLink, NoSite, Note } from "@/app/_ui/ui";
-import { ChangeAccountForm, CreateAccountForm, EndSessionsForm, ResetPasswordForm, UnlockSignInForm } from "@/app/admin/users/account-forms";
+import {
+  ChangeAccountForm,
+  CreateAccountForm,
+  EndSessionsForm,
+  ResetPasswordForm,
+  UnlockSignInForm,
+} from "@/app/admin/users/account-forms";
 
 type AccountRow = Awaited<ReturnType<typeof listUsers>>[number];
 
@@ -14,7 +20,12 @@ const accountColumns = (tz: string): Column<AccountRow>[] => [
   { key: "name", header: "Name", cell: (u) => u.fullName },
   { key: "role", header: "Role", cell: (u) => ROLE_WORDS[u.role] ?? u.role },
   { key: "units", header: "Units", cell: (u) => (u.unitSystem === "us" ? "US" : "Metric") },
-  { key: "account", header: "Account", cell: (u) => (u.active ? <StatusMark code="OPEN_PERIOD" label="Active" /> : <StatusMark code="CLOSED" label="Disabled" />) },
+  {
+    key: "account",
+    header: "Account",
+    cell: (u) =>
+      u.active ? <StatusMark code="OPEN_PERIOD" label="Active" /> : <StatusMark code="CLOSED" label="Disabled" />,
+  },
   { key: "sessions", header: "Live sessions", numeric: true, cell: (u) => u.liveSessions },
   { key: "signin", header: "Last sign-in", cell: (u) => <span className="nowrap">{when(u.lastSignIn, tz)}</span> },
   {
@@ -36,7 +47,12 @@ const accountColumns = (tz: string): Column<AccountRow>[] => [
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Accounts" };
 
-const ROLE_WORDS: Readonly<Record<string, string>> = { COLLECTOR: "Collector", PRODUCTION: "Production", COMPLIANCE: "Compliance", ADMIN: "Administrator" };
+const ROLE_WORDS: Readonly<Record<string, string>> = {
+  COLLECTOR: "Collector",
+  PRODUCTION: "Production",
+  COMPLIANCE: "Compliance",
+  ADMIN: "Administrator",
+};
 
 export default async function AccountsPage() {
   const { db, site, user } = await loadSite();
@@ -46,7 +62,8 @@ export default async function AccountsPage() {
       <>
         <h1>Accounts</h1>
         <p className="form-error" role="alert">
-          Only an administrator manages accounts. Ask your administrator to add a colleague, change a role or end a lost phone&apos;s session.
+          Only an administrator manages accounts. Ask your administrator to add a colleague, change a role or end a lost
+          phone&apos;s session.
         </p>
       </>
     );
@@ -57,13 +74,24 @@ export default async function AccountsPage() {
     <>
       <h1>Accounts</h1>
       <p className="lede">
-        Who can sign in, in which role. Accounts are never deleted — a leaver is disabled, which ends their sessions at once, and their name stays on
-        everything they recorded. Each change needs a reason and is kept in the audit trail.
+        Who can sign in, in which role. Accounts are never deleted — a leaver is disabled, which ends their sessions at
+        once, and their name stays on everything they recorded. Each change needs a reason and is kept in the audit
+        trail.
       </p>
-      <DataTable caption="Accounts" hideCaption columns={accountColumns(tz)} rows={users} rowKey={(u) => u.login} empty="No accounts yet." />
+      <DataTable
+        caption="Accounts"
+        hideCaption
+        columns={accountColumns(tz)}
+        rows={users}
+        rowKey={(u) => u.login}
+        empty="No accounts yet."
+      />
       <h2>New account</h2>
       <CreateAccountForm />
-      <Note>Passwords: at least 8 characters, any characters; a long phrase is easier to type on a phone than a short complicated word.</Note>
+      <Note>
+        Passwords: at least 8 characters, any characters; a long phrase is easier to type on a phone than a short
+        complicated word.
+      </Note>
     </>
   );
 }

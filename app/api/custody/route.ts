@@ -16,5 +16,7 @@ export const GET = handled("GET /api/custody", async (request: Request): Promise
   const db = await getDb();
   const site = await getSiteById(db, who.value.siteId);
   if (!site) return respond(fail("RECORD.NOT_FOUND", "Your site is not set up"));
-  return respond(await getCustodyReport(db, site, Object.fromEntries(new URL(request.url).searchParams), who.value.now));
+  return respond(
+    await getCustodyReport(db, site, Object.fromEntries(new URL(request.url).searchParams), who.value.now),
+  );
 });

@@ -9,6 +9,10 @@ export function answerEpcis(r: Result<EpcisExport>): NextResponse {
   if (!r.ok) return respond(r);
   return new NextResponse(JSON.stringify(r.value.document, null, 1), {
     status: 200,
-    headers: { "content-type": "application/ld+json; charset=utf-8", "content-disposition": `attachment; filename="${r.value.fileName}"`, "cache-control": "no-store" },
+    headers: {
+      "content-type": "application/ld+json; charset=utf-8",
+      "content-disposition": `attachment; filename="${r.value.fileName}"`,
+      "cache-control": "no-store",
+    },
   });
 }

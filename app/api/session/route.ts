@@ -16,7 +16,13 @@ export const POST = handled("POST /api/session", async (request: Request): Promi
   const ip = ((await headers()).get("x-forwarded-for") ?? "").split(",")[0]?.trim() || "local";
   const result = await signIn(await getDb(), body.value, { ip, now: new Date() });
   if (!result.ok) return respond(result);
-  (await cookies()).set(await sessionCookieName(), result.value.token, { httpOnly: true, secure: await cookieIsSecure(), sameSite: "lax", path: "/", expires: result.value.expiresAt });
+  (await cookies()).set(await sessionCookieName(), result.value.token, {
+    httpOnly: true,
+    secure: await cookieIsSecure(),
+    sameSite: "lax",
+    path: "/",
+    expires: result.value.expiresAt,
+  });
   return respond({ ok: true, value: { user: result.value.user, expiresAt: result.value.expiresAt } });
 });
 

@@ -31,7 +31,13 @@ export function buildCustodyDoc(r: CustodyReport, ctx: ReportContext): ReportDoc
       { key: "yield", header: "Yield (ester / oil)", kind: "text" },
     ],
     rows: conversions.map((c) => [c.batchCode, c.completedAt, c.oilG, c.esterG, c.factor.toFixed(4)]),
-    total: ["TOTAL", null, conversions.reduce((s, c) => s + c.oilG, 0), conversions.reduce((s, c) => s + c.esterG, 0), null],
+    total: [
+      "TOTAL",
+      null,
+      conversions.reduce((s, c) => s + c.oilG, 0),
+      conversions.reduce((s, c) => s + c.esterG, 0),
+      null,
+    ],
     empty: "No batch finished in the period.",
   };
   const claimsIn = r.claims.filter((c) => inPeriod(c.at));
@@ -47,7 +53,15 @@ export function buildCustodyDoc(r: CustodyReport, ctx: ReportContext): ReportDoc
       { key: "available", header: "Credit available", kind: "mass" },
       { key: "accepted", header: "Within the balance", kind: "text" },
     ],
-    rows: claimsIn.map((c) => [c.documentNo, c.customer, c.at, c.setKey, c.massG, c.availableG, c.accepted ? "yes" : `no, short ${(c.shortfallG / 1000).toFixed(3)} kg`]),
+    rows: claimsIn.map((c) => [
+      c.documentNo,
+      c.customer,
+      c.at,
+      c.setKey,
+      c.massG,
+      c.availableG,
+      c.accepted ? "yes" : `no, short ${(c.shortfallG / 1000).toFixed(3)} kg`,
+    ]),
     total: ["TOTAL", null, null, null, claimsIn.reduce((s, c) => s + c.massG, 0), null, null],
     empty: "No certified claim in the period.",
   };
@@ -63,7 +77,21 @@ export function buildCustodyDoc(r: CustodyReport, ctx: ReportContext): ReportDoc
       { key: "closing", header: "Closing", kind: "mass" },
       { key: "carried", header: "Carried forward", kind: "text" },
     ],
-    rows: r.accounts.flatMap((a) => (a.selected ? [[a.setKey, a.materialLabel, a.selected.openingG, a.selected.creditsG, a.selected.debitsG, a.selected.closingG, a.selected.carriedForwardG === null ? "period open" : (a.selected.carriedForwardG / 1000).toFixed(3)]] : [])),
+    rows: r.accounts.flatMap((a) =>
+      a.selected
+        ? [
+            [
+              a.setKey,
+              a.materialLabel,
+              a.selected.openingG,
+              a.selected.creditsG,
+              a.selected.debitsG,
+              a.selected.closingG,
+              a.selected.carriedForwardG === null ? "period open" : (a.selected.carriedForwardG / 1000).toFixed(3),
+            ],
+          ]
+        : [],
+    ),
     empty: "No account had entries in the period.",
   };
   return {
@@ -80,7 +108,9 @@ export function buildCustodyDoc(r: CustodyReport, ctx: ReportContext): ReportDoc
       ["Operator", r.query.operatorType],
       ["Bookings that exceeded the balance", r.failures.length === 0 ? "none" : String(r.failures.length)],
     ],
-    notes: ["Mass balance: certified input is credited by characteristic set, converted at each batch's measured yield, and debited by certified claims on shipments."],
+    notes: [
+      "Mass balance: certified input is credited by characteristic set, converted at each batch's measured yield, and debited by certified claims on shipments.",
+    ],
     cautions: [],
     tables: [inputs, conv, claims, accounts],
   };

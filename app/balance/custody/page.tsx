@@ -27,7 +27,12 @@ export default async function CustodyPage({ searchParams }: { searchParams: Prom
   const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const sp = await searchParams;
-  const typed = { period: one(sp.period), operatorType: one(sp.operatorType), claimKg: one(sp.claimKg), claimSet: one(sp.claimSet) };
+  const typed = {
+    period: one(sp.period),
+    operatorType: one(sp.operatorType),
+    claimKg: one(sp.claimKg),
+    claimSet: one(sp.claimSet),
+  };
   const result = await getCustodyReport(db, site, typed, user.now);
   const tz = site.timeZone;
   return (
@@ -37,15 +42,21 @@ export default async function CustodyPage({ searchParams }: { searchParams: Prom
       </p>
       <h1>Chain of custody</h1>
       <p className="lede">
-        Certified credit by characteristic set, booked in time order: certified feedstock in, conversion to methyl ester at each
-        batch&apos;s measured yield, certified claims on shipments out. A claim larger than the credit at its booking is flagged.
+        Certified credit by characteristic set, booked in time order: certified feedstock in, conversion to methyl ester
+        at each batch&apos;s measured yield, certified claims on shipments out. A claim larger than the credit at its
+        booking is flagged.
       </p>
       <CustodyForm typed={typed} report={result.ok ? result.value : null} issues={result.ok ? [] : result.issues} />
       {result.ok ? (
         <ReportLinks
           base={`/balance/custody/report?${new URLSearchParams({ period: result.value.selected.label, operatorType: result.value.query.operatorType }).toString()}`}
           pdfLabel="Chain-of-custody statement"
-          tables={[["inputs", "Certified inputs"], ["conversions", "Conversions"], ["claims", "Claims"], ["accounts", "Accounts"]]}
+          tables={[
+            ["inputs", "Certified inputs"],
+            ["conversions", "Conversions"],
+            ["claims", "Claims"],
+            ["accounts", "Accounts"],
+          ]}
         />
       ) : null}
       {result.ok ? <CustodyResult r={result.value} timeZone={tz} /> : null}
@@ -53,7 +64,15 @@ export default async function CustodyPage({ searchParams }: { searchParams: Prom
   );
 }
 
-function CustodyForm({ typed, report, issues }: { typed: Record<string, string>; report: CustodyReport | null; issues: DomainIssue[] }) {
+function CustodyForm({
+  typed,
+  report,
+  issues,
+}: {
+  typed: Record<string, string>;
+  report: CustodyReport | null;
+  issues: DomainIssue[];
+}) {
   const bad = (f: string) => (issues.some((i) => i.field === f) ? true : undefined);
   return (
     <form method="get" action="/balance/custody" className="query-form" noValidate>
@@ -76,7 +95,10 @@ function CustodyForm({ typed, report, issues }: { typed: Record<string, string>;
         </label>
         <label>
           Operator type
-          <select name="operatorType" defaultValue={report?.query.operatorType ?? (typed.operatorType || "OTHER_OPERATOR")}>
+          <select
+            name="operatorType"
+            defaultValue={report?.query.operatorType ?? (typed.operatorType || "OTHER_OPERATOR")}
+          >
             {OPERATOR_TYPES.map((o) => (
               <option key={o} value={o}>
                 {OPERATOR_WORDS[o] ?? o}
@@ -86,7 +108,13 @@ function CustodyForm({ typed, report, issues }: { typed: Record<string, string>;
         </label>
         <label>
           Try a claim now (kg of ester)
-          <input name="claimKg" inputMode="decimal" size={9} defaultValue={typed.claimKg} aria-invalid={bad("claimKg")} />
+          <input
+            name="claimKg"
+            inputMode="decimal"
+            size={9}
+            defaultValue={typed.claimKg}
+            aria-invalid={bad("claimKg")}
+          />
         </label>
         <label>
           Against set
@@ -123,10 +151,19 @@ function CustodyResult({ r, timeZone }: { r: CustodyReport; timeZone: string }) 
           items={[
             ["Rule set", rs.name],
             ["Source", rs.source],
-            ["Balance period", `${months} months (${rs.balancePeriodMonths[r.query.operatorType].source}; ${rs.balancePeriodMonths[r.query.operatorType].status})`],
+            [
+              "Balance period",
+              `${months} months (${rs.balancePeriodMonths[r.query.operatorType].source}; ${rs.balancePeriodMonths[r.query.operatorType].status})`,
+            ],
             ["Period start", `month ${rs.periodAnchorMonth.value} (${rs.periodAnchorMonth.status})`],
-            ["Carry-forward", `${rs.carryForward.value === "CARRY_POSITIVE" ? "a positive closing balance opens the next period" : "the balance lapses at period end"} (${rs.carryForward.status})`],
-            ["Negative balance", `${rs.negativeBalance.value === "NEVER_NEGATIVE_AT_ANY_BOOKING" ? "refused at any booking" : "allowed inside a period, not at its end"} (${rs.negativeBalance.status})`],
+            [
+              "Carry-forward",
+              `${rs.carryForward.value === "CARRY_POSITIVE" ? "a positive closing balance opens the next period" : "the balance lapses at period end"} (${rs.carryForward.status})`,
+            ],
+            [
+              "Negative balance",
+              `${rs.negativeBalance.value === "NEVER_NEGATIVE_AT_ANY_BOOKING" ? "refused at any booking" : "allowed inside a period, not at its end"} (${rs.negativeBalance.status})`,
+            ],
           ]}
         />
         <Note>Edition: {rs.edition}</Note>
@@ -141,11 +178,11 @@ function CustodyResult({ r, timeZone }: { r: CustodyReport; timeZone: string }) 
           </ul>
         </details>
         <Note>
-          How Tracevat books it (our rules, common practice, no source): certified input is the oil of lots marked certified whose source
-          held a valid certificate on the day, per characteristic set (scheme and raw material); the certified share of a batch&apos;s oil
-          comes from the genealogy (tank mixing), and converts at the batch&apos;s measured ester ÷ oil; receiving shortfalls are written
-          off; a shipment does not record a set, so each certified claim is booked against the set with the most ester credit at the
-          shipment time.
+          How Tracevat books it (our rules, common practice, no source): certified input is the oil of lots marked
+          certified whose source held a valid certificate on the day, per characteristic set (scheme and raw material);
+          the certified share of a batch&apos;s oil comes from the genealogy (tank mixing), and converts at the
+          batch&apos;s measured ester ÷ oil; receiving shortfalls are written off; a shipment does not record a set, so
+          each certified claim is booked against the set with the most ester credit at the shipment time.
         </Note>
       </section>
 
@@ -159,7 +196,10 @@ function CustodyResult({ r, timeZone }: { r: CustodyReport; timeZone: string }) 
         <Facts
           items={[
             ["Claims checked (all periods)", `${r.claims.length} shipments, ${kg(claimed, 0)}`],
-            ["Claims over the balance (all periods)", refused.length === 0 ? "none" : <strong key="x">{refused.length}</strong>],
+            [
+              "Claims over the balance (all periods)",
+              refused.length === 0 ? "none" : <strong key="x">{refused.length}</strong>,
+            ],
             ["Bookings", String(r.bookings)],
           ]}
         />
@@ -170,8 +210,9 @@ function CustodyResult({ r, timeZone }: { r: CustodyReport; timeZone: string }) 
             <ul>
               {r.failures.map((f) => (
                 <li key={`${f.bookingId}${f.at}`}>
-                  {periodOf(r, f.at)}: {f.description} on {when(new Date(f.at), timeZone)}: {kgExact(f.requestedG)} asked, {kgExact(f.availableG)} available in {f.setKey} ({f.material}),
-                  short by {kgExact(f.shortfallG)}. Not applied: later bookings see the balance without it.
+                  {periodOf(r, f.at)}: {f.description} on {when(new Date(f.at), timeZone)}: {kgExact(f.requestedG)}{" "}
+                  asked, {kgExact(f.availableG)} available in {f.setKey} ({f.material}), short by{" "}
+                  {kgExact(f.shortfallG)}. Not applied: later bookings see the balance without it.
                 </li>
               ))}
             </ul>
@@ -212,7 +253,15 @@ function CustodyResult({ r, timeZone }: { r: CustodyReport; timeZone: string }) 
                   <td className="num">{a.selected ? kg(a.selected.creditsG, 3) : "—"}</td>
                   <td className="num">{a.selected ? kg(a.selected.debitsG, 3) : "—"}</td>
                   <td className="num">{a.selected ? kg(a.selected.closingG, 3) : "—"}</td>
-                  <td className="num">{a.selected === null ? "—" : a.selected.carriedForwardG === null ? <span className="muted">period open</span> : kg(a.selected.carriedForwardG, 3)}</td>
+                  <td className="num">
+                    {a.selected === null ? (
+                      "—"
+                    ) : a.selected.carriedForwardG === null ? (
+                      <span className="muted">period open</span>
+                    ) : (
+                      kg(a.selected.carriedForwardG, 3)
+                    )}
+                  </td>
                 </tr>
               ))}
             </tbody>
@@ -264,9 +313,9 @@ function CustodyResult({ r, timeZone }: { r: CustodyReport; timeZone: string }) 
           </div>
         )}
         <Note>
-          Not credited: {kg(r.notCredited.lotOnlyG, 0)} in lots marked certified from sources without a valid certificate,{" "}
-          {kg(r.notCredited.sourceOnlyG, 0)} from certified sources in lots not marked certified, {kg(r.notCredited.surplusG, 0)} measured
-          above the pickups&apos; estimate at receiving (no source).
+          Not credited: {kg(r.notCredited.lotOnlyG, 0)} in lots marked certified from sources without a valid
+          certificate, {kg(r.notCredited.sourceOnlyG, 0)} from certified sources in lots not marked certified,{" "}
+          {kg(r.notCredited.surplusG, 0)} measured above the pickups&apos; estimate at receiving (no source).
           {r.notCredited.withheldG > 0
             ? ` Withheld after confirmed screening flags: ${kg(r.notCredited.withheldG, 0)} from ${r.notCredited.withheldSources.join(", ")}, until compliance clears the source.`
             : ""}
@@ -323,7 +372,10 @@ function CustodyResult({ r, timeZone }: { r: CustodyReport; timeZone: string }) 
             </table>
           </div>
         </details>
-        <Note>Credit = certified oil × (ester out ÷ oil in of that batch), rounded down to whole grams so credit is never overstated.</Note>
+        <Note>
+          Credit = certified oil × (ester out ÷ oil in of that batch), rounded down to whole grams so credit is never
+          overstated.
+        </Note>
       </section>
 
       <section aria-labelledby="claims-h">
@@ -359,7 +411,13 @@ function CustodyResult({ r, timeZone }: { r: CustodyReport; timeZone: string }) 
                     <td>{c.setKey}</td>
                     <td className="num">{kg(c.massG, 3)}</td>
                     <td className="num">{kg(c.availableG, 3)}</td>
-                    <td>{c.accepted ? <span className="status status-pass">within balance</span> : <span className="status status-fail">exceeds by {kg(c.shortfallG, 1)}</span>}</td>
+                    <td>
+                      {c.accepted ? (
+                        <span className="status status-pass">within balance</span>
+                      ) : (
+                        <span className="status status-fail">exceeds by {kg(c.shortfallG, 1)}</span>
+                      )}
+                    </td>
                   </tr>
                 ))}
               </tbody>
@@ -368,7 +426,8 @@ function CustodyResult({ r, timeZone }: { r: CustodyReport; timeZone: string }) 
         )}
       </section>
       <Note>
-        Genealogy used for the certified share: {r.trace.movements} movements, indexed at {when(r.trace.indexedAt, timeZone)}.
+        Genealogy used for the certified share: {r.trace.movements} movements, indexed at{" "}
+        {when(r.trace.indexedAt, timeZone)}.
       </Note>
     </>
   );
@@ -381,7 +440,8 @@ function periodOf(r: CustodyReport, at: number): string {
 function ClaimCheckResult({ c }: { c: NonNullable<CustodyReport["claimCheck"]> }) {
   return c.ok ? (
     <p className="form-ok" role="status">
-      A claim of {kgExact(c.massG)} against {c.setKey} now would pass: {kgExact(c.check.availableG)} available, {kgExact(c.check.balanceAfterG)} left after it. Nothing was saved.
+      A claim of {kgExact(c.massG)} against {c.setKey} now would pass: {kgExact(c.check.availableG)} available,{" "}
+      {kgExact(c.check.balanceAfterG)} left after it. Nothing was saved.
     </p>
   ) : (
     <div className="form-error" role="alert">
@@ -424,7 +484,13 @@ function RunningBalance({ a, timeZone }: { a: AccountView; timeZone: string }) {
                 <td>{e.description}</td>
                 <td className="num">{kgExact(e.deltaG)}</td>
                 <td className="num">{kgExact(e.balanceG)}</td>
-                <td>{e.accepted ? <span className="muted">ok</span> : <span className="status status-fail">refused, short {kgExact(e.shortfallG ?? 0)}</span>}</td>
+                <td>
+                  {e.accepted ? (
+                    <span className="muted">ok</span>
+                  ) : (
+                    <span className="status status-fail">refused, short {kgExact(e.shortfallG ?? 0)}</span>
+                  )}
+                </td>
               </tr>
             ))}
           </tbody>

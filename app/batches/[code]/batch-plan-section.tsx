@@ -58,7 +58,10 @@ export async function BatchPlanSection({ batch }: { batch: BatchDetail }) {
             <div>
               <dt>Glycerol phase per kg oil</dt>
               <dd>
-                {num(y.value.yield.glycerolPhasePerKgOil, 3)} kg <span className="muted">(pure glycerol in theory {num(y.value.yield.theoreticalGlycerolPerKgOil, 3)} kg)</span>
+                {num(y.value.yield.glycerolPhasePerKgOil, 3)} kg{" "}
+                <span className="muted">
+                  (pure glycerol in theory {num(y.value.yield.theoreticalGlycerolPerKgOil, 3)} kg)
+                </span>
               </dd>
             </div>
           </dl>
@@ -68,10 +71,18 @@ export async function BatchPlanSection({ batch }: { batch: BatchDetail }) {
               <thead>
                 <tr>
                   <th scope="col">Reagent</th>
-                  <th scope="col" className="num">Planned</th>
-                  <th scope="col" className="num">Used</th>
-                  <th scope="col" className="num">Difference</th>
-                  <th scope="col" className="num">Of plan</th>
+                  <th scope="col" className="num">
+                    Planned
+                  </th>
+                  <th scope="col" className="num">
+                    Used
+                  </th>
+                  <th scope="col" className="num">
+                    Difference
+                  </th>
+                  <th scope="col" className="num">
+                    Of plan
+                  </th>
                 </tr>
               </thead>
               <tbody>

@@ -41,7 +41,10 @@ export default async function BatchPage({ params }: Props) {
   if (!site) return <NoSite />;
   const b = await getBatchDetail(db, site.id, codeParam((await params).code));
   if (!b) notFound();
-  const madeOf = b.charges.length > 0 ? await getMadeOf(db, site.id, b.holderId, new Date()) : { totalG: 0, shares: [], feedstockG: 0, reagents: [], order: "dated" as const };
+  const madeOf =
+    b.charges.length > 0
+      ? await getMadeOf(db, site.id, b.holderId, new Date())
+      : { totalG: 0, shares: [], feedstockG: 0, reagents: [], order: "dated" as const };
   const tz = site.timeZone;
   const chargedG = b.charges.reduce((s, m) => s + m.massG, 0);
   const outG = b.outputs.reduce((s, m) => s + m.massG, 0);
@@ -50,7 +53,11 @@ export default async function BatchPage({ params }: Props) {
     [
       ...b.charges.map((m) => ({ role: m.role, massG: m.massG, direction: "IN" as const })),
       ...b.outputs.map((m) => ({ role: m.role, massG: m.massG, direction: "OUT" as const })),
-      ...b.unmeasured.map((m) => ({ role: m.role, massG: m.massG, direction: m.to.id === b.holderId ? ("IN" as const) : ("OUT" as const) })),
+      ...b.unmeasured.map((m) => ({
+        role: m.role,
+        massG: m.massG,
+        direction: m.to.id === b.holderId ? ("IN" as const) : ("OUT" as const),
+      })),
     ],
     tolerance,
   );
@@ -90,20 +97,35 @@ export default async function BatchPage({ params }: Props) {
           rows={b.charges}
           timeZone={tz}
           side="to"
-          {...(b.status === "RUNNING" ? { action: { header: "Correction", render: (m: MovementView) => (m.reversesId === null ? <TakeBackChargeForm movementId={m.id} /> : null) } } : {})}
+          {...(b.status === "RUNNING"
+            ? {
+                action: {
+                  header: "Correction",
+                  render: (m: MovementView) =>
+                    m.reversesId === null ? <TakeBackChargeForm movementId={m.id} /> : null,
+                },
+              }
+            : {})}
         />
       )}
       {b.status === "RUNNING" && b.charges.length > 0 ? (
         <Note>
-          A charge booked by mistake (wrong tank or lot, wrong mass) can be taken back while the batch is reacting: the record gets an opposite movement with your reason, and
-          traces and balances leave the pair out. This only corrects the books. If material really has to leave the reactor, follow the plant&apos;s written procedure and the
-          safety data sheets: methanol and methoxide are toxic and flammable, hydroxides and acid are corrosive, and the charge may be hot.
+          A charge booked by mistake (wrong tank or lot, wrong mass) can be taken back while the batch is reacting: the
+          record gets an opposite movement with your reason, and traces and balances leave the pair out. This only
+          corrects the books. If material really has to leave the reactor, follow the plant&apos;s written procedure and
+          the safety data sheets: methanol and methoxide are toxic and flammable, hydroxides and acid are corrosive, and
+          the charge may be hot.
         </Note>
       ) : null}
       {b.takenBack.length > 0 ? (
         <>
           <h3>Charges taken back</h3>
-          <MovementTable rows={b.takenBack} timeZone={tz} side="to" caption="Booked by mistake and reversed; not counted in the batch." />
+          <MovementTable
+            rows={b.takenBack}
+            timeZone={tz}
+            side="to"
+            caption="Booked by mistake and reversed; not counted in the batch."
+          />
         </>
       ) : null}
 
@@ -111,11 +133,20 @@ export default async function BatchPage({ params }: Props) {
       <MadeOf madeOf={madeOf} what="batch" />
 
       <h2>Outputs</h2>
-      {b.outputs.length === 0 ? <Empty>No outputs recorded yet.</Empty> : <MovementTable rows={b.outputs} timeZone={tz} side="from" />}
+      {b.outputs.length === 0 ? (
+        <Empty>No outputs recorded yet.</Empty>
+      ) : (
+        <MovementTable rows={b.outputs} timeZone={tz} side="from" />
+      )}
       {b.corrected.length > 0 ? (
         <>
           <h3>Outputs corrected</h3>
-          <MovementTable rows={b.corrected} timeZone={tz} side="from" caption="Typed wrong and reversed; the corrected entries are in the outputs above." />
+          <MovementTable
+            rows={b.corrected}
+            timeZone={tz}
+            side="from"
+            caption="Typed wrong and reversed; the corrected entries are in the outputs above."
+          />
         </>
       ) : null}
 
@@ -127,28 +158,40 @@ export default async function BatchPage({ params }: Props) {
               ["Charged", kg(closure.chargedG, 3)],
               ["Weighed or gauged out", kg(closure.measuredG, 3)],
               ["Recorded losses", kg(closure.recordedLossG, 3)],
-              ["Unmeasured difference", <span key="u" data-testid="batch-unmeasured">{kg(closure.differenceG, 3)}</span>],
+              [
+                "Unmeasured difference",
+                <span key="u" data-testid="batch-unmeasured">
+                  {kg(closure.differenceG, 3)}
+                </span>,
+              ],
               ["Share of the charge", <ClosureChip key="c" closure={closure.closure} what="of the charge" />],
             ]}
           />
           {closure.closure.flag !== "OK" ? (
             <p className="warning" role="status">
-              The unmeasured difference is above the site&apos;s tolerance: check the weighbridge tickets and gauges, lines and filters for hold-up, and drains and valves for leaks.
-              If an output was typed wrong, correct it below.
+              The unmeasured difference is above the site&apos;s tolerance: check the weighbridge tickets and gauges,
+              lines and filters for hold-up, and drains and valves for leaks. If an output was typed wrong, correct it
+              below.
             </p>
           ) : null}
           <Note>
-            The unmeasured difference is what was charged less everything weighed or gauged out and the recorded losses; it is booked when the batch finishes, never typed.{" "}
-            <ToleranceNote tolerance={tolerance} />
+            The unmeasured difference is what was charged less everything weighed or gauged out and the recorded losses;
+            it is booked when the batch finishes, never typed. <ToleranceNote tolerance={tolerance} />
           </Note>
           {user.role === "PRODUCTION" && b.outputs.length > 0 ? (
             <>
               <h3>Correct an output typed wrong</h3>
               <p>
-                The wrong entry stays on record, reversed, and the output is booked again with the right mass at its original time; the unmeasured difference is worked out
-                again. Refused when the material has moved on since or the period is closed.
+                The wrong entry stays on record, reversed, and the output is booked again with the right mass at its
+                original time; the unmeasured difference is worked out again. Refused when the material has moved on
+                since or the period is closed.
               </p>
-              <CorrectOutputForm batchCode={b.code} outputs={b.outputs.map((m) => [String(m.id), `No. ${m.id} · ${labelOf(m.role)} → ${m.to.code} · ${kg(m.massG, 3)}`] as const)} />
+              <CorrectOutputForm
+                batchCode={b.code}
+                outputs={b.outputs.map(
+                  (m) => [String(m.id), `No. ${m.id} · ${labelOf(m.role)} → ${m.to.code} · ${kg(m.massG, 3)}`] as const,
+                )}
+              />
             </>
           ) : null}
         </section>

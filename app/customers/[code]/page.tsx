@@ -33,7 +33,11 @@ export default async function CustomerPage({ params, searchParams }: Props) {
   const c = await getCustomer(db, site.id, code);
   if (!c) notFound();
   const page = pageParam((await searchParams).page);
-  const { rows, total } = await listShipmentRows(db, site.id, { customerCode: c.code, skip: (page - 1) * PAGE_SIZE, take: PAGE_SIZE });
+  const { rows, total } = await listShipmentRows(db, site.id, {
+    customerCode: c.code,
+    skip: (page - 1) * PAGE_SIZE,
+    take: PAGE_SIZE,
+  });
   const canChange = user.role === "COMPLIANCE";
   return (
     <>
@@ -43,20 +47,34 @@ export default async function CustomerPage({ params, searchParams }: Props) {
         status={{ code: c.active ? "ACTIVE_CUSTOMER" : "INACTIVE_CUSTOMER" }}
         back={{ href: "/customers", label: "Customers" }}
         facts={[
-          ["Code", <span key="c" className="code">{c.code}</span>],
+          [
+            "Code",
+            <span key="c" className="code">
+              {c.code}
+            </span>,
+          ],
           ["Delivery address", c.address || "—"],
           ["Contact", c.contact || "—"],
           ["Shipments", String(total)],
         ]}
         actions={
           <>
-            {canChange && c.active ? <Link href={`/shipments/new?customer=${encodeURIComponent(c.code)}`}>Record a shipment to this customer</Link> : null}{" "}
+            {canChange && c.active ? (
+              <Link href={`/shipments/new?customer=${encodeURIComponent(c.code)}`}>
+                Record a shipment to this customer
+              </Link>
+            ) : null}{" "}
             <HistoryLink kind="customer" recordKey={c.code} label="customer" />
           </>
         }
       />
       <h2>Shipments to {c.name}</h2>
-      <ShipmentTable rows={rows} timeZone={site.timeZone} showCustomer={false} caption={`${total} shipment${total === 1 ? "" : "s"}, newest first`} />
+      <ShipmentTable
+        rows={rows}
+        timeZone={site.timeZone}
+        showCustomer={false}
+        caption={`${total} shipment${total === 1 ? "" : "s"}, newest first`}
+      />
       <Pager basePath={`/customers/${encodeURIComponent(c.code)}`} page={page} total={total} pageSize={PAGE_SIZE} />
       {canChange ? (
         <details className="correction">

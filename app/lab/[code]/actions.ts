@@ -20,18 +20,27 @@ export async function recordTitrationAction(prev: FormState, form: FormData): Pr
   const lotCode = readText(form, "lotCode");
   const who = await requireRole(["PRODUCTION"]);
   if (!who.ok) return refused(prev, values, who.issues, TITRATION_FIELDS);
-  const result = await recordTitration(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, {
-    lotCode,
-    testedAt: who.value.now,
-    sampleMassG: readNumber(form, "sampleMassG"),
-    titrant: values.titrant || undefined,
-    concentrationMolL: readNumber(form, "concentrationMolL"),
-    titreMl: readNumber(form, "titreMl"),
-    blankMl: readNumber(form, "blankMl") ?? 0,
-    basis: values.basis || undefined,
-  });
-  if (!result.ok) return refused(prev, values, result.issues, TITRATION_FIELDS, (f) => (f === "ffaPct" ? "titreMl" : f));
-  await screenAfterRecord(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { lotCodes: [lotCode] });
+  const result = await recordTitration(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    {
+      lotCode,
+      testedAt: who.value.now,
+      sampleMassG: readNumber(form, "sampleMassG"),
+      titrant: values.titrant || undefined,
+      concentrationMolL: readNumber(form, "concentrationMolL"),
+      titreMl: readNumber(form, "titreMl"),
+      blankMl: readNumber(form, "blankMl") ?? 0,
+      basis: values.basis || undefined,
+    },
+  );
+  if (!result.ok)
+    return refused(prev, values, result.issues, TITRATION_FIELDS, (f) => (f === "ffaPct" ? "titreMl" : f));
+  await screenAfterRecord(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    { lotCodes: [lotCode] },
+  );
   paths(lotCode);
   return {
     status: "saved",
@@ -48,17 +57,31 @@ export async function recordLabTestAction(prev: FormState, form: FormData): Prom
   const lotCode = readText(form, "lotCode");
   const who = await requireRole(["PRODUCTION"]);
   if (!who.ok) return refused(prev, values, who.issues, LAB_TEST_FIELDS);
-  const result = await recordLabTest(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, {
-    lotCode,
-    testedAt: who.value.now,
-    kind: values.kind || undefined,
-    method: values.method,
-    valuePct: readNumber(form, "valuePct"),
-  });
+  const result = await recordLabTest(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    {
+      lotCode,
+      testedAt: who.value.now,
+      kind: values.kind || undefined,
+      method: values.method,
+      valuePct: readNumber(form, "valuePct"),
+    },
+  );
   if (!result.ok) return refused(prev, values, result.issues, LAB_TEST_FIELDS);
-  await screenAfterRecord(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { lotCodes: [lotCode] });
+  await screenAfterRecord(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    { lotCodes: [lotCode] },
+  );
   paths(lotCode);
-  return { status: "saved", message: `Result saved: ${(values.kind ?? "").toLowerCase()} ${values.valuePct ?? ""} %.`, values: { ...values, valuePct: "" }, errors: {}, seq: prev.seq + 1 };
+  return {
+    status: "saved",
+    message: `Result saved: ${(values.kind ?? "").toLowerCase()} ${values.valuePct ?? ""} %.`,
+    values: { ...values, valuePct: "" },
+    errors: {},
+    seq: prev.seq + 1,
+  };
 }
 
 export async function decideLotAction(prev: FormState, form: FormData): Promise<FormState> {
@@ -66,11 +89,21 @@ export async function decideLotAction(prev: FormState, form: FormData): Promise<
   const lotCode = readText(form, "lotCode");
   const who = await requireRole(["PRODUCTION"]);
   if (!who.ok) return refused(prev, values, who.issues, ["status"]);
-  const result = await decideLot(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, { lotCode, status: values.status || undefined });
+  const result = await decideLot(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    { lotCode, status: values.status || undefined },
+  );
   if (!result.ok) {
     const state = refused(prev, values, result.issues, ["status"]);
     return { ...state, message: state.errors.status ?? state.message };
   }
   paths(lotCode);
-  return { status: "saved", message: `Lot ${result.value.code} ${result.value.status === "ACCEPTED" ? "accepted for production" : "rejected"}.`, values, errors: {}, seq: prev.seq + 1 };
+  return {
+    status: "saved",
+    message: `Lot ${result.value.code} ${result.value.status === "ACCEPTED" ? "accepted for production" : "rejected"}.`,
+    values,
+    errors: {},
+    seq: prev.seq + 1,
+  };
 }

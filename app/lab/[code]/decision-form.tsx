@@ -28,7 +28,10 @@ export function DecisionForm({ lotCode, titrations }: { lotCode: string; titrati
         </button>
       </div>
       {state.message ? (
-        <p className={state.status === "saved" ? "form-ok" : "form-error"} role={state.status === "saved" ? "status" : "alert"}>
+        <p
+          className={state.status === "saved" ? "form-ok" : "form-error"}
+          role={state.status === "saved" ? "status" : "alert"}
+        >
           {state.message}
         </p>
       ) : null}

@@ -22,7 +22,11 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
   return { title: `Lab: lot ${codeParam((await params).code)}` };
 }
 
-const TEST_LABEL: Record<string, string> = { WATER: "Water", INSOLUBLES: "Insolubles", UNSAPONIFIABLES: "Unsaponifiables" };
+const TEST_LABEL: Record<string, string> = {
+  WATER: "Water",
+  INSOLUBLES: "Insolubles",
+  UNSAPONIFIABLES: "Unsaponifiables",
+};
 
 export default async function LabLotPage({ params }: Props) {
   const { db, site, user } = await loadSite();
@@ -32,8 +36,13 @@ export default async function LabLotPage({ params }: Props) {
   const tz = site.timeZone;
   const valid = lot.titrations.filter((t) => !t.voided);
   const bases = [...new Set(valid.map((t) => t.basis))];
-  const summaries = bases.map((basis) => ({ basis, summary: summariseReplicates(valid.filter((t) => t.basis === basis).map((t) => t.ffaPct)) }));
-  const mean = combineFfaReadings(valid.map((t) => ({ ffaPct: t.ffaPct, basis: toFfaBasis(t.basis), acidValueMgKohG: t.acidValue })));
+  const summaries = bases.map((basis) => ({
+    basis,
+    summary: summariseReplicates(valid.filter((t) => t.basis === basis).map((t) => t.ffaPct)),
+  }));
+  const mean = combineFfaReadings(
+    valid.map((t) => ({ ffaPct: t.ffaPct, basis: toFfaBasis(t.basis), acidValueMgKohG: t.acidValue })),
+  );
   const canWrite = user.role === "PRODUCTION";
   const open = lot.status === "QUARANTINED" || lot.status === "ACCEPTED";
   const latestWater = [...lot.labTests].reverse().find((t) => !t.voided && t.kind === "WATER");
@@ -49,7 +58,12 @@ export default async function LabLotPage({ params }: Props) {
           ["Status", <Status key="s" code={lot.status} />],
           ["Received", when(lot.receivedAt, tz)],
           ["Mass received", kg(lot.massG, 1)],
-          ["FFA (mean of valid titrations)", mean.ok ? `${ffa(mean.value.ffaPct, mean.value.basis)} (acid value ${num(mean.value.acidValueMgKohG, 2)} mg KOH/g)` : "not titrated yet"],
+          [
+            "FFA (mean of valid titrations)",
+            mean.ok
+              ? `${ffa(mean.value.ffaPct, mean.value.basis)} (acid value ${num(mean.value.acidValueMgKohG, 2)} mg KOH/g)`
+              : "not titrated yet",
+          ],
           ["Water (latest)", latestWater ? pct(latestWater.valuePct) : "not tested yet"],
         ]}
       />
@@ -68,14 +82,26 @@ export default async function LabLotPage({ params }: Props) {
                 <tr>
                   <th scope="col">Tested</th>
                   <th scope="col">Analyst</th>
-                  <th scope="col" className="num">Sample</th>
+                  <th scope="col" className="num">
+                    Sample
+                  </th>
                   <th scope="col">Titrant</th>
-                  <th scope="col" className="num">Strength</th>
-                  <th scope="col" className="num">Titre</th>
-                  <th scope="col" className="num">Blank</th>
+                  <th scope="col" className="num">
+                    Strength
+                  </th>
+                  <th scope="col" className="num">
+                    Titre
+                  </th>
+                  <th scope="col" className="num">
+                    Blank
+                  </th>
                   <th scope="col">FFA as</th>
-                  <th scope="col" className="num">FFA</th>
-                  <th scope="col" className="num">Acid value</th>
+                  <th scope="col" className="num">
+                    FFA
+                  </th>
+                  <th scope="col" className="num">
+                    Acid value
+                  </th>
                   {canWrite ? <th scope="col">Correct</th> : null}
                 </tr>
               </thead>
@@ -105,16 +131,18 @@ export default async function LabLotPage({ params }: Props) {
           {summaries.map(({ basis, summary }) =>
             summary.ok && summary.value.n > 1 ? (
               <p key={basis} className={summary.value.exceedsRepeatability ? "warning" : "note"}>
-                {summary.value.n} replicates as {basis.toLowerCase()}: mean {num(summary.value.mean, 2)} %, spread {num(summary.value.spread, 2)} (allowed{" "}
-                {num(summary.value.allowedSpread, 2)}).{" "}
-                {summary.value.exceedsRepeatability ? "The replicates disagree more than allowed: titrate again." : "Within the repeatability allowance."}
+                {summary.value.n} replicates as {basis.toLowerCase()}: mean {num(summary.value.mean, 2)} %, spread{" "}
+                {num(summary.value.spread, 2)} (allowed {num(summary.value.allowedSpread, 2)}).{" "}
+                {summary.value.exceedsRepeatability
+                  ? "The replicates disagree more than allowed: titrate again."
+                  : "Within the repeatability allowance."}
               </p>
             ) : null,
           )}
           {bases.length > 1 ? (
             <Note>
-              The titrations name different fatty acids, so each is converted to its acid value before the mean is taken; the mean is shown as oleic, and the recipe
-              neutralises the same moles of acid.
+              The titrations name different fatty acids, so each is converted to its acid value before the mean is
+              taken; the mean is shown as oleic, and the recipe neutralises the same moles of acid.
             </Note>
           ) : null}
         </>
@@ -122,8 +150,12 @@ export default async function LabLotPage({ params }: Props) {
 
       {lot.titrations.length + lot.labTests.length > valid.length + lot.labTests.filter((t) => !t.voided).length ? (
         <p className="note">
-          {lot.titrations.length - valid.length + lot.labTests.filter((t) => t.voided).length} voided result(s) are kept on record and no longer count;{" "}
-          <Link href={`/history?${new URLSearchParams({ kind: "lot", key: lot.code }).toString()}`}>see the lot&apos;s history</Link>.
+          {lot.titrations.length - valid.length + lot.labTests.filter((t) => t.voided).length} voided result(s) are kept
+          on record and no longer count;{" "}
+          <Link href={`/history?${new URLSearchParams({ kind: "lot", key: lot.code }).toString()}`}>
+            see the lot&apos;s history
+          </Link>
+          .
         </p>
       ) : null}
       {canWrite && open ? (
@@ -146,7 +178,9 @@ export default async function LabLotPage({ params }: Props) {
                 <th scope="col">Test</th>
                 <th scope="col">Method</th>
                 <th scope="col">Analyst</th>
-                <th scope="col" className="num">Result</th>
+                <th scope="col" className="num">
+                  Result
+                </th>
                 {canWrite ? <th scope="col">Correct</th> : null}
               </tr>
             </thead>
@@ -189,7 +223,9 @@ export default async function LabLotPage({ params }: Props) {
       ) : (
         <Note>Only production staff record lab results and accept or reject lots; this page is read-only for you.</Note>
       )}
-      {!canWrite && lot.status !== "QUARANTINED" ? <Note>Only production staff record lab results; this page is read-only for you.</Note> : null}
+      {!canWrite && lot.status !== "QUARANTINED" ? (
+        <Note>Only production staff record lab results; this page is read-only for you.</Note>
+      ) : null}
     </>
   );
 }

@@ -18,9 +18,20 @@ import type { FormState } from "@/app/_ui/kit/form-state";
 
 type Values = Record<"sampleMassG" | "titrant" | "concentrationMolL" | "titreMl" | "blankMl" | "basis", string>;
 
-const START: Values = { sampleMassG: "", titrant: "NAOH", concentrationMolL: "", titreMl: "", blankMl: "0", basis: "OLEIC" };
+const START: Values = {
+  sampleMassG: "",
+  titrant: "NAOH",
+  concentrationMolL: "",
+  titreMl: "",
+  blankMl: "0",
+  basis: "OLEIC",
+};
 
-const BASIS_LABEL: Record<FfaBasis, string> = { OLEIC: "Oleic acid", PALMITIC: "Palmitic acid (palm oil)", LAURIC: "Lauric acid (coconut, palm kernel)" };
+const BASIS_LABEL: Record<FfaBasis, string> = {
+  OLEIC: "Oleic acid",
+  PALMITIC: "Palmitic acid (palm oil)",
+  LAURIC: "Lauric acid (coconut, palm kernel)",
+};
 
 function f(n: number, d: number): string {
   return formatFixed(n, d);
@@ -28,17 +39,39 @@ function f(n: number, d: number): string {
 
 /** The same pure functions the server uses, run as the analyst types. */
 function computeLive(v: Values, recorded: ReadonlyArray<{ basis: string; ffaPct: number }>) {
-  const input = { sampleMassG: toNumber(v.sampleMassG), concentrationMolL: toNumber(v.concentrationMolL), titreMl: toNumber(v.titreMl), blankMl: toNumber(v.blankMl) ?? 0 };
-  if (input.sampleMassG === undefined || input.concentrationMolL === undefined || input.titreMl === undefined) return { kind: "incomplete" as const };
+  const input = {
+    sampleMassG: toNumber(v.sampleMassG),
+    concentrationMolL: toNumber(v.concentrationMolL),
+    titreMl: toNumber(v.titreMl),
+    blankMl: toNumber(v.blankMl) ?? 0,
+  };
+  if (input.sampleMassG === undefined || input.concentrationMolL === undefined || input.titreMl === undefined)
+    return { kind: "incomplete" as const };
   const basis = (FFA_BASES as readonly string[]).includes(v.basis) ? (v.basis as FfaBasis) : "OLEIC";
-  const t = { sampleMassG: input.sampleMassG, concentrationMolL: input.concentrationMolL, titreMl: input.titreMl, blankMl: input.blankMl };
+  const t = {
+    sampleMassG: input.sampleMassG,
+    concentrationMolL: input.concentrationMolL,
+    titreMl: input.titreMl,
+    blankMl: input.blankMl,
+  };
   const ffa = calculateFfaPercent(t, { basis });
   const av = calculateAcidValue(t);
-  if (!ffa.ok || !av.ok) return { kind: "invalid" as const, messages: [...(ffa.ok ? [] : ffa.issues), ...(av.ok ? [] : av.issues)].map((i) => i.message) };
+  if (!ffa.ok || !av.ok)
+    return {
+      kind: "invalid" as const,
+      messages: [...(ffa.ok ? [] : ffa.issues), ...(av.ok ? [] : av.issues)].map((i) => i.message),
+    };
   const same = recorded.filter((r) => r.basis === basis).map((r) => r.ffaPct);
   const reps = summariseReplicates([...same, ffa.value.ffaPct]);
   const avFromFfa = acidValueFromFfa(ffa.value.ffaPct, { basis });
-  return { kind: "ok" as const, ffa: ffa.value, av: av.value, reps: reps.ok ? reps.value : null, previous: same.length, avFromFfa: avFromFfa.ok ? avFromFfa.value : null };
+  return {
+    kind: "ok" as const,
+    ffa: ffa.value,
+    av: av.value,
+    reps: reps.ok ? reps.value : null,
+    previous: same.length,
+    avFromFfa: avFromFfa.ok ? avFromFfa.value : null,
+  };
 }
 
 function FieldError({ id, message }: { id: string; message: string | undefined }) {
@@ -49,7 +82,13 @@ function FieldError({ id, message }: { id: string; message: string | undefined }
   ) : null;
 }
 
-export function TitrationForm({ lotCode, recorded }: { lotCode: string; recorded: ReadonlyArray<{ basis: string; ffaPct: number }> }) {
+export function TitrationForm({
+  lotCode,
+  recorded,
+}: {
+  lotCode: string;
+  recorded: ReadonlyArray<{ basis: string; ffaPct: number }>;
+}) {
   const [state, action, pending] = useActionState<FormState, FormData>(recordTitrationAction, IDLE);
   const [values, setValues] = useState<Values>(START);
   const [expected, setExpected] = useState("");
@@ -58,12 +97,16 @@ export function TitrationForm({ lotCode, recorded }: { lotCode: string; recorded
     if (state.seq > 0) setValues((v) => ({ ...v, ...state.values }));
   }, [state]);
 
-  const set = (name: keyof Values) => (e: { target: { value: string } }) => setValues((v) => ({ ...v, [name]: e.target.value }));
+  const set = (name: keyof Values) => (e: { target: { value: string } }) =>
+    setValues((v) => ({ ...v, [name]: e.target.value }));
   const live = computeLive(values, recorded);
   const expectedPct = toNumber(expected);
   const suggestion = expectedPct === undefined ? null : suggestSampleSize(expectedPct);
   const err = (name: keyof Values) => (state.status === "refused" ? state.errors[name] : undefined);
-  const aria = (name: keyof Values) => ({ "aria-invalid": err(name) ? true : undefined, "aria-describedby": err(name) ? `t-${name}-err` : undefined });
+  const aria = (name: keyof Values) => ({
+    "aria-invalid": err(name) ? true : undefined,
+    "aria-describedby": err(name) ? `t-${name}-err` : undefined,
+  });
 
   return (
     // Submitted through a transition rather than the form's action, so React does not reset the
@@ -83,7 +126,14 @@ export function TitrationForm({ lotCode, recorded }: { lotCode: string; recorded
         <div className="field">
           <label>
             Sample mass (g)
-            <input name="sampleMassG" inputMode="decimal" autoComplete="off" value={values.sampleMassG} onChange={set("sampleMassG")} {...aria("sampleMassG")} />
+            <input
+              name="sampleMassG"
+              inputMode="decimal"
+              autoComplete="off"
+              value={values.sampleMassG}
+              onChange={set("sampleMassG")}
+              {...aria("sampleMassG")}
+            />
           </label>
           <FieldError id="t-sampleMassG-err" message={err("sampleMassG")} />
         </div>
@@ -100,21 +150,42 @@ export function TitrationForm({ lotCode, recorded }: { lotCode: string; recorded
         <div className="field">
           <label>
             Titrant concentration (mol/L)
-            <input name="concentrationMolL" inputMode="decimal" autoComplete="off" value={values.concentrationMolL} onChange={set("concentrationMolL")} {...aria("concentrationMolL")} />
+            <input
+              name="concentrationMolL"
+              inputMode="decimal"
+              autoComplete="off"
+              value={values.concentrationMolL}
+              onChange={set("concentrationMolL")}
+              {...aria("concentrationMolL")}
+            />
           </label>
           <FieldError id="t-concentrationMolL-err" message={err("concentrationMolL")} />
         </div>
         <div className="field">
           <label>
             Titre (mL)
-            <input name="titreMl" inputMode="decimal" autoComplete="off" value={values.titreMl} onChange={set("titreMl")} {...aria("titreMl")} />
+            <input
+              name="titreMl"
+              inputMode="decimal"
+              autoComplete="off"
+              value={values.titreMl}
+              onChange={set("titreMl")}
+              {...aria("titreMl")}
+            />
           </label>
           <FieldError id="t-titreMl-err" message={err("titreMl")} />
         </div>
         <div className="field">
           <label>
             Blank (mL)
-            <input name="blankMl" inputMode="decimal" autoComplete="off" value={values.blankMl} onChange={set("blankMl")} {...aria("blankMl")} />
+            <input
+              name="blankMl"
+              inputMode="decimal"
+              autoComplete="off"
+              value={values.blankMl}
+              onChange={set("blankMl")}
+              {...aria("blankMl")}
+            />
           </label>
           <FieldError id="t-blankMl-err" message={err("blankMl")} />
         </div>
@@ -157,16 +228,23 @@ export function TitrationForm({ lotCode, recorded }: { lotCode: string; recorded
                 <div>
                   <dt>With the {live.previous} recorded</dt>
                   <dd>
-                    mean {f(live.reps.mean, 2)} %, spread {f(live.reps.spread, 2)} (allowed {f(live.reps.allowedSpread, 2)}){" "}
-                    {live.reps.exceedsRepeatability ? <span className="status status-fail">repeat the titration</span> : <span className="status status-pass">repeatable</span>}
+                    mean {f(live.reps.mean, 2)} %, spread {f(live.reps.spread, 2)} (allowed{" "}
+                    {f(live.reps.allowedSpread, 2)}){" "}
+                    {live.reps.exceedsRepeatability ? (
+                      <span className="status status-fail">repeat the titration</span>
+                    ) : (
+                      <span className="status status-pass">repeatable</span>
+                    )}
                   </dd>
                 </div>
               ) : null}
             </dl>
             <p className="note">
-              FFA = (titre − blank) × concentration × {f(live.ffa.factor, 1)} / sample mass (AOCS Ca 5a-40); acid value = 56.1 × (titre − blank) × concentration / sample
-              mass (EN 14104). From the FFA the acid value is {live.avFromFfa === null ? "—" : f(live.avFromFfa, 2)} mg KOH/g by molar masses
-              {values.basis === "OLEIC" ? ` (the method's note: × ${CA5A40_AV_PER_FFA_OLEIC.value})` : ""}. Repeatability: {DEFAULT_FFA_REPEATABILITY.source}.
+              FFA = (titre − blank) × concentration × {f(live.ffa.factor, 1)} / sample mass (AOCS Ca 5a-40); acid value
+              = 56.1 × (titre − blank) × concentration / sample mass (EN 14104). From the FFA the acid value is{" "}
+              {live.avFromFfa === null ? "—" : f(live.avFromFfa, 2)} mg KOH/g by molar masses
+              {values.basis === "OLEIC" ? ` (the method's note: × ${CA5A40_AV_PER_FFA_OLEIC.value})` : ""}.
+              Repeatability: {DEFAULT_FFA_REPEATABILITY.source}.
             </p>
           </>
         )}
@@ -180,14 +258,20 @@ export function TitrationForm({ lotCode, recorded }: { lotCode: string; recorded
         </label>
         {suggestion === null ? null : suggestion.ok ? (
           <p>
-            Weigh {suggestion.value.row.sampleMassG} ± {suggestion.value.row.sampleToleranceG} g into {suggestion.value.row.alcoholMl} mL neutralised alcohol; titrate with{" "}
-            {suggestion.value.row.concentrationsMolL.join(" or ")} mol/L (each mL ≈ {suggestion.value.ffaPctPerMl.map((x) => f(x, 2)).join(" or ")} % FFA as oleic).{" "}
+            Weigh {suggestion.value.row.sampleMassG} ± {suggestion.value.row.sampleToleranceG} g into{" "}
+            {suggestion.value.row.alcoholMl} mL neutralised alcohol; titrate with{" "}
+            {suggestion.value.row.concentrationsMolL.join(" or ")} mol/L (each mL ≈{" "}
+            {suggestion.value.ffaPctPerMl.map((x) => f(x, 2)).join(" or ")} % FFA as oleic).{" "}
             <button
               type="button"
               className="secondary"
               onClick={() => {
                 const row = suggestion.value.row;
-                setValues((v) => ({ ...v, sampleMassG: String(row.sampleMassG), concentrationMolL: String(row.concentrationsMolL[0] ?? "") }));
+                setValues((v) => ({
+                  ...v,
+                  sampleMassG: String(row.sampleMassG),
+                  concentrationMolL: String(row.concentrationsMolL[0] ?? ""),
+                }));
               }}
             >
               Use this sample mass and concentration
@@ -200,7 +284,10 @@ export function TitrationForm({ lotCode, recorded }: { lotCode: string; recorded
       </details>
 
       {state.message ? (
-        <p className={state.status === "saved" ? "form-ok" : "form-error"} role={state.status === "saved" ? "status" : "alert"}>
+        <p
+          className={state.status === "saved" ? "form-ok" : "form-error"}
+          role={state.status === "saved" ? "status" : "alert"}
+        >
           {state.message}
         </p>
       ) : null}

@@ -27,7 +27,11 @@ export default async function FindPage({ searchParams }: { searchParams: Promise
     <>
       <h1>No record with that number</h1>
       <p className="form-error" role="alert">
-        {typed.trim() === "" ? "Number on the label: type the number printed on it." : valid ? `Nothing at this site has the number ${code}.` : `Number on the label: ${typed.trim()} is not a lot, pickup or container number.`}
+        {typed.trim() === ""
+          ? "Number on the label: type the number printed on it."
+          : valid
+            ? `Nothing at this site has the number ${code}.`
+            : `Number on the label: ${typed.trim()} is not a lot, pickup or container number.`}
       </p>
       <form method="get" action="/labels/find" className="sign-in">
         <label>
@@ -39,7 +43,8 @@ export default async function FindPage({ searchParams }: { searchParams: Promise
       <p>
         {valid ? (
           <>
-            <Link href={`/labels/container/${encodeURIComponent(code)}`}>Open {code} as a new container label</Link> ·{" "}
+            <Link href={`/labels/container/${encodeURIComponent(code)}`}>Open {code} as a new container label</Link>{" "}
+            ·{" "}
           </>
         ) : null}
         <Link href="/labels/scan">Scan again</Link>

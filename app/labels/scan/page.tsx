@@ -15,7 +15,13 @@ export default async function ScanPage() {
       <form method="get" action="/labels/find" className="sign-in">
         <label>
           Number on the label
-          <input name="number" autoCapitalize="characters" autoComplete="off" required placeholder="e.g. L-0042, (10)L-0042, C-0012 or PU-00017" />
+          <input
+            name="number"
+            autoCapitalize="characters"
+            autoComplete="off"
+            required
+            placeholder="e.g. L-0042, (10)L-0042, C-0012 or PU-00017"
+          />
         </label>
         <button type="submit">Open the record</button>
       </form>

@@ -64,7 +64,9 @@ export function Scanner() {
       };
       void tick();
     } catch (e) {
-      setMessage(`The camera could not be opened (${e instanceof Error ? e.message : String(e)}). Type the number instead.`);
+      setMessage(
+        `The camera could not be opened (${e instanceof Error ? e.message : String(e)}). Type the number instead.`,
+      );
       stop();
     }
   }

@@ -5,7 +5,12 @@ import type { LotDetail, LotFlow } from "@/lib/feedstock/lot-detail.store";
 import { reportTime } from "@/lib/report/report";
 import type { ReportContext, ReportDoc, ReportTable } from "@/lib/report/report";
 
-export function buildLotHistoryDoc(lot: LotDetail, flow: LotFlow, ctx: ReportContext, ledger: ReportDoc["ledger"]): ReportDoc {
+export function buildLotHistoryDoc(
+  lot: LotDetail,
+  flow: LotFlow,
+  ctx: ReportContext,
+  ledger: ReportDoc["ledger"],
+): ReportDoc {
   const pickups: ReportTable = {
     key: "pickups",
     heading: "Pickups received into the lot",
@@ -16,8 +21,20 @@ export function buildLotHistoryDoc(lot: LotDetail, flow: LotFlow, ctx: ReportCon
       { key: "volume_l", header: "Volume (L)", kind: "text" },
       { key: "mass", header: "Mass (estimate)", kind: "mass" },
     ],
-    rows: lot.pickups.map((p) => [p.code, `${p.sourceCode} ${p.sourceName}`, p.observedAt, (p.volumeMl / 1000).toFixed(1), p.massG]),
-    total: ["TOTAL", null, null, (lot.pickups.reduce((s, p) => s + p.volumeMl, 0) / 1000).toFixed(1), lot.pickups.reduce((s, p) => s + p.massG, 0)],
+    rows: lot.pickups.map((p) => [
+      p.code,
+      `${p.sourceCode} ${p.sourceName}`,
+      p.observedAt,
+      (p.volumeMl / 1000).toFixed(1),
+      p.massG,
+    ]),
+    total: [
+      "TOTAL",
+      null,
+      null,
+      (lot.pickups.reduce((s, p) => s + p.volumeMl, 0) / 1000).toFixed(1),
+      lot.pickups.reduce((s, p) => s + p.massG, 0),
+    ],
     empty: lot.origin === "DELIVERY" ? "Delivered, not from pickups." : "No pickups.",
   };
   const lab: ReportTable = {
@@ -31,8 +48,20 @@ export function buildLotHistoryDoc(lot: LotDetail, flow: LotFlow, ctx: ReportCon
       { key: "state", header: "State", kind: "text" },
     ],
     rows: [
-      ...lot.titrations.map((t) => [t.testedAt, "FFA by titration", `${t.ffaPct.toFixed(2)} % FFA (acid value ${t.acidValue.toFixed(2)} mg KOH/g)`, t.analyst, t.voided ? "voided" : "valid"]),
-      ...lot.labTests.map((t) => [t.testedAt, `${labelOf(t.kind)} (${t.method})`, `${t.valuePct.toFixed(2)} %`, t.analyst, t.voided ? "voided" : "valid"]),
+      ...lot.titrations.map((t) => [
+        t.testedAt,
+        "FFA by titration",
+        `${t.ffaPct.toFixed(2)} % FFA (acid value ${t.acidValue.toFixed(2)} mg KOH/g)`,
+        t.analyst,
+        t.voided ? "voided" : "valid",
+      ]),
+      ...lot.labTests.map((t) => [
+        t.testedAt,
+        `${labelOf(t.kind)} (${t.method})`,
+        `${t.valuePct.toFixed(2)} %`,
+        t.analyst,
+        t.voided ? "voided" : "valid",
+      ]),
     ],
     empty: "No lab result recorded.",
   };
@@ -60,13 +89,26 @@ export function buildLotHistoryDoc(lot: LotDetail, flow: LotFlow, ctx: ReportCon
     ledger,
     facts: [
       ["Status", labelOf(lot.status)],
-      ["Came from", lot.origin === "DELIVERY" ? `Delivery ${lot.deliveryDocument ?? ""} from ${lot.supplier ? `${lot.supplier.code} ${lot.supplier.name}` : "a supplier"}` : `${lot.pickups.length} pickups`],
+      [
+        "Came from",
+        lot.origin === "DELIVERY"
+          ? `Delivery ${lot.deliveryDocument ?? ""} from ${lot.supplier ? `${lot.supplier.code} ${lot.supplier.name}` : "a supplier"}`
+          : `${lot.pickups.length} pickups`,
+      ],
       ["Certified material", lot.certified ? "yes" : "no"],
       ["Mass received", `${(lot.massG / 1000).toFixed(3)} kg`],
       ["Book stock now", `${(lot.stockG / 1000).toFixed(3)} kg`],
-      ["Of it still in the lot", `${(flow.stillInLotG / 1000).toFixed(3)} kg of ${(flow.enteredG / 1000).toFixed(3)} kg that entered`],
+      [
+        "Of it still in the lot",
+        `${(flow.stillInLotG / 1000).toFixed(3)} kg of ${(flow.enteredG / 1000).toFixed(3)} kg that entered`,
+      ],
     ],
-    notes: flow.method === "trace" ? [] : [`Where it went is ${flow.method === "booking-order" ? "replayed in booking order" : "every later movement out of a place it reached"}: ${flow.traceProblem ?? ""}`],
+    notes:
+      flow.method === "trace"
+        ? []
+        : [
+            `Where it went is ${flow.method === "booking-order" ? "replayed in booking order" : "every later movement out of a place it reached"}: ${flow.traceProblem ?? ""}`,
+          ],
     cautions: [],
     tables: [pickups, lab, went],
   };

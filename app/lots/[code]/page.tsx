@@ -45,7 +45,11 @@ export default async function LotPage({ params }: Props) {
             lot.origin === "DELIVERY" ? (
               <>
                 Delivery {lot.deliveryDocument ?? ""} from{" "}
-                {lot.supplier ? <Link href={`/sources/${encodeURIComponent(lot.supplier.code)}`}>{lot.supplier.name}</Link> : "a supplier"}
+                {lot.supplier ? (
+                  <Link href={`/sources/${encodeURIComponent(lot.supplier.code)}`}>{lot.supplier.name}</Link>
+                ) : (
+                  "a supplier"
+                )}
               </>
             ) : (
               `${lot.pickups.length} pickup${lot.pickups.length === 1 ? "" : "s"}`
@@ -54,14 +58,27 @@ export default async function LotPage({ params }: Props) {
           ["Certified material", lot.certified ? "Yes" : "No"],
           ["Mass received", kg(lot.massG, 3)],
           ["Book stock now", kg(lot.stockG, 3)],
-          ["FFA (mean of titrations)", ffa.length ? pct(ffa.reduce((s, t) => s + t.ffaPct, 0) / ffa.length) : "not titrated yet"],
+          [
+            "FFA (mean of titrations)",
+            ffa.length ? pct(ffa.reduce((s, t) => s + t.ffaPct, 0) / ffa.length) : "not titrated yet",
+          ],
         ]}
       />
       {lot.notes ? <p>Notes: {lot.notes}</p> : null}
       <TraceThis kind="LOT" code={lot.code} role={user.role} />
-      <ReportLinks base={`/lots/${encodeURIComponent(lot.code)}/report`} pdfLabel="Lot history" tables={[["pickups", "Pickups"], ["lab", "Lab results"], ["where-it-went", "Where it went"]]} />
+      <ReportLinks
+        base={`/lots/${encodeURIComponent(lot.code)}/report`}
+        pdfLabel="Lot history"
+        tables={[
+          ["pickups", "Pickups"],
+          ["lab", "Lab results"],
+          ["where-it-went", "Where it went"],
+        ]}
+      />
       <p>
-        <Link href={`/lab/${encodeURIComponent(lot.code)}`}>{lot.status === "QUARANTINED" ? "Record lab results and decide" : "Lab results"}</Link>
+        <Link href={`/lab/${encodeURIComponent(lot.code)}`}>
+          {lot.status === "QUARANTINED" ? "Record lab results and decide" : "Lab results"}
+        </Link>
       </p>
 
       <MoveLotSection db={db} site={site} user={user} lot={lot} />
@@ -194,7 +211,8 @@ export default async function LotPage({ params }: Props) {
                       </td>
                       <td className="nowrap">{when(p.observedAt, tz)}</td>
                       <td>
-                        <Link href={`/sources/${encodeURIComponent(p.sourceCode)}`}>{p.sourceCode}</Link> <span className="muted">{p.sourceName}</span>
+                        <Link href={`/sources/${encodeURIComponent(p.sourceCode)}`}>{p.sourceCode}</Link>{" "}
+                        <span className="muted">{p.sourceName}</span>
                       </td>
                       <td className="num">{litres(p.volumeMl)}</td>
                       <td className="num">{kg(p.massG)}</td>
@@ -279,25 +297,30 @@ function WhereItWent({ flow, lotCode, timeZone }: { flow: LotFlow; lotCode: stri
       <h2 id="went-h">{traced ? "Where it went" : "Where it went: possible destinations (time-ordered flow)"}</h2>
       {traced ? (
         <Note>
-          Kilograms of this lot&apos;s material reaching each place, found by replaying the movement ledger: a tank mixes what it holds
-          (or hands it on first in, first out where so set), so a batch drawn from a tank carries its share of every lot in it, and a
-          batch&apos;s outputs carry the batch&apos;s shares.
-          {flow.reversedPairsLeftOut > 0 ? ` ${flow.reversedPairsLeftOut} reversed movements (booking corrections) are left out.` : ""}
+          Kilograms of this lot&apos;s material reaching each place, found by replaying the movement ledger: a tank
+          mixes what it holds (or hands it on first in, first out where so set), so a batch drawn from a tank carries
+          its share of every lot in it, and a batch&apos;s outputs carry the batch&apos;s shares.
+          {flow.reversedPairsLeftOut > 0
+            ? ` ${flow.reversedPairsLeftOut} reversed movements (booking corrections) are left out.`
+            : ""}
         </Note>
       ) : (
         <p className="warning">
-          The ledger could not be replayed ({flow.traceProblem}). Listed instead: every movement out of a place after material from this
-          lot first arrived there. It may over-state where the lot went; masses are whole movements, not this lot&apos;s share.
+          The ledger could not be replayed ({flow.traceProblem}). Listed instead: every movement out of a place after
+          material from this lot first arrived there. It may over-state where the lot went; masses are whole movements,
+          not this lot&apos;s share.
         </p>
       )}
       {flow.method === "booking-order" ? (
         <p className="warning">
-          Replayed in the order the movements were booked, not by their dates: by date, the books do not balance ({flow.traceProblem}).
-          Book stock was checked in booking order, so this order gives consistent shares; the dates shown are the movements&apos; own.
+          Replayed in the order the movements were booked, not by their dates: by date, the books do not balance (
+          {flow.traceProblem}). Book stock was checked in booking order, so this order gives consistent shares; the
+          dates shown are the movements&apos; own.
         </p>
       ) : null}
       <p>
-        Entered lot {lotCode}: <strong>{kg(flow.enteredG)}</strong>. Still in the lot: <strong>{kg(flow.stillInLotG)}</strong>.
+        Entered lot {lotCode}: <strong>{kg(flow.enteredG)}</strong>. Still in the lot:{" "}
+        <strong>{kg(flow.stillInLotG)}</strong>.
       </p>
       {flow.destinations.length === 0 ? (
         <Empty>Nothing has left this lot yet.</Empty>
@@ -379,7 +402,8 @@ function WhereItWent({ flow, lotCode, timeZone }: { flow: LotFlow; lotCode: stri
           </div>
           {moves.length < flow.movesTotal ? (
             <Note>
-              The first {moves.length} of {flow.movesTotal} movements are shown; the <Link href="/ledger">ledger</Link> has them all.
+              The first {moves.length} of {flow.movesTotal} movements are shown; the <Link href="/ledger">ledger</Link>{" "}
+              has them all.
             </Note>
           ) : null}
         </>

@@ -13,14 +13,36 @@ export default async function OwnPasswordPage() {
     <>
       <h1>{user.mustChangePassword ? "Choose your own password" : "Change your password"}</h1>
       {user.mustChangePassword ? (
-        <p className="lede">The password you signed in with was set by an administrator and is for the first sign-in only. Choose one that only you know; the rest of the application opens once it is saved.</p>
+        <p className="lede">
+          The password you signed in with was set by an administrator and is for the first sign-in only. Choose one that
+          only you know; the rest of the application opens once it is saved.
+        </p>
       ) : (
         <p className="lede">Type your current password, then the new one twice.</p>
       )}
       <ActionForm action={changeOwnPasswordAction} submitLabel="Save my password" label="Your password">
-        <Field name="current" label={user.mustChangePassword ? "Password you were given" : "Current password"} type="password" autoComplete="current-password" maxLength={MAX_PASSWORD_LENGTH} />
-        <Field name="password" label="New password" type="password" autoComplete="new-password" maxLength={MAX_PASSWORD_LENGTH} hint={`At least ${MIN_PASSWORD_LENGTH} characters; a few unrelated words are easy to remember and hard to guess.`} />
-        <Field name="confirm" label="New password again" type="password" autoComplete="new-password" maxLength={MAX_PASSWORD_LENGTH} />
+        <Field
+          name="current"
+          label={user.mustChangePassword ? "Password you were given" : "Current password"}
+          type="password"
+          autoComplete="current-password"
+          maxLength={MAX_PASSWORD_LENGTH}
+        />
+        <Field
+          name="password"
+          label="New password"
+          type="password"
+          autoComplete="new-password"
+          maxLength={MAX_PASSWORD_LENGTH}
+          hint={`At least ${MIN_PASSWORD_LENGTH} characters; a few unrelated words are easy to remember and hard to guess.`}
+        />
+        <Field
+          name="confirm"
+          label="New password again"
+          type="password"
+          autoComplete="new-password"
+          maxLength={MAX_PASSWORD_LENGTH}
+        />
       </ActionForm>
     </>
   );

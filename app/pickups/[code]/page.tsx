@@ -65,13 +65,16 @@ export default async function PickupPage({ params }: Props) {
       <h2>Lot</h2>
       {p.lot ? (
         <p>
-          Received into lot <CodeLink href={`/lots/${encodeURIComponent(p.lot.code)}`} code={p.lot.code} /> on {when(p.lot.receivedAt, tz)}{" "}
-          <Status code={p.lot.status} />
+          Received into lot <CodeLink href={`/lots/${encodeURIComponent(p.lot.code)}`} code={p.lot.code} /> on{" "}
+          {when(p.lot.receivedAt, tz)} <Status code={p.lot.status} />
         </p>
       ) : (
         <p className="empty">Not received into a lot yet: the oil is still on the truck or at the source.</p>
       )}
-      <Note>The collector&apos;s observed time comes from the device and may be earlier than the time the record reached the server when the device was offline.</Note>
+      <Note>
+        The collector&apos;s observed time comes from the device and may be earlier than the time the record reached the
+        server when the device was offline.
+      </Note>
     </>
   );
 }

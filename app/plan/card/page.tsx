@@ -32,7 +32,11 @@ export default async function RecipeCardPage({ searchParams }: { searchParams: P
       </div>
     );
   }
-  const proposal = await proposeBatchPlan(db, { siteId: site.id, userId: user.userId, now: user.now }, planRequestFromParams(params));
+  const proposal = await proposeBatchPlan(
+    db,
+    { siteId: site.id, userId: user.userId, now: user.now },
+    planRequestFromParams(params),
+  );
   const issues = proposal.ok ? (proposal.value.outcome.ok ? [] : proposal.value.outcome.issues) : proposal.issues;
   return (
     <div className="recipe-card-page">
@@ -41,7 +45,11 @@ export default async function RecipeCardPage({ searchParams }: { searchParams: P
       {proposal.ok && proposal.value.outcome.ok ? (
         <>
           <PrintButton />
-          <RecipeCardView card={proposal.value.outcome.card} heading={`${site.name} — recipe card`} printedAt={when(user.now, site.timeZone)} />
+          <RecipeCardView
+            card={proposal.value.outcome.card}
+            heading={`${site.name} — recipe card`}
+            printedAt={when(user.now, site.timeZone)}
+          />
         </>
       ) : (
         <ul>

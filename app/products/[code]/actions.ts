@@ -22,7 +22,12 @@ function saved(prev: FormState, message: string, values: Record<string, string> 
   return { status: "saved", message, values, errors: {}, seq: prev.seq + 1 };
 }
 
-const VERDICT_WORDS: Record<string, string> = { PASS: "within limits", FAIL: "OUT OF LIMITS", REPORTED: "recorded (report only)", NOT_JUDGED: "recorded, not judged" };
+const VERDICT_WORDS: Record<string, string> = {
+  PASS: "within limits",
+  FAIL: "OUT OF LIMITS",
+  REPORTED: "recorded (report only)",
+  NOT_JUDGED: "recorded, not judged",
+};
 
 export async function recordQcResultAction(prev: FormState, form: FormData): Promise<FormState> {
   const values = readValues(form, QC_FIELDS);
@@ -44,7 +49,11 @@ export async function recordQcResultAction(prev: FormState, form: FormData): Pro
   paths(code);
   const retest = r.value.supersedesId === null ? "" : " It replaces the earlier result, which stays on record.";
   // Keep the lab, report number and date for the next property of the same report.
-  return saved(prev, `${r.value.property}: ${values.value} saved, ${VERDICT_WORDS[r.value.verdict] ?? labelOf(r.value.verdict)}.${retest}`, { lab: values.lab ?? "", reportNo: values.reportNo ?? "", testedAt: values.testedAt ?? "" });
+  return saved(
+    prev,
+    `${r.value.property}: ${values.value} saved, ${VERDICT_WORDS[r.value.verdict] ?? labelOf(r.value.verdict)}.${retest}`,
+    { lab: values.lab ?? "", reportNo: values.reportNo ?? "", testedAt: values.testedAt ?? "" },
+  );
 }
 
 export async function chooseProductSpecAction(prev: FormState, form: FormData): Promise<FormState> {
@@ -55,7 +64,11 @@ export async function chooseProductSpecAction(prev: FormState, form: FormData): 
   const r = await chooseProductSpec(await getDb(), who.value, { productLotCode: code, specKey: values.specKey });
   if (!r.ok) return refused(prev, values, r.issues, SPEC_FIELDS, (f) => (f === "productLotCode" ? "specKey" : f));
   paths(code);
-  return saved(prev, `Specification changed; results are judged against it now${r.value.releasable ? " and the lot can be released" : ""}.`, values);
+  return saved(
+    prev,
+    `Specification changed; results are judged against it now${r.value.releasable ? " and the lot can be released" : ""}.`,
+    values,
+  );
 }
 
 const DECIDED_WORDS: Record<string, string> = { RELEASED: "released", HELD: "put on hold", REJECTED: "rejected" };
@@ -65,11 +78,18 @@ export async function decideProductLotAction(prev: FormState, form: FormData): P
   const code = readText(form, "productLotCode");
   const who = await requireRole(["COMPLIANCE"]);
   if (!who.ok) return refused(prev, values, who.issues, DECISION_FIELDS);
-  const r = await decideProductLot(await getDb(), who.value, { productLotCode: code, decision: values.decision || undefined, reason: values.reason });
+  const r = await decideProductLot(await getDb(), who.value, {
+    productLotCode: code,
+    decision: values.decision || undefined,
+    reason: values.reason,
+  });
   if (!r.ok) {
     const state = refused(prev, values, r.issues, DECISION_FIELDS, (f) => (f === "productLotCode" ? "decision" : f));
     return { ...state, message: state.errors.decision ?? state.message };
   }
   paths(code);
-  return saved(prev, `Product lot ${r.value.code} ${DECIDED_WORDS[r.value.status] ?? labelOf(r.value.status).toLowerCase()}${r.value.deviation ? " with a deviation" : ""}.`);
+  return saved(
+    prev,
+    `Product lot ${r.value.code} ${DECIDED_WORDS[r.value.status] ?? labelOf(r.value.status).toLowerCase()}${r.value.deviation ? " with a deviation" : ""}.`,
+  );
 }

@@ -15,7 +15,14 @@ import { Empty, HistoryLink, HolderLink, NoSite } from "@/app/_ui/ui";
 import { DataTable, RecordHeader } from "@/app/_ui/kit";
 import type { Column } from "@/app/_ui/kit";
 import type { MovementView } from "@/lib/ledger/movement.store";
-import { DecisionForm, QcEntryForm, ReleaseCheck, ResultHistory, SpecChoiceForm, SpecResults } from "@/app/products/[code]/qc-sections";
+import {
+  DecisionForm,
+  QcEntryForm,
+  ReleaseCheck,
+  ResultHistory,
+  SpecChoiceForm,
+  SpecResults,
+} from "@/app/products/[code]/qc-sections";
 
 export const dynamic = "force-dynamic";
 
@@ -47,10 +54,14 @@ function transferColumns(tz: string): Array<Column<MovementView>> {
   ];
 }
 
-function decisionFacts(p: { status: string; deviation: boolean; decisionReason: string; decidedBy: string | null; decidedAt: Date | null }, tz: string): Array<readonly [string, React.ReactNode]> {
+function decisionFacts(
+  p: { status: string; deviation: boolean; decisionReason: string; decidedBy: string | null; decidedAt: Date | null },
+  tz: string,
+): Array<readonly [string, React.ReactNode]> {
   const out: Array<readonly [string, React.ReactNode]> = [];
   if (p.decidedAt) out.push(["Decided", `${when(p.decidedAt, tz)}${p.decidedBy ? `, ${p.decidedBy}` : ""}`]);
-  if (p.decisionReason) out.push([p.deviation && p.status === "RELEASED" ? "Deviation accepted" : "Reason", p.decisionReason]);
+  if (p.decisionReason)
+    out.push([p.deviation && p.status === "RELEASED" ? "Deviation accepted" : "Reason", p.decisionReason]);
   return out;
 }
 
@@ -61,7 +72,9 @@ export default async function ProductLotPage({ params }: Props) {
   if (!qc) notFound();
   const { detail: p, spec, certificate: c } = qc;
   const [madeOf, specChoices] = await Promise.all([
-    p.incoming.length > 0 ? getMadeOf(db, site.id, p.holderId, user.now) : Promise.resolve({ totalG: 0, shares: [], feedstockG: 0, reagents: [], order: "dated" as const }),
+    p.incoming.length > 0
+      ? getMadeOf(db, site.id, p.holderId, user.now)
+      : Promise.resolve({ totalG: 0, shares: [], feedstockG: 0, reagents: [], order: "dated" as const }),
     listSpecChoices(db, site.id).then((list) => list.map((c) => [c.key, c.label] as const)),
   ]);
   const tz = site.timeZone;
@@ -82,7 +95,10 @@ export default async function ProductLotPage({ params }: Props) {
         status={{ code: p.status, ...(statusLabel ? { label: statusLabel } : {}) }}
         back={{ href: "/products", label: "Product lots" }}
         facts={[
-          ["Batch", p.batchCode ? <Link href={`/batches/${encodeURIComponent(p.batchCode)}`}>{p.batchCode}</Link> : "—"],
+          [
+            "Batch",
+            p.batchCode ? <Link href={`/batches/${encodeURIComponent(p.batchCode)}`}>{p.batchCode}</Link> : "—",
+          ],
           ["Batch state", p.batchStatus ? labelOf(p.batchStatus) : "—"],
           ["Produced", when(p.producedAt, tz)],
           ["Mass made", kg(p.massG, 3)],
@@ -97,7 +113,9 @@ export default async function ProductLotPage({ params }: Props) {
                 {c.released ? "Certificate of analysis (PDF)" : "Draft certificate, not released (PDF)"}
               </a>
             ) : null}{" "}
-            {p.status === "RELEASED" && p.stockG > 0 && isCompliance ? <Link href={`/shipments/new?from=${encodeURIComponent(p.code)}`}>Ship from this lot</Link> : null}{" "}
+            {p.status === "RELEASED" && p.stockG > 0 && isCompliance ? (
+              <Link href={`/shipments/new?from=${encodeURIComponent(p.code)}`}>Ship from this lot</Link>
+            ) : null}{" "}
             <HistoryLink kind="product" recordKey={p.code} label="product lot" />
             <TraceThis kind="PRODUCT_LOT" code={p.code} role={user.role} back />
           </>
@@ -117,7 +135,10 @@ export default async function ProductLotPage({ params }: Props) {
       {canEnter && spec ? (
         <section aria-labelledby="enter-h">
           <h2 id="enter-h">Enter a result</h2>
-          <p className="lede">Judged at once against the specification. A second result for the same property is a re-test: it replaces the first, which stays on record.</p>
+          <p className="lede">
+            Judged at once against the specification. A second result for the same property is a re-test: it replaces
+            the first, which stays on record.
+          </p>
           <QcEntryForm code={p.code} spec={spec} nextProperty={nextProperty} nowLocal={localNow(user.now, tz)} />
         </section>
       ) : null}
@@ -125,7 +146,9 @@ export default async function ProductLotPage({ params }: Props) {
       {isCompliance && p.status !== "REJECTED" ? (
         <section aria-labelledby="decide-h">
           <h2 id="decide-h">Release decision</h2>
-          <p className="lede">Release needs every required result in and within limits. A deviation, a hold or a rejection needs a reason.</p>
+          <p className="lede">
+            Release needs every required result in and within limits. A deviation, a hold or a rejection needs a reason.
+          </p>
           <DecisionForm code={p.code} status={p.status} />
           {held ? (
             <>
@@ -140,11 +163,25 @@ export default async function ProductLotPage({ params }: Props) {
       <ResultHistory qc={p.qc} labels={labels} timeZone={tz} />
 
       <h2>Shipments</h2>
-      <DataTable caption="Shipped from this lot" hideCaption columns={shipmentColumns(tz)} rows={shipments} rowKey={(m) => m.id} empty="Nothing has been shipped from this lot directly." />
+      <DataTable
+        caption="Shipped from this lot"
+        hideCaption
+        columns={shipmentColumns(tz)}
+        rows={shipments}
+        rowKey={(m) => m.id}
+        empty="Nothing has been shipped from this lot directly."
+      />
       {transfers.length > 0 ? (
         <>
           <h2>Moved to storage</h2>
-          <DataTable caption="Moved to storage" hideCaption columns={transferColumns(tz)} rows={transfers} rowKey={(m) => m.id} empty="" />
+          <DataTable
+            caption="Moved to storage"
+            hideCaption
+            columns={transferColumns(tz)}
+            rows={transfers}
+            rowKey={(m) => m.id}
+            empty=""
+          />
         </>
       ) : null}
 

@@ -11,18 +11,28 @@ import type { Spec } from "@/lib/spec/spec";
 
 /** Whether the lot could be released now, judged against its current specification. */
 export function ReleaseCheck({ c }: { c: CertificateData }) {
-  const lead = c.decision.status === "HELD" ? "Not ready to release." : c.decision.deviation ? "Released with a deviation; against the specification:" : "Against the current specification:";
+  const lead =
+    c.decision.status === "HELD"
+      ? "Not ready to release."
+      : c.decision.deviation
+        ? "Released with a deviation; against the specification:"
+        : "Against the current specification:";
   if (c.releasable) {
     return (
       <p className="release-check">
-        <StatusMark code="PASS" label="Ready to release" /> Every required result is in and within limits, and every either-or requirement is met.
+        <StatusMark code="PASS" label="Ready to release" /> Every required result is in and within limits, and every
+        either-or requirement is met.
       </p>
     );
   }
   return (
     <div className="release-check">
       <p>
-        <StatusMark code={c.failing.length > 0 ? "FAIL" : "MISSING"} label={c.failing.length > 0 ? "Out of specification" : "Results missing"} /> {lead}
+        <StatusMark
+          code={c.failing.length > 0 ? "FAIL" : "MISSING"}
+          label={c.failing.length > 0 ? "Out of specification" : "Results missing"}
+        />{" "}
+        {lead}
       </p>
       <ul>
         {c.failing.length > 0 ? <li>Out of limits: {c.failing.join(", ")}</li> : null}
@@ -58,7 +68,12 @@ export function SpecResults({ c, spec, timeZone }: { c: CertificateData; spec: S
     },
     { key: "method", header: "Method", cell: (r) => r.method },
     { key: "limit", header: "Limit", cell: (r) => r.limit },
-    { key: "result", header: "Result", numeric: true, cell: (r) => (r.result === "" ? <span className="muted">—</span> : r.result) },
+    {
+      key: "result",
+      header: "Result",
+      numeric: true,
+      cell: (r) => (r.result === "" ? <span className="muted">—</span> : r.result),
+    },
     { key: "unit", header: "Unit", cell: (r) => r.unit },
     { key: "tested", header: "Tested", cell: (r) => (r.testedAt ? when(r.testedAt, timeZone) : "") },
     { key: "report", header: "Lab report", cell: (r) => [r.lab, r.reportNo].filter(Boolean).join(", ") },
@@ -66,7 +81,13 @@ export function SpecResults({ c, spec, timeZone }: { c: CertificateData; spec: S
   ];
   return (
     <>
-      <DataTable caption={`Results against ${c.specText}`} columns={columns} rows={c.rows} rowKey={(r) => r.key} empty="This specification lists no properties." />
+      <DataTable
+        caption={`Results against ${c.specText}`}
+        columns={columns}
+        rows={c.rows}
+        rowKey={(r) => r.key}
+        empty="This specification lists no properties."
+      />
       {c.rules.length > 0 ? (
         <ul className="rule-list" aria-label="Either-or requirements">
           {c.rules.map((r) => (
@@ -81,7 +102,15 @@ export function SpecResults({ c, spec, timeZone }: { c: CertificateData; spec: S
 }
 
 /** Every result ever entered, re-tests included; a replaced result is struck through and marked. */
-export function ResultHistory({ qc, labels, timeZone }: { qc: readonly QcView[]; labels: ReadonlyMap<string, string>; timeZone: string }) {
+export function ResultHistory({
+  qc,
+  labels,
+  timeZone,
+}: {
+  qc: readonly QcView[];
+  labels: ReadonlyMap<string, string>;
+  timeZone: string;
+}) {
   const struck = (q: QcView, text: string) => (q.supersededById === null ? text : <del>{text}</del>);
   const columns: Array<Column<QcView>> = [
     { key: "property", header: "Property", cell: (q) => struck(q, labels.get(q.property) ?? q.property) },
@@ -89,20 +118,62 @@ export function ResultHistory({ qc, labels, timeZone }: { qc: readonly QcView[];
     { key: "unit", header: "Unit", cell: (q) => q.unit },
     { key: "method", header: "Method", cell: (q) => q.method },
     { key: "spec", header: "Judged against", cell: (q) => q.specRef },
-    { key: "verdict", header: "Verdict at entry", cell: (q) => (q.supersededById === null ? <StatusMark code={q.verdict} /> : <StatusMark code="SUPERSEDED" label="Superseded by a re-test" />) },
+    {
+      key: "verdict",
+      header: "Verdict at entry",
+      cell: (q) =>
+        q.supersededById === null ? (
+          <StatusMark code={q.verdict} />
+        ) : (
+          <StatusMark code="SUPERSEDED" label="Superseded by a re-test" />
+        ),
+    },
     { key: "tested", header: "Tested", cell: (q) => when(q.testedAt, timeZone) },
     { key: "lab", header: "Lab report", cell: (q) => [q.lab, q.reportNo].filter(Boolean).join(", ") },
-    { key: "by", header: "Entered by", cell: (q) => [q.recordedBy ?? "", when(q.recordedAt, timeZone)].filter(Boolean).join(", ") },
+    {
+      key: "by",
+      header: "Entered by",
+      cell: (q) => [q.recordedBy ?? "", when(q.recordedAt, timeZone)].filter(Boolean).join(", "),
+    },
   ];
-  return <DataTable caption="Every result entered" columns={columns} rows={[...qc].reverse()} rowKey={(q) => q.id} empty="No results entered yet." />;
+  return (
+    <DataTable
+      caption="Every result entered"
+      columns={columns}
+      rows={[...qc].reverse()}
+      rowKey={(q) => q.id}
+      empty="No results entered yet."
+    />
+  );
 }
 
-export function QcEntryForm({ code, spec, nextProperty, nowLocal }: { code: string; spec: Spec; nextProperty: string; nowLocal: string }) {
+export function QcEntryForm({
+  code,
+  spec,
+  nextProperty,
+  nowLocal,
+}: {
+  code: string;
+  spec: Spec;
+  nextProperty: string;
+  nowLocal: string;
+}) {
   const options = spec.properties.map((p) => [p.key, `${p.label}${p.unit ? ` (${p.unit})` : ""}`] as const);
   return (
-    <ActionForm action={recordQcResultAction} submitLabel="Save result" label="Enter a QC result" hidden={{ productLotCode: code }} keepValues>
+    <ActionForm
+      action={recordQcResultAction}
+      submitLabel="Save result"
+      label="Enter a QC result"
+      hidden={{ productLotCode: code }}
+      keepValues
+    >
       <Field name="property" label="Property" type="select" options={options} defaultValue={nextProperty} />
-      <Field name="value" label="Result" type="number" hint="In the unit shown beside the property; a class as its number (copper strip No. 1 → 1)." />
+      <Field
+        name="value"
+        label="Result"
+        type="number"
+        hint="In the unit shown beside the property; a class as its number (copper strip No. 1 → 1)."
+      />
       <Field name="method" label="Test method" hint="Leave empty for the method the specification names." />
       <Field name="lab" label="Laboratory" />
       <Field name="reportNo" label="Lab report number" />
@@ -111,10 +182,31 @@ export function QcEntryForm({ code, spec, nextProperty, nowLocal }: { code: stri
   );
 }
 
-export function SpecChoiceForm({ code, current, choices }: { code: string; current: string; choices: ReadonlyArray<readonly [string, string]> }) {
+export function SpecChoiceForm({
+  code,
+  current,
+  choices,
+}: {
+  code: string;
+  current: string;
+  choices: ReadonlyArray<readonly [string, string]>;
+}) {
   return (
-    <ActionForm action={chooseProductSpecAction} submitLabel="Use this specification" label="Choose the specification" hidden={{ productLotCode: code }} keepValues>
-      <Field name="specKey" label="Specification" type="select" options={choices} defaultValue={current} hint="Results already entered are judged again against the one chosen." />
+    <ActionForm
+      action={chooseProductSpecAction}
+      submitLabel="Use this specification"
+      label="Choose the specification"
+      hidden={{ productLotCode: code }}
+      keepValues
+    >
+      <Field
+        name="specKey"
+        label="Specification"
+        type="select"
+        options={choices}
+        defaultValue={current}
+        hint="Results already entered are judged again against the one chosen."
+      />
     </ActionForm>
   );
 }
@@ -130,9 +222,19 @@ export function DecisionForm({ code, status }: { code: string; status: string })
         ]
       : [["HOLD", "Put back on hold (reason required)"]];
   return (
-    <ActionForm action={decideProductLotAction} submitLabel="Record decision" label="Release decision" hidden={{ productLotCode: code }}>
+    <ActionForm
+      action={decideProductLotAction}
+      submitLabel="Record decision"
+      label="Release decision"
+      hidden={{ productLotCode: code }}
+    >
       <Field name="decision" label="Decision" type="select" options={options} />
-      <Field name="reason" label="Reason" type="textarea" hint="Printed on the certificate for a deviation; kept in the record's history." />
+      <Field
+        name="reason"
+        label="Reason"
+        type="textarea"
+        hint="Printed on the certificate for a deviation; kept in the record's history."
+      />
     </ActionForm>
   );
 }

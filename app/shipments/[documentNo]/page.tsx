@@ -28,7 +28,11 @@ export default async function ShipmentPage({ params }: Props) {
   if (!s) notFound();
   const madeOf = await getMadeOf(db, site.id, s.holderId, new Date());
   const tz = site.timeZone;
-  const customer = s.customerRef ? <Link href={`/customers/${encodeURIComponent(s.customerRef.code)}`}>{s.customer}</Link> : s.customer;
+  const customer = s.customerRef ? (
+    <Link href={`/customers/${encodeURIComponent(s.customerRef.code)}`}>{s.customer}</Link>
+  ) : (
+    s.customer
+  );
   return (
     <article className="shipment-doc">
       <RecordHeader
@@ -48,7 +52,8 @@ export default async function ShipmentPage({ params }: Props) {
         ]}
         actions={
           <span className="no-print">
-            <PrintShipment /> <HistoryLink kind="shipment" recordKey={s.documentNo} label="shipment" /> <TraceThis kind="SHIPMENT" code={s.documentNo} role={user.role} back />
+            <PrintShipment /> <HistoryLink kind="shipment" recordKey={s.documentNo} label="shipment" />{" "}
+            <TraceThis kind="SHIPMENT" code={s.documentNo} role={user.role} back />
           </span>
         }
       />
@@ -59,8 +64,18 @@ export default async function ShipmentPage({ params }: Props) {
           { key: "n", header: "Line", numeric: true, cell: (m) => s.lines.indexOf(m) + 1 },
           { key: "from", header: "Loaded from", cell: (m) => <HolderLink holder={m.from} /> },
           { key: "mass", header: "Mass", numeric: true, cell: (m) => kg(m.massG, 3) },
-          { key: "volume", header: "Volume", numeric: true, cell: (m) => (m.volumeMl === null ? "—" : litres(m.volumeMl)) },
-          { key: "temp", header: "Loading temperature", numeric: true, cell: (m) => (m.tempC === null ? "—" : `${num(m.tempC, 1)} °C`) },
+          {
+            key: "volume",
+            header: "Volume",
+            numeric: true,
+            cell: (m) => (m.volumeMl === null ? "—" : litres(m.volumeMl)),
+          },
+          {
+            key: "temp",
+            header: "Loading temperature",
+            numeric: true,
+            cell: (m) => (m.tempC === null ? "—" : `${num(m.tempC, 1)} °C`),
+          },
           { key: "no", header: "Movement", numeric: true, cell: (m) => m.id },
         ]}
         rows={s.lines}

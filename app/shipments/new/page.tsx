@@ -17,7 +17,9 @@ export const metadata: Metadata = { title: "Record a shipment" };
 type Search = { from?: string | string[]; customer?: string | string[] };
 
 function one(v: string | string[] | undefined): string {
-  return codeParam((Array.isArray(v) ? v[0] : v) ?? "").trim().toUpperCase();
+  return codeParam((Array.isArray(v) ? v[0] : v) ?? "")
+    .trim()
+    .toUpperCase();
 }
 
 /** The shipment form on its own page, prefilled from a product lot ("ship from this lot") or a customer. */
@@ -29,7 +31,8 @@ export default async function NewShipmentPage({ searchParams }: { searchParams: 
       <>
         <h1>Record a shipment</h1>
         <p className="form-error" role="alert">
-          Shipments are recorded by compliance staff. The recorded ones are on the <Link href="/shipments">shipments</Link> page.
+          Shipments are recorded by compliance staff. The recorded ones are on the{" "}
+          <Link href="/shipments">shipments</Link> page.
         </p>
       </>
     );
@@ -37,7 +40,11 @@ export default async function NewShipmentPage({ searchParams }: { searchParams: 
   const sp = await searchParams;
   const fromCode = one(sp.from);
   const customerCode = one(sp.customer);
-  const [customers, ready, lot] = await Promise.all([listCustomerChoices(db, site.id), listShippableStock(db, site.id), fromCode ? getProductLotForShipping(db, site.id, fromCode) : Promise.resolve(null)]);
+  const [customers, ready, lot] = await Promise.all([
+    listCustomerChoices(db, site.id),
+    listShippableStock(db, site.id),
+    fromCode ? getProductLotForShipping(db, site.id, fromCode) : Promise.resolve(null),
+  ]);
   return (
     <>
       <p className="crumbs">
@@ -53,12 +60,16 @@ export default async function NewShipmentPage({ searchParams }: { searchParams: 
       <div className="form-with-aside">
         <RecordShipmentForm
           customers={customers}
-          defaults={{ shippedAt: when(user.now, site.timeZone).replace(" ", "T"), ...(customerCode ? { customerCode } : {}), ...(lot ? { from: { kind: "PRODUCT_LOT" as const, code: lot.code } } : {}) }}
+          defaults={{
+            shippedAt: when(user.now, site.timeZone).replace(" ", "T"),
+            ...(customerCode ? { customerCode } : {}),
+            ...(lot ? { from: { kind: "PRODUCT_LOT" as const, code: lot.code } } : {}),
+          }}
         />
         <div>
-            <ReadyToShip rows={ready} />
-            <LoadingCautions />
-          </div>
+          <ReadyToShip rows={ready} />
+          <LoadingCautions />
+        </div>
       </div>
     </>
   );

@@ -16,7 +16,17 @@ function siteX(at: number, timeZone: string): number {
 }
 
 /** The FFA of the lots this source supplied, by date received, one colour per material kind. */
-export async function SourceFfaPicture({ db, siteId, source, timeZone }: { db: Db; siteId: number; source: { id: number; code: string }; timeZone: string }) {
+export async function SourceFfaPicture({
+  db,
+  siteId,
+  source,
+  timeZone,
+}: {
+  db: Db;
+  siteId: number;
+  source: { id: number; code: string };
+  timeZone: string;
+}) {
   const id = "source-ffa";
   const title = "FFA of the lots from this source";
   const lots = await listSourceLotsWithFfa(db, siteId, source.id);
@@ -24,7 +34,9 @@ export async function SourceFfaPicture({ db, siteId, source, timeZone }: { db: D
   if (!s || s.points.length === 0) {
     return (
       <NoPicture id={id} title={title}>
-        {s && s.untested > 0 ? `None of the ${s.untested} lots with material from this source has been titrated yet.` : "No lot has been received with material from this source yet."}
+        {s && s.untested > 0
+          ? `None of the ${s.untested} lots with material from this source has been titrated yet.`
+          : "No lot has been received with material from this source yet."}
       </NoPicture>
     );
   }
@@ -43,9 +55,19 @@ export async function SourceFfaPicture({ db, siteId, source, timeZone }: { db: D
         name: labelOf(m),
         type: "scatter",
         symbolSize: 10,
-        data: s.points.filter((p) => p.material === m).map((p) => [siteX(p.at, timeZone), Math.round(p.ffaPct * 100) / 100]),
+        data: s.points
+          .filter((p) => p.material === m)
+          .map((p) => [siteX(p.at, timeZone), Math.round(p.ffaPct * 100) / 100]),
         ...(i === 0 && s.massWeightedPct !== null
-          ? { markLine: { silent: true, symbol: "none", lineStyle: { type: "dashed", color: "#4a524e" }, label: { formatter: "mean by mass", position: "insideEndTop" }, data: [{ yAxis: Math.round(s.massWeightedPct * 100) / 100 }] } }
+          ? {
+              markLine: {
+                silent: true,
+                symbol: "none",
+                lineStyle: { type: "dashed", color: "#4a524e" },
+                label: { formatter: "mean by mass", position: "insideEndTop" },
+                data: [{ yAxis: Math.round(s.massWeightedPct * 100) / 100 }],
+              },
+            }
           : {}),
       })),
     },
@@ -54,7 +76,9 @@ export async function SourceFfaPicture({ db, siteId, source, timeZone }: { db: D
   const latest = s.points.at(-1);
   const summary =
     `${s.points.length} lots with material from source ${source.code} titrated: FFA from ${pct(s.minPct)} to ${pct(s.maxPct)}, ${pct(s.massWeightedPct)} weighted by mass` +
-    (latest ? `; the latest, lot ${latest.lotCode} received ${day(new Date(latest.at), timeZone)}, ${pct(latest.ffaPct)}` : "") +
+    (latest
+      ? `; the latest, lot ${latest.lotCode} received ${day(new Date(latest.at), timeZone)}, ${pct(latest.ffaPct)}`
+      : "") +
     (s.untested > 0 ? `; ${s.untested} more awaiting titration.` : ".");
   return (
     <Picture
@@ -77,7 +101,10 @@ export async function SourceFfaPicture({ db, siteId, source, timeZone }: { db: D
               { key: "ffa", header: "FFA", unit: "%", numeric: true, cell: (p) => num(p.ffaPct, 2) },
             ]}
           />
-          <p className="muted">A lot pooled from several sources&apos; pickups counts for each of them; its FFA is the mean of its titrations that are not voided.</p>
+          <p className="muted">
+            A lot pooled from several sources&apos; pickups counts for each of them; its FFA is the mean of its
+            titrations that are not voided.
+          </p>
         </>
       }
     />

@@ -30,7 +30,11 @@ export default async function SourcePage({ params, searchParams }: Props) {
   if (!source) notFound();
   const collector = user.role === "COLLECTOR";
   if (collector && !servedByCollectors(source)) forbidden();
-  const pickups = await listPickups(db, site.id, { sourceId: source.id, skip: (page - 1) * PAGE_SIZE, take: PAGE_SIZE });
+  const pickups = await listPickups(db, site.id, {
+    sourceId: source.id,
+    skip: (page - 1) * PAGE_SIZE,
+    take: PAGE_SIZE,
+  });
   const tz = site.timeZone;
   return (
     <>
@@ -45,8 +49,17 @@ export default async function SourcePage({ params, searchParams }: Props) {
           ["Kind", labelOf(source.kind)],
           ["Materials", source.materials.map(labelOf).join(", ")],
           ["Address", source.address || "—"],
-          ...(collector ? [] : ([["Certificate", source.certificateNo ? `${source.certificateNo}${source.certificateScheme ? ` (${source.certificateScheme})` : ""}` : "none"],
-          ["Certificate expires", day(source.certificateExpires, tz)]] as Array<[string, string]>)),
+          ...(collector
+            ? []
+            : ([
+                [
+                  "Certificate",
+                  source.certificateNo
+                    ? `${source.certificateNo}${source.certificateScheme ? ` (${source.certificateScheme})` : ""}`
+                    : "none",
+                ],
+                ["Certificate expires", day(source.certificateExpires, tz)],
+              ] as Array<[string, string]>)),
           ["Pickup every", source.pickupEveryDays === null ? "—" : `${source.pickupEveryDays} days`],
           ["Pickups recorded", String(source.pickups)],
           ["Last pickup", when(source.lastPickupAt, tz)],
@@ -54,7 +67,14 @@ export default async function SourcePage({ params, searchParams }: Props) {
       />
       {collector ? null : <SourceFfaPicture db={db} siteId={site.id} source={source} timeZone={tz} />}
       {collector || user.role === "PRODUCTION" ? null : (
-        <SourceChecks db={db} siteId={site.id} sourceId={source.id} code={source.code} timeZone={tz} compliance={user.role === "COMPLIANCE"} />
+        <SourceChecks
+          db={db}
+          siteId={site.id}
+          sourceId={source.id}
+          code={source.code}
+          timeZone={tz}
+          compliance={user.role === "COMPLIANCE"}
+        />
       )}
       <TraceThis kind="SOURCE" code={source.code} role={user.role} />
       <h2>Pickups from this source</h2>
@@ -90,13 +110,24 @@ export default async function SourcePage({ params, searchParams }: Props) {
                     <td>{labelOf(p.material)}</td>
                     <td className="num">{litres(p.volumeMl)}</td>
                     <td className="num">{kg(p.massG)}</td>
-                    <td>{p.lotCode ? <CodeLink href={`/lots/${encodeURIComponent(p.lotCode)}`} code={p.lotCode} /> : <span className="muted">not yet in a lot</span>}</td>
+                    <td>
+                      {p.lotCode ? (
+                        <CodeLink href={`/lots/${encodeURIComponent(p.lotCode)}`} code={p.lotCode} />
+                      ) : (
+                        <span className="muted">not yet in a lot</span>
+                      )}
+                    </td>
                   </tr>
                 ))}
               </tbody>
             </table>
           </div>
-          <Pager basePath={`/sources/${encodeURIComponent(source.code)}`} page={page} total={pickups.total} pageSize={PAGE_SIZE} />
+          <Pager
+            basePath={`/sources/${encodeURIComponent(source.code)}`}
+            page={page}
+            total={pickups.total}
+            pageSize={PAGE_SIZE}
+          />
         </>
       )}
     </>

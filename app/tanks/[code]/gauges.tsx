@@ -18,10 +18,27 @@ export function gaugeColumns(timeZone: string): Column<GaugeView>[] {
   const diff = (g: GaugeView) => (g.bookStockG === null ? null : gaugeVsBook(g.massG, g.bookStockG));
   return [
     { key: "at", header: "Gauged", cell: (g) => <span className="nowrap">{when(g.at, timeZone)}</span> },
-    { key: "read", header: "Reading", cell: (g) => (g.method === "LEVEL" && g.levelMm !== null ? `Level ${g.levelMm.toLocaleString("en")} mm → ${litres(g.volumeMl)}` : `${litres(g.volumeMl)} read`) },
-    { key: "temp", header: "Temperature, density at 15 °C", cell: (g) => `${num(g.tempC, 1)} °C, ${g.densityKgM3 === null ? "table density" : `${num(g.densityKgM3, 1)} kg/m³ measured`}` },
+    {
+      key: "read",
+      header: "Reading",
+      cell: (g) =>
+        g.method === "LEVEL" && g.levelMm !== null
+          ? `Level ${g.levelMm.toLocaleString("en")} mm → ${litres(g.volumeMl)}`
+          : `${litres(g.volumeMl)} read`,
+    },
+    {
+      key: "temp",
+      header: "Temperature, density at 15 °C",
+      cell: (g) =>
+        `${num(g.tempC, 1)} °C, ${g.densityKgM3 === null ? "table density" : `${num(g.densityKgM3, 1)} kg/m³ measured`}`,
+    },
     { key: "mass", header: "Gauged mass", numeric: true, cell: (g) => kg(g.massG) },
-    { key: "book", header: "Book stock then", numeric: true, cell: (g) => (g.bookStockG === null ? "—" : kg(g.bookStockG)) },
+    {
+      key: "book",
+      header: "Book stock then",
+      numeric: true,
+      cell: (g) => (g.bookStockG === null ? "—" : kg(g.bookStockG)),
+    },
     {
       key: "diff",
       header: "Gauge − book",
@@ -38,13 +55,21 @@ export function gaugeColumns(timeZone: string): Column<GaugeView>[] {
 }
 
 /** "Record a gauge reading" with the book stock now, then the past readings against the book. */
-export function GaugeSection(props: { tank: { code: string; service: string; stockG: number; strappingJson: string }; material: MaterialKind; gauges: GaugeView[]; timeZone: string; now: Date; role: SiteRole }) {
+export function GaugeSection(props: {
+  tank: { code: string; service: string; stockG: number; strappingJson: string };
+  material: MaterialKind;
+  gauges: GaugeView[];
+  timeZone: string;
+  now: Date;
+  role: SiteRole;
+}) {
   const { tank } = props;
   const table = parseStrapping(tank.strappingJson);
   const entry = requireDensityEntry(DEFAULT_DENSITY_TABLE, props.material);
   const densityHint = (
     <>
-      Leave empty to use the table density for {labelOf(tank.service).toLowerCase()}, {num(densityAt(entry, 15), 1)} kg/m³ at 15 °C{" "}
+      Leave empty to use the table density for {labelOf(tank.service).toLowerCase()}, {num(densityAt(entry, 15), 1)}{" "}
+      kg/m³ at 15 °C{" "}
       <ConfidenceMark level={entry.status === "sourced" ? "published" : "check"} anchor={`density-${props.material}`} />
     </>
   );
@@ -52,14 +77,26 @@ export function GaugeSection(props: { tank: { code: string; service: string; sto
     <section aria-labelledby="gauge-h">
       <h2 id="gauge-h">Record a gauge reading</h2>
       <p>
-        Book stock now: <strong>{kg(tank.stockG, 1)}</strong>. The reading is kept beside the book stock at its own time, and the difference is shown below.
+        Book stock now: <strong>{kg(tank.stockG, 1)}</strong>. The reading is kept beside the book stock at its own
+        time, and the difference is shown below.
       </p>
       {props.role === "PRODUCTION" ? (
-        <GaugeForm tankCode={tank.code} nowLocal={siteLocalInput(props.now, props.timeZone)} table={table} densityHint={densityHint} />
+        <GaugeForm
+          tankCode={tank.code}
+          nowLocal={siteLocalInput(props.now, props.timeZone)}
+          table={table}
+          densityHint={densityHint}
+        />
       ) : (
         <p className="muted">Production staff record gauge readings.</p>
       )}
-      <DataTable caption="Past gauge readings against the book stock" columns={gaugeColumns(props.timeZone)} rows={props.gauges} rowKey={(g) => g.id} empty="No gauge readings recorded yet." />
+      <DataTable
+        caption="Past gauge readings against the book stock"
+        columns={gaugeColumns(props.timeZone)}
+        rows={props.gauges}
+        rowKey={(g) => g.id}
+        empty="No gauge readings recorded yet."
+      />
     </section>
   );
 }

@@ -33,7 +33,10 @@ export default async function TankPage({ params }: Props) {
   const holder = await getHolderRef(db, site.id, "TANK", code);
   if (!tank || !holder) notFound();
   const tz = site.timeZone;
-  const [moves, strapping] = await Promise.all([listHolderMovements(db, holder.id), getTankStrapping(db, site.id, code)]);
+  const [moves, strapping] = await Promise.all([
+    listHolderMovements(db, holder.id),
+    getTankStrapping(db, site.id, code),
+  ]);
   const gauges = strapping ? await listGauges(db, strapping.id) : [];
   const entry = requireDensityEntry(DEFAULT_DENSITY_TABLE, tank.nominalMaterial);
   const sumIn = moves.incoming.reduce((s, m) => s + m.massG, 0);
@@ -56,12 +59,21 @@ export default async function TankPage({ params }: Props) {
           ["Nominal density", `${num(tank.nominalDensityKgM3, 1)} kg/m³ (${tank.nominalDensityStatus})`],
           [
             "Last gauge",
-            tank.lastGauge ? `${litres(tank.lastGauge.volumeMl)} = ${kg(tank.lastGauge.massG)} on ${when(tank.lastGauge.at, tz)}${tank.lastGauge.bookStockG === null ? "" : ` (book then ${kg(tank.lastGauge.bookStockG)})`}` : "never gauged",
+            tank.lastGauge
+              ? `${litres(tank.lastGauge.volumeMl)} = ${kg(tank.lastGauge.massG)} on ${when(tank.lastGauge.at, tz)}${tank.lastGauge.bookStockG === null ? "" : ` (book then ${kg(tank.lastGauge.bookStockG)})`}`
+              : "never gauged",
           ],
         ]}
       />
       <DensityNote tanks={[tank]} />
-      <TankStockPicture db={db} siteId={site.id} code={tank.code} capacityG={tank.capacityG} timeZone={tz} now={user.now} />
+      <TankStockPicture
+        db={db}
+        siteId={site.id}
+        code={tank.code}
+        capacityG={tank.capacityG}
+        timeZone={tz}
+        now={user.now}
+      />
       <TraceThis kind="TANK" code={tank.code} role={user.role} back />
       {tank.service === "METHANOL" ? (
         <Cautions
@@ -81,12 +93,20 @@ export default async function TankPage({ params }: Props) {
         now={user.now}
         role={user.role}
         from={{ kind: "TANK", code: tank.code, service: tank.service, stockG: tank.stockG }}
-        density={{ entry, basis: `Uses the table density for ${labelOf(tank.service).toLowerCase()}, ${num(tank.nominalDensityKgM3, 1)} kg/m³ at 15 °C.` }}
+        density={{
+          entry,
+          basis: `Uses the table density for ${labelOf(tank.service).toLowerCase()}, ${num(tank.nominalDensityKgM3, 1)} kg/m³ at 15 °C.`,
+        }}
         title="Move to another tank"
       />
 
       <GaugeSection
-        tank={{ code: tank.code, service: tank.service, stockG: tank.stockG, strappingJson: strapping?.strappingJson ?? "" }}
+        tank={{
+          code: tank.code,
+          service: tank.service,
+          stockG: tank.stockG,
+          strappingJson: strapping?.strappingJson ?? "",
+        }}
         material={tank.nominalMaterial}
         gauges={gauges}
         timeZone={tz}
@@ -101,7 +121,9 @@ export default async function TankPage({ params }: Props) {
         <>
           <MovementTable rows={moves.incoming} timeZone={tz} side="to" />
           <Note>
-            {moves.incomingTotal > moves.incoming.length ? `First ${moves.incoming.length} of ${moves.incomingTotal} shown; ` : ""}
+            {moves.incomingTotal > moves.incoming.length
+              ? `First ${moves.incoming.length} of ${moves.incomingTotal} shown; `
+              : ""}
             {moves.incoming.length} movements, {kg(sumIn)} in total.
           </Note>
         </>
@@ -113,7 +135,9 @@ export default async function TankPage({ params }: Props) {
         <>
           <MovementTable rows={moves.outgoing} timeZone={tz} side="from" />
           <Note>
-            {moves.outgoingTotal > moves.outgoing.length ? `First ${moves.outgoing.length} of ${moves.outgoingTotal} shown; ` : ""}
+            {moves.outgoingTotal > moves.outgoing.length
+              ? `First ${moves.outgoing.length} of ${moves.outgoingTotal} shown; `
+              : ""}
             {moves.outgoing.length} movements, {kg(sumOut)} in total.
           </Note>
         </>

@@ -15,7 +15,21 @@ function siteX(at: number, timeZone: string): number {
 
 const kgNumber = (grams: number) => Math.round(grams) / 1000;
 
-export async function TankStockPicture({ db, siteId, code, capacityG, timeZone, now }: { db: Db; siteId: number; code: string; capacityG: number; timeZone: string; now: Date }) {
+export async function TankStockPicture({
+  db,
+  siteId,
+  code,
+  capacityG,
+  timeZone,
+  now,
+}: {
+  db: Db;
+  siteId: number;
+  code: string;
+  capacityG: number;
+  timeZone: string;
+  now: Date;
+}) {
   const id = "tank-stock";
   const title = "Stock over time";
   const history = await loadTankStockHistory(db, siteId, code);
@@ -29,7 +43,10 @@ export async function TankStockPicture({ db, siteId, code, capacityG, timeZone, 
   }
   const first = Math.min(s.book[0]?.at ?? Infinity, s.gauges[0]?.at ?? Infinity);
   const last = Math.max(now.getTime(), s.book.at(-1)?.at ?? 0, s.gauges.at(-1)?.at ?? 0);
-  const book = [...s.book.map((p) => [siteX(p.at, timeZone), kgNumber(p.stockG)]), [siteX(last, timeZone), kgNumber(s.closingG)]];
+  const book = [
+    ...s.book.map((p) => [siteX(p.at, timeZone), kgNumber(p.stockG)]),
+    [siteX(last, timeZone), kgNumber(s.closingG)],
+  ];
   const svg = renderPictureSvg(
     {
       useUTC: true,
@@ -38,9 +55,33 @@ export async function TankStockPicture({ db, siteId, code, capacityG, timeZone, 
       xAxis: { type: "time", min: siteX(first, timeZone), max: siteX(last, timeZone) },
       yAxis: { type: "value", name: "kg", min: 0, axisLabel: { formatter: (v: number) => v.toLocaleString("en-GB") } },
       series: [
-        { name: "Book stock", type: "line", step: "end", showSymbol: false, lineStyle: { width: 2 }, itemStyle: { color: PALETTE[0] }, data: book },
-        { name: "Gauge readings", type: "scatter", symbolSize: 9, itemStyle: { color: PALETTE[5] }, data: s.gauges.map((g) => [siteX(g.at, timeZone), kgNumber(g.stockG)]) },
-        { name: "Capacity", type: "line", showSymbol: false, lineStyle: { type: "dashed", width: 1.5 }, itemStyle: { color: "#7a7a7a" }, data: [[siteX(first, timeZone), kgNumber(capacityG)], [siteX(last, timeZone), kgNumber(capacityG)]] },
+        {
+          name: "Book stock",
+          type: "line",
+          step: "end",
+          showSymbol: false,
+          lineStyle: { width: 2 },
+          itemStyle: { color: PALETTE[0] },
+          data: book,
+        },
+        {
+          name: "Gauge readings",
+          type: "scatter",
+          symbolSize: 9,
+          itemStyle: { color: PALETTE[5] },
+          data: s.gauges.map((g) => [siteX(g.at, timeZone), kgNumber(g.stockG)]),
+        },
+        {
+          name: "Capacity",
+          type: "line",
+          showSymbol: false,
+          lineStyle: { type: "dashed", width: 1.5 },
+          itemStyle: { color: "#7a7a7a" },
+          data: [
+            [siteX(first, timeZone), kgNumber(capacityG)],
+            [siteX(last, timeZone), kgNumber(capacityG)],
+          ],
+        },
       ],
     },
     { height: 320 },
@@ -49,7 +90,9 @@ export async function TankStockPicture({ db, siteId, code, capacityG, timeZone, 
   const summary =
     `Tank ${code}: book stock ${kg(s.closingG)} now, highest ${kg(s.peakG)} against a capacity of about ${kg(capacityG, 0)}; ` +
     `${kg(s.inG)} moved in and ${kg(s.outG)} out since ${day(new Date(first), timeZone)}; ` +
-    (latest ? `${s.gauges.length} gauge readings, the latest ${kg(latest.stockG)} on ${day(new Date(latest.at), timeZone)}.` : "never gauged.");
+    (latest
+      ? `${s.gauges.length} gauge readings, the latest ${kg(latest.stockG)} on ${day(new Date(latest.at), timeZone)}.`
+      : "never gauged.");
   const steps = s.book.slice(1).map((p, i) => ({ ...p, changeG: p.stockG - (s.book[i]?.stockG ?? 0) }));
   return (
     <Picture

@@ -23,7 +23,6 @@ const CsvQuerySchema = z.object({
   at: z.string().default(""),
 });
 
-
 function csvResponse(body: string, name: string): NextResponse {
   return new NextResponse(body, {
     headers: {
@@ -43,14 +42,28 @@ export const GET = handled("GET /trace/csv", async (request: Request): Promise<N
   const db = await getDb();
   const { siteId, now } = who.value;
   if (q.value.dir === "fwd") {
-    const r = await traceForwardReport(db, siteId, { kind: q.value.kind, code: q.value.code }, now, { withCustomers: canRead(who.value.role, "/customers") });
+    const r = await traceForwardReport(db, siteId, { kind: q.value.kind, code: q.value.code }, now, {
+      withCustomers: canRead(who.value.role, "/customers"),
+    });
     if (!r.ok) return respond(r);
     return csvResponse(forwardCsv(r.value), csvFileName(["where-it-went", r.value.subject.code]));
   }
-  if (q.value.table === "holders") return respond({ ok: false, issues: [{ code: "INPUT.INVALID", message: "Table: a backward trace has no holders table", field: "table" }] });
+  if (q.value.table === "holders")
+    return respond({
+      ok: false,
+      issues: [{ code: "INPUT.INVALID", message: "Table: a backward trace has no holders table", field: "table" }],
+    });
   const site = await getSiteById(db, siteId);
-  const r = await traceBackwardReport(db, siteId, { kind: q.value.kind, code: q.value.code, at: toSiteInstant(q.value.at, site?.timeZone ?? "UTC") }, now);
+  const r = await traceBackwardReport(
+    db,
+    siteId,
+    { kind: q.value.kind, code: q.value.code, at: toSiteInstant(q.value.at, site?.timeZone ?? "UTC") },
+    now,
+  );
   if (!r.ok) return respond(r);
   const feedstock = q.value.view === "feedstock";
-  return csvResponse(backwardCsv(r.value, q.value.table, feedstock), csvFileName(["made-of", r.value.target.code, q.value.table, ...(feedstock ? ["feedstock"] : [])]));
+  return csvResponse(
+    backwardCsv(r.value, q.value.table, feedstock),
+    csvFileName(["made-of", r.value.target.code, q.value.table, ...(feedstock ? ["feedstock"] : [])]),
+  );
 });

@@ -24,5 +24,11 @@ export async function holdRecalledAction(prev: FormState, form: FormData): Promi
   revalidatePath("/products");
   revalidatePath("/trace/recall");
   const n = r.value.held.length;
-  return { status: "saved", message: `${n} product lot${n === 1 ? "" : "s"} put on hold: ${r.value.held.join(", ")}.`, values: {}, errors: {}, seq: prev.seq + 1 };
+  return {
+    status: "saved",
+    message: `${n} product lot${n === 1 ? "" : "s"} put on hold: ${r.value.held.join(", ")}.`,
+    values: {},
+    errors: {},
+    seq: prev.seq + 1,
+  };
 }

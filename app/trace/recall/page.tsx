@@ -42,16 +42,37 @@ export default async function RecallPage({ searchParams }: { searchParams: Promi
   const withCustomers = canRead(user.role, "/customers");
   const input = recallInput(s, site.timeZone);
   const r = s.code === "" ? null : await recallReport(db, site.id, input, user.now, { withCustomers });
-  const doc = r?.ok ? buildRecallDoc(r.value, { plant: `${site.name}, ${site.town}`, producedAt: user.now, producedBy: user.fullName, timeZone: site.timeZone }, { withCustomers }) : null;
+  const doc = r?.ok
+    ? buildRecallDoc(
+        r.value,
+        {
+          plant: `${site.name}, ${site.town}`,
+          producedAt: user.now,
+          producedBy: user.fullName,
+          timeZone: site.timeZone,
+        },
+        { withCustomers },
+      )
+    : null;
   return (
     <>
       <h1>Recall</h1>
       <p className="lede">
-        Where the material of a source, a pickup, a lot, a tank, a batch or a product lot went: every product lot, shipment and customer it
-        reached, and what is still on site to hold. For a source or a tank, limit it to the days the material came in.
+        Where the material of a source, a pickup, a lot, a tank, a batch or a product lot went: every product lot,
+        shipment and customer it reached, and what is still on site to hold. For a source or a tank, limit it to the
+        days the material came in.
       </p>
       <RecallForm s={s} issues={r && !r.ok ? r.issues : []} />
-      {r?.ok && doc ? <RecallResult r={r.value} doc={doc} s={s} input={input} canHold={user.role === "COMPLIANCE"} withCustomers={withCustomers} /> : null}
+      {r?.ok && doc ? (
+        <RecallResult
+          r={r.value}
+          doc={doc}
+          s={s}
+          input={input}
+          canHold={user.role === "COMPLIANCE"}
+          withCustomers={withCustomers}
+        />
+      ) : null}
       {r === null ? <Empty>Choose where to start above.</Empty> : null}
     </>
   );
@@ -76,7 +97,13 @@ function RecallForm({ s, issues }: { s: RecallSearch; issues: DomainIssue[] }) {
         </label>
         <label>
           Code
-          <input name="code" defaultValue={s.code} required autoComplete="off" aria-invalid={field("code") ? true : undefined} />
+          <input
+            name="code"
+            defaultValue={s.code}
+            required
+            autoComplete="off"
+            aria-invalid={field("code") ? true : undefined}
+          />
         </label>
         <label>
           From <span className="muted">(first day, site time)</span>
@@ -123,7 +150,8 @@ function RecallResult({
   withCustomers: boolean;
 }) {
   const qs = recallQueryString({ ...s, kind: r.query.kind, code: r.query.code });
-  const href = (format: "pdf" | "csv", table?: string) => `/trace/recall/report?${qs}&format=${format}${table ? `&table=${table}` : ""}`;
+  const href = (format: "pdf" | "csv", table?: string) =>
+    `/trace/recall/report?${qs}&format=${format}${table ? `&table=${table}` : ""}`;
   const tables = new Map(doc.tables.map((t) => [t.key, t]));
   return (
     <section aria-labelledby="recall-h" className="trace-result">
@@ -145,17 +173,31 @@ function RecallResult({
             ) : canHold ? (
               <>
                 <p className="lede">
-                  Puts {r.toHold.length === 1 ? "this product lot" : `these ${r.toHold.length} product lots`} on hold with your reason, all together or
-                  none: {r.toHold.join(", ")}. Each lot keeps the reason in its history; released lots cannot be shipped until released again.
-                  Tanks holding some of it are listed above; hold them by your site procedure.
+                  Puts {r.toHold.length === 1 ? "this product lot" : `these ${r.toHold.length} product lots`} on hold
+                  with your reason, all together or none: {r.toHold.join(", ")}. Each lot keeps the reason in its
+                  history; released lots cannot be shipped until released again. Tanks holding some of it are listed
+                  above; hold them by your site procedure.
                 </p>
-                <ActionForm action={holdRecalledAction} submitLabel={`Put ${r.toHold.length} product lot${r.toHold.length === 1 ? "" : "s"} on hold`} label="Hold the product lots reached" hidden={{ kind: r.query.kind, code: r.query.code, from: input.from ?? "", to: input.to ?? "" }}>
-                  <Field name="reason" label="Reason" type="textarea" required maxLength={DECISION_REASON_MAX} hint="For example the complaint or notice this recall answers." />
+                <ActionForm
+                  action={holdRecalledAction}
+                  submitLabel={`Put ${r.toHold.length} product lot${r.toHold.length === 1 ? "" : "s"} on hold`}
+                  label="Hold the product lots reached"
+                  hidden={{ kind: r.query.kind, code: r.query.code, from: input.from ?? "", to: input.to ?? "" }}
+                >
+                  <Field
+                    name="reason"
+                    label="Reason"
+                    type="textarea"
+                    required
+                    maxLength={DECISION_REASON_MAX}
+                    hint="For example the complaint or notice this recall answers."
+                  />
                 </ActionForm>
               </>
             ) : (
               <Note>
-                Product lots to hold: {r.toHold.join(", ")}. A compliance user puts them on hold from this page. <Link href="/products">Product lots</Link>
+                Product lots to hold: {r.toHold.join(", ")}. A compliance user puts them on hold from this page.{" "}
+                <Link href="/products">Product lots</Link>
               </Note>
             )}
           </section>

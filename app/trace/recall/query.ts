@@ -18,7 +18,10 @@ function nextDay(date: string): string {
 }
 
 /** Site days to the service's window: from the start of the first day to the start of the day after the last. */
-export function recallInput(s: RecallSearch, timeZone: string): { kind: string; code: string; from: string | undefined; to: string | undefined } {
+export function recallInput(
+  s: RecallSearch,
+  timeZone: string,
+): { kind: string; code: string; from: string | undefined; to: string | undefined } {
   const at = (d: string) => (d === "" ? undefined : DAY.test(d) ? toSiteInstant(`${d}T00:00`, timeZone) : d);
   return { kind: s.kind, code: s.code, from: at(s.from), to: at(s.to === "" ? "" : nextDay(s.to)) };
 }

@@ -8,6 +8,11 @@ export const dynamic = "force-dynamic";
 
 /** The backward trace of the /trace page as a PDF, or one of its tables as CSV. */
 export const GET = reportRoute("GET /trace/report", async ({ db, site, user, query, context }) => {
-  const r = await traceBackwardReport(db, site.id, { kind: query.kind ?? "", code: query.code ?? "", at: toSiteInstant(query.at ?? "", site.timeZone) }, user.now);
+  const r = await traceBackwardReport(
+    db,
+    site.id,
+    { kind: query.kind ?? "", code: query.code ?? "", at: toSiteInstant(query.at ?? "", site.timeZone) },
+    user.now,
+  );
   return r.ok ? ok(buildBackwardTraceDoc(r.value, context)) : r;
 });

@@ -100,7 +100,10 @@ export default async function WasteContainerPage({ params }: Props) {
         actions={<HistoryLink kind="waste" recordKey={c.code} label="waste container" />}
       />
 
-      <Cautions title={`Handling ${labelOf(c.stream).toLowerCase()}`} items={STREAM_CAUTIONS[stream] ?? STREAM_CAUTIONS.OTHER} />
+      <Cautions
+        title={`Handling ${labelOf(c.stream).toLowerCase()}`}
+        items={STREAM_CAUTIONS[stream] ?? STREAM_CAUTIONS.OTHER}
+      />
 
       <HazardSection hazard={hazard} />
 
@@ -118,9 +121,14 @@ export default async function WasteContainerPage({ params }: Props) {
         <section aria-labelledby="haul" id="haul-away">
           <h2 id="haul">Record a haul-away</h2>
           <p>
-            The container holds <strong>{kg(c.stockG, 1)}</strong> on the books. When a haul takes all of it the container is marked hauled away.
+            The container holds <strong>{kg(c.stockG, 1)}</strong> on the books. When a haul takes all of it the
+            container is marked hauled away.
           </p>
-          {canHaul ? <HaulForm containerCode={c.code} nowLocal={haulLocal} /> : <Note>Compliance staff record haul-aways.</Note>}
+          {canHaul ? (
+            <HaulForm containerCode={c.code} nowLocal={haulLocal} />
+          ) : (
+            <Note>Compliance staff record haul-aways.</Note>
+          )}
         </section>
       ) : null}
 
@@ -152,12 +160,25 @@ function HazardSection({ hazard }: { hazard: HazardAssessment }) {
           </tbody>
         </table>
       </div>
-      <Note>A container without the measurements is handled as hazardous until it is characterised. Local and state rules may be stricter and govern.</Note>
+      <Note>
+        A container without the measurements is handled as hazardous until it is characterised. Local and state rules
+        may be stricter and govern.
+      </Note>
     </section>
   );
 }
 
-function CharacterisationSection({ c, timeZone, nowLocal, canRecord }: { c: WasteContainerDetail; timeZone: string; nowLocal: string; canRecord: boolean }) {
+function CharacterisationSection({
+  c,
+  timeZone,
+  nowLocal,
+  canRecord,
+}: {
+  c: WasteContainerDetail;
+  timeZone: string;
+  nowLocal: string;
+  canRecord: boolean;
+}) {
   return (
     <section aria-labelledby="characterisation">
       <h2 id="characterisation">Characterisation</h2>
@@ -208,7 +229,11 @@ function HaulsTable({ rows, timeZone }: { rows: DisposalOfContainer[]; timeZone:
           { key: "doc", header: "Manifest or document", cell: (d) => d.documentNo },
           { key: "at", header: "Collected", cell: (d) => when(d.disposedAt, timeZone) },
           { key: "hauler", header: "Hauler", cell: (d) => d.hauler },
-          { key: "dest", header: "Destination facility", cell: (d) => d.destination || <span className="muted">not recorded</span> },
+          {
+            key: "dest",
+            header: "Destination facility",
+            cell: (d) => d.destination || <span className="muted">not recorded</span>,
+          },
           { key: "mass", header: "Quantity", unit: "kg", numeric: true, cell: (d) => num(d.massG / 1000, 3) },
         ]}
       />
@@ -231,15 +256,43 @@ function MovementsTable({ rows, timeZone }: { rows: ContainerMovement[]; timeZon
           { key: "at", header: "When", cell: (m) => when(m.at, timeZone) },
           { key: "dir", header: "In or out", cell: (m) => (m.direction === "IN" ? "In" : "Out") },
           { key: "role", header: "What", cell: (m) => labelOf(m.role) },
-          { key: "other", header: "From or to", cell: (m) => <HolderLink holder={m.otherKind === null || m.otherCode === null ? null : { kind: m.otherKind as HolderKind, code: m.otherCode }} /> },
-          { key: "mass", header: "Mass", unit: "kg", numeric: true, cell: (m) => `${m.direction === "OUT" ? "−" : "+"}${num(m.massG / 1000, 3)}` },
+          {
+            key: "other",
+            header: "From or to",
+            cell: (m) => (
+              <HolderLink
+                holder={
+                  m.otherKind === null || m.otherCode === null
+                    ? null
+                    : { kind: m.otherKind as HolderKind, code: m.otherCode }
+                }
+              />
+            ),
+          },
+          {
+            key: "mass",
+            header: "Mass",
+            unit: "kg",
+            numeric: true,
+            cell: (m) => `${m.direction === "OUT" ? "−" : "+"}${num(m.massG / 1000, 3)}`,
+          },
         ]}
       />
     </section>
   );
 }
 
-function DueText({ due, onSite, hauledAt, timeZone }: { due: ContainerDueRow | undefined; onSite: boolean; hauledAt: Date | null; timeZone: string }) {
+function DueText({
+  due,
+  onSite,
+  hauledAt,
+  timeZone,
+}: {
+  due: ContainerDueRow | undefined;
+  onSite: boolean;
+  hauledAt: Date | null;
+  timeZone: string;
+}) {
   return !onSite ? (
     <span className="muted">hauled away {day(hauledAt, timeZone)}</span>
   ) : due?.due === null || due === undefined ? (
@@ -248,7 +301,12 @@ function DueText({ due, onSite, hauledAt, timeZone }: { due: ContainerDueRow | u
     <span className="muted">no time limit below the satellite or very-small-generator limits</span>
   ) : (
     <span>
-      {due.due.dueDate} {due.overdue ? <span className="status status-overdue">overdue</span> : <span className="muted">({due.daysLeft} days left)</span>}{" "}
+      {due.due.dueDate}{" "}
+      {due.overdue ? (
+        <span className="status status-overdue">overdue</span>
+      ) : (
+        <span className="muted">({due.daysLeft} days left)</span>
+      )}{" "}
       <span className="muted">
         {due.due.limitDays} days, {screenText(due.due.source)}
       </span>{" "}

@@ -26,7 +26,12 @@ export interface ContainerDueRow {
   volumeMl: number;
   accumulationStart: Date;
   satellite: boolean;
-  characterisation: { methanolPct: number | null; pH: number | null; flashPointC: number | null; waterPct: number | null };
+  characterisation: {
+    methanolPct: number | null;
+    pH: number | null;
+    flashPointC: number | null;
+    waterPct: number | null;
+  };
   hazard: HazardAssessment;
   due: WasteDue | null;
   daysLeft: number | null;
@@ -54,14 +59,26 @@ export interface WasteDueReport {
 
 const MS_PER_DAY = 86_400_000;
 
-export async function getWasteDueReport(db: Db, site: { id: number; timeZone: string }, input: unknown, now: Date): Promise<Result<WasteDueReport>> {
+export async function getWasteDueReport(
+  db: Db,
+  site: { id: number; timeZone: string },
+  input: unknown,
+  now: Date,
+): Promise<Result<WasteDueReport>> {
   const raw = parseInput(WasteDuePageQuerySchema, input);
   if (!raw.ok) return raw;
   const horizon = parseInput(WasteDueQuerySchema, { withinDays: raw.value.days });
   if (!horizon.ok) return { ok: false, issues: horizon.issues.map((i) => ({ ...i, field: "days" })) };
   const active = await getActiveWasteRules(db, site.id);
-  const settings = parseInput(WasteSiteSettingsSchema, { generatorCategory: raw.value.category ?? active.generatorCategory, tsdfDistanceMiles: raw.value.tsdfMiles ?? active.tsdfDistanceMiles });
-  if (!settings.ok) return { ok: false, issues: settings.issues.map((i) => ({ ...i, field: i.field === "tsdfDistanceMiles" ? "tsdfMiles" : "category" })) };
+  const settings = parseInput(WasteSiteSettingsSchema, {
+    generatorCategory: raw.value.category ?? active.generatorCategory,
+    tsdfDistanceMiles: raw.value.tsdfMiles ?? active.tsdfDistanceMiles,
+  });
+  if (!settings.ok)
+    return {
+      ok: false,
+      issues: settings.issues.map((i) => ({ ...i, field: i.field === "tsdfDistanceMiles" ? "tsdfMiles" : "category" })),
+    };
   const rules = active.rules;
   const { rows: onSite, inputs } = await loadWasteDueInputs(db, site.id, rules);
   const rows: ContainerDueRow[] = onSite.map((c, i) => ({
@@ -73,17 +90,32 @@ export async function getWasteDueReport(db: Db, site: { id: number; timeZone: st
     accumulationStart: c.accumulationStart,
     satellite: c.satellite,
     characterisation: { methanolPct: c.methanolPct, pH: c.pH, flashPointC: c.flashPointC, waterPct: c.waterPct },
-    hazard: assessWasteHazards(c.stream as WasteStream, { methanolPct: c.methanolPct, pH: c.pH, flashPointC: c.flashPointC, waterPct: c.waterPct }, rules),
+    hazard: assessWasteHazards(
+      c.stream as WasteStream,
+      { methanolPct: c.methanolPct, pH: c.pH, flashPointC: c.flashPointC, waterPct: c.waterPct },
+      rules,
+    ),
     due: null,
     daysLeft: null,
     overdue: false,
   }));
-  const siteRules = { generatorCategory: settings.value.generatorCategory, tsdfDistanceMiles: settings.value.tsdfDistanceMiles, utcOffsetMin: getUtcOffsetMin(site.timeZone, now) };
-  const report = listWasteDue({ containers: inputs, site: siteRules, now: now.getTime(), withinDays: MAX_DUE_HORIZON_DAYS, rules });
+  const siteRules = {
+    generatorCategory: settings.value.generatorCategory,
+    tsdfDistanceMiles: settings.value.tsdfDistanceMiles,
+    utcOffsetMin: getUtcOffsetMin(site.timeZone, now),
+  };
+  const report = listWasteDue({
+    containers: inputs,
+    site: siteRules,
+    now: now.getTime(),
+    withinDays: MAX_DUE_HORIZON_DAYS,
+    rules,
+  });
   if (!report.ok) return report;
   // Every container's due date, from the widest horizon; the stream groups are those due within N days.
   const byCode = new Map<string, { due: WasteDue; daysLeft: number | null; overdue: boolean }>();
-  for (const g of report.value.groups) for (const d of g.items) byCode.set(d.code, { due: d, daysLeft: d.daysLeft, overdue: d.overdue });
+  for (const g of report.value.groups)
+    for (const d of g.items) byCode.set(d.code, { due: d, daysLeft: d.daysLeft, overdue: d.overdue });
   for (const d of report.value.noTimeLimit) byCode.set(d.code, { due: d, daysLeft: null, overdue: false });
   for (const r of rows) {
     const d = byCode.get(r.code);
@@ -94,7 +126,15 @@ export async function getWasteDueReport(db: Db, site: { id: number; timeZone: st
   const within = listWasteDue({ containers: inputs, site: siteRules, now: now.getTime(), withinDays: days, rules });
   if (!within.ok) return within;
   const dueGroups = within.value.groups;
-  const totals = dueGroups.reduce((t, g) => ({ count: t.count + g.totals.count, kg: t.kg + g.totals.kg, litres: t.litres + g.totals.litres, usGallons: t.usGallons + g.totals.usGallons }), { count: 0, kg: 0, litres: 0, usGallons: 0 });
+  const totals = dueGroups.reduce(
+    (t, g) => ({
+      count: t.count + g.totals.count,
+      kg: t.kg + g.totals.kg,
+      litres: t.litres + g.totals.litres,
+      usGallons: t.usGallons + g.totals.usGallons,
+    }),
+    { count: 0, kg: 0, litres: 0, usGallons: 0 },
+  );
   return ok({
     query: { days, category: settings.value.generatorCategory, tsdfMiles: settings.value.tsdfDistanceMiles },
     categoryAssumed: raw.value.category === undefined && active.chosen === null,
@@ -104,11 +144,16 @@ export async function getWasteDueReport(db: Db, site: { id: number; timeZone: st
     localRulesNote: report.value.note,
     now,
     horizonAt: new Date(horizonAt),
-    containers: rows.sort((a, b) => (a.due?.dueAt ?? Number.POSITIVE_INFINITY) - (b.due?.dueAt ?? Number.POSITIVE_INFINITY) || a.code.localeCompare(b.code)),
+    containers: rows.sort(
+      (a, b) =>
+        (a.due?.dueAt ?? Number.POSITIVE_INFINITY) - (b.due?.dueAt ?? Number.POSITIVE_INFINITY) ||
+        a.code.localeCompare(b.code),
+    ),
     groups: dueGroups,
     totals,
     noTimeLimit: report.value.noTimeLimit,
     issues: report.value.issues,
-    densityNote: "Volumes are estimated from book mass at a nominal density at 15 °C for the stream (glycerol for the glycerol phase, water for wash water and other aqueous streams, methanol for methanol-rich liquid); the hauler's measurement is the one that counts.",
+    densityNote:
+      "Volumes are estimated from book mass at a nominal density at 15 °C for the stream (glycerol for the glycerol phase, water for wash water and other aqueous streams, methanol for methanol-rich liquid); the hauler's measurement is the one that counts.",
   });
 }

@@ -29,7 +29,11 @@ const CATEGORY_WORDS: Readonly<Record<string, string>> = {
   VSQG: "Very small quantity generator (VSQG)",
 };
 
-const HAZARD_WORDS: Readonly<Record<string, string>> = { HAZARDOUS: "Hazardous", NEEDS_CHARACTERISATION: "Needs characterisation", NON_HAZARDOUS: "Not hazardous" };
+const HAZARD_WORDS: Readonly<Record<string, string>> = {
+  HAZARDOUS: "Hazardous",
+  NEEDS_CHARACTERISATION: "Needs characterisation",
+  NON_HAZARDOUS: "Not hazardous",
+};
 
 export default async function WasteDuePage({ searchParams }: { searchParams: Promise<Search> }) {
   const { db, site, user } = await loadSite();
@@ -45,8 +49,8 @@ export default async function WasteDuePage({ searchParams }: { searchParams: Pro
       </p>
       <h1>Waste due for haul-away</h1>
       <p className="lede">
-        Every container on site with its hazard flags and the date it must go under the active rule set, and what falls due in the next
-        days, by stream, with totals for the hauler.
+        Every container on site with its hazard flags and the date it must go under the active rule set, and what falls
+        due in the next days, by stream, with totals for the hauler.
       </p>
       <Cautions
         title="Before moving or loading these streams"
@@ -62,7 +66,10 @@ export default async function WasteDuePage({ searchParams }: { searchParams: Pro
         <ReportLinks
           base={`/waste/due/report?${new URLSearchParams({ days: String(result.value.query.days), category: result.value.query.category, ...(result.value.query.tsdfMiles === null ? {} : { tsdfMiles: String(result.value.query.tsdfMiles) }) }).toString()}`}
           pdfLabel="Waste list for the hauler"
-          tables={[["containers", "Containers"], ["due-by-stream", "Due by stream"]]}
+          tables={[
+            ["containers", "Containers"],
+            ["due-by-stream", "Due by stream"],
+          ]}
         />
       ) : null}
       {result.ok ? <DueResult r={result.value} timeZone={tz} /> : null}
@@ -70,7 +77,15 @@ export default async function WasteDuePage({ searchParams }: { searchParams: Pro
   );
 }
 
-function DueForm({ typed, report, issues }: { typed: Record<string, string>; report: WasteDueReport | null; issues: DomainIssue[] }) {
+function DueForm({
+  typed,
+  report,
+  issues,
+}: {
+  typed: Record<string, string>;
+  report: WasteDueReport | null;
+  issues: DomainIssue[];
+}) {
   const bad = (f: string) => (issues.some((i) => i.field === f) ? true : undefined);
   return (
     <form method="get" action="/waste/due" className="query-form" noValidate>
@@ -78,7 +93,13 @@ function DueForm({ typed, report, issues }: { typed: Record<string, string>; rep
         <legend>Due within</legend>
         <label>
           Days ahead
-          <input name="days" inputMode="numeric" size={5} defaultValue={typed.days !== "" ? typed.days : String(report?.query.days ?? DEFAULT_DUE_DAYS)} aria-invalid={bad("days")} />
+          <input
+            name="days"
+            inputMode="numeric"
+            size={5}
+            defaultValue={typed.days !== "" ? typed.days : String(report?.query.days ?? DEFAULT_DUE_DAYS)}
+            aria-invalid={bad("days")}
+          />
         </label>
         <label>
           Generator category
@@ -92,7 +113,13 @@ function DueForm({ typed, report, issues }: { typed: Record<string, string>; rep
         </label>
         <label>
           Miles to the treatment facility (SQG only)
-          <input name="tsdfMiles" inputMode="decimal" size={6} defaultValue={typed.tsdfMiles} aria-invalid={bad("tsdfMiles")} />
+          <input
+            name="tsdfMiles"
+            inputMode="decimal"
+            size={6}
+            defaultValue={typed.tsdfMiles}
+            aria-invalid={bad("tsdfMiles")}
+          />
         </label>
         <button type="submit">List what is due</button>
         {issues.map((i) => (
@@ -139,16 +166,31 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
     <>
       <Facts
         items={[
-          ["Rule set", <Link key="rs" href="/waste/rules">{rs.name}</Link>],
-          ["Generator category used", `${CATEGORY_WORDS[r.query.category] ?? r.query.category}${r.categoryAssumed ? " (assumed)" : ""}`],
+          [
+            "Rule set",
+            <Link key="rs" href="/waste/rules">
+              {rs.name}
+            </Link>,
+          ],
+          [
+            "Generator category used",
+            `${CATEGORY_WORDS[r.query.category] ?? r.query.category}${r.categoryAssumed ? " (assumed)" : ""}`,
+          ],
           ["Due within", `${r.query.days} days (to ${day(r.horizonAt, timeZone)})`],
           ["Containers on site", String(r.containers.length)],
-          ["Due in that time", `${r.totals.count}: ${num(r.totals.kg, 1)} kg, ${num(r.totals.litres, 1)} L, ${num(r.totals.usGallons, 1)} US gal`],
+          [
+            "Due in that time",
+            `${r.totals.count}: ${num(r.totals.kg, 1)} kg, ${num(r.totals.litres, 1)} L, ${num(r.totals.usGallons, 1)} US gal`,
+          ],
         ]}
       />
       <p className="warning">
         {r.localRulesNote}{" "}
-        {r.categoryAssumed ? r.assumptionNote : r.chosen ? `The site's rule set, chosen by ${r.chosen.by}: ${r.chosen.reason}` : `Category ${r.query.category} as chosen in the form.`}
+        {r.categoryAssumed
+          ? r.assumptionNote
+          : r.chosen
+            ? `The site's rule set, chosen by ${r.chosen.by}: ${r.chosen.reason}`
+            : `Category ${r.query.category} as chosen in the form.`}
       </p>
       {r.issues.length > 0 ? (
         <ul className="warning" aria-label="Waste warnings">
@@ -166,8 +208,8 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
           <div key={g.stream} className="table-wrap">
             <table>
               <caption>
-                {labelOf(g.stream)}: {g.totals.count} container{g.totals.count === 1 ? "" : "s"}, {num(g.totals.kg, 1)} kg, {num(g.totals.litres, 1)} L,{" "}
-                {num(g.totals.usGallons, 1)} US gal
+                {labelOf(g.stream)}: {g.totals.count} container{g.totals.count === 1 ? "" : "s"}, {num(g.totals.kg, 1)}{" "}
+                kg, {num(g.totals.litres, 1)} L, {num(g.totals.usGallons, 1)} US gal
               </caption>
               <thead>
                 <tr>
@@ -275,12 +317,15 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
                     {c.due === null ? (
                       <span className="muted">not assessed</span>
                     ) : c.due.dueDate === null ? (
-                      <span className="muted">
-                        no time limit
-                      </span>
+                      <span className="muted">no time limit</span>
                     ) : (
                       <span title={screenText(c.due.source)}>
-                        {c.due.dueDate} {c.overdue ? <span className="status status-overdue">overdue</span> : <span className="muted">({c.daysLeft} d)</span>}
+                        {c.due.dueDate}{" "}
+                        {c.overdue ? (
+                          <span className="status status-overdue">overdue</span>
+                        ) : (
+                          <span className="muted">({c.daysLeft} d)</span>
+                        )}
                       </span>
                     )}
                   </td>
@@ -294,10 +339,11 @@ function DueResult({ r, timeZone }: { r: WasteDueReport; timeZone: string }) {
         </div>
       )}
       <Note>
-        Ignitable (D001): a liquid with a closed-cup flash point below {rs.ignitableFlashPointBelowC.value} °C, unless aqueous with less than{" "}
-        {rs.ignitableAqueousAlcoholBelowPctVol.value} % alcohol ({rs.ignitableFlashPointBelowC.source}). Corrosive (D002): aqueous with pH ≤{" "}
-        {rs.corrosivePhAtMost.value} or ≥ {rs.corrosivePhAtLeast.value} ({rs.corrosivePhAtLeast.source}). A
-        container without the measurements is handled as hazardous until characterised.
+        Ignitable (D001): a liquid with a closed-cup flash point below {rs.ignitableFlashPointBelowC.value} °C, unless
+        aqueous with less than {rs.ignitableAqueousAlcoholBelowPctVol.value} % alcohol (
+        {rs.ignitableFlashPointBelowC.source}). Corrosive (D002): aqueous with pH ≤ {rs.corrosivePhAtMost.value} or ≥{" "}
+        {rs.corrosivePhAtLeast.value} ({rs.corrosivePhAtLeast.source}). A container without the measurements is handled
+        as hazardous until characterised.
       </Note>
 
       <h2>Limits of the rule set</h2>

@@ -21,8 +21,14 @@ function characterisation(c: ContainerDueRow["characterisation"]): string {
 }
 
 function hazardText(h: ContainerDueRow["hazard"]): string {
-  const flag = (f: ContainerDueRow["hazard"]["ignitable"], word: string) => `${word} ${f.status === "YES" ? "yes" : f.status === "NO" ? "no" : "unknown"} (${f.code})`;
-  const overall = h.overall === "HAZARDOUS" ? "hazardous" : h.overall === "NON_HAZARDOUS" ? "not hazardous" : "needs characterisation (handled as hazardous)";
+  const flag = (f: ContainerDueRow["hazard"]["ignitable"], word: string) =>
+    `${word} ${f.status === "YES" ? "yes" : f.status === "NO" ? "no" : "unknown"} (${f.code})`;
+  const overall =
+    h.overall === "HAZARDOUS"
+      ? "hazardous"
+      : h.overall === "NON_HAZARDOUS"
+        ? "not hazardous"
+        : "needs characterisation (handled as hazardous)";
   return `${overall}; ${flag(h.ignitable, "ignitable")}, ${flag(h.corrosive, "corrosive")}${h.listedCodes.length ? `; listed ${h.listedCodes.join(", ")}` : ""}`;
 }
 
@@ -52,7 +58,17 @@ export function buildWasteListDoc(r: WasteDueReport, ctx: ReportContext, ledger:
       characterisation(c.characterisation),
       hazardText(c.hazard),
     ]),
-    total: ["TOTAL", null, null, r.containers.reduce((s, c) => s + c.massG, 0), (r.containers.reduce((s, c) => s + c.volumeMl, 0) / 1000).toFixed(1), null, null, null, null],
+    total: [
+      "TOTAL",
+      null,
+      null,
+      r.containers.reduce((s, c) => s + c.massG, 0),
+      (r.containers.reduce((s, c) => s + c.volumeMl, 0) / 1000).toFixed(1),
+      null,
+      null,
+      null,
+      null,
+    ],
     empty: "No waste container is open or full on site.",
   };
   const byStream: ReportTable = {
@@ -65,8 +81,20 @@ export function buildWasteListDoc(r: WasteDueReport, ctx: ReportContext, ledger:
       { key: "litres", header: "Volume (L, estimate)", kind: "text" },
       { key: "us_gal", header: "Volume (US gal, estimate)", kind: "text" },
     ],
-    rows: r.groups.map((g) => [labelOf(g.stream), g.items.length, g.items.reduce((s, i) => s + i.massG, 0), g.totals.litres.toFixed(1), g.totals.usGallons.toFixed(1)]),
-    total: ["TOTAL", r.totals.count, r.groups.reduce((s, g) => s + g.items.reduce((t, i) => t + i.massG, 0), 0), r.totals.litres.toFixed(1), r.totals.usGallons.toFixed(1)],
+    rows: r.groups.map((g) => [
+      labelOf(g.stream),
+      g.items.length,
+      g.items.reduce((s, i) => s + i.massG, 0),
+      g.totals.litres.toFixed(1),
+      g.totals.usGallons.toFixed(1),
+    ]),
+    total: [
+      "TOTAL",
+      r.totals.count,
+      r.groups.reduce((s, g) => s + g.items.reduce((t, i) => t + i.massG, 0), 0),
+      r.totals.litres.toFixed(1),
+      r.totals.usGallons.toFixed(1),
+    ],
     empty: `Nothing falls due within ${r.query.days} days.`,
   };
   const streams = [...new Set(r.containers.map((c) => c.stream))] as WasteStream[];
@@ -82,7 +110,10 @@ export function buildWasteListDoc(r: WasteDueReport, ctx: ReportContext, ledger:
     facts: [
       ["Rule set", `${r.ruleSet.name}, ${r.ruleSet.edition}`],
       ["Generator category", `${r.query.category}${r.categoryAssumed ? " (assumed)" : ""}`],
-      ["Due in that time", `${r.totals.count} containers, ${r.totals.kg.toFixed(1)} kg, ${r.totals.litres.toFixed(1)} L, ${r.totals.usGallons.toFixed(1)} US gal`],
+      [
+        "Due in that time",
+        `${r.totals.count} containers, ${r.totals.kg.toFixed(1)} kg, ${r.totals.litres.toFixed(1)} L, ${r.totals.usGallons.toFixed(1)} US gal`,
+      ],
     ],
     notes: [r.localRulesNote, r.densityNote],
     cautions: [...streams.flatMap((s) => STREAM_CAUTIONS[s] ?? []), CLOSING_CAUTION],

@@ -11,7 +11,11 @@ import { WasteRulesForm } from "@/app/waste/rules/rules-form";
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Waste rule set" };
 
-const CATEGORY_WORDS: Readonly<Record<string, string>> = { LQG: "large quantity generator", SQG: "small quantity generator", VSQG: "very small quantity generator" };
+const CATEGORY_WORDS: Readonly<Record<string, string>> = {
+  LQG: "large quantity generator",
+  SQG: "small quantity generator",
+  VSQG: "very small quantity generator",
+};
 
 export default async function WasteRulesPage() {
   const { db, site, user } = await loadSite();
@@ -26,8 +30,8 @@ export default async function WasteRulesPage() {
       </p>
       <h1>Waste rule set</h1>
       <p className="lede">
-        The accumulation and storage limits the waste-due list, the container pages and the reports work to. Federal rules are the starting point; states and other
-        countries differ, so a site can name its own set.
+        The accumulation and storage limits the waste-due list, the container pages and the reports work to. Federal
+        rules are the starting point; states and other countries differ, so a site can name its own set.
       </p>
       <section aria-labelledby="active-h">
         <h2 id="active-h">In force</h2>
@@ -40,7 +44,10 @@ export default async function WasteRulesPage() {
             Chosen {when(active.chosen.at, site.timeZone)} by {active.chosen.by}: {active.chosen.reason}
           </p>
         ) : (
-          <Note>No rule set chosen for this site yet: the pages assume federal rules for a large quantity generator, the shortest federal accumulation time.</Note>
+          <Note>
+            No rule set chosen for this site yet: the pages assume federal rules for a large quantity generator, the
+            shortest federal accumulation time.
+          </Note>
         )}
         <div className="table-wrap">
           <table>
@@ -72,7 +79,12 @@ export default async function WasteRulesPage() {
       {canChoose ? (
         <section aria-labelledby="choose-h">
           <h2 id="choose-h">Choose the rule set</h2>
-          <WasteRulesForm current={{ choice: active.rules.id === "SITE_OWN" ? "SITE_OWN" : "US_FEDERAL", generatorCategory: active.generatorCategory }} />
+          <WasteRulesForm
+            current={{
+              choice: active.rules.id === "SITE_OWN" ? "SITE_OWN" : "US_FEDERAL",
+              generatorCategory: active.generatorCategory,
+            }}
+          />
         </section>
       ) : (
         <Note>An administrator or compliance officer chooses the rule set.</Note>

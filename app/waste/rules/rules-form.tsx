@@ -23,14 +23,61 @@ export function WasteRulesForm({ current }: { current: { choice: string; generat
         ]}
         required
       />
-      <Field name="generatorCategory" label="Generator category" type="select" defaultValue={current.generatorCategory} options={CATEGORIES} required />
-      <Field name="tsdfDistanceMiles" label="Distance to the treatment facility" unit="miles" type="number" hint="Only for a small quantity generator: 200 miles or more allows 270 days (40 CFR 262.16)" />
-      <Field name="name" label="Name of the site's own rule set" hint="For example the state or national rule it follows; leave empty for federal rules" />
-      <Field name="hazardousMaxDays" label="Longest accumulation of hazardous waste" unit="days" type="number" hint="Own rule set only; empty keeps the federal value" />
-      <Field name="nonHazardousMaxDays" label="Longest storage of non-hazardous waste" unit="days" type="number" hint="Own rule set only; no federal limit applies" />
-      <Field name="satelliteMaxUsGal" label="Satellite area limit" unit="US gal" type="number" hint="Own rule set only" />
-      <Field name="satelliteExcessDays" label="Days to move a satellite excess" unit="days" type="number" hint="Own rule set only" />
-      <Field name="reason" label="Reason" type="textarea" hint="Why the site works to this set: the permit, rule or regulator's letter" required />
+      <Field
+        name="generatorCategory"
+        label="Generator category"
+        type="select"
+        defaultValue={current.generatorCategory}
+        options={CATEGORIES}
+        required
+      />
+      <Field
+        name="tsdfDistanceMiles"
+        label="Distance to the treatment facility"
+        unit="miles"
+        type="number"
+        hint="Only for a small quantity generator: 200 miles or more allows 270 days (40 CFR 262.16)"
+      />
+      <Field
+        name="name"
+        label="Name of the site's own rule set"
+        hint="For example the state or national rule it follows; leave empty for federal rules"
+      />
+      <Field
+        name="hazardousMaxDays"
+        label="Longest accumulation of hazardous waste"
+        unit="days"
+        type="number"
+        hint="Own rule set only; empty keeps the federal value"
+      />
+      <Field
+        name="nonHazardousMaxDays"
+        label="Longest storage of non-hazardous waste"
+        unit="days"
+        type="number"
+        hint="Own rule set only; no federal limit applies"
+      />
+      <Field
+        name="satelliteMaxUsGal"
+        label="Satellite area limit"
+        unit="US gal"
+        type="number"
+        hint="Own rule set only"
+      />
+      <Field
+        name="satelliteExcessDays"
+        label="Days to move a satellite excess"
+        unit="days"
+        type="number"
+        hint="Own rule set only"
+      />
+      <Field
+        name="reason"
+        label="Reason"
+        type="textarea"
+        hint="Why the site works to this set: the permit, rule or regulator's letter"
+        required
+      />
     </ActionForm>
   );
 }

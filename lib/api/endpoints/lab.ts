@@ -53,35 +53,56 @@ export const AcidValueFfaRequestSchema = z.object({
   from: z.enum(["ACID_VALUE", "FFA"], { error: "from must be ACID_VALUE (give mg KOH/g) or FFA (give %)" }),
   value: z.number({ error: "value must be a number (mg KOH/g or %)" }).min(0, "value must be at least 0"),
   basis: z.enum(FFA_BASES, { error: "basis must be OLEIC, PALMITIC or LAURIC" }).default("OLEIC"),
-  conversion: z.enum(["molar-mass", "ca5a40-note"], { error: "conversion must be molar-mass or ca5a40-note" }).default("molar-mass"),
+  conversion: z
+    .enum(["molar-mass", "ca5a40-note"], { error: "conversion must be molar-mass or ca5a40-note" })
+    .default("molar-mass"),
 });
 
 export const SampleSizeQuerySchema = z.object({
-  expectedFfaPct: z.coerce.number({ error: "expectedFfaPct must be a number (%)" }).min(0, "expectedFfaPct must be at least 0 %").max(100, "expectedFfaPct must be at most 100 %"),
+  expectedFfaPct: z.coerce
+    .number({ error: "expectedFfaPct must be a number (%)" })
+    .min(0, "expectedFfaPct must be at least 0 %")
+    .max(100, "expectedFfaPct must be at most 100 %"),
 });
 
 export const REFERENCE_TEMPERATURES = ["15C", "60F"] as const;
-const referenceField = z.enum(REFERENCE_TEMPERATURES, { error: "reference must be 15C (EN 14214, ASTM D1250) or 60F (60 °F by the same linear density rule, common practice)" }).default("15C");
+const referenceField = z
+  .enum(REFERENCE_TEMPERATURES, {
+    error:
+      "reference must be 15C (EN 14214, ASTM D1250) or 60F (60 °F by the same linear density rule, common practice)",
+  })
+  .default("15C");
 
-export const VolumeMassRequestSchema = z.discriminatedUnion("direction", [
-  z.object({
-    direction: z.literal("VOLUME_TO_MASS"),
-    observation: DensityObservationSchema,
-    reference: referenceField,
-  }),
-  z.object({
-    direction: z.literal("MASS_TO_VOLUME"),
-    materialKind: z.enum(MATERIAL_KINDS, { error: `materialKind must be one of ${MATERIAL_KINDS.join(", ")}` }),
-    massKg: z.number({ error: "massKg must be a number (kg)" }).positive("massKg must be more than 0 kg").max(2_000_000, "massKg must be at most 2,000,000 kg"),
-    temperatureC: z
-      .number({ error: "temperatureC must be a number (°C)" })
-      .min(MIN_OBSERVED_TEMP_C, `temperatureC must be at least ${MIN_OBSERVED_TEMP_C} °C`)
-      .max(MAX_OBSERVED_TEMP_C, `temperatureC must be at most ${MAX_OBSERVED_TEMP_C} °C`),
-    /** Measured density at 15 °C; the material's table value when absent. */
-    densityKgM3At15: z.number({ error: "densityKgM3At15 must be a number (kg/m³)" }).min(500, "density must be between 0.5 and 1.5 kg/L").max(1500, "density must be between 0.5 and 1.5 kg/L").optional(),
-    reference: referenceField,
-  }),
-], { error: "direction must be VOLUME_TO_MASS or MASS_TO_VOLUME" });
+export const VolumeMassRequestSchema = z.discriminatedUnion(
+  "direction",
+  [
+    z.object({
+      direction: z.literal("VOLUME_TO_MASS"),
+      observation: DensityObservationSchema,
+      reference: referenceField,
+    }),
+    z.object({
+      direction: z.literal("MASS_TO_VOLUME"),
+      materialKind: z.enum(MATERIAL_KINDS, { error: `materialKind must be one of ${MATERIAL_KINDS.join(", ")}` }),
+      massKg: z
+        .number({ error: "massKg must be a number (kg)" })
+        .positive("massKg must be more than 0 kg")
+        .max(2_000_000, "massKg must be at most 2,000,000 kg"),
+      temperatureC: z
+        .number({ error: "temperatureC must be a number (°C)" })
+        .min(MIN_OBSERVED_TEMP_C, `temperatureC must be at least ${MIN_OBSERVED_TEMP_C} °C`)
+        .max(MAX_OBSERVED_TEMP_C, `temperatureC must be at most ${MAX_OBSERVED_TEMP_C} °C`),
+      /** Measured density at 15 °C; the material's table value when absent. */
+      densityKgM3At15: z
+        .number({ error: "densityKgM3At15 must be a number (kg/m³)" })
+        .min(500, "density must be between 0.5 and 1.5 kg/L")
+        .max(1500, "density must be between 0.5 and 1.5 kg/L")
+        .optional(),
+      reference: referenceField,
+    }),
+  ],
+  { error: "direction must be VOLUME_TO_MASS or MASS_TO_VOLUME" },
+);
 
 export const YieldRequestSchema = z.object({ recipe: RecipeInputSchema, actuals: BatchActualsSchema });
 
@@ -99,7 +120,12 @@ export const TitrationAnswerSchema = z.object({
   acidValueMgKohG: z.number().describe("EN 14104 / ISO 660, mg KOH/g"),
 });
 
-export const AcidValueFfaAnswerSchema = z.object({ ffaPct: z.number(), acidValueMgKohG: z.number(), basis: z.enum(FFA_BASES), conversion: z.string() });
+export const AcidValueFfaAnswerSchema = z.object({
+  ffaPct: z.number(),
+  acidValueMgKohG: z.number(),
+  basis: z.enum(FFA_BASES),
+  conversion: z.string(),
+});
 
 export const SampleSizeAnswerSchema = z.object({
   minPct: z.number(),
@@ -131,7 +157,12 @@ export const VolumeMassAnswerSchema = z.object({
 
 const RecipePlanOutputSchema = z.looseObject({
   oil: z.looseObject({ massKg: z.number(), ffaPct: z.number(), waterPct: z.number() }),
-  methanol: z.looseObject({ chargeKg: z.number(), toAddKg: z.number(), toAddL20C: z.number(), fromCatalystSolutionKg: z.number() }),
+  methanol: z.looseObject({
+    chargeKg: z.number(),
+    toAddKg: z.number(),
+    toAddL20C: z.number(),
+    fromCatalystSolutionKg: z.number(),
+  }),
   catalyst: z.looseObject({ type: z.string(), productKg: z.number(), pureKg: z.number(), assayPct: z.number() }),
   products: z.looseObject({ fameKg: z.number(), glycerolKg: z.number(), soapKg: z.number() }),
   washWater: z.looseObject({ totalKg: z.number() }),
@@ -139,7 +170,10 @@ const RecipePlanOutputSchema = z.looseObject({
 });
 
 const PretreatmentPlanOutputSchema = z.object({
-  decision: z.looseObject({ route: z.enum(["DIRECT_BASE", "BASE_WITH_EXTRA_CATALYST", "ACID_PRETREATMENT"]), reason: z.string() }),
+  decision: z.looseObject({
+    route: z.enum(["DIRECT_BASE", "BASE_WITH_EXTRA_CATALYST", "ACID_PRETREATMENT"]),
+    reason: z.string(),
+  }),
   acidStep: z.looseObject({ methanolKg: z.number(), acidProductKg: z.number(), residualFfaPct: z.number() }).nullable(),
   baseStep: RecipePlanOutputSchema,
   warnings: z.array(issueSchema),
@@ -156,7 +190,12 @@ const BlendPlanOutputSchema = z.object({
   warnings: z.array(issueSchema),
 });
 
-const UsageSchema = z.object({ plannedKg: z.number(), actualKg: z.number(), deltaKg: z.number(), ratio: z.number().nullable() });
+const UsageSchema = z.object({
+  plannedKg: z.number(),
+  actualKg: z.number(),
+  deltaKg: z.number(),
+  ratio: z.number().nullable(),
+});
 
 const BatchYieldOutputSchema = z.looseObject({
   oilChargedKg: z.number(),
@@ -172,7 +211,16 @@ const BatchYieldOutputSchema = z.looseObject({
 });
 
 const RecipeCardOutputSchema = z.looseObject({
-  draws: z.array(z.object({ ref: z.string(), kind: z.enum(["LOT", "TANK"]), code: z.string(), massG: z.number().int(), ffaPct: z.number(), waterPct: z.number() })),
+  draws: z.array(
+    z.object({
+      ref: z.string(),
+      kind: z.enum(["LOT", "TANK"]),
+      code: z.string(),
+      massG: z.number().int(),
+      ffaPct: z.number(),
+      waterPct: z.number(),
+    }),
+  ),
   blend: z.looseObject({ massG: z.number().int(), ffaPct: z.number(), waterPct: z.number() }),
   route: z.object({ route: z.string(), reason: z.string() }),
   methanolTotal: z.object({ kg: z.number(), l20C: z.number() }),
@@ -181,7 +229,17 @@ const RecipeCardOutputSchema = z.looseObject({
 });
 
 const ProposalOutputSchema = z.object({
-  candidates: z.array(z.looseObject({ ref: z.string(), kind: z.enum(["LOT", "TANK"]), code: z.string(), availableG: z.number().int(), ffaPct: z.number().nullable(), waterPct: z.number().nullable(), leftOutBecause: z.string().nullable() })),
+  candidates: z.array(
+    z.looseObject({
+      ref: z.string(),
+      kind: z.enum(["LOT", "TANK"]),
+      code: z.string(),
+      availableG: z.number().int(),
+      ffaPct: z.number().nullable(),
+      waterPct: z.number().nullable(),
+      leftOutBecause: z.string().nullable(),
+    }),
+  ),
   card: RecipeCardOutputSchema,
 });
 
@@ -195,20 +253,37 @@ export function answerTitration(entry: TitrationEntry): Result<TitrationAnswer> 
   if (!ffa.ok) return ffa;
   const av = calculateAcidValue(entry);
   if (!av.ok) return av;
-  return ok({ ffaPct: ffa.value.ffaPct, basis: ffa.value.basis, factor: ffa.value.factor, netTitreMl: ffa.value.netTitreMl, acidValueMgKohG: av.value.acidValueMgKohG });
+  return ok({
+    ffaPct: ffa.value.ffaPct,
+    basis: ffa.value.basis,
+    factor: ffa.value.factor,
+    netTitreMl: ffa.value.netTitreMl,
+    acidValueMgKohG: av.value.acidValueMgKohG,
+  });
 }
 
-export function answerAcidValueFfa(input: z.output<typeof AcidValueFfaRequestSchema>): Result<z.infer<typeof AcidValueFfaAnswerSchema>> {
-  const options: { basis: FfaBasis; conversion: AvFfaConversion } = { basis: input.basis, conversion: input.conversion };
+export function answerAcidValueFfa(
+  input: z.output<typeof AcidValueFfaRequestSchema>,
+): Result<z.infer<typeof AcidValueFfaAnswerSchema>> {
+  const options: { basis: FfaBasis; conversion: AvFfaConversion } = {
+    basis: input.basis,
+    conversion: input.conversion,
+  };
   if (input.from === "FFA") {
     const av = acidValueFromFfa(input.value, options);
-    return av.ok ? ok({ ffaPct: input.value, acidValueMgKohG: av.value, basis: input.basis, conversion: input.conversion }) : av;
+    return av.ok
+      ? ok({ ffaPct: input.value, acidValueMgKohG: av.value, basis: input.basis, conversion: input.conversion })
+      : av;
   }
   const ffa = ffaFromAcidValue(input.value, options);
-  return ffa.ok ? ok({ ffaPct: ffa.value, acidValueMgKohG: input.value, basis: input.basis, conversion: input.conversion }) : ffa;
+  return ffa.ok
+    ? ok({ ffaPct: ffa.value, acidValueMgKohG: input.value, basis: input.basis, conversion: input.conversion })
+    : ffa;
 }
 
-export function answerSampleSize(input: z.output<typeof SampleSizeQuerySchema>): Result<z.infer<typeof SampleSizeAnswerSchema>> {
+export function answerSampleSize(
+  input: z.output<typeof SampleSizeQuerySchema>,
+): Result<z.infer<typeof SampleSizeAnswerSchema>> {
   const s = suggestSampleSize(input.expectedFfaPct);
   if (!s.ok) return s;
   const { row } = s.value;
@@ -229,7 +304,9 @@ function referenceTempC(reference: (typeof REFERENCE_TEMPERATURES)[number]): num
 }
 
 /** Mass and standard volume from an observed volume, or the volumes a mass fills, with the density basis named. */
-export function answerVolumeMass(input: z.output<typeof VolumeMassRequestSchema>): Result<z.infer<typeof VolumeMassAnswerSchema>> {
+export function answerVolumeMass(
+  input: z.output<typeof VolumeMassRequestSchema>,
+): Result<z.infer<typeof VolumeMassAnswerSchema>> {
   const refC = referenceTempC(input.reference);
   let observedVolumeL: number;
   let observedTempC: number;
@@ -237,12 +314,20 @@ export function answerVolumeMass(input: z.output<typeof VolumeMassRequestSchema>
   if (input.direction === "VOLUME_TO_MASS") {
     const o = input.observation;
     const base = requireDensityEntry(DEFAULT_DENSITY_TABLE, o.materialKind);
-    entry = o.density === undefined ? base : applyMeasuredDensity(base, { ...o.density, source: "given with the request" });
+    entry =
+      o.density === undefined ? base : applyMeasuredDensity(base, { ...o.density, source: "given with the request" });
     observedVolumeL = o.observedVolumeL;
     observedTempC = o.observedTempC;
   } else {
     const base = requireDensityEntry(DEFAULT_DENSITY_TABLE, input.materialKind);
-    entry = input.densityKgM3At15 === undefined ? base : applyMeasuredDensity(base, { densityKgM3: input.densityKgM3At15, atTempC: 15, source: "given with the request" });
+    entry =
+      input.densityKgM3At15 === undefined
+        ? base
+        : applyMeasuredDensity(base, {
+            densityKgM3: input.densityKgM3At15,
+            atTempC: 15,
+            source: "given with the request",
+          });
     const v = observedVolumeFromMass({ massKg: input.massKg, observedTempC: input.temperatureC, entry });
     if (!v.ok) return v;
     observedVolumeL = v.value.volumeL;
@@ -302,7 +387,8 @@ export const LAB_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/compute/titration",
-    summary: "FFA % (AOCS Ca 5a-40) and acid value (EN 14104 form) from one titration; nothing is stored. Any signed-in user.",
+    summary:
+      "FFA % (AOCS Ca 5a-40) and acid value (EN 14104 form) from one titration; nothing is stored. Any signed-in user.",
     tag: TAG_COMPUTE,
     input: TitrationEntrySchema,
     output: TitrationAnswerSchema,
@@ -310,7 +396,8 @@ export const LAB_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/compute/acid-value-ffa",
-    summary: "Acid value ↔ FFA % conversion (molar-mass ratio, or the Ca 5a-40 ×1.99 note for oleic). Any signed-in user.",
+    summary:
+      "Acid value ↔ FFA % conversion (molar-mass ratio, or the Ca 5a-40 ×1.99 note for oleic). Any signed-in user.",
     tag: TAG_COMPUTE,
     input: AcidValueFfaRequestSchema,
     output: AcidValueFfaAnswerSchema,
@@ -318,7 +405,8 @@ export const LAB_ENDPOINTS: EndpointDoc[] = [
   {
     method: "get",
     path: "/api/compute/sample-size",
-    summary: "Sample mass, alcohol volume and titrant strength for an expected FFA (AOCS Ca 5a-40 Table 1). Any signed-in user.",
+    summary:
+      "Sample mass, alcohol volume and titrant strength for an expected FFA (AOCS Ca 5a-40 Table 1). Any signed-in user.",
     tag: TAG_COMPUTE,
     input: SampleSizeQuerySchema,
     output: SampleSizeAnswerSchema,
@@ -326,7 +414,8 @@ export const LAB_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/compute/volume-mass",
-    summary: "Observed volume → mass and standard volume at 15 °C or 60 °F, or mass → volumes; density from the table or a measured value. Any signed-in user.",
+    summary:
+      "Observed volume → mass and standard volume at 15 °C or 60 °F, or mass → volumes; density from the table or a measured value. Any signed-in user.",
     tag: TAG_COMPUTE,
     input: VolumeMassRequestSchema,
     output: VolumeMassAnswerSchema,
@@ -334,7 +423,8 @@ export const LAB_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/compute/recipe",
-    summary: "Base-catalysed batch recipe for the lots to charge: methanol, catalyst corrected for purity, expected products. Any signed-in user.",
+    summary:
+      "Base-catalysed batch recipe for the lots to charge: methanol, catalyst corrected for purity, expected products. Any signed-in user.",
     tag: TAG_COMPUTE,
     input: RecipeInputSchema,
     output: RecipePlanOutputSchema,
@@ -342,7 +432,8 @@ export const LAB_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/compute/pretreatment",
-    summary: "Route by blend FFA, and the acid esterification step plus base step when the FFA needs it. Any signed-in user.",
+    summary:
+      "Route by blend FFA, and the acid esterification step plus base step when the FFA needs it. Any signed-in user.",
     tag: TAG_COMPUTE,
     input: PretreatmentInputSchema,
     output: PretreatmentPlanOutputSchema,
@@ -350,7 +441,8 @@ export const LAB_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/compute/blend",
-    summary: "Draws from candidate lots that make the target within the FFA and water limits (HiGHS); when impossible, which limit fails and by how much. Any signed-in user.",
+    summary:
+      "Draws from candidate lots that make the target within the FFA and water limits (HiGHS); when impossible, which limit fails and by how much. Any signed-in user.",
     tag: TAG_COMPUTE,
     input: BlendRequestSchema,
     output: BlendPlanOutputSchema,
@@ -358,7 +450,8 @@ export const LAB_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/compute/yield",
-    summary: "Ester yield vs theory and per kg oil, glycerol phase per kg oil, catalyst and methanol used vs planned. Any signed-in user.",
+    summary:
+      "Ester yield vs theory and per kg oil, glycerol phase per kg oil, catalyst and methanol used vs planned. Any signed-in user.",
     tag: TAG_COMPUTE,
     input: YieldRequestSchema,
     output: BatchYieldOutputSchema,
@@ -390,7 +483,8 @@ export const LAB_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/batches/propose",
-    summary: "Proposes draws from accepted lots and feedstock tanks and the recipe card; nothing is stored. Any signed-in user.",
+    summary:
+      "Proposes draws from accepted lots and feedstock tanks and the recipe card; nothing is stored. Any signed-in user.",
     tag: TAG_BATCH,
     input: BatchPlanRequestSchema,
     output: ProposalOutputSchema,
@@ -398,7 +492,8 @@ export const LAB_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/batches/plan",
-    summary: "Proposes as /api/batches/propose and records the batch as planned, storing the recipe card and draws (code required). Production.",
+    summary:
+      "Proposes as /api/batches/propose and records the batch as planned, storing the recipe card and draws (code required). Production.",
     tag: TAG_BATCH,
     input: BatchPlanRequestSchema,
     output: z.object({ code: z.string(), card: RecipeCardOutputSchema }),
@@ -414,7 +509,8 @@ export const LAB_ENDPOINTS: EndpointDoc[] = [
   {
     method: "post",
     path: "/api/batches/complete",
-    summary: "Records what was weighed or gauged out; the remainder is booked as the batch's unmeasured difference (never typed). Water used for washing goes from its water lot to the wash-water stream. Production.",
+    summary:
+      "Records what was weighed or gauged out; the remainder is booked as the batch's unmeasured difference (never typed). Water used for washing goes from its water lot to the wash-water stream. Production.",
     tag: TAG_BATCH,
     input: BatchCompleteSchema,
     output: z.object({ code: z.string(), productLots: z.array(z.string()), unmeasuredG: z.number().int() }),

@@ -8,7 +8,9 @@ import { RECALL_KINDS } from "@/lib/trace/recall.schema";
 import { oneOf } from "@/lib/ledger/fields";
 
 const FormatQuery = z.object({
-  format: oneOf("Format", ["pdf", "csv"] as const).optional().describe("pdf (default) or csv"),
+  format: oneOf("Format", ["pdf", "csv"] as const)
+    .optional()
+    .describe("pdf (default) or csv"),
   table: z.string().optional().describe("With format=csv: which table (the page's CSV links name them)"),
 });
 
@@ -32,35 +34,43 @@ export const REPORT_ENDPOINTS: EndpointDoc[] = [
     method: "get",
     path: "/trace/report",
     tag: "Reports",
-    summary: "Trace report: what a product lot, tank at a time, shipment or batch is made of, by source, lot, pickup, material and certification, with reagents. Tables: sources, lots, pickups, materials, certification, reagents. Production, compliance and administrators.",
+    summary:
+      "Trace report: what a product lot, tank at a time, shipment or batch is made of, by source, lot, pickup, material and certification, with reagents. Tables: sources, lots, pickups, materials, certification, reagents. Production, compliance and administrators.",
     input: FormatQuery.extend(BackwardTraceQuerySchema.shape),
   },
   {
     method: "get",
     path: "/balance/report",
     tag: "Reports",
-    summary: "Period balance statement: opening stock and receipts against outputs, closing stock and what is unaccounted, by material kind, batches finished, and book stock against the tank gauges. Tables: statement, materials, batches, gauges. Compliance and administrators.",
+    summary:
+      "Period balance statement: opening stock and receipts against outputs, closing stock and what is unaccounted, by material kind, batches finished, and book stock against the tank gauges. Tables: statement, materials, batches, gauges. Compliance and administrators.",
     input: FormatQuery.extend(BalanceQuerySchema.shape),
   },
   {
     method: "get",
     path: "/balance/custody/report",
     tag: "Reports",
-    summary: "Chain-of-custody statement for a balance period: certified inputs by characteristic set, conversions, certified claims and the accounts' period figures. Tables: inputs, conversions, claims, accounts. Compliance and administrators.",
-    input: FormatQuery.extend({ period: z.string().optional().describe("Balance period label, e.g. 2026-Q4"), operatorType: z.string().optional() }),
+    summary:
+      "Chain-of-custody statement for a balance period: certified inputs by characteristic set, conversions, certified claims and the accounts' period figures. Tables: inputs, conversions, claims, accounts. Compliance and administrators.",
+    input: FormatQuery.extend({
+      period: z.string().optional().describe("Balance period label, e.g. 2026-Q4"),
+      operatorType: z.string().optional(),
+    }),
   },
   {
     method: "get",
     path: "/waste/due/report",
     tag: "Reports",
-    summary: "Waste list for the hauler: containers on site with stream, quantity, due date, characterisation, hazard flags and the usual cautions, and what falls due by stream. Tables: containers, due-by-stream. Production, compliance and administrators.",
+    summary:
+      "Waste list for the hauler: containers on site with stream, quantity, due date, characterisation, hazard flags and the usual cautions, and what falls due by stream. Tables: containers, due-by-stream. Production, compliance and administrators.",
     input: FormatQuery.extend(WasteDuePageQuerySchema.shape),
   },
   {
     method: "get",
     path: "/lots/{code}/report",
     tag: "Reports",
-    summary: "Lot history: pickups or delivery, lab results, and where the lot's material went. Tables: pickups, lab, where-it-went. Production, compliance and administrators.",
+    summary:
+      "Lot history: pickups or delivery, lab results, and where the lot's material went. Tables: pickups, lab, where-it-went. Production, compliance and administrators.",
     input: FormatQuery,
   },
 ];

@@ -4,7 +4,13 @@ import { ShipmentRecordSchema } from "@/lib/shipment/shipment.schema";
 
 /** Customers and shipments (compliance). Writes need an Idempotency-Key header. */
 export const SHIPMENT_ENDPOINTS: EndpointDoc[] = [
-  { method: "post", path: "/api/customers", tag: "Shipments", summary: "Record a customer (Idempotency-Key header required)", input: CustomerSchema },
+  {
+    method: "post",
+    path: "/api/customers",
+    tag: "Shipments",
+    summary: "Record a customer (Idempotency-Key header required)",
+    input: CustomerSchema,
+  },
   {
     method: "post",
     path: "/api/shipments",

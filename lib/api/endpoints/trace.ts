@@ -11,7 +11,12 @@ import { GENERATOR_CATEGORIES } from "@/lib/waste/waste.schema";
 
 // The query shapes live with their domains (the services parse with them); re-exported here for the
 // pages and the OpenAPI document below.
-export { BACKWARD_KINDS, BackwardTraceQuerySchema, FORWARD_KINDS, ForwardTraceQuerySchema } from "@/lib/trace/trace-query.schema";
+export {
+  BACKWARD_KINDS,
+  BackwardTraceQuerySchema,
+  FORWARD_KINDS,
+  ForwardTraceQuerySchema,
+} from "@/lib/trace/trace-query.schema";
 export type { BackwardKind, BackwardTraceQuery, ForwardKind, ForwardTraceQuery } from "@/lib/trace/trace-query.schema";
 import { BackwardTraceQuerySchema, ForwardTraceQuerySchema } from "@/lib/trace/trace-query.schema";
 export { BALANCE_PERIOD_KINDS, BalanceQuerySchema } from "@/lib/mass-balance/balance-query.schema";
@@ -33,7 +38,10 @@ export const DEFAULT_DUE_DAYS = 30;
 export const WasteDuePageQuerySchema = z.object({
   days: z.preprocess(blank, z.coerce.number({ error: "Days ahead must be a number" }).default(DEFAULT_DUE_DAYS)),
   category: z.preprocess(blank, oneOf("Generator category", GENERATOR_CATEGORIES).optional()),
-  tsdfMiles: z.preprocess(blank, z.coerce.number({ error: "Distance to the treatment facility (miles) must be a number" }).optional()),
+  tsdfMiles: z.preprocess(
+    blank,
+    z.coerce.number({ error: "Distance to the treatment facility (miles) must be a number" }).optional(),
+  ),
 });
 
 // ---- periods -------------------------------------------------------------------------------------
@@ -62,7 +70,8 @@ export const TRACE_ENDPOINTS: EndpointDoc[] = [
     method: "get",
     path: "/api/trace/forward",
     tag: "Trace",
-    summary: "Where the material of a source, a pickup or a feedstock lot went: every holder that received part of it, with grams received and still held, and where it is now by stage (adds up to what entered). Any signed-in user.",
+    summary:
+      "Where the material of a source, a pickup or a feedstock lot went: every holder that received part of it, with grams received and still held, and where it is now by stage (adds up to what entered). Any signed-in user.",
     input: ForwardTraceQuerySchema,
   },
   {
@@ -101,7 +110,8 @@ export const TRACE_ENDPOINTS: EndpointDoc[] = [
     method: "post",
     path: "/api/periods/reopen",
     tag: "Balance",
-    summary: "Reopen a closed accounting period; the reason is required (at least 5 characters) and recorded with who and when. Compliance only.",
+    summary:
+      "Reopen a closed accounting period; the reason is required (at least 5 characters) and recorded with who and when. Compliance only.",
     input: PeriodActionBodyDoc("Why the period is reopened: 5 to 500 characters, required"),
     output: z.object({ id: z.number().int() }),
   },

@@ -1,5 +1,10 @@
 import type { EndpointDoc } from "@/lib/api/openapi";
-import { DisposalSchema, MarkContainerFullSchema, WasteCharacterisationEntrySchema, WasteContainerSchema } from "@/lib/waste/container.schema";
+import {
+  DisposalSchema,
+  MarkContainerFullSchema,
+  WasteCharacterisationEntrySchema,
+  WasteContainerSchema,
+} from "@/lib/waste/container.schema";
 
 /** Waste container records and haul-aways. Writes need an Idempotency-Key header. */
 export const WASTE_ENDPOINTS: EndpointDoc[] = [
@@ -7,7 +12,8 @@ export const WASTE_ENDPOINTS: EndpointDoc[] = [
     method: "post",
     path: "/api/waste/containers",
     tag: "Waste",
-    summary: "Open a waste container (production or compliance; Idempotency-Key header required). A duplicate code is 409; an accumulation start in a closed period is 409.",
+    summary:
+      "Open a waste container (production or compliance; Idempotency-Key header required). A duplicate code is 409; an accumulation start in a closed period is 409.",
     input: WasteContainerSchema,
   },
   {

@@ -17,7 +17,10 @@ export interface Books {
 
 export async function fingerprint(db: Db, siteId: number): Promise<Books> {
   const holders = await db.holder.findMany({ where: { siteId }, select: { id: true, code: true, stockG: true } });
-  const moves = await db.movement.findMany({ where: { siteId }, select: { fromHolderId: true, toHolderId: true, massG: true } });
+  const moves = await db.movement.findMany({
+    where: { siteId },
+    select: { fromHolderId: true, toHolderId: true, massG: true },
+  });
   const ledger = new Map<number, number>();
   for (const m of moves) {
     ledger.set(m.toHolderId, (ledger.get(m.toHolderId) ?? 0) + m.massG);
@@ -33,6 +36,8 @@ export async function fingerprint(db: Db, siteId: number): Promise<Books> {
     idempotencyRecords: await db.idempotencyRecord.count(),
     auditEvents: verified.value.events,
     auditLastHash: verified.value.lastHash,
-    stockOffLedger: holders.filter((h) => h.stockG !== (ledger.get(h.id) ?? 0)).map((h) => `${h.code}: ${h.stockG} vs ${ledger.get(h.id) ?? 0}`),
+    stockOffLedger: holders
+      .filter((h) => h.stockG !== (ledger.get(h.id) ?? 0))
+      .map((h) => `${h.code}: ${h.stockG} vs ${ledger.get(h.id) ?? 0}`),
   };
 }

@@ -25,8 +25,19 @@ export async function createTestPlant(db: Db): Promise<TestPlant> {
     userId: (await insertUser(db, { siteId: site.id, login, fullName: login, role })).id,
     now: at("2026-03-01T12:00:00Z"),
   });
-  const plant = { siteId: site.id, collector: await actor("c", "COLLECTOR"), production: await actor("p", "PRODUCTION"), compliance: await actor("q", "COMPLIANCE") };
-  const src = await runInTransaction(db, (tx) => insertSource(tx, site.id, SourceSchema.parse({ code: "R1", name: "Test Kitchen", kind: "RESTAURANT", materials: ["USED_COOKING_OIL"] })));
+  const plant = {
+    siteId: site.id,
+    collector: await actor("c", "COLLECTOR"),
+    production: await actor("p", "PRODUCTION"),
+    compliance: await actor("q", "COMPLIANCE"),
+  };
+  const src = await runInTransaction(db, (tx) =>
+    insertSource(
+      tx,
+      site.id,
+      SourceSchema.parse({ code: "R1", name: "Test Kitchen", kind: "RESTAURANT", materials: ["USED_COOKING_OIL"] }),
+    ),
+  );
   if (!src.ok) throw new Error("source");
   for (const t of [
     { code: "T1", name: "Feed", service: "FEEDSTOCK", capacityL: 50_000 },
@@ -40,7 +51,11 @@ export async function createTestPlant(db: Db): Promise<TestPlant> {
 }
 
 /** A pickup received whole into a lot, titrated and accepted, so it can be drawn into tanks and batches. */
-export async function acceptedLot(db: Db, plant: TestPlant, o: { lot: string; pickup: string; day: number; volumeL?: number }): Promise<void> {
+export async function acceptedLot(
+  db: Db,
+  plant: TestPlant,
+  o: { lot: string; pickup: string; day: number; volumeL?: number },
+): Promise<void> {
   const { recordPickup } = await import("@/lib/feedstock/pickup.service");
   const { decideLot, receiveLotFromPickups } = await import("@/lib/feedstock/lot.service");
   const { recordTitration } = await import("@/lib/feedstock/titration.service");
@@ -50,8 +65,37 @@ export async function acceptedLot(db: Db, plant: TestPlant, o: { lot: string; pi
     if (!r.ok) throw new Error(JSON.stringify(r.issues));
     return r.value;
   };
-  must(await recordPickup(db, plant.collector, { code: o.pickup, sourceCode: "R1", material: "USED_COOKING_OIL", observedAt: `2026-02-${dd}T09:00:00Z`, containers: 5, volumeL, tempC: 15 }));
-  must(await receiveLotFromPickups(db, plant.production, { code: o.lot, material: "USED_COOKING_OIL", receivedAt: `2026-02-${dd}T16:00:00Z`, observedVolumeL: volumeL, observedTempC: 15, pickupCodes: [o.pickup] }));
-  must(await recordTitration(db, plant.production, { lotCode: o.lot, testedAt: `2026-02-${dd}T17:00:00Z`, sampleMassG: 7.05, titrant: "NAOH", concentrationMolL: 0.25, titreMl: 2, basis: "OLEIC" }));
+  must(
+    await recordPickup(db, plant.collector, {
+      code: o.pickup,
+      sourceCode: "R1",
+      material: "USED_COOKING_OIL",
+      observedAt: `2026-02-${dd}T09:00:00Z`,
+      containers: 5,
+      volumeL,
+      tempC: 15,
+    }),
+  );
+  must(
+    await receiveLotFromPickups(db, plant.production, {
+      code: o.lot,
+      material: "USED_COOKING_OIL",
+      receivedAt: `2026-02-${dd}T16:00:00Z`,
+      observedVolumeL: volumeL,
+      observedTempC: 15,
+      pickupCodes: [o.pickup],
+    }),
+  );
+  must(
+    await recordTitration(db, plant.production, {
+      lotCode: o.lot,
+      testedAt: `2026-02-${dd}T17:00:00Z`,
+      sampleMassG: 7.05,
+      titrant: "NAOH",
+      concentrationMolL: 0.25,
+      titreMl: 2,
+      basis: "OLEIC",
+    }),
+  );
   must(await decideLot(db, plant.production, { lotCode: o.lot, status: "ACCEPTED" }));
 }

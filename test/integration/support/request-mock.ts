@@ -11,8 +11,10 @@ export interface MockSession {
 export function requestServiceMock(session: MockSession) {
   const requireRole = (roles: readonly string[]) => {
     const u = session.user;
-    if (u === null) return Promise.resolve({ ok: false, issues: [{ code: "AUTH.UNAUTHENTICATED", message: "Sign in first" }] });
-    if (!roles.includes(u.role)) return Promise.resolve({ ok: false, issues: [{ code: "AUTH.FORBIDDEN", message: "wrong role" }] });
+    if (u === null)
+      return Promise.resolve({ ok: false, issues: [{ code: "AUTH.UNAUTHENTICATED", message: "Sign in first" }] });
+    if (!roles.includes(u.role))
+      return Promise.resolve({ ok: false, issues: [{ code: "AUTH.FORBIDDEN", message: "wrong role" }] });
     return Promise.resolve({ ok: true, value: { ...u, login: "t", fullName: "T" } });
   };
   const requireReader = (request: Request) => {

@@ -33,7 +33,15 @@ export async function createTestDb(provider: Provider): Promise<TestDb> {
     const url = `file:${path.join(dir, "test.db")}`;
     await deploy(url);
     const db = await openDb(url);
-    return { provider, url, db, drop: async () => { await db.$disconnect(); rmSync(dir, { recursive: true, force: true }); } };
+    return {
+      provider,
+      url,
+      db,
+      drop: async () => {
+        await db.$disconnect();
+        rmSync(dir, { recursive: true, force: true });
+      },
+    };
   }
   if (!PG_URL) throw new Error("TEST_PG_URL is not set");
   const name = `tracevat_it_${process.pid}_${Date.now()}_${Math.floor(Math.random() * 1e6)}`;
@@ -45,7 +53,9 @@ export async function createTestDb(provider: Provider): Promise<TestDb> {
   await deploy(url);
   const db = await openDb(url);
   return {
-    provider, url, db,
+    provider,
+    url,
+    db,
     drop: async () => {
       await db.$disconnect();
       const c = new pg.Client({ connectionString: PG_URL });

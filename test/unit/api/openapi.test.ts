@@ -7,13 +7,19 @@ import { apiTypesSource } from "@/lib/api/client/generate";
 import { buildOpenApi, operationIdFor, pathParameterNames, tagName } from "@/lib/api/openapi";
 import type { EndpointDoc } from "@/lib/api/openapi";
 
-type Operation = { operationId?: string; tags?: string[]; parameters?: Array<{ name: string; in: string; required?: boolean }> };
+type Operation = {
+  operationId?: string;
+  tags?: string[];
+  parameters?: Array<{ name: string; in: string; required?: boolean }>;
+};
 type Doc = { tags: Array<{ name: string }>; paths: Record<string, Record<string, Operation>> };
 
 const INFO = { title: "t", version: "1", description: "d" };
 
 function operations(doc: Doc): Array<{ path: string; method: string; op: Operation }> {
-  return Object.entries(doc.paths).flatMap(([path, item]) => Object.entries(item).map(([method, op]) => ({ path, method, op })));
+  return Object.entries(doc.paths).flatMap(([path, item]) =>
+    Object.entries(item).map(([method, op]) => ({ path, method, op })),
+  );
 }
 
 describe("the OpenAPI document", () => {
@@ -50,12 +56,26 @@ describe("the OpenAPI document", () => {
 
   it("keeps a new entry valid without any per-entry care", async () => {
     const extra: EndpointDoc[] = [
-      { method: "get", path: "/api/recalls/{recallId}/notices/{noticeNo}", tag: "recalls", summary: "x", input: z.object({ format: z.enum(["json", "csv"]).optional() }) },
-      { method: "post", path: "/api/recalls/{recallId}", tag: "recalls", summary: "y", input: z.object({ note: z.string() }) },
+      {
+        method: "get",
+        path: "/api/recalls/{recallId}/notices/{noticeNo}",
+        tag: "recalls",
+        summary: "x",
+        input: z.object({ format: z.enum(["json", "csv"]).optional() }),
+      },
+      {
+        method: "post",
+        path: "/api/recalls/{recallId}",
+        tag: "recalls",
+        summary: "y",
+        input: z.object({ note: z.string() }),
+      },
     ];
     const doc = buildOpenApi(extra, INFO) as unknown as Doc;
     expect((await validate(structuredClone(doc) as never)).valid).toBe(true);
-    expect(doc.paths["/api/recalls/{recallId}/notices/{noticeNo}"]?.get?.parameters?.map((p) => `${p.in}:${p.name}`)).toEqual(["path:recallId", "path:noticeNo", "query:format"]);
+    expect(
+      doc.paths["/api/recalls/{recallId}/notices/{noticeNo}"]?.get?.parameters?.map((p) => `${p.in}:${p.name}`),
+    ).toEqual(["path:recallId", "path:noticeNo", "query:format"]);
     expect(doc.tags).toEqual([{ name: "Recalls" }]);
   });
 

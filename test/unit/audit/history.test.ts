@@ -22,7 +22,9 @@ describe("describeChange", () => {
   });
 
   it("shows a field removed by a change as gone", () => {
-    expect(describeChange(JSON.stringify({ a: 1, b: 2 }), JSON.stringify({ a: 1 }))).toEqual([{ field: "b", before: "2", after: null }]);
+    expect(describeChange(JSON.stringify({ a: 1, b: 2 }), JSON.stringify({ a: 1 }))).toEqual([
+      { field: "b", before: "2", after: null },
+    ]);
   });
 
   it("keeps text that is not JSON as it was stored", () => {

@@ -49,7 +49,12 @@ describe("summarizeBatchClosure — a closure that can fail", () => {
 
   it("reads the booked difference net of an unmeasured gain, and never counts it as a charge or an output", () => {
     const c = summarizeBatchClosure(
-      [...TRIOLEIN_CHARGE, ...THEORY_OUT, { role: "UNMEASURED", massG: 3_000, direction: "OUT" }, { role: "UNMEASURED", massG: 1_000, direction: "IN" }],
+      [
+        ...TRIOLEIN_CHARGE,
+        ...THEORY_OUT,
+        { role: "UNMEASURED", massG: 3_000, direction: "OUT" },
+        { role: "UNMEASURED", massG: 1_000, direction: "IN" },
+      ],
       TOL,
     );
     expect(c.chargedG).toBe(1_217_120);

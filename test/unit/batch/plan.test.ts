@@ -17,7 +17,16 @@ import {
   toBlendRequest,
   toRequestField,
 } from "@/lib/batch/plan";
-import type { BatchFacts, BatchPlanRequest, BatchPlanRequestInput, LotStock, PlanProposal, PlanStock, ReagentStock, TankShare } from "@/lib/batch/plan";
+import type {
+  BatchFacts,
+  BatchPlanRequest,
+  BatchPlanRequestInput,
+  LotStock,
+  PlanProposal,
+  PlanStock,
+  ReagentStock,
+  TankShare,
+} from "@/lib/batch/plan";
 
 import { DEFAULT_RECIPE_LIMITS, WATER_LIMIT_BY_STEP } from "@/lib/recipe/recipe-defaults";
 import { DEFAULT_PRETREATMENT_LIMITS } from "@/lib/recipe/pretreatment";
@@ -50,7 +59,11 @@ function request(input: BatchPlanRequestInput): BatchPlanRequest {
   return BatchPlanRequestSchema.parse(input);
 }
 
-async function requireCard(input: BatchPlanRequestInput, stock: PlanStock, reagents: ReagentStock[] = []): Promise<Extract<PlanProposal["outcome"], { ok: true }>> {
+async function requireCard(
+  input: BatchPlanRequestInput,
+  stock: PlanStock,
+  reagents: ReagentStock[] = [],
+): Promise<Extract<PlanProposal["outcome"], { ok: true }>> {
   const p = await draftBatchPlan(request(input), stock, reagents, NOW);
   if (!p.outcome.ok) throw new Error(p.outcome.issues.map((i) => `${i.code}: ${i.message}`).join("; "));
   return p.outcome;
@@ -74,7 +87,10 @@ describe("summariseContents — mass-weighted tank quality", () => {
     expect(q.ageDays).toBeCloseTo(16, 9);
   });
   it("untraced material counts against the coverage, not the mean", () => {
-    const q = summariseContents([...shares, { lotCode: null, grams: 4000, ffaPct: null, waterPct: null, receivedAt: null }], NOW);
+    const q = summariseContents(
+      [...shares, { lotCode: null, grams: 4000, ffaPct: null, waterPct: null, receivedAt: null }],
+      NOW,
+    );
     expect(q.ffaPct).toBeCloseTo(3.0, 12);
     expect(q.ffaCoveredPct).toBeCloseTo(50, 12);
   });
@@ -85,8 +101,14 @@ describe("summariseContents — mass-weighted tank quality", () => {
   it("property: the mean lies between the smallest and largest known value (250 runs)", () => {
     const share = fc.record({
       grams: fc.integer({ min: 1, max: 5_000_000 }),
-      ffaPct: fc.option(fc.integer({ min: 0, max: 5000 }).map((v) => v / 100), { nil: null }),
-      waterPct: fc.option(fc.integer({ min: 0, max: 300 }).map((v) => v / 100), { nil: null }),
+      ffaPct: fc.option(
+        fc.integer({ min: 0, max: 5000 }).map((v) => v / 100),
+        { nil: null },
+      ),
+      waterPct: fc.option(
+        fc.integer({ min: 0, max: 300 }).map((v) => v / 100),
+        { nil: null },
+      ),
     });
     fc.assert(
       fc.property(fc.array(share, { minLength: 1, maxLength: 30 }), (raw) => {
@@ -95,7 +117,12 @@ describe("summariseContents — mass-weighted tank quality", () => {
         const known = contents.flatMap((c) => (c.ffaPct === null ? [] : [c.ffaPct]));
         if (known.length === 0) return q.ffaPct === null && q.ffaCoveredPct === 0;
         const ffa = q.ffaPct ?? Number.NaN;
-        return ffa >= Math.min(...known) - 1e-9 && ffa <= Math.max(...known) + 1e-9 && q.ffaCoveredPct > 0 && q.ffaCoveredPct <= 100 + 1e-9;
+        return (
+          ffa >= Math.min(...known) - 1e-9 &&
+          ffa <= Math.max(...known) + 1e-9 &&
+          q.ffaCoveredPct > 0 &&
+          q.ffaCoveredPct <= 100 + 1e-9
+        );
       }),
       { numRuns: 250 },
     );
@@ -106,7 +133,12 @@ describe("buildCandidates", () => {
   const stock: PlanStock = {
     lots: [lot("L-1"), lot("L-2", { waterPct: null }), lot("L-3", { stockG: 0 })],
     tanks: [
-      { code: "T1", name: "Feed", stockG: 2_000_000, contents: [{ lotCode: "L-9", grams: 2_000_000, ffaPct: 1.5, waterPct: 0.05, receivedAt: daysAgo(30) }] },
+      {
+        code: "T1",
+        name: "Feed",
+        stockG: 2_000_000,
+        contents: [{ lotCode: "L-9", grams: 2_000_000, ffaPct: 1.5, waterPct: 0.05, receivedAt: daysAgo(30) }],
+      },
       { code: "T2", name: "Untraced", stockG: 500_000, contents: null },
     ],
   };
@@ -131,26 +163,43 @@ describe("buildCandidates", () => {
   it("only offered candidates reach the optimiser, in kg", () => {
     const r = toBlendRequest(request({ targetOilKg: 500 }), cands);
     expect(r.candidates.map((c) => [c.ref, c.availableKg])).toEqual([["lot:L-1", 1000]]);
-    expect(r.limits).toEqual({ maxFfaPct: DEFAULT_BLEND_LIMITS.maxFfaPct.value, maxWaterPct: DEFAULT_BLEND_LIMITS.maxWaterPct.value });
+    expect(r.limits).toEqual({
+      maxFfaPct: DEFAULT_BLEND_LIMITS.maxFfaPct.value,
+      maxWaterPct: DEFAULT_BLEND_LIMITS.maxWaterPct.value,
+    });
   });
 });
 
 describe("BatchPlanRequestSchema", () => {
   it("defaults: blend FFA 3 % (Kombe et al. 2013), water from the step's setting, 6:1, 60 °C", () => {
     const r = request({ targetOilKg: 100 });
-    expect([r.maxFfaPct, r.maxWaterPct, r.molarRatio, r.reactionTempC, r.objective, r.catalyst]).toEqual([3, undefined, 6, 60, "OLDEST_FIRST", "KOH"]);
+    expect([r.maxFfaPct, r.maxWaterPct, r.molarRatio, r.reactionTempC, r.objective, r.catalyst]).toEqual([
+      3,
+      undefined,
+      6,
+      60,
+      "OLDEST_FIRST",
+      "KOH",
+    ]);
   });
   it("one water limit per step: a blend kept below the acid threshold gets the base step's 0.06 %, the recipe's own (before: 0.5 %)", () => {
     // base step: Ma, Clements & Hanna 1998 (water ≤ 0.06 %); acid step: Canakci & Van Gerpen 1999 (0.5 %, from memory)
     expect(blendWaterLimit(request({ targetOilKg: 100, maxFfaPct: 1 }))).toEqual({ value: 0.06, step: "BASE_STEP" });
     expect(blendWaterLimit(request({ targetOilKg: 100 }))).toEqual({ value: 0.5, step: "ACID_STEP" });
-    expect(blendWaterLimit(request({ targetOilKg: 100, maxFfaPct: 1, maxWaterPct: 0.2 }))).toEqual({ value: 0.2, step: null });
+    expect(blendWaterLimit(request({ targetOilKg: 100, maxFfaPct: 1, maxWaterPct: 0.2 }))).toEqual({
+      value: 0.2,
+      step: null,
+    });
     expect(WATER_LIMIT_BY_STEP.BASE_STEP).toBe(DEFAULT_RECIPE_LIMITS.maxWaterPct);
     expect(DEFAULT_PRETREATMENT_LIMITS.acidStepMaxWaterPct).toBe(WATER_LIMIT_BY_STEP.ACID_STEP);
   });
   it.each([
     [{}, "targetOilKg", "Oil to charge must be a number (kg)"],
-    [{ targetOilKg: 100, molarRatio: 2 }, "molarRatio", "Methanol : oil molar ratio must be at least 3:1 (the stoichiometric minimum)"],
+    [
+      { targetOilKg: 100, molarRatio: 2 },
+      "molarRatio",
+      "Methanol : oil molar ratio must be at least 3:1 (the stoichiometric minimum)",
+    ],
     [{ targetOilKg: 100, maxFfaPct: 101 }, "maxFfaPct", "Blend FFA limit must be at most 100 %"],
     [{ targetOilKg: 100, costs: { "lot:A": -1 } }, "costs.lot:A", "Cost must be 0 or more per kg"],
   ])("%j is refused at %s", (input, field, message) => {
@@ -172,20 +221,31 @@ describe("the planner takes the lab's saponification value", () => {
   const stock: PlanStock = { lots: [lot("A", { ffaPct: 0.2 })], tanks: [] };
   it("SV 190 with the blend's acid value gives M = 3 × 56.1 × 1000 / (SV − AV), shown on the card (definition of SV, AOCS Cd 3-25 / ISO 3657)", async () => {
     // AV of 0.2 % FFA as oleic = 0.2 × 10 × 56.1053 / 282.468 = 0.397251 mg KOH/g; M = 168 300 / (190 − 0.397251) = 887.645 g/mol
-    const o = await requireCard({ targetOilKg: 100, catalyst: "NAOH", assayPct: 100, saponificationValueMgKohG: 190 }, stock);
+    const o = await requireCard(
+      { targetOilKg: 100, catalyst: "NAOH", assayPct: 100, saponificationValueMgKohG: 190 },
+      stock,
+    );
     expect(o.card.baseStep.molarMassFromSv?.saponificationValueMgKohG).toBe(190);
     expect(o.card.baseStep.molarMassFromSv?.acidValueMgKohG).toBeCloseTo(0.397251, 5);
     expect(o.card.baseStep.meanTgMolarMass).toBeCloseTo(887.645, 2);
     expect(o.card.baseStep.ffaBasis).toBe("OLEIC");
   });
   it("refuses both a molar mass and a saponification value, next to the saponification value", () => {
-    const r = BatchPlanRequestSchema.safeParse({ targetOilKg: 100, meanTgMolarMass: 880, saponificationValueMgKohG: 190 });
+    const r = BatchPlanRequestSchema.safeParse({
+      targetOilKg: 100,
+      meanTgMolarMass: 880,
+      saponificationValueMgKohG: 190,
+    });
     expect(r.success ? [] : r.error.issues.map((i) => i.path.join("."))).toEqual(["saponificationValueMgKohG"]);
   });
 });
 
 describe("pickAssay", () => {
-  const reagents = [reagent("KOH-1", "KOH", 100, 85, 30), reagent("KOH-2", "KOH", 100, 90, 2), reagent("KOH-3", "KOH", 0, 70, 1)];
+  const reagents = [
+    reagent("KOH-1", "KOH", 100, 85, 30),
+    reagent("KOH-2", "KOH", 100, 90, 2),
+    reagent("KOH-3", "KOH", 0, 70, 1),
+  ];
   it("newest lot with stock, else what the planner entered", () => {
     expect(pickAssay("KOH", undefined, reagents)).toEqual({ pct: 90, source: "reagent lot KOH-2 as received" });
     expect(pickAssay("KOH", 88, reagents)?.pct).toBe(88);
@@ -194,8 +254,20 @@ describe("pickAssay", () => {
 });
 
 describe("draftBatchPlan — blend, route and recipe", () => {
-  const twoLots: PlanStock = { lots: [lot("A", { ffaPct: 0.2 }), lot("B", { ffaPct: 2.0, receivedAt: daysAgo(40) })], tanks: [] };
-  const base = { targetOilKg: 1000, maxFfaPct: 1, objective: "MIN_COST", costs: { "lot:A": 1.0, "lot:B": 0.5 }, catalyst: "NAOH", assayPct: 100, baseDosePctOfOil: 0.5, ...TRIOLEIN } as const;
+  const twoLots: PlanStock = {
+    lots: [lot("A", { ffaPct: 0.2 }), lot("B", { ffaPct: 2.0, receivedAt: daysAgo(40) })],
+    tanks: [],
+  };
+  const base = {
+    targetOilKg: 1000,
+    maxFfaPct: 1,
+    objective: "MIN_COST",
+    costs: { "lot:A": 1.0, "lot:B": 0.5 },
+    catalyst: "NAOH",
+    assayPct: 100,
+    baseDosePctOfOil: 0.5,
+    ...TRIOLEIN,
+  } as const;
 
   it("MIN_COST fills to the FFA limit: x_A = 1000/1.8 = 555.556 kg (x_A(0.2 − 1) + x_B(2 − 1) = 0)", async () => {
     const o = await requireCard(base, twoLots);
@@ -264,13 +336,22 @@ describe("draftBatchPlan — blend, route and recipe", () => {
   });
 
   it("nothing offered → a refusal before the optimiser", async () => {
-    const p = await draftBatchPlan(request({ targetOilKg: 10 }), { lots: [lot("A", { ffaPct: null })], tanks: [] }, [], NOW);
+    const p = await draftBatchPlan(
+      request({ targetOilKg: 10 }),
+      { lots: [lot("A", { ffaPct: null })], tanks: [] },
+      [],
+      NOW,
+    );
     expect(p.outcome.ok ? "" : p.outcome.stage).toBe("CANDIDATES");
   });
 
   it("12 % FFA → acid step: methanol 20:1 on 0.4248 kmol FFA = 272.2 kg, H2SO4 5 % of 120 kg = 6.0 kg pure (Canakci & Van Gerpen 2001, computed)", async () => {
     const stock: PlanStock = { lots: [lot("Y", { ffaPct: 12, waterPct: 0 })], tanks: [] };
-    const o = await requireCard({ targetOilKg: 1000, maxFfaPct: 20, catalyst: "KOH", assayPct: 90, ...TRIOLEIN }, stock, [reagent("H2SO4-1", "H2SO4", 100, 96, 5)]);
+    const o = await requireCard(
+      { targetOilKg: 1000, maxFfaPct: 20, catalyst: "KOH", assayPct: 90, ...TRIOLEIN },
+      stock,
+      [reagent("H2SO4-1", "H2SO4", 100, 96, 5)],
+    );
     expect(o.card.route.route).toBe("ACID_PRETREATMENT");
     expect(o.card.acidStep?.methanolKg).toBeCloseTo(272.2, 1);
     expect(o.card.acidStep?.acidPureKg).toBeCloseTo(6.0, 6);
@@ -295,7 +376,13 @@ describe("draftBatchPlan — blend, route and recipe", () => {
 
 describe("cautions", () => {
   it("always methanol, catalyst, hot oil, glycerol phase and the SDS; acid only with an acid step", () => {
-    expect(listCautions({ catalyst: "KOH", acidStep: false }).map((c) => c.step)).toEqual(["METHANOL", "CATALYST", "HOT_OIL", "GLYCEROL", "GENERAL"]);
+    expect(listCautions({ catalyst: "KOH", acidStep: false }).map((c) => c.step)).toEqual([
+      "METHANOL",
+      "CATALYST",
+      "HOT_OIL",
+      "GLYCEROL",
+      "GENERAL",
+    ]);
     expect(listCautions({ catalyst: "KOH", acidStep: true }).map((c) => c.step)).toContain("ACID");
     const general = listCautions({ catalyst: "NAOH", acidStep: false }).find((c) => c.step === "GENERAL")?.text ?? "";
     expect(general).toContain("safety data sheets");
@@ -318,11 +405,25 @@ describe("after the batch: actuals, plan and yield", () => {
         { role: "LOSS", massG: 1_000 },
       ],
     );
-    expect([a.oilChargedKg, a.methanolAddedKg, a.catalystProductUsedKg, a.esterKg, a.glycerolPhaseKg, a.lossKg]).toEqual([1000, 217.12, 5, 950, 200, 1]);
+    expect([
+      a.oilChargedKg,
+      a.methanolAddedKg,
+      a.catalystProductUsedKg,
+      a.esterKg,
+      a.glycerolPhaseKg,
+      a.lossKg,
+    ]).toEqual([1000, 217.12, 5, 950, 200, 1]);
   });
 
   const legacy: BatchFacts = {
-    recipeJson: JSON.stringify({ blendFfaPct: 0, methanolKg: 217.12, catalystKg: 5, acidKg: 0, pretreatMethanolKg: 0, washWaterKg: 300 }),
+    recipeJson: JSON.stringify({
+      blendFfaPct: 0,
+      methanolKg: 217.12,
+      catalystKg: 5,
+      acidKg: 0,
+      pretreatMethanolKg: 0,
+      washWaterKg: 300,
+    }),
     pretreated: false,
     targetOilG: 1_000_000,
     molarRatio: 6,
@@ -331,7 +432,15 @@ describe("after the batch: actuals, plan and yield", () => {
   };
 
   it("a recipe stored before cards: theory rebuilt on the triolein model, 1004.55 kg ester per tonne (triolein model, IUPAC 2021 atomic weights, computed)", () => {
-    const y = computeRecordedYield(legacy, [{ role: "OIL", massG: 1_000_000 }, { role: "METHANOL", massG: 217_120 }, { role: "CATALYST", massG: 5_000 }], [{ role: "ESTER", massG: 954_322 }]);
+    const y = computeRecordedYield(
+      legacy,
+      [
+        { role: "OIL", massG: 1_000_000 },
+        { role: "METHANOL", massG: 217_120 },
+        { role: "CATALYST", massG: 5_000 },
+      ],
+      [{ role: "ESTER", massG: 954_322 }],
+    );
     expect(y.ok).toBe(true);
     if (!y.ok) return;
     expect(y.value.planned.basis).toBe("legacy");
@@ -344,8 +453,18 @@ describe("after the batch: actuals, plan and yield", () => {
   });
 
   it("a card plan: ester vs the 994.5 kg theory of 990 kg triglyceride (triolein model, IUPAC 2021 atomic weights, computed)", async () => {
-    const o = await requireCard({ targetOilKg: 1000, maxFfaPct: 1, catalyst: "NAOH", assayPct: 100, baseDosePctOfOil: 0.5, ...TRIOLEIN }, { lots: [lot("C", { ffaPct: 1 })], tanks: [] });
-    const facts: BatchFacts = { recipeJson: JSON.stringify(o.stored), pretreated: false, targetOilG: 1_000_000, molarRatio: 6, catalyst: "NAOH", reactionTempC: 60 };
+    const o = await requireCard(
+      { targetOilKg: 1000, maxFfaPct: 1, catalyst: "NAOH", assayPct: 100, baseDosePctOfOil: 0.5, ...TRIOLEIN },
+      { lots: [lot("C", { ffaPct: 1 })], tanks: [] },
+    );
+    const facts: BatchFacts = {
+      recipeJson: JSON.stringify(o.stored),
+      pretreated: false,
+      targetOilG: 1_000_000,
+      molarRatio: 6,
+      catalyst: "NAOH",
+      reactionTempC: 60,
+    };
     const planned = readPlannedFigures(facts);
     expect(planned?.basis).toBe("card");
     expect(planned?.draws).toEqual([{ kind: "LOT", code: "C", massG: 1_000_000 }]);
@@ -375,7 +494,11 @@ describe("suggestCharges", () => {
   if (planned === null) throw new Error("no plan");
 
   it("splits methanol over reagent lots oldest first: 200 kg + 100 kg; says where stock is short", () => {
-    const { rows, notices } = suggestCharges(planned, [reagent("M-NEW", "METHANOL", 500, 99.9, 1), reagent("M-OLD", "METHANOL", 200, 99.9, 20), reagent("K-1", "KOH", 2, 90, 5)]);
+    const { rows, notices } = suggestCharges(planned, [
+      reagent("M-NEW", "METHANOL", 500, 99.9, 1),
+      reagent("M-OLD", "METHANOL", 200, 99.9, 20),
+      reagent("K-1", "KOH", 2, 90, 5),
+    ]);
     expect(rows.filter((r) => r.role === "METHANOL").map((r) => [r.fromCode, r.massKg])).toEqual([
       ["M-OLD", 200],
       ["M-NEW", 100],
@@ -389,7 +512,13 @@ describe("suggestCharges", () => {
   it("property: with enough stock the suggested methanol adds up to the plan, to the gram (200 runs)", () => {
     fc.assert(
       fc.property(fc.array(fc.integer({ min: 1, max: 400_000 }), { minLength: 1, maxLength: 8 }), (lots) => {
-        const reagents = lots.map((g, i) => ({ code: `M-${i}`, reagent: "METHANOL", strengthPct: 99.9, receivedAt: daysAgo(i), stockG: g }));
+        const reagents = lots.map((g, i) => ({
+          code: `M-${i}`,
+          reagent: "METHANOL",
+          strengthPct: 99.9,
+          receivedAt: daysAgo(i),
+          stockG: g,
+        }));
         const total = lots.reduce((s, g) => s + g, 0);
         const want = Math.min(total, 300_000);
         const { rows } = suggestCharges({ ...planned, methanolKg: want / 1000, catalystProductKg: 0 }, reagents);

@@ -23,9 +23,17 @@ describe("BlendRequestSchema", () => {
 
   const [first, second] = valid.candidates;
   it.each([
-    [{ ...valid, candidates: [{ ...first, ffaPct: MAX_FFA_PCT + 1 }, second] }, "candidates.0.ffaPct", "FFA must be at most 100 %"],
+    [
+      { ...valid, candidates: [{ ...first, ffaPct: MAX_FFA_PCT + 1 }, second] },
+      "candidates.0.ffaPct",
+      "FFA must be at most 100 %",
+    ],
     [{ ...valid, candidates: [{ ...first, availableKg: -1 }, second] }, "candidates.0.availableKg", "0 kg or more"],
-    [{ ...valid, candidates: [first, { ...second, costPerKg: undefined }] }, "candidates.1.costPerKg", "MIN_COST needs a cost"],
+    [
+      { ...valid, candidates: [first, { ...second, costPerKg: undefined }] },
+      "candidates.1.costPerKg",
+      "MIN_COST needs a cost",
+    ],
     [{ ...valid, candidates: [first, { ...second, ref: "UCO-1" }] }, "candidates.1.ref", "listed twice"],
     [{ ...valid, targetKg: 0 }, "targetKg", "above 0 kg"],
     [{ ...valid, limits: { maxFfaPct: -1, maxWaterPct: 0.06 } }, "limits.maxFfaPct", "at least 0 %"],

@@ -100,7 +100,14 @@ export function bruteForceBlend(p: BruteProblem, feasTol = 1e-7): BruteResult | 
   for (let mask = 1; mask < 1 << n; mask++) {
     const idx = [...Array(n).keys()].filter((i) => (mask >> i) & 1);
     if (idx.some((i) => (p.lots[i]?.availableKg ?? 0) < (p.minDrawKg ?? 0))) continue;
-    consider(solveSubset(p, idx, idx.map(() => p.minDrawKg ?? 0), feasTol));
+    consider(
+      solveSubset(
+        p,
+        idx,
+        idx.map(() => p.minDrawKg ?? 0),
+        feasTol,
+      ),
+    );
   }
   return best;
 }

@@ -26,7 +26,8 @@ const requestArb = fc
   .map(({ targetPermille, minDrawPermille, ...rest }) => {
     const stockKg = rest.lots.reduce((s, l) => s + l.availableKg, 0);
     const targetKg = Math.max(100, Math.round((stockKg * targetPermille) / 1000));
-    const minDrawKg = minDrawPermille === undefined ? undefined : Math.max(1, Math.round((targetKg * minDrawPermille) / 1000));
+    const minDrawKg =
+      minDrawPermille === undefined ? undefined : Math.max(1, Math.round((targetKg * minDrawPermille) / 1000));
     return { ...rest, targetKg, minDrawKg };
   });
 
@@ -65,83 +66,98 @@ const RUNS = { numRuns: 250 };
 const TIMEOUT_MS = 120_000;
 
 describe("optimiseBlend properties", () => {
-  it("never reports a feasible blend that breaks a limit, a lot's stock, the target or the minimum draw", async () => {
-    await fc.assert(
-      fc.asyncProperty(requestArb, async (g) => {
-        const req = toRequest(g);
-        const r = await optimiseBlend(req);
-        if (!r.ok) return;
-        let total = 0;
-        let ffa = 0;
-        let water = 0;
-        for (const d of r.value.draws) {
-          const c = req.candidates.find((x) => x.ref === d.ref);
-          expect(c).toBeDefined();
-          if (c === undefined) return;
-          expect(Number.isInteger(d.massG)).toBe(true);
-          expect(d.massG).toBeGreaterThan(0);
-          expect(d.massG).toBeLessThanOrEqual(c.availableKg * 1000);
-          if (g.minDrawKg !== undefined) expect(d.massG).toBeGreaterThanOrEqual(g.minDrawKg * 1000);
-          total += d.massG;
-          ffa += d.massG * c.ffaPct;
-          water += d.massG * c.waterPct;
-        }
-        expect(total).toBe(g.targetKg * 1000);
-        expect(ffa / total).toBeLessThanOrEqual(g.maxFfaPct + 1e-9);
-        expect(water / total).toBeLessThanOrEqual(g.maxWaterPct + 1e-9);
-      }),
-      RUNS,
-    );
-  }, TIMEOUT_MS);
+  it(
+    "never reports a feasible blend that breaks a limit, a lot's stock, the target or the minimum draw",
+    async () => {
+      await fc.assert(
+        fc.asyncProperty(requestArb, async (g) => {
+          const req = toRequest(g);
+          const r = await optimiseBlend(req);
+          if (!r.ok) return;
+          let total = 0;
+          let ffa = 0;
+          let water = 0;
+          for (const d of r.value.draws) {
+            const c = req.candidates.find((x) => x.ref === d.ref);
+            expect(c).toBeDefined();
+            if (c === undefined) return;
+            expect(Number.isInteger(d.massG)).toBe(true);
+            expect(d.massG).toBeGreaterThan(0);
+            expect(d.massG).toBeLessThanOrEqual(c.availableKg * 1000);
+            if (g.minDrawKg !== undefined) expect(d.massG).toBeGreaterThanOrEqual(g.minDrawKg * 1000);
+            total += d.massG;
+            ffa += d.massG * c.ffaPct;
+            water += d.massG * c.waterPct;
+          }
+          expect(total).toBe(g.targetKg * 1000);
+          expect(ffa / total).toBeLessThanOrEqual(g.maxFfaPct + 1e-9);
+          expect(water / total).toBeLessThanOrEqual(g.maxWaterPct + 1e-9);
+        }),
+        RUNS,
+      );
+    },
+    TIMEOUT_MS,
+  );
 
-  it("is never worse than the exact vertex optimum, and finds a blend whenever one exists with margin", async () => {
-    await fc.assert(
-      fc.asyncProperty(requestArb, async (g) => {
-        const req = toRequest(g);
-        const r = await optimiseBlend(req);
-        const exact = brute(g);
-        if (!r.ok) {
-          // A blend that meets both limits with 0.01 points to spare must not be missed (whole-gram rounding
-          // moves a ≥ 100 kg blend by far less than that).
-          expect(brute(g, -0.01)).toBeNull();
-          // A plain infeasibility claim must be exact.
-          if (!r.issues.some((i) => i.code === "BLEND.ROUNDING_BREAKS_LIMIT")) expect(brute(g, 1e-6)).toBeNull();
-          return;
-        }
-        expect(exact).not.toBeNull();
-        if (exact === null) return;
-        const coef = objectiveOf(g);
-        const achieved = r.value.draws.reduce((s, d) => s + (coef[Number(d.ref.slice(1))] ?? 0) * (d.massG / 1000), 0);
-        // Splitting into whole grams moves each lot by ≤ a few grams; allow 5 g per lot at the largest coefficient.
-        const maxCoef = Math.max(...coef.map(Math.abs));
-        const eps = g.lots.length * maxCoef * 0.005 + 1e-7 * Math.abs(exact.value);
-        expect(achieved).toBeLessThanOrEqual(exact.value + eps);
-        expect(achieved).toBeGreaterThanOrEqual(exact.value - eps);
-      }),
-      RUNS,
-    );
-  }, TIMEOUT_MS);
+  it(
+    "is never worse than the exact vertex optimum, and finds a blend whenever one exists with margin",
+    async () => {
+      await fc.assert(
+        fc.asyncProperty(requestArb, async (g) => {
+          const req = toRequest(g);
+          const r = await optimiseBlend(req);
+          const exact = brute(g);
+          if (!r.ok) {
+            // A blend that meets both limits with 0.01 points to spare must not be missed (whole-gram rounding
+            // moves a ≥ 100 kg blend by far less than that).
+            expect(brute(g, -0.01)).toBeNull();
+            // A plain infeasibility claim must be exact.
+            if (!r.issues.some((i) => i.code === "BLEND.ROUNDING_BREAKS_LIMIT")) expect(brute(g, 1e-6)).toBeNull();
+            return;
+          }
+          expect(exact).not.toBeNull();
+          if (exact === null) return;
+          const coef = objectiveOf(g);
+          const achieved = r.value.draws.reduce(
+            (s, d) => s + (coef[Number(d.ref.slice(1))] ?? 0) * (d.massG / 1000),
+            0,
+          );
+          // Splitting into whole grams moves each lot by ≤ a few grams; allow 5 g per lot at the largest coefficient.
+          const maxCoef = Math.max(...coef.map(Math.abs));
+          const eps = g.lots.length * maxCoef * 0.005 + 1e-7 * Math.abs(exact.value);
+          expect(achieved).toBeLessThanOrEqual(exact.value + eps);
+          expect(achieved).toBeGreaterThanOrEqual(exact.value - eps);
+        }),
+        RUNS,
+      );
+    },
+    TIMEOUT_MS,
+  );
 
-  it("the diagnosed lowest FFA equals the exact minimum over the stock", async () => {
-    await fc.assert(
-      fc.asyncProperty(requestArb, async (g) => {
-        const d = await diagnoseBlend(toRequest(g));
-        const exact = bruteForceBlend({
-          lots: g.lots,
-          targetKg: g.targetKg,
-          maxFfaPct: 100,
-          maxWaterPct: 100,
-          objective: g.lots.map((l) => l.ffaPct),
-          ...(g.minDrawKg === undefined ? {} : { minDrawKg: g.minDrawKg }),
-        });
-        if (d.stockShortfallKg > 0 || d.targetBelowMinDraw || exact === null) {
-          expect(d.minFfaPct).toBeNull();
-          return;
-        }
-        expect(d.minFfaPct).not.toBeNull();
-        expect(Math.abs((d.minFfaPct ?? NaN) - exact.value / g.targetKg)).toBeLessThan(1e-6);
-      }),
-      RUNS,
-    );
-  }, TIMEOUT_MS);
+  it(
+    "the diagnosed lowest FFA equals the exact minimum over the stock",
+    async () => {
+      await fc.assert(
+        fc.asyncProperty(requestArb, async (g) => {
+          const d = await diagnoseBlend(toRequest(g));
+          const exact = bruteForceBlend({
+            lots: g.lots,
+            targetKg: g.targetKg,
+            maxFfaPct: 100,
+            maxWaterPct: 100,
+            objective: g.lots.map((l) => l.ffaPct),
+            ...(g.minDrawKg === undefined ? {} : { minDrawKg: g.minDrawKg }),
+          });
+          if (d.stockShortfallKg > 0 || d.targetBelowMinDraw || exact === null) {
+            expect(d.minFfaPct).toBeNull();
+            return;
+          }
+          expect(d.minFfaPct).not.toBeNull();
+          expect(Math.abs((d.minFfaPct ?? NaN) - exact.value / g.targetKg)).toBeLessThan(1e-6);
+        }),
+        RUNS,
+      );
+    },
+    TIMEOUT_MS,
+  );
 });

@@ -89,7 +89,12 @@ describe("optimiseBlend — feasible fixtures", () => {
 
   it("priority breaks ties without changing the primary objective", async () => {
     const candidates = [lot("A", { costPerKg: 1, priority: 1 }), lot("B", { costPerKg: 1, priority: 5 })];
-    const plan = await requirePlan({ candidates, targetKg: 700, limits: { maxFfaPct: 1, maxWaterPct: 0.1 }, objective: "MIN_COST" });
+    const plan = await requirePlan({
+      candidates,
+      targetKg: 700,
+      limits: { maxFfaPct: 1, maxWaterPct: 0.1 },
+      objective: "MIN_COST",
+    });
     expect(plan.draws.map((d) => [d.ref, d.massG])).toEqual([["B", 700_000]]);
     expect(plan.costTotal).toBeCloseTo(700, 9);
   });
@@ -167,12 +172,17 @@ describe("optimiseBlend — infeasible cases say which limit fails and by how mu
     expect(d.minWaterPct).toBeCloseTo(550 / 1500, 6);
     expect(d.waterGapPct).toBeCloseTo(550 / 1500 - 0.1, 6);
     const r = await optimiseBlend(req);
-    expect(r.ok ? [] : r.issues.map((i) => [i.code, i.field])).toEqual([["BLEND.WATER_LIMIT_UNREACHABLE", "limits.maxWaterPct"]]);
+    expect(r.ok ? [] : r.issues.map((i) => [i.code, i.field])).toEqual([
+      ["BLEND.WATER_LIMIT_UNREACHABLE", "limits.maxWaterPct"],
+    ]);
   });
 
   it("each limit reachable alone, not both", async () => {
     const req: BlendRequest = {
-      candidates: [lot("LOWFFA_WET", { ffaPct: 0.2, waterPct: 0.5 }), lot("HIGHFFA_DRY", { ffaPct: 2, waterPct: 0.02 })],
+      candidates: [
+        lot("LOWFFA_WET", { ffaPct: 0.2, waterPct: 0.5 }),
+        lot("HIGHFFA_DRY", { ffaPct: 2, waterPct: 0.02 }),
+      ],
       targetKg: 1000,
       limits: { maxFfaPct: 1, maxWaterPct: 0.1 },
       objective: "OLDEST_FIRST",
@@ -188,7 +198,9 @@ describe("optimiseBlend — infeasible cases say which limit fails and by how mu
   it("minimum-draw conflicts", async () => {
     const base = { limits: { maxFfaPct: 1, maxWaterPct: 0.1 }, objective: "OLDEST_FIRST" as const };
     const below = await optimiseBlend({ ...base, candidates: [lot("A", {})], targetKg: 50, minDrawKg: 100 });
-    expect(below.ok ? [] : below.issues.map((i) => [i.code, i.field])).toEqual([["BLEND.TARGET_BELOW_MIN_DRAW", "minDrawKg"]]);
+    expect(below.ok ? [] : below.issues.map((i) => [i.code, i.field])).toEqual([
+      ["BLEND.TARGET_BELOW_MIN_DRAW", "minDrawKg"],
+    ]);
     // 150 kg from lots of 120 kg at ≥ 100 kg each: one lot is too small, two are too much.
     const conflict = await optimiseBlend({
       ...base,
@@ -204,8 +216,15 @@ describe("LP text", () => {
   it("writes signs, equalities and binaries in CPLEX LP form", () => {
     const text = formatLpText({
       objective: [1, -2.5, 0],
-      columns: [{ lower: 0, upper: 5 }, { lower: 0, upper: 1e-7 }, { lower: 0, upper: 1, binary: true }],
-      rows: [{ coefs: [1, 1, 0], lower: 3, upper: 3 }, { coefs: [0.5, -1, 0], upper: 0 }],
+      columns: [
+        { lower: 0, upper: 5 },
+        { lower: 0, upper: 1e-7 },
+        { lower: 0, upper: 1, binary: true },
+      ],
+      rows: [
+        { coefs: [1, 1, 0], lower: 3, upper: 3 },
+        { coefs: [0.5, -1, 0], upper: 0 },
+      ],
     });
     expect(text).toBe(
       [

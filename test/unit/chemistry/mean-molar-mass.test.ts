@@ -28,7 +28,9 @@ describe("mean TG molar mass from saponification value", () => {
     [200, 841.6],
     [209, 805.3],
   ])("SV %d → %f g/mol with exact M(KOH)", (sv, expected) => {
-    expect(Math.abs(value(computeMeanTgMolarMassFromSv(sv, { kohMolarMass: 56.1053 })) - expected)).toBeLessThanOrEqual(0.051);
+    expect(Math.abs(value(computeMeanTgMolarMassFromSv(sv, { kohMolarMass: 56.1053 })) - expected)).toBeLessThanOrEqual(
+      0.051,
+    );
   });
 
   it("uses 56.1 by default, as the SV definition does", () => {
@@ -43,7 +45,9 @@ describe("mean TG molar mass from saponification value", () => {
 
   it("inverts the SV of triolein", () => {
     // saponification value definition, computed: SV of triolein = 168 316 / 885.453 = 190.09 mg KOH/g
-    expect(Math.abs(value(computeMeanTgMolarMassFromSv(190.09, { kohMolarMass: 56.1053 })) - 885.453)).toBeLessThan(0.05);
+    expect(Math.abs(value(computeMeanTgMolarMassFromSv(190.09, { kohMolarMass: 56.1053 })) - 885.453)).toBeLessThan(
+      0.05,
+    );
   });
 
   it.each([
@@ -80,12 +84,29 @@ describe("from fatty-acid profile", () => {
   it("averages mass fractions harmonically and normalises the shares", () => {
     // standard: M̄ = 1/Σ(w_i/M_i); palmitic 256.430, oleic 282.468 (IUPAC 2021 atomic weights, computed)
     const expected = 1 / (0.5 / 256.43 + 0.5 / 282.468);
-    expect(value(computeMeanFaMolarMass([{ acid: "C16:0", massPct: 50 }, { acid: "C18:1", massPct: 50 }]))).toBeCloseTo(expected, 2);
-    expect(value(computeMeanFaMolarMass([{ acid: "C16:0", massPct: 49 }, { acid: "C18:1", massPct: 49 }]))).toBeCloseTo(expected, 2);
+    expect(
+      value(
+        computeMeanFaMolarMass([
+          { acid: "C16:0", massPct: 50 },
+          { acid: "C18:1", massPct: 50 },
+        ]),
+      ),
+    ).toBeCloseTo(expected, 2);
+    expect(
+      value(
+        computeMeanFaMolarMass([
+          { acid: "C16:0", massPct: 49 },
+          { acid: "C18:1", massPct: 49 },
+        ]),
+      ),
+    ).toBeCloseTo(expected, 2);
   });
 
   it("reports bad shares with their field", () => {
-    const r = computeMeanFaMolarMass([{ acid: "C16:0", massPct: 50 }, { acid: "oleic", massPct: 50 }]);
+    const r = computeMeanFaMolarMass([
+      { acid: "C16:0", massPct: 50 },
+      { acid: "oleic", massPct: 50 },
+    ]);
     expect(r.ok).toBe(false);
     if (r.ok) return;
     expect(r.issues[0]).toMatchObject({ code: "CHEMISTRY.FATTY_ACID_SHORTHAND", field: "profile.1.acid" });

@@ -3,7 +3,17 @@ import { celsiusFrom, checkOnPhone, litresFrom, pickupNumber, volumeFromGauge } 
 import { PickupSchema } from "@/lib/feedstock/pickup.schema";
 
 const KNOWN = new Set(["R001", "R002"]);
-const good = { code: "PU-261202-1A2B3C4D", sourceCode: "r001", material: "USED_COOKING_OIL", observedAt: "2026-12-02T08:00:00.000Z", containers: 2, containerTags: [], volumeL: 120, tempC: 18, idempotencyKey: "1a2b3c4d-0000-4000-8000-000000000001" };
+const good = {
+  code: "PU-261202-1A2B3C4D",
+  sourceCode: "r001",
+  material: "USED_COOKING_OIL",
+  observedAt: "2026-12-02T08:00:00.000Z",
+  containers: 2,
+  containerTags: [],
+  volumeL: 120,
+  tempC: 18,
+  idempotencyKey: "1a2b3c4d-0000-4000-8000-000000000001",
+};
 
 function fieldsOf(input: unknown): Array<string | undefined> {
   const r = checkOnPhone(input, KNOWN);
@@ -29,7 +39,9 @@ describe("phone-side check uses the server's PickupSchema", () => {
     expect(fieldsOf({ ...good, ...change })).toContain(field);
   });
   it("reports an unknown source together with other problems", () => {
-    expect(fieldsOf({ ...good, sourceCode: "R999", volumeL: 0 })).toEqual(expect.arrayContaining(["sourceCode", "volumeL"]));
+    expect(fieldsOf({ ...good, sourceCode: "R999", volumeL: 0 })).toEqual(
+      expect.arrayContaining(["sourceCode", "volumeL"]),
+    );
   });
 });
 

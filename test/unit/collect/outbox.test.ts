@@ -12,9 +12,25 @@ let n = 0;
 function entry(by = IVO, savedAt = T0): OutboxEntry {
   n++;
   const key = `00000000-0000-4000-8000-${String(n).padStart(12, "0")}`;
-  return newEntry({ code: `PU-261202-${String(n).padStart(8, "0")}`, sourceCode: "R001", material: "USED_COOKING_OIL", observedAt: savedAt.toISOString(), containers: 2, volumeL: 100, tempC: 20, idempotencyKey: key }, by, savedAt);
+  return newEntry(
+    {
+      code: `PU-261202-${String(n).padStart(8, "0")}`,
+      sourceCode: "R001",
+      material: "USED_COOKING_OIL",
+      observedAt: savedAt.toISOString(),
+      containers: 2,
+      volumeL: 100,
+      tempC: 20,
+      idempotencyKey: key,
+    },
+    by,
+    savedAt,
+  );
 }
-const stored = (e: OutboxEntry, id: number): Reply => ({ status: 200, body: { ok: true, value: { id, code: e.pickup.code, massG: 91_000, receivedAt: T0.toISOString() } } });
+const stored = (e: OutboxEntry, id: number): Reply => ({
+  status: 200,
+  body: { ok: true, value: { id, code: e.pickup.code, massG: 91_000, receivedAt: T0.toISOString() } },
+});
 
 describe("outbox replies: an entry leaves only on a 2xx carrying the stored record id", () => {
   const e = entry();
@@ -26,11 +42,43 @@ describe("outbox replies: an entry leaves only on a 2xx carrying the stored reco
     ["answer lost", { lost: "Failed to fetch" }, "RETRY"],
     ["500", { status: 500, body: null }, "RETRY"],
     ["502 proxy page", { status: 502, body: "<html>" }, "RETRY"],
-    ["409 still in progress", { status: 409, body: { ok: false, issues: [{ code: "IDEMPOTENCY.IN_PROGRESS", message: "wait" }] } }, "RETRY"],
-    ["401 session ended", { status: 401, body: { ok: false, issues: [{ code: "AUTH.UNAUTHENTICATED", message: "Sign in first" }] } }, "SIGN_IN"],
-    ["403 wrong role", { status: 403, body: { ok: false, issues: [{ code: "AUTH.FORBIDDEN", message: "needs collector" }] } }, "SIGN_IN"],
-    ["422 bad volume", { status: 422, body: { ok: false, issues: [{ code: "INPUT.INVALID", message: "Volume (L) must be more than 0 L", field: "volumeL" }] } }, "REFUSED"],
-    ["404 unknown source", { status: 404, body: { ok: false, issues: [{ code: "RECORD.NOT_FOUND", message: "Source X does not exist", field: "sourceCode" }] } }, "REFUSED"],
+    [
+      "409 still in progress",
+      { status: 409, body: { ok: false, issues: [{ code: "IDEMPOTENCY.IN_PROGRESS", message: "wait" }] } },
+      "RETRY",
+    ],
+    [
+      "401 session ended",
+      { status: 401, body: { ok: false, issues: [{ code: "AUTH.UNAUTHENTICATED", message: "Sign in first" }] } },
+      "SIGN_IN",
+    ],
+    [
+      "403 wrong role",
+      { status: 403, body: { ok: false, issues: [{ code: "AUTH.FORBIDDEN", message: "needs collector" }] } },
+      "SIGN_IN",
+    ],
+    [
+      "422 bad volume",
+      {
+        status: 422,
+        body: {
+          ok: false,
+          issues: [{ code: "INPUT.INVALID", message: "Volume (L) must be more than 0 L", field: "volumeL" }],
+        },
+      },
+      "REFUSED",
+    ],
+    [
+      "404 unknown source",
+      {
+        status: 404,
+        body: {
+          ok: false,
+          issues: [{ code: "RECORD.NOT_FOUND", message: "Source X does not exist", field: "sourceCode" }],
+        },
+      },
+      "REFUSED",
+    ],
   ])("%s → %s", (_n, reply, kind) => {
     expect(classifyReply(e, reply).kind).toBe(kind);
   });
@@ -49,7 +97,14 @@ describe("outbox state", () => {
     const old = entry(IVO, new Date(T0.getTime() - 8 * 24 * 3_600_000));
     const list = [old, entry(), entry(OTHER), { ...entry(), state: "REFUSED" as const }];
     const s = summarize(list, IVO.userId, new Date(T0.getTime() + 60_000));
-    expect(s).toMatchObject({ total: 4, waiting: 2, refused: 1, heldForOthers: 1, stale: 1, oldestSavedAt: old.savedAt });
+    expect(s).toMatchObject({
+      total: 4,
+      waiting: 2,
+      refused: 1,
+      heldForOthers: 1,
+      stale: 1,
+      oldestSavedAt: old.savedAt,
+    });
     expect(sendable(list, IVO.userId)).toContain(old); // 8 days old and still sent (integrity goal: never expires)
     expect(STALE_AFTER_MS).toBe(24 * 3_600_000);
   });
@@ -99,12 +154,26 @@ describe("IndexedDB outbox and send loop (fake-indexeddb)", () => {
       return stored(x, id);
     };
     const first = await flushOutbox(o, IVO.userId, send, () => T0);
-    expect(first).toMatchObject({ sent: 1, stored: [], kept: 1, offline: expect.stringContaining("Failed to fetch") as string });
+    expect(first).toMatchObject({
+      sent: 1,
+      stored: [],
+      kept: 1,
+      offline: expect.stringContaining("Failed to fetch") as string,
+    });
     const kept = await o.all();
     expect(kept).toHaveLength(1);
     expect(kept[0]).toMatchObject({ attempts: 1, state: "WAITING" });
     const second = await flushOutbox(o, IVO.userId, send, () => T0);
-    expect(second.stored).toEqual([{ key: e.key, recordId: 1, code: e.pickup.code, receivedAt: T0.toISOString(), observedAt: e.pickup.observedAt, sourceCode: "R001" }]);
+    expect(second.stored).toEqual([
+      {
+        key: e.key,
+        recordId: 1,
+        code: e.pickup.code,
+        receivedAt: T0.toISOString(),
+        observedAt: e.pickup.observedAt,
+        sourceCode: "R001",
+      },
+    ]);
     expect(await o.all()).toEqual([]);
     expect(server.size).toBe(1);
   });
@@ -114,7 +183,10 @@ describe("IndexedDB outbox and send loop (fake-indexeddb)", () => {
     for (let i = 0; i < 3; i++) await o.add(entry());
     let signedIn = false;
     let id = 100;
-    const send = async (x: OutboxEntry): Promise<Reply> => (signedIn ? stored(x, ++id) : { status: 401, body: { ok: false, issues: [{ code: "AUTH.UNAUTHENTICATED", message: "Sign in first" }] } });
+    const send = async (x: OutboxEntry): Promise<Reply> =>
+      signedIn
+        ? stored(x, ++id)
+        : { status: 401, body: { ok: false, issues: [{ code: "AUTH.UNAUTHENTICATED", message: "Sign in first" }] } };
     const r = await flushOutbox(o, IVO.userId, send, () => T0);
     expect(r).toMatchObject({ sent: 1, kept: 1, signIn: expect.stringContaining("sign in") as string });
     expect(await o.all()).toHaveLength(3);
@@ -130,7 +202,15 @@ describe("IndexedDB outbox and send loop (fake-indexeddb)", () => {
     await o.add(bad);
     await o.add(good);
     const send = async (x: OutboxEntry): Promise<Reply> =>
-      x.key === bad.key ? { status: 404, body: { ok: false, issues: [{ code: "RECORD.NOT_FOUND", message: "Source R001 does not exist", field: "sourceCode" }] } } : stored(x, 9);
+      x.key === bad.key
+        ? {
+            status: 404,
+            body: {
+              ok: false,
+              issues: [{ code: "RECORD.NOT_FOUND", message: "Source R001 does not exist", field: "sourceCode" }],
+            },
+          }
+        : stored(x, 9);
     const r = await flushOutbox(o, IVO.userId, send, () => T0);
     expect(r.stored.map((s) => s.key)).toEqual([good.key]);
     const left = await o.all();
@@ -143,7 +223,12 @@ describe("IndexedDB outbox and send loop (fake-indexeddb)", () => {
   it("leaves another collector's entries alone", async () => {
     const o = await open();
     await o.add(entry(OTHER));
-    const r = await flushOutbox(o, IVO.userId, async (x) => stored(x, 1), () => T0);
+    const r = await flushOutbox(
+      o,
+      IVO.userId,
+      async (x) => stored(x, 1),
+      () => T0,
+    );
     expect(r.sent).toBe(0);
     expect(await o.all()).toHaveLength(1);
   });

@@ -2,7 +2,13 @@ import { describe, expect, it } from "vitest";
 import { dayNumber, routeDue } from "@/lib/collect/route";
 import type { RouteSource } from "@/lib/collect/route";
 
-const src = (code: string, every: number | null, last: string | null, active = true): RouteSource => ({ code, name: `Source ${code}`, active, pickupEveryDays: every, lastPickupDay: last });
+const src = (code: string, every: number | null, last: string | null, active = true): RouteSource => ({
+  code,
+  name: `Source ${code}`,
+  active,
+  pickupEveryDays: every,
+  lastPickupDay: last,
+});
 
 describe("today's route from the usual pickup interval (common practice: due = last pickup + interval)", () => {
   it("counts calendar days across month and leap-year ends", () => {
@@ -25,11 +31,16 @@ describe("today's route from the usual pickup interval (common practice: due = l
   ] as const)("%s", (_name, source, expected) => {
     const stops = routeDue([source], "2026-12-02");
     if (!expected.due) return expect(stops).toEqual([]);
-    expect(stops).toEqual([{ code: source.code, name: source.name, dueDay: expected.dueDay, daysOverdue: expected.overdue }]);
+    expect(stops).toEqual([
+      { code: source.code, name: source.name, dueDay: expected.dueDay, daysOverdue: expected.overdue },
+    ]);
   });
 
   it("puts the most overdue first, then by code", () => {
-    const stops = routeDue([src("B", 7, "2026-11-25"), src("A", 7, "2026-11-25"), src("C", 7, "2026-11-01")], "2026-12-02");
+    const stops = routeDue(
+      [src("B", 7, "2026-11-25"), src("A", 7, "2026-11-25"), src("C", 7, "2026-11-01")],
+      "2026-12-02",
+    );
     expect(stops.map((s) => s.code)).toEqual(["C", "A", "B"]);
   });
 });

@@ -42,9 +42,30 @@ function stateWith(bookings: CustodyBooking[], extra: Partial<CustodyState> = {}
   };
 }
 
-const input = (id: string, at: string, material: string, kg: number, setKey = SET): CustodyBooking => ({ kind: "INPUT", id, at: utc(at), setKey, material, massG: kg * KG });
-const convert = (id: string, at: string, kg: number, setKey = SET): CustodyBooking => ({ kind: "CONVERSION", id, at: utc(at), setKey, stepId: "TRANSESTERIFICATION", inputMassG: kg * KG });
-const claim = (id: string, at: string, kg: number, material = "ESTER", setKey = SET): ClaimBooking => ({ kind: "CLAIM", id, at: utc(at), setKey, material, massG: kg * KG });
+const input = (id: string, at: string, material: string, kg: number, setKey = SET): CustodyBooking => ({
+  kind: "INPUT",
+  id,
+  at: utc(at),
+  setKey,
+  material,
+  massG: kg * KG,
+});
+const convert = (id: string, at: string, kg: number, setKey = SET): CustodyBooking => ({
+  kind: "CONVERSION",
+  id,
+  at: utc(at),
+  setKey,
+  stepId: "TRANSESTERIFICATION",
+  inputMassG: kg * KG,
+});
+const claim = (id: string, at: string, kg: number, material = "ESTER", setKey = SET): ClaimBooking => ({
+  kind: "CLAIM",
+  id,
+  at: utc(at),
+  setKey,
+  material,
+  massG: kg * KG,
+});
 
 function requireLedger(state: CustodyState): CustodyLedger {
   const r = buildCustodyLedger(state);
@@ -68,7 +89,9 @@ describe("RULESET_EU_2022_996", () => {
 
   it("marks the never-negative rule as our policy and the recalled items as from memory", () => {
     expect(RULESET_EU_2022_996.negativeBalance.value).toBe("NEVER_NEGATIVE_AT_ANY_BOOKING");
-    expect(RULESET_EU_2022_996.negativeBalance.status).toContain("our conservative policy (common practice, no source)");
+    expect(RULESET_EU_2022_996.negativeBalance.status).toContain(
+      "our conservative policy (common practice, no source)",
+    );
     expect(RULESET_EU_2022_996.carryForward.value).toBe("CARRY_POSITIVE");
     expect(RULESET_EU_2022_996.notes.some((n) => n.includes("from memory, unverified"))).toBe(true);
   });
@@ -121,7 +144,14 @@ describe("buildCustodyLedger — the claim that a later input would have covered
 
   it("the 1 kg claim fails at its booking, naming it and the shortfall", () => {
     expect(ledger.failures).toEqual([
-      expect.objectContaining({ code: "CUSTODY.CLAIM_EXCEEDS_BALANCE", bookingId: "CL-3", requestedG: 1_000, availableG: 0, shortfallG: 1_000, field: "bookings.4.massG" }),
+      expect.objectContaining({
+        code: "CUSTODY.CLAIM_EXCEEDS_BALANCE",
+        bookingId: "CL-3",
+        requestedG: 1_000,
+        availableG: 0,
+        shortfallG: 1_000,
+        field: "bookings.4.massG",
+      }),
     ]);
   });
 
@@ -129,12 +159,16 @@ describe("buildCustodyLedger — the claim that a later input would have covered
     const saved = bookings.filter((b) => b.id !== "CL-3");
     const r = checkClaim(stateWith(saved), claim("CL-3", "2026-01-25T08:00:00Z", 1));
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.issues[0]).toMatchObject({ code: "CUSTODY.CLAIM_EXCEEDS_BALANCE", field: "massG", shortfallG: 1_000 });
+    if (!r.ok)
+      expect(r.issues[0]).toMatchObject({ code: "CUSTODY.CLAIM_EXCEEDS_BALANCE", field: "massG", shortfallG: 1_000 });
   });
 
   it("checkClaim accepts it once booked after the covering input", () => {
     const saved = bookings.filter((b) => b.id !== "CL-3");
-    expect(checkClaim(stateWith(saved), claim("CL-4", "2026-02-03T08:00:00Z", 1))).toEqual({ ok: true, value: { availableG: 980_000, balanceAfterG: 979_000 } });
+    expect(checkClaim(stateWith(saved), claim("CL-4", "2026-02-03T08:00:00Z", 1))).toEqual({
+      ok: true,
+      value: { availableG: 980_000, balanceAfterG: 979_000 },
+    });
   });
 
   it("checkClaim refuses a back-dated claim that would starve a claim already accepted", () => {
@@ -142,7 +176,10 @@ describe("buildCustodyLedger — the claim that a later input would have covered
     const r = checkClaim(stateWith(saved), claim("CL-0", "2026-01-12T08:00:00Z", 10));
     expect(r.ok).toBe(false);
     // CL-2 then asks 480 kg of 980 − 10 − 500 = 470 kg: 10 kg short
-    if (!r.ok) expect(r.issues).toEqual([expect.objectContaining({ code: "CUSTODY.CLAIM_BREAKS_LATER_BOOKING", field: "massG" })]);
+    if (!r.ok)
+      expect(r.issues).toEqual([
+        expect.objectContaining({ code: "CUSTODY.CLAIM_BREAKS_LATER_BOOKING", field: "massG" }),
+      ]);
     if (!r.ok) expect(r.issues[0]?.message).toContain("CL-2");
   });
 
@@ -153,8 +190,12 @@ describe("buildCustodyLedger — the claim that a later input would have covered
   });
 
   it("a conversion cannot process more certified oil than the balance holds", () => {
-    const l = requireLedger(stateWith([input("IN-1", "2026-01-05T08:00:00Z", "OIL", 1000), convert("CV-1", "2026-01-10T08:00:00Z", 1100)]));
-    expect(l.failures).toEqual([expect.objectContaining({ code: "CUSTODY.CONVERSION_EXCEEDS_BALANCE", bookingId: "CV-1", shortfallG: 100_000 })]);
+    const l = requireLedger(
+      stateWith([input("IN-1", "2026-01-05T08:00:00Z", "OIL", 1000), convert("CV-1", "2026-01-10T08:00:00Z", 1100)]),
+    );
+    expect(l.failures).toEqual([
+      expect.objectContaining({ code: "CUSTODY.CONVERSION_EXCEEDS_BALANCE", bookingId: "CV-1", shortfallG: 100_000 }),
+    ]);
     expect(l.accounts.some((a) => a.material === "ESTER" && a.balanceG > 0)).toBe(false);
   });
 });
@@ -171,22 +212,34 @@ describe("balance periods and carry-forward", () => {
     const l = requireLedger(stateWith([...q1, claim("CL-2", "2026-04-01T00:00:00Z", 80)]));
     expect(l.failures).toEqual([]);
     const ester = account(l, "ESTER");
-    expect(ester.periods.map((p) => [p.label, p.openingG, p.creditsG, p.debitsG, p.closingG, p.carriedForwardG, p.closed])).toEqual([
+    expect(
+      ester.periods.map((p) => [p.label, p.openingG, p.creditsG, p.debitsG, p.closingG, p.carriedForwardG, p.closed]),
+    ).toEqual([
       ["2026-Q1", 0, 980_000, 900_000, 80_000, 80_000, true],
       ["2026-Q2", 80_000, 0, 80_000, 0, null, false],
     ]);
-    expect(ester.entries.find((e) => e.kind === "CARRY_FORWARD")).toMatchObject({ at: utc("2026-04-01T00:00:00Z"), balanceG: 80_000, period: "2026-Q1" });
+    expect(ester.entries.find((e) => e.kind === "CARRY_FORWARD")).toMatchObject({
+      at: utc("2026-04-01T00:00:00Z"),
+      balanceG: 80_000,
+      period: "2026-Q1",
+    });
   });
 
   it("with carry-forward set to lapse, the same claim fails in the next quarter", () => {
     const lapse = withCustodySettings(RULESET_EU_2022_996, { carryForward: "LAPSE" });
     const l = requireLedger(stateWith([...q1, claim("CL-2", "2026-04-01T00:00:00Z", 80)], { ruleSet: lapse }));
-    expect(l.failures).toEqual([expect.objectContaining({ code: "CUSTODY.CLAIM_EXCEEDS_BALANCE", bookingId: "CL-2", shortfallG: 80_000 })]);
+    expect(l.failures).toEqual([
+      expect.objectContaining({ code: "CUSTODY.CLAIM_EXCEEDS_BALANCE", bookingId: "CL-2", shortfallG: 80_000 }),
+    ]);
     expect(account(l, "ESTER").entries.find((e) => e.kind === "LAPSE")).toMatchObject({ deltaG: -80_000, balanceG: 0 });
   });
 
   it("an agricultural producer's 12-month period keeps Q1 and Q2 in one period", () => {
-    const l = requireLedger(stateWith([...q1, claim("CL-2", "2026-04-01T00:00:00Z", 80)], { operatorType: "AGRI_FOREST_PRODUCER_OR_FIRST_GATHERING_POINT" }));
+    const l = requireLedger(
+      stateWith([...q1, claim("CL-2", "2026-04-01T00:00:00Z", 80)], {
+        operatorType: "AGRI_FOREST_PRODUCER_OR_FIRST_GATHERING_POINT",
+      }),
+    );
     expect(account(l, "ESTER").periods.map((p) => p.label)).toEqual(["2026"]);
   });
 
@@ -209,24 +262,51 @@ describe("balance periods and carry-forward", () => {
   it("under the period-end policy a dip inside the quarter passes, a negative close fails", () => {
     const endOnly = withCustodySettings(RULESET_EU_2022_996, { negativeBalance: "NON_NEGATIVE_AT_PERIOD_END" });
     const covered = requireLedger(
-      stateWith([input("IN-1", "2026-01-05T00:00:00Z", "ESTER", 100), claim("CL-1", "2026-01-06T00:00:00Z", 150), input("IN-2", "2026-02-01T00:00:00Z", "ESTER", 60)], {
+      stateWith(
+        [
+          input("IN-1", "2026-01-05T00:00:00Z", "ESTER", 100),
+          claim("CL-1", "2026-01-06T00:00:00Z", 150),
+          input("IN-2", "2026-02-01T00:00:00Z", "ESTER", 60),
+        ],
+        {
+          ruleSet: endOnly,
+          closeThroughMs: utc("2026-04-01T00:00:00Z"),
+        },
+      ),
+    );
+    expect(covered.failures).toEqual([]);
+    const uncovered = requireLedger(
+      stateWith([input("IN-1", "2026-01-05T00:00:00Z", "ESTER", 100), claim("CL-1", "2026-01-06T00:00:00Z", 150)], {
         ruleSet: endOnly,
         closeThroughMs: utc("2026-04-01T00:00:00Z"),
       }),
     );
-    expect(covered.failures).toEqual([]);
-    const uncovered = requireLedger(
-      stateWith([input("IN-1", "2026-01-05T00:00:00Z", "ESTER", 100), claim("CL-1", "2026-01-06T00:00:00Z", 150)], { ruleSet: endOnly, closeThroughMs: utc("2026-04-01T00:00:00Z") }),
-    );
-    expect(uncovered.failures).toEqual([expect.objectContaining({ code: "CUSTODY.PERIOD_CLOSES_NEGATIVE", bookingId: "CL-1", shortfallG: 50_000 })]);
+    expect(uncovered.failures).toEqual([
+      expect.objectContaining({ code: "CUSTODY.PERIOD_CLOSES_NEGATIVE", bookingId: "CL-1", shortfallG: 50_000 }),
+    ]);
   });
 });
 
 describe("input validation", () => {
   it.each([
-    { name: "an undeclared set", b: input("IN-1", "2026-01-05T08:00:00Z", "OIL", 1, "NOPE"), code: "CUSTODY.UNKNOWN_SET", field: "bookings.0.setKey" },
-    { name: "an undefined step", b: { ...convert("CV-1", "2026-01-05T08:00:00Z", 1), stepId: "DISTILLATION" }, code: "CUSTODY.UNKNOWN_STEP", field: "bookings.0.stepId" },
-    { name: "a zero mass", b: input("IN-1", "2026-01-05T08:00:00Z", "OIL", 0), code: "CUSTODY.INVALID_MASS", field: "bookings.0.massG" },
+    {
+      name: "an undeclared set",
+      b: input("IN-1", "2026-01-05T08:00:00Z", "OIL", 1, "NOPE"),
+      code: "CUSTODY.UNKNOWN_SET",
+      field: "bookings.0.setKey",
+    },
+    {
+      name: "an undefined step",
+      b: { ...convert("CV-1", "2026-01-05T08:00:00Z", 1), stepId: "DISTILLATION" },
+      code: "CUSTODY.UNKNOWN_STEP",
+      field: "bookings.0.stepId",
+    },
+    {
+      name: "a zero mass",
+      b: input("IN-1", "2026-01-05T08:00:00Z", "OIL", 0),
+      code: "CUSTODY.INVALID_MASS",
+      field: "bookings.0.massG",
+    },
   ])("refuses $name", ({ b, code, field }) => {
     const r = buildCustodyLedger(stateWith([b]));
     expect(r.ok).toBe(false);
@@ -234,7 +314,10 @@ describe("input validation", () => {
   });
 
   it("refuses a claim whose number is already used", () => {
-    const r = checkClaim(stateWith([input("IN-1", "2026-01-05T08:00:00Z", "ESTER", 10)]), claim("IN-1", "2026-01-06T08:00:00Z", 1));
+    const r = checkClaim(
+      stateWith([input("IN-1", "2026-01-05T08:00:00Z", "ESTER", 10)]),
+      claim("IN-1", "2026-01-06T08:00:00Z", 1),
+    );
     expect(r.ok).toBe(false);
     if (!r.ok) expect(r.issues[0]).toMatchObject({ code: "CUSTODY.DUPLICATE_BOOKING", field: "id" });
   });
@@ -268,7 +351,14 @@ describe("property: claims accepted by checkClaim never take a balance below zer
           const b: CustodyBooking =
             s.kind === "CONVERSION"
               ? { kind: "CONVERSION", id, at, setKey: s.set, stepId: "TRANSESTERIFICATION", inputMassG: s.kg * KG }
-              : { kind: "INPUT", id, at, setKey: s.set, material: s.kind === "INPUT_OIL" ? "OIL" : "ESTER", massG: s.kg * KG };
+              : {
+                  kind: "INPUT",
+                  id,
+                  at,
+                  setKey: s.set,
+                  material: s.kind === "INPUT_OIL" ? "OIL" : "ESTER",
+                  massG: s.kg * KG,
+                };
           state = { ...state, bookings: [...state.bookings, b] };
         });
         const ledger = requireLedger(state);
@@ -278,7 +368,9 @@ describe("property: claims accepted by checkClaim never take a balance below zer
           // the running balance is the sum of the accepted movements
           expect(a.entries.reduce((sum, e) => sum + (e.accepted ? e.deltaG : 0), 0)).toBe(a.balanceG);
         }
-        const claimed = ledger.accounts.flatMap((a) => a.entries).filter((e) => e.kind === "CLAIM" && e.accepted).length;
+        const claimed = ledger.accounts
+          .flatMap((a) => a.entries)
+          .filter((e) => e.kind === "CLAIM" && e.accepted).length;
         expect(claimed).toBe(accepted);
       }),
       { numRuns: 250 },

@@ -27,7 +27,14 @@ const H: EpcisHolder[] = [
 ];
 const t = (day: number, hour = 8) => Date.UTC(2026, 10, day, hour);
 let seq = 0;
-const mv = (at: number, role: MoveRole, from: number | null, to: number, massG: number): EpcisMove => ({ id: ++seq, at, role, fromHolderId: from, toHolderId: to, massG });
+const mv = (at: number, role: MoveRole, from: number | null, to: number, massG: number): EpcisMove => ({
+  id: ++seq,
+  at,
+  role,
+  fromHolderId: from,
+  toHolderId: to,
+  massG,
+});
 const M: EpcisMove[] = [
   mv(t(1), "RECEIPT", null, 5, 40_000),
   mv(t(1), "RECEIPT", null, 6, 2_000),
@@ -54,10 +61,20 @@ const GS1 = identifierScheme({ gs1CompanyPrefix: "0614141", baseUri: "https://pl
 const OWN = identifierScheme({ gs1CompanyPrefix: null, baseUri: "https://plant.example/", siteCode: "NORTH" });
 
 function build(ids = GS1, extra: Partial<Parameters<typeof buildEpcisDocument>[0]> = {}): EpcisDocument {
-  return buildEpcisDocument({ holders: H, moves: M, ids, eventBase: "https://plant.example/id/NORTH/event", period: NOVEMBER, offsetMin: () => 60, createdAt: new Date(Date.UTC(2026, 11, 5)), ...extra });
+  return buildEpcisDocument({
+    holders: H,
+    moves: M,
+    ids,
+    eventBase: "https://plant.example/id/NORTH/event",
+    period: NOVEMBER,
+    offsetMin: () => 60,
+    createdAt: new Date(Date.UTC(2026, 11, 5)),
+    ...extra,
+  });
 }
 
-const gramsOf = (list: EpcisEvent["inputQuantityList"]) => (list ?? []).reduce((s, q) => s + Math.round(q.quantity * 1000), 0);
+const gramsOf = (list: EpcisEvent["inputQuantityList"]) =>
+  (list ?? []).reduce((s, q) => s + Math.round(q.quantity * 1000), 0);
 
 describe("EPCIS 2.0 export of a period", () => {
   // Checked against our zod statement of the GS1 EPCIS 2.0.0 JSON Schema (lib/epcis/epcis-document.schema.ts).
@@ -80,12 +97,20 @@ describe("EPCIS 2.0 export of a period", () => {
       expect(at).toBeLessThan(NOVEMBER.endMs);
     }
     expect(events.filter((e) => e.type === "ObjectEvent")).toHaveLength(8);
-    expect(events.filter((e) => e.type === "TransformationEvent").map((e) => e.transformationID)).toEqual(["https://plant.example/id/NORTH/batch/B-1"]);
+    expect(events.filter((e) => e.type === "TransformationEvent").map((e) => e.transformationID)).toEqual([
+      "https://plant.example/id/NORTH/batch/B-1",
+    ]);
   });
 
   it("round trip: each batch's inputs add up to the mass the period balance says it was charged", () => {
     const doc = build();
-    const holders: BalanceHolder[] = H.map((h) => ({ id: h.id, kind: h.kind, siteId: 1, materialKind: h.material, ...(h.kind === "BATCH" ? { completedAt: h.code === "B-1" ? t(11) : null } : {}) }));
+    const holders: BalanceHolder[] = H.map((h) => ({
+      id: h.id,
+      kind: h.kind,
+      siteId: 1,
+      materialKind: h.material,
+      ...(h.kind === "BATCH" ? { completedAt: h.code === "B-1" ? t(11) : null } : {}),
+    }));
     const balance = computePeriodBalance({ holders, moves: M, period: NOVEMBER, scope: { siteId: 1 } });
     if (!balance.ok) throw new Error(JSON.stringify(balance.issues));
     const charged = new Map(balance.value.process.completed.map((b) => [b.holderId, b.inputsG]));
@@ -95,23 +120,44 @@ describe("EPCIS 2.0 export of a period", () => {
     expect(gramsOf(b1?.inputQuantityList)).toBe(charged.get(7));
     expect(gramsOf(b1?.inputQuantityList)).toBe(131_001);
     // The tank drawn twice is one input line of 110.001 kg; the loss is not an output object.
-    expect(b1?.inputQuantityList).toContainEqual({ epcClass: "urn:epc:class:lgtin:0614141.000008.T-1", quantity: 110.001, uom: UOM_KG });
+    expect(b1?.inputQuantityList).toContainEqual({
+      epcClass: "urn:epc:class:lgtin:0614141.000008.T-1",
+      quantity: 110.001,
+      uom: UOM_KG,
+    });
     expect(gramsOf(b1?.outputQuantityList)).toBe(128_000);
-    expect(b1?.outputQuantityList?.map((q) => q.epcClass)).toEqual(["urn:epc:class:lgtin:0614141.000020.PL-1", "urn:epc:class:lgtin:0614141.000021.B-1"]);
+    expect(b1?.outputQuantityList?.map((q) => q.epcClass)).toEqual([
+      "urn:epc:class:lgtin:0614141.000020.PL-1",
+      "urn:epc:class:lgtin:0614141.000021.B-1",
+    ]);
   });
 
   it("names the source of a pickup and the customer of a shipment", () => {
     const events = build().epcisBody.eventList;
     const pickup = events.find((e) => e.eventID.endsWith("/move/3"));
     expect(pickup?.bizStep).toBe("collecting");
-    expect(pickup?.sourceList).toEqual([{ type: "owning_party", source: "https://plant.example/id/NORTH/source/SRC-A" }]);
+    expect(pickup?.sourceList).toEqual([
+      { type: "owning_party", source: "https://plant.example/id/NORTH/source/SRC-A" },
+    ]);
     const ship = events.find((e) => e.bizStep === "shipping");
-    expect(ship?.destinationList).toEqual([{ type: "owning_party", destination: "https://plant.example/id/NORTH/customer/CUS-1" }]);
-    expect(ship?.bizTransactionList).toEqual([{ type: "bol", bizTransaction: "https://plant.example/id/NORTH/shipment/BOL-1" }]);
+    expect(ship?.destinationList).toEqual([
+      { type: "owning_party", destination: "https://plant.example/id/NORTH/customer/CUS-1" },
+    ]);
+    expect(ship?.bizTransactionList).toEqual([
+      { type: "bol", bizTransaction: "https://plant.example/id/NORTH/shipment/BOL-1" },
+    ]);
     const intoTank = events.find((e) => e.eventID.endsWith("/move/7"));
     expect(intoTank?.sourceList).toEqual([{ type: "location", source: "urn:epc:id:sgln:0614141.00000.0" }]);
     expect(intoTank?.destinationList).toEqual([{ type: "location", destination: "urn:epc:id:sgln:0614141.00000.T-1" }]);
-    const hidden = buildEpcisDocument({ holders: H.map((h) => ({ ...h, customerCode: null })), moves: M, ids: GS1, eventBase: "https://plant.example/e", period: NOVEMBER, offsetMin: () => 0, createdAt: new Date() });
+    const hidden = buildEpcisDocument({
+      holders: H.map((h) => ({ ...h, customerCode: null })),
+      moves: M,
+      ids: GS1,
+      eventBase: "https://plant.example/e",
+      period: NOVEMBER,
+      offsetMin: () => 0,
+      createdAt: new Date(),
+    });
     expect(hidden.epcisBody.eventList.find((e) => e.bizStep === "shipping")?.destinationList).toBeUndefined();
   });
 });
@@ -132,7 +178,9 @@ describe("GS1 identifiers", () => {
   });
 
   it("falls back to the site's own URI for a lot GS1 cannot carry", () => {
-    expect(GS1.lotClass("TALLOW", "X".repeat(21))).toBe(`https://plant.example/id/NORTH/class/TALLOW/${"X".repeat(21)}`);
+    expect(GS1.lotClass("TALLOW", "X".repeat(21))).toBe(
+      `https://plant.example/id/NORTH/class/TALLOW/${"X".repeat(21)}`,
+    );
     expect(OWN.location("T-1")).toBe("https://plant.example/id/NORTH/location/T-1");
   });
 
@@ -152,7 +200,9 @@ describe("a trace answer's events", () => {
     const ids = doc.epcisBody.eventList.map((e) => e.eventID.replace(/.*\/event\//, ""));
     expect(ids).toContain("batch/B-1");
     expect(ids).not.toContain("move/15");
-    expect(doc.epcisBody.eventList.some((e) => e.destinationList?.some((d) => (d.destination ?? "").includes("T-GLY")))).toBe(false);
+    expect(
+      doc.epcisBody.eventList.some((e) => e.destinationList?.some((d) => (d.destination ?? "").includes("T-GLY"))),
+    ).toBe(false);
   });
 
   it("forward keeps only holders downstream of the entries", () => {
@@ -166,16 +216,25 @@ describe("the EPCIS 2.0 rules we check against", () => {
   it.each<[string, (d: EpcisDocument) => void]>([
     ["an event without eventTimeZoneOffset", (d) => void delete first(d).eventTimeZoneOffset],
     ["an offset beyond +14:00", (d) => void (first(d).eventTimeZoneOffset = "+15:00")],
-    ["a unit that is not a UN/CEFACT code", (d) => void ((first(d).quantityList as Array<Record<string, unknown>>)[0]!.uom = "kg")],
+    [
+      "a unit that is not a UN/CEFACT code",
+      (d) => void ((first(d).quantityList as Array<Record<string, unknown>>)[0]!.uom = "kg"),
+    ],
     ["an ObjectEvent without epcList or quantities", (d) => void delete first(d).quantityList],
     ["ilmd with action OBSERVE", (d) => void (first(d).ilmd = { "tv:note": "x" })],
     ["an extension field without a namespace", (d) => void (first(d).note = "x")],
     ["a long-form CBV business step", (d) => void (first(d).bizStep = "urn:epcglobal:cbv:bizstep:receiving")],
-    ["a relative URI as a class", (d) => void ((first(d).quantityList as Array<Record<string, unknown>>)[0]!.epcClass = "lot L-1")],
+    [
+      "a relative URI as a class",
+      (d) => void ((first(d).quantityList as Array<Record<string, unknown>>)[0]!.epcClass = "lot L-1"),
+    ],
     [
       "a transformation with inputs only and no transformationID",
       (d) => {
-        const e = d.epcisBody.eventList.find((x) => x.type === "TransformationEvent") as unknown as Record<string, unknown>;
+        const e = d.epcisBody.eventList.find((x) => x.type === "TransformationEvent") as unknown as Record<
+          string,
+          unknown
+        >;
         delete e.outputQuantityList;
         delete e.transformationID;
       },

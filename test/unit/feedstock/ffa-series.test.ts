@@ -5,7 +5,14 @@ import type { FfaLot } from "@/lib/feedstock/ffa-series";
 const utc = (iso: string): number => Date.parse(iso);
 
 const lots: FfaLot[] = [
-  { code: "L-1", receivedAt: utc("2026-01-08T08:00:00Z"), material: "USED_COOKING_OIL", massG: 300_000, sourceCodes: ["S-A", "S-B", "S-A"], titrations: [{ testedAt: utc("2026-01-08T10:00:00Z"), ffaPct: 2.0, voided: false }] },
+  {
+    code: "L-1",
+    receivedAt: utc("2026-01-08T08:00:00Z"),
+    material: "USED_COOKING_OIL",
+    massG: 300_000,
+    sourceCodes: ["S-A", "S-B", "S-A"],
+    titrations: [{ testedAt: utc("2026-01-08T10:00:00Z"), ffaPct: 2.0, voided: false }],
+  },
   {
     code: "L-2",
     receivedAt: utc("2026-01-02T08:00:00Z"),
@@ -18,7 +25,14 @@ const lots: FfaLot[] = [
       { testedAt: utc("2026-01-02T12:00:00Z"), ffaPct: 40, voided: true },
     ],
   },
-  { code: "L-3", receivedAt: utc("2026-01-09T08:00:00Z"), material: "TALLOW", massG: 500_000, sourceCodes: ["S-C"], titrations: [] },
+  {
+    code: "L-3",
+    receivedAt: utc("2026-01-09T08:00:00Z"),
+    material: "TALLOW",
+    massG: 500_000,
+    sourceCodes: ["S-C"],
+    titrations: [],
+  },
 ];
 
 describe("FFA of the lots per source", () => {

@@ -26,7 +26,9 @@ const ledger: BalanceMove[] = [
   { id: 8, at: utc("2026-02-02T11:00:00Z"), fromHolderId: null, toHolderId: 1, massG: 7_000, role: "RECEIPT" },
 ];
 const material = new Map(holders.map((h) => [h.id, h.materialKind ?? "?"]));
-const receipts: FeedstockReceipt[] = ledger.filter((m) => m.role === "RECEIPT" && m.fromHolderId === null).map((m) => ({ at: m.at, massG: m.massG, material: material.get(m.toHolderId) ?? "?" }));
+const receipts: FeedstockReceipt[] = ledger
+  .filter((m) => m.role === "RECEIPT" && m.fromHolderId === null)
+  .map((m) => ({ at: m.at, massG: m.massG, material: material.get(m.toHolderId) ?? "?" }));
 const JANUARY = { startMs: utc("2026-01-01T00:00:00Z"), endMs: utc("2026-02-01T00:00:00Z") };
 
 describe("feedstock received per week", () => {
@@ -41,7 +43,13 @@ describe("feedstock received per week", () => {
   });
 
   it("stacks by material kind, week by week, with empty weeks kept", () => {
-    expect(series.weeks.map((w) => w.weekOf)).toEqual(["2025-12-29", "2026-01-05", "2026-01-12", "2026-01-19", "2026-01-26"]);
+    expect(series.weeks.map((w) => w.weekOf)).toEqual([
+      "2025-12-29",
+      "2026-01-05",
+      "2026-01-12",
+      "2026-01-19",
+      "2026-01-26",
+    ]);
     expect(series.weeks[1]?.byMaterial).toEqual({ USED_COOKING_OIL: 276_750 });
     expect(series.weeks[2]?.byMaterial).toEqual({ TALLOW: 21_000_000 });
     expect(series.weeks[3]?.totalG).toBe(0);

@@ -15,7 +15,16 @@ const COLUMNS: GridColumn[] = [
   { field: "note", header: "Note", kind: "text" },
 ];
 const TABLE: GridTable = { ...GRID_TABLES.pickups, columns: COLUMNS };
-const STORED: GridRow = { code: "PU-1", massKg: 812.345, tempC: 41.25, ratio: 0.5, observedAt: "2026-12-01T08:00:00.000Z", tags: "C-1, C-2", stock: 10, note: "kept" };
+const STORED: GridRow = {
+  code: "PU-1",
+  massKg: 812.345,
+  tempC: 41.25,
+  ratio: 0.5,
+  observedAt: "2026-12-01T08:00:00.000Z",
+  tags: "C-1, C-2",
+  stock: 10,
+  note: "kept",
+};
 
 const diff = (values: GridRow) => sameStored(TABLE, { values }, STORED).map((d) => d.field);
 

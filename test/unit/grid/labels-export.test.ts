@@ -46,7 +46,22 @@ describe("export columns", () => {
     expect(siteTimeOf("not a time", "Europe/Berlin")).toBeNull();
   });
   it("re-reading an export takes the code and the UTC instant, not their companions", () => {
-    const csv = toCsv(pickups, [{ code: "P-1", sourceCode: "R1", material: "TRAP_GREASE", observedAt: "2026-07-01T09:00:00.000Z", containers: 1, volumeL: 10, tempC: 20 }], "metric", "Europe/Berlin");
+    const csv = toCsv(
+      pickups,
+      [
+        {
+          code: "P-1",
+          sourceCode: "R1",
+          material: "TRAP_GREASE",
+          observedAt: "2026-07-01T09:00:00.000Z",
+          containers: 1,
+          volumeL: 10,
+          tempC: 20,
+        },
+      ],
+      "metric",
+      "Europe/Berlin",
+    );
     const headers = Papa.parse<string[]>(csv).data[0] ?? [];
     const m = matchHeaders(pickups, headers);
     const read = (field: string) => headers[m.matches.find((x) => x.column.field === field)?.index ?? -1];

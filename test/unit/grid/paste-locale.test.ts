@@ -102,7 +102,11 @@ describe("paste and CSV blocks (RFC 4180 via papaparse)", () => {
   const opts = { locale: "en-US", system: "metric" as const, siteOffsetMin: 0 };
   it("a tab-separated block without a header fills the columns from the focused one", () => {
     const cols = ["volumeL", "tempC"].map((f) => columnOf(pickups, f) as GridColumn);
-    const s = readSheet(pickups, "1,200.5\t20\r\n300\t21.5\r\n", { ...opts, delimiter: "\t", columnsWithoutHeader: cols });
+    const s = readSheet(pickups, "1,200.5\t20\r\n300\t21.5\r\n", {
+      ...opts,
+      delimiter: "\t",
+      columnsWithoutHeader: cols,
+    });
     expect(s.hasHeader).toBe(false);
     expect(s.rows.map((r) => [r.values.volumeL, r.values.tempC])).toEqual([
       [1200.5, 20],
@@ -110,15 +114,34 @@ describe("paste and CSV blocks (RFC 4180 via papaparse)", () => {
     ]);
   });
   it("quoted cells keep commas, doubled quotes and line breaks (RFC 4180 §2 rules 5–7)", () => {
-    const s = readSheet(GRID_TABLES.sources, 'Code,Name,Kind,Materials,Address\nK1,"Fry ""Shack""",restaurant,"used cooking oil, tallow","1 Row,\nQuillmoor"', opts);
+    const s = readSheet(
+      GRID_TABLES.sources,
+      'Code,Name,Kind,Materials,Address\nK1,"Fry ""Shack""",restaurant,"used cooking oil, tallow","1 Row,\nQuillmoor"',
+      opts,
+    );
     expect(s.problems).toEqual([]);
-    expect(s.rows[0]?.values).toMatchObject({ code: "K1", name: 'Fry "Shack"', kind: "RESTAURANT", materials: "USED_COOKING_OIL, TALLOW", address: "1 Row,\nQuillmoor" });
+    expect(s.rows[0]?.values).toMatchObject({
+      code: "K1",
+      name: 'Fry "Shack"',
+      kind: "RESTAURANT",
+      materials: "USED_COOKING_OIL, TALLOW",
+      address: "1 Row,\nQuillmoor",
+    });
     expect(s.rows[0]?.errors).toEqual({});
   });
   it("a decimal-comma sheet with semicolons (de) is read", () => {
-    const s = readSheet(pickups, "Pickup no.;Source;Material;Observed;Containers;Volume (L);Oil temp. (°C)\nP1;R1;USED_COOKING_OIL;01.03.2026 08:00;2;1.234,5;19,5", { ...opts, locale: "de-DE" });
+    const s = readSheet(
+      pickups,
+      "Pickup no.;Source;Material;Observed;Containers;Volume (L);Oil temp. (°C)\nP1;R1;USED_COOKING_OIL;01.03.2026 08:00;2;1.234,5;19,5",
+      { ...opts, locale: "de-DE" },
+    );
     expect(s.problems).toEqual([]);
-    expect(s.rows[0]?.values).toMatchObject({ volumeL: 1234.5, tempC: 19.5, observedAt: "2026-03-01T08:00:00.000Z", containers: 2 });
+    expect(s.rows[0]?.values).toMatchObject({
+      volumeL: 1234.5,
+      tempC: 19.5,
+      observedAt: "2026-03-01T08:00:00.000Z",
+      containers: 2,
+    });
   });
   it("names bad rows and columns, missing and unknown columns, empty input", () => {
     const s = readSheet(pickups, "Pickup no.,Source,Colour\nP1,R1,red", opts);
@@ -148,7 +171,12 @@ describe("formula injection (OWASP CSV Injection)", () => {
     expect(unneutralise("'quoted")).toBe("'quoted");
   });
   it("exported CSV neutralises text cells but keeps numbers as numbers", () => {
-    const csv = toCsv(GRID_TABLES.sources, [{ code: "K1", name: "=HYPERLINK(\"x\")", kind: "RESTAURANT", materials: "TALLOW", pickupEveryDays: -1 }], "metric", "UTC");
+    const csv = toCsv(
+      GRID_TABLES.sources,
+      [{ code: "K1", name: '=HYPERLINK("x")', kind: "RESTAURANT", materials: "TALLOW", pickupEveryDays: -1 }],
+      "metric",
+      "UTC",
+    );
     expect(csv.split("\r\n")[1]).toContain(`"'=HYPERLINK(""x"")"`);
     expect(csv.split("\r\n")[1]).toContain(",-1,");
   });
@@ -156,7 +184,13 @@ describe("formula injection (OWASP CSV Injection)", () => {
 
 describe("undo history and fill-down", () => {
   it("one step per paste; undo reverts it whole, redo replays it", () => {
-    let h = record(emptyHistory(), { label: "paste", changes: [{ rowId: "a", field: "x", before: "", after: "1" }, { rowId: "a", field: "x", before: "1", after: "2" }] });
+    let h = record(emptyHistory(), {
+      label: "paste",
+      changes: [
+        { rowId: "a", field: "x", before: "", after: "1" },
+        { rowId: "a", field: "x", before: "1", after: "2" },
+      ],
+    });
     const u = undo(h);
     expect(u && revertValues(u.step)).toEqual([
       { rowId: "a", field: "x", value: "1" },
@@ -164,15 +198,28 @@ describe("undo history and fill-down", () => {
     ]);
     h = u ? u.history : h;
     expect(redo(h)?.step.label).toBe("paste");
-    expect(record(h, { label: "typed", changes: [{ rowId: "b", field: "y", before: "", after: "z" }] }).undone).toEqual([]);
+    expect(record(h, { label: "typed", changes: [{ rowId: "b", field: "y", before: "", after: "z" }] }).undone).toEqual(
+      [],
+    );
   });
   it("fills each column from the top of the range (one row: from the row above)", () => {
-    const grid = [["a", "b"], ["", ""], ["", ""]];
+    const grid = [
+      ["a", "b"],
+      ["", ""],
+      ["", ""],
+    ];
     const at = (p: { row: number; col: number }) => grid[p.row]?.[p.col] ?? null;
-    expect(fillDown(rangeOf({ row: 0, col: 0 }, { row: 2, col: 1 }), at).map((f) => [f.pos.row, f.pos.col, f.value])).toEqual([
-      [1, 0, "a"], [2, 0, "a"], [1, 1, "b"], [2, 1, "b"],
+    expect(
+      fillDown(rangeOf({ row: 0, col: 0 }, { row: 2, col: 1 }), at).map((f) => [f.pos.row, f.pos.col, f.value]),
+    ).toEqual([
+      [1, 0, "a"],
+      [2, 0, "a"],
+      [1, 1, "b"],
+      [2, 1, "b"],
     ]);
-    expect(fillDown(rangeOf({ row: 1, col: 1 }, { row: 1, col: 1 }), at)).toEqual([{ pos: { row: 1, col: 1 }, value: "b" }]);
+    expect(fillDown(rangeOf({ row: 1, col: 1 }, { row: 1, col: 1 }), at)).toEqual([
+      { pos: { row: 1, col: 1 }, value: "b" },
+    ]);
     expect(fillDown(rangeOf({ row: 0, col: 0 }, { row: 0, col: 0 }), at)).toEqual([]);
   });
 });

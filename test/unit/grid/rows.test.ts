@@ -8,8 +8,19 @@ const pickups = GRID_TABLES.pickups;
 
 describe("grid rows → the shared schemas' input", () => {
   it("leaves empty cells out, splits lists and carries the row's idempotency key for pickups", () => {
-    const input = toInput(pickups, { code: "PU-1", sourceCode: "R001", notes: "", containerTags: "C-1, C-2,,", [ROW_KEY]: "0d9c7a1e-0000-4000-8000-000000000001" });
-    expect(input).toEqual({ code: "PU-1", sourceCode: "R001", containerTags: ["C-1", "C-2"], idempotencyKey: "0d9c7a1e-0000-4000-8000-000000000001" });
+    const input = toInput(pickups, {
+      code: "PU-1",
+      sourceCode: "R001",
+      notes: "",
+      containerTags: "C-1, C-2,,",
+      [ROW_KEY]: "0d9c7a1e-0000-4000-8000-000000000001",
+    });
+    expect(input).toEqual({
+      code: "PU-1",
+      sourceCode: "R001",
+      containerTags: ["C-1", "C-2"],
+      idempotencyKey: "0d9c7a1e-0000-4000-8000-000000000001",
+    });
   });
 
   it("never sends computed or read-only columns", () => {
@@ -26,7 +37,14 @@ describe("grid rows → the shared schemas' input", () => {
   });
 
   it("puts each schema message on the cell of the field it names", () => {
-    const r = checkRow(pickups, { code: "PU-1", sourceCode: "R001", observedAt: "2026-12-01T08:00:00Z", containers: 2, volumeL: -5, tempC: 400 });
+    const r = checkRow(pickups, {
+      code: "PU-1",
+      sourceCode: "R001",
+      observedAt: "2026-12-01T08:00:00Z",
+      containers: 2,
+      volumeL: -5,
+      tempC: 400,
+    });
     expect(r.ok).toBe(false);
     expect(r.errors.volumeL).toMatch(/Volume/);
     expect(r.errors.tempC).toMatch(/150 °C/);

@@ -1,13 +1,30 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { CANONICAL, convertQuantity, decimalsFor, displayUnit, fromUnit, quantityOf, toDisplay, unitSymbol } from "@/lib/grid/units";
+import {
+  CANONICAL,
+  convertQuantity,
+  decimalsFor,
+  displayUnit,
+  fromUnit,
+  quantityOf,
+  toDisplay,
+  unitSymbol,
+} from "@/lib/grid/units";
 import type { GridUnit, Quantity } from "@/lib/grid/units";
 
 describe("units at the grid's edge", () => {
   it("rows carry kg, L and °C; US users see lb, gal and °F", () => {
     expect(CANONICAL).toEqual({ mass: "kg", volume: "L", temperature: "°C" });
-    expect((["mass", "volume", "temperature"] as Quantity[]).map((q) => displayUnit(q, "metric"))).toEqual(["kg", "L", "°C"]);
-    expect((["mass", "volume", "temperature"] as Quantity[]).map((q) => displayUnit(q, "us"))).toEqual(["lb", "gal", "°F"]);
+    expect((["mass", "volume", "temperature"] as Quantity[]).map((q) => displayUnit(q, "metric"))).toEqual([
+      "kg",
+      "L",
+      "°C",
+    ]);
+    expect((["mass", "volume", "temperature"] as Quantity[]).map((q) => displayUnit(q, "us"))).toEqual([
+      "lb",
+      "gal",
+      "°F",
+    ]);
     expect(quantityOf("kg")).toBe("mass");
     expect(unitSymbol("°F")).toBe("°F");
   });
@@ -36,10 +53,19 @@ describe("units at the grid's edge", () => {
 
   it("an exported figure with its decimals converts back to the same whole gram or millilitre", () => {
     fc.assert(
-      fc.property(fc.integer({ min: 0, max: 2_000_000_000 }), fc.constantFrom<["mass" | "volume", GridUnit]>(["mass", "kg"], ["mass", "lb"], ["volume", "L"], ["volume", "gal"]), (grams, [q, unit]) => {
-        const shown = Number(convertQuantity(grams / 1000, q, CANONICAL[q], unit).toFixed(decimalsFor(unit)));
-        expect(Math.round(fromUnit(shown, q, unit) * 1000)).toBe(grams);
-      }),
+      fc.property(
+        fc.integer({ min: 0, max: 2_000_000_000 }),
+        fc.constantFrom<["mass" | "volume", GridUnit]>(
+          ["mass", "kg"],
+          ["mass", "lb"],
+          ["volume", "L"],
+          ["volume", "gal"],
+        ),
+        (grams, [q, unit]) => {
+          const shown = Number(convertQuantity(grams / 1000, q, CANONICAL[q], unit).toFixed(decimalsFor(unit)));
+          expect(Math.round(fromUnit(shown, q, unit) * 1000)).toBe(grams);
+        },
+      ),
     );
   });
 

@@ -9,7 +9,7 @@ export const ROOT = fileURLToPath(new URL("../../..", import.meta.url));
 export const MAX_FILE_LINES = 400;
 export const MAX_FUNCTION_LINES = 80;
 /** Generated code and data tables, which are long by nature. */
-const EXEMPT = [/^lib\/generated\//, /^lib\/spec\/editions\//, /\.data\.ts$/];
+const EXEMPT = [/^lib\/generated\//, /^lib\/api\/client\/openapi-types\.ts$/, /^lib\/spec\/editions\//, /\.data\.ts$/];
 
 function sourceFiles(dir: string): string[] {
   return readdirSync(join(ROOT, dir)).flatMap((name) => {
@@ -29,12 +29,23 @@ export interface Fn {
 
 /** Every function-like node with its line count, named by its declaration or the variable it is bound to. */
 export function functionsOf(path: string, text: string): Fn[] {
-  const sf = ts.createSourceFile(path, text, ts.ScriptTarget.Latest, true, path.endsWith(".tsx") ? ts.ScriptKind.TSX : ts.ScriptKind.TS);
+  const sf = ts.createSourceFile(
+    path,
+    text,
+    ts.ScriptTarget.Latest,
+    true,
+    path.endsWith(".tsx") ? ts.ScriptKind.TSX : ts.ScriptKind.TS,
+  );
   const out: Fn[] = [];
   const names: string[] = [];
   const visit = (node: ts.Node) => {
     let pushed = false;
-    if (ts.isFunctionDeclaration(node) || ts.isMethodDeclaration(node) || ts.isArrowFunction(node) || ts.isFunctionExpression(node)) {
+    if (
+      ts.isFunctionDeclaration(node) ||
+      ts.isMethodDeclaration(node) ||
+      ts.isArrowFunction(node) ||
+      ts.isFunctionExpression(node)
+    ) {
       const start = sf.getLineAndCharacterOfPosition(node.getStart(sf)).line;
       const end = sf.getLineAndCharacterOfPosition(node.getEnd()).line;
       const parent = node.parent;
@@ -54,7 +65,6 @@ export function functionsOf(path: string, text: string): Fn[] {
   visit(sf);
   return out;
 }
-
 
 /** The current exceptions, as the baseline file holds them. */
 export function measureExceptions(): { files: Record<string, number>; functions: Record<string, number> } {

@@ -12,11 +12,16 @@ import { DeliveryLotSchema, LotFromPickupsSchema } from "@/lib/feedstock/lot.sch
 // compiled to WebAssembly), from the local wasm file so the test needs no network.
 beforeAll(() => {
   const wasm = readFileSync(createRequire(import.meta.url).resolve("zxing-wasm/reader/zxing_reader.wasm"));
-  void prepareZXingModule({ overrides: { wasmBinary: wasm.buffer.slice(wasm.byteOffset, wasm.byteOffset + wasm.byteLength) as ArrayBuffer }, fireImmediately: true });
+  void prepareZXingModule({
+    overrides: { wasmBinary: wasm.buffer.slice(wasm.byteOffset, wasm.byteOffset + wasm.byteLength) as ArrayBuffer },
+    fireImmediately: true,
+  });
 });
 
 async function decode(elementString: string, withGtin: boolean) {
-  const png = await bwipjs.toBuffer(gs1DataMatrixOptions(elementString, withGtin) as Parameters<typeof bwipjs.toBuffer>[0]);
+  const png = await bwipjs.toBuffer(
+    gs1DataMatrixOptions(elementString, withGtin) as Parameters<typeof bwipjs.toBuffer>[0],
+  );
   return readBarcodes(new Uint8Array(png), { formats: ["DataMatrix"], textMode: "HRI" });
 }
 
@@ -50,7 +55,13 @@ describe("the GS1 DataMatrix on a lot label", () => {
 });
 
 describe("a lot number that a GS1 symbol cannot carry is refused when the lot is made", () => {
-  const pickups = { material: "USED_COOKING_OIL", receivedAt: "2026-11-02T08:00:00Z", observedVolumeL: 100, observedTempC: 20, pickupCodes: ["P-1"] };
+  const pickups = {
+    material: "USED_COOKING_OIL",
+    receivedAt: "2026-11-02T08:00:00Z",
+    observedVolumeL: 100,
+    observedTempC: 20,
+    pickupCodes: ["P-1"],
+  };
   it("accepts 20 characters and refuses 21, naming the field and the rule (GS1 General Specifications, AI (10): X..20)", () => {
     expect(LotFromPickupsSchema.safeParse({ ...pickups, code: "L".repeat(20) }).success).toBe(true);
     const r = LotFromPickupsSchema.safeParse({ ...pickups, code: "L".repeat(21) });
@@ -60,7 +71,15 @@ describe("a lot number that a GS1 symbol cannot carry is refused when the lot is
   });
 
   it("applies to deliveries too", () => {
-    const r = DeliveryLotSchema.safeParse({ material: "TALLOW", receivedAt: "2026-11-02T08:00:00Z", observedVolumeL: 100, observedTempC: 20, supplierCode: "S-1", deliveryDocument: "D1", code: `D-${"9".repeat(30)}` });
+    const r = DeliveryLotSchema.safeParse({
+      material: "TALLOW",
+      receivedAt: "2026-11-02T08:00:00Z",
+      observedVolumeL: 100,
+      observedTempC: 20,
+      supplierCode: "S-1",
+      deliveryDocument: "D1",
+      code: `D-${"9".repeat(30)}`,
+    });
     expect(r.error?.issues.map((i) => i.path.join("."))).toEqual(["code"]);
   });
 });

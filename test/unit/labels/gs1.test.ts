@@ -12,7 +12,10 @@ describe("GS1 AI (10) batch/lot number", () => {
 
   it("allows at most 20 characters (format N2+X..20)", () => {
     expect(MAX_LOT_LENGTH).toBe(20); // GS1 GS, AI (10)
-    expect(gs1LotElement("A".repeat(20))).toEqual({ ok: true, value: { elementString: `(10)${"A".repeat(20)}`, lot: "A".repeat(20) } });
+    expect(gs1LotElement("A".repeat(20))).toEqual({
+      ok: true,
+      value: { elementString: `(10)${"A".repeat(20)}`, lot: "A".repeat(20) },
+    });
     const long = gs1LotElement("A".repeat(21));
     expect(long.ok).toBe(false);
     if (!long.ok) expect(long.issues[0]).toMatchObject({ code: "GS1.TOO_LONG", field: "lot" });
@@ -35,7 +38,12 @@ describe("GS1 AI (10) batch/lot number", () => {
   ])("refuses %s, naming the character", (lot, what) => {
     const r = gs1LotElement(lot, "lotCode");
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.issues[0]).toMatchObject({ code: "GS1.CHARACTER", field: "lotCode", message: expect.stringContaining(what) as string });
+    if (!r.ok)
+      expect(r.issues[0]).toMatchObject({
+        code: "GS1.CHARACTER",
+        field: "lotCode",
+        message: expect.stringContaining(what) as string,
+      });
   });
 
   it("refuses an empty lot", () => {

@@ -1,6 +1,20 @@
 import { describe, expect, it } from "vitest";
 import type { ZodType } from "zod";
-import { code, emptyAsMissing, id, massKg, MAX_MASS_KG, MAX_RECORD_ID, oneOf, percent, requiredText, tempC, text, volumeL, when } from "@/lib/ledger/fields";
+import {
+  code,
+  emptyAsMissing,
+  id,
+  massKg,
+  MAX_MASS_KG,
+  MAX_RECORD_ID,
+  oneOf,
+  percent,
+  requiredText,
+  tempC,
+  text,
+  volumeL,
+  when,
+} from "@/lib/ledger/fields";
 
 /** The first message a field builder gives for a value, or null when it accepts it. */
 function refusal(schema: ZodType, value: unknown): string | null {

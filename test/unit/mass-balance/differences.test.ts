@@ -11,7 +11,18 @@ import type { BalanceHolder, BalanceMove, PeriodBalance } from "@/lib/mass-balan
 
 const utc = (iso: string): number => Date.parse(iso);
 const MARCH = { startMs: utc("2026-03-01T00:00:00Z"), endMs: utc("2026-04-01T00:00:00Z") };
-const H = { pickup: 1, lot: 2, tank: 3, methanol: 4, batch: 5, product: 6, glycerol: 7, loss: 8, diff: 9, recovered: 10 } as const;
+const H = {
+  pickup: 1,
+  lot: 2,
+  tank: 3,
+  methanol: 4,
+  batch: 5,
+  product: 6,
+  glycerol: 7,
+  loss: 8,
+  diff: 9,
+  recovered: 10,
+} as const;
 const holders: BalanceHolder[] = [
   { id: H.pickup, kind: "PICKUP", siteId: 1, materialKind: "USED_COOKING_OIL" },
   { id: H.lot, kind: "LOT", siteId: 1, materialKind: "USED_COOKING_OIL" },
@@ -25,8 +36,21 @@ const holders: BalanceHolder[] = [
   { id: H.recovered, kind: "TANK", siteId: 1, materialKind: "METHANOL" },
 ];
 let id = 1;
-const mv = (at: string, from: number | null, to: number, massG: number, role: MoveRole, receiving = false): BalanceMove => ({
-  id: id++, at: utc(at), fromHolderId: from, toHolderId: to, massG, role, ...(receiving ? { receiving: true } : {}),
+const mv = (
+  at: string,
+  from: number | null,
+  to: number,
+  massG: number,
+  role: MoveRole,
+  receiving = false,
+): BalanceMove => ({
+  id: id++,
+  at: utc(at),
+  fromHolderId: from,
+  toHolderId: to,
+  massG,
+  role,
+  ...(receiving ? { receiving: true } : {}),
 });
 
 // The triolein worked example (stoichiometry of C57H104O6 + 3 CH4O → 3 C19H36O2 + C3H8O3, IUPAC standard
@@ -48,7 +72,14 @@ const moves: BalanceMove[] = [
 ];
 
 function balance(input: Partial<Parameters<typeof computePeriodBalance>[0]> = {}): PeriodBalance {
-  const r = computePeriodBalance({ holders, moves, period: MARCH, scope: { siteId: 1 }, tolerance: DEFAULT_CLOSURE_TOLERANCE, ...input });
+  const r = computePeriodBalance({
+    holders,
+    moves,
+    period: MARCH,
+    scope: { siteId: 1 },
+    tolerance: DEFAULT_CLOSURE_TOLERANCE,
+    ...input,
+  });
   if (!r.ok) throw new Error(JSON.stringify(r.issues));
   return r.value;
 }
@@ -78,15 +109,24 @@ describe("period closure over measured differences", () => {
   });
 
   it("a receiving surplus and an unmeasured gain count against the shortfalls (signed: + means missing)", () => {
-    const extra = [mv("2026-03-20T08:00:00Z", null, H.lot, 4_000, "RECEIPT", true), mv("2026-03-10T14:00:00Z", null, H.batch, 45, "UNMEASURED")];
+    const extra = [
+      mv("2026-03-20T08:00:00Z", null, H.lot, 4_000, "RECEIPT", true),
+      mv("2026-03-10T14:00:00Z", null, H.batch, 45, "UNMEASURED"),
+    ];
     const d = balance({ moves: [...moves, ...extra] }).differences;
     expect(d.receivingG).toBe(6_000);
     expect(d.unmeasuredG).toBe(10_000);
   });
 
   it("per material kind: the batch's difference is in reaction, the receiving shortfall with the oil's kind", () => {
-    expect(balance({ scope: { siteId: 1, materialKind: "IN_REACTION" } }).differences).toMatchObject({ unmeasuredG: 10_045, receivingG: 0 });
-    expect(balance({ scope: { siteId: 1, materialKind: "USED_COOKING_OIL" } }).differences).toMatchObject({ unmeasuredG: 0, receivingG: 10_000 });
+    expect(balance({ scope: { siteId: 1, materialKind: "IN_REACTION" } }).differences).toMatchObject({
+      unmeasuredG: 10_045,
+      receivingG: 0,
+    });
+    expect(balance({ scope: { siteId: 1, materialKind: "USED_COOKING_OIL" } }).differences).toMatchObject({
+      unmeasuredG: 0,
+      receivingG: 10_000,
+    });
   });
 
   it("the batch row reports the unmeasured difference against its charge, the spill as an output", () => {

@@ -12,7 +12,13 @@ const src = (code: string) => ({ code, name: `Kitchen ${code}` });
 // Eight sources with one pickup each, pooled into one lot; a delivered tallow lot; two feedstock tanks,
 // the methanol tank, a reagent lot, one batch, its product, a glycerol drum, a shipment and a haul.
 const holders: FlowHolder[] = [
-  ...Array.from({ length: 8 }, (_, i): FlowHolder => ({ id: 101 + i, kind: "PICKUP", code: `P-${i + 1}`, material: "USED_COOKING_OIL", source: src(`S-${i + 1}`) })),
+  ...Array.from({ length: 8 }, (_, i): FlowHolder => ({
+    id: 101 + i,
+    kind: "PICKUP",
+    code: `P-${i + 1}`,
+    material: "USED_COOKING_OIL",
+    source: src(`S-${i + 1}`),
+  })),
   { id: 1, kind: "LOT", code: "L-1", material: "USED_COOKING_OIL" },
   { id: 2, kind: "LOT", code: "L-2", material: "TALLOW", source: src("S-9") },
   { id: 3, kind: "TANK", code: "T-1", service: "FEEDSTOCK" },
@@ -29,8 +35,20 @@ const holders: FlowHolder[] = [
 const at = (d: number) => utc(`2026-01-${String(d).padStart(2, "0")}T08:00:00Z`);
 const pickupMass = [500_000, 400_000, 300_000, 200_000, 100_000, 60_000, 40_000, 20_000];
 const moves: FlowMove[] = [
-  ...pickupMass.map((g, i): FlowMove => ({ at: at(2), fromHolderId: null, toHolderId: 101 + i, massG: g, role: "RECEIPT" })),
-  ...pickupMass.map((g, i): FlowMove => ({ at: at(3), fromHolderId: 101 + i, toHolderId: 1, massG: g, role: "TRANSFER" })),
+  ...pickupMass.map((g, i): FlowMove => ({
+    at: at(2),
+    fromHolderId: null,
+    toHolderId: 101 + i,
+    massG: g,
+    role: "RECEIPT",
+  })),
+  ...pickupMass.map((g, i): FlowMove => ({
+    at: at(3),
+    fromHolderId: 101 + i,
+    toHolderId: 1,
+    massG: g,
+    role: "TRANSFER",
+  })),
   { at: at(3), fromHolderId: 1, toHolderId: 12, massG: 2_000, role: "LOSS" }, // receiving shortfall
   { at: at(4), fromHolderId: null, toHolderId: 2, massG: 900_000, role: "RECEIPT" },
   { at: at(5), fromHolderId: null, toHolderId: 6, massG: 10_000, role: "RECEIPT" }, // reagent bought: no stage
@@ -49,7 +67,8 @@ const moves: FlowMove[] = [
   { at: utc("2026-02-03T08:00:00Z"), fromHolderId: 8, toHolderId: 10, massG: 60_000, role: "SHIPMENT" }, // next period
 ];
 
-const grams = (f: ReturnType<typeof computePeriodFlows>, from: string, to: string) => f.links.find((l) => l.from === from && l.to === to)?.grams;
+const grams = (f: ReturnType<typeof computePeriodFlows>, from: string, to: string) =>
+  f.links.find((l) => l.from === from && l.to === to)?.grams;
 
 describe("period flows for the Sankey picture", () => {
   const flows = computePeriodFlows({ holders, moves, period: JANUARY, maxSources: 4 });
@@ -71,7 +90,13 @@ describe("period flows for the Sankey picture", () => {
     expect(grams(flows, "source:*other", "lot:USED_COOKING_OIL")).toBe(200_000 + 100_000 + 60_000 + 40_000 + 20_000);
     expect(grams(flows, "source:*other", "lot:TALLOW")).toBeUndefined();
     expect(grams(flows, "source:S-9", "lot:TALLOW")).toBe(900_000);
-    expect(flows.nodes.filter((n) => n.stage === 0).map((n) => n.key)).toEqual(["source:S-9", "source:S-1", "source:*other", "source:S-2", "source:S-3"]);
+    expect(flows.nodes.filter((n) => n.stage === 0).map((n) => n.key)).toEqual([
+      "source:S-9",
+      "source:S-1",
+      "source:*other",
+      "source:S-2",
+      "source:S-3",
+    ]);
   });
 
   it("draws batch outputs by their role and the batch balances: charged = drawn off", () => {
@@ -86,7 +111,12 @@ describe("period flows for the Sankey picture", () => {
 
   it("agrees with the period balance: shipped and hauled are the balance's outputs", () => {
     const kinds = new Map(holders.map((h) => [h.id, h.kind]));
-    const bh = holders.map((h) => ({ id: h.id, kind: kinds.get(h.id) as HolderKind, siteId: 1, ...(h.kind === "BATCH" ? { completedAt: at(9) } : {}) }));
+    const bh = holders.map((h) => ({
+      id: h.id,
+      kind: kinds.get(h.id) as HolderKind,
+      siteId: 1,
+      ...(h.kind === "BATCH" ? { completedAt: at(9) } : {}),
+    }));
     const bm: BalanceMove[] = moves.map((m, i) => ({ ...m, id: i + 1 }));
     const balance = computePeriodBalance({ holders: bh, moves: bm, period: JANUARY, scope: { siteId: 1 } });
     if (!balance.ok) throw new Error(`balance refused: ${JSON.stringify(balance.issues)}`);
@@ -99,13 +129,21 @@ describe("period flows for the Sankey picture", () => {
   it("never draws a loop: every link goes forward a stage", () => {
     const stage = new Map(flows.nodes.map((n) => [n.key, n.stage]));
     for (const l of flows.links) expect(stage.get(l.from) ?? 9).toBeLessThan(stage.get(l.to) ?? -1);
-    const reuse = computePeriodFlows({ holders, moves: [{ at: at(10), fromHolderId: 12, toHolderId: 7, massG: 5, role: "TRANSFER" }], period: JANUARY });
+    const reuse = computePeriodFlows({
+      holders,
+      moves: [{ at: at(10), fromHolderId: 12, toHolderId: 7, massG: 5, role: "TRANSFER" }],
+      period: JANUARY,
+    });
     expect(reuse.backwardG).toBe(5);
     expect(reuse.links).toEqual([]);
   });
 
   it("is empty for an empty period", () => {
-    const none = computePeriodFlows({ holders, moves, period: { startMs: utc("2025-06-01T00:00:00Z"), endMs: utc("2025-07-01T00:00:00Z") } });
+    const none = computePeriodFlows({
+      holders,
+      moves,
+      period: { startMs: utc("2025-06-01T00:00:00Z"), endMs: utc("2025-07-01T00:00:00Z") },
+    });
     expect(none.nodes).toEqual([]);
     expect(none.links).toEqual([]);
     expect(none.movedG).toBe(0);

@@ -15,8 +15,18 @@ const JANUARY = { startMs: utc("2026-01-01T00:00:00Z"), endMs: utc("2026-02-01T0
 
 // A small plant, site 1, with one holder of each kind and a tank at another site (site 2).
 const H = {
-  pickup: 1, lot: 2, tank: 3, methanol: 4, koh: 5, batch: 6, product: 7, glycerolDrum: 8,
-  shipment: 9, loss: 10, disposal: 11, otherSiteTank: 12,
+  pickup: 1,
+  lot: 2,
+  tank: 3,
+  methanol: 4,
+  koh: 5,
+  batch: 6,
+  product: 7,
+  glycerolDrum: 8,
+  shipment: 9,
+  loss: 10,
+  disposal: 11,
+  otherSiteTank: 12,
 } as const;
 
 const holders: BalanceHolder[] = [
@@ -35,7 +45,14 @@ const holders: BalanceHolder[] = [
 ];
 
 let nextId = 1;
-const mv = (at: string, from: number | null, to: number, massG: number, role: MoveRole): BalanceMove => ({ id: nextId++, at: utc(at), fromHolderId: from, toHolderId: to, massG, role });
+const mv = (at: string, from: number | null, to: number, massG: number, role: MoveRole): BalanceMove => ({
+  id: nextId++,
+  at: utc(at),
+  fromHolderId: from,
+  toHolderId: to,
+  massG,
+  role,
+});
 
 const moves: BalanceMove[] = [
   mv("2025-12-20T08:00:00Z", null, H.tank, 2_000_000, "RECEIPT"), // opening stock: 2 000 kg in the tank
@@ -68,8 +85,21 @@ describe("computePeriodBalance — hand-worked January", () => {
 
   it("stock view: opening + receipts = outputs + transfers out + closing, by hand", () => {
     expect(b.stock.openingG).toBe(2_000_000);
-    expect(b.stock.receipts).toEqual({ totalG: 1_200_000 + 300_000 + 20_000, feedstockG: 1_200_000, reagentG: 320_000, otherG: 0, unmeasuredG: 0 });
-    expect(b.stock.outputs).toEqual({ totalG: 900_000 + 150_000 + 10_000, shipmentG: 900_000, disposalG: 150_000, lossG: 10_000, unmeasuredG: 0, otherG: 0 });
+    expect(b.stock.receipts).toEqual({
+      totalG: 1_200_000 + 300_000 + 20_000,
+      feedstockG: 1_200_000,
+      reagentG: 320_000,
+      otherG: 0,
+      unmeasuredG: 0,
+    });
+    expect(b.stock.outputs).toEqual({
+      totalG: 900_000 + 150_000 + 10_000,
+      shipmentG: 900_000,
+      disposalG: 150_000,
+      lossG: 10_000,
+      unmeasuredG: 0,
+      otherG: 0,
+    });
     expect(b.stock.transfersOutG).toBe(100_000);
     expect(b.stock.transfersInG).toBe(0);
     // 2 000 000 + 1 520 000 − 1 060 000 − 100 000
@@ -106,7 +136,12 @@ describe("computePeriodBalance — hand-worked January", () => {
     expect(b.process.completed).toHaveLength(1);
     expect(b.process.inProgress).toHaveLength(0);
     expect(b.process.inputsByRole).toEqual({ OIL: 1_000_000, METHANOL: 220_000, CATALYST: 15_000 });
-    expect(b.process.outputsByRole).toEqual({ ESTER: 990_000, GLYCEROL_PHASE: 150_000, RECOVERED_METHANOL: 80_000, LOSS: 10_000 });
+    expect(b.process.outputsByRole).toEqual({
+      ESTER: 990_000,
+      GLYCEROL_PHASE: 150_000,
+      RECOVERED_METHANOL: 80_000,
+      LOSS: 10_000,
+    });
     expect(b.process.inputsG).toBe(1_235_000);
     expect(b.process.outputsG).toBe(1_230_000);
     expect(b.process.imbalanceG).toBe(5_000);
@@ -124,7 +159,12 @@ describe("computePeriodBalance — hand-worked January", () => {
   });
 
   it("a material-scoped balance counts the oil charged to the batch as leaving its scope", () => {
-    const uco = requireBalance({ holders, moves, period: JANUARY, scope: { siteId: 1, materialKind: "USED_COOKING_OIL" } });
+    const uco = requireBalance({
+      holders,
+      moves,
+      period: JANUARY,
+      scope: { siteId: 1, materialKind: "USED_COOKING_OIL" },
+    });
     expect(uco.stock.receipts.totalG).toBe(1_200_000);
     expect(uco.stock.transfersOutG).toBe(1_000_000 + 100_000);
     expect(uco.stock.outputs.totalG).toBe(0);
@@ -140,7 +180,12 @@ describe("computePeriodBalance — hand-worked January", () => {
   });
 
   it("February opens with January's closing stock", () => {
-    const feb = requireBalance({ holders, moves, period: { startMs: JANUARY.endMs, endMs: utc("2026-03-01T00:00:00Z") }, scope: { siteId: 1 } });
+    const feb = requireBalance({
+      holders,
+      moves,
+      period: { startMs: JANUARY.endMs, endMs: utc("2026-03-01T00:00:00Z") },
+      scope: { siteId: 1 },
+    });
     expect(feb.stock.openingG).toBe(2_360_000);
     expect(feb.stock.outputs.shipmentG).toBe(90_000);
     expect(feb.stock.closingG).toBe(2_270_000);
@@ -152,7 +197,9 @@ describe("computePeriodBalance — signals of missing records", () => {
   it("reports a holder whose book stock goes below zero (a movement in is missing)", () => {
     const missingReceipt = [mv("2026-01-03T08:00:00Z", H.lot, H.tank, 50_000, "TRANSFER")];
     const b = requireBalance({ holders, moves: missingReceipt, period: JANUARY, scope: { siteId: 1 } });
-    expect(b.stock.negativeStock).toEqual([{ holderId: H.lot, at: utc("2026-01-03T08:00:00Z"), moveId: missingReceipt[0]?.id, balanceG: -50_000 }]);
+    expect(b.stock.negativeStock).toEqual([
+      { holderId: H.lot, at: utc("2026-01-03T08:00:00Z"), moveId: missingReceipt[0]?.id, balanceG: -50_000 },
+    ]);
   });
 
   it("finds the same first negative stock whatever order the movements are listed in", () => {
@@ -163,13 +210,23 @@ describe("computePeriodBalance — signals of missing records", () => {
       mv("2026-01-05T08:00:00Z", H.lot, H.tank, 30_000, "TRANSFER"),
     ];
     const expected = [{ holderId: H.lot, at: utc("2026-01-03T08:00:00Z"), moveId: history[1]?.id, balanceG: -20_000 }];
-    expect(requireBalance({ holders, moves: history, period: JANUARY, scope: { siteId: 1 } }).stock.negativeStock).toEqual(expected);
-    expect(requireBalance({ holders, moves: [...history].reverse(), period: JANUARY, scope: { siteId: 1 } }).stock.negativeStock).toEqual(expected);
+    expect(
+      requireBalance({ holders, moves: history, period: JANUARY, scope: { siteId: 1 } }).stock.negativeStock,
+    ).toEqual(expected);
+    expect(
+      requireBalance({ holders, moves: [...history].reverse(), period: JANUARY, scope: { siteId: 1 } }).stock
+        .negativeStock,
+    ).toEqual(expected);
   });
 
   it("does not flag a draw booked at the same instant as the receipt that covers it", () => {
-    const sameInstant = [mv("2026-01-03T08:00:00Z", H.lot, H.tank, 50_000, "TRANSFER"), mv("2026-01-03T08:00:00Z", null, H.lot, 50_000, "RECEIPT")];
-    expect(requireBalance({ holders, moves: sameInstant, period: JANUARY, scope: { siteId: 1 } }).stock.negativeStock).toEqual([]);
+    const sameInstant = [
+      mv("2026-01-03T08:00:00Z", H.lot, H.tank, 50_000, "TRANSFER"),
+      mv("2026-01-03T08:00:00Z", null, H.lot, 50_000, "RECEIPT"),
+    ];
+    expect(
+      requireBalance({ holders, moves: sameInstant, period: JANUARY, scope: { siteId: 1 } }).stock.negativeStock,
+    ).toEqual([]);
   });
 
   it("flags a batch whose outputs were not all recorded", () => {
@@ -181,10 +238,30 @@ describe("computePeriodBalance — signals of missing records", () => {
   });
 
   it.each([
-    { name: "unknown holder", bad: { ...mv("2026-01-02T00:00:00Z", null, 99, 1, "RECEIPT") }, code: "MASS_BALANCE.UNKNOWN_HOLDER", field: "moves.0.toHolderId" },
-    { name: "zero mass", bad: { ...mv("2026-01-02T00:00:00Z", null, H.lot, 0, "RECEIPT") }, code: "MASS_BALANCE.INVALID_MASS", field: "moves.0.massG" },
-    { name: "fractional grams", bad: { ...mv("2026-01-02T00:00:00Z", null, H.lot, 1.5, "RECEIPT") }, code: "MASS_BALANCE.INVALID_MASS", field: "moves.0.massG" },
-    { name: "move to itself", bad: { ...mv("2026-01-02T00:00:00Z", H.lot, H.lot, 5, "TRANSFER") }, code: "MASS_BALANCE.SELF_MOVE", field: "moves.0.toHolderId" },
+    {
+      name: "unknown holder",
+      bad: { ...mv("2026-01-02T00:00:00Z", null, 99, 1, "RECEIPT") },
+      code: "MASS_BALANCE.UNKNOWN_HOLDER",
+      field: "moves.0.toHolderId",
+    },
+    {
+      name: "zero mass",
+      bad: { ...mv("2026-01-02T00:00:00Z", null, H.lot, 0, "RECEIPT") },
+      code: "MASS_BALANCE.INVALID_MASS",
+      field: "moves.0.massG",
+    },
+    {
+      name: "fractional grams",
+      bad: { ...mv("2026-01-02T00:00:00Z", null, H.lot, 1.5, "RECEIPT") },
+      code: "MASS_BALANCE.INVALID_MASS",
+      field: "moves.0.massG",
+    },
+    {
+      name: "move to itself",
+      bad: { ...mv("2026-01-02T00:00:00Z", H.lot, H.lot, 5, "TRANSFER") },
+      code: "MASS_BALANCE.SELF_MOVE",
+      field: "moves.0.toHolderId",
+    },
   ])("refuses a ledger with $name", ({ bad, code, field }) => {
     const r = computePeriodBalance({ holders, moves: [bad], period: JANUARY, scope: { siteId: 1 } });
     expect(r.ok).toBe(false);
@@ -200,7 +277,11 @@ describe("computePeriodBalance — signals of missing records", () => {
       tolerance: { ...DEFAULT_CLOSURE_TOLERANCE, warnPct: 3, failPct: 2 },
     });
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.issues.map((i) => i.code).sort()).toEqual(["MASS_BALANCE.INVALID_PERIOD", "MASS_BALANCE.INVALID_TOLERANCE"]);
+    if (!r.ok)
+      expect(r.issues.map((i) => i.code).sort()).toEqual([
+        "MASS_BALANCE.INVALID_PERIOD",
+        "MASS_BALANCE.INVALID_TOLERANCE",
+      ]);
   });
 });
 
@@ -226,7 +307,12 @@ describe("classifyClosure — tolerance boundaries", () => {
   });
 
   it("with no inputs, any imbalance fails and none is OK", () => {
-    expect(classifyClosure(0, 0, DEFAULT_CLOSURE_TOLERANCE)).toEqual({ imbalanceG: 0, baseG: 0, pct: null, flag: "OK" });
+    expect(classifyClosure(0, 0, DEFAULT_CLOSURE_TOLERANCE)).toEqual({
+      imbalanceG: 0,
+      baseG: 0,
+      pct: null,
+      flag: "OK",
+    });
     expect(classifyClosure(1, 0, DEFAULT_CLOSURE_TOLERANCE).flag).toBe("FAIL");
   });
 
@@ -261,14 +347,23 @@ describe("compareBookToGauges", () => {
   });
 
   it("a movement stamped at the reading instant counts as before the reading", () => {
-    const r = compareBookToGauges({ holders, moves, readings: [{ holderId: H.tank, at: utc("2026-01-26T08:00:00Z"), massG: 2_100_000 }] });
+    const r = compareBookToGauges({
+      holders,
+      moves,
+      readings: [{ holderId: H.tank, at: utc("2026-01-26T08:00:00Z"), massG: 2_100_000 }],
+    });
     expect(r.ok && r.value.rows[0]?.bookG).toBe(2_100_000);
   });
 
   it("refuses a reading of a holder that keeps no stock", () => {
-    const r = compareBookToGauges({ holders, moves, readings: [{ holderId: H.shipment, at: JANUARY.endMs, massG: 1 }] });
+    const r = compareBookToGauges({
+      holders,
+      moves,
+      readings: [{ holderId: H.shipment, at: JANUARY.endMs, massG: 1 }],
+    });
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.issues[0]).toMatchObject({ code: "MASS_BALANCE.GAUGE_NOT_STOCK", field: "readings.0.holderId" });
+    if (!r.ok)
+      expect(r.issues[0]).toMatchObject({ code: "MASS_BALANCE.GAUGE_NOT_STOCK", field: "readings.0.holderId" });
   });
 });
 
@@ -277,7 +372,10 @@ describe("property: the balance identity holds for any valid history", () => {
   const ROLES: MoveRole[] = ["TRANSFER", "OIL", "METHANOL", "ESTER", "LOSS", "SHIPMENT", "DISPOSAL"];
 
   const world = fc.record({
-    holders: fc.array(fc.record({ kind: fc.constantFrom(...KINDS), siteId: fc.constantFrom(1, 2) }), { minLength: 2, maxLength: 8 }),
+    holders: fc.array(fc.record({ kind: fc.constantFrom(...KINDS), siteId: fc.constantFrom(1, 2) }), {
+      minLength: 2,
+      maxLength: 8,
+    }),
     steps: fc.array(
       fc.record({
         op: fc.constantFrom("RECEIPT", "MOVE"),
@@ -323,21 +421,38 @@ describe("property: the balance identity holds for any valid history", () => {
         }
         const startMs = utc("2026-01-01T00:00:00Z") + w.startDay * 86_400_000;
         const endMs = startMs + w.lengthDays * 86_400_000;
-        const r = computePeriodBalance({ holders: hs, moves: ms, period: { startMs, endMs }, scope: { siteId: w.siteId } });
+        const r = computePeriodBalance({
+          holders: hs,
+          moves: ms,
+          period: { startMs, endMs },
+          scope: { siteId: w.siteId },
+        });
         expect(r.ok).toBe(true);
         if (!r.ok) return;
         const s = r.value.stock;
-        expect(s.receipts.totalG + s.transfersInG + s.returnsG - s.outputs.totalG - s.transfersOutG).toBe(s.closingG - s.openingG);
+        expect(s.receipts.totalG + s.transfersInG + s.returnsG - s.outputs.totalG - s.transfersOutG).toBe(
+          s.closingG - s.openingG,
+        );
         expect(s.imbalanceG).toBe(0);
         expect(s.negativeStock).toEqual([]);
 
         // Independent replay: stock in scope at an instant, and receipts into scope during the period.
         const inScope = (id: number): boolean => isStock(id) && (hs[id - 1] as BalanceHolder).siteId === w.siteId;
         const stockAt = (instant: number): number =>
-          ms.filter((m) => m.at < instant).reduce((sum, m) => sum + (inScope(m.toHolderId) ? m.massG : 0) - (m.fromHolderId !== null && inScope(m.fromHolderId) ? m.massG : 0), 0);
+          ms
+            .filter((m) => m.at < instant)
+            .reduce(
+              (sum, m) =>
+                sum +
+                (inScope(m.toHolderId) ? m.massG : 0) -
+                (m.fromHolderId !== null && inScope(m.fromHolderId) ? m.massG : 0),
+              0,
+            );
         expect(s.openingG).toBe(stockAt(startMs));
         expect(s.closingG).toBe(stockAt(endMs));
-        const receipts = ms.filter((m) => m.fromHolderId === null && m.at >= startMs && m.at < endMs && inScope(m.toHolderId)).reduce((sum, m) => sum + m.massG, 0);
+        const receipts = ms
+          .filter((m) => m.fromHolderId === null && m.at >= startMs && m.at < endMs && inScope(m.toHolderId))
+          .reduce((sum, m) => sum + m.massG, 0);
         expect(s.receipts.totalG).toBe(receipts);
       }),
       { numRuns: 300 },

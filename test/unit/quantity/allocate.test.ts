@@ -10,7 +10,12 @@ describe("largest-remainder split", () => {
   const hamilton = [5, 2, 1, 1, 1, 0];
 
   it("Hamilton's method worked example (largest remainder, by hand)", () => {
-    expect(allocateByWeight(10, votes.map((v, i) => [i, v] as const)).map(([, p]) => p)).toEqual(hamilton);
+    expect(
+      allocateByWeight(
+        10,
+        votes.map((v, i) => [i, v] as const),
+      ).map(([, p]) => p),
+    ).toEqual(hamilton);
     expect(allocateWholeGrams(10, votes, 100_000)).toEqual(hamilton);
   });
 
@@ -23,24 +28,42 @@ describe("largest-remainder split", () => {
 
   it("invariant: the fast split gives allocateByWeight's parts, which add up to the total", () => {
     fc.assert(
-      fc.property(fc.array(fc.integer({ min: 1, max: 5_000_000 }), { minLength: 1, maxLength: 300 }), fc.double({ min: 0, max: 1, noNaN: true }), (weights, share) => {
-        const sum = weights.reduce((s, w) => s + w, 0);
-        const total = Math.floor(sum * share);
-        const fast = allocateWholeGrams(total, weights, sum);
-        expect(fast).toEqual(allocateByWeight(total, weights.map((w, i) => [i, w] as const)).map(([, p]) => p));
-        expect(fast.reduce((s, p) => s + p, 0)).toBe(total);
-      }),
+      fc.property(
+        fc.array(fc.integer({ min: 1, max: 5_000_000 }), { minLength: 1, maxLength: 300 }),
+        fc.double({ min: 0, max: 1, noNaN: true }),
+        (weights, share) => {
+          const sum = weights.reduce((s, w) => s + w, 0);
+          const total = Math.floor(sum * share);
+          const fast = allocateWholeGrams(total, weights, sum);
+          expect(fast).toEqual(
+            allocateByWeight(
+              total,
+              weights.map((w, i) => [i, w] as const),
+            ).map(([, p]) => p),
+          );
+          expect(fast.reduce((s, p) => s + p, 0)).toBe(total);
+        },
+      ),
       { numRuns: 500 },
     );
   });
 
   it("invariant: many equal small weights (a tank's tail of 1 g origins) split like the reference", () => {
     fc.assert(
-      fc.property(fc.array(fc.integer({ min: 1, max: 3 }), { minLength: 50, maxLength: 2000 }), fc.nat(), (weights, pick) => {
-        const sum = weights.reduce((s, w) => s + w, 0);
-        const total = pick % (sum + 1);
-        expect(allocateWholeGrams(total, weights, sum)).toEqual(allocateByWeight(total, weights.map((w, i) => [i, w] as const)).map(([, p]) => p));
-      }),
+      fc.property(
+        fc.array(fc.integer({ min: 1, max: 3 }), { minLength: 50, maxLength: 2000 }),
+        fc.nat(),
+        (weights, pick) => {
+          const sum = weights.reduce((s, w) => s + w, 0);
+          const total = pick % (sum + 1);
+          expect(allocateWholeGrams(total, weights, sum)).toEqual(
+            allocateByWeight(
+              total,
+              weights.map((w, i) => [i, w] as const),
+            ).map(([, p]) => p),
+          );
+        },
+      ),
       { numRuns: 300 },
     );
   });

@@ -59,10 +59,34 @@ describe("DEFAULT_DENSITY_TABLE", () => {
   });
 
   // Each row checks the table against a published range, converted by hand; not against the table itself.
-  const rangeChecks: Array<{ kind: (typeof MATERIAL_KINDS)[number]; tC: number; min: number; max: number; source: string }> = [
-    { kind: "SOYBEAN", tC: 20, min: 0.919 * WATER_20C, max: 0.925 * WATER_20C, source: "Codex CXS 210-1999, d(20/20) 0.919–0.925" },
-    { kind: "CANOLA", tC: 20, min: 0.914 * WATER_20C, max: 0.92 * WATER_20C, source: "Codex CXS 210-1999, low-erucic rapeseed 0.914–0.920" },
-    { kind: "TALLOW", tC: 40, min: 0.893 * WATER_20C, max: 0.904 * WATER_20C, source: "Bockisch 1998, d(40/20) 0.893–0.904" },
+  const rangeChecks: Array<{
+    kind: (typeof MATERIAL_KINDS)[number];
+    tC: number;
+    min: number;
+    max: number;
+    source: string;
+  }> = [
+    {
+      kind: "SOYBEAN",
+      tC: 20,
+      min: 0.919 * WATER_20C,
+      max: 0.925 * WATER_20C,
+      source: "Codex CXS 210-1999, d(20/20) 0.919–0.925",
+    },
+    {
+      kind: "CANOLA",
+      tC: 20,
+      min: 0.914 * WATER_20C,
+      max: 0.92 * WATER_20C,
+      source: "Codex CXS 210-1999, low-erucic rapeseed 0.914–0.920",
+    },
+    {
+      kind: "TALLOW",
+      tC: 40,
+      min: 0.893 * WATER_20C,
+      max: 0.904 * WATER_20C,
+      source: "Bockisch 1998, d(40/20) 0.893–0.904",
+    },
     { kind: "FAME", tC: 15, min: 860, max: 900, source: "EN 14214 Table 1, 860–900 kg/m³ at 15 °C" },
     { kind: "USED_COOKING_OIL", tC: 20, min: 910, max: 920, source: "common practice ≈0.91–0.92 g/cm³ (from memory)" },
   ];
@@ -136,7 +160,12 @@ describe("standardVolume", () => {
   it("corrects to 60 °F when selected", () => {
     // 60 °F = 15.5556 °C (NIST SP 811); ρ(60 °F) = 880 − 0.7 × (15.5556 − 15) = 879.6111 kg/m³
     const v = requireOk(
-      standardVolume({ observedVolumeL: 1000, observedTempC: 25, entry: FAME_FIXTURE, referenceTempC: REFERENCE_TEMPERATURE_C.F60 }),
+      standardVolume({
+        observedVolumeL: 1000,
+        observedTempC: 25,
+        entry: FAME_FIXTURE,
+        referenceTempC: REFERENCE_TEMPERATURE_C.F60,
+      }),
     );
     expect(v.referenceDensityKgM3).toBeCloseTo(879.6111, 4);
     expect(v.standardVolumeL).toBeCloseTo((1000 * 873) / 879.611111, 4);
@@ -149,9 +178,13 @@ describe("standardVolume", () => {
   });
 
   it("warns, without failing, when the observation is outside the model's backed range", () => {
-    const v = requireOk(standardVolume({ observedVolumeL: 100, observedTempC: 20, entry: DEFAULT_DENSITY_TABLE.TALLOW }));
+    const v = requireOk(
+      standardVolume({ observedVolumeL: 100, observedTempC: 20, entry: DEFAULT_DENSITY_TABLE.TALLOW }),
+    );
     expect(v.warnings.map((w) => w.code)).toEqual(["DENSITY.OUTSIDE_MODEL_RANGE"]);
-    const inside = requireOk(standardVolume({ observedVolumeL: 100, observedTempC: 60, entry: DEFAULT_DENSITY_TABLE.TALLOW }));
+    const inside = requireOk(
+      standardVolume({ observedVolumeL: 100, observedTempC: 60, entry: DEFAULT_DENSITY_TABLE.TALLOW }),
+    );
     expect(inside.warnings).toEqual([]);
   });
 
@@ -164,9 +197,13 @@ describe("standardVolume", () => {
         fc.constantFrom(REFERENCE_TEMPERATURE_C.C15, REFERENCE_TEMPERATURE_C.F60, 20),
         (volumeL, tC, kind, refC) => {
           const entry = DEFAULT_DENSITY_TABLE[kind];
-          const v = requireOk(standardVolume({ observedVolumeL: volumeL, observedTempC: tC, entry, referenceTempC: refC }));
+          const v = requireOk(
+            standardVolume({ observedVolumeL: volumeL, observedTempC: tC, entry, referenceTempC: refC }),
+          );
           const m = requireOk(massFromObserved({ observedVolumeL: volumeL, observedTempC: tC, entry }));
-          expect(Math.abs((v.standardVolumeL * v.referenceDensityKgM3) / 1000 - m.massKg)).toBeLessThanOrEqual(1e-9 * m.massKg);
+          expect(Math.abs((v.standardVolumeL * v.referenceDensityKgM3) / 1000 - m.massKg)).toBeLessThanOrEqual(
+            1e-9 * m.massKg,
+          );
         },
       ),
       RUNS,
@@ -209,7 +246,9 @@ describe("massFromObserved / observedVolumeFromMass", () => {
           expect(Math.abs(back.volumeL - volumeL)).toBeLessThanOrEqual(1e-12 * Math.max(1, volumeL));
           // Through stored integer grams the error is at most 0.5 g of material.
           const fromGrams = requireOk(observedVolumeFromMass({ massKg: m.massG / 1000, observedTempC: tC, entry }));
-          expect(Math.abs(fromGrams.volumeL - volumeL)).toBeLessThanOrEqual(0.5 / m.densityKgM3 + 1e-9 * Math.max(1, volumeL));
+          expect(Math.abs(fromGrams.volumeL - volumeL)).toBeLessThanOrEqual(
+            0.5 / m.densityKgM3 + 1e-9 * Math.max(1, volumeL),
+          );
         },
       ),
       RUNS,
@@ -238,15 +277,56 @@ describe("applyMeasuredDensity", () => {
 describe("bad inputs return issues naming the field", () => {
   const entry: DensityEntry = FAME_FIXTURE;
   const cases: Array<{ name: string; run: () => Result<unknown>; code: string; field: string }> = [
-    { name: "negative volume", run: () => massFromObserved({ observedVolumeL: -1, observedTempC: 15, entry }), code: "QUANTITY.NEGATIVE", field: "observedVolumeL" },
-    { name: "NaN volume", run: () => standardVolume({ observedVolumeL: Number.NaN, observedTempC: 15, entry }), code: "QUANTITY.NOT_A_NUMBER", field: "observedVolumeL" },
-    { name: "NaN temperature", run: () => massFromObserved({ observedVolumeL: 1, observedTempC: Number.NaN, entry }), code: "QUANTITY.NOT_A_NUMBER", field: "observedTempC" },
-    { name: "below absolute zero", run: () => standardVolume({ observedVolumeL: 1, observedTempC: -300, entry }), code: "QUANTITY.BELOW_ABSOLUTE_ZERO", field: "observedTempC" },
-    { name: "bad reference temperature", run: () => standardVolume({ observedVolumeL: 1, observedTempC: 15, entry, referenceTempC: Number.POSITIVE_INFINITY }), code: "QUANTITY.NOT_A_NUMBER", field: "referenceTempC" },
-    { name: "negative mass", run: () => observedVolumeFromMass({ massKg: -5, observedTempC: 15, entry }), code: "QUANTITY.NEGATIVE", field: "massKg" },
+    {
+      name: "negative volume",
+      run: () => massFromObserved({ observedVolumeL: -1, observedTempC: 15, entry }),
+      code: "QUANTITY.NEGATIVE",
+      field: "observedVolumeL",
+    },
+    {
+      name: "NaN volume",
+      run: () => standardVolume({ observedVolumeL: Number.NaN, observedTempC: 15, entry }),
+      code: "QUANTITY.NOT_A_NUMBER",
+      field: "observedVolumeL",
+    },
+    {
+      name: "NaN temperature",
+      run: () => massFromObserved({ observedVolumeL: 1, observedTempC: Number.NaN, entry }),
+      code: "QUANTITY.NOT_A_NUMBER",
+      field: "observedTempC",
+    },
+    {
+      name: "below absolute zero",
+      run: () => standardVolume({ observedVolumeL: 1, observedTempC: -300, entry }),
+      code: "QUANTITY.BELOW_ABSOLUTE_ZERO",
+      field: "observedTempC",
+    },
+    {
+      name: "bad reference temperature",
+      run: () =>
+        standardVolume({ observedVolumeL: 1, observedTempC: 15, entry, referenceTempC: Number.POSITIVE_INFINITY }),
+      code: "QUANTITY.NOT_A_NUMBER",
+      field: "referenceTempC",
+    },
+    {
+      name: "negative mass",
+      run: () => observedVolumeFromMass({ massKg: -5, observedTempC: 15, entry }),
+      code: "QUANTITY.NEGATIVE",
+      field: "massKg",
+    },
     // 880 − 0.7 × (1400 − 15) < 0: the linear model has no density there
-    { name: "model gives no density", run: () => massFromObserved({ observedVolumeL: 1, observedTempC: 1400, entry }), code: "DENSITY.NOT_POSITIVE", field: "observedTempC" },
-    { name: "model gives no density (inverse)", run: () => observedVolumeFromMass({ massKg: 1, observedTempC: 1400, entry }), code: "DENSITY.NOT_POSITIVE", field: "observedTempC" },
+    {
+      name: "model gives no density",
+      run: () => massFromObserved({ observedVolumeL: 1, observedTempC: 1400, entry }),
+      code: "DENSITY.NOT_POSITIVE",
+      field: "observedTempC",
+    },
+    {
+      name: "model gives no density (inverse)",
+      run: () => observedVolumeFromMass({ massKg: 1, observedTempC: 1400, entry }),
+      code: "DENSITY.NOT_POSITIVE",
+      field: "observedTempC",
+    },
   ];
   it.each(cases)("$name → $code on $field", ({ run, code, field }) => {
     const r = run();

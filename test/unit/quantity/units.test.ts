@@ -49,23 +49,111 @@ describe("exact constants", () => {
 });
 
 describe("convertVolume / convertMass", () => {
-  const cases: Array<{ name: string; value: number; from: VolumeUnit; to: VolumeUnit; expected: number; digits: number; source: string }> = [
-    { name: "1 US gal in L", value: 1, from: "gal", to: "L", expected: 3.785411784, digits: 12, source: "NIST HB 44 App. C" },
-    { name: "1 bbl in L", value: 1, from: "bbl", to: "L", expected: 158.987294928, digits: 9, source: "NIST HB 44 App. C footnote" },
-    { name: "1 bbl in gal", value: 1, from: "bbl", to: "gal", expected: 42, digits: 12, source: "NIST HB 44 App. C footnote" },
-    { name: "1 L in US gal", value: 1, from: "L", to: "gal", expected: 0.264172052358148, digits: 14, source: "NIST SP 811 / NIST HB 44 App. C (computed 1/3.785411784)" },
+  const cases: Array<{
+    name: string;
+    value: number;
+    from: VolumeUnit;
+    to: VolumeUnit;
+    expected: number;
+    digits: number;
+    source: string;
+  }> = [
+    {
+      name: "1 US gal in L",
+      value: 1,
+      from: "gal",
+      to: "L",
+      expected: 3.785411784,
+      digits: 12,
+      source: "NIST HB 44 App. C",
+    },
+    {
+      name: "1 bbl in L",
+      value: 1,
+      from: "bbl",
+      to: "L",
+      expected: 158.987294928,
+      digits: 9,
+      source: "NIST HB 44 App. C footnote",
+    },
+    {
+      name: "1 bbl in gal",
+      value: 1,
+      from: "bbl",
+      to: "gal",
+      expected: 42,
+      digits: 12,
+      source: "NIST HB 44 App. C footnote",
+    },
+    {
+      name: "1 L in US gal",
+      value: 1,
+      from: "L",
+      to: "gal",
+      expected: 0.264172052358148,
+      digits: 14,
+      source: "NIST SP 811 / NIST HB 44 App. C (computed 1/3.785411784)",
+    },
     { name: "2500 mL in L", value: 2500, from: "mL", to: "L", expected: 2.5, digits: 14, source: "SI prefix" },
-    { name: "1 US gal in mL", value: 1, from: "gal", to: "mL", expected: 3785.411784, digits: 9, source: "NIST HB 44 App. C" },
+    {
+      name: "1 US gal in mL",
+      value: 1,
+      from: "gal",
+      to: "mL",
+      expected: 3785.411784,
+      digits: 9,
+      source: "NIST HB 44 App. C",
+    },
   ];
   it.each(cases)("$name ($source)", ({ value, from, to, expected, digits }) => {
     expect(convertVolume(value, from, to)).toBeCloseTo(expected, digits);
   });
 
-  const massCases: Array<{ name: string; value: number; from: MassUnit; to: MassUnit; expected: number; digits: number; source: string }> = [
-    { name: "1 lb in kg", value: 1, from: "lb", to: "kg", expected: 0.45359237, digits: 14, source: "1959 pound definition" },
-    { name: "1 kg in lb", value: 1, from: "kg", to: "lb", expected: 2.204622621848776, digits: 12, source: "NIST SP 811 / NIST HB 44 App. C (computed)" },
-    { name: "2000 lb (short ton) in kg", value: 2000, from: "lb", to: "kg", expected: 907.18474, digits: 9, source: "NIST SP 811 / NIST HB 44 App. C short ton" },
-    { name: "1 lb in g", value: 1, from: "lb", to: "g", expected: 453.59237, digits: 10, source: "1959 pound definition" },
+  const massCases: Array<{
+    name: string;
+    value: number;
+    from: MassUnit;
+    to: MassUnit;
+    expected: number;
+    digits: number;
+    source: string;
+  }> = [
+    {
+      name: "1 lb in kg",
+      value: 1,
+      from: "lb",
+      to: "kg",
+      expected: 0.45359237,
+      digits: 14,
+      source: "1959 pound definition",
+    },
+    {
+      name: "1 kg in lb",
+      value: 1,
+      from: "kg",
+      to: "lb",
+      expected: 2.204622621848776,
+      digits: 12,
+      source: "NIST SP 811 / NIST HB 44 App. C (computed)",
+    },
+    {
+      name: "2000 lb (short ton) in kg",
+      value: 2000,
+      from: "lb",
+      to: "kg",
+      expected: 907.18474,
+      digits: 9,
+      source: "NIST SP 811 / NIST HB 44 App. C short ton",
+    },
+    {
+      name: "1 lb in g",
+      value: 1,
+      from: "lb",
+      to: "g",
+      expected: 453.59237,
+      digits: 10,
+      source: "1959 pound definition",
+    },
     { name: "1500 g in kg", value: 1500, from: "g", to: "kg", expected: 1.5, digits: 14, source: "SI prefix" },
   ];
   it.each(massCases)("$name ($source)", ({ value, from, to, expected, digits }) => {
@@ -104,26 +192,30 @@ describe("convertVolume / convertMass", () => {
 });
 
 describe("temperature", () => {
-  const cases: Array<{ value: number; from: TemperatureUnit; to: TemperatureUnit; expected: number; digits: number }> = [
-    // NIST SP 811 / NIST HB 44 App. C check values (computed from NIST SP 811 t/°C = (t/°F − 32)/1.8)
-    { value: 32, from: "°F", to: "°C", expected: 0, digits: 12 },
-    { value: 60, from: "°F", to: "°C", expected: 15.5556, digits: 4 },
-    { value: 68, from: "°F", to: "°C", expected: 20, digits: 12 },
-    { value: 100, from: "°F", to: "°C", expected: 37.778, digits: 3 },
-    { value: 140, from: "°F", to: "°C", expected: 60, digits: 12 },
-    { value: 200, from: "°F", to: "°C", expected: 93.333, digits: 3 },
-    { value: 15, from: "°C", to: "°F", expected: 59, digits: 12 },
-    { value: 93, from: "°C", to: "°F", expected: 199.4, digits: 10 },
-    { value: 101, from: "°C", to: "°F", expected: 213.8, digits: 10 },
-    { value: 130, from: "°C", to: "°F", expected: 266, digits: 10 },
-    // NIST SP 811: T/K = t/°C + 273.15
-    { value: 0, from: "°C", to: "K", expected: 273.15, digits: 12 },
-    { value: 288.15, from: "K", to: "°C", expected: 15, digits: 10 },
-    { value: 0, from: "K", to: "°F", expected: -459.67, digits: 10 }, // −459.67 °F = 0 K (Rankine offset)
-  ];
-  it.each(cases)("$value $from → $expected $to (NIST SP 811 / NIST HB 44 App. C / NIST SP 811)", ({ value, from, to, expected, digits }) => {
-    expect(convertTemperature(value, from, to)).toBeCloseTo(expected, digits);
-  });
+  const cases: Array<{ value: number; from: TemperatureUnit; to: TemperatureUnit; expected: number; digits: number }> =
+    [
+      // NIST SP 811 / NIST HB 44 App. C check values (computed from NIST SP 811 t/°C = (t/°F − 32)/1.8)
+      { value: 32, from: "°F", to: "°C", expected: 0, digits: 12 },
+      { value: 60, from: "°F", to: "°C", expected: 15.5556, digits: 4 },
+      { value: 68, from: "°F", to: "°C", expected: 20, digits: 12 },
+      { value: 100, from: "°F", to: "°C", expected: 37.778, digits: 3 },
+      { value: 140, from: "°F", to: "°C", expected: 60, digits: 12 },
+      { value: 200, from: "°F", to: "°C", expected: 93.333, digits: 3 },
+      { value: 15, from: "°C", to: "°F", expected: 59, digits: 12 },
+      { value: 93, from: "°C", to: "°F", expected: 199.4, digits: 10 },
+      { value: 101, from: "°C", to: "°F", expected: 213.8, digits: 10 },
+      { value: 130, from: "°C", to: "°F", expected: 266, digits: 10 },
+      // NIST SP 811: T/K = t/°C + 273.15
+      { value: 0, from: "°C", to: "K", expected: 273.15, digits: 12 },
+      { value: 288.15, from: "K", to: "°C", expected: 15, digits: 10 },
+      { value: 0, from: "K", to: "°F", expected: -459.67, digits: 10 }, // −459.67 °F = 0 K (Rankine offset)
+    ];
+  it.each(cases)(
+    "$value $from → $expected $to (NIST SP 811 / NIST HB 44 App. C / NIST SP 811)",
+    ({ value, from, to, expected, digits }) => {
+      expect(convertTemperature(value, from, to)).toBeCloseTo(expected, digits);
+    },
+  );
 
   it("named helpers agree with the SP 811 formulas", () => {
     expect(fahrenheitToCelsius(-40)).toBeCloseTo(-40, 12); // −40 °F = −40 °C
@@ -259,14 +351,17 @@ describe("unit parsing", () => {
     expect(parseUnit(token)).toEqual({ ok: true, value: unit });
   });
 
-  it.each(["", "furlong", "imp gal", "UK gallon", "t", "kgf", "°X"])("parseUnit(%j) → UNIT.UNKNOWN naming the field", (token) => {
-    const r = parseUnit(token, "volumeUnit");
-    expect(r.ok).toBe(false);
-    if (!r.ok) {
-      expect(r.issues[0]?.code).toBe("UNIT.UNKNOWN");
-      expect(r.issues[0]?.field).toBe("volumeUnit");
-    }
-  });
+  it.each(["", "furlong", "imp gal", "UK gallon", "t", "kgf", "°X"])(
+    "parseUnit(%j) → UNIT.UNKNOWN naming the field",
+    (token) => {
+      const r = parseUnit(token, "volumeUnit");
+      expect(r.ok).toBe(false);
+      if (!r.ok) {
+        expect(r.issues[0]?.code).toBe("UNIT.UNKNOWN");
+        expect(r.issues[0]?.field).toBe("volumeUnit");
+      }
+    },
+  );
 
   it("explains why imperial gallons are refused", () => {
     const r = parseUnit("imp gal");
@@ -278,9 +373,15 @@ describe("unit parsing", () => {
     expect(parseMassUnit("lbs")).toEqual({ ok: true, value: "lb" });
     expect(parseTemperatureUnit("F")).toEqual({ ok: true, value: "°F" });
     const wrong = parseVolumeUnit("kg", "volumeUnit");
-    expect(wrong).toEqual({ ok: false, issues: [expect.objectContaining({ code: "UNIT.WRONG_KIND", field: "volumeUnit" })] });
+    expect(wrong).toEqual({
+      ok: false,
+      issues: [expect.objectContaining({ code: "UNIT.WRONG_KIND", field: "volumeUnit" })],
+    });
     const unknown = parseMassUnit("stone", "massUnit");
-    expect(unknown).toEqual({ ok: false, issues: [expect.objectContaining({ code: "UNIT.UNKNOWN", field: "massUnit" })] });
+    expect(unknown).toEqual({
+      ok: false,
+      issues: [expect.objectContaining({ code: "UNIT.UNKNOWN", field: "massUnit" })],
+    });
   });
 
   const headers: Array<[string, CanonicalUnit]> = [

@@ -83,7 +83,10 @@ describe("averaging titrations of different bases (acid value definition, AOCS C
 
   it("refuses no readings and names a bad reading", () => {
     expect(combineFfaReadings([]).ok).toBe(false);
-    const bad = combineFfaReadings([{ ffaPct: 1, basis: "OLEIC" }, { ffaPct: -1, basis: "OLEIC" }]);
+    const bad = combineFfaReadings([
+      { ffaPct: 1, basis: "OLEIC" },
+      { ffaPct: -1, basis: "OLEIC" },
+    ]);
     expect(bad.ok ? [] : bad.issues.map((i) => i.field)).toEqual(["replicates.1"]);
   });
 
@@ -114,7 +117,10 @@ describe("the recipe takes the lab's acid and saponification values", () => {
   const settings = { catalyst: "KOH" as const, purityPct: 100, baseDosePctOfOil: 0 };
 
   it("acid value 4.0 mg KOH/g neutralises 4.0 g KOH per kg oil (definition of the acid value, AOCS Cd 3d-63 / ISO 660)", () => {
-    const parsed = RecipeInputSchema.parse({ lots: [{ lotRef: "A", massKg: 1000, acidValueMgKohG: 4, waterPct: 0 }], settings: { ...settings, meanTgMolarMass: 885.453 } });
+    const parsed = RecipeInputSchema.parse({
+      lots: [{ lotRef: "A", massKg: 1000, acidValueMgKohG: 4, waterPct: 0 }],
+      settings: { ...settings, meanTgMolarMass: 885.453 },
+    });
     // FFA as oleic = 4.0 × 282.468 / 561.053 = 2.01384 %
     expect(parsed.lots[0]?.ffaPct).toBeCloseTo(2.01384, 5);
     const plan = requirePlan(parsed);
@@ -131,21 +137,41 @@ describe("the recipe takes the lab's acid and saponification values", () => {
     });
     const plan = requirePlan(parsed);
     expect(plan.oil.meanTgMolarMass).toBeCloseTo(895.213, 2);
-    expect(plan.oil.molarMassFromSv).toEqual({ saponificationValueMgKohG: 192, acidValueMgKohG: expect.closeTo(4, 6) as unknown as number });
+    expect(plan.oil.molarMassFromSv).toEqual({
+      saponificationValueMgKohG: 192,
+      acidValueMgKohG: expect.closeTo(4, 6) as unknown as number,
+    });
     expect(plan.warnings.map((w) => w.code)).not.toContain("RECIPE.DEFAULT_MOLAR_MASS_USED");
   });
 
   it.each([
-    [{ lotRef: "A", massKg: 1, waterPct: 0 }, "lots.0.ffaPct", "Give either FFA (%) or the acid value (mg KOH/g) for the lot, not both"],
-    [{ lotRef: "A", massKg: 1, ffaPct: 1, acidValueMgKohG: 2, waterPct: 0 }, "lots.0.ffaPct", "Give either FFA (%) or the acid value (mg KOH/g) for the lot, not both"],
-    [{ lotRef: "A", massKg: 1, acidValueMgKohG: 301, waterPct: 0 }, "lots.0.acidValueMgKohG", "Acid value must be at most 300 mg KOH/g"],
+    [
+      { lotRef: "A", massKg: 1, waterPct: 0 },
+      "lots.0.ffaPct",
+      "Give either FFA (%) or the acid value (mg KOH/g) for the lot, not both",
+    ],
+    [
+      { lotRef: "A", massKg: 1, ffaPct: 1, acidValueMgKohG: 2, waterPct: 0 },
+      "lots.0.ffaPct",
+      "Give either FFA (%) or the acid value (mg KOH/g) for the lot, not both",
+    ],
+    [
+      { lotRef: "A", massKg: 1, acidValueMgKohG: 301, waterPct: 0 },
+      "lots.0.acidValueMgKohG",
+      "Acid value must be at most 300 mg KOH/g",
+    ],
   ])("refuses a lot without exactly one FFA figure (%j)", (lot, path, message) => {
     const r = RecipeInputSchema.safeParse({ lots: [lot], settings });
     expect(r.success ? [] : r.error.issues.map((i) => [i.path.join("."), i.message])).toContainEqual([path, message]);
   });
 
   it("refuses both a molar mass and a saponification value", () => {
-    const r = RecipeInputSchema.safeParse({ lots: [{ lotRef: "A", massKg: 1, ffaPct: 1, waterPct: 0 }], settings: { ...settings, meanTgMolarMass: 880, saponificationValueMgKohG: 190 } });
-    expect(r.success ? [] : r.error.issues.map((i) => i.path.join("."))).toEqual(["settings.saponificationValueMgKohG"]);
+    const r = RecipeInputSchema.safeParse({
+      lots: [{ lotRef: "A", massKg: 1, ffaPct: 1, waterPct: 0 }],
+      settings: { ...settings, meanTgMolarMass: 880, saponificationValueMgKohG: 190 },
+    });
+    expect(r.success ? [] : r.error.issues.map((i) => i.path.join("."))).toEqual([
+      "settings.saponificationValueMgKohG",
+    ]);
   });
 });

@@ -28,12 +28,32 @@ describe("RecipeInputSchema", () => {
     [{ ...valid, lots: [{ ...valid.lots[0], ffaPct: MAX_FFA_PCT + 1 }] }, "lots.0.ffaPct", "FFA must be at most 100 %"],
     [{ ...valid, lots: [{ ...valid.lots[0], ffaPct: -0.1 }] }, "lots.0.ffaPct", "FFA must be at least 0 %"],
     [{ ...valid, lots: [{ ...valid.lots[0], massKg: 0 }] }, "lots.0.massKg", "Mass must be above 0 kg"],
-    [{ ...valid, lots: [{ ...valid.lots[0], ffaPct: 60, waterPct: 40 }] }, "lots.0.ffaPct", "FFA + water + ester must be below 100 %"],
-    [{ ...valid, settings: { ...valid.settings, purityPct: MAX_PURITY_PCT + 0.5 } }, "settings.purityPct", "Catalyst purity must be at most 100 %"],
-    [{ ...valid, settings: { ...valid.settings, reactionTempC: MAX_REACTION_TEMP_C + 1 } }, "settings.reactionTempC", "at most 150 °C"],
-    [{ ...valid, settings: { ...valid.settings, reactionTempC: MIN_REACTION_TEMP_C - 1 } }, "settings.reactionTempC", "at least -20 °C"],
+    [
+      { ...valid, lots: [{ ...valid.lots[0], ffaPct: 60, waterPct: 40 }] },
+      "lots.0.ffaPct",
+      "FFA + water + ester must be below 100 %",
+    ],
+    [
+      { ...valid, settings: { ...valid.settings, purityPct: MAX_PURITY_PCT + 0.5 } },
+      "settings.purityPct",
+      "Catalyst purity must be at most 100 %",
+    ],
+    [
+      { ...valid, settings: { ...valid.settings, reactionTempC: MAX_REACTION_TEMP_C + 1 } },
+      "settings.reactionTempC",
+      "at most 150 °C",
+    ],
+    [
+      { ...valid, settings: { ...valid.settings, reactionTempC: MIN_REACTION_TEMP_C - 1 } },
+      "settings.reactionTempC",
+      "at least -20 °C",
+    ],
     [{ ...valid, settings: { ...valid.settings, molarRatio: 2.5 } }, "settings.molarRatio", "at least 3:1"],
-    [{ ...valid, settings: { ...valid.settings, solutionStrengthPct: 30 } }, "settings.solutionStrengthPct", "methoxide solutions"],
+    [
+      { ...valid, settings: { ...valid.settings, solutionStrengthPct: 30 } },
+      "settings.solutionStrengthPct",
+      "methoxide solutions",
+    ],
     [{ ...valid, settings: { catalyst: "NAOME_SOLUTION", purityPct: 30 } }, "settings.purityPct", "solid catalysts"],
     [{ ...valid, settings: { catalyst: "CAO" } }, "settings.catalyst", "Catalyst must be one of"],
     [{ ...valid, lots: [valid.lots[0], valid.lots[0]] }, "lots.1.lotRef", "listed twice"],
@@ -52,7 +72,12 @@ describe("PretreatmentInputSchema and BatchActualsSchema", () => {
     expect(r.error.issues[0]?.path.join(".")).toBe("acidStep.acidPurityPct");
   });
   it("rejects negative actuals with a kg message", () => {
-    const r = BatchActualsSchema.safeParse({ esterKg: -1, glycerolPhaseKg: 0, catalystProductUsedKg: 0, methanolAddedKg: 0 });
+    const r = BatchActualsSchema.safeParse({
+      esterKg: -1,
+      glycerolPhaseKg: 0,
+      catalystProductUsedKg: 0,
+      methanolAddedKg: 0,
+    });
     expect(r.success).toBe(false);
     if (r.success) return;
     expect(r.error.issues[0]?.message).toBe("Ester produced must be 0 kg or more");

@@ -8,7 +8,14 @@ import { CATALYST_TYPES } from "@/lib/recipe/catalyst";
 import type { RecipeInput, RecipeSettings } from "@/lib/recipe/recipe.schema";
 
 // Molar masses below are IUPAC 2021 atomic weights, computed (IUPAC 2021 column), typed in by hand.
-const M = { triolein: 885.453, oleic: 282.468, methanol: 32.042, naome: 54.024, glycerol: 92.094, methylOleate: 296.495 };
+const M = {
+  triolein: 885.453,
+  oleic: 282.468,
+  methanol: 32.042,
+  naome: 54.024,
+  glycerol: 92.094,
+  methylOleate: 296.495,
+};
 
 function requirePlan(input: RecipeInput, limits = {}): RecipePlan {
   const r = planRecipe(input, limits);
@@ -50,7 +57,12 @@ describe("worked batch, 1000 kg UCO at AV 4.0 (stoichiometry, computed)", () => 
   it("NaOMe route 3.85 kg NaOMe = 12.84 kg of 30 % solution", () => {
     const plan = requirePlan({
       lots: [ucoLot],
-      settings: { catalyst: "NAOME_SOLUTION", solutionStrengthPct: 30, baseDosePctOfOil: 0, meanTgMolarMass: M.triolein },
+      settings: {
+        catalyst: "NAOME_SOLUTION",
+        solutionStrengthPct: 30,
+        baseDosePctOfOil: 0,
+        meanTgMolarMass: M.triolein,
+      },
     });
     // stoichiometry, computed
     expect(Math.abs(plan.catalyst.pureKg - 3.85)).toBeLessThan(0.005);
@@ -86,7 +98,12 @@ describe("methoxide solution brings methanol toward the charge", () => {
   // 1000 kg oil, 1 % FFA, NaOMe 30 %, base 0.5 % NaOMe, 6:1 on the triglyceride (990 kg)
   const plan = requirePlan({
     lots: [{ lotRef: "A", massKg: 1000, ffaPct: 1, waterPct: 0 }],
-    settings: { catalyst: "NAOME_SOLUTION", solutionStrengthPct: 30, baseDosePctOfOil: 0.5, meanTgMolarMass: M.triolein },
+    settings: {
+      catalyst: "NAOME_SOLUTION",
+      solutionStrengthPct: 30,
+      baseDosePctOfOil: 0.5,
+      meanTgMolarMass: M.triolein,
+    },
   });
   const molTg = 990_000 / M.triolein;
   const chargeKg = (6 * molTg * M.methanol) / 1000;
@@ -112,7 +129,12 @@ describe("methoxide solution brings methanol toward the charge", () => {
   it("warns when the solution brings more methanol than the charge", () => {
     const heavy = requirePlan({
       lots: [{ lotRef: "A", massKg: 100, ffaPct: 0, waterPct: 0 }],
-      settings: { catalyst: "NAOME_SOLUTION", solutionStrengthPct: 10, baseDosePctOfOil: 5, meanTgMolarMass: M.triolein },
+      settings: {
+        catalyst: "NAOME_SOLUTION",
+        solutionStrengthPct: 10,
+        baseDosePctOfOil: 5,
+        meanTgMolarMass: M.triolein,
+      },
     });
     expect(heavy.methanol.toAddKg).toBe(0);
     expect(codes(heavy)).toContain("RECIPE.CATALYST_SOLUTION_EXCEEDS_METHANOL_CHARGE");
@@ -177,7 +199,9 @@ describe("warnings", () => {
     const plan = requirePlan({ lots: oneLot(0.1, 0.01), settings: { catalyst: "KOH" } });
     expect(plan.catalyst.assayPct).toBe(90);
     expect(plan.warnings.find((w) => w.code === "RECIPE.DEFAULT_PURITY_USED")?.field).toBe("settings.purityPct");
-    expect(plan.warnings.find((w) => w.code === "RECIPE.DEFAULT_MOLAR_MASS_USED")?.field).toBe("settings.meanTgMolarMass");
+    expect(plan.warnings.find((w) => w.code === "RECIPE.DEFAULT_MOLAR_MASS_USED")?.field).toBe(
+      "settings.meanTgMolarMass",
+    );
     const given = requirePlan({ lots: oneLot(0.1, 0.01), settings: baseSettings });
     expect(codes(given)).not.toContain("RECIPE.DEFAULT_PURITY_USED");
     expect(codes(given)).not.toContain("RECIPE.DEFAULT_MOLAR_MASS_USED");
@@ -234,8 +258,15 @@ function toSettings(s: {
   molarRatio: number;
   meanTgMolarMass: number;
 }): RecipeSettings {
-  const assay = s.catalyst === "NAOH" || s.catalyst === "KOH" ? { purityPct: s.assay } : { solutionStrengthPct: s.assay };
-  return { catalyst: s.catalyst, baseDosePctOfOil: s.baseDosePctOfOil, molarRatio: s.molarRatio, meanTgMolarMass: s.meanTgMolarMass, ...assay };
+  const assay =
+    s.catalyst === "NAOH" || s.catalyst === "KOH" ? { purityPct: s.assay } : { solutionStrengthPct: s.assay };
+  return {
+    catalyst: s.catalyst,
+    baseDosePctOfOil: s.baseDosePctOfOil,
+    molarRatio: s.molarRatio,
+    meanTgMolarMass: s.meanTgMolarMass,
+    ...assay,
+  };
 }
 
 describe("properties", () => {
@@ -249,7 +280,9 @@ describe("properties", () => {
         const outputKg = Object.values(plan.products).reduce((sum, v) => sum + v, 0);
         expect(Math.abs(inputKg - outputKg)).toBeLessThanOrEqual(1e-9 * inputKg);
         const mb = plan.massBalance;
-        expect(Object.values(mb.outputsG).reduce((sum, v) => sum + v, 0)).toBe(mb.inputsG.oil + mb.inputsG.methanol + mb.inputsG.catalyst);
+        expect(Object.values(mb.outputsG).reduce((sum, v) => sum + v, 0)).toBe(
+          mb.inputsG.oil + mb.inputsG.methanol + mb.inputsG.catalyst,
+        );
         for (const v of Object.values(plan.products)) expect(v).toBeGreaterThanOrEqual(-1e-9);
       }),
       { numRuns: 300 },
@@ -269,7 +302,9 @@ describe("properties", () => {
           const settings = toSettings(s);
           const low = requirePlan({ lots: [{ lotRef: "L", massKg, ffaPct: lo, waterPct }], settings });
           const high = requirePlan({ lots: [{ lotRef: "L", massKg, ffaPct: hi, waterPct }], settings });
-          expect(high.catalyst.productKg).toBeGreaterThanOrEqual(low.catalyst.productKg - 1e-12 * low.catalyst.productKg);
+          expect(high.catalyst.productKg).toBeGreaterThanOrEqual(
+            low.catalyst.productKg - 1e-12 * low.catalyst.productKg,
+          );
           expect(high.catalyst.neutralisationKg).toBeGreaterThanOrEqual(low.catalyst.neutralisationKg);
         },
       ),

@@ -22,7 +22,12 @@ function requireYield(actuals: BatchActuals): BatchYield {
 }
 
 // Planned: NaOH 0.5 % of 1000 kg = 5 kg; methanol 6:1 = 217.12 kg (triolein model, IUPAC 2021 atomic weights, computed scaled ×1000).
-const onPlan: BatchActuals = { esterKg: 954.3225, glycerolPhaseKg: 180, catalystProductUsedKg: 5, methanolAddedKg: 217.12 };
+const onPlan: BatchActuals = {
+  esterKg: 954.3225,
+  glycerolPhaseKg: 180,
+  catalystProductUsedKg: 5,
+  methanolAddedKg: 217.12,
+};
 
 describe("computeBatchYield", () => {
   it("ester yield vs theory and per kg oil", () => {
@@ -49,7 +54,13 @@ describe("computeBatchYield", () => {
   });
 
   it("scales theory and plan to the oil actually charged", () => {
-    const y = requireYield({ ...onPlan, oilChargedKg: 900, esterKg: 900, catalystProductUsedKg: 4.5, methanolAddedKg: 195.408 });
+    const y = requireYield({
+      ...onPlan,
+      oilChargedKg: 900,
+      esterKg: 900,
+      catalystProductUsedKg: 4.5,
+      methanolAddedKg: 195.408,
+    });
     expect(y.theoreticalEsterKg).toBeCloseTo(0.9 * 1004.55, 2);
     expect(y.esterYieldVsTheory).toBeCloseTo(900 / (0.9 * 1004.55), 4);
     expect(y.catalyst.ratio).toBeCloseTo(1, 9);

@@ -3,19 +3,55 @@ import { describe, expect, it } from "vitest";
 import { plausibleLitresPerMonth, WEEKS_PER_MONTH } from "@/lib/screening/capacity";
 import { haversineMetres } from "@/lib/screening/geo";
 import { flagDensityRange, flagFreshOil, flagLabExcess } from "@/lib/screening/lot-signals";
-import { distanceBandOf, flagIntervalShift, flagLevelShift, flagOffHours, flagPhoneFar, withinHours } from "@/lib/screening/pattern-signals";
+import {
+  distanceBandOf,
+  flagIntervalShift,
+  flagLevelShift,
+  flagOffHours,
+  flagPhoneFar,
+  withinHours,
+} from "@/lib/screening/pattern-signals";
 import { mad, MAD_CONSISTENCY, median, robustScore } from "@/lib/screening/robust";
 import type { LotFact, MonthVolume, PickupFact } from "@/lib/screening/screening";
-import { flagCertifiedOverCapacity, flagOverCapacity, flagOwnHistory, flagPeerGroup } from "@/lib/screening/volume-signals";
+import {
+  flagCertifiedOverCapacity,
+  flagOverCapacity,
+  flagOwnHistory,
+  flagPeerGroup,
+} from "@/lib/screening/volume-signals";
 
-const month = (key: string, litres: number): MonthVolume => ({ month: key, label: key, litres, pickupCodes: [`P-${key}`], lotCodes: [] });
-const months = (litres: number[]): MonthVolume[] => litres.map((l, i) => month(`2026-${String(i + 1).padStart(2, "0")}`, l));
+const month = (key: string, litres: number): MonthVolume => ({
+  month: key,
+  label: key,
+  litres,
+  pickupCodes: [`P-${key}`],
+  lotCodes: [],
+});
+const months = (litres: number[]): MonthVolume[] =>
+  litres.map((l, i) => month(`2026-${String(i + 1).padStart(2, "0")}`, l));
 const DAY = 86_400_000;
 const pickup = (i: number, litres: number, extra: Partial<PickupFact> = {}): PickupFact => ({
-  code: `P-${i}`, at: Date.UTC(2026, 0, 1) + i * 7 * DAY, month: "2026-01", monthLabel: "January 2026", localHour: 14, litres, lotCode: null, distanceBand: null, certified: false, ...extra,
+  code: `P-${i}`,
+  at: Date.UTC(2026, 0, 1) + i * 7 * DAY,
+  month: "2026-01",
+  monthLabel: "January 2026",
+  localHour: 14,
+  litres,
+  lotCode: null,
+  distanceBand: null,
+  certified: false,
+  ...extra,
 });
 const lot = (code: string, extra: Partial<LotFact> = {}): LotFact => ({
-  code, at: 0, material: "USED_COOKING_OIL", acidValue: null, waterPct: null, insolublesPct: null, densityKgM3: 915, densityMeasured: false, ...extra,
+  code,
+  at: 0,
+  material: "USED_COOKING_OIL",
+  acidValue: null,
+  waterPct: null,
+  insolublesPct: null,
+  densityKgM3: 915,
+  densityMeasured: false,
+  ...extra,
 });
 
 describe("robust statistics", () => {
@@ -43,13 +79,33 @@ describe("capacity", () => {
   it("fryers × litres × changes a week × weeks a month", () => {
     // 3 × 20 L × 2 a week = 120 L/week; × 365.2425 / 84 = 4.348125 weeks → 521.775 L/month (Gregorian mean month)
     expect(WEEKS_PER_MONTH).toBeCloseTo(4.348125, 6);
-    expect(plausibleLitresPerMonth({ basis: "FRYERS", fryers: 3, fryerLitres: 20, changesPerWeek: 2, declaredLitresPerMonth: null })).toBeCloseTo(521.775, 3);
-    expect(plausibleLitresPerMonth({ basis: "MONTHLY", fryers: null, fryerLitres: null, changesPerWeek: null, declaredLitresPerMonth: 600 })).toBe(600);
+    expect(
+      plausibleLitresPerMonth({
+        basis: "FRYERS",
+        fryers: 3,
+        fryerLitres: 20,
+        changesPerWeek: 2,
+        declaredLitresPerMonth: null,
+      }),
+    ).toBeCloseTo(521.775, 3);
+    expect(
+      plausibleLitresPerMonth({
+        basis: "MONTHLY",
+        fryers: null,
+        fryerLitres: null,
+        changesPerWeek: null,
+        declaredLitresPerMonth: 600,
+      }),
+    ).toBe(600);
     expect(plausibleLitresPerMonth(null)).toBeNull();
   });
   it("flags a month above the ratio with its numbers in one sentence", () => {
     // 1 840 / 600 = 3.067 → "3.1×" (above 1.5×); 800 / 600 = 1.33 stays below
-    const flags = flagOverCapacity([{ ...month("2026-11", 1840), label: "November 2026" }, month("2026-10", 800)], { basis: "MONTHLY", fryers: null, fryerLitres: null, changesPerWeek: null, declaredLitresPerMonth: 600 }, 1.5);
+    const flags = flagOverCapacity(
+      [{ ...month("2026-11", 1840), label: "November 2026" }, month("2026-10", 800)],
+      { basis: "MONTHLY", fryers: null, fryerLitres: null, changesPerWeek: null, declaredLitresPerMonth: 600 },
+      1.5,
+    );
     expect(flags).toHaveLength(1);
     expect(flags[0]?.message).toContain("1,840 L in November 2026 against a declared 600 L/month: 3.1×");
     expect(flags[0]?.measured).toBeCloseTo(3.0667, 4);
@@ -71,13 +127,25 @@ describe("own history", () => {
   });
   it("scaling all of a source's history by one factor does not change its own-history flags (property)", () => {
     fc.assert(
-      fc.property(fc.array(fc.integer({ min: 50, max: 5000 }), { minLength: 7, maxLength: 30 }), fc.constantFrom(0.001, 0.5, 3.785411784, 10, 1000), (litres, k) => {
-        const a = flagOwnHistory(months(litres), 3.5, 0.1, 6).map((f) => f.subjectKey);
-        const b = flagOwnHistory(months(litres.map((l) => l * k)), 3.5, 0.1, 6).map((f) => f.subjectKey);
-        const pa = flagLevelShift(litres.map((l, i) => pickup(i, l)), 4, 2).map((f) => f.subjectKey);
-        const pb = flagLevelShift(litres.map((l, i) => pickup(i, l * k)), 4, 2).map((f) => f.subjectKey);
-        return a.join() === b.join() && pa.join() === pb.join();
-      }),
+      fc.property(
+        fc.array(fc.integer({ min: 50, max: 5000 }), { minLength: 7, maxLength: 30 }),
+        fc.constantFrom(0.001, 0.5, 3.785411784, 10, 1000),
+        (litres, k) => {
+          const a = flagOwnHistory(months(litres), 3.5, 0.1, 6).map((f) => f.subjectKey);
+          const b = flagOwnHistory(months(litres.map((l) => l * k)), 3.5, 0.1, 6).map((f) => f.subjectKey);
+          const pa = flagLevelShift(
+            litres.map((l, i) => pickup(i, l)),
+            4,
+            2,
+          ).map((f) => f.subjectKey);
+          const pb = flagLevelShift(
+            litres.map((l, i) => pickup(i, l * k)),
+            4,
+            2,
+          ).map((f) => f.subjectKey);
+          return a.join() === b.join() && pa.join() === pb.join();
+        },
+      ),
       { numRuns: 300 },
     );
   });
@@ -92,13 +160,22 @@ describe("peer group", () => {
     expect(flags[0]?.measured).toBeCloseTo(12.0, 1);
     expect(flags[0]?.message).toContain("5.5× theirs");
     expect(flagPeerGroup([month("2026-11", 620)], peers, "Restaurant", 3.5, 5)).toEqual([]);
-    expect(flagPeerGroup([month("2026-11", 3000)], new Map([["2026-11", [500, 600]]]), "Restaurant", 3.5, 5)).toEqual([]);
+    expect(flagPeerGroup([month("2026-11", 3000)], new Map([["2026-11", [500, 600]]]), "Restaurant", 3.5, 5)).toEqual(
+      [],
+    );
   });
 });
 
 describe("quality", () => {
   it("a used-oil lot at or below the fresh refined oil acid value (Codex CXS 210-1999: ≤ 0.6 mg KOH/g)", () => {
-    const flags = flagFreshOil([lot("L-1", { acidValue: 0.45 }), lot("L-2", { acidValue: 0.61 }), lot("L-3", { acidValue: 0.3, material: "SOYBEAN" })], 0.6);
+    const flags = flagFreshOil(
+      [
+        lot("L-1", { acidValue: 0.45 }),
+        lot("L-2", { acidValue: 0.61 }),
+        lot("L-3", { acidValue: 0.3, material: "SOYBEAN" }),
+      ],
+      0.6,
+    );
     expect(flags.map((f) => f.subjectKey)).toEqual(["L-1"]);
     expect(flags[0]?.message).toContain("acid value is 0.45 mg KOH/g, at or below the 0.60 mg KOH/g");
   });
@@ -109,13 +186,23 @@ describe("quality", () => {
     const flags = flagLabExcess(water, "waterPct", { z: 3.5, floorShare: 0.1, minHistory: 6, minExcess: 1 });
     expect(flags.map((f) => f.subjectKey)).toEqual(["L-6"]);
     expect(flags[0]?.measured).toBeCloseTo(3.6, 3);
-    expect(flags[0]?.message).toContain("4.00 % water against this source's usual 0.40 % (median of its 7 lots): 3.60 points and 48.6 spreads above");
+    expect(flags[0]?.message).toContain(
+      "4.00 % water against this source's usual 0.40 % (median of its 7 lots): 3.60 points and 48.6 spreads above",
+    );
     // 0.9 % is many spreads above but only 0.50 points above the median 0.40: not flagged
     const small = [0.3, 0.4, 0.35, 0.3, 0.45, 0.4, 0.9].map((w, i) => lot(`L-${i}`, { waterPct: w }));
     expect(flagLabExcess(small, "waterPct", { z: 3.5, floorShare: 0.1, minHistory: 6, minExcess: 1 })).toEqual([]);
   });
   it("measured density outside the vegetable oil range; table densities are not judged", () => {
-    const flags = flagDensityRange([lot("L-1", { densityKgM3: 962, densityMeasured: true }), lot("L-2", { densityKgM3: 962 }), lot("L-3", { densityKgM3: 918, densityMeasured: true })], 895, 935);
+    const flags = flagDensityRange(
+      [
+        lot("L-1", { densityKgM3: 962, densityMeasured: true }),
+        lot("L-2", { densityKgM3: 962 }),
+        lot("L-3", { densityKgM3: 918, densityMeasured: true }),
+      ],
+      895,
+      935,
+    );
     expect(flags.map((f) => f.subjectKey)).toEqual(["L-1"]);
   });
 });
@@ -127,18 +214,43 @@ describe("pattern breaks", () => {
     const flags = flagLevelShift(p, 2, 2);
     expect(flags[0]?.subjectKey).toBe("P-6");
     expect(flags[0]?.measured).toBeCloseTo(3.05, 3);
-    expect(flagLevelShift([100, 110, 90, 105, 95, 100, 120, 90].map((l, i) => pickup(i, l)), 2, 2)).toEqual([]);
+    expect(
+      flagLevelShift(
+        [100, 110, 90, 105, 95, 100, 120, 90].map((l, i) => pickup(i, l)),
+        2,
+        2,
+      ),
+    ).toEqual([]);
   });
   it("a sudden change of interval", () => {
     // weekly for 7 pickups (6 gaps of 7 d), then every 2 days: 2 / 7 = 0.29 < 1/2
     const at = [0, 7, 14, 21, 28, 35, 42, 44, 46].map((d) => Date.UTC(2026, 0, 1) + d * DAY);
-    const flags = flagIntervalShift(at.map((t, i) => pickup(i, 100, { at: t })), 2, 2, 3);
+    const flags = flagIntervalShift(
+      at.map((t, i) => pickup(i, 100, { at: t })),
+      2,
+      2,
+      3,
+    );
     expect(flags[0]?.subjectKey).toBe("P-7");
     expect(flags[0]?.measured).toBeCloseTo(2 / 7, 4);
     // a daily route whose gaps go from 1 to 2.5 days: 2.5× but only 1.5 days apart — normal weekend slips (our own choice)
     const daily = [0, 1, 2, 3, 4, 5, 6, 8.5, 11, 13.5].map((d) => Date.UTC(2026, 0, 1) + d * DAY);
-    expect(flagIntervalShift(daily.map((t, i) => pickup(i, 100, { at: t })), 2, 2, 3)).toEqual([]);
-    expect(flagIntervalShift(daily.map((t, i) => pickup(i, 100, { at: t })), 2, 2, 1)).toHaveLength(1);
+    expect(
+      flagIntervalShift(
+        daily.map((t, i) => pickup(i, 100, { at: t })),
+        2,
+        2,
+        3,
+      ),
+    ).toEqual([]);
+    expect(
+      flagIntervalShift(
+        daily.map((t, i) => pickup(i, 100, { at: t })),
+        2,
+        2,
+        1,
+      ),
+    ).toHaveLength(1);
   });
   it("opening hours with a margin, including hours past midnight", () => {
     expect(withinHours(9.5, 10, 23, 1)).toBe(true);
@@ -147,12 +259,18 @@ describe("pattern breaks", () => {
     expect(withinHours(1, 18, 2, 0)).toBe(true);
     expect(withinHours(10, 18, 2, 0)).toBe(false);
     const flags = flagOffHours([pickup(1, 100, { localHour: 3.25 }), pickup(2, 100, { localHour: 14 })], 10, 23, 1);
-    expect(flags.map((f) => f.message)).toEqual(["Pickup P-1 was logged at 03:15, outside the declared opening hours 10:00–23:00 (with 1.0 h either side)."]);
+    expect(flags.map((f) => f.message)).toEqual([
+      "Pickup P-1 was logged at 03:15, outside the declared opening hours 10:00–23:00 (with 1.0 h either side).",
+    ]);
     expect(flagOffHours([pickup(1, 100, { localHour: 3 })], null, null, 1)).toEqual([]);
   });
   it("phone distance bands", () => {
     expect([250, 251, 1000, 1001, 10_001].map(distanceBandOf)).toEqual(["NEAR", "KM_1", "KM_1", "KM_10", "FAR"]);
-    const flags = flagPhoneFar([pickup(1, 100, { distanceBand: "KM_1" }), pickup(2, 100, { distanceBand: "FAR" }), pickup(3, 100)]);
+    const flags = flagPhoneFar([
+      pickup(1, 100, { distanceBand: "KM_1" }),
+      pickup(2, 100, { distanceBand: "FAR" }),
+      pickup(3, 100),
+    ]);
     expect(flags.map((f) => f.subjectKey)).toEqual(["P-2"]);
   });
   it("haversine distance on the IUGG mean Earth radius", () => {
@@ -168,11 +286,31 @@ describe("custody", () => {
     // certificate to 2026-12-01, 12 months → from 2025-12-01: 365 d / 30.436875 d = 11.9921 months
     // plausible 600 × 11.9921 = 7 195.3 L; certified 12 × 1 000 = 12 000 L → 1.668× > 1.5
     const expires = Date.UTC(2026, 11, 1);
-    const p = Array.from({ length: 12 }, (_, i) => ({ code: `P-${i}`, at: Date.UTC(2025, 11, 15 + i * 28), litres: 1000, certified: true, lotCode: "L-1" }));
-    const cap = { basis: "MONTHLY" as const, fryers: null, fryerLitres: null, changesPerWeek: null, declaredLitresPerMonth: 600 };
+    const p = Array.from({ length: 12 }, (_, i) => ({
+      code: `P-${i}`,
+      at: Date.UTC(2025, 11, 15 + i * 28),
+      litres: 1000,
+      certified: true,
+      lotCode: "L-1",
+    }));
+    const cap = {
+      basis: "MONTHLY" as const,
+      fryers: null,
+      fryerLitres: null,
+      changesPerWeek: null,
+      declaredLitresPerMonth: 600,
+    };
     const flags = flagCertifiedOverCapacity(p, cap, { no: "C-1", expires, months: 12 }, Date.UTC(2026, 11, 15), 1.5);
     expect(flags[0]?.measured).toBeCloseTo(12000 / (600 * (365 / 30.436875)), 3);
     expect(flags[0]?.lotCodes).toEqual(["L-1"]);
-    expect(flagCertifiedOverCapacity(p.map((x) => ({ ...x, certified: false })), cap, { no: "C-1", expires, months: 12 }, Date.UTC(2026, 11, 15), 1.5)).toEqual([]);
+    expect(
+      flagCertifiedOverCapacity(
+        p.map((x) => ({ ...x, certified: false })),
+        cap,
+        { no: "C-1", expires, months: 12 },
+        Date.UTC(2026, 11, 15),
+        1.5,
+      ),
+    ).toEqual([]);
   });
 });

@@ -4,7 +4,13 @@ import type { LinearDensityEntry } from "@/lib/quantity/density";
 
 // A round-number density model for hand arithmetic: 880 kg/m³ at 15 °C, −0.7 kg/m³ per K
 // (the linear model of lib/quantity/density.ts; the numbers are chosen for the test, not a published value).
-const fuel: LinearDensityEntry = { model: "linear", densityAt15KgM3: 880, slopeKgM3PerK: -0.7, status: "common practice", source: "test" };
+const fuel: LinearDensityEntry = {
+  model: "linear",
+  densityAt15KgM3: 880,
+  slopeKgM3PerK: -0.7,
+  status: "common practice",
+  source: "test",
+};
 
 describe("lineQuantity", () => {
   it("takes a mass as given and finds its volume at 15 °C", () => {
@@ -14,7 +20,10 @@ describe("lineQuantity", () => {
   });
 
   it("records a stated volume with a mass as stated", () => {
-    expect(lineQuantity({ massKg: 100, volumeL: 113.6 }, fuel)).toEqual({ ok: true, value: { massG: 100_000, volumeMl: 113_600, tempC: null, basis: "MASS" } });
+    expect(lineQuantity({ massKg: 100, volumeL: 113.6 }, fuel)).toEqual({
+      ok: true,
+      value: { massG: 100_000, volumeMl: 113_600, tempC: null, basis: "MASS" },
+    });
   });
 
   it("turns litres at a temperature into a mass and litres at 15 °C", () => {
@@ -31,7 +40,12 @@ describe("lineQuantity", () => {
 
 describe("shipmentTotals", () => {
   it("adds the lines' grams and millilitres exactly", () => {
-    expect(shipmentTotals([{ massG: 873_000, volumeMl: 992_045 }, { massG: 1, volumeMl: 2 }])).toEqual({ massG: 873_001, volumeMl: 992_047 });
+    expect(
+      shipmentTotals([
+        { massG: 873_000, volumeMl: 992_045 },
+        { massG: 1, volumeMl: 2 },
+      ]),
+    ).toEqual({ massG: 873_001, volumeMl: 992_047 });
     expect(shipmentTotals([])).toEqual({ massG: 0, volumeMl: 0 });
   });
 });

@@ -36,7 +36,15 @@ function replace(rs: ResultIn[], property: string, value: number | null): Result
 
 describe("built-in editions", () => {
   it("lists all six ASTM D6751-23a grades and EN 14214:2012+A2:2019", () => {
-    expect(listBuiltInSpecs().map((s) => s.grade)).toEqual(["No. 1-B S15", "No. 1-B S15 LM", "No. 1-B S500", "No. 2-B S15", "No. 2-B S15 LM", "No. 2-B S500", "FAME for diesel engines"]);
+    expect(listBuiltInSpecs().map((s) => s.grade)).toEqual([
+      "No. 1-B S15",
+      "No. 1-B S15 LM",
+      "No. 1-B S500",
+      "No. 2-B S15",
+      "No. 2-B S15 LM",
+      "No. 2-B S500",
+      "FAME for diesel engines",
+    ]);
     expect(getBuiltInSpec("nope")).toBeNull();
   });
   it("carries the published limits per grade", () => {
@@ -50,7 +58,8 @@ describe("built-in editions", () => {
     expect(prop(EN, "water").max).toBe(500); // EN 14214:2012+A2:2019: 500 mg/kg max
   });
   it("names a source with its edition on every property", () => {
-    for (const s of listBuiltInSpecs()) for (const p of s.properties) expect(p.source).toMatch(/D6751-23a|14214:2012\+A2:2019/);
+    for (const s of listBuiltInSpecs())
+      for (const p of s.properties) expect(p.source).toMatch(/D6751-23a|14214:2012\+A2:2019/);
   });
   it("anchors sources per edition and property", () => {
     expect(sourceAnchor("astm-d6751-23a/no-2-b-s15", "acid-number")).toBe("astm-d6751-23a-acid-number");
@@ -157,7 +166,13 @@ describe("judgeLot", () => {
       expect(j.releasable).toBe(true);
     });
     it("a re-test linked by supersedes counts even when dated earlier", () => {
-      const retest: ResultIn = { id: 502, property: "acid-number", value: 0.45, testedAt: new Date(T0 - 3600_000), supersedes: 501 };
+      const retest: ResultIn = {
+        id: 502,
+        property: "acid-number",
+        value: 0.45,
+        testedAt: new Date(T0 - 3600_000),
+        supersedes: 501,
+      };
       expect(judgeLot(D2, [...base, first, retest]).releasable).toBe(true);
     });
     it("without links, the latest test counts", () => {

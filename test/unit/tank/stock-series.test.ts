@@ -34,7 +34,11 @@ function tankMoves(moves: readonly BalanceMove[], tank: number): TankMove[] {
 }
 
 describe("tank stock series", () => {
-  const series = computeTankStockSeries(tankMoves(ledger, TANK), [{ at: utc("2026-01-07T12:00:00Z"), massG: 449_000 }], 2_000_000);
+  const series = computeTankStockSeries(
+    tankMoves(ledger, TANK),
+    [{ at: utc("2026-01-07T12:00:00Z"), massG: 449_000 }],
+    2_000_000,
+  );
 
   it("sums equal the movements: in, out and closing match the ledger, to the gram", () => {
     expect(series.inG).toBe(900_000 + 400_000);
@@ -44,7 +48,12 @@ describe("tank stock series", () => {
   });
 
   it("ends where the period balance puts the tank's closing stock", () => {
-    const balance = computePeriodBalance({ holders, moves: ledger, period: { startMs: utc("2026-01-01T00:00:00Z"), endMs: utc("2026-02-01T00:00:00Z") }, scope: { siteId: 1 } });
+    const balance = computePeriodBalance({
+      holders,
+      moves: ledger,
+      period: { startMs: utc("2026-01-01T00:00:00Z"), endMs: utc("2026-02-01T00:00:00Z") },
+      scope: { siteId: 1 },
+    });
     if (!balance.ok) throw new Error("balance refused");
     const tank = balance.value.stock.byHolder.find((h) => h.holderId === TANK);
     expect(series.book.at(-1)?.stockG).toBe(tank?.closingG);

@@ -62,8 +62,20 @@ describe("calibration tables as typed and stored", () => {
   });
 
   it("refuses levels that do not rise, falling volumes, short or malformed tables", () => {
-    expect(strappingProblems([[0, 0], [100, 300], [100, 400]])).toEqual(["row 3: levels must rise from row to row"]);
-    expect(strappingProblems([[0, 0], [100, 300], [200, 250]])).toEqual(["row 3: volume must not fall as the level rises"]);
+    expect(
+      strappingProblems([
+        [0, 0],
+        [100, 300],
+        [100, 400],
+      ]),
+    ).toEqual(["row 3: levels must rise from row to row"]);
+    expect(
+      strappingProblems([
+        [0, 0],
+        [100, 300],
+        [200, 250],
+      ]),
+    ).toEqual(["row 3: volume must not fall as the level rises"]);
     expect(strappingProblems([[0, 0]])).toEqual(["a calibration table needs at least two rows"]);
     expect(strappingProblems([[0, 0], [100]])).toHaveLength(1);
     expect(parseStrapping("")).toBeNull();

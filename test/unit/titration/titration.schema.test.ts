@@ -24,16 +24,66 @@ describe("TitrationEntrySchema", () => {
   });
 
   const bad: Array<{ name: string; input: unknown; path: string; message: RegExp }> = [
-    { name: "sample mass 0", input: { ...valid, sampleMassG: 0 }, path: "sampleMassG", message: /sample mass must be greater than 0 g/ },
-    { name: "sample mass missing", input: { ...valid, sampleMassG: undefined }, path: "sampleMassG", message: /sample mass must be a number \(g\)/ },
-    { name: "titrant lower-case", input: { ...valid, titrant: "naoh" }, path: "titrant", message: /titrant must be NAOH or KOH/ },
-    { name: "concentration 0", input: { ...valid, concentrationMolL: 0 }, path: "concentrationMolL", message: /greater than 0 mol\/L/ },
-    { name: "concentration 2.5", input: { ...valid, concentrationMolL: 2.5 }, path: "concentrationMolL", message: /at most 2 mol\/L/ },
-    { name: "negative titre", input: { ...valid, titreMl: -1 }, path: "titreMl", message: /titre must not be negative \(mL\)/ },
-    { name: "titre as text", input: { ...valid, titreMl: "10" }, path: "titreMl", message: /titre must be a number \(mL\)/ },
-    { name: "negative blank", input: { ...valid, blankMl: -0.1 }, path: "blankMl", message: /blank must not be negative \(mL\)/ },
-    { name: "blank above titre", input: { ...valid, titreMl: 0.1, blankMl: 0.2 }, path: "blankMl", message: /blank \(mL\) must not exceed the titre \(mL\)/ },
-    { name: "unknown basis", input: { ...valid, basis: "STEARIC" }, path: "basis", message: /basis must be OLEIC, PALMITIC or LAURIC/ },
+    {
+      name: "sample mass 0",
+      input: { ...valid, sampleMassG: 0 },
+      path: "sampleMassG",
+      message: /sample mass must be greater than 0 g/,
+    },
+    {
+      name: "sample mass missing",
+      input: { ...valid, sampleMassG: undefined },
+      path: "sampleMassG",
+      message: /sample mass must be a number \(g\)/,
+    },
+    {
+      name: "titrant lower-case",
+      input: { ...valid, titrant: "naoh" },
+      path: "titrant",
+      message: /titrant must be NAOH or KOH/,
+    },
+    {
+      name: "concentration 0",
+      input: { ...valid, concentrationMolL: 0 },
+      path: "concentrationMolL",
+      message: /greater than 0 mol\/L/,
+    },
+    {
+      name: "concentration 2.5",
+      input: { ...valid, concentrationMolL: 2.5 },
+      path: "concentrationMolL",
+      message: /at most 2 mol\/L/,
+    },
+    {
+      name: "negative titre",
+      input: { ...valid, titreMl: -1 },
+      path: "titreMl",
+      message: /titre must not be negative \(mL\)/,
+    },
+    {
+      name: "titre as text",
+      input: { ...valid, titreMl: "10" },
+      path: "titreMl",
+      message: /titre must be a number \(mL\)/,
+    },
+    {
+      name: "negative blank",
+      input: { ...valid, blankMl: -0.1 },
+      path: "blankMl",
+      message: /blank must not be negative \(mL\)/,
+    },
+    {
+      name: "blank above titre",
+      input: { ...valid, titreMl: 0.1, blankMl: 0.2 },
+      path: "blankMl",
+      message: /blank \(mL\) must not exceed the titre \(mL\)/,
+    },
+    {
+      name: "unknown basis",
+      input: { ...valid, basis: "STEARIC" },
+      path: "basis",
+      message: /basis must be OLEIC, PALMITIC or LAURIC/,
+    },
   ];
   it.each(bad)("rejects $name on $path", ({ input, path, message }) => {
     const issues = issuesOf(input);

@@ -44,11 +44,14 @@ describe("FFA factor table", () => {
     { basis: "OLEIC" as const, formula: "C18H34O2" },
     { basis: "PALMITIC" as const, formula: "C16H32O2" },
     { basis: "LAURIC" as const, formula: "C12H24O2" },
-  ])("molar mass of $basis acid agrees with mf-parser within 5e-5 (mf-parser's own documentation)", ({ basis, formula }) => {
-    // mf-parser uses abundance-weighted element masses, slightly off IUPAC conventional values (mf-parser's own documentation)
-    const reference = new MF(formula).getInfo().mass;
-    expect(Math.abs(FFA_FACTORS[basis].molarMassGMol - reference) / reference).toBeLessThan(5e-5);
-  });
+  ])(
+    "molar mass of $basis acid agrees with mf-parser within 5e-5 (mf-parser's own documentation)",
+    ({ basis, formula }) => {
+      // mf-parser uses abundance-weighted element masses, slightly off IUPAC conventional values (mf-parser's own documentation)
+      const reference = new MF(formula).getInfo().mass;
+      expect(Math.abs(FFA_FACTORS[basis].molarMassGMol - reference) / reference).toBeLessThan(5e-5);
+    },
+  );
 
   it("the method factor is M/10 rounded to one decimal", () => {
     // acid value definition, computed: 28.2 = 282.468/10 rounded; 25.64 → 25.6; 20.03 → 20.0
@@ -64,21 +67,73 @@ describe("FFA factor table", () => {
 });
 
 describe("calculateFfaPercent (AOCS Ca 5a-40)", () => {
-  const vectors: Array<{ name: string; input: TitrationInput; basis?: "OLEIC" | "PALMITIC" | "LAURIC"; mode?: "method" | "molar-mass"; expected: number; digits: number }> = [
+  const vectors: Array<{
+    name: string;
+    input: TitrationInput;
+    basis?: "OLEIC" | "PALMITIC" | "LAURIC";
+    mode?: "method" | "molar-mass";
+    expected: number;
+    digits: number;
+  }> = [
     // AOCS Ca 5a-40, computed worked check values
-    { name: "V 10.00, N 0.1, m 28.2 → 1.000 % oleic", input: { titreMl: 10, concentrationMolL: 0.1, sampleMassG: 28.2 }, expected: 1.0, digits: 9 },
-    { name: "same with exact M → 1.0017 %", input: { titreMl: 10, concentrationMolL: 0.1, sampleMassG: 28.2 }, mode: "molar-mass", expected: 1.0017, digits: 4 },
-    { name: "V 5.00, N 0.25, m 7.05 → 5.000 %", input: { titreMl: 5, concentrationMolL: 0.25, sampleMassG: 7.05 }, expected: 5.0, digits: 9 },
-    { name: "V 2.00, N 0.1, m 56.4 → 0.100 %", input: { titreMl: 2, concentrationMolL: 0.1, sampleMassG: 56.4 }, expected: 0.1, digits: 9 },
+    {
+      name: "V 10.00, N 0.1, m 28.2 → 1.000 % oleic",
+      input: { titreMl: 10, concentrationMolL: 0.1, sampleMassG: 28.2 },
+      expected: 1.0,
+      digits: 9,
+    },
+    {
+      name: "same with exact M → 1.0017 %",
+      input: { titreMl: 10, concentrationMolL: 0.1, sampleMassG: 28.2 },
+      mode: "molar-mass",
+      expected: 1.0017,
+      digits: 4,
+    },
+    {
+      name: "V 5.00, N 0.25, m 7.05 → 5.000 %",
+      input: { titreMl: 5, concentrationMolL: 0.25, sampleMassG: 7.05 },
+      expected: 5.0,
+      digits: 9,
+    },
+    {
+      name: "V 2.00, N 0.1, m 56.4 → 0.100 %",
+      input: { titreMl: 2, concentrationMolL: 0.1, sampleMassG: 56.4 },
+      expected: 0.1,
+      digits: 9,
+    },
     // Ca 5a-40 palmitic/lauric factors, hand arithmetic: 10 × 0.1 × 25.6 / 28.2 = 0.907801; 10 × 0.1 × 20.0 / 20 = 1
-    { name: "palmitic: 10 × 0.1 × 25.6 / 28.2", input: { titreMl: 10, concentrationMolL: 0.1, sampleMassG: 28.2 }, basis: "PALMITIC", expected: 0.907801, digits: 6 },
-    { name: "lauric: 10 × 0.1 × 20.0 / 20", input: { titreMl: 10, concentrationMolL: 0.1, sampleMassG: 20 }, basis: "LAURIC", expected: 1.0, digits: 9 },
+    {
+      name: "palmitic: 10 × 0.1 × 25.6 / 28.2",
+      input: { titreMl: 10, concentrationMolL: 0.1, sampleMassG: 28.2 },
+      basis: "PALMITIC",
+      expected: 0.907801,
+      digits: 6,
+    },
+    {
+      name: "lauric: 10 × 0.1 × 20.0 / 20",
+      input: { titreMl: 10, concentrationMolL: 0.1, sampleMassG: 20 },
+      basis: "LAURIC",
+      expected: 1.0,
+      digits: 9,
+    },
     // blank correction (V − B): (10.05 − 0.05) × 0.1 × 28.2 / 28.2 = 1.000
-    { name: "blank 0.05 mL subtracted", input: { titreMl: 10.05, blankMl: 0.05, concentrationMolL: 0.1, sampleMassG: 28.2 }, expected: 1.0, digits: 9 },
-    { name: "zero titre → 0 %", input: { titreMl: 0, concentrationMolL: 0.1, sampleMassG: 28.2 }, expected: 0, digits: 12 },
+    {
+      name: "blank 0.05 mL subtracted",
+      input: { titreMl: 10.05, blankMl: 0.05, concentrationMolL: 0.1, sampleMassG: 28.2 },
+      expected: 1.0,
+      digits: 9,
+    },
+    {
+      name: "zero titre → 0 %",
+      input: { titreMl: 0, concentrationMolL: 0.1, sampleMassG: 28.2 },
+      expected: 0,
+      digits: 12,
+    },
   ];
   it.each(vectors)("$name", ({ input, basis, mode, expected, digits }) => {
-    const r = requireOk(calculateFfaPercent(input, { ...(basis ? { basis } : {}), ...(mode ? { factorMode: mode } : {}) }));
+    const r = requireOk(
+      calculateFfaPercent(input, { ...(basis ? { basis } : {}), ...(mode ? { factorMode: mode } : {}) }),
+    );
     expect(r.ffaPct).toBeCloseTo(expected, digits);
   });
 
@@ -92,7 +147,8 @@ describe("calculateFfaPercent (AOCS Ca 5a-40)", () => {
         fc.constantFrom(...FFA_BASES),
         (a, b, c, m, basis) => {
           const [lo, hi] = a <= b ? [a, b] : [b, a];
-          const f = (titreMl: number) => requireOk(calculateFfaPercent({ titreMl, concentrationMolL: c, sampleMassG: m }, { basis })).ffaPct;
+          const f = (titreMl: number) =>
+            requireOk(calculateFfaPercent({ titreMl, concentrationMolL: c, sampleMassG: m }, { basis })).ffaPct;
           expect(f(lo)).toBeLessThanOrEqual(f(hi));
           if (hi - lo > 1e-6) expect(f(lo)).toBeLessThan(f(hi));
         },
@@ -112,7 +168,12 @@ describe("calculateAcidValue (EN 14104 / ISO 660 form)", () => {
 
   it("uses the exact M(KOH) when asked", () => {
     // 4.40 × 0.1 × 56.1053 / 5 = 4.93727 (IUPAC 2021 M(KOH))
-    const r = requireOk(calculateAcidValue({ titreMl: 4.45, blankMl: 0.05, concentrationMolL: 0.1, sampleMassG: 5 }, { kohConstant: 56.1053 }));
+    const r = requireOk(
+      calculateAcidValue(
+        { titreMl: 4.45, blankMl: 0.05, concentrationMolL: 0.1, sampleMassG: 5 },
+        { kohConstant: 56.1053 },
+      ),
+    );
     expect(r.acidValueMgKohG).toBeCloseTo(4.93727, 5);
   });
 });
@@ -122,14 +183,44 @@ describe("AV ↔ FFA", () => {
     // AOCS Ca 5a-40, computed (computed with exact molar masses): FFA 1.00 % oleic → AV 1.986; AV 1.00 → FFA 0.503
     { name: "FFA 1 % oleic → AV 1.986 (molar mass)", run: () => acidValueFromFfa(1), expected: 1.986, tolerance: 5e-4 },
     { name: "AV 1 → FFA 0.503 % oleic (molar mass)", run: () => ffaFromAcidValue(1), expected: 0.503, tolerance: 5e-4 },
-    { name: "AV 4.9368 → FFA 2.485 % oleic (molar mass)", run: () => ffaFromAcidValue(4.9368), expected: 2.485, tolerance: 5e-4 },
+    {
+      name: "AV 4.9368 → FFA 2.485 % oleic (molar mass)",
+      run: () => ffaFromAcidValue(4.9368),
+      expected: 2.485,
+      tolerance: 5e-4,
+    },
     // acid value definition, computed (computed): palmitic 2.188, lauric 2.801 AV per % FFA
-    { name: "FFA 1 % palmitic → AV 2.188", run: () => acidValueFromFfa(1, { basis: "PALMITIC" }), expected: 2.188, tolerance: 5e-4 },
-    { name: "FFA 1 % lauric → AV 2.801", run: () => acidValueFromFfa(1, { basis: "LAURIC" }), expected: 2.801, tolerance: 5e-4 },
+    {
+      name: "FFA 1 % palmitic → AV 2.188",
+      run: () => acidValueFromFfa(1, { basis: "PALMITIC" }),
+      expected: 2.188,
+      tolerance: 5e-4,
+    },
+    {
+      name: "FFA 1 % lauric → AV 2.801",
+      run: () => acidValueFromFfa(1, { basis: "LAURIC" }),
+      expected: 2.801,
+      tolerance: 5e-4,
+    },
     // AOCS Ca 5a-40 Calculations note: AV = 1.99 × % FFA (oleic); inverse by hand 1/1.99 = 0.502513, 4.9368/1.99 = 2.480804
-    { name: "FFA 1 % → AV 1.99 (Ca 5a-40 note)", run: () => acidValueFromFfa(1, { conversion: "ca5a40-note" }), expected: 1.99, tolerance: 1e-12 },
-    { name: "AV 1 → FFA 0.502513 (Ca 5a-40 note)", run: () => ffaFromAcidValue(1, { conversion: "ca5a40-note" }), expected: 0.502513, tolerance: 1e-6 },
-    { name: "AV 4.9368 → FFA 2.480804 (Ca 5a-40 note)", run: () => ffaFromAcidValue(4.9368, { conversion: "ca5a40-note" }), expected: 2.480804, tolerance: 1e-6 },
+    {
+      name: "FFA 1 % → AV 1.99 (Ca 5a-40 note)",
+      run: () => acidValueFromFfa(1, { conversion: "ca5a40-note" }),
+      expected: 1.99,
+      tolerance: 1e-12,
+    },
+    {
+      name: "AV 1 → FFA 0.502513 (Ca 5a-40 note)",
+      run: () => ffaFromAcidValue(1, { conversion: "ca5a40-note" }),
+      expected: 0.502513,
+      tolerance: 1e-6,
+    },
+    {
+      name: "AV 4.9368 → FFA 2.480804 (Ca 5a-40 note)",
+      run: () => ffaFromAcidValue(4.9368, { conversion: "ca5a40-note" }),
+      expected: 2.480804,
+      tolerance: 1e-6,
+    },
   ];
   it.each(cases)("$name", ({ run, expected, tolerance }) => {
     const value = requireOk(run());
@@ -158,11 +249,15 @@ describe("AV ↔ FFA", () => {
 
   it("round-trips in both conversions", () => {
     fc.assert(
-      fc.property(fc.double({ min: 0, max: 100, noNaN: true }), fc.constantFrom("molar-mass" as const, "ca5a40-note" as const), (ffa, conversion) => {
-        const av = requireOk(acidValueFromFfa(ffa, { conversion }));
-        const back = requireOk(ffaFromAcidValue(av, { conversion }));
-        expect(Math.abs(back - ffa)).toBeLessThanOrEqual(1e-12 * Math.max(1, ffa));
-      }),
+      fc.property(
+        fc.double({ min: 0, max: 100, noNaN: true }),
+        fc.constantFrom("molar-mass" as const, "ca5a40-note" as const),
+        (ffa, conversion) => {
+          const av = requireOk(acidValueFromFfa(ffa, { conversion }));
+          const back = requireOk(ffaFromAcidValue(av, { conversion }));
+          expect(Math.abs(back - ffa)).toBeLessThanOrEqual(1e-12 * Math.max(1, ffa));
+        },
+      ),
       RUNS,
     );
   });
@@ -181,14 +276,49 @@ describe("bad titration inputs return issues naming the field", () => {
   const cases: Array<{ name: string; input: TitrationInput; code: string; field: string }> = [
     { name: "negative titre", input: { ...ok, titreMl: -0.1 }, code: "TITRATION.NEGATIVE_TITRE", field: "titreMl" },
     { name: "negative blank", input: { ...ok, blankMl: -0.1 }, code: "TITRATION.NEGATIVE_BLANK", field: "blankMl" },
-    { name: "blank > titre", input: { ...ok, titreMl: 0.2, blankMl: 0.3 }, code: "TITRATION.BLANK_EXCEEDS_TITRE", field: "blankMl" },
-    { name: "sample mass 0", input: { ...ok, sampleMassG: 0 }, code: "TITRATION.SAMPLE_MASS_NOT_POSITIVE", field: "sampleMassG" },
-    { name: "sample mass negative", input: { ...ok, sampleMassG: -5 }, code: "TITRATION.SAMPLE_MASS_NOT_POSITIVE", field: "sampleMassG" },
-    { name: "concentration 0", input: { ...ok, concentrationMolL: 0 }, code: "TITRATION.CONCENTRATION_OUT_OF_RANGE", field: "concentrationMolL" },
-    { name: "concentration negative", input: { ...ok, concentrationMolL: -0.1 }, code: "TITRATION.CONCENTRATION_OUT_OF_RANGE", field: "concentrationMolL" },
-    { name: "concentration 2.5 mol/L", input: { ...ok, concentrationMolL: 2.5 }, code: "TITRATION.CONCENTRATION_OUT_OF_RANGE", field: "concentrationMolL" },
+    {
+      name: "blank > titre",
+      input: { ...ok, titreMl: 0.2, blankMl: 0.3 },
+      code: "TITRATION.BLANK_EXCEEDS_TITRE",
+      field: "blankMl",
+    },
+    {
+      name: "sample mass 0",
+      input: { ...ok, sampleMassG: 0 },
+      code: "TITRATION.SAMPLE_MASS_NOT_POSITIVE",
+      field: "sampleMassG",
+    },
+    {
+      name: "sample mass negative",
+      input: { ...ok, sampleMassG: -5 },
+      code: "TITRATION.SAMPLE_MASS_NOT_POSITIVE",
+      field: "sampleMassG",
+    },
+    {
+      name: "concentration 0",
+      input: { ...ok, concentrationMolL: 0 },
+      code: "TITRATION.CONCENTRATION_OUT_OF_RANGE",
+      field: "concentrationMolL",
+    },
+    {
+      name: "concentration negative",
+      input: { ...ok, concentrationMolL: -0.1 },
+      code: "TITRATION.CONCENTRATION_OUT_OF_RANGE",
+      field: "concentrationMolL",
+    },
+    {
+      name: "concentration 2.5 mol/L",
+      input: { ...ok, concentrationMolL: 2.5 },
+      code: "TITRATION.CONCENTRATION_OUT_OF_RANGE",
+      field: "concentrationMolL",
+    },
     { name: "titre NaN", input: { ...ok, titreMl: Number.NaN }, code: "TITRATION.NOT_A_NUMBER", field: "titreMl" },
-    { name: "mass Infinity", input: { ...ok, sampleMassG: Number.POSITIVE_INFINITY }, code: "TITRATION.NOT_A_NUMBER", field: "sampleMassG" },
+    {
+      name: "mass Infinity",
+      input: { ...ok, sampleMassG: Number.POSITIVE_INFINITY },
+      code: "TITRATION.NOT_A_NUMBER",
+      field: "sampleMassG",
+    },
   ];
   it.each(cases)("FFA: $name → $code on $field", ({ input, code, field }) => {
     expect(issuePairs(calculateFfaPercent(input))).toContainEqual([code, field]);
@@ -212,7 +342,9 @@ describe("bad titration inputs return issues naming the field", () => {
   });
 
   it("collects every issue, not just the first", () => {
-    const fields = issuePairs(calculateFfaPercent({ titreMl: -1, concentrationMolL: 0, sampleMassG: 0 })).map(([, f]) => f);
+    const fields = issuePairs(calculateFfaPercent({ titreMl: -1, concentrationMolL: 0, sampleMassG: 0 })).map(
+      ([, f]) => f,
+    );
     expect(fields.sort()).toEqual(["concentrationMolL", "sampleMassG", "titreMl"]);
   });
 });
@@ -246,7 +378,13 @@ describe("summariseReplicates", () => {
   });
 
   it("a single value has no standard deviation", () => {
-    expect(requireOk(summariseReplicates([3]))).toMatchObject({ n: 1, mean: 3, spread: 0, sampleStdDev: null, exceedsRepeatability: false });
+    expect(requireOk(summariseReplicates([3]))).toMatchObject({
+      n: 1,
+      mean: 3,
+      spread: 0,
+      sampleStdDev: null,
+      exceedsRepeatability: false,
+    });
   });
 
   it("keeps identical replicates exact", () => {
@@ -263,13 +401,16 @@ describe("summariseReplicates", () => {
 
   it("mean lies between min and max; spread and s are non-negative", () => {
     fc.assert(
-      fc.property(fc.array(fc.double({ min: -1e6, max: 1e6, noNaN: true }), { minLength: 1, maxLength: 12 }), (values) => {
-        const s = requireOk(summariseReplicates(values));
-        expect(s.mean).toBeGreaterThanOrEqual(Math.min(...values));
-        expect(s.mean).toBeLessThanOrEqual(Math.max(...values));
-        expect(s.spread).toBeGreaterThanOrEqual(0);
-        if (s.sampleStdDev !== null) expect(s.sampleStdDev).toBeGreaterThanOrEqual(0);
-      }),
+      fc.property(
+        fc.array(fc.double({ min: -1e6, max: 1e6, noNaN: true }), { minLength: 1, maxLength: 12 }),
+        (values) => {
+          const s = requireOk(summariseReplicates(values));
+          expect(s.mean).toBeGreaterThanOrEqual(Math.min(...values));
+          expect(s.mean).toBeLessThanOrEqual(Math.max(...values));
+          expect(s.spread).toBeGreaterThanOrEqual(0);
+          if (s.sampleStdDev !== null) expect(s.sampleStdDev).toBeGreaterThanOrEqual(0);
+        },
+      ),
       RUNS,
     );
   });

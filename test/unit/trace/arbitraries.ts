@@ -37,7 +37,10 @@ const stepArb: fc.Arbitrary<Step> = fc.record({
  */
 export const historyArb: fc.Arbitrary<History> = fc
   .record({
-    mixing: fc.array(fc.constantFrom<Mixing>("MIXED", "FIFO"), { minLength: HOLDER_IDS.length, maxLength: HOLDER_IDS.length }),
+    mixing: fc.array(fc.constantFrom<Mixing>("MIXED", "FIFO"), {
+      minLength: HOLDER_IDS.length,
+      maxLength: HOLDER_IDS.length,
+    }),
     steps: fc.array(stepArb, { minLength: 1, maxLength: 60, size: "large" }),
   })
   .map(({ mixing, steps }) => {
@@ -100,5 +103,8 @@ export const emptiedBeforeRefillArb: fc.Arbitrary<History> = fc
       dst.stock += massG;
       dst.receipts += 1;
     }
-    return { holders: HOLDER_IDS.map((hid, i) => ({ id: hid, kind: KINDS[i] ?? "TANK", mixing: "MIXED" as const })), moves };
+    return {
+      holders: HOLDER_IDS.map((hid, i) => ({ id: hid, kind: KINDS[i] ?? "TANK", mixing: "MIXED" as const })),
+      moves,
+    };
   });

@@ -18,7 +18,13 @@ describe("attachCustomers", () => {
 
   it("puts the customer next to each shipment and totals per customer, largest first", () => {
     const r = attachCustomers(rows, customers);
-    expect(r.rows.map((x) => ("customer" in x ? x.customer?.name : undefined))).toEqual([undefined, "Alpha Carriers", "Alpha Carriers", "Beta Ferries", "Old free-text name"]);
+    expect(r.rows.map((x) => ("customer" in x ? x.customer?.name : undefined))).toEqual([
+      undefined,
+      "Alpha Carriers",
+      "Alpha Carriers",
+      "Beta Ferries",
+      "Old free-text name",
+    ]);
     expect(r.byCustomer).toEqual([
       { customer: { name: "Beta Ferries", code: "B" }, grams: 900, shipments: 1 },
       { customer: { name: "Alpha Carriers", code: "A" }, grams: 500, shipments: 2 },

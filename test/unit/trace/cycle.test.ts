@@ -60,20 +60,35 @@ const CASES: CycleCase[] = [
   {
     name: "a lot receiving from a tank before its own oil went in",
     // Lot B receives from the tank at 5 s; only later (6 s) does B send to the tank.
-    moves: [move(1, null, LOT_A, 1_000), move(2, LOT_A, FEED_TANK, 1_000), move(3, null, LOT_B, 500), move(5, FEED_TANK, LOT_B, 200)],
+    moves: [
+      move(1, null, LOT_A, 1_000),
+      move(2, LOT_A, FEED_TANK, 1_000),
+      move(3, null, LOT_B, 500),
+      move(5, FEED_TANK, LOT_B, 200),
+    ],
     newMove: move(6, LOT_B, FEED_TANK, 700),
     cycle: null,
   },
   {
     name: "a lot receiving from a tank after its own oil went in",
-    moves: [move(1, null, LOT_A, 1_000), move(2, LOT_A, FEED_TANK, 1_000), move(3, null, LOT_B, 500), move(4, LOT_B, FEED_TANK, 500)],
+    moves: [
+      move(1, null, LOT_A, 1_000),
+      move(2, LOT_A, FEED_TANK, 1_000),
+      move(3, null, LOT_B, 500),
+      move(4, LOT_B, FEED_TANK, 500),
+    ],
     newMove: move(5, FEED_TANK, LOT_B, 200),
     cycle: { holderId: LOT_B, moveIds: [4, 5] },
   },
   {
     name: "a back-dated move that closes a chain running after it",
     // P → glycerol container at 20 s and the container → K at 30 s exist; K → P is booked at 15 s.
-    moves: [move(1, null, BATCH_K, 100), move(2, null, PRODUCT_P, 100), move(20, PRODUCT_P, GLYCEROL_W, 50), move(30, GLYCEROL_W, BATCH_K, 10)],
+    moves: [
+      move(1, null, BATCH_K, 100),
+      move(2, null, PRODUCT_P, 100),
+      move(20, PRODUCT_P, GLYCEROL_W, 50),
+      move(30, GLYCEROL_W, BATCH_K, 10),
+    ],
     newMove: move(15, BATCH_K, PRODUCT_P, 20),
     cycle: { holderId: BATCH_K, moveIds: [15, 20, 30] },
   },
@@ -81,13 +96,23 @@ const CASES: CycleCase[] = [
     name: "the same move booked between the two is not a cycle",
     // At 25 s: P's material left for the container at 20 s, before K → P; K's new material reaches P
     // after the container → K move of 30 s could carry it anywhere. No chain returns to its start.
-    moves: [move(1, null, BATCH_K, 100), move(2, null, PRODUCT_P, 100), move(20, PRODUCT_P, GLYCEROL_W, 50), move(30, GLYCEROL_W, BATCH_K, 10)],
+    moves: [
+      move(1, null, BATCH_K, 100),
+      move(2, null, PRODUCT_P, 100),
+      move(20, PRODUCT_P, GLYCEROL_W, 50),
+      move(30, GLYCEROL_W, BATCH_K, 10),
+    ],
     newMove: move(25, BATCH_K, PRODUCT_P, 20),
     cycle: null,
   },
   {
     name: "the same move booked after the chain closes a cycle on the product lot",
-    moves: [move(1, null, BATCH_K, 100), move(2, null, PRODUCT_P, 100), move(20, PRODUCT_P, GLYCEROL_W, 50), move(30, GLYCEROL_W, BATCH_K, 10)],
+    moves: [
+      move(1, null, BATCH_K, 100),
+      move(2, null, PRODUCT_P, 100),
+      move(20, PRODUCT_P, GLYCEROL_W, 50),
+      move(30, GLYCEROL_W, BATCH_K, 10),
+    ],
     newMove: move(35, BATCH_K, PRODUCT_P, 20),
     // P → container (20) → K (30) → P (35).
     cycle: { holderId: PRODUCT_P, moveIds: [20, 30, 35] },

@@ -3,7 +3,14 @@ import { describe, expect, it } from "vitest";
 import { getOriginGrams } from "@/lib/trace/composition";
 import type { CompositionParts } from "@/lib/trace/composition";
 import { getCycleThrough } from "@/lib/trace/cycle";
-import { describeComposition, replayLedger, resumeReplay, traceForward, traceHolder, traceMove } from "@/lib/trace/genealogy";
+import {
+  describeComposition,
+  replayLedger,
+  resumeReplay,
+  traceForward,
+  traceHolder,
+  traceMove,
+} from "@/lib/trace/genealogy";
 import type { TraceComposition } from "@/lib/trace/genealogy";
 import { ReplaySnapshotSchema } from "@/lib/trace/genealogy.schema";
 import { compareMoves, indexLedger, mapHolders } from "@/lib/trace/ledger";
@@ -26,7 +33,10 @@ function requireIndex(holders: readonly TraceHolder[], moves: readonly TraceMove
 }
 
 /** Σ in − Σ out per holder from the raw moves, independent of the replay. */
-function plainStock(moves: readonly TraceMove[], upTo = Number.POSITIVE_INFINITY): Map<number, { stock: number; received: number }> {
+function plainStock(
+  moves: readonly TraceMove[],
+  upTo = Number.POSITIVE_INFINITY,
+): Map<number, { stock: number; received: number }> {
   const out = new Map<number, { stock: number; received: number }>();
   const get = (h: number) => out.get(h) ?? out.set(h, { stock: 0, received: 0 }).get(h) ?? { stock: 0, received: 0 };
   for (const m of moves) {
@@ -159,32 +169,37 @@ describe("trace invariants over random ledgers (our own consistency checks)", ()
 
   it("invariant: a forward trace that stops early lists every carrying move and holding of an exhaustive replay", () => {
     fc.assert(
-      fc.property(historyArb, fc.nat(), fc.array(fc.boolean(), { minLength: 8, maxLength: 8 }), (history, pick, chosen) => {
-        const index = requireIndex(history.holders, shuffled(history));
-        const t = pickTime(history, pick);
-        const entered = history.moves.filter((m) => m.fromHolderId === null);
-        const set = entered.filter((_m, i) => chosen[i % chosen.length] === true).map((m) => m.id);
-        if (set.length === 0) return;
-        const wanted = new Set(set);
-        // Independent: replay every move up to t and read the set's grams off each carried composition.
-        const carried: Array<{ moveId: number; grams: number }> = [];
-        const full = replayLedger(index, {
-          until: t,
-          onMove: (m, parts) => {
-            const grams = parts.originIds.reduce((s, id, i) => s + (wanted.has(id) ? (parts.grams[i] ?? 0) : 0), 0);
-            if (grams > 0) carried.push({ moveId: m.id, grams });
-          },
-        });
-        if (!full.ok) throw new Error(JSON.stringify(full.issues));
-        const forward = traceForward(index, set, { at: t });
-        if (!forward.ok) throw new Error(JSON.stringify(forward.issues));
-        expect(forward.value.moves).toEqual(carried);
-        for (const h of history.holders) {
-          const parts = full.value.getComposition(h.id);
-          const heldG = set.reduce((s, id) => s + getOriginGrams(parts, id), 0);
-          expect(forward.value.holders.find((r) => r.holderId === h.id)?.heldG ?? 0).toBe(heldG);
-        }
-      }),
+      fc.property(
+        historyArb,
+        fc.nat(),
+        fc.array(fc.boolean(), { minLength: 8, maxLength: 8 }),
+        (history, pick, chosen) => {
+          const index = requireIndex(history.holders, shuffled(history));
+          const t = pickTime(history, pick);
+          const entered = history.moves.filter((m) => m.fromHolderId === null);
+          const set = entered.filter((_m, i) => chosen[i % chosen.length] === true).map((m) => m.id);
+          if (set.length === 0) return;
+          const wanted = new Set(set);
+          // Independent: replay every move up to t and read the set's grams off each carried composition.
+          const carried: Array<{ moveId: number; grams: number }> = [];
+          const full = replayLedger(index, {
+            until: t,
+            onMove: (m, parts) => {
+              const grams = parts.originIds.reduce((s, id, i) => s + (wanted.has(id) ? (parts.grams[i] ?? 0) : 0), 0);
+              if (grams > 0) carried.push({ moveId: m.id, grams });
+            },
+          });
+          if (!full.ok) throw new Error(JSON.stringify(full.issues));
+          const forward = traceForward(index, set, { at: t });
+          if (!forward.ok) throw new Error(JSON.stringify(forward.issues));
+          expect(forward.value.moves).toEqual(carried);
+          for (const h of history.holders) {
+            const parts = full.value.getComposition(h.id);
+            const heldG = set.reduce((s, id) => s + getOriginGrams(parts, id), 0);
+            expect(forward.value.holders.find((r) => r.holderId === h.id)?.heldG ?? 0).toBe(heldG);
+          }
+        },
+      ),
       RUNS,
     );
   });
@@ -280,7 +295,9 @@ describe("trace invariants over random ledgers (our own consistency checks)", ()
         const full = head.snapshot();
         const lean = ReplaySnapshotSchema.parse(JSON.parse(JSON.stringify(head.snapshot((id) => neverDrawn.has(id)))));
         expect(lean.holders.every((x) => !neverDrawn.has(x.holderId))).toBe(true);
-        expect(lean.leftOut ?? []).toEqual(full.holders.filter((x) => neverDrawn.has(x.holderId)).map((x) => x.holderId));
+        expect(lean.leftOut ?? []).toEqual(
+          full.holders.filter((x) => neverDrawn.has(x.holderId)).map((x) => x.holderId),
+        );
         for (const h of history.holders) {
           const warm = traceHolder(index, h.id, { from: lean });
           if ((lean.leftOut ?? []).includes(h.id)) {
@@ -293,7 +310,8 @@ describe("trace invariants over random ledgers (our own consistency checks)", ()
           expect(warm.value.stock).toEqual(cold.value.stock);
           expect(warm.value.received).toEqual(cold.value.received);
         }
-        for (const m of index.moves.slice(k)) expect(traceMove(index, m.id, { from: lean })).toEqual(traceMove(index, m.id, { from: full }));
+        for (const m of index.moves.slice(k))
+          expect(traceMove(index, m.id, { from: lean })).toEqual(traceMove(index, m.id, { from: full }));
         // Resumed whole, the replay carries on for every other holder, and refuses to describe a left-out one.
         const resumed = resumeReplay(index, lean);
         if (!resumed.ok) throw new Error(JSON.stringify(resumed.issues));
@@ -304,7 +322,9 @@ describe("trace invariants over random ledgers (our own consistency checks)", ()
           if ((lean.leftOut ?? []).includes(h.id)) expect(() => resumed.value.getComposition(h.id)).toThrow(/left out/);
           else expect(resumed.value.getComposition(h.id)).toEqual(end.value.getComposition(h.id));
         }
-        expect(resumed.value.snapshot((id) => neverDrawn.has(id)).leftOut ?? []).toEqual(expect.arrayContaining(lean.leftOut ?? []));
+        expect(resumed.value.snapshot((id) => neverDrawn.has(id)).leftOut ?? []).toEqual(
+          expect.arrayContaining(lean.leftOut ?? []),
+        );
       }),
       RUNS,
     );

@@ -143,20 +143,38 @@ describe("reaction run charged from the tank plus methanol and KOH", () => {
 
   // Tank after move 8 (MIXED, above): A 150 000, B 100 000, C 150 000. Move 9 charges 200 000 g =
   // half of each: A 75 000, B 50 000, C 75 000; with methanol 40 000 and KOH 2 000 the run holds 242 000 g.
-  const charged = { [ORIGIN_A]: 75_000, [ORIGIN_B]: 50_000, [ORIGIN_C]: 75_000, [ORIGIN_METHANOL]: 40_000, [ORIGIN_KOH]: 2_000 };
+  const charged = {
+    [ORIGIN_A]: 75_000,
+    [ORIGIN_B]: 50_000,
+    [ORIGIN_C]: 75_000,
+    [ORIGIN_METHANOL]: 40_000,
+    [ORIGIN_KOH]: 2_000,
+  };
 
   // Ester 200 000 g of 242 000 g, exact share = grams · 200 000 / 242 000:
   //   A 61 983.471 (r .471)  B 41 322.314 (r .314)  C 61 983.471 (r .471)
   //   methanol 33 057.851 (r .851)  KOH 1 652.893 (r .893)
   //   floors 61 983 + 41 322 + 61 983 + 33 057 + 1 652 = 199 997 → 3 g to the largest remainders:
   //   KOH, methanol, then A (ties C at .471; A has the lower origin id).
-  const ester = { [ORIGIN_A]: 61_984, [ORIGIN_B]: 41_322, [ORIGIN_C]: 61_983, [ORIGIN_METHANOL]: 33_058, [ORIGIN_KOH]: 1_653 };
+  const ester = {
+    [ORIGIN_A]: 61_984,
+    [ORIGIN_B]: 41_322,
+    [ORIGIN_C]: 61_983,
+    [ORIGIN_METHANOL]: 33_058,
+    [ORIGIN_KOH]: 1_653,
+  };
 
   // Left in the run: A 13 016, B 8 678, C 13 017, methanol 6 942, KOH 347 (Σ 42 000).
   // Glycerol phase 38 000 g, exact share = grams · 38 000 / 42 000:
   //   A 11 776.381  B 7 851.524  C 11 777.286  methanol 6 280.857  KOH 313.952
   //   floors sum to 37 997 → 3 g to KOH (.952), methanol (.857), B (.524).
-  const glycerol = { [ORIGIN_A]: 11_776, [ORIGIN_B]: 7_852, [ORIGIN_C]: 11_777, [ORIGIN_METHANOL]: 6_281, [ORIGIN_KOH]: 314 };
+  const glycerol = {
+    [ORIGIN_A]: 11_776,
+    [ORIGIN_B]: 7_852,
+    [ORIGIN_C]: 11_777,
+    [ORIGIN_METHANOL]: 6_281,
+    [ORIGIN_KOH]: 314,
+  };
 
   // The 4 000 g loss takes the rest: 13 016 − 11 776, 8 678 − 7 852, 13 017 − 11 777, 6 942 − 6 281, 347 − 314.
   const loss = { [ORIGIN_A]: 1_240, [ORIGIN_B]: 826, [ORIGIN_C]: 1_240, [ORIGIN_METHANOL]: 661, [ORIGIN_KOH]: 33 };
@@ -218,7 +236,11 @@ describe("reaction run charged from the tank plus methanol and KOH", () => {
       [false, 41_322],
       [null, 34_711],
     ]);
-    const byKind = groupOrigins(trace, (id) => info[id], (i) => (i?.materialKind === "METHANOL" || i?.materialKind === "KOH" ? "reagent" : "oil"));
+    const byKind = groupOrigins(
+      trace,
+      (id) => info[id],
+      (i) => (i?.materialKind === "METHANOL" || i?.materialKind === "KOH" ? "reagent" : "oil"),
+    );
     expect(byKind.map((g) => [g.key, g.grams])).toEqual([
       ["oil", 165_289],
       ["reagent", 34_711],

@@ -5,7 +5,13 @@ import { traceForward } from "@/lib/trace/genealogy";
 import { findSeedMoves, groupCustomers, seedLedger } from "@/lib/trace/recall";
 
 // Holders: two lots, a pooled tank, a first-in-first-out tank, a batch, a product lot and a shipment.
-const LOT_A = 1, LOT_B = 2, TANK = 3, FIFO = 4, BATCH = 5, PRODUCT = 6, SHIP = 7;
+const LOT_A = 1,
+  LOT_B = 2,
+  TANK = 3,
+  FIFO = 4,
+  BATCH = 5,
+  PRODUCT = 6,
+  SHIP = 7;
 const HOLDERS: TraceHolder[] = [
   { id: LOT_A, kind: "LOT", mixing: "MIXED" },
   { id: LOT_B, kind: "LOT", mixing: "MIXED" },
@@ -16,7 +22,13 @@ const HOLDERS: TraceHolder[] = [
   { id: SHIP, kind: "SHIPMENT", mixing: "MIXED" },
 ];
 const DAY = 86_400_000;
-const m = (id: number, day: number, from: number | null, to: number, massG: number): TraceMove => ({ id, at: day * DAY, fromHolderId: from, toHolderId: to, massG });
+const m = (id: number, day: number, from: number | null, to: number, massG: number): TraceMove => ({
+  id,
+  at: day * DAY,
+  fromHolderId: from,
+  toHolderId: to,
+  massG,
+});
 
 function index(moves: TraceMove[]): LedgerIndex {
   const r = indexLedger(HOLDERS, moves);
@@ -29,7 +41,11 @@ function follow(idx: LedgerIndex, seeds: number[]) {
   if (!s.ok) throw new Error(JSON.stringify(s.issues));
   const f = traceForward(s.value.index, s.value.originIds);
   if (!f.ok) throw new Error(JSON.stringify(f.issues));
-  return { seeded: s.value, held: new Map(f.value.holders.map((h) => [h.holderId, h.heldG])), enteredG: f.value.enteredG };
+  return {
+    seeded: s.value,
+    held: new Map(f.value.holders.map((h) => [h.holderId, h.heldG])),
+    enteredG: f.value.enteredG,
+  };
 }
 
 describe("recall seeding: follow only what moved in", () => {
@@ -57,7 +73,9 @@ describe("recall seeding: follow only what moved in", () => {
   });
 
   it("keeps first-in-first-out order: a later seed is drawn only after the older layer is gone", () => {
-    const fifo = moves.map((x) => (x.toHolderId === TANK ? { ...x, toHolderId: FIFO } : x.fromHolderId === TANK ? { ...x, fromHolderId: FIFO } : x));
+    const fifo = moves.map((x) =>
+      x.toHolderId === TANK ? { ...x, toHolderId: FIFO } : x.fromHolderId === TANK ? { ...x, fromHolderId: FIFO } : x,
+    );
     const { held } = follow(index(fifo), [4]);
     // The 200 kg draw takes lot A's older 300 kg layer first: none of B leaves the tank.
     expect(held.get(FIFO)).toBe(100_000);
@@ -73,7 +91,7 @@ describe("recall seeding: follow only what moved in", () => {
 
   it("picks the moves into the holders within [from, to) by their real time", () => {
     const idx = index(moves);
-    const realAt = (id: number) => (idx.moves[idx.positionOf.get(id) ?? -1]?.at ?? 0);
+    const realAt = (id: number) => idx.moves[idx.positionOf.get(id) ?? -1]?.at ?? 0;
     expect(findSeedMoves(idx, [TANK], { from: 4 * DAY, to: 5 * DAY, realAt })).toEqual([4]);
     expect(findSeedMoves(idx, [TANK], { from: null, to: null, realAt })).toEqual([3, 4]);
     expect(findSeedMoves(idx, [TANK], { from: 5 * DAY, to: null, realAt })).toEqual([]);
@@ -87,7 +105,11 @@ describe("recall seeding: follow only what moved in", () => {
         { holderId: 11, grams: 7, firstAt: 1, lastAt: 1 },
         { holderId: 12, grams: 9, firstAt: 2, lastAt: 2 },
       ],
-      new Map([[10, c("a")], [11, c("a")], [12, c("b")]]),
+      new Map([
+        [10, c("a")],
+        [11, c("a")],
+        [12, c("b")],
+      ]),
     );
     expect(rows.map((r) => [r.customer.name, r.grams, r.shipments, r.firstAt, r.lastAt])).toEqual([
       ["a", 12, 2, 1, 3],

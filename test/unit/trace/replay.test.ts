@@ -41,7 +41,13 @@ describe("overdraw", () => {
     const replayed = replayLedger(index);
     expect(replayed.ok).toBe(false);
     expect(!replayed.ok && replayed.issues).toEqual([
-      expect.objectContaining({ code: "TRACE.OVERDRAW", moveId: 5, holderId: FEED_TANK, shortfallG: 250, field: "moves.5.massG" }),
+      expect.objectContaining({
+        code: "TRACE.OVERDRAW",
+        moveId: 5,
+        holderId: FEED_TANK,
+        shortfallG: 250,
+        field: "moves.5.massG",
+      }),
     ]);
     const traced = traceHolder(index, BATCH_1);
     expect(!traced.ok && traced.issues[0]).toMatchObject({ code: "TRACE.OVERDRAW", moveId: 5, shortfallG: 250 });
@@ -67,10 +73,30 @@ describe("overdraw", () => {
 describe("ledger validation", () => {
   it.each([
     { name: "zero mass", moves: [move(1, null, LOT_A, 0)], code: "TRACE.INVALID_MOVE", field: "moves.1.massG" },
-    { name: "fractional grams", moves: [move(1, null, LOT_A, 1.5)], code: "TRACE.INVALID_MOVE", field: "moves.1.massG" },
-    { name: "unknown holder", moves: [move(1, null, 999, 5)], code: "TRACE.UNKNOWN_HOLDER", field: "moves.1.toHolderId" },
-    { name: "self move", moves: [move(1, null, LOT_A, 5), move(2, LOT_A, LOT_A, 5)], code: "TRACE.SELF_MOVE", field: "moves.2.toHolderId" },
-    { name: "duplicate id", moves: [move(1, null, LOT_A, 5), move(1, null, LOT_A, 6)], code: "TRACE.DUPLICATE_MOVE", field: "moves.1" },
+    {
+      name: "fractional grams",
+      moves: [move(1, null, LOT_A, 1.5)],
+      code: "TRACE.INVALID_MOVE",
+      field: "moves.1.massG",
+    },
+    {
+      name: "unknown holder",
+      moves: [move(1, null, 999, 5)],
+      code: "TRACE.UNKNOWN_HOLDER",
+      field: "moves.1.toHolderId",
+    },
+    {
+      name: "self move",
+      moves: [move(1, null, LOT_A, 5), move(2, LOT_A, LOT_A, 5)],
+      code: "TRACE.SELF_MOVE",
+      field: "moves.2.toHolderId",
+    },
+    {
+      name: "duplicate id",
+      moves: [move(1, null, LOT_A, 5), move(1, null, LOT_A, 6)],
+      code: "TRACE.DUPLICATE_MOVE",
+      field: "moves.1",
+    },
   ])("$name is refused with $code", ({ moves, code, field }) => {
     const index = indexLedger(tankHolders("MIXED"), moves);
     expect(!index.ok && index.issues[0]).toMatchObject({ code, field });
@@ -140,14 +166,19 @@ describe("snapshots", () => {
 
   it("a snapshot no longer matching its ledger is refused as stale", () => {
     const snapshot = snapshotAfter(12);
-    const backdated = requireIndex(PLANT_HOLDERS, [...PLANT_MOVES, { id: 99, at: 500, fromHolderId: null, toHolderId: LOT_A, massG: 1 }]);
+    const backdated = requireIndex(PLANT_HOLDERS, [
+      ...PLANT_MOVES,
+      { id: 99, at: 500, fromHolderId: null, toHolderId: LOT_A, massG: 1 },
+    ]);
     const resumed = resumeReplay(backdated, snapshot);
     expect(!resumed.ok && resumed.issues[0]?.code).toBe("TRACE.SNAPSHOT_STALE");
   });
 
   it("a snapshot whose mixing model differs from the holder's is refused", () => {
     const snapshot = snapshotAfter(8);
-    const asFifo = requireHolderMap(PLANT_HOLDERS.map((h) => (h.id === FEED_TANK ? { ...h, mixing: "FIFO" as const } : h)));
+    const asFifo = requireHolderMap(
+      PLANT_HOLDERS.map((h) => (h.id === FEED_TANK ? { ...h, mixing: "FIFO" as const } : h)),
+    );
     const restored = restoreReplay(asFifo, snapshot);
     expect(!restored.ok && restored.issues[0]).toMatchObject({ code: "TRACE.SNAPSHOT_INVALID", holderId: FEED_TANK });
   });
@@ -156,7 +187,12 @@ describe("snapshots", () => {
     const snapshot = snapshotAfter(8);
     const tank = snapshot.holders.find((h) => h.holderId === FEED_TANK);
     // MIXED tank after move 8: A 150 000, B 100 000, C 150 000 (genealogy.test.ts works it out).
-    expect(tank?.layers.map((l) => [l.originIds, l.grams])).toEqual([[[ORIGIN_A, ORIGIN_B, ORIGIN_C], [150_000, 100_000, 150_000]]]);
+    expect(tank?.layers.map((l) => [l.originIds, l.grams])).toEqual([
+      [
+        [ORIGIN_A, ORIGIN_B, ORIGIN_C],
+        [150_000, 100_000, 150_000],
+      ],
+    ]);
     expect(snapshot.holders.some((h) => h.holderId === LOT_A)).toBe(false); // emptied by move 3
     // 600 000 + 400 000 + 600 000 + 400 000 + 500 000 + 300 000 + 300 000 + 400 000 = 3 500 000 g over moves 1–8
     expect(snapshot.applied).toEqual({ count: 8, massSumG: 3_500_000, last: { moveId: 8, at: 8_000 } });
@@ -165,6 +201,8 @@ describe("snapshots", () => {
 
 describe("describeComposition", () => {
   it("lists the largest first, then by origin id", () => {
-    expect(describeComposition({ originIds: [1, 2, 3], grams: [5, 20, 5] }).origins.map((o) => o.originId)).toEqual([2, 1, 3]);
+    expect(describeComposition({ originIds: [1, 2, 3], grams: [5, 20, 5] }).origins.map((o) => o.originId)).toEqual([
+      2, 1, 3,
+    ]);
   });
 });

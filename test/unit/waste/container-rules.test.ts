@@ -1,5 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { characterisationOf, checkCharacterise, checkHaul, checkMarkFull, STREAM_CAUTIONS } from "@/lib/waste/container-rules";
+import {
+  characterisationOf,
+  checkCharacterise,
+  checkHaul,
+  checkMarkFull,
+  STREAM_CAUTIONS,
+} from "@/lib/waste/container-rules";
 import { assessWasteHazards } from "@/lib/waste/waste-due";
 import { WASTE_STREAMS } from "@/lib/ledger/kinds";
 
@@ -12,9 +18,16 @@ describe("mark full", () => {
     expect(checkMarkFull(open, start)).toBeNull();
   });
   it("refuses a container already full or hauled away, and a date before the start", () => {
-    expect(checkMarkFull({ ...open, status: "FULL" }, new Date("2026-03-05T10:00:00Z"))?.code).toBe("WASTE.ALREADY_FULL");
-    expect(checkMarkFull({ ...open, status: "SHIPPED" }, new Date("2026-03-05T10:00:00Z"))?.code).toBe("WASTE.ALREADY_HAULED");
-    expect(checkMarkFull(open, new Date("2026-02-28T23:59:00Z"))).toMatchObject({ code: "WASTE.BEFORE_START", field: "fullAt" });
+    expect(checkMarkFull({ ...open, status: "FULL" }, new Date("2026-03-05T10:00:00Z"))?.code).toBe(
+      "WASTE.ALREADY_FULL",
+    );
+    expect(checkMarkFull({ ...open, status: "SHIPPED" }, new Date("2026-03-05T10:00:00Z"))?.code).toBe(
+      "WASTE.ALREADY_HAULED",
+    );
+    expect(checkMarkFull(open, new Date("2026-02-28T23:59:00Z"))).toMatchObject({
+      code: "WASTE.BEFORE_START",
+      field: "fullAt",
+    });
   });
 });
 
@@ -32,24 +45,37 @@ describe("haul-away", () => {
   });
   it("refuses a haul dated before the container started filling", () => {
     // Our ledger rule, not a regulatory figure: nothing leaves a container before it started filling.
-    expect(checkHaul(open, { massG: 1000, disposedAt: new Date("2026-03-01T06:29:59Z") })).toMatchObject({ code: "WASTE.BEFORE_START", field: "disposedAt" });
+    expect(checkHaul(open, { massG: 1000, disposedAt: new Date("2026-03-01T06:29:59Z") })).toMatchObject({
+      code: "WASTE.BEFORE_START",
+      field: "disposedAt",
+    });
   });
   it("refuses a container already hauled away before anything else", () => {
-    expect(checkHaul({ ...open, status: "SHIPPED", stockG: 0 }, { massG: 1000, disposedAt: at })?.code).toBe("WASTE.ALREADY_HAULED");
+    expect(checkHaul({ ...open, status: "SHIPPED", stockG: 0 }, { massG: 1000, disposedAt: at })?.code).toBe(
+      "WASTE.ALREADY_HAULED",
+    );
   });
 });
 
 describe("characterisation", () => {
   it("is refused once the container has left or before it started", () => {
     expect(checkCharacterise(open, new Date("2026-03-02T00:00:00Z"))).toBeNull();
-    expect(checkCharacterise({ ...open, status: "SHIPPED" }, new Date("2026-03-02T00:00:00Z"))?.code).toBe("WASTE.ALREADY_HAULED");
+    expect(checkCharacterise({ ...open, status: "SHIPPED" }, new Date("2026-03-02T00:00:00Z"))?.code).toBe(
+      "WASTE.ALREADY_HAULED",
+    );
     expect(checkCharacterise(open, new Date("2026-02-01T00:00:00Z"))?.field).toBe("testedAt");
   });
   it("feeds the hazard assessment: a glycerol phase flashing at 40 °C is ignitable", () => {
     // 40 CFR 261.21(a)(1): a liquid with a closed-cup flash point below 60 °C (140 °F) is ignitable
-    const none = assessWasteHazards("GLYCEROL_PHASE", characterisationOf({ methanolPct: null, pH: null, flashPointC: null, waterPct: null }));
+    const none = assessWasteHazards(
+      "GLYCEROL_PHASE",
+      characterisationOf({ methanolPct: null, pH: null, flashPointC: null, waterPct: null }),
+    );
     expect(none.overall).toBe("NEEDS_CHARACTERISATION");
-    const measured = assessWasteHazards("GLYCEROL_PHASE", characterisationOf({ methanolPct: 12, pH: 10, flashPointC: 40, waterPct: 6 }));
+    const measured = assessWasteHazards(
+      "GLYCEROL_PHASE",
+      characterisationOf({ methanolPct: 12, pH: 10, flashPointC: 40, waterPct: 6 }),
+    );
     expect(measured.ignitable.status).toBe("YES");
     expect(measured.overall).toBe("HAZARDOUS");
   });

@@ -1,5 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { computeWasteDue, findSatelliteExcessSince, getSatelliteLimitMl, listWasteDue, RULESET_US_FEDERAL_RCRA } from "@/lib/waste/waste-due";
+import {
+  computeWasteDue,
+  findSatelliteExcessSince,
+  getSatelliteLimitMl,
+  listWasteDue,
+  RULESET_US_FEDERAL_RCRA,
+} from "@/lib/waste/waste-due";
 import type { WasteContainerInput } from "@/lib/waste/waste-due";
 import { ASSUMED_WASTE_RULES, resolveWasteRules } from "@/lib/waste/site-rules";
 import { SiteWasteRulesSchema } from "@/lib/waste/site-rules.schema";
@@ -48,7 +54,12 @@ describe("the satellite area's excess date (40 CFR 262.15(a)(6): three consecuti
       characterisation: hazardous,
       ...over,
     });
-    const r = listWasteDue({ containers: [c(1), c(2)], site: { generatorCategory: "LQG", tsdfDistanceMiles: null, utcOffsetMin: 0 }, now, withinDays: 30 });
+    const r = listWasteDue({
+      containers: [c(1), c(2)],
+      site: { generatorCategory: "LQG", tsdfDistanceMiles: null, utcOffsetMin: 0 },
+      now,
+      withinDays: 30,
+    });
     expect(r.ok).toBe(true);
     const item = r.ok ? r.value.groups[0]?.items[0] : undefined;
     // 5 March 08:00 + 3 days = 8 March 08:00
@@ -76,10 +87,20 @@ describe("the site's own rule set", () => {
 
   it("changes a due date: SQG 180 days (40 CFR 262.16(b)) become the site's 90", () => {
     const start = utc("2027-01-01T00:00:00Z");
-    const container: WasteContainerInput = { id: 1, code: "D-1", stream: "METHANOL_RICH", massG: 1, volumeMl: 1, accumulationStartAt: start, characterisation: hazardous };
+    const container: WasteContainerInput = {
+      id: 1,
+      code: "D-1",
+      stream: "METHANOL_RICH",
+      massG: 1,
+      volumeMl: 1,
+      accumulationStartAt: start,
+      characterisation: hazardous,
+    };
     const site = { generatorCategory: "SQG" as const, tsdfDistanceMiles: null, utcOffsetMin: 0 };
     expect(computeWasteDue(container, site, start, false, ASSUMED_WASTE_RULES.rules).dueAt).toBe(start + 180 * DAY);
-    expect(computeWasteDue(container, site, start, false, resolveWasteRules(choice, BY).rules).dueAt).toBe(start + 90 * DAY);
+    expect(computeWasteDue(container, site, start, false, resolveWasteRules(choice, BY).rules).dueAt).toBe(
+      start + 90 * DAY,
+    );
   });
 
   it.each([

@@ -19,12 +19,32 @@ describe("ignitability D001", () => {
   it.each([
     { name: "flash point 59.9 °C → ignitable", c: { ...liquidNonAqueous, flashPointC: 59.9 }, status: "YES" }, // 40 CFR 261.21(a)(1)
     { name: "flash point 60 °C → not ignitable", c: { ...liquidNonAqueous, flashPointC: 60 }, status: "NO" }, // 40 CFR 261.21(a)(1)
-    { name: "methanol-rich liquid at methanol's flash point 11 °C → ignitable", c: { ...liquidNonAqueous, flashPointC: 11 }, status: "YES" }, // methanol flash point 11 °C closed cup (Engineering Toolbox, 40 CFR 261)
+    {
+      name: "methanol-rich liquid at methanol's flash point 11 °C → ignitable",
+      c: { ...liquidNonAqueous, flashPointC: 11 },
+      status: "YES",
+    }, // methanol flash point 11 °C closed cup (Engineering Toolbox, 40 CFR 261)
     { name: "ester-like liquid at 130 °C → not ignitable", c: { ...liquidNonAqueous, flashPointC: 130 }, status: "NO" }, // D6751 alcohol control flash point 130 °C (ASTM D6751-23a)
-    { name: "aqueous with 23.9 % alcohol by volume, flash 30 °C → excluded", c: { aqueous: true, methanolPct: 23.9, flashPointC: 30, pH: 7 }, status: "NO" }, // 40 CFR 261.21(a)(1) aqueous < 24 % alcohol exclusion
-    { name: "aqueous with 24 % alcohol by volume, flash 30 °C → ignitable", c: { aqueous: true, methanolPct: 24, flashPointC: 30, pH: 7 }, status: "YES" }, // 40 CFR 261.21(a)(1)
-    { name: "50 % water by weight counts as aqueous → excluded", c: { waterPct: 50, methanolPct: 10, flashPointC: 30, pH: 7 }, status: "NO" }, // 85 FR 40594 ≥ 50 % water by weight (from memory, unverified)
-    { name: "49.9 % water by weight is not aqueous → ignitable", c: { waterPct: 49.9, methanolPct: 10, flashPointC: 30, pH: 7 }, status: "YES" }, // 85 FR 40594 (from memory, unverified)
+    {
+      name: "aqueous with 23.9 % alcohol by volume, flash 30 °C → excluded",
+      c: { aqueous: true, methanolPct: 23.9, flashPointC: 30, pH: 7 },
+      status: "NO",
+    }, // 40 CFR 261.21(a)(1) aqueous < 24 % alcohol exclusion
+    {
+      name: "aqueous with 24 % alcohol by volume, flash 30 °C → ignitable",
+      c: { aqueous: true, methanolPct: 24, flashPointC: 30, pH: 7 },
+      status: "YES",
+    }, // 40 CFR 261.21(a)(1)
+    {
+      name: "50 % water by weight counts as aqueous → excluded",
+      c: { waterPct: 50, methanolPct: 10, flashPointC: 30, pH: 7 },
+      status: "NO",
+    }, // 85 FR 40594 ≥ 50 % water by weight (from memory, unverified)
+    {
+      name: "49.9 % water by weight is not aqueous → ignitable",
+      c: { waterPct: 49.9, methanolPct: 10, flashPointC: 30, pH: 7 },
+      status: "YES",
+    }, // 85 FR 40594 (from memory, unverified)
     { name: "no flash point → unknown", c: { ...liquidNonAqueous }, status: "UNKNOWN" },
   ])("$name", ({ c, status }) => {
     expect(assessWasteHazards("METHANOL_RICH", c).ignitable.status).toBe(status);
@@ -37,7 +57,10 @@ describe("ignitability D001", () => {
   });
 
   it("spent filter media (a solid) need the generator's 261.21(a)(2) determination", () => {
-    expect(assessWasteHazards("FILTER_MEDIA", {}).ignitable).toMatchObject({ status: "UNKNOWN", missing: ["solidIgnitable"] });
+    expect(assessWasteHazards("FILTER_MEDIA", {}).ignitable).toMatchObject({
+      status: "UNKNOWN",
+      missing: ["solidIgnitable"],
+    });
     expect(assessWasteHazards("FILTER_MEDIA", { solidIgnitable: true }).ignitable.status).toBe("YES");
   });
 });
@@ -50,15 +73,24 @@ describe("corrosivity D002", () => {
     { pH: 2, status: "YES" }, // 40 CFR 261.22(a)(1): pH ≤ 2 (from memory, unverified)
     { pH: 2.01, status: "NO" }, // 40 CFR 261.22(a)(1) (from memory, unverified)
   ])("aqueous wash water at pH $pH → $status", ({ pH, status }) => {
-    expect(assessWasteHazards("WASH_WATER", { aqueous: true, pH, methanolPct: 2, flashPointC: 90 }).corrosive.status).toBe(status);
+    expect(
+      assessWasteHazards("WASH_WATER", { aqueous: true, pH, methanolPct: 2, flashPointC: 90 }).corrosive.status,
+    ).toBe(status);
   });
 
   it("no pH → unknown", () => {
-    expect(assessWasteHazards("GLYCEROL_PHASE", { flashPointC: 90 }).corrosive).toMatchObject({ status: "UNKNOWN", missing: ["pH"] });
+    expect(assessWasteHazards("GLYCEROL_PHASE", { flashPointC: 90 }).corrosive).toMatchObject({
+      status: "UNKNOWN",
+      missing: ["pH"],
+    });
   });
 
   it("the pH limits carry their citation and status", () => {
-    expect(RULESET_US_FEDERAL_RCRA.corrosivePhAtLeast).toMatchObject({ value: 12.5, source: expect.stringContaining("261.22(a)(1)"), status: expect.stringContaining("from memory, unverified") });
+    expect(RULESET_US_FEDERAL_RCRA.corrosivePhAtLeast).toMatchObject({
+      value: 12.5,
+      source: expect.stringContaining("261.22(a)(1)"),
+      status: expect.stringContaining("from memory, unverified"),
+    });
     expect(RULESET_US_FEDERAL_RCRA.corrosivePhAtMost.value).toBe(2);
   });
 });
@@ -67,16 +99,36 @@ describe("overall hazard", () => {
   it.each([
     { name: "no characterisation at all", stream: "GLYCEROL_PHASE", c: null, overall: "NEEDS_CHARACTERISATION" },
     { name: "pH only", stream: "GLYCEROL_PHASE", c: { pH: 9 }, overall: "NEEDS_CHARACTERISATION" },
-    { name: "stream OTHER without a physical state", stream: "OTHER", c: { pH: 7, flashPointC: 100 }, overall: "NEEDS_CHARACTERISATION" },
-    { name: "fully characterised, within limits", stream: "GLYCEROL_PHASE", c: { pH: 9, flashPointC: 95, aqueous: true, methanolPct: 3 }, overall: "NON_HAZARDOUS" },
+    {
+      name: "stream OTHER without a physical state",
+      stream: "OTHER",
+      c: { pH: 7, flashPointC: 100 },
+      overall: "NEEDS_CHARACTERISATION",
+    },
+    {
+      name: "fully characterised, within limits",
+      stream: "GLYCEROL_PHASE",
+      c: { pH: 9, flashPointC: 95, aqueous: true, methanolPct: 3 },
+      overall: "NON_HAZARDOUS",
+    },
     { name: "corrosive", stream: "GLYCEROL_PHASE", c: { pH: 12.6, flashPointC: 95 }, overall: "HAZARDOUS" },
-    { name: "a listed code (discarded unused methanol U154)", stream: "METHANOL_RICH", c: { pH: 7, flashPointC: 100, aqueous: false, listedCodes: ["U154"] }, overall: "HAZARDOUS" },
-  ] as Array<{ name: string; stream: WasteStream; c: WasteCharacterisation | null; overall: string }>)("$name → $overall", ({ stream, c, overall }) => {
-    expect(assessWasteHazards(stream, c).overall).toBe(overall);
-  });
+    {
+      name: "a listed code (discarded unused methanol U154)",
+      stream: "METHANOL_RICH",
+      c: { pH: 7, flashPointC: 100, aqueous: false, listedCodes: ["U154"] },
+      overall: "HAZARDOUS",
+    },
+  ] as Array<{ name: string; stream: WasteStream; c: WasteCharacterisation | null; overall: string }>)(
+    "$name → $overall",
+    ({ stream, c, overall }) => {
+      expect(assessWasteHazards(stream, c).overall).toBe(overall);
+    },
+  );
 });
 
-const container = (over: Partial<WasteContainerInput> & { id: number; accumulationStartAt: number }): WasteContainerInput => ({
+const container = (
+  over: Partial<WasteContainerInput> & { id: number; accumulationStartAt: number },
+): WasteContainerInput => ({
   code: `W-${over.id}`,
   stream: "GLYCEROL_PHASE",
   massG: 200_000,
@@ -85,23 +137,70 @@ const container = (over: Partial<WasteContainerInput> & { id: number; accumulati
   ...over,
 });
 
-const site = (over: Partial<WasteSite> = {}): WasteSite => ({ generatorCategory: "LQG", tsdfDistanceMiles: null, utcOffsetMin: 0, ...over });
+const site = (over: Partial<WasteSite> = {}): WasteSite => ({
+  generatorCategory: "LQG",
+  tsdfDistanceMiles: null,
+  utcOffsetMin: 0,
+  ...over,
+});
 const NOW = utc("2027-01-01T00:00:00Z");
 
 describe("due dates", () => {
   it.each([
     // Dec 15 + 16 d = Dec 31; +31 = Jan 31 (47); +29 = Feb 29 (76, 2028 is a leap year); +14 = Mar 14 (90)
-    { name: "LQG 90 days over a leap day", s: site(), start: "2027-12-15T08:00:00Z", due: "2028-03-14T08:00:00Z", basis: "LQG_ACCUMULATION", days: 90 }, // 40 CFR 262.17(a)
+    {
+      name: "LQG 90 days over a leap day",
+      s: site(),
+      start: "2027-12-15T08:00:00Z",
+      due: "2028-03-14T08:00:00Z",
+      basis: "LQG_ACCUMULATION",
+      days: 90,
+    }, // 40 CFR 262.17(a)
     // Sep 1 → Sep 30 (29), Oct 31 (60), Nov 30 (90), Dec 31 (121), Jan 31 (152), Feb 28 (180)
-    { name: "SQG 180 days across month ends", s: site({ generatorCategory: "SQG" }), start: "2027-09-01T08:00:00Z", due: "2028-02-28T08:00:00Z", basis: "SQG_ACCUMULATION", days: 180 }, // 40 CFR 262.16(b)
+    {
+      name: "SQG 180 days across month ends",
+      s: site({ generatorCategory: "SQG" }),
+      start: "2027-09-01T08:00:00Z",
+      due: "2028-02-28T08:00:00Z",
+      basis: "SQG_ACCUMULATION",
+      days: 180,
+    }, // 40 CFR 262.16(b)
     // Dec 1 → Dec 31 (30), Jan 31 (61), Feb 29 (90), Mar 31 (121), Apr 30 (151), May 29 (180)
-    { name: "SQG 180 days containing 29 Feb", s: site({ generatorCategory: "SQG" }), start: "2027-12-01T08:00:00Z", due: "2028-05-29T08:00:00Z", basis: "SQG_ACCUMULATION", days: 180 }, // 40 CFR 262.16(b)
+    {
+      name: "SQG 180 days containing 29 Feb",
+      s: site({ generatorCategory: "SQG" }),
+      start: "2027-12-01T08:00:00Z",
+      due: "2028-05-29T08:00:00Z",
+      basis: "SQG_ACCUMULATION",
+      days: 180,
+    }, // 40 CFR 262.16(b)
     // Dec 1 → Dec 31 (30), Jan 31 (61), Feb 28 (89), Mar 31 (120), Apr 30 (150), May 30 (180)
-    { name: "SQG 180 days without a leap day", s: site({ generatorCategory: "SQG" }), start: "2026-12-01T08:00:00Z", due: "2027-05-30T08:00:00Z", basis: "SQG_ACCUMULATION", days: 180 }, // 40 CFR 262.16(b)
+    {
+      name: "SQG 180 days without a leap day",
+      s: site({ generatorCategory: "SQG" }),
+      start: "2026-12-01T08:00:00Z",
+      due: "2027-05-30T08:00:00Z",
+      basis: "SQG_ACCUMULATION",
+      days: 180,
+    }, // 40 CFR 262.16(b)
     // Jun 15 → Jun 30 (15), Jul 31 (46), Aug 31 (77), Sep 30 (107), Oct 31 (138), Nov 30 (168), Dec 31 (199), Jan 31 (230), Feb 29 (259), Mar 11 (270)
-    { name: "SQG 270 days at exactly 200 miles", s: site({ generatorCategory: "SQG", tsdfDistanceMiles: 200 }), start: "2027-06-15T08:00:00Z", due: "2028-03-11T08:00:00Z", basis: "SQG_LONG_HAUL_ACCUMULATION", days: 270 }, // 40 CFR 262.16 (270 d, ≥ 200 miles; former §262.34(e)/(f))
+    {
+      name: "SQG 270 days at exactly 200 miles",
+      s: site({ generatorCategory: "SQG", tsdfDistanceMiles: 200 }),
+      start: "2027-06-15T08:00:00Z",
+      due: "2028-03-11T08:00:00Z",
+      basis: "SQG_LONG_HAUL_ACCUMULATION",
+      days: 270,
+    }, // 40 CFR 262.16 (270 d, ≥ 200 miles; former §262.34(e)/(f))
     // Jun 15 → … Nov 30 (168), Dec 12 (180)
-    { name: "SQG 180 days at 199.9 miles", s: site({ generatorCategory: "SQG", tsdfDistanceMiles: 199.9 }), start: "2027-06-15T08:00:00Z", due: "2027-12-12T08:00:00Z", basis: "SQG_ACCUMULATION", days: 180 }, // 40 CFR 262.16(b)
+    {
+      name: "SQG 180 days at 199.9 miles",
+      s: site({ generatorCategory: "SQG", tsdfDistanceMiles: 199.9 }),
+      start: "2027-06-15T08:00:00Z",
+      due: "2027-12-12T08:00:00Z",
+      basis: "SQG_ACCUMULATION",
+      days: 180,
+    }, // 40 CFR 262.16(b)
   ])("$name", ({ s, start, due, basis, days }) => {
     const d = computeWasteDue(container({ id: 1, accumulationStartAt: utc(start) }), s, NOW, false);
     expect(d.dueAt).toBe(utc(due));
@@ -112,17 +211,32 @@ describe("due dates", () => {
 
   it("the due date is the site's local calendar date", () => {
     // 2028-03-14T02:00Z is 13 March 21:00 at UTC−05:00
-    const d = computeWasteDue(container({ id: 1, accumulationStartAt: utc("2027-12-15T02:00:00Z") }), site({ utcOffsetMin: -300 }), NOW, false);
+    const d = computeWasteDue(
+      container({ id: 1, accumulationStartAt: utc("2027-12-15T02:00:00Z") }),
+      site({ utcOffsetMin: -300 }),
+      NOW,
+      false,
+    );
     expect(d.dueDate).toBe("2028-03-13");
   });
 
   it("VSQG hazardous waste has no federal time limit", () => {
-    const d = computeWasteDue(container({ id: 1, accumulationStartAt: utc("2027-01-01T00:00:00Z") }), site({ generatorCategory: "VSQG" }), NOW, false);
+    const d = computeWasteDue(
+      container({ id: 1, accumulationStartAt: utc("2027-01-01T00:00:00Z") }),
+      site({ generatorCategory: "VSQG" }),
+      NOW,
+      false,
+    );
     expect(d).toMatchObject({ basis: "VSQG_NO_TIME_LIMIT", dueAt: null, dueDate: null });
   });
 
   it("uncharacterised waste gets the hazardous-waste clock, not the site rule", () => {
-    const d = computeWasteDue(container({ id: 1, accumulationStartAt: utc("2027-12-15T08:00:00Z"), characterisation: null }), site(), NOW, false);
+    const d = computeWasteDue(
+      container({ id: 1, accumulationStartAt: utc("2027-12-15T08:00:00Z"), characterisation: null }),
+      site(),
+      NOW,
+      false,
+    );
     expect(d.hazard.overall).toBe("NEEDS_CHARACTERISATION");
     expect(d.dueAt).toBe(utc("2028-03-14T08:00:00Z"));
   });
@@ -130,7 +244,11 @@ describe("due dates", () => {
   it("non-hazardous streams fall due under the site's own rule (no federal limit; 90 days by default)", () => {
     // Jan 1 → Jan 31 (30), Feb 28 (58), Mar 31 (89), Apr 1 (90)
     const d = computeWasteDue(
-      container({ id: 1, accumulationStartAt: utc("2026-01-01T10:00:00Z"), characterisation: { pH: 9, flashPointC: 95, aqueous: true, methanolPct: 3 } }),
+      container({
+        id: 1,
+        accumulationStartAt: utc("2026-01-01T10:00:00Z"),
+        characterisation: { pH: 9, flashPointC: 95, aqueous: true, methanolPct: 3 },
+      }),
       site(),
       NOW,
       false,
@@ -146,7 +264,9 @@ describe("due dates", () => {
     expect(RULESET_US_FEDERAL_RCRA.sqgMaxDays).toMatchObject({ value: 180, source: "40 CFR 262.16(b)" });
     expect(RULESET_US_FEDERAL_RCRA.sqgMaxOnSiteKg).toMatchObject({ value: 6000, source: "40 CFR 262.16(b)(1)" });
     expect(RULESET_US_FEDERAL_RCRA.vsqgMaxOnSiteKg).toMatchObject({ value: 1000, source: "40 CFR 262.14" });
-    expect(RULESET_US_FEDERAL_RCRA.localRulesNote).toBe("Local and state rules may be stricter and govern; confirm with your regulator and licensed hauler.");
+    expect(RULESET_US_FEDERAL_RCRA.localRulesNote).toBe(
+      "Local and state rules may be stricter and govern; confirm with your regulator and licensed hauler.",
+    );
   });
 });
 
@@ -157,7 +277,13 @@ describe("satellite accumulation", () => {
   });
 
   const area = (volumeMl: number, excessSince: number | null = null) => [
-    container({ id: 1, accumulationStartAt: utc("2027-06-01T00:00:00Z"), satelliteAreaId: "SAA-1", volumeMl: volumeMl - 100_000, satelliteExcessSinceAt: excessSince }),
+    container({
+      id: 1,
+      accumulationStartAt: utc("2027-06-01T00:00:00Z"),
+      satelliteAreaId: "SAA-1",
+      volumeMl: volumeMl - 100_000,
+      satelliteExcessSinceAt: excessSince,
+    }),
     container({ id: 2, accumulationStartAt: utc("2027-06-01T00:00:00Z"), satelliteAreaId: "SAA-1", volumeMl: 100_000 }),
   ];
 
@@ -185,7 +311,12 @@ describe("satellite accumulation", () => {
 
   it("a VSQG's satellite containers have no time limit and no satellite-limit warning", () => {
     // 40 CFR 262.15 applies to SQGs and LQGs (from memory, unverified)
-    const r = listWasteDue({ containers: area(208_198), site: site({ generatorCategory: "VSQG" }), now: NOW, withinDays: 30 });
+    const r = listWasteDue({
+      containers: area(208_198),
+      site: site({ generatorCategory: "VSQG" }),
+      now: NOW,
+      withinDays: 30,
+    });
     expect(r.ok && r.value.issues.map((i) => i.code)).toEqual([]);
     expect(r.ok && r.value.noTimeLimit.map((d) => d.basis)).toEqual(["VSQG_NO_TIME_LIMIT", "VSQG_NO_TIME_LIMIT"]);
   });
@@ -193,7 +324,12 @@ describe("satellite accumulation", () => {
   it("a dated excess is due 3 consecutive calendar days later, over 29 February", () => {
     // 40 CFR 262.15(a), three consecutive calendar days (EPA RCRA Online 14703): 27 Feb 2028 10:00 → 1 Mar 2028 10:00
     const d = computeWasteDue(area(208_198, utc("2028-02-27T10:00:00Z"))[0] as WasteContainerInput, site(), NOW, true);
-    expect(d).toMatchObject({ basis: "SATELLITE_EXCESS", dueAt: utc("2028-03-01T10:00:00Z"), dueDate: "2028-03-01", limitDays: 3 });
+    expect(d).toMatchObject({
+      basis: "SATELLITE_EXCESS",
+      dueAt: utc("2028-03-01T10:00:00Z"),
+      dueDate: "2028-03-01",
+      limitDays: 3,
+    });
   });
 });
 
@@ -206,7 +342,12 @@ describe("on-site quantity caps", () => {
     { category: "SQG", massG: 6_000_001, flagged: true }, // 40 CFR 262.16(b)(1)
     { category: "LQG", massG: 50_000_000, flagged: false }, // no federal on-site cap for LQGs
   ] as const)("$category with $massG g on site → flagged: $flagged", ({ category, massG, flagged }) => {
-    const r = listWasteDue({ containers: oneContainer(massG), site: site({ generatorCategory: category }), now: NOW, withinDays: 30 });
+    const r = listWasteDue({
+      containers: oneContainer(massG),
+      site: site({ generatorCategory: category }),
+      now: NOW,
+      withinDays: 30,
+    });
     expect(r.ok).toBe(true);
     if (!r.ok) return;
     expect(r.value.issues.some((i) => i.code.endsWith("_ON_SITE_CAP_EXCEEDED"))).toBe(flagged);
@@ -217,11 +358,36 @@ describe("listWasteDue — the hauler list", () => {
   const now = utc("2028-03-01T12:00:00Z");
   const containers: WasteContainerInput[] = [
     // LQG, 90 days: due = start + 90 d
-    container({ id: 1, code: "G-1", accumulationStartAt: utc("2027-11-22T12:00:00Z"), massG: 200_000, volumeMl: 210_000 }), // due 2028-02-20 12:00, overdue
-    container({ id: 2, code: "G-2", accumulationStartAt: utc("2027-12-11T12:00:00Z"), massG: 150_000, volumeMl: 160_000 }), // due 2028-03-10 12:00
+    container({
+      id: 1,
+      code: "G-1",
+      accumulationStartAt: utc("2027-11-22T12:00:00Z"),
+      massG: 200_000,
+      volumeMl: 210_000,
+    }), // due 2028-02-20 12:00, overdue
+    container({
+      id: 2,
+      code: "G-2",
+      accumulationStartAt: utc("2027-12-11T12:00:00Z"),
+      massG: 150_000,
+      volumeMl: 160_000,
+    }), // due 2028-03-10 12:00
     container({ id: 3, code: "G-3", accumulationStartAt: utc("2028-01-21T12:00:00Z") }), // due 2028-04-20, beyond 14 days
-    container({ id: 4, code: "W-1", stream: "WASH_WATER", accumulationStartAt: utc("2027-12-06T12:00:00Z"), massG: 500_000, volumeMl: 500_000 }), // due 2028-03-05 12:00
-    container({ id: 5, code: "M-1", stream: "METHANOL_RICH", accumulationStartAt: utc("2027-12-15T12:00:00Z"), characterisation: { flashPointC: 11, aqueous: false, pH: 7 } }), // due 2028-03-14 12:00
+    container({
+      id: 4,
+      code: "W-1",
+      stream: "WASH_WATER",
+      accumulationStartAt: utc("2027-12-06T12:00:00Z"),
+      massG: 500_000,
+      volumeMl: 500_000,
+    }), // due 2028-03-05 12:00
+    container({
+      id: 5,
+      code: "M-1",
+      stream: "METHANOL_RICH",
+      accumulationStartAt: utc("2027-12-15T12:00:00Z"),
+      characterisation: { flashPointC: 11, aqueous: false, pH: 7 },
+    }), // due 2028-03-14 12:00
   ];
   const r = listWasteDue({ containers, site: site(), now, withinDays: 14 });
 
@@ -258,14 +424,29 @@ describe("listWasteDue — the hauler list", () => {
   });
 
   it("warns about containers that still need characterisation", () => {
-    const u = listWasteDue({ containers: [container({ id: 9, code: "U-1", accumulationStartAt: now, characterisation: { pH: 8 } })], site: site(), now, withinDays: 1 });
-    expect(u.ok && u.value.issues).toEqual([expect.objectContaining({ code: "WASTE.NEEDS_CHARACTERISATION", field: "containers.0.characterisation" })]);
+    const u = listWasteDue({
+      containers: [container({ id: 9, code: "U-1", accumulationStartAt: now, characterisation: { pH: 8 } })],
+      site: site(),
+      now,
+      withinDays: 1,
+    });
+    expect(u.ok && u.value.issues).toEqual([
+      expect.objectContaining({ code: "WASTE.NEEDS_CHARACTERISATION", field: "containers.0.characterisation" }),
+    ]);
   });
 
   it.each([
     { name: "negative horizon", patch: { withinDays: -1 }, code: "WASTE.INVALID_HORIZON" },
-    { name: "pH above 14", patch: { containers: [container({ id: 1, accumulationStartAt: now, characterisation: { pH: 14.1 } })] }, code: "WASTE.INVALID_PH" },
-    { name: "fractional grams", patch: { containers: [container({ id: 1, accumulationStartAt: now, massG: 1.5 })] }, code: "WASTE.INVALID_MASS" },
+    {
+      name: "pH above 14",
+      patch: { containers: [container({ id: 1, accumulationStartAt: now, characterisation: { pH: 14.1 } })] },
+      code: "WASTE.INVALID_PH",
+    },
+    {
+      name: "fractional grams",
+      patch: { containers: [container({ id: 1, accumulationStartAt: now, massG: 1.5 })] },
+      code: "WASTE.INVALID_MASS",
+    },
   ])("refuses $name", ({ patch, code }) => {
     const bad = listWasteDue({ containers, site: site(), now, withinDays: 14, ...patch });
     expect(bad.ok).toBe(false);

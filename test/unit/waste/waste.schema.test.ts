@@ -13,7 +13,9 @@ import {
 
 describe("WasteCharacterisationSchema limits", () => {
   it("exports the limits it checks", () => {
-    expect([MIN_PH, MAX_PH, MIN_METHANOL_PCT, MAX_METHANOL_PCT, MIN_FLASH_POINT_C, MAX_FLASH_POINT_C]).toEqual([0, 14, 0, 100, -50, 300]);
+    expect([MIN_PH, MAX_PH, MIN_METHANOL_PCT, MAX_METHANOL_PCT, MIN_FLASH_POINT_C, MAX_FLASH_POINT_C]).toEqual([
+      0, 14, 0, 100, -50, 300,
+    ]);
   });
 
   it.each([
@@ -54,13 +56,25 @@ describe("WasteCharacterisationSchema limits", () => {
 
 describe("WasteDueContainerSchema and WasteSiteSettingsSchema", () => {
   it("parses a container with defaults", () => {
-    const c = WasteDueContainerSchema.parse({ code: "gp-01", stream: "GLYCEROL_PHASE", massKg: 180, volumeL: 190, accumulationStart: "2026-03-01T08:00:00Z" });
+    const c = WasteDueContainerSchema.parse({
+      code: "gp-01",
+      stream: "GLYCEROL_PHASE",
+      massKg: 180,
+      volumeL: 190,
+      accumulationStart: "2026-03-01T08:00:00Z",
+    });
     expect(c).toMatchObject({ code: "GP-01", satelliteAreaCode: null, characterisation: null });
     expect(c.accumulationStart.getTime()).toBe(Date.parse("2026-03-01T08:00:00Z"));
   });
 
   it("names the stream in its message", () => {
-    const r = WasteDueContainerSchema.safeParse({ code: "X", stream: "SLUDGE", massKg: 1, volumeL: 1, accumulationStart: "2026-03-01" });
+    const r = WasteDueContainerSchema.safeParse({
+      code: "X",
+      stream: "SLUDGE",
+      massKg: 1,
+      volumeL: 1,
+      accumulationStart: "2026-03-01",
+    });
     expect(r.error?.issues[0]?.message).toContain("Waste stream must be one of");
   });
 

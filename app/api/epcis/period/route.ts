@@ -20,5 +20,10 @@ export const GET = handled("GET /api/epcis/period", async (request: Request): Pr
   const site = await getSiteById(db, who.value.siteId);
   if (!site) return respond(fail("RECORD.NOT_FOUND", "Your site is not set up"));
   const query = Object.fromEntries(new URL(request.url).searchParams);
-  return answerEpcis(await epcisForPeriod(db, site, query, who.value.now, { baseUri: await requestOrigin(), withCustomers: canRead(who.value.role, "/customers") }));
+  return answerEpcis(
+    await epcisForPeriod(db, site, query, who.value.now, {
+      baseUri: await requestOrigin(),
+      withCustomers: canRead(who.value.role, "/customers"),
+    }),
+  );
 });

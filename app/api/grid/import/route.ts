@@ -19,7 +19,10 @@ export const POST = handled("POST /api/grid/import", async (request: Request): P
   const body = await readJson(request, 2 * MAX_IMPORT_BYTES + MAX_JSON_BYTES);
   if (!body.ok) return respond(body);
   const db = await getDb();
-  const isPreview = typeof body.value === "object" && body.value !== null && (body.value as { dryRun?: unknown }).dryRun === true;
+  const isPreview =
+    typeof body.value === "object" && body.value !== null && (body.value as { dryRun?: unknown }).dryRun === true;
   if (isPreview) return respond(await importGridFile(db, who.value, body.value));
-  return respond(await idempotent(request, who.value.userId, body.value, async () => importGridFile(db, who.value, body.value)));
+  return respond(
+    await idempotent(request, who.value.userId, body.value, async () => importGridFile(db, who.value, body.value)),
+  );
 });

@@ -17,7 +17,10 @@ export const POST = handled("POST /api/grid/save", async (request: Request): Pro
   const body = await readJson(request, MAX_BULK_JSON_BYTES);
   if (!body.ok) return respond(body);
   const db = await getDb();
-  const isPreview = typeof body.value === "object" && body.value !== null && (body.value as { dryRun?: unknown }).dryRun === true;
+  const isPreview =
+    typeof body.value === "object" && body.value !== null && (body.value as { dryRun?: unknown }).dryRun === true;
   if (isPreview) return respond(await saveGridRows(db, who.value, body.value));
-  return respond(await idempotent(request, who.value.userId, body.value, async () => saveGridRows(db, who.value, body.value)));
+  return respond(
+    await idempotent(request, who.value.userId, body.value, async () => saveGridRows(db, who.value, body.value)),
+  );
 });

@@ -14,5 +14,9 @@ export const POST = handled("POST /api/pickups/import", async (request: Request)
   const body = await readJson(request, MAX_BULK_JSON_BYTES);
   if (!body.ok) return respond(body);
   const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
-  return respond(await idempotent(request, who.value.userId, body.value, async () => importPickups(await getDb(), actor, body.value)));
+  return respond(
+    await idempotent(request, who.value.userId, body.value, async () =>
+      importPickups(await getDb(), actor, body.value),
+    ),
+  );
 });

@@ -14,5 +14,7 @@ export const GET = handled("GET /api/trace/backward", async (request: Request): 
   if (!who.ok) return respond(who);
   const query = Object.fromEntries(new URL(request.url).searchParams);
   const db = await getDb();
-  return respondAtPosition(request, db, who.value, () => traceBackwardReport(db, who.value.siteId, query, who.value.now));
+  return respondAtPosition(request, db, who.value, () =>
+    traceBackwardReport(db, who.value.siteId, query, who.value.now),
+  );
 });

@@ -15,5 +15,9 @@ export const GET = handled("GET /api/trace/forward", async (request: Request): P
   if (!who.ok) return respond(who);
   const query = Object.fromEntries(new URL(request.url).searchParams);
   const db = await getDb();
-  return respondAtPosition(request, db, who.value, () => traceForwardReport(db, who.value.siteId, query, who.value.now, { withCustomers: canRead(who.value.role, "/customers") }));
+  return respondAtPosition(request, db, who.value, () =>
+    traceForwardReport(db, who.value.siteId, query, who.value.now, {
+      withCustomers: canRead(who.value.role, "/customers"),
+    }),
+  );
 });

@@ -17,5 +17,7 @@ export const GET = handled("GET /api/waste/due", async (request: Request): Promi
   const db = await getDb();
   const site = await getSiteById(db, who.value.siteId);
   if (!site) return respond(fail("RECORD.NOT_FOUND", "Your site is not set up"));
-  return respondAtPosition(request, db, who.value, () => getWasteDueReport(db, site, Object.fromEntries(new URL(request.url).searchParams), who.value.now));
+  return respondAtPosition(request, db, who.value, () =>
+    getWasteDueReport(db, site, Object.fromEntries(new URL(request.url).searchParams), who.value.now),
+  );
 });

@@ -8,7 +8,11 @@ import { readText, refused, toNumber } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 
 /** Rows named "<list>.<i>.<field>" → objects in row order; rows left wholly empty are dropped. */
-function readRows(form: FormData, list: string, fields: readonly string[]): { rows: Array<Record<string, string>>; values: Record<string, string> } {
+function readRows(
+  form: FormData,
+  list: string,
+  fields: readonly string[],
+): { rows: Array<Record<string, string>>; values: Record<string, string> } {
   const byIndex = new Map<number, Record<string, string>>();
   const values: Record<string, string> = {};
   for (const [key, raw] of form.entries()) {
@@ -46,7 +50,9 @@ function keptIndices(form: FormData, list: string, fields: readonly string[]): {
   const kept = sorted.filter((i) => {
     const mass = form.get(`${list}.${i}.massKg`);
     const codeField = form.get(`${list}.${i}.${list === "charges" ? "fromCode" : "toCode"}`);
-    return (typeof mass === "string" && mass.trim() !== "") || (typeof codeField === "string" && codeField.trim() !== "");
+    return (
+      (typeof mass === "string" && mass.trim() !== "") || (typeof codeField === "string" && codeField.trim() !== "")
+    );
   });
   return { known: [list, ...sorted.flatMap((i) => fields.map((f) => `${list}.${i}.${f}`))], kept };
 }
@@ -60,16 +66,31 @@ export async function startBatchAction(prev: FormState, form: FormData): Promise
   const { known, kept } = keptIndices(form, "charges", CHARGE_FIELDS);
   const who = await requireRole(["PRODUCTION"]);
   if (!who.ok) return refused(prev, values, who.issues, known);
-  const result = await startBatch(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, {
-    batchCode,
-    startedAt: who.value.now,
-    charges: rows.map((r) => ({ fromKind: r.fromKind || undefined, fromCode: r.fromCode ?? "", role: r.role || undefined, massKg: toNumber(r.massKg ?? "") })),
-  });
+  const result = await startBatch(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    {
+      batchCode,
+      startedAt: who.value.now,
+      charges: rows.map((r) => ({
+        fromKind: r.fromKind || undefined,
+        fromCode: r.fromCode ?? "",
+        role: r.role || undefined,
+        massKg: toNumber(r.massKg ?? ""),
+      })),
+    },
+  );
   if (!result.ok) return refused(prev, values, result.issues, known, rowFieldMapper("charges", kept));
   revalidatePath(`/batches/${encodeURIComponent(batchCode)}`);
   revalidatePath(`/batches/${encodeURIComponent(batchCode)}/record`);
   revalidatePath("/batches");
-  return { status: "saved", message: `Batch ${result.value.code} started: ${(result.value.chargedG / 1000).toFixed(3)} kg charged.`, values, errors: {}, seq: prev.seq + 1 };
+  return {
+    status: "saved",
+    message: `Batch ${result.value.code} started: ${(result.value.chargedG / 1000).toFixed(3)} kg charged.`,
+    values,
+    errors: {},
+    seq: prev.seq + 1,
+  };
 }
 
 export async function completeBatchAction(prev: FormState, form: FormData): Promise<FormState> {
@@ -78,17 +99,26 @@ export async function completeBatchAction(prev: FormState, form: FormData): Prom
   const { known, kept } = keptIndices(form, "outputs", OUTPUT_FIELDS);
   const who = await requireRole(["PRODUCTION"]);
   if (!who.ok) return refused(prev, values, who.issues, known);
-  const result = await completeBatch(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, {
-    batchCode,
-    completedAt: who.value.now,
-    outputs: rows.map((r) => ({
-      role: r.role || undefined,
-      ...(r.role === "LOSS" || !r.toCode ? {} : { toCode: r.toCode, toKind: r.toKind || undefined }),
-      massKg: toNumber(r.massKg ?? ""),
-      ...(r.role === "LOSS" ? { reason: r.reason ?? "" } : {}),
-      ...(r.role === "WASH_WATER" && (r.waterFromCode || r.waterKg) ? { ...(r.waterFromCode ? { waterFromCode: r.waterFromCode } : {}), ...(r.waterKg ? { waterKg: toNumber(r.waterKg) } : {}) } : {}),
-    })),
-  });
+  const result = await completeBatch(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    {
+      batchCode,
+      completedAt: who.value.now,
+      outputs: rows.map((r) => ({
+        role: r.role || undefined,
+        ...(r.role === "LOSS" || !r.toCode ? {} : { toCode: r.toCode, toKind: r.toKind || undefined }),
+        massKg: toNumber(r.massKg ?? ""),
+        ...(r.role === "LOSS" ? { reason: r.reason ?? "" } : {}),
+        ...(r.role === "WASH_WATER" && (r.waterFromCode || r.waterKg)
+          ? {
+              ...(r.waterFromCode ? { waterFromCode: r.waterFromCode } : {}),
+              ...(r.waterKg ? { waterKg: toNumber(r.waterKg) } : {}),
+            }
+          : {}),
+      })),
+    },
+  );
   if (!result.ok) return refused(prev, values, result.issues, known, rowFieldMapper("outputs", kept));
   revalidatePath(`/batches/${encodeURIComponent(batchCode)}`);
   revalidatePath(`/batches/${encodeURIComponent(batchCode)}/record`);
@@ -101,18 +131,36 @@ const CORRECTION_FIELDS = ["movementId", "massKg", "reason"] as const;
 
 /** A finished batch's output typed wrong: booked again with the right mass and a reason; its unmeasured difference follows. */
 export async function correctBatchOutputAction(prev: FormState, form: FormData): Promise<FormState> {
-  const values = { batchCode: readText(form, "batchCode"), movementId: readText(form, "movementId"), massKg: readText(form, "massKg"), reason: readText(form, "reason") };
+  const values = {
+    batchCode: readText(form, "batchCode"),
+    movementId: readText(form, "movementId"),
+    massKg: readText(form, "massKg"),
+    reason: readText(form, "reason"),
+  };
   const who = await requireRole(["PRODUCTION"]);
   if (!who.ok) return refused(prev, values, who.issues, CORRECTION_FIELDS);
-  const result = await correctBatchOutput(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now }, {
-    batchCode: values.batchCode,
-    movementId: toNumber(values.movementId),
-    massKg: toNumber(values.massKg),
-    reason: values.reason,
-  });
+  const result = await correctBatchOutput(
+    await getDb(),
+    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
+    {
+      batchCode: values.batchCode,
+      movementId: toNumber(values.movementId),
+      massKg: toNumber(values.massKg),
+      reason: values.reason,
+    },
+  );
   if (!result.ok) return refused(prev, values, result.issues, CORRECTION_FIELDS);
   revalidatePath(`/batches/${encodeURIComponent(values.batchCode)}`);
   revalidatePath("/balance");
-  const kgText = (result.value.unmeasuredG / 1000).toLocaleString("en", { minimumFractionDigits: 3, maximumFractionDigits: 3 });
-  return { status: "saved", message: `Output corrected; the batch's unmeasured difference is now ${kgText} kg.`, values: {}, errors: {}, seq: prev.seq + 1 };
+  const kgText = (result.value.unmeasuredG / 1000).toLocaleString("en", {
+    minimumFractionDigits: 3,
+    maximumFractionDigits: 3,
+  });
+  return {
+    status: "saved",
+    message: `Output corrected; the batch's unmeasured difference is now ${kgText} kg.`,
+    values: {},
+    errors: {},
+    seq: prev.seq + 1,
+  };
 }

@@ -53,14 +53,20 @@ export default async function RecordBatchPage({ params }: Props) {
   if (b.status === "PLANNED") {
     const reagents = await listReagentStock(db, site.id);
     const suggested = planned ? suggestCharges(planned, reagents) : { rows: [], notices: [] };
-    const initial: ChargeRow[] = suggested.rows.map((r) => ({ fromKind: r.fromKind, fromCode: r.fromCode, role: r.role, massKg: fixed(r.massKg) }));
+    const initial: ChargeRow[] = suggested.rows.map((r) => ({
+      fromKind: r.fromKind,
+      fromCode: r.fromCode,
+      role: r.role,
+      massKg: fixed(r.massKg),
+    }));
     return (
       <>
         {back}
         <h1>Start batch {b.code}</h1>
         <p className="lede">
-          Record what actually goes into the reactor. The rows are filled from the plan{planned?.basis === "legacy" ? " (its stored figures)" : ""} and the reagent lots in stock,
-          oldest first: change them to what was weighed. Each draw is checked against what its lot, tank or reagent lot holds.
+          Record what actually goes into the reactor. The rows are filled from the plan
+          {planned?.basis === "legacy" ? " (its stored figures)" : ""} and the reagent lots in stock, oldest first:
+          change them to what was weighed. Each draw is checked against what its lot, tank or reagent lot holds.
         </p>
         {suggested.notices.map((s) => (
           <p key={s} className="warning">
@@ -94,8 +100,20 @@ export default async function RecordBatchPage({ params }: Props) {
     const tolerance = DEFAULT_CLOSURE_TOLERANCE;
     const initial: OutputRow[] = [
       { role: "ESTER", toKind: "PRODUCT_LOT", toCode: `P-${suffix}`, massKg: "" },
-      { role: "GLYCEROL_PHASE", toKind: "WASTE_CONTAINER", toCode: firstOf("WASTE_CONTAINER", "GLYCEROL_PHASE"), massKg: "" },
-      { role: "WASH_WATER", toKind: "WASTE_CONTAINER", toCode: firstOf("WASTE_CONTAINER", "WASH_WATER"), massKg: "", waterFromCode: waterKg > 0 ? (waterLot?.code ?? "") : "", waterKg: waterKg > 0 ? fixed(waterKg) : "" },
+      {
+        role: "GLYCEROL_PHASE",
+        toKind: "WASTE_CONTAINER",
+        toCode: firstOf("WASTE_CONTAINER", "GLYCEROL_PHASE"),
+        massKg: "",
+      },
+      {
+        role: "WASH_WATER",
+        toKind: "WASTE_CONTAINER",
+        toCode: firstOf("WASTE_CONTAINER", "WASH_WATER"),
+        massKg: "",
+        waterFromCode: waterKg > 0 ? (waterLot?.code ?? "") : "",
+        waterKg: waterKg > 0 ? fixed(waterKg) : "",
+      },
       { role: "RECOVERED_METHANOL", toKind: "TANK", toCode: firstOf("TANK", "METHANOL"), massKg: "" },
       { role: "LOSS", toKind: "", toCode: "", massKg: "", reason: "" },
     ];
@@ -104,21 +122,25 @@ export default async function RecordBatchPage({ params }: Props) {
         {back}
         <h1>Finish batch {b.code}</h1>
         <p className="lede">
-          Record what you weighed or gauged out of the {kg(chargedG, 3)} charged. Whatever no measurement finds is booked for you as the batch&apos;s unmeasured difference
-          and flagged when it is above the site&apos;s tolerance — do not type it as a loss. Record a loss only for something that really happened (a spill, a leak) and say
-          what. Water used for washing comes from a water lot and goes with the wash water; it is never part of the product.
+          Record what you weighed or gauged out of the {kg(chargedG, 3)} charged. Whatever no measurement finds is
+          booked for you as the batch&apos;s unmeasured difference and flagged when it is above the site&apos;s
+          tolerance — do not type it as a loss. Record a loss only for something that really happened (a spill, a leak)
+          and say what. Water used for washing comes from a water lot and goes with the wash water; it is never part of
+          the product.
         </p>
         {planned ? (
           <Note>
-            Expected at full conversion: ester {num(planned.expectedEsterKg, 1)} kg, glycerol (pure) {num(planned.expectedGlycerolKg, 1)} kg; the glycerol phase also carries
-            methanol, soap and catalyst.
+            Expected at full conversion: ester {num(planned.expectedEsterKg, 1)} kg, glycerol (pure){" "}
+            {num(planned.expectedGlycerolKg, 1)} kg; the glycerol phase also carries methanol, soap and catalyst.
           </Note>
         ) : null}
         <aside className="cautions" aria-label="Cautions">
           <p className="cautions-title">Cautions</p>
           <ul>
             {cautions
-              .filter((c) => c.step === "GLYCEROL" || c.step === "METHANOL" || c.step === "HOT_OIL" || c.step === "GENERAL")
+              .filter(
+                (c) => c.step === "GLYCEROL" || c.step === "METHANOL" || c.step === "HOT_OIL" || c.step === "GENERAL",
+              )
               .map((c) => (
                 <li key={c.step}>{c.text}</li>
               ))}
@@ -126,7 +148,8 @@ export default async function RecordBatchPage({ params }: Props) {
         </aside>
         <FinishForm batchCode={b.code} chargedKg={chargedG / 1000} warnPct={tolerance.warnPct} initial={initial} />
         <Note>
-          Closure tolerance: warn above {num(tolerance.warnPct, 2)} %, fail above {num(tolerance.failPct, 2)} % of the charge ({tolerance.source}).
+          Closure tolerance: warn above {num(tolerance.warnPct, 2)} %, fail above {num(tolerance.failPct, 2)} % of the
+          charge ({tolerance.source}).
         </Note>
       </>
     );

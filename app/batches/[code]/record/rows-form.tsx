@@ -52,8 +52,14 @@ function sumKg(rows: readonly RowValues[], key = "massKg"): number {
 }
 
 const CHARGE_COLUMNS: readonly RowColumn[] = [
-  { header: "Charge", fields: [{ key: "role", kind: "select", options: CHARGE_ROLES, label: (i) => `Charge ${i + 1}` }] },
-  { header: "Drawn from", fields: [{ key: "fromKind", kind: "select", options: FROM_KINDS, label: (i) => `Drawn from, row ${i + 1}` }] },
+  {
+    header: "Charge",
+    fields: [{ key: "role", kind: "select", options: CHARGE_ROLES, label: (i) => `Charge ${i + 1}` }],
+  },
+  {
+    header: "Drawn from",
+    fields: [{ key: "fromKind", kind: "select", options: FROM_KINDS, label: (i) => `Drawn from, row ${i + 1}` }],
+  },
   { header: "Code", fields: [{ key: "fromCode", kind: "text", label: (i) => `Code, row ${i + 1}` }] },
   { header: "Mass (kg)", fields: [{ key: "massKg", kind: "number", label: (i) => `Mass in kg, row ${i + 1}` }] },
 ];
@@ -85,16 +91,56 @@ const isWash = (r: RowValues) => r.role === "WASH_WATER";
 const isLoss = (r: RowValues) => r.role === "LOSS";
 
 const OUTPUT_COLUMNS: readonly RowColumn[] = [
-  { header: "Output", fields: [{ key: "role", kind: "select", options: OUTPUT_ROLES, label: (i) => `Output ${i + 1}` }] },
-  { header: "Goes to", fields: [{ key: "toKind", kind: "select", options: TO_KINDS, label: (i) => `Goes to, row ${i + 1}`, showFor: (r) => !isLoss(r) }] },
-  { header: "Code", fields: [{ key: "toCode", kind: "text", label: (i) => `Destination code, row ${i + 1}`, showFor: (r) => !isLoss(r) }] },
-  { header: "Weighed or gauged (kg)", fields: [{ key: "massKg", kind: "number", label: (i) => `Output mass in kg, row ${i + 1}` }] },
+  {
+    header: "Output",
+    fields: [{ key: "role", kind: "select", options: OUTPUT_ROLES, label: (i) => `Output ${i + 1}` }],
+  },
+  {
+    header: "Goes to",
+    fields: [
+      {
+        key: "toKind",
+        kind: "select",
+        options: TO_KINDS,
+        label: (i) => `Goes to, row ${i + 1}`,
+        showFor: (r) => !isLoss(r),
+      },
+    ],
+  },
+  {
+    header: "Code",
+    fields: [
+      { key: "toCode", kind: "text", label: (i) => `Destination code, row ${i + 1}`, showFor: (r) => !isLoss(r) },
+    ],
+  },
+  {
+    header: "Weighed or gauged (kg)",
+    fields: [{ key: "massKg", kind: "number", label: (i) => `Output mass in kg, row ${i + 1}` }],
+  },
   {
     header: "Washing water, or what was lost",
     fields: [
-      { key: "waterFromCode", kind: "text", caption: "water lot", label: (i) => `Water lot, row ${i + 1}`, showFor: isWash },
-      { key: "waterKg", kind: "number", caption: "water used (kg)", label: (i) => `Water used in kg, row ${i + 1}`, showFor: isWash },
-      { key: "reason", kind: "text", caption: "what happened", label: (i) => `Reason for the loss, row ${i + 1}`, showFor: isLoss },
+      {
+        key: "waterFromCode",
+        kind: "text",
+        caption: "water lot",
+        label: (i) => `Water lot, row ${i + 1}`,
+        showFor: isWash,
+      },
+      {
+        key: "waterKg",
+        kind: "number",
+        caption: "water used (kg)",
+        label: (i) => `Water used in kg, row ${i + 1}`,
+        showFor: isWash,
+      },
+      {
+        key: "reason",
+        kind: "text",
+        caption: "what happened",
+        label: (i) => `Reason for the loss, row ${i + 1}`,
+        showFor: isLoss,
+      },
     ],
   },
 ];
@@ -103,7 +149,17 @@ const OUTPUT_COLUMNS: readonly RowColumn[] = [
  * The finish: what was weighed or gauged out. The remainder is shown as it will be booked — the batch's
  * unmeasured difference — and flagged against the site's tolerance; nobody types it.
  */
-export function FinishForm({ batchCode, chargedKg, warnPct, initial }: { batchCode: string; chargedKg: number; warnPct: number; initial: OutputRow[] }) {
+export function FinishForm({
+  batchCode,
+  chargedKg,
+  warnPct,
+  initial,
+}: {
+  batchCode: string;
+  chargedKg: number;
+  warnPct: number;
+  initial: OutputRow[];
+}) {
   return (
     <RowsForm
       action={completeBatchAction}
@@ -135,7 +191,8 @@ export function FinishForm({ batchCode, chargedKg, warnPct, initial }: { batchCo
                 {formatFixed(left, 3)} kg
               </td>
               <td colSpan={2} className={over ? "over-under" : ""}>
-                {formatFixed(sharePct, 2)} % of the charge{over ? ` — above the site's ${formatFixed(warnPct, 2)} %: weigh again if you can` : ""}
+                {formatFixed(sharePct, 2)} % of the charge
+                {over ? ` — above the site's ${formatFixed(warnPct, 2)} %: weigh again if you can` : ""}
               </td>
             </tr>
           </>

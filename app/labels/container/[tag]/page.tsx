@@ -21,12 +21,16 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
 export default async function ContainerPage({ params }: Props) {
   const { db, site } = await loadSite();
   if (!site) return <NoSite />;
-  const tag = codeParam((await params).tag).trim().toUpperCase();
+  const tag = codeParam((await params).tag)
+    .trim()
+    .toUpperCase();
   if (!CODE_PATTERN.test(tag)) {
     return (
       <>
         <h1>Container label</h1>
-        <p className="form-error">{tag} is not a container number (letters, digits, &quot;.&quot;, &quot;_&quot;, &quot;/&quot;, &quot;-&quot;).</p>
+        <p className="form-error">
+          {tag} is not a container number (letters, digits, &quot;.&quot;, &quot;_&quot;, &quot;/&quot;, &quot;-&quot;).
+        </p>
       </>
     );
   }
@@ -70,7 +74,9 @@ export default async function ContainerPage({ params }: Props) {
                     <td className="nowrap">{when(p.observedAt, site.timeZone)}</td>
                     <td>{p.sourceCode}</td>
                     <td className="num">{litres(p.volumeMl)}</td>
-                    <td>{p.lotCode ? <CodeLink href={`/lots/${encodeURIComponent(p.lotCode)}`} code={p.lotCode} /> : "—"}</td>
+                    <td>
+                      {p.lotCode ? <CodeLink href={`/lots/${encodeURIComponent(p.lotCode)}`} code={p.lotCode} /> : "—"}
+                    </td>
                   </tr>
                 ))}
               </tbody>

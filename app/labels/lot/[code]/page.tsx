@@ -32,7 +32,14 @@ export default async function LotLabelPage({ params }: Props) {
         <PrintLabels what="this label" />
       </div>
       <div className="label-sheet">
-        <LotLabel lot={lot} origin={await requestOrigin()} siteName={site.name} timeZone={site.timeZone} gs1CompanyPrefix={site.gs1CompanyPrefix} single />
+        <LotLabel
+          lot={lot}
+          origin={await requestOrigin()}
+          siteName={site.name}
+          timeZone={site.timeZone}
+          gs1CompanyPrefix={site.gs1CompanyPrefix}
+          single
+        />
       </div>
     </>
   );

@@ -13,6 +13,9 @@ export const GET = reportRoute("GET /lots/[code]/report", async ({ db, site, use
   const code = codeParam(params.code ?? "");
   const lot = await getLotDetail(db, site.id, code);
   if (lot === null) return fail("RECORD.NOT_FOUND", `Lot ${code} does not exist`, "code");
-  const [flow, version] = await Promise.all([getLotFlow(db, site.id, lot.holderId, user.now), getLedgerVersion(db, site.id)]);
+  const [flow, version] = await Promise.all([
+    getLotFlow(db, site.id, lot.holderId, user.now),
+    getLedgerVersion(db, site.id),
+  ]);
   return ok(buildLotHistoryDoc(lot, flow, context, { movements: version.count, lastMoveId: version.lastId }));
 });

@@ -10,6 +10,15 @@ export const dynamic = "force-dynamic";
 /** The recall page's report: PDF, or one of its tables as CSV (format=csv&table=customers…). */
 export const GET = reportRoute("GET /trace/recall/report", async ({ db, site, user, query, context }) => {
   const withCustomers = canRead(user.role, "/customers");
-  const r = await recallReport(db, site.id, recallInput(readRecallSearch((k) => query[k]), site.timeZone), user.now, { withCustomers });
+  const r = await recallReport(
+    db,
+    site.id,
+    recallInput(
+      readRecallSearch((k) => query[k]),
+      site.timeZone,
+    ),
+    user.now,
+    { withCustomers },
+  );
   return r.ok ? ok(buildRecallDoc(r.value, context, { withCustomers })) : r;
 });

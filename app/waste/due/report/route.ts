@@ -9,6 +9,11 @@ export const dynamic = "force-dynamic";
 /** The waste list for the hauler (same query string as the waste-due page) as PDF, or one table as CSV. */
 export const GET = reportRoute("GET /waste/due/report", async ({ db, site, user, query, context }) => {
   const version = await getLedgerVersion(db, site.id);
-  const r = await getWasteDueReport(db, site, { days: query.days ?? "", category: query.category ?? "", tsdfMiles: query.tsdfMiles ?? "" }, user.now);
+  const r = await getWasteDueReport(
+    db,
+    site,
+    { days: query.days ?? "", category: query.category ?? "", tsdfMiles: query.tsdfMiles ?? "" },
+    user.now,
+  );
   return r.ok ? ok(buildWasteListDoc(r.value, context, { movements: version.count, lastMoveId: version.lastId })) : r;
 });
