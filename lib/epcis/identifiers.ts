@@ -1,5 +1,5 @@
 // Identifiers for EPCIS events: GS1 forms when the plant has a GS1 Company Prefix, otherwise the
-// site's own HTTP URIs (docs/decisions/0100-e-epcis-identifiers.md).
+// site's own HTTP URIs (docs/decisions/0034-epcis-identifiers.md).
 import { CHARACTER_SET_82, MAX_LOT_LENGTH } from "@/lib/labels/gs1";
 
 /** Digits of a GS1 Company Prefix we accept: the item reference keeps at least two digits (GTIN-13 structure). */

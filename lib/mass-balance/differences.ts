@@ -6,7 +6,7 @@
 //   receiving differences         pickup estimates − the plant's measurement of the lot
 //   gauge-vs-book differences     book stock − the latest gauge reading of each tank
 // Their sum as a share of the inputs is flagged against the site's tolerance.
-import type { BalanceHolder, BalanceMove, Closure, ClosureTolerance } from "@/lib/mass-balance/period-balance";
+import type { BalanceHolder, BalanceMove, Closure, ClosureTolerance } from "@/lib/mass-balance/balance-types";
 
 export interface GaugeDifference {
   holderId: number;

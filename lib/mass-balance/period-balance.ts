@@ -8,31 +8,23 @@ import type { DomainIssue, Result } from "@/lib/errors";
 import { BATCH_INPUT_ROLES, BATCH_OUTPUT_ROLES, MOVE_ROLES } from "@/lib/ledger/kinds";
 import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
 import { computeDifferences } from "@/lib/mass-balance/differences";
+import type {
+  BalanceHolder,
+  BalanceMove,
+  Closure,
+  ClosureFlag,
+  ClosureTolerance,
+  ReceiptClass,
+} from "@/lib/mass-balance/balance-types";
+export type {
+  BalanceHolder,
+  BalanceMove,
+  Closure,
+  ClosureFlag,
+  ClosureTolerance,
+  ReceiptClass,
+} from "@/lib/mass-balance/balance-types";
 import type { Differences, GaugeDifference } from "@/lib/mass-balance/differences";
-
-export interface BalanceHolder {
-  id: number;
-  kind: HolderKind;
-  siteId: number;
-  /** Material kind of what the holder carries (e.g. "USED_COOKING_OIL"); used only by a material-scoped balance. */
-  materialKind?: string | null;
-  /** For batches: when the batch was finished. A batch without it is in progress. */
-  completedAt?: number | null;
-  /** Overrides how a receipt into this holder is counted (default: by holder kind, see RECEIPT_CLASS_BY_KIND). */
-  receiptClass?: ReceiptClass;
-}
-
-export interface BalanceMove {
-  id: number;
-  at: number;
-  /** null = the material enters the books here. */
-  fromHolderId: number | null;
-  toHolderId: number;
-  massG: number;
-  role: MoveRole;
-  /** A receiving difference: the plant's measurement of a lot below (shortfall) or above (surplus) the pickup estimates. */
-  receiving?: boolean;
-}
 
 /** STOCK holders hold material on site; OUT holders are where material leaves the books (cumulative). */
 export type HolderClass = "STOCK" | "OUT";
@@ -52,8 +44,6 @@ export const DEFAULT_HOLDER_CLASSES: Readonly<Record<HolderKind, HolderClass>> =
   DIFFERENCE: "OUT",
 };
 
-export type ReceiptClass = "FEEDSTOCK" | "REAGENT" | "OTHER";
-
 export const RECEIPT_CLASS_BY_KIND: Readonly<Record<HolderKind, ReceiptClass>> = {
   PICKUP: "FEEDSTOCK",
   DELIVERY: "FEEDSTOCK",
@@ -69,31 +59,12 @@ export const RECEIPT_CLASS_BY_KIND: Readonly<Record<HolderKind, ReceiptClass>> =
   DIFFERENCE: "OTHER",
 };
 
-export interface ClosureTolerance {
-  /** Flag WARN when |imbalance| exceeds this share of inputs, in %. */
-  warnPct: number;
-  /** Flag FAIL when |imbalance| exceeds this share of inputs, in %. */
-  failPct: number;
-  source: string;
-  note: string;
-}
-
 export const DEFAULT_CLOSURE_TOLERANCE: ClosureTolerance = {
   warnPct: 0.5,
   failPct: 2,
   source: "common practice, no source",
   note: "Period mass-balance closure: warn above 0.5 %, fail above 2 % of inputs. A site setting; change it to what your scheme or auditor accepts.",
 };
-
-export type ClosureFlag = "OK" | "WARN" | "FAIL";
-
-export interface Closure {
-  imbalanceG: number;
-  baseG: number;
-  /** imbalance ÷ base × 100; null when the base is 0. */
-  pct: number | null;
-  flag: ClosureFlag;
-}
 
 export interface BalanceScope {
   siteId: number;

@@ -1,5 +1,5 @@
 import "server-only";
-// Pictures are drawn on the server into plain SVG (docs/decisions/0100-c-pictures-are-svg-drawn-on-the-server.md):
+// Pictures are drawn on the server into plain SVG (docs/decisions/0033-pictures-are-svg-drawn-on-the-server.md):
 // no chart script reaches the browser, so the page's script policy is untouched and the picture shows
 // before any script runs. Only the parts of the charting library we use are registered.
 import * as echarts from "echarts/core";

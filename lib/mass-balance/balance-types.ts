@@ -1,0 +1,48 @@
+// The shapes a period balance is computed over and answers with, shared by period-balance and differences
+// (kept apart so the two computations do not import each other). Pure.
+import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
+
+export type ReceiptClass = "FEEDSTOCK" | "REAGENT" | "OTHER";
+
+export interface BalanceHolder {
+  id: number;
+  kind: HolderKind;
+  siteId: number;
+  /** Material kind of what the holder carries (e.g. "USED_COOKING_OIL"); used only by a material-scoped balance. */
+  materialKind?: string | null;
+  /** For batches: when the batch was finished. A batch without it is in progress. */
+  completedAt?: number | null;
+  /** Overrides how a receipt into this holder is counted (default: by holder kind, see RECEIPT_CLASS_BY_KIND). */
+  receiptClass?: ReceiptClass;
+}
+
+export interface BalanceMove {
+  id: number;
+  at: number;
+  /** null = the material enters the books here. */
+  fromHolderId: number | null;
+  toHolderId: number;
+  massG: number;
+  role: MoveRole;
+  /** A receiving difference: the plant's measurement of a lot below (shortfall) or above (surplus) the pickup estimates. */
+  receiving?: boolean;
+}
+
+export interface ClosureTolerance {
+  /** Flag WARN when |imbalance| exceeds this share of inputs, in %. */
+  warnPct: number;
+  /** Flag FAIL when |imbalance| exceeds this share of inputs, in %. */
+  failPct: number;
+  source: string;
+  note: string;
+}
+
+export type ClosureFlag = "OK" | "WARN" | "FAIL";
+
+export interface Closure {
+  imbalanceG: number;
+  baseG: number;
+  /** imbalance ÷ base × 100; null when the base is 0. */
+  pct: number | null;
+  flag: ClosureFlag;
+}
