@@ -1208,6 +1208,7 @@ export interface operations {
                                 message: string;
                                 field?: string;
                             }[];
+                            notes: string[];
                         };
                     };
                 };
@@ -1246,7 +1247,10 @@ export interface operations {
                     lots: {
                         lotRef: string;
                         massKg: number;
-                        ffaPct: number;
+                        ffaPct?: number;
+                        /** @enum {string} */
+                        ffaBasis?: "OLEIC" | "PALMITIC" | "LAURIC";
+                        acidValueMgKohG?: number;
                         waterPct: number;
                         famePct?: number;
                     }[];
@@ -1259,6 +1263,7 @@ export interface operations {
                         baseDosePctOfOil?: number;
                         reactionTempC?: number;
                         meanTgMolarMass?: number;
+                        saponificationValueMgKohG?: number;
                         washPractice?: {
                             washes: number;
                             waterPerWashPctOfEster: number;
@@ -1358,7 +1363,10 @@ export interface operations {
                     lots: {
                         lotRef: string;
                         massKg: number;
-                        ffaPct: number;
+                        ffaPct?: number;
+                        /** @enum {string} */
+                        ffaBasis?: "OLEIC" | "PALMITIC" | "LAURIC";
+                        acidValueMgKohG?: number;
                         waterPct: number;
                         famePct?: number;
                     }[];
@@ -1371,6 +1379,7 @@ export interface operations {
                         baseDosePctOfOil?: number;
                         reactionTempC?: number;
                         meanTgMolarMass?: number;
+                        saponificationValueMgKohG?: number;
                         washPractice?: {
                             washes: number;
                             waterPerWashPctOfEster: number;
@@ -1581,7 +1590,10 @@ export interface operations {
                         lots: {
                             lotRef: string;
                             massKg: number;
-                            ffaPct: number;
+                            ffaPct?: number;
+                            /** @enum {string} */
+                            ffaBasis?: "OLEIC" | "PALMITIC" | "LAURIC";
+                            acidValueMgKohG?: number;
                             waterPct: number;
                             famePct?: number;
                         }[];
@@ -1594,6 +1606,7 @@ export interface operations {
                             baseDosePctOfOil?: number;
                             reactionTempC?: number;
                             meanTgMolarMass?: number;
+                            saponificationValueMgKohG?: number;
                             washPractice?: {
                                 washes: number;
                                 waterPerWashPctOfEster: number;
@@ -1866,7 +1879,6 @@ export interface operations {
                     targetOilKg: number;
                     /** @default 3 */
                     maxFfaPct?: number;
-                    /** @default 0.5 */
                     maxWaterPct?: number;
                     /**
                      * @default OLDEST_FIRST
@@ -1886,6 +1898,7 @@ export interface operations {
                     reactionTempC?: number;
                     baseDosePctOfOil?: number;
                     meanTgMolarMass?: number;
+                    saponificationValueMgKohG?: number;
                     washes?: number;
                     waterPerWashPctOfEster?: number;
                     acidMethanolToFfaRatio?: number;
@@ -2006,7 +2019,6 @@ export interface operations {
                     targetOilKg: number;
                     /** @default 3 */
                     maxFfaPct?: number;
-                    /** @default 0.5 */
                     maxWaterPct?: number;
                     /**
                      * @default OLDEST_FIRST
@@ -2026,6 +2038,7 @@ export interface operations {
                     reactionTempC?: number;
                     baseDosePctOfOil?: number;
                     meanTgMolarMass?: number;
+                    saponificationValueMgKohG?: number;
                     washes?: number;
                     waterPerWashPctOfEster?: number;
                     acidMethanolToFfaRatio?: number;
