@@ -1,5 +1,5 @@
 import createClient from "openapi-fetch";
-import { expect, test } from "@playwright/test";
+import { expect, test } from "./support/test";
 import type { paths } from "../lib/api/client/openapi-types";
 import { EpcisDocumentSchema } from "../lib/epcis/epcis-document.schema";
 

@@ -1,4 +1,4 @@
-import { expect, test } from "@playwright/test";
+import { expect, test } from "./support/test";
 import { signIn } from "./support/sign-in";
 
 // A closure that can fail: production finishes a batch with the ester weighed 1 % short. Nobody types

@@ -1,4 +1,5 @@
-import { expect, request as playwrightRequest, test } from "@playwright/test";
+import { request as playwrightRequest } from "@playwright/test";
+import { expect, test } from "./support/test";
 import type { Locator, Page } from "@playwright/test";
 import { signIn } from "./support/sign-in";
 

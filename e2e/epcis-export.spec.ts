@@ -3,7 +3,7 @@ import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import Database from "better-sqlite3";
 import { prepareZXingModule, readBarcodes } from "zxing-wasm/reader";
-import { expect, test } from "@playwright/test";
+import { expect, test } from "./support/test";
 import type { Download, Page } from "@playwright/test";
 import { signIn } from "./support/sign-in";
 import { EpcisDocumentSchema } from "../lib/epcis/epcis-document.schema";

@@ -1,5 +1,5 @@
 import Papa from "papaparse";
-import { expect, test } from "@playwright/test";
+import { expect, test } from "./support/test";
 import type { Page } from "@playwright/test";
 import { signIn } from "./support/sign-in";
 

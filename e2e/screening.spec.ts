@@ -1,4 +1,4 @@
-import { expect, test } from "@playwright/test";
+import { expect, test } from "./support/test";
 import { signIn } from "./support/sign-in";
 
 // Compliance checks a source's plausibility: declares what a kitchen can give, checks the period, then
