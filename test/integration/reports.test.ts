@@ -150,7 +150,7 @@ describe.each(PROVIDERS)("recall and reports on %s", (provider) => {
           { role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-1", massKg: 200 },
           { role: "ESTER", toKind: "PRODUCT_LOT", toCode: "P-2", massKg: 200 },
           { role: "GLYCEROL_PHASE", toKind: "WASTE_CONTAINER", toCode: "GLY-1", massKg: 30 },
-          { role: "LOSS", massKg: 20 },
+          { role: "LOSS", massKg: 20, reason: "spilled at the drain valve" },
         ],
       }),
     );
