@@ -91,7 +91,7 @@ test("a lot goes into a tank by volume at temperature; over-fill, over-draw and 
   await page.getByLabel("Measured volume (L)").fill("600");
   await page.getByLabel("Temperature at measurement (°C)").fill("20");
   await page.getByRole("button", { name: "Receive as one lot" }).click();
-  await expect(page.locator(".collect-saved")).toContainText(`Lot ${lotCode} received`);
+  await expect(page.locator("p.form-ok")).toContainText(`Lot ${lotCode} received`);
 
   // Awaiting the lab, the lot page says why it cannot go into a tank yet.
   await page.goto(`/lots/${lotCode}`);
@@ -241,13 +241,18 @@ test("receiving two pickups straight into a tank accepts the lot with a reason a
   const tank = await roomiestTank(page, "Pool into");
   await page.getByLabel("Pool into").selectOption(tank.code);
   await page.getByRole("button", { name: "Receive as one lot" }).click();
-  await expect(page.locator("#err-acceptReason")).toContainText("Reason for accepting is required");
+  await expect(
+    page
+      .locator(".field")
+      .filter({ has: page.getByLabel("Reason for accepting now (only when pooling into a tank)") })
+      .locator(".field-error"),
+  ).toContainText("Reason for accepting is required");
   await expect(page.getByLabel(`Take pickup ${two[1]}`)).toBeChecked();
   await expect(page.getByLabel("Pool into")).toHaveValue(tank.code);
   const before = await tankStockG(page, tank.code);
   await page.getByLabel("Reason for accepting now (only when pooling into a tank)").fill("tank sample titrated");
   await page.getByRole("button", { name: "Receive as one lot" }).click();
-  await expect(page.locator(".collect-saved")).toContainText(`accepted and moved whole into tank ${tank.code}`);
+  await expect(page.locator("p.form-ok")).toContainText(`accepted and moved whole into tank ${tank.code}`);
   await page.screenshot({ path: "/tmp/tank-moves-receiving.png", fullPage: true });
   expect((await new AxeBuilder({ page }).include("main").analyze()).violations.map((v) => v.id)).toEqual([]);
   const lot = readDb<{ massG: number; status: string }>(

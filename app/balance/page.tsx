@@ -279,7 +279,7 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
 
       <h3>Site stock</h3>
       <div className="balance-grid">
-        <div className="table-wrap">
+        <div className="table-wrap" tabIndex={0} role="region" aria-label="Into the stock">
           <table className="identity">
             <caption>Into the stock</caption>
             <tbody>
@@ -302,7 +302,7 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
             </tfoot>
           </table>
         </div>
-        <div className="table-wrap">
+        <div className="table-wrap" tabIndex={0} role="region" aria-label="Out of the stock, and what is left">
           <table className="identity">
             <caption>Out of the stock, and what is left</caption>
             <tbody>
@@ -339,7 +339,7 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
       </Note>
 
       <h3>Flows inside the site</h3>
-      <div className="table-wrap">
+      <div className="table-wrap" tabIndex={0} role="region" aria-label="Flows inside the site">
         <table>
           <thead>
             <tr>
@@ -364,7 +364,7 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
       <ProcessTable r={r} />
 
       <h3>By material kind</h3>
-      <div className="table-wrap">
+      <div className="table-wrap" tabIndex={0} role="region" aria-label="By material kind">
         <table>
           <thead>
             <tr>
@@ -431,7 +431,7 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
       {r.gauges === null ? (
         <Empty>No tank was gauged before the end of this period.</Empty>
       ) : (
-        <div className="table-wrap">
+        <div className="table-wrap" tabIndex={0} role="region" aria-label="Gauges against the book">
           <table>
             <thead>
               <tr>
@@ -491,7 +491,7 @@ function BalanceResult({ r, timeZone, canClose }: { r: BalanceReport; timeZone: 
 function EventTable({ events, timeZone }: { events: BalanceReport["events"]; timeZone: string }) {
   if (events.length === 0) return <Empty>No close or reopen recorded for this period yet.</Empty>;
   return (
-    <div className="table-wrap">
+    <div className="table-wrap" tabIndex={0} role="region" aria-label="Closes and reopens">
       <table>
         <caption>Closes and reopens of this period</caption>
         <thead>
@@ -539,7 +539,7 @@ function ProcessTable({ r }: { r: BalanceReport }) {
   ];
   return (
     <>
-      <div className="table-wrap">
+      <div className="table-wrap" tabIndex={0} role="region" aria-label="Batches finished, closure">
         <table className="identity">
           <caption>
             {p.completed.length} batches finished: charged = measured out + recorded losses + unmeasured difference{" "}
@@ -610,7 +610,7 @@ function ProcessTable({ r }: { r: BalanceReport }) {
 
 function BatchTable({ rows }: { rows: BatchRow[] }) {
   return (
-    <div className="table-wrap">
+    <div className="table-wrap" tabIndex={0} role="region" aria-label="Batches">
       <table>
         <thead>
           <tr>

@@ -49,7 +49,7 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
           <fieldset>
             <legend>Lot labels: choose lots</legend>
             {recent.map((l) => (
-              <label key={l.code} className="nowrap" style={{ display: "inline-block", marginRight: "1rem" }}>
+              <label key={l.code} style={{ display: "inline-block", marginRight: "1rem", maxWidth: "100%" }}>
                 <input type="checkbox" name="lot" value={l.code} defaultChecked={lotCodes.includes(l.code)} /> {l.code}{" "}
                 <span className="muted">
                   ({labelOf(l.material)}, {day(l.receivedAt, site.timeZone)})

@@ -37,7 +37,8 @@ export function DataTable<T>({
   if (rows.length === 0) return <p className="empty">{empty}</p>;
   const hasTotals = columns.some((c) => c.total !== undefined);
   return (
-    <div className="table-wrap">
+    // Focusable and named, so a table wider than the screen can be scrolled from the keyboard.
+    <div className="table-wrap" tabIndex={0} role="region" aria-label={caption}>
       <table>
         <caption className={hideCaption ? "visually-hidden" : undefined}>
           {caption}
