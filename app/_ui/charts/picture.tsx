@@ -24,9 +24,9 @@ export function Picture({
 }) {
   return (
     <figure className={wide ? "picture picture-wide" : "picture"} aria-labelledby={`${id}-title`} data-picture={id}>
-      <h3 id={`${id}-title`} className="picture-title">
+      <h2 id={`${id}-title`} className="picture-title">
         {title}
-      </h3>
+      </h2>
       <div className="picture-drawing" role="img" aria-label={summary} dangerouslySetInnerHTML={{ __html: svg }} />
       <figcaption className="picture-summary">{summary}</figcaption>
       <details className="more-rows picture-numbers">
@@ -48,9 +48,9 @@ export function Picture({
 export function NoPicture({ id, title, children }: { id: string; title: string; children: ReactNode }) {
   return (
     <figure className="picture" aria-labelledby={`${id}-title`} data-picture={id}>
-      <h3 id={`${id}-title`} className="picture-title">
+      <h2 id={`${id}-title`} className="picture-title">
         {title}
-      </h3>
+      </h2>
       <p className="empty">{children}</p>
     </figure>
   );
