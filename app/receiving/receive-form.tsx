@@ -91,37 +91,48 @@ export function ReceiveForm({
   mayReceive: boolean;
   tanks: readonly TankOption[];
 }) {
-  if (rows.length === 0) return <p className="empty">Every pickup is already in a lot.</p>;
   const tankOptions: ReadonlyArray<readonly [string, string]> = [
     ["", "Keep as a lot awaiting the lab (the usual way)"],
     ...tanks.map((t) => [t.code, `Straight into tank ${t.label}`] as const),
   ];
+  // The form stays on the page when the last pickup has been received, so its answer is still read.
+  const empty = rows.length === 0;
   return (
     <>
       <ActionForm
         action={receivePickupsAction}
         label="Receive pickups as a lot"
         submitLabel="Receive as one lot"
-        disabled={!mayReceive}
+        disabled={!mayReceive || empty}
       >
-        <PickupChoice rows={rows} />
-        <Field name="code" label="Lot number" defaultValue={suggestedCode} maxLength={20} />
-        <Field name="volume" label="Measured volume" unit="L" type="number" />
-        <Field name="temp" label="Temperature at measurement" unit="°C" type="number" />
-        <Field
-          name="certified"
-          label="Certified sustainable (every pickup's source holds a valid certificate)"
-          type="checkbox"
-        />
-        <Field name="notes" label="Notes" maxLength={500} />
-        <Field
-          name="tankCode"
-          label="Pool into"
-          type="select"
-          options={tankOptions}
-          hint="Straight into a tank, the lot is accepted now, by you, and all of it is moved into the tank in the same step; say why it may be accepted before its own lab result (for example “tank sample titrated”) — the reason is kept in the record's history. If the tank cannot take it, nothing is received."
-        />
-        <Field name="acceptReason" label="Reason for accepting now (only when pooling into a tank)" maxLength={200} />
+        {empty ? (
+          <p className="empty field-wide">Every pickup is already in a lot.</p>
+        ) : (
+          <>
+            <PickupChoice rows={rows} />
+            <Field name="code" label="Lot number" defaultValue={suggestedCode} maxLength={20} />
+            <Field name="volume" label="Measured volume" unit="L" type="number" />
+            <Field name="temp" label="Temperature at measurement" unit="°C" type="number" />
+            <Field
+              name="certified"
+              label="Certified sustainable (every pickup's source holds a valid certificate)"
+              type="checkbox"
+            />
+            <Field name="notes" label="Notes" maxLength={500} />
+            <Field
+              name="tankCode"
+              label="Pool into"
+              type="select"
+              options={tankOptions}
+              hint="Straight into a tank, the lot is accepted now, by you, and all of it is moved into the tank in the same step; say why it may be accepted before its own lab result (for example “tank sample titrated”) — the reason is kept in the record's history. If the tank cannot take it, nothing is received."
+            />
+            <Field
+              name="acceptReason"
+              label="Reason for accepting now (only when pooling into a tank)"
+              maxLength={200}
+            />
+          </>
+        )}
       </ActionForm>
       {!mayReceive ? <p className="muted">Only production staff receive pickups into lots.</p> : null}
     </>
