@@ -3,7 +3,7 @@
 // of the destination and one append-only ledger row, inside the caller's transaction.
 import { AsyncLocalStorage } from "node:async_hooks";
 import type { Db, Tx } from "@/lib/database/connect";
-import { insertRows } from "@/lib/database/bulk-insert";
+import { dialectOf, insertRows } from "@/lib/database/bulk-insert";
 import type { DomainIssue, Result } from "@/lib/errors";
 import { fail, failMany, ok } from "@/lib/errors";
 import { classifyDatabaseFault, FAULT_MESSAGES } from "@/lib/database/faults";
@@ -69,6 +69,10 @@ export async function runInTransaction<T>(db: Db, fn: (tx: Tx) => Promise<T>, ti
       await db.$transaction(
         async (tx) => {
           if (!key) return fn(tx);
+          // Twins with one key queue behind each other, so the second reads the first's stored answer
+          // instead of racing it to the same unique rows. SQLite already runs one writer at a time.
+          if (dialectOf(tx) === "postgresql")
+            await tx.$executeRaw`SELECT pg_advisory_xact_lock(hashtext(${`${key.userId}:${key.key}`}))`;
           const earlier = await tx.idempotencyRecord.findUnique({
             where: { userId_key: { userId: key.userId, key: key.key } },
           });
