@@ -47,6 +47,13 @@ const otherStore = { path: "^lib/[^/]+/[^/]+\\.store\\.ts$", pathNot: ["^lib/$1/
 module.exports = {
   forbidden: [
     {
+      name: "core-stands-alone",
+      severity: "error",
+      comment: "lib/core is the shared kernel every domain imports; it imports nothing else in lib/.",
+      from: { path: "^lib/core/" },
+      to: { path: "^lib/", pathNot: ["^lib/core/", "^lib/generated/"] },
+    },
+    {
       name: "no-cycles-in-lib",
       severity: "error",
       comment:

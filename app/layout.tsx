@@ -5,7 +5,7 @@ import type { ReactNode } from "react";
 import { MainNav } from "@/app/_ui/nav";
 import { loadHeader } from "@/app/_ui/site";
 import { signOutAction } from "@/app/login/actions";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { menuFor } from "@/lib/auth/read-matrix";
 import "./globals.css";
 

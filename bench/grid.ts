@@ -5,7 +5,7 @@ import os from "node:os";
 import path from "node:path";
 import Database from "better-sqlite3";
 import { deploy } from "@/prisma/migrate";
-import { openDb } from "@/lib/database/connect";
+import { openDb } from "@/lib/core/connect";
 import { insertSite, insertUser } from "@/lib/site/site.store";
 import { createSource } from "@/lib/source/source.service";
 import { queryGridRows } from "@/lib/grid/grid.store";
@@ -66,7 +66,7 @@ export async function runGridBench(): Promise<Array<[string, string, string, str
   sql.close();
   console.log(`  seeded 100,000 pickups in ${formatMs(performance.now() - t0)} ms`);
   // The table was written behind the app's back: reconnect, as a server started on this file would
-  // (each connection refreshes the planner statistics, lib/database/connect.ts).
+  // (each connection refreshes the planner statistics, lib/core/connect.ts).
   await db.$disconnect();
   db = await openDb(url);
   const memory = new MemoryWatch();

@@ -3,7 +3,7 @@
 // lots moved into tanks), each booking with its own idempotency key. Codes are read from the demo
 // database the server was started on; after a run the books are checked for over-draws.
 import { randomUUID } from "node:crypto";
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 
 export interface MixRequest {
   route: string;

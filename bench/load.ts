@@ -9,7 +9,7 @@
 // the run fails only when it cannot measure (no build, no server, a sign-in refused).
 import os from "node:os";
 import { randomUUID } from "node:crypto";
-import { openDb } from "@/lib/database/connect";
+import { openDb } from "@/lib/core/connect";
 import { AppServer, createDemoDatabase, findFreePort, requireBuild } from "@/bench/load-server";
 import {
   countOverdraws,

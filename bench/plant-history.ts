@@ -5,7 +5,7 @@
 // emits moves in time order, so the ledger it returns is one the trace replay accepts as it is.
 // Feedstock and product tanks keep a heel and are never emptied: the worst case for genealogy, since a
 // tank's mixture then depends on its whole history.
-import type { HolderKind, MixingModel, MoveRole } from "@/lib/ledger/kinds";
+import type { HolderKind, MixingModel, MoveRole } from "@/lib/core/vocabulary";
 import { convertCredit, RULESET_EU_2022_996 } from "@/lib/custody/custody-balance";
 import type {
   CharacteristicSet,

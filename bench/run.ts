@@ -21,9 +21,9 @@ import { getQuarterPeriod } from "@/lib/mass-balance/period";
 import { buildCustodyLedger, checkClaim } from "@/lib/custody/custody-balance";
 import { optimiseBlend } from "@/lib/blend/optimise";
 import { MAX_BLEND_CANDIDATES } from "@/lib/blend/blend.schema";
-import { openDb } from "@/lib/database/connect";
+import { openDb } from "@/lib/core/connect";
 import { loadTraceLedger } from "@/lib/ledger/movement.store";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 
 const SIZES = [1, 3, 10] as const;
 type Size = (typeof SIZES)[number];

@@ -4,7 +4,7 @@ import { request as playwrightRequest } from "@playwright/test";
 import { expect, test } from "./support/test";
 import type { APIRequestContext } from "@playwright/test";
 import { homeFor, readRuleFor, readersOf } from "../lib/auth/read-matrix";
-import type { SiteRole } from "../lib/ledger/kinds";
+import type { SiteRole } from "../lib/core/vocabulary";
 
 // OWASP ASVS 5.0 V8.2.1 (function-level) and V8.2.2 (data-specific) authorisation, for reading: every
 // page and GET route of the build × every role and anonymous, against the one read matrix.

@@ -1,5 +1,5 @@
 // The one table from a domain issue code to an HTTP status.
-import type { DomainIssue } from "@/lib/errors";
+import type { DomainIssue } from "@/lib/core/result";
 
 const BY_PREFIX: Array<[RegExp, number]> = [
   [/^INPUT\.TOO_LARGE$/, 413],

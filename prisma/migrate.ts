@@ -5,7 +5,7 @@ import { copyFileSync, existsSync, mkdirSync, readdirSync, readFileSync, writeFi
 import path from "node:path";
 import { PrismaBetterSqlite3 } from "@prisma/adapter-better-sqlite3";
 import { PrismaPg } from "@prisma/adapter-pg";
-import { adapterFor, DEFAULT_DATABASE_URL, isPostgresUrl } from "@/lib/database/connect";
+import { adapterFor, DEFAULT_DATABASE_URL, isPostgresUrl } from "@/lib/core/connect";
 import { diffFromEmpty, diffSchemas, migrateDeploy } from "./engine";
 import pg from "pg";
 import { appendOnlySql, constraintSql, PG_APPEND_ONLY_STATEMENTS } from "./hardening";

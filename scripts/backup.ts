@@ -3,7 +3,7 @@
 // npm run db:check                       — the same checks on the live database
 import { mkdirSync } from "node:fs";
 import path from "node:path";
-import { DEFAULT_DATABASE_URL, isPostgresUrl, openDb } from "@/lib/database/connect";
+import { DEFAULT_DATABASE_URL, isPostgresUrl, openDb } from "@/lib/core/connect";
 import { backupDatabase, collectFacts, restoreDatabase } from "@/lib/database/backup";
 
 const url = process.env.DATABASE_URL ?? DEFAULT_DATABASE_URL;

@@ -23,7 +23,7 @@ import type { CustomerInput } from "@/lib/customer/customer.schema";
 import { demoDecision, demoQcResults } from "@/seeds/qc";
 import type { DisposalInput, WasteContainerInput } from "@/lib/waste/container.schema";
 import type { AccountingPeriodInput } from "@/lib/period/period.schema";
-import type { MaterialKind } from "@/lib/ledger/kinds";
+import type { MaterialKind } from "@/lib/core/vocabulary";
 import { measureObserved } from "@/lib/feedstock/measure";
 import { DEFAULT_DENSITY_TABLE, densityAt, requireDensityEntry } from "@/lib/quantity/density";
 import type { PEOPLE } from "@/seeds/names";

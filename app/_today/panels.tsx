@@ -3,7 +3,7 @@
 import Link from "next/link";
 import type { Dashboard } from "@/lib/site/dashboard.store";
 import type { WasteDueBoard } from "@/lib/waste/container.store";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { day, daysBetween, kg, litres, pct, when } from "@/app/_ui/format";
 import { DensityNote, FillBar } from "@/app/_ui/tank-ui";
 import { CodeLink, Note, Status } from "@/app/_ui/ui";

@@ -1,4 +1,4 @@
-import type { HolderKind } from "@/lib/ledger/kinds";
+import type { HolderKind } from "@/lib/core/vocabulary";
 
 /** Where a holder's own page is; null for holders with none (losses, reagent lots). */
 export function hrefOf(kind: HolderKind, code: string): string | null {

@@ -1,7 +1,7 @@
 import Link from "next/link";
 import type { MadeOf as MadeOfTrace } from "@/lib/feedstock/lot-detail.store";
 import { kg, pct } from "@/app/_ui/format";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { Empty, Note } from "@/app/_ui/ui";
 
 /** Backward trace of a batch or product lot: the feedstock lots with their shares, the reagents apart. */

@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { canRead } from "@/lib/auth/read-matrix";
-import type { SiteRole } from "@/lib/ledger/kinds";
+import type { SiteRole } from "@/lib/core/vocabulary";
 
 /**
  * "Trace this" on a record page: where its material went (the recall view), and for what was made or

@@ -1,6 +1,6 @@
 import Link from "next/link";
 import type { ReactNode } from "react";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import type { HolderRef, MovementView } from "@/lib/ledger/movement.store";
 import { kgExact, litres, when } from "@/app/_ui/format";
 import { hrefOf } from "@/app/_ui/links";

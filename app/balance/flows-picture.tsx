@@ -1,4 +1,4 @@
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 import { computePeriodFlows } from "@/lib/mass-balance/flows";
 import type { FlowLink, FlowNode } from "@/lib/mass-balance/flows";
 import { loadFlowLedger } from "@/lib/mass-balance/flows.store";

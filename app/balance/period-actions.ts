@@ -1,7 +1,7 @@
 "use server";
 import { revalidatePath } from "next/cache";
 import { requireRole } from "@/lib/auth/request.service";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { parseInput } from "@/lib/ledger/parse";
 import { closePeriod, PeriodCloseSchema, PeriodReopenSchema, reopenPeriod } from "@/lib/period/period.service";
 

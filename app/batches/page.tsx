@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { listBatches } from "@/lib/batch/batch.store";
 import { kg, num, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";

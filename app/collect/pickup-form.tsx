@@ -3,7 +3,7 @@
 // temperature, quick looks, labels and notes.
 import { Cautions } from "@/app/_ui/kit/cautions";
 import type { FormEvent } from "react";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { temperatureUnit, volumeUnit } from "@/lib/collect/entry";
 import { LOOKS, MAX_CONTAINERS } from "@/lib/feedstock/pickup.schema";
 import type { UnitSystem } from "@/lib/quantity/units";

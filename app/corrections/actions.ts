@@ -1,6 +1,6 @@
 "use server";
 import { revalidatePath } from "next/cache";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { reverseMovement, voidLabResult } from "@/lib/correction/correction.service";
 import { readNumber, readText, readValues, refused } from "@/app/_ui/kit/form-state";

@@ -1,5 +1,5 @@
 // Browser calls to the grid's route handlers; every answer is {ok, value} or {ok:false, issues}.
-import type { DomainIssue } from "@/lib/errors";
+import type { DomainIssue } from "@/lib/core/result";
 import type { GridRow, TableKey } from "@/lib/grid/tables";
 
 export type Answer<T> = { ok: true; value: T } | { ok: false; issues: DomainIssue[] };

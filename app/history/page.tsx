@@ -5,7 +5,7 @@ import { verifyChain } from "@/lib/audit/chain";
 import { describeChange, isRecordHistoryKind, RECORD_HISTORIES } from "@/lib/audit/history";
 import type { RecordHistoryKind } from "@/lib/audit/history";
 import { fieldWords, valueWords } from "@/lib/audit/field-words";
-import type { HolderKind } from "@/lib/ledger/kinds";
+import type { HolderKind } from "@/lib/core/vocabulary";
 import { when } from "@/app/_ui/format";
 import { hrefOf } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { listLots } from "@/lib/feedstock/lot.store";
 import { daysBetween, ffa, kg, pct, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";

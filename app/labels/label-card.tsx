@@ -2,7 +2,7 @@ import QRCode from "qrcode";
 import { gs1LabelElementString } from "@/lib/labels/gs1";
 import { gs1DataMatrixSvg } from "@/lib/labels/gs1-symbol";
 import { gtinFor, isGs1CompanyPrefix } from "@/lib/epcis/identifiers";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import type { LotForLabel } from "@/lib/labels/labels.store";
 import { day, kg } from "@/app/_ui/format";
 

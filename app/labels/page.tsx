@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { containerRange, MAX_LABELS_PER_SHEET } from "@/lib/labels/label-range";
 import { listLotsForLabels, listRecentLotCodes } from "@/lib/labels/labels.store";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { day } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { NoSite } from "@/app/_ui/ui";

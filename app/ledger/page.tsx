@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { listMovementPage } from "@/lib/ledger/movement.store";
 import { kgExact, litres, num, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";

@@ -1,7 +1,7 @@
 "use server";
 import { cookies, headers } from "next/headers";
 import { redirect } from "next/navigation";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { signIn, signOut } from "@/lib/auth/session.service";
 import { cookieIsSecure, getSessionToken, sessionCookieName } from "@/lib/auth/request.service";
 

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { LOT_STATUSES, labelOf } from "@/lib/ledger/kinds";
+import { LOT_STATUSES, labelOf } from "@/lib/core/vocabulary";
 import { listLots } from "@/lib/feedstock/lot.store";
 import { ffa, kg, pct, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";

@@ -1,5 +1,5 @@
-import type { Db } from "@/lib/database/connect";
-import { labelOf } from "@/lib/ledger/kinds";
+import type { Db } from "@/lib/core/connect";
+import { labelOf } from "@/lib/core/vocabulary";
 import { computeReceiptsSeries, weekStartMs } from "@/lib/feedstock/receipts-series";
 import type { ReceiptWeek } from "@/lib/feedstock/receipts-series";
 import { listFeedstockReceipts } from "@/lib/feedstock/receipts-series.store";

@@ -1,9 +1,9 @@
 "use server";
 import { revalidatePath } from "next/cache";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { getSignedIn, requireRole } from "@/lib/auth/request.service";
 import { changeOwnPassword, setOwnUnits } from "@/lib/auth/user.service";
-import { SITE_ROLES } from "@/lib/ledger/kinds";
+import { SITE_ROLES } from "@/lib/core/vocabulary";
 import { readText, readValues, refused } from "@/app/_ui/kit/form-state";
 import { redirect } from "next/navigation";
 import { homeFor } from "@/lib/auth/read-matrix";

@@ -1,6 +1,6 @@
 import Link from "next/link";
 import type { Metadata } from "next";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { loadSite } from "@/app/_ui/site";
 import { HistoryLink, NoSite } from "@/app/_ui/ui";
 import { UnitsForm } from "@/app/me/units-form";

@@ -1,7 +1,7 @@
 "use server";
 import { redirect } from "next/navigation";
 import { revalidatePath } from "next/cache";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { recordPlannedBatch } from "@/lib/batch/plan.service";
 import { readText, refused } from "@/app/_ui/kit/form-state";

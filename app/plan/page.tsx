@@ -1,8 +1,8 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import type { ReactNode } from "react";
-import type { DomainIssue } from "@/lib/errors";
-import { CATALYSTS, labelOf } from "@/lib/ledger/kinds";
+import type { DomainIssue } from "@/lib/core/result";
+import { CATALYSTS, labelOf } from "@/lib/core/vocabulary";
 import { BLEND_OBJECTIVES } from "@/lib/blend/blend.schema";
 import {
   DEFAULT_BLEND_LIMITS,

@@ -3,7 +3,7 @@ import { WATER_LIMIT_BY_STEP } from "@/lib/recipe/recipe-defaults";
 import { levelOf, screenText } from "@/lib/spec/source-text";
 import { ConfidenceMark } from "@/app/_ui/kit";
 import { PLAN_OBJECTIVE_LABELS } from "@/lib/batch/plan";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { formatFixed } from "@/lib/quantity/units";
 
 function kgText(kg: number, d = 2): string {

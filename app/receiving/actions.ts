@@ -1,13 +1,13 @@
 "use server";
 import { screenAfterRecord } from "@/lib/screening/screening.service";
 import { revalidatePath } from "next/cache";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { receiveLotFromPickups } from "@/lib/feedstock/lot.service";
 import { receiveLotIntoTank } from "@/lib/feedstock/receive-tank.service";
 import { listPickupsNotInLot } from "@/lib/collect/collect.store";
-import { labelOf } from "@/lib/ledger/kinds";
-import type { DomainIssue } from "@/lib/errors";
+import { labelOf } from "@/lib/core/vocabulary";
+import type { DomainIssue } from "@/lib/core/result";
 import type { FormState } from "@/app/_ui/kit/form-state";
 import { readText, refused, toNumber } from "@/app/_ui/kit/form-state";
 

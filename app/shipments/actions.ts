@@ -1,6 +1,6 @@
 "use server";
 import { revalidatePath } from "next/cache";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { getSiteById } from "@/lib/site/site.store";
 import { recordShipment } from "@/lib/shipment/shipment.service";

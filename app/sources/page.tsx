@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { listSources } from "@/lib/source/source.store";
 import type { SourceRow } from "@/lib/source/source.store";
 import { servedByCollectors } from "@/lib/source/served";

@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
-import type { Db } from "@/lib/database/connect";
-import { labelOf } from "@/lib/ledger/kinds";
-import type { SiteRole } from "@/lib/ledger/kinds";
+import type { Db } from "@/lib/core/connect";
+import { labelOf } from "@/lib/core/vocabulary";
+import type { SiteRole } from "@/lib/core/vocabulary";
 import { listTankLevels } from "@/lib/site/dashboard.store";
 import type { DensityEntry } from "@/lib/quantity/density";
 import { Cautions } from "@/app/_ui/kit";

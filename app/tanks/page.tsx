@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { listTankLevels } from "@/lib/site/dashboard.store";
 import { gaugeVsBook } from "@/lib/tank/strapping";
 import { kg, litres, when } from "@/app/_ui/format";

@@ -1,6 +1,6 @@
 // CSV downloads of the trace tables: RFC 4180 (CRLF line ends, fields with a comma, quote or line
 // break quoted, quotes doubled) and cells that a spreadsheet would run as a formula neutralised.
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import type {
   BackwardTraceReport,
   ContributionRow,

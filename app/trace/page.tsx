@@ -1,13 +1,13 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { listTraceChoices } from "@/lib/trace/trace.store";
 import type { TraceChoices } from "@/lib/trace/trace.store";
 import { traceBackwardReport, traceForwardReport } from "@/lib/trace/trace.service";
 import { BACKWARD_KINDS, FORWARD_KINDS } from "@/lib/api/endpoints/trace";
 import type { BackwardTraceReport, ForwardTraceReport } from "@/lib/trace/trace.service";
 import { CustomerName, CustomerShares } from "@/app/trace/customer-shares";
-import type { DomainIssue } from "@/lib/errors";
+import type { DomainIssue } from "@/lib/core/result";
 import { kg, kgExact, pct, when } from "@/app/_ui/format";
 import { hrefOf } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";

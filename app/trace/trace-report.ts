@@ -1,6 +1,6 @@
 // The backward trace ("what is it made of") as a report: by source, feedstock lot, pickup, material kind
 // and certification, with the reagents, from the trace page's own answer. Pure.
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { reportTime } from "@/lib/report/report";
 import type { ReportContext, ReportDoc, ReportTable } from "@/lib/report/report";
 import type { BackwardTraceReport, ContributionRow } from "@/lib/trace/trace.service";

@@ -1,5 +1,5 @@
 import type { ReactNode } from "react";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import type { ContributionRow, LedgerFreshness } from "@/lib/trace/trace.service";
 import { CERTIFICATION_LABELS } from "@/lib/trace/trace.service";
 import { kg, kgExact, pct } from "@/app/_ui/format";

@@ -1,6 +1,6 @@
 import Link from "next/link";
 import type { Metadata } from "next";
-import { labelOf, WASTE_STREAMS } from "@/lib/ledger/kinds";
+import { labelOf, WASTE_STREAMS } from "@/lib/core/vocabulary";
 import { getUtcOffsetMin } from "@/lib/period/site-time";
 import { getWasteDueBoard, listDisposals, listWasteContainers } from "@/lib/waste/container.store";
 import { day, daysBetween, kg, litres, when } from "@/app/_ui/format";

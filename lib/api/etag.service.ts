@@ -6,8 +6,8 @@ import "server-only";
 import { createHash } from "node:crypto";
 import { NextResponse } from "next/server";
 import { respond } from "@/lib/api/json-route.service";
-import type { Db } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
 import { positionTag, quarterHourOf } from "@/lib/ledger/position";
 import { getLedgerPosition } from "@/lib/ledger/position.store";
 

@@ -3,13 +3,13 @@ import { NextResponse } from "next/server";
 import { unstable_rethrow } from "next/navigation";
 import { getSignedIn, requireRole } from "@/lib/auth/request.service";
 import { idempotent, MAX_JSON_BYTES, readJson, requireSameOrigin, respond } from "@/lib/api/json-route.service";
-import { getDb } from "@/lib/db";
-import type { Db } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
-import type { SiteRole } from "@/lib/ledger/kinds";
-import type { Actor } from "@/lib/site/actor";
+import { getDb } from "@/lib/core/db";
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
+import type { SiteRole } from "@/lib/core/vocabulary";
+import type { Actor } from "@/lib/core/actor";
 import { log, newReference } from "@/lib/log/log.service";
-import { classifyDatabaseFault, FAULT_MESSAGES } from "@/lib/database/faults";
+import { classifyDatabaseFault, FAULT_MESSAGES } from "@/lib/core/faults";
 
 /** What a person is told when the server fails: a reference to pass on, no developer advice. */
 export function unexpectedMessage(reference: string): string {

@@ -1,7 +1,7 @@
 import "server-only";
 import { NextResponse } from "next/server";
 import type { z } from "zod";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import { statusFor } from "@/lib/http";
 import { createHash } from "node:crypto";

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db, Tx } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/core/connect";
 import { insertRows } from "@/lib/database/bulk-insert";
 import { chainHash } from "@/lib/audit/chain";
 import type { ChainedEvent } from "@/lib/audit/chain";

@@ -1,8 +1,8 @@
 // Tamper evidence for the audit trail: each event's hash covers the previous hash and the event's
 // own fields in a canonical form, so changing or removing any stored event breaks every later hash.
 import { createHash } from "node:crypto";
-import type { Result } from "@/lib/errors";
-import { fail, ok } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
+import { fail, ok } from "@/lib/core/result";
 
 export interface AuditFields {
   siteId: number;

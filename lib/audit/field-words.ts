@@ -1,6 +1,6 @@
 // How a recorded field and its value read on the history page: words, not stored names; kilograms and
 // litres, not the grams and millilitres the books keep; labels, not stored codes. Pure.
-import { LABELS } from "@/lib/ledger/kinds";
+import { LABELS } from "@/lib/core/vocabulary";
 
 /** Stored names whose plain words are not simply their split spelling. */
 const FIELD_WORDS: Readonly<Record<string, string>> = {

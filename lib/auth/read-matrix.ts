@@ -1,7 +1,7 @@
 // Who may read what: one table for every page, GET route, export and report. The menu is drawn from
 // it, pages and GET routes enforce it on the server, and the browser test walks the build's own route
 // list against it, so a route missing here is refused until someone decides.
-import type { SiteRole } from "@/lib/ledger/kinds";
+import type { SiteRole } from "@/lib/core/vocabulary";
 
 const C: SiteRole = "COLLECTOR";
 const P: SiteRole = "PRODUCTION";

@@ -1,12 +1,12 @@
 import "server-only";
 import { cookies, headers } from "next/headers";
-import { getDb } from "@/lib/db";
-import type { Result } from "@/lib/errors";
-import { fail, ok } from "@/lib/errors";
-import type { SiteRole } from "@/lib/ledger/kinds";
-import { SITE_ROLES } from "@/lib/ledger/kinds";
+import { getDb } from "@/lib/core/db";
+import type { Result } from "@/lib/core/result";
+import { fail, ok } from "@/lib/core/result";
+import type { SiteRole } from "@/lib/core/vocabulary";
+import { SITE_ROLES } from "@/lib/core/vocabulary";
 import { readersOf } from "@/lib/auth/read-matrix";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 import type { SessionUser } from "@/lib/auth/session.service";
 import { resolveSession } from "@/lib/auth/session.service";
 

@@ -1,10 +1,10 @@
 import "server-only";
 import { createHash, randomBytes } from "node:crypto";
-import type { Db } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
-import { fail, ok } from "@/lib/errors";
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
+import { fail, ok } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
-import type { SiteRole } from "@/lib/ledger/kinds";
+import type { SiteRole } from "@/lib/core/vocabulary";
 import { verifyPassword } from "@/lib/auth/password";
 import { SignInSchema } from "@/lib/auth/session.schema";
 import {

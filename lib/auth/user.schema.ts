@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { MAX_PASSWORD_LENGTH, MIN_PASSWORD_LENGTH } from "@/lib/auth/password";
-import { SITE_ROLES } from "@/lib/ledger/kinds";
-import { oneOf, requiredText } from "@/lib/ledger/fields";
+import { SITE_ROLES } from "@/lib/core/vocabulary";
+import { oneOf, requiredText } from "@/lib/core/fields";
 
 /** Sign-in names: lower-case letters, digits, dot, dash, underscore (what people type on a phone without surprises). */
 export const LOGIN_PATTERN = /^[a-z0-9][a-z0-9._-]{2,79}$/;

@@ -19,12 +19,12 @@ import {
 } from "@/lib/auth/user.store";
 import { recordLoginAttempt } from "@/lib/auth/session.store";
 import { UNLOCK_ADDRESS } from "@/lib/auth/session-rules";
-import type { Db } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
-import { fail } from "@/lib/errors";
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
+import { fail } from "@/lib/core/result";
 import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
 import { parseInput } from "@/lib/ledger/parse";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 
 // Accounts are never deleted: a leaver is deactivated (their sessions end at once) and their name stays
 // on every record they made. Every change is in the audit trail; password hashes never are.

@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { CATALYSTS, REAGENTS } from "@/lib/ledger/kinds";
-import { code, id, massKg, oneOf, percent, requiredText, tempC, text, when } from "@/lib/ledger/fields";
+import { CATALYSTS, REAGENTS } from "@/lib/core/vocabulary";
+import { code, id, massKg, oneOf, percent, requiredText, tempC, text, when } from "@/lib/core/fields";
 
 export const MIN_MOLAR_RATIO = 3;
 export const MAX_MOLAR_RATIO = 40;

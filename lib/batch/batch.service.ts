@@ -1,7 +1,7 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
-import type { Db, Tx } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
+import type { Db, Tx } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import {
   createHolder,
@@ -26,8 +26,8 @@ import {
 import type { BatchState } from "@/lib/batch/batch.store";
 import { insertProductLot } from "@/lib/product/product.store";
 import { getContainerState } from "@/lib/waste/container.store";
-import { labelOf, UNMEASURED_ROLE } from "@/lib/ledger/kinds";
-import type { MoveRole } from "@/lib/ledger/kinds";
+import { labelOf, UNMEASURED_ROLE } from "@/lib/core/vocabulary";
+import type { MoveRole } from "@/lib/core/vocabulary";
 import { planUnmeasuredBooking } from "@/lib/batch/closure";
 import { markLotConsumedIfEmpty, requireDrawableHolder } from "@/lib/ledger/draw.store";
 import { siteLossHolder } from "@/lib/feedstock/lot.store";
@@ -42,7 +42,7 @@ import type { z } from "zod";
 
 type BatchComplete = z.output<typeof BatchCompleteSchema>;
 import { toGrams } from "@/lib/quantity/units";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 import { getTankServiceByHolder, requireTankRoom } from "@/lib/tank/tank.store";
 
 /** Methanol, catalyst, acid or process water enters the books as a reagent lot. */

@@ -1,13 +1,13 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
-import { failMany, ok } from "@/lib/errors";
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
+import { failMany, ok } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import { planBatch } from "@/lib/batch/batch.service";
 import { BatchPlanRequestSchema, draftBatchPlan } from "@/lib/batch/plan";
 import type { PlanProposal, RecipeCard } from "@/lib/batch/plan";
 import { listReagentStock, loadPlanStock } from "@/lib/batch/plan.store";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 
 /** Proposes draws and a recipe from the site's stock now; nothing is written. */
 export async function proposeBatchPlan(db: Db, actor: Actor, input: unknown): Promise<Result<PlanProposal>> {

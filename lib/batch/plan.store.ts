@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 import { getLabResults } from "@/lib/feedstock/lab.store";
 import type { LotLabResult } from "@/lib/feedstock/lab.store";
 import { convertFfaBasis } from "@/lib/titration/titration";
@@ -14,7 +14,7 @@ import { traceHolder } from "@/lib/trace/genealogy";
 import type { HolderTrace } from "@/lib/trace/genealogy";
 import { indexLedger } from "@/lib/trace/ledger";
 import type { LedgerIndex } from "@/lib/trace/ledger";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 import type { LotStock, PlanStock, ReagentStock, TankShare, TankStock } from "@/lib/batch/plan";
 
 type Order = "dated" | "booked";

@@ -2,11 +2,11 @@
 // recipe for that blend (direct base step, or acid pretreatment and base step), as a printable card.
 // Pure: stock, reagents and the clock come in as arguments.
 import { z } from "zod";
-import { failMany, ok } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
-import { CATALYSTS } from "@/lib/ledger/kinds";
-import type { Catalyst } from "@/lib/ledger/kinds";
-import { code, oneOf, text, when } from "@/lib/ledger/fields";
+import { failMany, ok } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
+import { CATALYSTS } from "@/lib/core/vocabulary";
+import type { Catalyst } from "@/lib/core/vocabulary";
+import { code, oneOf, text, when } from "@/lib/core/fields";
 import { parseInput } from "@/lib/ledger/parse";
 import { BLEND_OBJECTIVES, MAX_BLEND_CANDIDATES, MAX_COST_PER_KG } from "@/lib/blend/blend.schema";
 import type { BlendCandidate, BlendObjective, BlendRequest } from "@/lib/blend/blend.schema";

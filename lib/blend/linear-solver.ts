@@ -1,5 +1,5 @@
 import type { Highs } from "highs";
-import { invariant } from "@/lib/errors";
+import { invariant } from "@/lib/core/result";
 
 // Thin wrapper over HiGHS (WebAssembly) that takes a dense model and writes CPLEX LP text.
 // Loading the Wasm reads one file once per process; the solve itself is deterministic.

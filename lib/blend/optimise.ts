@@ -1,6 +1,6 @@
 import { allocateByWeight } from "@/lib/quantity/allocate";
-import { fail, failMany, ok } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
+import { fail, failMany, ok } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
 import { solveLinearModel } from "@/lib/blend/linear-solver";
 import type { LinearColumn, LinearModel, LinearOutcome, LinearRow } from "@/lib/blend/linear-solver";
 import type { BlendObjective, BlendRequest } from "@/lib/blend/blend.schema";

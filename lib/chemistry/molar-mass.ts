@@ -1,5 +1,5 @@
-import { fail, failMany, invariant, ok } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
+import { fail, failMany, invariant, ok } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
 
 export const ATOMIC_WEIGHTS_SOURCE =
   "IUPAC/CIAAW Standard Atomic Weights 2021, conventional values (H, C, O, S) and standard values (Na, K)";

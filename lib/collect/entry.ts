@@ -1,7 +1,7 @@
 // The phone's pickup form: unit conversion, gauge readings, the pickup number, and the check made
 // before an entry is saved to the outbox — the SAME schema the server parses, plus "is this a known source".
-import type { DomainIssue, Result } from "@/lib/errors";
-import { failMany, ok } from "@/lib/errors";
+import type { DomainIssue, Result } from "@/lib/core/result";
+import { failMany, ok } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import { PickupSchema } from "@/lib/feedstock/pickup.schema";
 import type { Pickup } from "@/lib/feedstock/pickup.schema";

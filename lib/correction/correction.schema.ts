@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { id, oneOf, requiredText } from "@/lib/ledger/fields";
-import { BATCH_INPUT_ROLES } from "@/lib/ledger/kinds";
+import { id, oneOf, requiredText } from "@/lib/core/fields";
+import { BATCH_INPUT_ROLES } from "@/lib/core/vocabulary";
 
 // A mistake is never deleted: a transfer is cancelled by a reversing movement, a lab result is voided.
 // Both need a reason, which the audit trail keeps.

@@ -7,13 +7,13 @@ import {
   requireLabResult,
   requireMovement,
 } from "@/lib/correction/correction.store";
-import type { Db } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
 import { assertPeriodOpen, postMovement, reject, runInTransaction } from "@/lib/ledger/ledger.store";
 import { parseInput } from "@/lib/ledger/parse";
-import type { MoveRole } from "@/lib/ledger/kinds";
+import type { MoveRole } from "@/lib/core/vocabulary";
 import { requireTankRoom } from "@/lib/tank/tank.store";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 
 /**
  * Cancels a transfer into a tank, or a charge into a batch that is still reacting, booked by mistake:

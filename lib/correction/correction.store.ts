@@ -1,5 +1,5 @@
 import "server-only";
-import type { Tx } from "@/lib/database/connect";
+import type { Tx } from "@/lib/core/connect";
 import { reject } from "@/lib/ledger/ledger.store";
 
 export interface MovementToReverse {

@@ -1,8 +1,8 @@
 // Chain of custody by mass balance (RED II Art. 30(1); Implementing Regulation (EU) 2022/996 Art. 19):
 // a per-site ledger of certified credit per characteristic set and material, evaluated at every
 // booking in time order, with balance periods, carry-forward and conversion factors per process step.
-import { failMany, ok } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
+import { failMany, ok } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
 import { getPeriodContaining } from "@/lib/mass-balance/period";
 import type { Period } from "@/lib/mass-balance/period";
 

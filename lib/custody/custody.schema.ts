@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { emptyAsMissing as blank, MAX_MASS_KG, massKg, oneOf, requiredText, text, when } from "@/lib/ledger/fields";
+import { emptyAsMissing as blank, MAX_MASS_KG, massKg, oneOf, requiredText, text, when } from "@/lib/core/fields";
 import { CARRY_FORWARD_MODES, NEGATIVE_BALANCE_POLICIES, OPERATOR_TYPES } from "@/lib/custody/custody-balance";
 import { toGrams } from "@/lib/quantity/units";
 

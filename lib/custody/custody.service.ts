@@ -7,10 +7,10 @@ import "server-only";
 //               the batch's own measured yield (ester out ÷ oil in);
 //   CLAIM       each shipment marked as a certified claim debits methyl ester credit.
 // The pure ledger (buildCustodyLedger) checks every booking in time order under the active rule set.
-import type { Db } from "@/lib/database/connect";
-import { fail, ok } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
-import { labelOf } from "@/lib/ledger/kinds";
+import type { Db } from "@/lib/core/connect";
+import { fail, ok } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
+import { labelOf } from "@/lib/core/vocabulary";
 import { parseInput } from "@/lib/ledger/parse";
 import { toGrams } from "@/lib/quantity/units";
 import {

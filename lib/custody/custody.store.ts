@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 
 export interface EntryMoveRow {
   id: number;

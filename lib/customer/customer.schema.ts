@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { code, requiredText, text } from "@/lib/ledger/fields";
+import { code, requiredText, text } from "@/lib/core/fields";
 
 // A customer the site ships finished fuel to. Records are changed (audited, with a reason) and
 // deactivated, never deleted: shipments keep pointing at them.

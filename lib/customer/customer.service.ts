@@ -1,10 +1,10 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
-import type { Db } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 import { CustomerChangeSchema, CustomerSchema } from "@/lib/customer/customer.schema";
 import { getCustomer, insertCustomer, updateCustomer } from "@/lib/customer/customer.store";
 

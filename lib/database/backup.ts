@@ -5,8 +5,8 @@ import { createHash } from "node:crypto";
 import { copyFileSync, existsSync, readFileSync, renameSync, rmSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import Database from "better-sqlite3";
-import type { Db } from "@/lib/database/connect";
-import { isPostgresUrl, openDb, sqliteFilePath } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
+import { isPostgresUrl, openDb, sqliteFilePath } from "@/lib/core/connect";
 import { verifyChain } from "@/lib/audit/chain";
 
 export const CHECKED_TABLES = [

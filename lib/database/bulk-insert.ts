@@ -2,8 +2,8 @@
 // and checking its own arguments; one parameterised statement per few thousand rows costs a fraction.
 // Values are bound, never spliced into the SQL; table and column names come from the caller's code,
 // and are checked against a plain identifier pattern all the same.
-import { invariant } from "@/lib/errors";
-import type { Db, Tx } from "@/lib/database/connect";
+import { invariant } from "@/lib/core/result";
+import type { Db, Tx } from "@/lib/core/connect";
 
 export type SqlValue = string | number | boolean | Date | null;
 

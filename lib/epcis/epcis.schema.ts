@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { code, oneOf, when } from "@/lib/ledger/fields";
+import { code, oneOf, when } from "@/lib/core/fields";
 import { BACKWARD_KINDS, FORWARD_KINDS } from "@/lib/api/endpoints/trace";
 
 /** Query strings send "" for an empty field. */

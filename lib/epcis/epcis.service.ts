@@ -1,7 +1,7 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
-import { ok } from "@/lib/errors";
-import type { Result } from "@/lib/errors";
+import type { Db } from "@/lib/core/connect";
+import { ok } from "@/lib/core/result";
+import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import { getBalanceReport } from "@/lib/mass-balance/balance.service";
 import { getUtcOffsetMin } from "@/lib/site/dashboard.store";

@@ -1,8 +1,8 @@
 // GS1 EPCIS 2.0 events (JSON-LD) built from the movement ledger: receipts, pickups and moves between
 // holders as ObjectEvents with quantities in kg, batches as TransformationEvents (inputs → outputs).
 // Pure: the ledger, identifiers, period and creation time come in as arguments.
-import { BATCH_OUTPUT_ROLES } from "@/lib/ledger/kinds";
-import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
+import { BATCH_OUTPUT_ROLES } from "@/lib/core/vocabulary";
+import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
 import type { IdentifierScheme } from "@/lib/epcis/identifiers";
 
 export const EPCIS_CONTEXT = "https://ref.gs1.org/standards/epcis/2.0.0/epcis-context.jsonld";

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 import type { FfaLot } from "@/lib/feedstock/ffa-series";
 
 /** The lots a source supplied (delivered by it, or pooled from its pickups) with their titrations, for its FFA picture. */

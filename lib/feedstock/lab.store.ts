@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 import { combineFfaReadings, toFfaBasis } from "@/lib/titration/titration";
 import type { FfaBasis, FfaReading } from "@/lib/titration/titration";
 

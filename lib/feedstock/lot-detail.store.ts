@@ -1,8 +1,8 @@
 import "server-only";
 import { splitIngredients } from "@/lib/trace/ingredients";
 import type { IngredientShare, OriginGroup } from "@/lib/trace/ingredients";
-import type { Db } from "@/lib/database/connect";
-import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
+import type { Db } from "@/lib/core/connect";
+import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
 import { listMovementsById } from "@/lib/ledger/movement.store";
 import type { HolderRef, TraceLedger } from "@/lib/ledger/movement.store";
 import type { ForwardTrace, HolderTrace } from "@/lib/trace/genealogy";

@@ -2,7 +2,7 @@ import "server-only";
 // Record pages' genealogy (a lot's "where it went", a batch's or product lot's "made of") computed on
 // the site's cached trace index and snapshots, so at ten years of history a page costs a warm trace,
 // not a whole-ledger read and replay.
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 import { loadTraceLedger } from "@/lib/ledger/movement.store";
 import { describeLotFlow, describeMadeOf, timeOrderedFlow } from "@/lib/feedstock/lot-detail.store";
 import type { LotFlow, MadeOf } from "@/lib/feedstock/lot-detail.store";

@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { MATERIAL_KINDS } from "@/lib/ledger/kinds";
-import { code, oneOf, requiredText, tempC, text, volumeL, when } from "@/lib/ledger/fields";
+import { MATERIAL_KINDS } from "@/lib/core/vocabulary";
+import { code, oneOf, requiredText, tempC, text, volumeL, when } from "@/lib/core/fields";
 import { gs1LotElement } from "@/lib/labels/gs1";
 
 export const MIN_DENSITY_KG_M3 = 500;

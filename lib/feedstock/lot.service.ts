@@ -1,9 +1,9 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
 import type { z } from "zod";
-import type { Db, Tx } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
-import { failMany } from "@/lib/errors";
+import type { Db, Tx } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
+import { failMany } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import { createHolder, postMovement, reject, runInTransaction } from "@/lib/ledger/ledger.store";
 import { measureObserved } from "@/lib/feedstock/measure";
@@ -22,7 +22,7 @@ import {
 import { requireSourceId } from "@/lib/source/source.store";
 import type { DensityTable } from "@/lib/quantity/density";
 import { DEFAULT_DENSITY_TABLE } from "@/lib/quantity/density";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 
 export interface LotSaved {
   id: number;

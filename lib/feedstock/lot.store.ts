@@ -1,10 +1,10 @@
 import "server-only";
 import { combineFfaReadings, toFfaBasis } from "@/lib/titration/titration";
 import type { FfaBasis } from "@/lib/titration/titration";
-import type { Db, Tx } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/core/connect";
 import type { Measured } from "@/lib/feedstock/measure";
 import { reject } from "@/lib/ledger/ledger.store";
-import type { MaterialKind } from "@/lib/ledger/kinds";
+import type { MaterialKind } from "@/lib/core/vocabulary";
 import { toMillilitres } from "@/lib/quantity/units";
 
 interface LotCore {

@@ -1,6 +1,6 @@
 // Observed volume and temperature → mass and standard volume, with the density basis kept for the record.
-import type { Result } from "@/lib/errors";
-import { failMany, ok } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
+import { failMany, ok } from "@/lib/core/result";
 import type { DensityTable } from "@/lib/quantity/density";
 import {
   applyMeasuredDensity,
@@ -9,7 +9,7 @@ import {
   requireDensityEntry,
   standardVolume,
 } from "@/lib/quantity/density";
-import type { MaterialKind } from "@/lib/ledger/kinds";
+import type { MaterialKind } from "@/lib/core/vocabulary";
 
 export interface Measured {
   massG: number;

@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { MATERIAL_KINDS } from "@/lib/ledger/kinds";
-import { code, oneOf, tempC, text, volumeL, when } from "@/lib/ledger/fields";
+import { MATERIAL_KINDS } from "@/lib/core/vocabulary";
+import { code, oneOf, tempC, text, volumeL, when } from "@/lib/core/fields";
 import { DISTANCE_BANDS } from "@/lib/screening/pattern-signals";
 
 export const MAX_CONTAINERS = 200;

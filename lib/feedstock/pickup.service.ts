@@ -1,10 +1,10 @@
 import "server-only";
 import { appendAudit, appendAuditMany } from "@/lib/audit/audit.store";
 import { z } from "zod";
-import type { Db, Tx } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/core/connect";
 import { refreshPlannerStats, REFRESH_STATS_AFTER_ROWS } from "@/lib/database/maintenance";
-import type { DomainIssue, Result } from "@/lib/errors";
-import { fail, failMany, ok } from "@/lib/errors";
+import type { DomainIssue, Result } from "@/lib/core/result";
+import { fail, failMany, ok } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import {
   createHolder,
@@ -24,7 +24,7 @@ import type { PickupSaved } from "@/lib/feedstock/pickup.store";
 import { requireSourceId, requireSourceIds } from "@/lib/source/source.store";
 import type { DensityTable } from "@/lib/quantity/density";
 import { DEFAULT_DENSITY_TABLE } from "@/lib/quantity/density";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 
 export type { PickupSaved } from "@/lib/feedstock/pickup.store";
 

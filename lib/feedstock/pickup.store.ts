@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db, Tx } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/core/connect";
 import { insertRows } from "@/lib/database/bulk-insert";
 import type { Pickup } from "@/lib/feedstock/pickup.schema";
 import { toMillilitres } from "@/lib/quantity/units";

@@ -1,7 +1,7 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
-import type { Db } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import { runInTransaction } from "@/lib/ledger/ledger.store";
 import { LotIntoTankSchema } from "@/lib/feedstock/lot.schema";
@@ -11,7 +11,7 @@ import { setLotStatus } from "@/lib/feedstock/lot.store";
 import { bookTransfer } from "@/lib/tank/tank.service";
 import type { DensityTable } from "@/lib/quantity/density";
 import { DEFAULT_DENSITY_TABLE } from "@/lib/quantity/density";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 
 export interface LotIntoTankSaved extends LotSaved {
   tankCode: string;

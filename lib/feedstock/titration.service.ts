@@ -1,16 +1,16 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
 import { z } from "zod";
-import type { Db } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
-import { failMany } from "@/lib/errors";
-import { code, when } from "@/lib/ledger/fields";
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
+import { failMany } from "@/lib/core/result";
+import { code, when } from "@/lib/core/fields";
 import { parseInput } from "@/lib/ledger/parse";
 import { runInTransaction } from "@/lib/ledger/ledger.store";
 import { insertTitration, requireLot } from "@/lib/feedstock/lot.store";
 import { TitrationEntrySchema } from "@/lib/titration/titration.schema";
 import { calculateAcidValue, calculateFfaPercent } from "@/lib/titration/titration";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 
 export const LotTitrationSchema = z
   .object({ lotCode: code("Lot number"), testedAt: when("Test time") })

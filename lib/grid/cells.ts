@@ -1,6 +1,6 @@
 // One cell's text ↔ value: what a person types or pastes, read under the sheet's locale and units.
-import type { Result } from "@/lib/errors";
-import { fail, ok } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
+import { fail, ok } from "@/lib/core/result";
 import type { UnitSystem } from "@/lib/quantity/units";
 import { parseUnitFromHeader } from "@/lib/quantity/units";
 import type { DateOrder } from "@/lib/grid/locale-date";
@@ -11,7 +11,7 @@ import type { CellValue, GridColumn, GridTable } from "@/lib/grid/tables";
 import type { GridUnit } from "@/lib/grid/units";
 import { decimalsFor, displayUnit, fromUnit, quantityOf, toDisplay, unitSymbol } from "@/lib/grid/units";
 import { unneutralise } from "@/lib/grid/formula";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 
 /** A typed or pasted choice as its stored code: the label shown in the grid ("Oilseed crusher"), or the code itself. */
 export function codeOfChoice(options: readonly string[] | undefined, text: string): string {

@@ -1,14 +1,14 @@
 import "server-only";
 // Export of the whole filtered, sorted view — every row, not only the blocks loaded in the browser.
 import ExcelJS from "exceljs";
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 import { GRID_TABLES } from "@/lib/grid/tables";
 import type { GridExport } from "@/lib/grid/query.schema";
 import { getSiteTimeZone, queryGridRows } from "@/lib/grid/grid.store";
 import { exportColumns, toCsv } from "@/lib/grid/export";
 import type { GridActor } from "@/lib/grid/grid.service";
-import type { Result } from "@/lib/errors";
-import { fail, ok } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
+import { fail, ok } from "@/lib/core/result";
 
 export const MAX_EXPORT_ROWS = 250_000;
 const PAGE = 2_000;

@@ -2,15 +2,15 @@ import "server-only";
 import { futureObservation } from "@/lib/collect/time-skew";
 // The grid's writes: a batch of typed or pasted rows, or a CSV import, saved through the record
 // services (audit trail, period lock, guarded draws, idempotency) inside ONE transaction — all rows or none.
-import type { Db, Tx } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/core/connect";
 import { refreshPlannerStats, REFRESH_STATS_AFTER_ROWS } from "@/lib/database/maintenance";
-import type { DomainIssue, Result } from "@/lib/errors";
-import { fail, failMany, ok } from "@/lib/errors";
+import type { DomainIssue, Result } from "@/lib/core/result";
+import { fail, failMany, ok } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import { Rejection, runInTransaction, withoutIdempotencyKey } from "@/lib/ledger/ledger.store";
-import type { SiteRole } from "@/lib/ledger/kinds";
+import type { SiteRole } from "@/lib/core/vocabulary";
 import type { UnitSystem } from "@/lib/quantity/units";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 import { createSource } from "@/lib/source/source.service";
 import { importPickupRows, recordPickup } from "@/lib/feedstock/pickup.service";
 import { decideLot, receiveDelivery, receiveLotFromPickups, recordLabTest } from "@/lib/feedstock/lot.service";

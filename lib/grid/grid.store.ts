@@ -1,11 +1,11 @@
 import "server-only";
 // Server-side paging, sorting, filtering and totals for the grid's tables, and the row shapes it shows.
-import type { Db, Tx } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/core/connect";
 import type { Prisma } from "@/lib/generated/sqlite/client";
 import type { UnitSystem } from "@/lib/quantity/units";
 import type { CellValue, GridColumn, GridRow, GridTable, TableKey } from "@/lib/grid/tables";
 import { GRID_TABLES } from "@/lib/grid/tables";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import type { ColumnFilter, FilterCondition } from "@/lib/grid/query.schema";
 import { fromUnit, displayUnit } from "@/lib/grid/units";
 import { getWasteDueBoard } from "@/lib/waste/container.store";

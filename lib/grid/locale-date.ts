@@ -1,6 +1,6 @@
 // Dates as pasted from spreadsheets: ISO 8601 forms and the common local day/month orders.
-import type { Result } from "@/lib/errors";
-import { fail, ok } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
+import { fail, ok } from "@/lib/core/result";
 
 export type DateOrder = "DMY" | "MDY" | "YMD";
 

@@ -1,7 +1,7 @@
 // Numbers as people type them in spreadsheets: thousands separators and decimal commas per locale.
 // Separators per locale come from Unicode CLDR through Intl.NumberFormat (decimal and group symbols).
-import type { Result } from "@/lib/errors";
-import { fail, ok } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
+import { fail, ok } from "@/lib/core/result";
 
 export interface NumberStyle {
   decimal: "." | ",";

@@ -2,7 +2,7 @@
 // The grid checks with the same zod schemas the API, the services and the seed loader use.
 import { z } from "zod";
 import type { ZodType } from "zod";
-import { code, when } from "@/lib/ledger/fields";
+import { code, when } from "@/lib/core/fields";
 import { SourceSchema } from "@/lib/source/source.schema";
 import { PickupSchema } from "@/lib/feedstock/pickup.schema";
 import { DeliveryLotSchema, LabTestSchema, LotFromPickupsSchema } from "@/lib/feedstock/lot.schema";

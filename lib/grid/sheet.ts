@@ -1,7 +1,7 @@
 // Reading a block of rows: a tab-separated paste from a spreadsheet or a CSV file (RFC 4180, parsed
 // with papaparse), with or without a header row, under the sheet's locale and the units in its headers.
 import Papa from "papaparse";
-import { CONTROL_CHARACTERS } from "@/lib/ledger/fields";
+import { CONTROL_CHARACTERS } from "@/lib/core/fields";
 import type { UnitSystem } from "@/lib/quantity/units";
 import type { GridColumn, GridRow, GridTable } from "@/lib/grid/tables";
 import { entryColumns } from "@/lib/grid/tables";

@@ -8,7 +8,7 @@ import {
   PRODUCT_STATUSES,
   SOURCE_KINDS,
   WASTE_STREAMS,
-} from "@/lib/ledger/kinds";
+} from "@/lib/core/vocabulary";
 import { LOOKS } from "@/lib/feedstock/pickup.schema";
 import { FFA_BASES, TITRANTS } from "@/lib/titration/titration";
 import type { Quantity } from "@/lib/grid/units";

@@ -1,7 +1,7 @@
 // GS1 Application Identifier (10), batch or lot number: up to 20 characters from the GS1 AI encodable
 // character set 82 (GS1 General Specifications, AI (10) and Figure 7.11-1).
-import type { Result } from "@/lib/errors";
-import { fail, ok } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
+import { fail, ok } from "@/lib/core/result";
 
 export const AI_BATCH_LOT = "10";
 /** GS1 General Specifications, AI (10): format N2+X..20. */

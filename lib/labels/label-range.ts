@@ -1,7 +1,7 @@
 // Container label numbers for a printed sheet: a prefix and a run of zero-padded numbers.
-import type { Result } from "@/lib/errors";
-import { fail, ok } from "@/lib/errors";
-import { CODE_PATTERN } from "@/lib/ledger/fields";
+import type { Result } from "@/lib/core/result";
+import { fail, ok } from "@/lib/core/result";
+import { CODE_PATTERN } from "@/lib/core/fields";
 
 export const MAX_LABELS_PER_SHEET = 120;
 

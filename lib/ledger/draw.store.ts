@@ -1,7 +1,7 @@
 import "server-only";
-import type { Tx } from "@/lib/database/connect";
+import type { Tx } from "@/lib/core/connect";
 import { reject, requireHolder } from "@/lib/ledger/ledger.store";
-import type { HolderKind } from "@/lib/ledger/kinds";
+import type { HolderKind } from "@/lib/core/vocabulary";
 
 /**
  * The holder to draw from, refusing material that may not be used yet: a feedstock lot must be

@@ -2,14 +2,14 @@
 // guarded single-statement decrement of the source holder (never read-then-write), an increment
 // of the destination and one append-only ledger row, inside the caller's transaction.
 import { AsyncLocalStorage } from "node:async_hooks";
-import type { Db, Tx } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/core/connect";
 import { dialectOf, insertRows } from "@/lib/database/bulk-insert";
-import type { DomainIssue, Result } from "@/lib/errors";
-import { fail, failMany, ok } from "@/lib/errors";
-import { classifyDatabaseFault, FAULT_MESSAGES } from "@/lib/database/faults";
+import type { DomainIssue, Result } from "@/lib/core/result";
+import { fail, failMany, ok } from "@/lib/core/result";
+import { classifyDatabaseFault, FAULT_MESSAGES } from "@/lib/core/faults";
 import { log } from "@/lib/log/log.service";
-import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
-import { labelOf } from "@/lib/ledger/kinds";
+import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
+import { labelOf } from "@/lib/core/vocabulary";
 import { loadTraceLedger } from "@/lib/ledger/movement.store";
 import { refuseCycle } from "@/lib/trace/cycle";
 

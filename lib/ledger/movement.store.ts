@@ -1,8 +1,8 @@
 import "server-only";
-import type { Db, Tx } from "@/lib/database/connect";
-import { invariant } from "@/lib/errors";
-import { HOLDER_KINDS, MOVE_ROLES } from "@/lib/ledger/kinds";
-import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
+import type { Db, Tx } from "@/lib/core/connect";
+import { invariant } from "@/lib/core/result";
+import { HOLDER_KINDS, MOVE_ROLES } from "@/lib/core/vocabulary";
+import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
 import type { TraceHolder, TraceMove } from "@/lib/trace/ledger";
 
 /** A place that held material, as the pages name and link it. */

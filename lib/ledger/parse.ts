@@ -1,6 +1,6 @@
 import type { z } from "zod";
-import type { DomainIssue, Result } from "@/lib/errors";
-import { failMany, ok } from "@/lib/errors";
+import type { DomainIssue, Result } from "@/lib/core/result";
+import { failMany, ok } from "@/lib/core/result";
 
 /** Parses input with a shared schema; every issue names its field path (e.g. "charges.1.massKg"). */
 export function parseInput<S extends z.ZodType>(schema: S, input: unknown): Result<z.output<S>> {

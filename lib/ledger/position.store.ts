@@ -4,7 +4,7 @@ import "server-only";
 // move no material: gauges, period close and reopen, lot and source edits), so any change a report can
 // show moves the position forward. Both reads are primary-key lookups, cheap enough for every request,
 // and they come from the database, so several server processes on one database agree on it.
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 import type { LedgerPosition } from "@/lib/ledger/position";
 
 export async function getLedgerPosition(db: Db, siteId: number): Promise<LedgerPosition> {

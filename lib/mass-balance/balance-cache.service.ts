@@ -5,8 +5,8 @@ import "server-only";
 // recomputes. A closed period's answer is kept across positions while its seal holds (still closed
 // since the same moment, nothing back-dated before its end since). The position and the seal are read
 // from the database, so several server processes on one database give the same answers.
-import type { Db } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
 import { getBalanceReport } from "@/lib/mass-balance/balance.service";
 import type { BalanceReport } from "@/lib/mass-balance/balance.service";
 import { getLastGaugeId, sealHolds, sealText } from "@/lib/mass-balance/balance-seal.store";

@@ -1,6 +1,6 @@
 // The balance page's query and GET /api/balance (documented in lib/api/endpoints/trace.ts, which re-exports these).
 import { z } from "zod";
-import { emptyAsMissing as blank, oneOf } from "@/lib/ledger/fields";
+import { emptyAsMissing as blank, oneOf } from "@/lib/core/fields";
 import {
   MAX_PERIOD_YEAR,
   MAX_TOLERANCE_PCT,

@@ -3,7 +3,7 @@ import "server-only";
 // closed since the same moment, and nothing dated before its end was booked since the answer was made.
 // Bookings dated inside the closed period are refused, but an earlier period left open can still take
 // a back-dated movement or gauge, which would change this period's opening stock or gauge comparison.
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 
 export interface BalanceSeal {
   periodId: number;

@@ -1,6 +1,6 @@
 // The shapes a period balance is computed over and answers with, shared by period-balance and differences
 // (kept apart so the two computations do not import each other). Pure.
-import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
+import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
 
 export type ReceiptClass = "FEEDSTOCK" | "REAGENT" | "OTHER";
 

@@ -2,11 +2,11 @@ import "server-only";
 // The period mass balance of a site for the balance page and the JSON API: the stock identity in
 // whole grams (site-wide and per material kind), the process view of the batches finished in the
 // period, book stock against the latest tank gauges, and the accounting period's close/reopen record.
-import type { Db } from "@/lib/database/connect";
-import { fail, ok } from "@/lib/errors";
-import type { Result } from "@/lib/errors";
-import { labelOf } from "@/lib/ledger/kinds";
-import type { MoveRole } from "@/lib/ledger/kinds";
+import type { Db } from "@/lib/core/connect";
+import { fail, ok } from "@/lib/core/result";
+import type { Result } from "@/lib/core/result";
+import { labelOf } from "@/lib/core/vocabulary";
+import type { MoveRole } from "@/lib/core/vocabulary";
 import { parseInput } from "@/lib/ledger/parse";
 import {
   getAccountingPeriodExact,

@@ -1,8 +1,8 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
-import { invariant } from "@/lib/errors";
-import { MOVE_ROLES } from "@/lib/ledger/kinds";
-import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
+import type { Db } from "@/lib/core/connect";
+import { invariant } from "@/lib/core/result";
+import { MOVE_ROLES } from "@/lib/core/vocabulary";
+import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
 import { findReversedPairs, toHolderKind } from "@/lib/ledger/movement.store";
 import type { BalanceHolder, BalanceMove, GaugeReading } from "@/lib/mass-balance/period-balance";
 

@@ -1,9 +1,9 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 import { findReversedPairs, toHolderKind } from "@/lib/ledger/movement.store";
-import { MOVE_ROLES } from "@/lib/ledger/kinds";
-import type { MoveRole } from "@/lib/ledger/kinds";
-import { invariant } from "@/lib/errors";
+import { MOVE_ROLES } from "@/lib/core/vocabulary";
+import type { MoveRole } from "@/lib/core/vocabulary";
+import { invariant } from "@/lib/core/result";
 import type { FlowHolder, FlowMove } from "@/lib/mass-balance/flows";
 
 const ROLE_SET: ReadonlySet<string> = new Set(MOVE_ROLES);

@@ -4,8 +4,8 @@
 // A picture of this kind must have no loop, so only links that go forward a stage are drawn; a move
 // between two places of one stage (tank to tank) or back (recovered methanol charged again) is counted
 // apart, and the three totals add up to every gram moved. Small sources are pooled into one node. Pure.
-import { BATCH_OUTPUT_ROLES, labelOf } from "@/lib/ledger/kinds";
-import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
+import { BATCH_OUTPUT_ROLES, labelOf } from "@/lib/core/vocabulary";
+import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
 
 export interface FlowHolder {
   id: number;

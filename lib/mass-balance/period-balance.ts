@@ -3,10 +3,10 @@
 //   process view: batch inputs (oil + reagents) = batch outputs (ester, glycerol phase, wash water,
 //                 recovered methanol, recorded losses) + unaccounted
 // and book stock against measured tank gauges.
-import { failMany, ok } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
-import { BATCH_INPUT_ROLES, BATCH_OUTPUT_ROLES, MOVE_ROLES } from "@/lib/ledger/kinds";
-import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
+import { failMany, ok } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
+import { BATCH_INPUT_ROLES, BATCH_OUTPUT_ROLES, MOVE_ROLES } from "@/lib/core/vocabulary";
+import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
 import { computeDifferences } from "@/lib/mass-balance/differences";
 import type {
   BalanceHolder,

@@ -1,8 +1,8 @@
 // A parsed period choice turned into instants. Kept apart from period.ts because the schema uses
 // period.ts (offset limits, calendar dates) and this function uses the schema's type: together they
 // would import each other.
-import { ok } from "@/lib/errors";
-import type { Result } from "@/lib/errors";
+import { ok } from "@/lib/core/result";
+import type { Result } from "@/lib/core/result";
 import { getCustomPeriod, getMonthPeriod, getQuarterPeriod } from "@/lib/mass-balance/period";
 import type { Period, UtcOffset } from "@/lib/mass-balance/period";
 import type { PeriodRange } from "@/lib/mass-balance/period.schema";

@@ -1,8 +1,8 @@
 // Balance periods as half-open instants [startMs, endMs), bounded at local midnight of a site.
 // The caller resolves the site's time zone to a UTC offset (minutes east of UTC, e.g. +60 for CET,
 // -300 for EST); nothing here reads a clock or a time-zone database.
-import { fail, invariant, ok } from "@/lib/errors";
-import type { Result } from "@/lib/errors";
+import { fail, invariant, ok } from "@/lib/core/result";
+import type { Result } from "@/lib/core/result";
 
 export interface Period {
   startMs: number;

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { when } from "@/lib/ledger/fields";
+import { when } from "@/lib/core/fields";
 
 export const AccountingPeriodSchema = z
   .object({ startsAt: when("Period start"), endsAt: when("Period end") })

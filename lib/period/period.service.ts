@@ -1,13 +1,13 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
 import { z } from "zod";
-import type { Db } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
-import { id } from "@/lib/ledger/fields";
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
+import { id } from "@/lib/core/fields";
 import { parseInput } from "@/lib/ledger/parse";
 import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
 import { AccountingPeriodSchema } from "@/lib/period/period.schema";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 import { findOverlappingPeriod, getPeriodState, insertPeriod, setPeriodStatus } from "@/lib/period/period.store";
 
 export const PeriodCloseSchema = z.object({

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 import { buildCertificate } from "@/lib/product/certificate";
 import type { CertificateData } from "@/lib/product/certificate";
 import { renderCertificatePdf } from "@/lib/product/certificate-pdf";

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { code, massKg, requiredText, text, volumeL, when } from "@/lib/ledger/fields";
+import { code, massKg, requiredText, text, volumeL, when } from "@/lib/core/fields";
 
 export const ProductLotSchema = z.object({
   code: code("Product lot"),

@@ -1,10 +1,10 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
 import type { AuditEntry } from "@/lib/audit/audit.store";
-import type { Db, Tx } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
+import type { Db, Tx } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import {
   assertPeriodsOpen,
   createHolder,
@@ -20,7 +20,7 @@ import { judgeRecords, toResultsIn } from "@/lib/product/certificate";
 import { currentResults, judgeValue } from "@/lib/spec/spec";
 import type { Spec, Verdict } from "@/lib/spec/spec";
 import { toGrams, toMillilitres } from "@/lib/quantity/units";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 import { getSpecByKey } from "@/lib/spec/site-spec.service";
 import {
   getProductState,

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db, Tx } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/core/connect";
 import { listHolderMovements, toHolderKind } from "@/lib/ledger/movement.store";
 import type { HolderRef, MovementView } from "@/lib/ledger/movement.store";
 import type { QcRecord } from "@/lib/product/certificate";

@@ -1,4 +1,4 @@
-import { invariant } from "@/lib/errors";
+import { invariant } from "@/lib/core/result";
 
 /**
  * Splits an integer total (grams) over weights so the parts are integers that add up to the

@@ -1,5 +1,5 @@
-import { failMany, invariant, ok } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
+import { failMany, invariant, ok } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
 import { ABSOLUTE_ZERO_C, fahrenheitToCelsius, toGrams, toMillilitres } from "@/lib/quantity/units";
 
 /**

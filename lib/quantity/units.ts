@@ -1,5 +1,5 @@
-import { fail, invariant, ok } from "@/lib/errors";
-import type { Result } from "@/lib/errors";
+import { fail, invariant, ok } from "@/lib/core/result";
+import type { Result } from "@/lib/core/result";
 
 /**
  * Units, exact conversions and the integer rounding policy.

@@ -1,6 +1,6 @@
 import { convertFfaBasis } from "@/lib/titration/titration";
-import { ok, fail } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
+import { ok, fail } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
 import { MOLAR_MASS } from "@/lib/chemistry/molar-mass";
 import { METHANOL_DENSITY_20C } from "@/lib/chemistry/physical-constants";
 import { defineSourced } from "@/lib/chemistry/sourced-value";

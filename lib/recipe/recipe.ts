@@ -1,6 +1,6 @@
 import { allocateByWeight } from "@/lib/quantity/allocate";
-import { ok, fail } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
+import { ok, fail } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
 import { MOLAR_MASS } from "@/lib/chemistry/molar-mass";
 import type { CompoundName } from "@/lib/chemistry/molar-mass";
 import { computeFameMolarMassFromTg } from "@/lib/chemistry/mean-molar-mass";

@@ -1,5 +1,5 @@
-import { fail, ok } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
+import { fail, ok } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
 import { defineSourced } from "@/lib/chemistry/sourced-value";
 import type { SourcedValue } from "@/lib/chemistry/sourced-value";
 import type { RecipePlan } from "@/lib/recipe/recipe";

@@ -1,7 +1,7 @@
 // Printable reports: one data shape that the page, the CSV and the PDF all render, so the three agree
 // to the gram. Each report's builder is a pure function from its service answer to a ReportDoc; the
 // renderers (report-csv.ts, report-pdf.ts, app/_ui/report-view.tsx) know nothing about the subject.
-import type { HolderKind } from "@/lib/ledger/kinds";
+import type { HolderKind } from "@/lib/core/vocabulary";
 
 /** How a column's values are written: masses are whole grams, shown in kg to the gram. */
 export type ReportColumnKind = "text" | "mass" | "pct" | "count" | "day" | "time" | "holder" | "status";

@@ -2,8 +2,8 @@ import "server-only";
 // Compliance's side of screening: a source's declared capacity and hours, decisions on flags (confirm
 // with watch, lot hold and withheld credit, or dismiss with a reason), and clearing a source. All audited.
 import { appendAudit } from "@/lib/audit/audit.store";
-import type { Db } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
 import { setLotScreeningHold } from "@/lib/feedstock/lot.store";
 import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
 import { parseInput } from "@/lib/ledger/parse";
@@ -16,7 +16,7 @@ import {
   setSourceStanding,
 } from "@/lib/screening/screening.store";
 import { getSourceProfile, updateSourceProfile } from "@/lib/screening/source-profile.store";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 
 export async function saveSourceProfile(db: Db, actor: Actor, input: unknown): Promise<Result<{ code: string }>> {
   const parsed = parseInput(SourceProfileSchema, input);

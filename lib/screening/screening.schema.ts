@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { code, id, requiredText, text, when } from "@/lib/ledger/fields";
-import { SOURCE_KINDS } from "@/lib/ledger/kinds";
+import { code, id, requiredText, text, when } from "@/lib/core/fields";
+import { SOURCE_KINDS } from "@/lib/core/vocabulary";
 import { CAPACITY_BASES } from "@/lib/screening/capacity";
 import { DISTANCE_BANDS } from "@/lib/screening/pattern-signals";
 

@@ -2,10 +2,10 @@ import "server-only";
 // Runs the screening signals: cheaply for the sources behind one new pickup, lot or lab result, or for
 // every source over a period chosen from the queue page. Flags are saved; decisions never reopen.
 import { appendAudit } from "@/lib/audit/audit.store";
-import type { Db } from "@/lib/database/connect";
-import { ok } from "@/lib/errors";
-import type { Result } from "@/lib/errors";
-import { labelOf } from "@/lib/ledger/kinds";
+import type { Db } from "@/lib/core/connect";
+import { ok } from "@/lib/core/result";
+import type { Result } from "@/lib/core/result";
+import { labelOf } from "@/lib/core/vocabulary";
 import { runInTransaction } from "@/lib/ledger/ledger.store";
 import { parseInput } from "@/lib/ledger/parse";
 import { log } from "@/lib/log/log.service";
@@ -25,7 +25,7 @@ import {
 import type { LotScreenRow, PickupScreenRow, SourceScreenRow } from "@/lib/screening/screening.store";
 import { indexKindMonths, peersOf, screenSource } from "@/lib/screening/screen-source";
 import { getSiteById } from "@/lib/site/site.store";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 
 /** How far back a screen triggered by one record looks. */
 export const TRIGGERED_WINDOW_MONTHS = 24;

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db, Tx } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/core/connect";
 import type { SourceProfile } from "@/lib/screening/screening.schema";
 
 export interface SourceProfileRow {

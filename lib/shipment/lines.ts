@@ -1,6 +1,6 @@
 // A shipment line's quantity in the books' units, and a shipment's totals. Pure.
-import type { DomainIssue, Result } from "@/lib/errors";
-import { failMany, ok } from "@/lib/errors";
+import type { DomainIssue, Result } from "@/lib/core/result";
+import { failMany, ok } from "@/lib/core/result";
 import type { DensityEntry } from "@/lib/quantity/density";
 import {
   DEFAULT_REFERENCE_TEMP_C,

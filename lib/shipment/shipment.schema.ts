@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { code, massKg, tempC, text, volumeL, when } from "@/lib/ledger/fields";
+import { code, massKg, tempC, text, volumeL, when } from "@/lib/core/fields";
 
 /** How many lines one shipment may have (one per compartment load is the usual case). */
 export const MAX_SHIPMENT_LINES = 12;

@@ -1,9 +1,9 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
-import type { Db, Tx } from "@/lib/database/connect";
-import type { DomainIssue, Result } from "@/lib/errors";
-import { failMany } from "@/lib/errors";
-import { labelOf } from "@/lib/ledger/kinds";
+import type { Db, Tx } from "@/lib/core/connect";
+import type { DomainIssue, Result } from "@/lib/core/result";
+import { failMany } from "@/lib/core/result";
+import { labelOf } from "@/lib/core/vocabulary";
 import { parseInput } from "@/lib/ledger/parse";
 import {
   assertPeriodOpen,
@@ -14,7 +14,7 @@ import {
   runInTransaction,
 } from "@/lib/ledger/ledger.store";
 import { DEFAULT_DENSITY_TABLE, requireDensityEntry } from "@/lib/quantity/density";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 import { getCustomer } from "@/lib/customer/customer.store";
 import { lineQuantity, shipmentTotals } from "@/lib/shipment/lines";
 import type { LineQuantity } from "@/lib/shipment/lines";

@@ -1,6 +1,6 @@
 import "server-only";
-import type { Db, Tx } from "@/lib/database/connect";
-import type { HolderKind } from "@/lib/ledger/kinds";
+import type { Db, Tx } from "@/lib/core/connect";
+import type { HolderKind } from "@/lib/core/vocabulary";
 import { listHolderMovements, toHolderKind } from "@/lib/ledger/movement.store";
 import type { HolderRef, MovementView } from "@/lib/ledger/movement.store";
 

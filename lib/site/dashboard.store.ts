@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 import { listBatches } from "@/lib/batch/batch.store";
 import type { BatchRow } from "@/lib/batch/batch.store";
 import { listLots } from "@/lib/feedstock/lot.store";

@@ -1,10 +1,10 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
-import type { Db } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 import { SiteGs1Schema } from "@/lib/site/site-settings.schema";
 import { getSiteGs1Prefix, updateSiteGs1Prefix } from "@/lib/site/site.store";
 

@@ -1,6 +1,6 @@
 import "server-only";
-import type { Db, Tx } from "@/lib/database/connect";
-import type { SiteRole } from "@/lib/ledger/kinds";
+import type { Db, Tx } from "@/lib/core/connect";
+import type { SiteRole } from "@/lib/core/vocabulary";
 
 export interface SiteRow {
   id: number;

@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { MATERIAL_KINDS, SOURCE_KINDS } from "@/lib/ledger/kinds";
-import { code, oneOf, requiredText, text, when } from "@/lib/ledger/fields";
+import { MATERIAL_KINDS, SOURCE_KINDS } from "@/lib/core/vocabulary";
+import { code, oneOf, requiredText, text, when } from "@/lib/core/fields";
 
 export const MAX_PICKUP_INTERVAL_DAYS = 365;
 

@@ -1,12 +1,12 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
-import type { Db } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import { runInTransaction } from "@/lib/ledger/ledger.store";
 import { SourceSchema } from "@/lib/source/source.schema";
 import { insertSource } from "@/lib/source/source.store";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 
 export async function createSource(
   db: Db,

@@ -2,7 +2,7 @@
 // buyer's tighter water limit, a climate class for the cold-filter plugging point). Shared by the
 // form's action, the JSON route and the service.
 import { z } from "zod";
-import { id, requiredText } from "@/lib/ledger/fields";
+import { id, requiredText } from "@/lib/core/fields";
 
 export const MAX_SITE_SPEC_NAME = 80;
 

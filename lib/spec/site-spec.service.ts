@@ -1,11 +1,11 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
-import type { Db, Tx } from "@/lib/database/connect";
-import { failMany } from "@/lib/errors";
-import type { Result } from "@/lib/errors";
+import type { Db, Tx } from "@/lib/core/connect";
+import { failMany } from "@/lib/core/result";
+import type { Result } from "@/lib/core/result";
 import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
 import { parseInput } from "@/lib/ledger/parse";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 import { getBuiltInSpec, listBuiltInSpecs } from "@/lib/spec/spec";
 import type { Spec } from "@/lib/spec/spec";
 import { applySiteLimits, changedLimits, siteLimitIssues } from "@/lib/spec/site-spec";

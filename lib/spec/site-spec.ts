@@ -1,6 +1,6 @@
 // Pure rules of site specifications: which typed limits differ from the base, whether a change would
 // loosen a published limit, and the Spec a stored version resolves to.
-import type { DomainIssue } from "@/lib/errors";
+import type { DomainIssue } from "@/lib/core/result";
 import { limitText } from "@/lib/spec/spec";
 import type { Spec, SpecProperty } from "@/lib/spec/spec";
 import type { SiteLimit, SiteLimits } from "@/lib/spec/site-spec.schema";

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 import type { TankMove, TankReading } from "@/lib/tank/stock-series";
 
 /** Every movement into and out of a tank and every gauge reading of it, for its stock picture; null for no such tank. */

@@ -1,5 +1,5 @@
-import { fail, ok } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
+import { fail, ok } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
 import { applyMeasuredDensity, massFromObserved } from "@/lib/quantity/density";
 import type { DensityEntry, MassFromVolume } from "@/lib/quantity/density";
 

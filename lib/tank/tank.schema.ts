@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { MIXING_MODELS, TANK_SERVICES } from "@/lib/ledger/kinds";
-import { code, massKg, MAX_VOLUME_L, oneOf, requiredText, tempC, text, volumeL, when } from "@/lib/ledger/fields";
+import { MIXING_MODELS, TANK_SERVICES } from "@/lib/core/vocabulary";
+import { code, massKg, MAX_VOLUME_L, oneOf, requiredText, tempC, text, volumeL, when } from "@/lib/core/fields";
 import { MAX_DENSITY_KG_M3, MIN_DENSITY_KG_M3 } from "@/lib/quantity/density.schema";
 import { strappingProblems } from "@/lib/tank/strapping";
 

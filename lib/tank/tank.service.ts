@@ -1,8 +1,8 @@
 import "server-only";
 import type { z } from "zod";
 import { appendAudit } from "@/lib/audit/audit.store";
-import type { Db, Tx } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
+import type { Db, Tx } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import {
   assertPeriodOpen,
@@ -19,8 +19,8 @@ import { GaugeSchema, TankSchema, TransferSchema } from "@/lib/tank/tank.schema"
 import { gaugeVsBook, massOfVolume, parseStrapping, volumeAtLevel } from "@/lib/tank/strapping";
 import { toGrams, toMillilitres } from "@/lib/quantity/units";
 import { DEFAULT_DENSITY_TABLE, requireDensityEntry } from "@/lib/quantity/density";
-import type { Actor } from "@/lib/site/actor";
-import { labelOf } from "@/lib/ledger/kinds";
+import type { Actor } from "@/lib/core/actor";
+import { labelOf } from "@/lib/core/vocabulary";
 import {
   bookStockAt,
   getDensityBasis,

@@ -1,5 +1,5 @@
-import { fail, failMany, ok } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
+import { fail, failMany, ok } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
 import type { SourceStatus } from "@/lib/quantity/density";
 
 /**

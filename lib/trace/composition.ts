@@ -1,4 +1,4 @@
-import { invariant } from "@/lib/errors";
+import { invariant } from "@/lib/core/result";
 import { allocateWholeGramsInto } from "@/lib/quantity/allocate";
 
 /**

@@ -1,5 +1,5 @@
-import { fail, ok } from "@/lib/errors";
-import type { Result } from "@/lib/errors";
+import { fail, ok } from "@/lib/core/result";
+import type { Result } from "@/lib/core/result";
 import { compareMoves, formatMoveField } from "@/lib/trace/ledger";
 import type { HolderKind, TraceHolder, TraceMove } from "@/lib/trace/ledger";
 

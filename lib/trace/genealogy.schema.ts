@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { id, when } from "@/lib/ledger/fields";
-import { MIXING_MODELS } from "@/lib/ledger/kinds";
+import { id, when } from "@/lib/core/fields";
+import { MIXING_MODELS } from "@/lib/core/vocabulary";
 import { REPLAY_SNAPSHOT_FORMAT } from "@/lib/trace/replay";
 
 /** A forward trace over more origins than this should be asked per source or per lot instead. */

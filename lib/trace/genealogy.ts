@@ -6,8 +6,8 @@
 // (composition.ts), so they cost memory and snapshot size, not time per move.
 // Backward traces replay only the target's ancestor subgraph; periodic snapshots bound any replay to
 // the moves since the last snapshot.
-import { fail, failMany, invariant, ok } from "@/lib/errors";
-import type { Result } from "@/lib/errors";
+import { fail, failMany, invariant, ok } from "@/lib/core/result";
+import type { Result } from "@/lib/core/result";
 import { addPartsToTally, sumParts, sumPartsOf, tallyToParts } from "@/lib/trace/composition";
 import type { CompositionParts } from "@/lib/trace/composition";
 import { findLastPositionAtOrBefore } from "@/lib/trace/ledger";

@@ -1,6 +1,6 @@
-import { failMany, ok } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
-import type { HolderKind, MixingModel } from "@/lib/ledger/kinds";
+import { failMany, ok } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
+import type { HolderKind, MixingModel } from "@/lib/core/vocabulary";
 
 export type { HolderKind };
 export type Mixing = MixingModel;

@@ -1,5 +1,5 @@
 // The recall report's data: built once from the recall answer, rendered by the page, the CSV and the PDF.
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { reportDay } from "@/lib/report/report";
 import type { ReportContext, ReportDoc, ReportTable } from "@/lib/report/report";
 import type { RecallReport } from "@/lib/trace/recall";

@@ -1,7 +1,7 @@
 // Recall questions: follow forward what moved into a holder (a source's pickups and deliveries, a
 // pickup, a lot, a tank within a window, a batch, a product lot), and put what is still on site on hold.
 import { z } from "zod";
-import { code, oneOf, requiredText, when } from "@/lib/ledger/fields";
+import { code, oneOf, requiredText, when } from "@/lib/core/fields";
 import { DECISION_REASON_MAX } from "@/lib/product/product.schema";
 
 export const RECALL_KINDS = ["SOURCE", "PICKUP", "LOT", "TANK", "BATCH", "PRODUCT_LOT"] as const;

@@ -3,16 +3,16 @@ import "server-only";
 // into it within a window), a batch or a product lot, every product lot, shipment and customer the
 // material reached, with grams and share, and what is still on site to hold. Runs on the site's cached
 // trace index (lib/trace/trace.service) and its monthly snapshots; the seeding is lib/trace/recall.ts.
-import type { Db } from "@/lib/database/connect";
-import { fail, failMany, ok } from "@/lib/errors";
-import type { Result } from "@/lib/errors";
-import { labelOf } from "@/lib/ledger/kinds";
+import type { Db } from "@/lib/core/connect";
+import { fail, failMany, ok } from "@/lib/core/result";
+import type { Result } from "@/lib/core/result";
+import { labelOf } from "@/lib/core/vocabulary";
 import { parseInput } from "@/lib/ledger/parse";
 import { runInTransaction } from "@/lib/ledger/ledger.store";
 import { applyProductDecision } from "@/lib/product/product.service";
 import { listProductLotStandings } from "@/lib/product/product.store";
 import { listShipmentCustomers } from "@/lib/shipment/shipment.store";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 import type { ShipmentCustomer } from "@/lib/trace/customers";
 import { traceForward } from "@/lib/trace/genealogy";
 import { findSeedMoves, groupCustomers, seedLedger, shareOf } from "@/lib/trace/recall";

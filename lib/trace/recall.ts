@@ -3,8 +3,8 @@
 // of a mixture that moved into a tank or a batch, each seed move is re-booked as a draw to a sink plus a
 // fresh entry at its destination: the replay then treats that part as an origin of its own, under the
 // same mixing models (pooled or first-in-first-out) as every other trace. Pure: no database, no clock.
-import { ok } from "@/lib/errors";
-import type { Result } from "@/lib/errors";
+import { ok } from "@/lib/core/result";
+import type { Result } from "@/lib/core/result";
 import { indexLedger } from "@/lib/trace/ledger";
 import type { HolderKind, LedgerIndex, TraceHolder, TraceMove } from "@/lib/trace/ledger";
 import type { ShipmentCustomer } from "@/lib/trace/customers";

@@ -1,5 +1,5 @@
-import { fail, failMany, invariant, ok } from "@/lib/errors";
-import type { Result } from "@/lib/errors";
+import { fail, failMany, invariant, ok } from "@/lib/core/result";
+import type { Result } from "@/lib/core/result";
 import {
   addToLayer,
   copyToLayer,

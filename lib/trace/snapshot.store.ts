@@ -3,7 +3,7 @@ import "server-only";
 // index from them instead of replaying the whole ledger. Each is read back only if its format is the
 // current one; the trace service then checks it against the ledger (moves applied, last move, mass sum)
 // and drops and rebuilds any that no longer fit. Derived data: losing the rows costs one full replay.
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 import { log } from "@/lib/log/log.service";
 import { REPLAY_SNAPSHOT_FORMAT } from "@/lib/trace/replay";
 import type { ReplaySnapshot } from "@/lib/trace/replay";

@@ -1,7 +1,7 @@
 // What a trace is asked for: the trace page's form, GET /api/trace/backward and /forward (documented in
 // lib/api/endpoints/trace.ts, which re-exports these).
 import { z } from "zod";
-import { code, emptyAsMissing as blank, oneOf, when } from "@/lib/ledger/fields";
+import { code, emptyAsMissing as blank, oneOf, when } from "@/lib/core/fields";
 
 export const BACKWARD_KINDS = ["PRODUCT_LOT", "TANK", "SHIPMENT", "BATCH"] as const;
 export type BackwardKind = (typeof BACKWARD_KINDS)[number];

@@ -13,11 +13,11 @@ import { log } from "@/lib/log/log.service";
 // the API and the record pages share one computation.
 import { BackwardTraceQuerySchema, ForwardTraceQuerySchema } from "@/lib/trace/trace-query.schema";
 import type { BackwardKind, ForwardKind } from "@/lib/trace/trace-query.schema";
-import type { Db } from "@/lib/database/connect";
-import { fail, failMany, invariant, ok } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
-import { labelOf, TERMINAL_KINDS } from "@/lib/ledger/kinds";
-import type { HolderKind } from "@/lib/ledger/kinds";
+import type { Db } from "@/lib/core/connect";
+import { fail, failMany, invariant, ok } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
+import { labelOf, TERMINAL_KINDS } from "@/lib/core/vocabulary";
+import type { HolderKind } from "@/lib/core/vocabulary";
 import { extendTraceLedger, loadTraceLedger } from "@/lib/ledger/movement.store";
 import type { HolderRef, TraceLedger } from "@/lib/ledger/movement.store";
 import { parseInput } from "@/lib/ledger/parse";

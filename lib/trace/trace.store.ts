@@ -1,6 +1,6 @@
 import "server-only";
-import type { Db } from "@/lib/database/connect";
-import type { HolderKind } from "@/lib/ledger/kinds";
+import type { Db } from "@/lib/core/connect";
+import type { HolderKind } from "@/lib/core/vocabulary";
 import { toHolderKind } from "@/lib/ledger/movement.store";
 
 /**

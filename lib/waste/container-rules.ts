@@ -1,7 +1,7 @@
 // What may be done with a waste container in its present state: pure checks the container service
 // runs inside its transaction (the ledger's guarded draw still has the last word on quantities).
-import type { DomainIssue } from "@/lib/errors";
-import type { WasteStream } from "@/lib/ledger/kinds";
+import type { DomainIssue } from "@/lib/core/result";
+import type { WasteStream } from "@/lib/core/vocabulary";
 import type { WasteCharacterisation } from "@/lib/waste/waste-due";
 
 export type ContainerStatus = "OPEN" | "FULL" | "SHIPPED";

@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { WASTE_STREAMS } from "@/lib/ledger/kinds";
-import { code, massKg, percent, requiredText, text, volumeL, when } from "@/lib/ledger/fields";
+import { WASTE_STREAMS } from "@/lib/core/vocabulary";
+import { code, massKg, percent, requiredText, text, volumeL, when } from "@/lib/core/fields";
 import { MAX_FLASH_POINT_C, MAX_PH, MIN_FLASH_POINT_C, MIN_PH } from "@/lib/waste/waste.schema";
 
 const pH = z

@@ -1,7 +1,7 @@
 import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
-import type { Db } from "@/lib/database/connect";
-import type { Result } from "@/lib/errors";
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import {
   assertPeriodsOpen,
@@ -12,7 +12,7 @@ import {
   requireHolder,
   runInTransaction,
 } from "@/lib/ledger/ledger.store";
-import type { Tx } from "@/lib/database/connect";
+import type { Tx } from "@/lib/core/connect";
 import {
   disposalExists,
   getContainerState,
@@ -30,9 +30,9 @@ import {
   WasteContainerSchema,
 } from "@/lib/waste/container.schema";
 import { checkCharacterise, checkHaul, checkMarkFull } from "@/lib/waste/container-rules";
-import type { DomainIssue } from "@/lib/errors";
+import type { DomainIssue } from "@/lib/core/result";
 import { toGrams, toMillilitres } from "@/lib/quantity/units";
-import type { Actor } from "@/lib/site/actor";
+import type { Actor } from "@/lib/core/actor";
 
 function refuse(issue: DomainIssue | null): void {
   if (issue) reject(issue.code, issue.message, issue.field);

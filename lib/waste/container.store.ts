@@ -1,7 +1,7 @@
 import "server-only";
-import type { Db, Tx } from "@/lib/database/connect";
-import { WASTE_STREAMS } from "@/lib/ledger/kinds";
-import type { WasteStream } from "@/lib/ledger/kinds";
+import type { Db, Tx } from "@/lib/core/connect";
+import { WASTE_STREAMS } from "@/lib/core/vocabulary";
+import type { WasteStream } from "@/lib/core/vocabulary";
 import {
   DEFAULT_DENSITY_TABLE,
   DEFAULT_REFERENCE_TEMP_C,

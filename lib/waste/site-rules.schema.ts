@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { oneOf, requiredText, text } from "@/lib/ledger/fields";
+import { oneOf, requiredText, text } from "@/lib/core/fields";
 import { GENERATOR_CATEGORIES, MAX_TSDF_DISTANCE_MILES } from "@/lib/waste/waste.schema";
 
 /** US federal categories as written, or the site's own named set built on one of them. */

@@ -1,5 +1,5 @@
 import "server-only";
-import type { Db, Tx } from "@/lib/database/connect";
+import type { Db, Tx } from "@/lib/core/connect";
 import { SiteWasteRulesSchema } from "@/lib/waste/site-rules.schema";
 import type { SiteWasteRules } from "@/lib/waste/site-rules.schema";
 import { ASSUMED_WASTE_RULES, resolveWasteRules } from "@/lib/waste/site-rules";

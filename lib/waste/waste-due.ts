@@ -1,9 +1,9 @@
 // Hazard flags and pickup due dates for waste containers under a configurable rule set. The default is
 // US federal RCRA (40 CFR Parts 261–262); local and state rules may be stricter and govern.
-import { failMany, ok } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
-import type { WasteStream } from "@/lib/ledger/kinds";
-import { WASTE_STREAMS } from "@/lib/ledger/kinds";
+import { failMany, ok } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
+import type { WasteStream } from "@/lib/core/vocabulary";
+import { WASTE_STREAMS } from "@/lib/core/vocabulary";
 import { formatLocalDate } from "@/lib/mass-balance/period";
 import { convertVolume, gramsToKg, millilitresToLitres } from "@/lib/quantity/units";
 import {

@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { WASTE_STREAMS } from "@/lib/ledger/kinds";
-import { code, oneOf, text, when } from "@/lib/ledger/fields";
+import { WASTE_STREAMS } from "@/lib/core/vocabulary";
+import { code, oneOf, text, when } from "@/lib/core/fields";
 
 export const MIN_PH = 0;
 export const MAX_PH = 14;

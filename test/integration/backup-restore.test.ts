@@ -8,7 +8,7 @@ import { createTestDb, PG_URL, PROVIDERS } from "./support/test-db";
 import { buildScenario } from "@/seeds/scenario";
 import { writeScenario } from "@/seeds/load";
 import { backupDatabase, collectFacts, restoreDatabase } from "@/lib/database/backup";
-import { openDb } from "@/lib/database/connect";
+import { openDb } from "@/lib/core/connect";
 
 describe.each(PROVIDERS)("backup and restore on %s", (provider) => {
   let t: TestDb;

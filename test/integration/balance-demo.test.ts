@@ -6,7 +6,7 @@ import type { TestDb } from "./support/test-db";
 import { createTestDb, PROVIDERS } from "./support/test-db";
 import { buildScenario } from "@/seeds/scenario";
 import { writeScenario } from "@/seeds/load";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 import { getBalanceReport } from "@/lib/mass-balance/balance.service";
 import { clearTraceCache, traceBackwardReport, traceForwardReport } from "@/lib/trace/trace.service";
 import type { BackwardTraceReport, ContributionTables } from "@/lib/trace/trace.service";
@@ -20,7 +20,7 @@ const session = vi.hoisted(() => ({
   db: null as unknown,
   user: null as null | { siteId: number; userId: number; now: Date; role: string },
 }));
-vi.mock("@/lib/db", () => ({ getDb: () => Promise.resolve(session.db) }));
+vi.mock("@/lib/core/db", () => ({ getDb: () => Promise.resolve(session.db) }));
 vi.mock("@/lib/auth/request.service", async () => (await import("./support/request-mock")).requestServiceMock(session));
 
 const ANCHOR = new Date("2026-12-02T00:00:00Z");

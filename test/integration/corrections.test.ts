@@ -13,7 +13,7 @@ import { loadTraceLedger } from "@/lib/ledger/movement.store";
 import { completeBatch, planBatch, receiveReagent, startBatch } from "@/lib/batch/batch.service";
 import { getBatchDetail } from "@/lib/batch/batch.store";
 import { loadBalanceLedger } from "@/lib/mass-balance/balance.store";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 
 function value<T>(r: Result<T>): T {
   if (!r.ok) throw new Error(`expected success, got ${JSON.stringify(r.issues)}`);

@@ -6,7 +6,7 @@ import type { Op } from "@/seeds/scenario";
 import { SeedError, validateScenario, writeScenario } from "@/seeds/load";
 import { indexLedger } from "@/lib/trace/ledger";
 import { replayLedger } from "@/lib/trace/genealogy";
-import type { HolderKind } from "@/lib/ledger/kinds";
+import type { HolderKind } from "@/lib/core/vocabulary";
 import { getBuiltInSpec } from "@/lib/spec/spec";
 import { judgeRecords } from "@/lib/product/certificate";
 import { DEFAULT_PRODUCT_SPEC_KEY } from "@/lib/product/spec-default";

@@ -1,7 +1,7 @@
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { handled } from "@/lib/api/handle.service";
 import { respond } from "@/lib/api/json-route.service";
-import { fail } from "@/lib/errors";
+import { fail } from "@/lib/core/result";
 
 // An unexpected failure answers the JSON issue shape with 500 and a short reference, and the same
 // reference reaches the structured log with the route and the stack — never the request body.

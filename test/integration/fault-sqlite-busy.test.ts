@@ -7,7 +7,7 @@ import { createTestDb } from "./support/test-db";
 import type { TestPlant } from "./support/plant";
 import { acceptedLot, createTestPlant } from "./support/plant";
 import { fingerprint } from "./support/books";
-import { sqliteFilePath, SQLITE_PRAGMAS } from "@/lib/database/connect";
+import { sqliteFilePath, SQLITE_PRAGMAS } from "@/lib/core/connect";
 import { recordPickup } from "@/lib/feedstock/pickup.service";
 import { transferToTank } from "@/lib/tank/tank.service";
 

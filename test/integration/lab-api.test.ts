@@ -3,7 +3,7 @@ import type { TestDb } from "./support/test-db";
 import { createTestDb, PROVIDERS } from "./support/test-db";
 import type { TestPlant } from "./support/plant";
 import { createTestPlant } from "./support/plant";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 import { buildOpenApi } from "@/lib/api/openapi";
 import { ENDPOINTS } from "@/lib/api/endpoints";
 import {
@@ -26,7 +26,7 @@ const session = vi.hoisted(() => ({
   db: null as unknown,
   user: null as null | { siteId: number; userId: number; now: Date; role: string },
 }));
-vi.mock("@/lib/db", () => ({ getDb: () => Promise.resolve(session.db) }));
+vi.mock("@/lib/core/db", () => ({ getDb: () => Promise.resolve(session.db) }));
 vi.mock("@/lib/auth/request.service", async () => (await import("./support/request-mock")).requestServiceMock(session));
 
 function value<T>(r: Result<T>): T {

@@ -14,7 +14,7 @@ import { demoQcResults } from "@/seeds/qc";
 import { openWasteContainer, recordDisposal } from "@/lib/waste/container.service";
 import { closePeriod, openPeriod, reopenPeriod } from "@/lib/period/period.service";
 import { DEFAULT_DENSITY_TABLE } from "@/lib/quantity/density";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 
 function value<T>(r: Result<T>): T {
   if (!r.ok) throw new Error(`expected success, got ${JSON.stringify(r.issues)}`);

@@ -3,7 +3,7 @@ import type { TestDb } from "./support/test-db";
 import { createTestDb, PROVIDERS } from "./support/test-db";
 import type { TestPlant } from "./support/plant";
 import { createTestPlant } from "./support/plant";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 import { decideLot, receiveDelivery, recordLabTest } from "@/lib/feedstock/lot.service";
 import { recordTitration } from "@/lib/feedstock/titration.service";
 import { transferToTank } from "@/lib/tank/tank.service";

@@ -10,7 +10,7 @@ import { DEFAULT_PRODUCT_SPEC_KEY } from "@/lib/product/spec-default";
 import { listRecordHistory } from "@/lib/audit/audit.store";
 import { saveSiteSpec } from "@/lib/spec/site-spec.service";
 import { statusFor } from "@/lib/http";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 import { demoQcResults } from "@/seeds/qc";
 import { pdfText } from "../support/pdf-text";
 

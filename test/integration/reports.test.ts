@@ -4,7 +4,7 @@ import type { TestDb } from "./support/test-db";
 import { createTestDb, PROVIDERS } from "./support/test-db";
 import type { TestPlant } from "./support/plant";
 import { acceptedLot, createTestPlant } from "./support/plant";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 import { transferToTank } from "@/lib/tank/tank.service";
 import { completeBatch, planBatch, receiveReagent, startBatch } from "@/lib/batch/batch.service";
 import { createCustomer } from "@/lib/customer/customer.service";

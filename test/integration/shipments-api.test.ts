@@ -11,7 +11,7 @@ const session = vi.hoisted(() => ({
   db: null as unknown,
   user: null as null | { siteId: number; userId: number; now: Date; role: string },
 }));
-vi.mock("@/lib/db", () => ({ getDb: () => Promise.resolve(session.db) }));
+vi.mock("@/lib/core/db", () => ({ getDb: () => Promise.resolve(session.db) }));
 vi.mock("@/lib/auth/request.service", () => ({
   requireRole: (roles: readonly string[]) => {
     const u = session.user;

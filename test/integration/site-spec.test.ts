@@ -6,7 +6,7 @@ import { createTestPlant } from "./support/plant";
 import { getSpecByKey, listSiteSpecViews, listSpecChoices, saveSiteSpec } from "@/lib/spec/site-spec.service";
 import { judgeLot } from "@/lib/spec/spec";
 import { listRecordHistory } from "@/lib/audit/audit.store";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 
 function value<T>(r: Result<T>): T {
   if (!r.ok) throw new Error(`expected success, got ${JSON.stringify(r.issues)}`);

@@ -9,7 +9,7 @@ import { createTank, recordGauge, transferToTank } from "@/lib/tank/tank.service
 import { closePeriod, openPeriod } from "@/lib/period/period.service";
 import { applyMeasuredDensity, DEFAULT_DENSITY_TABLE, densityAt, requireDensityEntry } from "@/lib/quantity/density";
 import { toGrams } from "@/lib/quantity/units";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 
 function value<T>(r: Result<T>): T {
   if (!r.ok) throw new Error(`expected success, got ${JSON.stringify(r.issues)}`);

@@ -10,7 +10,7 @@ import type { TraceLedger } from "@/lib/ledger/movement.store";
 import { getLedgerVersion } from "@/lib/trace/trace.store";
 import { clearTraceCache, traceBackwardReport, traceForwardReport, warmTraceCache } from "@/lib/trace/trace.service";
 import { getLotFlow } from "@/lib/feedstock/lot-flow.service";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 
 function value<T>(r: Result<T>): T {
   if (!r.ok) throw new Error(`expected success, got ${JSON.stringify(r.issues)}`);

@@ -7,7 +7,7 @@ import type { TestDb } from "./support/test-db";
 import { createTestDb, PROVIDERS } from "./support/test-db";
 import { buildScenario } from "@/seeds/scenario";
 import { writeScenario } from "@/seeds/load";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 import {
   clearTraceCache,
   flushTraceSnapshots,

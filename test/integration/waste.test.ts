@@ -19,7 +19,7 @@ import { buildOpenApi } from "@/lib/api/openapi";
 import { ENDPOINTS } from "@/lib/api/endpoints";
 import { getWasteDueReport } from "@/app/waste/due/due-report";
 import { chooseWasteRules } from "@/lib/waste/site-rules.service";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 
 function value<T>(r: Result<T>): T {
   if (!r.ok) throw new Error(`expected success, got ${JSON.stringify(r.issues)}`);

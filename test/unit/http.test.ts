@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { statusFor } from "@/lib/http";
-import type { DomainIssue } from "@/lib/errors";
+import type { DomainIssue } from "@/lib/core/result";
 
 // RFC 9110 §15: 409 Conflict for a request that conflicts with the current state of the resource,
 // 413 Content Too Large, 422 for content that cannot be processed as sent (RFC 9110 §15.5.21).

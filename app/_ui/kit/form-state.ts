@@ -1,4 +1,4 @@
-import type { DomainIssue } from "@/lib/errors";
+import type { DomainIssue } from "@/lib/core/result";
 
 /** What a form sends back after a refusal or a save: the typed values and the messages by field. */
 export interface FormState {

@@ -1,4 +1,4 @@
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 
 /**
  * One colour meaning per state family, everywhere: good (may go on), waiting (needs someone), bad

@@ -1,6 +1,6 @@
 "use server";
 import { revalidatePath } from "next/cache";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { setGs1CompanyPrefix } from "@/lib/site/site-settings.service";
 import { readValues, refused } from "@/app/_ui/kit/form-state";

@@ -1,6 +1,6 @@
 "use server";
 import { revalidatePath } from "next/cache";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { changeUser, createUser, endSessions, resetPassword, unlockSignIn } from "@/lib/auth/user.service";
 import { readText, readValues, refused } from "@/app/_ui/kit/form-state";

@@ -1,8 +1,8 @@
 import type { NextResponse } from "next/server";
 import { requireReader } from "@/lib/auth/request.service";
 import { respond } from "@/lib/api/json-route.service";
-import { getDb } from "@/lib/db";
-import { fail } from "@/lib/errors";
+import { getDb } from "@/lib/core/db";
+import { fail } from "@/lib/core/result";
 import { getBalanceReportCached } from "@/lib/mass-balance/balance-cache.service";
 import { respondAtPosition } from "@/lib/api/etag.service";
 import { getSiteById } from "@/lib/site/site.store";

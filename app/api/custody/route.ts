@@ -2,8 +2,8 @@ import type { NextResponse } from "next/server";
 import { requireReader } from "@/lib/auth/request.service";
 import { respond } from "@/lib/api/json-route.service";
 import { getCustodyReport } from "@/lib/custody/custody.service";
-import { getDb } from "@/lib/db";
-import { fail } from "@/lib/errors";
+import { getDb } from "@/lib/core/db";
+import { fail } from "@/lib/core/result";
 import { getSiteById } from "@/lib/site/site.store";
 import { handled } from "@/lib/api/handle.service";
 

@@ -1,7 +1,7 @@
 import "server-only";
 import { NextResponse } from "next/server";
 import { respond } from "@/lib/api/json-route.service";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 import type { EpcisExport } from "@/lib/epcis/epcis.service";
 
 /** An EPCIS document is answered as itself (JSON-LD, as a partner's tools expect), a refusal as the usual issues. */

@@ -1,6 +1,6 @@
 import { cookies, headers } from "next/headers";
 import type { NextResponse } from "next/server";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { SignInSchema } from "@/lib/auth/session.schema";
 import { signIn, signOut } from "@/lib/auth/session.service";

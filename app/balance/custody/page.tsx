@@ -3,7 +3,7 @@ import Link from "next/link";
 import { getCustodyReport } from "@/lib/custody/custody.service";
 import type { AccountView, CustodyReport } from "@/lib/custody/custody.service";
 import { OPERATOR_TYPES } from "@/lib/custody/custody-balance";
-import type { DomainIssue } from "@/lib/errors";
+import type { DomainIssue } from "@/lib/core/result";
 import { day, kg, kgExact, num, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { Empty, Facts, HolderLink, NoSite, Note } from "@/app/_ui/ui";

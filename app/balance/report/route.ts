@@ -1,5 +1,5 @@
 import { reportRoute } from "@/lib/api/report-route.service";
-import { ok } from "@/lib/errors";
+import { ok } from "@/lib/core/result";
 import { getBalanceReport } from "@/lib/mass-balance/balance.service";
 import { getLedgerVersion } from "@/lib/trace/trace.store";
 import { buildBalanceDoc } from "@/app/balance/balance-report";

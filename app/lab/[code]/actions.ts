@@ -1,7 +1,7 @@
 "use server";
 import { screenAfterRecord } from "@/lib/screening/screening.service";
 import { revalidatePath } from "next/cache";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { recordTitration } from "@/lib/feedstock/titration.service";
 import { decideLot, recordLabTest } from "@/lib/feedstock/lot.service";

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { getLotDetail } from "@/lib/feedstock/lot-detail.store";
 import { combineFfaReadings, summariseReplicates, toFfaBasis } from "@/lib/titration/titration";
 import { ffa, kg, num, pct, when } from "@/app/_ui/format";

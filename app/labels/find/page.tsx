@@ -3,7 +3,7 @@ import Link from "next/link";
 import { redirect } from "next/navigation";
 import { readScanned } from "@/lib/labels/label-range";
 import { findRecordByNumber } from "@/lib/labels/labels.store";
-import { CODE_PATTERN } from "@/lib/ledger/fields";
+import { CODE_PATTERN } from "@/lib/core/fields";
 import { loadSite } from "@/app/_ui/site";
 import { NoSite } from "@/app/_ui/ui";
 

@@ -1,6 +1,6 @@
 // A lot's history on paper: what came in (pickups or the delivery), its lab results, and where its
 // material went, from the lot page's own records. Pure.
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import type { LotDetail, LotFlow } from "@/lib/feedstock/lot-detail.store";
 import { reportTime } from "@/lib/report/report";
 import type { ReportContext, ReportDoc, ReportTable } from "@/lib/report/report";

@@ -1,5 +1,5 @@
-import type { Db } from "@/lib/database/connect";
-import type { SiteRole } from "@/lib/ledger/kinds";
+import type { Db } from "@/lib/core/connect";
+import type { SiteRole } from "@/lib/core/vocabulary";
 import type { LotDetail } from "@/lib/feedstock/lot-detail.store";
 import { DEFAULT_DENSITY_TABLE, getDensityEntry, requireDensityEntry } from "@/lib/quantity/density";
 import type { MaterialKind } from "@/lib/quantity/density";

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { TraceThis } from "@/app/_ui/trace-this";
 import { notFound } from "next/navigation";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { getPickupDetail } from "@/lib/feedstock/lot-detail.store";
 import { kg, litres, num, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";

@@ -1,10 +1,10 @@
 "use server";
 import { revalidatePath } from "next/cache";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { chooseProductSpec, decideProductLot, recordQcResult } from "@/lib/product/product.service";
 import { getSiteById } from "@/lib/site/site.store";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { readNumber, readText, readValues, refused } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 import { toSiteInstant } from "@/app/trace/site-time";

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { TraceThis } from "@/app/_ui/trace-this";
 import { notFound } from "next/navigation";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { getMadeOf } from "@/lib/feedstock/lot-flow.service";
 import { loadProductLotQc } from "@/lib/product/certificate.service";
 import { listSpecChoices } from "@/lib/spec/site-spec.service";

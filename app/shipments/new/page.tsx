@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { listCustomerChoices } from "@/lib/customer/customer.store";
 import { getProductLotForShipping, listShippableStock } from "@/lib/shipment/shipment.store";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { kg, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";

@@ -1,5 +1,5 @@
-import type { Db } from "@/lib/database/connect";
-import { labelOf } from "@/lib/ledger/kinds";
+import type { Db } from "@/lib/core/connect";
+import { labelOf } from "@/lib/core/vocabulary";
 import { computeFfaBySource } from "@/lib/feedstock/ffa-series";
 import type { FfaPoint } from "@/lib/feedstock/ffa-series";
 import { listSourceLotsWithFfa } from "@/lib/feedstock/ffa-series.store";

@@ -3,7 +3,7 @@ import Link from "next/link";
 import { TraceThis } from "@/app/_ui/trace-this";
 import { forbidden, notFound } from "next/navigation";
 import { servedByCollectors } from "@/lib/source/served";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import { listPickups } from "@/lib/feedstock/pickup.store";
 import { listSources } from "@/lib/source/source.store";
 import { day, kg, litres, when } from "@/app/_ui/format";

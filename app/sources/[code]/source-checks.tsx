@@ -1,5 +1,5 @@
-import type { Db } from "@/lib/database/connect";
-import { labelOf, SOURCE_KINDS } from "@/lib/ledger/kinds";
+import type { Db } from "@/lib/core/connect";
+import { labelOf, SOURCE_KINDS } from "@/lib/core/vocabulary";
 import { CAPACITY_BASES, plausibleLitresPerMonth } from "@/lib/screening/capacity";
 import { listFlags } from "@/lib/screening/screening.store";
 import type { FlagRow } from "@/lib/screening/screening.store";

@@ -1,5 +1,5 @@
-import { labelOf } from "@/lib/ledger/kinds";
-import type { SiteRole } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
+import type { SiteRole } from "@/lib/core/vocabulary";
 import type { GaugeView } from "@/lib/tank/tank.store";
 import { gaugeVsBook, parseStrapping } from "@/lib/tank/strapping";
 import { DEFAULT_DENSITY_TABLE, densityAt, requireDensityEntry } from "@/lib/quantity/density";

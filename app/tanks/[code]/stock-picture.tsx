@@ -1,4 +1,4 @@
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
 import { computeTankStockSeries } from "@/lib/tank/stock-series";
 import type { StockPoint } from "@/lib/tank/stock-series";

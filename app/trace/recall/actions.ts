@@ -1,6 +1,6 @@
 "use server";
 import { revalidatePath } from "next/cache";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { holdRecalledProductLots } from "@/lib/trace/recall.service";
 import { readText, readValues, refused } from "@/app/_ui/kit/form-state";

@@ -1,5 +1,5 @@
 import { reportRoute } from "@/lib/api/report-route.service";
-import { ok } from "@/lib/errors";
+import { ok } from "@/lib/core/result";
 import { traceBackwardReport } from "@/lib/trace/trace.service";
 import { buildBackwardTraceDoc } from "@/app/trace/trace-report";
 import { toSiteInstant } from "@/app/trace/site-time";

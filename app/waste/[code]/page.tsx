@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
-import { labelOf } from "@/lib/ledger/kinds";
-import type { HolderKind, WasteStream } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
+import type { HolderKind, WasteStream } from "@/lib/core/vocabulary";
 import { getWasteContainerDetail } from "@/lib/waste/container.store";
 import type { ContainerMovement, DisposalOfContainer, WasteContainerDetail } from "@/lib/waste/container.store";
 import { characterisationOf, STREAM_CAUTIONS } from "@/lib/waste/container-rules";

@@ -2,10 +2,10 @@ import "server-only";
 // What falls due for haul-away, for the waste-due page and GET /api/waste/due: every container on site
 // with its hazard flags and due date under the active rule set, and the containers due within N days
 // by stream with totals for the hauler. Built on lib/waste/waste-due (listWasteDue) and the container store.
-import type { Db } from "@/lib/database/connect";
-import { ok } from "@/lib/errors";
-import type { DomainIssue, Result } from "@/lib/errors";
-import type { WasteStream } from "@/lib/ledger/kinds";
+import type { Db } from "@/lib/core/connect";
+import { ok } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
+import type { WasteStream } from "@/lib/core/vocabulary";
 import { parseInput } from "@/lib/ledger/parse";
 import { getUtcOffsetMin } from "@/lib/period/site-time";
 import { ASSUMPTION_NOTE, loadWasteDueInputs } from "@/lib/waste/container.store";

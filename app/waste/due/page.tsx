@@ -1,10 +1,10 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { labelOf } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
 import type { HazardFlag } from "@/lib/waste/waste-due";
 import { GENERATOR_CATEGORIES } from "@/lib/waste/waste.schema";
 import { convertVolume } from "@/lib/quantity/units";
-import type { DomainIssue } from "@/lib/errors";
+import type { DomainIssue } from "@/lib/core/result";
 import { day, kg, litres, num, pct } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { Empty, Facts, NoSite, Note } from "@/app/_ui/ui";

@@ -1,8 +1,8 @@
 // The waste list for the hauler: every container on site with its stream, quantity, due date,
 // characterisation and hazard flags, the usual cautions for the streams on the list, and totals by
 // stream. Built from the waste-due page's own answer, so the page, CSV and PDF agree. Pure.
-import { labelOf } from "@/lib/ledger/kinds";
-import type { WasteStream } from "@/lib/ledger/kinds";
+import { labelOf } from "@/lib/core/vocabulary";
+import type { WasteStream } from "@/lib/core/vocabulary";
 import { STREAM_CAUTIONS } from "@/lib/waste/container-rules";
 import { reportDay } from "@/lib/report/report";
 import type { ReportContext, ReportDoc, ReportTable } from "@/lib/report/report";

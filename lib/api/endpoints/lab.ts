@@ -2,9 +2,9 @@
 // pure answers the route handlers return. The handlers add only authorisation and parsing.
 import { z } from "zod";
 import type { EndpointDoc } from "@/lib/api/openapi";
-import { ok } from "@/lib/errors";
-import type { Result } from "@/lib/errors";
-import { code } from "@/lib/ledger/fields";
+import { ok } from "@/lib/core/result";
+import type { Result } from "@/lib/core/result";
+import { code } from "@/lib/core/fields";
 import {
   FFA_BASES,
   acidValueFromFfa,

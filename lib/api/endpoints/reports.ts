@@ -5,7 +5,7 @@ import { z } from "zod";
 import type { EndpointDoc } from "@/lib/api/openapi";
 import { BackwardTraceQuerySchema, BalanceQuerySchema, WasteDuePageQuerySchema } from "@/lib/api/endpoints/trace";
 import { RECALL_KINDS } from "@/lib/trace/recall.schema";
-import { oneOf } from "@/lib/ledger/fields";
+import { oneOf } from "@/lib/core/fields";
 
 const FormatQuery = z.object({
   format: oneOf("Format", ["pdf", "csv"] as const)

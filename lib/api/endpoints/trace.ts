@@ -4,7 +4,7 @@
 // lib/custody/custody.service, app/waste/due/due-report), so page and API reconcile exactly.
 import { z } from "zod";
 import type { EndpointDoc } from "@/lib/api/openapi";
-import { emptyAsMissing as blank, oneOf } from "@/lib/ledger/fields";
+import { emptyAsMissing as blank, oneOf } from "@/lib/core/fields";
 import { GENERATOR_CATEGORIES } from "@/lib/waste/waste.schema";
 
 // ---- trace, balance and custody ------------------------------------------------------------------

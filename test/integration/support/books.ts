@@ -1,6 +1,6 @@
 // A fingerprint of the books for fault tests: counts, every holder's stock against its ledger, and the
 // audit chain verified. Equal fingerprints before and after a failed write mean nothing was half-written.
-import type { Db } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
 import { loadChain } from "@/lib/audit/audit.store";
 import { verifyChain } from "@/lib/audit/chain";
 

@@ -1,6 +1,6 @@
 // A minimal plant for integration tests: one site, one person per role, a source and the tanks.
-import type { Db } from "@/lib/database/connect";
-import type { Actor } from "@/lib/site/actor";
+import type { Db } from "@/lib/core/connect";
+import type { Actor } from "@/lib/core/actor";
 import { insertSite, insertUser } from "@/lib/site/site.store";
 import { insertSource } from "@/lib/source/source.store";
 import { SourceSchema } from "@/lib/source/source.schema";

@@ -4,8 +4,8 @@ import { mkdtempSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import pg from "pg";
-import type { Db } from "@/lib/database/connect";
-import { openDb } from "@/lib/database/connect";
+import type { Db } from "@/lib/core/connect";
+import { openDb } from "@/lib/core/connect";
 import { deploy } from "@/prisma/migrate";
 
 export type Provider = "sqlite" | "postgresql";

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { classifyDatabaseFault } from "@/lib/database/faults";
+import { classifyDatabaseFault } from "@/lib/core/faults";
 import { statusFor } from "@/lib/http";
 
 // Codes from SQLite's result-code list (sqlite.org/rescode.html) and PostgreSQL's Appendix A

@@ -6,7 +6,7 @@ import { escapeEpcComponent, gs1CheckDigit, gtinFor, identifierScheme } from "@/
 import { backwardScope, forwardScope } from "@/lib/epcis/scope";
 import { computePeriodBalance } from "@/lib/mass-balance/period-balance";
 import type { BalanceHolder } from "@/lib/mass-balance/period-balance";
-import type { MoveRole } from "@/lib/ledger/kinds";
+import type { MoveRole } from "@/lib/core/vocabulary";
 
 // A small fictional plant: two pickups pooled into a lot, a tank, one finished batch, one still running,
 // a shipment, and receipts outside November 2026.

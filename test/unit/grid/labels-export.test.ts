@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 import { GRID_TABLES } from "@/lib/grid/tables";
 import { codeOfChoice, matchHeaders, readCell, showCell } from "@/lib/grid/cells";
 import { exportColumns, siteTimeOf, toCsv } from "@/lib/grid/export";
-import { SOURCE_KINDS } from "@/lib/ledger/kinds";
+import { SOURCE_KINDS } from "@/lib/core/vocabulary";
 
 const sources = GRID_TABLES.sources;
 const pickups = GRID_TABLES.pickups;

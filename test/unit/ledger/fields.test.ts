@@ -14,7 +14,7 @@ import {
   text,
   volumeL,
   when,
-} from "@/lib/ledger/fields";
+} from "@/lib/core/fields";
 
 /** The first message a field builder gives for a value, or null when it accepts it. */
 function refusal(schema: ZodType, value: unknown): string | null {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import type { MoveRole } from "@/lib/ledger/kinds";
+import type { MoveRole } from "@/lib/core/vocabulary";
 import { computePeriodBalance, DEFAULT_CLOSURE_TOLERANCE } from "@/lib/mass-balance/period-balance";
 import type { BalanceHolder, BalanceMove, PeriodBalance } from "@/lib/mass-balance/period-balance";
 

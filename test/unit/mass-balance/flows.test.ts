@@ -3,7 +3,7 @@ import { computePeriodFlows } from "@/lib/mass-balance/flows";
 import type { FlowHolder, FlowMove } from "@/lib/mass-balance/flows";
 import { computePeriodBalance } from "@/lib/mass-balance/period-balance";
 import type { BalanceMove } from "@/lib/mass-balance/period-balance";
-import type { HolderKind } from "@/lib/ledger/kinds";
+import type { HolderKind } from "@/lib/core/vocabulary";
 
 const utc = (iso: string): number => Date.parse(iso);
 const JANUARY = { startMs: utc("2026-01-01T00:00:00Z"), endMs: utc("2026-02-01T00:00:00Z") };

@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import type { HolderKind, MoveRole } from "@/lib/ledger/kinds";
+import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
 import {
   DEFAULT_CLOSURE_TOLERANCE,
   DEFAULT_HOLDER_CLASSES,

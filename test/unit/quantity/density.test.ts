@@ -14,7 +14,7 @@ import {
   standardVolume,
 } from "@/lib/quantity/density";
 import type { DensityEntry, LinearDensityEntry } from "@/lib/quantity/density";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 
 const RUNS = { numRuns: 300 };
 /** Water at 20 °C, Tanaka et al. 2001 tabulated value: converts relative densities d(20/20) to kg/m³. */

@@ -18,7 +18,7 @@ import {
   summariseReplicates,
 } from "@/lib/titration/titration";
 import type { TitrationInput } from "@/lib/titration/titration";
-import type { Result } from "@/lib/errors";
+import type { Result } from "@/lib/core/result";
 
 const RUNS = { numRuns: 300 };
 

@@ -7,7 +7,7 @@ import {
   STREAM_CAUTIONS,
 } from "@/lib/waste/container-rules";
 import { assessWasteHazards } from "@/lib/waste/waste-due";
-import { WASTE_STREAMS } from "@/lib/ledger/kinds";
+import { WASTE_STREAMS } from "@/lib/core/vocabulary";
 
 const start = new Date("2026-03-01T06:30:00Z");
 const open = { code: "GLY-9", status: "OPEN", accumulationStart: start, stockG: 1_234_500 };

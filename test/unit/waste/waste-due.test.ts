@@ -8,7 +8,7 @@ import {
   listWasteDue,
 } from "@/lib/waste/waste-due";
 import type { WasteCharacterisation, WasteContainerInput, WasteSite } from "@/lib/waste/waste-due";
-import type { WasteStream } from "@/lib/ledger/kinds";
+import type { WasteStream } from "@/lib/core/vocabulary";
 
 const utc = (iso: string): number => Date.parse(iso);
 const DAY = 86_400_000;

@@ -1,7 +1,7 @@
 import type { NextResponse } from "next/server";
-import { getDb } from "@/lib/db";
-import { failMany, ok } from "@/lib/errors";
-import { SITE_ROLES } from "@/lib/ledger/kinds";
+import { getDb } from "@/lib/core/db";
+import { failMany, ok } from "@/lib/core/result";
+import { SITE_ROLES } from "@/lib/core/vocabulary";
 import { requireRole } from "@/lib/auth/request.service";
 import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { BatchPlanRequestSchema } from "@/lib/batch/plan";

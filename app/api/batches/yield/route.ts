@@ -1,6 +1,6 @@
 import type { NextResponse } from "next/server";
-import { getDb } from "@/lib/db";
-import { fail, ok } from "@/lib/errors";
+import { getDb } from "@/lib/core/db";
+import { fail, ok } from "@/lib/core/result";
 import { requireReader } from "@/lib/auth/request.service";
 import { parseQuery, respond } from "@/lib/api/json-route.service";
 import { BatchYieldQuerySchema } from "@/lib/api/endpoints/lab";

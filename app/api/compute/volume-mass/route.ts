@@ -1,5 +1,5 @@
 import type { NextResponse } from "next/server";
-import { SITE_ROLES } from "@/lib/ledger/kinds";
+import { SITE_ROLES } from "@/lib/core/vocabulary";
 import { requireRole } from "@/lib/auth/request.service";
 import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { VolumeMassRequestSchema, answerVolumeMass } from "@/lib/api/endpoints/lab";

@@ -1,5 +1,5 @@
 import { NextResponse } from "next/server";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { parseQuery, respond } from "@/lib/api/json-route.service";
 import { requireReader } from "@/lib/auth/request.service";
 import { GridExportSchema } from "@/lib/grid/query.schema";

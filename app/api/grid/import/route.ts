@@ -1,5 +1,5 @@
 import type { NextResponse } from "next/server";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { idempotent, MAX_JSON_BYTES, readJson, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { MAX_IMPORT_BYTES } from "@/lib/grid/sheet";
 import { requireRole } from "@/lib/auth/request.service";

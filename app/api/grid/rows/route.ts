@@ -1,10 +1,10 @@
 import type { NextResponse } from "next/server";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { parseQuery, respond } from "@/lib/api/json-route.service";
 import { requireReader } from "@/lib/auth/request.service";
 import { GridQuerySchema } from "@/lib/grid/query.schema";
 import { listGridRows } from "@/lib/grid/grid.service";
-import { ok } from "@/lib/errors";
+import { ok } from "@/lib/core/result";
 import { handled } from "@/lib/api/handle.service";
 
 /** One block of a grid table for the infinite row model: rows, the filtered count and totals within the filter. */

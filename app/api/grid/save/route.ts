@@ -1,5 +1,5 @@
 import type { NextResponse } from "next/server";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { idempotent, MAX_BULK_JSON_BYTES, readJson, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { requireRole } from "@/lib/auth/request.service";
 import { saveGridRows } from "@/lib/grid/grid.service";

@@ -1,5 +1,5 @@
 import type { NextResponse } from "next/server";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
 import { LotTitrationSchema, recordTitration } from "@/lib/feedstock/titration.service";

@@ -1,7 +1,7 @@
 import type { NextResponse } from "next/server";
 import { requireRole } from "@/lib/auth/request.service";
 import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.service";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { closePeriod, PeriodCloseSchema } from "@/lib/period/period.service";
 import { handled } from "@/lib/api/handle.service";
 

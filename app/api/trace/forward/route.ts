@@ -1,7 +1,7 @@
 import type { NextResponse } from "next/server";
 import { requireReader } from "@/lib/auth/request.service";
 import { respond } from "@/lib/api/json-route.service";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { traceForwardReport } from "@/lib/trace/trace.service";
 import { handled } from "@/lib/api/handle.service";
 import { respondAtPosition } from "@/lib/api/etag.service";

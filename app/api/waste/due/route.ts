@@ -1,8 +1,8 @@
 import type { NextResponse } from "next/server";
 import { requireReader } from "@/lib/auth/request.service";
 import { respond } from "@/lib/api/json-route.service";
-import { getDb } from "@/lib/db";
-import { fail } from "@/lib/errors";
+import { getDb } from "@/lib/core/db";
+import { fail } from "@/lib/core/result";
 import { getSiteById } from "@/lib/site/site.store";
 import { getWasteDueReport } from "@/app/waste/due/due-report";
 import { handled } from "@/lib/api/handle.service";

@@ -1,5 +1,5 @@
 import { reportRoute } from "@/lib/api/report-route.service";
-import { ok } from "@/lib/errors";
+import { ok } from "@/lib/core/result";
 import { getCustodyReport } from "@/lib/custody/custody.service";
 import { buildCustodyDoc } from "@/app/balance/custody/custody-report";
 

@@ -1,7 +1,7 @@
 "use server";
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { completeBatch, correctBatchOutput, startBatch } from "@/lib/batch/batch.service";
 import { readText, refused, toNumber } from "@/app/_ui/kit/form-state";

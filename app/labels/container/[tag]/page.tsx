@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { CODE_PATTERN } from "@/lib/ledger/fields";
+import { CODE_PATTERN } from "@/lib/core/fields";
 import { listPickupsWithContainer } from "@/lib/collect/collect.store";
 import { litres, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";

@@ -1,5 +1,5 @@
 import { reportRoute } from "@/lib/api/report-route.service";
-import { fail, ok } from "@/lib/errors";
+import { fail, ok } from "@/lib/core/result";
 import { getLotDetail } from "@/lib/feedstock/lot-detail.store";
 import { getLotFlow } from "@/lib/feedstock/lot-flow.service";
 import { getLedgerVersion } from "@/lib/trace/trace.store";

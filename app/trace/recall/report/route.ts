@@ -1,6 +1,6 @@
 import { reportRoute } from "@/lib/api/report-route.service";
 import { canRead } from "@/lib/auth/read-matrix";
-import { ok } from "@/lib/errors";
+import { ok } from "@/lib/core/result";
 import { buildRecallDoc } from "@/lib/trace/recall-report";
 import { recallReport } from "@/lib/trace/recall.service";
 import { readRecallSearch, recallInput } from "@/app/trace/recall/query";

@@ -1,5 +1,5 @@
 import { reportRoute } from "@/lib/api/report-route.service";
-import { ok } from "@/lib/errors";
+import { ok } from "@/lib/core/result";
 import { getLedgerVersion } from "@/lib/trace/trace.store";
 import { getWasteDueReport } from "@/app/waste/due/due-report";
 import { buildWasteListDoc } from "@/app/waste/due/waste-list-report";

@@ -1,8 +1,8 @@
 import type { NextResponse } from "next/server";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { respond } from "@/lib/api/json-route.service";
 import { requireReader } from "@/lib/auth/request.service";
-import { HOLDER_KINDS } from "@/lib/ledger/kinds";
+import { HOLDER_KINDS } from "@/lib/core/vocabulary";
 import { getHolderStock } from "@/lib/ledger/movement.store";
 import { handled } from "@/lib/api/handle.service";
 

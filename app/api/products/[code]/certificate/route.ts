@@ -1,5 +1,5 @@
 import { NextResponse } from "next/server";
-import { getDb } from "@/lib/db";
+import { getDb } from "@/lib/core/db";
 import { respond } from "@/lib/api/json-route.service";
 import { requireRole } from "@/lib/auth/request.service";
 import { productCertificatePdf } from "@/lib/product/certificate.service";

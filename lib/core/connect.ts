@@ -4,7 +4,7 @@ import { mkdirSync } from "node:fs";
 import path from "node:path";
 import { PrismaBetterSqlite3 } from "@prisma/adapter-better-sqlite3";
 import { PrismaPg } from "@prisma/adapter-pg";
-import { classifyDatabaseFault } from "@/lib/database/faults";
+import { classifyDatabaseFault } from "@/lib/core/faults";
 import { PrismaClient as SqliteClient } from "@/lib/generated/sqlite/client";
 import { PrismaClient as PgClient } from "@/lib/generated/pg/client";
 

@@ -1,6 +1,6 @@
 import "server-only";
-import { DEFAULT_DATABASE_URL, openDb } from "@/lib/database/connect";
-import type { Db } from "@/lib/database/connect";
+import { DEFAULT_DATABASE_URL, openDb } from "@/lib/core/connect";
+import type { Db } from "@/lib/core/connect";
 
 // One client per server process (and per dev hot-reload), opened lazily on first use.
 const globalForDb = globalThis as unknown as { tracevatDb?: Promise<Db> };
