@@ -2,7 +2,7 @@
 import { useEffect, useState } from "react";
 import { haversineMetres } from "@/lib/screening/geo";
 import { distanceBandOf } from "@/lib/screening/pattern-signals";
-import type { DistanceBand } from "@/lib/screening/pattern-signals";
+import type { DistanceBand } from "@/lib/core/vocabulary";
 
 const CONSENT_KEY = "tracevat.shareDistance";
 /** "unknown" until the stored answer is read after the page is on screen; null when never asked. */

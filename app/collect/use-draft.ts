@@ -1,5 +1,5 @@
 "use client";
-import type { DistanceBand } from "@/lib/screening/pattern-signals";
+import type { DistanceBand } from "@/lib/core/vocabulary";
 // The pickup form as typed: survives a reload in localStorage (the outbox itself lives in IndexedDB),
 // and turns into the body the outbox sends.
 import { useEffect, useRef, useState } from "react";

@@ -11,7 +11,7 @@ import type { FieldErrors } from "@/app/collect/collect-bits";
 import { localParts } from "@/app/collect/collect-text";
 import type { Draft } from "@/app/collect/use-draft";
 import { draftFromEntry, EMPTY, errorsByField, pickupInputOf } from "@/app/collect/use-draft";
-import type { DistanceBand } from "@/lib/screening/pattern-signals";
+import type { DistanceBand } from "@/lib/core/vocabulary";
 
 interface EntryContext {
   box: RefObject<Outbox | null>;

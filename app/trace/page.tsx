@@ -4,7 +4,7 @@ import { labelOf } from "@/lib/core/vocabulary";
 import { listTraceChoices } from "@/lib/trace/trace.store";
 import type { TraceChoices } from "@/lib/trace/trace.store";
 import { traceBackwardReport, traceForwardReport } from "@/lib/trace/trace.service";
-import { BACKWARD_KINDS, FORWARD_KINDS } from "@/lib/api/endpoints/trace";
+import { BACKWARD_KINDS, FORWARD_KINDS } from "@/lib/trace/trace-query.schema";
 import type { BackwardTraceReport, ForwardTraceReport } from "@/lib/trace/trace.service";
 import { CustomerName, CustomerShares } from "@/app/trace/customer-shares";
 import type { DomainIssue } from "@/lib/core/result";

@@ -1,6 +1,6 @@
 import "server-only";
 import type { Db, Tx } from "@/lib/core/connect";
-import { insertRows } from "@/lib/database/bulk-insert";
+import { insertRows } from "@/lib/core/bulk-insert";
 import { chainHash } from "@/lib/audit/chain";
 import type { ChainedEvent } from "@/lib/audit/chain";
 

@@ -12,8 +12,8 @@ import { loadTraceLedger } from "@/lib/ledger/movement.store";
 import type { TraceLedger } from "@/lib/ledger/movement.store";
 import { traceHolder } from "@/lib/trace/genealogy";
 import type { HolderTrace } from "@/lib/trace/genealogy";
-import { indexLedger } from "@/lib/trace/ledger";
-import type { LedgerIndex } from "@/lib/trace/ledger";
+import { indexLedger } from "@/lib/ledger/moves";
+import type { LedgerIndex } from "@/lib/ledger/moves";
 import type { Result } from "@/lib/core/result";
 import type { LotStock, PlanStock, ReagentStock, TankShare, TankStock } from "@/lib/batch/plan";
 

@@ -211,3 +211,13 @@ export const LABELS: Record<string, string> = {
 export function labelOf(code: string): string {
   return LABELS[code] ?? code;
 }
+
+/** Distance bands the collect page stores, nearest first, and how far each is. */
+export const DISTANCE_BANDS = ["NEAR", "KM_1", "KM_10", "FAR"] as const;
+export type DistanceBand = (typeof DISTANCE_BANDS)[number];
+export const DISTANCE_BAND_WORDS: Record<DistanceBand, string> = {
+  NEAR: "within 250 m",
+  KM_1: "250 m to 1 km",
+  KM_10: "1 to 10 km",
+  FAR: "more than 10 km",
+};

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { code, oneOf, when } from "@/lib/core/fields";
-import { BACKWARD_KINDS, FORWARD_KINDS } from "@/lib/api/endpoints/trace";
+import { BACKWARD_KINDS, FORWARD_KINDS } from "@/lib/trace/trace-query.schema";
 
 /** Query strings send "" for an empty field. */
 const blank = (v: unknown) => (v === "" || v === null ? undefined : v);

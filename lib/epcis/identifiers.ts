@@ -1,10 +1,6 @@
 // Identifiers for EPCIS events: GS1 forms when the plant has a GS1 Company Prefix, otherwise the
 // site's own HTTP URIs (docs/decisions/0034-epcis-identifiers.md).
-import { CHARACTER_SET_82, MAX_LOT_LENGTH } from "@/lib/labels/gs1";
-
-/** Digits of a GS1 Company Prefix we accept: the item reference keeps at least two digits (GTIN-13 structure). */
-export const GS1_PREFIX_MIN_DIGITS = 6;
-export const GS1_PREFIX_MAX_DIGITS = 10;
+import { CHARACTER_SET_82, GS1_PREFIX_MAX_DIGITS, GS1_PREFIX_MIN_DIGITS, MAX_LOT_LENGTH } from "@/lib/labels/gs1";
 
 /**
  * Item references the site uses under its prefix, one per material class. The plant registers these

@@ -6,7 +6,7 @@ import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
 import { listMovementsById } from "@/lib/ledger/movement.store";
 import type { HolderRef, TraceLedger } from "@/lib/ledger/movement.store";
 import type { ForwardTrace, HolderTrace } from "@/lib/trace/genealogy";
-import type { LedgerIndex, TraceMove } from "@/lib/trace/ledger";
+import type { LedgerIndex, TraceMove } from "@/lib/ledger/moves";
 
 export interface TitrationView {
   id: number;

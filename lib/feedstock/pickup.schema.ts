@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { MATERIAL_KINDS } from "@/lib/core/vocabulary";
 import { code, oneOf, tempC, text, volumeL, when } from "@/lib/core/fields";
-import { DISTANCE_BANDS } from "@/lib/screening/pattern-signals";
+import { DISTANCE_BANDS } from "@/lib/core/vocabulary";
 
 export const MAX_CONTAINERS = 200;
 /** One pickup fills at most a collection truck; larger figures are typing errors. */

@@ -1,6 +1,6 @@
 import "server-only";
 import type { Db, Tx } from "@/lib/core/connect";
-import { insertRows } from "@/lib/database/bulk-insert";
+import { insertRows } from "@/lib/core/bulk-insert";
 import type { Pickup } from "@/lib/feedstock/pickup.schema";
 import { toMillilitres } from "@/lib/quantity/units";
 

@@ -61,3 +61,7 @@ export function gs1LabelElementString(
     withGtin: gtin !== null,
   });
 }
+
+/** Digits of a GS1 Company Prefix we accept: the item reference keeps at least two digits (GTIN-13 structure). */
+export const GS1_PREFIX_MIN_DIGITS = 6;
+export const GS1_PREFIX_MAX_DIGITS = 10;

@@ -3,7 +3,7 @@
 // of the destination and one append-only ledger row, inside the caller's transaction.
 import { AsyncLocalStorage } from "node:async_hooks";
 import type { Db, Tx } from "@/lib/core/connect";
-import { dialectOf, insertRows } from "@/lib/database/bulk-insert";
+import { dialectOf, insertRows } from "@/lib/core/bulk-insert";
 import type { DomainIssue, Result } from "@/lib/core/result";
 import { fail, failMany, ok } from "@/lib/core/result";
 import { classifyDatabaseFault, FAULT_MESSAGES } from "@/lib/core/faults";
@@ -11,7 +11,7 @@ import { log } from "@/lib/log/log.service";
 import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
 import { labelOf } from "@/lib/core/vocabulary";
 import { loadTraceLedger } from "@/lib/ledger/movement.store";
-import { refuseCycle } from "@/lib/trace/cycle";
+import { refuseCycle } from "@/lib/ledger/cycle";
 
 /** Aborts the surrounding transaction with expected outcomes; turned back into a value by runInTransaction. */
 export class Rejection extends Error {
@@ -369,7 +369,7 @@ export async function postMovement(tx: Tx, m: MovementDraft): Promise<number> {
  * A booking must not make a lot, batch or product lot its own ancestor (genealogy could not say what
  * it is made of). A cycle through the new move needs a move out of its destination after it, so a
  * booking dated now never pays more than one indexed count; a back-dated one into a holder that has
- * sent material on since is checked against the site's whole ledger (lib/trace/cycle.ts).
+ * sent material on since is checked against the site's whole ledger (lib/ledger/cycle.ts).
  */
 async function assertNoCycle(tx: Tx, m: MovementDraft, moveId: number, field: string): Promise<void> {
   // A reversal and the movement it cancels are left out of genealogy as a pair, so they close no cycle.

@@ -3,7 +3,7 @@ import type { Db, Tx } from "@/lib/core/connect";
 import { invariant } from "@/lib/core/result";
 import { HOLDER_KINDS, MOVE_ROLES } from "@/lib/core/vocabulary";
 import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
-import type { TraceHolder, TraceMove } from "@/lib/trace/ledger";
+import type { TraceHolder, TraceMove } from "@/lib/ledger/moves";
 
 /** A place that held material, as the pages name and link it. */
 export interface HolderRef {

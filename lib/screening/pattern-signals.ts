@@ -1,4 +1,6 @@
 // Pattern breaks: a sudden change of level or interval, pickups outside opening hours, a phone far away.
+import { DISTANCE_BANDS, DISTANCE_BAND_WORDS } from "@/lib/core/vocabulary";
+import type { DistanceBand } from "@/lib/core/vocabulary";
 import { median } from "@/lib/screening/robust";
 import { oneDecimal, wholeNumber } from "@/lib/screening/screening";
 import type { Flag, PickupFact } from "@/lib/screening/screening";
@@ -108,16 +110,6 @@ export function flagOffHours(
       lotCodes: p.lotCode === null ? [] : [p.lotCode],
     }));
 }
-
-/** Distance bands the collect page stores, nearest first, and how far each is. */
-export const DISTANCE_BANDS = ["NEAR", "KM_1", "KM_10", "FAR"] as const;
-export type DistanceBand = (typeof DISTANCE_BANDS)[number];
-export const DISTANCE_BAND_WORDS: Record<DistanceBand, string> = {
-  NEAR: "within 250 m",
-  KM_1: "250 m to 1 km",
-  KM_10: "1 to 10 km",
-  FAR: "more than 10 km",
-};
 
 /** The band a distance in metres falls in. */
 export function distanceBandOf(metres: number): DistanceBand {

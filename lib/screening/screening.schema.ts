@@ -2,7 +2,7 @@ import { z } from "zod";
 import { code, id, requiredText, text, when } from "@/lib/core/fields";
 import { SOURCE_KINDS } from "@/lib/core/vocabulary";
 import { CAPACITY_BASES } from "@/lib/screening/capacity";
-import { DISTANCE_BANDS } from "@/lib/screening/pattern-signals";
+import { DISTANCE_BANDS } from "@/lib/core/vocabulary";
 
 export const MAX_SCREEN_DAYS = 3700;
 export const MAX_FRYERS = 200;

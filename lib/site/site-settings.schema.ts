@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { GS1_PREFIX_MAX_DIGITS, GS1_PREFIX_MIN_DIGITS } from "@/lib/epcis/identifiers";
+import { GS1_PREFIX_MAX_DIGITS, GS1_PREFIX_MIN_DIGITS } from "@/lib/labels/gs1";
 
 /** The GS1 Company Prefix the plant licenses; empty means "we have none" and exports use the site's own identifiers. */
 export const SiteGs1Schema = z.object({

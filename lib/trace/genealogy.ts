@@ -10,8 +10,8 @@ import { fail, failMany, invariant, ok } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
 import { addPartsToTally, sumParts, sumPartsOf, tallyToParts } from "@/lib/trace/composition";
 import type { CompositionParts } from "@/lib/trace/composition";
-import { findLastPositionAtOrBefore } from "@/lib/trace/ledger";
-import type { HolderKind, LedgerIndex, TraceIssue, TraceMove } from "@/lib/trace/ledger";
+import { findLastPositionAtOrBefore } from "@/lib/ledger/moves";
+import type { HolderKind, LedgerIndex, TraceIssue, TraceMove } from "@/lib/ledger/moves";
 import { createReplay, restoreReplay } from "@/lib/trace/replay";
 import type { Replay, ReplayPosition, ReplaySnapshot } from "@/lib/trace/replay";
 

@@ -5,8 +5,8 @@
 // same mixing models (pooled or first-in-first-out) as every other trace. Pure: no database, no clock.
 import { ok } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
-import { indexLedger } from "@/lib/trace/ledger";
-import type { HolderKind, LedgerIndex, TraceHolder, TraceMove } from "@/lib/trace/ledger";
+import { indexLedger } from "@/lib/ledger/moves";
+import type { HolderKind, LedgerIndex, TraceHolder, TraceMove } from "@/lib/ledger/moves";
 import type { ShipmentCustomer } from "@/lib/trace/customers";
 import type { RecallKind } from "@/lib/trace/recall.schema";
 

@@ -9,8 +9,8 @@ import {
   takeFromLayer,
 } from "@/lib/trace/composition";
 import type { CompositionParts, MutableLayer } from "@/lib/trace/composition";
-import { checkMove, compareMoves, formatMoveField } from "@/lib/trace/ledger";
-import type { Mixing, TraceHolder, TraceIssue, TraceMove } from "@/lib/trace/ledger";
+import { checkMove, compareMoves, formatMoveField } from "@/lib/ledger/moves";
+import type { Mixing, TraceHolder, TraceIssue, TraceMove } from "@/lib/ledger/moves";
 
 /**
  * Replays the movement ledger keeping, per holder, grams per origin.

@@ -4,7 +4,7 @@ import { createTestDb, PROVIDERS } from "./support/test-db";
 import { buildScenario } from "@/seeds/scenario";
 import type { Op } from "@/seeds/scenario";
 import { SeedError, validateScenario, writeScenario } from "@/seeds/load";
-import { indexLedger } from "@/lib/trace/ledger";
+import { indexLedger } from "@/lib/ledger/moves";
 import { replayLedger } from "@/lib/trace/genealogy";
 import type { HolderKind } from "@/lib/core/vocabulary";
 import { getBuiltInSpec } from "@/lib/spec/spec";

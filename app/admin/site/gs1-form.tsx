@@ -1,7 +1,7 @@
 "use client";
 import { ActionForm, Field } from "@/app/_ui/kit/action-form";
 import { setGs1PrefixAction } from "@/app/admin/site/actions";
-import { GS1_PREFIX_MAX_DIGITS } from "@/lib/epcis/identifiers";
+import { GS1_PREFIX_MAX_DIGITS } from "@/lib/labels/gs1";
 
 export function Gs1PrefixForm({ current }: { current: string | null }) {
   return (

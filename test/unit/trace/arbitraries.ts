@@ -1,5 +1,5 @@
 import fc from "fast-check";
-import type { HolderKind, Mixing, TraceHolder, TraceMove } from "@/lib/trace/ledger";
+import type { HolderKind, Mixing, TraceHolder, TraceMove } from "@/lib/ledger/moves";
 
 export interface History {
   holders: TraceHolder[];

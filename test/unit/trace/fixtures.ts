@@ -1,4 +1,4 @@
-import type { HolderKind, Mixing, TraceHolder, TraceMove } from "@/lib/trace/ledger";
+import type { HolderKind, Mixing, TraceHolder, TraceMove } from "@/lib/ledger/moves";
 import type { TraceComposition } from "@/lib/trace/genealogy";
 
 /** Moves in these fixtures are at id × 1 s, so ledger order is id order. */

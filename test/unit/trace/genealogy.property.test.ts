@@ -2,7 +2,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { getOriginGrams } from "@/lib/trace/composition";
 import type { CompositionParts } from "@/lib/trace/composition";
-import { getCycleThrough } from "@/lib/trace/cycle";
+import { getCycleThrough } from "@/lib/ledger/cycle";
 import {
   describeComposition,
   replayLedger,
@@ -13,8 +13,8 @@ import {
 } from "@/lib/trace/genealogy";
 import type { TraceComposition } from "@/lib/trace/genealogy";
 import { ReplaySnapshotSchema } from "@/lib/trace/genealogy.schema";
-import { compareMoves, indexLedger, mapHolders } from "@/lib/trace/ledger";
-import type { LedgerIndex, TraceHolder, TraceMove } from "@/lib/trace/ledger";
+import { compareMoves, indexLedger, mapHolders } from "@/lib/ledger/moves";
+import type { LedgerIndex, TraceHolder, TraceMove } from "@/lib/ledger/moves";
 import { createReplay } from "@/lib/trace/replay";
 import { emptiedBeforeRefillArb, historyArb } from "./arbitraries";
 import type { History } from "./arbitraries";

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { findEntryOrigins, traceForward, traceHolder, traceMove } from "@/lib/trace/genealogy";
-import { indexLedger } from "@/lib/trace/ledger";
-import type { LedgerIndex, Mixing, TraceHolder, TraceMove } from "@/lib/trace/ledger";
+import { indexLedger } from "@/lib/ledger/moves";
+import type { LedgerIndex, Mixing, TraceHolder, TraceMove } from "@/lib/ledger/moves";
 import { groupOrigins, restrictToFeedstock } from "@/lib/trace/origin-groups";
 import type { OriginInfo } from "@/lib/trace/origin-groups";
 import {

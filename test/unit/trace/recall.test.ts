@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { indexLedger } from "@/lib/trace/ledger";
-import type { LedgerIndex, TraceHolder, TraceMove } from "@/lib/trace/ledger";
+import { indexLedger } from "@/lib/ledger/moves";
+import type { LedgerIndex, TraceHolder, TraceMove } from "@/lib/ledger/moves";
 import { traceForward } from "@/lib/trace/genealogy";
 import { findSeedMoves, groupCustomers, seedLedger } from "@/lib/trace/recall";
 

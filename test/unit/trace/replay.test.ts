@@ -1,8 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { describeComposition, replayLedger, resumeReplay, traceHolder, traceMove } from "@/lib/trace/genealogy";
 import { ReplaySnapshotSchema } from "@/lib/trace/genealogy.schema";
-import { indexLedger, mapHolders } from "@/lib/trace/ledger";
-import type { LedgerIndex, TraceHolder, TraceMove } from "@/lib/trace/ledger";
+import { indexLedger, mapHolders } from "@/lib/ledger/moves";
+import type { LedgerIndex, TraceHolder, TraceMove } from "@/lib/ledger/moves";
 import { createReplay, restoreReplay } from "@/lib/trace/replay";
 import type { ReplaySnapshot } from "@/lib/trace/replay";
 import {

@@ -1,7 +1,7 @@
 import { fail, ok } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
-import { compareMoves, formatMoveField } from "@/lib/trace/ledger";
-import type { HolderKind, TraceHolder, TraceMove } from "@/lib/trace/ledger";
+import { compareMoves, formatMoveField } from "@/lib/ledger/moves";
+import type { HolderKind, TraceHolder, TraceMove } from "@/lib/ledger/moves";
 
 /**
  * What we treat as a cycle: a holder that stands for one quantity of material (a pickup, lot, batch,

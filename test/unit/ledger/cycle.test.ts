@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { getCycleThrough, refuseCycle, wouldCreateCycle } from "@/lib/trace/cycle";
-import { mapHolders } from "@/lib/trace/ledger";
-import type { TraceHolder, TraceMove } from "@/lib/trace/ledger";
+import { getCycleThrough, refuseCycle, wouldCreateCycle } from "@/lib/ledger/cycle";
+import { mapHolders } from "@/lib/ledger/moves";
+import type { TraceHolder, TraceMove } from "@/lib/ledger/moves";
 import {
   BATCH_K,
   FEED_TANK,
@@ -14,9 +14,9 @@ import {
   PLANT_MOVES,
   PRODUCT_P,
   PRODUCT_TANK,
-} from "./fixtures";
+} from "../trace/fixtures";
 
-// The cycle rule is our own definition (lib/trace/cycle.ts): a non-tank holder must not receive
+// The cycle rule is our own definition (lib/ledger/cycle.ts): a non-tank holder must not receive
 // material through a time-ordered chain of moves that starts with its own output.
 
 function requireHolderMap(holders: readonly TraceHolder[]) {
