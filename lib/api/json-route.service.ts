@@ -5,7 +5,7 @@ import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import { statusFor } from "@/lib/http";
 import { createHash } from "node:crypto";
-import { withIdempotencyKey } from "@/lib/ledger/ledger.store";
+import { withIdempotencyKey } from "@/lib/ledger/transaction.store";
 
 /** JSON body for a Result: 200 `{ok:true,value}` or the mapped status with `{ok:false,issues}`. */
 export function respond<T>(result: Result<T>): NextResponse {

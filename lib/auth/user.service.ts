@@ -22,7 +22,7 @@ import { UNLOCK_ADDRESS } from "@/lib/auth/session-rules";
 import type { Db } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
 import { fail } from "@/lib/core/result";
-import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
+import { reject, runInTransaction } from "@/lib/ledger/transaction.store";
 import { parseInput } from "@/lib/ledger/parse";
 import type { Actor } from "@/lib/core/actor";
 

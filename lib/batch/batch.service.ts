@@ -3,14 +3,8 @@ import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db, Tx } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
-import {
-  createHolder,
-  getStockG,
-  postMovement,
-  reject,
-  requireHolder,
-  runInTransaction,
-} from "@/lib/ledger/ledger.store";
+import { createHolder, getStockG, postMovement, requireHolder } from "@/lib/ledger/ledger.store";
+import { reject, runInTransaction } from "@/lib/ledger/transaction.store";
 import {
   getBatchState,
   getReagentOfHolder,

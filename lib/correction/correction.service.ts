@@ -9,7 +9,8 @@ import {
 } from "@/lib/correction/correction.store";
 import type { Db } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
-import { assertPeriodOpen, postMovement, reject, runInTransaction } from "@/lib/ledger/ledger.store";
+import { assertPeriodOpen, postMovement } from "@/lib/ledger/ledger.store";
+import { reject, runInTransaction } from "@/lib/ledger/transaction.store";
 import { parseInput } from "@/lib/ledger/parse";
 import type { MoveRole } from "@/lib/core/vocabulary";
 import { requireTankRoom } from "@/lib/tank/tank.store";

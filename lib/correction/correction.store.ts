@@ -1,6 +1,6 @@
 import "server-only";
 import type { Tx } from "@/lib/core/connect";
-import { reject } from "@/lib/ledger/ledger.store";
+import { reject } from "@/lib/ledger/transaction.store";
 
 export interface MovementToReverse {
   id: number;

@@ -3,7 +3,7 @@ import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
-import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
+import { reject, runInTransaction } from "@/lib/ledger/transaction.store";
 import type { Actor } from "@/lib/core/actor";
 import { CustomerChangeSchema, CustomerSchema } from "@/lib/customer/customer.schema";
 import { getCustomer, insertCustomer, updateCustomer } from "@/lib/customer/customer.store";

@@ -3,7 +3,7 @@ import { combineFfaReadings, toFfaBasis } from "@/lib/titration/titration";
 import type { FfaBasis } from "@/lib/titration/titration";
 import type { Db, Tx } from "@/lib/core/connect";
 import type { Measured } from "@/lib/feedstock/measure";
-import { reject } from "@/lib/ledger/ledger.store";
+import { reject } from "@/lib/ledger/transaction.store";
 import type { MaterialKind } from "@/lib/core/vocabulary";
 import { toMillilitres } from "@/lib/quantity/units";
 

@@ -6,14 +6,8 @@ import { refreshPlannerStats, REFRESH_STATS_AFTER_ROWS } from "@/lib/database/ma
 import type { DomainIssue, Result } from "@/lib/core/result";
 import { fail, failMany, ok } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
-import {
-  createHolder,
-  createHoldersWithStock,
-  idempotencyKeyInForce,
-  postMovement,
-  postReceipts,
-  runInTransaction,
-} from "@/lib/ledger/ledger.store";
+import { createHolder, createHoldersWithStock, postMovement, postReceipts } from "@/lib/ledger/ledger.store";
+import { idempotencyKeyInForce, runInTransaction } from "@/lib/ledger/transaction.store";
 import { log } from "@/lib/log/log.service";
 import { measureObserved } from "@/lib/feedstock/measure";
 import { PickupSchema } from "@/lib/feedstock/pickup.schema";

@@ -3,7 +3,7 @@ import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
-import { runInTransaction } from "@/lib/ledger/ledger.store";
+import { runInTransaction } from "@/lib/ledger/transaction.store";
 import { LotIntoTankSchema } from "@/lib/feedstock/lot.schema";
 import { bookLotFromPickups, measureLot } from "@/lib/feedstock/lot.service";
 import type { LotSaved } from "@/lib/feedstock/lot.service";

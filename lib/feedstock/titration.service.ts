@@ -6,7 +6,7 @@ import type { Result } from "@/lib/core/result";
 import { failMany } from "@/lib/core/result";
 import { code, when } from "@/lib/core/fields";
 import { parseInput } from "@/lib/ledger/parse";
-import { runInTransaction } from "@/lib/ledger/ledger.store";
+import { runInTransaction } from "@/lib/ledger/transaction.store";
 import { insertTitration, requireLot } from "@/lib/feedstock/lot.store";
 import { TitrationEntrySchema } from "@/lib/titration/titration.schema";
 import { calculateAcidValue, calculateFfaPercent } from "@/lib/titration/titration";

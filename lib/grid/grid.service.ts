@@ -7,7 +7,7 @@ import { refreshPlannerStats, REFRESH_STATS_AFTER_ROWS } from "@/lib/database/ma
 import type { DomainIssue, Result } from "@/lib/core/result";
 import { fail, failMany, ok } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
-import { Rejection, runInTransaction, withoutIdempotencyKey } from "@/lib/ledger/ledger.store";
+import { Rejection, runInTransaction, withoutIdempotencyKey } from "@/lib/ledger/transaction.store";
 import type { SiteRole } from "@/lib/core/vocabulary";
 import type { UnitSystem } from "@/lib/quantity/units";
 import type { Actor } from "@/lib/core/actor";

@@ -1,6 +1,7 @@
 import "server-only";
 import type { Tx } from "@/lib/core/connect";
-import { reject, requireHolder } from "@/lib/ledger/ledger.store";
+import { requireHolder } from "@/lib/ledger/ledger.store";
+import { reject } from "@/lib/ledger/transaction.store";
 import type { HolderKind } from "@/lib/core/vocabulary";
 
 /**

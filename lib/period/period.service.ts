@@ -5,7 +5,7 @@ import type { Db } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
 import { id } from "@/lib/core/fields";
 import { parseInput } from "@/lib/ledger/parse";
-import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
+import { reject, runInTransaction } from "@/lib/ledger/transaction.store";
 import { AccountingPeriodSchema } from "@/lib/period/period.schema";
 import type { Actor } from "@/lib/core/actor";
 import { findOverlappingPeriod, getPeriodState, insertPeriod, setPeriodStatus } from "@/lib/period/period.store";

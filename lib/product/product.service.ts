@@ -5,14 +5,8 @@ import type { Db, Tx } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import { labelOf } from "@/lib/core/vocabulary";
-import {
-  assertPeriodsOpen,
-  createHolder,
-  postMovement,
-  reject,
-  requireHolder,
-  runInTransaction,
-} from "@/lib/ledger/ledger.store";
+import { assertPeriodsOpen, createHolder, postMovement, requireHolder } from "@/lib/ledger/ledger.store";
+import { reject, runInTransaction } from "@/lib/ledger/transaction.store";
 import { requireDrawableHolder } from "@/lib/ledger/draw.store";
 import { ChooseSpecSchema, ProductDecisionSchema, QcResultSchema, ShipmentSchema } from "@/lib/product/product.schema";
 import type { ProductDecision, ProductDecisionValue } from "@/lib/product/product.schema";

@@ -5,7 +5,7 @@ import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
 import { setLotScreeningHold } from "@/lib/feedstock/lot.store";
-import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
+import { reject, runInTransaction } from "@/lib/ledger/transaction.store";
 import { parseInput } from "@/lib/ledger/parse";
 import { ClearSourceSchema, FlagDecisionSchema, SourceProfileSchema } from "@/lib/screening/screening.schema";
 import {

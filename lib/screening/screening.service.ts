@@ -6,7 +6,7 @@ import type { Db } from "@/lib/core/connect";
 import { ok } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
 import { labelOf } from "@/lib/core/vocabulary";
-import { runInTransaction } from "@/lib/ledger/ledger.store";
+import { runInTransaction } from "@/lib/ledger/transaction.store";
 import { parseInput } from "@/lib/ledger/parse";
 import { log } from "@/lib/log/log.service";
 import type { CapacityBasis } from "@/lib/screening/capacity";

@@ -5,14 +5,8 @@ import type { DomainIssue, Result } from "@/lib/core/result";
 import { failMany } from "@/lib/core/result";
 import { labelOf } from "@/lib/core/vocabulary";
 import { parseInput } from "@/lib/ledger/parse";
-import {
-  assertPeriodOpen,
-  createHolder,
-  postMovement,
-  reject,
-  Rejection,
-  runInTransaction,
-} from "@/lib/ledger/ledger.store";
+import { assertPeriodOpen, createHolder, postMovement } from "@/lib/ledger/ledger.store";
+import { reject, Rejection, runInTransaction } from "@/lib/ledger/transaction.store";
 import { DEFAULT_DENSITY_TABLE, requireDensityEntry } from "@/lib/quantity/density";
 import type { Actor } from "@/lib/core/actor";
 import { getCustomer } from "@/lib/customer/customer.store";

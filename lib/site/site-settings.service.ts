@@ -3,7 +3,7 @@ import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
-import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
+import { reject, runInTransaction } from "@/lib/ledger/transaction.store";
 import type { Actor } from "@/lib/core/actor";
 import { SiteGs1Schema } from "@/lib/site/site-settings.schema";
 import { getSiteGs1Prefix, updateSiteGs1Prefix } from "@/lib/site/site.store";

@@ -3,7 +3,7 @@ import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
-import { runInTransaction } from "@/lib/ledger/ledger.store";
+import { runInTransaction } from "@/lib/ledger/transaction.store";
 import { SourceSchema } from "@/lib/source/source.schema";
 import { insertSource } from "@/lib/source/source.store";
 import type { Actor } from "@/lib/core/actor";

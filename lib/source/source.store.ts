@@ -1,7 +1,7 @@
 import "server-only";
 import type { Db, Tx } from "@/lib/core/connect";
 import type { Source } from "@/lib/source/source.schema";
-import { reject } from "@/lib/ledger/ledger.store";
+import { reject } from "@/lib/ledger/transaction.store";
 
 export async function insertSource(tx: Tx, siteId: number, s: Source): Promise<{ id: number; code: string }> {
   const clash = await tx.source.findUnique({ where: { siteId_code: { siteId, code: s.code } }, select: { id: true } });

@@ -3,7 +3,7 @@ import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db, Tx } from "@/lib/core/connect";
 import { failMany } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
-import { reject, runInTransaction } from "@/lib/ledger/ledger.store";
+import { reject, runInTransaction } from "@/lib/ledger/transaction.store";
 import { parseInput } from "@/lib/ledger/parse";
 import type { Actor } from "@/lib/core/actor";
 import { getBuiltInSpec, listBuiltInSpecs } from "@/lib/spec/spec";

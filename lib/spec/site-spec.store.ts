@@ -1,6 +1,6 @@
 import "server-only";
 import type { Db, Tx } from "@/lib/core/connect";
-import { reject } from "@/lib/ledger/ledger.store";
+import { reject } from "@/lib/ledger/transaction.store";
 import { SiteLimitsSchema } from "@/lib/spec/site-spec.schema";
 import type { SiteLimits } from "@/lib/spec/site-spec.schema";
 

@@ -4,16 +4,8 @@ import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db, Tx } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
-import {
-  assertPeriodOpen,
-  createHolder,
-  getStockG,
-  postMovement,
-  reject,
-  Rejection,
-  requireHolder,
-  runInTransaction,
-} from "@/lib/ledger/ledger.store";
+import { assertPeriodOpen, createHolder, getStockG, postMovement, requireHolder } from "@/lib/ledger/ledger.store";
+import { reject, Rejection, runInTransaction } from "@/lib/ledger/transaction.store";
 import { markLotConsumedIfEmpty, requireDrawableHolder } from "@/lib/ledger/draw.store";
 import { GaugeSchema, TankSchema, TransferSchema } from "@/lib/tank/tank.schema";
 import { gaugeVsBook, massOfVolume, parseStrapping, volumeAtLevel } from "@/lib/tank/strapping";

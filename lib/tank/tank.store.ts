@@ -1,6 +1,6 @@
 import "server-only";
 import type { Db, Tx } from "@/lib/core/connect";
-import { reject } from "@/lib/ledger/ledger.store";
+import { reject } from "@/lib/ledger/transaction.store";
 import { densityAt, DEFAULT_DENSITY_TABLE, MATERIAL_KINDS, requireDensityEntry } from "@/lib/quantity/density";
 import type { MaterialKind as DensityMaterial } from "@/lib/quantity/density";
 

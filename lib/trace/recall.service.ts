@@ -8,7 +8,7 @@ import { fail, failMany, ok } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
 import { labelOf } from "@/lib/core/vocabulary";
 import { parseInput } from "@/lib/ledger/parse";
-import { runInTransaction } from "@/lib/ledger/ledger.store";
+import { runInTransaction } from "@/lib/ledger/transaction.store";
 import { applyProductDecision } from "@/lib/product/product.service";
 import { listProductLotStandings } from "@/lib/product/product.store";
 import { listShipmentCustomers } from "@/lib/shipment/shipment.store";

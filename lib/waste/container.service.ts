@@ -3,15 +3,8 @@ import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
-import {
-  assertPeriodsOpen,
-  createHolder,
-  getStockG,
-  postMovement,
-  reject,
-  requireHolder,
-  runInTransaction,
-} from "@/lib/ledger/ledger.store";
+import { assertPeriodsOpen, createHolder, getStockG, postMovement, requireHolder } from "@/lib/ledger/ledger.store";
+import { reject, runInTransaction } from "@/lib/ledger/transaction.store";
 import type { Tx } from "@/lib/core/connect";
 import {
   disposalExists,

@@ -2,7 +2,7 @@ import "server-only";
 import { appendAudit } from "@/lib/audit/audit.store";
 import type { Db } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
-import { runInTransaction } from "@/lib/ledger/ledger.store";
+import { runInTransaction } from "@/lib/ledger/transaction.store";
 import { parseInput } from "@/lib/ledger/parse";
 import type { Actor } from "@/lib/core/actor";
 import { SiteWasteRulesSchema } from "@/lib/waste/site-rules.schema";

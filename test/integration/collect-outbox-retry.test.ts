@@ -6,7 +6,7 @@ import type { TestPlant } from "./support/plant";
 import { createTestPlant } from "./support/plant";
 import { recordPickup } from "@/lib/feedstock/pickup.service";
 import { receiveLotFromPickups } from "@/lib/feedstock/lot.service";
-import { withIdempotencyKey } from "@/lib/ledger/ledger.store";
+import { withIdempotencyKey } from "@/lib/ledger/transaction.store";
 import { classifyReply, newEntry } from "@/lib/collect/outbox";
 
 // What the phone's outbox relies on at the service level: a pickup re-sent under the same key (an answer

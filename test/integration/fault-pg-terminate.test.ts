@@ -7,7 +7,7 @@ import type { TestPlant } from "./support/plant";
 import { createTestPlant } from "./support/plant";
 import { fingerprint } from "./support/books";
 import { importPickups, MAX_IMPORT_ROWS } from "@/lib/feedstock/pickup.service";
-import { withIdempotencyKey } from "@/lib/ledger/ledger.store";
+import { withIdempotencyKey } from "@/lib/ledger/transaction.store";
 
 // The PostgreSQL server drops the app's connections (a failover, an administrator, a restart) while a
 // large import's transaction is open and has already written: the import is refused with a retryable

@@ -4,7 +4,7 @@ import type { TestDb } from "./support/test-db";
 import { createTestDb, PROVIDERS } from "./support/test-db";
 import type { TestPlant } from "./support/plant";
 import { createTestPlant } from "./support/plant";
-import { withIdempotencyKey } from "@/lib/ledger/ledger.store";
+import { withIdempotencyKey } from "@/lib/ledger/transaction.store";
 import type { GridActor } from "@/lib/grid/grid.service";
 import { importGridFile, listGridRows, saveGridRows } from "@/lib/grid/grid.service";
 import { exportGrid } from "@/lib/grid/export.service";

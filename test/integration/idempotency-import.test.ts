@@ -6,7 +6,7 @@ import type { TestPlant } from "./support/plant";
 import { createTestPlant } from "./support/plant";
 import { importPickups } from "@/lib/feedstock/pickup.service";
 import { receiveReagent } from "@/lib/batch/batch.service";
-import { withIdempotencyKey } from "@/lib/ledger/ledger.store";
+import { withIdempotencyKey } from "@/lib/ledger/transaction.store";
 
 const row = (i: number, extra: Record<string, unknown> = {}) => ({
   code: `IMP-${i}`,

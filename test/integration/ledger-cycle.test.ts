@@ -3,7 +3,8 @@ import type { TestDb } from "./support/test-db";
 import { createTestDb, PROVIDERS } from "./support/test-db";
 import { at, createTestPlant } from "./support/plant";
 import type { TestPlant } from "./support/plant";
-import { createHolder, postMovement, runInTransaction } from "@/lib/ledger/ledger.store";
+import { createHolder, postMovement } from "@/lib/ledger/ledger.store";
+import { runInTransaction } from "@/lib/ledger/transaction.store";
 import type { MovementDraft } from "@/lib/ledger/ledger.store";
 
 // Issue #4, bad input: a movement that would create a cycle in the genealogy is refused with a clear

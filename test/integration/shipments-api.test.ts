@@ -3,7 +3,8 @@ import type { TestDb } from "./support/test-db";
 import { createTestDb, PROVIDERS } from "./support/test-db";
 import type { TestPlant } from "./support/plant";
 import { createTestPlant } from "./support/plant";
-import { createHolder, postMovement, requireHolder, runInTransaction } from "@/lib/ledger/ledger.store";
+import { createHolder, postMovement, requireHolder } from "@/lib/ledger/ledger.store";
+import { runInTransaction } from "@/lib/ledger/transaction.store";
 
 // The JSON endpoints' own steps (same-origin check, role, parse, service, status) with the session and
 // database replaced, as in test/integration/lab-api.test.ts.

@@ -4,7 +4,7 @@ import type { Actor } from "@/lib/core/actor";
 import { insertSite, insertUser } from "@/lib/site/site.store";
 import { insertSource } from "@/lib/source/source.store";
 import { SourceSchema } from "@/lib/source/source.schema";
-import { runInTransaction } from "@/lib/ledger/ledger.store";
+import { runInTransaction } from "@/lib/ledger/transaction.store";
 import { createTank } from "@/lib/tank/tank.service";
 
 export interface TestPlant {
