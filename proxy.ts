@@ -62,7 +62,9 @@ export function proxy(request: NextRequest): NextResponse {
   response.headers.set("X-Content-Type-Options", "nosniff");
   response.headers.set("Referrer-Policy", "same-origin");
   response.headers.set("X-Frame-Options", "DENY");
-  response.headers.set("Permissions-Policy", "camera=(self), microphone=(), geolocation=()");
+  // Only the collect page may ask where the phone is (it keeps a distance band, never the position).
+  const geolocation = path === "/collect" || path.startsWith("/collect/") ? "(self)" : "()";
+  response.headers.set("Permissions-Policy", `camera=(self), microphone=(), geolocation=${geolocation}`);
   if (request.nextUrl.protocol === "https:")
     response.headers.set("Strict-Transport-Security", "max-age=31536000; includeSubDomains");
   return response;

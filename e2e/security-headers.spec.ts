@@ -20,6 +20,8 @@ test("pages carry the security headers and run under a nonce CSP without violati
   const nonce2 = /nonce-([^']+)/.exec(again?.headers()["content-security-policy"] ?? "")?.[1];
   expect(nonce1).toBeTruthy();
   expect(nonce2).not.toBe(nonce1);
+  // Only the collect page may ask for the phone's position; every other page refuses it.
+  expect(again?.headers()["permissions-policy"]).toContain("geolocation=()");
   await expect(page.getByRole("heading", { level: 1 })).toBeVisible();
   expect(violations).toEqual([]);
 });

@@ -90,6 +90,7 @@ const PICKUP_COLUMNS = [
   "solidsLook",
   "notes",
   "idempotencyKey",
+  "phoneDistanceBand",
 ] as const;
 
 /** Many pickups at once (imports; the holders already exist with their stock): pickupData's columns in multi-row statements. */

@@ -6,7 +6,7 @@ import type { Db } from "@/lib/core/connect";
 import { ok } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
 import { labelOf } from "@/lib/core/vocabulary";
-import { runInTransaction } from "@/lib/ledger/transaction.store";
+import { runInTransaction, withoutIdempotencyKey } from "@/lib/ledger/transaction.store";
 import { parseInput } from "@/lib/ledger/parse";
 import { log } from "@/lib/log/log.service";
 import type { CapacityBasis } from "@/lib/screening/capacity";
@@ -228,7 +228,9 @@ export function thenScreen<T>(
 ): (db: Db, actor: Actor, input: unknown) => Promise<Result<T>> {
   return async (db, actor, input) => {
     const result = await service(db, actor, input);
-    if (result.ok) await screenAfterRecord(db, actor, subject(result.value, input));
+    // The screen is its own write: outside the request's idempotency key, which the record already stored
+    // (under it, the screen's transaction would be answered as a replay of the record and never commit).
+    if (result.ok) await withoutIdempotencyKey(() => screenAfterRecord(db, actor, subject(result.value, input)));
     return result;
   };
 }

@@ -19,6 +19,7 @@ const row = (code: string, extra: Record<string, unknown> = {}) => ({
   containers: 2,
   volumeL: 123.4,
   tempC: 21.5,
+  phoneDistanceBand: "KM_10", // every column travels through both writers, the phone's distance band too
   ...extra,
 });
 
