@@ -139,6 +139,7 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   saveSiteSpecAction: ["COMPLIANCE"],
   decideFlagAction: ["COMPLIANCE"],
   screenPeriodAction: ["COMPLIANCE"],
+  changeThresholdAction: ["COMPLIANCE", "ADMIN"],
   saveSourceProfileAction: ["COMPLIANCE"],
   clearSourceAction: ["COMPLIANCE"],
   recordQcResultAction: ["PRODUCTION", "COMPLIANCE"],

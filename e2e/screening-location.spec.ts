@@ -65,3 +65,27 @@ test("a pickup logged far from the source's address raises a phone-distance flag
   await expect(flag).toHaveCount(1);
   await expect(page.getByText(String(PHONE.latitude))).toHaveCount(0);
 });
+
+test("compliance sets the site's own margin around opening hours, with a reason, and sees it in force", async ({
+  page,
+}) => {
+  await signIn(page, "compliance.nell", "/screening");
+  await page.getByRole("link", { name: "Thresholds in force and their changes" }).click();
+  await expect(page.getByRole("heading", { name: "Source check thresholds", level: 1 })).toBeVisible();
+  const form = page.getByRole("form", { name: "Change a threshold" });
+  await form.getByLabel("Threshold").selectOption("hoursMargin");
+  await form.getByLabel("New value").fill("30");
+  await form.getByLabel("Reason").fill("night kitchens at the market hall");
+  await form.getByRole("button", { name: "Save the threshold" }).click();
+  // Refused, naming the field, with what was typed kept.
+  await expect(form.getByText("New value must be between 0 and 12")).toBeVisible();
+  await expect(form.getByLabel("Reason")).toHaveValue("night kitchens at the market hall");
+  await form.getByLabel("New value").fill("2");
+  await form.getByRole("button", { name: "Save the threshold" }).click();
+  await expect(form.getByRole("status")).toHaveText("Margin around opening hours is now 2; the next checks use it.");
+  const row = page.getByRole("row").filter({ hasText: "Margin around opening hours" }).first();
+  await expect(row).toContainText("this site");
+  await expect(page.getByRole("row").filter({ hasText: "night kitchens at the market hall" })).toContainText(
+    "Margin around opening hours: 2",
+  );
+});

@@ -5,6 +5,7 @@ import type { FlagRow } from "@/lib/screening/screening.store";
 import { SIGNAL_LABELS } from "@/lib/screening/screening";
 import type { Signal } from "@/lib/screening/screening";
 import { confidenceOf, DEFAULT_SCREENING_SETTINGS, SCREENING_SETTING_LABELS } from "@/lib/screening/screening-defaults";
+import { getScreeningSettings } from "@/lib/screening/screening-settings.service";
 import { SIGNAL_RULES } from "@/lib/screening/signal-rules";
 import { day, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
@@ -49,9 +50,10 @@ export default async function ScreeningPage() {
   const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const tz = site.timeZone;
-  const [open, decided] = await Promise.all([
+  const [open, decided, s] = await Promise.all([
     listFlags(db, site.id, { status: ["OPEN"] }),
     listFlags(db, site.id, { status: ["CONFIRMED", "DISMISSED", "CLEARED"], take: 50 }),
+    getScreeningSettings(db, site.id),
   ]);
   const compliance = user.role === "COMPLIANCE";
   const label = (s: string) => SIGNAL_LABELS[s as Signal] ?? s;
@@ -87,7 +89,6 @@ export default async function ScreeningPage() {
     { key: "found", header: "What was found", cell: (f) => f.message },
   ];
   const ruleRows = SIGNAL_RULES.map((r) => ({ ...r, key: r.signal }));
-  const s = DEFAULT_SCREENING_SETTINGS;
   return (
     <>
       <h1>Source checks</h1>
@@ -129,6 +130,9 @@ export default async function ScreeningPage() {
       </section>
       <section aria-labelledby="rules-h">
         <h2 id="rules-h">What each check reads</h2>
+        <p>
+          <Link href="/screening/thresholds">Thresholds in force and their changes</Link>
+        </p>
         <DataTable
           caption="Checks and thresholds"
           hideCaption
@@ -149,7 +153,7 @@ export default async function ScreeningPage() {
                     {r.settings.map((k) => (
                       <li key={k}>
                         {SCREENING_SETTING_LABELS[k]}: {s[k].value} {s[k].unit}{" "}
-                        <ConfidenceMark level={confidenceOf(s[k])} anchor={`screening-${k}`} />
+                        <ConfidenceMark level={confidenceOf(DEFAULT_SCREENING_SETTINGS[k])} anchor={`screening-${k}`} />
                       </li>
                     ))}
                   </ul>

@@ -44,6 +44,7 @@ export const READ_MATRIX: readonly ReadRule[] = [
   { path: "/balance", roles: OFFICE, menu: "Balance" },
   { path: "/periods", roles: OFFICE, menu: "Periods" },
   { path: "/screening", roles: OFFICE, menu: "Source checks" },
+  { path: "/screening/thresholds", roles: OFFICE },
   { path: "/ledger", roles: PLANT, menu: "Ledger" },
   // Record history has its own rule for accounts (the owner and administrators).
   { path: "/history", roles: EVERYONE },

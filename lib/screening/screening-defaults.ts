@@ -107,6 +107,25 @@ export const DEFAULT_SCREENING_SETTINGS: ScreeningSettings = {
   ),
 };
 
+export type ScreeningSettingKey = keyof ScreeningSettings;
+export const SCREENING_SETTING_KEYS = [
+  "capacityRatio",
+  "robustZ",
+  "madFloorShare",
+  "minHistory",
+  "minPeers",
+  "freshAcidValue",
+  "waterExcessPct",
+  "insolublesExcessPct",
+  "densityMinKgM3",
+  "densityMaxKgM3",
+  "shiftRatio",
+  "shiftWindow",
+  "intervalMinDays",
+  "hoursMargin",
+  "certificateMonths",
+] as const satisfies readonly ScreeningSettingKey[];
+
 /** Our own names for the settings, as the references page and the queue page show them. */
 export const SCREENING_SETTING_LABELS: Record<keyof ScreeningSettings, string> = {
   capacityRatio: "Month or certificate period above declared capacity",

@@ -12,7 +12,7 @@ import { log } from "@/lib/log/log.service";
 import type { CapacityBasis } from "@/lib/screening/capacity";
 import { monthlyVolumes } from "@/lib/screening/screening";
 import type { Flag, LotFact, PickupFact, SourceFacts } from "@/lib/screening/screening";
-import { DEFAULT_SCREENING_SETTINGS } from "@/lib/screening/screening-defaults";
+import { getScreeningSettings } from "@/lib/screening/screening-settings.service";
 import type { ScreeningSettings } from "@/lib/screening/screening-defaults";
 import { ScreenPeriodSchema } from "@/lib/screening/screening.schema";
 import {
@@ -126,9 +126,10 @@ export async function runScreen(
   sourceIds: readonly number[] | null,
   from: Date,
   to: Date,
-  settings: ScreeningSettings = DEFAULT_SCREENING_SETTINGS,
+  siteSettings?: ScreeningSettings,
 ): Promise<ScreenOutcome> {
   const started = performance.now();
+  const settings = siteSettings ?? (await getScreeningSettings(db, actor.siteId));
   const site = await getSiteById(db, actor.siteId);
   const clock = localClock(site?.timeZone ?? "UTC");
   const sources = await listScreenSources(db, actor.siteId);
