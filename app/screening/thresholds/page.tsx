@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { getStoredScreeningSettings, listScreeningSettingChanges } from "@/lib/screening/screening-settings.store";
+import type { ScreeningSettingHistoryRow } from "@/lib/screening/screening-settings.store";
 import {
   confidenceOf,
   DEFAULT_SCREENING_SETTINGS,
@@ -65,64 +66,76 @@ export default async function ThresholdsPage() {
       ) : (
         <Note>This site uses the default thresholds.</Note>
       )}
-      <DataTable
-        caption="Thresholds in force"
-        rows={rows}
-        rowKey={(r) => r.key}
-        empty="No thresholds."
-        columns={[
-          { key: "label", header: "Threshold", cell: (r) => r.label },
-          {
-            key: "inForce",
-            header: "In force",
-            numeric: true,
-            cell: (r) => (r.own ? <strong>{r.inForce}</strong> : r.inForce),
-          },
-          { key: "unit", header: "Unit", cell: (r) => r.unit },
-          {
-            key: "default",
-            header: "Default",
-            numeric: true,
-            cell: (r) => (
-              <>
-                {r.defaultValue}{" "}
-                <ConfidenceMark level={confidenceOf(DEFAULT_SCREENING_SETTINGS[r.key])} anchor={`screening-${r.key}`} />
-              </>
-            ),
-          },
-          { key: "whose", header: "Set by", cell: (r) => (r.own ? "this site" : "default") },
-          { key: "source", header: "Where the default comes from", cell: (r) => r.source },
-        ]}
-      />
+      <ThresholdTable rows={rows} />
       {canChange ? (
         <section aria-labelledby="change-h">
           <h2 id="change-h">Change a threshold</h2>
           <ThresholdForm options={rows.map((r) => [r.key, `${r.label} (${r.unit})`] as const)} />
         </section>
       ) : null}
-      <section aria-labelledby="changes-h">
-        <h2 id="changes-h">Changes</h2>
-        <DataTable
-          caption="Threshold changes"
-          hideCaption
-          rows={changes.map((c, i) => ({ ...c, i }))}
-          rowKey={(c) => c.i}
-          empty="No changes: the defaults have always applied."
-          columns={[
-            { key: "at", header: "When", cell: (c) => when(c.at, site.timeZone) },
-            { key: "by", header: "By", cell: (c) => c.by },
-            { key: "reason", header: "Reason", cell: (c) => c.reason },
-            {
-              key: "values",
-              header: "Site's own values after the change",
-              cell: (c) =>
-                Object.entries(c.values)
-                  .map(([k, v]) => `${SCREENING_SETTING_LABELS[k as ScreeningSettingKey]}: ${v}`)
-                  .join("; ") || "none (defaults)",
-            },
-          ]}
-        />
-      </section>
+      <ChangesTable changes={changes} timeZone={site.timeZone} />
     </>
+  );
+}
+
+function ThresholdTable({ rows }: { rows: ThresholdRow[] }) {
+  return (
+    <DataTable
+      caption="Thresholds in force"
+      rows={rows}
+      rowKey={(r) => r.key}
+      empty="No thresholds."
+      columns={[
+        { key: "label", header: "Threshold", cell: (r) => r.label },
+        {
+          key: "inForce",
+          header: "In force",
+          numeric: true,
+          cell: (r) => (r.own ? <strong>{r.inForce}</strong> : r.inForce),
+        },
+        { key: "unit", header: "Unit", cell: (r) => r.unit },
+        {
+          key: "default",
+          header: "Default",
+          numeric: true,
+          cell: (r) => (
+            <>
+              {r.defaultValue}{" "}
+              <ConfidenceMark level={confidenceOf(DEFAULT_SCREENING_SETTINGS[r.key])} anchor={`screening-${r.key}`} />
+            </>
+          ),
+        },
+        { key: "whose", header: "Set by", cell: (r) => (r.own ? "this site" : "default") },
+        { key: "source", header: "Where the default comes from", cell: (r) => r.source },
+      ]}
+    />
+  );
+}
+
+function ChangesTable({ changes, timeZone }: { changes: ScreeningSettingHistoryRow[]; timeZone: string }) {
+  return (
+    <section aria-labelledby="changes-h">
+      <h2 id="changes-h">Changes</h2>
+      <DataTable
+        caption="Threshold changes"
+        hideCaption
+        rows={changes.map((c, i) => ({ ...c, i }))}
+        rowKey={(c) => c.i}
+        empty="No changes: the defaults have always applied."
+        columns={[
+          { key: "at", header: "When", cell: (c) => when(c.at, timeZone) },
+          { key: "by", header: "By", cell: (c) => c.by },
+          { key: "reason", header: "Reason", cell: (c) => c.reason },
+          {
+            key: "values",
+            header: "Site's own values after the change",
+            cell: (c) =>
+              Object.entries(c.values)
+                .map(([k, v]) => `${SCREENING_SETTING_LABELS[k as ScreeningSettingKey]}: ${v}`)
+                .join("; ") || "none (defaults)",
+          },
+        ]}
+      />
+    </section>
   );
 }
