@@ -6,6 +6,7 @@ import { StatusMark } from "@/app/_ui/kit/status-mark";
 export function RecordHeader({
   kind,
   number,
+  name,
   status,
   facts = [],
   actions,
@@ -13,6 +14,8 @@ export function RecordHeader({
 }: {
   kind: string;
   number: string;
+  /** The record's own name, after its number (a source's or a tank's name). */
+  name?: string;
   status?: { code: string; label?: string };
   facts?: ReadonlyArray<readonly [string, ReactNode]>;
   actions?: ReactNode;
@@ -26,8 +29,8 @@ export function RecordHeader({
         </p>
       ) : null}
       <h1>
-        <span className="record-kind">{kind}</span> <span className="code">{number}</span>{" "}
-        {status ? <StatusMark code={status.code} label={status.label} /> : null}
+        <span className="record-kind">{kind}</span> <span className="code">{number}</span>
+        {name ? `: ${name}` : null} {status ? <StatusMark code={status.code} label={status.label} /> : null}
       </h1>
       {facts.length > 0 ? (
         <dl className="facts">

@@ -96,6 +96,77 @@ function ProfileForm({ code, p }: { code: string; p: SourceProfileRow }) {
   );
 }
 
+function flagColumns(timeZone: string): Array<Column<FlagRow>> {
+  return [
+    { key: "raised", header: "Raised", cell: (f) => <span className="nowrap">{day(f.raisedAt, timeZone)}</span> },
+    { key: "check", header: "Check", cell: (f) => SIGNAL_LABELS[f.signal as Signal] ?? f.signal },
+    { key: "found", header: "What was found", cell: (f) => f.message },
+    { key: "records", header: "Pickups and lots", cell: (f) => <FlagLinks flag={f} /> },
+    { key: "state", header: "Decision", cell: (f) => <StatusMark code={`FLAG_${f.status}`} /> },
+    {
+      key: "decided",
+      header: "Decided",
+      cell: (f) => (f.decidedAt ? `${when(f.decidedAt, timeZone)}${f.decidedBy ? `, ${f.decidedBy}` : ""}` : "—"),
+    },
+    {
+      key: "reason",
+      header: "Reason",
+      cell: (f) =>
+        [f.reason, f.heldLots.length > 0 ? `lots held: ${f.heldLots.join(", ")}` : ""].filter(Boolean).join("; ") ||
+        "—",
+    },
+  ];
+}
+
+/** The source's standing, plausible volume, hours and place, as the checks use them. */
+function SourceStanding({
+  p,
+  standing,
+  timeZone,
+}: {
+  p: SourceProfileRow;
+  standing: readonly string[];
+  timeZone: string;
+}) {
+  return (
+    <Facts
+      items={[
+        [
+          "Standing",
+          standing.length === 0 ? (
+            "No concerns recorded"
+          ) : (
+            <>
+              {standing.map((s) => (
+                <StatusMark key={s} code={s} />
+              ))}
+            </>
+          ),
+        ],
+        ["Plausible volume", capacityText(p)],
+        [
+          "Declared",
+          p.capacityDeclaredAt
+            ? `${day(p.capacityDeclaredAt, timeZone)}${p.capacityDeclaredBy ? ` by ${p.capacityDeclaredBy}` : ""}`
+            : "—",
+        ],
+        [
+          "Opening hours",
+          p.opensHour === null || p.closesHour === null
+            ? "not known"
+            : `${String(p.opensHour).padStart(2, "0")}:00–${String(p.closesHour).padStart(2, "0")}:00`,
+        ],
+        [
+          "Location of the address",
+          p.latitude === null || p.longitude === null
+            ? "not known"
+            : `${p.latitude.toFixed(4)}, ${p.longitude.toFixed(4)}`,
+        ],
+      ]}
+    />
+  );
+}
+
 /** The source's declared capacity and hours, its standing, and every flag raised against it with its decision. */
 export async function SourceChecks({
   db,
@@ -117,66 +188,13 @@ export async function SourceChecks({
     listFlags(db, siteId, { sourceId, take: 200 }),
   ]);
   if (p === null) return null;
-  const columns: Array<Column<FlagRow>> = [
-    { key: "raised", header: "Raised", cell: (f) => <span className="nowrap">{day(f.raisedAt, timeZone)}</span> },
-    { key: "check", header: "Check", cell: (f) => SIGNAL_LABELS[f.signal as Signal] ?? f.signal },
-    { key: "found", header: "What was found", cell: (f) => f.message },
-    { key: "records", header: "Pickups and lots", cell: (f) => <FlagLinks flag={f} /> },
-    { key: "state", header: "Decision", cell: (f) => <StatusMark code={`FLAG_${f.status}`} /> },
-    {
-      key: "decided",
-      header: "Decided",
-      cell: (f) => (f.decidedAt ? `${when(f.decidedAt, timeZone)}${f.decidedBy ? `, ${f.decidedBy}` : ""}` : "—"),
-    },
-    {
-      key: "reason",
-      header: "Reason",
-      cell: (f) =>
-        [f.reason, f.heldLots.length > 0 ? `lots held: ${f.heldLots.join(", ")}` : ""].filter(Boolean).join("; ") ||
-        "—",
-    },
-  ];
   const standing = [p.onWatch ? "ON_WATCH" : null, p.creditWithheld ? "CREDIT_WITHHELD" : null].filter(
     (x): x is string => x !== null,
   );
   return (
     <section aria-labelledby="checks-h">
       <h2 id="checks-h">Source checks</h2>
-      <Facts
-        items={[
-          [
-            "Standing",
-            standing.length === 0 ? (
-              "No concerns recorded"
-            ) : (
-              <>
-                {standing.map((s) => (
-                  <StatusMark key={s} code={s} />
-                ))}
-              </>
-            ),
-          ],
-          ["Plausible volume", capacityText(p)],
-          [
-            "Declared",
-            p.capacityDeclaredAt
-              ? `${day(p.capacityDeclaredAt, timeZone)}${p.capacityDeclaredBy ? ` by ${p.capacityDeclaredBy}` : ""}`
-              : "—",
-          ],
-          [
-            "Opening hours",
-            p.opensHour === null || p.closesHour === null
-              ? "not known"
-              : `${String(p.opensHour).padStart(2, "0")}:00–${String(p.closesHour).padStart(2, "0")}:00`,
-          ],
-          [
-            "Location of the address",
-            p.latitude === null || p.longitude === null
-              ? "not known"
-              : `${p.latitude.toFixed(4)}, ${p.longitude.toFixed(4)}`,
-          ],
-        ]}
-      />
+      <SourceStanding p={p} standing={standing} timeZone={timeZone} />
       {compliance ? <ProfileForm code={code} p={p} /> : null}
       {compliance && standing.length > 0 ? (
         <ActionForm
@@ -192,7 +210,7 @@ export async function SourceChecks({
       <DataTable
         caption="Flags raised against this source"
         hideCaption
-        columns={columns}
+        columns={flagColumns(timeZone)}
         rows={flags}
         rowKey={(f) => f.id}
         empty="No flags raised against this source."
