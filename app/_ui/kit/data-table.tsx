@@ -33,6 +33,7 @@ export function DataTable<T>({
   csvHref,
   hideCaption = false,
   cards = false,
+  className,
 }: {
   caption: string;
   columns: ReadonlyArray<Column<T>>;
@@ -43,13 +44,15 @@ export function DataTable<T>({
   hideCaption?: boolean;
   /** On a narrow screen each row reads as a card, each value beside its column's name. */
   cards?: boolean;
+  /** A page's own class for the table, for its own column widths. */
+  className?: string;
 }) {
   if (rows.length === 0) return <p className="empty">{empty}</p>;
   const hasTotals = columns.some((c) => c.total !== undefined);
   return (
     // Focusable and named, so a table wider than the screen can be scrolled from the keyboard.
     <div className="table-wrap" tabIndex={0} role="region" aria-label={caption}>
-      <table className={cards ? "phone-cards" : undefined}>
+      <table className={[cards ? "phone-cards" : "", className ?? ""].filter(Boolean).join(" ") || undefined}>
         <caption className={hideCaption ? "visually-hidden" : undefined}>
           {caption}
           {csvHref ? (

@@ -2,18 +2,14 @@ import type { Db } from "@/lib/core/connect";
 import { labelOf, SOURCE_KINDS } from "@/lib/core/vocabulary";
 import { CAPACITY_BASES, plausibleLitresPerMonth } from "@/lib/screening/capacity";
 import { listFlags } from "@/lib/screening/screening.store";
-import type { FlagRow } from "@/lib/screening/screening.store";
-import { SIGNAL_LABELS } from "@/lib/screening/screening";
-import type { Signal } from "@/lib/screening/screening";
 import { getSourceProfile } from "@/lib/screening/source-profile.store";
 import type { SourceProfileRow } from "@/lib/screening/source-profile.store";
-import { day, when } from "@/app/_ui/format";
+import { day } from "@/app/_ui/format";
 import { ActionForm, Field } from "@/app/_ui/kit/action-form";
 import { DataTable, StatusMark } from "@/app/_ui/kit";
-import type { Column } from "@/app/_ui/kit";
 import { Facts } from "@/app/_ui/ui";
 import { clearSourceAction, saveSourceProfileAction } from "@/app/screening/actions";
-import { FlagLinks } from "@/app/screening/flag-links";
+import { flagColumns } from "@/app/screening/flag-columns";
 
 const n = (v: number | null) => (v === null ? "" : String(v));
 
@@ -96,28 +92,6 @@ function ProfileForm({ code, p }: { code: string; p: SourceProfileRow }) {
   );
 }
 
-function flagColumns(timeZone: string): Array<Column<FlagRow>> {
-  return [
-    { key: "raised", header: "Raised", cell: (f) => <span className="nowrap">{day(f.raisedAt, timeZone)}</span> },
-    { key: "check", header: "Check", cell: (f) => SIGNAL_LABELS[f.signal as Signal] ?? f.signal },
-    { key: "found", header: "What was found", cell: (f) => f.message },
-    { key: "records", header: "Pickups and lots", cell: (f) => <FlagLinks flag={f} /> },
-    { key: "state", header: "Decision", cell: (f) => <StatusMark code={`FLAG_${f.status}`} /> },
-    {
-      key: "decided",
-      header: "Decided",
-      cell: (f) => (f.decidedAt ? `${when(f.decidedAt, timeZone)}${f.decidedBy ? `, ${f.decidedBy}` : ""}` : "—"),
-    },
-    {
-      key: "reason",
-      header: "Reason",
-      cell: (f) =>
-        [f.reason, f.heldLots.length > 0 ? `lots held: ${f.heldLots.join(", ")}` : ""].filter(Boolean).join("; ") ||
-        "—",
-    },
-  ];
-}
-
 /** The source's standing, plausible volume, hours and place, as the checks use them. */
 function SourceStanding({
   p,
@@ -188,6 +162,7 @@ export async function SourceChecks({
     listFlags(db, siteId, { sourceId, take: 200 }),
   ]);
   if (p === null) return null;
+  const c = flagColumns(timeZone);
   const standing = [p.onWatch ? "ON_WATCH" : null, p.creditWithheld ? "CREDIT_WITHHELD" : null].filter(
     (x): x is string => x !== null,
   );
@@ -210,7 +185,7 @@ export async function SourceChecks({
       <DataTable
         caption="Flags raised against this source"
         hideCaption
-        columns={flagColumns(timeZone)}
+        columns={[c.raised, c.check, c.found, c.records, c.state, c.decidedWhenBy, c.reason]}
         rows={flags}
         rowKey={(f) => f.id}
         empty="No flags raised against this source."
