@@ -105,15 +105,12 @@ export async function ReceiptsPicture({
       </NoPicture>
     );
   }
-  const svg = receiptsChart(s);
-  const summary = receiptsSummary(s);
-  const columns = receiptsColumns(s);
   return (
     <Picture
       id={id}
       title={title}
-      summary={summary}
-      svg={svg}
+      svg={receiptsChart(s)}
+      summary={receiptsSummary(s)}
       numbers={
         <>
           <DataTable
@@ -121,7 +118,7 @@ export async function ReceiptsPicture({
             rows={s.weeks}
             rowKey={(w) => w.weekOf}
             empty="Nothing received."
-            columns={columns}
+            columns={receiptsColumns(s)}
           />
           <p className="muted">
             Pickups count when collected, deliveries when received, and a lot measured above its pickups&apos; estimates

@@ -4,7 +4,7 @@ import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { clearSource, decideFlag, saveSourceProfile } from "@/lib/screening/decision.service";
 import { screenPeriod } from "@/lib/screening/screening.service";
-import { readNumber, readText, readValues, refused } from "@/app/_ui/kit/form-state";
+import { readNumber, readText, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 
 // Source checks are compliance's work, checked on the server for each call.
@@ -37,7 +37,7 @@ export async function decideFlagAction(prev: FormState, form: FormData): Promise
     v.status === "DISMISSED"
       ? "Flag dismissed."
       : `Flag confirmed.${v.heldLots.length > 0 ? ` Lots on hold: ${v.heldLots.join(", ")}.` : ""}${v.watch ? " Source on watch." : ""}${v.creditWithheld ? " Certified credit withheld." : ""}`;
-  return { status: "saved", message, values: {}, errors: {}, seq: prev.seq + 1 };
+  return saved(prev, message);
 }
 
 const PERIOD_FIELDS = ["from", "to"] as const;
@@ -54,13 +54,11 @@ export async function screenPeriodAction(prev: FormState, form: FormData): Promi
   if (!r.ok) return refused(prev, values, r.issues, PERIOD_FIELDS);
   revalidatePath("/screening");
   const o = r.value;
-  return {
-    status: "saved",
-    message: `Checked ${o.sources} sources, ${o.pickups} pickups and ${o.lots} lots: ${o.created} new flags.`,
+  return saved(
+    prev,
+    `Checked ${o.sources} sources, ${o.pickups} pickups and ${o.lots} lots: ${o.created} new flags.`,
     values,
-    errors: {},
-    seq: prev.seq + 1,
-  };
+  );
 }
 
 const PROFILE_FIELDS = [
@@ -110,7 +108,7 @@ export async function saveSourceProfileAction(prev: FormState, form: FormData): 
   );
   if (!r.ok) return refused(prev, values, r.issues, PROFILE_FIELDS);
   revalidatePath("/sources/[code]", "page");
-  return { status: "saved", message: "Capacity and hours saved.", values, errors: {}, seq: prev.seq + 1 };
+  return saved(prev, "Capacity and hours saved.", values);
 }
 
 const CLEAR_FIELDS = ["sourceCode", "reason"] as const;
@@ -127,11 +125,8 @@ export async function clearSourceAction(prev: FormState, form: FormData): Promis
   if (!r.ok) return refused(prev, values, r.issues, CLEAR_FIELDS);
   revalidatePath("/sources/[code]", "page");
   revalidatePath("/screening");
-  return {
-    status: "saved",
-    message: `Source cleared.${r.value.released.length > 0 ? ` Holds lifted (back to the lab's decision): ${r.value.released.join(", ")}.` : ""}`,
-    values: {},
-    errors: {},
-    seq: prev.seq + 1,
-  };
+  return saved(
+    prev,
+    `Source cleared.${r.value.released.length > 0 ? ` Holds lifted (back to the lab's decision): ${r.value.released.join(", ")}.` : ""}`,
+  );
 }

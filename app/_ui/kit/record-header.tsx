@@ -1,6 +1,7 @@
 import Link from "next/link";
 import type { ReactNode } from "react";
 import { StatusMark } from "@/app/_ui/kit/status-mark";
+import { Facts } from "@/app/_ui/ui";
 
 /** The top of every record page: what it is, its number, its state, the key facts and what can be done. */
 export function RecordHeader({
@@ -32,16 +33,7 @@ export function RecordHeader({
         <span className="record-kind">{kind}</span> <span className="code">{number}</span>
         {name ? `: ${name}` : null} {status ? <StatusMark code={status.code} label={status.label} /> : null}
       </h1>
-      {facts.length > 0 ? (
-        <dl className="facts">
-          {facts.map(([term, value]) => (
-            <div key={term}>
-              <dt>{term}</dt>
-              <dd>{value}</dd>
-            </div>
-          ))}
-        </dl>
-      ) : null}
+      {facts.length > 0 ? <Facts items={facts} /> : null}
       {actions ? <div className="record-actions">{actions}</div> : null}
     </header>
   );

@@ -3,6 +3,7 @@ import { startTransition, useActionState, useState } from "react";
 import type { ReactNode } from "react";
 import { IDLE } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
+import { FormMessage } from "@/app/_ui/kit/form-message";
 
 /** One row of the form: field key → what is typed or chosen. */
 export type RowValues = Record<string, string>;
@@ -211,14 +212,7 @@ export function RowsForm({
         </button>
       </div>
       {after ? after(rows) : null}
-      {state.message ? (
-        <p
-          className={state.status === "saved" ? "form-ok" : "form-error"}
-          role={state.status === "saved" ? "status" : "alert"}
-        >
-          {state.message}
-        </p>
-      ) : null}
+      <FormMessage state={state} />
     </form>
   );
 }

@@ -96,14 +96,12 @@ export async function SourceFfaPicture({
       </NoPicture>
     );
   }
-  const svg = ffaChart(s, timeZone);
-  const summary = ffaSummary(s, source.code, timeZone);
   return (
     <Picture
       id={id}
       title={title}
-      summary={summary}
-      svg={svg}
+      svg={ffaChart(s, timeZone)}
+      summary={ffaSummary(s, source.code, timeZone)}
       numbers={
         <>
           <DataTable<FfaPoint>

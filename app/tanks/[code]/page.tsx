@@ -87,27 +87,23 @@ function TankMovements({
 
 type HolderMoves = Awaited<ReturnType<typeof listHolderMovements>>;
 
+const DIRECTIONS = [
+  { side: "to", title: "Movements in", empty: "Nothing has been moved into this tank yet." },
+  { side: "from", title: "Movements out", empty: "Nothing has been drawn from this tank yet." },
+] as const;
+
 function TankMovementLists({ moves, timeZone }: { moves: HolderMoves; timeZone: string }) {
-  return (
-    <>
-      <TankMovements
-        title="Movements in"
-        side="to"
-        rows={moves.incoming}
-        total={moves.incomingTotal}
-        timeZone={timeZone}
-        empty="Nothing has been moved into this tank yet."
-      />
-      <TankMovements
-        title="Movements out"
-        side="from"
-        rows={moves.outgoing}
-        total={moves.outgoingTotal}
-        timeZone={timeZone}
-        empty="Nothing has been drawn from this tank yet."
-      />
-    </>
-  );
+  return DIRECTIONS.map((d) => (
+    <TankMovements
+      key={d.side}
+      title={d.title}
+      side={d.side}
+      rows={d.side === "to" ? moves.incoming : moves.outgoing}
+      total={d.side === "to" ? moves.incomingTotal : moves.outgoingTotal}
+      timeZone={timeZone}
+      empty={d.empty}
+    />
+  ));
 }
 
 export default async function TankPage({ params }: Props) {

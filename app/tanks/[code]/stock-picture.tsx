@@ -104,15 +104,13 @@ export async function TankStockPicture({
   const first = Math.min(s.book[0]?.at ?? Infinity, s.gauges[0]?.at ?? Infinity);
   const last = Math.max(now.getTime(), s.book.at(-1)?.at ?? 0, s.gauges.at(-1)?.at ?? 0);
   const span = { first, last };
-  const svg = stockChart(s, span, capacityG, timeZone);
-  const summary = stockSummary(s, span, code, capacityG, timeZone);
   const steps = s.book.slice(1).map((p, i) => ({ ...p, changeG: p.stockG - (s.book[i]?.stockG ?? 0) }));
   return (
     <Picture
       id={id}
       title={title}
-      summary={summary}
-      svg={svg}
+      svg={stockChart(s, span, capacityG, timeZone)}
+      summary={stockSummary(s, span, code, capacityG, timeZone)}
       numbers={
         <>
           <DataTable
