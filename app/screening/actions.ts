@@ -1,13 +1,31 @@
 "use server";
 import { revalidatePath } from "next/cache";
 import { getDb } from "@/lib/core/db";
+import type { Db } from "@/lib/core/connect";
+import type { Actor } from "@/lib/core/actor";
+import type { Result } from "@/lib/core/result";
 import { requireRole } from "@/lib/auth/request.service";
 import { clearSource, decideFlag, saveSourceProfile } from "@/lib/screening/decision.service";
 import { screenPeriod } from "@/lib/screening/screening.service";
 import { readNumber, readText, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 
-// Source checks are compliance's work, checked on the server for each call.
+/**
+ * Checks the role (source checks are compliance's work, checked on the server for each call), runs the
+ * service as the signed-in user, and turns a refusal into the form's answer with what was typed kept.
+ */
+async function asCompliance<T>(
+  prev: FormState,
+  values: Record<string, string>,
+  fields: readonly string[],
+  run: (db: Db, actor: Actor) => Promise<Result<T>>,
+): Promise<{ ok: true; value: T } | { ok: false; state: FormState }> {
+  const who = await requireRole(["COMPLIANCE"]);
+  if (!who.ok) return { ok: false, state: refused(prev, values, who.issues, fields) };
+  const r = await run(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now });
+  if (!r.ok) return { ok: false, state: refused(prev, values, r.issues, fields) };
+  return { ok: true, value: r.value };
+}
 
 const checked = (form: FormData, name: string) => readText(form, name) === "yes" || readText(form, name) === "on";
 
@@ -15,21 +33,17 @@ const DECISION_FIELDS = ["flagId", "decision", "reason", "watch", "holdLots", "w
 
 export async function decideFlagAction(prev: FormState, form: FormData): Promise<FormState> {
   const values = readValues(form, DECISION_FIELDS);
-  const who = await requireRole(["COMPLIANCE"]);
-  if (!who.ok) return refused(prev, values, who.issues, DECISION_FIELDS);
-  const r = await decideFlag(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    {
+  const r = await asCompliance(prev, values, DECISION_FIELDS, (db, actor) =>
+    decideFlag(db, actor, {
       flagId: readNumber(form, "flagId"),
       decision: readText(form, "decision"),
       reason: readText(form, "reason"),
       watch: checked(form, "watch"),
       holdLots: checked(form, "holdLots"),
       withholdCredit: checked(form, "withholdCredit"),
-    },
+    }),
   );
-  if (!r.ok) return refused(prev, values, r.issues, DECISION_FIELDS);
+  if (!r.ok) return r.state;
   revalidatePath("/screening");
   revalidatePath("/sources/[code]", "page");
   const v = r.value;
@@ -44,14 +58,10 @@ const PERIOD_FIELDS = ["from", "to"] as const;
 
 export async function screenPeriodAction(prev: FormState, form: FormData): Promise<FormState> {
   const values = readValues(form, PERIOD_FIELDS);
-  const who = await requireRole(["COMPLIANCE"]);
-  if (!who.ok) return refused(prev, values, who.issues, PERIOD_FIELDS);
-  const r = await screenPeriod(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    { from: values.from, to: values.to },
+  const r = await asCompliance(prev, values, PERIOD_FIELDS, (db, actor) =>
+    screenPeriod(db, actor, { from: values.from, to: values.to }),
   );
-  if (!r.ok) return refused(prev, values, r.issues, PERIOD_FIELDS);
+  if (!r.ok) return r.state;
   revalidatePath("/screening");
   const o = r.value;
   return saved(
@@ -91,8 +101,6 @@ const NUMERIC = [
 
 export async function saveSourceProfileAction(prev: FormState, form: FormData): Promise<FormState> {
   const values = readValues(form, PROFILE_FIELDS);
-  const who = await requireRole(["COMPLIANCE"]);
-  if (!who.ok) return refused(prev, values, who.issues, PROFILE_FIELDS);
   const input: Record<string, unknown> = { sourceCode: values.sourceCode, kind: values.kind };
   if (values.capacityBasis) input.capacityBasis = values.capacityBasis;
   if (values.capacityDeclaredAt) input.capacityDeclaredAt = values.capacityDeclaredAt;
@@ -101,12 +109,8 @@ export async function saveSourceProfileAction(prev: FormState, form: FormData): 
     const v = readNumber(form, n);
     if (v !== undefined) input[n] = v;
   }
-  const r = await saveSourceProfile(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    input,
-  );
-  if (!r.ok) return refused(prev, values, r.issues, PROFILE_FIELDS);
+  const r = await asCompliance(prev, values, PROFILE_FIELDS, (db, actor) => saveSourceProfile(db, actor, input));
+  if (!r.ok) return r.state;
   revalidatePath("/sources/[code]", "page");
   return saved(prev, "Capacity and hours saved.", values);
 }
@@ -115,14 +119,8 @@ const CLEAR_FIELDS = ["sourceCode", "reason"] as const;
 
 export async function clearSourceAction(prev: FormState, form: FormData): Promise<FormState> {
   const values = readValues(form, CLEAR_FIELDS);
-  const who = await requireRole(["COMPLIANCE"]);
-  if (!who.ok) return refused(prev, values, who.issues, CLEAR_FIELDS);
-  const r = await clearSource(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    values,
-  );
-  if (!r.ok) return refused(prev, values, r.issues, CLEAR_FIELDS);
+  const r = await asCompliance(prev, values, CLEAR_FIELDS, (db, actor) => clearSource(db, actor, values));
+  if (!r.ok) return r.state;
   revalidatePath("/sources/[code]", "page");
   revalidatePath("/screening");
   return saved(
