@@ -34,7 +34,7 @@ export default async function PickupsPage({ searchParams }: { searchParams: Prom
         <>
           <Pager basePath="/pickups" page={page} total={total} pageSize={PAGE_SIZE} />
           <DataTable
-            caption={own ? "Your pickups" : "Pickups"}
+            caption={own ? "Pickups you recorded" : "Pickups"}
             hideCaption
             cards
             columns={[
