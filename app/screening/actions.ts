@@ -71,22 +71,6 @@ export async function screenPeriodAction(prev: FormState, form: FormData): Promi
   );
 }
 
-const PROFILE_FIELDS = [
-  "sourceCode",
-  "kind",
-  "capacityBasis",
-  "fryers",
-  "fryerLitres",
-  "changesPerWeek",
-  "declaredLitresPerMonth",
-  "capacityDeclaredAt",
-  "capacityDeclaredBy",
-  "pickupEveryDays",
-  "latitude",
-  "longitude",
-  "opensHour",
-  "closesHour",
-] as const;
 const NUMERIC = [
   "fryers",
   "fryerLitres",
@@ -97,6 +81,14 @@ const NUMERIC = [
   "longitude",
   "opensHour",
   "closesHour",
+] as const;
+const PROFILE_FIELDS = [
+  "sourceCode",
+  "kind",
+  "capacityBasis",
+  "capacityDeclaredAt",
+  "capacityDeclaredBy",
+  ...NUMERIC,
 ] as const;
 
 export async function saveSourceProfileAction(prev: FormState, form: FormData): Promise<FormState> {
