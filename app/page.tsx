@@ -1,10 +1,9 @@
-import Link from "next/link";
 import { getDashboard, getUtcOffsetMin } from "@/lib/site/dashboard.store";
 import { getWasteDueBoard } from "@/lib/waste/container.store";
-import { day } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
-import { Empty, NoSite, Note } from "@/app/_ui/ui";
+import { NoSite } from "@/app/_ui/ui";
 import { BatchPanel, LabPanel, TankPanel, WastePanel } from "@/app/_today/panels";
+import { Counts, PeriodPanel } from "@/app/_today/period-panel";
 
 export const dynamic = "force-dynamic";
 
@@ -29,45 +28,7 @@ export default async function TodayPage() {
         shown.
       </p>
 
-      <h2 id="counts">At a glance</h2>
-      <dl className="counts" aria-labelledby="counts">
-        <div>
-          <dt>Sources</dt>
-          <dd>
-            <Link href="/sources">{d.counts.sources}</Link>
-          </dd>
-        </div>
-        <div>
-          <dt>Pickups in {d.month.label}</dt>
-          <dd>
-            <Link href="/pickups">{d.counts.pickupsThisMonth}</Link>
-          </dd>
-        </div>
-        <div>
-          <dt>Feedstock lots</dt>
-          <dd>
-            <Link href="/lots">{d.counts.lots}</Link>
-          </dd>
-        </div>
-        <div>
-          <dt>Batches</dt>
-          <dd>
-            <Link href="/batches">{d.counts.batches}</Link>
-          </dd>
-        </div>
-        <div>
-          <dt>Product lots</dt>
-          <dd>
-            <Link href="/products">{d.counts.productLots}</Link>
-          </dd>
-        </div>
-        <div>
-          <dt>Shipments</dt>
-          <dd>
-            <Link href="/shipments">{d.counts.shipments}</Link>
-          </dd>
-        </div>
-      </dl>
+      <Counts d={d} />
 
       <div className="panels">
         <TankPanel d={d} tz={tz} />
@@ -75,29 +36,7 @@ export default async function TodayPage() {
         <BatchPanel d={d} tz={tz} />
         <WastePanel d={d} waste={waste} tz={tz} now={now} />
 
-        <section className="panel" aria-labelledby="period-h">
-          <h2 id="period-h">Accounting period</h2>
-          {d.currentPeriod === null ? (
-            <Empty>
-              No accounting period covers today ({day(now, tz)}). <Link href="/periods">All periods</Link>
-            </Empty>
-          ) : (
-            <>
-              <p>
-                {day(d.currentPeriod.startsAt, tz)} to {day(new Date(d.currentPeriod.endsAt.getTime() - 1), tz)}{" "}
-                <span className={`status status-${d.currentPeriod.status === "OPEN" ? "open-period" : "closed"}`}>
-                  {d.currentPeriod.status === "OPEN" ? "Open" : "Closed"}
-                </span>
-              </p>
-              <Note>
-                {d.currentPeriod.status === "OPEN"
-                  ? "Movements dated in this period can still be booked."
-                  : `Closed${d.currentPeriod.closedBy ? ` by ${d.currentPeriod.closedBy}` : ""}: movements dated in it are refused.`}{" "}
-                <Link href="/periods">All periods</Link>
-              </Note>
-            </>
-          )}
-        </section>
+        <PeriodPanel d={d} tz={tz} now={now} />
       </div>
     </>
   );

@@ -1,8 +1,47 @@
 import Link from "next/link";
-import type { MadeOf as MadeOfTrace } from "@/lib/feedstock/lot-detail.store";
+import type { FeedstockShare, MadeOf as MadeOfTrace } from "@/lib/feedstock/lot-detail.store";
 import { kg, pct } from "@/app/_ui/format";
 import { labelOf } from "@/lib/core/vocabulary";
+import { DataTable } from "@/app/_ui/kit/data-table";
+import type { Column } from "@/app/_ui/kit/data-table";
 import { Empty, Note } from "@/app/_ui/ui";
+
+const shareKey = (s: FeedstockShare) => `${s.kind}:${s.code}`;
+
+function feedstockColumns(madeOf: MadeOfTrace): Array<Column<FeedstockShare>> {
+  return [
+    {
+      key: "from",
+      header: "Came from",
+      total: "Feedstock",
+      cell: (s) =>
+        s.kind === "LOT" ? (
+          <>
+            <span className="holder-kind">Feedstock lot</span>{" "}
+            <Link href={`/lots/${encodeURIComponent(s.code)}`}>{s.code}</Link>
+          </>
+        ) : (
+          <>
+            <span className="holder-kind">Other</span> {s.code}
+          </>
+        ),
+    },
+    { key: "mass", header: "Mass", numeric: true, cell: (s) => kg(s.grams), total: kg(madeOf.feedstockG) },
+    {
+      key: "share",
+      header: "Share of the feedstock",
+      numeric: true,
+      cell: (s) => pct(s.pct, 1),
+      total: madeOf.shares.length > 0 ? "100 %" : "—",
+    },
+  ];
+}
+
+const REAGENT_COLUMNS: Array<Column<FeedstockShare>> = [
+  { key: "lot", header: "Reagent lot", cell: (s) => s.code },
+  { key: "reagent", header: "Reagent", cell: (s) => (s.reagent ? labelOf(s.reagent) : "—") },
+  { key: "mass", header: "Mass by the mixing rules", numeric: true, cell: (s) => kg(s.grams) },
+];
 
 /** Backward trace of a batch or product lot: the feedstock lots with their shares, the reagents apart. */
 export function MadeOf({ madeOf, what }: { madeOf: MadeOfTrace | null; what: string }) {
@@ -14,73 +53,21 @@ export function MadeOf({ madeOf, what }: { madeOf: MadeOfTrace | null; what: str
     return <Empty>Nothing has gone into this {what} yet.</Empty>;
   return (
     <>
-      <div className="table-wrap">
-        <table>
-          <caption>Feedstock</caption>
-          <thead>
-            <tr>
-              <th scope="col">Came from</th>
-              <th scope="col" className="num">
-                Mass
-              </th>
-              <th scope="col" className="num">
-                Share of the feedstock
-              </th>
-            </tr>
-          </thead>
-          <tbody>
-            {madeOf.shares.map((s) => (
-              <tr key={`${s.kind}:${s.code}`}>
-                <td>
-                  {s.kind === "LOT" ? (
-                    <>
-                      <span className="holder-kind">Feedstock lot</span>{" "}
-                      <Link href={`/lots/${encodeURIComponent(s.code)}`}>{s.code}</Link>
-                    </>
-                  ) : (
-                    <>
-                      <span className="holder-kind">Other</span> {s.code}
-                    </>
-                  )}
-                </td>
-                <td className="num">{kg(s.grams)}</td>
-                <td className="num">{pct(s.pct, 1)}</td>
-              </tr>
-            ))}
-          </tbody>
-          <tfoot>
-            <tr>
-              <td>Feedstock</td>
-              <td className="num">{kg(madeOf.feedstockG)}</td>
-              <td className="num">{madeOf.shares.length > 0 ? "100 %" : "—"}</td>
-            </tr>
-          </tfoot>
-        </table>
-      </div>
+      <DataTable
+        caption="Feedstock"
+        columns={feedstockColumns(madeOf)}
+        rows={madeOf.shares}
+        rowKey={shareKey}
+        empty="No feedstock has gone in, only reagents."
+      />
       {madeOf.reagents.length > 0 ? (
-        <div className="table-wrap">
-          <table>
-            <caption>Reagents (not ingredients: no share of the {what})</caption>
-            <thead>
-              <tr>
-                <th scope="col">Reagent lot</th>
-                <th scope="col">Reagent</th>
-                <th scope="col" className="num">
-                  Mass by the mixing rules
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {madeOf.reagents.map((s) => (
-                <tr key={`${s.kind}:${s.code}`}>
-                  <td>{s.code}</td>
-                  <td>{s.reagent ? labelOf(s.reagent) : "—"}</td>
-                  <td className="num">{kg(s.grams)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <DataTable
+          caption={`Reagents (not ingredients: no share of the ${what})`}
+          columns={REAGENT_COLUMNS}
+          rows={madeOf.reagents}
+          rowKey={shareKey}
+          empty=""
+        />
       ) : null}
       <Note>
         Feedstock shares come from replaying the ledger under each tank&apos;s mixing model and add up to 100 % of the

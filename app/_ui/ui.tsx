@@ -4,6 +4,8 @@ import { labelOf } from "@/lib/core/vocabulary";
 import type { HolderRef, MovementView } from "@/lib/ledger/movement.store";
 import { kgExact, litres, when } from "@/app/_ui/format";
 import { hrefOf } from "@/app/_ui/links";
+import { DataTable } from "@/app/_ui/kit/data-table";
+import type { Column } from "@/app/_ui/kit/data-table";
 
 export function HolderLink({
   holder,
@@ -55,7 +57,7 @@ export function NoSite() {
   );
 }
 
-export function Facts({ items }: { items: Array<[string, ReactNode]> }) {
+export function Facts({ items }: { items: ReadonlyArray<readonly [string, ReactNode]> }) {
   return (
     <dl className="facts">
       {items.map(([term, value]) => (
@@ -112,6 +114,36 @@ export function Pager({
   );
 }
 
+function movementColumns(
+  timeZone: string,
+  side: "from" | "to" | undefined,
+  action: { header: string; render: (m: MovementView) => ReactNode } | undefined,
+): Array<Column<MovementView>> {
+  const columns: Array<Column<MovementView> | null> = [
+    { key: "at", header: "When", cell: (m) => <span className="nowrap">{when(m.at, timeZone)}</span> },
+    { key: "role", header: "Role", cell: (m) => labelOf(m.role) },
+    side !== "from" ? { key: "from", header: "From", cell: (m) => <HolderLink holder={m.from} /> } : null,
+    side !== "to" ? { key: "to", header: "To", cell: (m) => <HolderLink holder={m.to} /> } : null,
+    { key: "mass", header: "Mass", numeric: true, cell: (m) => kgExact(m.massG) },
+    { key: "volume", header: "Volume", numeric: true, cell: (m) => (m.volumeMl === null ? "—" : litres(m.volumeMl)) },
+    {
+      key: "note",
+      header: "Note",
+      cell: (m) => (
+        <>
+          {m.note}
+          {m.reversesId !== null ? <span className="tag">reverses #{m.reversesId}</span> : null}
+          {m.reversedById !== null ? <span className="tag">reversed by #{m.reversedById}</span> : null}
+        </>
+      ),
+    },
+    action ? { key: "action", header: action.header, cell: action.render } : null,
+  ];
+  return columns.filter((c): c is Column<MovementView> => c !== null);
+}
+
+const SIDE_CAPTION = { to: "Movements in", from: "Movements out" } as const;
+
 /** Movements as a table; `side` hides the column that is always the page's own holder. */
 export function MovementTable({
   rows,
@@ -127,53 +159,14 @@ export function MovementTable({
   action?: { header: string; render: (m: MovementView) => ReactNode };
 }) {
   return (
-    <div className="table-wrap">
-      <table>
-        {caption ? <caption>{caption}</caption> : null}
-        <thead>
-          <tr>
-            <th scope="col">When</th>
-            <th scope="col">Role</th>
-            {side !== "from" ? <th scope="col">From</th> : null}
-            {side !== "to" ? <th scope="col">To</th> : null}
-            <th scope="col" className="num">
-              Mass
-            </th>
-            <th scope="col" className="num">
-              Volume
-            </th>
-            <th scope="col">Note</th>
-            {action ? <th scope="col">{action.header}</th> : null}
-          </tr>
-        </thead>
-        <tbody>
-          {rows.map((m) => (
-            <tr key={m.id}>
-              <td className="nowrap">{when(m.at, timeZone)}</td>
-              <td>{labelOf(m.role)}</td>
-              {side !== "from" ? (
-                <td>
-                  <HolderLink holder={m.from} />
-                </td>
-              ) : null}
-              {side !== "to" ? (
-                <td>
-                  <HolderLink holder={m.to} />
-                </td>
-              ) : null}
-              <td className="num">{kgExact(m.massG)}</td>
-              <td className="num">{m.volumeMl === null ? "—" : litres(m.volumeMl)}</td>
-              <td>
-                {m.note}
-                {m.reversesId !== null ? <span className="tag">reverses #{m.reversesId}</span> : null}
-                {m.reversedById !== null ? <span className="tag">reversed by #{m.reversedById}</span> : null}
-              </td>
-              {action ? <td>{action.render(m)}</td> : null}
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
+    <DataTable
+      caption={caption ?? (side ? SIDE_CAPTION[side] : "Movements")}
+      hideCaption={caption === undefined}
+      columns={movementColumns(timeZone, side, action)}
+      rows={rows}
+      rowKey={(m) => m.id}
+      empty="No movements."
+    />
   );
 }
 

@@ -52,7 +52,48 @@ function Notices({
   );
 }
 
-export function CollectApp({ data }: { data: PhoneData }) {
+/** Above the route: the connection and outbox bar, the questions and notices, and signing in again to send. */
+function CollectTop({
+  ob,
+  distance,
+  stale,
+  routeDay,
+  waiting,
+  user,
+  onSignedIn,
+}: {
+  ob: ReturnType<typeof useOutbox>;
+  distance: ReturnType<typeof useDistanceBand>;
+  stale: boolean;
+  routeDay: string;
+  waiting: number;
+  user: PhoneData["user"];
+  onSignedIn: (u: PhoneData["user"]) => Promise<void>;
+}) {
+  return (
+    <>
+      <StatusBar online={ob.online} waiting={ob.entries.length} sending={ob.sending} onSend={() => void ob.flush()} />
+      <DistanceQuestion consent={distance.consent} answer={distance.answer} />
+      <Notices
+        offlineReady={ob.offlineReady}
+        storagePersisted={ob.storagePersisted}
+        stale={stale}
+        routeDay={routeDay}
+      />
+      {ob.needSignIn ? (
+        <SignInAgain why={ob.needSignIn} waiting={waiting} login={user.login} onSignedIn={onSignedIn} />
+      ) : null}
+      {!user.mayRecord ? (
+        <p className="form-error">
+          Only collectors and production staff record pickups; this account can look but not save.
+        </p>
+      ) : null}
+    </>
+  );
+}
+
+/** The page's state: who is signed in, the outbox, the form being typed and the stop chosen. */
+function useCollect(data: PhoneData) {
   const [user, setUser] = useState(data.user);
   const system = user.unitSystem;
   const sourcesByCode = useMemo(() => new Map(data.sources.map((s) => [s.code, s])), [data.sources]);
@@ -99,77 +140,95 @@ export function CollectApp({ data }: { data: PhoneData }) {
     ...new Set(ob.entries.filter((e) => e.enteredBy.userId !== user.userId).map((e) => e.enteredBy.login)),
   ];
   const view = { sourcesByCode, system, timeZone: data.timeZone, today };
+  return {
+    user,
+    system,
+    sourcesByCode,
+    routeCodes,
+    showAllStops,
+    setShowAllStops,
+    ob,
+    draft,
+    set,
+    distance,
+    pickedCode,
+    source,
+    materials,
+    material,
+    entry,
+    choose,
+    signedIn,
+    summary,
+    today,
+    heldLogins,
+    view,
+  };
+}
 
+export function CollectApp({ data }: { data: PhoneData }) {
+  const c = useCollect(data);
+  const { ob, entry, user } = c;
   return (
     <div
       className="collect-app"
       data-outbox-ready={ob.boxReady ? "1" : "0"}
       data-offline-ready={ob.offlineReady ? "1" : "0"}
     >
-      <StatusBar online={ob.online} waiting={ob.entries.length} sending={ob.sending} onSend={() => void ob.flush()} />
-      <DistanceQuestion consent={distance.consent} answer={distance.answer} />
-      <Notices
-        offlineReady={ob.offlineReady}
-        storagePersisted={ob.storagePersisted}
-        stale={today !== data.today}
+      <CollectTop
+        ob={ob}
+        distance={c.distance}
+        stale={c.today !== data.today}
         routeDay={data.today}
+        waiting={c.summary.waiting}
+        user={user}
+        onSignedIn={c.signedIn}
       />
-      {ob.needSignIn ? (
-        <SignInAgain why={ob.needSignIn} waiting={summary.waiting} login={user.login} onSignedIn={signedIn} />
-      ) : null}
-      {!user.mayRecord ? (
-        <p className="form-error">
-          Only collectors and production staff record pickups; this account can look but not save.
-        </p>
-      ) : null}
 
       <h1 className="collect-title">Collect</h1>
       <RouteStops
         route={data.route}
-        sourcesByCode={sourcesByCode}
-        pickedCode={pickedCode}
-        showAll={showAllStops}
-        onShowAll={() => setShowAllStops(true)}
+        sourcesByCode={c.sourcesByCode}
+        pickedCode={c.pickedCode}
+        showAll={c.showAllStops}
+        onShowAll={() => c.setShowAllStops(true)}
         onPick={(code) => {
-          choose(code);
+          c.choose(code);
           showForm();
         }}
       />
       <PickupForm
-        {...{
-          draft,
-          set,
-          errors: entry.errors,
-          system,
-          sources: data.sources,
-          routeCodes,
-          source,
-          materials,
-          material,
-          timeZone: data.timeZone,
-          today,
-        }}
+        draft={c.draft}
+        set={c.set}
+        errors={entry.errors}
+        system={c.system}
+        sources={data.sources}
+        routeCodes={c.routeCodes}
+        source={c.source}
+        materials={c.materials}
+        material={c.material}
+        timeZone={data.timeZone}
+        today={c.today}
         editing={entry.editingKey !== null}
         mayRecord={user.mayRecord}
         boxReady={ob.boxReady}
         saved={entry.saved}
-        onChooseSource={choose}
+        onChooseSource={c.choose}
         onSubmit={entry.save}
         onStopEditing={entry.stopEditing}
       />
       <WaitingList
         entries={ob.entries}
         lastProblem={ob.lastProblem}
-        stale={summary.stale}
-        heldLogins={heldLogins}
-        view={view}
+        stale={c.summary.stale}
+        heldLogins={c.heldLogins}
+        view={c.view}
         onFix={entry.edit}
         onDiscard={(e) => void entry.discard(e)}
       />
       <p className="collect-links">
         <a href="/labels/scan">Scan a label</a> · <a href="/labels">Print labels</a>
       </p>
-      <SentList sentNow={ob.sentNow} received={data.received} view={view} />
+      <SentList sentNow={ob.sentNow} received={data.received} view={c.view} />
     </div>
   );
 }

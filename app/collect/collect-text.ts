@@ -8,28 +8,22 @@ export function num(s: string): number {
   return t === "" ? Number.NaN : Number(t);
 }
 
+const PARTS: Intl.DateTimeFormatOptions = {
+  year: "numeric",
+  month: "2-digit",
+  day: "2-digit",
+  hour: "2-digit",
+  minute: "2-digit",
+  hourCycle: "h23",
+};
+
+/** The day and time in the site's zone (UTC if the phone does not know the zone). */
 export function localParts(d: Date, timeZone: string): { day: string; time: string } {
   let f: Intl.DateTimeFormat;
   try {
-    f = new Intl.DateTimeFormat("en-GB", {
-      timeZone,
-      year: "numeric",
-      month: "2-digit",
-      day: "2-digit",
-      hour: "2-digit",
-      minute: "2-digit",
-      hourCycle: "h23",
-    });
+    f = new Intl.DateTimeFormat("en-GB", { ...PARTS, timeZone });
   } catch {
-    f = new Intl.DateTimeFormat("en-GB", {
-      timeZone: "UTC",
-      year: "numeric",
-      month: "2-digit",
-      day: "2-digit",
-      hour: "2-digit",
-      minute: "2-digit",
-      hourCycle: "h23",
-    });
+    f = new Intl.DateTimeFormat("en-GB", { ...PARTS, timeZone: "UTC" });
   }
   const p = Object.fromEntries(f.formatToParts(d).map((x) => [x.type, x.value]));
   return { day: `${p.year}-${p.month}-${p.day}`, time: `${p.hour}:${p.minute}` };

@@ -30,6 +30,31 @@ interface EntryContext {
   stop: { lat: number; lon: number } | null;
 }
 
+/** Keeps an entry in the phone's outbox; a message naming what went wrong, or null when kept. */
+async function keepOnPhone(box: Outbox, entry: OutboxEntry, editing: boolean): Promise<string | null> {
+  try {
+    if (editing) await box.replace(entry);
+    else await box.add(entry);
+    return null;
+  } catch (e) {
+    return `Could not keep the entry on this phone: ${e instanceof Error ? e.message : String(e)}. Nothing was cleared.`;
+  }
+}
+
+/** The pickup as typed: a fix keeps its number, time and distance band; a new one gets them now. */
+async function pickupInputFor(c: EntryContext, editing: OutboxEntry | undefined) {
+  const key = editing?.key ?? crypto.randomUUID();
+  const observedAt = editing?.pickup.observedAt ?? new Date().toISOString();
+  const code = editing?.pickup.code ?? pickupNumber(localParts(new Date(observedAt), c.timeZone).day, key);
+  const input = pickupInputOf(c.draft, { code, observedAt, key, material: c.material, system: c.user.unitSystem });
+  if (editing?.pickup.phoneDistanceBand) input.phoneDistanceBand = editing.pickup.phoneDistanceBand;
+  else if (!editing) {
+    const band = await c.bandFor(c.stop);
+    if (band) input.phoneDistanceBand = band;
+  }
+  return { input, code };
+}
+
 export function usePickupEntry(c: EntryContext) {
   const [editingKey, setEditingKey] = useState<string | null>(null);
   const [errors, setErrors] = useState<FieldErrors>({});
@@ -44,33 +69,16 @@ export function usePickupEntry(c: EntryContext) {
   async function keep(entry: OutboxEntry, editing: boolean): Promise<boolean> {
     const box = c.box.current;
     if (!box) return false;
-    try {
-      if (editing) await box.replace(entry);
-      else await box.add(entry);
-      return true;
-    } catch (e) {
-      setErrors({
-        form: [
-          `Could not keep the entry on this phone: ${e instanceof Error ? e.message : String(e)}. Nothing was cleared.`,
-        ],
-      });
-      return false;
-    }
+    const problem = await keepOnPhone(box, entry, editing);
+    if (problem !== null) setErrors({ form: [problem] });
+    return problem === null;
   }
 
   async function save(ev: FormEvent) {
     ev.preventDefault();
     if (!c.box.current) return;
     const editing = editingKey ? c.entries.find((e) => e.key === editingKey) : undefined;
-    const key = editing?.key ?? crypto.randomUUID();
-    const observedAt = editing?.pickup.observedAt ?? new Date().toISOString();
-    const code = editing?.pickup.code ?? pickupNumber(localParts(new Date(observedAt), c.timeZone).day, key);
-    const input = pickupInputOf(c.draft, { code, observedAt, key, material: c.material, system: c.user.unitSystem });
-    if (editing?.pickup.phoneDistanceBand) input.phoneDistanceBand = editing.pickup.phoneDistanceBand;
-    else if (!editing) {
-      const band = await c.bandFor(c.stop);
-      if (band) input.phoneDistanceBand = band;
-    }
+    const { input, code } = await pickupInputFor(c, editing);
     const checked = checkOnPhone(input, c.known);
     if (!checked.ok) {
       const byField = errorsByField(checked.issues, c.draft.measure);

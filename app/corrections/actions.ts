@@ -3,7 +3,7 @@ import { revalidatePath } from "next/cache";
 import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { reverseMovement, voidLabResult } from "@/lib/correction/correction.service";
-import { readNumber, readText, readValues, refused } from "@/app/_ui/kit/form-state";
+import { readNumber, readText, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 
 // Corrections by production staff, checked on the server for each call; the reason is required.
@@ -20,13 +20,7 @@ export async function reverseMovementAction(prev: FormState, form: FormData): Pr
   if (!r.ok) return refused(prev, values, r.issues, ["reason"]);
   revalidatePath("/ledger");
   revalidatePath("/batches/[code]", "page");
-  return {
-    status: "saved",
-    message: `Movement ${r.value.movementId} reversed by movement ${r.value.reversalId}.`,
-    values: {},
-    errors: {},
-    seq: prev.seq + 1,
-  };
+  return saved(prev, `Movement ${r.value.movementId} reversed by movement ${r.value.reversalId}.`);
 }
 
 export async function voidLabResultAction(prev: FormState, form: FormData): Promise<FormState> {
@@ -41,11 +35,5 @@ export async function voidLabResultAction(prev: FormState, form: FormData): Prom
   if (!r.ok) return refused(prev, values, r.issues, ["reason"]);
   revalidatePath(`/lab/${encodeURIComponent(r.value.lotCode)}`);
   revalidatePath(`/lots/${encodeURIComponent(r.value.lotCode)}`);
-  return {
-    status: "saved",
-    message: "Result voided; it stays on record and no longer counts.",
-    values: {},
-    errors: {},
-    seq: prev.seq + 1,
-  };
+  return saved(prev, "Result voided; it stays on record and no longer counts.");
 }

@@ -3,7 +3,7 @@ import { revalidatePath } from "next/cache";
 import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { changeCustomer, createCustomer } from "@/lib/customer/customer.service";
-import { readText, readValues, refused } from "@/app/_ui/kit/form-state";
+import { readText, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 
 // Customers are recorded and changed by compliance staff; checked on the server for each call.
@@ -24,7 +24,7 @@ export async function createCustomerAction(prev: FormState, form: FormData): Pro
   });
   if (!r.ok) return refused(prev, values, r.issues, NEW_FIELDS);
   revalidatePath("/customers");
-  return { status: "saved", message: `Customer ${r.value.code} recorded.`, values: {}, errors: {}, seq: prev.seq + 1 };
+  return saved(prev, `Customer ${r.value.code} recorded.`);
 }
 
 export async function changeCustomerAction(prev: FormState, form: FormData): Promise<FormState> {
@@ -44,11 +44,8 @@ export async function changeCustomerAction(prev: FormState, form: FormData): Pro
   if (!r.ok) return refused(prev, values, r.issues, CHANGE_FIELDS);
   revalidatePath("/customers");
   revalidatePath(`/customers/${encodeURIComponent(r.value.code)}`);
-  return {
-    status: "saved",
-    message: `Customer ${r.value.code} changed (${r.value.changed.join(", ")}); the history keeps the old values.`,
-    values: {},
-    errors: {},
-    seq: prev.seq + 1,
-  };
+  return saved(
+    prev,
+    `Customer ${r.value.code} changed (${r.value.changed.join(", ")}); the history keeps the old values.`,
+  );
 }

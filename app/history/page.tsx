@@ -9,7 +9,10 @@ import type { HolderKind } from "@/lib/core/vocabulary";
 import { when } from "@/app/_ui/format";
 import { hrefOf } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
-import { Empty, NoSite, Note } from "@/app/_ui/ui";
+import { NoSite, Note } from "@/app/_ui/ui";
+import { DataTable, StatusMark } from "@/app/_ui/kit";
+import type { Column } from "@/app/_ui/kit";
+import type { ReactNode } from "react";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Record history" };
@@ -57,6 +60,98 @@ function recordHref(kind: RecordHistoryKind, key: string): string | null {
   return null;
 }
 
+type HistoryEvent = Awaited<ReturnType<typeof listRecordHistory>>[number];
+
+/** The page when the address names no history this user may read: the message names the field. */
+function HistoryRefused({ children }: { children: ReactNode }) {
+  return (
+    <>
+      <h1>Record history</h1>
+      <p role="alert" className="form-error">
+        {children}
+      </p>
+    </>
+  );
+}
+
+function ChainCheck({ chain }: { chain: Awaited<ReturnType<typeof loadChain>> }) {
+  const verified = verifyChain(chain);
+  return verified.ok ? (
+    <p className="status-line" role="status">
+      <StatusMark code="PASS" label="chain intact" /> The site&apos;s audit trail checks out: {verified.value.events}{" "}
+      events, each linked to the one before by its hash.
+    </p>
+  ) : (
+    <p className="form-error" role="alert">
+      The audit trail does not check out: {verified.issues[0]?.message}. Report this to the administrator; the stored
+      history may have been altered outside the app.
+    </p>
+  );
+}
+
+/** The fields an event changed, each with its value before and after, folded away until asked for. */
+function ChangeDetails({ e }: { e: HistoryEvent }) {
+  const changes = describeChange(e.before, e.after);
+  if (changes.length === 0) return <span className="muted">no values</span>;
+  return (
+    <details>
+      <summary>
+        {changes.length} field{changes.length === 1 ? "" : "s"}
+      </summary>
+      <table className="change-table">
+        <tbody>
+          {changes.map((c) => (
+            <tr key={c.field}>
+              <th scope="row">{fieldWords(c.field)}</th>
+              <td>{valueWords(c.field, c.before) ?? <span className="muted">—</span>}</td>
+              <td aria-hidden="true">→</td>
+              <td>{valueWords(c.field, c.after) ?? <span className="muted">—</span>}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </details>
+  );
+}
+
+function historyColumns(tz: string): Array<Column<HistoryEvent>> {
+  return [
+    { key: "seq", header: "No.", numeric: true, cell: (e) => e.seq },
+    { key: "site", header: "When (site time)", cell: (e) => <span className="nowrap">{when(e.at, tz)}</span> },
+    {
+      key: "utc",
+      header: "When (UTC)",
+      cell: (e) => <span className="nowrap">{e.at.toISOString().replace(".000Z", "Z")}</span>,
+    },
+    {
+      key: "who",
+      header: "Who",
+      cell: (e) => (
+        <>
+          {e.actor} <span className="muted">({e.actorLogin})</span>
+        </>
+      ),
+    },
+    {
+      key: "what",
+      header: "What",
+      cell: (e) => (
+        <>
+          {ACTION_WORDS[e.action] ?? e.action} {ENTITY_WORDS[e.entity] ?? ""}
+          {e.intact ? null : (
+            <>
+              {" "}
+              <StatusMark code="FAIL" label="hash does not match" />
+            </>
+          )}
+        </>
+      ),
+    },
+    { key: "reason", header: "Reason", cell: (e) => (e.reason === "" ? <span className="muted">—</span> : e.reason) },
+    { key: "values", header: "Values (before → after)", cell: (e) => <ChangeDetails e={e} /> },
+  ];
+}
+
 /** Every recorded create, change, void, close and reopen of one record: who, when (UTC and site time), old and new values, reason. */
 export default async function HistoryPage({ searchParams }: { searchParams: Promise<Search> }) {
   const { db, site, user } = await loadSite();
@@ -66,23 +161,17 @@ export default async function HistoryPage({ searchParams }: { searchParams: Prom
   const key = one(sp.key);
   if (!isRecordHistoryKind(kind) || key === "") {
     return (
-      <>
-        <h1>Record history</h1>
-        <p role="alert" className="form-error">
-          Record kind: choose one of {Object.keys(RECORD_HISTORIES).join(", ")}, and give the record&apos;s code (key).
-          Every list row has a History link.
-        </p>
-      </>
+      <HistoryRefused>
+        Record kind: choose one of {Object.keys(RECORD_HISTORIES).join(", ")}, and give the record&apos;s code (key).
+        Every list row has a History link.
+      </HistoryRefused>
     );
   }
   if (kind === "user" && user.role !== "ADMIN" && key !== user.login) {
     return (
-      <>
-        <h1>Record history</h1>
-        <p role="alert" className="form-error">
-          Record kind: an account&apos;s history is shown to its owner and to administrators only.
-        </p>
-      </>
+      <HistoryRefused>
+        Record kind: an account&apos;s history is shown to its owner and to administrators only.
+      </HistoryRefused>
     );
   }
   const spec = RECORD_HISTORIES[kind];
@@ -90,7 +179,6 @@ export default async function HistoryPage({ searchParams }: { searchParams: Prom
     listRecordHistory(db, site.id, spec.entities, key),
     loadChain(db, site.id),
   ]);
-  const verified = verifyChain(chain);
   const href = recordHref(kind, key);
   const tz = site.timeZone;
   return (
@@ -103,91 +191,15 @@ export default async function HistoryPage({ searchParams }: { searchParams: Prom
         are never deleted; a mistake is voided or corrected with a reason.{" "}
         {href ? <Link href={href}>Open the record</Link> : null}
       </p>
-      {verified.ok ? (
-        <p className="status-line" role="status">
-          <span className="status status-pass">chain intact</span> The site&apos;s audit trail checks out:{" "}
-          {verified.value.events} events, each linked to the one before by its hash.
-        </p>
-      ) : (
-        <p className="form-error" role="alert">
-          The audit trail does not check out: {verified.issues[0]?.message}. Report this to the administrator; the
-          stored history may have been altered outside the app.
-        </p>
-      )}
-      {events.length === 0 ? (
-        <Empty>
-          Nothing recorded for {spec.label.toLowerCase()} {key} on this site.
-        </Empty>
-      ) : (
-        <div className="table-wrap">
-          <table className="history-table">
-            <caption>
-              {events.length} recorded event{events.length === 1 ? "" : "s"}
-            </caption>
-            <thead>
-              <tr>
-                <th scope="col" className="num">
-                  No.
-                </th>
-                <th scope="col">When (site time)</th>
-                <th scope="col">When (UTC)</th>
-                <th scope="col">Who</th>
-                <th scope="col">What</th>
-                <th scope="col">Reason</th>
-                <th scope="col">Values (before → after)</th>
-              </tr>
-            </thead>
-            <tbody>
-              {events.map((e) => {
-                const changes = describeChange(e.before, e.after);
-                return (
-                  <tr key={e.seq}>
-                    <td className="num">{e.seq}</td>
-                    <td className="nowrap">{when(e.at, tz)}</td>
-                    <td className="nowrap">{e.at.toISOString().replace(".000Z", "Z")}</td>
-                    <td>
-                      {e.actor} <span className="muted">({e.actorLogin})</span>
-                    </td>
-                    <td>
-                      {ACTION_WORDS[e.action] ?? e.action} {ENTITY_WORDS[e.entity] ?? ""}
-                      {e.intact ? null : (
-                        <>
-                          {" "}
-                          <span className="status status-fail">hash does not match</span>
-                        </>
-                      )}
-                    </td>
-                    <td>{e.reason === "" ? <span className="muted">—</span> : e.reason}</td>
-                    <td>
-                      {changes.length === 0 ? (
-                        <span className="muted">no values</span>
-                      ) : (
-                        <details>
-                          <summary>
-                            {changes.length} field{changes.length === 1 ? "" : "s"}
-                          </summary>
-                          <table className="change-table">
-                            <tbody>
-                              {changes.map((c) => (
-                                <tr key={c.field}>
-                                  <th scope="row">{fieldWords(c.field)}</th>
-                                  <td>{valueWords(c.field, c.before) ?? <span className="muted">—</span>}</td>
-                                  <td aria-hidden="true">→</td>
-                                  <td>{valueWords(c.field, c.after) ?? <span className="muted">—</span>}</td>
-                                </tr>
-                              ))}
-                            </tbody>
-                          </table>
-                        </details>
-                      )}
-                    </td>
-                  </tr>
-                );
-              })}
-            </tbody>
-          </table>
-        </div>
-      )}
+      <ChainCheck chain={chain} />
+      <DataTable
+        caption={`${events.length} recorded event${events.length === 1 ? "" : "s"}`}
+        className="history-table"
+        columns={historyColumns(tz)}
+        rows={events}
+        rowKey={(e) => e.seq}
+        empty={`Nothing recorded for ${spec.label.toLowerCase()} ${key} on this site.`}
+      />
       <Note>
         Times are the server&apos;s clock when the change was written. The hash of each event covers the one before it.
       </Note>

@@ -2,13 +2,12 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { containerRange, MAX_LABELS_PER_SHEET } from "@/lib/labels/label-range";
 import { listLotsForLabels, listRecentLotCodes } from "@/lib/labels/labels.store";
-import { labelOf } from "@/lib/core/vocabulary";
-import { day } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { NoSite } from "@/app/_ui/ui";
 import { ContainerLabel, LotLabel } from "@/app/labels/label-card";
 import { requestOrigin } from "@/app/labels/origin";
 import { PrintLabels } from "@/app/labels/print-button";
+import { ContainerSheetForm, LotSheetForm } from "@/app/labels/sheet-forms";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Labels" };
@@ -44,37 +43,8 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
         <Link href="/labels/scan">scan it or type its number</Link>.
       </p>
       <div className="labels-controls">
-        <form method="get" action="/labels">
-          <input type="hidden" name="kind" value="lot" />
-          <fieldset>
-            <legend>Lot labels: choose lots</legend>
-            {recent.map((l) => (
-              <label key={l.code} style={{ display: "inline-block", marginRight: "1rem", maxWidth: "100%" }}>
-                <input type="checkbox" name="lot" value={l.code} defaultChecked={lotCodes.includes(l.code)} /> {l.code}{" "}
-                <span className="muted">
-                  ({labelOf(l.material)}, {day(l.receivedAt, site.timeZone)})
-                </span>
-              </label>
-            ))}
-          </fieldset>
-          <button type="submit">Make the lot sheet</button>
-        </form>
-        <form method="get" action="/labels">
-          <input type="hidden" name="kind" value="container" />
-          <fieldset>
-            <legend>Container labels: a run of numbers</legend>
-            <label>
-              Prefix <input name="prefix" defaultValue={one(q.prefix) || "C-"} size={6} />
-            </label>{" "}
-            <label>
-              From <input name="from" inputMode="numeric" defaultValue={one(q.from) || "1"} size={5} />
-            </label>{" "}
-            <label>
-              To <input name="to" inputMode="numeric" defaultValue={one(q.to) || "24"} size={5} />
-            </label>
-          </fieldset>
-          <button type="submit">Make the container sheet</button>
-        </form>
+        <LotSheetForm recent={recent} chosen={lotCodes} timeZone={site.timeZone} />
+        <ContainerSheetForm prefix={one(q.prefix) || "C-"} from={one(q.from) || "1"} to={one(q.to) || "24"} />
         {range && !range.ok ? (
           <p className="form-error" role="alert">
             {range.issues.map((i) => i.message).join("; ")}

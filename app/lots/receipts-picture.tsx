@@ -1,7 +1,7 @@
 import type { Db } from "@/lib/core/connect";
 import { labelOf } from "@/lib/core/vocabulary";
 import { computeReceiptsSeries, weekStartMs } from "@/lib/feedstock/receipts-series";
-import type { ReceiptWeek } from "@/lib/feedstock/receipts-series";
+import type { ReceiptsSeries, ReceiptWeek } from "@/lib/feedstock/receipts-series";
 import { listFeedstockReceipts } from "@/lib/feedstock/receipts-series.store";
 import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
 import { kg, num } from "@/app/_ui/format";
@@ -23,6 +23,57 @@ function shortDay(weekOf: string): string {
     month: "short",
     timeZone: "UTC",
   });
+}
+
+function receiptsChart(s: ReceiptsSeries): string {
+  return renderPictureSvg(
+    {
+      legend: { top: 0, itemGap: 26 },
+      grid: { left: 78, right: 16, top: 56, bottom: 36 },
+      xAxis: { type: "category", data: s.weeks.map((w) => shortDay(w.weekOf)) },
+      yAxis: { type: "value", name: "kg", axisLabel: { formatter: (v: number) => v.toLocaleString("en-GB") } },
+      series: s.materials.map((m) => ({
+        name: materialLabel(m),
+        type: "bar",
+        stack: "received",
+        barMaxWidth: 40,
+        data: s.weeks.map((w) => (w.byMaterial[m] ?? 0) / 1000),
+      })),
+    },
+    { height: 320 },
+  );
+}
+
+function receiptsSummary(s: ReceiptsSeries): string {
+  const top = s.materials[0] ?? "";
+  const busiest = s.weeks.reduce<ReceiptWeek | null>((b, w) => (b === null || w.totalG > b.totalG ? w : b), null);
+  return (
+    `${kg(s.totalG, 0)} of feedstock received in the ${RECEIPT_WEEKS} weeks from ${s.weeks[0]?.weekOf ?? ""}, ` +
+    `${num((100 * (s.totalsByMaterial[top] ?? 0)) / s.totalG, 0)} % of it ${materialLabel(top).toLowerCase()}` +
+    (busiest ? `; the most in the week of ${busiest.weekOf}, ${kg(busiest.totalG, 0)}.` : ".")
+  );
+}
+
+function receiptsColumns(s: ReceiptsSeries): Array<Column<ReceiptWeek>> {
+  return [
+    { key: "week", header: "Week of", cell: (w) => w.weekOf, total: "Total" },
+    ...s.materials.map((m): Column<ReceiptWeek> => ({
+      key: m,
+      header: materialLabel(m),
+      unit: "kg",
+      numeric: true,
+      cell: (w) => num((w.byMaterial[m] ?? 0) / 1000, 3),
+      total: num((s.totalsByMaterial[m] ?? 0) / 1000, 3),
+    })),
+    {
+      key: "total",
+      header: "All kinds",
+      unit: "kg",
+      numeric: true,
+      cell: (w) => num(w.totalG / 1000, 3),
+      total: num(s.totalG / 1000, 3),
+    },
+  ];
 }
 
 /** Feedstock received per week over the last twelve weeks, stacked by material kind. */
@@ -54,53 +105,12 @@ export async function ReceiptsPicture({
       </NoPicture>
     );
   }
-  const svg = renderPictureSvg(
-    {
-      legend: { top: 0, itemGap: 26 },
-      grid: { left: 78, right: 16, top: 56, bottom: 36 },
-      xAxis: { type: "category", data: s.weeks.map((w) => shortDay(w.weekOf)) },
-      yAxis: { type: "value", name: "kg", axisLabel: { formatter: (v: number) => v.toLocaleString("en-GB") } },
-      series: s.materials.map((m) => ({
-        name: materialLabel(m),
-        type: "bar",
-        stack: "received",
-        barMaxWidth: 40,
-        data: s.weeks.map((w) => (w.byMaterial[m] ?? 0) / 1000),
-      })),
-    },
-    { height: 320 },
-  );
-  const top = s.materials[0] ?? "";
-  const busiest = s.weeks.reduce<ReceiptWeek | null>((b, w) => (b === null || w.totalG > b.totalG ? w : b), null);
-  const summary =
-    `${kg(s.totalG, 0)} of feedstock received in the ${RECEIPT_WEEKS} weeks from ${s.weeks[0]?.weekOf ?? ""}, ` +
-    `${num((100 * (s.totalsByMaterial[top] ?? 0)) / s.totalG, 0)} % of it ${materialLabel(top).toLowerCase()}` +
-    (busiest ? `; the most in the week of ${busiest.weekOf}, ${kg(busiest.totalG, 0)}.` : ".");
-  const columns: Array<Column<ReceiptWeek>> = [
-    { key: "week", header: "Week of", cell: (w) => w.weekOf, total: "Total" },
-    ...s.materials.map((m): Column<ReceiptWeek> => ({
-      key: m,
-      header: materialLabel(m),
-      unit: "kg",
-      numeric: true,
-      cell: (w) => num((w.byMaterial[m] ?? 0) / 1000, 3),
-      total: num((s.totalsByMaterial[m] ?? 0) / 1000, 3),
-    })),
-    {
-      key: "total",
-      header: "All kinds",
-      unit: "kg",
-      numeric: true,
-      cell: (w) => num(w.totalG / 1000, 3),
-      total: num(s.totalG / 1000, 3),
-    },
-  ];
   return (
     <Picture
       id={id}
       title={title}
-      summary={summary}
-      svg={svg}
+      svg={receiptsChart(s)}
+      summary={receiptsSummary(s)}
       numbers={
         <>
           <DataTable
@@ -108,7 +118,7 @@ export async function ReceiptsPicture({
             rows={s.weeks}
             rowKey={(w) => w.weekOf}
             empty="Nothing received."
-            columns={columns}
+            columns={receiptsColumns(s)}
           />
           <p className="muted">
             Pickups count when collected, deliveries when received, and a lot measured above its pickups&apos; estimates

@@ -4,7 +4,7 @@ import { getDb } from "@/lib/core/db";
 import { getSignedIn, requireRole } from "@/lib/auth/request.service";
 import { changeOwnPassword, setOwnUnits } from "@/lib/auth/user.service";
 import { SITE_ROLES } from "@/lib/core/vocabulary";
-import { readText, readValues, refused } from "@/app/_ui/kit/form-state";
+import { readText, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import { redirect } from "next/navigation";
 import { homeFor } from "@/lib/auth/read-matrix";
 import type { FormState } from "@/app/_ui/kit/form-state";
@@ -20,13 +20,10 @@ export async function setOwnUnitsAction(prev: FormState, form: FormData): Promis
   );
   if (!r.ok) return refused(prev, values, r.issues, ["unitSystem"]);
   revalidatePath("/", "layout");
-  return {
-    status: "saved",
-    message: r.value.unitSystem === "us" ? "Saved: US units (lb, gal, °F)." : "Saved: metric units (kg, L, °C).",
-    values: {},
-    errors: {},
-    seq: prev.seq + 1,
-  };
+  return saved(
+    prev,
+    r.value.unitSystem === "us" ? "Saved: US units (lb, gal, °F)." : "Saved: metric units (kg, L, °C).",
+  );
 }
 
 /**
@@ -44,5 +41,5 @@ export async function changeOwnPasswordAction(prev: FormState, form: FormData): 
   );
   if (!r.ok) return refused(prev, {}, r.issues, ["current", "password", "confirm"]);
   if (user.mustChangePassword) redirect(homeFor(user.role));
-  return { status: "saved", message: "Your new password is saved.", values: {}, errors: {}, seq: prev.seq + 1 };
+  return saved(prev, "Your new password is saved.");
 }

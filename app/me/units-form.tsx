@@ -3,6 +3,7 @@ import { useActionState } from "react";
 import { setOwnUnitsAction } from "@/app/me/actions";
 import { IDLE } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
+import { FormMessage } from "@/app/_ui/kit/form-message";
 
 export function UnitsForm({ current }: { current: string }) {
   const [state, act, pending] = useActionState<FormState, FormData>(setOwnUnitsAction, IDLE);
@@ -21,14 +22,7 @@ export function UnitsForm({ current }: { current: string }) {
       <button type="submit" disabled={pending}>
         Save
       </button>
-      {state.message ? (
-        <p
-          className={state.status === "saved" ? "form-ok" : "form-error"}
-          role={state.status === "saved" ? "status" : "alert"}
-        >
-          {state.message}
-        </p>
-      ) : null}
+      <FormMessage state={state} />
     </form>
   );
 }

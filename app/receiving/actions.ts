@@ -9,7 +9,7 @@ import { listPickupsNotInLot } from "@/lib/collect/collect.store";
 import { labelOf } from "@/lib/core/vocabulary";
 import type { DomainIssue } from "@/lib/core/result";
 import type { FormState } from "@/app/_ui/kit/form-state";
-import { readText, refused, toNumber } from "@/app/_ui/kit/form-state";
+import { readText, refused, saved, toNumber } from "@/app/_ui/kit/form-state";
 
 const FIELDS = ["code", "volume", "temp", "notes", "pickups", "tankCode", "acceptReason"] as const;
 const RENAME: Readonly<Record<string, string>> = {
@@ -69,11 +69,8 @@ export async function receivePickupsAction(prev: FormState, form: FormData): Pro
   revalidatePath("/receiving");
   revalidatePath("/lots");
   const diffKg = result.value.receivingDifferenceG / 1000;
-  return {
-    status: "saved",
-    message: `Lot ${result.value.code} received from ${pickups.length} pickup${pickups.length === 1 ? "" : "s"}${values.tankCode ? `, accepted and moved whole into tank ${values.tankCode.toUpperCase()} (${(result.value.massG / 1000).toLocaleString("en", { maximumFractionDigits: 1 })} kg)` : ""}; receiving difference ${diffKg >= 0 ? "+" : ""}${diffKg.toFixed(1)} kg against the kerbside estimates.`,
-    values: {},
-    errors: {},
-    seq: prev.seq + 1,
-  };
+  return saved(
+    prev,
+    `Lot ${result.value.code} received from ${pickups.length} pickup${pickups.length === 1 ? "" : "s"}${values.tankCode ? `, accepted and moved whole into tank ${values.tankCode.toUpperCase()} (${(result.value.massG / 1000).toLocaleString("en", { maximumFractionDigits: 1 })} kg)` : ""}; receiving difference ${diffKg >= 0 ? "+" : ""}${diffKg.toFixed(1)} kg against the kerbside estimates.`,
+  );
 }

@@ -1,13 +1,31 @@
 "use server";
 import { revalidatePath } from "next/cache";
 import { getDb } from "@/lib/core/db";
+import type { Db } from "@/lib/core/connect";
+import type { Actor } from "@/lib/core/actor";
+import type { Result } from "@/lib/core/result";
 import { requireRole } from "@/lib/auth/request.service";
 import { clearSource, decideFlag, saveSourceProfile } from "@/lib/screening/decision.service";
 import { screenPeriod } from "@/lib/screening/screening.service";
-import { readNumber, readText, readValues, refused } from "@/app/_ui/kit/form-state";
+import { readNumber, readText, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 
-// Source checks are compliance's work, checked on the server for each call.
+/**
+ * Checks the role (source checks are compliance's work, checked on the server for each call), runs the
+ * service as the signed-in user, and turns a refusal into the form's answer with what was typed kept.
+ */
+async function asCompliance<T>(
+  prev: FormState,
+  values: Record<string, string>,
+  fields: readonly string[],
+  run: (db: Db, actor: Actor) => Promise<Result<T>>,
+): Promise<{ ok: true; value: T } | { ok: false; state: FormState }> {
+  const who = await requireRole(["COMPLIANCE"]);
+  if (!who.ok) return { ok: false, state: refused(prev, values, who.issues, fields) };
+  const r = await run(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now });
+  if (!r.ok) return { ok: false, state: refused(prev, values, r.issues, fields) };
+  return { ok: true, value: r.value };
+}
 
 const checked = (form: FormData, name: string) => readText(form, name) === "yes" || readText(form, name) === "on";
 
@@ -15,21 +33,17 @@ const DECISION_FIELDS = ["flagId", "decision", "reason", "watch", "holdLots", "w
 
 export async function decideFlagAction(prev: FormState, form: FormData): Promise<FormState> {
   const values = readValues(form, DECISION_FIELDS);
-  const who = await requireRole(["COMPLIANCE"]);
-  if (!who.ok) return refused(prev, values, who.issues, DECISION_FIELDS);
-  const r = await decideFlag(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    {
+  const r = await asCompliance(prev, values, DECISION_FIELDS, (db, actor) =>
+    decideFlag(db, actor, {
       flagId: readNumber(form, "flagId"),
       decision: readText(form, "decision"),
       reason: readText(form, "reason"),
       watch: checked(form, "watch"),
       holdLots: checked(form, "holdLots"),
       withholdCredit: checked(form, "withholdCredit"),
-    },
+    }),
   );
-  if (!r.ok) return refused(prev, values, r.issues, DECISION_FIELDS);
+  if (!r.ok) return r.state;
   revalidatePath("/screening");
   revalidatePath("/sources/[code]", "page");
   const v = r.value;
@@ -37,48 +51,26 @@ export async function decideFlagAction(prev: FormState, form: FormData): Promise
     v.status === "DISMISSED"
       ? "Flag dismissed."
       : `Flag confirmed.${v.heldLots.length > 0 ? ` Lots on hold: ${v.heldLots.join(", ")}.` : ""}${v.watch ? " Source on watch." : ""}${v.creditWithheld ? " Certified credit withheld." : ""}`;
-  return { status: "saved", message, values: {}, errors: {}, seq: prev.seq + 1 };
+  return saved(prev, message);
 }
 
 const PERIOD_FIELDS = ["from", "to"] as const;
 
 export async function screenPeriodAction(prev: FormState, form: FormData): Promise<FormState> {
   const values = readValues(form, PERIOD_FIELDS);
-  const who = await requireRole(["COMPLIANCE"]);
-  if (!who.ok) return refused(prev, values, who.issues, PERIOD_FIELDS);
-  const r = await screenPeriod(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    { from: values.from, to: values.to },
+  const r = await asCompliance(prev, values, PERIOD_FIELDS, (db, actor) =>
+    screenPeriod(db, actor, { from: values.from, to: values.to }),
   );
-  if (!r.ok) return refused(prev, values, r.issues, PERIOD_FIELDS);
+  if (!r.ok) return r.state;
   revalidatePath("/screening");
   const o = r.value;
-  return {
-    status: "saved",
-    message: `Checked ${o.sources} sources, ${o.pickups} pickups and ${o.lots} lots: ${o.created} new flags.`,
+  return saved(
+    prev,
+    `Checked ${o.sources} sources, ${o.pickups} pickups and ${o.lots} lots: ${o.created} new flags.`,
     values,
-    errors: {},
-    seq: prev.seq + 1,
-  };
+  );
 }
 
-const PROFILE_FIELDS = [
-  "sourceCode",
-  "kind",
-  "capacityBasis",
-  "fryers",
-  "fryerLitres",
-  "changesPerWeek",
-  "declaredLitresPerMonth",
-  "capacityDeclaredAt",
-  "capacityDeclaredBy",
-  "pickupEveryDays",
-  "latitude",
-  "longitude",
-  "opensHour",
-  "closesHour",
-] as const;
 const NUMERIC = [
   "fryers",
   "fryerLitres",
@@ -90,11 +82,17 @@ const NUMERIC = [
   "opensHour",
   "closesHour",
 ] as const;
+const PROFILE_FIELDS = [
+  "sourceCode",
+  "kind",
+  "capacityBasis",
+  "capacityDeclaredAt",
+  "capacityDeclaredBy",
+  ...NUMERIC,
+] as const;
 
 export async function saveSourceProfileAction(prev: FormState, form: FormData): Promise<FormState> {
   const values = readValues(form, PROFILE_FIELDS);
-  const who = await requireRole(["COMPLIANCE"]);
-  if (!who.ok) return refused(prev, values, who.issues, PROFILE_FIELDS);
   const input: Record<string, unknown> = { sourceCode: values.sourceCode, kind: values.kind };
   if (values.capacityBasis) input.capacityBasis = values.capacityBasis;
   if (values.capacityDeclaredAt) input.capacityDeclaredAt = values.capacityDeclaredAt;
@@ -103,35 +101,22 @@ export async function saveSourceProfileAction(prev: FormState, form: FormData): 
     const v = readNumber(form, n);
     if (v !== undefined) input[n] = v;
   }
-  const r = await saveSourceProfile(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    input,
-  );
-  if (!r.ok) return refused(prev, values, r.issues, PROFILE_FIELDS);
+  const r = await asCompliance(prev, values, PROFILE_FIELDS, (db, actor) => saveSourceProfile(db, actor, input));
+  if (!r.ok) return r.state;
   revalidatePath("/sources/[code]", "page");
-  return { status: "saved", message: "Capacity and hours saved.", values, errors: {}, seq: prev.seq + 1 };
+  return saved(prev, "Capacity and hours saved.", values);
 }
 
 const CLEAR_FIELDS = ["sourceCode", "reason"] as const;
 
 export async function clearSourceAction(prev: FormState, form: FormData): Promise<FormState> {
   const values = readValues(form, CLEAR_FIELDS);
-  const who = await requireRole(["COMPLIANCE"]);
-  if (!who.ok) return refused(prev, values, who.issues, CLEAR_FIELDS);
-  const r = await clearSource(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    values,
-  );
-  if (!r.ok) return refused(prev, values, r.issues, CLEAR_FIELDS);
+  const r = await asCompliance(prev, values, CLEAR_FIELDS, (db, actor) => clearSource(db, actor, values));
+  if (!r.ok) return r.state;
   revalidatePath("/sources/[code]", "page");
   revalidatePath("/screening");
-  return {
-    status: "saved",
-    message: `Source cleared.${r.value.released.length > 0 ? ` Holds lifted (back to the lab's decision): ${r.value.released.join(", ")}.` : ""}`,
-    values: {},
-    errors: {},
-    seq: prev.seq + 1,
-  };
+  return saved(
+    prev,
+    `Source cleared.${r.value.released.length > 0 ? ` Holds lifted (back to the lab's decision): ${r.value.released.join(", ")}.` : ""}`,
+  );
 }

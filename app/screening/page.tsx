@@ -3,18 +3,17 @@ import Link from "next/link";
 import { listFlags } from "@/lib/screening/screening.store";
 import type { FlagRow } from "@/lib/screening/screening.store";
 import { SIGNAL_LABELS } from "@/lib/screening/screening";
-import type { Signal } from "@/lib/screening/screening";
 import { confidenceOf, DEFAULT_SCREENING_SETTINGS, SCREENING_SETTING_LABELS } from "@/lib/screening/screening-defaults";
+import type { ScreeningSettings } from "@/lib/screening/screening-defaults";
 import { getScreeningSettings } from "@/lib/screening/screening-settings.service";
 import { SIGNAL_RULES } from "@/lib/screening/signal-rules";
-import { day, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { NoSite } from "@/app/_ui/ui";
 import { ActionForm, Field } from "@/app/_ui/kit/action-form";
-import { ConfidenceMark, DataTable, StatusMark } from "@/app/_ui/kit";
+import { ConfidenceMark, DataTable } from "@/app/_ui/kit";
 import type { Column } from "@/app/_ui/kit";
 import { decideFlagAction, screenPeriodAction } from "@/app/screening/actions";
-import { FlagLinks } from "@/app/screening/flag-links";
+import { flagColumns } from "@/app/screening/flag-columns";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Source checks" };
@@ -46,6 +45,35 @@ function DecideForms({ flag }: { flag: FlagRow }) {
   );
 }
 
+type RuleRow = (typeof SIGNAL_RULES)[number];
+
+/** What each check reads and the thresholds it uses, each with how sure the default is. */
+/** The checks and the thresholds in force at this site (its own values, or the defaults). */
+const ruleColumns = (inForce: ScreeningSettings): Array<Column<RuleRow>> => [
+  { key: "check", header: "Check", cell: (r) => SIGNAL_LABELS[r.signal] },
+  { key: "reads", header: "Reads", cell: (r) => r.reads },
+  {
+    key: "threshold",
+    header: "Thresholds",
+    cell: (r) =>
+      r.settings.length === 0 ? (
+        "—"
+      ) : (
+        <ul className="plain">
+          {r.settings.map((k) => {
+            const s = inForce[k];
+            return (
+              <li key={k}>
+                {SCREENING_SETTING_LABELS[k]}: {s.value} {s.unit}{" "}
+                <ConfidenceMark level={confidenceOf(DEFAULT_SCREENING_SETTINGS[k])} anchor={`screening-${k}`} />
+              </li>
+            );
+          })}
+        </ul>
+      ),
+  },
+];
+
 export default async function ScreeningPage() {
   const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
@@ -56,38 +84,16 @@ export default async function ScreeningPage() {
     getScreeningSettings(db, site.id),
   ]);
   const compliance = user.role === "COMPLIANCE";
-  const label = (s: string) => SIGNAL_LABELS[s as Signal] ?? s;
+  const c = flagColumns(tz);
   const openColumns: Array<Column<FlagRow>> = [
-    { key: "raised", header: "Raised", cell: (f) => <span className="nowrap">{day(f.raisedAt, tz)}</span> },
-    {
-      key: "source",
-      header: "Source",
-      cell: (f) => <Link href={`/sources/${encodeURIComponent(f.sourceCode)}`}>{f.sourceCode}</Link>,
-    },
-    { key: "check", header: "Check", cell: (f) => label(f.signal) },
-    { key: "found", header: "What was found", cell: (f) => f.message },
-    { key: "records", header: "Pickups and lots", cell: (f) => <FlagLinks flag={f} /> },
+    c.raised,
+    c.source,
+    c.check,
+    c.found,
+    c.records,
     ...(compliance ? [{ key: "decide", header: "Decision", cell: (f: FlagRow) => <DecideForms flag={f} /> }] : []),
   ];
-  const decidedColumns: Array<Column<FlagRow>> = [
-    { key: "decided", header: "Decided", cell: (f) => <span className="nowrap">{when(f.decidedAt, tz)}</span> },
-    {
-      key: "source",
-      header: "Source",
-      cell: (f) => <Link href={`/sources/${encodeURIComponent(f.sourceCode)}`}>{f.sourceCode}</Link>,
-    },
-    { key: "check", header: "Check", cell: (f) => label(f.signal) },
-    { key: "state", header: "Decision", cell: (f) => <StatusMark code={`FLAG_${f.status}`} /> },
-    { key: "by", header: "By", cell: (f) => f.decidedBy ?? "—" },
-    {
-      key: "reason",
-      header: "Reason",
-      cell: (f) =>
-        [f.reason, f.heldLots.length > 0 ? `lots held: ${f.heldLots.join(", ")}` : ""].filter(Boolean).join("; ") ||
-        "—",
-    },
-    { key: "found", header: "What was found", cell: (f) => f.message },
-  ];
+  const decidedColumns = [c.decidedAt, c.source, c.check, c.state, c.by, c.reason, c.found];
   const ruleRows = SIGNAL_RULES.map((r) => ({ ...r, key: r.signal }));
   return (
     <>
@@ -139,27 +145,7 @@ export default async function ScreeningPage() {
           rows={ruleRows}
           rowKey={(r) => r.key}
           empty="No checks."
-          columns={[
-            { key: "check", header: "Check", cell: (r) => SIGNAL_LABELS[r.signal] },
-            { key: "reads", header: "Reads", cell: (r) => r.reads },
-            {
-              key: "threshold",
-              header: "Thresholds",
-              cell: (r) =>
-                r.settings.length === 0 ? (
-                  "—"
-                ) : (
-                  <ul className="plain">
-                    {r.settings.map((k) => (
-                      <li key={k}>
-                        {SCREENING_SETTING_LABELS[k]}: {s[k].value} {s[k].unit}{" "}
-                        <ConfidenceMark level={confidenceOf(DEFAULT_SCREENING_SETTINGS[k])} anchor={`screening-${k}`} />
-                      </li>
-                    ))}
-                  </ul>
-                ),
-            },
-          ]}
+          columns={ruleColumns(s)}
         />
       </section>
     </>

@@ -4,7 +4,7 @@ import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { getSiteById } from "@/lib/site/site.store";
 import { recordShipment } from "@/lib/shipment/shipment.service";
-import { readNumber, readText, readValues, refused } from "@/app/_ui/kit/form-state";
+import { readNumber, readText, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 import { toSiteInstant } from "@/app/trace/site-time";
 import { formFieldOf, lineCountOf, lineFieldNames, SHIPMENT_FIELDS } from "@/app/shipments/form-fields";
@@ -53,11 +53,8 @@ export async function recordShipmentAction(prev: FormState, form: FormData): Pro
   }
   revalidatePath("/shipments");
   revalidatePath("/customers");
-  return {
-    status: "saved",
-    message: `Shipment ${r.value.documentNo} recorded: ${(r.value.massG / 1000).toLocaleString("en", { maximumFractionDigits: 3 })} kg left the books.`,
-    values: {},
-    errors: {},
-    seq: prev.seq + 1,
-  };
+  return saved(
+    prev,
+    `Shipment ${r.value.documentNo} recorded: ${(r.value.massG / 1000).toLocaleString("en", { maximumFractionDigits: 3 })} kg left the books.`,
+  );
 }

@@ -10,34 +10,10 @@ function shown(n: number | null): string {
   return n === null ? "" : String(n);
 }
 
-/**
- * The form that writes a site specification version: every property of the spec it starts from, its
- * published limit beside it, and the site's lower and upper limits prefilled to change.
- */
-export function LimitsForm({
-  base,
-  start,
-  name,
-  previousVersion,
-  customerId,
-  customers,
-  submitLabel,
-}: {
-  base: Spec;
-  start: Spec;
-  name?: string;
-  previousVersion?: number;
-  /** A new version keeps the customer of the version it starts from. */
-  customerId?: number | null;
-  customers: ReadonlyArray<{ id: number; code: string; name: string }>;
-  submitLabel: string;
-}) {
-  const hidden: Record<string, string> = { baseKey: base.key };
-  if (name !== undefined) hidden.name = name;
-  if (previousVersion !== undefined) hidden.previousVersion = String(previousVersion);
-  if (customerId != null) hidden.customerId = String(customerId);
+/** Each property, its published limit, and the site's lower and upper limits as fields prefilled to change. */
+function limitColumns(base: Spec): Array<Column<SpecProperty>> {
   const published = (p: SpecProperty) => base.properties.find((q) => q.key === p.key) ?? p;
-  const columns: Array<Column<SpecProperty>> = [
+  return [
     {
       key: "property",
       header: "Property",
@@ -79,6 +55,34 @@ export function LimitsForm({
       ),
     },
   ];
+}
+
+/**
+ * The form that writes a site specification version: every property of the spec it starts from, its
+ * published limit beside it, and the site's lower and upper limits prefilled to change.
+ */
+export function LimitsForm({
+  base,
+  start,
+  name,
+  previousVersion,
+  customerId,
+  customers,
+  submitLabel,
+}: {
+  base: Spec;
+  start: Spec;
+  name?: string;
+  previousVersion?: number;
+  /** A new version keeps the customer of the version it starts from. */
+  customerId?: number | null;
+  customers: ReadonlyArray<{ id: number; code: string; name: string }>;
+  submitLabel: string;
+}) {
+  const hidden: Record<string, string> = { baseKey: base.key };
+  if (name !== undefined) hidden.name = name;
+  if (previousVersion !== undefined) hidden.previousVersion = String(previousVersion);
+  if (customerId != null) hidden.customerId = String(customerId);
   return (
     <ActionForm
       action={saveSiteSpecAction}
@@ -105,7 +109,7 @@ export function LimitsForm({
       <div className="field-wide limit-fields">
         <DataTable
           caption="Limits"
-          columns={columns}
+          columns={limitColumns(base)}
           rows={start.properties}
           rowKey={(p) => p.key}
           empty="This grade has no properties."

@@ -5,7 +5,7 @@ import { requireRole } from "@/lib/auth/request.service";
 import { getSiteById } from "@/lib/site/site.store";
 import { recordGauge, transferToTank } from "@/lib/tank/tank.service";
 import { gramsToKg } from "@/lib/quantity/units";
-import { readNumber, readText, readValues, refused } from "@/app/_ui/kit/form-state";
+import { readNumber, readText, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 import { toSiteInstant } from "@/app/trace/site-time";
 
@@ -61,13 +61,7 @@ export async function moveToTankAction(prev: FormState, form: FormData): Promise
   const conversion = v
     ? ` (${v.volumeL.toLocaleString("en")} L at ${v.tempC} °C × ${v.densityKgM3.toFixed(1)} kg/m³)`
     : "";
-  return {
-    status: "saved",
-    message: `Moved ${kgText(r.value.massG)}${conversion} into tank ${input.toTankCode.toUpperCase()}.`,
-    values: {},
-    errors: {},
-    seq: prev.seq + 1,
-  };
+  return saved(prev, `Moved ${kgText(r.value.massG)}${conversion} into tank ${input.toTankCode.toUpperCase()}.`);
 }
 
 /** A gauge reading with the book stock at that moment beside it. */
@@ -96,11 +90,8 @@ export async function recordGaugeAction(prev: FormState, form: FormData): Promis
   revalidatePath("/tanks/[code]", "page");
   const g = r.value;
   const pct = g.differencePct === null ? "" : ` (${g.differencePct >= 0 ? "+" : ""}${g.differencePct.toFixed(2)} %)`;
-  return {
-    status: "saved",
-    message: `Gauge recorded: ${(g.volumeMl / 1000).toLocaleString("en", { maximumFractionDigits: 1 })} L = ${kgText(g.massG)}; book stock then ${kgText(g.bookStockG)}; difference ${g.differenceG >= 0 ? "+" : "−"}${kgText(Math.abs(g.differenceG))}${pct}.`,
-    values: {},
-    errors: {},
-    seq: prev.seq + 1,
-  };
+  return saved(
+    prev,
+    `Gauge recorded: ${(g.volumeMl / 1000).toLocaleString("en", { maximumFractionDigits: 1 })} L = ${kgText(g.massG)}; book stock then ${kgText(g.bookStockG)}; difference ${g.differenceG >= 0 ? "+" : "−"}${kgText(Math.abs(g.differenceG))}${pct}.`,
+  );
 }

@@ -86,78 +86,116 @@ type FieldProps = {
   | { type: "checkbox"; options?: undefined }
 );
 
+type ControlAttrs = {
+  id: string;
+  name: string;
+  "aria-invalid": true | undefined;
+  "aria-describedby": string | undefined;
+  required: boolean | undefined;
+};
+
+/** A text input with its suggestions. Numbers are typed as text so that what was typed (a comma, a unit left in) comes back as it was. */
+function TextControl({
+  attrs,
+  value,
+  type,
+  placeholder,
+  maxLength,
+  suggestions,
+}: {
+  attrs: ControlAttrs;
+  value: string;
+  type: "text" | "number" | "datetime-local" | "date" | undefined;
+  placeholder: string | undefined;
+  maxLength: number | undefined;
+  suggestions: readonly string[] | undefined;
+}) {
+  const numeric = type === "number";
+  const listId = suggestions ? `${attrs.id}-list` : undefined;
+  return (
+    <>
+      <input
+        {...attrs}
+        type={numeric ? "text" : (type ?? "text")}
+        inputMode={numeric ? "decimal" : undefined}
+        defaultValue={value}
+        placeholder={placeholder}
+        autoComplete="off"
+        maxLength={maxLength}
+        list={listId}
+      />
+      {suggestions ? (
+        <datalist id={listId}>
+          {suggestions.map((s) => (
+            <option key={s} value={s} />
+          ))}
+        </datalist>
+      ) : null}
+    </>
+  );
+}
+
+/** The input, select or text area a field's type asks for, holding the value to show. */
+function Control({ props, attrs, value }: { props: FieldProps; attrs: ControlAttrs; value: string }) {
+  const maxLength = props.maxLength;
+  switch (props.type) {
+    case "select":
+      return (
+        <select {...attrs} defaultValue={value}>
+          {props.options.map(([v, l]) => (
+            <option key={v} value={v}>
+              {l}
+            </option>
+          ))}
+        </select>
+      );
+    case "textarea":
+      return (
+        <textarea {...attrs} defaultValue={value} rows={3} placeholder={props.placeholder} maxLength={maxLength} />
+      );
+    case "password":
+      // A password is never sent back to the page: after a refusal it is typed again.
+      return (
+        <input {...attrs} type="password" defaultValue="" autoComplete={props.autoComplete} maxLength={maxLength} />
+      );
+    case "checkbox":
+      return <input {...attrs} type="checkbox" value="yes" defaultChecked={value === "yes" || value === "on"} />;
+    default:
+      return (
+        <TextControl
+          attrs={attrs}
+          value={value}
+          type={props.type}
+          placeholder={props.placeholder}
+          maxLength={maxLength}
+          suggestions={props.suggestions}
+        />
+      );
+  }
+}
+
 /** A labelled field inside an ActionForm: hint, the kept value after a refusal, and its message. */
 export function Field(props: FieldProps) {
   const state = useContext(FormStateContext);
   const id = useId();
   const { name, label, unit, hint, required } = props;
-  const kept = state.values[name];
-  const value = kept ?? props.defaultValue ?? "";
+  const value = state.values[name] ?? props.defaultValue ?? "";
   const error = state.status === "refused" ? state.errors[name] : undefined;
   const describedBy = [hint ? `${id}-hint` : null, error ? `${id}-err` : null].filter(Boolean).join(" ") || undefined;
-  const common = {
+  const attrs: ControlAttrs = {
     id,
     name,
     "aria-invalid": error ? true : undefined,
     "aria-describedby": describedBy,
     required,
-  } as const;
-  const maxLength = props.maxLength;
-  let control: ReactNode;
-  if (props.type === "select") {
-    control = (
-      <select {...common} defaultValue={value}>
-        {props.options.map(([v, l]) => (
-          <option key={v} value={v}>
-            {l}
-          </option>
-        ))}
-      </select>
-    );
-  } else if (props.type === "textarea") {
-    control = (
-      <textarea {...common} defaultValue={value} rows={3} placeholder={props.placeholder} maxLength={maxLength} />
-    );
-  } else if (props.type === "password") {
-    // A password is never sent back to the page: after a refusal it is typed again.
-    control = (
-      <input {...common} type="password" defaultValue="" autoComplete={props.autoComplete} maxLength={maxLength} />
-    );
-  } else if (props.type === "checkbox") {
-    control = <input {...common} type="checkbox" value="yes" defaultChecked={value === "yes" || value === "on"} />;
-  } else {
-    // Numbers are typed as text so that what was typed (a comma, a unit left in) comes back as it was.
-    const numeric = props.type === "number";
-    const listId = props.suggestions ? `${id}-list` : undefined;
-    control = (
-      <>
-        <input
-          {...common}
-          type={numeric ? "text" : (props.type ?? "text")}
-          inputMode={numeric ? "decimal" : undefined}
-          defaultValue={value}
-          placeholder={props.placeholder}
-          autoComplete="off"
-          maxLength={maxLength}
-          list={listId}
-        />
-        {props.suggestions ? (
-          <datalist id={listId}>
-            {props.suggestions.map((s) => (
-              <option key={s} value={s} />
-            ))}
-          </datalist>
-        ) : null}
-      </>
-    );
-  }
+  };
   return (
     <div className={`field${props.type === "checkbox" ? " field-check" : ""}`}>
       <label htmlFor={id}>
         {label}
         {unit ? <span className="unit"> ({unit})</span> : null}
       </label>
-      {control}
+      <Control props={props} attrs={attrs} value={value} />
       {hint ? (
         <span className="field-hint" id={`${id}-hint`}>
           {hint}

@@ -11,11 +11,18 @@ export interface Column<T> {
   cell: (row: T) => ReactNode;
   /** The totals row's cell for this column, if the table has totals. */
   total?: ReactNode;
+  /** In a table read as cards on a phone, this column heads the card (it carries no label of its own). */
+  title?: boolean;
+}
+
+/** A cell's classes: numbers right-aligned; a card's title cell. */
+function cellClass<T>(c: Column<T>): string | undefined {
+  return [c.numeric ? "num" : "", c.title ? "card-title" : ""].filter(Boolean).join(" ") || undefined;
 }
 
 /**
  * The one table every list uses: a caption, columns with units and alignment, an optional totals row,
- * a plain empty state and an optional link to the same rows as CSV.
+ * a plain empty state, an optional link to the same rows as CSV, and (for lists read on a phone) cards.
  */
 export function DataTable<T>({
   caption,
@@ -25,6 +32,8 @@ export function DataTable<T>({
   empty,
   csvHref,
   hideCaption = false,
+  cards = false,
+  className,
 }: {
   caption: string;
   columns: ReadonlyArray<Column<T>>;
@@ -33,13 +42,17 @@ export function DataTable<T>({
   empty: ReactNode;
   csvHref?: string;
   hideCaption?: boolean;
+  /** On a narrow screen each row reads as a card, each value beside its column's name. */
+  cards?: boolean;
+  /** A page's own class for the table, for its own column widths. */
+  className?: string;
 }) {
   if (rows.length === 0) return <p className="empty">{empty}</p>;
   const hasTotals = columns.some((c) => c.total !== undefined);
   return (
     // Focusable and named, so a table wider than the screen can be scrolled from the keyboard.
     <div className="table-wrap" tabIndex={0} role="region" aria-label={caption}>
-      <table>
+      <table className={[cards ? "phone-cards" : "", className ?? ""].filter(Boolean).join(" ") || undefined}>
         <caption className={hideCaption ? "visually-hidden" : undefined}>
           {caption}
           {csvHref ? (
@@ -62,7 +75,11 @@ export function DataTable<T>({
           {rows.map((r) => (
             <tr key={rowKey(r)}>
               {columns.map((c) => (
-                <td key={c.key} className={c.numeric ? "num" : undefined}>
+                <td
+                  key={c.key}
+                  className={cellClass(c)}
+                  data-label={cards ? `${c.header}${c.unit ? ` (${c.unit})` : ""}` : undefined}
+                >
                   {c.cell(r)}
                 </td>
               ))}

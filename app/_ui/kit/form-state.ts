@@ -55,6 +55,11 @@ export function toFormErrors(
   return { errors, general };
 }
 
+/** The answer to a save: its message, and the values to show again (none: the form starts empty). */
+export function saved(prev: FormState, message: string, values: Record<string, string> = {}): FormState {
+  return { status: "saved", message, values, errors: {}, seq: prev.seq + 1 };
+}
+
 export function refused(
   prev: FormState,
   values: Record<string, string>,

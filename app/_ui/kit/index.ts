@@ -6,4 +6,5 @@ export { StatusMark, statusFamily } from "@/app/_ui/kit/status-mark";
 export { Cautions } from "@/app/_ui/kit/cautions";
 export { ConfidenceMark } from "@/app/_ui/kit/confidence-mark";
 export { RowsForm } from "@/app/_ui/kit/rows-form";
+export { FormMessage } from "@/app/_ui/kit/form-message";
 export type { RowColumn, RowField, RowValues } from "@/app/_ui/kit/rows-form";

@@ -1,11 +1,13 @@
 import Link from "next/link";
 import type { ReactNode } from "react";
 import { StatusMark } from "@/app/_ui/kit/status-mark";
+import { Facts } from "@/app/_ui/ui";
 
 /** The top of every record page: what it is, its number, its state, the key facts and what can be done. */
 export function RecordHeader({
   kind,
   number,
+  name,
   status,
   facts = [],
   actions,
@@ -13,6 +15,8 @@ export function RecordHeader({
 }: {
   kind: string;
   number: string;
+  /** The record's own name, after its number (a source's or a tank's name). */
+  name?: string;
   status?: { code: string; label?: string };
   facts?: ReadonlyArray<readonly [string, ReactNode]>;
   actions?: ReactNode;
@@ -26,19 +30,10 @@ export function RecordHeader({
         </p>
       ) : null}
       <h1>
-        <span className="record-kind">{kind}</span> <span className="code">{number}</span>{" "}
-        {status ? <StatusMark code={status.code} label={status.label} /> : null}
+        <span className="record-kind">{kind}</span> <span className="code">{number}</span>
+        {name ? `: ${name}` : null} {status ? <StatusMark code={status.code} label={status.label} /> : null}
       </h1>
-      {facts.length > 0 ? (
-        <dl className="facts">
-          {facts.map(([term, value]) => (
-            <div key={term}>
-              <dt>{term}</dt>
-              <dd>{value}</dd>
-            </div>
-          ))}
-        </dl>
-      ) : null}
+      {facts.length > 0 ? <Facts items={facts} /> : null}
       {actions ? <div className="record-actions">{actions}</div> : null}
     </header>
   );

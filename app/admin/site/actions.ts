@@ -3,7 +3,7 @@ import { revalidatePath } from "next/cache";
 import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { setGs1CompanyPrefix } from "@/lib/site/site-settings.service";
-import { readValues, refused } from "@/app/_ui/kit/form-state";
+import { readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 
 const FIELDS = ["gs1CompanyPrefix", "reason"] as const;
@@ -24,5 +24,5 @@ export async function setGs1PrefixAction(prev: FormState, form: FormData): Promi
     r.value.gs1CompanyPrefix === null
       ? "No GS1 Company Prefix: exports use the site's own identifiers."
       : `GS1 Company Prefix ${r.value.gs1CompanyPrefix} saved: exports and lot labels now use GS1 identifiers.`;
-  return { status: "saved", message, values: {}, errors: {}, seq: prev.seq + 1 };
+  return saved(prev, message);
 }

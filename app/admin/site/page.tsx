@@ -1,12 +1,21 @@
 import type { Metadata } from "next";
 import { loadSite } from "@/app/_ui/site";
 import { NoSite, Note } from "@/app/_ui/ui";
+import { DataTable } from "@/app/_ui/kit";
+import type { Column } from "@/app/_ui/kit";
 import { Gs1PrefixForm } from "@/app/admin/site/gs1-form";
 import { gtinFor, ITEM_REFERENCES } from "@/lib/epcis/identifiers";
 import { labelMaterial } from "@/lib/mass-balance/balance.service";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Site settings" };
+
+function gtinColumns(prefix: string): Array<Column<string>> {
+  return [
+    { key: "material", header: "Material", cell: (m) => (m === "OTHER" ? "Other material" : labelMaterial(m)) },
+    { key: "gtin", header: "GTIN", numeric: true, cell: (m) => gtinFor(prefix, m) },
+  ];
+}
 
 export default async function SiteSettingsPage() {
   const { site, user } = await loadSite();
@@ -33,25 +42,13 @@ export default async function SiteSettingsPage() {
       </p>
       <Gs1PrefixForm current={prefix} />
       {prefix !== null ? (
-        <div className="table-wrap">
-          <table>
-            <caption>GTINs the plant uses under its prefix (register these item references with GS1)</caption>
-            <thead>
-              <tr>
-                <th scope="col">Material</th>
-                <th scope="col">GTIN</th>
-              </tr>
-            </thead>
-            <tbody>
-              {Object.keys(ITEM_REFERENCES).map((m) => (
-                <tr key={m}>
-                  <td>{m === "OTHER" ? "Other material" : labelMaterial(m)}</td>
-                  <td className="num">{gtinFor(prefix, m)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <DataTable
+          caption="GTINs the plant uses under its prefix (register these item references with GS1)"
+          columns={gtinColumns(prefix)}
+          rows={Object.keys(ITEM_REFERENCES)}
+          rowKey={(m) => m}
+          empty="No materials."
+        />
       ) : null}
       <Note>Every change is kept in the audit trail with its reason.</Note>
     </>

@@ -5,13 +5,8 @@ import type { LotDetail, LotFlow } from "@/lib/feedstock/lot-detail.store";
 import { reportTime } from "@/lib/report/report";
 import type { ReportContext, ReportDoc, ReportTable } from "@/lib/report/report";
 
-export function buildLotHistoryDoc(
-  lot: LotDetail,
-  flow: LotFlow,
-  ctx: ReportContext,
-  ledger: ReportDoc["ledger"],
-): ReportDoc {
-  const pickups: ReportTable = {
+function pickupsTable(lot: LotDetail): ReportTable {
+  return {
     key: "pickups",
     heading: "Pickups received into the lot",
     columns: [
@@ -37,7 +32,10 @@ export function buildLotHistoryDoc(
     ],
     empty: lot.origin === "DELIVERY" ? "Delivered, not from pickups." : "No pickups.",
   };
-  const lab: ReportTable = {
+}
+
+function labTable(lot: LotDetail): ReportTable {
+  return {
     key: "lab",
     heading: "Lab results",
     columns: [
@@ -65,7 +63,10 @@ export function buildLotHistoryDoc(
     ],
     empty: "No lab result recorded.",
   };
-  const went: ReportTable = {
+}
+
+function wentTable(flow: LotFlow): ReportTable {
+  return {
     key: "where-it-went",
     heading: "Where its material went",
     columns: [
@@ -78,6 +79,20 @@ export function buildLotHistoryDoc(
     rows: flow.destinations.map((d) => [d.holder, labelOf(d.holder.kind), d.firstAt, d.receivedG, d.heldG]),
     empty: "The lot's material has not moved.",
   };
+}
+
+function cameFrom(lot: LotDetail): string {
+  if (lot.origin !== "DELIVERY") return `${lot.pickups.length} pickups`;
+  const from = lot.supplier ? `${lot.supplier.code} ${lot.supplier.name}` : "a supplier";
+  return `Delivery ${lot.deliveryDocument ?? ""} from ${from}`;
+}
+
+export function buildLotHistoryDoc(
+  lot: LotDetail,
+  flow: LotFlow,
+  ctx: ReportContext,
+  ledger: ReportDoc["ledger"],
+): ReportDoc {
   return {
     slug: "lot-history",
     title: "Lot history",
@@ -89,12 +104,7 @@ export function buildLotHistoryDoc(
     ledger,
     facts: [
       ["Status", labelOf(lot.status)],
-      [
-        "Came from",
-        lot.origin === "DELIVERY"
-          ? `Delivery ${lot.deliveryDocument ?? ""} from ${lot.supplier ? `${lot.supplier.code} ${lot.supplier.name}` : "a supplier"}`
-          : `${lot.pickups.length} pickups`,
-      ],
+      ["Came from", cameFrom(lot)],
       ["Certified material", lot.certified ? "yes" : "no"],
       ["Mass received", `${(lot.massG / 1000).toFixed(3)} kg`],
       ["Book stock now", `${(lot.stockG / 1000).toFixed(3)} kg`],
@@ -110,6 +120,6 @@ export function buildLotHistoryDoc(
             `Where it went is ${flow.method === "booking-order" ? "replayed in booking order" : "every later movement out of a place it reached"}: ${flow.traceProblem ?? ""}`,
           ],
     cautions: [],
-    tables: [pickups, lab, went],
+    tables: [pickupsTable(lot), labTable(lot), wentTable(flow)],
   };
 }

@@ -5,7 +5,7 @@ import { requireRole } from "@/lib/auth/request.service";
 import { chooseProductSpec, decideProductLot, recordQcResult } from "@/lib/product/product.service";
 import { getSiteById } from "@/lib/site/site.store";
 import { labelOf } from "@/lib/core/vocabulary";
-import { readNumber, readText, readValues, refused } from "@/app/_ui/kit/form-state";
+import { readNumber, readText, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 import { toSiteInstant } from "@/app/trace/site-time";
 import { DECISION_FIELDS, QC_FIELDS, SPEC_FIELDS } from "@/app/products/[code]/fields";
@@ -16,10 +16,6 @@ import { DECISION_FIELDS, QC_FIELDS, SPEC_FIELDS } from "@/app/products/[code]/f
 function paths(code: string): void {
   revalidatePath(`/products/${encodeURIComponent(code)}`);
   revalidatePath("/products");
-}
-
-function saved(prev: FormState, message: string, values: Record<string, string> = {}): FormState {
-  return { status: "saved", message, values, errors: {}, seq: prev.seq + 1 };
 }
 
 const VERDICT_WORDS: Record<string, string> = {

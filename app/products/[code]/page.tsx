@@ -3,6 +3,7 @@ import Link from "next/link";
 import { TraceThis } from "@/app/_ui/trace-this";
 import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/core/vocabulary";
+import type { SiteRole } from "@/lib/core/vocabulary";
 import { getMadeOf } from "@/lib/feedstock/lot-flow.service";
 import { loadProductLotQc } from "@/lib/product/certificate.service";
 import { listSpecChoices } from "@/lib/spec/site-spec.service";
@@ -65,6 +66,87 @@ function decisionFacts(
   return out;
 }
 
+/** What left the lot: shipments to customers, and moves into storage. */
+function WhereItWasSent({ outgoing, tz }: { outgoing: readonly MovementView[]; tz: string }) {
+  const shipments = outgoing.filter((m) => m.to.kind === "SHIPMENT");
+  const transfers = outgoing.filter((m) => m.to.kind !== "SHIPMENT");
+  return (
+    <>
+      <h2>Shipments</h2>
+      <DataTable
+        caption="Shipped from this lot"
+        hideCaption
+        columns={shipmentColumns(tz)}
+        rows={shipments}
+        rowKey={(m) => m.id}
+        empty="Nothing has been shipped from this lot directly."
+      />
+      {transfers.length > 0 ? (
+        <>
+          <h2>Moved to storage</h2>
+          <DataTable
+            caption="Moved to storage"
+            hideCaption
+            columns={transferColumns(tz)}
+            rows={transfers}
+            rowKey={(m) => m.id}
+            empty=""
+          />
+        </>
+      ) : null}
+    </>
+  );
+}
+
+type ProductQc = NonNullable<Awaited<ReturnType<typeof loadProductLotQc>>>;
+
+/** The product lot's number, state, key facts, and its certificate, shipping, history and trace links. */
+function ProductHeader({
+  p,
+  c,
+  tz,
+  role,
+}: {
+  p: ProductQc["detail"];
+  c: ProductQc["certificate"];
+  tz: string;
+  role: SiteRole;
+}) {
+  const statusLabel = p.status === "RELEASED" && p.deviation ? "Released with a deviation" : undefined;
+  const certHref = `/api/products/${encodeURIComponent(p.code)}/certificate`;
+  return (
+    <RecordHeader
+      kind="Product lot"
+      number={p.code}
+      status={{ code: p.status, ...(statusLabel ? { label: statusLabel } : {}) }}
+      back={{ href: "/products", label: "Product lots" }}
+      facts={[
+        ["Batch", p.batchCode ? <Link href={`/batches/${encodeURIComponent(p.batchCode)}`}>{p.batchCode}</Link> : "—"],
+        ["Batch state", p.batchStatus ? labelOf(p.batchStatus) : "—"],
+        ["Produced", when(p.producedAt, tz)],
+        ["Mass made", kg(p.massG, 3)],
+        ["Book stock", kg(p.stockG, 3)],
+        ["Specification", c ? c.specText : "none chosen"],
+        ...decisionFacts(p, tz),
+      ]}
+      actions={
+        <>
+          {c ? (
+            <a href={certHref} download>
+              {c.released ? "Certificate of analysis (PDF)" : "Draft certificate, not released (PDF)"}
+            </a>
+          ) : null}{" "}
+          {p.status === "RELEASED" && p.stockG > 0 && role === "COMPLIANCE" ? (
+            <Link href={`/shipments/new?from=${encodeURIComponent(p.code)}`}>Ship from this lot</Link>
+          ) : null}{" "}
+          <HistoryLink kind="product" recordKey={p.code} label="product lot" />
+          <TraceThis kind="PRODUCT_LOT" code={p.code} role={role} back />
+        </>
+      }
+    />
+  );
+}
+
 export default async function ProductLotPage({ params }: Props) {
   const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
@@ -78,49 +160,14 @@ export default async function ProductLotPage({ params }: Props) {
     listSpecChoices(db, site.id).then((list) => list.map((c) => [c.key, c.label] as const)),
   ]);
   const tz = site.timeZone;
-  const shipments = p.outgoing.filter((m) => m.to.kind === "SHIPMENT");
-  const transfers = p.outgoing.filter((m) => m.to.kind !== "SHIPMENT");
   const held = p.status === "HELD";
   const canEnter = held && spec !== null && (user.role === "PRODUCTION" || user.role === "COMPLIANCE");
   const isCompliance = user.role === "COMPLIANCE";
   const nextProperty = c?.rows.find((r) => r.verdict === "MISSING")?.key ?? spec?.properties[0]?.key ?? "";
   const labels = new Map((spec?.properties ?? []).map((x) => [x.key, x.label]));
-  const statusLabel = p.status === "RELEASED" && p.deviation ? "Released with a deviation" : undefined;
-  const certHref = `/api/products/${encodeURIComponent(p.code)}/certificate`;
   return (
     <>
-      <RecordHeader
-        kind="Product lot"
-        number={p.code}
-        status={{ code: p.status, ...(statusLabel ? { label: statusLabel } : {}) }}
-        back={{ href: "/products", label: "Product lots" }}
-        facts={[
-          [
-            "Batch",
-            p.batchCode ? <Link href={`/batches/${encodeURIComponent(p.batchCode)}`}>{p.batchCode}</Link> : "—",
-          ],
-          ["Batch state", p.batchStatus ? labelOf(p.batchStatus) : "—"],
-          ["Produced", when(p.producedAt, tz)],
-          ["Mass made", kg(p.massG, 3)],
-          ["Book stock", kg(p.stockG, 3)],
-          ["Specification", c ? c.specText : "none chosen"],
-          ...decisionFacts(p, tz),
-        ]}
-        actions={
-          <>
-            {c ? (
-              <a href={certHref} download>
-                {c.released ? "Certificate of analysis (PDF)" : "Draft certificate, not released (PDF)"}
-              </a>
-            ) : null}{" "}
-            {p.status === "RELEASED" && p.stockG > 0 && isCompliance ? (
-              <Link href={`/shipments/new?from=${encodeURIComponent(p.code)}`}>Ship from this lot</Link>
-            ) : null}{" "}
-            <HistoryLink kind="product" recordKey={p.code} label="product lot" />
-            <TraceThis kind="PRODUCT_LOT" code={p.code} role={user.role} back />
-          </>
-        }
-      />
+      <ProductHeader p={p} c={c} tz={tz} role={user.role} />
 
       <h2>Quality control</h2>
       {spec && c ? (
@@ -162,28 +209,7 @@ export default async function ProductLotPage({ params }: Props) {
       <h2>Every result entered</h2>
       <ResultHistory qc={p.qc} labels={labels} timeZone={tz} />
 
-      <h2>Shipments</h2>
-      <DataTable
-        caption="Shipped from this lot"
-        hideCaption
-        columns={shipmentColumns(tz)}
-        rows={shipments}
-        rowKey={(m) => m.id}
-        empty="Nothing has been shipped from this lot directly."
-      />
-      {transfers.length > 0 ? (
-        <>
-          <h2>Moved to storage</h2>
-          <DataTable
-            caption="Moved to storage"
-            hideCaption
-            columns={transferColumns(tz)}
-            rows={transfers}
-            rowKey={(m) => m.id}
-            empty=""
-          />
-        </>
-      ) : null}
+      <WhereItWasSent outgoing={p.outgoing} tz={tz} />
 
       <h2>Feedstock and reagent lots in this product lot</h2>
       <MadeOf madeOf={madeOf} what="product lot" />

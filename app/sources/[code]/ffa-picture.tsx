@@ -1,11 +1,12 @@
 import type { Db } from "@/lib/core/connect";
 import { labelOf } from "@/lib/core/vocabulary";
 import { computeFfaBySource } from "@/lib/feedstock/ffa-series";
-import type { FfaPoint } from "@/lib/feedstock/ffa-series";
+import type { FfaPoint, SourceFfaSeries } from "@/lib/feedstock/ffa-series";
 import { listSourceLotsWithFfa } from "@/lib/feedstock/ffa-series.store";
 import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
 import { day, num, pct } from "@/app/_ui/format";
 import { DataTable } from "@/app/_ui/kit";
+import type { Column } from "@/app/_ui/kit";
 import { NoPicture, Picture } from "@/app/_ui/charts/picture";
 import { renderPictureSvg } from "@/app/_ui/charts/render";
 
@@ -15,35 +16,11 @@ function siteX(at: number, timeZone: string): number {
   return at + getUtcOffsetMin(timeZone, new Date(at)) * 60_000;
 }
 
-/** The FFA of the lots this source supplied, by date received, one colour per material kind. */
-export async function SourceFfaPicture({
-  db,
-  siteId,
-  source,
-  timeZone,
-}: {
-  db: Db;
-  siteId: number;
-  source: { id: number; code: string };
-  timeZone: string;
-}) {
-  const id = "source-ffa";
-  const title = "FFA of the lots from this source";
-  const lots = await listSourceLotsWithFfa(db, siteId, source.id);
-  const s = computeFfaBySource(lots).find((x) => x.sourceCode === source.code);
-  if (!s || s.points.length === 0) {
-    return (
-      <NoPicture id={id} title={title}>
-        {s && s.untested > 0
-          ? `None of the ${s.untested} lots with material from this source has been titrated yet.`
-          : "No lot has been received with material from this source yet."}
-      </NoPicture>
-    );
-  }
+function ffaChart(s: SourceFfaSeries, timeZone: string): string {
   const materials = [...new Set(s.points.map((p) => p.material))].sort();
   const first = s.points[0]?.at ?? 0;
   const last = s.points.at(-1)?.at ?? 0;
-  const svg = renderPictureSvg(
+  return renderPictureSvg(
     {
       useUTC: true,
       legend: { top: 0, itemGap: 26 },
@@ -73,19 +50,58 @@ export async function SourceFfaPicture({
     },
     { height: 300 },
   );
+}
+
+function ffaSummary(s: SourceFfaSeries, code: string, timeZone: string): string {
   const latest = s.points.at(-1);
-  const summary =
-    `${s.points.length} lots with material from source ${source.code} titrated: FFA from ${pct(s.minPct)} to ${pct(s.maxPct)}, ${pct(s.massWeightedPct)} weighted by mass` +
+  return (
+    `${s.points.length} lots with material from source ${code} titrated: FFA from ${pct(s.minPct)} to ${pct(s.maxPct)}, ${pct(s.massWeightedPct)} weighted by mass` +
     (latest
       ? `; the latest, lot ${latest.lotCode} received ${day(new Date(latest.at), timeZone)}, ${pct(latest.ffaPct)}`
       : "") +
-    (s.untested > 0 ? `; ${s.untested} more awaiting titration.` : ".");
+    (s.untested > 0 ? `; ${s.untested} more awaiting titration.` : ".")
+  );
+}
+
+const ffaColumns = (timeZone: string): Array<Column<FfaPoint>> => [
+  { key: "lot", header: "Lot", cell: (p) => p.lotCode },
+  { key: "received", header: "Received", cell: (p) => day(new Date(p.at), timeZone) },
+  { key: "material", header: "Material", cell: (p) => labelOf(p.material) },
+  { key: "mass", header: "Lot mass", unit: "kg", numeric: true, cell: (p) => num(p.massG / 1000, 1) },
+  { key: "ffa", header: "FFA", unit: "%", numeric: true, cell: (p) => num(p.ffaPct, 2) },
+];
+
+/** The FFA of the lots this source supplied, by date received, one colour per material kind. */
+export async function SourceFfaPicture({
+  db,
+  siteId,
+  source,
+  timeZone,
+}: {
+  db: Db;
+  siteId: number;
+  source: { id: number; code: string };
+  timeZone: string;
+}) {
+  const id = "source-ffa";
+  const title = "FFA of the lots from this source";
+  const lots = await listSourceLotsWithFfa(db, siteId, source.id);
+  const s = computeFfaBySource(lots).find((x) => x.sourceCode === source.code);
+  if (!s || s.points.length === 0) {
+    return (
+      <NoPicture id={id} title={title}>
+        {s && s.untested > 0
+          ? `None of the ${s.untested} lots with material from this source has been titrated yet.`
+          : "No lot has been received with material from this source yet."}
+      </NoPicture>
+    );
+  }
   return (
     <Picture
       id={id}
       title={title}
-      summary={summary}
-      svg={svg}
+      svg={ffaChart(s, timeZone)}
+      summary={ffaSummary(s, source.code, timeZone)}
       numbers={
         <>
           <DataTable<FfaPoint>
@@ -93,13 +109,7 @@ export async function SourceFfaPicture({
             rows={s.points}
             rowKey={(p) => p.lotCode}
             empty="No lots titrated."
-            columns={[
-              { key: "lot", header: "Lot", cell: (p) => p.lotCode },
-              { key: "received", header: "Received", cell: (p) => day(new Date(p.at), timeZone) },
-              { key: "material", header: "Material", cell: (p) => labelOf(p.material) },
-              { key: "mass", header: "Lot mass", unit: "kg", numeric: true, cell: (p) => num(p.massG / 1000, 1) },
-              { key: "ffa", header: "FFA", unit: "%", numeric: true, cell: (p) => num(p.ffaPct, 2) },
-            ]}
+            columns={ffaColumns(timeZone)}
           />
           <p className="muted">
             A lot pooled from several sources&apos; pickups counts for each of them; its FFA is the mean of its

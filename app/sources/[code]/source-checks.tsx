@@ -2,18 +2,14 @@ import type { Db } from "@/lib/core/connect";
 import { labelOf, SOURCE_KINDS } from "@/lib/core/vocabulary";
 import { CAPACITY_BASES, plausibleLitresPerMonth } from "@/lib/screening/capacity";
 import { listFlags } from "@/lib/screening/screening.store";
-import type { FlagRow } from "@/lib/screening/screening.store";
-import { SIGNAL_LABELS } from "@/lib/screening/screening";
-import type { Signal } from "@/lib/screening/screening";
 import { getSourceProfile } from "@/lib/screening/source-profile.store";
 import type { SourceProfileRow } from "@/lib/screening/source-profile.store";
-import { day, when } from "@/app/_ui/format";
+import { day } from "@/app/_ui/format";
 import { ActionForm, Field } from "@/app/_ui/kit/action-form";
 import { DataTable, StatusMark } from "@/app/_ui/kit";
-import type { Column } from "@/app/_ui/kit";
 import { Facts } from "@/app/_ui/ui";
 import { clearSourceAction, saveSourceProfileAction } from "@/app/screening/actions";
-import { FlagLinks } from "@/app/screening/flag-links";
+import { flagColumns } from "@/app/screening/flag-columns";
 
 const n = (v: number | null) => (v === null ? "" : String(v));
 
@@ -96,6 +92,55 @@ function ProfileForm({ code, p }: { code: string; p: SourceProfileRow }) {
   );
 }
 
+/** The source's standing, plausible volume, hours and place, as the checks use them. */
+function SourceStanding({
+  p,
+  standing,
+  timeZone,
+}: {
+  p: SourceProfileRow;
+  standing: readonly string[];
+  timeZone: string;
+}) {
+  return (
+    <Facts
+      items={[
+        [
+          "Standing",
+          standing.length === 0 ? (
+            "No concerns recorded"
+          ) : (
+            <>
+              {standing.map((s) => (
+                <StatusMark key={s} code={s} />
+              ))}
+            </>
+          ),
+        ],
+        ["Plausible volume", capacityText(p)],
+        [
+          "Declared",
+          p.capacityDeclaredAt
+            ? `${day(p.capacityDeclaredAt, timeZone)}${p.capacityDeclaredBy ? ` by ${p.capacityDeclaredBy}` : ""}`
+            : "—",
+        ],
+        [
+          "Opening hours",
+          p.opensHour === null || p.closesHour === null
+            ? "not known"
+            : `${String(p.opensHour).padStart(2, "0")}:00–${String(p.closesHour).padStart(2, "0")}:00`,
+        ],
+        [
+          "Location of the address",
+          p.latitude === null || p.longitude === null
+            ? "not known"
+            : `${p.latitude.toFixed(4)}, ${p.longitude.toFixed(4)}`,
+        ],
+      ]}
+    />
+  );
+}
+
 /** The source's declared capacity and hours, its standing, and every flag raised against it with its decision. */
 export async function SourceChecks({
   db,
@@ -117,66 +162,14 @@ export async function SourceChecks({
     listFlags(db, siteId, { sourceId, take: 200 }),
   ]);
   if (p === null) return null;
-  const columns: Array<Column<FlagRow>> = [
-    { key: "raised", header: "Raised", cell: (f) => <span className="nowrap">{day(f.raisedAt, timeZone)}</span> },
-    { key: "check", header: "Check", cell: (f) => SIGNAL_LABELS[f.signal as Signal] ?? f.signal },
-    { key: "found", header: "What was found", cell: (f) => f.message },
-    { key: "records", header: "Pickups and lots", cell: (f) => <FlagLinks flag={f} /> },
-    { key: "state", header: "Decision", cell: (f) => <StatusMark code={`FLAG_${f.status}`} /> },
-    {
-      key: "decided",
-      header: "Decided",
-      cell: (f) => (f.decidedAt ? `${when(f.decidedAt, timeZone)}${f.decidedBy ? `, ${f.decidedBy}` : ""}` : "—"),
-    },
-    {
-      key: "reason",
-      header: "Reason",
-      cell: (f) =>
-        [f.reason, f.heldLots.length > 0 ? `lots held: ${f.heldLots.join(", ")}` : ""].filter(Boolean).join("; ") ||
-        "—",
-    },
-  ];
+  const c = flagColumns(timeZone);
   const standing = [p.onWatch ? "ON_WATCH" : null, p.creditWithheld ? "CREDIT_WITHHELD" : null].filter(
     (x): x is string => x !== null,
   );
   return (
     <section aria-labelledby="checks-h">
       <h2 id="checks-h">Source checks</h2>
-      <Facts
-        items={[
-          [
-            "Standing",
-            standing.length === 0 ? (
-              "No concerns recorded"
-            ) : (
-              <>
-                {standing.map((s) => (
-                  <StatusMark key={s} code={s} />
-                ))}
-              </>
-            ),
-          ],
-          ["Plausible volume", capacityText(p)],
-          [
-            "Declared",
-            p.capacityDeclaredAt
-              ? `${day(p.capacityDeclaredAt, timeZone)}${p.capacityDeclaredBy ? ` by ${p.capacityDeclaredBy}` : ""}`
-              : "—",
-          ],
-          [
-            "Opening hours",
-            p.opensHour === null || p.closesHour === null
-              ? "not known"
-              : `${String(p.opensHour).padStart(2, "0")}:00–${String(p.closesHour).padStart(2, "0")}:00`,
-          ],
-          [
-            "Location of the address",
-            p.latitude === null || p.longitude === null
-              ? "not known"
-              : `${p.latitude.toFixed(4)}, ${p.longitude.toFixed(4)}`,
-          ],
-        ]}
-      />
+      <SourceStanding p={p} standing={standing} timeZone={timeZone} />
       {compliance ? <ProfileForm code={code} p={p} /> : null}
       {compliance && standing.length > 0 ? (
         <ActionForm
@@ -192,7 +185,7 @@ export async function SourceChecks({
       <DataTable
         caption="Flags raised against this source"
         hideCaption
-        columns={columns}
+        columns={[c.raised, c.check, c.found, c.records, c.state, c.decidedWhenBy, c.reason]}
         rows={flags}
         rowKey={(f) => f.id}
         empty="No flags raised against this source."

@@ -1,7 +1,7 @@
 import type { Db } from "@/lib/core/connect";
 import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
 import { computeTankStockSeries } from "@/lib/tank/stock-series";
-import type { StockPoint } from "@/lib/tank/stock-series";
+import type { StockPoint, TankStockSeries } from "@/lib/tank/stock-series";
 import { loadTankStockHistory } from "@/lib/tank/stock-series.store";
 import { day, kg, num, when } from "@/app/_ui/format";
 import { DataTable } from "@/app/_ui/kit";
@@ -15,39 +15,15 @@ function siteX(at: number, timeZone: string): number {
 
 const kgNumber = (grams: number) => Math.round(grams) / 1000;
 
-export async function TankStockPicture({
-  db,
-  siteId,
-  code,
-  capacityG,
-  timeZone,
-  now,
-}: {
-  db: Db;
-  siteId: number;
-  code: string;
-  capacityG: number;
-  timeZone: string;
-  now: Date;
-}) {
-  const id = "tank-stock";
-  const title = "Stock over time";
-  const history = await loadTankStockHistory(db, siteId, code);
-  const s = computeTankStockSeries(history?.moves ?? [], history?.readings ?? [], capacityG);
-  if (s.book.length === 0 && s.gauges.length === 0) {
-    return (
-      <NoPicture id={id} title={title}>
-        Nothing has been moved into or out of this tank and it has not been gauged, so there is no stock to draw yet.
-      </NoPicture>
-    );
-  }
-  const first = Math.min(s.book[0]?.at ?? Infinity, s.gauges[0]?.at ?? Infinity);
-  const last = Math.max(now.getTime(), s.book.at(-1)?.at ?? 0, s.gauges.at(-1)?.at ?? 0);
+type Series = TankStockSeries;
+type Span = { first: number; last: number };
+
+function stockChart(s: Series, { first, last }: Span, capacityG: number, timeZone: string): string {
   const book = [
     ...s.book.map((p) => [siteX(p.at, timeZone), kgNumber(p.stockG)]),
     [siteX(last, timeZone), kgNumber(s.closingG)],
   ];
-  const svg = renderPictureSvg(
+  return renderPictureSvg(
     {
       useUTC: true,
       legend: { top: 0, itemGap: 26, data: ["Book stock", "Gauge readings", "Capacity"] },
@@ -86,20 +62,55 @@ export async function TankStockPicture({
     },
     { height: 320 },
   );
+}
+
+function stockSummary(s: Series, { first }: Span, code: string, capacityG: number, timeZone: string): string {
   const latest = s.gauges.at(-1);
-  const summary =
+  return (
     `Tank ${code}: book stock ${kg(s.closingG)} now, highest ${kg(s.peakG)} against a capacity of about ${kg(capacityG, 0)}; ` +
     `${kg(s.inG)} moved in and ${kg(s.outG)} out since ${day(new Date(first), timeZone)}; ` +
     (latest
       ? `${s.gauges.length} gauge readings, the latest ${kg(latest.stockG)} on ${day(new Date(latest.at), timeZone)}.`
-      : "never gauged.");
+      : "never gauged.")
+  );
+}
+
+export async function TankStockPicture({
+  db,
+  siteId,
+  code,
+  capacityG,
+  timeZone,
+  now,
+}: {
+  db: Db;
+  siteId: number;
+  code: string;
+  capacityG: number;
+  timeZone: string;
+  now: Date;
+}) {
+  const id = "tank-stock";
+  const title = "Stock over time";
+  const history = await loadTankStockHistory(db, siteId, code);
+  const s = computeTankStockSeries(history?.moves ?? [], history?.readings ?? [], capacityG);
+  if (s.book.length === 0 && s.gauges.length === 0) {
+    return (
+      <NoPicture id={id} title={title}>
+        Nothing has been moved into or out of this tank and it has not been gauged, so there is no stock to draw yet.
+      </NoPicture>
+    );
+  }
+  const first = Math.min(s.book[0]?.at ?? Infinity, s.gauges[0]?.at ?? Infinity);
+  const last = Math.max(now.getTime(), s.book.at(-1)?.at ?? 0, s.gauges.at(-1)?.at ?? 0);
+  const span = { first, last };
   const steps = s.book.slice(1).map((p, i) => ({ ...p, changeG: p.stockG - (s.book[i]?.stockG ?? 0) }));
   return (
     <Picture
       id={id}
       title={title}
-      summary={summary}
-      svg={svg}
+      svg={stockChart(s, span, capacityG, timeZone)}
+      summary={stockSummary(s, span, code, capacityG, timeZone)}
       numbers={
         <>
           <DataTable

@@ -2,10 +2,12 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { CODE_PATTERN } from "@/lib/core/fields";
 import { listPickupsWithContainer } from "@/lib/collect/collect.store";
-import { litres, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
-import { CodeLink, Empty, NoSite } from "@/app/_ui/ui";
+import { NoSite } from "@/app/_ui/ui";
+import { DataTable } from "@/app/_ui/kit";
+import type { Column } from "@/app/_ui/kit";
+import { pickupColumns } from "@/app/pickups/pickup-columns";
 import { ContainerLabel } from "@/app/labels/label-card";
 import { requestOrigin } from "@/app/labels/origin";
 import { PrintLabels } from "@/app/labels/print-button";
@@ -16,6 +18,8 @@ type Props = { params: Promise<{ tag: string }> };
 export async function generateMetadata({ params }: Props): Promise<Metadata> {
   return { title: `Container ${codeParam((await params).tag)}` };
 }
+
+const SOURCE: Column<{ sourceCode: string }> = { key: "source", header: "Source", cell: (p) => p.sourceCode };
 
 /** What a container label's QR code opens: the label itself and every pickup that listed the container. */
 export default async function ContainerPage({ params }: Props) {
@@ -35,6 +39,7 @@ export default async function ContainerPage({ params }: Props) {
     );
   }
   const pickups = await listPickupsWithContainer(db, site.id, tag);
+  const c = pickupColumns(site.timeZone);
   return (
     <>
       <p className="crumbs labels-controls">
@@ -49,40 +54,14 @@ export default async function ContainerPage({ params }: Props) {
       </div>
       <h2 className="labels-controls">Pickups with this container</h2>
       <div className="labels-controls">
-        {pickups.length === 0 ? (
-          <Empty>No pickup has listed this container yet.</Empty>
-        ) : (
-          <div className="table-wrap">
-            <table>
-              <thead>
-                <tr>
-                  <th scope="col">Pickup</th>
-                  <th scope="col">Observed</th>
-                  <th scope="col">Source</th>
-                  <th scope="col" className="num">
-                    Volume
-                  </th>
-                  <th scope="col">Lot</th>
-                </tr>
-              </thead>
-              <tbody>
-                {pickups.map((p) => (
-                  <tr key={p.code}>
-                    <td>
-                      <CodeLink href={`/pickups/${encodeURIComponent(p.code)}`} code={p.code} />
-                    </td>
-                    <td className="nowrap">{when(p.observedAt, site.timeZone)}</td>
-                    <td>{p.sourceCode}</td>
-                    <td className="num">{litres(p.volumeMl)}</td>
-                    <td>
-                      {p.lotCode ? <CodeLink href={`/lots/${encodeURIComponent(p.lotCode)}`} code={p.lotCode} /> : "—"}
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        )}
+        <DataTable
+          caption="Pickups with this container"
+          hideCaption
+          columns={[c.pickup, c.observed, SOURCE, c.volume, c.lot]}
+          rows={pickups}
+          rowKey={(p) => p.code}
+          empty="No pickup has listed this container yet."
+        />
       </div>
     </>
   );
