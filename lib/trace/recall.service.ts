@@ -2,7 +2,7 @@ import "server-only";
 // Recall answers: from a source (pickups observed within a window), a pickup, a lot, a tank (what moved
 // into it within a window), a batch or a product lot, every product lot, shipment and customer the
 // material reached, with grams and share, and what is still on site to hold. Runs on the site's cached
-// trace index (lib/trace/trace.service) and its monthly snapshots; the seeding is lib/trace/recall.ts.
+// trace index (lib/trace/trace-cache.service) and its monthly snapshots; the seeding is lib/trace/recall.ts.
 import type { Db } from "@/lib/core/connect";
 import { fail, failMany, ok } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
@@ -20,8 +20,10 @@ import type { RecallHolderRow, RecallReport } from "@/lib/trace/recall";
 import { RecallHoldSchema, RecallQuerySchema } from "@/lib/trace/recall.schema";
 import type { RecallKind } from "@/lib/trace/recall.schema";
 import { getHolderSubject, getSourceSubject } from "@/lib/trace/trace.store";
-import { renameIssues, requireLedgerState, snapshotCovering, stageLabelOf, stageOf } from "@/lib/trace/trace.service";
-import type { LedgerState } from "@/lib/trace/trace.service";
+import { renameIssues, snapshotCovering } from "@/lib/trace/ledger-state";
+import type { LedgerState } from "@/lib/trace/ledger-state";
+import { stageLabelOf, stageOf } from "@/lib/trace/trace-answers";
+import { requireLedgerState } from "@/lib/trace/trace-cache.service";
 
 const LEFT_THE_BOOKS = new Set(["SHIPMENT", "DISPOSAL", "LOSS"]);
 
