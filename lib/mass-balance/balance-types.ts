@@ -46,3 +46,42 @@ export interface Closure {
   pct: number | null;
   flag: ClosureFlag;
 }
+
+/** A holder as the balance page names it. */
+export interface BalanceHolderRef {
+  id: number;
+  kind: HolderKind;
+  code: string;
+  materialKind: string | null;
+}
+
+export interface BalanceLedger {
+  holders: BalanceHolder[];
+  /**
+   * Every movement except reversed pairs: a booking made by mistake and its reversal (same instant, so
+   * stock at any time is the same either way) are left out, as in traces and the chain of custody, so
+   * a charge taken back is neither an input nor an output of its batch.
+   */
+  moves: BalanceMove[];
+  refs: Map<number, BalanceHolderRef>;
+}
+
+export interface AccountingPeriodView {
+  id: number;
+  startsAt: Date;
+  endsAt: Date;
+  status: string;
+  closedAt: Date | null;
+  closedBy: string | null;
+}
+
+export interface PeriodEventView {
+  id: number;
+  periodId: number;
+  periodStartsAt: Date;
+  periodEndsAt: Date;
+  action: string;
+  reason: string;
+  by: string;
+  at: Date;
+}
