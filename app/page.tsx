@@ -1,5 +1,6 @@
 import Link from "next/link";
-import { getDashboard, getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import { getUtcOffsetMin } from "@/lib/period/site-time";
+import { getDashboard } from "@/app/_today/today";
 import { getWasteDueBoard } from "@/lib/waste/container.store";
 import { day } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";

@@ -18,8 +18,7 @@ import type { CustodyReport } from "@/lib/custody/custody-report";
 import { CustodyQuerySchema } from "@/lib/custody/custody.schema";
 import { loadCustodyRows } from "@/lib/custody/custody.store";
 import { getUtcOffsetMin } from "@/lib/period/site-time";
-import { getMoveCompositions } from "@/lib/trace/trace.service";
-import { listEntryHolderFacts } from "@/lib/trace/trace.store";
+import { getEntryHolderFacts, getMoveCompositions } from "@/lib/trace/trace.service";
 
 export { OUTPUT_MATERIAL, WRITTEN_OFF } from "@/lib/custody/custody-inputs";
 export type { ConversionRow, SetInputs } from "@/lib/custody/custody-inputs";
@@ -35,7 +34,7 @@ export async function getCustodyReport(
   const started = performance.now();
   const parsed = parseInput(CustodyQuerySchema, input);
   if (!parsed.ok) return parsed;
-  const [rows, facts] = await Promise.all([loadCustodyRows(db, site.id), listEntryHolderFacts(db, site.id)]);
+  const [rows, facts] = await Promise.all([loadCustodyRows(db, site.id), getEntryHolderFacts(db, site.id)]);
   const inputs = collectInputs(rows.entries, facts);
   // The certified share of receiving shortfalls and of the oil charged to batches, from the genealogy.
   const { oilMoves, moveIds } = movesToCompose(rows);

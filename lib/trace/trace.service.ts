@@ -21,7 +21,8 @@ import { forwardFromCache, moveCompositions, receivedFromCache } from "@/lib/tra
 import type { BackwardTraceReport, ForwardTraceReport, LedgerFreshness } from "@/lib/trace/trace-answers";
 import { answer, requireFacts, requireLedgerState } from "@/lib/trace/trace-cache.service";
 import { computeBackward, computeForward } from "@/lib/trace/trace-reports";
-import { getHolderSubject, getSourceSubject } from "@/lib/trace/trace.store";
+import { getHolderSubject, getSourceSubject, listEntryHolderFacts } from "@/lib/trace/trace.store";
+import type { EntryHolderFacts } from "@/lib/trace/trace-facts";
 import { attachCustomers } from "@/lib/trace/customers";
 import { listShipmentCustomers } from "@/lib/shipment/shipment.store";
 
@@ -175,4 +176,9 @@ export async function getMoveCompositions(
   return answer<MoveCompositions>(db, siteId, now, `M|${wanted.length}|${wanted.join(",")}`, async (state) =>
     moveCompositions(state, wanted),
   );
+}
+
+/** What is known about every holder material enters the books at (pickups, delivered lots, reagent lots), by holder id. */
+export function getEntryHolderFacts(db: Db, siteId: number): Promise<Map<number, EntryHolderFacts>> {
+  return listEntryHolderFacts(db, siteId);
 }

@@ -4,7 +4,7 @@ import { TraceThis } from "@/app/_ui/trace-this";
 import { notFound } from "next/navigation";
 import { labelOf } from "@/lib/core/vocabulary";
 import { getHolderRef, listHolderMovements } from "@/lib/ledger/movement.store";
-import { listTankLevels } from "@/lib/site/dashboard.store";
+import { listTankLevels } from "@/lib/tank/tank.store";
 import { kg, litres, num, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
