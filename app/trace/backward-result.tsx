@@ -149,6 +149,45 @@ function BackwardTables({ r, view, atLocal }: { r: BackwardTraceReport; view: Vi
           />
         </div>
       </div>
+      <ReagentsAndDownloads r={r} base={base} csv={csv} />
+    </>
+  );
+}
+
+function BackwardGraph({ r }: { r: BackwardTraceReport }) {
+  return (
+    <>
+      <h3>Graph</h3>
+      {r.graph ? (
+        <>
+          <TraceGraphView
+            graph={r.graph}
+            title={`Where the material of ${labelOf(r.target.kind).toLowerCase()} ${r.target.code} came from, by stage`}
+          />
+          <Note>
+            {r.graph.note} Boxes under {r.graph.foldBelowPct} % of the total (or beyond the largest per stage) are
+            folded into &quot;others&quot;. Dashed arrows run against the stage order (recovered methanol returning to
+            its tank).
+          </Note>
+        </>
+      ) : (
+        <Empty>No graph for an empty trace.</Empty>
+      )}
+    </>
+  );
+}
+
+function ReagentsAndDownloads({
+  r,
+  base,
+  csv,
+}: {
+  r: BackwardTraceReport;
+  base: Record<string, string>;
+  csv: (table: string) => string;
+}) {
+  return (
+    <>
       <h3>Reagents</h3>
       {r.reagents.length === 0 ? (
         <Empty>No reagents in this trace.</Empty>
@@ -178,29 +217,6 @@ function BackwardTables({ r, view, atLocal }: { r: BackwardTraceReport; view: Vi
           ({r.origins.length} origins: movement, pickup, lot, source, material, certification, grams)
         </span>
       </p>
-    </>
-  );
-}
-
-function BackwardGraph({ r }: { r: BackwardTraceReport }) {
-  return (
-    <>
-      <h3>Graph</h3>
-      {r.graph ? (
-        <>
-          <TraceGraphView
-            graph={r.graph}
-            title={`Where the material of ${labelOf(r.target.kind).toLowerCase()} ${r.target.code} came from, by stage`}
-          />
-          <Note>
-            {r.graph.note} Boxes under {r.graph.foldBelowPct} % of the total (or beyond the largest per stage) are
-            folded into &quot;others&quot;. Dashed arrows run against the stage order (recovered methanol returning to
-            its tank).
-          </Note>
-        </>
-      ) : (
-        <Empty>No graph for an empty trace.</Empty>
-      )}
     </>
   );
 }

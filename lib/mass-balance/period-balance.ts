@@ -6,7 +6,7 @@
 // The pieces: balance-rules (defaults, closure flag), ledger-slots (checks and the stock walk),
 // process-view (batches), gauges (book against gauges), differences (the closure that can fail).
 import { failMany, ok } from "@/lib/core/result";
-import type { Result } from "@/lib/core/result";
+import type { DomainIssue, Result } from "@/lib/core/result";
 import { MOVE_ROLES } from "@/lib/core/vocabulary";
 import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
 import { computeDifferences } from "@/lib/mass-balance/differences";
@@ -146,19 +146,35 @@ function tallyFlows(
   return { receipts, outputs, transfersInG, transfersOutG, returnsG, byRole };
 }
 
+function validatePeriod(period: { startMs: number; endMs: number }): DomainIssue[] {
+  return !Number.isSafeInteger(period.startMs) || !Number.isSafeInteger(period.endMs) || period.endMs <= period.startMs
+    ? [{ code: "MASS_BALANCE.INVALID_PERIOD", message: "Period end must be after its start", field: "period.endMs" }]
+    : [];
+}
+
+/** Opening and closing stock of each holder in scope that held anything at either end. */
+function holderStocks(
+  holders: readonly BalanceHolder[],
+  scopedSlot: Uint8Array,
+  opening: Float64Array,
+  closing: Float64Array,
+): HolderStock[] {
+  const byHolder: HolderStock[] = [];
+  holders.forEach((h, i) => {
+    const openingG = opening[i] ?? 0;
+    const closingG = closing[i] ?? 0;
+    if (scopedSlot[i] === 1 && (openingG !== 0 || closingG !== 0))
+      byHolder.push({ holderId: h.id, kind: h.kind, openingG, closingG });
+  });
+  return byHolder;
+}
+
 /** Mass balance of one site (optionally one material kind) over [startMs, endMs). */
 export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBalance> {
   const { holders, moves, period, scope } = input;
   const tolerance = input.tolerance ?? DEFAULT_CLOSURE_TOLERANCE;
   const slots = slotLedger(holders, moves);
-  const issues = [...slots.issues, ...validateTolerance(tolerance)];
-  if (!Number.isSafeInteger(period.startMs) || !Number.isSafeInteger(period.endMs) || period.endMs <= period.startMs) {
-    issues.push({
-      code: "MASS_BALANCE.INVALID_PERIOD",
-      message: "Period end must be after its start",
-      field: "period.endMs",
-    });
-  }
+  const issues = [...slots.issues, ...validateTolerance(tolerance), ...validatePeriod(period)];
   if (issues.length > 0) return failMany(issues);
 
   const classes = scope.holderClasses ?? DEFAULT_HOLDER_CLASSES;
@@ -178,13 +194,7 @@ export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBa
     period.endMs,
     scopedSlot,
   );
-  const byHolder: HolderStock[] = [];
-  holders.forEach((h, i) => {
-    const openingG = opening[i] ?? 0;
-    const closingG = closing[i] ?? 0;
-    if (scopedSlot[i] === 1 && (openingG !== 0 || closingG !== 0))
-      byHolder.push({ holderId: h.id, kind: h.kind, openingG, closingG });
-  });
+  const byHolder = holderStocks(holders, scopedSlot, opening, closing);
   const scoped = holders.filter((_h, i) => scopedSlot[i] === 1);
   const openingG = byHolder.reduce((s, h) => s + h.openingG, 0);
   const closingG = byHolder.reduce((s, h) => s + h.closingG, 0);

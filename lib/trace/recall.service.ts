@@ -31,6 +31,34 @@ async function resolveSubject(db: Db, siteId: number, kind: RecallKind, code: st
   return kind === "SOURCE" ? getSourceSubject(db, siteId, code) : getHolderSubject(db, siteId, kind, code);
 }
 
+/** The rows a recall reached, with each product lot's standing and, for readers who may see them, each shipment's customer. */
+async function describeReached(db: Db, siteId: number, rows: readonly FlowRow[], withCustomers: boolean) {
+  const ids = rows.map((r) => r.holder.id);
+  const [standings, customers] = await Promise.all([
+    listProductLotStandings(
+      db,
+      siteId,
+      ids.filter((_, i) => rows[i]?.holder.kind === "PRODUCT_LOT"),
+    ),
+    withCustomers
+      ? listShipmentCustomers(
+          db,
+          siteId,
+          ids.filter((_, i) => rows[i]?.holder.kind === "SHIPMENT"),
+        )
+      : Promise.resolve(new Map<number, ShipmentCustomer>()),
+  ]);
+  const holders = rows.map((r) => {
+    const s = standings.get(r.holder.id);
+    return {
+      ...r,
+      customer: customers.get(r.holder.id) ?? null,
+      standing: s ? { status: s.status, reason: s.decisionReason } : null,
+    };
+  });
+  return { holders, customers };
+}
+
 /** Where the material went; customers only for readers who may see them (not production). */
 export async function recallReport(
   db: Db,
@@ -54,30 +82,7 @@ export async function recallReport(
   const state = stateR.value;
   const flow = followSeeds(state, subject.holderIds, q.from?.getTime() ?? null, q.to?.getTime() ?? null);
   if (!flow.ok) return flow;
-  const rows = flow.value.rows;
-  const ids = rows.map((r) => r.holder.id);
-  const [standings, customers] = await Promise.all([
-    listProductLotStandings(
-      db,
-      siteId,
-      ids.filter((_, i) => rows[i]?.holder.kind === "PRODUCT_LOT"),
-    ),
-    opts.withCustomers
-      ? listShipmentCustomers(
-          db,
-          siteId,
-          ids.filter((_, i) => rows[i]?.holder.kind === "SHIPMENT"),
-        )
-      : Promise.resolve(new Map<number, ShipmentCustomer>()),
-  ]);
-  const holders = rows.map((r) => {
-    const s = standings.get(r.holder.id);
-    return {
-      ...r,
-      customer: customers.get(r.holder.id) ?? null,
-      standing: s ? { status: s.status, reason: s.decisionReason } : null,
-    };
-  });
+  const { holders, customers } = await describeReached(db, siteId, flow.value.rows, opts.withCustomers);
   const tracedG = flow.value.tracedG;
   const shipments = holders.filter((h) => h.holder.kind === "SHIPMENT");
   const onSite = holders.filter((h) => h.heldG > 0 && !LEFT_THE_BOOKS.has(h.holder.kind));
