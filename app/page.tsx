@@ -1,4 +1,6 @@
-import { getDashboard, getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import Link from "next/link";
+import { getUtcOffsetMin } from "@/lib/period/site-time";
+import { getDashboard } from "@/app/_today/today";
 import { getWasteDueBoard } from "@/lib/waste/container.store";
 import { loadSite } from "@/app/_ui/site";
 import { NoSite } from "@/app/_ui/ui";

@@ -1,7 +1,7 @@
 // The panels of the home page, each a kit table: tanks, lots awaiting the lab, batches in progress,
 // waste on site.
 import Link from "next/link";
-import type { Dashboard } from "@/lib/site/dashboard.store";
+import type { Dashboard } from "@/app/_today/today";
 import type { WasteDueBoard } from "@/lib/waste/container.store";
 import { labelOf } from "@/lib/core/vocabulary";
 import { day, daysBetween, kg, litres, pct, when } from "@/app/_ui/format";

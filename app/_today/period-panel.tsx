@@ -1,5 +1,5 @@
 import Link from "next/link";
-import type { Dashboard } from "@/lib/site/dashboard.store";
+import type { Dashboard } from "@/app/_today/today";
 import { day } from "@/app/_ui/format";
 import { StatusMark } from "@/app/_ui/kit";
 import { Empty, Note } from "@/app/_ui/ui";

@@ -1,4 +1,4 @@
-import type { TankLevel } from "@/lib/site/dashboard.store";
+import type { TankLevel } from "@/lib/tank/tank.store";
 import { num } from "@/app/_ui/format";
 import { Note } from "@/app/_ui/ui";
 

@@ -15,9 +15,9 @@ function closureText(c: Closure): string {
   return `${c.pct === null ? "no base" : `${c.pct.toFixed(3)} %`} (${FLAG_WORDS[c.flag]})`;
 }
 
-export function buildBalanceDoc(r: BalanceReport, ctx: ReportContext, ledger: ReportDoc["ledger"]): ReportDoc {
+function statementTable(r: BalanceReport): ReportTable {
   const imbalanceG = r.inputsG - r.outputsG;
-  const statement: ReportTable = {
+  return {
     key: "statement",
     heading: "Balance statement",
     columns: [
@@ -33,7 +33,10 @@ export function buildBalanceDoc(r: BalanceReport, ctx: ReportContext, ledger: Re
     total: ["TOTAL", r.inputsG, r.outputsG + imbalanceG],
     empty: "Nothing moved.",
   };
-  const byMaterial: ReportTable = {
+}
+
+function materialTable(r: BalanceReport): ReportTable {
+  return {
     key: "materials",
     heading: "By material kind",
     columns: [
@@ -58,7 +61,10 @@ export function buildBalanceDoc(r: BalanceReport, ctx: ReportContext, ledger: Re
     ]),
     empty: "No stock holders in the period.",
   };
-  const batches: ReportTable = {
+}
+
+function batchesTable(r: BalanceReport): ReportTable {
+  return {
     key: "batches",
     heading: "Batches finished in the period",
     columns: [
@@ -80,7 +86,10 @@ export function buildBalanceDoc(r: BalanceReport, ctx: ReportContext, ledger: Re
     total: ["TOTAL", null, r.process.inputsG, r.process.outputsG, r.process.imbalanceG, closureText(r.process.closure)],
     empty: "No batch finished in the period.",
   };
-  const gauges: ReportTable = {
+}
+
+function gaugesTable(r: BalanceReport): ReportTable {
+  return {
     key: "gauges",
     heading: "Book stock against the latest tank gauges",
     columns: [
@@ -113,6 +122,9 @@ export function buildBalanceDoc(r: BalanceReport, ctx: ReportContext, ledger: Re
       : {}),
     empty: "No tank has been gauged by the period end.",
   };
+}
+
+export function buildBalanceDoc(r: BalanceReport, ctx: ReportContext, ledger: ReportDoc["ledger"]): ReportDoc {
   const ap = r.accountingPeriod;
   return {
     slug: "balance",
@@ -135,6 +147,6 @@ export function buildBalanceDoc(r: BalanceReport, ctx: ReportContext, ledger: Re
       "Whole grams from the movement ledger: opening stock and everything received equal everything that left, closing stock and what is unaccounted for.",
     ],
     cautions: [],
-    tables: [statement, byMaterial, batches, gauges],
+    tables: [statementTable(r), materialTable(r), batchesTable(r), gaugesTable(r)],
   };
 }

@@ -1,6 +1,6 @@
 import type { Db } from "@/lib/core/connect";
 import { computePeriodFlows } from "@/lib/mass-balance/flows";
-import type { FlowLink, FlowNode } from "@/lib/mass-balance/flows";
+import type { FlowLink, FlowNode, PeriodFlows } from "@/lib/mass-balance/flows";
 import { loadFlowLedger } from "@/lib/mass-balance/flows.store";
 import { kg, num } from "@/app/_ui/format";
 import { DataTable } from "@/app/_ui/kit";
@@ -29,34 +29,10 @@ function describe(nodes: readonly FlowNode[], label: string): string {
   return parts.join(", ");
 }
 
-/** The period's flows from sources to what left the site, as a Sankey picture. */
-export async function FlowsPicture({
-  db,
-  siteId,
-  period,
-}: {
-  db: Db;
-  siteId: number;
-  period: { label: string; startsAt: Date; endsAt: Date };
-}) {
-  const id = "period-flows";
-  const title = `Where the material went in ${period.label}`;
-  const ledger = await loadFlowLedger(db, siteId, { from: period.startsAt, to: period.endsAt });
-  const f = computePeriodFlows({
-    holders: ledger.holders,
-    moves: ledger.moves,
-    period: { startMs: period.startsAt.getTime(), endMs: period.endsAt.getTime() },
-  });
-  if (f.links.length === 0) {
-    return (
-      <NoPicture id={id} title={title}>
-        Nothing was moved in this period, so there are no flows to draw.
-      </NoPicture>
-    );
-  }
-  const label = new Map(f.nodes.map((n) => [n.key, n.label]));
+/** The period's flows drawn as a Sankey diagram, one column per step. */
+function flowsSvg(f: PeriodFlows, label: ReadonlyMap<string, string>): string {
   const stages = [...new Set(f.nodes.map((n) => n.stage))].sort((a, b) => a - b);
-  const svg = renderPictureSvg(
+  return renderPictureSvg(
     {
       series: [
         {
@@ -86,6 +62,35 @@ export async function FlowsPicture({
     },
     { width: FLOWS_WIDTH, height: 440 },
   );
+}
+
+/** The period's flows from sources to what left the site, as a Sankey picture. */
+export async function FlowsPicture({
+  db,
+  siteId,
+  period,
+}: {
+  db: Db;
+  siteId: number;
+  period: { label: string; startsAt: Date; endsAt: Date };
+}) {
+  const id = "period-flows";
+  const title = `Where the material went in ${period.label}`;
+  const ledger = await loadFlowLedger(db, siteId, { from: period.startsAt, to: period.endsAt });
+  const f = computePeriodFlows({
+    holders: ledger.holders,
+    moves: ledger.moves,
+    period: { startMs: period.startsAt.getTime(), endMs: period.endsAt.getTime() },
+  });
+  if (f.links.length === 0) {
+    return (
+      <NoPicture id={id} title={title}>
+        Nothing was moved in this period, so there are no flows to draw.
+      </NoPicture>
+    );
+  }
+  const label = new Map(f.nodes.map((n) => [n.key, n.label]));
+  const svg = flowsSvg(f, label);
   const apart = [
     f.sameStageG > 0 ? `${kg(f.sameStageG, 0)} moved between places of one step (such as tank to tank)` : "",
     f.backwardG > 0 ? `${kg(f.backwardG, 0)} went back a step (such as recovered methanol charged again)` : "",

@@ -3,7 +3,7 @@ import { labelOf } from "@/lib/core/vocabulary";
 import { computeReceiptsSeries, weekStartMs } from "@/lib/feedstock/receipts-series";
 import type { ReceiptsSeries, ReceiptWeek } from "@/lib/feedstock/receipts-series";
 import { listFeedstockReceipts } from "@/lib/feedstock/receipts-series.store";
-import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import { getUtcOffsetMin } from "@/lib/period/site-time";
 import { kg, num } from "@/app/_ui/format";
 import { DataTable } from "@/app/_ui/kit";
 import type { Column } from "@/app/_ui/kit";

@@ -6,7 +6,7 @@ import { day, kg, litres, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { NoSite } from "@/app/_ui/ui";
 import { Cautions } from "@/app/_ui/kit";
-import { listTankLevels } from "@/lib/site/dashboard.store";
+import { listTankLevels } from "@/lib/tank/tank.store";
 import { ReceiveForm } from "@/app/receiving/receive-form";
 import type { ReceivingRow } from "@/app/receiving/receive-form";
 

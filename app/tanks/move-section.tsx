@@ -2,7 +2,7 @@ import type { ReactNode } from "react";
 import type { Db } from "@/lib/core/connect";
 import { labelOf } from "@/lib/core/vocabulary";
 import type { SiteRole } from "@/lib/core/vocabulary";
-import { listTankLevels } from "@/lib/site/dashboard.store";
+import { listTankLevels } from "@/lib/tank/tank.store";
 import type { DensityEntry } from "@/lib/quantity/density";
 import { Cautions } from "@/app/_ui/kit";
 import { kg } from "@/app/_ui/format";

@@ -1,6 +1,6 @@
 import type { Metadata } from "next";
 import { labelOf } from "@/lib/core/vocabulary";
-import { listTankLevels } from "@/lib/site/dashboard.store";
+import { listTankLevels } from "@/lib/tank/tank.store";
 import { gaugeVsBook } from "@/lib/tank/strapping";
 import { kg, litres, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";

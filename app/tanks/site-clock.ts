@@ -1,5 +1,5 @@
 import "server-only";
-import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import { getUtcOffsetMin } from "@/lib/period/site-time";
 
 /** An instant as the site's wall-clock time for a datetime-local field ("2026-10-15T12:00"). */
 export function siteLocalInput(at: Date, timeZone: string): string {

@@ -1,6 +1,6 @@
 // The trace drawn as stages left to right: one box per holder (small ones folded into "others"),
 // arrows whose width follows the kilograms they carry. Plain server-rendered SVG.
-import type { GraphNode, TraceGraph } from "@/lib/trace/trace.service";
+import type { GraphEdge, GraphNode, TraceGraph } from "@/lib/trace/trace.service";
 import { kg, pct } from "@/app/_ui/format";
 
 const COL_W = 174;
@@ -77,7 +77,6 @@ function layout(graph: TraceGraph): { placed: Map<string, Placed>; columns: numb
 export function TraceGraphView({ graph, title }: { graph: TraceGraph; title: string }) {
   const { placed, columns, height } = layout(graph);
   const width = PAD * 2 + (columns.length - 1) * COL_W + BOX_W;
-  const stroke = (grams: number) => Math.max(1.2, (MAX_STROKE * grams) / Math.max(1, graph.totalG));
   const laneY = height - BACK_LANE / 2;
   const titleId = "trace-graph-title";
   return (
@@ -98,72 +97,84 @@ export function TraceGraphView({ graph, title }: { graph: TraceGraph; title: str
           </text>
         ))}
         {[...graph.edges]
-          .sort((a, b) => b.grams - a.grams)
-          .map((e) => {
-            const a = placed.get(e.from);
-            const b = placed.get(e.to);
-            if (a === undefined || b === undefined) return null;
-            const w = stroke(e.grams);
-            const label = `${titleOf(a.node)} → ${titleOf(b.node)}: ${kg(e.grams)} (${pct((e.grams * 100) / Math.max(1, graph.totalG), 1)})`;
-            if (a.col < b.col) {
-              const x1 = a.x + BOX_W;
-              const y1 = a.y + BOX_H / 2;
-              const x2 = b.x;
-              const y2 = b.y + BOX_H / 2;
-              const mid = (x1 + x2) / 2;
-              return (
-                <path
-                  key={`${e.from}>${e.to}`}
-                  className="graph-edge"
-                  d={`M${x1},${y1} C${mid},${y1} ${mid},${y2} ${x2},${y2}`}
-                  strokeWidth={w}
-                >
-                  <title>{label}</title>
-                </path>
-              );
-            }
-            // Against the stage order (recovered methanol back to its tank): under the boxes, dashed.
-            const x1 = a.x + BOX_W / 2;
-            const x2 = b.x + BOX_W / 2;
-            return (
-              <path
-                key={`${e.from}>${e.to}`}
-                className="graph-edge graph-edge-back"
-                d={`M${x1},${a.y + BOX_H} C${x1},${laneY} ${x2},${laneY} ${x2},${b.y + BOX_H}`}
-                strokeWidth={w}
-              >
-                <title>{label}</title>
-              </path>
-            );
-          })}
-        {[...placed.values()].map(({ node, x, y }) => {
-          const cls = node.target
-            ? "graph-box graph-target"
-            : node.kind === "OTHERS"
-              ? "graph-box graph-others"
-              : `graph-box graph-${node.kind.toLowerCase().replace(/_/g, "-")}`;
-          const share = (node.grams * 100) / Math.max(1, graph.totalG);
-          return (
-            <g key={node.id} className={cls}>
-              <title>{`${titleOf(node)}: ${kg(node.grams)} (${pct(share, 2)})${node.folded > 0 ? `, ${node.folded} holders below ${graph.foldBelowPct} % each or beyond the largest per stage` : ""}`}</title>
-              <rect x={x} y={y} width={BOX_W} height={BOX_H} rx={4} />
-              <rect
-                className="graph-share"
-                x={x}
-                y={y + BOX_H - 4}
-                width={Math.max(1, (BOX_W * Math.min(100, share)) / 100)}
-                height={4}
-              />
-              <text x={x + 7} y={y + 16}>
-                {clip(titleOf(node), 21)}
-              </text>
-              <text className="graph-kg" x={x + 7} y={y + 31}>
-                {`${kg(node.grams, 0)} · ${pct(share, 1)}`}
-              </text>
-            </g>
-          );
-        })}
+          .sort((x, y) => y.grams - x.grams)
+          .map((e) => (
+            <GraphEdgePath key={`${e.from}>${e.to}`} e={e} placed={placed} graph={graph} laneY={laneY} />
+          ))}
+        {[...placed.values()].map(({ node, x, y }) => (
+          <GraphBox key={node.id} node={node} x={x} y={y} graph={graph} />
+        ))}
       </svg>
     </div>
+  );
+}
+
+function GraphEdgePath({
+  e,
+  placed,
+  graph,
+  laneY,
+}: {
+  e: GraphEdge;
+  placed: ReadonlyMap<string, Placed>;
+  graph: TraceGraph;
+  laneY: number;
+}) {
+  const a = placed.get(e.from);
+  const b = placed.get(e.to);
+  if (a === undefined || b === undefined) return null;
+  const w = Math.max(1.2, (MAX_STROKE * e.grams) / Math.max(1, graph.totalG));
+  const label = `${titleOf(a.node)} → ${titleOf(b.node)}: ${kg(e.grams)} (${pct((e.grams * 100) / Math.max(1, graph.totalG), 1)})`;
+  if (a.col < b.col) {
+    const x1 = a.x + BOX_W;
+    const y1 = a.y + BOX_H / 2;
+    const x2 = b.x;
+    const y2 = b.y + BOX_H / 2;
+    const mid = (x1 + x2) / 2;
+    return (
+      <path className="graph-edge" d={`M${x1},${y1} C${mid},${y1} ${mid},${y2} ${x2},${y2}`} strokeWidth={w}>
+        <title>{label}</title>
+      </path>
+    );
+  }
+  // Against the stage order (recovered methanol back to its tank): under the boxes, dashed.
+  const x1 = a.x + BOX_W / 2;
+  const x2 = b.x + BOX_W / 2;
+  return (
+    <path
+      className="graph-edge graph-edge-back"
+      d={`M${x1},${a.y + BOX_H} C${x1},${laneY} ${x2},${laneY} ${x2},${b.y + BOX_H}`}
+      strokeWidth={w}
+    >
+      <title>{label}</title>
+    </path>
+  );
+}
+
+function GraphBox({ node, x, y, graph }: { node: GraphNode; x: number; y: number; graph: TraceGraph }) {
+  const cls = node.target
+    ? "graph-box graph-target"
+    : node.kind === "OTHERS"
+      ? "graph-box graph-others"
+      : `graph-box graph-${node.kind.toLowerCase().replace(/_/g, "-")}`;
+  const share = (node.grams * 100) / Math.max(1, graph.totalG);
+  return (
+    <g className={cls}>
+      <title>{`${titleOf(node)}: ${kg(node.grams)} (${pct(share, 2)})${node.folded > 0 ? `, ${node.folded} holders below ${graph.foldBelowPct} % each or beyond the largest per stage` : ""}`}</title>
+      <rect x={x} y={y} width={BOX_W} height={BOX_H} rx={4} />
+      <rect
+        className="graph-share"
+        x={x}
+        y={y + BOX_H - 4}
+        width={Math.max(1, (BOX_W * Math.min(100, share)) / 100)}
+        height={4}
+      />
+      <text x={x + 7} y={y + 16}>
+        {clip(titleOf(node), 21)}
+      </text>
+      <text className="graph-kg" x={x + 7} y={y + 31}>
+        {`${kg(node.grams, 0)} · ${pct(share, 1)}`}
+      </text>
+    </g>
   );
 }

@@ -3,6 +3,8 @@ import { labelOf } from "@/lib/core/vocabulary";
 import type { ContributionRow, LedgerFreshness } from "@/lib/trace/trace.service";
 import { CERTIFICATION_LABELS } from "@/lib/trace/trace.service";
 import { kg, kgExact, pct } from "@/app/_ui/format";
+import { DataTable } from "@/app/_ui/kit";
+import type { Column } from "@/app/_ui/kit";
 import { Note } from "@/app/_ui/ui";
 
 /** A pooled tank can go back to thousands of pickups; the page lists this many and the CSV all of them. */
@@ -34,6 +36,58 @@ function CertCell({ row }: { row: ContributionRow }) {
   return <span className={`status ${cls}`}>{CERTIFICATION_LABELS[row.certification]}</span>;
 }
 
+function contributionColumns(
+  first: string,
+  columns: ContributionColumns,
+  totals: { label: string; grams: number; pct: number } | null,
+): Array<Column<ContributionRow>> {
+  const cols: Array<Column<ContributionRow> | false> = [
+    {
+      key: "code",
+      header: first,
+      cell: (r) => (
+        <span className="nowrap">
+          <CodeCell row={r} columns={columns} />
+        </span>
+      ),
+      ...(totals ? { total: totals.label } : {}),
+    },
+    { key: "label", header: "Description", cell: (r) => r.label },
+    columns !== "plain" && {
+      key: "material",
+      header: "Material",
+      cell: (r) => (r.materialKind ? labelOf(r.materialKind) : "—"),
+    },
+    columns === "lot" && {
+      key: "lotCertified",
+      header: "Lot certified",
+      cell: (r) => (r.lotCertified === null ? "—" : r.lotCertified ? "Yes" : "No"),
+    },
+    columns === "pickup" && { key: "certification", header: "Certification", cell: (r) => <CertCell row={r} /> },
+    (columns === "source" || columns === "pickup") && {
+      key: "certificate",
+      header: "Source certificate",
+      cell: (r) => r.certificate ?? <span className="muted">none</span>,
+    },
+    { key: "origins", header: "Origins", numeric: true, cell: (r) => r.origins, ...(totals ? { total: "" } : {}) },
+    {
+      key: "mass",
+      header: "Mass",
+      numeric: true,
+      cell: (r) => kg(r.grams, 3),
+      ...(totals ? { total: kg(totals.grams, 3) } : {}),
+    },
+    {
+      key: "share",
+      header: "Share",
+      numeric: true,
+      cell: (r) => pct(r.pct, 2),
+      ...(totals ? { total: pct(totals.pct, 2) } : {}),
+    },
+  ];
+  return cols.filter((c): c is Column<ContributionRow> => c !== false);
+}
+
 /**
  * One contribution table with a total row. `shown` rows are on the page, up to MAX_ROWS_ON_PAGE more
  * open in a disclosure, and every row is in the CSV. The total is the whole table's, so it always adds up.
@@ -60,88 +114,34 @@ export function ContributionTable({
   const head = rows.slice(0, shown);
   const rest = rows.slice(shown, MAX_ROWS_ON_PAGE);
   const csvOnly = rows.length - head.length - rest.length;
-  const renderRows = (list: readonly ContributionRow[]) =>
-    list.map((r) => (
-      <tr key={r.key}>
-        <td className="nowrap">
-          <CodeCell row={r} columns={columns} />
-        </td>
-        <td>{r.label}</td>
-        {columns !== "plain" ? <td>{r.materialKind ? labelOf(r.materialKind) : "—"}</td> : null}
-        {columns === "lot" ? <td>{r.lotCertified === null ? "—" : r.lotCertified ? "Yes" : "No"}</td> : null}
-        {columns === "pickup" ? (
-          <td>
-            <CertCell row={r} />
-          </td>
-        ) : null}
-        {columns === "source" || columns === "pickup" ? (
-          <td>{r.certificate ?? <span className="muted">none</span>}</td>
-        ) : null}
-        <td className="num">{r.origins}</td>
-        <td className="num">{kg(r.grams, 3)}</td>
-        <td className="num">{pct(r.pct, 2)}</td>
-      </tr>
-    ));
-  const header = (
-    <thead>
-      <tr>
-        <th scope="col">{first}</th>
-        <th scope="col">Description</th>
-        {columns !== "plain" ? <th scope="col">Material</th> : null}
-        {columns === "lot" ? <th scope="col">Lot certified</th> : null}
-        {columns === "pickup" ? <th scope="col">Certification</th> : null}
-        {columns === "source" || columns === "pickup" ? <th scope="col">Source certificate</th> : null}
-        <th scope="col" className="num">
-          Origins
-        </th>
-        <th scope="col" className="num">
-          Mass
-        </th>
-        <th scope="col" className="num">
-          Share
-        </th>
-      </tr>
-    </thead>
-  );
-  const span =
-    2 +
-    (columns !== "plain" ? 1 : 0) +
-    (columns === "lot" ? 1 : 0) +
-    (columns === "pickup" ? 2 : 0) +
-    (columns === "source" ? 1 : 0) +
-    1;
+  const label = `Total${rows.length > head.length ? ` (all ${rows.length} rows)` : ""}`;
   return (
-    <div className="table-wrap">
-      <table>
-        <caption>
-          {caption}{" "}
-          <a href={csvHref} className="csv-link" download>
-            Download CSV
-          </a>
-        </caption>
-        {header}
-        <tbody>{renderRows(head)}</tbody>
-        <tfoot>
-          <tr>
-            <td colSpan={span}>Total{rows.length > head.length ? ` (all ${rows.length} rows)` : ""}</td>
-            <td className="num">{kg(totalG, 3)}</td>
-            <td className="num">{pct(totalPct, 2)}</td>
-          </tr>
-        </tfoot>
-      </table>
+    <>
+      <DataTable
+        caption={caption}
+        rows={head}
+        rowKey={(r) => r.key}
+        empty="Nothing traced."
+        csvHref={csvHref}
+        columns={contributionColumns(first, columns, { label, grams: totalG, pct: totalPct })}
+      />
       {rest.length > 0 ? (
         <details className="more-rows">
           <summary>
             {rest.length} more {rest.length === 1 ? "row" : "rows"} (smaller contributions)
             {csvOnly > 0 ? `; the ${csvOnly} smallest are in the CSV only` : ""}
           </summary>
-          <table>
-            {header}
-            <tbody>{renderRows(rest)}</tbody>
-          </table>
+          <DataTable
+            caption={`${caption}: smaller contributions`}
+            hideCaption
+            rows={rest}
+            rowKey={(r) => r.key}
+            empty="None."
+            columns={contributionColumns(first, columns, null)}
+          />
         </details>
       ) : null}
-    </div>
+    </>
   );
 }
 

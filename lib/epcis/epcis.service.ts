@@ -4,7 +4,7 @@ import { ok } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
 import { getBalanceReport } from "@/lib/mass-balance/balance.service";
-import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import { getUtcOffsetMin } from "@/lib/period/site-time";
 import type { SiteRow } from "@/lib/site/site.store";
 import { traceBackwardReport, traceForwardReport } from "@/lib/trace/trace.service";
 import { buildEpcisDocument } from "@/lib/epcis/epcis";

@@ -167,3 +167,8 @@ export async function listPickups(
     })),
   };
 }
+
+/** Pickups observed in [from, to). */
+export async function countPickupsBetween(db: Db, siteId: number, from: Date, to: Date): Promise<number> {
+  return db.pickup.count({ where: { siteId, observedAt: { gte: from, lt: to } } });
+}

@@ -4,13 +4,9 @@ import { invariant } from "@/lib/core/result";
 import { HOLDER_KINDS, MOVE_ROLES } from "@/lib/core/vocabulary";
 import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
 import type { TraceHolder, TraceMove } from "@/lib/ledger/moves";
+import type { HolderRef, TraceLedger } from "@/lib/ledger/holder-ref";
 
-/** A place that held material, as the pages name and link it. */
-export interface HolderRef {
-  id: number;
-  kind: HolderKind;
-  code: string;
-}
+export type { HolderRef, TraceLedger } from "@/lib/ledger/holder-ref";
 
 export interface MovementView {
   id: number;
@@ -154,18 +150,6 @@ export async function getHolderRef(
     select: { ...HOLDER_SELECT, stockG: true },
   });
   return h ? { ...toRef(h), stockG: h.stockG } : null;
-}
-
-export interface TraceLedger {
-  holders: TraceHolder[];
-  moves: TraceMove[];
-  /** Every holder of the site by id, to name the trace's answers. */
-  refs: ReadonlyMap<number, HolderRef>;
-  /** Movements left out of the trace because they are reversed pairs (a booking error and its correction). */
-  reversedPairsLeftOut: number;
-  /** Movement rows read, reversed pairs included, and the highest id among them: where extendTraceLedger resumes. */
-  rowsRead: number;
-  lastMoveId: number;
 }
 
 /** Ids of every movement that reverses another or is reversed: a booking error and its correction, left out as a pair. */

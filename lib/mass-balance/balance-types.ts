@@ -46,3 +46,127 @@ export interface Closure {
   pct: number | null;
   flag: ClosureFlag;
 }
+
+/** A holder as the balance page names it. */
+export interface BalanceHolderRef {
+  id: number;
+  kind: HolderKind;
+  code: string;
+  materialKind: string | null;
+}
+
+export interface BalanceLedger {
+  holders: BalanceHolder[];
+  /**
+   * Every movement except reversed pairs: a booking made by mistake and its reversal (same instant, so
+   * stock at any time is the same either way) are left out, as in traces and the chain of custody, so
+   * a charge taken back is neither an input nor an output of its batch.
+   */
+  moves: BalanceMove[];
+  refs: Map<number, BalanceHolderRef>;
+}
+
+export interface AccountingPeriodView {
+  id: number;
+  startsAt: Date;
+  endsAt: Date;
+  status: string;
+  closedAt: Date | null;
+  closedBy: string | null;
+}
+
+export interface PeriodEventView {
+  id: number;
+  periodId: number;
+  periodStartsAt: Date;
+  periodEndsAt: Date;
+  action: string;
+  reason: string;
+  by: string;
+  at: Date;
+}
+
+/** STOCK holders hold material on site; OUT holders are where material leaves the books (cumulative). */
+export type HolderClass = "STOCK" | "OUT";
+
+export interface BalanceScope {
+  siteId: number;
+  /** Only stock holders carrying this material kind are in scope. */
+  materialKind?: string;
+  holderClasses?: Readonly<Record<HolderKind, HolderClass>>;
+}
+
+export interface RoleFlow {
+  /** Entered the scope's stock (receipts, transfers in, returns). */
+  inG: number;
+  /** Left the scope's stock (outputs, transfers out). */
+  outG: number;
+  /** Moved between holders inside the scope. */
+  internalG: number;
+}
+
+export interface HolderStock {
+  holderId: number;
+  kind: HolderKind;
+  openingG: number;
+  closingG: number;
+}
+
+export interface NegativeStock {
+  holderId: number;
+  at: number;
+  moveId: number;
+  balanceG: number;
+}
+
+export interface StockView {
+  openingG: number;
+  receipts: { totalG: number; feedstockG: number; reagentG: number; otherG: number; unmeasuredG: number };
+  /** From stock holders outside the scope (another site or material kind). */
+  transfersInG: number;
+  /** From OUT holders back into stock (e.g. a returned shipment). */
+  returnsG: number;
+  outputs: { totalG: number; shipmentG: number; disposalG: number; lossG: number; unmeasuredG: number; otherG: number };
+  transfersOutG: number;
+  closingG: number;
+  deltaStockG: number;
+  /** opening + receipts + transfers in + returns − outputs − transfers out − closing; 0 when every movement is recorded. */
+  imbalanceG: number;
+  closure: Closure;
+  byRole: Record<MoveRole, RoleFlow>;
+  /** In-scope holders with stock at the start or the end of the period (every other one is empty at both ends). */
+  byHolder: HolderStock[];
+  /** Holders whose book stock dropped below zero at some movement up to the period end: a movement in is missing. */
+  negativeStock: NegativeStock[];
+}
+
+export interface BatchBalance {
+  holderId: number;
+  completedAt: number | null;
+  /** Charges (oil and reagents); an unmeasured gain is not an input. */
+  inputsG: number;
+  /** Measured outputs and recorded losses; the booked unmeasured difference is not an output. */
+  outputsG: number;
+  /** inputs − measured outputs: the unmeasured difference of a finished batch, still held for one in progress. */
+  imbalanceG: number;
+  /** The unmeasured difference as booked (out to the site's difference account, less any unmeasured gain). */
+  unmeasuredG: number;
+  inputsByRole: Partial<Record<MoveRole, number>>;
+  outputsByRole: Partial<Record<MoveRole, number>>;
+  /** Roles other than the usual batch input/output roles that touched the batch. */
+  unusualRoles: MoveRole[];
+  closure: Closure;
+}
+
+export interface ProcessView {
+  /** Batches finished inside the period, with all their movements up to the period end. */
+  completed: BatchBalance[];
+  /** Batches with movements before the period end and not finished by then (not flagged). */
+  inProgress: BatchBalance[];
+  inputsG: number;
+  outputsG: number;
+  imbalanceG: number;
+  inputsByRole: Partial<Record<MoveRole, number>>;
+  outputsByRole: Partial<Record<MoveRole, number>>;
+  closure: Closure;
+}

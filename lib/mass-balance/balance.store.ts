@@ -2,9 +2,22 @@ import "server-only";
 import type { Db } from "@/lib/core/connect";
 import { invariant } from "@/lib/core/result";
 import { MOVE_ROLES } from "@/lib/core/vocabulary";
-import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
+import type { MoveRole } from "@/lib/core/vocabulary";
 import { findReversedPairs, toHolderKind } from "@/lib/ledger/movement.store";
-import type { BalanceHolder, BalanceMove, GaugeReading } from "@/lib/mass-balance/period-balance";
+import type { BalanceHolder, GaugeReading } from "@/lib/mass-balance/period-balance";
+import type {
+  AccountingPeriodView,
+  BalanceHolderRef,
+  BalanceLedger,
+  PeriodEventView,
+} from "@/lib/mass-balance/balance-types";
+
+export type {
+  AccountingPeriodView,
+  BalanceHolderRef,
+  BalanceLedger,
+  PeriodEventView,
+} from "@/lib/mass-balance/balance-types";
 
 /**
  * The material a holder carries, for a balance per material kind: feedstock lots and pickups by their
@@ -18,24 +31,6 @@ export const TANK_MATERIAL: Readonly<Record<string, string>> = {
   GLYCEROL_PHASE: "GLYCEROL_PHASE",
   WASH_WATER: "WASH_WATER",
 };
-
-export interface BalanceHolderRef {
-  id: number;
-  kind: HolderKind;
-  code: string;
-  materialKind: string | null;
-}
-
-export interface BalanceLedger {
-  holders: BalanceHolder[];
-  /**
-   * Every movement except reversed pairs: a booking made by mistake and its reversal (same instant, so
-   * stock at any time is the same either way) are left out, as in traces and the chain of custody, so
-   * a charge taken back is neither an input nor an output of its batch.
-   */
-  moves: BalanceMove[];
-  refs: Map<number, BalanceHolderRef>;
-}
 
 const ROLE_SET: ReadonlySet<string> = new Set(MOVE_ROLES);
 
@@ -123,15 +118,6 @@ export async function listLatestGauges(db: Db, siteId: number, atOrBefore: Date)
   });
 }
 
-export interface AccountingPeriodView {
-  id: number;
-  startsAt: Date;
-  endsAt: Date;
-  status: string;
-  closedAt: Date | null;
-  closedBy: string | null;
-}
-
 /** The accounting period with exactly these bounds, if the site keeps one. */
 export async function getAccountingPeriodExact(
   db: Db,
@@ -153,17 +139,6 @@ export async function getAccountingPeriodExact(
         closedBy: p.closedBy?.fullName ?? null,
       }
     : null;
-}
-
-export interface PeriodEventView {
-  id: number;
-  periodId: number;
-  periodStartsAt: Date;
-  periodEndsAt: Date;
-  action: string;
-  reason: string;
-  by: string;
-  at: Date;
 }
 
 /** Closes and reopens, newest first; one period's or the whole site's. */

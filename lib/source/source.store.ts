@@ -96,3 +96,7 @@ export async function listSources(db: Db, siteId: number): Promise<SourceRow[]> 
     lastPickupAt: r.pickups[0]?.observedAt ?? null,
   }));
 }
+
+export async function countSources(db: Db, siteId: number): Promise<number> {
+  return db.source.count({ where: { siteId } });
+}

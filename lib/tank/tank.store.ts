@@ -3,6 +3,8 @@ import type { Db, Tx } from "@/lib/core/connect";
 import { reject } from "@/lib/ledger/transaction.store";
 import { densityAt, DEFAULT_DENSITY_TABLE, MATERIAL_KINDS, requireDensityEntry } from "@/lib/quantity/density";
 import type { MaterialKind as DensityMaterial } from "@/lib/quantity/density";
+import { toTankLevel } from "@/lib/tank/tank-level";
+import type { FillLevel } from "@/lib/tank/tank-level";
 
 export interface TankRow {
   id: number;
@@ -38,6 +40,13 @@ export async function listTanks(db: Db, siteId: number): Promise<TankRow[]> {
     stockG: r.holder.stockG,
     lastGauge: r.gauges[0] ?? null,
   }));
+}
+
+/** A tank with its book stock as a fill level of its nominal material. */
+export type TankLevel = TankRow & FillLevel;
+
+export async function listTankLevels(db: Db, siteId: number): Promise<TankLevel[]> {
+  return (await listTanks(db, siteId)).map(toTankLevel);
 }
 
 /** The material whose density turns a tank's volume capacity into a mass capacity. */

@@ -13,6 +13,7 @@ import type { CompositionParts } from "@/lib/trace/composition";
 import { findLastPositionAtOrBefore } from "@/lib/ledger/moves";
 import type { HolderKind, LedgerIndex, TraceIssue, TraceMove } from "@/lib/ledger/moves";
 import { createReplay, restoreReplay } from "@/lib/trace/replay";
+import { collectAncestorMoves, findAncestorHorizons, lowerBound, replaySubgraph } from "@/lib/trace/ancestors";
 import type { Replay, ReplayPosition, ReplaySnapshot } from "@/lib/trace/replay";
 
 export interface OriginShare {
@@ -176,6 +177,49 @@ export function traceMove(
   return ok(describeComposition(carried));
 }
 
+/** Issues for ids that are not entry moves (moves with no source holder) of the ledger. */
+function checkOrigins(index: LedgerIndex, originIds: readonly number[]): TraceIssue[] {
+  return originIds.flatMap((id) => {
+    const pos = index.positionOf.get(id);
+    const m = pos === undefined ? undefined : index.moves[pos];
+    return m === undefined || m.fromHolderId !== null
+      ? [
+          {
+            code: "TRACE.UNKNOWN_ORIGIN",
+            message: `Origin ${id} is not an entry move (a move with no source holder) of this ledger.`,
+            field: "originIds",
+            moveId: id,
+          },
+        ]
+      : [];
+  });
+}
+
+function massOf(index: LedgerIndex, moveId: number): number {
+  const pos = index.positionOf.get(moveId);
+  return pos === undefined ? 0 : (index.moves[pos]?.massG ?? 0);
+}
+
+/** The holders' grams of the set as counted from the moves (Σ in − Σ out), those above zero. */
+function positiveHeld(held: ReadonlyMap<number, number>): Map<number, number> {
+  const heldBy = new Map<number, number>();
+  for (const [h, g] of held) {
+    invariant(g >= 0, `holder ${h} gave more of the traced origins than it received`);
+    if (g > 0) heldBy.set(h, g);
+  }
+  return heldBy;
+}
+
+/** The holders' grams of the set as the replay's mixtures hold them. */
+function heldInReplay(replay: Replay, set: ReadonlySet<number>): Map<number, number> {
+  const heldBy = new Map<number, number>();
+  for (const h of replay.listStockedHolderIds()) {
+    const g = sumPartsOf(replay.getComposition(h), set);
+    if (g > 0) heldBy.set(h, g);
+  }
+  return heldBy;
+}
+
 /**
  * Forward trace: where the material of an origin set went. Origins of a pickup or delivery come from
  * findEntryOrigins; origins of a lot are the origin ids of traceHolder(lot).received.
@@ -187,19 +231,7 @@ export function traceForward(
   originIds: readonly number[],
   options: TraceOptions = {},
 ): Result<ForwardTrace> {
-  const issues: TraceIssue[] = [];
-  for (const id of originIds) {
-    const pos = index.positionOf.get(id);
-    const m = pos === undefined ? undefined : index.moves[pos];
-    if (m === undefined || m.fromHolderId !== null) {
-      issues.push({
-        code: "TRACE.UNKNOWN_ORIGIN",
-        message: `Origin ${id} is not an entry move (a move with no source holder) of this ledger.`,
-        field: "originIds",
-        moveId: id,
-      });
-    }
-  }
+  const issues = checkOrigins(index, originIds);
   if (issues.length > 0) return failMany(issues);
   const set = new Set(originIds);
   const target = findLastPositionAtOrBefore(index, options.at ?? Number.POSITIVE_INFINITY);
@@ -250,24 +282,11 @@ export function traceForward(
   if (!replayed.ok) return replayed;
   const replay = replayed.value;
   const movesReplayed = replay.appliedCount - (from?.applied.count ?? 0);
-  const heldBy = new Map<number, number>();
-  if (tracksHeld) {
-    for (const [h, g] of held) {
-      invariant(g >= 0, `holder ${h} gave more of the traced origins than it received`);
-      if (g > 0) heldBy.set(h, g);
-    }
-  } else {
-    for (const h of replay.listStockedHolderIds()) {
-      const g = sumPartsOf(replay.getComposition(h), set);
-      if (g > 0) heldBy.set(h, g);
-    }
-  }
+  const heldBy = tracksHeld ? positiveHeld(held) : heldInReplay(replay, set);
   const holderIds = [...new Set([...receivedBy.keys(), ...heldBy.keys()])].sort((a, b) => a - b);
   let enteredG = 0;
-  for (const id of set) {
-    const pos = index.positionOf.get(id) ?? Number.POSITIVE_INFINITY;
-    if (pos <= target) enteredG += index.moves[pos]?.massG ?? 0;
-  }
+  for (const id of set)
+    enteredG += (index.positionOf.get(id) ?? Number.POSITIVE_INFINITY) <= target ? massOf(index, id) : 0;
   const last = index.moves[target];
   return ok({
     originIds: [...set].sort((a, b) => a - b),
@@ -332,79 +351,4 @@ function pickSnapshot(from: ReplaySnapshot | undefined, lastPosition: number): R
 
 function startReplay(index: LedgerIndex, from: ReplaySnapshot | undefined, only?: ReadonlySet<number>): Result<Replay> {
   return from === undefined ? ok(createReplay(index.holders)) : resumeReplay(index, from, only);
-}
-
-/**
- * For each ancestor holder, the last ledger position up to which its state matters. Horizons only grow,
- * and each holder's incoming list is walked once overall, so this is O(ancestor moves).
- */
-function findAncestorHorizons(
-  index: LedgerIndex,
-  holderId: number,
-  horizon: number,
-  start: number,
-): Map<number, number> {
-  const horizons = new Map<number, number>();
-  const walked = new Map<number, number>();
-  const work: number[] = [];
-  const raise = (h: number, pos: number) => {
-    if ((horizons.get(h) ?? -1) < pos) {
-      horizons.set(h, pos);
-      work.push(h);
-    }
-  };
-  if (horizon >= start) raise(holderId, horizon);
-  for (let h = work.pop(); h !== undefined; h = work.pop()) {
-    const list = index.into.get(h) ?? [];
-    const limit = horizons.get(h) ?? -1;
-    let i = walked.get(h) ?? lowerBound(list, start);
-    for (let pos = list[i]; pos !== undefined && pos <= limit; pos = list[++i]) {
-      const from = index.moves[pos]?.fromHolderId ?? null;
-      if (from !== null) raise(from, pos);
-    }
-    walked.set(h, i);
-  }
-  return horizons;
-}
-
-function collectAncestorMoves(index: LedgerIndex, horizons: ReadonlyMap<number, number>, start: number): number[] {
-  const positions: number[] = [];
-  for (const [h, limit] of horizons) {
-    for (const list of [index.into.get(h) ?? [], index.outOf.get(h) ?? []]) {
-      for (let i = lowerBound(list, start), pos = list[i]; pos !== undefined && pos <= limit; pos = list[++i]) {
-        positions.push(pos);
-      }
-    }
-  }
-  positions.sort((a, b) => a - b);
-  return positions.filter((pos, i) => i === 0 || pos !== positions[i - 1]);
-}
-
-function replaySubgraph(
-  index: LedgerIndex,
-  replay: Replay,
-  positions: readonly number[],
-  horizons: ReadonlyMap<number, number>,
-  onMove: (move: TraceMove, parts: CompositionParts) => void,
-): Result<void> {
-  for (const pos of positions) {
-    const move = index.moves[pos];
-    if (move === undefined) continue;
-    const destinationNeeded = pos <= (horizons.get(move.toHolderId) ?? -1);
-    const applied = destinationNeeded ? replay.apply(move) : replay.withdraw(move);
-    if (!applied.ok) return applied;
-    onMove(move, applied.value);
-  }
-  return ok(undefined);
-}
-
-function lowerBound(list: readonly number[], value: number): number {
-  let lo = 0;
-  let hi = list.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >>> 1;
-    if ((list[mid] ?? value) < value) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
 }

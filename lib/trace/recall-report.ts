@@ -22,8 +22,10 @@ function table(key: RecallTable, heading: string, t: Omit<ReportTable, "key" | "
   return { key, heading, ...t };
 }
 
-export function buildRecallDoc(r: RecallReport, ctx: ReportContext, opts: { withCustomers: boolean }): ReportDoc {
-  const total = (label: string, n: number) => [label, ...Array<null>(n)];
+const total = (label: string, n: number) => [label, ...Array<null>(n)];
+
+/** Who the material reached: customers and the shipments that carried it. */
+function customerTables(r: RecallReport, opts: { withCustomers: boolean }): [ReportTable, ReportTable] {
   const customers = table("customers", "Customers reached", {
     columns: [
       { key: "customer", header: "Customer", kind: "text" },
@@ -64,6 +66,11 @@ export function buildRecallDoc(r: RecallReport, ctx: ReportContext, opts: { with
     total: [...total("TOTAL", opts.withCustomers ? 2 : 1), r.shippedG, r.shipments.reduce((s, h) => s + h.pct, 0)],
     empty: "Nothing of it has been shipped.",
   });
+  return [customers, shipments];
+}
+
+/** Where the material is: product lots reached, what is still on site, every place reached. */
+function placeTables(r: RecallReport): ReportTable[] {
   const lots = table("product-lots", "Product lots reached", {
     columns: [
       { key: "product_lot", header: "Product lot", kind: "holder" },
@@ -134,6 +141,11 @@ export function buildRecallDoc(r: RecallReport, ctx: ReportContext, opts: { with
     total: ["TOTAL", null, null, null, r.holders.reduce((s, h) => s + h.heldG, 0), null, null],
     empty: "The material has not moved anywhere.",
   });
+  return [lots, onSite, reached];
+}
+
+export function buildRecallDoc(r: RecallReport, ctx: ReportContext, opts: { withCustomers: boolean }): ReportDoc {
+  const [customers, shipments] = customerTables(r, opts);
   return {
     slug: "recall",
     title: "Recall: where the material went",
@@ -156,7 +168,7 @@ export function buildRecallDoc(r: RecallReport, ctx: ReportContext, opts: { with
         : ["Customers are left out of this copy (the reader's role does not see customers)."]),
     ],
     cautions: [],
-    tables: [...(opts.withCustomers ? [customers] : []), shipments, lots, onSite, reached],
+    tables: [...(opts.withCustomers ? [customers] : []), shipments, ...placeTables(r)],
   };
 }
 

@@ -2,7 +2,7 @@ import "server-only";
 // Recall answers: from a source (pickups observed within a window), a pickup, a lot, a tank (what moved
 // into it within a window), a batch or a product lot, every product lot, shipment and customer the
 // material reached, with grams and share, and what is still on site to hold. Runs on the site's cached
-// trace index (lib/trace/trace.service) and its monthly snapshots; the seeding is lib/trace/recall.ts.
+// trace index (lib/trace/trace-cache.service) and its monthly snapshots; the seeding is lib/trace/recall.ts.
 import type { Db } from "@/lib/core/connect";
 import { fail, failMany, ok } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
@@ -20,13 +20,43 @@ import type { RecallHolderRow, RecallReport } from "@/lib/trace/recall";
 import { RecallHoldSchema, RecallQuerySchema } from "@/lib/trace/recall.schema";
 import type { RecallKind } from "@/lib/trace/recall.schema";
 import { getHolderSubject, getSourceSubject } from "@/lib/trace/trace.store";
-import { renameIssues, requireLedgerState, snapshotCovering, stageLabelOf, stageOf } from "@/lib/trace/trace.service";
-import type { LedgerState } from "@/lib/trace/trace.service";
+import { renameIssues, snapshotCovering } from "@/lib/trace/ledger-state";
+import type { LedgerState } from "@/lib/trace/ledger-state";
+import { stageLabelOf, stageOf } from "@/lib/trace/trace-answers";
+import { requireLedgerState } from "@/lib/trace/trace-cache.service";
 
 const LEFT_THE_BOOKS = new Set(["SHIPMENT", "DISPOSAL", "LOSS"]);
 
 async function resolveSubject(db: Db, siteId: number, kind: RecallKind, code: string) {
   return kind === "SOURCE" ? getSourceSubject(db, siteId, code) : getHolderSubject(db, siteId, kind, code);
+}
+
+/** The rows a recall reached, with each product lot's standing and, for readers who may see them, each shipment's customer. */
+async function describeReached(db: Db, siteId: number, rows: readonly FlowRow[], withCustomers: boolean) {
+  const ids = rows.map((r) => r.holder.id);
+  const [standings, customers] = await Promise.all([
+    listProductLotStandings(
+      db,
+      siteId,
+      ids.filter((_, i) => rows[i]?.holder.kind === "PRODUCT_LOT"),
+    ),
+    withCustomers
+      ? listShipmentCustomers(
+          db,
+          siteId,
+          ids.filter((_, i) => rows[i]?.holder.kind === "SHIPMENT"),
+        )
+      : Promise.resolve(new Map<number, ShipmentCustomer>()),
+  ]);
+  const holders = rows.map((r) => {
+    const s = standings.get(r.holder.id);
+    return {
+      ...r,
+      customer: customers.get(r.holder.id) ?? null,
+      standing: s ? { status: s.status, reason: s.decisionReason } : null,
+    };
+  });
+  return { holders, customers };
 }
 
 /** Where the material went; customers only for readers who may see them (not production). */
@@ -52,30 +82,7 @@ export async function recallReport(
   const state = stateR.value;
   const flow = followSeeds(state, subject.holderIds, q.from?.getTime() ?? null, q.to?.getTime() ?? null);
   if (!flow.ok) return flow;
-  const rows = flow.value.rows;
-  const ids = rows.map((r) => r.holder.id);
-  const [standings, customers] = await Promise.all([
-    listProductLotStandings(
-      db,
-      siteId,
-      ids.filter((_, i) => rows[i]?.holder.kind === "PRODUCT_LOT"),
-    ),
-    opts.withCustomers
-      ? listShipmentCustomers(
-          db,
-          siteId,
-          ids.filter((_, i) => rows[i]?.holder.kind === "SHIPMENT"),
-        )
-      : Promise.resolve(new Map<number, ShipmentCustomer>()),
-  ]);
-  const holders = rows.map((r) => {
-    const s = standings.get(r.holder.id);
-    return {
-      ...r,
-      customer: customers.get(r.holder.id) ?? null,
-      standing: s ? { status: s.status, reason: s.decisionReason } : null,
-    };
-  });
+  const { holders, customers } = await describeReached(db, siteId, flow.value.rows, opts.withCustomers);
   const tracedG = flow.value.tracedG;
   const shipments = holders.filter((h) => h.holder.kind === "SHIPMENT");
   const onSite = holders.filter((h) => h.heldG > 0 && !LEFT_THE_BOOKS.has(h.holder.kind));

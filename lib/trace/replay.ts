@@ -146,103 +146,144 @@ export function restoreReplay(
   return ok(buildReplay(holders, states, { ...snapshot.applied }, only === undefined ? leftOut : new Set()));
 }
 
+interface ReplayContext {
+  holders: ReadonlyMap<number, TraceHolder>;
+  states: Map<number, HolderState>;
+  applied: { count: number; massSumG: number; last: ReplayPosition | null };
+  /** Holders whose mixture the restored snapshot did not carry: reading one is a programming error, not a zero. */
+  unknown: ReadonlySet<number>;
+}
+
+function requireState(ctx: ReplayContext, holderId: number): HolderState {
+  let s = ctx.states.get(holderId);
+  if (s === undefined) {
+    s = { mixing: ctx.holders.get(holderId)?.mixing ?? "MIXED", totalG: 0, layers: [], head: 0 };
+    ctx.states.set(holderId, s);
+  }
+  return s;
+}
+
+function checkNext(ctx: ReplayContext, move: TraceMove): Result<void> {
+  const issues = checkMove(move, ctx.holders);
+  if (issues.length > 0) return failMany(issues);
+  const last = ctx.applied.last;
+  if (last !== null && compareMoves(move, { at: last.at, id: last.moveId }) <= 0) {
+    const issue: TraceIssue = {
+      code: "TRACE.OUT_OF_ORDER",
+      message: `Move ${move.id} (at ${move.at}) is not after the last applied move ${last.moveId} (at ${last.at}); replay moves in ledger order.`,
+      field: formatMoveField(move.id, "at"),
+      moveId: move.id,
+    };
+    return failMany([issue]);
+  }
+  if (move.fromHolderId !== null) {
+    const held = ctx.states.get(move.fromHolderId)?.totalG ?? 0;
+    if (held < move.massG) {
+      const issue: TraceIssue = {
+        code: "TRACE.OVERDRAW",
+        message: `Move ${move.id} draws ${move.massG} g from holder ${move.fromHolderId}, which holds ${held} g at that time (short by ${move.massG - held} g).`,
+        field: formatMoveField(move.id, "massG"),
+        moveId: move.id,
+        holderId: move.fromHolderId,
+        shortfallG: move.massG - held,
+      };
+      return failMany([issue]);
+    }
+  }
+  return ok(undefined);
+}
+
+function take(ctx: ReplayContext, holderId: number, massG: number): CompositionParts {
+  const s = requireState(ctx, holderId);
+  s.totalG -= massG;
+  if (s.mixing === "MIXED") {
+    const layer = s.layers[0];
+    if (layer === undefined) return EMPTY_PARTS;
+    const taken = takeFromLayer(layer, massG);
+    if (layer.totalG === 0) s.layers = [];
+    return taken;
+  }
+  const pieces: CompositionParts[] = [];
+  let left = massG;
+  for (let layer = s.layers[s.head]; layer !== undefined && left > 0; layer = s.layers[s.head]) {
+    const piece = Math.min(left, layer.totalG);
+    pieces.push(takeFromLayer(layer, piece));
+    left -= piece;
+    if (layer.totalG === 0) s.head++;
+  }
+  if (s.head >= COMPACT_AFTER && s.head * 2 >= s.layers.length) {
+    s.layers = s.layers.slice(s.head);
+    s.head = 0;
+  }
+  return mergeAllParts(pieces);
+}
+
+function put(ctx: ReplayContext, holderId: number, parts: CompositionParts, massG: number, moveId: number): void {
+  const s = requireState(ctx, holderId);
+  s.totalG += massG;
+  const pool = s.mixing === "MIXED" ? s.layers[0] : undefined;
+  if (pool === undefined) s.layers.push({ enteredByMoveId: moveId, ...copyToLayer(parts) });
+  else addToLayer(pool, parts);
+}
+
+/** Checks a move, takes its material from its holder (or makes it an origin) and counts it applied. */
+function leave(ctx: ReplayContext, move: TraceMove): Result<CompositionParts> {
+  const checked = checkNext(ctx, move);
+  if (!checked.ok) return checked;
+  const parts =
+    move.fromHolderId === null
+      ? { originIds: [move.id], grams: [move.massG] }
+      : take(ctx, move.fromHolderId, move.massG);
+  ctx.applied.count += 1;
+  ctx.applied.massSumG += move.massG;
+  ctx.applied.last = { moveId: move.id, at: move.at };
+  return ok(parts);
+}
+
+function liveLayers(s: HolderState): Layer[] {
+  const live = s.layers.slice(s.head);
+  for (const l of live) settleLayer(l);
+  return live;
+}
+
+function snapshotOf(ctx: ReplayContext, leaveOut: ((holderId: number) => boolean) | undefined): ReplaySnapshot {
+  const { states, unknown, applied } = ctx;
+  const leftOut = [...states]
+    .filter(([holderId, s]) => s.totalG > 0 && leaveOut?.(holderId) === true)
+    .map(([holderId]) => holderId);
+  for (const id of unknown) if (!leftOut.includes(id)) leftOut.push(id);
+  return {
+    format: REPLAY_SNAPSHOT_FORMAT,
+    ...(leftOut.length > 0 ? { leftOut: leftOut.sort((a, b) => a - b) } : {}),
+    applied: {
+      count: applied.count,
+      massSumG: applied.massSumG,
+      last: applied.last === null ? null : { ...applied.last },
+    },
+    holders: [...states]
+      .filter(([holderId, s]) => s.totalG > 0 && leaveOut?.(holderId) !== true && !unknown.has(holderId))
+      .sort((a, b) => a[0] - b[0])
+      .map(([holderId, s]) => ({
+        holderId,
+        mixing: s.mixing,
+        layers: liveLayers(s).map((l) => ({
+          enteredByMoveId: l.enteredByMoveId,
+          originIds: [...l.originIds],
+          grams: [...l.grams],
+        })),
+      })),
+  };
+}
+
 function buildReplay(
   holders: ReadonlyMap<number, TraceHolder>,
   states: Map<number, HolderState>,
   applied: { count: number; massSumG: number; last: ReplayPosition | null },
   unknown: ReadonlySet<number> = new Set(),
 ): Replay {
-  /** Holders whose mixture the restored snapshot did not carry: reading one is a programming error, not a zero. */
+  const ctx: ReplayContext = { holders, states, applied, unknown };
   const known = (holderId: number): void =>
     invariant(!unknown.has(holderId), `holder ${holderId} was left out of the snapshot this replay resumed`);
-  const stateOf = (holderId: number): HolderState | undefined => states.get(holderId);
-
-  const requireState = (holderId: number): HolderState => {
-    let s = states.get(holderId);
-    if (s === undefined) {
-      s = { mixing: holders.get(holderId)?.mixing ?? "MIXED", totalG: 0, layers: [], head: 0 };
-      states.set(holderId, s);
-    }
-    return s;
-  };
-
-  const check = (move: TraceMove): Result<void> => {
-    const issues = checkMove(move, holders);
-    if (issues.length > 0) return failMany(issues);
-    if (applied.last !== null && compareMoves(move, { at: applied.last.at, id: applied.last.moveId }) <= 0) {
-      const issue: TraceIssue = {
-        code: "TRACE.OUT_OF_ORDER",
-        message: `Move ${move.id} (at ${move.at}) is not after the last applied move ${applied.last.moveId} (at ${applied.last.at}); replay moves in ledger order.`,
-        field: formatMoveField(move.id, "at"),
-        moveId: move.id,
-      };
-      return failMany([issue]);
-    }
-    if (move.fromHolderId !== null) {
-      const held = stateOf(move.fromHolderId)?.totalG ?? 0;
-      if (held < move.massG) {
-        const issue: TraceIssue = {
-          code: "TRACE.OVERDRAW",
-          message: `Move ${move.id} draws ${move.massG} g from holder ${move.fromHolderId}, which holds ${held} g at that time (short by ${move.massG - held} g).`,
-          field: formatMoveField(move.id, "massG"),
-          moveId: move.id,
-          holderId: move.fromHolderId,
-          shortfallG: move.massG - held,
-        };
-        return failMany([issue]);
-      }
-    }
-    return ok(undefined);
-  };
-
-  const take = (holderId: number, massG: number): CompositionParts => {
-    const s = requireState(holderId);
-    s.totalG -= massG;
-    if (s.mixing === "MIXED") {
-      const layer = s.layers[0];
-      if (layer === undefined) return EMPTY_PARTS;
-      const taken = takeFromLayer(layer, massG);
-      if (layer.totalG === 0) s.layers = [];
-      return taken;
-    }
-    const pieces: CompositionParts[] = [];
-    let left = massG;
-    for (let layer = s.layers[s.head]; layer !== undefined && left > 0; layer = s.layers[s.head]) {
-      const piece = Math.min(left, layer.totalG);
-      pieces.push(takeFromLayer(layer, piece));
-      left -= piece;
-      if (layer.totalG === 0) s.head++;
-    }
-    if (s.head >= COMPACT_AFTER && s.head * 2 >= s.layers.length) {
-      s.layers = s.layers.slice(s.head);
-      s.head = 0;
-    }
-    return mergeAllParts(pieces);
-  };
-
-  const put = (holderId: number, parts: CompositionParts, massG: number, moveId: number): void => {
-    const s = requireState(holderId);
-    s.totalG += massG;
-    const pool = s.mixing === "MIXED" ? s.layers[0] : undefined;
-    if (pool === undefined) s.layers.push({ enteredByMoveId: moveId, ...copyToLayer(parts) });
-    else addToLayer(pool, parts);
-  };
-
-  const advance = (move: TraceMove): void => {
-    applied.count += 1;
-    applied.massSumG += move.massG;
-    applied.last = { moveId: move.id, at: move.at };
-  };
-
-  const leave = (move: TraceMove): CompositionParts =>
-    move.fromHolderId === null ? { originIds: [move.id], grams: [move.massG] } : take(move.fromHolderId, move.massG);
-
-  const liveLayers = (s: HolderState): Layer[] => {
-    const live = s.layers.slice(s.head);
-    for (const l of live) settleLayer(l);
-    return live;
-  };
-
   return {
     get position() {
       return applied.last === null ? null : { ...applied.last };
@@ -251,34 +292,27 @@ function buildReplay(
       return applied.count;
     },
     apply(move) {
-      const checked = check(move);
-      if (!checked.ok) return checked;
-      const parts = leave(move);
-      put(move.toHolderId, parts, move.massG, move.id);
-      advance(move);
-      return ok(parts);
+      const parts = leave(ctx, move);
+      if (parts.ok) put(ctx, move.toHolderId, parts.value, move.massG, move.id);
+      return parts;
     },
     withdraw(move) {
-      const checked = check(move);
-      if (!checked.ok) return checked;
-      const parts = leave(move);
-      advance(move);
-      return ok(parts);
+      return leave(ctx, move);
     },
     getStockG(holderId) {
       known(holderId);
-      return stateOf(holderId)?.totalG ?? 0;
+      return states.get(holderId)?.totalG ?? 0;
     },
     getComposition(holderId) {
       known(holderId);
-      const s = stateOf(holderId);
+      const s = states.get(holderId);
       if (s === undefined) return EMPTY_PARTS;
       const merged = mergeAllParts(liveLayers(s));
       return { originIds: [...merged.originIds], grams: [...merged.grams] };
     },
     getLayers(holderId) {
       known(holderId);
-      const s = stateOf(holderId);
+      const s = states.get(holderId);
       return s === undefined
         ? []
         : liveLayers(s).map((l) => ({
@@ -293,31 +327,7 @@ function buildReplay(
         .sort((a, b) => a - b);
     },
     snapshot(leaveOut) {
-      const leftOut = [...states]
-        .filter(([holderId, s]) => s.totalG > 0 && leaveOut?.(holderId) === true)
-        .map(([holderId]) => holderId);
-      for (const id of unknown) if (!leftOut.includes(id)) leftOut.push(id);
-      return {
-        format: REPLAY_SNAPSHOT_FORMAT,
-        ...(leftOut.length > 0 ? { leftOut: leftOut.sort((a, b) => a - b) } : {}),
-        applied: {
-          count: applied.count,
-          massSumG: applied.massSumG,
-          last: applied.last === null ? null : { ...applied.last },
-        },
-        holders: [...states]
-          .filter(([holderId, s]) => s.totalG > 0 && leaveOut?.(holderId) !== true && !unknown.has(holderId))
-          .sort((a, b) => a[0] - b[0])
-          .map(([holderId, s]) => ({
-            holderId,
-            mixing: s.mixing,
-            layers: liveLayers(s).map((l) => ({
-              enteredByMoveId: l.enteredByMoveId,
-              originIds: [...l.originIds],
-              grams: [...l.grams],
-            })),
-          })),
-      };
+      return snapshotOf(ctx, leaveOut);
     },
   };
 }

@@ -2,52 +2,13 @@ import "server-only";
 import type { Db } from "@/lib/core/connect";
 import type { HolderKind } from "@/lib/core/vocabulary";
 import { toHolderKind } from "@/lib/ledger/movement.store";
+import type { EntryHolderFacts, LedgerVersion, TraceSubject } from "@/lib/trace/trace-facts";
 
-/**
- * Identifies one state of a site's ledger. Movements are append-only (triggers refuse UPDATE and
- * DELETE), so a new booking always changes the count and the last id.
- */
-export interface LedgerVersion {
-  count: number;
-  lastId: number | null;
-}
+export type { EntryHolderFacts, LedgerVersion, LotFacts, SourceFacts, TraceSubject } from "@/lib/trace/trace-facts";
 
 export async function getLedgerVersion(db: Db, siteId: number): Promise<LedgerVersion> {
   const agg = await db.movement.aggregate({ where: { siteId }, _count: { _all: true }, _max: { id: true } });
   return { count: agg._count._all, lastId: agg._max.id };
-}
-
-export interface SourceFacts {
-  code: string;
-  name: string;
-  kind: string;
-  certificateScheme: string | null;
-  certificateNo: string | null;
-  certificateExpires: Date | null;
-  /** Compliance withholds this source's certified credit after a confirmed screening flag. */
-  creditWithheld: boolean;
-}
-
-export interface LotFacts {
-  holderId: number;
-  code: string;
-  material: string;
-  origin: string;
-  certified: boolean;
-  receivedAt: Date;
-}
-
-/** What is known about a holder that material enters the books at (a pickup, a delivered lot, a reagent lot). */
-export interface EntryHolderFacts {
-  holderId: number;
-  kind: HolderKind;
-  code: string;
-  pickup: { code: string; observedAt: Date } | null;
-  /** The lot the material was received into (a pickup's lot, or the delivered lot itself). */
-  lot: LotFacts | null;
-  source: SourceFacts | null;
-  material: string | null;
-  reagent: { reagent: string; supplier: string } | null;
 }
 
 const SOURCE_SELECT = {
@@ -127,14 +88,6 @@ export async function listEntryHolderFacts(db: Db, siteId: number): Promise<Map<
     });
   }
   return facts;
-}
-
-export interface TraceSubject {
-  kind: HolderKind | "SOURCE";
-  code: string;
-  /** The holders the question is about: the holder itself, or a source's pickups and delivered lots. */
-  holderIds: number[];
-  label: string;
 }
 
 /** A holder by kind and code (a shipment's code is its document number). */

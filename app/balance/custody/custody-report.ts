@@ -5,8 +5,8 @@ import { reportDay } from "@/lib/report/report";
 import type { ReportContext, ReportDoc, ReportTable } from "@/lib/report/report";
 import type { CustodyReport } from "@/lib/custody/custody.service";
 
-export function buildCustodyDoc(r: CustodyReport, ctx: ReportContext): ReportDoc {
-  const inPeriod = (at: Date) => at >= r.selected.startsAt && at < r.selected.endsAt;
+/** Certified inputs and the conversions of the batches finished in the period. */
+function inputTables(r: CustodyReport, inPeriod: (at: Date) => boolean): ReportTable[] {
   const inputs: ReportTable = {
     key: "inputs",
     heading: "Certified inputs by characteristic set",
@@ -40,6 +40,11 @@ export function buildCustodyDoc(r: CustodyReport, ctx: ReportContext): ReportDoc
     ],
     empty: "No batch finished in the period.",
   };
+  return [inputs, conv];
+}
+
+/** The period's certified claims and its accounts. */
+function claimTables(r: CustodyReport, inPeriod: (at: Date) => boolean): ReportTable[] {
   const claimsIn = r.claims.filter((c) => inPeriod(c.at));
   const claims: ReportTable = {
     key: "claims",
@@ -94,6 +99,11 @@ export function buildCustodyDoc(r: CustodyReport, ctx: ReportContext): ReportDoc
     ),
     empty: "No account had entries in the period.",
   };
+  return [claims, accounts];
+}
+
+export function buildCustodyDoc(r: CustodyReport, ctx: ReportContext): ReportDoc {
+  const inPeriod = (at: Date) => at >= r.selected.startsAt && at < r.selected.endsAt;
   return {
     slug: "custody",
     title: "Chain-of-custody statement",
@@ -112,6 +122,6 @@ export function buildCustodyDoc(r: CustodyReport, ctx: ReportContext): ReportDoc
       "Mass balance: certified input is credited by characteristic set, converted at each batch's measured yield, and debited by certified claims on shipments.",
     ],
     cautions: [],
-    tables: [inputs, conv, claims, accounts],
+    tables: [...inputTables(r, inPeriod), ...claimTables(r, inPeriod)],
   };
 }

@@ -7,7 +7,7 @@ import type { SiteRole } from "@/lib/core/vocabulary";
 import { getMadeOf } from "@/lib/feedstock/lot-flow.service";
 import { loadProductLotQc } from "@/lib/product/certificate.service";
 import { listSpecChoices } from "@/lib/spec/site-spec.service";
-import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import { getUtcOffsetMin } from "@/lib/period/site-time";
 import { kg, kgExact, litres, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
 import { MadeOf } from "@/app/_ui/made-of";

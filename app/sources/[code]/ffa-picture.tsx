@@ -3,7 +3,7 @@ import { labelOf } from "@/lib/core/vocabulary";
 import { computeFfaBySource } from "@/lib/feedstock/ffa-series";
 import type { FfaPoint, SourceFfaSeries } from "@/lib/feedstock/ffa-series";
 import { listSourceLotsWithFfa } from "@/lib/feedstock/ffa-series.store";
-import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import { getUtcOffsetMin } from "@/lib/period/site-time";
 import { day, num, pct } from "@/app/_ui/format";
 import { DataTable } from "@/app/_ui/kit";
 import type { Column } from "@/app/_ui/kit";

@@ -1,5 +1,5 @@
 import type { Db } from "@/lib/core/connect";
-import { getUtcOffsetMin } from "@/lib/site/dashboard.store";
+import { getUtcOffsetMin } from "@/lib/period/site-time";
 import { computeTankStockSeries } from "@/lib/tank/stock-series";
 import type { StockPoint, TankStockSeries } from "@/lib/tank/stock-series";
 import { loadTankStockHistory } from "@/lib/tank/stock-series.store";

@@ -1,0 +1,196 @@
+import "server-only";
+import { log } from "@/lib/log/log.service";
+// The server keeps, per site, one index of the ledger plus monthly replay snapshots (without the
+// terminal holders), keyed by the ledger version (movement count and last id: movements are
+// append-only, so any booking changes it, and the next index reads only the new rows). Answers are
+// kept per version, so the page, its CSV, the API and the record pages share one computation.
+import type { Db } from "@/lib/core/connect";
+import { fail, failMany, ok } from "@/lib/core/result";
+import type { Result } from "@/lib/core/result";
+import { extendTraceLedger, loadTraceLedger } from "@/lib/ledger/movement.store";
+import {
+  describeIssues,
+  extendSnapshots,
+  freshnessOf,
+  indexInOrder,
+  renameIssues,
+  sameVersion,
+  snapshotFits,
+} from "@/lib/trace/ledger-state";
+import type { LedgerState } from "@/lib/trace/ledger-state";
+import type { ReplaySnapshot } from "@/lib/trace/replay";
+import { loadTraceSnapshots, saveTraceSnapshots } from "@/lib/trace/snapshot.store";
+import { getLedgerVersion, listEntryHolderFacts, listTankServices } from "@/lib/trace/trace.store";
+import type { EntryHolderFacts, LedgerVersion } from "@/lib/trace/trace.store";
+
+/** Answers kept per site and ledger version. */
+const MAX_CACHED_ANSWERS = 64;
+
+const cacheHome = globalThis as unknown as {
+  tracevatTraceCache?: Map<number, Promise<Result<LedgerState>>>;
+  tracevatTraceWarming?: Set<number>;
+};
+const cache: Map<number, Promise<Result<LedgerState>>> = (cacheHome.tracevatTraceCache ??= new Map<
+  number,
+  Promise<Result<LedgerState>>
+>());
+/** Sites whose index is being built by warmTraceCache (set before the version query, so two pages start one build). */
+const warming: Set<number> = (cacheHome.tracevatTraceWarming ??= new Set());
+/** Per site with a save running: the latest snapshots still to store (null: none newer than the running save). */
+const unsaved = new Map<number, { order: "dated" | "booked"; snapshots: readonly ReplaySnapshot[] } | null>();
+
+async function buildState(
+  db: Db,
+  siteId: number,
+  version: LedgerVersion,
+  previous: LedgerState | null,
+  now: Date,
+): Promise<Result<LedgerState>> {
+  const started = performance.now();
+  // After a booking, read only what is new (holders and movements are append-only); whole otherwise.
+  const read =
+    previous === null
+      ? loadTraceLedger(db, siteId)
+      : extendTraceLedger(db, siteId, previous.ledger, version.count).then((l) => l ?? loadTraceLedger(db, siteId));
+  const [ledger, tankService] = await Promise.all([read, listTankServices(db, siteId)]);
+  const realAt = new Map(ledger.moves.map((m) => [m.id, m.at]));
+  let problem: string | null = null;
+  for (const order of ["dated", "booked"] as const) {
+    const indexed = indexInOrder(ledger, order);
+    if (!indexed.ok) return failMany(renameIssues(ledger, indexed.issues));
+    const index = indexed.value;
+    // A fresh process resumes from the snapshots stored in the database, if they still fit this ledger.
+    const kept =
+      previous === null
+        ? await loadTraceSnapshots(db, siteId, order)
+        : previous.order === order
+          ? previous.snapshots
+          : [];
+    const reusable = kept.filter((s) => snapshotFits(index, s));
+    const snapshots = extendSnapshots(index, reusable, realAt);
+    if (!snapshots.ok) {
+      problem ??= describeIssues(ledger, snapshots.issues);
+      continue;
+    }
+    storeSnapshots(db, siteId, order, snapshots.value);
+    return ok({
+      siteId,
+      version,
+      ledger,
+      index,
+      order,
+      orderProblem: problem,
+      realAt,
+      snapshots: snapshots.value,
+      indexedAt: now,
+      indexMs: performance.now() - started,
+      answers: new Map(),
+      carriedByFeeder: new Map(),
+      tankService,
+      facts: null,
+    });
+  }
+  return fail(
+    "TRACE.LEDGER_NOT_REPLAYABLE",
+    `The movement ledger cannot be replayed in date order or in booking order: ${problem ?? "unknown reason"}`,
+  );
+}
+
+/**
+ * Stores a site's snapshots in the background, one save per site at a time; a build that finishes while
+ * a save runs leaves its list to be saved next. A failed save only costs the next start a replay.
+ */
+function storeSnapshots(db: Db, siteId: number, order: "dated" | "booked", snapshots: readonly ReplaySnapshot[]): void {
+  const running = unsaved.has(siteId);
+  unsaved.set(siteId, { order, snapshots });
+  if (running) return;
+  const next = async (): Promise<void> => {
+    for (let job = unsaved.get(siteId); job !== undefined && job !== null; job = unsaved.get(siteId)) {
+      unsaved.set(siteId, null);
+      await saveTraceSnapshots(db, siteId, job.order, job.snapshots).catch((err: unknown) =>
+        log.warn({ err, siteId }, "trace snapshots were not stored"),
+      );
+    }
+    unsaved.delete(siteId);
+  };
+  savesRunning.add(next());
+}
+
+const savesRunning = new Set<Promise<void>>();
+
+/** Resolves once every snapshot save started so far has finished (tests; an orderly shutdown). */
+export async function flushTraceSnapshots(): Promise<void> {
+  while (savesRunning.size > 0) {
+    const running = [...savesRunning];
+    await Promise.all(running);
+    for (const p of running) savesRunning.delete(p);
+  }
+}
+
+/** The site's indexed ledger for its current version: reused while no movement is booked. */
+export async function requireLedgerState(db: Db, siteId: number, now: Date): Promise<Result<LedgerState>> {
+  const version = await getLedgerVersion(db, siteId);
+  const pending = cache.get(siteId);
+  const current = pending === undefined ? null : await pending;
+  if (current?.ok && sameVersion(current.value.version, version)) return current;
+  const again = cache.get(siteId);
+  if (again !== pending && again !== undefined) {
+    const other = await again;
+    if (other.ok && sameVersion(other.value.version, version)) return other;
+  }
+  const next = buildState(db, siteId, version, current?.ok ? current.value : null, now);
+  cache.set(siteId, next);
+  return next;
+}
+
+/** Forgets the cached index of every site (tests, or after a database file is replaced). */
+export function clearTraceCache(): void {
+  cache.clear();
+}
+
+export function requireFacts(db: Db, state: LedgerState): Promise<Map<number, EntryHolderFacts>> {
+  state.facts ??= listEntryHolderFacts(db, state.siteId);
+  return state.facts;
+}
+
+export async function answer<T>(
+  db: Db,
+  siteId: number,
+  now: Date,
+  key: string,
+  compute: (state: LedgerState) => Promise<Result<Omit<T, "freshness">>>,
+): Promise<Result<T>> {
+  const started = performance.now();
+  const stateR = await requireLedgerState(db, siteId, now);
+  if (!stateR.ok) return stateR;
+  const state = stateR.value;
+  const cached = state.answers.get(key) as Result<Omit<T, "freshness">> | undefined;
+  const result = cached ?? (await compute(state));
+  if (cached === undefined) {
+    state.answers.set(key, result);
+    if (state.answers.size > MAX_CACHED_ANSWERS) {
+      const oldest = state.answers.keys().next().value;
+      if (oldest !== undefined) state.answers.delete(oldest);
+    }
+  }
+  if (!result.ok) return result;
+  return ok({ ...result.value, freshness: freshnessOf(state, performance.now() - started, cached !== undefined) } as T);
+}
+
+/**
+ * Starts building the site's trace index in the background if nothing is cached for it yet, so the
+ * first trace after a server start does not wait for the whole-ledger replay. Never throws.
+ */
+export function warmTraceCache(db: Db, siteId: number, now: Date): void {
+  if (cache.has(siteId) || warming.has(siteId)) return;
+  warming.add(siteId);
+  requireLedgerState(db, siteId, now)
+    .then((state) => {
+      if (!state.ok) log.warn({ siteId, issues: state.issues }, "the trace index could not be built");
+    })
+    .catch((err: unknown) => {
+      log.error({ err, siteId }, "building the trace index failed");
+      cache.delete(siteId);
+    })
+    .finally(() => warming.delete(siteId));
+}
