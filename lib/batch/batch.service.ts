@@ -29,6 +29,9 @@ import { getContainerState } from "@/lib/waste/container.store";
 import { labelOf, UNMEASURED_ROLE } from "@/lib/core/vocabulary";
 import type { MoveRole } from "@/lib/core/vocabulary";
 import { planUnmeasuredBooking } from "@/lib/batch/closure";
+import { classifyClosure } from "@/lib/mass-balance/period-balance";
+import type { Closure } from "@/lib/mass-balance/period-balance";
+import { getSiteLimits } from "@/lib/site/site-limits.service";
 import { markLotConsumedIfEmpty, requireDrawableHolder } from "@/lib/ledger/draw.store";
 import { siteLossHolder } from "@/lib/feedstock/lot.store";
 import {
@@ -264,17 +267,101 @@ async function bookUnmeasuredDifference(
   return left;
 }
 
+/** More measured out than was charged: the excess is booked into the batch first as an unmeasured gain. */
+async function bookUnmeasuredGain(
+  tx: Tx,
+  actor: Actor,
+  batch: BatchState,
+  at: Date,
+  gainG: number,
+  note: string,
+  field: string,
+): Promise<void> {
+  if (gainG <= 0) return;
+  await postMovement(tx, {
+    siteId: actor.siteId,
+    at,
+    role: UNMEASURED_ROLE,
+    fromHolderId: null,
+    toHolderId: batch.holderId,
+    massG: gainG,
+    recordedById: actor.userId,
+    note,
+    field,
+  });
+}
+
+/** Water used for washing goes from its water lot straight to the wash-water stream, never through the reactor. */
+async function bookWashWater(
+  tx: Tx,
+  actor: Actor,
+  c: BatchComplete,
+  o: CompleteOutput,
+  i: number,
+  place: { to: number; room: Room },
+): Promise<void> {
+  if (o.role !== "WASH_WATER" || o.waterFromCode === undefined || o.waterKg === undefined) return;
+  const field = `outputs.${i}.waterFromCode`;
+  const water = await requireDrawableHolder(tx, actor.siteId, "REAGENT_LOT", o.waterFromCode, field);
+  if ((await getReagentOfHolder(tx, water)) !== "WATER")
+    reject("BATCH.NOT_WATER", `Reagent lot ${o.waterFromCode} is not water`, field);
+  await postMovement(tx, {
+    siteId: actor.siteId,
+    at: c.completedAt,
+    role: "WATER",
+    fromHolderId: water,
+    toHolderId: place.to,
+    massG: toGrams(o.waterKg),
+    recordedById: actor.userId,
+    note: `washing batch ${c.batchCode}`,
+    field: `outputs.${i}.waterKg`,
+    ...(place.room ? { room: place.room } : {}),
+  });
+  await markLotConsumedIfEmpty(tx, water);
+}
+
+/** Books each measured output to its place; returns the product lots made. */
+async function bookOutputs(
+  tx: Tx,
+  actor: Actor,
+  batch: BatchState,
+  c: BatchComplete,
+  shares: readonly number[],
+): Promise<string[]> {
+  const productLots: string[] = [];
+  for (const [i, o] of c.outputs.entries()) {
+    const place = await resolveOutputPlace(tx, actor, batch, c.completedAt, o, i, toGrams(o.massKg));
+    if (o.toKind === "PRODUCT_LOT" && o.toCode) productLots.push(o.toCode);
+    await bookWashWater(tx, actor, c, o, i, place);
+    const massG = shares[i] ?? 0;
+    if (massG === 0) continue;
+    await postMovement(tx, {
+      siteId: actor.siteId,
+      at: c.completedAt,
+      role: o.role,
+      fromHolderId: batch.holderId,
+      toHolderId: place.to,
+      massG,
+      recordedById: actor.userId,
+      note: o.role === "LOSS" ? `recorded loss: ${o.reason ?? ""}` : "",
+      field: `outputs.${i}.massKg`,
+      ...(place.room ? { room: place.room } : {}),
+    });
+  }
+  return productLots;
+}
+
 /**
  * Records what was weighed or gauged out. The outputs need not add up to the charge: the remainder is
  * booked as the batch's unmeasured difference (or, when more was measured than charged, an unmeasured
- * gain booked in first). Water used for washing goes from its water lot straight to the wash-water
- * stream, never through the reactor, so it is never part of a product lot.
+ * gain booked in first) and flagged against the site's closure tolerance. Water used for washing goes
+ * from its water lot straight to the wash-water stream, so it is never part of a product lot.
  */
 export async function completeBatch(
   db: Db,
   actor: Actor,
   input: unknown,
-): Promise<Result<{ code: string; productLots: string[]; unmeasuredG: number }>> {
+): Promise<Result<{ code: string; productLots: string[]; unmeasuredG: number; closure: Closure }>> {
   const parsed = parseInput(BatchCompleteSchema, input);
   if (!parsed.ok) return parsed;
   const c = parsed.value;
@@ -289,70 +376,22 @@ export async function completeBatch(
     if (batch.startedAt && c.completedAt < batch.startedAt)
       reject("BATCH.ENDS_BEFORE_START", "Finish time is before the start time", "completedAt");
     const shares = c.outputs.map((o, i) => batchShareG(o, i));
+    const chargedG = await getStockG(tx, batch.holderId);
     const { gainG } = planUnmeasuredBooking(
-      await getStockG(tx, batch.holderId),
+      chargedG,
       shares.reduce((a, b) => a + b, 0),
     );
-    if (gainG > 0) {
-      await postMovement(tx, {
-        siteId: actor.siteId,
-        at: c.completedAt,
-        role: UNMEASURED_ROLE,
-        fromHolderId: null,
-        toHolderId: batch.holderId,
-        massG: gainG,
-        recordedById: actor.userId,
-        note: "unmeasured difference: more measured out than charged",
-        field: "outputs",
-      });
-    }
-    const productLots: string[] = [];
-    for (const [i, o] of c.outputs.entries()) {
-      const { to, room } = await resolveOutputPlace(tx, actor, batch, c.completedAt, o, i, toGrams(o.massKg));
-      if (o.toKind === "PRODUCT_LOT" && o.toCode) productLots.push(o.toCode);
-      if (o.role === "WASH_WATER" && o.waterFromCode !== undefined && o.waterKg !== undefined) {
-        const field = `outputs.${i}.waterFromCode`;
-        const water = await requireDrawableHolder(tx, actor.siteId, "REAGENT_LOT", o.waterFromCode, field);
-        if ((await getReagentOfHolder(tx, water)) !== "WATER")
-          reject("BATCH.NOT_WATER", `Reagent lot ${o.waterFromCode} is not water`, field);
-        await postMovement(tx, {
-          siteId: actor.siteId,
-          at: c.completedAt,
-          role: "WATER",
-          fromHolderId: water,
-          toHolderId: to,
-          massG: toGrams(o.waterKg),
-          recordedById: actor.userId,
-          note: `washing batch ${c.batchCode}`,
-          field: `outputs.${i}.waterKg`,
-          ...(room ? { room } : {}),
-        });
-        await markLotConsumedIfEmpty(tx, water);
-      }
-      const massG = shares[i] ?? 0;
-      if (massG === 0) continue;
-      const note = o.role === "LOSS" ? `recorded loss: ${o.reason ?? ""}` : "";
-      await postMovement(tx, {
-        siteId: actor.siteId,
-        at: c.completedAt,
-        role: o.role,
-        fromHolderId: batch.holderId,
-        toHolderId: to,
-        massG,
-        recordedById: actor.userId,
-        note,
-        field: `outputs.${i}.massKg`,
-        ...(room ? { room } : {}),
-      });
-    }
-    const unmeasuredG =
-      (await bookUnmeasuredDifference(
-        tx,
-        actor,
-        batch,
-        c.completedAt,
-        "unmeasured difference: charged less everything measured out",
-      )) - gainG;
+    const gainNote = "unmeasured difference: more measured out than charged";
+    await bookUnmeasuredGain(tx, actor, batch, c.completedAt, gainG, gainNote, "outputs");
+    const productLots = await bookOutputs(tx, actor, batch, c, shares);
+    const booked = await bookUnmeasuredDifference(
+      tx,
+      actor,
+      batch,
+      c.completedAt,
+      "unmeasured difference: charged less everything measured out",
+    );
+    const unmeasuredG = booked - gainG;
     await markBatchComplete(tx, batch.id, c.completedAt);
     await appendAudit(tx, actor, {
       action: "CHANGE",
@@ -361,7 +400,33 @@ export async function completeBatch(
       before: { status: batch.status },
       after: { status: "COMPLETE", completedAt: c.completedAt, outputs: c.outputs, unmeasuredG },
     });
-    return { code: c.batchCode, productLots, unmeasuredG };
+    const tolerance = (await getSiteLimits(tx, actor.siteId)).closure;
+    return { code: c.batchCode, productLots, unmeasuredG, closure: classifyClosure(unmeasuredG, chargedG, tolerance) };
+  });
+}
+
+interface OutflowMove {
+  id: number;
+  at: Date;
+  role: string;
+  fromHolderId: number;
+  toHolderId: number;
+  massG: number;
+}
+
+/** An opposite movement linked to the one it reverses (as in lib/correction). */
+async function reverseOutflow(tx: Tx, actor: Actor, x: OutflowMove, reason: string): Promise<void> {
+  await postMovement(tx, {
+    siteId: actor.siteId,
+    at: x.at,
+    role: x.role as MoveRole,
+    fromHolderId: x.toHolderId,
+    toHolderId: x.fromHolderId,
+    massG: x.massG,
+    recordedById: actor.userId,
+    reversesId: x.id,
+    note: `Reversal of movement ${x.id}: ${reason}`,
+    field: "massKg",
   });
 }
 
@@ -399,43 +464,13 @@ export async function correctBatchOutput(
       );
     const newG = toGrams(c.massKg);
     if (newG === m.massG) reject("BATCH.SAME_MASS", "Corrected mass: this is the mass already recorded", "massKg");
-    const reverse = async (x: {
-      id: number;
-      at: Date;
-      role: string;
-      fromHolderId: number;
-      toHolderId: number;
-      massG: number;
-    }) =>
-      postMovement(tx, {
-        siteId: actor.siteId,
-        at: x.at,
-        role: x.role as MoveRole,
-        fromHolderId: x.toHolderId,
-        toHolderId: x.fromHolderId,
-        massG: x.massG,
-        recordedById: actor.userId,
-        reversesId: x.id,
-        note: `Reversal of movement ${x.id}: ${c.reason}`,
-        field: "massKg",
-      });
+    const reverse = (x: OutflowMove) => reverseOutflow(tx, actor, x, c.reason);
     for (const u of moves.filter((x) => x.role === UNMEASURED_ROLE && x.reversedById === null && x.reversesId === null))
       await reverse(u);
     await reverse(m);
     const { gainG } = planUnmeasuredBooking(await getStockG(tx, batch.holderId), newG);
-    if (gainG > 0) {
-      await postMovement(tx, {
-        siteId: actor.siteId,
-        at: m.at,
-        role: UNMEASURED_ROLE,
-        fromHolderId: null,
-        toHolderId: batch.holderId,
-        massG: gainG,
-        recordedById: actor.userId,
-        note: `unmeasured difference after correcting movement ${m.id}`,
-        field: "massKg",
-      });
-    }
+    const note = `unmeasured difference after correcting movement ${m.id}`;
+    await bookUnmeasuredGain(tx, actor, batch, m.at, gainG, note, "massKg");
     const room = await requireTankRoom(tx, m.toHolderId, newG, "massKg");
     await postMovement(tx, {
       siteId: actor.siteId,
@@ -450,13 +485,7 @@ export async function correctBatchOutput(
       ...(room ? { room } : {}),
     });
     if (m.role === "ESTER") await setProductLotMadeMass(tx, m.toHolderId, newG);
-    const booked = await bookUnmeasuredDifference(
-      tx,
-      actor,
-      batch,
-      m.at,
-      `unmeasured difference after correcting movement ${m.id}`,
-    );
+    const booked = await bookUnmeasuredDifference(tx, actor, batch, m.at, note);
     const unmeasuredG = booked - (await sumUnmeasuredGains(tx, batch.holderId));
     await appendAudit(tx, actor, {
       action: "CHANGE",

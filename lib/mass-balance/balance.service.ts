@@ -8,6 +8,7 @@ import type { Result } from "@/lib/core/result";
 import { labelOf } from "@/lib/core/vocabulary";
 import type { MoveRole } from "@/lib/core/vocabulary";
 import { parseInput } from "@/lib/ledger/parse";
+import { getSiteLimits } from "@/lib/site/site-limits.service";
 import {
   getAccountingPeriodExact,
   listLatestGauges,
@@ -17,12 +18,7 @@ import {
 import type { AccountingPeriodView, BalanceHolderRef, PeriodEventView } from "@/lib/mass-balance/balance.store";
 import { getLocalDate, refuseUnreasonablePeriod } from "@/lib/mass-balance/period";
 import { resolvePeriodRange } from "@/lib/mass-balance/period-range";
-import {
-  compareBookToGauges,
-  computePeriodBalance,
-  DEFAULT_CLOSURE_TOLERANCE,
-  DEFAULT_HOLDER_CLASSES,
-} from "@/lib/mass-balance/period-balance";
+import { compareBookToGauges, computePeriodBalance, DEFAULT_HOLDER_CLASSES } from "@/lib/mass-balance/period-balance";
 import type {
   BatchBalance,
   Closure,
@@ -209,19 +205,20 @@ export async function getBalanceReport(
   const unreasonable = refuseUnreasonablePeriod(period.value, q.period, now.getTime());
   if (unreasonable) return fail("BALANCE.PERIOD_OUT_OF_RANGE", unreasonable.message, unreasonable.field);
 
-  const warnPct = q.warnPct ?? DEFAULT_CLOSURE_TOLERANCE.warnPct;
-  const failPct = q.failPct ?? DEFAULT_CLOSURE_TOLERANCE.failPct;
-  const edited = warnPct !== DEFAULT_CLOSURE_TOLERANCE.warnPct || failPct !== DEFAULT_CLOSURE_TOLERANCE.failPct;
+  const siteTolerance = (await getSiteLimits(db, site.id)).closure;
+  const warnPct = q.warnPct ?? siteTolerance.warnPct;
+  const failPct = q.failPct ?? siteTolerance.failPct;
+  const edited = warnPct !== siteTolerance.warnPct || failPct !== siteTolerance.failPct;
   const tol = parseInput(
     ClosureToleranceSchema,
     edited
       ? {
           warnPct,
           failPct,
-          source: "site setting entered with this balance",
-          note: `Changed from the default warn ${DEFAULT_CLOSURE_TOLERANCE.warnPct} % / fail ${DEFAULT_CLOSURE_TOLERANCE.failPct} % (${DEFAULT_CLOSURE_TOLERANCE.source}).`,
+          source: "entered with this balance",
+          note: `The site works to warn above ${siteTolerance.warnPct} %, fail above ${siteTolerance.failPct} % (${siteTolerance.source}).`,
         }
-      : DEFAULT_CLOSURE_TOLERANCE,
+      : siteTolerance,
   );
   if (!tol.ok) return tol;
   const tolerance: ClosureTolerance = tol.value;

@@ -14,7 +14,7 @@ import { BatchPlanSection } from "@/app/batches/[code]/batch-plan-section";
 import { TakeBackChargeForm } from "@/app/corrections/correction-forms";
 import type { MovementView } from "@/lib/ledger/movement.store";
 import { summarizeBatchClosure } from "@/lib/batch/closure";
-import { DEFAULT_CLOSURE_TOLERANCE } from "@/lib/mass-balance/period-balance";
+import { getSiteLimits } from "@/lib/site/site-limits.service";
 import { ClosureChip, ToleranceNote } from "@/app/balance/closure";
 import { CorrectOutputForm } from "@/app/batches/[code]/correct-output-form";
 
@@ -48,7 +48,7 @@ export default async function BatchPage({ params }: Props) {
   const tz = site.timeZone;
   const chargedG = b.charges.reduce((s, m) => s + m.massG, 0);
   const outG = b.outputs.reduce((s, m) => s + m.massG, 0);
-  const tolerance = DEFAULT_CLOSURE_TOLERANCE;
+  const tolerance = (await getSiteLimits(db, site.id)).closure;
   const closure = summarizeBatchClosure(
     [
       ...b.charges.map((m) => ({ role: m.role, massG: m.massG, direction: "IN" as const })),

@@ -5,7 +5,7 @@ import { getBatchDetail } from "@/lib/batch/batch.store";
 import { listCautions, readPlannedFigures, suggestCharges } from "@/lib/batch/plan";
 import { listOutputPlaces, listReagentStock } from "@/lib/batch/plan.store";
 import { CATALYSTS } from "@/lib/core/vocabulary";
-import { DEFAULT_CLOSURE_TOLERANCE } from "@/lib/mass-balance/period-balance";
+import { getSiteLimits } from "@/lib/site/site-limits.service";
 import type { Catalyst } from "@/lib/core/vocabulary";
 import { kg, num } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
@@ -97,7 +97,7 @@ export default async function RecordBatchPage({ params }: Props) {
     const waterLot = reagents
       .filter((r) => r.reagent === "WATER" && r.stockG >= waterKg * 1000 && r.stockG > 0)
       .sort((a, c) => a.receivedAt.getTime() - c.receivedAt.getTime() || a.code.localeCompare(c.code))[0];
-    const tolerance = DEFAULT_CLOSURE_TOLERANCE;
+    const tolerance = (await getSiteLimits(db, site.id)).closure;
     const initial: OutputRow[] = [
       { role: "ESTER", toKind: "PRODUCT_LOT", toCode: `P-${suffix}`, massKg: "" },
       {
