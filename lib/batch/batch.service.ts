@@ -12,15 +12,11 @@ import {
   runInTransaction,
 } from "@/lib/ledger/ledger.store";
 import {
-  getBatchState,
   getReagentOfHolder,
-  insertBatch,
-  insertReagentLot,
   listBatchOutflows,
   markBatchComplete,
   markBatchRunning,
   setProductLotMadeMass,
-  siteDifferenceHolder,
   sumUnmeasuredGains,
 } from "@/lib/batch/batch.store";
 import type { BatchState } from "@/lib/batch/batch.store";
@@ -34,86 +30,21 @@ import type { Closure } from "@/lib/mass-balance/period-balance";
 import { getSiteLimits } from "@/lib/site/site-limits.service";
 import { markLotConsumedIfEmpty, requireDrawableHolder } from "@/lib/ledger/draw.store";
 import { siteLossHolder } from "@/lib/feedstock/lot.store";
-import {
-  BatchCompleteSchema,
-  BatchOutputCorrectionSchema,
-  BatchPlanSchema,
-  BatchStartSchema,
-  ReagentLotSchema,
-} from "@/lib/batch/batch.schema";
+import { BatchCompleteSchema, BatchOutputCorrectionSchema, BatchStartSchema } from "@/lib/batch/batch.schema";
 import type { z } from "zod";
 
 type BatchComplete = z.output<typeof BatchCompleteSchema>;
 import { toGrams } from "@/lib/quantity/units";
+import {
+  bookUnmeasuredDifference,
+  bookUnmeasuredGain,
+  requireBatch,
+  reverseOutflow,
+} from "@/lib/batch/batch-records.service";
+import type { OutflowMove } from "@/lib/batch/batch-records.service";
+export { planBatch, receiveReagent } from "@/lib/batch/batch-records.service";
 import type { Actor } from "@/lib/core/actor";
 import { getTankServiceByHolder, requireTankRoom } from "@/lib/tank/tank.store";
-
-/** Methanol, catalyst, acid or process water enters the books as a reagent lot. */
-export async function receiveReagent(
-  db: Db,
-  actor: Actor,
-  input: unknown,
-): Promise<Result<{ id: number; code: string }>> {
-  const parsed = parseInput(ReagentLotSchema, input);
-  if (!parsed.ok) return parsed;
-  const r = parsed.value;
-  return runInTransaction(db, async (tx) => {
-    const holderId = await createHolder(tx, actor.siteId, "REAGENT_LOT", r.code);
-    const massG = toGrams(r.massKg);
-    const lot = await insertReagentLot(tx, {
-      siteId: actor.siteId,
-      holderId,
-      code: r.code,
-      reagent: r.reagent,
-      supplier: r.supplier,
-      strengthPct: r.strengthPct,
-      receivedAt: r.receivedAt,
-      massG,
-    });
-    await postMovement(tx, {
-      siteId: actor.siteId,
-      at: r.receivedAt,
-      role: "RECEIPT",
-      fromHolderId: null,
-      toHolderId: holderId,
-      massG,
-      recordedById: actor.userId,
-      note: `reagent ${r.reagent} from ${r.supplier}`,
-    });
-    await appendAudit(tx, actor, { action: "CREATE", entity: "ReagentLot", entityKey: r.code, after: { ...r, massG } });
-    return lot;
-  });
-}
-
-export async function planBatch(db: Db, actor: Actor, input: unknown): Promise<Result<{ id: number; code: string }>> {
-  const parsed = parseInput(BatchPlanSchema, input);
-  if (!parsed.ok) return parsed;
-  const b = parsed.value;
-  return runInTransaction(db, async (tx) => {
-    const holderId = await createHolder(tx, actor.siteId, "BATCH", b.code);
-    const saved = await insertBatch(tx, {
-      siteId: actor.siteId,
-      holderId,
-      code: b.code,
-      pretreated: b.pretreated,
-      plannedAt: b.plannedAt,
-      targetOilG: toGrams(b.targetOilKg),
-      molarRatio: b.molarRatio,
-      catalyst: b.catalyst,
-      reactionTempC: b.reactionTempC,
-      recipeJson: JSON.stringify(b.recipe),
-      notes: b.notes,
-    });
-    await appendAudit(tx, actor, { action: "CREATE", entity: "Batch", entityKey: b.code, after: b });
-    return saved;
-  });
-}
-
-async function requireBatch(tx: Tx, siteId: number, code: string): Promise<BatchState> {
-  const batch = await getBatchState(tx, siteId, code);
-  if (!batch) reject("RECORD.NOT_FOUND", `Batch ${code} does not exist`, "batchCode");
-  return batch;
-}
 
 /** Records what went into the reactor; every draw is guarded against over-drawing its lot, tank or reagent. */
 export async function startBatch(
@@ -239,58 +170,6 @@ function batchShareG(o: CompleteOutput, i: number): number {
   return totalG - waterG;
 }
 
-/**
- * Books the batch's unmeasured difference so the reactor ends empty: whatever is still held after the
- * measured outputs goes to the site's difference account. Returns the grams booked.
- */
-async function bookUnmeasuredDifference(
-  tx: Tx,
-  actor: Actor,
-  batch: BatchState,
-  at: Date,
-  note: string,
-): Promise<number> {
-  const left = await getStockG(tx, batch.holderId);
-  if (left <= 0) return 0;
-  const sink = await siteDifferenceHolder(tx, actor.siteId);
-  await postMovement(tx, {
-    siteId: actor.siteId,
-    at,
-    role: UNMEASURED_ROLE,
-    fromHolderId: batch.holderId,
-    toHolderId: sink,
-    massG: left,
-    recordedById: actor.userId,
-    note,
-    field: "outputs",
-  });
-  return left;
-}
-
-/** More measured out than was charged: the excess is booked into the batch first as an unmeasured gain. */
-async function bookUnmeasuredGain(
-  tx: Tx,
-  actor: Actor,
-  batch: BatchState,
-  at: Date,
-  gainG: number,
-  note: string,
-  field: string,
-): Promise<void> {
-  if (gainG <= 0) return;
-  await postMovement(tx, {
-    siteId: actor.siteId,
-    at,
-    role: UNMEASURED_ROLE,
-    fromHolderId: null,
-    toHolderId: batch.holderId,
-    massG: gainG,
-    recordedById: actor.userId,
-    note,
-    field,
-  });
-}
-
 /** Water used for washing goes from its water lot straight to the wash-water stream, never through the reactor. */
 async function bookWashWater(
   tx: Tx,
@@ -402,31 +281,6 @@ export async function completeBatch(
     });
     const tolerance = (await getSiteLimits(tx, actor.siteId)).closure;
     return { code: c.batchCode, productLots, unmeasuredG, closure: classifyClosure(unmeasuredG, chargedG, tolerance) };
-  });
-}
-
-interface OutflowMove {
-  id: number;
-  at: Date;
-  role: string;
-  fromHolderId: number;
-  toHolderId: number;
-  massG: number;
-}
-
-/** An opposite movement linked to the one it reverses (as in lib/correction). */
-async function reverseOutflow(tx: Tx, actor: Actor, x: OutflowMove, reason: string): Promise<void> {
-  await postMovement(tx, {
-    siteId: actor.siteId,
-    at: x.at,
-    role: x.role as MoveRole,
-    fromHolderId: x.toHolderId,
-    toHolderId: x.fromHolderId,
-    massG: x.massG,
-    recordedById: actor.userId,
-    reversesId: x.id,
-    note: `Reversal of movement ${x.id}: ${reason}`,
-    field: "massKg",
   });
 }
 

@@ -1,6 +1,7 @@
 // The plant's stock as blend candidates: lots and feedstock tanks with their lab quality, and the blend request. Pure.
 import type { BlendCandidate, BlendRequest } from "@/lib/blend/blend.schema";
 import { DEFAULT_RECIPE_LIMITS, WATER_LIMIT_BY_STEP } from "@/lib/recipe/recipe-defaults";
+import type { WaterLimits } from "@/lib/recipe/recipe-defaults";
 import { MS_PER_DAY } from "@/lib/batch/plan-request";
 import type { BatchPlanRequest } from "@/lib/batch/plan-request";
 
@@ -190,16 +191,23 @@ export function buildCandidates(
  * first — the base step when the FFA limit keeps every blend below the acid-pretreatment threshold, the
  * acid step otherwise. The recipe and pretreatment warnings use the same two settings.
  */
-export function blendWaterLimit(request: Pick<BatchPlanRequest, "maxWaterPct" | "maxFfaPct">): {
+export function blendWaterLimit(
+  request: Pick<BatchPlanRequest, "maxWaterPct" | "maxFfaPct">,
+  water: WaterLimits = WATER_LIMIT_BY_STEP,
+): {
   value: number;
   step: "BASE_STEP" | "ACID_STEP" | null;
 } {
   if (request.maxWaterPct !== undefined) return { value: request.maxWaterPct, step: null };
   const step = request.maxFfaPct < DEFAULT_RECIPE_LIMITS.baseCatalysisMaxFfaPct.value ? "BASE_STEP" : "ACID_STEP";
-  return { value: WATER_LIMIT_BY_STEP[step].value, step };
+  return { value: water[step].value, step };
 }
 
-export function toBlendRequest(request: BatchPlanRequest, candidates: readonly PlanCandidate[]): BlendRequest {
+export function toBlendRequest(
+  request: BatchPlanRequest,
+  candidates: readonly PlanCandidate[],
+  water: WaterLimits = WATER_LIMIT_BY_STEP,
+): BlendRequest {
   const usable = candidates.filter((c) => c.leftOutBecause === null && c.ffaPct !== null && c.waterPct !== null);
   return {
     candidates: usable.map((c): BlendCandidate => ({
@@ -211,7 +219,7 @@ export function toBlendRequest(request: BatchPlanRequest, candidates: readonly P
       ageDays: c.ageDays,
     })),
     targetKg: request.targetOilKg,
-    limits: { maxFfaPct: request.maxFfaPct, maxWaterPct: blendWaterLimit(request).value },
+    limits: { maxFfaPct: request.maxFfaPct, maxWaterPct: blendWaterLimit(request, water).value },
     objective: request.objective,
     ...(request.minDrawKg === undefined ? {} : { minDrawKg: request.minDrawKg }),
   };

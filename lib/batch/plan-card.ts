@@ -10,6 +10,7 @@ import type { BatchPlanRequest } from "@/lib/batch/plan-request";
 import { blendWaterLimit, parseCandidateRef } from "@/lib/batch/plan-candidates";
 import type { CandidateKind, PlanCandidate } from "@/lib/batch/plan-candidates";
 import { renameFields } from "@/lib/batch/plan-inputs";
+import type { WaterLimits } from "@/lib/recipe/recipe-defaults";
 import type { CatalystAssay } from "@/lib/batch/plan-inputs";
 import { listCautions } from "@/lib/batch/plan-cautions";
 import type { Caution } from "@/lib/batch/plan-cautions";
@@ -112,19 +113,67 @@ export function describeRoute(plan: Pick<PretreatmentPlan, "decision">): string 
   }
 }
 
-export function composeCard(args: {
-  request: BatchPlanRequest;
-  blend: BlendPlan;
-  candidates: readonly PlanCandidate[];
-  plan: PretreatmentPlan;
-  assay: CatalystAssay | null;
-  acidAssay?: CatalystAssay | null;
-}): RecipeCard {
-  const { request, blend, candidates, plan, assay } = args;
-  const acidAssay = args.acidAssay ?? null;
-  const byRef = new Map(candidates.map((c) => [c.ref, c]));
-  const base = plan.baseStep;
-  const acid = plan.acidStep;
+function cardAcidStep(acid: NonNullable<PretreatmentPlan["acidStep"]>, acidPurityPct: number): RecipeCard["acidStep"] {
+  return {
+    feedKg: acid.feedKg,
+    methanolKg: acid.methanolKg,
+    methanolL20C: acid.methanolL20C,
+    methanolToFfaMolarRatio: acid.methanolToFfaMolarRatio,
+    acidPctOfFfa: acid.acidPctOfFfa,
+    acidPureKg: acid.acidPureKg,
+    acidProductKg: acid.acidProductKg,
+    acidPurityPct,
+    waterFormedKg: acid.waterFormedKg,
+    residualFfaPct: acid.residualFfaPct,
+    oilPhaseKg: acid.oilPhase.massKg,
+    alcoholPhaseKg: acid.alcoholPhase.totalKg,
+  };
+}
+
+function cardBaseStep(
+  request: BatchPlanRequest,
+  base: PretreatmentPlan["baseStep"],
+  assay: CatalystAssay | null,
+): RecipeCard["baseStep"] {
+  return {
+    oilKg: base.oil.massKg,
+    ffaPct: base.oil.ffaPct,
+    ffaBasis: base.oil.ffaBasis,
+    acidValueMgKohG: base.oil.acidValueMgKohG,
+    meanTgMolarMass: base.oil.meanTgMolarMass,
+    molarMassFromSv: base.oil.molarMassFromSv,
+    waterPct: base.oil.waterPct,
+    molarRatio: base.methanol.molarRatio,
+    reactionTempC: base.reactionTempC,
+    methanol: {
+      chargeKg: base.methanol.chargeKg,
+      fromCatalystSolutionKg: base.methanol.fromCatalystSolutionKg,
+      toAddKg: base.methanol.toAddKg,
+      toAddL20C: base.methanol.toAddL20C,
+      totalKg: base.methanol.totalKg,
+    },
+    catalyst: {
+      type: request.catalyst,
+      productKg: base.catalyst.productKg,
+      pureKg: base.catalyst.pureKg,
+      baseKg: base.catalyst.baseKg,
+      neutralisationKg: base.catalyst.neutralisationKg,
+      assayPct: base.catalyst.assayPct,
+      assayKind: base.catalyst.assayKind,
+      assaySource: assay?.source ?? "recipe default",
+    },
+  };
+}
+
+/** The basis of the card's figures: costs, assays and where tank quality comes from. */
+function cardNotes(
+  request: BatchPlanRequest,
+  blend: BlendPlan,
+  assay: CatalystAssay | null,
+  acidAssay: CatalystAssay | null,
+  assayKind: string,
+  acidStep: boolean,
+): string[] {
   const notes: string[] = [];
   const pricedRefs = blend.draws.filter((d) => request.costs[d.ref] !== undefined).length;
   if (pricedRefs < blend.draws.length) {
@@ -137,20 +186,37 @@ export function composeCard(args: {
       "Catalyst purity/strength: no value entered and no reagent lot in stock; the recipe default is used (see warnings).",
     );
   else
-    notes.push(
-      `Catalyst ${base.catalyst.assayKind === "PURITY" ? "purity" : "solution strength"} ${assay.pct} %: ${assay.source}.`,
-    );
+    notes.push(`Catalyst ${assayKind === "PURITY" ? "purity" : "solution strength"} ${assay.pct} %: ${assay.source}.`);
   notes.push(
     "Tank FFA and water are the mass-weighted means of the lab results of the lots it holds now (traced through the ledger).",
   );
   const acidPurityPct = acidAssay?.pct ?? DEFAULT_ACID_STEP_SETTINGS.acidPurityPct.value;
-  if (acid !== null) {
+  if (acidStep) {
     notes.push(
       acidAssay === null
         ? `Sulfuric acid assay: ${acidPurityPct} % (${DEFAULT_ACID_STEP_SETTINGS.acidPurityPct.source}); enter the certificate value.`
         : `Sulfuric acid assay ${acidAssay.pct} %: ${acidAssay.source}.`,
     );
   }
+  return notes;
+}
+
+export function composeCard(args: {
+  request: BatchPlanRequest;
+  blend: BlendPlan;
+  candidates: readonly PlanCandidate[];
+  plan: PretreatmentPlan;
+  assay: CatalystAssay | null;
+  acidAssay?: CatalystAssay | null;
+  water?: WaterLimits;
+}): RecipeCard {
+  const { request, blend, candidates, plan, assay } = args;
+  const acidAssay = args.acidAssay ?? null;
+  const byRef = new Map(candidates.map((c) => [c.ref, c]));
+  const base = plan.baseStep;
+  const acid = plan.acidStep;
+  const notes = cardNotes(request, blend, assay, acidAssay, base.catalyst.assayKind, acid !== null);
+  const acidPurityPct = acidAssay?.pct ?? DEFAULT_ACID_STEP_SETTINGS.acidPurityPct.value;
   const methanolTotalKg = base.methanol.toAddKg + (acid?.methanolKg ?? 0);
   return {
     format: CARD_FORMAT,
@@ -173,56 +239,13 @@ export function composeCard(args: {
       ffaPct: blend.blendFfaPct,
       waterPct: blend.blendWaterPct,
       maxFfaPct: request.maxFfaPct,
-      maxWaterPct: blendWaterLimit(request).value,
+      maxWaterPct: blendWaterLimit(request, args.water).value,
       costTotal: blend.costTotal,
       meanAgeDays: blend.meanAgeDays,
     },
     route: { route: plan.decision.route, reason: describeRoute(plan) },
-    acidStep:
-      acid === null
-        ? null
-        : {
-            feedKg: acid.feedKg,
-            methanolKg: acid.methanolKg,
-            methanolL20C: acid.methanolL20C,
-            methanolToFfaMolarRatio: acid.methanolToFfaMolarRatio,
-            acidPctOfFfa: acid.acidPctOfFfa,
-            acidPureKg: acid.acidPureKg,
-            acidProductKg: acid.acidProductKg,
-            acidPurityPct,
-            waterFormedKg: acid.waterFormedKg,
-            residualFfaPct: acid.residualFfaPct,
-            oilPhaseKg: acid.oilPhase.massKg,
-            alcoholPhaseKg: acid.alcoholPhase.totalKg,
-          },
-    baseStep: {
-      oilKg: base.oil.massKg,
-      ffaPct: base.oil.ffaPct,
-      ffaBasis: base.oil.ffaBasis,
-      acidValueMgKohG: base.oil.acidValueMgKohG,
-      meanTgMolarMass: base.oil.meanTgMolarMass,
-      molarMassFromSv: base.oil.molarMassFromSv,
-      waterPct: base.oil.waterPct,
-      molarRatio: base.methanol.molarRatio,
-      reactionTempC: base.reactionTempC,
-      methanol: {
-        chargeKg: base.methanol.chargeKg,
-        fromCatalystSolutionKg: base.methanol.fromCatalystSolutionKg,
-        toAddKg: base.methanol.toAddKg,
-        toAddL20C: base.methanol.toAddL20C,
-        totalKg: base.methanol.totalKg,
-      },
-      catalyst: {
-        type: request.catalyst,
-        productKg: base.catalyst.productKg,
-        pureKg: base.catalyst.pureKg,
-        baseKg: base.catalyst.baseKg,
-        neutralisationKg: base.catalyst.neutralisationKg,
-        assayPct: base.catalyst.assayPct,
-        assayKind: base.catalyst.assayKind,
-        assaySource: assay?.source ?? "recipe default",
-      },
-    },
+    acidStep: acid === null ? null : cardAcidStep(acid, acidPurityPct),
+    baseStep: cardBaseStep(request, base, assay),
     expected: {
       esterKg: base.products.fameKg,
       glycerolKg: base.products.glycerolKg,

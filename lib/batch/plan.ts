@@ -8,6 +8,8 @@ import type { BlendDiagnosis, BlendPlan } from "@/lib/blend/optimise";
 import { PretreatmentInputSchema } from "@/lib/recipe/recipe.schema";
 import type { PretreatmentInput } from "@/lib/recipe/recipe.schema";
 import { planPretreatment } from "@/lib/recipe/pretreatment";
+import { WATER_LIMIT_BY_STEP } from "@/lib/recipe/recipe-defaults";
+import type { WaterLimits } from "@/lib/recipe/recipe-defaults";
 import type { PretreatmentPlan } from "@/lib/recipe/pretreatment";
 import type { BatchPlanRequest } from "@/lib/batch/plan-request";
 import { buildCandidates, toBlendRequest } from "@/lib/batch/plan-candidates";
@@ -49,12 +51,13 @@ export async function draftBatchPlan(
   stock: PlanStock,
   reagents: readonly ReagentStock[],
   now: Date,
+  water: WaterLimits = WATER_LIMIT_BY_STEP,
 ): Promise<PlanProposal> {
   const candidates = buildCandidates(stock, request, now);
   const assay = pickAssay(request.catalyst, request.assayPct, reagents);
   const acidAssay = pickAssay("H2SO4", request.acidPurityPct, reagents);
   const done = (outcome: PlanOutcome): PlanProposal => ({ request, candidates, assay, acidAssay, outcome });
-  const blendRequest = toBlendRequest(request, candidates);
+  const blendRequest = toBlendRequest(request, candidates, water);
   if (blendRequest.candidates.length === 0) {
     return done({
       ok: false,
@@ -77,9 +80,13 @@ export async function draftBatchPlan(
   const inputs = toPretreatmentInput(request, blend.value.draws, candidates, assay, acidAssay);
   const parsed = parseInput(PretreatmentInputSchema, inputs);
   if (!parsed.ok) return done({ ok: false, stage: "RECIPE", issues: renameFields(parsed.issues), diagnosis: null });
-  const plan = planPretreatment(parsed.value);
+  const plan = planPretreatment(
+    parsed.value,
+    { acidStepMaxWaterPct: water.ACID_STEP },
+    { maxWaterPct: water.BASE_STEP },
+  );
   if (!plan.ok) return done({ ok: false, stage: "RECIPE", issues: renameFields(plan.issues), diagnosis: null });
-  const card = composeCard({ request, blend: blend.value, candidates, plan: plan.value, assay, acidAssay });
+  const card = composeCard({ request, blend: blend.value, candidates, plan: plan.value, assay, acidAssay, water });
   return done({
     ok: true,
     blend: blend.value,

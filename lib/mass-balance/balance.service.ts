@@ -206,8 +206,7 @@ export async function getBalanceReport(
   if (unreasonable) return fail("BALANCE.PERIOD_OUT_OF_RANGE", unreasonable.message, unreasonable.field);
 
   const siteTolerance = (await getSiteLimits(db, site.id)).closure;
-  const warnPct = q.warnPct ?? siteTolerance.warnPct;
-  const failPct = q.failPct ?? siteTolerance.failPct;
+  const { warnPct = siteTolerance.warnPct, failPct = siteTolerance.failPct } = q;
   const edited = warnPct !== siteTolerance.warnPct || failPct !== siteTolerance.failPct;
   const tol = parseInput(
     ClosureToleranceSchema,
