@@ -2,14 +2,13 @@
 import { startTransition, useActionState, useEffect, useState } from "react";
 import {
   CA5A40_AV_PER_FFA_OLEIC,
-  DEFAULT_FFA_REPEATABILITY,
   FFA_BASES,
   acidValueFromFfa,
   calculateAcidValue,
   calculateFfaPercent,
-  suggestSampleSize,
-  summariseReplicates,
 } from "@/lib/titration/titration";
+import { DEFAULT_FFA_REPEATABILITY, summariseReplicates } from "@/lib/titration/replicates";
+import { suggestSampleSize } from "@/lib/titration/sample-size";
 import type { FfaBasis } from "@/lib/titration/titration";
 import { formatFixed } from "@/lib/quantity/units";
 import { recordTitrationAction } from "@/app/lab/[code]/actions";

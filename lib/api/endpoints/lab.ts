@@ -11,8 +11,8 @@ import {
   calculateAcidValue,
   calculateFfaPercent,
   ffaFromAcidValue,
-  suggestSampleSize,
 } from "@/lib/titration/titration";
+import { suggestSampleSize } from "@/lib/titration/sample-size";
 import type { AvFfaConversion, FfaBasis } from "@/lib/titration/titration";
 import { TitrationEntrySchema } from "@/lib/titration/titration.schema";
 import type { TitrationEntry } from "@/lib/titration/titration.schema";
