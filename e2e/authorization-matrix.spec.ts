@@ -133,6 +133,8 @@ const ACTIONS: Record<string, Role[] | "public"> = {
   markFullAction: ["PRODUCTION", "COMPLIANCE"],
   recordHaulAction: ["COMPLIANCE"],
   chooseWasteRulesAction: ["COMPLIANCE", "ADMIN"],
+  setClosureToleranceAction: ["COMPLIANCE", "ADMIN"],
+  setWaterLimitsAction: ["COMPLIANCE", "ADMIN"],
   createCustomerAction: ["COMPLIANCE"],
   changeCustomerAction: ["COMPLIANCE"],
   recordShipmentAction: ["COMPLIANCE"],

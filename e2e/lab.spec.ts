@@ -31,6 +31,12 @@ test("titrate a waiting lot, see FFA as you type, and accept it", async ({ page 
   await expect(form.getByTestId("live-ffa")).toHaveText("5.00 %");
   // EN 14104: 56.1 × 5.00 × 0.25 / 7.05 = 9.947 mg KOH/g (hand arithmetic)
   await expect(form.getByTestId("live-av")).toHaveText("9.95 mg KOH/g");
+  // The arithmetic is on the screen before saving, with the analyst's own readings.
+  const working = form.getByTestId("titration-working");
+  await expect(working).toContainText("5.00 mL × 0.2500 mol/L × 56.1 ÷ 7.050 g = 9.95 mg KOH/g");
+  await expect(working).toContainText("× 28.2 ÷ 7.050 g = 5.00 %");
+  // From the acid value by molar mass: 9.9468 × 282.468 / 561.053 = 5.008 % as oleic (IUPAC 2021 molar masses)
+  await expect(working).toContainText("= 5.01 % as oleic");
   await form.getByLabel("Titre (mL)").fill("5.2");
   // 5.20 × 0.25 × 28.2 / 7.05 = 5.200 % (hand arithmetic, Ca 5a-40)
   await expect(form.getByTestId("live-ffa")).toHaveText("5.20 %");

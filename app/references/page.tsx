@@ -5,8 +5,8 @@ import type { Column } from "@/app/_ui/kit";
 import { loadSite } from "@/app/_ui/site";
 import { describeEditions, gradesText } from "@/lib/spec/catalogue";
 import type { CatalogueEdition, CatalogueProperty } from "@/lib/spec/catalogue";
-import { recipeDefaults, screeningDefaults, wasteDefaults } from "@/lib/spec/default-sources";
-import type { DefaultGroup, DefaultSource, SourceLevel } from "@/lib/spec/default-sources";
+import { balanceDefaults, recipeDefaults, screeningDefaults, wasteDefaults } from "@/app/references/default-sources";
+import type { DefaultGroup, DefaultSource, SourceLevel } from "@/app/references/default-sources";
 import { LOCAL_RULES_NOTE } from "@/lib/waste/waste-due";
 
 export const dynamic = "force-dynamic";
@@ -145,6 +145,12 @@ export default async function ReferencesPage() {
 
       <h2>Recipe defaults</h2>
       <Defaults group={recipeDefaults()} />
+
+      <h2>Mass-balance closure tolerance</h2>
+      <Defaults
+        group={balanceDefaults()}
+        note="A site works to its own tolerance, set on its limits page; this is where it starts."
+      />
 
       <h2>Source check defaults</h2>
       <Defaults

@@ -43,6 +43,7 @@ export const READ_MATRIX: readonly ReadRule[] = [
   { path: "/trace/recall", roles: PLANT, menu: "Recall" },
   { path: "/balance", roles: OFFICE, menu: "Balance" },
   { path: "/periods", roles: OFFICE, menu: "Periods" },
+  { path: "/limits", roles: PLANT, menu: "Site limits" },
   { path: "/screening", roles: OFFICE, menu: "Source checks" },
   { path: "/screening/thresholds", roles: OFFICE },
   { path: "/ledger", roles: PLANT, menu: "Ledger" },

@@ -6,15 +6,11 @@ import { parseInput } from "@/lib/ledger/parse";
 import { createHolder, getStockG, postMovement, requireHolder } from "@/lib/ledger/ledger.store";
 import { reject, runInTransaction } from "@/lib/ledger/transaction.store";
 import {
-  getBatchState,
   getReagentOfHolder,
-  insertBatch,
-  insertReagentLot,
   listBatchOutflows,
   markBatchComplete,
   markBatchRunning,
   setProductLotMadeMass,
-  siteDifferenceHolder,
   sumUnmeasuredGains,
 } from "@/lib/batch/batch.store";
 import type { BatchState } from "@/lib/batch/batch.store";
@@ -23,88 +19,26 @@ import { getContainerState } from "@/lib/waste/container.store";
 import { labelOf, UNMEASURED_ROLE } from "@/lib/core/vocabulary";
 import type { MoveRole } from "@/lib/core/vocabulary";
 import { planUnmeasuredBooking } from "@/lib/batch/closure";
+import { classifyClosure } from "@/lib/mass-balance/period-balance";
+import type { Closure } from "@/lib/mass-balance/period-balance";
+import { getSiteLimits } from "@/lib/mass-balance/site-limits.service";
 import { markLotConsumedIfEmpty, requireDrawableHolder } from "@/lib/ledger/draw.store";
 import { siteLossHolder } from "@/lib/feedstock/lot.store";
-import {
-  BatchCompleteSchema,
-  BatchOutputCorrectionSchema,
-  BatchPlanSchema,
-  BatchStartSchema,
-  ReagentLotSchema,
-} from "@/lib/batch/batch.schema";
+import { BatchCompleteSchema, BatchOutputCorrectionSchema, BatchStartSchema } from "@/lib/batch/batch.schema";
 import type { z } from "zod";
 
 type BatchComplete = z.output<typeof BatchCompleteSchema>;
 import { toGrams } from "@/lib/quantity/units";
+import {
+  bookUnmeasuredDifference,
+  bookUnmeasuredGain,
+  requireBatch,
+  reverseOutflow,
+} from "@/lib/batch/batch-records.service";
+import type { OutflowMove } from "@/lib/batch/batch-records.service";
+export { planBatch, receiveReagent } from "@/lib/batch/batch-records.service";
 import type { Actor } from "@/lib/core/actor";
 import { getTankServiceByHolder, requireTankRoom } from "@/lib/tank/tank.store";
-
-/** Methanol, catalyst, acid or process water enters the books as a reagent lot. */
-export async function receiveReagent(
-  db: Db,
-  actor: Actor,
-  input: unknown,
-): Promise<Result<{ id: number; code: string }>> {
-  const parsed = parseInput(ReagentLotSchema, input);
-  if (!parsed.ok) return parsed;
-  const r = parsed.value;
-  return runInTransaction(db, async (tx) => {
-    const holderId = await createHolder(tx, actor.siteId, "REAGENT_LOT", r.code);
-    const massG = toGrams(r.massKg);
-    const lot = await insertReagentLot(tx, {
-      siteId: actor.siteId,
-      holderId,
-      code: r.code,
-      reagent: r.reagent,
-      supplier: r.supplier,
-      strengthPct: r.strengthPct,
-      receivedAt: r.receivedAt,
-      massG,
-    });
-    await postMovement(tx, {
-      siteId: actor.siteId,
-      at: r.receivedAt,
-      role: "RECEIPT",
-      fromHolderId: null,
-      toHolderId: holderId,
-      massG,
-      recordedById: actor.userId,
-      note: `reagent ${r.reagent} from ${r.supplier}`,
-    });
-    await appendAudit(tx, actor, { action: "CREATE", entity: "ReagentLot", entityKey: r.code, after: { ...r, massG } });
-    return lot;
-  });
-}
-
-export async function planBatch(db: Db, actor: Actor, input: unknown): Promise<Result<{ id: number; code: string }>> {
-  const parsed = parseInput(BatchPlanSchema, input);
-  if (!parsed.ok) return parsed;
-  const b = parsed.value;
-  return runInTransaction(db, async (tx) => {
-    const holderId = await createHolder(tx, actor.siteId, "BATCH", b.code);
-    const saved = await insertBatch(tx, {
-      siteId: actor.siteId,
-      holderId,
-      code: b.code,
-      pretreated: b.pretreated,
-      plannedAt: b.plannedAt,
-      targetOilG: toGrams(b.targetOilKg),
-      molarRatio: b.molarRatio,
-      catalyst: b.catalyst,
-      reactionTempC: b.reactionTempC,
-      recipeJson: JSON.stringify(b.recipe),
-      notes: b.notes,
-    });
-    await appendAudit(tx, actor, { action: "CREATE", entity: "Batch", entityKey: b.code, after: b });
-    return saved;
-  });
-}
-
-async function requireBatch(tx: Tx, siteId: number, code: string): Promise<BatchState> {
-  const batch = await getBatchState(tx, siteId, code);
-  if (!batch) reject("RECORD.NOT_FOUND", `Batch ${code} does not exist`, "batchCode");
-  return batch;
-}
 
 /** Records what went into the reactor; every draw is guarded against over-drawing its lot, tank or reagent. */
 export async function startBatch(
@@ -230,45 +164,77 @@ function batchShareG(o: CompleteOutput, i: number): number {
   return totalG - waterG;
 }
 
-/**
- * Books the batch's unmeasured difference so the reactor ends empty: whatever is still held after the
- * measured outputs goes to the site's difference account. Returns the grams booked.
- */
-async function bookUnmeasuredDifference(
+/** Water used for washing goes from its water lot straight to the wash-water stream, never through the reactor. */
+async function bookWashWater(
+  tx: Tx,
+  actor: Actor,
+  c: BatchComplete,
+  o: CompleteOutput,
+  i: number,
+  place: { to: number; room: Room },
+): Promise<void> {
+  if (o.role !== "WASH_WATER" || o.waterFromCode === undefined || o.waterKg === undefined) return;
+  const field = `outputs.${i}.waterFromCode`;
+  const water = await requireDrawableHolder(tx, actor.siteId, "REAGENT_LOT", o.waterFromCode, field);
+  if ((await getReagentOfHolder(tx, water)) !== "WATER")
+    reject("BATCH.NOT_WATER", `Reagent lot ${o.waterFromCode} is not water`, field);
+  await postMovement(tx, {
+    siteId: actor.siteId,
+    at: c.completedAt,
+    role: "WATER",
+    fromHolderId: water,
+    toHolderId: place.to,
+    massG: toGrams(o.waterKg),
+    recordedById: actor.userId,
+    note: `washing batch ${c.batchCode}`,
+    field: `outputs.${i}.waterKg`,
+    ...(place.room ? { room: place.room } : {}),
+  });
+  await markLotConsumedIfEmpty(tx, water);
+}
+
+/** Books each measured output to its place; returns the product lots made. */
+async function bookOutputs(
   tx: Tx,
   actor: Actor,
   batch: BatchState,
-  at: Date,
-  note: string,
-): Promise<number> {
-  const left = await getStockG(tx, batch.holderId);
-  if (left <= 0) return 0;
-  const sink = await siteDifferenceHolder(tx, actor.siteId);
-  await postMovement(tx, {
-    siteId: actor.siteId,
-    at,
-    role: UNMEASURED_ROLE,
-    fromHolderId: batch.holderId,
-    toHolderId: sink,
-    massG: left,
-    recordedById: actor.userId,
-    note,
-    field: "outputs",
-  });
-  return left;
+  c: BatchComplete,
+  shares: readonly number[],
+): Promise<string[]> {
+  const productLots: string[] = [];
+  for (const [i, o] of c.outputs.entries()) {
+    const place = await resolveOutputPlace(tx, actor, batch, c.completedAt, o, i, toGrams(o.massKg));
+    if (o.toKind === "PRODUCT_LOT" && o.toCode) productLots.push(o.toCode);
+    await bookWashWater(tx, actor, c, o, i, place);
+    const massG = shares[i] ?? 0;
+    if (massG === 0) continue;
+    await postMovement(tx, {
+      siteId: actor.siteId,
+      at: c.completedAt,
+      role: o.role,
+      fromHolderId: batch.holderId,
+      toHolderId: place.to,
+      massG,
+      recordedById: actor.userId,
+      note: o.role === "LOSS" ? `recorded loss: ${o.reason ?? ""}` : "",
+      field: `outputs.${i}.massKg`,
+      ...(place.room ? { room: place.room } : {}),
+    });
+  }
+  return productLots;
 }
 
 /**
  * Records what was weighed or gauged out. The outputs need not add up to the charge: the remainder is
  * booked as the batch's unmeasured difference (or, when more was measured than charged, an unmeasured
- * gain booked in first). Water used for washing goes from its water lot straight to the wash-water
- * stream, never through the reactor, so it is never part of a product lot.
+ * gain booked in first) and flagged against the site's closure tolerance. Water used for washing goes
+ * from its water lot straight to the wash-water stream, so it is never part of a product lot.
  */
 export async function completeBatch(
   db: Db,
   actor: Actor,
   input: unknown,
-): Promise<Result<{ code: string; productLots: string[]; unmeasuredG: number }>> {
+): Promise<Result<{ code: string; productLots: string[]; unmeasuredG: number; closure: Closure }>> {
   const parsed = parseInput(BatchCompleteSchema, input);
   if (!parsed.ok) return parsed;
   const c = parsed.value;
@@ -283,70 +249,22 @@ export async function completeBatch(
     if (batch.startedAt && c.completedAt < batch.startedAt)
       reject("BATCH.ENDS_BEFORE_START", "Finish time is before the start time", "completedAt");
     const shares = c.outputs.map((o, i) => batchShareG(o, i));
+    const chargedG = await getStockG(tx, batch.holderId);
     const { gainG } = planUnmeasuredBooking(
-      await getStockG(tx, batch.holderId),
+      chargedG,
       shares.reduce((a, b) => a + b, 0),
     );
-    if (gainG > 0) {
-      await postMovement(tx, {
-        siteId: actor.siteId,
-        at: c.completedAt,
-        role: UNMEASURED_ROLE,
-        fromHolderId: null,
-        toHolderId: batch.holderId,
-        massG: gainG,
-        recordedById: actor.userId,
-        note: "unmeasured difference: more measured out than charged",
-        field: "outputs",
-      });
-    }
-    const productLots: string[] = [];
-    for (const [i, o] of c.outputs.entries()) {
-      const { to, room } = await resolveOutputPlace(tx, actor, batch, c.completedAt, o, i, toGrams(o.massKg));
-      if (o.toKind === "PRODUCT_LOT" && o.toCode) productLots.push(o.toCode);
-      if (o.role === "WASH_WATER" && o.waterFromCode !== undefined && o.waterKg !== undefined) {
-        const field = `outputs.${i}.waterFromCode`;
-        const water = await requireDrawableHolder(tx, actor.siteId, "REAGENT_LOT", o.waterFromCode, field);
-        if ((await getReagentOfHolder(tx, water)) !== "WATER")
-          reject("BATCH.NOT_WATER", `Reagent lot ${o.waterFromCode} is not water`, field);
-        await postMovement(tx, {
-          siteId: actor.siteId,
-          at: c.completedAt,
-          role: "WATER",
-          fromHolderId: water,
-          toHolderId: to,
-          massG: toGrams(o.waterKg),
-          recordedById: actor.userId,
-          note: `washing batch ${c.batchCode}`,
-          field: `outputs.${i}.waterKg`,
-          ...(room ? { room } : {}),
-        });
-        await markLotConsumedIfEmpty(tx, water);
-      }
-      const massG = shares[i] ?? 0;
-      if (massG === 0) continue;
-      const note = o.role === "LOSS" ? `recorded loss: ${o.reason ?? ""}` : "";
-      await postMovement(tx, {
-        siteId: actor.siteId,
-        at: c.completedAt,
-        role: o.role,
-        fromHolderId: batch.holderId,
-        toHolderId: to,
-        massG,
-        recordedById: actor.userId,
-        note,
-        field: `outputs.${i}.massKg`,
-        ...(room ? { room } : {}),
-      });
-    }
-    const unmeasuredG =
-      (await bookUnmeasuredDifference(
-        tx,
-        actor,
-        batch,
-        c.completedAt,
-        "unmeasured difference: charged less everything measured out",
-      )) - gainG;
+    const gainNote = "unmeasured difference: more measured out than charged";
+    await bookUnmeasuredGain(tx, actor, batch, c.completedAt, gainG, gainNote, "outputs");
+    const productLots = await bookOutputs(tx, actor, batch, c, shares);
+    const booked = await bookUnmeasuredDifference(
+      tx,
+      actor,
+      batch,
+      c.completedAt,
+      "unmeasured difference: charged less everything measured out",
+    );
+    const unmeasuredG = booked - gainG;
     await markBatchComplete(tx, batch.id, c.completedAt);
     await appendAudit(tx, actor, {
       action: "CHANGE",
@@ -355,7 +273,8 @@ export async function completeBatch(
       before: { status: batch.status },
       after: { status: "COMPLETE", completedAt: c.completedAt, outputs: c.outputs, unmeasuredG },
     });
-    return { code: c.batchCode, productLots, unmeasuredG };
+    const tolerance = (await getSiteLimits(tx, actor.siteId)).closure;
+    return { code: c.batchCode, productLots, unmeasuredG, closure: classifyClosure(unmeasuredG, chargedG, tolerance) };
   });
 }
 
@@ -393,43 +312,13 @@ export async function correctBatchOutput(
       );
     const newG = toGrams(c.massKg);
     if (newG === m.massG) reject("BATCH.SAME_MASS", "Corrected mass: this is the mass already recorded", "massKg");
-    const reverse = async (x: {
-      id: number;
-      at: Date;
-      role: string;
-      fromHolderId: number;
-      toHolderId: number;
-      massG: number;
-    }) =>
-      postMovement(tx, {
-        siteId: actor.siteId,
-        at: x.at,
-        role: x.role as MoveRole,
-        fromHolderId: x.toHolderId,
-        toHolderId: x.fromHolderId,
-        massG: x.massG,
-        recordedById: actor.userId,
-        reversesId: x.id,
-        note: `Reversal of movement ${x.id}: ${c.reason}`,
-        field: "massKg",
-      });
+    const reverse = (x: OutflowMove) => reverseOutflow(tx, actor, x, c.reason);
     for (const u of moves.filter((x) => x.role === UNMEASURED_ROLE && x.reversedById === null && x.reversesId === null))
       await reverse(u);
     await reverse(m);
     const { gainG } = planUnmeasuredBooking(await getStockG(tx, batch.holderId), newG);
-    if (gainG > 0) {
-      await postMovement(tx, {
-        siteId: actor.siteId,
-        at: m.at,
-        role: UNMEASURED_ROLE,
-        fromHolderId: null,
-        toHolderId: batch.holderId,
-        massG: gainG,
-        recordedById: actor.userId,
-        note: `unmeasured difference after correcting movement ${m.id}`,
-        field: "massKg",
-      });
-    }
+    const note = `unmeasured difference after correcting movement ${m.id}`;
+    await bookUnmeasuredGain(tx, actor, batch, m.at, gainG, note, "massKg");
     const room = await requireTankRoom(tx, m.toHolderId, newG, "massKg");
     await postMovement(tx, {
       siteId: actor.siteId,
@@ -444,13 +333,7 @@ export async function correctBatchOutput(
       ...(room ? { room } : {}),
     });
     if (m.role === "ESTER") await setProductLotMadeMass(tx, m.toHolderId, newG);
-    const booked = await bookUnmeasuredDifference(
-      tx,
-      actor,
-      batch,
-      m.at,
-      `unmeasured difference after correcting movement ${m.id}`,
-    );
+    const booked = await bookUnmeasuredDifference(tx, actor, batch, m.at, note);
     const unmeasuredG = booked - (await sumUnmeasuredGains(tx, batch.holderId));
     await appendAudit(tx, actor, {
       action: "CHANGE",

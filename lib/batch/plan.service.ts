@@ -8,13 +8,18 @@ import { BatchPlanRequestSchema, draftBatchPlan } from "@/lib/batch/plan";
 import type { PlanProposal, RecipeCard } from "@/lib/batch/plan";
 import { listReagentStock, loadPlanStock } from "@/lib/batch/plan.store";
 import type { Actor } from "@/lib/core/actor";
+import { getSiteLimits } from "@/lib/mass-balance/site-limits.service";
 
 /** Proposes draws and a recipe from the site's stock now; nothing is written. */
 export async function proposeBatchPlan(db: Db, actor: Actor, input: unknown): Promise<Result<PlanProposal>> {
   const parsed = parseInput(BatchPlanRequestSchema, input);
   if (!parsed.ok) return parsed;
-  const [stock, reagents] = await Promise.all([loadPlanStock(db, actor.siteId), listReagentStock(db, actor.siteId)]);
-  return ok(await draftBatchPlan(parsed.value, stock, reagents, actor.now));
+  const [stock, reagents, limits] = await Promise.all([
+    loadPlanStock(db, actor.siteId),
+    listReagentStock(db, actor.siteId),
+    getSiteLimits(db, actor.siteId),
+  ]);
+  return ok(await draftBatchPlan(parsed.value, stock, reagents, actor.now, limits.water));
 }
 
 export interface RecordedPlan {

@@ -1,7 +1,9 @@
 import "server-only";
 import type { Db } from "@/lib/core/connect";
-import { combineFfaReadings, toFfaBasis } from "@/lib/titration/titration";
-import type { FfaBasis, FfaReading } from "@/lib/titration/titration";
+import { toFfaBasis } from "@/lib/titration/titration";
+import { combineFfaReadings } from "@/lib/titration/replicates";
+import type { FfaBasis } from "@/lib/titration/titration";
+import type { FfaReading } from "@/lib/titration/replicates";
 
 export interface LotLabResult {
   lotId: number;

@@ -1,5 +1,6 @@
 import "server-only";
-import { combineFfaReadings, toFfaBasis } from "@/lib/titration/titration";
+import { toFfaBasis } from "@/lib/titration/titration";
+import { combineFfaReadings } from "@/lib/titration/replicates";
 import type { FfaBasis } from "@/lib/titration/titration";
 import type { Db, Tx } from "@/lib/core/connect";
 import type { Measured } from "@/lib/feedstock/measure";

@@ -12,6 +12,7 @@ import type { BalanceReport } from "@/lib/mass-balance/balance.service";
 import { getLastGaugeId, sealHolds, sealText } from "@/lib/mass-balance/balance-seal.store";
 import type { BalanceSeal } from "@/lib/mass-balance/balance-seal.store";
 import { getLedgerPosition } from "@/lib/ledger/position.store";
+import { getSiteLimits } from "@/lib/mass-balance/site-limits.service";
 import { PositionCache, quarterHourOf } from "@/lib/ledger/position";
 import type { LedgerPosition } from "@/lib/ledger/position";
 
@@ -59,7 +60,9 @@ export async function getBalanceReportTraced(
   now: Date,
 ): Promise<{ result: Result<BalanceReport>; outcome: BalanceCacheOutcome; position: LedgerPosition }> {
   const started = performance.now();
-  const key = balanceQuestionKey(site, input, now);
+  // The site's tolerance is part of the question: a changed tolerance re-flags even a sealed period.
+  const tolerance = (await getSiteLimits(db, site.id)).closure;
+  const key = `${balanceQuestionKey(site, input, now)}|${tolerance.warnPct}/${tolerance.failPct}`;
   const sealed = cache.getSealed(key);
   const position = await getLedgerPosition(db, site.id);
   const same = cache.get(key, position);

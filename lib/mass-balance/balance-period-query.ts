@@ -1,6 +1,7 @@
 // The balance page's question resolved: which month, quarter or custom range (default: last month at
 // the site), with the site's UTC offsets at both ends, and the closure tolerance entered with it.
 import { getLocalDate } from "@/lib/mass-balance/period";
+import type { ClosureTolerance } from "@/lib/mass-balance/balance-types";
 import { DEFAULT_CLOSURE_TOLERANCE } from "@/lib/mass-balance/period-balance";
 import type { BalanceQuery } from "@/lib/mass-balance/balance-query.schema";
 import { getUtcOffsetMin } from "@/lib/period/site-time";
@@ -73,15 +74,17 @@ export function periodRangeInput(r: ResolvedBalanceQuery, timeZone: string): Rec
 }
 
 /** The input of ClosureToleranceSchema: the default, or the entered limits marked as a site setting. */
-export function toleranceInput(q: Pick<BalanceQuery, "warnPct" | "failPct">): Record<string, unknown> {
-  const d = DEFAULT_CLOSURE_TOLERANCE;
-  const warnPct = q.warnPct ?? d.warnPct;
-  const failPct = q.failPct ?? d.failPct;
-  if (warnPct === d.warnPct && failPct === d.failPct) return { ...d };
+export function toleranceInput(
+  q: Pick<BalanceQuery, "warnPct" | "failPct">,
+  site: ClosureTolerance = DEFAULT_CLOSURE_TOLERANCE,
+): Record<string, unknown> {
+  const warnPct = q.warnPct ?? site.warnPct;
+  const failPct = q.failPct ?? site.failPct;
+  if (warnPct === site.warnPct && failPct === site.failPct) return { ...site };
   return {
     warnPct,
     failPct,
-    source: "site setting entered with this balance",
-    note: `Changed from the default warn ${d.warnPct} % / fail ${d.failPct} % (${d.source}).`,
+    source: "entered with this balance",
+    note: `The site works to warn above ${site.warnPct} %, fail above ${site.failPct} % (${site.source}).`,
   };
 }

@@ -6,6 +6,7 @@ import type { Db } from "@/lib/core/connect";
 import { fail, ok } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
 import { parseInput } from "@/lib/ledger/parse";
+import { getSiteLimits } from "@/lib/mass-balance/site-limits.service";
 import {
   getAccountingPeriodExact,
   listLatestGauges,
@@ -48,7 +49,7 @@ export async function getBalanceReport(
   if (!period.ok) return period;
   const unreasonable = refuseUnreasonablePeriod(period.value, q.period, now.getTime());
   if (unreasonable) return fail("BALANCE.PERIOD_OUT_OF_RANGE", unreasonable.message, unreasonable.field);
-  const tol = parseInput(ClosureToleranceSchema, toleranceInput(q));
+  const tol = parseInput(ClosureToleranceSchema, toleranceInput(q, (await getSiteLimits(db, site.id)).closure));
   if (!tol.ok) return tol;
   const tolerance = tol.value;
 

@@ -107,7 +107,7 @@ export function mergeRecipeLimits(overrides: Partial<RecipeLimits> = {}): Recipe
  * The water limit of each reaction step, one setting each, used by the blend planner, the recipe warning
  * and the pretreatment warning alike (a blend is checked against the step it goes into first).
  */
-export const WATER_LIMIT_BY_STEP: Readonly<{ BASE_STEP: SourcedValue; ACID_STEP: SourcedValue }> = {
+export const WATER_LIMIT_BY_STEP: WaterLimits = {
   BASE_STEP: DEFAULT_RECIPE_LIMITS.maxWaterPct,
   ACID_STEP: defineSourced(
     0.5,
@@ -116,3 +116,6 @@ export const WATER_LIMIT_BY_STEP: Readonly<{ BASE_STEP: SourcedValue; ACID_STEP:
     "from memory",
   ),
 };
+
+/** The water limit of each step as a site works to it: the defaults above, or the site's own values. */
+export type WaterLimits = Readonly<{ BASE_STEP: SourcedValue; ACID_STEP: SourcedValue }>;

@@ -1,7 +1,7 @@
 import Link from "next/link";
 import type { BatchDetail } from "@/lib/batch/batch.store";
 import { computeRecordedYield } from "@/lib/batch/plan";
-import type { UsageComparison } from "@/lib/recipe/yield";
+import type { BatchYield, UsageComparison } from "@/lib/recipe/yield";
 import { num } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { Note } from "@/app/_ui/ui";
@@ -18,6 +18,32 @@ function Usage({ label, u }: { label: string; u: UsageComparison }) {
       </td>
       <td className="num">{u.ratio === null ? "—" : `${num(u.ratio * 100, 1)} %`}</td>
     </tr>
+  );
+}
+
+function YieldFacts({ y }: { y: BatchYield }) {
+  return (
+    <dl className="facts">
+      <div>
+        <dt>Ester vs theory</dt>
+        <dd data-testid="ester-yield">{num(y.esterYieldVsTheory * 100, 1)} %</dd>
+      </div>
+      <div>
+        <dt>Ester per kg oil</dt>
+        <dd>{num(y.esterPerKgOil, 3)} kg</dd>
+      </div>
+      <div>
+        <dt>Theoretical ester</dt>
+        <dd>{num(y.theoreticalEsterKg, 1)} kg</dd>
+      </div>
+      <div>
+        <dt>Glycerol phase per kg oil</dt>
+        <dd>
+          {num(y.glycerolPhasePerKgOil, 3)} kg{" "}
+          <span className="muted">(pure glycerol in theory {num(y.theoreticalGlycerolPerKgOil, 3)} kg)</span>
+        </dd>
+      </div>
+    </dl>
   );
 }
 
@@ -42,29 +68,7 @@ export async function BatchPlanSection({ batch }: { batch: BatchDetail }) {
         <Note>{y.issues.map((i) => i.message).join(" ")}</Note>
       ) : (
         <>
-          <dl className="facts">
-            <div>
-              <dt>Ester vs theory</dt>
-              <dd data-testid="ester-yield">{num(y.value.yield.esterYieldVsTheory * 100, 1)} %</dd>
-            </div>
-            <div>
-              <dt>Ester per kg oil</dt>
-              <dd>{num(y.value.yield.esterPerKgOil, 3)} kg</dd>
-            </div>
-            <div>
-              <dt>Theoretical ester</dt>
-              <dd>{num(y.value.yield.theoreticalEsterKg, 1)} kg</dd>
-            </div>
-            <div>
-              <dt>Glycerol phase per kg oil</dt>
-              <dd>
-                {num(y.value.yield.glycerolPhasePerKgOil, 3)} kg{" "}
-                <span className="muted">
-                  (pure glycerol in theory {num(y.value.yield.theoreticalGlycerolPerKgOil, 3)} kg)
-                </span>
-              </dd>
-            </div>
-          </dl>
+          <YieldFacts y={y.value.yield} />
           <div className="table-wrap">
             <table>
               <caption>Used vs planned (scaled to the oil charged)</caption>

@@ -9,14 +9,11 @@ import { kg, num, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
 import { MadeOf } from "@/app/_ui/made-of";
 import { loadSite } from "@/app/_ui/site";
-import { CodeLink, Empty, Facts, MovementTable, NoSite, Note, Status } from "@/app/_ui/ui";
+import { Facts, NoSite, Note, Status } from "@/app/_ui/ui";
 import { BatchPlanSection } from "@/app/batches/[code]/batch-plan-section";
-import { TakeBackChargeForm } from "@/app/corrections/correction-forms";
-import type { MovementView } from "@/lib/ledger/movement.store";
 import { summarizeBatchClosure } from "@/lib/batch/closure";
-import { DEFAULT_CLOSURE_TOLERANCE } from "@/lib/mass-balance/period-balance";
-import { ClosureChip, ToleranceNote } from "@/app/balance/closure";
-import { CorrectOutputForm } from "@/app/batches/[code]/correct-output-form";
+import { getSiteLimits } from "@/lib/mass-balance/site-limits.service";
+import { ChargesSection, ClosureSection, OutputsSection, ProductLotsTable } from "@/app/batches/[code]/batch-sections";
 
 export const dynamic = "force-dynamic";
 
@@ -48,7 +45,7 @@ export default async function BatchPage({ params }: Props) {
   const tz = site.timeZone;
   const chargedG = b.charges.reduce((s, m) => s + m.massG, 0);
   const outG = b.outputs.reduce((s, m) => s + m.massG, 0);
-  const tolerance = DEFAULT_CLOSURE_TOLERANCE;
+  const tolerance = (await getSiteLimits(db, site.id)).closure;
   const closure = summarizeBatchClosure(
     [
       ...b.charges.map((m) => ({ role: m.role, massG: m.massG, direction: "IN" as const })),
@@ -89,145 +86,19 @@ export default async function BatchPage({ params }: Props) {
       {b.notes ? <p>Notes: {b.notes}</p> : null}
       <BatchPlanSection batch={b} />
 
-      <h2>Charges in</h2>
-      {b.charges.length === 0 ? (
-        <Empty>Nothing has been charged yet.</Empty>
-      ) : (
-        <MovementTable
-          rows={b.charges}
-          timeZone={tz}
-          side="to"
-          {...(b.status === "RUNNING"
-            ? {
-                action: {
-                  header: "Correction",
-                  render: (m: MovementView) =>
-                    m.reversesId === null ? <TakeBackChargeForm movementId={m.id} /> : null,
-                },
-              }
-            : {})}
-        />
-      )}
-      {b.status === "RUNNING" && b.charges.length > 0 ? (
-        <Note>
-          A charge booked by mistake (wrong tank or lot, wrong mass) can be taken back while the batch is reacting: the
-          record gets an opposite movement with your reason, and traces and balances leave the pair out. This only
-          corrects the books. If material really has to leave the reactor, follow the plant&apos;s written procedure and
-          the safety data sheets: methanol and methoxide are toxic and flammable, hydroxides and acid are corrosive, and
-          the charge may be hot.
-        </Note>
-      ) : null}
-      {b.takenBack.length > 0 ? (
-        <>
-          <h3>Charges taken back</h3>
-          <MovementTable
-            rows={b.takenBack}
-            timeZone={tz}
-            side="to"
-            caption="Booked by mistake and reversed; not counted in the batch."
-          />
-        </>
-      ) : null}
+      <ChargesSection b={b} tz={tz} />
 
       <h2>Feedstock and reagent lots in this batch</h2>
       <MadeOf madeOf={madeOf} what="batch" />
 
-      <h2>Outputs</h2>
-      {b.outputs.length === 0 ? (
-        <Empty>No outputs recorded yet.</Empty>
-      ) : (
-        <MovementTable rows={b.outputs} timeZone={tz} side="from" />
-      )}
-      {b.corrected.length > 0 ? (
-        <>
-          <h3>Outputs corrected</h3>
-          <MovementTable
-            rows={b.corrected}
-            timeZone={tz}
-            side="from"
-            caption="Typed wrong and reversed; the corrected entries are in the outputs above."
-          />
-        </>
-      ) : null}
+      <OutputsSection b={b} tz={tz} />
 
       {finished ? (
-        <section aria-labelledby="closure-h">
-          <h2 id="closure-h">Closure</h2>
-          <Facts
-            items={[
-              ["Charged", kg(closure.chargedG, 3)],
-              ["Weighed or gauged out", kg(closure.measuredG, 3)],
-              ["Recorded losses", kg(closure.recordedLossG, 3)],
-              [
-                "Unmeasured difference",
-                <span key="u" data-testid="batch-unmeasured">
-                  {kg(closure.differenceG, 3)}
-                </span>,
-              ],
-              ["Share of the charge", <ClosureChip key="c" closure={closure.closure} what="of the charge" />],
-            ]}
-          />
-          {closure.closure.flag !== "OK" ? (
-            <p className="warning" role="status">
-              The unmeasured difference is above the site&apos;s tolerance: check the weighbridge tickets and gauges,
-              lines and filters for hold-up, and drains and valves for leaks. If an output was typed wrong, correct it
-              below.
-            </p>
-          ) : null}
-          <Note>
-            The unmeasured difference is what was charged less everything weighed or gauged out and the recorded losses;
-            it is booked when the batch finishes, never typed. <ToleranceNote tolerance={tolerance} />
-          </Note>
-          {user.role === "PRODUCTION" && b.outputs.length > 0 ? (
-            <>
-              <h3>Correct an output typed wrong</h3>
-              <p>
-                The wrong entry stays on record, reversed, and the output is booked again with the right mass at its
-                original time; the unmeasured difference is worked out again. Refused when the material has moved on
-                since or the period is closed.
-              </p>
-              <CorrectOutputForm
-                batchCode={b.code}
-                outputs={b.outputs.map(
-                  (m) => [String(m.id), `No. ${m.id} · ${labelOf(m.role)} → ${m.to.code} · ${kg(m.massG, 3)}`] as const,
-                )}
-              />
-            </>
-          ) : null}
-        </section>
+        <ClosureSection b={b} closure={closure} tolerance={tolerance} canCorrect={user.role === "PRODUCTION"} />
       ) : null}
 
       <h2>Product lots</h2>
-      {b.products.length === 0 ? (
-        <Empty>This batch has made no product lot yet.</Empty>
-      ) : (
-        <div className="table-wrap">
-          <table>
-            <thead>
-              <tr>
-                <th scope="col">Product lot</th>
-                <th scope="col">Status</th>
-                <th scope="col" className="num">
-                  Mass made
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {b.products.map((p) => (
-                <tr key={p.code}>
-                  <td>
-                    <CodeLink href={`/products/${encodeURIComponent(p.code)}`} code={p.code} />
-                  </td>
-                  <td>
-                    <Status code={p.status} />
-                  </td>
-                  <td className="num">{kg(p.massG)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
-      )}
+      <ProductLotsTable products={b.products} />
 
       {recipe ? (
         <>

@@ -5,6 +5,7 @@ import { when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { NoSite } from "@/app/_ui/ui";
 import { RecipeCardView } from "@/app/plan/recipe-card";
+import { getSiteLimits } from "@/lib/mass-balance/site-limits.service";
 import { PrintButton } from "@/app/plan/print-button";
 import { firstParam, planQueryString, planRequestFromParams } from "@/app/plan/plan-query";
 import type { SearchParams } from "@/app/plan/plan-query";
@@ -49,6 +50,7 @@ export default async function RecipeCardPage({ searchParams }: { searchParams: P
             card={proposal.value.outcome.card}
             heading={`${site.name} — recipe card`}
             printedAt={when(user.now, site.timeZone)}
+            waterLimit={(await getSiteLimits(db, site.id)).water.BASE_STEP}
           />
         </>
       ) : (

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { getActiveWasteRules } from "@/lib/waste/site-rules.store";
-import { wasteDefaults } from "@/lib/spec/default-sources";
+import { wasteDefaults } from "@/app/references/default-sources";
 import { when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { NoSite, Note } from "@/app/_ui/ui";

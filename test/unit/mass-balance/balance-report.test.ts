@@ -48,12 +48,19 @@ describe("the balance page's question", () => {
     });
   });
 
-  it("marks an entered tolerance as a site setting and keeps the default otherwise", () => {
+  it("marks an entered tolerance as entered, and keeps the site's own otherwise", () => {
     expect(toleranceInput({})).toEqual(DEFAULT_CLOSURE_TOLERANCE);
     expect(toleranceInput({ warnPct: DEFAULT_CLOSURE_TOLERANCE.warnPct + 1 })).toMatchObject({
       warnPct: DEFAULT_CLOSURE_TOLERANCE.warnPct + 1,
       failPct: DEFAULT_CLOSURE_TOLERANCE.failPct,
-      source: "site setting entered with this balance",
+      source: "entered with this balance",
+    });
+    const site = { ...DEFAULT_CLOSURE_TOLERANCE, warnPct: 0.2, failPct: 0.8, source: "set by this site" };
+    expect(toleranceInput({}, site)).toEqual(site);
+    expect(toleranceInput({ failPct: 0.9 }, site)).toMatchObject({
+      warnPct: 0.2,
+      failPct: 0.9,
+      note: "The site works to warn above 0.2 %, fail above 0.8 % (set by this site).",
     });
   });
 });

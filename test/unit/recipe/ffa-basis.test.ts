@@ -7,7 +7,8 @@ import type { RecipePlan } from "@/lib/recipe/recipe";
 import { computeNeutralisationKg } from "@/lib/recipe/catalyst";
 import { RecipeInputSchema } from "@/lib/recipe/recipe.schema";
 import type { RecipeInput } from "@/lib/recipe/recipe.schema";
-import { combineFfaReadings, convertFfaBasis } from "@/lib/titration/titration";
+import { convertFfaBasis } from "@/lib/titration/titration";
+import { combineFfaReadings } from "@/lib/titration/replicates";
 
 // IUPAC/CIAAW 2021 standard atomic weights (conventional values): C 12.011, H 1.008, O 15.999, Na 22.98976928, K 39.0983.
 // M(oleic C18H34O2)   = 18×12.011 + 34×1.008 + 2×15.999 = 216.198 + 34.272 + 31.998 = 282.468 g/mol

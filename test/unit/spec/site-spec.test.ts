@@ -4,7 +4,7 @@ import type { Spec } from "@/lib/spec/spec";
 import { applySiteLimits, changedLimits, siteLimitIssues, siteLimitsText } from "@/lib/spec/site-spec";
 import { parseSiteSpecKey, siteSpecKey } from "@/lib/spec/site-spec.schema";
 import { describeEditions } from "@/lib/spec/catalogue";
-import { levelOf, recipeDefaults, screenText, wasteDefaults } from "@/lib/spec/default-sources";
+import { levelOf, recipeDefaults, screenText, wasteDefaults } from "@/app/references/default-sources";
 
 function spec(key: string): Spec {
   const s = getBuiltInSpec(key);

@@ -4,19 +4,17 @@ import { MF } from "mf-parser";
 import {
   acidValueFromFfa,
   CA5A40_AV_PER_FFA_OLEIC,
-  CA5A40_SAMPLE_SIZE_TABLE,
   calculateAcidValue,
   calculateFfaPercent,
-  DEFAULT_FFA_REPEATABILITY,
   DEFAULT_TITRATION_LIMITS,
   FFA_BASES,
   FFA_FACTORS,
   ffaFromAcidValue,
   getFfaFactor,
   KOH_MOLAR_MASS_G_MOL,
-  suggestSampleSize,
-  summariseReplicates,
 } from "@/lib/titration/titration";
+import { DEFAULT_FFA_REPEATABILITY, summariseReplicates } from "@/lib/titration/replicates";
+import { CA5A40_SAMPLE_SIZE_TABLE, suggestSampleSize } from "@/lib/titration/sample-size";
 import type { TitrationInput } from "@/lib/titration/titration";
 import type { Result } from "@/lib/core/result";
 

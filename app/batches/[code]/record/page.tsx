@@ -1,11 +1,14 @@
 import type { Metadata } from "next";
+import type { ReactNode } from "react";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getBatchDetail } from "@/lib/batch/batch.store";
+import type { BatchDetail } from "@/lib/batch/batch.store";
 import { listCautions, readPlannedFigures, suggestCharges } from "@/lib/batch/plan";
+import type { Caution, PlannedFigures } from "@/lib/batch/plan";
 import { listOutputPlaces, listReagentStock } from "@/lib/batch/plan.store";
 import { CATALYSTS } from "@/lib/core/vocabulary";
-import { DEFAULT_CLOSURE_TOLERANCE } from "@/lib/mass-balance/period-balance";
+import { getSiteLimits } from "@/lib/mass-balance/site-limits.service";
 import type { Catalyst } from "@/lib/core/vocabulary";
 import { kg, num } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
@@ -24,6 +27,87 @@ export async function generateMetadata({ params }: Props): Promise<Metadata> {
 
 function fixed(kgValue: number): string {
   return num(kgValue, 3);
+}
+
+/** The finish: measured outputs only; the remainder is booked as the unmeasured difference. */
+async function FinishView({
+  db,
+  siteId,
+  b,
+  planned,
+  cautions,
+  back,
+}: {
+  db: Awaited<ReturnType<typeof loadSite>>["db"];
+  siteId: number;
+  b: BatchDetail;
+  planned: PlannedFigures | null;
+  cautions: Caution[];
+  back: ReactNode;
+}) {
+  const [places, reagents] = await Promise.all([listOutputPlaces(db, siteId), listReagentStock(db, siteId)]);
+  const chargedG = b.charges.reduce((s, m) => s + m.massG, 0);
+  const firstOf = (kind: string, use: string) => places.find((p) => p.kind === kind && p.use === use)?.code ?? "";
+  const suffix = b.code.replace(/^B-/, "");
+  const waterKg = planned && planned.washWaterKg > 0 ? planned.washWaterKg : 0;
+  const waterLot = reagents
+    .filter((r) => r.reagent === "WATER" && r.stockG >= waterKg * 1000 && r.stockG > 0)
+    .sort((a, c) => a.receivedAt.getTime() - c.receivedAt.getTime() || a.code.localeCompare(c.code))[0];
+  const tolerance = (await getSiteLimits(db, siteId)).closure;
+  const initial: OutputRow[] = [
+    { role: "ESTER", toKind: "PRODUCT_LOT", toCode: `P-${suffix}`, massKg: "" },
+    {
+      role: "GLYCEROL_PHASE",
+      toKind: "WASTE_CONTAINER",
+      toCode: firstOf("WASTE_CONTAINER", "GLYCEROL_PHASE"),
+      massKg: "",
+    },
+    {
+      role: "WASH_WATER",
+      toKind: "WASTE_CONTAINER",
+      toCode: firstOf("WASTE_CONTAINER", "WASH_WATER"),
+      massKg: "",
+      waterFromCode: waterKg > 0 ? (waterLot?.code ?? "") : "",
+      waterKg: waterKg > 0 ? fixed(waterKg) : "",
+    },
+    { role: "RECOVERED_METHANOL", toKind: "TANK", toCode: firstOf("TANK", "METHANOL"), massKg: "" },
+    { role: "LOSS", toKind: "", toCode: "", massKg: "", reason: "" },
+  ];
+  return (
+    <>
+      {back}
+      <h1>Finish batch {b.code}</h1>
+      <p className="lede">
+        Record what you weighed or gauged out of the {kg(chargedG, 3)} charged. Whatever no measurement finds is booked
+        for you as the batch&apos;s unmeasured difference and flagged when it is above the site&apos;s tolerance — do
+        not type it as a loss. Record a loss only for something that really happened (a spill, a leak) and say what.
+        Water used for washing comes from a water lot and goes with the wash water; it is never part of the product.
+      </p>
+      {planned ? (
+        <Note>
+          Expected at full conversion: ester {num(planned.expectedEsterKg, 1)} kg, glycerol (pure){" "}
+          {num(planned.expectedGlycerolKg, 1)} kg; the glycerol phase also carries methanol, soap and catalyst.
+        </Note>
+      ) : null}
+      <aside className="cautions" aria-label="Cautions">
+        <p className="cautions-title">Cautions</p>
+        <ul>
+          {cautions
+            .filter(
+              (c) => c.step === "GLYCEROL" || c.step === "METHANOL" || c.step === "HOT_OIL" || c.step === "GENERAL",
+            )
+            .map((c) => (
+              <li key={c.step}>{c.text}</li>
+            ))}
+        </ul>
+      </aside>
+      <FinishForm batchCode={b.code} chargedKg={chargedG / 1000} warnPct={tolerance.warnPct} initial={initial} />
+      <Note>
+        Closure tolerance: warn above {num(tolerance.warnPct, 2)} %, fail above {num(tolerance.failPct, 2)} % of the
+        charge ({tolerance.source}).
+      </Note>
+    </>
+  );
 }
 
 export default async function RecordBatchPage({ params }: Props) {
@@ -88,72 +172,8 @@ export default async function RecordBatchPage({ params }: Props) {
     );
   }
 
-  if (b.status === "RUNNING") {
-    const [places, reagents] = await Promise.all([listOutputPlaces(db, site.id), listReagentStock(db, site.id)]);
-    const chargedG = b.charges.reduce((s, m) => s + m.massG, 0);
-    const firstOf = (kind: string, use: string) => places.find((p) => p.kind === kind && p.use === use)?.code ?? "";
-    const suffix = b.code.replace(/^B-/, "");
-    const waterKg = planned && planned.washWaterKg > 0 ? planned.washWaterKg : 0;
-    const waterLot = reagents
-      .filter((r) => r.reagent === "WATER" && r.stockG >= waterKg * 1000 && r.stockG > 0)
-      .sort((a, c) => a.receivedAt.getTime() - c.receivedAt.getTime() || a.code.localeCompare(c.code))[0];
-    const tolerance = DEFAULT_CLOSURE_TOLERANCE;
-    const initial: OutputRow[] = [
-      { role: "ESTER", toKind: "PRODUCT_LOT", toCode: `P-${suffix}`, massKg: "" },
-      {
-        role: "GLYCEROL_PHASE",
-        toKind: "WASTE_CONTAINER",
-        toCode: firstOf("WASTE_CONTAINER", "GLYCEROL_PHASE"),
-        massKg: "",
-      },
-      {
-        role: "WASH_WATER",
-        toKind: "WASTE_CONTAINER",
-        toCode: firstOf("WASTE_CONTAINER", "WASH_WATER"),
-        massKg: "",
-        waterFromCode: waterKg > 0 ? (waterLot?.code ?? "") : "",
-        waterKg: waterKg > 0 ? fixed(waterKg) : "",
-      },
-      { role: "RECOVERED_METHANOL", toKind: "TANK", toCode: firstOf("TANK", "METHANOL"), massKg: "" },
-      { role: "LOSS", toKind: "", toCode: "", massKg: "", reason: "" },
-    ];
-    return (
-      <>
-        {back}
-        <h1>Finish batch {b.code}</h1>
-        <p className="lede">
-          Record what you weighed or gauged out of the {kg(chargedG, 3)} charged. Whatever no measurement finds is
-          booked for you as the batch&apos;s unmeasured difference and flagged when it is above the site&apos;s
-          tolerance — do not type it as a loss. Record a loss only for something that really happened (a spill, a leak)
-          and say what. Water used for washing comes from a water lot and goes with the wash water; it is never part of
-          the product.
-        </p>
-        {planned ? (
-          <Note>
-            Expected at full conversion: ester {num(planned.expectedEsterKg, 1)} kg, glycerol (pure){" "}
-            {num(planned.expectedGlycerolKg, 1)} kg; the glycerol phase also carries methanol, soap and catalyst.
-          </Note>
-        ) : null}
-        <aside className="cautions" aria-label="Cautions">
-          <p className="cautions-title">Cautions</p>
-          <ul>
-            {cautions
-              .filter(
-                (c) => c.step === "GLYCEROL" || c.step === "METHANOL" || c.step === "HOT_OIL" || c.step === "GENERAL",
-              )
-              .map((c) => (
-                <li key={c.step}>{c.text}</li>
-              ))}
-          </ul>
-        </aside>
-        <FinishForm batchCode={b.code} chargedKg={chargedG / 1000} warnPct={tolerance.warnPct} initial={initial} />
-        <Note>
-          Closure tolerance: warn above {num(tolerance.warnPct, 2)} %, fail above {num(tolerance.failPct, 2)} % of the
-          charge ({tolerance.source}).
-        </Note>
-      </>
-    );
-  }
+  if (b.status === "RUNNING")
+    return <FinishView db={db} siteId={site.id} b={b} planned={planned} cautions={cautions} back={back} />;
 
   return (
     <>

@@ -11,6 +11,7 @@ import type { RecipeDefaults, RecipeLimits } from "@/lib/recipe/recipe-defaults"
 import { RULESET_US_FEDERAL_RCRA } from "@/lib/waste/waste-due";
 import type { RuleValue, WasteRuleSet } from "@/lib/waste/waste-due";
 import { levelOf, screenText } from "@/lib/spec/source-text";
+import { DEFAULT_CLOSURE_TOLERANCE } from "@/lib/mass-balance/period-balance";
 import type { SourceLevel } from "@/lib/spec/source-text";
 
 export type { SourceLevel } from "@/lib/spec/source-text";
@@ -127,6 +128,21 @@ export function recipeDefaults(): DefaultGroup {
         "KOH equivalent mass used in acid value formulas",
         KOH_EQUIVALENT_MASS_IN_STANDARDS,
       ),
+    ],
+  };
+}
+
+/** The mass-balance closure tolerance a site starts from (a site changes it on its limits page). */
+export function balanceDefaults(): DefaultGroup {
+  const t = DEFAULT_CLOSURE_TOLERANCE;
+  const level = levelOf(t.source);
+  const source = "common practice: what schemes and auditors commonly accept; set the site's own";
+  return {
+    key: "balance",
+    title: "Mass-balance closure tolerance",
+    entries: [
+      { anchor: "balance-warnPct", label: "Warn above", value: `${t.warnPct} % of inputs`, source, level },
+      { anchor: "balance-failPct", label: "Fail above", value: `${t.failPct} % of inputs`, source, level },
     ],
   };
 }

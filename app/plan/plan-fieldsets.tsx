@@ -1,0 +1,267 @@
+import Link from "next/link";
+import { BLEND_OBJECTIVES } from "@/lib/blend/blend.schema";
+import { CATALYSTS, labelOf } from "@/lib/core/vocabulary";
+import { DEFAULT_BLEND_LIMITS, DEFAULT_COST_PER_KG, PLAN_OBJECTIVE_LABELS } from "@/lib/batch/plan";
+import type { SourcedValue } from "@/lib/chemistry/sourced-value";
+import { DEFAULT_RECIPE_LIMITS, DEFAULT_RECIPE_SETTINGS } from "@/lib/recipe/recipe-defaults";
+import type { WaterLimits } from "@/lib/recipe/recipe-defaults";
+import { DEFAULT_ACID_STEP_SETTINGS, DEFAULT_PRETREATMENT_LIMITS } from "@/lib/recipe/pretreatment";
+import { levelOf, screenText } from "@/lib/spec/source-text";
+import type { SourceLevel } from "@/lib/spec/source-text";
+import { ConfidenceMark } from "@/app/_ui/kit";
+import { num } from "@/app/_ui/format";
+import { Field } from "@/app/plan/plan-field";
+import { firstParam } from "@/app/plan/plan-query";
+import type { SearchParams } from "@/app/plan/plan-query";
+
+interface FieldsetProps {
+  params: SearchParams;
+  errors: Record<string, string>;
+}
+
+/** A water limit the site set itself is its own choice; a default keeps its source's standing. */
+export function waterLevel(v: SourcedValue): SourceLevel {
+  return v.source.startsWith("the site's own choice") ? "site choice" : levelOf(v.status);
+}
+
+/** The short cautions shown before any figure: the card repeats them step by step. */
+export function PlanCautions() {
+  return (
+    <aside className="cautions" aria-label="Cautions for the batch">
+      <p className="cautions-title">Before anyone charges the reactor</p>
+      <ul>
+        <li>
+          Methanol is toxic and highly flammable; its vapour ignites easily. No ignition sources; ventilate; keep
+          containers closed.
+        </li>
+        <li>
+          Sodium and potassium hydroxide and methoxide are corrosive and react with water, giving off heat: eye and face
+          protection, gloves.
+        </li>
+        <li>Sulfuric acid for pretreatment is corrosive: add acid to methanol slowly, never the reverse.</li>
+        <li>
+          Hot oil burns and spatters if water is present; keep the reaction below methanol&apos;s boiling point unless
+          the vessel is rated for it.
+        </li>
+        <li>
+          Work to the safety data sheets, the plant&apos;s procedures and local fire and building codes. The recipe card
+          repeats these at each step.
+        </li>
+      </ul>
+    </aside>
+  );
+}
+
+/** Target, blend limits (the water limit is the site's, per step), objective and costs. */
+export function BlendFieldset({
+  params,
+  errors,
+  objective,
+  water,
+}: FieldsetProps & { objective: string; water: WaterLimits }) {
+  return (
+    <fieldset>
+      <legend>Batch and blend</legend>
+      <div className="lab-grid">
+        <Field name="targetOilKg" label="Oil to charge (kg)" params={params} errors={errors} placeholder="e.g. 7000" />
+        <Field
+          name="maxFfaPct"
+          label="Blend FFA limit (%)"
+          params={params}
+          errors={errors}
+          placeholder={String(DEFAULT_BLEND_LIMITS.maxFfaPct.value)}
+          hint={`Default ${DEFAULT_BLEND_LIMITS.maxFfaPct.value} %: ${DEFAULT_BLEND_LIMITS.maxFfaPct.source}`}
+        />
+        <Field
+          name="maxWaterPct"
+          label="Blend water limit (%)"
+          params={params}
+          errors={errors}
+          placeholder="the step's limit"
+          hint={
+            <>
+              Empty: the site&apos;s limit for the step the blend goes into first — base step{" "}
+              <span data-testid="water-limit-base">{water.BASE_STEP.value} %</span> (
+              {screenText(water.BASE_STEP.source)}){" "}
+              <ConfidenceMark level={waterLevel(water.BASE_STEP)} anchor="recipe-maxWaterPct" /> when the FFA limit is
+              below {DEFAULT_RECIPE_LIMITS.baseCatalysisMaxFfaPct.value} %, otherwise acid step{" "}
+              <span data-testid="water-limit-acid">{water.ACID_STEP.value} %</span> (
+              {screenText(water.ACID_STEP.source)}){" "}
+              <ConfidenceMark level={waterLevel(water.ACID_STEP)} anchor="recipe-acidStepMaxWaterPct" />. The recipe
+              warns against the same limits; dry the oil before the base step. <Link href="/limits">Site limits</Link>
+            </>
+          }
+        />
+        <div className="field">
+          <label>
+            Objective
+            <select name="objective" defaultValue={objective}>
+              {BLEND_OBJECTIVES.map((o) => (
+                <option key={o} value={o}>
+                  {PLAN_OBJECTIVE_LABELS[o]}
+                </option>
+              ))}
+            </select>
+          </label>
+          {errors.objective ? <span className="field-error">{errors.objective}</span> : null}
+        </div>
+        <Field
+          name="minDrawKg"
+          label="Smallest draw from a lot or tank (kg, optional)"
+          params={params}
+          errors={errors}
+        />
+        <Field
+          name="defaultCostPerKg"
+          label="Cost per kg when none is entered"
+          params={params}
+          errors={errors}
+          placeholder={String(DEFAULT_COST_PER_KG.value)}
+          hint={DEFAULT_COST_PER_KG.note}
+        />
+      </div>
+    </fieldset>
+  );
+}
+
+/** The oil's saponification value as the lab reports it, or its mean molar mass. */
+function OilFields({ params, errors }: FieldsetProps) {
+  return (
+    <>
+      <Field
+        name="saponificationValueMgKohG"
+        label="Saponification value (mg KOH/g, optional)"
+        params={params}
+        errors={errors}
+        placeholder="from the lab"
+        hint="As the lab reports it (AOCS Cd 3-25 or ISO 3657). The card shows the oil molar mass worked out from it: 3 × 56.1 × 1000 ÷ (saponification value − acid value)."
+      />
+      <Field
+        name="meanTgMolarMass"
+        label="Or mean oil molar mass (g/mol, optional)"
+        params={params}
+        errors={errors}
+        placeholder={num(DEFAULT_RECIPE_SETTINGS.meanTgMolarMass.value, 1)}
+        hint="Only when no saponification value is given."
+      />
+    </>
+  );
+}
+
+/** Catalyst, ratio, temperature, oil molar mass (or saponification value) and washing. */
+export function RecipeFieldset({ params, errors, catalyst }: FieldsetProps & { catalyst: string }) {
+  return (
+    <fieldset>
+      <legend>Recipe</legend>
+      <div className="lab-grid">
+        <div className="field">
+          <label>
+            Catalyst
+            <select name="catalyst" defaultValue={catalyst}>
+              {CATALYSTS.map((c) => (
+                <option key={c} value={c}>
+                  {labelOf(c)}
+                </option>
+              ))}
+            </select>
+          </label>
+          {errors.catalyst ? <span className="field-error">{errors.catalyst}</span> : null}
+        </div>
+        <Field
+          name="assayPct"
+          label="Catalyst purity or solution strength (%)"
+          params={params}
+          errors={errors}
+          placeholder="from the reagent lot"
+          hint="From the supplier's certificate; when empty, the newest reagent lot in stock."
+        />
+        <Field
+          name="molarRatio"
+          label="Methanol : oil molar ratio"
+          params={params}
+          errors={errors}
+          placeholder={String(DEFAULT_RECIPE_SETTINGS.molarRatio.value)}
+          hint={DEFAULT_RECIPE_SETTINGS.molarRatio.source}
+        />
+        <Field
+          name="reactionTempC"
+          label="Reaction temperature (°C)"
+          params={params}
+          errors={errors}
+          placeholder={String(DEFAULT_RECIPE_SETTINGS.reactionTempC.value)}
+          hint="Keep below the methanol boiling point (64.7 °C at sea level) unless the vessel is built for it."
+        />
+        <Field
+          name="baseDosePctOfOil"
+          label="Base catalyst dose (% of oil, optional)"
+          params={params}
+          errors={errors}
+          placeholder="catalyst default"
+        />
+        <OilFields params={params} errors={errors} />
+        <Field
+          name="washes"
+          label="Washes"
+          params={params}
+          errors={errors}
+          placeholder={String(DEFAULT_RECIPE_SETTINGS.washes.value)}
+        />
+        <Field
+          name="waterPerWashPctOfEster"
+          label="Water per wash (% of ester)"
+          params={params}
+          errors={errors}
+          placeholder={String(DEFAULT_RECIPE_SETTINGS.waterPerWashPctOfEster.value)}
+          hint={DEFAULT_RECIPE_SETTINGS.waterPerWashPctOfEster.note}
+        />
+      </div>
+    </fieldset>
+  );
+}
+
+/** The acid-step settings, open when one of them was entered or refused. */
+export function AcidSettings({ params, errors }: FieldsetProps) {
+  return (
+    <details
+      className="acid-settings"
+      open={["acidMethanolToFfaRatio", "acidPctOfFfa", "acidPurityPct", "residualFfaPct"].some(
+        (n) => firstParam(params, n) !== "" || errors[n] !== undefined,
+      )}
+    >
+      <summary>Acid pretreatment settings (used only when the blend FFA needs it)</summary>
+      <div className="lab-grid">
+        <Field
+          name="acidMethanolToFfaRatio"
+          label="Methanol : FFA molar ratio"
+          params={params}
+          errors={errors}
+          placeholder={String(DEFAULT_ACID_STEP_SETTINGS.methanolToFfaMolarRatio.value)}
+          hint={`${DEFAULT_ACID_STEP_SETTINGS.methanolToFfaMolarRatio.source} (${DEFAULT_ACID_STEP_SETTINGS.methanolToFfaMolarRatio.status})`}
+        />
+        <Field
+          name="acidPctOfFfa"
+          label="Sulfuric acid (% of FFA mass)"
+          params={params}
+          errors={errors}
+          placeholder={String(DEFAULT_ACID_STEP_SETTINGS.acidPctOfFfa.value)}
+          hint={`${DEFAULT_ACID_STEP_SETTINGS.acidPctOfFfa.source} (${DEFAULT_ACID_STEP_SETTINGS.acidPctOfFfa.status})`}
+        />
+        <Field
+          name="acidPurityPct"
+          label="Sulfuric acid assay (%)"
+          params={params}
+          errors={errors}
+          placeholder="from the reagent lot"
+        />
+        <Field
+          name="residualFfaPct"
+          label="FFA left after the acid step (%)"
+          params={params}
+          errors={errors}
+          placeholder={String(DEFAULT_PRETREATMENT_LIMITS.residualFfaTargetPct.value)}
+          hint={DEFAULT_PRETREATMENT_LIMITS.residualFfaTargetPct.source}
+        />
+      </div>
+    </details>
+  );
+}

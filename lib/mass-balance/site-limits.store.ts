@@ -1,0 +1,104 @@
+import "server-only";
+import type { Db, Tx } from "@/lib/core/connect";
+import {
+  CLOSURE_TOLERANCE_KEY,
+  ClosureLimitSchema,
+  WATER_LIMITS_KEY,
+  WaterLimitSchema,
+} from "@/lib/mass-balance/site-limits.schema";
+import type { ClosureLimit, WaterLimit } from "@/lib/mass-balance/site-limits.schema";
+import type { LimitChange } from "@/lib/mass-balance/site-limits";
+
+type LimitKey = typeof CLOSURE_TOLERANCE_KEY | typeof WATER_LIMITS_KEY;
+
+export interface SavedLimitRow {
+  id: number;
+  key: LimitKey;
+  valueJson: string;
+  change: LimitChange;
+}
+
+async function rowsOf(db: Db | Tx, siteId: number, key: LimitKey, take: number): Promise<SavedLimitRow[]> {
+  const rows = await db.siteSetting.findMany({
+    where: { siteId, key },
+    orderBy: [{ createdAt: "desc" }, { id: "desc" }],
+    take,
+  });
+  const ids = [...new Set(rows.map((r) => r.createdById))];
+  const users = await db.user.findMany({ where: { id: { in: ids } }, select: { id: true, fullName: true } });
+  const name = new Map(users.map((u) => [u.id, u.fullName]));
+  return rows.map((r) => ({
+    id: r.id,
+    key,
+    valueJson: r.valueJson,
+    change: { at: r.createdAt, by: name.get(r.createdById) ?? "", reason: r.reason },
+  }));
+}
+
+function parsed<T>(row: SavedLimitRow | undefined, parse: (v: unknown) => T | null) {
+  if (row === undefined) return null;
+  const value = parse(JSON.parse(row.valueJson));
+  return value === null ? null : { value, change: row.change };
+}
+
+const closureOf = (v: unknown): ClosureLimit | null => {
+  const r = ClosureLimitSchema.safeParse(v);
+  return r.success ? r.data : null;
+};
+const waterOf = (v: unknown): WaterLimit | null => {
+  const r = WaterLimitSchema.safeParse(v);
+  return r.success ? r.data : null;
+};
+
+/** The site's newest saved closure tolerance and water limits; null where it has saved none. */
+export async function getSavedSiteLimits(db: Db | Tx, siteId: number) {
+  const [closure, water] = await Promise.all([
+    rowsOf(db, siteId, CLOSURE_TOLERANCE_KEY, 1),
+    rowsOf(db, siteId, WATER_LIMITS_KEY, 1),
+  ]);
+  return { closure: parsed(closure[0], closureOf), water: parsed(water[0], waterOf) };
+}
+
+export interface LimitHistoryRow {
+  id: number;
+  key: LimitKey;
+  closure: ClosureLimit | null;
+  water: WaterLimit | null;
+  change: LimitChange;
+}
+
+/** Every saved version of the site's limits, newest first. */
+export async function listSiteLimitHistory(db: Db, siteId: number, take = 50): Promise<LimitHistoryRow[]> {
+  const rows = [
+    ...(await rowsOf(db, siteId, CLOSURE_TOLERANCE_KEY, take)),
+    ...(await rowsOf(db, siteId, WATER_LIMITS_KEY, take)),
+  ].sort((a, b) => b.change.at.getTime() - a.change.at.getTime() || b.id - a.id);
+  return rows.map((r) => {
+    const v: unknown = JSON.parse(r.valueJson);
+    return {
+      id: r.id,
+      key: r.key,
+      closure: r.key === CLOSURE_TOLERANCE_KEY ? closureOf(v) : null,
+      water: r.key === WATER_LIMITS_KEY ? waterOf(v) : null,
+      change: r.change,
+    };
+  });
+}
+
+export async function insertSiteLimit(
+  tx: Tx,
+  row: { siteId: number; key: LimitKey; value: ClosureLimit | WaterLimit; createdById: number; createdAt: Date },
+): Promise<number> {
+  const saved = await tx.siteSetting.create({
+    data: {
+      siteId: row.siteId,
+      key: row.key,
+      valueJson: JSON.stringify(row.value),
+      reason: row.value.reason,
+      createdById: row.createdById,
+      createdAt: row.createdAt,
+    },
+    select: { id: true },
+  });
+  return saved.id;
+}
