@@ -22,20 +22,27 @@ export interface HolderRow {
   code: string;
 }
 
-// SQLite keeps a DateTime as ISO text with an offset; julianday reads it, and the rounding recovers
-// the exact millisecond (a double holds a day number to about 0.02 ms).
-const SQLITE_MOVES = `SELECT group_concat(id || ',' || CAST(ROUND((julianday(at) - 2440587.5) * 86400000.0) AS INTEGER) || ',' || ifnull("fromHolderId", '') || ',' || "toHolderId" || ',' || "massG" || ',' || ifnull("reversesId", ''), ';') AS t FROM "Movement" WHERE "siteId" = ? AND id > ?`;
-// A timestamp(3) holds UTC: its epoch is the instant.
-const PG_MOVES = `SELECT string_agg(id || ',' || CAST(ROUND(EXTRACT(EPOCH FROM at) * 1000) AS BIGINT) || ',' || coalesce("fromHolderId"::text, '') || ',' || "toHolderId" || ',' || "massG" || ',' || coalesce("reversesId"::text, ''), ';') AS t FROM "Movement" WHERE "siteId" = $1 AND id > $2`;
-// Holder codes are free text: the kind and id go first, and the code is the rest of the entry with
-// any separator escaped.
-const SQLITE_HOLDERS = `SELECT group_concat(id || ',' || kind || ',' || replace(replace(code, '\\', '\\\\'), ';', '\\s'), ';') AS t FROM "Holder" WHERE "siteId" = ? AND id > ?`;
-const PG_HOLDERS = `SELECT string_agg(id || ',' || kind || ',' || replace(replace(code, '\\', '\\\\'), ';', '\\s'), ';') AS t FROM "Holder" WHERE "siteId" = $1 AND id > $2`;
+type Rows = Array<{ t: string | null }>;
 
-async function aggregate(db: Db | Tx, sqlite: string, pg: string, siteId: number, afterId: number): Promise<string[]> {
-  const sql = dialectOf(db) === "sqlite" ? sqlite : pg;
-  const rows = await db.$queryRawUnsafe<Array<{ t: string | null }>>(sql, siteId, afterId);
-  const text = rows[0]?.t ?? null;
+// SQLite keeps a DateTime as ISO text with an offset; julianday reads it, and the rounding recovers
+// the exact millisecond (a double holds a day number to about 0.02 ms). On PostgreSQL a timestamp(3)
+// holds UTC: its epoch is the instant.
+function queryMoves(db: Db | Tx, siteId: number, afterId: number): Promise<Rows> {
+  return dialectOf(db) === "sqlite"
+    ? db.$queryRaw<Rows>`SELECT group_concat(id || ',' || CAST(ROUND((julianday(at) - 2440587.5) * 86400000.0) AS INTEGER) || ',' || ifnull("fromHolderId", '') || ',' || "toHolderId" || ',' || "massG" || ',' || ifnull("reversesId", ''), ';') AS t FROM "Movement" WHERE "siteId" = ${siteId} AND id > ${afterId}`
+    : db.$queryRaw<Rows>`SELECT string_agg(id || ',' || CAST(ROUND(EXTRACT(EPOCH FROM at) * 1000) AS BIGINT) || ',' || coalesce("fromHolderId"::text, '') || ',' || "toHolderId" || ',' || "massG" || ',' || coalesce("reversesId"::text, ''), ';') AS t FROM "Movement" WHERE "siteId" = ${siteId} AND id > ${afterId}`;
+}
+
+// Holder codes are free text: the id and kind go first, the code is the rest of the entry, with its
+// backslashes doubled and semicolons written as \s.
+function queryHolders(db: Db | Tx, siteId: number, afterId: number): Promise<Rows> {
+  return dialectOf(db) === "sqlite"
+    ? db.$queryRaw<Rows>`SELECT group_concat(id || ',' || kind || ',' || replace(replace(code, '\\', '\\\\'), ';', '\\s'), ';') AS t FROM "Holder" WHERE "siteId" = ${siteId} AND id > ${afterId}`
+    : db.$queryRaw<Rows>`SELECT string_agg(id || ',' || kind || ',' || replace(replace(code, '\\', '\\\\'), ';', '\\s'), ';') AS t FROM "Holder" WHERE "siteId" = ${siteId} AND id > ${afterId}`;
+}
+
+async function entries(rows: Promise<Rows>): Promise<string[]> {
+  const text = (await rows)[0]?.t ?? null;
   return text === null || text === "" ? [] : text.split(";");
 }
 
@@ -47,7 +54,7 @@ function int(text: string | undefined, what: string): number {
 
 /** The site's movements with id > afterId, in no particular order. */
 export async function readMoveRows(db: Db | Tx, siteId: number, afterId = 0): Promise<MoveRow[]> {
-  return (await aggregate(db, SQLITE_MOVES, PG_MOVES, siteId, afterId)).map((entry) => {
+  return (await entries(queryMoves(db, siteId, afterId))).map((entry) => {
     const [id, at, from, to, mass, reverses] = entry.split(",");
     return {
       id: int(id, "movement id"),
@@ -62,7 +69,7 @@ export async function readMoveRows(db: Db | Tx, siteId: number, afterId = 0): Pr
 
 /** The site's holders with id > afterId (id, kind, code). */
 export async function readHolderRows(db: Db | Tx, siteId: number, afterId = 0): Promise<HolderRow[]> {
-  return (await aggregate(db, SQLITE_HOLDERS, PG_HOLDERS, siteId, afterId)).map((entry) => {
+  return (await entries(queryHolders(db, siteId, afterId))).map((entry) => {
     const first = entry.indexOf(",");
     const second = entry.indexOf(",", first + 1);
     return {
