@@ -3,24 +3,19 @@
 // The cache that keeps one state per site lives in trace-cache.service.ts.
 import { failMany, ok } from "@/lib/core/result";
 import type { DomainIssue, Result } from "@/lib/core/result";
-import { labelOf, TERMINAL_KINDS } from "@/lib/core/vocabulary";
+import { labelOf } from "@/lib/core/vocabulary";
 import type { TraceLedger } from "@/lib/ledger/holder-ref";
 import type { CompositionParts } from "@/lib/trace/composition";
 import { resumeReplay, traceForward, traceHolder } from "@/lib/trace/genealogy";
 import type { ForwardTrace, HolderTrace } from "@/lib/trace/genealogy";
 import { indexLedger } from "@/lib/ledger/moves";
-import type { LedgerIndex, TraceMove } from "@/lib/ledger/moves";
+import type { LedgerIndex } from "@/lib/ledger/moves";
 import { createReplay } from "@/lib/trace/replay";
 import type { Replay, ReplaySnapshot } from "@/lib/trace/replay";
 import type { LedgerFreshness } from "@/lib/trace/trace-answers";
 import type { EntryHolderFacts, LedgerVersion } from "@/lib/trace/trace-facts";
 
-/**
- * Monthly snapshots kept per site (twenty years); older months are dropped (a trace then resumes from
- * an earlier start). Without the terminal holders a month's snapshot is the tanks', lots' and open
- * batches' mixtures: about 20 holders and 9,500 origin entries on the ten-year bench plant.
- */
-export const MAX_SNAPSHOTS = 240;
+export { MAX_SNAPSHOTS } from "@/lib/trace/monthly-snapshots";
 
 export interface LedgerState {
   siteId: number;
@@ -56,66 +51,6 @@ export function snapshotFits(index: LedgerIndex, s: ReplaySnapshot): boolean {
   if (last === null) return count === 0;
   const pos = index.positionOf.get(last.moveId);
   return pos === count - 1 && index.moves[pos]?.at === last.at && index.massPrefixG[count] === massSumG;
-}
-
-function monthStartAfter(at: number): number {
-  const d = new Date(at);
-  return Date.UTC(d.getUTCFullYear(), d.getUTCMonth() + 1, 1);
-}
-
-/**
- * Which holders a snapshot may leave out: shipments, disposals and losses, which keep every origin they
- * ever received (nearly all of a full snapshot's size) and which nothing is drawn from, so no later move
- * depends on their mixture. A backward trace of one of them resumes from before its first receipt.
- * Undefined (leave nothing out) if the ledger does draw from one.
- */
-function terminalHolders(index: LedgerIndex): ((holderId: number) => boolean) | undefined {
-  const terminal = new Set<number>();
-  for (const h of index.holders.values()) {
-    if (!TERMINAL_KINDS.has(h.kind)) continue;
-    if (index.outOf.has(h.id)) return undefined;
-    terminal.add(h.id);
-  }
-  return (holderId) => terminal.has(holderId);
-}
-
-/**
- * Replays from the latest snapshot still valid for this index to the end, taking a snapshot at every
- * month start crossed (UTC months; booking-order indexes use the real dates). Fails when the ledger
- * cannot be replayed in this order.
- */
-export function extendSnapshots(
-  index: LedgerIndex,
-  kept: readonly ReplaySnapshot[],
-  realAt: ReadonlyMap<number, number>,
-): Result<ReplaySnapshot[]> {
-  const leaveOut = terminalHolders(index);
-  // Snapshots that left terminal holders out cannot serve a ledger that draws from one.
-  const snapshots = leaveOut === undefined ? [] : [...kept];
-  const base = snapshots[snapshots.length - 1];
-  let replay: Replay;
-  if (base === undefined) replay = createReplay(index.holders);
-  else {
-    const resumed = resumeReplay(index, base);
-    if (!resumed.ok) return resumed;
-    replay = resumed.value;
-  }
-  const timeOf = (m: TraceMove) => realAt.get(m.id) ?? m.at;
-  const first = index.moves[replay.appliedCount];
-  if (first === undefined) return ok(snapshots);
-  const baseLast = base?.applied.last ?? null;
-  let boundary = monthStartAfter(baseLast === null ? timeOf(first) - 1 : (realAt.get(baseLast.moveId) ?? baseLast.at));
-  for (let pos = replay.appliedCount; pos < index.moves.length; pos++) {
-    const move = index.moves[pos];
-    if (move === undefined) break;
-    if (timeOf(move) >= boundary) {
-      if (pos > 0) snapshots.push(replay.snapshot(leaveOut));
-      boundary = monthStartAfter(timeOf(move));
-    }
-    const applied = replay.apply(move);
-    if (!applied.ok) return applied;
-  }
-  return ok(snapshots.slice(-MAX_SNAPSHOTS));
 }
 
 // The trace core names holders by id; say which tank or lot that is.

@@ -81,30 +81,35 @@ export async function saveTraceSnapshots(
   const missing = snapshots.filter((s) => !keep.has(rowOf.get(s) ?? -1));
   if (stale.length === 0 && missing.length === 0) return { written: 0, removed: 0 };
   try {
-    const [, ...created] = await db.$transaction([
-      // Rows in the way of a missing snapshot's key go too: they hold an older build at that position.
-      db.traceSnapshot.deleteMany({
-        where: {
-          OR: [
-            { id: { in: stale } },
-            { siteId, ledgerOrder: order, appliedCount: { in: missing.map((s) => s.applied.count) } },
-          ],
-        },
-      }),
-      ...missing.map((s) =>
-        db.traceSnapshot.create({
-          data: {
-            siteId,
-            ledgerOrder: order,
-            appliedCount: s.applied.count,
-            lastMoveId: s.applied.last?.moveId ?? null,
-            format: s.format,
-            body: JSON.stringify(s),
+    const [, ...created] = await db.$transaction(
+      [
+        // Rows in the way of a missing snapshot's key go too: they hold an older build at that position.
+        db.traceSnapshot.deleteMany({
+          where: {
+            OR: [
+              { id: { in: stale } },
+              { siteId, ledgerOrder: order, appliedCount: { in: missing.map((s) => s.applied.count) } },
+            ],
           },
-          select: { id: true },
         }),
-      ),
-    ]);
+        ...missing.map((s) =>
+          db.traceSnapshot.create({
+            data: {
+              siteId,
+              ledgerOrder: order,
+              appliedCount: s.applied.count,
+              lastMoveId: s.applied.last?.moveId ?? null,
+              format: s.format,
+              body: JSON.stringify(s),
+            },
+            select: { id: true },
+          }),
+        ),
+      ],
+      // A first save writes every month (about 12 MB at ten years): on a busy machine that outlasted the
+      // default 5 s, and the snapshots were lost until the next build. It runs in the background.
+      { timeout: 60_000 },
+    );
     missing.forEach((s, i) => {
       const row = created[i];
       if (row !== undefined) rowOf.set(s, row.id);

@@ -10,7 +10,6 @@ import type { Result } from "@/lib/core/result";
 import { extendTraceLedger, loadTraceLedger } from "@/lib/ledger/movement.store";
 import {
   describeIssues,
-  extendSnapshots,
   freshnessOf,
   indexInOrder,
   renameIssues,
@@ -18,6 +17,7 @@ import {
   snapshotFits,
 } from "@/lib/trace/ledger-state";
 import type { LedgerState } from "@/lib/trace/ledger-state";
+import { extendSnapshotsOffThread } from "@/lib/trace/snapshot-worker.service";
 import type { ReplaySnapshot } from "@/lib/trace/replay";
 import { loadTraceSnapshots, saveTraceSnapshots } from "@/lib/trace/snapshot.store";
 import { getLedgerVersion, listEntryHolderFacts, listTankServices } from "@/lib/trace/trace.store";
@@ -67,7 +67,7 @@ async function buildState(
           ? previous.snapshots
           : [];
     const reusable = kept.filter((s) => snapshotFits(index, s));
-    const snapshots = extendSnapshots(index, reusable, realAt);
+    const snapshots = await extendSnapshotsOffThread(index, reusable, realAt);
     if (!snapshots.ok) {
       problem ??= describeIssues(ledger, snapshots.issues);
       continue;

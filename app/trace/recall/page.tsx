@@ -14,7 +14,7 @@ import { DECISION_REASON_MAX } from "@/lib/product/product.schema";
 import type { ReportDoc } from "@/lib/report/report";
 import { buildRecallDoc } from "@/lib/trace/recall-report";
 import { RECALL_KINDS } from "@/lib/trace/recall.schema";
-import { recallReport } from "@/lib/trace/recall.service";
+import { recallReportCached } from "@/lib/trace/recall-cache.service";
 import type { RecallReport } from "@/lib/trace/recall";
 
 export const dynamic = "force-dynamic";
@@ -41,7 +41,7 @@ export default async function RecallPage({ searchParams }: { searchParams: Promi
   });
   const withCustomers = canRead(user.role, "/customers");
   const input = recallInput(s, site.timeZone);
-  const r = s.code === "" ? null : await recallReport(db, site.id, input, user.now, { withCustomers });
+  const r = s.code === "" ? null : await recallReportCached(db, site.id, input, user.now, { withCustomers });
   const doc = r?.ok
     ? buildRecallDoc(
         r.value,

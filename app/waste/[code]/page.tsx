@@ -12,7 +12,7 @@ import { day, daysBetween, kg, litres, num, pct, when } from "@/app/_ui/format";
 import { codeParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { HistoryLink, HolderLink, NoSite, Note } from "@/app/_ui/ui";
-import { getWasteDueReport } from "@/app/waste/due/due-report";
+import { getWasteDueReportCached } from "@/app/waste/due/due-report-cache";
 import type { ContainerDueRow } from "@/app/waste/due/due-report";
 import { CharacterisationForm, HaulForm, MarkFullForm } from "@/app/waste/container-forms";
 import { levelOf, screenText } from "@/lib/spec/source-text";
@@ -71,7 +71,7 @@ export default async function WasteContainerPage({ params }: Props) {
   const stream = c.stream as WasteStream;
   const onSite = c.status !== "SHIPPED";
   // The same report the waste-due list reads, so both pages always agree on the date.
-  const report = onSite ? await getWasteDueReport(db, site, {}, now) : null;
+  const report = onSite ? await getWasteDueReportCached(db, site, {}, now) : null;
   const due = report?.ok ? report.value.containers.find((r) => r.code === c.code) : undefined;
   const hazard = due?.hazard ?? assessWasteHazards(stream, characterisationOf(c));
   const canRecord = user.role === "PRODUCTION" || user.role === "COMPLIANCE";

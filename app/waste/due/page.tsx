@@ -10,7 +10,8 @@ import { loadSite } from "@/app/_ui/site";
 import { Empty, Facts, NoSite, Note } from "@/app/_ui/ui";
 import { Cautions, ConfidenceMark } from "@/app/_ui/kit";
 import { levelOf, screenText, statusNote } from "@/lib/spec/source-text";
-import { DEFAULT_DUE_DAYS, getWasteDueReport } from "@/app/waste/due/due-report";
+import { DEFAULT_DUE_DAYS } from "@/app/waste/due/due-report";
+import { getWasteDueReportCached } from "@/app/waste/due/due-report-cache";
 import type { ContainerDueRow, WasteDueReport } from "@/app/waste/due/due-report";
 import { ReportLinks } from "@/app/_ui/report-view";
 
@@ -40,7 +41,7 @@ export default async function WasteDuePage({ searchParams }: { searchParams: Pro
   if (!site) return <NoSite />;
   const sp = await searchParams;
   const typed = { days: one(sp.days), category: one(sp.category), tsdfMiles: one(sp.tsdfMiles) };
-  const result = await getWasteDueReport(db, site, typed, user.now);
+  const result = await getWasteDueReportCached(db, site, typed, user.now);
   const tz = site.timeZone;
   return (
     <>

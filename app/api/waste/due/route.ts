@@ -4,7 +4,7 @@ import { respond } from "@/lib/api/json-route.service";
 import { getDb } from "@/lib/core/db";
 import { fail } from "@/lib/core/result";
 import { getSiteById } from "@/lib/site/site.store";
-import { getWasteDueReport } from "@/app/waste/due/due-report";
+import { getWasteDueReportCached } from "@/app/waste/due/due-report-cache";
 import { handled } from "@/lib/api/handle.service";
 import { respondAtPosition } from "@/lib/api/etag.service";
 
@@ -18,6 +18,6 @@ export const GET = handled("GET /api/waste/due", async (request: Request): Promi
   const site = await getSiteById(db, who.value.siteId);
   if (!site) return respond(fail("RECORD.NOT_FOUND", "Your site is not set up"));
   return respondAtPosition(request, db, who.value, () =>
-    getWasteDueReport(db, site, Object.fromEntries(new URL(request.url).searchParams), who.value.now),
+    getWasteDueReportCached(db, site, Object.fromEntries(new URL(request.url).searchParams), who.value.now),
   );
 });

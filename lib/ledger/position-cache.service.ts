@@ -1,0 +1,43 @@
+import "server-only";
+// An answer kept by the ledger position it was computed at (decision 0037), for reports that have no
+// seal of their own: the waste-due list and the recall answer. The same question at the same position
+// is answered from memory; any booking or audited change moves the position and the next request
+// computes again. The position is read again after computing, so an answer overtaken by a booking that
+// landed meanwhile is handed out but not kept.
+import type { Db } from "@/lib/core/connect";
+import type { Result } from "@/lib/core/result";
+import { getLedgerPosition } from "@/lib/ledger/position.store";
+import { samePosition } from "@/lib/ledger/position";
+import type { LedgerPosition, PositionCache } from "@/lib/ledger/position";
+
+export type KeptOutcome = "computed" | "same-position";
+
+export interface KeptAnswer<T> {
+  result: Result<T>;
+  outcome: KeptOutcome;
+  position: LedgerPosition;
+}
+
+export async function answerAtPosition<T>(
+  cache: PositionCache<Result<T>>,
+  db: Db,
+  siteId: number,
+  key: string,
+  compute: () => Promise<Result<T>>,
+): Promise<KeptAnswer<T>> {
+  const position = await getLedgerPosition(db, siteId);
+  const kept = cache.get(key, position);
+  if (kept !== undefined) return { result: kept, outcome: "same-position", position };
+  const result = await compute();
+  if (samePosition(await getLedgerPosition(db, siteId), position)) cache.set(key, position, result);
+  return { result, outcome: "computed", position };
+}
+
+/** A question's key: the site, the query as typed (keys sorted) and anything else the answer depends on. */
+export function questionKey(siteId: number, input: unknown, ...more: ReadonlyArray<string | number | boolean>): string {
+  const entries =
+    input !== null && typeof input === "object"
+      ? Object.entries(input as Record<string, unknown>).sort(([a], [b]) => a.localeCompare(b))
+      : [];
+  return JSON.stringify([siteId, entries, ...more]);
+}

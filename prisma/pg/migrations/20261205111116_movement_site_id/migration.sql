@@ -1,0 +1,2 @@
+-- CreateIndex
+CREATE INDEX "Movement_siteId_id_idx" ON "Movement"("siteId", "id");
