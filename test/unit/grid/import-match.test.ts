@@ -81,8 +81,8 @@ describe("an import sorted against what is stored", () => {
   it("marks the refused rows of a preview with the message beside their cell", () => {
     const preview = sortImportRows(sources, [row(2, { code: "A" }), row(3, { code: "B" })], [], []).preview;
     const refused = markRefusedRows(preview, [
-      rowIssue(sources, 3, { code: "X", message: "too long", field: "name" }),
-      rowIssue(sources, 3, { code: "X", message: "unknown kind", field: "kind" }),
+      rowIssue(sources, 3, { code: "SOURCE.REFUSED", message: "too long", field: "name" }),
+      rowIssue(sources, 3, { code: "SOURCE.REFUSED", message: "unknown kind", field: "kind" }),
     ]);
     expect(refused).toBe(1);
     expect(preview[0]?.status).toBe("new");
