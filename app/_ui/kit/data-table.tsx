@@ -25,6 +25,7 @@ export function DataTable<T>({
   empty,
   csvHref,
   hideCaption = false,
+  rowId,
 }: {
   caption: string;
   columns: ReadonlyArray<Column<T>>;
@@ -33,6 +34,8 @@ export function DataTable<T>({
   empty: ReactNode;
   csvHref?: string;
   hideCaption?: boolean;
+  /** An anchor per row, for links that point at one row of the list (`/waste#M-2026-014`). */
+  rowId?: (row: T) => string;
 }) {
   if (rows.length === 0) return <p className="empty">{empty}</p>;
   const hasTotals = columns.some((c) => c.total !== undefined);
@@ -60,7 +63,7 @@ export function DataTable<T>({
         </thead>
         <tbody>
           {rows.map((r) => (
-            <tr key={rowKey(r)}>
+            <tr key={rowKey(r)} id={rowId?.(r)}>
               {columns.map((c) => (
                 <td key={c.key} className={c.numeric ? "num" : undefined}>
                   {c.cell(r)}
