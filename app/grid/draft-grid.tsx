@@ -146,10 +146,29 @@ function useDraftSelection(
   return { sel, setByMouse, dragging, columns, focused, refreshSelection, onMouseDownCapture, onFocused, onMouseOver };
 }
 
+/** What the workspace may ask of the draft grid: rows to save, counts, and marking rows saved. */
+function draftHandle(d: ReturnType<typeof useDraftRows>, table: GridTable, system: UnitSystem): DraftGridHandle {
+  const { rowsRef, checks, serverErrors, setAll, withBlank, blank } = d;
+  return {
+    ready: () =>
+      rowsRef.current.flatMap((r) => {
+        const c = checks.get(refOf(r));
+        return c && c.ok && !c.blank ? [{ ref: refOf(r), input: c.input }] : [];
+      }),
+    counts: () => countDrafts(rowsRef.current, checks, serverErrors),
+    markSaved: (saved) => setAll(withBlank(markSavedRows(rowsRef.current, saved, table, system))),
+    setServerErrors: (byRef) => d.setServerErrors(byRef),
+    addRow: () => setAll([...rowsRef.current, blank()]),
+    clearSaved: () => setAll(withBlank(rowsRef.current.filter((r) => !isSaved(r)))),
+    undo: d.doUndo,
+    redo: d.doRedo,
+  };
+}
+
 export const DraftGrid = forwardRef<DraftGridHandle, DraftGridProps>(function DraftGrid(props, ref) {
   const { table, system, locale, onStatus, onPasted } = props;
   const d = useDraftRows(props);
-  const { rows, rowsRef, checks, serverErrors, setAll, withBlank, blank, entry, errorsRef, change } = d;
+  const { rows, rowsRef, blank, entry, errorsRef, change } = d;
   const apiRef = useRef<GridApi | null>(null);
   const s = useDraftSelection(apiRef, table, errorsRef, rowsRef, onStatus);
   const commands = (): DraftCommands => ({
@@ -172,24 +191,7 @@ export const DraftGrid = forwardRef<DraftGridHandle, DraftGridProps>(function Dr
     onPasted,
   });
 
-  useImperativeHandle(
-    ref,
-    () => ({
-      ready: () =>
-        rowsRef.current.flatMap((r) => {
-          const c = checks.get(refOf(r));
-          return c && c.ok && !c.blank ? [{ ref: refOf(r), input: c.input }] : [];
-        }),
-      counts: () => countDrafts(rowsRef.current, checks, serverErrors),
-      markSaved: (saved) => setAll(withBlank(markSavedRows(rowsRef.current, saved, table, system))),
-      setServerErrors: (byRef) => d.setServerErrors(byRef),
-      addRow: () => setAll([...rowsRef.current, blank()]),
-      clearSaved: () => setAll(withBlank(rowsRef.current.filter((r) => !isSaved(r)))),
-      undo: d.doUndo,
-      redo: d.doRedo,
-    }),
-    [checks, serverErrors, table, system, setAll, withBlank, blank, d.doUndo, d.doRedo],
-  );
+  useImperativeHandle(ref, () => draftHandle(d, table, system), [d, table, system]);
 
   const columnDefs = useMemo(
     () => draftColumnDefs(table, system, entry, errorsRef, s.sel),

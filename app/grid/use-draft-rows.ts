@@ -2,6 +2,7 @@
 // The draft grid's rows and their undo history: each row checked as typed (cell by cell, then with the
 // table's shared schema), edits recorded one step per edit, paste or fill, and undo and redo of them.
 import { useCallback, useMemo, useRef, useState } from "react";
+import type { MutableRefObject } from "react";
 import type { UnitSystem } from "@/lib/quantity/units";
 import type { GridRow, GridTable } from "@/lib/grid/tables";
 import { entryColumns } from "@/lib/grid/tables";
@@ -52,23 +53,11 @@ function useRowChecks(table: GridTable, system: UnitSystem, locale: string, rows
   return useMemo(() => new Map(rows.map((r) => [refOf(r), isSaved(r) ? null : check(r)])), [rows, check]);
 }
 
-export function useDraftRows(o: {
-  table: GridTable;
-  system: UnitSystem;
-  locale: string;
-  onStatus: (s: string) => void;
-  onChange: () => void;
-}) {
-  const { table, system, locale, onStatus, onChange } = o;
-  const blank = useCallback((): DraftRow => ({ [REF]: newRef(), [ROW_KEY]: uuid(), [STATE]: "draft" }), []);
-  const [rows, setRows] = useState<DraftRow[]>(() => [blank()]);
-  const rowsRef = useRef(rows);
-  rowsRef.current = rows;
-  const [serverErrors, setServerErrors] = useState<Record<string, Record<string, string>>>({});
-  const history = useRef<UndoHistory>(emptyHistory());
-  useKeptDrafts({ table, rows, stateField: STATE, restore: (kept) => setRows([...kept, blank()]), onStatus });
-  const entry = useMemo(() => new Set(entryColumns(table).map((c) => c.field)), [table]);
-  const checks = useRowChecks(table, system, locale, rows);
+/** A cell's problems: what the row check found and what the server refused, for the latest render. */
+function useErrorsRef(
+  checks: ReadonlyMap<string, DraftCheck | null>,
+  serverErrors: Record<string, Record<string, string>>,
+): MutableRefObject<(r: DraftRow | undefined) => Record<string, string>> {
   const errorsOf = useCallback(
     (r: DraftRow | undefined): Record<string, string> => {
       if (!r) return {};
@@ -80,6 +69,78 @@ export function useDraftRows(o: {
   );
   const errorsRef = useRef(errorsOf);
   errorsRef.current = errorsOf;
+  return errorsRef;
+}
+
+/** Ctrl+Z and Ctrl+Y over the grid's own history: a whole paste or fill is one step. */
+function useUndoRedo(o: {
+  history: MutableRefObject<UndoHistory>;
+  rowsRef: MutableRefObject<DraftRow[]>;
+  apply: (values: Array<{ rowId: string; field: string; value: unknown }>, base?: DraftRow[]) => DraftRow[];
+  setAll: (next: DraftRow[]) => void;
+  withBlank: (list: DraftRow[]) => DraftRow[];
+  onStatus: (s: string) => void;
+  entry: ReadonlySet<string>;
+  table: GridTable;
+}) {
+  const { history, rowsRef, apply, setAll, withBlank, onStatus, entry, table } = o;
+  const doUndo = useCallback(() => {
+    const u = undo(history.current);
+    if (!u) return onStatus("Nothing to undo");
+    history.current = u.history;
+    let next = apply(revertValues(u.step));
+    if (u.step.addedRows?.length) {
+      const gone = new Set(u.step.addedRows);
+      next = next.filter((r) => !gone.has(refOf(r)) || isSaved(r));
+    }
+    setAll(withBlank(next));
+    onStatus(`Undone: ${u.step.label}`);
+  }, [apply, setAll, withBlank, onStatus]);
+
+  const doRedo = useCallback(() => {
+    const r = redo(history.current);
+    if (!r) return onStatus("Nothing to redo");
+    history.current = r.history;
+    let base = rowsRef.current;
+    if (r.step.addedRows?.length) {
+      const have = new Set(base.map((x) => x[REF]));
+      const trailing = base.at(-1);
+      const keep =
+        trailing && !have.has(undefined) ? base.filter((x) => x !== trailing || hasTyping(x, entry, table)) : base;
+      base = [
+        ...keep,
+        ...r.step.addedRows
+          .filter((id) => !have.has(id))
+          .map((id) => ({ [REF]: id, [ROW_KEY]: uuid(), [STATE]: "draft" })),
+      ];
+    }
+    setAll(withBlank(apply(replayValues(r.step), base)));
+    onStatus(`Redone: ${r.step.label}`);
+  }, [apply, setAll, withBlank, onStatus, table, entry]);
+
+  return { doUndo, doRedo };
+}
+
+export interface DraftRowsOptions {
+  table: GridTable;
+  system: UnitSystem;
+  locale: string;
+  onStatus: (s: string) => void;
+  onChange: () => void;
+}
+
+export function useDraftRows(o: DraftRowsOptions) {
+  const { table, system, locale, onStatus, onChange } = o;
+  const blank = useCallback((): DraftRow => ({ [REF]: newRef(), [ROW_KEY]: uuid(), [STATE]: "draft" }), []);
+  const [rows, setRows] = useState<DraftRow[]>(() => [blank()]);
+  const rowsRef = useRef(rows);
+  rowsRef.current = rows;
+  const [serverErrors, setServerErrors] = useState<Record<string, Record<string, string>>>({});
+  const history = useRef<UndoHistory>(emptyHistory());
+  useKeptDrafts({ table, rows, stateField: STATE, restore: (kept) => setRows([...kept, blank()]), onStatus });
+  const entry = useMemo(() => new Set(entryColumns(table).map((c) => c.field)), [table]);
+  const checks = useRowChecks(table, system, locale, rows);
+  const errorsRef = useErrorsRef(checks, serverErrors);
 
   const withBlank = useCallback(
     (list: DraftRow[]) => withTrailingBlank(list, blank, entry, table),
@@ -125,39 +186,7 @@ export function useDraftRows(o: {
     [apply, commit],
   );
 
-  const doUndo = useCallback(() => {
-    const u = undo(history.current);
-    if (!u) return onStatus("Nothing to undo");
-    history.current = u.history;
-    let next = apply(revertValues(u.step));
-    if (u.step.addedRows?.length) {
-      const gone = new Set(u.step.addedRows);
-      next = next.filter((r) => !gone.has(refOf(r)) || isSaved(r));
-    }
-    setAll(withBlank(next));
-    onStatus(`Undone: ${u.step.label}`);
-  }, [apply, setAll, withBlank, onStatus]);
-
-  const doRedo = useCallback(() => {
-    const r = redo(history.current);
-    if (!r) return onStatus("Nothing to redo");
-    history.current = r.history;
-    let base = rowsRef.current;
-    if (r.step.addedRows?.length) {
-      const have = new Set(base.map((x) => x[REF]));
-      const trailing = base.at(-1);
-      const keep =
-        trailing && !have.has(undefined) ? base.filter((x) => x !== trailing || hasTyping(x, entry, table)) : base;
-      base = [
-        ...keep,
-        ...r.step.addedRows
-          .filter((id) => !have.has(id))
-          .map((id) => ({ [REF]: id, [ROW_KEY]: uuid(), [STATE]: "draft" })),
-      ];
-    }
-    setAll(withBlank(apply(replayValues(r.step), base)));
-    onStatus(`Redone: ${r.step.label}`);
-  }, [apply, setAll, withBlank, onStatus, table, entry]);
+  const { doUndo, doRedo } = useUndoRedo({ history, rowsRef, apply, setAll, withBlank, onStatus, entry, table });
 
   return {
     rows,
