@@ -126,10 +126,20 @@ export function pasteTargets(
   const trailing = base.at(-1);
   if (trailing && base.length - 1 < startRow + count && !hasTyping(trailing, entry, table)) base = base.slice(0, -1);
   for (let i = 0; i < count; i++) {
-    let row = base[startRow + i];
-    while (row && isSaved(row)) {
-      base = [...base.slice(0, startRow + i), ...base.slice(startRow + i + 1), row];
-      row = base[startRow + i];
+    const at = startRow + i;
+    let row = base[at];
+    if (row && isSaved(row)) {
+      // Saved rows move below the next draft row; with none below, a new draft row goes in here.
+      const tail = base.slice(at);
+      const firstDraft = tail.findIndex((r) => !isSaved(r));
+      if (firstDraft === -1) {
+        row = blank();
+        added.push(refOf(row));
+        base = [...base.slice(0, at), row, ...tail];
+      } else {
+        base = [...base.slice(0, at), ...tail.slice(firstDraft), ...tail.slice(0, firstDraft)];
+        row = base[at];
+      }
     }
     if (!row) {
       row = blank();
