@@ -3,10 +3,11 @@ import type { Metadata } from "next";
 import { labelOf, WASTE_STREAMS } from "@/lib/core/vocabulary";
 import { getUtcOffsetMin } from "@/lib/period/site-time";
 import { getWasteDueBoard, listDisposals, listWasteContainers } from "@/lib/waste/container.store";
+import type { DisposalRow, WasteContainerRow, WasteDueBoard, WasteDueRow } from "@/lib/waste/container.store";
 import { day, daysBetween, kg, litres, when } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
-import { CodeLink, Empty, HistoryLink, NoSite, Note, Status } from "@/app/_ui/ui";
-import { Cautions } from "@/app/_ui/kit";
+import { CodeLink, HistoryLink, NoSite, Note, Status } from "@/app/_ui/ui";
+import { Cautions, DataTable } from "@/app/_ui/kit";
 import { OpenContainerForm } from "@/app/waste/container-forms";
 
 export const dynamic = "force-dynamic";
@@ -35,165 +36,169 @@ export default async function WastePage() {
       </p>
 
       <h2>Containers</h2>
-      {containers.length === 0 ? (
-        <Empty>No waste containers recorded yet.</Empty>
-      ) : (
-        <>
-          <div className="table-wrap">
-            <table>
-              <thead>
-                <tr>
-                  <th scope="col">Container</th>
-                  <th scope="col">Stream</th>
-                  <th scope="col">Location</th>
-                  <th scope="col">Status</th>
-                  <th scope="col">Started</th>
-                  <th scope="col" className="num">
-                    Days on site
-                  </th>
-                  <th scope="col">Due off site</th>
-                  <th scope="col">Hazard</th>
-                  <th scope="col" className="num">
-                    Book stock
-                  </th>
-                  <th scope="col" className="num">
-                    Capacity
-                  </th>
-                  <th scope="col">History</th>
-                </tr>
-              </thead>
-              <tbody>
-                {containers.map((c) => {
-                  const d = due?.byCode.get(c.code);
-                  const onSite = c.status !== "SHIPPED";
-                  return (
-                    <tr key={c.code} id={c.code}>
-                      <td className="nowrap">
-                        <CodeLink href={`/waste/${encodeURIComponent(c.code)}`} code={c.code} />
-                        {c.satellite ? <span className="tag">satellite</span> : null}
-                      </td>
-                      <td>{labelOf(c.stream)}</td>
-                      <td>{c.location || <span className="muted">—</span>}</td>
-                      <td>
-                        <Status code={c.status} />
-                      </td>
-                      <td className="nowrap">{day(c.accumulationStart, tz)}</td>
-                      <td className="num">{onSite ? daysBetween(c.accumulationStart, now) : "—"}</td>
-                      <td className="nowrap">
-                        {!onSite ? (
-                          <span className="muted">hauled away</span>
-                        ) : d === undefined ? (
-                          <span className="muted">not assessed</span>
-                        ) : d.dueDate === null ? (
-                          <span className="muted">no time limit</span>
-                        ) : (
-                          <span>
-                            {d.dueDate}{" "}
-                            {d.overdue ? (
-                              <span className="status status-overdue">overdue</span>
-                            ) : (
-                              <span className="muted">({d.daysLeft} d)</span>
-                            )}
-                          </span>
-                        )}
-                      </td>
-                      <td>{d ? labelOf(d.hazard) : <span className="muted">—</span>}</td>
-                      <td className="num">{kg(c.stockG)}</td>
-                      <td className="num">{litres(c.capacityMl, 0)}</td>
-                      <td>
-                        <HistoryLink kind="waste" recordKey={c.code} label="waste container" />
-                      </td>
-                    </tr>
-                  );
-                })}
-              </tbody>
-            </table>
-          </div>
-          {due ? (
-            <>
-              <Note>
-                Due dates from {due.ruleSet}. {due.assumption.note} Containers marked satellite are treated as one
-                satellite area, with their volume estimated from book mass at a nominal density. {due.note}{" "}
-                <Link href="/waste/rules">Waste rule set</Link>
-              </Note>
-              {due.issues.length > 0 ? (
-                <ul className="warning" aria-label="Waste warnings">
-                  {due.issues.map((i) => (
-                    <li key={i}>{i}</li>
-                  ))}
-                </ul>
-              ) : null}
-            </>
-          ) : (
-            <Note>
-              Due dates could not be worked out from the recorded data; days on site count from the accumulation start.
-            </Note>
-          )}
-        </>
-      )}
+      <ContainersTable containers={containers} due={due} now={now} timeZone={tz} />
+      {containers.length > 0 ? <DueNotes due={due} /> : null}
 
-      {canOpen ? (
-        <section aria-labelledby="open-container">
-          <h2 id="open-container">Open a container</h2>
-          <Cautions
-            title="Before placing a waste container"
-            items={[
-              "Glycerol phase and methanol-rich liquid are flammable: place their containers away from ignition sources and fill them with bonded and grounded transfer.",
-              "Oily or methanol-wet spent filter media can heat itself: use a closed metal bin, away from buildings.",
-              "Label the container with its contents and the accumulation start as your site's procedure requires.",
-            ]}
-          />
-          <OpenContainerForm
-            streams={WASTE_STREAMS.map((s) => [s, labelOf(s)] as const)}
-            nowLocal={when(now, tz).replace(" ", "T")}
-          />
-        </section>
-      ) : null}
+      {canOpen ? <OpenContainerSection nowLocal={when(now, tz).replace(" ", "T")} /> : null}
 
       <h2>Disposals</h2>
-      {disposals.length === 0 ? (
-        <Empty>No waste has been hauled away yet.</Empty>
-      ) : (
-        <div className="table-wrap">
-          <table>
-            <thead>
-              <tr>
-                <th scope="col">Manifest or document</th>
-                <th scope="col">Collected</th>
-                <th scope="col">Hauler</th>
-                <th scope="col">Destination facility</th>
-                <th scope="col">From containers</th>
-                <th scope="col" className="num">
-                  Mass
-                </th>
-                <th scope="col">History</th>
-              </tr>
-            </thead>
-            <tbody>
-              {disposals.map((d) => (
-                <tr key={d.documentNo} id={d.documentNo}>
-                  <td className="nowrap">{d.documentNo}</td>
-                  <td className="nowrap">{when(d.disposedAt, tz)}</td>
-                  <td>{d.hauler}</td>
-                  <td>{d.destination || <span className="muted">not recorded</span>}</td>
-                  <td>
-                    {d.containerCodes.map((c, i) => (
-                      <span key={c}>
-                        {i > 0 ? ", " : ""}
-                        <a href={`/waste/${encodeURIComponent(c)}`}>{c}</a>
-                      </span>
-                    ))}
-                  </td>
-                  <td className="num">{kg(d.massG)}</td>
-                  <td>
-                    <HistoryLink kind="disposal" recordKey={d.documentNo} label="disposal" />
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
-      )}
+      <DisposalsTable disposals={disposals} timeZone={tz} />
     </>
+  );
+}
+
+function DueCell({ d, onSite }: { d: WasteDueRow | undefined; onSite: boolean }) {
+  if (!onSite) return <span className="muted">hauled away</span>;
+  if (d === undefined) return <span className="muted">not assessed</span>;
+  if (d.dueDate === null) return <span className="muted">no time limit</span>;
+  return (
+    <span>
+      {d.dueDate}{" "}
+      {d.overdue ? (
+        <span className="status status-overdue">overdue</span>
+      ) : (
+        <span className="muted">({d.daysLeft} d)</span>
+      )}
+    </span>
+  );
+}
+
+function ContainersTable(p: {
+  containers: WasteContainerRow[];
+  due: WasteDueBoard | null;
+  now: Date;
+  timeZone: string;
+}) {
+  const dueOf = (c: WasteContainerRow) => p.due?.byCode.get(c.code);
+  const onSite = (c: WasteContainerRow) => c.status !== "SHIPPED";
+  return (
+    <DataTable<WasteContainerRow>
+      caption="Waste containers"
+      hideCaption
+      rows={p.containers}
+      rowKey={(c) => c.code}
+      rowId={(c) => c.code}
+      empty="No waste containers recorded yet."
+      columns={[
+        {
+          key: "code",
+          header: "Container",
+          cell: (c) => (
+            <span className="nowrap">
+              <CodeLink href={`/waste/${encodeURIComponent(c.code)}`} code={c.code} />
+              {c.satellite ? <span className="tag">satellite</span> : null}
+            </span>
+          ),
+        },
+        { key: "stream", header: "Stream", cell: (c) => labelOf(c.stream) },
+        { key: "location", header: "Location", cell: (c) => c.location || <span className="muted">—</span> },
+        { key: "status", header: "Status", cell: (c) => <Status code={c.status} /> },
+        { key: "start", header: "Started", cell: (c) => day(c.accumulationStart, p.timeZone) },
+        {
+          key: "days",
+          header: "Days on site",
+          numeric: true,
+          cell: (c) => (onSite(c) ? daysBetween(c.accumulationStart, p.now) : "—"),
+        },
+        { key: "due", header: "Due off site", cell: (c) => <DueCell d={dueOf(c)} onSite={onSite(c)} /> },
+        {
+          key: "hazard",
+          header: "Hazard",
+          cell: (c) => {
+            const d = dueOf(c);
+            return d ? labelOf(d.hazard) : <span className="muted">—</span>;
+          },
+        },
+        { key: "stock", header: "Book stock", numeric: true, cell: (c) => kg(c.stockG) },
+        { key: "capacity", header: "Capacity", numeric: true, cell: (c) => litres(c.capacityMl, 0) },
+        {
+          key: "history",
+          header: "History",
+          cell: (c) => <HistoryLink kind="waste" recordKey={c.code} label="waste container" />,
+        },
+      ]}
+    />
+  );
+}
+
+function DueNotes({ due }: { due: WasteDueBoard | null }) {
+  if (!due)
+    return (
+      <Note>
+        Due dates could not be worked out from the recorded data; days on site count from the accumulation start.
+      </Note>
+    );
+  return (
+    <>
+      <Note>
+        Due dates from {due.ruleSet}. {due.assumption.note} Containers marked satellite are treated as one satellite
+        area, with their volume estimated from book mass at a nominal density. {due.note}{" "}
+        <Link href="/waste/rules">Waste rule set</Link>
+      </Note>
+      {due.issues.length > 0 ? (
+        <ul className="warning" aria-label="Waste warnings">
+          {due.issues.map((i) => (
+            <li key={i}>{i}</li>
+          ))}
+        </ul>
+      ) : null}
+    </>
+  );
+}
+
+function OpenContainerSection({ nowLocal }: { nowLocal: string }) {
+  return (
+    <section aria-labelledby="open-container">
+      <h2 id="open-container">Open a container</h2>
+      <Cautions
+        title="Before placing a waste container"
+        items={[
+          "Glycerol phase and methanol-rich liquid are flammable: place their containers away from ignition sources and fill them with bonded and grounded transfer.",
+          "Oily or methanol-wet spent filter media can heat itself: use a closed metal bin, away from buildings.",
+          "Label the container with its contents and the accumulation start as your site's procedure requires.",
+        ]}
+      />
+      <OpenContainerForm streams={WASTE_STREAMS.map((s) => [s, labelOf(s)] as const)} nowLocal={nowLocal} />
+    </section>
+  );
+}
+
+function DisposalsTable({ disposals, timeZone }: { disposals: DisposalRow[]; timeZone: string }) {
+  return (
+    <DataTable<DisposalRow>
+      caption="Waste disposals"
+      hideCaption
+      rows={disposals}
+      rowKey={(d) => d.documentNo}
+      rowId={(d) => d.documentNo}
+      empty="No waste has been hauled away yet."
+      columns={[
+        { key: "doc", header: "Manifest or document", cell: (d) => d.documentNo },
+        { key: "at", header: "Collected", cell: (d) => when(d.disposedAt, timeZone) },
+        { key: "hauler", header: "Hauler", cell: (d) => d.hauler },
+        {
+          key: "dest",
+          header: "Destination facility",
+          cell: (d) => d.destination || <span className="muted">not recorded</span>,
+        },
+        {
+          key: "from",
+          header: "From containers",
+          cell: (d) =>
+            d.containerCodes.map((c, i) => (
+              <span key={c}>
+                {i > 0 ? ", " : ""}
+                <a href={`/waste/${encodeURIComponent(c)}`}>{c}</a>
+              </span>
+            )),
+        },
+        { key: "mass", header: "Mass", numeric: true, cell: (d) => kg(d.massG) },
+        {
+          key: "history",
+          header: "History",
+          cell: (d) => <HistoryLink kind="disposal" recordKey={d.documentNo} label="disposal" />,
+        },
+      ]}
+    />
   );
 }

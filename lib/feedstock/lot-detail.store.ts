@@ -1,12 +1,16 @@
 import "server-only";
 import { splitIngredients } from "@/lib/trace/ingredients";
-import type { IngredientShare, OriginGroup } from "@/lib/trace/ingredients";
+import type { IngredientShare } from "@/lib/trace/ingredients";
 import type { Db } from "@/lib/core/connect";
-import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
 import { listMovementsById } from "@/lib/ledger/movement.store";
-import type { HolderRef, TraceLedger } from "@/lib/ledger/movement.store";
+import type { TraceLedger } from "@/lib/ledger/movement.store";
 import type { ForwardTrace, HolderTrace } from "@/lib/trace/genealogy";
-import type { LedgerIndex, TraceMove } from "@/lib/ledger/moves";
+import type { LedgerIndex } from "@/lib/ledger/moves";
+import type { FlowMove, LotFlow, ReplayOrder } from "@/lib/feedstock/lot-flow";
+import { carriedFlow, groupOrigins, MAX_FLOW_MOVES, timeOrderedMoves } from "@/lib/feedstock/lot-flow";
+
+export type { FlowDestination, FlowMove, LotFlow, ReplayOrder } from "@/lib/feedstock/lot-flow";
+export { MAX_FLOW_MOVES } from "@/lib/feedstock/lot-flow";
 
 export interface TitrationView {
   id: number;
@@ -189,53 +193,6 @@ export async function getPickupDetail(db: Db, siteId: number, code: string): Pro
   };
 }
 
-export interface FlowDestination {
-  holder: HolderRef;
-  /** Grams of the lot's material that moved in (trace), or the full mass of the moves in (time-ordered flow). */
-  receivedG: number;
-  /** Grams of the lot's material still there (trace only; null for the time-ordered flow). */
-  heldG: number | null;
-  firstAt: Date;
-}
-
-export interface FlowMove {
-  id: number;
-  at: Date;
-  role: MoveRole;
-  from: HolderRef | null;
-  to: HolderRef;
-  /** Grams of the lot's material the move carried (trace), or the whole move (time-ordered flow). */
-  grams: number;
-  moveMassG: number;
-}
-
-export interface LotFlow {
-  /**
-   * "trace": grams attributed by replaying the ledger in date order under each holder's mixing model.
-   * "booking-order": the same replay in the order the movements were booked, used when their dates are
-   * inconsistent (a draw dated before the stock it needs); book stock was checked in that order.
-   * "time-ordered": every later move out of a holder the lot's material had reached (possible destinations).
-   */
-  method: "trace" | "booking-order" | "time-ordered";
-  /** Why the date-ordered trace could not be used, when method is not "trace". */
-  traceProblem: string | null;
-  /** Grams that entered the lot. */
-  enteredG: number;
-  /** Grams of the lot's material still in the lot. */
-  stillInLotG: number;
-  destinations: FlowDestination[];
-  /** The first MAX_FLOW_MOVES movements that carried the lot's material, in ledger order. */
-  moves: FlowMove[];
-  movesTotal: number;
-  reversedPairsLeftOut: number;
-}
-
-export const MAX_FLOW_MOVES = 200;
-
-const UPSTREAM_KINDS: ReadonlySet<HolderKind> = new Set(["PICKUP", "DELIVERY"]);
-
-export type ReplayOrder = "dated" | "booked";
-
 /**
  * Where a lot's material went (lot → tank → batch → product lot → shipment, and waste or losses), from
  * its backward trace and the forward trace of its origins (lot-flow.service.ts runs them on the cache).
@@ -250,16 +207,8 @@ export async function describeLotFlow(
   method: "trace" | "booking-order",
   traceProblem: string | null,
 ): Promise<LotFlow> {
-  const { back, fwd } = trace;
-  const isDownstream = (holderId: number) => {
-    const ref = ledger.refs.get(holderId);
-    return ref !== undefined && holderId !== lotHolderId && !UPSTREAM_KINDS.has(ref.kind);
-  };
-  const carried = fwd.moves.filter((m) => {
-    const move = moveAt(index, m.moveId);
-    return move !== undefined && move.fromHolderId !== null && isDownstream(move.toHolderId);
-  });
-  const shown = carried.slice(0, MAX_FLOW_MOVES);
+  const flow = carriedFlow(ledger, index, trace.fwd, lotHolderId);
+  const shown = flow.carried.slice(0, MAX_FLOW_MOVES);
   const views = await listMovementsById(
     db,
     siteId,
@@ -270,38 +219,16 @@ export async function describeLotFlow(
     const v = views.get(m.moveId);
     if (v) moves.push({ id: v.id, at: v.at, role: v.role, from: v.from, to: v.to, grams: m.grams, moveMassG: v.massG });
   }
-  // First arrival per holder, in the replay's order; the dates shown are the movements' own.
-  const realAt = new Map(ledger.moves.map((m) => [m.id, m.at]));
-  const first = new Map<number, { rank: number; at: Date }>();
-  carried.forEach((m, rank) => {
-    const move = moveAt(index, m.moveId);
-    if (move && !first.has(move.toHolderId))
-      first.set(move.toHolderId, { rank, at: new Date(realAt.get(m.moveId) ?? move.at) });
-  });
-  const destinations: Array<FlowDestination & { rank: number }> = [];
-  for (const h of fwd.holders) {
-    const ref = ledger.refs.get(h.holderId);
-    const f = first.get(h.holderId);
-    if (ref === undefined || f === undefined || !isDownstream(h.holderId)) continue;
-    destinations.push({ holder: ref, receivedG: h.receivedG, heldG: h.heldG, firstAt: f.at, rank: f.rank });
-  }
-  destinations.sort((a, b) => a.rank - b.rank);
-  const inLot = fwd.holders.find((h) => h.holderId === lotHolderId);
   return {
     method,
     traceProblem,
-    enteredG: back.received.totalG,
-    stillInLotG: inLot?.heldG ?? 0,
-    destinations: destinations.map(({ rank: _rank, ...d }) => d),
+    enteredG: trace.back.received.totalG,
+    stillInLotG: flow.stillInLotG,
+    destinations: flow.destinations,
     moves,
-    movesTotal: carried.length,
+    movesTotal: flow.carried.length,
     reversedPairsLeftOut: ledger.reversedPairsLeftOut,
   };
-}
-
-function moveAt(index: LedgerIndex, moveId: number) {
-  const pos = index.positionOf.get(moveId);
-  return pos === undefined ? undefined : index.moves[pos];
 }
 
 /**
@@ -315,30 +242,7 @@ export async function timeOrderedFlow(
   lotHolderId: number,
   traceProblem: string,
 ): Promise<LotFlow> {
-  const sorted = [...ledger.moves].sort((a, b) => a.at - b.at || a.id - b.id);
-  const reachedAt = new Map<number, number>();
-  let enteredG = 0;
-  const picked: TraceMove[] = [];
-  for (const m of sorted) {
-    if (m.toHolderId === lotHolderId) {
-      enteredG += m.massG;
-      if (!reachedAt.has(lotHolderId)) reachedAt.set(lotHolderId, m.at);
-      continue;
-    }
-    if (m.fromHolderId === null) continue;
-    const since = reachedAt.get(m.fromHolderId);
-    if (since === undefined || m.at < since) continue;
-    picked.push(m);
-    if (!reachedAt.has(m.toHolderId)) reachedAt.set(m.toHolderId, m.at);
-  }
-  const byHolder = new Map<number, FlowDestination>();
-  for (const m of picked) {
-    const to = ledger.refs.get(m.toHolderId);
-    if (!to) continue;
-    const d = byHolder.get(to.id) ?? { holder: to, receivedG: 0, heldG: null, firstAt: new Date(m.at) };
-    d.receivedG += m.massG;
-    byHolder.set(to.id, d);
-  }
+  const { picked, enteredG, destinations } = timeOrderedMoves(ledger, lotHolderId);
   const views = await listMovementsById(
     db,
     siteId,
@@ -355,7 +259,7 @@ export async function timeOrderedFlow(
     traceProblem,
     enteredG,
     stillInLotG: lotStock?.stockG ?? 0,
-    destinations: [...byHolder.values()],
+    destinations,
     moves,
     movesTotal: picked.length,
     reversedPairsLeftOut: ledger.reversedPairsLeftOut,
@@ -383,12 +287,6 @@ export async function describeMadeOf(
   back: HolderTrace,
   order: ReplayOrder,
 ): Promise<MadeOf> {
-  const { ledger } = view;
-  const entryHolder = new Map<number, number>();
-  for (const o of back.received.origins) {
-    const m = moveAt(view.index, o.originId);
-    if (m) entryHolder.set(o.originId, m.toHolderId);
-  }
   // The whole site's pickups and lots: a batch from a pooled tank can go back to thousands of pickups,
   // more than SQLite binds in one IN list.
   const [pickups, lots, reagentLots] = await Promise.all([
@@ -403,24 +301,7 @@ export async function describeMadeOf(
   const lotOfHolder = new Map<number, string>();
   for (const p of pickups) if (p.lot) lotOfHolder.set(p.holderId, p.lot.code);
   for (const l of lots) lotOfHolder.set(l.holderId, l.code);
-  const groups = new Map<string, OriginGroup>();
-  for (const o of back.received.origins) {
-    const h = entryHolder.get(o.originId);
-    const ref = h === undefined ? undefined : ledger.refs.get(h);
-    const lotCode = h === undefined ? undefined : lotOfHolder.get(h);
-    const reagent = h === undefined ? undefined : reagentOf.get(h);
-    const share: OriginGroup =
-      lotCode !== undefined
-        ? { kind: "LOT", code: lotCode, grams: 0 }
-        : ref?.kind === "REAGENT_LOT"
-          ? { kind: "REAGENT_LOT", code: ref.code, grams: 0, ...(reagent ? { reagent } : {}) }
-          : { kind: "OTHER", code: ref ? ref.code : `origin ${o.originId}`, grams: 0 };
-    const key = `${share.kind}:${share.code}`;
-    const g = groups.get(key) ?? share;
-    g.grams += o.grams;
-    groups.set(key, g);
-  }
-  const split = splitIngredients([...groups.values()]);
+  const split = splitIngredients(groupOrigins(view.ledger, view.index, back, lotOfHolder, reagentOf));
   return {
     totalG: back.received.totalG,
     shares: split.feedstock,

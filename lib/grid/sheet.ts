@@ -69,19 +69,10 @@ const QUOTE_MESSAGES: Record<string, string> = {
   TooManyFields: "",
 };
 
-/** Reads a block into rows checked cell by cell and with the table's shared schema. */
-export function readSheet(table: GridTable, text: string, o: SheetOptions): Sheet {
-  const problems: string[] = [];
-  const body = text.replace(/^\uFEFF/, "").replace(/(\r?\n)+$/, "");
-  if (body.trim() === "")
-    return {
-      hasHeader: false,
-      columns: [],
-      rows: [],
-      problems: ["The file or block is empty: there are no rows to read"],
-    };
+/** The block's cells: parsed (delimiter guessed unless given), control characters named and removed. */
+function parseBlock(body: string, delimiter: string | undefined, problems: string[]) {
   const parsed = Papa.parse<string[]>(body, {
-    delimiter: o.delimiter ?? "",
+    delimiter: delimiter ?? "",
     delimitersToGuess: [",", ";", "\t"],
     skipEmptyLines: "greedy",
   });
@@ -101,75 +92,111 @@ export function readSheet(table: GridTable, text: string, o: SheetOptions): Shee
       return cell.replace(new RegExp(CONTROL_CHARACTERS.source, "g"), "");
     }),
   );
+  return { grid, quoteRows };
+}
+
+const plural = (n: number) => (n > 1 ? "s" : "");
+
+/** The columns a header row names, with unknown, repeated and missing columns as problems. */
+function headerColumns(table: GridTable, first: string[], problems: string[]): HeaderMatch[] {
+  const m = matchHeaders(table, first);
+  if (m.unknown.length)
+    problems.push(
+      `Unknown column${plural(m.unknown.length)}: ${m.unknown.map((u) => `"${u}"`).join(", ")} (this table has: ${table.columns.map((c) => c.header).join(", ")})`,
+    );
+  problems.push(...m.unitIssues);
+  const seen = new Map<string, number>();
+  for (const c of m.matches) seen.set(c.column.field, (seen.get(c.column.field) ?? 0) + 1);
+  for (const [field, n] of seen)
+    if (n > 1)
+      problems.push(`Column "${table.columns.find((c) => c.field === field)?.header ?? field}" appears ${n} times`);
+  const given = new Set(m.matches.map((c) => c.column.field));
+  const missing = requiredFields(table).filter((f) => !given.has(f));
+  if (missing.length)
+    problems.push(
+      `Missing column${plural(missing.length)}: ${missing.map((f) => table.columns.find((c) => c.field === f)?.header ?? f).join(", ")}`,
+    );
+  return m.matches;
+}
+
+interface RowReading {
+  columns: HeaderMatch[];
+  hasHeader: boolean;
+  width: number;
+  quoteRows: Set<number>;
+  style: ReturnType<typeof numberStyleFor>;
+  order: ReturnType<typeof dateOrderFor>;
+}
+
+/** One data row read cell by cell, then checked with the table's shared schema. */
+function readRow(table: GridTable, cells: string[], i: number, k: RowReading, o: SheetOptions): SheetRow {
+  const line = i + 1 + (k.hasHeader ? 1 : 0);
+  const values: GridRow = {};
+  const errors: Record<string, string> = {};
+  const raw: Record<string, string> = {};
+  if (k.quoteRows.has(i + (k.hasHeader ? 1 : 0))) errors[""] = "broken quotes in this row";
+  if (!k.hasHeader && cells.length > k.width && cells.slice(k.width).some((c) => c.trim() !== ""))
+    errors[""] = `${cells.length} cells but only ${k.width} columns to put them in`;
+  for (const { index, column, unit } of k.columns) {
+    const cell = cells[index] ?? "";
+    raw[column.field] = cell;
+    if (column.entry !== true || column.computed === true) continue;
+    const r = readCell(column, cell, {
+      style: k.style,
+      order: k.order,
+      siteOffsetMin: o.siteOffsetMin,
+      system: o.system,
+      ...(unit ? { unit } : {}),
+    });
+    if (r.ok) values[column.field] = r.value;
+    else {
+      values[column.field] = cell;
+      errors[column.field] = r.issues[0]?.message ?? "cannot be read";
+    }
+  }
+  const check = checkRow(table, values);
+  for (const [f, msg] of Object.entries(check.errors)) if (errors[f] === undefined) errors[f] = msg;
+  return { line, values, errors, raw };
+}
+
+/** Reads a block into rows checked cell by cell and with the table's shared schema. */
+export function readSheet(table: GridTable, text: string, o: SheetOptions): Sheet {
+  const problems: string[] = [];
+  const body = text.replace(/^\uFEFF/, "").replace(/(\r?\n)+$/, "");
+  if (body.trim() === "")
+    return {
+      hasHeader: false,
+      columns: [],
+      rows: [],
+      problems: ["The file or block is empty: there are no rows to read"],
+    };
+  const { grid, quoteRows } = parseBlock(body, o.delimiter, problems);
   const first = grid[0] ?? [];
   const hasHeader = looksLikeHeader(table, first);
-  let columns: HeaderMatch[];
-  if (hasHeader) {
-    const m = matchHeaders(table, first);
-    columns = m.matches;
-    if (m.unknown.length)
-      problems.push(
-        `Unknown column${m.unknown.length > 1 ? "s" : ""}: ${m.unknown.map((u) => `"${u}"`).join(", ")} (this table has: ${table.columns.map((c) => c.header).join(", ")})`,
-      );
-    problems.push(...m.unitIssues);
-    const seen = new Map<string, number>();
-    for (const c of columns) seen.set(c.column.field, (seen.get(c.column.field) ?? 0) + 1);
-    for (const [field, n] of seen)
-      if (n > 1)
-        problems.push(`Column "${table.columns.find((c) => c.field === field)?.header ?? field}" appears ${n} times`);
-    const given = new Set(columns.map((c) => c.column.field));
-    const missing = requiredFields(table).filter((f) => !given.has(f));
-    if (missing.length)
-      problems.push(
-        `Missing column${missing.length > 1 ? "s" : ""}: ${missing.map((f) => table.columns.find((c) => c.field === f)?.header ?? f).join(", ")}`,
-      );
-  } else {
-    if (o.requireHeader)
-      problems.push(
-        `Row 1 is not a header row: the first row must name the columns (${entryColumns(table)
-          .map((c) => c.header)
-          .join(", ")})`,
-      );
-    columns = (o.columnsWithoutHeader ?? entryColumns(table)).map((column, index) => ({ index, column }));
-  }
+  if (!hasHeader && o.requireHeader)
+    problems.push(
+      `Row 1 is not a header row: the first row must name the columns (${entryColumns(table)
+        .map((c) => c.header)
+        .join(", ")})`,
+    );
+  const columns = hasHeader
+    ? headerColumns(table, first, problems)
+    : (o.columnsWithoutHeader ?? entryColumns(table)).map((column, index) => ({ index, column }));
   const dataRows = hasHeader ? grid.slice(1) : grid;
   if (dataRows.length === 0) problems.push("There are no data rows under the header");
   if (dataRows.length > MAX_IMPORT_ROWS)
     problems.push(
       `${dataRows.length.toLocaleString("en")} rows: at most ${MAX_IMPORT_ROWS.toLocaleString("en")} rows per import`,
     );
-  const style = numberStyleFor(o.locale);
-  const order = dateOrderFor(o.locale);
-  const width = Math.max(0, ...columns.map((c) => c.index + 1));
-  const rows: SheetRow[] = dataRows.slice(0, MAX_IMPORT_ROWS).map((cells, i) => {
-    const line = i + 1 + (hasHeader ? 1 : 0);
-    const values: GridRow = {};
-    const errors: Record<string, string> = {};
-    const raw: Record<string, string> = {};
-    if (quoteRows.has(i + (hasHeader ? 1 : 0))) errors[""] = "broken quotes in this row";
-    if (!hasHeader && cells.length > width && cells.slice(width).some((c) => c.trim() !== ""))
-      errors[""] = `${cells.length} cells but only ${width} columns to put them in`;
-    for (const { index, column, unit } of columns) {
-      const cell = cells[index] ?? "";
-      raw[column.field] = cell;
-      if (column.entry !== true || column.computed === true) continue;
-      const r = readCell(column, cell, {
-        style,
-        order,
-        siteOffsetMin: o.siteOffsetMin,
-        system: o.system,
-        ...(unit ? { unit } : {}),
-      });
-      if (r.ok) values[column.field] = r.value;
-      else {
-        values[column.field] = cell;
-        errors[column.field] = r.issues[0]?.message ?? "cannot be read";
-      }
-    }
-    const check = checkRow(table, values);
-    for (const [f, msg] of Object.entries(check.errors)) if (errors[f] === undefined) errors[f] = msg;
-    return { line, values, errors, raw };
-  });
+  const reading: RowReading = {
+    columns,
+    hasHeader,
+    width: Math.max(0, ...columns.map((c) => c.index + 1)),
+    quoteRows,
+    style: numberStyleFor(o.locale),
+    order: dateOrderFor(o.locale),
+  };
+  const rows = dataRows.slice(0, MAX_IMPORT_ROWS).map((cells, i) => readRow(table, cells, i, reading, o));
   return { hasHeader, columns, rows, problems };
 }
 

@@ -2,7 +2,7 @@ import "server-only";
 // Compliance's side of screening: a source's declared capacity and hours, decisions on flags (confirm
 // with watch, lot hold and withheld credit, or dismiss with a reason), and clearing a source. All audited.
 import { appendAudit } from "@/lib/audit/audit.store";
-import type { Db } from "@/lib/core/connect";
+import type { Db, Tx } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
 import { setLotScreeningHold } from "@/lib/feedstock/lot.store";
 import { reject, runInTransaction } from "@/lib/ledger/transaction.store";
@@ -46,6 +46,25 @@ export interface DecisionOutcome {
   creditWithheld: boolean;
 }
 
+/** Puts every lot of the source still on site on hold (already held ones are left as they are); their codes. */
+async function holdLotsOf(tx: Tx, actor: Actor, sourceId: number, flagId: number): Promise<string[]> {
+  const held: string[] = [];
+  for (const lot of await listOnSiteLotsOf(tx, actor.siteId, sourceId)) {
+    if (lot.screeningHold) continue;
+    await setLotScreeningHold(tx, lot.id, true);
+    held.push(lot.code);
+    await appendAudit(tx, actor, {
+      action: "CHANGE",
+      entity: "FeedstockLot",
+      entityKey: lot.code,
+      before: { status: lot.status, screeningHold: false },
+      after: { status: "QUARANTINED", screeningHold: true },
+      reason: `held by source check flag ${flagId}`,
+    });
+  }
+  return held;
+}
+
 export async function decideFlag(db: Db, actor: Actor, input: unknown): Promise<Result<DecisionOutcome>> {
   const parsed = parseInput(FlagDecisionSchema, input);
   if (!parsed.ok) return parsed;
@@ -83,22 +102,7 @@ export async function decideFlag(db: Db, actor: Actor, input: unknown): Promise<
         creditWithheld: source.creditWithheld,
       };
     }
-    const held: string[] = [];
-    if (d.holdLots) {
-      for (const lot of await listOnSiteLotsOf(tx, actor.siteId, source.id)) {
-        if (lot.screeningHold) continue;
-        await setLotScreeningHold(tx, lot.id, true);
-        held.push(lot.code);
-        await appendAudit(tx, actor, {
-          action: "CHANGE",
-          entity: "FeedstockLot",
-          entityKey: lot.code,
-          before: { status: lot.status, screeningHold: false },
-          after: { status: "QUARANTINED", screeningHold: true },
-          reason: `held by source check flag ${flag.id}`,
-        });
-      }
-    }
+    const held = d.holdLots ? await holdLotsOf(tx, actor, source.id, flag.id) : [];
     const watch = source.onWatch || d.watch;
     const creditWithheld = source.creditWithheld || d.withholdCredit;
     if (watch !== source.onWatch || creditWithheld !== source.creditWithheld) {

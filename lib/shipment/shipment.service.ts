@@ -92,6 +92,19 @@ async function postLine(tx: Tx, run: () => Promise<number>, prefix: string): Pro
   }
 }
 
+/** The customer the shipment goes to, which must exist and be active. */
+async function requireActiveCustomer(tx: Tx, siteId: number, code: string) {
+  const customer = await getCustomer(tx, siteId, code);
+  if (!customer) reject("RECORD.NOT_FOUND", `Customer ${code} does not exist`, "customerCode");
+  if (!customer.active)
+    reject(
+      "CUSTOMER.INACTIVE",
+      `Customer ${customer.name} is no longer active; reactivate the customer first`,
+      "customerCode",
+    );
+  return customer;
+}
+
 /**
  * Records one shipment to a customer: a shipment holder receives one movement per line, all in one
  * transaction — any refused line (held or rejected lot, over-draw, closed period) leaves nothing written.
@@ -112,14 +125,7 @@ export async function recordShipment(
     await assertPeriodOpen(tx, actor.siteId, s.shippedAt, "shippedAt");
     if (await shipmentExists(tx, actor.siteId, s.documentNo))
       reject("RECORD.DUPLICATE", `Document number ${s.documentNo} is already used by another shipment`, "documentNo");
-    const customer = await getCustomer(tx, actor.siteId, s.customerCode);
-    if (!customer) reject("RECORD.NOT_FOUND", `Customer ${s.customerCode} does not exist`, "customerCode");
-    if (!customer.active)
-      reject(
-        "CUSTOMER.INACTIVE",
-        `Customer ${customer.name} is no longer active; reactivate the customer first`,
-        "customerCode",
-      );
+    const customer = await requireActiveCustomer(tx, actor.siteId, s.customerCode);
     const sources: number[] = [];
     for (const l of priced) sources.push(await requireShippable(tx, actor, l, priced.length));
     const holderId = await createHolder(tx, actor.siteId, "SHIPMENT", s.documentNo, "documentNo");

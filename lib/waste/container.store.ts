@@ -1,35 +1,14 @@
 import "server-only";
 import type { Db, Tx } from "@/lib/core/connect";
-import { WASTE_STREAMS } from "@/lib/core/vocabulary";
-import type { WasteStream } from "@/lib/core/vocabulary";
-import {
-  DEFAULT_DENSITY_TABLE,
-  DEFAULT_REFERENCE_TEMP_C,
-  densityAt,
-  requireDensityEntry,
-} from "@/lib/quantity/density";
-import type { MaterialKind } from "@/lib/quantity/density";
-import { findSatelliteExcessSince, getSatelliteLimitMl, listWasteDue } from "@/lib/waste/waste-due";
-import type { GeneratorCategory, WasteContainerInput, WasteRuleSet } from "@/lib/waste/waste-due";
-import { MAX_DUE_HORIZON_DAYS } from "@/lib/waste/waste.schema";
-import { getActiveWasteRules } from "@/lib/waste/site-rules.store";
+import type { WasteContainerRow } from "@/lib/waste/container-row";
+import { toContainerRow } from "@/lib/waste/container-row";
+// Waste containers and disposals: the lists, one container's history, and the writes of the container
+// service. Due dates of the containers on site are read in due-board.store.ts (re-exported here).
 
-export interface WasteContainerRow {
-  code: string;
-  stream: string;
-  location: string;
-  accumulationStart: Date;
-  capacityMl: number;
-  satellite: boolean;
-  methanolPct: number | null;
-  pH: number | null;
-  flashPointC: number | null;
-  waterPct: number | null;
-  status: string;
-  stockG: number;
-  fullAt: Date | null;
-  characterisedAt: Date | null;
-}
+export { getWasteDueBoard, loadWasteDueInputs } from "@/lib/waste/due-board.store";
+export type { WasteDueBoard, WasteDueRow, WasteDueAssumption } from "@/lib/waste/due-board";
+export { ASSUMPTION_NOTE } from "@/lib/waste/due-board";
+export type { WasteContainerRow } from "@/lib/waste/container-row";
 
 /** Containers by accumulation start, oldest first; `statuses` narrows to e.g. those still on site. */
 export async function listWasteContainers(
@@ -43,42 +22,6 @@ export async function listWasteContainers(
     include: { holder: { select: { stockG: true } } },
   });
   return rows.map(toContainerRow);
-}
-
-type ContainerRecord = {
-  code: string;
-  stream: string;
-  location: string;
-  accumulationStart: Date;
-  capacityMl: number;
-  satellite: boolean;
-  methanolPct: number | null;
-  pH: number | null;
-  flashPointC: number | null;
-  waterPct: number | null;
-  status: string;
-  fullAt: Date | null;
-  characterisedAt: Date | null;
-  holder: { stockG: number };
-};
-
-function toContainerRow(r: ContainerRecord): WasteContainerRow {
-  return {
-    code: r.code,
-    stream: r.stream,
-    location: r.location,
-    accumulationStart: r.accumulationStart,
-    capacityMl: r.capacityMl,
-    satellite: r.satellite,
-    methanolPct: r.methanolPct,
-    pH: r.pH,
-    flashPointC: r.flashPointC,
-    waterPct: r.waterPct,
-    status: r.status,
-    stockG: r.holder.stockG,
-    fullAt: r.fullAt,
-    characterisedAt: r.characterisedAt,
-  };
 }
 
 export interface ContainerMovement {
@@ -205,180 +148,6 @@ export async function listDisposals(db: Db, siteId: number): Promise<DisposalRow
     massG: r.massG,
     containerCodes: [...new Set(r.holder.incoming.flatMap((m) => (m.fromHolder ? [m.fromHolder.code] : [])))],
   }));
-}
-
-export const ASSUMPTION_NOTE =
-  "No waste rule set chosen for this site yet: due dates assume US federal rules for a large quantity generator, the shortest federal accumulation time.";
-
-export interface WasteDueAssumption {
-  generatorCategory: GeneratorCategory;
-  tsdfDistanceMiles: number | null;
-  note: string;
-}
-
-const STREAM_MATERIAL: Readonly<Record<string, MaterialKind>> = {
-  GLYCEROL_PHASE: "GLYCEROL",
-  WASH_WATER: "WATER",
-  METHANOL_RICH: "METHANOL",
-  FILTER_MEDIA: "WATER",
-  OTHER: "WATER",
-};
-
-export const SATELLITE_AREA = "SITE_SATELLITE_AREA";
-
-/** The ledger keeps grams; the satellite limit and the hauler need litres, at the stream's nominal density. */
-export function estimateVolumeMl(stream: string, grams: number): number {
-  const rho = densityAt(
-    requireDensityEntry(DEFAULT_DENSITY_TABLE, STREAM_MATERIAL[stream] ?? "WATER"),
-    DEFAULT_REFERENCE_TEMP_C,
-  );
-  return Math.round((grams * 1000) / rho);
-}
-
-/**
- * When the site's satellite area went over its limit, from the movements into and out of its containers
- * still on site (each at its stream's nominal density); null when it is within the limit now.
- */
-async function findSatelliteExcessAt(
-  db: Db,
-  rows: readonly WasteContainerRow[],
-  ids: ReadonlyMap<string, number>,
-  rules: WasteRuleSet,
-): Promise<number | null> {
-  const holders = new Map<number, string>();
-  for (const r of rows) {
-    const id = ids.get(r.code);
-    if (r.satellite && id !== undefined) holders.set(id, r.stream);
-  }
-  if (holders.size === 0) return null;
-  const list = [...holders.keys()];
-  const moves = await db.movement.findMany({
-    where: { OR: [{ toHolderId: { in: list } }, { fromHolderId: { in: list } }] },
-    select: { at: true, massG: true, toHolderId: true, fromHolderId: true },
-  });
-  const events = moves.flatMap((m) => {
-    const into = holders.get(m.toHolderId);
-    const from = m.fromHolderId === null ? undefined : holders.get(m.fromHolderId);
-    const out: Array<{ at: number; deltaMl: number }> = [];
-    if (into !== undefined) out.push({ at: m.at.getTime(), deltaMl: estimateVolumeMl(into, m.massG) });
-    if (from !== undefined) out.push({ at: m.at.getTime(), deltaMl: -estimateVolumeMl(from, m.massG) });
-    return out;
-  });
-  return findSatelliteExcessSince(events, getSatelliteLimitMl(rules));
-}
-
-/** The containers on site as the due-date rules read them, with the satellite area's excess date when over. */
-export async function loadWasteDueInputs(
-  db: Db,
-  siteId: number,
-  rules: WasteRuleSet,
-): Promise<{ rows: WasteContainerRow[]; inputs: WasteContainerInput[] }> {
-  const records = await db.wasteContainer.findMany({
-    where: { siteId, status: { in: ["OPEN", "FULL"] } },
-    orderBy: [{ accumulationStart: "asc" }, { id: "asc" }],
-    include: { holder: { select: { stockG: true } } },
-  });
-  const streams: ReadonlySet<string> = new Set(WASTE_STREAMS);
-  const rows = records.filter((r) => streams.has(r.stream)).map(toContainerRow);
-  const excessAt = await findSatelliteExcessAt(db, rows, new Map(records.map((r) => [r.code, r.holderId])), rules);
-  const inputs = rows.map((c, i): WasteContainerInput => ({
-    id: i + 1,
-    code: c.code,
-    stream: c.stream as WasteStream,
-    massG: c.stockG,
-    volumeMl: estimateVolumeMl(c.stream, c.stockG),
-    accumulationStartAt: c.accumulationStart.getTime(),
-    satelliteAreaId: c.satellite ? SATELLITE_AREA : null,
-    satelliteExcessSinceAt: c.satellite ? excessAt : null,
-    characterisation: { methanolPct: c.methanolPct, pH: c.pH, flashPointC: c.flashPointC, waterPct: c.waterPct },
-  }));
-  return { rows, inputs };
-}
-
-export interface WasteDueRow {
-  code: string;
-  basis: string;
-  dueAt: Date | null;
-  dueDate: string | null;
-  limitDays: number | null;
-  source: string;
-  status: string;
-  hazard: string;
-  overdue: boolean;
-  daysLeft: number | null;
-}
-
-export interface WasteDueBoard {
-  byCode: Map<string, WasteDueRow>;
-  issues: string[];
-  ruleSet: string;
-  note: string;
-  assumption: WasteDueAssumption;
-}
-
-/** Due dates of the containers still on site, under the site's chosen waste rules (or the federal LQG assumption). */
-export async function getWasteDueBoard(
-  db: Db,
-  siteId: number,
-  now: Date,
-  utcOffsetMin: number,
-): Promise<WasteDueBoard | null> {
-  const active = await getActiveWasteRules(db, siteId);
-  const assumption: WasteDueAssumption = {
-    generatorCategory: active.generatorCategory,
-    tsdfDistanceMiles: active.tsdfDistanceMiles,
-    note:
-      active.chosen === null
-        ? ASSUMPTION_NOTE
-        : `Chosen for this site: ${active.rules.name}, ${active.generatorCategory}.`,
-  };
-  const { inputs: containers } = await loadWasteDueInputs(db, siteId, active.rules);
-  const report = listWasteDue({
-    containers,
-    site: { generatorCategory: active.generatorCategory, tsdfDistanceMiles: active.tsdfDistanceMiles, utcOffsetMin },
-    now: now.getTime(),
-    withinDays: MAX_DUE_HORIZON_DAYS,
-    rules: active.rules,
-  });
-  if (!report.ok) return null;
-  const byCode = new Map<string, WasteDueRow>();
-  for (const g of report.value.groups) {
-    for (const d of g.items) {
-      byCode.set(d.code, {
-        code: d.code,
-        basis: d.basis,
-        dueAt: d.dueAt === null ? null : new Date(d.dueAt),
-        dueDate: d.dueDate,
-        limitDays: d.limitDays,
-        source: d.source,
-        status: d.status,
-        hazard: d.hazard.overall,
-        overdue: d.overdue,
-        daysLeft: d.daysLeft,
-      });
-    }
-  }
-  for (const d of report.value.noTimeLimit) {
-    byCode.set(d.code, {
-      code: d.code,
-      basis: d.basis,
-      dueAt: null,
-      dueDate: null,
-      limitDays: null,
-      source: d.source,
-      status: d.status,
-      hazard: d.hazard.overall,
-      overdue: false,
-      daysLeft: null,
-    });
-  }
-  return {
-    byCode,
-    issues: report.value.issues.map((i) => i.message),
-    ruleSet: report.value.ruleSet.name,
-    note: report.value.note,
-    assumption,
-  };
 }
 
 // ---- writes used by lib/waste/container.service.ts and lib/batch/batch.service.ts

@@ -34,6 +34,7 @@ export function DataTable<T>({
   hideCaption = false,
   cards = false,
   className,
+  rowId,
 }: {
   caption: string;
   columns: ReadonlyArray<Column<T>>;
@@ -46,6 +47,8 @@ export function DataTable<T>({
   cards?: boolean;
   /** A page's own class for the table, for its own column widths. */
   className?: string;
+  /** An anchor per row, for links that point at one row of the list (`/waste#M-2026-014`). */
+  rowId?: (row: T) => string;
 }) {
   if (rows.length === 0) return <p className="empty">{empty}</p>;
   const hasTotals = columns.some((c) => c.total !== undefined);
@@ -73,7 +76,7 @@ export function DataTable<T>({
         </thead>
         <tbody>
           {rows.map((r) => (
-            <tr key={rowKey(r)}>
+            <tr key={rowKey(r)} id={rowId?.(r)}>
               {columns.map((c) => (
                 <td
                   key={c.key}

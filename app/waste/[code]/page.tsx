@@ -35,24 +35,19 @@ const MISSING_WORDS: Readonly<Record<string, string>> = {
   solidIgnitable: "a determination whether the solid is ignitable",
 };
 
-function FlagRow({ f, what }: { f: HazardFlag; what: string }) {
+function flagWord(f: HazardFlag) {
   const word = f.status === "YES" ? "Yes" : f.status === "NO" ? "No" : "Not known yet";
   const cls = f.status === "YES" ? "status-fail" : f.status === "UNKNOWN" ? "status-warn" : "status-pass";
+  return <span className={`status ${cls}`}>{word}</span>;
+}
+
+function flagReason(f: HazardFlag) {
   const missing = f.missing.map((m) => MISSING_WORDS[m] ?? m);
   return (
-    <tr>
-      <th scope="row">
-        {what} ({f.code})
-      </th>
-      <td>
-        <span className={`status ${cls}`}>{word}</span>
-      </td>
-      <td>
-        {f.reason}
-        {missing.length > 0 ? <span className="muted"> — still needed: {missing.join(", ")}</span> : null}
-      </td>
-      <td>{screenText(f.source)}</td>
-    </tr>
+    <>
+      {f.reason}
+      {missing.length > 0 ? <span className="muted"> — still needed: {missing.join(", ")}</span> : null}
+    </>
   );
 }
 
@@ -109,28 +104,9 @@ export default async function WasteContainerPage({ params }: Props) {
 
       <CharacterisationSection c={c} timeZone={tz} nowLocal={nowLocal} canRecord={onSite && canRecord} />
 
-      {c.status === "OPEN" && canRecord ? (
-        <section aria-labelledby="full">
-          <h2 id="full">Mark full</h2>
-          <p>A full container takes no more batch outputs and waits for the hauler.</p>
-          <MarkFullForm containerCode={c.code} nowLocal={nowLocal} />
-        </section>
-      ) : null}
+      {c.status === "OPEN" && canRecord ? <MarkFullSection code={c.code} nowLocal={nowLocal} /> : null}
 
-      {onSite ? (
-        <section aria-labelledby="haul" id="haul-away">
-          <h2 id="haul">Record a haul-away</h2>
-          <p>
-            The container holds <strong>{kg(c.stockG, 1)}</strong> on the books. When a haul takes all of it the
-            container is marked hauled away.
-          </p>
-          {canHaul ? (
-            <HaulForm containerCode={c.code} nowLocal={haulLocal} />
-          ) : (
-            <Note>Compliance staff record haul-aways.</Note>
-          )}
-        </section>
-      ) : null}
+      {onSite ? <HaulSection code={c.code} stockG={c.stockG} canHaul={canHaul} haulLocal={haulLocal} /> : null}
 
       <HaulsTable rows={c.disposals} timeZone={tz} />
 
@@ -139,27 +115,53 @@ export default async function WasteContainerPage({ params }: Props) {
   );
 }
 
+function MarkFullSection({ code, nowLocal }: { code: string; nowLocal: string }) {
+  return (
+    <section aria-labelledby="full">
+      <h2 id="full">Mark full</h2>
+      <p>A full container takes no more batch outputs and waits for the hauler.</p>
+      <MarkFullForm containerCode={code} nowLocal={nowLocal} />
+    </section>
+  );
+}
+
+function HaulSection(p: { code: string; stockG: number; canHaul: boolean; haulLocal: string }) {
+  return (
+    <section aria-labelledby="haul" id="haul-away">
+      <h2 id="haul">Record a haul-away</h2>
+      <p>
+        The container holds <strong>{kg(p.stockG, 1)}</strong> on the books. When a haul takes all of it the container
+        is marked hauled away.
+      </p>
+      {p.canHaul ? (
+        <HaulForm containerCode={p.code} nowLocal={p.haulLocal} />
+      ) : (
+        <Note>Compliance staff record haul-aways.</Note>
+      )}
+    </section>
+  );
+}
+
 function HazardSection({ hazard }: { hazard: HazardAssessment }) {
   return (
     <section aria-labelledby="hazard">
       <h2 id="hazard">Hazard assessment: {labelOf(hazard.overall)}</h2>
-      <div className="table-wrap">
-        <table>
-          <caption className="visually-hidden">Hazard characteristics</caption>
-          <thead>
-            <tr>
-              <th scope="col">Characteristic</th>
-              <th scope="col">Applies</th>
-              <th scope="col">Why</th>
-              <th scope="col">Rule</th>
-            </tr>
-          </thead>
-          <tbody>
-            <FlagRow f={hazard.ignitable} what="Ignitable" />
-            <FlagRow f={hazard.corrosive} what="Corrosive" />
-          </tbody>
-        </table>
-      </div>
+      <DataTable<{ what: string; f: HazardFlag }>
+        caption="Hazard characteristics"
+        hideCaption
+        rows={[
+          { what: "Ignitable", f: hazard.ignitable },
+          { what: "Corrosive", f: hazard.corrosive },
+        ]}
+        rowKey={(r) => r.f.code}
+        empty="No hazard characteristics assessed."
+        columns={[
+          { key: "what", header: "Characteristic", cell: (r) => `${r.what} (${r.f.code})` },
+          { key: "applies", header: "Applies", cell: (r) => flagWord(r.f) },
+          { key: "why", header: "Why", cell: (r) => flagReason(r.f) },
+          { key: "rule", header: "Rule", cell: (r) => screenText(r.f.source) },
+        ]}
+      />
       <Note>
         A container without the measurements is handled as hazardous until it is characterised. Local and state rules
         may be stricter and govern.

@@ -12,7 +12,14 @@ import { ASSUMPTION_NOTE, loadWasteDueInputs } from "@/lib/waste/container.store
 import { getActiveWasteRules } from "@/lib/waste/site-rules.store";
 import type { ActiveWasteRules } from "@/lib/waste/site-rules";
 import { assessWasteHazards, listWasteDue } from "@/lib/waste/waste-due";
-import type { GeneratorCategory, HazardAssessment, StreamGroup, WasteDue, WasteRuleSet } from "@/lib/waste/waste-due";
+import type {
+  GeneratorCategory,
+  HazardAssessment,
+  StreamGroup,
+  WasteContainerInput,
+  WasteDue,
+  WasteRuleSet,
+} from "@/lib/waste/waste-due";
 import { MAX_DUE_HORIZON_DAYS, WasteDueQuerySchema, WasteSiteSettingsSchema } from "@/lib/waste/waste.schema";
 import { WasteDuePageQuerySchema } from "@/lib/api/endpoints/trace";
 
@@ -59,6 +66,50 @@ export interface WasteDueReport {
 
 const MS_PER_DAY = 86_400_000;
 
+type OnSite = Awaited<ReturnType<typeof loadWasteDueInputs>>["rows"][number];
+
+/** A container on site with its hazard flags; its due date is filled in from the report. */
+function dueRowOf(c: OnSite, input: WasteContainerInput | undefined, rules: WasteRuleSet): ContainerDueRow {
+  const characterisation = { methanolPct: c.methanolPct, pH: c.pH, flashPointC: c.flashPointC, waterPct: c.waterPct };
+  return {
+    code: c.code,
+    stream: c.stream as WasteStream,
+    status: c.status,
+    massG: input?.massG ?? c.stockG,
+    volumeMl: input?.volumeMl ?? 0,
+    accumulationStart: c.accumulationStart,
+    satellite: c.satellite,
+    characterisation,
+    hazard: assessWasteHazards(c.stream as WasteStream, characterisation, rules),
+    due: null,
+    daysLeft: null,
+    overdue: false,
+  };
+}
+
+function withDueDates(rows: ContainerDueRow[], report: { groups: StreamGroup[]; noTimeLimit: WasteDue[] }): void {
+  const byCode = new Map<string, { due: WasteDue; daysLeft: number | null; overdue: boolean }>();
+  for (const g of report.groups)
+    for (const d of g.items) byCode.set(d.code, { due: d, daysLeft: d.daysLeft, overdue: d.overdue });
+  for (const d of report.noTimeLimit) byCode.set(d.code, { due: d, daysLeft: null, overdue: false });
+  for (const r of rows) {
+    const d = byCode.get(r.code);
+    if (d) Object.assign(r, d);
+  }
+}
+
+function totalsOf(groups: readonly StreamGroup[]): WasteDueReport["totals"] {
+  return groups.reduce(
+    (t, g) => ({
+      count: t.count + g.totals.count,
+      kg: t.kg + g.totals.kg,
+      litres: t.litres + g.totals.litres,
+      usGallons: t.usGallons + g.totals.usGallons,
+    }),
+    { count: 0, kg: 0, litres: 0, usGallons: 0 },
+  );
+}
+
 export async function getWasteDueReport(
   db: Db,
   site: { id: number; timeZone: string },
@@ -81,24 +132,7 @@ export async function getWasteDueReport(
     };
   const rules = active.rules;
   const { rows: onSite, inputs } = await loadWasteDueInputs(db, site.id, rules);
-  const rows: ContainerDueRow[] = onSite.map((c, i) => ({
-    code: c.code,
-    stream: c.stream as WasteStream,
-    status: c.status,
-    massG: inputs[i]?.massG ?? c.stockG,
-    volumeMl: inputs[i]?.volumeMl ?? 0,
-    accumulationStart: c.accumulationStart,
-    satellite: c.satellite,
-    characterisation: { methanolPct: c.methanolPct, pH: c.pH, flashPointC: c.flashPointC, waterPct: c.waterPct },
-    hazard: assessWasteHazards(
-      c.stream as WasteStream,
-      { methanolPct: c.methanolPct, pH: c.pH, flashPointC: c.flashPointC, waterPct: c.waterPct },
-      rules,
-    ),
-    due: null,
-    daysLeft: null,
-    overdue: false,
-  }));
+  const rows = onSite.map((c, i) => dueRowOf(c, inputs[i], rules));
   const siteRules = {
     generatorCategory: settings.value.generatorCategory,
     tsdfDistanceMiles: settings.value.tsdfDistanceMiles,
@@ -113,28 +147,12 @@ export async function getWasteDueReport(
   });
   if (!report.ok) return report;
   // Every container's due date, from the widest horizon; the stream groups are those due within N days.
-  const byCode = new Map<string, { due: WasteDue; daysLeft: number | null; overdue: boolean }>();
-  for (const g of report.value.groups)
-    for (const d of g.items) byCode.set(d.code, { due: d, daysLeft: d.daysLeft, overdue: d.overdue });
-  for (const d of report.value.noTimeLimit) byCode.set(d.code, { due: d, daysLeft: null, overdue: false });
-  for (const r of rows) {
-    const d = byCode.get(r.code);
-    if (d) Object.assign(r, d);
-  }
+  withDueDates(rows, report.value);
   const days = horizon.value.withinDays;
   const horizonAt = now.getTime() + days * MS_PER_DAY;
   const within = listWasteDue({ containers: inputs, site: siteRules, now: now.getTime(), withinDays: days, rules });
   if (!within.ok) return within;
   const dueGroups = within.value.groups;
-  const totals = dueGroups.reduce(
-    (t, g) => ({
-      count: t.count + g.totals.count,
-      kg: t.kg + g.totals.kg,
-      litres: t.litres + g.totals.litres,
-      usGallons: t.usGallons + g.totals.usGallons,
-    }),
-    { count: 0, kg: 0, litres: 0, usGallons: 0 },
-  );
   return ok({
     query: { days, category: settings.value.generatorCategory, tsdfMiles: settings.value.tsdfDistanceMiles },
     categoryAssumed: raw.value.category === undefined && active.chosen === null,
@@ -150,7 +168,7 @@ export async function getWasteDueReport(
         a.code.localeCompare(b.code),
     ),
     groups: dueGroups,
-    totals,
+    totals: totalsOf(dueGroups),
     noTimeLimit: report.value.noTimeLimit,
     issues: report.value.issues,
     densityNote:

@@ -32,8 +32,8 @@ function hazardText(h: ContainerDueRow["hazard"]): string {
   return `${overall}; ${flag(h.ignitable, "ignitable")}, ${flag(h.corrosive, "corrosive")}${h.listedCodes.length ? `; listed ${h.listedCodes.join(", ")}` : ""}`;
 }
 
-export function buildWasteListDoc(r: WasteDueReport, ctx: ReportContext, ledger: ReportDoc["ledger"]): ReportDoc {
-  const containers: ReportTable = {
+function containersTable(r: WasteDueReport): ReportTable {
+  return {
     key: "containers",
     heading: "Containers on site",
     columns: [
@@ -71,7 +71,10 @@ export function buildWasteListDoc(r: WasteDueReport, ctx: ReportContext, ledger:
     ],
     empty: "No waste container is open or full on site.",
   };
-  const byStream: ReportTable = {
+}
+
+function byStreamTable(r: WasteDueReport): ReportTable {
+  return {
     key: "due-by-stream",
     heading: `Due within ${r.query.days} days, by stream`,
     columns: [
@@ -97,6 +100,9 @@ export function buildWasteListDoc(r: WasteDueReport, ctx: ReportContext, ledger:
     ],
     empty: `Nothing falls due within ${r.query.days} days.`,
   };
+}
+
+export function buildWasteListDoc(r: WasteDueReport, ctx: ReportContext, ledger: ReportDoc["ledger"]): ReportDoc {
   const streams = [...new Set(r.containers.map((c) => c.stream))] as WasteStream[];
   return {
     slug: "waste-list",
@@ -117,6 +123,6 @@ export function buildWasteListDoc(r: WasteDueReport, ctx: ReportContext, ledger:
     ],
     notes: [r.localRulesNote, r.densityNote],
     cautions: [...streams.flatMap((s) => STREAM_CAUTIONS[s] ?? []), CLOSING_CAUTION],
-    tables: [containers, byStream],
+    tables: [containersTable(r), byStreamTable(r)],
   };
 }
