@@ -1,4 +1,3 @@
-import Link from "next/link";
 import { getUtcOffsetMin } from "@/lib/period/site-time";
 import { getDashboard } from "@/app/_today/today";
 import { getWasteDueBoard } from "@/lib/waste/container.store";
