@@ -121,6 +121,8 @@ test("from a source, follow its oil of two weeks to customers and hold what is s
       headers: { "idempotency-key": `recall-restore-${code}-${Date.now()}`, origin: baseURL! },
       data: { productLotCode: code, decision: "RELEASE" },
     });
-    expect(res.status(), `release ${code} again`).toBe(200);
+    if (res.status() === 200) continue;
+    // Another journey on the shared demo plant may have released it meanwhile: what counts is that it is released.
+    expect((await productStatuses(page, [code])).get(code), `release ${code} again (${res.status()})`).toBe("Released");
   }
 });
