@@ -10,6 +10,7 @@ import type {
   GridReadyEvent,
   IDatasource,
   IGetRowsParams,
+  CellDoubleClickedEvent,
   CellKeyDownEvent,
 } from "ag-grid-community";
 import type { UnitSystem } from "@/lib/quantity/units";
@@ -43,6 +44,75 @@ function filterFor(c: GridColumn): string | boolean {
   return "agTextColumnFilter";
 }
 
+/** The stored grid's columns: units in the headers, pending corrections shown in place, lot decisions editable. */
+function storedColumns(
+  table: GridTable,
+  system: UnitSystem,
+  canCorrect: boolean,
+  pendingRef: { current: Map<string, Correction> },
+): ColDef<GridRow>[] {
+  return table.columns.map((c) => ({
+    colId: c.field,
+    field: c.field,
+    headerName: headerWithUnit(c, system),
+    headerTooltip: c.computed ? `${c.header}: computed on the server, read-only` : undefined,
+    width: c.width ?? 130,
+    sortable: !!c.db,
+    filter: filterFor(c),
+    filterParams: c.kind === "number" || c.kind === "integer" ? { buttons: ["reset"] } : undefined,
+    type: c.kind === "number" || c.kind === "integer" ? "rightAligned" : undefined,
+    valueFormatter: (p) => {
+      if (p.node?.rowPinned)
+        return p.value === null || p.value === undefined
+          ? ""
+          : typeof p.value === "number"
+            ? showCell(c, p.value, system)
+            : String(p.value);
+      const pend = p.data ? pendingRef.current.get(`${String(p.data[table.rowId])}|${c.field}`) : undefined;
+      return showCell(c, pend ? pend.value : ((p.value as GridRow[string]) ?? null), system);
+    },
+    editable: (p) => canCorrect && !!c.correctable && !p.node.rowPinned && p.data?.status === "QUARANTINED",
+    cellEditor: c.correctable ? "agSelectCellEditor" : undefined,
+    cellEditorParams: c.correctable ? { values: [...c.correctable] } : undefined,
+    cellClassRules: {
+      "cell-computed": () => c.computed === true,
+      "cell-pending": (p) => !!p.data && pendingRef.current.has(`${String(p.data[table.rowId])}|${c.field}`),
+      "cell-correctable": (p) => canCorrect && !!c.correctable && p.data?.status === "QUARANTINED",
+    },
+    tooltipValueGetter: (p) =>
+      p.data && pendingRef.current.has(`${String(p.data[table.rowId])}|${c.field}`)
+        ? "Changed here, not saved yet"
+        : undefined,
+  }));
+}
+
+/** Rows from the server a block at a time, with the totals row for the current filter. */
+function storedRows(
+  table: GridTable,
+  onStatus: (s: string) => void,
+  onView: (v: ViewModel) => void,
+  setTotal: (t: GridRow) => void,
+): IDatasource {
+  return {
+    getRows: (p: IGetRowsParams) => {
+      onView({ sort: p.sortModel, filter: p.filterModel });
+      void fetchRows(table.key, p.startRow, p.endRow, p.sortModel, p.filterModel).then((a) => {
+        if (!a.ok) {
+          onStatus(`Could not load rows: ${a.issues.map((i) => i.message).join("; ")}`);
+          p.failCallback();
+          return;
+        }
+        p.successCallback(a.value.rows, a.value.lastRow);
+        const first = table.columns[0]?.field ?? "code";
+        const t: GridRow = { [first]: `Total, ${a.value.lastRow.toLocaleString("en")} rows` };
+        if (table.totals.mass) t[table.totals.mass] = a.value.totals.massKg;
+        if (table.totals.volume) t[table.totals.volume] = a.value.totals.volumeL;
+        setTotal(t);
+      });
+    },
+  };
+}
+
 export function StoredGrid(props: {
   table: GridTable;
   system: UnitSystem;
@@ -63,65 +133,9 @@ export function StoredGrid(props: {
   const pendingRef = useRef(pending);
   pendingRef.current = pending;
 
-  const columnDefs = useMemo<ColDef<GridRow>[]>(
-    () =>
-      table.columns.map((c) => ({
-        colId: c.field,
-        field: c.field,
-        headerName: headerWithUnit(c, system),
-        headerTooltip: c.computed ? `${c.header}: computed on the server, read-only` : undefined,
-        width: c.width ?? 130,
-        sortable: !!c.db,
-        filter: filterFor(c),
-        filterParams: c.kind === "number" || c.kind === "integer" ? { buttons: ["reset"] } : undefined,
-        type: c.kind === "number" || c.kind === "integer" ? "rightAligned" : undefined,
-        valueFormatter: (p) => {
-          if (p.node?.rowPinned)
-            return p.value === null || p.value === undefined
-              ? ""
-              : typeof p.value === "number"
-                ? showCell(c, p.value, system)
-                : String(p.value);
-          const pend = p.data ? pendingRef.current.get(`${String(p.data[table.rowId])}|${c.field}`) : undefined;
-          return showCell(c, pend ? pend.value : ((p.value as GridRow[string]) ?? null), system);
-        },
-        editable: (p) => canCorrect && !!c.correctable && !p.node.rowPinned && p.data?.status === "QUARANTINED",
-        cellEditor: c.correctable ? "agSelectCellEditor" : undefined,
-        cellEditorParams: c.correctable ? { values: [...c.correctable] } : undefined,
-        cellClassRules: {
-          "cell-computed": () => c.computed === true,
-          "cell-pending": (p) => !!p.data && pendingRef.current.has(`${String(p.data[table.rowId])}|${c.field}`),
-          "cell-correctable": (p) => canCorrect && !!c.correctable && p.data?.status === "QUARANTINED",
-        },
-        tooltipValueGetter: (p) =>
-          p.data && pendingRef.current.has(`${String(p.data[table.rowId])}|${c.field}`)
-            ? "Changed here, not saved yet"
-            : undefined,
-      })),
-    [table, system, canCorrect],
-  );
+  const columnDefs = useMemo(() => storedColumns(table, system, canCorrect, pendingRef), [table, system, canCorrect]);
 
-  const datasource = useMemo<IDatasource>(
-    () => ({
-      getRows: (p: IGetRowsParams) => {
-        onView({ sort: p.sortModel, filter: p.filterModel });
-        void fetchRows(table.key, p.startRow, p.endRow, p.sortModel, p.filterModel).then((a) => {
-          if (!a.ok) {
-            onStatus(`Could not load rows: ${a.issues.map((i) => i.message).join("; ")}`);
-            p.failCallback();
-            return;
-          }
-          p.successCallback(a.value.rows, a.value.lastRow);
-          const first = table.columns[0]?.field ?? "code";
-          const t: GridRow = { [first]: `Total, ${a.value.lastRow.toLocaleString("en")} rows` };
-          if (table.totals.mass) t[table.totals.mass] = a.value.totals.massKg;
-          if (table.totals.volume) t[table.totals.volume] = a.value.totals.volumeL;
-          setTotal(t);
-        });
-      },
-    }),
-    [table, onStatus, onView],
-  );
+  const datasource = useMemo(() => storedRows(table, onStatus, onView, setTotal), [table, onStatus, onView]);
 
   const onGridReady = useCallback(
     (e: GridReadyEvent<GridRow>) => {
@@ -137,6 +151,48 @@ export function StoredGrid(props: {
     queueMicrotask(() => apiRef.current?.refreshInfiniteCache());
   }
 
+  const { onEdit, onKey, onDoubleClick } = useStoredEditing(
+    table,
+    canCorrect,
+    onStatus,
+    onCorrection,
+    pendingRef,
+    apiRef,
+  );
+
+  return (
+    <div className="grid-box grid-box-stored" data-testid="stored-grid">
+      <AgGridReact<GridRow>
+        theme={gridTheme}
+        rowModelType="infinite"
+        cacheBlockSize={100}
+        maxBlocksInCache={20}
+        infiniteInitialRowCount={50}
+        columnDefs={columnDefs}
+        getRowId={(p) => String(p.data[table.rowId])}
+        onGridReady={onGridReady}
+        readOnlyEdit
+        onCellEditRequest={onEdit}
+        onCellDoubleClicked={onDoubleClick}
+        onCellKeyDown={onKey}
+        pinnedBottomRowData={total ? [total] : []}
+        tooltipShowDelay={300}
+        ensureDomOrder
+        suppressMultiSort={false}
+      />
+    </div>
+  );
+}
+
+/** Editing the stored rows: only a quarantined lot's decision, as a pending correction; anything else says why not. */
+function useStoredEditing(
+  table: GridTable,
+  canCorrect: boolean,
+  onStatus: (s: string) => void,
+  onCorrection: (c: Correction) => void,
+  pendingRef: { current: Map<string, Correction> },
+  apiRef: { current: GridApi | null },
+) {
   const onEdit = useCallback(
     (e: CellEditRequestEvent<GridRow>) => {
       const field = e.colDef.field ?? "";
@@ -170,30 +226,13 @@ export function StoredGrid(props: {
     [table, canCorrect, onStatus],
   );
 
-  return (
-    <div className="grid-box grid-box-stored" data-testid="stored-grid">
-      <AgGridReact<GridRow>
-        theme={gridTheme}
-        rowModelType="infinite"
-        cacheBlockSize={100}
-        maxBlocksInCache={20}
-        infiniteInitialRowCount={50}
-        columnDefs={columnDefs}
-        getRowId={(p) => String(p.data[table.rowId])}
-        onGridReady={onGridReady}
-        readOnlyEdit
-        onCellEditRequest={onEdit}
-        onCellDoubleClicked={(e) => {
-          const col = table.columns.find((c) => c.field === e.colDef.field);
-          if (!(canCorrect && col?.correctable && e.data?.status === "QUARANTINED") && !e.node.rowPinned)
-            onStatus(READ_ONLY_HINT);
-        }}
-        onCellKeyDown={onKey}
-        pinnedBottomRowData={total ? [total] : []}
-        tooltipShowDelay={300}
-        ensureDomOrder
-        suppressMultiSort={false}
-      />
-    </div>
+  const onDoubleClick = useCallback(
+    (e: CellDoubleClickedEvent<GridRow>) => {
+      const col = table.columns.find((c) => c.field === e.colDef.field);
+      if (!(canCorrect && col?.correctable && e.data?.status === "QUARANTINED") && !e.node.rowPinned)
+        onStatus(READ_ONLY_HINT);
+    },
+    [table, canCorrect, onStatus],
   );
+  return { onEdit, onKey, onDoubleClick };
 }
