@@ -1,23 +1,10 @@
-import type { NextResponse } from "next/server";
-import { requireReader } from "@/lib/auth/request.service";
-import { respond } from "@/lib/api/json-route.service";
-import { getDb } from "@/lib/core/db";
-import { fail } from "@/lib/core/result";
 import { getBalanceReportCached } from "@/lib/mass-balance/balance-cache.service";
 import { respondAtPosition } from "@/lib/api/etag.service";
-import { getSiteById } from "@/lib/site/site.store";
-import { handled } from "@/lib/api/handle.service";
+import { siteReadRoute } from "@/lib/api/site-read.service";
 
 export const dynamic = "force-dynamic";
 
 /** GET /api/balance?period=MONTH|QUARTER|CUSTOM&year=&month=&quarter=&start=&end=&warnPct=&failPct= — the /balance page's answer. */
-export const GET = handled("GET /api/balance", async (request: Request): Promise<NextResponse> => {
-  const who = await requireReader(request);
-  if (!who.ok) return respond(who);
-  const db = await getDb();
-  const site = await getSiteById(db, who.value.siteId);
-  if (!site) return respond(fail("RECORD.NOT_FOUND", "Your site is not set up"));
-  return respondAtPosition(request, db, who.value, () =>
-    getBalanceReportCached(db, site, Object.fromEntries(new URL(request.url).searchParams), who.value.now),
-  );
-});
+export const GET = siteReadRoute("GET /api/balance", async ({ request, db, site, who, query }) =>
+  respondAtPosition(request, db, who, () => getBalanceReportCached(db, site, query, who.now)),
+);
