@@ -114,15 +114,20 @@ test("from a source, follow its oil of two weeks to customers and hold what is s
   expect(tessCsv.status()).toBe(422);
   await tess.close();
 
-  // Put back what was released before, for the journeys that run after this one.
+  // Put back what was released before, for the journeys that run after this one. A lot the recall did not
+  // hold (shipped, or not reached on site) is still released; one released before with a deviation goes back
+  // the same way, with a reason.
+  const now = await productStatuses(page, [...before.keys()]);
   for (const [code, status] of before) {
-    if (status !== "Released") continue;
-    const res = await page.request.post("/api/products/decisions", {
-      headers: { "idempotency-key": `recall-restore-${code}-${Date.now()}`, origin: baseURL! },
-      data: { productLotCode: code, decision: "RELEASE" },
-    });
-    if (res.status() === 200) continue;
-    // Another journey on the shared demo plant may have released it meanwhile: what counts is that it is released.
-    expect((await productStatuses(page, [code])).get(code), `release ${code} again (${res.status()})`).toBe("Released");
+    if (status !== "Released" || now.get(code) === "Released") continue;
+    const decide = (decision: string, reason = "") =>
+      page.request.post("/api/products/decisions", {
+        headers: { "idempotency-key": `recall-restore-${code}-${decision}-${Date.now()}`, origin: baseURL! },
+        data: { productLotCode: code, decision, reason },
+      });
+    let res = await decide("RELEASE");
+    if ((await res.text()).includes("PRODUCT.NOT_RELEASABLE"))
+      res = await decide("RELEASE_WITH_DEVIATION", "released again after the recall drill");
+    expect(res.status(), `release ${code} again: ${await res.text()}`).toBe(200);
   }
 });
