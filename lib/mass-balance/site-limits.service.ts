@@ -15,6 +15,7 @@ import {
 } from "@/lib/mass-balance/site-limits.schema";
 import { getSavedSiteLimits, insertSiteLimit, listSiteLimitHistory } from "@/lib/mass-balance/site-limits.store";
 import type { LimitHistoryRow } from "@/lib/mass-balance/site-limits.store";
+import type { ClosureLimit, WaterLimit } from "@/lib/mass-balance/site-limits.schema";
 
 /** The closure tolerance and water limits the site works to now (its newest saved values, else the defaults). */
 export async function getSiteLimits(db: Db | Tx, siteId: number): Promise<SiteLimits> {
@@ -25,16 +26,19 @@ export async function getSiteLimitHistory(db: Db, siteId: number): Promise<Limit
   return listSiteLimitHistory(db, siteId);
 }
 
-/** Records a new closure tolerance with its reason, audited; earlier versions stay on record. */
-export async function setClosureTolerance(db: Db, actor: Actor, input: unknown): Promise<Result<{ id: number }>> {
-  const parsed = parseInput(ClosureLimitSchema, input);
-  if (!parsed.ok) return parsed;
-  const value = parsed.value;
+/** Saves one new version of a limit and audits it with what it replaced, in one transaction. */
+function saveLimitVersion<T extends ClosureLimit | WaterLimit>(
+  db: Db,
+  actor: Actor,
+  key: typeof CLOSURE_TOLERANCE_KEY | typeof WATER_LIMITS_KEY,
+  value: T,
+  audit: { entityKey: string; before: (limits: SiteLimits) => Record<string, unknown>; after: Record<string, unknown> },
+): Promise<Result<{ id: number }>> {
   return runInTransaction(db, async (tx) => {
-    const before = (await getSiteLimits(tx, actor.siteId)).closure;
+    const before = audit.before(await getSiteLimits(tx, actor.siteId));
     const id = await insertSiteLimit(tx, {
       siteId: actor.siteId,
-      key: CLOSURE_TOLERANCE_KEY,
+      key,
       value,
       createdById: actor.userId,
       createdAt: actor.now,
@@ -42,12 +46,24 @@ export async function setClosureTolerance(db: Db, actor: Actor, input: unknown):
     await appendAudit(tx, actor, {
       action: "CHANGE",
       entity: "SiteLimits",
-      entityKey: "closure tolerance",
-      before: { warnPct: before.warnPct, failPct: before.failPct },
-      after: { warnPct: value.warnPct, failPct: value.failPct, id },
+      entityKey: audit.entityKey,
+      before,
+      after: { ...audit.after, id },
       reason: value.reason,
     });
     return { id };
+  });
+}
+
+/** Records a new closure tolerance with its reason, audited; earlier versions stay on record. */
+export async function setClosureTolerance(db: Db, actor: Actor, input: unknown): Promise<Result<{ id: number }>> {
+  const parsed = parseInput(ClosureLimitSchema, input);
+  if (!parsed.ok) return parsed;
+  const value = parsed.value;
+  return saveLimitVersion(db, actor, CLOSURE_TOLERANCE_KEY, value, {
+    entityKey: "closure tolerance",
+    before: (l) => ({ warnPct: l.closure.warnPct, failPct: l.closure.failPct }),
+    after: { warnPct: value.warnPct, failPct: value.failPct },
   });
 }
 
@@ -56,23 +72,9 @@ export async function setWaterLimits(db: Db, actor: Actor, input: unknown): Prom
   const parsed = parseInput(WaterLimitSchema, input);
   if (!parsed.ok) return parsed;
   const value = parsed.value;
-  return runInTransaction(db, async (tx) => {
-    const before = (await getSiteLimits(tx, actor.siteId)).water;
-    const id = await insertSiteLimit(tx, {
-      siteId: actor.siteId,
-      key: WATER_LIMITS_KEY,
-      value,
-      createdById: actor.userId,
-      createdAt: actor.now,
-    });
-    await appendAudit(tx, actor, {
-      action: "CHANGE",
-      entity: "SiteLimits",
-      entityKey: "water limits",
-      before: { baseStepPct: before.BASE_STEP.value, acidStepPct: before.ACID_STEP.value },
-      after: { baseStepPct: value.baseStepPct, acidStepPct: value.acidStepPct, id },
-      reason: value.reason,
-    });
-    return { id };
+  return saveLimitVersion(db, actor, WATER_LIMITS_KEY, value, {
+    entityKey: "water limits",
+    before: (l) => ({ baseStepPct: l.water.BASE_STEP.value, acidStepPct: l.water.ACID_STEP.value }),
+    after: { baseStepPct: value.baseStepPct, acidStepPct: value.acidStepPct },
   });
 }

@@ -8,6 +8,7 @@ import {
 } from "@/lib/mass-balance/site-limits.schema";
 import type { ClosureLimit, WaterLimit } from "@/lib/mass-balance/site-limits.schema";
 import type { LimitChange } from "@/lib/mass-balance/site-limits";
+import { listSiteSettingVersions } from "@/lib/site/site.store";
 
 type LimitKey = typeof CLOSURE_TOLERANCE_KEY | typeof WATER_LIMITS_KEY;
 
@@ -19,19 +20,11 @@ export interface SavedLimitRow {
 }
 
 async function rowsOf(db: Db | Tx, siteId: number, key: LimitKey, take: number): Promise<SavedLimitRow[]> {
-  const rows = await db.siteSetting.findMany({
-    where: { siteId, key },
-    orderBy: [{ createdAt: "desc" }, { id: "desc" }],
-    take,
-  });
-  const ids = [...new Set(rows.map((r) => r.createdById))];
-  const users = await db.user.findMany({ where: { id: { in: ids } }, select: { id: true, fullName: true } });
-  const name = new Map(users.map((u) => [u.id, u.fullName]));
-  return rows.map((r) => ({
-    id: r.id,
+  return (await listSiteSettingVersions(db, siteId, key, take)).map((v) => ({
+    id: v.id,
     key,
-    valueJson: r.valueJson,
-    change: { at: r.createdAt, by: name.get(r.createdById) ?? "", reason: r.reason },
+    valueJson: v.valueJson,
+    change: { at: v.at, by: v.by, reason: v.reason },
   }));
 }
 

@@ -2,6 +2,7 @@ import "server-only";
 import type { Db, Tx } from "@/lib/core/connect";
 import { StoredScreeningSettingsSchema } from "@/lib/screening/screening-settings.schema";
 import type { StoredScreeningSettings } from "@/lib/screening/screening-settings.schema";
+import { listSiteSettingVersions } from "@/lib/site/site.store";
 
 const KEY = "SCREENING";
 
@@ -18,19 +19,16 @@ export interface ScreeningSettingHistoryRow {
   values: StoredScreeningSettings["values"];
 }
 
+const storedOf = (valueJson: string): StoredScreeningSettings => {
+  const parsed = StoredScreeningSettingsSchema.safeParse(JSON.parse(valueJson));
+  return parsed.success ? parsed.data : { values: {} };
+};
+
 /** The site's newest screening thresholds (none set: an empty set, the defaults apply). */
 export async function getStoredScreeningSettings(db: Db | Tx, siteId: number): Promise<ScreeningSettingsRow> {
-  const row = await db.siteSetting.findFirst({
-    where: { siteId, key: KEY },
-    orderBy: [{ createdAt: "desc" }, { id: "desc" }],
-  });
-  if (row === null) return { stored: { values: {} }, changed: null };
-  const parsed = StoredScreeningSettingsSchema.safeParse(JSON.parse(row.valueJson));
-  const by = await db.user.findUnique({ where: { id: row.createdById }, select: { fullName: true } });
-  return {
-    stored: parsed.success ? parsed.data : { values: {} },
-    changed: { at: row.createdAt, by: by?.fullName ?? "", reason: row.reason },
-  };
+  const [newest] = await listSiteSettingVersions(db, siteId, KEY, 1);
+  if (newest === undefined) return { stored: { values: {} }, changed: null };
+  return { stored: storedOf(newest.valueJson), changed: { at: newest.at, by: newest.by, reason: newest.reason } };
 }
 
 /** Every change the site made, newest first. */
@@ -39,29 +37,12 @@ export async function listScreeningSettingChanges(
   siteId: number,
   take = 50,
 ): Promise<ScreeningSettingHistoryRow[]> {
-  const rows = await db.siteSetting.findMany({
-    where: { siteId, key: KEY },
-    orderBy: [{ createdAt: "desc" }, { id: "desc" }],
-    take,
-    include: { site: false },
-  });
-  const users = new Map(
-    (
-      await db.user.findMany({
-        where: { id: { in: [...new Set(rows.map((r) => r.createdById))] } },
-        select: { id: true, fullName: true },
-      })
-    ).map((u) => [u.id, u.fullName]),
-  );
-  return rows.map((r) => {
-    const parsed = StoredScreeningSettingsSchema.safeParse(JSON.parse(r.valueJson));
-    return {
-      at: r.createdAt,
-      by: users.get(r.createdById) ?? "",
-      reason: r.reason,
-      values: parsed.success ? parsed.data.values : {},
-    };
-  });
+  return (await listSiteSettingVersions(db, siteId, KEY, take)).map((v) => ({
+    at: v.at,
+    by: v.by,
+    reason: v.reason,
+    values: storedOf(v.valueJson).values,
+  }));
 }
 
 export async function insertScreeningSettings(

@@ -57,3 +57,36 @@ export async function getSiteGs1Prefix(tx: Tx | Db, siteId: number): Promise<str
 export async function updateSiteGs1Prefix(tx: Tx, siteId: number, gs1CompanyPrefix: string | null): Promise<void> {
   await tx.site.update({ where: { id: siteId }, data: { gs1CompanyPrefix } });
 }
+
+export interface SiteSettingVersion {
+  id: number;
+  valueJson: string;
+  reason: string;
+  at: Date;
+  /** Full name of who saved it. */
+  by: string;
+}
+
+/** Saved versions of one site setting, newest first, each with who saved it (one user read for all). */
+export async function listSiteSettingVersions(
+  db: Db | Tx,
+  siteId: number,
+  key: string,
+  take: number,
+): Promise<SiteSettingVersion[]> {
+  const rows = await db.siteSetting.findMany({
+    where: { siteId, key },
+    orderBy: [{ createdAt: "desc" }, { id: "desc" }],
+    take,
+  });
+  const ids = [...new Set(rows.map((r) => r.createdById))];
+  const users = await db.user.findMany({ where: { id: { in: ids } }, select: { id: true, fullName: true } });
+  const name = new Map(users.map((u) => [u.id, u.fullName]));
+  return rows.map((r) => ({
+    id: r.id,
+    valueJson: r.valueJson,
+    reason: r.reason,
+    at: r.createdAt,
+    by: name.get(r.createdById) ?? "",
+  }));
+}

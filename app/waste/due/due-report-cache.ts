@@ -24,7 +24,7 @@ export async function getWasteDueReportTraced(
   return answerAtPosition(cache, db, site.id, key, () => getWasteDueReport(db, site, input, now));
 }
 
-/** getWasteDueReport, answered from memory while the site's books have not moved. */
+/** getWasteDueReport, kept by ledger position: recomputed only when the site's books have moved. */
 export async function getWasteDueReportCached(
   db: Db,
   site: { id: number; timeZone: string },
