@@ -9,6 +9,7 @@ import type { CompositionParts } from "@/lib/trace/composition";
 import { resumeReplay, traceForward, traceHolder } from "@/lib/trace/genealogy";
 import type { ForwardTrace, HolderTrace } from "@/lib/trace/genealogy";
 import { indexLedger } from "@/lib/ledger/moves";
+import type { LedgerPosition } from "@/lib/ledger/position";
 import type { LedgerIndex } from "@/lib/ledger/moves";
 import { createReplay } from "@/lib/trace/replay";
 import type { Replay, ReplaySnapshot } from "@/lib/trace/replay";
@@ -20,6 +21,12 @@ export { MAX_SNAPSHOTS } from "@/lib/trace/monthly-snapshots";
 export interface LedgerState {
   siteId: number;
   version: LedgerVersion;
+  /**
+   * A ledger position read no later than `version` (last movement id and audit head: two key reads).
+   * While the site's position is still this one nothing was booked, so the state is reused without
+   * counting the site's movements.
+   */
+  position: LedgerPosition | null;
   ledger: TraceLedger;
   index: LedgerIndex;
   order: "dated" | "booked";

@@ -8,6 +8,9 @@ import type { Db } from "@/lib/core/connect";
 import { fail, failMany, ok } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
 import { extendTraceLedger, loadTraceLedger } from "@/lib/ledger/movement.store";
+import { samePosition } from "@/lib/ledger/position";
+import type { LedgerPosition } from "@/lib/ledger/position";
+import { getLedgerPosition } from "@/lib/ledger/position.store";
 import {
   describeIssues,
   freshnessOf,
@@ -43,6 +46,7 @@ async function buildState(
   db: Db,
   siteId: number,
   version: LedgerVersion,
+  position: LedgerPosition,
   previous: LedgerState | null,
   now: Date,
 ): Promise<Result<LedgerState>> {
@@ -76,6 +80,7 @@ async function buildState(
     return ok({
       siteId,
       version,
+      position,
       ledger,
       index,
       order,
@@ -129,16 +134,24 @@ export async function flushTraceSnapshots(): Promise<void> {
 
 /** The site's indexed ledger for its current version: reused while no movement is booked. */
 export async function requireLedgerState(db: Db, siteId: number, now: Date): Promise<Result<LedgerState>> {
-  const version = await getLedgerVersion(db, siteId);
+  // The position first (two key reads): unchanged means nothing was booked since the state was built.
+  const position = await getLedgerPosition(db, siteId);
   const pending = cache.get(siteId);
   const current = pending === undefined ? null : await pending;
-  if (current?.ok && sameVersion(current.value.version, version)) return current;
+  const kept = current?.ok ? current.value : null;
+  if (kept?.position && samePosition(kept.position, position)) return ok(kept);
+  // Moved: count the movements (read after the position, so the version holds at least what it names).
+  const version = await getLedgerVersion(db, siteId);
+  if (kept && sameVersion(kept.version, version)) {
+    kept.position = position;
+    return ok(kept);
+  }
   const again = cache.get(siteId);
   if (again !== pending && again !== undefined) {
     const other = await again;
     if (other.ok && sameVersion(other.value.version, version)) return other;
   }
-  const next = buildState(db, siteId, version, current?.ok ? current.value : null, now);
+  const next = buildState(db, siteId, version, position, kept, now);
   cache.set(siteId, next);
   return next;
 }
