@@ -1,10 +1,12 @@
 import { execFileSync } from "node:child_process";
 import { defineConfig } from "@playwright/test";
+import type { JourneyOptions } from "./e2e/support/test";
 
-// Debian's Chromium (no browser downloads here). Each server is the production build on a fresh
-// demo database of its own: SQLite for every journey, PostgreSQL (a shorter demo) for the load test.
-// Their own ports: a free one chosen once by the runner (workers inherit it through the environment),
-// so the journeys never collide with the app the README starts on 3100.
+// Debian's Chromium (no browser downloads here). Every SQLite journey starts on its own copy of the
+// demo plant, served by the production build on a free port of its own (e2e/support/plant.ts; the
+// demo is loaded once per run by the global setup). The PostgreSQL project's one journey (concurrent
+// draws) shares a server on a fresh PostgreSQL database with a shorter demo. No port collides with the
+// app the README starts on 3100; E2E_PORT names the run (its template file) and is inherited by workers.
 function freePort(): string {
   const script =
     "const s=require('net').createServer();s.listen(0,'127.0.0.1',()=>{process.stdout.write(String(s.address().port));s.close()})";
@@ -12,12 +14,12 @@ function freePort(): string {
 }
 process.env.E2E_PORT ??= freePort();
 process.env.E2E_PG_PORT ??= freePort();
-const port = Number(process.env.E2E_PORT);
 const pgPort = Number(process.env.E2E_PG_PORT);
 const withPg = process.env.E2E_PG !== "0";
 
-export default defineConfig({
+export default defineConfig<JourneyOptions>({
   testDir: "e2e",
+  globalSetup: "./e2e/support/global-setup.ts",
   workers: 1,
   timeout: 120_000,
   retries: 0,
@@ -39,35 +41,26 @@ export default defineConfig({
     },
   },
   projects: [
-    { name: "sqlite", use: { baseURL: `http://127.0.0.1:${port}` } },
+    { name: "sqlite" },
     ...(withPg
       ? [
           {
             name: "postgresql",
             testMatch: /concurrent-draws\.spec\.ts/,
-            use: { baseURL: `http://127.0.0.1:${pgPort}` },
+            use: { sharedServer: `http://127.0.0.1:${pgPort}` },
           },
         ]
       : []),
   ],
-  webServer: [
-    {
-      command: `bash scripts/e2e-server.sh ${port} sqlite`,
-      url: `http://127.0.0.1:${port}/login`,
-      timeout: 600_000,
-      reuseExistingServer: false,
-      stdout: "pipe",
-    },
-    ...(withPg
-      ? [
-          {
-            command: `bash scripts/e2e-server.sh ${pgPort} postgresql`,
-            url: `http://127.0.0.1:${pgPort}/login`,
-            timeout: 600_000,
-            reuseExistingServer: false,
-            stdout: "pipe" as const,
-          },
-        ]
-      : []),
-  ],
+  webServer: withPg
+    ? [
+        {
+          command: `bash scripts/e2e-server.sh ${pgPort} postgresql`,
+          url: `http://127.0.0.1:${pgPort}/login`,
+          timeout: 600_000,
+          reuseExistingServer: false,
+          stdout: "pipe",
+        },
+      ]
+    : [],
 });

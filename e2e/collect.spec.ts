@@ -1,13 +1,12 @@
-import path from "node:path";
 import AxeBuilder from "@axe-core/playwright";
 import Database from "better-sqlite3";
+import { plantDatabase } from "./support/plant";
 import { expect, test } from "./support/test";
 import type { Page } from "@playwright/test";
 import { signIn } from "./support/sign-in";
 
 // The collector's phone page offline: entries wait in IndexedDB, survive a reload (service worker copy of
 // the page), and reach the server exactly once — also when an answer is lost or the session has ended.
-const DB = path.resolve(import.meta.dirname, "..", "data", `e2e-${process.env.E2E_PORT ?? 3100}.db`);
 
 interface Waiting {
   key: string;
@@ -17,7 +16,7 @@ interface Waiting {
 function stored(
   keys: string[],
 ): Array<{ idempotencyKey: string; observedAt: string; receivedAt: string; collector: string }> {
-  const db = new Database(DB, { readonly: true });
+  const db = new Database(plantDatabase(), { readonly: true });
   try {
     const marks = keys.map(() => "?").join(",");
     return db
@@ -180,7 +179,7 @@ test("session ended while offline: the phone asks to sign in again, then sends; 
   await expect(page).toHaveURL(/\/collect$/);
 
   // The server ends the session (idle/absolute timeout) while the phone is out of signal.
-  const db = new Database(DB);
+  const db = new Database(plantDatabase());
   db.prepare(
     "UPDATE Session SET expiresAt = '2020-01-01T00:00:00.000+00:00' WHERE revokedAt IS NULL AND userId = (SELECT id FROM User WHERE login = 'collector.ivo')",
   ).run();

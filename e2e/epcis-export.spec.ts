@@ -1,8 +1,8 @@
-import path from "node:path";
 import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import Database from "better-sqlite3";
 import { prepareZXingModule, readBarcodes } from "zxing-wasm/reader";
+import { plantDatabase } from "./support/plant";
 import { expect, test } from "./support/test";
 import type { Download, Page } from "@playwright/test";
 import { signIn } from "./support/sign-in";
@@ -12,8 +12,6 @@ import type { EpcisDocument } from "../lib/epcis/epcis";
 // Trading partners ask for GS1 EPCIS 2.0 files and labels their scanners read. Compliance downloads a
 // balance period's events, production a trace answer's, and the administrator enters the plant's GS1
 // Company Prefix so that labels and exports carry GS1 keys (and clears it again, leaving the demo as found).
-
-const DB = path.resolve(import.meta.dirname, "..", "data", `e2e-${process.env.E2E_PORT ?? 3100}.db`);
 
 async function downloadEpcis(page: Page): Promise<{ doc: EpcisDocument; name: string }> {
   const [download]: [Download, void] = await Promise.all([
@@ -64,7 +62,7 @@ test("compliance downloads the balance period as EPCIS events; batches reconcile
 });
 
 test("production downloads the EPCIS events behind a product lot's trace, without customers", async ({ page }) => {
-  const db = new Database(DB, { readonly: true });
+  const db = new Database(plantDatabase(), { readonly: true });
   const row = db
     .prepare(
       "SELECT p.code FROM ProductLot p JOIN Holder h ON h.id = p.holderId WHERE p.batchId IS NOT NULL ORDER BY p.id DESC LIMIT 1",
@@ -89,7 +87,7 @@ test("production downloads the EPCIS events behind a product lot's trace, withou
 test("the administrator enters the GS1 Company Prefix; the lot label's DataMatrix and the export use GS1 keys", async ({
   page,
 }) => {
-  const db = new Database(DB, { readonly: true });
+  const db = new Database(plantDatabase(), { readonly: true });
   const lot = db.prepare("SELECT code FROM FeedstockLot ORDER BY id LIMIT 1").get() as { code: string };
   db.close();
   await signIn(page, "admin.jory", "/admin/site");

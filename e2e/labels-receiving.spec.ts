@@ -1,20 +1,18 @@
-import path from "node:path";
 import AxeBuilder from "@axe-core/playwright";
 import Database from "better-sqlite3";
 import QRCode from "qrcode";
 import { randomUUID } from "node:crypto";
 import { request as playwrightRequest } from "@playwright/test";
+import { plantDatabase } from "./support/plant";
 import { expect, test } from "./support/test";
 import { signIn } from "./support/sign-in";
-
-const DB = path.resolve(import.meta.dirname, "..", "data", `e2e-${process.env.E2E_PORT ?? 3100}.db`);
 
 test("receiving: two pickups pooled into one lot keep their link; a refusal names the field", async ({
   page,
   baseURL,
 }) => {
   // The collector's two pickups this test receives (made here, not left over from another test).
-  const src = new Database(DB, { readonly: true });
+  const src = new Database(plantDatabase(), { readonly: true });
   const source = (
     src
       .prepare("SELECT code FROM Source WHERE active = 1 AND materials LIKE '%USED_COOKING_OIL%' ORDER BY code LIMIT 1")
@@ -51,7 +49,7 @@ test("receiving: two pickups pooled into one lot keep their link; a refusal name
   const axe = await new AxeBuilder({ page }).include("main").analyze();
   expect(axe.violations.map((v) => v.id)).toEqual([]);
 
-  const db = new Database(DB, { readonly: true });
+  const db = new Database(plantDatabase(), { readonly: true });
   const two = db
     .prepare("SELECT code FROM Pickup WHERE lotId IS NULL AND code LIKE ? ORDER BY code")
     .all(`PU-RCV-${tag}-%`) as Array<{ code: string }>;
@@ -73,7 +71,7 @@ test("receiving: two pickups pooled into one lot keep their link; a refusal name
   await page.getByRole("button", { name: "Receive as one lot" }).click();
   await expect(page.locator("p.form-ok")).toContainText(`Lot ${lotCode} received from 2 pickups`);
 
-  const after = new Database(DB, { readonly: true });
+  const after = new Database(plantDatabase(), { readonly: true });
   const linked = after
     .prepare(`SELECT p.code, l.code AS lot FROM Pickup p JOIN FeedstockLot l ON l.id = p.lotId WHERE p.code IN (?, ?)`)
     .all(two[0]!.code, two[1]!.code) as Array<{ lot: string }>;
@@ -88,7 +86,7 @@ test("labels: lot sheet with GS1 (10) and a QR code of the record URL; container
   baseURL,
 }) => {
   await signIn(page, "production.tess", "/labels");
-  const db = new Database(DB, { readonly: true });
+  const db = new Database(plantDatabase(), { readonly: true });
   const lots = db.prepare("SELECT code FROM FeedstockLot ORDER BY id LIMIT 2").all() as Array<{ code: string }>;
   db.close();
   await page.goto(`/labels?kind=lot&lot=${lots.map((l) => encodeURIComponent(l.code)).join("&lot=")}`);

@@ -1,18 +1,17 @@
-import path from "node:path";
 import { randomUUID } from "node:crypto";
 import AxeBuilder from "@axe-core/playwright";
 import Database from "better-sqlite3";
 import { request as playwrightRequest } from "@playwright/test";
+import { plantDatabase } from "./support/plant";
 import { expect, test } from "./support/test";
 import type { APIRequestContext, Page } from "@playwright/test";
 import { signIn } from "./support/sign-in";
 
 // Moves into tanks, gauge readings against the book, and receiving straight into a tank, as production
 // staff do them on screen. Each journey makes its own pickups and lots; tanks are chosen at run time.
-const DB = path.resolve(import.meta.dirname, "..", "data", `e2e-${process.env.E2E_PORT ?? 3100}.db`);
 
 function readDb<T>(sql: string, ...args: unknown[]): T[] {
-  const db = new Database(DB, { readonly: true });
+  const db = new Database(plantDatabase(), { readonly: true });
   try {
     return db.prepare(sql).all(...args) as T[];
   } finally {

@@ -1,6 +1,11 @@
-// The journeys' `test`: Playwright's, with a page that fails the test on any unexpected console error
-// or uncaught page error. Import { test, expect } from here, not from "@playwright/test".
+// The journeys' `test`: Playwright's, where every test starts on its own fresh demo plant (a copy of
+// the demo database served by the built app on a port of its own, plant.ts) and a page fails the test
+// on any unexpected console error or uncaught page error. Import { test, expect } from here, not from
+// "@playwright/test".
+import { randomUUID } from "node:crypto";
 import { expect, test as base } from "@playwright/test";
+import type { Plant } from "./plant";
+import { startPlant } from "./plant";
 
 interface Benign {
   pattern: RegExp;
@@ -21,13 +26,30 @@ export const BENIGN_CONSOLE_ERRORS: readonly Benign[] = [
   },
 ];
 
-export interface ConsoleGuardOptions {
+export interface JourneyOptions {
   /** More benign errors for one file or test: test.use({ allowConsoleErrors: [{ pattern, reason }] }). */
   allowConsoleErrors: Benign[];
+  /** A server the project starts for all its tests instead (the PostgreSQL project's). */
+  sharedServer: string | undefined;
+  /** This test's own demo plant (its address and database file); started only when a test uses it. */
+  plant: Plant | null;
 }
 
-export const test = base.extend<ConsoleGuardOptions>({
+export const test = base.extend<JourneyOptions>({
   allowConsoleErrors: [[], { option: true }],
+  sharedServer: [undefined, { option: true }],
+  plant: async ({ sharedServer }, use, testInfo) => {
+    if (sharedServer) return use(null);
+    const plant = await startPlant(`${testInfo.workerIndex}-${randomUUID().slice(0, 8)}`);
+    try {
+      await use(plant);
+    } finally {
+      await plant.stop();
+    }
+  },
+  baseURL: async ({ plant, sharedServer }, use) => {
+    await use(plant?.baseURL ?? sharedServer);
+  },
   page: async ({ page, allowConsoleErrors }, use, testInfo) => {
     const allowed = [...BENIGN_CONSOLE_ERRORS, ...allowConsoleErrors];
     const unexpected: string[] = [];
