@@ -22,6 +22,8 @@ export default defineConfig<JourneyOptions>({
   globalSetup: "./e2e/support/global-setup.ts",
   workers: 1,
   timeout: 120_000,
+  // A journey's server is fresh: its first sign-in and first visit to each page load their code.
+  expect: { timeout: 10_000 },
   retries: 0,
   reporter: [["list"]],
   use: {
@@ -55,7 +57,7 @@ export default defineConfig<JourneyOptions>({
   webServer: withPg
     ? [
         {
-          command: `bash scripts/e2e-server.sh ${pgPort} postgresql`,
+          command: `bash scripts/e2e-server.sh ${pgPort}`,
           url: `http://127.0.0.1:${pgPort}/login`,
           timeout: 600_000,
           reuseExistingServer: false,

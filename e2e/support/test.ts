@@ -2,10 +2,9 @@
 // the demo database served by the built app on a port of its own, plant.ts) and a page fails the test
 // on any unexpected console error or uncaught page error. Import { test, expect } from here, not from
 // "@playwright/test".
-import { randomUUID } from "node:crypto";
 import { expect, test as base } from "@playwright/test";
 import type { Plant } from "./plant";
-import { startPlant } from "./plant";
+import { PlantPool } from "./plant";
 
 interface Benign {
   pattern: RegExp;
@@ -35,16 +34,31 @@ export interface JourneyOptions {
   plant: Plant | null;
 }
 
-export const test = base.extend<JourneyOptions>({
+interface WorkerFixtures {
+  plants: PlantPool;
+}
+
+export const test = base.extend<JourneyOptions, WorkerFixtures>({
+  plants: [
+    async ({}, use, workerInfo) => {
+      const pool = new PlantPool(workerInfo.workerIndex);
+      try {
+        await use(pool);
+      } finally {
+        await pool.close();
+      }
+    },
+    { scope: "worker" },
+  ],
   allowConsoleErrors: [[], { option: true }],
   sharedServer: [undefined, { option: true }],
-  plant: async ({ sharedServer }, use, testInfo) => {
+  plant: async ({ sharedServer, plants }, use) => {
     if (sharedServer) return use(null);
-    const plant = await startPlant(`${testInfo.workerIndex}-${randomUUID().slice(0, 8)}`);
+    const plant = await plants.take();
     try {
       await use(plant);
     } finally {
-      await plant.stop();
+      plants.release(plant);
     }
   },
   baseURL: async ({ plant, sharedServer }, use) => {
