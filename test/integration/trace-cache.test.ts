@@ -1,14 +1,15 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { TestDb } from "./support/test-db";
 import { createTestDb, PROVIDERS } from "./support/test-db";
 import type { TestPlant } from "./support/plant";
 import { acceptedLot, createTestPlant } from "./support/plant";
-import { transferToTank } from "@/lib/tank/tank.service";
+import { recordGauge, transferToTank } from "@/lib/tank/tank.service";
 import { reverseMovement } from "@/lib/correction/correction.service";
 import { extendTraceLedger, loadTraceLedger } from "@/lib/ledger/movement.store";
 import type { TraceLedger } from "@/lib/ledger/movement.store";
 import { getLedgerVersion } from "@/lib/trace/trace.store";
 import { clearTraceCache, traceBackwardReport, traceForwardReport, warmTraceCache } from "@/lib/trace/trace.service";
+import { requireLedgerState } from "@/lib/trace/trace-cache.service";
 import { getLotFlow } from "@/lib/feedstock/lot-flow.service";
 import type { Result } from "@/lib/core/result";
 
@@ -130,5 +131,27 @@ describe.each(PROVIDERS)("trace cache on %s", (provider) => {
     const fresh = value(await traceBackwardReport(t.db, plant.siteId, { kind: "TANK", code: "T1" }, NOW));
     expect(after.all.byLot).toEqual(fresh.all.byLot);
     expect(after.all.byLot.find((r) => r.lotCode === "L-3")).toBeUndefined();
+  });
+
+  it("keeps its index while the ledger position stands, through a change that moves nothing, and not past a booking", async () => {
+    const first = value(await requireLedgerState(t.db, plant.siteId, NOW));
+    // Same position: answered without counting the site's movements.
+    const counted = vi.spyOn(t.db.movement, "aggregate");
+    expect(value(await requireLedgerState(t.db, plant.siteId, NOW))).toBe(first);
+    expect(counted).not.toHaveBeenCalled();
+    // A gauge reading writes an audit event and no movement: the position moves, the movements do not.
+    value(
+      await recordGauge(t.db, plant.production, { tankCode: "T1", at: "2026-02-20T08:00:00Z", volumeL: 10, tempC: 20 }),
+    );
+    const afterGauge = value(await requireLedgerState(t.db, plant.siteId, NOW));
+    expect(afterGauge).toBe(first);
+    expect(counted).toHaveBeenCalledTimes(1);
+    counted.mockRestore();
+    expect(afterGauge.position?.auditSeq).toBeGreaterThan(0);
+    await lot("L-4", "PU-4", 7);
+    const afterLot = value(await requireLedgerState(t.db, plant.siteId, NOW));
+    expect(afterLot).not.toBe(first);
+    expect(afterLot.version.count).toBeGreaterThan(first.version.count);
+    expect(afterLot.version).toEqual(await getLedgerVersion(t.db, plant.siteId));
   });
 });
