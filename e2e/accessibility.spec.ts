@@ -12,6 +12,7 @@ const PAGES: Array<[string, string[]]> = [
 
 for (const [login, paths] of PAGES) {
   test(`pages used by ${login} have no serious accessibility violations`, async ({ page }) => {
+    test.setTimeout(240_000); // up to eight pages, each loaded for the first time on this journey's own server
     await page.setViewportSize({ width: 1366, height: 768 });
     await signIn(page, login, paths[0]);
     const found: string[] = [];

@@ -7,5 +7,5 @@ export async function signIn(page: Page, login: string, next = "/"): Promise<voi
   await page.getByLabel("User name").fill(login);
   await page.getByLabel("Password").fill("quillmoor-demo");
   await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page.getByRole("button", { name: "Sign out" })).toBeVisible({ timeout: 15_000 });
+  await expect(page.getByRole("button", { name: "Sign out" })).toBeVisible({ timeout: 30_000 }); // a fresh server loads the page it opens for the first time
 }
