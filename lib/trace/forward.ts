@@ -56,10 +56,19 @@ function lastDrawFinder(index: LedgerIndex, target: number): (holderId: number) 
   };
 }
 
-/** Holders drawn from in [start, target]: the only ones whose mixture a tracking forward replay reads. */
-export function listDrawnHolders(index: LedgerIndex, start: number, target: number): Set<number> {
+/**
+ * The snapshot's holders a tracking forward replay reads: those drawn from in [start, target]. Looks
+ * only at the snapshot's holders (holders that enter later start empty), not at every holder of the site.
+ */
+export function listDrawnHolders(
+  index: LedgerIndex,
+  holderIds: Iterable<number>,
+  start: number,
+  target: number,
+): Set<number> {
   const drawn = new Set<number>();
-  for (const [holderId, outs] of index.outOf) {
+  for (const holderId of holderIds) {
+    const outs = index.outOf.get(holderId) ?? [];
     const i = lowerBound(outs, start);
     if (i < outs.length && (outs[i] ?? Number.POSITIVE_INFINITY) <= target) drawn.add(holderId);
   }

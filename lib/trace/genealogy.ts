@@ -251,7 +251,7 @@ export function traceForward(
   // by the history after it (lib/trace/forward.ts).
   const start = from?.applied.count ?? 0;
   const tracksHeld = start <= firstOrigin;
-  const started = startReplay(index, from, tracksHeld ? drawnAndKept(index, from, start, target) : undefined);
+  const started = startReplay(index, from, tracksHeld ? drawnHolders(index, from, start, target) : undefined);
   if (!started.ok) return started;
   const replay = started.value;
   const carried = replayForward(index, replay, set, { start, target, lastOrigin, tracksHeld });
@@ -325,16 +325,16 @@ function pickSnapshot(from: ReplaySnapshot | undefined, lastPosition: number): R
   return from !== undefined && from.applied.count <= lastPosition + 1 ? from : undefined;
 }
 
-/** Holders a tracking forward replay reads: drawn from in the window and carried by the snapshot. */
-function drawnAndKept(
-  index: LedgerIndex,
-  from: ReplaySnapshot | undefined,
-  start: number,
-  target: number,
-): Set<number> {
-  const drawn = listDrawnHolders(index, start, target);
-  for (const id of from?.leftOut ?? []) drawn.delete(id);
-  return drawn;
+/** Holders a tracking forward replay reads: the snapshot's holders drawn from in the window. */
+function drawnHolders(index: LedgerIndex, from: ReplaySnapshot | undefined, start: number, target: number) {
+  return from === undefined
+    ? undefined
+    : listDrawnHolders(
+        index,
+        from.holders.map((h) => h.holderId),
+        start,
+        target,
+      );
 }
 
 function startReplay(index: LedgerIndex, from: ReplaySnapshot | undefined, only?: ReadonlySet<number>): Result<Replay> {

@@ -222,8 +222,8 @@ function put(ctx: ReplayContext, holderId: number, parts: CompositionParts, mass
   const s = requireState(ctx, holderId);
   s.totalG += massG;
   const pool = s.mixing === "MIXED" ? s.layers[0] : undefined;
-  if (pool === undefined) s.layers.push({ enteredByMoveId: moveId, ...copyToLayer(parts) });
-  else addToLayer(pool, parts);
+  if (pool === undefined) s.layers.push({ enteredByMoveId: moveId, ...copyToLayer(parts, massG) });
+  else addToLayer(pool, parts, massG);
 }
 
 /** Checks a move, takes its material from its holder (or makes it an origin) and counts it applied. */
