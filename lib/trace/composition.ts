@@ -13,6 +13,12 @@ export interface CompositionParts {
 
 export const EMPTY_PARTS: CompositionParts = { originIds: [], grams: [] };
 
+/** Parts in arrays nobody else refers to: a layer may take them over instead of copying them. */
+export interface OwnedParts {
+  originIds: number[];
+  grams: number[];
+}
+
 export function sumParts(parts: CompositionParts): number {
   let total = 0;
   for (const g of parts.grams) total += g;
@@ -90,13 +96,12 @@ let splitBuffer = new Float64Array(1024);
 
 /** A layer holding a copy of parts; totalG is Σ parts.grams when the caller knows it (a move's mass). */
 export function copyToLayer(parts: CompositionParts, totalG = sumParts(parts)): MutableLayer {
-  return {
-    originIds: [...parts.originIds],
-    grams: [...parts.grams],
-    totalG,
-    pending: [],
-    pendingLength: 0,
-  };
+  return adoptAsLayer({ originIds: [...parts.originIds], grams: [...parts.grams] }, totalG);
+}
+
+/** A layer made of the parts' own arrays (no copy); totalG = Σ parts.grams. */
+export function adoptAsLayer(parts: OwnedParts, totalG: number): MutableLayer {
+  return { originIds: parts.originIds, grams: parts.grams, totalG, pending: [], pendingLength: 0 };
 }
 
 /** Merges pending deposits into the layer; call before reading or drawing from it. */
@@ -181,7 +186,7 @@ function mergeIntoLayer(layer: MutableLayer, parts: CompositionParts): void {
  * A part never exceeds the holding: floor(m·g/M) ≤ g − 1 for m < M and the spare gram adds at most 1
  * (exact in doubles while the stock is below 2^52 g).
  */
-export function takeFromLayer(layer: MutableLayer, massG: number): CompositionParts {
+export function takeFromLayer(layer: MutableLayer, massG: number): OwnedParts {
   settleLayer(layer);
   invariant(
     Number.isSafeInteger(massG) && massG > 0 && massG <= layer.totalG,
@@ -230,7 +235,13 @@ export function takeFromLayer(layer: MutableLayer, massG: number): CompositionPa
  * Adds parts into a layer: appends at once when every id is newer (the usual case), else buffers the
  * deposit and merges once the buffer outgrows the layer, so a deposit costs amortised O(its size · log).
  */
-export function addToLayer(layer: MutableLayer, parts: CompositionParts, totalG = sumParts(parts)): void {
+export function addToLayer(
+  layer: MutableLayer,
+  parts: CompositionParts,
+  totalG = sumParts(parts),
+  /** The caller hands the parts over: a buffered deposit keeps them instead of a copy. */
+  owned = false,
+): void {
   const last = layer.originIds[layer.originIds.length - 1];
   const first = parts.originIds[0];
   if (first === undefined) return;
@@ -242,7 +253,7 @@ export function addToLayer(layer: MutableLayer, parts: CompositionParts, totalG 
     }
     return;
   }
-  layer.pending.push({ originIds: [...parts.originIds], grams: [...parts.grams] });
+  layer.pending.push(owned ? parts : { originIds: [...parts.originIds], grams: [...parts.grams] });
   layer.pendingLength += parts.originIds.length;
   if (layer.pendingLength > Math.max(SETTLE_AT_LEAST, layer.originIds.length)) settleLayer(layer);
 }

@@ -98,7 +98,7 @@ export function replayForward(
     const move = index.moves[pos];
     if (move === undefined) break;
     const to = move.toHolderId;
-    const applied = !tracksHeld || lastDraw(to) > pos ? replay.apply(move) : replay.withdraw(move);
+    const applied = !tracksHeld || lastDraw(to) > pos ? replay.applyTransient(move) : replay.withdraw(move);
     if (!applied.ok) return applied;
     carry.processed++;
     const grams = sumPartsOf(applied.value, set);
