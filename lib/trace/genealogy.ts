@@ -65,7 +65,10 @@ export interface ForwardTrace {
   holders: ForwardHolderReach[];
   /** Every move that carried part of the set, in ledger order. */
   moves: Array<{ moveId: number; grams: number }>;
-  /** Moves replayed to answer: from the starting snapshot to where none of the set could move again. */
+  /**
+   * Moves replayed to answer: from the starting snapshot to where none of the set could move again.
+   * Each is split off its source; one into a holder not drawn from again before asOf is not booked there.
+   */
   movesReplayed: number;
 }
 
