@@ -646,7 +646,12 @@ console.log(
 console.log(
   "  moves replayed: backward = the ancestor subgraph (HolderTrace.movesReplayed); forward = from the start until none of the lot",
 );
-console.log("  can move again (ForwardTrace.movesReplayed: its grams all sit in shipments, disposals and losses).");
+console.log(
+  "  can move again (ForwardTrace.movesReplayed: its grams all sit in shipments, disposals and losses); each is split off its",
+);
+console.log(
+  "  source's whole mixture (the lot's share of a draw depends on every origin there), but not booked into a holder not drawn from again.",
+);
 console.log(
   "  a warm backward trace restores from the snapshot only the holders that are its ancestors (traceHolder/traceMove);",
 );

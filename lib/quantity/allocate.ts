@@ -52,23 +52,25 @@ export function allocateWholeGramsInto(
   }
   invariant(sum > 0, "weights must add up to more than zero");
   const rems = scratch(0, n);
+  bucketCounts.fill(0);
   let given = 0;
   for (let i = 0; i < n; i++) {
     const w = weights[i] ?? 0;
     if (!(w > 0)) invariant(false, `weight ${i} must be positive, got ${w}`);
     const exact = (total * w) / sum;
     const floor = Math.floor(exact);
+    const rem = exact - floor;
     out[i] = floor;
-    rems[i] = exact - floor;
+    rems[i] = rem;
+    const b = (rem * BUCKETS) | 0;
+    bucketCounts[b] = (bucketCounts[b] ?? 0) + 1;
     given += floor;
   }
   let left = Math.min(total - given, n);
   if (left <= 0) return;
   // The spare grams go to the `left` largest remainders, the lower index first among equals: every
   // remainder above the threshold (the left-th largest) gets one, then equal ones in index order.
-  const copy = scratch(1, n);
-  copy.set(rems.subarray(0, n));
-  const threshold = selectAscending(copy, n, n - left);
+  const threshold = findThreshold(rems, n, n - left);
   for (let i = 0; i < n && left > 0; i++) {
     if ((rems[i] ?? 0) > threshold) {
       out[i] = (out[i] ?? 0) + 1;
@@ -81,6 +83,27 @@ export function allocateWholeGramsInto(
       left--;
     }
   }
+}
+
+/** Remainders lie in [0, 1): bucket b holds [b/BUCKETS, (b+1)/BUCKETS), so buckets keep their order. */
+const BUCKETS = 256;
+const bucketCounts = new Int32Array(BUCKETS);
+
+/**
+ * The remainder at ascending position k, as selectAscending over all of them would give, but selecting
+ * only within the bucket that holds position k (bucketCounts must count rems[0..n)).
+ */
+function findThreshold(rems: Float64Array, n: number, k: number): number {
+  let below = 0;
+  let bucket = 0;
+  while (bucket < BUCKETS - 1 && below + (bucketCounts[bucket] ?? 0) <= k) below += bucketCounts[bucket++] ?? 0;
+  const copy = scratch(1, bucketCounts[bucket] ?? 0);
+  let m = 0;
+  for (let i = 0; i < n; i++) {
+    const r = rems[i] ?? 0;
+    if (((r * BUCKETS) | 0) === bucket) copy[m++] = r;
+  }
+  return selectAscending(copy, m, k - below);
 }
 
 const scratchBuffers: [Float64Array, Float64Array] = [new Float64Array(1024), new Float64Array(1024)];

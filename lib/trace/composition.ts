@@ -13,6 +13,12 @@ export interface CompositionParts {
 
 export const EMPTY_PARTS: CompositionParts = { originIds: [], grams: [] };
 
+/** Parts in arrays nobody else refers to: a layer may take them over instead of copying them. */
+export interface OwnedParts {
+  originIds: number[];
+  grams: number[];
+}
+
 export function sumParts(parts: CompositionParts): number {
   let total = 0;
   for (const g of parts.grams) total += g;
@@ -88,14 +94,14 @@ const INSERT_UP_TO = 32;
 /** takeFromLayer's split, reused from draw to draw (the replay is single-threaded and does not re-enter). */
 let splitBuffer = new Float64Array(1024);
 
-export function copyToLayer(parts: CompositionParts): MutableLayer {
-  return {
-    originIds: [...parts.originIds],
-    grams: [...parts.grams],
-    totalG: sumParts(parts),
-    pending: [],
-    pendingLength: 0,
-  };
+/** A layer holding a copy of parts; totalG is Σ parts.grams when the caller knows it (a move's mass). */
+export function copyToLayer(parts: CompositionParts, totalG = sumParts(parts)): MutableLayer {
+  return adoptAsLayer({ originIds: [...parts.originIds], grams: [...parts.grams] }, totalG);
+}
+
+/** A layer made of the parts' own arrays (no copy); totalG = Σ parts.grams. */
+export function adoptAsLayer(parts: OwnedParts, totalG: number): MutableLayer {
+  return { originIds: parts.originIds, grams: parts.grams, totalG, pending: [], pendingLength: 0 };
 }
 
 /** Merges pending deposits into the layer; call before reading or drawing from it. */
@@ -119,12 +125,59 @@ export function settleLayer(layer: MutableLayer): MutableLayer {
     layer.pendingLength = 0;
     return layer;
   }
-  const merged = mergeParts(layer, mergeAllParts(layer.pending));
-  layer.originIds = merged.originIds;
-  layer.grams = merged.grams;
+  mergeIntoLayer(layer, mergeAllParts(layer.pending));
   layer.pending = [];
   layer.pendingLength = 0;
   return layer;
+}
+
+/**
+ * Sorted merge of parts into the layer's own arrays, from the back, so a tank taking back what a batch
+ * returns costs no new arrays: O(layer + parts).
+ */
+function mergeIntoLayer(layer: MutableLayer, parts: CompositionParts): void {
+  const ids = layer.originIds;
+  const grams = layer.grams;
+  const pIds = parts.originIds;
+  const pGrams = parts.grams;
+  const n = ids.length;
+  const m = pIds.length;
+  for (let k = 0; k < m; k++) {
+    ids.push(0);
+    grams.push(0);
+  }
+  let i = n - 1;
+  let j = m - 1;
+  let k = n + m - 1;
+  while (j >= 0) {
+    const pid = pIds[j] ?? 0;
+    const id = i >= 0 ? (ids[i] ?? 0) : Number.NEGATIVE_INFINITY;
+    if (id > pid) {
+      ids[k] = id;
+      grams[k] = grams[i] ?? 0;
+      i--;
+    } else if (id === pid) {
+      ids[k] = id;
+      grams[k] = (grams[i] ?? 0) + (pGrams[j] ?? 0);
+      i--;
+      j--;
+    } else {
+      ids[k] = pid;
+      grams[k] = pGrams[j] ?? 0;
+      j--;
+    }
+    k--;
+  }
+  // Origins both held: the merged run starts k − i places late; close the gap.
+  const gap = k - i;
+  if (gap > 0) {
+    for (let t = k + 1; t < n + m; t++) {
+      ids[t - gap] = ids[t] ?? 0;
+      grams[t - gap] = grams[t] ?? 0;
+    }
+    ids.length = n + m - gap;
+    grams.length = n + m - gap;
+  }
 }
 
 /**
@@ -133,7 +186,7 @@ export function settleLayer(layer: MutableLayer): MutableLayer {
  * A part never exceeds the holding: floor(m·g/M) ≤ g − 1 for m < M and the spare gram adds at most 1
  * (exact in doubles while the stock is below 2^52 g).
  */
-export function takeFromLayer(layer: MutableLayer, massG: number): CompositionParts {
+export function takeFromLayer(layer: MutableLayer, massG: number): OwnedParts {
   settleLayer(layer);
   invariant(
     Number.isSafeInteger(massG) && massG > 0 && massG <= layer.totalG,
@@ -182,11 +235,17 @@ export function takeFromLayer(layer: MutableLayer, massG: number): CompositionPa
  * Adds parts into a layer: appends at once when every id is newer (the usual case), else buffers the
  * deposit and merges once the buffer outgrows the layer, so a deposit costs amortised O(its size · log).
  */
-export function addToLayer(layer: MutableLayer, parts: CompositionParts): void {
+export function addToLayer(
+  layer: MutableLayer,
+  parts: CompositionParts,
+  totalG = sumParts(parts),
+  /** The caller hands the parts over: a buffered deposit keeps them instead of a copy. */
+  owned = false,
+): void {
   const last = layer.originIds[layer.originIds.length - 1];
   const first = parts.originIds[0];
   if (first === undefined) return;
-  layer.totalG += sumParts(parts);
+  layer.totalG += totalG;
   if (layer.pending.length === 0 && (last === undefined || first > last)) {
     for (let i = 0; i < parts.originIds.length; i++) {
       layer.originIds.push(parts.originIds[i] ?? 0);
@@ -194,7 +253,7 @@ export function addToLayer(layer: MutableLayer, parts: CompositionParts): void {
     }
     return;
   }
-  layer.pending.push({ originIds: [...parts.originIds], grams: [...parts.grams] });
+  layer.pending.push(owned ? parts : { originIds: [...parts.originIds], grams: [...parts.grams] });
   layer.pendingLength += parts.originIds.length;
   if (layer.pendingLength > Math.max(SETTLE_AT_LEAST, layer.originIds.length)) settleLayer(layer);
 }

@@ -13,7 +13,8 @@ import type { CompositionParts } from "@/lib/trace/composition";
 import { findLastPositionAtOrBefore } from "@/lib/ledger/moves";
 import type { HolderKind, LedgerIndex, TraceIssue, TraceMove } from "@/lib/ledger/moves";
 import { createReplay, restoreReplay } from "@/lib/trace/replay";
-import { collectAncestorMoves, findAncestorHorizons, lowerBound, replaySubgraph } from "@/lib/trace/ancestors";
+import { collectAncestorMoves, findAncestorHorizons, replaySubgraph } from "@/lib/trace/ancestors";
+import { listDrawnHolders, replayForward } from "@/lib/trace/forward";
 import type { Replay, ReplayPosition, ReplaySnapshot } from "@/lib/trace/replay";
 
 export interface OriginShare {
@@ -64,7 +65,10 @@ export interface ForwardTrace {
   holders: ForwardHolderReach[];
   /** Every move that carried part of the set, in ledger order. */
   moves: Array<{ moveId: number; grams: number }>;
-  /** Moves replayed to answer: from the starting snapshot to where none of the set could move again. */
+  /**
+   * Moves replayed to answer: from the starting snapshot to where none of the set could move again.
+   * Each is split off its source; one into a holder not drawn from again before asOf is not booked there.
+   */
   movesReplayed: number;
 }
 
@@ -247,41 +251,16 @@ export function traceForward(
   // them (Σ in − Σ out), and the replay may stop once every gram sits in holders nothing is drawn from
   // again up to the target: no later move can carry any of it. An early lot's material reaches
   // shipments and disposals within months, so this bounds a forward trace by the lot's lifetime, not
-  // by the history after it.
-  const tracksHeld = (from?.applied.count ?? 0) <= firstOrigin;
-  const held = new Map<number, number>();
-  /** Holders with grams of the set that are drawn from again before the target. */
-  const open = new Set<number>();
-  const drawnAfter = (holderId: number, pos: number): boolean => {
-    const outs = index.outOf.get(holderId);
-    if (outs === undefined) return false;
-    const i = lowerBound(outs, pos + 1);
-    return i < outs.length && (outs[i] ?? Number.POSITIVE_INFINITY) <= target;
-  };
-  const receivedBy = new Map<number, number>();
-  const moves: Array<{ moveId: number; grams: number }> = [];
-  const replayed = replayLedger(index, {
-    ...(options.at === undefined ? {} : { until: options.at }),
-    ...(from === undefined ? {} : { from }),
-    onMove: (move, parts, pos) => {
-      const grams = sumPartsOf(parts, set);
-      if (grams > 0) {
-        moves.push({ moveId: move.id, grams });
-        receivedBy.set(move.toHolderId, (receivedBy.get(move.toHolderId) ?? 0) + grams);
-        if (tracksHeld) {
-          held.set(move.toHolderId, (held.get(move.toHolderId) ?? 0) + grams);
-          if (move.fromHolderId !== null) held.set(move.fromHolderId, (held.get(move.fromHolderId) ?? 0) - grams);
-          open.add(move.toHolderId);
-        }
-      }
-      if (!tracksHeld || pos < lastOrigin) return false;
-      for (const h of open) if ((held.get(h) ?? 0) === 0 || !drawnAfter(h, pos)) open.delete(h);
-      return open.size === 0;
-    },
-  });
-  if (!replayed.ok) return replayed;
-  const replay = replayed.value;
-  const movesReplayed = replay.appliedCount - (from?.applied.count ?? 0);
+  // by the history after it (lib/trace/forward.ts).
+  const start = from?.applied.count ?? 0;
+  const tracksHeld = start <= firstOrigin;
+  const started = startReplay(index, from, tracksHeld ? drawnHolders(index, from, start, target) : undefined);
+  if (!started.ok) return started;
+  const replay = started.value;
+  const carried = replayForward(index, replay, set, { start, target, lastOrigin, tracksHeld });
+  if (!carried.ok) return carried;
+  const { moves, receivedBy, held } = carried.value;
+  const movesReplayed = carried.value.processed;
   const heldBy = tracksHeld ? positiveHeld(held) : heldInReplay(replay, set);
   const holderIds = [...new Set([...receivedBy.keys(), ...heldBy.keys()])].sort((a, b) => a - b);
   let enteredG = 0;
@@ -347,6 +326,18 @@ function requireHolderKind(index: LedgerIndex, holderId: number): HolderKind {
 /** The snapshot, if it covers no move after `lastPosition`; one taken later cannot answer an earlier question. */
 function pickSnapshot(from: ReplaySnapshot | undefined, lastPosition: number): ReplaySnapshot | undefined {
   return from !== undefined && from.applied.count <= lastPosition + 1 ? from : undefined;
+}
+
+/** Holders a tracking forward replay reads: the snapshot's holders drawn from in the window. */
+function drawnHolders(index: LedgerIndex, from: ReplaySnapshot | undefined, start: number, target: number) {
+  return from === undefined
+    ? undefined
+    : listDrawnHolders(
+        index,
+        from.holders.map((h) => h.holderId),
+        start,
+        target,
+      );
 }
 
 function startReplay(index: LedgerIndex, from: ReplaySnapshot | undefined, only?: ReadonlySet<number>): Result<Replay> {

@@ -2,13 +2,14 @@ import { fail, failMany, invariant, ok } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
 import {
   addToLayer,
+  adoptAsLayer,
   copyToLayer,
   EMPTY_PARTS,
   mergeAllParts,
   settleLayer,
   takeFromLayer,
 } from "@/lib/trace/composition";
-import type { CompositionParts, MutableLayer } from "@/lib/trace/composition";
+import type { CompositionParts, MutableLayer, OwnedParts } from "@/lib/trace/composition";
 import { checkMove, compareMoves, formatMoveField } from "@/lib/ledger/moves";
 import type { Mixing, TraceHolder, TraceIssue, TraceMove } from "@/lib/ledger/moves";
 
@@ -26,6 +27,11 @@ export interface Replay {
   readonly appliedCount: number;
   /** Applies one move in ledger order; returns the composition the move carried. */
   apply(move: TraceMove): Result<CompositionParts>;
+  /**
+   * As apply, but the destination takes over the arrays it returns instead of copying them: read them
+   * before the next move and do not keep them (a forward trace only counts the traced grams in each).
+   */
+  applyTransient(move: TraceMove): Result<CompositionParts>;
   /**
    * Applies only the source side of a move: the material leaves its holder and is returned, but the
    * destination is not booked. For ancestor-only replays whose destination's later state is not needed.
@@ -193,17 +199,17 @@ function checkNext(ctx: ReplayContext, move: TraceMove): Result<void> {
   return ok(undefined);
 }
 
-function take(ctx: ReplayContext, holderId: number, massG: number): CompositionParts {
+function take(ctx: ReplayContext, holderId: number, massG: number): OwnedParts {
   const s = requireState(ctx, holderId);
   s.totalG -= massG;
   if (s.mixing === "MIXED") {
     const layer = s.layers[0];
-    if (layer === undefined) return EMPTY_PARTS;
+    if (layer === undefined) return { originIds: [], grams: [] };
     const taken = takeFromLayer(layer, massG);
     if (layer.totalG === 0) s.layers = [];
     return taken;
   }
-  const pieces: CompositionParts[] = [];
+  const pieces: OwnedParts[] = [];
   let left = massG;
   for (let layer = s.layers[s.head]; layer !== undefined && left > 0; layer = s.layers[s.head]) {
     const piece = Math.min(left, layer.totalG);
@@ -215,19 +221,31 @@ function take(ctx: ReplayContext, holderId: number, massG: number): CompositionP
     s.layers = s.layers.slice(s.head);
     s.head = 0;
   }
-  return mergeAllParts(pieces);
+  if (pieces.length === 1 && pieces[0] !== undefined) return pieces[0];
+  const merged = mergeAllParts(pieces);
+  return { originIds: [...merged.originIds], grams: [...merged.grams] };
 }
 
-function put(ctx: ReplayContext, holderId: number, parts: CompositionParts, massG: number, moveId: number): void {
+/** Books parts into a holder; `adopt`: the parts are the caller's to give, so a new layer keeps their arrays. */
+function put(
+  ctx: ReplayContext,
+  holderId: number,
+  parts: OwnedParts,
+  massG: number,
+  moveId: number,
+  adopt: boolean,
+): void {
   const s = requireState(ctx, holderId);
   s.totalG += massG;
   const pool = s.mixing === "MIXED" ? s.layers[0] : undefined;
-  if (pool === undefined) s.layers.push({ enteredByMoveId: moveId, ...copyToLayer(parts) });
-  else addToLayer(pool, parts);
+  if (pool === undefined) {
+    const layer = adopt ? adoptAsLayer(parts, massG) : copyToLayer(parts, massG);
+    s.layers.push({ enteredByMoveId: moveId, ...layer });
+  } else addToLayer(pool, parts, massG, adopt);
 }
 
 /** Checks a move, takes its material from its holder (or makes it an origin) and counts it applied. */
-function leave(ctx: ReplayContext, move: TraceMove): Result<CompositionParts> {
+function leave(ctx: ReplayContext, move: TraceMove): Result<OwnedParts> {
   const checked = checkNext(ctx, move);
   if (!checked.ok) return checked;
   const parts =
@@ -293,7 +311,12 @@ function buildReplay(
     },
     apply(move) {
       const parts = leave(ctx, move);
-      if (parts.ok) put(ctx, move.toHolderId, parts.value, move.massG, move.id);
+      if (parts.ok) put(ctx, move.toHolderId, parts.value, move.massG, move.id, false);
+      return parts;
+    },
+    applyTransient(move) {
+      const parts = leave(ctx, move);
+      if (parts.ok) put(ctx, move.toHolderId, parts.value, move.massG, move.id, true);
       return parts;
     },
     withdraw(move) {
