@@ -7,14 +7,9 @@ import type { Db, Tx } from "@/lib/core/connect";
 import { dialectOf } from "@/lib/core/bulk-insert";
 import { invariant } from "@/lib/core/result";
 
-export interface MoveRow {
-  id: number;
-  at: number;
-  fromHolderId: number | null;
-  toHolderId: number;
-  massG: number;
-  reversesId: number | null;
-}
+import type { MoveRow } from "@/lib/ledger/ledger-chunks";
+
+export type { MoveRow } from "@/lib/ledger/ledger-chunks";
 
 export interface HolderRow {
   id: number;
