@@ -62,6 +62,11 @@ export async function readMoveRows(db: Db | Tx, siteId: number, afterId = 0): Pr
   });
 }
 
+/** A code as queryHolders wrote it back to itself; most codes have no backslash to undo. */
+function unescapeCode(text: string): string {
+  return text.includes("\\") ? text.replace(/\\(\\|s)/g, (_whole, c: string) => (c === "s" ? ";" : "\\")) : text;
+}
+
 /** The site's holders with id > afterId (id, kind, code). */
 export async function readHolderRows(db: Db | Tx, siteId: number, afterId = 0): Promise<HolderRow[]> {
   return (await entries(queryHolders(db, siteId, afterId))).map((entry) => {
@@ -70,7 +75,7 @@ export async function readHolderRows(db: Db | Tx, siteId: number, afterId = 0): 
     return {
       id: int(entry.slice(0, first), "holder id"),
       kind: entry.slice(first + 1, second),
-      code: entry.slice(second + 1).replace(/\\(\\|s)/g, (_whole, c: string) => (c === "s" ? ";" : "\\")),
+      code: unescapeCode(entry.slice(second + 1)),
     };
   });
 }
