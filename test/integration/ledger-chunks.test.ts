@@ -48,16 +48,10 @@ describe.each(PROVIDERS)("ledger chunks kept in the database on %s", (provider) 
   const restartAndTrace = async (): Promise<string> => {
     clearTraceCache();
     const answers: unknown[] = [];
-    for (const q of queries)
-      answers.push(
-        withoutFreshness(
-          value(
-            q.forward
-              ? await traceForwardReport(t.db, siteId, q, NOW)
-              : await traceBackwardReport(t.db, siteId, q, NOW),
-          ),
-        ),
-      );
+    for (const q of queries) {
+      if (q.forward) answers.push(withoutFreshness(value(await traceForwardReport(t.db, siteId, q, NOW))));
+      else answers.push(withoutFreshness(value(await traceBackwardReport(t.db, siteId, q, NOW))));
+    }
     clearTraceCache();
     const lot = value(await traceLotMaterial(t.db, siteId, lotHolderId, NOW));
     answers.push({ back: lot.back, fwd: lot.fwd, moves: lot.index.moves, order: lot.order });
