@@ -7,14 +7,9 @@ import type { Db, Tx } from "@/lib/core/connect";
 import { dialectOf } from "@/lib/core/bulk-insert";
 import { invariant } from "@/lib/core/result";
 
-export interface MoveRow {
-  id: number;
-  at: number;
-  fromHolderId: number | null;
-  toHolderId: number;
-  massG: number;
-  reversesId: number | null;
-}
+import type { MoveRow } from "@/lib/ledger/ledger-chunks";
+
+export type { MoveRow } from "@/lib/ledger/ledger-chunks";
 
 export interface HolderRow {
   id: number;
@@ -67,6 +62,11 @@ export async function readMoveRows(db: Db | Tx, siteId: number, afterId = 0): Pr
   });
 }
 
+/** A code as queryHolders wrote it back to itself; most codes have no backslash to undo. */
+function unescapeCode(text: string): string {
+  return text.includes("\\") ? text.replace(/\\(\\|s)/g, (_whole, c: string) => (c === "s" ? ";" : "\\")) : text;
+}
+
 /** The site's holders with id > afterId (id, kind, code). */
 export async function readHolderRows(db: Db | Tx, siteId: number, afterId = 0): Promise<HolderRow[]> {
   return (await entries(queryHolders(db, siteId, afterId))).map((entry) => {
@@ -75,7 +75,7 @@ export async function readHolderRows(db: Db | Tx, siteId: number, afterId = 0): 
     return {
       id: int(entry.slice(0, first), "holder id"),
       kind: entry.slice(first + 1, second),
-      code: entry.slice(second + 1).replace(/\\(\\|s)/g, (_whole, c: string) => (c === "s" ? ";" : "\\")),
+      code: unescapeCode(entry.slice(second + 1)),
     };
   });
 }

@@ -6,6 +6,11 @@ import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
 import type { TraceHolder, TraceMove } from "@/lib/ledger/moves";
 import type { HolderRef, TraceLedger } from "@/lib/ledger/holder-ref";
 import { readHolderRows, readMoveRows } from "@/lib/ledger/ledger-rows.store";
+import type { MoveRow } from "@/lib/ledger/ledger-rows.store";
+import { readChunkedMoveRows } from "@/lib/ledger/ledger-chunks.store";
+import type { ChunkedMoveRows } from "@/lib/ledger/ledger-chunks.store";
+import { NO_ID } from "@/lib/ledger/ledger-chunks";
+import type { MoveColumns } from "@/lib/ledger/ledger-chunks";
 
 export type { HolderRef, TraceLedger } from "@/lib/ledger/holder-ref";
 
@@ -170,31 +175,74 @@ export function findReversedPairs(rows: ReadonlyArray<{ id: number; reversesId: 
  * booking, it is not a physical flow (see indexLedger).
  */
 export async function loadTraceLedger(db: Db | Tx, siteId: number): Promise<TraceLedger> {
+  return ledgerOf(
+    db,
+    siteId,
+    readMoveRows(db, siteId).then((rows) => ({ chunks: [], rows })),
+  );
+}
+
+/**
+ * The same ledger read through the stored chunks (ledger-chunks.store.ts): what a restarted server
+ * reads. `chunks` is what saveLedgerChunks needs to store the full chunks not stored yet.
+ */
+export async function loadChunkedTraceLedger(
+  db: Db,
+  siteId: number,
+): Promise<{ ledger: TraceLedger; chunks: ChunkedMoveRows }> {
+  const read = readChunkedMoveRows(db, siteId);
+  const ledger = await ledgerOf(db, siteId, read);
+  return { ledger, chunks: await read };
+}
+
+type MoveRead = Promise<{ chunks: readonly MoveColumns[]; rows: readonly MoveRow[] }>;
+
+async function ledgerOf(db: Db | Tx, siteId: number, readMoves: MoveRead): Promise<TraceLedger> {
   // One aggregated text value per table: a fraction of what Prisma takes to build an object per row.
-  const [holderRows, tanks, moveRows] = await Promise.all([
+  const [holderRows, tanks, { chunks, rows }] = await Promise.all([
     readHolderRows(db, siteId),
     db.tank.findMany({ where: { siteId }, select: { holderId: true, mixing: true } }),
-    readMoveRows(db, siteId),
+    readMoves,
   ]);
   const fifo = new Set(tanks.filter((t) => t.mixing === "FIFO").map((t) => t.holderId));
-  const refs = new Map<number, HolderRef>(holderRows.map((h) => [h.id, toRef(h)]));
-  const holders: TraceHolder[] = [...refs.values()].map((h) => ({
-    id: h.id,
-    kind: h.kind,
-    mixing: fifo.has(h.id) ? "FIFO" : "MIXED",
-  }));
-  const paired = findReversedPairs(moveRows);
-  const moves: TraceMove[] = moveRows
-    .filter((m) => !paired.has(m.id))
-    .map((m) => ({ id: m.id, at: m.at, fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG }));
-  return {
-    holders,
-    moves,
-    refs,
-    reversedPairsLeftOut: paired.size,
-    rowsRead: moveRows.length,
-    lastMoveId: moveRows.reduce((m, r) => Math.max(m, r.id), 0),
-  };
+  const refs = new Map<number, HolderRef>();
+  const holders: TraceHolder[] = [];
+  for (const row of holderRows) {
+    const kind = toHolderKind(row.kind);
+    refs.set(row.id, { id: row.id, kind, code: row.code });
+    holders.push({ id: row.id, kind, mixing: fifo.has(row.id) ? "FIFO" : "MIXED" });
+  }
+  const paired = findReversedPairs(rows);
+  for (const c of chunks)
+    for (let i = 0; i < c.count; i++) {
+      const reverses = c.reverses[i] ?? NO_ID;
+      if (reverses !== NO_ID) paired.add(reverses).add(c.id[i] ?? 0);
+    }
+  const moves: TraceMove[] = [];
+  let lastMoveId = 0;
+  let rowsRead = rows.length;
+  for (const c of chunks) {
+    rowsRead += c.count;
+    for (let i = 0; i < c.count; i++) {
+      const id = c.id[i] ?? 0;
+      const from = c.from[i] ?? NO_ID;
+      lastMoveId = Math.max(lastMoveId, id);
+      if (paired.size === 0 || !paired.has(id))
+        moves.push({
+          id,
+          at: c.at[i] ?? 0,
+          fromHolderId: from === NO_ID ? null : from,
+          toHolderId: c.to[i] ?? 0,
+          massG: c.mass[i] ?? 0,
+        });
+    }
+  }
+  for (const m of rows) {
+    lastMoveId = Math.max(lastMoveId, m.id);
+    if (paired.size === 0 || !paired.has(m.id))
+      moves.push({ id: m.id, at: m.at, fromHolderId: m.fromHolderId, toHolderId: m.toHolderId, massG: m.massG });
+  }
+  return { holders, moves, refs, reversedPairsLeftOut: paired.size, rowsRead, lastMoveId };
 }
 
 /**

@@ -1,4 +1,5 @@
 import { failMany, ok } from "@/lib/core/result";
+import { idMapOf } from "@/lib/ledger/id-map";
 import type { DomainIssue, Result } from "@/lib/core/result";
 import type { HolderKind, MixingModel } from "@/lib/core/vocabulary";
 
@@ -139,6 +140,52 @@ export function indexLedger(holders: readonly TraceHolder[], moves: readonly Tra
   const mapped = mapHolders(holders);
   if (!mapped.ok) return mapped;
   const holderMap = mapped.value;
+  // The usual ledger is valid and already in order (it is read in id order and booked as it happens):
+  // a check per move and no sort. Anything off goes through the full check, which names every issue.
+  if (!moves.every((m) => isValidMove(m, holderMap))) return failMany(listLedgerIssues(moves, holderMap));
+  const sorted = isInOrder(moves) ? moves.slice() : [...moves].sort(compareMoves);
+  const positionOf = idMapOf(
+    sorted.length,
+    (pos) => (sorted[pos] as TraceMove).id,
+    (pos) => pos,
+  );
+  // A repeated id: the full check names it.
+  if (positionOf === null) return failMany(listLedgerIssues(moves, holderMap));
+  const into = new Map<number, number[]>();
+  const outOf = new Map<number, number[]>();
+  const massPrefixG: number[] = [0];
+  let sum = 0;
+  for (let pos = 0; pos < sorted.length; pos++) {
+    const m = sorted[pos] as TraceMove;
+    pushTo(into, m.toHolderId, pos);
+    if (m.fromHolderId !== null) pushTo(outOf, m.fromHolderId, pos);
+    sum += m.massG;
+    massPrefixG.push(sum);
+  }
+  return ok({ moves: sorted, holders: holderMap, positionOf, into, outOf, massPrefixG });
+}
+
+/** Exactly when checkMove finds nothing, without building its issue list. */
+function isValidMove(m: TraceMove, holders: ReadonlyMap<number, TraceHolder>): boolean {
+  return (
+    Number.isSafeInteger(m.id) &&
+    Number.isSafeInteger(m.massG) &&
+    m.massG > 0 &&
+    Number.isFinite(m.at) &&
+    holders.has(m.toHolderId) &&
+    (m.fromHolderId === null || holders.has(m.fromHolderId)) &&
+    m.fromHolderId !== m.toHolderId
+  );
+}
+
+function isInOrder(moves: readonly TraceMove[]): boolean {
+  for (let i = 1; i < moves.length; i++)
+    if (compareMoves(moves[i - 1] as TraceMove, moves[i] as TraceMove) > 0) return false;
+  return true;
+}
+
+/** Every issue of the moves: each move's own fields, then repeated ids, in ledger order as given. */
+function listLedgerIssues(moves: readonly TraceMove[], holderMap: ReadonlyMap<number, TraceHolder>): TraceIssue[] {
   const issues: TraceIssue[] = [];
   const seen = new Set<number>();
   for (const m of moves) {
@@ -153,20 +200,7 @@ export function indexLedger(holders: readonly TraceHolder[], moves: readonly Tra
     }
     seen.add(m.id);
   }
-  if (issues.length > 0) return failMany(issues);
-
-  const sorted = [...moves].sort(compareMoves);
-  const positionOf = new Map<number, number>();
-  const into = new Map<number, number[]>();
-  const outOf = new Map<number, number[]>();
-  const massPrefixG: number[] = [0];
-  sorted.forEach((m, pos) => {
-    positionOf.set(m.id, pos);
-    pushTo(into, m.toHolderId, pos);
-    if (m.fromHolderId !== null) pushTo(outOf, m.fromHolderId, pos);
-    massPrefixG.push((massPrefixG[pos] ?? 0) + m.massG);
-  });
-  return ok({ moves: sorted, holders: holderMap, positionOf, into, outOf, massPrefixG });
+  return issues;
 }
 
 /** Position of the last move with at ≤ t, or -1 when every move is later. */

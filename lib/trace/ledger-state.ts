@@ -32,7 +32,7 @@ export interface LedgerState {
   order: "dated" | "booked";
   orderProblem: string | null;
   /** Real booking time of each move (the booked-order index replaces times by ids). */
-  realAt: Map<number, number>;
+  realAt: ReadonlyMap<number, number>;
   snapshots: ReplaySnapshot[];
   indexedAt: Date;
   indexMs: number;

@@ -7,7 +7,11 @@ import { log } from "@/lib/log/log.service";
 import type { Db } from "@/lib/core/connect";
 import { fail, failMany, ok } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
-import { extendTraceLedger, loadTraceLedger } from "@/lib/ledger/movement.store";
+import { extendTraceLedger, loadChunkedTraceLedger, loadTraceLedger } from "@/lib/ledger/movement.store";
+import type { TraceLedger } from "@/lib/ledger/movement.store";
+import { saveLedgerChunks } from "@/lib/ledger/ledger-chunks.store";
+import { idMapOf } from "@/lib/ledger/id-map";
+import type { TraceMove } from "@/lib/ledger/moves";
 import { samePosition } from "@/lib/ledger/position";
 import type { LedgerPosition } from "@/lib/ledger/position";
 import { getLedgerPosition } from "@/lib/ledger/position.store";
@@ -51,13 +55,23 @@ async function buildState(
   now: Date,
 ): Promise<Result<LedgerState>> {
   const started = performance.now();
-  // After a booking, read only what is new (holders and movements are append-only); whole otherwise.
+  // After a booking, read only what is new (holders and movements are append-only); a fresh process
+  // reads the stored ledger chunks and the rows after them, and stores the full chunks it lacked.
   const read =
     previous === null
-      ? loadTraceLedger(db, siteId)
+      ? readStored(db, siteId)
       : extendTraceLedger(db, siteId, previous.ledger, version.count).then((l) => l ?? loadTraceLedger(db, siteId));
+  // The stored snapshots are read meanwhile (they are checked against the index below).
+  const storedDated = previous === null ? loadTraceSnapshots(db, siteId, "dated") : null;
+  storedDated?.catch(() => undefined); // awaited below unless the ledger fails first
   const [ledger, tankService] = await Promise.all([read, listTankServices(db, siteId)]);
-  const realAt = new Map(ledger.moves.map((m) => [m.id, m.at]));
+  const { moves } = ledger;
+  const realAt =
+    idMapOf(
+      moves.length,
+      (i) => (moves[i] as TraceMove).id,
+      (i) => (moves[i] as TraceMove).at,
+    ) ?? new Map(moves.map((m) => [m.id, m.at]));
   let problem: string | null = null;
   for (const order of ["dated", "booked"] as const) {
     const indexed = indexInOrder(ledger, order);
@@ -66,7 +80,7 @@ async function buildState(
     // A fresh process resumes from the snapshots stored in the database, if they still fit this ledger.
     const kept =
       previous === null
-        ? await loadTraceSnapshots(db, siteId, order)
+        ? await (order === "dated" && storedDated !== null ? storedDated : loadTraceSnapshots(db, siteId, order))
         : previous.order === order
           ? previous.snapshots
           : [];
@@ -101,6 +115,16 @@ async function buildState(
   );
 }
 
+async function readStored(db: Db, siteId: number): Promise<TraceLedger> {
+  const { ledger, chunks } = await loadChunkedTraceLedger(db, siteId);
+  inBackground(
+    saveLedgerChunks(db, siteId, chunks).catch((err: unknown) =>
+      log.warn({ err, siteId }, "ledger chunks were not stored"),
+    ),
+  );
+  return ledger;
+}
+
 /**
  * Stores a site's snapshots in the background, one save per site at a time; a build that finishes while
  * a save runs leaves its list to be saved next. A failed save only costs the next start a replay.
@@ -118,12 +142,16 @@ function storeSnapshots(db: Db, siteId: number, order: "dated" | "booked", snaps
     }
     unsaved.delete(siteId);
   };
-  savesRunning.add(next());
+  inBackground(next());
 }
 
 const savesRunning = new Set<Promise<void>>();
 
-/** Resolves once every snapshot save started so far has finished (tests; an orderly shutdown). */
+function inBackground(save: Promise<unknown>): void {
+  savesRunning.add(save.then(() => undefined));
+}
+
+/** Resolves once every snapshot and ledger-chunk save started so far has finished (tests; an orderly shutdown). */
 export async function flushTraceSnapshots(): Promise<void> {
   while (savesRunning.size > 0) {
     const running = [...savesRunning];
