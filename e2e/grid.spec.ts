@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
-import path from "node:path";
 import Database from "better-sqlite3";
 import type { Locator, Page } from "@playwright/test";
+import { plantDatabase } from "./support/plant";
 import { expect, test } from "./support/test";
 import AxeBuilder from "@axe-core/playwright";
 import { signIn } from "./support/sign-in";
@@ -215,10 +215,9 @@ test("the grid page has no serious accessibility violations and fits 1366 px", a
   await page.screenshot({ path: "test-results/grid-1366.png" });
 });
 
-test("a 100,000-row table shows its first rows at once and scrolls to its end", async ({ page, baseURL }) => {
+test("a 100,000-row table shows its first rows at once and scrolls to its end", async ({ page }) => {
   test.setTimeout(180_000);
-  const port = new URL(baseURL ?? "http://127.0.0.1:3100").port;
-  const file = path.resolve(import.meta.dirname, "..", "data", `e2e-${port}.db`);
+  const file = plantDatabase();
   // Test-only data: a separate site with its own user, so the demo plant is left as it is.
   const iso = (ms: number) => new Date(ms).toISOString().replace("Z", "+00:00"); // Prisma's SQLite DateTime text form
   const sql = new Database(file);
