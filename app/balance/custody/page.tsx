@@ -15,30 +15,26 @@ import {
   InputsTable,
   RunningBalance,
 } from "@/app/balance/custody/custody-tables";
+import { queryValue } from "@/app/_ui/links";
+import type { SearchParams } from "@/app/_ui/links";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Chain of custody" };
-
-type Search = Record<string, string | string[] | undefined>;
-
-function one(v: string | string[] | undefined): string {
-  return (Array.isArray(v) ? v[0] : v) ?? "";
-}
 
 const OPERATOR_WORDS: Readonly<Record<string, string>> = {
   OTHER_OPERATOR: "Processing plant or trader (other operator)",
   AGRI_FOREST_PRODUCER_OR_FIRST_GATHERING_POINT: "Producer of biomass or first gathering point",
 };
 
-export default async function CustodyPage({ searchParams }: { searchParams: Promise<Search> }) {
+export default async function CustodyPage({ searchParams }: { searchParams: Promise<SearchParams> }) {
   const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const sp = await searchParams;
   const typed = {
-    period: one(sp.period),
-    operatorType: one(sp.operatorType),
-    claimKg: one(sp.claimKg),
-    claimSet: one(sp.claimSet),
+    period: queryValue(sp.period),
+    operatorType: queryValue(sp.operatorType),
+    claimKg: queryValue(sp.claimKg),
+    claimSet: queryValue(sp.claimSet),
   };
   const result = await getCustodyReport(db, site, typed, user.now);
   const tz = site.timeZone;

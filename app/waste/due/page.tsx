@@ -11,15 +11,11 @@ import { getWasteDueReportCached } from "@/app/waste/due/due-report-cache";
 import type { WasteDueReport } from "@/app/waste/due/due-report";
 import { ReportLinks } from "@/app/_ui/report-view";
 import { ContainersOnSiteTable, HazardRulesNote, RuleLimitsTable, StreamTable } from "@/app/waste/due/due-tables";
+import { queryValue } from "@/app/_ui/links";
+import type { SearchParams } from "@/app/_ui/links";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Waste due for haul-away" };
-
-type Search = Record<string, string | string[] | undefined>;
-
-function one(v: string | string[] | undefined): string {
-  return (Array.isArray(v) ? v[0] : v) ?? "";
-}
 
 const CATEGORY_WORDS: Readonly<Record<string, string>> = {
   LQG: "Large quantity generator (LQG)",
@@ -27,11 +23,11 @@ const CATEGORY_WORDS: Readonly<Record<string, string>> = {
   VSQG: "Very small quantity generator (VSQG)",
 };
 
-export default async function WasteDuePage({ searchParams }: { searchParams: Promise<Search> }) {
+export default async function WasteDuePage({ searchParams }: { searchParams: Promise<SearchParams> }) {
   const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const sp = await searchParams;
-  const typed = { days: one(sp.days), category: one(sp.category), tsdfMiles: one(sp.tsdfMiles) };
+  const typed = { days: queryValue(sp.days), category: queryValue(sp.category), tsdfMiles: queryValue(sp.tsdfMiles) };
   const result = await getWasteDueReportCached(db, site, typed, user.now);
   const tz = site.timeZone;
   return (
