@@ -17,6 +17,7 @@ import {
 } from "@/app/balance/custody/custody-tables";
 import { queryValue } from "@/app/_ui/links";
 import type { SearchParams } from "@/app/_ui/links";
+import { QueryForm } from "@/app/_ui/query-form";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Chain of custody" };
@@ -78,66 +79,51 @@ function CustodyForm({
 }) {
   const bad = (f: string) => (issues.some((i) => i.field === f) ? true : undefined);
   return (
-    <form method="get" action="/balance/custody" className="query-form" noValidate>
-      <fieldset>
-        <legend>Balance period and claim check</legend>
-        <label>
-          Balance period
-          {report ? (
-            <select name="period" defaultValue={report.query.period}>
-              {report.periods.map((p) => (
-                <option key={p.label} value={p.label}>
-                  {p.label}
-                  {p.closed ? "" : " (open)"}
-                </option>
-              ))}
-            </select>
-          ) : (
-            <input name="period" defaultValue={typed.period} size={9} aria-invalid={bad("period")} />
-          )}
-        </label>
-        <label>
-          Operator type
-          <select
-            name="operatorType"
-            defaultValue={report?.query.operatorType ?? (typed.operatorType || "OTHER_OPERATOR")}
-          >
-            {OPERATOR_TYPES.map((o) => (
-              <option key={o} value={o}>
-                {OPERATOR_WORDS[o] ?? o}
+    <QueryForm action="/balance/custody" legend="Balance period and claim check" submitLabel="Show" issues={issues}>
+      <label>
+        Balance period
+        {report ? (
+          <select name="period" defaultValue={report.query.period}>
+            {report.periods.map((p) => (
+              <option key={p.label} value={p.label}>
+                {p.label}
+                {p.closed ? "" : " (open)"}
               </option>
             ))}
           </select>
-        </label>
-        <label>
-          Try a claim now (kg of ester)
-          <input
-            name="claimKg"
-            inputMode="decimal"
-            size={9}
-            defaultValue={typed.claimKg}
-            aria-invalid={bad("claimKg")}
-          />
-        </label>
-        <label>
-          Against set
-          <select name="claimSet" defaultValue={typed.claimSet}>
-            <option value="">the set with the most credit</option>
-            {(report?.sets ?? []).map((s) => (
-              <option key={s.key} value={s.key}>
-                {s.key}
-              </option>
-            ))}
-          </select>
-        </label>
-        <button type="submit">Show</button>
-        {issues.map((i) => (
-          <p key={`${i.field ?? ""}${i.message}`} className="form-error" role="alert">
-            {i.message}
-          </p>
-        ))}
-      </fieldset>
-    </form>
+        ) : (
+          <input name="period" defaultValue={typed.period} size={9} aria-invalid={bad("period")} />
+        )}
+      </label>
+      <label>
+        Operator type
+        <select
+          name="operatorType"
+          defaultValue={report?.query.operatorType ?? (typed.operatorType || "OTHER_OPERATOR")}
+        >
+          {OPERATOR_TYPES.map((o) => (
+            <option key={o} value={o}>
+              {OPERATOR_WORDS[o] ?? o}
+            </option>
+          ))}
+        </select>
+      </label>
+      <label>
+        Try a claim now (kg of ester)
+        <input name="claimKg" inputMode="decimal" size={9} defaultValue={typed.claimKg} aria-invalid={bad("claimKg")} />
+      </label>
+      <label>
+        Against set
+        <select name="claimSet" defaultValue={typed.claimSet}>
+          <option value="">the set with the most credit</option>
+          {(report?.sets ?? []).map((s) => (
+            <option key={s.key} value={s.key}>
+              {s.key}
+            </option>
+          ))}
+        </select>
+      </label>
+    </QueryForm>
   );
 }
 

@@ -13,6 +13,7 @@ import { ReportLinks } from "@/app/_ui/report-view";
 import { ContainersOnSiteTable, HazardRulesNote, RuleLimitsTable, StreamTable } from "@/app/waste/due/due-tables";
 import { queryValue } from "@/app/_ui/links";
 import type { SearchParams } from "@/app/_ui/links";
+import { QueryForm } from "@/app/_ui/query-form";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Waste due for haul-away" };
@@ -76,47 +77,38 @@ function DueForm({
 }) {
   const bad = (f: string) => (issues.some((i) => i.field === f) ? true : undefined);
   return (
-    <form method="get" action="/waste/due" className="query-form" noValidate>
-      <fieldset>
-        <legend>Due within</legend>
-        <label>
-          Days ahead
-          <input
-            name="days"
-            inputMode="numeric"
-            size={5}
-            defaultValue={typed.days !== "" ? typed.days : String(report?.query.days ?? DEFAULT_DUE_DAYS)}
-            aria-invalid={bad("days")}
-          />
-        </label>
-        <label>
-          Generator category
-          <select name="category" defaultValue={typed.category || report?.query.category || "LQG"}>
-            {GENERATOR_CATEGORIES.map((c) => (
-              <option key={c} value={c}>
-                {CATEGORY_WORDS[c] ?? c}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label>
-          Miles to the treatment facility (SQG only)
-          <input
-            name="tsdfMiles"
-            inputMode="decimal"
-            size={6}
-            defaultValue={typed.tsdfMiles}
-            aria-invalid={bad("tsdfMiles")}
-          />
-        </label>
-        <button type="submit">List what is due</button>
-        {issues.map((i) => (
-          <p key={`${i.field ?? ""}${i.message}`} className="form-error" role="alert">
-            {i.message}
-          </p>
-        ))}
-      </fieldset>
-    </form>
+    <QueryForm action="/waste/due" legend="Due within" submitLabel="List what is due" issues={issues}>
+      <label>
+        Days ahead
+        <input
+          name="days"
+          inputMode="numeric"
+          size={5}
+          defaultValue={typed.days !== "" ? typed.days : String(report?.query.days ?? DEFAULT_DUE_DAYS)}
+          aria-invalid={bad("days")}
+        />
+      </label>
+      <label>
+        Generator category
+        <select name="category" defaultValue={typed.category || report?.query.category || "LQG"}>
+          {GENERATOR_CATEGORIES.map((c) => (
+            <option key={c} value={c}>
+              {CATEGORY_WORDS[c] ?? c}
+            </option>
+          ))}
+        </select>
+      </label>
+      <label>
+        Miles to the treatment facility (SQG only)
+        <input
+          name="tsdfMiles"
+          inputMode="decimal"
+          size={6}
+          defaultValue={typed.tsdfMiles}
+          aria-invalid={bad("tsdfMiles")}
+        />
+      </label>
+    </QueryForm>
   );
 }
 
