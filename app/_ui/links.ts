@@ -34,6 +34,14 @@ export function codeParam(raw: string): string {
   }
 }
 
+/** A page's query as the router hands it over: a name may come once, several times, or not at all. */
+export type SearchParams = Record<string, string | string[] | undefined>;
+
+/** The first value given for a query name, as typed; "" when it is not given. */
+export function queryValue(v: string | string[] | undefined): string {
+  return (Array.isArray(v) ? v[0] : v) ?? "";
+}
+
 export const PAGE_SIZE = 100;
 
 export function pageParam(raw: string | string[] | undefined): number {

@@ -4,6 +4,7 @@ import type { BalanceReport } from "@/lib/mass-balance/balance.service";
 import type { Closure } from "@/lib/mass-balance/period-balance";
 import { reportDay } from "@/lib/report/report";
 import type { ReportContext, ReportDoc, ReportTable } from "@/lib/report/report";
+import { composeReport, periodDays } from "@/lib/report/report";
 
 const FLAG_WORDS: Readonly<Record<Closure["flag"], string>> = {
   OK: "Within tolerance",
@@ -126,27 +127,25 @@ function gaugesTable(r: BalanceReport): ReportTable {
 
 export function buildBalanceDoc(r: BalanceReport, ctx: ReportContext, ledger: ReportDoc["ledger"]): ReportDoc {
   const ap = r.accountingPeriod;
-  return {
-    slug: "balance",
-    title: "Period balance statement",
-    plant: ctx.plant,
-    subject: `Period ${r.period.label}: ${reportDay(r.period.startsAt, ctx.timeZone)} to ${reportDay(new Date(r.period.endsAt.getTime() - 1), ctx.timeZone)}`,
-    producedAt: ctx.producedAt,
-    producedBy: ctx.producedBy,
-    timeZone: ctx.timeZone,
-    ledger,
-    facts: [
-      ["Closure", closureText(r.stock.closure)],
-      ["Tolerance", `warn above ${r.tolerance.warnPct} %, fail above ${r.tolerance.failPct} % of inputs`],
-      [
-        "Accounting period",
-        ap === null ? "not recorded" : ap.closedAt ? `closed ${reportDay(ap.closedAt, ctx.timeZone)}` : "open",
+  return composeReport(
+    {
+      slug: "balance",
+      title: "Period balance statement",
+      subject: `Period ${r.period.label}: ${periodDays(r.period.startsAt, r.period.endsAt, ctx.timeZone)}`,
+      facts: [
+        ["Closure", closureText(r.stock.closure)],
+        ["Tolerance", `warn above ${r.tolerance.warnPct} %, fail above ${r.tolerance.failPct} % of inputs`],
+        [
+          "Accounting period",
+          ap === null ? "not recorded" : ap.closedAt ? `closed ${reportDay(ap.closedAt, ctx.timeZone)}` : "open",
+        ],
       ],
-    ],
-    notes: [
-      "Whole grams from the movement ledger: opening stock and everything received equal everything that left, closing stock and what is unaccounted for.",
-    ],
-    cautions: [],
-    tables: [statementTable(r), materialTable(r), batchesTable(r), gaugesTable(r)],
-  };
+      notes: [
+        "Whole grams from the movement ledger: opening stock and everything received equal everything that left, closing stock and what is unaccounted for.",
+      ],
+      tables: [statementTable(r), materialTable(r), batchesTable(r), gaugesTable(r)],
+    },
+    ctx,
+    ledger,
+  );
 }

@@ -13,23 +13,22 @@ import { BalanceForm } from "@/app/balance/balance-form";
 import { EventTable, FlowsTable, GaugeTable, IdentityTable, MaterialTable } from "@/app/balance/balance-tables";
 import { ProcessTable } from "@/app/balance/process-table";
 import { ReportLinks } from "@/app/_ui/report-view";
+import { queryValue } from "@/app/_ui/links";
+import type { SearchParams } from "@/app/_ui/links";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Period balance" };
 
-type Search = Record<string, string | string[] | undefined>;
-
-function one(v: string | string[] | undefined): string {
-  return (Array.isArray(v) ? v[0] : v) ?? "";
-}
-
 const FIELDS = ["period", "year", "month", "quarter", "start", "end", "warnPct", "failPct"] as const;
 
-export default async function BalancePage({ searchParams }: { searchParams: Promise<Search> }) {
+export default async function BalancePage({ searchParams }: { searchParams: Promise<SearchParams> }) {
   const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const sp = await searchParams;
-  const typed = Object.fromEntries(FIELDS.map((f) => [f, one(sp[f])])) as Record<(typeof FIELDS)[number], string>;
+  const typed = Object.fromEntries(FIELDS.map((f) => [f, queryValue(sp[f])])) as Record<
+    (typeof FIELDS)[number],
+    string
+  >;
   const result = await getBalanceReportCached(db, site, typed, user.now);
   const tz = site.timeZone;
   return (

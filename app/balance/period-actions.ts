@@ -4,6 +4,7 @@ import { requireRole } from "@/lib/auth/request.service";
 import { getDb } from "@/lib/core/db";
 import { parseInput } from "@/lib/ledger/parse";
 import { closePeriod, PeriodCloseSchema, PeriodReopenSchema, reopenPeriod } from "@/lib/period/period.service";
+import { actorOf } from "@/lib/core/actor";
 
 export interface PeriodActionState {
   ok: boolean;
@@ -30,7 +31,7 @@ async function run(action: "close" | "reopen", form: FormData): Promise<PeriodAc
       field: parsed.issues[0]?.field ?? null,
       reason,
     };
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   const db = await getDb();
   const result =
     action === "close" ? await closePeriod(db, actor, parsed.value) : await reopenPeriod(db, actor, parsed.value);

@@ -5,6 +5,7 @@ import { requireRole } from "@/lib/auth/request.service";
 import { changeCustomer, createCustomer } from "@/lib/customer/customer.service";
 import { readText, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
+import { actorOf } from "@/lib/core/actor";
 
 // Customers are recorded and changed by compliance staff; checked on the server for each call.
 
@@ -15,7 +16,7 @@ export async function createCustomerAction(prev: FormState, form: FormData): Pro
   const values = readValues(form, NEW_FIELDS);
   const who = await requireRole(["COMPLIANCE"]);
   if (!who.ok) return refused(prev, values, who.issues, NEW_FIELDS);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   const r = await createCustomer(await getDb(), actor, {
     code: values.code,
     name: values.name,
@@ -31,7 +32,7 @@ export async function changeCustomerAction(prev: FormState, form: FormData): Pro
   const values = readValues(form, CHANGE_FIELDS);
   const who = await requireRole(["COMPLIANCE"]);
   if (!who.ok) return refused(prev, values, who.issues, CHANGE_FIELDS);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   const active = readText(form, "active");
   const r = await changeCustomer(await getDb(), actor, {
     code: values.code,

@@ -7,18 +7,18 @@ import type { RecordHistoryKind } from "@/lib/audit/history";
 import { fieldWords, valueWords } from "@/lib/audit/field-words";
 import type { HolderKind } from "@/lib/core/vocabulary";
 import { when } from "@/app/_ui/format";
-import { hrefOf } from "@/app/_ui/links";
+import { hrefOf, queryValue } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { NoSite, Note } from "@/app/_ui/ui";
 import { DataTable, StatusMark } from "@/app/_ui/kit";
 import type { Column } from "@/app/_ui/kit";
 import type { ReactNode } from "react";
+import type { SearchParams } from "@/app/_ui/links";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Record history" };
 
-type Search = Record<string, string | string[] | undefined>;
-const one = (v: string | string[] | undefined): string => ((Array.isArray(v) ? v[0] : v) ?? "").trim();
+const one = (v: string | string[] | undefined): string => queryValue(v).trim();
 
 const ACTION_WORDS: Readonly<Record<string, string>> = {
   CREATE: "Recorded",
@@ -153,7 +153,7 @@ function historyColumns(tz: string): Array<Column<HistoryEvent>> {
 }
 
 /** Every recorded create, change, void, close and reopen of one record: who, when (UTC and site time), old and new values, reason. */
-export default async function HistoryPage({ searchParams }: { searchParams: Promise<Search> }) {
+export default async function HistoryPage({ searchParams }: { searchParams: Promise<SearchParams> }) {
   const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const sp = await searchParams;

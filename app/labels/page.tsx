@@ -8,19 +8,19 @@ import { ContainerLabel, LotLabel } from "@/app/labels/label-card";
 import { requestOrigin } from "@/app/labels/origin";
 import { PrintLabels } from "@/app/labels/print-button";
 import { ContainerSheetForm, LotSheetForm } from "@/app/labels/sheet-forms";
+import { queryValue } from "@/app/_ui/links";
+import type { SearchParams } from "@/app/_ui/links";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Labels" };
 
-type Search = Record<string, string | string[] | undefined>;
-const one = (v: string | string[] | undefined) => (Array.isArray(v) ? v[0] : v) ?? "";
 const many = (v: string | string[] | undefined) => (Array.isArray(v) ? v : v ? [v] : []);
 
-export default async function LabelsPage({ searchParams }: { searchParams: Promise<Search> }) {
+export default async function LabelsPage({ searchParams }: { searchParams: Promise<SearchParams> }) {
   const { db, site } = await loadSite();
   if (!site) return <NoSite />;
   const q = await searchParams;
-  const kind = one(q.kind);
+  const kind = queryValue(q.kind);
   const origin = await requestOrigin();
   const recent = await listRecentLotCodes(db, site.id, 40);
   const lotCodes = many(q.lot)
@@ -31,7 +31,7 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
   const missing = lotCodes.filter((c) => !lots.some((l) => l.code === c));
   const range =
     kind === "container"
-      ? containerRange(one(q.prefix) || "C-", Number(one(q.from) || "1"), Number(one(q.to) || "1"))
+      ? containerRange(queryValue(q.prefix) || "C-", Number(queryValue(q.from) || "1"), Number(queryValue(q.to) || "1"))
       : null;
 
   return (
@@ -44,7 +44,11 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
       </p>
       <div className="labels-controls">
         <LotSheetForm recent={recent} chosen={lotCodes} timeZone={site.timeZone} />
-        <ContainerSheetForm prefix={one(q.prefix) || "C-"} from={one(q.from) || "1"} to={one(q.to) || "24"} />
+        <ContainerSheetForm
+          prefix={queryValue(q.prefix) || "C-"}
+          from={queryValue(q.from) || "1"}
+          to={queryValue(q.to) || "24"}
+        />
         {range && !range.ok ? (
           <p className="form-error" role="alert">
             {range.issues.map((i) => i.message).join("; ")}

@@ -3,18 +3,15 @@ import { revalidatePath } from "next/cache";
 import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { setClosureTolerance, setWaterLimits } from "@/lib/mass-balance/site-limits.service";
-import { readNumber, readValues, refused } from "@/app/_ui/kit/form-state";
+import { readNumber, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
+import { actorOf } from "@/lib/core/actor";
 
 // The site's own limits: compliance and administrators change them, each with a reason; the balance,
 // the batch pages and the planner read the newest at once.
 
 const CLOSURE_FIELDS = ["warnPct", "failPct", "reason"] as const;
 const WATER_FIELDS = ["baseStepPct", "acidStepPct", "reason"] as const;
-
-function saved(prev: FormState, message: string): FormState {
-  return { status: "saved", message, values: {}, errors: {}, seq: prev.seq + 1 };
-}
 
 function revalidateReaders(): void {
   revalidatePath("/limits");
@@ -27,7 +24,7 @@ export async function setClosureToleranceAction(prev: FormState, form: FormData)
   const values = readValues(form, CLOSURE_FIELDS);
   const who = await requireRole(["COMPLIANCE", "ADMIN"]);
   if (!who.ok) return refused(prev, values, who.issues, CLOSURE_FIELDS);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   const r = await setClosureTolerance(await getDb(), actor, {
     warnPct: readNumber(form, "warnPct"),
     failPct: readNumber(form, "failPct"),
@@ -42,7 +39,7 @@ export async function setWaterLimitsAction(prev: FormState, form: FormData): Pro
   const values = readValues(form, WATER_FIELDS);
   const who = await requireRole(["COMPLIANCE", "ADMIN"]);
   if (!who.ok) return refused(prev, values, who.issues, WATER_FIELDS);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   const r = await setWaterLimits(await getDb(), actor, {
     baseStepPct: readNumber(form, "baseStepPct"),
     acidStepPct: readNumber(form, "acidStepPct"),

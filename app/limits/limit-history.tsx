@@ -1,5 +1,6 @@
 import type { LimitHistoryRow } from "@/lib/mass-balance/site-limits.store";
 import { when } from "@/app/_ui/format";
+import { TableHead } from "@/app/_ui/kit/table-head";
 
 function what(r: LimitHistoryRow): string {
   if (r.closure) return `Closure tolerance: warn above ${r.closure.warnPct} %, fail above ${r.closure.failPct} %`;
@@ -16,14 +17,7 @@ export function LimitHistory({ rows, timeZone }: { rows: readonly LimitHistoryRo
       <div className="table-wrap">
         <table>
           <caption>Every change to the site&apos;s limits, newest first</caption>
-          <thead>
-            <tr>
-              <th scope="col">When</th>
-              <th scope="col">Who</th>
-              <th scope="col">Set to</th>
-              <th scope="col">Why</th>
-            </tr>
-          </thead>
+          <TableHead headings={["When", "Who", "Set to", "Why"]} />
           <tbody>
             {rows.map((r) => (
               <tr key={r.id}>

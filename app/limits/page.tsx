@@ -12,6 +12,7 @@ import { NoSite, Note } from "@/app/_ui/ui";
 import { ConfidenceMark } from "@/app/_ui/kit";
 import { ClosureToleranceForm, WaterLimitsForm } from "@/app/limits/limits-forms";
 import { LimitHistory } from "@/app/limits/limit-history";
+import { TableHead } from "@/app/_ui/kit/table-head";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Site limits" };
@@ -31,15 +32,7 @@ function LimitTable({ caption, rows }: { caption: string; rows: readonly LimitRo
     <div className="table-wrap">
       <table>
         <caption>{caption}</caption>
-        <thead>
-          <tr>
-            <th scope="col">Limit</th>
-            <th scope="col">In force</th>
-            <th scope="col">Default</th>
-            <th scope="col">Source of the default</th>
-            <th scope="col">Reliance</th>
-          </tr>
-        </thead>
+        <TableHead headings={["Limit", "In force", "Default", "Source of the default", "Reliance"]} />
         <tbody>
           {rows.map((r) => (
             <tr key={r.key}>

@@ -8,16 +8,13 @@ import { readText, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import { redirect } from "next/navigation";
 import { homeFor } from "@/lib/auth/read-matrix";
 import type { FormState } from "@/app/_ui/kit/form-state";
+import { actorOf } from "@/lib/core/actor";
 
 export async function setOwnUnitsAction(prev: FormState, form: FormData): Promise<FormState> {
   const values = readValues(form, ["unitSystem"]);
   const who = await requireRole(SITE_ROLES);
   if (!who.ok) return refused(prev, values, who.issues, ["unitSystem"]);
-  const r = await setOwnUnits(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    values,
-  );
+  const r = await setOwnUnits(await getDb(), actorOf(who.value), values);
   if (!r.ok) return refused(prev, values, r.issues, ["unitSystem"]);
   revalidatePath("/", "layout");
   return saved(
@@ -34,11 +31,11 @@ export async function setOwnUnitsAction(prev: FormState, form: FormData): Promis
 export async function changeOwnPasswordAction(prev: FormState, form: FormData): Promise<FormState> {
   const user = await getSignedIn();
   if (!user) return refused(prev, {}, [{ code: "AUTH.UNAUTHENTICATED", message: "Sign in first" }], []);
-  const r = await changeOwnPassword(
-    await getDb(),
-    { siteId: user.siteId, userId: user.userId, now: user.now },
-    { current: readText(form, "current"), password: readText(form, "password"), confirm: readText(form, "confirm") },
-  );
+  const r = await changeOwnPassword(await getDb(), actorOf(user), {
+    current: readText(form, "current"),
+    password: readText(form, "password"),
+    confirm: readText(form, "confirm"),
+  });
   if (!r.ok) return refused(prev, {}, r.issues, ["current", "password", "confirm"]);
   if (user.mustChangePassword) redirect(homeFor(user.role));
   return saved(prev, "Your new password is saved.");

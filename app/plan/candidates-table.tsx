@@ -6,6 +6,7 @@ import { kg, num, pct } from "@/app/_ui/format";
 import { Empty } from "@/app/_ui/ui";
 import { firstParam } from "@/app/plan/plan-query";
 import type { SearchParams } from "@/app/plan/plan-query";
+import { TableHead, numeric } from "@/app/_ui/kit/table-head";
 
 function CandidateRow({
   c,
@@ -86,29 +87,19 @@ export function CandidatesTable({
     <div className="table-wrap">
       <table>
         <caption>Candidates: accepted lots with stock and feedstock tanks</caption>
-        <thead>
-          <tr>
-            <th scope="col">From</th>
-            <th scope="col">Material or tank</th>
-            <th scope="col" className="num">
-              Holds
-            </th>
-            <th scope="col" className="num">
-              FFA as oleic
-            </th>
-            <th scope="col" className="num">
-              Water
-            </th>
-            <th scope="col" className="num">
-              Age
-            </th>
-            <th scope="col">Cost per kg</th>
-            <th scope="col">Leave out</th>
-            <th scope="col" className="num">
-              Proposed draw
-            </th>
-          </tr>
-        </thead>
+        <TableHead
+          headings={[
+            "From",
+            "Material or tank",
+            numeric("Holds"),
+            numeric("FFA as oleic"),
+            numeric("Water"),
+            numeric("Age"),
+            "Cost per kg",
+            "Leave out",
+            numeric("Proposed draw"),
+          ]}
+        />
         <tbody>
           {candidates.map((c) => (
             <CandidateRow

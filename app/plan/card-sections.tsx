@@ -5,6 +5,7 @@ import { levelOf, screenText } from "@/lib/spec/source-text";
 import { labelOf } from "@/lib/core/vocabulary";
 import { formatFixed } from "@/lib/quantity/units";
 import { ConfidenceMark } from "@/app/_ui/kit";
+import { TableHead, numeric } from "@/app/_ui/kit/table-head";
 
 // The recipe card's steps, one component each; the card (recipe-card.tsx) puts them in order.
 
@@ -36,23 +37,15 @@ export function CardDraws({ card }: { card: RecipeCard }) {
     <section aria-labelledby="card-draws-h">
       <h3 id="card-draws-h">1. Oil to draw ({PLAN_OBJECTIVE_LABELS[card.objective]})</h3>
       <table>
-        <thead>
-          <tr>
-            <th scope="col">From</th>
-            <th scope="col" className="num">
-              Mass
-            </th>
-            <th scope="col" className="num">
-              FFA as oleic
-            </th>
-            <th scope="col" className="num">
-              Water
-            </th>
-            <th scope="col" className="tick">
-              Drawn
-            </th>
-          </tr>
-        </thead>
+        <TableHead
+          headings={[
+            "From",
+            numeric("Mass"),
+            numeric("FFA as oleic"),
+            numeric("Water"),
+            { header: "Drawn", align: "tick" },
+          ]}
+        />
         <tbody>
           {card.draws.map((d) => (
             <tr key={d.ref}>

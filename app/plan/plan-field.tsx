@@ -42,3 +42,55 @@ export function Field({
     </div>
   );
 }
+
+/** One number the planner asks for: its name in the query, its label, what the empty box shows, and its hint. */
+export interface PlanInput {
+  name: string;
+  label: string;
+  placeholder?: string;
+  hint?: ReactNode;
+}
+
+/** A run of planner inputs in the order given, each keeping what was asked and its message. */
+export function PlanInputs({
+  inputs,
+  params,
+  errors,
+}: {
+  inputs: readonly PlanInput[];
+  params: SearchParams;
+  errors: Record<string, string>;
+}) {
+  return inputs.map((i) => <Field key={i.name} {...i} params={params} errors={errors} />);
+}
+
+/** A planner's choice from a fixed list, kept in the query string, with its message. */
+export function PlanChoice({
+  name,
+  label,
+  value,
+  options,
+  errors,
+}: {
+  name: string;
+  label: string;
+  value: string;
+  options: ReadonlyArray<readonly [value: string, label: string]>;
+  errors: Record<string, string>;
+}) {
+  return (
+    <div className="field">
+      <label>
+        {label}
+        <select name={name} defaultValue={value}>
+          {options.map(([v, l]) => (
+            <option key={v} value={v}>
+              {l}
+            </option>
+          ))}
+        </select>
+      </label>
+      {errors[name] ? <span className="field-error">{errors[name]}</span> : null}
+    </div>
+  );
+}

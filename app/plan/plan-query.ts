@@ -1,6 +1,7 @@
 import { toNumber } from "@/app/_ui/kit/form-state";
+import type { SearchParams } from "@/app/_ui/links";
 
-export type SearchParams = Record<string, string | string[] | undefined>;
+export type { SearchParams };
 
 /** Number fields of the planning form, in the order they appear. */
 export const PLAN_NUMBER_FIELDS = [

@@ -4,6 +4,7 @@ import type { SourcedValue } from "@/lib/chemistry/sourced-value";
 import { kg, pct } from "@/app/_ui/format";
 import { RecipeCardView } from "@/app/plan/recipe-card";
 import { RecordPlanForm } from "@/app/plan/record-form";
+import { TableHead, numeric } from "@/app/_ui/kit/table-head";
 
 /** The draws proposed for a plan that worked out, its card, and (for production) the form to record it. */
 export function ProposedDraws({
@@ -26,20 +27,7 @@ export function ProposedDraws({
       <h2 id="proposal-h">Proposed draws</h2>
       <div className="table-wrap">
         <table>
-          <thead>
-            <tr>
-              <th scope="col">Draw from</th>
-              <th scope="col" className="num">
-                Mass
-              </th>
-              <th scope="col" className="num">
-                FFA as oleic
-              </th>
-              <th scope="col" className="num">
-                Water
-              </th>
-            </tr>
-          </thead>
+          <TableHead headings={["Draw from", numeric("Mass"), numeric("FFA as oleic"), numeric("Water")]} />
           <tbody>
             {outcome.card.draws.map((d) => (
               <tr key={d.ref}>

@@ -10,6 +10,7 @@ import { labelOf } from "@/lib/core/vocabulary";
 import type { DomainIssue } from "@/lib/core/result";
 import type { FormState } from "@/app/_ui/kit/form-state";
 import { readText, refused, saved, toNumber } from "@/app/_ui/kit/form-state";
+import { actorOf } from "@/lib/core/actor";
 
 const FIELDS = ["code", "volume", "temp", "notes", "pickups", "tankCode", "acceptReason"] as const;
 const RENAME: Readonly<Record<string, string>> = {
@@ -49,7 +50,7 @@ export async function receivePickupsAction(prev: FormState, form: FormData): Pro
       },
     ]);
   }
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   const input = {
     code: values.code,
     material: materials[0] ?? "USED_COOKING_OIL",

@@ -3,11 +3,12 @@ import Link from "next/link";
 import { DataTable } from "@/app/_ui/kit";
 import type { Column } from "@/app/_ui/kit";
 import { loadSite } from "@/app/_ui/site";
-import { describeEditions, gradesText } from "@/lib/spec/catalogue";
+import { describeEditions } from "@/lib/spec/catalogue";
 import type { CatalogueEdition, CatalogueProperty } from "@/lib/spec/catalogue";
 import { balanceDefaults, recipeDefaults, screeningDefaults, wasteDefaults } from "@/app/references/default-sources";
 import type { DefaultGroup, DefaultSource, SourceLevel } from "@/app/references/default-sources";
 import { LOCAL_RULES_NOTE } from "@/lib/waste/waste-due";
+import { GradeLimits } from "@/app/_ui/grade-limits";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "References" };
@@ -41,15 +42,7 @@ function specColumns(e: CatalogueEdition): Array<Column<CatalogueProperty>> {
     {
       key: "limit",
       header: "Limit",
-      cell: (p) => (
-        <ul className="plain">
-          {p.limits.map((l) => (
-            <li key={l.text}>
-              {l.text} <span className="muted">({gradesText(l.grades, e)})</span>
-            </li>
-          ))}
-        </ul>
-      ),
+      cell: (p) => <GradeLimits property={p} edition={e} />,
     },
     { key: "method", header: "Test method", cell: (p) => p.method },
     { key: "source", header: "Published source", cell: (p) => p.sources.join("; ") },

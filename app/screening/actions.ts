@@ -9,6 +9,7 @@ import { clearSource, decideFlag, saveSourceProfile } from "@/lib/screening/deci
 import { screenPeriod } from "@/lib/screening/screening.service";
 import { readNumber, readText, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
+import { actorOf } from "@/lib/core/actor";
 
 /**
  * Checks the role (source checks are compliance's work, checked on the server for each call), runs the
@@ -22,7 +23,7 @@ async function asCompliance<T>(
 ): Promise<{ ok: true; value: T } | { ok: false; state: FormState }> {
   const who = await requireRole(["COMPLIANCE"]);
   if (!who.ok) return { ok: false, state: refused(prev, values, who.issues, fields) };
-  const r = await run(await getDb(), { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now });
+  const r = await run(await getDb(), actorOf(who.value));
   if (!r.ok) return { ok: false, state: refused(prev, values, r.issues, fields) };
   return { ok: true, value: r.value };
 }

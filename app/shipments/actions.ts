@@ -8,6 +8,7 @@ import { readNumber, readText, readValues, refused, saved } from "@/app/_ui/kit/
 import type { FormState } from "@/app/_ui/kit/form-state";
 import { toSiteInstant } from "@/app/trace/site-time";
 import { formFieldOf, lineCountOf, lineFieldNames, SHIPMENT_FIELDS } from "@/app/shipments/form-fields";
+import { actorOf } from "@/lib/core/actor";
 
 // Shipments are recorded by compliance staff; checked on the server for each call.
 
@@ -31,7 +32,7 @@ export async function recordShipmentAction(prev: FormState, form: FormData): Pro
   if (!who.ok) return refused(prev, values, who.issues, known);
   const db = await getDb();
   const site = await getSiteById(db, who.value.siteId);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   const claim = readText(form, "certifiedClaim");
   const r = await recordShipment(db, actor, {
     documentNo: readText(form, "documentNo"),

@@ -6,6 +6,7 @@ import { requireRole } from "@/lib/auth/request.service";
 import { saveSiteSpec } from "@/lib/spec/site-spec.service";
 import { readNumber, readText, refused, toNumber } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
+import { actorOf } from "@/lib/core/actor";
 
 // Site specifications are written by compliance staff, checked on the server for each call.
 
@@ -42,18 +43,14 @@ export async function saveSiteSpecAction(prev: FormState, form: FormData): Promi
   if (!who.ok) return refused(prev, values, who.issues, known);
   const customerId = readNumber(form, "customerId");
   const previousVersion = readNumber(form, "previousVersion");
-  const r = await saveSiteSpec(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    {
-      baseKey: readText(form, "baseKey"),
-      name: readText(form, "name"),
-      ...(customerId === undefined ? {} : { customerId }),
-      ...(previousVersion === undefined ? {} : { previousVersion }),
-      limits,
-      reason: readText(form, "reason"),
-    },
-  );
+  const r = await saveSiteSpec(await getDb(), actorOf(who.value), {
+    baseKey: readText(form, "baseKey"),
+    name: readText(form, "name"),
+    ...(customerId === undefined ? {} : { customerId }),
+    ...(previousVersion === undefined ? {} : { previousVersion }),
+    limits,
+    reason: readText(form, "reason"),
+  });
   if (!r.ok) return refused(prev, values, r.issues, known, renameField);
   revalidatePath("/specs");
   revalidatePath("/specs/site/[id]", "page");

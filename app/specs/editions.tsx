@@ -1,7 +1,8 @@
 import { ConfidenceMark, DataTable } from "@/app/_ui/kit";
 import type { Column } from "@/app/_ui/kit";
-import { describeEditions, gradesText } from "@/lib/spec/catalogue";
+import { describeEditions } from "@/lib/spec/catalogue";
 import type { CatalogueEdition, CatalogueProperty } from "@/lib/spec/catalogue";
+import { GradeLimits } from "@/app/_ui/grade-limits";
 
 function columns(e: CatalogueEdition): Array<Column<CatalogueProperty>> {
   return [
@@ -10,18 +11,7 @@ function columns(e: CatalogueEdition): Array<Column<CatalogueProperty>> {
     {
       key: "limit",
       header: "Limit",
-      cell: (p) =>
-        p.limits.length === 1 ? (
-          p.limits[0]?.text
-        ) : (
-          <ul className="plain">
-            {p.limits.map((l) => (
-              <li key={l.text}>
-                {l.text} <span className="muted">({gradesText(l.grades, e)})</span>
-              </li>
-            ))}
-          </ul>
-        ),
+      cell: (p) => (p.limits.length === 1 ? p.limits[0]?.text : <GradeLimits property={p} edition={e} />),
     },
     {
       key: "note",

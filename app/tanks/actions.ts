@@ -8,6 +8,7 @@ import { gramsToKg } from "@/lib/quantity/units";
 import { readNumber, readText, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 import { toSiteInstant } from "@/app/trace/site-time";
+import { actorOf } from "@/lib/core/actor";
 
 // Moves into tanks and gauge readings, by production staff; every check is the service's.
 
@@ -48,11 +49,7 @@ export async function moveToTankAction(prev: FormState, form: FormData): Promise
     volumeL: readNumber(form, "volumeL"),
     tempC: readNumber(form, "tempC"),
   };
-  const r = await transferToTank(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    input,
-  );
+  const r = await transferToTank(await getDb(), actorOf(who.value), input);
   if (!r.ok) return refused(prev, values, r.issues, MOVE_SHOWN);
   revalidatePath("/tanks");
   revalidatePath("/lots/[code]", "page");
@@ -80,11 +77,7 @@ export async function recordGaugeAction(prev: FormState, form: FormData): Promis
     ...(method === "LEVEL" ? { levelMm: readNumber(form, "levelMm") } : { volumeL: readNumber(form, "volumeL") }),
     ...(density === undefined ? {} : { densityKgM3: density }),
   };
-  const r = await recordGauge(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    input,
-  );
+  const r = await recordGauge(await getDb(), actorOf(who.value), input);
   if (!r.ok) return refused(prev, values, r.issues, GAUGE_SHOWN);
   revalidatePath("/tanks");
   revalidatePath("/tanks/[code]", "page");

@@ -1,6 +1,7 @@
 import Link from "next/link";
 import type { CustomerShare, ShipmentCustomer } from "@/lib/trace/customers";
 import { kg, pct } from "@/app/_ui/format";
+import { TableHead, numeric } from "@/app/_ui/kit/table-head";
 
 /** A customer's name, linked to their page when the shipment was recorded against a customer record. */
 export function CustomerName({ customer }: { customer: ShipmentCustomer }) {
@@ -20,20 +21,7 @@ export function CustomerShares({ rows, enteredG }: { rows: readonly CustomerShar
       <h3>Shipped to customers</h3>
       <div className="table-wrap">
         <table>
-          <thead>
-            <tr>
-              <th scope="col">Customer</th>
-              <th scope="col" className="num">
-                Shipments
-              </th>
-              <th scope="col" className="num">
-                Of it shipped
-              </th>
-              <th scope="col" className="num">
-                Share
-              </th>
-            </tr>
-          </thead>
+          <TableHead headings={["Customer", numeric("Shipments"), numeric("Of it shipped"), numeric("Share")]} />
           <tbody>
             {rows.map((r) => (
               <tr key={r.customer.code ?? r.customer.name}>

@@ -11,15 +11,11 @@ import { BackwardResult } from "@/app/trace/backward-result";
 import { ForwardResult } from "@/app/trace/forward-result";
 import { toSiteInstant } from "@/app/trace/site-time";
 import { canRead } from "@/lib/auth/read-matrix";
+import { queryValue } from "@/app/_ui/links";
+import type { SearchParams } from "@/app/_ui/links";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Trace" };
-
-type Search = Record<string, string | string[] | undefined>;
-
-function one(v: string | string[] | undefined): string {
-  return (Array.isArray(v) ? v[0] : v) ?? "";
-}
 
 const KIND_WORDS: Readonly<Record<string, string>> = {
   PRODUCT_LOT: "Product lot",
@@ -31,15 +27,15 @@ const KIND_WORDS: Readonly<Record<string, string>> = {
   LOT: "Feedstock lot",
 };
 
-export default async function TracePage({ searchParams }: { searchParams: Promise<Search> }) {
+export default async function TracePage({ searchParams }: { searchParams: Promise<SearchParams> }) {
   const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const sp = await searchParams;
-  const dir = one(sp.dir);
-  const kind = one(sp.kind);
-  const code = one(sp.code);
-  const atLocal = one(sp.at);
-  const view = one(sp.view) === "feedstock" ? "feedstock" : "all";
+  const dir = queryValue(sp.dir);
+  const kind = queryValue(sp.kind);
+  const code = queryValue(sp.code);
+  const atLocal = queryValue(sp.at);
+  const view = queryValue(sp.view) === "feedstock" ? "feedstock" : "all";
   const tz = site.timeZone;
   const choices = await listTraceChoices(db, site.id);
   const back =

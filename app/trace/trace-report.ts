@@ -3,6 +3,7 @@
 import { labelOf } from "@/lib/core/vocabulary";
 import { reportTime } from "@/lib/report/report";
 import type { ReportContext, ReportDoc, ReportTable } from "@/lib/report/report";
+import { composeReport } from "@/lib/report/report";
 import type { BackwardTraceReport, ContributionRow } from "@/lib/trace/trace.service";
 
 function contributions(
@@ -30,38 +31,36 @@ function contributions(
 export function buildBackwardTraceDoc(r: BackwardTraceReport, ctx: ReportContext): ReportDoc {
   const t = r.all;
   const what = `${labelOf(r.target.kind)} ${r.target.code}`;
-  return {
-    slug: "made-of",
-    title: "Trace report: what it is made of",
-    plant: ctx.plant,
-    subject:
-      r.basis === "STOCK"
-        ? `${what}, what it held${r.asOf ? ` at ${reportTime(r.asOf.at, ctx.timeZone)}` : ""}`
-        : `${what}, everything it received`,
-    producedAt: ctx.producedAt,
-    producedBy: ctx.producedBy,
-    timeZone: ctx.timeZone,
-    ledger: { movements: r.freshness.movements, lastMoveId: r.freshness.lastMoveId },
-    facts: [
-      ["Traced", `${(r.totalG / 1000).toFixed(3)} kg`],
-      ["Feedstock", `${(r.feedstock.totalG / 1000).toFixed(3)} kg`],
-      ["Reagents", `${(r.reagentsG / 1000).toFixed(3)} kg`],
-      ["Origins", String(r.origins.length)],
-    ],
-    notes: [
-      "Masses come from replaying the movement ledger under each tank's mixing model, in whole grams; each table adds up exactly to its total.",
-    ],
-    cautions: [],
-    tables: [
-      contributions("sources", "By source", "Source", t.bySource, t.totalG),
-      contributions("lots", "By feedstock lot", "Lot", t.byLot, t.totalG),
-      contributions("pickups", "By pickup", "Pickup", t.byPickup, t.totalG),
-      contributions("materials", "By material kind", "Material", t.byMaterial, t.totalG),
-      contributions("certification", "By certification", "Status", t.byCertification, t.totalG),
-      {
-        ...contributions("reagents", "Reagents", "Reagent lot", r.reagents, r.reagentsG),
-        total: ["TOTAL", null, r.reagentsG, r.totalG === 0 ? 0 : (r.reagentsG * 100) / r.totalG],
-      },
-    ],
-  };
+  return composeReport(
+    {
+      slug: "made-of",
+      title: "Trace report: what it is made of",
+      subject:
+        r.basis === "STOCK"
+          ? `${what}, what it held${r.asOf ? ` at ${reportTime(r.asOf.at, ctx.timeZone)}` : ""}`
+          : `${what}, everything it received`,
+      facts: [
+        ["Traced", `${(r.totalG / 1000).toFixed(3)} kg`],
+        ["Feedstock", `${(r.feedstock.totalG / 1000).toFixed(3)} kg`],
+        ["Reagents", `${(r.reagentsG / 1000).toFixed(3)} kg`],
+        ["Origins", String(r.origins.length)],
+      ],
+      notes: [
+        "Masses come from replaying the movement ledger under each tank's mixing model, in whole grams; each table adds up exactly to its total.",
+      ],
+      tables: [
+        contributions("sources", "By source", "Source", t.bySource, t.totalG),
+        contributions("lots", "By feedstock lot", "Lot", t.byLot, t.totalG),
+        contributions("pickups", "By pickup", "Pickup", t.byPickup, t.totalG),
+        contributions("materials", "By material kind", "Material", t.byMaterial, t.totalG),
+        contributions("certification", "By certification", "Status", t.byCertification, t.totalG),
+        {
+          ...contributions("reagents", "Reagents", "Reagent lot", r.reagents, r.reagentsG),
+          total: ["TOTAL", null, r.reagentsG, r.totalG === 0 ? 0 : (r.reagentsG * 100) / r.totalG],
+        },
+      ],
+    },
+    ctx,
+    { movements: r.freshness.movements, lastMoveId: r.freshness.lastMoveId },
+  );
 }

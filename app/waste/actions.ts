@@ -12,8 +12,9 @@ import {
 } from "@/lib/waste/container.service";
 import { chooseWasteRules } from "@/lib/waste/site-rules.service";
 import { toSiteInstant } from "@/app/trace/site-time";
-import { readNumber, readText, readValues, refused } from "@/app/_ui/kit/form-state";
+import { readNumber, readText, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
+import { actorOf } from "@/lib/core/actor";
 
 // Waste container records: production and compliance open, characterise and mark full; compliance
 // records the haul-away under its manifest. Each call checks the role on the server first.
@@ -29,10 +30,6 @@ async function siteInstant(siteId: number, local: string | undefined): Promise<s
   return toSiteInstant(local, site?.timeZone ?? "UTC");
 }
 
-function saved(prev: FormState, message: string): FormState {
-  return { status: "saved", message, values: {}, errors: {}, seq: prev.seq + 1 };
-}
-
 function revalidateWaste(code: string): void {
   revalidatePath("/waste");
   revalidatePath("/waste/due");
@@ -43,7 +40,7 @@ export async function openContainerAction(prev: FormState, form: FormData): Prom
   const values = readValues(form, OPEN_FIELDS);
   const who = await requireRole(["PRODUCTION", "COMPLIANCE"]);
   if (!who.ok) return refused(prev, values, who.issues, OPEN_FIELDS);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   const r = await openWasteContainer(await getDb(), actor, {
     code: values.code,
     stream: values.stream,
@@ -61,7 +58,7 @@ export async function recordCharacterisationAction(prev: FormState, form: FormDa
   const values = readValues(form, LAB_FIELDS);
   const who = await requireRole(["PRODUCTION", "COMPLIANCE"]);
   if (!who.ok) return refused(prev, values, who.issues, LAB_FIELDS);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   const r = await recordCharacterisation(await getDb(), actor, {
     containerCode: readText(form, "containerCode"),
     testedAt: await siteInstant(actor.siteId, values.testedAt),
@@ -79,7 +76,7 @@ export async function markFullAction(prev: FormState, form: FormData): Promise<F
   const values = readValues(form, FULL_FIELDS);
   const who = await requireRole(["PRODUCTION", "COMPLIANCE"]);
   if (!who.ok) return refused(prev, values, who.issues, FULL_FIELDS);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   const r = await markContainerFull(await getDb(), actor, {
     containerCode: readText(form, "containerCode"),
     fullAt: await siteInstant(actor.siteId, values.fullAt),
@@ -93,7 +90,7 @@ export async function recordHaulAction(prev: FormState, form: FormData): Promise
   const values = readValues(form, HAUL_FIELDS);
   const who = await requireRole(["COMPLIANCE"]);
   if (!who.ok) return refused(prev, values, who.issues, HAUL_FIELDS);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   const r = await recordDisposal(await getDb(), actor, {
     containerCode: readText(form, "containerCode"),
     documentNo: values.documentNo,
@@ -129,7 +126,7 @@ export async function chooseWasteRulesAction(prev: FormState, form: FormData): P
   const values = readValues(form, RULE_FIELDS);
   const who = await requireRole(["COMPLIANCE", "ADMIN"]);
   if (!who.ok) return refused(prev, values, who.issues, RULE_FIELDS);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   const r = await chooseWasteRules(await getDb(), actor, {
     choice: values.choice,
     generatorCategory: values.generatorCategory,

@@ -9,6 +9,7 @@ import { loadSite } from "@/app/_ui/site";
 import { CodeLink, HistoryLink, NoSite, Note, Status } from "@/app/_ui/ui";
 import { Cautions, DataTable } from "@/app/_ui/kit";
 import { OpenContainerForm } from "@/app/waste/container-forms";
+import { haulColumns } from "@/app/waste/haul-columns";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Waste" };
@@ -173,14 +174,7 @@ function DisposalsTable({ disposals, timeZone }: { disposals: DisposalRow[]; tim
       rowId={(d) => d.documentNo}
       empty="No waste has been hauled away yet."
       columns={[
-        { key: "doc", header: "Manifest or document", cell: (d) => d.documentNo },
-        { key: "at", header: "Collected", cell: (d) => when(d.disposedAt, timeZone) },
-        { key: "hauler", header: "Hauler", cell: (d) => d.hauler },
-        {
-          key: "dest",
-          header: "Destination facility",
-          cell: (d) => d.destination || <span className="muted">not recorded</span>,
-        },
+        ...haulColumns<DisposalRow>(timeZone),
         {
           key: "from",
           header: "From containers",

@@ -104,6 +104,34 @@ export function ledgerText(l: ReportDoc["ledger"]): string {
   return l.lastMoveId === null ? "no movements yet" : `${l.movements} movements, last movement no. ${l.lastMoveId}`;
 }
 
+/** What a report says for itself; the rest of the document comes from where and when it was produced. */
+export type ReportBody = Pick<ReportDoc, "slug" | "title" | "subject" | "facts" | "notes" | "tables"> & {
+  cautions?: string[];
+};
+
+/** A report document: its own parts with the plant, who produced it and when, and where the ledger stood. */
+export function composeReport(body: ReportBody, ctx: ReportContext, ledger: ReportDoc["ledger"]): ReportDoc {
+  return {
+    slug: body.slug,
+    title: body.title,
+    plant: ctx.plant,
+    subject: body.subject,
+    producedAt: ctx.producedAt,
+    producedBy: ctx.producedBy,
+    timeZone: ctx.timeZone,
+    ledger,
+    facts: body.facts,
+    notes: body.notes,
+    cautions: body.cautions ?? [],
+    tables: body.tables,
+  };
+}
+
+/** A period's days as printed: its first day to its last (the end is the start of the day after). */
+export function periodDays(startsAt: Date, endsAt: Date, timeZone: string): string {
+  return `${reportDay(startsAt, timeZone)} to ${reportDay(new Date(endsAt.getTime() - 1), timeZone)}`;
+}
+
 /** The header lines every report carries. */
 export function headerLines(doc: ReportDoc): Array<[string, string]> {
   return [

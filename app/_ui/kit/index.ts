@@ -8,3 +8,5 @@ export { ConfidenceMark } from "@/app/_ui/kit/confidence-mark";
 export { RowsForm } from "@/app/_ui/kit/rows-form";
 export { FormMessage } from "@/app/_ui/kit/form-message";
 export type { RowColumn, RowField, RowValues } from "@/app/_ui/kit/rows-form";
+export { TableHead, numeric } from "@/app/_ui/kit/table-head";
+export type { Heading } from "@/app/_ui/kit/table-head";

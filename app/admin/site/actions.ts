@@ -5,6 +5,7 @@ import { requireRole } from "@/lib/auth/request.service";
 import { setGs1CompanyPrefix } from "@/lib/site/site-settings.service";
 import { readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
+import { actorOf } from "@/lib/core/actor";
 
 const FIELDS = ["gs1CompanyPrefix", "reason"] as const;
 
@@ -13,11 +14,7 @@ export async function setGs1PrefixAction(prev: FormState, form: FormData): Promi
   const values = readValues(form, FIELDS);
   const who = await requireRole(["ADMIN"]);
   if (!who.ok) return refused(prev, values, who.issues, FIELDS);
-  const r = await setGs1CompanyPrefix(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    values,
-  );
+  const r = await setGs1CompanyPrefix(await getDb(), actorOf(who.value), values);
   if (!r.ok) return refused(prev, values, r.issues, FIELDS);
   revalidatePath("/admin/site");
   const message =

@@ -5,6 +5,7 @@ import { requireRole } from "@/lib/auth/request.service";
 import { changeUser, createUser, endSessions, resetPassword, unlockSignIn } from "@/lib/auth/user.service";
 import { readText, readValues, refused } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
+import { actorOf } from "@/lib/core/actor";
 
 // Every account change is an administrator's, checked here on the server for each call.
 
@@ -29,11 +30,7 @@ export async function createUserAction(prev: FormState, form: FormData): Promise
     unitSystem: readText(form, "unitSystem") || undefined,
     password: rawText(form, "password"),
   };
-  const r = await createUser(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    input,
-  );
+  const r = await createUser(await getDb(), actorOf(who.value), input);
   if (!r.ok) return refused(prev, values, r.issues, CREATE_FIELDS);
   return saved(prev, `Account ${r.value.login} created; give them the password in person.`);
 }
@@ -49,11 +46,7 @@ export async function changeUserAction(prev: FormState, form: FormData): Promise
     ...(values.unitSystem ? { unitSystem: values.unitSystem } : {}),
     ...(values.active === "yes" ? { active: true } : values.active === "no" ? { active: false } : {}),
   };
-  const r = await changeUser(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    input,
-  );
+  const r = await changeUser(await getDb(), actorOf(who.value), input);
   if (!r.ok) return refused(prev, values, r.issues, CHANGE_FIELDS);
   return saved(
     prev,
@@ -65,11 +58,11 @@ export async function resetPasswordAction(prev: FormState, form: FormData): Prom
   const values: Record<string, string> = { ...readValues(form, RESET_FIELDS), password: "" };
   const who = await requireRole(["ADMIN"]);
   if (!who.ok) return refused(prev, values, who.issues, RESET_FIELDS);
-  const r = await resetPassword(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    { login: readText(form, "login"), reason: readText(form, "reason"), password: rawText(form, "password") },
-  );
+  const r = await resetPassword(await getDb(), actorOf(who.value), {
+    login: readText(form, "login"),
+    reason: readText(form, "reason"),
+    password: rawText(form, "password"),
+  });
   if (!r.ok) return refused(prev, values, r.issues, RESET_FIELDS);
   return saved(
     prev,
@@ -81,11 +74,10 @@ export async function endSessionsAction(prev: FormState, form: FormData): Promis
   const values = readValues(form, ["login", "reason"]);
   const who = await requireRole(["ADMIN"]);
   if (!who.ok) return refused(prev, values, who.issues, ["login", "reason"]);
-  const r = await endSessions(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    { login: readText(form, "login"), reason: values.reason },
-  );
+  const r = await endSessions(await getDb(), actorOf(who.value), {
+    login: readText(form, "login"),
+    reason: values.reason,
+  });
   if (!r.ok) return refused(prev, values, r.issues, ["login", "reason"]);
   return saved(
     prev,
@@ -97,11 +89,10 @@ export async function unlockSignInAction(prev: FormState, form: FormData): Promi
   const values = readValues(form, ["login", "reason"]);
   const who = await requireRole(["ADMIN"]);
   if (!who.ok) return refused(prev, values, who.issues, ["login", "reason"]);
-  const r = await unlockSignIn(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    { login: readText(form, "login"), reason: values.reason },
-  );
+  const r = await unlockSignIn(await getDb(), actorOf(who.value), {
+    login: readText(form, "login"),
+    reason: values.reason,
+  });
   if (!r.ok) return refused(prev, values, r.issues, ["login", "reason"]);
   return saved(prev, `${r.value.login} may sign in again at once; earlier failed attempts no longer count.`);
 }

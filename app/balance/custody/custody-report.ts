@@ -1,8 +1,8 @@
 // The chain-of-custody statement for a balance period: certified inputs by characteristic set,
 // conversions per batch, certified claims on shipments and each account's period figures. Built from
 // the custody page's own answer, so the page, CSV and PDF agree. Pure.
-import { reportDay } from "@/lib/report/report";
 import type { ReportContext, ReportDoc, ReportTable } from "@/lib/report/report";
+import { composeReport, periodDays } from "@/lib/report/report";
 import type { CustodyReport } from "@/lib/custody/custody.service";
 
 /** Certified inputs and the conversions of the batches finished in the period. */
@@ -104,24 +104,22 @@ function claimTables(r: CustodyReport, inPeriod: (at: Date) => boolean): ReportT
 
 export function buildCustodyDoc(r: CustodyReport, ctx: ReportContext): ReportDoc {
   const inPeriod = (at: Date) => at >= r.selected.startsAt && at < r.selected.endsAt;
-  return {
-    slug: "custody",
-    title: "Chain-of-custody statement",
-    plant: ctx.plant,
-    subject: `Balance period ${r.selected.label}: ${reportDay(r.selected.startsAt, ctx.timeZone)} to ${reportDay(new Date(r.selected.endsAt.getTime() - 1), ctx.timeZone)}`,
-    producedAt: ctx.producedAt,
-    producedBy: ctx.producedBy,
-    timeZone: ctx.timeZone,
-    ledger: { movements: r.trace.movements, lastMoveId: r.trace.lastMoveId },
-    facts: [
-      ["Rule set", r.ruleSet.name],
-      ["Operator", r.query.operatorType],
-      ["Bookings that exceeded the balance", r.failures.length === 0 ? "none" : String(r.failures.length)],
-    ],
-    notes: [
-      "Mass balance: certified input is credited by characteristic set, converted at each batch's measured yield, and debited by certified claims on shipments.",
-    ],
-    cautions: [],
-    tables: [...inputTables(r, inPeriod), ...claimTables(r, inPeriod)],
-  };
+  return composeReport(
+    {
+      slug: "custody",
+      title: "Chain-of-custody statement",
+      subject: `Balance period ${r.selected.label}: ${periodDays(r.selected.startsAt, r.selected.endsAt, ctx.timeZone)}`,
+      facts: [
+        ["Rule set", r.ruleSet.name],
+        ["Operator", r.query.operatorType],
+        ["Bookings that exceeded the balance", r.failures.length === 0 ? "none" : String(r.failures.length)],
+      ],
+      notes: [
+        "Mass balance: certified input is credited by characteristic set, converted at each batch's measured yield, and debited by certified claims on shipments.",
+      ],
+      tables: [...inputTables(r, inPeriod), ...claimTables(r, inPeriod)],
+    },
+    ctx,
+    { movements: r.trace.movements, lastMoveId: r.trace.lastMoveId },
+  );
 }

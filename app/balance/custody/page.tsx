@@ -15,30 +15,27 @@ import {
   InputsTable,
   RunningBalance,
 } from "@/app/balance/custody/custody-tables";
+import { queryValue } from "@/app/_ui/links";
+import type { SearchParams } from "@/app/_ui/links";
+import { QueryForm } from "@/app/_ui/query-form";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Chain of custody" };
-
-type Search = Record<string, string | string[] | undefined>;
-
-function one(v: string | string[] | undefined): string {
-  return (Array.isArray(v) ? v[0] : v) ?? "";
-}
 
 const OPERATOR_WORDS: Readonly<Record<string, string>> = {
   OTHER_OPERATOR: "Processing plant or trader (other operator)",
   AGRI_FOREST_PRODUCER_OR_FIRST_GATHERING_POINT: "Producer of biomass or first gathering point",
 };
 
-export default async function CustodyPage({ searchParams }: { searchParams: Promise<Search> }) {
+export default async function CustodyPage({ searchParams }: { searchParams: Promise<SearchParams> }) {
   const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const sp = await searchParams;
   const typed = {
-    period: one(sp.period),
-    operatorType: one(sp.operatorType),
-    claimKg: one(sp.claimKg),
-    claimSet: one(sp.claimSet),
+    period: queryValue(sp.period),
+    operatorType: queryValue(sp.operatorType),
+    claimKg: queryValue(sp.claimKg),
+    claimSet: queryValue(sp.claimSet),
   };
   const result = await getCustodyReport(db, site, typed, user.now);
   const tz = site.timeZone;
@@ -82,66 +79,51 @@ function CustodyForm({
 }) {
   const bad = (f: string) => (issues.some((i) => i.field === f) ? true : undefined);
   return (
-    <form method="get" action="/balance/custody" className="query-form" noValidate>
-      <fieldset>
-        <legend>Balance period and claim check</legend>
-        <label>
-          Balance period
-          {report ? (
-            <select name="period" defaultValue={report.query.period}>
-              {report.periods.map((p) => (
-                <option key={p.label} value={p.label}>
-                  {p.label}
-                  {p.closed ? "" : " (open)"}
-                </option>
-              ))}
-            </select>
-          ) : (
-            <input name="period" defaultValue={typed.period} size={9} aria-invalid={bad("period")} />
-          )}
-        </label>
-        <label>
-          Operator type
-          <select
-            name="operatorType"
-            defaultValue={report?.query.operatorType ?? (typed.operatorType || "OTHER_OPERATOR")}
-          >
-            {OPERATOR_TYPES.map((o) => (
-              <option key={o} value={o}>
-                {OPERATOR_WORDS[o] ?? o}
+    <QueryForm action="/balance/custody" legend="Balance period and claim check" submitLabel="Show" issues={issues}>
+      <label>
+        Balance period
+        {report ? (
+          <select name="period" defaultValue={report.query.period}>
+            {report.periods.map((p) => (
+              <option key={p.label} value={p.label}>
+                {p.label}
+                {p.closed ? "" : " (open)"}
               </option>
             ))}
           </select>
-        </label>
-        <label>
-          Try a claim now (kg of ester)
-          <input
-            name="claimKg"
-            inputMode="decimal"
-            size={9}
-            defaultValue={typed.claimKg}
-            aria-invalid={bad("claimKg")}
-          />
-        </label>
-        <label>
-          Against set
-          <select name="claimSet" defaultValue={typed.claimSet}>
-            <option value="">the set with the most credit</option>
-            {(report?.sets ?? []).map((s) => (
-              <option key={s.key} value={s.key}>
-                {s.key}
-              </option>
-            ))}
-          </select>
-        </label>
-        <button type="submit">Show</button>
-        {issues.map((i) => (
-          <p key={`${i.field ?? ""}${i.message}`} className="form-error" role="alert">
-            {i.message}
-          </p>
-        ))}
-      </fieldset>
-    </form>
+        ) : (
+          <input name="period" defaultValue={typed.period} size={9} aria-invalid={bad("period")} />
+        )}
+      </label>
+      <label>
+        Operator type
+        <select
+          name="operatorType"
+          defaultValue={report?.query.operatorType ?? (typed.operatorType || "OTHER_OPERATOR")}
+        >
+          {OPERATOR_TYPES.map((o) => (
+            <option key={o} value={o}>
+              {OPERATOR_WORDS[o] ?? o}
+            </option>
+          ))}
+        </select>
+      </label>
+      <label>
+        Try a claim now (kg of ester)
+        <input name="claimKg" inputMode="decimal" size={9} defaultValue={typed.claimKg} aria-invalid={bad("claimKg")} />
+      </label>
+      <label>
+        Against set
+        <select name="claimSet" defaultValue={typed.claimSet}>
+          <option value="">the set with the most credit</option>
+          {(report?.sets ?? []).map((s) => (
+            <option key={s.key} value={s.key}>
+              {s.key}
+            </option>
+          ))}
+        </select>
+      </label>
+    </QueryForm>
   );
 }
 

@@ -5,6 +5,7 @@ import type { BatchYield, UsageComparison } from "@/lib/recipe/yield";
 import { num } from "@/app/_ui/format";
 import { loadSite } from "@/app/_ui/site";
 import { Note } from "@/app/_ui/ui";
+import { TableHead, numeric } from "@/app/_ui/kit/table-head";
 
 function Usage({ label, u }: { label: string; u: UsageComparison }) {
   return (
@@ -72,23 +73,9 @@ export async function BatchPlanSection({ batch }: { batch: BatchDetail }) {
           <div className="table-wrap">
             <table>
               <caption>Used vs planned (scaled to the oil charged)</caption>
-              <thead>
-                <tr>
-                  <th scope="col">Reagent</th>
-                  <th scope="col" className="num">
-                    Planned
-                  </th>
-                  <th scope="col" className="num">
-                    Used
-                  </th>
-                  <th scope="col" className="num">
-                    Difference
-                  </th>
-                  <th scope="col" className="num">
-                    Of plan
-                  </th>
-                </tr>
-              </thead>
+              <TableHead
+                headings={["Reagent", numeric("Planned"), numeric("Used"), numeric("Difference"), numeric("Of plan")]}
+              />
               <tbody>
                 <Usage label="Catalyst (as bought)" u={y.value.yield.catalyst} />
                 <Usage label="Methanol" u={y.value.yield.methanol} />

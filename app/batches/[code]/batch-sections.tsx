@@ -8,6 +8,7 @@ import { CodeLink, Empty, Facts, MovementTable, Note, Status } from "@/app/_ui/u
 import { TakeBackChargeForm } from "@/app/corrections/correction-forms";
 import { ClosureChip, ToleranceNote } from "@/app/balance/closure";
 import { CorrectOutputForm } from "@/app/batches/[code]/correct-output-form";
+import { TableHead, numeric } from "@/app/_ui/kit/table-head";
 
 // The batch page's sections: what went in, what came out, the closure of the two, and the product lots made.
 
@@ -150,15 +151,7 @@ export function ProductLotsTable({ products }: { products: BatchDetail["products
       ) : (
         <div className="table-wrap">
           <table>
-            <thead>
-              <tr>
-                <th scope="col">Product lot</th>
-                <th scope="col">Status</th>
-                <th scope="col" className="num">
-                  Mass made
-                </th>
-              </tr>
-            </thead>
+            <TableHead headings={["Product lot", "Status", numeric("Mass made")]} />
             <tbody>
               {products.map((p) => (
                 <tr key={p.code}>

@@ -3,6 +3,7 @@ import { startTransition, useActionState } from "react";
 import { decideLotAction } from "@/app/lab/[code]/actions";
 import { IDLE } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
+import { FormMessage } from "@/app/_ui/kit/form-message";
 
 export function DecisionForm({ lotCode, titrations }: { lotCode: string; titrations: number }) {
   const [state, action, pending] = useActionState<FormState, FormData>(decideLotAction, IDLE);
@@ -27,14 +28,7 @@ export function DecisionForm({ lotCode, titrations }: { lotCode: string; titrati
           Reject lot
         </button>
       </div>
-      {state.message ? (
-        <p
-          className={state.status === "saved" ? "form-ok" : "form-error"}
-          role={state.status === "saved" ? "status" : "alert"}
-        >
-          {state.message}
-        </p>
-      ) : null}
+      <FormMessage state={state} />
     </div>
   );
 }

@@ -3,6 +3,7 @@ import type { summariseReplicates } from "@/lib/titration/replicates";
 import { num, pct, when } from "@/app/_ui/format";
 import { Note } from "@/app/_ui/ui";
 import { VoidResultForm } from "@/app/corrections/correction-forms";
+import { TableHead, numeric } from "@/app/_ui/kit/table-head";
 
 // The lab page's tables: the lot's titrations with their readings, the replicate check, and its other tests.
 
@@ -28,33 +29,21 @@ export function TitrationTable({
   return (
     <div className="table-wrap">
       <table>
-        <thead>
-          <tr>
-            <th scope="col">Tested</th>
-            <th scope="col">Analyst</th>
-            <th scope="col" className="num">
-              Sample
-            </th>
-            <th scope="col">Titrant</th>
-            <th scope="col" className="num">
-              Strength
-            </th>
-            <th scope="col" className="num">
-              Titre
-            </th>
-            <th scope="col" className="num">
-              Blank
-            </th>
-            <th scope="col">FFA as</th>
-            <th scope="col" className="num">
-              FFA
-            </th>
-            <th scope="col" className="num">
-              Acid value
-            </th>
-            {canWrite ? <th scope="col">Correct</th> : null}
-          </tr>
-        </thead>
+        <TableHead
+          headings={[
+            "Tested",
+            "Analyst",
+            numeric("Sample"),
+            "Titrant",
+            numeric("Strength"),
+            numeric("Titre"),
+            numeric("Blank"),
+            "FFA as",
+            numeric("FFA"),
+            numeric("Acid value"),
+            canWrite ? "Correct" : null,
+          ]}
+        />
         <tbody>
           {valid.map((t) => (
             <tr key={t.id}>
@@ -125,18 +114,7 @@ export function OtherTestsTable({
   return (
     <div className="table-wrap">
       <table>
-        <thead>
-          <tr>
-            <th scope="col">Tested</th>
-            <th scope="col">Test</th>
-            <th scope="col">Method</th>
-            <th scope="col">Analyst</th>
-            <th scope="col" className="num">
-              Result
-            </th>
-            {canWrite ? <th scope="col">Correct</th> : null}
-          </tr>
-        </thead>
+        <TableHead headings={["Tested", "Test", "Method", "Analyst", numeric("Result"), canWrite ? "Correct" : null]} />
         <tbody>
           {tests.map((t) => (
             <tr key={t.id}>

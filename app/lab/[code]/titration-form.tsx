@@ -7,6 +7,7 @@ import { START, TitrationFields } from "@/app/lab/[code]/titration-fields";
 import type { TitrationValues } from "@/app/lab/[code]/titration-fields";
 import { TitrationWorking } from "@/app/lab/[code]/titration-working";
 import { SampleSizeHelper } from "@/app/lab/[code]/sample-size-helper";
+import { FormMessage } from "@/app/_ui/kit/form-message";
 
 /** A titration as the lab takes it; the acid value and FFA are worked out on screen before saving. */
 export function TitrationForm({
@@ -43,14 +44,7 @@ export function TitrationForm({
       <SampleSizeHelper
         onUse={(sampleMassG, concentrationMolL) => setValues((v) => ({ ...v, sampleMassG, concentrationMolL }))}
       />
-      {state.message ? (
-        <p
-          className={state.status === "saved" ? "form-ok" : "form-error"}
-          role={state.status === "saved" ? "status" : "alert"}
-        >
-          {state.message}
-        </p>
-      ) : null}
+      <FormMessage state={state} />
       <button type="submit" className="primary" disabled={pending}>
         {pending ? "Saving…" : "Save titration"}
       </button>

@@ -4,6 +4,7 @@ import { labelOf } from "@/lib/core/vocabulary";
 import type { LotDetail, LotFlow } from "@/lib/feedstock/lot-detail.store";
 import { reportTime } from "@/lib/report/report";
 import type { ReportContext, ReportDoc, ReportTable } from "@/lib/report/report";
+import { composeReport } from "@/lib/report/report";
 
 function pickupsTable(lot: LotDetail): ReportTable {
   return {
@@ -93,33 +94,31 @@ export function buildLotHistoryDoc(
   ctx: ReportContext,
   ledger: ReportDoc["ledger"],
 ): ReportDoc {
-  return {
-    slug: "lot-history",
-    title: "Lot history",
-    plant: ctx.plant,
-    subject: `Lot ${lot.code}, ${labelOf(lot.material)}, received ${reportTime(lot.receivedAt, ctx.timeZone)}`,
-    producedAt: ctx.producedAt,
-    producedBy: ctx.producedBy,
-    timeZone: ctx.timeZone,
-    ledger,
-    facts: [
-      ["Status", labelOf(lot.status)],
-      ["Came from", cameFrom(lot)],
-      ["Certified material", lot.certified ? "yes" : "no"],
-      ["Mass received", `${(lot.massG / 1000).toFixed(3)} kg`],
-      ["Book stock now", `${(lot.stockG / 1000).toFixed(3)} kg`],
-      [
-        "Of it still in the lot",
-        `${(flow.stillInLotG / 1000).toFixed(3)} kg of ${(flow.enteredG / 1000).toFixed(3)} kg that entered`,
+  return composeReport(
+    {
+      slug: "lot-history",
+      title: "Lot history",
+      subject: `Lot ${lot.code}, ${labelOf(lot.material)}, received ${reportTime(lot.receivedAt, ctx.timeZone)}`,
+      facts: [
+        ["Status", labelOf(lot.status)],
+        ["Came from", cameFrom(lot)],
+        ["Certified material", lot.certified ? "yes" : "no"],
+        ["Mass received", `${(lot.massG / 1000).toFixed(3)} kg`],
+        ["Book stock now", `${(lot.stockG / 1000).toFixed(3)} kg`],
+        [
+          "Of it still in the lot",
+          `${(flow.stillInLotG / 1000).toFixed(3)} kg of ${(flow.enteredG / 1000).toFixed(3)} kg that entered`,
+        ],
       ],
-    ],
-    notes:
-      flow.method === "trace"
-        ? []
-        : [
-            `Where it went is ${flow.method === "booking-order" ? "replayed in booking order" : "every later movement out of a place it reached"}: ${flow.traceProblem ?? ""}`,
-          ],
-    cautions: [],
-    tables: [pickupsTable(lot), labTable(lot), wentTable(flow)],
-  };
+      notes:
+        flow.method === "trace"
+          ? []
+          : [
+              `Where it went is ${flow.method === "booking-order" ? "replayed in booking order" : "every later movement out of a place it reached"}: ${flow.traceProblem ?? ""}`,
+            ],
+      tables: [pickupsTable(lot), labTable(lot), wentTable(flow)],
+    },
+    ctx,
+    ledger,
+  );
 }

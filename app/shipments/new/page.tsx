@@ -4,7 +4,7 @@ import { listCustomerChoices } from "@/lib/customer/customer.store";
 import { getProductLotForShipping, listShippableStock } from "@/lib/shipment/shipment.store";
 import { labelOf } from "@/lib/core/vocabulary";
 import { kg, when } from "@/app/_ui/format";
-import { codeParam } from "@/app/_ui/links";
+import { codeParam, queryValue } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
 import { NoSite, Note } from "@/app/_ui/ui";
 import { RecordShipmentForm } from "@/app/shipments/shipment-form";
@@ -17,9 +17,7 @@ export const metadata: Metadata = { title: "Record a shipment" };
 type Search = { from?: string | string[]; customer?: string | string[] };
 
 function one(v: string | string[] | undefined): string {
-  return codeParam((Array.isArray(v) ? v[0] : v) ?? "")
-    .trim()
-    .toUpperCase();
+  return codeParam(queryValue(v)).trim().toUpperCase();
 }
 
 /** The shipment form on its own page, prefilled from a product lot ("ship from this lot") or a customer. */

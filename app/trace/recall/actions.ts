@@ -3,7 +3,7 @@ import { revalidatePath } from "next/cache";
 import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { holdRecalledProductLots } from "@/lib/trace/recall.service";
-import { readText, readValues, refused } from "@/app/_ui/kit/form-state";
+import { readText, readValues, refused, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
 import { RECALL_HOLD_FIELDS } from "@/app/trace/recall/fields";
 
@@ -24,11 +24,5 @@ export async function holdRecalledAction(prev: FormState, form: FormData): Promi
   revalidatePath("/products");
   revalidatePath("/trace/recall");
   const n = r.value.held.length;
-  return {
-    status: "saved",
-    message: `${n} product lot${n === 1 ? "" : "s"} put on hold: ${r.value.held.join(", ")}.`,
-    values: {},
-    errors: {},
-    seq: prev.seq + 1,
-  };
+  return saved(prev, `${n} product lot${n === 1 ? "" : "s"} put on hold: ${r.value.held.join(", ")}.`);
 }

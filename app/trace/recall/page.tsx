@@ -16,11 +16,10 @@ import { buildRecallDoc } from "@/lib/trace/recall-report";
 import { RECALL_KINDS } from "@/lib/trace/recall.schema";
 import { recallReportCached } from "@/lib/trace/recall-cache.service";
 import type { RecallReport } from "@/lib/trace/recall";
+import type { SearchParams } from "@/app/_ui/links";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Recall" };
-
-type Search = Record<string, string | string[] | undefined>;
 
 const KIND_WORDS: Readonly<Record<string, string>> = {
   SOURCE: "Source (its pickups and deliveries)",
@@ -31,7 +30,7 @@ const KIND_WORDS: Readonly<Record<string, string>> = {
   PRODUCT_LOT: "Product lot",
 };
 
-export default async function RecallPage({ searchParams }: { searchParams: Promise<Search> }) {
+export default async function RecallPage({ searchParams }: { searchParams: Promise<SearchParams> }) {
   const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const sp = await searchParams;

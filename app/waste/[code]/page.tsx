@@ -16,6 +16,7 @@ import { getWasteDueReportCached } from "@/app/waste/due/due-report-cache";
 import type { ContainerDueRow } from "@/app/waste/due/due-report";
 import { CharacterisationForm, HaulForm, MarkFullForm } from "@/app/waste/container-forms";
 import { levelOf, screenText } from "@/lib/spec/source-text";
+import { haulColumns } from "@/app/waste/haul-columns";
 
 export const dynamic = "force-dynamic";
 
@@ -228,14 +229,7 @@ function HaulsTable({ rows, timeZone }: { rows: DisposalOfContainer[]; timeZone:
         rowKey={(d) => d.documentNo}
         empty="Nothing hauled from this container yet."
         columns={[
-          { key: "doc", header: "Manifest or document", cell: (d) => d.documentNo },
-          { key: "at", header: "Collected", cell: (d) => when(d.disposedAt, timeZone) },
-          { key: "hauler", header: "Hauler", cell: (d) => d.hauler },
-          {
-            key: "dest",
-            header: "Destination facility",
-            cell: (d) => d.destination || <span className="muted">not recorded</span>,
-          },
+          ...haulColumns<DisposalOfContainer>(timeZone),
           { key: "mass", header: "Quantity", unit: "kg", numeric: true, cell: (d) => num(d.massG / 1000, 3) },
         ]}
       />

@@ -11,15 +11,12 @@ import { getWasteDueReportCached } from "@/app/waste/due/due-report-cache";
 import type { WasteDueReport } from "@/app/waste/due/due-report";
 import { ReportLinks } from "@/app/_ui/report-view";
 import { ContainersOnSiteTable, HazardRulesNote, RuleLimitsTable, StreamTable } from "@/app/waste/due/due-tables";
+import { queryValue } from "@/app/_ui/links";
+import type { SearchParams } from "@/app/_ui/links";
+import { QueryForm } from "@/app/_ui/query-form";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Waste due for haul-away" };
-
-type Search = Record<string, string | string[] | undefined>;
-
-function one(v: string | string[] | undefined): string {
-  return (Array.isArray(v) ? v[0] : v) ?? "";
-}
 
 const CATEGORY_WORDS: Readonly<Record<string, string>> = {
   LQG: "Large quantity generator (LQG)",
@@ -27,11 +24,11 @@ const CATEGORY_WORDS: Readonly<Record<string, string>> = {
   VSQG: "Very small quantity generator (VSQG)",
 };
 
-export default async function WasteDuePage({ searchParams }: { searchParams: Promise<Search> }) {
+export default async function WasteDuePage({ searchParams }: { searchParams: Promise<SearchParams> }) {
   const { db, site, user } = await loadSite();
   if (!site) return <NoSite />;
   const sp = await searchParams;
-  const typed = { days: one(sp.days), category: one(sp.category), tsdfMiles: one(sp.tsdfMiles) };
+  const typed = { days: queryValue(sp.days), category: queryValue(sp.category), tsdfMiles: queryValue(sp.tsdfMiles) };
   const result = await getWasteDueReportCached(db, site, typed, user.now);
   const tz = site.timeZone;
   return (
@@ -80,47 +77,38 @@ function DueForm({
 }) {
   const bad = (f: string) => (issues.some((i) => i.field === f) ? true : undefined);
   return (
-    <form method="get" action="/waste/due" className="query-form" noValidate>
-      <fieldset>
-        <legend>Due within</legend>
-        <label>
-          Days ahead
-          <input
-            name="days"
-            inputMode="numeric"
-            size={5}
-            defaultValue={typed.days !== "" ? typed.days : String(report?.query.days ?? DEFAULT_DUE_DAYS)}
-            aria-invalid={bad("days")}
-          />
-        </label>
-        <label>
-          Generator category
-          <select name="category" defaultValue={typed.category || report?.query.category || "LQG"}>
-            {GENERATOR_CATEGORIES.map((c) => (
-              <option key={c} value={c}>
-                {CATEGORY_WORDS[c] ?? c}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label>
-          Miles to the treatment facility (SQG only)
-          <input
-            name="tsdfMiles"
-            inputMode="decimal"
-            size={6}
-            defaultValue={typed.tsdfMiles}
-            aria-invalid={bad("tsdfMiles")}
-          />
-        </label>
-        <button type="submit">List what is due</button>
-        {issues.map((i) => (
-          <p key={`${i.field ?? ""}${i.message}`} className="form-error" role="alert">
-            {i.message}
-          </p>
-        ))}
-      </fieldset>
-    </form>
+    <QueryForm action="/waste/due" legend="Due within" submitLabel="List what is due" issues={issues}>
+      <label>
+        Days ahead
+        <input
+          name="days"
+          inputMode="numeric"
+          size={5}
+          defaultValue={typed.days !== "" ? typed.days : String(report?.query.days ?? DEFAULT_DUE_DAYS)}
+          aria-invalid={bad("days")}
+        />
+      </label>
+      <label>
+        Generator category
+        <select name="category" defaultValue={typed.category || report?.query.category || "LQG"}>
+          {GENERATOR_CATEGORIES.map((c) => (
+            <option key={c} value={c}>
+              {CATEGORY_WORDS[c] ?? c}
+            </option>
+          ))}
+        </select>
+      </label>
+      <label>
+        Miles to the treatment facility (SQG only)
+        <input
+          name="tsdfMiles"
+          inputMode="decimal"
+          size={6}
+          defaultValue={typed.tsdfMiles}
+          aria-invalid={bad("tsdfMiles")}
+        />
+      </label>
+    </QueryForm>
   );
 }
 

@@ -6,6 +6,7 @@ import type { WasteStream } from "@/lib/core/vocabulary";
 import { STREAM_CAUTIONS } from "@/lib/waste/container-rules";
 import { reportDay } from "@/lib/report/report";
 import type { ReportContext, ReportDoc, ReportTable } from "@/lib/report/report";
+import { composeReport } from "@/lib/report/report";
 import type { ContainerDueRow, WasteDueReport } from "@/app/waste/due/due-report";
 
 const CLOSING_CAUTION = "Follow the safety data sheets, the site's procedures and local codes; they govern.";
@@ -104,25 +105,24 @@ function byStreamTable(r: WasteDueReport): ReportTable {
 
 export function buildWasteListDoc(r: WasteDueReport, ctx: ReportContext, ledger: ReportDoc["ledger"]): ReportDoc {
   const streams = [...new Set(r.containers.map((c) => c.stream))] as WasteStream[];
-  return {
-    slug: "waste-list",
-    title: "Waste list for the hauler",
-    plant: ctx.plant,
-    subject: `Waste on site on ${reportDay(ctx.producedAt, ctx.timeZone)}, due within ${r.query.days} days (to ${reportDay(r.horizonAt, ctx.timeZone)})`,
-    producedAt: ctx.producedAt,
-    producedBy: ctx.producedBy,
-    timeZone: ctx.timeZone,
-    ledger,
-    facts: [
-      ["Rule set", `${r.ruleSet.name}, ${r.ruleSet.edition}`],
-      ["Generator category", `${r.query.category}${r.categoryAssumed ? " (assumed)" : ""}`],
-      [
-        "Due in that time",
-        `${r.totals.count} containers, ${r.totals.kg.toFixed(1)} kg, ${r.totals.litres.toFixed(1)} L, ${r.totals.usGallons.toFixed(1)} US gal`,
+  return composeReport(
+    {
+      slug: "waste-list",
+      title: "Waste list for the hauler",
+      subject: `Waste on site on ${reportDay(ctx.producedAt, ctx.timeZone)}, due within ${r.query.days} days (to ${reportDay(r.horizonAt, ctx.timeZone)})`,
+      facts: [
+        ["Rule set", `${r.ruleSet.name}, ${r.ruleSet.edition}`],
+        ["Generator category", `${r.query.category}${r.categoryAssumed ? " (assumed)" : ""}`],
+        [
+          "Due in that time",
+          `${r.totals.count} containers, ${r.totals.kg.toFixed(1)} kg, ${r.totals.litres.toFixed(1)} L, ${r.totals.usGallons.toFixed(1)} US gal`,
+        ],
       ],
-    ],
-    notes: [r.localRulesNote, r.densityNote],
-    cautions: [...streams.flatMap((s) => STREAM_CAUTIONS[s] ?? []), CLOSING_CAUTION],
-    tables: [containersTable(r), byStreamTable(r)],
-  };
+      notes: [r.localRulesNote, r.densityNote],
+      cautions: [...streams.flatMap((s) => STREAM_CAUTIONS[s] ?? []), CLOSING_CAUTION],
+      tables: [containersTable(r), byStreamTable(r)],
+    },
+    ctx,
+    ledger,
+  );
 }

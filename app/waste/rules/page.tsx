@@ -7,6 +7,7 @@ import { loadSite } from "@/app/_ui/site";
 import { NoSite, Note } from "@/app/_ui/ui";
 import { ConfidenceMark } from "@/app/_ui/kit";
 import { WasteRulesForm } from "@/app/waste/rules/rules-form";
+import { TableHead } from "@/app/_ui/kit/table-head";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Waste rule set" };
@@ -52,14 +53,7 @@ export default async function WasteRulesPage() {
         <div className="table-wrap">
           <table>
             <caption>Limits in force</caption>
-            <thead>
-              <tr>
-                <th scope="col">Limit</th>
-                <th scope="col">Value</th>
-                <th scope="col">Source</th>
-                <th scope="col">Reliance</th>
-              </tr>
-            </thead>
+            <TableHead headings={["Limit", "Value", "Source", "Reliance"]} />
             <tbody>
               {group.entries.map((e) => (
                 <tr key={e.anchor}>

@@ -5,6 +5,7 @@ import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.serv
 import { BatchCompleteSchema } from "@/lib/batch/batch.schema";
 import { completeBatch } from "@/lib/batch/batch.service";
 import { handled } from "@/lib/api/handle.service";
+import { actorOf } from "@/lib/core/actor";
 
 export const dynamic = "force-dynamic";
 
@@ -16,6 +17,6 @@ export const POST = handled("POST /api/batches/complete", async (request: Reques
   if (!who.ok) return respond(who);
   const input = await parseBody(request, BatchCompleteSchema);
   if (!input.ok) return respond(input);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   return respond(await completeBatch(await getDb(), actor, input.value));
 });

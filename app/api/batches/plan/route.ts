@@ -5,6 +5,7 @@ import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.serv
 import { BatchPlanRequestSchema } from "@/lib/batch/plan";
 import { recordPlannedBatch } from "@/lib/batch/plan.service";
 import { handled } from "@/lib/api/handle.service";
+import { actorOf } from "@/lib/core/actor";
 
 export const dynamic = "force-dynamic";
 
@@ -16,6 +17,6 @@ export const POST = handled("POST /api/batches/plan", async (request: Request): 
   if (!who.ok) return respond(who);
   const input = await parseBody(request, BatchPlanRequestSchema);
   if (!input.ok) return respond(input);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   return respond(await recordPlannedBatch(await getDb(), actor, input.value));
 });

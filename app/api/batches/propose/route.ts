@@ -7,6 +7,7 @@ import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.serv
 import { BatchPlanRequestSchema } from "@/lib/batch/plan";
 import { proposeBatchPlan } from "@/lib/batch/plan.service";
 import { handled } from "@/lib/api/handle.service";
+import { actorOf } from "@/lib/core/actor";
 
 export const dynamic = "force-dynamic";
 
@@ -18,11 +19,7 @@ export const POST = handled("POST /api/batches/propose", async (request: Request
   if (!who.ok) return respond(who);
   const input = await parseBody(request, BatchPlanRequestSchema);
   if (!input.ok) return respond(input);
-  const proposal = await proposeBatchPlan(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    input.value,
-  );
+  const proposal = await proposeBatchPlan(await getDb(), actorOf(who.value), input.value);
   if (!proposal.ok) return respond(proposal);
   const { candidates, outcome } = proposal.value;
   return respond(outcome.ok ? ok({ candidates, card: outcome.card }) : failMany(outcome.issues));

@@ -5,6 +5,7 @@ import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.serv
 import { BatchStartSchema } from "@/lib/batch/batch.schema";
 import { startBatch } from "@/lib/batch/batch.service";
 import { handled } from "@/lib/api/handle.service";
+import { actorOf } from "@/lib/core/actor";
 
 export const dynamic = "force-dynamic";
 
@@ -16,6 +17,6 @@ export const POST = handled("POST /api/batches/start", async (request: Request):
   if (!who.ok) return respond(who);
   const input = await parseBody(request, BatchStartSchema);
   if (!input.ok) return respond(input);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   return respond(await startBatch(await getDb(), actor, input.value));
 });

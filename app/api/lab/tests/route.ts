@@ -6,6 +6,7 @@ import { LabTestSchema } from "@/lib/feedstock/lot.schema";
 import { recordLabTest } from "@/lib/feedstock/lot.service";
 import { handled } from "@/lib/api/handle.service";
 import { screenAfterRecord } from "@/lib/screening/screening.service";
+import { actorOf } from "@/lib/core/actor";
 
 export const dynamic = "force-dynamic";
 
@@ -17,7 +18,7 @@ export const POST = handled("POST /api/lab/tests", async (request: Request): Pro
   if (!who.ok) return respond(who);
   const input = await parseBody(request, LabTestSchema);
   if (!input.ok) return respond(input);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   const db = await getDb();
   const saved = await recordLabTest(db, actor, input.value);
   if (saved.ok) await screenAfterRecord(db, actor, { lotCodes: [input.value.lotCode] });

@@ -5,6 +5,7 @@ import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.serv
 import { LotTitrationSchema, recordTitration } from "@/lib/feedstock/titration.service";
 import { handled } from "@/lib/api/handle.service";
 import { screenAfterRecord } from "@/lib/screening/screening.service";
+import { actorOf } from "@/lib/core/actor";
 
 export const dynamic = "force-dynamic";
 
@@ -16,7 +17,7 @@ export const POST = handled("POST /api/lab/titrations", async (request: Request)
   if (!who.ok) return respond(who);
   const input = await parseBody(request, LotTitrationSchema);
   if (!input.ok) return respond(input);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   const db = await getDb();
   const saved = await recordTitration(db, actor, input.value);
   if (saved.ok) await screenAfterRecord(db, actor, { lotCodes: [input.value.lotCode] });

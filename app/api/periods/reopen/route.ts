@@ -4,6 +4,7 @@ import { parseBody, requireSameOrigin, respond } from "@/lib/api/json-route.serv
 import { getDb } from "@/lib/core/db";
 import { reopenPeriod, PeriodReopenSchema } from "@/lib/period/period.service";
 import { handled } from "@/lib/api/handle.service";
+import { actorOf } from "@/lib/core/actor";
 
 export const dynamic = "force-dynamic";
 
@@ -15,6 +16,6 @@ export const POST = handled("POST /api/periods/reopen", async (request: Request)
   if (!who.ok) return respond(who);
   const body = await parseBody(request, PeriodReopenSchema);
   if (!body.ok) return respond(body);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   return respond(await reopenPeriod(await getDb(), actor, body.value));
 });

@@ -4,6 +4,7 @@ import { idempotent, MAX_BULK_JSON_BYTES, readJson, requireSameOrigin, respond }
 import { requireRole } from "@/lib/auth/request.service";
 import { importPickups } from "@/lib/feedstock/pickup.service";
 import { handled } from "@/lib/api/handle.service";
+import { actorOf } from "@/lib/core/actor";
 
 /** Imports many pickups all-or-nothing; rows already stored (same idempotency key) are skipped. */
 export const POST = handled("POST /api/pickups/import", async (request: Request): Promise<NextResponse> => {
@@ -13,7 +14,7 @@ export const POST = handled("POST /api/pickups/import", async (request: Request)
   if (!who.ok) return respond(who);
   const body = await readJson(request, MAX_BULK_JSON_BYTES);
   if (!body.ok) return respond(body);
-  const actor = { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now };
+  const actor = actorOf(who.value);
   return respond(
     await idempotent(request, who.value.userId, body.value, async () =>
       importPickups(await getDb(), actor, body.value),

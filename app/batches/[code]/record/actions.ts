@@ -4,8 +4,9 @@ import { redirect } from "next/navigation";
 import { getDb } from "@/lib/core/db";
 import { requireRole } from "@/lib/auth/request.service";
 import { completeBatch, correctBatchOutput, startBatch } from "@/lib/batch/batch.service";
-import { readText, refused, toNumber } from "@/app/_ui/kit/form-state";
+import { readText, refused, toNumber, saved } from "@/app/_ui/kit/form-state";
 import type { FormState } from "@/app/_ui/kit/form-state";
+import { actorOf } from "@/lib/core/actor";
 
 /** Rows named "<list>.<i>.<field>" → objects in row order; rows left wholly empty are dropped. */
 function readRows(
@@ -66,31 +67,25 @@ export async function startBatchAction(prev: FormState, form: FormData): Promise
   const { known, kept } = keptIndices(form, "charges", CHARGE_FIELDS);
   const who = await requireRole(["PRODUCTION"]);
   if (!who.ok) return refused(prev, values, who.issues, known);
-  const result = await startBatch(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    {
-      batchCode,
-      startedAt: who.value.now,
-      charges: rows.map((r) => ({
-        fromKind: r.fromKind || undefined,
-        fromCode: r.fromCode ?? "",
-        role: r.role || undefined,
-        massKg: toNumber(r.massKg ?? ""),
-      })),
-    },
-  );
+  const result = await startBatch(await getDb(), actorOf(who.value), {
+    batchCode,
+    startedAt: who.value.now,
+    charges: rows.map((r) => ({
+      fromKind: r.fromKind || undefined,
+      fromCode: r.fromCode ?? "",
+      role: r.role || undefined,
+      massKg: toNumber(r.massKg ?? ""),
+    })),
+  });
   if (!result.ok) return refused(prev, values, result.issues, known, rowFieldMapper("charges", kept));
   revalidatePath(`/batches/${encodeURIComponent(batchCode)}`);
   revalidatePath(`/batches/${encodeURIComponent(batchCode)}/record`);
   revalidatePath("/batches");
-  return {
-    status: "saved",
-    message: `Batch ${result.value.code} started: ${(result.value.chargedG / 1000).toFixed(3)} kg charged.`,
+  return saved(
+    prev,
+    `Batch ${result.value.code} started: ${(result.value.chargedG / 1000).toFixed(3)} kg charged.`,
     values,
-    errors: {},
-    seq: prev.seq + 1,
-  };
+  );
 }
 
 export async function completeBatchAction(prev: FormState, form: FormData): Promise<FormState> {
@@ -99,26 +94,22 @@ export async function completeBatchAction(prev: FormState, form: FormData): Prom
   const { known, kept } = keptIndices(form, "outputs", OUTPUT_FIELDS);
   const who = await requireRole(["PRODUCTION"]);
   if (!who.ok) return refused(prev, values, who.issues, known);
-  const result = await completeBatch(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    {
-      batchCode,
-      completedAt: who.value.now,
-      outputs: rows.map((r) => ({
-        role: r.role || undefined,
-        ...(r.role === "LOSS" || !r.toCode ? {} : { toCode: r.toCode, toKind: r.toKind || undefined }),
-        massKg: toNumber(r.massKg ?? ""),
-        ...(r.role === "LOSS" ? { reason: r.reason ?? "" } : {}),
-        ...(r.role === "WASH_WATER" && (r.waterFromCode || r.waterKg)
-          ? {
-              ...(r.waterFromCode ? { waterFromCode: r.waterFromCode } : {}),
-              ...(r.waterKg ? { waterKg: toNumber(r.waterKg) } : {}),
-            }
-          : {}),
-      })),
-    },
-  );
+  const result = await completeBatch(await getDb(), actorOf(who.value), {
+    batchCode,
+    completedAt: who.value.now,
+    outputs: rows.map((r) => ({
+      role: r.role || undefined,
+      ...(r.role === "LOSS" || !r.toCode ? {} : { toCode: r.toCode, toKind: r.toKind || undefined }),
+      massKg: toNumber(r.massKg ?? ""),
+      ...(r.role === "LOSS" ? { reason: r.reason ?? "" } : {}),
+      ...(r.role === "WASH_WATER" && (r.waterFromCode || r.waterKg)
+        ? {
+            ...(r.waterFromCode ? { waterFromCode: r.waterFromCode } : {}),
+            ...(r.waterKg ? { waterKg: toNumber(r.waterKg) } : {}),
+          }
+        : {}),
+    })),
+  });
   if (!result.ok) return refused(prev, values, result.issues, known, rowFieldMapper("outputs", kept));
   revalidatePath(`/batches/${encodeURIComponent(batchCode)}`);
   revalidatePath(`/batches/${encodeURIComponent(batchCode)}/record`);
@@ -139,16 +130,12 @@ export async function correctBatchOutputAction(prev: FormState, form: FormData):
   };
   const who = await requireRole(["PRODUCTION"]);
   if (!who.ok) return refused(prev, values, who.issues, CORRECTION_FIELDS);
-  const result = await correctBatchOutput(
-    await getDb(),
-    { siteId: who.value.siteId, userId: who.value.userId, now: who.value.now },
-    {
-      batchCode: values.batchCode,
-      movementId: toNumber(values.movementId),
-      massKg: toNumber(values.massKg),
-      reason: values.reason,
-    },
-  );
+  const result = await correctBatchOutput(await getDb(), actorOf(who.value), {
+    batchCode: values.batchCode,
+    movementId: toNumber(values.movementId),
+    massKg: toNumber(values.massKg),
+    reason: values.reason,
+  });
   if (!result.ok) return refused(prev, values, result.issues, CORRECTION_FIELDS);
   revalidatePath(`/batches/${encodeURIComponent(values.batchCode)}`);
   revalidatePath("/balance");
@@ -156,11 +143,5 @@ export async function correctBatchOutputAction(prev: FormState, form: FormData):
     minimumFractionDigits: 3,
     maximumFractionDigits: 3,
   });
-  return {
-    status: "saved",
-    message: `Output corrected; the batch's unmeasured difference is now ${kgText} kg.`,
-    values: {},
-    errors: {},
-    seq: prev.seq + 1,
-  };
+  return saved(prev, `Output corrected; the batch's unmeasured difference is now ${kgText} kg.`);
 }
