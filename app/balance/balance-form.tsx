@@ -59,7 +59,6 @@ export function BalanceForm({
         <button type="submit">Show balance</button>
         {issues.map((i) => (
           <p key={`${i.field ?? ""}${i.message}`} className="form-error" role="alert">
-            {i.field ? `${i.field}: ` : ""}
             {i.message}
           </p>
         ))}
