@@ -14,6 +14,7 @@ import type { BALANCE_PERIOD_KINDS } from "@/lib/mass-balance/balance-query.sche
 import { computePeriodBalance, DEFAULT_HOLDER_CLASSES } from "@/lib/mass-balance/period-balance";
 import type {
   BatchBalance,
+  CarriedBooks,
   Closure,
   ClosureTolerance,
   GaugeComparison,
@@ -201,6 +202,8 @@ export interface BalanceComputation {
   siteId: number;
   tolerance: ClosureTolerance;
   gauges: GaugeDifference[];
+  /** The books brought forward to the period start, when `ledger` holds only the movements from then on. */
+  carried?: CarriedBooks;
 }
 
 /** One balance per material kind of the stock holders, leaving out kinds with nothing held or moved. */
@@ -222,6 +225,7 @@ export function materialRows(c: BalanceComputation): Result<MaterialBalanceRow[]
       scope: { siteId: c.siteId, materialKind },
       tolerance: c.tolerance,
       gauges: c.gauges,
+      ...(c.carried ? { carried: c.carried } : {}),
     });
     if (!b.ok) return b;
     const row = materialRow(materialKind, b.value);

@@ -13,6 +13,9 @@ import {
   listPeriodEvents,
   loadBalanceLedger,
 } from "@/lib/mass-balance/balance.store";
+import type { BalanceLedger, CarriedBooks, ClosureTolerance } from "@/lib/mass-balance/balance-types";
+import { loadPeriodLedger } from "@/lib/mass-balance/balance-window.service";
+import type { GaugeReading } from "@/lib/mass-balance/period-balance";
 import { refuseUnreasonablePeriod } from "@/lib/mass-balance/period";
 import { resolvePeriodRange } from "@/lib/mass-balance/period-range";
 import { compareBookToGauges, computePeriodBalance } from "@/lib/mass-balance/period-balance";
@@ -31,14 +34,41 @@ export type {
   MaterialBalanceRow,
 } from "@/lib/mass-balance/balance-report";
 
+/** How the ledger is read: from the books brought forward to the period start (the usual way), or whole. */
+export type BalanceLedgerRead = "period" | "whole";
+
 /** The period mass balance of a site: stock identity, process view, per material kind, gauges and the close record. */
-export async function getBalanceReport(
+export function getBalanceReport(
   db: Db,
   site: { id: number; timeZone: string },
   input: unknown,
   now: Date,
 ): Promise<Result<BalanceReport>> {
-  const started = performance.now();
+  return computeBalanceReport(db, site, input, now, "period");
+}
+
+/** The same report from the whole ledger read and walked from its first movement (tests and the bench compare). */
+export function getBalanceReportFromWholeLedger(
+  db: Db,
+  site: { id: number; timeZone: string },
+  input: unknown,
+  now: Date,
+): Promise<Result<BalanceReport>> {
+  return computeBalanceReport(db, site, input, now, "whole");
+}
+
+interface ResolvedBalanceQuery {
+  resolved: ReturnType<typeof resolveBalanceQuery>;
+  period: { label: string; startMs: number; endMs: number };
+  tolerance: ClosureTolerance;
+}
+
+async function resolveQuery(
+  db: Db,
+  site: { id: number; timeZone: string },
+  input: unknown,
+  now: Date,
+): Promise<Result<ResolvedBalanceQuery>> {
   const parsed = parseInput(BalanceQuerySchema, input);
   if (!parsed.ok) return parsed;
   const q = parsed.value;
@@ -51,29 +81,62 @@ export async function getBalanceReport(
   if (unreasonable) return fail("BALANCE.PERIOD_OUT_OF_RANGE", unreasonable.message, unreasonable.field);
   const tol = parseInput(ClosureToleranceSchema, toleranceInput(q, (await getSiteLimits(db, site.id)).closure));
   if (!tol.ok) return tol;
-  const tolerance = tol.value;
+  return ok({ resolved, period: period.value, tolerance: tol.value });
+}
 
-  const startsAt = new Date(period.value.startMs);
-  const endsAt = new Date(period.value.endMs);
-  const [ledger, readings, accountingPeriod] = await Promise.all([
-    loadBalanceLedger(db, site.id),
-    listLatestGauges(db, site.id, new Date(period.value.endMs - 1)),
+/** The ledger the report is computed over: the period's own (with the books brought forward), or the whole. */
+async function readLedger(
+  db: Db,
+  siteId: number,
+  span: { startMs: number; endMs: number },
+  readings: readonly GaugeReading[],
+  read: BalanceLedgerRead,
+): Promise<Result<{ ledger: BalanceLedger; carried?: CarriedBooks; bookOf?: (r: GaugeReading) => number }>> {
+  if (read === "whole") return ok({ ledger: await loadBalanceLedger(db, siteId) });
+  return loadPeriodLedger(db, siteId, span, readings);
+}
+
+async function computeBalanceReport(
+  db: Db,
+  site: { id: number; timeZone: string },
+  input: unknown,
+  now: Date,
+  read: BalanceLedgerRead,
+): Promise<Result<BalanceReport>> {
+  const started = performance.now();
+  const query = await resolveQuery(db, site, input, now);
+  if (!query.ok) return query;
+  const { resolved, period, tolerance } = query.value;
+  const startsAt = new Date(period.startMs);
+  const endsAt = new Date(period.endMs);
+  const span = { startMs: period.startMs, endMs: period.endMs };
+  const [readings, accountingPeriod] = await Promise.all([
+    listLatestGauges(db, site.id, new Date(period.endMs - 1)),
     getAccountingPeriodExact(db, site.id, startsAt, endsAt),
   ]);
-  const events =
-    accountingPeriod === null ? [] : await listPeriodEvents(db, site.id, { periodId: accountingPeriod.id });
-  const span = { startMs: period.value.startMs, endMs: period.value.endMs };
+  const [loaded, events] = await Promise.all([
+    readLedger(db, site.id, span, readings, read),
+    accountingPeriod === null ? [] : listPeriodEvents(db, site.id, { periodId: accountingPeriod.id }),
+  ]);
+  if (!loaded.ok) return loaded;
+  const { ledger, carried, bookOf } = loaded.value;
   const gauge =
     readings.length === 0
       ? null
-      : compareBookToGauges({ holders: ledger.holders, moves: ledger.moves, readings, tolerance });
+      : compareBookToGauges({
+          holders: ledger.holders,
+          moves: ledger.moves,
+          readings,
+          tolerance,
+          ...(bookOf ? { bookOf } : {}),
+        });
   if (gauge !== null && !gauge.ok) return gauge;
   const gauges = (gauge?.value.rows ?? []).map((r) => ({
     holderId: r.holderId,
     bookG: r.bookG,
     measuredG: r.measuredG,
   }));
-  const computation = { ledger, span, siteId: site.id, tolerance, gauges };
+  const from = carried ? { carried } : {};
   const whole = computePeriodBalance({
     holders: ledger.holders,
     moves: ledger.moves,
@@ -81,13 +144,14 @@ export async function getBalanceReport(
     scope: { siteId: site.id },
     tolerance,
     gauges,
+    ...from,
   });
   if (!whole.ok) return whole;
-  const byMaterial = materialRows(computation);
+  const byMaterial = materialRows({ ledger, span, siteId: site.id, tolerance, gauges, ...from });
   if (!byMaterial.ok) return byMaterial;
   const report = assembleBalanceReport({
     query: { ...resolved, warnPct: tolerance.warnPct, failPct: tolerance.failPct },
-    period: { label: period.value.label, startsAt, endsAt },
+    period: { label: period.label, startsAt, endsAt },
     tolerance,
     ledger,
     whole: whole.value,
