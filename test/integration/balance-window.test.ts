@@ -53,7 +53,7 @@ describe.each(PROVIDERS)("balance from the books brought forward on %s", (provid
       select: { material: true, source: { select: { code: true } } },
     });
     source = { code: p.source.code, material: p.material };
-  }, 300_000);
+  }, 600_000);
   afterAll(async () => {
     clearCarriedBooks();
     await t.drop();
