@@ -56,16 +56,15 @@ export async function loadPeriodLedger(
   db: Db,
   siteId: number,
   span: { startMs: number; endMs: number },
-  readings: readonly GaugeReading[],
+  gaugeReadings: Promise<readonly GaugeReading[]>,
 ): Promise<Result<PeriodLedger>> {
-  const carried = await booksBroughtForward(db, siteId, span.startMs);
+  const [carried, rows, readings] = await Promise.all([
+    booksBroughtForward(db, siteId, span.startMs),
+    readDatedMoves(db, siteId, { fromMs: span.startMs, toMs: span.endMs, throughId: LAST_POSSIBLE_ID }),
+    gaugeReadings,
+  ]);
   if (!carried.ok) return carried;
   const books = carried.value;
-  const rows = await readDatedMoves(db, siteId, {
-    fromMs: span.startMs,
-    toMs: span.endMs,
-    throughId: LAST_POSSIBLE_ID,
-  });
   const ids = new Set<number>([...books.stockG.keys(), ...readings.map((r) => r.holderId)]);
   for (const n of books.negativeStock) ids.add(n.holderId);
   for (const m of rows) {

@@ -21,6 +21,7 @@ import { resolvePeriodRange } from "@/lib/mass-balance/period-range";
 import { compareBookToGauges, computePeriodBalance } from "@/lib/mass-balance/period-balance";
 import { ClosureToleranceSchema, PeriodRangeSchema } from "@/lib/mass-balance/period.schema";
 import { BalanceQuerySchema } from "@/lib/mass-balance/balance-query.schema";
+import type { BalanceQuery } from "@/lib/mass-balance/balance-query.schema";
 import { periodRangeInput, resolveBalanceQuery, toleranceInput } from "@/lib/mass-balance/balance-period-query";
 import { assembleBalanceReport, materialRows } from "@/lib/mass-balance/balance-report";
 import type { BalanceReport } from "@/lib/mass-balance/balance-report";
@@ -58,17 +59,12 @@ export function getBalanceReportFromWholeLedger(
 }
 
 interface ResolvedBalanceQuery {
+  query: BalanceQuery;
   resolved: ReturnType<typeof resolveBalanceQuery>;
   period: { label: string; startMs: number; endMs: number };
-  tolerance: ClosureTolerance;
 }
 
-async function resolveQuery(
-  db: Db,
-  site: { id: number; timeZone: string },
-  input: unknown,
-  now: Date,
-): Promise<Result<ResolvedBalanceQuery>> {
+function resolveQuery(site: { timeZone: string }, input: unknown, now: Date): Result<ResolvedBalanceQuery> {
   const parsed = parseInput(BalanceQuerySchema, input);
   if (!parsed.ok) return parsed;
   const q = parsed.value;
@@ -79,9 +75,12 @@ async function resolveQuery(
   if (!period.ok) return period;
   const unreasonable = refuseUnreasonablePeriod(period.value, q.period, now.getTime());
   if (unreasonable) return fail("BALANCE.PERIOD_OUT_OF_RANGE", unreasonable.message, unreasonable.field);
-  const tol = parseInput(ClosureToleranceSchema, toleranceInput(q, (await getSiteLimits(db, site.id)).closure));
-  if (!tol.ok) return tol;
-  return ok({ resolved, period: period.value, tolerance: tol.value });
+  return ok({ query: q, resolved, period: period.value });
+}
+
+/** The tolerance the report flags against: the one typed in the query, else the site's. */
+async function toleranceOf(db: Db, siteId: number, q: BalanceQuery): Promise<Result<ClosureTolerance>> {
+  return parseInput(ClosureToleranceSchema, toleranceInput(q, (await getSiteLimits(db, siteId)).closure));
 }
 
 /** The ledger the report is computed over: the period's own (with the books brought forward), or the whole. */
@@ -89,11 +88,18 @@ async function readLedger(
   db: Db,
   siteId: number,
   span: { startMs: number; endMs: number },
-  readings: readonly GaugeReading[],
+  readings: Promise<readonly GaugeReading[]>,
   read: BalanceLedgerRead,
 ): Promise<Result<{ ledger: BalanceLedger; carried?: CarriedBooks; bookOf?: (r: GaugeReading) => number }>> {
   if (read === "whole") return ok({ ledger: await loadBalanceLedger(db, siteId) });
   return loadPeriodLedger(db, siteId, span, readings);
+}
+
+/** The accounting period with exactly these bounds, and its closes and reopens. */
+async function periodRecord(db: Db, siteId: number, startsAt: Date, endsAt: Date) {
+  const accountingPeriod = await getAccountingPeriodExact(db, siteId, startsAt, endsAt);
+  const events = accountingPeriod === null ? [] : await listPeriodEvents(db, siteId, { periodId: accountingPeriod.id });
+  return { accountingPeriod, events };
 }
 
 async function computeBalanceReport(
@@ -104,20 +110,22 @@ async function computeBalanceReport(
   read: BalanceLedgerRead,
 ): Promise<Result<BalanceReport>> {
   const started = performance.now();
-  const query = await resolveQuery(db, site, input, now);
+  const query = resolveQuery(site, input, now);
   if (!query.ok) return query;
-  const { resolved, period, tolerance } = query.value;
+  const { resolved, period } = query.value;
   const startsAt = new Date(period.startMs);
   const endsAt = new Date(period.endMs);
   const span = { startMs: period.startMs, endMs: period.endMs };
-  const [readings, accountingPeriod] = await Promise.all([
-    listLatestGauges(db, site.id, new Date(period.endMs - 1)),
-    getAccountingPeriodExact(db, site.id, startsAt, endsAt),
+  // Every read that does not need another's answer goes out at once.
+  const gaugesRead = listLatestGauges(db, site.id, new Date(period.endMs - 1));
+  const [tol, loaded, readings, { accountingPeriod, events }] = await Promise.all([
+    toleranceOf(db, site.id, query.value.query),
+    readLedger(db, site.id, span, gaugesRead, read),
+    gaugesRead,
+    periodRecord(db, site.id, startsAt, endsAt),
   ]);
-  const [loaded, events] = await Promise.all([
-    readLedger(db, site.id, span, readings, read),
-    accountingPeriod === null ? [] : listPeriodEvents(db, site.id, { periodId: accountingPeriod.id }),
-  ]);
+  if (!tol.ok) return tol;
+  const tolerance = tol.value;
   if (!loaded.ok) return loaded;
   const { ledger, carried, bookOf } = loaded.value;
   const gauge =

@@ -23,6 +23,8 @@ function addTo<K extends string>(rec: Partial<Record<K, number>>, key: K, g: num
 
 /** Adds a batch's movements to what its earlier movements added up to (nothing, without `from`). */
 export function tallyBatch(id: number, moves: readonly BalanceMove[], from?: BatchTally): BatchTally {
+  // Nothing more moved: the earlier tally as it is (tallies are never changed once made).
+  if (from !== undefined && moves.length === 0) return from;
   const inputsByRole: Partial<Record<MoveRole, number>> = { ...from?.inputsByRole };
   const outputsByRole: Partial<Record<MoveRole, number>> = { ...from?.outputsByRole };
   const unusual = new Set<MoveRole>(from?.unusualRoles);
