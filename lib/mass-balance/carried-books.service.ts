@@ -30,7 +30,7 @@ interface Kept {
   mark: Mark;
 }
 
-/** Kept books per site; a few instants each (period starts asked for), the oldest use dropped first. */
+/** Kept books per site; a few instants each (period starts asked for), the earliest kept dropped first. */
 const MAX_KEPT_PER_SITE = 24;
 const home = globalThis as unknown as { tracevatCarriedBooks?: Map<number, Kept[]> };
 const kept: Map<number, Kept[]> = (home.tracevatCarriedBooks ??= new Map<number, Kept[]>());
