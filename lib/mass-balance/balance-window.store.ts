@@ -123,6 +123,11 @@ export async function getMovementMark(
     : { id, at: m.at.getTime(), massG: m.massG, toHolderId: m.toHolderId };
 }
 
+/** How many of the site's movements are dated before `beforeMs` (one range count on the (siteId, at) index). */
+export function countMovesBefore(db: Db, siteId: number, beforeMs: number): Promise<number> {
+  return db.movement.count({ where: { siteId, at: { lt: new Date(beforeMs) } } });
+}
+
 /** Whether a movement with id in (afterId, throughId] is dated before `beforeMs`: booked later with an earlier date. */
 export async function hasBackdatedMove(
   db: Db,

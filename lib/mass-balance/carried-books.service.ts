@@ -5,13 +5,18 @@ import "server-only";
 // since (and that the last movement read is still there unchanged, which a restored backup would break).
 // The check is made in the database, so several server processes on one database agree. Missing or
 // broken books are carried forward from the latest kept books that still stand, or from the start.
+// On PostgreSQL a transaction can commit after another that took a higher movement id, so "booked
+// since" by id could miss it: there each use also counts the movements dated before the books' instant
+// (SQLite takes the write lock before a movement gets its id, so its ids are in commit order).
 import type { Db } from "@/lib/core/connect";
 import { ok } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
+import { dialectOf } from "@/lib/core/bulk-insert";
 import { findReversedPairs } from "@/lib/ledger/movement.store";
 import type { BalanceMove, CarriedBooks } from "@/lib/mass-balance/balance-types";
 import { carryBooks, emptyBooks } from "@/lib/mass-balance/carried-books";
 import {
+  countMovesBefore,
   getLastMovement,
   getMovementMark,
   hasBackdatedMove,
@@ -28,6 +33,8 @@ interface Kept {
   throughId: number;
   /** The last movement then, to notice a database that went back (a restored backup). */
   mark: Mark;
+  /** How many movements dated before the books' instant they add up (checked again on PostgreSQL). */
+  movesBefore: number;
 }
 
 /** Kept books per site; a few instants each (period starts asked for), the earliest kept dropped first. */
@@ -46,13 +53,14 @@ function sameMark(a: Mark, b: Mark): boolean {
 async function stillStands(db: Db, siteId: number, k: Kept, last: Mark): Promise<boolean> {
   const lastId = last?.id ?? 0;
   if (lastId < k.throughId) return false;
-  const [mark, backdated] = await Promise.all([
+  const [mark, backdated, movesBefore] = await Promise.all([
     k.mark === null || k.mark.id === last?.id
       ? Promise.resolve(k.mark === null ? null : last)
       : getMovementMark(db, siteId, k.mark.id),
     hasBackdatedMove(db, siteId, { afterId: k.throughId, throughId: lastId, beforeMs: k.books.atMs }),
+    dialectOf(db) === "postgresql" ? countMovesBefore(db, siteId, k.books.atMs) : Promise.resolve(k.movesBefore),
   ]);
-  return sameMark(mark, k.mark) && !backdated;
+  return sameMark(mark, k.mark) && !backdated && movesBefore === k.movesBefore;
 }
 
 /** The kept books of the site nearest before `atMs` that still stand (dropping those that do not). */
@@ -111,7 +119,7 @@ export async function booksBroughtForward(db: Db, siteId: number, atMs: number):
   const rows = await readDatedMoves(db, siteId, { fromMs: base === null ? null : from.atMs, toMs: atMs, throughId });
   const carried = carryBooks(from, toMoves(rows), atMs, await kindsOf(db, siteId));
   if (!carried.ok) return carried;
-  keep(siteId, { books: carried.value, throughId, mark: last });
+  keep(siteId, { books: carried.value, throughId, mark: last, movesBefore: (base?.movesBefore ?? 0) + rows.length });
   return carried;
 }
 
