@@ -2,12 +2,14 @@
 // the database (TraceSnapshot) stay.
 import { clearTraceCache } from "@/lib/trace/trace.service";
 import { clearBalanceCache } from "@/lib/mass-balance/balance-cache.service";
+import { clearCarriedBooks } from "@/lib/mass-balance/carried-books.service";
 import { clearRecallCache } from "@/lib/trace/recall-cache.service";
 import { clearWasteDueCache } from "@/app/waste/due/due-report-cache";
 
 export function clearAnswerCaches(): void {
   clearTraceCache();
   clearBalanceCache();
+  clearCarriedBooks();
   clearRecallCache();
   clearWasteDueCache();
 }

@@ -82,9 +82,16 @@ export function measureSync(fn: () => void, plan: MeasurePlan, memory: MemoryWat
   return summarise(samples, reducedFrom);
 }
 
-export async function measureAsync(fn: () => Promise<void>, plan: MeasurePlan, memory: MemoryWatch): Promise<Timing> {
+/** Times `fn`; `before`, when given, runs untimed ahead of each run (e.g. a booking the run must answer after). */
+export async function measureAsync(
+  fn: () => Promise<void>,
+  plan: MeasurePlan,
+  memory: MemoryWatch,
+  before?: () => Promise<void>,
+): Promise<Timing> {
   const samples: number[] = [];
   const timeOnce = async () => {
+    if (before) await before();
     const t0 = performance.now();
     await fn();
     const ms = performance.now() - t0;

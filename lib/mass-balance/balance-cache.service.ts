@@ -12,7 +12,7 @@ import type { BalanceReport } from "@/lib/mass-balance/balance.service";
 import { getLastGaugeId, sealHolds, sealText } from "@/lib/mass-balance/balance-seal.store";
 import type { BalanceSeal } from "@/lib/mass-balance/balance-seal.store";
 import { getLedgerPosition } from "@/lib/ledger/position.store";
-import { getSiteLimits } from "@/lib/mass-balance/site-limits.service";
+import { getClosureShares } from "@/lib/mass-balance/site-limits.service";
 import { PositionCache, quarterHourOf } from "@/lib/ledger/position";
 import type { LedgerPosition } from "@/lib/ledger/position";
 
@@ -61,10 +61,10 @@ export async function getBalanceReportTraced(
 ): Promise<{ result: Result<BalanceReport>; outcome: BalanceCacheOutcome; position: LedgerPosition }> {
   const started = performance.now();
   // The site's tolerance is part of the question: a changed tolerance re-flags even a sealed period.
-  const tolerance = (await getSiteLimits(db, site.id)).closure;
+  // Read beside the position, so a kept answer costs one round of three key reads.
+  const [tolerance, position] = await Promise.all([getClosureShares(db, site.id), getLedgerPosition(db, site.id)]);
   const key = `${balanceQuestionKey(site, input, now)}|${tolerance.warnPct}/${tolerance.failPct}`;
   const sealed = cache.getSealed(key);
-  const position = await getLedgerPosition(db, site.id);
   const same = cache.get(key, position);
   if (same !== undefined) return { result: timed(same.result, started), outcome: "same-position", position };
   if (sealed !== undefined && sealed.value.seal !== null && (await sealHolds(db, site.id, sealed.value.seal))) {

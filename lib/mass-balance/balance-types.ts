@@ -170,3 +170,29 @@ export interface ProcessView {
   outputsByRole: Partial<Record<MoveRole, number>>;
   closure: Closure;
 }
+
+/** What a batch's movements add up to: its charges and outputs by role, as the process view counts them. */
+export interface BatchTally {
+  inputsG: number;
+  outputsG: number;
+  unmeasuredG: number;
+  inputsByRole: Partial<Record<MoveRole, number>>;
+  outputsByRole: Partial<Record<MoveRole, number>>;
+  unusualRoles: MoveRole[];
+  /** Any charge or output (an unmeasured difference alone does not count). */
+  touched: boolean;
+}
+
+/**
+ * The books brought forward to an instant: what every movement dated before `atMs` adds up to, so a
+ * period starting at or after it is computed from its own movements. Holders not listed hold nothing.
+ */
+export interface CarriedBooks {
+  atMs: number;
+  /** Book stock of each stock holder with any, whole grams. */
+  stockG: ReadonlyMap<number, number>;
+  /** The first movement at which each stock holder's book stock went below zero, in ledger order. */
+  negativeStock: readonly NegativeStock[];
+  /** Each batch's movements so far. */
+  batches: ReadonlyMap<number, BatchTally>;
+}

@@ -34,6 +34,82 @@ export const TANK_MATERIAL: Readonly<Record<string, string>> = {
 
 const ROLE_SET: ReadonlySet<string> = new Set(MOVE_ROLES);
 
+/** The rows that describe holders: their kind and code, and the material each carries. */
+export interface HolderParts {
+  holders: Array<{ id: number; kind: string; code: string }>;
+  pickups: Array<{ holderId: number; material: string }>;
+  lots: Array<{ holderId: number; material: string; origin: string }>;
+  tanks: Array<{ holderId: number; service: string }>;
+  reagents: Array<{ holderId: number; reagent: string }>;
+  batches: Array<{ holderId: number; completedAt: Date | null }>;
+  waste: Array<{ holderId: number; stream: string }>;
+}
+
+export interface MoveRow {
+  id: number;
+  at: number;
+  fromHolderId: number | null;
+  toHolderId: number;
+  massG: number;
+  role: string;
+  reversesId: number | null;
+}
+
+/**
+ * The ledger as the balance reads it from holder and movement rows: holders with their material kind
+ * and batch completion, in id order; movements less reversed pairs, receiving differences marked.
+ */
+export function toBalanceLedger(siteId: number, p: HolderParts, rows: readonly MoveRow[]): BalanceLedger {
+  const paired = findReversedPairs(rows);
+  const material = new Map<number, string>();
+  for (const r of p.pickups) material.set(r.holderId, r.material);
+  for (const l of p.lots) material.set(l.holderId, l.material);
+  for (const t of p.tanks) material.set(t.holderId, TANK_MATERIAL[t.service] ?? t.service);
+  for (const r of p.reagents) material.set(r.holderId, r.reagent);
+  for (const w of p.waste) material.set(w.holderId, w.stream);
+  const completed = new Map(p.batches.map((b) => [b.holderId, b.completedAt]));
+  // Receiving differences (lib/feedstock/lot.service.ts): a shortfall is a loss out of a lot, a surplus a
+  // receipt into a lot pooled from pickups (a delivery's receipt is the delivery itself).
+  const lotHolders = new Set(p.lots.map((l) => l.holderId));
+  const pooledLots = new Set(p.lots.filter((l) => l.origin !== "DELIVERY").map((l) => l.holderId));
+  const isReceivingDifference = (m: MoveRow): boolean =>
+    (m.role === "LOSS" && m.fromHolderId !== null && lotHolders.has(m.fromHolderId)) ||
+    (m.role === "RECEIPT" && m.fromHolderId === null && pooledLots.has(m.toHolderId));
+  const refs = new Map<number, BalanceHolderRef>();
+  const list: BalanceHolder[] = [...p.holders]
+    .sort((a, b) => a.id - b.id)
+    .map((h) => {
+      const kind = toHolderKind(h.kind);
+      const materialKind =
+        kind === "BATCH" ? "IN_REACTION" : kind === "PRODUCT_LOT" ? "FAME" : (material.get(h.id) ?? null);
+      refs.set(h.id, { id: h.id, kind, code: h.code, materialKind });
+      const done = completed.get(h.id);
+      return {
+        id: h.id,
+        kind,
+        siteId,
+        materialKind,
+        ...(kind === "BATCH" ? { completedAt: done ? done.getTime() : null } : {}),
+      };
+    });
+  const moves = rows
+    .filter((m) => !paired.has(m.id))
+    .map((m) => {
+      invariant(ROLE_SET.has(m.role), `unknown movement role ${m.role} in the database`);
+      return {
+        id: m.id,
+        at: m.at,
+        fromHolderId: m.fromHolderId,
+        toHolderId: m.toHolderId,
+        massG: m.massG,
+        role: m.role as MoveRole,
+        ...(isReceivingDifference(m) ? { receiving: true } : {}),
+      };
+    });
+  return { holders: list, moves, refs };
+}
+
+/** The site's whole ledger: every holder and every movement (reversed pairs left out). */
 export async function loadBalanceLedger(db: Db, siteId: number): Promise<BalanceLedger> {
   const [holders, pickups, lots, tanks, reagents, batches, waste, moves] = await Promise.all([
     db.holder.findMany({ where: { siteId }, select: { id: true, kind: true, code: true } }),
@@ -48,54 +124,8 @@ export async function loadBalanceLedger(db: Db, siteId: number): Promise<Balance
       select: { id: true, at: true, fromHolderId: true, toHolderId: true, massG: true, role: true, reversesId: true },
     }),
   ]);
-  const paired = findReversedPairs(moves);
-  const material = new Map<number, string>();
-  for (const p of pickups) material.set(p.holderId, p.material);
-  for (const l of lots) material.set(l.holderId, l.material);
-  for (const t of tanks) material.set(t.holderId, TANK_MATERIAL[t.service] ?? t.service);
-  for (const r of reagents) material.set(r.holderId, r.reagent);
-  for (const w of waste) material.set(w.holderId, w.stream);
-  const completed = new Map(batches.map((b) => [b.holderId, b.completedAt]));
-  // Receiving differences (lib/feedstock/lot.service.ts): a shortfall is a loss out of a lot, a surplus a
-  // receipt into a lot pooled from pickups (a delivery's receipt is the delivery itself).
-  const lotHolders = new Set(lots.map((l) => l.holderId));
-  const pooledLots = new Set(lots.filter((l) => l.origin !== "DELIVERY").map((l) => l.holderId));
-  const isReceivingDifference = (m: { role: string; fromHolderId: number | null; toHolderId: number }): boolean =>
-    (m.role === "LOSS" && m.fromHolderId !== null && lotHolders.has(m.fromHolderId)) ||
-    (m.role === "RECEIPT" && m.fromHolderId === null && pooledLots.has(m.toHolderId));
-  const refs = new Map<number, BalanceHolderRef>();
-  const list: BalanceHolder[] = holders.map((h) => {
-    const kind = toHolderKind(h.kind);
-    const materialKind =
-      kind === "BATCH" ? "IN_REACTION" : kind === "PRODUCT_LOT" ? "FAME" : (material.get(h.id) ?? null);
-    refs.set(h.id, { id: h.id, kind, code: h.code, materialKind });
-    const done = completed.get(h.id);
-    return {
-      id: h.id,
-      kind,
-      siteId,
-      materialKind,
-      ...(kind === "BATCH" ? { completedAt: done ? done.getTime() : null } : {}),
-    };
-  });
-  return {
-    holders: list,
-    moves: moves
-      .filter((m) => !paired.has(m.id))
-      .map((m) => {
-        invariant(ROLE_SET.has(m.role), `unknown movement role ${m.role} in the database`);
-        return {
-          id: m.id,
-          at: m.at.getTime(),
-          fromHolderId: m.fromHolderId,
-          toHolderId: m.toHolderId,
-          massG: m.massG,
-          role: m.role as MoveRole,
-          ...(isReceivingDifference(m) ? { receiving: true } : {}),
-        };
-      }),
-    refs,
-  };
+  const rows = moves.map((m) => ({ ...m, at: m.at.getTime() }));
+  return toBalanceLedger(siteId, { holders, pickups, lots, tanks, reagents, batches, waste }, rows);
 }
 
 /** The latest gauge reading of each tank at or before `atOrBefore`. */

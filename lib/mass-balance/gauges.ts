@@ -51,6 +51,8 @@ export function compareBookToGauges(input: {
   readings: readonly GaugeReading[];
   tolerance?: ClosureTolerance;
   holderClasses?: Readonly<Record<HolderKind, HolderClass>>;
+  /** Book stock of each reading's holder at its time, when `moves` do not reach back that far. */
+  bookOf?: (reading: GaugeReading) => number;
 }): Result<GaugeReport> {
   const tolerance = input.tolerance ?? DEFAULT_CLOSURE_TOLERANCE;
   const classes = input.holderClasses ?? DEFAULT_HOLDER_CLASSES;
@@ -89,7 +91,7 @@ export function compareBookToGauges(input: {
   if (issues.length > 0) return failMany(issues);
 
   const rows: GaugeComparison[] = input.readings.map((r) => {
-    const bookG = stockBefore(input.moves, r.at, true).get(r.holderId) ?? 0;
+    const bookG = input.bookOf ? input.bookOf(r) : (stockBefore(input.moves, r.at, true).get(r.holderId) ?? 0);
     const differenceG = r.massG - bookG;
     return {
       holderId: r.holderId,

@@ -2,7 +2,7 @@
 // stock before an instant, and one walk giving opening and closing stock and the first negative stock.
 import type { DomainIssue } from "@/lib/core/result";
 import { MOVE_ROLES } from "@/lib/core/vocabulary";
-import type { BalanceHolder, BalanceMove, NegativeStock } from "@/lib/mass-balance/balance-types";
+import type { BalanceHolder, BalanceMove, CarriedBooks, NegativeStock } from "@/lib/mass-balance/balance-types";
 
 /** Checks the ledger itself: known holders, positive whole grams, valid instants, no move to itself. */
 export function validateLedger(holders: readonly BalanceHolder[], moves: readonly BalanceMove[]): DomainIssue[] {
@@ -69,13 +69,13 @@ function checkMove(
  * the books here"), so the passes below index typed arrays instead of maps.
  */
 export function slotLedger(
-  holders: readonly BalanceHolder[],
+  holders: readonly { id: number }[],
   moves: readonly BalanceMove[],
 ): { issues: DomainIssue[]; from: Int32Array; to: Int32Array } {
   const issues: DomainIssue[] = [];
   const slotOf = new Map<number, number>();
   for (let i = 0; i < holders.length; i++) {
-    const h = holders[i] as BalanceHolder;
+    const h = holders[i] as { id: number };
     if (slotOf.has(h.id))
       issues.push({
         code: "MASS_BALANCE.DUPLICATE_HOLDER",
@@ -118,27 +118,14 @@ export function stockBefore(moves: readonly BalanceMove[], t: number, inclusive 
   return s;
 }
 
-/**
- * One walk of the ledger in (time, id) order up to `endMs`: every holder's book stock before `startMs`
- * (opening) and before `endMs` (closing), and the first movement at which each watched holder's stock
- * is below zero. All movements stamped at the same instant are applied before checking, so their order
- * within the instant does not matter.
- */
-export function walkStock(
-  moves: readonly BalanceMove[],
-  slots: { from: Int32Array; to: Int32Array },
-  holders: readonly BalanceHolder[],
-  startMs: number,
-  endMs: number,
-  watched: Uint8Array,
-): { opening: Float64Array; closing: Float64Array; negativeStock: NegativeStock[] } {
-  // Positions in (time, id) order; a ledger read in that order (the usual case) is not sorted again.
+/** Positions of the movements dated in [fromMs, endMs), in (time, id) order; a ledger read in that order is not sorted again. */
+function timeOrder(moves: readonly BalanceMove[], fromMs: number, endMs: number): Int32Array {
   const all = new Int32Array(moves.length);
   let count = 0;
   let sorted = true;
   for (let i = 0; i < moves.length; i++) {
     const m = moves[i] as BalanceMove;
-    if (m.at >= endMs) continue;
+    if (m.at >= endMs || m.at < fromMs) continue;
     const prev = count === 0 ? undefined : moves[all[count - 1] as number];
     if (prev !== undefined && (prev.at > m.at || (prev.at === m.at && prev.id > m.id))) sorted = false;
     all[count++] = i;
@@ -150,10 +137,49 @@ export function walkStock(
         (moves[a] as BalanceMove).at - (moves[b] as BalanceMove).at ||
         (moves[a] as BalanceMove).id - (moves[b] as BalanceMove).id,
     );
+  return order;
+}
+
+/** The walk's starting point: the books brought forward (stock, and holders found below zero), or nothing. */
+function startingPoint(holders: readonly { id: number }[], watched: Uint8Array, carried: CarriedBooks | undefined) {
   const running = new Float64Array(holders.length);
-  let opening: Float64Array | null = null;
   const found = new Uint8Array(holders.length);
   const negativeStock: NegativeStock[] = [];
+  if (carried === undefined) return { running, found, negativeStock, fromMs: Number.NEGATIVE_INFINITY };
+  const slotOf = new Map<number, number>();
+  holders.forEach((h, i) => slotOf.set(h.id, i));
+  for (const [id, g] of carried.stockG) {
+    const slot = slotOf.get(id);
+    if (slot !== undefined) running[slot] = g;
+  }
+  for (const n of carried.negativeStock) {
+    const slot = slotOf.get(n.holderId);
+    if (slot === undefined || watched[slot] !== 1) continue;
+    found[slot] = 1;
+    negativeStock.push(n);
+  }
+  return { running, found, negativeStock, fromMs: carried.atMs };
+}
+
+/**
+ * One walk of the ledger in (time, id) order up to `endMs`: every holder's book stock before `startMs`
+ * (opening) and before `endMs` (closing), and the first movement at which each watched holder's stock
+ * is below zero. All movements stamped at the same instant are applied before checking, so their order
+ * within the instant does not matter. With books brought forward, the walk starts from them and leaves
+ * out the movements dated before them.
+ */
+export function walkStock(
+  moves: readonly BalanceMove[],
+  slots: { from: Int32Array; to: Int32Array },
+  holders: readonly { id: number }[],
+  startMs: number,
+  endMs: number,
+  watched: Uint8Array,
+  carried?: CarriedBooks,
+): { opening: Float64Array; closing: Float64Array; negativeStock: NegativeStock[] } {
+  const { running, found, negativeStock, fromMs } = startingPoint(holders, watched, carried);
+  const order = timeOrder(moves, fromMs, endMs);
+  let opening: Float64Array | null = null;
   for (let g = 0; g < order.length;) {
     const at = (moves[order[g] as number] as BalanceMove).at;
     if (opening === null && at >= startMs) opening = running.slice();
@@ -173,7 +199,7 @@ export function walkStock(
       if (balanceG < 0) {
         found[f] = 1;
         negativeStock.push({
-          holderId: (holders[f] as BalanceHolder).id,
+          holderId: (holders[f] as { id: number }).id,
           at,
           moveId: (moves[i] as BalanceMove).id,
           balanceG,

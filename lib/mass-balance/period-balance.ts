@@ -22,6 +22,7 @@ import type {
   BalanceHolder,
   BalanceMove,
   BalanceScope,
+  CarriedBooks,
   ClosureTolerance,
   HolderClass,
   HolderStock,
@@ -37,6 +38,8 @@ export type {
   BalanceMove,
   BalanceScope,
   BatchBalance,
+  BatchTally,
+  CarriedBooks,
   Closure,
   ClosureFlag,
   ClosureTolerance,
@@ -67,6 +70,11 @@ export interface PeriodBalanceInput {
   tolerance?: ClosureTolerance;
   /** Book against measured stock of gauged tanks at the period end (latest reading), for the differences. */
   gauges?: readonly GaugeDifference[];
+  /**
+   * The books brought forward to an instant at or before the period start: the walk starts from them,
+   * so `moves` need hold only the movements dated from then on (any earlier ones are left out).
+   */
+  carried?: CarriedBooks;
 }
 
 export interface PeriodBalance {
@@ -146,10 +154,20 @@ function tallyFlows(
   return { receipts, outputs, transfersInG, transfersOutG, returnsG, byRole };
 }
 
-function validatePeriod(period: { startMs: number; endMs: number }): DomainIssue[] {
-  return !Number.isSafeInteger(period.startMs) || !Number.isSafeInteger(period.endMs) || period.endMs <= period.startMs
-    ? [{ code: "MASS_BALANCE.INVALID_PERIOD", message: "Period end must be after its start", field: "period.endMs" }]
-    : [];
+function validatePeriod(period: { startMs: number; endMs: number }, carried?: CarriedBooks): DomainIssue[] {
+  if (!Number.isSafeInteger(period.startMs) || !Number.isSafeInteger(period.endMs) || period.endMs <= period.startMs)
+    return [
+      { code: "MASS_BALANCE.INVALID_PERIOD", message: "Period end must be after its start", field: "period.endMs" },
+    ];
+  if (carried !== undefined && !(carried.atMs <= period.startMs))
+    return [
+      {
+        code: "MASS_BALANCE.INVALID_PERIOD",
+        message: "The books brought forward must be taken at or before the period start",
+        field: "carried.atMs",
+      },
+    ];
+  return [];
 }
 
 /** Opening and closing stock of each holder in scope that held anything at either end. */
@@ -174,7 +192,7 @@ export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBa
   const { holders, moves, period, scope } = input;
   const tolerance = input.tolerance ?? DEFAULT_CLOSURE_TOLERANCE;
   const slots = slotLedger(holders, moves);
-  const issues = [...slots.issues, ...validateTolerance(tolerance), ...validatePeriod(period)];
+  const issues = [...slots.issues, ...validateTolerance(tolerance), ...validatePeriod(period, input.carried)];
   if (issues.length > 0) return failMany(issues);
 
   const classes = scope.holderClasses ?? DEFAULT_HOLDER_CLASSES;
@@ -186,14 +204,8 @@ export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBa
   holders.forEach((h, i) => (scopedSlot[i] = inScope(h) ? 1 : 0));
 
   // Stock view: opening and closing stock and negative stock in one walk.
-  const { opening, closing, negativeStock } = walkStock(
-    moves,
-    slots,
-    holders,
-    period.startMs,
-    period.endMs,
-    scopedSlot,
-  );
+  const walked = walkStock(moves, slots, holders, period.startMs, period.endMs, scopedSlot, input.carried);
+  const { opening, closing, negativeStock } = walked;
   const byHolder = holderStocks(holders, scopedSlot, opening, closing);
   const scoped = holders.filter((_h, i) => scopedSlot[i] === 1);
   const openingG = byHolder.reduce((s, h) => s + h.openingG, 0);
@@ -237,6 +249,7 @@ export function computePeriodBalance(input: PeriodBalanceInput): Result<PeriodBa
       moves,
       period,
       tolerance,
+      input.carried,
     ),
     differences: computeDifferences({
       holders,

@@ -8,6 +8,8 @@ import type {
   BalanceHolder,
   BalanceMove,
   BatchBalance,
+  BatchTally,
+  CarriedBooks,
   ClosureTolerance,
   ProcessView,
 } from "@/lib/mass-balance/balance-types";
@@ -19,47 +21,57 @@ function addTo<K extends string>(rec: Partial<Record<K, number>>, key: K, g: num
   rec[key] = (rec[key] ?? 0) + g;
 }
 
-/** One batch's balance from its movements; null when nothing moved and it did not finish in the period. */
-export function batchBalance(
-  b: BalanceHolder,
-  moves: readonly BalanceMove[],
-  finishedInPeriod: boolean,
-  tolerance: ClosureTolerance,
-): BatchBalance | null {
-  const inputsByRole: Partial<Record<MoveRole, number>> = {};
-  const outputsByRole: Partial<Record<MoveRole, number>> = {};
-  const unusual = new Set<MoveRole>();
-  let bin = 0;
-  let bout = 0;
-  let unmeasuredG = 0;
-  let touched = false;
+/** Adds a batch's movements to what its earlier movements added up to (nothing, without `from`). */
+export function tallyBatch(id: number, moves: readonly BalanceMove[], from?: BatchTally): BatchTally {
+  // Nothing more moved: the earlier tally as it is (tallies are never changed once made).
+  if (from !== undefined && moves.length === 0) return from;
+  const inputsByRole: Partial<Record<MoveRole, number>> = { ...from?.inputsByRole };
+  const outputsByRole: Partial<Record<MoveRole, number>> = { ...from?.outputsByRole };
+  const unusual = new Set<MoveRole>(from?.unusualRoles);
+  let bin = from?.inputsG ?? 0;
+  let bout = from?.outputsG ?? 0;
+  let unmeasuredG = from?.unmeasuredG ?? 0;
+  let touched = from?.touched ?? false;
   for (const m of moves) {
     if (m.role === "UNMEASURED") {
-      unmeasuredG += m.fromHolderId === b.id ? m.massG : -m.massG;
-    } else if (m.toHolderId === b.id) {
+      unmeasuredG += m.fromHolderId === id ? m.massG : -m.massG;
+    } else if (m.toHolderId === id) {
       touched = true;
       bin += m.massG;
       addTo(inputsByRole, m.role, m.massG);
       if (!USUAL_INPUTS.has(m.role)) unusual.add(m.role);
-    } else if (m.fromHolderId === b.id) {
+    } else if (m.fromHolderId === id) {
       touched = true;
       bout += m.massG;
       addTo(outputsByRole, m.role, m.massG);
       if (!USUAL_OUTPUTS.has(m.role)) unusual.add(m.role);
     }
   }
-  if (!touched && !finishedInPeriod) return null;
+  const unusualRoles = [...unusual].sort();
+  return { inputsG: bin, outputsG: bout, unmeasuredG, inputsByRole, outputsByRole, unusualRoles, touched };
+}
+
+/** One batch's balance from its movements; null when nothing moved and it did not finish in the period. */
+export function batchBalance(
+  b: BalanceHolder,
+  moves: readonly BalanceMove[],
+  finishedInPeriod: boolean,
+  tolerance: ClosureTolerance,
+  carried?: BatchTally,
+): BatchBalance | null {
+  const t = tallyBatch(b.id, moves, carried);
+  if (!t.touched && !finishedInPeriod) return null;
   return {
     holderId: b.id,
     completedAt: b.completedAt ?? null,
-    inputsG: bin,
-    outputsG: bout,
-    imbalanceG: bin - bout,
-    unmeasuredG,
-    inputsByRole,
-    outputsByRole,
-    unusualRoles: [...unusual].sort(),
-    closure: classifyClosure(bin - bout, bin, tolerance),
+    inputsG: t.inputsG,
+    outputsG: t.outputsG,
+    imbalanceG: t.inputsG - t.outputsG,
+    unmeasuredG: t.unmeasuredG,
+    inputsByRole: t.inputsByRole,
+    outputsByRole: t.outputsByRole,
+    unusualRoles: t.unusualRoles,
+    closure: classifyClosure(t.inputsG - t.outputsG, t.inputsG, tolerance),
   };
 }
 
@@ -68,6 +80,7 @@ export function computeProcessView(
   moves: readonly BalanceMove[],
   period: { startMs: number; endMs: number },
   tolerance: ClosureTolerance,
+  carried?: CarriedBooks,
 ): ProcessView {
   const completed: BatchBalance[] = [];
   const inProgress: BatchBalance[] = [];
@@ -82,8 +95,10 @@ export function computeProcessView(
     (b) => b.completedAt === null || b.completedAt === undefined || b.completedAt >= period.startMs,
   );
   const movesOf = new Map<number, BalanceMove[]>(relevant.map((b) => [b.id, []]));
+  // Movements before the books brought forward are already in their batches' tallies.
+  const fromMs = carried?.atMs ?? Number.NEGATIVE_INFINITY;
   for (const m of moves) {
-    if (m.at >= period.endMs) continue;
+    if (m.at >= period.endMs || m.at < fromMs) continue;
     movesOf.get(m.toHolderId)?.push(m);
     if (m.fromHolderId !== null) movesOf.get(m.fromHolderId)?.push(m);
   }
@@ -91,7 +106,7 @@ export function computeProcessView(
   for (const b of relevant) {
     const completedAt = b.completedAt ?? null;
     const finishedInPeriod = completedAt !== null && completedAt < period.endMs;
-    const row = batchBalance(b, movesOf.get(b.id) ?? [], finishedInPeriod, tolerance);
+    const row = batchBalance(b, movesOf.get(b.id) ?? [], finishedInPeriod, tolerance, carried?.batches.get(b.id));
     if (row === null) continue;
     if (!finishedInPeriod) {
       inProgress.push(row);

@@ -13,13 +13,25 @@ import {
   WATER_LIMITS_KEY,
   WaterLimitSchema,
 } from "@/lib/mass-balance/site-limits.schema";
-import { getSavedSiteLimits, insertSiteLimit, listSiteLimitHistory } from "@/lib/mass-balance/site-limits.store";
+import {
+  getSavedClosureShares,
+  getSavedSiteLimits,
+  insertSiteLimit,
+  listSiteLimitHistory,
+} from "@/lib/mass-balance/site-limits.store";
+import { DEFAULT_CLOSURE_TOLERANCE } from "@/lib/mass-balance/balance-rules";
 import type { LimitHistoryRow } from "@/lib/mass-balance/site-limits.store";
 import type { ClosureLimit, WaterLimit } from "@/lib/mass-balance/site-limits.schema";
 
 /** The closure tolerance and water limits the site works to now (its newest saved values, else the defaults). */
 export async function getSiteLimits(db: Db | Tx, siteId: number): Promise<SiteLimits> {
   return resolveSiteLimits(await getSavedSiteLimits(db, siteId));
+}
+
+/** The warn and fail shares of the closure tolerance in force (getSiteLimits(...).closure's), in one read. */
+export async function getClosureShares(db: Db | Tx, siteId: number): Promise<{ warnPct: number; failPct: number }> {
+  const saved = await getSavedClosureShares(db, siteId);
+  return saved ?? { warnPct: DEFAULT_CLOSURE_TOLERANCE.warnPct, failPct: DEFAULT_CLOSURE_TOLERANCE.failPct };
 }
 
 export async function getSiteLimitHistory(db: Db, siteId: number): Promise<LimitHistoryRow[]> {

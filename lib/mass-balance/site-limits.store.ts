@@ -8,7 +8,7 @@ import {
 } from "@/lib/mass-balance/site-limits.schema";
 import type { ClosureLimit, WaterLimit } from "@/lib/mass-balance/site-limits.schema";
 import type { LimitChange } from "@/lib/mass-balance/site-limits";
-import { listSiteSettingVersions } from "@/lib/site/site.store";
+import { getNewestSiteSettingValue, listSiteSettingVersions } from "@/lib/site/site.store";
 
 type LimitKey = typeof CLOSURE_TOLERANCE_KEY | typeof WATER_LIMITS_KEY;
 
@@ -50,6 +50,16 @@ export async function getSavedSiteLimits(db: Db | Tx, siteId: number) {
     rowsOf(db, siteId, WATER_LIMITS_KEY, 1),
   ]);
   return { closure: parsed(closure[0], closureOf), water: parsed(water[0], waterOf) };
+}
+
+/** The warn and fail shares of the site's newest saved closure tolerance, without who saved it; null: none saved. */
+export async function getSavedClosureShares(
+  db: Db | Tx,
+  siteId: number,
+): Promise<{ warnPct: number; failPct: number } | null> {
+  const json = await getNewestSiteSettingValue(db, siteId, CLOSURE_TOLERANCE_KEY);
+  const value = json === null ? null : closureOf(JSON.parse(json));
+  return value === null ? null : { warnPct: value.warnPct, failPct: value.failPct };
 }
 
 export interface LimitHistoryRow {

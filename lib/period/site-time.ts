@@ -1,10 +1,22 @@
 // The site's wall clock: a time zone's offset at an instant (daylight saving included), read from the
 // runtime's time-zone database. Pure: the instant comes in as an argument.
 
+// Building a formatter costs about a millisecond and a balance asks several times: one per zone is kept.
+const formatters = new Map<string, Intl.DateTimeFormat>();
+
+function offsetFormatter(timeZone: string): Intl.DateTimeFormat {
+  let f = formatters.get(timeZone);
+  if (f === undefined) {
+    f = new Intl.DateTimeFormat("en-US", { timeZone, timeZoneName: "longOffset" });
+    formatters.set(timeZone, f);
+  }
+  return f;
+}
+
 /** Minutes east of UTC of a time zone at an instant (0 for an unknown zone). */
 export function getUtcOffsetMin(timeZone: string, at: Date): number {
   try {
-    const name = new Intl.DateTimeFormat("en-US", { timeZone, timeZoneName: "longOffset" })
+    const name = offsetFormatter(timeZone)
       .formatToParts(at)
       .find((p) => p.type === "timeZoneName")?.value;
     const m = name ? /GMT([+-])(\d{2}):?(\d{2})?/.exec(name) : null;

@@ -67,6 +67,16 @@ export interface SiteSettingVersion {
   by: string;
 }
 
+/** The newest saved value of one site setting (its JSON text only): one indexed read, for hot paths. */
+export async function getNewestSiteSettingValue(db: Db | Tx, siteId: number, key: string): Promise<string | null> {
+  const row = await db.siteSetting.findFirst({
+    where: { siteId, key },
+    orderBy: [{ createdAt: "desc" }, { id: "desc" }],
+    select: { valueJson: true },
+  });
+  return row?.valueJson ?? null;
+}
+
 /** Saved versions of one site setting, newest first, each with who saved it (one user read for all). */
 export async function listSiteSettingVersions(
   db: Db | Tx,
