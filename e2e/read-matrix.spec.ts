@@ -103,7 +103,7 @@ test("a collector's phone menu holds only the collector's own pages", async ({ p
   await page.getByLabel("User name").fill("collector.ivo");
   await page.getByLabel("Password").fill("quillmoor-demo");
   await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).toHaveURL(/\/collect/);
+  await expect(page).toHaveURL(/\/collect/, { timeout: 30_000 }); // a fresh server opens its first page
   const menu = page.getByRole("button", { name: /^Menu/ });
   await expect(menu).toBeVisible();
   await menu.click();

@@ -10,7 +10,7 @@ test("a wrong password is refused with a message and the user name kept", async 
   await expect(page.getByLabel("User name")).toHaveValue("production.tess");
   await page.getByLabel("Password").fill("quillmoor-demo");
   await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).toHaveURL(/\/lots$/);
+  await expect(page).toHaveURL(/\/lots$/, { timeout: 30_000 }); // a fresh server opens its first page
   await expect(page.getByRole("heading", { level: 1 })).toContainText(/lots/i);
   const cookies = await page.context().cookies();
   const session = cookies.find((c) => c.name === "tv_session");
