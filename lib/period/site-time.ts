@@ -1,10 +1,21 @@
 // The site's wall clock: a time zone's offset at an instant (daylight saving included), read from the
 // runtime's time-zone database. Pure: the instant comes in as an argument.
 
+/** One offset formatter per time zone: building one costs several times reading an offset with it. */
+const offsetFormatters = new Map<string, Intl.DateTimeFormat>();
+
+function offsetFormatter(timeZone: string): Intl.DateTimeFormat {
+  const kept = offsetFormatters.get(timeZone);
+  if (kept !== undefined) return kept;
+  const fmt = new Intl.DateTimeFormat("en-US", { timeZone, timeZoneName: "longOffset" });
+  offsetFormatters.set(timeZone, fmt);
+  return fmt;
+}
+
 /** Minutes east of UTC of a time zone at an instant (0 for an unknown zone). */
 export function getUtcOffsetMin(timeZone: string, at: Date): number {
   try {
-    const name = new Intl.DateTimeFormat("en-US", { timeZone, timeZoneName: "longOffset" })
+    const name = offsetFormatter(timeZone)
       .formatToParts(at)
       .find((p) => p.type === "timeZoneName")?.value;
     const m = name ? /GMT([+-])(\d{2}):?(\d{2})?/.exec(name) : null;

@@ -52,6 +52,15 @@ export function DataTable<T>({
 }) {
   if (rows.length === 0) return <p className="empty">{empty}</p>;
   const hasTotals = columns.some((c) => c.total !== undefined);
+  // Only the attributes a cell has: an attribute left undefined still travels in the page's data, on
+  // every cell of every row.
+  const cellProps = columns.map((c) => {
+    const className = cellClass(c);
+    return {
+      ...(className ? { className } : {}),
+      ...(cards ? { "data-label": `${c.header}${c.unit ? ` (${c.unit})` : ""}` } : {}),
+    };
+  });
   return (
     // Focusable and named, so a table wider than the screen can be scrolled from the keyboard.
     <div className="table-wrap" tabIndex={0} role="region" aria-label={caption}>
@@ -76,13 +85,9 @@ export function DataTable<T>({
         </thead>
         <tbody>
           {rows.map((r) => (
-            <tr key={rowKey(r)} id={rowId?.(r)}>
-              {columns.map((c) => (
-                <td
-                  key={c.key}
-                  className={cellClass(c)}
-                  data-label={cards ? `${c.header}${c.unit ? ` (${c.unit})` : ""}` : undefined}
-                >
+            <tr key={rowKey(r)} {...(rowId ? { id: rowId(r) } : {})}>
+              {columns.map((c, i) => (
+                <td key={c.key} {...cellProps[i]}>
                   {c.cell(r)}
                 </td>
               ))}
