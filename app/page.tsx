@@ -1,6 +1,4 @@
-import { getUtcOffsetMin } from "@/lib/period/site-time";
-import { getDashboard } from "@/app/_today/today";
-import { getWasteDueBoard } from "@/lib/waste/container.store";
+import { keptToday } from "@/app/_today/today-kept";
 import { loadSite } from "@/app/_ui/site";
 import { NoSite } from "@/app/_ui/ui";
 import { BatchPanel, LabPanel, TankPanel, WastePanel } from "@/app/_today/panels";
@@ -12,10 +10,7 @@ export default async function TodayPage() {
   const { db, site } = await loadSite();
   if (!site) return <NoSite />;
   const now = new Date();
-  const [d, waste] = await Promise.all([
-    getDashboard(db, site, now),
-    getWasteDueBoard(db, site.id, now, getUtcOffsetMin(site.timeZone, now)),
-  ]);
+  const { dashboard: d, waste } = (await keptToday(db, site, now)).value;
   const tz = site.timeZone;
   return (
     <>

@@ -27,26 +27,35 @@ export function num(value: number | null, decimals: number): string {
   return value === null ? "—" : formatFixed(value, decimals);
 }
 
-function parts(d: Date, timeZone: string, withTime: boolean): Record<string, string> {
+/** One formatter per time zone and shape: building one costs several times the formatting itself. */
+const formatters = new Map<string, Intl.DateTimeFormat>();
+
+function formatter(timeZone: string, withTime: boolean): Intl.DateTimeFormat {
+  const key = `${timeZone}|${withTime ? "t" : "d"}`;
+  const kept = formatters.get(key);
+  if (kept !== undefined) return kept;
+  const options: Intl.DateTimeFormatOptions = {
+    year: "numeric",
+    month: "2-digit",
+    day: "2-digit",
+    ...(withTime ? { hour: "2-digit", minute: "2-digit", hourCycle: "h23" } : {}),
+  };
   let fmt: Intl.DateTimeFormat;
   try {
-    fmt = new Intl.DateTimeFormat("en-GB", {
-      timeZone,
-      year: "numeric",
-      month: "2-digit",
-      day: "2-digit",
-      ...(withTime ? { hour: "2-digit", minute: "2-digit", hourCycle: "h23" as const } : {}),
-    });
+    fmt = new Intl.DateTimeFormat("en-GB", { timeZone, ...options });
   } catch {
-    fmt = new Intl.DateTimeFormat("en-GB", {
-      timeZone: "UTC",
-      year: "numeric",
-      month: "2-digit",
-      day: "2-digit",
-      ...(withTime ? { hour: "2-digit", minute: "2-digit", hourCycle: "h23" as const } : {}),
-    });
+    fmt = new Intl.DateTimeFormat("en-GB", { timeZone: "UTC", ...options });
   }
-  return Object.fromEntries(fmt.formatToParts(d).map((p) => [p.type, p.value]));
+  formatters.set(key, fmt);
+  return fmt;
+}
+
+function parts(d: Date, timeZone: string, withTime: boolean): Record<string, string> {
+  return Object.fromEntries(
+    formatter(timeZone, withTime)
+      .formatToParts(d)
+      .map((p) => [p.type, p.value]),
+  );
 }
 
 /** "2026-03-04 14:05" in the site's time zone. */

@@ -1,4 +1,7 @@
 import type { Db } from "@/lib/core/connect";
+import { PositionCache } from "@/lib/ledger/position";
+import { keptAtPosition, questionKey } from "@/lib/ledger/position-cache.service";
+import type { Kept } from "@/lib/ledger/position-cache.service";
 import { computePeriodFlows } from "@/lib/mass-balance/flows";
 import type { FlowLink, FlowNode, PeriodFlows } from "@/lib/mass-balance/flows";
 import { loadFlowLedger } from "@/lib/mass-balance/flows.store";
@@ -64,6 +67,40 @@ function flowsSvg(f: PeriodFlows, label: ReadonlyMap<string, string>): string {
   );
 }
 
+// The flows and their drawing, kept by ledger position (decision 0037) for the period's bounds: any
+// booking or audited change moves the position and the next request reads the period's ledger again.
+interface FlowsDrawing {
+  f: PeriodFlows;
+  svg: string | null;
+}
+const home = globalThis as unknown as { tracevatFlowsPictures?: PositionCache<FlowsDrawing> };
+const kept: PositionCache<FlowsDrawing> = (home.tracevatFlowsPictures ??= new PositionCache<FlowsDrawing>(50));
+
+async function drawFlows(db: Db, siteId: number, period: { startsAt: Date; endsAt: Date }): Promise<FlowsDrawing> {
+  const ledger = await loadFlowLedger(db, siteId, { from: period.startsAt, to: period.endsAt });
+  const f = computePeriodFlows({
+    holders: ledger.holders,
+    moves: ledger.moves,
+    period: { startMs: period.startsAt.getTime(), endMs: period.endsAt.getTime() },
+  });
+  if (f.links.length === 0) return { f, svg: null };
+  return { f, svg: flowsSvg(f, new Map(f.nodes.map((n) => [n.key, n.label]))) };
+}
+
+/** Forgets every kept flows pictures (tests). */
+export function clearFlowsPictures(): void {
+  kept.clear();
+}
+
+export function keptFlows(
+  db: Db,
+  siteId: number,
+  period: { startsAt: Date; endsAt: Date },
+): Promise<Kept<FlowsDrawing>> {
+  const key = questionKey(siteId, null, period.startsAt.getTime(), period.endsAt.getTime());
+  return keptAtPosition(kept, db, siteId, key, () => drawFlows(db, siteId, period));
+}
+
 /** The period's flows from sources to what left the site, as a Sankey picture. */
 export async function FlowsPicture({
   db,
@@ -76,13 +113,8 @@ export async function FlowsPicture({
 }) {
   const id = "period-flows";
   const title = `Where the material went in ${period.label}`;
-  const ledger = await loadFlowLedger(db, siteId, { from: period.startsAt, to: period.endsAt });
-  const f = computePeriodFlows({
-    holders: ledger.holders,
-    moves: ledger.moves,
-    period: { startMs: period.startsAt.getTime(), endMs: period.endsAt.getTime() },
-  });
-  if (f.links.length === 0) {
+  const { f, svg } = (await keptFlows(db, siteId, period)).value;
+  if (svg === null) {
     return (
       <NoPicture id={id} title={title}>
         Nothing was moved in this period, so there are no flows to draw.
@@ -90,7 +122,6 @@ export async function FlowsPicture({
     );
   }
   const label = new Map(f.nodes.map((n) => [n.key, n.label]));
-  const svg = flowsSvg(f, label);
   const apart = [
     f.sameStageG > 0 ? `${kg(f.sameStageG, 0)} moved between places of one step (such as tank to tank)` : "",
     f.backwardG > 0 ? `${kg(f.backwardG, 0)} went back a step (such as recovered methanol charged again)` : "",

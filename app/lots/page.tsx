@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { LOT_STATUSES, labelOf } from "@/lib/core/vocabulary";
-import { listLots } from "@/lib/feedstock/lot.store";
+import type { LotRow } from "@/lib/feedstock/lot.store";
 import { ffa, kg, pct, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
@@ -9,13 +9,12 @@ import { CodeLink, Empty, HistoryLink, NoSite, Note, Pager, Status } from "@/app
 import type { Column } from "@/app/_ui/kit/data-table";
 import { DataTable } from "@/app/_ui/kit/data-table";
 import { ReceiptsPicture } from "@/app/lots/receipts-picture";
+import { keptLotPage } from "@/app/lots/lots-kept";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Feedstock lots" };
 
-type LotListRow = Awaited<ReturnType<typeof listLots>>["rows"][number];
-
-const LOT_COLUMNS = (tz: string): Column<LotListRow>[] => [
+const LOT_COLUMNS = (tz: string): Column<LotRow>[] => [
   {
     key: "lot",
     header: "Lot",
@@ -51,11 +50,9 @@ export default async function LotsPage({ searchParams }: Props) {
   const page = pageParam(sp.page);
   const rawStatus = Array.isArray(sp.status) ? sp.status[0] : sp.status;
   const status = LOT_STATUSES.find((s) => s === rawStatus);
-  const { rows, total } = await listLots(db, site.id, {
-    skip: (page - 1) * PAGE_SIZE,
-    take: PAGE_SIZE,
-    ...(status ? { status } : {}),
-  });
+  const { rows, total } = (
+    await keptLotPage(db, site.id, { skip: (page - 1) * PAGE_SIZE, take: PAGE_SIZE, ...(status ? { status } : {}) })
+  ).value;
   const tz = site.timeZone;
   const query: Record<string, string> = status ? { status } : {};
   return (

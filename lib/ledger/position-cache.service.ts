@@ -1,6 +1,7 @@
 import "server-only";
 // An answer kept by the ledger position it was computed at (decision 0037), for reports that have no
-// seal of their own: the waste-due list and the recall answer. The same question at the same position
+// seal of their own: the waste-due list, the recall answer, the home page's read model, the lots list
+// and the pictures drawn on the server. The same question at the same position
 // is answered from memory; any booking or audited change moves the position and the next request
 // computes again. The position is read again after computing, so an answer overtaken by a booking that
 // landed meanwhile is handed out but not kept.
@@ -18,6 +19,28 @@ export interface KeptAnswer<T> {
   position: LedgerPosition;
 }
 
+export interface Kept<T> {
+  value: T;
+  outcome: KeptOutcome;
+  position: LedgerPosition;
+}
+
+/** Any value computed from the books, kept by the position it was computed at. */
+export async function keptAtPosition<T>(
+  cache: PositionCache<T>,
+  db: Db,
+  siteId: number,
+  key: string,
+  compute: () => Promise<T>,
+): Promise<Kept<T>> {
+  const position = await getLedgerPosition(db, siteId);
+  const kept = cache.get(key, position);
+  if (kept !== undefined) return { value: kept, outcome: "same-position", position };
+  const value = await compute();
+  if (samePosition(await getLedgerPosition(db, siteId), position)) cache.set(key, position, value);
+  return { value, outcome: "computed", position };
+}
+
 export async function answerAtPosition<T>(
   cache: PositionCache<Result<T>>,
   db: Db,
@@ -25,12 +48,8 @@ export async function answerAtPosition<T>(
   key: string,
   compute: () => Promise<Result<T>>,
 ): Promise<KeptAnswer<T>> {
-  const position = await getLedgerPosition(db, siteId);
-  const kept = cache.get(key, position);
-  if (kept !== undefined) return { result: kept, outcome: "same-position", position };
-  const result = await compute();
-  if (samePosition(await getLedgerPosition(db, siteId), position)) cache.set(key, position, result);
-  return { result, outcome: "computed", position };
+  const { value, outcome, position } = await keptAtPosition(cache, db, siteId, key, compute);
+  return { result: value, outcome, position };
 }
 
 /** A question's key: the site, the query as typed (keys sorted) and anything else the answer depends on. */

@@ -21,6 +21,18 @@ function cellClass<T>(c: Column<T>): string | undefined {
 }
 
 /**
+ * Only the attributes a cell has: an attribute left undefined still travels in the page's data, on
+ * every cell of every row.
+ */
+function cellAttributes<T>(c: Column<T>, cards: boolean): { className?: string; "data-label"?: string } {
+  const className = cellClass(c);
+  return {
+    ...(className ? { className } : {}),
+    ...(cards ? { "data-label": `${c.header}${c.unit ? ` (${c.unit})` : ""}` } : {}),
+  };
+}
+
+/**
  * The one table every list uses: a caption, columns with units and alignment, an optional totals row,
  * a plain empty state, an optional link to the same rows as CSV, and (for lists read on a phone) cards.
  */
@@ -52,6 +64,7 @@ export function DataTable<T>({
 }) {
   if (rows.length === 0) return <p className="empty">{empty}</p>;
   const hasTotals = columns.some((c) => c.total !== undefined);
+  const cellProps = columns.map((c) => cellAttributes(c, cards));
   return (
     // Focusable and named, so a table wider than the screen can be scrolled from the keyboard.
     <div className="table-wrap" tabIndex={0} role="region" aria-label={caption}>
@@ -76,13 +89,9 @@ export function DataTable<T>({
         </thead>
         <tbody>
           {rows.map((r) => (
-            <tr key={rowKey(r)} id={rowId?.(r)}>
-              {columns.map((c) => (
-                <td
-                  key={c.key}
-                  className={cellClass(c)}
-                  data-label={cards ? `${c.header}${c.unit ? ` (${c.unit})` : ""}` : undefined}
-                >
+            <tr key={rowKey(r)} {...(rowId ? { id: rowId(r) } : {})}>
+              {columns.map((c, i) => (
+                <td key={c.key} {...cellProps[i]}>
                   {c.cell(r)}
                 </td>
               ))}

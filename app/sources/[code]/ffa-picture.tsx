@@ -1,4 +1,7 @@
 import type { Db } from "@/lib/core/connect";
+import { PositionCache } from "@/lib/ledger/position";
+import { keptAtPosition, questionKey } from "@/lib/ledger/position-cache.service";
+import type { Kept } from "@/lib/ledger/position-cache.service";
 import { labelOf } from "@/lib/core/vocabulary";
 import { computeFfaBySource } from "@/lib/feedstock/ffa-series";
 import type { FfaPoint, SourceFfaSeries } from "@/lib/feedstock/ffa-series";
@@ -71,6 +74,42 @@ const ffaColumns = (timeZone: string): Array<Column<FfaPoint>> => [
   { key: "ffa", header: "FFA", unit: "%", numeric: true, cell: (p) => num(p.ffaPct, 2) },
 ];
 
+// The series and its drawing, kept by ledger position (decision 0037): titrations, voids, lots and
+// pickups all move the position, and the next request reads the source's lots again.
+interface FfaDrawing {
+  s: SourceFfaSeries | undefined;
+  drawn: { svg: string; summary: string } | null;
+}
+const home = globalThis as unknown as { tracevatFfaPictures?: PositionCache<FfaDrawing> };
+const kept: PositionCache<FfaDrawing> = (home.tracevatFfaPictures ??= new PositionCache<FfaDrawing>(100));
+
+async function drawFfa(
+  db: Db,
+  siteId: number,
+  source: { id: number; code: string },
+  timeZone: string,
+): Promise<FfaDrawing> {
+  const lots = await listSourceLotsWithFfa(db, siteId, source.id);
+  const s = computeFfaBySource(lots).find((x) => x.sourceCode === source.code);
+  if (!s || s.points.length === 0) return { s, drawn: null };
+  return { s, drawn: { svg: ffaChart(s, timeZone), summary: ffaSummary(s, source.code, timeZone) } };
+}
+
+/** Forgets every kept source FFA pictures (tests). */
+export function clearFfaPictures(): void {
+  kept.clear();
+}
+
+export function keptFfaDrawing(
+  db: Db,
+  siteId: number,
+  source: { id: number; code: string },
+  timeZone: string,
+): Promise<Kept<FfaDrawing>> {
+  const key = questionKey(siteId, null, source.id, source.code, timeZone);
+  return keptAtPosition(kept, db, siteId, key, () => drawFfa(db, siteId, source, timeZone));
+}
+
 /** The FFA of the lots this source supplied, by date received, one colour per material kind. */
 export async function SourceFfaPicture({
   db,
@@ -85,9 +124,8 @@ export async function SourceFfaPicture({
 }) {
   const id = "source-ffa";
   const title = "FFA of the lots from this source";
-  const lots = await listSourceLotsWithFfa(db, siteId, source.id);
-  const s = computeFfaBySource(lots).find((x) => x.sourceCode === source.code);
-  if (!s || s.points.length === 0) {
+  const { s, drawn } = (await keptFfaDrawing(db, siteId, source, timeZone)).value;
+  if (!s || drawn === null) {
     return (
       <NoPicture id={id} title={title}>
         {s && s.untested > 0
@@ -100,8 +138,8 @@ export async function SourceFfaPicture({
     <Picture
       id={id}
       title={title}
-      svg={ffaChart(s, timeZone)}
-      summary={ffaSummary(s, source.code, timeZone)}
+      svg={drawn.svg}
+      summary={drawn.summary}
       numbers={
         <>
           <DataTable<FfaPoint>

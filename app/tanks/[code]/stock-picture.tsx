@@ -1,4 +1,7 @@
 import type { Db } from "@/lib/core/connect";
+import { PositionCache, quarterHourOf } from "@/lib/ledger/position";
+import { keptAtPosition, questionKey } from "@/lib/ledger/position-cache.service";
+import type { Kept } from "@/lib/ledger/position-cache.service";
 import { getUtcOffsetMin } from "@/lib/period/site-time";
 import { computeTankStockSeries } from "@/lib/tank/stock-series";
 import type { StockPoint, TankStockSeries } from "@/lib/tank/stock-series";
@@ -75,6 +78,54 @@ function stockSummary(s: Series, { first }: Span, code: string, capacityG: numbe
   );
 }
 
+// The series and its drawing, kept by ledger position (decision 0037) and quarter-hour: bookings and
+// gauge readings move the position; the time axis runs to the moment it was drawn, at most a
+// quarter-hour before the page is shown.
+interface StockDrawing {
+  s: Series;
+  drawn: { svg: string; summary: string } | null;
+}
+const home = globalThis as unknown as { tracevatTankPictures?: PositionCache<StockDrawing> };
+const kept: PositionCache<StockDrawing> = (home.tracevatTankPictures ??= new PositionCache<StockDrawing>(100));
+
+async function drawStock(
+  db: Db,
+  siteId: number,
+  tank: { code: string; capacityG: number },
+  timeZone: string,
+  now: Date,
+): Promise<StockDrawing> {
+  const history = await loadTankStockHistory(db, siteId, tank.code);
+  const s = computeTankStockSeries(history?.moves ?? [], history?.readings ?? [], tank.capacityG);
+  const first = Math.min(s.book[0]?.at ?? Infinity, s.gauges[0]?.at ?? Infinity);
+  const last = Math.max(now.getTime(), s.book.at(-1)?.at ?? 0, s.gauges.at(-1)?.at ?? 0);
+  const span = { first, last };
+  if (s.book.length === 0 && s.gauges.length === 0) return { s, drawn: null };
+  return {
+    s,
+    drawn: {
+      svg: stockChart(s, span, tank.capacityG, timeZone),
+      summary: stockSummary(s, span, tank.code, tank.capacityG, timeZone),
+    },
+  };
+}
+
+/** Forgets every kept tank stock pictures (tests). */
+export function clearTankPictures(): void {
+  kept.clear();
+}
+
+export function keptStockDrawing(
+  db: Db,
+  siteId: number,
+  tank: { code: string; capacityG: number },
+  timeZone: string,
+  now: Date,
+): Promise<Kept<StockDrawing>> {
+  const key = questionKey(siteId, null, tank.code, tank.capacityG, timeZone, quarterHourOf(now));
+  return keptAtPosition(kept, db, siteId, key, () => drawStock(db, siteId, tank, timeZone, now));
+}
+
 export async function TankStockPicture({
   db,
   siteId,
@@ -92,25 +143,21 @@ export async function TankStockPicture({
 }) {
   const id = "tank-stock";
   const title = "Stock over time";
-  const history = await loadTankStockHistory(db, siteId, code);
-  const s = computeTankStockSeries(history?.moves ?? [], history?.readings ?? [], capacityG);
-  if (s.book.length === 0 && s.gauges.length === 0) {
+  const { s, drawn } = (await keptStockDrawing(db, siteId, { code, capacityG }, timeZone, now)).value;
+  if (drawn === null) {
     return (
       <NoPicture id={id} title={title}>
         Nothing has been moved into or out of this tank and it has not been gauged, so there is no stock to draw yet.
       </NoPicture>
     );
   }
-  const first = Math.min(s.book[0]?.at ?? Infinity, s.gauges[0]?.at ?? Infinity);
-  const last = Math.max(now.getTime(), s.book.at(-1)?.at ?? 0, s.gauges.at(-1)?.at ?? 0);
-  const span = { first, last };
   const steps = s.book.slice(1).map((p, i) => ({ ...p, changeG: p.stockG - (s.book[i]?.stockG ?? 0) }));
   return (
     <Picture
       id={id}
       title={title}
-      svg={stockChart(s, span, capacityG, timeZone)}
-      summary={stockSummary(s, span, code, capacityG, timeZone)}
+      svg={drawn.svg}
+      summary={drawn.summary}
       numbers={
         <>
           <DataTable
