@@ -140,21 +140,11 @@ export interface StockView {
   negativeStock: NegativeStock[];
 }
 
-export interface BatchBalance {
+export interface BatchBalance extends Omit<BatchTally, "touched"> {
   holderId: number;
   completedAt: number | null;
-  /** Charges (oil and reagents); an unmeasured gain is not an input. */
-  inputsG: number;
-  /** Measured outputs and recorded losses; the booked unmeasured difference is not an output. */
-  outputsG: number;
   /** inputs − measured outputs: the unmeasured difference of a finished batch, still held for one in progress. */
   imbalanceG: number;
-  /** The unmeasured difference as booked (out to the site's difference account, less any unmeasured gain). */
-  unmeasuredG: number;
-  inputsByRole: Partial<Record<MoveRole, number>>;
-  outputsByRole: Partial<Record<MoveRole, number>>;
-  /** Roles other than the usual batch input/output roles that touched the batch. */
-  unusualRoles: MoveRole[];
   closure: Closure;
 }
 
@@ -173,11 +163,15 @@ export interface ProcessView {
 
 /** What a batch's movements add up to: its charges and outputs by role, as the process view counts them. */
 export interface BatchTally {
+  /** Charges (oil and reagents); an unmeasured gain is not an input. */
   inputsG: number;
+  /** Measured outputs and recorded losses; the booked unmeasured difference is not an output. */
   outputsG: number;
+  /** The unmeasured difference as booked (out to the site's difference account, less any unmeasured gain). */
   unmeasuredG: number;
   inputsByRole: Partial<Record<MoveRole, number>>;
   outputsByRole: Partial<Record<MoveRole, number>>;
+  /** Roles other than the usual batch input/output roles that touched the batch. */
   unusualRoles: MoveRole[];
   /** Any charge or output (an unmeasured difference alone does not count). */
   touched: boolean;

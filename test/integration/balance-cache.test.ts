@@ -11,7 +11,7 @@ import { writeScenario } from "@/seeds/load";
 import type { Result } from "@/lib/core/result";
 import { clearBalanceCache, getBalanceReportTraced } from "@/lib/mass-balance/balance-cache.service";
 import type { BalanceReport } from "@/lib/mass-balance/balance.service";
-import { recordPickup } from "@/lib/feedstock/pickup.service";
+import { bookDemoPickup } from "./support/demo-pickup";
 import { reopenPeriod } from "@/lib/period/period.service";
 import { getLedgerPosition } from "@/lib/ledger/position.store";
 import { samePosition } from "@/lib/ledger/position";
@@ -69,28 +69,7 @@ describe.each(PROVIDERS)("balance kept by ledger position on %s", (provider) => 
   async function bookPickup(observedAt: string): Promise<number> {
     serial += 1;
     const code = `BC-${provider}-${serial}`.toUpperCase();
-    const tess = await t.db.user.findUniqueOrThrow({ where: { login: "production.tess" } });
-    value(
-      await recordPickup(
-        t.db,
-        { siteId: site.id, userId: tess.id, now: NOW },
-        {
-          code,
-          sourceCode: source.code,
-          material: source.material,
-          observedAt,
-          containers: 1,
-          volumeL: 100,
-          tempC: 20,
-        },
-      ),
-    );
-    const pickup = await t.db.pickup.findFirstOrThrow({ where: { code }, select: { holderId: true } });
-    const receipt = await t.db.movement.findFirstOrThrow({
-      where: { toHolderId: pickup.holderId, fromHolderId: null },
-      select: { massG: true },
-    });
-    return receipt.massG;
+    return bookDemoPickup(t.db, { siteId: site.id, now: NOW }, { code, source, observedAt });
   }
 
   it("answers the same question at the same position from memory, and recomputes after a booking", async () => {

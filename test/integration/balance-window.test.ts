@@ -13,7 +13,7 @@ import type { Result } from "@/lib/core/result";
 import { getBalanceReport, getBalanceReportFromWholeLedger } from "@/lib/mass-balance/balance.service";
 import type { BalanceReport } from "@/lib/mass-balance/balance.service";
 import { clearCarriedBooks } from "@/lib/mass-balance/carried-books.service";
-import { recordPickup } from "@/lib/feedstock/pickup.service";
+import { bookDemoPickup } from "./support/demo-pickup";
 
 const ANCHOR = new Date("2026-12-02T00:00:00Z");
 const NOW = new Date("2026-12-02T06:00:00Z");
@@ -71,28 +71,7 @@ describe.each(PROVIDERS)("balance from the books brought forward on %s", (provid
   async function bookPickup(observedAt: string): Promise<number> {
     serial += 1;
     const code = `BW-${provider}-${serial}`.toUpperCase();
-    const tess = await t.db.user.findUniqueOrThrow({ where: { login: "production.tess" } });
-    value(
-      await recordPickup(
-        t.db,
-        { siteId: site.id, userId: tess.id, now: NOW },
-        {
-          code,
-          sourceCode: source.code,
-          material: source.material,
-          observedAt,
-          containers: 1,
-          volumeL: 100,
-          tempC: 20,
-        },
-      ),
-    );
-    const pickup = await t.db.pickup.findFirstOrThrow({ where: { code }, select: { holderId: true } });
-    const receipt = await t.db.movement.findFirstOrThrow({
-      where: { toHolderId: pickup.holderId, fromHolderId: null },
-      select: { massG: true },
-    });
-    return receipt.massG;
+    return bookDemoPickup(t.db, { siteId: site.id, now: NOW }, { code, source, observedAt });
   }
 
   it("agrees with the whole ledger for months, quarters and ranges, open and closed", async () => {
