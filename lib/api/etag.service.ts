@@ -8,11 +8,28 @@ import { NextResponse } from "next/server";
 import { respond } from "@/lib/api/json-route.service";
 import type { Db } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
-import { positionTag, quarterHourOf } from "@/lib/ledger/position";
+import { positionTag, quarterHourOf, samePosition } from "@/lib/ledger/position";
 import { getLedgerPosition } from "@/lib/ledger/position.store";
+import { AnswerBytes } from "@/lib/api/answer-bytes";
 
 /** Private: answers depend on who asks; no-cache: the browser checks back with the tag every time. */
 const CACHE_CONTROL = "private, no-cache";
+
+/** Answers as sent, by tag: up to 64 MB in all, none over 16 MB (answer-bytes.ts). */
+const home = globalThis as unknown as { tracevatAnswerBytes?: AnswerBytes };
+const sent: AnswerBytes = (home.tracevatAnswerBytes ??= new AnswerBytes(64 * 1024 * 1024, 16 * 1024 * 1024));
+
+/** Forgets every answer kept as sent (tests; after a database file is replaced). */
+export function clearSentAnswers(): void {
+  sent.clear();
+}
+
+function jsonAnswer(body: Uint8Array, tag: string): NextResponse {
+  return new NextResponse(body as Uint8Array<ArrayBuffer>, {
+    status: 200,
+    headers: { "content-type": "application/json", etag: tag, "cache-control": CACHE_CONTROL },
+  });
+}
 
 export function positionEtag(
   position: Parameters<typeof positionTag>[0],
@@ -42,26 +59,29 @@ export function etagMatches(ifNoneMatch: string | null, tag: string): boolean {
 
 /**
  * Answers a GET from the ledger position: 304 when the caller already holds the answer for this
- * position, else the computed answer with its tag. The position is read before computing, so a booking
- * that lands meanwhile only makes the tag older than the answer, and the next request recomputes.
+ * position; the bytes sent for the same tag before, when another reader asked the same question while
+ * the books stood; else the computed answer with its tag. The position is read before computing, and
+ * again after: an answer overtaken by a booking that landed meanwhile is sent under the older tag (the
+ * next request recomputes) but not kept. `variant` names anything else the answer depends on (units).
  */
 export async function respondAtPosition<T>(
   request: Request,
   db: Db,
   who: { siteId: number; role: string; now: Date },
   compute: () => Promise<Result<T>>,
+  variant = "",
 ): Promise<NextResponse> {
   const position = await getLedgerPosition(db, who.siteId);
-  const tag = positionEtag(position, who.now, who.role, new URL(request.url));
+  const tag = positionEtag(position, who.now, who.role, new URL(request.url), variant);
   if (etagMatches(request.headers.get("if-none-match"), tag))
     return new NextResponse(null, { status: 304, headers: { etag: tag, "cache-control": CACHE_CONTROL } });
+  const kept = sent.get(tag);
+  if (kept !== undefined) return jsonAnswer(kept, tag);
   const result = await compute();
-  const res = respond(result);
-  if (result.ok) {
-    res.headers.set("etag", tag);
-    res.headers.set("cache-control", CACHE_CONTROL);
-  }
-  return res;
+  if (!result.ok) return respond(result);
+  const body = Buffer.from(JSON.stringify({ ok: true, value: result.value }));
+  if (samePosition(await getLedgerPosition(db, who.siteId), position)) sent.set(tag, body);
+  return jsonAnswer(body, tag);
 }
 
 /** The same check for a response built elsewhere (CSV and spreadsheet exports). */
