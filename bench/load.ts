@@ -5,6 +5,7 @@
 //   options: --duration=10 (s per run)  --connections=1,10,50  --days=182 (demo length)  --two (PostgreSQL:
 //   a second server process on the same database; bookings to one, reads to the other, answers compared)
 //   --keep-template (keep the PostgreSQL demo template for the next run; the SQLite one stays in data/)
+//   --routes (first each route of the mix and the floor alone, at 1 and 10 connections)
 // Builds nothing; needs an existing `next build`. Goals print PASS/MISS and never change the exit code;
 // the run fails only when it cannot measure (no build, no server, a sign-in refused).
 import os from "node:os";
@@ -35,6 +36,7 @@ const WANT_PG = process.argv.includes("--pg") || process.argv.includes("--both")
 const WANT_SQLITE = !process.argv.includes("--pg") || process.argv.includes("--both");
 const WANT_TWO = process.argv.includes("--two");
 const KEEP_TEMPLATE = process.argv.includes("--keep-template");
+const WANT_ROUTES = process.argv.includes("--routes");
 const PORTS = { from: Number(process.env.LOAD_PORT_FROM ?? 4170), to: Number(process.env.LOAD_PORT_TO ?? 4199) };
 
 const GOALS = { mixToFloor: 0.5, readP95Ms: 300, writeP95Ms: 500 } as const;
@@ -108,6 +110,39 @@ function printRun(r: RunResult): void {
   );
 }
 
+/** Each route alone, at one connection and at ten: which answers cost what before they queue together. */
+async function measureEachRoute(
+  server: AppServer,
+  routes: readonly MixRequest[],
+  cookies: Record<MixRequest["as"], string>,
+): Promise<void> {
+  const rows: string[][] = [
+    [
+      "route alone",
+      "1 conn req/s",
+      "1 conn p50 ms",
+      "10 conn req/s",
+      "10 conn p50 ms",
+      "10 conn p95 ms",
+      "peak RSS MB",
+    ],
+  ];
+  for (const m of routes) {
+    const one = await measure(m.route, server, [m], cookies, 1, Math.max(3, DURATION_S / 2));
+    const ten = await measure(m.route, server, [m], cookies, 10, Math.max(3, DURATION_S / 2));
+    rows.push([
+      m.route,
+      f1(one.rps),
+      f0(one.p50),
+      f1(ten.rps),
+      f0(ten.p50),
+      f0(ten.p95),
+      f0(Math.max(one.peakMb, ten.peakMb)),
+    ]);
+  }
+  printTable(rows, rows[0]?.map((_, i) => i > 0) ?? []);
+}
+
 interface DatabaseSummary {
   kind: string;
   runs: RunResult[];
@@ -155,6 +190,11 @@ async function measureDatabase(kind: "sqlite" | "postgresql", taken: Set<number>
     // One untimed round so the first timed run does not pay for the first trace index or page compile.
     await measure("warm-up", server, [...reads, ...floorMix(reads)], cookies, 1, 3).catch(() => undefined);
     const runs: RunResult[] = [];
+    if (WANT_ROUTES) {
+      const floor = floorMix(reads);
+      const firstOf = (kind: MixRequest["kind"]) => floor.filter((m) => m.kind === kind).slice(0, 1);
+      await measureEachRoute(server, [...reads, ...firstOf("json"), ...firstOf("page")], cookies);
+    }
     for (const connections of CONNECTIONS) {
       for (const [section, mix] of sections) {
         const r = await measure(section, server, mix, cookies, connections, DURATION_S);
