@@ -42,7 +42,7 @@ export function queryValue(v: string | string[] | undefined): string {
   return (Array.isArray(v) ? v[0] : v) ?? "";
 }
 
-export const PAGE_SIZE = 100;
+export const PAGE_SIZE = 50;
 
 export function pageParam(raw: string | string[] | undefined): number {
   const text = Array.isArray(raw) ? raw[0] : raw;

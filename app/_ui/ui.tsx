@@ -19,16 +19,21 @@ export function HolderLink({
   return (
     <span className="holder">
       {showKind ? <span className="holder-kind">{labelOf(holder.kind)}</span> : null}
-      {href ? <Link href={href}>{holder.code}</Link> : <span className="code">{holder.code}</span>}
+      {href ? <a href={href}>{holder.code}</a> : <span className="code">{holder.code}</span>}
     </span>
   );
 }
 
+/**
+ * A record's code linking to its page. Plain links, like HolderLink and HistoryLink: they sit in table
+ * rows, a page can hold hundreds, and the router's per-link work and prefetching would cost every reader
+ * of the list more than a click on one of them saves.
+ */
 export function CodeLink({ href, code }: { href: string; code: string }) {
   return (
-    <Link href={href} className="code">
+    <a href={href} className="code">
       {code}
-    </Link>
+    </a>
   );
 }
 
@@ -173,12 +178,12 @@ export function MovementTable({
 /** One click from a row to everything recorded about it (app/history). */
 export function HistoryLink({ kind, recordKey, label }: { kind: string; recordKey: string; label: string }) {
   return (
-    <Link
+    <a
       href={`/history?${new URLSearchParams({ kind, key: recordKey }).toString()}`}
       className="history-link"
       aria-label={`History of ${label} ${recordKey}`}
     >
       History
-    </Link>
+    </a>
   );
 }
