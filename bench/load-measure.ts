@@ -10,6 +10,8 @@ import type { MixRequest } from "@/bench/load-mix";
 export interface RouteStats {
   count: number;
   errors: number;
+  /** Error answers by status: which failure it was (a 503 is the database, a 500 a fault, a 4xx a refusal). */
+  statuses: Map<number, number>;
   refused: number;
   latencies: number[];
 }
@@ -23,11 +25,16 @@ export interface RunResult {
   p99: number;
   errors: number;
   refused: number;
+  /** Requests with no answer within autocannon's timeout, counted apart from answers that were errors. */
+  timeouts: number;
   socketErrors: number;
   routes: Map<string, RouteStats>;
   peakMb: number;
   durationS: number;
 }
+
+/** How long a request may go unanswered before it counts as a timeout. */
+export const TIMEOUT_S = 30;
 
 export function pct(sorted: readonly number[], p: number): number {
   if (sorted.length === 0) return Number.NaN;
@@ -103,6 +110,18 @@ export function toAutocannon(
   }));
 }
 
+/** What the errors were: "none", or e.g. "3 (503 ×2, no answer in 30 s ×1)". */
+export function describeErrors(r: RunResult): string {
+  if (r.errors === 0) return "0";
+  const byStatus = new Map<number, number>();
+  for (const s of r.routes.values())
+    for (const [status, n] of s.statuses) byStatus.set(status, (byStatus.get(status) ?? 0) + n);
+  const parts = [...byStatus].sort(([a], [b]) => a - b).map(([status, n]) => `${status} ×${n}`);
+  if (r.timeouts > 0) parts.push(`no answer in ${TIMEOUT_S} s ×${r.timeouts}`);
+  if (r.socketErrors > 0) parts.push(`connection failed ×${r.socketErrors}`);
+  return `${r.errors} (${parts.join(", ")})`;
+}
+
 export async function measure(
   section: string,
   server: AppServer,
@@ -112,7 +131,7 @@ export async function measure(
   durationS: number,
 ): Promise<RunResult> {
   const routes = new Map<string, RouteStats>(
-    mix.map((m) => [m.route, { count: 0, errors: 0, refused: 0, latencies: [] }]),
+    mix.map((m) => [m.route, { count: 0, errors: 0, statuses: new Map<number, number>(), refused: 0, latencies: [] }]),
   );
   const all: number[] = [];
   server.takePeakMb();
@@ -124,7 +143,7 @@ export async function measure(
         connections,
         duration: durationS,
         requests: toAutocannon(mix, server.base, cookies, routes),
-        timeout: 30,
+        timeout: TIMEOUT_S,
       },
       (err: unknown, res: autocannon.Result) =>
         err ? reject(err instanceof Error ? err : new Error(JSON.stringify(err))) : resolve(res),
@@ -139,7 +158,10 @@ export async function measure(
     if (s === undefined) return;
     s.count += 1;
     s.latencies.push(ms);
-    if (status >= 500 || (!route.startsWith("write") && status >= 400)) s.errors += 1;
+    if (status >= 500 || (!route.startsWith("write") && status >= 400)) {
+      s.errors += 1;
+      s.statuses.set(status, (s.statuses.get(status) ?? 0) + 1);
+    }
   });
   const result = await finished;
   all.sort((a, b) => a - b);
@@ -155,7 +177,8 @@ export async function measure(
     p99: pct(all, 99),
     errors: errors + result.errors + result.timeouts,
     refused,
-    socketErrors: result.errors + result.timeouts,
+    timeouts: result.timeouts,
+    socketErrors: result.errors,
     routes,
     peakMb: server.takePeakMb(),
     durationS,

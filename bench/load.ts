@@ -23,7 +23,7 @@ import {
 } from "@/bench/load-mix";
 import type { DemoCodes, MixRequest } from "@/bench/load-mix";
 import { compareServers } from "@/bench/load-two";
-import { fetchOnce, measure, pct, signIn } from "@/bench/load-measure";
+import { describeErrors, fetchOnce, measure, pct, signIn } from "@/bench/load-measure";
 import type { RunResult } from "@/bench/load-measure";
 import { printTable } from "@/bench/measure";
 
@@ -91,7 +91,7 @@ const f1 = (n: number) => (Number.isFinite(n) ? n.toFixed(1) : "–");
 
 function printRun(r: RunResult): void {
   console.log(
-    `\n-- ${r.section}, ${r.connections} connection${r.connections === 1 ? "" : "s"}: ${f1(r.rps)} req/s, p50 ${f0(r.p50)} ms, p95 ${f0(r.p95)} ms, p99 ${f0(r.p99)} ms, errors ${r.errors}${r.refused ? `, refused bookings ${r.refused}` : ""}, server peak RSS ${f0(r.peakMb)} MB`,
+    `\n-- ${r.section}, ${r.connections} connection${r.connections === 1 ? "" : "s"}: ${f1(r.rps)} req/s, p50 ${f0(r.p50)} ms, p95 ${f0(r.p95)} ms, p99 ${f0(r.p99)} ms, errors ${describeErrors(r)}${r.refused ? `, refused bookings ${r.refused}` : ""}, server peak RSS ${f0(r.peakMb)} MB`,
   );
   printTable(
     [
