@@ -11,13 +11,17 @@ import type { Result } from "@/lib/core/result";
 import { positionTag, quarterHourOf, samePosition } from "@/lib/ledger/position";
 import { getLedgerPosition } from "@/lib/ledger/position.store";
 import { AnswerBytes } from "@/lib/api/answer-bytes";
+import { SingleFlight } from "@/lib/core/single-flight";
 
 /** Private: answers depend on who asks; no-cache: the browser checks back with the tag every time. */
 const CACHE_CONTROL = "private, no-cache";
 
 /** Answers as sent, by tag: up to 64 MB in all, none over 16 MB (answer-bytes.ts). */
-const home = globalThis as unknown as { tracevatAnswerBytes?: AnswerBytes };
+const home = globalThis as unknown as { tracevatAnswerBytes?: AnswerBytes; tracevatAnswerFlights?: Flight };
 const sent: AnswerBytes = (home.tracevatAnswerBytes ??= new AnswerBytes(64 * 1024 * 1024, 16 * 1024 * 1024));
+/** Readers asking under the same tag while its answer is computed wait for that one computation. */
+type Flight = SingleFlight<{ body: Uint8Array } | { refused: Result<never> }>;
+const flights: Flight = (home.tracevatAnswerFlights ??= new SingleFlight());
 
 /** Forgets every answer kept as sent (tests; after a database file is replaced). */
 export function clearSentAnswers(): void {
@@ -77,11 +81,14 @@ export async function respondAtPosition<T>(
     return new NextResponse(null, { status: 304, headers: { etag: tag, "cache-control": CACHE_CONTROL } });
   const kept = sent.get(tag);
   if (kept !== undefined) return jsonAnswer(kept, tag);
-  const result = await compute();
-  if (!result.ok) return respond(result);
-  const body = Buffer.from(JSON.stringify({ ok: true, value: result.value }));
-  if (samePosition(await getLedgerPosition(db, who.siteId), position)) sent.set(tag, body);
-  return jsonAnswer(body, tag);
+  const { value } = await flights.run(tag, async () => {
+    const result = await compute();
+    if (!result.ok) return { refused: result };
+    const body = Buffer.from(JSON.stringify({ ok: true, value: result.value }));
+    if (samePosition(await getLedgerPosition(db, who.siteId), position)) sent.set(tag, body);
+    return { body };
+  });
+  return "body" in value ? jsonAnswer(value.body, tag) : respond(value.refused);
 }
 
 /** The same check for a response built elsewhere (CSV and spreadsheet exports). */

@@ -8,7 +8,8 @@ import "server-only";
 import type { Db } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
 import { getLedgerPosition } from "@/lib/ledger/position.store";
-import { samePosition } from "@/lib/ledger/position";
+import { positionTag, samePosition } from "@/lib/ledger/position";
+import { SingleFlight } from "@/lib/core/single-flight";
 import type { LedgerPosition, PositionCache } from "@/lib/ledger/position";
 
 export type KeptOutcome = "computed" | "same-position";
@@ -25,7 +26,22 @@ export interface Kept<T> {
   position: LedgerPosition;
 }
 
-/** Any value computed from the books, kept by the position it was computed at. */
+const home = globalThis as unknown as { tracevatKeptFlights?: WeakMap<object, SingleFlight<unknown>> };
+const flights: WeakMap<object, SingleFlight<unknown>> = (home.tracevatKeptFlights ??= new WeakMap());
+
+function flightOf<T>(cache: PositionCache<T>): SingleFlight<T> {
+  let flight = flights.get(cache);
+  if (flight === undefined) {
+    flight = new SingleFlight<unknown>();
+    flights.set(cache, flight);
+  }
+  return flight as SingleFlight<T>;
+}
+
+/**
+ * Any value computed from the books, kept by the position it was computed at. Readers who ask the same
+ * question at the same position while it is being computed wait for that one computation.
+ */
 export async function keptAtPosition<T>(
   cache: PositionCache<T>,
   db: Db,
@@ -36,9 +52,12 @@ export async function keptAtPosition<T>(
   const position = await getLedgerPosition(db, siteId);
   const kept = cache.get(key, position);
   if (kept !== undefined) return { value: kept, outcome: "same-position", position };
-  const value = await compute();
-  if (samePosition(await getLedgerPosition(db, siteId), position)) cache.set(key, position, value);
-  return { value, outcome: "computed", position };
+  const { value, first } = await flightOf(cache).run(`${key}@${positionTag(position)}`, async () => {
+    const computed = await compute();
+    if (samePosition(await getLedgerPosition(db, siteId), position)) cache.set(key, position, computed);
+    return computed;
+  });
+  return { value, outcome: first ? "computed" : "same-position", position };
 }
 
 export async function answerAtPosition<T>(

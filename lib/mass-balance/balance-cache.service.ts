@@ -13,16 +13,21 @@ import { getLastGaugeId, sealHolds, sealText } from "@/lib/mass-balance/balance-
 import type { BalanceSeal } from "@/lib/mass-balance/balance-seal.store";
 import { getLedgerPosition } from "@/lib/ledger/position.store";
 import { getClosureShares } from "@/lib/mass-balance/site-limits.service";
-import { PositionCache, quarterHourOf } from "@/lib/ledger/position";
+import { PositionCache, positionTag, quarterHourOf } from "@/lib/ledger/position";
 import type { LedgerPosition } from "@/lib/ledger/position";
+import { SingleFlight } from "@/lib/core/single-flight";
 
 interface Kept {
   result: Result<BalanceReport>;
   seal: BalanceSeal | null;
 }
 
-const home = globalThis as unknown as { tracevatBalanceCache?: PositionCache<Kept> };
+const home = globalThis as unknown as {
+  tracevatBalanceCache?: PositionCache<Kept>;
+  tracevatBalanceFlights?: SingleFlight<Result<BalanceReport>>;
+};
 const cache: PositionCache<Kept> = (home.tracevatBalanceCache ??= new PositionCache<Kept>(200));
+const flights: SingleFlight<Result<BalanceReport>> = (home.tracevatBalanceFlights ??= new SingleFlight());
 
 /** How the answer was found, for tests and the load report. */
 export type BalanceCacheOutcome = "computed" | "same-position" | "sealed";
@@ -71,15 +76,19 @@ export async function getBalanceReportTraced(
     cache.set(key, position, sealed.value, sealed.seal);
     return { result: timed(sealed.value.result, started), outcome: "sealed", position };
   }
-  const gaugeId = await getLastGaugeId(db, site.id);
-  const result = await getBalanceReport(db, site, input, now);
-  // Read again after computing: a booking that landed meanwhile must not be stored under the old position.
-  const after = await getLedgerPosition(db, site.id);
-  if (after.moveId === position.moveId && after.auditSeq === position.auditSeq) {
-    const seal = result.ok ? sealOf(result.value, position, gaugeId) : null;
-    cache.set(key, position, { result, seal }, seal === null ? null : sealText(seal));
-  }
-  return { result, outcome: "computed", position };
+  // Readers asking the same question at the same position while it is computed wait for that one.
+  const { value: result, first } = await flights.run(`${key}@${positionTag(position)}`, async () => {
+    const gaugeId = await getLastGaugeId(db, site.id);
+    const computed = await getBalanceReport(db, site, input, now);
+    // Read again after computing: a booking that landed meanwhile must not be stored under the old position.
+    const after = await getLedgerPosition(db, site.id);
+    if (after.moveId === position.moveId && after.auditSeq === position.auditSeq) {
+      const seal = computed.ok ? sealOf(computed.value, position, gaugeId) : null;
+      cache.set(key, position, { result: computed, seal }, seal === null ? null : sealText(seal));
+    }
+    return computed;
+  });
+  return { result: first ? result : timed(result, started), outcome: first ? "computed" : "same-position", position };
 }
 
 function timed(result: Result<BalanceReport>, started: number): Result<BalanceReport> {

@@ -36,7 +36,8 @@ export interface LedgerState {
   snapshots: ReplaySnapshot[];
   indexedAt: Date;
   indexMs: number;
-  answers: Map<string, Result<unknown>>;
+  /** Answers at this version, or being computed (readers of the same question wait for one computation). */
+  answers: Map<string, Promise<Result<unknown>>>;
   /** Per holder: what each of its outgoing moves carried, keyed by the holder's incoming move ids. */
   carriedByFeeder: Map<number, Map<number, CompositionParts>>;
   tankService: Map<number, string>;

@@ -205,17 +205,25 @@ export async function answer<T>(
   const stateR = await requireLedgerState(db, siteId, now);
   if (!stateR.ok) return stateR;
   const state = stateR.value;
-  const cached = state.answers.get(key) as Result<Omit<T, "freshness">> | undefined;
-  const result = cached ?? (await compute(state));
-  if (cached === undefined) {
-    state.answers.set(key, result);
+  const kept = state.answers.get(key) as Promise<Result<Omit<T, "freshness">>> | undefined;
+  const cached = kept !== undefined;
+  let pending = kept;
+  if (pending === undefined) {
+    const computing = compute(state);
+    pending = computing;
+    state.answers.set(key, computing);
+    // A computation that threw is not an answer: the next reader tries again.
+    computing.catch(() => {
+      if (state.answers.get(key) === computing) state.answers.delete(key);
+    });
     if (state.answers.size > MAX_CACHED_ANSWERS) {
       const oldest = state.answers.keys().next().value;
       if (oldest !== undefined) state.answers.delete(oldest);
     }
   }
+  const result = await pending;
   if (!result.ok) return result;
-  return ok({ ...result.value, freshness: freshnessOf(state, performance.now() - started, cached !== undefined) } as T);
+  return ok({ ...result.value, freshness: freshnessOf(state, performance.now() - started, cached) } as T);
 }
 
 /**
