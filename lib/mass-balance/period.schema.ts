@@ -63,7 +63,7 @@ export const PeriodRangeSchema = z.discriminatedUnion(
       })
       .refine((v) => v.endDate > v.startDate, { error: "End date must be after the start date", path: ["endDate"] }),
   ],
-  { error: "Period kind must be MONTH, QUARTER or CUSTOM" },
+  { error: "Choose a month, a quarter or your own dates for the period" },
 );
 export type PeriodRange = z.infer<typeof PeriodRangeSchema>;
 
