@@ -19,21 +19,26 @@ export function HolderLink({
   return (
     <span className="holder">
       {showKind ? <span className="holder-kind">{labelOf(holder.kind)}</span> : null}
-      {href ? <a href={href}>{holder.code}</a> : <span className="code">{holder.code}</span>}
+      {href ? (
+        <Link prefetch={false} href={href}>
+          {holder.code}
+        </Link>
+      ) : (
+        <span className="code">{holder.code}</span>
+      )}
     </span>
   );
 }
 
 /**
- * A record's code linking to its page. Plain links, like HolderLink and HistoryLink: they sit in table
- * rows, a page can hold hundreds, and the router's per-link work and prefetching would cost every reader
- * of the list more than a click on one of them saves.
+ * A record's code linking to its page. Not prefetched, like HolderLink and HistoryLink: they sit in
+ * table rows, and a list of fifty rows would otherwise ask the server for a hundred pages nobody opened.
  */
 export function CodeLink({ href, code }: { href: string; code: string }) {
   return (
-    <a href={href} className="code">
+    <Link prefetch={false} href={href} className="code">
       {code}
-    </a>
+    </Link>
   );
 }
 
@@ -178,12 +183,13 @@ export function MovementTable({
 /** One click from a row to everything recorded about it (app/history). */
 export function HistoryLink({ kind, recordKey, label }: { kind: string; recordKey: string; label: string }) {
   return (
-    <a
+    <Link
+      prefetch={false}
       href={`/history?${new URLSearchParams({ kind, key: recordKey }).toString()}`}
       className="history-link"
       aria-label={`History of ${label} ${recordKey}`}
     >
       History
-    </a>
+    </Link>
   );
 }
