@@ -202,6 +202,9 @@ function checkNext(ctx: ReplayContext, move: TraceMove): Result<void> {
 function take(ctx: ReplayContext, holderId: number, massG: number): OwnedParts {
   const s = requireState(ctx, holderId);
   s.totalG -= massG;
+  // An emptied holder (every pickup, lot and batch in turn) holds nothing a later move could read: its
+  // state goes, so it does not outlive the replay's young objects (a later receipt starts a new one).
+  if (s.totalG === 0) ctx.states.delete(holderId);
   if (s.mixing === "MIXED") {
     const layer = s.layers[0];
     if (layer === undefined) return { originIds: [], grams: [] };
