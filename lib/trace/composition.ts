@@ -166,10 +166,8 @@ export function settleLayer(layer: MutableLayer): MutableLayer {
  */
 export function takeFromLayer(layer: MutableLayer, massG: number): OwnedParts {
   settleLayer(layer);
-  invariant(
-    Number.isSafeInteger(massG) && massG > 0 && massG <= layer.totalG,
-    `cannot take ${massG} g off ${layer.totalG} g`,
-  );
+  if (!(Number.isSafeInteger(massG) && massG > 0 && massG <= layer.totalG))
+    invariant(false, `cannot take ${massG} g off ${layer.totalG} g`);
   if (massG === layer.totalG) {
     const all = { originIds: layer.originIds, grams: layer.grams };
     layer.originIds = [];

@@ -10,7 +10,7 @@ import {
   takeFromLayer,
 } from "@/lib/trace/composition";
 import type { CompositionParts, MutableLayer, OwnedParts } from "@/lib/trace/composition";
-import { checkMove, compareMoves, formatMoveField } from "@/lib/ledger/moves";
+import { checkMove, compareMoves, formatMoveField, isValidMove } from "@/lib/ledger/moves";
 import type { Mixing, TraceHolder, TraceIssue, TraceMove } from "@/lib/ledger/moves";
 
 /**
@@ -170,8 +170,7 @@ function requireState(ctx: ReplayContext, holderId: number): HolderState {
 }
 
 function checkNext(ctx: ReplayContext, move: TraceMove): Result<void> {
-  const issues = checkMove(move, ctx.holders);
-  if (issues.length > 0) return failMany(issues);
+  if (!isValidMove(move, ctx.holders)) return failMany(checkMove(move, ctx.holders));
   const last = ctx.applied.last;
   if (last !== null && compareMoves(move, { at: last.at, id: last.moveId }) <= 0) {
     const issue: TraceIssue = {
