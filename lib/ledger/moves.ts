@@ -165,8 +165,8 @@ export function indexLedger(holders: readonly TraceHolder[], moves: readonly Tra
   return ok({ moves: sorted, holders: holderMap, positionOf, into, outOf, massPrefixG });
 }
 
-/** Exactly when checkMove finds nothing, without building its issue list. */
-function isValidMove(m: TraceMove, holders: ReadonlyMap<number, TraceHolder>): boolean {
+/** Exactly when checkMove finds nothing, without building its issue list (a replay checks every move). */
+export function isValidMove(m: TraceMove, holders: ReadonlyMap<number, TraceHolder>): boolean {
   return (
     Number.isSafeInteger(m.id) &&
     Number.isSafeInteger(m.massG) &&

@@ -43,7 +43,9 @@ export function allocateWholeGramsInto(
   sum: number,
   out: Float64Array,
 ): void {
-  invariant(Number.isSafeInteger(total) && total >= 0, `total must be a non-negative integer, got ${total}`);
+  // The message is built only on failure: this runs once per draw of a replay.
+  if (!(Number.isSafeInteger(total) && total >= 0))
+    invariant(false, `total must be a non-negative integer, got ${total}`);
   const n = weights.length;
   invariant(out.length >= n, "the output buffer is shorter than the weights");
   if (total === 0 || n === 0) {

@@ -25,53 +25,77 @@ export function sumParts(parts: CompositionParts): number {
   return total;
 }
 
-/** Sorted merge into new arrays: O(a + b). */
+/**
+ * Sorted merge into new arrays: O(a + b). The arrays are sized once for the worst case and cut to
+ * length, rather than grown by push (growing copies them again and again: most of a replay's garbage).
+ */
 export function mergeParts(a: CompositionParts, b: CompositionParts): { originIds: number[]; grams: number[] } {
   const aIds = a.originIds;
   const bIds = b.originIds;
-  const originIds: number[] = [];
-  const grams: number[] = [];
+  const aGrams = a.grams;
+  const bGrams = b.grams;
+  const na = aIds.length;
+  const nb = bIds.length;
+  const originIds = new Array<number>(na + nb);
+  const grams = new Array<number>(na + nb);
   let i = 0;
   let j = 0;
-  while (i < aIds.length && j < bIds.length) {
+  let k = 0;
+  while (i < na && j < nb) {
     const ia = aIds[i] ?? 0;
     const ib = bIds[j] ?? 0;
     if (ia < ib) {
-      originIds.push(ia);
-      grams.push(a.grams[i++] ?? 0);
+      originIds[k] = ia;
+      grams[k++] = aGrams[i++] ?? 0;
     } else if (ib < ia) {
-      originIds.push(ib);
-      grams.push(b.grams[j++] ?? 0);
+      originIds[k] = ib;
+      grams[k++] = bGrams[j++] ?? 0;
     } else {
-      originIds.push(ia);
-      grams.push((a.grams[i++] ?? 0) + (b.grams[j++] ?? 0));
+      originIds[k] = ia;
+      grams[k++] = (aGrams[i++] ?? 0) + (bGrams[j++] ?? 0);
     }
   }
-  for (; i < aIds.length; i++) {
-    originIds.push(aIds[i] ?? 0);
-    grams.push(a.grams[i] ?? 0);
+  for (; i < na; i++, k++) {
+    originIds[k] = aIds[i] ?? 0;
+    grams[k] = aGrams[i] ?? 0;
   }
-  for (; j < bIds.length; j++) {
-    originIds.push(bIds[j] ?? 0);
-    grams.push(b.grams[j] ?? 0);
+  for (; j < nb; j++, k++) {
+    originIds[k] = bIds[j] ?? 0;
+    grams[k] = bGrams[j] ?? 0;
   }
+  originIds.length = k;
+  grams.length = k;
   return { originIds, grams };
 }
 
-/** Merges many part lists (e.g. FIFO layers) pairwise so the cost stays O(n log k). */
+/**
+ * Merges many part lists (e.g. FIFO layers, a pool's pending deposits) two smallest first, so a large
+ * list among many small ones is copied once rather than once per level of a pairwise tree: the merged
+ * lists come out in ascending size, so two queues (the sorted inputs, the merged) replace a heap.
+ */
 export function mergeAllParts(list: readonly CompositionParts[]): CompositionParts {
-  let level = list.filter((p) => p.originIds.length > 0);
-  if (level.length <= 1) return level[0] ?? EMPTY_PARTS;
-  while (level.length > 1) {
-    const next: CompositionParts[] = [];
-    for (let i = 0; i < level.length; i += 2) {
-      const a = level[i];
-      const b = level[i + 1];
-      if (a !== undefined) next.push(b === undefined ? a : mergeParts(a, b));
+  const inputs = list.filter((p) => p.originIds.length > 0).sort((a, b) => a.originIds.length - b.originIds.length);
+  if (inputs.length <= 1) return inputs[0] ?? EMPTY_PARTS;
+  const merged: CompositionParts[] = [];
+  let i = 0;
+  let j = 0;
+  const next = (): CompositionParts | undefined => {
+    const a = inputs[i];
+    const b = merged[j];
+    if (a !== undefined && (b === undefined || a.originIds.length <= b.originIds.length)) {
+      i++;
+      return a;
     }
-    level = next;
+    if (b !== undefined) j++;
+    return b;
+  };
+  for (;;) {
+    const a = next();
+    const b = next();
+    if (a === undefined) return EMPTY_PARTS;
+    if (b === undefined) return a;
+    merged.push(mergeParts(a, b));
   }
-  return level[0] ?? EMPTY_PARTS;
 }
 
 /** A holder-owned, mutable composition (a MIXED pool or one FIFO layer). Same ordering rules as CompositionParts. */
@@ -125,59 +149,13 @@ export function settleLayer(layer: MutableLayer): MutableLayer {
     layer.pendingLength = 0;
     return layer;
   }
-  mergeIntoLayer(layer, mergeAllParts(layer.pending));
+  const all = mergeAllParts([{ originIds: layer.originIds, grams: layer.grams }, ...layer.pending]);
+  // The result is a fresh merge, the layer's own arrays or an owned pending deposit: the layer keeps it.
+  layer.originIds = all.originIds as number[];
+  layer.grams = all.grams as number[];
   layer.pending = [];
   layer.pendingLength = 0;
   return layer;
-}
-
-/**
- * Sorted merge of parts into the layer's own arrays, from the back, so a tank taking back what a batch
- * returns costs no new arrays: O(layer + parts).
- */
-function mergeIntoLayer(layer: MutableLayer, parts: CompositionParts): void {
-  const ids = layer.originIds;
-  const grams = layer.grams;
-  const pIds = parts.originIds;
-  const pGrams = parts.grams;
-  const n = ids.length;
-  const m = pIds.length;
-  for (let k = 0; k < m; k++) {
-    ids.push(0);
-    grams.push(0);
-  }
-  let i = n - 1;
-  let j = m - 1;
-  let k = n + m - 1;
-  while (j >= 0) {
-    const pid = pIds[j] ?? 0;
-    const id = i >= 0 ? (ids[i] ?? 0) : Number.NEGATIVE_INFINITY;
-    if (id > pid) {
-      ids[k] = id;
-      grams[k] = grams[i] ?? 0;
-      i--;
-    } else if (id === pid) {
-      ids[k] = id;
-      grams[k] = (grams[i] ?? 0) + (pGrams[j] ?? 0);
-      i--;
-      j--;
-    } else {
-      ids[k] = pid;
-      grams[k] = pGrams[j] ?? 0;
-      j--;
-    }
-    k--;
-  }
-  // Origins both held: the merged run starts k − i places late; close the gap.
-  const gap = k - i;
-  if (gap > 0) {
-    for (let t = k + 1; t < n + m; t++) {
-      ids[t - gap] = ids[t] ?? 0;
-      grams[t - gap] = grams[t] ?? 0;
-    }
-    ids.length = n + m - gap;
-    grams.length = n + m - gap;
-  }
 }
 
 /**
@@ -188,10 +166,8 @@ function mergeIntoLayer(layer: MutableLayer, parts: CompositionParts): void {
  */
 export function takeFromLayer(layer: MutableLayer, massG: number): OwnedParts {
   settleLayer(layer);
-  invariant(
-    Number.isSafeInteger(massG) && massG > 0 && massG <= layer.totalG,
-    `cannot take ${massG} g off ${layer.totalG} g`,
-  );
+  if (!(Number.isSafeInteger(massG) && massG > 0 && massG <= layer.totalG))
+    invariant(false, `cannot take ${massG} g off ${layer.totalG} g`);
   if (massG === layer.totalG) {
     const all = { originIds: layer.originIds, grams: layer.grams };
     layer.originIds = [];

@@ -10,7 +10,7 @@ import {
   takeFromLayer,
 } from "@/lib/trace/composition";
 import type { CompositionParts, MutableLayer, OwnedParts } from "@/lib/trace/composition";
-import { checkMove, compareMoves, formatMoveField } from "@/lib/ledger/moves";
+import { checkMove, compareMoves, formatMoveField, isValidMove } from "@/lib/ledger/moves";
 import type { Mixing, TraceHolder, TraceIssue, TraceMove } from "@/lib/ledger/moves";
 
 /**
@@ -170,8 +170,7 @@ function requireState(ctx: ReplayContext, holderId: number): HolderState {
 }
 
 function checkNext(ctx: ReplayContext, move: TraceMove): Result<void> {
-  const issues = checkMove(move, ctx.holders);
-  if (issues.length > 0) return failMany(issues);
+  if (!isValidMove(move, ctx.holders)) return failMany(checkMove(move, ctx.holders));
   const last = ctx.applied.last;
   if (last !== null && compareMoves(move, { at: last.at, id: last.moveId }) <= 0) {
     const issue: TraceIssue = {
@@ -202,6 +201,9 @@ function checkNext(ctx: ReplayContext, move: TraceMove): Result<void> {
 function take(ctx: ReplayContext, holderId: number, massG: number): OwnedParts {
   const s = requireState(ctx, holderId);
   s.totalG -= massG;
+  // An emptied holder (every pickup, lot and batch in turn) holds nothing a later move could read: its
+  // state goes, so it does not outlive the replay's young objects (a later receipt starts a new one).
+  if (s.totalG === 0) ctx.states.delete(holderId);
   if (s.mixing === "MIXED") {
     const layer = s.layers[0];
     if (layer === undefined) return { originIds: [], grams: [] };
