@@ -35,7 +35,7 @@ export interface ChunkCheck {
   fromIds: number;
   toIds: number;
   reversesIds: number;
-  /** Σ whole seconds of the movement times (truncated), as the database computes them. */
+  /** Σ whole seconds of the movement times (rounded down), as the database computes them. */
   seconds: number;
 }
 
@@ -62,7 +62,7 @@ function addToCheck(c: ChunkCheck, r: MoveRow): void {
   c.fromIds += r.fromHolderId ?? 0;
   c.toIds += r.toHolderId;
   c.reversesIds += r.reversesId ?? 0;
-  c.seconds += Math.trunc(r.at / 1000);
+  c.seconds += Math.floor(r.at / 1000);
 }
 
 export function addChecks(a: ChunkCheck, b: ChunkCheck): ChunkCheck {
@@ -174,7 +174,7 @@ export function checkOfColumns(c: MoveColumns): ChunkCheck {
     fromIds += from === NONE ? 0 : from;
     toIds += c.to[i] ?? 0;
     reversesIds += reverses === NONE ? 0 : reverses;
-    seconds += Math.trunc((c.at[i] ?? 0) / 1000);
+    seconds += Math.floor((c.at[i] ?? 0) / 1000);
   }
   return { count: c.count, lastId, massG, fromIds, toIds, reversesIds, seconds };
 }
