@@ -35,7 +35,7 @@ export interface ChunkCheck {
   fromIds: number;
   toIds: number;
   reversesIds: number;
-  /** Σ whole seconds of the movement times (truncated), as the database computes them. */
+  /** Σ whole seconds of the movement times (rounded down), as the database computes them. */
   seconds: number;
 }
 
@@ -62,7 +62,7 @@ function addToCheck(c: ChunkCheck, r: MoveRow): void {
   c.fromIds += r.fromHolderId ?? 0;
   c.toIds += r.toHolderId;
   c.reversesIds += r.reversesId ?? 0;
-  c.seconds += Math.trunc(r.at / 1000);
+  c.seconds += Math.floor(r.at / 1000);
 }
 
 export function addChecks(a: ChunkCheck, b: ChunkCheck): ChunkCheck {
@@ -154,22 +154,29 @@ export function decodeChunk(
   return previous === range.lastId ? c : null;
 }
 
-/** The check figures of a decoded chunk (as checkOf of its rows). */
+/**
+ * The check figures of a decoded chunk (as checkOf of its rows), summed straight from the columns: no
+ * object per row (at ten years a restart checks 213 k rows this way).
+ */
 export function checkOfColumns(c: MoveColumns): ChunkCheck {
-  const check = { ...EMPTY_CHECK };
+  let lastId = 0;
+  let massG = 0;
+  let fromIds = 0;
+  let toIds = 0;
+  let reversesIds = 0;
+  let seconds = 0;
   for (let i = 0; i < c.count; i++) {
+    const id = c.id[i] ?? 0;
     const from = c.from[i] ?? NONE;
     const reverses = c.reverses[i] ?? NONE;
-    addToCheck(check, {
-      id: c.id[i] ?? 0,
-      at: c.at[i] ?? 0,
-      fromHolderId: from === NONE ? null : from,
-      toHolderId: c.to[i] ?? 0,
-      massG: c.mass[i] ?? 0,
-      reversesId: reverses === NONE ? null : reverses,
-    });
+    if (id > lastId) lastId = id;
+    massG += c.mass[i] ?? 0;
+    fromIds += from === NONE ? 0 : from;
+    toIds += c.to[i] ?? 0;
+    reversesIds += reverses === NONE ? 0 : reverses;
+    seconds += Math.floor((c.at[i] ?? 0) / 1000);
   }
-  return check;
+  return { count: c.count, lastId, massG, fromIds, toIds, reversesIds, seconds };
 }
 
 /** Full chunks of the rows after `afterId` (taken in id order); the rows left over stay unchunked. */

@@ -12,6 +12,7 @@ import { indexLedger } from "@/lib/ledger/moves";
 import type { LedgerPosition } from "@/lib/ledger/position";
 import type { LedgerIndex } from "@/lib/ledger/moves";
 import { createReplay } from "@/lib/trace/replay";
+import { isUnreadable } from "@/lib/trace/stored-snapshot";
 import type { Replay, ReplaySnapshot } from "@/lib/trace/replay";
 import type { LedgerFreshness } from "@/lib/trace/trace-answers";
 import type { EntryHolderFacts, LedgerVersion } from "@/lib/trace/trace-facts";
@@ -95,10 +96,10 @@ export function freshnessOf(state: LedgerState, computeMs: number, fromCache: bo
   };
 }
 
-/** The latest snapshot that has applied at most `count` moves. */
+/** The latest snapshot that has applied at most `count` moves (one whose stored body was unreadable is passed over). */
 export function snapshotCovering(state: LedgerState, count: number): ReplaySnapshot | undefined {
   let best: ReplaySnapshot | undefined;
-  for (const s of state.snapshots) if (s.applied.count <= count) best = s;
+  for (const s of state.snapshots) if (s.applied.count <= count && !isUnreadable(s)) best = s;
   return best;
 }
 

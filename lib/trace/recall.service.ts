@@ -23,7 +23,7 @@ import { getHolderSubject, getSourceSubject } from "@/lib/trace/trace.store";
 import { renameIssues, snapshotCovering } from "@/lib/trace/ledger-state";
 import type { LedgerState } from "@/lib/trace/ledger-state";
 import { stageLabelOf, stageOf } from "@/lib/trace/trace-answers";
-import { requireLedgerState } from "@/lib/trace/trace-cache.service";
+import { requireLedgerState, withSnapshotBodies } from "@/lib/trace/trace-cache.service";
 
 const LEFT_THE_BOOKS = new Set(["SHIPMENT", "DISPOSAL", "LOSS"]);
 
@@ -80,7 +80,9 @@ export async function recallReport(
   const stateR = await requireLedgerState(db, siteId, now);
   if (!stateR.ok) return stateR;
   const state = stateR.value;
-  const flow = followSeeds(state, subject.holderIds, q.from?.getTime() ?? null, q.to?.getTime() ?? null);
+  const flow = await withSnapshotBodies(db, () =>
+    followSeeds(state, subject.holderIds, q.from?.getTime() ?? null, q.to?.getTime() ?? null),
+  );
   if (!flow.ok) return flow;
   const { holders, customers } = await describeReached(db, siteId, flow.value.rows, opts.withCustomers);
   const tracedG = flow.value.tracedG;

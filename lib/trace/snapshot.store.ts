@@ -4,9 +4,11 @@ import "server-only";
 // current one; the trace service then checks it against the ledger (moves applied, last move, mass sum)
 // and drops and rebuilds any that no longer fit. Derived data: losing the rows costs one full replay.
 import type { Db } from "@/lib/core/connect";
+import { dialectOf } from "@/lib/core/bulk-insert";
 import { log } from "@/lib/log/log.service";
 import { REPLAY_SNAPSHOT_FORMAT } from "@/lib/trace/replay";
 import type { ReplaySnapshot } from "@/lib/trace/replay";
+import { fillBody, headOf, isUnreadable, needsBody, snapshotFromHead } from "@/lib/trace/stored-snapshot";
 
 export type SnapshotOrder = "dated" | "booked";
 
@@ -27,8 +29,79 @@ function isSnapshot(v: unknown): v is ReplaySnapshot {
  */
 const rowOf = new WeakMap<ReplaySnapshot, number>();
 
-/** The site's stored snapshots for this order, oldest first; rows of another format or unreadable are skipped. */
+type HeadRow = Array<{ id: number; start: string | null; applied: string | null }>;
+
+/** Characters of a body read for its head: the applied figures are about 110 characters of JSON. */
+const HEAD_CHARS = 200;
+const APPLIED_KEY = '"applied":';
+
+// Only the start of every body and the text after its first "applied" key are read (a body is JSON
+// written by JSON.stringify, with the format first and no string that could hold that key), so the
+// bodies themselves stay in the database until a trace needs one. The database's own JSON functions
+// would parse every body whole: on PostgreSQL that took longer than reading them.
+function queryHeads(db: Db, siteId: number, order: SnapshotOrder): Promise<HeadRow> {
+  return dialectOf(db) === "sqlite"
+    ? db.$queryRaw<HeadRow>`SELECT id, substr(body, 1, 40) AS start, substr(body, instr(body, ${APPLIED_KEY}), ${HEAD_CHARS}) AS applied FROM "TraceSnapshot" WHERE "siteId" = ${siteId} AND "ledgerOrder" = ${order} AND format = ${REPLAY_SNAPSHOT_FORMAT} ORDER BY "appliedCount" ASC`
+    : db.$queryRaw<HeadRow>`SELECT id, substr(body, 1, 40) AS start, substr(body, strpos(body, ${APPLIED_KEY}), ${HEAD_CHARS}) AS applied FROM "TraceSnapshot" WHERE "siteId" = ${siteId} AND "ledgerOrder" = ${order} AND format = ${REPLAY_SNAPSHOT_FORMAT} ORDER BY "appliedCount" ASC`;
+}
+
+/** The JSON object at the start of `text` (numbers and nulls only, as the applied figures are), or undefined. */
+function leadingObject(text: string): unknown {
+  let depth = 0;
+  for (let i = 0; i < text.length; i++) {
+    const c = text[i];
+    if (c === "{") depth += 1;
+    else if (c === "}" && --depth === 0) return JSON.parse(text.slice(0, i + 1)) as unknown;
+    else if (c === '"' && depth === 0) return undefined;
+  }
+  return undefined;
+}
+
+function parsedHead(r: HeadRow[number]): ReplaySnapshot | null {
+  if (r.start?.startsWith(`{"format":${JSON.stringify(REPLAY_SNAPSHOT_FORMAT)}`) !== true) return null;
+  if (r.applied?.startsWith(APPLIED_KEY) !== true) return null;
+  try {
+    const head = headOf(REPLAY_SNAPSHOT_FORMAT, leadingObject(r.applied.slice(APPLIED_KEY.length)));
+    return head === null ? null : snapshotFromHead(head);
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * The site's stored snapshots for this order, oldest first, each with only its head read (rows of another
+ * format or unreadable are skipped); the latest one's body is read too, since a restart resumes its replay
+ * from it. Read any other body with loadSnapshotBody before resuming from it (the trace service does,
+ * through withSnapshotBodies). If the heads cannot be read, every body is read and parsed instead.
+ */
 export async function loadTraceSnapshots(db: Db, siteId: number, order: SnapshotOrder): Promise<ReplaySnapshot[]> {
+  let rows: HeadRow;
+  try {
+    rows = await queryHeads(db, siteId, order);
+  } catch {
+    return loadWholeSnapshots(db, siteId, order);
+  }
+  const out: ReplaySnapshot[] = [];
+  for (const r of rows) {
+    const s = parsedHead(r);
+    if (s === null) continue;
+    rowOf.set(s, r.id);
+    out.push(s);
+  }
+  const latest = out[out.length - 1];
+  if (latest !== undefined) await loadSnapshotBody(db, latest);
+  return out;
+}
+
+/** Reads the body of a snapshot from loadTraceSnapshots; false when it cannot be resumed from (then it is rebuilt). */
+export async function loadSnapshotBody(db: Db, s: ReplaySnapshot): Promise<boolean> {
+  if (!needsBody(s)) return !isUnreadable(s);
+  const id = rowOf.get(s);
+  const row = id === undefined ? null : await db.traceSnapshot.findUnique({ where: { id }, select: { body: true } });
+  return fillBody(s, row?.body ?? null);
+}
+
+async function loadWholeSnapshots(db: Db, siteId: number, order: SnapshotOrder): Promise<ReplaySnapshot[]> {
   const rows = await db.traceSnapshot.findMany({
     where: { siteId, ledgerOrder: order, format: REPLAY_SNAPSHOT_FORMAT },
     orderBy: { appliedCount: "asc" },
@@ -74,11 +147,12 @@ export async function saveTraceSnapshots(
   const keep = new Set(
     snapshots.flatMap((s) => {
       const id = rowOf.get(s);
-      return id !== undefined && present.has(id) ? [id] : [];
+      return id !== undefined && present.has(id) && !isUnreadable(s) ? [id] : [];
     }),
   );
   const stale = stored.filter((r) => !keep.has(r.id)).map((r) => r.id);
-  const missing = snapshots.filter((s) => !keep.has(rowOf.get(s) ?? -1));
+  // A snapshot whose body was never read or did not hold what its head said cannot be written back.
+  const missing = snapshots.filter((s) => !keep.has(rowOf.get(s) ?? -1) && !needsBody(s) && !isUnreadable(s));
   if (stale.length === 0 && missing.length === 0) return { written: 0, removed: 0 };
   try {
     const [, ...created] = await db.$transaction(

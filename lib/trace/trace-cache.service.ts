@@ -26,7 +26,8 @@ import {
 import type { LedgerState } from "@/lib/trace/ledger-state";
 import { extendSnapshotsOffThread } from "@/lib/trace/snapshot-worker.service";
 import type { ReplaySnapshot } from "@/lib/trace/replay";
-import { loadTraceSnapshots, saveTraceSnapshots } from "@/lib/trace/snapshot.store";
+import { loadSnapshotBody, loadTraceSnapshots, saveTraceSnapshots } from "@/lib/trace/snapshot.store";
+import { SnapshotBodyMissing } from "@/lib/trace/stored-snapshot";
 import { getLedgerVersion, listEntryHolderFacts, listTankServices } from "@/lib/trace/trace.store";
 import type { EntryHolderFacts, LedgerVersion } from "@/lib/trace/trace.store";
 
@@ -85,6 +86,9 @@ async function buildState(
           ? previous.snapshots
           : [];
     const reusable = kept.filter((s) => snapshotFits(index, s));
+    // The replay resumes from the latest that fits; a stored one whose body turns out unreadable is rebuilt.
+    for (let last = reusable.at(-1); last !== undefined && !(await loadSnapshotBody(db, last)); last = reusable.at(-1))
+      reusable.pop();
     const snapshots = await extendSnapshotsOffThread(index, reusable, realAt);
     if (!snapshots.ok) {
       problem ??= describeIssues(ledger, snapshots.issues);
@@ -189,6 +193,22 @@ export function clearTraceCache(): void {
   cache.clear();
 }
 
+/**
+ * Runs a computation on a state, reading each stored snapshot body it turns out to need (a restarted
+ * server reads the bodies lazily) and running it again: it is pure, so a second run gives what one run
+ * with every body at hand would. Each round reads one body, so this ends.
+ */
+export async function withSnapshotBodies<T>(db: Db, compute: () => T | Promise<T>): Promise<T> {
+  for (;;) {
+    try {
+      return await compute();
+    } catch (err) {
+      if (!(err instanceof SnapshotBodyMissing)) throw err;
+      await loadSnapshotBody(db, err.snapshot);
+    }
+  }
+}
+
 export function requireFacts(db: Db, state: LedgerState): Promise<Map<number, EntryHolderFacts>> {
   state.facts ??= listEntryHolderFacts(db, state.siteId);
   return state.facts;
@@ -209,7 +229,7 @@ export async function answer<T>(
   const cached = kept !== undefined;
   let pending = kept;
   if (pending === undefined) {
-    const computing = compute(state);
+    const computing = withSnapshotBodies(db, () => compute(state));
     pending = computing;
     state.answers.set(key, computing);
     // A computation that threw is not an answer: the next reader tries again.

@@ -19,7 +19,7 @@ import type { ForwardTrace, HolderTrace } from "@/lib/trace/genealogy";
 import type { LedgerIndex } from "@/lib/ledger/moves";
 import { forwardFromCache, moveCompositions, receivedFromCache } from "@/lib/trace/ledger-state";
 import type { BackwardTraceReport, ForwardTraceReport, LedgerFreshness } from "@/lib/trace/trace-answers";
-import { answer, requireFacts, requireLedgerState } from "@/lib/trace/trace-cache.service";
+import { answer, requireFacts, requireLedgerState, withSnapshotBodies } from "@/lib/trace/trace-cache.service";
 import { computeBackward, computeForward } from "@/lib/trace/trace-reports";
 import { getHolderSubject, getSourceSubject, listEntryHolderFacts } from "@/lib/trace/trace.store";
 import type { EntryHolderFacts } from "@/lib/trace/trace-facts";
@@ -82,7 +82,7 @@ export async function traceReceived(
   const state = await requireLedgerState(db, siteId, now);
   if (!state.ok) return state;
   const s = state.value;
-  const back = receivedFromCache(s, holderId);
+  const back = await withSnapshotBodies(db, () => receivedFromCache(s, holderId));
   if (!back.ok) return back;
   return ok({ ledger: s.ledger, index: s.index, order: s.order, orderProblem: s.orderProblem, back: back.value });
 }
@@ -97,12 +97,10 @@ export async function traceLotMaterial(
   const state = await requireLedgerState(db, siteId, now);
   if (!state.ok) return state;
   const s = state.value;
-  const back = receivedFromCache(s, lotHolderId);
+  const back = await withSnapshotBodies(db, () => receivedFromCache(s, lotHolderId));
   if (!back.ok) return back;
-  const fwd = forwardFromCache(
-    s,
-    back.value.received.origins.map((o) => o.originId),
-  );
+  const originIds = back.value.received.origins.map((o) => o.originId);
+  const fwd = await withSnapshotBodies(db, () => forwardFromCache(s, originIds));
   if (!fwd.ok) return fwd;
   return ok({
     ledger: s.ledger,

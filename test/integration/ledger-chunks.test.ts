@@ -146,4 +146,20 @@ describe.each(PROVIDERS)("ledger chunks kept in the database on %s", (provider) 
     expect(read.rows.length).toBe((await readMoveRows(t.db, siteId)).length);
     expect(await restartAndTrace()).toBe(fromScratch);
   });
+
+  it("uses the chunks before a bad body and reads the rows after them, with the same answers", async () => {
+    await saveLedgerChunks(t.db, siteId, await readChunkedMoveRows(t.db, siteId), ROWS_PER_CHUNK);
+    const [first, second] = await chunkRows();
+    if (first === undefined || second === undefined) throw new Error("expected stored chunks");
+    // A body one row short of what its keys say: decoded as unusable, so the chunks end at the first.
+    await t.db.ledgerChunk.update({
+      where: { id: second.id },
+      data: { body: second.body.slice(0, second.body.byteLength - 28) },
+    });
+    const read = await readChunkedMoveRows(t.db, siteId);
+    expect(read.chunkedUpTo).toBe(first.lastId);
+    expect(read.chunks.length).toBe(1);
+    expect(read.rows.length).toBe((await readMoveRows(t.db, siteId, first.lastId)).length);
+    expect(await restartAndTrace()).toBe(fromScratch);
+  });
 });

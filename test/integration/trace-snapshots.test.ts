@@ -1,7 +1,8 @@
 // Trace snapshots kept in the database (lib/trace/snapshot.store.ts): the first index stores its monthly
 // snapshots; a restarted process (the in-memory cache cleared) resumes from them and gives the same
 // answers; a stored snapshot whose ledger position no longer matches, or of another format, is dropped
-// and rebuilt. Our own consistency checks: answers are compared with the answer before any restart.
+// and rebuilt; only the bodies a trace resumes from are read, and one that turns out unreadable is rebuilt
+// too. Our own consistency checks: answers are compared with the answer before any restart.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { TestDb } from "./support/test-db";
 import { createTestDb, PROVIDERS } from "./support/test-db";
@@ -11,9 +12,12 @@ import type { Result } from "@/lib/core/result";
 import {
   clearTraceCache,
   flushTraceSnapshots,
+  getMoveCompositions,
+  requireLedgerState,
   traceBackwardReport,
   traceForwardReport,
 } from "@/lib/trace/trace.service";
+import { needsBody } from "@/lib/trace/stored-snapshot";
 import type { BackwardTraceReport, ForwardTraceReport } from "@/lib/trace/trace.service";
 
 const ANCHOR = new Date("2026-12-02T00:00:00Z");
@@ -102,5 +106,40 @@ describe.each(PROVIDERS)("trace snapshots kept in the database on %s", (provider
     expect((JSON.parse(rebuilt[1]?.body ?? "{}") as { applied: { massSumG: number } }).applied.massSumG).toBe(
       body.applied.massSumG - 1,
     );
+  });
+  it("reads only the latest stored body on a restart, and an older one when a trace resumes from it", async () => {
+    await flushTraceSnapshots();
+    // What the first move after the oldest snapshot carried, from the index kept in memory.
+    const kept = value(await requireLedgerState(t.db, siteId, NOW));
+    const oldest = kept.snapshots[0]?.applied.count ?? 0;
+    const moveId = kept.index.moves[oldest]?.id ?? 0;
+    const carried = value(await getMoveCompositions(t.db, siteId, [moveId], NOW)).carried;
+    expect(carried.size).toBe(1);
+    clearTraceCache();
+    const state = value(await requireLedgerState(t.db, siteId, NOW));
+    // The replay resumes from the latest, which it takes again at the same place; the older ones wait.
+    const latest = state.snapshots.at(-1)?.applied.count ?? 0;
+    const older = state.snapshots.filter((s) => s.applied.count < latest);
+    expect(older.map((s) => s.applied.count)).toContain(oldest);
+    expect(older.every((s) => needsBody(s))).toBe(true);
+    expect(state.snapshots.filter((s) => s.applied.count === latest).some((s) => needsBody(s))).toBe(false);
+    expect(value(await getMoveCompositions(t.db, siteId, [moveId], NOW)).carried).toEqual(carried);
+    expect(needsBody(older[0] as (typeof older)[number])).toBe(false);
+    expect(await trace()).toEqual(first);
+  });
+
+  it("rebuilds a stored snapshot whose body is no longer readable past its head, with the same answers", async () => {
+    await flushTraceSnapshots();
+    const latest = (await rows()).at(-1);
+    if (latest === undefined) throw new Error("expected a stored snapshot");
+    const broken = latest.body.replace('"holders":[', '"holders":[[');
+    expect(broken).not.toBe(latest.body);
+    await t.db.traceSnapshot.update({ where: { id: latest.id }, data: { body: broken } });
+    clearTraceCache();
+    expect(await trace()).toEqual(first);
+    await flushTraceSnapshots();
+    const rebuilt = (await rows()).at(-1);
+    expect(rebuilt?.id).not.toBe(latest.id);
+    expect(rebuilt?.body).toBe(latest.body);
   });
 });
