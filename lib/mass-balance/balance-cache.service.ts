@@ -9,10 +9,10 @@ import type { Db } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
 import { getBalanceReport } from "@/lib/mass-balance/balance.service";
 import type { BalanceReport } from "@/lib/mass-balance/balance.service";
-import { getLastGaugeId, sealHolds, sealText } from "@/lib/mass-balance/balance-seal.store";
+import { getLastGaugeId, readBalanceKeyParts, sealHolds, sealText } from "@/lib/mass-balance/balance-seal.store";
 import type { BalanceSeal } from "@/lib/mass-balance/balance-seal.store";
 import { getLedgerPosition } from "@/lib/ledger/position.store";
-import { getClosureShares } from "@/lib/mass-balance/site-limits.service";
+import { closureSharesOf } from "@/lib/mass-balance/site-limits.service";
 import { PositionCache, positionTag, quarterHourOf } from "@/lib/ledger/position";
 import type { LedgerPosition } from "@/lib/ledger/position";
 import { SingleFlight } from "@/lib/core/single-flight";
@@ -66,8 +66,9 @@ export async function getBalanceReportTraced(
 ): Promise<{ result: Result<BalanceReport>; outcome: BalanceCacheOutcome; position: LedgerPosition }> {
   const started = performance.now();
   // The site's tolerance is part of the question: a changed tolerance re-flags even a sealed period.
-  // Read beside the position, so a kept answer costs one round of three key reads.
-  const [tolerance, position] = await Promise.all([getClosureShares(db, site.id), getLedgerPosition(db, site.id)]);
+  // Read with the position in one statement, so a kept answer costs one round trip.
+  const parts = await readBalanceKeyParts(db, site.id);
+  const [tolerance, position] = [closureSharesOf(parts.closureJson), parts.position];
   const key = `${balanceQuestionKey(site, input, now)}|${tolerance.warnPct}/${tolerance.failPct}`;
   const sealed = cache.getSealed(key);
   const same = cache.get(key, position);

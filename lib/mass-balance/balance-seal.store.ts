@@ -4,6 +4,8 @@ import "server-only";
 // Bookings dated inside the closed period are refused, but an earlier period left open can still take
 // a back-dated movement or gauge, which would change this period's opening stock or gauge comparison.
 import type { Db } from "@/lib/core/connect";
+import type { LedgerPosition } from "@/lib/ledger/position";
+import { CLOSURE_TOLERANCE_KEY } from "@/lib/mass-balance/site-limits.schema";
 
 export interface BalanceSeal {
   periodId: number;
@@ -38,4 +40,27 @@ export async function sealHolds(db: Db, siteId: number, s: BalanceSeal): Promise
     }),
   ]);
   return period?.status === "CLOSED" && period.closedAt?.getTime() === s.closedAtMs && move === null && gauge === null;
+}
+
+type KeyRow = { moveId: number | bigint | null; auditSeq: number | bigint | null; closure: string | null };
+
+/**
+ * What a kept balance answer is looked up by, in one statement: the ledger position (the site's last
+ * movement id and audit sequence, as getLedgerPosition reads them) and the newest saved closure
+ * tolerance's value as stored (as getNewestSiteSettingValue orders them), or null when none is saved.
+ */
+export async function readBalanceKeyParts(
+  db: Db,
+  siteId: number,
+): Promise<{ position: LedgerPosition; closureJson: string | null }> {
+  const rows = await db.$queryRaw<KeyRow[]>`SELECT
+    (SELECT max(id) FROM "Movement" WHERE "siteId" = ${siteId}) AS "moveId",
+    (SELECT seq FROM "AuditHead" WHERE "siteId" = ${siteId}) AS "auditSeq",
+    (SELECT "valueJson" FROM "SiteSetting" WHERE "siteId" = ${siteId} AND key = ${CLOSURE_TOLERANCE_KEY}
+      ORDER BY "createdAt" DESC, id DESC LIMIT 1) AS closure`;
+  const row = rows[0];
+  return {
+    position: { siteId, moveId: Number(row?.moveId ?? 0), auditSeq: Number(row?.auditSeq ?? 0) },
+    closureJson: row?.closure ?? null,
+  };
 }

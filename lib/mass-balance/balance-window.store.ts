@@ -95,25 +95,35 @@ export async function listBatchAndOutHolders(
   };
 }
 
-/** The site's last movement (id, time, mass, receiving holder): what the books brought forward were read up to. */
-export async function getLastMovement(
-  db: Db,
-  siteId: number,
-): Promise<{ id: number; at: number; massG: number; toHolderId: number } | null> {
-  const m = await db.movement.findFirst({
+/** A movement as the books brought forward remember it: id, time, mass, receiving holder. */
+export interface MovementMark {
+  id: number;
+  at: number;
+  massG: number;
+  toHolderId: number;
+}
+
+function lastMovementQuery(db: Db, siteId: number) {
+  return db.movement.findFirst({
     where: { siteId },
     orderBy: { id: "desc" },
     select: { id: true, at: true, massG: true, toHolderId: true },
   });
+}
+
+type MarkRow = Awaited<ReturnType<typeof lastMovementQuery>>;
+
+function toMark(m: MarkRow): MovementMark | null {
   return m === null ? null : { id: m.id, at: m.at.getTime(), massG: m.massG, toHolderId: m.toHolderId };
 }
 
+/** The site's last movement: what the books brought forward were read up to. */
+export async function getLastMovement(db: Db, siteId: number): Promise<MovementMark | null> {
+  return toMark(await lastMovementQuery(db, siteId));
+}
+
 /** The movement with this id, if it is still the site's. */
-export async function getMovementMark(
-  db: Db,
-  siteId: number,
-  id: number,
-): Promise<{ id: number; at: number; massG: number; toHolderId: number } | null> {
+export async function getMovementMark(db: Db, siteId: number, id: number): Promise<MovementMark | null> {
   const m = await db.movement.findUnique({
     where: { id },
     select: { siteId: true, at: true, massG: true, toHolderId: true },
@@ -123,9 +133,44 @@ export async function getMovementMark(
     : { id, at: m.at.getTime(), massG: m.massG, toHolderId: m.toHolderId };
 }
 
-/** How many of the site's movements are dated before `beforeMs` (one range count on the (siteId, at) index). */
-export function countMovesBefore(db: Db, siteId: number, beforeMs: number): Promise<number> {
-  return db.movement.count({ where: { siteId, at: { lt: new Date(beforeMs) } } });
+/** SQLSTATE 55P03 lock_not_available: lock_timeout passed (PostgreSQL manual, Appendix A). */
+function isLockTimeout(error: unknown): boolean {
+  const cause = (error as { meta?: { driverAdapterError?: { cause?: { originalCode?: unknown } } } }).meta
+    ?.driverAdapterError?.cause?.originalCode;
+  return cause === "55P03";
+}
+
+/**
+ * PostgreSQL only: the site's last movement, read while no movement can be half-booked, or null when
+ * that could not be had within `waitMs`. SHARE on "Movement" waits for every transaction holding ROW
+ * EXCLUSIVE on it, which an INSERT takes before its id default (nextval) runs, and keeps new ones out
+ * until this transaction ends: every movement id handed out so far is then committed (visible to the
+ * read that follows) or rolled back, and any later one is higher, the sequence having CACHE 1.
+ */
+export async function readSettledLastMovement(
+  db: Db,
+  siteId: number,
+  waitMs: number,
+): Promise<{ last: MovementMark | null } | null> {
+  try {
+    // At any isolation level the read after LOCK TABLE takes its snapshot once the lock is held.
+    const [, , last] = await db.$transaction([
+      db.$executeRawUnsafe(`SET LOCAL lock_timeout = '${Math.max(1, Math.round(waitMs))}ms'`),
+      db.$executeRawUnsafe('LOCK TABLE "Movement" IN SHARE MODE'),
+      lastMovementQuery(db, siteId),
+    ]);
+    return { last: toMark(last) };
+  } catch (error) {
+    if (isLockTimeout(error)) return null;
+    throw error;
+  }
+}
+
+/** How many of the site's movements with id up to `throughId` are dated before `beforeMs` (a range count on (siteId, at)). */
+export function countMovesBefore(db: Db, siteId: number, beforeMs: number, throughId?: number): Promise<number> {
+  return db.movement.count({
+    where: { siteId, at: { lt: new Date(beforeMs) }, ...(throughId === undefined ? {} : { id: { lte: throughId } }) },
+  });
 }
 
 /** Whether a movement with id in (afterId, throughId] is dated before `beforeMs`: booked later with an earlier date. */

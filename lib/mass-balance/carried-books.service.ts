@@ -5,9 +5,12 @@ import "server-only";
 // since (and that the last movement read is still there unchanged, which a restored backup would break).
 // The check is made in the database, so several server processes on one database agree. Missing or
 // broken books are carried forward from the latest kept books that still stand, or from the start.
-// On PostgreSQL a transaction can commit after another that took a higher movement id, so "booked
-// since" by id could miss it: there each use also counts the movements dated before the books' instant
-// (SQLite takes the write lock before a movement gets its id, so its ids are in commit order).
+// SQLite takes the write lock before a movement gets its id, so its ids are in commit order and "booked
+// since" is "id above the last one read". On PostgreSQL a transaction can commit after another that
+// took a higher id, so books are read through a settled id instead (every movement up to it committed,
+// readSettledLastMovement) and each use looks at every id above that; when the range since grows long
+// the books are settled again. When the settling lock cannot be had in time, the movements dated before
+// the books' instant are counted instead, which misses nothing (decision 0048).
 import type { Db } from "@/lib/core/connect";
 import { ok } from "@/lib/core/result";
 import type { Result } from "@/lib/core/result";
@@ -22,18 +25,25 @@ import {
   hasBackdatedMove,
   listBatchAndOutHolders,
   readDatedMoves,
+  readSettledLastMovement,
 } from "@/lib/mass-balance/balance-window.store";
-import type { DatedMoveRow } from "@/lib/mass-balance/balance-window.store";
+import type { DatedMoveRow, MovementMark } from "@/lib/mass-balance/balance-window.store";
 
-type Mark = { id: number; at: number; massG: number; toHolderId: number } | null;
+type Mark = MovementMark | null;
 
 interface Kept {
   books: CarriedBooks;
-  /** Every movement with an id up to this one was read (or checked to be dated later). */
+  /** The books add up every movement dated before their instant with an id up to this one, and no other. */
   throughId: number;
-  /** The last movement then, to notice a database that went back (a restored backup). */
+  /**
+   * Whether every movement with an id up to throughId had committed when the books were read through
+   * it, so that only higher ids can still bring one dated earlier. Always so on SQLite; on PostgreSQL
+   * books read while the settling lock could not be had are not, and are checked by counting.
+   */
+  settled: boolean;
+  /** The movement at throughId, to notice a database that went back (a restored backup). */
   mark: Mark;
-  /** How many movements dated before the books' instant they add up (checked again on PostgreSQL). */
+  /** How many movements dated before the books' instant they add up (the count the fallback compares). */
   movesBefore: number;
 }
 
@@ -42,6 +52,18 @@ const MAX_KEPT_PER_SITE = 24;
 const home = globalThis as unknown as { tracevatCarriedBooks?: Map<number, Kept[]> };
 const kept: Map<number, Kept[]> = (home.tracevatCarriedBooks ??= new Map<number, Kept[]>());
 
+/**
+ * PostgreSQL: movement ids above the settled one a use looks through before the books are settled
+ * again (one lock, a few milliseconds), so the indexed read behind each use stays short. Ids are
+ * shared by every site, so this is an upper bound on the site's own movements in the range.
+ */
+const RESETTLE_AFTER_IDS = 2_000;
+/** How long settling waits for bookings in flight before the use counts instead. */
+const SETTLE_WAIT_MS = 250;
+/** After settling could not be had, uses count for this long rather than hold bookings up again. */
+const SETTLE_BACKOFF_MS = 10_000;
+let settleBlockedUntil = new WeakMap<Db, number>();
+
 function sameMark(a: Mark, b: Mark): boolean {
   return (
     a === b ||
@@ -49,34 +71,77 @@ function sameMark(a: Mark, b: Mark): boolean {
   );
 }
 
-/** Whether kept books still stand at the ledger's last movement `last`. */
-async function stillStands(db: Db, siteId: number, k: Kept, last: Mark): Promise<boolean> {
+/** Whether the movement the books were read up to is still there unchanged. */
+async function markStands(db: Db, siteId: number, k: Kept, last: Mark): Promise<boolean> {
+  if (k.mark === null) return true;
+  const now = k.mark.id === last?.id ? last : await getMovementMark(db, siteId, k.mark.id);
+  return sameMark(now, k.mark);
+}
+
+/** PostgreSQL: the site's last movement read settled (see readSettledLastMovement), or null when not had in time. */
+async function settle(db: Db, siteId: number): Promise<{ last: Mark } | null> {
+  if ((settleBlockedUntil.get(db) ?? 0) > Date.now()) return null;
+  const settled = await readSettledLastMovement(db, siteId, SETTLE_WAIT_MS);
+  if (settled === null) settleBlockedUntil.set(db, Date.now() + SETTLE_BACKOFF_MS);
+  return settled;
+}
+
+/** Whether kept books still stand with `last` read settled; they are then read through it. */
+async function standsSettled(db: Db, siteId: number, k: Kept, last: Mark): Promise<boolean> {
+  const lastId = last?.id ?? 0;
+  const atMs = k.books.atMs;
+  const [mark, complete] = await Promise.all([
+    markStands(db, siteId, k, last),
+    k.settled
+      ? hasBackdatedMove(db, siteId, { afterId: k.throughId, throughId: lastId, beforeMs: atMs }).then((b) => !b)
+      : countMovesBefore(db, siteId, atMs, lastId).then((n) => n === k.movesBefore),
+  ]);
+  if (!mark || !complete) return false;
+  Object.assign(k, { throughId: lastId, settled: true, mark: last });
+  return true;
+}
+
+/**
+ * Whether kept books still stand at the ledger's last movement `last`, read settled (always on SQLite)
+ * or not (PostgreSQL's plain read, ids above which may still commit below it).
+ */
+async function stillStands(db: Db, siteId: number, k: Kept, last: Mark, lastSettled: boolean): Promise<boolean> {
   const lastId = last?.id ?? 0;
   if (lastId < k.throughId) return false;
-  const [mark, backdated, movesBefore] = await Promise.all([
-    k.mark === null || k.mark.id === last?.id
-      ? Promise.resolve(k.mark === null ? null : last)
-      : getMovementMark(db, siteId, k.mark.id),
-    hasBackdatedMove(db, siteId, { afterId: k.throughId, throughId: lastId, beforeMs: k.books.atMs }),
-    dialectOf(db) === "postgresql" ? countMovesBefore(db, siteId, k.books.atMs) : Promise.resolve(k.movesBefore),
+  if (lastSettled) return standsSettled(db, siteId, k, last);
+  if (k.settled && lastId - k.throughId <= RESETTLE_AFTER_IDS) {
+    // Ids up to throughId all committed: any movement that breaks the books has a higher id. Not
+    // read through lastId, as ids below it may still commit.
+    const [mark, backdated] = await Promise.all([
+      markStands(db, siteId, k, last),
+      hasBackdatedMove(db, siteId, { afterId: k.throughId, throughId: lastId, beforeMs: k.books.atMs }),
+    ]);
+    return mark && !backdated;
+  }
+  const settled = await settle(db, siteId);
+  if (settled !== null) return standsSettled(db, siteId, k, settled.last);
+  // Could not settle: every movement dated before the instant counted, committed ones all in.
+  const [mark, count] = await Promise.all([
+    markStands(db, siteId, k, last),
+    countMovesBefore(db, siteId, k.books.atMs),
   ]);
-  return sameMark(mark, k.mark) && !backdated && movesBefore === k.movesBefore;
+  return mark && count === k.movesBefore;
+}
+
+function drop(siteId: number, k: Kept): void {
+  kept.set(
+    siteId,
+    (kept.get(siteId) ?? []).filter((x) => x !== k),
+  );
 }
 
 /** The kept books of the site nearest before `atMs` that still stand (dropping those that do not). */
-async function nearestStanding(db: Db, siteId: number, atMs: number, last: Mark): Promise<Kept | null> {
+async function nearestStanding(db: Db, siteId: number, atMs: number, last: Mark, settled: boolean) {
   const list = kept.get(siteId) ?? [];
   const candidates = list.filter((k) => k.books.atMs <= atMs).sort((a, b) => b.books.atMs - a.books.atMs);
   for (const k of candidates) {
-    if (await stillStands(db, siteId, k, last)) {
-      k.throughId = last?.id ?? 0;
-      k.mark = last;
-      return k;
-    }
-    kept.set(
-      siteId,
-      (kept.get(siteId) ?? []).filter((x) => x !== k),
-    );
+    if (await stillStands(db, siteId, k, last, settled)) return k;
+    drop(siteId, k);
   }
   return null;
 }
@@ -111,19 +176,32 @@ async function kindsOf(db: Db, siteId: number) {
 
 /** The site's books brought forward to `atMs`: every movement dated before it added up. */
 export async function booksBroughtForward(db: Db, siteId: number, atMs: number): Promise<Result<CarriedBooks>> {
-  const last = await getLastMovement(db, siteId);
-  const base = await nearestStanding(db, siteId, atMs, last);
-  if (base !== null && base.books.atMs === atMs) return ok(base.books);
+  // SQLite's ids are in commit order, so its plain read of the last movement is a settled one.
+  let settled = dialectOf(db) === "sqlite";
+  let last = await getLastMovement(db, siteId);
+  const exact = (kept.get(siteId) ?? []).find((k) => k.books.atMs === atMs);
+  if (exact !== undefined) {
+    if (await stillStands(db, siteId, exact, last, settled)) return ok(exact.books);
+    drop(siteId, exact);
+  }
+  if (!settled) {
+    // New books are read through a settled id when it can be had, so later uses need not count.
+    const s = await settle(db, siteId);
+    if (s !== null) [last, settled] = [s.last, true];
+  }
+  const base = await nearestStanding(db, siteId, atMs, last, settled);
   const throughId = last?.id ?? 0;
   const from = base?.books ?? emptyBooks(Number.NEGATIVE_INFINITY);
   const rows = await readDatedMoves(db, siteId, { fromMs: base === null ? null : from.atMs, toMs: atMs, throughId });
   const carried = carryBooks(from, toMoves(rows), atMs, await kindsOf(db, siteId));
   if (!carried.ok) return carried;
-  keep(siteId, { books: carried.value, throughId, mark: last, movesBefore: (base?.movesBefore ?? 0) + rows.length });
+  const movesBefore = (base?.movesBefore ?? 0) + rows.length;
+  keep(siteId, { books: carried.value, throughId, settled, mark: last, movesBefore });
   return carried;
 }
 
-/** Forgets every site's kept books (tests; after a database file is replaced). */
+/** Forgets every site's kept books and any wait before settling again (tests; after a database file is replaced). */
 export function clearCarriedBooks(): void {
   kept.clear();
+  settleBlockedUntil = new WeakMap<Db, number>();
 }

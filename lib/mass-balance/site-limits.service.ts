@@ -14,6 +14,7 @@ import {
   WaterLimitSchema,
 } from "@/lib/mass-balance/site-limits.schema";
 import {
+  closureSharesOfJson,
   getSavedClosureShares,
   getSavedSiteLimits,
   insertSiteLimit,
@@ -32,6 +33,16 @@ export async function getSiteLimits(db: Db | Tx, siteId: number): Promise<SiteLi
 export async function getClosureShares(db: Db | Tx, siteId: number): Promise<{ warnPct: number; failPct: number }> {
   const saved = await getSavedClosureShares(db, siteId);
   return saved ?? { warnPct: DEFAULT_CLOSURE_TOLERANCE.warnPct, failPct: DEFAULT_CLOSURE_TOLERANCE.failPct };
+}
+
+/** getClosureShares from the newest saved closure tolerance's value as stored (null: none saved), read elsewhere. */
+export function closureSharesOf(savedJson: string | null): { warnPct: number; failPct: number } {
+  return (
+    closureSharesOfJson(savedJson) ?? {
+      warnPct: DEFAULT_CLOSURE_TOLERANCE.warnPct,
+      failPct: DEFAULT_CLOSURE_TOLERANCE.failPct,
+    }
+  );
 }
 
 export async function getSiteLimitHistory(db: Db, siteId: number): Promise<LimitHistoryRow[]> {

@@ -57,7 +57,11 @@ export async function getSavedClosureShares(
   db: Db | Tx,
   siteId: number,
 ): Promise<{ warnPct: number; failPct: number } | null> {
-  const json = await getNewestSiteSettingValue(db, siteId, CLOSURE_TOLERANCE_KEY);
+  return closureSharesOfJson(await getNewestSiteSettingValue(db, siteId, CLOSURE_TOLERANCE_KEY));
+}
+
+/** The warn and fail shares of a saved closure tolerance's value as stored; null: none saved, or not one. */
+export function closureSharesOfJson(json: string | null): { warnPct: number; failPct: number } | null {
   const value = json === null ? null : closureOf(JSON.parse(json));
   return value === null ? null : { warnPct: value.warnPct, failPct: value.failPct };
 }

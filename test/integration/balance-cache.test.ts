@@ -13,6 +13,7 @@ import { clearBalanceCache, getBalanceReportTraced } from "@/lib/mass-balance/ba
 import type { BalanceReport } from "@/lib/mass-balance/balance.service";
 import { bookDemoPickup } from "./support/demo-pickup";
 import { reopenPeriod } from "@/lib/period/period.service";
+import { setClosureTolerance } from "@/lib/mass-balance/site-limits.service";
 import { getLedgerPosition } from "@/lib/ledger/position.store";
 import { samePosition } from "@/lib/ledger/position";
 
@@ -99,6 +100,13 @@ describe.each(PROVIDERS)("balance kept by ledger position on %s", (provider) => 
     const sealed = await getBalanceReportTraced(t.db, site, OCTOBER, NOW);
     expect(sealed.outcome).toBe("sealed");
     expect(withoutTiming(value(sealed.result))).toEqual(withoutTiming(octo));
+
+    // The site's closure tolerance is part of the question: a new one re-flags even the sealed answer.
+    const tighter = { warnPct: 0.25, failPct: 1, reason: "tighter closure asked for the year-end review" };
+    value(await setClosureTolerance(t.db, actor, tighter));
+    const retolerated = await getBalanceReportTraced(t.db, site, OCTOBER, NOW);
+    expect(retolerated.outcome).toBe("computed");
+    expect(value(retolerated.result).tolerance).toMatchObject({ warnPct: 0.25, failPct: 1 });
 
     // September has no closed period, so it takes a late pickup, which adds to October's opening stock.
     const grams = await bookPickup("2026-09-20T09:00:00Z");
