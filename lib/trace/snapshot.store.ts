@@ -25,9 +25,11 @@ function isSnapshot(v: unknown): v is ReplaySnapshot {
 
 /**
  * The stored row each snapshot object came from or was written to. A snapshot object never changes once
- * taken, so an object found here is exactly what that row holds; any other object must be written.
+ * taken, so an object found here is exactly what that row holds; any other object must be written. On
+ * globalThis: the server loads this module once for pages and once for API routes, which share snapshots.
  */
-const rowOf = new WeakMap<ReplaySnapshot, number>();
+const rowHome = globalThis as unknown as { tracevatSnapshotRows?: WeakMap<ReplaySnapshot, number> };
+const rowOf: WeakMap<ReplaySnapshot, number> = (rowHome.tracevatSnapshotRows ??= new WeakMap());
 
 type HeadRow = Array<{ id: number; start: string | null; applied: string | null }>;
 

@@ -14,15 +14,36 @@ type SnapshotBody = Pick<ReplaySnapshot, "holders" | "leftOut">;
  * service reads it (withSnapshotBodies) and runs the computation again, which is pure, so nothing is lost.
  */
 export class SnapshotBodyMissing extends Error {
-  constructor(readonly snapshot: ReplaySnapshot) {
+  declare readonly snapshot: ReplaySnapshot;
+  constructor(snapshot: ReplaySnapshot) {
     super("a stored trace snapshot is needed before its body has been read");
     this.name = "SnapshotBodyMissing";
+    // Not enumerable: a log line that records this error must not walk the snapshot (its body is what is missing).
+    Object.defineProperty(this, "snapshot", { value: snapshot, enumerable: false });
   }
 }
 
-const bodies = new WeakMap<ReplaySnapshot, SnapshotBody>();
-const waiting = new WeakSet<ReplaySnapshot>();
-const unreadable = new WeakSet<ReplaySnapshot>();
+/**
+ * What is known about each snapshot read back in two steps. Kept on globalThis, like the trace cache that
+ * holds the snapshots: the server loads this module once for pages and once for API routes, and a
+ * snapshot read by one must be readable, and its body fillable, from the other.
+ */
+interface StoredState {
+  bodies: WeakMap<ReplaySnapshot, SnapshotBody>;
+  waiting: WeakSet<ReplaySnapshot>;
+  unreadable: WeakSet<ReplaySnapshot>;
+}
+const home = globalThis as unknown as { tracevatStoredSnapshots?: StoredState };
+const { bodies, waiting, unreadable } = (home.tracevatStoredSnapshots ??= {
+  bodies: new WeakMap(),
+  waiting: new WeakSet(),
+  unreadable: new WeakSet(),
+});
+
+/** Whether err is a SnapshotBodyMissing, from whichever copy of this module threw it. */
+export function isSnapshotBodyMissing(err: unknown): err is SnapshotBodyMissing {
+  return err instanceof Error && err.name === "SnapshotBodyMissing" && "snapshot" in err;
+}
 
 function isPosition(v: unknown): boolean {
   if (v === null) return true;

@@ -27,7 +27,7 @@ import type { LedgerState } from "@/lib/trace/ledger-state";
 import { extendSnapshotsOffThread } from "@/lib/trace/snapshot-worker.service";
 import type { ReplaySnapshot } from "@/lib/trace/replay";
 import { loadSnapshotBody, loadTraceSnapshots, saveTraceSnapshots } from "@/lib/trace/snapshot.store";
-import { SnapshotBodyMissing } from "@/lib/trace/stored-snapshot";
+import { isSnapshotBodyMissing } from "@/lib/trace/stored-snapshot";
 import { getLedgerVersion, listEntryHolderFacts, listTankServices } from "@/lib/trace/trace.store";
 import type { EntryHolderFacts, LedgerVersion } from "@/lib/trace/trace.store";
 
@@ -169,7 +169,8 @@ export async function requireLedgerState(db: Db, siteId: number, now: Date): Pro
   // The position first (two key reads): unchanged means nothing was booked since the state was built.
   const position = await getLedgerPosition(db, siteId);
   const pending = cache.get(siteId);
-  const current = pending === undefined ? null : await pending;
+  // A build that threw (a database fault, say) is not kept: this request builds again.
+  const current = pending === undefined ? null : await pending.catch(() => null);
   const kept = current?.ok ? current.value : null;
   if (kept?.position && samePosition(kept.position, position)) return ok(kept);
   // Moved: count the movements (read after the position, so the version holds at least what it names).
@@ -185,6 +186,9 @@ export async function requireLedgerState(db: Db, siteId: number, now: Date): Pro
   }
   const next = buildState(db, siteId, version, position, kept, now);
   cache.set(siteId, next);
+  next.catch(() => {
+    if (cache.get(siteId) === next) cache.delete(siteId);
+  });
   return next;
 }
 
@@ -203,7 +207,7 @@ export async function withSnapshotBodies<T>(db: Db, compute: () => T | Promise<T
     try {
       return await compute();
     } catch (err) {
-      if (!(err instanceof SnapshotBodyMissing)) throw err;
+      if (!isSnapshotBodyMissing(err)) throw err;
       await loadSnapshotBody(db, err.snapshot);
     }
   }

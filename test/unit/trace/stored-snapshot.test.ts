@@ -82,3 +82,32 @@ describe("stored snapshots read head first", () => {
     expect(headOf(stored.format, stored.applied)).toEqual({ format: stored.format, applied: stored.applied });
   });
 });
+
+describe("a snapshot read by one copy of the module and used by another", () => {
+  // The server loads a module once for pages and once for API routes; both share the trace cache, so a
+  // snapshot read back by one copy is resumed and filled by the other (found by the two-process load run).
+  it("is filled and read across copies, and its missing body is recognised by either", async () => {
+    const { vi } = await import("vitest");
+    const index = plantIndex();
+    const whole = snapshotAt(index, 4);
+    vi.resetModules();
+    const pages = await import("@/lib/trace/stored-snapshot");
+    vi.resetModules();
+    const routes = await import("@/lib/trace/stored-snapshot");
+    expect(routes.snapshotFromHead).not.toBe(pages.snapshotFromHead);
+    const head = pages.headOf(whole.format, JSON.parse(JSON.stringify(whole.applied)));
+    if (head === null) throw new Error("expected a head");
+    const lazy = pages.snapshotFromHead(head);
+    let thrown: unknown = null;
+    try {
+      void lazy.holders;
+    } catch (err) {
+      thrown = err;
+    }
+    expect(routes.isSnapshotBodyMissing(thrown)).toBe(true);
+    expect(routes.needsBody(lazy)).toBe(true);
+    expect(routes.fillBody(lazy, JSON.stringify(whole))).toBe(true);
+    expect(pages.needsBody(lazy)).toBe(false);
+    expect(lazy.holders).toEqual(whole.holders);
+  });
+});
