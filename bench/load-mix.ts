@@ -4,6 +4,7 @@
 // database the server was started on; after a run the books are checked for over-draws.
 import { randomUUID } from "node:crypto";
 import type { Db } from "@/lib/core/connect";
+import { dialectOf } from "@/lib/core/bulk-insert";
 
 export interface MixRequest {
   route: string;
@@ -170,11 +171,15 @@ export async function readDemoCodes(
  * add up to (what came in less what went out).
  */
 export async function countOverdraws(db: Db): Promise<{ negative: number; mismatched: number; holders: number }> {
-  const [holders, ins, outs] = await Promise.all([
-    db.holder.findMany({ select: { id: true, stockG: true } }),
-    db.movement.groupBy({ by: ["toHolderId"], _sum: { massG: true } }),
-    db.movement.groupBy({ by: ["fromHolderId"], _sum: { massG: true } }),
-  ]);
+  // One snapshot of the books: a booking still finishing after the last run must not fall between the
+  // holders' read and the movements' read (PostgreSQL's default gives each statement its own snapshot).
+  const { holders, ins, outs } = await db.$transaction(async (tx) => {
+    if (dialectOf(db) === "postgresql") await tx.$executeRawUnsafe("SET TRANSACTION ISOLATION LEVEL REPEATABLE READ");
+    const holders = await tx.holder.findMany({ select: { id: true, stockG: true } });
+    const ins = await tx.movement.groupBy({ by: ["toHolderId"], _sum: { massG: true } });
+    const outs = await tx.movement.groupBy({ by: ["fromHolderId"], _sum: { massG: true } });
+    return { holders, ins, outs };
+  });
   const inG = new Map(ins.map((r) => [r.toHolderId, r._sum.massG ?? 0]));
   const outG = new Map(
     outs.flatMap((r) => (r.fromHolderId === null ? [] : [[r.fromHolderId, r._sum.massG ?? 0] as const])),

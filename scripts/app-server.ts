@@ -2,7 +2,7 @@
 // load run (bench/load.ts) and the browser journeys (e2e/support/plant.ts). Builds nothing.
 import { spawn } from "node:child_process";
 import type { ChildProcess } from "node:child_process";
-import { readFileSync } from "node:fs";
+import { openSync, readFileSync } from "node:fs";
 import net from "node:net";
 import path from "node:path";
 
@@ -79,7 +79,12 @@ export class AppServer {
           LOG_LEVEL: process.env.LOG_LEVEL ?? "warn",
           ...env,
         },
-        stdio: ["ignore", "ignore", "inherit"],
+        // APP_LOG_DIR keeps each server's log lines (JSON, one per line) in server-<port>.log there.
+        stdio: [
+          "ignore",
+          process.env.APP_LOG_DIR ? openSync(path.join(process.env.APP_LOG_DIR, `server-${port}.log`), "a") : "ignore",
+          "inherit",
+        ],
         detached: false,
       },
     );
