@@ -13,7 +13,7 @@ import { getLastGaugeId, readBalanceKeyParts, sealHolds, sealText } from "@/lib/
 import type { BalanceSeal } from "@/lib/mass-balance/balance-seal.store";
 import { getLedgerPosition } from "@/lib/ledger/position.store";
 import { closureSharesOf } from "@/lib/mass-balance/site-limits.service";
-import { PositionCache, positionTag, quarterHourOf } from "@/lib/ledger/position";
+import { PositionCache, positionTag, quarterHourOf, samePosition } from "@/lib/ledger/position";
 import type { LedgerPosition } from "@/lib/ledger/position";
 import { SingleFlight } from "@/lib/core/single-flight";
 
@@ -83,7 +83,7 @@ export async function getBalanceReportTraced(
     const computed = await getBalanceReport(db, site, input, now);
     // Read again after computing: a booking that landed meanwhile must not be stored under the old position.
     const after = await getLedgerPosition(db, site.id);
-    if (after.moveId === position.moveId && after.auditSeq === position.auditSeq) {
+    if (samePosition(after, position)) {
       const seal = computed.ok ? sealOf(computed.value, position, gaugeId) : null;
       cache.set(key, position, { result: computed, seal }, seal === null ? null : sealText(seal));
     }

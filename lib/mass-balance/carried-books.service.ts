@@ -62,7 +62,9 @@ const RESETTLE_AFTER_IDS = 2_000;
 const SETTLE_WAIT_MS = 250;
 /** After settling could not be had, uses count for this long rather than hold bookings up again. */
 const SETTLE_BACKOFF_MS = 10_000;
-let settleBlockedUntil = new WeakMap<Db, number>();
+/** Per database handle; on globalThis like the kept books, as pages and API routes each load this module. */
+const settleHome = globalThis as unknown as { tracevatSettleBlockedUntil?: WeakMap<Db, number> };
+let settleBlockedUntil: WeakMap<Db, number> = (settleHome.tracevatSettleBlockedUntil ??= new WeakMap());
 
 function sameMark(a: Mark, b: Mark): boolean {
   return (
@@ -203,5 +205,5 @@ export async function booksBroughtForward(db: Db, siteId: number, atMs: number):
 /** Forgets every site's kept books and any wait before settling again (tests; after a database file is replaced). */
 export function clearCarriedBooks(): void {
   kept.clear();
-  settleBlockedUntil = new WeakMap<Db, number>();
+  settleBlockedUntil = settleHome.tracevatSettleBlockedUntil = new WeakMap<Db, number>();
 }

@@ -29,20 +29,20 @@ export async function getSiteLimits(db: Db | Tx, siteId: number): Promise<SiteLi
   return resolveSiteLimits(await getSavedSiteLimits(db, siteId));
 }
 
-/** The warn and fail shares of the closure tolerance in force (getSiteLimits(...).closure's), in one read. */
-export async function getClosureShares(db: Db | Tx, siteId: number): Promise<{ warnPct: number; failPct: number }> {
-  const saved = await getSavedClosureShares(db, siteId);
+type ClosureShares = { warnPct: number; failPct: number };
+
+function sharesOrDefault(saved: ClosureShares | null): ClosureShares {
   return saved ?? { warnPct: DEFAULT_CLOSURE_TOLERANCE.warnPct, failPct: DEFAULT_CLOSURE_TOLERANCE.failPct };
 }
 
+/** The warn and fail shares of the closure tolerance in force (getSiteLimits(...).closure's), in one read. */
+export async function getClosureShares(db: Db | Tx, siteId: number): Promise<ClosureShares> {
+  return sharesOrDefault(await getSavedClosureShares(db, siteId));
+}
+
 /** getClosureShares from the newest saved closure tolerance's value as stored (null: none saved), read elsewhere. */
-export function closureSharesOf(savedJson: string | null): { warnPct: number; failPct: number } {
-  return (
-    closureSharesOfJson(savedJson) ?? {
-      warnPct: DEFAULT_CLOSURE_TOLERANCE.warnPct,
-      failPct: DEFAULT_CLOSURE_TOLERANCE.failPct,
-    }
-  );
+export function closureSharesOf(savedJson: string | null): ClosureShares {
+  return sharesOrDefault(closureSharesOfJson(savedJson));
 }
 
 export async function getSiteLimitHistory(db: Db, siteId: number): Promise<LimitHistoryRow[]> {

@@ -200,14 +200,17 @@ export function clearTraceCache(): void {
 /**
  * Runs a computation on a state, reading each stored snapshot body it turns out to need (a restarted
  * server reads the bodies lazily) and running it again: it is pure, so a second run gives what one run
- * with every body at hand would. Each round reads one body, so this ends.
+ * with every body at hand would. Each round reads a body it has not tried before, so this ends; asked
+ * for one it already tried (found unreadable), the error goes on instead of looping.
  */
 export async function withSnapshotBodies<T>(db: Db, compute: () => T | Promise<T>): Promise<T> {
+  const tried = new Set<ReplaySnapshot>();
   for (;;) {
     try {
       return await compute();
     } catch (err) {
-      if (!isSnapshotBodyMissing(err)) throw err;
+      if (!isSnapshotBodyMissing(err) || tried.has(err.snapshot)) throw err;
+      tried.add(err.snapshot);
       await loadSnapshotBody(db, err.snapshot);
     }
   }
