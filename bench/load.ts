@@ -37,6 +37,8 @@ const WANT_SQLITE = !process.argv.includes("--pg") || process.argv.includes("--b
 const WANT_TWO = process.argv.includes("--two");
 const KEEP_TEMPLATE = process.argv.includes("--keep-template");
 const WANT_ROUTES = process.argv.includes("--routes");
+// --sections=writes (or floor, read, writes in any combination) runs only those, e.g. under APP_CPU_PROF_DIR.
+const SECTIONS = arg("sections", "floor,read,writes").split(",");
 const PORTS = { from: Number(process.env.LOAD_PORT_FROM ?? 4170), to: Number(process.env.LOAD_PORT_TO ?? 4199) };
 
 const GOALS = { mixToFloor: 0.5, readP95Ms: 300, writeP95Ms: 500 } as const;
@@ -182,11 +184,15 @@ async function measureDatabase(kind: "sqlite" | "postgresql", taken: Set<number>
       `  asking about shipment ${codes.shipment}, lot ${codes.lot}; pickups from ${codes.source}; 1 kg moves from ${codes.transfers.map((x) => x.fromCode).join(", ")}`,
     );
     const reads = readMix(codes);
-    const sections: Array<[string, MixRequest[]]> = [
-      ["floor", floorMix(reads)],
-      ["read mix", reads],
-      ["10 % writes", writeMix(codes)],
-    ];
+    const sections = (
+      [
+        ["floor", "floor", floorMix(reads)],
+        ["read", "read mix", reads],
+        ["writes", "10 % writes", writeMix(codes)],
+      ] as const
+    )
+      .filter(([key]) => SECTIONS.includes(key))
+      .map(([, name, mix]): [string, MixRequest[]] => [name, mix]);
     // One untimed round so the first timed run does not pay for the first trace index or page compile.
     await measure("warm-up", server, [...reads, ...floorMix(reads)], cookies, 1, 3).catch(() => undefined);
     const runs: RunResult[] = [];

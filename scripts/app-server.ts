@@ -67,9 +67,21 @@ export class AppServer {
 
   /** `next start` on the port against the database; resolves once the sign-in page answers. */
   static async start(databaseUrl: string, port: number, env: Record<string, string> = {}): Promise<AppServer> {
+    // APP_CPU_PROF_DIR writes a V8 CPU profile of each server there when it stops (node refuses
+    // --cpu-prof in NODE_OPTIONS, so the server is started through node itself).
+    const profDir = process.env.APP_CPU_PROF_DIR;
     const child = spawn(
-      path.join(ROOT, "node_modules", ".bin", "next"),
-      ["start", "-H", "127.0.0.1", "-p", String(port)],
+      profDir ? process.execPath : path.join(ROOT, "node_modules", ".bin", "next"),
+      [
+        ...(profDir
+          ? ["--cpu-prof", `--cpu-prof-dir=${profDir}`, path.join(ROOT, "node_modules", "next", "dist", "bin", "next")]
+          : []),
+        "start",
+        "-H",
+        "127.0.0.1",
+        "-p",
+        String(port),
+      ],
       {
         cwd: ROOT,
         env: {
@@ -122,7 +134,8 @@ export class AppServer {
     clearInterval(this.timer);
     if (this.child.exitCode !== null) return;
     const exited = new Promise<void>((resolve) => this.child.once("exit", () => resolve()));
-    this.child.kill("SIGTERM");
+    // SIGINT lets a profiled server write its profile; next start stops the same way on either.
+    this.child.kill(process.env.APP_CPU_PROF_DIR ? "SIGINT" : "SIGTERM");
     const timeout = setTimeout(() => this.child.kill("SIGKILL"), 10_000);
     await exited;
     clearTimeout(timeout);
