@@ -5,27 +5,26 @@ import type { LotRow } from "@/lib/feedstock/lot.store";
 import { ffa, kg, pct, when } from "@/app/_ui/format";
 import { PAGE_SIZE, pageParam } from "@/app/_ui/links";
 import { loadSite } from "@/app/_ui/site";
-import { CodeLink, Empty, HistoryLink, NoSite, Note, Pager, Status } from "@/app/_ui/ui";
-import type { Column } from "@/app/_ui/kit/data-table";
-import { DataTable } from "@/app/_ui/kit/data-table";
+import { Empty, NoSite, Note, Pager } from "@/app/_ui/ui";
+import { PlainTable } from "@/app/_ui/kit/plain-table";
+import type { PlainColumn } from "@/app/_ui/kit/plain-table";
+import { codePart, historyPart, statusPart } from "@/app/_ui/kit/plain-cell";
 import { ReceiptsPicture } from "@/app/lots/receipts-picture";
 import { keptLotPage } from "@/app/lots/lots-kept";
 
 export const dynamic = "force-dynamic";
 export const metadata: Metadata = { title: "Feedstock lots" };
 
-const LOT_COLUMNS = (tz: string): Column<LotRow>[] => [
+const LOT_COLUMNS = (tz: string): PlainColumn<LotRow>[] => [
   {
     key: "lot",
     header: "Lot",
-    cell: (l) => (
-      <>
-        <CodeLink href={`/lots/${encodeURIComponent(l.code)}`} code={l.code} />
-        {l.certified ? <span className="tag">certified</span> : null}
-      </>
-    ),
+    cell: (l) => [
+      codePart(`/lots/${encodeURIComponent(l.code)}`, l.code),
+      ...(l.certified ? [{ text: "certified", className: "tag" }] : []),
+    ],
   },
-  { key: "received", header: "Received", cell: (l) => <span className="nowrap">{when(l.receivedAt, tz)}</span> },
+  { key: "received", header: "Received", cell: (l) => [{ text: when(l.receivedAt, tz), className: "nowrap" }] },
   { key: "material", header: "Material", cell: (l) => labelOf(l.material) },
   {
     key: "from",
@@ -33,12 +32,12 @@ const LOT_COLUMNS = (tz: string): Column<LotRow>[] => [
     cell: (l) =>
       l.origin === "DELIVERY" ? (l.supplier ?? "Delivery") : `${l.pickups} pickup${l.pickups === 1 ? "" : "s"}`,
   },
-  { key: "status", header: "Status", cell: (l) => <Status code={l.status} /> },
+  { key: "status", header: "Status", cell: (l) => [statusPart(l.status)] },
   { key: "ffa", header: "FFA", numeric: true, cell: (l) => ffa(l.ffaPct, l.ffaBasis) },
   { key: "water", header: "Water", numeric: true, cell: (l) => pct(l.waterPct) },
   { key: "mass", header: "Received mass", numeric: true, cell: (l) => kg(l.massG) },
   { key: "stock", header: "Book stock", numeric: true, cell: (l) => kg(l.stockG) },
-  { key: "history", header: "History", cell: (l) => <HistoryLink kind="lot" recordKey={l.code} label="lot" /> },
+  { key: "history", header: "History", cell: (l) => [historyPart("lot", l.code, "lot")] },
 ];
 
 type Props = { searchParams: Promise<{ page?: string | string[]; status?: string | string[] }> };
@@ -86,7 +85,7 @@ export default async function LotsPage({ searchParams }: Props) {
         <Empty>{status ? `No lots are “${labelOf(status).toLowerCase()}”.` : "No lots recorded yet."}</Empty>
       ) : (
         <>
-          <DataTable
+          <PlainTable
             caption="Feedstock lots"
             hideCaption
             columns={LOT_COLUMNS(tz)}
