@@ -187,6 +187,7 @@ export async function firstAnswers(
   server: AppServer,
   reads: readonly MixRequest[],
   cookies: Record<MixRequest["as"], string>,
+  who = "the server",
 ): Promise<string> {
   const parts: string[] = [];
   for (const m of reads) {
@@ -198,5 +199,5 @@ export async function firstAnswers(
     if (!r.ok) throw new Error(`${m.route} answered ${r.status} on the history: the run cannot measure it`);
     parts.push(`${m.route} ${((performance.now() - t0) / 1000).toFixed(2)} s`);
   }
-  return `  first answers after start, one each in order: ${parts.join("; ")}`;
+  return `  first answers after ${who} started, one each in order: ${parts.join("; ")}`;
 }

@@ -165,26 +165,30 @@ interface DatabaseSummary {
   two: string[];
 }
 
-async function measureDatabase(kind: "sqlite" | "postgresql", taken: Set<number>): Promise<DatabaseSummary> {
-  const port = await findFreePort(PORTS.from, PORTS.to, taken);
-  taken.add(port);
+/** The run's fresh database (the demo, or the synthetic history with --years), its header printed. */
+async function freshDatabase(kind: "sqlite" | "postgresql", port: number) {
   const what = HISTORY
     ? `synthetic ${HISTORY.years}-year ledger: ${HISTORY.moves.length.toLocaleString("en")} movements`
     : `fresh demo database (${DAYS} days)`;
   console.log(`\n==== ${kind === "sqlite" ? "SQLite" : "PostgreSQL"}: ${what}, next start on port ${port} ====`);
-  const { database, seedMs, dropTemplate } = HISTORY
+  const made = HISTORY
     ? await createHistoryDatabase(kind, String(port), HISTORY)
     : await createDemoDatabase(kind, String(port), DAYS);
-  if (HISTORY)
-    console.log(
-      [...historyHeader(HISTORY), `  written into a fresh database in ${(seedMs / 1000).toFixed(1)} s`].join("\n"),
-    );
+  const took = (made.seedMs / 1000).toFixed(1);
+  if (HISTORY) console.log([...historyHeader(HISTORY), `  written into a fresh database in ${took} s`].join("\n"));
   else
     console.log(
-      seedMs > 0
-        ? `  demo loaded into a template in ${(seedMs / 1000).toFixed(1)} s; this run uses a copy`
+      made.seedMs > 0
+        ? `  demo loaded into a template in ${took} s; this run uses a copy`
         : "  a copy of the demo template loaded earlier today",
     );
+  return made;
+}
+
+async function measureDatabase(kind: "sqlite" | "postgresql", taken: Set<number>): Promise<DatabaseSummary> {
+  const port = await findFreePort(PORTS.from, PORTS.to, taken);
+  taken.add(port);
+  const { database, seedMs, dropTemplate } = await freshDatabase(kind, port);
   const servers: AppServer[] = [];
   try {
     const server = await AppServer.start(database.url, port);
@@ -236,6 +240,8 @@ async function measureDatabase(kind: "sqlite" | "postgresql", taken: Set<number>
       taken.add(port2);
       const second = await AppServer.start(database.url, port2);
       servers.push(second);
+      // On a long history the second process's first trace outlasts the short warm-up compareServers gives it.
+      if (HISTORY) console.log(await firstAnswers(second, reads, cookies, "the second process"));
       two.push(...(await compareServers(server, second, codes, DURATION_S, reads)));
     }
     await db.$disconnect();
