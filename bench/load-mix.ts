@@ -105,9 +105,11 @@ function transferBody(c: DemoCodes): string {
   });
 }
 
-/** The read mix with every tenth request a booking: 20 requests per round, 18 reads, 1 pickup, 1 transfer. */
-export function writeMix(c: DemoCodes): MixRequest[] {
-  const reads = readMix(c);
+/**
+ * The read mix (or the one given) with every tenth request a booking: 20 requests per round, 18 reads,
+ * 1 pickup, 1 transfer.
+ */
+export function writeMix(c: DemoCodes, reads: readonly MixRequest[] = readMix(c)): MixRequest[] {
   const out: MixRequest[] = [];
   for (let i = 0; i < 18; i++) {
     const r = reads[i % reads.length];

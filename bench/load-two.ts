@@ -5,7 +5,7 @@
 import { randomUUID } from "node:crypto";
 import type { AppServer } from "@/bench/load-server";
 import { readMix, READER_LOGIN, WRITER_LOGIN, writeMix } from "@/bench/load-mix";
-import type { DemoCodes } from "@/bench/load-mix";
+import type { DemoCodes, MixRequest } from "@/bench/load-mix";
 import { describeErrors, measure, signIn } from "@/bench/load-measure";
 
 /** An answer without what legitimately differs between processes: timings and when this process indexed the ledger. */
@@ -59,12 +59,12 @@ export async function compareServers(
   b: AppServer,
   codes: DemoCodes,
   durationS: number,
+  reads: readonly MixRequest[] = readMix(codes),
 ): Promise<string[]> {
   const writer = await signIn(a.base, WRITER_LOGIN);
   const reader = await signIn(a.base, READER_LOGIN);
   const cookies = { reader, writer };
-  const writes = writeMix(codes).filter((m) => m.kind === "write");
-  const reads = readMix(codes);
+  const writes = writeMix(codes, reads).filter((m) => m.kind === "write");
   // The second process gets the same untimed round the first one had before its runs (its first trace
   // builds the site's index from the stored chunks), so the timed run compares two warm processes.
   await measure("two processes: warm-up", b, reads, cookies, 1, 3).catch(() => undefined);

@@ -6,6 +6,8 @@
 //   a second server process on the same database; bookings to one, reads to the other, answers compared)
 //   --keep-template (keep the PostgreSQL demo template for the next run; the SQLite one stays in data/)
 //   --routes (first each route of the mix and the floor alone, at 1 and 10 connections)
+//   --years=10 (any whole N ≥ 1: the synthetic N-year ledger of npm run bench instead of the demo, with the
+//   reader, the writer, its tanks and one source added; routes it cannot answer are left out and named)
 // Builds nothing; needs an existing `next build`. Goals print PASS/MISS and never change the exit code;
 // the run fails only when it cannot measure (no build, no server, a sign-in refused).
 import os from "node:os";
@@ -26,6 +28,14 @@ import { compareServers } from "@/bench/load-two";
 import { describeErrors, fetchOnce, measure, pct, signIn } from "@/bench/load-measure";
 import type { RunResult } from "@/bench/load-measure";
 import { printTable } from "@/bench/measure";
+import {
+  createHistoryDatabase,
+  firstAnswers,
+  historyCodes,
+  historyHeader,
+  historyOf,
+  historyReadMix,
+} from "@/bench/load-history";
 
 const arg = (name: string, fallback: string) =>
   process.argv.find((a) => a.startsWith(`--${name}=`))?.slice(name.length + 3) ?? fallback;
@@ -37,6 +47,8 @@ const WANT_SQLITE = !process.argv.includes("--pg") || process.argv.includes("--b
 const WANT_TWO = process.argv.includes("--two");
 const KEEP_TEMPLATE = process.argv.includes("--keep-template");
 const WANT_ROUTES = process.argv.includes("--routes");
+// --years=N: one synthetic history, written into each database measured.
+const HISTORY = arg("years", "") === "" ? null : historyOf(Number(arg("years", "")));
 // --sections=writes (or floor, read, writes in any combination) runs only those, e.g. under APP_CPU_PROF_DIR.
 const SECTIONS = arg("sections", "floor,read,writes").split(",");
 const PORTS = { from: Number(process.env.LOAD_PORT_FROM ?? 4170), to: Number(process.env.LOAD_PORT_TO ?? 4199) };
@@ -153,18 +165,30 @@ interface DatabaseSummary {
   two: string[];
 }
 
+/** The run's fresh database (the demo, or the synthetic history with --years), its header printed. */
+async function freshDatabase(kind: "sqlite" | "postgresql", port: number) {
+  const what = HISTORY
+    ? `synthetic ${HISTORY.years}-year ledger: ${HISTORY.moves.length.toLocaleString("en")} movements`
+    : `fresh demo database (${DAYS} days)`;
+  console.log(`\n==== ${kind === "sqlite" ? "SQLite" : "PostgreSQL"}: ${what}, next start on port ${port} ====`);
+  const made = HISTORY
+    ? await createHistoryDatabase(kind, String(port), HISTORY)
+    : await createDemoDatabase(kind, String(port), DAYS);
+  const took = (made.seedMs / 1000).toFixed(1);
+  if (HISTORY) console.log([...historyHeader(HISTORY), `  written into a fresh database in ${took} s`].join("\n"));
+  else
+    console.log(
+      made.seedMs > 0
+        ? `  demo loaded into a template in ${took} s; this run uses a copy`
+        : "  a copy of the demo template loaded earlier today",
+    );
+  return made;
+}
+
 async function measureDatabase(kind: "sqlite" | "postgresql", taken: Set<number>): Promise<DatabaseSummary> {
   const port = await findFreePort(PORTS.from, PORTS.to, taken);
   taken.add(port);
-  console.log(
-    `\n==== ${kind === "sqlite" ? "SQLite" : "PostgreSQL"}: fresh demo database (${DAYS} days), next start on port ${port} ====`,
-  );
-  const { database, seedMs, dropTemplate } = await createDemoDatabase(kind, String(port), DAYS);
-  console.log(
-    seedMs > 0
-      ? `  demo loaded into a template in ${(seedMs / 1000).toFixed(1)} s; this run uses a copy`
-      : "  a copy of the demo template loaded earlier today",
-  );
+  const { database, seedMs, dropTemplate } = await freshDatabase(kind, port);
   const servers: AppServer[] = [];
   try {
     const server = await AppServer.start(database.url, port);
@@ -174,7 +198,7 @@ async function measureDatabase(kind: "sqlite" | "postgresql", taken: Set<number>
       writer: await signIn(server.base, WRITER_LOGIN),
     };
     const db = await openDb(database.url);
-    const found = await readDemoCodes(db);
+    const found = HISTORY ? historyCodes(HISTORY) : await readDemoCodes(db);
     const codes: DemoCodes = {
       ...found,
       transfers: await findTransfers(server.base, cookies.writer, found.stocked, port),
@@ -183,12 +207,13 @@ async function measureDatabase(kind: "sqlite" | "postgresql", taken: Set<number>
     console.log(
       `  asking about shipment ${codes.shipment}, lot ${codes.lot}; pickups from ${codes.source}; 1 kg moves from ${codes.transfers.map((x) => x.fromCode).join(", ")}`,
     );
-    const reads = readMix(codes);
+    const reads = HISTORY ? historyReadMix(codes, HISTORY) : readMix(codes);
+    if (HISTORY) console.log(await firstAnswers(server, reads, cookies));
     const sections = (
       [
         ["floor", "floor", floorMix(reads)],
         ["read", "read mix", reads],
-        ["writes", "10 % writes", writeMix(codes)],
+        ["writes", "10 % writes", writeMix(codes, reads)],
       ] as const
     )
       .filter(([key]) => SECTIONS.includes(key))
@@ -215,7 +240,9 @@ async function measureDatabase(kind: "sqlite" | "postgresql", taken: Set<number>
       taken.add(port2);
       const second = await AppServer.start(database.url, port2);
       servers.push(second);
-      two.push(...(await compareServers(server, second, codes, DURATION_S)));
+      // On a long history the second process's first trace outlasts the short warm-up compareServers gives it.
+      if (HISTORY) console.log(await firstAnswers(second, reads, cookies, "the second process"));
+      two.push(...(await compareServers(server, second, codes, DURATION_S, reads)));
     }
     await db.$disconnect();
     const fmt = (o: { negative: number; mismatched: number }) =>

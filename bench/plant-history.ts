@@ -99,6 +99,20 @@ export interface PlantOptions {
 
 export const DEFAULT_END_MS = Date.UTC(2026, 9, 1);
 
+/**
+ * The plant's fixed tanks, in the order their holders are made: capacity in tonnes, the heel kept as a
+ * share of it, the material held and the service the app would give the tank (npm run load -- --years
+ * records them as the app's tanks).
+ */
+export const PLANT_TANKS = [
+  { code: "T1", capacityT: 80, heelFraction: 0.08, materialKind: "USED_COOKING_OIL", service: "FEEDSTOCK" },
+  { code: "T2", capacityT: 60, heelFraction: 0.08, materialKind: "YELLOW_GREASE", service: "FEEDSTOCK" },
+  { code: "T3", capacityT: 60, heelFraction: 0.08, materialKind: "TALLOW", service: "FEEDSTOCK" },
+  { code: "P1", capacityT: 120, heelFraction: 0.04, materialKind: "FAME", service: "PRODUCT" },
+  { code: "P2", capacityT: 120, heelFraction: 0.04, materialKind: "FAME", service: "PRODUCT" },
+  { code: "M1", capacityT: 20, heelFraction: 0.015, materialKind: "METHANOL", service: "METHANOL" },
+] as const;
+
 type ReagentKind = "METHANOL" | "KOH" | "H2SO4" | "WATER";
 
 interface ReagentLot {
@@ -239,13 +253,11 @@ export function generatePlantHistory(options: PlantOptions): PlantHistory {
     capacityG: capacityT * TONNE,
     heelG: Math.round(capacityT * TONNE * heelFraction),
   });
-  const feedTanks = [
-    tank("T1", 80, 0.08, "USED_COOKING_OIL"),
-    tank("T2", 60, 0.08, "YELLOW_GREASE"),
-    tank("T3", 60, 0.08, "TALLOW"),
-  ];
-  const productTanks = [tank("P1", 120, 0.04, "FAME"), tank("P2", 120, 0.04, "FAME")];
-  const methanolTank = tank("M1", 20, 0.015, "METHANOL");
+  const made = PLANT_TANKS.map((t) => ({ ...t, def: tank(t.code, t.capacityT, t.heelFraction, t.materialKind) }));
+  const feedTanks = made.filter((t) => t.service === "FEEDSTOCK").map((t) => t.def);
+  const productTanks = made.filter((t) => t.service === "PRODUCT").map((t) => t.def);
+  const methanolTank = made.find((t) => t.service === "METHANOL")?.def;
+  if (methanolTank === undefined) throw new Error("generator: no methanol tank");
   const tankByCode = new Map([...feedTanks, ...productTanks, methanolTank].map((t) => [t.code, t]));
   const requireTank = (code: string): TankDef => {
     const t = tankByCode.get(code);
