@@ -9,6 +9,7 @@ import type { CompositionParts } from "@/lib/trace/composition";
 import { resumeReplay, traceForward, traceHolder } from "@/lib/trace/genealogy";
 import type { ForwardTrace, HolderTrace } from "@/lib/trace/genealogy";
 import { indexLedger } from "@/lib/ledger/moves";
+import { extendIndex } from "@/lib/ledger/extend-index";
 import type { LedgerPosition } from "@/lib/ledger/position";
 import type { LedgerIndex } from "@/lib/ledger/moves";
 import { createReplay } from "@/lib/trace/replay";
@@ -52,6 +53,28 @@ export function sameVersion(a: LedgerVersion, b: LedgerVersion): boolean {
 
 export function indexInOrder(ledger: TraceLedger, order: "dated" | "booked"): Result<LedgerIndex> {
   return indexLedger(ledger.holders, order === "dated" ? ledger.moves : ledger.moves.map((m) => ({ ...m, at: m.id })));
+}
+
+/**
+ * The index of `ledger` in this order: carried from the state it was appended to (extendIndex) when
+ * that state was indexed in the same order and the new moves simply append, else indexed whole.
+ */
+export function indexAfter(
+  appendedTo: Pick<LedgerState, "ledger" | "index" | "order"> | null,
+  ledger: TraceLedger,
+  order: "dated" | "booked",
+): Result<LedgerIndex> {
+  if (appendedTo !== null && appendedTo.order === order) {
+    const before = appendedTo.ledger;
+    const added = ledger.moves.slice(before.moves.length);
+    const carried = extendIndex(
+      appendedTo.index,
+      ledger.holders.slice(before.holders.length),
+      order === "dated" ? added : added.map((m) => ({ ...m, at: m.id })),
+    );
+    if (carried !== null) return ok(carried);
+  }
+  return indexInOrder(ledger, order);
 }
 
 /** Whether a snapshot still describes a prefix of this index (the check resumeReplay makes, without the copy). */

@@ -18,7 +18,7 @@ import { getLedgerPosition } from "@/lib/ledger/position.store";
 import {
   describeIssues,
   freshnessOf,
-  indexInOrder,
+  indexAfter,
   renameIssues,
   sameVersion,
   snapshotFits,
@@ -56,16 +56,13 @@ async function buildState(
   now: Date,
 ): Promise<Result<LedgerState>> {
   const started = performance.now();
-  // After a booking, read only what is new (holders and movements are append-only); a fresh process
-  // reads the stored ledger chunks and the rows after them, and stores the full chunks it lacked.
-  const read =
-    previous === null
-      ? readStored(db, siteId)
-      : extendTraceLedger(db, siteId, previous.ledger, version.count).then((l) => l ?? loadTraceLedger(db, siteId));
   // The stored snapshots are read meanwhile (they are checked against the index below).
   const storedDated = previous === null ? loadTraceSnapshots(db, siteId, "dated") : null;
   storedDated?.catch(() => undefined); // awaited below unless the ledger fails first
-  const [ledger, tankService] = await Promise.all([read, listTankServices(db, siteId)]);
+  const [{ ledger, appendedTo }, tankService] = await Promise.all([
+    readLedger(db, siteId, version, previous),
+    listTankServices(db, siteId),
+  ]);
   const { moves } = ledger;
   const realAt =
     idMapOf(
@@ -75,7 +72,7 @@ async function buildState(
     ) ?? new Map(moves.map((m) => [m.id, m.at]));
   let problem: string | null = null;
   for (const order of ["dated", "booked"] as const) {
-    const indexed = indexInOrder(ledger, order);
+    const indexed = indexAfter(appendedTo, ledger, order);
     if (!indexed.ok) return failMany(renameIssues(ledger, indexed.issues));
     const index = indexed.value;
     // A fresh process resumes from the snapshots stored in the database, if they still fit this ledger.
@@ -117,6 +114,24 @@ async function buildState(
     "TRACE.LEDGER_NOT_REPLAYABLE",
     `The movement ledger cannot be replayed in date order or in booking order: ${problem ?? "unknown reason"}`,
   );
+}
+
+/**
+ * After a booking, only what is new is read (holders and movements are append-only) and the ledger is
+ * the previous one with rows appended (`appendedTo`); a fresh process reads the stored ledger chunks and
+ * the rows after them, and stores the full chunks it lacked.
+ */
+async function readLedger(
+  db: Db,
+  siteId: number,
+  version: LedgerVersion,
+  previous: LedgerState | null,
+): Promise<{ ledger: TraceLedger; appendedTo: LedgerState | null }> {
+  if (previous === null) return { ledger: await readStored(db, siteId), appendedTo: null };
+  const extended = await extendTraceLedger(db, siteId, previous.ledger, version.count);
+  return extended !== null
+    ? { ledger: extended, appendedTo: previous }
+    : { ledger: await loadTraceLedger(db, siteId), appendedTo: null };
 }
 
 async function readStored(db: Db, siteId: number): Promise<TraceLedger> {

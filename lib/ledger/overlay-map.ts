@@ -1,0 +1,60 @@
+// A read-only map that is another map with a few entries set on top, without copying it: a booking
+// changes a handful of holders' entries in maps of a hundred thousand. Layers stack up booking after
+// booking; past MAX_DEPTH they are copied into one plain Map again, so a read looks at a few layers at most.
+
+const MAX_DEPTH = 16;
+
+class OverlayMap<K, V> implements ReadonlyMap<K, V> {
+  readonly size: number;
+
+  constructor(
+    private readonly base: ReadonlyMap<K, V>,
+    private readonly top: ReadonlyMap<K, V>,
+    readonly depth: number,
+  ) {
+    let size = base.size;
+    for (const k of top.keys()) if (!base.has(k)) size++;
+    this.size = size;
+  }
+
+  get(key: K): V | undefined {
+    return this.top.has(key) ? this.top.get(key) : this.base.get(key);
+  }
+
+  has(key: K): boolean {
+    return this.top.has(key) || this.base.has(key);
+  }
+
+  *entries(): MapIterator<[K, V]> {
+    for (const [k, v] of this.base) yield [k, this.top.has(k) ? (this.top.get(k) as V) : v];
+    for (const [k, v] of this.top) if (!this.base.has(k)) yield [k, v];
+  }
+
+  *keys(): MapIterator<K> {
+    for (const [k] of this.entries()) yield k;
+  }
+
+  *values(): MapIterator<V> {
+    for (const [, v] of this.entries()) yield v;
+  }
+
+  [Symbol.iterator](): MapIterator<[K, V]> {
+    return this.entries();
+  }
+
+  forEach(fn: (value: V, key: K, map: ReadonlyMap<K, V>) => void): void {
+    for (const [k, v] of this.entries()) fn(v, k, this);
+  }
+}
+
+/** `base` with `changes` set on top (a later change of the same key wins); `base` itself is left as it was. */
+export function withChanges<K, V>(base: ReadonlyMap<K, V>, changes: ReadonlyArray<readonly [K, V]>): ReadonlyMap<K, V> {
+  if (changes.length === 0) return base;
+  const depth = base instanceof OverlayMap ? base.depth + 1 : 1;
+  if (depth > MAX_DEPTH) {
+    const flat = new Map(base);
+    for (const [k, v] of changes) flat.set(k, v);
+    return flat;
+  }
+  return new OverlayMap(base, new Map(changes), depth);
+}
