@@ -1,5 +1,5 @@
 import { invariant } from "@/lib/core/result";
-import { allocateWholeGramsInto } from "@/lib/quantity/allocate";
+import { splitWholeGrams } from "@/lib/quantity/allocate";
 
 /**
  * Grams per origin, as two parallel arrays sorted by ascending origin id with every entry > 0.
@@ -115,8 +115,9 @@ export interface MutableLayer {
 const SETTLE_AT_LEAST = 1024;
 /** Pending entries settled by in-place insertion; more are merged in one pass. */
 const INSERT_UP_TO = 32;
-/** takeFromLayer's split, reused from draw to draw (the replay is single-threaded and does not re-enter). */
-let splitBuffer = new Float64Array(1024);
+/** takeFromLayer's floors and remainders, reused from draw to draw (the replay is single-threaded and does not re-enter). */
+let floorBuffer = new Float64Array(1024);
+let remBuffer = new Float64Array(1024);
 
 /** A layer holding a copy of parts; totalG is Σ parts.grams when the caller knows it (a move's mass). */
 export function copyToLayer(parts: CompositionParts, totalG = sumParts(parts)): MutableLayer {
@@ -176,19 +177,32 @@ export function takeFromLayer(layer: MutableLayer, massG: number): OwnedParts {
     return all;
   }
   const n = layer.originIds.length;
-  if (splitBuffer.length < n) splitBuffer = new Float64Array(Math.max(n, splitBuffer.length * 2));
-  const allocation = splitBuffer;
-  allocateWholeGramsInto(massG, layer.grams, layer.totalG, allocation);
-  let taken = 0;
-  for (let i = 0; i < n; i++) if ((allocation[i] ?? 0) > 0) taken++;
-  const takenIds = new Array<number>(taken);
-  const takenGrams = new Array<number>(taken);
+  if (floorBuffer.length < n) {
+    floorBuffer = new Float64Array(Math.max(n, floorBuffer.length * 2));
+    remBuffer = new Float64Array(floorBuffer.length);
+  }
+  const floors = floorBuffer;
+  const rems = remBuffer;
+  const { threshold, ties } = splitWholeGrams(massG, layer.grams, layer.totalG, floors, rems);
+  // One walk: each origin's part (its floor, plus a spare gram as splitWholeGrams says), what leaves
+  // and what stays. The taken arrays start at the layer's length and are cut to what was taken.
+  let tiesLeft = ties;
+  const ids = layer.originIds;
+  const grams = layer.grams;
+  const takenIds = new Array<number>(n);
+  const takenGrams = new Array<number>(n);
   let t = 0;
   let kept = 0;
   for (let i = 0; i < n; i++) {
-    const part = allocation[i] ?? 0;
-    const id = layer.originIds[i] ?? 0;
-    const held = layer.grams[i] ?? 0;
+    const rem = rems[i] ?? 0;
+    let part = floors[i] ?? 0;
+    if (rem > threshold) part++;
+    else if (rem === threshold && tiesLeft > 0) {
+      part++;
+      tiesLeft--;
+    }
+    const id = ids[i] ?? 0;
+    const held = grams[i] ?? 0;
     if (part > held) invariant(false, `split gave origin ${id} ${part} g of its ${held} g`);
     if (part > 0) {
       takenIds[t] = id;
@@ -196,13 +210,15 @@ export function takeFromLayer(layer: MutableLayer, massG: number): OwnedParts {
       t++;
     }
     if (held > part) {
-      layer.originIds[kept] = id;
-      layer.grams[kept] = held - part;
+      ids[kept] = id;
+      grams[kept] = held - part;
       kept++;
     }
   }
-  layer.originIds.length = kept;
-  layer.grams.length = kept;
+  takenIds.length = t;
+  takenGrams.length = t;
+  ids.length = kept;
+  grams.length = kept;
   layer.totalG -= massG;
   return { originIds: takenIds, grams: takenGrams };
 }
