@@ -150,13 +150,58 @@ export function settleLayer(layer: MutableLayer): MutableLayer {
     layer.pendingLength = 0;
     return layer;
   }
-  const all = mergeAllParts([{ originIds: layer.originIds, grams: layer.grams }, ...layer.pending]);
-  // The result is a fresh merge, the layer's own arrays or an owned pending deposit: the layer keeps it.
-  layer.originIds = all.originIds as number[];
-  layer.grams = all.grams as number[];
+  // The deposits are merged among themselves (two smallest first), then into the layer's own arrays in
+  // place: a pool drawn from after every few deposits would otherwise get new arrays at each draw.
+  mergeIntoLayer(layer, mergeAllParts(layer.pending));
   layer.pending = [];
   layer.pendingLength = 0;
   return layer;
+}
+
+/**
+ * Adds parts into the layer's arrays (which the layer owns) as mergeParts would, without new arrays: the
+ * shared ids are counted first, the arrays grow to the merged length and are filled from the back, so
+ * no entry is overwritten before it is read (the write position never falls below the layer's read one).
+ */
+function mergeIntoLayer(layer: MutableLayer, parts: CompositionParts): void {
+  const ids = layer.originIds;
+  const grams = layer.grams;
+  const bIds = parts.originIds;
+  const bGrams = parts.grams;
+  const na = ids.length;
+  const nb = bIds.length;
+  let shared = 0;
+  for (let i = 0, j = 0; i < na && j < nb;) {
+    const a = ids[i] ?? 0;
+    const b = bIds[j] ?? 0;
+    if (a < b) i++;
+    else if (b < a) j++;
+    else {
+      shared++;
+      i++;
+      j++;
+    }
+  }
+  for (let k = na; k < na + nb - shared; k++) {
+    ids.push(0);
+    grams.push(0);
+  }
+  let i = na - 1;
+  let j = nb - 1;
+  for (let k = na + nb - shared - 1; j >= 0; k--) {
+    const a = i >= 0 ? (ids[i] ?? 0) : Number.NEGATIVE_INFINITY;
+    const b = bIds[j] ?? 0;
+    if (a > b) {
+      ids[k] = a;
+      grams[k] = grams[i--] ?? 0;
+    } else if (b > a) {
+      ids[k] = b;
+      grams[k] = bGrams[j--] ?? 0;
+    } else {
+      ids[k] = a;
+      grams[k] = (grams[i--] ?? 0) + (bGrams[j--] ?? 0);
+    }
+  }
 }
 
 /**
