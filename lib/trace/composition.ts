@@ -115,6 +115,8 @@ export interface MutableLayer {
 const SETTLE_AT_LEAST = 1024;
 /** Pending entries settled by in-place insertion; more are merged in one pass. */
 const INSERT_UP_TO = 32;
+/** Pending deposits merged into the layer one after the other; more are merged among themselves first. */
+const MERGE_ONE_BY_ONE = 4;
 /** takeFromLayer's floors and remainders, reused from draw to draw (the replay is single-threaded and does not re-enter). */
 let floorBuffer = new Float64Array(1024);
 let remBuffer = new Float64Array(1024);
@@ -150,9 +152,12 @@ export function settleLayer(layer: MutableLayer): MutableLayer {
     layer.pendingLength = 0;
     return layer;
   }
-  // The deposits are merged among themselves (two smallest first), then into the layer's own arrays in
-  // place: a pool drawn from after every few deposits would otherwise get new arrays at each draw.
-  mergeIntoLayer(layer, mergeAllParts(layer.pending));
+  // Merged into the layer's own arrays in place: a pool drawn from after every few deposits would
+  // otherwise get new arrays at each draw. A few deposits go in one by one (a tank's deposits mostly
+  // hold the origins it holds already, so each pass costs about the pool); many are merged among
+  // themselves first, two smallest first (a sink's thousands of deposits).
+  if (layer.pending.length <= MERGE_ONE_BY_ONE) for (const part of layer.pending) mergeIntoLayer(layer, part);
+  else mergeIntoLayer(layer, mergeAllParts(layer.pending));
   layer.pending = [];
   layer.pendingLength = 0;
   return layer;
@@ -182,10 +187,9 @@ function mergeIntoLayer(layer: MutableLayer, parts: CompositionParts): void {
       j++;
     }
   }
-  for (let k = na; k < na + nb - shared; k++) {
-    ids.push(0);
-    grams.push(0);
-  }
+  // One growth to the merged length (pushing one by one would reallocate each array several times).
+  ids.length = na + nb - shared;
+  grams.length = na + nb - shared;
   let i = na - 1;
   let j = nb - 1;
   for (let k = na + nb - shared - 1; j >= 0; k--) {
