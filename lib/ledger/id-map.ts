@@ -77,3 +77,72 @@ export function idMapOf(
   }
   return new DenseIdMap(lo, slots, count);
 }
+
+/**
+ * A map keyed by dense ids (holder ids) whose get and has read one array slot instead of hashing into
+ * a table of 99 k holders; size and iteration are the map's own, in its order. A replay looks up the
+ * holders of every move it applies. Values are objects, so an empty slot means "not in the map".
+ */
+class DenseLookupMap<V extends object> implements ReadonlyMap<number, V> {
+  constructor(
+    private readonly map: ReadonlyMap<number, V>,
+    private readonly firstId: number,
+    private readonly slots: ReadonlyArray<V | undefined>,
+  ) {}
+
+  get size(): number {
+    return this.map.size;
+  }
+
+  get(id: number): V | undefined {
+    const slot = id - this.firstId;
+    return slot >= 0 && Number.isInteger(slot) ? this.slots[slot] : undefined;
+  }
+
+  has(id: number): boolean {
+    return this.get(id) !== undefined;
+  }
+
+  entries(): MapIterator<[number, V]> {
+    return this.map.entries();
+  }
+
+  keys(): MapIterator<number> {
+    return this.map.keys();
+  }
+
+  values(): MapIterator<V> {
+    return this.map.values();
+  }
+
+  [Symbol.iterator](): MapIterator<[number, V]> {
+    return this.map.entries();
+  }
+
+  forEach(fn: (value: V, key: number, map: ReadonlyMap<number, V>) => void): void {
+    for (const [id, v] of this.map) fn(v, id, this);
+  }
+}
+
+/**
+ * The map read through an array by id when its keys are integers spread over at most MAX_SPREAD slots
+ * each (plus a little); otherwise the map itself. `slots`, when the caller has them already, must hold
+ * map.get(firstId + i) at i.
+ */
+export function denseLookupOf<V extends object>(
+  map: ReadonlyMap<number, V>,
+  known?: { firstId: number; slots: ReadonlyArray<V | undefined> },
+): ReadonlyMap<number, V> {
+  if (known !== undefined) return new DenseLookupMap(map, known.firstId, known.slots);
+  let lo = Number.POSITIVE_INFINITY;
+  let hi = Number.NEGATIVE_INFINITY;
+  for (const id of map.keys()) {
+    if (!Number.isSafeInteger(id)) return map;
+    if (id < lo) lo = id;
+    if (id > hi) hi = id;
+  }
+  if (map.size === 0 || hi - lo + 1 > MAX_SPREAD * map.size + 1024) return map;
+  const slots = new Array<V | undefined>(hi - lo + 1);
+  for (const [id, v] of map) slots[id - lo] = v;
+  return new DenseLookupMap(map, lo, slots);
+}

@@ -1,5 +1,5 @@
 import { failMany, ok } from "@/lib/core/result";
-import { idMapOf } from "@/lib/ledger/id-map";
+import { denseLookupOf, idMapOf } from "@/lib/ledger/id-map";
 import type { DomainIssue, Result } from "@/lib/core/result";
 import type { HolderKind, MixingModel } from "@/lib/core/vocabulary";
 
@@ -139,7 +139,8 @@ export function mapHolders(holders: readonly TraceHolder[]): Result<Map<number, 
 export function indexLedger(holders: readonly TraceHolder[], moves: readonly TraceMove[]): Result<LedgerIndex> {
   const mapped = mapHolders(holders);
   if (!mapped.ok) return mapped;
-  const holderMap = mapped.value;
+  // Every move's holders are looked up here and again by every replay: read them by id from an array.
+  const holderMap = denseLookupOf(mapped.value);
   // The usual ledger is valid and already in order (it is read in id order and booked as it happens):
   // a check per move and no sort. Anything off goes through the full check, which names every issue.
   if (!moves.every((m) => isValidMove(m, holderMap))) return failMany(listLedgerIssues(moves, holderMap));
@@ -158,7 +159,14 @@ export function indexLedger(holders: readonly TraceHolder[], moves: readonly Tra
     sum += (sorted[pos] as TraceMove).massG;
     massPrefixG.push(sum);
   }
-  return ok({ moves: sorted, holders: holderMap, positionOf, into: lists.into, outOf: lists.outOf, massPrefixG });
+  return ok({
+    moves: sorted,
+    holders: holderMap,
+    positionOf,
+    into: lists.into,
+    outOf: lists.outOf,
+    massPrefixG,
+  });
 }
 
 /** Holder ids may spread over at most this many slots per holder (plus a little) for the counted lists below. */
@@ -173,7 +181,7 @@ const MAX_HOLDER_SPREAD = 4;
 function positionLists(
   sorted: readonly TraceMove[],
   holders: ReadonlyMap<number, TraceHolder>,
-): { into: Map<number, number[]>; outOf: Map<number, number[]> } {
+): { into: ReadonlyMap<number, number[]>; outOf: ReadonlyMap<number, number[]> } {
   let lo = Number.POSITIVE_INFINITY;
   let hi = Number.NEGATIVE_INFINITY;
   for (const id of holders.keys()) {
@@ -202,7 +210,7 @@ function countedLists(
   holderAt: (pos: number) => number | null,
   lo: number,
   span: number,
-): Map<number, number[]> {
+): ReadonlyMap<number, number[]> {
   const counts = new Int32Array(span);
   const order: number[] = [];
   for (let pos = 0; pos < n; pos++) {
@@ -228,7 +236,7 @@ function countedLists(
     (bySlot[slot] as number[])[at] = pos;
     filled[slot] = at + 1;
   }
-  return lists;
+  return denseLookupOf(lists, { firstId: lo, slots: bySlot });
 }
 
 /** Exactly when checkMove finds nothing, without building its issue list (a replay checks every move). */

@@ -43,17 +43,50 @@ export function allocateWholeGramsInto(
   sum: number,
   out: Float64Array,
 ): void {
+  const n = weights.length;
+  const rems = scratch(0, n);
+  const spare = splitWholeGrams(total, weights, sum, out, rems);
+  if (spare === NO_SPARE) return;
+  let ties = spare.ties;
+  for (let i = 0; i < n; i++) {
+    const rem = rems[i] ?? 0;
+    if (rem > spare.threshold || (rem === spare.threshold && ties-- > 0)) out[i] = (out[i] ?? 0) + 1;
+  }
+}
+
+/** Who gets allocateWholeGrams's spare grams, once the floors are known (see splitWholeGrams). */
+export interface SpareGrams {
+  /** Every index whose remainder is above this gets one spare gram (+Infinity: none is). */
+  threshold: number;
+  /** Then this many of those whose remainder equals the threshold, lowest index first. */
+  ties: number;
+}
+
+const NO_SPARE: SpareGrams = { threshold: Number.POSITIVE_INFINITY, ties: 0 };
+
+/**
+ * allocateWholeGrams in two halves, for a caller that walks the parts once anyway (a replay's draw):
+ * writes floor(total·w/sum) into floors and the remainders into rems (buffers of at least
+ * weights.length) and says which indexes get a spare gram. Part i is floors[i] + 1 when rems[i] >
+ * threshold, or when rems[i] equals it and it is among the first `ties` such indexes; else floors[i].
+ */
+export function splitWholeGrams(
+  total: number,
+  weights: readonly number[],
+  sum: number,
+  floors: Float64Array,
+  rems: Float64Array,
+): SpareGrams {
   // The message is built only on failure: this runs once per draw of a replay.
   if (!(Number.isSafeInteger(total) && total >= 0))
     invariant(false, `total must be a non-negative integer, got ${total}`);
   const n = weights.length;
-  invariant(out.length >= n, "the output buffer is shorter than the weights");
+  invariant(floors.length >= n && rems.length >= n, "the output buffer is shorter than the weights");
   if (total === 0 || n === 0) {
-    out.fill(0, 0, n);
-    return;
+    floors.fill(0, 0, n);
+    return NO_SPARE;
   }
   invariant(sum > 0, "weights must add up to more than zero");
-  const rems = scratch(0, n);
   bucketCounts.fill(0);
   let given = 0;
   for (let i = 0; i < n; i++) {
@@ -62,29 +95,18 @@ export function allocateWholeGramsInto(
     const exact = (total * w) / sum;
     const floor = Math.floor(exact);
     const rem = exact - floor;
-    out[i] = floor;
+    floors[i] = floor;
     rems[i] = rem;
     const b = (rem * BUCKETS) | 0;
     bucketCounts[b] = (bucketCounts[b] ?? 0) + 1;
     given += floor;
   }
-  let left = Math.min(total - given, n);
-  if (left <= 0) return;
+  const left = Math.min(total - given, n);
+  if (left <= 0) return NO_SPARE;
   // The spare grams go to the `left` largest remainders, the lower index first among equals: every
   // remainder above the threshold (the left-th largest) gets one, then equal ones in index order.
-  const threshold = findThreshold(rems, n, n - left);
-  for (let i = 0; i < n && left > 0; i++) {
-    if ((rems[i] ?? 0) > threshold) {
-      out[i] = (out[i] ?? 0) + 1;
-      left--;
-    }
-  }
-  for (let i = 0; i < n && left > 0; i++) {
-    if (rems[i] === threshold) {
-      out[i] = (out[i] ?? 0) + 1;
-      left--;
-    }
-  }
+  const { threshold, above } = findThreshold(rems, n, n - left);
+  return { threshold, ties: left - above };
 }
 
 /** Remainders lie in [0, 1): bucket b holds [b/BUCKETS, (b+1)/BUCKETS), so buckets keep their order. */
@@ -93,9 +115,10 @@ const bucketCounts = new Int32Array(BUCKETS);
 
 /**
  * The remainder at ascending position k, as selectAscending over all of them would give, but selecting
- * only within the bucket that holds position k (bucketCounts must count rems[0..n)).
+ * only within the bucket that holds position k (bucketCounts must count rems[0..n)); and how many
+ * remainders lie above it.
  */
-function findThreshold(rems: Float64Array, n: number, k: number): number {
+function findThreshold(rems: Float64Array, n: number, k: number): { threshold: number; above: number } {
   let below = 0;
   let bucket = 0;
   while (bucket < BUCKETS - 1 && below + (bucketCounts[bucket] ?? 0) <= k) below += bucketCounts[bucket++] ?? 0;
@@ -105,7 +128,10 @@ function findThreshold(rems: Float64Array, n: number, k: number): number {
     const r = rems[i] ?? 0;
     if (((r * BUCKETS) | 0) === bucket) copy[m++] = r;
   }
-  return selectAscending(copy, m, k - below);
+  const threshold = selectAscending(copy, m, k - below);
+  let above = n - below - m;
+  for (let i = 0; i < m; i++) if ((copy[i] ?? 0) > threshold) above++;
+  return { threshold, above };
 }
 
 const scratchBuffers: [Float64Array, Float64Array] = [new Float64Array(1024), new Float64Array(1024)];

@@ -1,5 +1,5 @@
 import { invariant } from "@/lib/core/result";
-import { allocateWholeGramsInto } from "@/lib/quantity/allocate";
+import { splitWholeGrams } from "@/lib/quantity/allocate";
 
 /**
  * Grams per origin, as two parallel arrays sorted by ascending origin id with every entry > 0.
@@ -115,8 +115,11 @@ export interface MutableLayer {
 const SETTLE_AT_LEAST = 1024;
 /** Pending entries settled by in-place insertion; more are merged in one pass. */
 const INSERT_UP_TO = 32;
-/** takeFromLayer's split, reused from draw to draw (the replay is single-threaded and does not re-enter). */
-let splitBuffer = new Float64Array(1024);
+/** Pending deposits merged into the layer one after the other; more are merged among themselves first. */
+const MERGE_ONE_BY_ONE = 4;
+/** takeFromLayer's floors and remainders, reused from draw to draw (the replay is single-threaded and does not re-enter). */
+let floorBuffer = new Float64Array(1024);
+let remBuffer = new Float64Array(1024);
 
 /** A layer holding a copy of parts; totalG is Σ parts.grams when the caller knows it (a move's mass). */
 export function copyToLayer(parts: CompositionParts, totalG = sumParts(parts)): MutableLayer {
@@ -149,13 +152,60 @@ export function settleLayer(layer: MutableLayer): MutableLayer {
     layer.pendingLength = 0;
     return layer;
   }
-  const all = mergeAllParts([{ originIds: layer.originIds, grams: layer.grams }, ...layer.pending]);
-  // The result is a fresh merge, the layer's own arrays or an owned pending deposit: the layer keeps it.
-  layer.originIds = all.originIds as number[];
-  layer.grams = all.grams as number[];
+  // Merged into the layer's own arrays in place: a pool drawn from after every few deposits would
+  // otherwise get new arrays at each draw. A few deposits go in one by one (a tank's deposits mostly
+  // hold the origins it holds already, so each pass costs about the pool); many are merged among
+  // themselves first, two smallest first (a sink's thousands of deposits).
+  if (layer.pending.length <= MERGE_ONE_BY_ONE) for (const part of layer.pending) mergeIntoLayer(layer, part);
+  else mergeIntoLayer(layer, mergeAllParts(layer.pending));
   layer.pending = [];
   layer.pendingLength = 0;
   return layer;
+}
+
+/**
+ * Adds parts into the layer's arrays (which the layer owns) as mergeParts would, without new arrays: the
+ * shared ids are counted first, the arrays grow to the merged length and are filled from the back, so
+ * no entry is overwritten before it is read (the write position never falls below the layer's read one).
+ */
+function mergeIntoLayer(layer: MutableLayer, parts: CompositionParts): void {
+  const ids = layer.originIds;
+  const grams = layer.grams;
+  const bIds = parts.originIds;
+  const bGrams = parts.grams;
+  const na = ids.length;
+  const nb = bIds.length;
+  let shared = 0;
+  for (let i = 0, j = 0; i < na && j < nb;) {
+    const a = ids[i] ?? 0;
+    const b = bIds[j] ?? 0;
+    if (a < b) i++;
+    else if (b < a) j++;
+    else {
+      shared++;
+      i++;
+      j++;
+    }
+  }
+  // One growth to the merged length (pushing one by one would reallocate each array several times).
+  ids.length = na + nb - shared;
+  grams.length = na + nb - shared;
+  let i = na - 1;
+  let j = nb - 1;
+  for (let k = na + nb - shared - 1; j >= 0; k--) {
+    const a = i >= 0 ? (ids[i] ?? 0) : Number.NEGATIVE_INFINITY;
+    const b = bIds[j] ?? 0;
+    if (a > b) {
+      ids[k] = a;
+      grams[k] = grams[i--] ?? 0;
+    } else if (b > a) {
+      ids[k] = b;
+      grams[k] = bGrams[j--] ?? 0;
+    } else {
+      ids[k] = a;
+      grams[k] = (grams[i--] ?? 0) + (bGrams[j--] ?? 0);
+    }
+  }
 }
 
 /**
@@ -176,19 +226,32 @@ export function takeFromLayer(layer: MutableLayer, massG: number): OwnedParts {
     return all;
   }
   const n = layer.originIds.length;
-  if (splitBuffer.length < n) splitBuffer = new Float64Array(Math.max(n, splitBuffer.length * 2));
-  const allocation = splitBuffer;
-  allocateWholeGramsInto(massG, layer.grams, layer.totalG, allocation);
-  let taken = 0;
-  for (let i = 0; i < n; i++) if ((allocation[i] ?? 0) > 0) taken++;
-  const takenIds = new Array<number>(taken);
-  const takenGrams = new Array<number>(taken);
+  if (floorBuffer.length < n) {
+    floorBuffer = new Float64Array(Math.max(n, floorBuffer.length * 2));
+    remBuffer = new Float64Array(floorBuffer.length);
+  }
+  const floors = floorBuffer;
+  const rems = remBuffer;
+  const { threshold, ties } = splitWholeGrams(massG, layer.grams, layer.totalG, floors, rems);
+  // One walk: each origin's part (its floor, plus a spare gram as splitWholeGrams says), what leaves
+  // and what stays. The taken arrays start at the layer's length and are cut to what was taken.
+  let tiesLeft = ties;
+  const ids = layer.originIds;
+  const grams = layer.grams;
+  const takenIds = new Array<number>(n);
+  const takenGrams = new Array<number>(n);
   let t = 0;
   let kept = 0;
   for (let i = 0; i < n; i++) {
-    const part = allocation[i] ?? 0;
-    const id = layer.originIds[i] ?? 0;
-    const held = layer.grams[i] ?? 0;
+    const rem = rems[i] ?? 0;
+    let part = floors[i] ?? 0;
+    if (rem > threshold) part++;
+    else if (rem === threshold && tiesLeft > 0) {
+      part++;
+      tiesLeft--;
+    }
+    const id = ids[i] ?? 0;
+    const held = grams[i] ?? 0;
     if (part > held) invariant(false, `split gave origin ${id} ${part} g of its ${held} g`);
     if (part > 0) {
       takenIds[t] = id;
@@ -196,13 +259,15 @@ export function takeFromLayer(layer: MutableLayer, massG: number): OwnedParts {
       t++;
     }
     if (held > part) {
-      layer.originIds[kept] = id;
-      layer.grams[kept] = held - part;
+      ids[kept] = id;
+      grams[kept] = held - part;
       kept++;
     }
   }
-  layer.originIds.length = kept;
-  layer.grams.length = kept;
+  takenIds.length = t;
+  takenGrams.length = t;
+  ids.length = kept;
+  grams.length = kept;
   layer.totalG -= massG;
   return { originIds: takenIds, grams: takenGrams };
 }

@@ -242,7 +242,15 @@ function put(
   const pool = s.mixing === "MIXED" ? s.layers[0] : undefined;
   if (pool === undefined) {
     const layer = adopt ? adoptAsLayer(parts, massG) : copyToLayer(parts, massG);
-    s.layers.push({ enteredByMoveId: moveId, ...layer });
+    // Spelled out rather than spread: every receipt of an empty holder makes one.
+    s.layers.push({
+      enteredByMoveId: moveId,
+      originIds: layer.originIds,
+      grams: layer.grams,
+      totalG: layer.totalG,
+      pending: layer.pending,
+      pendingLength: layer.pendingLength,
+    });
   } else addToLayer(pool, parts, massG, adopt);
 }
 

@@ -10,7 +10,7 @@ import {
   splitIntoChunks,
 } from "@/lib/ledger/ledger-chunks";
 import type { MoveRow } from "@/lib/ledger/ledger-chunks";
-import { idMapOf } from "@/lib/ledger/id-map";
+import { denseLookupOf, idMapOf } from "@/lib/ledger/id-map";
 import { compareMoves, indexLedger } from "@/lib/ledger/moves";
 import type { TraceHolder, TraceMove } from "@/lib/ledger/moves";
 
@@ -112,6 +112,40 @@ describe("id map", () => {
         (i) => i,
       ),
     ).toBeNull();
+  });
+});
+
+describe("dense lookup", () => {
+  it("answers get, has, size and iteration exactly as its map, for dense and for sparse keys", () => {
+    for (const ids of [
+      [40, 20, 30, 70, 21],
+      [1, 1_000_000, 5],
+      [-3, 0, 2],
+    ]) {
+      const map = new Map(ids.map((id) => [id, { id }]));
+      const view = denseLookupOf(map);
+      expect(view.size).toBe(map.size);
+      expect([...view]).toEqual([...map]);
+      expect([...view.keys()]).toEqual(ids);
+      expect([...view.values()]).toEqual([...map.values()]);
+      const seen: number[] = [];
+      view.forEach((v, k, m) => {
+        expect(m.get(k)).toBe(v);
+        seen.push(k);
+      });
+      expect(seen).toEqual(ids);
+      for (const probe of [...ids, 19, 22, 71, 0, -4, 2.5, 20.5, Number.NaN, 1e12, -1e12]) {
+        expect(view.get(probe)).toBe(map.get(probe));
+        expect(view.has(probe)).toBe(map.has(probe));
+      }
+    }
+  });
+
+  it("reads by id from an array only when the keys are dense", () => {
+    const dense = new Map([10, 11, 13].map((id) => [id, { id }]));
+    expect(denseLookupOf(dense)).not.toBe(dense);
+    const sparse = new Map([1, 9_000_000].map((id) => [id, { id }]));
+    expect(denseLookupOf(sparse)).toBe(sparse);
   });
 });
 

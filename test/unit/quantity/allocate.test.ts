@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { allocateByWeight, allocateWholeGrams } from "@/lib/quantity/allocate";
+import { allocateByWeight, allocateWholeGrams, splitWholeGrams } from "@/lib/quantity/allocate";
 
 describe("largest-remainder split", () => {
   // Hamilton's (largest remainder) method, worked by hand: 10 seats over 47,000 / 16,000 / 15,800 /
@@ -57,6 +57,35 @@ describe("largest-remainder split", () => {
           const sum = weights.reduce((s, w) => s + w, 0);
           const total = pick % (sum + 1);
           expect(allocateWholeGrams(total, weights, sum)).toEqual(
+            allocateByWeight(
+              total,
+              weights.map((w, i) => [i, w] as const),
+            ).map(([, p]) => p),
+          );
+        },
+      ),
+      { numRuns: 300 },
+    );
+  });
+
+  it("invariant: floors plus the spare grams splitWholeGrams names (above the threshold, then ties in index order) are allocateByWeight's parts", () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.integer({ min: 1, max: 40 }), { minLength: 1, maxLength: 400 }),
+        fc.nat(),
+        (weights, pick) => {
+          const sum = weights.reduce((s, w) => s + w, 0);
+          const total = pick % (sum + 1);
+          const floors = new Float64Array(weights.length);
+          const rems = new Float64Array(weights.length);
+          const spare = splitWholeGrams(total, weights, sum, floors, rems);
+          let ties = spare.ties;
+          const parts = weights.map((_, i) => {
+            const rem = rems[i] ?? 0;
+            const one = rem > spare.threshold || (rem === spare.threshold && ties-- > 0);
+            return (floors[i] ?? 0) + (one ? 1 : 0);
+          });
+          expect(parts).toEqual(
             allocateByWeight(
               total,
               weights.map((w, i) => [i, w] as const),
