@@ -5,7 +5,7 @@
 // second of the one request thread. New moves dated far back (more than MAX_SHIFTED moves would move),
 // a repeated id or an unknown holder return null and the caller indexes the whole ledger, which names
 // anything wrong.
-import { idMapOf } from "@/lib/ledger/id-map";
+import { denseLookupOf, idMapOf } from "@/lib/ledger/id-map";
 import { compareMoves, isValidMove } from "@/lib/ledger/moves";
 import type { LedgerIndex, TraceHolder, TraceMove } from "@/lib/ledger/moves";
 import { withChanges } from "@/lib/ledger/overlay-map";
@@ -22,6 +22,7 @@ function withHolders(
   return withChanges(
     holders,
     added.map((h) => [h.id, h]),
+    denseLookupOf,
   );
 }
 
@@ -68,7 +69,7 @@ function relisted(
     }
     list.push(pos);
   }
-  return withChanges(lists, [...changed]);
+  return withChanges<number, readonly number[]>(lists, [...changed], denseLookupOf);
 }
 
 /**

@@ -1,8 +1,9 @@
 // A read-only map that is another map with a few entries set on top, without copying it: a booking
 // changes a handful of holders' entries in maps of a hundred thousand. Layers stack up booking after
-// booking; past MAX_DEPTH they are copied into one plain Map again, so a read looks at a few layers at most.
+// booking; past MAX_DEPTH they are copied into one map again (through `flatten`, e.g. an array by id),
+// so a read looks at a few layers at most: the trace's replay reads these maps for every move.
 
-const MAX_DEPTH = 16;
+const MAX_DEPTH = 4;
 
 class OverlayMap<K, V> implements ReadonlyMap<K, V> {
   readonly size: number;
@@ -47,14 +48,21 @@ class OverlayMap<K, V> implements ReadonlyMap<K, V> {
   }
 }
 
-/** `base` with `changes` set on top (a later change of the same key wins); `base` itself is left as it was. */
-export function withChanges<K, V>(base: ReadonlyMap<K, V>, changes: ReadonlyArray<readonly [K, V]>): ReadonlyMap<K, V> {
+/**
+ * `base` with `changes` set on top (a later change of the same key wins); `base` itself is left as it
+ * was. Every MAX_DEPTH layers the whole is copied into one Map and handed to `flatten`.
+ */
+export function withChanges<K, V>(
+  base: ReadonlyMap<K, V>,
+  changes: ReadonlyArray<readonly [K, V]>,
+  flatten: (flat: Map<K, V>) => ReadonlyMap<K, V> = (flat) => flat,
+): ReadonlyMap<K, V> {
   if (changes.length === 0) return base;
   const depth = base instanceof OverlayMap ? base.depth + 1 : 1;
   if (depth > MAX_DEPTH) {
     const flat = new Map(base);
     for (const [k, v] of changes) flat.set(k, v);
-    return flat;
+    return flatten(flat);
   }
   return new OverlayMap(base, new Map(changes), depth);
 }
