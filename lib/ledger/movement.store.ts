@@ -6,6 +6,7 @@ import type { HolderKind, MoveRole } from "@/lib/core/vocabulary";
 import type { TraceHolder, TraceMove } from "@/lib/ledger/moves";
 import type { HolderRef, TraceLedger } from "@/lib/ledger/holder-ref";
 import { readHolderRows, readMoveRows } from "@/lib/ledger/ledger-rows.store";
+import { withChanges } from "@/lib/ledger/overlay-map";
 import type { MoveRow } from "@/lib/ledger/ledger-rows.store";
 import { readChunkedMoveRows } from "@/lib/ledger/ledger-chunks.store";
 import type { ChunkedMoveRows } from "@/lib/ledger/ledger-chunks.store";
@@ -258,7 +259,7 @@ export async function extendTraceLedger(
   movementCount: number,
 ): Promise<TraceLedger | null> {
   let lastHolderId = 0;
-  for (const id of ledger.refs.keys()) lastHolderId = Math.max(lastHolderId, id);
+  for (const h of ledger.holders) lastHolderId = Math.max(lastHolderId, h.id);
   const [holderRows, tanks, moveRows] = await Promise.all([
     readHolderRows(db, siteId, lastHolderId),
     db.tank.findMany({ where: { siteId }, select: { holderId: true, mixing: true } }),
@@ -268,13 +269,15 @@ export async function extendTraceLedger(
   if (moveRows.some((m) => m.reversesId !== null)) return null;
   const fifo = new Set(tanks.filter((t) => t.mixing === "FIFO").map((t) => t.holderId));
   if (ledger.holders.some((h) => (h.mixing === "FIFO") !== fifo.has(h.id))) return null;
-  const refs = new Map(ledger.refs);
   const holders = [...ledger.holders];
+  const added: Array<[number, HolderRef]> = [];
   for (const row of holderRows) {
     const ref = toRef(row);
-    refs.set(ref.id, ref);
+    added.push([ref.id, ref]);
     holders.push({ id: ref.id, kind: ref.kind, mixing: fifo.has(ref.id) ? "FIFO" : "MIXED" });
   }
+  // Layered over the previous names rather than copied: a booking adds a holder or two to a hundred thousand.
+  const refs = withChanges(ledger.refs, added);
   // A holder committed late under a lower id than one already read: start over rather than miss it.
   if (moveRows.some((m) => !refs.has(m.toHolderId) || (m.fromHolderId !== null && !refs.has(m.fromHolderId))))
     return null;

@@ -9,8 +9,8 @@ class OverlayMap<K, V> implements ReadonlyMap<K, V> {
   readonly size: number;
 
   constructor(
-    private readonly base: ReadonlyMap<K, V>,
-    private readonly top: ReadonlyMap<K, V>,
+    readonly base: ReadonlyMap<K, V>,
+    readonly top: ReadonlyMap<K, V>,
     readonly depth: number,
   ) {
     let size = base.size;
@@ -60,7 +60,16 @@ export function withChanges<K, V>(
   if (changes.length === 0) return base;
   const depth = base instanceof OverlayMap ? base.depth + 1 : 1;
   if (depth > MAX_DEPTH) {
-    const flat = new Map(base);
+    // The bottom map copied natively, then each layer's entries set over it in order: iterating the
+    // layered map itself walks every entry through each layer's generator.
+    const tops: Array<ReadonlyMap<K, V>> = [];
+    let bottom: ReadonlyMap<K, V> = base;
+    while (bottom instanceof OverlayMap) {
+      tops.push((bottom as OverlayMap<K, V>).top);
+      bottom = (bottom as OverlayMap<K, V>).base;
+    }
+    const flat = new Map(bottom);
+    for (const top of tops.reverse()) for (const [k, v] of top) flat.set(k, v);
     for (const [k, v] of changes) flat.set(k, v);
     return flatten(flat);
   }
