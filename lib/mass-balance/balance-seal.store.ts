@@ -53,7 +53,8 @@ export async function readBalanceKeyParts(
   db: Db,
   siteId: number,
 ): Promise<{ position: LedgerPosition; closureJson: string | null }> {
-  const rows = await db.$queryRaw<KeyRow[]>`SELECT
+  // Asked on every request: kept prepared on PostgreSQL (PREPARED_MARK), where planning it cost more than running it.
+  const rows = await db.$queryRaw<KeyRow[]>`/* prepared */ SELECT
     (SELECT max(id) FROM "Movement" WHERE "siteId" = ${siteId}) AS "moveId",
     (SELECT seq FROM "AuditHead" WHERE "siteId" = ${siteId}) AS "auditSeq",
     (SELECT "valueJson" FROM "SiteSetting" WHERE "siteId" = ${siteId} AND key = ${CLOSURE_TOLERANCE_KEY}
