@@ -191,13 +191,7 @@ export async function hasBackdatedMove(
 // reagent, waste stream, whether it has a batch record, and the batch's completion in epoch ms.
 type HolderJson = [number, string, string, ...Array<string | number | boolean | null>];
 
-function queryHolders(
-  db: Db,
-  siteId: number,
-  ids: string,
-  since: string,
-  moved: { from: string; to: string },
-): Promise<Rows> {
+function queryHolders(db: Db, siteId: number, ids: string, since: string): Promise<Rows> {
   return dialectOf(db) === "sqlite"
     ? db.$queryRaw<Rows>`SELECT json_group_array(json_array(h.id, h.kind, h.code, p.material, l.material, l.origin, t.service, r.reagent, w.stream, b.id IS NOT NULL, CASE WHEN b."completedAt" IS NULL THEN NULL ELSE CAST(ROUND((julianday(b."completedAt") - 2440587.5) * 86400000.0) AS INTEGER) END)) AS t
         FROM "Holder" h
@@ -209,8 +203,6 @@ function queryHolders(
         LEFT JOIN "Batch" b ON b."holderId" = h.id AND b."siteId" = h."siteId"
         WHERE h."siteId" = ${siteId} AND h.id IN (
           SELECT value FROM json_each(${ids})
-          UNION SELECT "toHolderId" FROM "Movement" WHERE "siteId" = ${siteId} AND at >= ${moved.from} AND at < ${moved.to}
-          UNION SELECT "fromHolderId" FROM "Movement" WHERE "siteId" = ${siteId} AND at >= ${moved.from} AND at < ${moved.to} AND "fromHolderId" IS NOT NULL
           UNION SELECT h2.id FROM "Holder" h2 LEFT JOIN "Batch" b2 ON b2."holderId" = h2.id AND b2."siteId" = h2."siteId"
           WHERE h2."siteId" = ${siteId} AND h2.kind = 'BATCH' AND (b2."completedAt" IS NULL OR b2."completedAt" >= ${since}))`
     : db.$queryRaw<Rows>`SELECT json_agg(json_build_array(h.id, h.kind, h.code, p.material, l.material, l.origin, t.service, r.reagent, w.stream, b.id IS NOT NULL, ROUND(EXTRACT(EPOCH FROM b."completedAt") * 1000)))::text AS t
@@ -223,8 +215,6 @@ function queryHolders(
         LEFT JOIN "Batch" b ON b."holderId" = h.id AND b."siteId" = h."siteId"
         WHERE h."siteId" = ${siteId} AND h.id IN (
           SELECT value::int FROM json_array_elements_text(${ids}::json)
-          UNION SELECT "toHolderId" FROM "Movement" WHERE "siteId" = ${siteId} AND at >= ${moved.from}::timestamp AND at < ${moved.to}::timestamp
-          UNION SELECT "fromHolderId" FROM "Movement" WHERE "siteId" = ${siteId} AND at >= ${moved.from}::timestamp AND at < ${moved.to}::timestamp AND "fromHolderId" IS NOT NULL
           UNION SELECT h2.id FROM "Holder" h2 LEFT JOIN "Batch" b2 ON b2."holderId" = h2.id AND b2."siteId" = h2."siteId"
           WHERE h2."siteId" = ${siteId} AND h2.kind = 'BATCH' AND (b2."completedAt" IS NULL OR b2."completedAt" >= ${since}::timestamp))`;
 }
@@ -232,20 +222,16 @@ function queryHolders(
 const text = (v: unknown): string | null => (typeof v === "string" ? v : null);
 
 /**
- * The site's holders with these ids, those moved by a movement dated in `movedIn` (none when it is
- * empty), and every batch not finished before `since` (still running, finished since, or without a
- * batch record), with what describes them, in one read. Naming the moved holders by their window lets
- * the read start before the window's movements have been read.
+ * The site's holders with these ids, and every batch not finished before `since` (still running,
+ * finished since, or without a batch record), with what describes them, in one read.
  */
 export async function readHolderParts(
   db: Db,
   siteId: number,
   ids: Iterable<number>,
   since: number,
-  movedIn: { startMs: number; endMs: number } = { startMs: 0, endMs: 0 },
 ): Promise<HolderParts> {
-  const moved = { from: stored(db, movedIn.startMs), to: stored(db, movedIn.endMs) };
-  const rows = await queryHolders(db, siteId, JSON.stringify([...ids]), stored(db, since), moved);
+  const rows = await queryHolders(db, siteId, JSON.stringify([...ids]), stored(db, since));
   const json = rows[0]?.t ?? null;
   const parts: HolderParts = { holders: [], pickups: [], lots: [], tanks: [], reagents: [], batches: [], waste: [] };
   for (const [id, kind, code, pickup, lot, origin, service, reagent, stream, batch, done] of (json === null
