@@ -81,9 +81,34 @@ function takeWriteLockFirst<A extends Awaited<ReturnType<PrismaBetterSqlite3["co
   return adapter;
 }
 
+/**
+ * Marks a raw statement to be kept prepared on each PostgreSQL connection: a `$queryRaw` whose text
+ * begins with this comment is parsed and planned once per connection instead of on every run. For
+ * short statements asked on every request (a kept answer's key read), planning costs more than running.
+ * Only marked statements are named, so the statements a connection keeps stay few (one per marked text).
+ */
+export const PREPARED_MARK = "/* prepared */";
+
+const preparedNames = new Map<string, string>();
+
+/** The statement's name on every connection (one per marked text), or "" (unnamed: parsed each time). */
+export function preparedStatementName(sql: string): string {
+  if (!sql.startsWith(PREPARED_MARK)) return "";
+  let name = preparedNames.get(sql);
+  if (name === undefined) {
+    name = `tracevat_prepared_${preparedNames.size + 1}`;
+    preparedNames.set(sql, name);
+  }
+  return name;
+}
+
+function postgresAdapter(url: string): PrismaPg {
+  return new PrismaPg({ connectionString: url }, { statementNameGenerator: (q) => preparedStatementName(q.sql) });
+}
+
 /** Adapter factory for the URL, shared by the client and the migration engine. */
 export function adapterFor(url: string): PrismaBetterSqlite3 | PrismaPg {
-  if (isPostgresUrl(url)) return new PrismaPg({ connectionString: url });
+  if (isPostgresUrl(url)) return postgresAdapter(url);
   const file = sqliteFilePath(url);
   mkdirSync(path.dirname(path.resolve(file)), { recursive: true });
   return new DurableSqliteFactory({ url: `file:${file}` });
@@ -91,7 +116,7 @@ export function adapterFor(url: string): PrismaBetterSqlite3 | PrismaPg {
 
 export async function openDb(url: string): Promise<Db> {
   if (isPostgresUrl(url)) {
-    return new PgClient({ adapter: new PrismaPg({ connectionString: url }) }) as unknown as Db;
+    return new PgClient({ adapter: postgresAdapter(url) }) as unknown as Db;
   }
   const db = new SqliteClient({ adapter: adapterFor(url) as PrismaBetterSqlite3 });
   await db.$connect();

@@ -9,7 +9,14 @@ import type { Db } from "@/lib/core/connect";
 import type { Result } from "@/lib/core/result";
 import { getBalanceReport } from "@/lib/mass-balance/balance.service";
 import type { BalanceReport } from "@/lib/mass-balance/balance.service";
-import { getLastGaugeId, readBalanceKeyParts, sealHolds, sealText } from "@/lib/mass-balance/balance-seal.store";
+import {
+  getLastGaugeId,
+  readBalanceKeyParts,
+  readSettledSealMarks,
+  sealHolds,
+  sealText,
+} from "@/lib/mass-balance/balance-seal.store";
+import { dialectOf } from "@/lib/core/bulk-insert";
 import type { BalanceSeal } from "@/lib/mass-balance/balance-seal.store";
 import { getLedgerPosition } from "@/lib/ledger/position.store";
 import { closureSharesOf } from "@/lib/mass-balance/site-limits.service";
@@ -41,10 +48,11 @@ export function balanceQuestionKey(site: { id: number; timeZone: string }, input
   return JSON.stringify([site.id, site.timeZone, quarterHourOf(now), entries]);
 }
 
-function sealOf(report: BalanceReport, position: LedgerPosition, gaugeId: number): BalanceSeal | null {
+/** The seal of a closed period's answer computed having seen every movement and gauge up to these ids. */
+function sealOf(report: BalanceReport, moveId: number, gaugeId: number): BalanceSeal | null {
   const p = report.accountingPeriod;
   if (p === null || p.status !== "CLOSED" || p.closedAt === null) return null;
-  return { periodId: p.id, closedAtMs: p.closedAt.getTime(), endsAt: p.endsAt, moveId: position.moveId, gaugeId };
+  return { periodId: p.id, closedAtMs: p.closedAt.getTime(), endsAt: p.endsAt, moveId, gaugeId };
 }
 
 /** getBalanceReport, answered from the position cache when the books have not changed since. */
@@ -81,15 +89,40 @@ export async function getBalanceReportTraced(
   const { value: result, first } = await flights.run(`${key}@${positionTag(position)}`, async () => {
     const gaugeId = await getLastGaugeId(db, site.id);
     const computed = await getBalanceReport(db, site, input, now);
+    let kept: Kept = { result: computed, seal: computed.ok ? sealOf(computed.value, position.moveId, gaugeId) : null };
+    if (kept.seal !== null && dialectOf(db) === "postgresql") kept = await settledSeal(db, site, input, now, computed);
     // Read again after computing: a booking that landed meanwhile must not be stored under the old position.
     const after = await getLedgerPosition(db, site.id);
-    if (samePosition(after, position)) {
-      const seal = computed.ok ? sealOf(computed.value, position, gaugeId) : null;
-      cache.set(key, position, { result: computed, seal }, seal === null ? null : sealText(seal));
-    }
-    return computed;
+    if (samePosition(after, position)) cache.set(key, position, kept, kept.seal === null ? null : sealText(kept.seal));
+    return kept.result;
   });
   return { result: first ? result : timed(result, started), outcome: first ? "computed" : "same-position", position };
+}
+
+/** How long sealing a closed period's answer on PostgreSQL waits for bookings in flight (as 0048's settle). */
+const SEAL_SETTLE_WAIT_MS = 250;
+
+/**
+ * PostgreSQL: a closed period's answer sealed through settled ids. Ids are drawn when a booking's
+ * INSERT runs and become visible at its commit, so the position read before computing can already be
+ * past a back-dated booking still in flight, which the seal's check (ids above the seal's) would then
+ * never see. Once every id up to the settled ones has committed, the answer is computed again and
+ * sealed at them: anything it did not see has a higher id. When the lock cannot be had in time the
+ * answer is kept at its position only, unsealed. Once per closed question and process; a seal that
+ * holds is reused across bookings after that.
+ */
+async function settledSeal(
+  db: Db,
+  site: { id: number; timeZone: string },
+  input: unknown,
+  now: Date,
+  computed: Result<BalanceReport>,
+): Promise<Kept> {
+  const marks = await readSettledSealMarks(db, site.id, SEAL_SETTLE_WAIT_MS);
+  if (marks === null) return { result: computed, seal: null };
+  const again = await getBalanceReport(db, site, input, now);
+  const seal = again.ok ? sealOf(again.value, marks.moveId, marks.gaugeId) : null;
+  return { result: again, seal };
 }
 
 function timed(result: Result<BalanceReport>, started: number): Result<BalanceReport> {

@@ -6,6 +6,7 @@ import "server-only";
 import type { Db } from "@/lib/core/connect";
 import type { LedgerPosition } from "@/lib/ledger/position";
 import { CLOSURE_TOLERANCE_KEY } from "@/lib/mass-balance/site-limits.schema";
+import { isLockTimeout } from "@/lib/mass-balance/balance-window.store";
 
 export interface BalanceSeal {
   periodId: number;
@@ -53,7 +54,8 @@ export async function readBalanceKeyParts(
   db: Db,
   siteId: number,
 ): Promise<{ position: LedgerPosition; closureJson: string | null }> {
-  const rows = await db.$queryRaw<KeyRow[]>`SELECT
+  // Asked on every request: kept prepared on PostgreSQL (PREPARED_MARK), where planning it cost more than running it.
+  const rows = await db.$queryRaw<KeyRow[]>`/* prepared */ SELECT
     (SELECT max(id) FROM "Movement" WHERE "siteId" = ${siteId}) AS "moveId",
     (SELECT seq FROM "AuditHead" WHERE "siteId" = ${siteId}) AS "auditSeq",
     (SELECT "valueJson" FROM "SiteSetting" WHERE "siteId" = ${siteId} AND key = ${CLOSURE_TOLERANCE_KEY}
@@ -63,4 +65,33 @@ export async function readBalanceKeyParts(
     position: { siteId, moveId: Number(row?.moveId ?? 0), auditSeq: Number(row?.auditSeq ?? 0) },
     closureJson: row?.closure ?? null,
   };
+}
+
+type MarkRow = { moveId: number | bigint | null; gaugeId: number | bigint | null };
+
+/**
+ * PostgreSQL only: the site's last movement and gauge ids, read while none of either can be half-booked
+ * (as readSettledLastMovement, decision 0048, with "TankGauge" locked as well), or null when the lock
+ * could not be had within `waitMs`. Every id up to these has committed, so a balance computed after this
+ * read has seen every movement and gauge up to them, and any it has not seen has a higher id.
+ */
+export async function readSettledSealMarks(
+  db: Db,
+  siteId: number,
+  waitMs: number,
+): Promise<{ moveId: number; gaugeId: number } | null> {
+  try {
+    const [, , rows] = await db.$transaction([
+      db.$executeRawUnsafe(`SET LOCAL lock_timeout = '${Math.max(1, Math.round(waitMs))}ms'`),
+      db.$executeRawUnsafe('LOCK TABLE "Movement", "TankGauge" IN SHARE MODE'),
+      db.$queryRaw<MarkRow[]>`SELECT
+        (SELECT max(id) FROM "Movement" WHERE "siteId" = ${siteId}) AS "moveId",
+        (SELECT max(g.id) FROM "TankGauge" g JOIN "Tank" t ON t.id = g."tankId" WHERE t."siteId" = ${siteId}) AS "gaugeId"`,
+    ]);
+    const row = rows[0];
+    return { moveId: Number(row?.moveId ?? 0), gaugeId: Number(row?.gaugeId ?? 0) };
+  } catch (error) {
+    if (isLockTimeout(error)) return null;
+    throw error;
+  }
 }

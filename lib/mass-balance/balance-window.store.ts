@@ -134,7 +134,7 @@ export async function getMovementMark(db: Db, siteId: number, id: number): Promi
 }
 
 /** SQLSTATE 55P03 lock_not_available: lock_timeout passed (PostgreSQL manual, Appendix A). */
-function isLockTimeout(error: unknown): boolean {
+export function isLockTimeout(error: unknown): boolean {
   const cause = (error as { meta?: { driverAdapterError?: { cause?: { originalCode?: unknown } } } }).meta
     ?.driverAdapterError?.cause?.originalCode;
   return cause === "55P03";
