@@ -3,7 +3,6 @@
 // position is answered from memory; a closed period's answer is reused across bookings dated after it,
 // but not after a back-dated booking before it (which changes its opening stock) nor after a reopen.
 // Expected grams are read from the ledger rows the bookings wrote, not from the code under test.
-import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { TestDb } from "./support/test-db";
 import { createTestDb, PROVIDERS } from "./support/test-db";
@@ -13,6 +12,7 @@ import type { Result } from "@/lib/core/result";
 import { clearBalanceCache, getBalanceReportTraced } from "@/lib/mass-balance/balance-cache.service";
 import type { BalanceReport } from "@/lib/mass-balance/balance.service";
 import { bookDemoPickup } from "./support/demo-pickup";
+import { holdReceipt } from "./support/held-booking";
 import { reopenPeriod } from "@/lib/period/period.service";
 import { setClosureTolerance } from "@/lib/mass-balance/site-limits.service";
 import { getLedgerPosition } from "@/lib/ledger/position.store";
@@ -91,31 +91,6 @@ describe.each(PROVIDERS)("balance kept by ledger position on %s", (provider) => 
     expect(value(after.result).stock.receipts.feedstockG).toBe(value(first.result).stock.receipts.feedstockG + grams);
   });
 
-  /**
-   * A receipt of `massG` dated `at` inserted in a transaction of its own and held open, as a booking
-   * still in flight: PostgreSQL has handed it its id, nothing else sees it until commit().
-   */
-  async function holdReceipt(at: string, massG: number): Promise<{ id: number; commit(): Promise<void> }> {
-    const like = await t.db.movement.findFirstOrThrow({
-      where: { siteId: site.id, fromHolderId: null, role: "RECEIPT" },
-      orderBy: { id: "desc" },
-    });
-    const c = new pg.Client({ connectionString: t.url });
-    await c.connect();
-    await c.query("BEGIN");
-    const r = await c.query<{ id: number }>(
-      `INSERT INTO "Movement" ("siteId", at, role, "fromHolderId", "toHolderId", "massG", note, "recordedById") VALUES ($1, $2::timestamp, 'RECEIPT', NULL, $3, $4, 'held booking', $5) RETURNING id`,
-      [site.id, at, like.toHolderId, massG, like.recordedById],
-    );
-    return {
-      id: Number(r.rows[0]?.id),
-      commit: async () => {
-        await c.query("COMMIT");
-        await c.end();
-      },
-    };
-  }
-
   // PostgreSQL draws a movement's id when its INSERT runs and shows the movement at commit. A receipt
   // dated in September (no closed period) is held in flight while a later booking commits, so October's
   // closed answer is computed at a position already past the receipt's id. Once the receipt commits,
@@ -124,7 +99,7 @@ describe.each(PROVIDERS)("balance kept by ledger position on %s", (provider) => 
     "does not hand out a closed period's answer that a booking in flight while it was computed changes",
     async () => {
       clearBalanceCache();
-      const held = await holdReceipt("2026-09-21 08:00:00", 7000);
+      const held = await holdReceipt(t, site.id, "2026-09-21 08:00:00", 7000);
       await bookPickup("2026-11-26T09:00:00Z");
       const during = await getBalanceReportTraced(t.db, site, OCTOBER, NOW);
       expect(during.outcome).toBe("computed");

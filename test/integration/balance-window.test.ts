@@ -4,7 +4,6 @@
 // a short one whose gauge readings were taken before it started, before and after a booking today, a
 // back-dated booking into an open month and one before every kept instant. Grams expected to move are
 // read from the ledger rows the bookings wrote.
-import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { TestDb } from "./support/test-db";
 import { createTestDb, PROVIDERS } from "./support/test-db";
@@ -16,6 +15,7 @@ import type { BalanceReport } from "@/lib/mass-balance/balance.service";
 import { clearCarriedBooks } from "@/lib/mass-balance/carried-books.service";
 import { readSettledLastMovement } from "@/lib/mass-balance/balance-window.store";
 import { bookDemoPickup } from "./support/demo-pickup";
+import { holdReceipt } from "./support/held-booking";
 
 const ANCHOR = new Date("2026-12-02T00:00:00Z");
 const NOW = new Date("2026-12-02T06:00:00Z");
@@ -119,31 +119,6 @@ describe.each(PROVIDERS)("balance from the books brought forward on %s", (provid
     for (const q of PERIODS) await both(q);
   });
 
-  /**
-   * A receipt of `massG` dated `at` inserted in a transaction of its own and held open, as a booking
-   * still in flight: PostgreSQL has handed it its id, nothing else sees it until commit().
-   */
-  async function holdReceipt(at: string, massG: number): Promise<{ id: number; commit(): Promise<void> }> {
-    const like = await t.db.movement.findFirstOrThrow({
-      where: { siteId: site.id, fromHolderId: null, role: "RECEIPT" },
-      orderBy: { id: "desc" },
-    });
-    const c = new pg.Client({ connectionString: t.url });
-    await c.connect();
-    await c.query("BEGIN");
-    const r = await c.query<{ id: number }>(
-      `INSERT INTO "Movement" ("siteId", at, role, "fromHolderId", "toHolderId", "massG", note, "recordedById") VALUES ($1, $2::timestamp, 'RECEIPT', NULL, $3, $4, 'held booking', $5) RETURNING id`,
-      [site.id, at, like.toHolderId, massG, like.recordedById],
-    );
-    return {
-      id: Number(r.rows[0]?.id),
-      commit: async () => {
-        await c.query("COMMIT");
-        await c.end();
-      },
-    };
-  }
-
   /** How many lock requests on this database's "Movement" table are waiting. */
   async function waitingOnMovements(): Promise<number> {
     const rows = await t.db.$queryRawUnsafe<Array<{ n: bigint }>>(
@@ -163,7 +138,7 @@ describe.each(PROVIDERS)("balance from the books brought forward on %s", (provid
       clearCarriedBooks();
       const fresh = { period: "CUSTOM", start: "2026-11-24", end: "2026-11-27" };
       const december = await both(DECEMBER);
-      const held = await holdReceipt("2026-11-12 08:00:00", 7000);
+      const held = await holdReceipt(t, site.id, "2026-11-12 08:00:00", 7000);
       const grams = await bookPickup("2026-12-02T06:00:00Z");
       const later = await t.db.movement.findFirstOrThrow({ where: { siteId: site.id }, orderBy: { id: "desc" } });
       expect(held.id).toBeLessThan(later.id);
@@ -184,7 +159,7 @@ describe.each(PROVIDERS)("balance from the books brought forward on %s", (provid
   // The settling read behind new books: it waits for a booking in flight and then reads past it, and
   // gives up (null) when it cannot have the lock in time, so the books fall back to counting.
   it.runIf(provider === "postgresql")("reads the last movement settled only once no booking is in flight", async () => {
-    const held = await holdReceipt("2026-11-13 08:00:00", 3000);
+    const held = await holdReceipt(t, site.id, "2026-11-13 08:00:00", 3000);
     expect(await readSettledLastMovement(t.db, site.id, 50)).toBeNull();
     let answered = false;
     const settling = readSettledLastMovement(t.db, site.id, 30_000).finally(() => (answered = true));
