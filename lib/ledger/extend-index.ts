@@ -90,8 +90,10 @@ export function extendIndex(
     if (!isValidMove(m, holders) || index.positionOf.has(m.id) || ids.has(m.id)) return null;
     ids.add(m.id);
   }
+  // New holders alone (a lot recorded, nothing moved yet) change no position.
+  if (addedMoves.length === 0) return { ...index, holders };
   const added = [...addedMoves].sort(compareMoves);
-  const from = added.length === 0 ? index.moves.length : firstAfter(index.moves, added[0] as TraceMove);
+  const from = firstAfter(index.moves, added[0] as TraceMove);
   if (index.moves.length - from > MAX_SHIFTED) return null;
   const moves = index.moves.slice(0, from).concat([...index.moves.slice(from), ...added].sort(compareMoves));
   const positionOf = idMapOf(

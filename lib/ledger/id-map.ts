@@ -6,6 +6,17 @@
 /** Ids may spread over at most this many slots per entry (plus a little) before a plain Map is used instead. */
 const MAX_SPREAD = 4;
 
+/**
+ * The number of slots an array by id needs for `count` ids between `lo` and `hi`, or null when they are
+ * too spread out (or not safe integers) for one: the rule every array by id here follows.
+ */
+export function denseSpan(lo: number, hi: number, count: number): number | null {
+  const span = hi - lo + 1;
+  return count > 0 && Number.isSafeInteger(lo) && Number.isSafeInteger(hi) && span <= MAX_SPREAD * count + 1024
+    ? span
+    : null;
+}
+
 class DenseIdMap implements ReadonlyMap<number, number> {
   constructor(
     private readonly firstId: number,
@@ -64,12 +75,13 @@ export function idMapOf(
     if (id < lo) lo = id;
     if (id > hi) hi = id;
   }
-  if (count === 0 || hi - lo + 1 > MAX_SPREAD * count + 1024) {
+  const span = denseSpan(lo, hi, count);
+  if (span === null) {
     const map = new Map<number, number>();
     for (let i = 0; i < count; i++) map.set(idAt(i), valueAt(i));
     return map.size === count ? map : null;
   }
-  const slots = new Float64Array(hi - lo + 1).fill(Number.NaN);
+  const slots = new Float64Array(span).fill(Number.NaN);
   for (let i = 0; i < count; i++) {
     const slot = idAt(i) - lo;
     if (!Number.isNaN(slots[slot] ?? 0)) return null;
@@ -141,8 +153,9 @@ export function denseLookupOf<V extends object>(
     if (id < lo) lo = id;
     if (id > hi) hi = id;
   }
-  if (map.size === 0 || hi - lo + 1 > MAX_SPREAD * map.size + 1024) return map;
-  const slots = new Array<V | undefined>(hi - lo + 1);
+  const span = denseSpan(lo, hi, map.size);
+  if (span === null) return map;
+  const slots = new Array<V | undefined>(span);
   for (const [id, v] of map) slots[id - lo] = v;
   return new DenseLookupMap(map, lo, slots);
 }

@@ -1,5 +1,5 @@
 import { failMany, ok } from "@/lib/core/result";
-import { denseLookupOf, idMapOf } from "@/lib/ledger/id-map";
+import { denseLookupOf, denseSpan, idMapOf } from "@/lib/ledger/id-map";
 import type { DomainIssue, Result } from "@/lib/core/result";
 import type { HolderKind, MixingModel } from "@/lib/core/vocabulary";
 
@@ -169,9 +169,6 @@ export function indexLedger(holders: readonly TraceHolder[], moves: readonly Tra
   });
 }
 
-/** Holder ids may spread over at most this many slots per holder (plus a little) for the counted lists below. */
-const MAX_HOLDER_SPREAD = 4;
-
 /**
  * Per holder, the ascending positions of the moves into it and out of it (keys in order of first
  * appearance). Holder ids are an autoincrement key, so each list is counted into a typed array by id
@@ -188,8 +185,8 @@ function positionLists(
     if (id < lo) lo = id;
     if (id > hi) hi = id;
   }
-  const span = hi - lo + 1;
-  if (!(span > 0 && span <= MAX_HOLDER_SPREAD * holders.size + 1024 && Number.isSafeInteger(lo))) {
+  const span = denseSpan(lo, hi, holders.size);
+  if (span === null) {
     const into = new Map<number, number[]>();
     const outOf = new Map<number, number[]>();
     sorted.forEach((m, pos) => {

@@ -11,7 +11,7 @@ import type { ForwardTrace, HolderTrace } from "@/lib/trace/genealogy";
 import { indexLedger } from "@/lib/ledger/moves";
 import { extendIndex } from "@/lib/ledger/extend-index";
 import type { LedgerPosition } from "@/lib/ledger/position";
-import type { LedgerIndex } from "@/lib/ledger/moves";
+import type { LedgerIndex, TraceMove } from "@/lib/ledger/moves";
 import { createReplay } from "@/lib/trace/replay";
 import { isUnreadable } from "@/lib/trace/stored-snapshot";
 import type { Replay, ReplaySnapshot } from "@/lib/trace/replay";
@@ -52,7 +52,12 @@ export function sameVersion(a: LedgerVersion, b: LedgerVersion): boolean {
 }
 
 export function indexInOrder(ledger: TraceLedger, order: "dated" | "booked"): Result<LedgerIndex> {
-  return indexLedger(ledger.holders, order === "dated" ? ledger.moves : ledger.moves.map((m) => ({ ...m, at: m.id })));
+  return indexLedger(ledger.holders, inOrder(ledger.moves, order));
+}
+
+/** The moves as the index in this order sees them: in booking order each one's time is its id. */
+function inOrder(moves: readonly TraceMove[], order: "dated" | "booked"): readonly TraceMove[] {
+  return order === "dated" ? moves : moves.map((m) => ({ ...m, at: m.id }));
 }
 
 /**
@@ -66,11 +71,10 @@ export function indexAfter(
 ): Result<LedgerIndex> {
   if (appendedTo !== null && appendedTo.order === order) {
     const before = appendedTo.ledger;
-    const added = ledger.moves.slice(before.moves.length);
     const carried = extendIndex(
       appendedTo.index,
       ledger.holders.slice(before.holders.length),
-      order === "dated" ? added : added.map((m) => ({ ...m, at: m.id })),
+      inOrder(ledger.moves.slice(before.moves.length), order),
     );
     if (carried !== null) return ok(carried);
   }

@@ -1,6 +1,7 @@
 import type { ReactNode } from "react";
 import type { PlainCell } from "@/app/_ui/kit/plain-cell";
 import { PlainRows } from "@/app/_ui/kit/plain-rows";
+import { numeric, TableHead } from "@/app/_ui/kit/table-head";
 
 export interface PlainColumn<T> {
   key: string;
@@ -35,15 +36,7 @@ export function PlainTable<T>({
     <div className="table-wrap" tabIndex={0} role="region" aria-label={caption}>
       <table>
         <caption className={hideCaption ? "visually-hidden" : undefined}>{caption}</caption>
-        <thead>
-          <tr>
-            {columns.map((c) => (
-              <th key={c.key} scope="col" className={c.numeric ? "num" : undefined}>
-                {c.header}
-              </th>
-            ))}
-          </tr>
-        </thead>
+        <TableHead headings={columns.map((c) => (c.numeric ? numeric(c.header) : c.header))} />
         <PlainRows
           rows={rows.map((r) => ({ key: rowKey(r), cells: columns.map((c) => c.cell(r)) }))}
           keys={columns.map((c) => c.key)}
